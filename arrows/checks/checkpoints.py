@@ -1,0 +1,184 @@
+"""`expect` and `product`: the derived state must contain the structures the author wrote.
+Same structure means same RDKit canonical SMILES; a difference is explained atom by atom and bond
+by bond, aligning the written structure with the closest derived fragment."""
+from __future__ import annotations
+
+from collections import Counter
+from dataclasses import dataclass
+from typing import Iterator, Optional
+
+from rdkit import Chem
+from rdkit.Chem import rdFMCS
+
+from ..diagnostics import Diagnostic
+from ..electrons import ElectronState, atom_label, order_word
+from ..model import Checkpoint, Location
+from ..rdkit_io import read_smiles
+from ..trace import Trace
+
+_ORIGIN = "arrows_origin"   # atom property: index of the atom in the state Mol
+
+
+@dataclass
+class Fragment:
+    mol: Chem.Mol          # heavy atoms, hydrogens as counts, aromaticity perceived, maps removed
+    smiles: str
+
+
+def _prepared(mol: Chem.Mol, keep_maps: frozenset[int]) -> Chem.Mol:
+    work = Chem.RWMol(mol)
+    for atom in work.GetAtoms():
+        atom.SetIntProp(_ORIGIN, atom.GetIdx())
+        if atom.GetAtomMapNum() not in keep_maps:
+            atom.SetAtomMapNum(0)
+    Chem.SanitizeMol(work)
+    params = Chem.RemoveHsParameters()
+    params.removeMapped = True
+    params.removeDefiningBondStereo = True
+    return Chem.RemoveHs(work, params, sanitize=False)
+
+
+def fragments(mol: Chem.Mol, keep_maps: frozenset[int] = frozenset()) -> list[Fragment]:
+    out = []
+    for frag in Chem.GetMolFrags(_prepared(mol, keep_maps), asMols=True, sanitizeFrags=False):
+        out.append(Fragment(frag, Chem.MolToSmiles(frag)))
+    return out
+
+
+def _written_fragments(checkpoint: Checkpoint) -> tuple[Optional[list[Fragment]], str, frozenset[int]]:
+    mol, reason, _ = read_smiles(checkpoint.smiles)
+    if mol is None:
+        return None, reason, frozenset()
+    maps = frozenset(a.GetAtomMapNum() for a in mol.GetAtoms() if a.GetAtomMapNum())
+    return fragments(mol, maps), "", maps
+
+
+def compare(state: ElectronState, checkpoint: Checkpoint, code: str, step: Optional[int]) -> list[Diagnostic]:
+    """Diagnostics for one checkpoint against one state (empty when it matches)."""
+    written, reason, maps = _written_fragments(checkpoint)
+    if written is None:
+        return [Diagnostic("AR102", f"RDKit cannot read the checkpoint SMILES: {reason}", checkpoint.loc,
+                           hint="check brackets, ring-closure digits and charges", step=step)]
+    derived = fragments(state.mol, maps)
+    pool = Counter(f.smiles for f in derived)
+    missing = []
+    for frag in written:
+        if pool[frag.smiles] > 0:
+            pool[frag.smiles] -= 1
+        else:
+            missing.append(frag)
+    leftovers = [f for f in derived if pool[f.smiles] > 0 and not pool.subtract({f.smiles: 1})]
+    what = "product" if code == "AR402" else "checkpoint"
+    diags = []
+    for frag in missing:
+        candidates = [f for f in derived if f.smiles not in {w.smiles for w in written}] or derived
+        closest = max(candidates, key=lambda f: _overlap(frag.mol, f.mol), default=None)
+        details, hint = _explain(frag, closest, state) if closest is not None else ([], None)
+        message = f"the {what} {frag.smiles} is not in the derived state"
+        if details:
+            message += ": " + "; ".join(details)
+        else:
+            message += f" (derived: {'.'.join(f.smiles for f in derived)})"
+        diags.append(Diagnostic(code, message, checkpoint.loc, hint=hint or "compare with `arrows trace`", step=step))
+    if checkpoint.whole_state and not missing and leftovers:
+        extra = ".".join(f.smiles for f in leftovers)
+        diags.append(Diagnostic(code, f"`all` was asked, but the state also holds {extra}", checkpoint.loc,
+                                hint="write every fragment, or drop `all`", step=step))
+    return diags
+
+
+def _overlap(a: Chem.Mol, b: Chem.Mol) -> tuple[int, int]:
+    common = Counter(x.GetSymbol() for x in a.GetAtoms()) & Counter(x.GetSymbol() for x in b.GetAtoms())
+    return sum(common.values()), -abs(a.GetNumAtoms() - b.GetNumAtoms())
+
+
+def _alignment(written: Chem.Mol, derived: Chem.Mol) -> dict[int, int]:
+    """written atom index -> derived atom index, by maps when the checkpoint has them, else by the
+    largest common substructure (elements must match, bond orders may differ)."""
+    by_map = {a.GetAtomMapNum(): a.GetIdx() for a in derived.GetAtoms() if a.GetAtomMapNum()}
+    mapped = {a.GetIdx(): by_map[a.GetAtomMapNum()] for a in written.GetAtoms()
+              if a.GetAtomMapNum() and a.GetAtomMapNum() in by_map}
+    if mapped:
+        return mapped
+    result = rdFMCS.FindMCS([written, derived], atomCompare=rdFMCS.AtomCompare.CompareElements,
+                            bondCompare=rdFMCS.BondCompare.CompareAny, ringMatchesRingOnly=False,
+                            completeRingsOnly=False, matchValences=False, timeout=2)
+    if not result.numAtoms:
+        return {}
+    query = Chem.MolFromSmarts(result.smartsString)
+    left = written.GetSubstructMatch(query, useChirality=False)
+    right = derived.GetSubstructMatch(query, useChirality=False)
+    return dict(zip(left, right))
+
+
+def _signed(charge: int) -> str:
+    return f"{charge:+d}" if charge else "0"
+
+
+def _order(bond) -> int:
+    if bond is None:
+        return 0
+    if bond.GetIsAromatic():
+        return 15  # aromatic: compared as its own kind
+    return int(bond.GetBondTypeAsDouble())
+
+
+def _order_text(order: int) -> str:
+    return "aromatic" if order == 15 else order_word(order)
+
+
+def _explain(frag: Fragment, closest: Fragment, state: ElectronState) -> tuple[list[str], Optional[str]]:
+    align = _alignment(frag.mol, closest.mol)
+    if not align:
+        return [], None
+
+    def name(derived_index: int) -> str:
+        return atom_label(state.mol, closest.mol.GetAtomWithIdx(derived_index).GetIntProp(_ORIGIN))
+
+    details: list[str] = []
+    hint = None
+    for wi, di in align.items():
+        w, d = frag.mol.GetAtomWithIdx(wi), closest.mol.GetAtomWithIdx(di)
+        if w.GetFormalCharge() != d.GetFormalCharge():
+            text = f"{name(di)}: expected charge {_signed(w.GetFormalCharge())}, the moves give {_signed(d.GetFormalCharge())}"
+            if abs(w.GetTotalNumHs() - d.GetTotalNumHs()) == 1 and (
+                    w.GetFormalCharge() - d.GetFormalCharge()) == (w.GetTotalNumHs() - d.GetTotalNumHs()):
+                text += " (a proton transfer is missing?)"
+                hint = "add a proton-transfer step, or move the checkpoint after it"
+            details.append(text)
+        elif w.GetTotalNumHs() != d.GetTotalNumHs():
+            details.append(f"{name(di)}: expected {w.GetTotalNumHs()} H, the moves give {d.GetTotalNumHs()}")
+        if w.GetNumRadicalElectrons() != d.GetNumRadicalElectrons():
+            details.append(f"{name(di)}: expected {w.GetNumRadicalElectrons()} unpaired electron(s), "
+                           f"the moves give {d.GetNumRadicalElectrons()}")
+    written_atoms = sorted(align)
+    for x, wi in enumerate(written_atoms):
+        for wj in written_atoms[x + 1:]:
+            expected = _order(frag.mol.GetBondBetweenAtoms(wi, wj))
+            given = _order(closest.mol.GetBondBetweenAtoms(align[wi], align[wj]))
+            if expected != given:
+                details.append(f"bond {name(align[wi])}-{name(align[wj])}: expected {_order_text(expected)}, "
+                               f"the moves give {_order_text(given)}")
+    unmatched = Counter(frag.mol.GetAtomWithIdx(i).GetSymbol() for i in range(frag.mol.GetNumAtoms()) if i not in align)
+    if unmatched:
+        details.append("written atoms with no counterpart: " + ", ".join(f"{n} {el}" for el, n in sorted(unmatched.items())))
+    extra = Counter(closest.mol.GetAtomWithIdx(i).GetSymbol() for i in range(closest.mol.GetNumAtoms())
+                    if i not in set(align.values()))
+    if extra:
+        details.append("derived atoms not written: " + ", ".join(f"{n} {el}" for el, n in sorted(extra.items())))
+    return details[:8], hint
+
+
+class CheckpointsMatch:
+    name = "checkpoints match"
+    codes = ("AR401", "AR402")
+
+    def run(self, trace: Trace) -> Iterator[Diagnostic]:
+        for st in trace.steps:
+            if st.after is None:
+                continue
+            for checkpoint in st.step.expects:
+                yield from compare(st.after, checkpoint, "AR401", st.index)
+        product = trace.mechanism.product
+        if product is not None and trace.final is not None:
+            yield from compare(trace.final, product, "AR402", None)

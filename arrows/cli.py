@@ -1,0 +1,47 @@
+"""Command line: argument handling, output formatting and exit codes only. Each command lives in
+its own module and is imported only when it runs, so `arrows check` never loads drawing code."""
+from __future__ import annotations
+
+import importlib
+
+import click
+
+# command name -> "module:function"
+COMMANDS = {
+    "check": "arrows.commands.check:check_command",
+    "trace": "arrows.commands.trace:trace_command",
+    "explain": "arrows.commands.explain:explain_command",
+}
+
+EXIT_CLEAN, EXIT_FINDINGS, EXIT_USAGE = 0, 1, 2
+
+
+class LazyGroup(click.Group):
+    def list_commands(self, ctx):
+        return sorted(COMMANDS)
+
+    def get_command(self, ctx, name):
+        target = COMMANDS.get(name)
+        if target is None:
+            return None
+        module, attr = target.split(":")
+        return getattr(importlib.import_module(module), attr)
+
+
+@click.group(cls=LazyGroup, context_settings={"help_option_names": ["-h", "--help"]})
+@click.version_option(package_name="arrows")
+def cli():
+    """Check curved-arrow mechanisms electron by electron, and draw them."""
+
+
+def main() -> None:
+    try:
+        cli.main(standalone_mode=False)
+    except click.exceptions.Abort:
+        click.echo("aborted", err=True)
+        raise SystemExit(EXIT_USAGE)
+    except click.ClickException as exc:
+        exc.show()
+        raise SystemExit(EXIT_USAGE)
+    except click.exceptions.Exit as exc:
+        raise SystemExit(exc.exit_code)

@@ -1,0 +1,74 @@
+"""`arrows trace FILE`: every derived state, with what changed at each step."""
+from __future__ import annotations
+
+import sys
+
+import click
+from rdkit.Chem.rdMolDescriptors import CalcMolFormula
+
+from ..api import check_file
+from ..diagnostics import ERROR
+from ..electrons import ElectronState, bond_label, order_word
+from ..rdkit_io import canonical
+
+
+def _state_lines(state: ElectronState) -> list[str]:
+    from rdkit import Chem
+    mol = Chem.Mol(state.mol)
+    Chem.SanitizeMol(mol)
+    charge = Chem.GetFormalCharge(mol)
+    return [f"  SMILES   {canonical(state.mol)}",
+            f"  formula  {CalcMolFormula(mol)}   net charge {charge:+d}" if charge else
+            f"  formula  {CalcMolFormula(mol)}   net charge 0"]
+
+
+@click.command("trace")
+@click.argument("file", type=click.Path(dir_okay=False))
+def trace_command(file):
+    """Print the starting state and the state after every step: canonical SMILES, formula, net
+    charge, and for each atom that changed its formal charge and lone pairs."""
+    trace, diags = check_file(file)
+    if trace is None or trace.initial is None:
+        for d in diags:
+            click.echo(d.to_text(), err=True)
+        sys.exit(2 if any(d.code == "AR100" for d in diags) else 1)
+    click.echo("start")
+    for line in _state_lines(trace.initial):
+        click.echo(line)
+    for st in trace.steps:
+        kind = "" if st.step.kind == "forward" else f" ({st.step.kind})"
+        click.echo(f"\nstep {st.index + 1}: {st.step.label}{kind}")
+        if st.after is None:
+            click.echo("  not derived: the moves of this step cannot be applied (see the errors below)")
+            break
+        for line in _state_lines(st.after):
+            click.echo(line)
+        after = st.after
+        for i, j in st.change.formed:
+            click.echo(f"  formed   {bond_label(after.mol, i, j)}")
+        for i, j in st.change.broken:
+            click.echo(f"  broken   {bond_label(st.before.mol, i, j)}")
+        for (i, j), old, new in st.change.reordered:
+            click.echo(f"  bond     {after.label(i)}-{after.label(j)} {order_word(old)} -> {order_word(new)}")
+        for i in st.change.touched_atoms:
+            atom = after.mol.GetAtomWithIdx(i)
+            if atom.GetAtomicNum() == 1:
+                continue
+            pairs, unpaired = divmod(after.nonbonding[i], 2)
+            charge = atom.GetFormalCharge()
+            text = f"  atom     {after.label(i)}: charge {charge:+d}" if charge else f"  atom     {after.label(i)}: charge 0"
+            text += f", {pairs} lone pair{'s' if pairs != 1 else ''}"
+            if unpaired:
+                text += ", 1 unpaired electron"
+            click.echo(text)
+        if st.released_now:
+            click.echo(f"  released {', '.join(sorted({after.label(i) for i in st.released_now if after.mol.GetAtomWithIdx(i).GetAtomicNum() > 1}))}")
+        for d in diags:
+            if d.step == st.index and d.severity != ERROR:
+                click.echo(f"  {d.severity} {d.code} {d.message}")
+    problems = [d for d in diags if d.severity == ERROR]
+    if problems:
+        click.echo("")
+        for d in problems:
+            click.echo(d.to_text())
+        sys.exit(1)

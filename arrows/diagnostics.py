@@ -1,0 +1,191 @@
+"""Diagnostics are data: a code from the table below, a severity, a location, the atoms and
+bonds involved, and a hint. Only the CLI turns them into text."""
+from __future__ import annotations
+
+import json
+from dataclasses import dataclass, field
+from typing import Iterable, Optional
+
+from .model import Location
+
+ERROR, WARNING, NOTE = "error", "warning", "note"
+SEVERITY_RANK = {ERROR: 0, WARNING: 1, NOTE: 2}
+
+
+@dataclass(frozen=True)
+class Code:
+    code: str
+    severity: str
+    title: str
+    explanation: str
+    example: str = ""
+
+
+def _table(*codes: Code) -> dict[str, Code]:
+    return {c.code: c for c in codes}
+
+
+# Stable codes. Families: AR1xx reading the file, AR2xx electron moves, AR3xx the derived
+# structures, AR4xx conservation and checkpoints, AR5xx chemical judgement, AR6xx notes.
+CODES = _table(
+    Code("AR100", ERROR, "cannot read file",
+         "The file could not be read or is not UTF-8 text."),
+    Code("AR101", ERROR, "syntax error",
+         "The text does not follow the mechanism language.",
+         'step "deprotonation"\n    :O11 -> H(C3)\n    C3-H -> C2=C3\n# missing `end`'),
+    Code("AR102", ERROR, "SMILES not understood",
+         "RDKit could not read the SMILES of a species, checkpoint or product.",
+         'species dione = "CC(=O)CC(C"   # unclosed branch'),
+    Code("AR103", ERROR, "map number used twice",
+         "Every atom map number must be unique across the whole mechanism, so that a move names one atom.",
+         'species a = "[CH3:1][OH:2]"\nspecies b = "[OH2:2]"'),
+    Code("AR104", ERROR, "unknown atom",
+         "A move names a map number that no species declares.",
+         'species w = "[OH2:1]"\nstep "s"\n    :O7 -> H(O1)\nend'),
+    Code("AR105", ERROR, "element does not match",
+         "The element written with a map number differs from the element of that atom in the SMILES.",
+         'species acetone = "[CH3:1][C:2](=[O:3])C"\n...\n    C3=O2 -> O3   # C3 is oxygen, C2 is carbon'),
+    Code("AR106", ERROR, "atom already released",
+         "A move or checkpoint uses an atom whose fragment left the drawing with `releases` in an earlier step.",
+         'step "loss of water" releases O9 ... end\nstep "next"\n    :O9 -> C2\nend'),
+    Code("AR107", ERROR, "statement after the product",
+         "`product` closes the mechanism: no step or second product may follow it."),
+    Code("AR108", ERROR, "duplicate species name",
+         "Two species (or `uses` entries) share one name."),
+    Code("AR109", ERROR, "no such hydrogen",
+         "`H(X)` or `X-H` names a hydrogen on X, but X carries none at that point.",
+         'species ion = "[O-:1]C"\nstep "s"\n    O1-H -> O1\nend'),
+    Code("AR201", ERROR, "no electrons at the source",
+         "An arrow starts at electrons that are not there: a lone pair on an atom that has none, a bond "
+         "that does not exist, or an unpaired electron on a closed-shell atom.",
+         ':C5 -> C6   # C5 is a carbocation: it has no lone pair'),
+    Code("AR202", ERROR, "bond order written wrongly",
+         "The connector of a source bond says what the bond is before the step. `=` on a single bond "
+         "names a pi pair that does not exist.",
+         'C3=C4 -> C4   # C3-C4 is a single bond'),
+    Code("AR203", ERROR, "electrons used twice",
+         "Two arrows in one step draw on the same electrons (one pair of a single bond, one lone pair "
+         "more than the atom has).",
+         'C3-H -> C2=C3\nC3-H -> C3-C7   # the one C3-H pair cannot go two places'),
+    Code("AR204", ERROR, "arrow starts at a hydrogen",
+         "Arrows start at electrons. A proton (or any hydrogen) has no lone pair; the arrow that "
+         "removes a proton starts at the base's lone pair and ends at the hydrogen.",
+         'H(C3) -> O11     # write  :O11 -> H(C3)  and  C3-H -> ...'),
+    Code("AR205", ERROR, "arrow starts at an atom, not at electrons",
+         "A bare atom cannot be a source: name a lone pair (`:X`), a bond (`X-Y`) or an unpaired "
+         "electron (`.X`).",
+         'O11 -> C2   # write :O11 -> C2'),
+    Code("AR206", ERROR, "ambiguous sink",
+         "A bond pair can only become a lone pair on one of its own atoms. To form a bond to a third "
+         "atom, name that bond.",
+         'C4=C5 -> H9   # write C4=C5 -> C5-H9'),
+    Code("AR207", ERROR, "sink bond shares no atom with the source",
+         "Electrons stay on an atom they started on: the new or strengthened bond must contain one "
+         "atom of the source.",
+         ':O1 -> C2=C3   # O1 is in neither atom of C2=C3'),
+    Code("AR208", ERROR, "bond after the step is not what was written",
+         "The connector of a sink bond says what the bond will be after the step; the moves give "
+         "something else.",
+         'C3-H -> C2-C3   # C2-C3 becomes a double bond: write C2=C3'),
+    Code("AR209", ERROR, "arrow kind does not fit the electrons",
+         "A pair arrow `->` cannot start at one unpaired electron; use a fishhook `~>`.",
+         '.C1 -> C2   # write .C1 ~> C2'),
+    Code("AR210", ERROR, "arrow goes nowhere",
+         "The sink is the source itself (an atom giving its lone pair to itself, a bond moving into itself)."),
+    Code("AR301", ERROR, "octet exceeded",
+         "After the step a second-row atom holds more than eight valence electrons (or hydrogen more "
+         "than two). Lewis octet and duet rules (common practice).",
+         'five bonds to one carbon'),
+    Code("AR302", ERROR, "bond order out of range",
+         "After the step a bond would be more than triple."),
+    Code("AR303", ERROR, "odd-electron bond",
+         "After the step a bond holds an odd number of electrons: a bond made from single electrons "
+         "needs one fishhook from each partner in the same step.",
+         '.C1 ~> C2   # and no .C2 ~> C1 in the same step'),
+    Code("AR304", ERROR, "structure rejected by RDKit",
+         "The derived structure does not sanitize in RDKit (valence or aromaticity)."),
+    Code("AR305", ERROR, "sigma bond changed in a resonance step",
+         "Resonance contributors differ only in where pi electrons and lone pairs are: a resonance "
+         "step may not make or break a sigma bond."),
+    Code("AR401", ERROR, "checkpoint differs",
+         "The state after the step does not contain a structure written with `expect`. The message "
+         "names the difference atom by atom."),
+    Code("AR402", ERROR, "product differs",
+         "The state after the last step does not contain the structure written with `product`."),
+    Code("AR403", ERROR, "charge not conserved",
+         "The total charge after a step differs from the total before it plus what entered with `uses`."),
+    Code("AR404", ERROR, "atoms not conserved",
+         "The atoms after a step differ from the atoms before it plus what entered with `uses`."),
+    Code("AR501", WARNING, "small ring closed",
+         "A step closes a three- or four-membered ring; five- and six-membered closures usually "
+         "outcompete them (common practice)."),
+    Code("AR502", WARNING, "disfavoured ring closure",
+         "Baldwin's rules (J. E. Baldwin, J. Chem. Soc., Chem. Commun. 1976, 734; Baldwin and Lusch, "
+         "Tetrahedron 1982, 38, 2939) call this closure disfavoured."),
+    Code("AR503", WARNING, "unusual formal charge",
+         "An atom carries a formal charge of magnitude two or more (for example carbon -2, oxygen +2)."),
+    Code("AR504", WARNING, "expanded octet",
+         "A third-row or heavier atom holds more than eight valence electrons."),
+    Code("AR505", WARNING, "unpaired electron made by pair arrows",
+         "Only pair arrows moved in this step, yet an atom is left with an odd electron count."),
+    Code("AR506", WARNING, "step with no moves",
+         "A step names no electron moves."),
+    Code("AR507", WARNING, "bond order written lower than it is",
+         "A source bond is written `-` but is really double or triple; the pi pair is meant, so write `=` or `#`."),
+    Code("AR508", WARNING, "uphill proton transfer",
+         "The base's conjugate acid is much weaker than the acid it deprotonates."),
+    Code("AR601", NOTE, "ring closure",
+         "A step closes a ring; its size and Baldwin class are given."),
+    Code("AR602", NOTE, "stereocentres",
+         "Stereocentres or stereogenic double bonds made or lost in a step."),
+)
+
+
+@dataclass(frozen=True)
+class Diagnostic:
+    code: str
+    message: str
+    loc: Location
+    hint: Optional[str] = None
+    atoms: tuple[str, ...] = ()   # atom labels such as "C7" or "H(C3)"
+    bonds: tuple[tuple[str, str], ...] = ()
+    step: Optional[int] = None    # 0-based step index, when the diagnostic belongs to a step
+    severity: str = field(default="")
+
+    def __post_init__(self) -> None:
+        if not self.severity:
+            object.__setattr__(self, "severity", CODES[self.code].severity)
+
+    def to_text(self) -> str:
+        text = f"{self.loc}: {self.severity} {self.code} {self.message}"
+        if self.hint:
+            text += f"\n    hint: {self.hint}"
+        return text
+
+    def to_dict(self) -> dict:
+        return {
+            "file": self.loc.file, "line": self.loc.line, "column": self.loc.column,
+            "severity": self.severity, "code": self.code, "message": self.message,
+            "hint": self.hint, "atoms": list(self.atoms),
+            "bonds": [list(b) for b in self.bonds], "step": self.step,
+        }
+
+
+def sort_key(d: Diagnostic) -> tuple:
+    return (d.loc.file, d.loc.line, d.loc.column, SEVERITY_RANK[d.severity], d.code)
+
+
+def errors(diags: Iterable[Diagnostic]) -> list[Diagnostic]:
+    return [d for d in diags if d.severity == ERROR]
+
+
+def to_json(diags: Iterable[Diagnostic]) -> str:
+    return json.dumps([d.to_dict() for d in diags], indent=2, ensure_ascii=False)
+
+
+class MechanismError(Exception):
+    """Raised when a file cannot be turned into a Mechanism at all; carries its diagnostics."""
+
+    def __init__(self, diagnostics: list[Diagnostic]):
+        self.diagnostics = diagnostics
+        super().__init__("\n".join(d.to_text() for d in diagnostics))

@@ -1,0 +1,443 @@
+"""Electron bookkeeping: the state of every atom's non-bonding electrons and every bond's
+electron count, and applying one concerted step of arrows to it.
+
+For each atom: V valence electrons of the free atom, N non-bonding electrons, B the sum of bond
+orders (hydrogens included). Formal charge = V - N - B; unpaired electrons = N mod 2. The RDKit Mol
+of a state is derived from these numbers, never the other way round; a hydrogen count changes only
+through a move.
+"""
+from __future__ import annotations
+
+from dataclasses import dataclass, field
+from typing import Optional
+
+from rdkit import Chem
+
+from .diagnostics import Diagnostic
+from .model import (AtomRef, AtomSink, BareAtom, BondPair, BondRef, BondSink, HydrogenOn, Location,
+                    LonePair, Move, Step, UnpairedElectron, CONNECTORS)
+from .rdkit_io import period, rdkit_messages, valence_electrons
+
+_BOND_TYPES = {1: Chem.BondType.SINGLE, 2: Chem.BondType.DOUBLE, 3: Chem.BondType.TRIPLE}
+_ORDER_WORDS = {0: "none", 1: "single", 2: "double", 3: "triple"}
+
+
+def order_word(order: int) -> str:
+    return _ORDER_WORDS.get(order, f"order {order}")
+
+
+Pair = tuple[int, int]
+
+
+def pair(i: int, j: int) -> Pair:
+    return (i, j) if i < j else (j, i)
+
+
+@dataclass(frozen=True)
+class ElectronState:
+    """One moment of the mechanism. Atom indices are identities: atoms are only ever appended."""
+
+    mol: Chem.Mol                     # Kekulé form, atom maps kept, explicit H atoms where they move
+    nonbonding: tuple[int, ...]       # N per atom
+    released: frozenset[int] = frozenset()
+
+    def bond_electrons(self, i: int, j: int) -> int:
+        bond = self.mol.GetBondBetweenAtoms(i, j)
+        return 0 if bond is None else 2 * int(bond.GetBondTypeAsDouble())
+
+    def bond_order_sum(self, i: int) -> int:
+        atom = self.mol.GetAtomWithIdx(i)
+        return int(sum(b.GetBondTypeAsDouble() for b in atom.GetBonds())) + atom.GetNumExplicitHs()
+
+    def formal_charge(self, i: int) -> int:
+        atom = self.mol.GetAtomWithIdx(i)
+        return valence_electrons(atom.GetAtomicNum()) - self.nonbonding[i] - self.bond_order_sum(i)
+
+    def label(self, i: int) -> str:
+        return atom_label(self.mol, i)
+
+
+def atom_label(mol: Chem.Mol, i: int) -> str:
+    """C7 for a mapped atom, H(C3) for a hydrogen on a mapped atom, else element and position."""
+    atom = mol.GetAtomWithIdx(i)
+    if atom.GetAtomMapNum():
+        return f"{atom.GetSymbol()}{atom.GetAtomMapNum()}"
+    if atom.GetAtomicNum() == 1 and atom.GetDegree() == 1:
+        parent = atom.GetNeighbors()[0]
+        if parent.GetAtomMapNum():
+            return f"H({parent.GetSymbol()}{parent.GetAtomMapNum()})"
+    return f"{atom.GetSymbol()}(atom {i + 1})"
+
+
+def bond_label(mol: Chem.Mol, i: int, j: int) -> str:
+    """C3-C7, or O11-H when one end is a hydrogen on the other."""
+    for a, b in ((i, j), (j, i)):
+        atom = mol.GetAtomWithIdx(b)
+        if atom.GetAtomicNum() == 1 and not atom.GetAtomMapNum() and mol.GetBondBetweenAtoms(a, b) is not None \
+                and atom.GetDegree() == 1:
+            return f"{atom_label(mol, a)}-H"
+    return f"{atom_label(mol, i)}-{atom_label(mol, j)}"
+
+
+def initial_nonbonding(mol: Chem.Mol) -> list[int]:
+    out = []
+    for atom in mol.GetAtoms():
+        bonds = int(sum(b.GetBondTypeAsDouble() for b in atom.GetBonds())) + atom.GetNumExplicitHs()
+        out.append(valence_electrons(atom.GetAtomicNum()) - atom.GetFormalCharge() - bonds)
+    return out
+
+
+@dataclass
+class StepChange:
+    """What one step did, by atom index: bonds formed, broken and changed, charge changes."""
+
+    formed: list[Pair] = field(default_factory=list)
+    broken: list[Pair] = field(default_factory=list)
+    reordered: list[tuple[Pair, int, int]] = field(default_factory=list)   # (bond, before, after)
+    charges: list[tuple[int, int, int]] = field(default_factory=list)      # (atom, before, after)
+    touched_atoms: list[int] = field(default_factory=list)
+    move_atoms: list[tuple[int, ...]] = field(default_factory=list)       # resolved atoms of each move
+
+
+class _StepFailed(Exception):
+    pass
+
+
+class _StepReplay:
+    """Applies the moves of one step concurrently: every source is judged against the state
+    before the step, and the state is checked only after all moves."""
+
+    def __init__(self, state: ElectronState, step: Step, step_index: int, map_index: dict[int, int],
+                 entered_later: dict[int, int]):
+        self.state, self.step, self.step_index = state, step, step_index
+        self.map_index, self.entered_later = map_index, entered_later
+        self.diagnostics: list[Diagnostic] = []
+        self.d_nonbonding: dict[int, int] = {}
+        self.d_bond: dict[Pair, int] = {}
+        self.used_lone: dict[int, int] = {}
+        self.used_bond: dict[Pair, int] = {}
+        self.used_unpaired: dict[int, int] = {}
+        self.written_sinks: list[tuple[Pair, int, Location, str]] = []
+        self.move_atoms: list[tuple[int, ...]] = []
+        self.first_move_on_bond: dict[Pair, Move] = {}
+        self._hydrogen_choice: dict[int, int] = {}
+
+    # diagnostics
+    def fail(self, code: str, message: str, loc: Location, hint: Optional[str] = None,
+             atoms: tuple[str, ...] = (), bonds: tuple = ()) -> None:
+        self.diagnostics.append(Diagnostic(code, message, loc, hint, atoms, bonds, self.step_index))
+
+    def warn(self, code: str, message: str, loc: Location, hint: Optional[str] = None,
+             atoms: tuple[str, ...] = ()) -> None:
+        self.diagnostics.append(Diagnostic(code, message, loc, hint, atoms, (), self.step_index))
+
+    # resolving written atoms to indices
+    def resolve(self, ref) -> int:
+        if isinstance(ref, HydrogenOn):
+            parent = self.resolve(ref.parent)
+            return self.hydrogen_on(parent, ref)
+        index = self.map_index.get(ref.map_number)
+        if index is None:
+            if ref.map_number in self.entered_later:
+                hint = f"atom {ref.map_number} enters only in step {self.entered_later[ref.map_number] + 1}"
+            else:
+                hint = "every atom a move names needs a map number in a species SMILES, e.g. [CH2:3]"
+            self.fail("AR104", f"no atom carries map number {ref.map_number} at this point", ref.loc, hint,
+                      atoms=(str(ref),))
+            raise _StepFailed
+        atom = self.state.mol.GetAtomWithIdx(index)
+        if atom.GetSymbol() != ref.element:
+            self.fail("AR105", f"{ref} names atom {ref.map_number}, which is {atom.GetSymbol()}, not {ref.element}",
+                      ref.loc, f"write {atom.GetSymbol()}{ref.map_number}", atoms=(str(ref),))
+            raise _StepFailed
+        if index in self.state.released:
+            self.fail("AR106", f"{ref} left the drawing with `releases` in an earlier step", ref.loc,
+                      "bring it back with `uses` under a new map number, or do not release it", atoms=(str(ref),))
+            raise _StepFailed
+        return index
+
+    def hydrogen_on(self, parent: int, ref: HydrogenOn) -> int:
+        if parent in self._hydrogen_choice:
+            return self._hydrogen_choice[parent]
+        hydrogens = [n for n in self.state.mol.GetAtomWithIdx(parent).GetNeighbors() if n.GetAtomicNum() == 1]
+        if not hydrogens:
+            self.fail("AR109", f"{ref.parent} carries no hydrogen at this point", ref.loc,
+                      "check which atom holds the proton; the formula of each state is shown by `arrows trace`",
+                      atoms=(str(ref.parent),))
+            raise _StepFailed
+        # Unmapped hydrogens are interchangeable; mapped ones are kept for the author who named them.
+        hydrogens.sort(key=lambda a: (a.GetAtomMapNum() != 0, a.GetIdx()))
+        chosen = hydrogens[0].GetIdx()
+        self._hydrogen_choice[parent] = chosen
+        return chosen
+
+    # electrons
+    def nonbonding(self, i: int) -> int:
+        return self.state.nonbonding[i]
+
+    def take_from_atom(self, i: int, n: int) -> None:
+        self.d_nonbonding[i] = self.d_nonbonding.get(i, 0) - n
+
+    def give_to_atom(self, i: int, n: int) -> None:
+        self.d_nonbonding[i] = self.d_nonbonding.get(i, 0) + n
+
+    def change_bond(self, i: int, j: int, n: int, move: Move) -> None:
+        key = pair(i, j)
+        self.d_bond[key] = self.d_bond.get(key, 0) + n
+        self.first_move_on_bond.setdefault(key, move)
+
+    def source_atom(self, move: Move, ref) -> int:
+        index = self.resolve(ref)
+        if self.state.mol.GetAtomWithIdx(index).GetAtomicNum() == 1:
+            self.fail("AR204", f"the arrow starts at the hydrogen {self.state.label(index)}; arrows start at electrons",
+                      move.source.loc, "to move a proton, start at the base's lone pair: `:O11 -> H(C3)`, "
+                      "and let the C-H pair go with `C3-H -> ...`", atoms=(self.state.label(index),))
+            raise _StepFailed
+        return index
+
+    def apply(self, move: Move) -> None:
+        src, sink, n = move.source, move.sink, move.electrons
+        if isinstance(src, BareAtom):
+            index = self.source_atom(move, src.atom)
+            self.fail("AR205", f"the arrow starts at the atom {src.atom}, not at electrons", src.loc,
+                      f"name the electrons: `:{src.atom}` for a lone pair, a bond such as `{src.atom}-X`, "
+                      f"or `.{src.atom}` for an unpaired electron", atoms=(str(src.atom),))
+            raise _StepFailed
+        if isinstance(src, (LonePair, UnpairedElectron)):
+            x = self.source_atom(move, src.atom)
+            self.check_atom_source(move, src, x)
+            self.take_from_atom(x, n)
+            self.attach(move, x, sink)
+        else:
+            a, b = self.resolve(src.bond.first), self.resolve(src.bond.second)
+            self.check_bond_source(move, src, a, b)
+            self.change_bond(a, b, -n, move)
+            self.detach(move, (a, b), sink)
+
+    def check_atom_source(self, move: Move, src, x: int) -> None:
+        nb, label = self.nonbonding(x), self.state.label(x)
+        if isinstance(src, UnpairedElectron):
+            if nb % 2 == 0:
+                self.fail("AR201", f"{label} has no unpaired electron", src.loc,
+                          "a fishhook starts at a radical centre, a lone pair (`:X ~>`) or a bond", atoms=(label,))
+                raise _StepFailed
+            if move.electrons == 2:
+                self.fail("AR209", f"a pair arrow cannot start at the single electron on {label}", move.loc,
+                          f"use a fishhook: `.{src.atom} ~> ...`", atoms=(label,))
+                raise _StepFailed
+            self.used_unpaired[x] = self.used_unpaired.get(x, 0) + 1
+            if self.used_unpaired[x] > 1:
+                self.fail("AR203", f"the unpaired electron on {label} is used twice in this step", src.loc,
+                          atoms=(label,))
+                raise _StepFailed
+            return
+        pairs = nb // 2
+        if pairs == 0:
+            charge = self.state.formal_charge(x)
+            why = f"{label} has no lone pair" + (f" (it is a cation, formal charge {charge:+d})" if charge > 0 else "")
+            self.fail("AR201", why, src.loc, "arrows start at electrons: a lone pair, a bond, or an unpaired electron",
+                      atoms=(label,))
+            raise _StepFailed
+        self.used_lone[x] = self.used_lone.get(x, 0) + move.electrons
+        if self.used_lone[x] > 2 * pairs:
+            self.fail("AR203", f"{label} has {pairs} lone pair{'s' if pairs > 1 else ''}; this step uses more",
+                      src.loc, "each arrow from a lone pair takes one pair", atoms=(label,))
+            raise _StepFailed
+
+    def check_bond_source(self, move: Move, src: BondPair, a: int, b: int) -> None:
+        have = self.state.bond_electrons(a, b)
+        name = f"{self.state.label(a)}-{self.state.label(b)}"
+        written = src.bond.order
+        if have == 0:
+            self.fail("AR201", f"there is no bond {name}", src.loc,
+                      "check the atom numbers; `arrows trace` shows the bonds of every state",
+                      atoms=(self.state.label(a), self.state.label(b)))
+            raise _StepFailed
+        actual = have // 2
+        if written > actual:
+            self.fail("AR202", f"{src.bond} is written {order_word(written)}, but {name} is a {order_word(actual)} bond: "
+                      f"there is no {'pi' if written == 2 else 'second pi'} pair to move",
+                      src.loc, f"write {_rewrite(src.bond, actual)}, or check the previous step",
+                      atoms=(self.state.label(a), self.state.label(b)))
+            raise _StepFailed
+        if written < actual:
+            self.warn("AR507", f"{src.bond} is written {order_word(written)}, but {name} is {order_word(actual)}",
+                      src.loc, f"write {_rewrite(src.bond, actual)} so the reader sees which pair moves")
+        key = pair(a, b)
+        self.used_bond[key] = self.used_bond.get(key, 0) + move.electrons
+        if self.used_bond[key] > have:
+            self.fail("AR203", f"the electrons of {name} are used twice in this step", src.loc,
+                      f"{name} holds {actual} pair{'s' if actual > 1 else ''}; each arrow from it takes one",
+                      atoms=(self.state.label(a), self.state.label(b)))
+            raise _StepFailed
+
+    def attach(self, move: Move, x: int, sink) -> None:
+        """Electrons from atom x go to a sink: a new or stronger bond from x."""
+        n = move.electrons
+        if isinstance(sink, AtomSink):
+            y = self.resolve(sink.atom)
+        else:
+            ends = (self.resolve(sink.bond.first), self.resolve(sink.bond.second))
+            if x not in ends:
+                self.fail("AR207", f"the bond {sink.bond} does not contain {self.state.label(x)}", sink.loc,
+                          f"electrons from {self.state.label(x)} can only form a bond to {self.state.label(x)}",
+                          atoms=(self.state.label(x),))
+                raise _StepFailed
+            y = ends[1] if ends[0] == x else ends[0]
+            self.written_sinks.append((pair(x, y), sink.bond.order, sink.loc, str(sink.bond)))
+        if y == x:
+            self.fail("AR210", f"the arrow from {self.state.label(x)} ends where it starts", sink.loc)
+            raise _StepFailed
+        self.change_bond(x, y, n, move)
+        self.move_atoms.append((x, y))
+
+    def detach(self, move: Move, ends: tuple[int, int], sink) -> None:
+        """Electrons from bond ends go to a sink: one of its own atoms, or a bond sharing an atom."""
+        n = move.electrons
+        a, b = ends
+        if isinstance(sink, AtomSink):
+            y = self.resolve(sink.atom)
+            if y not in ends:
+                la, lb = self.state.label(a), self.state.label(b)
+                self.fail("AR206", f"a pair of {la}-{lb} cannot become a lone pair on {self.state.label(y)}", sink.loc,
+                          f"to form a bond to {sink.atom}, name the bond: {move.source} -> {lb}-{sink.atom} "
+                          f"(or {la}-{sink.atom})", atoms=(la, lb, self.state.label(y)))
+                raise _StepFailed
+            self.give_to_atom(y, n)
+            self.move_atoms.append((a, b, y))
+            return
+        y, z = self.resolve(sink.bond.first), self.resolve(sink.bond.second)
+        shared = {a, b} & {y, z}
+        if not shared:
+            self.fail("AR207", f"the bond {sink.bond} shares no atom with {move.source}", sink.loc,
+                      "the electrons stay on an atom they started on: the new bond must contain one atom of the source")
+            raise _StepFailed
+        if {a, b} == {y, z}:
+            self.fail("AR210", f"the arrow from {move.source} ends in the same bond", sink.loc,
+                      "a pair of a bond moves onto one of its atoms or into a bond next to it")
+            raise _StepFailed
+        pivot = shared.pop()
+        other = z if y == pivot else y
+        self.written_sinks.append((pair(pivot, other), sink.bond.order, sink.loc, str(sink.bond)))
+        self.change_bond(pivot, other, n, move)
+        self.move_atoms.append((a, b, other))
+
+
+def _rewrite(bond: BondRef, order: int) -> str:
+    return str(BondRef(bond.first, bond.second, order)) if order in CONNECTORS else str(bond)
+
+
+def apply_step(state: ElectronState, step: Step, step_index: int, map_index: dict[int, int],
+               entered_later: dict[int, int]) -> tuple[Optional[ElectronState], StepChange, list[Diagnostic]]:
+    """Apply all moves of `step` at once. Returns (state after, change, diagnostics); the state is
+    None when the moves cannot give a valid structure (the diagnostics say why)."""
+    replay = _StepReplay(state, step, step_index, map_index, entered_later)
+    change = StepChange()
+    for move in step.moves:
+        try:
+            replay.apply(move)
+        except _StepFailed:
+            return None, change, replay.diagnostics
+    change.move_atoms = replay.move_atoms
+    return _settle(state, step, step_index, replay, change)
+
+
+def _settle(state: ElectronState, step: Step, step_index: int, replay: _StepReplay,
+            change: StepChange) -> tuple[Optional[ElectronState], StepChange, list[Diagnostic]]:
+    """Turn the summed electron changes into the next state, checking it is a molecule."""
+    diags = replay.diagnostics
+    mol = state.mol
+    new_bonds: dict[Pair, int] = {}
+    for key, delta in replay.d_bond.items():
+        if delta == 0:
+            continue
+        before = state.bond_electrons(*key)
+        after = before + delta
+        new_bonds[key] = after
+        label = f"{state.label(key[0])}-{state.label(key[1])}"
+        loc = replay.first_move_on_bond[key].loc
+        if after % 2:
+            diags.append(Diagnostic("AR303", f"the bond {label} is left with {after} electron{'s' if after > 1 else ''}",
+                                    loc, "a bond made from single electrons needs a fishhook from each partner "
+                                    "in the same step", bonds=((state.label(key[0]), state.label(key[1])),),
+                                    step=step_index))
+        elif after > 6:
+            diags.append(Diagnostic("AR302", f"the bond {label} would be of order {after // 2}", loc,
+                                    "no bond is more than triple", bonds=((state.label(key[0]), state.label(key[1])),),
+                                    step=step_index))
+        if step.kind == "resonance" and (before == 0) != (after == 0):
+            what = "made" if before == 0 else "broken"
+            diags.append(Diagnostic("AR305", f"the sigma bond {label} is {what} in a resonance step", loc,
+                                    "resonance moves only pi electrons and lone pairs; for a real reaction drop "
+                                    "`resonance` from the step", bonds=((state.label(key[0]), state.label(key[1])),),
+                                    step=step_index))
+    for key, written, loc, text in replay.written_sinks:
+        actual = new_bonds.get(key, state.bond_electrons(*key)) // 2
+        if actual != written and not any(d.code in ("AR303", "AR302") for d in diags):
+            diags.append(Diagnostic("AR208", f"{text} says the bond will be {order_word(written)}; "
+                                    f"after this step it is {order_word(actual)}", loc,
+                                    f"write the bond as it is after the step"
+                                    f"{': ' + CONNECTORS[actual] if actual in CONNECTORS else ''}",
+                                    bonds=((state.label(key[0]), state.label(key[1])),), step=step_index))
+    if any(d.severity == "error" for d in diags):
+        return None, change, diags
+
+    nonbonding = list(state.nonbonding)
+    for i, delta in replay.d_nonbonding.items():
+        nonbonding[i] += delta
+
+    work = Chem.RWMol(mol)
+    for (i, j), electrons in new_bonds.items():
+        before = state.bond_electrons(i, j)
+        if electrons == 0:
+            work.RemoveBond(i, j)
+            change.broken.append((i, j))
+        elif before == 0:
+            work.AddBond(i, j, _BOND_TYPES[electrons // 2])
+            change.formed.append((i, j))
+        else:
+            work.GetBondBetweenAtoms(i, j).SetBondType(_BOND_TYPES[electrons // 2])
+            change.reordered.append(((i, j), before // 2, electrons // 2))
+
+    touched = sorted(set(replay.d_nonbonding) | {i for key in new_bonds for i in key})
+    change.touched_atoms = touched
+    for i in touched:
+        atom = work.GetAtomWithIdx(i)
+        bonds = int(sum(b.GetBondTypeAsDouble() for b in atom.GetBonds())) + atom.GetNumExplicitHs()
+        charge = valence_electrons(atom.GetAtomicNum()) - nonbonding[i] - bonds
+        if charge != atom.GetFormalCharge():
+            change.charges.append((i, atom.GetFormalCharge(), charge))
+        atom.SetFormalCharge(charge)
+        atom.SetNumRadicalElectrons(nonbonding[i] % 2)
+        atom.SetNoImplicit(True)
+        shell = nonbonding[i] + 2 * bonds
+        z = atom.GetAtomicNum()
+        limit = 2 if z <= 2 else 8
+        if shell > limit and period(z) <= 2:
+            label = state.label(i)
+            loc = _first_move_touching(step, replay, i)
+            diags.append(Diagnostic("AR301", f"{label} would hold {shell} valence electrons "
+                                    f"({bonds} bond{'s' if bonds != 1 else ''}"
+                                    f"{f', {nonbonding[i] // 2} lone pair(s)' if nonbonding[i] >= 2 else ''}); "
+                                    f"the limit is {limit}",
+                                    loc, "a bond to this atom must break in the same step (for example C=O -> O)",
+                                    atoms=(label,), step=step_index))
+    if any(d.severity == "error" for d in diags):
+        return None, change, diags
+    with rdkit_messages():
+        try:
+            Chem.SanitizeMol(work, Chem.SanitizeFlags.SANITIZE_ALL ^ Chem.SanitizeFlags.SANITIZE_SETAROMATICITY
+                             ^ Chem.SanitizeFlags.SANITIZE_KEKULIZE)
+        except Exception as exc:
+            diags.append(Diagnostic("AR304", f"RDKit rejects the structure after this step: {exc}", step.loc,
+                                    "check charges and bond orders with `arrows trace`", step=step_index))
+            return None, change, diags
+    return ElectronState(work.GetMol(), tuple(nonbonding), state.released), change, diags
+
+
+def _first_move_touching(step: Step, replay: _StepReplay, atom: int) -> Location:
+    for move, atoms in zip(step.moves, replay.move_atoms):
+        if atom in atoms:
+            return move.loc
+    return step.loc
+

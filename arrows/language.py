@@ -1,0 +1,322 @@
+"""Text -> Mechanism. The grammar lives in grammar/mechanism.lark; one Transformer turns the
+tree into model objects, and parse failures become located AR101 diagnostics with a hint."""
+from __future__ import annotations
+
+from functools import lru_cache
+from importlib import resources
+from pathlib import Path
+from typing import Optional
+
+from lark import Lark, Token, Transformer, v_args
+from lark.exceptions import UnexpectedCharacters, UnexpectedEOF, UnexpectedInput, UnexpectedToken, VisitError
+
+from .diagnostics import Diagnostic, MechanismError
+from .model import (BOND_ORDERS, AtomRef, AtomSink, BareAtom, BondPair, BondRef, BondSink, Checkpoint,
+                    HydrogenOn, Location, LonePair, Mechanism, Move, Species, Step, UnpairedElectron)
+
+MAX_FILE_BYTES = 5_000_000
+
+
+def grammar_text() -> str:
+    """The grammar ships inside the wheel as arrows/grammar/mechanism.lark; a source checkout keeps
+    it in the top-level grammar/ folder."""
+    packaged = resources.files("arrows").joinpath("grammar/mechanism.lark")
+    if packaged.is_file():
+        return packaged.read_text(encoding="utf-8")
+    return (Path(__file__).resolve().parent.parent / "grammar" / "mechanism.lark").read_text(encoding="utf-8")
+
+
+@lru_cache(maxsize=1)
+def _parser() -> Lark:
+    return Lark(grammar_text(), parser="lalr", propagate_positions=True, maybe_placeholders=False)
+
+
+class _Unpaired:
+    """Placeholder for a bare `H` inside a bond, resolved against the other end of the bond."""
+
+    def __init__(self, loc: Location):
+        self.loc = loc
+
+
+class _ToModel(Transformer):
+    def __init__(self, file: str):
+        super().__init__()
+        self.file = file
+
+    def _loc(self, item) -> Location:
+        if isinstance(item, Token):
+            return Location(self.file, item.line, item.column)
+        meta = item
+        return Location(self.file, getattr(meta, "line", 0), getattr(meta, "column", 0))
+
+    @staticmethod
+    def _text(token: Token) -> str:
+        return str(token)[1:-1]
+
+    def _string_loc(self, token: Token) -> Location:
+        return Location(self.file, token.line, token.column + 1)
+
+    # atoms and bonds
+    def mapped_atom(self, items):
+        tok = items[0]
+        text = str(tok)
+        split = next(i for i, ch in enumerate(text) if ch.isdigit())
+        return AtomRef(text[:split], int(text[split:]), self._loc(tok))
+
+    @v_args(meta=True)
+    def hydrogen_on(self, meta, items):
+        parent = self.mapped_atom(items)
+        return HydrogenOn(parent, self._loc(meta))
+
+    @v_args(meta=True)
+    def bare_hydrogen(self, meta, items):
+        return _Unpaired(self._loc(meta))
+
+    @v_args(meta=True)
+    def bond(self, meta, items):
+        first, connector, second = items
+        loc = self._loc(meta)
+        if isinstance(first, _Unpaired) and isinstance(second, _Unpaired):
+            raise _LanguageSlip(first.loc, "a bond needs at least one named atom",
+                                "write the atom the hydrogen sits on, as in C3-H")
+        if isinstance(first, _Unpaired):
+            first = HydrogenOn(second if isinstance(second, AtomRef) else second.parent, first.loc)
+        if isinstance(second, _Unpaired):
+            second = HydrogenOn(first if isinstance(first, AtomRef) else first.parent, second.loc)
+        return BondRef(first, second, BOND_ORDERS[str(connector)], loc)
+
+    # sources and sinks
+    @v_args(meta=True)
+    def lone_pair_source(self, meta, items):
+        return LonePair(items[0], self._loc(meta))
+
+    @v_args(meta=True)
+    def radical_source(self, meta, items):
+        return UnpairedElectron(items[1], self._loc(meta))
+
+    @v_args(meta=True)
+    def bond_source(self, meta, items):
+        return BondPair(items[0], self._loc(meta))
+
+    @v_args(meta=True)
+    def bare_atom_source(self, meta, items):
+        return BareAtom(items[0], self._loc(meta))
+
+    @v_args(meta=True)
+    def bond_sink(self, meta, items):
+        return BondSink(items[0], self._loc(meta))
+
+    @v_args(meta=True)
+    def atom_sink(self, meta, items):
+        return AtomSink(items[0], self._loc(meta))
+
+    @v_args(meta=True)
+    def move(self, meta, items):
+        source, arrow, sink = items
+        return Move(source, sink, 2 if str(arrow) == "->" else 1, self._loc(meta))
+
+    # step parts: tagged tuples, gathered by `step`
+    def reversible(self, items):
+        return ("kind", "reversible")
+
+    def resonance(self, items):
+        return ("kind", "resonance")
+
+    def over(self, items):
+        return ("over", self._text(items[0]))
+
+    def under(self, items):
+        return ("under", self._text(items[0]))
+
+    @v_args(meta=True)
+    def uses(self, meta, items):
+        name, smiles = items
+        return ("uses", Species(str(name), self._text(smiles), self._loc(meta), self._string_loc(smiles)))
+
+    @v_args(meta=True)
+    def releases(self, meta, items):
+        atom = items[0]
+        if not isinstance(atom, AtomRef):
+            raise _LanguageSlip(atom.loc, "`releases` takes a mapped heavy atom",
+                                "name any mapped atom of the leaving fragment, e.g. releases O9")
+        return ("releases", atom)
+
+    @v_args(meta=True)
+    def expect(self, meta, items):
+        return ("expect", Checkpoint(self._text(items[-1]), len(items) == 2, self._loc(meta)))
+
+    @v_args(meta=True)
+    def step(self, meta, items):
+        label = self._text(items[0])
+        fields: dict = {"kind": "forward", "over": None, "under": None}
+        uses, moves, releases, expects = [], [], [], []
+        for item in items[1:]:
+            if isinstance(item, Move):
+                moves.append(item)
+            elif item[0] == "uses":
+                uses.append(item[1])
+            elif item[0] == "releases":
+                releases.append(item[1])
+            elif item[0] == "expect":
+                expects.append(item[1])
+            else:
+                fields[item[0]] = item[1]
+        return Step(label, fields["kind"], fields["over"], fields["under"], tuple(uses), tuple(moves),
+                    tuple(releases), tuple(expects), self._loc(meta))
+
+    # top level
+    def title(self, items):
+        return ("title", self._text(items[0]))
+
+    def caption(self, items):
+        return ("caption", self._text(items[0]))
+
+    @v_args(meta=True)
+    def species(self, meta, items):
+        name, smiles = items
+        return Species(str(name), self._text(smiles), self._loc(meta), self._string_loc(smiles))
+
+    @v_args(meta=True)
+    def product(self, meta, items):
+        return ("product", Checkpoint(self._text(items[-1]), len(items) == 2, self._loc(meta)))
+
+    def start(self, items):
+        fields: dict = {"title": None, "caption": None, "product": None}
+        species, steps, after_product = [], [], []
+        for item in items:
+            if fields["product"] is not None and (isinstance(item, Step) or (isinstance(item, tuple) and item[0] == "product")):
+                after_product.append(item.loc if isinstance(item, Step) else item[1].loc)
+                continue
+            if isinstance(item, Species):
+                species.append(item)
+            elif isinstance(item, Step):
+                steps.append(item)
+            else:
+                fields[item[0]] = item[1]
+        return Mechanism(fields["title"], fields["caption"], tuple(species), tuple(steps), fields["product"],
+                         self.file, tuple(after_product))
+
+
+class _LanguageSlip(Exception):
+    def __init__(self, loc: Location, message: str, hint: str):
+        self.loc, self.message, self.hint = loc, message, hint
+
+
+# Readable names for the grammar's terminals, for "expected ..." in messages.
+_TERMINAL_WORDS = {
+    "STRING": 'a quoted string ("...")', "NAME": "a name", "ATOM": "an atom such as C7",
+    "ARROW": "an arrow (-> or ~>)", "BOND": "a bond (-, = or #)", "EQUAL": "`=`", "COLON": "`:`",
+    "LPAR": "`(`", "RPAR": "`)`", "RADICAL_DOT": "`.`", "END": "`end`", "STEP": "`step`",
+    "SPECIES": "`species`", "PRODUCT": "`product`", "TITLE": "`title`", "CAPTION": "`caption`",
+    "USES": "`uses`", "RELEASES": "`releases`", "EXPECT": "`expect`", "H": "`H`", "ALL": "`all`",
+    "REVERSIBLE": "`reversible`", "RESONANCE": "`resonance`", "OVER": "`over`", "UNDER": "`under`",
+    "$END": "the end of the file",
+}
+
+
+def _expected_words(expected) -> str:
+    words = sorted({_TERMINAL_WORDS.get(t, t) for t in expected if not t.startswith("__")})
+    if len(words) > 6:
+        return "a statement or a move"
+    return ", ".join(words) if words else "something else"
+
+
+def _hint_for(exc: UnexpectedInput, text: str) -> str:
+    line = text.splitlines()[exc.line - 1] if 0 < exc.line <= len(text.splitlines()) else ""
+    rest = line[exc.column - 1:] if exc.column > 0 else line
+    expected = set(getattr(exc, "expected", None) or getattr(exc, "allowed", None) or ())
+    token = getattr(exc, "token", None)
+    tok_type = getattr(token, "type", "")
+    if isinstance(exc, UnexpectedEOF) or tok_type == "$END":
+        if "END" in expected:
+            return "a step is still open: close it with `end`"
+        return "the file ends in the middle of a statement"
+    if tok_type in ("STEP", "SPECIES", "PRODUCT", "TITLE", "CAPTION") and "END" in expected:
+        return "the step before this line has no `end`"
+    if "STRING" in expected and rest[:1] not in ('"',):
+        return 'SMILES and labels go in double quotes, e.g. species water = "[OH2:12]"'
+    if isinstance(exc, UnexpectedCharacters):
+        ch = rest[:1]
+        if ch.isalpha():
+            word = "".join(c for c in rest if c.isalnum())
+            if word and word[0].isupper() and not any(c.isdigit() for c in word):
+                return f"an atom needs its map number: write {word}7 (element + map number), or H(C3) for a hydrogen"
+            return f"`{word}` is not a keyword of the language (title, caption, species, step, end, product, uses, releases, expect)"
+        if ch == "'":
+            return "strings use double quotes"
+        if ch == ">":
+            return "an arrow is written -> (pair) or ~> (single electron)"
+    if tok_type == "ATOM" and "ARROW" in expected:
+        return "between two atoms write a bond: - single, = double, # triple"
+    if tok_type == "ATOM" and "BOND" in expected:
+        return "a source and its sink are joined by -> (pair) or ~> (one electron)"
+    if tok_type == "BOND" and "ARROW" in expected:
+        return "an arrow is written -> (pair) or ~> (single electron)"
+    if tok_type == "NAME" and "END" in expected:
+        word = str(token)
+        if word[:1].isupper():
+            return f"an atom needs its map number: write {word}7 (element + map number)"
+        return f"`{word}` is not a keyword here; inside a step: moves, uses, releases, expect, end"
+    return "see the language summary in README.md"
+
+
+def syntax_diagnostic(exc: UnexpectedInput, text: str, file: str) -> Diagnostic:
+    line, column = max(exc.line, 1), max(exc.column, 1)
+    if isinstance(exc, UnexpectedEOF):
+        lines = text.splitlines() or [""]
+        line, column = len(lines), len(lines[-1]) + 1
+    token = getattr(exc, "token", None)
+    if isinstance(exc, UnexpectedCharacters):
+        found = repr(text[exc.pos_in_stream:exc.pos_in_stream + 1])
+        expected = _expected_words(exc.allowed or ())
+    elif isinstance(exc, UnexpectedEOF):
+        found = "the end of the file"
+        expected = _expected_words(exc.expected or ())
+    else:
+        found = "the end of the file" if token is not None and token.type == "$END" else f"`{token}`"
+        expected = _expected_words(exc.expected or ())
+    return Diagnostic("AR101", f"unexpected {found}; expected {expected}", Location(file, line, column),
+                      hint=_hint_for(exc, text))
+
+
+def parse(text: str, file: str = "<text>") -> Mechanism:
+    """Parse mechanism text. Raises MechanismError (with located diagnostics) on bad input."""
+    if len(text) > MAX_FILE_BYTES:
+        raise MechanismError([Diagnostic("AR100", f"file is {len(text)} bytes; the limit is {MAX_FILE_BYTES}",
+                                         Location(file, 1, 1), hint="split the mechanism into several files")])
+    if "\x00" in text:
+        raise MechanismError([Diagnostic("AR100", "file contains NUL bytes: not a text file",
+                                         Location(file, 1, 1), hint="mechanism files are plain UTF-8 text")])
+    try:
+        tree = _parser().parse(text)
+    except UnexpectedInput as exc:
+        raise MechanismError([syntax_diagnostic(exc, text, file)]) from None
+    try:
+        return _ToModel(file).transform(tree)
+    except VisitError as exc:
+        slip = exc.orig_exc
+        if isinstance(slip, _LanguageSlip):
+            raise MechanismError([Diagnostic("AR101", slip.message, slip.loc, hint=slip.hint)]) from None
+        raise
+
+
+def load(path: str | Path) -> Mechanism:
+    """Read and parse a .mech file. Raises MechanismError for unreadable or malformed files."""
+    name = str(path)
+    try:
+        raw = Path(path).read_bytes()
+    except OSError as exc:
+        raise MechanismError([Diagnostic("AR100", f"cannot read file: {exc.strerror or exc}", Location(name, 1, 1),
+                                         hint="check the path and permissions")]) from None
+    try:
+        text = raw.decode("utf-8-sig")
+    except UnicodeDecodeError as exc:
+        line = raw[:exc.start].count(b"\n") + 1
+        col = exc.start - (raw.rfind(b"\n", 0, exc.start) + 1) + 1
+        raise MechanismError([Diagnostic("AR100", "file is not UTF-8 text", Location(name, line, col),
+                                         hint="save the file as UTF-8 plain text")]) from None
+    return parse(text, name)
+
+
+def optional(value: Optional[str]) -> str:
+    return value or ""

@@ -1,0 +1,102 @@
+"""The few places where text meets RDKit: reading SMILES with RDKit's own message captured,
+and canonical SMILES for comparing structures."""
+from __future__ import annotations
+
+import logging
+import re
+from contextlib import contextmanager
+from typing import Iterator, Optional
+
+from rdkit import Chem, RDLogger, rdBase
+
+_PERIODIC = Chem.GetPeriodicTable()
+
+
+class _Collect(logging.Handler):
+    def __init__(self) -> None:
+        super().__init__()
+        self.lines: list[str] = []
+
+    def emit(self, record: logging.LogRecord) -> None:
+        self.lines.append(record.getMessage())
+
+
+@contextmanager
+def rdkit_messages() -> Iterator[list[str]]:
+    """Collect what RDKit logs inside the block instead of letting it reach stderr."""
+    rdBase.LogToPythonLogger()
+    logger = logging.getLogger("rdkit")
+    handler = _Collect()
+    old_propagate = logger.propagate
+    logger.addHandler(handler)
+    logger.propagate = False
+    try:
+        yield handler.lines
+    finally:
+        logger.removeHandler(handler)
+        logger.propagate = old_propagate
+
+
+def quiet_rdkit() -> None:
+    RDLogger.DisableLog("rdApp.*")
+
+
+_POSITION = re.compile(r"position (\d+)")
+
+
+def explain_smiles_failure(lines: list[str]) -> tuple[str, Optional[int]]:
+    """RDKit's reason and the 0-based position it points at, if it gives one."""
+    reason, position = "", None
+    for raw in lines:
+        line = re.sub(r"^\[\d\d:\d\d:\d\d\]\s*", "", raw).strip()
+        match = _POSITION.search(line)
+        if match:
+            position = int(match.group(1)) - 1
+        elif not reason and ("Error" in line or "error" in line or "Explicit valence" in line or "Can't kekulize" in line):
+            reason = re.sub(r"^SMILES Parse Error:\s*", "", line)
+            reason = re.sub(r"\s*while parsing:.*$", "", reason)
+    return reason or "RDKit could not read it", position
+
+
+def read_smiles(smiles: str, sanitize: bool = True) -> tuple[Optional[Chem.Mol], str, Optional[int]]:
+    """(mol, reason, position): mol is None when RDKit rejects the SMILES."""
+    params = Chem.SmilesParserParams()
+    params.removeHs = False
+    params.sanitize = False
+    with rdkit_messages() as lines:
+        mol = Chem.MolFromSmiles(smiles, params) if smiles.strip() else None
+        if mol is not None and sanitize:
+            try:
+                Chem.SanitizeMol(mol)
+            except Exception as exc:  # RDKit raises several sanitization exception types
+                lines.append(f"Error: {exc}")
+                mol = None
+    if mol is None:
+        if not smiles.strip():
+            return None, "empty SMILES", 0
+        reason, position = explain_smiles_failure(lines)
+        return None, reason, position
+    return mol, "", None
+
+
+def valence_electrons(atomic_num: int) -> int:
+    return _PERIODIC.GetNOuterElecs(atomic_num)
+
+
+def period(atomic_num: int) -> int:
+    for limit, row in ((2, 1), (10, 2), (18, 3), (36, 4), (54, 5), (86, 6)):
+        if atomic_num <= limit:
+            return row
+    return 7
+
+
+def canonical(mol: Chem.Mol, keep_maps: frozenset[int] = frozenset()) -> str:
+    """Canonical SMILES with aromaticity perceived, hydrogens implicit and atom maps removed
+    (except the map numbers in keep_maps)."""
+    work = Chem.RWMol(mol)
+    for atom in work.GetAtoms():
+        if atom.GetAtomMapNum() and atom.GetAtomMapNum() not in keep_maps:
+            atom.SetAtomMapNum(0)
+    Chem.SanitizeMol(work)
+    work = Chem.RemoveHs(work, sanitize=False)
+    return Chem.MolToSmiles(work)

@@ -1,0 +1,196 @@
+"""Replaying a mechanism: species -> starting state -> the state after every step."""
+from __future__ import annotations
+
+from dataclasses import dataclass, field
+from functools import cached_property
+from typing import Iterator, Optional
+
+from rdkit import Chem
+
+from .diagnostics import Diagnostic
+from .electrons import ElectronState, StepChange, apply_step, initial_nonbonding
+from .model import AtomRef, AtomSink, BondPair, BondSink, HydrogenOn, LonePair, UnpairedElectron, BareAtom, Location, Mechanism, Species, Step
+from .rdkit_io import canonical, read_smiles
+
+
+@dataclass
+class StepTrace:
+    index: int
+    step: Step
+    before: ElectronState
+    after: Optional[ElectronState]
+    change: StepChange
+    entered: tuple[int, ...] = ()         # atoms that joined with `uses`
+    released_now: tuple[int, ...] = ()    # atoms whose fragment left after this step
+
+    @property
+    def derived(self) -> bool:
+        return self.after is not None
+
+
+@dataclass
+class Trace:
+    mechanism: Mechanism
+    initial: Optional[ElectronState]
+    steps: list[StepTrace] = field(default_factory=list)
+    diagnostics: list[Diagnostic] = field(default_factory=list)
+
+    @property
+    def complete(self) -> bool:
+        """Every step was derived."""
+        return self.initial is not None and len(self.steps) == len(self.mechanism.steps) and all(
+            s.derived for s in self.steps)
+
+    @property
+    def final(self) -> Optional[ElectronState]:
+        if not self.complete:
+            return None
+        return self.steps[-1].after if self.steps else self.initial
+
+    def states(self) -> Iterator[ElectronState]:
+        """The starting state, then the state after each derived step."""
+        if self.initial is not None:
+            yield self.initial
+        for s in self.steps:
+            if s.after is not None:
+                yield s.after
+
+
+def hydrogen_parents(mechanism: Mechanism) -> set[int]:
+    """Map numbers of atoms whose hydrogens some move names: those hydrogens become explicit atoms."""
+    parents: set[int] = set()
+
+    def visit(ref) -> None:
+        if isinstance(ref, HydrogenOn):
+            parents.add(ref.parent.map_number)
+
+    for step in mechanism.steps:
+        for move in step.moves:
+            src, sink = move.source, move.sink
+            if isinstance(src, BondPair):
+                visit(src.bond.first), visit(src.bond.second)
+            else:
+                visit(src.atom)
+            if isinstance(sink, BondSink):
+                visit(sink.bond.first), visit(sink.bond.second)
+            else:
+                visit(sink.atom)
+    return parents
+
+
+def species_mol(species: Species, explicit_h_on: set[int]) -> tuple[Optional[Chem.Mol], Optional[Diagnostic]]:
+    """A species as a Kekulé Mol whose hydrogen counts are fixed (never recomputed by RDKit), with
+    explicit hydrogen atoms on the atoms whose hydrogens move."""
+    mol, reason, position = read_smiles(species.smiles)
+    if mol is None:
+        loc = species.smiles_loc
+        if position is not None:
+            loc = Location(loc.file, loc.line, loc.column + position)
+        return None, Diagnostic("AR102", f"RDKit cannot read the SMILES of {species.name}: {reason}", loc,
+                                hint="check brackets, ring-closure digits and charges; map numbers go inside "
+                                     "brackets, e.g. [CH2:3]")
+    Chem.Kekulize(mol, clearAromaticFlags=True)
+    for atom in mol.GetAtoms():
+        atom.SetNumExplicitHs(atom.GetTotalNumHs(includeNeighbors=False))
+        atom.SetNoImplicit(True)
+    targets = [a.GetIdx() for a in mol.GetAtoms() if a.GetAtomMapNum() in explicit_h_on and a.GetNumExplicitHs()]
+    if targets:
+        mol = Chem.AddHs(mol, onlyOnAtoms=targets)
+        for atom in mol.GetAtoms():
+            atom.SetNoImplicit(True)
+    return mol, None
+
+
+def _map_numbers(mol: Chem.Mol) -> list[int]:
+    return [a.GetAtomMapNum() for a in mol.GetAtoms() if a.GetAtomMapNum()]
+
+
+def _fragment_of(mol: Chem.Mol, index: int) -> set[int]:
+    for frag in Chem.GetMolFrags(mol, asMols=False, sanitizeFrags=False):
+        if index in frag:
+            return set(frag)
+    return {index}
+
+
+def replay(mechanism: Mechanism) -> Trace:
+    """Derive every state of the mechanism. Stops at the first step whose moves cannot be applied;
+    the reasons are in `trace.diagnostics`."""
+    diags: list[Diagnostic] = []
+    explicit_h_on = hydrogen_parents(mechanism)
+
+    # Load every species up front so that every bad SMILES and duplicate is reported at once.
+    names: dict[str, Location] = {}
+    seen_maps: dict[int, Location] = {}
+    loaded: dict[int, Chem.Mol] = {}
+    entered_later: dict[int, int] = {}
+    declared = [(None, s) for s in mechanism.species] + [
+        (i, s) for i, step in enumerate(mechanism.steps) for s in step.uses]
+    for position, (step_index, sp) in enumerate(declared):
+        if sp.name in names:
+            diags.append(Diagnostic("AR108", f"the name `{sp.name}` is already used (line {names[sp.name].line})",
+                                    sp.loc, hint="give each species its own name"))
+        names.setdefault(sp.name, sp.loc)
+        mol, problem = species_mol(sp, explicit_h_on)
+        if problem:
+            diags.append(problem)
+            continue
+        for number in _map_numbers(mol):
+            if number in seen_maps:
+                diags.append(Diagnostic("AR103", f"map number {number} is already used (line {seen_maps[number].line})",
+                                        sp.smiles_loc, hint="map numbers are unique across the whole mechanism"))
+            seen_maps.setdefault(number, sp.loc)
+            if step_index is not None:
+                entered_later.setdefault(number, step_index)
+        loaded[position] = mol
+    if diags:
+        return Trace(mechanism, None, [], diags)
+
+    start = Chem.Mol()
+    for position in range(len(mechanism.species)):
+        start = Chem.CombineMols(start, loaded[position])
+    state = ElectronState(start, tuple(initial_nonbonding(start)))
+    trace = Trace(mechanism, state, [], diags)
+    map_index = {a.GetAtomMapNum(): a.GetIdx() for a in start.GetAtoms() if a.GetAtomMapNum()}
+
+    position = len(mechanism.species)
+    for index, step in enumerate(mechanism.steps):
+        entered: list[int] = []
+        if step.uses:
+            mol = state.mol
+            for _ in step.uses:
+                offset = mol.GetNumAtoms()
+                incoming = loaded[position]
+                position += 1
+                mol = Chem.CombineMols(mol, incoming)
+                entered.extend(range(offset, offset + incoming.GetNumAtoms()))
+                for atom in incoming.GetAtoms():
+                    if atom.GetAtomMapNum():
+                        map_index[atom.GetAtomMapNum()] = offset + atom.GetIdx()
+                        entered_later.pop(atom.GetAtomMapNum(), None)
+            state = ElectronState(mol, state.nonbonding + tuple(initial_nonbonding(mol)[len(state.nonbonding):]),
+                                  state.released)
+        after, change, step_diags = apply_step(state, step, index, map_index, entered_later)
+        diags.extend(step_diags)
+        released_now: list[int] = []
+        if after is not None and step.releases:
+            released = set(after.released)
+            for ref in step.releases:
+                atom_index = map_index.get(ref.map_number)
+                if atom_index is None:
+                    diags.append(Diagnostic("AR104", f"no atom carries map number {ref.map_number}", ref.loc,
+                                            hint="`releases` names a mapped atom of the leaving fragment", step=index))
+                    continue
+                fragment = _fragment_of(after.mol, atom_index) - released
+                released_now.extend(sorted(fragment))
+                released |= fragment
+            after = ElectronState(after.mol, after.nonbonding, frozenset(released))
+        trace.steps.append(StepTrace(index, step, state, after, change, tuple(entered), tuple(released_now)))
+        if after is None:
+            break
+        state = after
+    return trace
+
+
+def state_smiles(state: ElectronState) -> str:
+    """Canonical SMILES of a whole state (released fragments included)."""
+    return canonical(state.mol)
