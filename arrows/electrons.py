@@ -87,6 +87,22 @@ def initial_nonbonding(mol: Chem.Mol) -> list[int]:
     return out
 
 
+@dataclass(frozen=True)
+class ResolvedMove:
+    """A move with its atoms resolved to indices, for drawing and analysis.
+
+    source_kind is "lone_pair", "unpaired" or "bond"; source_atoms holds one atom (lone pair,
+    unpaired electron) or the two atoms of the bond. sink_atoms holds one atom when the electrons
+    end as non-bonding electrons on it, or two atoms for the bond that forms or gains order.
+    """
+
+    move: Move
+    source_kind: str
+    source_atoms: tuple[int, ...]
+    sink_atoms: tuple[int, ...]
+    electrons: int
+
+
 @dataclass
 class StepChange:
     """What one step did, by atom index: bonds formed, broken and changed, charge changes."""
@@ -97,6 +113,7 @@ class StepChange:
     charges: list[tuple[int, int, int]] = field(default_factory=list)      # (atom, before, after)
     touched_atoms: list[int] = field(default_factory=list)
     move_atoms: list[tuple[int, ...]] = field(default_factory=list)       # resolved atoms of each move
+    moves: list[ResolvedMove] = field(default_factory=list)
 
 
 class _StepFailed(Exception):
@@ -119,6 +136,7 @@ class _StepReplay:
         self.used_unpaired: dict[int, int] = {}
         self.written_sinks: list[tuple[Pair, int, Location, str]] = []
         self.move_atoms: list[tuple[int, ...]] = []
+        self.resolved: list[ResolvedMove] = []
         self.first_move_on_bond: dict[Pair, Move] = {}
         self._hydrogen_choice: dict[int, int] = {}
 
@@ -290,6 +308,8 @@ class _StepReplay:
             raise _StepFailed
         self.change_bond(x, y, n, move)
         self.move_atoms.append((x, y))
+        kind = "lone_pair" if isinstance(move.source, LonePair) else "unpaired"
+        self.resolved.append(ResolvedMove(move, kind, (x,), (x, y), n))
 
     def detach(self, move: Move, ends: tuple[int, int], sink) -> None:
         """Electrons from bond ends go to a sink: one of its own atoms, or a bond sharing an atom."""
@@ -305,6 +325,7 @@ class _StepReplay:
                 raise _StepFailed
             self.give_to_atom(y, n)
             self.move_atoms.append((a, b, y))
+            self.resolved.append(ResolvedMove(move, "bond", (a, b), (y,), n))
             return
         y, z = self.resolve(sink.bond.first), self.resolve(sink.bond.second)
         shared = {a, b} & {y, z}
@@ -321,6 +342,7 @@ class _StepReplay:
         self.written_sinks.append((pair(pivot, other), sink.bond.order, sink.loc, str(sink.bond)))
         self.change_bond(pivot, other, n, move)
         self.move_atoms.append((a, b, other))
+        self.resolved.append(ResolvedMove(move, "bond", (a, b), (pivot, other), n))
 
 
 def _rewrite(bond: BondRef, order: int) -> str:
@@ -339,6 +361,7 @@ def apply_step(state: ElectronState, step: Step, step_index: int, map_index: dic
         except _StepFailed:
             return None, change, replay.diagnostics
     change.move_atoms = replay.move_atoms
+    change.moves = replay.resolved
     return _settle(state, step, step_index, replay, change)
 
 
