@@ -1,0 +1,129 @@
+"""Electron bookkeeping against outside definitions.
+
+Formal charge: IUPAC Gold Book, "formal charge": FC = V - N - B/2 (memory), with B/2 the bond order
+sum. Lone-pair counts: Lewis structures as drawn in any introductory organic text (common practice).
+RDKit is the independent judge of the charges written in SMILES and of sanitization.
+"""
+import pytest
+from rdkit import Chem
+
+from arrows import check_text
+from arrows.electrons import ElectronState, initial_nonbonding
+from arrows.rdkit_io import valence_electrons
+from arrows.trace import species_mol
+from arrows.model import Species
+
+
+def _state(smiles: str) -> ElectronState:
+    mol, problem = species_mol(Species("x", smiles), set())
+    assert problem is None
+    return ElectronState(mol, tuple(initial_nonbonding(mol)))
+
+
+@pytest.mark.parametrize("smiles, symbol, lone_pairs, charge", [
+    ("O", "O", 2, 0),            # water: two lone pairs on O (common practice)
+    ("[OH-]", "O", 3, -1),       # hydroxide
+    ("[OH3+]", "O", 1, +1),      # hydronium
+    ("[NH4+]", "N", 0, +1),      # ammonium
+    ("N", "N", 1, 0),            # ammonia
+    ("[CH3+]", "C", 0, +1),      # methyl cation: no lone pair
+    ("[CH3-]", "C", 1, -1),      # methyl anion: one lone pair
+    ("[Br-]", "Br", 4, -1),      # bromide: four lone pairs
+])
+def test_lone_pairs_and_gold_book_formal_charge(smiles, symbol, lone_pairs, charge):
+    state = _state(smiles)
+    i = next(a.GetIdx() for a in state.mol.GetAtoms() if a.GetSymbol() == symbol)
+    assert state.nonbonding[i] // 2 == lone_pairs
+    # Gold Book: FC = V - N - B/2, and RDKit read the same charge from the SMILES text.
+    assert state.formal_charge(i) == charge == Chem.MolFromSmiles(smiles).GetAtomWithIdx(i).GetFormalCharge()
+
+
+def test_methyl_radical_has_one_unpaired_electron():
+    state = _state("[CH3]")
+    assert state.nonbonding[0] == 1 and state.formal_charge(0) == 0
+
+
+def test_nitromethane_charge_separation():
+    """Nitro group: N+ and one O- (common practice); V - N - B reproduces both."""
+    state = _state("C[N+](=O)[O-]")
+    charges = sorted(state.formal_charge(i) for i in range(state.mol.GetNumAtoms()))
+    assert charges == [-1, 0, 0, +1]
+
+
+def _final(text: str):
+    trace, diags = check_text(text)
+    assert not [d for d in diags if d.severity == "error"], [d.to_text() for d in diags]
+    return trace
+
+
+def test_homolysis_gives_two_radicals():
+    """Br-Br homolysis with two fishhooks gives two bromine atoms (textbook radical initiation)."""
+    trace = _final('''
+species bromine = "[Br:1][Br:2]"
+step "homolysis"
+    Br1-Br2 ~> Br1
+    Br1-Br2 ~> Br2
+end
+''')
+    after = trace.final
+    assert after.mol.GetNumBonds() == 0
+    assert [a.GetNumRadicalElectrons() for a in after.mol.GetAtoms()] == [1, 1]
+    assert [after.formal_charge(i) for i in range(2)] == [0, 0]
+
+
+def test_radical_recombination_makes_a_two_electron_bond():
+    """Two methyl radicals combine to ethane (textbook termination step)."""
+    trace = _final('''
+species a = "[CH3:1]"
+species b = "[CH3:2]"
+step "recombination"
+    .C1 ~> C1-C2
+    .C2 ~> C1-C2
+end
+product "CC"
+''')
+    from arrows.rdkit_io import canonical
+    assert canonical(trace.final.mol) == Chem.CanonSmiles("CC")
+    assert trace.final.mol.GetBondBetweenAtoms(0, 1).GetBondTypeAsDouble() == 1.0
+
+
+def test_sources_are_judged_before_the_step():
+    """In one concerted step O9 may give back a pair while the C2=C3 pair leaves: both sources are
+    read from the state before the step (language.md: moves in a step happen together)."""
+    _final('''
+species enolate = "[CH3:1][C:2]([O-:9])=[CH:3][CH2:4][CH2:5][CH2:6][C:7](=[O:10])[CH3:8]"
+step "ring closure"
+    :O9 -> C2=O9
+    C2=C3 -> C3-C7
+    C7=O10 -> O10
+end
+product "CC(=O)C1CCCC1(C)[O-]"
+''')
+
+
+def test_hydrogen_count_changes_only_through_moves():
+    """Spectator atoms keep their hydrogen counts through every step (no implicit-H fix-up)."""
+    trace = _final('''
+species acetone = "[CH3:1][C:2](=[O:3])[CH3:4]"
+species base = "[OH-:5]"
+step "deprotonation"
+    :O5 -> H(C1)
+    C1-H -> C1=C2
+    C2=O3 -> O3
+end
+''')
+    before = trace.initial.mol
+    after = trace.final.mol
+    c4_before = next(a for a in before.GetAtoms() if a.GetAtomMapNum() == 4)
+    c4_after = next(a for a in after.GetAtoms() if a.GetAtomMapNum() == 4)
+    assert c4_before.GetTotalNumHs(includeNeighbors=True) == c4_after.GetTotalNumHs(includeNeighbors=True) == 3
+    c1_after = next(a for a in after.GetAtoms() if a.GetAtomMapNum() == 1)
+    assert c1_after.GetTotalNumHs(includeNeighbors=True) == 2
+    # Electron count: every valence electron is either non-bonding or in a bond.
+    for state in trace.states():
+        total_v = sum(valence_electrons(a.GetAtomicNum()) for a in state.mol.GetAtoms()) + sum(
+            a.GetNumExplicitHs() for a in state.mol.GetAtoms())
+        charge = sum(state.formal_charge(i) for i in range(state.mol.GetNumAtoms()))
+        in_bonds = 2 * sum(int(b.GetBondTypeAsDouble()) for b in state.mol.GetBonds()) + 2 * sum(
+            a.GetNumExplicitHs() for a in state.mol.GetAtoms())
+        assert sum(state.nonbonding) + in_bonds == total_v - charge
