@@ -55,6 +55,13 @@ CODES = _table(
     Code("AR109", ERROR, "no such hydrogen",
          "`H(X)` or `X-H` names a hydrogen on X, but X carries none at that point.",
          'species ion = "[O-:1]C"\nstep "s"\n    O1-H -> O1\nend'),
+    Code("AR110", ERROR, "data-set record is not JSON",
+         "A line of a JSONL data set (`arrows check --jsonl`) is not UTF-8 JSON text, or not a JSON object.",
+         '{"id": "r1", "text": "species w = ..."   # the closing brace is missing'),
+    Code("AR111", ERROR, "data-set record does not follow the schema",
+         "A JSONL record lacks a field or gives one of the wrong type; arrows/jsonl-input.schema.json "
+         "describes the record.",
+         '{"id": "r2", "steps": []}   # neither "text" nor "species" is given'),
     Code("AR201", ERROR, "no electrons at the source",
          "An arrow starts at electrons that are not there: a lone pair on an atom that has none, a bond "
          "that does not exist, or an unpaired electron on a closed-shell atom.",
