@@ -89,6 +89,10 @@ def species_mol(species: Species, explicit_h_on: set[int]) -> tuple[Optional[Che
         return None, Diagnostic("AR102", f"RDKit cannot read the SMILES of {species.name}: {reason}", loc,
                                 hint="check brackets, ring-closure digits and charges; map numbers go inside "
                                      "brackets, e.g. [CH2:3]")
+    # Rebuild without aromaticity perception: a Kekulé structure written by the author keeps its
+    # double bonds (the arrows name them); lower-case aromatic input is kekulized by RDKit.
+    mol, _, _ = read_smiles(species.smiles, sanitize=False)
+    Chem.SanitizeMol(mol, Chem.SanitizeFlags.SANITIZE_ALL ^ Chem.SanitizeFlags.SANITIZE_SETAROMATICITY)
     Chem.Kekulize(mol, clearAromaticFlags=True)
     for atom in mol.GetAtoms():
         atom.SetNumExplicitHs(atom.GetTotalNumHs(includeNeighbors=False))

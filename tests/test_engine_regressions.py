@@ -1,0 +1,47 @@
+"""Correct mechanisms the engine once rejected, each reduced to its smallest form."""
+from rdkit import Chem
+
+from arrows.api import check_text
+from arrows.trace import species_mol
+from arrows.model import Species
+
+
+def _errors(text: str) -> list[str]:
+    _, diags = check_text(text)
+    return [d.to_text() for d in diags if d.severity == "error"]
+
+
+def test_species_keeps_the_kekule_structure_the_author_wrote():
+    """A benzene written as C6=C1, C2=C3, C4=C5 keeps those double bonds: the author's arrows name
+    them. (Both Kekulé structures are valid contributors of benzene, common practice; RDKit's own
+    kekulization of the aromatic form may pick the other one.)"""
+    mol, problem = species_mol(Species("benzene", "[CH:6]1=[CH:1][CH:2]=[CH:3][CH:4]=[CH:5]1"), set())
+    assert problem is None
+    by_map = {a.GetAtomMapNum(): a.GetIdx() for a in mol.GetAtoms()}
+    for first, second, order in [(6, 1, 2), (1, 2, 1), (2, 3, 2), (3, 4, 1), (4, 5, 2), (5, 6, 1)]:
+        bond = mol.GetBondBetweenAtoms(by_map[first], by_map[second])
+        assert bond.GetBondTypeAsDouble() == order, (first, second)
+
+
+def test_electrophile_attacks_the_written_pi_bond_of_benzene():
+    """Bromination of benzene, first step: the C1=C6 pi pair written in the species attacks Br+
+    and leaves the cation on C6 (arenium ion; textbook electrophilic aromatic substitution, memory)."""
+    text = '''
+species benzene = "[CH:6]1=[CH:1][CH:2]=[CH:3][CH:4]=[CH:5]1"
+species electrophile = "[Br+:7]"
+step "attack"
+    C1=C6 -> C1-Br7
+end
+product "BrC1C=CC=C[CH+]1"
+'''
+    assert _errors(text) == []
+
+
+def test_aromatic_species_still_kekulized():
+    """Lower-case aromatic SMILES still give a Kekulé state with integral bond orders and pyrrole's N-H kept."""
+    mol, problem = species_mol(Species("pyrrole", "c1cc[nH:1]c1"), set())
+    assert problem is None
+    assert all(b.GetBondType() in (Chem.BondType.SINGLE, Chem.BondType.DOUBLE) for b in mol.GetBonds())
+    assert not any(a.GetIsAromatic() for a in mol.GetAtoms())
+    nitrogen = next(a for a in mol.GetAtoms() if a.GetAtomMapNum() == 1)
+    assert nitrogen.GetTotalNumHs() == 1
