@@ -246,6 +246,7 @@ class _StepReplay:
             self.used_unpaired[x] = self.used_unpaired.get(x, 0) + 1
             if self.used_unpaired[x] > 1:
                 self.fail("AR203", f"the unpaired electron on {label} is used twice in this step", src.loc,
+                          "a radical centre has one unpaired electron: one fishhook may start there per step",
                           atoms=(label,))
                 raise _StepFailed
             return
@@ -304,7 +305,8 @@ class _StepReplay:
             y = ends[1] if ends[0] == x else ends[0]
             self.written_sinks.append((pair(x, y), sink.bond.order, sink.loc, str(sink.bond)))
         if y == x:
-            self.fail("AR210", f"the arrow from {self.state.label(x)} ends where it starts", sink.loc)
+            self.fail("AR210", f"the arrow from {self.state.label(x)} ends where it starts", sink.loc,
+                      "end the arrow at the atom that receives the electrons, or at the bond that forms")
             raise _StepFailed
         self.change_bond(x, y, n, move)
         self.move_atoms.append((x, y))

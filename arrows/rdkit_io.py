@@ -27,13 +27,15 @@ def rdkit_messages() -> Iterator[list[str]]:
     rdBase.LogToPythonLogger()
     logger = logging.getLogger("rdkit")
     handler = _Collect()
-    old_propagate = logger.propagate
-    logger.addHandler(handler)
+    # RDKit attaches its own stderr handler to this logger: set it aside, or every message is
+    # printed as well as collected.
+    old_handlers, old_propagate = logger.handlers[:], logger.propagate
+    logger.handlers = [handler]
     logger.propagate = False
     try:
         yield handler.lines
     finally:
-        logger.removeHandler(handler)
+        logger.handlers = old_handlers
         logger.propagate = old_propagate
 
 
