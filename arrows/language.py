@@ -212,71 +212,148 @@ _TERMINAL_WORDS = {
     "REVERSIBLE": "`reversible`", "RESONANCE": "`resonance`", "OVER": "`over`", "UNDER": "`under`",
     "$END": "the end of the file",
 }
+_STATEMENTS = {"TITLE", "CAPTION", "SPECIES", "STEP", "PRODUCT"}
+_MOVE_STARTS = {"COLON", "RADICAL_DOT", "ATOM", "H"}
+_KEYWORDS = _STATEMENTS | {"END", "USES", "RELEASES", "EXPECT", "ALL", "REVERSIBLE", "RESONANCE", "OVER", "UNDER"}
+# What a keyword's quoted string holds, for the hint when the quotes are missing.
+_STRING_AFTER = {"species": "SMILES", "uses": "SMILES", "expect": "SMILES", "product": "SMILES", "all": "SMILES",
+                 "step": "label", "over": "text", "under": "text", "title": "text", "caption": "text"}
+
+
+def _or_list(words: list[str]) -> str:
+    return words[0] if len(words) == 1 else ", ".join(words[:-1]) + " or " + words[-1]
 
 
 def _expected_words(expected) -> str:
-    words = sorted({_TERMINAL_WORDS.get(t, t) for t in expected if not t.startswith("__")})
-    if len(words) > 6:
-        return "a statement or a move"
-    return ", ".join(words) if words else "something else"
+    kinds = {t for t in expected if not t.startswith("__")}
+    if "END" in kinds and _MOVE_STARTS <= kinds:
+        return "a move, `uses`, `releases`, `expect` or `end`"
+    if _STATEMENTS <= kinds:
+        return "a statement (title, caption, species, step or product)"
+    if {"ATOM", "H"} <= kinds:
+        kinds = (kinds - {"ATOM", "H"}) | {"ATOM_OR_H"}
+    words = sorted("an atom such as C7, or H(C3)" if t == "ATOM_OR_H" else _TERMINAL_WORDS.get(t, t) for t in kinds)
+    return _or_list(words) if words else "something else"
 
 
-def _hint_for(exc: UnexpectedInput, text: str) -> str:
-    line = text.splitlines()[exc.line - 1] if 0 < exc.line <= len(text.splitlines()) else ""
+def _word_at(text: str, pos: int) -> str:
+    """The run of non-blank characters starting at pos (at most 20), for quoting in a message."""
+    end = pos
+    while end < len(text) and end - pos < 20 and not text[end].isspace():
+        end += 1
+    return text[pos:end] or text[pos:pos + 1]
+
+
+def _shown(word: str) -> str:
+    return f"`{word}`" if word.isprintable() else repr(word)
+
+
+def _open_step_line(text: str, before_line: int) -> int:
+    """Line of the last `step` opened before `before_line` (1-based), 0 if none."""
+    for number in range(min(before_line, len(text.splitlines())), 0, -1):
+        if text.splitlines()[number - 1].lstrip().startswith("step"):
+            return number
+    return 0
+
+
+def _hint_for(exc: UnexpectedInput, text: str, found: str) -> str:
+    lines = text.splitlines()
+    line = lines[exc.line - 1] if 0 < exc.line <= len(lines) else ""
     rest = line[exc.column - 1:] if exc.column > 0 else line
+    first_word = (line.split() or [""])[0]
     expected = set(getattr(exc, "expected", None) or getattr(exc, "allowed", None) or ())
     token = getattr(exc, "token", None)
     tok_type = getattr(token, "type", "")
+    word = found.strip("`")
     if isinstance(exc, UnexpectedEOF) or tok_type == "$END":
         if "END" in expected:
-            return "a step is still open: close it with `end`"
+            opened = _open_step_line(text, len(lines))
+            return f"the step opened on line {opened} is still open: close it with `end`" if opened else \
+                "a step is still open: close it with `end`"
         return "the file ends in the middle of a statement"
     if tok_type in ("STEP", "SPECIES", "PRODUCT", "TITLE", "CAPTION") and "END" in expected:
-        return "the step before this line has no `end`"
-    if "STRING" in expected and rest[:1] not in ('"',):
-        return 'SMILES and labels go in double quotes, e.g. species water = "[OH2:12]"'
+        opened = _open_step_line(text, exc.line - 1)
+        where = f" (line {opened})" if opened else ""
+        return f"the step before this line{where} has no `end`: close it before the next statement"
+    if tok_type == "END" and _STATEMENTS <= expected:
+        return "`end` closes a step, but no step is open here"
+    if rest[:1] == '"' and rest.count('"') == 1:
+        return 'this string has no closing `"`; a string ends on the line where it starts'
+    if "STRING" in expected and rest[:1] != '"':
+        if tok_type == "EQUAL" or rest[:1] == "=":
+            return 'write a single `=` between the name and the quoted SMILES'
+        if tok_type in _KEYWORDS:
+            return f"a quoted string is missing before {found}: the keyword before it needs one"
+        holds = _STRING_AFTER.get(first_word, "text")
+        example = 'species water = "[OH2:12]"' if holds == "SMILES" else 'step "enolate formation"'
+        return f'the {holds} goes in double quotes: write "{word}" (as in {example})'
+    if "EQUAL" in expected:
+        return f'a species is named with `=`: {first_word or "species"} NAME = "SMILES"'
+    if "NAME" in expected:
+        if tok_type == "STRING":
+            return f'`{first_word}` needs a name before the SMILES: {first_word} water = {word}'
+        return "a name starts with a letter or `_` and holds letters, digits and `_`"
+    letters = "".join(c for c in word if c.isalpha())
+    if expected & {"ATOM", "H"} and word[:1].isalpha() and len(letters) <= 2:
+        if word[:1].islower():
+            return f"element symbols start with a capital letter: write {letters.capitalize()}" \
+                   f"{''.join(c for c in word if c.isdigit()) or '7'}"
+        if not any(c.isdigit() for c in word):
+            return (f"an atom is named by its element and map number: write {letters}7 for the atom "
+                    f"written [{letters}:7] in a species SMILES; a hydrogen is H(C3)")
+    if tok_type == "BOND" and "ARROW" in expected:
+        return f"`{word}` is a bond between two atoms; an arrow is written -> (pair) or ~> (single electron)"
+    if tok_type == "ARROW":
+        return "one arrow per move: write the next arrow as a move of its own, on its own line"
     if isinstance(exc, UnexpectedCharacters):
         ch = rest[:1]
-        if ch.isalpha():
-            word = "".join(c for c in rest if c.isalnum())
-            if word and word[0].isupper() and not any(c.isdigit() for c in word):
-                return f"an atom needs its map number: write {word}7 (element + map number), or H(C3) for a hydrogen"
-            return f"`{word}` is not a keyword of the language (title, caption, species, step, end, product, uses, releases, expect)"
+        if ch in "→⇒⟶➔":
+            return "type the arrow as -> (pair) or ~> (single electron)"
         if ch == "'":
             return "strings use double quotes"
         if ch == ">":
             return "an arrow is written -> (pair) or ~> (single electron)"
+        if ch.isalpha():
+            letters = "".join(c for c in rest.split()[0] if c.isalnum()) if rest.split() else ch
+            if letters[:1].isupper() and not any(c.isdigit() for c in letters):
+                return (f"an atom needs its map number: write {letters}7 (element + map number), "
+                        f"or H(C3) for a hydrogen")
+            return (f"`{letters}` is not a keyword of the language (title, caption, species, step, end, "
+                    f"product, uses, releases, expect)")
     if tok_type == "ATOM" and "ARROW" in expected:
         return "between two atoms write a bond: - single, = double, # triple"
     if tok_type == "ATOM" and "BOND" in expected:
         return "a source and its sink are joined by -> (pair) or ~> (one electron)"
-    if tok_type == "BOND" and "ARROW" in expected:
-        return "an arrow is written -> (pair) or ~> (single electron)"
     if tok_type == "NAME" and "END" in expected:
-        word = str(token)
-        if word[:1].isupper():
+        if word[:1].isupper() and len(letters) <= 2 and not any(c.isdigit() for c in word):
             return f"an atom needs its map number: write {word}7 (element + map number)"
         return f"`{word}` is not a keyword here; inside a step: moves, uses, releases, expect, end"
+    if _STATEMENTS <= expected:
+        if tok_type == "STRING":
+            return "a quoted string follows a keyword: title, caption, species NAME =, step or product"
+        return f"`{word}` is not a keyword; a file holds title, caption, species, step and product statements"
+    if "RPAR" in expected:
+        return "close the hydrogen's parentheses: H(C3)"
     return "see the language summary in README.md"
 
 
 def syntax_diagnostic(exc: UnexpectedInput, text: str, file: str) -> Diagnostic:
     line, column = max(exc.line, 1), max(exc.column, 1)
-    if isinstance(exc, UnexpectedEOF):
+    token = getattr(exc, "token", None)
+    if isinstance(exc, UnexpectedEOF) or getattr(token, "type", "") == "$END":
         lines = text.splitlines() or [""]
         line, column = len(lines), len(lines[-1]) + 1
-    token = getattr(exc, "token", None)
     if isinstance(exc, UnexpectedCharacters):
-        found = repr(text[exc.pos_in_stream:exc.pos_in_stream + 1])
+        found = _shown(_word_at(text, exc.pos_in_stream))
         expected = _expected_words(exc.allowed or ())
-    elif isinstance(exc, UnexpectedEOF):
+    elif isinstance(exc, UnexpectedEOF) or (token is not None and token.type == "$END"):
         found = "the end of the file"
         expected = _expected_words(exc.expected or ())
     else:
-        found = "the end of the file" if token is not None and token.type == "$END" else f"`{token}`"
+        found = _shown(str(token))
         expected = _expected_words(exc.expected or ())
     return Diagnostic("AR101", f"unexpected {found}; expected {expected}", Location(file, line, column),
-                      hint=_hint_for(exc, text))
+                      hint=_hint_for(exc, text, found))
 
 
 def parse(text: str, file: str = "<text>") -> Mechanism:

@@ -1,0 +1,318 @@
+"""The mechanism language (shared design: language.md): every construct parses into the model with
+its line and column, and the common slips give a located syntax error that names the offending text,
+says in words what was expected, and gives a hint."""
+from __future__ import annotations
+
+import pytest
+
+from arrows import MechanismError, parse
+from arrows.model import (AtomRef, AtomSink, BareAtom, BondPair, BondSink, HydrogenOn, LonePair,
+                          UnpairedElectron)
+
+# The worked example of the language (base-mediated ring closure of octane-2,7-dione), with the
+# comments it is written with.
+EXAMPLE = '''\
+# Base-mediated ring closure of octane-2,7-dione
+title   "Ring closure of octane-2,7-dione"
+caption "Hydroxide forms the C3 enolate, which closes a five-membered ring onto C7."
+
+species dione = "[CH3:1][C:2](=[O:9])[CH2:3][CH2:4][CH2:5][CH2:6][C:7](=[O:10])[CH3:8]"
+species base  = "[OH-:11]"
+
+step "enolate formation" reversible over "NaOH" under "EtOH, 25 °C"
+    :O11 -> H(C3)       # a lone pair of O11 takes a proton from C3
+    C3-H -> C2=C3       # the C3-H pair becomes the C2=C3 pi bond
+    C2=O9 -> O9         # the C=O pi pair moves onto O9
+end
+
+step "ring closure"
+    :O9 -> C2=O9        # O9 gives a pair back: C=O re-forms
+    C2=C3 -> C3-C7      # the enolate pi pair forms the new C3-C7 bond
+    C7=O10 -> O10       # the C7=O10 pi pair moves onto O10
+end
+
+step "proton transfer"
+    uses water = "[OH2:12]"
+    :O10 -> H(O12)
+    O12-H -> O12
+    expect "CC(=O)C1CCCC1(C)O"   # checkpoint: the aldol addition product
+end
+
+product "CC(=O)C1CCCC1(C)O"
+'''
+
+
+def where(node) -> tuple[int, int]:
+    return node.loc.line, node.loc.column
+
+
+def test_worked_example_parses_into_the_model():
+    m = parse(EXAMPLE, "example.mech")
+    assert m.title == "Ring closure of octane-2,7-dione"
+    assert m.caption.startswith("Hydroxide forms")
+    assert [s.name for s in m.species] == ["dione", "base"]
+    assert [s.label for s in m.steps] == ["enolate formation", "ring closure", "proton transfer"]
+    first = m.steps[0]
+    assert (first.kind, first.over, first.under) == ("reversible", "NaOH", "EtOH, 25 °C")
+    assert [str(mv) for mv in first.moves] == [":O11 -> H(C3)", "C3-H -> C2=C3", "C2=O9 -> O9"]
+    assert m.steps[2].uses[0].name == "water" and m.steps[2].uses[0].smiles == "[OH2:12]"
+    assert m.steps[2].expects[0].smiles == "CC(=O)C1CCCC1(C)O"
+    assert m.product.smiles == "CC(=O)C1CCCC1(C)O" and not m.product.whole_state
+    assert m.source_name == "example.mech"
+
+
+def test_locations_on_nodes():
+    m = parse(EXAMPLE, "example.mech")
+    dione, base = m.species
+    assert where(dione) == (5, 1)
+    assert (dione.smiles_loc.line, dione.smiles_loc.column) == (5, 18)   # just inside the quote
+    assert where(base) == (6, 1)
+    step = m.steps[0]
+    assert where(step) == (8, 1)
+    move = step.moves[1]                      # "    C3-H -> C2=C3"
+    assert where(move) == (10, 5)
+    assert where(move.source) == (10, 5)
+    assert where(move.source.bond.first) == (10, 5)
+    assert where(move.source.bond.second) == (10, 8)    # the bare H
+    assert where(move.sink) == (10, 13)
+    assert where(move.sink.bond.second) == (10, 16)
+    lone = step.moves[0]                      # "    :O11 -> H(C3)"
+    assert where(lone.source) == (9, 5) and where(lone.source.atom) == (9, 6)
+    assert where(lone.sink.atom) == (9, 13) and where(lone.sink.atom.parent) == (9, 15)
+    uses = m.steps[2].uses[0]
+    assert where(uses) == (21, 5)
+    assert where(m.steps[2].expects[0]) == (24, 5)
+    assert where(m.product) == (27, 1)
+    for node in (dione, step, move, m.product):
+        assert node.loc.file == "example.mech"
+
+
+def test_hash_is_a_comment_after_space_and_a_triple_bond_between_atoms():
+    m = parse('''\
+# a comment line
+species cyanide = "[C-:1]#[N:2]"   # a comment; the # in the SMILES is a triple bond
+step "label with # inside"  # trailing comment
+    C1#N2 -> N2   # the triple bond C1#N2 gives a pair to N2
+end
+''')
+    assert m.species[0].smiles == "[C-:1]#[N:2]"
+    assert m.steps[0].label == "label with # inside"
+    source = m.steps[0].moves[0].source
+    assert isinstance(source, BondPair) and source.bond.order == 3
+    assert len(m.steps[0].moves) == 1
+
+
+@pytest.mark.parametrize("written, order", [("C1-C2", 1), ("C1=C2", 2), ("C1#C2", 3)])
+def test_bond_connectors(written, order):
+    m = parse(f'step "s"\n    {written} -> C2\nend\n')
+    assert m.steps[0].moves[0].source.bond.order == order
+    assert str(m.steps[0].moves[0].source) == written
+
+
+def test_hydrogen_forms_name_the_same_hydrogen():
+    """`H(C3)`, `C3-H` and `H-C3` all name a hydrogen on C3 (language.md, Atoms)."""
+    m = parse('step "s"\n    :O1 -> H(C3)\n    C3-H -> C2=C3\n    H-C3 -> C3\nend\n')
+    first, second, third = m.steps[0].moves
+    assert first.sink.atom == HydrogenOn(AtomRef("C", 3))
+    assert second.source.bond.second == HydrogenOn(AtomRef("C", 3))
+    assert third.source.bond.first == HydrogenOn(AtomRef("C", 3))
+    assert str(second.source) == "C3-H"
+
+
+def test_two_letter_elements_and_mapped_hydrogens():
+    m = parse('step "s"\n    Cl1-Br22 -> Br22\n    :O3 -> H40\nend\n')
+    bond = m.steps[0].moves[0].source.bond
+    assert (bond.first, bond.second) == (AtomRef("Cl", 1), AtomRef("Br", 22))
+    assert m.steps[0].moves[1].sink.atom == AtomRef("H", 40)
+
+
+@pytest.mark.parametrize("dot", [".", "•"])
+def test_unpaired_electron_sources(dot):
+    m = parse(f'step "s"\n    {dot}C1 ~> C1-C2\n    {dot}C2 ~> C1-C2\nend\n')
+    move = m.steps[0].moves[0]
+    assert isinstance(move.source, UnpairedElectron) and move.source.atom == AtomRef("C", 1)
+    assert move.electrons == 1
+    assert isinstance(move.sink, BondSink)
+
+
+def test_pair_and_single_electron_arrows():
+    m = parse('step "s"\n    :O1 -> C2\n    C3-C4 ~> C4\nend\n')
+    pair, single = m.steps[0].moves
+    assert (pair.electrons, single.electrons) == (2, 1)
+    assert isinstance(pair.source, LonePair) and isinstance(pair.sink, AtomSink)
+    assert str(single) == "C3-C4 ~> C4"
+
+
+def test_bare_atom_source_is_kept_for_the_checker():
+    m = parse('step "s"\n    O1 -> C2\nend\n')
+    assert isinstance(m.steps[0].moves[0].source, BareAtom)
+
+
+@pytest.mark.parametrize("options, kind, over, under", [
+    ("", "forward", None, None),
+    ("reversible", "reversible", None, None),
+    ("resonance", "resonance", None, None),
+    ('over "H2O"', "forward", "H2O", None),
+    ('under "0 °C, 2 h" reversible over "LDA"', "reversible", "LDA", "0 °C, 2 h"),
+])
+def test_step_options(options, kind, over, under):
+    step = parse(f'step "s" {options}\n    :O1 -> C2\nend\n').steps[0]
+    assert (step.kind, step.over, step.under) == (kind, over, under)
+
+
+def test_uses_releases_expect_and_expect_all():
+    m = parse('''\
+step "s"
+    uses water = "[OH2:5]"
+    uses acid  = "[OH3+:6]"
+    :O5 -> C2
+    releases Br3
+    expect "CO"
+    expect all "CO.[Br-]"
+end
+product all "CO.[Br-]"
+''')
+    step = m.steps[0]
+    assert [(s.name, s.smiles) for s in step.uses] == [("water", "[OH2:5]"), ("acid", "[OH3+:6]")]
+    assert (step.uses[0].smiles_loc.line, step.uses[0].smiles_loc.column) == (2, 19)
+    assert step.releases == (AtomRef("Br", 3),)
+    assert [(c.smiles, c.whole_state) for c in step.expects] == [("CO", False), ("CO.[Br-]", True)]
+    assert m.product.whole_state
+
+
+def test_statements_after_the_product_are_kept_aside():
+    m = parse('product "C"\nstep "late"\n    :O1 -> C2\nend\nproduct "CC"\n')
+    assert m.steps == () and m.product.smiles == "C"
+    assert [(loc.line, loc.column) for loc in m.after_product] == [(2, 1), (5, 1)]
+
+
+def test_empty_and_comment_only_files_are_empty_mechanisms():
+    assert parse("").steps == ()
+    assert parse("# nothing yet\n\n   # still nothing\n").species == ()
+
+
+def test_white_space_only_separates_tokens():
+    compact = parse('step "s" :O1->C2 C2-Br3->Br3 end')
+    spread = parse('step "s"\n\n    :O1   ->   C2\n\tC2-Br3 -> Br3\nend\n')
+    assert compact.steps[0].moves == spread.steps[0].moves
+
+
+# --- syntax errors -----------------------------------------------------------------------------
+
+def syntax_error(text: str):
+    with pytest.raises(MechanismError) as caught:
+        parse(text, "slip.mech")
+    (d,) = caught.value.diagnostics
+    assert d.code == "AR101" and d.severity == "error"
+    assert d.loc.file == "slip.mech"
+    return d
+
+
+# (name, text, line, column, offending text, expected (words), hint fragment)
+SLIPS = [
+    ("missing end before the next step",
+     'species w = "[OH2:1]"\nstep "a"\n    :O1 -> C2\nstep "b"\n    :O1 -> C2\nend\n',
+     4, 1, "unexpected `step`", "`end`", "the step before this line (line 2) has no `end`"),
+    ("missing end at the end of the file",
+     'species w = "[OH2:1]"\nstep "a"\n    :O1 -> C2\n',
+     3, 14, "unexpected the end of the file", "`end`", "the step opened on line 2 is still open"),
+    ("missing end before the product",
+     'step "a"\n    :O1 -> C2\nproduct "CO"\n',
+     3, 1, "unexpected `product`", "`end`", "has no `end`"),
+    ("- written for = in a species",
+     'species w - "[OH2:1]"\n',
+     1, 11, "unexpected `-`", "`=`", 'species NAME = "SMILES"'),
+    ("= written for an arrow",
+     'step "a"\n    :O1 = C2\nend\n',
+     2, 9, "unexpected `=`", "an arrow (-> or ~>)", "`=` is a bond between two atoms"),
+    ("- written for an arrow",
+     'step "a"\n    :O1 - C2\nend\n',
+     2, 9, "unexpected `-`", "an arrow (-> or ~>)", "-> (pair) or ~> (single electron)"),
+    ("== in a species",
+     'species w == "O"\n',
+     1, 12, "unexpected `=`", 'a quoted string ("...")', "a single `=`"),
+    ("unquoted SMILES",
+     'species ethanol = CCO\n',
+     1, 19, "unexpected `CCO`", 'a quoted string ("...")', 'write "CCO"'),
+    ("unquoted bracket SMILES",
+     'species water = [OH2:1]\n',
+     1, 17, "unexpected `[OH2:1]`", 'a quoted string ("...")', 'write "[OH2:1]"'),
+    ("unquoted checkpoint SMILES",
+     'step "a"\n    :O1 -> C2\n    expect CO\nend\n',
+     3, 12, "unexpected `CO`", 'a quoted string ("...")', "SMILES goes in double quotes"),
+    ("unquoted step label",
+     'step deprotonation\nend\n',
+     1, 6, "unexpected `deprotonation`", 'a quoted string ("...")', 'write "deprotonation"'),
+    ("unclosed string",
+     'species w = "[OH2:1]\n',
+     1, 13, 'unexpected `"[OH2:1]`', 'a quoted string ("...")', 'no closing `"`'),
+    ("atom written without its number (source)",
+     'step "a"\n    :O -> C2\nend\n',
+     2, 6, "unexpected `O`", "an atom such as C7, or H(C3)", "write O7"),
+    ("atom written without its number (sink)",
+     'step "a"\n    :O1 -> C\nend\n',
+     2, 12, "unexpected `C`", "an atom such as C7, or H(C3)", "write C7"),
+    ("atom written without its number (bond)",
+     'step "a"\n    C2=C -> C2\nend\n',
+     2, 8, "unexpected `C`", "an atom such as C7, or H(C3)", "write C7"),
+    ("element in lower case",
+     'step "a"\n    :o1 -> C2\nend\n',
+     2, 6, "unexpected `o1`", "an atom such as C7, or H(C3)", "capital letter: write O1"),
+    ("unknown keyword at the top",
+     'reagent w = "O"\n',
+     1, 1, "unexpected `reagent`", "a statement (title, caption, species, step or product)",
+     "`reagent` is not a keyword"),
+    ("unknown keyword in a step",
+     'step "a"\n    catalyst "Pd"\nend\n',
+     2, 5, "unexpected `catalyst`", "a move, `uses`, `releases`, `expect` or `end`",
+     "`catalyst` is not a keyword here"),
+    ("end with no step open",
+     'species w = "O"\nend\n',
+     2, 1, "unexpected `end`", "a statement", "no step is open"),
+    ("two arrows in one move",
+     'step "a"\n    :O1 -> C2 -> C3\nend\n',
+     2, 15, "unexpected `->`", "a move", "one arrow per move"),
+    ("typographic arrow",
+     'step "a"\n    :O1 → C2\nend\n',
+     2, 9, "unexpected `→`", "a move", "type the arrow as ->"),
+    ("unclosed hydrogen",
+     'step "a"\n    :O1 -> H(C3\nend\n',
+     3, 1, "unexpected `end`", "`)`", "H(C3)"),
+    ("keyword with its string missing",
+     'step "a"\n    :O1 -> C2\n    expect\nend\n',
+     4, 1, "unexpected `end`", "a quoted string", "a quoted string is missing"),
+    ("uses without a name",
+     'step "a"\n    uses "[OH2:5]"\nend\n',
+     2, 10, 'unexpected `"[OH2:5]"`', "a name", 'uses water = "[OH2:5]"'),
+    ("species name starting with a digit",
+     'species 2butanone = "CCC(C)=O"\n',
+     1, 9, "unexpected `2butanone`", "a name", "starts with a letter"),
+    ("single quotes",
+     "species w = 'O'\n",
+     1, 13, "unexpected `'O'`", 'a quoted string ("...")', "double quotes"),
+]
+
+
+@pytest.mark.parametrize("name, text, line, column, found, expected, hint", SLIPS, ids=[s[0] for s in SLIPS])
+def test_syntax_slip(name, text, line, column, found, expected, hint):
+    d = syntax_error(text)
+    assert (d.loc.line, d.loc.column) == (line, column), d.to_text()
+    assert d.message.startswith(found + ";"), d.to_text()
+    assert expected in d.message.split("; expected ", 1)[1], d.to_text()
+    assert hint in d.hint, d.to_text()
+    assert d.to_text().startswith(f"slip.mech:{line}:{column}: error AR101 ")
+
+
+@pytest.mark.parametrize("text, hint", [
+    ('step "a"\n    H-H -> C1\nend\n', "C3-H"),
+    ('step "a"\n    releases H(C1)\nend\n', "releases O9"),
+])
+def test_shape_slips_found_after_parsing(text, hint):
+    d = syntax_error(text)
+    assert d.loc.line == 2 and hint in d.hint
+
+
+def test_every_syntax_error_has_a_specific_hint():
+    """No slip above falls back to the generic pointer to the README."""
+    for name, text, *_ in SLIPS:
+        assert "README" not in syntax_error(text).hint, name
