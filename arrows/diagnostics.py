@@ -62,6 +62,9 @@ CODES = _table(
          "A JSONL record lacks a field or gives one of the wrong type; arrows/jsonl-input.schema.json "
          "describes the record.",
          '{"id": "r2", "steps": []}   # neither "text" nor "species" is given'),
+    Code("AR112", ERROR, "nothing to check",
+         "The file holds no species and no steps: it is empty, or comments only.",
+         'species water = "[OH2:1]"\nstep "..."\n    ...\nend'),
     Code("AR201", ERROR, "no electrons at the source",
          "An arrow starts at electrons that are not there: a lone pair on an atom that has none, a bond "
          "that does not exist, or an unpaired electron on a closed-shell atom.",

@@ -19,9 +19,9 @@ def _registry() -> list[Check]:
     from .checkpoints import CheckpointsMatch
     from .conservation import ChargeAndAtomsConserved
     from .rings import RingClosures
-    from .structure import NothingAfterProduct, StepsHaveMoves
+    from .structure import NothingAfterProduct, SomethingToCheck, StepsHaveMoves
     from .valence import UnusualElectronCounts
-    return [NothingAfterProduct(), StepsHaveMoves(), UnusualElectronCounts(), ChargeAndAtomsConserved(),
+    return [SomethingToCheck(), NothingAfterProduct(), StepsHaveMoves(), UnusualElectronCounts(), ChargeAndAtomsConserved(),
             RingClosures(), CheckpointsMatch()]
 
 

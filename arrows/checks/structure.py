@@ -4,7 +4,20 @@ from __future__ import annotations
 from typing import Iterator
 
 from ..diagnostics import Diagnostic
+from ..model import Location
 from ..trace import Trace
+
+
+class SomethingToCheck:
+    name = "something to check"
+    codes = ("AR112",)
+
+    def run(self, trace: Trace) -> Iterator[Diagnostic]:
+        mechanism = trace.mechanism
+        if not mechanism.species and not mechanism.steps:
+            yield Diagnostic("AR112", "the file holds no species and no steps",
+                             Location(mechanism.source_name, 1, 1),
+                             hint='start with a species, e.g. species water = "[OH2:1]", then the steps')
 
 
 class NothingAfterProduct:

@@ -23,7 +23,7 @@ def _state_lines(state: ElectronState) -> list[str]:
 
 
 @click.command("trace")
-@click.argument("file", type=click.Path(dir_okay=False))
+@click.argument("file", type=click.Path())   # a missing file or a folder is reported as AR100
 def trace_command(file):
     """Print the starting state and the state after every step: canonical SMILES, formula, net
     charge, and for each atom that changed its formal charge and lone pairs."""
