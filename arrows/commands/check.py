@@ -11,16 +11,32 @@ from ..diagnostics import ERROR, WARNING
 
 
 @click.command("check")
-@click.argument("files", nargs=-1, required=True, type=click.Path(dir_okay=False))
+@click.argument("files", nargs=-1, type=click.Path(dir_okay=False))
 @click.option("--format", "fmt", type=click.Choice(["text", "json"]), default="text", show_default=True,
               help="text: file:line:col: severity CODE message; json: one array of diagnostics.")
 @click.option("--strict", is_flag=True, help="Treat warnings as failures (exit 1).")
 @click.option("--quiet", "-q", is_flag=True, help="Print only errors.")
-def check_command(files, fmt, strict, quiet):
+@click.option("--jsonl", "jsonl", type=click.Path(dir_okay=False, allow_dash=True), metavar="FILE",
+              help="Check a data set: one mechanism per line of FILE (- for stdin), one JSON result per line out.")
+@click.option("-o", "--output", type=click.Path(dir_okay=False, writable=True),
+              help="With --jsonl: write the results to this file (atomically) instead of stdout.")
+@click.option("-j", "--jobs", type=click.IntRange(min=1), default=None,
+              help="With --jsonl: worker processes [default: the machine's cores].")
+@click.option("--cluster", metavar="ADDRESS",
+              help="With --jsonl: run on the Dask scheduler at ADDRESS (pip install 'arrows[cluster]').")
+def check_command(files, fmt, strict, quiet, jsonl, output, jobs, cluster):
     """Replay every electron move in FILES and check every intermediate.
 
     Exit status: 0 clean, 1 errors found (or warnings with --strict), 2 unreadable input or bad usage.
     """
+    if jsonl is not None:
+        if files:
+            raise click.UsageError("give mechanism FILES or --jsonl FILE, not both")
+        sys.exit(_check_jsonl(jsonl, output, jobs, cluster, strict, quiet))
+    if not files:
+        raise click.UsageError("give at least one mechanism file (or --jsonl FILE)")
+    if output or jobs or cluster:
+        raise click.UsageError("-o, --jobs and --cluster go with --jsonl")
     everything, unreadable, failing = [], False, False
     for path in files:
         _, diags = check_file(path)
@@ -42,3 +58,37 @@ def check_command(files, fmt, strict, quiet):
         click.echo(f"{len(files)} file{'s' if len(files) != 1 else ''} checked: "
                    f"{n_err} error{'s' if n_err != 1 else ''}, {n_warn} warning{'s' if n_warn != 1 else ''}", err=True)
     sys.exit(2 if unreadable else 1 if failing else 0)
+
+
+def _check_jsonl(path: str, output: str | None, jobs: int | None, cluster: str | None, strict: bool,
+                 quiet: bool) -> int:
+    """`--jsonl`: stream the data set through the workers; results to stdout or, atomically, to -o."""
+    from contextlib import nullcontext
+
+    from ..batch.atomic import atomic_file
+    from ..batch.jsonl import check_stream
+    from ..batch.parallel import ClusterPool, ClusterUnavailable, WorkerPool, default_jobs
+    from ..diagnostics import Diagnostic
+    from ..model import Location
+
+    source = "<stdin>" if path == "-" else path
+    try:
+        stream = sys.stdin.buffer if path == "-" else open(path, "rb")
+    except OSError as exc:
+        click.echo(Diagnostic("AR100", f"cannot read file: {exc.strerror or exc}", Location(path, 1, 1),
+                              hint="check the path and permissions").to_text(), err=True)
+        return 2
+    pool = ClusterPool(cluster) if cluster else WorkerPool(jobs or default_jobs())
+    sink = atomic_file(output) if output else nullcontext(sys.stdout)
+    try:
+        with stream, pool, sink as out:
+            tally = check_stream(source, stream, out.write, pool)
+    except ClusterUnavailable as exc:
+        click.echo(f"error: {exc}", err=True)
+        return 2
+    if not quiet:
+        click.echo(f"{tally.records} record{'s' if tally.records != 1 else ''} checked ({tally.steps} steps): "
+                   f"{tally.ok} without errors, {tally.with_errors} with errors, "
+                   f"{tally.with_warnings} with warnings", err=True)
+    failing = tally.with_errors or (strict and tally.with_warnings)
+    return 1 if failing else 0

@@ -1,0 +1,1 @@
+"""Batch work: checking JSONL data sets and collecting many schemes into one document."""

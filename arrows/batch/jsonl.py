@@ -1,0 +1,129 @@
+"""Checking a JSONL data set: one mechanism per line in, one JSON result per line out.
+
+The input is read lazily and handed to the workers in small chunks with a bounded number in
+flight, so memory does not grow with the line count; results are written in input order.
+`check_line` is the whole judgement of one line and runs unchanged in this process, in worker
+processes or on a Dask cluster, which is why the three give identical results.
+"""
+from __future__ import annotations
+
+import json
+from dataclasses import dataclass
+from typing import IO, Any, Callable, Iterable, Iterator, Optional
+
+from ..api import check_text
+from ..diagnostics import ERROR, WARNING, Diagnostic
+from ..model import Location
+from ..trace import state_smiles
+from .records import RecordProblem, RecordText, record_id, record_text
+
+CHUNK_LINES = 32
+
+# A chunk of work: the input's display name and (line number, raw bytes) pairs.
+Chunk = tuple[str, list[tuple[int, bytes]]]
+
+
+@dataclass
+class Tally:
+    records: int = 0
+    ok: int = 0
+    with_errors: int = 0
+    with_warnings: int = 0
+    steps: int = 0
+
+    def add(self, counts: tuple[int, int, int]) -> None:
+        errors, warnings, steps = counts
+        self.records += 1
+        self.steps += steps
+        self.ok += errors == 0
+        self.with_errors += errors > 0
+        self.with_warnings += warnings > 0
+
+
+def check_line(source: str, line_number: int, raw: bytes) -> dict:
+    """The result object for one input line (see docs-batch.md for its fields)."""
+    try:
+        record = json.loads(raw.decode("utf-8"))
+    except UnicodeDecodeError as exc:
+        return _rejected(source, line_number, None, exc.start + 1, "AR110", "the line is not UTF-8 text",
+                         "save the data set as UTF-8", "")
+    except json.JSONDecodeError as exc:
+        return _rejected(source, line_number, None, exc.colno, "AR110", f"not JSON: {exc.msg}",
+                         "each line holds one complete JSON object", "")
+    ident = record_id(record) if isinstance(record, dict) else None
+    try:
+        mechanism = record_text(record)
+    except RecordProblem as problem:
+        return _rejected(source, line_number, ident, 0, "AR111", problem.message, problem.hint, problem.pointer)
+    trace, diags = check_text(mechanism.text, f"{source}:{line_number}")
+    final = trace.final if trace is not None else None
+    return _result(ident, line_number, [_placed(d, source, line_number, mechanism) for d in diags],
+                   steps=len(trace.mechanism.steps) if trace is not None else 0,
+                   final_smiles=state_smiles(final) if final is not None else None)
+
+
+def check_chunk(chunk: Chunk) -> list[tuple[str, tuple[int, int, int]]]:
+    """Worker entry point: for each line of the chunk, in order, its serialized result and its
+    (errors, warnings, steps) counts for the tally."""
+    source, lines = chunk
+    out = []
+    for number, raw in lines:
+        result = check_line(source, number, raw)
+        out.append((json.dumps(result, ensure_ascii=False), (result["errors"], result["warnings"], result["steps"])))
+    return out
+
+
+def chunks(source: str, stream: IO[bytes], size: int = CHUNK_LINES) -> Iterator[Chunk]:
+    """Non-blank lines of a binary stream, numbered from 1, in chunks; read lazily."""
+    batch: list[tuple[int, bytes]] = []
+    for number, raw in enumerate(stream, start=1):
+        if not raw.strip():
+            continue
+        batch.append((number, raw))
+        if len(batch) == size:
+            yield source, batch
+            batch = []
+    if batch:
+        yield source, batch
+
+
+def check_stream(source: str, stream: IO[bytes], write: Callable[[str], Any], pool) -> Tally:
+    """Check every line of `stream` on `pool` (a parallel.WorkerPool or ClusterPool) and write one
+    JSON result per line through `write`, in input order."""
+    tally = Tally()
+    for serialized, counts in _flatten(pool.map(check_chunk, chunks(source, stream))):
+        tally.add(counts)
+        write(serialized + "\n")
+    return tally
+
+
+def _flatten(groups: Iterable[list]) -> Iterator:
+    for group in groups:
+        yield from group
+
+
+def _placed(diag: Diagnostic, source: str, line_number: int, mechanism: RecordText) -> dict:
+    """A diagnostic of the record's mechanism, located at the JSONL line; where inside the record
+    goes in `record_location`: the field, and for a text record the line and column in the text."""
+    entry = diag.to_dict()
+    inside: dict[str, Any] = {"field": mechanism.field_of(diag.loc.line) or None}
+    if mechanism.pointers is None:
+        inside.update(line=diag.loc.line, column=diag.loc.column)
+    entry.update(file=source, line=line_number, column=0, record_location=inside)
+    return entry
+
+
+def _rejected(source: str, line_number: int, ident: Any, column: int, code: str, message: str, hint: str,
+              field: str) -> dict:
+    diag = Diagnostic(code, message, Location(source, line_number, column), hint=hint)
+    entry = diag.to_dict()
+    entry["record_location"] = {"field": field}
+    return _result(ident, line_number, [entry], steps=0, final_smiles=None)
+
+
+def _result(ident: Any, line_number: int, diagnostics: list[dict], steps: int,
+            final_smiles: Optional[str]) -> dict:
+    errors = sum(d["severity"] == ERROR for d in diagnostics)
+    warnings = sum(d["severity"] == WARNING for d in diagnostics)
+    return {"id": ident, "line": line_number, "ok": errors == 0, "errors": errors, "warnings": warnings,
+            "steps": steps, "final_smiles": final_smiles, "diagnostics": diagnostics}

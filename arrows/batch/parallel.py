@@ -1,0 +1,117 @@
+"""Ordered, bounded parallel map: in this process, in a pool of worker processes, or on a Dask
+distributed cluster.
+
+Results come back in input order, and at most `window` tasks are in flight at any time, so memory
+stays flat however long the input is (multiprocessing's own imap reads its whole input ahead;
+this does not). The work function must be a module-level function so that it can be pickled.
+"""
+from __future__ import annotations
+
+import multiprocessing
+import os
+import signal
+from collections import deque
+from typing import Callable, Iterable, Iterator, Optional, TypeVar
+
+T = TypeVar("T")
+R = TypeVar("R")
+
+
+class ClusterUnavailable(Exception):
+    """Dask is not installed, or the scheduler at the address cannot be reached."""
+
+
+def default_jobs() -> int:
+    try:
+        return max(1, len(os.sched_getaffinity(0)))
+    except AttributeError:  # not every platform has sched_getaffinity
+        return max(1, os.cpu_count() or 1)
+
+
+def _ignore_interrupts() -> None:
+    # Ctrl-C is the parent's to handle: it stops the pool. Workers that also caught it would
+    # each print a traceback.
+    signal.signal(signal.SIGINT, signal.SIG_IGN)
+
+
+def _bounded(submit: Callable[[T], object], wait: Callable[[object], R], items: Iterable[T],
+             window: int) -> Iterator[R]:
+    pending: deque = deque()
+    for item in items:
+        pending.append(submit(item))
+        if len(pending) >= window:
+            yield wait(pending.popleft())
+    while pending:
+        yield wait(pending.popleft())
+
+
+class WorkerPool:
+    """A pool of worker processes (or none, for jobs=1) that maps in order with a bounded window.
+
+    Use as a context manager; leaving it by an exception (Ctrl-C included) stops the workers at once.
+    """
+
+    def __init__(self, jobs: int, window_per_job: int = 4):
+        self.jobs = max(1, jobs)
+        self.window = self.jobs * window_per_job
+        self._pool = None
+
+    def __enter__(self) -> "WorkerPool":
+        if self.jobs > 1:
+            self._pool = multiprocessing.get_context().Pool(self.jobs, initializer=_ignore_interrupts)
+        return self
+
+    def __exit__(self, kind, value, tb) -> None:
+        if self._pool is None:
+            return
+        if kind is None:
+            self._pool.close()
+        else:
+            self._pool.terminate()
+        self._pool.join()
+
+    def map(self, fn: Callable[[T], R], items: Iterable[T]) -> Iterator[R]:
+        if self._pool is None:
+            return (fn(item) for item in items)
+        pool = self._pool
+        return _bounded(lambda item: pool.apply_async(fn, (item,)), lambda res: res.get(), items, self.window)
+
+
+class ClusterPool:
+    """The same ordered, bounded map on a Dask distributed cluster (`pip install arrows[cluster]`).
+
+    Dask schedules the tasks; this class only submits them in order and collects the results in
+    order. Every worker must have arrows installed.
+    """
+
+    def __init__(self, address: str, window: Optional[int] = None, timeout: float = 20):
+        self.address, self.timeout = address, timeout
+        self._window = window
+        self._client = None
+
+    def __enter__(self) -> "ClusterPool":
+        try:
+            from dask.distributed import Client
+        except ImportError:
+            raise ClusterUnavailable("--cluster needs Dask: pip install 'arrows[cluster]'") from None
+        try:
+            self._client = Client(self.address, timeout=self.timeout)
+        except (OSError, TimeoutError, ValueError) as exc:
+            raise ClusterUnavailable(f"cannot reach the Dask scheduler at {self.address}: {exc}") from None
+        return self
+
+    def __exit__(self, kind, value, tb) -> None:
+        if self._client is not None:
+            self._client.close()
+
+    @property
+    def window(self) -> int:
+        if self._window:
+            return self._window
+        threads = sum(self._client.nthreads().values()) or 1
+        return threads * 4
+
+    def map(self, fn: Callable[[T], R], items: Iterable[T]) -> Iterator[R]:
+        client = self._client
+        return _bounded(lambda item: client.submit(fn, item, pure=False), lambda fut: fut.result(),
+                        items, self.window)

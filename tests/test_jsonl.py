@@ -1,0 +1,264 @@
+"""`arrows check --jsonl`: one mechanism per line in, one JSON result per line out.
+
+Outside judges: RDKit canonicalizes the gallery's written products independently of our code;
+the JSON Schema file is applied by the jsonschema library, not by our own validator; peak memory
+is the kernel's count (getrusage) for a separate process.
+"""
+from __future__ import annotations
+
+import json
+import os
+import subprocess
+import sys
+import threading
+from pathlib import Path
+
+import jsonschema
+import pytest
+from rdkit import Chem
+
+from arrows.batch.jsonl import check_line
+from arrows.batch.parallel import ClusterPool, ClusterUnavailable
+from arrows.language import load
+from arrows.model import Mechanism
+
+ROOT = Path(__file__).resolve().parent.parent
+GALLERY = sorted((ROOT / "gallery").glob("*.mech"))
+SCHEMA = json.loads((ROOT / "arrows" / "jsonl-input.schema.json").read_text())
+
+WATER_PROTON_TRANSFER = {
+    "species": {"water": "[OH2:1]", "base": "[OH-:2]"},
+    "steps": [{"label": "proton transfer", "moves": [":O2 -> H(O1)", "O1-H -> O1"]}],
+    "product": "O.[OH-]",
+}
+
+
+def as_parts(mechanism: Mechanism, ident) -> dict:
+    """The structured form of a parsed mechanism (moves written back in the language)."""
+    record = {"id": ident, "species": {s.name: s.smiles for s in mechanism.species}, "steps": []}
+    for key in ("title", "caption"):
+        if getattr(mechanism, key):
+            record[key] = getattr(mechanism, key)
+    for step in mechanism.steps:
+        entry = {"label": step.label, "moves": [str(m) for m in step.moves]}
+        if step.kind != "forward":
+            entry["kind"] = step.kind
+        for key in ("over", "under"):
+            if getattr(step, key):
+                entry[key] = getattr(step, key)
+        if step.uses:
+            entry["uses"] = {s.name: s.smiles for s in step.uses}
+        if step.releases:
+            entry["releases"] = [str(a) for a in step.releases]
+        if step.expects:
+            entry["expect"] = [{"smiles": c.smiles, "whole_state": c.whole_state} for c in step.expects]
+        record["steps"].append(entry)
+    if mechanism.product is not None:
+        record["product"] = {"smiles": mechanism.product.smiles, "whole_state": mechanism.product.whole_state}
+    return record
+
+
+def line(obj) -> bytes:
+    return json.dumps(obj).encode() + b"\n"
+
+
+def run_cli(*args, stdin: bytes | None = None, cwd=None) -> subprocess.CompletedProcess:
+    return subprocess.run(["arrows", *args],
+                          input=stdin, capture_output=True, cwd=cwd, timeout=600)
+
+
+def rdkit_fragments(smiles: str) -> list[str]:
+    """Canonical SMILES of each fragment, computed by RDKit alone."""
+    mol = Chem.MolFromSmiles(smiles)
+    return sorted(Chem.MolToSmiles(frag) for frag in Chem.GetMolFrags(mol, asMols=True))
+
+
+@pytest.mark.parametrize("path", GALLERY, ids=lambda p: p.stem)
+def test_text_and_parts_of_a_gallery_mechanism_give_one_result(path):
+    """Both record forms of each gallery mechanism: same verdict, steps and final state, and the
+    final state contains the product the gallery file writes down (textbook outcome named in the
+    file), compared fragment by fragment after RDKit's own canonicalization."""
+    mechanism = load(path)
+    text_result = check_line("data.jsonl", 1, line({"id": path.stem, "text": path.read_text()}))
+    parts_record = as_parts(mechanism, path.stem)
+    jsonschema.validate(parts_record, SCHEMA)
+    parts_result = check_line("data.jsonl", 1, line(parts_record))
+    assert text_result["ok"] and parts_result["ok"], (text_result["diagnostics"], parts_result["diagnostics"])
+    assert text_result["steps"] == parts_result["steps"] == len(mechanism.steps)
+    assert text_result["final_smiles"] == parts_result["final_smiles"]
+    if mechanism.product is not None:
+        final = rdkit_fragments(text_result["final_smiles"])
+        for fragment in rdkit_fragments(mechanism.product.smiles):
+            assert fragment in final
+
+
+def test_a_wrong_move_is_located_at_its_field():
+    record = {"id": "r9", **WATER_PROTON_TRANSFER,
+              "steps": [{"label": "proton transfer", "moves": [":O2 -> H(O1)", "O1=H -> O1"]}]}
+    result = check_line("set.jsonl", 12, line(record))
+    assert not result["ok"] and result["id"] == "r9" and result["line"] == 12
+    codes = {d["code"]: d for d in result["diagnostics"]}
+    assert "AR202" in codes   # `=` written on the single O1-H bond
+    assert codes["AR202"]["file"] == "set.jsonl" and codes["AR202"]["line"] == 12
+    assert codes["AR202"]["record_location"] == {"field": "/steps/0/moves/1"}
+
+
+def test_a_text_record_keeps_the_line_and_column_inside_its_text(tmp_path):
+    text = 'species w = "[OH2:1]"\nstep "x"\n    :O1 -> H(O1\nend\n'
+    result = check_line("set.jsonl", 3, line({"id": 1, "text": text}))
+    (tmp_path / "same.mech").write_text(text)
+    alone = json.loads(run_cli("check", "--format", "json", str(tmp_path / "same.mech")).stdout)
+    [diag] = result["diagnostics"]
+    assert diag["code"] == alone[0]["code"] == "AR101"
+    assert diag["record_location"] == {"field": "/text", "line": alone[0]["line"], "column": alone[0]["column"]}
+
+
+BAD_RECORDS = [
+    ({"id": 1}, "AR111", ""),
+    ({"text": "species w = \"O\""}, "AR111", "/id"),
+    ({"id": True, "text": "species w = \"O\""}, "AR111", "/id"),
+    ({"id": 1, "species": {"w": "[OH2:1]"}}, "AR111", "/steps"),
+    ({"id": 1, "species": {"w": "[OH2:1]"}, "steps": [{"label": "x"}]}, "AR111", "/steps/0/moves"),
+    ({"id": 1, "species": {"w": "[OH2:1]"}, "steps": [{"moves": [1]}]}, "AR111", "/steps/0/moves/0"),
+    ({"id": 1, "species": {"2w": "[OH2:1]"}, "steps": []}, "AR111", "/species/2w"),
+    ({"id": 1, "species": {"w": "[OH2:1]"}, "steps": [{"moves": [], "kind": "fast"}]}, "AR111", "/steps/0/kind"),
+    ({"id": 1, "species": {"w": "[OH2:1]"}, "steps": [{"moves": [], "label": 'say "hi"'}]}, "AR111",
+     "/steps/0/label"),
+    ({"id": 1, "species": {"w": "[OH2:1]"}, "steps": [{"moves": [], "releases": ["water"]}]}, "AR111",
+     "/steps/0/releases/0"),
+    ({"id": 1, "species": {"w": "[OH2:1]"}, "steps": [{"moves": [], "tempo": 1}]}, "AR111", "/steps/0/tempo"),
+    ({"id": 1, "text": "x", "steps": []}, "AR111", ""),
+    ([1, 2], "AR111", ""),
+]
+
+
+@pytest.mark.parametrize("record,code,field", BAD_RECORDS, ids=range(len(BAD_RECORDS)))
+def test_a_record_off_the_schema_is_a_located_result_and_the_schema_agrees(record, code, field):
+    result = check_line("set.jsonl", 5, line(record))
+    [diag] = result["diagnostics"]
+    assert (diag["code"], diag["record_location"]["field"], diag["line"]) == (code, field, 5)
+    assert diag["hint"] and not result["ok"] and result["final_smiles"] is None
+    with pytest.raises(jsonschema.ValidationError):
+        jsonschema.validate(record, SCHEMA)
+
+
+def test_the_schema_accepts_both_forms_and_extra_metadata():
+    jsonschema.validate({"id": "a", "text": "species w = \"O\"", "source": "lab book 7"}, SCHEMA)
+    jsonschema.validate({"id": 3, **WATER_PROTON_TRANSFER}, SCHEMA)
+
+
+def test_bad_lines_become_results_in_order_and_the_run_exits_1(tmp_path):
+    data = tmp_path / "mixed.jsonl"
+    data.write_bytes(line({"id": "good", **WATER_PROTON_TRANSFER}) + b"{not json\n" + b"\n"
+                     + b'{"id": "latin1", "text": "caf\xe9"}\n' + line({"id": "tail", **WATER_PROTON_TRANSFER}))
+    proc = run_cli("check", "--jsonl", str(data), "-j", "2")
+    assert proc.returncode == 1 and b"Traceback" not in proc.stderr
+    results = [json.loads(x) for x in proc.stdout.splitlines()]
+    assert [(r["line"], r["ok"]) for r in results] == [(1, True), (2, False), (4, False), (5, True)]
+    not_json = results[1]["diagnostics"][0]
+    assert (not_json["code"], not_json["line"], not_json["column"]) == ("AR110", 2, 2)
+    assert results[2]["diagnostics"][0]["code"] == "AR110" and "UTF-8" in results[2]["diagnostics"][0]["message"]
+    assert results[0]["final_smiles"] == "O.[OH-]" and results[0]["steps"] == 1
+    assert b"4 records checked" in proc.stderr
+
+
+def test_stdin_and_output_file(tmp_path):
+    out = tmp_path / "results.jsonl"
+    proc = run_cli("check", "--jsonl", "-", "-o", str(out), "-j", "1",
+                   stdin=line({"id": 7, **WATER_PROTON_TRANSFER}))
+    assert proc.returncode == 0 and proc.stdout == b""
+    assert json.loads(out.read_text())["id"] == 7
+    assert [p.name for p in tmp_path.iterdir()] == ["results.jsonl"]   # no temporary file left
+
+
+def test_output_to_a_pipe_stays_a_pipe(tmp_path):
+    """-o onto a FIFO (or a device such as /dev/null) writes into it instead of replacing it."""
+    fifo = tmp_path / "pipe"
+    os.mkfifo(fifo)
+    received = []
+    reader = threading.Thread(target=lambda: received.append(fifo.read_bytes()))
+    reader.start()
+    data = tmp_path / "one.jsonl"
+    data.write_bytes(line({"id": 1, **WATER_PROTON_TRANSFER}))
+    assert run_cli("check", "--jsonl", str(data), "-o", str(fifo), "-j", "1").returncode == 0
+    reader.join(timeout=30)
+    assert json.loads(received[0])["ok"] and fifo.is_fifo()
+
+
+def test_usage_errors_exit_2(tmp_path):
+    assert run_cli("check", "--jsonl", str(tmp_path / "missing.jsonl")).returncode == 2
+    assert run_cli("check", "--jsonl", "x.jsonl", "a.mech").returncode == 2
+    assert run_cli("check", "-j", "2", str(ROOT / "gallery" / "01-enolate-formation.mech")).returncode == 2
+
+
+def write_data_set(path: Path, count: int) -> None:
+    """Gallery mechanisms in both forms, a small structured record and a broken line, repeated."""
+    pool = []
+    for mech_path in GALLERY:
+        pool.append({"text": mech_path.read_text()})
+        pool.append({k: v for k, v in as_parts(load(mech_path), 0).items() if k != "id"})
+    pool += [dict(WATER_PROTON_TRANSFER)] * 8
+    with path.open("wb") as out:
+        for i in range(count):
+            if i % 97 == 96:
+                out.write(b'{"id": %d, "text": \n' % i)
+            else:
+                out.write(line({"id": i, **pool[i % len(pool)]}))
+
+
+def test_jobs_2_gives_the_bytes_of_jobs_1(tmp_path):
+    data = tmp_path / "set.jsonl"
+    write_data_set(data, 400)
+    one = run_cli("check", "--jsonl", str(data), "-j", "1")
+    two = run_cli("check", "--jsonl", str(data), "-j", "2")
+    assert one.returncode == two.returncode == 1
+    assert one.stdout == two.stdout and len(one.stdout.splitlines()) == 400
+
+
+PEAK_RSS = """
+import resource, sys
+from arrows.cli import main
+sys.argv = ["arrows", "check", "--jsonl", sys.argv[1], "-j", "2", "-o", sys.argv[2], "-q"]
+try:
+    main()
+except SystemExit as stop:
+    code = stop.code
+print(code, resource.getrusage(resource.RUSAGE_SELF).ru_maxrss, resource.getrusage(resource.RUSAGE_CHILDREN).ru_maxrss)
+"""
+
+
+def test_ten_thousand_lines_check_in_constant_memory(tmp_path):
+    """Peak resident memory (kernel's count, KiB) of the reading process and of its workers is the
+    same for 1,000 and 10,000 lines, within 10% or 8 MiB of noise."""
+    peaks = {}
+    for count in (1_000, 10_000):
+        data = tmp_path / f"set{count}.jsonl"
+        write_data_set(data, count)
+        out = tmp_path / f"out{count}.jsonl"
+        proc = subprocess.run([sys.executable, "-c", PEAK_RSS, str(data), str(out)], capture_output=True,
+                              text=True, timeout=900)
+        code, parent, workers = proc.stdout.split()
+        assert code == "1"   # the broken lines
+        assert sum(1 for _ in out.open()) == count
+        peaks[count] = int(parent), int(workers)
+    for small, large in zip(peaks[1_000], peaks[10_000]):
+        assert large <= max(small * 1.10, small + 8 * 1024), peaks
+
+
+def test_a_dask_local_cluster_gives_the_local_results(tmp_path):
+    distributed = pytest.importorskip("distributed", reason="Dask is the optional extra arrows[cluster]")
+    data = tmp_path / "set.jsonl"
+    write_data_set(data, 300)
+    local = run_cli("check", "--jsonl", str(data), "-j", "1")
+    with distributed.LocalCluster(n_workers=2, threads_per_worker=1, processes=True,
+                                  dashboard_address=None) as cluster:
+        remote = run_cli("check", "--jsonl", str(data), "--cluster", cluster.scheduler_address)
+    assert remote.returncode == local.returncode == 1
+    assert remote.stdout == local.stdout and len(remote.stdout.splitlines()) == 300
+
+
+def test_an_unreachable_cluster_is_a_clear_error():
+    pytest.importorskip("distributed", reason="Dask is the optional extra arrows[cluster]")
+    with pytest.raises(ClusterUnavailable, match="cannot reach"):
+        with ClusterPool("tcp://127.0.0.1:9", timeout=1):
+            pass
