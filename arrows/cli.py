@@ -11,6 +11,7 @@ COMMANDS = {
     "check": "arrows.commands.check:check_command",
     "trace": "arrows.commands.trace:trace_command",
     "explain": "arrows.commands.explain:explain_command",
+    "draw": "arrows.commands.draw:draw_command",
 }
 
 EXIT_CLEAN, EXIT_FINDINGS, EXIT_USAGE = 0, 1, 2

@@ -1,0 +1,87 @@
+"""`arrows draw FILE -o OUT.{svg,pdf,png}`: the mechanism as a publication scheme."""
+from __future__ import annotations
+
+import sys
+from pathlib import Path
+
+import click
+
+from ..api import check_file
+from ..diagnostics import ERROR, NOTE
+
+FORMATS = ("svg", "pdf", "png")
+STYLE_NAMES = ("one-column", "two-column", "slide")   # arrows.draw.STYLES, named here to keep --help light
+
+
+def _format_of(output: Path, fmt: str | None) -> str:
+    if fmt:
+        return fmt
+    suffix = output.suffix.lower().lstrip(".")
+    if suffix not in FORMATS:
+        raise click.BadParameter(f"cannot tell the format from {output.name!r}; end the name with .svg, .pdf or "
+                                 ".png, or give --format", param_hint="-o/--output")
+    return suffix
+
+
+@click.command("draw")
+@click.argument("file", type=click.Path(dir_okay=False))
+@click.option("-o", "--output", required=True, type=click.Path(dir_okay=False),
+              help="Where to write the figure; the format follows the extension (.svg, .pdf, .png).")
+@click.option("--format", "fmt", type=click.Choice(FORMATS), help="Output format, when the name does not say it.")
+@click.option("--style", type=click.Choice(STYLE_NAMES), default="two-column", show_default=True,
+              help="Page preset: one journal column (8.3 cm), two columns (17.1 cm) or a 16:9 slide.")
+@click.option("--color", "color", is_flag=True, help="Colour bonds formed (blue) and broken (vermillion).")
+@click.option("--numbers", is_flag=True, help="Show atom map numbers beside atoms (for drafting).")
+@click.option("--cip", is_flag=True, help="Show CIP labels (R/S) of stereocentres.")
+@click.option("--step-labels", is_flag=True, help="Write each step's label under its reaction arrow.")
+@click.option("--no-title", is_flag=True, help="Leave the title out of the figure (it stays in the SVG <title>).")
+@click.option("--font", "font_family", help="Font family for all text (default DejaVu Sans).")
+@click.option("--font-size", type=click.FloatRange(4, 72), help="Label font size in points.")
+@click.option("--line-width", type=click.FloatRange(0.1, 10), help="Bond and arrow line width in points.")
+@click.option("--dpi", type=click.IntRange(30, 2400), default=300, show_default=True, help="Resolution of PNG output.")
+@click.option("--force", is_flag=True, help="Draw even with errors; they are marked on the figure.")
+def draw_command(file, output, fmt, style, color, numbers, cip, step_labels, no_title, font_family, font_size,
+                 line_width, dpi, force):
+    """Draw FILE as one scheme: the starting state and the state after each step, joined by
+    reaction arrows, with each step's curved arrows on the panel it leaves.
+
+    A mechanism with errors is not drawn unless --force. Exit status: 0 drawn, 1 errors (drawn only
+    with --force), 2 unreadable input or bad usage.
+    """
+    output = Path(output)
+    fmt = _format_of(output, fmt)
+    trace, diags = check_file(file)
+    for d in diags:
+        if d.severity != NOTE:
+            click.echo(d.to_text(), err=True)
+    if trace is None or trace.initial is None:
+        click.echo(f"{file}: nothing to draw: the mechanism could not be read", err=True)
+        sys.exit(2 if any(d.code == "AR100" for d in diags) else 1)
+    errors = [d for d in diags if d.severity == ERROR]
+    if errors and not force:
+        click.echo(f"{file}: not drawn: {len(errors)} error{'s' if len(errors) != 1 else ''} "
+                   "(fix them, or use --force to draw with the errors marked)", err=True)
+        sys.exit(1)
+    if not output.parent.is_dir():
+        click.echo(f"{output}: cannot write: the folder {output.parent} does not exist", err=True)
+        sys.exit(2)
+
+    from ..draw import STYLES, DrawError, build_scene
+    from ..draw.export import convert, write_atomic
+    from ..draw.svg import scene_to_svg
+    chosen = STYLES[style].with_options(color=color or None, numbers=numbers or None, cip=cip or None,
+                                        step_labels=step_labels or None, show_title=False if no_title else None,
+                                        font_family=font_family, font_size=font_size, line_width=line_width)
+    try:
+        scene = build_scene(trace, chosen, diags)
+        write_atomic(output, convert(scene_to_svg(scene), fmt, dpi))
+    except DrawError as exc:
+        click.echo(f"{file}: not drawn: {exc}", err=True)
+        sys.exit(1)
+    except OSError as exc:
+        click.echo(f"{output}: cannot write: {exc.strerror or exc}", err=True)
+        sys.exit(2)
+    for note in scene.notes:
+        click.echo(f"{file}: note: {note}", err=True)
+    click.echo(f"wrote {output}", err=True)
+    sys.exit(1 if errors else 0)

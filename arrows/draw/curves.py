@@ -1,0 +1,393 @@
+"""Curved-arrow geometry: where each move's arrow starts and ends, which way it bends, its head.
+
+A pair arrow starts at the lone-pair dots (drawn here, on the side facing the arrow's target) or
+at the midpoint of the source bond, on the side the arrow leaves from. It ends at an atom, short
+of its label, or at the midpoint of the bond that forms or gains order (common practice in
+organic chemistry texts); a new bond made from a lone pair is shown by pointing at the atom that
+receives the pair.
+
+Each arrow is a cubic Bezier fixed by its two ends and the directions it leaves and arrives in.
+A handful of such curves is tried per arrow (leaving from either side of a bond, arriving at an
+atom from any free direction) and one is chosen for every arrow of a step together, by a
+penalty: passing through a label or an atom is nearly forbidden, crossing a bond or another
+arrow is costly, an arc bulging into the molecule costs more than one bulging out, an S-shaped
+arc is avoided, and two heads of one step never share a position.
+"""
+from __future__ import annotations
+
+import cmath
+import itertools
+import math
+from dataclasses import dataclass
+
+import numpy as np
+
+from ..electrons import ElectronState, ResolvedMove
+from .scene import Box, CurvedArrow, Mark
+from .structure import PanelStructure, best_direction, clearance
+from .styles import Style
+
+_SAMPLES = 20
+_KEEP = 6          # candidates per arrow that enter the joint choice
+_T = np.linspace(0.0, 1.0, _SAMPLES + 1)
+_BERNSTEIN = np.stack([(1 - _T) ** 3, 3 * _T * (1 - _T) ** 2, 3 * _T ** 2 * (1 - _T), _T ** 3])
+
+
+def bezier(p0: complex, p1: complex, p2: complex, p3: complex, t: float) -> complex:
+    s = 1 - t
+    return s * s * s * p0 + 3 * s * s * t * p1 + 3 * s * t * t * p2 + t * t * t * p3
+
+
+def split_before(p0: complex, p1: complex, p2: complex, p3: complex, t: float) -> tuple[complex, ...]:
+    """Control points of the part of the curve from 0 to t (de Casteljau)."""
+    a, b, c = p0 + (p1 - p0) * t, p1 + (p2 - p1) * t, p2 + (p3 - p2) * t
+    d, e = a + (b - a) * t, b + (c - b) * t
+    return p0, a, d, d + (e - d) * t
+
+
+def _unit(z: complex) -> complex:
+    return z / abs(z) if abs(z) > 1e-12 else 1 + 0j
+
+
+@dataclass
+class _Anchor:
+    """One end of an arrow, before the curve is chosen."""
+
+    kind: str                 # dots, bond, atom, gap
+    point: complex            # the source or sink point reported in the scene
+    atoms: tuple[int, ...]
+    outward: complex = 0j     # dots: the direction from the atom through the dots
+    extent: float = 0.0       # bond: half-width of its strokes
+    axis: complex = 1 + 0j    # bond or gap: unit vector along it
+
+
+@dataclass
+class _Candidate:
+    p0: complex
+    p1: complex
+    p2: complex
+    tip: complex
+    points: np.ndarray = None  # complex samples along the curve
+    cost: float = 0.0
+
+
+class _Obstacles:
+    """Everything on a panel an arrow should keep away from, as arrays for fast testing."""
+
+    def __init__(self, panel: PanelStructure, extra_marks: list[Mark], bl: float):
+        atoms = sorted(panel.atoms)
+        self.atom_ids = np.array(atoms, dtype=int)
+        self.atom_xy = np.array([panel.positions[i] for i in atoms], dtype=complex)
+        boxes = [panel.atoms[i].box for i in atoms]
+        self.labelled = np.array([b is not None for b in boxes], dtype=bool)
+        pad = 0.05 * bl
+        self.boxes = np.array([(b.x0 - pad, b.y0 - pad, b.x1 + pad, b.y1 + pad) if b else (0, 0, 0, 0)
+                               for b in boxes], dtype=float).reshape(-1, 4)
+        marks = [m.box for m in list(panel.marks) + extra_marks if m.box is not None]
+        mp = 0.03 * bl
+        self.marks = np.array([(b.x0 - mp, b.y0 - mp, b.x1 + mp, b.y1 + mp) for b in marks], dtype=float).reshape(-1, 4)
+        self.mark_owner = np.array([m.atom for m in list(panel.marks) + extra_marks if m.box is not None], dtype=int)
+        pairs = [tuple(sorted(b.atoms)) for b in panel.bonds]
+        self.bond_pairs = pairs
+        self.bond_a = np.array([panel.positions[i] for i, _ in pairs], dtype=complex)
+        self.bond_b = np.array([panel.positions[j] for _, j in pairs], dtype=complex)
+
+
+class ArrowPlanner:
+    """Plans the arrows of one step on one panel."""
+
+    def __init__(self, style: Style, dot_radius: float):
+        self.style = style
+        self.bl = style.bond_length
+        self.fs = style.font_size
+        self.dot_radius = dot_radius
+        self.head_length = max(0.26 * self.bl, 4.5 * style.line_width)
+        self.head_width = 0.78 * self.head_length
+
+    def plan(self, step: int, moves: list[ResolvedMove], state: ElectronState,
+             panel: PanelStructure) -> tuple[list[CurvedArrow], list[Mark]]:
+        marks: list[Mark] = []
+        sinks = [self._sink(move, state, panel) for move in moves]
+        self._separate_shared_sinks(moves, sinks, panel)
+        sources = [self._source(move, panel, sink, marks) for move, sink in zip(moves, sinks)]
+        obstacles = _Obstacles(panel, marks, self.bl)
+        options = []
+        for move, src, snk in zip(moves, sources, sinks):
+            candidates = self._candidates(src, snk, panel)
+            self._score(candidates, src, snk, move, obstacles)
+            candidates.sort(key=lambda c: c.cost)
+            options.append(candidates[:_KEEP])
+        chosen = self._choose(options)
+        arrows = [self._arrow(step, move, src, snk, cand, panel)
+                  for move, src, snk, cand in zip(moves, sources, sinks, chosen)]
+        return arrows, marks
+
+    # anchors
+    def _source(self, move: ResolvedMove, panel: PanelStructure, sink: _Anchor, marks: list[Mark]) -> _Anchor:
+        if move.source_kind == "bond":
+            a, b = move.source_atoms
+            mid = (panel.positions[a] + panel.positions[b]) / 2
+            extent = panel.bond_extent.get((min(a, b), max(a, b)), 0.0)
+            return _Anchor("bond", mid, (a, b), extent=extent, axis=_unit(panel.positions[b] - panel.positions[a]))
+        atom = move.source_atoms[0]
+        centre = panel.positions[atom]
+        direction = best_direction(panel.occupied[atom], _unit(sink.point - centre), spread=0.35)
+        panel.occupied[atom].append(direction)
+        r = self.dot_radius
+        reach = panel.label_reach(atom, direction) or 0.12 * self.bl
+        spot = centre + direction * (reach + r + 0.14 * self.fs)
+        if move.source_kind == "unpaired":
+            # The structure's radical dot moves to face the arrow.
+            panel.marks[:] = [m for m in panel.marks if not (m.kind == "radical" and m.atom == atom)]
+            dots, kind = (spot,), "radical"
+        else:
+            across = direction * 1j * (0.16 * self.fs)
+            dots, kind = (spot + across, spot - across), "lone_pair"
+        box = Box(min(d.real for d in dots) - r, min(d.imag for d in dots) - r,
+                  max(d.real for d in dots) + r, max(d.imag for d in dots) + r)
+        marks.append(Mark(kind, atom, dots=tuple((round(d.real, 4), round(d.imag, 4)) for d in dots),
+                          radius=r, box=box))
+        return _Anchor("dots", spot, (atom,), outward=direction)
+
+    def _sink(self, move: ResolvedMove, state: ElectronState, panel: PanelStructure) -> _Anchor:
+        pos = panel.positions
+        if len(move.sink_atoms) == 1:
+            y = move.sink_atoms[0]
+            return _Anchor("atom", pos[y], (y,))
+        x, y = move.sink_atoms
+        bonded = state.mol.GetBondBetweenAtoms(x, y) is not None
+        if not bonded and move.source_kind in ("lone_pair", "unpaired"):
+            return _Anchor("atom", pos[y], (y,))
+        mid = (pos[x] + pos[y]) / 2
+        axis = _unit(pos[y] - pos[x])
+        if bonded:
+            return _Anchor("bond", mid, (x, y), extent=panel.bond_extent.get((min(x, y), max(x, y)), 0.0), axis=axis)
+        return _Anchor("gap", mid, (x, y), axis=axis)
+
+    def _separate_shared_sinks(self, moves: list[ResolvedMove], sinks: list[_Anchor], panel: PanelStructure) -> None:
+        """Arrows ending at one bond midpoint: each stops on the side of the atom its electrons
+        come from, so the heads never coincide."""
+        groups: dict[tuple, list[int]] = {}
+        for k, sink in enumerate(sinks):
+            if sink.kind in ("gap", "bond"):
+                groups.setdefault((sink.kind, tuple(sorted(sink.atoms))), []).append(k)
+        for members in groups.values():
+            if len(members) < 2:
+                continue
+            for k in members:
+                sink = sinks[k]
+                along = _unit(panel.positions[moves[k].sink_atoms[0]] - sink.point)
+                sink.point = sink.point + along * 0.16 * self.bl
+
+    # candidate curves
+    def _departures(self, src: _Anchor, towards: complex) -> list[tuple[complex, complex]]:
+        """(start point, leaving direction) pairs."""
+        if src.kind == "dots":
+            p0 = src.point + src.outward * (self.dot_radius + 0.12 * self.fs)
+            out = [(p0, src.outward)]
+            for angle in (0.5, -0.5):
+                d = src.outward * cmath.rect(1.0, angle)
+                if (d / _unit(towards - p0)).real > (src.outward / _unit(towards - p0)).real:
+                    out.append((p0, d))
+            return out
+        n = src.axis * 1j
+        out = []
+        for side in (n, -n):
+            p0 = src.point + side * (src.extent + 0.07 * self.bl)
+            lean = _unit(towards - p0)
+            for tilt in (0.0, 0.6):
+                out.append((p0, _unit(side + lean * tilt)))
+        return out
+
+    def _arrivals(self, snk: _Anchor, origin: complex, panel: PanelStructure) -> list[tuple[complex, complex]]:
+        """(tip, outward direction w): the head arrives travelling along -w."""
+        if snk.kind == "atom":
+            y = snk.atoms[0]
+            facing = _unit(origin - snk.point)
+            options = []
+            for k in range(16):
+                w = cmath.rect(1.0, k * math.pi / 8)
+                room = clearance(w, panel.occupied[y])
+                if room < math.radians(32):
+                    continue
+                options.append(((w / facing).real + 0.6 * min(room, math.radians(60)), w))
+            options.sort(key=lambda o: -o[0])
+            out = []
+            for _, w in options[:4]:
+                reach = panel.label_reach(y, w)
+                gap = 0.1 * self.fs if reach else 0.2 * self.bl
+                out.append((snk.point + w * (reach + gap), w))
+            return out or [(snk.point + facing * 0.3 * self.bl, facing)]
+        n = snk.axis * 1j
+        out = []
+        for side in (n, -n):
+            tip = snk.point + (side * (snk.extent + 0.08 * self.bl) if snk.kind == "bond" else 0)
+            lean = _unit(origin - tip)
+            for tilt in (0.0, 0.6):
+                out.append((tip, _unit(side + lean * tilt)))
+        return out
+
+    def _candidates(self, src: _Anchor, snk: _Anchor, panel: PanelStructure) -> list[_Candidate]:
+        out = []
+        bl = self.bl
+        for p0, t0 in self._departures(src, snk.point):
+            for tip, w in self._arrivals(snk, p0, panel):
+                chord = abs(tip - p0)
+                for scale in (0.42, 0.7):
+                    h = max(0.32 * bl, scale * chord)
+                    out.append(_Candidate(p0, p0 + t0 * h, tip + w * h, tip))
+        controls = np.array([[c.p0, c.p1, c.p2, c.tip] for c in out], dtype=complex)
+        points = controls @ _BERNSTEIN
+        for c, row in zip(out, points):
+            c.points = row
+        return out
+
+    # penalties
+    def _score(self, candidates: list[_Candidate], src: _Anchor, snk: _Anchor, move: ResolvedMove,
+               ob: _Obstacles) -> None:
+        bl = self.bl
+        pts = np.stack([c.points for c in candidates])                    # (C, S)
+        p0 = np.array([c.p0 for c in candidates])[:, None]
+        tip = np.array([c.tip for c in candidates])[:, None]
+        inner = (np.abs(pts - p0) > 0.22 * bl) & (np.abs(pts - tip) > 0.22 * bl)
+        x, y = pts.real[:, :, None], pts.imag[:, :, None]
+        own = set(move.source_atoms) | set(move.sink_atoms)
+        is_own = np.array([a in own for a in ob.atom_ids], dtype=bool)
+        cost = np.zeros(len(candidates))
+        if len(ob.atom_ids):
+            inside = (x >= ob.boxes[:, 0]) & (x <= ob.boxes[:, 2]) & (y >= ob.boxes[:, 1]) & (y <= ob.boxes[:, 3])
+            inside &= ob.labelled & inner[:, :, None]
+            weight = np.where(is_own, 40.0, 100.0)
+            cost += (inside * weight).sum(axis=(1, 2))
+            dist = np.abs(pts[:, :, None] - ob.atom_xy)
+            limit = np.where(is_own, 0.12 * bl, 0.24 * bl)
+            near = (dist < limit) & ~ob.labelled & inner[:, :, None]
+            cost += (near * np.where(is_own, 10.0, 30.0)).sum(axis=(1, 2))
+            # Bulging into the molecule: atoms crowding the middle third of the curve.
+            middle = dist[:, _SAMPLES // 3: 2 * _SAMPLES // 3 + 1, :]
+            cost += 3.0 * np.clip(1.1 - middle / bl, 0, None).sum(axis=(1, 2))
+        if len(ob.marks):
+            hit = (x >= ob.marks[:, 0]) & (x <= ob.marks[:, 2]) & (y >= ob.marks[:, 1]) & (y <= ob.marks[:, 3])
+            mine = np.isin(ob.mark_owner, list(src.atoms)) if src.kind == "dots" else np.zeros(len(ob.marks), bool)
+            hit &= inner[:, :, None] & ~mine
+            cost += 30.0 * hit.sum(axis=(1, 2))
+        if ob.bond_pairs:
+            skip = set()
+            if src.kind == "bond":
+                skip.add(tuple(sorted(src.atoms)))
+            if snk.kind == "bond":
+                skip.add(tuple(sorted(snk.atoms)))
+            weight = np.array([0.0 if pair in skip else 6.0 if (pair[0] in own or pair[1] in own) else 18.0
+                               for pair in ob.bond_pairs])
+            crossings = _crossing_counts(pts, ob.bond_a, ob.bond_b)          # (C, E)
+            cost += (crossings * weight).sum(axis=1)
+        # An S-shaped arc: the two control points on opposite sides of the chord.
+        controls = np.array([[c.p1 - c.p0, c.p2 - c.p0, c.tip - c.p0] for c in candidates])
+        chord = controls[:, 2]
+        side1 = (np.conj(chord) * controls[:, 0]).imag
+        side2 = (np.conj(chord) * controls[:, 1]).imag
+        cost += np.where(side1 * side2 < 0, 25.0, 0.0)
+        cost += np.abs(np.diff(pts, axis=1)).sum(axis=1) / bl
+        for c, value in zip(candidates, cost):
+            c.cost = float(value)
+
+    def _pair_cost(self, a: _Candidate, b: _Candidate) -> float:
+        bl = self.bl
+        cost = 0.0
+        if abs(a.tip - b.tip) < 0.45 * bl:
+            cost += 150.0
+        ap, bp = a.points[2:-1], b.points[2:-1]
+        if abs(a.p0 - b.p0) < 0.3 * bl:     # arrows from one bond may share their start
+            ap = ap[np.abs(ap - a.p0) > 0.35 * bl]
+        d = np.abs(ap[:, None] - bp[None, :]) if len(ap) and len(bp) else np.zeros((0, 0))
+        if d.size:
+            cost += 10.0 * float((d.min(axis=1) < 0.15 * bl).sum())
+        cost += 20.0 * float(_crossing_counts(a.points[None, :], b.points[:-1], b.points[1:]).sum())
+        return cost
+
+    def _choose(self, options: list[list[_Candidate]]) -> list[_Candidate]:
+        n = len(options)
+        if n == 0:
+            return []
+        cache: dict[tuple[int, int, int, int], float] = {}
+
+        def pair(i: int, a: int, j: int, b: int) -> float:
+            key = (i, a, j, b)
+            if key not in cache:
+                cache[key] = self._pair_cost(options[i][a], options[j][b])
+            return cache[key]
+
+        def total(pick) -> float:
+            value = sum(options[i][pick[i]].cost for i in range(n))
+            for i in range(n):
+                for j in range(i + 1, n):
+                    value += pair(i, pick[i], j, pick[j])
+            return value
+
+        sizes = [len(o) for o in options]
+        if math.prod(sizes) <= 1300:
+            best = min(itertools.product(*(range(s) for s in sizes)), key=total)
+        else:
+            pick = [0] * n
+            for _ in range(3):
+                for i in range(n):
+                    pick[i] = min(range(sizes[i]), key=lambda a, i=i: total(pick[:i] + [a] + pick[i + 1:]))
+            best = tuple(pick)
+        return [options[i][best[i]] for i in range(n)]
+
+    # the final arrow
+    def _arrow(self, step: int, move: ResolvedMove, src: _Anchor, snk: _Anchor, c: _Candidate,
+               panel: PanelStructure) -> CurvedArrow:
+        p0, p1, p2, tip = c.p0, c.p1, c.p2, c.tip
+        base = bezier(p0, p1, p2, tip, _parameter_at_distance(p0, p1, p2, tip, self.head_length))
+        direction = _unit(tip - base)
+        s0, s1, s2, s3 = split_before(p0, p1, p2, tip, _parameter_at_distance(p0, p1, p2, tip, 0.65 * self.head_length))
+        normal = direction * 1j
+        back = tip - direction * self.head_length
+        notch = tip - direction * 0.72 * self.head_length
+        half = self.head_width / 2
+        if move.electrons == 2:
+            head = (tip, back + normal * half, notch, back - normal * half)
+        else:
+            # One barb, on the outside of the bend.
+            bulge = bezier(p0, p1, p2, tip, 0.5) - (p0 + tip) / 2
+            outside = normal if (bulge / normal).real > 0 else -normal
+            head = (tip, back + outside * half, notch)
+
+        def pt(z: complex) -> tuple[float, float]:
+            return (round(z.real, 4), round(z.imag, 4))
+
+        return CurvedArrow(
+            step=step, move=str(move.move), electrons=move.electrons, source_kind=move.source_kind,
+            source_atoms=tuple(move.source_atoms), sink_atoms=tuple(move.sink_atoms), target_atoms=snk.atoms,
+            source_point=pt(src.point), sink_point=pt(snk.point),
+            sink_box=panel.atoms[snk.atoms[0]].box if snk.kind == "atom" else None,
+            start=pt(s0), control1=pt(s1), control2=pt(s2), end=pt(s3), tip=pt(tip),
+            head=tuple(pt(z) for z in head))
+
+
+def _parameter_at_distance(p0: complex, p1: complex, p2: complex, p3: complex, distance: float) -> float:
+    """The parameter t (near the end) where the curve is `distance` from its end point."""
+    lo, hi = 0.0, 1.0
+    for _ in range(30):
+        mid = (lo + hi) / 2
+        if abs(bezier(p0, p1, p2, p3, mid) - p3) > distance:
+            lo = mid
+        else:
+            hi = mid
+    return lo
+
+
+def _crossing_counts(pts: np.ndarray, a: np.ndarray, b: np.ndarray) -> np.ndarray:
+    """For each polyline (rows of pts) and each segment a[e]-b[e]: how many times they cross."""
+    if len(a) == 0:
+        return np.zeros((pts.shape[0], 0))
+    p, q = pts[:, :-1, None], pts[:, 1:, None]
+
+    def orient(u, v, w):
+        return (np.conj(v - u) * (w - u)).imag
+
+    o1, o2 = orient(p, q, a), orient(p, q, b)
+    o3, o4 = orient(a, b, p), orient(a, b, q)
+    hit = (o1 * o2 < 0) & (o3 * o4 < 0)
+    return hit.sum(axis=1)

@@ -1,0 +1,183 @@
+"""The Scene: a figure as plain data, in points at print size, y growing downwards.
+
+Everything the SVG shows is here with its final geometry (no renderer decides a position), so
+tests and other tools can check the figure itself: bond lengths, label boxes, arrow paths.
+Panel contents are in the panel's own frame, shared by all panels (an atom that does not move
+has the same coordinates in every panel); `Panel.origin` puts that frame on the page.
+"""
+from __future__ import annotations
+
+from dataclasses import dataclass, field
+from typing import Optional
+
+from .styles import Style
+
+Point = tuple[float, float]
+
+
+@dataclass(frozen=True)
+class Box:
+    x0: float
+    y0: float
+    x1: float
+    y1: float
+
+    def contains(self, p: Point, pad: float = 0.0) -> bool:
+        return self.x0 - pad <= p[0] <= self.x1 + pad and self.y0 - pad <= p[1] <= self.y1 + pad
+
+    def overlaps(self, other: "Box", pad: float = 0.0) -> bool:
+        return not (self.x1 + pad <= other.x0 or other.x1 + pad <= self.x0 or
+                    self.y1 + pad <= other.y0 or other.y1 + pad <= self.y0)
+
+    def distance(self, p: Point) -> float:
+        dx = max(self.x0 - p[0], 0.0, p[0] - self.x1)
+        dy = max(self.y0 - p[1], 0.0, p[1] - self.y1)
+        return (dx * dx + dy * dy) ** 0.5
+
+    def union(self, other: "Box") -> "Box":
+        return Box(min(self.x0, other.x0), min(self.y0, other.y0), max(self.x1, other.x1), max(self.y1, other.y1))
+
+    def shifted(self, dx: float, dy: float) -> "Box":
+        return Box(self.x0 + dx, self.y0 + dy, self.x1 + dx, self.y1 + dy)
+
+    @property
+    def width(self) -> float:
+        return self.x1 - self.x0
+
+    @property
+    def height(self) -> float:
+        return self.y1 - self.y0
+
+
+@dataclass(frozen=True)
+class TextRun:
+    """A piece of text on one baseline, starting at (x, y)."""
+
+    text: str
+    x: float
+    y: float
+    size: float
+    italic: bool = False
+    bold: bool = False
+    colour: str = "#000000"
+
+
+@dataclass(frozen=True)
+class AtomDrawing:
+    index: int
+    name: str                      # C7, H(C3), O(atom 12): how diagnostics name the atom
+    element: str
+    position: Point
+    runs: tuple[TextRun, ...] = ()  # empty: a skeletal carbon, drawn as a vertex
+    box: Optional[Box] = None       # the label's box, None for a skeletal carbon
+
+
+@dataclass(frozen=True)
+class BondDrawing:
+    atoms: tuple[int, int]
+    order: int
+    lines: tuple[tuple[Point, Point], ...]
+    role: str = "plain"            # plain, formed (by the step arriving), broken (by the step leaving)
+    colour: str = "#000000"
+
+
+@dataclass(frozen=True)
+class Mark:
+    """Something drawn beside an atom: a charge, a map number, a CIP label (text), a radical or
+    a lone pair (dots), or an error ring around the atom."""
+
+    kind: str                      # charge, number, cip, radical, lone_pair, error
+    atom: int
+    runs: tuple[TextRun, ...] = ()
+    dots: tuple[Point, ...] = ()
+    radius: float = 0.0            # dot radius, or ring radius for an error mark
+    box: Optional[Box] = None
+    colour: str = "#000000"
+
+
+@dataclass(frozen=True)
+class CurvedArrow:
+    """One move: a cubic Bezier shaft (start, control1, control2, end) and a head ending at tip.
+
+    source_point is the lone-pair dots, the unpaired electron or the midpoint of the source bond;
+    sink_point is the sink atom or the midpoint of the bond that forms or gains order. sink_box is
+    the label the head stops short of, when the sink is a labelled atom."""
+
+    step: int
+    move: str
+    electrons: int
+    source_kind: str
+    source_atoms: tuple[int, ...]
+    sink_atoms: tuple[int, ...]
+    target_atoms: tuple[int, ...]  # what the head points at: one atom, or the two ends of a bond
+    source_point: Point
+    sink_point: Point
+    sink_box: Optional[Box]
+    start: Point
+    control1: Point
+    control2: Point
+    end: Point
+    tip: Point
+    head: tuple[Point, ...]
+    colour: str = "#000000"
+
+    def shaft_points(self, n: int = 40) -> list[Point]:
+        (x0, y0), (x1, y1), (x2, y2), (x3, y3) = self.start, self.control1, self.control2, self.end
+        out = []
+        for k in range(n + 1):
+            t = k / n
+            a, b, c, d = (1 - t) ** 3, 3 * t * (1 - t) ** 2, 3 * t * t * (1 - t), t ** 3
+            out.append((a * x0 + b * x1 + c * x2 + d * x3, a * y0 + b * y1 + c * y2 + d * y3))
+        return out
+
+    def path_points(self, n: int = 40) -> list[Point]:
+        """The shaft sampled, then the head up to the tip."""
+        return self.shaft_points(n) + [self.tip]
+
+
+@dataclass(frozen=True)
+class Panel:
+    index: int
+    step: Optional[int]            # the step whose moves are drawn here (None on the last panel)
+    origin: Point
+    box: Box                       # everything drawn, in the panel frame
+    atoms: tuple[AtomDrawing, ...]
+    bonds: tuple[BondDrawing, ...]
+    marks: tuple[Mark, ...]
+    arrows: tuple[CurvedArrow, ...]
+    placeholder: tuple[TextRun, ...] = ()   # text shown instead of a structure that could not be derived
+
+    def atom(self, index: int) -> Optional[AtomDrawing]:
+        for a in self.atoms:
+            if a.index == index:
+                return a
+        return None
+
+
+@dataclass(frozen=True)
+class ReactionArrow:
+    """The arrow between two panels: its strokes and filled heads in page coordinates, with the
+    text over and under it."""
+
+    step: int
+    kind: str                      # forward, reversible, resonance
+    start: Point
+    end: Point
+    lines: tuple[tuple[Point, Point], ...]
+    heads: tuple[tuple[Point, ...], ...]
+    texts: tuple[TextRun, ...]
+    box: Box
+
+
+@dataclass(frozen=True)
+class Scene:
+    style: Style
+    width: float
+    height: float
+    bond_length: float
+    title: str
+    description: str
+    panels: tuple[Panel, ...]
+    reaction_arrows: tuple[ReactionArrow, ...]
+    texts: tuple[TextRun, ...] = ()          # title and footnotes, page coordinates
+    notes: tuple[str, ...] = field(default=())   # what the layout had to compromise on

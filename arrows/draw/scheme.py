@@ -1,0 +1,461 @@
+"""A whole mechanism as a Scene: panels (the starting state, then the state after each step),
+the curved arrows of each step on the panel it leaves, reaction arrows with their text, rows
+wrapped to the page width, a title, and error marks when a faulty mechanism is drawn anyway.
+"""
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass, field, replace
+from typing import Optional, Sequence
+
+from rdkit import Chem
+from rdkit.Chem.rdMolDescriptors import CalcMolFormula
+
+from ..diagnostics import Diagnostic, ERROR
+from ..electrons import ElectronState, ResolvedMove
+from ..trace import StepTrace, Trace
+from .curves import ArrowPlanner
+from .layout import compute_layout
+from .scene import Box, Mark, Panel, ReactionArrow, Scene, TextRun
+from .structure import MINUS, StructureDrawer
+from .styles import ERROR_COLOUR, SMALLEST_TEXT_PT, Style
+from .text import FontFace, wrap
+
+
+class DrawError(Exception):
+    """The trace cannot be drawn at all (no starting state)."""
+
+
+@dataclass
+class _PanelSource:
+    state: ElectronState
+    leaving: Optional[StepTrace]       # the step whose arrows are drawn on this panel
+    arriving: Optional[StepTrace]      # the step that produced this state
+    hidden: frozenset[int] = frozenset()   # atoms shown as "+ name" over the arrow instead
+
+
+@dataclass
+class _Item:
+    """A panel or a reaction arrow before it is put on the page."""
+
+    width: float
+    above: float        # extent above the row's centre line
+    below: float
+    panel: Optional[Panel] = None
+    arrow_index: Optional[int] = None
+
+
+@dataclass
+class _ArrowSpec:
+    step: int
+    kind: str
+    over: list[str] = field(default_factory=list)
+    under: list[str] = field(default_factory=list)
+    note: list[str] = field(default_factory=list)   # step label, in italics
+    marker: str = ""
+
+
+def _panel_sources(trace: Trace) -> list[_PanelSource]:
+    if trace.initial is None:
+        raise DrawError("the mechanism has no starting state to draw")
+    steps = trace.steps
+    if not steps:
+        return [_PanelSource(trace.initial, None, None)]
+    out: list[_PanelSource] = []
+    for k, st in enumerate(steps):
+        out.append(_PanelSource(st.before, st, steps[k - 1] if k else None, _unused_entries(st)))
+        if st.after is None:
+            return out
+    out.append(_PanelSource(steps[-1].after, None, steps[-1]))
+    return out
+
+
+def _unused_entries(st: StepTrace) -> frozenset[int]:
+    """Atoms of species entering with `uses` that no arrow of the step touches: they are named
+    over the reaction arrow instead of drawn."""
+    if not st.entered:
+        return frozenset()
+    touched = {i for m in st.change.moves for i in m.source_atoms + m.sink_atoms}
+    fragments = Chem.GetMolFrags(st.before.mol, asMols=False, sanitizeFrags=False)
+    hidden = set()
+    for frag in fragments:
+        if set(frag) <= set(st.entered) and not set(frag) & touched:
+            hidden |= set(frag)
+    return frozenset(hidden)
+
+
+def build_scene(trace: Trace, style: Style, diagnostics: Sequence[Diagnostic] = ()) -> Scene:
+    """Lay out the whole scheme. Shrinks it (and says so in `notes`) if one panel is wider than
+    the page, or the slide is too tall."""
+    scene, fit = _SceneBuilder(trace, style, diagnostics).build()
+    if fit < 0.999:
+        smaller = style.scaled(fit * 0.995)
+        scene, _ = _SceneBuilder(trace, smaller, diagnostics, style).build()
+        note = f"drawn at {fit:.0%} of the {style.name} size to fit the page"
+        if smaller.small_size < SMALLEST_TEXT_PT:
+            note += (f"; the smallest text is {smaller.small_size:.1f} pt (below {SMALLEST_TEXT_PT:g} pt): "
+                     "try a wider style")
+        scene = replace(scene, notes=(note,) + scene.notes)
+    return scene
+
+
+class _SceneBuilder:
+    def __init__(self, trace: Trace, style: Style, diagnostics: Sequence[Diagnostic], page_style: Style = None):
+        self.trace, self.style, self.diagnostics = trace, style, list(diagnostics)
+        self.page = page_style or style
+        self.face = FontFace(style.font_family)
+        self.bold = FontFace(style.font_family, bold=True)
+        self.italic = FontFace(style.font_family, italic=True)
+        self.bl = style.bond_length
+        self.drawer = StructureDrawer(style)
+        self.planner = ArrowPlanner(style, self.drawer.dot_radius)
+        self.errors = [d for d in self.diagnostics if d.severity == ERROR]
+        self.fit = 1.0
+
+    # panels
+    def build(self) -> tuple[Scene, float]:
+        sources = _panel_sources(self.trace)
+        states = [s.state for s in sources]
+        moves = [list(s.leaving.change.moves) if s.leaving else [] for s in sources]
+        layout = compute_layout(states, moves)
+        panels = []
+        for k, (src, placed) in enumerate(zip(sources, layout.panels)):
+            panels.append(self._panel(k, src, placed, layout.drawn_hydrogens, moves[k]))
+        specs = [self._arrow_spec(src.leaving, src.hidden) for src in sources if src.leaving is not None]
+        failed = sources[-1].leaving is not None and sources[-1].leaving.after is None
+        if failed:
+            panels.append(self._placeholder(len(panels)))
+        return self._compose(panels, specs)
+
+    def _panel(self, k: int, src: _PanelSource, placed, drawn_h: frozenset[int],
+               moves: list[ResolvedMove]) -> Panel:
+        bl = self.bl
+        visible = tuple(i for i in placed.visible if i not in src.hidden)
+        positions = {i: placed.positions[i] * bl for i in visible}
+        formed, broken = set(), set()
+        if src.arriving is not None:
+            change = src.arriving.change
+            formed |= {tuple(sorted(b)) for b in change.formed}
+            formed |= {tuple(sorted(b)) for b, old, new in change.reordered if new > old}
+        if src.leaving is not None:
+            change = src.leaving.change
+            broken |= {tuple(sorted(b)) for b in change.broken}
+            broken |= {tuple(sorted(b)) for b, old, new in change.reordered if new < old}
+        structure = self.drawer.draw(src.state, visible, positions, drawn_h, formed, broken)
+        arrows, dots = [], []
+        step = src.leaving.index if src.leaving is not None else None
+        if src.leaving is not None:
+            usable = [m for m in moves if all(i in positions for i in m.source_atoms + m.sink_atoms)]
+            arrows, dots = self.planner.plan(step, usable, src.state, structure)
+        marks = list(structure.marks) + dots + self._error_rings(step, src.state, structure)
+        atoms = tuple(structure.atoms[i] for i in visible)
+        box = _panel_box(atoms, structure.bonds, marks, arrows, 0.15 * bl)
+        return Panel(k, step, (0.0, 0.0), box, atoms, tuple(structure.bonds), tuple(marks), tuple(arrows))
+
+    def _error_rings(self, step: Optional[int], state: ElectronState, structure) -> list[Mark]:
+        if step is None:
+            return []
+        names = {state.label(i): i for i in structure.atoms}
+        rings = []
+        for d in self.errors:
+            if d.step != step:
+                continue
+            wanted = list(d.atoms) + [a for pair in d.bonds for a in pair]
+            for name in wanted:
+                i = names.get(name)
+                if i is not None and not any(m.atom == i for m in rings):
+                    p = structure.positions[i]
+                    r = 0.42 * self.bl
+                    rings.append(Mark("error", i, radius=r, box=Box(p.real - r, p.imag - r, p.real + r, p.imag + r),
+                                      colour=ERROR_COLOUR))
+        return rings
+
+    def _placeholder(self, k: int) -> Panel:
+        fs = self.style.font_size
+        text = "structure not derived"
+        w = self.italic.width(text, fs)
+        q = self.bold.width("?", 2 * fs)
+        runs = (TextRun("?", -q / 2, 0.0, 2 * fs, bold=True, colour=ERROR_COLOUR),
+                TextRun(text, -w / 2, 1.4 * fs, fs, italic=True, colour=ERROR_COLOUR))
+        box = Box(-w / 2, -2 * fs * self.face.cap_height, w / 2, 1.4 * fs + 0.2 * fs)
+        return Panel(k, None, (0.0, 0.0), box, (), (), (), (), placeholder=runs)
+
+    # reaction arrows
+    def _arrow_spec(self, st: StepTrace, hidden: frozenset[int]) -> _ArrowSpec:
+        step = st.step
+        spec = _ArrowSpec(st.index, step.kind)
+        limit = max(4.5 * self.bl, 0.2 * self.page.page_width * self.style.bond_length / self.page.bond_length)
+        if hidden:
+            entering = ", ".join("+ " + f for f in _formulas(st.before.mol, sorted(hidden)))
+            spec.over += wrap(entering, self.face, self.style.font_size, limit)
+        if step.over:
+            spec.over += wrap(step.over, self.face, self.style.font_size, limit)
+        if step.under:
+            spec.under += wrap(step.under, self.face, self.style.font_size, limit)
+        if st.released_now and st.after is not None:
+            spec.under += wrap(", ".join(MINUS + f for f in _formulas(st.after.mol, st.released_now)),
+                               self.face, self.style.font_size, limit)
+        if self.style.step_labels and step.label:
+            spec.note = wrap(step.label, self.italic, self.style.small_size, limit)
+        numbers = [str(k + 1) for k, d in enumerate(self.errors) if d.step == st.index]
+        if numbers:
+            spec.marker = "error " + ", ".join(numbers)
+        return spec
+
+    def _arrow_item(self, spec: _ArrowSpec) -> _Item:
+        fs, ss = self.style.font_size, self.style.small_size
+        widths = [self.face.width(t, fs) for t in spec.over + spec.under]
+        widths += [self.italic.width(t, ss) for t in spec.note]
+        if spec.marker:
+            widths.append(self.bold.width(spec.marker, ss))
+        length = max(2.6 * self.bl, max(widths, default=0.0) + 0.5 * self.bl)
+        line = 1.2 * fs
+        above = 0.35 * fs + line * (len(spec.over) + (1 if spec.marker else 0)) + 0.2 * fs
+        below = 0.35 * fs + line * len(spec.under) + 1.2 * ss * len(spec.note) + 0.3 * fs
+        return _Item(length, max(above, 0.4 * self.bl), max(below, 0.4 * self.bl))
+
+    def _reaction_arrow(self, spec: _ArrowSpec, x0: float, x1: float, y: float) -> ReactionArrow:
+        fs, ss, lw = self.style.font_size, self.style.small_size, self.style.line_width
+        L = max(0.32 * self.bl, 5.5 * lw)
+        W = 0.62 * L
+        lines, heads = [], []
+        if spec.kind == "reversible":
+            g = max(0.09 * self.bl, 2.2 * lw)
+            top, bottom = y - g, y + g
+            lines += [((x0, top), (x1 - 0.3 * L, top)), ((x0 + 0.3 * L, bottom), (x1, bottom))]
+            heads += [((x1, top), (x1 - L, top - W * 0.8), (x1 - L * 0.75, top)),
+                      ((x0, bottom), (x0 + L, bottom + W * 0.8), (x0 + L * 0.75, bottom))]
+        else:
+            start = x0 + 0.7 * L if spec.kind == "resonance" else x0
+            lines.append(((start, y), (x1 - 0.7 * L, y)))
+            heads.append(((x1, y), (x1 - L, y - W / 2), (x1 - 0.72 * L, y), (x1 - L, y + W / 2)))
+            if spec.kind == "resonance":
+                heads.append(((x0, y), (x0 + L, y - W / 2), (x0 + 0.72 * L, y), (x0 + L, y + W / 2)))
+        mid = (x0 + x1) / 2
+        texts = []
+        line = 1.2 * fs
+        baseline = y - 0.35 * fs - 0.25 * fs
+        over = list(spec.over)
+        for k, text in enumerate(reversed(over)):
+            w = self.face.width(text, fs)
+            texts.append(TextRun(text, mid - w / 2, baseline - k * line, fs))
+        if spec.marker:
+            w = self.bold.width(spec.marker, ss)
+            texts.append(TextRun(spec.marker, mid - w / 2, baseline - len(over) * line, ss, bold=True,
+                                 colour=ERROR_COLOUR))
+        baseline = y + 0.35 * fs + self.face.cap_height * fs + 0.15 * fs
+        for k, text in enumerate(spec.under):
+            w = self.face.width(text, fs)
+            texts.append(TextRun(text, mid - w / 2, baseline + k * line, fs))
+        baseline += len(spec.under) * line
+        for k, text in enumerate(spec.note):
+            w = self.italic.width(text, ss)
+            texts.append(TextRun(text, mid - w / 2, baseline + k * 1.2 * ss, ss, italic=True))
+        boxes = [Box(x0, y - W, x1, y + W)] + [_run_box(self, t) for t in texts]
+        box = boxes[0]
+        for b in boxes[1:]:
+            box = box.union(b)
+        return ReactionArrow(spec.step, spec.kind, (x0, y), (x1, y), tuple(lines), tuple(heads), tuple(texts), box)
+
+    # page
+    def _compose(self, panels: list[Panel], specs: list[_ArrowSpec]) -> tuple[Scene, float]:
+        style, page = self.style, self.page
+        margin = page.margin
+        avail = page.page_width - 2 * margin
+        gap = 0.35 * self.bl
+        items = []
+        for k, panel in enumerate(panels):
+            if k > 0 and k - 1 < len(specs):
+                arrow = self._arrow_item(specs[k - 1])
+                arrow.arrow_index = k - 1
+                items.append(arrow)
+            centre = _panel_centre(panel)
+            items.append(_Item(panel.box.width, centre - panel.box.y0, panel.box.y1 - centre, panel=panel))
+        # Rows: a reaction arrow always travels with the panel after it.
+        units: list[list[_Item]] = [[items[0]]] + [items[k:k + 2] for k in range(1, len(items), 2)]
+        widest = max(sum(i.width for i in u) + gap * (len(u) - 1) for u in units)
+        rows: list[list[_Item]] = []
+        width = 0.0
+        for unit in units:
+            unit_width = sum(i.width for i in unit) + gap * (len(unit) - 1)
+            if rows and width + gap + unit_width <= avail + 1e-6:
+                rows[-1].extend(unit)
+                width += gap + unit_width
+            else:
+                rows.append(list(unit))
+                width = unit_width
+        self.fit = min(1.0, avail / widest) if widest > avail else 1.0
+
+        texts: list[TextRun] = []
+        y = margin
+        mechanism = self.trace.mechanism
+        if style.show_title and mechanism.title:
+            ts = style.title_size
+            for line in wrap(mechanism.title, self.bold, ts, avail):
+                y += self.bold.cap_height * ts
+                texts.append(TextRun(line, margin, y, ts, bold=True))
+                y += 0.45 * ts
+            y += 0.4 * self.bl
+        placed_panels, arrows = [], []
+        row_gap = 0.5 * self.bl
+        for r, row in enumerate(rows):
+            above = max(i.above for i in row)
+            below = max(i.below for i in row)
+            centre_y = y + above
+            row_width = sum(i.width for i in row) + gap * (len(row) - 1)
+            x = margin + (avail - row_width) / 2
+            for item in row:
+                if item.panel is not None:
+                    p = item.panel
+                    origin = (x - p.box.x0, centre_y - _panel_centre(p))
+                    placed_panels.append(_placed(p, origin))
+                else:
+                    arrows.append(self._reaction_arrow(specs[item.arrow_index], x, x + item.width, centre_y))
+                x += item.width + gap
+            y = centre_y + below + (row_gap if r < len(rows) - 1 else 0.0)
+        if self.errors:
+            y += 0.5 * self.bl
+            ss = style.small_size
+            for k, d in enumerate(self.errors):
+                text = f"error {k + 1}: {d.loc} {d.code} {d.message}"
+                for line in wrap(text, self.face, ss, avail):
+                    y += self.face.cap_height * ss
+                    texts.append(TextRun(line, margin, y, ss, colour=ERROR_COLOUR))
+                    y += 0.45 * ss
+        height = y + margin
+        page_height = page.page_height
+        if page_height is not None:
+            if height > page_height:
+                self.fit = min(self.fit, page_height / height)
+            shift = max(0.0, (page_height - height) / 2)
+            placed_panels = [_placed(p, (p.origin[0], p.origin[1] + shift)) for p in placed_panels]
+            arrows = [_shift_arrow(a, shift) for a in arrows]
+            height = page_height
+        scene = Scene(style=style, width=page.page_width, height=height, bond_length=self.bl,
+                      title=mechanism.title or mechanism.source_name, description=_description(self.trace),
+                      panels=tuple(placed_panels), reaction_arrows=tuple(arrows), texts=tuple(texts),
+                      notes=())
+        return scene, self.fit
+
+
+def _formulas(mol: Chem.Mol, atoms: Sequence[int]) -> list[str]:
+    """Molecular formulas of the fragments made of `atoms`, with subscripts and charges."""
+    wanted = set(atoms)
+    out = []
+    for frag in Chem.GetMolFrags(mol, asMols=False, sanitizeFrags=False):
+        if set(frag) <= wanted:
+            sub = Chem.RWMol(Chem.PathToSubmol(mol, _bonds_of(mol, frag)) if len(frag) > 1 else
+                             _single_atom(mol, frag[0]))
+            sub.UpdatePropertyCache(strict=False)
+            out.append(_pretty_formula(CalcMolFormula(sub)))
+    return out
+
+
+def _bonds_of(mol: Chem.Mol, frag: Sequence[int]) -> list[int]:
+    inside = set(frag)
+    return [b.GetIdx() for b in mol.GetBonds() if b.GetBeginAtomIdx() in inside and b.GetEndAtomIdx() in inside]
+
+
+def _single_atom(mol: Chem.Mol, index: int) -> Chem.Mol:
+    work = Chem.RWMol()
+    atom = mol.GetAtomWithIdx(index)
+    copy = Chem.Atom(atom.GetAtomicNum())
+    copy.SetFormalCharge(atom.GetFormalCharge())
+    copy.SetNumExplicitHs(atom.GetNumExplicitHs())
+    copy.SetNoImplicit(True)
+    copy.SetNumRadicalElectrons(atom.GetNumRadicalElectrons())
+    work.AddAtom(copy)
+    return work.GetMol()
+
+
+_SUB = str.maketrans("0123456789", "\u2080\u2081\u2082\u2083\u2084\u2085\u2086\u2087\u2088\u2089")
+_SUP = str.maketrans("0123456789+-", "\u2070\u00b9\u00b2\u00b3\u2074\u2075\u2076\u2077\u2078\u2079\u207a\u207b")
+
+
+def _pretty_formula(formula: str) -> str:
+    """C2H6O -> C₂H₆O; HO- -> HO⁻; SO4-2 -> SO₄²⁻."""
+    body, charge = formula, ""
+    for k, ch in enumerate(formula):
+        if ch in "+-":
+            body, charge = formula[:k], formula[k:]
+            break
+    if charge:
+        sign, count = charge[0], charge[1:]
+        charge = (count + sign) if count else sign
+    return body.translate(_SUB) + charge.translate(_SUP)
+
+
+def _panel_centre(panel: Panel) -> float:
+    """The row's centre line passes through the middle of the panel's atoms."""
+    if not panel.atoms:
+        return (panel.box.y0 + panel.box.y1) / 2
+    ys = [a.position[1] for a in panel.atoms]
+    return (min(ys) + max(ys)) / 2
+
+
+def _panel_box(atoms, bonds, marks, arrows, pad: float) -> Box:
+    xs, ys = [], []
+    for a in atoms:
+        if a.box is not None:
+            xs += [a.box.x0, a.box.x1]
+            ys += [a.box.y0, a.box.y1]
+        else:
+            xs.append(a.position[0])
+            ys.append(a.position[1])
+    for b in bonds:
+        for p, q in b.lines:
+            xs += [p[0], q[0]]
+            ys += [p[1], q[1]]
+    for m in marks:
+        if m.box is not None:
+            xs += [m.box.x0, m.box.x1]
+            ys += [m.box.y0, m.box.y1]
+    for a in arrows:
+        for p in a.shaft_points(16) + list(a.head):
+            xs.append(p[0])
+            ys.append(p[1])
+    if not xs:
+        return Box(0, 0, 0, 0)
+    return Box(min(xs) - pad, min(ys) - pad, max(xs) + pad, max(ys) + pad)
+
+
+def _placed(panel: Panel, origin) -> Panel:
+    return replace(panel, origin=(round(origin[0], 4), round(origin[1], 4)))
+
+
+def _shift_arrow(arrow: ReactionArrow, dy: float) -> ReactionArrow:
+    move = lambda p: (p[0], p[1] + dy)
+    return replace(arrow, start=move(arrow.start), end=move(arrow.end),
+                   lines=tuple((move(a), move(b)) for a, b in arrow.lines),
+                   heads=tuple(tuple(move(p) for p in h) for h in arrow.heads),
+                   texts=tuple(replace(t, y=t.y + dy) for t in arrow.texts), box=arrow.box.shifted(0, dy))
+
+
+def _run_box(builder: _SceneBuilder, run: TextRun) -> Box:
+    face = builder.bold if run.bold else builder.italic if run.italic else builder.face
+    return Box(run.x, run.y - face.cap_height * run.size, run.x + face.width(run.text, run.size),
+               run.y + 0.22 * run.size)
+
+
+def _description(trace: Trace) -> str:
+    """Plain-language summary for screen readers: caption, then the steps."""
+    mechanism = trace.mechanism
+    parts = []
+    if mechanism.caption:
+        parts.append(mechanism.caption.rstrip(".") + ".")
+    steps = []
+    for k, step in enumerate(mechanism.steps):
+        extra = []
+        if step.kind != "forward":
+            extra.append(step.kind)
+        if step.over:
+            extra.append(step.over)
+        if step.under:
+            extra.append(step.under)
+        moves = "; ".join(str(m) for m in step.moves)
+        steps.append(f"step {k + 1}, {step.label}" + (f" ({', '.join(extra)})" if extra else "")
+                     + (f": {moves}" if moves else ""))
+    if steps:
+        parts.append(f"Curved-arrow mechanism in {len(steps)} step{'s' if len(steps) != 1 else ''}: "
+                     + "; ".join(steps) + ".")
+    return " ".join(parts)

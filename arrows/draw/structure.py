@@ -1,0 +1,316 @@
+"""One panel's structures as drawing parts: atom labels, bond strokes, charges, radical dots, map
+numbers and CIP labels, in points.
+
+Conventions (IUPAC 2008 graphical representation recommendations, references.md; common
+practice): skeletal carbons are vertices; every other atom is a label centred on its position
+with its implicit hydrogens on the side away from its bonds; bonds stop short of labels; a ring
+double bond has its second line inside the ring, a chain double bond on the side of its
+substituents, a double bond to a terminal atom is centred; charges sit beside the atom where no
+bond is.
+"""
+from __future__ import annotations
+
+import cmath
+import math
+from dataclasses import dataclass, field
+from typing import Optional
+
+from rdkit import Chem
+
+from ..electrons import ElectronState
+from .scene import AtomDrawing, BondDrawing, Box, Mark, TextRun
+from .styles import BROKEN_COLOUR, FORMED_COLOUR, INK, Style
+from .text import FontFace
+
+# Hydrogens of an isolated atom go before the symbol for these elements (H2O, HO-, H2S, HCl):
+# common practice in chemical formulas.
+_HYDROGEN_FIRST = {8, 9, 16, 17, 34, 35, 53}
+MINUS = "\u2212"
+
+
+@dataclass
+class PanelStructure:
+    """What structure.py draws for one panel, plus what later placement must avoid."""
+
+    atoms: dict[int, AtomDrawing]
+    bonds: list[BondDrawing]
+    marks: list[Mark]
+    positions: dict[int, complex]                 # points, panel frame
+    occupied: dict[int, list[complex]] = field(default_factory=dict)   # unit directions taken around each atom
+    bond_extent: dict[tuple[int, int], float] = field(default_factory=dict)  # half-width of each bond's strokes
+
+    def label_reach(self, atom: int, direction: complex) -> float:
+        """How far the atom's label reaches from its centre along direction (0: no label)."""
+        box = self.atoms[atom].box
+        if box is None:
+            return 0.0
+        return ray_exit(self.positions[atom], direction, box)
+
+
+def ray_exit(origin: complex, direction: complex, box: Box) -> float:
+    """Distance from origin (inside box) to the box edge along direction."""
+    best = math.inf
+    if abs(direction.real) > 1e-12:
+        for x in (box.x0, box.x1):
+            t = (x - origin.real) / direction.real
+            if t > 0:
+                best = min(best, t)
+    if abs(direction.imag) > 1e-12:
+        for y in (box.y0, box.y1):
+            t = (y - origin.imag) / direction.imag
+            if t > 0:
+                best = min(best, t)
+    return 0.0 if best is math.inf else best
+
+
+def clip_from(p: complex, q: complex, box: Optional[Box], pad: float) -> complex:
+    """The point where segment p->q leaves box (grown by pad); p itself when there is no box."""
+    if box is None:
+        return p
+    grown = Box(box.x0 - pad, box.y0 - pad, box.x1 + pad, box.y1 + pad)
+    length = abs(q - p)
+    if length == 0:
+        return p
+    t = ray_exit(p, (q - p) / length, grown)
+    return p + (q - p) / length * min(t, length * 0.45)
+
+
+def _angle_gap(a: complex, b: complex) -> float:
+    return abs(cmath.phase(a / b)) if a and b else math.pi
+
+
+def clearance(direction: complex, occupied: list[complex]) -> float:
+    """Smallest angle between direction and any occupied direction."""
+    return min((_angle_gap(direction, o) for o in occupied), default=math.pi)
+
+
+def best_direction(occupied: list[complex], preferred: complex, spread: float = 0.25) -> complex:
+    """The direction (every 15 degrees) with the most room, leaning to `preferred`."""
+    best, best_score = preferred, -math.inf
+    for k in range(24):
+        d = cmath.rect(1.0, k * math.pi / 12)
+        room = min(clearance(d, occupied), math.radians(75))
+        score = room - spread * _angle_gap(d, preferred)
+        if score > best_score + 1e-9:
+            best, best_score = d, score
+    return best
+
+
+class StructureDrawer:
+    """Turns one panel's state and atom positions into labels, bonds and marks."""
+
+    def __init__(self, style: Style):
+        self.style = style
+        self.face = FontFace(style.font_family)
+        self.italic = FontFace(style.font_family, italic=True)
+        self.cap = self.face.cap_height * style.font_size
+        self.small_cap = self.face.cap_height * style.small_size
+
+    def draw(self, state: ElectronState, visible: tuple[int, ...], positions: dict[int, complex],
+             drawn_hydrogens: frozenset[int], formed: set[tuple[int, int]] = frozenset(),
+             broken: set[tuple[int, int]] = frozenset()) -> PanelStructure:
+        mol = state.mol
+        shown = set(visible)
+        neighbours = {i: [n.GetIdx() for n in mol.GetAtomWithIdx(i).GetNeighbors() if n.GetIdx() in shown]
+                      for i in visible}
+        out = PanelStructure({}, [], [], dict(positions), {i: [] for i in visible})
+        for i in visible:
+            for n in neighbours[i]:
+                d = positions[n] - positions[i]
+                if abs(d) > 1e-9:
+                    out.occupied[i].append(d / abs(d))
+        for i in visible:
+            out.atoms[i] = self._atom(state, i, positions, neighbours[i], drawn_hydrogens, out)
+        rings = [list(r) for r in Chem.GetSymmSSSR(mol)] if mol.GetNumBonds() else []
+        for bond in mol.GetBonds():
+            i, j = bond.GetBeginAtomIdx(), bond.GetEndAtomIdx()
+            if i in shown and j in shown:
+                key = (min(i, j), max(i, j))
+                role = "broken" if key in broken else "formed" if key in formed else "plain"
+                out.bonds.append(self._bond(i, j, int(bond.GetBondTypeAsDouble()), role, out, neighbours, rings))
+        for i in visible:
+            self._charge_and_radical(state, i, out)
+        if self.style.numbers:
+            for i in visible:
+                number = mol.GetAtomWithIdx(i).GetAtomMapNum()
+                if number:
+                    out.marks.append(self._side_text("number", i, str(number), out, preferred=cmath.rect(1, math.pi / 4)))
+        if self.style.cip:
+            self._cip_marks(state, visible, out)
+        return out
+
+    # atoms and labels
+    def _atom(self, state: ElectronState, i: int, positions: dict[int, complex], neighbours: list[int],
+              drawn_hydrogens: frozenset[int], out: PanelStructure) -> AtomDrawing:
+        atom = state.mol.GetAtomWithIdx(i)
+        p = positions[i]
+        name = state.label(i)
+        symbol = atom.GetSymbol()
+        point = (p.real, p.imag)
+        hidden_h = atom.GetNumExplicitHs() + sum(
+            1 for n in atom.GetNeighbors() if n.GetAtomicNum() == 1 and n.GetIdx() not in drawn_hydrogens)
+        if atom.GetAtomicNum() == 6 and neighbours:
+            return AtomDrawing(i, name, symbol, point)
+        fs, ss = self.style.font_size, self.style.small_size
+        baseline = p.imag + self.cap / 2
+        w_symbol = self.face.width(symbol, fs)
+        runs = [TextRun(symbol, p.real - w_symbol / 2, baseline, fs)]
+        if hidden_h:
+            count = str(hidden_h) if hidden_h > 1 else ""
+            w_h, w_n = self.face.width("H", fs), self.face.width(count, ss)
+            side = self._hydrogen_side(atom, out.occupied[i])
+            sub_drop = 0.3 * fs
+            if side == 1:
+                x = p.real + w_symbol / 2
+                runs.append(TextRun("H", x, baseline, fs))
+                if count:
+                    runs.append(TextRun(count, x + w_h, baseline + sub_drop, ss))
+            elif side == -1:
+                x = p.real - w_symbol / 2 - w_h - w_n
+                runs.insert(0, TextRun("H", x, baseline, fs))
+                if count:
+                    runs.insert(1, TextRun(count, x + w_h, baseline + sub_drop, ss))
+            else:
+                x = p.real - (w_h + w_n) / 2
+                line = baseline + side.imag * 1.1 * fs
+                runs.append(TextRun("H", x, line, fs))
+                if count:
+                    runs.append(TextRun(count, x + w_h, line + sub_drop, ss))
+            out.occupied[i].append(complex(side) if side in (1, -1) else side)
+        return AtomDrawing(i, name, symbol, point, tuple(runs), self._runs_box(runs))
+
+    def _hydrogen_side(self, atom: Chem.Atom, occupied: list[complex]):
+        """1 (right), -1 (left), 1j (below) or -1j (above): the first with room for 'H'."""
+        if not occupied:
+            return -1 if atom.GetAtomicNum() in _HYDROGEN_FIRST else 1
+        limit = math.radians(65)
+        for side in (1, -1):
+            if clearance(complex(side), occupied) >= limit:
+                return side
+        return max((1j, -1j, 1, -1), key=lambda s: clearance(complex(s), occupied))
+
+    def _runs_box(self, runs: list[TextRun]) -> Box:
+        boxes = [self.text_box(r) for r in runs]
+        box = boxes[0]
+        for b in boxes[1:]:
+            box = box.union(b)
+        return box
+
+    def text_box(self, run: TextRun) -> Box:
+        face = self.italic if run.italic else self.face
+        cap = face.cap_height * run.size
+        width = face.width(run.text, run.size)
+        low = run.y + (0.2 * run.size if any(c in run.text for c in "()gjpqy") else 0.0)
+        return Box(run.x, run.y - cap, run.x + width, low)
+
+    # bonds
+    def _bond(self, i: int, j: int, order: int, role: str, out: PanelStructure,
+              neighbours: dict[int, list[int]], rings: list[list[int]]) -> BondDrawing:
+        bl = self.style.bond_length
+        p, q = out.positions[i], out.positions[j]
+        pad = 0.12 * self.style.font_size
+        box_i, box_j = out.atoms[i].box, out.atoms[j].box
+        a, b = clip_from(p, q, box_i, pad), clip_from(q, p, box_j, pad)
+        length = abs(q - p) or 1.0
+        u = (q - p) / length
+        n = u * 1j
+        gap = 0.18 * bl
+        lines: list[tuple[complex, complex]] = []
+        extent = 0.0
+        if order == 1 or order > 3:
+            lines.append((a, b))
+        elif order == 3:
+            lines += [(a, b), (a + n * gap * 0.8, b + n * gap * 0.8), (a - n * gap * 0.8, b - n * gap * 0.8)]
+            extent = gap * 0.8
+        else:
+            side = self._double_side(i, j, out.positions, neighbours, rings)
+            if side == 0:
+                lines += [(a + n * gap / 2, b + n * gap / 2), (a - n * gap / 2, b - n * gap / 2)]
+                extent = gap / 2
+            else:
+                trim = 0.14 * bl
+                start = a + u * (0 if box_i is not None else trim)
+                end = b - u * (0 if box_j is not None else trim)
+                lines += [(a, b), (start + side * n * gap, end + side * n * gap)]
+                extent = gap
+        colour = INK
+        if self.style.color and role == "formed":
+            colour = FORMED_COLOUR
+        elif self.style.color and role == "broken":
+            colour = BROKEN_COLOUR
+        out.bond_extent[(min(i, j), max(i, j))] = extent
+        return BondDrawing((i, j), order, tuple(((s.real, s.imag), (e.real, e.imag)) for s, e in lines), role, colour)
+
+    def _double_side(self, i: int, j: int, positions: dict[int, complex], neighbours: dict[int, list[int]],
+                     rings: list[list[int]]) -> int:
+        """+1 / -1: the second line's side (left/right of i->j); 0: centred."""
+        p, q = positions[i], positions[j]
+        u = q - p
+        containing = [r for r in rings if i in r and j in r and all(a in positions for a in r)]
+        if containing:
+            ring = min(containing, key=len)
+            centre = sum(positions[a] for a in ring) / len(ring)
+            return 1 if ((centre - p) / u).imag > 0 else -1
+        others_i = [n for n in neighbours[i] if n != j]
+        others_j = [n for n in neighbours[j] if n != i]
+        if not others_i or not others_j:
+            return 0
+        total = sum(((positions[n] - p) / u).imag for n in others_i) + \
+            sum(((positions[n] - p) / u).imag for n in others_j)
+        if abs(total) < 1e-6:
+            return 0
+        return 1 if total > 0 else -1
+
+    # marks beside atoms
+    def _charge_and_radical(self, state: ElectronState, i: int, out: PanelStructure) -> None:
+        atom = state.mol.GetAtomWithIdx(i)
+        charge = atom.GetFormalCharge()
+        if charge:
+            sign = "+" if charge > 0 else MINUS
+            text = (str(abs(charge)) if abs(charge) > 1 else "") + sign
+            out.marks.append(self._side_text("charge", i, text, out, preferred=cmath.rect(1, -math.pi / 4)))
+        if atom.GetNumRadicalElectrons():
+            out.marks.append(self.radical_dot(i, out, preferred=cmath.rect(1, -math.pi / 2)))
+
+    def _side_text(self, kind: str, i: int, text: str, out: PanelStructure, preferred: complex,
+                   italic: bool = False) -> Mark:
+        size = self.style.small_size
+        face = self.italic if italic else self.face
+        width = face.width(text, size)
+        cap = face.cap_height * size
+        direction = best_direction(out.occupied[i], preferred)
+        out.occupied[i].append(direction)
+        centre = out.positions[i]
+        half = max(width, cap) / 2
+        reach = out.label_reach(i, direction) or 0.18 * self.style.bond_length
+        spot = centre + direction * (reach + half + 0.08 * self.style.font_size)
+        run = TextRun(text, spot.real - width / 2, spot.imag + cap / 2, size, italic=italic)
+        return Mark(kind, i, (run,), box=self.text_box(run))
+
+    def radical_dot(self, i: int, out: PanelStructure, preferred: complex) -> Mark:
+        direction = best_direction(out.occupied[i], preferred)
+        out.occupied[i].append(direction)
+        radius = self.dot_radius
+        reach = out.label_reach(i, direction) or 0.15 * self.style.bond_length
+        spot = out.positions[i] + direction * (reach + radius + 0.1 * self.style.font_size)
+        return Mark("radical", i, dots=((spot.real, spot.imag),), radius=radius,
+                    box=Box(spot.real - radius, spot.imag - radius, spot.real + radius, spot.imag + radius))
+
+    @property
+    def dot_radius(self) -> float:
+        return max(0.85 * self.style.line_width, 0.065 * self.style.font_size)
+
+    def _cip_marks(self, state: ElectronState, visible: tuple[int, ...], out: PanelStructure) -> None:
+        from rdkit.Chem import rdCIPLabeler
+        mol = Chem.Mol(state.mol)
+        try:
+            Chem.SanitizeMol(mol)
+            Chem.AssignStereochemistry(mol, cleanIt=True, force=True)
+            rdCIPLabeler.AssignCIPLabels(mol)
+        except Exception:   # a state RDKit cannot label is drawn without CIP labels
+            return
+        for i in visible:
+            atom = mol.GetAtomWithIdx(i)
+            if atom.HasProp("_CIPCode"):
+                out.marks.append(self._side_text("cip", i, f"({atom.GetProp('_CIPCode')})", out,
+                                                 preferred=cmath.rect(1, 3 * math.pi / 4), italic=True))

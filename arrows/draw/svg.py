@@ -1,0 +1,99 @@
+"""Scene -> SVG text. Writes what the scene says and decides nothing: every position is the
+scene's. Numbers are rounded to 0.01 pt so the same scene always gives the same bytes; every
+piece of user text is escaped."""
+from __future__ import annotations
+
+from xml.sax.saxutils import escape, quoteattr
+
+from .scene import Mark, Panel, ReactionArrow, Scene, TextRun
+from .styles import INK
+
+
+def _n(v: float) -> str:
+    text = f"{v:.2f}".rstrip("0").rstrip(".")
+    return "0" if text in ("-0", "") else text
+
+
+def _pt(p) -> str:
+    return f"{_n(p[0])} {_n(p[1])}"
+
+
+def _colour_attr(colour: str, attr: str) -> str:
+    return "" if colour == INK else f' {attr}="{colour}"'
+
+
+def _text(run: TextRun) -> str:
+    attrs = f'x="{_n(run.x)}" y="{_n(run.y)}" font-size="{_n(run.size)}"'
+    if run.bold:
+        attrs += ' font-weight="bold"'
+    if run.italic:
+        attrs += ' font-style="italic"'
+    attrs += _colour_attr(run.colour, "fill")
+    return f"<text {attrs}>{escape(run.text)}</text>"
+
+
+def _polygon(points, colour: str) -> str:
+    d = "M" + " L".join(_pt(p) for p in points) + " Z"
+    return f'<path d="{d}"{_colour_attr(colour, "fill")}/>'
+
+
+def _mark(mark: Mark, line_width: float) -> list[str]:
+    if mark.kind == "error":
+        x, y = (mark.box.x0 + mark.box.x1) / 2, (mark.box.y0 + mark.box.y1) / 2
+        return [f'<circle cx="{_n(x)}" cy="{_n(y)}" r="{_n(mark.radius)}" fill="none" stroke="{mark.colour}" '
+                f'stroke-dasharray="{_n(2 * line_width)} {_n(1.5 * line_width)}"/>']
+    if mark.dots:
+        return [f'<circle cx="{_n(x)}" cy="{_n(y)}" r="{_n(mark.radius)}"{_colour_attr(mark.colour, "fill")}/>'
+                for x, y in mark.dots]
+    return [_text(r) for r in mark.runs]
+
+
+def _strokes(d: str, colour: str, cls: str) -> str:
+    return f'<path class="{cls}" d="{d}"{_colour_attr(colour, "stroke")}/>'
+
+
+def _panel(panel: Panel, line_width: float) -> list[str]:
+    """Strokes (bonds, arrow shafts, error rings) in one group, fills (text, dots, heads) in another."""
+    strokes, fills = [], []
+    for bond in panel.bonds:
+        strokes.append(_strokes(" ".join(f"M{_pt(p)} L{_pt(q)}" for p, q in bond.lines), bond.colour, "bond"))
+    for arrow in panel.arrows:
+        d = f"M{_pt(arrow.start)} C{_pt(arrow.control1)} {_pt(arrow.control2)} {_pt(arrow.end)}"
+        strokes.append(_strokes(d, arrow.colour, "move"))
+        fills.append(_polygon(arrow.head, arrow.colour))
+    for atom in panel.atoms:
+        fills += [_text(r) for r in atom.runs]
+    for mark in panel.marks:
+        (strokes if mark.kind == "error" else fills).extend(_mark(mark, line_width))
+    fills += [_text(r) for r in panel.placeholder]
+    return [f'<g class="panel" transform="translate({_pt(panel.origin)})">',
+            '<g fill="none">', *strokes, "</g>", '<g stroke="none">', *fills, "</g>", "</g>"]
+
+
+def _reaction(arrow: ReactionArrow) -> list[str]:
+    d = " ".join(f"M{_pt(p)} L{_pt(q)}" for p, q in arrow.lines)
+    return [f'<path class="reaction" d="{d}" fill="none"/>', '<g stroke="none">',
+            *[_polygon(h, INK) for h in arrow.heads], *[_text(t) for t in arrow.texts], "</g>"]
+
+
+def scene_to_svg(scene: Scene) -> str:
+    style = scene.style
+    lw = style.line_width
+    family = quoteattr(f"{style.font_family}, sans-serif")
+    lines = [
+        '<?xml version="1.0" encoding="UTF-8"?>',
+        f'<svg xmlns="http://www.w3.org/2000/svg" version="1.1" width="{_n(scene.width)}pt" '
+        f'height="{_n(scene.height)}pt" viewBox="0 0 {_n(scene.width)} {_n(scene.height)}" '
+        f'role="img" aria-labelledby="title desc">',
+        f'<title id="title">{escape(scene.title)}</title>',
+        f'<desc id="desc">{escape(scene.description)}</desc>',
+        f'<g fill="{INK}" stroke="{INK}" stroke-width="{_n(lw)}" stroke-linecap="round" '
+        f'stroke-linejoin="round" font-family={family}>',
+        '<g stroke="none">' + "".join(_text(t) for t in scene.texts) + "</g>" if scene.texts else "",
+    ]
+    for panel in scene.panels:
+        lines += _panel(panel, lw)
+    for arrow in scene.reaction_arrows:
+        lines += _reaction(arrow)
+    lines += ["</g>", "</svg>", ""]
+    return "\n".join(line for line in lines if line)

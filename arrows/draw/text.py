@@ -1,0 +1,75 @@
+"""Text widths for placing labels: measured with cairo's own font machinery, the same that turns
+our SVG into PDF and PNG, so a label box in the scene is the box the reader sees.
+
+The SVG is written with text-rendering="geometricPrecision" (no hinting), so widths are the
+unhinted advances measured here at a large size and scaled. cairosvg places each letter by its
+own advance (no kerning); widths are summed the same way.
+"""
+from __future__ import annotations
+
+from dataclasses import dataclass
+from functools import lru_cache
+
+_REFERENCE_SIZE = 1000.0
+
+
+@dataclass(frozen=True)
+class FontFace:
+    """Per-em metrics of one font: advance widths and the heights used for boxes."""
+
+    family: str
+    bold: bool = False
+    italic: bool = False
+
+    def width(self, text: str, size: float) -> float:
+        return sum(_advance(self.family, self.bold, self.italic, ch) for ch in text) * size
+
+    @property
+    def cap_height(self) -> float:
+        """Height of a capital letter, per em."""
+        return _heights(self.family)[0]
+
+    @property
+    def descent(self) -> float:
+        return _heights(self.family)[1]
+
+
+@lru_cache(maxsize=None)
+def _context(family: str, bold: bool, italic: bool):
+    import cairocffi as cairo
+    surface = cairo.RecordingSurface(cairo.CONTENT_COLOR_ALPHA, None)
+    context = cairo.Context(surface)
+    options = cairo.FontOptions()
+    options.set_hint_metrics(cairo.HINT_METRICS_OFF)
+    options.set_hint_style(cairo.HINT_STYLE_NONE)
+    context.set_font_options(options)
+    context.select_font_face(family, cairo.FONT_SLANT_ITALIC if italic else cairo.FONT_SLANT_NORMAL,
+                             cairo.FONT_WEIGHT_BOLD if bold else cairo.FONT_WEIGHT_NORMAL)
+    context.set_font_size(_REFERENCE_SIZE)
+    return context
+
+
+@lru_cache(maxsize=None)
+def _advance(family: str, bold: bool, italic: bool, ch: str) -> float:
+    return _context(family, bold, italic).text_extents(ch)[4] / _REFERENCE_SIZE
+
+
+@lru_cache(maxsize=None)
+def _heights(family: str) -> tuple[float, float]:
+    context = _context(family, False, False)
+    cap = -context.text_extents("H")[1] / _REFERENCE_SIZE
+    descent = context.font_extents()[1] / _REFERENCE_SIZE
+    return cap, descent
+
+
+def wrap(text: str, face: FontFace, size: float, max_width: float) -> list[str]:
+    """Break text at spaces (after commas where possible) into lines no wider than max_width;
+    a single word wider than that keeps its own line."""
+    words = text.split()
+    lines: list[str] = []
+    for word in words:
+        if lines and face.width(lines[-1] + " " + word, size) <= max_width:
+            lines[-1] += " " + word
+        else:
+            lines.append(word)
+    return lines or [""]
