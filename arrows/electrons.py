@@ -451,8 +451,10 @@ def _settle(state: ElectronState, step: Step, step_index: int, replay: _StepRepl
         return None, change, diags
     with rdkit_messages():
         try:
+            # Not FINDRADICALS: RDKit would give a singlet carbene or oxenium made by pair arrows two
+            # unpaired electrons; ours are the odd non-bonding electron set above.
             Chem.SanitizeMol(work, Chem.SanitizeFlags.SANITIZE_ALL ^ Chem.SanitizeFlags.SANITIZE_SETAROMATICITY
-                             ^ Chem.SanitizeFlags.SANITIZE_KEKULIZE)
+                             ^ Chem.SanitizeFlags.SANITIZE_KEKULIZE ^ Chem.SanitizeFlags.SANITIZE_FINDRADICALS)
         except Exception as exc:
             diags.append(Diagnostic("AR304", f"RDKit rejects the structure after this step: {exc}", step.loc,
                                     "check charges and bond orders with `arrows trace`", step=step_index))

@@ -1,0 +1,313 @@
+"""End to end: `arrows check`, `arrows trace` and `arrows explain` through click's runner and through
+a real subprocess of the installed console script. Bad input always gives a located message and
+exit status 1 or 2, never a traceback."""
+from __future__ import annotations
+
+import json
+import re
+import shutil
+import subprocess
+import sys
+from pathlib import Path
+
+import pytest
+from click.testing import CliRunner
+from rdkit import Chem
+from rdkit.Chem.rdMolDescriptors import CalcMolFormula
+
+from arrows.cli import cli
+
+from small_mechanisms import E1, RING_CLOSURE, SN2
+
+# 2-Bromoethoxide closes an epoxide: a three-membered ring, which draws the small-ring warning.
+EPOXIDE = RING_CLOSURE.replace("[O-:1][CH2:2][CH2:3][CH2:4][CH2:5][Br:6]", "[O-:1][CH2:2][CH2:5][Br:6]")
+
+LOCATED = re.compile(r"^(?P<file>[^\n]+?):(?P<line>\d+):(?P<col>\d+): (?P<severity>error|warning|note) "
+                     r"(?P<code>AR\d{3}) (?P<message>.+)$")
+
+
+@pytest.fixture
+def write(tmp_path):
+    def _write(name: str, content: str | bytes) -> Path:
+        path = tmp_path / name
+        if isinstance(content, bytes):
+            path.write_bytes(content)
+        else:
+            path.write_text(content, encoding="utf-8")
+        return path
+    return _write
+
+
+def run(*args: str):
+    return CliRunner().invoke(cli, [str(a) for a in args])
+
+
+def findings(stdout: str) -> list[dict]:
+    """Parse compiler-style output: every finding line is followed by its hint line."""
+    lines = stdout.splitlines()
+    out = []
+    for i, line in enumerate(lines):
+        match = LOCATED.match(line)
+        if match:
+            hint = lines[i + 1] if i + 1 < len(lines) else ""
+            assert hint.startswith("    hint: "), f"no hint after {line!r}"
+            out.append({**match.groupdict(), "hint": hint[len("    hint: "):]})
+        else:
+            assert line.startswith("    hint: "), f"not a finding or hint: {line!r}"
+    return out
+
+
+# --- check ---------------------------------------------------------------------------------------
+
+def test_check_clean_file_exits_0_and_prints_only_the_summary(write):
+    path = write("sn2.mech", SN2)
+    result = run("check", path)
+    assert result.exit_code == 0, result.output
+    assert result.stdout == ""
+    assert "1 file checked: 0 errors, 0 warnings" in result.stderr
+
+
+def test_check_errors_exit_1_in_compiler_format(write):
+    path = write("slip.mech", SN2.replace(":O1 -> C2", ":O1 -> C7"))
+    result = run("check", path)
+    assert result.exit_code == 1
+    (finding,) = findings(result.stdout)
+    assert finding["file"] == str(path)
+    assert (finding["line"], finding["col"]) == ("4", "12")
+    assert (finding["severity"], finding["code"]) == ("error", "AR104")
+    assert finding["hint"]
+
+
+def test_warnings_pass_unless_strict(write):
+    path = write("epoxide.mech", EPOXIDE)
+    relaxed = run("check", path)
+    assert relaxed.exit_code == 0
+    assert [f["code"] for f in findings(relaxed.stdout)] == ["AR501"]
+    assert run("check", "--strict", path).exit_code == 1
+
+
+def test_quiet_prints_errors_only(write):
+    path = write("epoxide.mech", EPOXIDE)
+    result = run("check", "--quiet", path)
+    assert result.exit_code == 0 and result.output == ""
+
+
+def test_json_format(write):
+    clean, slip = write("sn2.mech", SN2), write("slip.mech", SN2.replace(":O1 -> C2", ":N1 -> C2"))
+    result = run("check", "--format", "json", clean, slip)
+    assert result.exit_code == 1
+    records = json.loads(result.stdout)
+    assert [(r["file"], r["line"], r["column"], r["code"], r["severity"]) for r in records] == [
+        (str(slip), 4, 6, "AR105", "error")]
+    record = records[0]
+    assert set(record) >= {"file", "line", "column", "severity", "code", "message", "hint", "atoms", "bonds", "step"}
+    assert record["atoms"] == ["N1"] and record["step"] == 0
+
+
+def test_several_files_one_report(write):
+    a, b = write("a.mech", SN2), write("b.mech", EPOXIDE)
+    result = run("check", a, b)
+    assert result.exit_code == 0
+    assert "2 files checked: 0 errors, 1 warning" in result.stderr
+
+
+def test_check_needs_a_file():
+    result = run("check")
+    assert result.exit_code == 2
+
+
+# --- bad input ---------------------------------------------------------------------------------
+
+BAD_INPUT = [
+    # (name, content, exit code, code, line, column, words in the message)
+    ("empty file", "", 1, "AR112", 1, 1, "no species and no steps"),
+    ("comments only", "# a plan for later\n", 1, "AR112", 1, 1, "no species"),
+    ("binary garbage", b'title "x"\n  \x89PNG\xff\xfe\x00\x01garbage', 2, "AR100", 2, 3, "not UTF-8"),
+    ("NUL bytes", "species w = \"O\"\x00\x00\n", 2, "AR100", 1, 1, "NUL"),
+    ("unknown keyword", 'species w = "[OH2:1]"\nreagent x = "O"\n', 1, "AR101", 2, 1, "`reagent`"),
+    ("broken SMILES", 'species w = "[OH2:1"\n', 1, "AR102", 1, 19, "RDKit cannot read"),
+    ("duplicate map numbers", 'species a = "[OH-:1]"\nspecies b = "[CH3:1]Br"\n', 1, "AR103", 2, 14,
+     "map number 1"),
+    ("map number in no species", SN2.replace("C2-Br3 -> Br3", "C2-Br9 -> Br9"), 1, "AR104", 5, 8,
+     "map number 9"),
+    ("move on a released atom", E1.replace('product "C=C(C)C"\n', 'step "again"\n    :Br5 -> C2\nend\n'),
+     1, "AR106", 12, 6, "Br5"),
+    ("step after product", SN2 + 'step "late"\n    :O1 -> C2\nend\n', 1, "AR107", 8, 1, "after `product`"),
+]
+
+
+@pytest.mark.parametrize("name, content, status, code, line, column, words", BAD_INPUT,
+                         ids=[b[0] for b in BAD_INPUT])
+def test_bad_input_is_located(write, name, content, status, code, line, column, words):
+    path = write("bad.mech", content)
+    result = run("check", path)
+    assert result.exit_code == status, result.output
+    assert result.exception is None or isinstance(result.exception, SystemExit), result.exception
+    located = [f for f in findings(result.stdout) if f["code"] == code]
+    assert located, result.output
+    first = located[0]
+    assert (first["file"], first["line"], first["col"]) == (str(path), str(line), str(column))
+    assert words in first["message"]
+    assert "Traceback" not in result.output
+
+
+def test_broken_smiles_gives_rdkit_reason_and_nothing_on_stderr(write):
+    """RDKit's own words (here: an unclosed bracket atom) come back translated into one located
+    finding; RDKit's log does not spill onto stderr."""
+    path = write("bad.mech", 'species w = "C(C"\n')
+    result = run("check", path)
+    (finding,) = findings(result.stdout)
+    assert "extra open parentheses" in finding["message"]
+    assert (finding["line"], finding["col"]) == ("1", "15")   # RDKit points at the open branch
+    assert "SMILES Parse Error" not in result.stderr
+
+
+def test_ten_megabyte_file(write):
+    path = write("huge.mech", "# padding line\n" * 700_000)
+    result = run("check", path)
+    assert result.exit_code == 2
+    (finding,) = findings(result.stdout)
+    assert finding["code"] == "AR100" and "limit" in finding["message"]
+
+
+def test_missing_file(tmp_path):
+    path = tmp_path / "nowhere.mech"
+    result = run("check", path)
+    assert result.exit_code == 2
+    (finding,) = findings(result.stdout)
+    assert (finding["file"], finding["code"], finding["line"], finding["col"]) == (str(path), "AR100", "1", "1")
+
+
+@pytest.mark.parametrize("command", ["check", "trace"])
+def test_a_folder_is_not_a_mechanism(tmp_path, command):
+    result = run(command, tmp_path)
+    assert result.exit_code == 2
+    assert f"{tmp_path}:1:1: error AR100" in result.output
+    assert "Traceback" not in result.output
+
+
+# --- trace -------------------------------------------------------------------------------------
+
+def test_trace_prints_every_state(write):
+    """SMILES and formula judged by RDKit; charges and lone pairs are the textbook Lewis structures:
+    methanol O with two lone pairs, bromide with four (common practice)."""
+    path = write("sn2.mech", SN2)
+    result = run("trace", path)
+    assert result.exit_code == 0, result.output
+    out = result.stdout
+    start, step = out.split("\nstep 1: backside attack\n")
+    assert start.startswith("start\n")
+    smiles = re.findall(r"^  SMILES   (\S+)$", out, re.M)
+    expected_start = Chem.MolToSmiles(Chem.MolFromSmiles("[OH-].CBr"))
+    expected_after = Chem.MolToSmiles(Chem.MolFromSmiles("CO.[Br-]"))
+    assert smiles == [expected_start, expected_after]
+    formulas = re.findall(r"^  formula  (\S+)   net charge (\S+)$", out, re.M)
+    assert formulas == [(CalcMolFormula(Chem.MolFromSmiles("[OH-].CBr")), "-1")] * 2
+    assert "  formed   O1-C2" in step or "  formed   C2-O1" in step
+    assert "  broken   C2-Br3" in step
+    assert "  atom     O1: charge 0, 2 lone pairs" in step
+    assert "  atom     Br3: charge -1, 4 lone pairs" in step
+
+
+def test_trace_stops_at_a_step_that_cannot_be_applied(write):
+    path = write("slip.mech", SN2.replace("    C2-Br3 -> Br3\n", ""))
+    result = run("trace", path)
+    assert result.exit_code == 1
+    assert "not derived" in result.stdout
+    assert any(f["code"] == "AR301" for f in findings(result.stdout.split("\n\n")[-1]))
+
+
+def test_trace_unreadable_file(tmp_path):
+    result = run("trace", tmp_path / "nowhere.mech")
+    assert result.exit_code == 2
+    assert "AR100" in result.output and "Traceback" not in result.output
+
+
+# --- explain -----------------------------------------------------------------------------------
+
+def test_explain_a_code():
+    result = run("explain", "ar204")
+    assert result.exit_code == 0
+    assert result.stdout.startswith("AR204 (error): arrow starts at a hydrogen")
+    assert "Example:" in result.stdout and ":O11 -> H(C3)" in result.stdout
+
+
+def test_explain_lists_every_code():
+    from arrows.diagnostics import CODES
+    result = run("explain")
+    assert result.exit_code == 0
+    assert [line.split()[0] for line in result.stdout.splitlines()] == list(CODES)
+
+
+def test_explain_unknown_code():
+    result = run("explain", "AR999")
+    assert result.exit_code == 2 and "unknown code" in result.stderr
+
+
+# --- the installed console script ----------------------------------------------------------------
+
+def console_script() -> str:
+    beside_python = Path(sys.executable).with_name("arrows")
+    found = str(beside_python) if beside_python.exists() else shutil.which("arrows")
+    assert found, "the console script `arrows` is not installed (pip install -e .)"
+    return found
+
+
+def script(*args, cwd=None) -> subprocess.CompletedProcess:
+    return subprocess.run([console_script(), *map(str, args)], capture_output=True, text=True, cwd=cwd,
+                          timeout=120)
+
+
+def test_script_check_exit_codes(write, tmp_path):
+    clean, slip = write("sn2.mech", SN2), write("slip.mech", SN2.replace(":O1 -> C2", "H(O1) -> C2"))
+    assert script("check", clean).returncode == 0
+    failing = script("check", slip)
+    assert failing.returncode == 1
+    (finding,) = findings(failing.stdout)
+    assert (finding["code"], finding["line"], finding["col"]) == ("AR204", "4", "5")
+    missing = script("check", tmp_path / "nowhere.mech")
+    assert missing.returncode == 2
+    for proc in (failing, missing):
+        assert "Traceback" not in proc.stderr
+
+
+def test_script_json_and_trace_from_another_folder(write, tmp_path):
+    path = write("sn2.mech", SN2)
+    elsewhere = tmp_path / "elsewhere"
+    elsewhere.mkdir()
+    report = script("check", "--format", "json", "../sn2.mech", cwd=elsewhere)
+    assert report.returncode == 0 and json.loads(report.stdout) == []
+    traced = script("trace", path, cwd=elsewhere)
+    assert traced.returncode == 0 and "  SMILES   CO.[Br-]" in traced.stdout
+
+
+@pytest.mark.parametrize("name, content, status, code, line, column, words", BAD_INPUT,
+                         ids=[b[0] for b in BAD_INPUT])
+def test_script_bad_input(write, name, content, status, code, line, column, words):
+    path = write("bad.mech", content)
+    proc = script("check", path)
+    assert proc.returncode == status
+    assert code in [f["code"] for f in findings(proc.stdout)]
+    assert "Traceback" not in proc.stderr
+    assert "SMILES Parse Error" not in proc.stderr
+
+
+def test_script_usage_errors_exit_2(tmp_path):
+    proc = script("check", "--format", "yaml", tmp_path / "x.mech")
+    assert proc.returncode == 2 and "Traceback" not in proc.stderr
+    assert script("no-such-command").returncode == 2
+
+
+def test_check_path_imports_no_drawing_code(write):
+    """`arrows check` must not pay for drawing: neither arrows.draw nor cairosvg is imported."""
+    path = write("sn2.mech", SN2)
+    probe = (
+        "import sys\n"
+        "from arrows.cli import main\n"
+        f"sys.argv = ['arrows', 'check', {str(path)!r}]\n"
+        "try:\n    main()\nexcept SystemExit:\n    pass\n"
+        "drawing = sorted(m for m in sys.modules if m == 'cairosvg' or m.startswith(('arrows.draw', 'cairo')))\n"
+        "print('DRAWING', drawing)\n"
+    )
+    proc = subprocess.run([sys.executable, "-c", probe], capture_output=True, text=True, timeout=120)
+    assert "DRAWING []" in proc.stdout, proc.stdout + proc.stderr
