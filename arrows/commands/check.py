@@ -11,7 +11,7 @@ from ..diagnostics import ERROR, WARNING
 
 
 @click.command("check")
-@click.argument("files", nargs=-1, type=click.Path(dir_okay=False))
+@click.argument("files", nargs=-1, type=click.Path())   # a missing file or a folder is reported as AR100
 @click.option("--format", "fmt", type=click.Choice(["text", "json"]), default="text", show_default=True,
               help="text: file:line:col: severity CODE message; json: one array of diagnostics.")
 @click.option("--strict", is_flag=True, help="Treat warnings as failures (exit 1).")
