@@ -15,7 +15,7 @@ from typing import IO, Iterator
 TEMP_MARK = ".arrows-tmp-"
 
 
-def _prefix(name: str) -> str:
+def temp_prefix(name: str) -> str:
     # The process id in the name tells a leftover of a dead run from a run still going.
     return f"{TEMP_MARK}{name}.{os.getpid()}."
 
@@ -36,7 +36,7 @@ def atomic_file(path: str | Path, mode: str = "w", encoding: str | None = "utf-8
         with open(path, mode, encoding=None if "b" in mode else encoding) as handle:
             yield handle
         return
-    fd, temp = tempfile.mkstemp(prefix=_prefix(path.name), dir=path.parent)
+    fd, temp = tempfile.mkstemp(prefix=temp_prefix(path.name), dir=path.parent)
     try:
         os.chmod(temp, 0o666 & ~_umask())   # mkstemp makes 0600; the output gets the usual mode
         with os.fdopen(fd, mode, encoding=None if "b" in mode else encoding) as handle:
@@ -60,7 +60,7 @@ def write_text(path: str | Path, text: str) -> None:
 def temp_dir_beside(path: str | Path) -> Path:
     """A fresh temporary folder in the folder of `path`, for building an output before swapping it in."""
     path = Path(path)
-    made = Path(tempfile.mkdtemp(prefix=_prefix(path.name), dir=path.parent))
+    made = Path(tempfile.mkdtemp(prefix=temp_prefix(path.name), dir=path.parent))
     made.chmod(0o777 & ~_umask())
     return made
 
@@ -70,17 +70,19 @@ def replace_dir(new: Path, destination: Path) -> None:
     complete folder is in place at every moment but one rename."""
     old = None
     if destination.exists():
-        old = Path(tempfile.mkdtemp(prefix=_prefix(destination.name), dir=destination.parent))
+        old = Path(tempfile.mkdtemp(prefix=temp_prefix(destination.name), dir=destination.parent))
         os.replace(destination, old / destination.name)
     os.replace(new, destination)
     if old is not None:
         _remove(old)
 
 
-def remove_stale_temps(folder: Path, name: str) -> None:
-    """Leftovers of an earlier run of the same output that was killed before it could clean up."""
-    for leftover in folder.glob(f"{TEMP_MARK}{name}.*"):
-        pid = leftover.name[len(TEMP_MARK) + len(name) + 1:].split(".", 1)[0]
+def remove_stale_temps(folder: Path) -> None:
+    """Leftovers in `folder` of earlier runs that were killed before they could clean up (their
+    process is gone); temporaries of runs still going are left alone."""
+    for leftover in folder.glob(TEMP_MARK + "*"):
+        # names are TEMP_MARK + name + "." + pid + "." + random suffix (no dots)
+        pid = leftover.name.rpartition(".")[0].rpartition(".")[2]
         if pid.isdigit() and not _alive(int(pid)):
             _remove(leftover)
 

@@ -1,0 +1,156 @@
+"""`arrows collect` as a library: many mechanism files -> one checked, numbered, captioned PDF
+document, each scheme's SVG and PDF, and an HTML index.
+
+The run goes in phases: (1) check and draw every scheme in worker processes, through the cache;
+(2) lay out the pages; (3) turn the pages not already cached into PDF, again in workers; (4) merge
+them and write everything into a temporary folder beside the output; (5) swap it into place. An
+interrupted run stops before (5), so the previous output stays as it was, and whatever was drawn
+before the interruption is in the cache for the next run.
+
+Output of `-o DIR/NAME.pdf`: DIR/NAME.pdf and the folder DIR/NAME-figures/ holding index.html and
+LABEL-FILE.svg / .pdf for every scheme that has a figure.
+"""
+from __future__ import annotations
+
+import os
+import shutil
+from dataclasses import dataclass, field
+from pathlib import Path
+from typing import Callable, Optional
+
+from .atomic import remove_stale_temps, replace_dir, temp_dir_beside
+from .cache import PDF, SVG, Cache, page_key, tool_fingerprint
+from .document import compose
+from .figures import FigureJob, FigureOutcome, make_figure
+from .index_html import index_html
+from .pages import Front, PageSetup
+from .parallel import WorkerPool
+from .pdf import DocumentPage, merge, svg_to_pdf
+from .record import SchemeRecord
+from .sources import Source
+
+FOLDER_SUFFIX = "-figures"
+MARKER = ".arrows-collect"      # marks a figures folder as ours, so we never replace anyone else's
+
+# progress(phase, done, total, record): phase "scheme" (record given) or "page" (record None)
+Progress = Callable[[str, int, int, Optional[SchemeRecord]], None]
+
+
+class OutputInUse(Exception):
+    """The figures folder's name is taken by a folder that arrows did not make."""
+
+
+@dataclass(frozen=True)
+class CollectSettings:
+    output: Path
+    style: str
+    front: Front = field(default_factory=Front)
+    paper: str = "a4"
+    flow: bool = False
+    prefix: str = "S"
+    jobs: int = 1
+    cache_dir: Optional[Path] = None    # default: .arrows-cache beside the output
+    fail_fast: bool = False
+
+    @property
+    def figures_dir(self) -> Path:
+        return self.output.with_name(self.output.stem + FOLDER_SUFFIX)
+
+    @property
+    def cache_root(self) -> Path:
+        return self.cache_dir or self.output.parent / ".arrows-cache"
+
+
+@dataclass
+class CollectResult:
+    records: list[SchemeRecord]
+    complete: bool                 # False: --fail-fast stopped at a failing scheme, nothing written
+    pages: int = 0
+    pages_converted: int = 0       # page PDFs made in this run (the rest came from the cache)
+
+    @property
+    def failed(self) -> bool:
+        return any(r.failed for r in self.records)
+
+
+def collect(sources: list[Source], settings: CollectSettings, progress: Progress = lambda *a: None) -> CollectResult:
+    output = settings.output
+    output.parent.mkdir(parents=True, exist_ok=True)
+    _check_folder_is_ours(settings.figures_dir)
+    remove_stale_temps(output.parent)
+    cache = Cache(settings.cache_root)
+    cache.prepare()
+    fingerprint = tool_fingerprint()
+    setup = PageSetup(settings.paper, _font_family(settings.style))
+
+    records: list[SchemeRecord] = []
+    with WorkerPool(settings.jobs) as pool:
+        jobs = [FigureJob(s, settings.style, cache.root, fingerprint) for s in sources]
+        for outcome in pool.map(make_figure, jobs):
+            record = _record(len(records) + 1, settings.prefix, outcome)
+            records.append(record)
+            progress("scheme", len(records), len(sources), record)
+            if settings.fail_fast and record.failed:
+                return CollectResult(records, complete=False)
+
+        figures = {r.label: cache.load_figure(r.key).svg if r.key and r.has_figure else None for r in records}
+        pages = compose(setup, settings.front, records, lambda r: figures[r.label], settings.flow)
+        keys = [page_key(p.svg, fingerprint) for p in pages]
+        todo = {k: p.svg for k, p in zip(keys, pages) if not cache.has_page(k)}
+        for done, _ in enumerate(pool.map(_convert_page, [(cache.root, k, svg) for k, svg in todo.items()]), 1):
+            progress("page", done, len(todo), None)
+
+    document = merge([DocumentPage(cache.page_path(k).read_bytes(), p.bookmark, tuple(p.links))
+                      for k, p in zip(keys, pages)],
+                     {"/Title": settings.front.title, "/Author": settings.front.authors})
+    _write_output(settings, records, figures, document, cache)
+    return CollectResult(records, complete=True, pages=len(pages), pages_converted=len(todo))
+
+
+def _convert_page(job: tuple[Path, str, str]) -> str:
+    root, key, svg = job
+    Cache(root).store_page(key, svg_to_pdf(svg))
+    return key
+
+
+def _record(number: int, prefix: str, outcome: FigureOutcome) -> SchemeRecord:
+    meta = outcome.meta
+    return SchemeRecord(number=number, label=f"{prefix}{number}", name=outcome.source.name,
+                        slug=outcome.source.slug, title=meta["title"], caption=meta["caption"],
+                        steps=meta["steps"], diagnostics=tuple(meta["diagnostics"]),
+                        figure_problem=meta["figure_problem"], key=outcome.key, rendered=outcome.rendered)
+
+
+def _font_family(style: str) -> str:
+    from ..draw import STYLES
+
+    return STYLES[style].font_family
+
+
+def _check_folder_is_ours(folder: Path) -> None:
+    if folder.exists() and not (folder / MARKER).is_file():
+        raise OutputInUse(f"{folder} exists and was not made by arrows collect; move it away or choose "
+                          f"another output name")
+
+
+def _write_output(settings: CollectSettings, records: list[SchemeRecord], figures: dict[str, Optional[str]],
+                  document: bytes, cache: Cache) -> None:
+    """Write everything into a temporary folder beside the output, then swap it into place."""
+    building = temp_dir_beside(settings.output)
+    try:
+        folder = building / settings.figures_dir.name
+        folder.mkdir()
+        (folder / MARKER).write_text("made by arrows collect; replaced as a whole on every run\n")
+        for record in records:
+            if figures[record.label] is None:
+                continue
+            entry_dir = cache.figures / record.key
+            shutil.copyfile(entry_dir / SVG, folder / f"{record.file_stem}.svg")
+            shutil.copyfile(entry_dir / PDF, folder / f"{record.file_stem}.pdf")
+        html = index_html(settings.front, records, lambda r: figures[r.label], settings.output.name)
+        (folder / "index.html").write_text(html, encoding="utf-8")
+        (building / settings.output.name).write_bytes(document)
+        replace_dir(folder, settings.figures_dir)
+        os.replace(building / settings.output.name, settings.output)
+    finally:
+        shutil.rmtree(building, ignore_errors=True)

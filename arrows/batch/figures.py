@@ -1,0 +1,95 @@
+"""One scheme of a batch, in a worker process: check it, draw it, keep it in the cache.
+
+A cached scheme is not read beyond its bytes: the key says whether anything that decides the
+figure has changed. What comes back to the parent is small (the key and the metadata); the
+pictures stay in the cache until the document is assembled.
+"""
+from __future__ import annotations
+
+from dataclasses import dataclass
+from pathlib import Path
+from typing import Optional
+
+from ..api import check_file
+from ..diagnostics import ERROR
+from .cache import Cache, FigureEntry, figure_key
+from .sources import Source
+
+
+@dataclass(frozen=True)
+class FigureJob:
+    source: Source
+    style_name: str
+    cache_root: Path
+    fingerprint: str
+
+
+@dataclass(frozen=True)
+class FigureOutcome:
+    source: Source
+    key: Optional[str]      # None: the file could not be read, nothing was cached
+    rendered: bool          # False: taken from the cache
+    meta: dict
+
+
+def make_figure(job: FigureJob) -> FigureOutcome:
+    cache = Cache(job.cache_root)
+    try:
+        data = job.source.path.read_bytes()
+    except OSError:
+        _, diags = check_file_as(job.source)   # AR100 with the reason
+        return FigureOutcome(job.source, None, True, _meta(job.source, None, diags, "no figure: the file could not be read"))
+    key = figure_key(data, job.source.name, job.style_name, job.fingerprint)
+    if cache.has_figure(key):
+        return FigureOutcome(job.source, key, False, cache.load_figure(key).meta)
+    entry = draw_scheme(job.source, job.style_name)
+    cache.store_figure(key, entry)
+    return FigureOutcome(job.source, key, True, entry.meta)
+
+
+def draw_scheme(source: Source, style_name: str) -> FigureEntry:
+    """Check the mechanism and draw it; errors are drawn marked on the figure, as far as the moves
+    could be replayed. A figure that cannot be drawn is reported, not raised."""
+    from ..draw import STYLES, render_svg
+    from .pdf import svg_to_pdf
+
+    trace, diags = check_file_as(source)
+    svg, problem = None, None
+    if trace is None or trace.initial is None:
+        problem = "no figure: the mechanism could not be read (see the diagnostics)"
+    else:
+        try:
+            # The page heading and the index carry the title: the figure does not repeat it.
+            style = STYLES[style_name].with_options(show_title=False)
+            svg = render_svg(trace, style=style, force=True, diagnostics=diags)
+        except Exception as exc:  # any drawing failure is one scheme's failure, not the batch's
+            problem = f"the figure could not be drawn: {type(exc).__name__}: {exc}"
+    pdf = svg_to_pdf(svg, title=_title(trace, source)) if svg is not None else None
+    return FigureEntry(_meta(source, trace, diags, problem), svg, pdf)
+
+
+def check_file_as(source: Source):
+    """check_file, with diagnostics naming the file as the batch shows it."""
+    from dataclasses import replace
+
+    trace, diags = check_file(source.path)
+    real = str(source.path)
+    return trace, [replace(d, loc=replace(d.loc, file=source.name)) if d.loc.file == real else d for d in diags]
+
+
+def _title(trace, source: Source) -> str:
+    mechanism = trace.mechanism if trace is not None else None
+    return (mechanism.title if mechanism is not None and mechanism.title else source.name)
+
+
+def _meta(source: Source, trace, diags, problem: Optional[str]) -> dict:
+    mechanism = trace.mechanism if trace is not None else None
+    return {
+        "name": source.name,
+        "title": mechanism.title if mechanism is not None else None,
+        "caption": mechanism.caption if mechanism is not None else None,
+        "steps": len(mechanism.steps) if mechanism is not None else 0,
+        "diagnostics": [d.to_dict() for d in diags],
+        "errors": sum(d.severity == ERROR for d in diags),
+        "figure_problem": problem,
+    }

@@ -1,0 +1,125 @@
+"""`arrows collect DIR-or-FILES -o OUT.pdf`: a supporting-information document in one command."""
+from __future__ import annotations
+
+import sys
+from pathlib import Path
+
+import click
+
+from ..draw import STYLES
+from ..draw.styles import DEFAULT_STYLE
+
+EXIT_INTERRUPTED = 130   # the shell's convention for a run stopped by Ctrl-C
+
+
+@click.command("collect")
+@click.argument("inputs", nargs=-1, required=True, type=click.Path())
+@click.option("-o", "--output", required=True, type=click.Path(dir_okay=False),
+              help="The PDF document; its figures and index.html go in the folder OUT-figures/ beside it.")
+@click.option("--style", type=click.Choice(sorted(STYLES)), default=DEFAULT_STYLE, show_default=True,
+              help="Figure style preset, applied to every scheme.")
+@click.option("--paper", type=click.Choice(["a4", "letter"]), default="a4", show_default=True)
+@click.option("--flow", is_flag=True, help="Put as many schemes on a page as fit (default: one per page).")
+@click.option("--prefix", default="S", show_default=True, help="Scheme numbers: PREFIX1, PREFIX2, ...")
+@click.option("--title", help="Document title; with a title the document opens with a title page.")
+@click.option("--authors", help="Authors, for the title page and the PDF metadata.")
+@click.option("--date", "date_text", metavar="TEXT", help="Date line for the title page (as written).")
+@click.option("-j", "--jobs", type=click.IntRange(min=1), default=None,
+              help="Worker processes [default: the machine's cores].")
+@click.option("--cache", "cache_dir", type=click.Path(file_okay=False),
+              help="Cache folder [default: .arrows-cache beside the output].")
+@click.option("--report", type=click.Path(dir_okay=False), help="Also write a JSON report of every scheme.")
+@click.option("--junit", type=click.Path(dir_okay=False), help="Also write a JUnit XML file (one test per scheme).")
+@click.option("--keep-going/--fail-fast", default=True, show_default=True,
+              help="Collect every scheme whatever fails (default), or stop at the first scheme with errors "
+                   "without writing the document.")
+def collect_command(inputs, output, style, paper, flow, prefix, title, authors, date_text, jobs, cache_dir, report,
+                    junit, keep_going):
+    """Check and draw every mechanism in INPUTS (folders are searched for .mech files) and collect
+    them into one PDF: title page, contents, one numbered, captioned scheme per page, and a closing
+    summary of every scheme's diagnostics.
+
+    Exit status: 0 every scheme passed, 1 a scheme has errors, 2 bad usage, 130 interrupted.
+    """
+    from .. import __version__
+    from ..batch.collection import CollectSettings, OutputInUse, collect
+    from ..batch.pages import Front
+    from ..batch.parallel import default_jobs
+    from ..batch.reports import write_junit, write_report
+    from ..batch.sources import NoSources, find_sources
+
+    try:
+        sources = find_sources(list(inputs))
+    except NoSources as exc:
+        raise click.UsageError(str(exc))
+    n = len(sources)
+    front = Front(title, authors, date_text,
+                  f"{n} scheme{'s' if n != 1 else ''}, checked and drawn with arrows {__version__} "
+                  f"(style {style})")
+    settings = CollectSettings(Path(output), style, front, paper, flow, prefix, jobs or default_jobs(),
+                               Path(cache_dir) if cache_dir else None, fail_fast=not keep_going)
+    progress = _Progress(n)
+    try:
+        result = collect(sources, settings, progress)
+    except OutputInUse as exc:
+        raise click.UsageError(str(exc))
+    except KeyboardInterrupt:
+        progress.close()
+        click.echo(f"interrupted: {output} is as it was; the schemes drawn so far are cached and will not be "
+                   "drawn again", err=True)
+        sys.exit(EXIT_INTERRUPTED)
+    progress.close()
+
+    if report:
+        write_report(Path(report), result.records, result.complete, __version__)
+    if junit:
+        write_junit(Path(junit), result.records)
+    failed = [r for r in result.records if r.failed]
+    for record in failed:
+        click.echo(f"{record.label} {record.name}: {record.status()}", err=True)
+        for d in record.diagnostics:
+            if d["severity"] == "error":
+                click.echo(f"    {d['file']}:{d['line']}:{d['column']}: {d['code']} {d['message']}", err=True)
+        if record.figure_problem and not record.errors:
+            click.echo(f"    {record.figure_problem}", err=True)
+    if not result.complete:
+        click.echo(f"stopped at {failed[-1].label} (--fail-fast); {output} is as it was", err=True)
+    else:
+        drawn = sum(r.rendered for r in result.records)
+        click.echo(f"{output}: {result.pages} pages, {n} scheme{'s' if n != 1 else ''} "
+                   f"({n - len(failed)} passed, {len(failed)} with errors; {drawn} drawn, {n - drawn} from the "
+                   f"cache); figures and index.html in {settings.figures_dir}", err=True)
+    sys.exit(1 if failed else 0)
+
+
+class _Progress:
+    """A progress bar on a terminal, one plain line per scheme otherwise (logs, CI)."""
+
+    def __init__(self, total: int):
+        self.bar = None
+        if sys.stderr.isatty():
+            from tqdm import tqdm
+            self.bar = tqdm(total=total, unit="scheme", file=sys.stderr, leave=False)
+        self.total = total
+        self.pages_seen = False
+
+    def __call__(self, phase, done, total, record):
+        if phase == "scheme":
+            if self.bar is not None:
+                self.bar.update(1)
+                self.bar.set_postfix_str(record.label)
+            else:
+                source = "drawn" if record.rendered else "cached"
+                click.echo(f"[{done}/{total}] {record.label} {record.name}: {record.status()} ({source})", err=True)
+        elif self.bar is not None:
+            if not self.pages_seen:
+                self.bar.reset(total=total)
+                self.bar.set_description("pages")
+                self.pages_seen = True
+            self.bar.update(1)
+        elif done == total:
+            click.echo(f"{total} page{'s' if total != 1 else ''} converted to PDF", err=True)
+
+    def close(self):
+        if self.bar is not None:
+            self.bar.close()

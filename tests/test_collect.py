@@ -1,0 +1,366 @@
+"""`arrows collect`: many mechanisms -> one supporting-information PDF, figures and an HTML index.
+
+Outside judges: pypdf reads the document back (page count, text of every page, outline); a real
+headless Chromium (Debian's package) loads the HTML index and reports, through its own DevTools
+protocol, console errors, every request it made and whether each image decoded; the JUnit file is
+parsed with the standard library's XML parser.
+"""
+from __future__ import annotations
+
+import json
+import os
+import re
+import select
+import shutil
+import signal
+import subprocess
+import time
+import xml.etree.ElementTree as ET
+from pathlib import Path
+
+import pytest
+from pypdf import PdfReader
+
+ROOT = Path(__file__).resolve().parent.parent
+GALLERY = sorted((ROOT / "gallery").glob("*.mech"))
+SCHEMES = 33    # 30 from the gallery and its variations, 3 broken on purpose
+
+BROKEN = {
+    # a step without `end`: the file does not parse, so there is no figure
+    "zz-broken-syntax.mech": ('title "Unclosed step"\nspecies w = "[OH2:1]"\nspecies b = "[OH-:2]"\n'
+                              'step "proton transfer"\n    :O2 -> H(O1)\n    O1-H -> O1\n', "AR101"),
+    # an unclosed branch in a SMILES: no starting state, no figure
+    "zz-broken-smiles.mech": ('title "Unreadable SMILES"\nspecies dione = "CC(=O"\nstep "none"\nend\n', "AR102"),
+    # a fifth bond to carbon (Lewis octet rule, common practice): drawn, with the error marked
+    "zz-broken-octet.mech": ('title "Hydroxide onto a saturated carbon"\n'
+                             'caption "Broken on purpose: the arrow gives C1 a fifth bond."\n'
+                             'species methane = "[CH4:1]"\nspecies base = "[OH-:2]"\n'
+                             'step "impossible addition"\n    :O2 -> C1\nend\n', "AR301"),
+}
+
+
+def make_corpus(folder: Path) -> list[tuple[str, str, str]]:
+    """Every gallery mechanism, 14 variations (own title, caption and conditions), and the broken
+    files; returns (file name, title, caption) in collection order."""
+    folder.mkdir(parents=True)
+    for path in GALLERY:
+        shutil.copy(path, folder / path.name)
+    for n, path in enumerate(GALLERY[:30 - len(GALLERY)], 1):
+        text = path.read_text()
+        text = re.sub(r'^title\s+"([^"]*)"', lambda m: f'title "{m.group(1)}, variation {n}"', text, count=1, flags=re.M)
+        if re.search(r"^caption ", text, flags=re.M):
+            text = re.sub(r'^caption\s+"([^"]*)"', lambda m: f'caption "Variation {n}. {m.group(1)}"', text,
+                          count=1, flags=re.M)
+        else:
+            text = re.sub(r"^(title .*)$", lambda m: m.group(1) + f'\ncaption "Variation {n}."', text, count=1,
+                          flags=re.M)
+        text = re.sub(r'under "[^"]*"', 'under "THF, -78 °C"', text)
+        (folder / f"{path.stem}-variation-{n}.mech").write_text(text)
+    for name, (text, _) in BROKEN.items():
+        (folder / name).write_text(text)
+    order = []
+    for path in sorted(folder.glob("*.mech")):
+        text = path.read_text()
+        title = re.search(r'^title\s+"([^"]*)"', text, flags=re.M)
+        caption = re.search(r'^caption\s+"([^"]*)"', text, flags=re.M)
+        order.append((path.name, title.group(1) if title else "", caption.group(1) if caption else ""))
+    assert len(order) == SCHEMES
+    return order
+
+
+def collect(*args, cwd=None) -> subprocess.CompletedProcess:
+    return subprocess.run(["arrows", "collect", *map(str, args)], capture_output=True, text=True, cwd=cwd,
+                          timeout=900)
+
+
+def snapshot(out: Path) -> dict[str, bytes]:
+    """Every file of one output: the PDF and the figures folder."""
+    files = {out.name: out.read_bytes()}
+    folder = out.with_name(out.stem + "-figures")
+    for path in sorted(folder.iterdir()):
+        files[f"{folder.name}/{path.name}"] = path.read_bytes()
+    return files
+
+
+def flat(text: str) -> str:
+    return " ".join(text.split())
+
+
+@pytest.fixture(scope="module")
+def corpus(tmp_path_factory):
+    base = tmp_path_factory.mktemp("collect")
+    order = make_corpus(base / "schemes")
+    out = base / "one" / "si.pdf"
+    proc = collect(base / "schemes", "-o", out, "-j", "1", "--title", "Supporting information",
+                   "--authors", "A. Chemist, B. Chemist", "--date", "1 March 2026", "--cache", base / "cache",
+                   "--report", base / "one" / "report.json", "--junit", base / "one" / "junit.xml")
+    return {"base": base, "folder": base / "schemes", "order": order, "out": out, "proc": proc}
+
+
+def test_the_document_has_every_scheme_numbered_and_captioned(corpus):
+    proc = corpus["proc"]
+    assert proc.returncode == 1, proc.stderr            # three schemes have errors
+    assert "Traceback" not in proc.stderr
+    reader = PdfReader(corpus["out"])
+    texts = [flat(page.extract_text()) for page in reader.pages]
+    summary = [i for i, t in enumerate(texts) if t.startswith("Summary of checks")]
+    assert summary and summary == list(range(summary[0], len(texts)))   # the summary closes the document
+    # title page, one contents page, one page per scheme, then the summary
+    assert len(reader.pages) == 1 + 1 + SCHEMES + len(summary)
+    assert "Supporting information" in texts[0] and "A. Chemist, B. Chemist" in texts[0] and "1 March 2026" in texts[0]
+    assert texts[1].startswith("Contents")
+    for number, (name, title, caption) in enumerate(corpus["order"], 1):
+        page = texts[1 + number]
+        assert page.startswith(f"Scheme S{number}. "), (number, page[:80])
+        if name == "zz-broken-syntax.mech":
+            assert page.startswith(f"Scheme S{number}. {name}")      # unparsed: the file names the scheme
+        elif title:
+            assert page.startswith(f"Scheme S{number}. {flat(title)}")
+        if caption and name != "zz-broken-syntax.mech":
+            assert flat(caption) in page
+        assert f"Source {name}." in page
+        # the contents gives the page a PDF viewer shows for it
+        assert re.search(rf"S{number} .*? {number + 2}\b", texts[1])
+    assert [item.title for item in reader.outline][:3] == ["Supporting information", "Contents", "Scheme S1"]
+    assert reader.metadata["/Author"] == "A. Chemist, B. Chemist"
+
+
+def test_the_broken_files_are_in_the_summary_with_their_codes(corpus):
+    reader = PdfReader(corpus["out"])
+    summary = " ".join(flat(p.extract_text()) for p in reader.pages if flat(p.extract_text()).startswith("Summary"))
+    assert f"{SCHEMES} schemes: {SCHEMES - 3} passed, 3 with errors" in summary
+    for number, (name, _, _) in enumerate(corpus["order"], 1):
+        if name in BROKEN:
+            code = BROKEN[name][1]
+            assert re.search(rf"S{number} {re.escape(name)}: 1 error \({code}\)", summary), name
+            assert f"error {code}" in summary
+        else:
+            assert f"S{number} {name}: passed" in summary
+    assert "zz-broken-syntax.mech: 1 error (AR101)" in corpus["proc"].stderr
+
+
+def test_report_and_junit_list_every_scheme(corpus):
+    report = json.loads((corpus["out"].parent / "report.json").read_text())
+    assert report["totals"]["schemes"] == SCHEMES and report["totals"]["failed"] == 3
+    failed = {s["file"] for s in report["schemes"] if s["failed"]}
+    assert failed == set(BROKEN)
+    suite = ET.parse(corpus["out"].parent / "junit.xml").getroot().find("testsuite")
+    assert suite.get("tests") == str(SCHEMES) and suite.get("failures") == "3"
+    failures = {case.get("file"): case.find("failure") for case in suite.iter("testcase")}
+    for name, (_, code) in BROKEN.items():
+        assert failures[name] is not None and code in failures[name].text
+
+
+def test_figures_beside_the_document(corpus):
+    folder = corpus["out"].with_name("si-figures")
+    drawn = [name for name, _, _ in corpus["order"] if name not in ("zz-broken-syntax.mech", "zz-broken-smiles.mech")]
+    svgs = sorted(folder.glob("*.svg"))
+    assert len(svgs) == len(drawn) == SCHEMES - 2
+    for svg in svgs:
+        ET.fromstring(svg.read_bytes())                     # well-formed XML
+        assert len(PdfReader(svg.with_suffix(".pdf")).pages) == 1
+    assert (folder / "index.html").is_file()
+
+
+def test_a_warm_rerun_draws_nothing_and_gives_the_same_bytes(corpus, tmp_path):
+    base = corpus["base"]
+    before = snapshot(corpus["out"])
+    again = collect(corpus["folder"], "-o", corpus["out"], "-j", "1", "--title", "Supporting information",
+                    "--authors", "A. Chemist, B. Chemist", "--date", "1 March 2026", "--cache", base / "cache",
+                    "--report", tmp_path / "report.json")
+    assert again.returncode == 1
+    report = json.loads((tmp_path / "report.json").read_text())
+    assert report["totals"]["rendered"] == 0 and report["totals"]["from_cache"] == SCHEMES
+    assert "0 drawn" in again.stderr
+    assert snapshot(corpus["out"]) == before
+
+
+def test_jobs_2_gives_the_bytes_of_jobs_1(corpus, tmp_path):
+    outputs = {}
+    for jobs in (1, 2):
+        out = tmp_path / f"j{jobs}" / "si.pdf"
+        proc = collect(corpus["folder"], "-o", out, "-j", jobs, "--title", "SI", "--cache", tmp_path / f"cache{jobs}")
+        assert proc.returncode == 1
+        outputs[jobs] = snapshot(out)
+    assert outputs[1].keys() == outputs[2].keys()
+    for name in outputs[1]:
+        assert outputs[1][name] == outputs[2][name], name
+
+
+def test_an_interrupted_run_keeps_the_old_output_and_resumes_from_the_cache(corpus, tmp_path):
+    folder, cache = corpus["folder"], tmp_path / "cache"
+    out = tmp_path / "si.pdf"
+    assert collect(folder, "-o", out, "--style", "one-column", "-j", "2", "--cache", cache).returncode == 1
+    before = snapshot(out)
+    entries = lambda: len([p for p in (cache / "figures").iterdir() if not p.name.startswith(".")])
+    assert entries() == SCHEMES
+
+    # A new style changes every figure; stop the run (Ctrl-C) after a few have been drawn.
+    run = subprocess.Popen(["arrows", "collect", str(folder), "-o", str(out), "--style", "two-column", "-j", "2",
+                            "--cache", str(cache)], stdout=subprocess.PIPE, stderr=subprocess.PIPE, text=True)
+    deadline = time.monotonic() + 120
+    while entries() < SCHEMES + 4 and run.poll() is None and time.monotonic() < deadline:
+        time.sleep(0.01)
+    run.send_signal(signal.SIGINT)
+    _, err = run.communicate(timeout=60)
+    drawn_before_stop = entries() - SCHEMES
+    assert run.returncode == 130, err
+    assert "Traceback" not in err and "is as it was" in err
+    assert 0 < drawn_before_stop < SCHEMES, "the run was not stopped part way"
+    assert snapshot(out) == before                                   # the previous output, untouched
+    assert not [p for p in tmp_path.iterdir() if p.name.startswith(".arrows-tmp")]
+
+    resumed = collect(folder, "-o", out, "--style", "two-column", "-j", "2", "--cache", cache,
+                      "--report", tmp_path / "report.json")
+    assert resumed.returncode == 1
+    report = json.loads((tmp_path / "report.json").read_text())
+    assert report["totals"]["rendered"] == SCHEMES - drawn_before_stop   # only what was missing
+
+    reference = tmp_path / "reference" / "si.pdf"
+    assert collect(folder, "-o", reference, "--style", "two-column", "-j", "1",
+                   "--cache", tmp_path / "fresh").returncode == 1
+    assert snapshot(out) == snapshot(reference)
+
+
+def test_fail_fast_stops_without_writing(corpus, tmp_path):
+    out = tmp_path / "si.pdf"
+    proc = collect(corpus["folder"] / "zz-broken-octet.mech", corpus["folder"] / GALLERY[0].name, "-o", out,
+                   "--fail-fast", "-j", "1", "--cache", tmp_path / "cache", "--report", tmp_path / "r.json")
+    assert proc.returncode == 1 and "--fail-fast" in proc.stderr
+    assert not out.exists()
+    report = json.loads((tmp_path / "r.json").read_text())
+    assert report["complete"] is False and len(report["schemes"]) == 1
+
+
+def test_usage_errors(tmp_path):
+    assert collect(tmp_path / "nothing-here", "-o", tmp_path / "x.pdf").returncode == 2
+    (tmp_path / "empty").mkdir()
+    assert collect(tmp_path / "empty", "-o", tmp_path / "x.pdf").returncode == 2
+    # a folder of the figures folder's name that arrows did not make is never replaced
+    (tmp_path / "x-figures").mkdir()
+    (tmp_path / "x-figures" / "thesis.tex").write_text("keep me")
+    proc = collect(GALLERY[0], "-o", tmp_path / "x.pdf")
+    assert proc.returncode == 2 and "was not made by arrows collect" in proc.stderr
+    assert (tmp_path / "x-figures" / "thesis.tex").read_text() == "keep me"
+
+
+def test_flow_letter_and_prefix(corpus, tmp_path):
+    out = tmp_path / "flow.pdf"
+    proc = collect(*GALLERY[:6], "-o", out, "--flow", "--paper", "letter", "--prefix", "A", "-j", "1",
+                   "--cache", tmp_path / "cache")
+    assert proc.returncode == 0, proc.stderr
+    reader = PdfReader(out)
+    width, height = float(reader.pages[0].mediabox.width), float(reader.pages[0].mediabox.height)
+    assert (round(width), round(height)) == (612, 792)              # US Letter in points
+    text = " ".join(flat(p.extract_text()) for p in reader.pages)
+    for n in range(1, 7):
+        assert f"Scheme A{n}." in text
+    scheme_pages = [p for p in reader.pages if "Scheme A" in p.extract_text() and "Contents" not in p.extract_text()]
+    assert len(scheme_pages) < 6                                    # several schemes share a page
+
+
+# --- the HTML index in a real browser ----------------------------------------------------------
+
+class DevTools:
+    """A minimal Chrome DevTools Protocol client over --remote-debugging-pipe (fds 3 and 4)."""
+
+    def __init__(self, browser: str, profile: Path):
+        to_browser_r, self._to_browser = os.pipe()
+        self._from_browser, from_browser_w = os.pipe()
+
+        def wire():
+            os.dup2(to_browser_r, 3)
+            os.dup2(from_browser_w, 4)
+
+        self.proc = subprocess.Popen(
+            [browser, "--headless=new", "--remote-debugging-pipe", "--no-sandbox", "--disable-gpu",
+             "--no-first-run", "--no-default-browser-check", f"--user-data-dir={profile}", "about:blank"],
+            preexec_fn=wire, close_fds=False, stdout=subprocess.DEVNULL, stderr=subprocess.DEVNULL)
+        os.close(to_browser_r)
+        os.close(from_browser_w)
+        self._buffer = b""
+        self._next_id = 0
+        self.events: list[dict] = []
+
+    def send(self, method: str, params: dict | None = None, session: str | None = None, timeout: float = 60) -> dict:
+        self._next_id += 1
+        message = {"id": self._next_id, "method": method, "params": params or {}}
+        if session:
+            message["sessionId"] = session
+        os.write(self._to_browser, json.dumps(message).encode() + b"\0")
+        while True:
+            reply = self._read(timeout)
+            if reply.get("id") == self._next_id:
+                if "error" in reply:
+                    raise RuntimeError(f"{method}: {reply['error']}")
+                return reply.get("result", {})
+            self.events.append(reply)
+
+    def wait_for(self, method: str, timeout: float = 60) -> dict:
+        for event in self.events:
+            if event.get("method") == method:
+                return event
+        while True:
+            event = self._read(timeout)
+            self.events.append(event)
+            if event.get("method") == method:
+                return event
+
+    def _read(self, timeout: float) -> dict:
+        deadline = time.monotonic() + timeout
+        while b"\0" not in self._buffer:
+            left = deadline - time.monotonic()
+            if left <= 0 or not select.select([self._from_browser], [], [], left)[0]:
+                raise TimeoutError("the browser did not answer")
+            chunk = os.read(self._from_browser, 1 << 16)
+            if not chunk:
+                raise EOFError("the browser closed the pipe")
+            self._buffer += chunk
+        message, self._buffer = self._buffer.split(b"\0", 1)
+        return json.loads(message)
+
+    def close(self) -> None:
+        try:
+            self.send("Browser.close", timeout=10)
+        except (RuntimeError, TimeoutError, EOFError, OSError):
+            pass
+        try:
+            self.proc.wait(timeout=20)
+        except subprocess.TimeoutExpired:
+            self.proc.kill()
+        os.close(self._to_browser)
+        os.close(self._from_browser)
+
+
+def test_the_html_index_shows_every_figure_offline_in_chromium(corpus, tmp_path):
+    browser = shutil.which("chromium") or shutil.which("chromium-browser")
+    if browser is None:
+        pytest.skip("Debian's chromium package is not installed here (.ci/run installs it)")
+    index = corpus["out"].with_name("si-figures") / "index.html"
+    tools = DevTools(browser, tmp_path / "profile")
+    try:
+        target = tools.send("Target.createTarget", {"url": "about:blank"})["targetId"]
+        session = tools.send("Target.attachToTarget", {"targetId": target, "flatten": True})["sessionId"]
+        for domain in ("Page", "Runtime", "Log", "Network"):
+            tools.send(f"{domain}.enable", session=session)
+        tools.send("Page.navigate", {"url": index.as_uri()}, session=session)
+        tools.wait_for("Page.loadEventFired")
+        images = tools.send("Runtime.evaluate", {
+            "expression": "JSON.stringify(Array.from(document.images, i => [i.getAttribute('src'), i.complete, "
+                          "i.naturalWidth]))", "returnByValue": True}, session=session)["result"]["value"]
+        shot = tools.send("Page.captureScreenshot", {"format": "png"}, session=session)
+        (tmp_path / "index.png").write_bytes(__import__("base64").b64decode(shot["data"]))
+    finally:
+        tools.close()
+    images = json.loads(images)
+    figures = sorted(p.name for p in index.parent.glob("*.svg"))
+    assert sorted(src for src, _, _ in images) == figures and len(figures) == SCHEMES - 2
+    assert all(complete and width > 0 for _, complete, width in images), images
+    problems = [e for e in tools.events
+                if e.get("method") == "Runtime.exceptionThrown"
+                or (e.get("method") == "Runtime.consoleAPICalled" and e["params"]["type"] in ("error", "assert"))
+                or (e.get("method") == "Log.entryAdded" and e["params"]["entry"]["level"] == "error")
+                or e.get("method") == "Network.loadingFailed"]
+    assert not problems, problems
+    requested = [e["params"]["request"]["url"] for e in tools.events if e.get("method") == "Network.requestWillBeSent"]
+    assert requested and all(url.startswith("file://") for url in requested), requested   # nothing from a network
