@@ -11,6 +11,7 @@ COMMANDS = {
     "check": "arrows.commands.check:check_command",
     "trace": "arrows.commands.trace:trace_command",
     "explain": "arrows.commands.explain:explain_command",
+    "collect": "arrows.commands.collect:collect_command",
     "draw": "arrows.commands.draw:draw_command",
 }
 
