@@ -1,7 +1,10 @@
-"""The library behind the CLI: load or parse a mechanism, replay it, check it."""
+"""The library behind the CLI: load or parse a mechanism, replay it, check it, draw it."""
 from __future__ import annotations
 
+import html
+import weakref
 from pathlib import Path
+from typing import Optional
 
 from .checks import run_checks
 from .diagnostics import Diagnostic, MechanismError
@@ -10,10 +13,70 @@ from .model import Mechanism
 from .trace import Trace, replay
 
 
-def check(mechanism: Mechanism) -> tuple[Trace, list[Diagnostic]]:
+class Diagnostics(list):
+    """A list of Diagnostic that Jupyter shows as a table (and `print` shows as compiler lines)."""
+
+    _SEVERITY_COLOURS = {"error": "#D55E00", "warning": "#E69F00", "note": "#0072B2"}   # Okabe-Ito
+
+    @property
+    def errors(self) -> list[Diagnostic]:
+        return [d for d in self if d.severity == "error"]
+
+    def __str__(self) -> str:
+        return "\n".join(d.to_text() for d in self) or "no findings"
+
+    def _repr_html_(self) -> str:
+        if not self:
+            return "<p>no findings</p>"
+        rows = []
+        for d in self:
+            colour = self._SEVERITY_COLOURS.get(d.severity, "inherit")
+            cells = [f"{d.loc.line}:{d.loc.column}", f'<span style="color:{colour}">{d.severity}</span>', d.code,
+                     html.escape(d.message), html.escape(d.hint or "")]
+            rows.append("<tr>" + "".join(f"<td>{c}</td>" for c in cells) + "</tr>")
+        head = "".join(f"<th>{h}</th>" for h in ("line:col", "severity", "code", "message", "hint"))
+        return f'<table><thead><tr>{head}</tr></thead><tbody>{"".join(rows)}</tbody></table>'
+
+
+def check(mechanism: Mechanism) -> tuple[Trace, Diagnostics]:
     """Replay and check a parsed mechanism."""
     trace = replay(mechanism)
-    return trace, run_checks(trace)
+    return trace, Diagnostics(run_checks(trace))
+
+
+# One replay per Mechanism object (keyed by identity, dropped with the object), so that
+# .check(), .states and .draw() on the same Mechanism replay it once.
+_checked: dict[int, tuple[Trace, Diagnostics]] = {}
+
+
+def checked(mechanism: Mechanism) -> tuple[Trace, Diagnostics]:
+    """check(mechanism), remembered for as long as the Mechanism object lives."""
+    key = id(mechanism)
+    if key not in _checked:
+        _checked[key] = check(mechanism)
+        weakref.finalize(mechanism, _checked.pop, key, None)
+    return _checked[key]
+
+
+def derived_mols(mechanism: Mechanism) -> list:
+    """The starting state and the state after each derived step, as sanitized RDKit Mols (atom maps
+    kept; hydrogens that moves name are explicit atoms). Stops where the replay stopped."""
+    from rdkit import Chem
+    mols = []
+    for state in checked(mechanism)[0].states():
+        mol = Chem.Mol(state.mol)
+        Chem.SanitizeMol(mol)
+        mols.append(mol)
+    return mols
+
+
+def draw(mechanism: Mechanism, fmt: str = "svg", style: Optional[str] = None, force: bool = False) -> bytes:
+    """The figure of a mechanism as bytes (SVG, PDF or PNG); drawing code is imported only here.
+    A mechanism with errors raises arrows.draw.DrawError unless force=True, which marks the errors
+    on the figure."""
+    from .draw import render
+    trace, diagnostics = checked(mechanism)
+    return render(trace, fmt, style=style, force=force, diagnostics=diagnostics)
 
 
 def check_text(text: str, name: str = "<text>") -> tuple[Trace | None, list[Diagnostic]]:

@@ -194,3 +194,37 @@ class Mechanism:
     source_name: str = "<text>"
     # Statements written after `product` (a step or a second product); kept for the checker.
     after_product: tuple[Location, ...] = field(default=(), compare=False)
+
+    # Conveniences for scripts and notebooks. The work is done in api.py and writer.py, imported
+    # when called, so the model itself stays free of RDKit and drawing code.
+    def check(self):
+        """The diagnostics of this mechanism (an `arrows.api.Diagnostics` list, sorted by location)."""
+        from .api import checked
+        return checked(self)[1]
+
+    @property
+    def trace(self):
+        """The replay: the state before and after every step (`arrows.trace.Trace`)."""
+        from .api import checked
+        return checked(self)[0]
+
+    @property
+    def states(self) -> list:
+        """The derived states as RDKit Mols: the start, then the state after each derived step."""
+        from .api import derived_mols
+        return derived_mols(self)
+
+    def draw(self, fmt: str = "svg", style: Optional[str] = None, force: bool = False) -> bytes:
+        """The figure as bytes: fmt is "svg", "pdf" or "png"; style names a preset (one-column,
+        two-column, slide...). With errors it raises arrows.draw.DrawError unless force=True."""
+        from .api import draw
+        return draw(self, fmt, style, force)
+
+    def to_text(self) -> str:
+        """The mechanism as .mech text; parsing it gives back an equal Mechanism."""
+        from .writer import to_text
+        return to_text(self)
+
+    def _repr_svg_(self) -> str:
+        """Jupyter shows a Mechanism as its scheme, errors marked on it."""
+        return self.draw("svg", force=True).decode("utf-8")

@@ -1,0 +1,220 @@
+"""The Python API: load/parse -> Mechanism with .check(), .states, .draw(), .to_text(); building a
+Mechanism in code; Jupyter displays.
+
+Judges: the parser itself for round trips (printed text must parse to an equal Mechanism), RDKit
+canonical SMILES for "same structure", xml.etree for "the SVG/HTML is well-formed", and nbclient
+running a real kernel for the notebook display. Textbook outcome (references.md, "Worked outcomes",
+memory): octane-2,7-dione with base and heat gives 1-(2-methylcyclopent-1-en-1-yl)ethan-1-one.
+Proton transfer from carbon (common practice): the arrow starts at the base's lone pair, never at
+the proton, so a broken twin with `H(C3) -> O11` must report AR204.
+"""
+from __future__ import annotations
+
+import dataclasses
+import subprocess
+import sys
+import xml.etree.ElementTree as ET
+from pathlib import Path
+
+import pytest
+from rdkit import Chem
+
+import arrows
+from arrows import api, build
+from arrows.writer import UnprintableMechanism
+
+ROOT = Path(__file__).resolve().parent.parent
+GALLERY = sorted((ROOT / "gallery").glob("*.mech"))
+
+# A gallery mechanism (demo scenario of our own) that the tests below build in code and break.
+SOURCE = ROOT / "gallery" / "05-octanedione-cyclopentene.mech"
+TEXT = SOURCE.read_text(encoding="utf-8")
+BROKEN = TEXT.replace(":O11 -> H(C3)", "H(C3) -> O11", 1)   # an arrow from a proton: AR204
+
+
+def _built_in_code() -> arrows.Mechanism:
+    species, step = build.species, build.step
+    enolate = (":O11 -> H(C3)", "C3-H -> C2=C3", "C2=O9 -> O9")
+    return build.mechanism(
+        title="Ring closure of octane-2,7-dione to an acetylcyclopentene",
+        caption="The internal enolate at C3 closes a five-membered ring onto C7. A second deprotonation at C3 "
+                "and loss of hydroxide (E1cB) put the new C=C bond inside the ring, conjugated with the ketone.",
+        species=[species("dione", "[CH3:1][C:2](=[O:9])[CH2:3][CH2:4][CH2:5][CH2:6][C:7](=[O:10])[CH3:8]"),
+                 species("base", "[OH-:11]")],
+        steps=[step("enolate formation", *enolate, kind="reversible", over="NaOH", under="H2O, heat"),
+               step("ring closure", ":O9 -> C2=O9", "C2=C3 -> C3-C7", "C7=O10 -> O10", kind="reversible"),
+               step("proton transfer", ":O10 -> H(O11)", "O11-H -> O11", kind="reversible",
+                    expect=["CC(=O)C1CCCC1(C)O"]),
+               step("enolate of the aldol", *enolate, kind="reversible"),
+               step("loss of hydroxide (E1cB)", ":O9 -> C2=O9", "C2=C3 -> C3=C7", "C7-O10 -> O10",
+                    releases=["O10"])],
+        product="CC(=O)C1=C(C)CCC1")
+
+
+def _has_renderer() -> bool:
+    import arrows.draw
+    return hasattr(arrows.draw, "render")
+
+
+needs_renderer = pytest.mark.skipif(not _has_renderer(), reason="arrows.draw.render is not there yet")
+
+
+# --- round trips -------------------------------------------------------------------------------
+
+@pytest.mark.parametrize("path", GALLERY, ids=[p.name for p in GALLERY])
+def test_printed_text_parses_to_an_equal_mechanism(path):
+    mechanism = arrows.load(path)
+    text = mechanism.to_text()
+    again = arrows.parse(text, mechanism.source_name)
+    assert again == mechanism
+    assert again.to_text() == text   # printing is stable
+
+
+def test_gallery_is_there():
+    assert len(GALLERY) >= 10
+
+
+def test_mechanism_built_in_code_equals_the_parsed_one():
+    assert _built_in_code() == arrows.parse(TEXT)
+    assert _built_in_code() == dataclasses.replace(arrows.load(SOURCE), source_name="<text>")
+
+
+def test_moves_as_objects_equal_moves_as_text():
+    from arrows.model import AtomRef, BondPair, BondRef, BondSink, HydrogenOn, Move
+    c2, c3 = AtomRef("C", 2), AtomRef("C", 3)
+    as_objects = Move(BondPair(BondRef(c3, HydrogenOn(c3), 1)), BondSink(BondRef(c2, c3, 2)), 2)
+    assert build.move("C3-H -> C2=C3") == as_objects
+    assert build.step("x", as_objects) == build.step("x", "C3-H -> C2=C3")
+
+
+def test_species_from_an_rdkit_mol_gives_the_same_states():
+    """A species given as an RDKit Mol replays to the same structures as its SMILES text
+    (RDKit canonical SMILES as the judge)."""
+    text_built = _built_in_code()
+    dione = Chem.MolFromSmiles("[CH3:1][C:2](=[O:9])[CH2:3][CH2:4][CH2:5][CH2:6][C:7](=[O:10])[CH3:8]")
+    mol_built = dataclasses.replace(
+        text_built, species=(build.species("dione", dione),) + text_built.species[1:])
+    assert mol_built.check().errors == []
+    assert [Chem.MolToSmiles(m) for m in mol_built.states] == [Chem.MolToSmiles(m) for m in text_built.states]
+
+
+def test_bad_move_text_is_a_located_error():
+    with pytest.raises(arrows.MechanismError) as caught:
+        build.move("C3-H -> -> C2")
+    (diag,) = caught.value.diagnostics
+    assert (diag.code, diag.loc.line, diag.loc.column) == ("AR101", 1, 9)
+    assert diag.hint
+
+
+def test_text_the_language_cannot_hold_is_refused():
+    mechanism = build.mechanism(species=[build.species("a", "C")], steps=[build.step('say "hi"')])
+    with pytest.raises(UnprintableMechanism):
+        mechanism.to_text()
+
+
+# --- check, states, caching --------------------------------------------------------------------
+
+def test_check_states_and_the_textbook_product():
+    mechanism = arrows.load(SOURCE)
+    assert mechanism.check().errors == []
+    states = mechanism.states
+    assert len(states) == len(mechanism.steps) + 1
+    # references.md worked outcome (memory): 1-(2-methylcyclopent-1-en-1-yl)ethan-1-one
+    expected = Chem.CanonSmiles("CC(=O)C1=C(C)CCC1")
+    last = Chem.Mol(states[-1])
+    for atom in last.GetAtoms():
+        atom.SetAtomMapNum(0)
+    assert expected in Chem.CanonSmiles(Chem.MolToSmiles(Chem.RemoveHs(last))).split(".")
+
+
+def test_replay_runs_once_per_mechanism(monkeypatch):
+    calls = []
+    real = api.replay
+    monkeypatch.setattr(api, "replay", lambda m: calls.append(m) or real(m))
+    mechanism = arrows.parse(TEXT)
+    mechanism.check()
+    mechanism.states
+    mechanism.check()
+    assert len(calls) == 1
+    arrows.parse(TEXT).check()   # an equal but separate object replays on its own
+    assert len(calls) == 2
+
+
+def test_a_broken_mechanism_reports_instead_of_raising():
+    mechanism = arrows.parse(BROKEN)
+    codes = [d.code for d in mechanism.check().errors]
+    assert codes == ["AR204"]
+    assert len(mechanism.states) == 1   # only the starting state could be derived
+
+
+def test_checking_imports_no_drawing_code():
+    script = ("import sys, arrows; m = arrows.parse(open(sys.argv[1]).read()); m.check(); m.states; m.to_text();"
+              "bad = [n for n in ('arrows.draw', 'cairosvg') if n in sys.modules]; print(bad); sys.exit(bool(bad))")
+    done = subprocess.run([sys.executable, "-c", script, str(SOURCE)], capture_output=True, text=True)
+    assert done.returncode == 0, done.stdout + done.stderr
+
+
+# --- Jupyter displays --------------------------------------------------------------------------
+
+def test_diagnostics_show_as_an_html_table():
+    mechanism = arrows.parse(BROKEN)
+    table = ET.fromstring(mechanism.check()._repr_html_())
+    rows = table.findall("./tbody/tr")
+    assert len(rows) == len(mechanism.check())
+    assert [td.text for td in rows[0].findall("td")][2] == "AR204"
+
+
+def test_an_empty_diagnostic_list_says_so():
+    assert "no findings" in arrows.Diagnostics()._repr_html_()
+
+
+@needs_renderer
+def test_repr_svg_is_well_formed_svg():
+    svg = arrows.parse(TEXT)._repr_svg_()
+    root = ET.fromstring(svg)
+    assert root.tag.endswith("svg")
+
+
+@needs_renderer
+def test_draw_gives_figure_bytes():
+    mechanism = arrows.parse(TEXT)
+    assert mechanism.draw("png").startswith(b"\x89PNG")
+    assert mechanism.draw("pdf").startswith(b"%PDF")
+
+
+@needs_renderer
+def test_a_broken_mechanism_draws_only_when_forced_and_shows_in_jupyter():
+    from arrows.draw import DrawError
+    mechanism = arrows.parse(BROKEN)
+    with pytest.raises(DrawError):
+        mechanism.draw("svg")
+    ET.fromstring(mechanism.draw("svg", force=True))
+    ET.fromstring(mechanism._repr_svg_())
+
+
+def _run_notebook(tmp_path: Path, code: str):
+    nbformat = pytest.importorskip("nbformat")
+    nbclient = pytest.importorskip("nbclient")
+    notebook = nbformat.v4.new_notebook()
+    notebook.cells.append(nbformat.v4.new_code_cell(code))
+    client = nbclient.NotebookClient(notebook, timeout=120, kernel_name="python3",
+                                     resources={"metadata": {"path": str(tmp_path)}})
+    client.execute()
+    return notebook.cells[0].outputs
+
+
+def test_notebook_shows_the_diagnostic_table(tmp_path):
+    source = tmp_path / "broken.mech"
+    source.write_text(BROKEN, encoding="utf-8")
+    outputs = _run_notebook(tmp_path, "import arrows\narrows.load('broken.mech').check()")
+    html = [o["data"]["text/html"] for o in outputs if "text/html" in o.get("data", {})]
+    assert html and "AR204" in html[0]
+
+
+@needs_renderer
+def test_notebook_load_check_draw_cell_shows_svg(tmp_path):
+    (tmp_path / "ring.mech").write_text(TEXT, encoding="utf-8")
+    outputs = _run_notebook(tmp_path, "import arrows\nm = arrows.load('ring.mech')\nassert not m.check().errors\nm")
+    svgs = [o["data"]["image/svg+xml"] for o in outputs if "image/svg+xml" in o.get("data", {})]
+    assert svgs
+    ET.fromstring(svgs[0])
