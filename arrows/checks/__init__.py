@@ -18,11 +18,15 @@ class Check(Protocol):
 def _registry() -> list[Check]:
     from .checkpoints import CheckpointsMatch
     from .conservation import ChargeAndAtomsConserved
+    from .protons import UphillProtonTransfers
     from .rings import RingClosures
+    from .stereo import StereoChanges
     from .structure import NothingAfterProduct, SomethingToCheck, StepsHaveMoves
     from .valence import UnusualElectronCounts
     return [SomethingToCheck(), NothingAfterProduct(), StepsHaveMoves(), UnusualElectronCounts(), ChargeAndAtomsConserved(),
-            RingClosures(), CheckpointsMatch()]
+            RingClosures(), CheckpointsMatch(),
+            UphillProtonTransfers(),
+            StereoChanges()]
 
 
 def run_checks(trace: Trace) -> list[Diagnostic]:

@@ -1,35 +1,202 @@
-"""Ring closures: a bond formed between two atoms already joined closes a ring."""
+"""Ring closures: every bond a step forms between two atoms of one fragment closes a ring. Each
+closure gets its Baldwin class (arrows.judgement.baldwin); a three- or four-membered ring is
+AR501, a disfavoured class AR502 (naming a favoured closure between the same kinds of sites when
+the species offers one), anything else a note AR601."""
 from __future__ import annotations
 
-from typing import Iterator
+from dataclasses import dataclass
+from typing import Iterator, Optional
 
 from rdkit import Chem
 
 from ..diagnostics import Diagnostic
+from ..electrons import ElectronState, atom_label
+from ..model import Location
+from ..judgement.baldwin import BALDWIN_1976, ClosureClass, classify, geometry_of, ring_path, verdict
+from ..judgement.closures import Closure, family, favoured_alternatives
+from ..judgement.sites import ENOLATE, NITROGEN, OXYGEN
 from ..trace import StepTrace, Trace
 
 
-def ring_size_closed(st: StepTrace, i: int, j: int) -> int:
-    """Size of the smallest ring the new bond i-j closes (0 if it joins two fragments). The path is
-    taken in the state after the step without the new bond, so bonds broken in the step do not count."""
-    work = Chem.RWMol(st.after.mol)
-    work.RemoveBond(i, j)
-    path = Chem.GetShortestPath(work, i, j)
-    return len(path) if path else 0
+@dataclass(frozen=True)
+class StepClosure:
+    """One ring closed by one step, by atom index."""
+
+    nucleophile: int
+    attacked: int
+    ring: tuple[int, ...]
+    closure: Optional[ClosureClass]     # None for a pericyclic step
+    enol_partner: Optional[int] = None
+    broken_partner: Optional[int] = None
+    onto_cation: bool = False
+    loc: Optional[Location] = None      # the arrow that makes the bond
+
+
+def closures_in_step(st: StepTrace) -> list[StepClosure]:
+    if st.after is None:
+        return []
+    mol = st.before.mol
+    pericyclic = bool(st.change.moves) and all(
+        m.source_kind == "bond" and len(m.sink_atoms) == 2 and m.electrons == 2 for m in st.change.moves)
+    found = []
+    for i, j in st.change.formed:
+        if mol.GetAtomWithIdx(i).GetAtomicNum() == 1 or mol.GetAtomWithIdx(j).GetAtomicNum() == 1:
+            continue   # a hydrogen moving inside one molecule is a transfer, not a ring closure
+        ring = ring_path(mol, i, j)
+        if not ring:
+            continue
+        x, y, loc = _nucleophile_and_target(st, i, j)
+        ring = ring if ring[0] == x else tuple(reversed(ring))
+        if pericyclic:
+            found.append(StepClosure(x, y, ring, None, loc=loc))
+            continue
+        w = _broken_partner(st, x, y)
+        z = _enol_partner(st.before, st, x, y)
+        geometry = geometry_of(mol, y)
+        # An oxocarbenium or iminium pi bond (the far atom positive), or a bare cation, is attacked.
+        cation = geometry != "tet" and ((w is not None and st.before.formal_charge(w) > 0)
+                                        or st.before.formal_charge(y) > 0)
+        found.append(StepClosure(x, y, ring, classify(ring, geometry, w, z), z, w, cation, loc))
+    return found
+
+
+def _nucleophile_and_target(st: StepTrace, i: int, j: int) -> tuple[int, int, Location]:
+    """The atom whose electrons make the bond (a lone pair or unpaired electron first, else the
+    atom that keeps a bond pair), the atom it attacks, and where that arrow is written."""
+    forming = [m for m in st.change.moves if len(m.sink_atoms) == 2 and set(m.sink_atoms) == {i, j}]
+    forming.sort(key=lambda m: m.source_kind == "bond")
+    if not forming:
+        return i, j, st.step.loc
+    m = forming[0]
+    x = m.source_atoms[0] if m.source_kind != "bond" else m.sink_atoms[0]
+    return x, (j if x == i else i), m.move.loc
+
+
+def _broken_partner(st: StepTrace, x: int, y: int) -> Optional[int]:
+    """The far atom of the bond whose electrons leave the attacked atom y in this step."""
+    for m in st.change.moves:
+        if m.source_kind != "bond" or y not in m.source_atoms or set(m.source_atoms) == {x, y}:
+            continue
+        keeps = m.sink_atoms[0]
+        if keeps != y:
+            return m.source_atoms[0] if m.source_atoms[1] == y else m.source_atoms[1]
+    return None
+
+
+def _enol_partner(state: ElectronState, st: StepTrace, x: int, y: int) -> Optional[int]:
+    """For an enolate (or enol) carbon nucleophile, the other enolate carbon: the partner of the
+    C=C pair that makes the new bond, with an oxygen on it; or, for a carbanion drawn with its
+    lone pair, the neighbouring carbonyl carbon."""
+    mol = state.mol
+    if mol.GetAtomWithIdx(x).GetAtomicNum() != 6:
+        return None
+    for m in st.change.moves:
+        if m.source_kind == "bond" and len(m.sink_atoms) == 2 and set(m.sink_atoms) == {x, y} and x in m.source_atoms:
+            z = m.source_atoms[0] if m.source_atoms[1] == x else m.source_atoms[1]
+            if state.bond_electrons(x, z) == 4 and _has_single_oxygen(mol, z):
+                return z
+    if state.formal_charge(x) < 0:
+        for n in mol.GetAtomWithIdx(x).GetNeighbors():
+            if n.GetAtomicNum() == 6 and any(b.GetBondTypeAsDouble() == 2 and b.GetOtherAtom(n).GetAtomicNum() == 8
+                                             for b in n.GetBonds()):
+                return n.GetIdx()
+    return None
+
+
+def _has_single_oxygen(mol: Chem.Mol, atom: int) -> bool:
+    return any(b.GetBondTypeAsDouble() == 1 and b.GetOtherAtom(mol.GetAtomWithIdx(atom)).GetAtomicNum() == 8
+               for b in mol.GetAtomWithIdx(atom).GetBonds())
 
 
 class RingClosures:
     name = "ring closures"
-    codes = ("AR501",)
+    codes = ("AR501", "AR502", "AR601")
 
     def run(self, trace: Trace) -> Iterator[Diagnostic]:
         for st in trace.steps:
-            if st.after is None:
+            for c in closures_in_step(st):
+                yield self.judge(trace, st, c)
+
+    def judge(self, trace: Trace, st: StepTrace, c: StepClosure) -> Diagnostic:
+        label = lambda i: st.before.label(i)   # noqa: E731
+        a, b = label(c.nucleophile), label(c.attacked)
+        where = dict(bonds=((a, b),), step=st.index, atoms=(a, b))
+        size = len(c.ring)
+        opening = f"{a}-{b} closes a {size}-membered ring"
+        if c.closure is None:
+            return Diagnostic("AR601", f"{opening} in a pericyclic step (a cyclic array of bond moves); "
+                              f"Baldwin's rules do not apply", c.loc or st.step.loc, **where)
+        v = verdict(c.closure)
+        said = f"{c.closure.name}, {v.word}" + (f" ({v.rule})" if v.rule else "")
+        if c.onto_cation and (v.favoured is False or size in (3, 4)):
+            return Diagnostic("AR601", f"{opening}: {said}, but onto an oxocarbenium or iminium cation, where "
+                              f"the rule is routinely broken, as in dioxolane formation (common practice, memory)",
+                              c.loc or st.step.loc, **where)
+        if v.favoured is False or size in (3, 4):
+            code = "AR502" if v.favoured is False else "AR501"
+            message = f"{opening}: {said}" + ("" if v.favoured is False else ", but the ring is strained")
+            alternative = self.alternative(trace, st, c)
+            if alternative:
+                message += f"; {alternative}"
+            hint = ("five- and six-membered closures usually win when the substrate offers one (common practice)"
+                    if code == "AR501" else "Baldwin's rules: a disfavoured closure is slow; look for a favoured "
+                    "ring size or another intermediate (`arrows closures` lists the candidates)")
+            return Diagnostic(code, message, c.loc or st.step.loc, hint=hint, **where)
+        if v.favoured is None:
+            return Diagnostic("AR601", f"{opening}: {c.closure.name}, not covered by Baldwin's rules",
+                              c.loc or st.step.loc, **where)
+        return Diagnostic("AR601", f"{opening}: {said}", c.loc or st.step.loc, **where)
+
+    def alternative(self, trace: Trace, st: StepTrace, c: StepClosure) -> Optional[str]:
+        """A favoured closure between the same kinds of sites in the species that closes here
+        (the latest neutral form of the fragment, before any enolate was made)."""
+        kinds = _site_kinds(st.before, c)
+        if kinds is None:
+            return None
+        state = _parent_state(trace, st, c.nucleophile, c.attacked)
+        for option in favoured_alternatives(state.mol, *kinds):
+            pairs = {(option.nucleophile.atom, option.electrophile.atom), *option.equivalent}
+            if (c.nucleophile, c.attacked) in pairs:
                 continue
-            for i, j in st.change.formed:
-                size = ring_size_closed(st, i, j)
-                if size in (3, 4):
-                    a, b = st.after.label(i), st.after.label(j)
-                    yield Diagnostic("AR501", f"the new bond {a}-{b} closes a {size}-membered ring", st.step.loc,
-                                     hint="five- and six-membered closures usually win when the substrate offers one",
-                                     bonds=((a, b),), step=st.index)
+            return _describe(state.mol, option)
+        return None
+
+
+def _site_kinds(state: ElectronState, c: StepClosure) -> Optional[tuple[str, str]]:
+    mol = state.mol
+    element = mol.GetAtomWithIdx(c.nucleophile).GetAtomicNum()
+    nucleophile = {8: OXYGEN, 7: NITROGEN}.get(element, ENOLATE if c.enol_partner is not None else None)
+    if nucleophile is None or c.broken_partner is None:
+        return None
+    partner = mol.GetAtomWithIdx(c.broken_partner)
+    if c.closure and c.closure.geometry == "trig" and partner.GetAtomicNum() == 8:
+        return nucleophile, "carbonyl"
+    if c.closure and c.closure.geometry == "trig" and partner.GetAtomicNum() == 6:
+        return nucleophile, "conjugate"
+    if c.closure and c.closure.geometry == "tet":
+        return nucleophile, "alkyl"
+    return None
+
+
+def _parent_state(trace: Trace, st: StepTrace, x: int, y: int) -> ElectronState:
+    """The latest state up to this step in which x and y sit in one uncharged fragment."""
+    states = [trace.initial] + [s.after for s in trace.steps[:st.index]] + [st.before]
+    for state in reversed([s for s in states if s is not None]):
+        if x >= state.mol.GetNumAtoms() or y >= state.mol.GetNumAtoms():
+            continue
+        for fragment in Chem.GetMolFrags(state.mol, asMols=False, sanitizeFrags=False):
+            if x in fragment and y in fragment and sum(state.formal_charge(i) for i in fragment) == 0:
+                return state
+    return st.before
+
+
+def _describe(mol: Chem.Mol, option: Closure) -> str:
+    nu = atom_label(mol, option.nucleophile.atom)
+    el = atom_label(mol, option.electrophile.atom)
+    what = "enolate" if option.nucleophile.kind == ENOLATE else {OXYGEN: "oxygen", NITROGEN: "nitrogen"}.get(
+        option.nucleophile.kind, option.nucleophile.kind)
+    return (f"{nu} {what} onto {el} would close a {option.size}-membered ring, {option.closure.name}, "
+            f"{option.outlook}")
+
+
+__all__ = ["RingClosures", "StepClosure", "closures_in_step", "BALDWIN_1976"]

@@ -1,0 +1,112 @@
+"""Proton transfers that run far uphill (AR508).
+
+A proton transfer is an arrow from a lone pair (or a pi pair) of a base B to a hydrogen on X,
+with the X-H bond broken in the same step. The acid given up is judged on X before the step, the
+conjugate acid of the base on B after it (arrows.judgement.acidity). A concerted elimination
+(E2: another sigma bond breaks in the same step) is not a plain proton transfer and is left alone.
+"""
+from __future__ import annotations
+
+from contextlib import contextmanager
+from contextvars import ContextVar
+from dataclasses import dataclass
+from typing import Iterator, Optional
+
+from ..diagnostics import Diagnostic
+from ..judgement.acidity import Acidity, acidity_of, perceived
+from ..model import Location
+from ..trace import StepTrace, Trace
+
+DEFAULT_PKA_GAP = 12.0
+_gap: ContextVar[float] = ContextVar("pka_gap", default=DEFAULT_PKA_GAP)
+
+
+def set_pka_gap(value: float) -> None:
+    """Set the uphill threshold (pKa units) for the checks that run after this call."""
+    _gap.set(value)
+
+
+@contextmanager
+def pka_gap(value: float) -> Iterator[None]:
+    token = _gap.set(value)
+    try:
+        yield
+    finally:
+        _gap.reset(token)
+
+
+@dataclass(frozen=True)
+class ProtonTransfer:
+    base_atom: int
+    acid_atom: int
+    hydrogen: int
+    loc: Location
+    acid: Optional[Acidity]            # the acid given up, before the step
+    conjugate_acid: Optional[Acidity]  # the base once protonated, after the step
+
+    @property
+    def uphill(self) -> Optional[float]:
+        if self.acid is None or self.conjugate_acid is None:
+            return None
+        return self.acid.pka - self.conjugate_acid.pka
+
+
+def proton_transfers(st: StepTrace) -> list[ProtonTransfer]:
+    if st.after is None:
+        return []
+    before, after = st.before.mol, st.after.mol
+    broken = {frozenset(b) for b in st.change.broken}
+    found = []
+    for m in st.change.moves:
+        if m.electrons != 2 or len(m.sink_atoms) != 2:
+            continue
+        base, h = m.sink_atoms if m.source_kind == "bond" else (m.source_atoms[0], _other(m.sink_atoms, m.source_atoms[0]))
+        if before.GetAtomWithIdx(h).GetAtomicNum() != 1 or h in m.source_atoms:
+            continue   # not to a hydrogen, or the hydrogen moves with its own pair (a hydride shift)
+        donors = [n.GetIdx() for n in before.GetAtomWithIdx(h).GetNeighbors()]
+        if len(donors) != 1 or frozenset((donors[0], h)) not in broken:
+            continue
+        x = donors[0]
+        if any(frozenset(b) != frozenset((x, h)) and before.GetBondBetweenAtoms(*b).GetBondTypeAsDouble() == 1
+               and not _is_hydrogen_bond(before, b) for b in st.change.broken):
+            continue   # a concerted elimination, not a plain proton transfer
+        if (m.source_kind == "bond" and _next_to_cation(st.after, base)) or _next_to_cation(st.before, x):
+            continue   # a cation's conjugate acid, or a C-H beta to a cation (E1): no entry in our table
+        found.append(ProtonTransfer(base, x, h, m.move.loc, acidity_of(perceived(before), x),
+                                    acidity_of(perceived(after), base)))
+    return found
+
+
+def _other(pair: tuple[int, ...], atom: int) -> int:
+    return pair[1] if pair[0] == atom else pair[0]
+
+
+def _is_hydrogen_bond(mol, bond) -> bool:
+    return any(mol.GetAtomWithIdx(i).GetAtomicNum() == 1 for i in bond)
+
+
+def _next_to_cation(state, atom: int) -> bool:
+    return any(state.formal_charge(n.GetIdx()) > 0 and state.nonbonding[n.GetIdx()] == 0
+               for n in state.mol.GetAtomWithIdx(atom).GetNeighbors())
+
+
+class UphillProtonTransfers:
+    name = "proton transfers"
+    codes = ("AR508",)
+
+    def run(self, trace: Trace) -> Iterator[Diagnostic]:
+        gap = _gap.get()
+        for st in trace.steps:
+            for t in proton_transfers(st):
+                uphill = t.uphill
+                if uphill is None or uphill <= gap:
+                    continue
+                base, acid = t.conjugate_acid, t.acid
+                label_b, label_x = st.before.label(t.base_atom), st.before.label(t.acid_atom)
+                yield Diagnostic(
+                    "AR508",
+                    f"{base.base} (pKa of {base.acid} {base.shown}) removing {acid.acid} ({acid.shown}): "
+                    f"uphill by about {uphill:.0f} pKa units ({label_b} takes the proton of {label_x})",
+                    t.loc, hint=f"a base whose conjugate acid has a pKa near {acid.shown} is needed, or another "
+                    f"proton is meant; the threshold is {gap:g} units (`arrows check --pka-gap`)",
+                    atoms=(label_b, label_x), step=st.index)

@@ -1,0 +1,95 @@
+"""Stereocentres and stereogenic double bonds made or lost in each step, and how many
+stereoisomers of the final product can form when the mechanism controls none of them (AR602)."""
+from __future__ import annotations
+
+from dataclasses import dataclass
+from typing import Iterator, Optional
+
+from rdkit import Chem
+
+from ..diagnostics import Diagnostic
+from ..judgement.stereo import CENTRE, StereoElement, describe, stereo_changes, stereo_elements, stereoisomer_count
+from ..rdkit_io import canonical
+from ..trace import StepTrace, Trace
+
+
+@dataclass(frozen=True)
+class ProductStereo:
+    smiles: str
+    elements: tuple[StereoElement, ...]
+    stereoisomers: int
+
+
+def step_stereo(st: StepTrace) -> tuple[list[StereoElement], list[StereoElement]]:
+    if st.after is None:
+        return [], []
+    return stereo_changes(st.before.mol, st.after.mol)
+
+
+def final_stereo(trace: Trace) -> list[ProductStereo]:
+    """Each fragment of the final state (released by-products aside) that has stereo elements,
+    with the number of its stereoisomers when no configuration made by the mechanism is fixed."""
+    final = trace.final
+    if final is None:
+        return []
+    touched = {i for st in trace.steps for i in st.change.touched_atoms}
+    elements = stereo_elements(final.mol)
+    out = []
+    for indices in Chem.GetMolFrags(final.mol, asMols=False, sanitizeFrags=False):
+        if set(indices) & final.released:
+            continue
+        mine = tuple(sorted(e for e in elements if e.atoms[0] in indices))
+        if not mine:
+            continue
+        keep = sorted(indices)
+        fragment = Chem.RWMol(final.mol)
+        for i in sorted(set(range(final.mol.GetNumAtoms())) - set(keep), reverse=True):
+            fragment.RemoveAtom(i)
+        position = {old: new for new, old in enumerate(keep)}
+        uncontrolled = [position[i] for i in touched if i in position]
+        out.append(ProductStereo(canonical(fragment.GetMol()), mine,
+                                 stereoisomer_count(fragment.GetMol(), uncontrolled)))
+    return out
+
+
+def _said(elements: list[StereoElement], label) -> str:
+    centres = [describe(e, label) for e in elements if e.kind == CENTRE]
+    bonds = [describe(e, label) for e in elements if e.kind != CENTRE]
+    parts = []
+    if centres:
+        parts.append(f"stereocentre{'s' if len(centres) > 1 else ''} {', '.join(centres)}")
+    if bonds:
+        parts.append(f"stereogenic double bond{'s' if len(bonds) > 1 else ''} {', '.join(bonds)}")
+    return " and ".join(parts)
+
+
+class StereoChanges:
+    name = "stereo changes"
+    codes = ("AR602",)
+
+    def run(self, trace: Trace) -> Iterator[Diagnostic]:
+        for st in trace.steps:
+            made, lost = step_stereo(st)
+            if not made and not lost:
+                continue
+            label = st.after.label
+            parts = []
+            if made:
+                parts.append(f"new {_said(made, label)}")
+            if lost:
+                parts.append(f"no longer stereogenic: {_said(lost, label)}")
+            yield Diagnostic("AR602", "; ".join(parts), st.step.loc, step=st.index,
+                             atoms=tuple(label(i) for e in made + lost for i in e.atoms))
+        product = self._product_note(trace)
+        if product:
+            yield product
+
+    def _product_note(self, trace: Trace) -> Optional[Diagnostic]:
+        many = [p for p in final_stereo(trace) if p.stereoisomers > 1]
+        if not many:
+            return None
+        loc = trace.mechanism.product.loc if trace.mechanism.product else trace.steps[-1].step.loc
+        label = trace.final.label
+        text = "; ".join(f"{p.smiles} ({_said(list(p.elements), label)}): {p.stereoisomers} stereoisomers can form"
+                         for p in many)
+        return Diagnostic("AR602", f"with no stereocontrol, {text}", loc, step=len(trace.steps) - 1)

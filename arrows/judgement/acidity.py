@@ -1,0 +1,88 @@
+"""Approximate acidities by substructure, for judging proton transfers.
+
+Each entry names the acid (the site that carries the proton), its conjugate base, a SMARTS whose
+first atom is the atom carrying the proton, an approximate aqueous pKa, and the source. The first
+matching entry wins, so specific entries come before general ones. Values are textbook aqueous
+pKa values as listed in the project's shared references (memory); the few marked "not in the
+shared list" are also from memory. They are for spotting transfers that are wildly uphill, not
+for quantitative work.
+"""
+from __future__ import annotations
+
+from dataclasses import dataclass
+from functools import lru_cache
+from typing import Optional
+
+from rdkit import Chem
+
+TEXTBOOK = "textbook aqueous pKa (memory)"
+NOT_LISTED = "textbook aqueous pKa (memory; not in the shared list)"
+COMMON_PRACTICE = "common practice: between methanol (15.5) and tert-butanol (18)"
+
+
+@dataclass(frozen=True)
+class Acidity:
+    acid: str        # "water", "an alkane C-H"
+    base: str        # "hydroxide", "an alkyl carbanion"
+    smarts: str      # first atom: the atom that carries the proton
+    pka: float
+    shown: str       # how the value is written in messages: "15.7", "~50", "19-20"
+    source: str
+
+
+TABLE: tuple[Acidity, ...] = (
+    Acidity("hydronium", "water", "[OX3H3+]", -1.7, "-1.7", TEXTBOOK),
+    Acidity("hydrogen iodide", "iodide", "[IX1H1]", -10, "~-10", NOT_LISTED),
+    Acidity("hydrogen bromide", "bromide", "[BrX1H1]", -9, "~-9", NOT_LISTED),
+    Acidity("hydrogen chloride", "chloride", "[ClX1H1]", -7, "~-7", NOT_LISTED),
+    Acidity("a protonated carbonyl", "a carbonyl oxygen", "[OX2H1+]=[#6]", -7, "~-7", NOT_LISTED),
+    Acidity("a protonated alcohol or ether", "an alcohol or ether", "[OX3+;!H0]", -2, "~-2", NOT_LISTED),
+    Acidity("a carboxylic acid", "a carboxylate", "[OX2H1][CX3]=O", 4.8, "~4.8", TEXTBOOK),
+    Acidity("a 1,3-dicarbonyl C-H", "a 1,3-dicarbonyl enolate", "[CX4;!H0]([CX3]=O)[CX3]=O", 9, "~9", TEXTBOOK),
+    Acidity("a phenol", "a phenoxide", "[OX2H1]c", 10, "~10", TEXTBOOK),
+    Acidity("an ammonium ion", "an amine", "[NX4+;!H0]", 10, "~10", TEXTBOOK),
+    Acidity("an enol", "an enolate oxygen", "[OX2H1][CX3]=[CX3]", 10.5, "~10-11", NOT_LISTED),
+    Acidity("water", "hydroxide", "[OX2H2]", 15.7, "15.7", TEXTBOOK),
+    Acidity("methanol", "methoxide", "[OX2H1][CH3]", 15.5, "~15.5", TEXTBOOK),
+    Acidity("a tertiary alcohol", "a tertiary alkoxide", "[OX2H1][CX4H0]([#6])([#6])[#6]", 18, "~18",
+            TEXTBOOK),
+    Acidity("an alcohol", "an alkoxide", "[OX2H1][CX4]", 16, "~16", COMMON_PRACTICE),
+    Acidity("an amide N-H", "an amidate", "[NX3;!H0][CX3]=O", 17, "~17", NOT_LISTED),
+    Acidity("an aldehyde alpha C-H", "an aldehyde enolate", "[CX4;!H0][CX3H1]=O", 17, "~17", TEXTBOOK),
+    Acidity("a ketone alpha C-H", "a ketone enolate", "[CX4;!H0][CX3](=O)[#6]", 19.5, "19-20", TEXTBOOK),
+    Acidity("an ester alpha C-H", "an ester enolate", "[CX4;!H0][CX3](=O)[OX2][#6]", 25, "~25", TEXTBOOK),
+    Acidity("an amide alpha C-H", "an amide enolate", "[CX4;!H0][CX3](=O)[NX3]", 30, "~30", NOT_LISTED),
+    Acidity("a nitrile alpha C-H", "a nitrile anion", "[CX4;!H0]C#N", 25, "~25", NOT_LISTED),
+    Acidity("a terminal alkyne C-H", "an acetylide", "[CX2H1]#C", 25, "~25", TEXTBOOK),
+    Acidity("an amine N-H", "an amide ion", "[NX3;!H0;!$(N[CX3]=O);!$(N=*)]", 38, "~38", TEXTBOOK),
+    Acidity("an alkene or arene C-H", "a vinyl or aryl anion", "[#6X3;!H0;$([#6]=[#6]),$([c])]", 44, "~44",
+            TEXTBOOK),
+    Acidity("an alkane C-H", "an alkyl carbanion", "[CX4;!H0]", 50, "~50", TEXTBOOK),
+)
+
+
+@lru_cache(maxsize=None)
+def _pattern(smarts: str) -> Chem.Mol:
+    pattern = Chem.MolFromSmarts(smarts)
+    if pattern is None:
+        raise ValueError(f"bad SMARTS in the acidity table: {smarts}")
+    return pattern
+
+
+def perceived(mol: Chem.Mol) -> Chem.Mol:
+    """A copy with ring information and aromaticity set, for SMARTS matching (indices unchanged)."""
+    work = Chem.Mol(mol)
+    try:
+        Chem.SanitizeMol(work)
+    except Exception:  # an odd intermediate: match on what the partial sanitization gives
+        work.UpdatePropertyCache(strict=False)
+        Chem.FastFindRings(work)
+    return work
+
+
+def acidity_of(mol: Chem.Mol, atom: int) -> Optional[Acidity]:
+    """The first table entry whose SMARTS matches with its first atom at `atom` (mol perceived)."""
+    for entry in TABLE:
+        if any(match[0] == atom for match in mol.GetSubstructMatches(_pattern(entry.smarts), uniquify=False)):
+            return entry
+    return None

@@ -1,0 +1,121 @@
+"""Baldwin's rules for ring closure, as data and a pure classifier.
+
+A closure is named n-[(enolendo|enolexo)-]exo|endo-tet|trig|dig:
+- n, the size of the ring in the transition state (the shortest path between the two atoms
+  that bond, counted in atoms, before the step);
+- exo when the bond that breaks at the attacked atom leads out of the new ring, endo when it
+  lies inside it;
+- tet, trig, dig: the attacked atom is sp3, sp2 or sp before the step;
+- enolendo / enolexo (enolate carbon nucleophiles only): both enolate carbons end up in the new
+  ring, or only the nucleophilic one.
+
+Tables: J. E. Baldwin, J. Chem. Soc., Chem. Commun. 1976, 734 (memory); J. E. Baldwin and
+M. J. Lusch, Tetrahedron 1982, 38, 2939 (memory). A cell the papers do not state is "not covered".
+"""
+from __future__ import annotations
+
+from dataclasses import dataclass
+from typing import Optional, Sequence
+
+from rdkit import Chem
+
+TET, TRIG, DIG = "tet", "trig", "dig"
+EXO, ENDO = "exo", "endo"
+ENOLENDO, ENOLEXO = "enolendo", "enolexo"
+
+BALDWIN_1976 = "Baldwin 1976"
+BALDWIN_LUSCH_1982 = "Baldwin-Lusch 1982"
+CITATIONS = {
+    BALDWIN_1976: "J. E. Baldwin, J. Chem. Soc., Chem. Commun. 1976, 734",
+    BALDWIN_LUSCH_1982: "J. E. Baldwin and M. J. Lusch, Tetrahedron 1982, 38, 2939",
+}
+
+
+def _cells(favoured: Sequence[int] = (), disfavoured: Sequence[int] = ()) -> dict[int, bool]:
+    return {**{n: True for n in favoured}, **{n: False for n in disfavoured}}
+
+
+# (geometry, mode) -> {ring size: favoured?}. Baldwin 1976 (memory).
+RULES_1976: dict[tuple[str, str], dict[int, bool]] = {
+    (TET, EXO): _cells(favoured=range(3, 8)),
+    (TET, ENDO): _cells(disfavoured=(5, 6)),
+    (TRIG, EXO): _cells(favoured=range(3, 8)),
+    (TRIG, ENDO): _cells(favoured=(6, 7), disfavoured=(3, 4, 5)),
+    (DIG, EXO): _cells(favoured=(5, 6, 7), disfavoured=(3, 4)),
+    (DIG, ENDO): _cells(favoured=range(3, 8)),
+}
+
+# (enol, geometry, mode) -> {ring size: favoured?}. Baldwin-Lusch 1982 (memory).
+RULES_ENOLATE_1982: dict[tuple[str, str, str], dict[int, bool]] = {
+    (ENOLENDO, TET, EXO): _cells(favoured=(6, 7), disfavoured=(3, 4, 5)),
+    (ENOLEXO, TET, EXO): _cells(favoured=range(3, 8)),
+    (ENOLENDO, TRIG, EXO): _cells(favoured=(6, 7), disfavoured=(3, 4, 5)),
+    (ENOLEXO, TRIG, EXO): _cells(favoured=range(3, 8)),
+}
+
+
+@dataclass(frozen=True)
+class ClosureClass:
+    size: int
+    geometry: str
+    mode: Optional[str] = None      # None: no bond breaks at the attacked atom (a cation is attacked)
+    enol: Optional[str] = None      # enolendo / enolexo for enolate carbon nucleophiles
+
+    @property
+    def name(self) -> str:
+        enol = f"({self.enol})-" if self.enol else ""
+        mode = f"{self.mode}-" if self.mode else ""
+        return f"{self.size}-{enol}{mode}{self.geometry}"
+
+
+@dataclass(frozen=True)
+class Verdict:
+    favoured: Optional[bool]        # None: the rules say nothing about this class
+    rule: Optional[str] = None      # BALDWIN_1976 or BALDWIN_LUSCH_1982
+
+    @property
+    def word(self) -> str:
+        return {True: "favoured", False: "disfavoured", None: "not covered"}[self.favoured]
+
+
+def verdict(closure: ClosureClass) -> Verdict:
+    """Baldwin-Lusch for enolate classes that paper states, else Baldwin 1976 for the plain class."""
+    if closure.mode is None:
+        return Verdict(None)
+    if closure.enol:
+        cells = RULES_ENOLATE_1982.get((closure.enol, closure.geometry, closure.mode), {})
+        if closure.size in cells:
+            return Verdict(cells[closure.size], BALDWIN_LUSCH_1982)
+    cells = RULES_1976.get((closure.geometry, closure.mode), {})
+    if closure.size in cells:
+        return Verdict(cells[closure.size], BALDWIN_1976)
+    return Verdict(None)
+
+
+def classify(ring_path: Sequence[int], geometry: str, broken_partner: Optional[int] = None,
+             enol_partner: Optional[int] = None) -> ClosureClass:
+    """The class of a closure from its ring (the atoms from nucleophile to attacked atom), the
+    geometry of the attacked atom, the far atom of the bond that breaks at the attacked atom, and
+    for an enolate carbon the other enolate carbon."""
+    ring = set(ring_path)
+    mode = None if broken_partner is None else (ENDO if broken_partner in ring else EXO)
+    enol = None if enol_partner is None else (ENOLENDO if enol_partner in ring else ENOLEXO)
+    return ClosureClass(len(ring_path), geometry, mode, enol)
+
+
+def geometry_of(mol: Chem.Mol, atom: int) -> str:
+    """tet, trig or dig from the pi bonds of an atom (a cation with no pi bond is trigonal)."""
+    a = mol.GetAtomWithIdx(atom)
+    pi = sum(int(b.GetBondTypeAsDouble()) - 1 for b in a.GetBonds() if b.GetBondTypeAsDouble() >= 2)
+    if pi >= 2:
+        return DIG
+    if pi == 1:
+        return TRIG
+    if a.GetFormalCharge() > 0 and a.GetAtomicNum() == 6 and a.GetDegree() + a.GetTotalNumHs() == 3:
+        return TRIG
+    return TET
+
+
+def ring_path(mol: Chem.Mol, first: int, second: int) -> tuple[int, ...]:
+    """Atoms on the shortest path between two atoms (both ends included); () if not joined."""
+    return tuple(Chem.GetShortestPath(mol, first, second)) if first != second else ()

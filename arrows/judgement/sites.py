@@ -1,0 +1,116 @@
+"""Reactive sites of one species for polar ring closures under basic (enolate) or acidic (enol)
+conditions: where a nucleophile can form, and which atoms accept it.
+
+Nucleophiles: alpha carbons that carry a hydrogen next to a carbonyl or nitrile (or are already
+an enolate), hydroxyl and alkoxide oxygens, amine nitrogens. Electrophiles: carbonyl carbons
+(aldehyde, ketone, ester, amide), beta carbons of alpha,beta-unsaturated carbonyls and nitriles,
+sp3 carbons bearing a halide or sulfonate leaving group. Works on any sanitized Mol; indices are
+the Mol's own.
+"""
+from __future__ import annotations
+
+from dataclasses import dataclass
+from functools import lru_cache
+from typing import Optional
+
+from rdkit import Chem
+
+from .baldwin import geometry_of
+
+ENOLATE, NITRILE_ANION, OXYGEN, NITROGEN = "enolate", "nitrile anion", "oxygen", "amine"
+
+# Electrophile kinds, best first. Carbonyls: aldehyde > ketone > ester > amide (common practice).
+# Where conjugate acceptors and alkyl leaving groups sit among them is our own heuristic: an enone
+# beta carbon with the ketones (the conjugate adduct is the one that stays), alkylation after them.
+ALDEHYDE, KETONE, CONJUGATE, ALKYL, ESTER, AMIDE = (
+    "aldehyde", "ketone", "enone beta carbon", "alkyl leaving group", "ester", "amide")
+ELECTROPHILE_RANK = {ALDEHYDE: 0, KETONE: 1, CONJUGATE: 1, ALKYL: 2, ESTER: 3, AMIDE: 4}
+NUCLEOPHILE_RANK = {ENOLATE: 0, NITRILE_ANION: 0, OXYGEN: 1, NITROGEN: 2}
+
+
+@dataclass(frozen=True)
+class Nucleophile:
+    atom: int
+    kind: str
+    ready: bool = False                       # already an anion or enol: needs no deprotonation
+    partners: tuple[tuple[int, int], ...] = ()  # (carbonyl or nitrile carbon, its O or N) it conjugates with
+    has_hydrogen: bool = False
+
+    @property
+    def via(self) -> str:
+        return {ENOLATE: "enolate (base) or enol (acid)", NITRILE_ANION: "nitrile anion (base)",
+                OXYGEN: "alkoxide (base) or hydroxyl (acid)", NITROGEN: "amine lone pair"}[self.kind]
+
+
+@dataclass(frozen=True)
+class Electrophile:
+    atom: int
+    kind: str
+    broken_partner: int                  # far atom of the bond that breaks when it is attacked
+    geometry: str
+    relay: tuple[int, ...] = ()          # conjugate acceptors: (alpha C, carbonyl C, carbonyl O or nitrile N)
+    leaving_group: Optional[int] = None  # esters: the alkoxy oxygen that leaves after addition
+
+    @property
+    def rank(self) -> int:
+        return ELECTROPHILE_RANK[self.kind]
+
+
+@lru_cache(maxsize=None)
+def _smarts(text: str) -> Chem.Mol:
+    return Chem.MolFromSmarts(text)
+
+
+def _matches(mol: Chem.Mol, smarts: str) -> list[tuple[int, ...]]:
+    return list(mol.GetSubstructMatches(_smarts(smarts), uniquify=False))
+
+
+_CARBONYL_NOT_ACID = "[CX3;!$(C-[OX2H1]);!$(C-[OX1-]);!$(C-[F,Cl,Br,I])]=[OX1]"
+
+
+def nucleophiles(mol: Chem.Mol) -> list[Nucleophile]:
+    partners: dict[int, set[tuple[int, int]]] = {}
+    kinds: dict[int, str] = {}
+    ready: set[int] = set()
+    for alpha, carbon, oxygen in _matches(mol, f"[CX4;!H0]-{_CARBONYL_NOT_ACID}"):
+        partners.setdefault(alpha, set()).add((carbon, oxygen))
+        kinds[alpha] = ENOLATE
+    for alpha, carbon, nitrogen in _matches(mol, "[CX4;!H0]-[CX2]#[NX1]"):
+        partners.setdefault(alpha, set()).add((carbon, nitrogen))
+        kinds.setdefault(alpha, NITRILE_ANION)
+    # Enolates and enols already formed, and carbanions drawn next to a carbonyl.
+    for alpha, carbon, oxygen in _matches(mol, "[#6X3]=[#6X3]-[OX1-,OX2H1]") + _matches(
+            mol, f"[#6-;!$([#6]=*)]-{_CARBONYL_NOT_ACID}"):
+        partners.setdefault(alpha, set()).add((carbon, oxygen))
+        kinds[alpha] = ENOLATE
+        ready.add(alpha)
+    found = [Nucleophile(a, kinds[a], a in ready, tuple(sorted(p))) for a, p in partners.items()]
+    hydroxyl = "[OX2H1,OX1-;$(O-[CX4]),$(O-c);!$(O-[#6]=*)]"
+    found += [Nucleophile(m[0], OXYGEN, mol.GetAtomWithIdx(m[0]).GetFormalCharge() < 0) for m in _matches(mol, hydroxyl)]
+    amine = "[NX3;+0;!$(N-[#6,#16]=[O,S,N]);!$(N-a);!$(N-[#6]#*)]"
+    found += [Nucleophile(m[0], NITROGEN, True, has_hydrogen=mol.GetAtomWithIdx(m[0]).GetTotalNumHs() > 0)
+              for m in _matches(mol, amine)]
+    return sorted(set(found), key=lambda n: n.atom)
+
+
+def electrophiles(mol: Chem.Mol) -> list[Electrophile]:
+    found: dict[int, Electrophile] = {}
+
+    def add(atom: int, kind: str, partner: int, **extra) -> None:
+        if atom not in found or ELECTROPHILE_RANK[kind] < found[atom].rank:
+            found[atom] = Electrophile(atom, kind, partner, geometry_of(mol, atom), **extra)
+
+    for c, o in _matches(mol, "[CX3H2,CX3H1;!$(C-[O,N,S,F,Cl,Br,I])]=[OX1]"):
+        add(c, ALDEHYDE, o)
+    for c, o in _matches(mol, "[CX3;$(C(-[#6])-[#6])]=[OX1]"):
+        add(c, KETONE, o)
+    for c, o, alkoxy, _ in _matches(mol, "[CX3;$(C-[#6,#1])](=[OX1])-[OX2]-[#6]"):
+        add(c, ESTER, o, leaving_group=alkoxy)
+    for c, o, _ in _matches(mol, "[CX3](=[OX1])-[NX3]"):
+        add(c, AMIDE, o)
+    for beta, alpha, carbon, acceptor in _matches(
+            mol, "[CX3;!$(C-[OX2,OX1-,NX3])]=[CX3]-[CX3]=[OX1]") + _matches(mol, "[CX3;!$(C-[OX2,OX1-,NX3])]=[CX3]-[CX2]#[NX1]"):
+        add(beta, CONJUGATE, alpha, relay=(alpha, carbon, acceptor))
+    for c, leaving in _matches(mol, "[CX4]-[Cl,Br,I]") + [m[:2] for m in _matches(mol, "[CX4]-[OX2]-[SX4](=O)(=O)")]:
+        add(c, ALKYL, leaving)
+    return sorted(found.values(), key=lambda e: e.atom)

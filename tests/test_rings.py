@@ -1,0 +1,207 @@
+"""Ring-closure classification in `arrows check` against Baldwin's rules.
+
+Sources (tables copied here from the shared references, not imported from the code under test):
+- J. E. Baldwin, J. Chem. Soc., Chem. Commun. 1976, 734 (memory).
+- J. E. Baldwin and M. J. Lusch, Tetrahedron 1982, 38, 2939 (memory).
+- Common practice: three- and four-membered rings are strained and lose to five and six.
+Every closure below is hand-made: a chain written so that the step has exactly the class named.
+"""
+import pytest
+
+from arrows import check_text
+from arrows.judgement.baldwin import ClosureClass, classify, verdict
+
+# Baldwin 1976 (memory): "F" favoured, "D" disfavoured; sizes not listed are not covered.
+BALDWIN_1976 = {
+    ("exo", "tet"): {3: "F", 4: "F", 5: "F", 6: "F", 7: "F"},
+    ("endo", "tet"): {5: "D", 6: "D"},
+    ("exo", "trig"): {3: "F", 4: "F", 5: "F", 6: "F", 7: "F"},
+    ("endo", "trig"): {3: "D", 4: "D", 5: "D", 6: "F", 7: "F"},
+    ("exo", "dig"): {3: "D", 4: "D", 5: "F", 6: "F", 7: "F"},
+    ("endo", "dig"): {3: "F", 4: "F", 5: "F", 6: "F", 7: "F"},
+}
+# Baldwin-Lusch 1982 (memory).
+BALDWIN_LUSCH_1982 = {
+    ("enolendo", "tet"): {3: "D", 4: "D", 5: "D", 6: "F", 7: "F"},
+    ("enolexo", "tet"): {3: "F", 4: "F", 5: "F", 6: "F", 7: "F"},
+    ("enolendo", "trig"): {3: "D", 4: "D", 5: "D", 6: "F", 7: "F"},
+    ("enolexo", "trig"): {3: "F", 4: "F", 5: "F", 6: "F", 7: "F"},
+}
+WORD = {"F": "favoured", "D": "disfavoured", None: "not covered"}
+
+
+def _chain(first: int, last: int) -> str:
+    return "".join(f"[CH2:{k}]" for k in range(first, last + 1))
+
+
+def plain_closure(mode: str, geometry: str, n: int) -> str:
+    """An alkoxide O1 closing an n-membered ring onto atom n of its own chain."""
+    if (mode, geometry) == ("exo", "tet"):        # O1 ... Cn-Cl, chloride leaves outside the ring
+        smiles, moves = f"[O-:1]{_chain(2, n - 1)}[CH2:{n}][Cl:50]", [f"C{n}-Cl50 -> Cl50"]
+    elif (mode, geometry) == ("endo", "tet"):     # O1 ... O(n-1)+ -C(n): the breaking bond is in the ring
+        smiles = f"[O-:1]{_chain(2, n - 2)}[O+:{n - 1}]([CH3:60])[CH3:{n}]"
+        moves = [f"O{n - 1}-C{n} -> O{n - 1}"]
+    elif (mode, geometry) == ("exo", "trig"):     # onto an aldehyde carbonyl
+        smiles, moves = f"[O-:1]{_chain(2, n - 1)}[CH:{n}]=[O:50]", [f"C{n}=O50 -> O50"]
+    elif (mode, geometry) == ("endo", "trig"):    # onto the far end of a C=C inside the ring
+        smiles = f"[O-:1]{_chain(2, n - 2)}[CH:{n - 1}]=[CH2:{n}]"
+        moves = [f"C{n - 1}=C{n} -> C{n - 1}"]
+    elif (mode, geometry) == ("exo", "dig"):      # onto the near end of an alkyne
+        smiles, moves = f"[O-:1]{_chain(2, n - 1)}[C:{n}]#[CH:50]", [f"C{n}#C50 -> C50"]
+    else:                                         # endo-dig: onto the far end of an alkyne
+        smiles = f"[O-:1]{_chain(2, n - 2)}[C:{n - 1}]#[CH:{n}]"
+        moves = [f"C{n - 1}#C{n} -> C{n - 1}"]
+    return _mechanism(smiles, [f":O1 -> C{n}"] + moves)
+
+
+def enolate_closure(enol: str, geometry: str, n: int) -> str:
+    """An enolate carbon C1 closing an n-membered ring onto Cn (chloride or aldehyde)."""
+    target = f"[CH2:{n}][Cl:50]" if geometry == "tet" else f"[CH:{n}]=[O:50]"
+    leave = f"C{n}-Cl50 -> Cl50" if geometry == "tet" else f"C{n}=O50 -> O50"
+    if enol == "enolendo":    # C1=C2(O-) with C2 inside the ring
+        smiles = f"[CH2:1]=[C:2]([O-:40]){_chain(3, n - 1)}{target}"
+        moves = [":O40 -> C2=O40", f"C1=C2 -> C1-C{n}", leave]
+    else:                     # C1=C40(O-) with C40 outside the ring
+        smiles = f"[CH3:41][C:40]([O-:42])=[CH:1]{_chain(2, n - 1)}{target}"
+        moves = [":O42 -> C40=O42", f"C1=C40 -> C1-C{n}", leave]
+    return _mechanism(smiles, moves)
+
+
+def _mechanism(smiles: str, moves: list[str]) -> str:
+    body = "\n".join("    " + m for m in moves)
+    return f'species s = "{smiles}"\nstep "closure"\n{body}\nend\n'
+
+
+def _closure_diagnostic(text: str):
+    trace, diags = check_text(text)
+    assert trace is not None and trace.complete, [d.to_text() for d in diags]
+    found = [d for d in diags if d.code in ("AR501", "AR502", "AR601")]
+    assert len(found) == 1, [d.to_text() for d in diags]
+    return found[0]
+
+
+def _expected_code(size: int, word: str) -> str:
+    if word == "disfavoured":
+        return "AR502"
+    return "AR501" if size in (3, 4) else "AR601"
+
+
+@pytest.mark.parametrize("mode, geometry, n", [(m, g, n) for (m, g) in BALDWIN_1976 for n in range(3, 8)])
+def test_baldwin_1976_every_cell(mode, geometry, n):
+    """Baldwin 1976 (memory): each cell of the table, closed by a hand-made chain."""
+    word = WORD[BALDWIN_1976[(mode, geometry)].get(n)]
+    d = _closure_diagnostic(plain_closure(mode, geometry, n))
+    assert f"{n}-{mode}-{geometry}, {word}" in d.message
+    assert f"closes a {n}-membered ring" in d.message
+    assert d.code == _expected_code(n, word)
+
+
+@pytest.mark.parametrize("enol, geometry, n", [(e, g, n) for (e, g) in BALDWIN_LUSCH_1982 for n in range(3, 8)])
+def test_baldwin_lusch_1982_every_enolate_cell(enol, geometry, n):
+    """Baldwin-Lusch 1982 (memory): enolendo and enolexo closures of both verdicts."""
+    word = WORD[BALDWIN_LUSCH_1982[(enol, geometry)][n]]
+    d = _closure_diagnostic(enolate_closure(enol, geometry, n))
+    assert f"{n}-({enol})-exo-{geometry}, {word} (Baldwin-Lusch 1982)" in d.message
+    assert d.code == _expected_code(n, word)
+
+
+def test_both_enolate_verdicts_occur():
+    """The enolate tables hold favoured and disfavoured cells (Baldwin-Lusch 1982, memory)."""
+    verdicts = {BALDWIN_LUSCH_1982[k][n] for k in BALDWIN_LUSCH_1982 for n in range(3, 8)}
+    assert verdicts == {"F", "D"}
+
+
+def test_ring_larger_than_the_tables_is_not_covered():
+    """Baldwin's tables stop at seven-membered rings (Baldwin 1976, memory)."""
+    d = _closure_diagnostic(plain_closure("exo", "trig", 8))
+    assert d.code == "AR601" and "8-exo-trig, not covered" in d.message
+
+
+def test_radical_closure_of_hexenyl_is_5_exo_trig():
+    """The hex-5-enyl radical closes 5-exo-trig (textbook radical clock; Baldwin 1976, memory)."""
+    text = _mechanism("[CH2:1][CH2:2][CH2:3][CH2:4][CH:5]=[CH2:6]",
+                      [".C1 ~> C5", "C5=C6 ~> C1-C5", "C5=C6 ~> C6"])
+    d = _closure_diagnostic(text)
+    assert d.code == "AR601" and "5-exo-trig, favoured" in d.message
+
+
+def test_pericyclic_closure_is_not_judged_by_baldwin():
+    """Hexa-1,3,5-triene to cyclohexa-1,3-diene: a 6-electron electrocyclic ring closure
+    (textbook pericyclic chemistry, common practice); Baldwin's rules are for polar and radical
+    closures."""
+    text = _mechanism("[CH2:1]=[CH:2][CH:3]=[CH:4][CH:5]=[CH2:6]",
+                      ["C1=C2 -> C1-C6", "C3=C4 -> C2=C3", "C5=C6 -> C4=C5"])
+    d = _closure_diagnostic(text)
+    assert d.code == "AR601" and "pericyclic" in d.message and "6-membered" in d.message
+
+
+def test_small_ring_warning_names_the_favoured_alternative():
+    """Heptane-2,6-dione: a C3 enolate closing onto C6 makes a four-membered ring; the species
+    offers the six-membered 6-(enolendo)-exo-trig closure of a terminal enolate (C1 onto C6, or
+    C7 onto C2 by symmetry), which gives 3-methylcyclohex-2-en-1-one (textbook outcome)."""
+    text = """
+species dione = "[CH3:1][C:2](=[O:8])[CH2:3][CH2:4][CH2:5][C:6](=[O:9])[CH3:7]"
+species base  = "[OH-:10]"
+step "enolate" reversible
+    :O10 -> H(C3)
+    C3-H -> C2=C3
+    C2=O8 -> O8
+end
+step "closure" reversible
+    :O8 -> C2=O8
+    C2=C3 -> C3-C6
+    C6=O9 -> O9
+end
+"""
+    d = _closure_diagnostic(text)
+    assert d.code == "AR501"
+    assert "4-(enolexo)-exo-trig" in d.message
+    assert ("C1 enolate onto C6 would close a 6-membered ring, 6-(enolendo)-exo-trig, favoured" in d.message
+            or "C7 enolate onto C2 would close a 6-membered ring, 6-(enolendo)-exo-trig, favoured" in d.message)
+    assert (d.loc.line, d.loc.column) == (11, 5)     # the arrow that makes the bond
+
+
+def test_disfavoured_without_a_better_choice_names_none():
+    """Hexane-2,5-dione: the terminal enolate closes 5-(enolendo)-exo-trig, disfavoured by
+    Baldwin-Lusch 1982 (memory); the only other closure of the same kind makes a three-membered
+    ring, so no favoured alternative is named."""
+    text = """
+species dione = "[CH3:1][C:2](=[O:7])[CH2:3][CH2:4][C:5](=[O:8])[CH3:6]"
+species base  = "[OH-:9]"
+step "enolate" reversible
+    :O9 -> H(C1)
+    C1-H -> C1=C2
+    C2=O7 -> O7
+end
+step "closure" reversible
+    :O7 -> C2=O7
+    C1=C2 -> C1-C5
+    C5=O8 -> O8
+end
+"""
+    d = _closure_diagnostic(text)
+    assert d.code == "AR502" and "5-(enolendo)-exo-trig, disfavoured (Baldwin-Lusch 1982)" in d.message
+    assert "would close" not in d.message
+
+
+def test_closure_onto_an_oxocarbenium_is_a_note():
+    """Dioxolane formation closes formally 5-endo-trig onto an oxocarbenium ion and is routine
+    (ketone protection with ethane-1,2-diol; common practice, memory)."""
+    text = open_gallery("10-acetal-formation.mech")
+    trace, diags = check_text(text)
+    closures = [d for d in diags if d.code in ("AR501", "AR502", "AR601")]
+    assert [d.code for d in closures] == ["AR601"] and "5-endo-trig" in closures[0].message
+
+
+def test_classifier_without_a_trace():
+    """The pure classifier: exo when the broken bond leads out of the ring (Baldwin 1976)."""
+    assert classify((0, 1, 2, 3, 4), "trig", broken_partner=9).name == "5-exo-trig"
+    assert classify((0, 1, 2, 3, 4), "trig", broken_partner=3).name == "5-endo-trig"
+    assert classify((0, 1, 2, 3, 4, 5), "trig", broken_partner=9, enol_partner=1).name == "6-(enolendo)-exo-trig"
+    assert verdict(ClosureClass(5, "trig", "endo")).word == "disfavoured"
+    assert verdict(ClosureClass(4, "tet", "endo")).word == "not covered"
+
+
+def open_gallery(name: str) -> str:
+    from pathlib import Path
+    return (Path(__file__).resolve().parent.parent / "gallery" / name).read_text(encoding="utf-8")
