@@ -12,6 +12,8 @@ COMMANDS = {
     "trace": "arrows.commands.trace:trace_command",
     "explain": "arrows.commands.explain:explain_command",
     "collect": "arrows.commands.collect:collect_command",
+    "export": "arrows.commands.export:export_command",
+    "import": "arrows.commands.import_:import_command",
     "draw": "arrows.commands.draw:draw_command",
 }
 

@@ -1,0 +1,265 @@
+"""The mechanism as JSON, in a schema of our own (arrows/mechanism.schema.json, JSON Schema
+draft 2020-12): the mechanism as written, plus what the replay derived from it (every state, one
+atom-mapped reaction SMILES per step, the diagnostics). Reading JSON back gives the Mechanism as
+written; derived parts are ignored on reading because the replay derives them again."""
+from __future__ import annotations
+
+import bisect
+import json
+import re
+from dataclasses import replace
+from functools import lru_cache
+from importlib import resources
+from pathlib import Path
+from typing import Any, Optional
+
+from .diagnostics import Diagnostic, MechanismError
+from .build import atom, move
+from .model import Checkpoint, Location, Mechanism, Move, Species, Step
+
+FORMAT, VERSION = "arrows-mechanism", 1
+SCHEMA_FILE = "mechanism.schema.json"
+
+
+@lru_cache(maxsize=1)
+def schema() -> dict:
+    """The published JSON Schema (shipped inside the package)."""
+    return json.loads(resources.files("arrows").joinpath(SCHEMA_FILE).read_text(encoding="utf-8"))
+
+
+# --- writing ---------------------------------------------------------------------------------
+# The mechanism object has the shape of a data-set record of `arrows check --jsonl`
+# (arrows/jsonl-input.schema.json): species as name -> SMILES, moves as text in the language,
+# absent options left out. An exported mechanism can be checked at scale as it is.
+
+def _checkpoint(checkpoint: Checkpoint):
+    return {"smiles": checkpoint.smiles, "whole_state": True} if checkpoint.whole_state else checkpoint.smiles
+
+
+def _species_map(species: tuple[Species, ...]) -> dict[str, str]:
+    names = [s.name for s in species]
+    repeated = sorted({n for n in names if names.count(n) > 1})
+    if repeated:
+        raise ValueError(f"species name {repeated[0]!r} is used twice; JSON keeps one SMILES per name")
+    return {s.name: s.smiles for s in species}
+
+
+def _step(step: Step) -> dict:
+    out: dict[str, Any] = {"label": step.label}
+    if step.kind != "forward":
+        out["kind"] = step.kind
+    for key in ("over", "under"):
+        if getattr(step, key) is not None:
+            out[key] = getattr(step, key)
+    if step.uses:
+        out["uses"] = _species_map(step.uses)
+    out["moves"] = [str(move) for move in step.moves]
+    if step.releases:
+        out["releases"] = [str(atom) for atom in step.releases]
+    if step.expects:
+        out["expect"] = [_checkpoint(c) for c in step.expects]
+    return out
+
+
+def mechanism_dict(mechanism: Mechanism) -> dict:
+    """The mechanism as written, as plain JSON data."""
+    out: dict[str, Any] = {}
+    for key in ("title", "caption"):
+        if getattr(mechanism, key) is not None:
+            out[key] = getattr(mechanism, key)
+    out["species"] = _species_map(mechanism.species)
+    out["steps"] = [_step(s) for s in mechanism.steps]
+    if mechanism.product is not None:
+        out["product"] = _checkpoint(mechanism.product)
+    return out
+
+
+def _arrows(step_trace, numbers: dict[int, int]) -> list[dict]:
+    """The step's moves resolved to atoms, named by the map numbers of its reaction SMILES."""
+    return [{"electrons": m.electrons, "source": m.source_kind,
+             "source_atoms": [numbers[i] for i in m.source_atoms], "sink_atoms": [numbers[i] for i in m.sink_atoms]}
+            for m in step_trace.change.moves]
+
+
+def _released_smiles(mol, released: frozenset[int]) -> list[str]:
+    from rdkit import Chem
+
+    from .rdkit_io import canonical
+    mapping: list = []
+    fragments = Chem.GetMolFrags(mol, asMols=True, sanitizeFrags=False, fragsMolAtomMapping=mapping)
+    return sorted(canonical(frag) for frag, atoms in zip(fragments, mapping) if released.issuperset(atoms))
+
+
+def states_list(trace) -> list[dict]:
+    """The starting state and the state after each derived step, with the step's reaction SMILES."""
+    from rdkit import Chem
+    from rdkit.Chem.rdMolDescriptors import CalcMolFormula
+
+    from .rdkit_io import canonical
+    from .reaction_smiles import fresh_map_numbers, step_reaction
+
+    numbers = fresh_map_numbers(trace)
+    out = []
+    moments = [(None, trace.initial, None)] + [(st.index + 1, st.after, st) for st in trace.steps]
+    for after_step, state, step_trace in moments:
+        if state is None:
+            break
+        mol = Chem.Mol(state.mol)
+        Chem.SanitizeMol(mol)
+        entry = {"after_step": after_step, "smiles": Chem.MolToSmiles(mol), "canonical_smiles": canonical(state.mol),
+                 "formula": CalcMolFormula(mol), "charge": Chem.GetFormalCharge(mol),
+                 "released": _released_smiles(state.mol, state.released)}
+        if step_trace is not None:
+            entry["reaction_smiles"] = step_reaction(step_trace, numbers)
+            entry["arrows"] = _arrows(step_trace, numbers)
+        out.append(entry)
+    return out
+
+
+def document(mechanism: Mechanism, trace=None, diagnostics=None) -> dict:
+    """The whole JSON document: the mechanism, and when a trace is given its states and diagnostics."""
+    doc: dict[str, Any] = {"$schema": schema()["$id"], "format": FORMAT, "version": VERSION,
+                           "source": mechanism.source_name, "mechanism": mechanism_dict(mechanism)}
+    if trace is not None:
+        doc["states"] = states_list(trace)
+    if diagnostics is not None:
+        doc["diagnostics"] = [d.to_dict() for d in diagnostics]
+    return doc
+
+
+def dumps(mechanism: Mechanism, trace=None, diagnostics=None) -> str:
+    return json.dumps(document(mechanism, trace, diagnostics), indent=2, ensure_ascii=False) + "\n"
+
+
+# --- reading ---------------------------------------------------------------------------------
+
+def _read_checkpoint(data) -> Checkpoint:
+    if isinstance(data, str):
+        return Checkpoint(data)
+    return Checkpoint(data["smiles"], data.get("whole_state", False))
+
+
+def _read_species(data: dict) -> tuple[Species, ...]:
+    return tuple(Species(name, smiles) for name, smiles in data.items())
+
+
+def _read_move(text: str, where: tuple[int, int], file: str) -> Move:
+    """A move's text read with the grammar; a slip is placed inside the JSON string."""
+    try:
+        return move(text, file)
+    except MechanismError as exc:
+        line, column = where
+        raise MechanismError([replace(d, loc=Location(file, line, column + d.loc.column)) for d in exc.diagnostics]
+                             ) from None
+
+
+def mechanism_from_dict(data: dict, source_name: str = "<text>",
+                        where: Optional[dict[tuple, tuple[int, int]]] = None) -> Mechanism:
+    """The Mechanism of a `mechanism` object that validates against the schema. `where` maps JSON
+    paths to (line, column) for messages about move text."""
+    where = where or {}
+    steps = []
+    for i, step in enumerate(data["steps"]):
+        moves = tuple(_read_move(text, where.get(("mechanism", "steps", i, "moves", j), (1, 1)), source_name)
+                      for j, text in enumerate(step["moves"]))
+        steps.append(Step(step.get("label", f"step {i + 1}"), step.get("kind", "forward"), step.get("over"),
+                          step.get("under"), _read_species(step.get("uses", {})), moves,
+                          tuple(atom(a) for a in step.get("releases", ())),
+                          tuple(_read_checkpoint(c) for c in step.get("expect", ()))))
+    product = data.get("product")
+    return Mechanism(data.get("title"), data.get("caption"), _read_species(data["species"]), tuple(steps),
+                     None if product is None else _read_checkpoint(product), source_name)
+
+
+def loads(text: str, file: str = "<json>") -> Mechanism:
+    """Read a JSON document; problems raise MechanismError located at file:line:col."""
+    try:
+        data = json.loads(text)
+    except json.JSONDecodeError as exc:
+        raise MechanismError([Diagnostic("AR100", f"not JSON: {exc.msg}", Location(file, exc.lineno, exc.colno),
+                                         hint="the file must be a JSON document written by `arrows export --to json`")]
+                             ) from None
+    from jsonschema import Draft202012Validator
+    problems = sorted(Draft202012Validator(schema()).iter_errors(data), key=lambda e: list(e.absolute_path))
+    if problems:
+        where = value_positions(text)
+        raise MechanismError([_schema_diagnostic(p, where, file) for p in problems[:10]])
+    return mechanism_from_dict(data["mechanism"], file, value_positions(text))
+
+
+def load(path: str | Path) -> Mechanism:
+    """Read a JSON file written by `arrows export --to json` (or to the same schema)."""
+    name = str(path)
+    try:
+        raw = Path(path).read_bytes()
+        text = raw.decode(json.detect_encoding(raw))
+    except OSError as exc:
+        raise MechanismError([Diagnostic("AR100", f"cannot read file: {exc.strerror or exc}", Location(name, 1, 1),
+                                         hint="check the path and permissions")]) from None
+    except UnicodeDecodeError as exc:
+        raise MechanismError([Diagnostic("AR100", f"file is not JSON text ({exc.reason} at byte {exc.start})",
+                                         Location(name, 1, 1), hint="JSON files are UTF-8 text")]) from None
+    return loads(text, name)
+
+
+def _schema_diagnostic(error, where: dict, file: str) -> Diagnostic:
+    path = tuple(error.absolute_path)
+    while path not in where and path:
+        path = path[:-1]
+    line, column = where.get(path, (1, 1))
+    pointer = "".join(f"[{p}]" if isinstance(p, int) else f".{p}" for p in error.absolute_path) or "the document"
+    return Diagnostic("AR100", f"{pointer.lstrip('.')}: {error.message}", Location(file, line, column),
+                      hint="compare with arrows/mechanism.schema.json, or re-export the mechanism with "
+                           "`arrows export FILE --to json`")
+
+
+# --- where each value starts in the text (for located messages) ------------------------------
+
+_WS = re.compile(r"[ \t\n\r]*")
+_SCALAR = re.compile(r"-?(?:0|[1-9][0-9]*)(?:\.[0-9]+)?(?:[eE][-+]?[0-9]+)?|true|false|null")
+
+
+def value_positions(text: str) -> dict[tuple, tuple[int, int]]:
+    """JSON path (keys and indices) -> (line, column) where that value starts, for valid JSON text."""
+    positions: dict[tuple, tuple[int, int]] = {}
+    line_starts = [0] + [i + 1 for i, ch in enumerate(text) if ch == "\n"]
+
+    def line_col(offset: int) -> tuple[int, int]:
+        line = bisect.bisect_right(line_starts, offset)
+        return line, offset - line_starts[line - 1] + 1
+
+    def skip(i: int) -> int:
+        return _WS.match(text, i).end()
+
+    def value(i: int, path: tuple) -> int:
+        i = skip(i)
+        positions[path] = line_col(i)
+        ch = text[i]
+        if ch == "{":
+            i = skip(i + 1)
+            if text[i] == "}":
+                return i + 1
+            while True:
+                key, i = json.decoder.scanstring(text, skip(i) + 1)
+                i = skip(i) + 1            # the colon
+                i = skip(value(i, path + (key,)))
+                if text[i] == "}":
+                    return i + 1
+                i += 1                     # the comma
+        if ch == "[":
+            i = skip(i + 1)
+            if text[i] == "]":
+                return i + 1
+            index = 0
+            while True:
+                i = skip(value(i, path + (index,)))
+                index += 1
+                if text[i] == "]":
+                    return i + 1
+                i += 1
+        if ch == '"':
+            return json.decoder.scanstring(text, i + 1)[1]
+        return _SCALAR.match(text, i).end()
+
+    value(0, ())
+    return positions

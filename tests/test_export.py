@@ -1,0 +1,225 @@
+"""Exchange formats: atom-mapped reaction SMILES per step, and JSON in our published schema.
+
+Judges: RDKit's reaction parser (AllChem.ReactionFromSmarts(..., useSmiles=True)) reads every
+exported reaction SMILES (Daylight reaction SMILES, an open standard); RDKit counts atoms by element
+(hydrogens included) and formal charges on both sides, which must balance because arrows move
+electrons, never atoms (common practice). jsonschema (Draft 2020-12) judges the JSON against the
+published schema. Textbook outcomes (references.md, "Worked outcomes", memory): buta-1,3-diene +
+ethene gives cyclohexene by forming two sigma bonds between the diene ends and the alkene carbons.
+"""
+from __future__ import annotations
+
+import json
+import re
+import subprocess
+import sys
+from collections import Counter
+from pathlib import Path
+
+import jsonschema
+import pytest
+from rdkit import Chem
+from rdkit.Chem import AllChem
+
+import arrows
+from arrows import mechanism_json
+
+ROOT = Path(__file__).resolve().parent.parent
+GALLERY = sorted((ROOT / "gallery").glob("*.mech"))
+IDS = [p.name for p in GALLERY]
+
+
+def _arrows_main(*args: str) -> subprocess.CompletedProcess:
+    """The command line as a user runs it, in a fresh process."""
+    return subprocess.run([sys.executable, "-c", "from arrows.cli import main; main()", *args],
+                          capture_output=True, text=True)
+
+
+def _export(path: Path, target: str) -> str:
+    done = _arrows_main("export", str(path), "--to", target)
+    assert done.returncode == 0, done.stderr
+    assert "Traceback" not in done.stderr
+    return done.stdout
+
+
+def _side_counts(templates) -> tuple[Counter, int]:
+    """Atoms by element (implicit and explicit hydrogens included) and the total formal charge."""
+    elements, charge = Counter(), 0
+    for template in templates:
+        mol = Chem.Mol(template)
+        mol.UpdatePropertyCache(strict=False)
+        for atom in mol.GetAtoms():
+            elements[atom.GetSymbol()] += 1
+            elements["H"] += atom.GetTotalNumHs()
+            charge += atom.GetFormalCharge()
+    return elements, charge
+
+
+def _written_maps(mechanism: arrows.Mechanism) -> dict[int, str]:
+    """Map number -> element, as written in the species SMILES of the mechanism."""
+    written = {}
+    for species in list(mechanism.species) + [s for step in mechanism.steps for s in step.uses]:
+        for atom in Chem.MolFromSmiles(species.smiles, sanitize=False).GetAtoms():
+            if atom.GetAtomMapNum():
+                written[atom.GetAtomMapNum()] = atom.GetSymbol()
+    return written
+
+
+# --- reaction SMILES ---------------------------------------------------------------------------
+
+@pytest.mark.parametrize("path", GALLERY, ids=IDS)
+def test_each_step_is_a_balanced_fully_mapped_reaction(path):
+    mechanism = arrows.load(path)
+    lines = _export(path, "rxn-smiles").splitlines()
+    assert len(lines) == len(mechanism.steps)
+    written = _written_maps(mechanism)
+    for line, step in zip(lines, mechanism.steps):
+        reaction_smiles, label = line.split("\t")
+        assert label == step.label
+        reaction = AllChem.ReactionFromSmarts(reaction_smiles, useSmiles=True)
+        reactants, products = list(reaction.GetReactants()), list(reaction.GetProducts())
+        assert reactants and products, line
+        left = [a for m in reactants for a in m.GetAtoms()]
+        right = [a for m in products for a in m.GetAtoms()]
+        # every atom carries a map, each number once per side, the same numbers on both sides
+        assert all(a.GetAtomMapNum() for a in left + right), line
+        left_maps = Counter(a.GetAtomMapNum() for a in left)
+        assert max(left_maps.values()) == 1
+        assert left_maps == Counter(a.GetAtomMapNum() for a in right)
+        # a map number keeps its atom: same element on both sides, and as written in the species
+        elements = {a.GetAtomMapNum(): a.GetSymbol() for a in left}
+        assert all(elements[a.GetAtomMapNum()] == a.GetSymbol() for a in right)
+        assert all(written[n] == elements[n] for n in elements if n in written)
+        assert _side_counts(reactants) == _side_counts(products), line
+        # and every side sanitizes in RDKit
+        for template in reactants + products:
+            Chem.SanitizeMol(Chem.Mol(template))
+
+
+def _bonds(templates) -> set[frozenset]:
+    return {frozenset((b.GetBeginAtom().GetAtomMapNum(), b.GetEndAtom().GetAtomMapNum()))
+            for m in templates for b in m.GetBonds()}
+
+
+def test_diels_alder_forms_the_two_textbook_sigma_bonds():
+    """Cyclohexene from butadiene (C1=C2-C3=C4) and ethene (C5=C6): new sigma bonds C1-C6 and
+    C4-C5 (textbook; references.md worked outcome, memory), read by RDKit from our export."""
+    line = _export(ROOT / "gallery" / "13-diels-alder.mech", "rxn-smiles").splitlines()[0]
+    reaction = AllChem.ReactionFromSmarts(line.split("\t")[0], useSmiles=True)
+    formed = _bonds(reaction.GetProducts()) - _bonds(reaction.GetReactants())
+    assert formed == {frozenset((1, 6)), frozenset((4, 5))}
+    product = Chem.Mol(reaction.GetProducts()[0])
+    for atom in product.GetAtoms():
+        atom.SetAtomMapNum(0)
+    assert Chem.CanonSmiles(Chem.MolToSmiles(product)) == Chem.CanonSmiles("C1=CCCCC1")
+
+
+def test_export_refuses_a_mechanism_with_errors(tmp_path):
+    source = tmp_path / "broken.mech"
+    source.write_text((ROOT / "gallery" / "13-diels-alder.mech").read_text().replace("->", "~>", 1))
+    out = tmp_path / "out.txt"
+    done = _arrows_main("export", str(source), "--to", "rxn-smiles", "-o", str(out))
+    assert done.returncode == 1
+    assert re.search(r"broken\.mech:\d+:\d+: error AR\d{3}", done.stderr)
+    assert not out.exists()
+
+
+def test_export_of_an_unreadable_file_exits_2(tmp_path):
+    done = _arrows_main("export", str(tmp_path / "missing.mech"), "--to", "json")
+    assert done.returncode == 2 and "AR100" in done.stderr and "Traceback" not in done.stderr
+
+
+# --- JSON --------------------------------------------------------------------------------------
+
+@pytest.mark.parametrize("path", GALLERY, ids=IDS)
+def test_json_validates_and_reads_back_to_the_same_text(path, tmp_path):
+    exported = tmp_path / "m.json"
+    done = _arrows_main("export", str(path), "--to", "json", "-o", str(exported))
+    assert done.returncode == 0, done.stderr
+    document = json.loads(exported.read_text(encoding="utf-8"))
+    jsonschema.Draft202012Validator(mechanism_json.schema()).validate(document)
+    mechanism = arrows.load(path)
+    assert len(document["states"]) == len(mechanism.steps) + 1
+    # text -> JSON -> text: the imported text parses to the mechanism we started from
+    imported = _arrows_main("import", str(exported))
+    assert imported.returncode == 0, imported.stderr
+    assert arrows.parse(imported.stdout, mechanism.source_name) == mechanism
+
+
+@pytest.mark.parametrize("path", GALLERY, ids=IDS)
+def test_json_states_agree_with_rdkit(path):
+    """Each state's canonical SMILES is what RDKit makes of its mapped SMILES, and its formula is
+    RDKit's formula of that SMILES."""
+    from rdkit.Chem.rdMolDescriptors import CalcMolFormula
+    mechanism = arrows.load(path)
+    document = mechanism_json.document(mechanism, mechanism.trace, mechanism.check())
+    for state in document["states"]:
+        mol = Chem.MolFromSmiles(state["smiles"])
+        assert CalcMolFormula(mol) == state["formula"]
+        assert Chem.GetFormalCharge(mol) == state["charge"]
+        for atom in mol.GetAtoms():
+            atom.SetAtomMapNum(0)
+        assert Chem.CanonSmiles(Chem.MolToSmiles(mol)) == Chem.CanonSmiles(state["canonical_smiles"])
+
+
+def test_json_arrows_name_atoms_of_the_reaction():
+    """The resolved arrows use the map numbers of the step's reaction SMILES: a proton transfer's
+    lone-pair arrow starts at the base oxygen and ends at a bond to a hydrogen (common practice)."""
+    mechanism = arrows.load(ROOT / "gallery" / "05-octanedione-cyclopentene.mech")
+    first = mechanism_json.document(mechanism, mechanism.trace)["states"][1]
+    reaction = AllChem.ReactionFromSmarts(first["reaction_smiles"], useSmiles=True)
+    symbol = {a.GetAtomMapNum(): a.GetSymbol() for m in reaction.GetReactants() for a in m.GetAtoms()}
+    lone_pair = first["arrows"][0]
+    assert lone_pair["source"] == "lone_pair" and lone_pair["source_atoms"] == [11]
+    assert sorted(symbol[n] for n in lone_pair["sink_atoms"]) == ["H", "O"]
+
+
+def test_a_bad_json_file_is_located(tmp_path):
+    mechanism = arrows.load(ROOT / "gallery" / "13-diels-alder.mech")
+    text = mechanism_json.dumps(mechanism).replace('"cycloaddition"', "17")
+    bad = tmp_path / "bad.json"
+    bad.write_text(text, encoding="utf-8")
+    line = next(i for i, row in enumerate(text.splitlines(), 1) if "17" in row)
+    column = text.splitlines()[line - 1].index("17") + 1
+    done = _arrows_main("import", str(bad))
+    assert done.returncode == 2
+    assert f"bad.json:{line}:{column}: error AR100" in done.stderr
+    assert "Traceback" not in done.stderr
+
+
+def test_a_bad_move_inside_json_is_located_in_its_string(tmp_path):
+    mechanism = arrows.load(ROOT / "gallery" / "13-diels-alder.mech")
+    first_move = str(mechanism.steps[0].moves[0])
+    broken = first_move.replace("->", "-> ->")
+    text = mechanism_json.dumps(mechanism).replace(f'"{first_move}"', f'"{broken}"')
+    bad = tmp_path / "bad.json"
+    bad.write_text(text, encoding="utf-8")
+    line = next(i for i, row in enumerate(text.splitlines(), 1) if broken in row)
+    column = text.splitlines()[line - 1].index(broken) + broken.index("-> ->") + 4
+    done = _arrows_main("import", str(bad))
+    assert done.returncode == 2
+    assert f"bad.json:{line}:{column}: error AR101" in done.stderr
+
+
+@pytest.mark.parametrize("path", GALLERY, ids=IDS)
+def test_exported_mechanism_is_a_data_set_record(path):
+    """The `mechanism` object of the export has the shape of a record of `arrows check --jsonl`
+    (arrows/jsonl-input.schema.json), so exported mechanisms can be checked at scale as they are."""
+    record_schema = json.loads((ROOT / "arrows" / "jsonl-input.schema.json").read_text(encoding="utf-8"))
+    document = mechanism_json.document(arrows.load(path))
+    jsonschema.Draft202012Validator(record_schema).validate({"id": path.stem, **document["mechanism"]})
+
+
+def test_exported_mechanisms_check_clean_as_a_data_set(tmp_path):
+    """End to end: the exported `mechanism` objects of the whole gallery, one JSONL record each,
+    pass `arrows check --jsonl` without errors."""
+    records = tmp_path / "gallery.jsonl"
+    with records.open("w", encoding="utf-8") as out:
+        for path in GALLERY:
+            document = mechanism_json.document(arrows.load(path))
+            out.write(json.dumps({"id": path.stem, **document["mechanism"]}, ensure_ascii=False) + "\n")
+    done = _arrows_main("check", "--jsonl", str(records))
+    assert done.returncode == 0, done.stdout[-2000:] + done.stderr
+    results = [json.loads(line) for line in done.stdout.splitlines() if line.strip()]
+    assert [r["id"] for r in results] == [p.stem for p in GALLERY]
+    assert all(r["errors"] == 0 for r in results)
