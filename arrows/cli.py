@@ -14,6 +14,8 @@ COMMANDS = {
     "collect": "arrows.commands.collect:collect_command",
     "export": "arrows.commands.export:export_command",
     "import": "arrows.commands.import_:import_command",
+    "number": "arrows.commands.number:number_command",
+    "new": "arrows.commands.new:new_command",
     "draw": "arrows.commands.draw:draw_command",
 }
 

@@ -1,0 +1,73 @@
+"""`arrows new NAME`: a starter NAME.mech with one species and an empty step."""
+from __future__ import annotations
+
+import os
+import sys
+import tempfile
+from pathlib import Path
+
+import click
+
+from ..numbering import numbered, numbered_smiles
+
+STARTER_SMILES = "CC(C)=O"   # acetone: a demo species to replace with your own
+
+STARTER = """\
+# {name}: a new mechanism. Replace the species with your own; `arrows number "SMILES"` prints a
+# SMILES with every heavy atom numbered, and `arrows check {file}` checks what you write.
+title "{name}"
+
+species start = "{smiles}"
+
+step "first step"
+    # one electron move per line, e.g.
+    #   :O4 -> H(O5)      a lone pair of O4 takes a proton from O5
+    #   C2=O4 -> O4       the C=O pi pair moves onto O4
+end
+"""
+
+
+def _create_new(path: Path, text: str) -> None:
+    """Write `text` to `path` atomically, failing if `path` exists (a hard link never replaces)."""
+    handle, temp = tempfile.mkstemp(prefix=f".{path.name}.", dir=path.parent)
+    try:
+        with os.fdopen(handle, "w", encoding="utf-8") as out:
+            out.write(text)
+        os.chmod(temp, 0o644)
+        os.link(temp, path)
+    finally:
+        os.unlink(temp)
+
+
+@click.command("new")
+@click.argument("name")
+@click.option("--smiles", default=STARTER_SMILES, show_default=True,
+              help="The starting species; its heavy atoms are numbered as `arrows number` does.")
+def new_command(name, smiles):
+    """Write NAME.mech: a title, one species with numbered atoms, and an empty step to fill in.
+
+    An existing file is never overwritten. Exit status: 0 written, 2 the file exists or bad input.
+    """
+    path = Path(name if name.endswith(".mech") else name + ".mech")
+    if '"' in path.stem or "\n" in path.stem:
+        click.echo(f"{path}:1:1: error: a name cannot hold a double quote or a line break\n"
+                   "    hint: choose a plain file name", err=True)
+        sys.exit(2)
+    try:
+        species = numbered_smiles(numbered(smiles))
+    except ValueError as exc:
+        column = (getattr(exc, "position", None) or 0) + 1
+        click.echo(f"<SMILES>:1:{column}: error AR102 RDKit cannot read the SMILES: {exc}\n"
+                   "    hint: check brackets, ring-closure digits and charges", err=True)
+        sys.exit(2)
+    try:
+        _create_new(path, STARTER.format(name=path.stem, file=path.name, smiles=species))
+    except FileExistsError:
+        click.echo(f"{path}:1:1: error: {path} already exists; nothing written\n"
+                   f"    hint: choose another name, or edit {path} itself", err=True)
+        sys.exit(2)
+    except OSError as exc:
+        click.echo(f"{path}:1:1: error: cannot write {path}: {exc.strerror or exc}\n"
+                   "    hint: check that the folder exists and is writable", err=True)
+        sys.exit(2)
+    click.echo(f"wrote {path}", err=True)

@@ -1,0 +1,49 @@
+"""`arrows number SMILES`: the SMILES with a map number on every heavy atom, to write moves against."""
+from __future__ import annotations
+
+import sys
+from pathlib import Path
+
+import click
+
+from ..numbering import numbered, numbered_smiles
+
+FIGURE_SUFFIXES = (".svg", ".png")
+
+
+@click.command("number")
+@click.argument("smiles")
+@click.option("--first", type=click.IntRange(min=1), default=1, show_default=True,
+              help="The first map number (to keep numbers unique across the species of a mechanism).")
+@click.option("-o", "--output", type=click.Path(dir_okay=False),
+              help="Also draw the molecule with its numbers to this .svg or .png file.")
+def number_command(smiles, first, output):
+    """Print SMILES with a map number on every heavy atom, numbered along the main chain.
+
+    The main chain is the longest path between two carbons (through heteroatoms and around rings),
+    numbered from the end nearer its first branch; branches follow, chain atom by chain atom.
+    The SMILES keeps the order it was written in and shows double bonds in Kekulé form, so the
+    bonds a move can name are visible. Exit status: 0 done, 2 unreadable SMILES or bad usage.
+    """
+    if output and Path(output).suffix.lower() not in FIGURE_SUFFIXES:
+        click.echo(f"{output}:1:1: error: the drawing is written as .svg or .png\n"
+                   f"    hint: for example -o {Path(output).stem}.svg", err=True)
+        sys.exit(2)
+    try:
+        mol = numbered(smiles, first)
+    except ValueError as exc:
+        column = (getattr(exc, "position", None) or 0) + 1
+        click.echo(f"<SMILES>:1:{column}: error AR102 RDKit cannot read the SMILES: {exc}\n"
+                   "    hint: check brackets, ring-closure digits and charges", err=True)
+        sys.exit(2)
+    click.echo(numbered_smiles(mol))
+    if output:
+        from ..batch.atomic import write_bytes
+        from ..numbering import numbered_svg
+        svg = numbered_svg(mol)
+        if output.lower().endswith(".png"):
+            import cairosvg
+            write_bytes(output, cairosvg.svg2png(bytestring=svg.encode("utf-8"), scale=2))
+        else:
+            write_bytes(output, svg.encode("utf-8"))
+        click.echo(f"drew {output}", err=True)

@@ -1,0 +1,130 @@
+"""Atom numbers for drafting: a map number on every heavy atom of a SMILES, so that an author can
+write moves against them (`arrows number`).
+
+The rule, for each molecule of the SMILES in the order written:
+1. The main chain is a path of bonded heavy atoms that visits no atom twice (through rings too,
+   so a ring is numbered around): the one with the most carbon ends (two if the molecule has
+   two carbons it can join, heteroatoms inside the path are fine), then the longest, then the
+   one that starts at a carbon, then the one whose branch points come earliest along it (lowest
+   locants), then the one whose atoms come first in the SMILES.
+2. The chain is numbered from its start.
+3. Then, chain atom by chain atom, each unnumbered neighbour (carbons before other elements,
+   then in SMILES order) and everything beyond it, depth first.
+Numbers continue from one molecule to the next; `first` sets where they begin (so a second
+species can carry numbers unique across a mechanism).
+
+The longest-path search stops after a fixed budget of path extensions on very large ring systems
+and keeps the best path found so far; the numbering stays the same from run to run.
+"""
+from __future__ import annotations
+
+from typing import Optional
+
+from rdkit import Chem
+
+SEARCH_BUDGET = 200_000   # path extensions per molecule
+
+
+def _path_key(mol: Chem.Mol, path: list[int]) -> tuple:
+    """Smaller is better (see the rule in the module docstring)."""
+    on_path = set(path)
+    ends = (path[0], path[-1])
+    carbon_ends = sum(mol.GetAtomWithIdx(i).GetAtomicNum() == 6 for i in ends)
+    starts_at_carbon = mol.GetAtomWithIdx(path[0]).GetAtomicNum() == 6
+    locants = tuple(position for position, i in enumerate(path, 1)
+                    if any(n.GetIdx() not in on_path for n in mol.GetAtomWithIdx(i).GetNeighbors()))
+    return (-carbon_ends, -len(path), not starts_at_carbon, locants, tuple(path))
+
+
+def main_chain(mol: Chem.Mol, atoms: list[int]) -> list[int]:
+    """The main chain of one molecule (atom indices in chain order)."""
+    inside = set(atoms)
+    best: Optional[tuple] = None
+    budget = SEARCH_BUDGET
+
+    def extend(path: list[int], visited: set[int]) -> None:
+        nonlocal best, budget
+        key = _path_key(mol, path)
+        if best is None or key < best:
+            best = key
+        for neighbour in sorted(n.GetIdx() for n in mol.GetAtomWithIdx(path[-1]).GetNeighbors()):
+            if budget <= 0:
+                return
+            if neighbour in inside and neighbour not in visited:
+                budget -= 1
+                path.append(neighbour)
+                visited.add(neighbour)
+                extend(path, visited)
+                visited.discard(neighbour)
+                path.pop()
+
+    for start in sorted(atoms):
+        extend([start], {start})
+    return list(best[-1])
+
+
+def number_atoms(mol: Chem.Mol, first: int = 1) -> dict[int, int]:
+    """Atom index -> map number for every atom of `mol` (a molecule without explicit hydrogens)."""
+    numbers: dict[int, int] = {}
+
+    def give(index: int) -> None:
+        numbers[index] = first + len(numbers)
+
+    def walk(index: int) -> None:
+        atom = mol.GetAtomWithIdx(index)
+        for neighbour in sorted(atom.GetNeighbors(), key=lambda n: (n.GetAtomicNum() != 6, n.GetIdx())):
+            if neighbour.GetIdx() not in numbers:
+                give(neighbour.GetIdx())
+                walk(neighbour.GetIdx())
+
+    fragments = sorted(Chem.GetMolFrags(mol, asMols=False, sanitizeFrags=False), key=min)
+    for fragment in fragments:
+        chain = main_chain(mol, list(fragment))
+        for index in chain:
+            give(index)
+        for index in chain:
+            walk(index)
+    return numbers
+
+
+def numbered(smiles: str, first: int = 1) -> Chem.Mol:
+    """The molecule of `smiles` (Kekulé form, hydrogens implicit) with a map number on every atom.
+    Raises ValueError with RDKit's reason when the SMILES cannot be read."""
+    from .rdkit_io import read_smiles
+    mol, reason, position = read_smiles(smiles)
+    if mol is None:
+        error = ValueError(reason)
+        error.position = position   # 0-based offset into the SMILES, when RDKit gives one
+        raise error
+    mol = Chem.RemoveHs(mol)
+    Chem.Kekulize(mol, clearAromaticFlags=True)
+    for index, number in number_atoms(mol, first).items():
+        mol.GetAtomWithIdx(index).SetAtomMapNum(number)
+    return mol
+
+
+def numbered_smiles(mol: Chem.Mol) -> str:
+    """The SMILES in the order the author wrote it, Kekulé form (so the double bonds a move may name
+    are visible), every atom with its map number."""
+    return Chem.MolToSmiles(mol, canonical=False, kekuleSmiles=True)
+
+
+def numbered_svg(mol: Chem.Mol, scale: float = 40.0) -> str:
+    """A drawing with each atom's number written beside it (RDKit atom notes)."""
+    from rdkit.Chem import rdDepictor
+    from rdkit.Chem.Draw import rdMolDraw2D
+    shown = Chem.Mol(mol)
+    for atom in shown.GetAtoms():
+        atom.SetProp("atomNote", str(atom.GetAtomMapNum()))
+        atom.SetAtomMapNum(0)   # else RDKit writes ":7" into the atom label too
+    drawer = rdMolDraw2D.MolDraw2DSVG(-1, -1)   # canvas sized to the molecule at this scale
+    options = drawer.drawOptions()
+    options.scalingFactor = scale              # pixels per unit of RDKit's 2D coordinates
+    options.padding = 0.12
+    options.annotationFontScale = 0.8
+    options.minFontSize = 14
+    options.prepareMolsBeforeDrawing = True
+    rdDepictor.Compute2DCoords(shown, canonOrient=True)
+    drawer.DrawMolecule(shown)
+    drawer.FinishDrawing()
+    return drawer.GetDrawingText()
