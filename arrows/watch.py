@@ -44,15 +44,15 @@ def rerun_on_save(source: str | Path, job: Callable[[Path], Result], report: Cal
     return runs
 
 
-def render_figure(source: Path, output: Path, fmt: str = "svg", style: Optional[str] = None):
+def render_figure(source: Path, output: Path, fmt: str = "svg", style=None, force: bool = False, dpi: int = 300):
     """Load, check and draw `source` into `output` (written atomically); return the diagnostics.
 
-    A file that does not parse (or whose replay derives nothing) leaves the last figure in place,
-    so the author keeps seeing the last good drawing while the text is half-edited.
+    When the file does not parse, or has errors and `force` is off, the last figure stays in
+    place and the diagnostics say why: the author keeps the last good drawing while editing.
     """
     from .api import Diagnostics, checked
     from .batch.atomic import write_bytes
-    from .diagnostics import MechanismError
+    from .diagnostics import ERROR, MechanismError
     from .language import load
 
     try:
@@ -60,6 +60,8 @@ def render_figure(source: Path, output: Path, fmt: str = "svg", style: Optional[
     except MechanismError as exc:
         return Diagnostics(exc.diagnostics)
     trace, diagnostics = checked(mechanism)
-    if trace.initial is not None:
-        write_bytes(output, mechanism.draw(fmt, style))
+    if trace.initial is None or (not force and any(d.severity == ERROR for d in diagnostics)):
+        return diagnostics
+    from .draw import render
+    write_bytes(output, render(trace, fmt, style=style, dpi=dpi, force=force, diagnostics=diagnostics))
     return diagnostics
