@@ -265,7 +265,7 @@ class _StepReplay:
 
     def check_bond_source(self, move: Move, src: BondPair, a: int, b: int) -> None:
         have = self.state.bond_electrons(a, b)
-        name = f"{self.state.label(a)}-{self.state.label(b)}"
+        name = _BondName(self.state, a, b)   # spelt out only when a message needs it
         written = src.bond.order
         if have == 0:
             self.fail("AR201", f"there is no bond {name}", src.loc,
@@ -347,6 +347,16 @@ class _StepReplay:
         self.resolved.append(ResolvedMove(move, "bond", (a, b), (pivot, other), n))
 
 
+class _BondName:
+    """`C3-C7` for a message, spelt out only if a message uses it (labels cost time on every step)."""
+
+    def __init__(self, state: ElectronState, a: int, b: int):
+        self.state, self.a, self.b = state, a, b
+
+    def __str__(self) -> str:
+        return f"{self.state.label(self.a)}-{self.state.label(self.b)}"
+
+
 def _rewrite(bond: BondRef, order: int) -> str:
     return str(BondRef(bond.first, bond.second, order)) if order in CONNECTORS else str(bond)
 
@@ -379,7 +389,7 @@ def _settle(state: ElectronState, step: Step, step_index: int, replay: _StepRepl
         before = state.bond_electrons(*key)
         after = before + delta
         new_bonds[key] = after
-        label = f"{state.label(key[0])}-{state.label(key[1])}"
+        label = _BondName(state, *key)
         loc = replay.first_move_on_bond[key].loc
         if after % 2:
             diags.append(Diagnostic("AR303", f"the bond {label} is left with {after} electron{'s' if after > 1 else ''}",

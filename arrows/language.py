@@ -2,11 +2,15 @@
 tree into model objects, and parse failures become located AR101 diagnostics with a hint."""
 from __future__ import annotations
 
+import hashlib
+import os
+import sys
 from functools import lru_cache
 from importlib import resources
 from pathlib import Path
 from typing import Optional
 
+import lark
 from lark import Lark, Token, Transformer, v_args
 from lark.exceptions import UnexpectedCharacters, UnexpectedEOF, UnexpectedInput, UnexpectedToken, VisitError
 
@@ -26,9 +30,26 @@ def grammar_text() -> str:
     return (Path(__file__).resolve().parent.parent / "grammar" / "mechanism.lark").read_text(encoding="utf-8")
 
 
+def _cache_file(grammar: str) -> Optional[str]:
+    """Where the built parser is kept between runs: building the LALR tables costs more than the rest
+    of `arrows check` on a small file. A folder of the user's own (not the shared temp folder, since
+    lark unpickles the file); None when it cannot be made, and the parser is built every time."""
+    try:
+        folder = Path(os.environ.get("XDG_CACHE_HOME") or Path.home() / ".cache") / "arrows"
+        folder.mkdir(parents=True, exist_ok=True)
+    except (OSError, RuntimeError):   # RuntimeError: no home folder to be found
+        return None
+    key = hashlib.sha256(f"{grammar}{lark.__version__}{sys.version_info[:2]}".encode()).hexdigest()[:16]
+    return str(folder / f"grammar-{key}.lark-cache")
+
+
 @lru_cache(maxsize=1)
 def _parser() -> Lark:
-    return Lark(grammar_text(), parser="lalr", propagate_positions=True, maybe_placeholders=False)
+    grammar = grammar_text()
+    options = dict(parser="lalr", propagate_positions=True, maybe_placeholders=False)
+    cache = _cache_file(grammar)
+    # lark checks the grammar's hash stored in the file and rebuilds (and rewrites) on a mismatch.
+    return Lark(grammar, cache=cache, **options) if cache else Lark(grammar, **options)
 
 
 class _Unpaired:

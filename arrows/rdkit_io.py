@@ -21,22 +21,27 @@ class _Collect(logging.Handler):
         self.lines.append(record.getMessage())
 
 
+# One collector for the process: making a logging handler costs more than most of the RDKit calls
+# it guards, and every step of a replay goes through rdkit_messages().
+_COLLECTOR = _Collect()
+
+
 @contextmanager
 def rdkit_messages() -> Iterator[list[str]]:
     """Collect what RDKit logs inside the block instead of letting it reach stderr."""
     rdBase.LogToPythonLogger()
     logger = logging.getLogger("rdkit")
-    handler = _Collect()
     # RDKit attaches its own stderr handler to this logger: set it aside, or every message is
-    # printed as well as collected.
-    old_handlers, old_propagate = logger.handlers[:], logger.propagate
-    logger.handlers = [handler]
+    # printed as well as collected. Saving the collector's list keeps nested blocks apart.
+    saved = logger.handlers, logger.propagate, _COLLECTOR.lines
+    lines: list[str] = []
+    _COLLECTOR.lines = lines
+    logger.handlers = [_COLLECTOR]
     logger.propagate = False
     try:
-        yield handler.lines
+        yield lines
     finally:
-        logger.handlers = old_handlers
-        logger.propagate = old_propagate
+        logger.handlers, logger.propagate, _COLLECTOR.lines = saved
 
 
 def quiet_rdkit() -> None:

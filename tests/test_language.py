@@ -3,6 +3,9 @@ its line and column, and the common slips give a located syntax error that names
 says in words what was expected, and gives a hint."""
 from __future__ import annotations
 
+import subprocess
+import sys
+
 import pytest
 
 from arrows import MechanismError, parse
@@ -316,3 +319,42 @@ def test_every_syntax_error_has_a_specific_hint():
     """No slip above falls back to the generic pointer to the README."""
     for name, text, *_ in SLIPS:
         assert "README" not in syntax_error(text).hint, name
+
+
+# --- the built parser kept between runs -----------------------------------------------------------
+
+PARSE_IN_A_FRESH_PROCESS = (
+    "from arrows import parse\n"
+    "m = parse('species w = \"[OH2:1]\"\\nstep \"s\"\\n    :O1 -> H(O1)\\nend\\n')\n"
+    "print(len(m.steps), m.steps[0].moves[0].loc.line)\n"
+)
+
+
+def parse_with_cache_home(cache_home) -> str:
+    env = {"XDG_CACHE_HOME": str(cache_home), "PATH": "/usr/bin:/bin", "HOME": str(cache_home)}
+    proc = subprocess.run([sys.executable, "-c", PARSE_IN_A_FRESH_PROCESS], capture_output=True, text=True,
+                          env=env, timeout=120)
+    assert proc.returncode == 0, proc.stderr
+    assert "Traceback" not in proc.stderr
+    return proc.stdout.strip()
+
+
+def test_parser_cache_is_written_and_reused(tmp_path):
+    assert parse_with_cache_home(tmp_path) == "1 3"
+    (cache,) = (tmp_path / "arrows").glob("grammar-*.lark-cache")
+    assert cache.stat().st_size > 0
+    assert parse_with_cache_home(tmp_path) == "1 3"
+
+
+def test_a_damaged_parser_cache_is_rebuilt(tmp_path):
+    parse_with_cache_home(tmp_path)
+    (cache,) = (tmp_path / "arrows").glob("grammar-*.lark-cache")
+    cache.write_bytes(b"not a parser")
+    assert parse_with_cache_home(tmp_path) == "1 3"
+    assert cache.read_bytes() != b"not a parser"
+
+
+def test_no_writable_cache_folder_still_parses(tmp_path):
+    blocker = tmp_path / "file"
+    blocker.write_text("a file where the cache folder would go")
+    assert parse_with_cache_home(blocker) == "1 3"

@@ -31,11 +31,16 @@ class ChargeAndAtomsConserved:
     codes = ("AR403", "AR404")
 
     def run(self, trace: Trace) -> Iterator[Diagnostic]:
+        previous = None   # (state, totals): a step's state before is usually the last step's after
         for st in trace.steps:
             if st.after is None:
                 continue
-            charge_before, atoms_before = _totals(st.before.mol)
+            if previous is not None and previous[0] is st.before:
+                charge_before, atoms_before = previous[1]
+            else:
+                charge_before, atoms_before = _totals(st.before.mol)
             charge_after, atoms_after = _totals(st.after.mol)
+            previous = (st.after, (charge_after, atoms_after))
             if charge_after != charge_before:
                 yield Diagnostic("AR403", f"total charge goes from {charge_before:+d} to {charge_after:+d}", st.step.loc,
                                  hint="charge moves with electrons; check `uses` and the charges written in SMILES",
