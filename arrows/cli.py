@@ -17,6 +17,7 @@ COMMANDS = {
     "number": "arrows.commands.number:number_command",
     "new": "arrows.commands.new:new_command",
     "draw": "arrows.commands.draw:draw_command",
+    "closures": "arrows.commands.closures:closures_command",
 }
 
 EXIT_CLEAN, EXIT_FINDINGS, EXIT_USAGE = 0, 1, 2

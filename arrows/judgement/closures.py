@@ -144,12 +144,12 @@ def family(electrophile_kind: str) -> str:
 
 def with_atom_maps(mol: Chem.Mol) -> Chem.Mol:
     """A copy in which every heavy atom carries a map number: existing maps are kept, the others
-    numbered upward from the highest one in atom order."""
+    numbered upward from the highest one, carbons first in the order written, then the other
+    elements (a chain written end to end, CC(=O)CCCC(C)=O, gets its locants: C1 ... C7)."""
     out = Chem.Mol(mol)
-    used = {a.GetAtomMapNum() for a in out.GetAtoms()}
-    next_map = max(used | {0}) + 1
-    for atom in out.GetAtoms():
-        if atom.GetAtomicNum() > 1 and not atom.GetAtomMapNum():
-            atom.SetAtomMapNum(next_map)
-            next_map += 1
+    next_map = max([a.GetAtomMapNum() for a in out.GetAtoms()] + [0]) + 1
+    unmapped = [a for a in out.GetAtoms() if a.GetAtomicNum() > 1 and not a.GetAtomMapNum()]
+    for atom in sorted(unmapped, key=lambda a: (a.GetAtomicNum() != 6, a.GetIdx())):
+        atom.SetAtomMapNum(next_map)
+        next_map += 1
     return out

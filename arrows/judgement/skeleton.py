@@ -164,19 +164,31 @@ def skeleton(mol: Chem.Mol, closure: Closure, condense: bool = False, species_na
     what = "ring closure and dehydration" if condensed else "ring closure"
     nu, el = writer.L(closure.nucleophile.atom), writer.L(closure.electrophile.atom)
     text = writer.text(f"{closure.closure.name} {what}: {nu} onto {el}", species_name)
-    product = product_of(text, closure.nucleophile.atom)
+    product = product_of(text, mol.GetAtomWithIdx(closure.nucleophile.atom).GetAtomMapNum())
     return text + ("" if product is None else f'\nproduct "{product}"\n')
 
 
-def product_of(text: str, atom: int) -> str | None:
-    """Canonical SMILES of the fragment holding `atom` after the last step, or None if the text
-    does not replay."""
-    from ..api import check_text
-    trace, _ = check_text(text, "<skeleton>")
-    final = trace.final if trace is not None else None
+def product_of(text: str, map_number: int) -> str | None:
+    """Canonical SMILES of the fragment holding the atom with `map_number` after the last step, or
+    None if the text does not replay."""
+    fragment = product_fragment(text, map_number)
+    return None if fragment is None else canonical(fragment)
+
+
+def product_fragment(text: str, map_number: int) -> Chem.Mol | None:
+    """The fragment (atom maps kept) holding the atom with `map_number` after the last step of a
+    replayed text."""
+    from ..diagnostics import MechanismError
+    from ..language import parse
+    from ..trace import replay
+    try:
+        final = replay(parse(text, "<skeleton>")).final
+    except MechanismError:
+        return None
     if final is None:
         return None
-    return canonical(fragment_containing(final.mol, atom))
+    atom = next(a.GetIdx() for a in final.mol.GetAtoms() if a.GetAtomMapNum() == map_number)
+    return fragment_containing(final.mol, atom)
 
 
 def fragment_containing(mol: Chem.Mol, atom: int) -> Chem.Mol:

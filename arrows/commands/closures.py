@@ -1,0 +1,216 @@
+"""`arrows closures SMILES-or-FILE`: every intramolecular closure an enolate (base) or enol (acid)
+chemistry could start in one species, with its Baldwin class, ranked; optionally drawn, or the
+best one written out as a .mech skeleton."""
+from __future__ import annotations
+
+import json
+import sys
+from dataclasses import dataclass
+from pathlib import Path
+from typing import Optional
+
+import click
+from rdkit import Chem
+
+from ..electrons import atom_label
+from ..judgement.closures import Closure, find_closures, with_atom_maps
+from ..judgement.skeleton import product_fragment, skeleton
+from ..rdkit_io import read_smiles
+
+DRAWING_SUFFIXES = (".svg", ".png")
+
+
+@dataclass
+class _Species:
+    mol: Chem.Mol        # every heavy atom mapped
+    name: str
+
+
+class _BadInput(Exception):
+    def __init__(self, where: str, message: str, hint: str):
+        super().__init__(message)
+        self.where, self.message, self.hint = where, message, hint
+
+
+def _from_smiles(smiles: str, where: str, line: int = 1, column: int = 1) -> Chem.Mol:
+    mol, reason, position = read_smiles(smiles)
+    if mol is None:
+        raise _BadInput(f"{where}:{line}:{column + (position or 0)}", f"AR102 RDKit cannot read the SMILES: {reason}",
+                        "check brackets, ring-closure digits and charges")
+    return mol
+
+
+def _load(argument: str, species_name: Optional[str]) -> _Species:
+    path = Path(argument)
+    if path.is_dir():
+        raise _BadInput(f"{argument}:1:1", "AR100 a folder, not a species", "give a SMILES, a .mech, .mol or .smi file")
+    if not path.is_file():
+        return _Species(with_atom_maps(_from_smiles(argument, "<SMILES>")), "substrate")
+    if path.suffix.lower() == ".mech":
+        from ..diagnostics import MechanismError
+        from ..language import load
+        try:
+            mechanism = load(path)
+        except MechanismError as exc:
+            first = exc.diagnostics[0]
+            raise _BadInput(str(first.loc), f"{first.code} {first.message}", first.hint or "see `arrows check`")
+        chosen = [s for s in mechanism.species if species_name in (None, s.name)]
+        if not chosen:
+            names = ", ".join(s.name for s in mechanism.species) or "none"
+            raise _BadInput(f"{argument}:1:1", f"no species named {species_name!r}", f"the species are: {names}")
+        sp = chosen[0]
+        mol = _from_smiles(sp.smiles, str(path), sp.smiles_loc.line, sp.smiles_loc.column)
+        return _Species(with_atom_maps(mol), sp.name)
+    if path.suffix.lower() in (".mol", ".sdf"):
+        mol = Chem.MolFromMolFile(str(path))
+        if mol is None:
+            raise _BadInput(f"{argument}:1:1", "AR102 RDKit cannot read the molfile", "check the file is a V2000/V3000 molfile")
+        return _Species(with_atom_maps(mol), path.stem.replace("-", "_") or "substrate")
+    try:
+        text = path.read_text(encoding="utf-8")
+    except (OSError, UnicodeDecodeError) as exc:
+        raise _BadInput(f"{argument}:1:1", f"AR100 cannot read the file: {exc}", "give a UTF-8 text file")
+    for number, line in enumerate(text.splitlines(), 1):
+        if line.strip() and not line.lstrip().startswith("#"):
+            column = len(line) - len(line.lstrip()) + 1
+            return _Species(with_atom_maps(_from_smiles(line.split()[0], argument, number, column)), "substrate")
+    raise _BadInput(f"{argument}:1:1", "AR112 the file holds no SMILES", "write one SMILES on the first line")
+
+
+def _row(mol: Chem.Mol, rank: int, c: Closure, product: Optional[str]) -> dict:
+    label = lambda i: atom_label(mol, i)   # noqa: E731
+    return {
+        "rank": rank,
+        "nucleophile": {"atom": label(c.nucleophile.atom), "kind": c.nucleophile.kind, "via": c.nucleophile.via,
+                        "alpha_pka": c.nucleophile_pka},
+        "electrophile": {"atom": label(c.electrophile.atom), "kind": c.electrophile.kind},
+        "ring_size": c.size,
+        "ring": [label(i) for i in c.ring],
+        "class": c.closure.name,
+        "baldwin": {"verdict": c.verdict.word, "rule": c.verdict.rule},
+        "outlook": c.outlook,
+        "reason": c.reason,
+        "equivalent": [f"{label(a)} onto {label(b)}" for a, b in c.equivalent],
+        "product": product,
+    }
+
+
+def _table(rows: list[dict]) -> list[str]:
+    headers = ("#", "nucleophile", "electrophile", "ring", "class", "Baldwin", "outlook", "product")
+    cells = [(str(r["rank"]), f"{r['nucleophile']['atom']} {r['nucleophile']['kind']}",
+              f"{r['electrophile']['atom']} {r['electrophile']['kind']}", str(r["ring_size"]), r["class"],
+              r["baldwin"]["verdict"] + (f" ({r['baldwin']['rule']})" if r["baldwin"]["rule"] else ""),
+              r["outlook"], r["product"] or "-") for r in rows]
+    widths = [max(len(h), *(len(c[k]) for c in cells)) for k, h in enumerate(headers)]
+    line = lambda values: "  ".join(v.ljust(w) for v, w in zip(values, widths)).rstrip()   # noqa: E731
+    out = [line(headers)]
+    for r, c in zip(rows, cells):
+        out.append(line(c))
+        why = [r["reason"]] + ([f"same by symmetry: {', '.join(r['equivalent'])}"] if r["equivalent"] else [])
+        out.extend(" " * (widths[0] + 2) + w for w in why)
+    return out
+
+
+@click.command("closures")
+@click.argument("species")
+@click.option("--species", "species_name", help="With a .mech file: the species to study (default: the first).")
+@click.option("--format", "fmt", type=click.Choice(["text", "json"]), default="text", show_default=True)
+@click.option("--max-ring", type=click.IntRange(3, 12), default=7, show_default=True,
+              help="Largest ring listed (Baldwin's rules cover 3 to 7).")
+@click.option("--condense", is_flag=True,
+              help="Follow an aldol closure with its E1cB dehydration (products and --write).")
+@click.option("--draw", "draw_path", type=click.Path(dir_okay=False),
+              help="Draw the candidate products, new bond highlighted, to this .svg or .png file.")
+@click.option("--write", "write_path", type=click.Path(dir_okay=False),
+              help="Write a .mech skeleton for the best candidate (or the one chosen with --pick).")
+@click.option("--pick", type=click.IntRange(min=1), default=1, show_default=True,
+              help="Which ranked candidate --write drafts.")
+def closures_command(species, species_name, fmt, max_ring, condense, draw_path, write_path, pick):
+    """List every intramolecular ring closure of SPECIES (a SMILES, or a .mech/.mol/.smi file).
+
+    Nucleophiles: alpha carbons bearing H next to a carbonyl or nitrile (as enolates or enols),
+    hydroxyl oxygens, amine nitrogens. Electrophiles: aldehyde, ketone, ester and amide carbons,
+    enone beta carbons, sp3 carbons bearing a halide or sulfonate. Ranked favoured five- and
+    six-membered rings first, aldehydes before ketones before esters before amides (common
+    practice), each with its Baldwin class and verdict. Atoms are named by map number; atoms
+    without one are numbered, carbons first. Exit status: 0 listed, 2 unreadable input.
+    """
+    if draw_path and Path(draw_path).suffix.lower() not in DRAWING_SUFFIXES:
+        _fail(f"{draw_path}:1:1", "the drawing is written as .svg or .png", f"for example --draw {Path(draw_path).stem}.svg")
+    try:
+        sp = _load(species, species_name)
+    except _BadInput as exc:
+        _fail(exc.where, exc.message, exc.hint)
+    mol = sp.mol
+    found = find_closures(mol, max_ring)
+    texts = [skeleton(mol, c, condense, sp.name) for c in found]
+    products = [_product_line(t) for t in texts]
+    rows = [_row(mol, k, c, p) for k, (c, p) in enumerate(zip(found, products), 1)]
+    numbered = Chem.MolToSmiles(mol, canonical=False)
+    if fmt == "json":
+        click.echo(json.dumps({"species": numbered, "closures": rows}, indent=2, ensure_ascii=False))
+    else:
+        click.echo(f"species  {numbered}")
+        click.echo("\n".join(_table(rows)) if rows else "no intramolecular closure found between the sites listed")
+    if draw_path and found:
+        _draw(draw_path, mol, found, texts, rows)
+        click.echo(f"drew {draw_path}", err=True)
+    if write_path:
+        if pick > len(found):
+            _fail(f"{species}:1:1", f"there {'is' if len(found) == 1 else 'are'} {len(found)} candidate(s); "
+                  f"--pick {pick} is out of range", "pick a rank from the table")
+        from ..batch.atomic import write_text
+        write_text(write_path, texts[pick - 1])
+        click.echo(f"wrote {write_path}: {found[pick - 1].closure.name}", err=True)
+
+
+def _product_line(text: str) -> Optional[str]:
+    for line in reversed(text.splitlines()):
+        if line.startswith("product "):
+            return line.split('"')[1]
+    return None
+
+
+def _draw(path: str, mol: Chem.Mol, found: list[Closure], texts: list[str], rows: list[dict]) -> None:
+    """A grid of the candidate products with the new bond highlighted (RDKit's 2D drawer)."""
+    from rdkit.Chem import rdDepictor
+    from rdkit.Chem.Draw import rdMolDraw2D
+    from ..batch.atomic import write_bytes
+    rdDepictor.SetPreferCoordGen(True)
+    mols, bonds, legends = [], [], []
+    for c, text, row in zip(found, texts, rows):
+        maps = (mol.GetAtomWithIdx(c.nucleophile.atom).GetAtomMapNum(),
+                mol.GetAtomWithIdx(c.electrophile.atom).GetAtomMapNum())
+        product = product_fragment(text, maps[0])
+        if product is None:
+            continue
+        work = Chem.RemoveHs(product, sanitize=False)
+        Chem.SanitizeMol(work)
+        ends = [a.GetIdx() for a in work.GetAtoms() if a.GetAtomMapNum() in maps]
+        bond = work.GetBondBetweenAtoms(*ends) if len(ends) == 2 else None
+        for atom in work.GetAtoms():
+            atom.SetAtomMapNum(0)
+        rdDepictor.Compute2DCoords(work)
+        mols.append(work)
+        bonds.append([bond.GetIdx()] if bond is not None else [])
+        legends.append(f"{row['rank']}. {row['nucleophile']['atom']} onto {row['electrophile']['atom']}: "
+                       f"{row['class']}, {row['outlook']}")
+    columns = min(3, len(mols))
+    rows_n = (len(mols) + columns - 1) // columns
+    size = (320, 260)
+    svg = path.lower().endswith(".svg")
+    drawer = (rdMolDraw2D.MolDraw2DSVG if svg else rdMolDraw2D.MolDraw2DCairo)(
+        size[0] * columns, size[1] * rows_n, size[0], size[1])
+    options = drawer.drawOptions()
+    options.legendFontSize = 14
+    options.continuousHighlight = False      # the new bond itself in colour, not a band beside it
+    options.setHighlightColour((0.0, 0.447, 0.698))   # Okabe-Ito blue #0072B2
+    drawer.DrawMolecules(mols, legends=legends, highlightAtoms=[[] for _ in mols], highlightBonds=bonds)
+    drawer.FinishDrawing()
+    data = drawer.GetDrawingText()
+    write_bytes(path, data.encode("utf-8") if svg else data)
+
+
+def _fail(where: str, message: str, hint: str) -> None:
+    click.echo(f"{where}: error {message}\n    hint: {hint}", err=True)
+    sys.exit(2)
