@@ -13,7 +13,6 @@ from itertools import combinations
 from typing import Iterable, Optional
 
 from rdkit import Chem
-from rdkit.Chem.EnumerateStereoisomers import EnumerateStereoisomers, StereoEnumerationOptions
 
 CENTRE, DOUBLE_BOND = "stereocentre", "stereogenic double bond"
 _ORIGINAL = "arrows_index"
@@ -87,6 +86,9 @@ def stereoisomer_count(mol: Chem.Mol, uncontrolled: Iterable[int] = ()) -> int:
     plain = _plain(mol, uncontrolled)
     if plain is None:
         return 1
+    # Imported here: the module pulls in RDKit's embedding code and numpy (~0.1 s), which the
+    # start-up of `arrows check` should pay only when a product has stereo elements to count.
+    from rdkit.Chem.EnumerateStereoisomers import EnumerateStereoisomers, StereoEnumerationOptions
     options = StereoEnumerationOptions(onlyUnassigned=True, unique=True, tryEmbedding=False)
     return sum(1 for _ in EnumerateStereoisomers(plain, options=options))
 
