@@ -28,6 +28,8 @@ from .structure import PanelStructure, best_direction, clearance
 from .styles import Style
 
 _SAMPLES = 20
+_ANGLES = (math.radians(30), math.radians(48), math.radians(66))
+_SHORT_ANGLES = (math.radians(55), math.radians(75), math.radians(95))
 _KEEP = 6          # candidates per arrow that enter the joint choice
 _T = np.linspace(0.0, 1.0, _SAMPLES + 1)
 _BERNSTEIN = np.stack([(1 - _T) ** 3, 3 * _T * (1 - _T) ** 2, 3 * _T ** 2 * (1 - _T), _T ** 3])
@@ -43,6 +45,11 @@ def split_before(p0: complex, p1: complex, p2: complex, p3: complex, t: float) -
     a, b, c = p0 + (p1 - p0) * t, p1 + (p2 - p1) * t, p2 + (p3 - p2) * t
     d, e = a + (b - a) * t, b + (c - b) * t
     return p0, a, d, d + (e - d) * t
+
+
+def _handle(theta: float) -> float:
+    """Handle length over chord for a cubic close to a circular arc leaving the chord at theta."""
+    return (4.0 / 3.0) * math.tan(theta / 2) / (2 * math.sin(theta))
 
 
 def _unit(z: complex) -> complex:
@@ -131,7 +138,10 @@ class ArrowPlanner:
             return _Anchor("bond", mid, (a, b), extent=extent, axis=_unit(panel.positions[b] - panel.positions[a]))
         atom = move.source_atoms[0]
         centre = panel.positions[atom]
-        direction = best_direction(panel.occupied[atom], _unit(sink.point - centre), spread=0.35)
+        # Dots sit on a side or a corner of the label, facing where the arrow goes.
+        labelled = panel.atoms[atom].box is not None
+        direction = best_direction(panel.occupied[atom], _unit(sink.point - centre), spread=0.35,
+                                   steps=8 if labelled else 24)
         panel.occupied[atom].append(direction)
         r = self.dot_radius
         reach = panel.label_reach(atom, direction) or 0.12 * self.bl
@@ -180,67 +190,54 @@ class ArrowPlanner:
                 sink.point = sink.point + along * 0.16 * self.bl
 
     # candidate curves
-    def _departures(self, src: _Anchor, towards: complex) -> list[tuple[complex, complex]]:
-        """(start point, leaving direction) pairs."""
-        if src.kind == "dots":
-            p0 = src.point + src.outward * (self.dot_radius + 0.12 * self.fs)
-            out = [(p0, src.outward)]
-            for angle in (0.5, -0.5):
-                d = src.outward * cmath.rect(1.0, angle)
-                if (d / _unit(towards - p0)).real > (src.outward / _unit(towards - p0)).real:
-                    out.append((p0, d))
-            return out
-        n = src.axis * 1j
-        out = []
-        for side in (n, -n):
-            p0 = src.point + side * (src.extent + 0.07 * self.bl)
-            lean = _unit(towards - p0)
-            for tilt in (0.0, 0.6):
-                out.append((p0, _unit(side + lean * tilt)))
-        return out
-
-    def _arrivals(self, snk: _Anchor, origin: complex, panel: PanelStructure) -> list[tuple[complex, complex]]:
-        """(tip, outward direction w): the head arrives travelling along -w."""
-        if snk.kind == "atom":
-            y = snk.atoms[0]
-            facing = _unit(origin - snk.point)
-            options = []
-            for k in range(16):
-                w = cmath.rect(1.0, k * math.pi / 8)
-                room = clearance(w, panel.occupied[y])
-                if room < math.radians(32):
-                    continue
-                options.append(((w / facing).real + 0.6 * min(room, math.radians(60)), w))
-            options.sort(key=lambda o: -o[0])
-            out = []
-            for _, w in options[:4]:
-                reach = panel.label_reach(y, w)
-                gap = 0.1 * self.fs if reach else 0.2 * self.bl
-                out.append((snk.point + w * (reach + gap), w))
-            return out or [(snk.point + facing * 0.3 * self.bl, facing)]
-        n = snk.axis * 1j
-        out = []
-        for side in (n, -n):
-            tip = snk.point + (side * (snk.extent + 0.08 * self.bl) if snk.kind == "bond" else 0)
-            lean = _unit(origin - tip)
-            for tilt in (0.0, 0.6):
-                out.append((tip, _unit(side + lean * tilt)))
-        return out
-
     def _candidates(self, src: _Anchor, snk: _Anchor, panel: PanelStructure) -> list[_Candidate]:
+        """Near-circular arcs from source to sink, bending to either side by a few angles."""
+        chord = abs(snk.point - src.point)
+        angles = _SHORT_ANGLES if chord < 0.9 * self.bl else _ANGLES
         out = []
-        bl = self.bl
-        for p0, t0 in self._departures(src, snk.point):
-            for tip, w in self._arrivals(snk, p0, panel):
-                chord = abs(tip - p0)
-                for scale in (0.42, 0.7):
-                    h = max(0.32 * bl, scale * chord)
-                    out.append(_Candidate(p0, p0 + t0 * h, tip + w * h, tip))
+        for side in (1, -1):
+            for theta in angles:
+                out.append(self._arc(src, snk, side, theta, panel))
         controls = np.array([[c.p0, c.p1, c.p2, c.tip] for c in out], dtype=complex)
-        points = controls @ _BERNSTEIN
-        for c, row in zip(out, points):
+        for c, row in zip(out, controls @ _BERNSTEIN):
             c.points = row
         return out
+
+    def _arc(self, src: _Anchor, snk: _Anchor, side: int, theta: float, panel: PanelStructure) -> _Candidate:
+        """Leaves at theta to the chord on one side and arrives at theta on the same side, so
+        the curve is close to a circular arc; the ends are refitted twice as the chord moves."""
+        turn = cmath.rect(1.0, -side * theta)
+        p0, tip = src.point, snk.point
+        for _ in range(3):
+            u = _unit(tip - p0)
+            leave, arrive = u * turn, u / turn
+            p0 = self._tail(src, leave)
+            tip = self._tip(snk, arrive, panel)
+        u = _unit(tip - p0)
+        leave, arrive = u * turn, u / turn
+        h = max(_handle(theta) * abs(tip - p0), 0.22 * self.bl)
+        return _Candidate(p0, p0 + leave * h, tip - arrive * h, tip)
+
+    def _tail(self, src: _Anchor, leave: complex) -> complex:
+        if src.kind == "dots":
+            return src.point + _unit(leave + src.outward) * (self.dot_radius + 0.12 * self.fs)
+        return src.point + self._normal(src, leave) * (src.extent + 0.05 * self.bl)
+
+    def _tip(self, snk: _Anchor, arrive: complex, panel: PanelStructure) -> complex:
+        if snk.kind == "atom":
+            back = -arrive
+            reach = panel.label_reach(snk.atoms[0], back)
+            gap = 0.12 * self.fs if reach else 0.2 * self.bl
+            return snk.point + back * (reach + gap)
+        if snk.kind == "bond":
+            return snk.point + self._normal(snk, -arrive) * (snk.extent + 0.08 * self.bl)
+        return snk.point
+
+    @staticmethod
+    def _normal(anchor: _Anchor, direction: complex) -> complex:
+        """The unit normal of the anchor's bond on the side `direction` points to."""
+        n = anchor.axis * 1j
+        return n if (direction / n).real >= 0 else -n
 
     # penalties
     def _score(self, candidates: list[_Candidate], src: _Anchor, snk: _Anchor, move: ResolvedMove,
@@ -281,12 +278,11 @@ class ArrowPlanner:
                                for pair in ob.bond_pairs])
             crossings = _crossing_counts(pts, ob.bond_a, ob.bond_b)          # (C, E)
             cost += (crossings * weight).sum(axis=1)
-        # An S-shaped arc: the two control points on opposite sides of the chord.
-        controls = np.array([[c.p1 - c.p0, c.p2 - c.p0, c.tip - c.p0] for c in candidates])
-        chord = controls[:, 2]
-        side1 = (np.conj(chord) * controls[:, 0]).imag
-        side2 = (np.conj(chord) * controls[:, 1]).imag
-        cost += np.where(side1 * side2 < 0, 25.0, 0.0)
+        if src.kind == "dots":
+            # Leaving the dots back across the atom reads as coming from the wrong place.
+            leave = np.array([(c.p1 - c.p0) / (abs(c.p1 - c.p0) or 1.0) for c in candidates])
+            facing = (leave * np.conj(src.outward)).real
+            cost += np.where(facing < -0.2, 20.0, 0.0)
         cost += np.abs(np.diff(pts, axis=1)).sum(axis=1) / bl
         for c, value in zip(candidates, cost):
             c.cost = float(value)

@@ -1,14 +1,18 @@
 """2D coordinates for every state of a mechanism, one scale, aligned by atom identity.
 
-Atom indices are identities across states (atoms are only appended), so one position per atom
-serves every panel and nothing jumps between panels. The positions come from the union of all
-bonds the mechanism ever makes: a ring about to close is drawn already curled, a nucleophile
-already faces the atom it attacks, and a forming bond has bond length in every panel.
+Atom indices are identities across states (atoms are only appended), and an atom may move
+between two panels only if the step between them touches it. Positions come from RDKit's
+depiction of the union of all bonds the mechanism ever makes: a ring about to close is drawn
+already curled, a nucleophile already faces the atom it attacks, and a forming bond has bond
+length in every panel, so nothing else needs to move.
 
-Hydrogens that moves touch are drawn as atoms; the rest stay implicit in labels. A hydrogen that
-travels between two separate species (a proton transfer) is not part of either species' layout:
-the species that receives it is placed so that donor, hydrogen and acceptor are in line, and the
-hydrogen sits on whichever atom holds it in each panel.
+Two kinds of bond stay out of that union, because they would crowd it with bonds that never
+exist together: bonds to fragments that leave (`releases`), and hydrogens travelling between
+separate species (proton transfers). Each such species is a cluster of its own, placed per run
+of panels in which it cannot move: next to the atom it is bonded to, or in line with the
+hydrogen it is about to exchange (donor, hydrogen and acceptor in a row, with room for an
+arrow), or where it was last. A travelling hydrogen sits on whichever atom holds it, pointing at
+the partner it came from or goes to.
 
 Units: one bond length; y grows downwards (the SVG convention).
 """
@@ -17,7 +21,7 @@ from __future__ import annotations
 import cmath
 import math
 from contextlib import contextmanager
-from dataclasses import dataclass
+from dataclasses import dataclass, field
 from typing import Iterable, Iterator, Optional, Sequence
 
 from rdkit import Chem
@@ -25,10 +29,10 @@ from rdkit.Chem import rdDepictor
 
 from ..electrons import ElectronState, ResolvedMove
 
-# Gap between a transferred hydrogen and the atom that is about to take it, in bond lengths:
-# wide enough for a curved arrow, close enough to read as one event.
-TRANSFER_GAP = 1.55
-_CLEARANCE = 1.25    # nearest approach of atoms of two separately placed species
+# Gap between a transferred hydrogen and the atom that takes it, in bond lengths: room for a
+# curved arrow, close enough to read as one event.
+TRANSFER_GAP = 1.5
+_CLEARANCE = 1.2     # nearest approach allowed between atoms of separately placed clusters
 
 
 @dataclass(frozen=True)
@@ -81,7 +85,7 @@ def _rdkit_depictor() -> Iterator[None]:
 
 def moving_hydrogens(states: Sequence[ElectronState], moves: Iterable[ResolvedMove]) -> frozenset[int]:
     """Hydrogen atoms that some move names: these are drawn; every other hydrogen is implicit."""
-    mol = states[-1].mol
+    mol = max(states, key=lambda s: s.mol.GetNumAtoms()).mol
     out = set()
     for move in moves:
         for i in move.source_atoms + move.sink_atoms:
@@ -94,78 +98,6 @@ def visible_atoms(state: ElectronState, drawn_hydrogens: frozenset[int]) -> tupl
     return tuple(a.GetIdx() for a in state.mol.GetAtoms()
                  if a.GetIdx() not in state.released
                  and (a.GetAtomicNum() != 1 or a.GetIdx() in drawn_hydrogens))
-
-
-def compute_layout(states: Sequence[ElectronState], moves: Sequence[Sequence[ResolvedMove]]) -> Layout:
-    """Positions for the atoms of every state. `moves[k]` are the moves drawn on panel k."""
-    biggest = max(states, key=lambda s: s.mol.GetNumAtoms()).mol
-    drawn_h = moving_hydrogens(states, (m for ms in moves for m in ms))
-    atoms = [a.GetIdx() for a in biggest.GetAtoms() if a.GetAtomicNum() != 1 or a.GetIdx() in drawn_h]
-    elements = {i: biggest.GetAtomWithIdx(i).GetAtomicNum() for i in atoms}
-    drawn = set(atoms)
-
-    # Every bond between drawn atoms in any state, with its highest order (for linear triple bonds).
-    union: dict[tuple[int, int], int] = {}
-    for state in states:
-        for bond in state.mol.GetBonds():
-            i, j = sorted((bond.GetBeginAtomIdx(), bond.GetEndAtomIdx()))
-            if i in drawn and j in drawn:
-                union[(i, j)] = max(union.get((i, j), 0), int(bond.GetBondTypeAsDouble()))
-
-    heavy = _UnionFind(i for i in atoms if elements[i] != 1)
-    for i, j in union:
-        if elements[i] != 1 and elements[j] != 1:
-            heavy.join(i, j)
-    neighbours: dict[int, set[int]] = {i: set() for i in atoms}
-    for i, j in union:
-        neighbours[i].add(j)
-        neighbours[j].add(i)
-    bridging = {h for h in drawn_h
-                if len({heavy.find(n) for n in neighbours[h] if elements[n] != 1}) > 1}
-
-    clusters = _UnionFind(i for i in atoms if i not in bridging)
-    for i, j in union:
-        if i not in bridging and j not in bridging:
-            clusters.join(i, j)
-    groups = clusters.groups()
-    local = {tuple(g): _cluster_coordinates(g, elements, union, states) for g in groups}
-
-    positions = _place_clusters(groups, local, union, bridging, states)
-    panels = []
-    for state in states:
-        visible = visible_atoms(state, drawn_h)
-        where = {i: positions[i] for i in visible if i not in bridging}
-        for h in bridging:
-            if h in visible:
-                where[h] = _hydrogen_position(h, state, positions, neighbours)
-        panels.append(PanelAtoms(state, visible, where))
-    return Layout(tuple(panels), drawn_h)
-
-
-def _cluster_coordinates(group: list[int], elements: dict[int, int], union: dict[tuple[int, int], int],
-                         states: Sequence[ElectronState]) -> dict[int, complex]:
-    """RDKit 2D coordinates of one cluster's union graph, scaled to unit bond length."""
-    if len(group) == 1:
-        return {group[0]: 0j}
-    index = {atom: k for k, atom in enumerate(group)}
-    mol = Chem.RWMol()
-    for atom in group:
-        mol.AddAtom(Chem.Atom(elements[atom]))
-    orders = {1: Chem.BondType.SINGLE, 2: Chem.BondType.DOUBLE, 3: Chem.BondType.TRIPLE}
-    for (i, j), order in sorted(union.items()):
-        if i in index and j in index:
-            mol.AddBond(index[i], index[j], orders.get(order, Chem.BondType.SINGLE))
-    mol.UpdatePropertyCache(strict=False)
-    Chem.FastFindRings(mol)
-    with _rdkit_depictor():
-        rdDepictor.Compute2DCoords(mol, canonOrient=True)
-    conf = mol.GetConformer()
-    lengths = [(conf.GetAtomPosition(b.GetBeginAtomIdx()) - conf.GetAtomPosition(b.GetEndAtomIdx())).Length()
-               for b in mol.GetBonds()]
-    scale = 1.0 / (sum(lengths) / len(lengths)) if lengths else 1.0
-    # y is flipped: RDKit's y grows upwards, ours downwards.
-    return {atom: complex(conf.GetAtomPosition(k).x * scale, -conf.GetAtomPosition(k).y * scale)
-            for atom, k in index.items()}
 
 
 def free_direction(centre: complex, others: Sequence[complex], prefer: Optional[complex] = None) -> complex:
@@ -185,109 +117,490 @@ def free_direction(centre: complex, others: Sequence[complex], prefer: Optional[
     return cmath.rect(1.0, best_mid)
 
 
-def _place_clusters(groups: list[list[int]], local: dict[tuple, dict[int, complex]],
-                    union: dict[tuple[int, int], int], bridging: set[int],
-                    states: Sequence[ElectronState]) -> dict[int, complex]:
-    """Put every cluster on one drawing: the biggest where RDKit left it, each other next to the
-    atom it first exchanges a hydrogen with, or (a spectator) to the right of the rest."""
-    cluster_of = {atom: k for k, g in enumerate(groups) for atom in g}
-    links = _hydrogen_links(bridging, states, cluster_of)
-    order = sorted(range(len(groups)), key=lambda k: (-len(groups[k]), groups[k][0]))
-    placed: dict[int, complex] = dict(local[tuple(groups[order[0]])])
-    done = {order[0]}
-    slots: dict[int, list[complex]] = {}     # directions already promised to a hydrogen at an atom
+def _unit(z: complex) -> complex:
+    return z / abs(z) if abs(z) > 1e-12 else 1 + 0j
 
-    def neighbours_of(atom: int) -> list[complex]:
-        near = [placed[j] for (i, j) in union if i == atom and j in placed and j not in bridging]
-        near += [placed[i] for (i, j) in union if j == atom and i in placed and i not in bridging]
-        return near + [placed[atom] + d for d in slots.get(atom, [])]
 
-    while len(done) < len(groups):
-        link = next(((step, donor, acceptor, h) for step, donor, acceptor, h in links
-                     if (cluster_of[donor] in done) != (cluster_of[acceptor] in done)), None)
-        if link is None:
-            k = min((k for k in range(len(groups)) if k not in done), key=lambda k: (-len(groups[k]), groups[k][0]))
-            _place_aside(placed, local[tuple(groups[k])])
-            done.add(k)
-            continue
-        _, first, second, _h = link
-        anchor, mover = (first, second) if cluster_of[first] in done else (second, first)
-        k = cluster_of[mover]
-        coords = local[tuple(groups[k])]
-        u = free_direction(placed[anchor], neighbours_of(anchor))
-        own = [coords[j] for (i, j) in union if i == mover and j in coords] + \
-              [coords[i] for (i, j) in union if j == mover and i in coords]
-        v = free_direction(coords[mover], own, prefer=-u)
+def _inside(point: complex, polygon: list[complex]) -> bool:
+    """Even-odd rule."""
+    inside = False
+    for a, b in zip(polygon, polygon[1:] + polygon[:1]):
+        if (a.imag > point.imag) != (b.imag > point.imag):
+            x = a.real + (point.imag - a.imag) * (b.real - a.real) / (b.imag - a.imag)
+            if x > point.real:
+                inside = not inside
+    return inside
+
+
+@dataclass
+class _Residence:
+    """A travelling hydrogen on one holder for a run of panels."""
+
+    hydrogen: int
+    holder: Optional[int]
+    first: int
+    last: int
+    direction: Optional[complex] = None
+
+
+@dataclass
+class _Cluster:
+    atoms: list[int]
+    local: dict[int, complex]
+    segments: list[tuple[int, int]] = field(default_factory=list)   # runs of panels it cannot move in
+    placement: dict[int, tuple[complex, complex]] = field(default_factory=dict)  # segment start -> (rotation, shift)
+
+
+def compute_layout(states: Sequence[ElectronState], moves: Sequence[Sequence[ResolvedMove]],
+                   touched: Sequence[Iterable[int]]) -> Layout:
+    """Positions for the atoms of every state. `moves[k]` are the moves drawn on panel k and
+    `touched[k]` the atoms the step leaving panel k changes (empty for the last panel)."""
+    return _LayoutBuilder(states, moves, touched).build()
+
+
+class _LayoutBuilder:
+    def __init__(self, states: Sequence[ElectronState], moves: Sequence[Sequence[ResolvedMove]],
+                 touched: Sequence[Iterable[int]]):
+        self.states = list(states)
+        self.n = len(self.states)
+        self.touched = [set(t) for t in touched] + [set()] * (self.n - len(touched))
+        biggest = max(self.states, key=lambda s: s.mol.GetNumAtoms()).mol
+        self.drawn_h = moving_hydrogens(self.states, (m for ms in moves for m in ms))
+        self.atoms = [a.GetIdx() for a in biggest.GetAtoms() if a.GetAtomicNum() != 1 or a.GetIdx() in self.drawn_h]
+        self.element = {i: biggest.GetAtomWithIdx(i).GetAtomicNum() for i in self.atoms}
+        drawn = set(self.atoms)
+        self.exists = [(set(range(s.mol.GetNumAtoms())) & drawn) - s.released for s in self.states]
+        self.bonds_in = []      # per panel: set of (i, j) between drawn atoms
+        self.union: dict[tuple[int, int], int] = {}
+        for state in self.states:
+            here = set()
+            for bond in state.mol.GetBonds():
+                i, j = sorted((bond.GetBeginAtomIdx(), bond.GetEndAtomIdx()))
+                if i in drawn and j in drawn:
+                    here.add((i, j))
+                    self.union[(i, j)] = max(self.union.get((i, j), 0), int(bond.GetBondTypeAsDouble()))
+            self.bonds_in.append(here)
+        self.neighbours: dict[int, set[int]] = {i: set() for i in self.atoms}
+        for i, j in self.union:
+            self.neighbours[i].add(j)
+            self.neighbours[j].add(i)
+        self.positions: list[dict[int, complex]] = [dict() for _ in range(self.n)]
+
+    # structure of the problem
+    def build(self) -> Layout:
+        self._find_clusters()
+        self.residences = self._residences()
+        for k, cluster in enumerate(self.clusters):
+            cluster.segments = self._segments(k)
+        main = self.clusters[self.main]
+        for start, _ in main.segments:
+            main.placement[start] = (1 + 0j, 0j, None)
+        self._apply(self.main)
+        while self._place_by_events() or self._place_leftovers():
+            pass
+        self._place_hydrogens()
+        panels = []
+        for k, state in enumerate(self.states):
+            visible = visible_atoms(state, self.drawn_h)
+            panels.append(PanelAtoms(state, visible, {i: self.positions[k][i] for i in visible}))
+        return Layout(tuple(panels), self.drawn_h)
+
+    def _permanent(self, i: int, j: int) -> bool:
+        """Present in every state that has both atoms (a fragment that leaves is still there)."""
+        return all((i, j) in self.bonds_in[k] for k in range(self.n) if max(i, j) < self.states[k].mol.GetNumAtoms())
+
+    def _find_clusters(self) -> None:
+        """Clusters are held together by bonds that never change. A bond that forms or breaks
+        between two clusters is drawn by placing one next to the other, unless two such bonds
+        join them (a ring made between species, as in a cycloaddition): then they are depicted
+        together, already curled into that ring. A travelling hydrogen belongs to a cluster only
+        if every atom it is ever bonded to does."""
+        heavy_atoms = [i for i in self.atoms if self.element[i] != 1]
+        groups = _UnionFind(heavy_atoms)
+        heavy_bonds = [(i, j) for i, j in self.union if self.element[i] != 1 and self.element[j] != 1]
+        for i, j in heavy_bonds:
+            if self._permanent(i, j):
+                groups.join(i, j)
+        while True:
+            links: dict[tuple[int, int], int] = {}
+            for i, j in heavy_bonds:
+                a, b = groups.find(i), groups.find(j)
+                if a != b:
+                    links[(min(a, b), max(a, b))] = links.get((min(a, b), max(a, b)), 0) + 1
+            rings = [pair for pair, count in sorted(links.items()) if count > 1]
+            if not rings:
+                break
+            for a, b in rings:
+                groups.join(a, b)
+        self.bridging = {h for h in self.drawn_h
+                         if len({groups.find(n) for n in self.neighbours[h] if self.element[n] != 1}) != 1}
+        everything = _UnionFind(i for i in self.atoms if i not in self.bridging)
+        for i in heavy_atoms:
+            everything.join(i, groups.find(i))
+        for h in self.drawn_h - self.bridging:
+            for n in self.neighbours[h]:
+                if n not in self.bridging:
+                    everything.join(h, n)
+        self.rings: list[list[int]] = []
+        self.clusters = [_Cluster(g, self._depict(g)) for g in everything.groups()]
+        self.cluster_of = {a: k for k, c in enumerate(self.clusters) for a in c.atoms}
+        self.main = min(range(len(self.clusters)), key=lambda k: (-len(self.clusters[k].atoms), self.clusters[k].atoms[0]))
+
+    def _depict(self, group: list[int]) -> dict[int, complex]:
+        """RDKit 2D coordinates of one cluster's union graph, scaled to unit bond length."""
+        if len(group) == 1:
+            return {group[0]: 0j}
+        index = {atom: k for k, atom in enumerate(group)}
+        mol = Chem.RWMol()
+        for atom in group:
+            mol.AddAtom(Chem.Atom(self.element[atom]))
+        orders = {1: Chem.BondType.SINGLE, 2: Chem.BondType.DOUBLE, 3: Chem.BondType.TRIPLE}
+        for (i, j), order in sorted(self.union.items()):
+            if i in index and j in index:
+                mol.AddBond(index[i], index[j], orders.get(order, Chem.BondType.SINGLE))
+        mol.UpdatePropertyCache(strict=False)
+        Chem.FastFindRings(mol)
+        self.rings += [[group[k] for k in ring] for ring in Chem.GetSymmSSSR(mol)]
+        with _rdkit_depictor():
+            rdDepictor.Compute2DCoords(mol, canonOrient=True)
+        conf = mol.GetConformer()
+        lengths = [(conf.GetAtomPosition(b.GetBeginAtomIdx()) - conf.GetAtomPosition(b.GetEndAtomIdx())).Length()
+                   for b in mol.GetBonds()]
+        scale = 1.0 / (sum(lengths) / len(lengths)) if lengths else 1.0
+        # y is flipped: RDKit's y grows upwards, ours downwards.
+        return {atom: complex(conf.GetAtomPosition(k).x * scale, -conf.GetAtomPosition(k).y * scale)
+                for atom, k in index.items()}
+
+    def _holder(self, k: int, h: int) -> Optional[int]:
+        for n in self.states[k].mol.GetAtomWithIdx(h).GetNeighbors():
+            return n.GetIdx()
+        return None
+
+    def _residences(self) -> dict[int, list[_Residence]]:
+        out: dict[int, list[_Residence]] = {}
+        for h in sorted(self.bridging):
+            runs: list[_Residence] = []
+            for k in range(self.n):
+                # Released panels count too: a hydrogen that leaves with a fragment still
+                # ties the fragment's placement to the step it leaves in.
+                if h >= self.states[k].mol.GetNumAtoms():
+                    continue
+                holder = self._holder(k, h)
+                if runs and runs[-1].holder == holder and runs[-1].last == k - 1:
+                    runs[-1].last = k
+                else:
+                    runs.append(_Residence(h, holder, k, k))
+            out[h] = runs
+        return out
+
+    def _residing(self, k: int, atoms: set[int]) -> set[int]:
+        """Travelling hydrogens held by `atoms` in panel k."""
+        return {r.hydrogen for runs in self.residences.values() for r in runs
+                if r.first <= k <= r.last and r.holder in atoms}
+
+    def _segments(self, index: int) -> list[tuple[int, int]]:
+        """Runs of panels in which the cluster must stay put: it may move between panels k and
+        k+1 only if the step between them touches every atom of it (and every travelling
+        hydrogen it holds throughout)."""
+        atoms = set(self.clusters[index].atoms)
+        present = [k for k in range(self.n) if atoms & self.exists[k]]
+        segments: list[tuple[int, int]] = []
+        for k in present:
+            if segments and segments[-1][1] == k - 1 and not self._movable(atoms, k - 1):
+                segments[-1] = (segments[-1][0], k)
+            else:
+                segments.append((k, k))
+        return segments
+
+    def _movable(self, atoms: set[int], k: int) -> bool:
+        here = (atoms & self.exists[k] & self.exists[k + 1]) | (self._residing(k, atoms) & self._residing(k + 1, atoms))
+        return bool(here) and here <= self.touched[k]
+
+    # placing clusters
+    def _segment_of(self, index: int, k: int) -> Optional[tuple[int, int]]:
+        for seg in self.clusters[index].segments:
+            if seg[0] <= k <= seg[1]:
+                return seg
+        return None
+
+    def _placed_at(self, index: int, k: int) -> bool:
+        seg = self._segment_of(index, k)
+        return seg is not None and seg[0] in self.clusters[index].placement
+
+    def _apply(self, index: int) -> None:
+        cluster = self.clusters[index]
+        for start, end in cluster.segments:
+            if start not in cluster.placement:
+                continue
+            rotation, shift, _ = cluster.placement[start]
+            for k in range(start, end + 1):
+                for atom in cluster.atoms:
+                    if atom in self.exists[k]:
+                        self.positions[k][atom] = shift + rotation * cluster.local[atom]
+
+    def _events(self) -> list[tuple[int, str, int, int, Optional[int]]]:
+        """(panel, kind, atom a, atom b, hydrogen) in the order they happen: a bond to a leaving
+        fragment that exists in panel k, or a hydrogen leaving atom a for atom b at step k."""
+        events = []
+        for k in range(self.n):
+            for i, j in sorted(self.bonds_in[k]):
+                if i in self.cluster_of and j in self.cluster_of and self.cluster_of[i] != self.cluster_of[j]:
+                    events.append((k, "bond", i, j, None))
+        for h, runs in self.residences.items():
+            for before, after in zip(runs, runs[1:]):
+                if before.holder is not None and after.holder is not None and after.first == before.last + 1:
+                    events.append((before.last, "hop", before.holder, after.holder, h))
+        return sorted(events, key=lambda e: (e[0], e[1] != "bond", e[2], e[3]))
+
+    def _place_by_events(self) -> bool:
+        """Place every unplaced run of panels that an event ties to a placed cluster."""
+        progress = False
+        # Bonds first: the skeleton decides where there is room; hydrogens and the partners
+        # they travel to take what is left.
+        events = sorted(self._events(), key=lambda e: e[1] != "bond")
+        for k, kind, a, b, h in events:
+            ca, cb = self.cluster_of.get(a), self.cluster_of.get(b)
+            if ca is None or cb is None or ca == cb:
+                continue
+            placed_a, placed_b = self._placed_at(ca, k), self._placed_at(cb, k)
+            if placed_a == placed_b:
+                continue
+            anchor, mover = (a, b) if placed_a else (b, a)
+            self._place_segment(self.cluster_of[mover], self._segment_of(self.cluster_of[mover], k), k,
+                                anchor, mover, kind, h)
+            progress = True
+            if kind == "bond":
+                return True
+        return progress
+
+    def _roomiest(self, atom: int, k: int, hydrogen: Optional[int] = None, prefer: Optional[complex] = None,
+                  reach: float = 1.0) -> complex:
+        """The direction from `atom` with the most room for a new neighbour at `reach`: away from
+        its bonds and promised hydrogens, out of ring interiors, away from nearby atoms."""
+        centre = self.positions[k][atom]
+        taken = [_unit(p - centre) for p in self._occupied_around(atom, k, hydrogen) if abs(p - centre) > 1e-9]
+        near = [p for a, p in self.positions[k].items() if a != atom and abs(p - centre) < reach + 1.3]
+        polygons = [[self.positions[k][a] for a in ring] for ring in self._closed_rings(k)]
+        best, best_score = None, -math.inf
+        for step in range(36):
+            d = cmath.rect(1.0, step * math.pi / 18)
+            spot = centre + d * reach
+            if any(_inside(spot, poly) for poly in polygons):
+                continue
+            angle = min((abs(cmath.phase(d / t)) for t in taken), default=math.pi)
+            room = min((abs(spot - p) for p in near), default=2.0)
+            score = min(angle, math.radians(70)) / math.radians(70) + 0.6 * min(room, 1.2)
+            if prefer is not None:
+                score += 0.15 * (d / _unit(prefer)).real
+            if score > best_score + 1e-9:
+                best, best_score = d, score
+        return best if best is not None else free_direction(centre, [centre + t for t in taken], prefer)
+
+    def _closed_rings(self, k: int) -> list[list[int]]:
+        """Rings of the depiction whose every bond exists in panel k (an open ring's mouth is
+        free space)."""
+        out = []
+        for ring in self.rings:
+            if all(a in self.positions[k] for a in ring) and all(
+                    (min(a, b), max(a, b)) in self.bonds_in[k] for a, b in zip(ring, ring[1:] + ring[:1])):
+                out.append(ring)
+        return out
+
+    def _occupied_around(self, atom: int, k: int, hydrogen: Optional[int] = None) -> list[complex]:
+        """Positions around `atom` in panel k that a new neighbour must avoid: its union
+        neighbours, atoms closer than 1.1 bond lengths, and directions promised to hydrogens."""
+        centre = self.positions[k][atom]
+        around = [self.positions[k][n] for n in self.neighbours[atom] if n in self.positions[k]]
+        around += [p for a, p in self.positions[k].items() if a != atom and 1e-6 < abs(p - centre) < 1.1]
+        for runs in self.residences.values():
+            for r in runs:
+                if r.holder == atom and r.direction is not None and r.hydrogen != hydrogen:
+                    around.append(centre + r.direction)
+        return around
+
+    def _place_segment(self, index: int, segment: tuple[int, int], k: int, anchor: int, mover: int, kind: str,
+                       hydrogen: Optional[int]) -> None:
+        cluster = self.clusters[index]
+        residence = self._residence_at(hydrogen, anchor, k) if hydrogen is not None else None
+        if residence is not None and residence.direction is not None and residence.last == k:
+            u = residence.direction
+        else:
+            u = self._roomiest(anchor, k, hydrogen)
+        own = [cluster.local[n] for n in self.neighbours[mover] if n in cluster.local]
+        v = free_direction(cluster.local[mover], own, prefer=-u)
+        distance = 1.0 if kind == "bond" else 1.0 + TRANSFER_GAP
+        others = {a: p for kk in range(segment[0], segment[1] + 1) for a, p in self.positions[kk].items()
+                  if a not in cluster.atoms and a != hydrogen}
+        polygons = [[others[a] for a in ring] for kk in range(segment[0], segment[1] + 1)
+                    for ring in self._closed_rings(kk) if all(a in others for a in ring)]
         best = None
         for turn in (0, 1, -1, 2, -2, 3, -3):
-            for extra in (0.0, 0.5, 1.0, 2.0):
-                direction = u * cmath.rect(1.0, turn * math.pi / 9) if turn else u
-                target = placed[anchor] + direction * (1 + TRANSFER_GAP + extra)
-                rotation = (-direction / v) if abs(v) > 0 else 1
-                rotation /= abs(rotation)
-                moved = {a: target + (p - coords[mover]) * rotation for a, p in coords.items()}
-                gap = min((abs(p - q) for p in moved.values() for q in placed.values()), default=9.0)
-                score = (gap >= _CLEARANCE, -abs(turn) - extra, gap)
-                if best is None or score > best[0]:
-                    best = (score, moved, direction, rotation)
-            if best and best[0][0]:
+            direction = u * cmath.rect(1.0, turn * math.pi / 9)
+            for spin in (0, 1, -1, 2, -2, 6):
+                rotation = _unit(-direction / v) * cmath.rect(1.0, spin * math.pi / 6)
+                for extra in ((0.0,) if kind == "bond" else (0.0, 0.5, 1.0)):
+                    target = self.positions[k][anchor] + direction * (distance + extra)
+                    moved = [target + (p - cluster.local[mover]) * rotation for p in cluster.local.values()]
+                    gap = min((abs(p - q) for p in moved for a, q in others.items() if a != anchor), default=9.0)
+                    if any(_inside(p, poly) for p in moved for poly in polygons):
+                        gap = 0.0     # never inside someone else's ring
+                    score = (min(gap, _CLEARANCE), -abs(turn) - abs(spin) * 0.7 - extra)
+                    if best is None or score > best[0]:
+                        best = (score, rotation, target - cluster.local[mover] * rotation, direction)
+            if best[0][0] >= _CLEARANCE:
                 break
-        _, moved, direction, rotation = best
-        placed.update(moved)
-        slots.setdefault(anchor, []).append(direction)
-        slots.setdefault(mover, []).append(-direction)
-        done.add(k)
-    return placed
+        _, rotation, shift, direction = best
+        cluster.placement[segment[0]] = (rotation, shift, direction)
+        self._apply(index)
+        if hydrogen is not None:
+            self._promise(hydrogen, anchor, k, direction)
 
+    def _residence_at(self, h: int, holder: int, k: int) -> Optional[_Residence]:
+        for r in self.residences.get(h, []):
+            if r.holder == holder and (r.first <= k <= r.last or r.first == k + 1):
+                return r
+        return None
 
-def _hydrogen_links(bridging: set[int], states: Sequence[ElectronState],
-                    cluster_of: dict[int, int]) -> list[tuple[int, int, int, int]]:
-    """(panel, atom holding the hydrogen, atom taking it, hydrogen) for every hop of a bridging
-    hydrogen between clusters, in the order they happen."""
-    hops = []
-    for h in sorted(bridging):
-        previous = None
-        for k, state in enumerate(states):
-            if h >= state.mol.GetNumAtoms():
+    def _promise(self, h: int, anchor: int, k: int, direction: complex) -> None:
+        """The hydrogen points along `direction` while on the anchor and back along it on the
+        partner, around the hop at step k."""
+        runs = self.residences[h]
+        for before, after in zip(runs, runs[1:]):
+            if before.last == k and after.first == k + 1:
+                # The hop a hydrogen is about to make decides where it points; where it came
+                # from only matters if it goes nowhere next.
+                before.direction = direction if before.holder == anchor else -direction
+                if after.direction is None:
+                    after.direction = -direction if before.holder == anchor else direction
+
+    def _waiting(self, index: int, segment: tuple[int, int], following: tuple) -> tuple:
+        """Where a cluster waits before the run in which it is bonded: pulled back along the
+        line it comes in on, clear of everything else."""
+        rotation, shift, direction = following
+        if direction is None:
+            return following
+        cluster = self.clusters[index]
+        others = [p for k in range(segment[0], segment[1] + 1) for a, p in self.positions[k].items()
+                  if a not in cluster.atoms]
+        polygons = [[self.positions[k][a] for a in ring] for k in range(segment[0], segment[1] + 1)
+                    for ring in self._closed_rings(k)]
+        best = None
+        for pull in (TRANSFER_GAP, 1.0, 2.0, 2.5, 3.0):
+            for side in (0.0, 0.6, -0.6, 1.2, -1.2):
+                moved = shift + direction * pull + direction * 1j * side
+                atoms = [moved + rotation * p for p in cluster.local.values()]
+                gap = min((abs(a - o) for a in atoms for o in others), default=9.0)
+                if any(_inside(a, poly) for a in atoms for poly in polygons):
+                    gap = 0.0
+                score = (min(gap, _CLEARANCE), -abs(pull - TRANSFER_GAP) - abs(side))
+                if best is None or score > best[0]:
+                    best = (score, moved)
+        return (rotation, best[1], direction)
+
+    def _place_leftovers(self) -> bool:
+        """Runs of panels no event placed. Before a cluster's first placed run it waits a little
+        further out along the line it will come in on (only atoms the next step touches may
+        move, and a new run starts only where they all are); after, it stays where it was. A
+        cluster that never meets another goes to the right of the drawing."""
+        for index, cluster in enumerate(self.clusters):
+            if not cluster.placement or len(cluster.placement) == len(cluster.segments):
                 continue
-            holder = _holder(state, h)
-            if holder is not None and previous is not None and holder != previous[1] \
-                    and cluster_of.get(holder) != cluster_of.get(previous[1]):
-                hops.append((previous[0], previous[1], holder, h))
-            if holder is not None:
-                previous = (k, holder)
-    return sorted(hops)
+            following = None
+            for start, end in reversed(cluster.segments):
+                if start in cluster.placement:
+                    following = cluster.placement[start]
+                elif following is not None:
+                    cluster.placement[start] = self._waiting(index, (start, end), following)
+            previous = None
+            for start, _ in cluster.segments:
+                if start in cluster.placement:
+                    previous = cluster.placement[start]
+                else:
+                    cluster.placement[start] = previous
+            self._apply(index)
+            return True
+        unplaced = [k for k, c in enumerate(self.clusters) if not c.placement]
+        if not unplaced:
+            return False
+        index = min(unplaced, key=lambda k: (-len(self.clusters[k].atoms), self.clusters[k].atoms[0]))
+        cluster = self.clusters[index]
+        everything = [p for panel in self.positions for p in panel.values()]
+        right = max((p.real for p in everything), default=0.0)
+        mid_y = sum(p.imag for p in everything) / len(everything) if everything else 0.0
+        left = min(p.real for p in cluster.local.values())
+        cy = sum(p.imag for p in cluster.local.values()) / len(cluster.local)
+        for start, _ in cluster.segments:
+            cluster.placement[start] = (1 + 0j, complex(right + 1.8 - left, mid_y - cy), None)
+        self._apply(index)
+        return True
 
+    # travelling hydrogens
+    def _place_hydrogens(self) -> None:
+        for h, runs in sorted(self.residences.items()):
+            for n, r in enumerate(runs):
+                if r.holder is None or r.holder not in self.positions[r.first]:
+                    continue
+                if r.direction is None:
+                    r.direction = self._hydrogen_direction(h, runs, n)
+                for k in range(r.first, r.last + 1):
+                    if r.holder in self.positions[k]:
+                        self.positions[k][h] = self.positions[k][r.holder] + r.direction
+            for r in runs:
+                if r.holder is None:
+                    for k in range(r.first, r.last + 1):
+                        if h in self.exists[k]:
+                            self.positions[k][h] = self._free_proton(h, k)
+        for h, runs in sorted(self.residences.items()):
+            for r in runs:
+                self._untangle(r)
 
-def _holder(state: ElectronState, h: int) -> Optional[int]:
-    atom = state.mol.GetAtomWithIdx(h)
-    for n in atom.GetNeighbors():
-        return n.GetIdx()
-    return None
+    def _untangle(self, r: _Residence) -> None:
+        """Turn a travelling hydrogen that lands too close to another atom to the roomiest
+        direction nearby, the same in every panel it stays on its holder."""
+        panels = [k for k in range(r.first, r.last + 1) if r.holder in self.positions[k] and r.hydrogen in self.positions[k]]
+        if not panels or r.direction is None:
+            return
 
+        def room(direction: complex) -> float:
+            worst = math.inf
+            for k in panels:
+                spot = self.positions[k][r.holder] + direction
+                for a, p in self.positions[k].items():
+                    if a not in (r.hydrogen, r.holder):
+                        worst = min(worst, abs(spot - p))
+            return worst
 
-def _place_aside(placed: dict[int, complex], coords: dict[int, complex]) -> None:
-    """A species that exchanges nothing with the rest goes to the right of the drawing."""
-    right = max((p.real for p in placed.values()), default=0.0)
-    mid_y = sum(p.imag for p in placed.values()) / len(placed) if placed else 0.0
-    left = min(p.real for p in coords.values())
-    cy = sum(p.imag for p in coords.values()) / len(coords)
-    shift = complex(right + 1.8 - left, mid_y - cy)
-    placed.update({a: p + shift for a, p in coords.items()})
+        if room(r.direction) >= 0.85:
+            return
+        bonds = [_unit(self.positions[panels[0]][n] - self.positions[panels[0]][r.holder])
+                 for n in self.neighbours[r.holder] if n != r.hydrogen and n in self.positions[panels[0]]]
+        polygons = [[self.positions[k][a] for a in ring] for k in panels for ring in self._closed_rings(k)]
+        best, best_score = r.direction, room(r.direction)
+        for step in range(24):
+            d = cmath.rect(1.0, step * math.pi / 12)
+            if any(abs(cmath.phase(d / b)) < math.radians(35) for b in bonds):
+                continue
+            if any(_inside(self.positions[panels[0]][r.holder] + d, poly) for poly in polygons):
+                continue
+            score = min(room(d), 1.2) + 0.1 * (d / r.direction).real
+            if score > best_score + 0.05:
+                best, best_score = d, score
+        r.direction = best
+        for k in panels:
+            self.positions[k][r.hydrogen] = self.positions[k][r.holder] + best
 
+    def _hydrogen_direction(self, h: int, runs: list[_Residence], n: int) -> complex:
+        """Toward the partner the hydrogen goes to next (or came from), if that side is free."""
+        r = runs[n]
+        k = r.first
+        centre = self.positions[k][r.holder]
+        partner = None
+        if n + 1 < len(runs) and runs[n + 1].holder is not None and runs[n + 1].holder in self.positions[r.last]:
+            partner = self.positions[r.last][runs[n + 1].holder] - self.positions[r.last][r.holder]
+        elif n > 0 and runs[n - 1].holder is not None and runs[n - 1].holder in self.positions[k]:
+            partner = self.positions[k][runs[n - 1].holder] - centre
+        return self._roomiest(r.holder, k, h, prefer=partner)
 
-def _hydrogen_position(h: int, state: ElectronState, positions: dict[int, complex],
-                       neighbours: dict[int, set[int]]) -> complex:
-    """A travelling hydrogen sits one bond from its holder, pointing at the partner it moves
-    to or came from; a free proton sits between the atoms it will join."""
-    holder = _holder(state, h)
-    partners = sorted(n for n in neighbours[h] if n in positions and n != holder)
-    if holder is None:
-        ends = [positions[n] for n in sorted(neighbours[h]) if n in positions]
+    def _free_proton(self, h: int, k: int) -> complex:
+        ends = [self.positions[k][n] for n in sorted(self.neighbours[h]) if n in self.positions[k]]
         return sum(ends) / len(ends) if ends else 0j
-    base = positions[holder]
-    if partners:
-        target = min((positions[n] for n in partners), key=lambda p: abs(p - base))
-        if abs(target - base) > 1e-9:
-            return base + (target - base) / abs(target - base)
-    return base + 1

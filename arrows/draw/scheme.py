@@ -117,7 +117,8 @@ class _SceneBuilder:
         sources = _panel_sources(self.trace)
         states = [s.state for s in sources]
         moves = [list(s.leaving.change.moves) if s.leaving else [] for s in sources]
-        layout = compute_layout(states, moves)
+        touched = [set(s.leaving.change.touched_atoms) if s.leaving else set() for s in sources]
+        layout = compute_layout(states, moves, touched)
         panels = []
         for k, (src, placed) in enumerate(zip(sources, layout.panels)):
             panels.append(self._panel(k, src, placed, layout.drawn_hydrogens, moves[k]))

@@ -84,11 +84,11 @@ def clearance(direction: complex, occupied: list[complex]) -> float:
     return min((_angle_gap(direction, o) for o in occupied), default=math.pi)
 
 
-def best_direction(occupied: list[complex], preferred: complex, spread: float = 0.25) -> complex:
-    """The direction (every 15 degrees) with the most room, leaning to `preferred`."""
+def best_direction(occupied: list[complex], preferred: complex, spread: float = 0.25, steps: int = 24) -> complex:
+    """The direction (one of `steps` around the circle) with the most room, leaning to `preferred`."""
     best, best_score = preferred, -math.inf
-    for k in range(24):
-        d = cmath.rect(1.0, k * math.pi / 12)
+    for k in range(steps):
+        d = cmath.rect(1.0, k * 2 * math.pi / steps)
         room = min(clearance(d, occupied), math.radians(75))
         score = room - spread * _angle_gap(d, preferred)
         if score > best_score + 1e-9:
@@ -149,7 +149,11 @@ class StructureDrawer:
         point = (p.real, p.imag)
         hidden_h = atom.GetNumExplicitHs() + sum(
             1 for n in atom.GetNeighbors() if n.GetAtomicNum() == 1 and n.GetIdx() not in drawn_hydrogens)
-        if atom.GetAtomicNum() == 6 and neighbours:
+        # Skeletal carbons are vertices, charged and radical ones too (the sign or dot sits
+        # beside the vertex); only a bare terminal carbon with electrons of its own and no
+        # hydrogen, as in cyanide, gets its letter.
+        bare_end = len(neighbours) == 1 and hidden_h == 0 and (atom.GetFormalCharge() or state.nonbonding[i])
+        if atom.GetAtomicNum() == 6 and neighbours and not bare_end:
             return AtomDrawing(i, name, symbol, point)
         fs, ss = self.style.font_size, self.style.small_size
         baseline = p.imag + self.cap / 2
@@ -210,36 +214,59 @@ class StructureDrawer:
         p, q = out.positions[i], out.positions[j]
         pad = 0.12 * self.style.font_size
         box_i, box_j = out.atoms[i].box, out.atoms[j].box
-        a, b = clip_from(p, q, box_i, pad), clip_from(q, p, box_j, pad)
-        length = abs(q - p) or 1.0
-        u = (q - p) / length
+        u = (q - p) / (abs(q - p) or 1.0)
         n = u * 1j
         gap = 0.18 * bl
-        lines: list[tuple[complex, complex]] = []
-        extent = 0.0
-        if order == 1 or order > 3:
-            lines.append((a, b))
-        elif order == 3:
-            lines += [(a, b), (a + n * gap * 0.8, b + n * gap * 0.8), (a - n * gap * 0.8, b - n * gap * 0.8)]
-            extent = gap * 0.8
-        else:
+
+        def line(offset: complex, trim: float = 0.0) -> tuple[complex, complex]:
+            """A stroke parallel to the bond, clipped at labels; at a bare vertex a centred
+            stroke meets the neighbouring bond on its side, an inner stroke stops short."""
+            start = clip_from(p + offset, q + offset, box_i, pad) if box_i is not None else \
+                p + offset + u * (trim or self._join(p, u, offset, [out.positions[m] for m in neighbours[i] if m != j]))
+            end = clip_from(q + offset, p + offset, box_j, pad) if box_j is not None else \
+                q + offset - u * (trim or self._join(q, -u, offset, [out.positions[m] for m in neighbours[j] if m != i]))
+            return start, end
+
+        if order == 2:
             side = self._double_side(i, j, out.positions, neighbours, rings)
             if side == 0:
-                lines += [(a + n * gap / 2, b + n * gap / 2), (a - n * gap / 2, b - n * gap / 2)]
-                extent = gap / 2
+                lines, extent = [line(n * gap / 2), line(-n * gap / 2)], gap / 2
             else:
-                trim = 0.14 * bl
-                start = a + u * (0 if box_i is not None else trim)
-                end = b - u * (0 if box_j is not None else trim)
-                lines += [(a, b), (start + side * n * gap, end + side * n * gap)]
-                extent = gap
+                lines, extent = [line(0), line(side * n * gap, trim=0.14 * bl)], gap
+        elif order == 3:
+            lines, extent = [line(0), line(n * gap * 0.8), line(-n * gap * 0.8)], gap * 0.8
+        else:
+            lines, extent = [line(0)], 0.0
         colour = INK
         if self.style.color and role == "formed":
             colour = FORMED_COLOUR
         elif self.style.color and role == "broken":
             colour = BROKEN_COLOUR
         out.bond_extent[(min(i, j), max(i, j))] = extent
-        return BondDrawing((i, j), order, tuple(((s.real, s.imag), (e.real, e.imag)) for s, e in lines), role, colour)
+        return BondDrawing((i, j), order, tuple(((round(s.real, 4), round(s.imag, 4)), (round(e.real, 4), round(e.imag, 4)))
+                                                for s, e in lines), role, colour)
+
+    @staticmethod
+    def _join(vertex: complex, u: complex, offset: complex, others: list[complex]) -> float:
+        """How far along u a stroke offset from the bond axis starts so that it meets the
+        neighbouring bond on its side (negative: it starts behind the vertex)."""
+        if abs(offset) < 1e-9:
+            return 0.0
+        best = None
+        for other in others:
+            v = other - vertex
+            if abs(v) < 1e-9:
+                continue
+            v = v / abs(v)
+            # Same side of the axis as the offset, and not nearly parallel to it.
+            if ((v / u).imag > 0) != ((offset / u).imag > 0) or abs((v / u).imag) < 0.2:
+                continue
+            # vertex + offset + t*u = vertex + s*v  ->  solve for t.
+            det = (u.conjugate() * v).imag
+            t = -((offset.conjugate() * v).imag) / det if abs(det) > 1e-9 else 0.0
+            if best is None or abs(t) < abs(best):
+                best = t
+        return 0.0 if best is None else max(min(best, 0.5 * abs(offset) * 4), -abs(offset) * 2)
 
     def _double_side(self, i: int, j: int, positions: dict[int, complex], neighbours: dict[int, list[int]],
                      rings: list[list[int]]) -> int:
@@ -253,8 +280,13 @@ class StructureDrawer:
             return 1 if ((centre - p) / u).imag > 0 else -1
         others_i = [n for n in neighbours[i] if n != j]
         others_j = [n for n in neighbours[j] if n != i]
-        if not others_i or not others_j:
+        if not others_i and not others_j:
             return 0
+        if not others_i or not others_j:
+            # A terminal atom: centred when the other end carries two substituents (C=O of a
+            # ketone), else on the side of the one substituent (as in an aldehyde or =CH2).
+            if len(others_i) + len(others_j) != 1:
+                return 0
         total = sum(((positions[n] - p) / u).imag for n in others_i) + \
             sum(((positions[n] - p) / u).imag for n in others_j)
         if abs(total) < 1e-6:

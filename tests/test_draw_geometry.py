@@ -1,0 +1,222 @@
+"""Geometry of drawn schemes, checked on the Scene (the data the SVG is written from).
+
+Sources for the rules checked here:
+- IUPAC Recommendations 2008, "Graphical representation standards for chemical structure
+  diagrams", Pure Appl. Chem. 2008, 80, 277-410 (references.md): one bond length throughout a
+  diagram; labels do not overlap each other or bonds.
+- Curved-arrow notation (common practice in organic chemistry texts): an arrow starts at the
+  electrons it moves (a lone pair's dots or a bond's midpoint) and its head points at the atom or
+  the bond that receives them; an arrow does not run through atom labels.
+- RDKit as an independent judge: the bonds drawn in every panel are the bonds of RDKit's Mol of
+  that state, with RDKit's bond orders and formal charges.
+"""
+from __future__ import annotations
+
+import math
+from itertools import combinations
+from pathlib import Path
+
+import pytest
+from rdkit import Chem
+
+import arrows
+from arrows.draw import STYLES, build_scene
+
+ROOT = Path(__file__).resolve().parents[1]
+GALLERY = sorted((ROOT / "gallery").glob("*.mech"))
+
+# Small mechanisms of our own (demo scenarios) that reach cases the gallery may not: a radical
+# pair, a leaving group, a proton shuttle, a species entering mid-way, a triple bond.
+OWN = {
+    "coupling": """\
+species a = "C[CH2:1]"
+species b = "C[CH2:2]"
+step "couple"
+    .C1 ~> C1-C2
+    .C2 ~> C1-C2
+end
+""",
+    "entering": """\
+species alkoxide = "CC[O-:1]"
+step "protonation"
+    uses acid = "[OH3+:2]"
+    :O1 -> H(O2)
+    O2-H -> O2
+end
+""",
+    "homolysis": """\
+species peroxide = "C[O:1][O:2]C"
+step "split" under "hv"
+    O1-O2 ~> O1
+    O1-O2 ~> O2
+end
+""",
+    "ionisation": """\
+species substrate = "C[C:2](C)(C)[Cl:1]"
+step "ionisation"
+    C2-Cl1 -> Cl1
+    releases Cl1
+end
+""",
+    "nitrile": """\
+species nitrile = "[CH3:1][C:2]#[N:3]"
+species base = "[NH2-:4]"
+step "deprotonation"
+    :N4 -> H(C1)
+    C1-H -> C1
+end
+step "resonance" resonance
+    :C1 -> C1=C2
+    C2#N3 -> N3
+end
+""",
+    "shuttle": """\
+species cation = "C[C+:1](C)C"
+species water = "[OH2:2]"
+species water_2 = "[OH2:3]"
+step "capture"
+    :O2 -> C1
+end
+step "deprotonation"
+    :O3 -> H(O2)
+    O2-H -> O2
+end
+product "CC(C)(C)O.[OH3+]"
+""",
+}
+
+
+def _mechanisms():
+    out = [pytest.param(path.read_text(encoding="utf-8"), path.name, id=path.stem) for path in GALLERY]
+    out += [pytest.param(text, name, id=name) for name, text in OWN.items()]
+    return out
+
+
+def _scene(text: str, name: str, style: str = "two-column", **options):
+    trace, diags = arrows.check_text(text, name)
+    assert trace is not None and trace.initial is not None, [d.to_text() for d in diags]
+    return trace, diags, build_scene(trace, STYLES[style].with_options(**options), diags)
+
+
+def _distance(p, q) -> float:
+    return math.hypot(p[0] - q[0], p[1] - q[1])
+
+
+def _touched(trace, step):
+    return set(trace.steps[step].change.touched_atoms)
+
+
+def test_own_mechanisms_are_valid():
+    """The demo mechanisms above replay without errors (otherwise they test nothing)."""
+    for name, text in OWN.items():
+        _, diags = arrows.check_text(text, name)
+        assert not [d for d in diags if d.severity == "error"], (name, [d.to_text() for d in diags])
+
+
+@pytest.mark.parametrize("text,name", _mechanisms())
+def test_one_bond_length(text, name):
+    """Every bond of every panel is within 2% of the scheme's one bond length (IUPAC 2008)."""
+    _, _, scene = _scene(text, name)
+    for panel in scene.panels:
+        where = {a.index: a.position for a in panel.atoms}
+        for bond in panel.bonds:
+            length = _distance(where[bond.atoms[0]], where[bond.atoms[1]]) / scene.bond_length
+            assert 0.98 <= length <= 1.02, (panel.index, bond.atoms, length)
+
+
+@pytest.mark.parametrize("text,name", _mechanisms())
+def test_labels_do_not_overlap(text, name):
+    """No two atom labels of one panel overlap (IUPAC 2008)."""
+    _, _, scene = _scene(text, name)
+    for panel in scene.panels:
+        labelled = [a for a in panel.atoms if a.box is not None]
+        for a, b in combinations(labelled, 2):
+            assert not a.box.overlaps(b.box), (panel.index, a.name, b.name)
+
+
+@pytest.mark.parametrize("text,name", _mechanisms())
+def test_arrows_avoid_other_labels(text, name):
+    """No curved arrow runs through the label of an atom it neither starts nor ends at
+    (curved-arrow notation, common practice)."""
+    _, _, scene = _scene(text, name)
+    for panel in scene.panels:
+        for arrow in panel.arrows:
+            own = set(arrow.source_atoms) | set(arrow.sink_atoms) | set(arrow.target_atoms)
+            for atom in panel.atoms:
+                if atom.box is None or atom.index in own:
+                    continue
+                hits = [p for p in arrow.path_points(80) if atom.box.contains(p)]
+                assert not hits, (panel.index, arrow.move, atom.name)
+
+
+@pytest.mark.parametrize("text,name", _mechanisms())
+def test_arrows_start_at_their_source_and_end_at_their_sink(text, name):
+    """The tail lies within a quarter bond length of the electrons it moves (lone-pair dots,
+    unpaired electron or bond midpoint) and the head within a quarter bond length of what
+    receives them (the atom's label, or the midpoint of the bond that forms or gains order);
+    common practice of curved-arrow notation."""
+    _, _, scene = _scene(text, name)
+    quarter = 0.25 * scene.bond_length
+    for panel in scene.panels:
+        dots = {m.atom: m for m in panel.marks if m.kind in ("lone_pair", "radical")}
+        for arrow in panel.arrows:
+            assert _distance(arrow.start, arrow.source_point) <= quarter, (panel.index, arrow.move, "tail")
+            if arrow.source_kind in ("lone_pair", "unpaired"):
+                mark = dots[arrow.source_atoms[0]]
+                centre = tuple(sum(c) / len(mark.dots) for c in zip(*mark.dots))
+                assert _distance(centre, arrow.source_point) < 1e-3
+            else:
+                a, b = (next(x.position for x in panel.atoms if x.index == i) for i in arrow.source_atoms)
+                assert _distance(arrow.source_point, ((a[0] + b[0]) / 2, (a[1] + b[1]) / 2)) < 1e-3
+            if arrow.sink_box is not None:
+                assert arrow.sink_box.distance(arrow.tip) <= quarter, (panel.index, arrow.move, "head")
+            else:
+                assert _distance(arrow.tip, arrow.sink_point) <= quarter, (panel.index, arrow.move, "head")
+
+
+@pytest.mark.parametrize("text,name", _mechanisms())
+def test_heads_of_one_step_are_apart(text, name):
+    """Two arrows of one step never share a head position."""
+    _, _, scene = _scene(text, name)
+    for panel in scene.panels:
+        for a, b in combinations(panel.arrows, 2):
+            assert _distance(a.tip, b.tip) > 0.2 * scene.bond_length, (panel.index, a.move, b.move)
+
+
+@pytest.mark.parametrize("text,name", _mechanisms())
+def test_untouched_atoms_stay_put(text, name):
+    """Atoms a step does not touch move less than 0.05 bond lengths between its two panels."""
+    trace, _, scene = _scene(text, name)
+    for before, after in zip(scene.panels, scene.panels[1:]):
+        if before.step is None or not after.atoms:
+            continue
+        touched = _touched(trace, before.step)
+        where = {a.index: a.position for a in after.atoms}
+        for atom in before.atoms:
+            if atom.index in where and atom.index not in touched:
+                moved = _distance(atom.position, where[atom.index]) / scene.bond_length
+                assert moved < 0.05, (before.index, atom.name, moved)
+
+
+@pytest.mark.parametrize("text,name", _mechanisms())
+def test_bonds_and_charges_are_rdkit_s(text, name):
+    """Each panel draws exactly the bonds between its drawn atoms in RDKit's Mol of that state,
+    with RDKit's bond orders, and a charge mark for each atom RDKit gives a formal charge."""
+    trace, _, scene = _scene(text, name)
+    states = [s.before for s in trace.steps] + [trace.steps[-1].after] if trace.steps else [trace.initial]
+    for panel, state in zip(scene.panels, states):
+        mol = Chem.Mol(state.mol)
+        Chem.SanitizeMol(mol)
+        drawn = {a.index for a in panel.atoms}
+        expected = {(min(b.GetBeginAtomIdx(), b.GetEndAtomIdx()), max(b.GetBeginAtomIdx(), b.GetEndAtomIdx())): b
+                    for b in mol.GetBonds() if b.GetBeginAtomIdx() in drawn and b.GetEndAtomIdx() in drawn}
+        got = {tuple(sorted(b.atoms)): b.order for b in panel.bonds}
+        assert set(got) == set(expected), panel.index
+        for key, bond in expected.items():
+            if bond.GetIsAromatic():
+                assert got[key] in (1, 2), (panel.index, key)   # one Kekule form of the ring
+            else:
+                assert got[key] == int(bond.GetBondTypeAsDouble()), (panel.index, key)
+        charged = {a.GetIdx() for a in mol.GetAtoms() if a.GetFormalCharge() and a.GetIdx() in drawn}
+        marked = {m.atom for m in panel.marks if m.kind == "charge"}
+        assert marked == charged, panel.index
