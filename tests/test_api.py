@@ -232,3 +232,39 @@ def test_the_documented_examples_run(monkeypatch, capsys):
     for block in blocks:
         exec(compile(block, "docs-api.md", "exec"), session)
     assert "deprotonation" in capsys.readouterr().out
+
+
+# --- printing any Mechanism the model can hold -------------------------------------------------
+
+def _mechanisms():
+    """Random Mechanisms built from model objects (any text the language can quote)."""
+    from hypothesis import strategies as st
+    from arrows.model import (AtomRef, AtomSink, BareAtom, BondPair, BondRef, BondSink, Checkpoint, HydrogenOn,
+                              LonePair, Mechanism, Move, Species, Step, UnpairedElectron)
+    text = st.text(st.characters(blacklist_characters='"\n\x00', blacklist_categories=("Cs",)), max_size=12)
+    name = st.from_regex(r"[A-Za-z_][A-Za-z0-9_]{0,6}", fullmatch=True)
+    mapped = st.builds(AtomRef, st.sampled_from(["C", "O", "N", "Br", "Si", "H"]), st.integers(1, 999))
+    atom = st.one_of(mapped, st.builds(HydrogenOn, mapped))
+    bond = st.builds(BondRef, atom, atom, st.sampled_from([1, 2, 3]))
+    source = st.one_of(st.builds(LonePair, atom), st.builds(UnpairedElectron, atom), st.builds(BondPair, bond),
+                       st.builds(BareAtom, atom))
+    sink = st.one_of(st.builds(AtomSink, atom), st.builds(BondSink, bond))
+    move = st.builds(Move, source, sink, st.sampled_from([1, 2]))
+    species = st.builds(Species, name, text)
+    checkpoint = st.builds(Checkpoint, text, st.booleans())
+    step = st.builds(Step, text, st.sampled_from(["forward", "reversible", "resonance"]), st.none() | text,
+                     st.none() | text, st.tuples(species) | st.just(()), st.lists(move, max_size=4).map(tuple),
+                     st.lists(mapped, max_size=2).map(tuple), st.lists(checkpoint, max_size=2).map(tuple))
+    return st.builds(Mechanism, st.none() | text, st.none() | text, st.lists(species, max_size=3).map(tuple),
+                     st.lists(step, max_size=3).map(tuple), st.none() | checkpoint)
+
+
+def test_any_printable_mechanism_round_trips():
+    from hypothesis import given, settings
+
+    @settings(max_examples=300, deadline=None)
+    @given(_mechanisms())
+    def round_trip(mechanism):
+        assert arrows.parse(mechanism.to_text()) == mechanism
+
+    round_trip()
