@@ -51,14 +51,6 @@ def _built_in_code() -> arrows.Mechanism:
         product="CC(=O)C1=C(C)CCC1")
 
 
-def _has_renderer() -> bool:
-    import arrows.draw
-    return hasattr(arrows.draw, "render")
-
-
-needs_renderer = pytest.mark.skipif(not _has_renderer(), reason="arrows.draw.render is not there yet")
-
-
 # --- round trips -------------------------------------------------------------------------------
 
 @pytest.mark.parametrize("path", GALLERY, ids=[p.name for p in GALLERY])
@@ -168,21 +160,18 @@ def test_an_empty_diagnostic_list_says_so():
     assert "no findings" in arrows.Diagnostics()._repr_html_()
 
 
-@needs_renderer
 def test_repr_svg_is_well_formed_svg():
     svg = arrows.parse(TEXT)._repr_svg_()
     root = ET.fromstring(svg)
     assert root.tag.endswith("svg")
 
 
-@needs_renderer
 def test_draw_gives_figure_bytes():
     mechanism = arrows.parse(TEXT)
     assert mechanism.draw("png").startswith(b"\x89PNG")
     assert mechanism.draw("pdf").startswith(b"%PDF")
 
 
-@needs_renderer
 def test_a_broken_mechanism_draws_only_when_forced_and_shows_in_jupyter():
     from arrows.draw import DrawError
     mechanism = arrows.parse(BROKEN)
@@ -211,7 +200,6 @@ def test_notebook_shows_the_diagnostic_table(tmp_path):
     assert html and "AR204" in html[0]
 
 
-@needs_renderer
 def test_notebook_load_check_draw_cell_shows_svg(tmp_path):
     (tmp_path / "ring.mech").write_text(TEXT, encoding="utf-8")
     outputs = _run_notebook(tmp_path, "import arrows\nm = arrows.load('ring.mech')\nassert not m.check().errors\nm")
@@ -220,7 +208,6 @@ def test_notebook_load_check_draw_cell_shows_svg(tmp_path):
     ET.fromstring(svgs[0])
 
 
-@needs_renderer
 def test_the_documented_examples_run(monkeypatch, capsys):
     """Every python block of the API documentation runs as written, in order, from the repository root."""
     import re

@@ -185,12 +185,6 @@ def test_two_saves_give_two_reruns(tmp_path):
     assert [c for c in runs.results[before + 1] if c.startswith("AR2") or c.startswith("AR3")] == []
 
 
-def _has_renderer() -> bool:
-    import arrows.draw
-    return hasattr(arrows.draw, "render")
-
-
-@pytest.mark.skipif(not _has_renderer(), reason="arrows.draw.render is not there yet")
 def test_two_saves_redraw_the_figure_twice(tmp_path):
     from arrows.watch import render_figure
     source, figure = tmp_path / "da.mech", tmp_path / "da.svg"
