@@ -223,3 +223,10 @@ def test_exported_mechanisms_check_clean_as_a_data_set(tmp_path):
     results = [json.loads(line) for line in done.stdout.splitlines() if line.strip()]
     assert [r["id"] for r in results] == [p.stem for p in GALLERY]
     assert all(r["errors"] == 0 for r in results)
+
+
+def test_an_unwritable_output_is_a_message_not_a_traceback(tmp_path):
+    target = tmp_path / "no-such-folder" / "out.json"
+    done = _arrows_main("export", str(GALLERY[0]), "--to", "json", "-o", str(target))
+    assert done.returncode == 2
+    assert done.stderr.startswith(f"{target}:1:1: error: cannot write") and "Traceback" not in done.stderr

@@ -9,6 +9,7 @@ import click
 from ..api import checked
 from ..diagnostics import ERROR, MechanismError
 from ..language import load
+from .output import emit
 
 
 def _one_line(label: str) -> str:
@@ -47,8 +48,4 @@ def export_command(file, target, output):
     else:
         from ..mechanism_json import dumps
         text = dumps(mechanism, trace, diagnostics)
-    if output:
-        from ..batch.atomic import write_text
-        write_text(output, text)
-    else:
-        click.echo(text, nl=False)
+    emit(text, output)

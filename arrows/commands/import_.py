@@ -8,6 +8,7 @@ import click
 from ..diagnostics import MechanismError
 from ..mechanism_json import load
 from ..writer import to_text
+from .output import emit
 
 
 @click.command("import")
@@ -27,8 +28,4 @@ def import_command(file, output):
             click.echo(d.to_text(), err=True)
         sys.exit(2)
     text = to_text(mechanism)
-    if output:
-        from ..batch.atomic import write_text
-        write_text(output, text)
-    else:
-        click.echo(text, nl=False)
+    emit(text, output)

@@ -7,6 +7,7 @@ from pathlib import Path
 import click
 
 from ..numbering import numbered, numbered_smiles
+from .output import emit
 
 FIGURE_SUFFIXES = (".svg", ".png")
 
@@ -38,12 +39,10 @@ def number_command(smiles, first, output):
         sys.exit(2)
     click.echo(numbered_smiles(mol))
     if output:
-        from ..batch.atomic import write_bytes
         from ..numbering import numbered_svg
-        svg = numbered_svg(mol)
+        svg = numbered_svg(mol).encode("utf-8")
         if output.lower().endswith(".png"):
             import cairosvg
-            write_bytes(output, cairosvg.svg2png(bytestring=svg.encode("utf-8"), scale=2))
-        else:
-            write_bytes(output, svg.encode("utf-8"))
+            svg = cairosvg.svg2png(bytestring=svg, scale=2)
+        emit(svg, output)
         click.echo(f"drew {output}", err=True)
