@@ -4,7 +4,8 @@ reactants>>products).
 Which molecules: the fragments that take part in the step, i.e. every fragment holding an atom
 whose electrons the step moves, before the step on the left and after it on the right. The two
 sides hold the same atoms: a bond that breaks or forms has both its atoms touched. Spectators and
-fragments released in earlier steps are left out.
+fragments released in earlier steps are left out. A step without moves changes nothing and is
+written as `>>`.
 
 Atom maps: every atom keeps the map number written in the mechanism; each unmapped atom (and each
 hydrogen the engine made explicit because a move names it) gets a fresh number above the largest
