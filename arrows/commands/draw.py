@@ -81,6 +81,10 @@ def draw_command(file, output, fmt, style, color, numbers, cip, step_labels, no_
     except OSError as exc:
         click.echo(f"{output}: cannot write: {exc.strerror or exc}", err=True)
         sys.exit(2)
+    except Exception as exc:  # a renderer failure is reported, never shown as a traceback
+        click.echo(f"{file}: not drawn: the renderer failed ({type(exc).__name__}: {exc}); nothing was written",
+                   err=True)
+        sys.exit(1)
     for note in scene.notes:
         click.echo(f"{file}: note: {note}", err=True)
     click.echo(f"wrote {output}", err=True)

@@ -16,7 +16,6 @@ arc is avoided, and two heads of one step never share a position.
 from __future__ import annotations
 
 import cmath
-import itertools
 import math
 from dataclasses import dataclass
 
@@ -30,7 +29,7 @@ from .styles import Style
 _SAMPLES = 20
 _ANGLES = (math.radians(30), math.radians(48), math.radians(66))
 _SHORT_ANGLES = (math.radians(55), math.radians(75), math.radians(95))
-_KEEP = 6          # candidates per arrow that enter the joint choice
+_KEEP = 4          # candidates per arrow that enter the joint choice
 _T = np.linspace(0.0, 1.0, _SAMPLES + 1)
 _BERNSTEIN = np.stack([(1 - _T) ** 3, 3 * _T * (1 - _T) ** 2, 3 * _T ** 2 * (1 - _T), _T ** 3])
 
@@ -118,12 +117,9 @@ class ArrowPlanner:
         self._separate_shared_sinks(moves, sinks, panel)
         sources = [self._source(move, panel, sink, marks) for move, sink in zip(moves, sinks)]
         obstacles = _Obstacles(panel, marks, self.bl)
-        options = []
-        for move, src, snk in zip(moves, sources, sinks):
-            candidates = self._candidates(src, snk, panel)
-            self._score(candidates, src, snk, move, obstacles)
-            candidates.sort(key=lambda c: c.cost)
-            options.append(candidates[:_KEEP])
+        everything = [self._candidates(src, snk, panel) for src, snk in zip(sources, sinks)]
+        self._score(everything, sources, sinks, moves, obstacles)
+        options = [sorted(candidates, key=lambda c: c.cost)[:_KEEP] for candidates in everything]
         chosen = self._choose(options)
         arrows = [self._arrow(step, move, src, snk, cand, panel)
                   for move, src, snk, cand in zip(moves, sources, sinks, chosen)]
@@ -240,96 +236,115 @@ class ArrowPlanner:
         return n if (direction / n).real >= 0 else -n
 
     # penalties
-    def _score(self, candidates: list[_Candidate], src: _Anchor, snk: _Anchor, move: ResolvedMove,
-               ob: _Obstacles) -> None:
+    def _score(self, groups: list[list[_Candidate]], sources: list[_Anchor], sinks: list[_Anchor],
+               moves: list[ResolvedMove], ob: _Obstacles) -> None:
+        """Penalties of every candidate of every arrow of the panel, in one batch."""
         bl = self.bl
+        candidates = [c for g in groups for c in g]
+        owner = np.repeat(np.arange(len(groups)), [len(g) for g in groups])
         pts = np.stack([c.points for c in candidates])                    # (C, S)
         p0 = np.array([c.p0 for c in candidates])[:, None]
         tip = np.array([c.tip for c in candidates])[:, None]
         inner = (np.abs(pts - p0) > 0.22 * bl) & (np.abs(pts - tip) > 0.22 * bl)
         x, y = pts.real[:, :, None], pts.imag[:, :, None]
-        own = set(move.source_atoms) | set(move.sink_atoms)
-        is_own = np.array([a in own for a in ob.atom_ids], dtype=bool)
+        owns = [set(m.source_atoms) | set(m.sink_atoms) for m in moves]
         cost = np.zeros(len(candidates))
         if len(ob.atom_ids):
+            is_own = np.array([[a in own for a in ob.atom_ids] for own in owns], dtype=bool)[owner][:, None, :]
             inside = (x >= ob.boxes[:, 0]) & (x <= ob.boxes[:, 2]) & (y >= ob.boxes[:, 1]) & (y <= ob.boxes[:, 3])
             inside &= ob.labelled & inner[:, :, None]
-            weight = np.where(is_own, 40.0, 100.0)
-            cost += (inside * weight).sum(axis=(1, 2))
+            cost += (inside * np.where(is_own, 40.0, 100.0)).sum(axis=(1, 2))
             dist = np.abs(pts[:, :, None] - ob.atom_xy)
-            limit = np.where(is_own, 0.12 * bl, 0.24 * bl)
-            near = (dist < limit) & ~ob.labelled & inner[:, :, None]
+            near = (dist < np.where(is_own, 0.12 * bl, 0.24 * bl)) & ~ob.labelled & inner[:, :, None]
             cost += (near * np.where(is_own, 10.0, 30.0)).sum(axis=(1, 2))
             # Bulging into the molecule: atoms crowding the middle third of the curve.
             middle = dist[:, _SAMPLES // 3: 2 * _SAMPLES // 3 + 1, :]
             cost += 3.0 * np.clip(1.1 - middle / bl, 0, None).sum(axis=(1, 2))
         if len(ob.marks):
             hit = (x >= ob.marks[:, 0]) & (x <= ob.marks[:, 2]) & (y >= ob.marks[:, 1]) & (y <= ob.marks[:, 3])
-            mine = np.isin(ob.mark_owner, list(src.atoms)) if src.kind == "dots" else np.zeros(len(ob.marks), bool)
-            hit &= inner[:, :, None] & ~mine
-            cost += 30.0 * hit.sum(axis=(1, 2))
+            mine = np.array([np.isin(ob.mark_owner, list(src.atoms)) if src.kind == "dots"
+                             else np.zeros(len(ob.marks), bool) for src in sources])[owner][:, None, :]
+            cost += 30.0 * (hit & inner[:, :, None] & ~mine).sum(axis=(1, 2))
         if ob.bond_pairs:
-            skip = set()
-            if src.kind == "bond":
-                skip.add(tuple(sorted(src.atoms)))
-            if snk.kind == "bond":
-                skip.add(tuple(sorted(snk.atoms)))
-            weight = np.array([0.0 if pair in skip else 6.0 if (pair[0] in own or pair[1] in own) else 18.0
-                               for pair in ob.bond_pairs])
+            weights = []
+            for src, snk, own in zip(sources, sinks, owns):
+                skip = {tuple(sorted(a.atoms)) for a in (src, snk) if a.kind == "bond"}
+                weights.append([0.0 if pair in skip else 6.0 if (pair[0] in own or pair[1] in own) else 18.0
+                                for pair in ob.bond_pairs])
             crossings = _crossing_counts(pts, ob.bond_a, ob.bond_b)          # (C, E)
-            cost += (crossings * weight).sum(axis=1)
-        if src.kind == "dots":
-            # Leaving the dots back across the atom reads as coming from the wrong place.
-            leave = np.array([(c.p1 - c.p0) / (abs(c.p1 - c.p0) or 1.0) for c in candidates])
-            facing = (leave * np.conj(src.outward)).real
-            cost += np.where(facing < -0.2, 20.0, 0.0)
+            cost += (crossings * np.array(weights)[owner]).sum(axis=1)
+        outward = np.array([src.outward if src.kind == "dots" else 0j for src in sources])[owner]
+        leave = np.array([c.p1 - c.p0 for c in candidates])
+        leave = leave / np.maximum(np.abs(leave), 1e-9)
+        # Leaving the dots back across the atom reads as coming from the wrong place.
+        cost += np.where((outward != 0) & ((leave * np.conj(outward)).real < -0.2), 20.0, 0.0)
         cost += np.abs(np.diff(pts, axis=1)).sum(axis=1) / bl
-        for c, value in zip(candidates, cost):
-            c.cost = float(value)
+        for c, value in zip(candidates, cost.tolist()):
+            c.cost = value
 
-    def _pair_cost(self, a: _Candidate, b: _Candidate) -> float:
+    def _pair_costs(self, options: list[list[_Candidate]]) -> dict[tuple[int, int], np.ndarray]:
+        """Penalty of drawing candidate a of arrow i with candidate b of arrow j, for every pair
+        of kept candidates at once: heads too close, shafts alongside, shafts crossing."""
         bl = self.bl
-        cost = 0.0
-        if abs(a.tip - b.tip) < 0.45 * bl:
-            cost += 150.0
-        ap, bp = a.points[2:-1], b.points[2:-1]
-        if abs(a.p0 - b.p0) < 0.3 * bl:     # arrows from one bond may share their start
-            ap = ap[np.abs(ap - a.p0) > 0.35 * bl]
-        d = np.abs(ap[:, None] - bp[None, :]) if len(ap) and len(bp) else np.zeros((0, 0))
-        if d.size:
-            cost += 10.0 * float((d.min(axis=1) < 0.15 * bl).sum())
-        cost += 20.0 * float(_crossing_counts(a.points[None, :], b.points[:-1], b.points[1:]).sum())
-        return cost
+        flat = [c for o in options for c in o]
+        owner = np.repeat(np.arange(len(options)), [len(o) for o in options])
+        tips = np.array([c.tip for c in flat])
+        starts = np.array([c.p0 for c in flat])
+        pts = np.stack([c.points[::2] for c in flat])                     # (C, S/2)
+        cost = np.where(np.abs(tips[:, None] - tips[None, :]) < 0.45 * bl, 150.0, 0.0)
+        body = pts[:, 1:-1]
+        d = np.abs(body[:, None, :, None] - body[None, :, None, :])       # (C, C, s, s)
+        # Arrows from one bond may share their start: closeness right at a shared start is fine.
+        shared = (np.abs(starts[:, None] - starts[None, :]) < 0.3 * bl)[:, :, None]
+        near_start = (np.abs(body - starts[:, None]) < 0.35 * bl)[:, None, :]
+        cost += 20.0 * ((d.min(axis=3) < 0.15 * bl) & ~(shared & near_start)).sum(axis=2)
+        coarse = np.stack([c.points[::4] for c in flat])                  # five chords per curve
+        x, y = coarse.real, coarse.imag
+        ax, ay, bx, by = x[:, :-1], y[:, :-1], x[:, 1:], y[:, 1:]         # (C, s)
+        P = (ax[:, None, :, None], ay[:, None, :, None], bx[:, None, :, None], by[:, None, :, None])
+        Q = (ax[None, :, None, :], ay[None, :, None, :], bx[None, :, None, :], by[None, :, None, :])
+
+        def orient(ux, uy, vx, vy, wx, wy):
+            return (vx - ux) * (wy - uy) - (vy - uy) * (wx - ux)
+
+        hit = ((orient(*P, Q[0], Q[1]) * orient(*P, Q[2], Q[3]) < 0)
+               & (orient(*Q, P[0], P[1]) * orient(*Q, P[2], P[3]) < 0))
+        cost += 20.0 * hit.sum(axis=(2, 3))
+        out = {}
+        for i in range(len(options)):
+            for j in range(i + 1, len(options)):
+                out[(i, j)] = cost[np.ix_(owner == i, owner == j)]
+        return out
 
     def _choose(self, options: list[list[_Candidate]]) -> list[_Candidate]:
+        """The combination of one candidate per arrow with the least total penalty: exhaustive
+        for up to four arrows, coordinate descent beyond."""
         n = len(options)
         if n == 0:
             return []
-        cache: dict[tuple[int, int, int, int], float] = {}
-
-        def pair(i: int, a: int, j: int, b: int) -> float:
-            key = (i, a, j, b)
-            if key not in cache:
-                cache[key] = self._pair_cost(options[i][a], options[j][b])
-            return cache[key]
-
-        def total(pick) -> float:
-            value = sum(options[i][pick[i]].cost for i in range(n))
+        single = [np.array([c.cost for c in o]) for o in options]
+        pairs = self._pair_costs(options) if n > 1 else {}
+        if n <= 4:
+            total = np.zeros([len(o) for o in options])
             for i in range(n):
-                for j in range(i + 1, n):
-                    value += pair(i, pick[i], j, pick[j])
-            return value
-
-        sizes = [len(o) for o in options]
-        if math.prod(sizes) <= 1300:
-            best = min(itertools.product(*(range(s) for s in sizes)), key=total)
+                shape = [1] * n
+                shape[i] = len(options[i])
+                total = total + single[i].reshape(shape)
+            for (i, j), matrix in pairs.items():
+                shape = [1] * n
+                shape[i], shape[j] = matrix.shape
+                total = total + matrix.reshape(shape)
+            best = np.unravel_index(int(np.argmin(total)), total.shape)
         else:
-            pick = [0] * n
-            for _ in range(3):
+            best = [int(np.argmin(c)) for c in single]
+            for _ in range(4):
                 for i in range(n):
-                    pick[i] = min(range(sizes[i]), key=lambda a, i=i: total(pick[:i] + [a] + pick[i + 1:]))
-            best = tuple(pick)
-        return [options[i][best[i]] for i in range(n)]
+                    value = single[i].copy()
+                    for j in range(n):
+                        if j != i:
+                            value += pairs[(i, j)][:, best[j]] if i < j else pairs[(j, i)][best[j], :]
+                    best[i] = int(np.argmin(value))
+        return [options[i][int(best[i])] for i in range(n)]
 
     # the final arrow
     def _arrow(self, step: int, move: ResolvedMove, src: _Anchor, snk: _Anchor, c: _Candidate,
@@ -365,7 +380,7 @@ class ArrowPlanner:
 def _parameter_at_distance(p0: complex, p1: complex, p2: complex, p3: complex, distance: float) -> float:
     """The parameter t (near the end) where the curve is `distance` from its end point."""
     lo, hi = 0.0, 1.0
-    for _ in range(30):
+    for _ in range(16):
         mid = (lo + hi) / 2
         if abs(bezier(p0, p1, p2, p3, mid) - p3) > distance:
             lo = mid

@@ -24,6 +24,7 @@ from contextlib import contextmanager
 from dataclasses import dataclass, field
 from typing import Iterable, Iterator, Optional, Sequence
 
+import numpy as np
 from rdkit import Chem
 from rdkit.Chem import rdDepictor
 
@@ -433,22 +434,32 @@ class _LayoutBuilder:
                   if a not in cluster.atoms and a != hydrogen}
         polygons = [[others[a] for a in ring] for kk in range(segment[0], segment[1] + 1)
                     for ring in self._closed_rings(kk) if all(a in others for a in ring)]
+        anchor_at = self.positions[k][anchor]
+        near = np.array([q for a, q in others.items() if a != anchor], dtype=complex)
+        local = np.array(list(cluster.local.values()), dtype=complex) - cluster.local[mover]
+        options = sorted(((abs(turn) + abs(spin) * 0.7 + extra, turn, spin, extra)
+                          for turn in (0, 1, -1, 2, -2, 3, -3) for spin in (0, 1, -1, 2, -2, 6)
+                          for extra in ((0.0,) if kind == "bond" else (0.0, 0.5, 1.0))))
         best = None
-        for turn in (0, 1, -1, 2, -2, 3, -3):
+        # In order of preference; the first that keeps its distance from everything wins.
+        for penalty, turn, spin, extra in options:
             direction = u * cmath.rect(1.0, turn * math.pi / 9)
-            for spin in (0, 1, -1, 2, -2, 6):
-                rotation = _unit(-direction / v) * cmath.rect(1.0, spin * math.pi / 6)
-                for extra in ((0.0,) if kind == "bond" else (0.0, 0.5, 1.0)):
-                    target = self.positions[k][anchor] + direction * (distance + extra)
-                    moved = [target + (p - cluster.local[mover]) * rotation for p in cluster.local.values()]
-                    gap = min((abs(p - q) for p in moved for a, q in others.items() if a != anchor), default=9.0)
-                    if any(_inside(p, poly) for p in moved for poly in polygons):
-                        gap = 0.0     # never inside someone else's ring
-                    score = (min(gap, _CLEARANCE), -abs(turn) - abs(spin) * 0.7 - extra)
-                    if best is None or score > best[0]:
-                        best = (score, rotation, target - cluster.local[mover] * rotation, direction)
-            if best[0][0] >= _CLEARANCE:
+            rotation = _unit(-direction / v) * cmath.rect(1.0, spin * math.pi / 6)
+            target = anchor_at + direction * (distance + extra)
+            moved = target + local * rotation
+            gap = float(np.abs(moved[:, None] - near[None, :]).min()) if len(near) else 9.0
+            if best is not None and min(gap, _CLEARANCE) <= best[0]:
+                continue
+            if any(_inside(complex(p), poly) for p in moved for poly in polygons):
+                continue      # never inside someone else's ring
+            best = (min(gap, _CLEARANCE), rotation, target - cluster.local[mover] * rotation, direction)
+            if gap >= _CLEARANCE:
                 break
+        if best is None:
+            direction = u
+            rotation = _unit(-direction / v)
+            target = anchor_at + direction * distance
+            best = (0.0, rotation, target - cluster.local[mover] * rotation, direction)
         _, rotation, shift, direction = best
         cluster.placement[segment[0]] = (rotation, shift, direction)
         self._apply(index)

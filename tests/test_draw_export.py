@@ -1,0 +1,219 @@
+"""Figures as files: SVG, PDF and PNG of every gallery mechanism, true page sizes, escaping,
+atomic writes, and the `arrows draw` command's behaviour.
+
+Sources: column widths of chemistry journals, single about 8.3 cm and double about 17.1 cm
+(references.md, "Figures"; common practice, memory); a 16:9 slide of 13.33 x 7.5 in (common
+practice); the PNG pixel size is the page size in inches times the dpi (definition of dpi);
+XML escaping of `<` and `&` (W3C XML 1.0, section 2.4).
+"""
+from __future__ import annotations
+
+import io
+import struct
+import xml.etree.ElementTree as ET
+from pathlib import Path
+
+import pypdf
+import pytest
+from click.testing import CliRunner
+
+import arrows
+from arrows.cli import cli
+from arrows.draw import STYLES, DrawError, render, render_svg
+
+ROOT = Path(__file__).resolve().parents[1]
+GALLERY = sorted((ROOT / "gallery").glob("*.mech"))
+MM_PER_PT = 25.4 / 72
+SVG_NS = "{http://www.w3.org/2000/svg}"
+
+BROKEN = """\
+title "Forgotten pi bond <script>alert(1)</script> & co"
+species ketone = "C[C:2](=[O:3])C"
+species base = "[OH-:4]"
+step "addition" over "NaOH & H2O <1 h>"
+    :O4 -> C2
+end
+"""
+
+CLEAN = """\
+title "Proton transfer <script>alert('x')</script> & friends"
+caption "Water & hydroxide: a <b>demo</b>."
+species alkoxide = "CC[O-:1]"
+species water = "[OH2:2]"
+step "protonation" reversible over "H2O & <cat.>" under "25 °C"
+    :O1 -> H(O2)
+    O2-H -> O2
+end
+"""
+
+
+def _trace(path: Path):
+    trace, diags = arrows.check_file(path)
+    assert trace is not None and trace.initial is not None
+    return trace, diags
+
+
+def _png_size(data: bytes) -> tuple[int, int]:
+    assert data[:8] == b"\x89PNG\r\n\x1a\n"
+    return struct.unpack(">II", data[16:24])
+
+
+@pytest.mark.parametrize("path", GALLERY, ids=lambda p: p.stem)
+def test_gallery_mechanism_renders_to_all_formats(path):
+    trace, diags = _trace(path)
+    style = STYLES["two-column"]
+    svg = render(trace, "svg", style=style, diagnostics=diags)
+    root = ET.fromstring(svg)
+    assert root.tag == SVG_NS + "svg"
+    assert root.find(SVG_NS + "title").text == (trace.mechanism.title or path.name)
+    assert root.find(SVG_NS + "desc").text
+
+    pdf = pypdf.PdfReader(io.BytesIO(render(trace, "pdf", style=style, diagnostics=diags)))
+    page = pdf.pages[0]
+    assert abs(float(page.mediabox.width) * MM_PER_PT - style.page_width_mm) <= 1.0
+    text = " ".join(page.extract_text().split())
+    assert " ".join(trace.mechanism.title.split()) in text
+
+    png = render(trace, "png", style=style, dpi=150, diagnostics=diags)
+    width, height = _png_size(png)
+    width_in = float(root.get("width").removesuffix("pt")) / 72
+    height_in = float(root.get("height").removesuffix("pt")) / 72
+    assert abs(width - width_in * 150) <= 1 and abs(height - height_in * 150) <= 1
+
+
+@pytest.mark.parametrize("name,width_mm,height_mm", [("one-column", 83.0, None), ("two-column", 171.0, None),
+                                                     ("slide", 338.67, 190.5)])
+def test_page_has_the_preset_physical_size(name, width_mm, height_mm):
+    trace, diags = _trace(GALLERY[0])
+    page = pypdf.PdfReader(io.BytesIO(render(trace, "pdf", style=name, diagnostics=diags))).pages[0]
+    assert abs(float(page.mediabox.width) * MM_PER_PT - width_mm) <= 1.0
+    if height_mm is not None:
+        assert abs(float(page.mediabox.height) * MM_PER_PT - height_mm) <= 1.0
+        assert abs(float(page.mediabox.width) / float(page.mediabox.height) - 16 / 9) < 0.01
+
+
+def test_pdf_fonts_are_embedded():
+    trace, diags = _trace(GALLERY[0])
+    page = pypdf.PdfReader(io.BytesIO(render(trace, "pdf", diagnostics=diags))).pages[0]
+    fonts = page["/Resources"]["/Font"]
+    assert fonts
+    for ref in fonts.values():
+        font = ref.get_object()
+        descendant = font["/DescendantFonts"][0].get_object() if "/DescendantFonts" in font else font
+        descriptor = descendant["/FontDescriptor"].get_object()
+        assert any(key in descriptor for key in ("/FontFile", "/FontFile2", "/FontFile3"))
+
+
+def test_png_size_follows_dpi():
+    trace, diags = _trace(GALLERY[0])
+    root = ET.fromstring(render_svg(trace, diagnostics=diags))
+    width_in = float(root.get("width").removesuffix("pt")) / 72
+    for dpi in (72, 300):
+        width, _ = _png_size(render(trace, "png", dpi=dpi, diagnostics=diags))
+        assert abs(width - width_in * dpi) <= 1
+
+
+def test_user_text_is_escaped():
+    trace, diags = arrows.check_text(CLEAN, "demo.mech")
+    assert not [d for d in diags if d.severity == "error"]
+    svg = render_svg(trace, diagnostics=diags)
+    assert "<script" not in svg and "<b>" not in svg
+    assert "&lt;script&gt;" in svg and "&amp; friends" in svg and "H2O &amp; &lt;cat.&gt;" in svg
+    root = ET.fromstring(svg)
+    assert root.find(SVG_NS + "title").text == "Proton transfer <script>alert('x')</script> & friends"
+    assert "<b>demo</b>" in root.find(SVG_NS + "desc").text
+    texts = [t.text for t in root.iter(SVG_NS + "text")]
+    assert "H2O & <cat.>" in texts
+
+
+def test_errors_block_drawing_unless_forced():
+    trace, diags = arrows.check_text(BROKEN, "broken.mech")
+    assert any(d.severity == "error" for d in diags)
+    with pytest.raises(DrawError):
+        render_svg(trace, diagnostics=diags)
+    svg = render_svg(trace, force=True, diagnostics=diags)
+    root = ET.fromstring(svg)
+    texts = " ".join(t.text for t in root.iter(SVG_NS + "text"))
+    assert "AR301" in texts and "error 1" in texts
+    assert root.find(f".//{SVG_NS}circle[@stroke-dasharray]") is not None   # the atom named by the error
+
+
+def _run(*args):
+    return CliRunner().invoke(cli, list(args), catch_exceptions=False)
+
+
+def test_cli_draws_each_format(tmp_path):
+    for suffix in ("svg", "pdf", "png"):
+        out = tmp_path / f"scheme.{suffix}"
+        result = _run("draw", str(GALLERY[0]), "-o", str(out), "--style", "one-column")
+        assert result.exit_code == 0, result.output
+        assert out.stat().st_size > 0
+    assert [p.name for p in tmp_path.iterdir() if p.name.startswith(".")] == []
+
+
+def test_cli_refuses_errors_and_draws_them_with_force(tmp_path):
+    source = tmp_path / "broken.mech"
+    source.write_text(BROKEN, encoding="utf-8")
+    out = tmp_path / "broken.svg"
+    result = _run("draw", str(source), "-o", str(out))
+    assert result.exit_code == 1 and not out.exists()
+    assert "AR301" in result.output and "--force" in result.output
+    result = _run("draw", str(source), "-o", str(out), "--force")
+    assert result.exit_code == 1 and out.exists()
+    ET.fromstring(out.read_text(encoding="utf-8"))
+
+
+def test_cli_usage_errors(tmp_path):
+    result = _run("draw", str(GALLERY[0]), "-o", str(tmp_path / "scheme.txt"))
+    assert result.exit_code == 2 and ".svg, .pdf or .png" in result.output
+    result = _run("draw", str(GALLERY[0]), "-o", str(tmp_path / "missing" / "scheme.svg"))
+    assert result.exit_code == 2 and "does not exist" in result.output
+    result = _run("draw", str(tmp_path / "nothere.mech"), "-o", str(tmp_path / "x.svg"))
+    assert result.exit_code == 2 and "AR100" in result.output
+
+
+def test_failed_render_leaves_no_file(tmp_path, monkeypatch):
+    """The figure is written to a temporary file and renamed; a renderer that fails half-way
+    leaves neither a partial figure nor the temporary file, and an older figure stays."""
+    import arrows.draw.export as export
+    out = tmp_path / "scheme.pdf"
+    out.write_bytes(b"old figure")
+
+    def failing(svg, fmt, dpi=300):
+        raise RuntimeError("renderer crashed")
+
+    monkeypatch.setattr(export, "convert", failing)
+    result = _run("draw", str(GALLERY[0]), "-o", str(out))
+    assert result.exit_code == 1 and "renderer failed" in result.output
+    assert out.read_bytes() == b"old figure"
+    assert sorted(p.name for p in tmp_path.iterdir()) == ["scheme.pdf"]
+
+
+def test_write_atomic_cleans_up_when_the_rename_fails(tmp_path, monkeypatch):
+    import os
+    from arrows.draw.export import write_atomic
+    target = tmp_path / "figure.svg"
+
+    def refuse(src, dst):
+        raise OSError("disk full")
+
+    monkeypatch.setattr(os, "replace", refuse)
+    with pytest.raises(OSError):
+        write_atomic(target, b"<svg/>")
+    assert list(tmp_path.iterdir()) == []
+
+
+def test_styles_change_the_drawing():
+    trace, diags = _trace(GALLERY[0])
+    plain = render_svg(trace, diagnostics=diags)
+    coloured = render_svg(trace, style=STYLES["two-column"].with_options(color=True), diagnostics=diags)
+    numbered = render_svg(trace, style=STYLES["two-column"].with_options(numbers=True), diagnostics=diags)
+    assert "#0072B2" not in plain and "#0072B2" in coloured and "#D55E00" in coloured   # Okabe-Ito blue, vermillion
+    assert len(numbered) > len(plain)
+    big = render_svg(trace, style=STYLES["two-column"].with_options(font_size=10.0), diagnostics=diags)
+    assert 'font-size="10"' in big
+
+
+def test_drawing_is_byte_stable():
+    trace, diags = _trace(GALLERY[0])
+    assert render_svg(trace, diagnostics=diags) == render_svg(trace, diagnostics=diags)
