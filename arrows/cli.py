@@ -42,6 +42,8 @@ def cli():
 
 
 def main() -> None:
+    from .rdkit_io import quiet_rdkit   # only the command line silences a library's log
+    quiet_rdkit()
     try:
         cli.main(standalone_mode=False)
     except click.exceptions.Abort:

@@ -7,7 +7,7 @@ import re
 from contextlib import contextmanager
 from typing import Iterator, Optional
 
-from rdkit import Chem, RDLogger, rdBase
+from rdkit import Chem, rdBase
 
 _PERIODIC = Chem.GetPeriodicTable()
 
@@ -45,7 +45,13 @@ def rdkit_messages() -> Iterator[list[str]]:
 
 
 def quiet_rdkit() -> None:
-    RDLogger.DisableLog("rdApp.*")
+    """For the command line: RDKit's log goes nowhere unless rdkit_messages() collects it. What
+    matters is translated into diagnostics; the rest (such as RemoveHs warning about a lone proton)
+    would be noise on stderr."""
+    rdBase.LogToPythonLogger()
+    logger = logging.getLogger("rdkit")
+    logger.handlers = [logging.NullHandler()]
+    logger.propagate = False
 
 
 _POSITION = re.compile(r"position (\d+)")

@@ -281,6 +281,15 @@ def test_script_json_and_trace_from_another_folder(write, tmp_path):
     assert traced.returncode == 0 and "  SMILES   CO.[Br-]" in traced.stdout
 
 
+def test_script_trace_of_a_lone_proton_prints_no_rdkit_noise(write):
+    """Heterolysis of H-Br leaves a bare proton; RDKit's warning about removing it stays inside."""
+    path = write("proton.mech", 'species hbr = "[Br:1][H:2]"\nstep "ionization"\n    H2-Br1 -> Br1\nend\n')
+    proc = script("trace", path)
+    assert proc.returncode == 0, proc.stdout + proc.stderr
+    assert "[H+]" in proc.stdout
+    assert proc.stderr == ""
+
+
 @pytest.mark.parametrize("name, content, status, code, line, column, words", BAD_INPUT,
                          ids=[b[0] for b in BAD_INPUT])
 def test_script_bad_input(write, name, content, status, code, line, column, words):
