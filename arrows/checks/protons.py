@@ -10,7 +10,7 @@ from __future__ import annotations
 from contextlib import contextmanager
 from contextvars import ContextVar
 from dataclasses import dataclass
-from typing import Iterator, Optional
+from typing import Callable, Iterator, Optional
 
 from ..diagnostics import Diagnostic
 from ..judgement.acidity import Acidity, acidity_of, perceived
@@ -21,9 +21,11 @@ DEFAULT_PKA_GAP = 12.0
 _gap: ContextVar[float] = ContextVar("pka_gap", default=DEFAULT_PKA_GAP)
 
 
-def set_pka_gap(value: float) -> None:
-    """Set the uphill threshold (pKa units) for the checks that run after this call."""
-    _gap.set(value)
+def set_pka_gap(value: float) -> Callable[[], None]:
+    """Set the uphill threshold (pKa units) for the checks that run after this call; returns the
+    function that puts the previous value back."""
+    token = _gap.set(value)
+    return lambda: _gap.reset(token)
 
 
 @contextmanager
@@ -105,7 +107,7 @@ class UphillProtonTransfers:
                 label_b, label_x = st.before.label(t.base_atom), st.before.label(t.acid_atom)
                 yield Diagnostic(
                     "AR508",
-                    f"{base.base} (pKa of {base.acid} {base.shown}) removing {acid.acid} ({acid.shown}): "
+                    f"{base.base} (pKa of {base.acid} {base.shown}) removing {acid.site} ({acid.shown}): "
                     f"uphill by about {uphill:.0f} pKa units ({label_b} takes the proton of {label_x})",
                     t.loc, hint=f"a base whose conjugate acid has a pKa near {acid.shown} is needed, or another "
                     f"proton is meant; the threshold is {gap:g} units (`arrows check --pka-gap`)",

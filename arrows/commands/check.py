@@ -24,7 +24,9 @@ from ..diagnostics import ERROR, WARNING
               help="With --jsonl: worker processes [default: the machine's cores].")
 @click.option("--cluster", metavar="ADDRESS",
               help="With --jsonl: run on the Dask scheduler at ADDRESS (pip install 'arrows[cluster]').")
-def check_command(files, fmt, strict, quiet, jsonl, output, jobs, cluster):
+@click.option("--pka-gap", type=float, default=12.0, show_default=True,
+              help="Warn (AR508) when a proton transfer runs uphill by more than this many pKa units.")
+def check_command(files, fmt, strict, quiet, jsonl, output, jobs, cluster, pka_gap):
     """Replay every electron move in FILES and check every intermediate.
 
     Exit status: 0 clean, 1 errors found (or warnings with --strict), 2 unreadable input or bad usage.
@@ -37,6 +39,8 @@ def check_command(files, fmt, strict, quiet, jsonl, output, jobs, cluster):
         raise click.UsageError("give at least one mechanism file (or --jsonl FILE)")
     if output or jobs or cluster:
         raise click.UsageError("-o, --jobs and --cluster go with --jsonl")
+    from ..checks.protons import set_pka_gap
+    click.get_current_context().call_on_close(set_pka_gap(pka_gap))
     everything, unreadable, failing = [], False, False
     for path in files:
         _, diags = check_file(path)

@@ -24,7 +24,9 @@ def _state_lines(state: ElectronState) -> list[str]:
 
 @click.command("trace")
 @click.argument("file", type=click.Path())   # a missing file or a folder is reported as AR100
-def trace_command(file):
+@click.option("--stereo", is_flag=True, help="Also show stereo elements made or lost at each step, the "
+              "stereoisomers of the final state, and how stereo-specified checkpoints relate.")
+def trace_command(file, stereo):
     """Print the starting state and the state after every step: canonical SMILES, formula, net
     charge, and for each atom that changed its formal charge and lone pairs."""
     trace, diags = check_file(file)
@@ -66,6 +68,12 @@ def trace_command(file):
         for d in diags:
             if d.step == st.index and d.severity != ERROR:
                 click.echo(f"  {d.severity} {d.code} {d.message}")
+        if stereo:
+            from ._stereo_lines import step_lines
+            click.echo("\n".join(step_lines(st)))
+    if stereo:
+        from ._stereo_lines import final_lines
+        click.echo("\n".join(final_lines(trace)))
     problems = [d for d in diags if d.severity == ERROR]
     if problems:
         click.echo("")

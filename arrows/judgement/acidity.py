@@ -29,6 +29,11 @@ class Acidity:
     shown: str       # how the value is written in messages: "15.7", "~50", "19-20"
     source: str
 
+    @property
+    def site(self) -> str:
+        """The proton as the object of "removing ...": an alkane C-H, a proton of water."""
+        return self.acid if self.acid.endswith(("C-H", "N-H")) else f"a proton of {self.acid}"
+
 
 TABLE: tuple[Acidity, ...] = (
     Acidity("hydronium", "water", "[OX3H3+]", -1.7, "-1.7", TEXTBOOK),

@@ -1,0 +1,48 @@
+"""The lines `arrows trace --stereo` prints: stereo elements made or lost per step, relations
+between stereo-specified checkpoint structures, and the stereoisomers of the final state."""
+from __future__ import annotations
+
+from ..checks.stereo import final_stereo, step_stereo
+from ..judgement.stereo import CENTRE, describe, pairwise_relations
+from ..trace import StepTrace, Trace
+
+
+def _names(elements, label) -> str:
+    centres = [describe(e, label) for e in elements if e.kind == CENTRE]
+    bonds = [describe(e, label) for e in elements if e.kind != CENTRE]
+    parts = ([f"stereocentres {', '.join(centres)}" if len(centres) > 1 else f"stereocentre {centres[0]}"]
+             if centres else [])
+    parts += [f"double bond{'s' if len(bonds) > 1 else ''} {', '.join(bonds)} (E/Z)"] if bonds else []
+    return "; ".join(parts)
+
+
+def _relations(smiles: list[str]) -> list[str]:
+    fragments = [f for s in smiles for f in s.split(".")]
+    return [f"  stereo   {a} and {b}: {r}" for a, b, r in pairwise_relations(fragments)]
+
+
+def step_lines(st: StepTrace) -> list[str]:
+    made, lost = step_stereo(st)
+    label = st.after.label if st.after is not None else st.before.label
+    lines = []
+    if made:
+        lines.append(f"  stereo   new {_names(made, label)}")
+    if lost:
+        lines.append(f"  stereo   lost {_names(lost, label)}")
+    lines += _relations([c.smiles for c in st.step.expects])
+    return lines or ["  stereo   no change"]
+
+
+def final_lines(trace: Trace) -> list[str]:
+    lines = ["", "stereo"]
+    if trace.final is None:
+        return lines + ["  the final state was not derived"]
+    products = final_stereo(trace)
+    for p in products:
+        lines.append(f"  {p.smiles}: {_names(p.elements, trace.final.label)}; {p.stereoisomers} "
+                     f"stereoisomer{'s' if p.stereoisomers != 1 else ''} with no stereocontrol")
+    if not products:
+        lines.append("  no stereocentre or stereogenic double bond in the final state")
+    if trace.mechanism.product is not None:
+        lines += _relations([trace.mechanism.product.smiles])
+    return lines

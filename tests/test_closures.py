@@ -1,0 +1,172 @@
+"""`arrows closures`: candidate ring closures of one species, ranked, and the skeletons it writes.
+
+Sources:
+- Worked outcomes (textbook chemistry, memory; shared references), compared by RDKit canonical
+  SMILES: hexane-2,5-dione -> 3-methylcyclopent-2-en-1-one (C6H8O); heptane-2,6-dione ->
+  3-methylcyclohex-2-en-1-one (C7H10O); octane-2,7-dione -> 1-(2-methylcyclopent-1-en-1-yl)ethan-1-one
+  (C8H12O).
+- Common practice: five- and six-membered closures outcompete three- and four-membered ones; an
+  aldehyde is a better electrophile than a ketone.
+- Baldwin-Lusch 1982 (memory) for the enolate classes.
+"""
+import json
+
+import pytest
+from click.testing import CliRunner
+from rdkit import Chem
+from rdkit.Chem.rdMolDescriptors import CalcMolFormula
+
+from arrows.api import check_file
+from arrows.cli import cli
+from arrows.judgement.closures import find_closures, with_atom_maps
+
+
+def run(*args):
+    return CliRunner().invoke(cli, ["closures", *map(str, args)])
+
+
+def closures_json(smiles: str, *extra) -> list[dict]:
+    result = run(smiles, "--format", "json", *extra)
+    assert result.exit_code == 0, result.output
+    return json.loads(result.output)["closures"]
+
+
+def same(a: str, b: str) -> bool:
+    """RDKit canonical SMILES as the judge of "same structure"."""
+    return Chem.MolToSmiles(Chem.MolFromSmiles(a)) == Chem.MolToSmiles(Chem.MolFromSmiles(b))
+
+
+def test_heptane_2_6_dione_ranks_the_six_membered_closure_first():
+    """Textbook: heptane-2,6-dione closes a six-membered ring (to 3-methylcyclohex-2-en-1-one)."""
+    rows = closures_json("CC(=O)CCCC(C)=O", "--condense")
+    first = rows[0]
+    assert first["ring_size"] == 6 and first["class"] == "6-(enolendo)-exo-trig"
+    assert first["baldwin"]["verdict"] == "favoured"     # Baldwin-Lusch 1982 (memory): 6-(enolendo)-exo-trig
+    assert same(first["product"], "CC1=CC(=O)CCC1")
+    assert CalcMolFormula(Chem.MolFromSmiles(first["product"])) == "C7H10O"
+    assert {r["ring_size"] for r in rows[1:]} == {4}
+
+
+def test_hexane_2_5_dione_five_first_three_disfavoured():
+    """Textbook: hexane-2,5-dione gives 3-methylcyclopent-2-en-1-one; the three-membered closure
+    is marked disfavoured (strain, common practice) even though Baldwin-Lusch allow its class."""
+    rows = closures_json("CC(=O)CCC(C)=O", "--condense")
+    assert rows[0]["ring_size"] == 5
+    assert same(rows[0]["product"], "CC1=CC(=O)CC1")
+    assert CalcMolFormula(Chem.MolFromSmiles(rows[0]["product"])) == "C6H8O"
+    three = [r for r in rows if r["ring_size"] == 3]
+    assert three and all(r["outlook"] == "disfavoured" for r in three)
+    assert three[0]["class"] == "3-(enolexo)-exo-trig"
+
+
+def test_octane_2_7_dione_five_membered_first():
+    """Textbook: octane-2,7-dione gives 1-(2-methylcyclopent-1-en-1-yl)ethan-1-one, the
+    5-(enolexo)-exo-trig closure, ahead of the seven-membered 7-(enolendo) one."""
+    rows = closures_json("CC(=O)CCCCC(C)=O", "--condense")
+    assert rows[0]["class"] == "5-(enolexo)-exo-trig"
+    assert same(rows[0]["product"], "CC(=O)C1=C(C)CCC1")
+    assert CalcMolFormula(Chem.MolFromSmiles(rows[0]["product"])) == "C8H12O"
+    assert rows[1]["ring_size"] == 7
+
+
+@pytest.mark.parametrize("smiles, size", [
+    ("O=CCCCCC(C)=O", 5),     # 6-oxoheptanal: five-membered onto aldehyde or onto ketone
+    ("O=CCCCCCC(C)=O", 6),    # 7-oxooctanal: six-membered onto aldehyde or onto ketone
+])
+def test_keto_aldehyde_puts_the_aldehyde_first(smiles, size):
+    """Common practice: with the same ring size on offer, the aldehyde is the better electrophile."""
+    rows = closures_json(smiles)
+    same_size = [r for r in rows if r["ring_size"] == size and r["outlook"] == "favoured"]
+    assert {r["electrophile"]["kind"] for r in same_size} == {"aldehyde", "ketone"}
+    assert rows[0]["electrophile"]["kind"] == "aldehyde" and rows[0]["ring_size"] == size
+
+
+def test_6_oxoheptanal_gives_1_acetylcyclopentene():
+    """Textbook (memory): 6-oxoheptanal with base gives 1-acetylcyclopentene (the ketone enolate
+    adds to the aldehyde, then dehydrates)."""
+    rows = closures_json("O=CCCCCC(C)=O", "--condense")
+    assert same(rows[0]["product"], "CC(=O)C1=CCCC1")
+
+
+@pytest.mark.parametrize("smiles, product", [
+    ("OCCCCC=O", "OC1CCCCO1"),     # 5-hydroxypentanal -> tetrahydropyran-2-ol (cyclic hemiacetal, common practice)
+    ("NCCCCBr", "C1CCNC1"),        # 4-bromobutan-1-amine -> pyrrolidine (5-exo-tet, Baldwin 1976)
+])
+def test_heteroatom_closures(smiles, product):
+    rows = closures_json(smiles)
+    assert same(rows[0]["product"], product) and rows[0]["outlook"] == "favoured"
+
+
+@pytest.mark.parametrize("smiles", ["CC(=O)CCCC(C)=O", "CC(=O)CCC(C)=O", "CC(=O)CCCCC(C)=O", "O=CCCCCC(C)=O",
+                                    "O=CCCCCCC(C)=O", "OCCCCC=O", "NCCCCBr", "CC(=O)CCCC=CC(=O)C",
+                                    "CCOC(=O)CCCCC(=O)OCC", "N#CCCCCC=O"])
+@pytest.mark.parametrize("condense", [False, True])
+def test_written_skeleton_passes_check(tmp_path, smiles, condense):
+    """The --write skeleton replays without an error, and its product line is what the moves give
+    (the checker compares them; RDKit sanitizes every intermediate)."""
+    out = tmp_path / "draft.mech"
+    result = run(smiles, "--write", out, *(["--condense"] if condense else []))
+    assert result.exit_code == 0, result.output
+    trace, diags = check_file(out)
+    assert [d.to_text() for d in diags if d.severity == "error"] == []
+    assert trace.complete and trace.mechanism.product is not None
+
+
+def test_written_skeleton_for_heptanedione_gives_the_textbook_product(tmp_path):
+    """The skeleton's own product line is 3-methylcyclohex-2-en-1-one (textbook outcome)."""
+    out = tmp_path / "draft.mech"
+    assert run("CC(=O)CCCC(C)=O", "--condense", "--write", out).exit_code == 0
+    trace, diags = check_file(out)
+    assert not [d for d in diags if d.severity in ("error", "warning")], [d.to_text() for d in diags]
+    assert same(trace.mechanism.product.smiles, "CC1=CC(=O)CCC1")
+
+
+def test_symmetric_closures_are_folded():
+    """Heptane-2,6-dione is symmetric: C1 onto C6 and C7 onto C2 are one candidate."""
+    rows = closures_json("CC(=O)CCCC(C)=O")
+    assert len(rows) == 2 and rows[0]["equivalent"] and rows[1]["equivalent"]
+
+
+def test_table_output_and_mech_input(tmp_path):
+    mech = tmp_path / "dione.mech"
+    mech.write_text('species base = "[OH-:20]"\nspecies dione = "[CH3:1][C:2](=[O:8])[CH2:3][CH2:4][CH2:5]'
+                    '[C:6](=[O:9])[CH3:7]"\n', encoding="utf-8")
+    result = run(mech, "--species", "dione")
+    assert result.exit_code == 0, result.output
+    lines = result.output.splitlines()
+    assert lines[1].split()[:3] == ["#", "nucleophile", "electrophile"]
+    assert "C1 enolate" in lines[2] and "C6 ketone" in lines[2] and "6-(enolendo)-exo-trig" in lines[2]
+
+
+@pytest.mark.parametrize("suffix, magic", [(".png", b"\x89PNG"), (".svg", b"<?xml")])
+def test_draw_writes_a_grid(tmp_path, suffix, magic):
+    out = tmp_path / f"grid{suffix}"
+    result = run("CC(=O)CCCC=CC(=O)C", "--draw", out)
+    assert result.exit_code == 0, result.output
+    assert out.read_bytes().startswith(magic)
+
+
+@pytest.mark.parametrize("argument, expected", [
+    ("CC(=O)CCC(C", "<SMILES>:1:10: error AR102"),
+])
+def test_bad_smiles_is_located(argument, expected):
+    result = run(argument)
+    assert result.exit_code == 2 and expected in result.output and "hint:" in result.output
+    assert "Traceback" not in result.output
+
+
+def test_folder_and_bad_drawing_suffix(tmp_path):
+    result = run(tmp_path)
+    assert result.exit_code == 2 and "error AR100" in result.output
+    result = run("CCO", "--draw", tmp_path / "x.gif")
+    assert result.exit_code == 2 and "hint:" in result.output
+
+
+def test_atoms_are_numbered_along_a_written_chain():
+    """Carbons are numbered first, in the order written: a chain written end to end gets its
+    locants (heptane-2,6-dione: carbonyl carbons C2 and C6)."""
+    mol = with_atom_maps(Chem.MolFromSmiles("CC(=O)CCCC(C)=O"))
+    carbonyls = sorted(a.GetAtomMapNum() for a in mol.GetAtoms()
+                       if a.GetSymbol() == "C" and any(n.GetSymbol() == "O" for n in a.GetNeighbors()))
+    assert carbonyls == [2, 6]
+    assert find_closures(mol)[0].size == 6

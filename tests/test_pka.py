@@ -1,0 +1,109 @@
+"""Proton-transfer plausibility (AR508) and the acidity table behind it.
+
+Source of the values: the textbook aqueous pKa list in the shared references (memory): H3O+ -1.7;
+RCO2H ~4.8; 1,3-diketone ~9; phenol ~10; R3NH+ ~10; water 15.7; methanol ~15.5; t-butanol ~18;
+aldehyde alpha-H ~17; ketone alpha-H ~19-20; ester alpha-H ~25; terminal alkyne ~25; NH3 ~38;
+alkene C-H ~44; alkane ~50. Common practice: hydroxide cannot deprotonate an alkane.
+"""
+from pathlib import Path
+
+import pytest
+from click.testing import CliRunner
+from rdkit import Chem
+
+from arrows import check_text
+from arrows.api import check_file
+from arrows.checks.protons import pka_gap, proton_transfers
+from arrows.cli import cli
+from arrows.judgement.acidity import acidity_of, perceived
+
+GALLERY = sorted((Path(__file__).resolve().parent.parent / "gallery").glob("*.mech"))
+
+# (SMILES, atom index carrying the proton, reference pKa) from the list above (memory).
+REFERENCE = [
+    ("[OH3+]", 0, -1.7), ("CC(=O)O", 3, 4.8), ("CC(=O)CC(C)=O", 3, 9), ("Oc1ccccc1", 0, 10),
+    ("C[NH+](C)C", 1, 10), ("O", 0, 15.7), ("CO", 1, 15.5), ("CC(C)(C)O", 4, 18), ("CC=O", 0, 17),
+    ("CC(C)=O", 0, 19.5), ("CC(=O)OC", 0, 25), ("CC#C", 2, 25), ("N", 0, 38), ("C=C", 0, 44), ("CC", 0, 50),
+]
+
+
+@pytest.mark.parametrize("smiles, atom, pka", REFERENCE)
+def test_table_agrees_with_the_reference_list(smiles, atom, pka):
+    entry = acidity_of(perceived(Chem.MolFromSmiles(smiles)), atom)
+    assert entry is not None and entry.pka == pytest.approx(pka)
+
+
+HYDROXIDE_ON_PROPANE = """\
+species propane = "[CH3:1]CC"
+species base = "[OH-:2]"
+step "deprotonation"
+    :O2 -> H(C1)
+    C1-H -> C1
+end
+"""
+
+
+def test_hydroxide_on_an_alkane_is_uphill():
+    """Common practice: hydroxide (water 15.7) cannot take a proton from an alkane (~50)."""
+    _, diags = check_text(HYDROXIDE_ON_PROPANE, "propane.mech")
+    found = [d for d in diags if d.code == "AR508"]
+    assert len(found) == 1
+    d = found[0]
+    assert d.message.startswith("hydroxide (pKa of water 15.7) removing an alkane C-H (~50)")
+    assert (d.loc.line, d.loc.column) == (4, 5) and d.severity == "warning" and d.hint
+
+
+def test_threshold_is_configurable():
+    with pka_gap(40):
+        _, diags = check_text(HYDROXIDE_ON_PROPANE)
+    assert not [d for d in diags if d.code == "AR508"]
+
+
+def test_cli_option_pka_gap(tmp_path):
+    path = tmp_path / "propane.mech"
+    path.write_text(HYDROXIDE_ON_PROPANE, encoding="utf-8")
+    loose = CliRunner().invoke(cli, ["check", "--pka-gap", "40", "--strict", str(path)])
+    strict = CliRunner().invoke(cli, ["check", "--strict", str(path)])
+    assert loose.exit_code == 0 and "AR508" not in loose.output
+    assert strict.exit_code == 1 and "AR508" in strict.output
+
+
+def test_lda_on_a_ketone_is_downhill():
+    """Diisopropylamide (amine N-H ~38, the NH3 value) on a ketone alpha C-H (19-20): downhill."""
+    trace, diags = check_file(next(p for p in GALLERY if p.name.startswith("01-")))
+    (transfer,) = proton_transfers(trace.steps[0])
+    assert transfer.acid.pka == 19.5 and transfer.conjugate_acid.pka == 38 and transfer.uphill < 0
+    assert not [d for d in diags if d.code == "AR508"]
+
+
+@pytest.mark.parametrize("path", GALLERY, ids=lambda p: p.stem)
+def test_gallery_is_free_of_uphill_proton_transfers(path):
+    _, diags = check_file(path)
+    assert not [d.to_text() for d in diags if d.code == "AR508"]
+
+
+def test_gallery_transfers_are_judged():
+    """The gallery test above is not vacuous: most transfers there get both values looked up."""
+    judged = total = 0
+    for path in GALLERY:
+        trace, _ = check_file(path)
+        for st in trace.steps:
+            for t in proton_transfers(st):
+                total += 1
+                judged += t.uphill is not None
+    assert total >= 20 and judged == total
+
+
+def test_concerted_elimination_is_not_a_plain_transfer():
+    """E2 (gallery 09): tert-butoxide takes a C-H proton as bromide leaves; the C-H is not judged
+    as an alkane acid, because another sigma bond breaks in the same step."""
+    trace, diags = check_file(next(p for p in GALLERY if p.name.startswith("09-")))
+    assert proton_transfers(trace.steps[0]) == []
+
+
+def test_cli_threshold_does_not_outlive_the_command(tmp_path):
+    path = tmp_path / "propane.mech"
+    path.write_text(HYDROXIDE_ON_PROPANE, encoding="utf-8")
+    CliRunner().invoke(cli, ["check", "--pka-gap", "40", str(path)])
+    _, diags = check_text(HYDROXIDE_ON_PROPANE)
+    assert [d.code for d in diags if d.code == "AR508"] == ["AR508"]

@@ -1,0 +1,109 @@
+"""Stereocentres and stereogenic double bonds per step, stereoisomer counts, and how two
+stereo-specified structures relate.
+
+Sources: RDKit's stereoisomer enumeration (EnumerateStereoisomers) run on the product SMILES as
+written in each gallery file, as an independent judge of our count on the derived final state;
+textbook definitions (common practice): n independent stereocentres give 2**n stereoisomers,
+enantiomers are non-superimposable mirror images, diastereomers are stereoisomers that are not
+mirror images, a meso compound is identical to its mirror image.
+"""
+from pathlib import Path
+
+import pytest
+from click.testing import CliRunner
+from rdkit import Chem
+from rdkit.Chem.EnumerateStereoisomers import EnumerateStereoisomers, StereoEnumerationOptions
+
+from arrows import check_text
+from arrows.api import check_file
+from arrows.checks.stereo import final_stereo, step_stereo
+from arrows.cli import cli
+from arrows.judgement.stereo import CENTRE, DOUBLE_BOND, relation, stereo_elements
+
+GALLERY = sorted((Path(__file__).resolve().parent.parent / "gallery").glob("*.mech"))
+
+
+def rdkit_count(smiles: str) -> int:
+    mol = Chem.MolFromSmiles(smiles)
+    options = StereoEnumerationOptions(onlyUnassigned=True, unique=True)
+    return sum(1 for _ in EnumerateStereoisomers(mol, options=options))
+
+
+def test_the_gallery_is_there():
+    assert len(GALLERY) >= 10
+
+
+@pytest.mark.parametrize("path", GALLERY, ids=lambda p: p.stem)
+def test_product_stereoisomers_match_rdkit_on_the_written_product(path):
+    """Our count on the derived final state equals RDKit's enumeration of the product line."""
+    trace, diags = check_file(path)
+    product = trace.mechanism.product
+    if product is None or not trace.complete:
+        pytest.skip("no product line")
+    ours = {Chem.MolToSmiles(Chem.MolFromSmiles(p.smiles)): p.stereoisomers for p in final_stereo(trace)}
+    for fragment in product.smiles.split("."):
+        key = Chem.MolToSmiles(Chem.MolFromSmiles(fragment))
+        assert ours.get(key, 1) == rdkit_count(fragment), (fragment, ours)
+
+
+def test_gallery_holds_products_with_stereo():
+    """The comparison above is not vacuous: some gallery products have stereoisomers."""
+    counts = []
+    for path in GALLERY:
+        trace, _ = check_file(path)
+        counts += [p.stereoisomers for p in final_stereo(trace)]
+    assert any(c > 1 for c in counts)
+
+
+def test_aldol_adduct_of_octanedione_has_two_stereocentres():
+    """Octane-2,7-dione ring closure: the aldol adduct 1-(2-hydroxy-2-methylcyclopentyl)ethan-1-one
+    has two stereocentres (C3 and C7), so 2**2 = 4 stereoisomers (common practice; RDKit agrees)."""
+    text = (GALLERY[0].parent / "05-octanedione-cyclopentene.mech").read_text(encoding="utf-8")
+    cut = text.index('step "enolate of the aldol"')
+    trace, diags = check_text(text[:cut] + 'product "CC(=O)C1CCCC1(C)O"\n')
+    assert trace.complete
+    closure = trace.steps[1]
+    made, lost = step_stereo(closure)
+    assert {(e.kind, closure.after.label(e.atoms[0])) for e in made} == {(CENTRE, "C3"), (CENTRE, "C7")}
+    assert [e.kind for e in lost] == [DOUBLE_BOND]        # the enolate C2=C3 is gone
+    (product,) = final_stereo(trace)
+    assert product.stereoisomers == 4 == rdkit_count("CC(=O)C1CCCC1(C)O")
+    notes = [d for d in diags if d.code == "AR602"]
+    assert any("4 stereoisomers" in d.message for d in notes)
+
+
+def test_equal_groups_make_no_stereocentre_whatever_their_map_numbers():
+    """Propan-2-ol has no stereocentre (two equal methyls, common practice), even when one
+    methyl carries a map number and explicit hydrogens and the other does not."""
+    mol = Chem.AddHs(Chem.MolFromSmiles("[CH3:1][CH:2](O)C"), onlyOnAtoms=(0,))
+    assert stereo_elements(mol) == frozenset()
+    assert len(stereo_elements(Chem.MolFromSmiles("C[CH:2](O)CC"))) == 1    # butan-2-ol has one
+
+
+def test_protonated_acetone_has_no_stereogenic_double_bond():
+    """Two equal methyls on the carbon end: no E/Z isomers (common practice)."""
+    assert stereo_elements(Chem.MolFromSmiles("CC(C)=[OH+]")) == frozenset()
+
+
+@pytest.mark.parametrize("a, b, expected", [
+    ("C[C@H](O)CC", "C[C@@H](O)CC", "enantiomers"),                      # (R)/(S)-butan-2-ol
+    ("C[C@H](O)[C@@H](C)CC", "C[C@@H](O)[C@@H](C)CC", "diastereomers"),  # one of two centres inverted
+    ("C[C@H](O)[C@@H](C)CC", "C[C@@H](O)[C@H](C)CC", "enantiomers"),    # both inverted
+    ("C[C@H](O)[C@@H](C)O", "C[C@@H](O)[C@H](C)O", "identical"),        # meso-butane-2,3-diol
+    ("C/C=C/C", "C/C=C\\C", "diastereomers"),                            # (E)/(Z)-but-2-ene
+    ("CCCO", "CC(C)O", "constitutional isomers"),
+])
+def test_relation(a, b, expected):
+    assert relation(a, b) == expected
+
+
+def test_trace_stereo_shows_steps_products_and_relations(tmp_path):
+    path = tmp_path / "reduction.mech"
+    path.write_text('species ketone = "CC[C:2](=[O:3])C"\nspecies hydride = "[BH4-:5]"\n'
+                    'step "hydride addition"\n    B5-H -> C2-H(B5)\n    C2=O3 -> O3\nend\n'
+                    'product "CC[C@H]([O-])C.CC[C@@H]([O-])C"\n', encoding="utf-8")
+    result = CliRunner().invoke(cli, ["trace", "--stereo", str(path)])
+    out = result.output
+    assert "stereo   new stereocentre C2" in out
+    assert "CCC(C)[O-]: stereocentre C2; 2 stereoisomers with no stereocontrol" in out
+    assert "CC[C@H]([O-])C and CC[C@@H]([O-])C: enantiomers" in out
