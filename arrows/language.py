@@ -104,6 +104,9 @@ class _ToModel(Transformer):
             first = HydrogenOn(second if isinstance(second, AtomRef) else second.parent, first.loc)
         if isinstance(second, _Unpaired):
             second = HydrogenOn(first if isinstance(first, AtomRef) else first.parent, second.loc)
+        if first == second:
+            raise _LanguageSlip(second.loc, f"a bond joins two different atoms; both ends here are {first}",
+                                "name the atom at the other end of the bond, as in C2=O3")
         return BondRef(first, second, BOND_ORDERS[str(connector)], loc)
 
     # sources and sinks

@@ -307,6 +307,8 @@ def test_syntax_slip(name, text, line, column, found, expected, hint):
 
 
 @pytest.mark.parametrize("text, hint", [
+    ('step "a"\n    O3-C2 -> O3-O3\nend\n', "the other end"),
+    ('step "a"\n    H(C1)-H(C1) -> C1\nend\n', "the other end"),
     ('step "a"\n    H-H -> C1\nend\n', "C3-H"),
     ('step "a"\n    releases H(C1)\nend\n', "releases O9"),
 ])
