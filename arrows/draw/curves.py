@@ -28,7 +28,7 @@ from .styles import Style
 
 _SAMPLES = 20
 _ANGLES = (math.radians(30), math.radians(48), math.radians(66))
-_SHORT_ANGLES = (math.radians(55), math.radians(75), math.radians(95))
+_SHORT_ANGLES = (math.radians(60), math.radians(85), math.radians(115))
 _KEEP = 4          # candidates per arrow that enter the joint choice
 _T = np.linspace(0.0, 1.0, _SAMPLES + 1)
 _BERNSTEIN = np.stack([(1 - _T) ** 3, 3 * _T * (1 - _T) ** 2, 3 * _T ** 2 * (1 - _T), _T ** 3])
@@ -134,10 +134,18 @@ class ArrowPlanner:
             return _Anchor("bond", mid, (a, b), extent=extent, axis=_unit(panel.positions[b] - panel.positions[a]))
         atom = move.source_atoms[0]
         centre = panel.positions[atom]
-        # Dots sit on a side or a corner of the label, facing where the arrow goes.
+        # Dots sit on a side or a corner of the label, facing where the arrow goes; for a pair
+        # that goes into a bond of the same atom they sit beside that bond, so the arrow has
+        # room to curve over to it.
         labelled = panel.atoms[atom].box is not None
-        direction = best_direction(panel.occupied[atom], _unit(sink.point - centre), spread=0.35,
-                                   steps=8 if labelled else 24)
+        steps = 8 if labelled else 24
+        toward = _unit(sink.point - centre)
+        if atom in sink.atoms and sink.kind in ("bond", "gap"):
+            sides = [best_direction(panel.occupied[atom], toward * cmath.rect(1.0, turn), spread=0.35, steps=steps)
+                     for turn in (1.2, -1.2)]
+            direction = max(sides, key=lambda d: (clearance(d, panel.occupied[atom]), (d / toward).real))
+        else:
+            direction = best_direction(panel.occupied[atom], toward, spread=0.35, steps=steps)
         panel.occupied[atom].append(direction)
         r = self.dot_radius
         reach = panel.label_reach(atom, direction) or 0.12 * self.bl
@@ -211,7 +219,9 @@ class ArrowPlanner:
             tip = self._tip(snk, arrive, panel)
         u = _unit(tip - p0)
         leave, arrive = u * turn, u / turn
-        h = max(_handle(theta) * abs(tip - p0), 0.22 * self.bl)
+        chord = abs(tip - p0)
+        # Short hops (a pair moving into the next bond) get a loop big enough to read.
+        h = max(_handle(theta) * chord, (0.45 if chord < 0.6 * self.bl else 0.34) * self.bl)
         return _Candidate(p0, p0 + leave * h, tip - arrive * h, tip)
 
     def _tail(self, src: _Anchor, leave: complex) -> complex:
@@ -350,20 +360,23 @@ class ArrowPlanner:
     def _arrow(self, step: int, move: ResolvedMove, src: _Anchor, snk: _Anchor, c: _Candidate,
                panel: PanelStructure) -> CurvedArrow:
         p0, p1, p2, tip = c.p0, c.p1, c.p2, c.tip
-        base = bezier(p0, p1, p2, tip, _parameter_at_distance(p0, p1, p2, tip, self.head_length))
+        # A short arrow gets a smaller head, so the head never swallows the curve.
+        length = float(np.abs(np.diff(c.points)).sum())
+        head = min(self.head_length, max(0.32 * length, 0.6 * self.head_length))
+        base = bezier(p0, p1, p2, tip, _parameter_at_distance(p0, p1, p2, tip, head))
         direction = _unit(tip - base)
-        s0, s1, s2, s3 = split_before(p0, p1, p2, tip, _parameter_at_distance(p0, p1, p2, tip, 0.65 * self.head_length))
+        s0, s1, s2, s3 = split_before(p0, p1, p2, tip, _parameter_at_distance(p0, p1, p2, tip, 0.65 * head))
         normal = direction * 1j
-        back = tip - direction * self.head_length
-        notch = tip - direction * 0.72 * self.head_length
-        half = self.head_width / 2
+        back = tip - direction * head
+        notch = tip - direction * 0.72 * head
+        half = head * self.head_width / self.head_length / 2
         if move.electrons == 2:
-            head = (tip, back + normal * half, notch, back - normal * half)
+            outline = (tip, back + normal * half, notch, back - normal * half)
         else:
             # One barb, on the outside of the bend.
             bulge = bezier(p0, p1, p2, tip, 0.5) - (p0 + tip) / 2
             outside = normal if (bulge / normal).real > 0 else -normal
-            head = (tip, back + outside * half, notch)
+            outline = (tip, back + outside * half, notch)
 
         def pt(z: complex) -> tuple[float, float]:
             return (round(z.real, 4), round(z.imag, 4))
@@ -374,7 +387,7 @@ class ArrowPlanner:
             source_point=pt(src.point), sink_point=pt(snk.point),
             sink_box=panel.atoms[snk.atoms[0]].box if snk.kind == "atom" else None,
             start=pt(s0), control1=pt(s1), control2=pt(s2), end=pt(s3), tip=pt(tip),
-            head=tuple(pt(z) for z in head))
+            head=tuple(pt(z) for z in outline))
 
 
 def _parameter_at_distance(p0: complex, p1: complex, p2: complex, p3: complex, distance: float) -> float:

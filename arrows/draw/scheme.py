@@ -131,7 +131,11 @@ class _SceneBuilder:
     def _panel(self, k: int, src: _PanelSource, placed, drawn_h: frozenset[int],
                moves: list[ResolvedMove]) -> Panel:
         bl = self.bl
-        visible = tuple(i for i in placed.visible if i not in src.hidden)
+        # A travelling hydrogen is drawn where it matters: on the panel whose arrows move it and
+        # on the panel just after; elsewhere it is implicit like every other hydrogen.
+        nearby = [m for st in (src.leaving, src.arriving) if st is not None for m in st.change.moves]
+        shown_h = frozenset(i for m in nearby for i in m.source_atoms + m.sink_atoms) & drawn_h
+        visible = tuple(i for i in placed.visible if i not in src.hidden and (i not in drawn_h or i in shown_h))
         positions = {i: placed.positions[i] * bl for i in visible}
         formed, broken = set(), set()
         if src.arriving is not None:
@@ -142,7 +146,7 @@ class _SceneBuilder:
             change = src.leaving.change
             broken |= {tuple(sorted(b)) for b in change.broken}
             broken |= {tuple(sorted(b)) for b, old, new in change.reordered if new < old}
-        structure = self.drawer.draw(src.state, visible, positions, drawn_h, formed, broken)
+        structure = self.drawer.draw(src.state, visible, positions, shown_h, formed, broken)
         arrows, dots = [], []
         step = src.leaving.index if src.leaving is not None else None
         if src.leaving is not None:

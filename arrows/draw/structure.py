@@ -37,6 +37,7 @@ class PanelStructure:
     marks: list[Mark]
     positions: dict[int, complex]                 # points, panel frame
     occupied: dict[int, list[complex]] = field(default_factory=dict)   # unit directions taken around each atom
+    bond_directions: dict[int, list[complex]] = field(default_factory=dict)
     bond_extent: dict[tuple[int, int], float] = field(default_factory=dict)  # half-width of each bond's strokes
 
     def label_reach(self, atom: int, direction: complex) -> float:
@@ -73,6 +74,24 @@ def clip_from(p: complex, q: complex, box: Optional[Box], pad: float) -> complex
         return p
     t = ray_exit(p, (q - p) / length, grown)
     return p + (q - p) / length * min(t, length * 0.45)
+
+
+def _segment_hits_box(p: complex, q: complex, box: Box) -> bool:
+    """Whether segment p-q crosses or touches the box (Liang-Barsky clipping)."""
+    t0, t1 = 0.0, 1.0
+    d = q - p
+    for delta, low, high, start in ((d.real, box.x0, box.x1, p.real), (d.imag, box.y0, box.y1, p.imag)):
+        if abs(delta) < 1e-12:
+            if start < low or start > high:
+                return False
+            continue
+        a, b = (low - start) / delta, (high - start) / delta
+        if a > b:
+            a, b = b, a
+        t0, t1 = max(t0, a), min(t1, b)
+        if t0 > t1:
+            return False
+    return True
 
 
 def _angle_gap(a: complex, b: complex) -> float:
@@ -119,6 +138,7 @@ class StructureDrawer:
                 d = positions[n] - positions[i]
                 if abs(d) > 1e-9:
                     out.occupied[i].append(d / abs(d))
+            out.bond_directions[i] = list(out.occupied[i])
         for i in visible:
             out.atoms[i] = self._atom(state, i, positions, neighbours[i], drawn_hydrogens, out)
         rings = [list(r) for r in Chem.GetSymmSSSR(mol)] if mol.GetNumBonds() else []
@@ -187,7 +207,7 @@ class StructureDrawer:
         """1 (right), -1 (left), 1j (below) or -1j (above): the first with room for 'H'."""
         if not occupied:
             return -1 if atom.GetAtomicNum() in _HYDROGEN_FIRST else 1
-        limit = math.radians(65)
+        limit = math.radians(50)
         for side in (1, -1):
             if clearance(complex(side), occupied) >= limit:
                 return side
@@ -300,9 +320,39 @@ class StructureDrawer:
         if charge:
             sign = "+" if charge > 0 else MINUS
             text = (str(abs(charge)) if abs(charge) > 1 else "") + sign
-            out.marks.append(self._side_text("charge", i, text, out, preferred=cmath.rect(1, -math.pi / 4)))
+            mark = self._superscript(i, text, out)
+            out.marks.append(mark or self._side_text("charge", i, text, out, preferred=cmath.rect(1, -math.pi / 4)))
         if atom.GetNumRadicalElectrons():
             out.marks.append(self.radical_dot(i, out, preferred=cmath.rect(1, -math.pi / 2)))
+
+    def _superscript(self, i: int, text: str, out: PanelStructure) -> Optional[Mark]:
+        """A charge written as a superscript after the label (O-, NH3+), or before it when a
+        bond leaves from the upper right; None when neither place is free of bonds."""
+        drawing = out.atoms[i]
+        if drawing.box is None:
+            return None
+        # The line the element symbol is on (hydrogens written above or below it do not count).
+        baseline_y = out.positions[i].imag + self.cap / 2
+        same_line = [self.text_box(r) for r in drawing.runs if abs(r.y - baseline_y) < 0.5 * self.style.font_size]
+        box = same_line[0]
+        for b in same_line[1:]:
+            box = box.union(b)
+        size = self.style.small_size
+        width = self.face.width(text, size)
+        baseline = box.y0 + 0.38 * size
+        centre = out.positions[i]
+        reach = self.style.bond_length
+        for x in (box.x1 + 0.03 * size, box.x0 - 0.03 * size - width):
+            run = TextRun(text, x, baseline, size)
+            tb = self.text_box(run)
+            grown = Box(tb.x0 - 0.1 * size, tb.y0 - 0.1 * size, tb.x1 + 0.1 * size, tb.y1 + 0.1 * size)
+            if any(_segment_hits_box(centre + d * out.label_reach(i, d), centre + d * reach, grown)
+                   for d in out.bond_directions[i]):
+                continue
+            middle = complex((tb.x0 + tb.x1) / 2, (tb.y0 + tb.y1) / 2) - centre
+            out.occupied[i].append(middle / abs(middle))
+            return Mark("charge", i, (run,), box=tb)
+        return None
 
     def _side_text(self, kind: str, i: int, text: str, out: PanelStructure, preferred: complex,
                    italic: bool = False) -> Mark:
