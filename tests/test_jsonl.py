@@ -8,6 +8,7 @@ from __future__ import annotations
 
 import json
 import os
+import re
 import subprocess
 import sys
 import threading
@@ -262,3 +263,13 @@ def test_an_unreachable_cluster_is_a_clear_error():
     with pytest.raises(ClusterUnavailable, match="cannot reach"):
         with ClusterPool("tcp://127.0.0.1:9", timeout=1):
             pass
+
+
+def test_the_documented_records_pass_the_schema_and_check_clean():
+    block = (ROOT / "docs-batch.md").read_text().split("```json", 1)[1].split("```", 1)[0]
+    records = [json.loads(text) for text in re.split(r"\n(?=\{\"id\")", block.strip())]
+    assert len(records) == 2
+    for number, record in enumerate(records, 1):
+        jsonschema.validate(record, SCHEMA)
+        result = check_line("docs", number, line(record))
+        assert result["ok"] and result["final_smiles"] == "O.[OH-]", result

@@ -17,6 +17,7 @@ import os
 import tempfile
 from dataclasses import dataclass
 from functools import lru_cache
+from importlib import metadata
 from pathlib import Path
 from typing import Optional
 
@@ -28,16 +29,17 @@ META, SVG, PDF = "meta.json", "figure.svg", "figure.pdf"
 @lru_cache(maxsize=1)
 def tool_fingerprint() -> str:
     """Hash of arrows' version, the text of its code and grammar, and the versions of the
-    libraries that shape the output."""
-    import cairosvg
-    import pypdf
-    import rdkit
-
+    libraries that shape the output (read from their metadata: importing them costs more than
+    a warm run has to spend)."""
     import arrows
 
-    digest = hashlib.sha256()
-    for part in (arrows.__version__, rdkit.__version__, cairosvg.__version__, pypdf.__version__):
-        digest.update(part.encode() + b"\0")
+    digest = hashlib.sha256(arrows.__version__.encode() + b"\0")
+    for library in ("rdkit", "cairosvg", "cairocffi", "pypdf"):
+        try:
+            version = metadata.version(library)
+        except metadata.PackageNotFoundError:
+            version = "absent"
+        digest.update(f"{library} {version}".encode() + b"\0")
     package = Path(arrows.__file__).resolve().parent
     code = sorted(package.rglob("*.py")) + sorted(package.rglob("*.lark"))
     grammar = package.parent / "grammar"
@@ -59,6 +61,12 @@ def page_key(svg: str, fingerprint: str) -> str:
     return hashlib.sha256(fingerprint.encode() + b"\0" + svg.encode()).hexdigest()
 
 
+def document_key(fingerprint: str, parts: object) -> str:
+    """Key of a whole document: `parts` is plain JSON data naming everything the pages show."""
+    text = json.dumps(parts, sort_keys=True, ensure_ascii=False)
+    return hashlib.sha256(fingerprint.encode() + b"\0" + text.encode()).hexdigest()
+
+
 @dataclass(frozen=True)
 class FigureEntry:
     meta: dict              # title, caption, diagnostics, steps, figure problem (see figures.py)
@@ -71,9 +79,10 @@ class Cache:
         self.root = root
         self.figures = root / "figures"
         self.pages = root / "pages"
+        self.documents = root / "documents"
 
     def prepare(self) -> None:
-        for folder in (self.figures, self.pages):
+        for folder in (self.figures, self.pages, self.documents):
             folder.mkdir(parents=True, exist_ok=True)
             remove_stale_temps(folder)
 
@@ -112,3 +121,14 @@ class Cache:
 
     def store_page(self, key: str, pdf: bytes) -> None:
         write_bytes(self.page_path(key), pdf)
+
+    # whole documents: the merged PDF and its page count
+    def load_document(self, key: str) -> Optional[tuple[bytes, int]]:
+        pdf, count = self.documents / f"{key}.pdf", self.documents / f"{key}.pages"
+        if not (pdf.is_file() and count.is_file()):
+            return None
+        return pdf.read_bytes(), int(count.read_text())
+
+    def store_document(self, key: str, pdf: bytes, pages: int) -> None:
+        write_bytes(self.documents / f"{key}.pdf", pdf)
+        write_bytes(self.documents / f"{key}.pages", str(pages).encode())   # written last: marks it complete

@@ -19,7 +19,7 @@ from pathlib import Path
 from typing import Callable, Optional
 
 from .atomic import remove_stale_temps, replace_dir, temp_dir_beside
-from .cache import PDF, SVG, Cache, page_key, tool_fingerprint
+from .cache import PDF, SVG, Cache, document_key, page_key, tool_fingerprint
 from .document import compose
 from .figures import FigureJob, FigureOutcome, make_figure
 from .index_html import index_html
@@ -94,17 +94,32 @@ def collect(sources: list[Source], settings: CollectSettings, progress: Progress
                 return CollectResult(records, complete=False)
 
         figures = {r.label: cache.load_figure(r.key).svg if r.key and r.has_figure else None for r in records}
-        pages = compose(setup, settings.front, records, lambda r: figures[r.label], settings.flow)
-        keys = [page_key(p.svg, fingerprint) for p in pages]
-        todo = {k: p.svg for k, p in zip(keys, pages) if not cache.has_page(k)}
-        for done, _ in enumerate(pool.map(_convert_page, [(cache.root, k, svg) for k, svg in todo.items()]), 1):
-            progress("page", done, len(todo), None)
+        key = document_key(fingerprint, _document_parts(settings, setup, records))
+        stored = cache.load_document(key)
+        if stored is not None:
+            document, page_count, converted = *stored, 0
+        else:
+            pages = compose(setup, settings.front, records, lambda r: figures[r.label], settings.flow)
+            keys = [page_key(p.svg, fingerprint) for p in pages]
+            todo = {k: p.svg for k, p in zip(keys, pages) if not cache.has_page(k)}
+            page_jobs = [(cache.root, k, svg) for k, svg in todo.items()]
+            for done, _ in enumerate(pool.map(_convert_page, page_jobs), 1):
+                progress("page", done, len(todo), None)
+            document = merge([DocumentPage(cache.page_path(k).read_bytes(), p.bookmark, tuple(p.links))
+                              for k, p in zip(keys, pages)],
+                             {"/Title": settings.front.title, "/Author": settings.front.authors})
+            page_count, converted = len(pages), len(todo)
+            cache.store_document(key, document, page_count)
 
-    document = merge([DocumentPage(cache.page_path(k).read_bytes(), p.bookmark, tuple(p.links))
-                      for k, p in zip(keys, pages)],
-                     {"/Title": settings.front.title, "/Author": settings.front.authors})
     _write_output(settings, records, figures, document, cache)
-    return CollectResult(records, complete=True, pages=len(pages), pages_converted=len(todo))
+    return CollectResult(records, complete=True, pages=page_count, pages_converted=converted)
+
+
+def _document_parts(settings: CollectSettings, setup: PageSetup, records: list[SchemeRecord]) -> list:
+    """Everything the document shows, as plain data: a figure enters by its cache key, which
+    stands for its source, style and tool."""
+    return [[setup.paper, setup.font_family, settings.flow, settings.prefix, list(vars(settings.front).values())],
+            [[r.label, r.name, r.key, r.title, r.caption, list(r.diagnostics), r.figure_problem] for r in records]]
 
 
 def _convert_page(job: tuple[Path, str, str]) -> str:

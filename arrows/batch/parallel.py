@@ -2,15 +2,16 @@
 distributed cluster.
 
 Results come back in input order, and at most `window` tasks are in flight at any time, so memory
-stays flat however long the input is (multiprocessing's own imap reads its whole input ahead;
-this does not). The work function must be a module-level function so that it can be pickled.
+stays flat however long the input is (multiprocessing's imap and Executor.map read their whole
+input ahead; this does not). The work function must be a module-level function so that it can be pickled.
 """
 from __future__ import annotations
 
-import multiprocessing
 import os
 import signal
 from collections import deque
+from concurrent.futures import ProcessPoolExecutor
+from concurrent.futures.process import BrokenProcessPool
 from typing import Callable, Iterable, Iterator, Optional, TypeVar
 
 T = TypeVar("T")
@@ -45,36 +46,44 @@ def _bounded(submit: Callable[[T], object], wait: Callable[[object], R], items: 
         yield wait(pending.popleft())
 
 
-class WorkerPool:
-    """A pool of worker processes (or none, for jobs=1) that maps in order with a bounded window.
+class WorkerDied(Exception):
+    """A worker process ended in the middle of a task (killed, or out of memory)."""
 
-    Use as a context manager; leaving it by an exception (Ctrl-C included) stops the workers at once.
+
+class WorkerPool:
+    """Worker processes (none for jobs=1) that map in order with a bounded window.
+
+    Use as a context manager. concurrent.futures notices a worker that dies mid-task (the
+    multiprocessing pool would wait for its result for ever); that ends the map with WorkerDied.
+    Leaving by an exception (Ctrl-C included) cancels every task not yet started.
     """
 
     def __init__(self, jobs: int, window_per_job: int = 4):
         self.jobs = max(1, jobs)
         self.window = self.jobs * window_per_job
-        self._pool = None
+        self._executor: Optional[ProcessPoolExecutor] = None
 
     def __enter__(self) -> "WorkerPool":
         if self.jobs > 1:
-            self._pool = multiprocessing.get_context().Pool(self.jobs, initializer=_ignore_interrupts)
+            self._executor = ProcessPoolExecutor(self.jobs, initializer=_ignore_interrupts)
         return self
 
     def __exit__(self, kind, value, tb) -> None:
-        if self._pool is None:
-            return
-        if kind is None:
-            self._pool.close()
-        else:
-            self._pool.terminate()
-        self._pool.join()
+        if self._executor is not None:
+            self._executor.shutdown(wait=True, cancel_futures=kind is not None)
 
     def map(self, fn: Callable[[T], R], items: Iterable[T]) -> Iterator[R]:
-        if self._pool is None:
+        if self._executor is None:
             return (fn(item) for item in items)
-        pool = self._pool
-        return _bounded(lambda item: pool.apply_async(fn, (item,)), lambda res: res.get(), items, self.window)
+        executor = self._executor
+        return _bounded(lambda item: executor.submit(fn, item), _result, items, self.window)
+
+
+def _result(future):
+    try:
+        return future.result()
+    except BrokenProcessPool:
+        raise WorkerDied("a worker process stopped in the middle of its work (killed, or out of memory)") from None
 
 
 class ClusterPool:

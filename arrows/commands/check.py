@@ -71,7 +71,7 @@ def _check_jsonl(path: str, output: str | None, jobs: int | None, cluster: str |
 
     from ..batch.atomic import atomic_file
     from ..batch.jsonl import check_stream
-    from ..batch.parallel import ClusterPool, ClusterUnavailable, WorkerPool, default_jobs
+    from ..batch.parallel import ClusterPool, ClusterUnavailable, WorkerDied, WorkerPool, default_jobs
     from ..diagnostics import Diagnostic
     from ..model import Location
 
@@ -90,6 +90,10 @@ def _check_jsonl(path: str, output: str | None, jobs: int | None, cluster: str |
     except ClusterUnavailable as exc:
         click.echo(f"error: {exc}", err=True)
         return 2
+    except WorkerDied as exc:
+        click.echo(f"error: {exc}; the results are incomplete" + (f" and {output} was not written" if output else ""),
+                   err=True)
+        return 1
     if not quiet:
         click.echo(f"{tally.records} record{'s' if tally.records != 1 else ''} checked ({tally.steps} steps): "
                    f"{tally.ok} without errors, {tally.with_errors} with errors, "

@@ -39,12 +39,13 @@ def collect_command(inputs, output, style, paper, flow, prefix, title, authors, 
     them into one PDF: title page, contents, one numbered, captioned scheme per page, and a closing
     summary of every scheme's diagnostics.
 
-    Exit status: 0 every scheme passed, 1 a scheme has errors, 2 bad usage, 130 interrupted.
+    Exit status: 0 every scheme passed, 1 a scheme has errors (or a worker process died), 2 bad usage,
+    130 interrupted. An unfinished run leaves the previous output as it was.
     """
     from .. import __version__
     from ..batch.collection import CollectSettings, OutputInUse, collect
     from ..batch.pages import Front
-    from ..batch.parallel import default_jobs
+    from ..batch.parallel import WorkerDied, default_jobs
     from ..batch.reports import write_junit, write_report
     from ..batch.sources import NoSources, find_sources
 
@@ -68,6 +69,10 @@ def collect_command(inputs, output, style, paper, flow, prefix, title, authors, 
         click.echo(f"interrupted: {output} is as it was; the schemes drawn so far are cached and will not be "
                    "drawn again", err=True)
         sys.exit(EXIT_INTERRUPTED)
+    except WorkerDied as exc:
+        progress.close()
+        click.echo(f"error: {exc}; {output} is as it was; run again to resume from the cache", err=True)
+        sys.exit(1)
     progress.close()
 
     if report:

@@ -1,0 +1,125 @@
+"""Batch speed: `arrows collect` on 200 schemes with one and two worker processes, a warm-cache
+re-run against a cold run, and `arrows check --jsonl` throughput in steps per second per core
+next to RDKit's own floor for the same states, all measured in this run on this machine.
+
+    python benchmarks/bench_batch.py [--schemes 200] [--records 2000]
+
+Targets (issue "Supporting information in one command"): --jobs 2 at least 1.7x faster than
+--jobs 1 on two cores; a warm re-run at least 20x faster than a cold run. The floor follows the
+core issue: parsing, sanitizing and writing canonical SMILES of the same intermediate states with
+bare RDKit; the checker's cost per step is reported as a multiple of it.
+"""
+from __future__ import annotations
+
+import argparse
+import json
+import os
+import re
+import shutil
+import subprocess
+import sys
+import tempfile
+import time
+from pathlib import Path
+
+ROOT = Path(__file__).resolve().parent.parent
+GALLERY = sorted((ROOT / "gallery").glob("*.mech"))
+ARROWS = [sys.executable, "-c", "from arrows.cli import main; main()"]   # this interpreter's arrows
+
+
+def scheme_folder(folder: Path, count: int) -> None:
+    """count distinct schemes: the gallery over and over, each copy with its own title."""
+    folder.mkdir(parents=True)
+    for i in range(count):
+        source = GALLERY[i % len(GALLERY)]
+        text = re.sub(r'^title\s+"([^"]*)"', lambda m: f'title "{m.group(1)} ({i + 1})"', source.read_text(),
+                      count=1, flags=re.M)
+        (folder / f"{i + 1:03d}-{source.name}").write_text(text)
+
+
+def timed(command: list[str]) -> float:
+    start = time.perf_counter()
+    proc = subprocess.run(command, capture_output=True, text=True)
+    elapsed = time.perf_counter() - start
+    if proc.returncode not in (0, 1):
+        raise SystemExit(f"{' '.join(command)} failed:\n{proc.stderr}")
+    return elapsed
+
+
+def bench_collect(work: Path, count: int) -> None:
+    folder = work / "schemes"
+    scheme_folder(folder, count)
+    runs = {}
+    for jobs in (1, 2):
+        out = work / f"j{jobs}" / "si.pdf"
+        runs[jobs] = timed([*ARROWS, "collect", str(folder), "-o", str(out), "-j", str(jobs),
+                            "--cache", str(work / f"cache{jobs}")])
+    warm = timed([*ARROWS, "collect", str(folder), "-o", str(work / "j2" / "si.pdf"), "-j", "2",
+                  "--cache", str(work / "cache2")])
+    same = (work / "j1" / "si.pdf").read_bytes() == (work / "j2" / "si.pdf").read_bytes()
+    print(f"collect, {count} schemes (cold cache):  --jobs 1 {runs[1]:.2f} s   --jobs 2 {runs[2]:.2f} s   "
+          f"speed-up {runs[1] / runs[2]:.2f}x (target >= 1.7x)   identical PDF: {same}")
+    print(f"collect, {count} schemes, --jobs 2:     cold {runs[2]:.2f} s   warm re-run {warm:.2f} s   "
+          f"speed-up {runs[2] / warm:.1f}x (target >= 20x)")
+
+
+def data_set(path: Path, count: int) -> None:
+    texts = [p.read_text() for p in GALLERY]
+    with path.open("w") as out:
+        for i in range(count):
+            out.write(json.dumps({"id": i, "text": texts[i % len(texts)]}) + "\n")
+
+
+def rdkit_floor(path: Path) -> tuple[float, int]:
+    """Seconds for bare RDKit to parse, sanitize and write canonical SMILES of every state after
+    every step in the data set, and the number of steps."""
+    from rdkit import Chem
+
+    from arrows.api import check_text
+    from arrows.trace import state_smiles
+
+    states = []
+    for line in path.open():
+        trace, _ = check_text(json.loads(line)["text"])
+        states.extend(state_smiles(s.after) for s in trace.steps if s.after is not None)
+    start = time.perf_counter()
+    for smiles in states:
+        mol = Chem.MolFromSmiles(smiles)      # parses and sanitizes
+        Chem.MolToSmiles(mol)
+    return time.perf_counter() - start, len(states)
+
+
+def bench_jsonl(work: Path, count: int) -> None:
+    data = work / "set.jsonl"
+    work.mkdir(parents=True)
+    data_set(data, count)
+    seconds = {}
+    for jobs in (1, 2):
+        seconds[jobs] = timed([*ARROWS, "check", "--jsonl", str(data), "-j", str(jobs), "-q",
+                               "-o", str(work / f"results{jobs}.jsonl")])
+    steps = sum(json.loads(line)["steps"] for line in (work / "results1.jsonl").open())
+    floor_seconds, floor_steps = rdkit_floor(data)
+    per_core = steps / seconds[1]
+    floor = floor_steps / floor_seconds
+    print(f"check --jsonl, {count} records, {steps} steps:  --jobs 1 {seconds[1]:.2f} s = {per_core:.0f} steps/s/core   "
+          f"--jobs 2 {seconds[2]:.2f} s = {steps / seconds[2]:.0f} steps/s ({steps / seconds[2] / 2:.0f} per core)")
+    print(f"RDKit floor (parse + sanitize + canonical SMILES of each state): {floor:.0f} steps/s;   "
+          f"checking costs {floor / per_core:.1f}x the floor per step (whole command, start-up included)")
+
+
+def main() -> None:
+    parser = argparse.ArgumentParser(description=__doc__.splitlines()[0])
+    parser.add_argument("--schemes", type=int, default=200)
+    parser.add_argument("--records", type=int, default=2000)
+    args = parser.parse_args()
+    print(f"{os.cpu_count()} cores; arrows from {ROOT}")
+    work = Path(tempfile.mkdtemp(prefix="arrows-bench-"))
+    try:
+        bench_collect(work / "collect", args.schemes)
+        bench_jsonl(work / "jsonl", args.records)
+    finally:
+        shutil.rmtree(work, ignore_errors=True)
+
+
+if __name__ == "__main__":
+    main()
