@@ -30,6 +30,7 @@ ul.diagnostics { font-size: 0.85rem; padding-left: 1.2rem; }
 ul.diagnostics .hint { color: #444; display: block; }
 """
 
+SCREEN_ZOOM = 1.5
 POLICY = "default-src 'none'; img-src 'self'; style-src 'unsafe-inline'"
 
 
@@ -60,7 +61,8 @@ def _section(record: SchemeRecord, svg: Optional[str]) -> str:
     label = escape(record.label)
     if svg is not None:
         figure = parse_figure(svg)
-        width, height = round(figure.width / 0.75), round(figure.height / 0.75)   # CSS px from points
+        # CSS px from points, enlarged for reading on a screen (a print-size figure looks small there)
+        width, height = round(figure.width / 0.75 * SCREEN_ZOOM), round(figure.height / 0.75 * SCREEN_ZOOM)
         picture = (f'<img src="{escape(record.file_stem)}.svg" width="{width}" height="{height}" '
                    f'alt="Scheme {label}: {escape(record.heading)}">')
     else:

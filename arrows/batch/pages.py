@@ -25,6 +25,7 @@ LEADING = 1.3          # line height / font size
 GAP = 6.0              # between the parts of a block
 BLOCK_GAP = 22.0       # between two schemes flowed onto one page
 INDENT = 14.0
+MAX_ERRORS_SHOWN = 5   # on a scheme's own page; the summary lists them all
 
 
 @dataclass(frozen=True)
@@ -287,7 +288,11 @@ def scheme_block(setup: PageSetup, record: SchemeRecord, figure_svg: Optional[st
     figure = parse_figure(figure_svg) if figure_svg is not None else None
     problem = None
     if figure is None:
-        problem = lines(setup, record.figure_problem or "no figure", SMALL_PT, width - 2 * GAP)
+        # The reason, then the errors that stand in the way, so the page explains itself.
+        reasons = [record.figure_problem or "no figure"]
+        reasons += [diagnostic_line(d) for d in record.diagnostics if d["severity"] == "error"][:MAX_ERRORS_SHOWN]
+        problem = Lines(tuple(line for reason in reasons
+                              for line in wrap(reason, setup.face(), SMALL_PT, width - 2 * GAP)), SMALL_PT)
     block = SchemeBlock(record, heading, caption, status, figure, problem, 1.0)
     if figure is not None:
         room = max_height - (block.height - figure.height)
@@ -333,13 +338,17 @@ def scheme_pages(setup: PageSetup, blocks: list[SchemeBlock], first_number: int,
     return pages, starts
 
 
+def _labels(records: list[SchemeRecord]) -> str:
+    return f" ({', '.join(r.label for r in records)})" if records else ""
+
+
 def summary_pages(setup: PageSetup, records: list[SchemeRecord], first_number: int) -> list[Page]:
     """The closing table: every scheme with its status, then each of its diagnostics."""
     width = setup.text_width
     failed = [r for r in records if r.failed]
     warned = [r for r in records if r.warnings]
     totals = (f"{plural(len(records), 'scheme')}: {len(records) - len(failed)} passed, "
-              f"{len(failed)} with errors; {plural(sum(r.warnings for r in records), 'warning')} in "
+              f"{len(failed)} with errors{_labels(failed)}; {plural(sum(r.warnings for r in records), 'warning')} in "
               f"{plural(len(warned), 'scheme')}.")
     rows: list[list[Lines]] = []
     for record in records:
