@@ -224,7 +224,8 @@ def test_the_documented_examples_run(monkeypatch, capsys):
 # --- printing any Mechanism the model can hold -------------------------------------------------
 
 def _mechanisms():
-    """Random Mechanisms built from model objects (any text the language can quote)."""
+    """Random Mechanisms built from model objects (any text the language can quote; a bond joins
+    two different atoms, as the language demands)."""
     from hypothesis import strategies as st
     from arrows.model import (AtomRef, AtomSink, BareAtom, BondPair, BondRef, BondSink, Checkpoint, HydrogenOn,
                               LonePair, Mechanism, Move, Species, Step, UnpairedElectron)
@@ -232,7 +233,7 @@ def _mechanisms():
     name = st.from_regex(r"[A-Za-z_][A-Za-z0-9_]{0,6}", fullmatch=True)
     mapped = st.builds(AtomRef, st.sampled_from(["C", "O", "N", "Br", "Si", "H"]), st.integers(1, 999))
     atom = st.one_of(mapped, st.builds(HydrogenOn, mapped))
-    bond = st.builds(BondRef, atom, atom, st.sampled_from([1, 2, 3]))
+    bond = st.builds(BondRef, atom, atom, st.sampled_from([1, 2, 3])).filter(lambda b: b.first != b.second)
     source = st.one_of(st.builds(LonePair, atom), st.builds(UnpairedElectron, atom), st.builds(BondPair, bond),
                        st.builds(BareAtom, atom))
     sink = st.one_of(st.builds(AtomSink, atom), st.builds(BondSink, bond))
@@ -249,7 +250,7 @@ def _mechanisms():
 def test_any_printable_mechanism_round_trips():
     from hypothesis import given, settings
 
-    @settings(max_examples=300, deadline=None)
+    @settings(max_examples=200, deadline=None)
     @given(_mechanisms())
     def round_trip(mechanism):
         assert arrows.parse(mechanism.to_text()) == mechanism
