@@ -176,6 +176,53 @@ def test_token_soup_never_raises(tokens):
     assert_answers_with_diagnostics(" ".join(tokens))
 
 
+# Random moves, mostly wrong, between the mapped atoms of real species: every one must come back as
+# diagnostics (a move written O3-C2 -> O3-O3 once reached RDKit as a self-bond).
+MAPPED = ['[cH:1]1[cH:2][cH:3][cH:4][cH:5][c:6]1[OH:7]', '[CH3:11][C:12](=[O:13])[O:14][CH3:15]',
+          '[CH2:21]=[CH:22][CH:23]=[CH2:24]', '[C-:31]#[N:32]', '[NH3+:41][CH2:42][C:43](=[O:44])[O-:45]',
+          '[CH2:51]1[CH2:52][O:53]1', '[Br:61][Br:62]', '[CH3:71][CH2:72]', '[H-:81]', '[O:91]=[O:92]']
+SPECIES = "".join(f'species s{i} = "{smiles}"\n' for i, smiles in enumerate(MAPPED))
+ATOM_NAMES = ["C1", "C2", "C6", "O7", "C12", "O13", "O14", "C21", "C22", "C31", "N32", "N41", "O45", "C51", "O53",
+              "Br61", "Br62", "C71", "C72", "H81", "O91", "O92", "C99"]
+# Bonds as they are in the species, so that many sources are right and the sink is what is tested.
+REAL_BONDS = [("C12", "=", "O13"), ("C12", "-", "O14"), ("C21", "=", "C22"), ("C31", "#", "N32"), ("C51", "-", "O53"),
+              ("Br61", "-", "Br62"), ("O91", "=", "O92"), ("C71", "-", "C72"), ("O7", "-", "H"), ("N41", "-", "H")]
+
+atom_texts = st.sampled_from(ATOM_NAMES).flatmap(lambda a: st.sampled_from([a, f"H({a})"]))
+arrows_ = st.sampled_from(["->", "~>"])
+any_bond = st.builds(lambda a, c, b: f"{a}{c}{b}", atom_texts, st.sampled_from("-=#"), atom_texts)
+wild_move = st.builds(lambda src, arrow, sink: f"{src} {arrow} {sink}",
+                      st.one_of(atom_texts.map(lambda a: ":" + a), atom_texts.map(lambda a: "." + a), any_bond,
+                                atom_texts),
+                      arrows_, st.one_of(atom_texts, any_bond))
+
+
+def _from_real_bond(bond: tuple[str, str, str]):
+    """A right source bond with a sink made of its own atoms (or one more): onto an atom, into a
+    bond next to it, into itself, or into a bond with the same atom at both ends."""
+    first, connector, second = bond
+    ends = [first, f"H({first})" if second == "H" else second]
+    partners = st.sampled_from(ends + ATOM_NAMES)
+    connectors = st.sampled_from("-=#")
+    sink = st.one_of(st.sampled_from(ends),
+                     st.builds(lambda x, c, y: f"{x}{c}{y}", st.sampled_from(ends), connectors, partners),
+                     st.builds(lambda x, c: f"{x}{c}{x}", st.sampled_from(ends), connectors))
+    return st.builds(lambda arrow, target: f"{first}{connector}{second} {arrow} {target}", arrows_, sink)
+
+
+move_texts = st.one_of(wild_move, st.sampled_from(REAL_BONDS).flatmap(_from_real_bond))
+step_texts = st.builds(lambda kind, moves: f'step "s"{kind}\n' + "".join(f"    {m}\n" for m in moves) + "end\n",
+                       st.sampled_from(["", " resonance"]), st.lists(move_texts, min_size=1, max_size=2))
+
+
+# The replay stops at the first step that fails, and most random moves fail at once: short steps,
+# many examples.
+@settings(max_examples=600, deadline=None)
+@given(st.lists(step_texts, min_size=1, max_size=2))
+def test_random_moves_on_real_species_never_raise(steps):
+    assert_answers_with_diagnostics(SPECIES + "".join(steps))
+
+
 # A valid file to edit at random: the acetaldehyde aldol addition (small_mechanisms.py), with a
 # title and step options so that edits reach every part of the language.
 VALID = 'title "Aldol addition"\n' + ALDOL.replace('step "addition"', 'step "addition" reversible over "NaOH"')
