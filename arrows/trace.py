@@ -1,6 +1,7 @@
 """Replaying a mechanism: species -> starting state -> the state after every step."""
 from __future__ import annotations
 
+import re
 from dataclasses import dataclass, field
 from functools import cached_property
 from typing import Iterator, Optional
@@ -105,6 +106,15 @@ def species_mol(species: Species, explicit_h_on: set[int]) -> tuple[Optional[Che
     return mol, None
 
 
+def _map_location(species: Species, number: int, occurrence: int) -> Location:
+    """Where the n-th bracket atom carrying `number` is written in the species SMILES."""
+    starts = [m.start() for m in re.finditer(rf"\[[^\[\]]*:{number}\]", species.smiles)]
+    if len(starts) < occurrence:
+        return species.smiles_loc
+    loc = species.smiles_loc
+    return Location(loc.file, loc.line, loc.column + starts[occurrence - 1])
+
+
 def _map_numbers(mol: Chem.Mol) -> list[int]:
     return [a.GetAtomMapNum() for a in mol.GetAtoms() if a.GetAtomMapNum()]
 
@@ -138,10 +148,13 @@ def replay(mechanism: Mechanism) -> Trace:
         if problem:
             diags.append(problem)
             continue
+        in_this_species: dict[int, int] = {}
         for number in _map_numbers(mol):
+            in_this_species[number] = in_this_species.get(number, 0) + 1
             if number in seen_maps:
                 diags.append(Diagnostic("AR103", f"map number {number} is already used (line {seen_maps[number].line})",
-                                        sp.smiles_loc, hint="map numbers are unique across the whole mechanism"))
+                                        _map_location(sp, number, in_this_species[number]),
+                                        hint="map numbers are unique across the whole mechanism"))
             seen_maps.setdefault(number, sp.loc)
             if step_index is not None:
                 entered_later.setdefault(number, step_index)

@@ -116,7 +116,9 @@ TWINS = [
          says=("parenthes",)),
     Twin("checkpoint SMILES RDKit cannot read", SN2, 'product "CO.[Br-]"', 'product "CO.[Br-"', "AR102",
          "product"),
-    Twin("map number used twice", SN2, '"[OH-:1]"', '"[OH-:2]"', "AR103", "[CH3:2]", says=("line 1",)),
+    Twin("map number used twice", SN2, '"[OH-:1]"', '"[OH-:3]"', "AR103", "[Br:3]", says=("line 1",)),
+    Twin("map number used twice in one species", SN2, "[CH3:2][Br:3]", "[CH3:2][Br:2]", "AR103", "[Br:2]",
+         says=("line 2",)),
     # Bromide left the scheme in step 1; it cannot act as the base in step 2.
     Twin("move on a released atom", E1, ":O6 -> H(C1)", ":Br5 -> H(C1)", "AR106", "Br5 -> H(C1)"),
     Twin("step after the product", SN2, 'product "CO.[Br-]"\n',
