@@ -15,6 +15,7 @@ import argparse
 import json
 import os
 import re
+import resource
 import shutil
 import subprocess
 import sys
@@ -37,13 +38,22 @@ def scheme_folder(folder: Path, count: int) -> None:
         (folder / f"{i + 1:03d}-{source.name}").write_text(text)
 
 
-def timed(command: list[str]) -> float:
-    start = time.perf_counter()
-    proc = subprocess.run(command, capture_output=True, text=True)
-    elapsed = time.perf_counter() - start
-    if proc.returncode not in (0, 1):
-        raise SystemExit(f"{' '.join(command)} failed:\n{proc.stderr}")
-    return elapsed
+class Run:
+    """Wall-clock and CPU seconds of one command (its worker processes included)."""
+
+    def __init__(self, command: list[str]):
+        before = resource.getrusage(resource.RUSAGE_CHILDREN)
+        start = time.perf_counter()
+        proc = subprocess.run(command, capture_output=True, text=True)
+        self.wall = time.perf_counter() - start
+        after = resource.getrusage(resource.RUSAGE_CHILDREN)
+        self.cpu = (after.ru_utime - before.ru_utime) + (after.ru_stime - before.ru_stime)
+        if proc.returncode not in (0, 1):
+            raise SystemExit(f"{' '.join(command)} failed:\n{proc.stderr}")
+
+    def __str__(self) -> str:
+        # cores busy on average: about 1 for --jobs 1; below 2 for --jobs 2 when the machine is shared
+        return f"{self.wall:.2f} s (cpu {self.cpu:.2f} s, {self.cpu / self.wall:.2f} cores busy)"
 
 
 def bench_collect(work: Path, count: int) -> None:
@@ -52,15 +62,15 @@ def bench_collect(work: Path, count: int) -> None:
     runs = {}
     for jobs in (1, 2):
         out = work / f"j{jobs}" / "si.pdf"
-        runs[jobs] = timed([*ARROWS, "collect", str(folder), "-o", str(out), "-j", str(jobs),
-                            "--cache", str(work / f"cache{jobs}")])
-    warm = timed([*ARROWS, "collect", str(folder), "-o", str(work / "j2" / "si.pdf"), "-j", "2",
-                  "--cache", str(work / "cache2")])
+        runs[jobs] = Run([*ARROWS, "collect", str(folder), "-o", str(out), "-j", str(jobs),
+                          "--cache", str(work / f"cache{jobs}")])
+    warm = Run([*ARROWS, "collect", str(folder), "-o", str(work / "j2" / "si.pdf"), "-j", "2",
+                "--cache", str(work / "cache2")])
     same = (work / "j1" / "si.pdf").read_bytes() == (work / "j2" / "si.pdf").read_bytes()
-    print(f"collect, {count} schemes (cold cache):  --jobs 1 {runs[1]:.2f} s   --jobs 2 {runs[2]:.2f} s   "
-          f"speed-up {runs[1] / runs[2]:.2f}x (target >= 1.7x)   identical PDF: {same}")
-    print(f"collect, {count} schemes, --jobs 2:     cold {runs[2]:.2f} s   warm re-run {warm:.2f} s   "
-          f"speed-up {runs[2] / warm:.1f}x (target >= 20x)")
+    print(f"collect, {count} schemes, cold cache:\n  --jobs 1 {runs[1]}\n  --jobs 2 {runs[2]}\n"
+          f"  speed-up {runs[1].wall / runs[2].wall:.2f}x (target >= 1.7x); identical PDF: {same}")
+    print(f"collect, {count} schemes, --jobs 2, warm re-run: {warm}\n"
+          f"  speed-up over the cold run {runs[2].wall / warm.wall:.1f}x (target >= 20x)")
 
 
 def data_set(path: Path, count: int) -> None:
@@ -90,20 +100,20 @@ def rdkit_floor(path: Path) -> tuple[float, int]:
 
 
 def bench_jsonl(work: Path, count: int) -> None:
-    data = work / "set.jsonl"
     work.mkdir(parents=True)
+    data = work / "set.jsonl"
     data_set(data, count)
-    seconds = {}
+    runs = {}
     for jobs in (1, 2):
-        seconds[jobs] = timed([*ARROWS, "check", "--jsonl", str(data), "-j", str(jobs), "-q",
-                               "-o", str(work / f"results{jobs}.jsonl")])
+        runs[jobs] = Run([*ARROWS, "check", "--jsonl", str(data), "-j", str(jobs), "-q",
+                          "-o", str(work / f"results{jobs}.jsonl")])
     steps = sum(json.loads(line)["steps"] for line in (work / "results1.jsonl").open())
     floor_seconds, floor_steps = rdkit_floor(data)
-    per_core = steps / seconds[1]
+    per_core = steps / runs[1].wall
     floor = floor_steps / floor_seconds
-    print(f"check --jsonl, {count} records, {steps} steps:  --jobs 1 {seconds[1]:.2f} s = {per_core:.0f} steps/s/core   "
-          f"--jobs 2 {seconds[2]:.2f} s = {steps / seconds[2]:.0f} steps/s ({steps / seconds[2] / 2:.0f} per core)")
-    print(f"RDKit floor (parse + sanitize + canonical SMILES of each state): {floor:.0f} steps/s;   "
+    print(f"check --jsonl, {count} records, {steps} steps:\n  --jobs 1 {runs[1]} = {per_core:.0f} steps/s/core\n"
+          f"  --jobs 2 {runs[2]} = {steps / runs[2].wall:.0f} steps/s, speed-up {runs[1].wall / runs[2].wall:.2f}x")
+    print(f"  RDKit floor (parse + sanitize + canonical SMILES of each derived state): {floor:.0f} steps/s; "
           f"checking costs {floor / per_core:.1f}x the floor per step (whole command, start-up included)")
 
 
@@ -112,11 +122,12 @@ def main() -> None:
     parser.add_argument("--schemes", type=int, default=200)
     parser.add_argument("--records", type=int, default=2000)
     args = parser.parse_args()
-    print(f"{os.cpu_count()} cores; arrows from {ROOT}")
+    print(f"{os.cpu_count()} cores; load average {os.getloadavg()[0]:.1f} at the start; arrows from {ROOT}")
     work = Path(tempfile.mkdtemp(prefix="arrows-bench-"))
     try:
         bench_collect(work / "collect", args.schemes)
         bench_jsonl(work / "jsonl", args.records)
+        print(f"load average {os.getloadavg()[0]:.1f} at the end (above the core count: ratios are understated)")
     finally:
         shutil.rmtree(work, ignore_errors=True)
 
