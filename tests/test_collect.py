@@ -8,12 +8,16 @@ parsed with the standard library's XML parser.
 from __future__ import annotations
 
 import json
+import fcntl
 import os
+import pty
 import re
 import select
 import shutil
 import signal
+import struct
 import subprocess
+import termios
 import time
 import xml.etree.ElementTree as ET
 from pathlib import Path
@@ -123,6 +127,27 @@ def test_the_document_has_every_scheme_numbered_and_captioned(corpus):
         assert re.search(rf"S{number} .*? {number + 2}\b", texts[1])
     assert [item.title for item in reader.outline][:3] == ["Supporting information", "Contents", "Scheme S1"]
     assert reader.metadata["/Author"] == "A. Chemist, B. Chemist"
+
+
+def test_progress_is_a_bar_on_a_terminal_and_lines_otherwise(corpus, tmp_path):
+    assert "[1/33] S1 01-enolate-formation-variation-1.mech: passed (drawn)" in corpus["proc"].stderr
+    controller, terminal = pty.openpty()
+    fcntl.ioctl(terminal, termios.TIOCSWINSZ, struct.pack("HHHH", 24, 100, 0, 0))   # a 100-column terminal
+    proc = subprocess.run(["arrows", "collect", str(GALLERY[0]), "-o", str(tmp_path / "one.pdf"), "-j", "1"],
+                          stdout=subprocess.PIPE, stderr=terminal, timeout=300)
+    os.close(terminal)
+    shown = b""
+    while True:
+        try:
+            chunk = os.read(controller, 1 << 16)
+        except OSError:      # the terminal is closed and drained
+            break
+        if not chunk:
+            break
+        shown += chunk
+    os.close(controller)
+    assert proc.returncode == 0
+    assert b"0/1 [" in shown and b"[1/1]" not in shown     # tqdm's bar, not the plain lines
 
 
 def test_the_broken_files_are_in_the_summary_with_their_codes(corpus):

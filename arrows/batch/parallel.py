@@ -55,7 +55,7 @@ class WorkerPool:
 
     Use as a context manager. concurrent.futures notices a worker that dies mid-task (the
     multiprocessing pool would wait for its result for ever); that ends the map with WorkerDied.
-    Leaving by an exception (Ctrl-C included) cancels every task not yet started.
+    Leaving the block cancels every task not yet started.
     """
 
     def __init__(self, jobs: int, window_per_job: int = 4):
@@ -70,7 +70,9 @@ class WorkerPool:
 
     def __exit__(self, kind, value, tb) -> None:
         if self._executor is not None:
-            self._executor.shutdown(wait=True, cancel_futures=kind is not None)
+            # Tasks still queued are unwanted whichever way the caller left (an error, Ctrl-C, or
+            # a map it stopped reading, as --fail-fast does).
+            self._executor.shutdown(wait=True, cancel_futures=True)
 
     def map(self, fn: Callable[[T], R], items: Iterable[T]) -> Iterator[R]:
         if self._executor is None:
