@@ -107,3 +107,34 @@ def test_trace_stereo_shows_steps_products_and_relations(tmp_path):
     assert "stereo   new stereocentre C2" in out
     assert "CCC(C)[O-]: stereocentre C2; 2 stereoisomers with no stereocontrol" in out
     assert "CC[C@H]([O-])C and CC[C@@H]([O-])C: enantiomers" in out
+
+
+@pytest.mark.parametrize("smiles, textbook", [
+    ("CC(O)C(O)C", 3),                     # butane-2,3-diol: a pair of enantiomers and a meso form
+    ("OC(=O)C(O)C(O)C(=O)O", 3),           # tartaric acid: (R,R), (S,S), meso
+    ("CC(O)C(O)C(O)C", 4),                 # pentane-2,3,4-triol: C3 pseudo-asymmetric in the meso forms
+    ("CC1CCC(C)CC1", 2),                   # 1,4-dimethylcyclohexane: cis and trans
+    ("OC1C(O)C(O)C(O)C(O)C1O", 9),         # inositol: nine stereoisomers
+    ("CC=CC=CC", 3),                       # hexa-2,4-diene: EE, EZ, ZZ
+    ("OCC(O)C(O)C(O)C(O)C=O", 16),         # an aldohexose: 2**4
+    ("OC1CCCCC1O", 3),                     # cyclohexane-1,2-diol: cis (meso) and the trans pair
+    ("CC=CC(O)C", 4),                      # pent-3-en-2-ol: E/Z times R/S
+])
+def test_stereoisomer_count_against_textbook_and_rdkit(smiles, textbook):
+    """Textbook counts (memory) and RDKit's EnumerateStereoisomers (unique) as the judges of our
+    own enumeration, which avoids importing RDKit's embedding code."""
+    from arrows.judgement.stereo import stereoisomer_count
+    mol = Chem.MolFromSmiles(smiles)
+    assert stereoisomer_count(mol) == textbook == rdkit_count(smiles)
+
+
+def test_check_does_not_import_the_embedding_code():
+    """`arrows check` on a product with a stereocentre stays clear of RDKit's distance geometry
+    and numpy (start-up cost measured by benchmarks/bench_check.py)."""
+    import subprocess
+    import sys
+    code = ("import sys; from arrows.api import check_file; "
+            f"check_file({str(GALLERY[0].parent / '01-enolate-formation.mech')!r}); "
+            "print('rdkit.Chem.rdDistGeom' in sys.modules, 'numpy' in sys.modules)")
+    out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, check=True).stdout
+    assert out.split() == ["False", "False"]

@@ -53,7 +53,9 @@ class ProtonTransfer:
         return self.acid.pka - self.conjugate_acid.pka
 
 
-def proton_transfers(st: StepTrace) -> list[ProtonTransfer]:
+def proton_transfers(st: StepTrace, seen: Optional[dict] = None) -> list[ProtonTransfer]:
+    """The plain proton transfers of one step, each with its two acidities; `seen` caches the
+    perceived copy of states already met (the state after one step is the state before the next)."""
     if st.after is None:
         return []
     before, after = st.before.mol, st.after.mol
@@ -74,9 +76,15 @@ def proton_transfers(st: StepTrace) -> list[ProtonTransfer]:
             continue   # a concerted elimination, not a plain proton transfer
         if (m.source_kind == "bond" and _next_to_cation(st.after, base)) or _next_to_cation(st.before, x):
             continue   # a cation's conjugate acid, or a C-H beta to a cation (E1): no entry in our table
-        found.append(ProtonTransfer(base, x, h, m.move.loc, acidity_of(perceived(before), x),
-                                    acidity_of(perceived(after), base)))
-    return found
+        found.append((base, x, h, m.move.loc))
+    if not found:
+        return []
+    seen = {} if seen is None else seen
+    for mol in (before, after):
+        if id(mol) not in seen:        # the trace keeps every state alive, so ids stay unique
+            seen[id(mol)] = perceived(mol)
+    acids, conjugates = seen[id(before)], seen[id(after)]
+    return [ProtonTransfer(b, x, h, loc, acidity_of(acids, x), acidity_of(conjugates, b)) for b, x, h, loc in found]
 
 
 def _other(pair: tuple[int, ...], atom: int) -> int:
@@ -98,8 +106,9 @@ class UphillProtonTransfers:
 
     def run(self, trace: Trace) -> Iterator[Diagnostic]:
         gap = _gap.get()
+        seen: dict = {}
         for st in trace.steps:
-            for t in proton_transfers(st):
+            for t in proton_transfers(st, seen):
                 uphill = t.uphill
                 if uphill is None or uphill <= gap:
                     continue

@@ -8,7 +8,7 @@ from typing import Iterator, Optional
 from rdkit import Chem
 
 from ..diagnostics import Diagnostic
-from ..judgement.stereo import CENTRE, StereoElement, describe, stereo_changes, stereo_elements, stereoisomer_count
+from ..judgement.stereo import CENTRE, StereoElement, describe, stereo_elements, stereoisomer_count
 from ..rdkit_io import canonical
 from ..trace import StepTrace, Trace
 
@@ -17,13 +17,23 @@ from ..trace import StepTrace, Trace
 class ProductStereo:
     smiles: str
     elements: tuple[StereoElement, ...]
-    stereoisomers: int
+    stereoisomers: Optional[int]     # None: RDKit could not enumerate them
 
 
-def step_stereo(st: StepTrace) -> tuple[list[StereoElement], list[StereoElement]]:
+def step_stereo(st: StepTrace, seen: Optional[dict] = None) -> tuple[list[StereoElement], list[StereoElement]]:
+    """(made, lost) in one step; `seen` caches the elements of states already perceived (the
+    state after one step is usually the state before the next)."""
     if st.after is None:
         return [], []
-    return stereo_changes(st.before.mol, st.after.mol)
+    seen = {} if seen is None else seen
+
+    def elements(mol):
+        if id(mol) not in seen:     # the trace keeps every state alive, so ids stay unique
+            seen[id(mol)] = stereo_elements(mol)
+        return seen[id(mol)]
+
+    old, new = elements(st.before.mol), elements(st.after.mol)
+    return sorted(new - old), sorted(old - new)
 
 
 def final_stereo(trace: Trace) -> list[ProductStereo]:
@@ -68,8 +78,9 @@ class StereoChanges:
     codes = ("AR602",)
 
     def run(self, trace: Trace) -> Iterator[Diagnostic]:
+        seen: dict = {}
         for st in trace.steps:
-            made, lost = step_stereo(st)
+            made, lost = step_stereo(st, seen)
             if not made and not lost:
                 continue
             label = st.after.label
@@ -85,7 +96,7 @@ class StereoChanges:
             yield product
 
     def _product_note(self, trace: Trace) -> Optional[Diagnostic]:
-        many = [p for p in final_stereo(trace) if p.stereoisomers > 1]
+        many = [p for p in final_stereo(trace) if (p.stereoisomers or 0) > 1]
         if not many:
             return None
         loc = trace.mechanism.product.loc if trace.mechanism.product else trace.steps[-1].step.loc

@@ -39,8 +39,9 @@ def final_lines(trace: Trace) -> list[str]:
         return lines + ["  the final state was not derived"]
     products = final_stereo(trace)
     for p in products:
-        lines.append(f"  {p.smiles}: {_names(p.elements, trace.final.label)}; {p.stereoisomers} "
-                     f"stereoisomer{'s' if p.stereoisomers != 1 else ''} with no stereocontrol")
+        count = ("stereoisomers not counted (RDKit cannot enumerate this structure)" if p.stereoisomers is None else
+                 f"{p.stereoisomers} stereoisomer{'s' if p.stereoisomers != 1 else ''} with no stereocontrol")
+        lines.append(f"  {p.smiles}: {_names(p.elements, trace.final.label)}; {count}")
     if not products:
         lines.append("  no stereocentre or stereogenic double bond in the final state")
     if trace.mechanism.product is not None:

@@ -87,7 +87,11 @@ def perceived(mol: Chem.Mol) -> Chem.Mol:
 
 def acidity_of(mol: Chem.Mol, atom: int) -> Optional[Acidity]:
     """The first table entry whose SMARTS matches with its first atom at `atom` (mol perceived)."""
+    element = mol.GetAtomWithIdx(atom).GetAtomicNum()
     for entry in TABLE:
-        if any(match[0] == atom for match in mol.GetSubstructMatches(_pattern(entry.smarts), uniquify=False)):
+        pattern = _pattern(entry.smarts)
+        if pattern.GetAtomWithIdx(0).GetAtomicNum() not in (0, element):
+            continue   # a quick no: the entry is about another element
+        if any(match[0] == atom for match in mol.GetSubstructMatches(pattern, uniquify=False)):
             return entry
     return None

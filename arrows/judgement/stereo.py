@@ -9,13 +9,12 @@ are reported with the state's own atom indices.
 from __future__ import annotations
 
 from dataclasses import dataclass
-from itertools import combinations
+from itertools import combinations, product
 from typing import Iterable, Optional
 
 from rdkit import Chem
 
 CENTRE, DOUBLE_BOND = "stereocentre", "stereogenic double bond"
-_ORIGINAL = "arrows_index"
 
 
 @dataclass(frozen=True, order=True)
@@ -24,32 +23,33 @@ class StereoElement:
     atoms: tuple[int, ...]     # (centre,) or the two atoms of the double bond, ascending
 
 
-def _plain(mol: Chem.Mol, clear_stereo_on: Iterable[int] = ()) -> Optional[Chem.Mol]:
-    """Copy without maps and hydrogen atoms; each atom remembers its index in `mol`."""
+def _plain(mol: Chem.Mol, clear_stereo_on: Iterable[int] = ()) -> tuple[Optional[Chem.Mol], list[int]]:
+    """A copy without hydrogen atoms (an explicit hydrogen would make two equal groups look
+    different), and for each of its atoms the index in `mol`. Map numbers are left on: RDKit's
+    stereo perception ignores them. Only the atoms in `clear_stereo_on` lose their configuration."""
     work = Chem.RWMol(mol)
-    clear = set(clear_stereo_on)
-    for atom in work.GetAtoms():
-        atom.SetAtomMapNum(0)
-        atom.SetIntProp(_ORIGINAL, atom.GetIdx())
-        if atom.GetIdx() in clear:
-            atom.SetChiralTag(Chem.ChiralType.CHI_UNSPECIFIED)
-    for bond in work.GetBonds():
-        if bond.GetBeginAtomIdx() in clear or bond.GetEndAtomIdx() in clear:
+    for i in clear_stereo_on:
+        work.GetAtomWithIdx(i).SetChiralTag(Chem.ChiralType.CHI_UNSPECIFIED)
+        for bond in work.GetAtomWithIdx(i).GetBonds():
             bond.SetStereo(Chem.BondStereo.STEREONONE)
+    heavy = [i for i in range(work.GetNumAtoms()) if work.GetAtomWithIdx(i).GetAtomicNum() != 1]
     try:
-        plain = Chem.RemoveHs(work.GetMol(), sanitize=False)
+        params = Chem.RemoveHsParameters()
+        params.removeDegreeZero = True     # a free proton too
+        plain = Chem.RemoveHs(work.GetMol(), params, sanitize=False)
         Chem.SanitizeMol(plain)
     except Exception:   # an intermediate RDKit will not perceive: report nothing rather than guess
-        return None
-    return plain
+        return None, []
+    if plain.GetNumAtoms() != len(heavy):   # RDKit kept a hydrogen (an isotope, a bridge): no guessing
+        return None, []
+    return plain, heavy
 
 
 def stereo_elements(mol: Chem.Mol) -> frozenset[StereoElement]:
-    plain = _plain(mol)
+    plain, original = _plain(mol)
     if plain is None:
         return frozenset()
-    original = [a.GetIntProp(_ORIGINAL) for a in plain.GetAtoms()]
-    ranks = list(Chem.CanonicalRankAtoms(plain, breakTies=False))
+    ranks = list(Chem.CanonicalRankAtoms(plain, breakTies=False, includeAtomMaps=False))
     found = set()
     for info in Chem.FindPotentialStereo(plain, cleanIt=True):
         if info.type == Chem.StereoType.Atom_Tetrahedral:
@@ -79,18 +79,70 @@ def stereo_changes(before: Chem.Mol, after: Chem.Mol) -> tuple[list[StereoElemen
     return sorted(new - old), sorted(old - new)
 
 
-def stereoisomer_count(mol: Chem.Mol, uncontrolled: Iterable[int] = ()) -> int:
+MAX_ENUMERATED = 12     # stereo elements; beyond that the count is the upper bound 2**n
+
+
+def stereoisomer_count(mol: Chem.Mol, uncontrolled: Iterable[int] = ()) -> Optional[int]:
     """How many stereoisomers of `mol` (one fragment) are possible when the configuration of
     every unspecified element, and of every element at an atom in `uncontrolled`, is left open.
-    Meso forms and other coincidences count once (RDKit's unique enumeration)."""
-    plain = _plain(mol, uncontrolled)
+
+    Every assignment of the open elements is cleaned up by RDKit's stereo perception (which drops
+    the descriptors an assignment makes meaningless: meso and pseudo-asymmetric cases) and written
+    as canonical SMILES; the distinct strings are counted. This is what RDKit's EnumerateStereoisomers does with
+    unique=True; doing it here spares `arrows check` that module's import of RDKit's embedding
+    code and numpy (about 0.3 s of start-up). tests/test_stereo.py holds the two to the same counts.
+    """
+    plain, _ = _plain(mol, uncontrolled)
     if plain is None:
-        return 1
-    # Imported here: the module pulls in RDKit's embedding code and numpy (~0.1 s), which the
-    # start-up of `arrows check` should pay only when a product has stereo elements to count.
-    from rdkit.Chem.EnumerateStereoisomers import EnumerateStereoisomers, StereoEnumerationOptions
-    options = StereoEnumerationOptions(onlyUnassigned=True, unique=True, tryEmbedding=False)
-    return sum(1 for _ in EnumerateStereoisomers(plain, options=options))
+        return None     # RDKit cannot perceive this structure: the count is unknown
+    for i in range(plain.GetNumAtoms()):   # map numbers would keep mirror-image duplicates apart
+        plain.GetAtomWithIdx(i).SetAtomMapNum(0)
+    ranks = list(Chem.CanonicalRankAtoms(plain, breakTies=False))
+    open_elements = [info for info in Chem.FindPotentialStereo(plain, cleanIt=True)
+                     if info.specified != Chem.StereoSpecified.Specified
+                     and (info.type == Chem.StereoType.Atom_Tetrahedral
+                          or (info.type == Chem.StereoType.Bond_Double and _stereogenic_bond(plain, ranks, info)))]
+    if len(open_elements) > MAX_ENUMERATED:
+        return 2 ** len(open_elements)
+    written = set()
+    for bits in product((False, True), repeat=len(open_elements)):
+        work = Chem.RWMol(plain)
+        try:
+            for info, bit in zip(open_elements, bits):
+                _assign(work, info, bit)
+            # RDKit's clean-up drops the descriptors this assignment makes meaningless (meso and
+            # pseudo-asymmetric cases); double bonds need their neighbour directions to survive it.
+            Chem.SetDoubleBondNeighborDirections(work)
+            work.ClearComputedProps(includeRings=False)
+            Chem.AssignStereochemistry(work, cleanIt=True, force=True, flagPossibleStereoCenters=True)
+            written.add(Chem.MolToSmiles(work))
+        except Exception:   # RDKit refuses an assignment of an odd intermediate: unknown, not a guess
+            return None
+    return len(written)
+
+
+def _stereogenic_bond(mol: Chem.Mol, ranks: list[int], info) -> bool:
+    """A double bond whose configuration can be written: both ends carry a heavy neighbour to
+    refer to (a C=CH- end with only a hydrogen and a lone pair cannot be, as in RDKit's own
+    enumeration) and two different substituents."""
+    bond = mol.GetBondWithIdx(info.centeredOn)
+    a, b = bond.GetBeginAtomIdx(), bond.GetEndAtomIdx()
+    if mol.GetAtomWithIdx(a).GetDegree() < 2 or mol.GetAtomWithIdx(b).GetDegree() < 2:
+        return False
+    return _distinct_ends(mol, ranks, a, b) and _distinct_ends(mol, ranks, b, a)
+
+
+def _assign(mol: Chem.RWMol, info, bit: bool) -> None:
+    if info.type == Chem.StereoType.Atom_Tetrahedral:
+        mol.GetAtomWithIdx(info.centeredOn).SetChiralTag(
+            Chem.ChiralType.CHI_TETRAHEDRAL_CW if bit else Chem.ChiralType.CHI_TETRAHEDRAL_CCW)
+        return
+    bond = mol.GetBondWithIdx(info.centeredOn)
+    a, b = bond.GetBeginAtomIdx(), bond.GetEndAtomIdx()
+    ref_a = next(n.GetIdx() for n in mol.GetAtomWithIdx(a).GetNeighbors() if n.GetIdx() != b)
+    ref_b = next(n.GetIdx() for n in mol.GetAtomWithIdx(b).GetNeighbors() if n.GetIdx() != a)
+    bond.SetStereoAtoms(ref_a, ref_b)
+    bond.SetStereo(Chem.BondStereo.STEREOCIS if bit else Chem.BondStereo.STEREOTRANS)
 
 
 def describe(element: StereoElement, label) -> str:
