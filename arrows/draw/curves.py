@@ -18,6 +18,7 @@ from __future__ import annotations
 import cmath
 import math
 from dataclasses import dataclass
+from functools import lru_cache
 
 import numpy as np
 
@@ -26,9 +27,9 @@ from .scene import Box, CurvedArrow, Mark
 from .structure import PanelStructure, best_direction, clearance
 from .styles import Style
 
-_SAMPLES = 20
-_ANGLES = (math.radians(30), math.radians(48), math.radians(66))
-_SHORT_ANGLES = (math.radians(60), math.radians(85), math.radians(115))
+_SAMPLES = 16
+_ANGLES = (math.radians(34), math.radians(58))
+_SHORT_ANGLES = (math.radians(40), math.radians(70), math.radians(105))
 _KEEP = 4          # candidates per arrow that enter the joint choice
 _T = np.linspace(0.0, 1.0, _SAMPLES + 1)
 _BERNSTEIN = np.stack([(1 - _T) ** 3, 3 * _T * (1 - _T) ** 2, 3 * _T ** 2 * (1 - _T), _T ** 3])
@@ -46,6 +47,7 @@ def split_before(p0: complex, p1: complex, p2: complex, p3: complex, t: float) -
     return p0, a, d, d + (e - d) * t
 
 
+@lru_cache(maxsize=None)
 def _handle(theta: float) -> float:
     """Handle length over chord for a cubic close to a circular arc leaving the chord at theta."""
     return (4.0 / 3.0) * math.tan(theta / 2) / (2 * math.sin(theta))
@@ -97,6 +99,23 @@ class _Obstacles:
         self.bond_pairs = pairs
         self.bond_a = np.array([panel.positions[i] for i, _ in pairs], dtype=complex)
         self.bond_b = np.array([panel.positions[j] for _, j in pairs], dtype=complex)
+
+    def around(self, x0: float, y0: float, x1: float, y1: float) -> "_Obstacles":
+        """Only what lies within a box (the reach of every candidate curve of a panel)."""
+        out = object.__new__(type(self))
+        xy = self.atom_xy
+        keep = (xy.real >= x0) & (xy.real <= x1) & (xy.imag >= y0) & (xy.imag <= y1)
+        out.atom_ids, out.atom_xy, out.labelled, out.boxes = (self.atom_ids[keep], xy[keep], self.labelled[keep],
+                                                            self.boxes[keep])
+        m = self.marks
+        keep = (m[:, 2] >= x0) & (m[:, 0] <= x1) & (m[:, 3] >= y0) & (m[:, 1] <= y1)
+        out.marks, out.mark_owner = m[keep], self.mark_owner[keep]
+        a, b = self.bond_a, self.bond_b
+        keep = ((np.maximum(a.real, b.real) >= x0) & (np.minimum(a.real, b.real) <= x1)
+                & (np.maximum(a.imag, b.imag) >= y0) & (np.minimum(a.imag, b.imag) <= y1))
+        out.bond_pairs = [p for p, k in zip(self.bond_pairs, keep.tolist()) if k]
+        out.bond_a, out.bond_b = a[keep], b[keep]
+        return out
 
 
 class ArrowPlanner:
@@ -159,7 +178,7 @@ class ArrowPlanner:
             dots, kind = (spot + across, spot - across), "lone_pair"
         box = Box(min(d.real for d in dots) - r, min(d.imag for d in dots) - r,
                   max(d.real for d in dots) + r, max(d.imag for d in dots) + r)
-        marks.append(Mark(kind, atom, dots=tuple((round(d.real, 4), round(d.imag, 4)) for d in dots),
+        marks.append(Mark(kind, atom, dots=tuple((d.real, d.imag) for d in dots),
                           radius=r, box=box))
         return _Anchor("dots", spot, (atom,), outward=direction)
 
@@ -212,7 +231,7 @@ class ArrowPlanner:
         the curve is close to a circular arc; the ends are refitted twice as the chord moves."""
         turn = cmath.rect(1.0, -side * theta)
         p0, tip = src.point, snk.point
-        for _ in range(3):
+        for _ in range(2):
             u = _unit(tip - p0)
             leave, arrive = u * turn, u / turn
             p0 = self._tail(src, leave)
@@ -257,6 +276,9 @@ class ArrowPlanner:
         tip = np.array([c.tip for c in candidates])[:, None]
         inner = (np.abs(pts - p0) > 0.22 * bl) & (np.abs(pts - tip) > 0.22 * bl)
         x, y = pts.real[:, :, None], pts.imag[:, :, None]
+        reach = 1.3 * bl     # the crowding term looks this far from a curve
+        ob = ob.around(float(pts.real.min()) - reach, float(pts.imag.min()) - reach,
+                       float(pts.real.max()) + reach, float(pts.imag.max()) + reach)
         owns = [set(m.source_atoms) | set(m.sink_atoms) for m in moves]
         cost = np.zeros(len(candidates))
         if len(ob.atom_ids):
@@ -272,8 +294,9 @@ class ArrowPlanner:
             cost += 3.0 * np.clip(1.1 - middle / bl, 0, None).sum(axis=(1, 2))
         if len(ob.marks):
             hit = (x >= ob.marks[:, 0]) & (x <= ob.marks[:, 2]) & (y >= ob.marks[:, 1]) & (y <= ob.marks[:, 3])
-            mine = np.array([np.isin(ob.mark_owner, list(src.atoms)) if src.kind == "dots"
-                             else np.zeros(len(ob.marks), bool) for src in sources])[owner][:, None, :]
+            owners = ob.mark_owner.tolist()
+            mine = np.array([[src.kind == "dots" and m in src.atoms for m in owners] for src in sources],
+                            dtype=bool)[owner][:, None, :]
             cost += 30.0 * (hit & inner[:, :, None] & ~mine).sum(axis=(1, 2))
         if ob.bond_pairs:
             weights = []
@@ -379,7 +402,7 @@ class ArrowPlanner:
             outline = (tip, back + outside * half, notch)
 
         def pt(z: complex) -> tuple[float, float]:
-            return (round(z.real, 4), round(z.imag, 4))
+            return (z.real, z.imag)
 
         return CurvedArrow(
             step=step, move=str(move.move), electrons=move.electrons, source_kind=move.source_kind,
@@ -406,12 +429,13 @@ def _crossing_counts(pts: np.ndarray, a: np.ndarray, b: np.ndarray) -> np.ndarra
     """For each polyline (rows of pts) and each segment a[e]-b[e]: how many times they cross."""
     if len(a) == 0:
         return np.zeros((pts.shape[0], 0))
-    p, q = pts[:, :-1, None], pts[:, 1:, None]
-
-    def orient(u, v, w):
-        return (np.conj(v - u) * (w - u)).imag
-
-    o1, o2 = orient(p, q, a), orient(p, q, b)
-    o3, o4 = orient(a, b, p), orient(a, b, q)
-    hit = (o1 * o2 < 0) & (o3 * o4 < 0)
-    return hit.sum(axis=1)
+    px, py = pts.real[:, :-1, None], pts.imag[:, :-1, None]
+    qx, qy = pts.real[:, 1:, None], pts.imag[:, 1:, None]
+    ax, ay, bx, by = a.real, a.imag, b.real, b.imag
+    dx, dy = qx - px, qy - py
+    ex, ey = bx - ax, by - ay
+    o1 = dx * (ay - py) - dy * (ax - px)
+    o2 = dx * (by - py) - dy * (bx - px)
+    o3 = ex * (py - ay) - ey * (px - ax)
+    o4 = ex * (qy - ay) - ey * (qx - ax)
+    return ((o1 * o2 < 0) & (o3 * o4 < 0)).sum(axis=1)

@@ -34,6 +34,13 @@ from ..electrons import ElectronState, ResolvedMove
 # curved arrow, close enough to read as one event.
 TRANSFER_GAP = 1.5
 _CLEARANCE = 1.2     # nearest approach allowed between atoms of separately placed clusters
+_COMPASS = np.exp(1j * np.arange(36) * np.pi / 18)     # directions tried, every 10 degrees
+_SEVENTY = math.radians(70)
+# Ways to place a cluster next to its partner, in order of preference: (penalty, turn of the
+# approach line in 20-degree steps, spin of the cluster in 30-degree steps, extra distance).
+_BOND_OPTIONS = sorted((abs(t) + abs(s) * 0.7, t, s, 0.0) for t in (0, 1, -1, 2, -2, 3, -3) for s in (0, 1, -1, 2, -2, 6))
+_HOP_OPTIONS = sorted((abs(t) + abs(s) * 0.7 + e, t, s, e) for t in (0, 1, -1, 2, -2, 3, -3)
+                      for s in (0, 1, -1, 2, -2, 6) for e in (0.0, 0.5, 1.0))
 
 
 @dataclass(frozen=True)
@@ -197,6 +204,7 @@ class _LayoutBuilder:
         for start, _ in main.segments:
             main.placement[start] = (1 + 0j, 0j, None)
         self._apply(self.main)
+        self._open_rings()
         while self._place_by_events() or self._place_leftovers():
             pass
         self._place_hydrogens()
@@ -206,16 +214,84 @@ class _LayoutBuilder:
             panels.append(PanelAtoms(state, visible, {i: self.positions[k][i] for i in visible}))
         return Layout(tuple(panels), self.drawn_h)
 
+    def _open_rings(self) -> None:
+        """A ring that closes in a later step is drawn open until then, where only the atom that
+        closes it moves: a chain end whose one other bond is to an atom that stays put swings
+        about that atom, away from its partner, in the panels before the closing step (that atom
+        is touched by the closing step, so it may move then)."""
+        main = set(self.clusters[self.main].atoms)
+        for k in range(self.n - 1):
+            for i, j in sorted(self.bonds_in[k + 1] - self.bonds_in[k]):
+                if i not in main or j not in main:
+                    continue
+                for end, partner in ((i, j), (j, i)):
+                    if self._swing(end, partner, k):
+                        break
+
+    def _swing(self, end: int, partner: int, k: int) -> bool:
+        """Swing `end` about its one other heavy neighbour in panels first..k, if nothing else
+        hangs on it that is drawn there. Returns whether it moved."""
+        if end not in self.touched[k] or self.element[end] == 1:
+            return False
+        others = [n for n in self.neighbours[end] if n != partner]
+        heavy = [n for n in others if self.element[n] != 1]
+        if len(heavy) != 1 or any(n not in self.bridging for n in others if self.element[n] == 1):
+            return False
+        pivot = heavy[0]
+        first = k
+        while first > 0 and end in self.exists[first - 1] and end not in self.touched[first - 1]:
+            first -= 1
+        panels = [p for p in range(first, k + 1) if end in self.positions[p] and pivot in self.positions[p]]
+        if not panels or any(p > first and (min(end, pivot), max(end, pivot)) not in self.bonds_in[p] for p in panels):
+            return False
+        # A hydrogen on it moves with it; that may not be seen on both panels around the step
+        # (a travelling hydrogen is shown only next to the steps that move it).
+        for runs in self.residences.values():
+            for r in runs:
+                if r.holder == end and r.first == k and r.last == k + 1:
+                    return False
+        start = self.positions[panels[0]][end]
+        centre = self.positions[panels[0]][pivot]
+        crowd = np.array(sorted({p for q in panels for a, p in self.positions[q].items() if a not in (end, pivot)},
+                                key=lambda z: (z.real, z.imag)), dtype=complex)
+        best, best_score = None, -math.inf
+        for degrees in (20, -20, 40, -40, 60, -60, 80, -80):
+            spot = centre + (start - centre) * cmath.rect(1.0, math.radians(degrees))
+            room = float(np.abs(crowd - spot).min()) if len(crowd) else 9.0
+            score = min(room, 1.4) - 0.002 * abs(degrees)
+            if score > best_score:
+                best, best_score = spot, score
+        if best is None or best_score < 1.0:
+            return False
+        for p in panels:
+            self.positions[p][end] = best
+        return True
+
     def _permanent(self, i: int, j: int) -> bool:
         """Present in every state that has both atoms (a fragment that leaves is still there)."""
         return all((i, j) in self.bonds_in[k] for k in range(self.n) if max(i, j) < self.states[k].mol.GetNumAtoms())
 
+    def _pinned_together(self, bond: tuple[int, int], groups: _UnionFind) -> bool:
+        """Whether both sides of a bond that forms or breaks keep an untouched atom through
+        every step that changes it: then neither side may move, they sit at bond length in
+        every panel anyway, and one depiction of both reads best."""
+        i, j = bond
+        sides = [{a for a in self.atoms if self.element[a] != 1 and groups.find(a) == groups.find(x)} for x in bond]
+        for k in range(self.n - 1):
+            if ((i, j) in self.bonds_in[k]) == ((i, j) in self.bonds_in[k + 1]):
+                continue
+            for side in sides:
+                if not (side & self.exists[k] & self.exists[k + 1]) - self.touched[k]:
+                    return False
+        return True
+
     def _find_clusters(self) -> None:
         """Clusters are held together by bonds that never change. A bond that forms or breaks
         between two clusters is drawn by placing one next to the other, unless two such bonds
-        join them (a ring made between species, as in a cycloaddition): then they are depicted
-        together, already curled into that ring. A travelling hydrogen belongs to a cluster only
-        if every atom it is ever bonded to does."""
+        join them (a ring made between species, as in a cycloaddition) or neither side could
+        move anyway: then they are depicted together, as one molecule already curled into the
+        bonds it will make. A travelling hydrogen belongs to a cluster only if every atom it is
+        ever bonded to does."""
         heavy_atoms = [i for i in self.atoms if self.element[i] != 1]
         groups = _UnionFind(heavy_atoms)
         heavy_bonds = [(i, j) for i, j in self.union if self.element[i] != 1 and self.element[j] != 1]
@@ -223,15 +299,16 @@ class _LayoutBuilder:
             if self._permanent(i, j):
                 groups.join(i, j)
         while True:
-            links: dict[tuple[int, int], int] = {}
+            links: dict[tuple[int, int], list[tuple[int, int]]] = {}
             for i, j in heavy_bonds:
                 a, b = groups.find(i), groups.find(j)
                 if a != b:
-                    links[(min(a, b), max(a, b))] = links.get((min(a, b), max(a, b)), 0) + 1
-            rings = [pair for pair, count in sorted(links.items()) if count > 1]
-            if not rings:
+                    links.setdefault((min(a, b), max(a, b)), []).append((i, j))
+            joined = [pair for pair, bonds in sorted(links.items())
+                      if len(bonds) > 1 or self._pinned_together(bonds[0], groups)]
+            if not joined:
                 break
-            for a, b in rings:
+            for a, b in joined:
                 groups.join(a, b)
         self.bridging = {h for h in self.drawn_h
                          if len({groups.find(n) for n in self.neighbours[h] if self.element[n] != 1}) != 1}
@@ -379,23 +456,46 @@ class _LayoutBuilder:
         """The direction from `atom` with the most room for a new neighbour at `reach`: away from
         its bonds and promised hydrogens, out of ring interiors, away from nearby atoms."""
         centre = self.positions[k][atom]
-        taken = [_unit(p - centre) for p in self._occupied_around(atom, k, hydrogen) if abs(p - centre) > 1e-9]
-        near = [p for a, p in self.positions[k].items() if a != atom and abs(p - centre) < reach + 1.3]
+        taken = np.array([_unit(p - centre) for p in self._occupied_around(atom, k, hydrogen)
+                          if abs(p - centre) > 1e-9], dtype=complex)
+        near = np.array([p for a, p in self.positions[k].items() if a != atom and abs(p - centre) < reach + 1.3],
+                        dtype=complex)
+        spots = centre + _COMPASS * reach
+        score = np.full(len(_COMPASS), 1.0)
+        if len(taken):
+            angle = np.abs(np.angle(_COMPASS[:, None] / taken[None, :])).min(axis=1)
+            score = np.minimum(angle, _SEVENTY) / _SEVENTY
+        score = score + 0.6 * (np.minimum(np.abs(spots[:, None] - near[None, :]).min(axis=1), 1.2)
+                               if len(near) else 1.2)
+        if prefer is not None:
+            score = score + 0.15 * (_COMPASS * np.conj(_unit(prefer))).real
+        ideal = self._zigzag(atom, k)
+        if ideal is not None:
+            score = score + 0.3 * np.clip((_COMPASS * np.conj(ideal)).real, 0.0, None)
         polygons = [[self.positions[k][a] for a in ring] for ring in self._closed_rings(k)]
-        best, best_score = None, -math.inf
-        for step in range(36):
-            d = cmath.rect(1.0, step * math.pi / 18)
-            spot = centre + d * reach
-            if any(_inside(spot, poly) for poly in polygons):
-                continue
-            angle = min((abs(cmath.phase(d / t)) for t in taken), default=math.pi)
-            room = min((abs(spot - p) for p in near), default=2.0)
-            score = min(angle, math.radians(70)) / math.radians(70) + 0.6 * min(room, 1.2)
-            if prefer is not None:
-                score += 0.15 * (d / _unit(prefer)).real
-            if score > best_score + 1e-9:
-                best, best_score = d, score
-        return best if best is not None else free_direction(centre, [centre + t for t in taken], prefer)
+        # Best first; the first direction that does not point into a closed ring wins.
+        for index in np.argsort(-score, kind="stable"):
+            if not any(_inside(complex(spots[index]), poly) for poly in polygons):
+                return complex(_COMPASS[index])
+        return free_direction(centre, [centre + t for t in taken], prefer)
+
+    def _zigzag(self, atom: int, k: int) -> Optional[complex]:
+        """For an atom with one bond: the direction that continues a zigzag chain (parallel to
+        the bond before its neighbour), or 120 degrees from that bond if there is no chain."""
+        here = self.positions[k]
+        bonded = [n for n in self.neighbours[atom] if n in here and (min(atom, n), max(atom, n)) in self.bonds_in[k]
+                  and self.element[n] != 1]
+        if len(bonded) != 1:
+            return None
+        neighbour = bonded[0]
+        back = _unit(here[neighbour] - here[atom])
+        before = [n for n in self.neighbours[neighbour] if n != atom and n in here and self.element[n] != 1
+                  and (min(neighbour, n), max(neighbour, n)) in self.bonds_in[k]]
+        options = [back * cmath.rect(1.0, 2 * math.pi / 3), back * cmath.rect(1.0, -2 * math.pi / 3)]
+        if before:
+            chain = _unit(here[neighbour] - here[before[0]])
+            return max(options, key=lambda d: (d / chain).real)
+        return options[0]
 
     def _closed_rings(self, k: int) -> list[list[int]]:
         """Rings of the depiction whose every bond exists in panel k (an open ring's mouth is
@@ -429,17 +529,22 @@ class _LayoutBuilder:
             u = self._roomiest(anchor, k, hydrogen)
         own = [cluster.local[n] for n in self.neighbours[mover] if n in cluster.local]
         v = free_direction(cluster.local[mover], own, prefer=-u)
+        if len(own) == 1 and kind == "bond":
+            # A chain end bonds on at 120 degrees, as in a zigzag, not straight on.
+            v = v * cmath.rect(1.0, math.pi / 3)
         distance = 1.0 if kind == "bond" else 1.0 + TRANSFER_GAP
-        others = {a: p for kk in range(segment[0], segment[1] + 1) for a, p in self.positions[kk].items()
-                  if a not in cluster.atoms and a != hydrogen}
+        mine = set(cluster.atoms)
+        others = {}
+        for kk in range(segment[0], segment[1] + 1):
+            for a, p in self.positions[kk].items():
+                if a not in mine and a != hydrogen:
+                    others[a] = p
         polygons = [[others[a] for a in ring] for kk in range(segment[0], segment[1] + 1)
                     for ring in self._closed_rings(kk) if all(a in others for a in ring)]
         anchor_at = self.positions[k][anchor]
         near = np.array([q for a, q in others.items() if a != anchor], dtype=complex)
         local = np.array(list(cluster.local.values()), dtype=complex) - cluster.local[mover]
-        options = sorted(((abs(turn) + abs(spin) * 0.7 + extra, turn, spin, extra)
-                          for turn in (0, 1, -1, 2, -2, 3, -3) for spin in (0, 1, -1, 2, -2, 6)
-                          for extra in ((0.0,) if kind == "bond" else (0.0, 0.5, 1.0))))
+        options = _BOND_OPTIONS if kind == "bond" else _HOP_OPTIONS
         best = None
         # In order of preference; the first that keeps its distance from everything wins.
         for penalty, turn, spin, extra in options:
@@ -572,14 +677,13 @@ class _LayoutBuilder:
         if not panels or r.direction is None:
             return
 
+        # Other atoms relative to the holder, over every panel of the stay (duplicates dropped).
+        relative = np.array(sorted({p - self.positions[k][r.holder] for k in panels
+                                    for a, p in self.positions[k].items() if a not in (r.hydrogen, r.holder)},
+                                   key=lambda z: (z.real, z.imag)), dtype=complex)
+
         def room(direction: complex) -> float:
-            worst = math.inf
-            for k in panels:
-                spot = self.positions[k][r.holder] + direction
-                for a, p in self.positions[k].items():
-                    if a not in (r.hydrogen, r.holder):
-                        worst = min(worst, abs(spot - p))
-            return worst
+            return float(np.abs(relative - direction).min()) if len(relative) else math.inf
 
         if room(r.direction) >= 0.85:
             return

@@ -94,6 +94,10 @@ def _segment_hits_box(p: complex, q: complex, box: Box) -> bool:
     return True
 
 
+def _unit_or_zero(z: complex) -> complex:
+    return z / abs(z) if abs(z) > 1e-12 else 0j
+
+
 def _angle_gap(a: complex, b: complex) -> float:
     return abs(cmath.phase(a / b)) if a and b else math.pi
 
@@ -182,7 +186,10 @@ class StructureDrawer:
         if hidden_h:
             count = str(hidden_h) if hidden_h > 1 else ""
             w_h, w_n = self.face.width("H", fs), self.face.width(count, ss)
-            side = self._hydrogen_side(atom, out.occupied[i])
+            # Neighbours' labels count as taken too, so the H is written where there is room.
+            crowd = [_unit_or_zero(q - p) for j, q in positions.items()
+                     if j != i and 1e-9 < abs(q - p) < 1.25 * self.style.bond_length and j not in neighbours]
+            side = self._hydrogen_side(atom, out.occupied[i] + [c for c in crowd if c])
             sub_drop = 0.3 * fs
             if side == 1:
                 x = p.real + w_symbol / 2
@@ -263,8 +270,7 @@ class StructureDrawer:
         elif self.style.color and role == "broken":
             colour = BROKEN_COLOUR
         out.bond_extent[(min(i, j), max(i, j))] = extent
-        return BondDrawing((i, j), order, tuple(((round(s.real, 4), round(s.imag, 4)), (round(e.real, 4), round(e.imag, 4)))
-                                                for s, e in lines), role, colour)
+        return BondDrawing((i, j), order, tuple(((s.real, s.imag), (e.real, e.imag)) for s, e in lines), role, colour)
 
     @staticmethod
     def _join(vertex: complex, u: complex, offset: complex, others: list[complex]) -> float:
