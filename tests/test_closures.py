@@ -170,3 +170,14 @@ def test_atoms_are_numbered_along_a_written_chain():
                        if a.GetSymbol() == "C" and any(n.GetSymbol() == "O" for n in a.GetNeighbors()))
     assert carbonyls == [2, 6]
     assert find_closures(mol)[0].size == 6
+
+
+def test_carboxylate_closes_a_lactone_onto_an_alkyl_bromide_only():
+    """5-Bromopentanoic acid with base gives pentan-5-olide (6-exo-tet, Baldwin 1976; textbook
+    lactonization, common practice); a carboxylate is not offered onto carbonyls."""
+    rows = closures_json("OC(=O)CCCCBr")
+    assert [(r["nucleophile"]["kind"], r["electrophile"]["kind"], r["class"]) for r in rows] == [
+        ("carboxylate", "alkyl leaving group", "6-exo-tet")]
+    assert same(rows[0]["product"], "O=C1CCCCO1")
+    assert not closures_json("OC(=O)CCCC=O") or all(r["nucleophile"]["kind"] != "carboxylate"
+                                                    for r in closures_json("OC(=O)CCCC=O"))

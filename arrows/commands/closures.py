@@ -82,7 +82,7 @@ def _row(mol: Chem.Mol, rank: int, c: Closure, product: Optional[str]) -> dict:
     return {
         "rank": rank,
         "nucleophile": {"atom": label(c.nucleophile.atom), "kind": c.nucleophile.kind, "via": c.nucleophile.via,
-                        "alpha_pka": c.nucleophile_pka},
+                        "pka_of_the_proton_removed": c.nucleophile_pka},
         "electrophile": {"atom": label(c.electrophile.atom), "kind": c.electrophile.kind},
         "ring_size": c.size,
         "ring": [label(i) for i in c.ring],

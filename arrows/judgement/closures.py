@@ -15,8 +15,8 @@ from rdkit import Chem
 
 from .acidity import acidity_of, perceived
 from .baldwin import ClosureClass, Verdict, classify, ring_path, verdict
-from .sites import (AMIDE, ENOLATE, NITROGEN, NUCLEOPHILE_RANK, Electrophile, Nucleophile, electrophiles,
-                    nucleophiles)
+from .sites import (ALKYL, AMIDE, CARBOXYLATE, ENOLATE, NITROGEN, NUCLEOPHILE_RANK, Electrophile, Nucleophile,
+                    electrophiles, nucleophiles)
 
 FAVOURED, DISFAVOURED, NOT_COVERED = "favoured", "disfavoured", "not covered"
 
@@ -88,7 +88,9 @@ def _compatible(nu: Nucleophile, el: Electrophile) -> bool:
     used = {c for c, _ in nu.partners}
     if el.atom in used or (el.relay and el.relay[1] in used):
         return False
-    return not (nu.kind == NITROGEN and el.kind != "alkyl leaving group" and not nu.has_hydrogen)
+    if nu.kind == CARBOXYLATE and el.kind != ALKYL:
+        return False    # a carboxylate adds to a carbonyl only to fall off again (common practice)
+    return not (nu.kind == NITROGEN and el.kind != ALKYL and not nu.has_hydrogen)
 
 
 def find_closures(mol: Chem.Mol, max_ring: int = 7) -> list[Closure]:

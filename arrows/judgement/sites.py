@@ -2,7 +2,8 @@
 conditions: where a nucleophile can form, and which atoms accept it.
 
 Nucleophiles: alpha carbons that carry a hydrogen next to a carbonyl or nitrile (or are already
-an enolate), hydroxyl and alkoxide oxygens, amine nitrogens. Electrophiles: carbonyl carbons
+an enolate), hydroxyl and alkoxide oxygens, carboxylates (towards alkyl leaving groups only),
+amine nitrogens. Electrophiles: carbonyl carbons
 (aldehyde, ketone, ester, amide), beta carbons of alpha,beta-unsaturated carbonyls and nitriles,
 sp3 carbons bearing a halide or sulfonate leaving group. Works on any sanitized Mol; indices are
 the Mol's own.
@@ -17,7 +18,7 @@ from rdkit import Chem
 
 from .baldwin import geometry_of
 
-ENOLATE, NITRILE_ANION, OXYGEN, NITROGEN = "enolate", "nitrile anion", "oxygen", "amine"
+ENOLATE, NITRILE_ANION, OXYGEN, CARBOXYLATE, NITROGEN = "enolate", "nitrile anion", "oxygen", "carboxylate", "amine"
 
 # Electrophile kinds, best first. Carbonyls: aldehyde > ketone > ester > amide (common practice).
 # Where conjugate acceptors and alkyl leaving groups sit among them is our own heuristic: an enone
@@ -25,7 +26,7 @@ ENOLATE, NITRILE_ANION, OXYGEN, NITROGEN = "enolate", "nitrile anion", "oxygen",
 ALDEHYDE, KETONE, CONJUGATE, ALKYL, ESTER, AMIDE = (
     "aldehyde", "ketone", "enone beta carbon", "alkyl leaving group", "ester", "amide")
 ELECTROPHILE_RANK = {ALDEHYDE: 0, KETONE: 1, CONJUGATE: 1, ALKYL: 2, ESTER: 3, AMIDE: 4}
-NUCLEOPHILE_RANK = {ENOLATE: 0, NITRILE_ANION: 0, OXYGEN: 1, NITROGEN: 2}
+NUCLEOPHILE_RANK = {ENOLATE: 0, NITRILE_ANION: 0, OXYGEN: 1, CARBOXYLATE: 1, NITROGEN: 2}
 
 
 @dataclass(frozen=True)
@@ -39,7 +40,8 @@ class Nucleophile:
     @property
     def via(self) -> str:
         return {ENOLATE: "enolate (base) or enol (acid)", NITRILE_ANION: "nitrile anion (base)",
-                OXYGEN: "alkoxide (base) or hydroxyl (acid)", NITROGEN: "amine lone pair"}[self.kind]
+                OXYGEN: "alkoxide (base) or hydroxyl (acid)", CARBOXYLATE: "carboxylate (base)",
+                NITROGEN: "amine lone pair"}[self.kind]
 
 
 @dataclass(frozen=True)
@@ -87,6 +89,8 @@ def nucleophiles(mol: Chem.Mol) -> list[Nucleophile]:
     found = [Nucleophile(a, kinds[a], a in ready, tuple(sorted(p))) for a, p in partners.items()]
     hydroxyl = "[OX2H1,OX1-;$(O-[CX4]),$(O-c);!$(O-[#6]=*)]"
     found += [Nucleophile(m[0], OXYGEN, mol.GetAtomWithIdx(m[0]).GetFormalCharge() < 0) for m in _matches(mol, hydroxyl)]
+    found += [Nucleophile(m[0], CARBOXYLATE, mol.GetAtomWithIdx(m[0]).GetFormalCharge() < 0)
+              for m in _matches(mol, "[OX2H1,OX1-]-[CX3]=[OX1]")]
     amine = "[NX3;+0;!$(N-[#6,#16]=[O,S,N]);!$(N-a);!$(N-[#6]#*)]"
     found += [Nucleophile(m[0], NITROGEN, True, has_hydrogen=mol.GetAtomWithIdx(m[0]).GetTotalNumHs() > 0)
               for m in _matches(mol, amine)]

@@ -13,7 +13,8 @@ from rdkit import Chem
 
 from ..rdkit_io import canonical
 from .closures import Closure
-from .sites import ALDEHYDE, ALKYL, CONJUGATE, ENOLATE, ESTER, KETONE, NITRILE_ANION, NITROGEN, OXYGEN
+from .sites import (ALDEHYDE, ALKYL, CARBOXYLATE, CONJUGATE, ENOLATE, ESTER, KETONE, NITRILE_ANION, NITROGEN,
+                    OXYGEN)
 
 
 @dataclass
@@ -69,8 +70,8 @@ class _Writer:
         elif nu.kind == ENOLATE and self.mol.GetAtomWithIdx(self.partner()[1]).GetTotalNumHs():
             acceptor = self.L(self.partner()[1])
             self.deprotonate("enolate from the enol", acceptor, acceptor)
-        elif nu.kind == OXYGEN and not nu.ready:
-            self.deprotonate("alkoxide formation", x, x)
+        elif nu.kind in (OXYGEN, CARBOXYLATE) and not nu.ready:
+            self.deprotonate("alkoxide formation" if nu.kind == OXYGEN else "carboxylate formation", x, x)
             self.steps[-1].options = 'reversible over "NaOH" under "H2O"'
 
     def nucleophile_moves(self, y: str) -> list[str]:
@@ -145,7 +146,7 @@ class _Writer:
         lines = [f"# {self.c.closure.name} ring closure, drafted by `arrows closures`; edit freely",
                  f'title   "{title}"', "",
                  f'species {species_name} = "{smiles}"',
-                 f'species base = "[OH-:{self.base}]"']
+                 f'species {"base" if species_name == "hydroxide" else "hydroxide"} = "[OH-:{self.base}]"']
         for step in self.steps:
             lines += ["", f'step "{step.label}"' + (f" {step.options}" if step.options else "")]
             lines += [f"    {m}" for m in step.moves] + [f"    {e}" for e in step.extra] + ["end"]
