@@ -25,7 +25,8 @@ from ..diagnostics import ERROR, WARNING
 @click.option("--cluster", metavar="ADDRESS",
               help="With --jsonl: run on the Dask scheduler at ADDRESS (pip install 'arrows[cluster]').")
 @click.option("--pka-gap", type=float, default=12.0, show_default=True,
-              help="Warn (AR508) when a proton transfer runs uphill by more than this many pKa units.")
+              help="Warn (AR508) when a proton transfer runs uphill by more than this many pKa units "
+                   "(mechanism FILES; --jsonl records use the default).")
 def check_command(files, fmt, strict, quiet, jsonl, output, jobs, cluster, pka_gap):
     """Replay every electron move in FILES and check every intermediate.
 
