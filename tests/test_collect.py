@@ -188,16 +188,16 @@ def test_figures_beside_the_document(corpus):
 
 
 def test_a_warm_rerun_draws_nothing_and_gives_the_same_bytes(corpus, tmp_path):
-    base = corpus["base"]
-    before = snapshot(corpus["out"])
-    again = collect(corpus["folder"], "-o", corpus["out"], "-j", "1", "--title", "Supporting information",
-                    "--authors", "A. Chemist, B. Chemist", "--date", "1 March 2026", "--cache", base / "cache",
+    out, cache = tmp_path / "si.pdf", tmp_path / "cache"
+    assert collect(corpus["folder"], "-o", out, "-j", "2", "--title", "SI", "--cache", cache).returncode == 1
+    before = snapshot(out)
+    again = collect(corpus["folder"], "-o", out, "-j", "2", "--title", "SI", "--cache", cache,
                     "--report", tmp_path / "report.json")
     assert again.returncode == 1
     report = json.loads((tmp_path / "report.json").read_text())
     assert report["totals"]["rendered"] == 0 and report["totals"]["from_cache"] == SCHEMES
     assert "0 drawn" in again.stderr
-    assert snapshot(corpus["out"]) == before
+    assert snapshot(out) == before
 
 
 def test_jobs_2_gives_the_bytes_of_jobs_1(corpus, tmp_path):

@@ -94,25 +94,31 @@ def collect(sources: list[Source], settings: CollectSettings, progress: Progress
                 return CollectResult(records, complete=False)
 
         figures = {r.label: cache.load_figure(r.key).svg if r.key and r.has_figure else None for r in records}
-        key = document_key(fingerprint, _document_parts(settings, setup, records))
-        stored = cache.load_document(key)
-        if stored is not None:
-            document, page_count, converted = *stored, 0
-        else:
-            pages = compose(setup, settings.front, records, lambda r: figures[r.label], settings.flow)
-            keys = [page_key(p.svg, fingerprint) for p in pages]
-            todo = {k: p.svg for k, p in zip(keys, pages) if not cache.has_page(k)}
-            page_jobs = [(cache.root, k, svg) for k, svg in todo.items()]
-            for done, _ in enumerate(pool.map(_convert_page, page_jobs), 1):
-                progress("page", done, len(todo), None)
-            document = merge([DocumentPage(cache.page_path(k).read_bytes(), p.bookmark, tuple(p.links))
-                              for k, p in zip(keys, pages)],
-                             {"/Title": settings.front.title, "/Author": settings.front.authors})
-            page_count, converted = len(pages), len(todo)
-            cache.store_document(key, document, page_count)
-
+        document, page_count, converted = _document(pool, cache, fingerprint, setup, settings, records, figures,
+                                                    progress)
     _write_output(settings, records, figures, document, cache)
     return CollectResult(records, complete=True, pages=page_count, pages_converted=converted)
+
+
+def _document(pool: WorkerPool, cache: Cache, fingerprint: str, setup: PageSetup, settings: CollectSettings,
+              records: list[SchemeRecord], figures: dict[str, Optional[str]], progress: Progress) -> tuple[bytes, int, int]:
+    """The merged PDF, its page count and how many pages were converted in this run. A document
+    whose every part is unchanged comes whole from the cache; otherwise only the pages not cached
+    are converted (in the workers) before merging."""
+    key = document_key(fingerprint, _document_parts(settings, setup, records))
+    stored = cache.load_document(key)
+    if stored is not None:
+        return (*stored, 0)
+    pages = compose(setup, settings.front, records, lambda r: figures[r.label], settings.flow)
+    keys = [page_key(p.svg, fingerprint) for p in pages]
+    todo = {k: p.svg for k, p in zip(keys, pages) if not cache.has_page(k)}
+    for done, _ in enumerate(pool.map(_convert_page, [(cache.root, k, svg) for k, svg in todo.items()]), 1):
+        progress("page", done, len(todo), None)
+    document = merge([DocumentPage(cache.page_path(k).read_bytes(), p.bookmark, tuple(p.links))
+                      for k, p in zip(keys, pages)],
+                     {"/Title": settings.front.title, "/Author": settings.front.authors})
+    cache.store_document(key, document, len(pages))
+    return document, len(pages), len(todo)
 
 
 def _document_parts(settings: CollectSettings, setup: PageSetup, records: list[SchemeRecord]) -> list:
