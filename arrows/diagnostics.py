@@ -136,8 +136,6 @@ CODES = _table(
          "An atom carries a formal charge of magnitude two or more (for example carbon -2, oxygen +2)."),
     Code("AR504", WARNING, "expanded octet",
          "A third-row or heavier atom holds more than eight valence electrons."),
-    Code("AR505", WARNING, "unpaired electron made by pair arrows",
-         "Only pair arrows moved in this step, yet an atom is left with an odd electron count."),
     Code("AR506", WARNING, "step with no moves",
          "A step names no electron moves."),
     Code("AR507", WARNING, "bond order written lower than it is",

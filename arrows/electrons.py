@@ -16,7 +16,7 @@ from rdkit import Chem
 from .diagnostics import Diagnostic
 from .model import (AtomRef, AtomSink, BareAtom, BondPair, BondRef, BondSink, HydrogenOn, Location,
                     LonePair, Move, Step, UnpairedElectron, CONNECTORS)
-from .rdkit_io import period, rdkit_messages, valence_electrons
+from .rdkit_io import rdkit_messages, valence_electrons
 
 _BOND_TYPES = {1: Chem.BondType.SINGLE, 2: Chem.BondType.DOUBLE, 3: Chem.BondType.TRIPLE}
 _ORDER_WORDS = {0: "none", 1: "single", 2: "double", 3: "triple"}
@@ -35,26 +35,40 @@ def pair(i: int, j: int) -> Pair:
 
 @dataclass(frozen=True)
 class ElectronState:
-    """One moment of the mechanism. Atom indices are identities: atoms are only ever appended."""
+    """One moment of the mechanism. Atom indices are identities: atoms are only ever appended.
+
+    `valence` (V) and `bond_sums` (B, hydrogens included) per atom are derived from `mol` when not
+    given; a step passes them on updated, so the per-step bookkeeping needs no walk over RDKit bonds.
+    """
 
     mol: Chem.Mol                     # Kekulé form, atom maps kept, explicit H atoms where they move
     nonbonding: tuple[int, ...]       # N per atom
     released: frozenset[int] = frozenset()
+    valence: tuple[int, ...] = ()
+    bond_sums: tuple[int, ...] = ()
+
+    def __post_init__(self) -> None:
+        if len(self.valence) != self.mol.GetNumAtoms():
+            object.__setattr__(self, "valence", tuple(valence_electrons(a.GetAtomicNum()) for a in self.mol.GetAtoms()))
+        if len(self.bond_sums) != self.mol.GetNumAtoms():
+            object.__setattr__(self, "bond_sums", tuple(_bond_sum(a) for a in self.mol.GetAtoms()))
 
     def bond_electrons(self, i: int, j: int) -> int:
         bond = self.mol.GetBondBetweenAtoms(i, j)
         return 0 if bond is None else 2 * int(bond.GetBondTypeAsDouble())
 
     def bond_order_sum(self, i: int) -> int:
-        atom = self.mol.GetAtomWithIdx(i)
-        return int(sum(b.GetBondTypeAsDouble() for b in atom.GetBonds())) + atom.GetNumExplicitHs()
+        return self.bond_sums[i]
 
     def formal_charge(self, i: int) -> int:
-        atom = self.mol.GetAtomWithIdx(i)
-        return valence_electrons(atom.GetAtomicNum()) - self.nonbonding[i] - self.bond_order_sum(i)
+        return self.valence[i] - self.nonbonding[i] - self.bond_sums[i]
 
     def label(self, i: int) -> str:
         return atom_label(self.mol, i)
+
+
+def _bond_sum(atom: Chem.Atom) -> int:
+    return int(sum(b.GetBondTypeAsDouble() for b in atom.GetBonds())) + atom.GetNumExplicitHs()
 
 
 def atom_label(mol: Chem.Mol, i: int) -> str:
@@ -80,11 +94,7 @@ def bond_label(mol: Chem.Mol, i: int, j: int) -> str:
 
 
 def initial_nonbonding(mol: Chem.Mol) -> list[int]:
-    out = []
-    for atom in mol.GetAtoms():
-        bonds = int(sum(b.GetBondTypeAsDouble() for b in atom.GetBonds())) + atom.GetNumExplicitHs()
-        out.append(valence_electrons(atom.GetAtomicNum()) - atom.GetFormalCharge() - bonds)
-    return out
+    return [valence_electrons(a.GetAtomicNum()) - a.GetFormalCharge() - _bond_sum(a) for a in mol.GetAtoms()]
 
 
 @dataclass(frozen=True)
@@ -112,6 +122,7 @@ class StepChange:
     reordered: list[tuple[Pair, int, int]] = field(default_factory=list)   # (bond, before, after)
     charges: list[tuple[int, int, int]] = field(default_factory=list)      # (atom, before, after)
     touched_atoms: list[int] = field(default_factory=list)
+    shells: dict[int, int] = field(default_factory=dict)                  # valence-shell electrons N + 2B, touched atoms
     move_atoms: list[tuple[int, ...]] = field(default_factory=list)       # resolved atoms of each move
     moves: list[ResolvedMove] = field(default_factory=list)
 
@@ -134,7 +145,9 @@ class _StepReplay:
         self.used_lone: dict[int, int] = {}
         self.used_bond: dict[Pair, int] = {}
         self.used_unpaired: dict[int, int] = {}
-        self.written_sinks: list[tuple[Pair, int, Location, str]] = []
+        self.written_sinks: list[tuple[Pair, int, Location, BondRef]] = []
+        self._bond_before: dict[Pair, int] = {}
+        self._resolved: dict[tuple[str, int], int] = {}
         self.move_atoms: list[tuple[int, ...]] = []
         self.resolved: list[ResolvedMove] = []
         self.first_move_on_bond: dict[Pair, Move] = {}
@@ -143,7 +156,8 @@ class _StepReplay:
     # diagnostics
     def fail(self, code: str, message: str, loc: Location, hint: Optional[str] = None,
              atoms: tuple[str, ...] = (), bonds: tuple = ()) -> None:
-        self.diagnostics.append(Diagnostic(code, message, loc, hint, atoms, bonds, self.step_index))
+        self.diagnostics.append(Diagnostic(code, message, loc, hint, tuple(str(a) for a in atoms), bonds,
+                                           self.step_index))
 
     def warn(self, code: str, message: str, loc: Location, hint: Optional[str] = None,
              atoms: tuple[str, ...] = ()) -> None:
@@ -154,6 +168,9 @@ class _StepReplay:
         if isinstance(ref, HydrogenOn):
             parent = self.resolve(ref.parent)
             return self.hydrogen_on(parent, ref)
+        key = (ref.element, ref.map_number)
+        if key in self._resolved:
+            return self._resolved[key]
         index = self.map_index.get(ref.map_number)
         if index is None:
             if ref.map_number in self.entered_later:
@@ -172,6 +189,7 @@ class _StepReplay:
             self.fail("AR106", f"{ref} left the drawing with `releases` in an earlier step", ref.loc,
                       "bring it back with `uses` under a new map number, or do not release it", atoms=(str(ref),))
             raise _StepFailed
+        self._resolved[key] = index
         return index
 
     def hydrogen_on(self, parent: int, ref: HydrogenOn) -> int:
@@ -190,6 +208,13 @@ class _StepReplay:
         return chosen
 
     # electrons
+    def bond_before(self, i: int, j: int) -> int:
+        """Electrons in bond i-j before the step (RDKit bond look-ups are the costly part of a step)."""
+        key = pair(i, j)
+        if key not in self._bond_before:
+            self._bond_before[key] = self.state.bond_electrons(i, j)
+        return self._bond_before[key]
+
     def nonbonding(self, i: int) -> int:
         return self.state.nonbonding[i]
 
@@ -233,7 +258,7 @@ class _StepReplay:
             self.detach(move, (a, b), sink)
 
     def check_atom_source(self, move: Move, src, x: int) -> None:
-        nb, label = self.nonbonding(x), self.state.label(x)
+        nb, label = self.nonbonding(x), _AtomName(self.state, x)
         if isinstance(src, UnpairedElectron):
             if nb % 2 == 0:
                 self.fail("AR201", f"{label} has no unpaired electron", src.loc,
@@ -264,7 +289,7 @@ class _StepReplay:
             raise _StepFailed
 
     def check_bond_source(self, move: Move, src: BondPair, a: int, b: int) -> None:
-        have = self.state.bond_electrons(a, b)
+        have = self.bond_before(a, b)
         name = _BondName(self.state, a, b)   # spelt out only when a message needs it
         written = src.bond.order
         if have == 0:
@@ -303,7 +328,7 @@ class _StepReplay:
                           atoms=(self.state.label(x),))
                 raise _StepFailed
             y = ends[1] if ends[0] == x else ends[0]
-            self.written_sinks.append((pair(x, y), sink.bond.order, sink.loc, str(sink.bond)))
+            self.written_sinks.append((pair(x, y), sink.bond.order, sink.loc, sink.bond))
         if y == x:
             self.fail("AR210", f"the arrow from {self.state.label(x)} ends where it starts", sink.loc,
                       "end the arrow at the atom that receives the electrons, or at the bond that forms")
@@ -341,10 +366,20 @@ class _StepReplay:
             raise _StepFailed
         pivot = shared.pop()
         other = z if y == pivot else y
-        self.written_sinks.append((pair(pivot, other), sink.bond.order, sink.loc, str(sink.bond)))
+        self.written_sinks.append((pair(pivot, other), sink.bond.order, sink.loc, sink.bond))
         self.change_bond(pivot, other, n, move)
         self.move_atoms.append((a, b, other))
         self.resolved.append(ResolvedMove(move, "bond", (a, b), (pivot, other), n))
+
+
+class _AtomName:
+    """`C7` for a message, spelt out only if a message uses it."""
+
+    def __init__(self, state: ElectronState, i: int):
+        self.state, self.i = state, i
+
+    def __str__(self) -> str:
+        return self.state.label(self.i)
 
 
 class _BondName:
@@ -386,7 +421,7 @@ def _settle(state: ElectronState, step: Step, step_index: int, replay: _StepRepl
     for key, delta in replay.d_bond.items():
         if delta == 0:
             continue
-        before = state.bond_electrons(*key)
+        before = replay.bond_before(*key)
         after = before + delta
         new_bonds[key] = after
         label = _BondName(state, *key)
@@ -407,7 +442,7 @@ def _settle(state: ElectronState, step: Step, step_index: int, replay: _StepRepl
                                     "`resonance` from the step", bonds=((state.label(key[0]), state.label(key[1])),),
                                     step=step_index))
     for key, written, loc, text in replay.written_sinks:
-        actual = new_bonds.get(key, state.bond_electrons(*key)) // 2
+        actual = new_bonds.get(key, replay.bond_before(*key)) // 2
         if actual != written and not any(d.code in ("AR303", "AR302") for d in diags):
             diags.append(Diagnostic("AR208", f"{text} says the bond will be {order_word(written)}; "
                                     f"after this step it is {order_word(actual)}", loc,
@@ -420,10 +455,13 @@ def _settle(state: ElectronState, step: Step, step_index: int, replay: _StepRepl
     nonbonding = list(state.nonbonding)
     for i, delta in replay.d_nonbonding.items():
         nonbonding[i] += delta
+    bond_sums = list(state.bond_sums)
 
     work = Chem.RWMol(mol)
     for (i, j), electrons in new_bonds.items():
-        before = state.bond_electrons(i, j)
+        before = replay.bond_before(i, j)
+        bond_sums[i] += (electrons - before) // 2
+        bond_sums[j] += (electrons - before) // 2
         if electrons == 0:
             work.RemoveBond(i, j)
             change.broken.append((i, j))
@@ -436,19 +474,21 @@ def _settle(state: ElectronState, step: Step, step_index: int, replay: _StepRepl
 
     touched = sorted(set(replay.d_nonbonding) | {i for key in new_bonds for i in key})
     change.touched_atoms = touched
+    valence = state.valence
     for i in touched:
         atom = work.GetAtomWithIdx(i)
-        bonds = int(sum(b.GetBondTypeAsDouble() for b in atom.GetBonds())) + atom.GetNumExplicitHs()
-        charge = valence_electrons(atom.GetAtomicNum()) - nonbonding[i] - bonds
-        if charge != atom.GetFormalCharge():
-            change.charges.append((i, atom.GetFormalCharge(), charge))
+        bonds = bond_sums[i]
+        charge = valence[i] - nonbonding[i] - bonds
+        old_charge = state.valence[i] - state.nonbonding[i] - state.bond_sums[i]
+        if charge != old_charge:
+            change.charges.append((i, old_charge, charge))
         atom.SetFormalCharge(charge)
         atom.SetNumRadicalElectrons(nonbonding[i] % 2)
-        atom.SetNoImplicit(True)
         shell = nonbonding[i] + 2 * bonds
+        change.shells[i] = shell
         z = atom.GetAtomicNum()
         limit = 2 if z <= 2 else 8
-        if shell > limit and period(z) <= 2:
+        if shell > limit and z <= 10:
             label = state.label(i)
             loc = _first_move_touching(step, replay, i)
             diags.append(Diagnostic("AR301", f"{label} would hold {shell} valence electrons "
@@ -469,7 +509,7 @@ def _settle(state: ElectronState, step: Step, step_index: int, replay: _StepRepl
             diags.append(Diagnostic("AR304", f"RDKit rejects the structure after this step: {exc}", step.loc,
                                     "check charges and bond orders with `arrows trace`", step=step_index))
             return None, change, diags
-    return ElectronState(work.GetMol(), tuple(nonbonding), state.released), change, diags
+    return ElectronState(work.GetMol(), tuple(nonbonding), state.released, valence, tuple(bond_sums)), change, diags
 
 
 def _first_move_touching(step: Step, replay: _StepReplay, atom: int) -> Location:

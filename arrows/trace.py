@@ -200,7 +200,7 @@ def replay(mechanism: Mechanism) -> Trace:
                 fragment = _fragment_of(after.mol, atom_index) - released
                 released_now.extend(sorted(fragment))
                 released |= fragment
-            after = ElectronState(after.mol, after.nonbonding, frozenset(released))
+            after = ElectronState(after.mol, after.nonbonding, frozenset(released), after.valence, after.bond_sums)
         trace.steps.append(StepTrace(index, step, state, after, change, tuple(entered), tuple(released_now)))
         if after is None:
             break

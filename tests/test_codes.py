@@ -202,10 +202,11 @@ def test_twin(t: Twin):
 
 def test_every_code_the_engine_raises_has_a_twin():
     """Codes with no twin: AR100/AR101/AR112 (reading, syntax, empty files: test_cli, test_language),
-    AR403/AR404 (a safety net: `uses` is counted before the step, so moves alone cannot trip it) and
-    AR505 (pair arrows move electrons two at a time, so they cannot change an atom's parity)."""
+    and AR403/AR404 (a safety net: `uses` is counted before the step, so moves alone cannot trip it).
+    There is no code for "an unpaired electron made by pair arrows": pair arrows move electrons two at
+    a time, so they cannot change any atom's electron parity."""
     covered = {t.code for t in TWINS}
-    elsewhere = {"AR100", "AR101", "AR112", "AR403", "AR404", "AR505"}
+    elsewhere = {"AR100", "AR101", "AR112", "AR403", "AR404"}
     # Baldwin, pKa, ring and stereo notes, data-set records: test_rings, test_pka, test_stereo, test_jsonl
     own_tests = {"AR502", "AR508", "AR601", "AR602", "AR110", "AR111"}
     assert set(CODES) - covered - elsewhere - own_tests == set()

@@ -31,16 +31,24 @@ class ChargeAndAtomsConserved:
     codes = ("AR403", "AR404")
 
     def run(self, trace: Trace) -> Iterator[Diagnostic]:
-        previous = None   # (state, totals): a step's state before is usually the last step's after
-        for st in trace.steps:
-            if st.after is None:
-                continue
-            if previous is not None and previous[0] is st.before:
-                charge_before, atoms_before = previous[1]
-            else:
-                charge_before, atoms_before = _totals(st.before.mol)
+        derived = [st for st in trace.steps if st.after is not None]
+        if not derived:
+            return
+        # One count of the start, of what each `uses` brings and of the end; only when those disagree
+        # is every step counted, to say where.
+        charge, atoms = _totals(trace.initial.mol)
+        for st in derived:
+            if st.entered:
+                extra_charge, extra_atoms = _totals(st.before.mol, st.entered)
+                charge, atoms = charge + extra_charge, atoms + extra_atoms
+        if _totals(derived[-1].after.mol) == (charge, atoms):
+            return
+        yield from self._per_step(derived)
+
+    def _per_step(self, derived) -> Iterator[Diagnostic]:
+        for st in derived:
+            charge_before, atoms_before = _totals(st.before.mol)
             charge_after, atoms_after = _totals(st.after.mol)
-            previous = (st.after, (charge_after, atoms_after))
             if charge_after != charge_before:
                 yield Diagnostic("AR403", f"total charge goes from {charge_before:+d} to {charge_after:+d}", st.step.loc,
                                  hint="charge moves with electrons; check `uses` and the charges written in SMILES",
