@@ -49,6 +49,9 @@ def _written_fragments(checkpoint: Checkpoint) -> tuple[Optional[list[Fragment]]
     mol, reason, _ = read_smiles(checkpoint.smiles)
     if mol is None:
         return None, reason, frozenset()
+    # The bookkeeping follows electrons and connectivity, not configuration: a checkpoint written
+    # with @ or / \ is compared as its constitution (`arrows trace --stereo` reports stereo).
+    Chem.RemoveStereochemistry(mol)
     maps = frozenset(a.GetAtomMapNum() for a in mol.GetAtoms() if a.GetAtomMapNum())
     return fragments(mol, maps), "", maps
 
