@@ -217,3 +217,24 @@ def test_styles_change_the_drawing():
 def test_drawing_is_byte_stable():
     trace, diags = _trace(GALLERY[0])
     assert render_svg(trace, diagnostics=diags) == render_svg(trace, diagnostics=diags)
+
+
+def test_gallery_command_is_byte_stable_across_processes(tmp_path):
+    """`python -m arrows.draw.gallery FOLDER` writes NAME.svg for every NAME.mech; two runs in
+    separate processes (different hash seeds) give identical bytes."""
+    import os
+    import shutil
+    import subprocess
+    import sys
+    outputs = []
+    for seed in ("1", "4242"):
+        folder = tmp_path / f"run{seed}"
+        folder.mkdir()
+        for path in GALLERY[:3]:
+            shutil.copy(path, folder / path.name)
+        env = dict(os.environ, PYTHONHASHSEED=seed)
+        done = subprocess.run([sys.executable, "-m", "arrows.draw.gallery", str(folder)], env=env,
+                              capture_output=True, text=True, timeout=300)
+        assert done.returncode == 0, done.stderr
+        outputs.append({p.name: p.read_bytes() for p in sorted(folder.glob("*.svg"))})
+    assert len(outputs[0]) == 3 and outputs[0] == outputs[1]

@@ -220,3 +220,73 @@ def test_bonds_and_charges_are_rdkit_s(text, name):
         charged = {a.GetIdx() for a in mol.GetAtoms() if a.GetFormalCharge() and a.GetIdx() in drawn}
         marked = {m.atom for m in panel.marks if m.kind == "charge"}
         assert marked == charged, panel.index
+
+
+@pytest.mark.parametrize("style", ["one-column", "two-column"])
+@pytest.mark.parametrize("text,name", _mechanisms())
+def test_no_text_below_six_points_in_journal_presets(text, name, style):
+    """Text in artwork is no smaller than about 6 pt at print size (references.md, "Figures";
+    common practice, memory). Checked on every piece of text the scene holds."""
+    _, _, scene = _scene(text, name, style=style)
+    runs = list(scene.texts)
+    for panel in scene.panels:
+        runs += [r for a in panel.atoms for r in a.runs] + [r for m in panel.marks for r in m.runs]
+    for arrow in scene.reaction_arrows:
+        runs += list(arrow.texts)
+    assert min((r.size for r in runs), default=6.0) >= 6.0 - 1e-9
+
+
+CHIRAL = """\
+species alcohol = "[CH3:1][C@@H:2]([OH:3])[CH2:4]C"
+species base = "[OH-:5]"
+step "deprotonation"
+    :O5 -> H(O3)
+    O3-H -> O3
+end
+"""
+
+
+def test_cip_labels_are_rdkit_s():
+    """With CIP labels on, each stereocentre carries the label RDKit's CIP labeller gives it in
+    that state (RDKit as the judge; CIP rules as implemented by rdCIPLabeler)."""
+    from rdkit.Chem import rdCIPLabeler
+    trace, _, scene = _scene(CHIRAL, "chiral.mech", cip=True)
+    states = [trace.steps[0].before, trace.steps[0].after]
+    for panel, state in zip(scene.panels, states):
+        mol = Chem.Mol(state.mol)
+        Chem.SanitizeMol(mol)
+        Chem.AssignStereochemistry(mol, cleanIt=True, force=True)
+        rdCIPLabeler.AssignCIPLabels(mol)
+        expected = {a.GetIdx(): f"({a.GetProp('_CIPCode')})" for a in mol.GetAtoms() if a.HasProp("_CIPCode")}
+        got = {m.atom: m.runs[0].text for m in panel.marks if m.kind == "cip"}
+        assert expected and got == expected
+
+
+def test_map_numbers_shown_when_asked():
+    """--numbers writes each atom's map number beside it (drafting aid)."""
+    trace, _, scene = _scene(CHIRAL, "chiral.mech", numbers=True)
+    panel = scene.panels[0]
+    numbers = {m.atom: m.runs[0].text for m in panel.marks if m.kind == "number"}
+    mol = trace.steps[0].before.mol
+    assert numbers == {a.GetIdx(): str(a.GetAtomMapNum()) for a in mol.GetAtoms()
+                       if a.GetAtomMapNum() and a.GetIdx() in {x.index for x in panel.atoms}}
+
+
+def test_entering_species_without_arrows_is_named_over_the_arrow():
+    """A species that enters with `uses` but takes part in no arrow of its step is written as
+    "+ formula" over the reaction arrow, not drawn on the panel the step leaves; it appears in
+    the next state (formula as RDKit's CalcMolFormula gives it)."""
+    text = """\
+species alkoxide = "CC[O-:1]"
+species water = "[OH2:2]"
+step "protonation" over "rt"
+    uses sodium = "[Na+:9]"
+    :O1 -> H(O2)
+    O2-H -> O2
+end
+"""
+    trace, _, scene = _scene(text, "spectator.mech")
+    over = {t.text: t.y for t in scene.reaction_arrows[0].texts}
+    assert over["+ Na\u207a"] < over["rt"]     # both over the arrow, the entering species on top
+    sodium = next(a.GetIdx() for a in trace.steps[0].after.mol.GetAtoms() if a.GetSymbol() == "Na")
+    assert scene.panels[0].atom(sodium) is None and scene.panels[1].atom(sodium) is not None
