@@ -286,7 +286,10 @@ step "protonation" over "rt"
 end
 """
     trace, _, scene = _scene(text, "spectator.mech")
-    over = {t.text: t.y for t in scene.reaction_arrows[0].texts}
-    assert over["+ Na\u207a"] < over["rt"]     # both over the arrow, the entering species on top
+    runs = scene.reaction_arrows[0].texts
+    over = {t.text: t for t in runs}
+    assert over["+ "].y == over["Na"].y < over["rt"].y      # both over the arrow, the entering species on top
+    charge = over["+"]                                       # a superscript charge, smaller and raised
+    assert charge.size < over["Na"].size and charge.y < over["Na"].y and charge.x > over["Na"].x
     sodium = next(a.GetIdx() for a in trace.steps[0].after.mol.GetAtoms() if a.GetSymbol() == "Na")
     assert scene.panels[0].atom(sodium) is None and scene.panels[1].atom(sodium) is not None

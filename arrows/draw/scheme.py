@@ -45,12 +45,15 @@ class _Item:
     arrow_index: Optional[int] = None
 
 
+Piece = tuple[str, str]      # (text, "n" | "sub" | "sup"): one piece of a line of text
+
+
 @dataclass
 class _ArrowSpec:
     step: int
     kind: str
-    over: list[str] = field(default_factory=list)
-    under: list[str] = field(default_factory=list)
+    over: list[list[Piece]] = field(default_factory=list)     # lines of pieces
+    under: list[list[Piece]] = field(default_factory=list)
     note: list[str] = field(default_factory=list)   # step label, in italics
     marker: str = ""
 
@@ -191,15 +194,13 @@ class _SceneBuilder:
         spec = _ArrowSpec(st.index, step.kind)
         limit = max(4.5 * self.bl, 0.2 * self.page.page_width * self.style.bond_length / self.page.bond_length)
         if hidden:
-            entering = ", ".join("+ " + f for f in _formulas(st.before.mol, sorted(hidden)))
-            spec.over += wrap(entering, self.face, self.style.font_size, limit)
+            spec.over += self._formula_lines("+ ", _formulas(st.before.mol, sorted(hidden)), limit)
         if step.over:
-            spec.over += wrap(step.over, self.face, self.style.font_size, limit)
+            spec.over += [[(line, "n")] for line in wrap(step.over, self.face, self.style.font_size, limit)]
         if step.under:
-            spec.under += wrap(step.under, self.face, self.style.font_size, limit)
+            spec.under += [[(line, "n")] for line in wrap(step.under, self.face, self.style.font_size, limit)]
         if st.released_now and st.after is not None:
-            spec.under += wrap(", ".join(MINUS + f for f in _formulas(st.after.mol, st.released_now)),
-                               self.face, self.style.font_size, limit)
+            spec.under += self._formula_lines(MINUS, _formulas(st.after.mol, st.released_now), limit)
         if self.style.step_labels and step.label:
             spec.note = wrap(step.label, self.italic, self.style.small_size, limit)
         numbers = [str(k + 1) for k, d in enumerate(self.errors) if d.step == st.index]
@@ -207,9 +208,38 @@ class _SceneBuilder:
             spec.marker = "error " + ", ".join(numbers)
         return spec
 
+    def _formula_lines(self, prefix: str, formulas: list[list[Piece]], limit: float) -> list[list[Piece]]:
+        """Formulas, each after `prefix`, comma-separated, on as few lines as fit `limit`."""
+        lines: list[list[Piece]] = []
+        for pieces in formulas:
+            item = [(prefix, "n")] + pieces
+            if lines and self._line_width(lines[-1] + [(", ", "n")] + item) <= limit:
+                lines[-1] += [(", ", "n")] + item
+            else:
+                lines.append(item)
+        return lines
+
+    def _piece_size(self, kind: str) -> float:
+        return self.style.font_size if kind == "n" else self.style.small_size
+
+    def _line_width(self, pieces: list[Piece]) -> float:
+        return sum(self.face.width(text, self._piece_size(kind)) for text, kind in pieces)
+
+    def _line_runs(self, pieces: list[Piece], centre: float, baseline: float) -> list[TextRun]:
+        """A line centred on `centre`: subscripts dropped and superscripts raised at the small size."""
+        fs = self.style.font_size
+        x = centre - self._line_width(pieces) / 2
+        runs = []
+        for text, kind in pieces:
+            size = self._piece_size(kind)
+            shift = 0.3 * fs if kind == "sub" else -0.38 * fs if kind == "sup" else 0.0
+            runs.append(TextRun(text, x, baseline + shift, size))
+            x += self.face.width(text, size)
+        return runs
+
     def _arrow_item(self, spec: _ArrowSpec) -> _Item:
         fs, ss = self.style.font_size, self.style.small_size
-        widths = [self.face.width(t, fs) for t in spec.over + spec.under]
+        widths = [self._line_width(line) for line in spec.over + spec.under]
         widths += [self.italic.width(t, ss) for t in spec.note]
         if spec.marker:
             widths.append(self.bold.width(spec.marker, ss))
@@ -241,17 +271,15 @@ class _SceneBuilder:
         line = 1.2 * fs
         baseline = y - 0.35 * fs - 0.25 * fs
         over = list(spec.over)
-        for k, text in enumerate(reversed(over)):
-            w = self.face.width(text, fs)
-            texts.append(TextRun(text, mid - w / 2, baseline - k * line, fs))
+        for k, pieces in enumerate(reversed(over)):
+            texts += self._line_runs(pieces, mid, baseline - k * line)
         if spec.marker:
             w = self.bold.width(spec.marker, ss)
             texts.append(TextRun(spec.marker, mid - w / 2, baseline - len(over) * line, ss, bold=True,
                                  colour=ERROR_COLOUR))
         baseline = y + 0.35 * fs + self.face.cap_height * fs + 0.15 * fs
-        for k, text in enumerate(spec.under):
-            w = self.face.width(text, fs)
-            texts.append(TextRun(text, mid - w / 2, baseline + k * line, fs))
+        for k, pieces in enumerate(spec.under):
+            texts += self._line_runs(pieces, mid, baseline + k * line)
         baseline += len(spec.under) * line
         for k, text in enumerate(spec.note):
             w = self.italic.width(text, ss)
@@ -343,8 +371,8 @@ class _SceneBuilder:
         return scene, self.fit
 
 
-def _formulas(mol: Chem.Mol, atoms: Sequence[int]) -> list[str]:
-    """Molecular formulas of the fragments made of `atoms`, with subscripts and charges."""
+def _formulas(mol: Chem.Mol, atoms: Sequence[int]) -> list[list[Piece]]:
+    """Molecular formulas of the fragments made of `atoms`, as pieces with subscripts and charges."""
     wanted = set(atoms)
     out = []
     for frag in Chem.GetMolFrags(mol, asMols=False, sanitizeFrags=False):
@@ -352,7 +380,7 @@ def _formulas(mol: Chem.Mol, atoms: Sequence[int]) -> list[str]:
             sub = Chem.RWMol(Chem.PathToSubmol(mol, _bonds_of(mol, frag)) if len(frag) > 1 else
                              _single_atom(mol, frag[0]))
             sub.UpdatePropertyCache(strict=False)
-            out.append(_pretty_formula(CalcMolFormula(sub)))
+            out.append(_formula_pieces(CalcMolFormula(sub)))
     return out
 
 
@@ -373,21 +401,25 @@ def _single_atom(mol: Chem.Mol, index: int) -> Chem.Mol:
     return work.GetMol()
 
 
-_SUB = str.maketrans("0123456789", "\u2080\u2081\u2082\u2083\u2084\u2085\u2086\u2087\u2088\u2089")
-_SUP = str.maketrans("0123456789+-", "\u2070\u00b9\u00b2\u00b3\u2074\u2075\u2076\u2077\u2078\u2079\u207a\u207b")
-
-
-def _pretty_formula(formula: str) -> str:
-    """C2H6O -> C₂H₆O; HO- -> HO⁻; SO4-2 -> SO₄²⁻."""
+def _formula_pieces(formula: str) -> list[Piece]:
+    """RDKit's formula text as pieces: C2H6O -> C, 2 (sub), H, 6 (sub), O; HO- -> HO, minus
+    (sup); SO4-2 -> SO, 4 (sub), 2 and minus (sup)."""
     body, charge = formula, ""
     for k, ch in enumerate(formula):
         if ch in "+-":
             body, charge = formula[:k], formula[k:]
             break
+    pieces: list[Piece] = []
+    for ch in body:
+        kind = "sub" if ch.isdigit() else "n"
+        if pieces and pieces[-1][1] == kind:
+            pieces[-1] = (pieces[-1][0] + ch, kind)
+        else:
+            pieces.append((ch, kind))
     if charge:
-        sign, count = charge[0], charge[1:]
-        charge = (count + sign) if count else sign
-    return body.translate(_SUB) + charge.translate(_SUP)
+        sign = "+" if charge[0] == "+" else MINUS
+        pieces.append((charge[1:] + sign, "sup"))
+    return pieces
 
 
 def _panel_centre(panel: Panel) -> float:
