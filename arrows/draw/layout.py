@@ -371,11 +371,6 @@ class _LayoutBuilder:
             out[h] = runs
         return out
 
-    def _residing(self, k: int, atoms: set[int]) -> set[int]:
-        """Travelling hydrogens held by `atoms` in panel k."""
-        return {r.hydrogen for runs in self.residences.values() for r in runs
-                if r.first <= k <= r.last and r.holder in atoms}
-
     def _segments(self, index: int) -> list[tuple[int, int]]:
         """Runs of panels in which the cluster must stay put: it may move between panels k and
         k+1 only if the step between them touches every atom of it (and every travelling
@@ -391,7 +386,11 @@ class _LayoutBuilder:
         return segments
 
     def _movable(self, atoms: set[int], k: int) -> bool:
-        here = (atoms & self.exists[k] & self.exists[k + 1]) | (self._residing(k, atoms) & self._residing(k + 1, atoms))
+        """A travelling hydrogen held throughout counts only if it is drawn on both panels (it is
+        drawn only next to the steps that move it: it arrived at step k-1 and leaves at k+1)."""
+        shown = {r.hydrogen for runs in self.residences.values() for r in runs
+                 if r.holder in atoms and r.first == k and r.last == k + 1}
+        here = (atoms & self.exists[k] & self.exists[k + 1]) | shown
         return bool(here) and here <= self.touched[k]
 
     # placing clusters
