@@ -215,18 +215,26 @@ class _LayoutBuilder:
         return Layout(tuple(panels), self.drawn_h)
 
     def _open_rings(self) -> None:
-        """A ring that closes in a later step is drawn open until then, where only the atom that
-        closes it moves: a chain end whose one other bond is to an atom that stays put swings
-        about that atom, away from its partner, in the panels before the closing step (that atom
-        is touched by the closing step, so it may move then)."""
+        """A ring closing onto an atom that, over the mechanism, meets more partners than it ever
+        holds at once (an acetal carbon that loses water and gains the second oxygen) is drawn
+        open until it closes, so the crowded atom has room: only the chain end that closes the
+        ring moves, swinging about its one other neighbour in the panels before the closing step
+        (it is touched by that step, so it may move then). Other rings stay curled."""
         main = set(self.clusters[self.main].atoms)
         for k in range(self.n - 1):
             for i, j in sorted(self.bonds_in[k + 1] - self.bonds_in[k]):
                 if i not in main or j not in main:
                     continue
                 for end, partner in ((i, j), (j, i)):
-                    if self._swing(end, partner, k):
+                    if self._crowded(partner) and self._swing(end, partner, k):
                         break
+
+    def _crowded(self, atom: int) -> bool:
+        """More heavy partners over the whole mechanism than bonded at any one time."""
+        heavy = {n for n in self.neighbours[atom] if self.element[n] != 1}
+        at_once = max((sum(1 for n in heavy if (min(atom, n), max(atom, n)) in self.bonds_in[k])
+                       for k in range(self.n)), default=0)
+        return len(heavy) > at_once
 
     def _swing(self, end: int, partner: int, k: int) -> bool:
         """Swing `end` about its one other heavy neighbour in panels first..k, if nothing else
