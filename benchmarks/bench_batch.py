@@ -117,16 +117,41 @@ def bench_jsonl(work: Path, count: int) -> None:
           f"checking costs {floor / per_core:.1f}x the floor per step (whole command, start-up included)")
 
 
+def _spin(n: int) -> int:
+    total = 0
+    for i in range(n):
+        total += i * i
+    return total
+
+
+def parallel_ceiling(n: int = 10_000_000) -> float:
+    """What two processes of pure CPU work gain over one right now: the most any --jobs 2 run can
+    gain on this machine at this moment (a shared or overcommitted host gives less than 2)."""
+    from concurrent.futures import ProcessPoolExecutor
+
+    start = time.perf_counter()
+    _spin(n), _spin(n)
+    serial = time.perf_counter() - start
+    with ProcessPoolExecutor(2) as pool:
+        list(pool.map(_spin, [1, 1]))
+        start = time.perf_counter()
+        list(pool.map(_spin, [n, n]))
+        parallel = time.perf_counter() - start
+    return serial / parallel
+
+
 def main() -> None:
     parser = argparse.ArgumentParser(description=__doc__.splitlines()[0])
     parser.add_argument("--schemes", type=int, default=200)
     parser.add_argument("--records", type=int, default=2000)
     args = parser.parse_args()
     print(f"{os.cpu_count()} cores; load average {os.getloadavg()[0]:.1f} at the start; arrows from {ROOT}")
+    print(f"parallel ceiling before: two processes of pure CPU work run {parallel_ceiling():.2f}x faster than one")
     work = Path(tempfile.mkdtemp(prefix="arrows-bench-"))
     try:
         bench_collect(work / "collect", args.schemes)
         bench_jsonl(work / "jsonl", args.records)
+        print(f"parallel ceiling after: {parallel_ceiling():.2f}x")
         print(f"load average {os.getloadavg()[0]:.1f} at the end (above the core count: ratios are understated)")
     finally:
         shutil.rmtree(work, ignore_errors=True)
