@@ -238,3 +238,9 @@ def test_gallery_command_is_byte_stable_across_processes(tmp_path):
         assert done.returncode == 0, done.stderr
         outputs.append({p.name: p.read_bytes() for p in sorted(folder.glob("*.svg"))})
     assert len(outputs[0]) == 3 and outputs[0] == outputs[1]
+
+
+def test_cli_offers_every_style_preset():
+    """The command lists the presets without importing the drawing package; the lists agree."""
+    from arrows.commands.draw import STYLE_NAMES
+    assert set(STYLE_NAMES) == set(STYLES)
