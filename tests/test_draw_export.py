@@ -244,3 +244,20 @@ def test_cli_offers_every_style_preset():
     """The command lists the presets without importing the drawing package; the lists agree."""
     from arrows.commands.draw import STYLE_NAMES
     assert set(STYLE_NAMES) == set(STYLES)
+
+
+def test_forced_figure_of_a_first_step_that_cannot_be_applied():
+    """An arrow that starts at a hydrogen (AR204) stops the replay at step 1: forced, the figure
+    shows the starting state, no curved arrows for the failed step, and the error marked."""
+    text = """\
+species ketone = "[CH3:1][C:2](=[O:3])[CH3:4]"
+species base = "[OH-:5]"
+step "deprotonation"
+    H(C1) -> O5
+end
+"""
+    trace, diags = arrows.check_text(text, "proton.mech")
+    assert any(d.code == "AR204" for d in diags)
+    root = ET.fromstring(render_svg(trace, force=True, diagnostics=diags))
+    texts = " ".join(t.text for t in root.iter(SVG_NS + "text"))
+    assert "AR204" in texts and "structure not derived" in texts

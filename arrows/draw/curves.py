@@ -132,6 +132,8 @@ class ArrowPlanner:
     def plan(self, step: int, moves: list[ResolvedMove], state: ElectronState,
              panel: PanelStructure) -> tuple[list[CurvedArrow], list[Mark]]:
         marks: list[Mark] = []
+        if not moves:
+            return [], marks
         sinks = [self._sink(move, state, panel) for move in moves]
         self._separate_shared_sinks(moves, sinks, panel)
         sources = [self._source(move, panel, sink, marks) for move, sink in zip(moves, sinks)]
