@@ -172,9 +172,6 @@ def test_draw_gives_figure_bytes():
     assert mechanism.draw("pdf").startswith(b"%PDF")
 
 
-@pytest.mark.xfail(strict=True, raises=ValueError,
-                   reason="arrows.draw crashes on a forced figure whose first step is not derived "
-                          "(draw/curves.py _score: np.stack of no candidates); drop this mark when fixed")
 def test_a_broken_mechanism_draws_only_when_forced_and_shows_in_jupyter():
     from arrows.draw import DrawError
     mechanism = arrows.parse(BROKEN)
