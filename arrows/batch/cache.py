@@ -90,12 +90,12 @@ class Cache:
     def has_figure(self, key: str) -> bool:
         return (self.figures / key / META).is_file()
 
-    def load_figure(self, key: str) -> FigureEntry:
-        folder = self.figures / key
-        meta = json.loads((folder / META).read_text(encoding="utf-8"))
-        svg = (folder / SVG).read_text(encoding="utf-8") if (folder / SVG).is_file() else None
-        pdf = (folder / PDF).read_bytes() if (folder / PDF).is_file() else None
-        return FigureEntry(meta, svg, pdf)
+    def figure_file(self, key: str, name: str) -> Path:
+        """SVG or PDF, the files of an entry."""
+        return self.figures / key / name
+
+    def load_meta(self, key: str) -> dict:
+        return json.loads((self.figures / key / META).read_text(encoding="utf-8"))
 
     def store_figure(self, key: str, entry: FigureEntry) -> None:
         building = Path(tempfile.mkdtemp(prefix=temp_prefix(key), dir=self.figures))

@@ -21,7 +21,7 @@ from typing import Callable, Optional
 from .atomic import remove_stale_temps, replace_dir, temp_dir_beside
 from .cache import PDF, SVG, Cache, document_key, page_key, tool_fingerprint
 from .document import compose
-from .figures import FigureJob, FigureOutcome, make_figure
+from .figures import FigureJob, FigureOutcome, look_up, make_figure
 from .index_html import index_html
 from .pages import Front, PageSetup
 from .parallel import WorkerPool
@@ -83,25 +83,26 @@ def collect(sources: list[Source], settings: CollectSettings, progress: Progress
     fingerprint = tool_fingerprint()
     setup = PageSetup(settings.paper, _font_family(settings.style))
 
+    found = [look_up(s, settings.style, fingerprint, cache) for s in sources]
+    jobs = [FigureJob(s, key, settings.style, cache.root) for s, key in zip(sources, found) if isinstance(key, str)]
     records: list[SchemeRecord] = []
-    with WorkerPool(settings.jobs) as pool:
-        jobs = [FigureJob(s, settings.style, cache.root, fingerprint) for s in sources]
-        for outcome in pool.map(make_figure, jobs):
+    with WorkerPool(settings.jobs) as pool:     # processes start only when there is work for them
+        drawn = pool.map(make_figure, jobs)
+        for known in found:
+            outcome = next(drawn) if isinstance(known, str) else known
             record = _record(len(records) + 1, settings.prefix, outcome)
             records.append(record)
             progress("scheme", len(records), len(sources), record)
             if settings.fail_fast and record.failed:
                 return CollectResult(records, complete=False)
 
-        figures = {r.label: cache.load_figure(r.key).svg if r.key and r.has_figure else None for r in records}
-        document, page_count, converted = _document(pool, cache, fingerprint, setup, settings, records, figures,
-                                                    progress)
-    _write_output(settings, records, figures, document, cache)
+        document, page_count, converted = _document(pool, cache, fingerprint, setup, settings, records, progress)
+    _write_output(settings, records, document, cache)
     return CollectResult(records, complete=True, pages=page_count, pages_converted=converted)
 
 
 def _document(pool: WorkerPool, cache: Cache, fingerprint: str, setup: PageSetup, settings: CollectSettings,
-              records: list[SchemeRecord], figures: dict[str, Optional[str]], progress: Progress) -> tuple[bytes, int, int]:
+              records: list[SchemeRecord], progress: Progress) -> tuple[bytes, int, int]:
     """The merged PDF, its page count and how many pages were converted in this run. A document
     whose every part is unchanged comes whole from the cache; otherwise only the pages not cached
     are converted (in the workers) before merging."""
@@ -109,7 +110,12 @@ def _document(pool: WorkerPool, cache: Cache, fingerprint: str, setup: PageSetup
     stored = cache.load_document(key)
     if stored is not None:
         return (*stored, 0)
-    pages = compose(setup, settings.front, records, lambda r: figures[r.label], settings.flow)
+    def figure_svg(record: SchemeRecord) -> Optional[str]:
+        if not record.has_figure:
+            return None
+        return cache.figure_file(record.key, SVG).read_text(encoding="utf-8")
+
+    pages = compose(setup, settings.front, records, figure_svg, settings.flow)
     keys = [page_key(p.svg, fingerprint) for p in pages]
     todo = {k: p.svg for k, p in zip(keys, pages) if not cache.has_page(k)}
     for done, _ in enumerate(pool.map(_convert_page, [(cache.root, k, svg) for k, svg in todo.items()]), 1):
@@ -139,7 +145,8 @@ def _record(number: int, prefix: str, outcome: FigureOutcome) -> SchemeRecord:
     return SchemeRecord(number=number, label=f"{prefix}{number}", name=outcome.source.name,
                         slug=outcome.source.slug, title=meta["title"], caption=meta["caption"],
                         steps=meta["steps"], diagnostics=tuple(meta["diagnostics"]),
-                        figure_problem=meta["figure_problem"], key=outcome.key, rendered=outcome.rendered)
+                        figure_problem=meta["figure_problem"], key=outcome.key, rendered=outcome.rendered,
+                        figure_size=tuple(meta["figure_size"]) if meta.get("figure_size") else None)
 
 
 def _font_family(style: str) -> str:
@@ -154,8 +161,7 @@ def _check_folder_is_ours(folder: Path) -> None:
                           f"another output name")
 
 
-def _write_output(settings: CollectSettings, records: list[SchemeRecord], figures: dict[str, Optional[str]],
-                  document: bytes, cache: Cache) -> None:
+def _write_output(settings: CollectSettings, records: list[SchemeRecord], document: bytes, cache: Cache) -> None:
     """Write everything into a temporary folder beside the output, then swap it into place."""
     building = temp_dir_beside(settings.output)
     try:
@@ -163,12 +169,10 @@ def _write_output(settings: CollectSettings, records: list[SchemeRecord], figure
         folder.mkdir()
         (folder / MARKER).write_text("made by arrows collect; replaced as a whole on every run\n")
         for record in records:
-            if figures[record.label] is None:
-                continue
-            entry_dir = cache.figures / record.key
-            shutil.copyfile(entry_dir / SVG, folder / f"{record.file_stem}.svg")
-            shutil.copyfile(entry_dir / PDF, folder / f"{record.file_stem}.pdf")
-        html = index_html(settings.front, records, lambda r: figures[r.label], settings.output.name)
+            if record.has_figure:
+                shutil.copyfile(cache.figure_file(record.key, SVG), folder / f"{record.file_stem}.svg")
+                shutil.copyfile(cache.figure_file(record.key, PDF), folder / f"{record.file_stem}.pdf")
+        html = index_html(settings.front, records, settings.output.name)
         (folder / "index.html").write_text(html, encoding="utf-8")
         (building / settings.output.name).write_bytes(document)
         replace_dir(folder, settings.figures_dir)

@@ -1,8 +1,9 @@
-"""One scheme of a batch, in a worker process: check it, draw it, keep it in the cache.
+"""One scheme of a batch: look it up in the cache (in the parent, cheaply), or check it, draw it
+and keep it in the cache (in a worker process).
 
 A cached scheme is not read beyond its bytes: the key says whether anything that decides the
-figure has changed. What comes back to the parent is small (the key and the metadata); the
-pictures stay in the cache until the document is assembled.
+figure has changed, so a warm run starts no worker at all. What comes back to the parent is small
+(the key and the metadata); the pictures stay in the cache until the document is assembled.
 """
 from __future__ import annotations
 
@@ -13,15 +14,16 @@ from typing import Optional
 from ..api import check_file
 from ..diagnostics import ERROR
 from .cache import Cache, FigureEntry, figure_key
+from .embed import parse_figure
 from .sources import Source
 
 
 @dataclass(frozen=True)
 class FigureJob:
     source: Source
+    key: str
     style_name: str
     cache_root: Path
-    fingerprint: str
 
 
 @dataclass(frozen=True)
@@ -32,19 +34,25 @@ class FigureOutcome:
     meta: dict
 
 
-def make_figure(job: FigureJob) -> FigureOutcome:
-    cache = Cache(job.cache_root)
+def look_up(source: Source, style_name: str, fingerprint: str, cache: Cache) -> FigureOutcome | str:
+    """The outcome when it needs no drawing (cached, or the file cannot be read); otherwise the
+    cache key under which the drawing will be stored."""
     try:
-        data = job.source.path.read_bytes()
+        data = source.path.read_bytes()
     except OSError:
-        _, diags = check_file_as(job.source)   # AR100 with the reason
-        return FigureOutcome(job.source, None, True, _meta(job.source, None, diags, "no figure: the file could not be read"))
-    key = figure_key(data, job.source.name, job.style_name, job.fingerprint)
+        _, diags = check_file_as(source)   # AR100 with the reason
+        return FigureOutcome(source, None, True, _meta(source, None, diags, "no figure: the file could not be read"))
+    key = figure_key(data, source.name, style_name, fingerprint)
     if cache.has_figure(key):
-        return FigureOutcome(job.source, key, False, cache.load_figure(key).meta)
+        return FigureOutcome(source, key, False, cache.load_meta(key))
+    return key
+
+
+def make_figure(job: FigureJob) -> FigureOutcome:
+    """Worker entry point: draw one scheme and store it under its key."""
     entry = draw_scheme(job.source, job.style_name)
-    cache.store_figure(key, entry)
-    return FigureOutcome(job.source, key, True, entry.meta)
+    Cache(job.cache_root).store_figure(job.key, entry)
+    return FigureOutcome(job.source, job.key, True, entry.meta)
 
 
 def draw_scheme(source: Source, style_name: str) -> FigureEntry:
@@ -65,7 +73,11 @@ def draw_scheme(source: Source, style_name: str) -> FigureEntry:
         except Exception as exc:  # any drawing failure is one scheme's failure, not the batch's
             problem = f"the figure could not be drawn: {type(exc).__name__}: {exc}"
     pdf = svg_to_pdf(svg, title=_title(trace, source)) if svg is not None else None
-    return FigureEntry(_meta(source, trace, diags, problem), svg, pdf)
+    meta = _meta(source, trace, diags, problem)
+    if svg is not None:
+        figure = parse_figure(svg)
+        meta["figure_size"] = [figure.width, figure.height]
+    return FigureEntry(meta, svg, pdf)
 
 
 def check_file_as(source: Source):

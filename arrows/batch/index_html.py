@@ -7,9 +7,7 @@ files beside it, and a content security policy forbids fetching anything else.
 from __future__ import annotations
 
 from html import escape
-from typing import Callable, Optional
-
-from .pages import Front, parse_figure
+from .pages import Front
 from .record import SchemeRecord, plural
 
 STYLE = """
@@ -34,8 +32,7 @@ SCREEN_ZOOM = 1.5
 POLICY = "default-src 'none'; img-src 'self'; style-src 'unsafe-inline'"
 
 
-def index_html(front: Front, records: list[SchemeRecord], figure_svg: Callable[[SchemeRecord], Optional[str]],
-               pdf_name: str) -> str:
+def index_html(front: Front, records: list[SchemeRecord], pdf_name: str) -> str:
     failed = sum(r.failed for r in records)
     title = front.title or "Schemes"
     head = [f"<h1>{escape(title)}</h1>"]
@@ -49,7 +46,7 @@ def index_html(front: Front, records: list[SchemeRecord], figure_svg: Callable[[
         f'<tr><td><a href="#{escape(r.label)}">{escape(r.label)}</a></td><td>{escape(r.name)}</td>'
         f"<td>{escape(r.status())}</td></tr>" for r in records)
     table = f'<table class="summary"><tr><th>Scheme</th><th>File</th><th>Check</th></tr>{rows}</table>'
-    sections = "".join(_section(r, figure_svg(r)) for r in records)
+    sections = "".join(_section(r) for r in records)
     return ("<!DOCTYPE html>\n<html lang=\"en\"><head><meta charset=\"utf-8\">"
             f'<meta http-equiv="Content-Security-Policy" content="{POLICY}">'
             '<meta name="viewport" content="width=device-width, initial-scale=1">'
@@ -57,19 +54,19 @@ def index_html(front: Front, records: list[SchemeRecord], figure_svg: Callable[[
             f"{table}\n{sections}</body></html>\n")
 
 
-def _section(record: SchemeRecord, svg: Optional[str]) -> str:
+def _section(record: SchemeRecord) -> str:
     label = escape(record.label)
-    if svg is not None:
-        figure = parse_figure(svg)
+    drawn = record.has_figure and record.figure_size is not None
+    if drawn:
         # CSS px from points, enlarged for reading on a screen (a print-size figure looks small there)
-        width, height = round(figure.width / 0.75 * SCREEN_ZOOM), round(figure.height / 0.75 * SCREEN_ZOOM)
+        width, height = (round(length / 0.75 * SCREEN_ZOOM) for length in record.figure_size)
         picture = (f'<img src="{escape(record.file_stem)}.svg" width="{width}" height="{height}" '
                    f'alt="Scheme {label}: {escape(record.heading)}">')
     else:
         picture = f'<div class="no-figure">{escape(record.figure_problem or "no figure")}</div>'
     caption = f"<figcaption>{escape(record.caption)}</figcaption>" if record.caption else ""
     links = ""
-    if svg is not None:
+    if drawn:
         links = (f' Figure: <a href="{escape(record.file_stem)}.svg">SVG</a>, '
                  f'<a href="{escape(record.file_stem)}.pdf">PDF</a>.')
     status = f"<strong>{escape(record.status())}</strong>" if record.failed else escape(record.status())

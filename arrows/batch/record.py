@@ -22,6 +22,7 @@ class SchemeRecord:
     figure_problem: Optional[str]    # why there is no figure, if there is none
     key: Optional[str]               # cache key of the figure
     rendered: bool                   # drawn in this run (False: from the cache)
+    figure_size: Optional[tuple[float, float]] = None   # width, height in points
 
     @property
     def heading(self) -> str:
