@@ -40,8 +40,9 @@ def _format_of(output: Path, fmt: str | None) -> str:
 @click.option("--line-width", type=click.FloatRange(0.1, 10), help="Bond and arrow line width in points.")
 @click.option("--dpi", type=click.IntRange(30, 2400), default=300, show_default=True, help="Resolution of PNG output.")
 @click.option("--force", is_flag=True, help="Draw even with errors; they are marked on the figure.")
+@click.option("--watch", is_flag=True, help="Keep running: redraw each time FILE is saved, printing the diagnostics.")
 def draw_command(file, output, fmt, style, color, numbers, cip, step_labels, no_title, font_family, font_size,
-                 line_width, dpi, force):
+                 line_width, dpi, force, watch):
     """Draw FILE as one scheme: the starting state and the state after each step, joined by
     reaction arrows, with each step's curved arrows on the panel it leaves.
 
@@ -50,6 +51,10 @@ def draw_command(file, output, fmt, style, color, numbers, cip, step_labels, no_
     """
     output = Path(output)
     fmt = _format_of(output, fmt)
+    if watch:
+        _watch(file, output, fmt, _style(style, color, numbers, cip, step_labels, no_title, font_family, font_size,
+                                         line_width), force, dpi)
+        sys.exit(0)
     trace, diags = check_file(file)
     for d in diags:
         if d.severity != NOTE:
@@ -66,12 +71,10 @@ def draw_command(file, output, fmt, style, color, numbers, cip, step_labels, no_
         click.echo(f"{output}: cannot write: the folder {output.parent} does not exist", err=True)
         sys.exit(2)
 
-    from ..draw import STYLES, DrawError, build_scene
+    from ..draw import DrawError, build_scene
     from ..draw.export import convert, write_atomic
     from ..draw.svg import scene_to_svg
-    chosen = STYLES[style].with_options(color=color or None, numbers=numbers or None, cip=cip or None,
-                                        step_labels=step_labels or None, show_title=False if no_title else None,
-                                        font_family=font_family, font_size=font_size, line_width=line_width)
+    chosen = _style(style, color, numbers, cip, step_labels, no_title, font_family, font_size, line_width)
     try:
         scene = build_scene(trace, chosen, diags)
         write_atomic(output, convert(scene_to_svg(scene), fmt, dpi))
@@ -89,3 +92,28 @@ def draw_command(file, output, fmt, style, color, numbers, cip, step_labels, no_
         click.echo(f"{file}: note: {note}", err=True)
     click.echo(f"wrote {output}", err=True)
     sys.exit(1 if errors else 0)
+
+
+def _style(style, color, numbers, cip, step_labels, no_title, font_family, font_size, line_width):
+    from ..draw import STYLES
+    return STYLES[style].with_options(color=color or None, numbers=numbers or None, cip=cip or None,
+                                      step_labels=step_labels or None, show_title=False if no_title else None,
+                                      font_family=font_family, font_size=font_size, line_width=line_width)
+
+
+def _watch(file, output: Path, fmt: str, chosen, force: bool, dpi: int) -> None:
+    """Redraw on every save until Ctrl-C; a broken file keeps the last good figure and says why."""
+    from ..watch import render_figure, rerun_on_save
+
+    def report(diags) -> None:
+        for d in diags:
+            if d.severity != NOTE:
+                click.echo(d.to_text(), err=True)
+        errors = sum(d.severity == ERROR for d in diags)
+        if errors and not force:
+            click.echo(f"not redrawn: {errors} error{'s' if errors != 1 else ''}; waiting for the next save", err=True)
+        else:
+            click.echo(f"redrawn {output}; waiting for the next save (Ctrl-C stops)", err=True)
+
+    click.echo(f"watching {file}", err=True)
+    rerun_on_save(file, lambda path: render_figure(path, output, fmt, chosen, force=force, dpi=dpi), report)
