@@ -51,7 +51,7 @@ def render_figure(source: Path, output: Path, fmt: str = "svg", style=None, forc
     place and the diagnostics say why: the author keeps the last good drawing while editing.
     """
     from .api import Diagnostics, checked
-    from .batch.atomic import write_bytes
+    from .atomic import write_bytes
     from .diagnostics import ERROR, MechanismError
     from .language import load
 

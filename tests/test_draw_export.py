@@ -191,7 +191,7 @@ def test_failed_render_leaves_no_file(tmp_path, monkeypatch):
 
 def test_write_atomic_cleans_up_when_the_rename_fails(tmp_path, monkeypatch):
     import os
-    from arrows.draw.export import write_atomic
+    from arrows.atomic import write_bytes as write_atomic
     target = tmp_path / "figure.svg"
 
     def refuse(src, dst):

@@ -21,7 +21,7 @@ from importlib import metadata
 from pathlib import Path
 from typing import Optional
 
-from .atomic import remove_stale_temps, temp_prefix, write_bytes
+from ..atomic import remove_stale_temps, temp_prefix, write_bytes
 
 META, SVG, PDF = "meta.json", "figure.svg", "figure.pdf"
 

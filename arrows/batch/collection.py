@@ -18,7 +18,7 @@ from dataclasses import dataclass, field
 from pathlib import Path
 from typing import Callable, Optional
 
-from .atomic import remove_stale_temps, replace_dir, temp_dir_beside
+from ..atomic import remove_stale_temps, replace_dir, temp_dir_beside
 from .cache import PDF, SVG, Cache, document_key, page_key, tool_fingerprint
 from .document import compose
 from .figures import FigureJob, FigureOutcome, look_up, make_figure

@@ -6,7 +6,7 @@ import json
 import xml.etree.ElementTree as ET
 from pathlib import Path
 
-from .atomic import write_text
+from ..atomic import write_text
 from .record import SchemeRecord, diagnostic_line
 
 

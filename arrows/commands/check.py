@@ -70,7 +70,7 @@ def _check_jsonl(path: str, output: str | None, jobs: int | None, cluster: str |
     """`--jsonl`: stream the data set through the workers; results to stdout or, atomically, to -o."""
     from contextlib import nullcontext
 
-    from ..batch.atomic import atomic_file
+    from ..atomic import atomic_file
     from ..batch.jsonl import check_stream
     from ..batch.parallel import ClusterPool, ClusterUnavailable, WorkerDied, WorkerPool, default_jobs
     from ..diagnostics import Diagnostic

@@ -159,7 +159,7 @@ def closures_command(species, species_name, fmt, max_ring, condense, draw_path, 
         if pick > len(found):
             _fail(f"{species}:1:1", f"there {'is' if len(found) == 1 else 'are'} {len(found)} candidate(s); "
                   f"--pick {pick} is out of range", "pick a rank from the table")
-        from ..batch.atomic import write_text
+        from ..atomic import write_text
         write_text(write_path, texts[pick - 1])
         click.echo(f"wrote {write_path}: {found[pick - 1].closure.name}", err=True)
 
@@ -175,7 +175,7 @@ def _draw(path: str, mol: Chem.Mol, found: list[Closure], texts: list[str], rows
     """A grid of the candidate products with the new bond highlighted (RDKit's 2D drawer)."""
     from rdkit.Chem import rdDepictor
     from rdkit.Chem.Draw import rdMolDraw2D
-    from ..batch.atomic import write_bytes
+    from ..atomic import write_bytes
     rdDepictor.SetPreferCoordGen(True)
     mols, bonds, legends = [], [], []
     for c, text, row in zip(found, texts, rows):

@@ -72,7 +72,8 @@ def draw_command(file, output, fmt, style, color, numbers, cip, step_labels, no_
         sys.exit(2)
 
     from ..draw import DrawError, build_scene
-    from ..draw.export import convert, write_atomic
+    from ..atomic import write_bytes as write_atomic
+    from ..draw.export import convert
     from ..draw.svg import scene_to_svg
     chosen = _style(style, color, numbers, cip, step_labels, no_title, font_family, font_size, line_width)
     try:

@@ -13,7 +13,7 @@ def emit(result: Union[str, bytes], output: Optional[str]) -> None:
     if not output:
         click.echo(result, nl=False)
         return
-    from ..batch.atomic import write_bytes
+    from ..atomic import write_bytes
     try:
         write_bytes(output, result.encode("utf-8") if isinstance(result, str) else result)
     except OSError as exc:

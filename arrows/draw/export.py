@@ -1,9 +1,5 @@
-"""SVG text -> PDF or PNG with cairosvg, and writing any output atomically."""
+"""SVG text -> PDF or PNG with cairosvg. Outputs are written with arrows.atomic."""
 from __future__ import annotations
-
-import os
-import tempfile
-from pathlib import Path
 
 
 def convert(svg: str, fmt: str, dpi: int = 300) -> bytes:
@@ -18,20 +14,3 @@ def convert(svg: str, fmt: str, dpi: int = 300) -> bytes:
     if fmt == "png":
         return cairosvg.svg2png(bytestring=data, dpi=dpi)
     raise ValueError(f"unknown format {fmt!r}")
-
-
-def write_atomic(path: str | os.PathLike, data: bytes) -> None:
-    """Write to a temporary file in the same folder, then rename over path: a reader sees the old
-    file or the whole new one, and a failure leaves no partial file."""
-    target = Path(path)
-    handle, temp = tempfile.mkstemp(dir=target.parent or Path("."), prefix=f".{target.name}.", suffix=".tmp")
-    try:
-        with os.fdopen(handle, "wb") as out:
-            out.write(data)
-        os.replace(temp, target)
-    except BaseException:
-        try:
-            os.unlink(temp)
-        except FileNotFoundError:
-            pass
-        raise

@@ -10,7 +10,7 @@ from pathlib import Path
 from ..api import check_file
 from ..diagnostics import ERROR
 from . import STYLES, render_svg
-from .export import write_atomic
+from ..atomic import write_bytes as write_atomic
 
 
 def render_folder(folder: Path, style: str = "two-column") -> list[tuple[Path, str]]:
