@@ -211,13 +211,13 @@ def test_notebook_load_check_draw_cell_shows_svg(tmp_path):
 def test_the_documented_examples_run(monkeypatch, capsys):
     """Every python block of the API documentation runs as written, in order, from the repository root."""
     import re
-    text = (ROOT / "docs-api.md").read_text(encoding="utf-8")
+    text = (ROOT / "README.md").read_text(encoding="utf-8")
     blocks = re.findall(r"```python\n(.*?)```", text, flags=re.S)
     assert len(blocks) >= 2
     monkeypatch.chdir(ROOT)
     session: dict = {}   # one session, as a reader runs the blocks one after another
     for block in blocks:
-        exec(compile(block, "docs-api.md", "exec"), session)
+        exec(compile(block, "README.md", "exec"), session)
     assert "deprotonation" in capsys.readouterr().out
 
 
