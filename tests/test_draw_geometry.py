@@ -293,3 +293,24 @@ end
     assert charge.size < over["Na"].size and charge.y < over["Na"].y and charge.x > over["Na"].x
     sodium = next(a.GetIdx() for a in trace.steps[0].after.mol.GetAtoms() if a.GetSymbol() == "Na")
     assert scene.panels[0].atom(sodium) is None and scene.panels[1].atom(sodium) is not None
+
+
+def test_cycloaddition_partners_face_each_other_with_the_forming_bonds_open():
+    """A Diels-Alder is drawn with the diene s-cis and the dienophile across its termini, the
+    forming bonds open to about 1.5 bond lengths (rendering-notes.md; common practice in organic
+    chemistry texts), so each arrow runs from a pi bond's midpoint to the midpoint of the bond
+    it forms or strengthens instead of looping back on itself."""
+    path = ROOT / "gallery" / "13-diels-alder.mech"
+    trace, _, scene = _scene(path.read_text(encoding="utf-8"), path.name)
+    panel = scene.panels[0]
+    where = {a.index: a.position for a in panel.atoms}
+    bl = scene.bond_length
+    formed = trace.steps[0].change.formed
+    assert len(formed) == 2
+    for i, j in formed:
+        assert 1.3 <= _distance(where[i], where[j]) / bl <= 1.8, (i, j)
+    for arrow in panel.arrows:
+        assert arrow.source_kind == "bond"
+        # Tail and head belong to different bonds at least half a bond length apart.
+        assert _distance(arrow.source_point, arrow.sink_point) >= 0.5 * bl, arrow.move
+        assert _distance(arrow.start, arrow.tip) >= 0.5 * bl, arrow.move

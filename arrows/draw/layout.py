@@ -33,6 +33,7 @@ from ..electrons import ElectronState, ResolvedMove
 # Gap between a transferred hydrogen and the atom that takes it, in bond lengths: room for a
 # curved arrow, close enough to read as one event.
 TRANSFER_GAP = 1.5
+OPEN_BOND = 1.5      # a bond about to form between two species, as chemists draw it
 _CLEARANCE = 1.2     # nearest approach allowed between atoms of separately placed clusters
 _COMPASS = np.exp(1j * np.arange(36) * np.pi / 18)     # directions tried, every 10 degrees
 _SEVENTY = math.radians(70)
@@ -157,6 +158,9 @@ class _Cluster:
     local: dict[int, complex]
     segments: list[tuple[int, int]] = field(default_factory=list)   # runs of panels it cannot move in
     placement: dict[int, tuple[complex, complex]] = field(default_factory=dict)  # segment start -> (rotation, shift)
+    # Partners of a cycloaddition held apart before they bond: (atoms, first panel, last panel,
+    # offset in local coordinates).
+    openings: list[tuple[frozenset[int], int, int, complex]] = field(default_factory=list)
 
 
 def compute_layout(states: Sequence[ElectronState], moves: Sequence[Sequence[ResolvedMove]],
@@ -215,11 +219,13 @@ class _LayoutBuilder:
         return Layout(tuple(panels), self.drawn_h)
 
     def _open_rings(self) -> None:
-        """A ring closing onto an atom that, over the mechanism, meets more partners than it ever
-        holds at once (an acetal carbon that loses water and gains the second oxygen) is drawn
-        open until it closes, so the crowded atom has room: only the chain end that closes the
-        ring moves, swinging about its one other neighbour in the panels before the closing step
-        (it is touched by that step, so it may move then). Other rings stay curled."""
+        """A ring is drawn open until the step that closes it: only the chain end that closes
+        the ring moves, swinging about its one other neighbour in the panels before the closing
+        step (it is touched by that step, so it may move then). Onto an atom that, over the
+        mechanism, meets more partners than it ever holds at once (an acetal carbon that loses
+        water and gains the second oxygen) it swings wide, so the crowded atom has room; otherwise
+        the forming bond opens to about OPEN_BOND bond lengths, so the arrow into it has room, as
+        chemists draw a ring closure. A ring with no chain end stays curled."""
         main = set(self.clusters[self.main].atoms)
         for k in range(self.n - 1):
             for i, j in sorted(self.bonds_in[k + 1] - self.bonds_in[k]):
@@ -228,6 +234,10 @@ class _LayoutBuilder:
                 for end, partner in ((i, j), (j, i)):
                     if self._crowded(partner) and self._swing(end, partner, k):
                         break
+                else:
+                    for end, partner in ((i, j), (j, i)):
+                        if self._swing(end, partner, k, OPEN_BOND):
+                            break
 
     def _crowded(self, atom: int) -> bool:
         """More heavy partners over the whole mechanism than bonded at any one time."""
@@ -236,9 +246,11 @@ class _LayoutBuilder:
                        for k in range(self.n)), default=0)
         return len(heavy) > at_once
 
-    def _swing(self, end: int, partner: int, k: int) -> bool:
+    def _swing(self, end: int, partner: int, k: int, target: Optional[float] = None) -> bool:
         """Swing `end` about its one other heavy neighbour in panels first..k, if nothing else
-        hangs on it that is drawn there. Returns whether it moved."""
+        hangs on it that is drawn there: as far into free space as it goes, or (with `target`)
+        to that distance from `partner`, keeping clear of every other atom. Returns whether it
+        moved."""
         if end not in self.touched[k] or self.element[end] == 1:
             return False
         others = [n for n in self.neighbours[end] if n != partner]
@@ -263,14 +275,28 @@ class _LayoutBuilder:
         crowd = np.array(sorted({p for q in panels for a, p in self.positions[q].items() if a not in (end, pivot)},
                                 key=lambda z: (z.real, z.imag)), dtype=complex)
         best, best_score = None, -math.inf
-        for degrees in (20, -20, 40, -40, 60, -60, 80, -80):
-            spot = centre + (start - centre) * cmath.rect(1.0, math.radians(degrees))
-            room = float(np.abs(crowd - spot).min()) if len(crowd) else 9.0
-            score = min(room, 1.4) - 0.002 * abs(degrees)
-            if score > best_score:
-                best, best_score = spot, score
-        if best is None or best_score < 1.0:
-            return False
+        if target is not None:
+            if abs(start - self.positions[panels[0]][partner]) >= target - 0.05:
+                return False
+            crowd = crowd[np.abs(crowd - self.positions[panels[0]][partner]) > 1e-6]
+            for degrees in range(-80, 81, 5):
+                spot = centre + (start - centre) * cmath.rect(1.0, math.radians(degrees))
+                room = float(np.abs(crowd - spot).min()) if len(crowd) else 9.0
+                reach = abs(spot - self.positions[panels[0]][partner])
+                score = -abs(reach - target) - 0.001 * abs(degrees)
+                if room >= 0.95 and reach >= 1.2 and score > best_score:
+                    best, best_score = spot, score
+            if best is None:
+                return False
+        else:
+            for degrees in (20, -20, 40, -40, 60, -60, 80, -80):
+                spot = centre + (start - centre) * cmath.rect(1.0, math.radians(degrees))
+                room = float(np.abs(crowd - spot).min()) if len(crowd) else 9.0
+                score = min(room, 1.4) - 0.002 * abs(degrees)
+                if score > best_score:
+                    best, best_score = spot, score
+            if best is None or best_score < 1.0:
+                return False
         for p in panels:
             self.positions[p][end] = best
         return True
@@ -306,6 +332,7 @@ class _LayoutBuilder:
         for i, j in heavy_bonds:
             if self._permanent(i, j):
                 groups.join(i, j)
+        partners: list[tuple[tuple[frozenset[int], frozenset[int]], list[tuple[int, int]]]] = []
         while True:
             links: dict[tuple[int, int], list[tuple[int, int]]] = {}
             for i, j in heavy_bonds:
@@ -316,6 +343,10 @@ class _LayoutBuilder:
                       if len(bonds) > 1 or self._pinned_together(bonds[0], groups)]
             if not joined:
                 break
+            for a, b in joined:
+                if len(links[(a, b)]) > 1:
+                    sides = tuple(frozenset(x for x in heavy_atoms if groups.find(x) == g) for g in (a, b))
+                    partners.append((sides, links[(a, b)]))
             for a, b in joined:
                 groups.join(a, b)
         self.bridging = {h for h in self.drawn_h
@@ -330,7 +361,44 @@ class _LayoutBuilder:
         self.rings: list[list[int]] = []
         self.clusters = [_Cluster(g, self._depict(g)) for g in everything.groups()]
         self.cluster_of = {a: k for k, c in enumerate(self.clusters) for a in c.atoms}
+        for sides, bonds in partners:
+            self._hold_apart(sides, bonds)
         self.main = min(range(len(self.clusters)), key=lambda k: (-len(self.clusters[k].atoms), self.clusters[k].atoms[0]))
+
+    def _hold_apart(self, sides: tuple[frozenset[int], frozenset[int]], bonds: list[tuple[int, int]]) -> None:
+        """Two species that make a ring between them (a cycloaddition) are drawn facing each
+        other with the forming bonds open, about OPEN_BOND bond lengths, until the step that
+        makes them: the diene s-cis and the dienophile across its termini, as chemists draw it, so
+        the arrows into the forming bonds have room. One side moves, as a whole, only if the
+        forming step touches every atom of it; the smaller such side moves."""
+        cluster = self.clusters[self.cluster_of[bonds[0][0]]]
+        formed = [k for k in range(self.n) if all(b in self.bonds_in[k] for b in bonds)]
+        if not formed or formed[0] == 0:
+            return
+        step = formed[0] - 1
+        if any(b in self.bonds_in[k] for b in bonds for k in range(step + 1)):
+            return
+        local = cluster.local
+        choices = []
+        for side, other in (sides, sides[::-1]):
+            atoms = frozenset(a for a in cluster.atoms if a in side or (
+                self.element[a] == 1 and any(n in side for n in self.neighbours[a])))
+            if atoms <= self.touched[step]:
+                choices.append((len(atoms), sorted(atoms), atoms, side, other))
+        if not choices:
+            return
+        _, _, atoms, side, other = min(choices)
+        ends = [(i, j) if i in side else (j, i) for i, j in bonds]
+        mine = sum(local[i] for i, _ in ends) / len(ends)
+        theirs = sum(local[j] for _, j in ends) / len(ends)
+        away = _unit(mine - theirs)
+        for step_out in range(1, 101):
+            offset = away * 0.02 * step_out
+            mean = sum(abs(local[i] + offset - local[j]) for i, j in ends) / len(ends)
+            if mean >= OPEN_BOND:
+                break
+        first = min(k for k in range(self.n) if atoms & self.exists[k])
+        cluster.openings.append((atoms, first, step, offset))
 
     def _depict(self, group: list[int]) -> dict[int, complex]:
         """RDKit 2D coordinates of one cluster's union graph, scaled to unit bond length."""
@@ -422,6 +490,10 @@ class _LayoutBuilder:
                 for atom in cluster.atoms:
                     if atom in self.exists[k]:
                         self.positions[k][atom] = shift + rotation * cluster.local[atom]
+                for atoms, first, last, offset in cluster.openings:
+                    if first <= k <= last:
+                        for atom in atoms & self.exists[k]:
+                            self.positions[k][atom] += rotation * offset
 
     def _events(self) -> list[tuple[int, str, int, int, Optional[int]]]:
         """(panel, kind, atom a, atom b, hydrogen) in the order they happen: a bond to a leaving
