@@ -17,7 +17,8 @@ from ..trace import StepTrace, Trace
 from .curves import ArrowPlanner
 from .layout import compute_layout
 from .scene import Box, Mark, Panel, ReactionArrow, Scene, TextRun
-from .structure import MINUS, StructureDrawer
+from .formula import MINUS, Piece, condition_pieces, formula_pieces
+from .structure import StructureDrawer
 from .styles import ERROR_COLOUR, SMALLEST_TEXT_PT, Style
 from .text import FontFace, wrap
 
@@ -43,9 +44,6 @@ class _Item:
     below: float
     panel: Optional[Panel] = None
     arrow_index: Optional[int] = None
-
-
-Piece = tuple[str, str]      # (text, "n" | "sub" | "sup"): one piece of a line of text
 
 
 @dataclass
@@ -196,9 +194,9 @@ class _SceneBuilder:
         if hidden:
             spec.over += self._formula_lines("+ ", _formulas(st.before.mol, sorted(hidden)), limit)
         if step.over:
-            spec.over += [[(line, "n")] for line in wrap(step.over, self.face, self.style.font_size, limit)]
+            spec.over += [condition_pieces(line) for line in wrap(step.over, self.face, self.style.font_size, limit)]
         if step.under:
-            spec.under += [[(line, "n")] for line in wrap(step.under, self.face, self.style.font_size, limit)]
+            spec.under += [condition_pieces(line) for line in wrap(step.under, self.face, self.style.font_size, limit)]
         if st.released_now and st.after is not None:
             spec.under += self._formula_lines(MINUS, _formulas(st.after.mol, st.released_now), limit)
         if self.style.step_labels and step.label:
@@ -380,7 +378,7 @@ def _formulas(mol: Chem.Mol, atoms: Sequence[int]) -> list[list[Piece]]:
             sub = Chem.RWMol(Chem.PathToSubmol(mol, _bonds_of(mol, frag)) if len(frag) > 1 else
                              _single_atom(mol, frag[0]))
             sub.UpdatePropertyCache(strict=False)
-            out.append(_formula_pieces(CalcMolFormula(sub)))
+            out.append(formula_pieces(CalcMolFormula(sub)))
     return out
 
 
@@ -399,27 +397,6 @@ def _single_atom(mol: Chem.Mol, index: int) -> Chem.Mol:
     copy.SetNumRadicalElectrons(atom.GetNumRadicalElectrons())
     work.AddAtom(copy)
     return work.GetMol()
-
-
-def _formula_pieces(formula: str) -> list[Piece]:
-    """RDKit's formula text as pieces: C2H6O -> C, 2 (sub), H, 6 (sub), O; HO- -> HO, minus
-    (sup); SO4-2 -> SO, 4 (sub), 2 and minus (sup)."""
-    body, charge = formula, ""
-    for k, ch in enumerate(formula):
-        if ch in "+-":
-            body, charge = formula[:k], formula[k:]
-            break
-    pieces: list[Piece] = []
-    for ch in body:
-        kind = "sub" if ch.isdigit() else "n"
-        if pieces and pieces[-1][1] == kind:
-            pieces[-1] = (pieces[-1][0] + ch, kind)
-        else:
-            pieces.append((ch, kind))
-    if charge:
-        sign = "+" if charge[0] == "+" else MINUS
-        pieces.append((charge[1:] + sign, "sup"))
-    return pieces
 
 
 def _panel_centre(panel: Panel) -> float:

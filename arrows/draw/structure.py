@@ -20,12 +20,12 @@ from rdkit import Chem
 from ..electrons import ElectronState
 from .scene import AtomDrawing, BondDrawing, Box, Mark, TextRun
 from .styles import BROKEN_COLOUR, FORMED_COLOUR, INK, Style
+from .formula import MINUS
 from .text import FontFace
 
 # Hydrogens of an isolated atom go before the symbol for these elements (H2O, HO-, H2S, HCl):
 # common practice in chemical formulas.
 _HYDROGEN_FIRST = {8, 9, 16, 17, 34, 35, 53}
-MINUS = "\u2212"
 
 
 @dataclass

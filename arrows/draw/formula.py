@@ -1,0 +1,93 @@
+"""Chemical formulas typeset as pieces of text: counts as subscripts, a charge as superscript.
+
+Two sources: RDKit's molecular formulas (released and entering species, e.g. C2H6O, HO-,
+SO4-2), and the words a chemist writes over and under a reaction arrow (H2O, H3O+ (cat.), Et3N,
+CH2Cl2). A written word is typeset only if it looks like a formula: a run of element-style
+symbols ([A-Z][a-z]?, abbreviations such as Et and Me included) and parenthesised groups with
+counts, at least one count or a trailing charge; anything else (heat, 25 °C, 2 equiv, reflux,
+NaOH) is left as it is. Common practice of chemical typesetting: the digits after a symbol or a
+closing parenthesis are subscripts, a trailing + or - is a superscript.
+"""
+from __future__ import annotations
+
+import re
+
+MINUS = "\u2212"
+
+Piece = tuple[str, str]      # (text, "n" | "sub" | "sup"): one piece of a line of text
+
+_GROUP = r"(?:[A-Z][a-z]?\d*|\((?:[A-Z][a-z]?\d*)+\)\d*)"
+_FORMULA = re.compile(rf"(?P<body>{_GROUP}+)(?P<charge>\d*[+\-\u2212])?")
+_OPENING = "([+-\u2212"     # a leading sign is an operator: "-H2O", "+H2O"
+_CLOSING = ")],;:."
+
+
+def formula_pieces(formula: str) -> list[Piece]:
+    """RDKit's formula text as pieces: C2H6O -> C, 2 (sub), H, 6 (sub), O; HO- -> HO, minus
+    (sup); SO4-2 -> SO, 4 (sub), 2 and minus (sup)."""
+    body, charge = formula, ""
+    for k, ch in enumerate(formula):
+        if ch in "+-":
+            body, charge = formula[:k], formula[k:]
+            break
+    pieces = _body_pieces(body)
+    if charge:
+        pieces.append((charge[1:] + _sign(charge[0]), "sup"))
+    return pieces
+
+
+def condition_pieces(text: str) -> list[Piece]:
+    """A line of condition text with every formula-like word typeset; spaces and other words
+    kept as they are."""
+    pieces: list[Piece] = []
+    for word in re.split(r"(\s+)", text):
+        if word:
+            for piece in _word_pieces(word):
+                _append(pieces, piece)
+    return pieces
+
+
+def _word_pieces(word: str) -> list[Piece]:
+    typeset = _typeset(word)
+    if typeset is not None:
+        return typeset
+    # Punctuation around a formula stays plain: "(H2O)", "H2O,".
+    lead = len(word) - len(word.lstrip(_OPENING))
+    trail = len(word) - len(word.rstrip(_CLOSING))
+    core = word[lead:len(word) - trail]
+    typeset = _typeset(core) if core else None
+    if typeset is None:
+        return [(word, "n")]
+    return [(word[:lead], "n")] * bool(lead) + typeset + [(word[len(word) - trail:], "n")] * bool(trail)
+
+
+def _typeset(word: str) -> list[Piece] | None:
+    match = _FORMULA.fullmatch(word)
+    if match is None:
+        return None
+    body, charge = match.group("body"), match.group("charge") or ""
+    if not (any(ch.isdigit() for ch in body) or charge):
+        return None
+    pieces = _body_pieces(body)
+    if charge:
+        pieces.append((charge[:-1] + _sign(charge[-1]), "sup"))
+    return pieces
+
+
+def _body_pieces(body: str) -> list[Piece]:
+    pieces: list[Piece] = []
+    for ch in body:
+        _append(pieces, (ch, "sub" if ch.isdigit() else "n"))
+    return pieces
+
+
+def _append(pieces: list[Piece], piece: Piece) -> None:
+    """Join a piece onto the last one when both are of one kind."""
+    if pieces and pieces[-1][1] == piece[1]:
+        pieces[-1] = (pieces[-1][0] + piece[0], piece[1])
+    else:
+        pieces.append(piece)
+
+
+def _sign(ch: str) -> str:
+    return "+" if ch == "+" else MINUS

@@ -1,0 +1,67 @@
+"""Formulas in condition text and in RDKit formulas, typeset as chemists print them.
+
+Common practice of chemical typesetting (IUPAC Green Book, 3rd ed., memory): in a
+formula the count after an element symbol or a closing parenthesis is a subscript and the charge
+is a superscript after the formula; ordinary words, numbers and units are set as they are.
+"""
+from __future__ import annotations
+
+import pytest
+
+import arrows
+from arrows.draw import STYLES, build_scene
+from arrows.draw.formula import MINUS, condition_pieces, formula_pieces
+
+
+@pytest.mark.parametrize("text,pieces", [
+    ("H2O", [("H", "n"), ("2", "sub"), ("O", "n")]),
+    ("H3O+ (cat.)", [("H", "n"), ("3", "sub"), ("O", "n"), ("+", "sup"), (" (cat.)", "n")]),
+    ("Et3N", [("Et", "n"), ("3", "sub"), ("N", "n")]),
+    ("CH2Cl2", [("CH", "n"), ("2", "sub"), ("Cl", "n"), ("2", "sub")]),
+    ("LiAlH4, THF", [("LiAlH", "n"), ("4", "sub"), (", THF", "n")]),
+    ("Ca(OH)2", [("Ca(OH)", "n"), ("2", "sub")]),
+    ("OH-", [("OH", "n"), (MINUS, "sup")]),
+    ("(H2O)", [("(H", "n"), ("2", "sub"), ("O)", "n")]),
+    ("-H2O", [("-H", "n"), ("2", "sub"), ("O", "n")]),
+    ("H2SO4 (cat.), 25 °C", [("H", "n"), ("2", "sub"), ("SO", "n"), ("4", "sub"), (" (cat.), 25 °C", "n")]),
+])
+def test_formula_words_are_typeset(text, pieces):
+    assert condition_pieces(text) == pieces
+
+
+@pytest.mark.parametrize("text", ["25 °C", "2 equiv", "reflux", "heat, pressure", "NaOH", "MeOH, reflux",
+                                  "DMSO, 60 °C", "E1cB", "hv", "pH 7", "1 atm"])
+def test_plain_words_stay_as_written(text):
+    """No count and no charge: nothing to set lower or higher (a word, a number, a unit, or a
+    formula without counts such as NaOH)."""
+    assert condition_pieces(text) == [(text, "n")]
+
+
+def test_every_character_is_kept():
+    for text in ["H3O+ (cat.)", "Et3N, CH2Cl2, 0 °C", "  H2O  "]:
+        assert "".join(p for p, _ in condition_pieces(text)).replace(MINUS, "-") == text
+
+
+def test_rdkit_formulas():
+    """RDKit's CalcMolFormula writes the charge after the formula, its size after the sign."""
+    assert formula_pieces("C2H6O") == [("C", "n"), ("2", "sub"), ("H", "n"), ("6", "sub"), ("O", "n")]
+    assert formula_pieces("HO-") == [("HO", "n"), (MINUS, "sup")]
+    assert formula_pieces("O4S-2") == [("O", "n"), ("4", "sub"), ("S", "n"), ("2" + MINUS, "sup")]
+
+
+def test_conditions_over_the_arrow_are_typeset_in_the_scene():
+    """The scene the SVG is written from carries the subscript as a smaller, lowered run."""
+    text = """\
+species alkoxide = "CC[O-:1]"
+species water = "[OH2:2]"
+step "protonation" over "H2O" under "Et3N, 25 °C"
+    :O1 -> H(O2)
+    O2-H -> O2
+end
+"""
+    trace, diags = arrows.check_text(text, "conditions.mech")
+    scene = build_scene(trace, STYLES["two-column"], diags)
+    runs = {t.text: t for t in scene.reaction_arrows[0].texts}
+    assert runs["2"].size < runs["H"].size and runs["2"].y > runs["H"].y
+    assert runs["3"].size < runs["Et"].size and runs["3"].y > runs["Et"].y
+    assert runs["N, 25 °C"].y == runs["Et"].y
