@@ -121,8 +121,7 @@ def page_svg(setup: PageSetup, body: str, number: Optional[int]) -> str:
         footer = _text(setup.width / 2, setup.height - setup.margin / 2, str(number), SMALL_PT, anchor="middle")
     return (f'<svg xmlns="http://www.w3.org/2000/svg" xmlns:xlink="http://www.w3.org/1999/xlink" '
             f'width="{setup.width:.2f}pt" height="{setup.height:.2f}pt" '
-            f'viewBox="0 0 {setup.width:.2f} {setup.height:.2f}" font-family="{escape(setup.font_family)}" '
-            f'text-rendering="geometricPrecision">'
+            f'viewBox="0 0 {setup.width:.2f} {setup.height:.2f}" font-family="{escape(setup.font_family)}">'
             f'<rect width="100%" height="100%" fill="#ffffff"/>{body}{footer}</svg>')
 
 

@@ -1,8 +1,8 @@
 """Text widths for placing labels: measured with cairo's own font machinery, the same that turns
 our SVG into PDF and PNG, so a label box in the scene is the box the reader sees.
 
-The SVG is written with text-rendering="geometricPrecision" (no hinting), so widths are the
-unhinted advances measured here at a large size and scaled. cairosvg places each letter by its
+Widths are the unhinted advances measured here at a large size and scaled (the SVG sets no
+text-rendering hint: cairosvg garbles glyphs under geometricPrecision). cairosvg places each letter by its
 own advance (no kerning); widths are summed the same way.
 """
 from __future__ import annotations
