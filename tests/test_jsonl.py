@@ -266,7 +266,7 @@ def test_an_unreachable_cluster_is_a_clear_error():
 
 
 def test_the_documented_records_pass_the_schema_and_check_clean():
-    block = (ROOT / "docs-batch.md").read_text().split("```json", 1)[1].split("```", 1)[0]
+    block = (ROOT / "README.md").read_text().split("```json", 1)[1].split("```", 1)[0]
     records = [json.loads(text) for text in re.split(r"\n(?=\{\"id\")", block.strip())]
     assert len(records) == 2
     for number, record in enumerate(records, 1):
