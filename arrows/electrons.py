@@ -232,9 +232,12 @@ class _StepReplay:
     def source_atom(self, move: Move, ref) -> int:
         index = self.resolve(ref)
         if self.state.mol.GetAtomWithIdx(index).GetAtomicNum() == 1:
-            self.fail("AR204", f"the arrow starts at the hydrogen {self.state.label(index)}; arrows start at electrons",
-                      move.source.loc, "to move a proton, start at the base's lone pair: `:O11 -> H(C3)`, "
-                      "and let the C-H pair go with `C3-H -> ...`", atoms=(self.state.label(index),))
+            hydrogen = self.state.label(index)
+            parent = hydrogen[2:-1] if hydrogen.startswith("H(") else "X"
+            base = str(move.sink.atom) if isinstance(move.sink, AtomSink) else "B"
+            self.fail("AR204", f"the arrow starts at the hydrogen {hydrogen}; arrows start at electrons",
+                      move.source.loc, f"to move a proton, start at the base's lone pair, `:{base} -> {hydrogen}`, "
+                      f"and let the bond's pair go with `{parent}-H -> ...`", atoms=(hydrogen,))
             raise _StepFailed
         return index
 

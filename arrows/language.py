@@ -371,7 +371,7 @@ def syntax_diagnostic(exc: UnexpectedInput, text: str, file: str) -> Diagnostic:
         found = _shown(_word_at(text, exc.pos_in_stream))
         expected = _expected_words(exc.allowed or ())
     elif isinstance(exc, UnexpectedEOF) or (token is not None and token.type == "$END"):
-        found = "the end of the file"
+        found = "end of file"
         expected = _expected_words(exc.expected or ())
     else:
         found = _shown(str(token))

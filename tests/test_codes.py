@@ -73,7 +73,7 @@ def expected_location(t: Twin, text: str) -> tuple[int, int]:
 TWINS = [
     # electron moves (AR2xx)
     Twin("arrow from a proton", ACID_BASE, ":O5 -> H(O4)", "H(O4) -> O5", "AR204", "H(O4) -> O5",
-         says=("hydrogen",), hint_says=(":O11 -> H(C3)",)),
+         says=("hydrogen",), hint_says=(":O5 -> H(O4)", "O4-H -> ")),
     Twin("arrow from a mapped proton", HBR_ADDITION, "C2=C3 -> C3-H5", ":H5 -> C3", "AR204", ":H5"),
     # C2-C4 of the aldolate is a single bond: `=` names a pi pair that is not there.
     Twin("double bond written for a single bond", RETRO_ALDOL, "C2-C4 -> C4=C5", "C2=C4 -> C4=C5", "AR202",

@@ -218,7 +218,7 @@ SLIPS = [
      4, 1, "unexpected `step`", "`end`", "the step before this line (line 2) has no `end`"),
     ("missing end at the end of the file",
      'species w = "[OH2:1]"\nstep "a"\n    :O1 -> C2\n',
-     3, 14, "unexpected the end of the file", "`end`", "the step opened on line 2 is still open"),
+     3, 14, "unexpected end of file", "`end`", "the step opened on line 2 is still open"),
     ("missing end before the product",
      'step "a"\n    :O1 -> C2\nproduct "CO"\n',
      3, 1, "unexpected `product`", "`end`", "has no `end`"),
