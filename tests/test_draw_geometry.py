@@ -314,3 +314,20 @@ def test_cycloaddition_partners_face_each_other_with_the_forming_bonds_open():
         # Tail and head belong to different bonds at least half a bond length apart.
         assert _distance(arrow.source_point, arrow.sink_point) >= 0.5 * bl, arrow.move
         assert _distance(arrow.start, arrow.tip) >= 0.5 * bl, arrow.move
+
+
+def test_spectators_are_drawn_only_next_to_the_steps_that_use_them():
+    """A proton shuttle that has acted is drawn only on panels whose incoming or outgoing step
+    touches it (common practice: idle spectators are left out rather than left floating far
+    from the molecule). Acetal formation: the water that carries protons sits out the loss of
+    water and the ring closure."""
+    path = ROOT / "gallery" / "10-acetal-formation.mech"
+    trace, _, scene = _scene(path.read_text(encoding="utf-8"), path.name)
+    shuttle = next(a.GetIdx() for a in trace.steps[0].before.mol.GetAtoms() if a.GetAtomMapNum() == 30)
+    for panel in scene.panels:
+        near = set()
+        for k in (panel.index - 1, panel.index):
+            if 0 <= k < len(trace.steps):
+                near |= set(trace.steps[k].change.touched_atoms)
+        drawn = panel.atom(shuttle) is not None
+        assert drawn == (shuttle in near), panel.index

@@ -33,6 +33,7 @@ class _PanelSource:
     leaving: Optional[StepTrace]       # the step whose arrows are drawn on this panel
     arriving: Optional[StepTrace]      # the step that produced this state
     hidden: frozenset[int] = frozenset()   # atoms shown as "+ name" over the arrow instead
+    idle: frozenset[int] = frozenset()     # spectators between their parts: not drawn here
 
 
 @dataclass
@@ -68,6 +69,27 @@ def _panel_sources(trace: Trace) -> list[_PanelSource]:
         if st.after is None:
             return out
     out.append(_PanelSource(steps[-1].after, None, steps[-1]))
+    return _without_idle_spectators(out)
+
+
+def _without_idle_spectators(sources: list[_PanelSource]) -> list[_PanelSource]:
+    """A species that has already taken part (a proton shuttle, a by-product) and that neither
+    the step into a panel nor the step out of it touches is left out of that panel: it would
+    only wait where it last acted, far from the molecule, in the way of the rows. The largest
+    species of a panel is always drawn, and so is a reactant that has not acted yet."""
+    seen: set[int] = set()
+    out = []
+    for src in sources:
+        near = {i for st in (src.arriving, src.leaving) if st is not None for i in st.change.touched_atoms}
+        if src.arriving is not None:
+            seen |= set(src.arriving.change.touched_atoms)
+        fragments = sorted(Chem.GetMolFrags(src.state.mol, asMols=False, sanitizeFrags=False), key=len)
+        idle = set()
+        for frag in fragments[:-1]:
+            atoms = set(frag) - src.state.released
+            if atoms and atoms & seen and not atoms & near:
+                idle |= atoms
+        out.append(replace(src, idle=frozenset(idle)))
     return out
 
 
@@ -136,7 +158,8 @@ class _SceneBuilder:
         # on the panel just after; elsewhere it is implicit like every other hydrogen.
         nearby = [m for st in (src.leaving, src.arriving) if st is not None for m in st.change.moves]
         shown_h = frozenset(i for m in nearby for i in m.source_atoms + m.sink_atoms) & drawn_h
-        visible = tuple(i for i in placed.visible if i not in src.hidden and (i not in drawn_h or i in shown_h))
+        visible = tuple(i for i in placed.visible if i not in src.hidden and i not in src.idle
+                        and (i not in drawn_h or i in shown_h))
         positions = {i: placed.positions[i] * bl for i in visible}
         formed, broken = set(), set()
         if src.arriving is not None:
@@ -400,10 +423,24 @@ def _single_atom(mol: Chem.Mol, index: int) -> Chem.Mol:
 
 
 def _panel_centre(panel: Panel) -> float:
-    """The row's centre line passes through the middle of the panel's atoms."""
+    """The row's centre line passes through the middle of the panel's largest molecule, so the
+    main structures of a row line up and small partners sit above or below them."""
     if not panel.atoms:
         return (panel.box.y0 + panel.box.y1) / 2
-    ys = [a.position[1] for a in panel.atoms]
+    group = {a.index: a.index for a in panel.atoms}
+
+    def root(i: int) -> int:
+        while group[i] != i:
+            i = group[i]
+        return i
+
+    for bond in panel.bonds:
+        a, b = (root(i) for i in bond.atoms)
+        group[max(a, b)] = min(a, b)
+    members: dict[int, list[float]] = {}
+    for a in panel.atoms:
+        members.setdefault(root(a.index), []).append(a.position[1])
+    ys = max(members.values(), key=len)
     return (min(ys) + max(ys)) / 2
 
 
