@@ -12,7 +12,6 @@ from __future__ import annotations
 
 import argparse
 import sys
-import time
 from pathlib import Path
 
 ROOT = Path(__file__).resolve().parent.parent
@@ -27,27 +26,7 @@ from arrows.judgement.closures import find_closures, with_atom_maps  # noqa: E40
 from arrows.judgement.skeleton import skeleton  # noqa: E402
 from arrows.language import load, parse  # noqa: E402
 from arrows.trace import replay  # noqa: E402
-
-
-def best_of(repeat: int, work) -> float:
-    best = float("inf")
-    for _ in range(repeat):
-        start = time.perf_counter()
-        work()
-        best = min(best, time.perf_counter() - start)
-    return best
-
-
-def enolate_shuttle(steps: int) -> str:
-    """Octane-2,7-dione and hydroxide: the C3 enolate forms and is protonated again (demo data)."""
-    lines = ['species dione = "[CH3:1][C:2](=[O:9])[CH2:3][CH2:4][CH2:5][CH2:6][C:7](=[O:10])[CH3:8]"',
-             'species base = "[OH-:11]"']
-    for k in range(steps):
-        if k % 2 == 0:
-            lines += [f'step "enolate {k + 1}"', "    :O11 -> H(C3)", "    C3-H -> C2=C3", "    C2=O9 -> O9", "end"]
-        else:
-            lines += [f'step "ketone {k + 1}"', "    :O9 -> C2=O9", "    C2=C3 -> C3-H(O11)", "    O11-H -> O11", "end"]
-    return "\n".join(lines) + "\n"
+from bench_check import best_of, enolate_shuttle  # noqa: E402  (the same timing and demo mechanism)
 
 
 def checks_against_replay(name: str, mechanisms: list, repeat: int) -> None:
