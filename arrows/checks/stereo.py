@@ -26,24 +26,27 @@ def step_stereo(st: StepTrace, seen: Optional[dict] = None) -> tuple[list[Stereo
     if st.after is None:
         return [], []
     seen = {} if seen is None else seen
-
-    def elements(mol):
-        if id(mol) not in seen:     # the trace keeps every state alive, so ids stay unique
-            seen[id(mol)] = stereo_elements(mol)
-        return seen[id(mol)]
-
-    old, new = elements(st.before.mol), elements(st.after.mol)
+    old, new = _elements(st.before.mol, seen), _elements(st.after.mol, seen)
     return sorted(new - old), sorted(old - new)
 
 
-def final_stereo(trace: Trace) -> list[ProductStereo]:
+def _elements(mol: Chem.Mol, seen: dict) -> frozenset[StereoElement]:
+    if id(mol) not in seen:     # the trace keeps every state alive, so ids stay unique
+        seen[id(mol)] = stereo_elements(mol)
+    return seen[id(mol)]
+
+
+def final_stereo(trace: Trace, seen: Optional[dict] = None) -> list[ProductStereo]:
     """Each fragment of the final state (released by-products aside) that has stereo elements,
-    with the number of its stereoisomers when no configuration made by the mechanism is fixed."""
+    with the number of its stereoisomers when no configuration made by the mechanism is fixed;
+    `seen` as in step_stereo."""
     final = trace.final
     if final is None:
         return []
+    elements = _elements(final.mol, {} if seen is None else seen)
+    if not elements:
+        return []
     touched = {i for st in trace.steps for i in st.change.touched_atoms}
-    elements = stereo_elements(final.mol)
     out = []
     for indices in Chem.GetMolFrags(final.mol, asMols=False, sanitizeFrags=False):
         if set(indices) & final.released:
@@ -91,12 +94,12 @@ class StereoChanges:
                 parts.append(f"no longer stereogenic: {_said(lost, label)}")
             yield Diagnostic("AR602", "; ".join(parts), st.step.loc, step=st.index,
                              atoms=tuple(label(i) for e in made + lost for i in e.atoms))
-        product = self._product_note(trace)
+        product = self._product_note(trace, seen)
         if product:
             yield product
 
-    def _product_note(self, trace: Trace) -> Optional[Diagnostic]:
-        many = [p for p in final_stereo(trace) if (p.stereoisomers or 0) > 1]
+    def _product_note(self, trace: Trace, seen: dict) -> Optional[Diagnostic]:
+        many = [p for p in final_stereo(trace, seen) if (p.stereoisomers or 0) > 1]
         if not many:
             return None
         loc = trace.mechanism.product.loc if trace.mechanism.product else trace.steps[-1].step.loc

@@ -67,11 +67,21 @@ TABLE: tuple[Acidity, ...] = (
 
 
 @lru_cache(maxsize=None)
-def _pattern(smarts: str) -> Chem.Mol:
-    pattern = Chem.MolFromSmarts(smarts)
-    if pattern is None:
-        raise ValueError(f"bad SMARTS in the acidity table: {smarts}")
-    return pattern
+def _entries_for(element: int) -> tuple[tuple[Acidity, Chem.Mol, Optional[Chem.Atom]], ...]:
+    """The table entries that can be about an atom of `element`, in table order, each with its
+    pattern and its first atom when that atom can be tested alone: RDKit's substructure search
+    tests each atom pair with the same Match, so an atom that fails it cannot start a match. A
+    recursive ($(...)) first atom is only evaluated inside a full search, so it is never tested alone."""
+    out = []
+    for entry in TABLE:
+        pattern = Chem.MolFromSmarts(entry.smarts)
+        if pattern is None:
+            raise ValueError(f"bad SMARTS in the acidity table: {entry.smarts}")
+        first = pattern.GetAtomWithIdx(0)
+        if first.GetAtomicNum() not in (0, element):
+            continue   # the entry is about another element
+        out.append((entry, pattern, None if "$(" in first.GetSmarts() else first))
+    return tuple(out)
 
 
 def perceived(mol: Chem.Mol) -> Chem.Mol:
@@ -87,11 +97,10 @@ def perceived(mol: Chem.Mol) -> Chem.Mol:
 
 def acidity_of(mol: Chem.Mol, atom: int) -> Optional[Acidity]:
     """The first table entry whose SMARTS matches with its first atom at `atom` (mol perceived)."""
-    element = mol.GetAtomWithIdx(atom).GetAtomicNum()
-    for entry in TABLE:
-        pattern = _pattern(entry.smarts)
-        if pattern.GetAtomWithIdx(0).GetAtomicNum() not in (0, element):
-            continue   # a quick no: the entry is about another element
+    target = mol.GetAtomWithIdx(atom)
+    for entry, pattern, first in _entries_for(target.GetAtomicNum()):
+        if first is not None and not first.Match(target):
+            continue   # a quick no: the atom itself does not fit the entry's first atom
         if any(match[0] == atom for match in mol.GetSubstructMatches(pattern, uniquify=False)):
             return entry
     return None

@@ -23,20 +23,29 @@ class StereoElement:
     atoms: tuple[int, ...]     # (centre,) or the two atoms of the double bond, ascending
 
 
+_HYDROGEN = Chem.MolFromSmarts("[#1]")
+_REMOVE_HS = Chem.RemoveHsParameters()
+_REMOVE_HS.removeDegreeZero = True     # a free proton too
+
+
 def _plain(mol: Chem.Mol, clear_stereo_on: Iterable[int] = ()) -> tuple[Optional[Chem.Mol], list[int]]:
     """A copy without hydrogen atoms (an explicit hydrogen would make two equal groups look
     different), and for each of its atoms the index in `mol`. Map numbers are left on: RDKit's
     stereo perception ignores them. Only the atoms in `clear_stereo_on` lose their configuration."""
-    work = Chem.RWMol(mol)
-    for i in clear_stereo_on:
-        work.GetAtomWithIdx(i).SetChiralTag(Chem.ChiralType.CHI_UNSPECIFIED)
-        for bond in work.GetAtomWithIdx(i).GetBonds():
-            bond.SetStereo(Chem.BondStereo.STEREONONE)
-    heavy = [i for i in range(work.GetNumAtoms()) if work.GetAtomWithIdx(i).GetAtomicNum() != 1]
+    clear_stereo_on = list(clear_stereo_on)
+    work = mol
+    if clear_stereo_on:      # RemoveHs copies anyway: a copy of our own only when we change it
+        work = Chem.RWMol(mol)
+        for i in clear_stereo_on:
+            work.GetAtomWithIdx(i).SetChiralTag(Chem.ChiralType.CHI_UNSPECIFIED)
+            for bond in work.GetAtomWithIdx(i).GetBonds():
+                bond.SetStereo(Chem.BondStereo.STEREONONE)
+        work = work.GetMol()
+    # The hydrogen atoms found in C++ (a state holds only a few): cheaper than a walk over every atom.
+    hydrogens = {m[0] for m in work.GetSubstructMatches(_HYDROGEN, maxMatches=work.GetNumAtoms() + 1)}
+    heavy = [i for i in range(work.GetNumAtoms()) if i not in hydrogens]
     try:
-        params = Chem.RemoveHsParameters()
-        params.removeDegreeZero = True     # a free proton too
-        plain = Chem.RemoveHs(work.GetMol(), params, sanitize=False)
+        plain = Chem.RemoveHs(work, _REMOVE_HS, sanitize=False)
         Chem.SanitizeMol(plain)
     except Exception:   # an intermediate RDKit will not perceive: report nothing rather than guess
         return None, []
@@ -49,12 +58,14 @@ def stereo_elements(mol: Chem.Mol) -> frozenset[StereoElement]:
     plain, original = _plain(mol)
     if plain is None:
         return frozenset()
-    ranks = list(Chem.CanonicalRankAtoms(plain, breakTies=False, includeAtomMaps=False))
+    ranks = None     # ranked only when a double bond asks: most states have none
     found = set()
     for info in Chem.FindPotentialStereo(plain, cleanIt=True):
         if info.type == Chem.StereoType.Atom_Tetrahedral:
             found.add(StereoElement(CENTRE, (original[info.centeredOn],)))
         elif info.type == Chem.StereoType.Bond_Double:
+            if ranks is None:
+                ranks = list(Chem.CanonicalRankAtoms(plain, breakTies=False, includeAtomMaps=False))
             bond = plain.GetBondWithIdx(info.centeredOn)
             if not all(_distinct_ends(plain, ranks, a, bond.GetOtherAtomIdx(a))
                        for a in (bond.GetBeginAtomIdx(), bond.GetEndAtomIdx())):
