@@ -16,7 +16,7 @@ from rdkit import Chem
 from .diagnostics import Diagnostic
 from .model import (AtomRef, AtomSink, BareAtom, BondPair, BondRef, BondSink, HydrogenOn, Location,
                     LonePair, Move, Step, UnpairedElectron, CONNECTORS)
-from .rdkit_io import rdkit_messages, valence_electrons
+from .rdkit_io import atom_list, rdkit_messages, valence_electrons
 
 _BOND_TYPES = {1: Chem.BondType.SINGLE, 2: Chem.BondType.DOUBLE, 3: Chem.BondType.TRIPLE}
 _ORDER_WORDS = {0: "none", 1: "single", 2: "double", 3: "triple"}
@@ -49,9 +49,9 @@ class ElectronState:
 
     def __post_init__(self) -> None:
         if len(self.valence) != self.mol.GetNumAtoms():
-            object.__setattr__(self, "valence", tuple(valence_electrons(a.GetAtomicNum()) for a in self.mol.GetAtoms()))
+            object.__setattr__(self, "valence", tuple(valence_electrons(a.GetAtomicNum()) for a in atom_list(self.mol)))
         if len(self.bond_sums) != self.mol.GetNumAtoms():
-            object.__setattr__(self, "bond_sums", tuple(_bond_sum(a) for a in self.mol.GetAtoms()))
+            object.__setattr__(self, "bond_sums", tuple(_bond_sum(a) for a in atom_list(self.mol)))
 
     def bond_electrons(self, i: int, j: int) -> int:
         bond = self.mol.GetBondBetweenAtoms(i, j)
@@ -94,7 +94,7 @@ def bond_label(mol: Chem.Mol, i: int, j: int) -> str:
 
 
 def initial_nonbonding(mol: Chem.Mol) -> list[int]:
-    return [valence_electrons(a.GetAtomicNum()) - a.GetFormalCharge() - _bond_sum(a) for a in mol.GetAtoms()]
+    return [valence_electrons(a.GetAtomicNum()) - a.GetFormalCharge() - _bond_sum(a) for a in atom_list(mol)]
 
 
 @dataclass(frozen=True)

@@ -92,6 +92,13 @@ def read_smiles(smiles: str, sanitize: bool = True) -> tuple[Optional[Chem.Mol],
     return mol, "", None
 
 
+def atom_list(mol: Chem.Mol) -> list[Chem.Atom]:
+    """The atoms of `mol` in index order; about twice as fast as mol.GetAtoms(), whose Python
+    iterator makes several calls per atom."""
+    atom = mol.GetAtomWithIdx
+    return [atom(i) for i in range(mol.GetNumAtoms())]
+
+
 def valence_electrons(atomic_num: int) -> int:
     return _PERIODIC.GetNOuterElecs(atomic_num)
 
@@ -107,7 +114,7 @@ def canonical(mol: Chem.Mol, keep_maps: frozenset[int] = frozenset()) -> str:
     """Canonical SMILES with aromaticity perceived, hydrogens implicit and atom maps removed
     (except the map numbers in keep_maps)."""
     work = Chem.RWMol(mol)
-    for atom in work.GetAtoms():
+    for atom in atom_list(work):
         if atom.GetAtomMapNum() and atom.GetAtomMapNum() not in keep_maps:
             atom.SetAtomMapNum(0)
     Chem.SanitizeMol(work)

@@ -11,7 +11,7 @@ from rdkit import Chem
 from .diagnostics import Diagnostic
 from .electrons import ElectronState, StepChange, apply_step, initial_nonbonding
 from .model import AtomRef, AtomSink, BondPair, BondSink, HydrogenOn, LonePair, UnpairedElectron, BareAtom, Location, Mechanism, Species, Step
-from .rdkit_io import canonical, read_smiles
+from .rdkit_io import atom_list, canonical, read_smiles
 
 
 @dataclass
@@ -95,13 +95,13 @@ def species_mol(species: Species, explicit_h_on: set[int]) -> tuple[Optional[Che
     mol, _, _ = read_smiles(species.smiles, sanitize=False)
     Chem.SanitizeMol(mol, Chem.SanitizeFlags.SANITIZE_ALL ^ Chem.SanitizeFlags.SANITIZE_SETAROMATICITY)
     Chem.Kekulize(mol, clearAromaticFlags=True)
-    for atom in mol.GetAtoms():
+    for atom in atom_list(mol):
         atom.SetNumExplicitHs(atom.GetTotalNumHs(includeNeighbors=False))
         atom.SetNoImplicit(True)
-    targets = [a.GetIdx() for a in mol.GetAtoms() if a.GetAtomMapNum() in explicit_h_on and a.GetNumExplicitHs()]
+    targets = [a.GetIdx() for a in atom_list(mol) if a.GetAtomMapNum() in explicit_h_on and a.GetNumExplicitHs()]
     if targets:
         mol = Chem.AddHs(mol, onlyOnAtoms=targets)
-        for atom in mol.GetAtoms():
+        for atom in atom_list(mol):
             atom.SetNoImplicit(True)
     return mol, None
 
@@ -116,7 +116,7 @@ def _map_location(species: Species, number: int, occurrence: int) -> Location:
 
 
 def _map_numbers(mol: Chem.Mol) -> list[int]:
-    return [a.GetAtomMapNum() for a in mol.GetAtoms() if a.GetAtomMapNum()]
+    return [a.GetAtomMapNum() for a in atom_list(mol) if a.GetAtomMapNum()]
 
 
 def _fragment_of(mol: Chem.Mol, index: int) -> set[int]:
@@ -167,7 +167,7 @@ def replay(mechanism: Mechanism) -> Trace:
         start = Chem.CombineMols(start, loaded[position])
     state = ElectronState(start, tuple(initial_nonbonding(start)))
     trace = Trace(mechanism, state, [], diags)
-    map_index = {a.GetAtomMapNum(): a.GetIdx() for a in start.GetAtoms() if a.GetAtomMapNum()}
+    map_index = {a.GetAtomMapNum(): a.GetIdx() for a in atom_list(start) if a.GetAtomMapNum()}
 
     position = len(mechanism.species)
     for index, step in enumerate(mechanism.steps):
@@ -180,7 +180,7 @@ def replay(mechanism: Mechanism) -> Trace:
                 position += 1
                 mol = Chem.CombineMols(mol, incoming)
                 entered.extend(range(offset, offset + incoming.GetNumAtoms()))
-                for atom in incoming.GetAtoms():
+                for atom in atom_list(incoming):
                     if atom.GetAtomMapNum():
                         map_index[atom.GetAtomMapNum()] = offset + atom.GetIdx()
                         entered_later.pop(atom.GetAtomMapNum(), None)

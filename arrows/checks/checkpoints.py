@@ -13,7 +13,7 @@ from rdkit.Chem import rdFMCS
 from ..diagnostics import Diagnostic
 from ..electrons import ElectronState, atom_label, order_word
 from ..model import Checkpoint, Location
-from ..rdkit_io import read_smiles
+from ..rdkit_io import atom_list, read_smiles
 from ..trace import Trace
 
 _ORIGIN = "arrows_origin"   # atom property: index of the atom in the state Mol
@@ -53,7 +53,7 @@ def _written_fragments(checkpoint: Checkpoint) -> tuple[Optional[list[Fragment]]
     # The bookkeeping follows electrons and connectivity, not configuration: a checkpoint written
     # with @ or / \ is compared as its constitution (`arrows trace --stereo` reports stereo).
     Chem.RemoveStereochemistry(mol)
-    maps = frozenset(a.GetAtomMapNum() for a in mol.GetAtoms() if a.GetAtomMapNum())
+    maps = frozenset(a.GetAtomMapNum() for a in atom_list(mol) if a.GetAtomMapNum())
     return fragments(mol, maps), "", maps
 
 
@@ -92,15 +92,15 @@ def compare(state: ElectronState, checkpoint: Checkpoint, code: str, step: Optio
 
 
 def _overlap(a: Chem.Mol, b: Chem.Mol) -> tuple[int, int]:
-    common = Counter(x.GetSymbol() for x in a.GetAtoms()) & Counter(x.GetSymbol() for x in b.GetAtoms())
+    common = Counter(x.GetSymbol() for x in atom_list(a)) & Counter(x.GetSymbol() for x in atom_list(b))
     return sum(common.values()), -abs(a.GetNumAtoms() - b.GetNumAtoms())
 
 
 def _alignment(written: Chem.Mol, derived: Chem.Mol) -> dict[int, int]:
     """written atom index -> derived atom index, by maps when the checkpoint has them, else by the
     largest common substructure (elements must match, bond orders may differ)."""
-    by_map = {a.GetAtomMapNum(): a.GetIdx() for a in derived.GetAtoms() if a.GetAtomMapNum()}
-    mapped = {a.GetIdx(): by_map[a.GetAtomMapNum()] for a in written.GetAtoms()
+    by_map = {a.GetAtomMapNum(): a.GetIdx() for a in atom_list(derived) if a.GetAtomMapNum()}
+    mapped = {a.GetIdx(): by_map[a.GetAtomMapNum()] for a in atom_list(written)
               if a.GetAtomMapNum() and a.GetAtomMapNum() in by_map}
     if mapped:
         return mapped
