@@ -113,6 +113,18 @@ def test_png_size_follows_dpi():
         assert abs(width - width_in * dpi) <= 1
 
 
+def test_png_background_is_opaque_white():
+    """A transparent PNG turns black in many viewers and slide tools (common practice: figures for
+    print are delivered on white)."""
+    import io
+
+    from PIL import Image   # Pillow comes with cairosvg
+    trace, diags = _trace(GALLERY[0])
+    image = Image.open(io.BytesIO(render(trace, "png", dpi=72, diagnostics=diags))).convert("RGBA")
+    assert image.getpixel((0, 0)) == (255, 255, 255, 255)
+    assert image.getpixel((image.width - 1, image.height - 1)) == (255, 255, 255, 255)
+
+
 def test_user_text_is_escaped():
     trace, diags = arrows.check_text(CLEAN, "demo.mech")
     assert not [d for d in diags if d.severity == "error"]
