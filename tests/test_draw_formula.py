@@ -65,3 +65,19 @@ end
     assert runs["2"].size < runs["H"].size and runs["2"].y > runs["H"].y
     assert runs["3"].size < runs["Et"].size and runs["3"].y > runs["Et"].y
     assert runs["N, 25 °C"].y == runs["Et"].y
+
+
+def test_small_by_products_are_written_as_chemists_abbreviate_them():
+    """Ethanol leaves a Claisen condensation as "EtOH", not C2H6O (common practice abbreviations);
+    an unlisted fragment keeps its molecular formula (here bromide, as RDKit writes it)."""
+    from rdkit import Chem
+
+    from arrows.draw.scheme import _byproduct_pieces
+
+    def text(pieces):
+        return "".join(p[0] for p in pieces)
+
+    assert text(_byproduct_pieces(Chem.MolFromSmiles("CCO"))) == "EtOH"
+    assert text(_byproduct_pieces(Chem.AddHs(Chem.MolFromSmiles("CCO")))) == "EtOH"   # explicit H atoms too
+    assert text(_byproduct_pieces(Chem.MolFromSmiles("CC(C)NC(C)C"))) == "i-Pr2NH"
+    assert text(_byproduct_pieces(Chem.MolFromSmiles("CCCCO"))) == "C4H10O"

@@ -401,8 +401,31 @@ def _formulas(mol: Chem.Mol, atoms: Sequence[int]) -> list[list[Piece]]:
             sub = Chem.RWMol(Chem.PathToSubmol(mol, _bonds_of(mol, frag)) if len(frag) > 1 else
                              _single_atom(mol, frag[0]))
             sub.UpdatePropertyCache(strict=False)
-            out.append(formula_pieces(CalcMolFormula(sub)))
+            out.append(_byproduct_pieces(sub))
     return out
+
+
+# Small by-products as chemists write them beside an arrow (common practice abbreviations);
+# anything else is shown as its molecular formula.
+CONDENSED = {"CO": "MeOH", "CCO": "EtOH", "CC(C)O": "i-PrOH", "CC(C)(C)O": "t-BuOH", "CC(=O)O": "AcOH",
+             "CC(C)NC(C)C": "i-Pr2NH", "C[O-]": "MeO-", "CC[O-]": "EtO-", "CC(C)(C)[O-]": "t-BuO-"}
+
+
+def _byproduct_pieces(fragment: Chem.Mol) -> list[Piece]:
+    try:
+        work = Chem.Mol(fragment)
+        for atom in work.GetAtoms():
+            atom.SetAtomMapNum(0)
+        Chem.SanitizeMol(work)
+        smiles = Chem.MolToSmiles(Chem.RemoveHs(work, sanitize=False))
+    except Exception:  # an odd fragment: its formula says enough
+        smiles = ""
+    if smiles in CONDENSED:
+        text = CONDENSED[smiles]
+        if text[1:2] == "-":   # an i- or t- prefix stays plain; the rest is typeset as a formula
+            return [(text[:2], "n")] + condition_pieces(text[2:])
+        return condition_pieces(text)
+    return formula_pieces(CalcMolFormula(fragment))
 
 
 def _bonds_of(mol: Chem.Mol, frag: Sequence[int]) -> list[int]:
