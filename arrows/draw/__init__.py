@@ -1,6 +1,8 @@
 """Publication figures of a mechanism: Trace -> Scene (plain data) -> SVG -> PDF / PNG.
 
-Imported only by code that draws: `arrows check` never loads this package.
+Imported only by code that draws: `arrows check` never loads this package. The heavy parts (layout,
+arrow geometry, numpy) load on first use, so a batch that finds every figure in its cache, or a
+command that only needs STYLES, does not pay for them.
 """
 from __future__ import annotations
 
@@ -9,7 +11,6 @@ from typing import Optional, Sequence
 from ..diagnostics import Diagnostic, ERROR
 from ..trace import Trace
 from .scene import Scene
-from .scheme import DrawError, build_scene as _build_scene
 from .styles import DEFAULT_STYLE, STYLES, Style
 
 __all__ = ["build_scene", "render_svg", "render", "STYLES", "Style", "Scene", "DrawError", "DEFAULT_STYLE",
@@ -30,6 +31,7 @@ def build_scene(trace: Trace, style: Optional[Style | str] = None,
                 diagnostics: Optional[Sequence[Diagnostic]] = None) -> Scene:
     """The figure as data: panels, atom positions (points), bonds, labels, curved arrows with
     their control points and the source and sink they belong to, reaction arrows, text."""
+    from .scheme import build_scene as _build_scene
     return _build_scene(trace, _style(style), diagnostics or ())
 
 
@@ -37,6 +39,7 @@ def render_svg(trace: Trace, style: Optional[Style | str] = None, force: bool = 
                diagnostics: Optional[Sequence[Diagnostic]] = None) -> str:
     """SVG text of the scheme. With errors among `diagnostics` (or in the trace) this raises
     DrawError unless force is set; then the errors are marked on the figure."""
+    from .scheme import DrawError
     from .svg import scene_to_svg
     diags = list(diagnostics) if diagnostics is not None else list(trace.diagnostics)
     errors = [d for d in diags if d.severity == ERROR]
@@ -53,3 +56,10 @@ def render(trace: Trace, fmt: str, style: Optional[Style | str] = None, dpi: int
     if fmt not in FORMATS:
         raise ValueError(f"unknown format {fmt!r}; use one of {', '.join(FORMATS)}")
     return convert(render_svg(trace, style, force, diagnostics), fmt, dpi)
+
+
+def __getattr__(name: str):
+    if name == "DrawError":   # defined beside the layout code, loaded with it
+        from .scheme import DrawError
+        return DrawError
+    raise AttributeError(f"module 'arrows.draw' has no attribute {name!r}")
