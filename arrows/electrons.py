@@ -14,8 +14,8 @@ from typing import Optional
 from rdkit import Chem
 
 from .diagnostics import Diagnostic
-from .model import (AtomRef, AtomSink, BareAtom, BondPair, BondRef, BondSink, HydrogenOn, Location,
-                    LonePair, Move, Step, UnpairedElectron, CONNECTORS)
+from .model import (AtomSink, BareAtom, BondPair, BondRef, HydrogenOn, Location, LonePair, Move, Step,
+                    UnpairedElectron, CONNECTORS)
 from .rdkit_io import atom_list, rdkit_messages, valence_electrons
 
 _BOND_TYPES = {1: Chem.BondType.SINGLE, 2: Chem.BondType.DOUBLE, 3: Chem.BondType.TRIPLE}
@@ -123,7 +123,6 @@ class StepChange:
     charges: list[tuple[int, int, int]] = field(default_factory=list)      # (atom, before, after)
     touched_atoms: list[int] = field(default_factory=list)
     shells: dict[int, int] = field(default_factory=dict)                  # valence-shell electrons N + 2B, touched atoms
-    move_atoms: list[tuple[int, ...]] = field(default_factory=list)       # resolved atoms of each move
     moves: list[ResolvedMove] = field(default_factory=list)
 
 
@@ -148,7 +147,6 @@ class _StepReplay:
         self.written_sinks: list[tuple[Pair, int, Location, BondRef]] = []
         self._bond_before: dict[Pair, int] = {}
         self._resolved: dict[tuple[str, int], int] = {}
-        self.move_atoms: list[tuple[int, ...]] = []
         self.resolved: list[ResolvedMove] = []
         self.first_move_on_bond: dict[Pair, Move] = {}
         self._hydrogen_choice: dict[int, int] = {}
@@ -244,7 +242,7 @@ class _StepReplay:
     def apply(self, move: Move) -> None:
         src, sink, n = move.source, move.sink, move.electrons
         if isinstance(src, BareAtom):
-            index = self.source_atom(move, src.atom)
+            self.source_atom(move, src.atom)   # a hydrogen written as a source is AR204
             self.fail("AR205", f"the arrow starts at the atom {src.atom}, not at electrons", src.loc,
                       f"name the electrons: `:{src.atom}` for a lone pair, a bond such as `{src.atom}-X`, "
                       f"or `.{src.atom}` for an unpaired electron", atoms=(str(src.atom),))
@@ -337,7 +335,6 @@ class _StepReplay:
                       "end the arrow at the atom that receives the electrons, or at the bond that forms")
             raise _StepFailed
         self.change_bond(x, y, n, move)
-        self.move_atoms.append((x, y))
         kind = "lone_pair" if isinstance(move.source, LonePair) else "unpaired"
         self.resolved.append(ResolvedMove(move, kind, (x,), (x, y), n))
 
@@ -354,7 +351,6 @@ class _StepReplay:
                           f"(or {la}-{sink.atom})", atoms=(la, lb, self.state.label(y)))
                 raise _StepFailed
             self.give_to_atom(y, n)
-            self.move_atoms.append((a, b, y))
             self.resolved.append(ResolvedMove(move, "bond", (a, b), (y,), n))
             return
         y, z = self.resolve(sink.bond.first), self.resolve(sink.bond.second)
@@ -371,7 +367,6 @@ class _StepReplay:
         other = z if y == pivot else y
         self.written_sinks.append((pair(pivot, other), sink.bond.order, sink.loc, sink.bond))
         self.change_bond(pivot, other, n, move)
-        self.move_atoms.append((a, b, other))
         self.resolved.append(ResolvedMove(move, "bond", (a, b), (pivot, other), n))
 
 
@@ -410,7 +405,6 @@ def apply_step(state: ElectronState, step: Step, step_index: int, map_index: dic
             replay.apply(move)
         except _StepFailed:
             return None, change, replay.diagnostics
-    change.move_atoms = replay.move_atoms
     change.moves = replay.resolved
     return _settle(state, step, step_index, replay, change)
 
@@ -516,8 +510,8 @@ def _settle(state: ElectronState, step: Step, step_index: int, replay: _StepRepl
 
 
 def _first_move_touching(step: Step, replay: _StepReplay, atom: int) -> Location:
-    for move, atoms in zip(step.moves, replay.move_atoms):
-        if atom in atoms:
-            return move.loc
+    for resolved in replay.resolved:
+        if atom in resolved.source_atoms or atom in resolved.sink_atoms:
+            return resolved.move.loc
     return step.loc
 

@@ -12,7 +12,7 @@ from typing import Optional
 
 import lark
 from lark import Lark, Token, Transformer, v_args
-from lark.exceptions import UnexpectedCharacters, UnexpectedEOF, UnexpectedInput, UnexpectedToken, VisitError
+from lark.exceptions import UnexpectedCharacters, UnexpectedEOF, UnexpectedInput, VisitError
 
 from .diagnostics import Diagnostic, MechanismError
 from .model import (BOND_ORDERS, AtomRef, AtomSink, BareAtom, BondPair, BondRef, BondSink, Checkpoint,
@@ -418,6 +418,3 @@ def load(path: str | Path) -> Mechanism:
                                          hint="save the file as UTF-8 plain text")]) from None
     return parse(text, name)
 
-
-def optional(value: Optional[str]) -> str:
-    return value or ""

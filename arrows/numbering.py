@@ -18,7 +18,6 @@ and keeps the best path found so far; the numbering stays the same from run to r
 """
 from __future__ import annotations
 
-from typing import Optional
 
 from rdkit import Chem
 

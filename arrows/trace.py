@@ -3,14 +3,13 @@ from __future__ import annotations
 
 import re
 from dataclasses import dataclass, field
-from functools import cached_property
 from typing import Iterator, Optional
 
 from rdkit import Chem
 
 from .diagnostics import Diagnostic
 from .electrons import ElectronState, StepChange, apply_step, initial_nonbonding
-from .model import AtomRef, AtomSink, BondPair, BondSink, HydrogenOn, LonePair, UnpairedElectron, BareAtom, Location, Mechanism, Species, Step
+from .model import BondPair, BondSink, HydrogenOn, Location, Mechanism, Species, Step
 from .rdkit_io import atom_list, canonical, read_smiles
 
 

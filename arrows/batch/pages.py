@@ -8,7 +8,6 @@ wrapped lines fit the page they are on.
 """
 from __future__ import annotations
 
-import re
 from dataclasses import dataclass, field
 from html import escape
 from typing import Optional

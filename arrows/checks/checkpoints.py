@@ -12,7 +12,7 @@ from rdkit.Chem import rdFMCS
 
 from ..diagnostics import Diagnostic
 from ..electrons import ElectronState, atom_label, order_word
-from ..model import Checkpoint, Location
+from ..model import Checkpoint
 from ..rdkit_io import atom_list, read_smiles
 from ..trace import Trace
 

@@ -13,7 +13,7 @@ from ..diagnostics import Diagnostic
 from ..electrons import ElectronState, atom_label
 from ..model import Location
 from ..judgement.baldwin import BALDWIN_1976, ClosureClass, classify, geometry_of, ring_path, verdict
-from ..judgement.closures import Closure, family, favoured_alternatives
+from ..judgement.closures import Closure, favoured_alternatives
 from ..judgement.sites import ENOLATE, NITROGEN, OXYGEN
 from ..trace import StepTrace, Trace
 

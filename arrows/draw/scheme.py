@@ -4,7 +4,6 @@ wrapped to the page width, a title, and error marks when a faulty mechanism is d
 """
 from __future__ import annotations
 
-import math
 from dataclasses import dataclass, field, replace
 from typing import Optional, Sequence
 
