@@ -20,7 +20,7 @@ COMMANDS = {
     "closures": "arrows.commands.closures:closures_command",
 }
 
-EXIT_CLEAN, EXIT_FINDINGS, EXIT_USAGE = 0, 1, 2
+EXIT_USAGE = 2   # commands exit 0 clean, 1 findings; the group itself only reports bad usage
 
 
 class LazyGroup(click.Group):

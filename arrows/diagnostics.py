@@ -183,10 +183,6 @@ def sort_key(d: Diagnostic) -> tuple:
     return (d.loc.file, d.loc.line, d.loc.column, SEVERITY_RANK[d.severity], d.code)
 
 
-def errors(diags: Iterable[Diagnostic]) -> list[Diagnostic]:
-    return [d for d in diags if d.severity == ERROR]
-
-
 def to_json(diags: Iterable[Diagnostic]) -> str:
     return json.dumps([d.to_dict() for d in diags], indent=2, ensure_ascii=False)
 

@@ -1,13 +1,12 @@
 """`arrows check FILE...`: compiler-style diagnostics and an exit code."""
 from __future__ import annotations
 
-import json
 import sys
 
 import click
 
 from ..api import check_file
-from ..diagnostics import ERROR, WARNING
+from ..diagnostics import ERROR, WARNING, to_json
 
 
 @click.command("check")
@@ -56,7 +55,7 @@ def check_command(files, fmt, strict, quiet, jsonl, output, jobs, cluster, pka_g
                     continue
                 click.echo(d.to_text())
     if fmt == "json":
-        click.echo(json.dumps([d.to_dict() for d in everything], indent=2, ensure_ascii=False))
+        click.echo(to_json(everything))
     elif not quiet:
         n_err = sum(d.severity == ERROR for d in everything)
         n_warn = sum(d.severity == WARNING for d in everything)
