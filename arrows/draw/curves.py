@@ -3,8 +3,9 @@
 A pair arrow starts at the lone-pair dots (drawn here, on the side facing the arrow's target) or
 at the midpoint of the source bond, on the side the arrow leaves from. It ends at an atom, short
 of its label, or at the midpoint of the bond that forms or gains order (common practice in
-organic chemistry texts); a new bond made from a lone pair is shown by pointing at the atom that
-receives the pair.
+organic chemistry texts); across a wide gap (two molecules waiting apart) it stops no more than
+_GAP_REACH from the atom the new bond reaches, so the head points at that atom. A new bond made
+from a lone pair is shown by pointing at the atom that receives the pair.
 
 Each arrow is a cubic Bezier fixed by its two ends and the directions it leaves and arrives in.
 A handful of such curves is tried per arrow (leaving from either side of a bond, arriving at an
@@ -31,6 +32,7 @@ _SAMPLES = 16
 _ANGLES = (math.radians(34), math.radians(58))
 _SHORT_ANGLES = (math.radians(40), math.radians(70), math.radians(105))
 _KEEP = 4          # candidates per arrow that enter the joint choice
+_GAP_REACH = 0.75  # bond lengths: farthest a head into a forming bond stops from the atom it reaches
 _T = np.linspace(0.0, 1.0, _SAMPLES + 1)
 _BERNSTEIN = np.stack([(1 - _T) ** 3, 3 * _T * (1 - _T) ** 2, 3 * _T ** 2 * (1 - _T), _T ** 3])
 
@@ -197,6 +199,12 @@ class ArrowPlanner:
         axis = _unit(pos[y] - pos[x])
         if bonded:
             return _Anchor("bond", mid, (x, y), extent=panel.bond_extent.get((min(x, y), max(x, y)), 0.0), axis=axis)
+        reached = [a for a in (x, y) if a not in move.source_atoms]
+        if len(reached) == 1:
+            far = reached[0]
+            near = y if far == x else x
+            reach = min(abs(pos[near] - pos[far]) / 2, _GAP_REACH * self.bl)
+            mid = pos[far] + _unit(pos[near] - pos[far]) * reach
         return _Anchor("gap", mid, (x, y), axis=axis)
 
     def _separate_shared_sinks(self, moves: list[ResolvedMove], sinks: list[_Anchor], panel: PanelStructure) -> None:

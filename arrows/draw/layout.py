@@ -34,7 +34,11 @@ from ..electrons import ElectronState, ResolvedMove
 # curved arrow, close enough to read as one event.
 TRANSFER_GAP = 1.5
 OPEN_BOND = 1.5      # a bond about to form between two species, as chemists draw it
+# Two molecules about to bond wait this far apart (atom to atom, bond lengths), facing each
+# other, so the curved arrow between them has room to bend.
+APPROACH = 2.2
 _CLEARANCE = 1.2     # nearest approach allowed between atoms of separately placed clusters
+_WAITING_CLEARANCE = 1.5   # a molecule waiting its turn keeps further clear of the arrows at work
 _COMPASS = np.exp(1j * np.arange(36) * np.pi / 18)     # directions tried, every 10 degrees
 _SEVENTY = math.radians(70)
 # Ways to place a cluster next to its partner, in order of preference: (penalty, turn of the
@@ -126,6 +130,23 @@ def free_direction(centre: complex, others: Sequence[complex], prefer: Optional[
     return cmath.rect(1.0, best_mid)
 
 
+def _joining(before: ElectronState, after: ElectronState) -> set[int]:
+    """Atoms of the separate molecules that become one in the step from `before` to `after`
+    (a nucleophile and the carbonyl it adds to; not two partners of a proton transfer, which
+    stay apart). Such a molecule may move as a whole between the two panels."""
+    molecule = {}
+    for number, frag in enumerate(Chem.GetMolFrags(before.mol, asMols=False, sanitizeFrags=False)):
+        for atom in frag:
+            molecule[atom] = number
+    heavy = {a.GetIdx() for a in before.mol.GetAtoms() if a.GetAtomicNum() != 1}
+    out: set[int] = set()
+    for frag in Chem.GetMolFrags(after.mol, asMols=False, sanitizeFrags=False):
+        parts = {molecule[a] for a in frag if a in heavy}
+        if len(parts) > 1:
+            out |= {a for a, number in molecule.items() if number in parts}
+    return out
+
+
 def _unit(z: complex) -> complex:
     return z / abs(z) if abs(z) > 1e-12 else 1 + 0j
 
@@ -157,7 +178,8 @@ class _Cluster:
     atoms: list[int]
     local: dict[int, complex]
     segments: list[tuple[int, int]] = field(default_factory=list)   # runs of panels it cannot move in
-    placement: dict[int, tuple[complex, complex]] = field(default_factory=dict)  # segment start -> (rotation, shift)
+    # segment start -> (rotation, shift, direction it came in on, how far it waits back along it)
+    placement: dict[int, tuple] = field(default_factory=dict)
     # Partners of a cycloaddition held apart before they bond: (atoms, first panel, last panel,
     # offset in local coordinates).
     openings: list[tuple[frozenset[int], int, int, complex]] = field(default_factory=list)
@@ -197,6 +219,7 @@ class _LayoutBuilder:
             self.neighbours[i].add(j)
             self.neighbours[j].add(i)
         self.positions: list[dict[int, complex]] = [dict() for _ in range(self.n)]
+        self.joining = [_joining(self.states[k], self.states[k + 1]) for k in range(self.n - 1)] + [set()]
 
     # structure of the problem
     def build(self) -> Layout:
@@ -206,10 +229,14 @@ class _LayoutBuilder:
             cluster.segments = self._segments(k)
         main = self.clusters[self.main]
         for start, _ in main.segments:
-            main.placement[start] = (1 + 0j, 0j, None)
+            main.placement[start] = (1 + 0j, 0j, None, 0.0)
         self._apply(self.main)
         self._open_rings()
-        while self._place_by_events() or self._place_leftovers():
+        # The skeleton first, with the molecules that wait to join it; then the partners that
+        # hydrogens travel to take the room that is left.
+        while self._place_by_events(("bond",)) or self._place_waiting():
+            pass
+        while self._place_by_events(("bond", "hop")) or self._place_waiting() or self._place_leftovers():
             pass
         self._place_hydrogens()
         panels = []
@@ -307,13 +334,16 @@ class _LayoutBuilder:
 
     def _pinned_together(self, bond: tuple[int, int], groups: _UnionFind) -> bool:
         """Whether both sides of a bond that forms or breaks keep an untouched atom through
-        every step that changes it: then neither side may move, they sit at bond length in
-        every panel anyway, and one depiction of both reads best."""
+        every step that changes it, and the bond never joins two separate molecules: then
+        neither side may move, they sit at bond length in every panel anyway, and one
+        depiction of both reads best."""
         i, j = bond
         sides = [{a for a in self.atoms if self.element[a] != 1 and groups.find(a) == groups.find(x)} for x in bond]
         for k in range(self.n - 1):
             if ((i, j) in self.bonds_in[k]) == ((i, j) in self.bonds_in[k + 1]):
                 continue
+            if {i, j} <= self.joining[k]:
+                return False     # two molecules that meet here: one may move as a whole
             for side in sides:
                 if not (side & self.exists[k] & self.exists[k + 1]) - self.touched[k]:
                     return False
@@ -450,7 +480,7 @@ class _LayoutBuilder:
     def _segments(self, index: int) -> list[tuple[int, int]]:
         """Runs of panels in which the cluster must stay put: it may move between panels k and
         k+1 only if the step between them touches every atom of it (and every travelling
-        hydrogen it holds throughout)."""
+        hydrogen it holds throughout), or if it joins another molecule in that step."""
         atoms = set(self.clusters[index].atoms)
         present = [k for k in range(self.n) if atoms & self.exists[k]]
         segments: list[tuple[int, int]] = []
@@ -467,7 +497,7 @@ class _LayoutBuilder:
         shown = {r.hydrogen for runs in self.residences.values() for r in runs
                  if r.holder in atoms and r.first == k and r.last == k + 1}
         here = (atoms & self.exists[k] & self.exists[k + 1]) | shown
-        return bool(here) and here <= self.touched[k]
+        return bool(here) and (here <= self.touched[k] or here <= self.joining[k])
 
     # placing clusters
     def _segment_of(self, index: int, k: int) -> Optional[tuple[int, int]]:
@@ -485,7 +515,7 @@ class _LayoutBuilder:
         for start, end in cluster.segments:
             if start not in cluster.placement:
                 continue
-            rotation, shift, _ = cluster.placement[start]
+            rotation, shift = cluster.placement[start][:2]
             for k in range(start, end + 1):
                 for atom in cluster.atoms:
                     if atom in self.exists[k]:
@@ -509,12 +539,13 @@ class _LayoutBuilder:
                     events.append((before.last, "hop", before.holder, after.holder, h))
         return sorted(events, key=lambda e: (e[0], e[1] != "bond", e[2], e[3]))
 
-    def _place_by_events(self) -> bool:
-        """Place every unplaced run of panels that an event ties to a placed cluster."""
+    def _place_by_events(self, kinds: tuple[str, ...]) -> bool:
+        """Place every unplaced run of panels that an event of these kinds ties to a placed
+        cluster."""
         progress = False
         # Bonds first: the skeleton decides where there is room; hydrogens and the partners
         # they travel to take what is left.
-        events = sorted(self._events(), key=lambda e: e[1] != "bond")
+        events = sorted((e for e in self._events() if e[1] in kinds), key=lambda e: e[1] != "bond")
         for k, kind, a, b, h in events:
             ca, cb = self.cluster_of.get(a), self.cluster_of.get(b)
             if ca is None or cb is None or ca == cb:
@@ -645,7 +676,7 @@ class _LayoutBuilder:
             target = anchor_at + direction * distance
             best = (0.0, rotation, target - cluster.local[mover] * rotation, direction)
         _, rotation, shift, direction = best
-        cluster.placement[segment[0]] = (rotation, shift, direction)
+        cluster.placement[segment[0]] = (rotation, shift, direction, APPROACH - 1.0 if kind == "bond" else TRANSFER_GAP)
         self._apply(index)
         if hydrogen is not None:
             self._promise(hydrogen, anchor, k, direction)
@@ -668,44 +699,62 @@ class _LayoutBuilder:
                 if after.direction is None:
                     after.direction = -direction if before.holder == anchor else direction
 
-    def _waiting(self, index: int, segment: tuple[int, int], following: tuple) -> tuple:
-        """Where a cluster waits before the run in which it is bonded: pulled back along the
-        line it comes in on, clear of everything else."""
-        rotation, shift, direction = following
+    def _waiting(self, index: int, segment: tuple[int, int], following: tuple, arrival: int) -> tuple:
+        """Where a cluster waits before the run (from panel `arrival`) in which it is bonded:
+        pulled back along the line it comes in on (by `pull`, or further if that is crowded),
+        turned neither way, so the atoms about to bond face each other, clear of everything
+        else, including the atoms that will hang on it where they hang at its arrival."""
+        rotation, shift, direction, pull_back = following
         if direction is None:
             return following
         cluster = self.clusters[index]
-        others = [p for k in range(segment[0], segment[1] + 1) for a, p in self.positions[k].items()
-                  if a not in cluster.atoms]
+        panels = range(segment[0], segment[1] + 1)
+        others = [p for k in panels for a, p in self.positions[k].items() if a not in cluster.atoms]
+        there = self.positions[arrival]
+        hanging = {(a, n) for k in panels for a in cluster.atoms for n in self.neighbours[a]
+                   if n not in cluster.atoms and n in self.exists[k] and n not in self.positions[k]
+                   and a in there and n in there and (min(a, n), max(a, n)) in self.bonds_in[k]}
+        satellites = [there[n] - there[a] + rotation * cluster.local[a] for a, n in sorted(hanging)]
+        local = [rotation * p for p in cluster.local.values()] + satellites
         polygons = [[self.positions[k][a] for a in ring] for k in range(segment[0], segment[1] + 1)
                     for ring in self._closed_rings(k)]
         best = None
-        for pull in (TRANSFER_GAP, 1.0, 2.0, 2.5, 3.0):
+        for pull in (pull_back, 1.0, 1.5, 2.0, 2.5, 3.0):
             for side in (0.0, 0.6, -0.6, 1.2, -1.2):
                 moved = shift + direction * pull + direction * 1j * side
-                atoms = [moved + rotation * p for p in cluster.local.values()]
+                atoms = [moved + p for p in local]
                 gap = min((abs(a - o) for a in atoms for o in others), default=9.0)
                 if any(_inside(a, poly) for a in atoms for poly in polygons):
                     gap = 0.0
-                score = (min(gap, _CLEARANCE), -abs(pull - TRANSFER_GAP) - abs(side))
+                # Clear of everything first; then a little more room against a longer wait.
+                score = (min(gap, _CLEARANCE),
+                         min(gap, _WAITING_CLEARANCE) - 0.3 * abs(pull - pull_back) - 0.3 * abs(side))
                 if best is None or score > best[0]:
                     best = (score, moved)
-        return (rotation, best[1], direction)
+        return (rotation, best[1], direction, pull_back)
+
+    def _place_waiting(self) -> bool:
+        """Before a cluster's first placed run it waits a little further out along the line it
+        will come in on (only atoms the next step touches may move, and a new run starts only
+        where they all are)."""
+        for index, cluster in enumerate(self.clusters):
+            if not cluster.placement or cluster.segments[0][0] in cluster.placement:
+                continue
+            first = min(cluster.placement)
+            for start, end in cluster.segments:
+                if start < first:
+                    cluster.placement[start] = self._waiting(index, (start, end), cluster.placement[first], first)
+            self._apply(index)
+            return True
+        return False
 
     def _place_leftovers(self) -> bool:
-        """Runs of panels no event placed. Before a cluster's first placed run it waits a little
-        further out along the line it will come in on (only atoms the next step touches may
-        move, and a new run starts only where they all are); after, it stays where it was. A
-        cluster that never meets another goes to the right of the drawing."""
+        """Runs of panels no event placed after a cluster has acted: it stays where it last
+        acted, next to the atoms it acted on, until an event places it again. A cluster that
+        never meets another goes to the right of the drawing."""
         for index, cluster in enumerate(self.clusters):
             if not cluster.placement or len(cluster.placement) == len(cluster.segments):
                 continue
-            following = None
-            for start, end in reversed(cluster.segments):
-                if start in cluster.placement:
-                    following = cluster.placement[start]
-                elif following is not None:
-                    cluster.placement[start] = self._waiting(index, (start, end), following)
             previous = None
             for start, _ in cluster.segments:
                 if start in cluster.placement:
@@ -725,7 +774,7 @@ class _LayoutBuilder:
         left = min(p.real for p in cluster.local.values())
         cy = sum(p.imag for p in cluster.local.values()) / len(cluster.local)
         for start, _ in cluster.segments:
-            cluster.placement[start] = (1 + 0j, complex(right + 1.8 - left, mid_y - cy), None)
+            cluster.placement[start] = (1 + 0j, complex(right + 1.8 - left, mid_y - cy), None, 0.0)
         self._apply(index)
         return True
 
