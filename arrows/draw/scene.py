@@ -8,6 +8,7 @@ has the same coordinates in every panel); `Panel.origin` puts that frame on the 
 from __future__ import annotations
 
 from dataclasses import dataclass, field
+from functools import lru_cache
 from typing import Optional
 
 from .styles import Style
@@ -95,6 +96,16 @@ class Mark:
     colour: str = "#000000"
 
 
+@lru_cache(maxsize=None)
+def _bernstein(n: int) -> tuple[tuple[float, float, float, float], ...]:
+    """The cubic Bernstein weights at t = 0, 1/n, ..., 1: the same for every curve sampled n times."""
+    out = []
+    for k in range(n + 1):
+        t = k / n
+        out.append(((1 - t) ** 3, 3 * t * (1 - t) ** 2, 3 * t * t * (1 - t), t ** 3))
+    return tuple(out)
+
+
 @dataclass(frozen=True)
 class CurvedArrow:
     """One move: a cubic Bezier shaft (start, control1, control2, end) and a head ending at tip.
@@ -123,12 +134,8 @@ class CurvedArrow:
 
     def shaft_points(self, n: int = 40) -> list[Point]:
         (x0, y0), (x1, y1), (x2, y2), (x3, y3) = self.start, self.control1, self.control2, self.end
-        out = []
-        for k in range(n + 1):
-            t = k / n
-            a, b, c, d = (1 - t) ** 3, 3 * t * (1 - t) ** 2, 3 * t * t * (1 - t), t ** 3
-            out.append((a * x0 + b * x1 + c * x2 + d * x3, a * y0 + b * y1 + c * y2 + d * y3))
-        return out
+        return [(a * x0 + b * x1 + c * x2 + d * x3, a * y0 + b * y1 + c * y2 + d * y3)
+                for a, b, c, d in _bernstein(n)]
 
     def path_points(self, n: int = 40) -> list[Point]:
         """The shaft sampled, then the head up to the tip."""

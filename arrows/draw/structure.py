@@ -13,11 +13,13 @@ from __future__ import annotations
 import cmath
 import math
 from dataclasses import dataclass, field
+from functools import lru_cache
 from typing import Optional
 
 from rdkit import Chem
 
 from ..electrons import ElectronState
+from ..rdkit_io import atom_list
 from .scene import AtomDrawing, BondDrawing, Box, Mark, TextRun
 from .styles import BROKEN_COLOUR, FORMED_COLOUR, INK, Style
 from .formula import MINUS
@@ -26,6 +28,7 @@ from .text import FontFace
 # Hydrogens of an isolated atom go before the symbol for these elements (H2O, HO-, H2S, HCl):
 # common practice in chemical formulas.
 _HYDROGEN_FIRST = {8, 9, 16, 17, 34, 35, 53}
+_DESCENDERS = frozenset("()gjpqy")   # characters that reach below the baseline
 
 
 @dataclass
@@ -48,19 +51,20 @@ class PanelStructure:
         return ray_exit(self.positions[atom], direction, box)
 
 
-def ray_exit(origin: complex, direction: complex, box: Box) -> float:
-    """Distance from origin (inside box) to the box edge along direction."""
+def ray_exit(origin: complex, direction: complex, box: Box, pad: float = 0.0) -> float:
+    """Distance from origin (inside box, grown by pad) to the box edge along direction."""
     best = math.inf
-    if abs(direction.real) > 1e-12:
-        for x in (box.x0, box.x1):
-            t = (x - origin.real) / direction.real
-            if t > 0:
-                best = min(best, t)
-    if abs(direction.imag) > 1e-12:
-        for y in (box.y0, box.y1):
-            t = (y - origin.imag) / direction.imag
-            if t > 0:
-                best = min(best, t)
+    dx, dy = direction.real, direction.imag
+    if dx > 1e-12 or dx < -1e-12:
+        for x in (box.x0 - pad, box.x1 + pad):
+            t = (x - origin.real) / dx
+            if 0 < t < best:
+                best = t
+    if dy > 1e-12 or dy < -1e-12:
+        for y in (box.y0 - pad, box.y1 + pad):
+            t = (y - origin.imag) / dy
+            if 0 < t < best:
+                best = t
     return 0.0 if best is math.inf else best
 
 
@@ -68,12 +72,11 @@ def clip_from(p: complex, q: complex, box: Optional[Box], pad: float) -> complex
     """The point where segment p->q leaves box (grown by pad); p itself when there is no box."""
     if box is None:
         return p
-    grown = Box(box.x0 - pad, box.y0 - pad, box.x1 + pad, box.y1 + pad)
     length = abs(q - p)
     if length == 0:
         return p
-    t = ray_exit(p, (q - p) / length, grown)
-    return p + (q - p) / length * min(t, length * 0.45)
+    direction = (q - p) / length
+    return p + direction * min(ray_exit(p, direction, box, pad), length * 0.45)
 
 
 def _segment_hits_box(p: complex, q: complex, box: Box) -> bool:
@@ -103,17 +106,29 @@ def _angle_gap(a: complex, b: complex) -> float:
 
 
 def clearance(direction: complex, occupied: list[complex]) -> float:
-    """Smallest angle between direction and any occupied direction."""
-    return min((_angle_gap(direction, o) for o in occupied), default=math.pi)
+    """Smallest angle between direction and any occupied direction (pi when none is)."""
+    room = math.pi
+    for o in occupied:
+        gap = abs(cmath.phase(direction / o)) if direction and o else math.pi
+        if gap < room:
+            room = gap
+    return room
+
+
+@lru_cache(maxsize=None)
+def _compass(steps: int) -> tuple[complex, ...]:
+    """`steps` unit directions evenly around the circle, starting along +x."""
+    return tuple(cmath.rect(1.0, k * 2 * math.pi / steps) for k in range(steps))
+
+
+_ENOUGH_ROOM = math.radians(75)   # more room than this around a direction counts as no better
 
 
 def best_direction(occupied: list[complex], preferred: complex, spread: float = 0.25, steps: int = 24) -> complex:
     """The direction (one of `steps` around the circle) with the most room, leaning to `preferred`."""
     best, best_score = preferred, -math.inf
-    for k in range(steps):
-        d = cmath.rect(1.0, k * 2 * math.pi / steps)
-        room = min(clearance(d, occupied), math.radians(75))
-        score = room - spread * _angle_gap(d, preferred)
+    for d in _compass(steps):
+        score = min(clearance(d, occupied), _ENOUGH_ROOM) - spread * _angle_gap(d, preferred)
         if score > best_score + 1e-9:
             best, best_score = d, score
     return best
@@ -134,29 +149,40 @@ class StructureDrawer:
              broken: set[tuple[int, int]] = frozenset()) -> PanelStructure:
         mol = state.mol
         shown = set(visible)
-        neighbours = {i: [n.GetIdx() for n in mol.GetAtomWithIdx(i).GetNeighbors() if n.GetIdx() in shown]
-                      for i in visible}
+        # RDKit is asked once per atom and once per bond: each call into it costs more than the
+        # geometry it feeds. A bond's index order is the order RDKit lists an atom's neighbours in.
+        atoms = atom_list(mol)
+        bond_at = mol.GetBondWithIdx
+        bonds, adjacent = [], [[] for _ in atoms]
+        for k in range(mol.GetNumBonds()):
+            bond = bond_at(k)
+            i, j = bond.GetBeginAtomIdx(), bond.GetEndAtomIdx()
+            bonds.append((i, j, int(bond.GetBondTypeAsDouble())))
+            adjacent[i].append(j)
+            adjacent[j].append(i)
+        neighbours = {i: [n for n in adjacent[i] if n in shown] for i in visible}
         out = PanelStructure({}, [], [], dict(positions), {i: [] for i in visible})
         for i in visible:
+            p = positions[i]
             for n in neighbours[i]:
-                d = positions[n] - positions[i]
-                if abs(d) > 1e-9:
-                    out.occupied[i].append(d / abs(d))
+                d = positions[n] - p
+                length = abs(d)
+                if length > 1e-9:
+                    out.occupied[i].append(d / length)
             out.bond_directions[i] = list(out.occupied[i])
         for i in visible:
-            out.atoms[i] = self._atom(state, i, positions, neighbours[i], drawn_hydrogens, out)
-        rings = [list(r) for r in Chem.GetSymmSSSR(mol)] if mol.GetNumBonds() else []
-        for bond in mol.GetBonds():
-            i, j = bond.GetBeginAtomIdx(), bond.GetEndAtomIdx()
+            out.atoms[i] = self._atom(state, atoms, adjacent, i, positions, neighbours[i], drawn_hydrogens, out)
+        rings = [list(r) for r in Chem.GetSymmSSSR(mol)] if bonds else []
+        for i, j, order in bonds:
             if i in shown and j in shown:
-                key = (min(i, j), max(i, j))
+                key = (i, j) if i < j else (j, i)
                 role = "broken" if key in broken else "formed" if key in formed else "plain"
-                out.bonds.append(self._bond(i, j, int(bond.GetBondTypeAsDouble()), role, out, neighbours, rings))
+                out.bonds.append(self._bond(i, j, order, role, out, neighbours, rings))
         for i in visible:
-            self._charge_and_radical(state, i, out)
+            self._charge_and_radical(atoms[i], i, out)
         if self.style.numbers:
             for i in visible:
-                number = mol.GetAtomWithIdx(i).GetAtomMapNum()
+                number = atoms[i].GetAtomMapNum()
                 if number:
                     out.marks.append(self._side_text("number", i, str(number), out, preferred=cmath.rect(1, math.pi / 4)))
         if self.style.cip:
@@ -164,18 +190,21 @@ class StructureDrawer:
         return out
 
     # atoms and labels
-    def _atom(self, state: ElectronState, i: int, positions: dict[int, complex], neighbours: list[int],
-              drawn_hydrogens: frozenset[int], out: PanelStructure) -> AtomDrawing:
-        atom = state.mol.GetAtomWithIdx(i)
+    def _atom(self, state: ElectronState, atoms: list[Chem.Atom], adjacent: list[list[int]], i: int,
+              positions: dict[int, complex], neighbours: list[int], drawn_hydrogens: frozenset[int],
+              out: PanelStructure) -> AtomDrawing:
+        atom = atoms[i]
         p = positions[i]
         name = state.label(i)
         symbol = atom.GetSymbol()
         point = (p.real, p.imag)
-        hidden_h = atom.GetNumExplicitHs() + sum(
-            1 for n in atom.GetNeighbors() if n.GetAtomicNum() == 1 and n.GetIdx() not in drawn_hydrogens)
         # Skeletal carbons are vertices, charged and radical ones too (the sign or dot sits
         # beside the vertex); only a bare terminal carbon with electrons of its own and no
         # hydrogen, as in cyanide, gets its letter.
+        if atom.GetAtomicNum() == 6 and len(neighbours) > 1:
+            return AtomDrawing(i, name, symbol, point)
+        hidden_h = atom.GetNumExplicitHs() + sum(
+            1 for n in adjacent[i] if n not in drawn_hydrogens and atoms[n].GetAtomicNum() == 1)
         bare_end = len(neighbours) == 1 and hidden_h == 0 and (atom.GetFormalCharge() or state.nonbonding[i])
         if atom.GetAtomicNum() == 6 and neighbours and not bare_end:
             return AtomDrawing(i, name, symbol, point)
@@ -231,7 +260,7 @@ class StructureDrawer:
         face = self.italic if run.italic else self.face
         cap = face.cap_height * run.size
         width = face.width(run.text, run.size)
-        low = run.y + (0.2 * run.size if any(c in run.text for c in "()gjpqy") else 0.0)
+        low = run.y + (0.0 if _DESCENDERS.isdisjoint(run.text) else 0.2 * run.size)
         return Box(run.x, run.y - cap, run.x + width, low)
 
     # bonds
@@ -249,9 +278,9 @@ class StructureDrawer:
             """A stroke parallel to the bond, clipped at labels; at a bare vertex a centred
             stroke meets the neighbouring bond on its side, an inner stroke stops short."""
             start = clip_from(p + offset, q + offset, box_i, pad) if box_i is not None else \
-                p + offset + u * (trim or self._join(p, u, offset, [out.positions[m] for m in neighbours[i] if m != j]))
+                p + offset + u * (trim or self._join(p, u, offset, out.positions, neighbours[i], j))
             end = clip_from(q + offset, p + offset, box_j, pad) if box_j is not None else \
-                q + offset - u * (trim or self._join(q, -u, offset, [out.positions[m] for m in neighbours[j] if m != i]))
+                q + offset - u * (trim or self._join(q, -u, offset, out.positions, neighbours[j], i))
             return start, end
 
         if order == 2:
@@ -270,16 +299,21 @@ class StructureDrawer:
         elif self.style.color and role == "broken":
             colour = BROKEN_COLOUR
         out.bond_extent[(min(i, j), max(i, j))] = extent
-        return BondDrawing((i, j), order, tuple(((s.real, s.imag), (e.real, e.imag)) for s, e in lines), role, colour)
+        return BondDrawing((i, j), order, tuple([((s.real, s.imag), (e.real, e.imag)) for s, e in lines]), role, colour)
 
     @staticmethod
-    def _join(vertex: complex, u: complex, offset: complex, others: list[complex]) -> float:
+    def _join(vertex: complex, u: complex, offset: complex, positions: dict[int, complex], neighbours: list[int],
+              across: int) -> float:
         """How far along u a stroke offset from the bond axis starts so that it meets the
-        neighbouring bond on its side (negative: it starts behind the vertex)."""
+        neighbouring bond on its side (negative: it starts behind the vertex); `across` is the
+        bond's other end."""
         if abs(offset) < 1e-9:
             return 0.0
         best = None
-        for other in others:
+        for m in neighbours:
+            if m == across:
+                continue
+            other = positions[m]
             v = other - vertex
             if abs(v) < 1e-9:
                 continue
@@ -320,8 +354,7 @@ class StructureDrawer:
         return 1 if total > 0 else -1
 
     # marks beside atoms
-    def _charge_and_radical(self, state: ElectronState, i: int, out: PanelStructure) -> None:
-        atom = state.mol.GetAtomWithIdx(i)
+    def _charge_and_radical(self, atom: Chem.Atom, i: int, out: PanelStructure) -> None:
         charge = atom.GetFormalCharge()
         if charge:
             sign = "+" if charge > 0 else MINUS

@@ -22,7 +22,7 @@ class FontFace:
     italic: bool = False
 
     def width(self, text: str, size: float) -> float:
-        return sum(_advance(self.family, self.bold, self.italic, ch) for ch in text) * size
+        return _text_advance(self.family, self.bold, self.italic, text) * size
 
     @property
     def cap_height(self) -> float:
@@ -47,6 +47,12 @@ def _context(family: str, bold: bool, italic: bool):
                              cairo.FONT_WEIGHT_BOLD if bold else cairo.FONT_WEIGHT_NORMAL)
     context.set_font_size(_REFERENCE_SIZE)
     return context
+
+
+@lru_cache(maxsize=4096)
+def _text_advance(family: str, bold: bool, italic: bool, text: str) -> float:
+    """Advance of a whole string, per em: a figure measures the same few labels again and again."""
+    return sum(_advance(family, bold, italic, ch) for ch in text)
 
 
 @lru_cache(maxsize=None)
