@@ -385,3 +385,18 @@ def test_spectators_are_drawn_only_next_to_the_steps_that_use_them():
                 near |= set(trace.steps[k].change.touched_atoms)
         drawn = panel.atom(shuttle) is not None
         assert drawn == (shuttle in near), panel.index
+
+
+def test_ring_closing_at_a_chain_atom_is_drawn_open():
+    """A ring that closes onto an atom inside the chain (octane-2,7-dione, C3 onto the ketone
+    carbon C7) is drawn as an open chain before the closing step, the closing atoms 1.5-2.6
+    bond lengths apart so the arrow has room (common practice in organic chemistry texts), and
+    as the closed ring after it."""
+    path = ROOT / "gallery" / "05-octanedione-cyclopentene.mech"
+    trace, _, scene = _scene(path.read_text(encoding="utf-8"), path.name)
+    step = trace.steps[1]
+    (i, j), = step.change.formed
+    before = {a.index: a.position for a in scene.panels[1].atoms}
+    after = {a.index: a.position for a in scene.panels[2].atoms}
+    assert 1.5 <= _distance(before[i], before[j]) / scene.bond_length <= 2.6
+    assert abs(_distance(after[i], after[j]) / scene.bond_length - 1.0) < 0.02

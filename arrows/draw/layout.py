@@ -265,6 +265,12 @@ class _LayoutBuilder:
                     for end, partner in ((i, j), (j, i)):
                         if self._swing(end, partner, k, OPEN_BOND):
                             break
+                    else:
+                        flips = [f for f in (self._flip(i, j, k), self._flip(j, i, k)) if f is not None]
+                        if flips:
+                            _, panels, flipped = max(flips, key=lambda f: f[0])
+                            for p in panels:
+                                self.positions[p].update(flipped)
 
     def _crowded(self, atom: int) -> bool:
         """More heavy partners over the whole mechanism than bonded at any one time."""
@@ -327,6 +333,42 @@ class _LayoutBuilder:
         for p in panels:
             self.positions[p][end] = best
         return True
+
+    def _flip(self, end: int, partner: int, k: int) -> Optional[tuple[float, range, dict[int, complex]]]:
+        """A ring closing at an atom inside the chain (a ketone carbon between the ring and its
+        methyl): the atom may be drawn on the other side of the line through its two fixed
+        neighbours, taking its touched end groups (the C=O oxygen) with it, in the panels
+        before the closing step. Every bond keeps its length and the chain reads as an open
+        zigzag, with the closing atoms about APPROACH apart; nothing the step leaves alone
+        moves. Returns (room around the moved atoms, panels, new positions), or None."""
+        if end not in self.touched[k] or self.element[end] == 1:
+            return None
+        here = self.positions[k]
+        # Neighbours of other clusters are not placed yet: they will be placed around it.
+        heavy = [n for n in self.neighbours[end] if n != partner and self.element[n] != 1 and n in here]
+        if any(n not in self.bridging for n in self.neighbours[end] if self.element[n] == 1):
+            return None
+        carried = [n for n in heavy if n in self.touched[k]
+                   and not [m for m in self.neighbours[n] if m != end and self.element[m] != 1]]
+        pivots = [n for n in heavy if n not in carried]
+        if len(pivots) != 2 or partner not in here or end not in here:
+            return None
+        moving = [end] + carried
+        first = k
+        while first > 0 and all(a in self.exists[first - 1] and a not in self.touched[first - 1] for a in moving):
+            first -= 1
+        panels = range(first, k + 1)
+        if any((min(end, n), max(end, n)) not in self.bonds_in[p] for p in panels for n in pivots + carried):
+            return None
+        a, b = here[pivots[0]], here[pivots[1]]
+        along = _unit(b - a)
+        flipped = {m: a + along * ((here[m] - a) / along).conjugate() for m in moving}
+        reach = abs(flipped[end] - here[partner])
+        crowd = [q for p in panels for x, q in self.positions[p].items() if x not in moving]
+        room = min((abs(f - q) for f in flipped.values() for q in crowd), default=9.0)
+        if not 1.5 <= reach <= APPROACH + 0.4 or room < 0.95:
+            return None
+        return room, panels, flipped
 
     def _permanent(self, i: int, j: int) -> bool:
         """Present in every state that has both atoms (a fragment that leaves is still there)."""
