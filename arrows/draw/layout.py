@@ -34,6 +34,9 @@ from ..electrons import ElectronState, ResolvedMove
 # curved arrow, close enough to read as one event.
 TRANSFER_GAP = 1.5
 OPEN_BOND = 1.5      # a bond about to form between two species, as chemists draw it
+# Partners of a cycloaddition: wider, so each of the arrows around the forming ring has room
+# to bend and no head sits under another.
+CYCLOADDITION_GAP = 1.8
 # Two molecules about to bond wait this far apart (atom to atom, bond lengths), facing each
 # other, so the curved arrow between them has room to bend.
 APPROACH = 2.2
@@ -186,15 +189,17 @@ class _Cluster:
 
 
 def compute_layout(states: Sequence[ElectronState], moves: Sequence[Sequence[ResolvedMove]],
-                   touched: Sequence[Iterable[int]]) -> Layout:
-    """Positions for the atoms of every state. `moves[k]` are the moves drawn on panel k and
-    `touched[k]` the atoms the step leaving panel k changes (empty for the last panel)."""
-    return _LayoutBuilder(states, moves, touched).build()
+                   touched: Sequence[Iterable[int]], left_out: Sequence[Iterable[int]] = ()) -> Layout:
+    """Positions for the atoms of every state. `moves[k]` are the moves drawn on panel k,
+    `touched[k]` the atoms the step leaving panel k changes (empty for the last panel) and
+    `left_out[k]` atoms panel k does not draw (a spectator between its turns): a species is
+    free to move while it is not drawn."""
+    return _LayoutBuilder(states, moves, touched, left_out).build()
 
 
 class _LayoutBuilder:
     def __init__(self, states: Sequence[ElectronState], moves: Sequence[Sequence[ResolvedMove]],
-                 touched: Sequence[Iterable[int]]):
+                 touched: Sequence[Iterable[int]], left_out: Sequence[Iterable[int]] = ()):
         self.states = list(states)
         self.n = len(self.states)
         self.touched = [set(t) for t in touched] + [set()] * (self.n - len(touched))
@@ -203,7 +208,9 @@ class _LayoutBuilder:
         self.atoms = [a.GetIdx() for a in biggest.GetAtoms() if a.GetAtomicNum() != 1 or a.GetIdx() in self.drawn_h]
         self.element = {i: biggest.GetAtomWithIdx(i).GetAtomicNum() for i in self.atoms}
         drawn = set(self.atoms)
-        self.exists = [(set(range(s.mol.GetNumAtoms())) & drawn) - s.released for s in self.states]
+        absent = [set(a) for a in left_out] + [set()] * (self.n - len(left_out))
+        self.exists = [(set(range(s.mol.GetNumAtoms())) & drawn) - s.released - gone
+                       for s, gone in zip(self.states, absent)]
         self.bonds_in = []      # per panel: set of (i, j) between drawn atoms
         self.union: dict[tuple[int, int], int] = {}
         for state in self.states:
@@ -241,7 +248,7 @@ class _LayoutBuilder:
         self._place_hydrogens()
         panels = []
         for k, state in enumerate(self.states):
-            visible = visible_atoms(state, self.drawn_h)
+            visible = tuple(i for i in visible_atoms(state, self.drawn_h) if i in self.positions[k])
             panels.append(PanelAtoms(state, visible, {i: self.positions[k][i] for i in visible}))
         return Layout(tuple(panels), self.drawn_h)
 
@@ -439,7 +446,7 @@ class _LayoutBuilder:
 
     def _hold_apart(self, sides: tuple[frozenset[int], frozenset[int]], bonds: list[tuple[int, int]]) -> None:
         """Two species that make a ring between them (a cycloaddition) are drawn facing each
-        other with the forming bonds open, about OPEN_BOND bond lengths, until the step that
+        other with the forming bonds open, about CYCLOADDITION_GAP bond lengths, until the step that
         makes them: the diene s-cis and the dienophile across its termini, as chemists draw it, so
         the arrows into the forming bonds have room. One side moves, as a whole, only if the
         forming step touches every atom of it; the smaller such side moves."""
@@ -467,7 +474,7 @@ class _LayoutBuilder:
         for step_out in range(1, 101):
             offset = away * 0.02 * step_out
             mean = sum(abs(local[i] + offset - local[j]) for i, j in ends) / len(ends)
-            if mean >= OPEN_BOND:
+            if mean >= CYCLOADDITION_GAP:
                 break
         first = min(k for k in range(self.n) if atoms & self.exists[k])
         cluster.openings.append((atoms, first, step, offset))

@@ -140,7 +140,7 @@ class _SceneBuilder:
         states = [s.state for s in sources]
         moves = [list(s.leaving.change.moves) if s.leaving else [] for s in sources]
         touched = [set(s.leaving.change.touched_atoms) if s.leaving else set() for s in sources]
-        layout = compute_layout(states, moves, touched)
+        layout = compute_layout(states, moves, touched, [s.hidden | s.idle for s in sources])
         panels = []
         for k, (src, placed) in enumerate(zip(sources, layout.panels)):
             panels.append(self._panel(k, src, placed, layout.drawn_hydrogens, moves[k]))
