@@ -326,38 +326,49 @@ class ArrowPlanner:
             c.cost = value
 
     def _pair_costs(self, options: list[list[_Candidate]]) -> dict[tuple[int, int], np.ndarray]:
-        """Penalty of drawing candidate a of arrow i with candidate b of arrow j, for every pair
-        of kept candidates at once: heads too close, shafts alongside, shafts crossing."""
-        bl = self.bl
+        """Penalty of drawing candidate a of arrow i with candidate b of arrow j (i < j), for every
+        such pair of kept candidates: heads too close, shafts alongside, shafts crossing. Each
+        arrow's candidates meet those of all later arrows in one batch; pairs within one arrow
+        and pairs seen the other way round are never needed, so they are not computed."""
+        sizes = [len(o) for o in options]
+        ends = np.cumsum(sizes).tolist()
         flat = [c for o in options for c in o]
-        owner = np.repeat(np.arange(len(options)), [len(o) for o in options])
         tips = np.array([c.tip for c in flat])
         starts = np.array([c.p0 for c in flat])
-        pts = np.stack([c.points[::2] for c in flat])                     # (C, S/2)
-        cost = np.where(np.abs(tips[:, None] - tips[None, :]) < 0.45 * bl, 150.0, 0.0)
-        body = pts[:, 1:-1]
-        d = np.abs(body[:, None, :, None] - body[None, :, None, :])       # (C, C, s, s)
+        points = np.stack([c.points for c in flat])                       # (C, S)
+        body = points[:, ::2][:, 1:-1]
+        coarse = points[:, ::4]                                           # five chords per curve
+        out = {}
+        for i in range(len(options) - 1):
+            rows, later = slice(ends[i] - sizes[i], ends[i]), slice(ends[i], None)
+            cost = self._pair_block((tips[rows], starts[rows], body[rows], coarse[rows]),
+                                    (tips[later], starts[later], body[later], coarse[later]))
+            for j in range(i + 1, len(options)):
+                out[(i, j)] = cost[:, ends[j] - sizes[j] - ends[i]:ends[j] - ends[i]]
+        return out
+
+    def _pair_block(self, first: tuple[np.ndarray, ...], second: tuple[np.ndarray, ...]) -> np.ndarray:
+        """The pair penalties of candidates `first` (rows) against `second` (columns), each given
+        as tips, starts, shaft samples without their ends and coarse chord points."""
+        bl = self.bl
+        tips_a, starts_a, body_a, coarse_a = first
+        tips_b, starts_b, body_b, coarse_b = second
+        cost = np.where(np.abs(tips_a[:, None] - tips_b[None, :]) < 0.45 * bl, 150.0, 0.0)
+        d = np.abs(body_a[:, None, :, None] - body_b[None, :, None, :])   # (A, B, s, s)
         # Arrows from one bond may share their start: closeness right at a shared start is fine.
-        shared = (np.abs(starts[:, None] - starts[None, :]) < 0.3 * bl)[:, :, None]
-        near_start = (np.abs(body - starts[:, None]) < 0.35 * bl)[:, None, :]
+        shared = (np.abs(starts_a[:, None] - starts_b[None, :]) < 0.3 * bl)[:, :, None]
+        near_start = (np.abs(body_a - starts_a[:, None]) < 0.35 * bl)[:, None, :]
         cost += 20.0 * ((d.min(axis=3) < 0.15 * bl) & ~(shared & near_start)).sum(axis=2)
-        coarse = np.stack([c.points[::4] for c in flat])                  # five chords per curve
-        x, y = coarse.real, coarse.imag
-        ax, ay, bx, by = x[:, :-1], y[:, :-1], x[:, 1:], y[:, 1:]         # (C, s)
-        P = (ax[:, None, :, None], ay[:, None, :, None], bx[:, None, :, None], by[:, None, :, None])
-        Q = (ax[None, :, None, :], ay[None, :, None, :], bx[None, :, None, :], by[None, :, None, :])
+        xa, ya, xb, yb = coarse_a.real, coarse_a.imag, coarse_b.real, coarse_b.imag
+        P = (xa[:, None, :-1, None], ya[:, None, :-1, None], xa[:, None, 1:, None], ya[:, None, 1:, None])
+        Q = (xb[None, :, None, :-1], yb[None, :, None, :-1], xb[None, :, None, 1:], yb[None, :, None, 1:])
 
         def orient(ux, uy, vx, vy, wx, wy):
             return (vx - ux) * (wy - uy) - (vy - uy) * (wx - ux)
 
         hit = ((orient(*P, Q[0], Q[1]) * orient(*P, Q[2], Q[3]) < 0)
                & (orient(*Q, P[0], P[1]) * orient(*Q, P[2], P[3]) < 0))
-        cost += 20.0 * hit.sum(axis=(2, 3))
-        out = {}
-        for i in range(len(options)):
-            for j in range(i + 1, len(options)):
-                out[(i, j)] = cost[np.ix_(owner == i, owner == j)]
-        return out
+        return cost + 20.0 * hit.sum(axis=(2, 3))
 
     def _choose(self, options: list[list[_Candidate]]) -> list[_Candidate]:
         """The combination of one candidate per arrow with the least total penalty: exhaustive
@@ -427,11 +438,12 @@ def _parameter_at_distance(p0: complex, p1: complex, p2: complex, p3: complex, d
     """The parameter t (near the end) where the curve is `distance` from its end point."""
     lo, hi = 0.0, 1.0
     for _ in range(16):
-        mid = (lo + hi) / 2
-        if abs(bezier(p0, p1, p2, p3, mid) - p3) > distance:
-            lo = mid
+        t = (lo + hi) / 2
+        s = 1 - t   # bezier() written out: this loop runs 16 times for every head and shaft end
+        if abs(s * s * s * p0 + 3 * s * s * t * p1 + 3 * s * t * t * p2 + t * t * t * p3 - p3) > distance:
+            lo = t
         else:
-            hi = mid
+            hi = t
     return lo
 
 
