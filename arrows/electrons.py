@@ -16,9 +16,13 @@ from rdkit import Chem
 from .diagnostics import Diagnostic
 from .model import (AtomSink, BareAtom, BondPair, BondRef, HydrogenOn, Location, LonePair, Move, Step,
                     UnpairedElectron, CONNECTORS)
-from .rdkit_io import atom_list, rdkit_messages, valence_electrons
+from .rdkit_io import atom_list, valence_electrons
 
 _BOND_TYPES = {1: Chem.BondType.SINGLE, 2: Chem.BondType.DOUBLE, 3: Chem.BondType.TRIPLE}
+# Not FINDRADICALS: RDKit would give a singlet carbene or oxenium made by pair arrows two unpaired
+# electrons; ours are the odd non-bonding electrons set from the bookkeeping.
+_STATE_SANITIZE = (Chem.SanitizeFlags.SANITIZE_ALL ^ Chem.SanitizeFlags.SANITIZE_SETAROMATICITY
+                   ^ Chem.SanitizeFlags.SANITIZE_KEKULIZE ^ Chem.SanitizeFlags.SANITIZE_FINDRADICALS)
 _ORDER_WORDS = {0: "none", 1: "single", 2: "double", 3: "triple"}
 
 
@@ -46,11 +50,15 @@ class ElectronState:
     released: frozenset[int] = frozenset()
     valence: tuple[int, ...] = ()
     bond_sums: tuple[int, ...] = ()
+    heavy_atoms: tuple[int, ...] = ()   # indices of the atoms that are not hydrogen
 
     def __post_init__(self) -> None:
-        if len(self.valence) != self.mol.GetNumAtoms():
-            object.__setattr__(self, "valence", tuple(valence_electrons(a.GetAtomicNum()) for a in atom_list(self.mol)))
-        if len(self.bond_sums) != self.mol.GetNumAtoms():
+        # A step hands these on (the common case, checked cheaply); a new state derives them.
+        if len(self.valence) != len(self.nonbonding):
+            atoms = atom_list(self.mol)
+            object.__setattr__(self, "valence", tuple(valence_electrons(a.GetAtomicNum()) for a in atoms))
+            object.__setattr__(self, "heavy_atoms", tuple(a.GetIdx() for a in atoms if a.GetAtomicNum() != 1))
+        if len(self.bond_sums) != len(self.nonbonding):
             object.__setattr__(self, "bond_sums", tuple(_bond_sum(a) for a in atom_list(self.mol)))
 
     def bond_electrons(self, i: int, j: int) -> int:
@@ -421,6 +429,8 @@ def _settle(state: ElectronState, step: Step, step_index: int, replay: _StepRepl
         before = replay.bond_before(*key)
         after = before + delta
         new_bonds[key] = after
+        if after % 2 == 0 and after <= 6 and (step.kind != "resonance" or (before == 0) == (after == 0)):
+            continue   # the common case: nothing to report
         label = _BondName(state, *key)
         loc = replay.first_move_on_bond[key].loc
         if after % 2:
@@ -496,17 +506,14 @@ def _settle(state: ElectronState, step: Step, step_index: int, replay: _StepRepl
                                     atoms=(label,), step=step_index))
     if any(d.severity == "error" for d in diags):
         return None, change, diags
-    with rdkit_messages():
-        try:
-            # Not FINDRADICALS: RDKit would give a singlet carbene or oxenium made by pair arrows two
-            # unpaired electrons; ours are the odd non-bonding electron set above.
-            Chem.SanitizeMol(work, Chem.SanitizeFlags.SANITIZE_ALL ^ Chem.SanitizeFlags.SANITIZE_SETAROMATICITY
-                             ^ Chem.SanitizeFlags.SANITIZE_KEKULIZE ^ Chem.SanitizeFlags.SANITIZE_FINDRADICALS)
-        except Exception as exc:
-            diags.append(Diagnostic("AR304", f"RDKit rejects the structure after this step: {exc}", step.loc,
-                                    "check charges and bond orders with `arrows trace`", step=step_index))
-            return None, change, diags
-    return ElectronState(work.GetMol(), tuple(nonbonding), state.released, valence, tuple(bond_sums)), change, diags
+    try:   # RDKit's own log of a failure is silenced by the caller (trace.replay); the message is in exc
+        Chem.SanitizeMol(work, _STATE_SANITIZE)
+    except Exception as exc:
+        diags.append(Diagnostic("AR304", f"RDKit rejects the structure after this step: {exc}", step.loc,
+                                "check charges and bond orders with `arrows trace`", step=step_index))
+        return None, change, diags
+    return ElectronState(work.GetMol(), tuple(nonbonding), state.released, valence, tuple(bond_sums),
+                         state.heavy_atoms), change, diags
 
 
 def _first_move_touching(step: Step, replay: _StepReplay, atom: int) -> Location:

@@ -10,7 +10,7 @@ from rdkit import Chem
 from .diagnostics import Diagnostic
 from .electrons import ElectronState, StepChange, apply_step, initial_nonbonding
 from .model import BondPair, BondSink, HydrogenOn, Location, Mechanism, Species, Step
-from .rdkit_io import atom_list, canonical, read_smiles
+from .rdkit_io import atom_list, canonical, rdkit_messages, read_smiles
 
 
 @dataclass
@@ -125,85 +125,123 @@ def _fragment_of(mol: Chem.Mol, index: int) -> set[int]:
     return {index}
 
 
-def replay(mechanism: Mechanism) -> Trace:
-    """Derive every state of the mechanism. Stops at the first step whose moves cannot be applied;
-    the reasons are in `trace.diagnostics`."""
-    diags: list[Diagnostic] = []
-    explicit_h_on = hydrogen_parents(mechanism)
+class Replay:
+    """Derives the states of a mechanism one step at a time: iterate it for each StepTrace. The
+    species are loaded (and every bad SMILES and duplicate reported) when it is made; `initial` is
+    None when they cannot be. Iteration stops after the first step whose moves cannot be applied;
+    the reasons are in `diagnostics`. Nothing of earlier steps is kept."""
 
-    # Load every species up front so that every bad SMILES and duplicate is reported at once.
-    names: dict[str, Location] = {}
-    seen_maps: dict[int, Location] = {}
-    loaded: dict[int, Chem.Mol] = {}
-    entered_later: dict[int, int] = {}
-    declared = [(None, s) for s in mechanism.species] + [
-        (i, s) for i, step in enumerate(mechanism.steps) for s in step.uses]
-    for position, (step_index, sp) in enumerate(declared):
-        if sp.name in names:
-            diags.append(Diagnostic("AR108", f"the name `{sp.name}` is already used (line {names[sp.name].line})",
-                                    sp.loc, hint="give each species its own name"))
-        names.setdefault(sp.name, sp.loc)
-        mol, problem = species_mol(sp, explicit_h_on)
-        if problem:
-            diags.append(problem)
-            continue
-        in_this_species: dict[int, int] = {}
-        for number in _map_numbers(mol):
-            in_this_species[number] = in_this_species.get(number, 0) + 1
-            if number in seen_maps:
-                diags.append(Diagnostic("AR103", f"map number {number} is already used (line {seen_maps[number].line})",
-                                        _map_location(sp, number, in_this_species[number]),
-                                        hint="map numbers are unique across the whole mechanism"))
-            seen_maps.setdefault(number, sp.loc)
-            if step_index is not None:
-                entered_later.setdefault(number, step_index)
-        loaded[position] = mol
-    if diags:
-        return Trace(mechanism, None, [], diags)
+    def __init__(self, mechanism: Mechanism):
+        self.mechanism = mechanism
+        self.diagnostics: list[Diagnostic] = []
+        self.initial: Optional[ElectronState] = None
+        self.final: Optional[ElectronState] = None     # set once every step is derived
+        self.steps_replayed = 0
+        self._loaded, self._entered_later = self._load()
+        if self.diagnostics:
+            return
+        start = Chem.Mol()
+        for position in range(len(mechanism.species)):
+            start = Chem.CombineMols(start, self._loaded[position])
+        self.initial = ElectronState(start, tuple(initial_nonbonding(start)))
+        if not mechanism.steps:
+            self.final = self.initial
 
-    start = Chem.Mol()
-    for position in range(len(mechanism.species)):
-        start = Chem.CombineMols(start, loaded[position])
-    state = ElectronState(start, tuple(initial_nonbonding(start)))
-    trace = Trace(mechanism, state, [], diags)
-    map_index = {a.GetAtomMapNum(): a.GetIdx() for a in atom_list(start) if a.GetAtomMapNum()}
+    def _load(self) -> tuple[dict[int, Chem.Mol], dict[int, int]]:
+        """Every species up front, `uses` ones included, so that every bad SMILES and duplicate
+        is reported at once."""
+        mechanism, diags = self.mechanism, self.diagnostics
+        explicit_h_on = hydrogen_parents(mechanism)
+        names: dict[str, Location] = {}
+        seen_maps: dict[int, Location] = {}
+        loaded: dict[int, Chem.Mol] = {}
+        entered_later: dict[int, int] = {}
+        declared = [(None, s) for s in mechanism.species] + [
+            (i, s) for i, step in enumerate(mechanism.steps) for s in step.uses]
+        for position, (step_index, sp) in enumerate(declared):
+            if sp.name in names:
+                diags.append(Diagnostic("AR108", f"the name `{sp.name}` is already used (line {names[sp.name].line})",
+                                        sp.loc, hint="give each species its own name"))
+            names.setdefault(sp.name, sp.loc)
+            mol, problem = species_mol(sp, explicit_h_on)
+            if problem:
+                diags.append(problem)
+                continue
+            in_this_species: dict[int, int] = {}
+            for number in _map_numbers(mol):
+                in_this_species[number] = in_this_species.get(number, 0) + 1
+                if number in seen_maps:
+                    diags.append(Diagnostic("AR103", f"map number {number} is already used (line {seen_maps[number].line})",
+                                            _map_location(sp, number, in_this_species[number]),
+                                            hint="map numbers are unique across the whole mechanism"))
+                seen_maps.setdefault(number, sp.loc)
+                if step_index is not None:
+                    entered_later.setdefault(number, step_index)
+            loaded[position] = mol
+        return loaded, entered_later
 
-    position = len(mechanism.species)
-    for index, step in enumerate(mechanism.steps):
-        entered: list[int] = []
-        if step.uses:
-            mol = state.mol
-            for _ in step.uses:
-                offset = mol.GetNumAtoms()
-                incoming = loaded[position]
-                position += 1
-                mol = Chem.CombineMols(mol, incoming)
-                entered.extend(range(offset, offset + incoming.GetNumAtoms()))
-                for atom in atom_list(incoming):
-                    if atom.GetAtomMapNum():
-                        map_index[atom.GetAtomMapNum()] = offset + atom.GetIdx()
-                        entered_later.pop(atom.GetAtomMapNum(), None)
-            state = ElectronState(mol, state.nonbonding + tuple(initial_nonbonding(mol)[len(state.nonbonding):]),
-                                  state.released)
-        after, change, step_diags = apply_step(state, step, index, map_index, entered_later)
-        diags.extend(step_diags)
+    def __iter__(self) -> Iterator[StepTrace]:
+        if self.initial is None:
+            return
+        mechanism, diags, loaded, entered_later = self.mechanism, self.diagnostics, self._loaded, self._entered_later
+        state = self.initial
+        map_index = {a.GetAtomMapNum(): a.GetIdx() for a in atom_list(state.mol) if a.GetAtomMapNum()}
+        position = len(mechanism.species)
+        # One quiet block for the whole replay: RDKit logs a rejected state, whose message we report.
+        with rdkit_messages():
+            for index, step in enumerate(mechanism.steps):
+                entered: list[int] = []
+                if step.uses:
+                    mol = state.mol
+                    for _ in step.uses:
+                        offset = mol.GetNumAtoms()
+                        incoming = loaded[position]
+                        position += 1
+                        mol = Chem.CombineMols(mol, incoming)
+                        entered.extend(range(offset, offset + incoming.GetNumAtoms()))
+                        for atom in atom_list(incoming):
+                            if atom.GetAtomMapNum():
+                                map_index[atom.GetAtomMapNum()] = offset + atom.GetIdx()
+                                entered_later.pop(atom.GetAtomMapNum(), None)
+                    state = ElectronState(mol, state.nonbonding + tuple(initial_nonbonding(mol)[len(state.nonbonding):]),
+                                          state.released)
+                after, change, step_diags = apply_step(state, step, index, map_index, entered_later)
+                diags.extend(step_diags)
+                released_now: list[int] = []
+                if after is not None and step.releases:
+                    after, released_now = self._release(after, step, index, map_index)
+                self.steps_replayed += 1
+                if after is not None and index == len(mechanism.steps) - 1:
+                    self.final = after
+                yield StepTrace(index, step, state, after, change, tuple(entered), tuple(released_now))
+                if after is None:
+                    return
+                state = after
+
+    def _release(self, after: ElectronState, step: Step, index: int,
+                 map_index: dict[int, int]) -> tuple[ElectronState, list[int]]:
+        released = set(after.released)
         released_now: list[int] = []
-        if after is not None and step.releases:
-            released = set(after.released)
-            for ref in step.releases:
-                atom_index = map_index.get(ref.map_number)
-                if atom_index is None:
-                    diags.append(Diagnostic("AR104", f"no atom carries map number {ref.map_number}", ref.loc,
-                                            hint="`releases` names a mapped atom of the leaving fragment", step=index))
-                    continue
-                fragment = _fragment_of(after.mol, atom_index) - released
-                released_now.extend(sorted(fragment))
-                released |= fragment
-            after = ElectronState(after.mol, after.nonbonding, frozenset(released), after.valence, after.bond_sums)
-        trace.steps.append(StepTrace(index, step, state, after, change, tuple(entered), tuple(released_now)))
-        if after is None:
-            break
-        state = after
+        for ref in step.releases:
+            atom_index = map_index.get(ref.map_number)
+            if atom_index is None:
+                self.diagnostics.append(Diagnostic("AR104", f"no atom carries map number {ref.map_number}", ref.loc,
+                                                   hint="`releases` names a mapped atom of the leaving fragment",
+                                                   step=index))
+                continue
+            fragment = _fragment_of(after.mol, atom_index) - released
+            released_now.extend(sorted(fragment))
+            released |= fragment
+        return ElectronState(after.mol, after.nonbonding, frozenset(released), after.valence, after.bond_sums,
+                            after.heavy_atoms), released_now
+
+
+def replay(mechanism: Mechanism) -> Trace:
+    """Derive every state of the mechanism and keep them all (for drawing, tracing, exporting).
+    Stops at the first step whose moves cannot be applied; the reasons are in `trace.diagnostics`."""
+    steps = Replay(mechanism)
+    trace = Trace(mechanism, steps.initial, [], steps.diagnostics)
+    trace.steps.extend(steps)
     return trace
 
 

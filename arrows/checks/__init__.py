@@ -1,18 +1,52 @@
-"""Checks over a replayed mechanism. Each check is one small class registered in CHECKS; it reads
-the Trace and yields Diagnostics, never prints. Adding a check is one class and one line below."""
+"""Checks over a replayed mechanism. Each check is one small class registered in _registry(); it is
+fed the steps in order as the replay makes them (`step`), then the end of the replay (`finish`),
+and yields Diagnostics, never prints. A check keeps what it needs of earlier steps itself, so a
+long mechanism is checked without holding every state. Adding a check is one class and one line
+below."""
 from __future__ import annotations
 
-from typing import Iterable, Protocol
+from dataclasses import dataclass, field
+from typing import Iterable, Optional
 
 from ..diagnostics import Diagnostic, sort_key
-from ..trace import Trace
+from ..electrons import ElectronState
+from ..judgement.perception import RecentViews
+from ..model import Mechanism
+from ..trace import Replay, StepTrace, Trace
 
 
-class Check(Protocol):
-    name: str
-    codes: tuple[str, ...]
+@dataclass
+class Context:
+    """What the checks of one replay share: the perceived views of the latest states."""
 
-    def run(self, trace: Trace) -> Iterable[Diagnostic]: ...
+    views: RecentViews = field(default_factory=RecentViews)
+
+
+@dataclass(frozen=True)
+class Ending:
+    """The end of a replay, as the checks see it in `finish`."""
+
+    mechanism: Mechanism
+    initial: Optional[ElectronState]
+    final: Optional[ElectronState]        # None unless every step was derived
+    steps_replayed: int
+
+
+class Check:
+    name: str = ""
+    codes: tuple[str, ...] = ()
+
+    def step(self, st: StepTrace, context: Context) -> Iterable[Diagnostic]:
+        return ()
+
+    def finish(self, end: Ending, context: Context) -> Iterable[Diagnostic]:
+        return ()
+
+    def run(self, trace: Trace) -> list[Diagnostic]:
+        """This check alone over a finished trace."""
+        context = Context()
+        found = [d for st in trace.steps for d in self.step(st, context)]
+        return found + list(self.finish(_ending(trace), context))
 
 
 def _registry() -> list[Check]:
@@ -29,9 +63,31 @@ def _registry() -> list[Check]:
             StereoChanges()]
 
 
+def _ending(trace: Trace) -> Ending:
+    return Ending(trace.mechanism, trace.initial, trace.final, len(trace.steps))
+
+
+def _checked(steps: Iterable[StepTrace], end) -> list[Diagnostic]:
+    checks, context = _registry(), Context()
+    found: list[Diagnostic] = []
+    for st in steps:
+        for check in checks:
+            found.extend(check.step(st, context))
+    ending = end()
+    for check in checks:
+        found.extend(check.finish(ending, context))
+    return found
+
+
 def run_checks(trace: Trace) -> list[Diagnostic]:
     """The replay's own diagnostics plus every registered check, sorted by location."""
-    found = list(trace.diagnostics)
-    for check in _registry():
-        found.extend(check.run(trace))
-    return sorted(found, key=sort_key)
+    found = _checked(trace.steps, lambda: _ending(trace))
+    return sorted(list(trace.diagnostics) + found, key=sort_key)
+
+
+def check_streaming(mechanism: Mechanism) -> list[Diagnostic]:
+    """run_checks(replay(mechanism)), but each state is let go once the checks have seen it: the
+    memory does not grow with the number of steps."""
+    replay = Replay(mechanism)
+    found = _checked(replay, lambda: Ending(mechanism, replay.initial, replay.final, replay.steps_replayed))
+    return sorted(list(replay.diagnostics) + found, key=sort_key)

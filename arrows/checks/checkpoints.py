@@ -14,7 +14,8 @@ from ..diagnostics import Diagnostic
 from ..electrons import ElectronState, atom_label, order_word
 from ..model import Checkpoint
 from ..rdkit_io import atom_list, read_smiles
-from ..trace import Trace
+from ..trace import StepTrace
+from . import Check, Ending
 
 _ORIGIN = "arrows_origin"   # atom property: index of the atom in the state Mol
 
@@ -173,16 +174,16 @@ def _explain(frag: Fragment, closest: Fragment, state: ElectronState) -> tuple[l
     return details[:8], hint
 
 
-class CheckpointsMatch:
+class CheckpointsMatch(Check):
     name = "checkpoints match"
     codes = ("AR401", "AR402")
 
-    def run(self, trace: Trace) -> Iterator[Diagnostic]:
-        for st in trace.steps:
-            if st.after is None:
-                continue
+    def step(self, st: StepTrace, context) -> Iterator[Diagnostic]:
+        if st.after is not None:
             for checkpoint in st.step.expects:
                 yield from compare(st.after, checkpoint, "AR401", st.index)
-        product = trace.mechanism.product
-        if product is not None and trace.final is not None:
-            yield from compare(trace.final, product, "AR402", None)
+
+    def finish(self, end: Ending, context) -> Iterator[Diagnostic]:
+        product = end.mechanism.product
+        if product is not None and end.final is not None:
+            yield from compare(end.final, product, "AR402", None)

@@ -8,7 +8,8 @@ from typing import Iterator
 from rdkit import Chem
 
 from ..diagnostics import Diagnostic
-from ..trace import Trace
+from ..trace import StepTrace
+from . import Check, Ending
 
 
 def _totals(mol: Chem.Mol, atoms=None) -> tuple[int, Counter]:
@@ -26,33 +27,38 @@ def _formula(elements: Counter) -> str:
     return " ".join(f"{el}{n}" for el, n in sorted(elements.items()) if n)
 
 
-class ChargeAndAtomsConserved:
+class ChargeAndAtomsConserved(Check):
+    """One count of the start, of what each `uses` brings and of the end. Moves alone cannot change
+    either total (a safety net); a difference is reported at the last step."""
+
     name = "charge and atoms conserved"
     codes = ("AR403", "AR404")
 
-    def run(self, trace: Trace) -> Iterator[Diagnostic]:
-        derived = [st for st in trace.steps if st.after is not None]
-        if not derived:
-            return
-        # One count of the start, of what each `uses` brings and of the end; only when those disagree
-        # is every step counted, to say where.
-        charge, atoms = _totals(trace.initial.mol)
-        for st in derived:
-            if st.entered:
-                extra_charge, extra_atoms = _totals(st.before.mol, st.entered)
-                charge, atoms = charge + extra_charge, atoms + extra_atoms
-        if _totals(derived[-1].after.mol) == (charge, atoms):
-            return
-        yield from self._per_step(derived)
+    def __init__(self) -> None:
+        self.brought: tuple[int, Counter] = (0, Counter())
+        self.last: Optional[StepTrace] = None
 
-    def _per_step(self, derived) -> Iterator[Diagnostic]:
-        for st in derived:
-            charge_before, atoms_before = _totals(st.before.mol)
-            charge_after, atoms_after = _totals(st.after.mol)
-            if charge_after != charge_before:
-                yield Diagnostic("AR403", f"total charge goes from {charge_before:+d} to {charge_after:+d}", st.step.loc,
-                                 hint="charge moves with electrons; check `uses` and the charges written in SMILES",
-                                 step=st.index)
-            if atoms_after != atoms_before:
-                yield Diagnostic("AR404", f"atoms go from {_formula(atoms_before)} to {_formula(atoms_after)}",
-                                 st.step.loc, hint="moves neither make nor destroy atoms", step=st.index)
+    def step(self, st: StepTrace, context) -> Iterator[Diagnostic]:
+        if st.after is None:
+            return ()
+        if st.entered:
+            charge, atoms = _totals(st.before.mol, st.entered)
+            self.brought = (self.brought[0] + charge, self.brought[1] + atoms)
+        self.last = st
+        return ()
+
+    def finish(self, end: Ending, context) -> Iterator[Diagnostic]:
+        if self.last is None:
+            return
+        start_charge, start_atoms = _totals(end.initial.mol)
+        charge_before, atoms_before = start_charge + self.brought[0], start_atoms + self.brought[1]
+        charge_after, atoms_after = _totals(self.last.after.mol)
+        where = dict(step=self.last.index)
+        span = "from the start to this step" if self.last.index else "in this step"
+        if charge_after != charge_before:
+            yield Diagnostic("AR403", f"total charge goes from {charge_before:+d} to {charge_after:+d} {span}",
+                             self.last.step.loc, hint="charge moves with electrons; check `uses` and the charges "
+                             "written in SMILES", **where)
+        if atoms_after != atoms_before:
+            yield Diagnostic("AR404", f"atoms go from {_formula(atoms_before)} to {_formula(atoms_after)} {span}",
+                             self.last.step.loc, hint="moves neither make nor destroy atoms", **where)

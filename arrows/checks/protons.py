@@ -13,9 +13,11 @@ from dataclasses import dataclass
 from typing import Callable, Iterator, Optional
 
 from ..diagnostics import Diagnostic
-from ..judgement.acidity import Acidity, acidity_of, perceived
+from ..judgement.acidity import Acidity, acidity_of
+from ..judgement.perception import Perceived, RecentViews
 from ..model import Location
-from ..trace import StepTrace, Trace
+from ..trace import StepTrace
+from . import Check
 
 DEFAULT_PKA_GAP = 12.0
 _gap: ContextVar[float] = ContextVar("pka_gap", default=DEFAULT_PKA_GAP)
@@ -53,9 +55,9 @@ class ProtonTransfer:
         return self.acid.pka - self.conjugate_acid.pka
 
 
-def proton_transfers(st: StepTrace, seen: Optional[dict] = None) -> list[ProtonTransfer]:
-    """The plain proton transfers of one step, each with its two acidities; `seen` caches the
-    perceived copy of states already met (the state after one step is the state before the next)."""
+def proton_transfers(st: StepTrace, views: Optional[RecentViews] = None) -> list[ProtonTransfer]:
+    """The plain proton transfers of one step, each with its two acidities; `views` holds the
+    perceived views of the states met lately (the state after one step is the state before the next)."""
     if st.after is None:
         return []
     before, after = st.before.mol, st.after.mol
@@ -79,12 +81,14 @@ def proton_transfers(st: StepTrace, seen: Optional[dict] = None) -> list[ProtonT
         found.append((base, x, h, m.move.loc))
     if not found:
         return []
-    seen = {} if seen is None else seen
-    for mol in (before, after):
-        if id(mol) not in seen:        # the trace keeps every state alive, so ids stay unique
-            seen[id(mol)] = perceived(mol)
-    acids, conjugates = seen[id(before)], seen[id(after)]
-    return [ProtonTransfer(b, x, h, loc, acidity_of(acids, x), acidity_of(conjugates, b)) for b, x, h, loc in found]
+    views = RecentViews() if views is None else views
+    acids, conjugates = views.of(st.before), views.of(st.after)
+    return [ProtonTransfer(b, x, h, loc, _acidity(acids, x), _acidity(conjugates, b)) for b, x, h, loc in found]
+
+
+def _acidity(view: Perceived, atom: int) -> Optional[Acidity]:
+    position = view.position(atom)
+    return None if position is None else acidity_of(view.mol, position)
 
 
 def _other(pair: tuple[int, ...], atom: int) -> int:
@@ -100,24 +104,25 @@ def _next_to_cation(state, atom: int) -> bool:
                for n in state.mol.GetAtomWithIdx(atom).GetNeighbors())
 
 
-class UphillProtonTransfers:
+class UphillProtonTransfers(Check):
     name = "proton transfers"
     codes = ("AR508",)
 
-    def run(self, trace: Trace) -> Iterator[Diagnostic]:
-        gap = _gap.get()
-        seen: dict = {}
-        for st in trace.steps:
-            for t in proton_transfers(st, seen):
-                uphill = t.uphill
-                if uphill is None or uphill <= gap:
-                    continue
-                base, acid = t.conjugate_acid, t.acid
-                label_b, label_x = st.before.label(t.base_atom), st.before.label(t.acid_atom)
-                yield Diagnostic(
-                    "AR508",
-                    f"{base.base} (pKa of {base.acid} {base.shown}) removing {acid.site} ({acid.shown}): "
-                    f"uphill by about {uphill:.0f} pKa units ({label_b} takes the proton of {label_x})",
-                    t.loc, hint=f"a base whose conjugate acid has a pKa near {acid.shown} is needed, or another "
-                    f"proton is meant; the threshold is {gap:g} units (`arrows check --pka-gap`)",
-                    atoms=(label_b, label_x), step=st.index)
+    def __init__(self) -> None:
+        self.gap = _gap.get()
+
+    def step(self, st: StepTrace, context) -> Iterator[Diagnostic]:
+        gap = self.gap
+        for t in proton_transfers(st, context.views):
+            uphill = t.uphill
+            if uphill is None or uphill <= gap:
+                continue
+            base, acid = t.conjugate_acid, t.acid
+            label_b, label_x = st.before.label(t.base_atom), st.before.label(t.acid_atom)
+            yield Diagnostic(
+                "AR508",
+                f"{base.base} (pKa of {base.acid} {base.shown}) removing {acid.site} ({acid.shown}): "
+                f"uphill by about {uphill:.0f} pKa units ({label_b} takes the proton of {label_x})",
+                t.loc, hint=f"a base whose conjugate acid has a pKa near {acid.shown} is needed, or another "
+                f"proton is meant; the threshold is {gap:g} units (`arrows check --pka-gap`)",
+                atoms=(label_b, label_x), step=st.index)

@@ -4,6 +4,7 @@ AR501, a disfavoured class AR502 (naming a favoured closure between the same kin
 the species offers one), anything else a note AR601."""
 from __future__ import annotations
 
+from collections import deque
 from dataclasses import dataclass
 from typing import Iterator, Optional
 
@@ -15,7 +16,8 @@ from ..model import Location
 from ..judgement.baldwin import BALDWIN_1976, ClosureClass, classify, geometry_of, ring_path, verdict
 from ..judgement.closures import Closure, favoured_alternatives
 from ..judgement.sites import ENOLATE, NITROGEN, OXYGEN
-from ..trace import StepTrace, Trace
+from ..trace import StepTrace
+from . import Check
 
 
 @dataclass(frozen=True)
@@ -108,16 +110,23 @@ def _has_single_oxygen(mol: Chem.Mol, atom: int) -> bool:
                for b in mol.GetAtomWithIdx(atom).GetBonds())
 
 
-class RingClosures:
+# How far back a strained or disfavoured closure looks for the neutral form of its fragment.
+LOOK_BACK = 64
+
+
+class RingClosures(Check):
     name = "ring closures"
     codes = ("AR501", "AR502", "AR601")
 
-    def run(self, trace: Trace) -> Iterator[Diagnostic]:
-        for st in trace.steps:
-            for c in closures_in_step(st):
-                yield self.judge(trace, st, c)
+    def __init__(self) -> None:
+        self.recent: deque[ElectronState] = deque(maxlen=LOOK_BACK)   # states before the current step
 
-    def judge(self, trace: Trace, st: StepTrace, c: StepClosure) -> Diagnostic:
+    def step(self, st: StepTrace, context) -> Iterator[Diagnostic]:
+        found = [self.judge(st, c) for c in closures_in_step(st)]
+        self.recent.append(st.before)
+        return found
+
+    def judge(self, st: StepTrace, c: StepClosure) -> Diagnostic:
         label = lambda i: st.before.label(i)   # noqa: E731
         a, b = label(c.nucleophile), label(c.attacked)
         where = dict(bonds=((a, b),), step=st.index, atoms=(a, b))
@@ -135,7 +144,7 @@ class RingClosures:
         if v.favoured is False or size in (3, 4):
             code = "AR502" if v.favoured is False else "AR501"
             message = f"{opening}: {said}" + ("" if v.favoured is False else ", but the ring is strained")
-            alternative = self.alternative(trace, st, c)
+            alternative = self.alternative(st, c)
             if alternative:
                 message += f"; {alternative}"
             hint = ("five- and six-membered closures usually win when the substrate offers one (common practice)"
@@ -147,13 +156,13 @@ class RingClosures:
                               c.loc or st.step.loc, **where)
         return Diagnostic("AR601", f"{opening}: {said}", c.loc or st.step.loc, **where)
 
-    def alternative(self, trace: Trace, st: StepTrace, c: StepClosure) -> Optional[str]:
+    def alternative(self, st: StepTrace, c: StepClosure) -> Optional[str]:
         """A favoured closure between the same kinds of sites in the species that closes here
         (the latest neutral form of the fragment, before any enolate was made)."""
         kinds = _site_kinds(st.before, c)
         if kinds is None:
             return None
-        state = _parent_state(trace, st, c.nucleophile, c.attacked)
+        state = _parent_state(list(self.recent) + [st.before], c.nucleophile, c.attacked)
         for option in favoured_alternatives(state.mol, *kinds):
             pairs = {(option.nucleophile.atom, option.electrophile.atom), *option.equivalent}
             if (c.nucleophile, c.attacked) in pairs:
@@ -178,16 +187,16 @@ def _site_kinds(state: ElectronState, c: StepClosure) -> Optional[tuple[str, str
     return None
 
 
-def _parent_state(trace: Trace, st: StepTrace, x: int, y: int) -> ElectronState:
-    """The latest state up to this step in which x and y sit in one uncharged fragment."""
-    states = [trace.initial] + [s.after for s in trace.steps[:st.index]] + [st.before]
-    for state in reversed([s for s in states if s is not None]):
+def _parent_state(states: list[ElectronState], x: int, y: int) -> ElectronState:
+    """The latest of `states` (oldest first, ending with the state before the closing step) in
+    which x and y sit in one uncharged fragment; else the last."""
+    for state in reversed(states):
         if x >= state.mol.GetNumAtoms() or y >= state.mol.GetNumAtoms():
             continue
         for fragment in Chem.GetMolFrags(state.mol, asMols=False, sanitizeFrags=False):
             if x in fragment and y in fragment and sum(state.formal_charge(i) for i in fragment) == 0:
                 return state
-    return st.before
+    return states[-1]
 
 
 def _describe(mol: Chem.Mol, option: Closure) -> str:

@@ -10,7 +10,10 @@ from rdkit import Chem
 from ..diagnostics import Diagnostic
 from ..judgement.stereo import CENTRE, StereoElement, describe, stereo_elements, stereoisomer_count
 from ..rdkit_io import canonical
+from ..electrons import ElectronState
+from ..judgement.perception import RecentViews
 from ..trace import StepTrace, Trace
+from . import Check, Ending
 
 
 @dataclass(frozen=True)
@@ -20,33 +23,32 @@ class ProductStereo:
     stereoisomers: Optional[int]     # None: RDKit could not enumerate them
 
 
-def step_stereo(st: StepTrace, seen: Optional[dict] = None) -> tuple[list[StereoElement], list[StereoElement]]:
-    """(made, lost) in one step; `seen` caches the elements of states already perceived (the
+def step_stereo(st: StepTrace, views: Optional[RecentViews] = None) -> tuple[list[StereoElement], list[StereoElement]]:
+    """(made, lost) in one step; `views` holds the perceived views of the states met lately (the
     state after one step is usually the state before the next)."""
     if st.after is None:
         return [], []
-    seen = {} if seen is None else seen
-    old, new = _elements(st.before.mol, seen), _elements(st.after.mol, seen)
+    views = RecentViews() if views is None else views
+    old = stereo_elements(st.before.mol, views.of(st.before))
+    new = stereo_elements(st.after.mol, views.of(st.after))
     return sorted(new - old), sorted(old - new)
 
 
-def _elements(mol: Chem.Mol, seen: dict) -> frozenset[StereoElement]:
-    if id(mol) not in seen:     # the trace keeps every state alive, so ids stay unique
-        seen[id(mol)] = stereo_elements(mol)
-    return seen[id(mol)]
-
-
-def final_stereo(trace: Trace, seen: Optional[dict] = None) -> list[ProductStereo]:
+def final_stereo(trace: Trace) -> list[ProductStereo]:
     """Each fragment of the final state (released by-products aside) that has stereo elements,
-    with the number of its stereoisomers when no configuration made by the mechanism is fixed;
-    `seen` as in step_stereo."""
-    final = trace.final
+    with the number of its stereoisomers when no configuration made by the mechanism is fixed."""
+    touched = {i for st in trace.steps for i in st.change.touched_atoms}
+    return product_stereo(trace.final, touched)
+
+
+def product_stereo(final: Optional[ElectronState], touched: set[int],
+                   views: Optional[RecentViews] = None) -> list[ProductStereo]:
+    """final_stereo for a final state and the atoms the mechanism's moves touched."""
     if final is None:
         return []
-    elements = _elements(final.mol, {} if seen is None else seen)
+    elements = stereo_elements(final.mol, (views or RecentViews()).of(final))
     if not elements:
         return []
-    touched = {i for st in trace.steps for i in st.change.touched_atoms}
     out = []
     for indices in Chem.GetMolFrags(final.mol, asMols=False, sanitizeFrags=False):
         if set(indices) & final.released:
@@ -76,34 +78,34 @@ def _said(elements: list[StereoElement], label) -> str:
     return " and ".join(parts)
 
 
-class StereoChanges:
+class StereoChanges(Check):
     name = "stereo changes"
     codes = ("AR602",)
 
-    def run(self, trace: Trace) -> Iterator[Diagnostic]:
-        seen: dict = {}
-        for st in trace.steps:
-            made, lost = step_stereo(st, seen)
-            if not made and not lost:
-                continue
-            label = st.after.label
-            parts = []
-            if made:
-                parts.append(f"new {_said(made, label)}")
-            if lost:
-                parts.append(f"no longer stereogenic: {_said(lost, label)}")
-            yield Diagnostic("AR602", "; ".join(parts), st.step.loc, step=st.index,
-                             atoms=tuple(label(i) for e in made + lost for i in e.atoms))
-        product = self._product_note(trace, seen)
-        if product:
-            yield product
+    def __init__(self) -> None:
+        self.touched: set[int] = set()
 
-    def _product_note(self, trace: Trace, seen: dict) -> Optional[Diagnostic]:
-        many = [p for p in final_stereo(trace, seen) if (p.stereoisomers or 0) > 1]
+    def step(self, st: StepTrace, context) -> Iterator[Diagnostic]:
+        self.touched.update(st.change.touched_atoms)
+        made, lost = step_stereo(st, context.views)
+        if not made and not lost:
+            return
+        label = st.after.label
+        parts = []
+        if made:
+            parts.append(f"new {_said(made, label)}")
+        if lost:
+            parts.append(f"no longer stereogenic: {_said(lost, label)}")
+        yield Diagnostic("AR602", "; ".join(parts), st.step.loc, step=st.index,
+                         atoms=tuple(label(i) for e in made + lost for i in e.atoms))
+
+    def finish(self, end: Ending, context) -> Iterator[Diagnostic]:
+        many = [p for p in product_stereo(end.final, self.touched, context.views) if (p.stereoisomers or 0) > 1]
         if not many:
-            return None
-        loc = trace.mechanism.product.loc if trace.mechanism.product else trace.steps[-1].step.loc
-        label = trace.final.label
+            return
+        mechanism = end.mechanism
+        loc = mechanism.product.loc if mechanism.product else mechanism.steps[-1].loc
+        label = end.final.label
         text = "; ".join(f"{p.smiles} ({_said(list(p.elements), label)}): {p.stereoisomers} stereoisomers can form"
                          for p in many)
-        return Diagnostic("AR602", f"with no stereocontrol, {text}", loc, step=len(trace.steps) - 1)
+        yield Diagnostic("AR602", f"with no stereocontrol, {text}", loc, step=len(mechanism.steps) - 1)

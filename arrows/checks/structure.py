@@ -5,37 +5,38 @@ from typing import Iterator
 
 from ..diagnostics import Diagnostic
 from ..model import Location
-from ..trace import Trace
+from . import Check, Ending
 
 
-class SomethingToCheck:
+class SomethingToCheck(Check):
     name = "something to check"
     codes = ("AR112",)
 
-    def run(self, trace: Trace) -> Iterator[Diagnostic]:
-        mechanism = trace.mechanism
+    def finish(self, end: Ending, context) -> Iterator[Diagnostic]:
+        mechanism = end.mechanism
         if not mechanism.species and not mechanism.steps:
             yield Diagnostic("AR112", "the file holds no species and no steps",
                              Location(mechanism.source_name, 1, 1),
                              hint='start with a species, e.g. species water = "[OH2:1]", then the steps')
 
 
-class NothingAfterProduct:
+class NothingAfterProduct(Check):
     name = "nothing after product"
     codes = ("AR107",)
 
-    def run(self, trace: Trace) -> Iterator[Diagnostic]:
-        for loc in trace.mechanism.after_product:
+    def finish(self, end: Ending, context) -> Iterator[Diagnostic]:
+        for loc in end.mechanism.after_product:
             yield Diagnostic("AR107", "this comes after `product`, which closes the mechanism", loc,
                              hint="move `product` to the end of the file")
 
 
-class StepsHaveMoves:
+class StepsHaveMoves(Check):
     name = "steps have moves"
     codes = ("AR506",)
 
-    def run(self, trace: Trace) -> Iterator[Diagnostic]:
-        for index, step in enumerate(trace.mechanism.steps):
+    def finish(self, end: Ending, context) -> Iterator[Diagnostic]:
+        # Every step of the text, also those after a step the replay could not apply.
+        for index, step in enumerate(end.mechanism.steps):
             if not step.moves:
                 yield Diagnostic("AR506", f'step "{step.label}" names no electron moves', step.loc,
                                  hint="add the arrows of this step, or merge it with its neighbour", step=index)

@@ -4,21 +4,20 @@ from __future__ import annotations
 from typing import Iterator
 
 from ..diagnostics import Diagnostic
-from ..trace import Trace
+from ..trace import StepTrace
+from . import Check
 
 # Metals whose ions routinely carry +2 (Mg2+, Ca2+, Zn2+ ...): no unusual-charge warning for them.
 _IONIC_METALS = {3, 4, 11, 12, 19, 20, 30, 37, 38, 55, 56}
 
 
-class UnusualElectronCounts:
+class UnusualElectronCounts(Check):
     name = "unusual electron counts"
     codes = ("AR503", "AR504")
 
-    def run(self, trace: Trace) -> Iterator[Diagnostic]:
-        for st in trace.steps:
-            after = st.after
-            if after is None:
-                continue
+    def step(self, st: StepTrace, context) -> Iterator[Diagnostic]:
+        after = st.after
+        if after is not None:
             for i, shell in st.change.shells.items():
                 charge = after.formal_charge(i)
                 if abs(charge) >= 2:

@@ -14,6 +14,8 @@ from typing import Iterable, Optional
 
 from rdkit import Chem
 
+from .perception import Perceived, perceive
+
 CENTRE, DOUBLE_BOND = "stereocentre", "stereogenic double bond"
 
 
@@ -23,41 +25,24 @@ class StereoElement:
     atoms: tuple[int, ...]     # (centre,) or the two atoms of the double bond, ascending
 
 
-_HYDROGEN = Chem.MolFromSmarts("[#1]")
-_REMOVE_HS = Chem.RemoveHsParameters()
-_REMOVE_HS.removeDegreeZero = True     # a free proton too
+def _plain(mol: Chem.Mol, clear_stereo_on: Iterable[int] = ()) -> tuple[Optional[Chem.Mol], tuple[int, ...]]:
+    """A perceived copy without hydrogen atoms and, for each of its atoms, the index in `mol`;
+    (None, ()) when RDKit will not perceive it whole."""
+    view = perceive(mol, clear_stereo_on)
+    return (view.mol, view.original) if view.complete else (None, ())
 
 
-def _plain(mol: Chem.Mol, clear_stereo_on: Iterable[int] = ()) -> tuple[Optional[Chem.Mol], list[int]]:
-    """A copy without hydrogen atoms (an explicit hydrogen would make two equal groups look
-    different), and for each of its atoms the index in `mol`. Map numbers are left on: RDKit's
-    stereo perception ignores them. Only the atoms in `clear_stereo_on` lose their configuration."""
-    clear_stereo_on = list(clear_stereo_on)
-    work = mol
-    if clear_stereo_on:      # RemoveHs copies anyway: a copy of our own only when we change it
-        work = Chem.RWMol(mol)
-        for i in clear_stereo_on:
-            work.GetAtomWithIdx(i).SetChiralTag(Chem.ChiralType.CHI_UNSPECIFIED)
-            for bond in work.GetAtomWithIdx(i).GetBonds():
-                bond.SetStereo(Chem.BondStereo.STEREONONE)
-        work = work.GetMol()
-    # The hydrogen atoms found in C++ (a state holds only a few): cheaper than a walk over every atom.
-    hydrogens = {m[0] for m in work.GetSubstructMatches(_HYDROGEN, maxMatches=work.GetNumAtoms() + 1)}
-    heavy = [i for i in range(work.GetNumAtoms()) if i not in hydrogens]
-    try:
-        plain = Chem.RemoveHs(work, _REMOVE_HS, sanitize=False)
-        Chem.SanitizeMol(plain)
-    except Exception:   # an intermediate RDKit will not perceive: report nothing rather than guess
-        return None, []
-    if plain.GetNumAtoms() != len(heavy):   # RDKit kept a hydrogen (an isotope, a bridge): no guessing
-        return None, []
-    return plain, heavy
+def stereo_elements(mol: Chem.Mol, view: Optional[Perceived] = None) -> frozenset[StereoElement]:
+    """The stereocentres and stereogenic double bonds of a state; `view` is its perceived view
+    when the caller has it already."""
+    view = perceive(mol) if view is None else view
+    if "stereo" not in view.memo:
+        view.memo["stereo"] = _elements(view) if view.complete else frozenset()
+    return view.memo["stereo"]
 
 
-def stereo_elements(mol: Chem.Mol) -> frozenset[StereoElement]:
-    plain, original = _plain(mol)
-    if plain is None:
-        return frozenset()
+def _elements(view: Perceived) -> frozenset[StereoElement]:
+    plain, original = view.mol, view.original
     ranks = None     # ranked only when a double bond asks: most states have none
     found = set()
     for info in Chem.FindPotentialStereo(plain, cleanIt=True):
