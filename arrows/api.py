@@ -1,7 +1,6 @@
 """The library behind the CLI: load or parse a mechanism, replay it, check it, draw it."""
 from __future__ import annotations
 
-import html
 import weakref
 from pathlib import Path
 from typing import Optional
@@ -26,6 +25,7 @@ class Diagnostics(list):
         return "\n".join(d.to_text() for d in self) or "no findings"
 
     def _repr_html_(self) -> str:
+        import html   # only notebooks ask for it
         if not self:
             return "<p>no findings</p>"
         rows = []

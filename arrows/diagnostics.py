@@ -2,17 +2,16 @@
 bonds involved, and a hint. Only the CLI turns them into text."""
 from __future__ import annotations
 
-import json
-from dataclasses import dataclass, field
+from dataclasses import field
 from typing import Iterable, Optional
 
-from .model import Location
+from .model import Location, frozen
 
 ERROR, WARNING, NOTE = "error", "warning", "note"
 SEVERITY_RANK = {ERROR: 0, WARNING: 1, NOTE: 2}
 
 
-@dataclass(frozen=True)
+@frozen
 class Code:
     code: str
     severity: str
@@ -149,7 +148,7 @@ CODES = _table(
 )
 
 
-@dataclass(frozen=True)
+@frozen
 class Diagnostic:
     code: str
     message: str
@@ -184,6 +183,7 @@ def sort_key(d: Diagnostic) -> tuple:
 
 
 def to_json(diags: Iterable[Diagnostic]) -> str:
+    import json   # only --format json needs it
     return json.dumps([d.to_dict() for d in diags], indent=2, ensure_ascii=False)
 
 

@@ -5,11 +5,10 @@ from __future__ import annotations
 import logging
 import re
 from contextlib import contextmanager
+from functools import lru_cache
 from typing import Iterator, Optional
 
 from rdkit import Chem, rdBase
-
-_PERIODIC = Chem.GetPeriodicTable()
 
 
 class _Collect(logging.Handler):
@@ -99,8 +98,11 @@ def atom_list(mol: Chem.Mol) -> list[Chem.Atom]:
     return [atom(i) for i in range(mol.GetNumAtoms())]
 
 
+@lru_cache(maxsize=None)
 def valence_electrons(atomic_num: int) -> int:
-    return _PERIODIC.GetNOuterElecs(atomic_num)
+    # RDKit fills its periodic table on first use (about 2.5 ms): not at import, so that a run that
+    # stops at a syntax error, or a command that reads no SMILES, never pays for it.
+    return Chem.GetPeriodicTable().GetNOuterElecs(atomic_num)
 
 
 def period(atomic_num: int) -> int:
