@@ -4,11 +4,12 @@ from __future__ import annotations
 
 import hashlib
 import os
+import re
 import sys
 from functools import lru_cache
 from importlib import resources
 from pathlib import Path
-from typing import Optional
+from typing import Iterator, Optional
 
 import lark
 from lark import Lark, Token, Transformer, v_args
@@ -60,22 +61,31 @@ class _Unpaired:
 
 
 class _ToModel(Transformer):
-    def __init__(self, file: str):
+    """Tree -> model objects. A piece of a file parsed alone starts at (first_line, first_column)
+    of the file: its positions are shifted there."""
+
+    def __init__(self, file: str, first_line: int = 1, first_column: int = 1):
         super().__init__()
         self.file = file
+        self.line_shift, self.column_shift = first_line - 1, first_column - 1
+
+    def _at(self, line: int, column: int) -> Location:
+        if line == 0:   # lark gives an empty rule no position
+            return Location(self.file, 0, 0)
+        return Location(self.file, line + self.line_shift, column + (self.column_shift if line == 1 else 0))
 
     def _loc(self, item) -> Location:
         if isinstance(item, Token):
-            return Location(self.file, item.line, item.column)
+            return self._at(item.line, item.column)
         meta = item
-        return Location(self.file, getattr(meta, "line", 0), getattr(meta, "column", 0))
+        return self._at(getattr(meta, "line", 0), getattr(meta, "column", 0))
 
     @staticmethod
     def _text(token: Token) -> str:
         return str(token)[1:-1]
 
     def _string_loc(self, token: Token) -> Location:
-        return Location(self.file, token.line, token.column + 1)
+        return self._at(token.line, token.column + 1)
 
     # atoms and bonds
     def mapped_atom(self, items):
@@ -205,20 +215,25 @@ class _ToModel(Transformer):
         return ("product", Checkpoint(self._text(items[-1]), len(items) == 2, self._loc(meta)))
 
     def start(self, items):
-        fields: dict = {"title": None, "caption": None, "product": None}
-        species, steps, after_product = [], [], []
-        for item in items:
-            if fields["product"] is not None and (isinstance(item, Step) or (isinstance(item, tuple) and item[0] == "product")):
-                after_product.append(item.loc if isinstance(item, Step) else item[1].loc)
-                continue
-            if isinstance(item, Species):
-                species.append(item)
-            elif isinstance(item, Step):
-                steps.append(item)
-            else:
-                fields[item[0]] = item[1]
-        return Mechanism(fields["title"], fields["caption"], tuple(species), tuple(steps), fields["product"],
-                         self.file, tuple(after_product))
+        return items
+
+
+def _assemble(items, file: str) -> Mechanism:
+    """The statements of a file, in order, as one Mechanism."""
+    fields: dict = {"title": None, "caption": None, "product": None}
+    species, steps, after_product = [], [], []
+    for item in items:
+        if fields["product"] is not None and (isinstance(item, Step) or (isinstance(item, tuple) and item[0] == "product")):
+            after_product.append(item.loc if isinstance(item, Step) else item[1].loc)
+            continue
+        if isinstance(item, Species):
+            species.append(item)
+        elif isinstance(item, Step):
+            steps.append(item)
+        else:
+            fields[item[0]] = item[1]
+    return Mechanism(fields["title"], fields["caption"], tuple(species), tuple(steps), fields["product"],
+                     file, tuple(after_product))
 
 
 class _LanguageSlip(Exception):
@@ -388,6 +403,37 @@ def parse(text: str, file: str = "<text>") -> Mechanism:
     if "\x00" in text:
         raise MechanismError([Diagnostic("AR100", "file contains NUL bytes: not a text file",
                                          Location(file, 1, 1), hint="mechanism files are plain UTF-8 text")])
+    try:
+        items = [item for start, end, line, column in _pieces(text)
+                 for item in _ToModel(file, line, column).transform(_parser().parse(text[start:end]))]
+    except (UnexpectedInput, VisitError):
+        items = _whole(text, file)   # the one true account of what is wrong, with its position
+    return _assemble(items, file)
+
+
+# A file is parsed in pieces of this many steps, each ending just after a step's `end`: the parse
+# tree of a whole long file costs several times the memory of its model. A piece that fails is no
+# verdict (a cut may fall inside a statement); the whole file is parsed again to report it.
+_PIECE_STEPS = 64
+_PIECE_BREAK = re.compile(r'"[^"\n]*"|(?<![^\s])#[^\n]*|\bend(?=\s)')
+
+
+def _pieces(text: str) -> Iterator[tuple[int, int, int, int]]:
+    """(start, end, line, column) of each piece: character offsets, and where the piece starts in
+    the file. A cut falls only after an `end` followed by white space, so that no token spans it."""
+    start, line, steps = 0, 1, 0
+    for match in _PIECE_BREAK.finditer(text):
+        if match.group() != "end":
+            continue
+        steps += 1
+        if steps == _PIECE_STEPS:
+            yield start, match.end(), line, start - (text.rfind("\n", 0, start) + 1) + 1
+            line += text.count("\n", start, match.end())
+            start, steps = match.end(), 0
+    yield start, len(text), line, start - (text.rfind("\n", 0, start) + 1) + 1
+
+
+def _whole(text: str, file: str) -> list:
     try:
         tree = _parser().parse(text)
     except UnexpectedInput as exc:

@@ -360,3 +360,45 @@ def test_no_writable_cache_folder_still_parses(tmp_path):
     blocker = tmp_path / "file"
     blocker.write_text("a file where the cache folder would go")
     assert parse_with_cache_home(blocker) == "1 3"
+
+
+# --- long files are parsed in pieces -------------------------------------------------------------
+
+_CUT_HAZARDS = '''species water = "[OH2:1]"   # a comment that says end
+species hydroxide = "[OH-:2]"
+step "an end to it" over "end" :O2 -> H(O1)
+    O1-H -> O1
+end
+# end of the first step; the next one starts on the same line as its comment
+step "back" :O1 -> H(O2) O2-H -> O2 end step "again" :O2 -> H(O1)
+  O1-H -> O1 end
+product "[OH2:1].[OH-:2]"
+'''
+
+
+@pytest.mark.parametrize("piece_steps", [1, 2, 64])
+def test_a_file_parsed_in_pieces_equals_the_file_parsed_whole(monkeypatch, piece_steps):
+    """The pieces are cut after an `end`; the model, locations included, must be the one the whole
+    file gives (the whole-file parse is the reference: it is the grammar applied as written)."""
+    from pathlib import Path
+
+    from arrows import language
+    monkeypatch.setattr(language, "_PIECE_STEPS", piece_steps)
+    gallery = sorted((Path(__file__).resolve().parent.parent / "gallery").glob("*.mech"))
+    texts = [_CUT_HAZARDS] + [p.read_text(encoding="utf-8") for p in gallery]
+    for text in texts:
+        assert parse(text, "f.mech") == language._assemble(language._whole(text, "f.mech"), "f.mech")
+    assert len(parse(_CUT_HAZARDS).steps) == 3
+
+
+def test_a_slip_in_a_piece_is_reported_as_in_the_whole_file(monkeypatch):
+    from arrows import language
+    monkeypatch.setattr(language, "_PIECE_STEPS", 1)
+    text = _CUT_HAZARDS.replace("O2-H -> O2 end", "O2-H -> O2", 1)   # the second step is left open
+    with pytest.raises(MechanismError) as piecewise:
+        parse(text, "f.mech")
+    monkeypatch.setattr(language, "_PIECE_STEPS", 10_000)
+    with pytest.raises(MechanismError) as whole:
+        parse(text, "f.mech")
+    assert piecewise.value.diagnostics == whole.value.diagnostics
+    assert piecewise.value.diagnostics[0].loc.line == 7
