@@ -408,3 +408,27 @@ def test_ring_closing_at_a_chain_atom_is_drawn_open():
     after = {a.index: a.position for a in scene.panels[2].atoms}
     assert 1.5 <= _distance(before[i], before[j]) / scene.bond_length <= 2.6
     assert abs(_distance(after[i], after[j]) / scene.bond_length - 1.0) < 0.02
+
+
+def test_cycloaddition_reads_left_to_right_with_heads_at_the_atoms_they_reach():
+    """A Diels-Alder is drawn as chemists draw it (common practice in organic chemistry texts):
+    the diene on the left, open towards the dienophile, which stands upright on its right, so
+    the three arrows run round the forming ring; an arrow into a forming bond ends next to the
+    atom that bond reaches (within half a bond length), not in the middle of the gap."""
+    path = ROOT / "gallery" / "13-diels-alder.mech"
+    trace, _, scene = _scene(path.read_text(encoding="utf-8"), path.name)
+    panel = scene.panels[0]
+    bl = scene.bond_length
+    where = {a.index: a.position for a in panel.atoms}
+    mapped = {a.GetAtomMapNum(): a.GetIdx() for a in trace.steps[0].before.mol.GetAtoms() if a.GetAtomMapNum()}
+    diene = [where[mapped[m]] for m in (1, 2, 3, 4)]
+    c5, c6 = where[mapped[5]], where[mapped[6]]
+    assert (c5[0] + c6[0]) / 2 - max(x for x, _ in diene) >= 0.8 * bl
+    assert abs(c5[0] - c6[0]) <= math.sin(math.radians(20)) * bl          # upright
+    middle = sum(y for _, y in diene) / 4
+    assert abs((c5[1] + c6[1]) / 2 - middle) <= 0.25 * bl                  # level with the diene
+    into_gap = [a for a in panel.arrows if _distance(where[a.sink_atoms[0]], where[a.sink_atoms[1]]) > 1.2 * bl]
+    assert len(into_gap) == 2
+    for arrow in into_gap:
+        reached, = (i for i in arrow.sink_atoms if i not in arrow.source_atoms)
+        assert _distance(arrow.tip, where[reached]) <= 0.5 * bl, arrow.move

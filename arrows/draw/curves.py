@@ -32,7 +32,7 @@ _SAMPLES = 16
 _ANGLES = (math.radians(34), math.radians(58))
 _SHORT_ANGLES = (math.radians(40), math.radians(70), math.radians(105))
 _KEEP = 4          # candidates per arrow that enter the joint choice
-_GAP_REACH = 0.75  # bond lengths: farthest a head into a forming bond stops from the atom it reaches
+_GAP_REACH = 0.45  # bond lengths: farthest a head into a forming bond stops from the atom it reaches
 _T = np.linspace(0.0, 1.0, _SAMPLES + 1)
 _BERNSTEIN = np.stack([(1 - _T) ** 3, 3 * _T * (1 - _T) ** 2, 3 * _T ** 2 * (1 - _T), _T ** 3])
 

@@ -449,7 +449,8 @@ class _LayoutBuilder:
         other with the forming bonds open, about CYCLOADDITION_GAP bond lengths, until the step that
         makes them: the diene s-cis and the dienophile across its termini, as chemists draw it, so
         the arrows into the forming bonds have room. One side moves, as a whole, only if the
-        forming step touches every atom of it; the smaller such side moves."""
+        forming step touches every atom of it; the smaller such side moves, and the depiction is
+        turned so that it waits on the right (a dienophile upright beside the diene)."""
         cluster = self.clusters[self.cluster_of[bonds[0][0]]]
         formed = [k for k in range(self.n) if all(b in self.bonds_in[k] for b in bonds)]
         if not formed or formed[0] == 0:
@@ -468,9 +469,11 @@ class _LayoutBuilder:
             return
         _, _, atoms, side, other = min(choices)
         ends = [(i, j) if i in side else (j, i) for i, j in bonds]
-        mine = sum(local[i] for i, _ in ends) / len(ends)
-        theirs = sum(local[j] for _, j in ends) / len(ends)
-        away = _unit(mine - theirs)
+        # The scheme reads left to right: the whole depiction is turned so that the partner that
+        # moves in waits on the right, its forming bonds pointing back at the other across the gap.
+        turn = _unit(sum(local[i] for i, _ in ends) - sum(local[j] for _, j in ends)).conjugate()
+        cluster.local = local = {a: p * turn for a, p in local.items()}
+        away = 1 + 0j
         for step_out in range(1, 101):
             offset = away * 0.02 * step_out
             mean = sum(abs(local[i] + offset - local[j]) for i, j in ends) / len(ends)
