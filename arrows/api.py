@@ -94,3 +94,14 @@ def check_file(path: str | Path) -> tuple[Trace | None, list[Diagnostic]]:
     except MechanismError as exc:
         return None, exc.diagnostics
     return check(mechanism)
+
+
+def diagnose_file(path: str | Path) -> list[Diagnostic]:
+    """check_file's diagnostics without the trace: a long file's steps and states are each let go
+    once checked, so the memory does not grow with the number of steps."""
+    from .checks import check_streaming
+    try:
+        mechanism = load(path, steps_on_demand=True)
+    except MechanismError as exc:
+        return exc.diagnostics
+    return check_streaming(mechanism)

@@ -9,6 +9,8 @@ import sys
 from functools import lru_cache
 from importlib import resources
 from pathlib import Path
+from collections.abc import Sequence
+from dataclasses import replace
 from typing import Iterator, Optional
 
 import lark
@@ -395,20 +397,30 @@ def syntax_diagnostic(exc: UnexpectedInput, text: str, file: str) -> Diagnostic:
                       hint=_hint_for(exc, text, found))
 
 
-def parse(text: str, file: str = "<text>") -> Mechanism:
-    """Parse mechanism text. Raises MechanismError (with located diagnostics) on bad input."""
+def parse(text: str, file: str = "<text>", steps_on_demand: bool = False) -> Mechanism:
+    """Parse mechanism text. Raises MechanismError (with located diagnostics) on bad input.
+
+    With steps_on_demand, a long text's steps are not kept: `steps` parses them again, piece by
+    piece, each time it is read (see StepsOnDemand), so that checking streams in constant memory."""
     if len(text) > MAX_FILE_BYTES:
         raise MechanismError([Diagnostic("AR100", f"file is {len(text)} bytes; the limit is {MAX_FILE_BYTES}",
                                          Location(file, 1, 1), hint="split the mechanism into several files")])
     if "\x00" in text:
         raise MechanismError([Diagnostic("AR100", "file contains NUL bytes: not a text file",
                                          Location(file, 1, 1), hint="mechanism files are plain UTF-8 text")])
+    pieces = list(_pieces(text))
+    if steps_on_demand and len(pieces) > _ON_DEMAND_FROM_PIECES:
+        return _parse_on_demand(text, file, pieces)
     try:
-        items = [item for start, end, line, column in _pieces(text)
-                 for item in _ToModel(file, line, column).transform(_parser().parse(text[start:end]))]
+        items = [item for piece in pieces for item in _piece_items(text, file, piece)]
     except (UnexpectedInput, VisitError):
         items = _whole(text, file)   # the one true account of what is wrong, with its position
     return _assemble(items, file)
+
+
+def _piece_items(text: str, file: str, piece: tuple[int, int, int, int]) -> list:
+    start, end, line, column = piece
+    return _ToModel(file, line, column).transform(_parser().parse(text[start:end]))
 
 
 # A file is parsed in pieces of this many steps, each ending just after a step's `end`: the parse
@@ -433,6 +445,60 @@ def _pieces(text: str) -> Iterator[tuple[int, int, int, int]]:
     yield start, len(text), line, start - (text.rfind("\n", 0, start) + 1) + 1
 
 
+# Below this many pieces the steps are kept even when asked for on demand: parsing twice would
+# cost more time than the memory it saves is worth.
+_ON_DEMAND_FROM_PIECES = 4
+
+
+class StepsOnDemand(Sequence):
+    """The steps of a long text, parsed again piece by piece each time they are read instead of
+    kept: a pass over 10,000 steps holds the model of one piece at a time."""
+
+    def __init__(self, text: str, file: str, pieces: list[tuple[tuple[int, int, int, int], int]], count: int):
+        self._text, self._file = text, file
+        self._pieces = pieces            # (piece, how many of its steps belong to the mechanism)
+        self._count = count
+
+    def __len__(self) -> int:
+        return self._count
+
+    def __iter__(self) -> Iterator[Step]:
+        for piece, take in self._pieces:
+            if take:
+                yield from [item for item in _piece_items(self._text, self._file, piece)
+                            if isinstance(item, Step)][:take]
+
+    def __getitem__(self, index):
+        return tuple(self)[index]
+
+    def __eq__(self, other) -> bool:
+        return isinstance(other, Sequence) and tuple(self) == tuple(other)
+
+    __hash__ = None
+
+
+def _parse_on_demand(text: str, file: str, pieces: list[tuple[int, int, int, int]]) -> Mechanism:
+    """parse(), with the steps left in the text: one pass reads everything else and counts them."""
+    head: list = []
+    kept: list[tuple[tuple[int, int, int, int], int]] = []
+    count, product_seen = 0, False
+    try:
+        for piece in pieces:
+            take = 0
+            for item in _piece_items(text, file, piece):
+                if isinstance(item, Step) and not product_seen:
+                    take += 1
+                    continue
+                product_seen = product_seen or (isinstance(item, tuple) and item[0] == "product")
+                head.append(item)
+            kept.append((piece, take))
+            count += take
+    except (UnexpectedInput, VisitError):
+        return _assemble(_whole(text, file), file)
+    mechanism = _assemble(head, file)
+    return replace(mechanism, steps=StepsOnDemand(text, file, kept, count))
+
+
 def _whole(text: str, file: str) -> list:
     try:
         tree = _parser().parse(text)
@@ -447,8 +513,9 @@ def _whole(text: str, file: str) -> list:
         raise
 
 
-def load(path: str | Path) -> Mechanism:
-    """Read and parse a .mech file. Raises MechanismError for unreadable or malformed files."""
+def load(path: str | Path, steps_on_demand: bool = False) -> Mechanism:
+    """Read and parse a .mech file. Raises MechanismError for unreadable or malformed files.
+    steps_on_demand as in parse()."""
     name = str(path)
     try:
         raw = Path(path).read_bytes()
@@ -462,5 +529,5 @@ def load(path: str | Path) -> Mechanism:
         col = exc.start - (raw.rfind(b"\n", 0, exc.start) + 1) + 1
         raise MechanismError([Diagnostic("AR100", "file is not UTF-8 text", Location(name, line, col),
                                          hint="save the file as UTF-8 plain text")]) from None
-    return parse(text, name)
+    return parse(text, name, steps_on_demand)
 

@@ -56,15 +56,18 @@ class Trace:
                 yield s.after
 
 
-def hydrogen_parents(mechanism: Mechanism) -> set[int]:
-    """Map numbers of atoms whose hydrogens some move names: those hydrogens become explicit atoms."""
+def hydrogen_parents_and_entries(mechanism: Mechanism) -> tuple[set[int], list[tuple[int, Species]]]:
+    """In one pass over the steps: the map numbers of atoms whose hydrogens some move names (those
+    hydrogens become explicit atoms), and the species that steps bring in with `uses`."""
     parents: set[int] = set()
+    entries: list[tuple[int, Species]] = []
 
     def visit(ref) -> None:
         if isinstance(ref, HydrogenOn):
             parents.add(ref.parent.map_number)
 
-    for step in mechanism.steps:
+    for index, step in enumerate(mechanism.steps):
+        entries.extend((index, s) for s in step.uses)
         for move in step.moves:
             src, sink = move.source, move.sink
             if isinstance(src, BondPair):
@@ -75,7 +78,7 @@ def hydrogen_parents(mechanism: Mechanism) -> set[int]:
                 visit(sink.bond.first), visit(sink.bond.second)
             else:
                 visit(sink.atom)
-    return parents
+    return parents, entries
 
 
 def species_mol(species: Species, explicit_h_on: set[int]) -> tuple[Optional[Chem.Mol], Optional[Diagnostic]]:
@@ -151,13 +154,12 @@ class Replay:
         """Every species up front, `uses` ones included, so that every bad SMILES and duplicate
         is reported at once."""
         mechanism, diags = self.mechanism, self.diagnostics
-        explicit_h_on = hydrogen_parents(mechanism)
+        explicit_h_on, entries = hydrogen_parents_and_entries(mechanism)
         names: dict[str, Location] = {}
         seen_maps: dict[int, Location] = {}
         loaded: dict[int, Chem.Mol] = {}
         entered_later: dict[int, int] = {}
-        declared = [(None, s) for s in mechanism.species] + [
-            (i, s) for i, step in enumerate(mechanism.steps) for s in step.uses]
+        declared = [(None, s) for s in mechanism.species] + entries
         for position, (step_index, sp) in enumerate(declared):
             if sp.name in names:
                 diags.append(Diagnostic("AR108", f"the name `{sp.name}` is already used (line {names[sp.name].line})",

@@ -174,21 +174,25 @@ def startup(mech_file: Path, repeat: int) -> float:
 
 # --- (c) memory ----------------------------------------------------------------------------------
 
+# What `arrows check FILE` does (arrows.api.diagnose_file), on one file of N steps or on N files of
+# one step each.
 _MEMORY_PROBE = """
-import resource, sys
+import resource, sys, tempfile
+from pathlib import Path
 sys.path.insert(0, {bench_dir!r})
 from bench_check import proton_shuttle
-from arrows import check_text
+from arrows.api import diagnose_file
 steps, mode = int(sys.argv[1]), sys.argv[2]
+folder = Path(tempfile.mkdtemp())
 if mode == "one":
-    text = proton_shuttle(steps)
-    trace, diags = check_text(text)
-    assert not [d for d in diags if d.severity == "error"]
+    path = folder / "long.mech"
+    path.write_text(proton_shuttle(steps))
+    assert not [d for d in diagnose_file(path) if d.severity == "error"]
 else:
-    one = proton_shuttle(1)
+    path = folder / "short.mech"
+    path.write_text(proton_shuttle(1))
     for _ in range(steps):
-        trace, diags = check_text(one)
-        assert not [d for d in diags if d.severity == "error"]
+        assert not [d for d in diagnose_file(path) if d.severity == "error"]
 print(resource.getrusage(resource.RUSAGE_SELF).ru_maxrss)
 """
 

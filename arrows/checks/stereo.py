@@ -84,9 +84,11 @@ class StereoChanges(Check):
 
     def __init__(self) -> None:
         self.touched: set[int] = set()
+        self.last_loc = None
 
     def step(self, st: StepTrace, context) -> Iterator[Diagnostic]:
         self.touched.update(st.change.touched_atoms)
+        self.last_loc = st.step.loc
         made, lost = step_stereo(st, context.views)
         if not made and not lost:
             return
@@ -100,12 +102,14 @@ class StereoChanges(Check):
                          atoms=tuple(label(i) for e in made + lost for i in e.atoms))
 
     def finish(self, end: Ending, context) -> Iterator[Diagnostic]:
+        if not end.steps_replayed:
+            return   # no step: the mechanism makes nothing to count
         many = [p for p in product_stereo(end.final, self.touched, context.views) if (p.stereoisomers or 0) > 1]
         if not many:
             return
         mechanism = end.mechanism
-        loc = mechanism.product.loc if mechanism.product else mechanism.steps[-1].loc
+        loc = mechanism.product.loc if mechanism.product else self.last_loc   # a final state: every step was seen
         label = end.final.label
         text = "; ".join(f"{p.smiles} ({_said(list(p.elements), label)}): {p.stereoisomers} stereoisomers can form"
                          for p in many)
-        yield Diagnostic("AR602", f"with no stereocontrol, {text}", loc, step=len(mechanism.steps) - 1)
+        yield Diagnostic("AR602", f"with no stereocontrol, {text}", loc, step=end.steps_replayed - 1)

@@ -1,6 +1,7 @@
 """Checks on the shape of the mechanism text itself."""
 from __future__ import annotations
 
+from itertools import islice
 from typing import Iterator
 
 from ..diagnostics import Diagnostic
@@ -34,9 +35,17 @@ class StepsHaveMoves(Check):
     name = "steps have moves"
     codes = ("AR506",)
 
+    def step(self, st, context) -> Iterator[Diagnostic]:
+        return self._judge(st.index, st.step)
+
     def finish(self, end: Ending, context) -> Iterator[Diagnostic]:
-        # Every step of the text, also those after a step the replay could not apply.
-        for index, step in enumerate(end.mechanism.steps):
-            if not step.moves:
-                yield Diagnostic("AR506", f'step "{step.label}" names no electron moves', step.loc,
-                                 hint="add the arrows of this step, or merge it with its neighbour", step=index)
+        # The steps after one the replay could not apply (the text is read again only then).
+        if end.steps_replayed < len(end.mechanism.steps):
+            for index, step in islice(enumerate(end.mechanism.steps), end.steps_replayed, None):
+                yield from self._judge(index, step)
+
+    @staticmethod
+    def _judge(index: int, step) -> Iterator[Diagnostic]:
+        if not step.moves:
+            yield Diagnostic("AR506", f'step "{step.label}" names no electron moves', step.loc,
+                             hint="add the arrows of this step, or merge it with its neighbour", step=index)

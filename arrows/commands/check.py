@@ -5,7 +5,7 @@ import sys
 
 import click
 
-from ..api import check_file
+from ..api import diagnose_file
 from ..diagnostics import ERROR, WARNING, to_json
 
 
@@ -43,7 +43,7 @@ def check_command(files, fmt, strict, quiet, jsonl, output, jobs, cluster, pka_g
     click.get_current_context().call_on_close(set_pka_gap(pka_gap))
     everything, unreadable, failing = [], False, False
     for path in files:
-        _, diags = check_file(path)
+        diags = diagnose_file(path)
         if any(d.code == "AR100" for d in diags):
             unreadable = True
         if any(d.severity == ERROR or (strict and d.severity == WARNING) for d in diags):
