@@ -432,3 +432,41 @@ def test_cycloaddition_reads_left_to_right_with_heads_at_the_atoms_they_reach():
     for arrow in into_gap:
         reached, = (i for i in arrow.sink_atoms if i not in arrow.source_atoms)
         assert _distance(arrow.tip, where[reached]) <= 0.5 * bl, arrow.move
+
+
+def _proton_transfers(scene):
+    """(panel, arrow, distance in bond lengths) for every arrow from a lone pair to a hydrogen
+    it takes: from the atom whose lone pair moves to that hydrogen."""
+    out = []
+    for panel in scene.panels:
+        where = {a.index: a.position for a in panel.atoms}
+        element = {a.index: a.element for a in panel.atoms}
+        for arrow in panel.arrows:
+            if arrow.source_kind != "lone_pair" or len(arrow.sink_atoms) != 2:
+                continue
+            base = arrow.source_atoms[0]
+            hydrogen = [i for i in arrow.sink_atoms if element.get(i) == "H" and i != base]
+            if len(hydrogen) == 1 and base in where and hydrogen[0] in where:
+                out.append((panel.index, arrow.move, _distance(where[base], where[hydrogen[0]]) / scene.bond_length))
+    return out
+
+
+@pytest.mark.parametrize("text,name", _mechanisms())
+def test_proton_transfer_arrows_have_room(text, name):
+    """A base about to take a proton waits at least 1.4 bond lengths from that hydrogen, so the
+    curved arrow between them has room to bend (common practice in organic chemistry texts)."""
+    _, _, scene = _scene(text, name)
+    for panel, move, distance in _proton_transfers(scene):
+        assert distance >= 1.4, (panel, move, distance)
+
+
+def test_acetal_proton_shuttle_stays_close():
+    """Acetal formation: the hydronium and water that shuttle protons sit no more than 2.5
+    bond lengths from the atom they protonate or deprotonate, so each proton-transfer arrow is
+    short and does not wander across the molecule (common practice in organic chemistry texts)."""
+    path = ROOT / "gallery" / "10-acetal-formation.mech"
+    _, _, scene = _scene(path.read_text(encoding="utf-8"), path.name)
+    transfers = _proton_transfers(scene)
+    assert len(transfers) == 4
+    for panel, move, distance in transfers:
+        assert distance <= 2.5 + 1e-6, (panel, move, distance)

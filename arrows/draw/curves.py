@@ -308,6 +308,12 @@ class ArrowPlanner:
             mine = np.array([[src.kind == "dots" and m in src.atoms for m in owners] for src in sources],
                             dtype=bool)[owner][:, None, :]
             cost += 30.0 * (hit & inner[:, :, None] & ~mine).sum(axis=(1, 2))
+            # The head's barbs spread beyond the shaft: neither may sit on a charge sign or dots.
+            arrive = np.array([_unit(c.tip - c.p2) for c in candidates])[:, None]
+            barbs = tip - arrive * self.head_length + arrive * 1j * np.array([0.5, -0.5]) * self.head_width
+            bx, by = barbs.real[:, :, None], barbs.imag[:, :, None]
+            hit = (bx >= ob.marks[:, 0]) & (bx <= ob.marks[:, 2]) & (by >= ob.marks[:, 1]) & (by <= ob.marks[:, 3])
+            cost += 30.0 * (hit & ~mine).sum(axis=(1, 2))
         if ob.bond_pairs:
             weights = []
             for src, snk, own in zip(sources, sinks, owns):

@@ -41,6 +41,7 @@ CYCLOADDITION_GAP = 1.8
 # other, so the curved arrow between them has room to bend.
 APPROACH = 2.2
 _CLEARANCE = 1.2     # nearest approach allowed between atoms of separately placed clusters
+_HYDROGEN_ROOM = 0.85   # nearest approach of any other atom to a travelling hydrogen
 _WAITING_CLEARANCE = 1.5   # a molecule waiting its turn keeps further clear of the arrows at work
 _COMPASS = np.exp(1j * np.arange(36) * np.pi / 18)     # directions tried, every 10 degrees
 _SEVENTY = math.radians(70)
@@ -707,6 +708,7 @@ class _LayoutBuilder:
         near = np.array([q for a, q in others.items() if a != anchor], dtype=complex)
         local = np.array(list(cluster.local.values()), dtype=complex) - cluster.local[mover]
         options = _BOND_OPTIONS if kind == "bond" else _HOP_OPTIONS
+        hydrogen_on_mover = hydrogen is not None and kind == "hop" and self._holder(k, hydrogen) == mover
         best = None
         # In order of preference; the first that keeps its distance from everything wins.
         for penalty, turn, spin, extra in options:
@@ -715,6 +717,9 @@ class _LayoutBuilder:
             target = anchor_at + direction * (distance + extra)
             moved = target + local * rotation
             gap = float(np.abs(moved[:, None] - near[None, :]).min()) if len(near) else 9.0
+            if hydrogen_on_mover and len(near):
+                # The hydrogen it brings needs room too, though less than a whole molecule.
+                gap = min(gap, float(np.abs(target - direction - near).min()) + _CLEARANCE - _HYDROGEN_ROOM)
             if best is not None and min(gap, _CLEARANCE) <= best[0]:
                 continue
             if any(_inside(complex(p), poly) for p in moved for poly in polygons):
@@ -847,41 +852,61 @@ class _LayoutBuilder:
                         if h in self.exists[k]:
                             self.positions[k][h] = self._free_proton(h, k)
         for h, runs in sorted(self.residences.items()):
-            for r in runs:
-                self._untangle(r)
+            for n in range(len(runs)):
+                self._untangle(runs, n)
 
-    def _untangle(self, r: _Residence) -> None:
-        """Turn a travelling hydrogen that lands too close to another atom to the roomiest
-        direction nearby, the same in every panel it stays on its holder."""
-        panels = [k for k in range(r.first, r.last + 1) if r.holder in self.positions[k] and r.hydrogen in self.positions[k]]
-        if not panels or r.direction is None:
+    def _untangle(self, runs: list[_Residence], n: int) -> None:
+        """Turn a travelling hydrogen that lands too close to another atom, or far from (or
+        cramped against) the atom it hops to next, to the best direction nearby, the same in
+        every panel it stays on its holder: room first, then about TRANSFER_GAP from that
+        partner, so the arrow that takes it is neither cramped nor long. Room counts in the
+        panels that draw it (next to the steps that move it)."""
+        r = runs[n]
+        stay = [k for k in range(r.first, r.last + 1) if r.holder in self.positions[k] and r.hydrogen in self.positions[k]]
+        if not stay or r.direction is None:
             return
+        shown = [k for k in stay if r.hydrogen in self.touched[k] or (k > 0 and r.hydrogen in self.touched[k - 1])]
+        panels = shown or stay
 
-        # Other atoms relative to the holder, over every panel of the stay (duplicates dropped).
+        # Other atoms relative to the holder, over those panels (duplicates dropped).
         relative = np.array(sorted({p - self.positions[k][r.holder] for k in panels
                                     for a, p in self.positions[k].items() if a not in (r.hydrogen, r.holder)},
                                    key=lambda z: (z.real, z.imag)), dtype=complex)
+        following = runs[n + 1] if n + 1 < len(runs) else None
+        partner = None
+        if (following is not None and following.holder is not None and following.first == r.last + 1
+                and r.last in stay and following.holder in self.positions[r.last]):
+            partner = self.positions[r.last][following.holder] - self.positions[r.last][r.holder]
 
         def room(direction: complex) -> float:
             return float(np.abs(relative - direction).min()) if len(relative) else math.inf
 
-        if room(r.direction) >= 0.85:
+        def miss(direction: complex) -> float:
+            """How far the hydrogen is from a comfortable hop to its next partner."""
+            if partner is None:
+                return 0.0
+            reach = abs(partner - direction)
+            return max(0.0, TRANSFER_GAP - 0.1 - reach, reach - TRANSFER_GAP - 0.4)
+
+        if room(r.direction) >= _HYDROGEN_ROOM and miss(r.direction) == 0.0:
             return
-        bonds = [_unit(self.positions[panels[0]][n] - self.positions[panels[0]][r.holder])
-                 for n in self.neighbours[r.holder] if n != r.hydrogen and n in self.positions[panels[0]]]
+        bonds = [_unit(self.positions[panels[0]][x] - self.positions[panels[0]][r.holder])
+                 for x in self.neighbours[r.holder] if x != r.hydrogen and x in self.positions[panels[0]]]
         polygons = [[self.positions[k][a] for a in ring] for k in panels for ring in self._closed_rings(k)]
-        best, best_score = r.direction, room(r.direction)
+        # Clear of every atom first; among those, room and a comfortable hop.
+        best, best_score = r.direction, (room(r.direction) >= _HYDROGEN_ROOM,
+                                         min(room(r.direction), 1.2) + 0.1 - miss(r.direction))
         for step in range(24):
             d = cmath.rect(1.0, step * math.pi / 12)
             if any(abs(cmath.phase(d / b)) < math.radians(35) for b in bonds):
                 continue
             if any(_inside(self.positions[panels[0]][r.holder] + d, poly) for poly in polygons):
                 continue
-            score = min(room(d), 1.2) + 0.1 * (d / r.direction).real
-            if score > best_score + 0.05:
+            score = (room(d) >= _HYDROGEN_ROOM, min(room(d), 1.2) + 0.1 * (d / r.direction).real - miss(d))
+            if score[0] > best_score[0] or (score[0] == best_score[0] and score[1] > best_score[1] + 0.05):
                 best, best_score = d, score
         r.direction = best
-        for k in panels:
+        for k in stay:
             self.positions[k][r.hydrogen] = self.positions[k][r.holder] + best
 
     def _hydrogen_direction(self, h: int, runs: list[_Residence], n: int) -> complex:
