@@ -1,4 +1,4 @@
-"""Text -> Mechanism. The grammar lives in grammar/mechanism.lark; one Transformer turns the
+"""Text -> Mechanism. The grammar lives in grammar/mechanism.lark; one tree walk (_ToModel) turns the
 tree into model objects, and parse failures become located AR101 diagnostics with a hint."""
 from __future__ import annotations
 
@@ -14,7 +14,7 @@ from dataclasses import replace
 from typing import Iterator, Optional
 
 import lark
-from lark import Lark, Token, Transformer, v_args
+from lark import Lark, Token, Tree
 from lark.exceptions import UnexpectedCharacters, UnexpectedEOF, UnexpectedInput, VisitError
 
 from .diagnostics import Diagnostic, MechanismError
@@ -49,7 +49,10 @@ def _cache_file(grammar: str) -> Optional[str]:
 @lru_cache(maxsize=1)
 def _parser() -> Lark:
     grammar = grammar_text()
-    options = dict(parser="lalr", propagate_positions=True, maybe_placeholders=False)
+    # Every token is kept in the tree (keywords included), so that _ToModel takes each node's position
+    # from its first token: lark's propagate_positions, which computes it for every node, doubled
+    # the cost of building the tree.
+    options = dict(parser="lalr", keep_all_tokens=True, maybe_placeholders=False)
     cache = _cache_file(grammar)
     # lark checks the grammar's hash stored in the file and rebuilds (and rewrites) on a mismatch.
     return Lark(grammar, cache=cache, **options) if cache else Lark(grammar, **options)
@@ -62,53 +65,57 @@ class _Unpaired:
         self.loc = loc
 
 
-class _ToModel(Transformer):
-    """Tree -> model objects. A piece of a file parsed alone starts at (first_line, first_column)
-    of the file: its positions are shifted there."""
+def _around_its_child(model: type):
+    """A rule method for a node that wraps its one child's model object, at the child's position."""
+    def build(self, children):
+        (child,) = children
+        return model(child, child.loc)
+    return build
+
+
+class _ToModel:
+    """Tree -> model objects, by a direct walk: each rule's children go to the method named after the
+    rule. The parser keeps every token, so a node's position is that of its first token, or the
+    Location of its first child's model object. A piece of a file parsed alone starts at
+    (first_line, first_column) of the file: its positions are shifted there."""
 
     def __init__(self, file: str, first_line: int = 1, first_column: int = 1):
-        super().__init__()
         self.file = file
         self.line_shift, self.column_shift = first_line - 1, first_column - 1
 
-    def _at(self, line: int, column: int) -> Location:
-        if line == 0:   # lark gives an empty rule no position
-            return Location(self.file, 0, 0)
-        return Location(self.file, line + self.line_shift, column + (self.column_shift if line == 1 else 0))
+    def transform(self, tree: Tree):
+        """The model of a tree. A slip raises VisitError around it, as lark's Transformer does."""
+        children = [self.transform(child) if isinstance(child, Tree) else child for child in tree.children]
+        try:
+            return getattr(self, tree.data)(children)
+        except Exception as exc:
+            raise VisitError(tree.data, tree, exc) from exc
 
-    def _loc(self, item) -> Location:
-        if isinstance(item, Token):
-            return self._at(item.line, item.column)
-        meta = item
-        return self._at(getattr(meta, "line", 0), getattr(meta, "column", 0))
+    def _at(self, token: Token, offset: int = 0) -> Location:
+        line = token.line
+        return Location(self.file, line + self.line_shift,
+                        token.column + offset + (self.column_shift if line == 1 else 0))
 
     @staticmethod
     def _text(token: Token) -> str:
-        return str(token)[1:-1]
-
-    def _string_loc(self, token: Token) -> Location:
-        return self._at(token.line, token.column + 1)
+        return token[1:-1]
 
     # atoms and bonds
-    def mapped_atom(self, items):
-        tok = items[0]
-        text = str(tok)
-        split = next(i for i, ch in enumerate(text) if ch.isdigit())
-        return AtomRef(text[:split], int(text[split:]), self._loc(tok))
+    def mapped_atom(self, children):
+        (token,) = children
+        split = 2 if token[1].islower() else 1   # ATOM is a capital, maybe a small letter, then digits
+        return AtomRef(token[:split], int(token[split:]), self._at(token))
 
-    @v_args(meta=True)
-    def hydrogen_on(self, meta, items):
-        parent = self.mapped_atom(items)
-        return HydrogenOn(parent, self._loc(meta))
+    def hydrogen_on(self, children):
+        hydrogen, _, atom, _ = children
+        return HydrogenOn(self.mapped_atom([atom]), self._at(hydrogen))
 
-    @v_args(meta=True)
-    def bare_hydrogen(self, meta, items):
-        return _Unpaired(self._loc(meta))
+    def bare_hydrogen(self, children):
+        return _Unpaired(self._at(children[0]))
 
-    @v_args(meta=True)
-    def bond(self, meta, items):
-        first, connector, second = items
-        loc = self._loc(meta)
+    def bond(self, children):
+        first, connector, second = children
+        loc = first.loc
         if isinstance(first, _Unpaired) and isinstance(second, _Unpaired):
             raise _LanguageSlip(first.loc, "a bond needs at least one named atom",
                                 "write the atom the hydrogen sits on, as in C3-H")
@@ -119,74 +126,57 @@ class _ToModel(Transformer):
         if first == second:
             raise _LanguageSlip(second.loc, f"a bond joins two different atoms; both ends here are {first}",
                                 "name the atom at the other end of the bond, as in C2=O3")
-        return BondRef(first, second, BOND_ORDERS[str(connector)], loc)
+        return BondRef(first, second, BOND_ORDERS[connector], loc)
 
     # sources and sinks
-    @v_args(meta=True)
-    def lone_pair_source(self, meta, items):
-        return LonePair(items[0], self._loc(meta))
+    def lone_pair_source(self, children):
+        colon, atom = children
+        return LonePair(atom, self._at(colon))
 
-    @v_args(meta=True)
-    def radical_source(self, meta, items):
-        return UnpairedElectron(items[1], self._loc(meta))
+    def radical_source(self, children):
+        dot, atom = children
+        return UnpairedElectron(atom, self._at(dot))
 
-    @v_args(meta=True)
-    def bond_source(self, meta, items):
-        return BondPair(items[0], self._loc(meta))
+    bond_source = _around_its_child(BondPair)
+    bare_atom_source = _around_its_child(BareAtom)
+    bond_sink = _around_its_child(BondSink)
+    atom_sink = _around_its_child(AtomSink)
 
-    @v_args(meta=True)
-    def bare_atom_source(self, meta, items):
-        return BareAtom(items[0], self._loc(meta))
-
-    @v_args(meta=True)
-    def bond_sink(self, meta, items):
-        return BondSink(items[0], self._loc(meta))
-
-    @v_args(meta=True)
-    def atom_sink(self, meta, items):
-        return AtomSink(items[0], self._loc(meta))
-
-    @v_args(meta=True)
-    def move(self, meta, items):
-        source, arrow, sink = items
-        return Move(source, sink, 2 if str(arrow) == "->" else 1, self._loc(meta))
+    def move(self, children):
+        source, arrow, sink = children
+        return Move(source, sink, 2 if arrow == "->" else 1, source.loc)
 
     # step parts: tagged tuples, gathered by `step`
-    def reversible(self, items):
+    def reversible(self, children):
         return ("kind", "reversible")
 
-    def resonance(self, items):
+    def resonance(self, children):
         return ("kind", "resonance")
 
-    def over(self, items):
-        return ("over", self._text(items[0]))
+    def over(self, children):
+        return ("over", self._text(children[1]))
 
-    def under(self, items):
-        return ("under", self._text(items[0]))
+    def under(self, children):
+        return ("under", self._text(children[1]))
 
-    @v_args(meta=True)
-    def uses(self, meta, items):
-        name, smiles = items
-        return ("uses", Species(str(name), self._text(smiles), self._loc(meta), self._string_loc(smiles)))
+    def uses(self, children):
+        return ("uses", self.species(children))
 
-    @v_args(meta=True)
-    def releases(self, meta, items):
-        atom = items[0]
+    def releases(self, children):
+        atom = children[1]
         if not isinstance(atom, AtomRef):
             raise _LanguageSlip(atom.loc, "`releases` takes a mapped heavy atom",
                                 "name any mapped atom of the leaving fragment, e.g. releases O9")
         return ("releases", atom)
 
-    @v_args(meta=True)
-    def expect(self, meta, items):
-        return ("expect", Checkpoint(self._text(items[-1]), len(items) == 2, self._loc(meta)))
+    def expect(self, children):
+        return ("expect", self._checkpoint(children))
 
-    @v_args(meta=True)
-    def step(self, meta, items):
-        label = self._text(items[0])
+    def step(self, children):
+        label = self._text(children[1])
         fields: dict = {"kind": "forward", "over": None, "under": None}
         uses, moves, releases, expects = [], [], [], []
-        for item in items[1:]:
+        for item in children[2:-1]:   # between the label and `end`
             if isinstance(item, Move):
                 moves.append(item)
             elif item[0] == "uses":
@@ -198,26 +188,28 @@ class _ToModel(Transformer):
             else:
                 fields[item[0]] = item[1]
         return Step(label, fields["kind"], fields["over"], fields["under"], tuple(uses), tuple(moves),
-                    tuple(releases), tuple(expects), self._loc(meta))
+                    tuple(releases), tuple(expects), self._at(children[0]))
 
     # top level
-    def title(self, items):
-        return ("title", self._text(items[0]))
+    def title(self, children):
+        return ("title", self._text(children[1]))
 
-    def caption(self, items):
-        return ("caption", self._text(items[0]))
+    def caption(self, children):
+        return ("caption", self._text(children[1]))
 
-    @v_args(meta=True)
-    def species(self, meta, items):
-        name, smiles = items
-        return Species(str(name), self._text(smiles), self._loc(meta), self._string_loc(smiles))
+    def species(self, children):
+        keyword, name, _, smiles = children
+        return Species(str(name), self._text(smiles), self._at(keyword), self._at(smiles, 1))
 
-    @v_args(meta=True)
-    def product(self, meta, items):
-        return ("product", Checkpoint(self._text(items[-1]), len(items) == 2, self._loc(meta)))
+    def product(self, children):
+        return ("product", self._checkpoint(children))
 
-    def start(self, items):
-        return items
+    def _checkpoint(self, children) -> Checkpoint:
+        """`product` or `expect`, maybe `all`, then the SMILES."""
+        return Checkpoint(self._text(children[-1]), len(children) == 3, self._at(children[0]))
+
+    def start(self, children):
+        return children
 
 
 def _assemble(items, file: str) -> Mechanism:
