@@ -15,14 +15,16 @@ from rdkit import Chem
 
 from .diagnostics import Diagnostic
 from .model import (AtomSink, BareAtom, BondPair, BondRef, HydrogenOn, Location, LonePair, Move, Step,
-                    UnpairedElectron, CONNECTORS)
+                    UnpairedElectron, CONNECTORS, frozen)
 from .rdkit_io import atom_list, valence_electrons
 
 _BOND_TYPES = {1: Chem.BondType.SINGLE, 2: Chem.BondType.DOUBLE, 3: Chem.BondType.TRIPLE}
-# Not FINDRADICALS: RDKit would give a singlet carbene or oxenium made by pair arrows two unpaired
-# electrons; ours are the odd non-bonding electrons set from the bookkeeping.
-_STATE_SANITIZE = (Chem.SanitizeFlags.SANITIZE_ALL ^ Chem.SanitizeFlags.SANITIZE_SETAROMATICITY
-                   ^ Chem.SanitizeFlags.SANITIZE_KEKULIZE ^ Chem.SanitizeFlags.SANITIZE_FINDRADICALS)
+# RDKit's valence check and computed properties (implicit hydrogens, explicit valence): what makes a
+# state a molecule. The rest of a full sanitization only perceives (rings, aromaticity, hybridization,
+# conjugation), which the judgements do on their own view (judgement/perception.py); not
+# FINDRADICALS, which would give a singlet carbene made by pair arrows two unpaired electrons: ours
+# are the odd non-bonding electrons set from the bookkeeping.
+_STATE_SANITIZE = Chem.SanitizeFlags.SANITIZE_PROPERTIES
 _ORDER_WORDS = {0: "none", 1: "single", 2: "double", 3: "triple"}
 
 
@@ -37,7 +39,7 @@ def pair(i: int, j: int) -> Pair:
     return (i, j) if i < j else (j, i)
 
 
-@dataclass(frozen=True)
+@frozen
 class ElectronState:
     """One moment of the mechanism. Atom indices are identities: atoms are only ever appended.
 
@@ -50,14 +52,14 @@ class ElectronState:
     released: frozenset[int] = frozenset()
     valence: tuple[int, ...] = ()
     bond_sums: tuple[int, ...] = ()
-    heavy_atoms: tuple[int, ...] = ()   # indices of the atoms that are not hydrogen
+    elements: tuple[int, ...] = ()      # atomic number per atom
 
     def __post_init__(self) -> None:
         # A step hands these on (the common case, checked cheaply); a new state derives them.
         if len(self.valence) != len(self.nonbonding):
-            atoms = atom_list(self.mol)
-            object.__setattr__(self, "valence", tuple(valence_electrons(a.GetAtomicNum()) for a in atoms))
-            object.__setattr__(self, "heavy_atoms", tuple(a.GetIdx() for a in atoms if a.GetAtomicNum() != 1))
+            elements = tuple(a.GetAtomicNum() for a in atom_list(self.mol))
+            object.__setattr__(self, "elements", elements)
+            object.__setattr__(self, "valence", tuple(valence_electrons(z) for z in elements))
         if len(self.bond_sums) != len(self.nonbonding):
             object.__setattr__(self, "bond_sums", tuple(_bond_sum(a) for a in atom_list(self.mol)))
 
@@ -105,7 +107,7 @@ def initial_nonbonding(mol: Chem.Mol) -> list[int]:
     return [valence_electrons(a.GetAtomicNum()) - a.GetFormalCharge() - _bond_sum(a) for a in atom_list(mol)]
 
 
-@dataclass(frozen=True)
+@frozen
 class ResolvedMove:
     """A move with its atoms resolved to indices, for drawing and analysis.
 
@@ -464,7 +466,7 @@ def _settle(state: ElectronState, step: Step, step_index: int, replay: _StepRepl
         nonbonding[i] += delta
     bond_sums = list(state.bond_sums)
 
-    work = Chem.RWMol(mol)
+    work = Chem.RWMol(mol)   # kept as the state's Mol: a copy to a read-only Mol would buy nothing
     for (i, j), electrons in new_bonds.items():
         before = replay.bond_before(i, j)
         bond_sums[i] += (electrons - before) // 2
@@ -481,19 +483,19 @@ def _settle(state: ElectronState, step: Step, step_index: int, replay: _StepRepl
 
     touched = sorted(set(replay.d_nonbonding) | {i for key in new_bonds for i in key})
     change.touched_atoms = touched
-    valence = state.valence
+    valence, elements, old_nonbonding = state.valence, state.elements, state.nonbonding
     for i in touched:
-        atom = work.GetAtomWithIdx(i)
         bonds = bond_sums[i]
         charge = valence[i] - nonbonding[i] - bonds
-        old_charge = state.valence[i] - state.nonbonding[i] - state.bond_sums[i]
+        old_charge = valence[i] - old_nonbonding[i] - state.bond_sums[i]
         if charge != old_charge:
             change.charges.append((i, old_charge, charge))
-        atom.SetFormalCharge(charge)
-        atom.SetNumRadicalElectrons(nonbonding[i] % 2)
+            work.GetAtomWithIdx(i).SetFormalCharge(charge)
+        if nonbonding[i] % 2 != old_nonbonding[i] % 2:
+            work.GetAtomWithIdx(i).SetNumRadicalElectrons(nonbonding[i] % 2)
         shell = nonbonding[i] + 2 * bonds
         change.shells[i] = shell
-        z = atom.GetAtomicNum()
+        z = elements[i]
         limit = 2 if z <= 2 else 8
         if shell > limit and z <= 10:
             label = state.label(i)
@@ -508,12 +510,12 @@ def _settle(state: ElectronState, step: Step, step_index: int, replay: _StepRepl
         return None, change, diags
     try:   # RDKit's own log of a failure is silenced by the caller (trace.replay); the message is in exc
         Chem.SanitizeMol(work, _STATE_SANITIZE)
+        Chem.FastFindRings(work)   # ring membership for the checks; full ring perception is the views' job
     except Exception as exc:
         diags.append(Diagnostic("AR304", f"RDKit rejects the structure after this step: {exc}", step.loc,
                                 "check charges and bond orders with `arrows trace`", step=step_index))
         return None, change, diags
-    return ElectronState(work.GetMol(), tuple(nonbonding), state.released, valence, tuple(bond_sums),
-                         state.heavy_atoms), change, diags
+    return ElectronState(work, tuple(nonbonding), state.released, valence, tuple(bond_sums), elements), change, diags
 
 
 def _first_move_touching(step: Step, replay: _StepReplay, atom: int) -> Location:

@@ -235,7 +235,7 @@ class Replay:
             released_now.extend(sorted(fragment))
             released |= fragment
         return ElectronState(after.mol, after.nonbonding, frozenset(released), after.valence, after.bond_sums,
-                            after.heavy_atoms), released_now
+                            after.elements), released_now
 
 
 def replay(mechanism: Mechanism) -> Trace:

@@ -11,7 +11,7 @@ from typing import Iterable, Optional
 from ..diagnostics import Diagnostic, sort_key
 from ..electrons import ElectronState
 from ..judgement.perception import RecentViews
-from ..model import Mechanism
+from ..model import Mechanism, frozen
 from ..trace import Replay, StepTrace, Trace
 
 
@@ -22,7 +22,7 @@ class Context:
     views: RecentViews = field(default_factory=RecentViews)
 
 
-@dataclass(frozen=True)
+@frozen
 class Ending:
     """The end of a replay, as the checks see it in `finish`."""
 

@@ -8,7 +8,6 @@ from dataclasses import dataclass
 from typing import Iterator, Optional
 
 from rdkit import Chem
-from rdkit.Chem import rdFMCS
 
 from ..diagnostics import Diagnostic
 from ..electrons import ElectronState, atom_label, order_word
@@ -105,6 +104,7 @@ def _alignment(written: Chem.Mol, derived: Chem.Mol) -> dict[int, int]:
               if a.GetAtomMapNum() and a.GetAtomMapNum() in by_map}
     if mapped:
         return mapped
+    from rdkit.Chem import rdFMCS   # only a mismatch is explained: spared on every clean check
     result = rdFMCS.FindMCS([written, derived], atomCompare=rdFMCS.AtomCompare.CompareElements,
                             bondCompare=rdFMCS.BondCompare.CompareAny, ringMatchesRingOnly=False,
                             completeRingsOnly=False, matchValences=False, timeout=2)

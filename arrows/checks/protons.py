@@ -9,13 +9,12 @@ from __future__ import annotations
 
 from contextlib import contextmanager
 from contextvars import ContextVar
-from dataclasses import dataclass
 from typing import Callable, Iterator, Optional
 
 from ..diagnostics import Diagnostic
 from ..judgement.acidity import Acidity, acidity_of
 from ..judgement.perception import Perceived, RecentViews
-from ..model import Location
+from ..model import Location, frozen
 from ..trace import StepTrace
 from . import Check
 
@@ -39,7 +38,7 @@ def pka_gap(value: float) -> Iterator[None]:
         _gap.reset(token)
 
 
-@dataclass(frozen=True)
+@frozen
 class ProtonTransfer:
     base_atom: int
     acid_atom: int

@@ -5,22 +5,22 @@ the species offers one), anything else a note AR601."""
 from __future__ import annotations
 
 from collections import deque
-from dataclasses import dataclass
-from typing import Iterator, Optional
+from typing import TYPE_CHECKING, Iterator, Optional
 
 from rdkit import Chem
 
 from ..diagnostics import Diagnostic
 from ..electrons import ElectronState, atom_label
-from ..model import Location
+from ..model import Location, frozen
 from ..judgement.baldwin import BALDWIN_1976, ClosureClass, classify, geometry_of, ring_path, verdict
-from ..judgement.closures import Closure, favoured_alternatives
-from ..judgement.sites import ENOLATE, NITROGEN, OXYGEN
 from ..trace import StepTrace
 from . import Check
 
+if TYPE_CHECKING:
+    from ..judgement.closures import Closure
 
-@dataclass(frozen=True)
+
+@frozen
 class StepClosure:
     """One ring closed by one step, by atom index."""
 
@@ -163,6 +163,7 @@ class RingClosures(Check):
         if kinds is None:
             return None
         state = _parent_state(list(self.recent) + [st.before], c.nucleophile, c.attacked)
+        from ..judgement.closures import favoured_alternatives   # only for a strained or disfavoured ring
         for option in favoured_alternatives(state.mol, *kinds):
             pairs = {(option.nucleophile.atom, option.electrophile.atom), *option.equivalent}
             if (c.nucleophile, c.attacked) in pairs:
@@ -172,6 +173,7 @@ class RingClosures(Check):
 
 
 def _site_kinds(state: ElectronState, c: StepClosure) -> Optional[tuple[str, str]]:
+    from ..judgement.sites import ENOLATE, NITROGEN, OXYGEN
     mol = state.mol
     element = mol.GetAtomWithIdx(c.nucleophile).GetAtomicNum()
     nucleophile = {8: OXYGEN, 7: NITROGEN}.get(element, ENOLATE if c.enol_partner is not None else None)
@@ -200,6 +202,7 @@ def _parent_state(states: list[ElectronState], x: int, y: int) -> ElectronState:
 
 
 def _describe(mol: Chem.Mol, option: Closure) -> str:
+    from ..judgement.sites import ENOLATE, NITROGEN, OXYGEN
     nu = atom_label(mol, option.nucleophile.atom)
     el = atom_label(mol, option.electrophile.atom)
     what = "enolate" if option.nucleophile.kind == ENOLATE else {OXYGEN: "oxygen", NITROGEN: "nitrogen"}.get(

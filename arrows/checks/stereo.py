@@ -2,7 +2,6 @@
 stereoisomers of the final product can form when the mechanism controls none of them (AR602)."""
 from __future__ import annotations
 
-from dataclasses import dataclass
 from typing import Iterator, Optional
 
 from rdkit import Chem
@@ -14,9 +13,10 @@ from ..electrons import ElectronState
 from ..judgement.perception import RecentViews
 from ..trace import StepTrace, Trace
 from . import Check, Ending
+from ..model import frozen
 
 
-@dataclass(frozen=True)
+@frozen
 class ProductStereo:
     smiles: str
     elements: tuple[StereoElement, ...]

@@ -9,18 +9,18 @@ for quantitative work.
 """
 from __future__ import annotations
 
-from dataclasses import dataclass
 from functools import lru_cache
 from typing import Optional
 
 from rdkit import Chem
+from ..model import frozen
 
 TEXTBOOK = "textbook aqueous pKa (memory)"
 NOT_LISTED = "textbook aqueous pKa (memory; not in the shared list)"
 COMMON_PRACTICE = "common practice: between methanol (15.5) and tert-butanol (18)"
 
 
-@dataclass(frozen=True)
+@frozen
 class Acidity:
     acid: str        # "water", "an alkane C-H"
     base: str        # "hydroxide", "an alkyl carbanion"

@@ -14,10 +14,10 @@ M. J. Lusch, Tetrahedron 1982, 38, 2939 (memory). A cell the papers do not state
 """
 from __future__ import annotations
 
-from dataclasses import dataclass
 from typing import Optional, Sequence
 
 from rdkit import Chem
+from ..model import frozen
 
 TET, TRIG, DIG = "tet", "trig", "dig"
 EXO, ENDO = "exo", "endo"
@@ -54,7 +54,7 @@ RULES_ENOLATE_1982: dict[tuple[str, str, str], dict[int, bool]] = {
 }
 
 
-@dataclass(frozen=True)
+@frozen
 class ClosureClass:
     size: int
     geometry: str
@@ -68,7 +68,7 @@ class ClosureClass:
         return f"{self.size}-{enol}{mode}{self.geometry}"
 
 
-@dataclass(frozen=True)
+@frozen
 class Verdict:
     favoured: Optional[bool]        # None: the rules say nothing about this class
     rule: Optional[str] = None      # BALDWIN_1976 or BALDWIN_LUSCH_1982

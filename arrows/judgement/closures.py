@@ -8,7 +8,7 @@ outcompete three- and four-membered ones; an aldehyde is a better electrophile t
 """
 from __future__ import annotations
 
-from dataclasses import dataclass, field, replace
+from dataclasses import field, replace
 from typing import Optional
 
 from rdkit import Chem
@@ -17,11 +17,12 @@ from .acidity import acidity_of, perceived
 from .baldwin import ClosureClass, Verdict, classify, ring_path, verdict
 from .sites import (ALKYL, AMIDE, CARBOXYLATE, ENOLATE, NITROGEN, NUCLEOPHILE_RANK, Electrophile, Nucleophile,
                     electrophiles, nucleophiles)
+from ..model import frozen
 
 FAVOURED, DISFAVOURED, NOT_COVERED = "favoured", "disfavoured", "not covered"
 
 
-@dataclass(frozen=True)
+@frozen
 class Closure:
     nucleophile: Nucleophile
     electrophile: Electrophile

@@ -87,7 +87,8 @@ class RecentViews:
         entry = self._views.get(key)
         if entry is None:
             # The state is held with its view, so its id cannot be reused while the entry lives.
-            entry = (state, perceive(state.mol, heavy=state.heavy_atoms))
+            heavy = tuple(i for i, z in enumerate(state.elements) if z != 1)
+            entry = (state, perceive(state.mol, heavy=heavy))
             self._views[key] = entry
             if len(self._views) > self.keep:
                 del self._views[next(iter(self._views))]

@@ -10,13 +10,13 @@ the Mol's own.
 """
 from __future__ import annotations
 
-from dataclasses import dataclass
 from functools import lru_cache
 from typing import Optional
 
 from rdkit import Chem
 
 from .baldwin import geometry_of
+from ..model import frozen
 
 ENOLATE, NITRILE_ANION, OXYGEN, CARBOXYLATE, NITROGEN = "enolate", "nitrile anion", "oxygen", "carboxylate", "amine"
 
@@ -29,7 +29,7 @@ ELECTROPHILE_RANK = {ALDEHYDE: 0, KETONE: 1, CONJUGATE: 1, ALKYL: 2, ESTER: 3, A
 NUCLEOPHILE_RANK = {ENOLATE: 0, NITRILE_ANION: 0, OXYGEN: 1, CARBOXYLATE: 1, NITROGEN: 2}
 
 
-@dataclass(frozen=True)
+@frozen
 class Nucleophile:
     atom: int
     kind: str
@@ -44,7 +44,7 @@ class Nucleophile:
                 NITROGEN: "amine lone pair"}[self.kind]
 
 
-@dataclass(frozen=True)
+@frozen
 class Electrophile:
     atom: int
     kind: str
