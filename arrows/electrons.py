@@ -39,7 +39,7 @@ def pair(i: int, j: int) -> Pair:
     return (i, j) if i < j else (j, i)
 
 
-@frozen
+@dataclass(frozen=True)   # generated __init__: one state per step, the shared one costs more
 class ElectronState:
     """One moment of the mechanism. Atom indices are identities: atoms are only ever appended.
 
