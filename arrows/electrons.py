@@ -9,13 +9,14 @@ through a move.
 from __future__ import annotations
 
 from dataclasses import dataclass, field
+from functools import lru_cache
 from typing import Optional
 
 from rdkit import Chem
 
 from .diagnostics import Diagnostic
 from .model import (AtomSink, BareAtom, BondPair, BondRef, HydrogenOn, Location, LonePair, Move, Step,
-                    UnpairedElectron, CONNECTORS, frozen)
+                    UnpairedElectron, CONNECTORS)
 from .rdkit_io import atom_list, valence_electrons
 
 _BOND_TYPES = {1: Chem.BondType.SINGLE, 2: Chem.BondType.DOUBLE, 3: Chem.BondType.TRIPLE}
@@ -26,6 +27,15 @@ _BOND_TYPES = {1: Chem.BondType.SINGLE, 2: Chem.BondType.DOUBLE, 3: Chem.BondTyp
 # are the odd non-bonding electrons set from the bookkeeping.
 _STATE_SANITIZE = Chem.SanitizeFlags.SANITIZE_PROPERTIES
 _ORDER_WORDS = {0: "none", 1: "single", 2: "double", 3: "triple"}
+
+
+@lru_cache(maxsize=None)
+def _atomic_number(symbol: str) -> int:
+    """-1 for a symbol that is no element (the atom is then reported as not matching)."""
+    try:
+        return Chem.GetPeriodicTable().GetAtomicNumber(symbol)
+    except RuntimeError:
+        return -1
 
 
 def order_word(order: int) -> str:
@@ -107,7 +117,7 @@ def initial_nonbonding(mol: Chem.Mol) -> list[int]:
     return [valence_electrons(a.GetAtomicNum()) - a.GetFormalCharge() - _bond_sum(a) for a in atom_list(mol)]
 
 
-@frozen
+@dataclass(frozen=True)   # generated __init__: several per step
 class ResolvedMove:
     """A move with its atoms resolved to indices, for drawing and analysis.
 
@@ -188,8 +198,8 @@ class _StepReplay:
             self.fail("AR104", f"no atom carries map number {ref.map_number} at this point", ref.loc, hint,
                       atoms=(str(ref),))
             raise _StepFailed
-        atom = self.state.mol.GetAtomWithIdx(index)
-        if atom.GetSymbol() != ref.element:
+        if self.state.elements[index] != _atomic_number(ref.element):
+            atom = self.state.mol.GetAtomWithIdx(index)
             self.fail("AR105", f"{ref} names atom {ref.map_number}, which is {atom.GetSymbol()}, not {ref.element}",
                       ref.loc, f"write {atom.GetSymbol()}{ref.map_number}", atoms=(str(ref),))
             raise _StepFailed
@@ -239,7 +249,7 @@ class _StepReplay:
 
     def source_atom(self, move: Move, ref) -> int:
         index = self.resolve(ref)
-        if self.state.mol.GetAtomWithIdx(index).GetAtomicNum() == 1:
+        if self.state.elements[index] == 1:
             hydrogen = self.state.label(index)
             parent = hydrogen[2:-1] if hydrogen.startswith("H(") else "X"
             base = str(move.sink.atom) if isinstance(move.sink, AtomSink) else "B"
