@@ -84,19 +84,23 @@ def hydrogen_parents_and_entries(mechanism: Mechanism) -> tuple[set[int], list[t
 def species_mol(species: Species, explicit_h_on: set[int]) -> tuple[Optional[Chem.Mol], Optional[Diagnostic]]:
     """A species as a Kekulé Mol whose hydrogen counts are fixed (never recomputed by RDKit), with
     explicit hydrogen atoms on the atoms whose hydrogens move."""
-    mol, reason, position = read_smiles(species.smiles)
+    # Without aromaticity perception: a Kekulé structure written by the author keeps its double bonds
+    # (the arrows name them); lower-case aromatic input is kekulized by RDKit.
+    mol, _, _ = read_smiles(species.smiles, sanitize=False)
+    try:
+        Chem.SanitizeMol(mol, Chem.SanitizeFlags.SANITIZE_ALL ^ Chem.SanitizeFlags.SANITIZE_SETAROMATICITY)
+        Chem.Kekulize(mol, clearAromaticFlags=True)
+    except Exception:   # RDKit's full reading says why, and where (read_smiles translates its message)
+        mol = None
     if mol is None:
+        _, reason, position = read_smiles(species.smiles)
+        reason = reason or "RDKit cannot write it in Kekulé form"
         loc = species.smiles_loc
         if position is not None:
             loc = Location(loc.file, loc.line, loc.column + position)
         return None, Diagnostic("AR102", f"RDKit cannot read the SMILES of {species.name}: {reason}", loc,
                                 hint="check brackets, ring-closure digits and charges; map numbers go inside "
                                      "brackets, e.g. [CH2:3]")
-    # Rebuild without aromaticity perception: a Kekulé structure written by the author keeps its
-    # double bonds (the arrows name them); lower-case aromatic input is kekulized by RDKit.
-    mol, _, _ = read_smiles(species.smiles, sanitize=False)
-    Chem.SanitizeMol(mol, Chem.SanitizeFlags.SANITIZE_ALL ^ Chem.SanitizeFlags.SANITIZE_SETAROMATICITY)
-    Chem.Kekulize(mol, clearAromaticFlags=True)
     for atom in atom_list(mol):
         atom.SetNumExplicitHs(atom.GetTotalNumHs(includeNeighbors=False))
         atom.SetNoImplicit(True)

@@ -25,12 +25,15 @@ class Fragment:
     smiles: str
 
 
-def _prepared(mol: Chem.Mol, keep_maps: frozenset[int]) -> Chem.Mol:
+def _prepared(mol: Chem.Mol, keep_maps: frozenset[int], origins: bool) -> Chem.Mol:
+    """`origins`: each atom records its index in `mol` (_ORIGIN), for naming atoms in an explanation."""
     work = Chem.RWMol(mol)
     for i in range(work.GetNumAtoms()):   # by index: RDKit's Python atom iterator is several times slower
         atom = work.GetAtomWithIdx(i)
-        atom.SetIntProp(_ORIGIN, i)
-        if atom.GetAtomMapNum() and atom.GetAtomMapNum() not in keep_maps:
+        if origins:
+            atom.SetIntProp(_ORIGIN, i)
+        number = atom.GetAtomMapNum()
+        if number and number not in keep_maps:
             atom.SetAtomMapNum(0)
     Chem.SanitizeMol(work)
     params = Chem.RemoveHsParameters()
@@ -39,9 +42,9 @@ def _prepared(mol: Chem.Mol, keep_maps: frozenset[int]) -> Chem.Mol:
     return Chem.RemoveHs(work, params, sanitize=False)
 
 
-def fragments(mol: Chem.Mol, keep_maps: frozenset[int] = frozenset()) -> list[Fragment]:
+def fragments(mol: Chem.Mol, keep_maps: frozenset[int] = frozenset(), origins: bool = False) -> list[Fragment]:
     out = []
-    for frag in Chem.GetMolFrags(_prepared(mol, keep_maps), asMols=True, sanitizeFrags=False):
+    for frag in Chem.GetMolFrags(_prepared(mol, keep_maps, origins), asMols=True, sanitizeFrags=False):
         out.append(Fragment(frag, Chem.MolToSmiles(frag)))
     return out
 
@@ -74,6 +77,8 @@ def compare(state: ElectronState, checkpoint: Checkpoint, code: str, step: Optio
     leftovers = [f for f in derived if pool[f.smiles] > 0 and not pool.subtract({f.smiles: 1})]
     what = "product" if code == "AR402" else "checkpoint"
     diags = []
+    if missing:   # the same fragments, now with each atom's index in the state, to name atoms
+        derived = fragments(state.mol, maps, origins=True)
     for frag in missing:
         candidates = [f for f in derived if f.smiles not in {w.smiles for w in written}] or derived
         closest = max(candidates, key=lambda f: _overlap(frag.mol, f.mol), default=None)
