@@ -59,21 +59,20 @@ def proton_transfers(st: StepTrace, views: Optional[RecentViews] = None) -> list
     perceived views of the states met lately (the state after one step is the state before the next)."""
     if st.after is None:
         return []
-    before, after = st.before.mol, st.after.mol
-    broken = {frozenset(b) for b in st.change.broken}
+    before, elements, broken = st.before.mol, st.before.elements, st.change.broken
     found = []
     for m in st.change.moves:
         if m.electrons != 2 or len(m.sink_atoms) != 2:
             continue
         base, h = m.sink_atoms if m.source_kind == "bond" else (m.source_atoms[0], _other(m.sink_atoms, m.source_atoms[0]))
-        if before.GetAtomWithIdx(h).GetAtomicNum() != 1 or h in m.source_atoms:
+        if elements[h] != 1 or h in m.source_atoms:
             continue   # not to a hydrogen, or the hydrogen moves with its own pair (a hydride shift)
-        donors = [n.GetIdx() for n in before.GetAtomWithIdx(h).GetNeighbors()]
-        if len(donors) != 1 or frozenset((donors[0], h)) not in broken:
+        given_up = [b for b in broken if h in b]   # the X-H bond this step breaks
+        if len(given_up) != 1 or before.GetAtomWithIdx(h).GetDegree() != 1:
             continue
-        x = donors[0]
-        if any(frozenset(b) != frozenset((x, h)) and before.GetBondBetweenAtoms(*b).GetBondTypeAsDouble() == 1
-               and not _is_hydrogen_bond(before, b) for b in st.change.broken):
+        x = _other(given_up[0], h)
+        if any(b is not given_up[0] and elements[b[0]] != 1 and elements[b[1]] != 1
+               and before.GetBondBetweenAtoms(*b).GetBondTypeAsDouble() == 1 for b in broken):
             continue   # a concerted elimination, not a plain proton transfer
         if (m.source_kind == "bond" and _next_to_cation(st.after, base)) or _next_to_cation(st.before, x):
             continue   # a cation's conjugate acid, or a C-H beta to a cation (E1): no entry in our table
@@ -92,10 +91,6 @@ def _acidity(view: Perceived, atom: int) -> Optional[Acidity]:
 
 def _other(pair: tuple[int, ...], atom: int) -> int:
     return pair[1] if pair[0] == atom else pair[0]
-
-
-def _is_hydrogen_bond(mol, bond) -> bool:
-    return any(mol.GetAtomWithIdx(i).GetAtomicNum() == 1 for i in bond)
 
 
 def _next_to_cation(state, atom: int) -> bool:
