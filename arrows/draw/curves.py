@@ -98,7 +98,7 @@ class _Obstacles:
         self.marks = np.array([(b.x0 - mp, b.y0 - mp, b.x1 + mp, b.y1 + mp) for b in marks], dtype=float).reshape(-1, 4)
         self.mark_owner = np.array([m.atom for m in list(panel.marks) + extra_marks if m.box is not None], dtype=int)
         pairs = [tuple(sorted(b.atoms)) for b in panel.bonds]
-        self.bond_pairs = pairs
+        self.bond_ends = np.array(pairs, dtype=int).reshape(-1, 2)      # lower atom index first
         self.bond_a = np.array([panel.positions[i] for i, _ in pairs], dtype=complex)
         self.bond_b = np.array([panel.positions[j] for _, j in pairs], dtype=complex)
 
@@ -115,8 +115,7 @@ class _Obstacles:
         a, b = self.bond_a, self.bond_b
         keep = ((np.maximum(a.real, b.real) >= x0) & (np.minimum(a.real, b.real) <= x1)
                 & (np.maximum(a.imag, b.imag) >= y0) & (np.minimum(a.imag, b.imag) <= y1))
-        out.bond_pairs = [p for p, k in zip(self.bond_pairs, keep.tolist()) if k]
-        out.bond_a, out.bond_b = a[keep], b[keep]
+        out.bond_ends, out.bond_a, out.bond_b = self.bond_ends[keep], a[keep], b[keep]
         return out
 
 
@@ -141,7 +140,12 @@ class ArrowPlanner:
         sources = [self._source(move, panel, sink, marks) for move, sink in zip(moves, sinks)]
         obstacles = _Obstacles(panel, marks, self.bl)
         everything = [self._candidates(src, snk, panel) for src, snk in zip(sources, sinks)]
-        self._score(everything, sources, sinks, moves, obstacles)
+        # Every candidate of every arrow is sampled in one product: numpy's cost here is per call.
+        candidates = [c for g in everything for c in g]
+        points = np.array([[c.p0, c.p1, c.p2, c.tip] for c in candidates], dtype=complex) @ _BERNSTEIN
+        for c, row in zip(candidates, points):
+            c.points = row
+        self._score(candidates, points, [len(g) for g in everything], sources, sinks, moves, obstacles)
         options = [sorted(candidates, key=lambda c: c.cost)[:_KEEP] for candidates in everything]
         chosen = self._choose(options)
         arrows = [self._arrow(step, move, src, snk, cand, panel)
@@ -227,14 +231,7 @@ class ArrowPlanner:
         """Near-circular arcs from source to sink, bending to either side by a few angles."""
         chord = abs(snk.point - src.point)
         angles = _SHORT_ANGLES if chord < 0.9 * self.bl else _ANGLES
-        out = []
-        for side in (1, -1):
-            for theta in angles:
-                out.append(self._arc(src, snk, side, theta, panel))
-        controls = np.array([[c.p0, c.p1, c.p2, c.tip] for c in out], dtype=complex)
-        for c, row in zip(out, controls @ _BERNSTEIN):
-            c.points = row
-        return out
+        return [self._arc(src, snk, side, theta, panel) for side in (1, -1) for theta in angles]
 
     def _arc(self, src: _Anchor, snk: _Anchor, side: int, theta: float, panel: PanelStructure) -> _Candidate:
         """Leaves at theta to the chord on one side and arrives at theta on the same side, so
@@ -275,53 +272,66 @@ class ArrowPlanner:
         return n if (direction / n).real >= 0 else -n
 
     # penalties
-    def _score(self, groups: list[list[_Candidate]], sources: list[_Anchor], sinks: list[_Anchor],
-               moves: list[ResolvedMove], ob: _Obstacles) -> None:
-        """Penalties of every candidate of every arrow of the panel, in one batch."""
+    def _score(self, candidates: list[_Candidate], pts: np.ndarray, sizes: list[int], sources: list[_Anchor],
+               sinks: list[_Anchor], moves: list[ResolvedMove], ob: _Obstacles) -> None:
+        """Penalties of every candidate of every arrow of the panel, in one batch. `pts` holds
+        the candidates' samples, one row each; `sizes` how many candidates each arrow has."""
         bl = self.bl
-        candidates = [c for g in groups for c in g]
-        owner = np.repeat(np.arange(len(groups)), [len(g) for g in groups])
-        pts = np.stack([c.points for c in candidates])                    # (C, S)
-        p0 = np.array([c.p0 for c in candidates])[:, None]
-        tip = np.array([c.tip for c in candidates])[:, None]
-        inner = (np.abs(pts - p0) > 0.22 * bl) & (np.abs(pts - tip) > 0.22 * bl)
+        owner = np.repeat(np.arange(len(sizes)), sizes)
+        p0, tip = pts[:, :1], pts[:, -1:]
+        inner = ((np.abs(pts - p0) > 0.22 * bl) & (np.abs(pts - tip) > 0.22 * bl))[:, :, None]
         x, y = pts.real[:, :, None], pts.imag[:, :, None]
         reach = 1.3 * bl     # the crowding term looks this far from a curve
+        # Which atoms each arrow's own move names, as one boolean row per arrow.
+        known = max([int(ob.atom_ids.max()) if len(ob.atom_ids) else 0]
+                    + [i for m in moves for i in m.source_atoms + m.sink_atoms])
+        own = np.zeros((len(moves), known + 1), dtype=bool)
         ob = ob.around(float(pts.real.min()) - reach, float(pts.imag.min()) - reach,
                        float(pts.real.max()) + reach, float(pts.imag.max()) + reach)
-        owns = [set(m.source_atoms) | set(m.sink_atoms) for m in moves]
+        for k, m in enumerate(moves):
+            own[k, list(m.source_atoms + m.sink_atoms)] = True
         cost = np.zeros(len(candidates))
         if len(ob.atom_ids):
-            is_own = np.array([[a in own for a in ob.atom_ids] for own in owns], dtype=bool)[owner][:, None, :]
-            inside = (x >= ob.boxes[:, 0]) & (x <= ob.boxes[:, 2]) & (y >= ob.boxes[:, 1]) & (y <= ob.boxes[:, 3])
-            inside &= ob.labelled & inner[:, :, None]
-            cost += (inside * np.where(is_own, 40.0, 100.0)).sum(axis=(1, 2))
-            dist = np.abs(pts[:, :, None] - ob.atom_xy)
-            near = (dist < np.where(is_own, 0.12 * bl, 0.24 * bl)) & ~ob.labelled & inner[:, :, None]
-            cost += (near * np.where(is_own, 10.0, 30.0)).sum(axis=(1, 2))
+            is_own = own[:, ob.atom_ids]
+            labelled = ob.labelled
+            if labelled.any():
+                # Through a label: only labelled atoms have a box.
+                boxes = ob.boxes[labelled]
+                inside = ((x >= boxes[:, 0]) & (x <= boxes[:, 2]) & (y >= boxes[:, 1]) & (y <= boxes[:, 3])
+                          & inner).sum(axis=1)
+                cost += (inside * np.where(is_own[:, labelled], 40.0, 100.0)[owner]).sum(axis=1)
+            bare = ~labelled
+            if bare.any():
+                # Over a skeletal vertex.
+                mine = is_own[:, bare][owner][:, None, :]
+                near = ((np.abs(pts[:, :, None] - ob.atom_xy[bare]) < np.where(mine, 0.12 * bl, 0.24 * bl))
+                        & inner).sum(axis=1)
+                cost += (near * np.where(is_own[:, bare], 10.0, 30.0)[owner]).sum(axis=1)
             # Bulging into the molecule: atoms crowding the middle third of the curve.
-            middle = dist[:, _SAMPLES // 3: 2 * _SAMPLES // 3 + 1, :]
+            middle = np.abs(pts[:, _SAMPLES // 3: 2 * _SAMPLES // 3 + 1, None] - ob.atom_xy)
             cost += 3.0 * np.clip(1.1 - middle / bl, 0, None).sum(axis=(1, 2))
         if len(ob.marks):
             hit = (x >= ob.marks[:, 0]) & (x <= ob.marks[:, 2]) & (y >= ob.marks[:, 1]) & (y <= ob.marks[:, 3])
             owners = ob.mark_owner.tolist()
             mine = np.array([[src.kind == "dots" and m in src.atoms for m in owners] for src in sources],
                             dtype=bool)[owner][:, None, :]
-            cost += 30.0 * (hit & inner[:, :, None] & ~mine).sum(axis=(1, 2))
+            cost += 30.0 * (hit & inner & ~mine).sum(axis=(1, 2))
             # The head's barbs spread beyond the shaft: neither may sit on a charge sign or dots.
             arrive = np.array([_unit(c.tip - c.p2) for c in candidates])[:, None]
             barbs = tip - arrive * self.head_length + arrive * 1j * np.array([0.5, -0.5]) * self.head_width
             bx, by = barbs.real[:, :, None], barbs.imag[:, :, None]
             hit = (bx >= ob.marks[:, 0]) & (bx <= ob.marks[:, 2]) & (by >= ob.marks[:, 1]) & (by <= ob.marks[:, 3])
             cost += 30.0 * (hit & ~mine).sum(axis=(1, 2))
-        if ob.bond_pairs:
-            weights = []
-            for src, snk, own in zip(sources, sinks, owns):
-                skip = {tuple(sorted(a.atoms)) for a in (src, snk) if a.kind == "bond"}
-                weights.append([0.0 if pair in skip else 6.0 if (pair[0] in own or pair[1] in own) else 18.0
-                                for pair in ob.bond_pairs])
+        if len(ob.bond_ends):
+            first, second = ob.bond_ends[:, 0], ob.bond_ends[:, 1]
+            weights = np.where(own[:, first] | own[:, second], 6.0, 18.0)
+            for k, anchors in enumerate(zip(sources, sinks)):
+                for anchor in anchors:
+                    if anchor.kind == "bond":   # the bond the arrow starts or ends on is no obstacle
+                        i, j = sorted(anchor.atoms)
+                        weights[k, (first == i) & (second == j)] = 0.0
             crossings = _crossing_counts(pts, ob.bond_a, ob.bond_b)          # (C, E)
-            cost += (crossings * np.array(weights)[owner]).sum(axis=1)
+            cost += (crossings * weights[owner]).sum(axis=1)
         outward = np.array([src.outward if src.kind == "dots" else 0j for src in sources])[owner]
         leave = np.array([c.p1 - c.p0 for c in candidates])
         leave = leave / np.maximum(np.abs(leave), 1e-9)
@@ -333,9 +343,9 @@ class ArrowPlanner:
 
     def _pair_costs(self, options: list[list[_Candidate]]) -> dict[tuple[int, int], np.ndarray]:
         """Penalty of drawing candidate a of arrow i with candidate b of arrow j (i < j), for every
-        such pair of kept candidates: heads too close, shafts alongside, shafts crossing. Each
-        arrow's candidates meet those of all later arrows in one batch; pairs within one arrow
-        and pairs seen the other way round are never needed, so they are not computed."""
+        such pair of kept candidates: heads too close, shafts alongside, shafts crossing. One
+        batch holds the candidates of every arrow but the last against those of every arrow but
+        the first (numpy's cost here is per call, not per pair); the blocks for i < j are kept."""
         sizes = [len(o) for o in options]
         ends = np.cumsum(sizes).tolist()
         flat = [c for o in options for c in o]
@@ -344,14 +354,11 @@ class ArrowPlanner:
         points = np.stack([c.points for c in flat])                       # (C, S)
         body = points[:, ::2][:, 1:-1]
         coarse = points[:, ::4]                                           # five chords per curve
-        out = {}
-        for i in range(len(options) - 1):
-            rows, later = slice(ends[i] - sizes[i], ends[i]), slice(ends[i], None)
-            cost = self._pair_block((tips[rows], starts[rows], body[rows], coarse[rows]),
-                                    (tips[later], starts[later], body[later], coarse[later]))
-            for j in range(i + 1, len(options)):
-                out[(i, j)] = cost[:, ends[j] - sizes[j] - ends[i]:ends[j] - ends[i]]
-        return out
+        rows, columns = slice(0, ends[-2]), slice(sizes[0], None)
+        cost = self._pair_block((tips[rows], starts[rows], body[rows], coarse[rows]),
+                                (tips[columns], starts[columns], body[columns], coarse[columns]))
+        return {(i, j): cost[ends[i] - sizes[i]:ends[i], ends[j] - sizes[j] - sizes[0]:ends[j] - sizes[0]]
+                for i in range(len(options) - 1) for j in range(i + 1, len(options))}
 
     def _pair_block(self, first: tuple[np.ndarray, ...], second: tuple[np.ndarray, ...]) -> np.ndarray:
         """The pair penalties of candidates `first` (rows) against `second` (columns), each given
@@ -457,13 +464,15 @@ def _crossing_counts(pts: np.ndarray, a: np.ndarray, b: np.ndarray) -> np.ndarra
     """For each polyline (rows of pts) and each segment a[e]-b[e]: how many times they cross."""
     if len(a) == 0:
         return np.zeros((pts.shape[0], 0))
-    px, py = pts.real[:, :-1, None], pts.imag[:, :-1, None]
-    qx, qy = pts.real[:, 1:, None], pts.imag[:, 1:, None]
     ax, ay, bx, by = a.real, a.imag, b.real, b.imag
-    dx, dy = qx - px, qy - py
     ex, ey = bx - ax, by - ay
-    o1 = dx * (ay - py) - dy * (ax - px)
-    o2 = dx * (by - py) - dy * (bx - px)
-    o3 = ex * (py - ay) - ey * (px - ax)
-    o4 = ex * (qy - ay) - ey * (qx - ax)
-    return ((o1 * o2 < 0) & (o3 * o4 < 0)).sum(axis=1)
+    rx, ry = ax - pts.real[:, :, None], ay - pts.imag[:, :, None]     # every sample to a
+    # Which side of each bond's line every sample lies on; a polyline segment crosses the line
+    # where its two ends lie on opposite sides.
+    side = ey * rx - ex * ry
+    d = np.diff(pts, axis=1)[:, :, None]
+    dx, dy = d.real, d.imag
+    rx, ry = rx[:, :-1], ry[:, :-1]
+    o1 = dx * ry - dy * rx
+    o2 = dx * (by - pts.imag[:, :-1, None]) - dy * (bx - pts.real[:, :-1, None])
+    return ((o1 * o2 < 0) & (side[:, :-1] * side[:, 1:] < 0)).sum(axis=1)

@@ -112,9 +112,9 @@ def moving_hydrogens(states: Sequence[ElectronState], moves: Iterable[ResolvedMo
 
 
 def visible_atoms(state: ElectronState, drawn_hydrogens: frozenset[int]) -> tuple[int, ...]:
-    return tuple(a.GetIdx() for a in state.mol.GetAtoms()
-                 if a.GetIdx() not in state.released
-                 and (a.GetAtomicNum() != 1 or a.GetIdx() in drawn_hydrogens))
+    released = state.released
+    return tuple(i for i, z in enumerate(state.elements)
+                 if i not in released and (z != 1 or i in drawn_hydrogens))
 
 
 def free_direction(centre: complex, others: Sequence[complex], prefer: Optional[complex] = None) -> complex:
@@ -142,7 +142,7 @@ def _joining(before: ElectronState, after: ElectronState) -> set[int]:
     for number, frag in enumerate(Chem.GetMolFrags(before.mol, asMols=False, sanitizeFrags=False)):
         for atom in frag:
             molecule[atom] = number
-    heavy = {a.GetIdx() for a in before.mol.GetAtoms() if a.GetAtomicNum() != 1}
+    heavy = {i for i, z in enumerate(before.elements) if z != 1}
     out: set[int] = set()
     for frag in Chem.GetMolFrags(after.mol, asMols=False, sanitizeFrags=False):
         parts = {molecule[a] for a in frag if a in heavy}
@@ -164,6 +164,44 @@ def _inside(point: complex, polygon: list[complex]) -> bool:
             if x > point.real:
                 inside = not inside
     return inside
+
+
+class _Placements:
+    """The ways of placing a cluster next to its anchor, in the order they are tried: for each,
+    the direction from the anchor, the cluster's rotation, the target of the atom that bonds,
+    the cluster's atoms moved there and their nearest approach to the atoms around. Worked out
+    in batches as the search reaches them: the first few settle most placements, and numpy's
+    cost is per call."""
+
+    _BATCH = 8
+
+    def __init__(self, options: list[tuple], u: complex, v: complex, anchor_at: complex, distance: float,
+                 local: np.ndarray, near: np.ndarray, carries_hydrogen: bool):
+        self.options, self.u, self.v, self.anchor_at, self.distance = options, u, v, anchor_at, distance
+        self.local, self.near, self.carries_hydrogen = local, near, carries_hydrogen
+        self.done: list[tuple[float, np.ndarray, complex, complex, complex]] = []
+
+    def at(self, index: int) -> tuple[float, np.ndarray, complex, complex, complex]:
+        while index >= len(self.done):
+            directions, rotations, targets = [], [], []
+            for _, turn, spin, extra in self.options[len(self.done):len(self.done) + self._BATCH]:
+                direction = self.u * cmath.rect(1.0, turn * math.pi / 9)
+                directions.append(direction)
+                rotations.append(_unit(-direction / self.v) * cmath.rect(1.0, spin * math.pi / 6))
+                targets.append(self.anchor_at + direction * (self.distance + extra))
+            target_array, rotation_array = np.array(targets, dtype=complex), np.array(rotations, dtype=complex)
+            moved = target_array[:, None] + self.local[None, :] * rotation_array[:, None]
+            if len(self.near):
+                gaps = np.abs(moved[:, :, None] - self.near).min(axis=(1, 2))
+                if self.carries_hydrogen:
+                    # The hydrogen it brings needs room too, though less than a whole molecule.
+                    brought = np.abs((target_array - np.array(directions, dtype=complex))[:, None] - self.near)
+                    gaps = np.minimum(gaps, brought.min(axis=1) + _CLEARANCE - _HYDROGEN_ROOM)
+                gaps = gaps.tolist()
+            else:
+                gaps = [9.0] * len(targets)
+            self.done += zip(gaps, moved, directions, rotations, targets)
+        return self.done[index]
 
 
 @dataclass
@@ -204,20 +242,24 @@ class _LayoutBuilder:
         self.states = list(states)
         self.n = len(self.states)
         self.touched = [set(t) for t in touched] + [set()] * (self.n - len(touched))
-        biggest = max(self.states, key=lambda s: s.mol.GetNumAtoms()).mol
+        elements = max(self.states, key=lambda s: len(s.elements)).elements
         self.drawn_h = moving_hydrogens(self.states, (m for ms in moves for m in ms))
-        self.atoms = [a.GetIdx() for a in biggest.GetAtoms() if a.GetAtomicNum() != 1 or a.GetIdx() in self.drawn_h]
-        self.element = {i: biggest.GetAtomWithIdx(i).GetAtomicNum() for i in self.atoms}
+        self.atoms = [i for i, z in enumerate(elements) if z != 1 or i in self.drawn_h]
+        self.element = {i: elements[i] for i in self.atoms}
         drawn = set(self.atoms)
         absent = [set(a) for a in left_out] + [set()] * (self.n - len(left_out))
-        self.exists = [(set(range(s.mol.GetNumAtoms())) & drawn) - s.released - gone
+        self.exists = [(set(range(len(s.elements))) & drawn) - s.released - gone
                        for s, gone in zip(self.states, absent)]
         self.bonds_in = []      # per panel: set of (i, j) between drawn atoms
         self.union: dict[tuple[int, int], int] = {}
         for state in self.states:
             here = set()
-            for bond in state.mol.GetBonds():
-                i, j = sorted((bond.GetBeginAtomIdx(), bond.GetEndAtomIdx()))
+            bond_at = state.mol.GetBondWithIdx    # by index: RDKit's bond iterator costs more per bond
+            for b in range(state.mol.GetNumBonds()):
+                bond = bond_at(b)
+                i, j = bond.GetBeginAtomIdx(), bond.GetEndAtomIdx()
+                if i > j:
+                    i, j = j, i
                 if i in drawn and j in drawn:
                     here.add((i, j))
                     self.union[(i, j)] = max(self.union.get((i, j), 0), int(bond.GetBondTypeAsDouble()))
@@ -709,17 +751,11 @@ class _LayoutBuilder:
         local = np.array(list(cluster.local.values()), dtype=complex) - cluster.local[mover]
         options = _BOND_OPTIONS if kind == "bond" else _HOP_OPTIONS
         hydrogen_on_mover = hydrogen is not None and kind == "hop" and self._holder(k, hydrogen) == mover
+        placements = _Placements(options, u, v, anchor_at, distance, local, near, hydrogen_on_mover)
         best = None
         # In order of preference; the first that keeps its distance from everything wins.
-        for penalty, turn, spin, extra in options:
-            direction = u * cmath.rect(1.0, turn * math.pi / 9)
-            rotation = _unit(-direction / v) * cmath.rect(1.0, spin * math.pi / 6)
-            target = anchor_at + direction * (distance + extra)
-            moved = target + local * rotation
-            gap = float(np.abs(moved[:, None] - near[None, :]).min()) if len(near) else 9.0
-            if hydrogen_on_mover and len(near):
-                # The hydrogen it brings needs room too, though less than a whole molecule.
-                gap = min(gap, float(np.abs(target - direction - near).min()) + _CLEARANCE - _HYDROGEN_ROOM)
+        for option in range(len(options)):
+            gap, moved, direction, rotation, target = placements.at(option)
             if best is not None and min(gap, _CLEARANCE) <= best[0]:
                 continue
             if any(_inside(complex(p), poly) for p in moved for poly in polygons):
@@ -775,19 +811,21 @@ class _LayoutBuilder:
         local = [rotation * p for p in cluster.local.values()] + satellites
         polygons = [[self.positions[k][a] for a in ring] for k in range(segment[0], segment[1] + 1)
                     for ring in self._closed_rings(k)]
+        # Every spot tried, and its nearest approach to what is already there, in one batch.
+        tries = [(pull, side) for pull in (pull_back, 1.0, 1.5, 2.0, 2.5, 3.0) for side in (0.0, 0.6, -0.6, 1.2, -1.2)]
+        shifts = np.array([shift + direction * pull + direction * 1j * side for pull, side in tries], dtype=complex)
+        placed = shifts[:, None] + np.array(local, dtype=complex)                  # (tries, atoms)
+        gaps = (np.abs(placed[:, :, None] - np.array(others, dtype=complex)).min(axis=(1, 2)).tolist() if others
+                else [9.0] * len(tries))
         best = None
-        for pull in (pull_back, 1.0, 1.5, 2.0, 2.5, 3.0):
-            for side in (0.0, 0.6, -0.6, 1.2, -1.2):
-                moved = shift + direction * pull + direction * 1j * side
-                atoms = [moved + p for p in local]
-                gap = min((abs(a - o) for a in atoms for o in others), default=9.0)
-                if any(_inside(a, poly) for a in atoms for poly in polygons):
-                    gap = 0.0
-                # Clear of everything first; then a little more room against a longer wait.
-                score = (min(gap, _CLEARANCE),
-                         min(gap, _WAITING_CLEARANCE) - 0.3 * abs(pull - pull_back) - 0.3 * abs(side))
-                if best is None or score > best[0]:
-                    best = (score, moved)
+        for (pull, side), moved, atoms, gap in zip(tries, shifts.tolist(), placed.tolist(), gaps):
+            if any(_inside(a, poly) for a in atoms for poly in polygons):
+                gap = 0.0
+            # Clear of everything first; then a little more room against a longer wait.
+            score = (min(gap, _CLEARANCE),
+                     min(gap, _WAITING_CLEARANCE) - 0.3 * abs(pull - pull_back) - 0.3 * abs(side))
+            if best is None or score > best[0]:
+                best = (score, moved)
         return (rotation, best[1], direction, pull_back)
 
     def _place_waiting(self) -> bool:
@@ -896,13 +934,15 @@ class _LayoutBuilder:
         # Clear of every atom first; among those, room and a comfortable hop.
         best, best_score = r.direction, (room(r.direction) >= _HYDROGEN_ROOM,
                                          min(room(r.direction), 1.2) + 0.1 - miss(r.direction))
-        for step in range(24):
-            d = cmath.rect(1.0, step * math.pi / 12)
+        compass = [cmath.rect(1.0, step * math.pi / 12) for step in range(24)]
+        rooms = (np.abs(relative - np.array(compass)[:, None]).min(axis=1).tolist() if len(relative)
+                 else [math.inf] * len(compass))
+        for d, space in zip(compass, rooms):
             if any(abs(cmath.phase(d / b)) < math.radians(35) for b in bonds):
                 continue
             if any(_inside(self.positions[panels[0]][r.holder] + d, poly) for poly in polygons):
                 continue
-            score = (room(d) >= _HYDROGEN_ROOM, min(room(d), 1.2) + 0.1 * (d / r.direction).real - miss(d))
+            score = (space >= _HYDROGEN_ROOM, min(space, 1.2) + 0.1 * (d / r.direction).real - miss(d))
             if score[0] > best_score[0] or (score[0] == best_score[0] and score[1] > best_score[1] + 0.05):
                 best, best_score = d, score
         r.direction = best
