@@ -107,3 +107,18 @@ def test_cli_threshold_does_not_outlive_the_command(tmp_path):
     CliRunner().invoke(cli, ["check", "--pka-gap", "40", str(path)])
     _, diags = check_text(HYDROXIDE_ON_PROPANE)
     assert [d.code for d in diags if d.code == "AR508"] == ["AR508"]
+
+
+@pytest.mark.parametrize("path", GALLERY, ids=lambda p: p.stem)
+def test_the_shared_hydrogen_free_view_reads_the_same_acidity_as_the_state_itself(path):
+    """The checks read acidity on one perceived copy per state with the moving hydrogens folded into
+    counts (judgement/perception.py); the table must say the same as on the state with its explicit
+    hydrogen atoms, for every heavy atom of every derived state."""
+    from arrows.judgement.perception import RecentViews
+    trace, _ = check_file(path)
+    views = RecentViews()
+    for state in trace.states():
+        view, whole = views.of(state), perceived(state.mol)
+        for atom in range(state.mol.GetNumAtoms()):
+            if state.elements[atom] != 1:
+                assert acidity_of(view.mol, view.position(atom)) == acidity_of(whole, atom), (path.name, atom)
