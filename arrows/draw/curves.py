@@ -290,48 +290,37 @@ class ArrowPlanner:
                        float(pts.real.max()) + reach, float(pts.imag.max()) + reach)
         for k, m in enumerate(moves):
             own[k, list(m.source_atoms + m.sink_atoms)] = True
-        cost = np.zeros(len(candidates))
-        if len(ob.atom_ids):
-            is_own = own[:, ob.atom_ids]
-            labelled = ob.labelled
-            if labelled.any():
-                # Through a label: only labelled atoms have a box.
-                boxes = ob.boxes[labelled]
-                inside = ((x >= boxes[:, 0]) & (x <= boxes[:, 2]) & (y >= boxes[:, 1]) & (y <= boxes[:, 3])
-                          & inner).sum(axis=1)
-                cost += (inside * np.where(is_own[:, labelled], 40.0, 100.0)[owner]).sum(axis=1)
-            bare = ~labelled
-            if bare.any():
-                # Over a skeletal vertex.
-                mine = is_own[:, bare][owner][:, None, :]
-                near = ((np.abs(pts[:, :, None] - ob.atom_xy[bare]) < np.where(mine, 0.12 * bl, 0.24 * bl))
-                        & inner).sum(axis=1)
-                cost += (near * np.where(is_own[:, bare], 10.0, 30.0)[owner]).sum(axis=1)
-            # Bulging into the molecule: atoms crowding the middle third of the curve.
-            middle = np.abs(pts[:, _SAMPLES // 3: 2 * _SAMPLES // 3 + 1, None] - ob.atom_xy)
-            cost += 3.0 * np.clip(1.1 - middle / bl, 0, None).sum(axis=(1, 2))
+        is_own = own[:, ob.atom_ids]                                       # (arrows, atoms)
+        labelled, bare = ob.labelled, ~ob.labelled
+        mine = np.array([[src.kind == "dots" and m in src.atoms for m in ob.mark_owner.tolist()] for src in sources],
+                        dtype=bool).reshape(len(sources), -1)             # an arrow's own dots
+        # Every penalty counted per sample, in one array whose last axis is: label boxes, charge
+        # signs and dots, skeletal vertices; then the bonds crossed. numpy's cost here is per call.
+        boxes = np.concatenate([ob.boxes[labelled], ob.marks])
+        in_box = (x >= boxes[:, 0]) & (x <= boxes[:, 2]) & (y >= boxes[:, 1]) & (y <= boxes[:, 3])
+        near = np.abs(pts[:, :, None] - ob.atom_xy[bare]) < np.where(is_own[:, bare], 0.12 * bl, 0.24 * bl)[owner][:, None, :]
+        counts = (np.concatenate([in_box, near], axis=2) & inner).sum(axis=1)
+        first, second = ob.bond_ends[:, 0], ob.bond_ends[:, 1]
+        crossing = np.where(own[:, first] | own[:, second], 6.0, 18.0)
+        for k, anchors in enumerate(zip(sources, sinks)):
+            for anchor in anchors:
+                if anchor.kind == "bond":   # the bond the arrow starts or ends on is no obstacle
+                    i, j = sorted(anchor.atoms)
+                    crossing[k, (first == i) & (second == j)] = 0.0
+        weights = np.concatenate([np.where(is_own[:, labelled], 40.0, 100.0), np.where(mine, 0.0, 30.0),
+                                  np.where(is_own[:, bare], 10.0, 30.0), crossing], axis=1)
+        counts = np.concatenate([counts, _crossing_counts(pts, ob.bond_a, ob.bond_b)], axis=1)
+        cost = (counts * weights[owner]).sum(axis=1)
+        # Bulging into the molecule: atoms crowding the middle third of the curve.
+        middle = np.abs(pts[:, _SAMPLES // 3: 2 * _SAMPLES // 3 + 1, None] - ob.atom_xy)
+        cost += 3.0 * np.clip(1.1 - middle / bl, 0, None).sum(axis=(1, 2))
         if len(ob.marks):
-            hit = (x >= ob.marks[:, 0]) & (x <= ob.marks[:, 2]) & (y >= ob.marks[:, 1]) & (y <= ob.marks[:, 3])
-            owners = ob.mark_owner.tolist()
-            mine = np.array([[src.kind == "dots" and m in src.atoms for m in owners] for src in sources],
-                            dtype=bool)[owner][:, None, :]
-            cost += 30.0 * (hit & inner & ~mine).sum(axis=(1, 2))
             # The head's barbs spread beyond the shaft: neither may sit on a charge sign or dots.
             arrive = np.array([_unit(c.tip - c.p2) for c in candidates])[:, None]
             barbs = tip - arrive * self.head_length + arrive * 1j * np.array([0.5, -0.5]) * self.head_width
             bx, by = barbs.real[:, :, None], barbs.imag[:, :, None]
             hit = (bx >= ob.marks[:, 0]) & (bx <= ob.marks[:, 2]) & (by >= ob.marks[:, 1]) & (by <= ob.marks[:, 3])
-            cost += 30.0 * (hit & ~mine).sum(axis=(1, 2))
-        if len(ob.bond_ends):
-            first, second = ob.bond_ends[:, 0], ob.bond_ends[:, 1]
-            weights = np.where(own[:, first] | own[:, second], 6.0, 18.0)
-            for k, anchors in enumerate(zip(sources, sinks)):
-                for anchor in anchors:
-                    if anchor.kind == "bond":   # the bond the arrow starts or ends on is no obstacle
-                        i, j = sorted(anchor.atoms)
-                        weights[k, (first == i) & (second == j)] = 0.0
-            crossings = _crossing_counts(pts, ob.bond_a, ob.bond_b)          # (C, E)
-            cost += (crossings * weights[owner]).sum(axis=1)
+            cost += 30.0 * (hit & ~mine[owner][:, None, :]).sum(axis=(1, 2))
         outward = np.array([src.outward if src.kind == "dots" else 0j for src in sources])[owner]
         leave = np.array([c.p1 - c.p0 for c in candidates])
         leave = leave / np.maximum(np.abs(leave), 1e-9)
@@ -373,14 +362,14 @@ class ArrowPlanner:
         near_start = (np.abs(body_a - starts_a[:, None]) < 0.35 * bl)[:, None, :]
         cost += 20.0 * ((d.min(axis=3) < 0.15 * bl) & ~(shared & near_start)).sum(axis=2)
         xa, ya, xb, yb = coarse_a.real, coarse_a.imag, coarse_b.real, coarse_b.imag
-        P = (xa[:, None, :-1, None], ya[:, None, :-1, None], xa[:, None, 1:, None], ya[:, None, 1:, None])
-        Q = (xb[None, :, None, :-1], yb[None, :, None, :-1], xb[None, :, None, 1:], yb[None, :, None, 1:])
-
-        def orient(ux, uy, vx, vy, wx, wy):
-            return (vx - ux) * (wy - uy) - (vy - uy) * (wx - ux)
-
-        hit = ((orient(*P, Q[0], Q[1]) * orient(*P, Q[2], Q[3]) < 0)
-               & (orient(*Q, P[0], P[1]) * orient(*Q, P[2], P[3]) < 0))
+        # Which side of each chord of one curve every point of the other lies on; two chords
+        # cross where each has the other's ends on opposite sides.
+        dxa, dya = (xa[:, 1:] - xa[:, :-1])[:, None, :, None], (ya[:, 1:] - ya[:, :-1])[:, None, :, None]
+        dxb, dyb = (xb[:, 1:] - xb[:, :-1])[None, :, :, None], (yb[:, 1:] - yb[:, :-1])[None, :, :, None]
+        of_b = dxa * (yb[None, :, None, :] - ya[:, None, :-1, None]) - dya * (xb[None, :, None, :] - xa[:, None, :-1, None])
+        of_a = dxb * (ya[:, None, None, :] - yb[None, :, :-1, None]) - dyb * (xa[:, None, None, :] - xb[None, :, :-1, None])
+        hit = ((of_b[..., :-1] * of_b[..., 1:] < 0)
+               & (of_a[..., :-1] * of_a[..., 1:] < 0).transpose(0, 1, 3, 2))
         return cost + 20.0 * hit.sum(axis=(2, 3))
 
     def _choose(self, options: list[list[_Candidate]]) -> list[_Candidate]:
@@ -463,7 +452,7 @@ def _parameter_at_distance(p0: complex, p1: complex, p2: complex, p3: complex, d
 def _crossing_counts(pts: np.ndarray, a: np.ndarray, b: np.ndarray) -> np.ndarray:
     """For each polyline (rows of pts) and each segment a[e]-b[e]: how many times they cross."""
     if len(a) == 0:
-        return np.zeros((pts.shape[0], 0))
+        return np.zeros((pts.shape[0], 0), dtype=int)
     ax, ay, bx, by = a.real, a.imag, b.real, b.imag
     ex, ey = bx - ax, by - ay
     rx, ry = ax - pts.real[:, :, None], ay - pts.imag[:, :, None]     # every sample to a

@@ -44,6 +44,7 @@ class _Item:
     below: float
     panel: Optional[Panel] = None
     arrow_index: Optional[int] = None
+    centre: float = 0.0  # a panel's centre line (_panel_centre), in its own frame
 
 
 @dataclass
@@ -181,13 +182,12 @@ class _SceneBuilder:
         return Panel(k, step, (0.0, 0.0), box, atoms, tuple(structure.bonds), tuple(marks), tuple(arrows))
 
     def _error_rings(self, step: Optional[int], state: ElectronState, structure) -> list[Mark]:
-        if step is None:
+        faults = [d for d in self.errors if d.step == step]
+        if step is None or not faults:
             return []
         names = {state.label(i): i for i in structure.atoms}
         rings = []
-        for d in self.errors:
-            if d.step != step:
-                continue
+        for d in faults:
             wanted = list(d.atoms) + [a for pair in d.bonds for a in pair]
             for name in wanted:
                 i = names.get(name)
@@ -323,7 +323,8 @@ class _SceneBuilder:
                 arrow.arrow_index = k - 1
                 items.append(arrow)
             centre = _panel_centre(panel)
-            items.append(_Item(panel.box.width, centre - panel.box.y0, panel.box.y1 - centre, panel=panel))
+            items.append(_Item(panel.box.width, centre - panel.box.y0, panel.box.y1 - centre, panel=panel,
+                               centre=centre))
         # Rows: a reaction arrow always travels with the panel after it.
         units: list[list[_Item]] = [[items[0]]] + [items[k:k + 2] for k in range(1, len(items), 2)]
         widest = max(sum(i.width for i in u) + gap * (len(u) - 1) for u in units)
@@ -360,7 +361,7 @@ class _SceneBuilder:
             for item in row:
                 if item.panel is not None:
                     p = item.panel
-                    origin = (x - p.box.x0, centre_y - _panel_centre(p))
+                    origin = (x - p.box.x0, centre_y - item.centre)
                     placed_panels.append(_placed(p, origin))
                 else:
                     arrows.append(self._reaction_arrow(specs[item.arrow_index], x, x + item.width, centre_y))
