@@ -542,13 +542,15 @@ class _LayoutBuilder:
         self.rings += [[group[k] for k in ring] for ring in Chem.GetSymmSSSR(mol)]
         with _rdkit_depictor():
             rdDepictor.Compute2DCoords(mol, canonOrient=True)
-        conf = mol.GetConformer()
-        lengths = [(conf.GetAtomPosition(b.GetBeginAtomIdx()) - conf.GetAtomPosition(b.GetEndAtomIdx())).Length()
-                   for b in mol.GetBonds()]
+        # All positions in one call: asking the conformer atom by atom costs more than the sums.
+        xyz = mol.GetConformer().GetPositions()
+        ends = np.array([(b.GetBeginAtomIdx(), b.GetEndAtomIdx()) for b in mol.GetBonds()], dtype=int).reshape(-1, 2)
+        d = xyz[ends[:, 0]] - xyz[ends[:, 1]]
+        lengths = np.sqrt(d[:, 0] * d[:, 0] + d[:, 1] * d[:, 1] + d[:, 2] * d[:, 2]).tolist()
         scale = 1.0 / (sum(lengths) / len(lengths)) if lengths else 1.0
+        xs, ys = xyz[:, 0].tolist(), xyz[:, 1].tolist()
         # y is flipped: RDKit's y grows upwards, ours downwards.
-        return {atom: complex(conf.GetAtomPosition(k).x * scale, -conf.GetAtomPosition(k).y * scale)
-                for atom, k in index.items()}
+        return {atom: complex(xs[k] * scale, -ys[k] * scale) for atom, k in index.items()}
 
     def _holder(self, k: int, h: int) -> Optional[int]:
         for n in self.states[k].mol.GetAtomWithIdx(h).GetNeighbors():
