@@ -1,5 +1,4 @@
 """`arrows draw --watch` through the installed command: every save redraws and reports."""
-import os
 import shutil
 import signal
 import subprocess

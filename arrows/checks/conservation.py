@@ -3,7 +3,7 @@ formal charges and formula (an independent count of the derived Mol)."""
 from __future__ import annotations
 
 from collections import Counter
-from typing import Iterator
+from typing import Iterator, Optional
 
 from rdkit import Chem
 
