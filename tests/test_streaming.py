@@ -73,3 +73,19 @@ def test_a_slip_late_in_a_long_file_is_reported_as_in_the_whole_file(tmp_path, m
 def test_small_correct_mechanisms_stream_clean(name):
     full, streamed = _both_ways(CORRECT[name], f"{name}.mech")
     assert streamed == full
+
+
+@pytest.mark.parametrize("edit", [
+    ('step "shuttle 30"', 'product "[OH2:1].[OH-:2]"\nstep "shuttle 30"'),   # steps after the product
+    ('step "shuttle 33"\n', 'step "shuttle 33"\n    uses salt = "[Cl-:8]"\n'),   # a species enters late
+    ('step "shuttle 35"\n', 'step "shuttle 35"\n    uses junk = "C(("\n'),       # a late unreadable SMILES
+    ('step "shuttle 35"\n', 'step "shuttle 35"\n    uses dup = "[OH-:2]"\n'),    # a late duplicate map number
+    ('step "shuttle 37"\n    :O', 'step "shuttle 37"\n    :C'),                     # a late element mismatch
+], ids=["after-product", "late-uses", "late-bad-smiles", "late-duplicate-map", "late-element"])
+def test_late_statements_stream_as_in_the_whole_file(tmp_path, monkeypatch, edit):
+    monkeypatch.setattr(language, "_PIECE_STEPS", 4)
+    old, new = edit
+    path = tmp_path / "late.mech"
+    path.write_text(_long_text("", 40).replace(old, new, 1))
+    assert isinstance(language.load(path, steps_on_demand=True).steps, language.StepsOnDemand)
+    assert diagnose_file(path) == check_file(path)[1]
