@@ -470,3 +470,43 @@ def test_acetal_proton_shuttle_stays_close():
     assert len(transfers) == 4
     for panel, move, distance in transfers:
         assert distance <= 2.5 + 1e-6, (panel, move, distance)
+
+
+def _path_length(points) -> float:
+    return sum(_distance(p, q) for p, q in zip(points, points[1:]))
+
+
+@pytest.mark.parametrize("text,name", _mechanisms())
+def test_pair_into_its_own_bond_leaves_from_the_free_side(text, name):
+    """A lone pair that moves into a bond of its own atom (amide or enolate resonance) has its
+    dots in a free gap well round from that bond (at least 60 degrees from it, at least 30
+    degrees from every bond of the atom), and the arrow from them to the bond's middle is long
+    enough to read as a curve (a path of at least 0.8 bond lengths): common practice in organic
+    chemistry texts, where the dots are drawn away from the bonds and the arrow arcs over."""
+    _, _, scene = _scene(text, name)
+    bl = scene.bond_length
+    for panel in scene.panels:
+        where = {a.index: a.position for a in panel.atoms}
+        bonded = {tuple(sorted(b.atoms)) for b in panel.bonds}
+        dots = {m.atom: m for m in panel.marks if m.kind == "lone_pair"}
+        for arrow in panel.arrows:
+            atom = arrow.source_atoms[0]
+            if (arrow.source_kind != "lone_pair" or atom not in arrow.sink_atoms
+                    or tuple(sorted(arrow.sink_atoms)) not in bonded):
+                continue
+            other, = (i for i in arrow.sink_atoms if i != atom)
+            centre = tuple(sum(c) / len(dots[atom].dots) for c in zip(*dots[atom].dots))
+
+            def angle(p):
+                return math.atan2(p[1] - where[atom][1], p[0] - where[atom][0])
+
+            def apart(a, b):
+                return abs((a - b + math.pi) % (2 * math.pi) - math.pi)
+
+            out = angle(centre)
+            assert math.degrees(apart(out, angle(where[other]))) >= 60 - 1e-6, (panel.index, arrow.move)
+            for i, j in bonded:
+                if atom in (i, j):
+                    n = j if i == atom else i
+                    assert math.degrees(apart(out, angle(where[n]))) >= 30 - 1e-6, (panel.index, arrow.move, n)
+            assert _path_length(arrow.path_points(40)) >= 0.8 * bl, (panel.index, arrow.move)

@@ -162,16 +162,13 @@ class ArrowPlanner:
         atom = move.source_atoms[0]
         centre = panel.positions[atom]
         # Dots sit on a side or a corner of the label, facing where the arrow goes; for a pair
-        # that goes into a bond of the same atom they sit beside that bond, so the arrow has
-        # room to curve over to it.
-        labelled = panel.atoms[atom].box is not None
-        steps = 8 if labelled else 24
+        # that goes into a bond of the same atom they sit in a free gap well round from that
+        # bond, so the arrow over to its middle is long enough to read as a curve.
         toward = _unit(sink.point - centre)
         if atom in sink.atoms and sink.kind in ("bond", "gap"):
-            sides = [best_direction(panel.occupied[atom], toward * cmath.rect(1.0, turn), spread=0.35, steps=steps)
-                     for turn in (1.2, -1.2)]
-            direction = max(sides, key=lambda d: (clearance(d, panel.occupied[atom]), (d / toward).real))
+            direction = _beside_bond(panel.occupied[atom], toward)
         else:
+            steps = 8 if panel.atoms[atom].box is not None else 24
             direction = best_direction(panel.occupied[atom], toward, spread=0.35, steps=steps)
         panel.occupied[atom].append(direction)
         r = self.dot_radius
@@ -434,6 +431,20 @@ class ArrowPlanner:
             sink_box=panel.atoms[snk.atoms[0]].box if snk.kind == "atom" else None,
             start=pt(s0), control1=pt(s1), control2=pt(s2), end=pt(s3), tip=pt(tip),
             head=tuple(pt(z) for z in outline))
+
+
+_DOTS_ROOM = math.radians(45)     # more room than this between dots and a bond counts as no better
+_AROUND = tuple(cmath.rect(1.0, k * math.pi / 12) for k in range(24))
+
+
+def _beside_bond(occupied: list[complex], toward: complex) -> complex:
+    """Where the dots of a pair that moves into a bond of its own atom sit: in the free gap
+    nearest a right angle to that bond (as far round as the room allows), not beside it, so
+    the arrow from them to the bond's middle bends visibly (common practice)."""
+    def score(d: complex) -> float:
+        turn = abs(cmath.phase(d / toward))
+        return min(clearance(d, occupied), _DOTS_ROOM) + 0.5 * min(turn, math.pi / 2) - 0.6 * max(0.0, turn - math.pi / 2)
+    return max(_AROUND, key=score)
 
 
 def _parameter_at_distance(p0: complex, p1: complex, p2: complex, p3: complex, distance: float) -> float:
