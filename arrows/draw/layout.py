@@ -667,6 +667,10 @@ class _LayoutBuilder:
                           if abs(p - centre) > 1e-9], dtype=complex)
         near = np.array([p for a, p in self.positions[k].items() if a != atom and abs(p - centre) < reach + 1.3],
                         dtype=complex)
+        if prefer is None and len(taken) == 1:
+            # Straight on from a lone atom's one other partner (the hydrogen it will take), so
+            # the three stand in a line instead of a crooked stack.
+            prefer = -complex(taken[0])
         spots = centre + _COMPASS * reach
         score = np.full(len(_COMPASS), 1.0)
         if len(taken):
@@ -771,7 +775,9 @@ class _LayoutBuilder:
             target = anchor_at + direction * distance
             best = (0.0, rotation, target - cluster.local[mover] * rotation, direction)
         _, rotation, shift, direction = best
-        cluster.placement[segment[0]] = (rotation, shift, direction, APPROACH - 1.0 if kind == "bond" else TRANSFER_GAP)
+        # Before it bonds, a molecule waits further out along its line of approach; a partner of
+        # a proton hop is already a comfortable arrow's length away, and waits where it is.
+        cluster.placement[segment[0]] = (rotation, shift, direction, APPROACH - 1.0 if kind == "bond" else 0.0)
         self._apply(index)
         if hydrogen is not None:
             self._promise(hydrogen, anchor, k, direction)
@@ -845,6 +851,30 @@ class _LayoutBuilder:
             return True
         return False
 
+    def _split_off(self, index: int, segment: tuple[int, int], previous: Optional[tuple]) -> Optional[tuple]:
+        """Where a cluster stays after it has acted: where it was, or, when the step before the
+        segment split its bond evenly (a homolysis: it now carries the unpaired electron), a
+        little further out along that bond, so the two radicals read as apart. A fragment that
+        leaves with the pair stays: it is soon left out of the panels anyway."""
+        if previous is None or previous[2] is None or segment[0] == 0:
+            return previous
+        atoms = set(self.clusters[index].atoms)
+        k = segment[0]
+        mol = self.states[k].mol
+        if not any((i in atoms) != (j in atoms) and mol.GetAtomWithIdx(i if i in atoms else j).GetNumRadicalElectrons()
+                   for i, j in self.bonds_in[k - 1] - self.bonds_in[k]):
+            return previous
+        rotation, shift, direction, pull_back = previous
+        cluster = self.clusters[index]
+        local = np.array([rotation * cluster.local[a] for a in cluster.atoms], dtype=complex)
+        others = np.array([p for kk in range(segment[0], segment[1] + 1) for a, p in self.positions[kk].items()
+                           if a not in atoms], dtype=complex)
+        for extra in (0.7, 0.5, 0.3):
+            moved = shift + direction * extra
+            if not len(others) or np.abs(moved + local[:, None] - others[None, :]).min() >= _CLEARANCE:
+                return (rotation, moved, direction, pull_back)
+        return previous
+
     def _place_leftovers(self) -> bool:
         """Runs of panels no event placed after a cluster has acted: it stays where it last
         acted, next to the atoms it acted on, until an event places it again. A cluster that
@@ -853,11 +883,11 @@ class _LayoutBuilder:
             if not cluster.placement or len(cluster.placement) == len(cluster.segments):
                 continue
             previous = None
-            for start, _ in cluster.segments:
+            for start, end in cluster.segments:
                 if start in cluster.placement:
                     previous = cluster.placement[start]
                 else:
-                    cluster.placement[start] = previous
+                    cluster.placement[start] = self._split_off(index, (start, end), previous)
             self._apply(index)
             return True
         unplaced = [k for k, c in enumerate(self.clusters) if not c.placement]
