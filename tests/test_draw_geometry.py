@@ -534,3 +534,19 @@ def test_radical_chain_species_sit_where_they_act():
     assert abs(where(1, 1) - where(1, 2)) / bl >= 1.6
     carbon, attacked, far = where(2, 3), where(2, 4), where(2, 5)
     assert math.degrees(abs(cmath.phase((carbon - attacked) / (far - attacked)))) >= 160
+
+
+def test_acid_waits_beside_the_base_it_protonates():
+    """3-Methylbutan-2-ol with HBr: the acid is drawn beside the hydroxyl it protonates, so the
+    proton-transfer arrow is short (hydroxyl O to H of HBr 1.4-2.0 bond lengths; common practice
+    in organic chemistry texts), and the bromide it leaves stays there in the next panel (within
+    2.6 bond lengths of that oxygen) instead of where it will attack two steps later."""
+    path = ROOT / "gallery" / "15-hydride-shift.mech"
+    trace, _, scene = _scene(path.read_text(encoding="utf-8"), path.name)
+    bl = scene.bond_length
+    mapped = {a.GetAtomMapNum(): a.GetIdx() for a in trace.steps[0].before.mol.GetAtoms() if a.GetAtomMapNum()}
+    (panel, _, distance), = [t for t in _proton_transfers(scene) if t[0] == 0]
+    assert 1.4 <= distance <= 2.0, distance
+    after = scene.panels[1]
+    oxygen, bromide = after.atom(mapped[4]), after.atom(mapped[5])
+    assert _distance(oxygen.position, bromide.position) / bl <= 2.6

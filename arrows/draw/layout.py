@@ -225,6 +225,7 @@ class _Cluster:
     # Partners of a cycloaddition held apart before they bond: (atoms, first panel, last panel,
     # offset in local coordinates).
     openings: list[tuple[frozenset[int], int, int, complex]] = field(default_factory=list)
+    waited: set[int] = field(default_factory=set)   # segment starts placed as a wait before acting
 
 
 def compute_layout(states: Sequence[ElectronState], moves: Sequence[Sequence[ResolvedMove]],
@@ -837,16 +838,21 @@ class _LayoutBuilder:
         return (rotation, best[1], direction, pull_back)
 
     def _place_waiting(self) -> bool:
-        """Before a cluster's first placed run it waits a little further out along the line it
-        will come in on (only atoms the next step touches may move, and a new run starts only
-        where they all are)."""
+        """In the run just before a cluster's first placed run it waits a little further out
+        along the line it will come in on (only atoms the next step touches may move, and a new
+        run starts only where they all are). Earlier runs are left to their own events (a
+        proton it gives away first) or, failing those, to the place it waits in."""
         for index, cluster in enumerate(self.clusters):
-            if not cluster.placement or cluster.segments[0][0] in cluster.placement:
+            acted = [start for start in cluster.placement if start not in cluster.waited]
+            if not acted:
                 continue
-            first = min(cluster.placement)
-            for start, end in cluster.segments:
-                if start < first:
-                    cluster.placement[start] = self._waiting(index, (start, end), cluster.placement[first], first)
+            first = min(acted)
+            earlier = [segment for segment in cluster.segments if segment[0] < first]
+            if not earlier or earlier[-1][0] in cluster.placement:
+                continue
+            start, end = earlier[-1]
+            cluster.placement[start] = self._waiting(index, (start, end), cluster.placement[first], first)
+            cluster.waited.add(start)
             self._apply(index)
             return True
         return False
@@ -882,7 +888,7 @@ class _LayoutBuilder:
         for index, cluster in enumerate(self.clusters):
             if not cluster.placement or len(cluster.placement) == len(cluster.segments):
                 continue
-            previous = None
+            previous = cluster.placement[min(cluster.placement)]    # before its first event: where it waits
             for start, end in cluster.segments:
                 if start in cluster.placement:
                     previous = cluster.placement[start]
