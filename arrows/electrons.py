@@ -71,7 +71,21 @@ class ElectronState:
             object.__setattr__(self, "elements", elements)
             object.__setattr__(self, "valence", tuple(valence_electrons(z) for z in elements))
         if len(self.bond_sums) != len(self.nonbonding):
-            object.__setattr__(self, "bond_sums", tuple(_bond_sum(a) for a in atom_list(self.mol)))
+            object.__setattr__(self, "bond_sums", tuple(_bond_sums(self.mol)))
+
+    @classmethod
+    def of_molecule(cls, mol: Chem.Mol, known_nonbonding: tuple[int, ...] = (),
+                    released: frozenset[int] = frozenset()) -> "ElectronState":
+        """A state read off a Mol: N = V - formal charge - B for every atom after the first
+        len(known_nonbonding), whose N is given (`uses` appends atoms to a state whose electrons
+        have already moved)."""
+        atoms = atom_list(mol)
+        elements = tuple(a.GetAtomicNum() for a in atoms)
+        valence = tuple(valence_electrons(z) for z in elements)
+        sums = tuple(_bond_sums(mol))
+        nonbonding = tuple(known_nonbonding) + tuple(
+            valence[i] - atoms[i].GetFormalCharge() - sums[i] for i in range(len(known_nonbonding), len(atoms)))
+        return cls(mol, nonbonding, released, valence, sums, elements)
 
     def bond_electrons(self, i: int, j: int) -> int:
         bond = self.mol.GetBondBetweenAtoms(i, j)
@@ -87,8 +101,16 @@ class ElectronState:
         return atom_label(self.mol, i)
 
 
-def _bond_sum(atom: Chem.Atom) -> int:
-    return int(sum(b.GetBondTypeAsDouble() for b in atom.GetBonds())) + atom.GetNumExplicitHs()
+def _bond_sums(mol: Chem.Mol) -> list[int]:
+    """B per atom: bond orders (one pass over the bonds) plus hydrogens held as counts."""
+    orders = [0.0] * mol.GetNumAtoms()
+    bond = mol.GetBondWithIdx
+    for k in range(mol.GetNumBonds()):
+        b = bond(k)
+        order = b.GetBondTypeAsDouble()
+        orders[b.GetBeginAtomIdx()] += order
+        orders[b.GetEndAtomIdx()] += order
+    return [int(total) + a.GetNumExplicitHs() for total, a in zip(orders, atom_list(mol))]
 
 
 def atom_label(mol: Chem.Mol, i: int) -> str:
@@ -114,7 +136,7 @@ def bond_label(mol: Chem.Mol, i: int, j: int) -> str:
 
 
 def initial_nonbonding(mol: Chem.Mol) -> list[int]:
-    return [valence_electrons(a.GetAtomicNum()) - a.GetFormalCharge() - _bond_sum(a) for a in atom_list(mol)]
+    return list(ElectronState.of_molecule(mol).nonbonding)
 
 
 @dataclass(frozen=True)   # generated __init__: several per step

@@ -8,7 +8,7 @@ from typing import Iterator, Optional
 from rdkit import Chem
 
 from .diagnostics import Diagnostic
-from .electrons import ElectronState, StepChange, apply_step, initial_nonbonding
+from .electrons import ElectronState, StepChange, apply_step
 from .model import BondPair, BondSink, HydrogenOn, Location, Mechanism, Species, Step
 from .rdkit_io import atom_list, canonical, rdkit_messages, read_smiles
 
@@ -150,7 +150,7 @@ class Replay:
         start = Chem.Mol()
         for position in range(len(mechanism.species)):
             start = Chem.CombineMols(start, self._loaded[position])
-        self.initial = ElectronState(start, tuple(initial_nonbonding(start)))
+        self.initial = ElectronState.of_molecule(start)
         if not mechanism.steps:
             self.final = self.initial
 
@@ -209,8 +209,7 @@ class Replay:
                             if atom.GetAtomMapNum():
                                 map_index[atom.GetAtomMapNum()] = offset + atom.GetIdx()
                                 entered_later.pop(atom.GetAtomMapNum(), None)
-                    state = ElectronState(mol, state.nonbonding + tuple(initial_nonbonding(mol)[len(state.nonbonding):]),
-                                          state.released)
+                    state = ElectronState.of_molecule(mol, state.nonbonding, state.released)
                 after, change, step_diags = apply_step(state, step, index, map_index, entered_later)
                 diags.extend(step_diags)
                 released_now: list[int] = []
