@@ -81,3 +81,13 @@ def test_small_by_products_are_written_as_chemists_abbreviate_them():
     assert text(_byproduct_pieces(Chem.AddHs(Chem.MolFromSmiles("CCO")))) == "EtOH"   # explicit H atoms too
     assert text(_byproduct_pieces(Chem.MolFromSmiles("CC(C)NC(C)C"))) == "i-Pr2NH"
     assert text(_byproduct_pieces(Chem.MolFromSmiles("CCCCO"))) == "C4H10O"
+
+
+def test_a_radical_by_product_is_written_with_its_dot():
+    """Br• beside the arrow of a homolysis, not Br (common practice: a radical keeps its dot)."""
+    from rdkit import Chem
+
+    from arrows.draw.scheme import _byproduct_pieces
+    bromine_atom = Chem.MolFromSmiles("[Br]")          # RDKit: one unpaired electron
+    assert "".join(text for text, _ in _byproduct_pieces(bromine_atom)) == "Br\u2022"
+    assert "\u2022" not in "".join(text for text, _ in _byproduct_pieces(Chem.MolFromSmiles("[Br-]")))

@@ -425,7 +425,11 @@ def _byproduct_pieces(fragment: Chem.Mol) -> list[Piece]:
         if text[1:2] == "-":   # an i- or t- prefix stays plain; the rest is typeset as a formula
             return [(text[:2], "n")] + condition_pieces(text[2:])
         return condition_pieces(text)
-    return formula_pieces(CalcMolFormula(fragment))
+    pieces = formula_pieces(CalcMolFormula(fragment))
+    unpaired = sum(atom.GetNumRadicalElectrons() for atom in fragment.GetAtoms())
+    if unpaired:   # a radical is written with its dot (Br•), as chemists do (common practice)
+        pieces.append(("\u2022" * unpaired, "sup"))
+    return pieces
 
 
 def _bonds_of(mol: Chem.Mol, frag: Sequence[int]) -> list[int]:
