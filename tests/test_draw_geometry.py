@@ -550,3 +550,49 @@ def test_acid_waits_beside_the_base_it_protonates():
     after = scene.panels[1]
     oxygen, bromide = after.atom(mapped[4]), after.atom(mapped[5])
     assert _distance(oxygen.position, bromide.position) / bl <= 2.6
+
+
+def _segments_cross(p, q, a, b) -> bool:
+    return _signed_area(p, q, a) * _signed_area(p, q, b) < 0 and _signed_area(a, b, p) * _signed_area(a, b, q) < 0
+
+
+def _bonds_crossed(scene) -> list[tuple[int, str, tuple[int, int]]]:
+    """(panel, move, bond) for every bond a curved arrow crosses that is not one of its own: a
+    bond between two atoms its move names (the bond it starts on, ends on, or makes)."""
+    out = []
+    for panel in scene.panels:
+        for arrow in panel.arrows:
+            own = set(arrow.source_atoms) | set(arrow.sink_atoms)
+            points = arrow.path_points(40)
+            for bond in panel.bonds:
+                if set(bond.atoms) <= own:
+                    continue
+                if any(_segments_cross(p, q, a, b) for a, b in bond.lines for p, q in zip(points, points[1:])):
+                    out.append((panel.index, arrow.move, bond.atoms))
+    return out
+
+
+def test_arrows_cross_few_bonds_across_the_gallery():
+    """A curved arrow runs round the structure rather than across a bond that is not its own
+    (common practice in organic chemistry texts). Measured on the whole gallery: 8 such
+    crossings before the shuttle bases of the annulation came in beside the proton they take,
+    3 after; this keeps it from growing back."""
+    crossed = []
+    for path in GALLERY:
+        _, _, scene = _scene(path.read_text(encoding="utf-8"), path.name)
+        crossed += [(path.stem,) + c for c in _bonds_crossed(scene)]
+    assert len(crossed) <= 3, crossed
+
+
+def test_annulation_proton_transfers_cross_no_bond():
+    """Wieland-Miescher annulation: the enone is drawn from the step it acts in and every base or
+    acid that shuttles a proton is brought in beside it, so no proton-transfer arrow crosses a
+    bond (common practice in organic chemistry texts), and the first is short (base O to H
+    1.4-2.0 bond lengths)."""
+    path = ROOT / "gallery" / "07-annulation-wieland-miescher.mech"
+    _, _, scene = _scene(path.read_text(encoding="utf-8"), path.name)
+    transfers = _proton_transfers(scene)
+    assert len(transfers) == 4
+    moves = {(panel, move) for panel, move, _ in transfers}
+    assert not [c for c in _bonds_crossed(scene) if c[:2] in moves]
+    assert 1.4 <= transfers[0][2] <= 2.0, transfers[0]
