@@ -596,3 +596,37 @@ def test_annulation_proton_transfers_cross_no_bond():
     moves = {(panel, move) for panel, move, _ in transfers}
     assert not [c for c in _bonds_crossed(scene) if c[:2] in moves]
     assert 1.4 <= transfers[0][2] <= 2.0, transfers[0]
+
+
+@pytest.mark.parametrize("text,name", _mechanisms())
+def test_fishhooks_of_a_split_bond_are_curves_on_its_two_sides(text, name):
+    """A single electron going from a bond to one of its own atoms (a homolysis) is drawn as one
+    fishhook that sets off from the bond's middle toward that atom (never first back toward the
+    other atom, which reads as an S-shaped hook; at most 0.05 bond lengths) and bends one way,
+    at least 0.15 bond lengths off its chord; when both electrons of a bond go to its two atoms
+    the two fishhooks run on opposite sides of the bond (common practice in organic chemistry
+    texts for drawing the homolysis of Br2 or a peroxide)."""
+    _, _, scene = _scene(text, name)
+    bl = scene.bond_length
+    for panel in scene.panels:
+        where = {a.index: complex(*a.position) for a in panel.atoms}
+        sides = {}
+        for arrow in panel.arrows:
+            if (arrow.electrons != 1 or arrow.source_kind != "bond" or len(arrow.sink_atoms) != 1
+                    or arrow.sink_atoms[0] not in arrow.source_atoms):
+                continue
+            atom, = arrow.sink_atoms
+            other, = (i for i in arrow.source_atoms if i != atom)
+            axis = (where[atom] - where[other]) / abs(where[atom] - where[other])
+            path = [complex(*p) for p in arrow.path_points(40)]
+            first, last = path[0], path[-1]
+            assert min(((p - first) / axis).real for p in path) >= -0.05 * bl, (panel.index, arrow.move, "S-shaped")
+            off = [((p - first) / (last - first)).imag * abs(last - first) for p in path]
+            assert min(off) > -0.03 * bl or max(off) < 0.03 * bl, (panel.index, arrow.move, "bends both ways")
+            assert max(abs(d) for d in off) >= 0.15 * bl, (panel.index, arrow.move, "flat")
+            middle = path[len(path) // 2]
+            sides.setdefault((other, atom) if other < atom else (atom, other), []).append(
+                ((middle - where[min(other, atom)]) / axis).imag * (1 if atom > other else -1) > 0)
+        for bond, seen in sides.items():
+            if len(seen) == 2:
+                assert seen[0] != seen[1], (panel.index, bond)

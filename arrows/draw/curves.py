@@ -139,7 +139,8 @@ class ArrowPlanner:
         self._separate_shared_sinks(moves, sinks, panel)
         sources = [self._source(move, panel, sink, marks) for move, sink in zip(moves, sinks)]
         obstacles = _Obstacles(panel, marks, self.bl)
-        everything = [self._candidates(src, snk, panel) for src, snk in zip(sources, sinks)]
+        everything = [self._candidates(src, snk, panel) + self._hooks(move, src, snk, panel)
+                      for move, src, snk in zip(moves, sources, sinks)]
         # Every candidate of every arrow is sampled in one product: numpy's cost here is per call.
         candidates = [c for g in everything for c in g]
         points = np.array([[c.p0, c.p1, c.p2, c.tip] for c in candidates], dtype=complex) @ _BERNSTEIN
@@ -229,6 +230,22 @@ class ArrowPlanner:
         chord = abs(snk.point - src.point)
         angles = _SHORT_ANGLES if chord < 0.9 * self.bl else _ANGLES
         return [self._arc(src, snk, side, theta, panel) for side in (1, -1) for theta in angles]
+
+    def _hooks(self, move: ResolvedMove, src: _Anchor, snk: _Anchor, panel: PanelStructure) -> list[_Candidate]:
+        """A single electron leaving a bond for one of its own ends (homolysis): a C-shaped arc
+        on either side of the bond, out from its middle and back in to the atom from the side,
+        so the fishhook reads as a curve and not as a hook on the short span between the labels
+        (common practice: one fishhook to each atom, on either side of the bond)."""
+        if move.electrons != 1 or src.kind != "bond" or snk.kind != "atom" or snk.atoms[0] not in src.atoms:
+            return []
+        out = []
+        h = 0.4 * self.bl
+        for normal in (src.axis * 1j, src.axis * -1j):
+            p0 = src.point + normal * (src.extent + 0.05 * self.bl)
+            reach = panel.label_reach(snk.atoms[0], normal)
+            tip = snk.point + normal * (reach + 0.12 * self.fs if reach else 0.2 * self.bl)
+            out.append(_Candidate(p0, p0 + normal * h, tip + normal * h, tip))
+        return out
 
     def _arc(self, src: _Anchor, snk: _Anchor, side: int, theta: float, panel: PanelStructure) -> _Candidate:
         """Leaves at theta to the chord on one side and arrives at theta on the same side, so
