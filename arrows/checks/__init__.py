@@ -5,7 +5,6 @@ long mechanism is checked without holding every state. Adding a check is one cla
 below."""
 from __future__ import annotations
 
-from dataclasses import dataclass, field
 from typing import Iterable, Optional
 
 from ..diagnostics import Diagnostic, sort_key
@@ -15,11 +14,11 @@ from ..model import Mechanism, frozen
 from ..trace import Replay, StepTrace, Trace
 
 
-@dataclass
 class Context:
     """What the checks of one replay share: the perceived views of the latest states."""
 
-    views: RecentViews = field(default_factory=RecentViews)
+    def __init__(self) -> None:
+        self.views = RecentViews()
 
 
 @frozen
@@ -33,6 +32,9 @@ class Ending:
 
 
 class Check:
+    """The base of every check: `step` is called for each replayed step in order, `finish` once at
+    the end; either may be left out."""
+
     name: str = ""
     codes: tuple[str, ...] = ()
 
