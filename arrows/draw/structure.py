@@ -97,6 +97,19 @@ def _segment_hits_box(p: complex, q: complex, box: Box) -> bool:
     return True
 
 
+def _closes_cycle(i: int, j: int, adjacent: list[list[int]]) -> bool:
+    """Whether bond i-j lies on a ring: j is reached from i without crossing that bond."""
+    seen, frontier = {i}, [n for n in adjacent[i] if n != j]
+    while frontier:
+        a = frontier.pop()
+        if a == j:
+            return True
+        if a not in seen:
+            seen.add(a)
+            frontier.extend(n for n in adjacent[a] if n not in seen and not (a == i and n == j))
+    return False
+
+
 def _unit_or_zero(z: complex) -> complex:
     return z / abs(z) if abs(z) > 1e-12 else 0j
 
@@ -172,7 +185,11 @@ class StructureDrawer:
             out.bond_directions[i] = list(out.occupied[i])
         for i in visible:
             out.atoms[i] = self._atom(state, atoms, adjacent, i, positions, neighbours[i], drawn_hydrogens, out)
-        rings = [list(r) for r in Chem.GetSymmSSSR(mol)] if bonds else []
+        # RDKit's ring search costs more than all the strokes: run it only when a drawn double
+        # bond lies on a ring (only such a bond asks which ring it is in).
+        on_ring = any(order == 2 and i in shown and j in shown and _closes_cycle(i, j, adjacent)
+                      for i, j, order in bonds)
+        rings = [list(r) for r in Chem.GetSymmSSSR(mol)] if on_ring else []
         for i, j, order in bonds:
             if i in shown and j in shown:
                 key = (i, j) if i < j else (j, i)
