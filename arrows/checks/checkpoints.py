@@ -50,14 +50,18 @@ def fragments(mol: Chem.Mol, keep_maps: frozenset[int] = frozenset(), origins: b
 
 
 def _written_fragments(checkpoint: Checkpoint) -> tuple[Optional[list[Fragment]], str, frozenset[int]]:
-    mol, reason, _ = read_smiles(checkpoint.smiles)
-    if mol is None:
-        return None, reason, frozenset()
-    # The bookkeeping follows electrons and connectivity, not configuration: a checkpoint written
-    # with @ or / \ is compared as its constitution (`arrows trace --stereo` reports stereo).
-    Chem.RemoveStereochemistry(mol)
-    maps = frozenset(a.GetAtomMapNum() for a in atom_list(mol) if a.GetAtomMapNum())
-    return fragments(mol, maps), "", maps
+    mol, _, _ = read_smiles(checkpoint.smiles, sanitize=False)   # sanitized once, by fragments()
+    if mol is not None:
+        # The bookkeeping follows electrons and connectivity, not configuration: a checkpoint written
+        # with @ or / \ is compared as its constitution (`arrows trace --stereo` reports stereo).
+        Chem.RemoveStereochemistry(mol)
+        maps = frozenset(a.GetAtomMapNum() for a in atom_list(mol) if a.GetAtomMapNum())
+        try:
+            return fragments(mol, maps), "", maps
+        except Exception:   # RDKit's full reading below says why, in its own words
+            pass
+    _, reason, _ = read_smiles(checkpoint.smiles)
+    return None, reason or "RDKit cannot sanitize it", frozenset()
 
 
 def compare(state: ElectronState, checkpoint: Checkpoint, code: str, step: Optional[int]) -> list[Diagnostic]:
