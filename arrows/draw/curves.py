@@ -479,17 +479,23 @@ def _parameter_at_distance(p0: complex, p1: complex, p2: complex, p3: complex, d
 
 def _crossing_counts(pts: np.ndarray, a: np.ndarray, b: np.ndarray) -> np.ndarray:
     """For each polyline (rows of pts) and each segment a[e]-b[e]: how many times they cross."""
+    counts = np.zeros((pts.shape[0], len(a)), dtype=int)
     if len(a) == 0:
-        return np.zeros((pts.shape[0], 0), dtype=int)
+        return counts
     ax, ay, bx, by = a.real, a.imag, b.real, b.imag
     ex, ey = bx - ax, by - ay
-    rx, ry = ax - pts.real[:, :, None], ay - pts.imag[:, :, None]     # every sample to a
+    px, py = pts.real[:, :, None], pts.imag[:, :, None]
     # Which side of each bond's line every sample lies on; a polyline segment crosses the line
-    # where its two ends lie on opposite sides.
-    side = ey * rx - ex * ry
-    d = np.diff(pts, axis=1)[:, :, None]
-    dx, dy = d.real, d.imag
-    rx, ry = rx[:, :-1], ry[:, :-1]
-    o1 = dx * ry - dy * rx
-    o2 = dx * (by - pts.imag[:, :-1, None]) - dy * (bx - pts.real[:, :-1, None])
-    return ((o1 * o2 < 0) & (side[:, :-1] * side[:, 1:] < 0)).sum(axis=1)
+    # where its two ends lie on opposite sides. Few do, so only those are tested further: do
+    # the bond's ends lie on opposite sides of that segment?
+    side = ey * (ax - px) - ex * (ay - py)
+    c, s, e = np.nonzero(side[:, :-1] * side[:, 1:] < 0)
+    if len(c) == 0:
+        return counts
+    x0, y0 = pts.real[c, s], pts.imag[c, s]
+    dx, dy = pts.real[c, s + 1] - x0, pts.imag[c, s + 1] - y0
+    o1 = dx * (ay[e] - y0) - dy * (ax[e] - x0)
+    o2 = dx * (by[e] - y0) - dy * (bx[e] - x0)
+    hit = o1 * o2 < 0
+    np.add.at(counts, (c[hit], e[hit]), 1)
+    return counts
