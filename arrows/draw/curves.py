@@ -20,6 +20,7 @@ import cmath
 import math
 from dataclasses import dataclass
 from functools import lru_cache
+from itertools import accumulate
 
 import numpy as np
 
@@ -77,7 +78,7 @@ class _Candidate:
     p1: complex
     p2: complex
     tip: complex
-    points: np.ndarray = None  # complex samples along the curve
+    row: int = 0               # its row of complex samples along the curve in the panel's array
     cost: float = 0.0
 
 
@@ -144,12 +145,12 @@ class ArrowPlanner:
         # Every candidate of every arrow is sampled in one product: numpy's cost here is per call.
         candidates = [c for g in everything for c in g]
         points = np.array([[c.p0, c.p1, c.p2, c.tip] for c in candidates], dtype=complex) @ _BERNSTEIN
-        for c, row in zip(candidates, points):
-            c.points = row
+        for row, c in enumerate(candidates):
+            c.row = row
         self._score(candidates, points, [len(g) for g in everything], sources, sinks, moves, obstacles)
         options = [sorted(candidates, key=lambda c: c.cost)[:_KEEP] for candidates in everything]
-        chosen = self._choose(options)
-        arrows = [self._arrow(step, move, src, snk, cand, panel)
+        chosen = self._choose(options, points)
+        arrows = [self._arrow(step, move, src, snk, cand, points[cand.row], panel)
                   for move, src, snk, cand in zip(moves, sources, sinks, chosen)]
         return arrows, marks
 
@@ -306,8 +307,8 @@ class ArrowPlanner:
             own[k, list(m.source_atoms + m.sink_atoms)] = True
         is_own = own[:, ob.atom_ids]                                       # (arrows, atoms)
         labelled, bare = ob.labelled, ~ob.labelled
-        mine = np.array([[src.kind == "dots" and m in src.atoms for m in ob.mark_owner.tolist()] for src in sources],
-                        dtype=bool).reshape(len(sources), -1)             # an arrow's own dots
+        dots_of = np.array([src.atoms[0] if src.kind == "dots" else -1 for src in sources])   # atom indices are >= 0
+        mine = ob.mark_owner[None, :] == dots_of[:, None]                  # an arrow's own dots
         # Every penalty counted per sample, in one array whose last axis is: label boxes, charge
         # signs and dots, skeletal vertices; then the bonds crossed. numpy's cost here is per call.
         boxes = np.concatenate([ob.boxes[labelled], ob.marks])
@@ -344,17 +345,17 @@ class ArrowPlanner:
         for c, value in zip(candidates, cost.tolist()):
             c.cost = value
 
-    def _pair_costs(self, options: list[list[_Candidate]]) -> dict[tuple[int, int], np.ndarray]:
+    def _pair_costs(self, options: list[list[_Candidate]], samples: np.ndarray) -> dict[tuple[int, int], np.ndarray]:
         """Penalty of drawing candidate a of arrow i with candidate b of arrow j (i < j), for every
         such pair of kept candidates: heads too close, shafts alongside, shafts crossing. One
         batch holds the candidates of every arrow but the last against those of every arrow but
         the first (numpy's cost here is per call, not per pair); the blocks for i < j are kept."""
         sizes = [len(o) for o in options]
-        ends = np.cumsum(sizes).tolist()
+        ends = list(accumulate(sizes))
         flat = [c for o in options for c in o]
         tips = np.array([c.tip for c in flat])
         starts = np.array([c.p0 for c in flat])
-        points = np.stack([c.points for c in flat])                       # (C, S)
+        points = samples[[c.row for c in flat]]                           # (C, S)
         body = points[:, ::2][:, 1:-1]
         coarse = points[:, ::4]                                           # five chords per curve
         rows, columns = slice(0, ends[-2]), slice(sizes[0], None)
@@ -386,14 +387,14 @@ class ArrowPlanner:
                & (of_a[..., :-1] * of_a[..., 1:] < 0).transpose(0, 1, 3, 2))
         return cost + 20.0 * hit.sum(axis=(2, 3))
 
-    def _choose(self, options: list[list[_Candidate]]) -> list[_Candidate]:
+    def _choose(self, options: list[list[_Candidate]], samples: np.ndarray) -> list[_Candidate]:
         """The combination of one candidate per arrow with the least total penalty: exhaustive
         for up to four arrows, coordinate descent beyond."""
         n = len(options)
         if n == 0:
             return []
         single = [np.array([c.cost for c in o]) for o in options]
-        pairs = self._pair_costs(options) if n > 1 else {}
+        pairs = self._pair_costs(options, samples) if n > 1 else {}
         if n <= 4:
             total = np.zeros([len(o) for o in options])
             for i in range(n):
@@ -418,10 +419,10 @@ class ArrowPlanner:
 
     # the final arrow
     def _arrow(self, step: int, move: ResolvedMove, src: _Anchor, snk: _Anchor, c: _Candidate,
-               panel: PanelStructure) -> CurvedArrow:
+               samples: np.ndarray, panel: PanelStructure) -> CurvedArrow:
         p0, p1, p2, tip = c.p0, c.p1, c.p2, c.tip
         # A short arrow gets a smaller head, so the head never swallows the curve.
-        length = float(np.abs(np.diff(c.points)).sum())
+        length = float(np.abs(np.diff(samples)).sum())
         head = min(self.head_length, max(0.32 * length, 0.6 * self.head_length))
         base = bezier(p0, p1, p2, tip, _parameter_at_distance(p0, p1, p2, tip, head))
         direction = _unit(tip - base)
