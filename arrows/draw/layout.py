@@ -22,6 +22,7 @@ import cmath
 import math
 from contextlib import contextmanager
 from dataclasses import dataclass, field
+from functools import lru_cache
 from typing import Iterable, Iterator, Optional, Sequence
 
 import numpy as np
@@ -166,6 +167,12 @@ def _inside(point: complex, polygon: list[complex]) -> bool:
     return inside
 
 
+@lru_cache(maxsize=None)
+def _rotor(count: int, divisions: int) -> complex:
+    """The unit turn by count * pi / divisions (a placement tries a few dozen of the same turns)."""
+    return cmath.rect(1.0, count * math.pi / divisions)
+
+
 class _Placements:
     """The ways of placing a cluster next to its anchor, in the order they are tried: for each,
     the direction from the anchor, the cluster's rotation, the target of the atom that bonds,
@@ -185,9 +192,9 @@ class _Placements:
         while index >= len(self.done):
             directions, rotations, targets = [], [], []
             for _, turn, spin, extra in self.options[len(self.done):len(self.done) + self._BATCH]:
-                direction = self.u * cmath.rect(1.0, turn * math.pi / 9)
+                direction = self.u * _rotor(turn, 9)
                 directions.append(direction)
-                rotations.append(_unit(-direction / self.v) * cmath.rect(1.0, spin * math.pi / 6))
+                rotations.append(_unit(-direction / self.v) * _rotor(spin, 6))
                 targets.append(self.anchor_at + direction * (self.distance + extra))
             target_array, rotation_array = np.array(targets, dtype=complex), np.array(rotations, dtype=complex)
             moved = target_array[:, None] + self.local[None, :] * rotation_array[:, None]
@@ -276,6 +283,7 @@ class _LayoutBuilder:
     def build(self) -> Layout:
         self._find_clusters()
         self.residences = self._residences()
+        self.events = self._events()    # fixed from here on: placing moves clusters, not bonds or hydrogens
         for k, cluster in enumerate(self.clusters):
             cluster.segments = self._segments(k)
         main = self.clusters[self.main]
@@ -643,7 +651,7 @@ class _LayoutBuilder:
         progress = False
         # Bonds first: the skeleton decides where there is room; hydrogens and the partners
         # they travel to take what is left.
-        events = sorted((e for e in self._events() if e[1] in kinds), key=lambda e: e[1] != "bond")
+        events = sorted((e for e in self.events if e[1] in kinds), key=lambda e: e[1] != "bond")
         for k, kind, a, b, h in events:
             ca, cb = self.cluster_of.get(a), self.cluster_of.get(b)
             if ca is None or cb is None or ca == cb:
