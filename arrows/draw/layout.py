@@ -543,9 +543,11 @@ class _LayoutBuilder:
         for atom in group:
             mol.AddAtom(Chem.Atom(self.element[atom]))
         orders = {1: Chem.BondType.SINGLE, 2: Chem.BondType.DOUBLE, 3: Chem.BondType.TRIPLE}
+        ends = []     # in the order the bonds are added, which is their order in the Mol
         for (i, j), order in sorted(self.union.items()):
             if i in index and j in index:
                 mol.AddBond(index[i], index[j], orders.get(order, Chem.BondType.SINGLE))
+                ends.append((index[i], index[j]))
         mol.UpdatePropertyCache(strict=False)
         Chem.FastFindRings(mol)
         self.rings += [[group[k] for k in ring] for ring in Chem.GetSymmSSSR(mol)]
@@ -553,7 +555,7 @@ class _LayoutBuilder:
             rdDepictor.Compute2DCoords(mol, canonOrient=True)
         # All positions in one call: asking the conformer atom by atom costs more than the sums.
         xyz = mol.GetConformer().GetPositions()
-        ends = np.array([(b.GetBeginAtomIdx(), b.GetEndAtomIdx()) for b in mol.GetBonds()], dtype=int).reshape(-1, 2)
+        ends = np.array(ends, dtype=int).reshape(-1, 2)
         d = xyz[ends[:, 0]] - xyz[ends[:, 1]]
         lengths = np.sqrt(d[:, 0] * d[:, 0] + d[:, 1] * d[:, 1] + d[:, 2] * d[:, 2]).tolist()
         scale = 1.0 / (sum(lengths) / len(lengths)) if lengths else 1.0
