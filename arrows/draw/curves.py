@@ -83,41 +83,39 @@ class _Candidate:
 
 
 class _Obstacles:
-    """Everything on a panel an arrow should keep away from, as arrays for fast testing."""
+    """Everything on a panel within a box (the reach of every candidate curve of the panel) that
+    an arrow should keep away from, as arrays for fast testing. The box is applied while the
+    lists are built: a few dozen Python comparisons cost less than numpy's calls."""
 
-    def __init__(self, panel: PanelStructure, extra_marks: list[Mark], bl: float):
-        atoms = sorted(panel.atoms)
+    def __init__(self, panel: PanelStructure, extra_marks: list[Mark], bl: float,
+                 x0: float, y0: float, x1: float, y1: float):
+        positions = panel.positions
+        self.largest_id = max(panel.atoms, default=0)   # sizes the per-atom rows, bonds leaving the box included
+        atoms = [i for i in sorted(panel.atoms)
+                 if x0 <= positions[i].real <= x1 and y0 <= positions[i].imag <= y1]
         self.atom_ids = np.array(atoms, dtype=int)
-        self.atom_xy = np.array([panel.positions[i] for i in atoms], dtype=complex)
+        self.atom_xy = np.array([positions[i] for i in atoms], dtype=complex)
         boxes = [panel.atoms[i].box for i in atoms]
         self.labelled = np.array([b is not None for b in boxes], dtype=bool)
         pad = 0.05 * bl
         self.boxes = np.array([(b.x0 - pad, b.y0 - pad, b.x1 + pad, b.y1 + pad) if b else (0, 0, 0, 0)
                                for b in boxes], dtype=float).reshape(-1, 4)
-        marks = [m.box for m in list(panel.marks) + extra_marks if m.box is not None]
         mp = 0.03 * bl
-        self.marks = np.array([(b.x0 - mp, b.y0 - mp, b.x1 + mp, b.y1 + mp) for b in marks], dtype=float).reshape(-1, 4)
-        self.mark_owner = np.array([m.atom for m in list(panel.marks) + extra_marks if m.box is not None], dtype=int)
-        pairs = [tuple(sorted(b.atoms)) for b in panel.bonds]
+        marks = [(m.atom, (m.box.x0 - mp, m.box.y0 - mp, m.box.x1 + mp, m.box.y1 + mp))
+                 for m in list(panel.marks) + extra_marks if m.box is not None]
+        marks = [(atom, box) for atom, box in marks if box[2] >= x0 and box[0] <= x1 and box[3] >= y0 and box[1] <= y1]
+        self.marks = np.array([box for _, box in marks], dtype=float).reshape(-1, 4)
+        self.mark_owner = np.array([atom for atom, _ in marks], dtype=int)
+        pairs = []
+        for bond in panel.bonds:
+            i, j = sorted(bond.atoms)
+            a, b = positions[i], positions[j]
+            if (max(a.real, b.real) >= x0 and min(a.real, b.real) <= x1
+                    and max(a.imag, b.imag) >= y0 and min(a.imag, b.imag) <= y1):
+                pairs.append((i, j))
         self.bond_ends = np.array(pairs, dtype=int).reshape(-1, 2)      # lower atom index first
-        self.bond_a = np.array([panel.positions[i] for i, _ in pairs], dtype=complex)
-        self.bond_b = np.array([panel.positions[j] for _, j in pairs], dtype=complex)
-
-    def around(self, x0: float, y0: float, x1: float, y1: float) -> "_Obstacles":
-        """Only what lies within a box (the reach of every candidate curve of a panel)."""
-        out = object.__new__(type(self))
-        xy = self.atom_xy
-        keep = (xy.real >= x0) & (xy.real <= x1) & (xy.imag >= y0) & (xy.imag <= y1)
-        out.atom_ids, out.atom_xy, out.labelled, out.boxes = (self.atom_ids[keep], xy[keep], self.labelled[keep],
-                                                            self.boxes[keep])
-        m = self.marks
-        keep = (m[:, 2] >= x0) & (m[:, 0] <= x1) & (m[:, 3] >= y0) & (m[:, 1] <= y1)
-        out.marks, out.mark_owner = m[keep], self.mark_owner[keep]
-        a, b = self.bond_a, self.bond_b
-        keep = ((np.maximum(a.real, b.real) >= x0) & (np.minimum(a.real, b.real) <= x1)
-                & (np.maximum(a.imag, b.imag) >= y0) & (np.minimum(a.imag, b.imag) <= y1))
-        out.bond_ends, out.bond_a, out.bond_b = self.bond_ends[keep], a[keep], b[keep]
-        return out
+        self.bond_a = np.array([positions[i] for i, _ in pairs], dtype=complex)
+        self.bond_b = np.array([positions[j] for _, j in pairs], dtype=complex)
 
 
 class ArrowPlanner:
@@ -139,7 +137,6 @@ class ArrowPlanner:
         sinks = [self._sink(move, state, panel) for move in moves]
         self._separate_shared_sinks(moves, sinks, panel)
         sources = [self._source(move, panel, sink, marks) for move, sink in zip(moves, sinks)]
-        obstacles = _Obstacles(panel, marks, self.bl)
         everything = [self._candidates(src, snk, panel) + self._hooks(move, src, snk, panel)
                       for move, src, snk in zip(moves, sources, sinks)]
         # Every candidate of every arrow is sampled in one product: numpy's cost here is per call.
@@ -147,6 +144,9 @@ class ArrowPlanner:
         points = np.array([[c.p0, c.p1, c.p2, c.tip] for c in candidates], dtype=complex) @ _BERNSTEIN
         for row, c in enumerate(candidates):
             c.row = row
+        reach = 1.3 * self.bl     # the crowding term looks this far from a curve
+        obstacles = _Obstacles(panel, marks, self.bl, float(points.real.min()) - reach, float(points.imag.min()) - reach,
+                               float(points.real.max()) + reach, float(points.imag.max()) + reach)
         self._score(candidates, points, [len(g) for g in everything], sources, sinks, moves, obstacles)
         options = [sorted(candidates, key=lambda c: c.cost)[:_KEEP] for candidates in everything]
         chosen = self._choose(options, points)
@@ -296,13 +296,9 @@ class ArrowPlanner:
         p0, tip = pts[:, :1], pts[:, -1:]
         inner = ((np.abs(pts - p0) > 0.22 * bl) & (np.abs(pts - tip) > 0.22 * bl))[:, :, None]
         x, y = pts.real[:, :, None], pts.imag[:, :, None]
-        reach = 1.3 * bl     # the crowding term looks this far from a curve
         # Which atoms each arrow's own move names, as one boolean row per arrow.
-        known = max([int(ob.atom_ids.max()) if len(ob.atom_ids) else 0]
-                    + [i for m in moves for i in m.source_atoms + m.sink_atoms])
+        known = max([ob.largest_id] + [i for m in moves for i in m.source_atoms + m.sink_atoms])
         own = np.zeros((len(moves), known + 1), dtype=bool)
-        ob = ob.around(float(pts.real.min()) - reach, float(pts.imag.min()) - reach,
-                       float(pts.real.max()) + reach, float(pts.imag.max()) + reach)
         for k, m in enumerate(moves):
             own[k, list(m.source_atoms + m.sink_atoms)] = True
         is_own = own[:, ob.atom_ids]                                       # (arrows, atoms)
