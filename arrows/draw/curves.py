@@ -114,6 +114,7 @@ class _Obstacles:
                     and max(a.imag, b.imag) >= y0 and min(a.imag, b.imag) <= y1):
                 pairs.append((i, j))
         self.bond_ends = np.array(pairs, dtype=int).reshape(-1, 2)      # lower atom index first
+        self.bond_index = {pair: k for k, pair in enumerate(pairs)}
         self.bond_a = np.array([positions[i] for i, _ in pairs], dtype=complex)
         self.bond_b = np.array([positions[j] for _, j in pairs], dtype=complex)
 
@@ -316,8 +317,9 @@ class ArrowPlanner:
         for k, anchors in enumerate(zip(sources, sinks)):
             for anchor in anchors:
                 if anchor.kind == "bond":   # the bond the arrow starts or ends on is no obstacle
-                    i, j = sorted(anchor.atoms)
-                    crossing[k, (first == i) & (second == j)] = 0.0
+                    bond = ob.bond_index.get(tuple(sorted(anchor.atoms)))
+                    if bond is not None:
+                        crossing[k, bond] = 0.0
         weights = np.concatenate([np.where(is_own[:, labelled], 40.0, 100.0), np.where(mine, 0.0, 30.0),
                                   np.where(is_own[:, bare], 10.0, 30.0), crossing], axis=1)
         counts = np.concatenate([counts, _crossing_counts(pts, ob.bond_a, ob.bond_b)], axis=1)
