@@ -80,12 +80,11 @@ class ElectronState:
         len(known_nonbonding), whose N is given (`uses` appends atoms to a state whose electrons
         have already moved)."""
         atoms = atom_list(mol)
-        elements = tuple(a.GetAtomicNum() for a in atoms)
-        valence = tuple(valence_electrons(z) for z in elements)
         sums = tuple(_bond_sums(mol))
         nonbonding = tuple(known_nonbonding) + tuple(
-            valence[i] - atoms[i].GetFormalCharge() - sums[i] for i in range(len(known_nonbonding), len(atoms)))
-        return cls(mol, nonbonding, released, valence, sums, elements)
+            valence_electrons(atoms[i].GetAtomicNum()) - atoms[i].GetFormalCharge() - sums[i]
+            for i in range(len(known_nonbonding), len(atoms)))
+        return cls(mol, nonbonding, released, bond_sums=sums)   # elements and V derived on creation
 
     def bond_electrons(self, i: int, j: int) -> int:
         bond = self.mol.GetBondBetweenAtoms(i, j)

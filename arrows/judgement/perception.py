@@ -13,6 +13,7 @@ from typing import Iterable, Optional
 from rdkit import Chem
 
 from ..electrons import ElectronState
+from .acidity import perceived
 
 _HYDROGEN = Chem.MolFromSmarts("[#1]")
 _REMOVE_HS = Chem.RemoveHsParameters()
@@ -64,14 +65,8 @@ def perceive(mol: Chem.Mol, clear_stereo_on: Iterable[int] = (), heavy: Optional
 
 
 def _partial(mol: Chem.Mol) -> Perceived:
-    work = Chem.Mol(mol)
-    try:
-        Chem.SanitizeMol(work)
-    except Exception:
-        work.UpdatePropertyCache(strict=False)
-        Chem.FastFindRings(work)
-    every = tuple(range(work.GetNumAtoms()))
-    return Perceived(work, every, False)
+    work = perceived(mol)   # the acidity table's own copy: hydrogens kept, perceived as far as RDKit goes
+    return Perceived(work, tuple(range(work.GetNumAtoms())), False)
 
 
 class RecentViews:

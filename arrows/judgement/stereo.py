@@ -69,12 +69,6 @@ def _distinct_ends(mol: Chem.Mol, ranks: list[int], atom: int, partner: int) -> 
     return len(others) == 1 or len(set(others)) == len(others)
 
 
-def stereo_changes(before: Chem.Mol, after: Chem.Mol) -> tuple[list[StereoElement], list[StereoElement]]:
-    """(made, lost) between two states of one mechanism (atom indices are shared)."""
-    old, new = stereo_elements(before), stereo_elements(after)
-    return sorted(new - old), sorted(old - new)
-
-
 MAX_ENUMERATED = 12     # stereo elements; beyond that the count is the upper bound 2**n
 
 
