@@ -135,6 +135,44 @@ def test_pericyclic_closure_is_not_judged_by_baldwin():
     assert d.code == "AR601" and "pericyclic" in d.message and "6-membered" in d.message
 
 
+def _ring_diagnostics(text: str) -> list:
+    trace, diags = check_text(text)
+    assert trace is not None and trace.complete, [d.to_text() for d in diags]
+    return trace, [d for d in diags if d.code in ("AR501", "AR502", "AR601")]
+
+
+def test_a_1_2_methyl_shift_closes_no_ring():
+    """A 1,2-methyl shift with loss of water (pinacol-type rearrangement, Wagner-Meerwein shift):
+    the migrating carbon bonds to its neighbour's neighbour while its old bond breaks, so no ring
+    is made (textbook carbocation rearrangement; RDKit's ring count of the state after is the
+    judge)."""
+    text = _mechanism("C[C:1]([CH3:4])([OH:2])[C:3](C)(C)[OH2+:5]", ["C1-C4 -> C3-C4", "C3-O5 -> O5"])
+    trace, found = _ring_diagnostics(text)
+    assert trace.final.mol.GetRingInfo().NumRings() == 0
+    assert found == []
+
+
+def test_a_3_3_shift_closes_no_ring():
+    """Hexa-1,5-diene in a Cope rearrangement: a [3,3] shift whose product is again an open chain
+    (textbook pericyclic chemistry, common practice; RDKit's ring count is the judge)."""
+    text = _mechanism("[CH2:1]=[CH:2][CH2:3][CH2:4][CH:5]=[CH2:6]",
+                      ["C1=C2 -> C1-C6", "C3-C4 -> C2=C3", "C5=C6 -> C4=C5"])
+    trace, found = _ring_diagnostics(text)
+    assert trace.final.mol.GetRingInfo().NumRings() == 0
+    assert found == []
+
+
+def test_a_cycloaddition_reports_its_one_ring_once():
+    """Butadiene and ethene in a Diels-Alder reaction: two new bonds, one six-membered ring
+    (textbook [4+2] cycloaddition, common practice; RDKit's ring sizes are the judge)."""
+    text = ('species diene = "[CH2:1]=[CH:2][CH:3]=[CH2:4]"\nspecies ene = "[CH2:5]=[CH2:6]"\n'
+            'step "cycloaddition"\n    C1=C2 -> C1-C6\n    C3=C4 -> C2=C3\n    C5=C6 -> C4-C5\nend\n')
+    trace, found = _ring_diagnostics(text)
+    assert [len(r) for r in trace.final.mol.GetRingInfo().AtomRings()] == [6]
+    assert len(found) == 1 and found[0].code == "AR601"
+    assert "6-membered ring in a pericyclic step" in found[0].message
+
+
 def test_small_ring_warning_names_the_favoured_alternative():
     """Heptane-2,6-dione: a C3 enolate closing onto C6 makes a four-membered ring; the species
     offers the six-membered 6-(enolendo)-exo-trig closure of a terminal enolate (C1 onto C6, or

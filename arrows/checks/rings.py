@@ -41,12 +41,14 @@ def closures_in_step(st: StepTrace) -> list[StepClosure]:
     pericyclic = bool(st.change.moves) and all(
         m.source_kind == "bond" and len(m.sink_atoms) == 2 and m.electrons == 2 for m in st.change.moves)
     found = []
+    rings_seen: set[frozenset[int]] = set()
     for i, j in st.change.formed:
         if mol.GetAtomWithIdx(i).GetAtomicNum() == 1 or mol.GetAtomWithIdx(j).GetAtomicNum() == 1:
             continue   # a hydrogen moving inside one molecule is a transfer, not a ring closure
-        ring = ring_path(mol, i, j)
-        if not ring:
-            continue
+        ring = _ring_closed(st, i, j, pericyclic)
+        if not ring or (pericyclic and frozenset(ring) in rings_seen):
+            continue   # no ring in the state after, or a pericyclic ring already counted for another bond
+        rings_seen.add(frozenset(ring))
         x, y, loc = _nucleophile_and_target(st, i, j)
         ring = ring if ring[0] == x else tuple(reversed(ring))
         if pericyclic:
@@ -60,6 +62,30 @@ def closures_in_step(st: StepTrace) -> list[StepClosure]:
                                         or st.before.formal_charge(y) > 0)
         found.append(StepClosure(x, y, ring, classify(ring, geometry, w, z), z, w, cation, loc))
     return found
+
+
+def _ring_closed(st: StepTrace, i: int, j: int, pericyclic: bool) -> tuple[int, ...]:
+    """The ring the new bond i-j closes (both ends included), () when it closes none.
+
+    Baldwin's rules judge the ring of the transition state: the path from i to j in the state
+    before, even when a bond of it breaks in the same step (an endo-tet closure). Not a closure: a
+    1,2-shift, where the new bond's pair comes from a bond of that path that breaks (the group
+    migrates with its pair). A pericyclic step closes the rings of the state after (a
+    cycloaddition through its second new bond; a [3,3] shift closes none)."""
+    before = ring_path(st.before.mol, i, j)
+    broken = {frozenset(b) for b in st.change.broken}
+    broken_on_path = {frozenset(pair) for pair in zip(before, before[1:])} & broken
+    if not pericyclic:
+        migrating = any(m.source_kind == "bond" and set(m.sink_atoms) == {i, j}
+                        and frozenset(m.source_atoms) in broken_on_path for m in st.change.moves)
+        return () if migrating else before
+    if before and not broken_on_path:
+        return before            # the common case, without a copy of the state
+    if not before and len(st.change.formed) == 1:
+        return ()                # two molecules joined by one bond: no ring
+    work = Chem.RWMol(st.after.mol)
+    work.RemoveBond(i, j)
+    return ring_path(work, i, j)
 
 
 def _nucleophile_and_target(st: StepTrace, i: int, j: int) -> tuple[int, int, Location]:
