@@ -84,6 +84,33 @@ step "deprotonation"
 end
 product "CC(C)(C)O.[OH3+]"
 """,
+    # A small ring made across several pieces whose bonds each form or break at some step.
+    "wittig": """\
+species ylide = "[CH2-:1][P+:2](c1ccccc1)(c1ccccc1)c1ccccc1"
+species ketone = "[CH3:3][C:4](=[O:5])[CH3:6]"
+step "ring closure"
+    :C1 -> C4
+    C4=O5 -> O5-P2
+end
+step "ring opening"
+    C1-P2 -> C1=C4
+    C4-O5 -> O5=P2
+end
+""",
+    # A three-membered ring between two species; the bromide that leaves bonds again later.
+    "bromination": """\
+species alkene = "[CH:1]1=[CH:2]CCCC1"
+species bromine = "[Br:3][Br:4]"
+step "bromonium ion"
+    C1=C2 -> C1-Br3
+    :Br3 -> C2
+    Br3-Br4 -> Br4
+end
+step "anti opening"
+    :Br4 -> C1
+    Br3-C1 -> Br3
+end
+""",
 }
 
 
@@ -123,6 +150,25 @@ def test_one_bond_length(text, name):
         for bond in panel.bonds:
             length = _distance(where[bond.atoms[0]], where[bond.atoms[1]]) / scene.bond_length
             assert 0.98 <= length <= 1.02, (panel.index, bond.atoms, length)
+
+
+def _segments_cross(p, q, r, t) -> bool:
+    """Whether segment p-q crosses segment r-t at a point inside both (touching ends do not count)."""
+    return (_signed_area(p, q, r) * _signed_area(p, q, t) < 0) and (_signed_area(r, t, p) * _signed_area(r, t, q) < 0)
+
+
+@pytest.mark.parametrize("text,name", _mechanisms())
+def test_bonds_do_not_cross(text, name):
+    """No two bonds of a panel cross each other (IUPAC 2008: bonds should not cross where a
+    layout without crossings exists, as it does for every structure here)."""
+    _, _, scene = _scene(text, name)
+    for panel in scene.panels:
+        where = {a.index: a.position for a in panel.atoms}
+        for b, c in combinations(panel.bonds, 2):
+            if set(b.atoms) & set(c.atoms):
+                continue
+            assert not _segments_cross(where[b.atoms[0]], where[b.atoms[1]], where[c.atoms[0]], where[c.atoms[1]]), \
+                (panel.index, b.atoms, c.atoms)
 
 
 @pytest.mark.parametrize("text,name", _mechanisms())

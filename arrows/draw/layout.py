@@ -433,6 +433,11 @@ class _LayoutBuilder:
         """Present in every state that has both atoms (a fragment that leaves is still there)."""
         return all((i, j) in self.bonds_in[k] for k in range(self.n) if max(i, j) < self.states[k].mol.GetNumAtoms())
 
+    def _ring_between(self, bonds: list[tuple[int, int]]) -> bool:
+        """Two of the bonds between two clusters exist together in some panel: the clusters make
+        a ring between them. (A bromide that leaves one atom and later bonds to another does not.)"""
+        return len(bonds) > 1 and any(sum(b in here for b in bonds) > 1 for here in self.bonds_in)
+
     def _pinned_together(self, bond: tuple[int, int], groups: _UnionFind) -> bool:
         """Whether both sides of a bond that forms or breaks keep an untouched atom through
         every step that changes it, and the bond never joins two separate molecules: then
@@ -471,15 +476,17 @@ class _LayoutBuilder:
                 if a != b:
                     links.setdefault((min(a, b), max(a, b)), []).append((i, j))
             joined = [pair for pair, bonds in sorted(links.items())
-                      if len(bonds) > 1 or self._pinned_together(bonds[0], groups)]
+                      if self._ring_between(bonds) or self._pinned_together(bonds[0], groups)]
             if not joined:
                 break
             for a, b in joined:
-                if len(links[(a, b)]) > 1:
+                if self._ring_between(links[(a, b)]):
                     sides = tuple(frozenset(x for x in heavy_atoms if groups.find(x) == g) for g in (a, b))
                     partners.append((sides, links[(a, b)]))
             for a, b in joined:
                 groups.join(a, b)
+        while self._join_ring_across_clusters(groups, heavy_bonds, heavy_atoms, partners):
+            pass
         self.bridging = {h for h in self.drawn_h
                          if len({groups.find(n) for n in self.neighbours[h] if self.element[n] != 1}) != 1}
         everything = _UnionFind(i for i in self.atoms if i not in self.bridging)
@@ -496,12 +503,77 @@ class _LayoutBuilder:
             self._hold_apart(sides, bonds)
         self.main = min(range(len(self.clusters)), key=lambda k: (-len(self.clusters[k].atoms), self.clusters[k].atoms[0]))
 
+    def _join_ring_across_clusters(self, groups: _UnionFind, heavy_bonds: list[tuple[int, int]],
+                                   heavy_atoms: list[int], partners: list) -> bool:
+        """A ring whose bonds all exist in one panel but run through three or more clusters (the
+        oxaphosphetane of a Wittig reaction: each of its bonds forms or breaks at some step) is
+        depicted as one piece, so that it is drawn as a ring; placed piece by piece, its bonds
+        would cross. When two molecules make the ring between them, they are held apart before
+        that step, as for a cycloaddition. Joins one ring; False when there is none."""
+        for k in range(self.n):
+            panel = _UnionFind({groups.find(a) for a in heavy_atoms})
+            links: dict[int, list[tuple[int, int, tuple[int, int]]]] = {}
+            for i, j in heavy_bonds:
+                if (i, j) not in self.bonds_in[k]:
+                    continue
+                a, b = groups.find(i), groups.find(j)
+                if a == b:
+                    continue
+                if panel.find(a) == panel.find(b):
+                    ring = self._cluster_path(links, a, b) + [(i, j)]
+                    self._join_ring(groups, ring, k, heavy_atoms, partners)
+                    return True
+                panel.join(a, b)
+                links.setdefault(a, []).append((b, (i, j)))
+                links.setdefault(b, []).append((a, (i, j)))
+        return False
+
+    @staticmethod
+    def _cluster_path(links: dict, start: int, goal: int) -> list[tuple[int, int]]:
+        """The bonds on the path from cluster `start` to cluster `goal` through `links` (a forest)."""
+        came = {start: None}
+        queue = [start]
+        for here in queue:
+            for there, bond in links.get(here, ()):
+                if there not in came:
+                    came[there] = (here, bond)
+                    queue.append(there)
+        path = []
+        while came.get(goal) is not None:
+            goal, bond = came[goal]
+            path.append(bond)
+        return path
+
+    def _join_ring(self, groups: _UnionFind, ring: list[tuple[int, int]], k: int, heavy_atoms: list[int],
+                   partners: list) -> None:
+        members = {groups.find(a) for bond in ring for a in bond}
+        first = min((q for q in range(k + 1) if all(b in self.bonds_in[q] for b in ring)), default=k)
+        if first > 0:
+            # The molecules of the panel before the ring is complete: two of them, bonded to each
+            # other by two of the ring's bonds, are partners held apart until they meet.
+            molecule = {}
+            for number, frag in enumerate(Chem.GetMolFrags(self.states[first - 1].mol, asMols=False,
+                                                           sanitizeFrags=False)):
+                molecule.update((a, number) for a in frag)
+            ring_atoms = {a for bond in ring for a in bond}
+            numbers = sorted({molecule[a] for a in ring_atoms if a in molecule})
+            between = [b for b in ring if b[0] in molecule and b[1] in molecule
+                       and molecule[b[0]] != molecule[b[1]]]
+            if len(numbers) == 2 and len(between) >= 2:
+                sides = tuple(frozenset(a for a in heavy_atoms if molecule.get(a) == number
+                                        and groups.find(a) in members) for number in numbers)
+                partners.append((sides, sorted(between)))
+        anchor = next(iter(members))
+        for member in members:
+            groups.join(anchor, member)
+
     def _hold_apart(self, sides: tuple[frozenset[int], frozenset[int]], bonds: list[tuple[int, int]]) -> None:
         """Two species that make a ring between them (a cycloaddition) are drawn facing each
         other with the forming bonds open, about CYCLOADDITION_GAP bond lengths, until the step that
         makes them: the diene s-cis and the dienophile across its termini, as chemists draw it, so
         the arrows into the forming bonds have room. One side moves, as a whole, only if the
-        forming step touches every atom of it; the smaller such side moves, and the depiction is
+        forming step touches every atom of it or it is a separate molecule until then (it slides
+        in rigidly); the smaller such side moves, and the depiction is
         turned so that it waits on the right (a dienophile upright beside the diene)."""
         cluster = self.clusters[self.cluster_of[bonds[0][0]]]
         formed = [k for k in range(self.n) if all(b in self.bonds_in[k] for b in bonds)]
@@ -515,7 +587,7 @@ class _LayoutBuilder:
         for side, other in (sides, sides[::-1]):
             atoms = frozenset(a for a in cluster.atoms if a in side or (
                 self.element[a] == 1 and any(n in side for n in self.neighbours[a])))
-            if atoms <= self.touched[step]:
+            if atoms <= self.touched[step] or atoms <= self.joining[step]:   # it may move as a whole
                 choices.append((len(atoms), sorted(atoms), atoms, side, other))
         if not choices:
             return
