@@ -398,7 +398,7 @@ class _StepReplay:
         shared = {a, b} & {y, z}
         if not shared:
             self.fail("AR207", f"the bond {sink.bond} shares no atom with {move.source}", sink.loc,
-                      "the electrons stay on an atom they started on: the new bond must contain one atom of the source")
+                      _no_shared_atom_hint(move, sink.bond, self.state.elements[a] == 1 or self.state.elements[b] == 1))
             raise _StepFailed
         if {a, b} == {y, z}:
             self.fail("AR210", f"the arrow from {move.source} ends in the same bond", sink.loc,
@@ -429,6 +429,20 @@ class _BondName:
 
     def __str__(self) -> str:
         return f"{self.state.label(self.a)}-{self.state.label(self.b)}"
+
+
+def _no_shared_atom_hint(move: Move, sink: BondRef, hydrogen_moves: bool) -> str:
+    """The hint of AR207. A hydrogen that moves with its pair (a hydride shift) keeps the name of
+    the atom it leaves: `C2-H -> C5-H(C2)`, not `C5-H`, which is a hydrogen already on C5."""
+    source = move.source
+    ends = (sink.first, sink.second)
+    if hydrogen_moves and isinstance(source, BondPair) and any(isinstance(e, HydrogenOn) for e in ends):
+        leaves = next((e.parent for e in (source.bond.first, source.bond.second) if isinstance(e, HydrogenOn)), None)
+        taker = next((e for e in ends if not isinstance(e, HydrogenOn)), None)
+        if leaves is not None and taker is not None:
+            return (f"a hydrogen that moves with its pair keeps the name of the atom it leaves: "
+                    f"{source} -> {taker}-H({leaves})")
+    return "the electrons stay on an atom they started on: the new bond must contain one atom of the source"
 
 
 def _rewrite(bond: BondRef, order: int) -> str:

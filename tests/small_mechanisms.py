@@ -178,4 +178,18 @@ step "methyl transfer"
 end
 '''
 
+# Cannizzaro reaction, hydride-transfer step: the tetrahedral adduct of hydroxide and benzaldehyde
+# gives a hydride to a second benzaldehyde, leaving benzoic acid and benzyl alkoxide (textbook
+# Cannizzaro mechanism, common practice).
+HYDRIDE_TRANSFER = '''\
+species adduct = "[O-:1][CH:2]([OH:3])c1ccccc1"
+species aldehyde = "[O:4]=[CH:5]c1ccccc1"
+step "hydride transfer"
+    :O1 -> C2=O1
+    C2-H -> C5-H(C2)
+    C5=O4 -> O4
+end
+product "OC(=O)c1ccccc1.[O-]Cc1ccccc1"
+'''
+
 CORRECT = {name: text for name, text in globals().items() if name.isupper() and isinstance(text, str)}

@@ -13,8 +13,8 @@ import pytest
 from arrows import check_text
 from arrows.diagnostics import CODES
 
-from small_mechanisms import (ACID_BASE, ALDOL, CHLORINE, CORRECT, E1, E2, ENOLATE_RESONANCE, HBR_ADDITION, NITRILE,
-                              PROTON_EXCHANGE, RADICALS, RETRO_ALDOL, RING_CLOSURE, SN2, SULFONIUM)
+from small_mechanisms import (ACID_BASE, ALDOL, CHLORINE, CORRECT, E1, E2, ENOLATE_RESONANCE, HBR_ADDITION,
+                              HYDRIDE_TRANSFER, NITRILE, PROTON_EXCHANGE, RADICALS, RETRO_ALDOL, RING_CLOSURE, SN2, SULFONIUM)
 
 
 def findings(diags):
@@ -95,6 +95,9 @@ TWINS = [
          ":O1 -> C2-Br3", sink=True),
     Twin("bond source into an unconnected bond", E2, "C3-Br4 -> Br4", "C3-Br4 -> O1-H(C2)", "AR207",
          "C3-Br4 -> O1-H(C2)", sink=True),
+    # A hydride written as a hydrogen already on the atom that takes it.
+    Twin("hydride named by the atom that takes it", HYDRIDE_TRANSFER, "C5-H(C2)", "C5-H", "AR207",
+         "C2-H -> C5-H", sink=True, hint_says=("C2-H -> C5-H(C2)",)),
     # The C2-H pair makes C2=C3 a double bond; the sink says single.
     Twin("sink bond written with the wrong order", E2, "C2-H -> C2=C3", "C2-H -> C2-C3", "AR208",
          "C2-H -> C2-C3", sink=True, says=("double",)),
