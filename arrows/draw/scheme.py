@@ -4,6 +4,8 @@ wrapped to the page width, a title, and error marks when a faulty mechanism is d
 """
 from __future__ import annotations
 
+import math
+
 from dataclasses import dataclass, field, replace
 from typing import Optional, Sequence
 
@@ -111,6 +113,7 @@ def build_scene(trace: Trace, style: Style, diagnostics: Sequence[Diagnostic] = 
     """Lay out the whole scheme. Shrinks it (and says so in `notes`) if one panel is wider than
     the page, or the slide is too tall."""
     scene, fit = _SceneBuilder(trace, style, diagnostics).build()
+    uneven = _uneven_bonds(scene)
     if fit < 0.999:
         smaller = style.scaled(fit * 0.995)
         scene, _ = _SceneBuilder(trace, smaller, diagnostics, style).build()
@@ -119,7 +122,30 @@ def build_scene(trace: Trace, style: Style, diagnostics: Sequence[Diagnostic] = 
             note += (f"; the smallest text is {smaller.small_size:.1f} pt (below {SMALLEST_TEXT_PT:g} pt): "
                      "try a wider style")
         scene = replace(scene, notes=(note,) + scene.notes)
-    return scene
+    return replace(scene, notes=scene.notes + uneven) if uneven else scene
+
+
+def _uneven_bonds(scene: Scene) -> tuple[str, ...]:
+    """A note for each panel where the layout could not keep one bond length (within 2%), so that
+    the author looks before using the figure. A rearrangement that changes a ring's size (a ring
+    expansion) is the known case: its atoms are drawn from one depiction of every bond they ever
+    have, which RDKit cannot draw evenly."""
+    notes = []
+    for panel in scene.panels:
+        where = {a.index: a for a in panel.atoms}
+        worst = None
+        for bond in panel.bonds:
+            a, b = where.get(bond.atoms[0]), where.get(bond.atoms[1])
+            if a is None or b is None:
+                continue
+            ratio = math.hypot(a.position[0] - b.position[0], a.position[1] - b.position[1]) / scene.bond_length
+            if abs(ratio - 1) > 0.02 and (worst is None or abs(ratio - 1) > abs(worst[0] - 1)):
+                worst = (ratio, a.name, b.name)
+        if worst is not None:
+            notes.append(f"panel {panel.index + 1}: the bond {worst[1]}-{worst[2]} is drawn {worst[0]:.2f} bond lengths "
+                         f"long: the layout could not keep one bond length here (a rearrangement that changes a "
+                         f"ring's size is the known case); check the figure")
+    return tuple(notes)
 
 
 class _SceneBuilder:
