@@ -171,6 +171,38 @@ def test_bonds_do_not_cross(text, name):
                 (panel.index, b.atoms, c.atoms)
 
 
+@pytest.mark.parametrize("text,name", _mechanisms() + [pytest.param(
+    'species aibn = "N#C[C:4](C)(C)[N:1]=[N:2][C:3](C)(C)C#N"\nstep "homolysis"\n    C3-N2 ~> C3\n'
+    '    C3-N2 ~> N1#N2\n    C4-N1 ~> C4\n    C4-N1 ~> N1#N2\n    releases N1\nend\n', "azo homolysis",
+    id="azo-homolysis")])
+def test_sp_atoms_are_drawn_straight(text, name):
+    """An atom with two bonds, one of them triple, or two double bonds (a nitrile or alkyne
+    carbon, an allene centre) is drawn straight: 180 degrees, within 5 (VSEPR, common practice;
+    IUPAC 2008 draws such centres linear). The azo homolysis of an azobisnitrile leaves two
+    nitrile-bearing radicals, each nitrile carbon bonded on straight."""
+    _, _, scene = _scene(text, name)
+    seen = 0
+    for panel in scene.panels:
+        where = {a.index: a.position for a in panel.atoms}
+        heavy = {a.index for a in panel.atoms if a.element != "H"}
+        bonds_of: dict[int, list] = {}
+        for bond in panel.bonds:
+            if set(bond.atoms) <= heavy:
+                for atom in bond.atoms:
+                    bonds_of.setdefault(atom, []).append(bond)
+        for atom, bonds in bonds_of.items():
+            orders = sorted(b.order for b in bonds)
+            if len(bonds) != 2 or not (3 in orders or orders == [2, 2]):
+                continue
+            seen += 1
+            ends = [b.atoms[1] if b.atoms[0] == atom else b.atoms[0] for b in bonds]
+            p, a, b = where[atom], where[ends[0]], where[ends[1]]
+            turn = math.degrees(abs(cmath.phase(complex(a[0] - p[0], a[1] - p[1]) / complex(b[0] - p[0], b[1] - p[1]))))
+            assert turn > 175, (panel.index, atom, turn)
+    if name in ("08-sn2-cyanide.mech", "azo homolysis"):
+        assert seen
+
+
 @pytest.mark.parametrize("text,name", _mechanisms())
 def test_labels_do_not_overlap(text, name):
     """No two atom labels of one panel overlap (IUPAC 2008)."""

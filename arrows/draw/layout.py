@@ -622,6 +622,9 @@ class _LayoutBuilder:
                 ends.append((index[i], index[j]))
         mol.UpdatePropertyCache(strict=False)
         Chem.FastFindRings(mol)
+        for atom in group:   # the depictor draws an atom straight (a nitrile, an alkyne, an allene) only if told
+            if self._linear(atom):
+                mol.GetAtomWithIdx(index[atom]).SetHybridization(Chem.HybridizationType.SP)
         self.rings += [[group[k] for k in ring] for ring in Chem.GetSymmSSSR(mol)]
         with _rdkit_depictor():
             rdDepictor.Compute2DCoords(mol, canonOrient=True)
@@ -634,6 +637,19 @@ class _LayoutBuilder:
         xs, ys = xyz[:, 0].tolist(), xyz[:, 1].tolist()
         # y is flipped: RDKit's y grows upwards, ours downwards.
         return {atom: complex(xs[k] * scale, -ys[k] * scale) for atom, k in index.items()}
+
+    def _linear(self, atom: int) -> bool:
+        """Two bonds, one of them triple, or both double in one state: an sp atom. (An enolate
+        carbon is double-bonded to C and to O, but never at once.)"""
+        partners = [n for n in self.neighbours[atom] if self.element[n] != 1]
+        if len(partners) != 2:
+            return False
+        orders = [self.union[(min(atom, n), max(atom, n))] for n in partners]
+        if 3 in orders:
+            return True
+        return any(all(state.mol.GetBondBetweenAtoms(atom, n) is not None
+                       and state.mol.GetBondBetweenAtoms(atom, n).GetBondTypeAsDouble() == 2 for n in partners)
+                   for state in self.states if max(atom, *partners) < state.mol.GetNumAtoms())
 
     def _holder(self, k: int, h: int) -> Optional[int]:
         for n in self.states[k].mol.GetAtomWithIdx(h).GetNeighbors():
@@ -823,8 +839,8 @@ class _LayoutBuilder:
             u = self._roomiest(anchor, k, hydrogen)
         own = [cluster.local[n] for n in self.neighbours[mover] if n in cluster.local]
         v = free_direction(cluster.local[mover], own, prefer=-u)
-        if len(own) == 1 and kind == "bond":
-            # A chain end bonds on at 120 degrees, as in a zigzag, not straight on.
+        if len(own) == 1 and kind == "bond" and not self._linear(mover):
+            # A chain end bonds on at 120 degrees, as in a zigzag, not straight on (a nitrile does).
             v = v * cmath.rect(1.0, math.pi / 3)
         distance = 1.0 if kind == "bond" else 1.0 + TRANSFER_GAP
         mine = set(cluster.atoms)
