@@ -85,6 +85,49 @@ def test_protonated_acetone_has_no_stereogenic_double_bond():
     assert stereo_elements(Chem.MolFromSmiles("CC(C)=[OH+]")) == frozenset()
 
 
+NITRATION = """\
+species benzene = "[cH:1]1[cH:2]ccc[cH:6]1"
+species nitronium = "[O:7]=[N+:8]=[O:9]"
+species base = "[OH2:10]"
+step "attack"
+    C1=C2 -> C1-N8
+    N8=O7 -> O7
+end
+step "rearomatisation"
+    :O10 -> H(C1)
+    C1-H -> C1=C2
+end
+product "O=[N+]([O-])c1ccccc1"
+"""
+
+
+def test_the_sigma_complex_of_an_aromatic_substitution_has_no_stereocentre():
+    """The sp3 carbon of the cyclohexadienyl cation in a nitration of benzene is not a
+    stereocentre: the charge is shared by the two ring carbons beside it and the one across
+    (textbook resonance, common practice), so its two ring branches are the same. RDKit's own
+    resonance structures are the judge: in one of them its stereo perception finds no centre."""
+    sigma_complex = Chem.MolFromSmiles("O=[N+]([O-])C1C=CC=C[CH+]1")
+    assert any(info.type == Chem.StereoType.Atom_Tetrahedral for info in Chem.FindPotentialStereo(sigma_complex))
+    in_some_structure = []
+    for structure in Chem.ResonanceMolSupplier(sigma_complex):
+        structure = Chem.Mol(structure)
+        Chem.SanitizeMol(structure)
+        in_some_structure.append(any(i.type == Chem.StereoType.Atom_Tetrahedral
+                                     for i in Chem.FindPotentialStereo(structure)))
+    assert not all(in_some_structure)
+    assert stereo_elements(sigma_complex) == frozenset()
+    _, diags = check_text(NITRATION)
+    assert [d for d in diags if d.severity == "error"] == []
+    assert [d for d in diags if d.code == "AR602"] == []
+
+
+def test_a_charge_that_cannot_reach_both_branches_leaves_the_centre():
+    """The tetrahedral intermediate of an acyl substitution (an alkoxide and an ammonium on one
+    sp3 carbon with a methyl and a chlorine) is a stereocentre: four different groups, and no
+    charge moves between them (textbook addition-elimination, common practice)."""
+    assert len(stereo_elements(Chem.MolFromSmiles("C[NH2+]C(C)([O-])Cl"))) == 1
+
+
 @pytest.mark.parametrize("a, b, expected", [
     ("C[C@H](O)CC", "C[C@@H](O)CC", "enantiomers"),                      # (R)/(S)-butan-2-ol
     ("C[C@H](O)[C@@H](C)CC", "C[C@@H](O)[C@@H](C)CC", "diastereomers"),  # one of two centres inverted

@@ -57,7 +57,46 @@ def _elements(view: Perceived) -> frozenset[StereoElement]:
                 continue
             ends = sorted((original[bond.GetBeginAtomIdx()], original[bond.GetEndAtomIdx()]))
             found.add(StereoElement(DOUBLE_BOND, tuple(ends)))
+    centres = [e for e in found if e.kind == CENTRE]
+    if centres and _may_delocalize(plain):
+        lost = _lost_by_resonance(plain, [view.position(e.atoms[0]) for e in centres])
+        found -= {e for e in centres if view.position(e.atoms[0]) in lost}
     return frozenset(found)
+
+
+def _may_delocalize(mol: Chem.Mol) -> bool:
+    return any(a.GetFormalCharge() or a.GetNumRadicalElectrons() for a in mol.GetAtoms())
+
+
+_MAX_RESONANCE = 64
+
+
+def _lost_by_resonance(mol: Chem.Mol, centres: list[int]) -> set[int]:
+    """The centres (indices in `mol`) that are not stereocentres in some resonance structure of a
+    charged or radical state. In the sigma complex of an aromatic substitution the sp3 carbon
+    looks stereogenic with the charge drawn next to it, but the charge is shared by the two ring
+    carbons beside it and the one across (textbook resonance, common practice): in that
+    structure its two ring branches are the same. Only centres with two unsaturated or charged
+    neighbours are tested; for the others no charge can move between their branches."""
+    def unsaturated(atom) -> bool:
+        return (atom.GetFormalCharge() != 0 or atom.GetNumRadicalElectrons() > 0 or atom.GetIsAromatic()
+                or any(b.GetBondTypeAsDouble() > 1 for b in atom.GetBonds()))
+    tested = [c for c in centres if sum(unsaturated(n) for n in mol.GetAtomWithIdx(c).GetNeighbors()) >= 2]
+    if not tested:
+        return set()
+    lost: set[int] = set()
+    for structure in Chem.ResonanceMolSupplier(mol, 0, _MAX_RESONANCE):
+        if structure is None:
+            continue
+        work = Chem.Mol(structure)
+        try:
+            Chem.SanitizeMol(work)
+        except Exception:   # a structure RDKit will not perceive says nothing either way
+            continue
+        here = {info.centeredOn for info in Chem.FindPotentialStereo(work, cleanIt=True)
+                if info.type == Chem.StereoType.Atom_Tetrahedral}
+        lost |= {c for c in tested if c not in here}
+    return lost
 
 
 def _distinct_ends(mol: Chem.Mol, ranks: list[int], atom: int, partner: int) -> bool:
