@@ -271,6 +271,16 @@ def test_script_check_exit_codes(write, tmp_path):
         assert "Traceback" not in proc.stderr
 
 
+def test_python_dash_m_runs_the_same_command_line(write):
+    """`python -m arrows` is the console script by another door: same output, same exit codes."""
+    slip = write("slip.mech", SN2.replace(":O1 -> C2", "H(O1) -> C2"))
+    by_module = subprocess.run([sys.executable, "-m", "arrows", "check", str(slip)], capture_output=True,
+                               text=True, timeout=120)
+    by_script = script("check", slip)
+    assert by_module.returncode == by_script.returncode == 1
+    assert by_module.stdout == by_script.stdout and "AR204" in by_module.stdout
+
+
 def test_script_json_and_trace_from_another_folder(write, tmp_path):
     path = write("sn2.mech", SN2)
     elsewhere = tmp_path / "elsewhere"
