@@ -152,6 +152,27 @@ def _joining(before: ElectronState, after: ElectronState) -> set[int]:
     return out
 
 
+def _aligned(moving: dict[int, complex], fixed: dict[int, complex], anchors: list[int]) -> dict[int, complex]:
+    """`moving` turned (or mirrored) and shifted onto `fixed` by least squares over `anchors` (over
+    every shared atom when fewer than two anchors are left)."""
+    shared = [a for a in anchors if a in moving and a in fixed]
+    if len(shared) < 2:
+        shared = [a for a in moving if a in fixed]
+    if len(shared) < 2:
+        return moving
+    best = None
+    for mirror in (False, True):
+        points = {a: (p.conjugate() if mirror else p) for a, p in moving.items()}
+        m = sum(points[a] for a in shared) / len(shared)
+        f = sum(fixed[a] for a in shared) / len(shared)
+        turn = _unit(sum((fixed[a] - f) * (points[a] - m).conjugate() for a in shared))
+        placed = {a: f + turn * (p - m) for a, p in points.items()}
+        misfit = sum(abs(placed[a] - fixed[a]) ** 2 for a in shared)
+        if best is None or misfit < best[0] - 1e-9:
+            best = (misfit, placed)
+    return best[1]
+
+
 def _unit(z: complex) -> complex:
     return z / abs(z) if abs(z) > 1e-12 else 1 + 0j
 
@@ -233,6 +254,16 @@ class _Cluster:
     # offset in local coordinates).
     openings: list[tuple[frozenset[int], int, int, complex]] = field(default_factory=list)
     waited: set[int] = field(default_factory=set)   # segment starts placed as a wait before acting
+    # Later depictions of a cluster whose ring changes size (first panel, local coordinates aligned
+    # on the atoms the step between leaves alone); before the first of them, `local` holds.
+    phases: list[tuple[int, dict[int, complex]]] = field(default_factory=list)
+
+    def local_at(self, k: int) -> dict[int, complex]:
+        local = self.local
+        for first, later in self.phases:
+            if first <= k:
+                local = later
+        return local
 
 
 def compute_layout(states: Sequence[ElectronState], moves: Sequence[Sequence[ResolvedMove]],
@@ -317,6 +348,9 @@ class _LayoutBuilder:
             for i, j in sorted(self.bonds_in[k + 1] - self.bonds_in[k]):
                 if i not in main or j not in main:
                     continue
+                here = self.positions[k]
+                if i in here and j in here and abs(abs(here[i] - here[j]) - 1.0) > 0.02:
+                    continue   # not drawn curled: a ring that grows (its own depiction) is not opened
                 for end, partner in ((i, j), (j, i)):
                     if self._crowded(partner) and self._swing(end, partner, k):
                         break
@@ -498,6 +532,9 @@ class _LayoutBuilder:
                     everything.join(h, n)
         self.rings: list[list[int]] = []
         self.clusters = [_Cluster(g, self._depict(g)) for g in everything.groups()]
+        for cluster in self.clusters:
+            if not self._even(cluster.local, cluster.atoms, range(self.n)):
+                cluster.local, cluster.phases = self._phases(cluster.atoms)
         self.cluster_of = {a: k for k, c in enumerate(self.clusters) for a in c.atoms}
         for sides, bonds in partners:
             self._hold_apart(sides, bonds)
@@ -597,6 +634,7 @@ class _LayoutBuilder:
         # moves in waits on the right, its forming bonds pointing back at the other across the gap.
         turn = _unit(sum(local[i] for i, _ in ends) - sum(local[j] for _, j in ends)).conjugate()
         cluster.local = local = {a: p * turn for a, p in local.items()}
+        cluster.phases = [(first, {a: p * turn for a, p in later.items()}) for first, later in cluster.phases]
         away = 1 + 0j
         for step_out in range(1, 101):
             offset = away * 0.02 * step_out
@@ -606,8 +644,64 @@ class _LayoutBuilder:
         first = min(k for k in range(self.n) if atoms & self.exists[k])
         cluster.openings.append((atoms, first, step, offset))
 
-    def _depict(self, group: list[int]) -> dict[int, complex]:
-        """RDKit 2D coordinates of one cluster's union graph, scaled to unit bond length."""
+    def _in_group(self, group: list[int], panels: Iterable[int]) -> set[tuple[int, int]]:
+        members = set(group)
+        return {b for k in panels for b in self.bonds_in[k] if b[0] in members and b[1] in members}
+
+    def _even(self, local: dict[int, complex], group: list[int], panels: Iterable[int]) -> bool:
+        """Every bond among `group` in `panels` within 2% of one bond length in `local`."""
+        return all(abs(abs(local[i] - local[j]) - 1.0) <= 0.02 for i, j in self._in_group(group, panels))
+
+    def _phases(self, group: list[int]) -> tuple[dict[int, complex], list[tuple[int, dict[int, complex]]]]:
+        """Depictions of a cluster whose bonds over the whole mechanism cannot be drawn at one
+        length (a ring that grows as a bond migrates, as in a Baeyer-Villiger oxidation): runs of
+        panels as long as one depiction draws them evenly, each run drawn from its own bonds (an
+        atom with none there takes the bonds it has next), each aligned on the one before by the
+        atoms the step between them leaves alone. Chemists redraw a ring that changes size; its
+        atoms are the ones that move."""
+        runs: list[tuple[int, dict[int, complex]]] = []
+        start = 0
+        while start < self.n:
+            bonds = self._run_bonds(group, start, start)
+            end, local = start, self._depict(group, bonds)
+            while end + 1 < self.n:
+                trial_bonds = self._run_bonds(group, start, end + 1)
+                trial = self._depict(group, trial_bonds)
+                if not self._even(trial, group, range(start, end + 2)):
+                    break
+                end, local, bonds = end + 1, trial, trial_bonds
+            if runs:
+                # RDKit lays separate pieces side by side at will: each piece is aligned on its own.
+                pieces = _UnionFind(group)
+                for i, j in bonds:
+                    pieces.join(i, j)
+                aligned: dict[int, complex] = {}
+                for piece in pieces.groups():
+                    part = {a: local[a] for a in piece}
+                    aligned.update(_aligned(part, runs[-1][1], [a for a in piece if a not in self.touched[start - 1]]))
+                local = aligned
+            runs.append((start, local))
+            start = end + 1
+        return runs[0][1], runs[1:]
+
+    def _run_bonds(self, group: list[int], first: int, last: int) -> set[tuple[int, int]]:
+        """The bonds among `group` in panels first..last, and for an atom bonded to none of them, its
+        bonds in the next panel that has any (where it is about to be)."""
+        bonds = self._in_group(group, range(first, last + 1))
+        bonded = {a for b in bonds for a in b}
+        for atom in group:
+            if atom in bonded:
+                continue
+            for k in list(range(last + 1, self.n)) + list(range(first - 1, -1, -1)):
+                mine = {b for b in self._in_group(group, (k,)) if atom in b}
+                if mine:
+                    bonds |= mine
+                    break
+        return bonds
+
+    def _depict(self, group: list[int], only: Optional[set[tuple[int, int]]] = None) -> dict[int, complex]:
+        """RDKit 2D coordinates of one cluster's union graph (or of the bonds in `only`), scaled to
+        unit bond length."""
         if len(group) == 1:
             return {group[0]: 0j}
         index = {atom: k for k, atom in enumerate(group)}
@@ -617,7 +711,7 @@ class _LayoutBuilder:
         orders = {1: Chem.BondType.SINGLE, 2: Chem.BondType.DOUBLE, 3: Chem.BondType.TRIPLE}
         ends = []     # in the order the bonds are added, which is their order in the Mol
         for (i, j), order in sorted(self.union.items()):
-            if i in index and j in index:
+            if i in index and j in index and (only is None or (i, j) in only):
                 mol.AddBond(index[i], index[j], orders.get(order, Chem.BondType.SINGLE))
                 ends.append((index[i], index[j]))
         mol.UpdatePropertyCache(strict=False)
@@ -625,7 +719,7 @@ class _LayoutBuilder:
         for atom in group:   # the depictor draws an atom straight (a nitrile, an alkyne, an allene) only if told
             if self._linear(atom):
                 mol.GetAtomWithIdx(index[atom]).SetHybridization(Chem.HybridizationType.SP)
-        self.rings += [[group[k] for k in ring] for ring in Chem.GetSymmSSSR(mol)]
+        self.rings += [ring for ring in ([group[k] for k in r] for r in Chem.GetSymmSSSR(mol)) if ring not in self.rings]
         with _rdkit_depictor():
             rdDepictor.Compute2DCoords(mol, canonOrient=True)
         # All positions in one call: asking the conformer atom by atom costs more than the sums.
@@ -713,9 +807,10 @@ class _LayoutBuilder:
                 continue
             rotation, shift = cluster.placement[start][:2]
             for k in range(start, end + 1):
+                local = cluster.local_at(k)
                 for atom in cluster.atoms:
                     if atom in self.exists[k]:
-                        self.positions[k][atom] = shift + rotation * cluster.local[atom]
+                        self.positions[k][atom] = shift + rotation * local[atom]
                 for atoms, first, last, offset in cluster.openings:
                     if first <= k <= last:
                         for atom in atoms & self.exists[k]:

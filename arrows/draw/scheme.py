@@ -127,9 +127,8 @@ def build_scene(trace: Trace, style: Style, diagnostics: Sequence[Diagnostic] = 
 
 def _uneven_bonds(scene: Scene) -> tuple[str, ...]:
     """A note for each panel where the layout could not keep one bond length (within 2%), so that
-    the author looks before using the figure. A rearrangement that changes a ring's size (a ring
-    expansion) is the known case: its atoms are drawn from one depiction of every bond they ever
-    have, which RDKit cannot draw evenly."""
+    the author looks before using the figure. No gallery or test mechanism needs it: it is the
+    safety net for structures the layout has not met."""
     notes = []
     for panel in scene.panels:
         where = {a.index: a for a in panel.atoms}
@@ -143,8 +142,7 @@ def _uneven_bonds(scene: Scene) -> tuple[str, ...]:
                 worst = (ratio, a.name, b.name)
         if worst is not None:
             notes.append(f"panel {panel.index + 1}: the bond {worst[1]}-{worst[2]} is drawn {worst[0]:.2f} bond lengths "
-                         f"long: the layout could not keep one bond length here (a rearrangement that changes a "
-                         f"ring's size is the known case); check the figure")
+                         f"long: the layout could not keep one bond length here; check the figure")
     return tuple(notes)
 
 
