@@ -23,6 +23,8 @@ from rdkit import Chem
 import arrows
 from arrows.draw import STYLES, build_scene
 
+from textbook_mechanisms import TEXTBOOK
+
 ROOT = Path(__file__).resolve().parents[1]
 GALLERY = sorted((ROOT / "gallery").glob("*.mech"))
 
@@ -84,54 +86,13 @@ step "deprotonation"
 end
 product "CC(C)(C)O.[OH3+]"
 """,
-    # A small ring made across several pieces whose bonds each form or break at some step.
-    "wittig": """\
-species ylide = "[CH2-:1][P+:2](c1ccccc1)(c1ccccc1)c1ccccc1"
-species ketone = "[CH3:3][C:4](=[O:5])[CH3:6]"
-step "ring closure"
-    :C1 -> C4
-    C4=O5 -> O5-P2
-end
-step "ring opening"
-    C1-P2 -> C1=C4
-    C4-O5 -> O5=P2
-end
-""",
-    # A ring that grows from six to seven atoms as C2 migrates from C1 to O13 (a Baeyer-Villiger
-    # oxidation of cyclohexanone).
-    "ring expansion": """\
-species ketone = "[O:20]=[C:1]1[CH2:2]CCCC1"
-species peracid = "C[C:10](=[O:11])[O:12][O:13][H:14]"
-step "addition"
-    :O13 -> C1
-    C1=O20 -> O20
-end
-step "migration"
-    C1-C2 -> C2-O13
-    O13-O12 -> O12
-    :O20 -> C1=O20
-end
-""",
-    # A three-membered ring between two species; the bromide that leaves bonds again later.
-    "bromination": """\
-species alkene = "[CH:1]1=[CH:2]CCCC1"
-species bromine = "[Br:3][Br:4]"
-step "bromonium ion"
-    C1=C2 -> C1-Br3
-    :Br3 -> C2
-    Br3-Br4 -> Br4
-end
-step "anti opening"
-    :Br4 -> C1
-    Br3-C1 -> Br3
-end
-""",
 }
 
 
 def _mechanisms():
     out = [pytest.param(path.read_text(encoding="utf-8"), path.name, id=path.stem) for path in GALLERY]
     out += [pytest.param(text, name, id=name) for name, text in OWN.items()]
+    out += [pytest.param(text, name, id=name.replace(" ", "-")) for name, (text, _, drawn) in TEXTBOOK.items() if drawn]
     return out
 
 
@@ -762,7 +723,7 @@ def test_a_stretched_bond_is_noted():
     by half a bond length gives a note with the measured length."""
     from dataclasses import replace
     from arrows.draw.scheme import _uneven_bonds
-    _, _, scene = _scene(OWN["ring expansion"], "ring expansion")
+    _, _, scene = _scene(TEXTBOOK["ring expansion"][0], "ring expansion")
     assert _uneven_bonds(scene) == ()
     panel = scene.panels[0]
     bond = next(b for b in panel.bonds if b.order == 1)
