@@ -20,6 +20,8 @@ from arrows.checks.stereo import final_stereo, step_stereo
 from arrows.cli import cli
 from arrows.judgement.stereo import CENTRE, DOUBLE_BOND, relation, stereo_elements
 
+from textbook_mechanisms import NITRATION
+
 GALLERY = sorted((Path(__file__).resolve().parent.parent / "gallery").glob("*.mech"))
 
 
@@ -83,22 +85,6 @@ def test_equal_groups_make_no_stereocentre_whatever_their_map_numbers():
 def test_protonated_acetone_has_no_stereogenic_double_bond():
     """Two equal methyls on the carbon end: no E/Z isomers (common practice)."""
     assert stereo_elements(Chem.MolFromSmiles("CC(C)=[OH+]")) == frozenset()
-
-
-NITRATION = """\
-species benzene = "[cH:1]1[cH:2]ccc[cH:6]1"
-species nitronium = "[O:7]=[N+:8]=[O:9]"
-species base = "[OH2:10]"
-step "attack"
-    C1=C2 -> C1-N8
-    N8=O7 -> O7
-end
-step "rearomatisation"
-    :O10 -> H(C1)
-    C1-H -> C1=C2
-end
-product "O=[N+]([O-])c1ccccc1"
-"""
 
 
 def test_the_sigma_complex_of_an_aromatic_substitution_has_no_stereocentre():
