@@ -20,12 +20,30 @@ COMMANDS = {
     "closures": "arrows.commands.closures:closures_command",
 }
 
+# One line each for `arrows --help`, written here so that listing the commands imports none of them.
+SUMMARIES = {
+    "check": "Replay the electron moves and check every intermediate.",
+    "trace": "Print every state: SMILES, formula, charge, what changed.",
+    "explain": "Say what a diagnostic code means, with an example.",
+    "collect": "Check and draw many mechanisms into one SI document.",
+    "export": "Write a checked mechanism as JSON or reaction SMILES.",
+    "import": "Read a JSON mechanism and print it as .mech text.",
+    "number": "Put a map number on every heavy atom of a SMILES.",
+    "new": "Start NAME.mech from a SMILES, its atoms numbered.",
+    "draw": "Draw a mechanism as one scheme (SVG, PDF or PNG).",
+    "closures": "Rank the ring closures a species offers (Baldwin's rules).",
+}
+
 EXIT_USAGE = 2   # commands exit 0 clean, 1 findings; the group itself only reports bad usage
 
 
 class LazyGroup(click.Group):
     def list_commands(self, ctx):
         return sorted(COMMANDS)
+
+    def format_commands(self, ctx, formatter):
+        with formatter.section("Commands"):
+            formatter.write_dl([(name, SUMMARIES[name]) for name in self.list_commands(ctx)])
 
     def get_command(self, ctx, name):
         target = COMMANDS.get(name)

@@ -330,3 +330,16 @@ def test_check_path_imports_no_drawing_code(write):
     )
     proc = subprocess.run([sys.executable, "-c", probe], capture_output=True, text=True, timeout=120)
     assert "DRAWING []" in proc.stdout, proc.stdout + proc.stderr
+
+
+def test_help_lists_every_command_in_one_whole_line():
+    """`arrows --help` names every command with a summary that is not cut off mid-sentence, and
+    listing them imports none of the command modules."""
+    from arrows.cli import COMMANDS
+    before = {m for m in sys.modules if m.startswith("arrows.commands.")}
+    result = CliRunner().invoke(cli, ["--help"])
+    assert result.exit_code == 0
+    listed = [line.split(None, 1) for line in result.output.split("Commands:")[1].splitlines() if line.strip()]
+    assert sorted(name for name, _ in listed) == sorted(COMMANDS)
+    assert all(summary.endswith(".") and "..." not in summary for _, summary in listed)
+    assert {m for m in sys.modules if m.startswith("arrows.commands.")} == before
