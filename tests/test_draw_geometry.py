@@ -86,6 +86,24 @@ step "deprotonation"
 end
 product "CC(C)(C)O.[OH3+]"
 """,
+    # Found by drawing random valid move sequences (tests/test_properties.py's generator): a bond
+    # that breaks late, each of its atoms giving up a proton at a different step. Chemically odd,
+    # but a valid replay; the layout once drew the C-O bond five bond lengths long in panel 1.
+    "late heterolysis": """\
+species water = "[OH2:2]"
+species methanol = "[CH3:3][OH:4]"
+step "step 1"
+    :O2 -> H(C3)
+    C3-H -> C3
+end
+step "step 2"
+    :O4 -> H(O2)
+    O2-H -> O2
+end
+step "step 3"
+    C3-O4 -> C3
+end
+""",
 }
 
 

@@ -847,9 +847,8 @@ class _LayoutBuilder:
             anchor, mover = (a, b) if placed_a else (b, a)
             self._place_segment(self.cluster_of[mover], self._segment_of(self.cluster_of[mover], k), k,
                                 anchor, mover, kind, h)
-            progress = True
-            if kind == "bond":
-                return True
+            # Bonds first again: a run placed by a hop may now tie others to it by their bonds.
+            return True
         return progress
 
     def _roomiest(self, atom: int, k: int, hydrogen: Optional[int] = None, prefer: Optional[complex] = None,
