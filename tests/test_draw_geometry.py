@@ -86,6 +86,19 @@ step "deprotonation"
 end
 product "CC(C)(C)O.[OH3+]"
 """,
+    # Spectators that meet no other species (counter-ions, a second base) stand in a row on the
+    # right; their labels must not run into each other.
+    "spectators": """\
+species acid = "C[C:1](=O)[OH:2]"
+species base = "[OH-:3]"
+species sodium = "[Na+:4]"
+species ammonia = "[NH3:5]"
+species hydronium = "[OH3+:6]"
+step "deprotonation"
+    :O3 -> H(O2)
+    O2-H -> O2
+end
+""",
     # Found by drawing random valid move sequences (tests/test_properties.py's generator): a bond
     # that breaks late, each of its atoms giving up a proton at a different step. Chemically odd,
     # but a valid replay; the layout once drew the C-O bond five bond lengths long in panel 1.

@@ -35,6 +35,7 @@ from ..electrons import ElectronState, ResolvedMove
 # curved arrow, close enough to read as one event.
 TRANSFER_GAP = 1.5
 OPEN_BOND = 1.5      # a bond about to form between two species, as chemists draw it
+LEFTOVER_GAP = 0.8   # between the labels of species that meet no other, set in a row on the right
 # Partners of a cycloaddition: wider, so each of the arrows around the forming ring has room
 # to bend and no head sits under another.
 CYCLOADDITION_GAP = 1.8
@@ -1093,15 +1094,29 @@ class _LayoutBuilder:
             return False
         index = min(unplaced, key=lambda k: (-len(self.clusters[k].atoms), self.clusters[k].atoms[0]))
         cluster = self.clusters[index]
-        everything = [p for panel in self.positions for p in panel.values()]
-        right = max((p.real for p in everything), default=0.0)
-        mid_y = sum(p.imag for p in everything) / len(everything) if everything else 0.0
-        left = min(p.real for p in cluster.local.values())
+        everything = [(a, p) for panel in self.positions for a, p in panel.items()]
+        # The gap is measured between the ends of the labels, not the atoms' centres: NH3 beside H3O+.
+        right = max((p.real + self._label_reach(a) for a, p in everything), default=0.0)
+        mid_y = sum(p.imag for _, p in everything) / len(everything) if everything else 0.0
+        left = min(p.real - self._label_reach(a) for a, p in cluster.local.items())
         cy = sum(p.imag for p in cluster.local.values()) / len(cluster.local)
         for start, _ in cluster.segments:
-            cluster.placement[start] = (1 + 0j, complex(right + 1.8 - left, mid_y - cy), None, 0.0)
+            cluster.placement[start] = (1 + 0j, complex(right + LEFTOVER_GAP - left, mid_y - cy), None, 0.0)
         self._apply(index)
         return True
+
+    def _label_reach(self, atom: int) -> float:
+        """How far an atom's label may reach to either side, in bond lengths (a generous estimate:
+        the layout does not know the font): none for a skeletal carbon; else about a third of a
+        bond length per character of symbol, hydrogens and charge, the hydrogens on either side."""
+        state = next(s for s in self.states if atom < len(s.elements))
+        a = state.mol.GetAtomWithIdx(atom)
+        if a.GetAtomicNum() == 6 and a.GetDegree() > 0 and not a.GetFormalCharge():
+            return 0.0
+        hydrogens = a.GetTotalNumHs()
+        characters = len(a.GetSymbol()) + (0 if not hydrogens else 1 if hydrogens == 1 else 2) \
+            + (1 if a.GetFormalCharge() else 0)
+        return 0.15 + 0.33 * characters
 
     # travelling hydrogens
     def _place_hydrogens(self) -> None:
