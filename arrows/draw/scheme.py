@@ -15,9 +15,9 @@ from ..electrons import ElectronState, ResolvedMove
 from ..trace import StepTrace, Trace
 from .curves import ArrowPlanner
 from .layout import compute_layout
-from .scene import Box, Mark, Panel, ReactionArrow, Scene, TextRun
+from .scene import Box, CurvedArrow, Mark, Panel, ReactionArrow, Scene, TextRun
 from .formula import MINUS, Piece, condition_pieces, formula_pieces
-from .structure import StructureDrawer
+from .structure import PanelStructure, StructureDrawer
 from .styles import ERROR_COLOUR, SMALLEST_TEXT_PT, Style
 from .text import FontFace, wrap
 
@@ -142,17 +142,22 @@ class _SceneBuilder:
         moves = [list(s.leaving.change.moves) if s.leaving else [] for s in sources]
         touched = [set(s.leaving.change.touched_atoms) if s.leaving else set() for s in sources]
         layout = compute_layout(states, moves, touched, [s.hidden | s.idle for s in sources])
-        panels = []
-        for k, (src, placed) in enumerate(zip(sources, layout.panels)):
-            panels.append(self._panel(k, src, placed, layout.drawn_hydrogens, moves[k]))
+        drawn = [self._structure(src, placed, layout.drawn_hydrogens) for src, placed in zip(sources, layout.panels)]
+        # The arrows of every panel are planned together (one batch of numpy work for the scheme).
+        leaving = [k for k, src in enumerate(sources) if src.leaving is not None]
+        planned = self.planner.plan([(sources[k].leaving.index, _drawable(moves[k], drawn[k][1]), sources[k].state,
+                                      drawn[k][1]) for k in leaving])
+        arrows = dict(zip(leaving, planned))
+        panels = [self._panel(k, src, *drawn[k], *arrows.get(k, ([], [])))
+                  for k, src in enumerate(sources)]
         specs = [self._arrow_spec(src.leaving, src.hidden) for src in sources if src.leaving is not None]
         failed = sources[-1].leaving is not None and sources[-1].leaving.after is None
         if failed:
             panels.append(self._placeholder(len(panels)))
         return self._compose(panels, specs)
 
-    def _panel(self, k: int, src: _PanelSource, placed, drawn_h: frozenset[int],
-               moves: list[ResolvedMove]) -> Panel:
+    def _structure(self, src: _PanelSource, placed, drawn_h: frozenset[int]) -> tuple[tuple[int, ...], PanelStructure]:
+        """The atoms drawn on a panel and their structure (labels, bonds, marks)."""
         bl = self.bl
         # A travelling hydrogen is drawn where it matters: on the panel whose arrows move it and
         # on the panel just after; elsewhere it is implicit like every other hydrogen.
@@ -170,15 +175,14 @@ class _SceneBuilder:
             change = src.leaving.change
             broken |= {tuple(sorted(b)) for b in change.broken}
             broken |= {tuple(sorted(b)) for b, old, new in change.reordered if new < old}
-        structure = self.drawer.draw(src.state, visible, positions, shown_h, formed, broken)
-        arrows, dots = [], []
+        return visible, self.drawer.draw(src.state, visible, positions, shown_h, formed, broken)
+
+    def _panel(self, k: int, src: _PanelSource, visible: tuple[int, ...], structure: PanelStructure,
+               arrows: list[CurvedArrow], dots: list[Mark]) -> Panel:
         step = src.leaving.index if src.leaving is not None else None
-        if src.leaving is not None:
-            usable = [m for m in moves if all(i in positions for i in m.source_atoms + m.sink_atoms)]
-            arrows, dots = self.planner.plan(step, usable, src.state, structure)
         marks = list(structure.marks) + dots + self._error_rings(step, src.state, structure)
         atoms = tuple(structure.atoms[i] for i in visible)
-        box = _panel_box(atoms, structure.bonds, marks, arrows, 0.15 * bl)
+        box = _panel_box(atoms, structure.bonds, marks, arrows, 0.15 * self.bl)
         return Panel(k, step, (0.0, 0.0), box, atoms, tuple(structure.bonds), tuple(marks), tuple(arrows))
 
     def _error_rings(self, step: Optional[int], state: ElectronState, structure) -> list[Mark]:
@@ -390,6 +394,11 @@ class _SceneBuilder:
                       panels=tuple(placed_panels), reaction_arrows=tuple(arrows), texts=tuple(texts),
                       notes=())
         return scene, self.fit
+
+
+def _drawable(moves: list[ResolvedMove], structure: PanelStructure) -> list[ResolvedMove]:
+    """The moves whose atoms are all drawn on the panel."""
+    return [m for m in moves if all(i in structure.positions for i in m.source_atoms + m.sink_atoms)]
 
 
 def _formulas(mol: Chem.Mol, atoms: Sequence[int]) -> list[list[Piece]]:
