@@ -187,15 +187,15 @@ class ArrowPlanner:
                                          max(y1[start:end]) + reach)
                 start = end
             self._score(work, candidates, points)
-        planned = iter(work)
+        kept = [[sorted(tries, key=lambda c: c.cost)[:_KEEP] for tries in w.tries] for w in work]
+        planned = iter(zip(work, kept, self._pair_costs(kept, points) if work else []))
         out = []
         for _, moves, _, _ in panels:
             if not moves:
                 out.append(([], []))
                 continue
-            w = next(planned)
-            options = [sorted(tries, key=lambda c: c.cost)[:_KEEP] for tries in w.tries]
-            chosen = self._choose(options, points)
+            w, options, pairs = next(planned)
+            chosen = self._choose(options, pairs)
             out.append(([self._arrow(w.step, move, src, snk, cand, w.panel)
                          for move, src, snk, cand in zip(w.moves, w.sources, w.sinks, chosen)], w.marks))
         return out
@@ -415,56 +415,61 @@ class ArrowPlanner:
         for c, value, length in zip(candidates, cost.tolist(), lengths.tolist()):
             c.cost, c.length = value, length
 
-    def _pair_costs(self, options: list[list[_Candidate]], samples: np.ndarray) -> dict[tuple[int, int], np.ndarray]:
-        """Penalty of drawing candidate a of arrow i with candidate b of arrow j (i < j), for every
-        such pair of kept candidates: heads too close, shafts alongside, shafts crossing. One
-        batch holds the candidates of every arrow but the last against those of every arrow but
-        the first (numpy's cost here is per call, not per pair); the blocks for i < j are kept."""
-        sizes = [len(o) for o in options]
-        ends = list(accumulate(sizes))
-        flat = [c for o in options for c in o]
-        tips = np.array([c.tip for c in flat])
-        starts = np.array([c.p0 for c in flat])
-        points = samples[[c.row for c in flat]]                           # (C, S)
-        body = points[:, ::2][:, 1:-1]
-        coarse = points[:, ::4]                                           # five chords per curve
-        rows, columns = slice(0, ends[-2]), slice(sizes[0], None)
-        cost = self._pair_block((tips[rows], starts[rows], body[rows], coarse[rows]),
-                                (tips[columns], starts[columns], body[columns], coarse[columns]))
-        return {(i, j): cost[ends[i] - sizes[i]:ends[i], ends[j] - sizes[j] - sizes[0]:ends[j] - sizes[0]]
-                for i in range(len(options) - 1) for j in range(i + 1, len(options))}
+    def _pair_costs(self, panels: list[list[list[_Candidate]]], samples: np.ndarray
+                    ) -> list[dict[tuple[int, int], np.ndarray]]:
+        """For each panel (the kept candidates of each of its arrows): the penalty of drawing
+        candidate a of arrow i with candidate b of arrow j (i < j), for every such pair: heads
+        too close, shafts alongside, shafts crossing. One batch holds every panel's candidates of
+        every arrow but the last (rows) against those of every arrow but the first (columns),
+        padded to the largest panel's (numpy's cost here is per call, not per pair; the padding's
+        penalties are never read); the blocks for i < j are kept."""
+        out: list[dict[tuple[int, int], np.ndarray]] = [{} for _ in panels]
+        several = [k for k, options in enumerate(panels) if len(options) > 1]
+        if not several:
+            return out
+        cost = self._pair_block(_curve_features([[c for o in panels[k][:-1] for c in o] for k in several], samples),
+                                _curve_features([[c for o in panels[k][1:] for c in o] for k in several], samples))
+        for k, block in zip(several, cost):
+            sizes = [len(o) for o in panels[k]]
+            ends = list(accumulate(sizes))
+            out[k] = {(i, j): block[ends[i] - sizes[i]:ends[i], ends[j] - sizes[j] - sizes[0]:ends[j] - sizes[0]]
+                      for i in range(len(sizes) - 1) for j in range(i + 1, len(sizes))}
+        return out
 
     def _pair_block(self, first: tuple[np.ndarray, ...], second: tuple[np.ndarray, ...]) -> np.ndarray:
-        """The pair penalties of candidates `first` (rows) against `second` (columns), each given
-        as tips, starts, shaft samples without their ends and coarse chord points."""
+        """The pair penalties, panel by panel, of candidates `first` (rows) against `second`
+        (columns), each given as tips, starts, shaft samples without their ends and coarse
+        chord points, with the panel as the first axis."""
         bl = self.bl
         tips_a, starts_a, body_a, coarse_a = first
         tips_b, starts_b, body_b, coarse_b = second
-        cost = np.where(np.abs(tips_a[:, None] - tips_b[None, :]) < 0.45 * bl, 150.0, 0.0)
-        d = np.abs(body_a[:, None, :, None] - body_b[None, :, None, :])   # (A, B, s, s)
+        cost = np.where(np.abs(tips_a[:, :, None] - tips_b[:, None, :]) < 0.45 * bl, 150.0, 0.0)
+        d = np.abs(body_a[:, :, None, :, None] - body_b[:, None, :, None, :])   # (panels, A, B, s, s)
         # Arrows from one bond may share their start: closeness right at a shared start is fine.
-        shared = (np.abs(starts_a[:, None] - starts_b[None, :]) < 0.3 * bl)[:, :, None]
-        near_start = (np.abs(body_a - starts_a[:, None]) < 0.35 * bl)[:, None, :]
-        cost += 20.0 * ((d.min(axis=3) < 0.15 * bl) & ~(shared & near_start)).sum(axis=2)
+        shared = (np.abs(starts_a[:, :, None] - starts_b[:, None, :]) < 0.3 * bl)[..., None]
+        near_start = (np.abs(body_a - starts_a[..., None]) < 0.35 * bl)[:, :, None, :]
+        cost += 20.0 * ((d.min(axis=4) < 0.15 * bl) & ~(shared & near_start)).sum(axis=3)
         xa, ya, xb, yb = coarse_a.real, coarse_a.imag, coarse_b.real, coarse_b.imag
         # Which side of each chord of one curve every point of the other lies on; two chords
         # cross where each has the other's ends on opposite sides.
-        dxa, dya = (xa[:, 1:] - xa[:, :-1])[:, None, :, None], (ya[:, 1:] - ya[:, :-1])[:, None, :, None]
-        dxb, dyb = (xb[:, 1:] - xb[:, :-1])[None, :, :, None], (yb[:, 1:] - yb[:, :-1])[None, :, :, None]
-        of_b = dxa * (yb[None, :, None, :] - ya[:, None, :-1, None]) - dya * (xb[None, :, None, :] - xa[:, None, :-1, None])
-        of_a = dxb * (ya[:, None, None, :] - yb[None, :, :-1, None]) - dyb * (xa[:, None, None, :] - xb[None, :, :-1, None])
+        dxa, dya = (xa[..., 1:] - xa[..., :-1])[:, :, None, :, None], (ya[..., 1:] - ya[..., :-1])[:, :, None, :, None]
+        dxb, dyb = (xb[..., 1:] - xb[..., :-1])[:, None, :, :, None], (yb[..., 1:] - yb[..., :-1])[:, None, :, :, None]
+        of_b = (dxa * (yb[:, None, :, None, :] - ya[:, :, None, :-1, None])
+                - dya * (xb[:, None, :, None, :] - xa[:, :, None, :-1, None]))
+        of_a = (dxb * (ya[:, :, None, None, :] - yb[:, None, :, :-1, None])
+                - dyb * (xa[:, :, None, None, :] - xb[:, None, :, :-1, None]))
         hit = ((of_b[..., :-1] * of_b[..., 1:] < 0)
-               & (of_a[..., :-1] * of_a[..., 1:] < 0).transpose(0, 1, 3, 2))
-        return cost + 20.0 * hit.sum(axis=(2, 3))
+               & (of_a[..., :-1] * of_a[..., 1:] < 0).transpose(0, 1, 2, 4, 3))
+        return cost + 20.0 * hit.sum(axis=(3, 4))
 
-    def _choose(self, options: list[list[_Candidate]], samples: np.ndarray) -> list[_Candidate]:
-        """The combination of one candidate per arrow with the least total penalty: exhaustive
-        for up to four arrows, coordinate descent beyond."""
+    @staticmethod
+    def _choose(options: list[list[_Candidate]], pairs: dict[tuple[int, int], np.ndarray]) -> list[_Candidate]:
+        """The combination of one candidate per arrow with the least total penalty (its own
+        costs and the `pairs` costs): exhaustive for up to four arrows, coordinate descent beyond."""
         n = len(options)
         if n == 0:
             return []
         single = [np.array([c.cost for c in o]) for o in options]
-        pairs = self._pair_costs(options, samples) if n > 1 else {}
         if n <= 4:
             total = np.zeros([len(o) for o in options])
             for i in range(n):
@@ -532,6 +537,15 @@ def _beside_bond(occupied: list[complex], toward: complex) -> complex:
         turn = abs(cmath.phase(d / toward))
         return min(clearance(d, occupied), _DOTS_ROOM) + 0.5 * min(turn, math.pi / 2) - 0.6 * max(0.0, turn - math.pi / 2)
     return max(_AROUND, key=score)
+
+
+def _curve_features(groups: list[list[_Candidate]], samples: np.ndarray) -> tuple[np.ndarray, ...]:
+    """Tips, starts, shaft samples without their ends and coarse chord points (five chords) of
+    groups of candidates, one group per row, padded to the longest group."""
+    points = samples[_padded([[c.row for c in g] for g in groups], 0, int)]     # (groups, C, S)
+    return (_padded([[c.tip for c in g] for g in groups], 0j, complex),
+            _padded([[c.p0 for c in g] for g in groups], 0j, complex),
+            points[..., ::2][..., 1:-1], points[..., ::4])
 
 
 def _parameter_at_distance(p0: complex, p1: complex, p2: complex, p3: complex, distance: float) -> float:
