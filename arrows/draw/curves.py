@@ -444,11 +444,12 @@ class ArrowPlanner:
         tips_a, starts_a, body_a, coarse_a = first
         tips_b, starts_b, body_b, coarse_b = second
         cost = np.where(np.abs(tips_a[:, :, None] - tips_b[:, None, :]) < 0.45 * bl, 150.0, 0.0)
-        d = np.abs(body_a[:, :, None, :, None] - body_b[:, None, :, None, :])   # (panels, A, B, s, s)
+        # Which samples of a's shaft come near some sample of b's: (panels, A, B, s)
+        alongside = (np.abs(body_a[:, :, None, :, None] - body_b[:, None, :, None, :]) < 0.15 * bl).any(axis=4)
         # Arrows from one bond may share their start: closeness right at a shared start is fine.
         shared = (np.abs(starts_a[:, :, None] - starts_b[:, None, :]) < 0.3 * bl)[..., None]
         near_start = (np.abs(body_a - starts_a[..., None]) < 0.35 * bl)[:, :, None, :]
-        cost += 20.0 * ((d.min(axis=4) < 0.15 * bl) & ~(shared & near_start)).sum(axis=3)
+        cost += 20.0 * (alongside & ~(shared & near_start)).sum(axis=3)
         xa, ya, xb, yb = coarse_a.real, coarse_a.imag, coarse_b.real, coarse_b.imag
         # Which side of each chord of one curve every point of the other lies on; two chords
         # cross where each has the other's ends on opposite sides.
