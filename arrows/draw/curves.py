@@ -562,23 +562,33 @@ def _parameter_at_distance(p0: complex, p1: complex, p2: complex, p3: complex, d
     return lo
 
 
+_TOUCH = 1e-6   # points: bounding boxes this close count as meeting, so rounding never hides a crossing
+
+
 def _crossing_counts(pts: np.ndarray, a: np.ndarray, b: np.ndarray) -> np.ndarray:
     """For each polyline (rows of pts) and each segment a[r, e]-b[r, e] of its row: how many
     times they cross."""
     rows, edges = a.shape
     if edges == 0:
         return np.zeros((rows, 0), dtype=int)
-    ax, ay = a.real[:, None, :], a.imag[:, None, :]
-    ex, ey = b.real[:, None, :] - ax, b.imag[:, None, :] - ay
-    px, py = pts.real[:, :, None], pts.imag[:, :, None]
+    # Only a polyline and a segment whose bounding boxes meet can cross: the rest are not tested.
+    left, right = np.minimum(a.real, b.real), np.maximum(a.real, b.real)
+    top, bottom = np.minimum(a.imag, b.imag), np.maximum(a.imag, b.imag)
+    meet = ((left <= pts.real.max(axis=1)[:, None] + _TOUCH) & (right >= pts.real.min(axis=1)[:, None] - _TOUCH)
+            & (top <= pts.imag.max(axis=1)[:, None] + _TOUCH) & (bottom >= pts.imag.min(axis=1)[:, None] - _TOUCH))
+    c, e = np.nonzero(meet)
+    ax, ay, bx, by = a.real[c, e], a.imag[c, e], b.real[c, e], b.imag[c, e]
+    ex, ey = (bx - ax)[:, None], (by - ay)[:, None]
+    px, py = pts.real[c], pts.imag[c]
     # Which side of each bond's line every sample lies on; a polyline segment crosses the line
     # where its two ends lie on opposite sides. Few do, so only those are tested further: do
     # the bond's ends lie on opposite sides of that segment?
-    side = ey * (ax - px) - ex * (ay - py)
-    c, s, e = np.nonzero(side[:, :-1] * side[:, 1:] < 0)
-    x0, y0 = pts.real[c, s], pts.imag[c, s]
-    dx, dy = pts.real[c, s + 1] - x0, pts.imag[c, s + 1] - y0
-    o1 = dx * (a.imag[c, e] - y0) - dy * (a.real[c, e] - x0)
-    o2 = dx * (b.imag[c, e] - y0) - dy * (b.real[c, e] - x0)
+    side = ey * (ax[:, None] - px) - ex * (ay[:, None] - py)
+    k, s = np.nonzero(side[:, :-1] * side[:, 1:] < 0)
+    x0, y0 = px[k, s], py[k, s]
+    dx, dy = px[k, s + 1] - x0, py[k, s + 1] - y0
+    o1 = dx * (ay[k] - y0) - dy * (ax[k] - x0)
+    o2 = dx * (by[k] - y0) - dy * (bx[k] - x0)
     hit = o1 * o2 < 0
-    return np.bincount(c[hit] * edges + e[hit], minlength=rows * edges).reshape(rows, edges)
+    crossed = c[k[hit]] * edges + e[k[hit]]
+    return np.bincount(crossed, minlength=rows * edges).reshape(rows, edges)
