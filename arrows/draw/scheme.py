@@ -455,7 +455,8 @@ def _panel_centre(panel: Panel) -> float:
         return i
 
     for bond in panel.bonds:
-        a, b = (root(i) for i in bond.atoms)
+        i, j = bond.atoms
+        a, b = root(i), root(j)
         group[max(a, b)] = min(a, b)
     members: dict[int, list[float]] = {}
     for a in panel.atoms:
