@@ -392,11 +392,14 @@ class ArrowPlanner:
         counts = np.concatenate([counts, _crossing_counts(pts, bond_a, bond_b)], axis=1)
         # Whole counts times whole weights: the sum is exact, whatever the padding and order.
         cost = (counts * weights[owner]).sum(axis=1)
-        # Bulging into the molecule: atoms crowding the middle third of the curve. A sum of
-        # fractions depends on its order, so each panel sums its own atoms, unpadded.
+        # Bulging into the molecule: atoms crowding the middle third of the curve.
+        atom_xy = _padded([o.atom_xy for o in obs], _NOWHERE, complex)[where][:, None, :]
+        crowding = np.clip(1.1 - np.abs(pts[:, _SAMPLES // 3: 2 * _SAMPLES // 3 + 1, None] - atom_xy) / bl, 0, None)
+        # A sum of fractions depends on its order: each panel sums its own atoms, unpadded and
+        # laid out as one block, as if it were scored alone.
         for w in work:
-            middle = np.abs(pts[w.rows, _SAMPLES // 3: 2 * _SAMPLES // 3 + 1, None] - np.array(w.obstacles.atom_xy, dtype=complex))
-            cost[w.rows] += 3.0 * np.clip(1.1 - middle / bl, 0, None).sum(axis=(1, 2))
+            own_atoms = np.ascontiguousarray(crowding[w.rows, :, :len(w.obstacles.atom_xy)])
+            cost[w.rows] += 3.0 * own_atoms.sum(axis=(1, 2))
         if marks.shape[1]:
             # The head's barbs spread beyond the shaft: neither may sit on a charge sign or dots.
             arrive = np.array([_unit(c.tip - c.p2) for c in candidates])[:, None]

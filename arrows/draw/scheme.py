@@ -5,6 +5,7 @@ wrapped to the page width, a title, and error marks when a faulty mechanism is d
 from __future__ import annotations
 
 from dataclasses import dataclass, field, replace
+from functools import lru_cache
 from typing import Optional, Sequence
 
 from rdkit import Chem
@@ -421,21 +422,30 @@ CONDENSED = {"CO": "MeOH", "CCO": "EtOH", "CC(C)O": "i-PrOH", "CC(C)(C)O": "t-Bu
              "CC(C)NC(C)C": "i-Pr2NH", "C[O-]": "MeO-", "CC[O-]": "EtO-", "CC(C)(C)[O-]": "t-BuO-"}
 
 
+@lru_cache(maxsize=None)
+def _condensed_formulas() -> frozenset[str]:
+    """Molecular formulas of the CONDENSED by-products: a fragment with any other formula is
+    none of them, and is not canonicalised to find out."""
+    return frozenset(CalcMolFormula(Chem.MolFromSmiles(smiles)) for smiles in CONDENSED)
+
+
 def _byproduct_pieces(fragment: Chem.Mol) -> list[Piece]:
-    try:
-        work = Chem.Mol(fragment)
-        for atom in work.GetAtoms():
-            atom.SetAtomMapNum(0)
-        Chem.SanitizeMol(work)
-        smiles = Chem.MolToSmiles(Chem.RemoveHs(work, sanitize=False))
-    except Exception:  # an odd fragment: its formula says enough
-        smiles = ""
-    if smiles in CONDENSED:
-        text = CONDENSED[smiles]
-        if text[1:2] == "-":   # an i- or t- prefix stays plain; the rest is typeset as a formula
-            return [(text[:2], "n")] + condition_pieces(text[2:])
-        return condition_pieces(text)
-    pieces = formula_pieces(CalcMolFormula(fragment))
+    formula = CalcMolFormula(fragment)
+    if formula in _condensed_formulas():
+        try:
+            work = Chem.Mol(fragment)
+            for atom in work.GetAtoms():
+                atom.SetAtomMapNum(0)
+            Chem.SanitizeMol(work)
+            smiles = Chem.MolToSmiles(Chem.RemoveHs(work, sanitize=False))
+        except Exception:  # an odd fragment: its formula says enough
+            smiles = ""
+        if smiles in CONDENSED:
+            text = CONDENSED[smiles]
+            if text[1:2] == "-":   # an i- or t- prefix stays plain; the rest is typeset as a formula
+                return [(text[:2], "n")] + condition_pieces(text[2:])
+            return condition_pieces(text)
+    pieces = formula_pieces(formula)
     unpaired = sum(atom.GetNumRadicalElectrons() for atom in fragment.GetAtoms())
     if unpaired:   # a radical is written with its dot (Br•), as chemists do (common practice)
         pieces.append(("\u2022" * unpaired, "sup"))

@@ -213,8 +213,11 @@ class StructureDrawer:
         atom = atoms[i]
         element = state.elements   # atomic numbers, without a call into RDKit per atom
         p = positions[i]
-        name = state.label(i)
         symbol = atom.GetSymbol()
+        number = atom.GetAtomMapNum()
+        # A mapped atom is named by symbol and number (as ElectronState.label names it) without
+        # asking RDKit for the atom again; the rest are named by the state.
+        name = f"{symbol}{number}" if number else state.label(i)
         point = (p.real, p.imag)
         # Skeletal carbons are vertices, charged and radical ones too (the sign or dot sits
         # beside the vertex); only a bare terminal carbon with electrons of its own and no
