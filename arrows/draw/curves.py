@@ -21,6 +21,7 @@ import math
 from dataclasses import dataclass
 from functools import lru_cache
 from itertools import accumulate
+from typing import Optional
 
 import numpy as np
 
@@ -78,14 +79,16 @@ class _Candidate:
     p1: complex
     p2: complex
     tip: complex
-    row: int = 0               # its row of complex samples along the curve in the panel's array
+    row: int = 0               # its row of complex samples along the curve in the scheme's array
     cost: float = 0.0
+    length: float = 0.0        # of the polyline through its samples
 
 
 class _Obstacles:
     """Everything on a panel within a box (the reach of every candidate curve of the panel) that
-    an arrow should keep away from, as arrays for fast testing. The box is applied while the
-    lists are built: a few dozen Python comparisons cost less than numpy's calls."""
+    an arrow should keep away from, as plain lists: the arrows of a whole scheme are scored
+    together, on these lists padded to one size. The box is applied while the lists are built:
+    a few dozen Python comparisons cost less than numpy's calls."""
 
     def __init__(self, panel: PanelStructure, extra_marks: list[Mark], bl: float,
                  x0: float, y0: float, x1: float, y1: float):
@@ -93,19 +96,23 @@ class _Obstacles:
         self.largest_id = max(panel.atoms, default=0)   # sizes the per-atom rows, bonds leaving the box included
         atoms = [i for i in sorted(panel.atoms)
                  if x0 <= positions[i].real <= x1 and y0 <= positions[i].imag <= y1]
-        self.atom_ids = np.array(atoms, dtype=int)
-        self.atom_xy = np.array([positions[i] for i in atoms], dtype=complex)
-        boxes = [panel.atoms[i].box for i in atoms]
-        self.labelled = np.array([b is not None for b in boxes], dtype=bool)
+        self.atom_xy = [positions[i] for i in atoms]
         pad = 0.05 * bl
-        self.boxes = np.array([(b.x0 - pad, b.y0 - pad, b.x1 + pad, b.y1 + pad) if b else (0, 0, 0, 0)
-                               for b in boxes], dtype=float).reshape(-1, 4)
+        self.labelled_ids, self.label_boxes, self.bare_ids, self.bare_xy = [], [], [], []
+        for i in atoms:
+            b = panel.atoms[i].box
+            if b is None:
+                self.bare_ids.append(i)
+                self.bare_xy.append(positions[i])
+            else:
+                self.labelled_ids.append(i)
+                self.label_boxes.append((b.x0 - pad, b.y0 - pad, b.x1 + pad, b.y1 + pad))
         mp = 0.03 * bl
         marks = [(m.atom, (m.box.x0 - mp, m.box.y0 - mp, m.box.x1 + mp, m.box.y1 + mp))
                  for m in list(panel.marks) + extra_marks if m.box is not None]
         marks = [(atom, box) for atom, box in marks if box[2] >= x0 and box[0] <= x1 and box[3] >= y0 and box[1] <= y1]
-        self.marks = np.array([box for _, box in marks], dtype=float).reshape(-1, 4)
-        self.mark_owner = np.array([atom for atom, _ in marks], dtype=int)
+        self.marks = [box for _, box in marks]
+        self.mark_owner = [atom for atom, _ in marks]
         pairs = []
         for bond in panel.bonds:
             i, j = sorted(bond.atoms)
@@ -113,10 +120,37 @@ class _Obstacles:
             if (max(a.real, b.real) >= x0 and min(a.real, b.real) <= x1
                     and max(a.imag, b.imag) >= y0 and min(a.imag, b.imag) <= y1):
                 pairs.append((i, j))
-        self.bond_ends = np.array(pairs, dtype=int).reshape(-1, 2)      # lower atom index first
+        self.bond_ends = pairs                                          # lower atom index first
         self.bond_index = {pair: k for k, pair in enumerate(pairs)}
-        self.bond_a = np.array([positions[i] for i, _ in pairs], dtype=complex)
-        self.bond_b = np.array([positions[j] for _, j in pairs], dtype=complex)
+        self.bond_a = [positions[i] for i, _ in pairs]
+        self.bond_b = [positions[j] for _, j in pairs]
+
+
+_NO_BOX = (math.inf, math.inf, -math.inf, -math.inf)   # padding: contains no point
+_NOWHERE = complex(math.inf, math.inf)                 # padding: near nothing
+
+
+def _padded(rows: list[list], filler, dtype=float) -> np.ndarray:
+    """Rows of unequal length as one array, each row filled up with `filler`; the fillers are
+    chosen so that they never count (an empty box, a point at infinity, a bond of no length)."""
+    width = max(len(r) for r in rows)
+    out = np.array([r + [filler] * (width - len(r)) for r in rows], dtype=dtype)
+    return out.reshape(len(rows), width, *np.shape(filler))
+
+
+@dataclass
+class _PanelArrows:
+    """One panel's arrows between the stages of planning."""
+
+    step: int
+    moves: list[ResolvedMove]
+    panel: PanelStructure
+    marks: list[Mark]                  # the dots the arrows start from
+    sources: list[_Anchor]
+    sinks: list[_Anchor]
+    tries: list[list[_Candidate]]      # every candidate curve of each arrow
+    rows: Optional[slice] = None       # the rows of its candidates in the scheme's sample array
+    obstacles: Optional[_Obstacles] = None
 
 
 class ArrowPlanner:
@@ -130,30 +164,51 @@ class ArrowPlanner:
         self.head_length = max(0.26 * self.bl, 4.5 * style.line_width)
         self.head_width = 0.78 * self.head_length
 
-    def plan(self, step: int, moves: list[ResolvedMove], state: ElectronState,
-             panel: PanelStructure) -> tuple[list[CurvedArrow], list[Mark]]:
+    def plan(self, panels: list[tuple[int, list[ResolvedMove], ElectronState, PanelStructure]]
+             ) -> list[tuple[list[CurvedArrow], list[Mark]]]:
+        """The curved arrows of every panel of a scheme (its step, moves, state and structure)
+        and the dots they start from. The panels' candidates are sampled and scored in one
+        batch: numpy's cost there is per call, and a panel holds only a dozen curves."""
+        work = [self._try(step, moves, state, panel) for step, moves, state, panel in panels if moves]
+        candidates = [c for w in work for tries in w.tries for c in tries]
+        if candidates:
+            points = np.array([[c.p0, c.p1, c.p2, c.tip] for c in candidates], dtype=complex) @ _BERNSTEIN
+            for row, c in enumerate(candidates):
+                c.row = row
+            x0, y0 = points.real.min(axis=1).tolist(), points.imag.min(axis=1).tolist()
+            x1, y1 = points.real.max(axis=1).tolist(), points.imag.max(axis=1).tolist()
+            reach = 1.3 * self.bl     # the crowding term looks this far from a curve
+            start = 0
+            for w in work:
+                end = start + sum(len(tries) for tries in w.tries)
+                w.rows = slice(start, end)
+                w.obstacles = _Obstacles(w.panel, w.marks, self.bl, min(x0[start:end]) - reach,
+                                         min(y0[start:end]) - reach, max(x1[start:end]) + reach,
+                                         max(y1[start:end]) + reach)
+                start = end
+            self._score(work, candidates, points)
+        kept = [[sorted(tries, key=lambda c: c.cost)[:_KEEP] for tries in w.tries] for w in work]
+        planned = iter(zip(work, kept, self._pair_costs(kept, points) if work else []))
+        out = []
+        for _, moves, _, _ in panels:
+            if not moves:
+                out.append(([], []))
+                continue
+            w, options, pairs = next(planned)
+            chosen = self._choose(options, pairs)
+            out.append(([self._arrow(w.step, move, src, snk, cand, w.panel)
+                         for move, src, snk, cand in zip(w.moves, w.sources, w.sinks, chosen)], w.marks))
+        return out
+
+    def _try(self, step: int, moves: list[ResolvedMove], state: ElectronState, panel: PanelStructure) -> _PanelArrows:
+        """One panel's anchors (placing the dots the arrows leave from) and candidate curves."""
         marks: list[Mark] = []
-        if not moves:
-            return [], marks
         sinks = [self._sink(move, state, panel) for move in moves]
         self._separate_shared_sinks(moves, sinks, panel)
         sources = [self._source(move, panel, sink, marks) for move, sink in zip(moves, sinks)]
-        everything = [self._candidates(src, snk, panel) + self._hooks(move, src, snk, panel)
-                      for move, src, snk in zip(moves, sources, sinks)]
-        # Every candidate of every arrow is sampled in one product: numpy's cost here is per call.
-        candidates = [c for g in everything for c in g]
-        points = np.array([[c.p0, c.p1, c.p2, c.tip] for c in candidates], dtype=complex) @ _BERNSTEIN
-        for row, c in enumerate(candidates):
-            c.row = row
-        reach = 1.3 * self.bl     # the crowding term looks this far from a curve
-        obstacles = _Obstacles(panel, marks, self.bl, float(points.real.min()) - reach, float(points.imag.min()) - reach,
-                               float(points.real.max()) + reach, float(points.imag.max()) + reach)
-        self._score(candidates, points, [len(g) for g in everything], sources, sinks, moves, obstacles)
-        options = [sorted(candidates, key=lambda c: c.cost)[:_KEEP] for candidates in everything]
-        chosen = self._choose(options, points)
-        arrows = [self._arrow(step, move, src, snk, cand, points[cand.row], panel)
-                  for move, src, snk, cand in zip(moves, sources, sinks, chosen)]
-        return arrows, marks
+        tries = [self._candidates(src, snk, panel) + self._hooks(move, src, snk, panel)
+                 for move, src, snk in zip(moves, sources, sinks)]
+        return _PanelArrows(step, moves, panel, marks, sources, sinks, tries)
 
     # anchors
     def _source(self, move: ResolvedMove, panel: PanelStructure, sink: _Anchor, marks: list[Mark]) -> _Anchor:
@@ -288,111 +343,137 @@ class ArrowPlanner:
         return n if (direction / n).real >= 0 else -n
 
     # penalties
-    def _score(self, candidates: list[_Candidate], pts: np.ndarray, sizes: list[int], sources: list[_Anchor],
-               sinks: list[_Anchor], moves: list[ResolvedMove], ob: _Obstacles) -> None:
-        """Penalties of every candidate of every arrow of the panel, in one batch. `pts` holds
-        the candidates' samples, one row each; `sizes` how many candidates each arrow has."""
+    def _score(self, work: list[_PanelArrows], candidates: list[_Candidate], pts: np.ndarray) -> None:
+        """Penalties of every candidate of every arrow of every panel, in one batch. `pts` holds
+        the candidates' samples, one row each. Each panel's obstacles are padded to the largest
+        panel's count by fillers that never count, so each penalty column means one obstacle
+        of the candidate's own panel (or nothing)."""
         bl = self.bl
-        owner = np.repeat(np.arange(len(sizes)), sizes)
+        moves = [m for w in work for m in w.moves]
+        sources = [s for w in work for s in w.sources]
+        sizes = [len(tries) for w in work for tries in w.tries]
+        owner = np.repeat(np.arange(len(sizes)), sizes)                   # each candidate's arrow
+        panel_of = np.repeat(np.arange(len(work)), [len(w.moves) for w in work])   # each arrow's panel
+        where = panel_of[owner]                                            # each candidate's panel
+        arrow = np.arange(len(moves))[:, None]
+        obs = [w.obstacles for w in work]
         p0, tip = pts[:, :1], pts[:, -1:]
         inner = ((np.abs(pts - p0) > 0.22 * bl) & (np.abs(pts - tip) > 0.22 * bl))[:, :, None]
         x, y = pts.real[:, :, None], pts.imag[:, :, None]
         # Which atoms each arrow's own move names, as one boolean row per arrow.
-        known = max([ob.largest_id] + [i for m in moves for i in m.source_atoms + m.sink_atoms])
+        known = max([o.largest_id for o in obs] + [i for m in moves for i in m.source_atoms + m.sink_atoms])
         own = np.zeros((len(moves), known + 1), dtype=bool)
         for k, m in enumerate(moves):
             own[k, list(m.source_atoms + m.sink_atoms)] = True
-        is_own = own[:, ob.atom_ids]                                       # (arrows, atoms)
-        labelled, bare = ob.labelled, ~ob.labelled
+        own_labelled = own[arrow, _padded([o.labelled_ids for o in obs], 0, int)[panel_of]]     # (arrows, labels)
+        own_bare = own[arrow, _padded([o.bare_ids for o in obs], 0, int)[panel_of]]             # (arrows, vertices)
         dots_of = np.array([src.atoms[0] if src.kind == "dots" else -1 for src in sources])   # atom indices are >= 0
-        mine = ob.mark_owner[None, :] == dots_of[:, None]                  # an arrow's own dots
+        mine = _padded([o.mark_owner for o in obs], -2, int)[panel_of] == dots_of[:, None]         # an arrow's own dots
+        marks = _padded([o.marks for o in obs], _NO_BOX)
         # Every penalty counted per sample, in one array whose last axis is: label boxes, charge
         # signs and dots, skeletal vertices; then the bonds crossed. numpy's cost here is per call.
-        boxes = np.concatenate([ob.boxes[labelled], ob.marks])
-        in_box = (x >= boxes[:, 0]) & (x <= boxes[:, 2]) & (y >= boxes[:, 1]) & (y <= boxes[:, 3])
-        near = np.abs(pts[:, :, None] - ob.atom_xy[bare]) < np.where(is_own[:, bare], 0.12 * bl, 0.24 * bl)[owner][:, None, :]
+        boxes = np.concatenate([_padded([o.label_boxes for o in obs], _NO_BOX), marks], axis=1)[where][:, None]
+        in_box = (x >= boxes[..., 0]) & (x <= boxes[..., 2]) & (y >= boxes[..., 1]) & (y <= boxes[..., 3])
+        bare_xy = _padded([o.bare_xy for o in obs], _NOWHERE, complex)[where][:, None, :]
+        near = np.abs(pts[:, :, None] - bare_xy) < np.where(own_bare, 0.12 * bl, 0.24 * bl)[owner][:, None, :]
         counts = (np.concatenate([in_box, near], axis=2) & inner).sum(axis=1)
-        first, second = ob.bond_ends[:, 0], ob.bond_ends[:, 1]
-        crossing = np.where(own[:, first] | own[:, second], 6.0, 18.0)
-        for k, anchors in enumerate(zip(sources, sinks)):
+        ends = _padded([o.bond_ends for o in obs], (0, 0), int)[panel_of]
+        crossing = np.where(own[arrow, ends[..., 0]] | own[arrow, ends[..., 1]], 6.0, 18.0)
+        for k, anchors in enumerate(zip(sources, [s for w in work for s in w.sinks])):
             for anchor in anchors:
                 if anchor.kind == "bond":   # the bond the arrow starts or ends on is no obstacle
-                    bond = ob.bond_index.get(tuple(sorted(anchor.atoms)))
+                    bond = obs[panel_of[k]].bond_index.get(tuple(sorted(anchor.atoms)))
                     if bond is not None:
                         crossing[k, bond] = 0.0
-        weights = np.concatenate([np.where(is_own[:, labelled], 40.0, 100.0), np.where(mine, 0.0, 30.0),
-                                  np.where(is_own[:, bare], 10.0, 30.0), crossing], axis=1)
-        counts = np.concatenate([counts, _crossing_counts(pts, ob.bond_a, ob.bond_b)], axis=1)
+        weights = np.concatenate([np.where(own_labelled, 40.0, 100.0), np.where(mine, 0.0, 30.0),
+                                  np.where(own_bare, 10.0, 30.0), crossing], axis=1)
+        bond_a = _padded([o.bond_a for o in obs], 0j, complex)[where]
+        bond_b = _padded([o.bond_b for o in obs], 0j, complex)[where]
+        counts = np.concatenate([counts, _crossing_counts(pts, bond_a, bond_b)], axis=1)
+        # Whole counts times whole weights: the sum is exact, whatever the padding and order.
         cost = (counts * weights[owner]).sum(axis=1)
         # Bulging into the molecule: atoms crowding the middle third of the curve.
-        middle = np.abs(pts[:, _SAMPLES // 3: 2 * _SAMPLES // 3 + 1, None] - ob.atom_xy)
-        cost += 3.0 * np.clip(1.1 - middle / bl, 0, None).sum(axis=(1, 2))
-        if len(ob.marks):
+        atom_xy = _padded([o.atom_xy for o in obs], _NOWHERE, complex)[where][:, None, :]
+        crowding = np.clip(1.1 - np.abs(pts[:, _SAMPLES // 3: 2 * _SAMPLES // 3 + 1, None] - atom_xy) / bl, 0, None)
+        # A sum of fractions depends on its order: each panel sums its own atoms, unpadded and
+        # laid out as one block, as if it were scored alone.
+        for w in work:
+            own_atoms = np.ascontiguousarray(crowding[w.rows, :, :len(w.obstacles.atom_xy)])
+            cost[w.rows] += 3.0 * own_atoms.sum(axis=(1, 2))
+        if marks.shape[1]:
             # The head's barbs spread beyond the shaft: neither may sit on a charge sign or dots.
             arrive = np.array([_unit(c.tip - c.p2) for c in candidates])[:, None]
             barbs = tip - arrive * self.head_length + arrive * 1j * np.array([0.5, -0.5]) * self.head_width
             bx, by = barbs.real[:, :, None], barbs.imag[:, :, None]
-            hit = (bx >= ob.marks[:, 0]) & (bx <= ob.marks[:, 2]) & (by >= ob.marks[:, 1]) & (by <= ob.marks[:, 3])
+            at = marks[where][:, None]
+            hit = (bx >= at[..., 0]) & (bx <= at[..., 2]) & (by >= at[..., 1]) & (by <= at[..., 3])
             cost += 30.0 * (hit & ~mine[owner][:, None, :]).sum(axis=(1, 2))
         outward = np.array([src.outward if src.kind == "dots" else 0j for src in sources])[owner]
         leave = np.array([c.p1 - c.p0 for c in candidates])
         leave = leave / np.maximum(np.abs(leave), 1e-9)
         # Leaving the dots back across the atom reads as coming from the wrong place.
         cost += np.where((outward != 0) & ((leave * np.conj(outward)).real < -0.2), 20.0, 0.0)
-        cost += np.abs(np.diff(pts, axis=1)).sum(axis=1) / bl
-        for c, value in zip(candidates, cost.tolist()):
-            c.cost = value
+        lengths = np.abs(np.diff(pts, axis=1)).sum(axis=1)
+        cost += lengths / bl
+        for c, value, length in zip(candidates, cost.tolist(), lengths.tolist()):
+            c.cost, c.length = value, length
 
-    def _pair_costs(self, options: list[list[_Candidate]], samples: np.ndarray) -> dict[tuple[int, int], np.ndarray]:
-        """Penalty of drawing candidate a of arrow i with candidate b of arrow j (i < j), for every
-        such pair of kept candidates: heads too close, shafts alongside, shafts crossing. One
-        batch holds the candidates of every arrow but the last against those of every arrow but
-        the first (numpy's cost here is per call, not per pair); the blocks for i < j are kept."""
-        sizes = [len(o) for o in options]
-        ends = list(accumulate(sizes))
-        flat = [c for o in options for c in o]
-        tips = np.array([c.tip for c in flat])
-        starts = np.array([c.p0 for c in flat])
-        points = samples[[c.row for c in flat]]                           # (C, S)
-        body = points[:, ::2][:, 1:-1]
-        coarse = points[:, ::4]                                           # five chords per curve
-        rows, columns = slice(0, ends[-2]), slice(sizes[0], None)
-        cost = self._pair_block((tips[rows], starts[rows], body[rows], coarse[rows]),
-                                (tips[columns], starts[columns], body[columns], coarse[columns]))
-        return {(i, j): cost[ends[i] - sizes[i]:ends[i], ends[j] - sizes[j] - sizes[0]:ends[j] - sizes[0]]
-                for i in range(len(options) - 1) for j in range(i + 1, len(options))}
+    def _pair_costs(self, panels: list[list[list[_Candidate]]], samples: np.ndarray
+                    ) -> list[dict[tuple[int, int], np.ndarray]]:
+        """For each panel (the kept candidates of each of its arrows): the penalty of drawing
+        candidate a of arrow i with candidate b of arrow j (i < j), for every such pair: heads
+        too close, shafts alongside, shafts crossing. One batch holds every panel's candidates of
+        every arrow but the last (rows) against those of every arrow but the first (columns),
+        padded to the largest panel's (numpy's cost here is per call, not per pair; the padding's
+        penalties are never read); the blocks for i < j are kept."""
+        out: list[dict[tuple[int, int], np.ndarray]] = [{} for _ in panels]
+        several = [k for k, options in enumerate(panels) if len(options) > 1]
+        if not several:
+            return out
+        cost = self._pair_block(_curve_features([[c for o in panels[k][:-1] for c in o] for k in several], samples),
+                                _curve_features([[c for o in panels[k][1:] for c in o] for k in several], samples))
+        for k, block in zip(several, cost):
+            sizes = [len(o) for o in panels[k]]
+            ends = list(accumulate(sizes))
+            out[k] = {(i, j): block[ends[i] - sizes[i]:ends[i], ends[j] - sizes[j] - sizes[0]:ends[j] - sizes[0]]
+                      for i in range(len(sizes) - 1) for j in range(i + 1, len(sizes))}
+        return out
 
     def _pair_block(self, first: tuple[np.ndarray, ...], second: tuple[np.ndarray, ...]) -> np.ndarray:
-        """The pair penalties of candidates `first` (rows) against `second` (columns), each given
-        as tips, starts, shaft samples without their ends and coarse chord points."""
+        """The pair penalties, panel by panel, of candidates `first` (rows) against `second`
+        (columns), each given as tips, starts, shaft samples without their ends and coarse
+        chord points, with the panel as the first axis."""
         bl = self.bl
         tips_a, starts_a, body_a, coarse_a = first
         tips_b, starts_b, body_b, coarse_b = second
-        cost = np.where(np.abs(tips_a[:, None] - tips_b[None, :]) < 0.45 * bl, 150.0, 0.0)
-        d = np.abs(body_a[:, None, :, None] - body_b[None, :, None, :])   # (A, B, s, s)
+        cost = np.where(np.abs(tips_a[:, :, None] - tips_b[:, None, :]) < 0.45 * bl, 150.0, 0.0)
+        # Which samples of a's shaft come near some sample of b's: (panels, A, B, s)
+        alongside = (np.abs(body_a[:, :, None, :, None] - body_b[:, None, :, None, :]) < 0.15 * bl).any(axis=4)
         # Arrows from one bond may share their start: closeness right at a shared start is fine.
-        shared = (np.abs(starts_a[:, None] - starts_b[None, :]) < 0.3 * bl)[:, :, None]
-        near_start = (np.abs(body_a - starts_a[:, None]) < 0.35 * bl)[:, None, :]
-        cost += 20.0 * ((d.min(axis=3) < 0.15 * bl) & ~(shared & near_start)).sum(axis=2)
+        shared = (np.abs(starts_a[:, :, None] - starts_b[:, None, :]) < 0.3 * bl)[..., None]
+        near_start = (np.abs(body_a - starts_a[..., None]) < 0.35 * bl)[:, :, None, :]
+        cost += 20.0 * (alongside & ~(shared & near_start)).sum(axis=3)
         xa, ya, xb, yb = coarse_a.real, coarse_a.imag, coarse_b.real, coarse_b.imag
         # Which side of each chord of one curve every point of the other lies on; two chords
         # cross where each has the other's ends on opposite sides.
-        dxa, dya = (xa[:, 1:] - xa[:, :-1])[:, None, :, None], (ya[:, 1:] - ya[:, :-1])[:, None, :, None]
-        dxb, dyb = (xb[:, 1:] - xb[:, :-1])[None, :, :, None], (yb[:, 1:] - yb[:, :-1])[None, :, :, None]
-        of_b = dxa * (yb[None, :, None, :] - ya[:, None, :-1, None]) - dya * (xb[None, :, None, :] - xa[:, None, :-1, None])
-        of_a = dxb * (ya[:, None, None, :] - yb[None, :, :-1, None]) - dyb * (xa[:, None, None, :] - xb[None, :, :-1, None])
+        dxa, dya = (xa[..., 1:] - xa[..., :-1])[:, :, None, :, None], (ya[..., 1:] - ya[..., :-1])[:, :, None, :, None]
+        dxb, dyb = (xb[..., 1:] - xb[..., :-1])[:, None, :, :, None], (yb[..., 1:] - yb[..., :-1])[:, None, :, :, None]
+        of_b = (dxa * (yb[:, None, :, None, :] - ya[:, :, None, :-1, None])
+                - dya * (xb[:, None, :, None, :] - xa[:, :, None, :-1, None]))
+        of_a = (dxb * (ya[:, :, None, None, :] - yb[:, None, :, :-1, None])
+                - dyb * (xa[:, :, None, None, :] - xb[:, None, :, :-1, None]))
         hit = ((of_b[..., :-1] * of_b[..., 1:] < 0)
-               & (of_a[..., :-1] * of_a[..., 1:] < 0).transpose(0, 1, 3, 2))
-        return cost + 20.0 * hit.sum(axis=(2, 3))
+               & (of_a[..., :-1] * of_a[..., 1:] < 0).transpose(0, 1, 2, 4, 3))
+        return cost + 20.0 * hit.sum(axis=(3, 4))
 
-    def _choose(self, options: list[list[_Candidate]], samples: np.ndarray) -> list[_Candidate]:
-        """The combination of one candidate per arrow with the least total penalty: exhaustive
-        for up to four arrows, coordinate descent beyond."""
+    @staticmethod
+    def _choose(options: list[list[_Candidate]], pairs: dict[tuple[int, int], np.ndarray]) -> list[_Candidate]:
+        """The combination of one candidate per arrow with the least total penalty (its own
+        costs and the `pairs` costs): exhaustive for up to four arrows, coordinate descent beyond."""
         n = len(options)
         if n == 0:
             return []
         single = [np.array([c.cost for c in o]) for o in options]
-        pairs = self._pair_costs(options, samples) if n > 1 else {}
         if n <= 4:
             total = np.zeros([len(o) for o in options])
             for i in range(n):
@@ -417,11 +498,10 @@ class ArrowPlanner:
 
     # the final arrow
     def _arrow(self, step: int, move: ResolvedMove, src: _Anchor, snk: _Anchor, c: _Candidate,
-               samples: np.ndarray, panel: PanelStructure) -> CurvedArrow:
+               panel: PanelStructure) -> CurvedArrow:
         p0, p1, p2, tip = c.p0, c.p1, c.p2, c.tip
         # A short arrow gets a smaller head, so the head never swallows the curve.
-        length = float(np.abs(np.diff(samples)).sum())
-        head = min(self.head_length, max(0.32 * length, 0.6 * self.head_length))
+        head = min(self.head_length, max(0.32 * c.length, 0.6 * self.head_length))
         base = bezier(p0, p1, p2, tip, _parameter_at_distance(p0, p1, p2, tip, head))
         direction = _unit(tip - base)
         s0, s1, s2, s3 = split_before(p0, p1, p2, tip, _parameter_at_distance(p0, p1, p2, tip, 0.65 * head))
@@ -463,6 +543,15 @@ def _beside_bond(occupied: list[complex], toward: complex) -> complex:
     return max(_AROUND, key=score)
 
 
+def _curve_features(groups: list[list[_Candidate]], samples: np.ndarray) -> tuple[np.ndarray, ...]:
+    """Tips, starts, shaft samples without their ends and coarse chord points (five chords) of
+    groups of candidates, one group per row, padded to the longest group."""
+    points = samples[_padded([[c.row for c in g] for g in groups], 0, int)]     # (groups, C, S)
+    return (_padded([[c.tip for c in g] for g in groups], 0j, complex),
+            _padded([[c.p0 for c in g] for g in groups], 0j, complex),
+            points[..., ::2][..., 1:-1], points[..., ::4])
+
+
 def _parameter_at_distance(p0: complex, p1: complex, p2: complex, p3: complex, distance: float) -> float:
     """The parameter t (near the end) where the curve is `distance` from its end point."""
     lo, hi = 0.0, 1.0
@@ -476,25 +565,33 @@ def _parameter_at_distance(p0: complex, p1: complex, p2: complex, p3: complex, d
     return lo
 
 
+_TOUCH = 1e-6   # points: bounding boxes this close count as meeting, so rounding never hides a crossing
+
+
 def _crossing_counts(pts: np.ndarray, a: np.ndarray, b: np.ndarray) -> np.ndarray:
-    """For each polyline (rows of pts) and each segment a[e]-b[e]: how many times they cross."""
-    counts = np.zeros((pts.shape[0], len(a)), dtype=int)
-    if len(a) == 0:
-        return counts
-    ax, ay, bx, by = a.real, a.imag, b.real, b.imag
-    ex, ey = bx - ax, by - ay
-    px, py = pts.real[:, :, None], pts.imag[:, :, None]
+    """For each polyline (rows of pts) and each segment a[r, e]-b[r, e] of its row: how many
+    times they cross."""
+    rows, edges = a.shape
+    if edges == 0:
+        return np.zeros((rows, 0), dtype=int)
+    # Only a polyline and a segment whose bounding boxes meet can cross: the rest are not tested.
+    left, right = np.minimum(a.real, b.real), np.maximum(a.real, b.real)
+    top, bottom = np.minimum(a.imag, b.imag), np.maximum(a.imag, b.imag)
+    meet = ((left <= pts.real.max(axis=1)[:, None] + _TOUCH) & (right >= pts.real.min(axis=1)[:, None] - _TOUCH)
+            & (top <= pts.imag.max(axis=1)[:, None] + _TOUCH) & (bottom >= pts.imag.min(axis=1)[:, None] - _TOUCH))
+    c, e = np.nonzero(meet)
+    ax, ay, bx, by = a.real[c, e], a.imag[c, e], b.real[c, e], b.imag[c, e]
+    ex, ey = (bx - ax)[:, None], (by - ay)[:, None]
+    px, py = pts.real[c], pts.imag[c]
     # Which side of each bond's line every sample lies on; a polyline segment crosses the line
     # where its two ends lie on opposite sides. Few do, so only those are tested further: do
     # the bond's ends lie on opposite sides of that segment?
-    side = ey * (ax - px) - ex * (ay - py)
-    c, s, e = np.nonzero(side[:, :-1] * side[:, 1:] < 0)
-    if len(c) == 0:
-        return counts
-    x0, y0 = pts.real[c, s], pts.imag[c, s]
-    dx, dy = pts.real[c, s + 1] - x0, pts.imag[c, s + 1] - y0
-    o1 = dx * (ay[e] - y0) - dy * (ax[e] - x0)
-    o2 = dx * (by[e] - y0) - dy * (bx[e] - x0)
+    side = ey * (ax[:, None] - px) - ex * (ay[:, None] - py)
+    k, s = np.nonzero(side[:, :-1] * side[:, 1:] < 0)
+    x0, y0 = px[k, s], py[k, s]
+    dx, dy = px[k, s + 1] - x0, py[k, s + 1] - y0
+    o1 = dx * (ay[k] - y0) - dy * (ax[k] - x0)
+    o2 = dx * (by[k] - y0) - dy * (bx[k] - x0)
     hit = o1 * o2 < 0
-    np.add.at(counts, (c[hit], e[hit]), 1)
-    return counts
+    crossed = c[k[hit]] * edges + e[k[hit]]
+    return np.bincount(crossed, minlength=rows * edges).reshape(rows, edges)

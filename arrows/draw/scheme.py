@@ -7,6 +7,7 @@ from __future__ import annotations
 import math
 
 from dataclasses import dataclass, field, replace
+from functools import lru_cache
 from typing import Optional, Sequence
 
 from rdkit import Chem
@@ -17,9 +18,9 @@ from ..electrons import ElectronState, ResolvedMove
 from ..trace import StepTrace, Trace
 from .curves import ArrowPlanner
 from .layout import compute_layout
-from .scene import Box, Mark, Panel, ReactionArrow, Scene, TextRun
+from .scene import Box, CurvedArrow, Mark, Panel, ReactionArrow, Scene, TextRun
 from .formula import MINUS, Piece, condition_pieces, formula_pieces
-from .structure import StructureDrawer
+from .structure import PanelStructure, StructureDrawer
 from .styles import ERROR_COLOUR, SMALLEST_TEXT_PT, Style
 from .text import FontFace, wrap
 
@@ -166,17 +167,22 @@ class _SceneBuilder:
         moves = [list(s.leaving.change.moves) if s.leaving else [] for s in sources]
         touched = [set(s.leaving.change.touched_atoms) if s.leaving else set() for s in sources]
         layout = compute_layout(states, moves, touched, [s.hidden | s.idle for s in sources])
-        panels = []
-        for k, (src, placed) in enumerate(zip(sources, layout.panels)):
-            panels.append(self._panel(k, src, placed, layout.drawn_hydrogens, moves[k]))
+        drawn = [self._structure(src, placed, layout.drawn_hydrogens) for src, placed in zip(sources, layout.panels)]
+        # The arrows of every panel are planned together (one batch of numpy work for the scheme).
+        leaving = [k for k, src in enumerate(sources) if src.leaving is not None]
+        planned = self.planner.plan([(sources[k].leaving.index, _drawable(moves[k], drawn[k][1]), sources[k].state,
+                                      drawn[k][1]) for k in leaving])
+        arrows = dict(zip(leaving, planned))
+        panels = [self._panel(k, src, *drawn[k], *arrows.get(k, ([], [])))
+                  for k, src in enumerate(sources)]
         specs = [self._arrow_spec(src.leaving, src.hidden) for src in sources if src.leaving is not None]
         failed = sources[-1].leaving is not None and sources[-1].leaving.after is None
         if failed:
             panels.append(self._placeholder(len(panels)))
         return self._compose(panels, specs)
 
-    def _panel(self, k: int, src: _PanelSource, placed, drawn_h: frozenset[int],
-               moves: list[ResolvedMove]) -> Panel:
+    def _structure(self, src: _PanelSource, placed, drawn_h: frozenset[int]) -> tuple[tuple[int, ...], PanelStructure]:
+        """The atoms drawn on a panel and their structure (labels, bonds, marks)."""
         bl = self.bl
         # A travelling hydrogen is drawn where it matters: on the panel whose arrows move it and
         # on the panel just after; elsewhere it is implicit like every other hydrogen.
@@ -194,15 +200,14 @@ class _SceneBuilder:
             change = src.leaving.change
             broken |= {tuple(sorted(b)) for b in change.broken}
             broken |= {tuple(sorted(b)) for b, old, new in change.reordered if new < old}
-        structure = self.drawer.draw(src.state, visible, positions, shown_h, formed, broken)
-        arrows, dots = [], []
+        return visible, self.drawer.draw(src.state, visible, positions, shown_h, formed, broken)
+
+    def _panel(self, k: int, src: _PanelSource, visible: tuple[int, ...], structure: PanelStructure,
+               arrows: list[CurvedArrow], dots: list[Mark]) -> Panel:
         step = src.leaving.index if src.leaving is not None else None
-        if src.leaving is not None:
-            usable = [m for m in moves if all(i in positions for i in m.source_atoms + m.sink_atoms)]
-            arrows, dots = self.planner.plan(step, usable, src.state, structure)
         marks = list(structure.marks) + dots + self._error_rings(step, src.state, structure)
         atoms = tuple(structure.atoms[i] for i in visible)
-        box = _panel_box(atoms, structure.bonds, marks, arrows, 0.15 * bl)
+        box = _panel_box(atoms, structure.bonds, marks, arrows, 0.15 * self.bl)
         return Panel(k, step, (0.0, 0.0), box, atoms, tuple(structure.bonds), tuple(marks), tuple(arrows))
 
     def _error_rings(self, step: Optional[int], state: ElectronState, structure) -> list[Mark]:
@@ -416,14 +421,20 @@ class _SceneBuilder:
         return scene, self.fit
 
 
+def _drawable(moves: list[ResolvedMove], structure: PanelStructure) -> list[ResolvedMove]:
+    """The moves whose atoms are all drawn on the panel."""
+    return [m for m in moves if all(i in structure.positions for i in m.source_atoms + m.sink_atoms)]
+
+
 def _formulas(mol: Chem.Mol, atoms: Sequence[int]) -> list[list[Piece]]:
     """Molecular formulas of the fragments made of `atoms`, as pieces with subscripts and charges."""
     wanted = set(atoms)
     out = []
-    for frag in Chem.GetMolFrags(mol, asMols=False, sanitizeFrags=False):
+    # RDKit cuts every fragment out in one call: cheaper than one submolecule per wanted fragment.
+    fragments: list[tuple[int, ...]] = []
+    molecules = Chem.GetMolFrags(mol, asMols=True, sanitizeFrags=False, fragsMolAtomMapping=fragments)
+    for frag, sub in zip(fragments, molecules):
         if set(frag) <= wanted:
-            sub = Chem.RWMol(Chem.PathToSubmol(mol, _bonds_of(mol, frag)) if len(frag) > 1 else
-                             _single_atom(mol, frag[0]))
             sub.UpdatePropertyCache(strict=False)
             out.append(_byproduct_pieces(sub))
     return out
@@ -435,42 +446,34 @@ CONDENSED = {"CO": "MeOH", "CCO": "EtOH", "CC(C)O": "i-PrOH", "CC(C)(C)O": "t-Bu
              "CC(C)NC(C)C": "i-Pr2NH", "C[O-]": "MeO-", "CC[O-]": "EtO-", "CC(C)(C)[O-]": "t-BuO-"}
 
 
+@lru_cache(maxsize=None)
+def _condensed_formulas() -> frozenset[str]:
+    """Molecular formulas of the CONDENSED by-products: a fragment with any other formula is
+    none of them, and is not canonicalised to find out."""
+    return frozenset(CalcMolFormula(Chem.MolFromSmiles(smiles)) for smiles in CONDENSED)
+
+
 def _byproduct_pieces(fragment: Chem.Mol) -> list[Piece]:
-    try:
-        work = Chem.Mol(fragment)
-        for atom in work.GetAtoms():
-            atom.SetAtomMapNum(0)
-        Chem.SanitizeMol(work)
-        smiles = Chem.MolToSmiles(Chem.RemoveHs(work, sanitize=False))
-    except Exception:  # an odd fragment: its formula says enough
-        smiles = ""
-    if smiles in CONDENSED:
-        text = CONDENSED[smiles]
-        if text[1:2] == "-":   # an i- or t- prefix stays plain; the rest is typeset as a formula
-            return [(text[:2], "n")] + condition_pieces(text[2:])
-        return condition_pieces(text)
-    pieces = formula_pieces(CalcMolFormula(fragment))
+    formula = CalcMolFormula(fragment)
+    if formula in _condensed_formulas():
+        try:
+            work = Chem.Mol(fragment)
+            for atom in work.GetAtoms():
+                atom.SetAtomMapNum(0)
+            Chem.SanitizeMol(work)
+            smiles = Chem.MolToSmiles(Chem.RemoveHs(work, sanitize=False))
+        except Exception:  # an odd fragment: its formula says enough
+            smiles = ""
+        if smiles in CONDENSED:
+            text = CONDENSED[smiles]
+            if text[1:2] == "-":   # an i- or t- prefix stays plain; the rest is typeset as a formula
+                return [(text[:2], "n")] + condition_pieces(text[2:])
+            return condition_pieces(text)
+    pieces = formula_pieces(formula)
     unpaired = sum(atom.GetNumRadicalElectrons() for atom in fragment.GetAtoms())
     if unpaired:   # a radical is written with its dot (Br•), as chemists do (common practice)
         pieces.append(("\u2022" * unpaired, "sup"))
     return pieces
-
-
-def _bonds_of(mol: Chem.Mol, frag: Sequence[int]) -> list[int]:
-    inside = set(frag)
-    return [b.GetIdx() for b in mol.GetBonds() if b.GetBeginAtomIdx() in inside and b.GetEndAtomIdx() in inside]
-
-
-def _single_atom(mol: Chem.Mol, index: int) -> Chem.Mol:
-    work = Chem.RWMol()
-    atom = mol.GetAtomWithIdx(index)
-    copy = Chem.Atom(atom.GetAtomicNum())
-    copy.SetFormalCharge(atom.GetFormalCharge())
-    copy.SetNumExplicitHs(atom.GetNumExplicitHs())
-    copy.SetNoImplicit(True)
-    copy.SetNumRadicalElectrons(atom.GetNumRadicalElectrons())
-    work.AddAtom(copy)
-    return work.GetMol()
 
 
 def _panel_centre(panel: Panel) -> float:
@@ -486,7 +489,8 @@ def _panel_centre(panel: Panel) -> float:
         return i
 
     for bond in panel.bonds:
-        a, b = (root(i) for i in bond.atoms)
+        i, j = bond.atoms
+        a, b = root(i), root(j)
         group[max(a, b)] = min(a, b)
     members: dict[int, list[float]] = {}
     for a in panel.atoms:

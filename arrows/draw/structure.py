@@ -211,19 +211,23 @@ class StructureDrawer:
               positions: dict[int, complex], neighbours: list[int], drawn_hydrogens: frozenset[int],
               out: PanelStructure) -> AtomDrawing:
         atom = atoms[i]
+        element = state.elements   # atomic numbers, without a call into RDKit per atom
         p = positions[i]
-        name = state.label(i)
         symbol = atom.GetSymbol()
+        number = atom.GetAtomMapNum()
+        # A mapped atom is named by symbol and number (as ElectronState.label names it) without
+        # asking RDKit for the atom again; the rest are named by the state.
+        name = f"{symbol}{number}" if number else state.label(i)
         point = (p.real, p.imag)
         # Skeletal carbons are vertices, charged and radical ones too (the sign or dot sits
         # beside the vertex); only a bare terminal carbon with electrons of its own and no
         # hydrogen, as in cyanide, gets its letter.
-        if atom.GetAtomicNum() == 6 and len(neighbours) > 1:
+        if element[i] == 6 and len(neighbours) > 1:
             return AtomDrawing(i, name, symbol, point)
         hidden_h = atom.GetNumExplicitHs() + sum(
-            1 for n in adjacent[i] if n not in drawn_hydrogens and atoms[n].GetAtomicNum() == 1)
+            1 for n in adjacent[i] if n not in drawn_hydrogens and element[n] == 1)
         bare_end = len(neighbours) == 1 and hidden_h == 0 and (atom.GetFormalCharge() or state.nonbonding[i])
-        if atom.GetAtomicNum() == 6 and neighbours and not bare_end:
+        if element[i] == 6 and neighbours and not bare_end:
             return AtomDrawing(i, name, symbol, point)
         fs, ss = self.style.font_size, self.style.small_size
         baseline = p.imag + self.cap / 2
