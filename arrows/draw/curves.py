@@ -12,7 +12,8 @@ A handful of such curves is tried per arrow (leaving from either side of a bond,
 atom from any free direction) and one is chosen for every arrow of a step together, by a
 penalty: passing through a label or an atom is nearly forbidden, crossing a bond or another
 arrow is costly, an arc bulging into the molecule costs more than one bulging out, an S-shaped
-arc is avoided, and two heads of one step never share a position.
+arc is avoided, so is an arc that loops back on itself or squeezes into the angle between the two
+bonds it joins, and two heads of one step never share a position.
 """
 from __future__ import annotations
 
@@ -34,6 +35,11 @@ _ANGLES = (math.radians(34), math.radians(58))
 _SHORT_ANGLES = (math.radians(40), math.radians(70), math.radians(105))
 _KEEP = 4          # candidates per arrow that enter the joint choice
 _GAP_REACH = 0.45  # bond lengths: farthest a head into a forming bond stops from the atom it reaches
+_MAX_TURN = math.radians(180)   # an arc turning further than this curls back on itself
+_CURL_WEIGHT = 0.5              # penalty per degree beyond _MAX_TURN
+_LOOP_STANDOFF = 0.45           # bond lengths: a turned-back arc standing further off its chord is a loop
+_SELF_CROSSING = math.radians(240)   # an arc turning this far crosses itself
+_CROOK = 1.0                    # penalty of an arc cramped inside the angle of the two bonds it joins
 _T = np.linspace(0.0, 1.0, _SAMPLES + 1)
 _BERNSTEIN = np.stack([(1 - _T) ** 3, 3 * _T * (1 - _T) ** 2, 3 * _T ** 2 * (1 - _T), _T ** 3])
 
@@ -340,8 +346,24 @@ class ArrowPlanner:
         # Leaving the dots back across the atom reads as coming from the wrong place.
         cost += np.where((outward != 0) & ((leave * np.conj(outward)).real < -0.2), 20.0, 0.0)
         cost += np.abs(np.diff(pts, axis=1)).sum(axis=1) / bl
+        # A pair leaving a bond: one clean arc, never a loop.
+        from_bond = np.array([src.kind == "bond" for src in sources])
+        cost += np.where(from_bond[owner], self._curl(pts), 0.0)
+        cost += _CROOK * _in_crook(pts[:, _SAMPLES // 2], sources, sinks, owner, ob)
         for c, value in zip(candidates, cost.tolist()):
             c.cost = value
+
+    def _curl(self, pts: np.ndarray) -> np.ndarray:
+        """An arc that turns back on itself (through more than _MAX_TURN) and either stands far
+        off its chord or crosses itself reads as a loop rather than as one clean arc."""
+        steps = np.diff(pts, axis=1)
+        steps = np.where(np.abs(steps) > 1e-12, steps, 1.0)
+        turn = np.abs(np.angle(steps[:, 1:] / steps[:, :-1]).sum(axis=1))
+        chord = pts[:, -1:] - pts[:, :1]
+        chord = chord / np.maximum(np.abs(chord), 1e-9)
+        standoff = np.abs(((pts - pts[:, :1]) * np.conj(chord)).imag).max(axis=1)
+        loop = (turn > _MAX_TURN) & ((standoff > _LOOP_STANDOFF * self.bl) | (turn > _SELF_CROSSING))
+        return np.where(loop, _CURL_WEIGHT * np.degrees(turn - _MAX_TURN), 0.0)
 
     def _pair_costs(self, options: list[list[_Candidate]], samples: np.ndarray) -> dict[tuple[int, int], np.ndarray]:
         """Penalty of drawing candidate a of arrow i with candidate b of arrow j (i < j), for every
@@ -461,6 +483,30 @@ def _beside_bond(occupied: list[complex], toward: complex) -> complex:
         turn = abs(cmath.phase(d / toward))
         return min(clearance(d, occupied), _DOTS_ROOM) + 0.5 * min(turn, math.pi / 2) - 0.6 * max(0.0, turn - math.pi / 2)
     return max(_AROUND, key=score)
+
+
+def _in_crook(middles: np.ndarray, sources: list[_Anchor], sinks: list[_Anchor], owner: np.ndarray,
+              ob: _Obstacles) -> np.ndarray:
+    """1.0 where an arc that shifts a pair between two bonds of one atom has its middle inside
+    the angle those bonds make, cramped between them, else 0.0: such an arc reads best round
+    the outside of the bend (common practice)."""
+    out = np.zeros(len(middles))
+    for k, (src, snk) in enumerate(zip(sources, sinks)):
+        shared = set(src.atoms) & set(snk.atoms)
+        if src.kind != "bond" or snk.kind != "bond" or len(shared) != 1:
+            continue
+        pivot, = shared
+        ends = [a for a in src.atoms + snk.atoms if a != pivot]
+        at = {int(a): complex(p) for a, p in zip(ob.atom_ids, ob.atom_xy)}
+        if pivot not in at or any(a not in at for a in ends):
+            continue
+        first, second = (_unit(at[a] - at[pivot]) for a in ends)
+        half = abs(cmath.phase(second / first)) / 2
+        bisector = _unit(first + second)
+        rows = owner == k
+        seen = np.angle((middles[rows] - at[pivot]) / bisector)
+        out[rows] = np.abs(seen) < half
+    return out
 
 
 def _parameter_at_distance(p0: complex, p1: complex, p2: complex, p3: complex, distance: float) -> float:
