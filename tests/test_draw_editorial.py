@@ -76,3 +76,24 @@ def test_michael_pi_shift_is_a_clean_arc():
     assert 100.0 <= turn <= 150.0, turn
     length = sum(math.dist(p, q) for p, q in zip(arrow.path_points(40), arrow.path_points(40)[1:]))
     assert length <= 1.6 * scene.bond_length, length / scene.bond_length
+
+
+def _segment_to_box(p, q, box, samples: int = 40) -> float:
+    return min(box.distance((p[0] + (q[0] - p[0]) * k / samples, p[1] + (q[1] - p[1]) * k / samples))
+               for k in range(samples + 1))
+
+
+@pytest.mark.parametrize("path", GALLERY, ids=[p.stem for p in GALLERY])
+def test_charge_beside_a_skeletal_vertex_is_clear_of_bonds(path):
+    """A charge sign on a skeletal carbon (no label) sits at least 0.24 bond lengths clear of
+    every bond line, so it cannot be read as part of a bond end (IUPAC 2008: a charge sits
+    beside its atom, clear of the bonds). The enolate's carbanion sign was 0.16 bond lengths
+    from its bond's end."""
+    _, scene = _scene(path.stem)
+    bl = scene.bond_length
+    for panel in scene.panels:
+        for mark in panel.marks:
+            if mark.kind != "charge" or panel.atom(mark.atom).box is not None:
+                continue
+            gap = min(_segment_to_box(p, q, mark.box) for bond in panel.bonds for p, q in bond.lines)
+            assert gap >= 0.24 * bl, (panel.index, panel.atom(mark.atom).name, gap / bl)
