@@ -97,3 +97,21 @@ def test_charge_beside_a_skeletal_vertex_is_clear_of_bonds(path):
                 continue
             gap = min(_segment_to_box(p, q, mark.box) for bond in panel.bonds for p, q in bond.lines)
             assert gap >= 0.24 * bl, (panel.index, panel.atom(mark.atom).name, gap / bl)
+
+
+def _bonds_crossed(panel, arrow) -> list[tuple[int, int]]:
+    """Bonds the arrow's path crosses that are not between two atoms its move names."""
+    own = set(arrow.source_atoms) | set(arrow.sink_atoms)
+    points = arrow.path_points(40)
+    return [bond.atoms for bond in panel.bonds if not set(bond.atoms) <= own
+            and any(_cross(p, q, a, b) for a, b in bond.lines for p, q in zip(points, points[1:]))]
+
+
+def test_annulation_conjugate_addition_runs_clear_of_bonds():
+    """Wieland-Miescher annulation, conjugate addition: the arrow from the enolate's C1=C2 to the
+    forming C1-C9 bond runs on the open side of C1 and crosses no bond (it crossed the C1 methyl
+    and the ring bond C1-C7, because the O3 lone pair's dots stood on the open side)."""
+    _, scene = _scene("07-annulation-wieland-miescher")
+    panel = scene.panels[1]
+    arrow, = [a for a in panel.arrows if a.move == "C1=C2 -> C1-C9"]
+    assert _bonds_crossed(panel, arrow) == []

@@ -143,7 +143,10 @@ class ArrowPlanner:
             return [], marks
         sinks = [self._sink(move, state, panel) for move in moves]
         self._separate_shared_sinks(moves, sinks, panel)
-        sources = [self._source(move, panel, sink, marks) for move, sink in zip(moves, sinks)]
+        # Where other arrows of the step leave a bond: dots beside a bond keep off that side.
+        tails = [(panel.positions[m.source_atoms[0]] + panel.positions[m.source_atoms[1]]) / 2
+                 for m in moves if m.source_kind == "bond"]
+        sources = [self._source(move, panel, sink, marks, tails) for move, sink in zip(moves, sinks)]
         everything = [self._candidates(src, snk, panel) + self._hooks(move, src, snk, panel)
                       for move, src, snk in zip(moves, sources, sinks)]
         # Every candidate of every arrow is sampled in one product: numpy's cost here is per call.
@@ -162,7 +165,8 @@ class ArrowPlanner:
         return arrows, marks
 
     # anchors
-    def _source(self, move: ResolvedMove, panel: PanelStructure, sink: _Anchor, marks: list[Mark]) -> _Anchor:
+    def _source(self, move: ResolvedMove, panel: PanelStructure, sink: _Anchor, marks: list[Mark],
+                tails: list[complex] = ()) -> _Anchor:
         if move.source_kind == "bond":
             a, b = move.source_atoms
             mid = (panel.positions[a] + panel.positions[b]) / 2
@@ -175,7 +179,8 @@ class ArrowPlanner:
         # bond, so the arrow over to its middle is long enough to read as a curve.
         toward = _unit(sink.point - centre)
         if atom in sink.atoms and sink.kind in ("bond", "gap"):
-            direction = _beside_bond(panel.occupied[atom], toward)
+            near = [_unit(t - centre) for t in tails if abs(t - centre) < _TAIL_REACH * self.bl]
+            direction = _beside_bond(panel.occupied[atom], toward, near)
         else:
             steps = 8 if panel.atoms[atom].box is not None else 24
             direction = best_direction(panel.occupied[atom], toward, spread=0.35, steps=steps)
@@ -471,17 +476,22 @@ class ArrowPlanner:
             head=tuple(pt(z) for z in outline))
 
 
+_TAIL_REACH = 1.0   # bond lengths: another arrow leaving a bond this close steers the dots away
 _DOTS_ROOM = math.radians(45)     # more room than this between dots and a bond counts as no better
 _AROUND = tuple(cmath.rect(1.0, k * math.pi / 12) for k in range(24))
 
 
-def _beside_bond(occupied: list[complex], toward: complex) -> complex:
+def _beside_bond(occupied: list[complex], toward: complex, tails: list[complex] = ()) -> complex:
     """Where the dots of a pair that moves into a bond of its own atom sit: in the free gap
     nearest a right angle to that bond (as far round as the room allows), not beside it, so
-    the arrow from them to the bond's middle bends visibly (common practice)."""
+    the arrow from them to the bond's middle bends visibly (common practice); and on the side
+    away from `tails`, the directions to where other arrows of the step leave a bond nearby, so
+    the dots do not stand in their way."""
     def score(d: complex) -> float:
         turn = abs(cmath.phase(d / toward))
-        return min(clearance(d, occupied), _DOTS_ROOM) + 0.5 * min(turn, math.pi / 2) - 0.6 * max(0.0, turn - math.pi / 2)
+        facing = max([(d * t.conjugate()).real for t in tails] + [0.0])
+        return (min(clearance(d, occupied), _DOTS_ROOM) + 0.5 * min(turn, math.pi / 2)
+                - 0.6 * max(0.0, turn - math.pi / 2) - facing)
     return max(_AROUND, key=score)
 
 
