@@ -19,6 +19,7 @@ import pytest
 
 import arrows
 from arrows.draw import STYLES, build_scene
+from test_draw_geometry import _proton_transfers, _segments_cross as _cross
 
 ROOT = Path(__file__).resolve().parents[1]
 GALLERY = sorted((ROOT / "gallery").glob("*.mech"))
@@ -35,14 +36,6 @@ def _turning(points) -> float:
     z = [complex(*p) for p in points]
     steps = [b - a for a, b in zip(z, z[1:]) if abs(b - a) > 1e-12]
     return abs(math.degrees(sum(cmath.phase(b / a) for a, b in zip(steps, steps[1:]))))
-
-
-def _area(p, q, r) -> float:
-    return (q[0] - p[0]) * (r[1] - p[1]) - (q[1] - p[1]) * (r[0] - p[0])
-
-
-def _cross(p, q, a, b) -> bool:
-    return _area(p, q, a) * _area(p, q, b) < 0 and _area(a, b, p) * _area(a, b, q) < 0
 
 
 def _crosses_itself(points) -> bool:
@@ -115,3 +108,15 @@ def test_annulation_conjugate_addition_runs_clear_of_bonds():
     panel = scene.panels[1]
     arrow, = [a for a in panel.arrows if a.move == "C1=C2 -> C1-C9"]
     assert _bonds_crossed(panel, arrow) == []
+
+
+def test_annulation_methoxide_waits_near_the_proton_it_takes():
+    """Wieland-Miescher annulation: a methanol that protonates the enone and then, as methoxide,
+    takes the methyl ketone's proton stands still between the two steps, so it is placed within
+    an arrow's reach of both: base O to the hydrogen it takes 1.4-2.5 bond lengths (common
+    practice). Both such methoxide arrows were 2.75 and 2.80 bond lengths long."""
+    _, scene = _scene("07-annulation-wieland-miescher")
+    methoxide = [t for t in _proton_transfers(scene) if t[1] in (":O31 -> H(C13)", ":O32 -> H(C13)")]
+    assert len(methoxide) == 2
+    for panel, move, distance in methoxide:
+        assert 1.4 <= distance <= 2.5, (panel, move, distance)
