@@ -12,7 +12,8 @@ A handful of such curves is tried per arrow (leaving from either side of a bond,
 atom from any free direction) and one is chosen for every arrow of a step together, by a
 penalty: passing through a label or an atom is nearly forbidden, crossing a bond or another
 arrow is costly, an arc bulging into the molecule costs more than one bulging out, an S-shaped
-arc is avoided, and two heads of one step never share a position.
+arc is avoided, so is an arc that loops back on itself or squeezes into the angle between the two
+bonds it joins, and two heads of one step never share a position.
 """
 from __future__ import annotations
 
@@ -35,6 +36,11 @@ _ANGLES = (math.radians(34), math.radians(58))
 _SHORT_ANGLES = (math.radians(40), math.radians(70), math.radians(105))
 _KEEP = 4          # candidates per arrow that enter the joint choice
 _GAP_REACH = 0.45  # bond lengths: farthest a head into a forming bond stops from the atom it reaches
+_MAX_TURN = math.radians(180)   # an arc turning further than this curls back on itself
+_CURL_WEIGHT = 0.5              # penalty per degree beyond _MAX_TURN
+_LOOP_STANDOFF = 0.45           # bond lengths: a turned-back arc standing further off its chord is a loop
+_SELF_CROSSING = math.radians(240)   # an arc turning this far crosses itself
+_CROOK = 1.0                    # penalty of an arc cramped inside the angle of the two bonds it joins
 _T = np.linspace(0.0, 1.0, _SAMPLES + 1)
 _BERNSTEIN = np.stack([(1 - _T) ** 3, 3 * _T * (1 - _T) ** 2, 3 * _T ** 2 * (1 - _T), _T ** 3])
 
@@ -96,6 +102,7 @@ class _Obstacles:
         self.largest_id = max(panel.atoms, default=0)   # sizes the per-atom rows, bonds leaving the box included
         atoms = [i for i in sorted(panel.atoms)
                  if x0 <= positions[i].real <= x1 and y0 <= positions[i].imag <= y1]
+        self.atom_ids = atoms
         self.atom_xy = [positions[i] for i in atoms]
         pad = 0.05 * bl
         self.labelled_ids, self.label_boxes, self.bare_ids, self.bare_xy = [], [], [], []
@@ -205,13 +212,17 @@ class ArrowPlanner:
         marks: list[Mark] = []
         sinks = [self._sink(move, state, panel) for move in moves]
         self._separate_shared_sinks(moves, sinks, panel)
-        sources = [self._source(move, panel, sink, marks) for move, sink in zip(moves, sinks)]
+        # Where other arrows of the step leave a bond: dots beside a bond keep off that side.
+        tails = [(panel.positions[m.source_atoms[0]] + panel.positions[m.source_atoms[1]]) / 2
+                 for m in moves if m.source_kind == "bond"]
+        sources = [self._source(move, panel, sink, marks, tails) for move, sink in zip(moves, sinks)]
         tries = [self._candidates(src, snk, panel) + self._hooks(move, src, snk, panel)
                  for move, src, snk in zip(moves, sources, sinks)]
         return _PanelArrows(step, moves, panel, marks, sources, sinks, tries)
 
     # anchors
-    def _source(self, move: ResolvedMove, panel: PanelStructure, sink: _Anchor, marks: list[Mark]) -> _Anchor:
+    def _source(self, move: ResolvedMove, panel: PanelStructure, sink: _Anchor, marks: list[Mark],
+                tails: list[complex] = ()) -> _Anchor:
         if move.source_kind == "bond":
             a, b = move.source_atoms
             mid = (panel.positions[a] + panel.positions[b]) / 2
@@ -224,7 +235,8 @@ class ArrowPlanner:
         # bond, so the arrow over to its middle is long enough to read as a curve.
         toward = _unit(sink.point - centre)
         if atom in sink.atoms and sink.kind in ("bond", "gap"):
-            direction = _beside_bond(panel.occupied[atom], toward)
+            near = [_unit(t - centre) for t in tails if abs(t - centre) < _TAIL_REACH * self.bl]
+            direction = _beside_bond(panel.occupied[atom], toward, near)
         else:
             steps = 8 if panel.atoms[atom].box is not None else 24
             direction = best_direction(panel.occupied[atom], toward, spread=0.35, steps=steps)
@@ -415,8 +427,26 @@ class ArrowPlanner:
         cost += np.where((outward != 0) & ((leave * np.conj(outward)).real < -0.2), 20.0, 0.0)
         lengths = np.abs(np.diff(pts, axis=1)).sum(axis=1)
         cost += lengths / bl
+        # A pair leaving a bond: one clean arc, never a loop.
+        from_bond = np.array([src.kind == "bond" for src in sources])
+        cost += np.where(from_bond[owner], self._curl(pts), 0.0)
+        sinks = [s for w in work for s in w.sinks]
+        cost += _CROOK * _in_crook(pts[:, _SAMPLES // 2], sources, sinks, owner, [obs[k] for k in panel_of])
         for c, value, length in zip(candidates, cost.tolist(), lengths.tolist()):
             c.cost, c.length = value, length
+
+    def _curl(self, pts: np.ndarray) -> np.ndarray:
+        """An arc that turns back on itself (through more than _MAX_TURN) and either stands far
+        off its chord or crosses itself reads as a loop rather than as one clean arc."""
+        steps = np.diff(pts, axis=1)
+        steps = np.where(np.abs(steps) > 1e-12, steps, 1.0)
+        turn = np.abs(np.angle(steps[:, 1:] / steps[:, :-1]).sum(axis=1))
+        chord = pts[:, -1:] - pts[:, :1]
+        chord = chord / np.maximum(np.abs(chord), 1e-9)
+        standoff = np.abs(((pts - pts[:, :1]) * np.conj(chord)).imag).max(axis=1)
+        loop = (turn > _MAX_TURN) & ((standoff > _LOOP_STANDOFF * self.bl) | (turn > _SELF_CROSSING))
+        return np.where(loop, _CURL_WEIGHT * np.degrees(turn - _MAX_TURN), 0.0)
+
 
     def _pair_costs(self, panels: list[list[list[_Candidate]]], samples: np.ndarray
                     ) -> list[dict[tuple[int, int], np.ndarray]]:
@@ -529,17 +559,22 @@ class ArrowPlanner:
             head=tuple(pt(z) for z in outline))
 
 
+_TAIL_REACH = 1.0   # bond lengths: another arrow leaving a bond this close steers the dots away
 _DOTS_ROOM = math.radians(45)     # more room than this between dots and a bond counts as no better
 _AROUND = tuple(cmath.rect(1.0, k * math.pi / 12) for k in range(24))
 
 
-def _beside_bond(occupied: list[complex], toward: complex) -> complex:
+def _beside_bond(occupied: list[complex], toward: complex, tails: list[complex] = ()) -> complex:
     """Where the dots of a pair that moves into a bond of its own atom sit: in the free gap
     nearest a right angle to that bond (as far round as the room allows), not beside it, so
-    the arrow from them to the bond's middle bends visibly (common practice)."""
+    the arrow from them to the bond's middle bends visibly (common practice); and on the side
+    away from `tails`, the directions to where other arrows of the step leave a bond nearby, so
+    the dots do not stand in their way."""
     def score(d: complex) -> float:
         turn = abs(cmath.phase(d / toward))
-        return min(clearance(d, occupied), _DOTS_ROOM) + 0.5 * min(turn, math.pi / 2) - 0.6 * max(0.0, turn - math.pi / 2)
+        facing = max([(d * t.conjugate()).real for t in tails] + [0.0])
+        return (min(clearance(d, occupied), _DOTS_ROOM) + 0.5 * min(turn, math.pi / 2)
+                - 0.6 * max(0.0, turn - math.pi / 2) - facing)
     return max(_AROUND, key=score)
 
 
@@ -550,6 +585,31 @@ def _curve_features(groups: list[list[_Candidate]], samples: np.ndarray) -> tupl
     return (_padded([[c.tip for c in g] for g in groups], 0j, complex),
             _padded([[c.p0 for c in g] for g in groups], 0j, complex),
             points[..., ::2][..., 1:-1], points[..., ::4])
+
+
+def _in_crook(middles: np.ndarray, sources: list[_Anchor], sinks: list[_Anchor], owner: np.ndarray,
+              obstacles: list[_Obstacles]) -> np.ndarray:
+    """1.0 where an arc that shifts a pair between two bonds of one atom has its middle inside
+    the angle those bonds make, cramped between them, else 0.0: such an arc reads best round
+    the outside of the bend (common practice)."""
+    out = np.zeros(len(middles))
+    for k, (src, snk) in enumerate(zip(sources, sinks)):
+        shared = set(src.atoms) & set(snk.atoms)
+        if src.kind != "bond" or snk.kind != "bond" or len(shared) != 1:
+            continue
+        pivot, = shared
+        ends = [a for a in src.atoms + snk.atoms if a != pivot]
+        ob = obstacles[k]   # the obstacles of the arrow's own panel
+        at = dict(zip(ob.atom_ids, ob.atom_xy))
+        if pivot not in at or any(a not in at for a in ends):
+            continue
+        first, second = (_unit(at[a] - at[pivot]) for a in ends)
+        half = abs(cmath.phase(second / first)) / 2
+        bisector = _unit(first + second)
+        rows = owner == k
+        seen = np.angle((middles[rows] - at[pivot]) / bisector)
+        out[rows] = np.abs(seen) < half
+    return out
 
 
 def _parameter_at_distance(p0: complex, p1: complex, p2: complex, p3: complex, distance: float) -> float:

@@ -34,6 +34,9 @@ from ..electrons import ElectronState, ResolvedMove
 # Gap between a transferred hydrogen and the atom that takes it, in bond lengths: room for a
 # curved arrow, close enough to read as one event.
 TRANSFER_GAP = 1.5
+# Heavy atom to heavy atom across a proton hop, in bond lengths: near enough for a short arrow,
+# far enough for the hydrogen between them.
+PARTNER_REACH = (2.0, 2.6)
 OPEN_BOND = 1.5      # a bond about to form between two species, as chemists draw it
 LEFTOVER_GAP = 0.8   # between the labels of species that meet no other, set in a row on the right
 # Partners of a cycloaddition: wider, so each of the arrows around the forming ring has room
@@ -52,6 +55,11 @@ _SEVENTY = math.radians(70)
 _BOND_OPTIONS = sorted((abs(t) + abs(s) * 0.7, t, s, 0.0) for t in (0, 1, -1, 2, -2, 3, -3) for s in (0, 1, -1, 2, -2, 6))
 _HOP_OPTIONS = sorted((abs(t) + abs(s) * 0.7 + e, t, s, e) for t in (0, 1, -1, 2, -2, 3, -3)
                       for s in (0, 1, -1, 2, -2, 6) for e in (0.0, 0.5, 1.0))
+
+# A partner that hops twice while it stands still looks further round its anchor for a spot near both.
+# (Turns in steps of 10 degrees here, distances in quarter bond lengths.)
+_PARTNER_OPTIONS = sorted((abs(t) + abs(s) * 0.7 + e, t, s, e) for t in np.arange(-5.0, 5.5, 0.5)
+                          for s in (0, 1, -1, 2, -2, 6) for e in (0.0, 0.25, 0.5, 0.75, 1.0))
 
 
 @dataclass(frozen=True)
@@ -953,8 +961,11 @@ class _LayoutBuilder:
         hydrogen_on_mover = hydrogen is not None and kind == "hop" and self._holder(k, hydrogen) == mover
         placements = _Placements(options, u, v, anchor_at, distance, local, near, hydrogen_on_mover)
         best = None
+        partners = self._other_hops(index, segment, k, hydrogen) if kind == "hop" else []
+        if partners:
+            best = self._nearest_to_partners(cluster, mover, placements, polygons, partners)
         # In order of preference; the first that keeps its distance from everything wins.
-        for option in range(len(options)):
+        for option in range(len(options) if best is None else 0):
             gap, moved, direction, rotation, target = placements.at(option)
             if best is not None and min(gap, _CLEARANCE) <= best[0]:
                 continue
@@ -975,6 +986,49 @@ class _LayoutBuilder:
         self._apply(index)
         if hydrogen is not None:
             self._promise(hydrogen, anchor, k, direction)
+
+    def _other_hops(self, index: int, segment: tuple[int, int], k: int, hydrogen: Optional[int]
+                    ) -> list[tuple[int, complex]]:
+        """The other proton hops a cluster is about to make while it stands still over `segment`:
+        (its atom, where the partner atom is)."""
+        atoms = set(self.clusters[index].atoms)
+        out = []
+        for panel, kind, a, b, h in self.events:
+            if kind != "hop" or (panel == k and h == hydrogen) or (a in atoms) == (b in atoms):
+                continue
+            mine, other = (a, b) if a in atoms else (b, a)
+            if segment[0] <= panel <= segment[1] and other in self.positions[panel]:
+                out.append((mine, self.positions[panel][other]))
+        return out
+
+    def _nearest_to_partners(self, cluster: _Cluster, mover: int, placements: _Placements,
+                             polygons: list[list[complex]], partners: list[tuple[int, complex]]
+                             ) -> Optional[tuple]:
+        """Among the placements clear of everything (tried further round the anchor than a single
+        hop needs), the one that also keeps the cluster's other hop partners within reach of an
+        arrow (PARTNER_REACH), in order of preference otherwise; None when no placement is clear."""
+        keys = list(cluster.local)
+        best, best_score = None, math.inf
+        wider = _Placements(_PARTNER_OPTIONS, placements.u, placements.v, placements.anchor_at, placements.distance,
+                            placements.local, placements.near, placements.carries_hydrogen)
+        for option in range(len(_PARTNER_OPTIONS)):
+            gap, moved, direction, rotation, target = wider.at(option)
+            if gap < _CLEARANCE or any(_inside(complex(p), poly) for p in moved for poly in polygons):
+                continue
+            # The hop that places it counts as much as the others; squared, so two hops share
+            # the stretch rather than one taking all of it.
+            miss = max(0.0, placements.distance + _PARTNER_OPTIONS[option][3] - PARTNER_REACH[1]) ** 2
+            for atom, where in partners:
+                reach = abs(complex(moved[keys.index(atom)]) - where)
+                if reach < PARTNER_REACH[0]:
+                    break     # no room for the hydrogen between them
+                miss += max(0.0, reach - PARTNER_REACH[1]) ** 2
+            else:
+                score = _PARTNER_OPTIONS[option][0] + 30.0 * miss
+                if score < best_score:
+                    best = (_CLEARANCE, rotation, target - cluster.local[mover] * rotation, direction)
+                    best_score = score
+        return best
 
     def _residence_at(self, h: int, holder: int, k: int) -> Optional[_Residence]:
         for r in self.residences.get(h, []):

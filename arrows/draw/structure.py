@@ -110,6 +110,12 @@ def _closes_cycle(i: int, j: int, adjacent: list[list[int]]) -> bool:
     return False
 
 
+def _box_to_segment(box: Box, p: complex, q: complex, samples: int = 16) -> float:
+    """Nearest approach of the segment p-q to the box (sampled; zero where it enters it)."""
+    return min(box.distance(((p + (q - p) * k / samples).real, (p + (q - p) * k / samples).imag))
+               for k in range(samples + 1))
+
+
 def _unit_or_zero(z: complex) -> complex:
     return z / abs(z) if abs(z) > 1e-12 else 0j
 
@@ -134,6 +140,7 @@ def _compass(steps: int) -> tuple[complex, ...]:
     return tuple(cmath.rect(1.0, k * 2 * math.pi / steps) for k in range(steps))
 
 
+_SIDE_TEXT_CLEARANCE = 0.25   # bond lengths between text beside a skeletal vertex and its bond lines
 _ENOUGH_ROOM = math.radians(75)   # more room than this around a direction counts as no better
 
 
@@ -427,6 +434,15 @@ class StructureDrawer:
         reach = out.label_reach(i, direction) or 0.18 * self.style.bond_length
         spot = centre + direction * (reach + half + 0.08 * self.style.font_size)
         run = TextRun(text, spot.real - width / 2, spot.imag + cap / 2, size, italic=italic)
+        if out.atoms[i].box is None:
+            # Beside a skeletal vertex the text slides out until it is clear of the vertex's bond
+            # lines, so a sign never reads as part of a bond end.
+            bl = self.style.bond_length
+            lines = [(centre, centre + d * bl) for d in out.bond_directions.get(i, ())]
+            for _ in range(12):
+                if not lines or min(_box_to_segment(self.text_box(run), p, q) for p, q in lines) >= _SIDE_TEXT_CLEARANCE * bl:
+                    break
+                run = TextRun(text, run.x + direction.real * 0.03 * bl, run.y + direction.imag * 0.03 * bl, size, italic=italic)
         return Mark(kind, i, (run,), box=self.text_box(run))
 
     def radical_dot(self, i: int, out: PanelStructure, preferred: complex) -> Mark:
