@@ -353,7 +353,8 @@ class ArrowPlanner:
         cost += np.abs(np.diff(pts, axis=1)).sum(axis=1) / bl
         # A pair leaving a bond: one clean arc, never a loop.
         from_bond = np.array([src.kind == "bond" for src in sources])
-        cost += np.where(from_bond[owner], self._curl(pts), 0.0)
+        if from_bond.any():
+            cost += np.where(from_bond[owner], self._curl(pts), 0.0)
         cost += _CROOK * _in_crook(pts[:, _SAMPLES // 2], sources, sinks, owner, ob)
         for c, value in zip(candidates, cost.tolist()):
             c.cost = value
@@ -501,13 +502,16 @@ def _in_crook(middles: np.ndarray, sources: list[_Anchor], sinks: list[_Anchor],
     the angle those bonds make, cramped between them, else 0.0: such an arc reads best round
     the outside of the bend (common practice)."""
     out = np.zeros(len(middles))
+    at: dict[int, complex] = {}
     for k, (src, snk) in enumerate(zip(sources, sinks)):
+        if src.kind != "bond" or snk.kind != "bond":
+            continue
         shared = set(src.atoms) & set(snk.atoms)
-        if src.kind != "bond" or snk.kind != "bond" or len(shared) != 1:
+        if len(shared) != 1:
             continue
         pivot, = shared
         ends = [a for a in src.atoms + snk.atoms if a != pivot]
-        at = {int(a): complex(p) for a, p in zip(ob.atom_ids, ob.atom_xy)}
+        at = at or dict(zip(ob.atom_ids.tolist(), ob.atom_xy.tolist()))
         if pivot not in at or any(a not in at for a in ends):
             continue
         first, second = (_unit(at[a] - at[pivot]) for a in ends)

@@ -168,21 +168,21 @@ def _unit(z: complex) -> complex:
     return z / abs(z) if abs(z) > 1e-12 else 1 + 0j
 
 
-def _crosses(p: complex, q: complex, a: complex, b: complex) -> bool:
-    """Whether segments p-q and a-b cross."""
-    def side(u: complex, v: complex, w: complex) -> float:
-        return ((v - u) * (w - u).conjugate()).imag
-    return side(p, q, a) * side(p, q, b) < 0 and side(a, b, p) * side(a, b, q) < 0
-
-
-def _blocked(placements: "_Placements", target: complex, direction: complex, walls: list[tuple[complex, complex]]) -> bool:
+def _blocked(placements: "_Placements", target: complex, direction: complex, walls: np.ndarray) -> bool:
     """Whether the proton-transfer arrow of a placement, from the base's atom to the hydrogen
-    it takes, would cross one of `walls`."""
+    it takes, would cross one of `walls` (rows of two ends): each segment has the other's ends
+    on opposite sides."""
+    if not len(walls):
+        return False
     if placements.carries_hydrogen:
-        base, hydrogen = placements.anchor_at, target - direction
+        p, q = placements.anchor_at, target - direction
     else:
-        base, hydrogen = target, placements.anchor_at + direction
-    return any(_crosses(base, hydrogen, a, b) for a, b in walls)
+        p, q = target, placements.anchor_at + direction
+    a, b = walls[:, 0], walls[:, 1]
+    along = np.conj(q - p)
+    across = np.conj(b - a)
+    return bool(np.any((((a - p) * along).imag * ((b - p) * along).imag < 0)
+                       & (((p - a) * across).imag * ((q - a) * across).imag < 0)))
 
 
 def _inside(point: complex, polygon: list[complex]) -> bool:
@@ -209,7 +209,7 @@ class _Placements:
     in batches as the search reaches them: the first few settle most placements, and numpy's
     cost is per call."""
 
-    _BATCH = 8
+    batch = 8
 
     def __init__(self, options: list[tuple], u: complex, v: complex, anchor_at: complex, distance: float,
                  local: np.ndarray, near: np.ndarray, carries_hydrogen: bool):
@@ -220,7 +220,7 @@ class _Placements:
     def at(self, index: int) -> tuple[float, np.ndarray, complex, complex, complex]:
         while index >= len(self.done):
             directions, rotations, targets = [], [], []
-            for _, turn, spin, extra in self.options[len(self.done):len(self.done) + self._BATCH]:
+            for _, turn, spin, extra in self.options[len(self.done):len(self.done) + self.batch]:
                 direction = self.u * _rotor(turn, 9)
                 directions.append(direction)
                 rotations.append(_unit(-direction / self.v) * _rotor(spin, 6))
@@ -800,7 +800,7 @@ class _LayoutBuilder:
         placements = _Placements(options, u, v, anchor_at, distance, local, near, hydrogen_on_mover)
         best = None
         # For a hop, a spot from which the arrow to the anchor's side crosses no bond is preferred.
-        walls = self._walls(segment, anchor, set(cluster.atoms)) if kind == "hop" else []
+        walls = self._walls(segment, anchor, set(cluster.atoms)) if kind == "hop" else np.zeros((0, 2), dtype=complex)
         round_about = None
         partners = self._other_hops(index, segment, k, hydrogen) if kind == "hop" else []
         if partners:
@@ -816,7 +816,7 @@ class _LayoutBuilder:
             best = ((min(gap, _CLEARANCE), not blocked), rotation, target - cluster.local[mover] * rotation, direction)
             if gap >= _CLEARANCE and not blocked:
                 break
-        if walls and (best is None or best[0] != (_CLEARANCE, True)):
+        if len(walls) and (best is None or best[0] != (_CLEARANCE, True)):
             round_about = self._clear_way_round(cluster, mover, anchor, hydrogen, segment, placements, polygons, walls)
             best = round_about or best
         if best is None:
@@ -835,12 +835,13 @@ class _LayoutBuilder:
     def _clear_way_round(self, cluster: _Cluster, mover: int, anchor: int, hydrogen: Optional[int],
                          segment: tuple[int, int],
                          placements: _Placements, polygons: list[list[complex]],
-                         walls: list[tuple[complex, complex]]) -> Optional[tuple]:
+                         walls: np.ndarray) -> Optional[tuple]:
         """A partner of a proton hop that finds no clear spot near its preferred side from which
         the arrow would not cross a bond looks all the way round its anchor (the arrow runs clear
         of bonds when a clear side exists); None if there is none either."""
         round_about = _Placements(_ROUND_OPTIONS, placements.u, placements.v, placements.anchor_at, placements.distance,
                                   placements.local, placements.near, placements.carries_hydrogen)
+        round_about.batch = 64
         # Travelling hydrogens are placed last: the spots promised to them are kept clear here.
         promised = np.array(self._promised_spots(hydrogen, set(cluster.atoms), range(segment[0], segment[1] + 1)),
                             dtype=complex)
@@ -860,7 +861,7 @@ class _LayoutBuilder:
                 for r in runs if r.hydrogen != hydrogen and r.direction is not None and r.first <= p <= r.last
                 and r.holder in self.positions[p] and r.holder not in skip]
 
-    def _walls(self, segment: tuple[int, int], anchor: int, mine: set[int]) -> list[tuple[complex, complex]]:
+    def _walls(self, segment: tuple[int, int], anchor: int, mine: set[int]) -> np.ndarray:
         """The bonds, in the panels of `segment`, that a proton-transfer arrow between `anchor` and
         the cluster being placed should not cross (neither's own bonds)."""
         out = []
@@ -868,7 +869,7 @@ class _LayoutBuilder:
             here = self.positions[k]
             out += [(here[i], here[j]) for i, j in self.bonds_in[k]
                     if i in here and j in here and anchor not in (i, j) and i not in mine and j not in mine]
-        return out
+        return np.array(out, dtype=complex).reshape(-1, 2)
 
     def _other_hops(self, index: int, segment: tuple[int, int], k: int, hydrogen: Optional[int]
                     ) -> list[tuple[int, complex]]:
@@ -886,7 +887,7 @@ class _LayoutBuilder:
 
     def _nearest_to_partners(self, cluster: _Cluster, mover: int, placements: _Placements,
                              polygons: list[list[complex]], partners: list[tuple[int, complex]],
-                             walls: list[tuple[complex, complex]]) -> Optional[tuple]:
+                             walls: np.ndarray) -> Optional[tuple]:
         """Among the placements clear of everything (tried further round the anchor than a single
         hop needs) and from which the arrow crosses none of `walls`, the one that also keeps the
         cluster's other hop partners within reach of an arrow (PARTNER_REACH), in order of
@@ -895,11 +896,9 @@ class _LayoutBuilder:
         best, best_score = None, math.inf
         wider = _Placements(_PARTNER_OPTIONS, placements.u, placements.v, placements.anchor_at, placements.distance,
                             placements.local, placements.near, placements.carries_hydrogen)
+        wider.batch = len(_PARTNER_OPTIONS)     # every one is looked at: one batch
         for option in range(len(_PARTNER_OPTIONS)):
             gap, moved, direction, rotation, target = wider.at(option)
-            if (gap < _CLEARANCE or any(_inside(complex(p), poly) for p in moved for poly in polygons)
-                    or _blocked(placements, target, direction, walls)):
-                continue
             # The hop that places it counts as much as the others; squared, so two hops share
             # the stretch rather than one taking all of it.
             miss = max(0.0, placements.distance + _PARTNER_OPTIONS[option][3] - PARTNER_REACH[1]) ** 2
@@ -910,7 +909,9 @@ class _LayoutBuilder:
                 miss += max(0.0, reach - PARTNER_REACH[1]) ** 2
             else:
                 score = _PARTNER_OPTIONS[option][0] + 30.0 * miss
-                if score < best_score:
+                # The cheap score first: the clearance tests cost more.
+                if (score < best_score and gap >= _CLEARANCE and not _blocked(placements, target, direction, walls)
+                        and not any(_inside(complex(p), poly) for p in moved for poly in polygons)):
                     best = ((_CLEARANCE, True), rotation, target - cluster.local[mover] * rotation, direction)
                     best_score = score
         return best
