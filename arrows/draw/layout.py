@@ -11,7 +11,8 @@ exist together: bonds to fragments that leave (`releases`), and hydrogens travel
 separate species (proton transfers). Each such species is a cluster of its own, placed per run
 of panels in which it cannot move: next to the atom it is bonded to, or in line with the
 hydrogen it is about to exchange (donor, hydrogen and acceptor in a row, with room for an
-arrow), or where it was last. A travelling hydrogen sits on whichever atom holds it, pointing at
+arrow; within an arrow's reach of every partner it exchanges a hydrogen with during the run; and
+where that arrow crosses no bond, if any such spot is clear), or where it was last. A travelling hydrogen sits on whichever atom holds it, pointing at
 the partner it came from or goes to.
 
 Units: one bond length; y grows downwards (the SVG convention).
