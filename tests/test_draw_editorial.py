@@ -120,3 +120,36 @@ def test_annulation_methoxide_waits_near_the_proton_it_takes():
     assert len(methoxide) == 2
     for panel, move, distance in methoxide:
         assert 1.4 <= distance <= 2.5, (panel, move, distance)
+
+
+def test_acetal_shuttle_stands_beside_the_oxygen_it_acts_on():
+    """Acetal formation: the hydronium (or water) about to move a proton stands within 2.6 bond
+    lengths, atom to atom, of the oxygen whose proton it gives or takes, the hydrogen between
+    them (common practice: the partner is drawn next to the atom it protonates). It stood 3.5
+    and 3.0 bond lengths from O2 before protonating it, because the nearer spots were taken."""
+    _, scene = _scene("10-acetal-formation")
+    bl = scene.bond_length
+    checked = 0
+    for panel in scene.panels:
+        where = {a.index: a.position for a in panel.atoms}
+        hydrogens = {a.index for a in panel.atoms if a.element == "H"}
+        for arrow in panel.arrows:
+            base = arrow.source_atoms[0]
+            taken = [i for i in arrow.sink_atoms if i in hydrogens and i != base]
+            if arrow.source_kind != "lone_pair" or len(taken) != 1:
+                continue
+            hydrogen = taken[0]
+            holder, = [b.atoms[0] if b.atoms[1] == hydrogen else b.atoms[1] for b in panel.bonds if hydrogen in b.atoms]
+            assert math.dist(where[base], where[holder]) <= 2.6 * bl, (panel.index, arrow.move)
+            checked += 1
+    assert checked == 4
+
+
+def test_acetal_first_protonation_crosses_no_bond():
+    """Acetal formation, first panel: the arrow from the carbonyl oxygen to the hydronium's
+    proton crosses no bond (it crossed the diol's C4-C5 bond: the hydronium waited behind the
+    diol; it now waits on the open side of O2)."""
+    _, scene = _scene("10-acetal-formation")
+    panel = scene.panels[0]
+    arrow, = [a for a in panel.arrows if a.move == ":O2 -> H(O30)"]
+    assert _bonds_crossed(panel, arrow) == []

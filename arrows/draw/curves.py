@@ -429,7 +429,8 @@ class ArrowPlanner:
         cost += lengths / bl
         # A pair leaving a bond: one clean arc, never a loop.
         from_bond = np.array([src.kind == "bond" for src in sources])
-        cost += np.where(from_bond[owner], self._curl(pts), 0.0)
+        if from_bond.any():
+            cost += np.where(from_bond[owner], self._curl(pts), 0.0)
         sinks = [s for w in work for s in w.sinks]
         cost += _CROOK * _in_crook(pts[:, _SAMPLES // 2], sources, sinks, owner, [obs[k] for k in panel_of])
         for c, value, length in zip(candidates, cost.tolist(), lengths.tolist()):
@@ -594,8 +595,10 @@ def _in_crook(middles: np.ndarray, sources: list[_Anchor], sinks: list[_Anchor],
     the outside of the bend (common practice)."""
     out = np.zeros(len(middles))
     for k, (src, snk) in enumerate(zip(sources, sinks)):
+        if src.kind != "bond" or snk.kind != "bond":
+            continue
         shared = set(src.atoms) & set(snk.atoms)
-        if src.kind != "bond" or snk.kind != "bond" or len(shared) != 1:
+        if len(shared) != 1:
             continue
         pivot, = shared
         ends = [a for a in src.atoms + snk.atoms if a != pivot]

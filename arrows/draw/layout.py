@@ -11,7 +11,8 @@ exist together: bonds to fragments that leave (`releases`), and hydrogens travel
 separate species (proton transfers). Each such species is a cluster of its own, placed per run
 of panels in which it cannot move: next to the atom it is bonded to, or in line with the
 hydrogen it is about to exchange (donor, hydrogen and acceptor in a row, with room for an
-arrow), or where it was last. A travelling hydrogen sits on whichever atom holds it, pointing at
+arrow; within an arrow's reach of every partner it exchanges a hydrogen with during the run; and
+where that arrow crosses no bond, if any such spot is clear), or where it was last. A travelling hydrogen sits on whichever atom holds it, pointing at
 the partner it came from or goes to.
 
 Units: one bond length; y grows downwards (the SVG convention).
@@ -51,15 +52,19 @@ _WAITING_CLEARANCE = 1.5   # a molecule waiting its turn keeps further clear of 
 _COMPASS = np.exp(1j * np.arange(36) * np.pi / 18)     # directions tried, every 10 degrees
 _SEVENTY = math.radians(70)
 # Ways to place a cluster next to its partner, in order of preference: (penalty, turn of the
-# approach line in 20-degree steps, spin of the cluster in 30-degree steps, extra distance).
+# approach line in 20-degree steps, spin of the cluster in 30-degree steps, extra distance). A
+# proton partner keeps close: half a bond length further out costs as much as an 80-degree turn.
 _BOND_OPTIONS = sorted((abs(t) + abs(s) * 0.7, t, s, 0.0) for t in (0, 1, -1, 2, -2, 3, -3) for s in (0, 1, -1, 2, -2, 6))
-_HOP_OPTIONS = sorted((abs(t) + abs(s) * 0.7 + e, t, s, e) for t in (0, 1, -1, 2, -2, 3, -3)
+_HOP_OPTIONS = sorted((abs(t) + abs(s) * 0.7 + 8 * e, t, s, e) for t in (0, 1, -1, 2, -2, 3, -3)
                       for s in (0, 1, -1, 2, -2, 6) for e in (0.0, 0.5, 1.0))
 
 # A partner that hops twice while it stands still looks further round its anchor for a spot near both.
 # (Turns in steps of 10 degrees here, distances in quarter bond lengths.)
 _PARTNER_OPTIONS = sorted((abs(t) + abs(s) * 0.7 + e, t, s, e) for t in np.arange(-5.0, 5.5, 0.5)
                           for s in (0, 1, -1, 2, -2, 6) for e in (0.0, 0.25, 0.5, 0.75, 1.0))
+# A partner whose arrow would cross a bond from every spot on its preferred side looks all round.
+_ROUND_OPTIONS = sorted((abs(t) + abs(s) * 0.7 + 8 * e, t, s, e) for t in np.arange(-9.0, 9.5, 0.5)
+                        for s in (0, 1, -1, 2, -2, 6) for e in (0.0, 0.5, 1.0))
 
 
 @dataclass(frozen=True)
@@ -186,6 +191,23 @@ def _unit(z: complex) -> complex:
     return z / abs(z) if abs(z) > 1e-12 else 1 + 0j
 
 
+def _blocked(placements: "_Placements", target: complex, direction: complex, walls: np.ndarray) -> bool:
+    """Whether the proton-transfer arrow of a placement, from the base's atom to the hydrogen
+    it takes, would cross one of `walls` (rows of two ends): each segment has the other's ends
+    on opposite sides."""
+    if not len(walls):
+        return False
+    if placements.carries_hydrogen:
+        p, q = placements.anchor_at, target - direction
+    else:
+        p, q = target, placements.anchor_at + direction
+    a, b = walls[:, 0], walls[:, 1]
+    along = np.conj(q - p)
+    across = np.conj(b - a)
+    return bool(np.any((((a - p) * along).imag * ((b - p) * along).imag < 0)
+                       & (((p - a) * across).imag * ((q - a) * across).imag < 0)))
+
+
 def _inside(point: complex, polygon: list[complex]) -> bool:
     """Even-odd rule."""
     inside = False
@@ -210,7 +232,7 @@ class _Placements:
     in batches as the search reaches them: the first few settle most placements, and numpy's
     cost is per call."""
 
-    _BATCH = 8
+    batch = 8
 
     def __init__(self, options: list[tuple], u: complex, v: complex, anchor_at: complex, distance: float,
                  local: np.ndarray, near: np.ndarray, carries_hydrogen: bool):
@@ -221,7 +243,7 @@ class _Placements:
     def at(self, index: int) -> tuple[float, np.ndarray, complex, complex, complex]:
         while index >= len(self.done):
             directions, rotations, targets = [], [], []
-            for _, turn, spin, extra in self.options[len(self.done):len(self.done) + self._BATCH]:
+            for _, turn, spin, extra in self.options[len(self.done):len(self.done) + self.batch]:
                 direction = self.u * _rotor(turn, 9)
                 directions.append(direction)
                 rotations.append(_unit(-direction / self.v) * _rotor(spin, 6))
@@ -961,19 +983,26 @@ class _LayoutBuilder:
         hydrogen_on_mover = hydrogen is not None and kind == "hop" and self._holder(k, hydrogen) == mover
         placements = _Placements(options, u, v, anchor_at, distance, local, near, hydrogen_on_mover)
         best = None
+        # For a hop, a spot from which the arrow to the anchor's side crosses no bond is preferred.
+        walls = self._walls(segment, anchor, set(cluster.atoms)) if kind == "hop" else np.zeros((0, 2), dtype=complex)
+        round_about = None
         partners = self._other_hops(index, segment, k, hydrogen) if kind == "hop" else []
         if partners:
-            best = self._nearest_to_partners(cluster, mover, placements, polygons, partners)
+            best = self._nearest_to_partners(cluster, mover, placements, polygons, partners, walls)
         # In order of preference; the first that keeps its distance from everything wins.
         for option in range(len(options) if best is None else 0):
             gap, moved, direction, rotation, target = placements.at(option)
-            if best is not None and min(gap, _CLEARANCE) <= best[0]:
+            blocked = _blocked(placements, target, direction, walls)
+            if best is not None and (min(gap, _CLEARANCE), not blocked) <= best[0]:
                 continue
             if any(_inside(complex(p), poly) for p in moved for poly in polygons):
                 continue      # never inside someone else's ring
-            best = (min(gap, _CLEARANCE), rotation, target - cluster.local[mover] * rotation, direction)
-            if gap >= _CLEARANCE:
+            best = ((min(gap, _CLEARANCE), not blocked), rotation, target - cluster.local[mover] * rotation, direction)
+            if gap >= _CLEARANCE and not blocked:
                 break
+        if len(walls) and (best is None or best[0] != (_CLEARANCE, True)):
+            round_about = self._clear_way_round(cluster, mover, anchor, hydrogen, segment, placements, polygons, walls)
+            best = round_about or best
         if best is None:
             direction = u
             rotation = _unit(-direction / v)
@@ -985,7 +1014,46 @@ class _LayoutBuilder:
         cluster.placement[segment[0]] = (rotation, shift, direction, APPROACH - 1.0 if kind == "bond" else 0.0)
         self._apply(index)
         if hydrogen is not None:
-            self._promise(hydrogen, anchor, k, direction)
+            self._promise(hydrogen, anchor, k, direction, leave_after=round_about is not None)
+
+    def _clear_way_round(self, cluster: _Cluster, mover: int, anchor: int, hydrogen: Optional[int],
+                         segment: tuple[int, int],
+                         placements: _Placements, polygons: list[list[complex]],
+                         walls: np.ndarray) -> Optional[tuple]:
+        """A partner of a proton hop that finds no clear spot near its preferred side from which
+        the arrow would not cross a bond looks all the way round its anchor (the arrow runs clear
+        of bonds when a clear side exists); None if there is none either."""
+        round_about = _Placements(_ROUND_OPTIONS, placements.u, placements.v, placements.anchor_at, placements.distance,
+                                  placements.local, placements.near, placements.carries_hydrogen)
+        round_about.batch = 64
+        # Travelling hydrogens are placed last: the spots promised to them are kept clear here.
+        promised = np.array(self._promised_spots(hydrogen, set(cluster.atoms), range(segment[0], segment[1] + 1)),
+                            dtype=complex)
+        for option in range(len(_ROUND_OPTIONS)):
+            gap, moved, direction, rotation, target = round_about.at(option)
+            hop = target - direction if placements.carries_hydrogen else placements.anchor_at + direction
+            if (gap >= _CLEARANCE and not _blocked(placements, target, direction, walls)
+                    and not (len(promised) and np.abs(hop - promised).min() < _HYDROGEN_ROOM)
+                    and not any(_inside(complex(p), poly) for p in moved for poly in polygons)):
+                return (_CLEARANCE, True), rotation, target - cluster.local[mover] * rotation, direction
+        return None
+
+    def _promised_spots(self, hydrogen: Optional[int], skip: set[int], panels: Iterable[int]) -> list[complex]:
+        """Where the travelling hydrogens other than `hydrogen` whose directions are already
+        promised sit in these panels, but those held by atoms in `skip`."""
+        return [self.positions[p][r.holder] + r.direction for p in panels for runs in self.residences.values()
+                for r in runs if r.hydrogen != hydrogen and r.direction is not None and r.first <= p <= r.last
+                and r.holder in self.positions[p] and r.holder not in skip]
+
+    def _walls(self, segment: tuple[int, int], anchor: int, mine: set[int]) -> np.ndarray:
+        """The bonds, in the panels of `segment`, that a proton-transfer arrow between `anchor` and
+        the cluster being placed should not cross (neither's own bonds)."""
+        out = []
+        for k in range(segment[0], segment[1] + 1):
+            here = self.positions[k]
+            out += [(here[i], here[j]) for i, j in self.bonds_in[k]
+                    if i in here and j in here and anchor not in (i, j) and i not in mine and j not in mine]
+        return np.array(out, dtype=complex).reshape(-1, 2)
 
     def _other_hops(self, index: int, segment: tuple[int, int], k: int, hydrogen: Optional[int]
                     ) -> list[tuple[int, complex]]:
@@ -1002,19 +1070,19 @@ class _LayoutBuilder:
         return out
 
     def _nearest_to_partners(self, cluster: _Cluster, mover: int, placements: _Placements,
-                             polygons: list[list[complex]], partners: list[tuple[int, complex]]
-                             ) -> Optional[tuple]:
+                             polygons: list[list[complex]], partners: list[tuple[int, complex]],
+                             walls: np.ndarray) -> Optional[tuple]:
         """Among the placements clear of everything (tried further round the anchor than a single
-        hop needs), the one that also keeps the cluster's other hop partners within reach of an
-        arrow (PARTNER_REACH), in order of preference otherwise; None when no placement is clear."""
+        hop needs) and from which the arrow crosses none of `walls`, the one that also keeps the
+        cluster's other hop partners within reach of an arrow (PARTNER_REACH), in order of
+        preference otherwise; None when no placement is clear."""
         keys = list(cluster.local)
         best, best_score = None, math.inf
         wider = _Placements(_PARTNER_OPTIONS, placements.u, placements.v, placements.anchor_at, placements.distance,
                             placements.local, placements.near, placements.carries_hydrogen)
+        wider.batch = len(_PARTNER_OPTIONS)     # every one is looked at: one batch
         for option in range(len(_PARTNER_OPTIONS)):
             gap, moved, direction, rotation, target = wider.at(option)
-            if gap < _CLEARANCE or any(_inside(complex(p), poly) for p in moved for poly in polygons):
-                continue
             # The hop that places it counts as much as the others; squared, so two hops share
             # the stretch rather than one taking all of it.
             miss = max(0.0, placements.distance + _PARTNER_OPTIONS[option][3] - PARTNER_REACH[1]) ** 2
@@ -1025,8 +1093,10 @@ class _LayoutBuilder:
                 miss += max(0.0, reach - PARTNER_REACH[1]) ** 2
             else:
                 score = _PARTNER_OPTIONS[option][0] + 30.0 * miss
-                if score < best_score:
-                    best = (_CLEARANCE, rotation, target - cluster.local[mover] * rotation, direction)
+                # The cheap score first: the clearance tests cost more.
+                if (score < best_score and gap >= _CLEARANCE and not _blocked(placements, target, direction, walls)
+                        and not any(_inside(complex(p), poly) for p in moved for poly in polygons)):
+                    best = ((_CLEARANCE, True), rotation, target - cluster.local[mover] * rotation, direction)
                     best_score = score
         return best
 
@@ -1036,16 +1106,18 @@ class _LayoutBuilder:
                 return r
         return None
 
-    def _promise(self, h: int, anchor: int, k: int, direction: complex) -> None:
+    def _promise(self, h: int, anchor: int, k: int, direction: complex, leave_after: bool = False) -> None:
         """The hydrogen points along `direction` while on the anchor and back along it on the
-        partner, around the hop at step k."""
+        partner, around the hop at step k. With `leave_after` (a partner that came round to an
+        unusual side) where it lands is left to find its own room: it stays there for panels
+        the placement did not look at."""
         runs = self.residences[h]
         for before, after in zip(runs, runs[1:]):
             if before.last == k and after.first == k + 1:
                 # The hop a hydrogen is about to make decides where it points; where it came
                 # from only matters if it goes nowhere next.
                 before.direction = direction if before.holder == anchor else -direction
-                if after.direction is None:
+                if after.direction is None and not leave_after:
                     after.direction = -direction if before.holder == anchor else direction
 
     def _waiting(self, index: int, segment: tuple[int, int], following: tuple, arrival: int) -> tuple:
