@@ -181,12 +181,15 @@ def test_bonds_do_not_cross(text, name):
 @pytest.mark.parametrize("text,name", _mechanisms() + [pytest.param(
     'species aibn = "N#C[C:4](C)(C)[N:1]=[N:2][C:3](C)(C)C#N"\nstep "homolysis"\n    C3-N2 ~> C3\n'
     '    C3-N2 ~> N1#N2\n    C4-N1 ~> C4\n    C4-N1 ~> N1#N2\n    releases N1\nend\n', "azo homolysis",
-    id="azo-homolysis")])
+    id="azo-homolysis"), pytest.param(
+    'species acetonitrile = "[CH3:16][C:17]#[N:18]"\nstep "homolysis" under "heat"\n    C16-C17 ~> C16\n'
+    '    C16-C17 ~> C17\nend\n', "nitrile homolysis", id="nitrile-homolysis")])
 def test_sp_atoms_are_drawn_straight(text, name):
     """An atom with two bonds, one of them triple, or two double bonds (a nitrile or alkyne
     carbon, an allene centre) is drawn straight: 180 degrees, within 5 (VSEPR, common practice;
     IUPAC 2008 draws such centres linear). The azo homolysis of an azobisnitrile leaves two
-    nitrile-bearing radicals, each nitrile carbon bonded on straight."""
+    nitrile-bearing radicals, each nitrile carbon bonded on straight; in the homolysis of
+    acetonitrile (as in its pyrolysis) the methyl stands straight on through the nitrile carbon."""
     _, _, scene = _scene(text, name)
     seen = 0
     for panel in scene.panels:
@@ -206,7 +209,7 @@ def test_sp_atoms_are_drawn_straight(text, name):
             p, a, b = where[atom], where[ends[0]], where[ends[1]]
             turn = math.degrees(abs(cmath.phase(complex(a[0] - p[0], a[1] - p[1]) / complex(b[0] - p[0], b[1] - p[1]))))
             assert turn > 175, (panel.index, atom, turn)
-    if name in ("08-sn2-cyanide.mech", "azo homolysis"):
+    if name in ("08-sn2-cyanide.mech", "azo homolysis", "nitrile homolysis"):
         assert seen
 
 

@@ -962,6 +962,10 @@ class _LayoutBuilder:
             u = residence.direction
         else:
             u = self._roomiest(anchor, k, hydrogen)
+        placed = [self.positions[k][n] for n in self.neighbours[anchor]
+                  if n in self.positions[k] and n not in cluster.local and self.element[n] != 1]
+        if kind == "bond" and self._linear(anchor) and len(placed) == 1:
+            u = _unit(self.positions[k][anchor] - placed[0])   # straight on through an sp atom
         own = [cluster.local[n] for n in self.neighbours[mover] if n in cluster.local]
         v = free_direction(cluster.local[mover], own, prefer=-u)
         if len(own) == 1 and kind == "bond" and not self._linear(mover):
