@@ -172,7 +172,8 @@ class ArrowPlanner:
         work = [self._try(step, moves, state, panel) for step, moves, state, panel in panels if moves]
         candidates = [c for w in work for tries in w.tries for c in tries]
         if candidates:
-            points = np.array([[c.p0, c.p1, c.p2, c.tip] for c in candidates], dtype=complex) @ _BERNSTEIN
+            controls = np.array([[c.p0, c.p1, c.p2, c.tip] for c in candidates], dtype=complex)
+            points = controls @ _BERNSTEIN
             for row, c in enumerate(candidates):
                 c.row = row
             x0, y0 = points.real.min(axis=1).tolist(), points.imag.min(axis=1).tolist()
@@ -186,9 +187,9 @@ class ArrowPlanner:
                                          min(y0[start:end]) - reach, max(x1[start:end]) + reach,
                                          max(y1[start:end]) + reach)
                 start = end
-            self._score(work, candidates, points)
+            self._score(work, candidates, controls, points)
         kept = [[sorted(tries, key=lambda c: c.cost)[:_KEEP] for tries in w.tries] for w in work]
-        planned = iter(zip(work, kept, self._pair_costs(kept, points) if work else []))
+        planned = iter(zip(work, kept, self._pair_costs(kept, controls, points) if work else []))
         out = []
         for _, moves, _, _ in panels:
             if not moves:
@@ -343,9 +344,10 @@ class ArrowPlanner:
         return n if (direction / n).real >= 0 else -n
 
     # penalties
-    def _score(self, work: list[_PanelArrows], candidates: list[_Candidate], pts: np.ndarray) -> None:
+    def _score(self, work: list[_PanelArrows], candidates: list[_Candidate], controls: np.ndarray,
+               pts: np.ndarray) -> None:
         """Penalties of every candidate of every arrow of every panel, in one batch. `pts` holds
-        the candidates' samples, one row each. Each panel's obstacles are padded to the largest
+        the candidates' samples, one row each, `controls` their control points. Each panel's obstacles are padded to the largest
         panel's count by fillers that never count, so each penalty column means one obstacle
         of the candidate's own panel (or nothing)."""
         bl = self.bl
@@ -409,7 +411,7 @@ class ArrowPlanner:
             hit = (bx >= at[..., 0]) & (bx <= at[..., 2]) & (by >= at[..., 1]) & (by <= at[..., 3])
             cost += 30.0 * (hit & ~mine[owner][:, None, :]).sum(axis=(1, 2))
         outward = np.array([src.outward if src.kind == "dots" else 0j for src in sources])[owner]
-        leave = np.array([c.p1 - c.p0 for c in candidates])
+        leave = controls[:, 1] - controls[:, 0]
         leave = leave / np.maximum(np.abs(leave), 1e-9)
         # Leaving the dots back across the atom reads as coming from the wrong place.
         cost += np.where((outward != 0) & ((leave * np.conj(outward)).real < -0.2), 20.0, 0.0)
@@ -418,7 +420,7 @@ class ArrowPlanner:
         for c, value, length in zip(candidates, cost.tolist(), lengths.tolist()):
             c.cost, c.length = value, length
 
-    def _pair_costs(self, panels: list[list[list[_Candidate]]], samples: np.ndarray
+    def _pair_costs(self, panels: list[list[list[_Candidate]]], controls: np.ndarray, samples: np.ndarray
                     ) -> list[dict[tuple[int, int], np.ndarray]]:
         """For each panel (the kept candidates of each of its arrows): the penalty of drawing
         candidate a of arrow i with candidate b of arrow j (i < j), for every such pair: heads
@@ -430,8 +432,9 @@ class ArrowPlanner:
         several = [k for k, options in enumerate(panels) if len(options) > 1]
         if not several:
             return out
-        cost = self._pair_block(_curve_features([[c for o in panels[k][:-1] for c in o] for k in several], samples),
-                                _curve_features([[c for o in panels[k][1:] for c in o] for k in several], samples))
+        cost = self._pair_block(
+            _curve_features([[c for o in panels[k][:-1] for c in o] for k in several], controls, samples),
+            _curve_features([[c for o in panels[k][1:] for c in o] for k in several], controls, samples))
         for k, block in zip(several, cost):
             sizes = [len(o) for o in panels[k]]
             ends = list(accumulate(sizes))
@@ -543,13 +546,12 @@ def _beside_bond(occupied: list[complex], toward: complex) -> complex:
     return max(_AROUND, key=score)
 
 
-def _curve_features(groups: list[list[_Candidate]], samples: np.ndarray) -> tuple[np.ndarray, ...]:
+def _curve_features(groups: list[list[_Candidate]], controls: np.ndarray, samples: np.ndarray) -> tuple[np.ndarray, ...]:
     """Tips, starts, shaft samples without their ends and coarse chord points (five chords) of
-    groups of candidates, one group per row, padded to the longest group."""
-    points = samples[_padded([[c.row for c in g] for g in groups], 0, int)]     # (groups, C, S)
-    return (_padded([[c.tip for c in g] for g in groups], 0j, complex),
-            _padded([[c.p0 for c in g] for g in groups], 0j, complex),
-            points[..., ::2][..., 1:-1], points[..., ::4])
+    groups of candidates, one group per row, padded to the longest group (by row 0, never read)."""
+    rows = _padded([[c.row for c in g] for g in groups], 0, int)
+    points = samples[rows]                                             # (groups, C, S)
+    return controls[rows, 3], controls[rows, 0], points[..., ::2][..., 1:-1], points[..., ::4]
 
 
 def _parameter_at_distance(p0: complex, p1: complex, p2: complex, p3: complex, distance: float) -> float:
