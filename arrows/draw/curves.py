@@ -115,10 +115,13 @@ class _Obstacles:
         self.mark_owner = [atom for atom, _ in marks]
         pairs = []
         for bond in panel.bonds:
-            i, j = sorted(bond.atoms)
+            i, j = bond.atoms
+            if i > j:
+                i, j = j, i
             a, b = positions[i], positions[j]
-            if (max(a.real, b.real) >= x0 and min(a.real, b.real) <= x1
-                    and max(a.imag, b.imag) >= y0 and min(a.imag, b.imag) <= y1):
+            # The bond's box meets the reach: one end or the other on the inner side of each edge.
+            if ((a.real >= x0 or b.real >= x0) and (a.real <= x1 or b.real <= x1)
+                    and (a.imag >= y0 or b.imag >= y0) and (a.imag <= y1 or b.imag <= y1)):
                 pairs.append((i, j))
         self.bond_ends = pairs                                          # lower atom index first
         self.bond_index = {pair: k for k, pair in enumerate(pairs)}
