@@ -61,6 +61,18 @@ def _unit(z: complex) -> complex:
     return z / abs(z) if abs(z) > 1e-12 else 1 + 0j
 
 
+def _units(z: np.ndarray) -> np.ndarray:
+    """_unit of every element, with Python's arithmetic: np.hypot is the hypot that abs() of a
+    Python complex uses, and each part is divided alone (numpy's own complex abs and division
+    may round differently)."""
+    size = np.hypot(z.real, z.imag)
+    out = np.ones(z.shape, dtype=complex)
+    ok = size > 1e-12
+    out.real[ok] = z.real[ok] / size[ok]
+    out.imag[ok] = z.imag[ok] / size[ok]
+    return out
+
+
 @dataclass
 class _Anchor:
     """One end of an arrow, before the curve is chosen."""
@@ -368,8 +380,8 @@ class ArrowPlanner:
         # Which atoms each arrow's own move names, as one boolean row per arrow.
         known = max([o.largest_id for o in obs] + [i for m in moves for i in m.source_atoms + m.sink_atoms])
         own = np.zeros((len(moves), known + 1), dtype=bool)
-        for k, m in enumerate(moves):
-            own[k, list(m.source_atoms + m.sink_atoms)] = True
+        named = [(k, i) for k, m in enumerate(moves) for i in m.source_atoms + m.sink_atoms]
+        own[[k for k, _ in named], [i for _, i in named]] = True
         own_labelled = own[arrow, _padded([o.labelled_ids for o in obs], 0, int)[panel_of]]     # (arrows, labels)
         own_bare = own[arrow, _padded([o.bare_ids for o in obs], 0, int)[panel_of]]             # (arrows, vertices)
         dots_of = np.array([src.atoms[0] if src.kind == "dots" else -1 for src in sources])   # atom indices are >= 0
@@ -407,7 +419,7 @@ class ArrowPlanner:
             cost[w.rows] += 3.0 * own_atoms.sum(axis=(1, 2))
         if marks.shape[1]:
             # The head's barbs spread beyond the shaft: neither may sit on a charge sign or dots.
-            arrive = np.array([_unit(c.tip - c.p2) for c in candidates])[:, None]
+            arrive = _units(controls[:, 3] - controls[:, 2])[:, None]
             barbs = tip - arrive * self.head_length + arrive * 1j * np.array([0.5, -0.5]) * self.head_width
             bx, by = barbs.real[:, :, None], barbs.imag[:, :, None]
             at = marks[where][:, None]
