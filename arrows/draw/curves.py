@@ -169,7 +169,7 @@ class _PanelArrows:
 
 
 class ArrowPlanner:
-    """Plans the arrows of one step on one panel."""
+    """Plans the curved arrows of a scheme: for each panel, those of the step that leaves it."""
 
     def __init__(self, style: Style, dot_radius: float):
         self.style = style
@@ -185,26 +185,27 @@ class ArrowPlanner:
         and the dots they start from. The panels' candidates are sampled and scored in one
         batch: numpy's cost there is per call, and a panel holds only a dozen curves."""
         work = [self._try(step, moves, state, panel) for step, moves, state, panel in panels if moves]
+        if not work:
+            return [([], []) for _ in panels]
         candidates = [c for w in work for tries in w.tries for c in tries]
-        if candidates:
-            controls = np.array([[c.p0, c.p1, c.p2, c.tip] for c in candidates], dtype=complex)
-            points = controls @ _BERNSTEIN
-            for row, c in enumerate(candidates):
-                c.row = row
-            x0, y0 = points.real.min(axis=1).tolist(), points.imag.min(axis=1).tolist()
-            x1, y1 = points.real.max(axis=1).tolist(), points.imag.max(axis=1).tolist()
-            reach = 1.3 * self.bl     # the crowding term looks this far from a curve
-            start = 0
-            for w in work:
-                end = start + sum(len(tries) for tries in w.tries)
-                w.rows = slice(start, end)
-                w.obstacles = _Obstacles(w.panel, w.marks, self.bl, min(x0[start:end]) - reach,
-                                         min(y0[start:end]) - reach, max(x1[start:end]) + reach,
-                                         max(y1[start:end]) + reach)
-                start = end
-            self._score(work, candidates, controls, points)
+        controls = np.array([[c.p0, c.p1, c.p2, c.tip] for c in candidates], dtype=complex)
+        points = controls @ _BERNSTEIN
+        for row, c in enumerate(candidates):
+            c.row = row
+        x0, y0 = points.real.min(axis=1).tolist(), points.imag.min(axis=1).tolist()
+        x1, y1 = points.real.max(axis=1).tolist(), points.imag.max(axis=1).tolist()
+        reach = 1.3 * self.bl     # the crowding term looks this far from a curve
+        start = 0
+        for w in work:
+            end = start + sum(len(tries) for tries in w.tries)
+            w.rows = slice(start, end)
+            w.obstacles = _Obstacles(w.panel, w.marks, self.bl, min(x0[start:end]) - reach,
+                                     min(y0[start:end]) - reach, max(x1[start:end]) + reach,
+                                     max(y1[start:end]) + reach)
+            start = end
+        self._score(work, candidates, controls, points)
         kept = [[sorted(tries, key=lambda c: c.cost)[:_KEEP] for tries in w.tries] for w in work]
-        planned = iter(zip(work, kept, self._pair_costs(kept, controls, points) if work else []))
+        planned = iter(zip(work, kept, self._pair_costs(kept, controls, points)))
         out = []
         for _, moves, _, _ in panels:
             if not moves:
