@@ -20,7 +20,7 @@ import cmath
 import math
 from dataclasses import dataclass
 from functools import lru_cache
-from itertools import accumulate
+from itertools import accumulate, chain, repeat
 from typing import Optional
 
 import numpy as np
@@ -147,10 +147,13 @@ _NOWHERE = complex(math.inf, math.inf)                 # padding: near nothing
 
 def _padded(rows: list[list], filler, dtype=float) -> np.ndarray:
     """Rows of unequal length as one array, each row filled up with `filler`; the fillers are
-    chosen so that they never count (an empty box, a point at infinity, a bond of no length)."""
-    width = max(len(r) for r in rows)
-    out = np.array([r + [filler] * (width - len(r)) for r in rows], dtype=dtype)
-    return out.reshape(len(rows), width, *np.shape(filler))
+    chosen so that they never count (an empty box, a point at infinity, a bond of no length).
+    Built from one flat list: numpy reads that faster than nested ones."""
+    width = max(map(len, rows))
+    flat = [item for row in rows for item in chain(row, repeat(filler, width - len(row)))]
+    if isinstance(filler, tuple):   # items are tuples of numbers: one more axis
+        return np.array(list(chain.from_iterable(flat)), dtype=dtype).reshape(len(rows), width, len(filler))
+    return np.array(flat, dtype=dtype).reshape(len(rows), width)
 
 
 @dataclass
