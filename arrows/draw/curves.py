@@ -21,7 +21,7 @@ import cmath
 import math
 from dataclasses import dataclass
 from functools import lru_cache
-from itertools import accumulate
+from itertools import accumulate, chain, repeat
 from typing import Optional
 
 import numpy as np
@@ -65,6 +65,18 @@ def _handle(theta: float) -> float:
 
 def _unit(z: complex) -> complex:
     return z / abs(z) if abs(z) > 1e-12 else 1 + 0j
+
+
+def _units(z: np.ndarray) -> np.ndarray:
+    """_unit of every element, with Python's arithmetic: np.hypot is the hypot that abs() of a
+    Python complex uses, and each part is divided alone (numpy's own complex abs and division
+    may round differently)."""
+    size = np.hypot(z.real, z.imag)
+    out = np.ones(z.shape, dtype=complex)
+    ok = size > 1e-12
+    out.real[ok] = z.real[ok] / size[ok]
+    out.imag[ok] = z.imag[ok] / size[ok]
+    return out
 
 
 @dataclass
@@ -122,10 +134,13 @@ class _Obstacles:
         self.mark_owner = [atom for atom, _ in marks]
         pairs = []
         for bond in panel.bonds:
-            i, j = sorted(bond.atoms)
+            i, j = bond.atoms
+            if i > j:
+                i, j = j, i
             a, b = positions[i], positions[j]
-            if (max(a.real, b.real) >= x0 and min(a.real, b.real) <= x1
-                    and max(a.imag, b.imag) >= y0 and min(a.imag, b.imag) <= y1):
+            # The bond's box meets the reach: one end or the other on the inner side of each edge.
+            if ((a.real >= x0 or b.real >= x0) and (a.real <= x1 or b.real <= x1)
+                    and (a.imag >= y0 or b.imag >= y0) and (a.imag <= y1 or b.imag <= y1)):
                 pairs.append((i, j))
         self.bond_ends = pairs                                          # lower atom index first
         self.bond_index = {pair: k for k, pair in enumerate(pairs)}
@@ -139,10 +154,13 @@ _NOWHERE = complex(math.inf, math.inf)                 # padding: near nothing
 
 def _padded(rows: list[list], filler, dtype=float) -> np.ndarray:
     """Rows of unequal length as one array, each row filled up with `filler`; the fillers are
-    chosen so that they never count (an empty box, a point at infinity, a bond of no length)."""
-    width = max(len(r) for r in rows)
-    out = np.array([r + [filler] * (width - len(r)) for r in rows], dtype=dtype)
-    return out.reshape(len(rows), width, *np.shape(filler))
+    chosen so that they never count (an empty box, a point at infinity, a bond of no length).
+    Built from one flat list: numpy reads that faster than nested ones."""
+    width = max(map(len, rows))
+    flat = [item for row in rows for item in chain(row, repeat(filler, width - len(row)))]
+    if isinstance(filler, tuple):   # items are tuples of numbers: one more axis
+        return np.array(list(chain.from_iterable(flat)), dtype=dtype).reshape(len(rows), width, len(filler))
+    return np.array(flat, dtype=dtype).reshape(len(rows), width)
 
 
 @dataclass
@@ -161,7 +179,7 @@ class _PanelArrows:
 
 
 class ArrowPlanner:
-    """Plans the arrows of one step on one panel."""
+    """Plans the curved arrows of a scheme: for each panel, those of the step that leaves it."""
 
     def __init__(self, style: Style, dot_radius: float):
         self.style = style
@@ -177,25 +195,27 @@ class ArrowPlanner:
         and the dots they start from. The panels' candidates are sampled and scored in one
         batch: numpy's cost there is per call, and a panel holds only a dozen curves."""
         work = [self._try(step, moves, state, panel) for step, moves, state, panel in panels if moves]
+        if not work:
+            return [([], []) for _ in panels]
         candidates = [c for w in work for tries in w.tries for c in tries]
-        if candidates:
-            points = np.array([[c.p0, c.p1, c.p2, c.tip] for c in candidates], dtype=complex) @ _BERNSTEIN
-            for row, c in enumerate(candidates):
-                c.row = row
-            x0, y0 = points.real.min(axis=1).tolist(), points.imag.min(axis=1).tolist()
-            x1, y1 = points.real.max(axis=1).tolist(), points.imag.max(axis=1).tolist()
-            reach = 1.3 * self.bl     # the crowding term looks this far from a curve
-            start = 0
-            for w in work:
-                end = start + sum(len(tries) for tries in w.tries)
-                w.rows = slice(start, end)
-                w.obstacles = _Obstacles(w.panel, w.marks, self.bl, min(x0[start:end]) - reach,
-                                         min(y0[start:end]) - reach, max(x1[start:end]) + reach,
-                                         max(y1[start:end]) + reach)
-                start = end
-            self._score(work, candidates, points)
+        controls = np.array([[c.p0, c.p1, c.p2, c.tip] for c in candidates], dtype=complex)
+        points = controls @ _BERNSTEIN
+        for row, c in enumerate(candidates):
+            c.row = row
+        x0, y0 = points.real.min(axis=1).tolist(), points.imag.min(axis=1).tolist()
+        x1, y1 = points.real.max(axis=1).tolist(), points.imag.max(axis=1).tolist()
+        reach = 1.3 * self.bl     # the crowding term looks this far from a curve
+        start = 0
+        for w in work:
+            end = start + sum(len(tries) for tries in w.tries)
+            w.rows = slice(start, end)
+            w.obstacles = _Obstacles(w.panel, w.marks, self.bl, min(x0[start:end]) - reach,
+                                     min(y0[start:end]) - reach, max(x1[start:end]) + reach,
+                                     max(y1[start:end]) + reach)
+            start = end
+        self._score(work, candidates, controls, points)
         kept = [[sorted(tries, key=lambda c: c.cost)[:_KEEP] for tries in w.tries] for w in work]
-        planned = iter(zip(work, kept, self._pair_costs(kept, points) if work else []))
+        planned = iter(zip(work, kept, self._pair_costs(kept, controls, points)))
         out = []
         for _, moves, _, _ in panels:
             if not moves:
@@ -355,9 +375,10 @@ class ArrowPlanner:
         return n if (direction / n).real >= 0 else -n
 
     # penalties
-    def _score(self, work: list[_PanelArrows], candidates: list[_Candidate], pts: np.ndarray) -> None:
+    def _score(self, work: list[_PanelArrows], candidates: list[_Candidate], controls: np.ndarray,
+               pts: np.ndarray) -> None:
         """Penalties of every candidate of every arrow of every panel, in one batch. `pts` holds
-        the candidates' samples, one row each. Each panel's obstacles are padded to the largest
+        the candidates' samples, one row each, `controls` their control points. Each panel's obstacles are padded to the largest
         panel's count by fillers that never count, so each penalty column means one obstacle
         of the candidate's own panel (or nothing)."""
         bl = self.bl
@@ -375,8 +396,8 @@ class ArrowPlanner:
         # Which atoms each arrow's own move names, as one boolean row per arrow.
         known = max([o.largest_id for o in obs] + [i for m in moves for i in m.source_atoms + m.sink_atoms])
         own = np.zeros((len(moves), known + 1), dtype=bool)
-        for k, m in enumerate(moves):
-            own[k, list(m.source_atoms + m.sink_atoms)] = True
+        named = [(k, i) for k, m in enumerate(moves) for i in m.source_atoms + m.sink_atoms]
+        own[[k for k, _ in named], [i for _, i in named]] = True
         own_labelled = own[arrow, _padded([o.labelled_ids for o in obs], 0, int)[panel_of]]     # (arrows, labels)
         own_bare = own[arrow, _padded([o.bare_ids for o in obs], 0, int)[panel_of]]             # (arrows, vertices)
         dots_of = np.array([src.atoms[0] if src.kind == "dots" else -1 for src in sources])   # atom indices are >= 0
@@ -414,14 +435,14 @@ class ArrowPlanner:
             cost[w.rows] += 3.0 * own_atoms.sum(axis=(1, 2))
         if marks.shape[1]:
             # The head's barbs spread beyond the shaft: neither may sit on a charge sign or dots.
-            arrive = np.array([_unit(c.tip - c.p2) for c in candidates])[:, None]
+            arrive = _units(controls[:, 3] - controls[:, 2])[:, None]
             barbs = tip - arrive * self.head_length + arrive * 1j * np.array([0.5, -0.5]) * self.head_width
             bx, by = barbs.real[:, :, None], barbs.imag[:, :, None]
             at = marks[where][:, None]
             hit = (bx >= at[..., 0]) & (bx <= at[..., 2]) & (by >= at[..., 1]) & (by <= at[..., 3])
             cost += 30.0 * (hit & ~mine[owner][:, None, :]).sum(axis=(1, 2))
         outward = np.array([src.outward if src.kind == "dots" else 0j for src in sources])[owner]
-        leave = np.array([c.p1 - c.p0 for c in candidates])
+        leave = controls[:, 1] - controls[:, 0]
         leave = leave / np.maximum(np.abs(leave), 1e-9)
         # Leaving the dots back across the atom reads as coming from the wrong place.
         cost += np.where((outward != 0) & ((leave * np.conj(outward)).real < -0.2), 20.0, 0.0)
@@ -448,8 +469,7 @@ class ArrowPlanner:
         loop = (turn > _MAX_TURN) & ((standoff > _LOOP_STANDOFF * self.bl) | (turn > _SELF_CROSSING))
         return np.where(loop, _CURL_WEIGHT * np.degrees(turn - _MAX_TURN), 0.0)
 
-
-    def _pair_costs(self, panels: list[list[list[_Candidate]]], samples: np.ndarray
+    def _pair_costs(self, panels: list[list[list[_Candidate]]], controls: np.ndarray, samples: np.ndarray
                     ) -> list[dict[tuple[int, int], np.ndarray]]:
         """For each panel (the kept candidates of each of its arrows): the penalty of drawing
         candidate a of arrow i with candidate b of arrow j (i < j), for every such pair: heads
@@ -461,8 +481,9 @@ class ArrowPlanner:
         several = [k for k, options in enumerate(panels) if len(options) > 1]
         if not several:
             return out
-        cost = self._pair_block(_curve_features([[c for o in panels[k][:-1] for c in o] for k in several], samples),
-                                _curve_features([[c for o in panels[k][1:] for c in o] for k in several], samples))
+        cost = self._pair_block(
+            _curve_features([[c for o in panels[k][:-1] for c in o] for k in several], controls, samples),
+            _curve_features([[c for o in panels[k][1:] for c in o] for k in several], controls, samples))
         for k, block in zip(several, cost):
             sizes = [len(o) for o in panels[k]]
             ends = list(accumulate(sizes))
@@ -579,13 +600,12 @@ def _beside_bond(occupied: list[complex], toward: complex, tails: list[complex] 
     return max(_AROUND, key=score)
 
 
-def _curve_features(groups: list[list[_Candidate]], samples: np.ndarray) -> tuple[np.ndarray, ...]:
+def _curve_features(groups: list[list[_Candidate]], controls: np.ndarray, samples: np.ndarray) -> tuple[np.ndarray, ...]:
     """Tips, starts, shaft samples without their ends and coarse chord points (five chords) of
-    groups of candidates, one group per row, padded to the longest group."""
-    points = samples[_padded([[c.row for c in g] for g in groups], 0, int)]     # (groups, C, S)
-    return (_padded([[c.tip for c in g] for g in groups], 0j, complex),
-            _padded([[c.p0 for c in g] for g in groups], 0j, complex),
-            points[..., ::2][..., 1:-1], points[..., ::4])
+    groups of candidates, one group per row, padded to the longest group (by row 0, never read)."""
+    rows = _padded([[c.row for c in g] for g in groups], 0, int)
+    points = samples[rows]                                             # (groups, C, S)
+    return controls[rows, 3], controls[rows, 0], points[..., ::2][..., 1:-1], points[..., ::4]
 
 
 def _in_crook(middles: np.ndarray, sources: list[_Anchor], sinks: list[_Anchor], owner: np.ndarray,

@@ -239,14 +239,18 @@ class _Placements:
         self.options, self.u, self.v, self.anchor_at, self.distance = options, u, v, anchor_at, distance
         self.local, self.near, self.carries_hydrogen = local, near, carries_hydrogen
         self.done: list[tuple[float, np.ndarray, complex, complex, complex]] = []
+        self.turned: dict[int, tuple[complex, complex]] = {}   # turn -> (direction, rotation facing back along it)
 
     def at(self, index: int) -> tuple[float, np.ndarray, complex, complex, complex]:
         while index >= len(self.done):
             directions, rotations, targets = [], [], []
             for _, turn, spin, extra in self.options[len(self.done):len(self.done) + self.batch]:
-                direction = self.u * _rotor(turn, 9)
+                if turn not in self.turned:     # a handful of turns, shared by many options
+                    direction = self.u * _rotor(turn, 9)
+                    self.turned[turn] = (direction, _unit(-direction / self.v))
+                direction, facing = self.turned[turn]
                 directions.append(direction)
-                rotations.append(_unit(-direction / self.v) * _rotor(spin, 6))
+                rotations.append(facing * _rotor(spin, 6))
                 targets.append(self.anchor_at + direction * (self.distance + extra))
             target_array, rotation_array = np.array(targets, dtype=complex), np.array(rotations, dtype=complex)
             moved = target_array[:, None] + self.local[None, :] * rotation_array[:, None]

@@ -500,28 +500,16 @@ def _panel_centre(panel: Panel) -> float:
 
 
 def _panel_box(atoms, bonds, marks, arrows, pad: float) -> Box:
-    xs, ys = [], []
-    for a in atoms:
-        if a.box is not None:
-            xs += [a.box.x0, a.box.x1]
-            ys += [a.box.y0, a.box.y1]
-        else:
-            xs.append(a.position[0])
-            ys.append(a.position[1])
-    for b in bonds:
-        for p, q in b.lines:
-            xs += [p[0], q[0]]
-            ys += [p[1], q[1]]
-    for m in marks:
-        if m.box is not None:
-            xs += [m.box.x0, m.box.x1]
-            ys += [m.box.y0, m.box.y1]
+    boxes = [a.box for a in atoms if a.box is not None] + [m.box for m in marks if m.box is not None]
+    points = [a.position for a in atoms if a.box is None]
+    points += [end for b in bonds for line in b.lines for end in line]
     for a in arrows:
-        for p in a.shaft_points(16) + list(a.head):
-            xs.append(p[0])
-            ys.append(p[1])
-    if not xs:
+        points += a.shaft_points(16)
+        points += a.head
+    if not points and not boxes:
         return Box(0, 0, 0, 0)
+    xs = [p[0] for p in points] + [b.x0 for b in boxes] + [b.x1 for b in boxes]
+    ys = [p[1] for p in points] + [b.y0 for b in boxes] + [b.y1 for b in boxes]
     return Box(min(xs) - pad, min(ys) - pad, max(xs) + pad, max(ys) + pad)
 
 
