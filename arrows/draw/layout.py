@@ -62,6 +62,8 @@ _HOP_OPTIONS = sorted((abs(t) + abs(s) * 0.7 + 8 * e, t, s, e) for t in (0, 1, -
 # (Turns in steps of 10 degrees here, distances in quarter bond lengths.)
 _PARTNER_OPTIONS = sorted((abs(t) + abs(s) * 0.7 + e, t, s, e) for t in np.arange(-5.0, 5.5, 0.5)
                           for s in (0, 1, -1, 2, -2, 6) for e in (0.0, 0.25, 0.5, 0.75, 1.0))
+_PARTNER_PREFERENCE = np.array([o[0] for o in _PARTNER_OPTIONS])
+_PARTNER_EXTRA = np.array([o[3] for o in _PARTNER_OPTIONS])
 # A partner whose arrow would cross a bond from every spot on its preferred side looks all round.
 _ROUND_OPTIONS = sorted((abs(t) + abs(s) * 0.7 + 8 * e, t, s, e) for t in np.arange(-9.0, 9.5, 0.5)
                         for s in (0, 1, -1, 2, -2, 6) for e in (0.0, 0.5, 1.0))
@@ -1085,28 +1087,29 @@ class _LayoutBuilder:
         cluster's other hop partners within reach of an arrow (PARTNER_REACH), in order of
         preference otherwise; None when no placement is clear."""
         keys = list(cluster.local)
-        best, best_score = None, math.inf
         wider = _Placements(_PARTNER_OPTIONS, placements.u, placements.v, placements.anchor_at, placements.distance,
                             placements.local, placements.near, placements.carries_hydrogen)
         wider.batch = len(_PARTNER_OPTIONS)     # every one is looked at: one batch
-        for option in range(len(_PARTNER_OPTIONS)):
-            gap, moved, direction, rotation, target = wider.at(option)
-            # The hop that places it counts as much as the others; squared, so two hops share
-            # the stretch rather than one taking all of it.
-            miss = max(0.0, placements.distance + _PARTNER_OPTIONS[option][3] - PARTNER_REACH[1]) ** 2
-            for atom, where in partners:
-                reach = abs(complex(moved[keys.index(atom)]) - where)
-                if reach < PARTNER_REACH[0]:
-                    break     # no room for the hydrogen between them
-                miss += max(0.0, reach - PARTNER_REACH[1]) ** 2
-            else:
-                score = _PARTNER_OPTIONS[option][0] + 30.0 * miss
-                # The cheap score first: the clearance tests cost more.
-                if (score < best_score and gap >= _CLEARANCE and not _blocked(placements, target, direction, walls)
-                        and not any(_inside(complex(p), poly) for p in moved for poly in polygons)):
-                    best = ((_CLEARANCE, True), rotation, target - cluster.local[mover] * rotation, direction)
-                    best_score = score
-        return best
+        wider.at(len(_PARTNER_OPTIONS) - 1)
+        moved_all = np.array([d[1] for d in wider.done])                 # (options, atoms)
+        # The hop that places it counts as much as the others; squared, so two hops share the
+        # stretch rather than one taking all of it. Partner by partner over every option at once,
+        # in the order and with the arithmetic of a plain loop (np.hypot is Python's abs).
+        miss = np.maximum(0.0, placements.distance + _PARTNER_EXTRA - PARTNER_REACH[1]) ** 2
+        room = np.ones(len(_PARTNER_OPTIONS), dtype=bool)
+        for atom, where in partners:
+            offset = moved_all[:, keys.index(atom)] - where
+            reach = np.hypot(offset.real, offset.imag)
+            room &= reach >= PARTNER_REACH[0]      # else no room for the hydrogen between them
+            miss = miss + np.maximum(0.0, reach - PARTNER_REACH[1]) ** 2
+        score = _PARTNER_PREFERENCE + 30.0 * miss
+        # The cheapest first; the clearance tests cost more. Equal scores keep the options' order.
+        for option in sorted(np.flatnonzero(room).tolist(), key=lambda o: score[o]):
+            gap, moved, direction, rotation, target = wider.done[option]
+            if (gap >= _CLEARANCE and not _blocked(placements, target, direction, walls)
+                    and not any(_inside(complex(p), poly) for p in moved for poly in polygons)):
+                return ((_CLEARANCE, True), rotation, target - cluster.local[mover] * rotation, direction)
+        return None
 
     def _residence_at(self, h: int, holder: int, k: int) -> Optional[_Residence]:
         for r in self.residences.get(h, []):
