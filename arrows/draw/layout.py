@@ -245,28 +245,34 @@ class _Placements:
 
     def at(self, index: int) -> tuple[float, np.ndarray, complex, complex, complex]:
         while index >= len(self.done):
-            directions, rotations, targets = [], [], []
-            for _, turn, spin, extra in self.options[len(self.done):len(self.done) + self.batch]:
-                if turn not in self.turned:     # a handful of turns, shared by many options
-                    direction = self.u * _rotor(turn, 9)
-                    self.turned[turn] = (direction, _unit(-direction / self.v))
-                direction, facing = self.turned[turn]
-                directions.append(direction)
-                rotations.append(facing * _rotor(spin, 6))
-                targets.append(self.anchor_at + direction * (self.distance + extra))
-            target_array, rotation_array = np.array(targets, dtype=complex), np.array(rotations, dtype=complex)
-            moved = target_array[:, None] + self.local[None, :] * rotation_array[:, None]
-            if len(self.near):
-                gaps = np.abs(moved[:, :, None] - self.near).min(axis=(1, 2))
-                if self.carries_hydrogen:
-                    # The hydrogen it brings needs room too, though less than a whole molecule.
-                    brought = np.abs((target_array - np.array(directions, dtype=complex))[:, None] - self.near)
-                    gaps = np.minimum(gaps, brought.min(axis=1) + _CLEARANCE - _HYDROGEN_ROOM)
-                gaps = gaps.tolist()
-            else:
-                gaps = [9.0] * len(targets)
-            self.done += zip(gaps, moved, directions, rotations, targets)
+            directions, rotations, targets, moved = self.spots(len(self.done), len(self.done) + self.batch)
+            self.done += zip(self.gaps(moved, targets, directions), moved, directions, rotations, targets.tolist())
         return self.done[index]
+
+    def spots(self, first: int, last: int) -> tuple[list[complex], list[complex], np.ndarray, np.ndarray]:
+        """Directions, rotations, targets and moved atoms of options first..last-1."""
+        directions, rotations, targets = [], [], []
+        for _, turn, spin, extra in self.options[first:last]:
+            if turn not in self.turned:     # a handful of turns, shared by many options
+                direction = self.u * _rotor(turn, 9)
+                self.turned[turn] = (direction, _unit(-direction / self.v))
+            direction, facing = self.turned[turn]
+            directions.append(direction)
+            rotations.append(facing * _rotor(spin, 6))
+            targets.append(self.anchor_at + direction * (self.distance + extra))
+        target_array, rotation_array = np.array(targets, dtype=complex), np.array(rotations, dtype=complex)
+        return directions, rotations, target_array, target_array[:, None] + self.local[None, :] * rotation_array[:, None]
+
+    def gaps(self, moved: np.ndarray, targets: np.ndarray, directions: list[complex]) -> list[float]:
+        """Each placement's nearest approach to the atoms around (rows of `moved`)."""
+        if not len(self.near):
+            return [9.0] * len(moved)
+        gaps = np.abs(moved[:, :, None] - self.near).min(axis=(1, 2))
+        if self.carries_hydrogen:
+            # The hydrogen it brings needs room too, though less than a whole molecule.
+            brought = np.abs((targets - np.array(directions, dtype=complex))[:, None] - self.near)
+            gaps = np.minimum(gaps, brought.min(axis=1) + _CLEARANCE - _HYDROGEN_ROOM)
+        return gaps.tolist()
 
 
 @dataclass
@@ -1089,9 +1095,7 @@ class _LayoutBuilder:
         keys = list(cluster.local)
         wider = _Placements(_PARTNER_OPTIONS, placements.u, placements.v, placements.anchor_at, placements.distance,
                             placements.local, placements.near, placements.carries_hydrogen)
-        wider.batch = len(_PARTNER_OPTIONS)     # every one is looked at: one batch
-        wider.at(len(_PARTNER_OPTIONS) - 1)
-        moved_all = np.array([d[1] for d in wider.done])                 # (options, atoms)
+        directions, rotations, targets, moved_all = wider.spots(0, len(_PARTNER_OPTIONS))   # (options, atoms)
         # The hop that places it counts as much as the others; squared, so two hops share the
         # stretch rather than one taking all of it. Partner by partner over every option at once,
         # in the order and with the arithmetic of a plain loop (np.hypot is Python's abs).
@@ -1103,9 +1107,13 @@ class _LayoutBuilder:
             room &= reach >= PARTNER_REACH[0]      # else no room for the hydrogen between them
             miss = miss + np.maximum(0.0, reach - PARTNER_REACH[1]) ** 2
         score = _PARTNER_PREFERENCE + 30.0 * miss
-        # The cheapest first; the clearance tests cost more. Equal scores keep the options' order.
+        # The cheapest first; the clearance tests cost more, so they run on one spot at a time.
+        # Equal scores keep the options' order.
         for option in sorted(np.flatnonzero(room).tolist(), key=lambda o: score[o]):
-            gap, moved, direction, rotation, target = wider.done[option]
+            one = slice(option, option + 1)
+            gap, = wider.gaps(moved_all[one], targets[one], directions[one])
+            moved, direction, rotation = moved_all[option], directions[option], rotations[option]
+            target = complex(targets[option])   # Python's complex arithmetic from here, as for every placement
             if (gap >= _CLEARANCE and not _blocked(placements, target, direction, walls)
                     and not any(_inside(complex(p), poly) for p in moved for poly in polygons)):
                 return ((_CLEARANCE, True), rotation, target - cluster.local[mover] * rotation, direction)
