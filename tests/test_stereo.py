@@ -114,6 +114,51 @@ def test_a_charge_that_cannot_reach_both_branches_leaves_the_centre():
     assert len(stereo_elements(Chem.MolFromSmiles("C[NH2+]C(C)([O-])Cl"))) == 1
 
 
+SNAR = """\
+species arene = "[F:1][c:2]1[cH:3][cH:4][c:5]([N+:6](=[O:7])[O-:8])[cH:9][cH:10]1"
+species nucleophile = "C[O-:11]"
+step "addition"
+    :O11 -> C2
+    C2=C3 -> C3=C4
+    C4=C5 -> C5=N6
+    N6=O7 -> O7
+end
+step "elimination"
+    :O7 -> N6=O7
+    C5=N6 -> C4=C5
+    C3=C4 -> C2=C3
+    C2-F1 -> F1
+    releases F1
+end
+product "COc1ccc([N+](=O)[O-])cc1"
+"""
+
+
+def test_the_meisenheimer_complex_has_no_stereocentre():
+    """The sp3 ring carbon of the Meisenheimer complex (methoxide on 4-fluoronitrobenzene, the
+    textbook SNAr mechanism, common practice) carries two equal ring branches and no partner
+    across the ring: RDKit's stereoisomer enumeration (EnumerateStereoisomers, the judge) finds
+    one isomer, and the check reports no stereo change."""
+    complex_ = "COC1(F)C=CC(=[N+]([O-])[O-])C=C1"
+    assert rdkit_count(complex_) == 1
+    assert stereo_elements(Chem.MolFromSmiles(complex_)) == frozenset()
+    _, diags = check_text(SNAR)
+    assert [d for d in diags if d.severity == "error"] == []
+    assert [d for d in diags if d.code == "AR602"] == []
+
+
+@pytest.mark.parametrize("smiles, centres", [
+    ("CC1CCC(C)CC1", 2),                    # cis/trans-1,4-dimethylcyclohexane: ring stereo
+    ("OC(=O)C(O)C(O)C(O)C(=O)O", 3),        # 2,3,4-trihydroxyglutaric acid: C3 pseudo-asymmetric
+])
+def test_centres_with_equal_branches_that_are_stereogenic_stay(smiles, centres):
+    """Two equal branches on a centre still allow stereoisomers when another element pairs
+    with it (textbook: cis/trans ring isomers, pseudo-asymmetric centres; RDKit's enumeration
+    counts more than one isomer)."""
+    assert rdkit_count(smiles) > 1
+    assert len([e for e in stereo_elements(Chem.MolFromSmiles(smiles)) if e.kind == CENTRE]) == centres
+
+
 @pytest.mark.parametrize("a, b, expected", [
     ("C[C@H](O)CC", "C[C@@H](O)CC", "enantiomers"),                      # (R)/(S)-butan-2-ol
     ("C[C@H](O)[C@@H](C)CC", "C[C@@H](O)[C@@H](C)CC", "diastereomers"),  # one of two centres inverted

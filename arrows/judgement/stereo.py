@@ -61,7 +61,40 @@ def _elements(view: Perceived) -> frozenset[StereoElement]:
     if centres and _may_delocalize(plain):
         lost = _lost_by_resonance(plain, [view.position(e.atoms[0]) for e in centres])
         found -= {e for e in centres if view.position(e.atoms[0]) in lost}
+    found -= _without_stereoisomers(plain, view, [e for e in found if e.kind == CENTRE], found)
     return frozenset(found)
+
+
+def _without_stereoisomers(plain: Chem.Mol, view: Perceived, centres: list[StereoElement],
+                           found: set[StereoElement]) -> set[StereoElement]:
+    """The elements of a fragment that has only one stereoisomer after all. RDKit offers a ring
+    carbon with two equal ring branches as possibly stereogenic (right for cis- and
+    trans-1,4-dimethylcyclohexane, wrong for the Meisenheimer complex of an aromatic substitution,
+    whose sp3 carbon has no partner across the ring). Only fragments with such a centre, two of
+    whose neighbours RDKit ranks alike, are enumerated (stereoisomer_count): one isomer means none
+    of the fragment's elements is stereogenic."""
+    if not centres:
+        return set()
+    ranks = list(Chem.CanonicalRankAtoms(plain, breakTies=False, includeAtomMaps=False))
+    suspects = []
+    for e in centres:
+        position = view.position(e.atoms[0])
+        neighbours = [ranks[n.GetIdx()] for n in plain.GetAtomWithIdx(position).GetNeighbors()]
+        if len(set(neighbours)) < len(neighbours):
+            suspects.append(position)
+    dropped: set[StereoElement] = set()
+    if not suspects:
+        return dropped
+    for fragment in Chem.GetMolFrags(plain, asMols=False, sanitizeFrags=False):
+        if not set(fragment) & set(suspects):
+            continue
+        mol = Chem.RWMol(plain)
+        for i in sorted(set(range(plain.GetNumAtoms())) - set(fragment), reverse=True):
+            mol.RemoveAtom(i)
+        if stereoisomer_count(mol.GetMol()) == 1:
+            members = {view.original[i] for i in fragment}
+            dropped |= {e for e in found if e.atoms[0] in members}
+    return dropped
 
 
 def _may_delocalize(mol: Chem.Mol) -> bool:
