@@ -20,7 +20,7 @@ from arrows.checks.stereo import final_stereo, step_stereo
 from arrows.cli import cli
 from arrows.judgement.stereo import CENTRE, DOUBLE_BOND, relation, stereo_elements
 
-from textbook_mechanisms import NITRATION
+from textbook_mechanisms import NITRATION, SNAR
 
 GALLERY = sorted((Path(__file__).resolve().parent.parent / "gallery").glob("*.mech"))
 
@@ -112,26 +112,6 @@ def test_a_charge_that_cannot_reach_both_branches_leaves_the_centre():
     sp3 carbon with a methyl and a chlorine) is a stereocentre: four different groups, and no
     charge moves between them (textbook addition-elimination, common practice)."""
     assert len(stereo_elements(Chem.MolFromSmiles("C[NH2+]C(C)([O-])Cl"))) == 1
-
-
-SNAR = """\
-species arene = "[F:1][c:2]1[cH:3][cH:4][c:5]([N+:6](=[O:7])[O-:8])[cH:9][cH:10]1"
-species nucleophile = "C[O-:11]"
-step "addition"
-    :O11 -> C2
-    C2=C3 -> C3=C4
-    C4=C5 -> C5=N6
-    N6=O7 -> O7
-end
-step "elimination"
-    :O7 -> N6=O7
-    C5=N6 -> C4=C5
-    C3=C4 -> C2=C3
-    C2-F1 -> F1
-    releases F1
-end
-product "COc1ccc([N+](=O)[O-])cc1"
-"""
 
 
 def test_the_meisenheimer_complex_has_no_stereocentre():

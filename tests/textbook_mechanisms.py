@@ -2,7 +2,8 @@
 reaction (common practice in organic chemistry texts; the products are the textbook outcomes,
 from memory). They reach what the gallery does not: phosphorus and magnesium, a four-membered
 ring that opens again, a three-membered ring between two species, a ring that grows, a 1,2-shift,
-a [3,3] shift, a four-centre addition, an aromatic substitution.
+a [3,3] shift, a four-centre addition, aromatic substitutions (electrophilic and nucleophilic),
+a 1,3-dipolar cycloaddition, an enol halogenation.
 
 Each entry: (mechanism text, textbook product SMILES, drawn): `drawn` says whether the geometry
 tests draw it (the nitration is left out: its nitronium changes from linear to bent within one
@@ -148,6 +149,55 @@ end
 product "O=[N+]([O-])c1ccccc1"
 '''
 
+# SNAr: methoxide adds to 4-fluoronitrobenzene (the Meisenheimer complex, charge on the nitro
+# group), then fluoride leaves.
+SNAR = '''\
+species arene = "[F:1][c:2]1[cH:3][cH:4][c:5]([N+:6](=[O:7])[O-:8])[cH:9][cH:10]1"
+species nucleophile = "C[O-:11]"
+step "addition"
+    :O11 -> C2
+    C2=C3 -> C3=C4
+    C4=C5 -> C5=N6
+    N6=O7 -> O7
+end
+step "elimination"
+    :O7 -> N6=O7
+    C5=N6 -> C4=C5
+    C3=C4 -> C2=C3
+    C2-F1 -> F1
+    releases F1
+end
+product "COc1ccc([N+](=O)[O-])cc1"
+'''
+
+# Ozonolysis, first step: ozone adds to ethene as a 1,3-dipole (the primary ozonide).
+OZONE_CYCLOADDITION = '''\
+species ozone = "[O:1]=[O+:2][O-:3]"
+species ethene = "[CH2:4]=[CH2:5]"
+step "1,3-dipolar cycloaddition"
+    :O3 -> C4
+    C4=C5 -> C5-O1
+    O1=O2 -> O2
+end
+product "C1COOO1"
+'''
+
+# Acid-catalysed alpha-bromination of acetone, from the enol.
+ENOL_BROMINATION = '''\
+species enol = "[CH2:1]=[C:2](C)[OH:3]"
+species bromine = "[Br:4][Br:5]"
+step "attack on bromine"
+    C1=C2 -> C1-Br4
+    :O3 -> C2=O3
+    Br4-Br5 -> Br5
+end
+step "deprotonation"
+    :Br5 -> H(O3)
+    O3-H -> O3
+end
+product "CC(=O)CBr.Br"
+'''
+
 TEXTBOOK = {
     "wittig": (WITTIG, "C=C(C)C.O=P(c1ccccc1)(c1ccccc1)c1ccccc1", True),
     "bromination": (BROMINATION, "BrC1CCCCC1Br", True),
@@ -158,4 +208,7 @@ TEXTBOOK = {
     "hydroboration": (HYDROBORATION, "CCCB", True),
     "fischer esterification": (FISCHER_ESTERIFICATION, "COC(C)=O", True),
     "nitration": (NITRATION, "O=[N+]([O-])c1ccccc1", False),
+    "snar": (SNAR, "COc1ccc([N+](=O)[O-])cc1", True),
+    "ozone cycloaddition": (OZONE_CYCLOADDITION, "C1COOO1", True),
+    "enol bromination": (ENOL_BROMINATION, "CC(=O)CBr.Br", True),
 }
