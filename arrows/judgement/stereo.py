@@ -43,14 +43,16 @@ def stereo_elements(mol: Chem.Mol, view: Optional[Perceived] = None) -> frozense
 
 def _elements(view: Perceived) -> frozenset[StereoElement]:
     plain, original = view.mol, view.original
-    ranks = None     # ranked only when a double bond asks: most states have none
+    ranked: list[list[int]] = []     # ranked only when an end's two substituents are alike
+    def ranks() -> list[int]:
+        if not ranked:
+            ranked.append(list(Chem.CanonicalRankAtoms(plain, breakTies=False, includeAtomMaps=False)))
+        return ranked[0]
     found = set()
     for info in Chem.FindPotentialStereo(plain, cleanIt=True):
         if info.type == Chem.StereoType.Atom_Tetrahedral:
             found.add(StereoElement(CENTRE, (original[info.centeredOn],)))
         elif info.type == Chem.StereoType.Bond_Double:
-            if ranks is None:
-                ranks = list(Chem.CanonicalRankAtoms(plain, breakTies=False, includeAtomMaps=False))
             bond = plain.GetBondWithIdx(info.centeredOn)
             if not all(_distinct_ends(plain, ranks, a, bond.GetOtherAtomIdx(a))
                        for a in (bond.GetBeginAtomIdx(), bond.GetEndAtomIdx())):
@@ -61,12 +63,12 @@ def _elements(view: Perceived) -> frozenset[StereoElement]:
     if centres and _may_delocalize(plain):
         lost = _lost_by_resonance(plain, [view.position(e.atoms[0]) for e in centres])
         found -= {e for e in centres if view.position(e.atoms[0]) in lost}
-    found -= _without_stereoisomers(plain, view, [e for e in found if e.kind == CENTRE], found)
+    found -= _without_stereoisomers(plain, view, [e for e in found if e.kind == CENTRE], found, ranks)
     return frozenset(found)
 
 
 def _without_stereoisomers(plain: Chem.Mol, view: Perceived, centres: list[StereoElement],
-                           found: set[StereoElement]) -> set[StereoElement]:
+                           found: set[StereoElement], ranks) -> set[StereoElement]:
     """The elements of a fragment that has only one stereoisomer after all. RDKit offers a ring
     carbon with two equal ring branches as possibly stereogenic (right for cis- and
     trans-1,4-dimethylcyclohexane, wrong for the Meisenheimer complex of an aromatic substitution,
@@ -75,11 +77,11 @@ def _without_stereoisomers(plain: Chem.Mol, view: Perceived, centres: list[Stere
     of the fragment's elements is stereogenic."""
     if not centres:
         return set()
-    ranks = list(Chem.CanonicalRankAtoms(plain, breakTies=False, includeAtomMaps=False))
+    rank = ranks()
     suspects = []
     for e in centres:
         position = view.position(e.atoms[0])
-        neighbours = [ranks[n.GetIdx()] for n in plain.GetAtomWithIdx(position).GetNeighbors()]
+        neighbours = [rank[n.GetIdx()] for n in plain.GetAtomWithIdx(position).GetNeighbors()]
         if len(set(neighbours)) < len(neighbours):
             suspects.append(position)
     dropped: set[StereoElement] = set()
@@ -132,13 +134,24 @@ def _lost_by_resonance(mol: Chem.Mol, centres: list[int]) -> set[int]:
     return lost
 
 
-def _distinct_ends(mol: Chem.Mol, ranks: list[int], atom: int, partner: int) -> bool:
+def _distinct_ends(mol: Chem.Mol, ranks, atom: int, partner: int) -> bool:
     """An end of a stereogenic double bond carries two different substituents, or one (the other
     place taken by a lone pair, as on an imine nitrogen). RDKit also offers C=O+H with two equal
-    groups on carbon (RDKit 2026.09); this filter drops those."""
+    groups on carbon (RDKit 2026.09); this filter drops those. `ranks()` gives RDKit's symmetry
+    ranks, asked for only when two substituents are of one element."""
     a = mol.GetAtomWithIdx(atom)
-    others = [ranks[n.GetIdx()] for n in a.GetNeighbors() if n.GetIdx() != partner] + [-1] * a.GetTotalNumHs()
-    return len(others) == 1 or len(set(others)) == len(others)
+    neighbours = [n for n in a.GetNeighbors() if n.GetIdx() != partner]
+    hydrogens = a.GetTotalNumHs()
+    if len(neighbours) + hydrogens <= 1:
+        return True
+    if hydrogens > 1:
+        return False
+    elements = [n.GetAtomicNum() for n in neighbours] + [1] * hydrogens
+    if len(set(elements)) == len(elements):
+        return True     # different elements cannot be equal groups
+    rank = ranks()
+    others = [rank[n.GetIdx()] for n in neighbours] + [-1] * hydrogens
+    return len(set(others)) == len(others)
 
 
 MAX_ENUMERATED = 12     # stereo elements; beyond that the count is the upper bound 2**n
@@ -191,7 +204,7 @@ def _stereogenic_bond(mol: Chem.Mol, ranks: list[int], info) -> bool:
     a, b = bond.GetBeginAtomIdx(), bond.GetEndAtomIdx()
     if mol.GetAtomWithIdx(a).GetDegree() < 2 or mol.GetAtomWithIdx(b).GetDegree() < 2:
         return False
-    return _distinct_ends(mol, ranks, a, b) and _distinct_ends(mol, ranks, b, a)
+    return _distinct_ends(mol, lambda: ranks, a, b) and _distinct_ends(mol, lambda: ranks, b, a)
 
 
 def _assign(mol: Chem.RWMol, info, bit: bool) -> None:
