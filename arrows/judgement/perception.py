@@ -76,15 +76,22 @@ class RecentViews:
     def __init__(self, keep: int = 4):
         self.keep = keep
         self._views: dict[int, tuple[ElectronState, Perceived]] = {}
+        self._heavy: tuple[tuple[int, ...], tuple[int, ...]] = ((), ())   # (elements, heavy atom indices)
 
     def of(self, state: ElectronState) -> Perceived:
         key = id(state)
         entry = self._views.get(key)
         if entry is None:
             # The state is held with its view, so its id cannot be reused while the entry lives.
-            heavy = tuple(i for i, z in enumerate(state.elements) if z != 1)
-            entry = (state, perceive(state.mol, heavy=heavy))
+            entry = (state, perceive(state.mol, heavy=self._heavy_atoms(state.elements)))
             self._views[key] = entry
             if len(self._views) > self.keep:
                 del self._views[next(iter(self._views))]
         return entry[1]
+
+    def _heavy_atoms(self, elements: tuple[int, ...]) -> tuple[int, ...]:
+        """Steps pass one elements tuple on from state to state (atoms only change with `uses`):
+        the heavy atoms are found again only when it changes."""
+        if self._heavy[0] is not elements:
+            self._heavy = (elements, tuple(i for i, z in enumerate(elements) if z != 1))
+        return self._heavy[1]
