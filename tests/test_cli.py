@@ -343,3 +343,27 @@ def test_help_lists_every_command_in_one_whole_line():
     assert sorted(name for name, _ in listed) == sorted(COMMANDS)
     assert all(summary.endswith(".") and "..." not in summary for _, summary in listed)
     assert {m for m in sys.modules if m.startswith("arrows.commands.")} == before
+
+
+def test_explain_gives_every_code_an_example():
+    """`arrows explain CODE` says what the code means and shows a small example, for every code
+    (the core issue asks for both); text lines stay within 88 columns."""
+    from arrows.diagnostics import CODES
+    for code in CODES:
+        result = CliRunner().invoke(cli, ["explain", code])
+        assert result.exit_code == 0
+        assert "\nExample:\n    " in result.output, code
+        explanation = result.output.split("\n\n")[1]
+        assert max(len(line) for line in explanation.splitlines()) <= 88, code
+
+
+def test_whole_mechanism_examples_give_their_own_code():
+    """An example written as a whole mechanism (it starts with `species` and leaves nothing out)
+    gives exactly its own code when checked, and no other error or warning."""
+    from arrows import check_text
+    from arrows.diagnostics import CODES
+    whole = [c for c in CODES.values() if c.example.startswith("species") and "..." not in c.example]
+    assert len(whole) >= 6
+    for c in whole:
+        _, diags = check_text(c.example, "example.mech")
+        assert {d.code for d in diags if d.severity != "note"} == {c.code}, c.code

@@ -2,6 +2,7 @@
 from __future__ import annotations
 
 import sys
+import textwrap
 
 import click
 
@@ -20,6 +21,6 @@ def explain_command(code):
     if entry is None:
         click.echo(f"unknown code {code!r}; `arrows explain` lists them all", err=True)
         sys.exit(2)
-    click.echo(f"{entry.code} ({entry.severity}): {entry.title}\n\n{entry.explanation}")
+    click.echo(f"{entry.code} ({entry.severity}): {entry.title}\n\n{textwrap.fill(entry.explanation, 88)}")
     if entry.example:
         click.echo("\nExample:\n" + "\n".join("    " + line for line in entry.example.splitlines()))
