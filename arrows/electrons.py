@@ -528,6 +528,7 @@ def _settle(state: ElectronState, step: Step, step_index: int, replay: _StepRepl
 
     touched = sorted(set(replay.d_nonbonding) | {i for key in new_bonds for i in key})
     change.touched_atoms = touched
+    _forget_configuration(work, new_bonds)
     valence, elements, old_nonbonding = state.valence, state.elements, state.nonbonding
     for i in touched:
         bonds = bond_sums[i]
@@ -561,6 +562,21 @@ def _settle(state: ElectronState, step: Step, step_index: int, replay: _StepRepl
                                 "check charges and bond orders with `arrows trace`", step=step_index))
         return None, change, diags
     return ElectronState(work, tuple(nonbonding), state.released, valence, tuple(bond_sums), elements), change, diags
+
+
+def _forget_configuration(mol: Chem.RWMol, changed: dict[Pair, int]) -> None:
+    """A configuration written in a species (@, @@, / and \\) holds only while the step leaves the
+    bonds that define it alone: the bookkeeping follows electrons, not geometry, so whether a new
+    bond comes in with inversion or retention is not known. An atom that gains or loses a bond
+    loses its tag, and so does every double bond at an atom whose bonds change."""
+    atoms = {i for key in changed for i in key}
+    for i in atoms:
+        atom = mol.GetAtomWithIdx(i)
+        if atom.GetChiralTag() != Chem.ChiralType.CHI_UNSPECIFIED:
+            atom.SetChiralTag(Chem.ChiralType.CHI_UNSPECIFIED)
+        for bond in atom.GetBonds():
+            if bond.GetStereo() != Chem.BondStereo.STEREONONE:
+                bond.SetStereo(Chem.BondStereo.STEREONONE)
 
 
 def _first_move_touching(step: Step, replay: _StepReplay, atom: int) -> Location:

@@ -192,3 +192,20 @@ def test_check_does_not_import_the_embedding_code():
             "print('rdkit.Chem.rdDistGeom' in sys.modules, 'numpy' in sys.modules)")
     out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, check=True).stdout
     assert out.split() == ["False", "False"]
+
+
+def test_a_step_forgets_only_the_configuration_of_atoms_whose_bonds_change():
+    """Cyanide displaces bromide at C1 of (2S,3S)-3-bromobutan-2-ol. Whether the new C-C bond comes
+    in with inversion (SN2) or not is chemistry the bookkeeping does not follow, so C1 leaves the
+    step unspecified; the carbinol carbon, whose bonds do not change, keeps its configuration.
+    RDKit's stereo perception on the derived state is the judge."""
+    text = ('species substrate = "C[C@H:1]([Br:3])[C@@H:4](C)O"\nspecies cyanide = "[C-:2]#N"\n'
+            'step "displacement"\n    :C2 -> C1\n    C1-Br3 -> Br3\nend\n')
+    trace, diags = check_text(text)
+    assert [d for d in diags if d.severity == "error"] == []
+    mol = Chem.Mol(trace.final.mol)
+    Chem.SanitizeMol(mol)
+    specified = {info.centeredOn: info.specified == Chem.StereoSpecified.Specified
+                 for info in Chem.FindPotentialStereo(mol) if info.type == Chem.StereoType.Atom_Tetrahedral}
+    by_map = {a.GetAtomMapNum(): a.GetIdx() for a in trace.final.mol.GetAtoms() if a.GetAtomMapNum()}
+    assert specified == {by_map[1]: False, by_map[4]: True}
