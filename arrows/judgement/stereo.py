@@ -120,7 +120,11 @@ def _lost_by_resonance(mol: Chem.Mol, centres: list[int]) -> set[int]:
     if not tested:
         return set()
     lost: set[int] = set()
-    for structure in Chem.ResonanceMolSupplier(mol, 0, _MAX_RESONANCE):
+    try:
+        structures = list(Chem.ResonanceMolSupplier(mol, 0, _MAX_RESONANCE))
+    except Exception:   # RDKit cannot enumerate an odd intermediate: keep what it perceived
+        return lost
+    for structure in structures:
         if structure is None:
             continue
         work = Chem.Mol(structure)
