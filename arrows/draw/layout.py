@@ -31,6 +31,7 @@ from rdkit import Chem
 from rdkit.Chem import rdDepictor
 
 from ..electrons import ElectronState, ResolvedMove
+from ..rdkit_io import bond_list
 
 # Gap between a transferred hydrogen and the atom that takes it, in bond lengths: room for a
 # curved arrow, close enough to read as one event.
@@ -119,11 +120,11 @@ def _rdkit_depictor() -> Iterator[None]:
 
 def moving_hydrogens(states: Sequence[ElectronState], moves: Iterable[ResolvedMove]) -> frozenset[int]:
     """Hydrogen atoms that some move names: these are drawn; every other hydrogen is implicit."""
-    mol = max(states, key=lambda s: s.mol.GetNumAtoms()).mol
+    elements = max(states, key=lambda s: len(s.elements)).elements
     out = set()
     for move in moves:
         for i in move.source_atoms + move.sink_atoms:
-            if i < mol.GetNumAtoms() and mol.GetAtomWithIdx(i).GetAtomicNum() == 1:
+            if i < len(elements) and elements[i] == 1:
                 out.add(i)
     return frozenset(out)
 
@@ -151,17 +152,23 @@ def free_direction(centre: complex, others: Sequence[complex], prefer: Optional[
     return cmath.rect(1.0, best_mid)
 
 
-def _joining(before: ElectronState, after: ElectronState) -> set[int]:
-    """Atoms of the separate molecules that become one in the step from `before` to `after`
-    (a nucleophile and the carbonyl it adds to; not two partners of a proton transfer, which
-    stay apart). Such a molecule may move as a whole between the two panels."""
+def _molecules(state: ElectronState) -> tuple[tuple[int, ...], ...]:
+    """The atoms of each separate molecule of a state."""
+    return Chem.GetMolFrags(state.mol, asMols=False, sanitizeFrags=False)
+
+
+def _joining(before: ElectronState, before_molecules: Sequence[Sequence[int]],
+             after_molecules: Sequence[Sequence[int]]) -> set[int]:
+    """Atoms of the separate molecules that become one in the step from `before` to the state
+    after it (a nucleophile and the carbonyl it adds to; not two partners of a proton transfer,
+    which stay apart). Such a molecule may move as a whole between the two panels."""
     molecule = {}
-    for number, frag in enumerate(Chem.GetMolFrags(before.mol, asMols=False, sanitizeFrags=False)):
+    for number, frag in enumerate(before_molecules):
         for atom in frag:
             molecule[atom] = number
     heavy = {i for i, z in enumerate(before.elements) if z != 1}
     out: set[int] = set()
-    for frag in Chem.GetMolFrags(after.mol, asMols=False, sanitizeFrags=False):
+    for frag in after_molecules:
         parts = {molecule[a] for a in frag if a in heavy}
         if len(parts) > 1:
             out |= {a for a, number in molecule.items() if number in parts}
@@ -191,6 +198,11 @@ def _aligned(moving: dict[int, complex], fixed: dict[int, complex], anchors: lis
 
 def _unit(z: complex) -> complex:
     return z / abs(z) if abs(z) > 1e-12 else 1 + 0j
+
+
+def _distance(a: list[float], b: list[float]) -> float:
+    dx, dy, dz = a[0] - b[0], a[1] - b[1], a[2] - b[2]
+    return math.sqrt(dx * dx + dy * dy + dz * dz)
 
 
 def _blocked(placements: "_Placements", target: complex, direction: complex, walls: np.ndarray) -> bool:
@@ -310,17 +322,21 @@ class _Cluster:
 
 
 def compute_layout(states: Sequence[ElectronState], moves: Sequence[Sequence[ResolvedMove]],
-                   touched: Sequence[Iterable[int]], left_out: Sequence[Iterable[int]] = ()) -> Layout:
+                   touched: Sequence[Iterable[int]], left_out: Sequence[Iterable[int]] = (),
+                   bonds: Optional[Sequence[list[tuple[int, int, float]]]] = None) -> Layout:
     """Positions for the atoms of every state. `moves[k]` are the moves drawn on panel k,
     `touched[k]` the atoms the step leaving panel k changes (empty for the last panel) and
     `left_out[k]` atoms panel k does not draw (a spectator between its turns): a species is
-    free to move while it is not drawn."""
-    return _LayoutBuilder(states, moves, touched, left_out).build()
+    free to move while it is not drawn. `bonds[k]` are state k's bonds as rdkit_io.bond_list
+    reads them (read here when not given)."""
+    with _rdkit_depictor():
+        return _LayoutBuilder(states, moves, touched, left_out, bonds).build()
 
 
 class _LayoutBuilder:
     def __init__(self, states: Sequence[ElectronState], moves: Sequence[Sequence[ResolvedMove]],
-                 touched: Sequence[Iterable[int]], left_out: Sequence[Iterable[int]] = ()):
+                 touched: Sequence[Iterable[int]], left_out: Sequence[Iterable[int]] = (),
+                 bonds: Optional[Sequence[list[tuple[int, int, float]]]] = None):
         self.states = list(states)
         self.n = len(self.states)
         self.touched = [set(t) for t in touched] + [set()] * (self.n - len(touched))
@@ -333,25 +349,27 @@ class _LayoutBuilder:
         self.exists = [(set(range(len(s.elements))) & drawn) - s.released - gone
                        for s, gone in zip(self.states, absent)]
         self.bonds_in = []      # per panel: set of (i, j) between drawn atoms
+        self.orders_in: list[dict[tuple[int, int], float]] = []   # per panel: their bond orders
         self.union: dict[tuple[int, int], int] = {}
-        for state in self.states:
-            here = set()
-            bond_at = state.mol.GetBondWithIdx    # by index: RDKit's bond iterator costs more per bond
-            for b in range(state.mol.GetNumBonds()):
-                bond = bond_at(b)
-                i, j = bond.GetBeginAtomIdx(), bond.GetEndAtomIdx()
+        for state, listed in zip(self.states, bonds or [bond_list(s.mol) for s in self.states]):
+            orders = {}
+            for i, j, order in listed:
                 if i > j:
                     i, j = j, i
                 if i in drawn and j in drawn:
-                    here.add((i, j))
-                    self.union[(i, j)] = max(self.union.get((i, j), 0), int(bond.GetBondTypeAsDouble()))
-            self.bonds_in.append(here)
+                    orders[(i, j)] = order
+                    self.union[(i, j)] = max(self.union.get((i, j), 0), int(order))
+            self.orders_in.append(orders)
+            self.bonds_in.append(set(orders))
         self.neighbours: dict[int, set[int]] = {i: set() for i in self.atoms}
         for i, j in self.union:
             self.neighbours[i].add(j)
             self.neighbours[j].add(i)
         self.positions: list[dict[int, complex]] = [dict() for _ in range(self.n)]
-        self.joining = [_joining(self.states[k], self.states[k + 1]) for k in range(self.n - 1)] + [set()]
+        self.molecules = [_molecules(state) for state in self.states]
+        self.joining = [_joining(self.states[k], self.molecules[k], self.molecules[k + 1])
+                        for k in range(self.n - 1)] + [set()]
+        self.sp_atoms: dict[int, bool] = {}    # _linear's answers, asked again and again
 
     # structure of the problem
     def build(self) -> Layout:
@@ -632,8 +650,7 @@ class _LayoutBuilder:
             # The molecules of the panel before the ring is complete: two of them, bonded to each
             # other by two of the ring's bonds, are partners held apart until they meet.
             molecule = {}
-            for number, frag in enumerate(Chem.GetMolFrags(self.states[first - 1].mol, asMols=False,
-                                                           sanitizeFrags=False)):
+            for number, frag in enumerate(self.molecules[first - 1]):
                 molecule.update((a, number) for a in frag)
             ring_atoms = {a for bond in ring for a in bond}
             numbers = sorted({molecule[a] for a in ring_atoms if a in molecule})
@@ -763,30 +780,25 @@ class _LayoutBuilder:
             if self._linear(atom):
                 mol.GetAtomWithIdx(index[atom]).SetHybridization(Chem.HybridizationType.SP)
         self.rings += [ring for ring in ([group[k] for k in r] for r in Chem.GetSymmSSSR(mol)) if ring not in self.rings]
-        with _rdkit_depictor():
-            rdDepictor.Compute2DCoords(mol, canonOrient=True)
+        rdDepictor.Compute2DCoords(mol, canonOrient=True)   # compute_layout chose RDKit's own depictor
         # All positions in one call: asking the conformer atom by atom costs more than the sums.
-        xyz = mol.GetConformer().GetPositions()
-        ends = np.array(ends, dtype=int).reshape(-1, 2)
-        d = xyz[ends[:, 0]] - xyz[ends[:, 1]]
-        lengths = np.sqrt(d[:, 0] * d[:, 0] + d[:, 1] * d[:, 1] + d[:, 2] * d[:, 2]).tolist()
+        xyz = mol.GetConformer().GetPositions().tolist()
+        lengths = [_distance(xyz[a], xyz[b]) for a, b in ends]
         scale = 1.0 / (sum(lengths) / len(lengths)) if lengths else 1.0
-        xs, ys = xyz[:, 0].tolist(), xyz[:, 1].tolist()
+        xs, ys = [p[0] for p in xyz], [p[1] for p in xyz]
         # y is flipped: RDKit's y grows upwards, ours downwards.
         return {atom: complex(xs[k] * scale, -ys[k] * scale) for atom, k in index.items()}
 
     def _linear(self, atom: int) -> bool:
         """Two bonds, one of them triple, or both double in one state: an sp atom. (An enolate
         carbon is double-bonded to C and to O, but never at once.)"""
-        partners = [n for n in self.neighbours[atom] if self.element[n] != 1]
-        if len(partners) != 2:
-            return False
-        orders = [self.union[(min(atom, n), max(atom, n))] for n in partners]
-        if 3 in orders:
-            return True
-        return any(all(state.mol.GetBondBetweenAtoms(atom, n) is not None
-                       and state.mol.GetBondBetweenAtoms(atom, n).GetBondTypeAsDouble() == 2 for n in partners)
-                   for state in self.states if max(atom, *partners) < state.mol.GetNumAtoms())
+        if atom not in self.sp_atoms:
+            partners = [n for n in self.neighbours[atom] if self.element[n] != 1]
+            pairs = [(min(atom, n), max(atom, n)) for n in partners]
+            self.sp_atoms[atom] = len(partners) == 2 and (
+                3 in [self.union[pair] for pair in pairs]
+                or any(all(orders.get(pair) == 2 for pair in pairs) for orders in self.orders_in))
+        return self.sp_atoms[atom]
 
     def _holder(self, k: int, h: int) -> Optional[int]:
         for n in self.states[k].mol.GetAtomWithIdx(h).GetNeighbors():
