@@ -205,21 +205,19 @@ def _distance(a: list[float], b: list[float]) -> float:
     return math.sqrt(dx * dx + dy * dy + dz * dz)
 
 
-def _blocked(placements: "_Placements", target: complex, direction: complex, walls: np.ndarray) -> bool:
-    """Whether the proton-transfer arrow of a placement, from the base's atom to the hydrogen
-    it takes, would cross one of `walls` (rows of two ends): each segment has the other's ends
-    on opposite sides."""
-    if not len(walls):
-        return False
-    if placements.carries_hydrogen:
-        p, q = placements.anchor_at, target - direction
-    else:
-        p, q = target, placements.anchor_at + direction
-    a, b = walls[:, 0], walls[:, 1]
-    along = np.conj(q - p)
-    across = np.conj(b - a)
-    return bool(np.any((((a - p) * along).imag * ((b - p) * along).imag < 0)
-                       & (((p - a) * across).imag * ((q - a) * across).imag < 0)))
+def _crosses_any(p: np.ndarray, q: np.ndarray, walls: np.ndarray) -> list[bool]:
+    """For each segment p[k]-q[k]: whether it crosses one of `walls` (rows of two ends), that is,
+    each has the other's ends on opposite sides. The cross products are written out on real
+    and imaginary parts, as Python's complex arithmetic computes them, whatever the shape."""
+    px, py, qx, qy = p.real[:, None], p.imag[:, None], q.real[:, None], q.imag[:, None]
+    ax, ay, bx, by = walls[:, 0].real, walls[:, 0].imag, walls[:, 1].real, walls[:, 1].imag
+    dx, dy = qx - px, qy - py     # along p->q
+    ex, ey = bx - ax, by - ay     # along each wall
+    a_side = (ay - py) * dx - (ax - px) * dy
+    b_side = (by - py) * dx - (bx - px) * dy
+    p_side = (py - ay) * ex - (px - ax) * ey
+    q_side = (qy - ay) * ex - (qx - ax) * ey
+    return ((a_side * b_side < 0) & (p_side * q_side < 0)).any(axis=1).tolist()
 
 
 def _inside(point: complex, polygon: list[complex]) -> bool:
@@ -242,24 +240,43 @@ def _rotor(count: int, divisions: int) -> complex:
 class _Placements:
     """The ways of placing a cluster next to its anchor, in the order they are tried: for each,
     the direction from the anchor, the cluster's rotation, the target of the atom that bonds,
-    the cluster's atoms moved there and their nearest approach to the atoms around. Worked out
+    the cluster's atoms moved there, their nearest approach to the atoms around and whether the
+    arrow of a proton transfer from there would cross one of `walls` (bonds). Worked out
     in batches as the search reaches them: the first few settle most placements, and numpy's
     cost is per call."""
 
     batch = 8
 
     def __init__(self, options: list[tuple], u: complex, v: complex, anchor_at: complex, distance: float,
-                 local: np.ndarray, near: np.ndarray, carries_hydrogen: bool):
+                 local: np.ndarray, near: np.ndarray, carries_hydrogen: bool, walls: np.ndarray):
         self.options, self.u, self.v, self.anchor_at, self.distance = options, u, v, anchor_at, distance
-        self.local, self.near, self.carries_hydrogen = local, near, carries_hydrogen
-        self.done: list[tuple[float, np.ndarray, complex, complex, complex]] = []
+        self.local, self.near, self.carries_hydrogen, self.walls = local, near, carries_hydrogen, walls
+        self.done: list[tuple[float, bool, np.ndarray, complex, complex, complex]] = []
         self.turned: dict[int, tuple[complex, complex]] = {}   # turn -> (direction, rotation facing back along it)
 
-    def at(self, index: int) -> tuple[float, np.ndarray, complex, complex, complex]:
+    def like(self, options: list[tuple]) -> "_Placements":
+        """The same cluster and surroundings, tried over other options."""
+        return _Placements(options, self.u, self.v, self.anchor_at, self.distance, self.local, self.near,
+                           self.carries_hydrogen, self.walls)
+
+    def at(self, index: int) -> tuple[float, bool, np.ndarray, complex, complex, complex]:
+        """Option `index`: its gap, whether its arrow is blocked, its moved atoms, direction,
+        rotation and target."""
         while index >= len(self.done):
             directions, rotations, targets, moved = self.spots(len(self.done), len(self.done) + self.batch)
-            self.done += zip(self.gaps(moved, targets, directions), moved, directions, rotations, targets.tolist())
+            self.done += zip(self.gaps(moved, targets, directions), self.blocked(targets, directions),
+                             moved, directions, rotations, targets.tolist())
         return self.done[index]
+
+    def blocked(self, targets: np.ndarray, directions: list[complex]) -> list[bool]:
+        """Whether the proton-transfer arrow of each placement, from the base's atom to the
+        hydrogen it takes, would cross one of the walls."""
+        if not len(self.walls):
+            return [False] * len(targets)
+        ahead = np.array(directions, dtype=complex)
+        if self.carries_hydrogen:
+            return _crosses_any(np.full(len(targets), self.anchor_at), targets - ahead, self.walls)
+        return _crosses_any(targets, self.anchor_at + ahead, self.walls)
 
     def spots(self, first: int, last: int) -> tuple[list[complex], list[complex], np.ndarray, np.ndarray]:
         """Directions, rotations, targets and moved atoms of options first..last-1."""
@@ -592,6 +609,7 @@ class _LayoutBuilder:
                 if n not in self.bridging:
                     everything.join(h, n)
         self.rings: list[list[int]] = []
+        self.rings_bonded: dict[int, list[list[int]]] = {}   # panel -> the rings whose bonds all exist there
         self.clusters = [_Cluster(g, self._depict(g)) for g in everything.groups()]
         for cluster in self.clusters:
             if not self._even(cluster.local, cluster.atoms, range(self.n)):
@@ -959,12 +977,10 @@ class _LayoutBuilder:
     def _closed_rings(self, k: int) -> list[list[int]]:
         """Rings of the depiction whose every bond exists in panel k (an open ring's mouth is
         free space)."""
-        out = []
-        for ring in self.rings:
-            if all(a in self.positions[k] for a in ring) and all(
-                    (min(a, b), max(a, b)) in self.bonds_in[k] for a, b in zip(ring, ring[1:] + ring[:1])):
-                out.append(ring)
-        return out
+        if k not in self.rings_bonded:   # the rings and bonds are settled before any placement asks
+            self.rings_bonded[k] = [ring for ring in self.rings if all(
+                (min(a, b), max(a, b)) in self.bonds_in[k] for a, b in zip(ring, ring[1:] + ring[:1]))]
+        return [ring for ring in self.rings_bonded[k] if all(a in self.positions[k] for a in ring)]
 
     def _occupied_around(self, atom: int, k: int, hydrogen: Optional[int] = None) -> list[complex]:
         """Positions around `atom` in panel k that a new neighbour must avoid: its union
@@ -1009,18 +1025,17 @@ class _LayoutBuilder:
         local = np.array(list(cluster.local.values()), dtype=complex) - cluster.local[mover]
         options = _BOND_OPTIONS if kind == "bond" else _HOP_OPTIONS
         hydrogen_on_mover = hydrogen is not None and kind == "hop" and self._holder(k, hydrogen) == mover
-        placements = _Placements(options, u, v, anchor_at, distance, local, near, hydrogen_on_mover)
-        best = None
         # For a hop, a spot from which the arrow to the anchor's side crosses no bond is preferred.
         walls = self._walls(segment, anchor, set(cluster.atoms)) if kind == "hop" else np.zeros((0, 2), dtype=complex)
+        placements = _Placements(options, u, v, anchor_at, distance, local, near, hydrogen_on_mover, walls)
+        best = None
         round_about = None
         partners = self._other_hops(index, segment, k, hydrogen) if kind == "hop" else []
         if partners:
-            best = self._nearest_to_partners(cluster, mover, placements, polygons, partners, walls)
+            best = self._nearest_to_partners(cluster, mover, placements, polygons, partners)
         # In order of preference; the first that keeps its distance from everything wins.
         for option in range(len(options) if best is None else 0):
-            gap, moved, direction, rotation, target = placements.at(option)
-            blocked = _blocked(placements, target, direction, walls)
+            gap, blocked, moved, direction, rotation, target = placements.at(option)
             if best is not None and (min(gap, _CLEARANCE), not blocked) <= best[0]:
                 continue
             if any(_inside(complex(p), poly) for p in moved for poly in polygons):
@@ -1029,7 +1044,7 @@ class _LayoutBuilder:
             if gap >= _CLEARANCE and not blocked:
                 break
         if len(walls) and (best is None or best[0] != (_CLEARANCE, True)):
-            round_about = self._clear_way_round(cluster, mover, anchor, hydrogen, segment, placements, polygons, walls)
+            round_about = self._clear_way_round(cluster, mover, hydrogen, segment, placements, polygons)
             best = round_about or best
         if best is None:
             direction = u
@@ -1044,23 +1059,20 @@ class _LayoutBuilder:
         if hydrogen is not None:
             self._promise(hydrogen, anchor, k, direction, leave_after=round_about is not None)
 
-    def _clear_way_round(self, cluster: _Cluster, mover: int, anchor: int, hydrogen: Optional[int],
-                         segment: tuple[int, int],
-                         placements: _Placements, polygons: list[list[complex]],
-                         walls: np.ndarray) -> Optional[tuple]:
+    def _clear_way_round(self, cluster: _Cluster, mover: int, hydrogen: Optional[int], segment: tuple[int, int],
+                         placements: _Placements, polygons: list[list[complex]]) -> Optional[tuple]:
         """A partner of a proton hop that finds no clear spot near its preferred side from which
         the arrow would not cross a bond looks all the way round its anchor (the arrow runs clear
         of bonds when a clear side exists); None if there is none either."""
-        round_about = _Placements(_ROUND_OPTIONS, placements.u, placements.v, placements.anchor_at, placements.distance,
-                                  placements.local, placements.near, placements.carries_hydrogen)
+        round_about = placements.like(_ROUND_OPTIONS)
         round_about.batch = 64
         # Travelling hydrogens are placed last: the spots promised to them are kept clear here.
         promised = np.array(self._promised_spots(hydrogen, set(cluster.atoms), range(segment[0], segment[1] + 1)),
                             dtype=complex)
         for option in range(len(_ROUND_OPTIONS)):
-            gap, moved, direction, rotation, target = round_about.at(option)
+            gap, blocked, moved, direction, rotation, target = round_about.at(option)
             hop = target - direction if placements.carries_hydrogen else placements.anchor_at + direction
-            if (gap >= _CLEARANCE and not _blocked(placements, target, direction, walls)
+            if (gap >= _CLEARANCE and not blocked
                     and not (len(promised) and np.abs(hop - promised).min() < _HYDROGEN_ROOM)
                     and not any(_inside(complex(p), poly) for p in moved for poly in polygons)):
                 return (_CLEARANCE, True), rotation, target - cluster.local[mover] * rotation, direction
@@ -1098,15 +1110,13 @@ class _LayoutBuilder:
         return out
 
     def _nearest_to_partners(self, cluster: _Cluster, mover: int, placements: _Placements,
-                             polygons: list[list[complex]], partners: list[tuple[int, complex]],
-                             walls: np.ndarray) -> Optional[tuple]:
+                             polygons: list[list[complex]], partners: list[tuple[int, complex]]) -> Optional[tuple]:
         """Among the placements clear of everything (tried further round the anchor than a single
-        hop needs) and from which the arrow crosses none of `walls`, the one that also keeps the
+        hop needs) and from which the arrow crosses no wall, the one that also keeps the
         cluster's other hop partners within reach of an arrow (PARTNER_REACH), in order of
         preference otherwise; None when no placement is clear."""
         keys = list(cluster.local)
-        wider = _Placements(_PARTNER_OPTIONS, placements.u, placements.v, placements.anchor_at, placements.distance,
-                            placements.local, placements.near, placements.carries_hydrogen)
+        wider = placements.like(_PARTNER_OPTIONS)
         directions, rotations, targets, moved_all = wider.spots(0, len(_PARTNER_OPTIONS))   # (options, atoms)
         # The hop that places it counts as much as the others; squared, so two hops share the
         # stretch rather than one taking all of it. Partner by partner over every option at once,
@@ -1126,7 +1136,7 @@ class _LayoutBuilder:
             gap, = wider.gaps(moved_all[one], targets[one], directions[one])
             moved, direction, rotation = moved_all[option], directions[option], rotations[option]
             target = complex(targets[option])   # Python's complex arithmetic from here, as for every placement
-            if (gap >= _CLEARANCE and not _blocked(placements, target, direction, walls)
+            if (gap >= _CLEARANCE and not wider.blocked(targets[one], directions[one])[0]
                     and not any(_inside(complex(p), poly) for p in moved for poly in polygons)):
                 return ((_CLEARANCE, True), rotation, target - cluster.local[mover] * rotation, direction)
         return None
