@@ -263,7 +263,10 @@ class _Placements:
         """Option `index`: its gap, whether its arrow is blocked, its moved atoms, direction,
         rotation and target."""
         while index >= len(self.done):
-            directions, rotations, targets, moved = self.spots(len(self.done), len(self.done) + self.batch)
+            # Each batch at least as large as all before it: a search that goes past the first
+            # few spots usually goes through most of them.
+            first = len(self.done)
+            directions, rotations, targets, moved = self.spots(first, first + max(self.batch, first))
             self.done += zip(self.gaps(moved, targets, directions), self.blocked(targets, directions),
                              moved, directions, rotations, targets.tolist())
         return self.done[index]
