@@ -197,7 +197,8 @@ def _aligned(moving: dict[int, complex], fixed: dict[int, complex], anchors: lis
 
 
 def _unit(z: complex) -> complex:
-    return z / abs(z) if abs(z) > 1e-12 else 1 + 0j
+    size = abs(z)
+    return z / size if size > 1e-12 else 1 + 0j
 
 
 def _distance(a: list[float], b: list[float]) -> float:
@@ -371,15 +372,21 @@ class _LayoutBuilder:
         self.bonds_in = []      # per panel: set of (i, j) between drawn atoms
         self.orders_in: list[dict[tuple[int, int], float]] = []   # per panel: their bond orders
         self.union: dict[tuple[int, int], int] = {}
+        self.holders: list[dict[int, int]] = []   # per panel: hydrogen -> its first neighbour, as RDKit lists them
         for state, listed in zip(self.states, bonds or [bond_list(s.mol) for s in self.states]):
-            orders = {}
+            orders, holders = {}, {}
             for i, j, order in listed:
+                if elements[i] == 1:
+                    holders.setdefault(i, j)
+                if elements[j] == 1:
+                    holders.setdefault(j, i)
                 if i > j:
                     i, j = j, i
                 if i in drawn and j in drawn:
                     orders[(i, j)] = order
                     self.union[(i, j)] = max(self.union.get((i, j), 0), int(order))
             self.orders_in.append(orders)
+            self.holders.append(holders)
             self.bonds_in.append(set(orders))
         self.neighbours: dict[int, set[int]] = {i: set() for i in self.atoms}
         for i, j in self.union:
@@ -822,9 +829,7 @@ class _LayoutBuilder:
         return self.sp_atoms[atom]
 
     def _holder(self, k: int, h: int) -> Optional[int]:
-        for n in self.states[k].mol.GetAtomWithIdx(h).GetNeighbors():
-            return n.GetIdx()
-        return None
+        return self.holders[k].get(h)
 
     def _residences(self) -> dict[int, list[_Residence]]:
         out: dict[int, list[_Residence]] = {}

@@ -117,7 +117,8 @@ def _box_to_segment(box: Box, p: complex, q: complex, samples: int = 16) -> floa
 
 
 def _unit_or_zero(z: complex) -> complex:
-    return z / abs(z) if abs(z) > 1e-12 else 0j
+    size = abs(z)
+    return z / size if size > 1e-12 else 0j
 
 
 def _angle_gap(a: complex, b: complex) -> float:
