@@ -553,7 +553,7 @@ class _LayoutBuilder:
 
     def _permanent(self, i: int, j: int) -> bool:
         """Present in every state that has both atoms (a fragment that leaves is still there)."""
-        return all((i, j) in self.bonds_in[k] for k in range(self.n) if max(i, j) < self.states[k].mol.GetNumAtoms())
+        return all((i, j) in self.bonds_in[k] for k in range(self.n) if max(i, j) < len(self.states[k].elements))
 
     def _ring_between(self, bonds: list[tuple[int, int]]) -> bool:
         """Two of the bonds between two clusters exist together in some panel: the clusters make
@@ -838,7 +838,7 @@ class _LayoutBuilder:
             for k in range(self.n):
                 # Released panels count too: a hydrogen that leaves with a fragment still
                 # ties the fragment's placement to the step it leaves in.
-                if h >= self.states[k].mol.GetNumAtoms():
+                if h >= len(self.states[k].elements):
                     continue
                 holder = self._holder(k, h)
                 if runs and runs[-1].holder == holder and runs[-1].last == k - 1:
