@@ -202,6 +202,7 @@ def _unit(z: complex) -> complex:
 
 
 def _distance(a: list[float], b: list[float]) -> float:
+    """Between two points of RDKit's conformer (x, y, z)."""
     dx, dy, dz = a[0] - b[0], a[1] - b[1], a[2] - b[2]
     return math.sqrt(dx * dx + dy * dy + dz * dz)
 
@@ -373,7 +374,7 @@ class _LayoutBuilder:
         self.orders_in: list[dict[tuple[int, int], float]] = []   # per panel: their bond orders
         self.union: dict[tuple[int, int], int] = {}
         self.holders: list[dict[int, int]] = []   # per panel: hydrogen -> its first neighbour, as RDKit lists them
-        for state, listed in zip(self.states, bonds or [bond_list(s.mol) for s in self.states]):
+        for listed in bonds or [bond_list(s.mol) for s in self.states]:
             orders, holders = {}, {}
             for i, j, order in listed:
                 if elements[i] == 1:
