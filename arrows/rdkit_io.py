@@ -98,6 +98,17 @@ def atom_list(mol: Chem.Mol) -> list[Chem.Atom]:
     return [atom(i) for i in range(mol.GetNumAtoms())]
 
 
+def bond_list(mol: Chem.Mol) -> list[tuple[int, int, float]]:
+    """(begin atom, end atom, bond order as a number) of every bond of `mol`, in index order: by
+    index, as RDKit's bond iterator costs more per bond."""
+    bond_at = mol.GetBondWithIdx
+    out = []
+    for k in range(mol.GetNumBonds()):
+        bond = bond_at(k)
+        out.append((bond.GetBeginAtomIdx(), bond.GetEndAtomIdx(), bond.GetBondTypeAsDouble()))
+    return out
+
+
 @lru_cache(maxsize=None)
 def valence_electrons(atomic_num: int) -> int:
     # RDKit fills its periodic table on first use (about 2.5 ms): not at import, so that a run that

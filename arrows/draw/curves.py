@@ -64,7 +64,8 @@ def _handle(theta: float) -> float:
 
 
 def _unit(z: complex) -> complex:
-    return z / abs(z) if abs(z) > 1e-12 else 1 + 0j
+    size = abs(z)
+    return z / size if size > 1e-12 else 1 + 0j
 
 
 def _units(z: np.ndarray) -> np.ndarray:

@@ -31,6 +31,7 @@ from rdkit import Chem
 from rdkit.Chem import rdDepictor
 
 from ..electrons import ElectronState, ResolvedMove
+from ..rdkit_io import bond_list
 
 # Gap between a transferred hydrogen and the atom that takes it, in bond lengths: room for a
 # curved arrow, close enough to read as one event.
@@ -119,11 +120,11 @@ def _rdkit_depictor() -> Iterator[None]:
 
 def moving_hydrogens(states: Sequence[ElectronState], moves: Iterable[ResolvedMove]) -> frozenset[int]:
     """Hydrogen atoms that some move names: these are drawn; every other hydrogen is implicit."""
-    mol = max(states, key=lambda s: s.mol.GetNumAtoms()).mol
+    elements = max(states, key=lambda s: len(s.elements)).elements
     out = set()
     for move in moves:
         for i in move.source_atoms + move.sink_atoms:
-            if i < mol.GetNumAtoms() and mol.GetAtomWithIdx(i).GetAtomicNum() == 1:
+            if i < len(elements) and elements[i] == 1:
                 out.add(i)
     return frozenset(out)
 
@@ -151,17 +152,23 @@ def free_direction(centre: complex, others: Sequence[complex], prefer: Optional[
     return cmath.rect(1.0, best_mid)
 
 
-def _joining(before: ElectronState, after: ElectronState) -> set[int]:
-    """Atoms of the separate molecules that become one in the step from `before` to `after`
-    (a nucleophile and the carbonyl it adds to; not two partners of a proton transfer, which
-    stay apart). Such a molecule may move as a whole between the two panels."""
+def _molecules(state: ElectronState) -> tuple[tuple[int, ...], ...]:
+    """The atoms of each separate molecule of a state."""
+    return Chem.GetMolFrags(state.mol, asMols=False, sanitizeFrags=False)
+
+
+def _joining(before: ElectronState, before_molecules: Sequence[Sequence[int]],
+             after_molecules: Sequence[Sequence[int]]) -> set[int]:
+    """Atoms of the separate molecules that become one in the step from `before` to the state
+    after it (a nucleophile and the carbonyl it adds to; not two partners of a proton transfer,
+    which stay apart). Such a molecule may move as a whole between the two panels."""
     molecule = {}
-    for number, frag in enumerate(Chem.GetMolFrags(before.mol, asMols=False, sanitizeFrags=False)):
+    for number, frag in enumerate(before_molecules):
         for atom in frag:
             molecule[atom] = number
     heavy = {i for i, z in enumerate(before.elements) if z != 1}
     out: set[int] = set()
-    for frag in Chem.GetMolFrags(after.mol, asMols=False, sanitizeFrags=False):
+    for frag in after_molecules:
         parts = {molecule[a] for a in frag if a in heavy}
         if len(parts) > 1:
             out |= {a for a, number in molecule.items() if number in parts}
@@ -190,24 +197,29 @@ def _aligned(moving: dict[int, complex], fixed: dict[int, complex], anchors: lis
 
 
 def _unit(z: complex) -> complex:
-    return z / abs(z) if abs(z) > 1e-12 else 1 + 0j
+    size = abs(z)
+    return z / size if size > 1e-12 else 1 + 0j
 
 
-def _blocked(placements: "_Placements", target: complex, direction: complex, walls: np.ndarray) -> bool:
-    """Whether the proton-transfer arrow of a placement, from the base's atom to the hydrogen
-    it takes, would cross one of `walls` (rows of two ends): each segment has the other's ends
-    on opposite sides."""
-    if not len(walls):
-        return False
-    if placements.carries_hydrogen:
-        p, q = placements.anchor_at, target - direction
-    else:
-        p, q = target, placements.anchor_at + direction
-    a, b = walls[:, 0], walls[:, 1]
-    along = np.conj(q - p)
-    across = np.conj(b - a)
-    return bool(np.any((((a - p) * along).imag * ((b - p) * along).imag < 0)
-                       & (((p - a) * across).imag * ((q - a) * across).imag < 0)))
+def _distance(a: list[float], b: list[float]) -> float:
+    """Between two points of RDKit's conformer (x, y, z)."""
+    dx, dy, dz = a[0] - b[0], a[1] - b[1], a[2] - b[2]
+    return math.sqrt(dx * dx + dy * dy + dz * dz)
+
+
+def _crosses_any(p: np.ndarray, q: np.ndarray, walls: np.ndarray) -> list[bool]:
+    """For each segment p[k]-q[k]: whether it crosses one of `walls` (rows of two ends), that is,
+    each has the other's ends on opposite sides. The cross products are written out on real
+    and imaginary parts, as Python's complex arithmetic computes them, whatever the shape."""
+    px, py, qx, qy = p.real[:, None], p.imag[:, None], q.real[:, None], q.imag[:, None]
+    ax, ay, bx, by = walls[:, 0].real, walls[:, 0].imag, walls[:, 1].real, walls[:, 1].imag
+    dx, dy = qx - px, qy - py     # along p->q
+    ex, ey = bx - ax, by - ay     # along each wall
+    a_side = (ay - py) * dx - (ax - px) * dy
+    b_side = (by - py) * dx - (bx - px) * dy
+    p_side = (py - ay) * ex - (px - ax) * ey
+    q_side = (qy - ay) * ex - (qx - ax) * ey
+    return ((a_side * b_side < 0) & (p_side * q_side < 0)).any(axis=1).tolist()
 
 
 def _inside(point: complex, polygon: list[complex]) -> bool:
@@ -230,24 +242,46 @@ def _rotor(count: int, divisions: int) -> complex:
 class _Placements:
     """The ways of placing a cluster next to its anchor, in the order they are tried: for each,
     the direction from the anchor, the cluster's rotation, the target of the atom that bonds,
-    the cluster's atoms moved there and their nearest approach to the atoms around. Worked out
+    the cluster's atoms moved there, their nearest approach to the atoms around and whether the
+    arrow of a proton transfer from there would cross one of `walls` (bonds). Worked out
     in batches as the search reaches them: the first few settle most placements, and numpy's
     cost is per call."""
 
     batch = 8
 
     def __init__(self, options: list[tuple], u: complex, v: complex, anchor_at: complex, distance: float,
-                 local: np.ndarray, near: np.ndarray, carries_hydrogen: bool):
+                 local: np.ndarray, near: np.ndarray, carries_hydrogen: bool, walls: np.ndarray):
         self.options, self.u, self.v, self.anchor_at, self.distance = options, u, v, anchor_at, distance
-        self.local, self.near, self.carries_hydrogen = local, near, carries_hydrogen
-        self.done: list[tuple[float, np.ndarray, complex, complex, complex]] = []
+        self.local, self.near, self.carries_hydrogen, self.walls = local, near, carries_hydrogen, walls
+        self.done: list[tuple[float, bool, np.ndarray, complex, complex, complex]] = []
         self.turned: dict[int, tuple[complex, complex]] = {}   # turn -> (direction, rotation facing back along it)
 
-    def at(self, index: int) -> tuple[float, np.ndarray, complex, complex, complex]:
+    def like(self, options: list[tuple]) -> "_Placements":
+        """The same cluster and surroundings, tried over other options."""
+        return _Placements(options, self.u, self.v, self.anchor_at, self.distance, self.local, self.near,
+                           self.carries_hydrogen, self.walls)
+
+    def at(self, index: int) -> tuple[float, bool, np.ndarray, complex, complex, complex]:
+        """Option `index`: its gap, whether its arrow is blocked, its moved atoms, direction,
+        rotation and target."""
         while index >= len(self.done):
-            directions, rotations, targets, moved = self.spots(len(self.done), len(self.done) + self.batch)
-            self.done += zip(self.gaps(moved, targets, directions), moved, directions, rotations, targets.tolist())
+            # Each batch at least as large as all before it: a search that goes past the first
+            # few spots usually goes through most of them.
+            first = len(self.done)
+            directions, rotations, targets, moved = self.spots(first, first + max(self.batch, first))
+            self.done += zip(self.gaps(moved, targets, directions), self.blocked(targets, directions),
+                             moved, directions, rotations, targets.tolist())
         return self.done[index]
+
+    def blocked(self, targets: np.ndarray, directions: list[complex]) -> list[bool]:
+        """Whether the proton-transfer arrow of each placement, from the base's atom to the
+        hydrogen it takes, would cross one of the walls."""
+        if not len(self.walls):
+            return [False] * len(targets)
+        ahead = np.array(directions, dtype=complex)
+        if self.carries_hydrogen:
+            return _crosses_any(np.full(len(targets), self.anchor_at), targets - ahead, self.walls)
+        return _crosses_any(targets, self.anchor_at + ahead, self.walls)
 
     def spots(self, first: int, last: int) -> tuple[list[complex], list[complex], np.ndarray, np.ndarray]:
         """Directions, rotations, targets and moved atoms of options first..last-1."""
@@ -310,17 +344,21 @@ class _Cluster:
 
 
 def compute_layout(states: Sequence[ElectronState], moves: Sequence[Sequence[ResolvedMove]],
-                   touched: Sequence[Iterable[int]], left_out: Sequence[Iterable[int]] = ()) -> Layout:
+                   touched: Sequence[Iterable[int]], left_out: Sequence[Iterable[int]] = (),
+                   bonds: Optional[Sequence[list[tuple[int, int, float]]]] = None) -> Layout:
     """Positions for the atoms of every state. `moves[k]` are the moves drawn on panel k,
     `touched[k]` the atoms the step leaving panel k changes (empty for the last panel) and
     `left_out[k]` atoms panel k does not draw (a spectator between its turns): a species is
-    free to move while it is not drawn."""
-    return _LayoutBuilder(states, moves, touched, left_out).build()
+    free to move while it is not drawn. `bonds[k]` are state k's bonds as rdkit_io.bond_list
+    reads them (read here when not given)."""
+    with _rdkit_depictor():
+        return _LayoutBuilder(states, moves, touched, left_out, bonds).build()
 
 
 class _LayoutBuilder:
     def __init__(self, states: Sequence[ElectronState], moves: Sequence[Sequence[ResolvedMove]],
-                 touched: Sequence[Iterable[int]], left_out: Sequence[Iterable[int]] = ()):
+                 touched: Sequence[Iterable[int]], left_out: Sequence[Iterable[int]] = (),
+                 bonds: Optional[Sequence[list[tuple[int, int, float]]]] = None):
         self.states = list(states)
         self.n = len(self.states)
         self.touched = [set(t) for t in touched] + [set()] * (self.n - len(touched))
@@ -333,25 +371,33 @@ class _LayoutBuilder:
         self.exists = [(set(range(len(s.elements))) & drawn) - s.released - gone
                        for s, gone in zip(self.states, absent)]
         self.bonds_in = []      # per panel: set of (i, j) between drawn atoms
+        self.orders_in: list[dict[tuple[int, int], float]] = []   # per panel: their bond orders
         self.union: dict[tuple[int, int], int] = {}
-        for state in self.states:
-            here = set()
-            bond_at = state.mol.GetBondWithIdx    # by index: RDKit's bond iterator costs more per bond
-            for b in range(state.mol.GetNumBonds()):
-                bond = bond_at(b)
-                i, j = bond.GetBeginAtomIdx(), bond.GetEndAtomIdx()
+        self.holders: list[dict[int, int]] = []   # per panel: hydrogen -> its first neighbour, as RDKit lists them
+        for listed in bonds or [bond_list(s.mol) for s in self.states]:
+            orders, holders = {}, {}
+            for i, j, order in listed:
+                if elements[i] == 1:
+                    holders.setdefault(i, j)
+                if elements[j] == 1:
+                    holders.setdefault(j, i)
                 if i > j:
                     i, j = j, i
                 if i in drawn and j in drawn:
-                    here.add((i, j))
-                    self.union[(i, j)] = max(self.union.get((i, j), 0), int(bond.GetBondTypeAsDouble()))
-            self.bonds_in.append(here)
+                    orders[(i, j)] = order
+                    self.union[(i, j)] = max(self.union.get((i, j), 0), int(order))
+            self.orders_in.append(orders)
+            self.holders.append(holders)
+            self.bonds_in.append(set(orders))
         self.neighbours: dict[int, set[int]] = {i: set() for i in self.atoms}
         for i, j in self.union:
             self.neighbours[i].add(j)
             self.neighbours[j].add(i)
         self.positions: list[dict[int, complex]] = [dict() for _ in range(self.n)]
-        self.joining = [_joining(self.states[k], self.states[k + 1]) for k in range(self.n - 1)] + [set()]
+        self.molecules = [_molecules(state) for state in self.states]
+        self.joining = [_joining(self.states[k], self.molecules[k], self.molecules[k + 1])
+                        for k in range(self.n - 1)] + [set()]
+        self.sp_atoms: dict[int, bool] = {}    # _linear's answers, asked again and again
 
     # structure of the problem
     def build(self) -> Layout:
@@ -508,7 +554,7 @@ class _LayoutBuilder:
 
     def _permanent(self, i: int, j: int) -> bool:
         """Present in every state that has both atoms (a fragment that leaves is still there)."""
-        return all((i, j) in self.bonds_in[k] for k in range(self.n) if max(i, j) < self.states[k].mol.GetNumAtoms())
+        return all((i, j) in self.bonds_in[k] for k in range(self.n) if max(i, j) < len(self.states[k].elements))
 
     def _ring_between(self, bonds: list[tuple[int, int]]) -> bool:
         """Two of the bonds between two clusters exist together in some panel: the clusters make
@@ -574,6 +620,7 @@ class _LayoutBuilder:
                 if n not in self.bridging:
                     everything.join(h, n)
         self.rings: list[list[int]] = []
+        self.rings_bonded: dict[int, list[list[int]]] = {}   # panel -> the rings whose bonds all exist there
         self.clusters = [_Cluster(g, self._depict(g)) for g in everything.groups()]
         for cluster in self.clusters:
             if not self._even(cluster.local, cluster.atoms, range(self.n)):
@@ -632,8 +679,7 @@ class _LayoutBuilder:
             # The molecules of the panel before the ring is complete: two of them, bonded to each
             # other by two of the ring's bonds, are partners held apart until they meet.
             molecule = {}
-            for number, frag in enumerate(Chem.GetMolFrags(self.states[first - 1].mol, asMols=False,
-                                                           sanitizeFrags=False)):
+            for number, frag in enumerate(self.molecules[first - 1]):
                 molecule.update((a, number) for a in frag)
             ring_atoms = {a for bond in ring for a in bond}
             numbers = sorted({molecule[a] for a in ring_atoms if a in molecule})
@@ -763,35 +809,28 @@ class _LayoutBuilder:
             if self._linear(atom):
                 mol.GetAtomWithIdx(index[atom]).SetHybridization(Chem.HybridizationType.SP)
         self.rings += [ring for ring in ([group[k] for k in r] for r in Chem.GetSymmSSSR(mol)) if ring not in self.rings]
-        with _rdkit_depictor():
-            rdDepictor.Compute2DCoords(mol, canonOrient=True)
+        rdDepictor.Compute2DCoords(mol, canonOrient=True)   # compute_layout chose RDKit's own depictor
         # All positions in one call: asking the conformer atom by atom costs more than the sums.
-        xyz = mol.GetConformer().GetPositions()
-        ends = np.array(ends, dtype=int).reshape(-1, 2)
-        d = xyz[ends[:, 0]] - xyz[ends[:, 1]]
-        lengths = np.sqrt(d[:, 0] * d[:, 0] + d[:, 1] * d[:, 1] + d[:, 2] * d[:, 2]).tolist()
+        xyz = mol.GetConformer().GetPositions().tolist()
+        lengths = [_distance(xyz[a], xyz[b]) for a, b in ends]
         scale = 1.0 / (sum(lengths) / len(lengths)) if lengths else 1.0
-        xs, ys = xyz[:, 0].tolist(), xyz[:, 1].tolist()
+        xs, ys = [p[0] for p in xyz], [p[1] for p in xyz]
         # y is flipped: RDKit's y grows upwards, ours downwards.
         return {atom: complex(xs[k] * scale, -ys[k] * scale) for atom, k in index.items()}
 
     def _linear(self, atom: int) -> bool:
         """Two bonds, one of them triple, or both double in one state: an sp atom. (An enolate
         carbon is double-bonded to C and to O, but never at once.)"""
-        partners = [n for n in self.neighbours[atom] if self.element[n] != 1]
-        if len(partners) != 2:
-            return False
-        orders = [self.union[(min(atom, n), max(atom, n))] for n in partners]
-        if 3 in orders:
-            return True
-        return any(all(state.mol.GetBondBetweenAtoms(atom, n) is not None
-                       and state.mol.GetBondBetweenAtoms(atom, n).GetBondTypeAsDouble() == 2 for n in partners)
-                   for state in self.states if max(atom, *partners) < state.mol.GetNumAtoms())
+        if atom not in self.sp_atoms:
+            partners = [n for n in self.neighbours[atom] if self.element[n] != 1]
+            pairs = [(min(atom, n), max(atom, n)) for n in partners]
+            self.sp_atoms[atom] = len(partners) == 2 and (
+                3 in [self.union[pair] for pair in pairs]
+                or any(all(orders.get(pair) == 2 for pair in pairs) for orders in self.orders_in))
+        return self.sp_atoms[atom]
 
     def _holder(self, k: int, h: int) -> Optional[int]:
-        for n in self.states[k].mol.GetAtomWithIdx(h).GetNeighbors():
-            return n.GetIdx()
-        return None
+        return self.holders[k].get(h)
 
     def _residences(self) -> dict[int, list[_Residence]]:
         out: dict[int, list[_Residence]] = {}
@@ -800,7 +839,7 @@ class _LayoutBuilder:
             for k in range(self.n):
                 # Released panels count too: a hydrogen that leaves with a fragment still
                 # ties the fragment's placement to the step it leaves in.
-                if h >= self.states[k].mol.GetNumAtoms():
+                if h >= len(self.states[k].elements):
                     continue
                 holder = self._holder(k, h)
                 if runs and runs[-1].holder == holder and runs[-1].last == k - 1:
@@ -947,12 +986,10 @@ class _LayoutBuilder:
     def _closed_rings(self, k: int) -> list[list[int]]:
         """Rings of the depiction whose every bond exists in panel k (an open ring's mouth is
         free space)."""
-        out = []
-        for ring in self.rings:
-            if all(a in self.positions[k] for a in ring) and all(
-                    (min(a, b), max(a, b)) in self.bonds_in[k] for a, b in zip(ring, ring[1:] + ring[:1])):
-                out.append(ring)
-        return out
+        if k not in self.rings_bonded:   # the rings and bonds are settled before any placement asks
+            self.rings_bonded[k] = [ring for ring in self.rings if all(
+                (min(a, b), max(a, b)) in self.bonds_in[k] for a, b in zip(ring, ring[1:] + ring[:1]))]
+        return [ring for ring in self.rings_bonded[k] if all(a in self.positions[k] for a in ring)]
 
     def _occupied_around(self, atom: int, k: int, hydrogen: Optional[int] = None) -> list[complex]:
         """Positions around `atom` in panel k that a new neighbour must avoid: its union
@@ -997,18 +1034,17 @@ class _LayoutBuilder:
         local = np.array(list(cluster.local.values()), dtype=complex) - cluster.local[mover]
         options = _BOND_OPTIONS if kind == "bond" else _HOP_OPTIONS
         hydrogen_on_mover = hydrogen is not None and kind == "hop" and self._holder(k, hydrogen) == mover
-        placements = _Placements(options, u, v, anchor_at, distance, local, near, hydrogen_on_mover)
-        best = None
         # For a hop, a spot from which the arrow to the anchor's side crosses no bond is preferred.
         walls = self._walls(segment, anchor, set(cluster.atoms)) if kind == "hop" else np.zeros((0, 2), dtype=complex)
+        placements = _Placements(options, u, v, anchor_at, distance, local, near, hydrogen_on_mover, walls)
+        best = None
         round_about = None
         partners = self._other_hops(index, segment, k, hydrogen) if kind == "hop" else []
         if partners:
-            best = self._nearest_to_partners(cluster, mover, placements, polygons, partners, walls)
+            best = self._nearest_to_partners(cluster, mover, placements, polygons, partners)
         # In order of preference; the first that keeps its distance from everything wins.
         for option in range(len(options) if best is None else 0):
-            gap, moved, direction, rotation, target = placements.at(option)
-            blocked = _blocked(placements, target, direction, walls)
+            gap, blocked, moved, direction, rotation, target = placements.at(option)
             if best is not None and (min(gap, _CLEARANCE), not blocked) <= best[0]:
                 continue
             if any(_inside(complex(p), poly) for p in moved for poly in polygons):
@@ -1017,7 +1053,7 @@ class _LayoutBuilder:
             if gap >= _CLEARANCE and not blocked:
                 break
         if len(walls) and (best is None or best[0] != (_CLEARANCE, True)):
-            round_about = self._clear_way_round(cluster, mover, anchor, hydrogen, segment, placements, polygons, walls)
+            round_about = self._clear_way_round(cluster, mover, hydrogen, segment, placements, polygons)
             best = round_about or best
         if best is None:
             direction = u
@@ -1032,23 +1068,20 @@ class _LayoutBuilder:
         if hydrogen is not None:
             self._promise(hydrogen, anchor, k, direction, leave_after=round_about is not None)
 
-    def _clear_way_round(self, cluster: _Cluster, mover: int, anchor: int, hydrogen: Optional[int],
-                         segment: tuple[int, int],
-                         placements: _Placements, polygons: list[list[complex]],
-                         walls: np.ndarray) -> Optional[tuple]:
+    def _clear_way_round(self, cluster: _Cluster, mover: int, hydrogen: Optional[int], segment: tuple[int, int],
+                         placements: _Placements, polygons: list[list[complex]]) -> Optional[tuple]:
         """A partner of a proton hop that finds no clear spot near its preferred side from which
         the arrow would not cross a bond looks all the way round its anchor (the arrow runs clear
         of bonds when a clear side exists); None if there is none either."""
-        round_about = _Placements(_ROUND_OPTIONS, placements.u, placements.v, placements.anchor_at, placements.distance,
-                                  placements.local, placements.near, placements.carries_hydrogen)
+        round_about = placements.like(_ROUND_OPTIONS)
         round_about.batch = 64
         # Travelling hydrogens are placed last: the spots promised to them are kept clear here.
         promised = np.array(self._promised_spots(hydrogen, set(cluster.atoms), range(segment[0], segment[1] + 1)),
                             dtype=complex)
         for option in range(len(_ROUND_OPTIONS)):
-            gap, moved, direction, rotation, target = round_about.at(option)
+            gap, blocked, moved, direction, rotation, target = round_about.at(option)
             hop = target - direction if placements.carries_hydrogen else placements.anchor_at + direction
-            if (gap >= _CLEARANCE and not _blocked(placements, target, direction, walls)
+            if (gap >= _CLEARANCE and not blocked
                     and not (len(promised) and np.abs(hop - promised).min() < _HYDROGEN_ROOM)
                     and not any(_inside(complex(p), poly) for p in moved for poly in polygons)):
                 return (_CLEARANCE, True), rotation, target - cluster.local[mover] * rotation, direction
@@ -1086,15 +1119,13 @@ class _LayoutBuilder:
         return out
 
     def _nearest_to_partners(self, cluster: _Cluster, mover: int, placements: _Placements,
-                             polygons: list[list[complex]], partners: list[tuple[int, complex]],
-                             walls: np.ndarray) -> Optional[tuple]:
+                             polygons: list[list[complex]], partners: list[tuple[int, complex]]) -> Optional[tuple]:
         """Among the placements clear of everything (tried further round the anchor than a single
-        hop needs) and from which the arrow crosses none of `walls`, the one that also keeps the
+        hop needs) and from which the arrow crosses no wall, the one that also keeps the
         cluster's other hop partners within reach of an arrow (PARTNER_REACH), in order of
         preference otherwise; None when no placement is clear."""
         keys = list(cluster.local)
-        wider = _Placements(_PARTNER_OPTIONS, placements.u, placements.v, placements.anchor_at, placements.distance,
-                            placements.local, placements.near, placements.carries_hydrogen)
+        wider = placements.like(_PARTNER_OPTIONS)
         directions, rotations, targets, moved_all = wider.spots(0, len(_PARTNER_OPTIONS))   # (options, atoms)
         # The hop that places it counts as much as the others; squared, so two hops share the
         # stretch rather than one taking all of it. Partner by partner over every option at once,
@@ -1114,7 +1145,7 @@ class _LayoutBuilder:
             gap, = wider.gaps(moved_all[one], targets[one], directions[one])
             moved, direction, rotation = moved_all[option], directions[option], rotations[option]
             target = complex(targets[option])   # Python's complex arithmetic from here, as for every placement
-            if (gap >= _CLEARANCE and not _blocked(placements, target, direction, walls)
+            if (gap >= _CLEARANCE and not wider.blocked(targets[one], directions[one])[0]
                     and not any(_inside(complex(p), poly) for p in moved for poly in polygons)):
                 return ((_CLEARANCE, True), rotation, target - cluster.local[mover] * rotation, direction)
         return None

@@ -15,6 +15,7 @@ from rdkit.Chem.rdMolDescriptors import CalcMolFormula
 
 from ..diagnostics import Diagnostic, ERROR
 from ..electrons import ElectronState, ResolvedMove
+from ..rdkit_io import bond_list
 from ..trace import StepTrace, Trace
 from .curves import ArrowPlanner
 from .layout import compute_layout
@@ -166,8 +167,10 @@ class _SceneBuilder:
         states = [s.state for s in sources]
         moves = [list(s.leaving.change.moves) if s.leaving else [] for s in sources]
         touched = [set(s.leaving.change.touched_atoms) if s.leaving else set() for s in sources]
-        layout = compute_layout(states, moves, touched, [s.hidden | s.idle for s in sources])
-        drawn = [self._structure(src, placed, layout.drawn_hydrogens) for src, placed in zip(sources, layout.panels)]
+        bonds = [bond_list(state.mol) for state in states]   # read from RDKit once, for layout and structures
+        layout = compute_layout(states, moves, touched, [s.hidden | s.idle for s in sources], bonds)
+        drawn = [self._structure(src, placed, layout.drawn_hydrogens, listed)
+                 for src, placed, listed in zip(sources, layout.panels, bonds)]
         # The arrows of every panel are planned together (one batch of numpy work for the scheme).
         leaving = [k for k, src in enumerate(sources) if src.leaving is not None]
         planned = self.planner.plan([(sources[k].leaving.index, _drawable(moves[k], drawn[k][1]), sources[k].state,
@@ -181,7 +184,8 @@ class _SceneBuilder:
             panels.append(self._placeholder(len(panels)))
         return self._compose(panels, specs)
 
-    def _structure(self, src: _PanelSource, placed, drawn_h: frozenset[int]) -> tuple[tuple[int, ...], PanelStructure]:
+    def _structure(self, src: _PanelSource, placed, drawn_h: frozenset[int], bonds: list[tuple[int, int, float]]
+                   ) -> tuple[tuple[int, ...], PanelStructure]:
         """The atoms drawn on a panel and their structure (labels, bonds, marks)."""
         bl = self.bl
         # A travelling hydrogen is drawn where it matters: on the panel whose arrows move it and
@@ -200,7 +204,7 @@ class _SceneBuilder:
             change = src.leaving.change
             broken |= {tuple(sorted(b)) for b in change.broken}
             broken |= {tuple(sorted(b)) for b, old, new in change.reordered if new < old}
-        return visible, self.drawer.draw(src.state, visible, positions, shown_h, formed, broken)
+        return visible, self.drawer.draw(src.state, visible, positions, shown_h, formed, broken, bonds)
 
     def _panel(self, k: int, src: _PanelSource, visible: tuple[int, ...], structure: PanelStructure,
                arrows: list[CurvedArrow], dots: list[Mark]) -> Panel:

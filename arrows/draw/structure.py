@@ -19,7 +19,7 @@ from typing import Optional
 from rdkit import Chem
 
 from ..electrons import ElectronState
-from ..rdkit_io import atom_list
+from ..rdkit_io import atom_list, bond_list
 from .scene import AtomDrawing, BondDrawing, Box, Mark, TextRun
 from .styles import BROKEN_COLOUR, FORMED_COLOUR, INK, Style
 from .formula import MINUS
@@ -117,7 +117,8 @@ def _box_to_segment(box: Box, p: complex, q: complex, samples: int = 16) -> floa
 
 
 def _unit_or_zero(z: complex) -> complex:
-    return z / abs(z) if abs(z) > 1e-12 else 0j
+    size = abs(z)
+    return z / size if size > 1e-12 else 0j
 
 
 def _angle_gap(a: complex, b: complex) -> float:
@@ -166,18 +167,18 @@ class StructureDrawer:
 
     def draw(self, state: ElectronState, visible: tuple[int, ...], positions: dict[int, complex],
              drawn_hydrogens: frozenset[int], formed: set[tuple[int, int]] = frozenset(),
-             broken: set[tuple[int, int]] = frozenset()) -> PanelStructure:
+             broken: set[tuple[int, int]] = frozenset(),
+             listed_bonds: Optional[list[tuple[int, int, float]]] = None) -> PanelStructure:
+        """`listed_bonds` are the state's bonds as rdkit_io.bond_list reads them (read here when
+        not given)."""
         mol = state.mol
         shown = set(visible)
         # RDKit is asked once per atom and once per bond: each call into it costs more than the
         # geometry it feeds. A bond's index order is the order RDKit lists an atom's neighbours in.
         atoms = atom_list(mol)
-        bond_at = mol.GetBondWithIdx
         bonds, adjacent = [], [[] for _ in atoms]
-        for k in range(mol.GetNumBonds()):
-            bond = bond_at(k)
-            i, j = bond.GetBeginAtomIdx(), bond.GetEndAtomIdx()
-            bonds.append((i, j, int(bond.GetBondTypeAsDouble())))
+        for i, j, order in listed_bonds if listed_bonds is not None else bond_list(mol):
+            bonds.append((i, j, int(order)))
             adjacent[i].append(j)
             adjacent[j].append(i)
         neighbours = {i: [n for n in adjacent[i] if n in shown] for i in visible}

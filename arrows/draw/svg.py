@@ -56,11 +56,16 @@ def _strokes(d: str, colour: str, cls: str) -> str:
     return f'<path class="{cls}" d="{d}"{_colour_attr(colour, "stroke")}/>'
 
 
-def _panel(panel: Panel, line_width: float) -> list[str]:
-    """Strokes (bonds, arrow shafts, error rings) in one group, fills (text, dots, heads) in another."""
+def _panel(panel: Panel, line_width: float, bond_paths: dict) -> list[str]:
+    """Strokes (bonds, arrow shafts, error rings) in one group, fills (text, dots, heads) in another.
+    `bond_paths` keeps the path of every bond written so far in the figure: an atom that does not
+    move has the same coordinates in every panel, so most bonds come again, and are written once."""
     strokes, fills = [], []
     for bond in panel.bonds:
-        strokes.append(_strokes(" ".join(f"M{_pt(p)} L{_pt(q)}" for p, q in bond.lines), bond.colour, "bond"))
+        path = bond_paths.get(bond.lines)
+        if path is None:
+            path = bond_paths[bond.lines] = " ".join(f"M{_pt(p)} L{_pt(q)}" for p, q in bond.lines)
+        strokes.append(_strokes(path, bond.colour, "bond"))
     for arrow in panel.arrows:
         d = f"M{_pt(arrow.start)} C{_pt(arrow.control1)} {_pt(arrow.control2)} {_pt(arrow.end)}"
         strokes.append(_strokes(d, arrow.colour, "move"))
@@ -95,8 +100,9 @@ def scene_to_svg(scene: Scene) -> str:
         f'stroke-linejoin="round" font-family={family}>',
         '<g stroke="none">' + "".join(_text(t) for t in scene.texts) + "</g>" if scene.texts else "",
     ]
+    bond_paths: dict = {}
     for panel in scene.panels:
-        lines += _panel(panel, lw)
+        lines += _panel(panel, lw, bond_paths)
     for arrow in scene.reaction_arrows:
         lines += _reaction(arrow)
     lines += ["</g>", "</svg>", ""]
