@@ -63,9 +63,12 @@ class ElectronState:
     valence: tuple[int, ...] = ()
     bond_sums: tuple[int, ...] = ()
     elements: tuple[int, ...] = ()      # atomic number per atom
+    configured: Optional[bool] = None   # whether some atom or bond carries a written configuration
 
     def __post_init__(self) -> None:
         # A step hands these on (the common case, checked cheaply); a new state derives them.
+        if self.configured is None:
+            object.__setattr__(self, "configured", _has_configuration(self.mol))
         if len(self.valence) != len(self.nonbonding):
             elements = tuple(a.GetAtomicNum() for a in atom_list(self.mol))
             object.__setattr__(self, "elements", elements)
@@ -528,7 +531,8 @@ def _settle(state: ElectronState, step: Step, step_index: int, replay: _StepRepl
 
     touched = sorted(set(replay.d_nonbonding) | {i for key in new_bonds for i in key})
     change.touched_atoms = touched
-    _forget_configuration(work, new_bonds)
+    if state.configured:
+        _forget_configuration(work, new_bonds)
     valence, elements, old_nonbonding = state.valence, state.elements, state.nonbonding
     for i in touched:
         bonds = bond_sums[i]
@@ -561,7 +565,15 @@ def _settle(state: ElectronState, step: Step, step_index: int, replay: _StepRepl
         diags.append(Diagnostic("AR304", f"RDKit rejects the structure after this step: {exc}", step.loc,
                                 "check charges and bond orders with `arrows trace`", step=step_index))
         return None, change, diags
-    return ElectronState(work, tuple(nonbonding), state.released, valence, tuple(bond_sums), elements), change, diags
+    return (ElectronState(work, tuple(nonbonding), state.released, valence, tuple(bond_sums), elements,
+                          state.configured), change, diags)
+
+
+def _has_configuration(mol: Chem.Mol) -> bool:
+    """Whether a species brought a configuration (@, @@, / or \\). Most mechanisms have none, and
+    then no step needs to look for one to forget."""
+    return (any(mol.GetAtomWithIdx(i).GetChiralTag() != Chem.ChiralType.CHI_UNSPECIFIED for i in range(mol.GetNumAtoms()))
+            or any(mol.GetBondWithIdx(i).GetStereo() != Chem.BondStereo.STEREONONE for i in range(mol.GetNumBonds())))
 
 
 def _forget_configuration(mol: Chem.RWMol, changed: dict[Pair, int]) -> None:
