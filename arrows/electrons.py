@@ -17,7 +17,7 @@ from rdkit import Chem
 from .diagnostics import Diagnostic
 from .model import (AtomSink, BareAtom, BondPair, BondRef, HydrogenOn, Location, LonePair, Move, Step,
                     UnpairedElectron, CONNECTORS)
-from .rdkit_io import atom_list, valence_electrons
+from .rdkit_io import atom_list, forget_configuration, valence_electrons
 
 _BOND_TYPES = {1: Chem.BondType.SINGLE, 2: Chem.BondType.DOUBLE, 3: Chem.BondType.TRIPLE}
 # RDKit's valence check and computed properties (implicit hydrogens, explicit valence): what makes a
@@ -532,7 +532,10 @@ def _settle(state: ElectronState, step: Step, step_index: int, replay: _StepRepl
     touched = sorted(set(replay.d_nonbonding) | {i for key in new_bonds for i in key})
     change.touched_atoms = touched
     if state.configured:
-        _forget_configuration(work, new_bonds)
+        # The bookkeeping follows electrons, not geometry: whether a new bond comes in with
+        # inversion or retention is not known, so an atom that gains or loses a bond loses the
+        # configuration a species wrote for it (@, @@, / and \\).
+        forget_configuration(work, {i for key in new_bonds for i in key})
     valence, elements, old_nonbonding = state.valence, state.elements, state.nonbonding
     for i in touched:
         bonds = bond_sums[i]
@@ -574,21 +577,6 @@ def _has_configuration(mol: Chem.Mol) -> bool:
     then no step needs to look for one to forget."""
     return (any(mol.GetAtomWithIdx(i).GetChiralTag() != Chem.ChiralType.CHI_UNSPECIFIED for i in range(mol.GetNumAtoms()))
             or any(mol.GetBondWithIdx(i).GetStereo() != Chem.BondStereo.STEREONONE for i in range(mol.GetNumBonds())))
-
-
-def _forget_configuration(mol: Chem.RWMol, changed: dict[Pair, int]) -> None:
-    """A configuration written in a species (@, @@, / and \\) holds only while the step leaves the
-    bonds that define it alone: the bookkeeping follows electrons, not geometry, so whether a new
-    bond comes in with inversion or retention is not known. An atom that gains or loses a bond
-    loses its tag, and so does every double bond at an atom whose bonds change."""
-    atoms = {i for key in changed for i in key}
-    for i in atoms:
-        atom = mol.GetAtomWithIdx(i)
-        if atom.GetChiralTag() != Chem.ChiralType.CHI_UNSPECIFIED:
-            atom.SetChiralTag(Chem.ChiralType.CHI_UNSPECIFIED)
-        for bond in atom.GetBonds():
-            if bond.GetStereo() != Chem.BondStereo.STEREONONE:
-                bond.SetStereo(Chem.BondStereo.STEREONONE)
 
 
 def _first_move_touching(step: Step, replay: _StepReplay, atom: int) -> Location:

@@ -133,3 +133,26 @@ def canonical(mol: Chem.Mol, keep_maps: frozenset[int] = frozenset()) -> str:
     Chem.SanitizeMol(work)
     work = Chem.RemoveHs(work, sanitize=False)
     return Chem.MolToSmiles(work)
+
+
+def fragment(mol: Chem.Mol, atoms) -> Chem.Mol:
+    """A copy of `mol` holding only `atoms`, in ascending index order (atom k of the copy is the
+    k-th smallest of `atoms`), with everything RDKit keeps on them."""
+    work = Chem.RWMol(mol)
+    keep = set(atoms)
+    for i in reversed(range(mol.GetNumAtoms())):
+        if i not in keep:
+            work.RemoveAtom(i)
+    return work.GetMol()
+
+
+def forget_configuration(mol: Chem.RWMol, atoms) -> None:
+    """Clear the configuration written at `atoms`: their chiral tags, and the E/Z of every double
+    bond at them."""
+    for i in atoms:
+        atom = mol.GetAtomWithIdx(i)
+        if atom.GetChiralTag() != Chem.ChiralType.CHI_UNSPECIFIED:
+            atom.SetChiralTag(Chem.ChiralType.CHI_UNSPECIFIED)
+        for bond in atom.GetBonds():
+            if bond.GetStereo() != Chem.BondStereo.STEREONONE:
+                bond.SetStereo(Chem.BondStereo.STEREONONE)

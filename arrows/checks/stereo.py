@@ -8,7 +8,7 @@ from rdkit import Chem
 
 from ..diagnostics import Diagnostic
 from ..judgement.stereo import CENTRE, StereoElement, describe, stereo_elements, stereoisomer_count
-from ..rdkit_io import canonical
+from ..rdkit_io import canonical, fragment
 from ..electrons import ElectronState
 from ..judgement.perception import RecentViews
 from ..trace import StepTrace, Trace
@@ -56,14 +56,10 @@ def product_stereo(final: Optional[ElectronState], touched: set[int],
         mine = tuple(sorted(e for e in elements if e.atoms[0] in indices))
         if not mine:
             continue
-        keep = sorted(indices)
-        fragment = Chem.RWMol(final.mol)
-        for i in sorted(set(range(final.mol.GetNumAtoms())) - set(keep), reverse=True):
-            fragment.RemoveAtom(i)
-        position = {old: new for new, old in enumerate(keep)}
+        position = {old: new for new, old in enumerate(sorted(indices))}
         uncontrolled = [position[i] for i in touched if i in position]
-        out.append(ProductStereo(canonical(fragment.GetMol()), mine,
-                                 stereoisomer_count(fragment.GetMol(), uncontrolled)))
+        piece = fragment(final.mol, indices)
+        out.append(ProductStereo(canonical(piece), mine, stereoisomer_count(piece, uncontrolled)))
     return out
 
 

@@ -385,6 +385,7 @@ class ArrowPlanner:
         bl = self.bl
         moves = [m for w in work for m in w.moves]
         sources = [s for w in work for s in w.sources]
+        sinks = [s for w in work for s in w.sinks]
         sizes = [len(tries) for w in work for tries in w.tries]
         owner = np.repeat(np.arange(len(sizes)), sizes)                   # each candidate's arrow
         panel_of = np.repeat(np.arange(len(work)), [len(w.moves) for w in work])   # each arrow's panel
@@ -413,7 +414,7 @@ class ArrowPlanner:
         counts = (np.concatenate([in_box, near], axis=2) & inner).sum(axis=1)
         ends = _padded([o.bond_ends for o in obs], (0, 0), int)[panel_of]
         crossing = np.where(own[arrow, ends[..., 0]] | own[arrow, ends[..., 1]], 6.0, 18.0)
-        for k, anchors in enumerate(zip(sources, [s for w in work for s in w.sinks])):
+        for k, anchors in enumerate(zip(sources, sinks)):
             for anchor in anchors:
                 if anchor.kind == "bond":   # the bond the arrow starts or ends on is no obstacle
                     bond = obs[panel_of[k]].bond_index.get(tuple(sorted(anchor.atoms)))
@@ -453,7 +454,6 @@ class ArrowPlanner:
         from_bond = np.array([src.kind == "bond" for src in sources])
         if from_bond.any():
             cost += np.where(from_bond[owner], self._curl(pts), 0.0)
-        sinks = [s for w in work for s in w.sinks]
         cost += _CROOK * _in_crook(pts[:, _SAMPLES // 2], sources, sinks, owner, [obs[k] for k in panel_of])
         for c, value, length in zip(candidates, cost.tolist(), lengths.tolist()):
             c.cost, c.length = value, length

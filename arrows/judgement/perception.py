@@ -13,6 +13,7 @@ from typing import Iterable, Optional
 from rdkit import Chem
 
 from ..electrons import ElectronState
+from ..rdkit_io import forget_configuration
 from .acidity import perceived
 
 _HYDROGEN = Chem.MolFromSmarts("[#1]")
@@ -45,10 +46,7 @@ def perceive(mol: Chem.Mol, clear_stereo_on: Iterable[int] = (), heavy: Optional
     work = mol
     if clear_stereo_on:      # RemoveHs copies anyway: a copy of our own only when we change it
         work = Chem.RWMol(mol)
-        for i in clear_stereo_on:
-            work.GetAtomWithIdx(i).SetChiralTag(Chem.ChiralType.CHI_UNSPECIFIED)
-            for bond in work.GetAtomWithIdx(i).GetBonds():
-                bond.SetStereo(Chem.BondStereo.STEREONONE)
+        forget_configuration(work, clear_stereo_on)
         work = work.GetMol()
     if heavy is None:
         # The hydrogen atoms found in C++ (a state holds only a few): cheaper than a walk over every atom.

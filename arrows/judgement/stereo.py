@@ -14,6 +14,7 @@ from typing import Iterable, Optional
 
 from rdkit import Chem
 
+from ..rdkit_io import fragment
 from .perception import Perceived, perceive
 
 CENTRE, DOUBLE_BOND = "stereocentre", "stereogenic double bond"
@@ -87,14 +88,11 @@ def _without_stereoisomers(plain: Chem.Mol, view: Perceived, centres: list[Stere
     dropped: set[StereoElement] = set()
     if not suspects:
         return dropped
-    for fragment in Chem.GetMolFrags(plain, asMols=False, sanitizeFrags=False):
-        if not set(fragment) & set(suspects):
+    for indices in Chem.GetMolFrags(plain, asMols=False, sanitizeFrags=False):
+        if not set(indices) & set(suspects):
             continue
-        mol = Chem.RWMol(plain)
-        for i in sorted(set(range(plain.GetNumAtoms())) - set(fragment), reverse=True):
-            mol.RemoveAtom(i)
-        if stereoisomer_count(mol.GetMol()) == 1:
-            members = {view.original[i] for i in fragment}
+        if stereoisomer_count(fragment(plain, indices)) == 1:
+            members = {view.original[i] for i in indices}
             dropped |= {e for e in found if e.atoms[0] in members}
     return dropped
 
