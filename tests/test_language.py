@@ -402,3 +402,14 @@ def test_a_slip_in_a_piece_is_reported_as_in_the_whole_file(monkeypatch):
         parse(text, "f.mech")
     assert piecewise.value.diagnostics == whole.value.diagnostics
     assert piecewise.value.diagnostics[0].loc.line == 7
+
+
+def test_lark_loads_on_re_and_leaves_regex_importable():
+    # lark imports the optional `regex` module when installed (~15 ms of start-up); arrows hides it
+    # while lark loads. A user's own `import regex` afterwards must still work.
+    pytest.importorskip("regex")
+    probe = ("import arrows.language, lark.utils, sys; assert 'regex' not in sys.modules; "
+             "assert lark.utils._has_regex is False; import regex; print('ok')")
+    done = subprocess.run([sys.executable, "-c", probe], capture_output=True, text=True)
+    assert done.returncode == 0, done.stderr
+    assert done.stdout.strip() == "ok"
