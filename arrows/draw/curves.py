@@ -216,16 +216,24 @@ class ArrowPlanner:
             start = end
         self._score(work, candidates, controls, points)
         kept = [[sorted(tries, key=lambda c: c.cost)[:_KEEP] for tries in w.tries] for w in work]
-        planned = iter(zip(work, kept, self._pair_costs(kept, controls, points)))
+        chosen = [self._choose(options, pairs)
+                  for options, pairs in zip(kept, self._pair_costs(kept, controls, points))]
+        # A short arrow gets a smaller head, so the head never swallows the curve; where the
+        # head's base and the shaft's end fall on each curve is found for all arrows at once.
+        curves = [c for cands in chosen for c in cands]
+        heads = [min(self.head_length, max(0.32 * c.length, 0.6 * self.head_length)) for c in curves]
+        at = _parameters_at_distances(controls[[c.row for c in curves] * 2],
+                                      np.array(heads + [0.65 * h for h in heads]))
+        ends = iter(zip(heads, at[:len(curves)], at[len(curves):]))
+        done = iter(zip(work, chosen))
         out = []
         for _, moves, _, _ in panels:
             if not moves:
                 out.append(([], []))
                 continue
-            w, options, pairs = next(planned)
-            chosen = self._choose(options, pairs)
-            out.append(([self._arrow(w.step, move, src, snk, cand, w.panel)
-                         for move, src, snk, cand in zip(w.moves, w.sources, w.sinks, chosen)], w.marks))
+            w, cands = next(done)
+            out.append(([self._arrow(w.step, move, src, snk, cand, w.panel, *next(ends))
+                         for move, src, snk, cand in zip(w.moves, w.sources, w.sinks, cands)], w.marks))
         return out
 
     def _try(self, step: int, moves: list[ResolvedMove], state: ElectronState, panel: PanelStructure) -> _PanelArrows:
@@ -551,13 +559,13 @@ class ArrowPlanner:
 
     # the final arrow
     def _arrow(self, step: int, move: ResolvedMove, src: _Anchor, snk: _Anchor, c: _Candidate,
-               panel: PanelStructure) -> CurvedArrow:
+               panel: PanelStructure, head: float, t_base: float, t_shaft: float) -> CurvedArrow:
+        """The arrow drawn along candidate c: its head `head` long, its base at parameter t_base,
+        the shaft ending under the head at t_shaft."""
         p0, p1, p2, tip = c.p0, c.p1, c.p2, c.tip
-        # A short arrow gets a smaller head, so the head never swallows the curve.
-        head = min(self.head_length, max(0.32 * c.length, 0.6 * self.head_length))
-        base = bezier(p0, p1, p2, tip, _parameter_at_distance(p0, p1, p2, tip, head))
+        base = bezier(p0, p1, p2, tip, t_base)
         direction = _unit(tip - base)
-        s0, s1, s2, s3 = split_before(p0, p1, p2, tip, _parameter_at_distance(p0, p1, p2, tip, 0.65 * head))
+        s0, s1, s2, s3 = split_before(p0, p1, p2, tip, t_shaft)
         normal = direction * 1j
         back = tip - direction * head
         notch = tip - direction * 0.72 * head
@@ -636,17 +644,17 @@ def _in_crook(middles: np.ndarray, sources: list[_Anchor], sinks: list[_Anchor],
     return out
 
 
-def _parameter_at_distance(p0: complex, p1: complex, p2: complex, p3: complex, distance: float) -> float:
-    """The parameter t (near the end) where the curve is `distance` from its end point."""
-    lo, hi = 0.0, 1.0
+def _parameters_at_distances(controls: np.ndarray, distances: np.ndarray) -> list[float]:
+    """For each curve (rows of control points) the parameter t, near its end, where it is
+    `distances[row]` from its end point: sixteen halvings, every curve at once."""
+    p0, p1, p2, p3 = (controls[:, k] for k in range(4))
+    lo, hi = np.zeros(len(controls)), np.ones(len(controls))
     for _ in range(16):
         t = (lo + hi) / 2
-        s = 1 - t   # bezier() written out: this loop runs 16 times for every head and shaft end
-        if abs(s * s * s * p0 + 3 * s * s * t * p1 + 3 * s * t * t * p2 + t * t * t * p3 - p3) > distance:
-            lo = t
-        else:
-            hi = t
-    return lo
+        s = 1 - t
+        far = np.abs(s * s * s * p0 + 3 * s * s * t * p1 + 3 * s * t * t * p2 + t * t * t * p3 - p3) > distances
+        lo, hi = np.where(far, t, lo), np.where(far, hi, t)
+    return lo.tolist()
 
 
 _TOUCH = 1e-6   # points: bounding boxes this close count as meeting, so rounding never hides a crossing
