@@ -54,6 +54,37 @@ step "split" under "hv"
     O1-O2 ~> O2
 end
 """,
+    # Homolyses as radical-chemistry texts draw them (common practice): both electrons of one
+    # bond go to its two atoms. Ethane and chloromethane once drew an S-shaped fishhook (an arc
+    # that set off backwards), hydrogen peroxide and the hypochlorite both fishhooks on one side.
+    "ethane homolysis": """\
+species ethane = "[CH3:1][CH3:2]"
+step "split"
+    C1-C2 ~> C1
+    C1-C2 ~> C2
+end
+""",
+    "chloromethane homolysis": """\
+species chloromethane = "[CH3:1][Cl:2]"
+step "split"
+    C1-Cl2 ~> C1
+    C1-Cl2 ~> Cl2
+end
+""",
+    "hydrogen peroxide homolysis": """\
+species peroxide = "[OH:1][OH:2]"
+step "split"
+    O1-O2 ~> O1
+    O1-O2 ~> O2
+end
+""",
+    "hypochlorite homolysis": """\
+species hypochlorite = "[CH3:1][O:2][Cl:3]"
+step "split"
+    O2-Cl3 ~> O2
+    O2-Cl3 ~> Cl3
+end
+""",
     "ionisation": """\
 species substrate = "C[C:2](C)(C)[Cl:1]"
 step "ionisation"

@@ -216,8 +216,10 @@ class ArrowPlanner:
             start = end
         self._score(work, candidates, controls, points)
         kept = [[sorted(tries, key=lambda c: c.cost)[:_KEEP] for tries in w.tries] for w in work]
-        chosen = [self._choose(options, pairs)
-                  for options, pairs in zip(kept, self._pair_costs(kept, controls, points))]
+        pair_costs = self._pair_costs(kept, controls, points)
+        for w, options, pairs in zip(work, kept, pair_costs):
+            _split_bond_sides(w, options, pairs)
+        chosen = [self._choose(options, pairs) for options, pairs in zip(kept, pair_costs)]
         # A short arrow gets a smaller head, so the head never swallows the curve; where the
         # head's base and the shaft's end fall on each curve is found for all arrows at once.
         curves = [c for cands in chosen for c in cands]
@@ -245,8 +247,11 @@ class ArrowPlanner:
         tails = [(panel.positions[m.source_atoms[0]] + panel.positions[m.source_atoms[1]]) / 2
                  for m in moves if m.source_kind == "bond"]
         sources = [self._source(move, panel, sink, marks, tails) for move, sink in zip(moves, sinks)]
-        tries = [self._candidates(src, snk, panel) + self._hooks(move, src, snk, panel)
-                 for move, src, snk in zip(moves, sources, sinks)]
+        tries = []
+        for move, src, snk in zip(moves, sources, sinks):
+            hooks = self._hooks(move, src, snk, panel)
+            # A fishhook from a bond to its own atom never sets off backwards: that reads as an S.
+            tries.append(self._candidates(src, snk, panel, forward_only=bool(hooks)) + hooks)
         return _PanelArrows(step, moves, panel, marks, sources, sinks, tries)
 
     # anchors
@@ -323,10 +328,14 @@ class ArrowPlanner:
                 sink.point = sink.point + along * 0.16 * self.bl
 
     # candidate curves
-    def _candidates(self, src: _Anchor, snk: _Anchor, panel: PanelStructure) -> list[_Candidate]:
-        """Near-circular arcs from source to sink, bending to either side by a few angles."""
+    def _candidates(self, src: _Anchor, snk: _Anchor, panel: PanelStructure, forward_only: bool = False
+                    ) -> list[_Candidate]:
+        """Near-circular arcs from source to sink, bending to either side by a few angles; with
+        `forward_only`, none that leaves at more than a right angle to the chord."""
         chord = abs(snk.point - src.point)
         angles = _SHORT_ANGLES if chord < 0.9 * self.bl else _ANGLES
+        if forward_only:
+            angles = tuple(theta for theta in angles if theta < math.pi / 2)
         return [self._arc(src, snk, side, theta, panel) for side in (1, -1) for theta in angles]
 
     def _hooks(self, move: ResolvedMove, src: _Anchor, snk: _Anchor, panel: PanelStructure) -> list[_Candidate]:
@@ -607,6 +616,35 @@ def _beside_bond(occupied: list[complex], toward: complex, tails: list[complex] 
         return (min(clearance(d, occupied), _DOTS_ROOM) + 0.5 * min(turn, math.pi / 2)
                 - 0.6 * max(0.0, turn - math.pi / 2) - facing)
     return max(_AROUND, key=score)
+
+
+_SAME_SIDE = 40.0   # the two fishhooks of one split bond drawn on one side of it
+
+
+def _is_split(move: ResolvedMove) -> bool:
+    """A single electron going from a bond to one of that bond's own atoms (homolysis)."""
+    return (move.electrons == 1 and move.source_kind == "bond" and len(move.sink_atoms) == 1
+            and move.sink_atoms[0] in move.source_atoms)
+
+
+def _split_bond_sides(w: _PanelArrows, options: list[list[_Candidate]],
+                      pairs: dict[tuple[int, int], np.ndarray]) -> None:
+    """When both electrons of a bond go to its two atoms, the two fishhooks run on opposite
+    sides of the bond (common practice for the homolysis of Br2 or a peroxide): a pair of
+    candidates on one side costs _SAME_SIDE more."""
+    split: dict[tuple[int, int], list[int]] = {}
+    for k, move in enumerate(w.moves):
+        if _is_split(move):
+            split.setdefault(tuple(sorted(move.source_atoms)), []).append(k)
+    for (a, b), arrows in split.items():
+        if len(arrows) != 2:
+            continue
+        axis = _unit(w.panel.positions[b] - w.panel.positions[a])
+        i, j = arrows
+        sides = [np.array([((bezier(c.p0, c.p1, c.p2, c.tip, 0.5) - w.sources[k].point) / axis).imag > 0
+                           for c in options[k]]) for k in (i, j)]
+        if (i, j) in pairs:
+            pairs[(i, j)] = pairs[(i, j)] + _SAME_SIDE * (sides[0][:, None] == sides[1][None, :])
 
 
 def _curve_features(groups: list[list[_Candidate]], controls: np.ndarray, samples: np.ndarray) -> tuple[np.ndarray, ...]:
