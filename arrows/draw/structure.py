@@ -245,9 +245,12 @@ class StructureDrawer:
             count = str(hidden_h) if hidden_h > 1 else ""
             w_h, w_n = self.face.width("H", fs), self.face.width(count, ss)
             # Neighbours' labels count as taken too, so the H is written where there is room.
-            crowd = [_unit_or_zero(q - p) for j, q in positions.items()
-                     if j != i and 1e-9 < abs(q - p) < 1.25 * self.style.bond_length and j not in neighbours]
-            side = self._hydrogen_side(atom, out.occupied[i] + [c for c in crowd if c])
+            # Other atoms within reach, each with the room (across, up) its own label may take: a
+            # carbon, mostly a bare skeletal vertex or line end, little; a letter more.
+            bl = self.style.bond_length
+            crowd = [(q - p, *((0.2 * bl, 0.2 * bl) if element[j] == 6 else (0.45 * bl, 0.3 * bl)))
+                     for j, q in positions.items() if j != i and 1e-9 < abs(q - p) < 1.25 * bl and j not in neighbours]
+            side = self._hydrogen_side(atom, out.occupied[i], crowd, w_symbol / 2, w_h + w_n)
             sub_drop = 0.3 * fs
             if side == 1:
                 x = p.real + w_symbol / 2
@@ -268,15 +271,33 @@ class StructureDrawer:
             out.occupied[i].append(complex(side) if side in (1, -1) else side)
         return AtomDrawing(i, name, symbol, point, tuple(runs), self._runs_box(runs))
 
-    def _hydrogen_side(self, atom: Chem.Atom, occupied: list[complex]):
-        """1 (right), -1 (left), 1j (below) or -1j (above): the first with room for 'H'."""
+    def _hydrogen_side(self, atom: Chem.Atom, bonds: list[complex], crowd: list[tuple[complex, float, float]],
+                       half_symbol: float, h_width: float):
+        """1 (right), -1 (left), 1j (below) or -1j (above): the first side beside the symbol that
+        keeps 50 degrees from the atom's bonds and from the atoms around (`crowd`: each as its
+        offset and the room, across and up, that its label may need); when neither does, the side
+        where the 'H' text runs into the fewest of those atoms (a bond within 50 degrees counts as
+        one), then the one furthest round from bonds and atoms."""
+        occupied = bonds + [_unit_or_zero(c) for c, _, _ in crowd]
         if not occupied:
             return -1 if atom.GetAtomicNum() in _HYDROGEN_FIRST else 1
         limit = math.radians(50)
         for side in (1, -1):
             if clearance(complex(side), occupied) >= limit:
                 return side
-        return max((1j, -1j, 1, -1), key=lambda s: clearance(complex(s), occupied))
+        half_height, line = 0.5 * self.cap, 1.1 * self.style.font_size
+
+        def meets(side) -> int:
+            if side in (1, -1):
+                x0, x1 = sorted((side * half_symbol, side * (half_symbol + h_width)))
+                y = 0.0
+            else:
+                x0, x1, y = -h_width / 2, h_width / 2, side.imag * line
+            hit = sum(1 for c, across, up in crowd
+                      if x0 - across <= c.real <= x1 + across and abs(c.imag - y) <= half_height + up)
+            return hit + (clearance(complex(side), bonds) < limit)
+
+        return min((1j, -1j, 1, -1), key=lambda s: (meets(s), -clearance(complex(s), occupied)))
 
     def _runs_box(self, runs: list[TextRun]) -> Box:
         boxes = [self.text_box(r) for r in runs]
