@@ -11,6 +11,8 @@ from contextlib import contextmanager
 from contextvars import ContextVar
 from typing import Callable, Iterator, Optional
 
+from rdkit import Chem
+
 from ..diagnostics import Diagnostic
 from ..judgement.acidity import Acidity, acidity_of
 from ..judgement.perception import Perceived, RecentViews
@@ -75,7 +77,9 @@ def proton_transfers(st: StepTrace, views: Optional[RecentViews] = None) -> list
                and before.GetBondBetweenAtoms(*b).GetBondTypeAsDouble() == 1 for b in broken):
             continue   # a concerted elimination, not a plain proton transfer
         if (m.source_kind == "bond" and _next_to_cation(st.after, base)) or _next_to_cation(st.before, x):
-            continue   # a cation's conjugate acid, or a C-H beta to a cation (E1): no entry in our table
+            # A cation's conjugate acid, or a C-H beta to a cation (E1, or the alpha C-H of a
+            # protonated carbonyl or an iminium): no entry in our table.
+            continue
         found.append((base, x, h, m.move.loc))
     if not found:
         return []
@@ -94,8 +98,18 @@ def _other(pair: tuple[int, ...], atom: int) -> int:
 
 
 def _next_to_cation(state, atom: int) -> bool:
-    return any(state.formal_charge(n.GetIdx()) > 0 and state.nonbonding[n.GetIdx()] == 0
-               for n in state.mol.GetAtomWithIdx(atom).GetNeighbors())
+    """Whether a neighbour of `atom` is a cation without lone pairs, or bears the cation in a
+    resonance form: the carbon of C=O+ (a protonated carbonyl) or C=N+ (an iminium), whose
+    alpha C-H is far more acidic than the neutral carbonyl's (acid-catalysed enolisation,
+    enamine formation; common practice)."""
+    for n in state.mol.GetAtomWithIdx(atom).GetNeighbors():
+        i = n.GetIdx()
+        if state.formal_charge(i) > 0 and state.nonbonding[i] == 0:
+            return True
+        if any(b.GetBondType() == Chem.BondType.DOUBLE and state.formal_charge(b.GetOtherAtomIdx(i)) > 0
+               for b in n.GetBonds()):
+            return True
+    return False
 
 
 class UphillProtonTransfers(Check):
