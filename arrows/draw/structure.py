@@ -248,9 +248,13 @@ class StructureDrawer:
             # Other atoms within reach, each with the room (across, up) its own label may take: a
             # carbon, mostly a bare skeletal vertex or line end, little; a letter more.
             bl = self.style.bond_length
-            crowd = [(q - p, *((0.2 * bl, 0.2 * bl) if element[j] == 6 else (0.45 * bl, 0.3 * bl)))
+            crowd = [(q - p, *((0.3 * bl, 0.2 * bl) if element[j] == 6 else (0.45 * bl, 0.3 * bl)))
                      for j, q in positions.items() if j != i and 1e-9 < abs(q - p) < 1.25 * bl and j not in neighbours]
-            side = self._hydrogen_side(atom, out.occupied[i], crowd, w_symbol / 2, w_h + w_n)
+            # The other bonds within reach, which the text must not sit on either.
+            near = [j for j, q in positions.items() if j != i and abs(q - p) < 1.6 * bl]
+            walls = [(positions[a] - p, positions[b] - p) for a in near for b in adjacent[a]
+                     if b != i and b in positions and (b not in near or a < b)]
+            side = self._hydrogen_side(atom, out.occupied[i], crowd, walls, w_symbol / 2, w_h + w_n)
             sub_drop = 0.3 * fs
             if side == 1:
                 x = p.real + w_symbol / 2
@@ -272,20 +276,18 @@ class StructureDrawer:
         return AtomDrawing(i, name, symbol, point, tuple(runs), self._runs_box(runs))
 
     def _hydrogen_side(self, atom: Chem.Atom, bonds: list[complex], crowd: list[tuple[complex, float, float]],
-                       half_symbol: float, h_width: float):
-        """1 (right), -1 (left), 1j (below) or -1j (above): the first side beside the symbol that
-        keeps 50 degrees from the atom's bonds and from the atoms around (`crowd`: each as its
-        offset and the room, across and up, that its label may need); when neither does, the side
-        where the 'H' text runs into the fewest of those atoms (a bond within 50 degrees counts as
-        one), then the one furthest round from bonds and atoms."""
+                       walls: list[tuple[complex, complex]], half_symbol: float, h_width: float):
+        """1 (right), -1 (left), 1j (below) or -1j (above): the first side beside the symbol where
+        the 'H' text keeps 50 degrees from the atom's bonds and meets neither the atoms around
+        (`crowd`: each as its offset and the room, across and up, that its label may need) nor
+        other bonds (`walls`, as offsets of their ends); when neither side does, the side that
+        meets the fewest (a bond of the atom within 50 degrees counts as one), then the one
+        furthest round from bonds and atoms."""
         occupied = bonds + [_unit_or_zero(c) for c, _, _ in crowd]
         if not occupied:
             return -1 if atom.GetAtomicNum() in _HYDROGEN_FIRST else 1
         limit = math.radians(50)
-        for side in (1, -1):
-            if clearance(complex(side), occupied) >= limit:
-                return side
-        half_height, line = 0.5 * self.cap, 1.1 * self.style.font_size
+        half_height, line, pad = 0.5 * self.cap, 1.1 * self.style.font_size, 0.08 * self.style.bond_length
 
         def meets(side) -> int:
             if side in (1, -1):
@@ -295,8 +297,13 @@ class StructureDrawer:
                 x0, x1, y = -h_width / 2, h_width / 2, side.imag * line
             hit = sum(1 for c, across, up in crowd
                       if x0 - across <= c.real <= x1 + across and abs(c.imag - y) <= half_height + up)
+            text = Box(x0 - pad, y - half_height - pad, x1 + pad, y + half_height + pad)
+            hit += sum(1 for a, b in walls if _segment_hits_box(a, b, text))
             return hit + (clearance(complex(side), bonds) < limit)
 
+        for side in (1, -1):
+            if not meets(side):
+                return side
         return min((1j, -1j, 1, -1), key=lambda s: (meets(s), -clearance(complex(s), occupied)))
 
     def _runs_box(self, runs: list[TextRun]) -> Box:
