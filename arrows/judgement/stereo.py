@@ -52,11 +52,16 @@ def _elements(view: Perceived) -> frozenset[StereoElement]:
     found = set()
     for info in Chem.FindPotentialStereo(plain, cleanIt=True):
         if info.type == Chem.StereoType.Atom_Tetrahedral:
-            found.add(StereoElement(CENTRE, (original[info.centeredOn],)))
+            # RDKit offers an atom of the third period with four implicit hydrogens ([SiH4],
+            # [PH4+], [AlH4-]); two equal substituents never make a stereocentre.
+            if plain.GetAtomWithIdx(info.centeredOn).GetTotalNumHs() < 2:
+                found.add(StereoElement(CENTRE, (original[info.centeredOn],)))
         elif info.type == Chem.StereoType.Bond_Double:
             bond = plain.GetBondWithIdx(info.centeredOn)
             if not all(_distinct_ends(plain, ranks, a, bond.GetOtherAtomIdx(a))
                        for a in (bond.GetBeginAtomIdx(), bond.GetEndAtomIdx())):
+                continue
+            if _exchangeable_end(bond.GetBeginAtom()) or _exchangeable_end(bond.GetEndAtom()):
                 continue
             ends = sorted((original[bond.GetBeginAtomIdx()], original[bond.GetEndAtomIdx()]))
             found.add(StereoElement(DOUBLE_BOND, tuple(ends)))
@@ -66,6 +71,13 @@ def _elements(view: Perceived) -> frozenset[StereoElement]:
         found -= {e for e in centres if view.position(e.atoms[0]) in lost}
     found -= _without_stereoisomers(plain, view, [e for e in found if e.kind == CENTRE], found, ranks)
     return frozenset(found)
+
+
+def _exchangeable_end(atom: Chem.Atom) -> bool:
+    """A double-bond end whose only substituent is a hydrogen on a heteroatom (C=OH+ of a
+    protonated carbonyl, C=NH of an imine or iminium): its E and Z forms interconvert by proton
+    exchange, so the bond is not stereogenic in practice (common practice)."""
+    return atom.GetAtomicNum() not in (6, 1) and atom.GetDegree() == 1 and atom.GetTotalNumHs() >= 1
 
 
 def _without_stereoisomers(plain: Chem.Mol, view: Perceived, centres: list[StereoElement],
