@@ -85,26 +85,6 @@ step "split"
     O2-Cl3 ~> Cl3
 end
 """,
-    # A tetrahedral intermediate with a wide charged label beside an anionic oxygen: the H2N+ of
-    # the aminolysis once put its hydrogens on the side of the O- and ran into its label.
-    "aminolysis": """\
-species ester = "C[C:1](=[O:2])[O:3]C"
-species amine = "[NH3:4]"
-species amine_2 = "[NH3:5]"
-step "addition"
-    :N4 -> C1
-    C1=O2 -> O2
-end
-step "proton transfer"
-    :N5 -> H(N4)
-    N4-H -> N4
-end
-step "elimination"
-    :O2 -> C1=O2
-    C1-O3 -> O3
-end
-product "CC(N)=O.C[O-].[NH4+]"
-""",
     "ionisation": """\
 species substrate = "C[C:2](C)(C)[Cl:1]"
 step "ionisation"

@@ -3,7 +3,9 @@ reaction (common practice in organic chemistry texts; the products are the textb
 from memory). They reach what the gallery does not: phosphorus and magnesium, a four-membered
 ring that opens again, a three-membered ring between two species, a ring that grows, a 1,2-shift,
 a [3,3] shift, a four-centre addition, aromatic substitutions (electrophilic and nucleophilic),
-a 1,3-dipolar cycloaddition, an enol halogenation.
+a 1,3-dipolar cycloaddition, an enol halogenation; carbocations met by water (SN1, E1, Markovnikov
+hydration), an acylium, carbonyls protonated on oxygen (acid-catalysed enolisation and aldol), a
+tetrahedral intermediate from an amine, a hydride donor, a [3,3] shift through oxygen.
 
 Each entry: (mechanism text, textbook product SMILES, drawn): `drawn` says whether the geometry
 tests draw it (the nitration is left out: its nitronium changes from linear to bent within one
@@ -198,6 +200,154 @@ end
 product "CC(=O)CBr.Br"
 '''
 
+# SN1: ionisation of tert-butyl bromide, capture by water, proton transfer to water.
+SN1_HYDROLYSIS = '''\
+species substrate = "C[C:1](C)(C)[Br:2]"
+species water = "[OH2:3]"
+species water_2 = "[OH2:4]"
+step "ionisation" under "slow"
+    C1-Br2 -> Br2
+end
+step "capture"
+    :O3 -> C1
+end
+step "proton transfer"
+    :O4 -> H(O3)
+    O3-H -> O3
+end
+product "CC(C)(C)O.[Br-].[OH3+]"
+'''
+
+# E1: the alcohol protonated, water leaves, water takes a beta proton (Zaitsev alkene).
+E1_DEHYDRATION = '''\
+species alcohol = "C[CH2:5][C:1](C)(C)[OH:2]"
+species acid = "[OH3+:3]"
+step "protonation"
+    :O2 -> H(O3)
+    O3-H -> O3
+end
+step "loss of water"
+    C1-O2 -> O2
+end
+step "deprotonation"
+    :O3 -> H(C5)
+    C5-H -> C1=C5
+end
+product "CC=C(C)C.O.[OH3+]"
+'''
+
+# Friedel-Crafts acylation: an acylium attacks benzene; chloride restores the ring.
+FRIEDEL_CRAFTS_ACYLATION = '''\
+species benzene = "[cH:1]1[cH:2][cH:3][cH:4][cH:5][cH:6]1"
+species acylium = "C[C:7]#[O+:8]"
+species base = "[Cl-:9]"
+step "attack"
+    C1=C2 -> C1-C7
+    C7#O8 -> O8
+end
+step "rearomatisation"
+    :Cl9 -> H(C1)
+    C1-H -> C1=C2
+end
+product "CC(=O)c1ccccc1.Cl"
+'''
+
+# Acid-catalysed enolisation of acetone: O-protonation, then water takes an alpha proton.
+ACID_ENOLISATION = '''\
+species acetone = "[CH3:1][C:2](=[O:3])C"
+species acid = "[OH3+:4]"
+species water = "[OH2:5]"
+step "protonation"
+    :O3 -> H(O4)
+    O4-H -> O4
+end
+step "deprotonation"
+    :O5 -> H(C1)
+    C1-H -> C1=C2
+    C2=O3 -> O3
+end
+product "C=C(C)O.[OH3+].O"
+'''
+
+# Aminolysis of an ester: addition, proton transfer, loss of methoxide. (Its tetrahedral
+# intermediate once wrote H2N+ over the O- label beside it.)
+AMINOLYSIS = '''\
+species ester = "C[C:1](=[O:2])[O:3]C"
+species amine = "[NH3:4]"
+species amine_2 = "[NH3:5]"
+step "addition"
+    :N4 -> C1
+    C1=O2 -> O2
+end
+step "proton transfer"
+    :N5 -> H(N4)
+    N4-H -> N4
+end
+step "elimination"
+    :O2 -> C1=O2
+    C1-O3 -> O3
+end
+product "CC(N)=O.C[O-].[NH4+]"
+'''
+
+# Claisen rearrangement of allyl vinyl ether, a [3,3] shift.
+CLAISEN_REARRANGEMENT = '''\
+species ether = "[CH2:1]=[CH:2][O:3][CH2:4][CH:5]=[CH2:6]"
+step "[3,3] shift" over "heat"
+    C1=C2 -> C1-C6
+    O3-C4 -> C2=O3
+    C5=C6 -> C4=C5
+end
+product "C=CCCC=O"
+'''
+
+# Markovnikov hydration of an alkene: protonation to the tertiary cation, water, proton transfer.
+ACID_HYDRATION = '''\
+species alkene = "[CH2:1]=[C:2](C)C"
+species acid = "[OH3+:3]"
+species water = "[OH2:4]"
+step "protonation"
+    C1=C2 -> C1-H(O3)
+    O3-H -> O3
+end
+step "capture"
+    :O4 -> C2
+end
+step "deprotonation"
+    :O3 -> H(O4)
+    O4-H -> O4
+end
+product "CC(C)(C)O.[OH3+]"
+'''
+
+# Hydride from AlH4- adds to an aldehyde carbonyl.
+HYDRIDE_ADDITION = '''\
+species aldehyde = "CC[CH:1]=[O:2]"
+species hydride = "[AlH4-:3]"
+step "hydride transfer"
+    Al3-H -> C1-H(Al3)
+    C1=O2 -> O2
+end
+product "CCC[O-].[AlH3]"
+'''
+
+# Acid-catalysed aldol addition: the enol attacks the O-protonated ketone.
+ACID_ALDOL = '''\
+species enol = "[CH2:1]=[C:2](C)[OH:3]"
+species ketone = "[CH3:4][C:5](C)=[OH+:6]"
+species water = "[OH2:7]"
+step "C-C bond formation"
+    C1=C2 -> C1-C5
+    C5=O6 -> O6
+    :O3 -> C2=O3
+end
+step "deprotonation"
+    :O7 -> H(O3)
+    O3-H -> O3
+end
+product "CC(=O)CC(C)(C)O.[OH3+]"
+'''
+
 TEXTBOOK = {
     "wittig": (WITTIG, "C=C(C)C.O=P(c1ccccc1)(c1ccccc1)c1ccccc1", True),
     "bromination": (BROMINATION, "BrC1CCCCC1Br", True),
@@ -211,4 +361,13 @@ TEXTBOOK = {
     "snar": (SNAR, "COc1ccc([N+](=O)[O-])cc1", True),
     "ozone cycloaddition": (OZONE_CYCLOADDITION, "C1COOO1", True),
     "enol bromination": (ENOL_BROMINATION, "CC(=O)CBr.Br", True),
+    "sn1 hydrolysis": (SN1_HYDROLYSIS, "CC(C)(C)O.[Br-].[OH3+]", True),
+    "e1 dehydration": (E1_DEHYDRATION, "CC=C(C)C.O.[OH3+]", True),
+    "friedel-crafts acylation": (FRIEDEL_CRAFTS_ACYLATION, "CC(=O)c1ccccc1.Cl", True),
+    "acid enolisation": (ACID_ENOLISATION, "C=C(C)O.[OH3+]", True),
+    "aminolysis": (AMINOLYSIS, "CC(N)=O.C[O-].[NH4+]", True),
+    "claisen rearrangement": (CLAISEN_REARRANGEMENT, "C=CCCC=O", True),
+    "acid hydration": (ACID_HYDRATION, "CC(C)(C)O.[OH3+]", True),
+    "hydride addition": (HYDRIDE_ADDITION, "CCC[O-].[AlH3]", True),
+    "acid aldol": (ACID_ALDOL, "CC(=O)CC(C)(C)O.[OH3+]", True),
 }
