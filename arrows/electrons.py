@@ -64,6 +64,7 @@ class ElectronState:
     bond_sums: tuple[int, ...] = ()
     elements: tuple[int, ...] = ()      # atomic number per atom
     configured: Optional[bool] = None   # whether some atom or bond carries a written configuration
+    framework: Optional[frozenset[tuple[int, int, int]]] = None   # see `bond_framework`
 
     def __post_init__(self) -> None:
         # A step hands these on (the common case, checked cheaply); a new state derives them.
@@ -101,6 +102,22 @@ class ElectronState:
 
     def label(self, i: int) -> str:
         return atom_label(self.mol, i)
+
+    def bond_framework(self) -> frozenset[tuple[int, int, int]]:
+        """(i, j, order), i < j, of every bond except those joining a hydrogen to another element.
+        With N and B of every atom it fixes the state up to which hydrogen sits where (each atom's
+        own hydrogen count never changes): the perceived views of two states of one replay that
+        agree on all three are the same (judgement/perception.py). A step hands it on updated."""
+        if self.framework is None:
+            elements, bond = self.elements, self.mol.GetBondWithIdx
+            found = set()
+            for k in range(self.mol.GetNumBonds()):
+                b = bond(k)
+                i, j = pair(b.GetBeginAtomIdx(), b.GetEndAtomIdx())
+                if (elements[i] == 1) == (elements[j] == 1):
+                    found.add((i, j, int(b.GetBondTypeAsDouble())))
+            object.__setattr__(self, "framework", frozenset(found))
+        return self.framework
 
 
 def _bond_sums(mol: Chem.Mol) -> list[int]:
@@ -569,7 +586,26 @@ def _settle(state: ElectronState, step: Step, step_index: int, replay: _StepRepl
                                 "check charges and bond orders with `arrows trace`", step=step_index))
         return None, change, diags
     return (ElectronState(work, tuple(nonbonding), state.released, valence, tuple(bond_sums), elements,
-                          state.configured), change, diags)
+                          state.configured, _next_framework(state, new_bonds, replay)), change, diags)
+
+
+def _next_framework(state: ElectronState, new_bonds: dict[Pair, int], replay: _StepReplay):
+    """The bond framework after a step, from the one before (None when nobody asked for it)."""
+    if state.framework is None:
+        return None
+    elements = state.elements
+    removed, added = [], []
+    for (i, j), electrons in new_bonds.items():
+        if (elements[i] == 1) != (elements[j] == 1):
+            continue
+        before = replay.bond_before(i, j)
+        if before:
+            removed.append((i, j, before // 2))
+        if electrons:
+            added.append((i, j, electrons // 2))
+    if not removed and not added:
+        return state.framework
+    return state.framework.difference(removed).union(added)
 
 
 def _has_configuration(mol: Chem.Mol) -> bool:

@@ -25,24 +25,28 @@ class Fragment:
     smiles: str
 
 
-def _prepared(mol: Chem.Mol, keep_maps: frozenset[int], origins: bool) -> Chem.Mol:
-    """`origins`: each atom records its index in `mol` (_ORIGIN), for naming atoms in an explanation."""
+_REMOVE_HS = Chem.RemoveHsParameters()
+_REMOVE_HS.removeMapped = True
+_REMOVE_HS.removeDefiningBondStereo = True
+
+
+def _prepared(mol: Chem.Mol, keep_maps: Optional[frozenset[int]], origins: bool) -> Chem.Mol:
+    """`keep_maps` None keeps every map number; `origins`: each atom records its index in `mol`
+    (_ORIGIN), for naming atoms in an explanation."""
     work = Chem.RWMol(mol)
-    for i in range(work.GetNumAtoms()):   # by index: RDKit's Python atom iterator is several times slower
-        atom = work.GetAtomWithIdx(i)
-        if origins:
-            atom.SetIntProp(_ORIGIN, i)
-        number = atom.GetAtomMapNum()
-        if number and number not in keep_maps:
-            atom.SetAtomMapNum(0)
+    if origins or keep_maps is not None:
+        for i in range(work.GetNumAtoms()):   # by index: RDKit's Python atom iterator is several times slower
+            atom = work.GetAtomWithIdx(i)
+            if origins:
+                atom.SetIntProp(_ORIGIN, i)
+            number = atom.GetAtomMapNum()
+            if number and number not in keep_maps:
+                atom.SetAtomMapNum(0)
     Chem.SanitizeMol(work)
-    params = Chem.RemoveHsParameters()
-    params.removeMapped = True
-    params.removeDefiningBondStereo = True
-    return Chem.RemoveHs(work, params, sanitize=False)
+    return Chem.RemoveHs(work, _REMOVE_HS, sanitize=False)
 
 
-def fragments(mol: Chem.Mol, keep_maps: frozenset[int] = frozenset(), origins: bool = False) -> list[Fragment]:
+def fragments(mol: Chem.Mol, keep_maps: Optional[frozenset[int]] = frozenset(), origins: bool = False) -> list[Fragment]:
     out = []
     for frag in Chem.GetMolFrags(_prepared(mol, keep_maps, origins), asMols=True, sanitizeFrags=False):
         out.append(Fragment(frag, Chem.MolToSmiles(frag)))
@@ -57,7 +61,7 @@ def _written_fragments(checkpoint: Checkpoint) -> tuple[Optional[list[Fragment]]
         Chem.RemoveStereochemistry(mol)
         maps = frozenset(a.GetAtomMapNum() for a in atom_list(mol) if a.GetAtomMapNum())
         try:
-            return fragments(mol, maps), "", maps
+            return fragments(mol, None), "", maps   # the written structure keeps all its map numbers
         except Exception:   # RDKit's full reading below says why, in its own words
             pass
     _, reason, _ = read_smiles(checkpoint.smiles)
