@@ -82,13 +82,44 @@ class ElectronState:
                     released: frozenset[int] = frozenset()) -> "ElectronState":
         """A state read off a Mol: N = V - formal charge - B for every atom after the first
         len(known_nonbonding), whose N is given (`uses` appends atoms to a state whose electrons
-        have already moved)."""
-        atoms = atom_list(mol)
-        sums = tuple(_bond_sums(mol))
+        have already moved). One walk over the atoms and one over the bonds find everything."""
+        atom, count = mol.GetAtomWithIdx, mol.GetNumAtoms()
+        unspecified = Chem.ChiralType.CHI_UNSPECIFIED
+        elements, charges, orders = [0] * count, [0] * count, [0.0] * count
+        hydrogens = [0] * count
+        configured = False
+        for i in range(count):
+            a = atom(i)
+            elements[i], charges[i], hydrogens[i] = a.GetAtomicNum(), a.GetFormalCharge(), a.GetNumExplicitHs()
+            if a.GetChiralTag() != unspecified:
+                configured = True
+        bond, no_stereo = mol.GetBondWithIdx, Chem.BondStereo.STEREONONE
+        framework = set()
+        for k in range(mol.GetNumBonds()):
+            b = bond(k)
+            order = b.GetBondTypeAsDouble()
+            i, j = b.GetBeginAtomIdx(), b.GetEndAtomIdx()
+            orders[i] += order
+            orders[j] += order
+            if b.GetStereo() != no_stereo:
+                configured = True
+            if (elements[i] == 1) == (elements[j] == 1):
+                framework.add((i, j, int(order)) if i < j else (j, i, int(order)))
+        sums = tuple(int(total) + h for total, h in zip(orders, hydrogens))
+        valence = tuple(valence_electrons(z) for z in elements)
         nonbonding = tuple(known_nonbonding) + tuple(
-            valence_electrons(atoms[i].GetAtomicNum()) - atoms[i].GetFormalCharge() - sums[i]
-            for i in range(len(known_nonbonding), len(atoms)))
-        return cls(mol, nonbonding, released, bond_sums=sums)   # elements and V derived on creation
+            valence[i] - charges[i] - sums[i] for i in range(len(known_nonbonding), count))
+        return cls(mol, nonbonding, released, valence, sums, tuple(elements), configured, frozenset(framework))
+
+    def appended(self, other: "ElectronState", mol: Chem.Mol) -> "ElectronState":
+        """This state with the atoms of `other` after its own, as `uses` brings a species in; `mol`
+        is Chem.CombineMols(self.mol, other.mol). The numbers of both are joined, not read off
+        the combined Mol again."""
+        offset = len(self.nonbonding)
+        shifted = {(i + offset, j + offset, order) for i, j, order in other.bond_framework()}
+        return ElectronState(mol, self.nonbonding + other.nonbonding, self.released, self.valence + other.valence,
+                             self.bond_sums + other.bond_sums, self.elements + other.elements,
+                             bool(self.configured or other.configured), self.bond_framework().union(shifted))
 
     def bond_electrons(self, i: int, j: int) -> int:
         bond = self.mol.GetBondBetweenAtoms(i, j)
@@ -104,10 +135,12 @@ class ElectronState:
         return atom_label(self.mol, i)
 
     def bond_framework(self) -> frozenset[tuple[int, int, int]]:
-        """(i, j, order), i < j, of every bond except those joining a hydrogen to another element.
-        With N and B of every atom it fixes the state up to which hydrogen sits where (each atom's
-        own hydrogen count never changes): the perceived views of two states of one replay that
-        agree on all three are the same (judgement/perception.py). A step hands it on updated."""
+        """(i, j, order), i < j, of every bond except those joining a hydrogen to another element,
+        the order counted as the bookkeeping counts it (bond_electrons). With N and B of every atom
+        it fixes the state up to which hydrogen sits where (each atom's own hydrogen count never
+        changes): the perceived views of two states of one replay that agree on all three are the
+        same (judgement/perception.py). Read off the Mol with the other numbers, handed on updated
+        by each step."""
         if self.framework is None:
             elements, bond = self.elements, self.mol.GetBondWithIdx
             found = set()

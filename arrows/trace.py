@@ -147,21 +147,22 @@ class Replay:
         self._loaded, self._entered_later = self._load()
         if self.diagnostics:
             return
-        start = Chem.Mol()
+        start = ElectronState(Chem.Mol(), ())
         for position in range(len(mechanism.species)):
-            start = Chem.CombineMols(start, self._loaded[position])
-        self.initial = ElectronState.of_molecule(start)
+            species = self._loaded[position]
+            start = start.appended(species, Chem.CombineMols(start.mol, species.mol))
+        self.initial = start
         if not mechanism.steps:
             self.final = self.initial
 
-    def _load(self) -> tuple[dict[int, Chem.Mol], dict[int, int]]:
+    def _load(self) -> tuple[dict[int, ElectronState], dict[int, int]]:
         """Every species up front, `uses` ones included, so that every bad SMILES and duplicate
-        is reported at once."""
+        is reported at once; each as a state of its own, to be appended to the mechanism's."""
         mechanism, diags = self.mechanism, self.diagnostics
         explicit_h_on, entries = hydrogen_parents_and_entries(mechanism)
         names: dict[str, Location] = {}
         seen_maps: dict[int, Location] = {}
-        loaded: dict[int, Chem.Mol] = {}
+        loaded: dict[int, ElectronState] = {}
         entered_later: dict[int, int] = {}
         declared = [(None, s) for s in mechanism.species] + entries
         for position, (step_index, sp) in enumerate(declared):
@@ -183,7 +184,7 @@ class Replay:
                 seen_maps.setdefault(number, sp.loc)
                 if step_index is not None:
                     entered_later.setdefault(number, step_index)
-            loaded[position] = mol
+            loaded[position] = ElectronState.of_molecule(mol)
         return loaded, entered_later
 
     def __iter__(self) -> Iterator[StepTrace]:
@@ -197,19 +198,17 @@ class Replay:
         with rdkit_messages():
             for index, step in enumerate(mechanism.steps):
                 entered: list[int] = []
-                if step.uses:
-                    mol = state.mol
-                    for _ in step.uses:
-                        offset = mol.GetNumAtoms()
-                        incoming = loaded[position]
-                        position += 1
-                        mol = Chem.CombineMols(mol, incoming)
-                        entered.extend(range(offset, offset + incoming.GetNumAtoms()))
-                        for atom in atom_list(incoming):
-                            if atom.GetAtomMapNum():
-                                map_index[atom.GetAtomMapNum()] = offset + atom.GetIdx()
-                                entered_later.pop(atom.GetAtomMapNum(), None)
-                    state = ElectronState.of_molecule(mol, state.nonbonding, state.released)
+                for _ in step.uses:
+                    offset = len(state.nonbonding)
+                    species = loaded[position]
+                    incoming = species.mol
+                    position += 1
+                    state = state.appended(species, Chem.CombineMols(state.mol, incoming))
+                    entered.extend(range(offset, offset + incoming.GetNumAtoms()))
+                    for atom in atom_list(incoming):
+                        if atom.GetAtomMapNum():
+                            map_index[atom.GetAtomMapNum()] = offset + atom.GetIdx()
+                            entered_later.pop(atom.GetAtomMapNum(), None)
                 after, change, step_diags = apply_step(state, step, index, map_index, entered_later)
                 diags.extend(step_diags)
                 released_now: list[int] = []

@@ -13,7 +13,7 @@ from typing import Iterable, Optional
 from rdkit import Chem
 
 from ..electrons import ElectronState
-from ..rdkit_io import forget_configuration
+from ..rdkit_io import forget_configuration, sanitize
 from .acidity import perceived
 
 _HYDROGEN = Chem.MolFromSmarts("[#1]")
@@ -39,9 +39,11 @@ class Perceived:
         return k if k < len(self.original) and self.original[k] == atom else None
 
 
-def perceive(mol: Chem.Mol, clear_stereo_on: Iterable[int] = (), heavy: Optional[tuple[int, ...]] = None) -> Perceived:
+def perceive(mol: Chem.Mol, clear_stereo_on: Iterable[int] = (), heavy: Optional[tuple[int, ...]] = None,
+             elements: Optional[tuple[int, ...]] = None) -> Perceived:
     """The view of `mol`. Only the atoms in `clear_stereo_on` lose their configuration; `heavy`,
-    the indices of the atoms that are not hydrogen, spares a search when the caller knows them."""
+    the indices of the atoms that are not hydrogen, spares a search when the caller knows them, and
+    `elements`, the atomic number of each atom, a step of the sanitization (rdkit_io.sanitize)."""
     clear_stereo_on = list(clear_stereo_on)
     work = mol
     if clear_stereo_on:      # RemoveHs copies anyway: a copy of our own only when we change it
@@ -54,7 +56,7 @@ def perceive(mol: Chem.Mol, clear_stereo_on: Iterable[int] = (), heavy: Optional
         heavy = tuple(i for i in range(work.GetNumAtoms()) if i not in hydrogens)
     try:
         plain = Chem.RemoveHs(work, _REMOVE_HS, sanitize=False)
-        Chem.SanitizeMol(plain)
+        sanitize(plain, elements)
         if plain.GetNumAtoms() == len(heavy):   # else RDKit kept a hydrogen (an isotope, a bridge)
             return Perceived(plain, heavy, True)
     except Exception:   # an odd intermediate: fall back to a partial perception below
@@ -98,13 +100,13 @@ class RecentViews:
         if self._elements is not state.elements:
             self._meet_atoms(state)
         if state.configured or not self._plain_hydrogens:
-            return perceive(state.mol, heavy=self._heavy)
+            return perceive(state.mol, heavy=self._heavy, elements=state.elements)
         # N and B of every atom and the bonds between heavy atoms (and between hydrogens) fix the
         # state up to a permutation of its hydrogen atoms, which RemoveHs folds into equal counts.
         contents = (state.nonbonding, state.bond_sums, state.bond_framework())
         view = self._by_contents.get(contents)
         if view is None:
-            view = perceive(state.mol, heavy=self._heavy)
+            view = perceive(state.mol, heavy=self._heavy, elements=state.elements)
             if view.complete:      # a partial view keeps hydrogen atoms: which one is where matters
                 self._by_contents[contents] = view
                 if len(self._by_contents) > self.keep_contents:
