@@ -101,10 +101,13 @@ def species_mol(species: Species, explicit_h_on: set[int]) -> tuple[Optional[Che
         return None, Diagnostic("AR102", f"RDKit cannot read the SMILES of {species.name}: {reason}", loc,
                                 hint="check brackets, ring-closure digits and charges; map numbers go inside "
                                      "brackets, e.g. [CH2:3]")
-    for atom in atom_list(mol):
-        atom.SetNumExplicitHs(atom.GetTotalNumHs(includeNeighbors=False))
+    targets = []
+    for index, atom in enumerate(atom_list(mol)):
+        hydrogens = atom.GetTotalNumHs(includeNeighbors=False)
+        atom.SetNumExplicitHs(hydrogens)
         atom.SetNoImplicit(True)
-    targets = [a.GetIdx() for a in atom_list(mol) if a.GetAtomMapNum() in explicit_h_on and a.GetNumExplicitHs()]
+        if hydrogens and atom.GetAtomMapNum() in explicit_h_on:
+            targets.append(index)
     if targets:
         mol = Chem.AddHs(mol, onlyOnAtoms=targets)
         for atom in atom_list(mol):

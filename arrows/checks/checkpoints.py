@@ -33,9 +33,10 @@ _REMOVE_HS.removeDefiningBondStereo = True
 
 def _prepared(mol: Chem.Mol, keep_maps: Optional[frozenset[int]], origins: bool,
               elements: Optional[tuple[int, ...]] = None) -> Chem.Mol:
-    """`keep_maps` None keeps every map number; `origins`: each atom records its index in `mol`
-    (_ORIGIN), for naming atoms in an explanation; `elements`: the atomic numbers, when known."""
-    work = Chem.RWMol(mol)
+    """`keep_maps` None keeps every map number, and sanitizes `mol` itself (the caller's own copy,
+    not needed as it was); `origins`: each atom records its index in `mol` (_ORIGIN), for naming
+    atoms in an explanation; `elements`: the atomic numbers, when known."""
+    work = Chem.RWMol(mol) if origins or keep_maps is not None else mol
     if origins or keep_maps is not None:
         for i in range(work.GetNumAtoms()):   # by index: RDKit's Python atom iterator is several times slower
             atom = work.GetAtomWithIdx(i)
