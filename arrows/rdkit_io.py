@@ -95,18 +95,20 @@ def read_smiles(smiles: str, sanitize: bool = True) -> tuple[Optional[Chem.Mol],
 
 # Atomic numbers of the elements RDKit never takes for a metal: H, C, N, O, F, P, S, Cl, Br, I.
 _NON_METALS = frozenset({1, 6, 7, 8, 9, 15, 16, 17, 35, 53})
-_ALL_BUT_METAL_CLEANUP = Chem.SanitizeFlags.SANITIZE_ALL ^ Chem.SanitizeFlags.SANITIZE_CLEANUP_ORGANOMETALLICS
 
 
-def sanitize(mol: Chem.Mol, elements: Optional[Iterable[int]] = None) -> None:
-    """Chem.SanitizeMol in full. RDKit's clean-up of bonds to metal atoms first updates the valence
-    of every atom (about half the cost of sanitizing a small molecule) and then changes only bonds
-    to metal atoms: it is left out when `elements`, the atomic numbers of `mol` as far as the caller
-    knows them, hold no metal, where it cannot change anything. Raises as SanitizeMol does."""
+def sanitize(mol: Chem.Mol, elements: Optional[Iterable[int]] = None, aromaticity: bool = True) -> None:
+    """Chem.SanitizeMol in full (without aromaticity perception if `aromaticity` is False). RDKit's
+    clean-up of bonds to metal atoms first updates the valence of every atom (about half the cost
+    of sanitizing a small molecule) and then changes only bonds to metal atoms: it is left out when
+    `elements`, the atomic numbers of `mol` as far as the caller knows them, hold no metal, where it
+    cannot change anything. Raises as SanitizeMol does."""
+    flags = Chem.SanitizeFlags.SANITIZE_ALL
+    if not aromaticity:
+        flags ^= Chem.SanitizeFlags.SANITIZE_SETAROMATICITY
     if elements is not None and _NON_METALS.issuperset(elements):
-        Chem.SanitizeMol(mol, _ALL_BUT_METAL_CLEANUP)
-    else:
-        Chem.SanitizeMol(mol)
+        flags ^= Chem.SanitizeFlags.SANITIZE_CLEANUP_ORGANOMETALLICS
+    Chem.SanitizeMol(mol, flags)
 
 
 def atom_list(mol: Chem.Mol) -> list[Chem.Atom]:

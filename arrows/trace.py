@@ -10,7 +10,7 @@ from rdkit import Chem
 from .diagnostics import Diagnostic
 from .electrons import ElectronState, StepChange, apply_step
 from .model import BondPair, BondSink, HydrogenOn, Location, Mechanism, Species, Step
-from .rdkit_io import atom_list, canonical, rdkit_messages, read_smiles
+from .rdkit_io import atom_list, canonical, rdkit_messages, read_smiles, sanitize
 
 
 @dataclass
@@ -87,8 +87,9 @@ def species_mol(species: Species, explicit_h_on: set[int]) -> tuple[Optional[Che
     # Without aromaticity perception: a Kekulé structure written by the author keeps its double bonds
     # (the arrows name them); lower-case aromatic input is kekulized by RDKit.
     mol, _, _ = read_smiles(species.smiles, sanitize=False)
+    atoms = atom_list(mol) if mol is not None else []   # the same atoms after sanitizing
     try:
-        Chem.SanitizeMol(mol, Chem.SanitizeFlags.SANITIZE_ALL ^ Chem.SanitizeFlags.SANITIZE_SETAROMATICITY)
+        sanitize(mol, [a.GetAtomicNum() for a in atoms], aromaticity=False)
         Chem.Kekulize(mol, clearAromaticFlags=True)
     except Exception:   # RDKit's full reading says why, and where (read_smiles translates its message)
         mol = None
@@ -102,7 +103,7 @@ def species_mol(species: Species, explicit_h_on: set[int]) -> tuple[Optional[Che
                                 hint="check brackets, ring-closure digits and charges; map numbers go inside "
                                      "brackets, e.g. [CH2:3]")
     targets = []
-    for index, atom in enumerate(atom_list(mol)):
+    for index, atom in enumerate(atoms):
         hydrogens = atom.GetTotalNumHs(includeNeighbors=False)
         atom.SetNumExplicitHs(hydrogens)
         atom.SetNoImplicit(True)
