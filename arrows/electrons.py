@@ -64,7 +64,8 @@ class ElectronState:
     bond_sums: tuple[int, ...] = ()
     elements: tuple[int, ...] = ()      # atomic number per atom
     configured: Optional[bool] = None   # whether some atom or bond carries a written configuration
-    framework: Optional[frozenset[tuple[int, int, int]]] = None   # see `bond_framework`
+    # see `bond_framework`; derived from the other fields, so neither compared nor shown
+    framework: Optional[frozenset[tuple[int, int, int]]] = field(default=None, compare=False, repr=False)
 
     def __post_init__(self) -> None:
         # A step hands these on (the common case, checked cheaply); a new state derives them.
