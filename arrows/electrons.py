@@ -64,6 +64,8 @@ class ElectronState:
     bond_sums: tuple[int, ...] = ()
     elements: tuple[int, ...] = ()      # atomic number per atom
     configured: Optional[bool] = None   # whether some atom or bond carries a written configuration
+    # see `bond_framework`; derived from the other fields, so neither compared nor shown
+    framework: Optional[frozenset[tuple[int, int, int]]] = field(default=None, compare=False, repr=False)
 
     def __post_init__(self) -> None:
         # A step hands these on (the common case, checked cheaply); a new state derives them.
@@ -81,13 +83,44 @@ class ElectronState:
                     released: frozenset[int] = frozenset()) -> "ElectronState":
         """A state read off a Mol: N = V - formal charge - B for every atom after the first
         len(known_nonbonding), whose N is given (`uses` appends atoms to a state whose electrons
-        have already moved)."""
-        atoms = atom_list(mol)
-        sums = tuple(_bond_sums(mol))
+        have already moved). One walk over the atoms and one over the bonds find everything."""
+        atom, count = mol.GetAtomWithIdx, mol.GetNumAtoms()
+        unspecified = Chem.ChiralType.CHI_UNSPECIFIED
+        elements, charges, orders = [0] * count, [0] * count, [0.0] * count
+        hydrogens = [0] * count
+        configured = False
+        for i in range(count):
+            a = atom(i)
+            elements[i], charges[i], hydrogens[i] = a.GetAtomicNum(), a.GetFormalCharge(), a.GetNumExplicitHs()
+            if a.GetChiralTag() != unspecified:
+                configured = True
+        bond, no_stereo = mol.GetBondWithIdx, Chem.BondStereo.STEREONONE
+        framework = set()
+        for k in range(mol.GetNumBonds()):
+            b = bond(k)
+            order = b.GetBondTypeAsDouble()
+            i, j = b.GetBeginAtomIdx(), b.GetEndAtomIdx()
+            orders[i] += order
+            orders[j] += order
+            if b.GetStereo() != no_stereo:
+                configured = True
+            if (elements[i] == 1) == (elements[j] == 1):
+                framework.add((i, j, int(order)) if i < j else (j, i, int(order)))
+        sums = tuple(int(total) + h for total, h in zip(orders, hydrogens))
+        valence = tuple(valence_electrons(z) for z in elements)
         nonbonding = tuple(known_nonbonding) + tuple(
-            valence_electrons(atoms[i].GetAtomicNum()) - atoms[i].GetFormalCharge() - sums[i]
-            for i in range(len(known_nonbonding), len(atoms)))
-        return cls(mol, nonbonding, released, bond_sums=sums)   # elements and V derived on creation
+            valence[i] - charges[i] - sums[i] for i in range(len(known_nonbonding), count))
+        return cls(mol, nonbonding, released, valence, sums, tuple(elements), configured, frozenset(framework))
+
+    def appended(self, other: "ElectronState", mol: Chem.Mol) -> "ElectronState":
+        """This state with the atoms of `other` after its own, as `uses` brings a species in; `mol`
+        is Chem.CombineMols(self.mol, other.mol). The numbers of both are joined, not read off
+        the combined Mol again."""
+        offset = len(self.nonbonding)
+        shifted = {(i + offset, j + offset, order) for i, j, order in other.bond_framework()}
+        return ElectronState(mol, self.nonbonding + other.nonbonding, self.released, self.valence + other.valence,
+                             self.bond_sums + other.bond_sums, self.elements + other.elements,
+                             bool(self.configured or other.configured), self.bond_framework().union(shifted))
 
     def bond_electrons(self, i: int, j: int) -> int:
         bond = self.mol.GetBondBetweenAtoms(i, j)
@@ -101,6 +134,24 @@ class ElectronState:
 
     def label(self, i: int) -> str:
         return atom_label(self.mol, i)
+
+    def bond_framework(self) -> frozenset[tuple[int, int, int]]:
+        """(i, j, order), i < j, of every bond except those joining a hydrogen to another element,
+        the order counted as the bookkeeping counts it (bond_electrons). With N and B of every atom
+        it fixes the state up to which hydrogen sits where (each atom's own hydrogen count never
+        changes): the perceived views of two states of one replay that agree on all three are the
+        same (judgement/perception.py). Read off the Mol with the other numbers, handed on updated
+        by each step."""
+        if self.framework is None:
+            elements, bond = self.elements, self.mol.GetBondWithIdx
+            found = set()
+            for k in range(self.mol.GetNumBonds()):
+                b = bond(k)
+                i, j = pair(b.GetBeginAtomIdx(), b.GetEndAtomIdx())
+                if (elements[i] == 1) == (elements[j] == 1):
+                    found.add((i, j, int(b.GetBondTypeAsDouble())))
+            object.__setattr__(self, "framework", frozenset(found))
+        return self.framework
 
 
 def _bond_sums(mol: Chem.Mol) -> list[int]:
@@ -569,7 +620,26 @@ def _settle(state: ElectronState, step: Step, step_index: int, replay: _StepRepl
                                 "check charges and bond orders with `arrows trace`", step=step_index))
         return None, change, diags
     return (ElectronState(work, tuple(nonbonding), state.released, valence, tuple(bond_sums), elements,
-                          state.configured), change, diags)
+                          state.configured, _next_framework(state, new_bonds, replay)), change, diags)
+
+
+def _next_framework(state: ElectronState, new_bonds: dict[Pair, int], replay: _StepReplay):
+    """The bond framework after a step, from the one before (None when nobody asked for it)."""
+    if state.framework is None:
+        return None
+    elements = state.elements
+    removed, added = [], []
+    for (i, j), electrons in new_bonds.items():
+        if (elements[i] == 1) != (elements[j] == 1):
+            continue
+        before = replay.bond_before(i, j)
+        if before:
+            removed.append((i, j, before // 2))
+        if electrons:
+            added.append((i, j, electrons // 2))
+    if not removed and not added:
+        return state.framework
+    return state.framework.difference(removed).union(added)
 
 
 def _has_configuration(mol: Chem.Mol) -> bool:

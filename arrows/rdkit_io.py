@@ -6,7 +6,7 @@ import logging
 import re
 from contextlib import contextmanager
 from functools import lru_cache
-from typing import Iterator, Optional
+from typing import Iterable, Iterator, Optional
 
 from rdkit import Chem, rdBase
 
@@ -70,13 +70,15 @@ def explain_smiles_failure(lines: list[str]) -> tuple[str, Optional[int]]:
     return reason or "RDKit could not read it", position
 
 
+_AS_WRITTEN = Chem.SmilesParserParams()   # hydrogens kept, nothing sanitized: read only, shared
+_AS_WRITTEN.removeHs = False
+_AS_WRITTEN.sanitize = False
+
+
 def read_smiles(smiles: str, sanitize: bool = True) -> tuple[Optional[Chem.Mol], str, Optional[int]]:
     """(mol, reason, position): mol is None when RDKit rejects the SMILES."""
-    params = Chem.SmilesParserParams()
-    params.removeHs = False
-    params.sanitize = False
     with rdkit_messages() as lines:
-        mol = Chem.MolFromSmiles(smiles, params) if smiles.strip() else None
+        mol = Chem.MolFromSmiles(smiles, _AS_WRITTEN) if smiles.strip() else None
         if mol is not None and sanitize:
             try:
                 Chem.SanitizeMol(mol)
@@ -89,6 +91,24 @@ def read_smiles(smiles: str, sanitize: bool = True) -> tuple[Optional[Chem.Mol],
         reason, position = explain_smiles_failure(lines)
         return None, reason, position
     return mol, "", None
+
+
+# Atomic numbers of the elements RDKit never takes for a metal: H, C, N, O, F, P, S, Cl, Br, I.
+_NON_METALS = frozenset({1, 6, 7, 8, 9, 15, 16, 17, 35, 53})
+
+
+def sanitize(mol: Chem.Mol, elements: Optional[Iterable[int]] = None, aromaticity: bool = True) -> None:
+    """Chem.SanitizeMol in full (without aromaticity perception if `aromaticity` is False). RDKit's
+    clean-up of bonds to metal atoms first updates the valence of every atom (about half the cost
+    of sanitizing a small molecule) and then changes only bonds to metal atoms: it is left out when
+    `elements`, the atomic numbers of `mol` as far as the caller knows them, hold no metal, where it
+    cannot change anything. Raises as SanitizeMol does."""
+    flags = Chem.SanitizeFlags.SANITIZE_ALL
+    if not aromaticity:
+        flags ^= Chem.SanitizeFlags.SANITIZE_SETAROMATICITY
+    if elements is not None and _NON_METALS.issuperset(elements):
+        flags ^= Chem.SanitizeFlags.SANITIZE_CLEANUP_ORGANOMETALLICS
+    Chem.SanitizeMol(mol, flags)
 
 
 def atom_list(mol: Chem.Mol) -> list[Chem.Atom]:

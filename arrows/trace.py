@@ -10,7 +10,7 @@ from rdkit import Chem
 from .diagnostics import Diagnostic
 from .electrons import ElectronState, StepChange, apply_step
 from .model import BondPair, BondSink, HydrogenOn, Location, Mechanism, Species, Step
-from .rdkit_io import atom_list, canonical, rdkit_messages, read_smiles
+from .rdkit_io import atom_list, canonical, rdkit_messages, read_smiles, sanitize
 
 
 @dataclass
@@ -87,8 +87,9 @@ def species_mol(species: Species, explicit_h_on: set[int]) -> tuple[Optional[Che
     # Without aromaticity perception: a Kekulé structure written by the author keeps its double bonds
     # (the arrows name them); lower-case aromatic input is kekulized by RDKit.
     mol, _, _ = read_smiles(species.smiles, sanitize=False)
+    atoms = atom_list(mol) if mol is not None else []   # the same atoms after sanitizing
     try:
-        Chem.SanitizeMol(mol, Chem.SanitizeFlags.SANITIZE_ALL ^ Chem.SanitizeFlags.SANITIZE_SETAROMATICITY)
+        sanitize(mol, [a.GetAtomicNum() for a in atoms], aromaticity=False)
         Chem.Kekulize(mol, clearAromaticFlags=True)
     except Exception:   # RDKit's full reading says why, and where (read_smiles translates its message)
         mol = None
@@ -101,10 +102,13 @@ def species_mol(species: Species, explicit_h_on: set[int]) -> tuple[Optional[Che
         return None, Diagnostic("AR102", f"RDKit cannot read the SMILES of {species.name}: {reason}", loc,
                                 hint="check brackets, ring-closure digits and charges; map numbers go inside "
                                      "brackets, e.g. [CH2:3]")
-    for atom in atom_list(mol):
-        atom.SetNumExplicitHs(atom.GetTotalNumHs(includeNeighbors=False))
+    targets = []
+    for index, atom in enumerate(atoms):
+        hydrogens = atom.GetTotalNumHs(includeNeighbors=False)
+        atom.SetNumExplicitHs(hydrogens)
         atom.SetNoImplicit(True)
-    targets = [a.GetIdx() for a in atom_list(mol) if a.GetAtomMapNum() in explicit_h_on and a.GetNumExplicitHs()]
+        if hydrogens and atom.GetAtomMapNum() in explicit_h_on:
+            targets.append(index)
     if targets:
         mol = Chem.AddHs(mol, onlyOnAtoms=targets)
         for atom in atom_list(mol):
@@ -147,21 +151,22 @@ class Replay:
         self._loaded, self._entered_later = self._load()
         if self.diagnostics:
             return
-        start = Chem.Mol()
+        start = ElectronState(Chem.Mol(), ())
         for position in range(len(mechanism.species)):
-            start = Chem.CombineMols(start, self._loaded[position])
-        self.initial = ElectronState.of_molecule(start)
+            species = self._loaded[position]
+            start = start.appended(species, Chem.CombineMols(start.mol, species.mol))
+        self.initial = start
         if not mechanism.steps:
             self.final = self.initial
 
-    def _load(self) -> tuple[dict[int, Chem.Mol], dict[int, int]]:
+    def _load(self) -> tuple[dict[int, ElectronState], dict[int, int]]:
         """Every species up front, `uses` ones included, so that every bad SMILES and duplicate
-        is reported at once."""
+        is reported at once; each as a state of its own, to be appended to the mechanism's."""
         mechanism, diags = self.mechanism, self.diagnostics
         explicit_h_on, entries = hydrogen_parents_and_entries(mechanism)
         names: dict[str, Location] = {}
         seen_maps: dict[int, Location] = {}
-        loaded: dict[int, Chem.Mol] = {}
+        loaded: dict[int, ElectronState] = {}
         entered_later: dict[int, int] = {}
         declared = [(None, s) for s in mechanism.species] + entries
         for position, (step_index, sp) in enumerate(declared):
@@ -183,7 +188,7 @@ class Replay:
                 seen_maps.setdefault(number, sp.loc)
                 if step_index is not None:
                     entered_later.setdefault(number, step_index)
-            loaded[position] = mol
+            loaded[position] = ElectronState.of_molecule(mol)
         return loaded, entered_later
 
     def __iter__(self) -> Iterator[StepTrace]:
@@ -197,19 +202,17 @@ class Replay:
         with rdkit_messages():
             for index, step in enumerate(mechanism.steps):
                 entered: list[int] = []
-                if step.uses:
-                    mol = state.mol
-                    for _ in step.uses:
-                        offset = mol.GetNumAtoms()
-                        incoming = loaded[position]
-                        position += 1
-                        mol = Chem.CombineMols(mol, incoming)
-                        entered.extend(range(offset, offset + incoming.GetNumAtoms()))
-                        for atom in atom_list(incoming):
-                            if atom.GetAtomMapNum():
-                                map_index[atom.GetAtomMapNum()] = offset + atom.GetIdx()
-                                entered_later.pop(atom.GetAtomMapNum(), None)
-                    state = ElectronState.of_molecule(mol, state.nonbonding, state.released)
+                for _ in step.uses:
+                    offset = len(state.nonbonding)
+                    species = loaded[position]
+                    incoming = species.mol
+                    position += 1
+                    state = state.appended(species, Chem.CombineMols(state.mol, incoming))
+                    entered.extend(range(offset, offset + incoming.GetNumAtoms()))
+                    for atom in atom_list(incoming):
+                        if atom.GetAtomMapNum():
+                            map_index[atom.GetAtomMapNum()] = offset + atom.GetIdx()
+                            entered_later.pop(atom.GetAtomMapNum(), None)
                 after, change, step_diags = apply_step(state, step, index, map_index, entered_later)
                 diags.extend(step_diags)
                 released_now: list[int] = []
@@ -238,7 +241,7 @@ class Replay:
             released_now.extend(sorted(fragment))
             released |= fragment
         return ElectronState(after.mol, after.nonbonding, frozenset(released), after.valence, after.bond_sums,
-                            after.elements, after.configured), released_now
+                            after.elements, after.configured, after.framework), released_now
 
 
 def replay(mechanism: Mechanism) -> Trace:

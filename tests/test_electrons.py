@@ -127,3 +127,19 @@ end
         in_bonds = 2 * sum(int(b.GetBondTypeAsDouble()) for b in state.mol.GetBonds()) + 2 * sum(
             a.GetNumExplicitHs() for a in state.mol.GetAtoms())
         assert sum(state.nonbonding) + in_bonds == total_v - charge
+
+
+@pytest.mark.parametrize("first, second", [
+    ("[CH3:1][C:2](=[O:3])[CH3:4]", "[OH-:5]"),                        # acetone and hydroxide
+    ("[CH2-:1][P+:2](c1ccccc1)(c1ccccc1)c1ccccc1", "C[Mg+]"),          # an ylide and a Grignard cation
+    ("F/C=C/[C@H](Cl)Br", "[Br:9][Br:10]"),                             # written configurations
+])
+def test_a_joined_state_reads_as_the_combined_molecule(first, second):
+    """`uses` and the starting state join two species' numbers; read off the combined Mol by RDKit
+    (charges, bonds, elements, configuration) they must be the same."""
+    a, b = (ElectronState.of_molecule(species_mol(Species("x", s), set())[0]) for s in (first, second))
+    joined = a.appended(b, Chem.CombineMols(a.mol, b.mol))
+    read = ElectronState.of_molecule(joined.mol)
+    assert (joined.nonbonding, joined.valence, joined.bond_sums, joined.elements, joined.configured) == \
+        (read.nonbonding, read.valence, read.bond_sums, read.elements, read.configured)
+    assert joined.bond_framework() == read.bond_framework() == ElectronState(joined.mol, joined.nonbonding).bond_framework()

@@ -230,3 +230,43 @@ def test_a_step_forgets_only_the_configuration_of_atoms_whose_bonds_change():
                  for info in Chem.FindPotentialStereo(mol) if info.type == Chem.StereoType.Atom_Tetrahedral}
     by_map = {a.GetAtomMapNum(): a.GetIdx() for a in trace.final.mol.GetAtoms() if a.GetAtomMapNum()}
     assert specified == {by_map[1]: False, by_map[4]: True}
+
+
+# 3-methylpentan-2-one and hydroxide: the C3 enolate forms and takes its proton back, twice. Demo
+# data; every other state is the starting one again, with another of the equal hydrogens on C3.
+KETONE_SHUTTLE = '''\
+species base = "[OH-:11]"
+species ketone = "[CH3:1][C:2](=[O:9])[CH:3]([CH3:4])[CH2:5][CH3:6]"
+''' + '''\
+step "enolate"
+    :O11 -> H(C3)
+    C3-H -> C2=C3
+    C2=O9 -> O9
+end
+step "ketone"
+    :O9 -> C2=O9
+    C2=C3 -> C3-H(O11)
+    O11-H -> O11
+end
+''' * 2
+
+
+def test_a_state_met_again_is_judged_as_when_perceived_afresh():
+    """The shared views recognise a state the shuttle comes back to and reuse what was judged on
+    it; RDKit's perception of each state on its own must find the same stereo elements (C3 is a
+    stereocentre of the ketone, textbook: four different groups) and the same table acidity."""
+    from arrows.judgement.acidity import acidity_of
+    from arrows.judgement.perception import RecentViews, perceive
+    trace, _ = check_text(KETONE_SHUTTLE)
+    states = list(trace.states())
+    views = RecentViews(keep=1)
+    seen = [views.of(s) for s in states]
+    assert seen[2] is seen[0] and seen[4] is seen[0] and seen[3] is seen[1]   # met again, not perceived again
+    on_c3 = [{n.GetIdx() for n in s.mol.GetAtomWithIdx(5).GetNeighbors()} for s in (states[0], states[2])]
+    assert on_c3[0] != on_c3[1]   # C3 (atom index 5) holds the hydroxide's hydrogen atom now
+    for state, view in zip(states, seen):
+        fresh = perceive(state.mol)
+        assert stereo_elements(state.mol, view) == stereo_elements(state.mol, fresh)
+        assert [acidity_of(view.mol, i) for i in range(view.mol.GetNumAtoms())] == \
+            [acidity_of(fresh.mol, i) for i in range(fresh.mol.GetNumAtoms())]
+    assert {e.atoms for e in stereo_elements(states[0].mol, seen[0]) if e.kind == CENTRE} == {(5,)}   # C3

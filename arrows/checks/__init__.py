@@ -51,18 +51,23 @@ class Check:
         return found + list(self.finish(_ending(trace), context))
 
 
+_CHECK_CLASSES: list[type[Check]] = []   # filled on first use: the modules import this one
+
+
 def _registry() -> list[Check]:
-    from .checkpoints import CheckpointsMatch
-    from .conservation import ChargeAndAtomsConserved
-    from .protons import UphillProtonTransfers
-    from .rings import RingClosures
-    from .stereo import StereoChanges
-    from .structure import NothingAfterProduct, SomethingToCheck, StepsHaveMoves
-    from .valence import UnusualElectronCounts
-    return [SomethingToCheck(), NothingAfterProduct(), StepsHaveMoves(), UnusualElectronCounts(), ChargeAndAtomsConserved(),
-            RingClosures(), CheckpointsMatch(),
-            UphillProtonTransfers(),
-            StereoChanges()]
+    """A fresh instance of every check (each keeps what it needs of one replay)."""
+    if not _CHECK_CLASSES:
+        from .checkpoints import CheckpointsMatch
+        from .conservation import ChargeAndAtomsConserved
+        from .protons import UphillProtonTransfers
+        from .rings import RingClosures
+        from .stereo import StereoChanges
+        from .structure import NothingAfterProduct, SomethingToCheck, StepsHaveMoves
+        from .valence import UnusualElectronCounts
+        _CHECK_CLASSES.extend([SomethingToCheck, NothingAfterProduct, StepsHaveMoves, UnusualElectronCounts,
+                               ChargeAndAtomsConserved, RingClosures, CheckpointsMatch, UphillProtonTransfers,
+                               StereoChanges])
+    return [cls() for cls in _CHECK_CLASSES]
 
 
 def _ending(trace: Trace) -> Ending:

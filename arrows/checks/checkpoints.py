@@ -11,8 +11,9 @@ from rdkit import Chem
 
 from ..diagnostics import Diagnostic
 from ..electrons import ElectronState, atom_label, order_word
+from ..judgement.perception import RecentViews
 from ..model import Checkpoint
-from ..rdkit_io import atom_list, read_smiles
+from ..rdkit_io import atom_list, read_smiles, sanitize
 from ..trace import StepTrace
 from . import Check, Ending
 
@@ -25,26 +26,33 @@ class Fragment:
     smiles: str
 
 
-def _prepared(mol: Chem.Mol, keep_maps: frozenset[int], origins: bool) -> Chem.Mol:
-    """`origins`: each atom records its index in `mol` (_ORIGIN), for naming atoms in an explanation."""
-    work = Chem.RWMol(mol)
-    for i in range(work.GetNumAtoms()):   # by index: RDKit's Python atom iterator is several times slower
-        atom = work.GetAtomWithIdx(i)
-        if origins:
-            atom.SetIntProp(_ORIGIN, i)
-        number = atom.GetAtomMapNum()
-        if number and number not in keep_maps:
-            atom.SetAtomMapNum(0)
-    Chem.SanitizeMol(work)
-    params = Chem.RemoveHsParameters()
-    params.removeMapped = True
-    params.removeDefiningBondStereo = True
-    return Chem.RemoveHs(work, params, sanitize=False)
+_REMOVE_HS = Chem.RemoveHsParameters()
+_REMOVE_HS.removeMapped = True
+_REMOVE_HS.removeDefiningBondStereo = True
 
 
-def fragments(mol: Chem.Mol, keep_maps: frozenset[int] = frozenset(), origins: bool = False) -> list[Fragment]:
+def _prepared(mol: Chem.Mol, keep_maps: Optional[frozenset[int]], origins: bool,
+              elements: Optional[tuple[int, ...]] = None) -> Chem.Mol:
+    """`keep_maps` None keeps every map number, and sanitizes `mol` itself (the caller's own copy,
+    not needed as it was); `origins`: each atom records its index in `mol` (_ORIGIN), for naming
+    atoms in an explanation; `elements`: the atomic numbers, when known."""
+    work = Chem.RWMol(mol) if origins or keep_maps is not None else mol
+    if origins or keep_maps is not None:
+        for i in range(work.GetNumAtoms()):   # by index: RDKit's Python atom iterator is several times slower
+            atom = work.GetAtomWithIdx(i)
+            if origins:
+                atom.SetIntProp(_ORIGIN, i)
+            number = atom.GetAtomMapNum()
+            if number and number not in keep_maps:
+                atom.SetAtomMapNum(0)
+    sanitize(work, elements)
+    return Chem.RemoveHs(work, _REMOVE_HS, sanitize=False)
+
+
+def fragments(mol: Chem.Mol, keep_maps: Optional[frozenset[int]] = frozenset(), origins: bool = False,
+              elements: Optional[tuple[int, ...]] = None) -> list[Fragment]:
     out = []
-    for frag in Chem.GetMolFrags(_prepared(mol, keep_maps, origins), asMols=True, sanitizeFrags=False):
+    for frag in Chem.GetMolFrags(_prepared(mol, keep_maps, origins, elements), asMols=True, sanitizeFrags=False):
         out.append(Fragment(frag, Chem.MolToSmiles(frag)))
     return out
 
@@ -55,22 +63,48 @@ def _written_fragments(checkpoint: Checkpoint) -> tuple[Optional[list[Fragment]]
         # The bookkeeping follows electrons and connectivity, not configuration: a checkpoint written
         # with @ or / \ is compared as its constitution (`arrows trace --stereo` reports stereo).
         Chem.RemoveStereochemistry(mol)
-        maps = frozenset(a.GetAtomMapNum() for a in atom_list(mol) if a.GetAtomMapNum())
+        atoms = atom_list(mol)
+        maps = frozenset(a.GetAtomMapNum() for a in atoms if a.GetAtomMapNum())
+        elements = tuple(a.GetAtomicNum() for a in atoms)
         try:
-            return fragments(mol, maps), "", maps
+            return fragments(mol, None, elements=elements), "", maps   # the written structure keeps its maps
         except Exception:   # RDKit's full reading below says why, in its own words
             pass
     _, reason, _ = read_smiles(checkpoint.smiles)
     return None, reason or "RDKit cannot sanitize it", frozenset()
 
 
-def compare(state: ElectronState, checkpoint: Checkpoint, code: str, step: Optional[int]) -> list[Diagnostic]:
-    """Diagnostics for one checkpoint against one state (empty when it matches)."""
+def _derived_fragments(state: ElectronState, maps: frozenset[int], views: Optional[RecentViews]) -> list[Fragment]:
+    """fragments(state.mol, maps), read off the state's shared perceived view when there is one:
+    the view is the state sanitized with its hydrogen atoms folded into counts, as `_prepared`
+    makes it, so only the map numbers are left to clear. A state with a free proton (which the
+    view leaves out), a written configuration or a partial view is prepared here."""
+    if views is None or state.configured or any(
+            z == 1 and b == 0 for z, b in zip(state.elements, state.bond_sums)):
+        return fragments(state.mol, maps, elements=state.elements)
+    view = views.of(state)
+    if not view.complete:
+        return fragments(state.mol, maps, elements=state.elements)
+    work = Chem.RWMol(view.mol)
+    atom_at = work.GetAtomWithIdx
+    for i in range(work.GetNumAtoms()):
+        atom = atom_at(i)
+        number = atom.GetAtomMapNum()
+        if number and number not in maps:
+            atom.SetAtomMapNum(0)
+    return [Fragment(frag, Chem.MolToSmiles(frag))
+            for frag in Chem.GetMolFrags(work, asMols=True, sanitizeFrags=False)]
+
+
+def compare(state: ElectronState, checkpoint: Checkpoint, code: str, step: Optional[int],
+            views: Optional[RecentViews] = None) -> list[Diagnostic]:
+    """Diagnostics for one checkpoint against one state (empty when it matches); `views` holds the
+    perceived views of the states met lately."""
     written, reason, maps = _written_fragments(checkpoint)
     if written is None:
         return [Diagnostic("AR102", f"RDKit cannot read the checkpoint SMILES: {reason}", checkpoint.loc,
                            hint="check brackets, ring-closure digits and charges", step=step)]
-    derived = fragments(state.mol, maps)
+    derived = _derived_fragments(state, maps, views)
     pool = Counter(f.smiles for f in derived)
     missing = []
     for frag in written:
@@ -190,9 +224,9 @@ class CheckpointsMatch(Check):
     def step(self, st: StepTrace, context) -> Iterator[Diagnostic]:
         if st.after is not None:
             for checkpoint in st.step.expects:
-                yield from compare(st.after, checkpoint, "AR401", st.index)
+                yield from compare(st.after, checkpoint, "AR401", st.index, context.views)
 
     def finish(self, end: Ending, context) -> Iterator[Diagnostic]:
         product = end.mechanism.product
         if product is not None and end.final is not None:
-            yield from compare(end.final, product, "AR402", None)
+            yield from compare(end.final, product, "AR402", None, context.views)

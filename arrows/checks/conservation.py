@@ -14,12 +14,16 @@ from . import Check, Ending
 
 def _totals(mol: Chem.Mol, atoms=None) -> tuple[int, Counter]:
     indices = range(mol.GetNumAtoms()) if atoms is None else atoms
-    charge, elements = 0, Counter()
+    atom_at = mol.GetAtomWithIdx
+    charge, hydrogens, symbols = 0, 0, []
     for i in indices:
-        atom = mol.GetAtomWithIdx(i)
+        atom = atom_at(i)
         charge += atom.GetFormalCharge()
-        elements[atom.GetSymbol()] += 1
-        elements["H"] += atom.GetNumExplicitHs() + atom.GetNumImplicitHs()
+        symbols.append(atom.GetSymbol())
+        hydrogens += atom.GetTotalNumHs()   # the atom's own count, explicit and implicit
+    elements = Counter(symbols)
+    if symbols:
+        elements["H"] += hydrogens
     return charge, elements
 
 

@@ -89,8 +89,14 @@ def proton_transfers(st: StepTrace, views: Optional[RecentViews] = None) -> list
 
 
 def _acidity(view: Perceived, atom: int) -> Optional[Acidity]:
+    """Remembered on the view: a shuttle asks again about the same atom of the same state."""
     position = view.position(atom)
-    return None if position is None else acidity_of(view.mol, position)
+    if position is None:
+        return None
+    known = view.memo.setdefault("acidity", {})
+    if position not in known:
+        known[position] = acidity_of(view.mol, position)
+    return known[position]
 
 
 def _other(pair: tuple[int, ...], atom: int) -> int:

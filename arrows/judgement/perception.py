@@ -13,7 +13,7 @@ from typing import Iterable, Optional
 from rdkit import Chem
 
 from ..electrons import ElectronState
-from ..rdkit_io import forget_configuration
+from ..rdkit_io import forget_configuration, sanitize
 from .acidity import perceived
 
 _HYDROGEN = Chem.MolFromSmarts("[#1]")
@@ -39,9 +39,11 @@ class Perceived:
         return k if k < len(self.original) and self.original[k] == atom else None
 
 
-def perceive(mol: Chem.Mol, clear_stereo_on: Iterable[int] = (), heavy: Optional[tuple[int, ...]] = None) -> Perceived:
+def perceive(mol: Chem.Mol, clear_stereo_on: Iterable[int] = (), heavy: Optional[tuple[int, ...]] = None,
+             elements: Optional[tuple[int, ...]] = None) -> Perceived:
     """The view of `mol`. Only the atoms in `clear_stereo_on` lose their configuration; `heavy`,
-    the indices of the atoms that are not hydrogen, spares a search when the caller knows them."""
+    the indices of the atoms that are not hydrogen, spares a search when the caller knows them, and
+    `elements`, the atomic number of each atom, a step of the sanitization (rdkit_io.sanitize)."""
     clear_stereo_on = list(clear_stereo_on)
     work = mol
     if clear_stereo_on:      # RemoveHs copies anyway: a copy of our own only when we change it
@@ -54,7 +56,7 @@ def perceive(mol: Chem.Mol, clear_stereo_on: Iterable[int] = (), heavy: Optional
         heavy = tuple(i for i in range(work.GetNumAtoms()) if i not in hydrogens)
     try:
         plain = Chem.RemoveHs(work, _REMOVE_HS, sanitize=False)
-        Chem.SanitizeMol(plain)
+        sanitize(plain, elements)
         if plain.GetNumAtoms() == len(heavy):   # else RDKit kept a hydrogen (an isotope, a bridge)
             return Perceived(plain, heavy, True)
     except Exception:   # an odd intermediate: fall back to a partial perception below
@@ -68,28 +70,55 @@ def _partial(mol: Chem.Mol) -> Perceived:
 
 
 class RecentViews:
-    """The views of the last few states met. A step's state after is the next step's state before,
-    and several checks read each state: each state is perceived once, and only a few are kept."""
+    """The views of the states met. A step's state after is the next step's state before, and
+    several checks read each state: each state is perceived once, and only a few are kept. A state
+    met again (a proton shuttle comes back to where it was, with another of the equal hydrogens
+    moved) is recognised by its contents and gets the view, and the judgements, made the first time."""
 
-    def __init__(self, keep: int = 4):
-        self.keep = keep
+    def __init__(self, keep: int = 4, keep_contents: int = 64):
+        self.keep, self.keep_contents = keep, keep_contents
         self._views: dict[int, tuple[ElectronState, Perceived]] = {}
-        self._heavy: tuple[tuple[int, ...], tuple[int, ...]] = ((), ())   # (elements, heavy atom indices)
+        # Per elements tuple (atoms change only with `uses`): heavy atom indices, whether every
+        # hydrogen atom is interchangeable with the others, and the views met by contents.
+        self._elements: Optional[tuple[int, ...]] = None
+        self._heavy: tuple[int, ...] = ()
+        self._plain_hydrogens = False
+        self._by_contents: dict[tuple, Perceived] = {}
 
     def of(self, state: ElectronState) -> Perceived:
         key = id(state)
         entry = self._views.get(key)
         if entry is None:
             # The state is held with its view, so its id cannot be reused while the entry lives.
-            entry = (state, perceive(state.mol, heavy=self._heavy_atoms(state.elements)))
+            entry = (state, self._view(state))
             self._views[key] = entry
             if len(self._views) > self.keep:
                 del self._views[next(iter(self._views))]
         return entry[1]
 
-    def _heavy_atoms(self, elements: tuple[int, ...]) -> tuple[int, ...]:
-        """Steps pass one elements tuple on from state to state (atoms only change with `uses`):
-        the heavy atoms are found again only when it changes."""
-        if self._heavy[0] is not elements:
-            self._heavy = (elements, tuple(i for i, z in enumerate(elements) if z != 1))
-        return self._heavy[1]
+    def _view(self, state: ElectronState) -> Perceived:
+        if self._elements is not state.elements:
+            self._meet_atoms(state)
+        if state.configured or not self._plain_hydrogens:
+            return perceive(state.mol, heavy=self._heavy, elements=state.elements)
+        # N and B of every atom and the bonds between heavy atoms (and between hydrogens) fix the
+        # state up to a permutation of its hydrogen atoms, which RemoveHs folds into equal counts.
+        contents = (state.nonbonding, state.bond_sums, state.bond_framework())
+        view = self._by_contents.get(contents)
+        if view is None:
+            view = perceive(state.mol, heavy=self._heavy, elements=state.elements)
+            if view.complete:      # a partial view keeps hydrogen atoms: which one is where matters
+                self._by_contents[contents] = view
+                if len(self._by_contents) > self.keep_contents:
+                    del self._by_contents[next(iter(self._by_contents))]
+        return view
+
+    def _meet_atoms(self, state: ElectronState) -> None:
+        """Steps pass one elements tuple on from state to state: the heavy atoms are found again,
+        and the views met by contents forgotten, only when it changes."""
+        elements, atom = state.elements, state.mol.GetAtomWithIdx
+        self._elements = elements
+        self._heavy = tuple(i for i, z in enumerate(elements) if z != 1)
+        # A hydrogen isotope stays an atom of the view, where its place shows.
+        self._plain_hydrogens = all(atom(i).GetIsotope() == 0 for i, z in enumerate(elements) if z == 1)
+        self._by_contents = {}

@@ -66,7 +66,7 @@ def _elements(view: Perceived) -> frozenset[StereoElement]:
             ends = sorted((original[bond.GetBeginAtomIdx()], original[bond.GetEndAtomIdx()]))
             found.add(StereoElement(DOUBLE_BOND, tuple(ends)))
     centres = [e for e in found if e.kind == CENTRE]
-    if centres and _may_delocalize(plain):
+    if centres:
         lost = _lost_by_resonance(plain, [view.position(e.atoms[0]) for e in centres])
         found -= {e for e in centres if view.position(e.atoms[0]) in lost}
     found -= _without_stereoisomers(plain, view, [e for e in found if e.kind == CENTRE], found, ranks)
@@ -90,12 +90,18 @@ def _without_stereoisomers(plain: Chem.Mol, view: Perceived, centres: list[Stere
     of the fragment's elements is stereogenic."""
     if not centres:
         return set()
-    rank = ranks()
     suspects = []
     for e in centres:
         position = view.position(e.atoms[0])
-        neighbours = [rank[n.GetIdx()] for n in plain.GetAtomWithIdx(position).GetNeighbors()]
-        if len(set(neighbours)) < len(neighbours):
+        neighbours = plain.GetAtomWithIdx(position).GetNeighbors()
+        # RDKit's symmetry classes refine element and degree: neighbours that differ in those are
+        # never ranked alike, and the ranks need not be asked for.
+        kinds = {(n.GetAtomicNum(), n.GetDegree()) for n in neighbours}
+        if len(kinds) == len(neighbours):
+            continue
+        rank = ranks()
+        classes = {rank[n.GetIdx()] for n in neighbours}
+        if len(classes) < len(neighbours):
             suspects.append(position)
     dropped: set[StereoElement] = set()
     if not suspects:
@@ -127,7 +133,7 @@ def _lost_by_resonance(mol: Chem.Mol, centres: list[int]) -> set[int]:
         return (atom.GetFormalCharge() != 0 or atom.GetNumRadicalElectrons() > 0 or atom.GetIsAromatic()
                 or any(b.GetBondTypeAsDouble() > 1 for b in atom.GetBonds()))
     tested = [c for c in centres if sum(unsaturated(n) for n in mol.GetAtomWithIdx(c).GetNeighbors()) >= 2]
-    if not tested:
+    if not tested or not _may_delocalize(mol):
         return set()
     lost: set[int] = set()
     try:
