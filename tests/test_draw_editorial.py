@@ -153,3 +153,30 @@ def test_acetal_first_protonation_crosses_no_bond():
     panel = scene.panels[0]
     arrow, = [a for a in panel.arrows if a.move == ":O2 -> H(O30)"]
     assert _bonds_crossed(panel, arrow) == []
+
+
+def test_shuttle_stays_beside_the_atom_it_just_acted_on():
+    """A water or hydroxide that has just given or taken a proton stands beside that atom in the
+    next panel, within a short arrow's reach (common practice: the partner of a proton transfer is
+    drawn next to the atom it protonated or deprotonated). Acetal formation: the water formed by
+    protonating the carbonyl O2 stood 3.77 bond lengths from O2 (now 2.0-2.6, as in the panel
+    before); aldol: the water and the hydroxide stood 4.06 and 4.45 bond lengths from the carbon
+    and the oxygen they had just acted on (now within 2.9)."""
+    for stem, panel, limit in (("10-acetal-formation", 0, 2.6), ("03-acetaldehyde-aldol", 0, 2.9),
+                               ("03-acetaldehyde-aldol", 2, 2.9)):
+        _, scene = _scene(stem)
+        before, after = scene.panels[panel], scene.panels[panel + 1]
+        (base, giver), = [(a.source_atoms[0], h_holder) for a in before.arrows for h_holder in _holders(before, a)]
+        distance = math.dist(after.atom(base).position, after.atom(giver).position) / scene.bond_length
+        assert 2.0 <= distance <= limit, (stem, panel + 1, distance)
+
+
+def _holders(panel, arrow) -> list[int]:
+    """The atom holding the hydrogen that a lone pair takes (a proton transfer), or nothing."""
+    element = {a.index: a.element for a in panel.atoms}
+    if arrow.source_kind != "lone_pair":
+        return []
+    taken = [i for i in arrow.sink_atoms if element.get(i) == "H" and i != arrow.source_atoms[0]]
+    if len(taken) != 1:
+        return []
+    return [b.atoms[0] if b.atoms[1] == taken[0] else b.atoms[1] for b in panel.bonds if taken[0] in b.atoms]

@@ -1106,8 +1106,9 @@ class _LayoutBuilder:
 
     def _other_hops(self, index: int, segment: tuple[int, int], k: int, hydrogen: Optional[int]
                     ) -> list[tuple[int, complex]]:
-        """The other proton hops a cluster is about to make while it stands still over `segment`:
-        (its atom, where the partner atom is)."""
+        """The other proton hops a cluster is about to make while it stands still over `segment`,
+        and the hop just before it that made it what it is (a water that has just protonated an
+        oxygen stays beside that oxygen): (its atom, where the partner atom is)."""
         atoms = set(self.clusters[index].atoms)
         out = []
         for panel, kind, a, b, h in self.events:
@@ -1116,6 +1117,8 @@ class _LayoutBuilder:
             mine, other = (a, b) if a in atoms else (b, a)
             if segment[0] <= panel <= segment[1] and other in self.positions[panel]:
                 out.append((mine, self.positions[panel][other]))
+            elif panel == segment[0] - 1 and other in self.positions[segment[0]]:
+                out.append((mine, self.positions[segment[0]][other]))
         return out
 
     def _nearest_to_partners(self, cluster: _Cluster, mover: int, placements: _Placements,
@@ -1347,24 +1350,40 @@ class _LayoutBuilder:
             reach = abs(partner - direction)
             return max(0.0, TRANSFER_GAP - 0.1 - reach, reach - TRANSFER_GAP - 0.4)
 
-        if room(r.direction) >= _HYDROGEN_ROOM and miss(r.direction) == 0.0:
+        # Bonds its own bond would cross (relative to the holder): a hydrogen is never drawn
+        # across another bond, however much room it has.
+        walls = np.array(sorted({(self.positions[k][i] - self.positions[k][r.holder],
+                                  self.positions[k][j] - self.positions[k][r.holder])
+                                 for k in panels for i, j in self.bonds_in[k]
+                                 if i in self.positions[k] and j in self.positions[k]
+                                 and not {i, j} & {r.hydrogen, r.holder}}, key=lambda w: (w[0].real, w[0].imag)),
+                         dtype=complex).reshape(-1, 2)
+
+        def crossing(directions: list[complex]) -> list[bool]:
+            if not len(walls):
+                return [False] * len(directions)
+            return _crosses_any(np.zeros(len(directions), dtype=complex), np.array(directions, dtype=complex), walls)
+
+        crossed_now = crossing([r.direction])[0]
+        if room(r.direction) >= _HYDROGEN_ROOM and miss(r.direction) == 0.0 and not crossed_now:
             return
         bonds = [_unit(self.positions[panels[0]][x] - self.positions[panels[0]][r.holder])
                  for x in self.neighbours[r.holder] if x != r.hydrogen and x in self.positions[panels[0]]]
         polygons = [[self.positions[k][a] for a in ring] for k in panels for ring in self._closed_rings(k)]
-        # Clear of every atom first; among those, room and a comfortable hop.
-        best, best_score = r.direction, (room(r.direction) >= _HYDROGEN_ROOM,
+        # Clear of every atom and bond first, then of bonds at least; among those, room and a comfortable hop.
+        best, best_score = r.direction, (room(r.direction) >= _HYDROGEN_ROOM and not crossed_now, not crossed_now,
                                          min(room(r.direction), 1.2) + 0.1 - miss(r.direction))
         compass = [cmath.rect(1.0, step * math.pi / 12) for step in range(24)]
         rooms = (np.abs(relative - np.array(compass)[:, None]).min(axis=1).tolist() if len(relative)
                  else [math.inf] * len(compass))
-        for d, space in zip(compass, rooms):
+        for d, space, crossed in zip(compass, rooms, crossing(compass)):
             if any(abs(cmath.phase(d / b)) < math.radians(35) for b in bonds):
                 continue
             if any(_inside(self.positions[panels[0]][r.holder] + d, poly) for poly in polygons):
                 continue
-            score = (space >= _HYDROGEN_ROOM, min(space, 1.2) + 0.1 * (d / r.direction).real - miss(d))
-            if score[0] > best_score[0] or (score[0] == best_score[0] and score[1] > best_score[1] + 0.05):
+            score = (space >= _HYDROGEN_ROOM and not crossed, not crossed,
+                     min(space, 1.2) + 0.1 * (d / r.direction).real - miss(d))
+            if score[:2] > best_score[:2] or (score[:2] == best_score[:2] and score[2] > best_score[2] + 0.05):
                 best, best_score = d, score
         r.direction = best
         for k in stay:
