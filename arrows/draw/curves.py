@@ -19,7 +19,7 @@ from __future__ import annotations
 
 import cmath
 import math
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 from functools import lru_cache
 from itertools import accumulate, chain, repeat
 from typing import Optional
@@ -28,7 +28,7 @@ import numpy as np
 
 from ..electrons import ElectronState, ResolvedMove
 from .scene import Box, CurvedArrow, Mark
-from .structure import PanelStructure, best_direction, clearance
+from .structure import PanelStructure, clearance, ranked_directions, segment_hits_box
 from .styles import Style
 
 _SAMPLES = 16
@@ -257,26 +257,87 @@ class ArrowPlanner:
         toward = _unit(sink.point - centre)
         if atom in sink.atoms and sink.kind in ("bond", "gap"):
             near = [_unit(t - centre) for t in tails if abs(t - centre) < _TAIL_REACH * self.bl]
-            direction = _beside_bond(panel.occupied[atom], toward, near)
+            ranked = _beside_bond(panel.occupied[atom], toward, near)
         else:
             steps = 8 if panel.atoms[atom].box is not None else 24
-            direction = best_direction(panel.occupied[atom], toward, spread=0.35, steps=steps)
-        panel.occupied[atom].append(direction)
-        r = self.dot_radius
-        reach = panel.label_reach(atom, direction) or 0.12 * self.bl
-        spot = centre + direction * (reach + r + 0.14 * self.fs)
+            ranked = ranked_directions(panel.occupied[atom], toward, spread=0.35, steps=steps)
         if move.source_kind == "unpaired":
             # The structure's radical dot moves to face the arrow.
             panel.marks[:] = [m for m in panel.marks if not (m.kind == "radical" and m.atom == atom)]
-            dots, kind = (spot,), "radical"
+        # The dots keep clear of the atom's charge sign and other marks (a sign crowded by dots
+        # reads as a smudge): the sign moves round the label if it can, else the dots move on to
+        # the best direction whose dots touch no mark.
+        pad = _MARK_GAP * self.fs
+        placed = (self._dots(move, panel, atom, d) for d in ranked)
+        first = next(placed)
+        if self._clear_marks(panel, marks, atom, first[0], first[3], pad):
+            direction, spot, dots, box = first
+        else:
+            beside = [m.box for m in panel.marks + marks if m.atom == atom and m.box is not None]
+            direction, spot, dots, box = next((p for p in chain([first], placed)
+                                               if not any(b.overlaps(p[3], pad) for b in beside)), first)
+        panel.occupied[atom].append(direction)
+        kind = "radical" if move.source_kind == "unpaired" else "lone_pair"
+        marks.append(Mark(kind, atom, dots=tuple((d.real, d.imag) for d in dots),
+                          radius=self.dot_radius, box=box))
+        return _Anchor("dots", spot, (atom,), outward=direction)
+
+    def _clear_marks(self, panel: PanelStructure, marks: list[Mark], atom: int, direction: complex, dots: Box,
+                     pad: float) -> bool:
+        """Whether the dots at `dots` (along `direction`) are clear of the atom's marks, moving
+        its charge sign where it touches them, a little further out or round the label to the
+        nearest side clear of the dots, the bonds and other labels. Only a labelled atom's sign moves: beside a
+        skeletal vertex the sign's place was chosen clear of the bond lines."""
+        mine = [m for m in panel.marks + marks if m.atom == atom and m.box is not None]
+        crowding = [m for m in mine if m.box.overlaps(dots, pad)]
+        if not crowding:
+            return True
+        if any(m.kind != "charge" for m in crowding) or panel.atoms[atom].box is None:
+            return False
+        sign, = crowding
+        centre = panel.positions[atom]
+        middle = complex((sign.box.x0 + sign.box.x1) / 2, (sign.box.y0 + sign.box.y1) / 2)
+        occupied = list(panel.occupied[atom])
+        occupied.remove(min(occupied, key=lambda d: abs(d - _unit(middle - centre))))
+        half = max(sign.box.width, sign.box.height) / 2
+        others = [m.box for m in mine if m is not sign] + [dots] + [
+            a.box for i, a in panel.atoms.items() if i != atom and a.box is not None]
+        bonds = [(complex(*p), complex(*q)) for bond in panel.bonds for p, q in bond.lines]
+        was = _unit(middle - centre)
+        # First a little further out along its line (a superscript stays a superscript); then the
+        # nearest free side to where it was.
+        outward = 1.0 if middle.real >= centre.real else -1.0
+        tries = [(complex(outward * step * 0.05 * self.fs, 0.0), was) for step in range(1, 7)]
+        for d in sorted(_AROUND, key=lambda d: abs(cmath.phase(d / was))):
+            if clearance(d, occupied + [direction]) >= _SIGN_ROOM:
+                tries.append((centre + d * (panel.label_reach(atom, d) + half + 0.08 * self.fs) - middle, d))
+        for shift, d in tries:
+            box = sign.box.shifted(shift.real, shift.imag)
+            grown = Box(box.x0 - pad, box.y0 - pad, box.x1 + pad, box.y1 + pad)
+            if any(box.overlaps(b, pad) for b in others) or any(segment_hits_box(p, q, grown) for p, q in bonds):
+                continue
+            moved = Mark(sign.kind, atom, tuple(replace(r, x=r.x + shift.real, y=r.y + shift.imag) for r in sign.runs),
+                         box=box, colour=sign.colour)
+            panel.marks[panel.marks.index(sign)] = moved
+            panel.occupied[atom] = occupied + [d]
+            return True
+        return False
+
+    def _dots(self, move: ResolvedMove, panel: PanelStructure, atom: int, direction: complex
+              ) -> tuple[complex, complex, tuple[complex, ...], Box]:
+        """The direction, centre, dots and box of the electrons an arrow leaves from, set beside
+        the atom along `direction`: one dot for an unpaired electron, two across it for a pair."""
+        r = self.dot_radius
+        reach = panel.label_reach(atom, direction) or 0.12 * self.bl
+        spot = panel.positions[atom] + direction * (reach + r + 0.14 * self.fs)
+        if move.source_kind == "unpaired":
+            dots = (spot,)
         else:
             across = direction * 1j * (0.16 * self.fs)
-            dots, kind = (spot + across, spot - across), "lone_pair"
+            dots = (spot + across, spot - across)
         box = Box(min(d.real for d in dots) - r, min(d.imag for d in dots) - r,
                   max(d.real for d in dots) + r, max(d.imag for d in dots) + r)
-        marks.append(Mark(kind, atom, dots=tuple((d.real, d.imag) for d in dots),
-                          radius=r, box=box))
-        return _Anchor("dots", spot, (atom,), outward=direction)
+        return direction, spot, dots, box
 
     def _sink(self, move: ResolvedMove, state: ElectronState, panel: PanelStructure) -> _Anchor:
         pos = panel.positions
@@ -583,12 +644,14 @@ class ArrowPlanner:
 
 
 _TAIL_REACH = 1.0   # bond lengths: another arrow leaving a bond this close steers the dots away
+_MARK_GAP = 0.12    # font sizes: the least gap between an arrow's dots and another mark of their atom
+_SIGN_ROOM = math.radians(40)   # a charge sign moved for the dots keeps this far round from bonds and dots
 _DOTS_ROOM = math.radians(45)     # more room than this between dots and a bond counts as no better
 _AROUND = tuple(cmath.rect(1.0, k * math.pi / 12) for k in range(24))
 
 
-def _beside_bond(occupied: list[complex], toward: complex, tails: list[complex] = ()) -> complex:
-    """Where the dots of a pair that moves into a bond of its own atom sit: in the free gap
+def _beside_bond(occupied: list[complex], toward: complex, tails: list[complex] = ()) -> list[complex]:
+    """Where the dots of a pair that moves into a bond of its own atom sit, best first: in the free gap
     nearest a right angle to that bond (as far round as the room allows), not beside it, so
     the arrow from them to the bond's middle bends visibly (common practice); and on the side
     away from `tails`, the directions to where other arrows of the step leave a bond nearby, so
@@ -598,7 +661,7 @@ def _beside_bond(occupied: list[complex], toward: complex, tails: list[complex] 
         facing = max([(d * t.conjugate()).real for t in tails] + [0.0])
         return (min(clearance(d, occupied), _DOTS_ROOM) + 0.5 * min(turn, math.pi / 2)
                 - 0.6 * max(0.0, turn - math.pi / 2) - facing)
-    return max(_AROUND, key=score)
+    return sorted(_AROUND, key=score, reverse=True)   # stable: of equals, the first found (as max would)
 
 
 def _curve_features(groups: list[list[_Candidate]], controls: np.ndarray, samples: np.ndarray) -> tuple[np.ndarray, ...]:

@@ -79,7 +79,7 @@ def clip_from(p: complex, q: complex, box: Optional[Box], pad: float) -> complex
     return p + direction * min(ray_exit(p, direction, box, pad), length * 0.45)
 
 
-def _segment_hits_box(p: complex, q: complex, box: Box) -> bool:
+def segment_hits_box(p: complex, q: complex, box: Box) -> bool:
     """Whether segment p-q crosses or touches the box (Liang-Barsky clipping)."""
     t0, t1 = 0.0, 1.0
     d = q - p
@@ -147,12 +147,20 @@ _ENOUGH_ROOM = math.radians(75)   # more room than this around a direction count
 
 def best_direction(occupied: list[complex], preferred: complex, spread: float = 0.25, steps: int = 24) -> complex:
     """The direction (one of `steps` around the circle) with the most room, leaning to `preferred`."""
-    best, best_score = preferred, -math.inf
+    return ranked_directions(occupied, preferred, spread, steps)[0]
+
+
+def ranked_directions(occupied: list[complex], preferred: complex, spread: float = 0.25,
+                      steps: int = 24) -> list[complex]:
+    """The `steps` directions around the circle, best first by best_direction's measure (of two
+    nearly equal, the one found first around the circle)."""
+    best, best_score, scored = preferred, -math.inf, []
     for d in _compass(steps):
         score = min(clearance(d, occupied), _ENOUGH_ROOM) - spread * _angle_gap(d, preferred)
+        scored.append((score, d))
         if score > best_score + 1e-9:
             best, best_score = d, score
-    return best
+    return [best] + [d for _, d in sorted(scored, key=lambda item: -item[0]) if d != best]
 
 
 class StructureDrawer:
@@ -414,7 +422,7 @@ class StructureDrawer:
             run = TextRun(text, x, baseline, size)
             tb = self.text_box(run)
             grown = Box(tb.x0 - 0.1 * size, tb.y0 - 0.1 * size, tb.x1 + 0.1 * size, tb.y1 + 0.1 * size)
-            if any(_segment_hits_box(centre + d * out.label_reach(i, d), centre + d * reach, grown)
+            if any(segment_hits_box(centre + d * out.label_reach(i, d), centre + d * reach, grown)
                    for d in out.bond_directions[i]):
                 continue
             middle = complex((tb.x0 + tb.x1) / 2, (tb.y0 + tb.y1) / 2) - centre
