@@ -254,12 +254,16 @@ class _Placements:
         self.options, self.u, self.v, self.anchor_at, self.distance = options, u, v, anchor_at, distance
         self.local, self.near, self.carries_hydrogen, self.walls = local, near, carries_hydrogen, walls
         self.done: list[tuple[float, bool, np.ndarray, complex, complex, complex]] = []
+        self.depicted: dict[int, complex] = {}   # the cluster's depiction in the panel placed for
+        self.mover_at = 0j                       # where the atom that bonds or hops is in it
         self.turned: dict[int, tuple[complex, complex]] = {}   # turn -> (direction, rotation facing back along it)
 
     def like(self, options: list[tuple]) -> "_Placements":
         """The same cluster and surroundings, tried over other options."""
-        return _Placements(options, self.u, self.v, self.anchor_at, self.distance, self.local, self.near,
-                           self.carries_hydrogen, self.walls)
+        out = _Placements(options, self.u, self.v, self.anchor_at, self.distance, self.local, self.near,
+                          self.carries_hydrogen, self.walls)
+        out.depicted, out.mover_at = self.depicted, self.mover_at
+        return out
 
     def at(self, index: int) -> tuple[float, bool, np.ndarray, complex, complex, complex]:
         """Option `index`: its gap, whether its arrow is blocked, its moved atoms, direction,
@@ -397,7 +401,7 @@ class _LayoutBuilder:
         self.molecules = [_molecules(state) for state in self.states]
         self.joining = [_joining(self.states[k], self.molecules[k], self.molecules[k + 1])
                         for k in range(self.n - 1)] + [set()]
-        self.sp_atoms: dict[int, bool] = {}    # _linear's answers, asked again and again
+        self.sp_atoms: dict[tuple[int, int, int], bool] = {}    # _linear's answers, asked again and again
 
     # structure of the problem
     def build(self) -> Layout:
@@ -623,7 +627,7 @@ class _LayoutBuilder:
         self.rings_bonded: dict[int, list[list[int]]] = {}   # panel -> the rings whose bonds all exist there
         self.clusters = [_Cluster(g, self._depict(g)) for g in everything.groups()]
         for cluster in self.clusters:
-            if not self._even(cluster.local, cluster.atoms, range(self.n)):
+            if not self._even(cluster.local, cluster.atoms, range(self.n)) or self._bends(cluster.atoms):
                 cluster.local, cluster.phases = self._phases(cluster.atoms)
         self.cluster_of = {a: k for k, c in enumerate(self.clusters) for a in c.atoms}
         for sides, bonds in partners:
@@ -743,8 +747,9 @@ class _LayoutBuilder:
 
     def _phases(self, group: list[int]) -> tuple[dict[int, complex], list[tuple[int, dict[int, complex]]]]:
         """Depictions of a cluster whose bonds over the whole mechanism cannot be drawn at one
-        length (a ring that grows as a bond migrates, as in a Baeyer-Villiger oxidation): runs of
-        panels as long as one depiction draws them evenly, each run drawn from its own bonds (an
+        length (a ring that grows as a bond migrates, as in a Baeyer-Villiger oxidation) or that
+        holds an sp atom which later bends: runs of panels as long as one depiction draws them
+        evenly, with every such atom straight or bent throughout, each run drawn from its own bonds (an
         atom with none there takes the bonds it has next), each aligned on the one before by the
         atoms the step between them leaves alone. Chemists redraw a ring that changes size; its
         atoms are the ones that move."""
@@ -752,10 +757,12 @@ class _LayoutBuilder:
         start = 0
         while start < self.n:
             bonds = self._run_bonds(group, start, start)
-            end, local = start, self._depict(group, bonds)
+            end, local = start, self._depict(group, bonds, range(start, start + 1))
             while end + 1 < self.n:
+                if any(self._linear(a, range(start, end + 1)) and not self._linear(a, range(start, end + 2)) for a in group):
+                    break     # an sp atom that bends (a nitronium attacked) is drawn straight, then bent
                 trial_bonds = self._run_bonds(group, start, end + 1)
-                trial = self._depict(group, trial_bonds)
+                trial = self._depict(group, trial_bonds, range(start, end + 2))
                 if not self._even(trial, group, range(start, end + 2)):
                     break
                 end, local, bonds = end + 1, trial, trial_bonds
@@ -788,9 +795,10 @@ class _LayoutBuilder:
                     break
         return bonds
 
-    def _depict(self, group: list[int], only: Optional[set[tuple[int, int]]] = None) -> dict[int, complex]:
-        """RDKit 2D coordinates of one cluster's union graph (or of the bonds in `only`), scaled to
-        unit bond length."""
+    def _depict(self, group: list[int], only: Optional[set[tuple[int, int]]] = None,
+                panels: Optional[range] = None) -> dict[int, complex]:
+        """RDKit 2D coordinates of one cluster's union graph (or of the bonds in `only`, drawn in
+        `panels`), scaled to unit bond length."""
         if len(group) == 1:
             return {group[0]: 0j}
         index = {atom: k for k, atom in enumerate(group)}
@@ -806,7 +814,7 @@ class _LayoutBuilder:
         mol.UpdatePropertyCache(strict=False)
         Chem.FastFindRings(mol)
         for atom in group:   # the depictor draws an atom straight (a nitrile, an alkyne, an allene) only if told
-            if self._linear(atom):
+            if self._linear(atom, panels):
                 mol.GetAtomWithIdx(index[atom]).SetHybridization(Chem.HybridizationType.SP)
         self.rings += [ring for ring in ([group[k] for k in r] for r in Chem.GetSymmSSSR(mol)) if ring not in self.rings]
         rdDepictor.Compute2DCoords(mol, canonOrient=True)   # compute_layout chose RDKit's own depictor
@@ -818,16 +826,32 @@ class _LayoutBuilder:
         # y is flipped: RDKit's y grows upwards, ours downwards.
         return {atom: complex(xs[k] * scale, -ys[k] * scale) for atom, k in index.items()}
 
-    def _linear(self, atom: int) -> bool:
-        """Two bonds, one of them triple, or both double in one state: an sp atom. (An enolate
-        carbon is double-bonded to C and to O, but never at once.)"""
-        if atom not in self.sp_atoms:
+    def _linear(self, atom: int, panels: Optional[range] = None) -> bool:
+        """Over `panels` (all by default): two bonds, one of them triple, or both double in one
+        state: an sp atom. (An enolate carbon is double-bonded to C and to O, but never at once;
+        a nitronium N, straight until an arene bonds to it, is not straight over every panel.)"""
+        panels = panels or range(self.n)
+        key = (atom, panels.start, panels.stop)
+        if key not in self.sp_atoms:
             partners = [n for n in self.neighbours[atom] if self.element[n] != 1]
             pairs = [(min(atom, n), max(atom, n)) for n in partners]
-            self.sp_atoms[atom] = len(partners) == 2 and (
-                3 in [self.union[pair] for pair in pairs]
-                or any(all(orders.get(pair) == 2 for pair in pairs) for orders in self.orders_in))
-        return self.sp_atoms[atom]
+            if len(panels) < self.n:
+                pairs = [pair for pair in pairs if any(pair in self.bonds_in[k] for k in panels)]
+            orders = [self.orders_in[k] for k in panels]
+            self.sp_atoms[key] = len(pairs) == 2 and (
+                any(o.get(pair) == 3 for o in orders for pair in pairs)
+                or any(all(o.get(pair) == 2 for pair in pairs) for o in orders))
+        return self.sp_atoms[key]
+
+    def _bends(self, group: list[int]) -> bool:
+        """Whether an atom of the group is straight (sp) in some panel but not over all of them:
+        more partners than two over the mechanism, and a double or triple bond."""
+        for atom in group:
+            pairs = [(min(atom, n), max(atom, n)) for n in self.neighbours[atom] if self.element[n] != 1]
+            if len(pairs) > 2 and max(self.union[pair] for pair in pairs) >= 2 and not self._linear(atom):
+                if any(self._linear(atom, range(k, k + 1)) for k in range(self.n)):
+                    return True
+        return False
 
     def _holder(self, k: int, h: int) -> Optional[int]:
         return self.holders[k].get(h)
@@ -1011,13 +1035,14 @@ class _LayoutBuilder:
             u = residence.direction
         else:
             u = self._roomiest(anchor, k, hydrogen)
+        depicted = cluster.local_at(k)
         placed = [self.positions[k][n] for n in self.neighbours[anchor]
-                  if n in self.positions[k] and n not in cluster.local and self.element[n] != 1]
-        if kind == "bond" and self._linear(anchor) and len(placed) == 1:
+                  if n in self.positions[k] and n not in depicted and self.element[n] != 1]
+        if kind == "bond" and self._linear(anchor, range(k, k + 1)) and len(placed) == 1:
             u = _unit(self.positions[k][anchor] - placed[0])   # straight on through an sp atom
-        own = [cluster.local[n] for n in self.neighbours[mover] if n in cluster.local]
-        v = free_direction(cluster.local[mover], own, prefer=-u)
-        if len(own) == 1 and kind == "bond" and not self._linear(mover):
+        own = [depicted[n] for n in self.neighbours[mover] if n in depicted]
+        v = free_direction(depicted[mover], own, prefer=-u)
+        if len(own) == 1 and kind == "bond" and not self._linear(mover, range(k, k + 1)):
             # A chain end bonds on at 120 degrees, as in a zigzag, not straight on (a nitrile does).
             v = v * cmath.rect(1.0, math.pi / 3)
         distance = 1.0 if kind == "bond" else 1.0 + TRANSFER_GAP
@@ -1031,12 +1056,13 @@ class _LayoutBuilder:
                     for ring in self._closed_rings(kk) if all(a in others for a in ring)]
         anchor_at = self.positions[k][anchor]
         near = np.array([q for a, q in others.items() if a != anchor], dtype=complex)
-        local = np.array(list(cluster.local.values()), dtype=complex) - cluster.local[mover]
+        local = np.array(list(depicted.values()), dtype=complex) - depicted[mover]
         options = _BOND_OPTIONS if kind == "bond" else _HOP_OPTIONS
         hydrogen_on_mover = hydrogen is not None and kind == "hop" and self._holder(k, hydrogen) == mover
         # For a hop, a spot from which the arrow to the anchor's side crosses no bond is preferred.
         walls = self._walls(segment, anchor, set(cluster.atoms)) if kind == "hop" else np.zeros((0, 2), dtype=complex)
         placements = _Placements(options, u, v, anchor_at, distance, local, near, hydrogen_on_mover, walls)
+        placements.depicted, placements.mover_at = depicted, depicted[mover]
         best = None
         round_about = None
         partners = self._other_hops(index, segment, k, hydrogen) if kind == "hop" else []
@@ -1049,7 +1075,7 @@ class _LayoutBuilder:
                 continue
             if any(_inside(complex(p), poly) for p in moved for poly in polygons):
                 continue      # never inside someone else's ring
-            best = ((min(gap, _CLEARANCE), not blocked), rotation, target - cluster.local[mover] * rotation, direction)
+            best = ((min(gap, _CLEARANCE), not blocked), rotation, target - depicted[mover] * rotation, direction)
             if gap >= _CLEARANCE and not blocked:
                 break
         if len(walls) and (best is None or best[0] != (_CLEARANCE, True)):
@@ -1059,7 +1085,7 @@ class _LayoutBuilder:
             direction = u
             rotation = _unit(-direction / v)
             target = anchor_at + direction * distance
-            best = (0.0, rotation, target - cluster.local[mover] * rotation, direction)
+            best = (0.0, rotation, target - depicted[mover] * rotation, direction)
         _, rotation, shift, direction = best
         # Before it bonds, a molecule waits further out along its line of approach; a partner of
         # a proton hop is already a comfortable arrow's length away, and waits where it is.
@@ -1084,7 +1110,7 @@ class _LayoutBuilder:
             if (gap >= _CLEARANCE and not blocked
                     and not (len(promised) and np.abs(hop - promised).min() < _HYDROGEN_ROOM)
                     and not any(_inside(complex(p), poly) for p in moved for poly in polygons)):
-                return (_CLEARANCE, True), rotation, target - cluster.local[mover] * rotation, direction
+                return (_CLEARANCE, True), rotation, target - placements.mover_at * rotation, direction
         return None
 
     def _promised_spots(self, hydrogen: Optional[int], skip: set[int], panels: Iterable[int]) -> list[complex]:
@@ -1127,7 +1153,7 @@ class _LayoutBuilder:
         hop needs) and from which the arrow crosses no wall, the one that also keeps the
         cluster's other hop partners within reach of an arrow (PARTNER_REACH), in order of
         preference otherwise; None when no placement is clear."""
-        keys = list(cluster.local)
+        keys = list(placements.depicted)
         wider = placements.like(_PARTNER_OPTIONS)
         directions, rotations, targets, moved_all = wider.spots(0, len(_PARTNER_OPTIONS))   # (options, atoms)
         # The hop that places it counts as much as the others; squared, so two hops share the
@@ -1150,7 +1176,7 @@ class _LayoutBuilder:
             target = complex(targets[option])   # Python's complex arithmetic from here, as for every placement
             if (gap >= _CLEARANCE and not wider.blocked(targets[one], directions[one])[0]
                     and not any(_inside(complex(p), poly) for p in moved for poly in polygons)):
-                return ((_CLEARANCE, True), rotation, target - cluster.local[mover] * rotation, direction)
+                return ((_CLEARANCE, True), rotation, target - placements.mover_at * rotation, direction)
         return None
 
     def _residence_at(self, h: int, holder: int, k: int) -> Optional[_Residence]:
@@ -1188,8 +1214,9 @@ class _LayoutBuilder:
         hanging = {(a, n) for k in panels for a in cluster.atoms for n in self.neighbours[a]
                    if n not in cluster.atoms and n in self.exists[k] and n not in self.positions[k]
                    and a in there and n in there and (min(a, n), max(a, n)) in self.bonds_in[k]}
-        satellites = [there[n] - there[a] + rotation * cluster.local[a] for a, n in sorted(hanging)]
-        local = [rotation * p for p in cluster.local.values()] + satellites
+        depicted = cluster.local_at(segment[0])
+        satellites = [there[n] - there[a] + rotation * depicted[a] for a, n in sorted(hanging)]
+        local = [rotation * p for p in depicted.values()] + satellites
         polygons = [[self.positions[k][a] for a in ring] for k in range(segment[0], segment[1] + 1)
                     for ring in self._closed_rings(k)]
         # Every spot tried, and its nearest approach to what is already there, in one batch.
@@ -1244,7 +1271,7 @@ class _LayoutBuilder:
             return previous
         rotation, shift, direction, pull_back = previous
         cluster = self.clusters[index]
-        local = np.array([rotation * cluster.local[a] for a in cluster.atoms], dtype=complex)
+        local = np.array([rotation * cluster.local_at(segment[0])[a] for a in cluster.atoms], dtype=complex)
         others = np.array([p for kk in range(segment[0], segment[1] + 1) for a, p in self.positions[kk].items()
                            if a not in atoms], dtype=complex)
         for extra in (0.7, 0.5, 0.3):
