@@ -40,6 +40,8 @@ _MAX_TURN = math.radians(180)   # an arc turning further than this curls back on
 _CURL_WEIGHT = 0.5              # penalty per degree beyond _MAX_TURN
 _LOOP_STANDOFF = 0.45           # bond lengths: a turned-back arc standing further off its chord is a loop
 _SELF_CROSSING = math.radians(240)   # an arc turning this far crosses itself
+_HOOK_LENGTH = 0.9              # bond lengths: the shortest path that reads as a fishhook's arc
+_SHORT_HOOK = 10.0              # penalty per bond length a fishhook falls short of that
 _CROOK = 1.0                    # penalty of an arc cramped inside the angle of the two bonds it joins
 _T = np.linspace(0.0, 1.0, _SAMPLES + 1)
 _BERNSTEIN = np.stack([(1 - _T) ** 3, 3 * _T * (1 - _T) ** 2, 3 * _T ** 2 * (1 - _T), _T ** 3])
@@ -391,11 +393,28 @@ class ArrowPlanner:
             return []
         out = []
         h = 0.4 * self.bl
+        atom = snk.atoms[0]
+        other, = (a for a in src.atoms if a != atom)
+        along = _unit(panel.positions[other] - panel.positions[atom])   # from the atom down its bond
         for normal in (src.axis * 1j, src.axis * -1j):
             p0 = src.point + normal * (src.extent + 0.05 * self.bl)
-            reach = panel.label_reach(snk.atoms[0], normal)
+            reach = panel.label_reach(atom, normal)
             tip = snk.point + normal * (reach + 0.12 * self.fs if reach else 0.2 * self.bl)
             out.append(_Candidate(p0, p0 + normal * h, tip + normal * h, tip))
+            # Between the bond and a neighbour's bond less than a right angle round (a C-H between
+            # two methyls) that hook crosses the neighbour's bond. This one stays in the angle: it
+            # sets off lower down the bond, bulges into the open part of the angle and comes up
+            # to the atom through the middle of the angle.
+            side = 1 if (normal / along).imag > 0 else -1
+            room = min([t for t in (side * cmath.phase(d / along) for d in panel.bond_directions[atom]) if t > 1e-6]
+                       + [math.pi])
+            if room < math.pi / 2:
+                arrive = along * cmath.rect(1.0, side * room / 2)
+                reach = panel.label_reach(atom, arrive)
+                tip = snk.point + arrive * (reach + 0.12 * self.fs if reach else 0.2 * self.bl)
+                start = p0 + along * 0.2 * self.bl
+                out.append(_Candidate(start, start + normal * 0.55 * self.bl,
+                                      tip + (normal * 0.3 + along * 0.25) * self.bl, tip))
         return out
 
     def _arc(self, src: _Anchor, snk: _Anchor, side: int, theta: float, panel: PanelStructure) -> _Candidate:
@@ -511,6 +530,12 @@ class ArrowPlanner:
         cost += np.where((outward != 0) & ((leave * np.conj(outward)).real < -0.2), 20.0, 0.0)
         lengths = np.abs(np.diff(pts, axis=1)).sum(axis=1)
         cost += lengths / bl
+        # A fishhook from a bond to one of its own atoms (a homolysis) shorter than _HOOK_LENGTH
+        # reads as a tick rather than an arc (common practice draws it as a clear half-loop).
+        hooks = np.array([m.electrons == 1 and src.kind == "bond" and snk.kind == "atom" and snk.atoms[0] in src.atoms
+                          for m, src, snk in zip(moves, sources, sinks)])
+        if hooks.any():
+            cost += np.where(hooks[owner], _SHORT_HOOK * np.maximum(0.0, _HOOK_LENGTH - lengths / bl), 0.0)
         # A pair leaving a bond: one clean arc, never a loop.
         from_bond = np.array([src.kind == "bond" for src in sources])
         if from_bond.any():
