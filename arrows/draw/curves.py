@@ -36,12 +36,15 @@ _ANGLES = (math.radians(34), math.radians(58))
 _SHORT_ANGLES = (math.radians(40), math.radians(70), math.radians(105))
 _KEEP = 4          # candidates per arrow that enter the joint choice
 _GAP_REACH = 0.45  # bond lengths: farthest a head into a forming bond stops from the atom it reaches
+_SHIFT_REACH = 0.22  # bond lengths: where the head of a 1,2-shift stops from the atom the group moves to
 _MAX_TURN = math.radians(180)   # an arc turning further than this curls back on itself
 _CURL_WEIGHT = 0.5              # penalty per degree beyond _MAX_TURN
 _LOOP_STANDOFF = 0.45           # bond lengths: a turned-back arc standing further off its chord is a loop
 _SELF_CROSSING = math.radians(240)   # an arc turning this far crosses itself
 _HOOK_LENGTH = 0.9              # bond lengths: the shortest path that reads as a fishhook's arc
 _SHORT_HOOK = 10.0              # penalty per bond length a fishhook falls short of that
+_SHIFT_BULGE = 0.2              # bond lengths a 1,2-shift's arc stands out from its chord, away from the pivot
+_TIGHT_SHIFT = 5.0              # penalty of one that stands out less (or bulges toward the pivot)
 _CROOK = 1.0                    # penalty of an arc cramped inside the angle of the two bonds it joins
 _T = np.linspace(0.0, 1.0, _SAMPLES + 1)
 _BERNSTEIN = np.stack([(1 - _T) ** 3, 3 * _T * (1 - _T) ** 2, 3 * _T ** 2 * (1 - _T), _T ** 3])
@@ -92,6 +95,7 @@ class _Anchor:
     outward: complex = 0j     # dots: the direction from the atom through the dots
     extent: float = 0.0       # bond: half-width of its strokes
     axis: complex = 1 + 0j    # bond or gap: unit vector along it
+    pivot: Optional[int] = None   # gap of a 1,2-shift: the atom the group leaves
 
 
 @dataclass
@@ -355,12 +359,21 @@ class ArrowPlanner:
         if bonded:
             return _Anchor("bond", mid, (x, y), extent=panel.bond_extent.get((min(x, y), max(x, y)), 0.0), axis=axis)
         reached = [a for a in (x, y) if a not in move.source_atoms]
+        pivot = None
         if len(reached) == 1:
             far = reached[0]
             near = y if far == x else x
             reach = min(abs(pos[near] - pos[far]) / 2, _GAP_REACH * self.bl)
+            left = [a for a in move.source_atoms if a != near]
+            if (move.source_kind == "bond" and near in move.source_atoms and len(left) == 1
+                    and state.mol.GetBondBetweenAtoms(far, left[0]) is not None):
+                # A 1,2-shift: the group leaves the pivot for the pivot's neighbour, the cationic
+                # centre; the head points at that atom (short of its label), so the arrow reads
+                # as the whole move.
+                label = panel.label_reach(far, _unit(pos[near] - pos[far]))
+                pivot, reach = left[0], label + 0.12 * self.fs if label else _SHIFT_REACH * self.bl
             mid = pos[far] + _unit(pos[near] - pos[far]) * reach
-        return _Anchor("gap", mid, (x, y), axis=axis)
+        return _Anchor("gap", mid, (x, y), axis=axis, pivot=pivot)
 
     def _separate_shared_sinks(self, moves: list[ResolvedMove], sinks: list[_Anchor], panel: PanelStructure) -> None:
         """Arrows ending at one bond midpoint: each stops on the side of the atom its electrons
@@ -541,6 +554,17 @@ class ArrowPlanner:
         if from_bond.any():
             cost += np.where(from_bond[owner], self._curl(pts), 0.0)
         cost += _CROOK * _in_crook(pts[:, _SAMPLES // 2], sources, sinks, owner, [obs[k] for k in panel_of])
+        # A 1,2-shift is a clear arc round the outside, away from the atom the group leaves:
+        # bulging toward that atom it lies on the bond to the cationic centre, and a flat one
+        # reads as a dash between two bonds.
+        pivots = np.array([w.panel.positions[s.pivot] if s.pivot is not None else _NOWHERE
+                           for w in work for s in w.sinks])[owner]
+        if np.isfinite(pivots).any():
+            start, chord = pts[:, 0], _units(pts[:, -1] - pts[:, 0])
+            standoff = ((pts[:, _SAMPLES // 2] - start) * np.conj(chord)).imag    # off the chord, to its left
+            pivot_side = np.sign(((np.where(np.isfinite(pivots), pivots, start) - start) * np.conj(chord)).imag)
+            away = -pivot_side * standoff
+            cost += np.where(np.isfinite(pivots) & ~(away >= _SHIFT_BULGE * bl), _TIGHT_SHIFT, 0.0)
         for c, value, length in zip(candidates, cost.tolist(), lengths.tolist()):
             c.cost, c.length = value, length
 

@@ -176,9 +176,11 @@ class StructureDrawer:
     def draw(self, state: ElectronState, visible: tuple[int, ...], positions: dict[int, complex],
              drawn_hydrogens: frozenset[int], formed: set[tuple[int, int]] = frozenset(),
              broken: set[tuple[int, int]] = frozenset(),
-             listed_bonds: Optional[list[tuple[int, int, float]]] = None) -> PanelStructure:
+             listed_bonds: Optional[list[tuple[int, int, float]]] = None,
+             forming: set[tuple[int, int]] = frozenset()) -> PanelStructure:
         """`listed_bonds` are the state's bonds as rdkit_io.bond_list reads them (read here when
-        not given)."""
+        not given); `forming` the bonds the step leaving the panel makes, whose arrows head for
+        the gap between their atoms: a charge sign beside a vertex keeps out of that gap."""
         mol = state.mol
         shown = set(visible)
         # RDKit is asked once per atom and once per bond: each call into it costs more than the
@@ -212,7 +214,9 @@ class StructureDrawer:
                 role = "broken" if key in broken else "formed" if key in formed else "plain"
                 out.bonds.append(self._bond(i, j, order, role, out, neighbours, rings))
         for i in visible:
-            self._charge_and_radical(atoms[i], i, out)
+            ahead = [_unit_or_zero(positions[j] - positions[i]) for pair in forming if i in pair
+                     for j in pair if j != i and j in positions]
+            self._charge_and_radical(atoms[i], i, out, ahead)
         if self.style.numbers:
             for i in visible:
                 number = atoms[i].GetAtomMapNum()
@@ -391,13 +395,20 @@ class StructureDrawer:
         return 1 if total > 0 else -1
 
     # marks beside atoms
-    def _charge_and_radical(self, atom: Chem.Atom, i: int, out: PanelStructure) -> None:
+    def _charge_and_radical(self, atom: Chem.Atom, i: int, out: PanelStructure, ahead: list[complex] = ()) -> None:
+        """`ahead`: directions to atoms a bond is about to form with, where an arrow's head goes;
+        a charge sign beside a skeletal vertex keeps out of them."""
         charge = atom.GetFormalCharge()
         if charge:
             sign = "+" if charge > 0 else MINUS
             text = (str(abs(charge)) if abs(charge) > 1 else "") + sign
             mark = self._superscript(i, text, out)
-            out.marks.append(mark or self._side_text("charge", i, text, out, preferred=cmath.rect(1, -math.pi / 4)))
+            if mark is None:
+                out.occupied[i] += ahead
+                mark = self._side_text("charge", i, text, out, preferred=cmath.rect(1, -math.pi / 4))
+                for d in ahead:
+                    out.occupied[i].remove(d)
+            out.marks.append(mark)
         if atom.GetNumRadicalElectrons():
             out.marks.append(self.radical_dot(i, out, preferred=cmath.rect(1, -math.pi / 2)))
 
