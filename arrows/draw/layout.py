@@ -250,20 +250,21 @@ class _Placements:
     batch = 8
 
     def __init__(self, options: list[tuple], u: complex, v: complex, anchor_at: complex, distance: float,
-                 local: np.ndarray, near: np.ndarray, carries_hydrogen: bool, walls: np.ndarray):
+                 depicted: dict[int, complex], mover: int, near: np.ndarray, carries_hydrogen: bool,
+                 walls: np.ndarray):
+        """`depicted`: the cluster's depiction in the panel it is placed for; `mover` its atom
+        that bonds or hops."""
         self.options, self.u, self.v, self.anchor_at, self.distance = options, u, v, anchor_at, distance
-        self.local, self.near, self.carries_hydrogen, self.walls = local, near, carries_hydrogen, walls
+        self.depicted, self.mover, self.mover_at = depicted, mover, depicted[mover]
+        self.local = np.array(list(depicted.values()), dtype=complex) - self.mover_at   # about the mover
+        self.near, self.carries_hydrogen, self.walls = near, carries_hydrogen, walls
         self.done: list[tuple[float, bool, np.ndarray, complex, complex, complex]] = []
-        self.depicted: dict[int, complex] = {}   # the cluster's depiction in the panel placed for
-        self.mover_at = 0j                       # where the atom that bonds or hops is in it
         self.turned: dict[int, tuple[complex, complex]] = {}   # turn -> (direction, rotation facing back along it)
 
     def like(self, options: list[tuple]) -> "_Placements":
         """The same cluster and surroundings, tried over other options."""
-        out = _Placements(options, self.u, self.v, self.anchor_at, self.distance, self.local, self.near,
-                          self.carries_hydrogen, self.walls)
-        out.depicted, out.mover_at = self.depicted, self.mover_at
-        return out
+        return _Placements(options, self.u, self.v, self.anchor_at, self.distance, self.depicted, self.mover,
+                           self.near, self.carries_hydrogen, self.walls)
 
     def at(self, index: int) -> tuple[float, bool, np.ndarray, complex, complex, complex]:
         """Option `index`: its gap, whether its arrow is blocked, its moved atoms, direction,
@@ -1056,13 +1057,11 @@ class _LayoutBuilder:
                     for ring in self._closed_rings(kk) if all(a in others for a in ring)]
         anchor_at = self.positions[k][anchor]
         near = np.array([q for a, q in others.items() if a != anchor], dtype=complex)
-        local = np.array(list(depicted.values()), dtype=complex) - depicted[mover]
         options = _BOND_OPTIONS if kind == "bond" else _HOP_OPTIONS
         hydrogen_on_mover = hydrogen is not None and kind == "hop" and self._holder(k, hydrogen) == mover
         # For a hop, a spot from which the arrow to the anchor's side crosses no bond is preferred.
         walls = self._walls(segment, anchor, set(cluster.atoms)) if kind == "hop" else np.zeros((0, 2), dtype=complex)
-        placements = _Placements(options, u, v, anchor_at, distance, local, near, hydrogen_on_mover, walls)
-        placements.depicted, placements.mover_at = depicted, depicted[mover]
+        placements = _Placements(options, u, v, anchor_at, distance, depicted, mover, near, hydrogen_on_mover, walls)
         best = None
         round_about = None
         partners = self._other_hops(index, segment, k, hydrogen) if kind == "hop" else []
