@@ -22,7 +22,7 @@ import math
 from dataclasses import dataclass, replace
 from functools import lru_cache
 from itertools import accumulate, chain, repeat
-from typing import Optional
+from typing import Iterator, Optional
 
 import numpy as np
 
@@ -699,7 +699,7 @@ _DOTS_ROOM = math.radians(45)     # more room than this between dots and a bond 
 _AROUND = tuple(cmath.rect(1.0, k * math.pi / 12) for k in range(24))
 
 
-def _beside_bond(occupied: list[complex], toward: complex, tails: list[complex] = ()) -> list[complex]:
+def _beside_bond(occupied: list[complex], toward: complex, tails: list[complex] = ()) -> Iterator[complex]:
     """Where the dots of a pair that moves into a bond of its own atom sit, best first: in the free gap
     nearest a right angle to that bond (as far round as the room allows), not beside it, so
     the arrow from them to the bond's middle bends visibly (common practice); and on the side
@@ -710,7 +710,11 @@ def _beside_bond(occupied: list[complex], toward: complex, tails: list[complex] 
         facing = max([(d * t.conjugate()).real for t in tails] + [0.0])
         return (min(clearance(d, occupied), _DOTS_ROOM) + 0.5 * min(turn, math.pi / 2)
                 - 0.6 * max(0.0, turn - math.pi / 2) - facing)
-    return sorted(_AROUND, key=score, reverse=True)   # stable: of equals, the first found (as max would)
+    scores = [score(d) for d in _AROUND]
+    best = max(range(len(_AROUND)), key=scores.__getitem__)   # of equals, the first found
+    yield _AROUND[best]
+    # The rest only if asked for; sorted is stable, so equals keep their order round the circle.
+    yield from (_AROUND[k] for k in sorted(range(len(_AROUND)), key=lambda k: -scores[k]) if k != best)
 
 
 def _curve_features(groups: list[list[_Candidate]], controls: np.ndarray, samples: np.ndarray) -> tuple[np.ndarray, ...]:

@@ -222,6 +222,17 @@ def _crosses_any(p: np.ndarray, q: np.ndarray, walls: np.ndarray) -> list[bool]:
     return ((a_side * b_side < 0) & (p_side * q_side < 0)).any(axis=1).tolist()
 
 
+def _segments_cross(p: complex, q: complex, a: complex, b: complex) -> bool:
+    """Whether segment p-q crosses segment a-b (each has the other's ends on opposite sides):
+    _crosses_any for one segment and one wall, without numpy's cost per call."""
+    dx, dy, ex, ey = q.real - p.real, q.imag - p.imag, b.real - a.real, b.imag - a.imag
+    a_side = (a.imag - p.imag) * dx - (a.real - p.real) * dy
+    b_side = (b.imag - p.imag) * dx - (b.real - p.real) * dy
+    p_side = (p.imag - a.imag) * ex - (p.real - a.real) * ey
+    q_side = (q.imag - a.imag) * ex - (q.real - a.real) * ey
+    return a_side * b_side < 0 and p_side * q_side < 0
+
+
 def _inside(point: complex, polygon: list[complex]) -> bool:
     """Even-odd rule."""
     inside = False
@@ -237,6 +248,20 @@ def _inside(point: complex, polygon: list[complex]) -> bool:
 def _rotor(count: int, divisions: int) -> complex:
     """The unit turn by count * pi / divisions (a placement tries a few dozen of the same turns)."""
     return cmath.rect(1.0, count * math.pi / divisions)
+
+
+_COLUMNS: dict[int, tuple[list, tuple[np.ndarray, np.ndarray, np.ndarray]]] = {}
+_FEW_OPTIONS = 64   # fewer options than this are worked out one by one
+
+
+def _option_columns(options: list[tuple]) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    """A list of placement options as columns: turns, the spins' unit turns, extra distances
+    (the option lists are module constants: each is worked out once)."""
+    if id(options) not in _COLUMNS:
+        _COLUMNS[id(options)] = (options, (np.array([o[1] for o in options], dtype=float),
+                                           np.array([_rotor(o[2], 6) for o in options], dtype=complex),
+                                           np.array([o[3] for o in options], dtype=float)))
+    return _COLUMNS[id(options)][1]
 
 
 class _Placements:
@@ -289,18 +314,33 @@ class _Placements:
         return _crosses_any(targets, self.anchor_at + ahead, self.walls)
 
     def spots(self, first: int, last: int) -> tuple[list[complex], list[complex], np.ndarray, np.ndarray]:
-        """Directions, rotations, targets and moved atoms of options first..last-1."""
-        directions, rotations, targets = [], [], []
-        for _, turn, spin, extra in self.options[first:last]:
-            if turn not in self.turned:     # a handful of turns, shared by many options
+        """Directions, rotations, targets and moved atoms of options first..last-1, worked out
+        per turn (a handful, shared by many options) and then, for many options, all at once."""
+        if last - first <= _FEW_OPTIONS:    # numpy's cost per call outweighs a short loop
+            directions, rotations, targets = [], [], []
+            for _, turn, spin, extra in self.options[first:last]:
+                if turn not in self.turned:
+                    direction = self.u * _rotor(turn, 9)
+                    self.turned[turn] = (direction, _unit(-direction / self.v))
+                direction, facing = self.turned[turn]
+                directions.append(direction)
+                rotations.append(facing * _rotor(spin, 6))
+                targets.append(self.anchor_at + direction * (self.distance + extra))
+            target_array, rotation_array = np.array(targets, dtype=complex), np.array(rotations, dtype=complex)
+            return directions, rotations, target_array, target_array[:, None] + self.local[None, :] * rotation_array[:, None]
+        turns, spins, extras = _option_columns(self.options)
+        distinct, which = np.unique(turns[first:last], return_inverse=True)
+        for turn in distinct.tolist():
+            if turn not in self.turned:
                 direction = self.u * _rotor(turn, 9)
                 self.turned[turn] = (direction, _unit(-direction / self.v))
-            direction, facing = self.turned[turn]
-            directions.append(direction)
-            rotations.append(facing * _rotor(spin, 6))
-            targets.append(self.anchor_at + direction * (self.distance + extra))
-        target_array, rotation_array = np.array(targets, dtype=complex), np.array(rotations, dtype=complex)
-        return directions, rotations, target_array, target_array[:, None] + self.local[None, :] * rotation_array[:, None]
+        direction_array = np.array([self.turned[turn][0] for turn in distinct.tolist()], dtype=complex)[which]
+        rotation_array = np.array([self.turned[turn][1] for turn in distinct.tolist()], dtype=complex)[which] \
+            * spins[first:last]
+        extras = extras[first:last]
+        target_array = self.anchor_at + direction_array * (self.distance + extras)
+        return (direction_array.tolist(), rotation_array.tolist(), target_array,
+                target_array[:, None] + self.local[None, :] * rotation_array[:, None])
 
     def gaps(self, moved: np.ndarray, targets: np.ndarray, directions: list[complex]) -> list[float]:
         """Each placement's nearest approach to the atoms around (rows of `moved`)."""
@@ -846,11 +886,16 @@ class _LayoutBuilder:
 
     def _bends(self, group: list[int]) -> bool:
         """Whether an atom of the group is straight (sp) in some panel but not over all of them:
-        more partners than two over the mechanism, and a double or triple bond."""
+        more partners than two over the mechanism, a triple bond or two double bonds among them
+        (a carbonyl carbon, with one, is passed over at once), and in some panel two bonds only."""
         for atom in group:
             pairs = [(min(atom, n), max(atom, n)) for n in self.neighbours[atom] if self.element[n] != 1]
-            if len(pairs) > 2 and max(self.union[pair] for pair in pairs) >= 2 and not self._linear(atom):
-                if any(self._linear(atom, range(k, k + 1)) for k in range(self.n)):
+            multiple = [self.union[pair] for pair in pairs if self.union[pair] >= 2]
+            if len(pairs) <= 2 or not (3 in multiple or len(multiple) >= 2):
+                continue
+            for k in range(self.n):
+                here = [pair for pair in pairs if pair in self.bonds_in[k]]
+                if len(here) == 2 and self._linear(atom, range(k, k + 1)) and not self._linear(atom):
                     return True
         return False
 
@@ -1166,16 +1211,22 @@ class _LayoutBuilder:
             room &= reach >= PARTNER_REACH[0]      # else no room for the hydrogen between them
             miss = miss + np.maximum(0.0, reach - PARTNER_REACH[1]) ** 2
         score = _PARTNER_PREFERENCE + 30.0 * miss
-        # The cheapest first; the clearance tests cost more, so they run on one spot at a time.
-        # Equal scores keep the options' order.
-        for option in sorted(np.flatnonzero(room).tolist(), key=lambda o: score[o]):
-            one = slice(option, option + 1)
-            gap, = wider.gaps(moved_all[one], targets[one], directions[one])
-            moved, direction, rotation = moved_all[option], directions[option], rotations[option]
-            target = complex(targets[option])   # Python's complex arithmetic from here, as for every placement
-            if (gap >= _CLEARANCE and not wider.blocked(targets[one], directions[one])[0]
-                    and not any(_inside(complex(p), poly) for p in moved for poly in polygons)):
-                return ((_CLEARANCE, True), rotation, target - placements.mover_at * rotation, direction)
+        # The cheapest first (equal scores keep the options' order); the clearance tests cost
+        # more, so they run on a few spots at a time, growing as the search goes on.
+        order = np.flatnonzero(room)
+        order = order[np.argsort(score[order], kind="stable")]
+        start, size = 0, 8
+        while start < len(order):
+            batch = order[start:start + size]
+            gaps = wider.gaps(moved_all[batch], targets[batch], [directions[o] for o in batch.tolist()])
+            for option, gap in zip(batch.tolist(), gaps):
+                one = slice(option, option + 1)
+                moved, direction, rotation = moved_all[option], directions[option], rotations[option]
+                target = complex(targets[option])   # Python's complex arithmetic from here, as for every placement
+                if (gap >= _CLEARANCE and not wider.blocked(targets[one], directions[one])[0]
+                        and not any(_inside(complex(p), poly) for p in moved for poly in polygons)):
+                    return ((_CLEARANCE, True), rotation, target - placements.mover_at * rotation, direction)
+            start, size = start + size, 2 * size
         return None
 
     def _residence_at(self, h: int, holder: int, k: int) -> Optional[_Residence]:
@@ -1378,21 +1429,26 @@ class _LayoutBuilder:
 
         # Bonds its own bond would cross (relative to the holder): a hydrogen is never drawn
         # across another bond, however much room it has.
-        walls = np.array(sorted({(self.positions[k][i] - self.positions[k][r.holder],
-                                  self.positions[k][j] - self.positions[k][r.holder])
-                                 for k in panels for i, j in self.bonds_in[k]
-                                 if i in self.positions[k] and j in self.positions[k]
-                                 and not {i, j} & {r.hydrogen, r.holder}}, key=lambda w: (w[0].real, w[0].imag)),
-                         dtype=complex).reshape(-1, 2)
+        walls = set()
+        for k in panels:
+            here, centre = self.positions[k], self.positions[k][r.holder]
+            for i, j in self.bonds_in[k]:
+                if i in here and j in here and r.hydrogen not in (i, j) and r.holder not in (i, j):
+                    a, b = here[i] - centre, here[j] - centre
+                    # Only a bond that reaches the unit square round the holder can cross its bond.
+                    if (max(a.real, b.real) >= -1 and min(a.real, b.real) <= 1
+                            and max(a.imag, b.imag) >= -1 and min(a.imag, b.imag) <= 1):
+                        walls.add((a, b))
+        crossed_now = any(_segments_cross(0j, r.direction, a, b) for a, b in walls)
+        if room(r.direction) >= _HYDROGEN_ROOM and miss(r.direction) == 0.0 and not crossed_now:
+            return
+        walls = np.array(sorted(walls, key=lambda w: (w[0].real, w[0].imag)), dtype=complex).reshape(-1, 2)
 
         def crossing(directions: list[complex]) -> list[bool]:
             if not len(walls):
                 return [False] * len(directions)
             return _crosses_any(np.zeros(len(directions), dtype=complex), np.array(directions, dtype=complex), walls)
 
-        crossed_now = crossing([r.direction])[0]
-        if room(r.direction) >= _HYDROGEN_ROOM and miss(r.direction) == 0.0 and not crossed_now:
-            return
         bonds = [_unit(self.positions[panels[0]][x] - self.positions[panels[0]][r.holder])
                  for x in self.neighbours[r.holder] if x != r.hydrogen and x in self.positions[panels[0]]]
         polygons = [[self.positions[k][a] for a in ring] for k in panels for ring in self._closed_rings(k)]

@@ -14,7 +14,7 @@ import cmath
 import math
 from dataclasses import dataclass, field
 from functools import lru_cache
-from typing import Optional
+from typing import Iterator, Optional
 
 from rdkit import Chem
 
@@ -147,20 +147,26 @@ _ENOUGH_ROOM = math.radians(75)   # more room than this around a direction count
 
 def best_direction(occupied: list[complex], preferred: complex, spread: float = 0.25, steps: int = 24) -> complex:
     """The direction (one of `steps` around the circle) with the most room, leaning to `preferred`."""
-    return ranked_directions(occupied, preferred, spread, steps)[0]
+    best, best_score = preferred, -math.inf
+    for d in _compass(steps):
+        score = min(clearance(d, occupied), _ENOUGH_ROOM) - spread * _angle_gap(d, preferred)
+        if score > best_score + 1e-9:
+            best, best_score = d, score
+    return best
 
 
 def ranked_directions(occupied: list[complex], preferred: complex, spread: float = 0.25,
-                      steps: int = 24) -> list[complex]:
+                      steps: int = 24) -> Iterator[complex]:
     """The `steps` directions around the circle, best first by best_direction's measure (of two
-    nearly equal, the one found first around the circle)."""
+    nearly equal, the one found first around the circle); the rest are ranked only if asked for."""
     best, best_score, scored = preferred, -math.inf, []
     for d in _compass(steps):
         score = min(clearance(d, occupied), _ENOUGH_ROOM) - spread * _angle_gap(d, preferred)
         scored.append((score, d))
         if score > best_score + 1e-9:
             best, best_score = d, score
-    return [best] + [d for _, d in sorted(scored, key=lambda item: -item[0]) if d != best]
+    yield best
+    yield from (d for _, d in sorted(scored, key=lambda item: -item[0]) if d != best)
 
 
 class StructureDrawer:
