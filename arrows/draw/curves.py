@@ -230,6 +230,7 @@ class ArrowPlanner:
                 continue
             w, options, pairs = next(planned)
             chosen = self._choose(options, pairs)
+            self._clear_paths(w, chosen, points)
             out.append(([self._arrow(w.step, move, src, snk, cand, w.panel)
                          for move, src, snk, cand in zip(w.moves, w.sources, w.sinks, chosen)], w.marks))
         return out
@@ -276,7 +277,7 @@ class ArrowPlanner:
         pad = _MARK_GAP * self.fs
         placed = (self._dots(move, panel, atom, d) for d in ranked)
         first = next(placed)
-        if self._clear_marks(panel, marks, atom, first[0], first[3], pad):
+        if self._clear_marks(panel, marks, atom, pad, [first[0]], first[3]):
             direction, spot, dots, box = first
         else:
             beside = [m.box for m in panel.marks + marks if m.atom == atom and m.box is not None]
@@ -288,14 +289,31 @@ class ArrowPlanner:
                           radius=self.dot_radius, box=box))
         return _Anchor("dots", spot, (atom,), outward=direction)
 
-    def _clear_marks(self, panel: PanelStructure, marks: list[Mark], atom: int, direction: complex, dots: Box,
-                     pad: float) -> bool:
-        """Whether the dots at `dots` (along `direction`) are clear of the atom's marks, moving
-        its charge sign where it touches them, a little further out or round the label to the
-        nearest side clear of the dots, the bonds and other labels. Only a labelled atom's sign moves: beside a
-        skeletal vertex the sign's place was chosen clear of the bond lines."""
+    def _clear_paths(self, w: _PanelArrows, chosen: list[_Candidate], points: np.ndarray) -> None:
+        """An arrow that leaves a labelled atom's dots and runs over that atom's charge sign (the
+        sign was set before the arrows were drawn) moves the sign off every arrow of the panel."""
+        paths = [point for c in chosen for point in points[c.row].tolist()]
+        pad = _MARK_GAP * self.fs
+        for src, c in zip(w.sources, chosen):
+            if src.kind == "dots":
+                self._clear_marks(w.panel, w.marks, src.atoms[0], pad, [], None, points[c.row].tolist(), paths)
+
+    def _clear_marks(self, panel: PanelStructure, marks: list[Mark], atom: int, pad: float, taken: list[complex],
+                     dots: Optional[Box], path: list[complex] = (), paths: list[complex] = ()) -> bool:
+        """Whether the atom's charge sign is clear of `dots` (the dots an arrow leaves from, set
+        along the directions `taken` round the atom) and of the points of `path` (an arrow's
+        shaft), moving it where it is not: a little further out along its line, or round the
+        label to the nearest side clear of the dots, the bonds, other labels and every point of
+        `paths`. Only a labelled atom's sign moves: beside a skeletal vertex the sign's place
+        was chosen clear of the bond lines."""
         mine = [m for m in panel.marks + marks if m.atom == atom and m.box is not None]
-        crowding = [m for m in mine if m.box.overlaps(dots, pad)]
+
+        def on_path(box: Box, points: list[complex]) -> bool:
+            return any(box.x0 - pad <= p.real <= box.x1 + pad and box.y0 - pad <= p.imag <= box.y1 + pad
+                       for p in points)
+
+        crowding = [m for m in mine if (dots is not None and m.box.overlaps(dots, pad))
+                    or (m.kind == "charge" and on_path(m.box, path))]
         if not crowding:
             return True
         if any(m.kind != "charge" for m in crowding) or panel.atoms[atom].box is None:
@@ -306,7 +324,7 @@ class ArrowPlanner:
         occupied = list(panel.occupied[atom])
         occupied.remove(min(occupied, key=lambda d: abs(d - _unit(middle - centre))))
         half = max(sign.box.width, sign.box.height) / 2
-        others = [m.box for m in mine if m is not sign] + [dots] + [
+        others = [m.box for m in mine if m is not sign] + ([dots] if dots is not None else []) + [
             a.box for i, a in panel.atoms.items() if i != atom and a.box is not None]
         bonds = [(complex(*p), complex(*q)) for bond in panel.bonds for p, q in bond.lines]
         was = _unit(middle - centre)
@@ -315,12 +333,13 @@ class ArrowPlanner:
         outward = 1.0 if middle.real >= centre.real else -1.0
         tries = [(complex(outward * step * 0.05 * self.fs, 0.0), was) for step in range(1, 7)]
         for d in sorted(_AROUND, key=lambda d: abs(cmath.phase(d / was))):
-            if clearance(d, occupied + [direction]) >= _SIGN_ROOM:
+            if clearance(d, occupied + taken) >= _SIGN_ROOM:
                 tries.append((centre + d * (panel.label_reach(atom, d) + half + 0.08 * self.fs) - middle, d))
         for shift, d in tries:
             box = sign.box.shifted(shift.real, shift.imag)
             grown = Box(box.x0 - pad, box.y0 - pad, box.x1 + pad, box.y1 + pad)
-            if any(box.overlaps(b, pad) for b in others) or any(segment_hits_box(p, q, grown) for p, q in bonds):
+            if (any(box.overlaps(b, pad) for b in others) or any(segment_hits_box(p, q, grown) for p, q in bonds)
+                    or on_path(box, paths)):
                 continue
             moved = Mark(sign.kind, atom, tuple(replace(r, x=r.x + shift.real, y=r.y + shift.imag) for r in sign.runs),
                          box=box, colour=sign.colour)

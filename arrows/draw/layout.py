@@ -327,7 +327,8 @@ class _Placements:
                 rotations.append(facing * _rotor(spin, 6))
                 targets.append(self.anchor_at + direction * (self.distance + extra))
             target_array, rotation_array = np.array(targets, dtype=complex), np.array(rotations, dtype=complex)
-            return directions, rotations, target_array, target_array[:, None] + self.local[None, :] * rotation_array[:, None]
+            moved = target_array[:, None] + self.local[None, :] * rotation_array[:, None]
+            return directions, rotations, target_array, moved
         turns, spins, extras = _option_columns(self.options)
         distinct, which = np.unique(turns[first:last], return_inverse=True)
         for turn in distinct.tolist():
@@ -800,7 +801,8 @@ class _LayoutBuilder:
             bonds = self._run_bonds(group, start, start)
             end, local = start, self._depict(group, bonds, range(start, start + 1))
             while end + 1 < self.n:
-                if any(self._linear(a, range(start, end + 1)) and not self._linear(a, range(start, end + 2)) for a in group):
+                if any(self._linear(a, range(start, end + 1)) and not self._linear(a, range(start, end + 2))
+                       for a in group):
                     break     # an sp atom that bends (a nitronium attacked) is drawn straight, then bent
                 trial_bonds = self._run_bonds(group, start, end + 1)
                 trial = self._depict(group, trial_bonds, range(start, end + 2))
