@@ -292,11 +292,18 @@ class ArrowPlanner:
     def _clear_paths(self, w: _PanelArrows, chosen: list[_Candidate], points: np.ndarray) -> None:
         """An arrow that leaves a labelled atom's dots and runs over that atom's charge sign (the
         sign was set before the arrows were drawn) moves the sign off every arrow of the panel."""
-        paths = [point for c in chosen for point in points[c.row].tolist()]
+        signs = {m.atom: m.box for m in w.panel.marks if m.kind == "charge" and m.box is not None}
         pad = _MARK_GAP * self.fs
+        paths = None
         for src, c in zip(w.sources, chosen):
-            if src.kind == "dots":
-                self._clear_marks(w.panel, w.marks, src.atoms[0], pad, [], None, points[c.row].tolist(), paths)
+            atom = src.atoms[0]
+            if src.kind != "dots" or atom not in signs:
+                continue
+            path = points[c.row].tolist()
+            if _on_path(signs[atom], path, pad):
+                if paths is None:
+                    paths = [point for other in chosen for point in points[other.row].tolist()]
+                self._clear_marks(w.panel, w.marks, atom, pad, [], None, path, paths)
 
     def _clear_marks(self, panel: PanelStructure, marks: list[Mark], atom: int, pad: float, taken: list[complex],
                      dots: Optional[Box], path: list[complex] = (), paths: list[complex] = ()) -> bool:
@@ -306,14 +313,9 @@ class ArrowPlanner:
         label to the nearest side clear of the dots, the bonds, other labels and every point of
         `paths`. Only a labelled atom's sign moves: beside a skeletal vertex the sign's place
         was chosen clear of the bond lines."""
-        mine = [m for m in panel.marks + marks if m.atom == atom and m.box is not None]
-
-        def on_path(box: Box, points: list[complex]) -> bool:
-            return any(box.x0 - pad <= p.real <= box.x1 + pad and box.y0 - pad <= p.imag <= box.y1 + pad
-                       for p in points)
-
+        mine = [m for m in chain(panel.marks, marks) if m.atom == atom and m.box is not None]
         crowding = [m for m in mine if (dots is not None and m.box.overlaps(dots, pad))
-                    or (m.kind == "charge" and on_path(m.box, path))]
+                    or (m.kind == "charge" and _on_path(m.box, path, pad))]
         if not crowding:
             return True
         if any(m.kind != "charge" for m in crowding) or panel.atoms[atom].box is None:
@@ -339,7 +341,7 @@ class ArrowPlanner:
             box = sign.box.shifted(shift.real, shift.imag)
             grown = Box(box.x0 - pad, box.y0 - pad, box.x1 + pad, box.y1 + pad)
             if (any(box.overlaps(b, pad) for b in others) or any(segment_hits_box(p, q, grown) for p, q in bonds)
-                    or on_path(box, paths)):
+                    or _on_path(box, paths, pad)):
                 continue
             moved = Mark(sign.kind, atom, tuple(replace(r, x=r.x + shift.real, y=r.y + shift.imag) for r in sign.runs),
                          box=box, colour=sign.colour)
@@ -716,6 +718,12 @@ _MARK_GAP = 0.12    # font sizes: the least gap between an arrow's dots and anot
 _SIGN_ROOM = math.radians(40)   # a charge sign moved for the dots keeps this far round from bonds and dots
 _DOTS_ROOM = math.radians(45)     # more room than this between dots and a bond counts as no better
 _AROUND = tuple(cmath.rect(1.0, k * math.pi / 12) for k in range(24))
+
+
+def _on_path(box: Box, points: list[complex], pad: float) -> bool:
+    """Whether any of `points` lies in `box` grown by `pad`."""
+    x0, y0, x1, y1 = box.x0 - pad, box.y0 - pad, box.x1 + pad, box.y1 + pad
+    return any(x0 <= p.real <= x1 and y0 <= p.imag <= y1 for p in points)
 
 
 def _beside_bond(occupied: list[complex], toward: complex, tails: list[complex] = ()) -> Iterator[complex]:
