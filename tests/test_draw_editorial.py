@@ -153,3 +153,47 @@ def test_acetal_first_protonation_crosses_no_bond():
     panel = scene.panels[0]
     arrow, = [a for a in panel.arrows if a.move == ":O2 -> H(O30)"]
     assert _bonds_crossed(panel, arrow) == []
+
+
+def test_shuttle_stays_beside_the_atom_it_just_acted_on():
+    """A water or hydroxide that has just given or taken a proton stands beside that atom in the
+    next panel, within a short arrow's reach (common practice: the partner of a proton transfer is
+    drawn next to the atom it protonated or deprotonated). Acetal formation: the water formed by
+    protonating the carbonyl O2 stood 3.77 bond lengths from O2 (now 2.0-2.6, as in the panel
+    before); aldol: the water and the hydroxide stood 4.06 and 4.45 bond lengths from the carbon
+    and the oxygen they had just acted on (now within 2.9)."""
+    for stem, panel, limit in (("10-acetal-formation", 0, 2.6), ("03-acetaldehyde-aldol", 0, 2.9),
+                               ("03-acetaldehyde-aldol", 2, 2.9)):
+        _, scene = _scene(stem)
+        before, after = scene.panels[panel], scene.panels[panel + 1]
+        (base, giver), = [(a.source_atoms[0], h_holder) for a in before.arrows for h_holder in _holders(before, a)]
+        distance = math.dist(after.atom(base).position, after.atom(giver).position) / scene.bond_length
+        assert 2.0 <= distance <= limit, (stem, panel + 1, distance)
+
+
+def _holders(panel, arrow) -> list[int]:
+    """The atom holding the hydrogen that a lone pair takes (a proton transfer), or nothing."""
+    element = {a.index: a.element for a in panel.atoms}
+    if arrow.source_kind != "lone_pair":
+        return []
+    taken = [i for i in arrow.sink_atoms if element.get(i) == "H" and i != arrow.source_atoms[0]]
+    if len(taken) != 1:
+        return []
+    return [b.atoms[0] if b.atoms[1] == taken[0] else b.atoms[1] for b in panel.bonds if taken[0] in b.atoms]
+
+
+@pytest.mark.parametrize("path", GALLERY, ids=[p.stem for p in GALLERY])
+def test_dots_stand_clear_of_their_charge_sign(path):
+    """The dots an arrow leaves from and the charge sign of the same atom do not touch: at least
+    0.06 bond lengths (about 0.8 pt in a two-column figure) between a dot's edge and the sign's
+    box (common practice: each mark beside an atom is read on its own; IUPAC 2008 keeps a charge
+    clear of what surrounds its atom). The annulation's O3 dots overlapped its minus sign
+    (-0.039 bond lengths) and the Michael adduct's O16 dots stood 0.025 from its sign."""
+    _, scene = _scene(path.stem)
+    bl = scene.bond_length
+    for panel in scene.panels:
+        signs = [m for m in panel.marks if m.kind == "charge"]
+        for dots in (m for m in panel.marks if m.kind in ("lone_pair", "radical")):
+            for sign in (s for s in signs if s.atom == dots.atom):
+                gap = min(sign.box.distance(d) for d in dots.dots) - dots.radius
+                assert gap >= 0.06 * bl, (panel.index, panel.atom(dots.atom).name, gap / bl)

@@ -19,16 +19,16 @@ from __future__ import annotations
 
 import cmath
 import math
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 from functools import lru_cache
 from itertools import accumulate, chain, repeat
-from typing import Optional
+from typing import Iterator, Optional
 
 import numpy as np
 
 from ..electrons import ElectronState, ResolvedMove
 from .scene import Box, CurvedArrow, Mark
-from .structure import PanelStructure, best_direction, clearance
+from .structure import PanelStructure, clearance, ranked_directions, segment_hits_box
 from .styles import Style
 
 _SAMPLES = 16
@@ -36,10 +36,15 @@ _ANGLES = (math.radians(34), math.radians(58))
 _SHORT_ANGLES = (math.radians(40), math.radians(70), math.radians(105))
 _KEEP = 4          # candidates per arrow that enter the joint choice
 _GAP_REACH = 0.45  # bond lengths: farthest a head into a forming bond stops from the atom it reaches
+_SHIFT_REACH = 0.22  # bond lengths: where the head of a 1,2-shift stops from the atom the group moves to
 _MAX_TURN = math.radians(180)   # an arc turning further than this curls back on itself
 _CURL_WEIGHT = 0.5              # penalty per degree beyond _MAX_TURN
 _LOOP_STANDOFF = 0.45           # bond lengths: a turned-back arc standing further off its chord is a loop
 _SELF_CROSSING = math.radians(240)   # an arc turning this far crosses itself
+_HOOK_LENGTH = 0.9              # bond lengths: the shortest path that reads as a fishhook's arc
+_SHORT_HOOK = 10.0              # penalty per bond length a fishhook falls short of that
+_SHIFT_BULGE = 0.2              # bond lengths a 1,2-shift's arc stands out from its chord, away from the pivot
+_TIGHT_SHIFT = 5.0              # penalty of one that stands out less (or bulges toward the pivot)
 _CROOK = 1.0                    # penalty of an arc cramped inside the angle of the two bonds it joins
 _T = np.linspace(0.0, 1.0, _SAMPLES + 1)
 _BERNSTEIN = np.stack([(1 - _T) ** 3, 3 * _T * (1 - _T) ** 2, 3 * _T ** 2 * (1 - _T), _T ** 3])
@@ -90,6 +95,7 @@ class _Anchor:
     outward: complex = 0j     # dots: the direction from the atom through the dots
     extent: float = 0.0       # bond: half-width of its strokes
     axis: complex = 1 + 0j    # bond or gap: unit vector along it
+    pivot: Optional[int] = None   # gap of a 1,2-shift: the atom the group leaves
 
 
 @dataclass
@@ -234,6 +240,7 @@ class ArrowPlanner:
                 out.append(([], []))
                 continue
             w, cands = next(done)
+            self._clear_paths(w, cands, points)
             out.append(([self._arrow(w.step, move, src, snk, cand, w.panel, *next(ends))
                          for move, src, snk, cand in zip(w.moves, w.sources, w.sinks, cands)], w.marks))
         return out
@@ -270,26 +277,107 @@ class ArrowPlanner:
         toward = _unit(sink.point - centre)
         if atom in sink.atoms and sink.kind in ("bond", "gap"):
             near = [_unit(t - centre) for t in tails if abs(t - centre) < _TAIL_REACH * self.bl]
-            direction = _beside_bond(panel.occupied[atom], toward, near)
+            ranked = _beside_bond(panel.occupied[atom], toward, near)
         else:
             steps = 8 if panel.atoms[atom].box is not None else 24
-            direction = best_direction(panel.occupied[atom], toward, spread=0.35, steps=steps)
-        panel.occupied[atom].append(direction)
-        r = self.dot_radius
-        reach = panel.label_reach(atom, direction) or 0.12 * self.bl
-        spot = centre + direction * (reach + r + 0.14 * self.fs)
+            ranked = ranked_directions(panel.occupied[atom], toward, spread=0.35, steps=steps)
         if move.source_kind == "unpaired":
             # The structure's radical dot moves to face the arrow.
             panel.marks[:] = [m for m in panel.marks if not (m.kind == "radical" and m.atom == atom)]
-            dots, kind = (spot,), "radical"
+        # The dots keep clear of the atom's charge sign and other marks (a sign crowded by dots
+        # reads as a smudge): the sign moves round the label if it can, else the dots move on to
+        # the best direction whose dots touch no mark.
+        pad = _MARK_GAP * self.fs
+        placed = (self._dots(move, panel, atom, d) for d in ranked)
+        first = next(placed)
+        if self._clear_marks(panel, marks, atom, pad, [first[0]], first[3]):
+            direction, spot, dots, box = first
+        else:
+            beside = [m.box for m in panel.marks + marks if m.atom == atom and m.box is not None]
+            direction, spot, dots, box = next((p for p in chain([first], placed)
+                                               if not any(b.overlaps(p[3], pad) for b in beside)), first)
+        panel.occupied[atom].append(direction)
+        kind = "radical" if move.source_kind == "unpaired" else "lone_pair"
+        marks.append(Mark(kind, atom, dots=tuple((d.real, d.imag) for d in dots),
+                          radius=self.dot_radius, box=box))
+        return _Anchor("dots", spot, (atom,), outward=direction)
+
+    def _clear_paths(self, w: _PanelArrows, chosen: list[_Candidate], points: np.ndarray) -> None:
+        """An arrow that leaves a labelled atom's dots and runs over that atom's charge sign (the
+        sign was set before the arrows were drawn) moves the sign off every arrow of the panel."""
+        signs = {m.atom: m.box for m in w.panel.marks if m.kind == "charge" and m.box is not None}
+        pad = _MARK_GAP * self.fs
+        paths = None
+        for src, c in zip(w.sources, chosen):
+            atom = src.atoms[0]
+            if src.kind != "dots" or atom not in signs:
+                continue
+            path = points[c.row].tolist()
+            if _on_path(signs[atom], path, pad):
+                if paths is None:
+                    paths = [point for other in chosen for point in points[other.row].tolist()]
+                self._clear_marks(w.panel, w.marks, atom, pad, [], None, path, paths)
+
+    def _clear_marks(self, panel: PanelStructure, marks: list[Mark], atom: int, pad: float, taken: list[complex],
+                     dots: Optional[Box], path: list[complex] = (), paths: list[complex] = ()) -> bool:
+        """Whether the atom's charge sign is clear of `dots` (the dots an arrow leaves from, set
+        along the directions `taken` round the atom) and of the points of `path` (an arrow's
+        shaft), moving it where it is not: a little further out along its line, or round the
+        label to the nearest side clear of the dots, the bonds, other labels and every point of
+        `paths`. Only a labelled atom's sign moves: beside a skeletal vertex the sign's place
+        was chosen clear of the bond lines."""
+        mine = [m for m in chain(panel.marks, marks) if m.atom == atom and m.box is not None]
+        crowding = [m for m in mine if (dots is not None and m.box.overlaps(dots, pad))
+                    or (m.kind == "charge" and _on_path(m.box, path, pad))]
+        if not crowding:
+            return True
+        if any(m.kind != "charge" for m in crowding) or panel.atoms[atom].box is None:
+            return False
+        sign, = crowding
+        centre = panel.positions[atom]
+        middle = complex((sign.box.x0 + sign.box.x1) / 2, (sign.box.y0 + sign.box.y1) / 2)
+        occupied = list(panel.occupied[atom])
+        occupied.remove(min(occupied, key=lambda d: abs(d - _unit(middle - centre))))
+        half = max(sign.box.width, sign.box.height) / 2
+        others = [m.box for m in mine if m is not sign] + ([dots] if dots is not None else []) + [
+            a.box for i, a in panel.atoms.items() if i != atom and a.box is not None]
+        bonds = [(complex(*p), complex(*q)) for bond in panel.bonds for p, q in bond.lines]
+        was = _unit(middle - centre)
+        # First a little further out along its line (a superscript stays a superscript); then the
+        # nearest free side to where it was.
+        outward = 1.0 if middle.real >= centre.real else -1.0
+        tries = [(complex(outward * step * 0.05 * self.fs, 0.0), was) for step in range(1, 7)]
+        for d in sorted(_AROUND, key=lambda d: abs(cmath.phase(d / was))):
+            if clearance(d, occupied + taken) >= _SIGN_ROOM:
+                tries.append((centre + d * (panel.label_reach(atom, d) + half + 0.08 * self.fs) - middle, d))
+        for shift, d in tries:
+            box = sign.box.shifted(shift.real, shift.imag)
+            grown = Box(box.x0 - pad, box.y0 - pad, box.x1 + pad, box.y1 + pad)
+            if (any(box.overlaps(b, pad) for b in others) or any(segment_hits_box(p, q, grown) for p, q in bonds)
+                    or _on_path(box, paths, pad)):
+                continue
+            moved = Mark(sign.kind, atom, tuple(replace(r, x=r.x + shift.real, y=r.y + shift.imag) for r in sign.runs),
+                         box=box, colour=sign.colour)
+            panel.marks[panel.marks.index(sign)] = moved
+            panel.occupied[atom] = occupied + [d]
+            return True
+        return False
+
+    def _dots(self, move: ResolvedMove, panel: PanelStructure, atom: int, direction: complex
+              ) -> tuple[complex, complex, tuple[complex, ...], Box]:
+        """The direction, centre, dots and box of the electrons an arrow leaves from, set beside
+        the atom along `direction`: one dot for an unpaired electron, two across it for a pair."""
+        r = self.dot_radius
+        reach = panel.label_reach(atom, direction) or 0.12 * self.bl
+        spot = panel.positions[atom] + direction * (reach + r + 0.14 * self.fs)
+        if move.source_kind == "unpaired":
+            dots = (spot,)
         else:
             across = direction * 1j * (0.16 * self.fs)
-            dots, kind = (spot + across, spot - across), "lone_pair"
+            dots = (spot + across, spot - across)
         box = Box(min(d.real for d in dots) - r, min(d.imag for d in dots) - r,
                   max(d.real for d in dots) + r, max(d.imag for d in dots) + r)
-        marks.append(Mark(kind, atom, dots=tuple((d.real, d.imag) for d in dots),
-                          radius=r, box=box))
-        return _Anchor("dots", spot, (atom,), outward=direction)
+        return direction, spot, dots, box
 
     def _sink(self, move: ResolvedMove, state: ElectronState, panel: PanelStructure) -> _Anchor:
         pos = panel.positions
@@ -305,12 +393,21 @@ class ArrowPlanner:
         if bonded:
             return _Anchor("bond", mid, (x, y), extent=panel.bond_extent.get((min(x, y), max(x, y)), 0.0), axis=axis)
         reached = [a for a in (x, y) if a not in move.source_atoms]
+        pivot = None
         if len(reached) == 1:
             far = reached[0]
             near = y if far == x else x
             reach = min(abs(pos[near] - pos[far]) / 2, _GAP_REACH * self.bl)
+            left = [a for a in move.source_atoms if a != near]
+            if (move.source_kind == "bond" and near in move.source_atoms and len(left) == 1
+                    and state.mol.GetBondBetweenAtoms(far, left[0]) is not None):
+                # A 1,2-shift: the group leaves the pivot for the pivot's neighbour, the cationic
+                # centre; the head points at that atom (short of its label), so the arrow reads
+                # as the whole move.
+                label = panel.label_reach(far, _unit(pos[near] - pos[far]))
+                pivot, reach = left[0], label + 0.12 * self.fs if label else _SHIFT_REACH * self.bl
             mid = pos[far] + _unit(pos[near] - pos[far]) * reach
-        return _Anchor("gap", mid, (x, y), axis=axis)
+        return _Anchor("gap", mid, (x, y), axis=axis, pivot=pivot)
 
     def _separate_shared_sinks(self, moves: list[ResolvedMove], sinks: list[_Anchor], panel: PanelStructure) -> None:
         """Arrows ending at one bond midpoint: each stops on the side of the atom its electrons
@@ -347,11 +444,28 @@ class ArrowPlanner:
             return []
         out = []
         h = 0.4 * self.bl
+        atom = snk.atoms[0]
+        other, = (a for a in src.atoms if a != atom)
+        along = _unit(panel.positions[other] - panel.positions[atom])   # from the atom down its bond
         for normal in (src.axis * 1j, src.axis * -1j):
             p0 = src.point + normal * (src.extent + 0.05 * self.bl)
-            reach = panel.label_reach(snk.atoms[0], normal)
+            reach = panel.label_reach(atom, normal)
             tip = snk.point + normal * (reach + 0.12 * self.fs if reach else 0.2 * self.bl)
             out.append(_Candidate(p0, p0 + normal * h, tip + normal * h, tip))
+            # Between the bond and a neighbour's bond less than a right angle round (a C-H between
+            # two methyls) that hook crosses the neighbour's bond. This one stays in the angle: it
+            # sets off lower down the bond, bulges into the open part of the angle and comes up
+            # to the atom through the middle of the angle.
+            side = 1 if (normal / along).imag > 0 else -1
+            room = min([t for t in (side * cmath.phase(d / along) for d in panel.bond_directions[atom]) if t > 1e-6]
+                       + [math.pi])
+            if room < math.pi / 2:
+                arrive = along * cmath.rect(1.0, side * room / 2)
+                reach = panel.label_reach(atom, arrive)
+                tip = snk.point + arrive * (reach + 0.12 * self.fs if reach else 0.2 * self.bl)
+                start = p0 + along * 0.2 * self.bl
+                out.append(_Candidate(start, start + normal * 0.55 * self.bl,
+                                      tip + (normal * 0.3 + along * 0.25) * self.bl, tip))
         return out
 
     def _arc(self, src: _Anchor, snk: _Anchor, side: int, theta: float, panel: PanelStructure) -> _Candidate:
@@ -467,11 +581,28 @@ class ArrowPlanner:
         cost += np.where((outward != 0) & ((leave * np.conj(outward)).real < -0.2), 20.0, 0.0)
         lengths = np.abs(np.diff(pts, axis=1)).sum(axis=1)
         cost += lengths / bl
+        # A fishhook from a bond to one of its own atoms (a homolysis) shorter than _HOOK_LENGTH
+        # reads as a tick rather than an arc (common practice draws it as a clear half-loop).
+        hooks = np.array([m.electrons == 1 and src.kind == "bond" and snk.kind == "atom" and snk.atoms[0] in src.atoms
+                          for m, src, snk in zip(moves, sources, sinks)])
+        if hooks.any():
+            cost += np.where(hooks[owner], _SHORT_HOOK * np.maximum(0.0, _HOOK_LENGTH - lengths / bl), 0.0)
         # A pair leaving a bond: one clean arc, never a loop.
         from_bond = np.array([src.kind == "bond" for src in sources])
         if from_bond.any():
             cost += np.where(from_bond[owner], self._curl(pts), 0.0)
         cost += _CROOK * _in_crook(pts[:, _SAMPLES // 2], sources, sinks, owner, [obs[k] for k in panel_of])
+        # A 1,2-shift is a clear arc round the outside, away from the atom the group leaves:
+        # bulging toward that atom it lies on the bond to the cationic centre, and a flat one
+        # reads as a dash between two bonds.
+        pivots = np.array([w.panel.positions[s.pivot] if s.pivot is not None else _NOWHERE
+                           for w in work for s in w.sinks])[owner]
+        if np.isfinite(pivots).any():
+            start, chord = pts[:, 0], _units(pts[:, -1] - pts[:, 0])
+            standoff = ((pts[:, _SAMPLES // 2] - start) * np.conj(chord)).imag    # off the chord, to its left
+            pivot_side = np.sign(((np.where(np.isfinite(pivots), pivots, start) - start) * np.conj(chord)).imag)
+            away = -pivot_side * standoff
+            cost += np.where(np.isfinite(pivots) & ~(away >= _SHIFT_BULGE * bl), _TIGHT_SHIFT, 0.0)
         for c, value, length in zip(candidates, cost.tolist(), lengths.tolist()):
             c.cost, c.length = value, length
 
@@ -600,12 +731,20 @@ class ArrowPlanner:
 
 
 _TAIL_REACH = 1.0   # bond lengths: another arrow leaving a bond this close steers the dots away
+_MARK_GAP = 0.12    # font sizes: the least gap between an arrow's dots and another mark of their atom
+_SIGN_ROOM = math.radians(40)   # a charge sign moved for the dots keeps this far round from bonds and dots
 _DOTS_ROOM = math.radians(45)     # more room than this between dots and a bond counts as no better
 _AROUND = tuple(cmath.rect(1.0, k * math.pi / 12) for k in range(24))
 
 
-def _beside_bond(occupied: list[complex], toward: complex, tails: list[complex] = ()) -> complex:
-    """Where the dots of a pair that moves into a bond of its own atom sit: in the free gap
+def _on_path(box: Box, points: list[complex], pad: float) -> bool:
+    """Whether any of `points` lies in `box` grown by `pad`."""
+    x0, y0, x1, y1 = box.x0 - pad, box.y0 - pad, box.x1 + pad, box.y1 + pad
+    return any(x0 <= p.real <= x1 and y0 <= p.imag <= y1 for p in points)
+
+
+def _beside_bond(occupied: list[complex], toward: complex, tails: list[complex] = ()) -> Iterator[complex]:
+    """Where the dots of a pair that moves into a bond of its own atom sit, best first: in the free gap
     nearest a right angle to that bond (as far round as the room allows), not beside it, so
     the arrow from them to the bond's middle bends visibly (common practice); and on the side
     away from `tails`, the directions to where other arrows of the step leave a bond nearby, so
@@ -615,7 +754,11 @@ def _beside_bond(occupied: list[complex], toward: complex, tails: list[complex] 
         facing = max([(d * t.conjugate()).real for t in tails] + [0.0])
         return (min(clearance(d, occupied), _DOTS_ROOM) + 0.5 * min(turn, math.pi / 2)
                 - 0.6 * max(0.0, turn - math.pi / 2) - facing)
-    return max(_AROUND, key=score)
+    scores = [score(d) for d in _AROUND]
+    best = max(range(len(_AROUND)), key=scores.__getitem__)   # of equals, the first found
+    yield _AROUND[best]
+    # The rest only if asked for; sorted is stable, so equals keep their order round the circle.
+    yield from (_AROUND[k] for k in sorted(range(len(_AROUND)), key=lambda k: -scores[k]) if k != best)
 
 
 _SAME_SIDE = 40.0   # the two fishhooks of one split bond drawn on one side of it

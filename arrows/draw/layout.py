@@ -222,6 +222,17 @@ def _crosses_any(p: np.ndarray, q: np.ndarray, walls: np.ndarray) -> list[bool]:
     return ((a_side * b_side < 0) & (p_side * q_side < 0)).any(axis=1).tolist()
 
 
+def _segments_cross(p: complex, q: complex, a: complex, b: complex) -> bool:
+    """Whether segment p-q crosses segment a-b (each has the other's ends on opposite sides):
+    _crosses_any for one segment and one wall, without numpy's cost per call."""
+    dx, dy, ex, ey = q.real - p.real, q.imag - p.imag, b.real - a.real, b.imag - a.imag
+    a_side = (a.imag - p.imag) * dx - (a.real - p.real) * dy
+    b_side = (b.imag - p.imag) * dx - (b.real - p.real) * dy
+    p_side = (p.imag - a.imag) * ex - (p.real - a.real) * ey
+    q_side = (q.imag - a.imag) * ex - (q.real - a.real) * ey
+    return a_side * b_side < 0 and p_side * q_side < 0
+
+
 def _inside(point: complex, polygon: list[complex]) -> bool:
     """Even-odd rule."""
     inside = False
@@ -239,6 +250,20 @@ def _rotor(count: int, divisions: int) -> complex:
     return cmath.rect(1.0, count * math.pi / divisions)
 
 
+_COLUMNS: dict[int, tuple[list, tuple[np.ndarray, np.ndarray, np.ndarray]]] = {}
+_FEW_OPTIONS = 64   # fewer options than this are worked out one by one
+
+
+def _option_columns(options: list[tuple]) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    """A list of placement options as columns: turns, the spins' unit turns, extra distances
+    (the option lists are module constants: each is worked out once)."""
+    if id(options) not in _COLUMNS:
+        _COLUMNS[id(options)] = (options, (np.array([o[1] for o in options], dtype=float),
+                                           np.array([_rotor(o[2], 6) for o in options], dtype=complex),
+                                           np.array([o[3] for o in options], dtype=float)))
+    return _COLUMNS[id(options)][1]
+
+
 class _Placements:
     """The ways of placing a cluster next to its anchor, in the order they are tried: for each,
     the direction from the anchor, the cluster's rotation, the target of the atom that bonds,
@@ -250,16 +275,21 @@ class _Placements:
     batch = 8
 
     def __init__(self, options: list[tuple], u: complex, v: complex, anchor_at: complex, distance: float,
-                 local: np.ndarray, near: np.ndarray, carries_hydrogen: bool, walls: np.ndarray):
+                 depicted: dict[int, complex], mover: int, near: np.ndarray, carries_hydrogen: bool,
+                 walls: np.ndarray):
+        """`depicted`: the cluster's depiction in the panel it is placed for; `mover` its atom
+        that bonds or hops."""
         self.options, self.u, self.v, self.anchor_at, self.distance = options, u, v, anchor_at, distance
-        self.local, self.near, self.carries_hydrogen, self.walls = local, near, carries_hydrogen, walls
+        self.depicted, self.mover, self.mover_at = depicted, mover, depicted[mover]
+        self.local = np.array(list(depicted.values()), dtype=complex) - self.mover_at   # about the mover
+        self.near, self.carries_hydrogen, self.walls = near, carries_hydrogen, walls
         self.done: list[tuple[float, bool, np.ndarray, complex, complex, complex]] = []
         self.turned: dict[int, tuple[complex, complex]] = {}   # turn -> (direction, rotation facing back along it)
 
     def like(self, options: list[tuple]) -> "_Placements":
         """The same cluster and surroundings, tried over other options."""
-        return _Placements(options, self.u, self.v, self.anchor_at, self.distance, self.local, self.near,
-                           self.carries_hydrogen, self.walls)
+        return _Placements(options, self.u, self.v, self.anchor_at, self.distance, self.depicted, self.mover,
+                           self.near, self.carries_hydrogen, self.walls)
 
     def at(self, index: int) -> tuple[float, bool, np.ndarray, complex, complex, complex]:
         """Option `index`: its gap, whether its arrow is blocked, its moved atoms, direction,
@@ -284,18 +314,34 @@ class _Placements:
         return _crosses_any(targets, self.anchor_at + ahead, self.walls)
 
     def spots(self, first: int, last: int) -> tuple[list[complex], list[complex], np.ndarray, np.ndarray]:
-        """Directions, rotations, targets and moved atoms of options first..last-1."""
-        directions, rotations, targets = [], [], []
-        for _, turn, spin, extra in self.options[first:last]:
-            if turn not in self.turned:     # a handful of turns, shared by many options
+        """Directions, rotations, targets and moved atoms of options first..last-1, worked out
+        per turn (a handful, shared by many options) and then, for many options, all at once."""
+        if last - first <= _FEW_OPTIONS:    # numpy's cost per call outweighs a short loop
+            directions, rotations, targets = [], [], []
+            for _, turn, spin, extra in self.options[first:last]:
+                if turn not in self.turned:
+                    direction = self.u * _rotor(turn, 9)
+                    self.turned[turn] = (direction, _unit(-direction / self.v))
+                direction, facing = self.turned[turn]
+                directions.append(direction)
+                rotations.append(facing * _rotor(spin, 6))
+                targets.append(self.anchor_at + direction * (self.distance + extra))
+            target_array, rotation_array = np.array(targets, dtype=complex), np.array(rotations, dtype=complex)
+            moved = target_array[:, None] + self.local[None, :] * rotation_array[:, None]
+            return directions, rotations, target_array, moved
+        turns, spins, extras = _option_columns(self.options)
+        distinct, which = np.unique(turns[first:last], return_inverse=True)
+        for turn in distinct.tolist():
+            if turn not in self.turned:
                 direction = self.u * _rotor(turn, 9)
                 self.turned[turn] = (direction, _unit(-direction / self.v))
-            direction, facing = self.turned[turn]
-            directions.append(direction)
-            rotations.append(facing * _rotor(spin, 6))
-            targets.append(self.anchor_at + direction * (self.distance + extra))
-        target_array, rotation_array = np.array(targets, dtype=complex), np.array(rotations, dtype=complex)
-        return directions, rotations, target_array, target_array[:, None] + self.local[None, :] * rotation_array[:, None]
+        direction_array = np.array([self.turned[turn][0] for turn in distinct.tolist()], dtype=complex)[which]
+        rotation_array = np.array([self.turned[turn][1] for turn in distinct.tolist()], dtype=complex)[which] \
+            * spins[first:last]
+        extras = extras[first:last]
+        target_array = self.anchor_at + direction_array * (self.distance + extras)
+        return (direction_array.tolist(), rotation_array.tolist(), target_array,
+                target_array[:, None] + self.local[None, :] * rotation_array[:, None])
 
     def gaps(self, moved: np.ndarray, targets: np.ndarray, directions: list[complex]) -> list[float]:
         """Each placement's nearest approach to the atoms around (rows of `moved`)."""
@@ -397,7 +443,14 @@ class _LayoutBuilder:
         self.molecules = [_molecules(state) for state in self.states]
         self.joining = [_joining(self.states[k], self.molecules[k], self.molecules[k + 1])
                         for k in range(self.n - 1)] + [set()]
-        self.sp_atoms: dict[int, bool] = {}    # _linear's answers, asked again and again
+        self.sp_atoms: dict[tuple[int, int, int], bool] = {}    # _linear's answers, asked again and again
+        # The atoms _bends looks at: more than two heavy partners over the mechanism, with a
+        # triple bond or two double bonds among them (a carbonyl carbon, with one, is not).
+        self.may_bend: set[int] = set()
+        for atom in self.atoms:
+            orders = [self.union[(min(atom, n), max(atom, n))] for n in self.neighbours[atom] if self.element[n] != 1]
+            if len(orders) > 2 and (3 in orders or orders.count(2) >= 2):
+                self.may_bend.add(atom)
 
     # structure of the problem
     def build(self) -> Layout:
@@ -623,7 +676,7 @@ class _LayoutBuilder:
         self.rings_bonded: dict[int, list[list[int]]] = {}   # panel -> the rings whose bonds all exist there
         self.clusters = [_Cluster(g, self._depict(g)) for g in everything.groups()]
         for cluster in self.clusters:
-            if not self._even(cluster.local, cluster.atoms, range(self.n)):
+            if not self._even(cluster.local, cluster.atoms, range(self.n)) or self._bends(cluster.atoms):
                 cluster.local, cluster.phases = self._phases(cluster.atoms)
         self.cluster_of = {a: k for k, c in enumerate(self.clusters) for a in c.atoms}
         for sides, bonds in partners:
@@ -743,8 +796,9 @@ class _LayoutBuilder:
 
     def _phases(self, group: list[int]) -> tuple[dict[int, complex], list[tuple[int, dict[int, complex]]]]:
         """Depictions of a cluster whose bonds over the whole mechanism cannot be drawn at one
-        length (a ring that grows as a bond migrates, as in a Baeyer-Villiger oxidation): runs of
-        panels as long as one depiction draws them evenly, each run drawn from its own bonds (an
+        length (a ring that grows as a bond migrates, as in a Baeyer-Villiger oxidation) or that
+        holds an sp atom which later bends: runs of panels as long as one depiction draws them
+        evenly, with every such atom straight or bent throughout, each run drawn from its own bonds (an
         atom with none there takes the bonds it has next), each aligned on the one before by the
         atoms the step between them leaves alone. Chemists redraw a ring that changes size; its
         atoms are the ones that move."""
@@ -752,10 +806,13 @@ class _LayoutBuilder:
         start = 0
         while start < self.n:
             bonds = self._run_bonds(group, start, start)
-            end, local = start, self._depict(group, bonds)
+            end, local = start, self._depict(group, bonds, range(start, start + 1))
             while end + 1 < self.n:
+                if any(self._linear(a, range(start, end + 1)) and not self._linear(a, range(start, end + 2))
+                       for a in group):
+                    break     # an sp atom that bends (a nitronium attacked) is drawn straight, then bent
                 trial_bonds = self._run_bonds(group, start, end + 1)
-                trial = self._depict(group, trial_bonds)
+                trial = self._depict(group, trial_bonds, range(start, end + 2))
                 if not self._even(trial, group, range(start, end + 2)):
                     break
                 end, local, bonds = end + 1, trial, trial_bonds
@@ -788,9 +845,10 @@ class _LayoutBuilder:
                     break
         return bonds
 
-    def _depict(self, group: list[int], only: Optional[set[tuple[int, int]]] = None) -> dict[int, complex]:
-        """RDKit 2D coordinates of one cluster's union graph (or of the bonds in `only`), scaled to
-        unit bond length."""
+    def _depict(self, group: list[int], only: Optional[set[tuple[int, int]]] = None,
+                panels: Optional[range] = None) -> dict[int, complex]:
+        """RDKit 2D coordinates of one cluster's union graph (or of the bonds in `only`, drawn in
+        `panels`), scaled to unit bond length."""
         if len(group) == 1:
             return {group[0]: 0j}
         index = {atom: k for k, atom in enumerate(group)}
@@ -806,7 +864,7 @@ class _LayoutBuilder:
         mol.UpdatePropertyCache(strict=False)
         Chem.FastFindRings(mol)
         for atom in group:   # the depictor draws an atom straight (a nitrile, an alkyne, an allene) only if told
-            if self._linear(atom):
+            if self._linear(atom, panels):
                 mol.GetAtomWithIdx(index[atom]).SetHybridization(Chem.HybridizationType.SP)
         self.rings += [ring for ring in ([group[k] for k in r] for r in Chem.GetSymmSSSR(mol)) if ring not in self.rings]
         rdDepictor.Compute2DCoords(mol, canonOrient=True)   # compute_layout chose RDKit's own depictor
@@ -818,16 +876,33 @@ class _LayoutBuilder:
         # y is flipped: RDKit's y grows upwards, ours downwards.
         return {atom: complex(xs[k] * scale, -ys[k] * scale) for atom, k in index.items()}
 
-    def _linear(self, atom: int) -> bool:
-        """Two bonds, one of them triple, or both double in one state: an sp atom. (An enolate
-        carbon is double-bonded to C and to O, but never at once.)"""
-        if atom not in self.sp_atoms:
+    def _linear(self, atom: int, panels: Optional[range] = None) -> bool:
+        """Over `panels` (all by default): two bonds, one of them triple, or both double in one
+        state: an sp atom. (An enolate carbon is double-bonded to C and to O, but never at once;
+        a nitronium N, straight until an arene bonds to it, is not straight over every panel.)"""
+        panels = panels or range(self.n)
+        key = (atom, panels.start, panels.stop)
+        if key not in self.sp_atoms:
             partners = [n for n in self.neighbours[atom] if self.element[n] != 1]
             pairs = [(min(atom, n), max(atom, n)) for n in partners]
-            self.sp_atoms[atom] = len(partners) == 2 and (
-                3 in [self.union[pair] for pair in pairs]
-                or any(all(orders.get(pair) == 2 for pair in pairs) for orders in self.orders_in))
-        return self.sp_atoms[atom]
+            if len(panels) < self.n:
+                pairs = [pair for pair in pairs if any(pair in self.bonds_in[k] for k in panels)]
+            orders = [self.orders_in[k] for k in panels]
+            self.sp_atoms[key] = len(pairs) == 2 and (
+                any(o.get(pair) == 3 for o in orders for pair in pairs)
+                or any(all(o.get(pair) == 2 for pair in pairs) for o in orders))
+        return self.sp_atoms[key]
+
+    def _bends(self, group: list[int]) -> bool:
+        """Whether an atom of the group is straight (sp) in some panel but not over all of them
+        (one of `may_bend` with two bonds only in that panel)."""
+        for atom in self.may_bend.intersection(group):
+            pairs = [(min(atom, n), max(atom, n)) for n in self.neighbours[atom] if self.element[n] != 1]
+            for k in range(self.n):
+                here = [pair for pair in pairs if pair in self.bonds_in[k]]
+                if len(here) == 2 and self._linear(atom, range(k, k + 1)) and not self._linear(atom):
+                    return True
+        return False
 
     def _holder(self, k: int, h: int) -> Optional[int]:
         return self.holders[k].get(h)
@@ -1011,13 +1086,14 @@ class _LayoutBuilder:
             u = residence.direction
         else:
             u = self._roomiest(anchor, k, hydrogen)
+        depicted = cluster.local_at(k)
         placed = [self.positions[k][n] for n in self.neighbours[anchor]
-                  if n in self.positions[k] and n not in cluster.local and self.element[n] != 1]
-        if kind == "bond" and self._linear(anchor) and len(placed) == 1:
+                  if n in self.positions[k] and n not in depicted and self.element[n] != 1]
+        if kind == "bond" and self._linear(anchor, range(k, k + 1)) and len(placed) == 1:
             u = _unit(self.positions[k][anchor] - placed[0])   # straight on through an sp atom
-        own = [cluster.local[n] for n in self.neighbours[mover] if n in cluster.local]
-        v = free_direction(cluster.local[mover], own, prefer=-u)
-        if len(own) == 1 and kind == "bond" and not self._linear(mover):
+        own = [depicted[n] for n in self.neighbours[mover] if n in depicted]
+        v = free_direction(depicted[mover], own, prefer=-u)
+        if len(own) == 1 and kind == "bond" and not self._linear(mover, range(k, k + 1)):
             # A chain end bonds on at 120 degrees, as in a zigzag, not straight on (a nitrile does).
             v = v * cmath.rect(1.0, math.pi / 3)
         distance = 1.0 if kind == "bond" else 1.0 + TRANSFER_GAP
@@ -1031,12 +1107,11 @@ class _LayoutBuilder:
                     for ring in self._closed_rings(kk) if all(a in others for a in ring)]
         anchor_at = self.positions[k][anchor]
         near = np.array([q for a, q in others.items() if a != anchor], dtype=complex)
-        local = np.array(list(cluster.local.values()), dtype=complex) - cluster.local[mover]
         options = _BOND_OPTIONS if kind == "bond" else _HOP_OPTIONS
         hydrogen_on_mover = hydrogen is not None and kind == "hop" and self._holder(k, hydrogen) == mover
         # For a hop, a spot from which the arrow to the anchor's side crosses no bond is preferred.
         walls = self._walls(segment, anchor, set(cluster.atoms)) if kind == "hop" else np.zeros((0, 2), dtype=complex)
-        placements = _Placements(options, u, v, anchor_at, distance, local, near, hydrogen_on_mover, walls)
+        placements = _Placements(options, u, v, anchor_at, distance, depicted, mover, near, hydrogen_on_mover, walls)
         best = None
         round_about = None
         partners = self._other_hops(index, segment, k, hydrogen) if kind == "hop" else []
@@ -1049,7 +1124,7 @@ class _LayoutBuilder:
                 continue
             if any(_inside(complex(p), poly) for p in moved for poly in polygons):
                 continue      # never inside someone else's ring
-            best = ((min(gap, _CLEARANCE), not blocked), rotation, target - cluster.local[mover] * rotation, direction)
+            best = ((min(gap, _CLEARANCE), not blocked), rotation, target - depicted[mover] * rotation, direction)
             if gap >= _CLEARANCE and not blocked:
                 break
         if len(walls) and (best is None or best[0] != (_CLEARANCE, True)):
@@ -1059,7 +1134,7 @@ class _LayoutBuilder:
             direction = u
             rotation = _unit(-direction / v)
             target = anchor_at + direction * distance
-            best = (0.0, rotation, target - cluster.local[mover] * rotation, direction)
+            best = (0.0, rotation, target - depicted[mover] * rotation, direction)
         _, rotation, shift, direction = best
         # Before it bonds, a molecule waits further out along its line of approach; a partner of
         # a proton hop is already a comfortable arrow's length away, and waits where it is.
@@ -1084,7 +1159,7 @@ class _LayoutBuilder:
             if (gap >= _CLEARANCE and not blocked
                     and not (len(promised) and np.abs(hop - promised).min() < _HYDROGEN_ROOM)
                     and not any(_inside(complex(p), poly) for p in moved for poly in polygons)):
-                return (_CLEARANCE, True), rotation, target - cluster.local[mover] * rotation, direction
+                return (_CLEARANCE, True), rotation, target - placements.mover_at * rotation, direction
         return None
 
     def _promised_spots(self, hydrogen: Optional[int], skip: set[int], panels: Iterable[int]) -> list[complex]:
@@ -1106,8 +1181,9 @@ class _LayoutBuilder:
 
     def _other_hops(self, index: int, segment: tuple[int, int], k: int, hydrogen: Optional[int]
                     ) -> list[tuple[int, complex]]:
-        """The other proton hops a cluster is about to make while it stands still over `segment`:
-        (its atom, where the partner atom is)."""
+        """The other proton hops a cluster is about to make while it stands still over `segment`,
+        and the hop just before it that made it what it is (a water that has just protonated an
+        oxygen stays beside that oxygen): (its atom, where the partner atom is)."""
         atoms = set(self.clusters[index].atoms)
         out = []
         for panel, kind, a, b, h in self.events:
@@ -1116,6 +1192,8 @@ class _LayoutBuilder:
             mine, other = (a, b) if a in atoms else (b, a)
             if segment[0] <= panel <= segment[1] and other in self.positions[panel]:
                 out.append((mine, self.positions[panel][other]))
+            elif panel == segment[0] - 1 and other in self.positions[segment[0]]:
+                out.append((mine, self.positions[segment[0]][other]))
         return out
 
     def _nearest_to_partners(self, cluster: _Cluster, mover: int, placements: _Placements,
@@ -1124,7 +1202,7 @@ class _LayoutBuilder:
         hop needs) and from which the arrow crosses no wall, the one that also keeps the
         cluster's other hop partners within reach of an arrow (PARTNER_REACH), in order of
         preference otherwise; None when no placement is clear."""
-        keys = list(cluster.local)
+        keys = list(placements.depicted)
         wider = placements.like(_PARTNER_OPTIONS)
         directions, rotations, targets, moved_all = wider.spots(0, len(_PARTNER_OPTIONS))   # (options, atoms)
         # The hop that places it counts as much as the others; squared, so two hops share the
@@ -1138,16 +1216,22 @@ class _LayoutBuilder:
             room &= reach >= PARTNER_REACH[0]      # else no room for the hydrogen between them
             miss = miss + np.maximum(0.0, reach - PARTNER_REACH[1]) ** 2
         score = _PARTNER_PREFERENCE + 30.0 * miss
-        # The cheapest first; the clearance tests cost more, so they run on one spot at a time.
-        # Equal scores keep the options' order.
-        for option in sorted(np.flatnonzero(room).tolist(), key=lambda o: score[o]):
-            one = slice(option, option + 1)
-            gap, = wider.gaps(moved_all[one], targets[one], directions[one])
-            moved, direction, rotation = moved_all[option], directions[option], rotations[option]
-            target = complex(targets[option])   # Python's complex arithmetic from here, as for every placement
-            if (gap >= _CLEARANCE and not wider.blocked(targets[one], directions[one])[0]
-                    and not any(_inside(complex(p), poly) for p in moved for poly in polygons)):
-                return ((_CLEARANCE, True), rotation, target - cluster.local[mover] * rotation, direction)
+        # The cheapest first (equal scores keep the options' order); the clearance tests cost
+        # more, so they run on a few spots at a time, growing as the search goes on.
+        order = np.flatnonzero(room)
+        order = order[np.argsort(score[order], kind="stable")]
+        start, size = 0, 8
+        while start < len(order):
+            batch = order[start:start + size]
+            gaps = wider.gaps(moved_all[batch], targets[batch], [directions[o] for o in batch.tolist()])
+            for option, gap in zip(batch.tolist(), gaps):
+                one = slice(option, option + 1)
+                moved, direction, rotation = moved_all[option], directions[option], rotations[option]
+                target = complex(targets[option])   # Python's complex arithmetic from here, as for every placement
+                if (gap >= _CLEARANCE and not wider.blocked(targets[one], directions[one])[0]
+                        and not any(_inside(complex(p), poly) for p in moved for poly in polygons)):
+                    return ((_CLEARANCE, True), rotation, target - placements.mover_at * rotation, direction)
+            start, size = start + size, 2 * size
         return None
 
     def _residence_at(self, h: int, holder: int, k: int) -> Optional[_Residence]:
@@ -1185,8 +1269,9 @@ class _LayoutBuilder:
         hanging = {(a, n) for k in panels for a in cluster.atoms for n in self.neighbours[a]
                    if n not in cluster.atoms and n in self.exists[k] and n not in self.positions[k]
                    and a in there and n in there and (min(a, n), max(a, n)) in self.bonds_in[k]}
-        satellites = [there[n] - there[a] + rotation * cluster.local[a] for a, n in sorted(hanging)]
-        local = [rotation * p for p in cluster.local.values()] + satellites
+        depicted = cluster.local_at(segment[0])
+        satellites = [there[n] - there[a] + rotation * depicted[a] for a, n in sorted(hanging)]
+        local = [rotation * p for p in depicted.values()] + satellites
         polygons = [[self.positions[k][a] for a in ring] for k in range(segment[0], segment[1] + 1)
                     for ring in self._closed_rings(k)]
         # Every spot tried, and its nearest approach to what is already there, in one batch.
@@ -1241,7 +1326,7 @@ class _LayoutBuilder:
             return previous
         rotation, shift, direction, pull_back = previous
         cluster = self.clusters[index]
-        local = np.array([rotation * cluster.local[a] for a in cluster.atoms], dtype=complex)
+        local = np.array([rotation * cluster.local_at(segment[0])[a] for a in cluster.atoms], dtype=complex)
         others = np.array([p for kk in range(segment[0], segment[1] + 1) for a, p in self.positions[kk].items()
                            if a not in atoms], dtype=complex)
         for extra in (0.7, 0.5, 0.3):
@@ -1347,24 +1432,45 @@ class _LayoutBuilder:
             reach = abs(partner - direction)
             return max(0.0, TRANSFER_GAP - 0.1 - reach, reach - TRANSFER_GAP - 0.4)
 
-        if room(r.direction) >= _HYDROGEN_ROOM and miss(r.direction) == 0.0:
+        # Bonds its own bond would cross (relative to the holder): a hydrogen is never drawn
+        # across another bond, however much room it has.
+        walls = set()
+        for k in panels:
+            here, centre = self.positions[k], self.positions[k][r.holder]
+            for i, j in self.bonds_in[k]:
+                if i in here and j in here and r.hydrogen not in (i, j) and r.holder not in (i, j):
+                    a, b = here[i] - centre, here[j] - centre
+                    # Only a bond that reaches the unit square round the holder can cross its bond.
+                    if (max(a.real, b.real) >= -1 and min(a.real, b.real) <= 1
+                            and max(a.imag, b.imag) >= -1 and min(a.imag, b.imag) <= 1):
+                        walls.add((a, b))
+        crossed_now = any(_segments_cross(0j, r.direction, a, b) for a, b in walls)
+        if room(r.direction) >= _HYDROGEN_ROOM and miss(r.direction) == 0.0 and not crossed_now:
             return
+        walls = np.array(sorted(walls, key=lambda w: (w[0].real, w[0].imag)), dtype=complex).reshape(-1, 2)
+
+        def crossing(directions: list[complex]) -> list[bool]:
+            if not len(walls):
+                return [False] * len(directions)
+            return _crosses_any(np.zeros(len(directions), dtype=complex), np.array(directions, dtype=complex), walls)
+
         bonds = [_unit(self.positions[panels[0]][x] - self.positions[panels[0]][r.holder])
                  for x in self.neighbours[r.holder] if x != r.hydrogen and x in self.positions[panels[0]]]
         polygons = [[self.positions[k][a] for a in ring] for k in panels for ring in self._closed_rings(k)]
-        # Clear of every atom first; among those, room and a comfortable hop.
-        best, best_score = r.direction, (room(r.direction) >= _HYDROGEN_ROOM,
+        # Clear of every atom and bond first, then of bonds at least; among those, room and a comfortable hop.
+        best, best_score = r.direction, (room(r.direction) >= _HYDROGEN_ROOM and not crossed_now, not crossed_now,
                                          min(room(r.direction), 1.2) + 0.1 - miss(r.direction))
         compass = [cmath.rect(1.0, step * math.pi / 12) for step in range(24)]
         rooms = (np.abs(relative - np.array(compass)[:, None]).min(axis=1).tolist() if len(relative)
                  else [math.inf] * len(compass))
-        for d, space in zip(compass, rooms):
+        for d, space, crossed in zip(compass, rooms, crossing(compass)):
             if any(abs(cmath.phase(d / b)) < math.radians(35) for b in bonds):
                 continue
             if any(_inside(self.positions[panels[0]][r.holder] + d, poly) for poly in polygons):
                 continue
-            score = (space >= _HYDROGEN_ROOM, min(space, 1.2) + 0.1 * (d / r.direction).real - miss(d))
-            if score[0] > best_score[0] or (score[0] == best_score[0] and score[1] > best_score[1] + 0.05):
+            score = (space >= _HYDROGEN_ROOM and not crossed, not crossed,
+                     min(space, 1.2) + 0.1 * (d / r.direction).real - miss(d))
+            if score[:2] > best_score[:2] or (score[:2] == best_score[:2] and score[2] > best_score[2] + 0.05):
                 best, best_score = d, score
         r.direction = best
         for k in stay:

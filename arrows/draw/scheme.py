@@ -204,7 +204,8 @@ class _SceneBuilder:
             change = src.leaving.change
             broken |= {tuple(sorted(b)) for b in change.broken}
             broken |= {tuple(sorted(b)) for b, old, new in change.reordered if new < old}
-        return visible, self.drawer.draw(src.state, visible, positions, shown_h, formed, broken, bonds)
+        forming = {tuple(sorted(b)) for b in src.leaving.change.formed} if src.leaving is not None else set()
+        return visible, self.drawer.draw(src.state, visible, positions, shown_h, formed, broken, bonds, forming)
 
     def _panel(self, k: int, src: _PanelSource, visible: tuple[int, ...], structure: PanelStructure,
                arrows: list[CurvedArrow], dots: list[Mark]) -> Panel:

@@ -14,7 +14,7 @@ import cmath
 import math
 from dataclasses import dataclass, field
 from functools import lru_cache
-from typing import Optional
+from typing import Iterator, Optional
 
 from rdkit import Chem
 
@@ -79,7 +79,7 @@ def clip_from(p: complex, q: complex, box: Optional[Box], pad: float) -> complex
     return p + direction * min(ray_exit(p, direction, box, pad), length * 0.45)
 
 
-def _segment_hits_box(p: complex, q: complex, box: Box) -> bool:
+def segment_hits_box(p: complex, q: complex, box: Box) -> bool:
     """Whether segment p-q crosses or touches the box (Liang-Barsky clipping)."""
     t0, t1 = 0.0, 1.0
     d = q - p
@@ -155,6 +155,20 @@ def best_direction(occupied: list[complex], preferred: complex, spread: float = 
     return best
 
 
+def ranked_directions(occupied: list[complex], preferred: complex, spread: float = 0.25,
+                      steps: int = 24) -> Iterator[complex]:
+    """The `steps` directions around the circle, best first by best_direction's measure (of two
+    nearly equal, the one found first around the circle); the rest are ranked only if asked for."""
+    best, best_score, scored = preferred, -math.inf, []
+    for d in _compass(steps):
+        score = min(clearance(d, occupied), _ENOUGH_ROOM) - spread * _angle_gap(d, preferred)
+        scored.append((score, d))
+        if score > best_score + 1e-9:
+            best, best_score = d, score
+    yield best
+    yield from (d for _, d in sorted(scored, key=lambda item: -item[0]) if d != best)
+
+
 class StructureDrawer:
     """Turns one panel's state and atom positions into labels, bonds and marks."""
 
@@ -168,9 +182,11 @@ class StructureDrawer:
     def draw(self, state: ElectronState, visible: tuple[int, ...], positions: dict[int, complex],
              drawn_hydrogens: frozenset[int], formed: set[tuple[int, int]] = frozenset(),
              broken: set[tuple[int, int]] = frozenset(),
-             listed_bonds: Optional[list[tuple[int, int, float]]] = None) -> PanelStructure:
+             listed_bonds: Optional[list[tuple[int, int, float]]] = None,
+             forming: set[tuple[int, int]] = frozenset()) -> PanelStructure:
         """`listed_bonds` are the state's bonds as rdkit_io.bond_list reads them (read here when
-        not given)."""
+        not given); `forming` the bonds the step leaving the panel makes, whose arrows head for
+        the gap between their atoms: a charge sign beside a vertex keeps out of that gap."""
         mol = state.mol
         shown = set(visible)
         # RDKit is asked once per atom and once per bond: each call into it costs more than the
@@ -204,7 +220,9 @@ class StructureDrawer:
                 role = "broken" if key in broken else "formed" if key in formed else "plain"
                 out.bonds.append(self._bond(i, j, order, role, out, neighbours, rings))
         for i in visible:
-            self._charge_and_radical(atoms[i], i, out)
+            ahead = [_unit_or_zero(positions[j] - positions[i]) for pair in forming if i in pair
+                     for j in pair if j != i and j in positions]
+            self._charge_and_radical(atoms[i], i, out, ahead)
         if self.style.numbers:
             for i in visible:
                 number = atoms[i].GetAtomMapNum()
@@ -298,7 +316,7 @@ class StructureDrawer:
             hit = sum(1 for c, across, up in crowd
                       if x0 - across <= c.real <= x1 + across and abs(c.imag - y) <= half_height + up)
             text = Box(x0 - pad, y - half_height - pad, x1 + pad, y + half_height + pad)
-            hit += sum(1 for a, b in walls if _segment_hits_box(a, b, text))
+            hit += sum(1 for a, b in walls if segment_hits_box(a, b, text))
             return hit + (clearance(complex(side), bonds) < limit)
 
         for side in (1, -1):
@@ -411,13 +429,20 @@ class StructureDrawer:
         return 1 if total > 0 else -1
 
     # marks beside atoms
-    def _charge_and_radical(self, atom: Chem.Atom, i: int, out: PanelStructure) -> None:
+    def _charge_and_radical(self, atom: Chem.Atom, i: int, out: PanelStructure, ahead: list[complex] = ()) -> None:
+        """`ahead`: directions to atoms a bond is about to form with, where an arrow's head goes;
+        a charge sign beside a skeletal vertex keeps out of them."""
         charge = atom.GetFormalCharge()
         if charge:
             sign = "+" if charge > 0 else MINUS
             text = (str(abs(charge)) if abs(charge) > 1 else "") + sign
             mark = self._superscript(i, text, out)
-            out.marks.append(mark or self._side_text("charge", i, text, out, preferred=cmath.rect(1, -math.pi / 4)))
+            if mark is None:
+                out.occupied[i] += ahead
+                mark = self._side_text("charge", i, text, out, preferred=cmath.rect(1, -math.pi / 4))
+                for d in ahead:
+                    out.occupied[i].remove(d)
+            out.marks.append(mark)
         if atom.GetNumRadicalElectrons():
             out.marks.append(self.radical_dot(i, out, preferred=cmath.rect(1, -math.pi / 2)))
 
@@ -442,7 +467,7 @@ class StructureDrawer:
             run = TextRun(text, x, baseline, size)
             tb = self.text_box(run)
             grown = Box(tb.x0 - 0.1 * size, tb.y0 - 0.1 * size, tb.x1 + 0.1 * size, tb.y1 + 0.1 * size)
-            if any(_segment_hits_box(centre + d * out.label_reach(i, d), centre + d * reach, grown)
+            if any(segment_hits_box(centre + d * out.label_reach(i, d), centre + d * reach, grown)
                    for d in out.bond_directions[i]):
                 continue
             middle = complex((tb.x0 + tb.x1) / 2, (tb.y0 + tb.y1) / 2) - centre
