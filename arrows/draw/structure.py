@@ -207,8 +207,13 @@ class StructureDrawer:
                 if length > 1e-9:
                     out.occupied[i].append(d / length)
             out.bond_directions[i] = list(out.occupied[i])
+        # Where each atom is about to bond: its hydrogens and charge sign keep out of that gap,
+        # where the arrow of the step goes.
+        ahead = {i: [_unit_or_zero(positions[j] - positions[i]) for pair in forming if i in pair
+                     for j in pair if j != i and j in positions] for i in visible}
         for i in visible:
-            out.atoms[i] = self._atom(state, atoms, adjacent, i, positions, neighbours[i], drawn_hydrogens, out)
+            out.atoms[i] = self._atom(state, atoms, adjacent, i, positions, neighbours[i], drawn_hydrogens, out,
+                                      ahead[i])
         # RDKit's ring search costs more than all the strokes: run it only when a drawn double
         # bond lies on a ring (only such a bond asks which ring it is in).
         on_ring = any(order == 2 and i in shown and j in shown and _closes_cycle(i, j, adjacent)
@@ -220,9 +225,7 @@ class StructureDrawer:
                 role = "broken" if key in broken else "formed" if key in formed else "plain"
                 out.bonds.append(self._bond(i, j, order, role, out, neighbours, rings))
         for i in visible:
-            ahead = [_unit_or_zero(positions[j] - positions[i]) for pair in forming if i in pair
-                     for j in pair if j != i and j in positions]
-            self._charge_and_radical(atoms[i], i, out, ahead)
+            self._charge_and_radical(atoms[i], i, out, ahead[i])
         if self.style.numbers:
             for i in visible:
                 number = atoms[i].GetAtomMapNum()
@@ -235,7 +238,7 @@ class StructureDrawer:
     # atoms and labels
     def _atom(self, state: ElectronState, atoms: list[Chem.Atom], adjacent: list[list[int]], i: int,
               positions: dict[int, complex], neighbours: list[int], drawn_hydrogens: frozenset[int],
-              out: PanelStructure) -> AtomDrawing:
+              out: PanelStructure, ahead: list[complex] = ()) -> AtomDrawing:
         atom = atoms[i]
         element = state.elements   # atomic numbers, without a call into RDKit per atom
         p = positions[i]
@@ -272,7 +275,8 @@ class StructureDrawer:
             near = [j for j, q in positions.items() if j != i and abs(q - p) < 1.6 * bl]
             walls = [(positions[a] - p, positions[b] - p) for a in near for b in adjacent[a]
                      if b != i and b in positions and (b not in near or a < b)]
-            side = self._hydrogen_side(atom, out.occupied[i], crowd, walls, w_symbol / 2, w_h + w_n)
+            side = self._hydrogen_side(atom, out.occupied[i], crowd, walls, w_symbol / 2, w_h + w_n,
+                                       [a for a in ahead if a])
             sub_drop = 0.3 * fs
             if side == 1:
                 x = p.real + w_symbol / 2
@@ -294,16 +298,20 @@ class StructureDrawer:
         return AtomDrawing(i, name, symbol, point, tuple(runs), self._runs_box(runs))
 
     def _hydrogen_side(self, atom: Chem.Atom, bonds: list[complex], crowd: list[tuple[complex, float, float]],
-                       walls: list[tuple[complex, complex]], half_symbol: float, h_width: float):
+                       walls: list[tuple[complex, complex]], half_symbol: float, h_width: float,
+                       ahead: list[complex] = ()):
         """1 (right), -1 (left), 1j (below) or -1j (above): the first side beside the symbol where
-        the 'H' text keeps 50 degrees from the atom's bonds and meets neither the atoms around
-        (`crowd`: each as its offset and the room, across and up, that its label may need) nor
-        other bonds (`walls`, as offsets of their ends); when neither side does, the side that
-        meets the fewest (a bond of the atom within 50 degrees counts as one), then the one
-        furthest round from bonds and atoms."""
+        the 'H' text keeps 50 degrees from the atom's bonds and from the bonds it is about to
+        form (`ahead`) and meets neither the atoms around (`crowd`: each as its offset and the
+        room, across and up, that its label may need) nor other bonds (`walls`, as offsets of
+        their ends); when neither side does, the side that meets the fewest (a bond within 50
+        degrees counts as one), then the one furthest round from bonds and atoms. An atom
+        without bonds tries the side its formula is written from first (HO-, H2O; NH3)."""
+        h_first = not bonds and atom.GetAtomicNum() in _HYDROGEN_FIRST
+        bonds = bonds + list(ahead)
         occupied = bonds + [_unit_or_zero(c) for c, _, _ in crowd]
         if not occupied:
-            return -1 if atom.GetAtomicNum() in _HYDROGEN_FIRST else 1
+            return -1 if h_first else 1
         limit = math.radians(50)
         half_height, line, pad = 0.5 * self.cap, 1.1 * self.style.font_size, 0.08 * self.style.bond_length
 
@@ -319,7 +327,7 @@ class StructureDrawer:
             hit += sum(1 for a, b in walls if segment_hits_box(a, b, text))
             return hit + (clearance(complex(side), bonds) < limit)
 
-        for side in (1, -1):
+        for side in ((-1, 1) if h_first else (1, -1)):
             if not meets(side):
                 return side
         return min((1j, -1j, 1, -1), key=lambda s: (meets(s), -clearance(complex(s), occupied)))
