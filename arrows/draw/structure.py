@@ -446,9 +446,14 @@ class StructureDrawer:
             text = (str(abs(charge)) if abs(charge) > 1 else "") + sign
             mark = self._superscript(i, text, out)
             if mark is None:
-                out.occupied[i] += ahead
+                # Round the atom: clear of its bonds, the gaps ahead and the labels nearby.
+                centre = out.positions[i]
+                labels = [_unit_or_zero(out.positions[j] - centre) for j, a in out.atoms.items()
+                          if j != i and a.box is not None and abs(out.positions[j] - centre) < 1.3 * self.style.bond_length]
+                avoided = list(ahead) + [d for d in labels if d]
+                out.occupied[i] += avoided
                 mark = self._side_text("charge", i, text, out, preferred=cmath.rect(1, -math.pi / 4))
-                for d in ahead:
+                for d in avoided:
                     out.occupied[i].remove(d)
             out.marks.append(mark)
         if atom.GetNumRadicalElectrons():
@@ -471,12 +476,15 @@ class StructureDrawer:
         baseline = box.y0 + 0.38 * size
         centre = out.positions[i]
         reach = self.style.bond_length
+        # Other atoms' labels close by: a sign against one reads as belonging to it.
+        near = [a.box for j, a in out.atoms.items()
+                if j != i and a.box is not None and abs(out.positions[j] - centre) < 2 * reach]
         for x in (box.x1 + 0.03 * size, box.x0 - 0.03 * size - width):
             run = TextRun(text, x, baseline, size)
             tb = self.text_box(run)
             grown = Box(tb.x0 - 0.1 * size, tb.y0 - 0.1 * size, tb.x1 + 0.1 * size, tb.y1 + 0.1 * size)
             if any(segment_hits_box(centre + d * out.label_reach(i, d), centre + d * reach, grown)
-                   for d in out.bond_directions[i]):
+                   for d in out.bond_directions[i]) or any(grown.overlaps(b, 0.2 * size) for b in near):
                 continue
             middle = complex((tb.x0 + tb.x1) / 2, (tb.y0 + tb.y1) / 2) - centre
             out.occupied[i].append(middle / abs(middle))
