@@ -85,6 +85,22 @@ step "split"
     O2-Cl3 ~> Cl3
 end
 """,
+    # Found by random valid move sequences (chemically odd): a C-O bond that breaks with the pair
+    # left a methyl cation and a hydroxide one bond length apart, their labels running together.
+    "split between letters": """\
+species methanol = "[CH3:3][OH:4]"
+species acetonitrile = "[CH3:16][C:17]#[N:18]"
+step "step 1"
+    C3-O4 -> O4
+end
+step "step 2"
+    C17#N18 ~> C17
+    C17#N18 ~> N18
+end
+step "step 3"
+    C16-C17 -> C16
+end
+""",
     "ionisation": """\
 species substrate = "C[C:2](C)(C)[Cl:1]"
 step "ionisation"

@@ -1313,16 +1313,18 @@ class _LayoutBuilder:
 
     def _split_off(self, index: int, segment: tuple[int, int], previous: Optional[tuple]) -> Optional[tuple]:
         """Where a cluster stays after it has acted: where it was, or, when the step before the
-        segment split its bond evenly (a homolysis: it now carries the unpaired electron), a
-        little further out along that bond, so the two radicals read as apart. A fragment that
-        leaves with the pair stays: it is soon left out of the panels anyway."""
+        segment split its bond evenly (a homolysis: it now carries the unpaired electron) or
+        left a letter on both ends (CH3+ beside HO-, whose labels would run together), a little
+        further out along that bond, so the two pieces read as apart. Otherwise a fragment
+        that leaves with the pair stays: it is soon left out of the panels anyway."""
         if previous is None or previous[2] is None or segment[0] == 0:
             return previous
         atoms = set(self.clusters[index].atoms)
         k = segment[0]
         mol = self.states[k].mol
-        if not any((i in atoms) != (j in atoms) and mol.GetAtomWithIdx(i if i in atoms else j).GetNumRadicalElectrons()
-                   for i, j in self.bonds_in[k - 1] - self.bonds_in[k]):
+        split = [(i, j) for i, j in self.bonds_in[k - 1] - self.bonds_in[k] if (i in atoms) != (j in atoms)]
+        if not any(mol.GetAtomWithIdx(i if i in atoms else j).GetNumRadicalElectrons()
+                   or (self._lettered(i, mol) and self._lettered(j, mol)) for i, j in split):
             return previous
         rotation, shift, direction, pull_back = previous
         cluster = self.clusters[index]
@@ -1365,6 +1367,14 @@ class _LayoutBuilder:
             cluster.placement[start] = (1 + 0j, complex(right + LEFTOVER_GAP - left, mid_y - cy), None, 0.0)
         self._apply(index)
         return True
+
+    def _lettered(self, atom: int, mol: Chem.Mol) -> bool:
+        """Whether the heavy atom is drawn as a letter in this state: a heteroatom, or a carbon
+        with no heavy neighbour (CH3+, CN-)."""
+        if self.element[atom] == 1:
+            return False   # a travelling hydrogen: its hops are placed apart on their own
+        return self.element[atom] != 6 or all(self.element.get(n.GetIdx(), 1) == 1
+                                               for n in mol.GetAtomWithIdx(atom).GetNeighbors())
 
     def _label_reach(self, atom: int) -> float:
         """How far an atom's label may reach to either side, in bond lengths (a generous estimate:
