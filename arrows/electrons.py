@@ -17,7 +17,7 @@ from rdkit import Chem
 from .diagnostics import Diagnostic
 from .model import (AtomSink, BareAtom, BondPair, BondRef, HydrogenOn, Location, LonePair, Move, Step,
                     UnpairedElectron, CONNECTORS)
-from .rdkit_io import atom_list, forget_configuration, valence_electrons
+from .rdkit_io import atom_list, forget_configuration, substitute_configuration, valence_electrons
 
 _BOND_TYPES = {1: Chem.BondType.SINGLE, 2: Chem.BondType.DOUBLE, 3: Chem.BondType.TRIPLE}
 # RDKit's valence check and computed properties (implicit hydrogens, explicit valence): what makes a
@@ -583,10 +583,13 @@ def _settle(state: ElectronState, step: Step, step_index: int, replay: _StepRepl
     touched = sorted(set(replay.d_nonbonding) | {i for key in new_bonds for i in key})
     change.touched_atoms = touched
     if state.configured:
-        # The bookkeeping follows electrons, not geometry: whether a new bond comes in with
-        # inversion or retention is not known, so an atom that gains or loses a bond loses the
-        # configuration a species wrote for it (@, @@, / and \\).
-        forget_configuration(work, {i for key in new_bonds for i in key})
+        # The bookkeeping follows electrons, not geometry: an atom that gains or loses a bond
+        # loses the configuration a species wrote for it (@, @@, / and \\), except where the
+        # step is a concerted backside substitution, which inverts it.
+        inverted = _backside_substitutions(state.mol, new_bonds, replay)
+        forget_configuration(work, {i for key in new_bonds for i in key} - set(inverted))
+        for atom, (leaving, entering) in inverted.items():
+            substitute_configuration(state.mol, work, atom, leaving, entering, invert=True)
     valence, elements, old_nonbonding = state.valence, state.elements, state.nonbonding
     for i in touched:
         bonds = bond_sums[i]
@@ -640,6 +643,39 @@ def _next_framework(state: ElectronState, new_bonds: dict[Pair, int], replay: _S
     if not removed and not added:
         return state.framework
     return state.framework.difference(removed).union(added)
+
+
+def _backside_substitutions(mol: Chem.Mol, new_bonds: dict[Pair, int], replay: "_StepReplay"
+                            ) -> dict[int, tuple[int, int]]:
+    """The stereocentres at which a step is a concerted substitution (SN2, or a nucleophile opening
+    an epoxide or a bromonium ion): one single bond forms to the atom with electrons from
+    elsewhere while one single bond from it breaks with its pair going to the leaving atom, and
+    nothing else changes there. The nucleophile enters opposite the leaving group, so the
+    configuration inverts (Walden inversion, textbook). A group that moves with its bonding pair
+    (a 1,2-shift) is not one. Returns atom -> (leaving, entering)."""
+    formed: dict[int, list[int]] = {}
+    broken: dict[int, list[int]] = {}
+    other: set[int] = set()
+    for (i, j), electrons in new_bonds.items():
+        before = replay.bond_before(i, j)
+        kind = formed if (before, electrons) == (0, 2) else broken if (before, electrons) == (2, 0) else None
+        if kind is None:
+            other.update((i, j))
+            continue
+        kind.setdefault(i, []).append(j)
+        kind.setdefault(j, []).append(i)
+    out = {}
+    for atom, entering in formed.items():
+        leaving = broken.get(atom, [])
+        if len(entering) != 1 or len(leaving) != 1 or atom in other:
+            continue
+        if mol.GetAtomWithIdx(atom).GetChiralTag() == Chem.ChiralType.CHI_UNSPECIFIED:
+            continue
+        shifted = any(m.source_kind == "bond" and set(m.source_atoms) == {atom, leaving[0]} and atom in m.sink_atoms
+                      for m in replay.resolved)
+        if not shifted:
+            out[atom] = (leaving[0], entering[0])
+    return out
 
 
 def _has_configuration(mol: Chem.Mol) -> bool:

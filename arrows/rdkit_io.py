@@ -176,3 +176,34 @@ def forget_configuration(mol: Chem.RWMol, atoms) -> None:
         for bond in atom.GetBonds():
             if bond.GetStereo() != Chem.BondStereo.STEREONONE:
                 bond.SetStereo(Chem.BondStereo.STEREONONE)
+
+
+_TETRAHEDRAL = (Chem.ChiralType.CHI_TETRAHEDRAL_CW, Chem.ChiralType.CHI_TETRAHEDRAL_CCW)
+
+
+def substitute_configuration(before: Chem.Mol, after: Chem.RWMol, atom: int, leaving: int, entering: int,
+                             invert: bool) -> None:
+    """Carry the written configuration at `atom` across a step in which `entering` took the place
+    of `leaving`, inverted or not. RDKit reads a chiral tag against the order of the atom's
+    bonds, which removing one bond and adding another changes: the tag is flipped once for each
+    odd reordering and once more for an inversion. Cleared when the neighbours do not match."""
+    tag = before.GetAtomWithIdx(atom).GetChiralTag()
+    target = after.GetAtomWithIdx(atom)
+    expected = [entering if n == leaving else n for n in (b.GetOtherAtomIdx(atom) for b in before.GetAtomWithIdx(atom).GetBonds())]
+    found = [b.GetOtherAtomIdx(atom) for b in target.GetBonds()]
+    if tag not in _TETRAHEDRAL or sorted(expected) != sorted(found):
+        target.SetChiralTag(Chem.ChiralType.CHI_UNSPECIFIED)
+        return
+    if _odd_permutation(expected, found) != invert:
+        tag = _TETRAHEDRAL[1] if tag == _TETRAHEDRAL[0] else _TETRAHEDRAL[0]
+    target.SetChiralTag(tag)
+
+
+def _odd_permutation(first: list[int], second: list[int]) -> bool:
+    """Whether `second` is an odd rearrangement of `first` (same distinct items)."""
+    order = [first.index(x) for x in second]
+    odd = False
+    for i in range(len(order)):
+        for j in range(i + 1, len(order)):
+            odd ^= order[i] > order[j]
+    return odd

@@ -12,6 +12,7 @@ from pathlib import Path
 import pytest
 from click.testing import CliRunner
 from rdkit import Chem
+from rdkit.Chem import AllChem
 from rdkit.Chem.EnumerateStereoisomers import EnumerateStereoisomers, StereoEnumerationOptions
 
 from arrows import check_text
@@ -215,21 +216,84 @@ def test_check_does_not_import_the_embedding_code():
     assert out.split() == ["False", "False"]
 
 
-def test_a_step_forgets_only_the_configuration_of_atoms_whose_bonds_change():
-    """Cyanide displaces bromide at C1 of (2S,3S)-3-bromobutan-2-ol. Whether the new C-C bond comes
-    in with inversion (SN2) or not is chemistry the bookkeeping does not follow, so C1 leaves the
-    step unspecified; the carbinol carbon, whose bonds do not change, keeps its configuration.
-    RDKit's stereo perception on the derived state is the judge."""
-    text = ('species substrate = "C[C@H:1]([Br:3])[C@@H:4](C)O"\nspecies cyanide = "[C-:2]#N"\n'
-            'step "displacement"\n    :C2 -> C1\n    C1-Br3 -> Br3\nend\n')
+def _without_maps(mol: Chem.Mol) -> str:
+    work = Chem.Mol(mol)
+    for atom in work.GetAtoms():
+        atom.SetAtomMapNum(0)
+    work = Chem.RemoveHs(work, sanitize=False)
+    Chem.SanitizeMol(work)
+    return Chem.MolToSmiles(work)
+
+
+def _inverted_by_rdkit(smiles: str, template: str) -> set[str]:
+    """RDKit's own reaction machinery as the judge: a template that inverts the centre (@ -> @@)."""
+    out = set()
+    for products in AllChem.ReactionFromSmarts(template).RunReactants((Chem.MolFromSmiles(smiles),)):
+        Chem.SanitizeMol(products[0])
+        out.add(Chem.MolToSmiles(products[0]))
+    return out
+
+
+# Walden inversion (textbook: a concerted SN2 substitution inverts the carbon attacked).
+SN2_CASES = [
+    # (R)-2-bromobutane and hydroxide give (S)-butan-2-ol.
+    ('species substrate = "CC[C@@H:1](C)[Br:2]"\nspecies base = "[OH-:3]"\n'
+     'step "backside"\n    :O3 -> C1\n    C1-Br2 -> Br2\nend\n', "CC[C@@H](C)Br", "[C@:1][Br]>>[C@@:1][OH]"),
+    # Cyanide at C1 of (2S,3S)-3-bromobutan-2-ol; the carbinol carbon, whose bonds do not change,
+    # keeps its configuration.
+    ('species substrate = "C[C@H:1]([Br:3])[C@@H:4](C)O"\nspecies cyanide = "[C-:2]#N"\n'
+     'step "displacement"\n    :C2 -> C1\n    C1-Br3 -> Br3\nend\n', "C[C@H](Br)[C@@H](C)O", "[C@:1][Br]>>[C@@:1]C#N"),
+]
+
+
+@pytest.mark.parametrize("text,substrate,template", SN2_CASES, ids=["hydroxide", "cyanide"])
+def test_a_concerted_substitution_inverts_the_centre(text, substrate, template):
     trace, diags = check_text(text)
     assert [d for d in diags if d.severity == "error"] == []
-    mol = Chem.Mol(trace.final.mol)
-    Chem.SanitizeMol(mol)
-    specified = {info.centeredOn: info.specified == Chem.StereoSpecified.Specified
-                 for info in Chem.FindPotentialStereo(mol) if info.type == Chem.StereoType.Atom_Tetrahedral}
-    by_map = {a.GetAtomMapNum(): a.GetIdx() for a in trace.final.mol.GetAtoms() if a.GetAtomMapNum()}
-    assert specified == {by_map[1]: False, by_map[4]: True}
+    organic = max(Chem.GetMolFrags(trace.final.mol, asMols=True, sanitizeFrags=False), key=lambda m: m.GetNumAtoms())
+    assert {_without_maps(organic)} == _inverted_by_rdkit(substrate, template)
+    assert not [d for d in diags if d.code == "AR602" and "stereoisomers can form" in d.message]
+
+
+def test_the_opening_of_an_epoxide_by_methanol_inverts_the_carbon_attacked():
+    """Acid-catalysed opening of (R)-methyloxirane by methanol at the more substituted carbon, with
+    inversion there (textbook), gives (S)-2-methoxypropan-1-ol; RDKit's CIP labeller judges."""
+    from rdkit.Chem import rdCIPLabeler
+    text = ('species epoxide = "C[C@@H:1]1[CH2:2][O:3]1"\nspecies acid = "[OH3+:4]"\n'
+            'species methanol = "C[OH:5]"\nspecies water = "[OH2:6]"\n'
+            'step "protonation"\n    :O3 -> H(O4)\n    O4-H -> O4\nend\n'
+            'step "opening"\n    :O5 -> C1\n    C1-O3 -> O3\nend\n'
+            'step "deprotonation"\n    :O6 -> H(O5)\n    O5-H -> O5\nend\n')
+    trace, diags = check_text(text)
+    assert [d for d in diags if d.severity == "error"] == []
+    epoxide, product = Chem.MolFromSmiles("C[C@@H]1CO1"), Chem.MolFromSmiles(
+        next(s for s in _without_maps(trace.final.mol).split(".") if "O" in s and "C" in s))
+    labels = []
+    for mol in (epoxide, product):
+        rdCIPLabeler.AssignCIPLabels(mol)
+        labels.append([a.GetProp("_CIPCode") for a in mol.GetAtoms() if a.HasProp("_CIPCode")])
+    assert labels == [["R"], ["S"]]
+
+
+def test_an_sn1_capture_leaves_the_centre_free():
+    """Ionisation, then capture: the planar cation is attacked from either face, so the
+    configuration is lost and two stereoisomers can form (textbook: SN1 racemises)."""
+    text = ('species substrate = "CC[C@@:1](C)(CC(C)C)[Br:2]"\nspecies water = "[OH2:3]"\n'
+            'step "ionisation"\n    C1-Br2 -> Br2\nend\nstep "capture"\n    :O3 -> C1\nend\n')
+    trace, diags = check_text(text)
+    assert [d for d in diags if d.severity == "error"] == []
+    assert any(d.code == "AR602" and "2 stereoisomers can form" in d.message for d in diags)
+
+
+def test_a_stereocentre_the_moves_do_not_touch_keeps_its_configuration_and_the_product_matches():
+    """An SN2 at the end of (R)-4-bromobutan-2-ol's chain: the carbinol carbon keeps its written
+    configuration, and the product line (written with it) is compared as constitution, as every
+    checkpoint is (it once failed with AR402 because the derived side kept its @@)."""
+    text = ('species substrate = "C[C@@H](O)C[CH2:1][Br:2]"\nspecies base = "[OH-:3]"\n'
+            'step "sn2"\n    :O3 -> C1\n    C1-Br2 -> Br2\nend\nproduct "C[C@@H](O)CCO"\n')
+    trace, diags = check_text(text)
+    assert [d.to_text() for d in diags if d.severity == "error"] == []
+    assert "C[C@@H](O)CCO" in _without_maps(trace.final.mol).split(".")
 
 
 # 3-methylpentan-2-one and hydroxide: the C3 enolate forms and takes its proton back, twice. Demo

@@ -79,8 +79,12 @@ def _derived_fragments(state: ElectronState, maps: frozenset[int], views: Option
     the view is the state sanitized with its hydrogen atoms folded into counts, as `_prepared`
     makes it, so only the map numbers are left to clear. A state with a free proton (which the
     view leaves out), a written configuration or a partial view is prepared here."""
-    if views is None or state.configured or any(
-            z == 1 and b == 0 for z, b in zip(state.elements, state.bond_sums)):
+    if state.configured:
+        # Compared as constitution, like the written side (the stereo check reports configuration).
+        mol = Chem.Mol(state.mol)
+        Chem.RemoveStereochemistry(mol)
+        return fragments(mol, maps, elements=state.elements)
+    if views is None or any(z == 1 and b == 0 for z, b in zip(state.elements, state.bond_sums)):
         return fragments(state.mol, maps, elements=state.elements)
     view = views.of(state)
     if not view.complete:

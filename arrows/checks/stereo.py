@@ -57,7 +57,10 @@ def product_stereo(final: Optional[ElectronState], touched: set[int],
         if not mine:
             continue
         position = {old: new for new, old in enumerate(sorted(indices))}
-        uncontrolled = [position[i] for i in touched if i in position]
+        # A touched atom is free to take either configuration unless the replay carried one
+        # through the step (a backside substitution inverts the written one).
+        uncontrolled = [position[i] for i in touched if i in position
+                        and final.mol.GetAtomWithIdx(i).GetChiralTag() == Chem.ChiralType.CHI_UNSPECIFIED]
         piece = fragment(final.mol, indices)
         out.append(ProductStereo(canonical(piece), mine, stereoisomer_count(piece, uncontrolled)))
     return out
