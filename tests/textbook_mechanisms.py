@@ -348,6 +348,40 @@ end
 product "CC(=O)CC(C)(C)O.[OH3+]"
 '''
 
+# SN2 on (R)-2-bromobutane; the bromide stays in the picture. (Its product panel once drew the
+# OH on top of the departed Br-.)
+SN2_INVERSION = '''\
+species substrate = "CC[C@@H:1](C)[Br:2]"
+species base = "[OH-:3]"
+step "backside attack"
+    :O3 -> C1
+    C1-Br2 -> Br2
+end
+product "CC[C@H](C)O.[Br-]"
+'''
+
+# Acid-catalysed opening of (R)-methyloxirane by methanol at the more substituted carbon.
+# (The spectator water once wrote H2O into the hydronium's OH2+.)
+EPOXIDE_OPENING = '''\
+species epoxide = "C[C@@H:1]1[CH2:2][O:3]1"
+species acid = "[OH3+:4]"
+species methanol = "C[OH:5]"
+species water = "[OH2:6]"
+step "protonation"
+    :O3 -> H(O4)
+    O4-H -> O4
+end
+step "opening at the more substituted carbon"
+    :O5 -> C1
+    C1-O3 -> O3
+end
+step "deprotonation"
+    :O6 -> H(O5)
+    O5-H -> O5
+end
+product "COC(C)CO.[OH3+]"
+'''
+
 TEXTBOOK = {
     "wittig": (WITTIG, "C=C(C)C.O=P(c1ccccc1)(c1ccccc1)c1ccccc1", True),
     "bromination": (BROMINATION, "BrC1CCCCC1Br", True),
@@ -370,4 +404,6 @@ TEXTBOOK = {
     "acid hydration": (ACID_HYDRATION, "CC(C)(C)O.[OH3+]", True),
     "hydride addition": (HYDRIDE_ADDITION, "CCC[O-].[AlH3]", True),
     "acid aldol": (ACID_ALDOL, "CC(=O)CC(C)(C)O.[OH3+]", True),
+    "sn2 inversion": (SN2_INVERSION, "CC[C@H](C)O.[Br-]", True),
+    "epoxide opening": (EPOXIDE_OPENING, "CO[C@@H](C)CO.[OH3+]", True),   # (S): inversion at C1
 }

@@ -1315,23 +1315,26 @@ class _LayoutBuilder:
         """Where a cluster stays after it has acted: where it was, or, when the step before the
         segment split its bond evenly (a homolysis: it now carries the unpaired electron) or
         left a letter on both ends (CH3+ beside HO-, whose labels would run together), a little
-        further out along that bond, so the two pieces read as apart. Otherwise a fragment
-        that leaves with the pair stays: it is soon left out of the panels anyway."""
+        further out along that bond, so the two pieces read as apart. A fragment that leaves
+        with the pair stays where it was unless something has taken its place (the nucleophile
+        of an SN2 drawn where the leaving group was): then it goes further out along its bond."""
         if previous is None or previous[2] is None or segment[0] == 0:
             return previous
         atoms = set(self.clusters[index].atoms)
         k = segment[0]
         mol = self.states[k].mol
         split = [(i, j) for i, j in self.bonds_in[k - 1] - self.bonds_in[k] if (i in atoms) != (j in atoms)]
-        if not any(mol.GetAtomWithIdx(i if i in atoms else j).GetNumRadicalElectrons()
-                   or (self._lettered(i, mol) and self._lettered(j, mol)) for i, j in split):
-            return previous
+        apart = any(mol.GetAtomWithIdx(i if i in atoms else j).GetNumRadicalElectrons()
+                    or (self._lettered(i, mol) and self._lettered(j, mol)) for i, j in split)
         rotation, shift, direction, pull_back = previous
         cluster = self.clusters[index]
         local = np.array([rotation * cluster.local_at(segment[0])[a] for a in cluster.atoms], dtype=complex)
         others = np.array([p for kk in range(segment[0], segment[1] + 1) for a, p in self.positions[kk].items()
                            if a not in atoms], dtype=complex)
-        for extra in (0.7, 0.5, 0.3):
+        if not apart:
+            if not split or not len(others) or np.abs(shift + local[:, None] - others[None, :]).min() >= _CLEARANCE:
+                return previous
+        for extra in ((0.7, 0.5, 0.3) if apart else (1.0, 1.5, 2.0)):
             moved = shift + direction * extra
             if not len(others) or np.abs(moved + local[:, None] - others[None, :]).min() >= _CLEARANCE:
                 return (rotation, moved, direction, pull_back)

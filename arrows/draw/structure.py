@@ -269,8 +269,10 @@ class StructureDrawer:
             # Other atoms within reach, each with the room (across, up) its own label may take: a
             # carbon, mostly a bare skeletal vertex or line end, little; a letter more.
             bl = self.style.bond_length
+            # A letter further off still counts: its own hydrogens may be written towards this one.
             crowd = [(q - p, *((0.3 * bl, 0.2 * bl) if element[j] == 6 else (0.55 * bl, 0.3 * bl)))
-                     for j, q in positions.items() if j != i and 1e-9 < abs(q - p) < 1.25 * bl and j not in neighbours]
+                     for j, q in positions.items() if j != i and j not in neighbours
+                     and 1e-9 < abs(q - p) < (1.25 if element[j] == 6 else 1.75) * bl]
             # The other bonds within reach, which the text must not sit on either.
             near = [j for j, q in positions.items() if j != i and abs(q - p) < 1.6 * bl]
             walls = [(positions[a] - p, positions[b] - p) for a in near for b in adjacent[a]
