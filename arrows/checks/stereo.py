@@ -41,9 +41,10 @@ def final_stereo(trace: Trace) -> list[ProductStereo]:
     return product_stereo(trace.final, touched)
 
 
-def product_stereo(final: Optional[ElectronState], touched: set[int],
-                   views: Optional[RecentViews] = None) -> list[ProductStereo]:
-    """final_stereo for a final state and the atoms the mechanism's moves touched."""
+def product_stereo(final: Optional[ElectronState], touched: set[int], views: Optional[RecentViews] = None,
+                   several_only: bool = False) -> list[ProductStereo]:
+    """final_stereo for a final state and the atoms the mechanism's moves touched; `several_only`
+    keeps only the fragments with more than one stereoisomer (no SMILES is written for the others)."""
     if final is None:
         return []
     elements = stereo_elements(final.mol, (views or RecentViews()).of(final))
@@ -59,7 +60,10 @@ def product_stereo(final: Optional[ElectronState], touched: set[int],
         position = {old: new for new, old in enumerate(sorted(indices))}
         uncontrolled = [position[i] for i in touched if i in position]
         piece = fragment(final.mol, indices)
-        out.append(ProductStereo(canonical(piece), mine, stereoisomer_count(piece, uncontrolled)))
+        count = stereoisomer_count(piece, uncontrolled)
+        if several_only and (count or 0) <= 1:
+            continue
+        out.append(ProductStereo(canonical(piece), mine, count))
     return out
 
 
@@ -100,7 +104,7 @@ class StereoChanges(Check):
     def finish(self, end: Ending, context) -> Iterator[Diagnostic]:
         if not end.steps_replayed:
             return   # no step: the mechanism makes nothing to count
-        many = [p for p in product_stereo(end.final, self.touched, context.views) if (p.stereoisomers or 0) > 1]
+        many = product_stereo(end.final, self.touched, context.views, several_only=True)
         if not many:
             return
         mechanism = end.mechanism
