@@ -132,10 +132,8 @@ def _lost_by_resonance(mol: Chem.Mol, centres: list[int]) -> set[int]:
     def unsaturated(atom) -> bool:
         return (atom.GetFormalCharge() != 0 or atom.GetNumRadicalElectrons() > 0 or atom.GetIsAromatic()
                 or any(b.GetBondTypeAsDouble() > 1 for b in atom.GetBonds()))
-    if not _may_delocalize(mol):   # the cheaper test first
-        return set()
     tested = [c for c in centres if sum(unsaturated(n) for n in mol.GetAtomWithIdx(c).GetNeighbors()) >= 2]
-    if not tested:
+    if not tested or not _may_delocalize(mol):
         return set()
     lost: set[int] = set()
     try:
