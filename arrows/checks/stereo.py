@@ -92,7 +92,8 @@ class StereoChanges(Check):
         made, lost = step_stereo(st, context.views)
         if not made and not lost:
             return
-        label = st.after.label
+        names = {i: st.after.label(i) for e in made + lost for i in e.atoms}   # each written once
+        label = names.__getitem__
         parts = []
         if made:
             parts.append(f"new {_said(made, label)}")
