@@ -295,18 +295,18 @@ class _StepReplay:
                       atoms=(str(ref.parent),))
             raise _StepFailed
         # Unmapped hydrogens are interchangeable; mapped ones are kept for the author who named them.
-        hydrogens.sort(key=lambda a: (a.GetAtomMapNum() != 0, a.GetIdx()))
-        chosen = hydrogens[0].GetIdx()
+        chosen = min((a.GetAtomMapNum() != 0, a.GetIdx()) for a in hydrogens)[1]
         self._hydrogen_choice[parent] = chosen
         return chosen
 
     # electrons
     def bond_before(self, i: int, j: int) -> int:
         """Electrons in bond i-j before the step (RDKit bond look-ups are the costly part of a step)."""
-        key = pair(i, j)
-        if key not in self._bond_before:
-            self._bond_before[key] = self.state.bond_electrons(i, j)
-        return self._bond_before[key]
+        key = (i, j) if i < j else (j, i)
+        known = self._bond_before.get(key)
+        if known is None:
+            known = self._bond_before[key] = self.state.bond_electrons(i, j)
+        return known
 
     def nonbonding(self, i: int) -> int:
         return self.state.nonbonding[i]
@@ -550,7 +550,7 @@ def _settle(state: ElectronState, step: Step, step_index: int, replay: _StepRepl
                                     "`resonance` from the step", bonds=((state.label(key[0]), state.label(key[1])),),
                                     step=step_index))
     for key, written, loc, text in replay.written_sinks:
-        actual = new_bonds.get(key, replay.bond_before(*key)) // 2
+        actual = (new_bonds[key] if key in new_bonds else replay.bond_before(*key)) // 2
         if actual != written and not any(d.code in ("AR303", "AR302") for d in diags):
             diags.append(Diagnostic("AR208", f"{text} says the bond will be {order_word(written)}; "
                                     f"after this step it is {order_word(actual)}", loc,

@@ -110,9 +110,10 @@ def species_mol(species: Species, explicit_h_on: set[int]) -> tuple[Optional[Che
         if hydrogens and atom.GetAtomMapNum() in explicit_h_on:
             targets.append(index)
     if targets:
+        count = len(atoms)
         mol = Chem.AddHs(mol, onlyOnAtoms=targets)
-        for atom in atom_list(mol):
-            atom.SetNoImplicit(True)
+        for index in range(count, mol.GetNumAtoms()):   # the new hydrogens (the others keep theirs)
+            mol.GetAtomWithIdx(index).SetNoImplicit(True)
     return mol, None
 
 
@@ -125,8 +126,14 @@ def _map_location(species: Species, number: int, occurrence: int) -> Location:
     return Location(loc.file, loc.line, loc.column + starts[occurrence - 1])
 
 
-def _map_numbers(mol: Chem.Mol) -> list[int]:
-    return [a.GetAtomMapNum() for a in atom_list(mol) if a.GetAtomMapNum()]
+def _mapped_atoms(mol: Chem.Mol) -> list[tuple[int, int]]:
+    """(index, map number) of every mapped atom of `mol`."""
+    found = []
+    for index, atom in enumerate(atom_list(mol)):
+        number = atom.GetAtomMapNum()
+        if number:
+            found.append((index, number))
+    return found
 
 
 def _fragment_of(mol: Chem.Mol, index: int) -> set[int]:
@@ -148,6 +155,7 @@ class Replay:
         self.initial: Optional[ElectronState] = None
         self.final: Optional[ElectronState] = None     # set once every step is derived
         self.steps_replayed = 0
+        self._mapped: dict[int, list[tuple[int, int]]] = {}   # per species position: (index, map number)
         self._loaded, self._entered_later = self._load()
         if self.diagnostics:
             return
@@ -179,7 +187,8 @@ class Replay:
                 diags.append(problem)
                 continue
             in_this_species: dict[int, int] = {}
-            for number in _map_numbers(mol):
+            self._mapped[position] = mapped = _mapped_atoms(mol)
+            for _, number in mapped:
                 in_this_species[number] = in_this_species.get(number, 0) + 1
                 if number in seen_maps:
                     diags.append(Diagnostic("AR103", f"map number {number} is already used (line {seen_maps[number].line})",
@@ -196,7 +205,10 @@ class Replay:
             return
         mechanism, diags, loaded, entered_later = self.mechanism, self.diagnostics, self._loaded, self._entered_later
         state = self.initial
-        map_index = {a.GetAtomMapNum(): a.GetIdx() for a in atom_list(state.mol) if a.GetAtomMapNum()}
+        map_index, offset = {}, 0
+        for position in range(len(mechanism.species)):
+            map_index.update((number, offset + atom_index) for atom_index, number in self._mapped[position])
+            offset += len(loaded[position].nonbonding)
         position = len(mechanism.species)
         # One quiet block for the whole replay: RDKit logs a rejected state, whose message we report.
         with rdkit_messages():
@@ -209,10 +221,9 @@ class Replay:
                     position += 1
                     state = state.appended(species, Chem.CombineMols(state.mol, incoming))
                     entered.extend(range(offset, offset + incoming.GetNumAtoms()))
-                    for atom in atom_list(incoming):
-                        if atom.GetAtomMapNum():
-                            map_index[atom.GetAtomMapNum()] = offset + atom.GetIdx()
-                            entered_later.pop(atom.GetAtomMapNum(), None)
+                    for atom_index, number in self._mapped[position - 1]:
+                        map_index[number] = offset + atom_index
+                        entered_later.pop(number, None)
                 after, change, step_diags = apply_step(state, step, index, map_index, entered_later)
                 diags.extend(step_diags)
                 released_now: list[int] = []

@@ -4,7 +4,6 @@ by bond, aligning the written structure with the closest derived fragment."""
 from __future__ import annotations
 
 from collections import Counter
-from dataclasses import dataclass
 from typing import Iterator, Optional
 
 from rdkit import Chem
@@ -20,10 +19,22 @@ from . import Check, Ending
 _ORIGIN = "arrows_origin"   # atom property: index of the atom in the state Mol
 
 
-@dataclass
 class Fragment:
-    mol: Chem.Mol          # heavy atoms, hydrogens as counts, aromaticity perceived, maps removed
-    smiles: str
+    """One connected piece: heavy atoms, hydrogens as counts, aromaticity perceived, maps removed.
+    Its canonical SMILES is written when first asked for: a derived piece of another size than
+    every written one is never compared."""
+
+    __slots__ = ("mol", "_smiles")
+
+    def __init__(self, mol: Chem.Mol, smiles: Optional[str] = None):
+        self.mol = mol
+        self._smiles = smiles
+
+    @property
+    def smiles(self) -> str:
+        if self._smiles is None:
+            self._smiles = Chem.MolToSmiles(self.mol)
+        return self._smiles
 
 
 _REMOVE_HS = Chem.RemoveHsParameters()
@@ -96,8 +107,7 @@ def _derived_fragments(state: ElectronState, maps: frozenset[int], views: Option
         number = atom.GetAtomMapNum()
         if number and number not in maps:
             atom.SetAtomMapNum(0)
-    return [Fragment(frag, Chem.MolToSmiles(frag))
-            for frag in Chem.GetMolFrags(work, asMols=True, sanitizeFrags=False)]
+    return [Fragment(frag) for frag in Chem.GetMolFrags(work, asMols=True, sanitizeFrags=False)]
 
 
 def compare(state: ElectronState, checkpoint: Checkpoint, code: str, step: Optional[int],
@@ -109,14 +119,16 @@ def compare(state: ElectronState, checkpoint: Checkpoint, code: str, step: Optio
         return [Diagnostic("AR102", f"RDKit cannot read the checkpoint SMILES: {reason}", checkpoint.loc,
                            hint="check brackets, ring-closure digits and charges", step=step)]
     derived = _derived_fragments(state, maps, views)
-    pool = Counter(f.smiles for f in derived)
+    # Equal canonical SMILES means an equal number of atoms: only pieces of a written size are
+    # written out and compared; the others are left over as they are.
+    sizes = {f.mol.GetNumAtoms() for f in written}
+    pool = Counter(f.smiles for f in derived if f.mol.GetNumAtoms() in sizes)
     missing = []
     for frag in written:
         if pool[frag.smiles] > 0:
             pool[frag.smiles] -= 1
         else:
             missing.append(frag)
-    leftovers = [f for f in derived if pool[f.smiles] > 0 and not pool.subtract({f.smiles: 1})]
     what = "product" if code == "AR402" else "checkpoint"
     diags = []
     if missing:   # the same fragments, now with each atom's index in the state, to name atoms
@@ -131,7 +143,9 @@ def compare(state: ElectronState, checkpoint: Checkpoint, code: str, step: Optio
         else:
             message += f" (derived: {'.'.join(f.smiles for f in derived)})"
         diags.append(Diagnostic(code, message, checkpoint.loc, hint=hint or "compare with `arrows trace`", step=step))
-    if checkpoint.whole_state and not missing and leftovers:
+    leftovers = [] if missing or not checkpoint.whole_state else [
+        f for f in derived if f.mol.GetNumAtoms() not in sizes or (pool[f.smiles] > 0 and not pool.subtract({f.smiles: 1}))]
+    if leftovers:
         extra = ".".join(f.smiles for f in leftovers)
         diags.append(Diagnostic(code, f"`all` was asked, but the state also holds {extra}", checkpoint.loc,
                                 hint="write every fragment, or drop `all`", step=step))

@@ -108,6 +108,8 @@ def _next_to_cation(state, atom: int) -> bool:
     resonance form: the carbon of C=O+ (a protonated carbonyl) or C=N+ (an iminium), whose
     alpha C-H is far more acidic than the neutral carbonyl's (acid-catalysed enolisation,
     enamine formation; common practice)."""
+    if not any(v - n - b > 0 for v, n, b in zip(state.valence, state.nonbonding, state.bond_sums)):
+        return False   # no cation anywhere (most states): the neighbours need not be read off the Mol
     for n in state.mol.GetAtomWithIdx(atom).GetNeighbors():
         i = n.GetIdx()
         if state.formal_charge(i) > 0 and state.nonbonding[i] == 0:

@@ -41,9 +41,10 @@ def final_stereo(trace: Trace) -> list[ProductStereo]:
     return product_stereo(trace.final, touched)
 
 
-def product_stereo(final: Optional[ElectronState], touched: set[int],
-                   views: Optional[RecentViews] = None) -> list[ProductStereo]:
-    """final_stereo for a final state and the atoms the mechanism's moves touched."""
+def product_stereo(final: Optional[ElectronState], touched: set[int], views: Optional[RecentViews] = None,
+                   several_only: bool = False) -> list[ProductStereo]:
+    """final_stereo for a final state and the atoms the mechanism's moves touched; `several_only`
+    keeps only the fragments with more than one stereoisomer (no SMILES is written for the others)."""
     if final is None:
         return []
     elements = stereo_elements(final.mol, (views or RecentViews()).of(final))
@@ -62,7 +63,10 @@ def product_stereo(final: Optional[ElectronState], touched: set[int],
         uncontrolled = [position[i] for i in touched if i in position
                         and final.mol.GetAtomWithIdx(i).GetChiralTag() == Chem.ChiralType.CHI_UNSPECIFIED]
         piece = fragment(final.mol, indices)
-        out.append(ProductStereo(canonical(piece), mine, stereoisomer_count(piece, uncontrolled)))
+        count = stereoisomer_count(piece, uncontrolled)
+        if several_only and (count or 0) <= 1:
+            continue
+        out.append(ProductStereo(canonical(piece), mine, count))
     return out
 
 
@@ -91,7 +95,8 @@ class StereoChanges(Check):
         made, lost = step_stereo(st, context.views)
         if not made and not lost:
             return
-        label = st.after.label
+        names = {i: st.after.label(i) for e in made + lost for i in e.atoms}   # each written once
+        label = names.__getitem__
         parts = []
         if made:
             parts.append(f"new {_said(made, label)}")
@@ -103,7 +108,7 @@ class StereoChanges(Check):
     def finish(self, end: Ending, context) -> Iterator[Diagnostic]:
         if not end.steps_replayed:
             return   # no step: the mechanism makes nothing to count
-        many = [p for p in product_stereo(end.final, self.touched, context.views) if (p.stereoisomers or 0) > 1]
+        many = product_stereo(end.final, self.touched, context.views, several_only=True)
         if not many:
             return
         mechanism = end.mechanism
