@@ -588,9 +588,9 @@ class ArrowPlanner:
         if hooks.any():
             cost += np.where(hooks[owner], _SHORT_HOOK * np.maximum(0.0, _HOOK_LENGTH - lengths / bl), 0.0)
         # A pair leaving a bond: one clean arc, never a loop.
-        from_bond = np.array([src.kind == "bond" for src in sources])
-        if from_bond.any():
-            cost += np.where(from_bond[owner], self._curl(pts), 0.0)
+        from_bond = np.flatnonzero(np.array([src.kind == "bond" for src in sources])[owner])
+        if len(from_bond):
+            cost[from_bond] += self._curl(pts[from_bond])   # row by row: only those rows are looked at
         cost += _CROOK * _in_crook(pts[:, _SAMPLES // 2], sources, sinks, owner, [obs[k] for k in panel_of])
         # A 1,2-shift is a clear arc round the outside, away from the atom the group leaves:
         # bulging toward that atom it lies on the bond to the cationic centre, and a flat one

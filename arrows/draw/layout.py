@@ -51,6 +51,9 @@ _CLEARANCE = 1.2     # nearest approach allowed between atoms of separately plac
 _HYDROGEN_ROOM = 0.85   # nearest approach of any other atom to a travelling hydrogen
 _WAITING_CLEARANCE = 1.5   # a molecule waiting its turn keeps further clear of the arrows at work
 _COMPASS = np.exp(1j * np.arange(36) * np.pi / 18)     # directions tried, every 10 degrees
+# Directions a travelling hydrogen may turn to, every 15 degrees.
+_HYDROGEN_COMPASS = tuple(cmath.rect(1.0, step * math.pi / 12) for step in range(24))
+_HYDROGEN_COMPASS_ARRAY = np.array(_HYDROGEN_COMPASS)
 _SEVENTY = math.radians(70)
 # Ways to place a cluster next to its partner, in order of preference: (penalty, turn of the
 # approach line in 20-degree steps, spin of the cluster in 30-degree steps, extra distance). A
@@ -264,6 +267,18 @@ def _option_columns(options: list[tuple]) -> tuple[np.ndarray, np.ndarray, np.nd
     return _COLUMNS[id(options)][1]
 
 
+_DISTINCT: dict[tuple[int, int, int], tuple[np.ndarray, np.ndarray]] = {}
+
+
+def _distinct_turns(options: list[tuple], first: int, last: int) -> tuple[np.ndarray, np.ndarray]:
+    """The distinct turns of options first..last-1 and which of them each option takes (the same
+    few ranges of the module's option lists are asked for again and again)."""
+    key = (id(options), first, last)
+    if key not in _DISTINCT:
+        _DISTINCT[key] = np.unique(_option_columns(options)[0][first:last], return_inverse=True)
+    return _DISTINCT[key]
+
+
 class _Placements:
     """The ways of placing a cluster next to its anchor, in the order they are tried: for each,
     the direction from the anchor, the cluster's rotation, the target of the atom that bonds,
@@ -330,7 +345,7 @@ class _Placements:
             moved = target_array[:, None] + self.local[None, :] * rotation_array[:, None]
             return directions, rotations, target_array, moved
         turns, spins, extras = _option_columns(self.options)
-        distinct, which = np.unique(turns[first:last], return_inverse=True)
+        distinct, which = _distinct_turns(self.options, first, last)
         for turn in distinct.tolist():
             if turn not in self.turned:
                 direction = self.u * _rotor(turn, 9)
@@ -1022,19 +1037,26 @@ class _LayoutBuilder:
             # the three stand in a line instead of a crooked stack.
             prefer = -complex(taken[0])
         spots = centre + _COMPASS * reach
+        # numpy's ufuncs called directly (arctan2 is np.angle, minimum.reduce is .min): these
+        # arrays hold a few dozen numbers, and the wrappers cost more than the arithmetic.
         score = np.full(len(_COMPASS), 1.0)
         if len(taken):
-            angle = np.abs(np.angle(_COMPASS[:, None] / taken[None, :])).min(axis=1)
+            turns = _COMPASS[:, None] / taken[None, :]
+            angle = np.minimum.reduce(np.abs(np.arctan2(turns.imag, turns.real)), axis=1)
             score = np.minimum(angle, _SEVENTY) / _SEVENTY
-        score = score + 0.6 * (np.minimum(np.abs(spots[:, None] - near[None, :]).min(axis=1), 1.2)
+        score = score + 0.6 * (np.minimum(np.minimum.reduce(np.abs(spots[:, None] - near[None, :]), axis=1), 1.2)
                                if len(near) else 1.2)
         if prefer is not None:
             score = score + 0.15 * (_COMPASS * np.conj(_unit(prefer))).real
         ideal = self._zigzag(atom, k)
         if ideal is not None:
-            score = score + 0.3 * np.clip((_COMPASS * np.conj(ideal)).real, 0.0, None)
+            score = score + 0.3 * np.maximum((_COMPASS * np.conj(ideal)).real, 0.0)
         polygons = [[self.positions[k][a] for a in ring] for ring in self._closed_rings(k)]
-        # Best first; the first direction that does not point into a closed ring wins.
+        # Best first; the first direction that does not point into a closed ring wins (the
+        # best is the first highest score, as the stable sort below puts first).
+        best = int(np.argmax(score))
+        if not any(_inside(complex(spots[best]), poly) for poly in polygons):
+            return complex(_COMPASS[best])
         for index in np.argsort(-score, kind="stable"):
             if not any(_inside(complex(spots[index]), poly) for poly in polygons):
                 return complex(_COMPASS[index])
@@ -1223,13 +1245,15 @@ class _LayoutBuilder:
         start, size = 0, 8
         while start < len(order):
             batch = order[start:start + size]
-            gaps = wider.gaps(moved_all[batch], targets[batch], [directions[o] for o in batch.tolist()])
-            for option, gap in zip(batch.tolist(), gaps):
-                one = slice(option, option + 1)
+            options = batch.tolist()
+            gaps = wider.gaps(moved_all[batch], targets[batch], [directions[o] for o in options])
+            # Only the spots clear of every atom are asked whether their arrow crosses a bond: all at once.
+            clear = [o for o, gap in zip(options, gaps) if gap >= _CLEARANCE]
+            blocked = dict(zip(clear, wider.blocked(targets[clear], [directions[o] for o in clear]))) if clear else {}
+            for option in clear:
                 moved, direction, rotation = moved_all[option], directions[option], rotations[option]
                 target = complex(targets[option])   # Python's complex arithmetic from here, as for every placement
-                if (gap >= _CLEARANCE and not wider.blocked(targets[one], directions[one])[0]
-                        and not any(_inside(complex(p), poly) for p in moved for poly in polygons)):
+                if not blocked[option] and not any(_inside(complex(p), poly) for p in moved for poly in polygons):
                     return ((_CLEARANCE, True), rotation, target - placements.mover_at * rotation, direction)
             start, size = start + size, 2 * size
         return None
@@ -1460,18 +1484,20 @@ class _LayoutBuilder:
         # Clear of every atom and bond first, then of bonds at least; among those, room and a comfortable hop.
         best, best_score = r.direction, (room(r.direction) >= _HYDROGEN_ROOM and not crossed_now, not crossed_now,
                                          min(room(r.direction), 1.2) + 0.1 - miss(r.direction))
-        compass = [cmath.rect(1.0, step * math.pi / 12) for step in range(24)]
-        rooms = (np.abs(relative - np.array(compass)[:, None]).min(axis=1).tolist() if len(relative)
+        compass = _HYDROGEN_COMPASS
+        rooms = (np.abs(relative - _HYDROGEN_COMPASS_ARRAY[:, None]).min(axis=1).tolist() if len(relative)
                  else [math.inf] * len(compass))
         for d, space, crossed in zip(compass, rooms, crossing(compass)):
+            score = (space >= _HYDROGEN_ROOM and not crossed, not crossed,
+                     min(space, 1.2) + 0.1 * (d / r.direction).real - miss(d))
+            if not (score[:2] > best_score[:2] or (score[:2] == best_score[:2] and score[2] > best_score[2] + 0.05)):
+                continue
+            # Only a direction that would win is asked whether it is allowed at all.
             if any(abs(cmath.phase(d / b)) < math.radians(35) for b in bonds):
                 continue
             if any(_inside(self.positions[panels[0]][r.holder] + d, poly) for poly in polygons):
                 continue
-            score = (space >= _HYDROGEN_ROOM and not crossed, not crossed,
-                     min(space, 1.2) + 0.1 * (d / r.direction).real - miss(d))
-            if score[:2] > best_score[:2] or (score[:2] == best_score[:2] and score[2] > best_score[2] + 0.05):
-                best, best_score = d, score
+            best, best_score = d, score
         r.direction = best
         for k in stay:
             self.positions[k][r.hydrogen] = self.positions[k][r.holder] + best

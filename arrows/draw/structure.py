@@ -209,8 +209,11 @@ class StructureDrawer:
             out.bond_directions[i] = list(out.occupied[i])
         # Where each atom is about to bond: its hydrogens and charge sign keep out of that gap,
         # where the arrow of the step goes.
-        ahead = {i: [_unit_or_zero(positions[j] - positions[i]) for pair in forming if i in pair
-                     for j in pair if j != i and j in positions] for i in visible}
+        ahead: dict[int, list[complex]] = {i: [] for i in visible}
+        for pair in forming:
+            for i in pair:
+                if i in ahead:
+                    ahead[i] += [_unit_or_zero(positions[j] - positions[i]) for j in pair if j != i and j in positions]
         for i in visible:
             out.atoms[i] = self._atom(state, atoms, adjacent, i, positions, neighbours[i], drawn_hydrogens, out,
                                       ahead[i])
