@@ -674,6 +674,17 @@ class ArrowPlanner:
         n = len(options)
         if n == 0:
             return []
+        # One or two arrows (most panels) in plain Python, without numpy's cost per call: the same
+        # sums in the same order, and of equal totals the first in np.argmin's order.
+        if n == 1:
+            costs = [c.cost for c in options[0]]
+            return [options[0][costs.index(min(costs))]]
+        if n == 2:
+            matrix = pairs[(0, 1)].tolist()
+            totals = [(0.0 + a.cost + b.cost + matrix[i][j], a, b) for i, a in enumerate(options[0])
+                      for j, b in enumerate(options[1])]
+            least = min(total for total, _, _ in totals)
+            return list(next((a, b) for total, a, b in totals if total == least))
         single = [np.array([c.cost for c in o]) for o in options]
         if n <= 4:
             total = np.zeros([len(o) for o in options])
@@ -832,11 +843,14 @@ def _parameters_at_distances(controls: np.ndarray, distances: np.ndarray) -> lis
     # The curve less its end point as a cubic in t, evaluated by Horner's rule: half the numpy
     # calls of the Bernstein form, and numpy's cost here is per call.
     a, b, c, d = p3 - p0 + 3 * (p1 - p2), 3 * (p0 - 2 * p1 + p2), 3 * (p1 - p0), p0 - p3
-    lo, hi = np.zeros(len(controls)), np.ones(len(controls))
+    # Each bracket [lo, lo + step] halves: its middle is lo + step / 2, exactly (sums of powers of
+    # two), so only its lower end is kept.
+    lo, step = np.zeros(len(controls)), 1.0
     for _ in range(16):
-        t = (lo + hi) / 2
+        step /= 2
+        t = lo + step
         far = np.abs(((a * t + b) * t + c) * t + d) > distances
-        lo, hi = np.where(far, t, lo), np.where(far, hi, t)
+        lo = np.where(far, t, lo)
     return lo.tolist()
 
 

@@ -318,6 +318,15 @@ class _Placements:
                              moved, directions, rotations, targets.tolist())
         return self.done[index]
 
+    def __iter__(self) -> Iterator[tuple[float, bool, np.ndarray, complex, complex, complex]]:
+        """Every option in order, as `at` gives them, a batch at a time."""
+        index = 0
+        while index < len(self.options):
+            self.at(index)
+            batch = self.done[index:]
+            yield from batch
+            index += len(batch)
+
     def blocked(self, targets: np.ndarray, directions: list[complex]) -> list[bool]:
         """Whether the proton-transfer arrow of each placement, from the base's atom to the
         hydrogen it takes, would cross one of the walls."""
@@ -1140,8 +1149,7 @@ class _LayoutBuilder:
         if partners:
             best = self._nearest_to_partners(cluster, mover, placements, polygons, partners)
         # In order of preference; the first that keeps its distance from everything wins.
-        for option in range(len(options) if best is None else 0):
-            gap, blocked, moved, direction, rotation, target = placements.at(option)
+        for gap, blocked, moved, direction, rotation, target in (placements if best is None else ()):
             if best is not None and (min(gap, _CLEARANCE), not blocked) <= best[0]:
                 continue
             if any(_inside(complex(p), poly) for p in moved for poly in polygons):
@@ -1175,11 +1183,11 @@ class _LayoutBuilder:
         # Travelling hydrogens are placed last: the spots promised to them are kept clear here.
         promised = np.array(self._promised_spots(hydrogen, set(cluster.atoms), range(segment[0], segment[1] + 1)),
                             dtype=complex)
-        for option in range(len(_ROUND_OPTIONS)):
-            gap, blocked, moved, direction, rotation, target = round_about.at(option)
+        for gap, blocked, moved, direction, rotation, target in round_about:
+            if gap < _CLEARANCE or blocked:
+                continue
             hop = target - direction if placements.carries_hydrogen else placements.anchor_at + direction
-            if (gap >= _CLEARANCE and not blocked
-                    and not (len(promised) and np.abs(hop - promised).min() < _HYDROGEN_ROOM)
+            if (not (len(promised) and np.abs(hop - promised).min() < _HYDROGEN_ROOM)
                     and not any(_inside(complex(p), poly) for p in moved for poly in polygons)):
                 return (_CLEARANCE, True), rotation, target - placements.mover_at * rotation, direction
         return None

@@ -247,9 +247,10 @@ class StructureDrawer:
         p = positions[i]
         symbol = atom.GetSymbol()
         number = atom.GetAtomMapNum()
-        # A mapped atom is named by symbol and number (as ElectronState.label names it) without
-        # asking RDKit for the atom again; the rest are named by the state.
-        name = f"{symbol}{number}" if number else state.label(i)
+        # A mapped atom, or an unmapped one other than a hydrogen, is named as ElectronState.label
+        # names it (symbol and number, or symbol and position) without asking RDKit for the atom
+        # again; a hydrogen, named after the atom that holds it, by the state.
+        name = f"{symbol}{number}" if number else f"{symbol}(atom {i + 1})" if element[i] != 1 else state.label(i)
         point = (p.real, p.imag)
         # Skeletal carbons are vertices, charged and radical ones too (the sign or dot sits
         # beside the vertex); only a bare terminal carbon with electrons of its own and no
