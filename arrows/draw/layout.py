@@ -311,9 +311,11 @@ class _Placements:
         rotation and target."""
         while index >= len(self.done):
             # Each batch at least as large as all before it: a search that goes past the first
-            # few spots usually goes through most of them.
+            # few spots usually goes through most of them, so the second takes all the spots
+            # up to _FEW_OPTIONS at once (a bond placement past its first batch takes all 42).
             first = len(self.done)
-            directions, rotations, targets, moved = self.spots(first, first + max(self.batch, first))
+            size = _FEW_OPTIONS - first if first == self.batch < _FEW_OPTIONS else max(self.batch, first)
+            directions, rotations, targets, moved = self.spots(first, first + size)
             self.done += zip(self.gaps(moved, targets, directions), self.blocked(targets, directions),
                              moved, directions, rotations, targets.tolist())
         return self.done[index]
