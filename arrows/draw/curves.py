@@ -21,7 +21,7 @@ import cmath
 import math
 from dataclasses import dataclass, replace
 from functools import lru_cache
-from itertools import accumulate, chain, repeat
+from itertools import chain, repeat
 from typing import Iterator, Optional
 
 import numpy as np
@@ -622,50 +622,48 @@ class ArrowPlanner:
                     ) -> list[dict[tuple[int, int], np.ndarray]]:
         """For each panel (the kept candidates of each of its arrows): the penalty of drawing
         candidate a of arrow i with candidate b of arrow j (i < j), for every such pair: heads
-        too close, shafts alongside, shafts crossing. One batch holds every panel's candidates of
-        every arrow but the last (rows) against those of every arrow but the first (columns),
-        padded to the largest panel's (numpy's cost here is per call, not per pair; the padding's
-        penalties are never read); the blocks for i < j are kept."""
+        too close, shafts alongside, shafts crossing. Every such pair of every panel is scored in
+        one batch (numpy's cost here is per call), and only those: padding every panel to the
+        largest panel's arrows would score many pairs no choice reads."""
         out: list[dict[tuple[int, int], np.ndarray]] = [{} for _ in panels]
-        several = [k for k, options in enumerate(panels) if len(options) > 1]
-        if not several:
+        first, second, blocks = [], [], []
+        for k, options in enumerate(panels):
+            for i in range(len(options) - 1):
+                for j in range(i + 1, len(options)):
+                    first += [a.row for a in options[i] for _ in options[j]]
+                    second += [b.row for _ in options[i] for b in options[j]]
+                    blocks.append((k, i, j, len(options[i]), len(options[j])))
+        if not blocks:
             return out
-        cost = self._pair_block(
-            _curve_features([[c for o in panels[k][:-1] for c in o] for k in several], controls, samples),
-            _curve_features([[c for o in panels[k][1:] for c in o] for k in several], controls, samples))
-        for k, block in zip(several, cost):
-            sizes = [len(o) for o in panels[k]]
-            ends = list(accumulate(sizes))
-            out[k] = {(i, j): block[ends[i] - sizes[i]:ends[i], ends[j] - sizes[j] - sizes[0]:ends[j] - sizes[0]]
-                      for i in range(len(sizes) - 1) for j in range(i + 1, len(sizes))}
+        cost = self._pair_block(_curve_features(first, controls, samples), _curve_features(second, controls, samples))
+        start = 0
+        for k, i, j, rows, columns in blocks:
+            out[k][(i, j)] = cost[start:start + rows * columns].reshape(rows, columns)
+            start += rows * columns
         return out
 
     def _pair_block(self, first: tuple[np.ndarray, ...], second: tuple[np.ndarray, ...]) -> np.ndarray:
-        """The pair penalties, panel by panel, of candidates `first` (rows) against `second`
-        (columns), each given as tips, starts, shaft samples without their ends and coarse
-        chord points, with the panel as the first axis."""
+        """The pair penalties of candidates `first` against `second`, pair by pair (one row each),
+        each given as tips, starts, shaft samples without their ends and coarse chord points."""
         bl = self.bl
         tips_a, starts_a, body_a, coarse_a = first
         tips_b, starts_b, body_b, coarse_b = second
-        cost = np.where(np.abs(tips_a[:, :, None] - tips_b[:, None, :]) < 0.45 * bl, 150.0, 0.0)
-        # Which samples of a's shaft come near some sample of b's: (panels, A, B, s)
-        alongside = (np.abs(body_a[:, :, None, :, None] - body_b[:, None, :, None, :]) < 0.15 * bl).any(axis=4)
+        cost = np.where(np.abs(tips_a - tips_b) < 0.45 * bl, 150.0, 0.0)
+        # Which samples of a's shaft come near some sample of b's: (pairs, s)
+        alongside = (np.abs(body_a[:, :, None] - body_b[:, None, :]) < 0.15 * bl).any(axis=2)
         # Arrows from one bond may share their start: closeness right at a shared start is fine.
-        shared = (np.abs(starts_a[:, :, None] - starts_b[:, None, :]) < 0.3 * bl)[..., None]
-        near_start = (np.abs(body_a - starts_a[..., None]) < 0.35 * bl)[:, :, None, :]
-        cost += 20.0 * (alongside & ~(shared & near_start)).sum(axis=3)
+        shared = (np.abs(starts_a - starts_b) < 0.3 * bl)[:, None]
+        near_start = np.abs(body_a - starts_a[:, None]) < 0.35 * bl
+        cost += 20.0 * (alongside & ~(shared & near_start)).sum(axis=1)
         xa, ya, xb, yb = coarse_a.real, coarse_a.imag, coarse_b.real, coarse_b.imag
         # Which side of each chord of one curve every point of the other lies on; two chords
         # cross where each has the other's ends on opposite sides.
-        dxa, dya = (xa[..., 1:] - xa[..., :-1])[:, :, None, :, None], (ya[..., 1:] - ya[..., :-1])[:, :, None, :, None]
-        dxb, dyb = (xb[..., 1:] - xb[..., :-1])[:, None, :, :, None], (yb[..., 1:] - yb[..., :-1])[:, None, :, :, None]
-        of_b = (dxa * (yb[:, None, :, None, :] - ya[:, :, None, :-1, None])
-                - dya * (xb[:, None, :, None, :] - xa[:, :, None, :-1, None]))
-        of_a = (dxb * (ya[:, :, None, None, :] - yb[:, None, :, :-1, None])
-                - dyb * (xa[:, :, None, None, :] - xb[:, None, :, :-1, None]))
-        hit = ((of_b[..., :-1] * of_b[..., 1:] < 0)
-               & (of_a[..., :-1] * of_a[..., 1:] < 0).transpose(0, 1, 2, 4, 3))
-        return cost + 20.0 * hit.sum(axis=(3, 4))
+        dxa, dya = (xa[:, 1:] - xa[:, :-1])[:, :, None], (ya[:, 1:] - ya[:, :-1])[:, :, None]
+        dxb, dyb = (xb[:, 1:] - xb[:, :-1])[:, :, None], (yb[:, 1:] - yb[:, :-1])[:, :, None]
+        of_b = dxa * (yb[:, None, :] - ya[:, :-1, None]) - dya * (xb[:, None, :] - xa[:, :-1, None])
+        of_a = dxb * (ya[:, None, :] - yb[:, :-1, None]) - dyb * (xa[:, None, :] - xb[:, :-1, None])
+        hit = (of_b[..., :-1] * of_b[..., 1:] < 0) & (of_a[..., :-1] * of_a[..., 1:] < 0).transpose(0, 2, 1)
+        return cost + 20.0 * hit.sum(axis=(1, 2))
 
     @staticmethod
     def _choose(options: list[list[_Candidate]], pairs: dict[tuple[int, int], np.ndarray]) -> list[_Candidate]:
@@ -801,12 +799,11 @@ def _split_bond_sides(w: _PanelArrows, options: list[list[_Candidate]],
             pairs[(i, j)] = pairs[(i, j)] + _SAME_SIDE * (sides[0][:, None] == sides[1][None, :])
 
 
-def _curve_features(groups: list[list[_Candidate]], controls: np.ndarray, samples: np.ndarray) -> tuple[np.ndarray, ...]:
+def _curve_features(rows: list[int], controls: np.ndarray, samples: np.ndarray) -> tuple[np.ndarray, ...]:
     """Tips, starts, shaft samples without their ends and coarse chord points (five chords) of
-    groups of candidates, one group per row, padded to the longest group (by row 0, never read)."""
-    rows = _padded([[c.row for c in g] for g in groups], 0, int)
-    points = samples[rows]                                             # (groups, C, S)
-    return controls[rows, 3], controls[rows, 0], points[..., ::2][..., 1:-1], points[..., ::4]
+    the candidates in `rows` (their rows in the scheme's arrays)."""
+    points = samples[rows]                                             # (rows, S)
+    return controls[rows, 3], controls[rows, 0], points[:, 2:-1:2], points[:, ::4]
 
 
 def _in_crook(middles: np.ndarray, sources: list[_Anchor], sinks: list[_Anchor], owner: np.ndarray,
