@@ -504,18 +504,29 @@ def _panel_centre(panel: Panel) -> float:
     return (min(ys) + max(ys)) / 2
 
 
+_INSIDE = 1e-9   # points: a curve's control points this far inside the box keep its samples inside too
+
+
 def _panel_box(atoms, bonds, marks, arrows, pad: float) -> Box:
     boxes = [a.box for a in atoms if a.box is not None] + [m.box for m in marks if m.box is not None]
     points = [a.position for a in atoms if a.box is None]
     points += [end for b in bonds for line in b.lines for end in line]
     for a in arrows:
-        points += a.shaft_points(16)
         points += a.head
-    if not points and not boxes:
+    if not points and not boxes and not arrows:
         return Box(0, 0, 0, 0)
     xs = [p[0] for p in points] + [b.x0 for b in boxes] + [b.x1 for b in boxes]
     ys = [p[1] for p in points] + [b.y0 for b in boxes] + [b.y1 for b in boxes]
-    return Box(min(xs) - pad, min(ys) - pad, max(xs) + pad, max(ys) + pad)
+    x0, y0, x1, y1 = (min(xs), min(ys), max(xs), max(ys)) if xs else (math.inf, math.inf, -math.inf, -math.inf)
+    for a in arrows:
+        # A Bezier curve lies within the box of its control points: when that box is well inside
+        # what is already there, the curve's samples cannot widen the panel and are not worked out.
+        cx, cy = (a.start[0], a.control1[0], a.control2[0], a.end[0]), (a.start[1], a.control1[1], a.control2[1], a.end[1])
+        if not (x0 + _INSIDE < min(cx) and max(cx) < x1 - _INSIDE and y0 + _INSIDE < min(cy) and max(cy) < y1 - _INSIDE):
+            shaft = a.shaft_points(16)
+            sx, sy = [p[0] for p in shaft], [p[1] for p in shaft]
+            x0, y0, x1, y1 = min(x0, min(sx)), min(y0, min(sy)), max(x1, max(sx)), max(y1, max(sy))
+    return Box(x0 - pad, y0 - pad, x1 + pad, y1 + pad)
 
 
 def _placed(panel: Panel, origin) -> Panel:
