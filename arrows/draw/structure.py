@@ -178,6 +178,9 @@ class StructureDrawer:
         self.italic = FontFace(style.font_family, italic=True)
         self.cap = self.face.cap_height * style.font_size
         self.small_cap = self.face.cap_height * style.small_size
+        # Single bonds drawn so far, by everything their strokes depend on: consecutive panels
+        # share most atoms, positions and labels, so most bonds come again unchanged.
+        self._single_bonds: dict[tuple, BondDrawing] = {}
 
     def draw(self, state: ElectronState, visible: tuple[int, ...], positions: dict[int, complex],
              drawn_hydrogens: frozenset[int], formed: set[tuple[int, int]] = frozenset(),
@@ -353,6 +356,19 @@ class StructureDrawer:
     # bonds
     def _bond(self, i: int, j: int, order: int, role: str, out: PanelStructure,
               neighbours: dict[int, list[int]], rings: list[list[int]]) -> BondDrawing:
+        p, q = out.positions[i], out.positions[j]
+        box_i, box_j = out.atoms[i].box, out.atoms[j].box
+        if order == 1:   # one centred stroke: its ends, labels and role fix it
+            key = (i, j, role, p, q, box_i, box_j)
+            drawing = self._single_bonds.get(key)
+            if drawing is None:
+                drawing = self._single_bonds[key] = self._strokes(i, j, order, role, out, neighbours, rings)
+            out.bond_extent[(min(i, j), max(i, j))] = 0.0
+            return drawing
+        return self._strokes(i, j, order, role, out, neighbours, rings)
+
+    def _strokes(self, i: int, j: int, order: int, role: str, out: PanelStructure,
+                 neighbours: dict[int, list[int]], rings: list[list[int]]) -> BondDrawing:
         bl = self.style.bond_length
         p, q = out.positions[i], out.positions[j]
         pad = 0.12 * self.style.font_size
