@@ -181,6 +181,7 @@ class StructureDrawer:
         # Single bonds drawn so far, by everything their strokes depend on: consecutive panels
         # share most atoms, positions and labels, so most bonds come again unchanged.
         self._single_bonds: dict[tuple, BondDrawing] = {}
+        self._bare_labels: dict[Optional[tuple], AtomDrawing] = {}   # labels without hydrogens, likewise
 
     def draw(self, state: ElectronState, visible: tuple[int, ...], positions: dict[int, complex],
              drawn_hydrogens: frozenset[int], formed: set[tuple[int, int]] = frozenset(),
@@ -265,6 +266,10 @@ class StructureDrawer:
         bare_end = len(neighbours) == 1 and hidden_h == 0 and (atom.GetFormalCharge() or state.nonbonding[i])
         if element[i] == 6 and neighbours and not bare_end:
             return AtomDrawing(i, name, symbol, point)
+        # The symbol alone is fixed by where it stands: drawn there in an earlier panel, it is reused.
+        key = None if hidden_h else (i, name, symbol, p)
+        if key in self._bare_labels:
+            return self._bare_labels[key]
         fs, ss = self.style.font_size, self.style.small_size
         baseline = p.imag + self.cap / 2
         w_symbol = self.face.width(symbol, fs)
@@ -302,7 +307,10 @@ class StructureDrawer:
                 if count:
                     runs.append(TextRun(count, x + w_h, line + sub_drop, ss))
             out.occupied[i].append(complex(side) if side in (1, -1) else side)
-        return AtomDrawing(i, name, symbol, point, tuple(runs), self._runs_box(runs))
+        drawing = AtomDrawing(i, name, symbol, point, tuple(runs), self._runs_box(runs))
+        if key is not None:
+            self._bare_labels[key] = drawing
+        return drawing
 
     def _hydrogen_side(self, atom: Chem.Atom, bonds: list[complex], crowd: list[tuple[complex, float, float]],
                        walls: list[tuple[complex, complex]], half_symbol: float, h_width: float,
