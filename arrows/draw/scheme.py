@@ -80,9 +80,9 @@ def _without_idle_spectators(sources: list[_PanelSource]) -> list[_PanelSource]:
     """A species that has already taken part (a proton shuttle, a by-product) and that neither
     the step into a panel nor the step out of it touches is left out of that panel: it would
     only wait where it last acted, far from the molecule, in the way of the rows. The largest
-    species of a panel is always drawn, and so is a reactant that has not acted yet."""
+    species of a panel is always drawn, and so is a reactant that has not acted yet. Each
+    source (just made by _panel_sources) gets its `idle` atoms in place."""
     seen: set[int] = set()
-    out = []
     for src in sources:
         near = {i for st in (src.arriving, src.leaving) if st is not None for i in st.change.touched_atoms}
         if src.arriving is not None:
@@ -93,8 +93,8 @@ def _without_idle_spectators(sources: list[_PanelSource]) -> list[_PanelSource]:
             atoms = set(frag) - src.state.released
             if atoms and atoms & seen and not atoms & near:
                 idle |= atoms
-        out.append(replace(src, idle=frozenset(idle)))
-    return out
+        src.idle = frozenset(idle)
+    return sources
 
 
 def _unused_entries(st: StepTrace) -> frozenset[int]:

@@ -19,7 +19,7 @@ from typing import Iterator, Optional
 from rdkit import Chem
 
 from ..electrons import ElectronState
-from ..rdkit_io import atom_list, bond_list
+from ..rdkit_io import bond_list
 from .scene import AtomDrawing, BondDrawing, Box, Mark, TextRun
 from .styles import BROKEN_COLOUR, FORMED_COLOUR, INK, Style
 from .formula import MINUS
@@ -195,8 +195,9 @@ class StructureDrawer:
         shown = set(visible)
         # RDKit is asked once per atom and once per bond: each call into it costs more than the
         # geometry it feeds. A bond's index order is the order RDKit lists an atom's neighbours in.
-        atoms = atom_list(mol)
-        bonds, adjacent = [], [[] for _ in atoms]
+        atom = mol.GetAtomWithIdx   # only the atoms drawn are asked for
+        atoms = {i: atom(i) for i in visible}
+        bonds, adjacent = [], [[] for _ in range(mol.GetNumAtoms())]
         for i, j, order in listed_bonds if listed_bonds is not None else bond_list(mol):
             bonds.append((i, j, int(order)))
             adjacent[i].append(j)
@@ -243,7 +244,7 @@ class StructureDrawer:
         return out
 
     # atoms and labels
-    def _atom(self, state: ElectronState, atoms: list[Chem.Atom], adjacent: list[list[int]], i: int,
+    def _atom(self, state: ElectronState, atoms: dict[int, Chem.Atom], adjacent: list[list[int]], i: int,
               positions: dict[int, complex], neighbours: list[int], drawn_hydrogens: frozenset[int],
               out: PanelStructure, ahead: list[complex] = ()) -> AtomDrawing:
         atom = atoms[i]
