@@ -254,6 +254,8 @@ def _rotor(count: int, divisions: int) -> complex:
 
 
 _COLUMNS: dict[int, tuple[list, tuple[np.ndarray, np.ndarray, np.ndarray]]] = {}
+_SPINS = {spin: _rotor(spin, 6) for spin in {o[2] for options in (_BOND_OPTIONS, _HOP_OPTIONS, _PARTNER_OPTIONS,
+                                                                   _ROUND_OPTIONS) for o in options}}
 _FEW_OPTIONS = 64   # fewer options than this are worked out one by one
 
 
@@ -344,14 +346,15 @@ class _Placements:
         per turn (a handful, shared by many options) and then, for many options, all at once."""
         if last - first <= _FEW_OPTIONS:    # numpy's cost per call outweighs a short loop
             directions, rotations, targets = [], [], []
+            turned, anchor_at, distance = self.turned, self.anchor_at, self.distance
             for _, turn, spin, extra in self.options[first:last]:
-                if turn not in self.turned:
+                if turn not in turned:
                     direction = self.u * _rotor(turn, 9)
-                    self.turned[turn] = (direction, _unit(-direction / self.v))
-                direction, facing = self.turned[turn]
+                    turned[turn] = (direction, _unit(-direction / self.v))
+                direction, facing = turned[turn]
                 directions.append(direction)
-                rotations.append(facing * _rotor(spin, 6))
-                targets.append(self.anchor_at + direction * (self.distance + extra))
+                rotations.append(facing * _SPINS[spin])
+                targets.append(anchor_at + direction * (distance + extra))
             target_array, rotation_array = np.array(targets, dtype=complex), np.array(rotations, dtype=complex)
             moved = target_array[:, None] + self.local[None, :] * rotation_array[:, None]
             return directions, rotations, target_array, moved
@@ -1050,11 +1053,12 @@ class _LayoutBuilder:
         spots = centre + _COMPASS * reach
         # numpy's ufuncs called directly (arctan2 is np.angle, minimum.reduce is .min): these
         # arrays hold a few dozen numbers, and the wrappers cost more than the arithmetic.
-        score = np.full(len(_COMPASS), 1.0)
         if len(taken):
             turns = _COMPASS[:, None] / taken[None, :]
             angle = np.minimum.reduce(np.abs(np.arctan2(turns.imag, turns.real)), axis=1)
             score = np.minimum(angle, _SEVENTY) / _SEVENTY
+        else:
+            score = np.full(len(_COMPASS), 1.0)
         score = score + 0.6 * (np.minimum(np.minimum.reduce(np.abs(spots[:, None] - near[None, :]), axis=1), 1.2)
                                if len(near) else 1.2)
         if prefer is not None:
