@@ -182,6 +182,7 @@ class StructureDrawer:
         # share most atoms, positions and labels, so most bonds come again unchanged.
         self._single_bonds: dict[tuple, BondDrawing] = {}
         self._bare_labels: dict[Optional[tuple], AtomDrawing] = {}   # labels without hydrogens, likewise
+        self._vertices: dict[tuple, AtomDrawing] = {}   # and skeletal carbons
 
     def draw(self, state: ElectronState, visible: tuple[int, ...], positions: dict[int, complex],
              drawn_hydrogens: frozenset[int], formed: set[tuple[int, int]] = frozenset(),
@@ -261,12 +262,12 @@ class StructureDrawer:
         # beside the vertex); only a bare terminal carbon with electrons of its own and no
         # hydrogen, as in cyanide, gets its letter.
         if element[i] == 6 and len(neighbours) > 1:
-            return AtomDrawing(i, name, symbol, point)
+            return self._vertex(i, name, symbol, p)
         hidden_h = atom.GetNumExplicitHs() + sum(
             1 for n in adjacent[i] if n not in drawn_hydrogens and element[n] == 1)
         bare_end = len(neighbours) == 1 and hidden_h == 0 and (atom.GetFormalCharge() or state.nonbonding[i])
         if element[i] == 6 and neighbours and not bare_end:
-            return AtomDrawing(i, name, symbol, point)
+            return self._vertex(i, name, symbol, p)
         # The symbol alone is fixed by where it stands: drawn there in an earlier panel, it is reused.
         key = None if hidden_h else (i, name, symbol, p)
         if key in self._bare_labels:
@@ -311,6 +312,14 @@ class StructureDrawer:
         drawing = AtomDrawing(i, name, symbol, point, tuple(runs), self._runs_box(runs))
         if key is not None:
             self._bare_labels[key] = drawing
+        return drawing
+
+    def _vertex(self, i: int, name: str, symbol: str, p: complex) -> AtomDrawing:
+        """A skeletal carbon at p: the one drawn there in an earlier panel, if any."""
+        key = (i, name, symbol, p)
+        drawing = self._vertices.get(key)
+        if drawing is None:
+            drawing = self._vertices[key] = AtomDrawing(i, name, symbol, (p.real, p.imag))
         return drawing
 
     def _hydrogen_side(self, atom: Chem.Atom, bonds: list[complex], crowd: list[tuple[complex, float, float]],
@@ -378,6 +387,7 @@ class StructureDrawer:
 
     def _strokes(self, i: int, j: int, order: int, role: str, out: PanelStructure,
                  neighbours: dict[int, list[int]], rings: list[list[int]]) -> BondDrawing:
+        """The bond's strokes, clipped at labels, with the second or third line set beside the first."""
         bl = self.style.bond_length
         p, q = out.positions[i], out.positions[j]
         pad = 0.12 * self.style.font_size
