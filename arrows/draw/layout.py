@@ -1483,7 +1483,8 @@ class _LayoutBuilder:
                             and max(a.imag, b.imag) >= -1 and min(a.imag, b.imag) <= 1):
                         walls.add((a, b))
         crossed_now = any(_segments_cross(0j, r.direction, a, b) for a, b in walls)
-        if room(r.direction) >= _HYDROGEN_ROOM and miss(r.direction) == 0.0 and not crossed_now:
+        room_now = room(r.direction)
+        if room_now >= _HYDROGEN_ROOM and miss(r.direction) == 0.0 and not crossed_now:
             return
         walls = np.array(sorted(walls, key=lambda w: (w[0].real, w[0].imag)), dtype=complex).reshape(-1, 2)
 
@@ -1496,8 +1497,8 @@ class _LayoutBuilder:
                  for x in self.neighbours[r.holder] if x != r.hydrogen and x in self.positions[panels[0]]]
         polygons = [[self.positions[k][a] for a in ring] for k in panels for ring in self._closed_rings(k)]
         # Clear of every atom and bond first, then of bonds at least; among those, room and a comfortable hop.
-        best, best_score = r.direction, (room(r.direction) >= _HYDROGEN_ROOM and not crossed_now, not crossed_now,
-                                         min(room(r.direction), 1.2) + 0.1 - miss(r.direction))
+        best, best_score = r.direction, (room_now >= _HYDROGEN_ROOM and not crossed_now, not crossed_now,
+                                         min(room_now, 1.2) + 0.1 - miss(r.direction))
         compass = _HYDROGEN_COMPASS
         rooms = (np.abs(relative - _HYDROGEN_COMPASS_ARRAY[:, None]).min(axis=1).tolist() if len(relative)
                  else [math.inf] * len(compass))
