@@ -578,17 +578,22 @@ class _LayoutBuilder:
             crowd = crowd[np.abs(crowd - self.positions[panels[0]][partner]) > 1e-6]
             for degrees in range(-80, 81, 5):
                 spot = centre + (start - centre) * cmath.rect(1.0, math.radians(degrees))
-                room = float(np.abs(crowd - spot).min()) if len(crowd) else 9.0
                 reach = abs(spot - self.positions[panels[0]][partner])
                 score = -abs(reach - target) - 0.001 * abs(degrees)
-                if room >= 0.95 and reach >= 1.2 and score > best_score:
+                if reach < 1.2 or score <= best_score:
+                    continue   # the room around a spot that would not win is not measured
+                room = float(np.abs(crowd - spot).min()) if len(crowd) else 9.0
+                if room >= 0.95:
                     best, best_score = spot, score
             if best is None:
                 return False
         else:
-            for degrees in (20, -20, 40, -40, 60, -60, 80, -80):
-                spot = centre + (start - centre) * cmath.rect(1.0, math.radians(degrees))
-                room = float(np.abs(crowd - spot).min()) if len(crowd) else 9.0
+            turns = (20, -20, 40, -40, 60, -60, 80, -80)
+            spots = [centre + (start - centre) * cmath.rect(1.0, math.radians(degrees)) for degrees in turns]
+            # The room around every spot in one numpy call.
+            rooms = (np.minimum.reduce(np.abs(crowd[None, :] - np.array(spots)[:, None]), axis=1).tolist()
+                     if len(crowd) else [9.0] * len(spots))
+            for degrees, spot, room in zip(turns, spots, rooms):
                 score = min(room, 1.4) - 0.002 * abs(degrees)
                 if score > best_score:
                     best, best_score = spot, score
