@@ -812,6 +812,7 @@ def _in_crook(middles: np.ndarray, sources: list[_Anchor], sinks: list[_Anchor],
     the angle those bonds make, cramped between them, else 0.0: such an arc reads best round
     the outside of the bend (common practice)."""
     out = np.zeros(len(middles))
+    where: dict[int, dict[int, complex]] = {}   # each panel's atom positions, looked up once
     for k, (src, snk) in enumerate(zip(sources, sinks)):
         if src.kind != "bond" or snk.kind != "bond":
             continue
@@ -821,7 +822,9 @@ def _in_crook(middles: np.ndarray, sources: list[_Anchor], sinks: list[_Anchor],
         pivot, = shared
         ends = [a for a in src.atoms + snk.atoms if a != pivot]
         ob = obstacles[k]   # the obstacles of the arrow's own panel
-        at = dict(zip(ob.atom_ids, ob.atom_xy))
+        at = where.get(id(ob))
+        if at is None:
+            at = where[id(ob)] = dict(zip(ob.atom_ids, ob.atom_xy))
         if pivot not in at or any(a not in at for a in ends):
             continue
         first, second = (_unit(at[a] - at[pivot]) for a in ends)
