@@ -10,12 +10,8 @@ from .styles import INK
 
 
 def _n(v: float) -> str:
-    text = f"{v:.2f}"
-    if text[-1] == "0":     # drop trailing zeros of the two decimals, and the point with both
-        text = text[:-3] if text[-2] == "0" else text[:-1]
-        if text == "-0":
-            return "0"
-    return text
+    text = f"{v:.2f}".rstrip("0").rstrip(".")   # drop trailing zeros of the two decimals, and the point with both
+    return "0" if text == "-0" else text
 
 
 def _pt(p) -> str:
