@@ -21,7 +21,7 @@ import cmath
 import math
 from dataclasses import dataclass, replace
 from functools import lru_cache
-from itertools import accumulate, chain, repeat
+from itertools import chain, repeat
 from typing import Iterator, Optional
 
 import numpy as np
@@ -588,9 +588,9 @@ class ArrowPlanner:
         if hooks.any():
             cost += np.where(hooks[owner], _SHORT_HOOK * np.maximum(0.0, _HOOK_LENGTH - lengths / bl), 0.0)
         # A pair leaving a bond: one clean arc, never a loop.
-        from_bond = np.array([src.kind == "bond" for src in sources])
-        if from_bond.any():
-            cost += np.where(from_bond[owner], self._curl(pts), 0.0)
+        from_bond = np.flatnonzero(np.array([src.kind == "bond" for src in sources])[owner])
+        if len(from_bond):
+            cost[from_bond] += self._curl(pts[from_bond])   # row by row: only those rows are looked at
         cost += _CROOK * _in_crook(pts[:, _SAMPLES // 2], sources, sinks, owner, [obs[k] for k in panel_of])
         # A 1,2-shift is a clear arc round the outside, away from the atom the group leaves:
         # bulging toward that atom it lies on the bond to the cationic centre, and a flat one
@@ -622,50 +622,48 @@ class ArrowPlanner:
                     ) -> list[dict[tuple[int, int], np.ndarray]]:
         """For each panel (the kept candidates of each of its arrows): the penalty of drawing
         candidate a of arrow i with candidate b of arrow j (i < j), for every such pair: heads
-        too close, shafts alongside, shafts crossing. One batch holds every panel's candidates of
-        every arrow but the last (rows) against those of every arrow but the first (columns),
-        padded to the largest panel's (numpy's cost here is per call, not per pair; the padding's
-        penalties are never read); the blocks for i < j are kept."""
+        too close, shafts alongside, shafts crossing. Every such pair of every panel is scored in
+        one batch (numpy's cost here is per call), and only those: padding every panel to the
+        largest panel's arrows would score many pairs no choice reads."""
         out: list[dict[tuple[int, int], np.ndarray]] = [{} for _ in panels]
-        several = [k for k, options in enumerate(panels) if len(options) > 1]
-        if not several:
+        first, second, blocks = [], [], []
+        for k, options in enumerate(panels):
+            for i in range(len(options) - 1):
+                for j in range(i + 1, len(options)):
+                    first += [a.row for a in options[i] for _ in options[j]]
+                    second += [b.row for _ in options[i] for b in options[j]]
+                    blocks.append((k, i, j, len(options[i]), len(options[j])))
+        if not blocks:
             return out
-        cost = self._pair_block(
-            _curve_features([[c for o in panels[k][:-1] for c in o] for k in several], controls, samples),
-            _curve_features([[c for o in panels[k][1:] for c in o] for k in several], controls, samples))
-        for k, block in zip(several, cost):
-            sizes = [len(o) for o in panels[k]]
-            ends = list(accumulate(sizes))
-            out[k] = {(i, j): block[ends[i] - sizes[i]:ends[i], ends[j] - sizes[j] - sizes[0]:ends[j] - sizes[0]]
-                      for i in range(len(sizes) - 1) for j in range(i + 1, len(sizes))}
+        cost = self._pair_block(_curve_features(first, controls, samples), _curve_features(second, controls, samples))
+        start = 0
+        for k, i, j, rows, columns in blocks:
+            out[k][(i, j)] = cost[start:start + rows * columns].reshape(rows, columns)
+            start += rows * columns
         return out
 
     def _pair_block(self, first: tuple[np.ndarray, ...], second: tuple[np.ndarray, ...]) -> np.ndarray:
-        """The pair penalties, panel by panel, of candidates `first` (rows) against `second`
-        (columns), each given as tips, starts, shaft samples without their ends and coarse
-        chord points, with the panel as the first axis."""
+        """The pair penalties of candidates `first` against `second`, pair by pair (one row each),
+        each given as tips, starts, shaft samples without their ends and coarse chord points."""
         bl = self.bl
         tips_a, starts_a, body_a, coarse_a = first
         tips_b, starts_b, body_b, coarse_b = second
-        cost = np.where(np.abs(tips_a[:, :, None] - tips_b[:, None, :]) < 0.45 * bl, 150.0, 0.0)
-        # Which samples of a's shaft come near some sample of b's: (panels, A, B, s)
-        alongside = (np.abs(body_a[:, :, None, :, None] - body_b[:, None, :, None, :]) < 0.15 * bl).any(axis=4)
+        cost = np.where(np.abs(tips_a - tips_b) < 0.45 * bl, 150.0, 0.0)
+        # Which samples of a's shaft come near some sample of b's: (pairs, s)
+        alongside = (np.abs(body_a[:, :, None] - body_b[:, None, :]) < 0.15 * bl).any(axis=2)
         # Arrows from one bond may share their start: closeness right at a shared start is fine.
-        shared = (np.abs(starts_a[:, :, None] - starts_b[:, None, :]) < 0.3 * bl)[..., None]
-        near_start = (np.abs(body_a - starts_a[..., None]) < 0.35 * bl)[:, :, None, :]
-        cost += 20.0 * (alongside & ~(shared & near_start)).sum(axis=3)
+        shared = (np.abs(starts_a - starts_b) < 0.3 * bl)[:, None]
+        near_start = np.abs(body_a - starts_a[:, None]) < 0.35 * bl
+        cost += 20.0 * (alongside & ~(shared & near_start)).sum(axis=1)
         xa, ya, xb, yb = coarse_a.real, coarse_a.imag, coarse_b.real, coarse_b.imag
         # Which side of each chord of one curve every point of the other lies on; two chords
         # cross where each has the other's ends on opposite sides.
-        dxa, dya = (xa[..., 1:] - xa[..., :-1])[:, :, None, :, None], (ya[..., 1:] - ya[..., :-1])[:, :, None, :, None]
-        dxb, dyb = (xb[..., 1:] - xb[..., :-1])[:, None, :, :, None], (yb[..., 1:] - yb[..., :-1])[:, None, :, :, None]
-        of_b = (dxa * (yb[:, None, :, None, :] - ya[:, :, None, :-1, None])
-                - dya * (xb[:, None, :, None, :] - xa[:, :, None, :-1, None]))
-        of_a = (dxb * (ya[:, :, None, None, :] - yb[:, None, :, :-1, None])
-                - dyb * (xa[:, :, None, None, :] - xb[:, None, :, :-1, None]))
-        hit = ((of_b[..., :-1] * of_b[..., 1:] < 0)
-               & (of_a[..., :-1] * of_a[..., 1:] < 0).transpose(0, 1, 2, 4, 3))
-        return cost + 20.0 * hit.sum(axis=(3, 4))
+        dxa, dya = (xa[:, 1:] - xa[:, :-1])[:, :, None], (ya[:, 1:] - ya[:, :-1])[:, :, None]
+        dxb, dyb = (xb[:, 1:] - xb[:, :-1])[:, :, None], (yb[:, 1:] - yb[:, :-1])[:, :, None]
+        of_b = dxa * (yb[:, None, :] - ya[:, :-1, None]) - dya * (xb[:, None, :] - xa[:, :-1, None])
+        of_a = dxb * (ya[:, None, :] - yb[:, :-1, None]) - dyb * (xa[:, None, :] - xb[:, :-1, None])
+        hit = (of_b[..., :-1] * of_b[..., 1:] < 0) & (of_a[..., :-1] * of_a[..., 1:] < 0).transpose(0, 2, 1)
+        return cost + 20.0 * hit.sum(axis=(1, 2))
 
     @staticmethod
     def _choose(options: list[list[_Candidate]], pairs: dict[tuple[int, int], np.ndarray]) -> list[_Candidate]:
@@ -674,6 +672,17 @@ class ArrowPlanner:
         n = len(options)
         if n == 0:
             return []
+        # One or two arrows (most panels) in plain Python, without numpy's cost per call: the same
+        # sums in the same order, and of equal totals the first in np.argmin's order.
+        if n == 1:
+            costs = [c.cost for c in options[0]]
+            return [options[0][costs.index(min(costs))]]
+        if n == 2:
+            matrix = pairs[(0, 1)].tolist()
+            totals = [(0.0 + a.cost + b.cost + matrix[i][j], a, b) for i, a in enumerate(options[0])
+                      for j, b in enumerate(options[1])]
+            least = min(total for total, _, _ in totals)
+            return list(next((a, b) for total, a, b in totals if total == least))
         single = [np.array([c.cost for c in o]) for o in options]
         if n <= 4:
             total = np.zeros([len(o) for o in options])
@@ -790,12 +799,11 @@ def _split_bond_sides(w: _PanelArrows, options: list[list[_Candidate]],
             pairs[(i, j)] = pairs[(i, j)] + _SAME_SIDE * (sides[0][:, None] == sides[1][None, :])
 
 
-def _curve_features(groups: list[list[_Candidate]], controls: np.ndarray, samples: np.ndarray) -> tuple[np.ndarray, ...]:
+def _curve_features(rows: list[int], controls: np.ndarray, samples: np.ndarray) -> tuple[np.ndarray, ...]:
     """Tips, starts, shaft samples without their ends and coarse chord points (five chords) of
-    groups of candidates, one group per row, padded to the longest group (by row 0, never read)."""
-    rows = _padded([[c.row for c in g] for g in groups], 0, int)
-    points = samples[rows]                                             # (groups, C, S)
-    return controls[rows, 3], controls[rows, 0], points[..., ::2][..., 1:-1], points[..., ::4]
+    the candidates in `rows` (their rows in the scheme's arrays)."""
+    points = samples[rows]                                             # (rows, S)
+    return controls[rows, 3], controls[rows, 0], points[:, 2:-1:2], points[:, ::4]
 
 
 def _in_crook(middles: np.ndarray, sources: list[_Anchor], sinks: list[_Anchor], owner: np.ndarray,
@@ -804,6 +812,7 @@ def _in_crook(middles: np.ndarray, sources: list[_Anchor], sinks: list[_Anchor],
     the angle those bonds make, cramped between them, else 0.0: such an arc reads best round
     the outside of the bend (common practice)."""
     out = np.zeros(len(middles))
+    where: dict[int, dict[int, complex]] = {}   # each panel's atom positions, looked up once
     for k, (src, snk) in enumerate(zip(sources, sinks)):
         if src.kind != "bond" or snk.kind != "bond":
             continue
@@ -813,7 +822,9 @@ def _in_crook(middles: np.ndarray, sources: list[_Anchor], sinks: list[_Anchor],
         pivot, = shared
         ends = [a for a in src.atoms + snk.atoms if a != pivot]
         ob = obstacles[k]   # the obstacles of the arrow's own panel
-        at = dict(zip(ob.atom_ids, ob.atom_xy))
+        at = where.get(id(ob))
+        if at is None:
+            at = where[id(ob)] = dict(zip(ob.atom_ids, ob.atom_xy))
         if pivot not in at or any(a not in at for a in ends):
             continue
         first, second = (_unit(at[a] - at[pivot]) for a in ends)
@@ -832,11 +843,14 @@ def _parameters_at_distances(controls: np.ndarray, distances: np.ndarray) -> lis
     # The curve less its end point as a cubic in t, evaluated by Horner's rule: half the numpy
     # calls of the Bernstein form, and numpy's cost here is per call.
     a, b, c, d = p3 - p0 + 3 * (p1 - p2), 3 * (p0 - 2 * p1 + p2), 3 * (p1 - p0), p0 - p3
-    lo, hi = np.zeros(len(controls)), np.ones(len(controls))
+    # Each bracket [lo, lo + step] halves: its middle is lo + step / 2, exactly (sums of powers of
+    # two), so only its lower end is kept.
+    lo, step = np.zeros(len(controls)), 1.0
     for _ in range(16):
-        t = (lo + hi) / 2
+        step /= 2
+        t = lo + step
         far = np.abs(((a * t + b) * t + c) * t + d) > distances
-        lo, hi = np.where(far, t, lo), np.where(far, hi, t)
+        lo = np.where(far, t, lo)
     return lo.tolist()
 
 

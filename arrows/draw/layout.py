@@ -51,6 +51,9 @@ _CLEARANCE = 1.2     # nearest approach allowed between atoms of separately plac
 _HYDROGEN_ROOM = 0.85   # nearest approach of any other atom to a travelling hydrogen
 _WAITING_CLEARANCE = 1.5   # a molecule waiting its turn keeps further clear of the arrows at work
 _COMPASS = np.exp(1j * np.arange(36) * np.pi / 18)     # directions tried, every 10 degrees
+# Directions a travelling hydrogen may turn to, every 15 degrees.
+_HYDROGEN_COMPASS = tuple(cmath.rect(1.0, step * math.pi / 12) for step in range(24))
+_HYDROGEN_COMPASS_ARRAY = np.array(_HYDROGEN_COMPASS)
 _SEVENTY = math.radians(70)
 # Ways to place a cluster next to its partner, in order of preference: (penalty, turn of the
 # approach line in 20-degree steps, spin of the cluster in 30-degree steps, extra distance). A
@@ -251,6 +254,8 @@ def _rotor(count: int, divisions: int) -> complex:
 
 
 _COLUMNS: dict[int, tuple[list, tuple[np.ndarray, np.ndarray, np.ndarray]]] = {}
+_SPINS = {spin: _rotor(spin, 6) for spin in {o[2] for options in (_BOND_OPTIONS, _HOP_OPTIONS, _PARTNER_OPTIONS,
+                                                                   _ROUND_OPTIONS) for o in options}}
 _FEW_OPTIONS = 64   # fewer options than this are worked out one by one
 
 
@@ -262,6 +267,18 @@ def _option_columns(options: list[tuple]) -> tuple[np.ndarray, np.ndarray, np.nd
                                            np.array([_rotor(o[2], 6) for o in options], dtype=complex),
                                            np.array([o[3] for o in options], dtype=float)))
     return _COLUMNS[id(options)][1]
+
+
+_DISTINCT: dict[tuple[int, int, int], tuple[np.ndarray, np.ndarray]] = {}
+
+
+def _distinct_turns(options: list[tuple], first: int, last: int) -> tuple[np.ndarray, np.ndarray]:
+    """The distinct turns of options first..last-1 and which of them each option takes (the same
+    few ranges of the module's option lists are asked for again and again)."""
+    key = (id(options), first, last)
+    if key not in _DISTINCT:
+        _DISTINCT[key] = np.unique(_option_columns(options)[0][first:last], return_inverse=True)
+    return _DISTINCT[key]
 
 
 class _Placements:
@@ -296,12 +313,23 @@ class _Placements:
         rotation and target."""
         while index >= len(self.done):
             # Each batch at least as large as all before it: a search that goes past the first
-            # few spots usually goes through most of them.
+            # few spots usually goes through most of them, so the second takes all the spots
+            # up to _FEW_OPTIONS at once (a bond placement past its first batch takes all 42).
             first = len(self.done)
-            directions, rotations, targets, moved = self.spots(first, first + max(self.batch, first))
+            size = _FEW_OPTIONS - first if first == self.batch < _FEW_OPTIONS else max(self.batch, first)
+            directions, rotations, targets, moved = self.spots(first, first + size)
             self.done += zip(self.gaps(moved, targets, directions), self.blocked(targets, directions),
                              moved, directions, rotations, targets.tolist())
         return self.done[index]
+
+    def __iter__(self) -> Iterator[tuple[float, bool, np.ndarray, complex, complex, complex]]:
+        """Every option in order, as `at` gives them, a batch at a time."""
+        index = 0
+        while index < len(self.options):
+            self.at(index)
+            batch = self.done[index:]
+            yield from batch
+            index += len(batch)
 
     def blocked(self, targets: np.ndarray, directions: list[complex]) -> list[bool]:
         """Whether the proton-transfer arrow of each placement, from the base's atom to the
@@ -318,19 +346,20 @@ class _Placements:
         per turn (a handful, shared by many options) and then, for many options, all at once."""
         if last - first <= _FEW_OPTIONS:    # numpy's cost per call outweighs a short loop
             directions, rotations, targets = [], [], []
+            turned, anchor_at, distance = self.turned, self.anchor_at, self.distance
             for _, turn, spin, extra in self.options[first:last]:
-                if turn not in self.turned:
+                if turn not in turned:
                     direction = self.u * _rotor(turn, 9)
-                    self.turned[turn] = (direction, _unit(-direction / self.v))
-                direction, facing = self.turned[turn]
+                    turned[turn] = (direction, _unit(-direction / self.v))
+                direction, facing = turned[turn]
                 directions.append(direction)
-                rotations.append(facing * _rotor(spin, 6))
-                targets.append(self.anchor_at + direction * (self.distance + extra))
+                rotations.append(facing * _SPINS[spin])
+                targets.append(anchor_at + direction * (distance + extra))
             target_array, rotation_array = np.array(targets, dtype=complex), np.array(rotations, dtype=complex)
             moved = target_array[:, None] + self.local[None, :] * rotation_array[:, None]
             return directions, rotations, target_array, moved
         turns, spins, extras = _option_columns(self.options)
-        distinct, which = np.unique(turns[first:last], return_inverse=True)
+        distinct, which = _distinct_turns(self.options, first, last)
         for turn in distinct.tolist():
             if turn not in self.turned:
                 direction = self.u * _rotor(turn, 9)
@@ -549,17 +578,22 @@ class _LayoutBuilder:
             crowd = crowd[np.abs(crowd - self.positions[panels[0]][partner]) > 1e-6]
             for degrees in range(-80, 81, 5):
                 spot = centre + (start - centre) * cmath.rect(1.0, math.radians(degrees))
-                room = float(np.abs(crowd - spot).min()) if len(crowd) else 9.0
                 reach = abs(spot - self.positions[panels[0]][partner])
                 score = -abs(reach - target) - 0.001 * abs(degrees)
-                if room >= 0.95 and reach >= 1.2 and score > best_score:
+                if reach < 1.2 or score <= best_score:
+                    continue   # the room around a spot that would not win is not measured
+                room = float(np.abs(crowd - spot).min()) if len(crowd) else 9.0
+                if room >= 0.95:
                     best, best_score = spot, score
             if best is None:
                 return False
         else:
-            for degrees in (20, -20, 40, -40, 60, -60, 80, -80):
-                spot = centre + (start - centre) * cmath.rect(1.0, math.radians(degrees))
-                room = float(np.abs(crowd - spot).min()) if len(crowd) else 9.0
+            turns = (20, -20, 40, -40, 60, -60, 80, -80)
+            spots = [centre + (start - centre) * cmath.rect(1.0, math.radians(degrees)) for degrees in turns]
+            # The room around every spot in one numpy call.
+            rooms = (np.minimum.reduce(np.abs(crowd[None, :] - np.array(spots)[:, None]), axis=1).tolist()
+                     if len(crowd) else [9.0] * len(spots))
+            for degrees, spot, room in zip(turns, spots, rooms):
                 score = min(room, 1.4) - 0.002 * abs(degrees)
                 if score > best_score:
                     best, best_score = spot, score
@@ -1022,19 +1056,27 @@ class _LayoutBuilder:
             # the three stand in a line instead of a crooked stack.
             prefer = -complex(taken[0])
         spots = centre + _COMPASS * reach
-        score = np.full(len(_COMPASS), 1.0)
+        # numpy's ufuncs called directly (arctan2 is np.angle, minimum.reduce is .min): these
+        # arrays hold a few dozen numbers, and the wrappers cost more than the arithmetic.
         if len(taken):
-            angle = np.abs(np.angle(_COMPASS[:, None] / taken[None, :])).min(axis=1)
+            turns = _COMPASS[:, None] / taken[None, :]
+            angle = np.minimum.reduce(np.abs(np.arctan2(turns.imag, turns.real)), axis=1)
             score = np.minimum(angle, _SEVENTY) / _SEVENTY
-        score = score + 0.6 * (np.minimum(np.abs(spots[:, None] - near[None, :]).min(axis=1), 1.2)
+        else:
+            score = np.full(len(_COMPASS), 1.0)
+        score = score + 0.6 * (np.minimum(np.minimum.reduce(np.abs(spots[:, None] - near[None, :]), axis=1), 1.2)
                                if len(near) else 1.2)
         if prefer is not None:
             score = score + 0.15 * (_COMPASS * np.conj(_unit(prefer))).real
         ideal = self._zigzag(atom, k)
         if ideal is not None:
-            score = score + 0.3 * np.clip((_COMPASS * np.conj(ideal)).real, 0.0, None)
+            score = score + 0.3 * np.maximum((_COMPASS * np.conj(ideal)).real, 0.0)
         polygons = [[self.positions[k][a] for a in ring] for ring in self._closed_rings(k)]
-        # Best first; the first direction that does not point into a closed ring wins.
+        # Best first; the first direction that does not point into a closed ring wins (the
+        # best is the first highest score, as the stable sort below puts first).
+        best = int(np.argmax(score))
+        if not any(_inside(complex(spots[best]), poly) for poly in polygons):
+            return complex(_COMPASS[best])
         for index in np.argsort(-score, kind="stable"):
             if not any(_inside(complex(spots[index]), poly) for poly in polygons):
                 return complex(_COMPASS[index])
@@ -1118,8 +1160,7 @@ class _LayoutBuilder:
         if partners:
             best = self._nearest_to_partners(cluster, mover, placements, polygons, partners)
         # In order of preference; the first that keeps its distance from everything wins.
-        for option in range(len(options) if best is None else 0):
-            gap, blocked, moved, direction, rotation, target = placements.at(option)
+        for gap, blocked, moved, direction, rotation, target in (placements if best is None else ()):
             if best is not None and (min(gap, _CLEARANCE), not blocked) <= best[0]:
                 continue
             if any(_inside(complex(p), poly) for p in moved for poly in polygons):
@@ -1153,11 +1194,11 @@ class _LayoutBuilder:
         # Travelling hydrogens are placed last: the spots promised to them are kept clear here.
         promised = np.array(self._promised_spots(hydrogen, set(cluster.atoms), range(segment[0], segment[1] + 1)),
                             dtype=complex)
-        for option in range(len(_ROUND_OPTIONS)):
-            gap, blocked, moved, direction, rotation, target = round_about.at(option)
+        for gap, blocked, moved, direction, rotation, target in round_about:
+            if gap < _CLEARANCE or blocked:
+                continue
             hop = target - direction if placements.carries_hydrogen else placements.anchor_at + direction
-            if (gap >= _CLEARANCE and not blocked
-                    and not (len(promised) and np.abs(hop - promised).min() < _HYDROGEN_ROOM)
+            if (not (len(promised) and np.abs(hop - promised).min() < _HYDROGEN_ROOM)
                     and not any(_inside(complex(p), poly) for p in moved for poly in polygons)):
                 return (_CLEARANCE, True), rotation, target - placements.mover_at * rotation, direction
         return None
@@ -1223,13 +1264,15 @@ class _LayoutBuilder:
         start, size = 0, 8
         while start < len(order):
             batch = order[start:start + size]
-            gaps = wider.gaps(moved_all[batch], targets[batch], [directions[o] for o in batch.tolist()])
-            for option, gap in zip(batch.tolist(), gaps):
-                one = slice(option, option + 1)
+            options = batch.tolist()
+            gaps = wider.gaps(moved_all[batch], targets[batch], [directions[o] for o in options])
+            # Only the spots clear of every atom are asked whether their arrow crosses a bond: all at once.
+            clear = [o for o, gap in zip(options, gaps) if gap >= _CLEARANCE]
+            blocked = dict(zip(clear, wider.blocked(targets[clear], [directions[o] for o in clear]))) if clear else {}
+            for option in clear:
                 moved, direction, rotation = moved_all[option], directions[option], rotations[option]
                 target = complex(targets[option])   # Python's complex arithmetic from here, as for every placement
-                if (gap >= _CLEARANCE and not wider.blocked(targets[one], directions[one])[0]
-                        and not any(_inside(complex(p), poly) for p in moved for poly in polygons)):
+                if not blocked[option] and not any(_inside(complex(p), poly) for p in moved for poly in polygons):
                     return ((_CLEARANCE, True), rotation, target - placements.mover_at * rotation, direction)
             start, size = start + size, 2 * size
         return None
@@ -1458,7 +1501,8 @@ class _LayoutBuilder:
                             and max(a.imag, b.imag) >= -1 and min(a.imag, b.imag) <= 1):
                         walls.add((a, b))
         crossed_now = any(_segments_cross(0j, r.direction, a, b) for a, b in walls)
-        if room(r.direction) >= _HYDROGEN_ROOM and miss(r.direction) == 0.0 and not crossed_now:
+        room_now = room(r.direction)
+        if room_now >= _HYDROGEN_ROOM and miss(r.direction) == 0.0 and not crossed_now:
             return
         walls = np.array(sorted(walls, key=lambda w: (w[0].real, w[0].imag)), dtype=complex).reshape(-1, 2)
 
@@ -1471,20 +1515,22 @@ class _LayoutBuilder:
                  for x in self.neighbours[r.holder] if x != r.hydrogen and x in self.positions[panels[0]]]
         polygons = [[self.positions[k][a] for a in ring] for k in panels for ring in self._closed_rings(k)]
         # Clear of every atom and bond first, then of bonds at least; among those, room and a comfortable hop.
-        best, best_score = r.direction, (room(r.direction) >= _HYDROGEN_ROOM and not crossed_now, not crossed_now,
-                                         min(room(r.direction), 1.2) + 0.1 - miss(r.direction))
-        compass = [cmath.rect(1.0, step * math.pi / 12) for step in range(24)]
-        rooms = (np.abs(relative - np.array(compass)[:, None]).min(axis=1).tolist() if len(relative)
+        best, best_score = r.direction, (room_now >= _HYDROGEN_ROOM and not crossed_now, not crossed_now,
+                                         min(room_now, 1.2) + 0.1 - miss(r.direction))
+        compass = _HYDROGEN_COMPASS
+        rooms = (np.abs(relative - _HYDROGEN_COMPASS_ARRAY[:, None]).min(axis=1).tolist() if len(relative)
                  else [math.inf] * len(compass))
         for d, space, crossed in zip(compass, rooms, crossing(compass)):
+            score = (space >= _HYDROGEN_ROOM and not crossed, not crossed,
+                     min(space, 1.2) + 0.1 * (d / r.direction).real - miss(d))
+            if not (score[:2] > best_score[:2] or (score[:2] == best_score[:2] and score[2] > best_score[2] + 0.05)):
+                continue
+            # Only a direction that would win is asked whether it is allowed at all.
             if any(abs(cmath.phase(d / b)) < math.radians(35) for b in bonds):
                 continue
             if any(_inside(self.positions[panels[0]][r.holder] + d, poly) for poly in polygons):
                 continue
-            score = (space >= _HYDROGEN_ROOM and not crossed, not crossed,
-                     min(space, 1.2) + 0.1 * (d / r.direction).real - miss(d))
-            if score[:2] > best_score[:2] or (score[:2] == best_score[:2] and score[2] > best_score[2] + 0.05):
-                best, best_score = d, score
+            best, best_score = d, score
         r.direction = best
         for k in stay:
             self.positions[k][r.hydrogen] = self.positions[k][r.holder] + best

@@ -15,7 +15,7 @@ from rdkit.Chem.rdMolDescriptors import CalcMolFormula
 
 from ..diagnostics import Diagnostic, ERROR
 from ..electrons import ElectronState, ResolvedMove
-from ..rdkit_io import bond_list
+from ..rdkit_io import bond_list, fragment
 from ..trace import StepTrace, Trace
 from .curves import ArrowPlanner
 from .layout import compute_layout
@@ -80,9 +80,9 @@ def _without_idle_spectators(sources: list[_PanelSource]) -> list[_PanelSource]:
     """A species that has already taken part (a proton shuttle, a by-product) and that neither
     the step into a panel nor the step out of it touches is left out of that panel: it would
     only wait where it last acted, far from the molecule, in the way of the rows. The largest
-    species of a panel is always drawn, and so is a reactant that has not acted yet."""
+    species of a panel is always drawn, and so is a reactant that has not acted yet. Each
+    source (just made by _panel_sources) gets its `idle` atoms in place."""
     seen: set[int] = set()
-    out = []
     for src in sources:
         near = {i for st in (src.arriving, src.leaving) if st is not None for i in st.change.touched_atoms}
         if src.arriving is not None:
@@ -93,8 +93,8 @@ def _without_idle_spectators(sources: list[_PanelSource]) -> list[_PanelSource]:
             atoms = set(frag) - src.state.released
             if atoms and atoms & seen and not atoms & near:
                 idle |= atoms
-        out.append(replace(src, idle=frozenset(idle)))
-    return out
+        src.idle = frozenset(idle)
+    return sources
 
 
 def _unused_entries(st: StepTrace) -> frozenset[int]:
@@ -435,11 +435,12 @@ def _formulas(mol: Chem.Mol, atoms: Sequence[int]) -> list[list[Piece]]:
     """Molecular formulas of the fragments made of `atoms`, as pieces with subscripts and charges."""
     wanted = set(atoms)
     out = []
-    # RDKit cuts every fragment out in one call: cheaper than one submolecule per wanted fragment.
-    fragments: list[tuple[int, ...]] = []
-    molecules = Chem.GetMolFrags(mol, asMols=True, sanitizeFrags=False, fragsMolAtomMapping=fragments)
-    for frag, sub in zip(fragments, molecules):
+    # Only the wanted fragments are cut out: about half the cost of cutting every fragment out in
+    # one call (the rest of the molecule is the largest part), and the copies that call makes are
+    # slower to name afterwards.
+    for frag in Chem.GetMolFrags(mol, asMols=False, sanitizeFrags=False):
         if set(frag) <= wanted:
+            sub = fragment(mol, frag)
             sub.UpdatePropertyCache(strict=False)
             out.append(_byproduct_pieces(sub))
     return out
@@ -504,18 +505,29 @@ def _panel_centre(panel: Panel) -> float:
     return (min(ys) + max(ys)) / 2
 
 
+_INSIDE = 1e-9   # points: a curve's control points this far inside the box keep its samples inside too
+
+
 def _panel_box(atoms, bonds, marks, arrows, pad: float) -> Box:
     boxes = [a.box for a in atoms if a.box is not None] + [m.box for m in marks if m.box is not None]
     points = [a.position for a in atoms if a.box is None]
     points += [end for b in bonds for line in b.lines for end in line]
     for a in arrows:
-        points += a.shaft_points(16)
         points += a.head
-    if not points and not boxes:
+    if not points and not boxes and not arrows:
         return Box(0, 0, 0, 0)
     xs = [p[0] for p in points] + [b.x0 for b in boxes] + [b.x1 for b in boxes]
     ys = [p[1] for p in points] + [b.y0 for b in boxes] + [b.y1 for b in boxes]
-    return Box(min(xs) - pad, min(ys) - pad, max(xs) + pad, max(ys) + pad)
+    x0, y0, x1, y1 = (min(xs), min(ys), max(xs), max(ys)) if xs else (math.inf, math.inf, -math.inf, -math.inf)
+    for a in arrows:
+        # A Bezier curve lies within the box of its control points: when that box is well inside
+        # what is already there, the curve's samples cannot widen the panel and are not worked out.
+        cx, cy = (a.start[0], a.control1[0], a.control2[0], a.end[0]), (a.start[1], a.control1[1], a.control2[1], a.end[1])
+        if not (x0 + _INSIDE < min(cx) and max(cx) < x1 - _INSIDE and y0 + _INSIDE < min(cy) and max(cy) < y1 - _INSIDE):
+            shaft = a.shaft_points(16)
+            sx, sy = [p[0] for p in shaft], [p[1] for p in shaft]
+            x0, y0, x1, y1 = min(x0, min(sx)), min(y0, min(sy)), max(x1, max(sx)), max(y1, max(sy))
+    return Box(x0 - pad, y0 - pad, x1 + pad, y1 + pad)
 
 
 def _placed(panel: Panel, origin) -> Panel:

@@ -19,7 +19,7 @@ from typing import Iterator, Optional
 from rdkit import Chem
 
 from ..electrons import ElectronState
-from ..rdkit_io import atom_list, bond_list
+from ..rdkit_io import bond_list
 from .scene import AtomDrawing, BondDrawing, Box, Mark, TextRun
 from .styles import BROKEN_COLOUR, FORMED_COLOUR, INK, Style
 from .formula import MINUS
@@ -99,6 +99,8 @@ def segment_hits_box(p: complex, q: complex, box: Box) -> bool:
 
 def _closes_cycle(i: int, j: int, adjacent: list[list[int]]) -> bool:
     """Whether bond i-j lies on a ring: j is reached from i without crossing that bond."""
+    if len(adjacent[i]) < 2 or len(adjacent[j]) < 2:
+        return False   # a bond to an end atom (the O of a C=O) closes nothing: no search of the molecule
     seen, frontier = {i}, [n for n in adjacent[i] if n != j]
     while frontier:
         a = frontier.pop()
@@ -178,6 +180,11 @@ class StructureDrawer:
         self.italic = FontFace(style.font_family, italic=True)
         self.cap = self.face.cap_height * style.font_size
         self.small_cap = self.face.cap_height * style.small_size
+        # Single bonds drawn so far, by everything their strokes depend on: consecutive panels
+        # share most atoms, positions and labels, so most bonds come again unchanged.
+        self._single_bonds: dict[tuple, BondDrawing] = {}
+        self._bare_labels: dict[Optional[tuple], AtomDrawing] = {}   # labels without hydrogens, likewise
+        self._vertices: dict[tuple, AtomDrawing] = {}   # and skeletal carbons
 
     def draw(self, state: ElectronState, visible: tuple[int, ...], positions: dict[int, complex],
              drawn_hydrogens: frozenset[int], formed: set[tuple[int, int]] = frozenset(),
@@ -191,8 +198,9 @@ class StructureDrawer:
         shown = set(visible)
         # RDKit is asked once per atom and once per bond: each call into it costs more than the
         # geometry it feeds. A bond's index order is the order RDKit lists an atom's neighbours in.
-        atoms = atom_list(mol)
-        bonds, adjacent = [], [[] for _ in atoms]
+        atom = mol.GetAtomWithIdx   # only the atoms drawn are asked for
+        atoms = {i: atom(i) for i in visible}
+        bonds, adjacent = [], [[] for _ in range(mol.GetNumAtoms())]
         for i, j, order in listed_bonds if listed_bonds is not None else bond_list(mol):
             bonds.append((i, j, int(order)))
             adjacent[i].append(j)
@@ -209,8 +217,11 @@ class StructureDrawer:
             out.bond_directions[i] = list(out.occupied[i])
         # Where each atom is about to bond: its hydrogens and charge sign keep out of that gap,
         # where the arrow of the step goes.
-        ahead = {i: [_unit_or_zero(positions[j] - positions[i]) for pair in forming if i in pair
-                     for j in pair if j != i and j in positions] for i in visible}
+        ahead: dict[int, list[complex]] = {i: [] for i in visible}
+        for pair in forming:
+            for i in pair:
+                if i in ahead:
+                    ahead[i] += [_unit_or_zero(positions[j] - positions[i]) for j in pair if j != i and j in positions]
         for i in visible:
             out.atoms[i] = self._atom(state, atoms, adjacent, i, positions, neighbours[i], drawn_hydrogens, out,
                                       ahead[i])
@@ -236,7 +247,7 @@ class StructureDrawer:
         return out
 
     # atoms and labels
-    def _atom(self, state: ElectronState, atoms: list[Chem.Atom], adjacent: list[list[int]], i: int,
+    def _atom(self, state: ElectronState, atoms: dict[int, Chem.Atom], adjacent: list[list[int]], i: int,
               positions: dict[int, complex], neighbours: list[int], drawn_hydrogens: frozenset[int],
               out: PanelStructure, ahead: list[complex] = ()) -> AtomDrawing:
         atom = atoms[i]
@@ -244,20 +255,25 @@ class StructureDrawer:
         p = positions[i]
         symbol = atom.GetSymbol()
         number = atom.GetAtomMapNum()
-        # A mapped atom is named by symbol and number (as ElectronState.label names it) without
-        # asking RDKit for the atom again; the rest are named by the state.
-        name = f"{symbol}{number}" if number else state.label(i)
+        # A mapped atom, or an unmapped one other than a hydrogen, is named as ElectronState.label
+        # names it (symbol and number, or symbol and position) without asking RDKit for the atom
+        # again; a hydrogen, named after the atom that holds it, by the state.
+        name = f"{symbol}{number}" if number else f"{symbol}(atom {i + 1})" if element[i] != 1 else state.label(i)
         point = (p.real, p.imag)
         # Skeletal carbons are vertices, charged and radical ones too (the sign or dot sits
         # beside the vertex); only a bare terminal carbon with electrons of its own and no
         # hydrogen, as in cyanide, gets its letter.
         if element[i] == 6 and len(neighbours) > 1:
-            return AtomDrawing(i, name, symbol, point)
+            return self._vertex(i, name, symbol, p)
         hidden_h = atom.GetNumExplicitHs() + sum(
             1 for n in adjacent[i] if n not in drawn_hydrogens and element[n] == 1)
         bare_end = len(neighbours) == 1 and hidden_h == 0 and (atom.GetFormalCharge() or state.nonbonding[i])
         if element[i] == 6 and neighbours and not bare_end:
-            return AtomDrawing(i, name, symbol, point)
+            return self._vertex(i, name, symbol, p)
+        # The symbol alone is fixed by where it stands: drawn there in an earlier panel, it is reused.
+        key = None if hidden_h else (i, name, symbol, p)
+        if key in self._bare_labels:
+            return self._bare_labels[key]
         fs, ss = self.style.font_size, self.style.small_size
         baseline = p.imag + self.cap / 2
         w_symbol = self.face.width(symbol, fs)
@@ -297,7 +313,18 @@ class StructureDrawer:
                 if count:
                     runs.append(TextRun(count, x + w_h, line + sub_drop, ss))
             out.occupied[i].append(complex(side) if side in (1, -1) else side)
-        return AtomDrawing(i, name, symbol, point, tuple(runs), self._runs_box(runs))
+        drawing = AtomDrawing(i, name, symbol, point, tuple(runs), self._runs_box(runs))
+        if key is not None:
+            self._bare_labels[key] = drawing
+        return drawing
+
+    def _vertex(self, i: int, name: str, symbol: str, p: complex) -> AtomDrawing:
+        """A skeletal carbon at p: the one drawn there in an earlier panel, if any."""
+        key = (i, name, symbol, p)
+        drawing = self._vertices.get(key)
+        if drawing is None:
+            drawing = self._vertices[key] = AtomDrawing(i, name, symbol, (p.real, p.imag))
+        return drawing
 
     def _hydrogen_side(self, atom: Chem.Atom, bonds: list[complex], crowd: list[tuple[complex, float, float]],
                        walls: list[tuple[complex, complex]], half_symbol: float, h_width: float,
@@ -351,6 +378,20 @@ class StructureDrawer:
     # bonds
     def _bond(self, i: int, j: int, order: int, role: str, out: PanelStructure,
               neighbours: dict[int, list[int]], rings: list[list[int]]) -> BondDrawing:
+        p, q = out.positions[i], out.positions[j]
+        box_i, box_j = out.atoms[i].box, out.atoms[j].box
+        if order == 1:   # one centred stroke: its ends, labels and role fix it
+            key = (i, j, role, p, q, box_i, box_j)
+            drawing = self._single_bonds.get(key)
+            if drawing is None:
+                drawing = self._single_bonds[key] = self._strokes(i, j, order, role, out, neighbours, rings)
+            out.bond_extent[(min(i, j), max(i, j))] = 0.0
+            return drawing
+        return self._strokes(i, j, order, role, out, neighbours, rings)
+
+    def _strokes(self, i: int, j: int, order: int, role: str, out: PanelStructure,
+                 neighbours: dict[int, list[int]], rings: list[list[int]]) -> BondDrawing:
+        """The bond's strokes, clipped at labels, with the second or third line set beside the first."""
         bl = self.style.bond_length
         p, q = out.positions[i], out.positions[j]
         pad = 0.12 * self.style.font_size

@@ -10,12 +10,8 @@ from .styles import INK
 
 
 def _n(v: float) -> str:
-    text = f"{v:.2f}"
-    if text[-1] == "0":     # drop trailing zeros of the two decimals, and the point with both
-        text = text[:-3] if text[-2] == "0" else text[:-1]
-        if text == "-0":
-            return "0"
-    return text
+    text = f"{v:.2f}".rstrip("0").rstrip(".")   # drop trailing zeros of the two decimals, and the point with both
+    return "0" if text == "-0" else text
 
 
 def _pt(p) -> str:
@@ -56,22 +52,31 @@ def _strokes(d: str, colour: str, cls: str) -> str:
     return f'<path class="{cls}" d="{d}"{_colour_attr(colour, "stroke")}/>'
 
 
-def _panel(panel: Panel, line_width: float, bond_paths: dict) -> list[str]:
+def _panel(panel: Panel, line_width: float, bond_paths: dict, written: dict) -> list[str]:
     """Strokes (bonds, arrow shafts, error rings) in one group, fills (text, dots, heads) in another.
     `bond_paths` keeps the path of every bond written so far in the figure: an atom that does not
-    move has the same coordinates in every panel, so most bonds come again, and are written once."""
+    move has the same coordinates in every panel, so most bonds come again, and are written once.
+    `written` keeps the elements of every bond and label drawing met so far, by identity: the
+    scene hands the same drawing to every panel where nothing about it changed."""
     strokes, fills = [], []
     for bond in panel.bonds:
-        path = bond_paths.get(bond.lines)
-        if path is None:
-            path = bond_paths[bond.lines] = " ".join(f"M{_pt(p)} L{_pt(q)}" for p, q in bond.lines)
-        strokes.append(_strokes(path, bond.colour, "bond"))
+        element = written.get(id(bond))
+        if element is None:
+            path = bond_paths.get(bond.lines)
+            if path is None:
+                path = bond_paths[bond.lines] = " ".join(f"M{_pt(p)} L{_pt(q)}" for p, q in bond.lines)
+            element = written[id(bond)] = _strokes(path, bond.colour, "bond")
+        strokes.append(element)
     for arrow in panel.arrows:
         d = f"M{_pt(arrow.start)} C{_pt(arrow.control1)} {_pt(arrow.control2)} {_pt(arrow.end)}"
         strokes.append(_strokes(d, arrow.colour, "move"))
         fills.append(_polygon(arrow.head, arrow.colour))
     for atom in panel.atoms:
-        fills += [_text(r) for r in atom.runs]
+        if atom.runs:
+            texts = written.get(id(atom))
+            if texts is None:
+                texts = written[id(atom)] = [_text(r) for r in atom.runs]
+            fills += texts
     for mark in panel.marks:
         (strokes if mark.kind == "error" else fills).extend(_mark(mark, line_width))
     fills += [_text(r) for r in panel.placeholder]
@@ -101,8 +106,9 @@ def scene_to_svg(scene: Scene) -> str:
         '<g stroke="none">' + "".join(_text(t) for t in scene.texts) + "</g>" if scene.texts else "",
     ]
     bond_paths: dict = {}
+    written: dict = {}   # by id: every drawing stays alive in the scene while it is written
     for panel in scene.panels:
-        lines += _panel(panel, lw, bond_paths)
+        lines += _panel(panel, lw, bond_paths, written)
     for arrow in scene.reaction_arrows:
         lines += _reaction(arrow)
     lines += ["</g>", "</svg>", ""]
