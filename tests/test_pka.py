@@ -17,6 +17,8 @@ from arrows.checks.protons import pka_gap, proton_transfers
 from arrows.cli import cli
 from arrows.judgement.acidity import acidity_of, perceived
 
+from textbook_mechanisms import ACID_ENOLISATION
+
 GALLERY = sorted((Path(__file__).resolve().parent.parent / "gallery").glob("*.mech"))
 
 # (SMILES, atom index carrying the proton, reference pKa) from the list above (memory).
@@ -124,22 +126,6 @@ def test_the_shared_hydrogen_free_view_reads_the_same_acidity_as_the_state_itsel
                 assert acidity_of(view.mol, view.position(atom)) == acidity_of(whole, atom), (path.name, atom)
 
 
-ACID_CATALYSED_ENOLISATION = """\
-species acetone = "[CH3:1][C:2](=[O:3])C"
-species acid = "[OH3+:4]"
-species water = "[OH2:5]"
-step "protonation"
-    :O3 -> H(O4)
-    O4-H -> O4
-end
-step "deprotonation"
-    :O5 -> H(C1)
-    C1-H -> C1=C2
-    C2=O3 -> O3
-end
-product "C=C(C)O.[OH3+].O"
-"""
-
 ENAMINE_FROM_IMINIUM = """\
 species iminium = "[CH3:1][C:2](C)=[N+:3](C)C"
 species amine = "[NH:4](C)C"
@@ -152,7 +138,7 @@ product "C=C(C)N(C)C.C[NH2+]C"
 """
 
 
-@pytest.mark.parametrize("text", [ACID_CATALYSED_ENOLISATION, ENAMINE_FROM_IMINIUM], ids=["enol", "enamine"])
+@pytest.mark.parametrize("text", [ACID_ENOLISATION, ENAMINE_FROM_IMINIUM], ids=["enol", "enamine"])
 def test_alpha_c_h_of_a_cationic_carbonyl_is_not_judged_as_a_neutral_ketone(text):
     """Acid-catalysed enolisation (water takes the alpha proton of the O-protonated ketone) and
     enamine formation (an amine takes the alpha proton of an iminium) are textbook steps (common

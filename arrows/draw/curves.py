@@ -440,7 +440,7 @@ class ArrowPlanner:
         on either side of the bond, out from its middle and back in to the atom from the side,
         so the fishhook reads as a curve and not as a hook on the short span between the labels
         (common practice: one fishhook to each atom, on either side of the bond)."""
-        if move.electrons != 1 or src.kind != "bond" or snk.kind != "atom" or snk.atoms[0] not in src.atoms:
+        if not _is_split(move):
             return []
         out = []
         h = 0.4 * self.bl

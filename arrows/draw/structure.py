@@ -487,12 +487,15 @@ class StructureDrawer:
         if charge:
             sign = "+" if charge > 0 else MINUS
             text = (str(abs(charge)) if abs(charge) > 1 else "") + sign
-            mark = self._superscript(i, text, out)
+            # Other atoms' labels close by: a sign against one reads as belonging to it.
+            centre, bl = out.positions[i], self.style.bond_length
+            nearby = [j for j, a in out.atoms.items()
+                      if j != i and a.box is not None and abs(out.positions[j] - centre) < 2 * bl]
+            mark = self._superscript(i, text, out, [out.atoms[j].box for j in nearby])
             if mark is None:
-                # Round the atom: clear of its bonds, the gaps ahead and the labels nearby.
-                centre = out.positions[i]
-                labels = [_unit_or_zero(out.positions[j] - centre) for j, a in out.atoms.items()
-                          if j != i and a.box is not None and abs(out.positions[j] - centre) < 1.3 * self.style.bond_length]
+                # Round the atom: clear of its bonds, the gaps ahead and the labels nearest.
+                labels = [_unit_or_zero(out.positions[j] - centre) for j in nearby
+                          if abs(out.positions[j] - centre) < 1.3 * bl]
                 avoided = list(ahead) + [d for d in labels if d]
                 out.occupied[i] += avoided
                 mark = self._side_text("charge", i, text, out, preferred=cmath.rect(1, -math.pi / 4))
@@ -502,9 +505,10 @@ class StructureDrawer:
         if atom.GetNumRadicalElectrons():
             out.marks.append(self.radical_dot(i, out, preferred=cmath.rect(1, -math.pi / 2)))
 
-    def _superscript(self, i: int, text: str, out: PanelStructure) -> Optional[Mark]:
+    def _superscript(self, i: int, text: str, out: PanelStructure, near: list[Box]) -> Optional[Mark]:
         """A charge written as a superscript after the label (O-, NH3+), or before it when a
-        bond leaves from the upper right; None when neither place is free of bonds."""
+        bond leaves from the upper right; None when neither place is free of bonds and of the
+        `near` labels."""
         drawing = out.atoms[i]
         if drawing.box is None:
             return None
@@ -519,9 +523,6 @@ class StructureDrawer:
         baseline = box.y0 + 0.38 * size
         centre = out.positions[i]
         reach = self.style.bond_length
-        # Other atoms' labels close by: a sign against one reads as belonging to it.
-        near = [a.box for j, a in out.atoms.items()
-                if j != i and a.box is not None and abs(out.positions[j] - centre) < 2 * reach]
         for x in (box.x1 + 0.03 * size, box.x0 - 0.03 * size - width):
             run = TextRun(text, x, baseline, size)
             tb = self.text_box(run)
