@@ -41,8 +41,9 @@ _MAX_TURN = math.radians(180)   # an arc turning further than this curls back on
 _CURL_WEIGHT = 0.5              # penalty per degree beyond _MAX_TURN
 _LOOP_STANDOFF = 0.45           # bond lengths: a turned-back arc standing further off its chord is a loop
 _SELF_CROSSING = math.radians(240)   # an arc turning this far crosses itself
-_HOOK_LENGTH = 0.9              # bond lengths: the shortest path that reads as a fishhook's arc
-_SHORT_HOOK = 10.0              # penalty per bond length a fishhook falls short of that
+_HOOK_LENGTH = 0.9              # bond lengths: the shortest path that reads as an arc from a bond to its own atom
+_SHORT_HOOK = 10.0              # penalty per bond length such an arrow falls short of that
+_TICK = 4.0                     # penalty of a plain arc where a pair goes from a bond to its own atom
 _SHIFT_BULGE = 0.2              # bond lengths a 1,2-shift's arc stands out from its chord, away from the pivot
 _TIGHT_SHIFT = 5.0              # penalty of one that stands out less (or bulges toward the pivot)
 _CROOK = 1.0                    # penalty of an arc cramped inside the angle of the two bonds it joins
@@ -107,6 +108,7 @@ class _Candidate:
     row: int = 0               # its row of complex samples along the curve in the scheme's array
     cost: float = 0.0
     length: float = 0.0        # of the polyline through its samples
+    handicap: float = 0.0      # a cost known before scoring (a shape that reads poorly)
 
 
 class _Obstacles:
@@ -258,7 +260,13 @@ class ArrowPlanner:
         for move, src, snk in zip(moves, sources, sinks):
             hooks = self._hooks(move, src, snk, panel)
             # A fishhook from a bond to its own atom never sets off backwards: that reads as an S.
-            tries.append(self._candidates(src, snk, panel, forward_only=bool(hooks)) + hooks)
+            arcs = self._candidates(src, snk, panel, forward_only=bool(hooks))
+            if hooks and move.electrons == 2:
+                # A pair from a bond to its own atom: an arc over that short span reads as a tick;
+                # it is drawn only where the half-loops are blocked.
+                for arc in arcs:
+                    arc.handicap = _TICK
+            tries.append(arcs + hooks)
         return _PanelArrows(step, moves, panel, marks, sources, sinks, tries)
 
     # anchors
@@ -436,11 +444,12 @@ class ArrowPlanner:
         return [self._arc(src, snk, side, theta, panel) for side in (1, -1) for theta in angles]
 
     def _hooks(self, move: ResolvedMove, src: _Anchor, snk: _Anchor, panel: PanelStructure) -> list[_Candidate]:
-        """A single electron leaving a bond for one of its own ends (homolysis): a C-shaped arc
-        on either side of the bond, out from its middle and back in to the atom from the side,
-        so the fishhook reads as a curve and not as a hook on the short span between the labels
-        (common practice: one fishhook to each atom, on either side of the bond)."""
-        if not _is_split(move):
+        """Electrons leaving a bond for one of its own ends (a heterolysis, or one half of a
+        homolysis): a C-shaped arc on either side of the bond, out from its middle and back in to
+        the atom from the side, so the arrow reads as a curve and not as a tick on the short span
+        between the bond's middle and the label (common practice: C=O to O drawn as a half-loop;
+        one fishhook to each atom, on either side of the bond)."""
+        if not _to_own_atom(move):
             return []
         out = []
         h = 0.4 * self.bl
@@ -581,10 +590,9 @@ class ArrowPlanner:
         cost += np.where((outward != 0) & ((leave * np.conj(outward)).real < -0.2), 20.0, 0.0)
         lengths = np.abs(np.diff(pts, axis=1)).sum(axis=1)
         cost += lengths / bl
-        # A fishhook from a bond to one of its own atoms (a homolysis) shorter than _HOOK_LENGTH
-        # reads as a tick rather than an arc (common practice draws it as a clear half-loop).
-        hooks = np.array([m.electrons == 1 and src.kind == "bond" and snk.kind == "atom" and snk.atoms[0] in src.atoms
-                          for m, src, snk in zip(moves, sources, sinks)])
+        # An arrow from a bond to one of its own atoms shorter than _HOOK_LENGTH reads as a tick
+        # rather than an arc (common practice draws it as a clear half-loop).
+        hooks = np.array([_to_own_atom(m) for m in moves])
         if hooks.any():
             cost += np.where(hooks[owner], _SHORT_HOOK * np.maximum(0.0, _HOOK_LENGTH - lengths / bl), 0.0)
         # A pair leaving a bond: one clean arc, never a loop.
@@ -604,7 +612,7 @@ class ArrowPlanner:
             away = -pivot_side * standoff
             cost += np.where(np.isfinite(pivots) & ~(away >= _SHIFT_BULGE * bl), _TIGHT_SHIFT, 0.0)
         for c, value, length in zip(candidates, cost.tolist(), lengths.tolist()):
-            c.cost, c.length = value, length
+            c.cost, c.length = value + c.handicap, length
 
     def _curl(self, pts: np.ndarray) -> np.ndarray:
         """An arc that turns back on itself (through more than _MAX_TURN) and either stands far
@@ -773,10 +781,14 @@ def _beside_bond(occupied: list[complex], toward: complex, tails: list[complex] 
 _SAME_SIDE = 40.0   # the two fishhooks of one split bond drawn on one side of it
 
 
+def _to_own_atom(move: ResolvedMove) -> bool:
+    """Electrons going from a bond to one of that bond's own atoms."""
+    return move.source_kind == "bond" and len(move.sink_atoms) == 1 and move.sink_atoms[0] in move.source_atoms
+
+
 def _is_split(move: ResolvedMove) -> bool:
     """A single electron going from a bond to one of that bond's own atoms (homolysis)."""
-    return (move.electrons == 1 and move.source_kind == "bond" and len(move.sink_atoms) == 1
-            and move.sink_atoms[0] in move.source_atoms)
+    return move.electrons == 1 and _to_own_atom(move)
 
 
 def _split_bond_sides(w: _PanelArrows, options: list[list[_Candidate]],

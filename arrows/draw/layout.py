@@ -55,6 +55,7 @@ _COMPASS = np.exp(1j * np.arange(36) * np.pi / 18)     # directions tried, every
 _HYDROGEN_COMPASS = tuple(cmath.rect(1.0, step * math.pi / 12) for step in range(24))
 _HYDROGEN_COMPASS_ARRAY = np.array(_HYDROGEN_COMPASS)
 _SEVENTY = math.radians(70)
+_SIXTY = math.radians(60)
 # Ways to place a cluster next to its partner, in order of preference: (penalty, turn of the
 # approach line in 20-degree steps, spin of the cluster in 30-degree steps, extra distance). A
 # proton partner keeps close: half a bond length further out costs as much as an 80-degree turn.
@@ -1068,7 +1069,9 @@ class _LayoutBuilder:
                                if len(near) else 1.2)
         if prefer is not None:
             score = score + 0.15 * (_COMPASS * np.conj(_unit(prefer))).real
-        ideal = self._zigzag(atom, k)
+        bonded = [_unit(self.positions[k][n] - centre) for n in self.neighbours[atom]
+                  if n in self.positions[k] and self.element[n] != 1]
+        ideal = self._zigzag(atom, k, bonded)
         if ideal is not None:
             score = score + 0.3 * np.maximum((_COMPASS * np.conj(ideal)).real, 0.0)
         polygons = [[self.positions[k][a] for a in ring] for ring in self._closed_rings(k)]
@@ -1082,9 +1085,10 @@ class _LayoutBuilder:
                 return complex(_COMPASS[index])
         return free_direction(centre, [centre + t for t in taken], prefer)
 
-    def _zigzag(self, atom: int, k: int) -> Optional[complex]:
+    def _zigzag(self, atom: int, k: int, taken: Sequence[complex] = ()) -> Optional[complex]:
         """For an atom with one bond: the direction that continues a zigzag chain (parallel to
-        the bond before its neighbour), or 120 degrees from that bond if there is no chain."""
+        the bond before its neighbour), or 120 degrees from that bond if there is no chain; of the
+        two, only one that no direction in `taken` (a bond to come, a promised hydrogen) holds."""
         here = self.positions[k]
         bonded = [n for n in self.neighbours[atom] if n in here and (min(atom, n), max(atom, n)) in self.bonds_in[k]
                   and self.element[n] != 1]
@@ -1094,7 +1098,10 @@ class _LayoutBuilder:
         back = _unit(here[neighbour] - here[atom])
         before = [n for n in self.neighbours[neighbour] if n != atom and n in here and self.element[n] != 1
                   and (min(neighbour, n), max(neighbour, n)) in self.bonds_in[k]]
-        options = [back * cmath.rect(1.0, 2 * math.pi / 3), back * cmath.rect(1.0, -2 * math.pi / 3)]
+        options = [d for d in (back * cmath.rect(1.0, 2 * math.pi / 3), back * cmath.rect(1.0, -2 * math.pi / 3))
+                   if all(abs(cmath.phase(d / t)) > _SIXTY for t in taken)]
+        if not options:
+            return None
         if before:
             chain = _unit(here[neighbour] - here[before[0]])
             return max(options, key=lambda d: (d / chain).real)
