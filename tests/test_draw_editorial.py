@@ -113,13 +113,16 @@ def test_annulation_conjugate_addition_runs_clear_of_bonds():
 def test_annulation_methoxide_waits_near_the_proton_it_takes():
     """Wieland-Miescher annulation: a methanol that protonates the enone and then, as methoxide,
     takes the methyl ketone's proton stands still between the two steps, so it is placed within
-    an arrow's reach of both: base O to the hydrogen it takes 1.4-2.5 bond lengths (common
-    practice). Both such methoxide arrows were 2.75 and 2.80 bond lengths long."""
+    an arrow's reach of both: base O to the hydrogen it takes 1.4-3.0 bond lengths (common
+    practice). Both such methoxide arrows were 2.75 and 2.80 bond lengths long, then within 2.5;
+    the first is 2.9 now that the C13-H it takes stands clear of the C11-C13 bond its pair goes
+    into (test_an_arrow_from_c_h_to_the_next_bond_keeps_its_angle_open): a longer arrow to the
+    proton rather than a knot between the two bonds."""
     _, scene = _scene("07-annulation-wieland-miescher")
     methoxide = [t for t in _proton_transfers(scene) if t[1] in (":O31 -> H(C13)", ":O32 -> H(C13)")]
     assert len(methoxide) == 2
     for panel, move, distance in methoxide:
-        assert 1.4 <= distance <= 2.5, (panel, move, distance)
+        assert 1.4 <= distance <= 3.0, (panel, move, distance)
 
 
 def test_acetal_shuttle_stands_beside_the_oxygen_it_acts_on():
@@ -240,3 +243,34 @@ def test_an_arrow_from_c_h_to_the_next_bond_curves_clear_of_the_carbon():
     arrow, = [a for a in panel.arrows if a.move.startswith("C1-H")]
     closest = min(abs(complex(*p) - c1) for p in arrow.path_points(80))
     assert closest >= 0.3 * scene.bond_length, closest / scene.bond_length
+
+
+@pytest.mark.parametrize("path", GALLERY, ids=lambda p: p.stem)
+def test_an_arrow_from_c_h_to_the_next_bond_keeps_its_angle_open(path):
+    """An arrow from a C-H bond into the next bond of that carbon (an enolisation, an E2) needs
+    the open angle between the two bonds: the hydrogen is drawn at least 80 degrees from the bond
+    its pair goes into (zigzag drawings put them 120 degrees apart, common practice). Three
+    gallery figures had it at 51-65 degrees (the Wieland-Miescher annulation's C13-H turned
+    toward the methoxide that takes it; the dione cyclisations' first C-H), and the arrow
+    between the two bonds was a knot over the carbon."""
+    trace, diags = arrows.check_text(path.read_text(encoding="utf-8"), path.name)
+    scene = build_scene(trace, STYLES["two-column"], diags)
+    checked = 0
+    for panel in scene.panels:
+        where = {a.index: complex(*a.position) for a in panel.atoms}
+        for arrow in panel.arrows:
+            if arrow.source_kind != "bond" or len(arrow.sink_atoms) != 2:
+                continue
+            hydrogens = [a for a in arrow.source_atoms if panel.atom(a).element == "H"]
+            if len(hydrogens) != 1:
+                continue
+            h = hydrogens[0]
+            holder, = (a for a in arrow.source_atoms if a != h)
+            if holder not in arrow.sink_atoms or h in arrow.sink_atoms:
+                continue
+            other, = (a for a in arrow.sink_atoms if a != holder)
+            angle = abs(math.degrees(cmath.phase((where[h] - where[holder]) / (where[other] - where[holder]))))
+            assert angle >= 80, (panel.index, arrow.move, angle)
+            checked += 1
+    if path.stem.startswith(("01-", "07-", "12-")):
+        assert checked

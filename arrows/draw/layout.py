@@ -49,6 +49,7 @@ CYCLOADDITION_GAP = 1.8
 APPROACH = 2.2
 _CLEARANCE = 1.2     # nearest approach allowed between atoms of separately placed clusters
 _HYDROGEN_ROOM = 0.85   # nearest approach of any other atom to a travelling hydrogen
+_FED_ANGLE = math.radians(80)   # least angle between a C-H and the bond its pair goes into
 _WAITING_CLEARANCE = 1.5   # a molecule waiting its turn keeps further clear of the arrows at work
 _COMPASS = np.exp(1j * np.arange(36) * np.pi / 18)     # directions tried, every 10 degrees
 # Directions a travelling hydrogen may turn to, every 15 degrees.
@@ -131,6 +132,25 @@ def moving_hydrogens(states: Sequence[ElectronState], moves: Iterable[ResolvedMo
             if i < len(elements) and elements[i] == 1:
                 out.add(i)
     return frozenset(out)
+
+
+def _bonds_fed_by_hydrogens(moves: Sequence[Sequence[ResolvedMove]], elements: Sequence[int]
+                            ) -> dict[tuple[int, int], set[int]]:
+    """(hydrogen, holder) -> the atoms X whose bond to the holder the pair of the holder-H bond
+    goes into (C-H -> C=C of an enolisation or an E2)."""
+    feeds: dict[tuple[int, int], set[int]] = {}
+    for move in (m for ms in moves for m in ms):
+        if move.source_kind != "bond" or len(move.sink_atoms) != 2:
+            continue
+        hydrogens = [a for a in move.source_atoms if elements[a] == 1]
+        if len(hydrogens) != 1:
+            continue
+        h = hydrogens[0]
+        holder, = (a for a in move.source_atoms if a != h)
+        if holder in move.sink_atoms and h not in move.sink_atoms:
+            other, = (a for a in move.sink_atoms if a != holder)
+            feeds.setdefault((h, holder), set()).add(other)
+    return feeds
 
 
 def visible_atoms(state: ElectronState, drawn_hydrogens: frozenset[int]) -> tuple[int, ...]:
@@ -440,6 +460,7 @@ class _LayoutBuilder:
         self.touched = [set(t) for t in touched] + [set()] * (self.n - len(touched))
         elements = max(self.states, key=lambda s: len(s.elements)).elements
         self.drawn_h = moving_hydrogens(self.states, (m for ms in moves for m in ms))
+        self.feeds = _bonds_fed_by_hydrogens(moves, elements)
         self.atoms = [i for i, z in enumerate(elements) if z != 1 or i in self.drawn_h]
         self.element = {i: elements[i] for i in self.atoms}
         drawn = set(self.atoms)
@@ -1069,6 +1090,9 @@ class _LayoutBuilder:
                                if len(near) else 1.2)
         if prefer is not None:
             score = score + 0.15 * (_COMPASS * np.conj(_unit(prefer))).real
+        for f in self._fed_directions(hydrogen, atom, k):
+            turns = _COMPASS / f
+            score = score - 10.0 * (np.abs(np.arctan2(turns.imag, turns.real)) < _FED_ANGLE)
         bonded = [_unit(self.positions[k][n] - centre) for n in self.neighbours[atom]
                   if n in self.positions[k] and self.element[n] != 1]
         ideal = self._zigzag(atom, k, bonded)
@@ -1084,6 +1108,13 @@ class _LayoutBuilder:
             if not any(_inside(complex(spots[index]), poly) for poly in polygons):
                 return complex(_COMPASS[index])
         return free_direction(centre, [centre + t for t in taken], prefer)
+
+    def _fed_directions(self, hydrogen: Optional[int], holder: int, k: int) -> list[complex]:
+        """From `holder`, the directions to the atoms whose bond to it the pair of its bond to
+        `hydrogen` goes into: the arrow between the two bonds needs the open angle between them
+        (in a tight angle it is a knot over the holder)."""
+        here = self.positions[k]
+        return [_unit(here[x] - here[holder]) for x in self.feeds.get((hydrogen, holder), ()) if x in here]
 
     def _zigzag(self, atom: int, k: int, taken: Sequence[complex] = ()) -> Optional[complex]:
         """For an atom with one bond: the direction that continues a zigzag chain (parallel to
@@ -1164,12 +1195,15 @@ class _LayoutBuilder:
         best = None
         round_about = None
         partners = self._other_hops(index, segment, k, hydrogen) if kind == "hop" else []
+        fed = self._fed_directions(hydrogen, anchor, k) if kind == "hop" else []
         if partners:
-            best = self._nearest_to_partners(cluster, mover, placements, polygons, partners)
+            best = self._nearest_to_partners(cluster, mover, placements, polygons, partners, fed)
         # In order of preference; the first that keeps its distance from everything wins.
         for gap, blocked, moved, direction, rotation, target in (placements if best is None else ()):
             if best is not None and (min(gap, _CLEARANCE), not blocked) <= best[0]:
                 continue
+            if any(abs(cmath.phase(direction / f)) < _FED_ANGLE for f in fed):
+                continue      # the hydrogen would stand in the angle its bond's pair goes into
             if any(_inside(complex(p), poly) for p in moved for poly in polygons):
                 continue      # never inside someone else's ring
             best = ((min(gap, _CLEARANCE), not blocked), rotation, target - depicted[mover] * rotation, direction)
@@ -1245,7 +1279,8 @@ class _LayoutBuilder:
         return out
 
     def _nearest_to_partners(self, cluster: _Cluster, mover: int, placements: _Placements,
-                             polygons: list[list[complex]], partners: list[tuple[int, complex]]) -> Optional[tuple]:
+                             polygons: list[list[complex]], partners: list[tuple[int, complex]],
+                             fed: list[complex] = ()) -> Optional[tuple]:
         """Among the placements clear of everything (tried further round the anchor than a single
         hop needs) and from which the arrow crosses no wall, the one that also keeps the
         cluster's other hop partners within reach of an arrow (PARTNER_REACH), in order of
@@ -1266,6 +1301,8 @@ class _LayoutBuilder:
         score = _PARTNER_PREFERENCE + 30.0 * miss
         # The cheapest first (equal scores keep the options' order); the clearance tests cost
         # more, so they run on a few spots at a time, growing as the search goes on.
+        for f in fed:      # the hydrogen would stand in the angle its bond's pair goes into
+            room &= np.array([abs(cmath.phase(d / f)) >= _FED_ANGLE for d in directions])
         order = np.flatnonzero(room)
         order = order[np.argsort(score[order], kind="stable")]
         start, size = 0, 8
@@ -1509,7 +1546,12 @@ class _LayoutBuilder:
                         walls.add((a, b))
         crossed_now = any(_segments_cross(0j, r.direction, a, b) for a, b in walls)
         room_now = room(r.direction)
-        if room_now >= _HYDROGEN_ROOM and miss(r.direction) == 0.0 and not crossed_now:
+        fed = self._fed_directions(r.hydrogen, r.holder, panels[0])
+
+        def cramped(direction: complex) -> bool:
+            return any(abs(cmath.phase(direction / f)) < _FED_ANGLE for f in fed)
+
+        if room_now >= _HYDROGEN_ROOM and miss(r.direction) == 0.0 and not crossed_now and not cramped(r.direction):
             return
         walls = np.array(sorted(walls, key=lambda w: (w[0].real, w[0].imag)), dtype=complex).reshape(-1, 2)
 
@@ -1522,15 +1564,15 @@ class _LayoutBuilder:
                  for x in self.neighbours[r.holder] if x != r.hydrogen and x in self.positions[panels[0]]]
         polygons = [[self.positions[k][a] for a in ring] for k in panels for ring in self._closed_rings(k)]
         # Clear of every atom and bond first, then of bonds at least; among those, room and a comfortable hop.
-        best, best_score = r.direction, (room_now >= _HYDROGEN_ROOM and not crossed_now, not crossed_now,
-                                         min(room_now, 1.2) + 0.1 - miss(r.direction))
+        best, best_score = r.direction, (not cramped(r.direction), room_now >= _HYDROGEN_ROOM and not crossed_now,
+                                         not crossed_now, min(room_now, 1.2) + 0.1 - miss(r.direction))
         compass = _HYDROGEN_COMPASS
         rooms = (np.abs(relative - _HYDROGEN_COMPASS_ARRAY[:, None]).min(axis=1).tolist() if len(relative)
                  else [math.inf] * len(compass))
         for d, space, crossed in zip(compass, rooms, crossing(compass)):
-            score = (space >= _HYDROGEN_ROOM and not crossed, not crossed,
+            score = (not cramped(d), space >= _HYDROGEN_ROOM and not crossed, not crossed,
                      min(space, 1.2) + 0.1 * (d / r.direction).real - miss(d))
-            if not (score[:2] > best_score[:2] or (score[:2] == best_score[:2] and score[2] > best_score[2] + 0.05)):
+            if not (score[:3] > best_score[:3] or (score[:3] == best_score[:3] and score[3] > best_score[3] + 0.05)):
                 continue
             # Only a direction that would win is asked whether it is allowed at all.
             if any(abs(cmath.phase(d / b)) < math.radians(35) for b in bonds):
