@@ -35,11 +35,11 @@ Pair = tuple[int, int]
 def configured_centres(state: ElectronState) -> dict[int, tuple[list[int], int]]:
     """The tetrahedral stereocentres of `state` that carry a configuration: for each, its
     neighbours in the order RDKit reads the chiral tag against (the bonded atoms in bond order,
-    then -1 for each hydrogen held as a count: RDKit puts those last, checked against
-    F[C@H](Cl)Br and [C@H](F)(Cl)Br, memory of the SMILES rules aside) and the sign a tetrahedron
-    of those neighbours must have (RDKit's CHI_TETRAHEDRAL_CCW gives a negative determinant of
-    v1-v0, v2-v0, v3-v0, checked on embedded conformers). A tag on an atom that RDKit's perception
-    does not find stereogenic is not a configuration."""
+    then -1 for each hydrogen held as a count, which RDKit reads as coming last: checked on the
+    tags it gives F[C@H](Cl)Br and [C@H](F)(Cl)Br) and the sign a tetrahedron of those neighbours
+    must have (RDKit's CHI_TETRAHEDRAL_CCW gives a negative determinant of v1-v0, v2-v0, v3-v0,
+    checked on conformers it embedded). A tag on an atom that RDKit's perception does not find
+    stereogenic is not a configuration. tests/test_draw_stereo.py judges the outcome."""
     if not state.configured:
         return {}
     from ..judgement.stereo import CENTRE, stereo_elements
