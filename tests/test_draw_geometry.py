@@ -23,6 +23,7 @@ from rdkit import Chem
 import arrows
 from arrows.draw import STYLES, build_scene
 
+from stereo_mechanisms import CENTRES, DOUBLE_BONDS
 from textbook_mechanisms import TEXTBOOK
 
 ROOT = Path(__file__).resolve().parents[1]
@@ -171,6 +172,8 @@ def _mechanisms():
     out = [pytest.param(path.read_text(encoding="utf-8"), path.name, id=path.stem) for path in GALLERY]
     out += [pytest.param(text, name, id=name) for name, text in OWN.items()]
     out += [pytest.param(text, name, id=name.replace(" ", "-")) for name, (text, _, drawn) in TEXTBOOK.items() if drawn]
+    out += [pytest.param(text, name, id=name.replace(" ", "-").replace(",", "")) for name, text in
+            (CENTRES | DOUBLE_BONDS).items()]   # wedges, and double bonds drawn Z
     return out
 
 

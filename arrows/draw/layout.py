@@ -176,6 +176,40 @@ def free_direction(centre: complex, others: Sequence[complex], prefer: Optional[
     return cmath.rect(1.0, best_mid)
 
 
+def _written_double_bonds(states: Sequence[ElectronState]) -> dict[tuple[int, int], tuple[int, int, bool]]:
+    """(i, j) -> (a, b, cis) for each double bond i=j (i < j) with a written E or Z in some state
+    (the first such state decides): a on i and b on j are cis or trans. RDKit's stereo perception
+    reads the written bond directions; its stereo atoms are the substituents E and Z refer to."""
+    found: dict[tuple[int, int], tuple[int, int, bool]] = {}
+    # A SMILES's / and \ stay on its single bonds as directions (ElectronState.configured does
+    # not see them: RDKit leaves E and Z unassigned on a SMILES read without sanitizing), and atoms
+    # are only appended: the last state holds every direction written.
+    last = states[-1].mol if states else None
+    if last is None or not any(last.GetBondWithIdx(k).GetBondDir() in _DIRECTIONS for k in range(last.GetNumBonds())):
+        return found
+    for state in states:
+        mol = Chem.Mol(state.mol)
+        try:
+            Chem.SanitizeMol(mol)
+            Chem.AssignStereochemistry(mol, cleanIt=True, force=True)
+        except Exception:   # a state RDKit will not perceive gives no E or Z
+            continue
+        for bond in mol.GetBonds():
+            stereo = bond.GetStereo()
+            if stereo in _CIS or stereo in _TRANS:
+                i, j = bond.GetBeginAtomIdx(), bond.GetEndAtomIdx()
+                a, b = bond.GetStereoAtoms()
+                if i > j:
+                    i, j, a, b = j, i, b, a
+                found.setdefault((i, j), (a, b, stereo in _CIS))
+    return found
+
+
+_DIRECTIONS = (Chem.BondDir.ENDUPRIGHT, Chem.BondDir.ENDDOWNRIGHT)
+_CIS = (Chem.BondStereo.STEREOZ, Chem.BondStereo.STEREOCIS)
+_TRANS = (Chem.BondStereo.STEREOE, Chem.BondStereo.STEREOTRANS)
+
+
 def _molecules(state: ElectronState) -> tuple[tuple[int, ...], ...]:
     """The atoms of each separate molecule of a state."""
     return Chem.GetMolFrags(state.mol, asMols=False, sanitizeFrags=False)
@@ -486,6 +520,8 @@ class _LayoutBuilder:
             self.orders_in.append(orders)
             self.holders.append(holders)
             self.bonds_in.append(set(orders))
+        # The double bonds a species wrote E or Z for, which the depiction must draw so.
+        self.written_double = _written_double_bonds(self.states)
         self.neighbours: dict[int, set[int]] = {i: set() for i in self.atoms}
         for i, j in self.union:
             self.neighbours[i].add(j)
@@ -917,6 +953,13 @@ class _LayoutBuilder:
             if i in index and j in index and (only is None or (i, j) in only):
                 mol.AddBond(index[i], index[j], orders.get(order, Chem.BondType.SINGLE))
                 ends.append((index[i], index[j]))
+        for (i, j), (a, b, cis) in self.written_double.items():
+            # RDKit's depictor draws a double bond cis or trans when its bond says so.
+            bond = mol.GetBondBetweenAtoms(index[i], index[j]) if i in index and j in index else None
+            if bond is not None and a in index and b in index and bond.GetBondType() == Chem.BondType.DOUBLE:
+                bond.SetStereoAtoms(index[a] if bond.GetBeginAtomIdx() == index[i] else index[b],
+                                    index[b] if bond.GetBeginAtomIdx() == index[i] else index[a])
+                bond.SetStereo(Chem.BondStereo.STEREOCIS if cis else Chem.BondStereo.STEREOTRANS)
         mol.UpdatePropertyCache(strict=False)
         Chem.FastFindRings(mol)
         for atom in group:   # the depictor draws an atom straight (a nitrile, an alkyne, an allene) only if told

@@ -80,6 +80,12 @@ class BondDrawing:
     lines: tuple[tuple[Point, Point], ...]
     role: str = "plain"            # plain, formed (by the step arriving), broken (by the step leaving)
     colour: str = "#000000"
+    # A stereo bond (IUPAC 2006): "solid", a filled wedge (`outline`; its `lines` are the
+    # outline's edges), or "hashed" (its `lines` are the hashes), narrow at the stereocentre
+    # `narrow`; "" for a bond in the plane.
+    wedge: str = ""
+    narrow: Optional[int] = None
+    outline: tuple[Point, ...] = ()
 
 
 @dataclass(frozen=True)

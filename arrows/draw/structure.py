@@ -24,11 +24,13 @@ from .scene import AtomDrawing, BondDrawing, Box, Mark, TextRun
 from .styles import BROKEN_COLOUR, FORMED_COLOUR, INK, Style
 from .formula import MINUS
 from .text import FontFace
+from .wedges import HASHED, SOLID, choose_wedges, configured_centres
 
 # Hydrogens of an isolated atom go before the symbol for these elements (H2O, HO-, H2S, HCl):
 # common practice in chemical formulas.
 _HYDROGEN_FIRST = {8, 9, 16, 17, 34, 35, 53}
 _DESCENDERS = frozenset("()gjpqy")   # characters that reach below the baseline
+_DOUBLE_GAP = 0.18   # bond lengths between the two lines of a double bond
 
 
 @dataclass
@@ -230,11 +232,17 @@ class StructureDrawer:
         on_ring = any(order == 2 and i in shown and j in shown and _closes_cycle(i, j, adjacent)
                       for i, j, order in bonds)
         rings = [list(r) for r in Chem.GetSymmSSSR(mol)] if on_ring else []
+        # Wedges only where a species wrote a configuration: no work per bond otherwise.
+        wedges = self._wedges(state, atoms, adjacent, neighbours, out, bonds, formed | broken) if state.configured else {}
         for i, j, order in bonds:
             if i in shown and j in shown:
                 key = (i, j) if i < j else (j, i)
                 role = "broken" if key in broken else "formed" if key in formed else "plain"
-                out.bonds.append(self._bond(i, j, order, role, out, neighbours, rings))
+                if wedges and ((i, j) in wedges or (j, i) in wedges):
+                    narrow, wide = (i, j) if (i, j) in wedges else (j, i)
+                    out.bonds.append(self._wedge(narrow, wide, wedges[(narrow, wide)], role, out))
+                else:
+                    out.bonds.append(self._bond(i, j, order, role, out, neighbours, rings))
         for i in visible:
             self._charge_and_radical(atoms[i], i, out, ahead[i])
         if self.style.numbers:
@@ -398,7 +406,7 @@ class StructureDrawer:
         box_i, box_j = out.atoms[i].box, out.atoms[j].box
         u = (q - p) / (abs(q - p) or 1.0)
         n = u * 1j
-        gap = 0.18 * bl
+        gap = _DOUBLE_GAP * bl
 
         def line(offset: complex, trim: float = 0.0) -> tuple[complex, complex]:
             """A stroke parallel to the bond, clipped at labels; at a bare vertex a centred
@@ -426,6 +434,53 @@ class StructureDrawer:
             colour = BROKEN_COLOUR
         out.bond_extent[(min(i, j), max(i, j))] = extent
         return BondDrawing((i, j), order, tuple([((s.real, s.imag), (e.real, e.imag)) for s, e in lines]), role, colour)
+
+    def _wedges(self, state: ElectronState, atoms: dict[int, Chem.Atom], adjacent: list[list[int]],
+                neighbours: dict[int, list[int]], out: PanelStructure, bonds: list[tuple[int, int, int]],
+                changing: set[tuple[int, int]]) -> dict[tuple[int, int], str]:
+        """(stereocentre, other atom) -> kind, for the bonds wedged on this panel (wedges.py)."""
+        centres = configured_centres(state)
+        if not centres:
+            return {}
+        elements = state.elements
+
+        def hydrogens(n: int) -> int:
+            return atoms[n].GetTotalNumHs() + sum(1 for m in adjacent[n] if elements[m] == 1)
+
+        single = {(min(i, j), max(i, j)) for i, j, order in bonds
+                  if order == 1 and (i in centres or j in centres) and i in out.positions and j in out.positions}
+        return choose_wedges(centres, out.positions, single, changing, neighbours, hydrogens,
+                             lambda a, b: _closes_cycle(a, b, adjacent))
+
+    def _wedge(self, narrow: int, wide: int, kind: str, role: str, out: PanelStructure) -> BondDrawing:
+        """A solid or hashed wedge from a point at `narrow` to its full width at `wide`, each end
+        stopping short of a label as other bonds do. The wide end is as broad as a double bond
+        drawn here with its two strokes (their gap and one line width): a wedge reads as one bond
+        among the others (common practice, memory). Hashes are about as far apart as the lines of
+        a double bond, five to eight of them."""
+        bl, pad = self.style.bond_length, 0.12 * self.style.font_size
+        p, q = out.positions[narrow], out.positions[wide]
+        start = clip_from(p, q, out.atoms[narrow].box, pad)
+        end = clip_from(q, p, out.atoms[wide].box, pad)
+        half = (_DOUBLE_GAP * bl + self.style.line_width) / 2
+        across = (q - p) / (abs(q - p) or 1.0) * 1j * half
+        colour = INK
+        if self.style.color and role in ("formed", "broken"):
+            colour = FORMED_COLOUR if role == "formed" else BROKEN_COLOUR
+        out.bond_extent[(min(narrow, wide), max(narrow, wide))] = half
+        if kind == SOLID:
+            corners = (start, end + across, end - across)
+            outline = tuple((c.real, c.imag) for c in corners)
+            lines = tuple((outline[k], outline[(k + 1) % 3]) for k in range(3))
+            return BondDrawing((narrow, wide), 1, lines, role, colour, SOLID, narrow, outline)
+        count = max(5, min(8, round(abs(end - start) / (_DOUBLE_GAP * bl))))
+        hashes = []
+        for k in range(1, count + 1):
+            t = k / count
+            middle = start + (end - start) * t
+            a, b = middle + across * t, middle - across * t
+            hashes.append(((a.real, a.imag), (b.real, b.imag)))
+        return BondDrawing((narrow, wide), 1, tuple(hashes), role, colour, HASHED, narrow)
 
     @staticmethod
     def _join(vertex: complex, u: complex, offset: complex, positions: dict[int, complex], neighbours: list[int],

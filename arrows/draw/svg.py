@@ -60,6 +60,9 @@ def _panel(panel: Panel, line_width: float, bond_paths: dict, written: dict) -> 
     scene hands the same drawing to every panel where nothing about it changed."""
     strokes, fills = [], []
     for bond in panel.bonds:
+        if bond.outline:   # a solid wedge is filled, not stroked
+            fills.append(_polygon(bond.outline, bond.colour))
+            continue
         element = written.get(id(bond))
         if element is None:
             path = bond_paths.get(bond.lines)

@@ -1,0 +1,45 @@
+"""Demo mechanisms of our own whose species write a configuration (@, @@, / and \\): the figures
+must show it (test_draw_stereo.py) and keep their geometry (test_draw_geometry.py)."""
+
+# Stereocentres, each with the textbook outcome it must show.
+CENTRES = {
+    # Cyanide at C1 of (2S,3S)-3-bromobutan-2-ol (also in test_stereo.py): two neighbouring
+    # stereocentres, one inverted (SN2), the carbinol carbon untouched.
+    "two centres, one inverted": 'species substrate = "C[C@H:1]([Br:3])[C@@H:4](C)O"\n'
+                                 'species cyanide = "[C-:2]#N"\n'
+                                 'step "displacement"\n    :C2 -> C1\n    C1-Br3 -> Br3\nend\n',
+    # SN1 at a quaternary centre (four drawn substituents): the cation is planar, the capture
+    # racemises, so the product panel carries no wedge.
+    "sn1 racemises": 'species substrate = "CC[C@@:1](C)(CC(C)C)[Br:2]"\nspecies water = "[OH2:3]"\n'
+                     'step "ionisation"\n    C1-Br2 -> Br2\nend\nstep "capture"\n    :O3 -> C1\nend\n',
+    # (R)-3-methylcyclohexanone deprotonated at C6, away from its ring stereocentre, which keeps its
+    # configuration: the wedge goes to the methyl, not along the ring.
+    "ring centre kept": 'species ketone = "C[C@@H]1C[C:1](=[O:2])[CH2:3]CC1"\nspecies base = "[OH-:4]"\n'
+                        'step "enolate"\n    :O4 -> H(C3)\n    C3-H -> C3=C1\n    C1=O2 -> O2\nend\n',
+    # The same at C6 of (R)-3-tert-butylcyclohexanone: the tert-butyl carbon, bare of hydrogen,
+    # still takes the wedge before a ring CH2.
+    "ring centre, bulky group": 'species ketone = "CC(C)(C)[C@@H]1CC[CH2:3][C:1](=[O:2])C1"\n'
+                                'species base = "[OH-:4]"\n'
+                                'step "enolate"\n    :O4 -> H(C3)\n    C3-H -> C3=C1\n    C1=O2 -> O2\nend\n',
+    # SN2 next to a second stereocentre whose other bonds go to atoms bare of hydrogen (an ether
+    # oxygen, a tert-butyl carbon): the bond between the two centres is still not wedged.
+    "neighbouring centres": 'species substrate = "CO[C@@H](C(C)(C)C)[C@H:1](C)[Br:2]"\nspecies base = "[OH-:3]"\n'
+                            'step "sn2"\n    :O3 -> C1\n    C1-Br2 -> Br2\nend\n',
+    # (S)-3-methylpentan-2-one loses its alpha hydrogen, which is drawn while it moves: the wedge
+    # keeps off that breaking bond; the enolate has no stereocentre left (textbook: base-catalysed
+    # racemisation goes through it).
+    "alpha proton removed": 'species ketone = "CC[C@H:1](C)[C:2](C)=[O:3]"\nspecies base = "[OH-:4]"\n'
+                            'step "enolate"\n    :O4 -> H(C1)\n    C1-H -> C1=C2\n    C2=O3 -> O3\nend\n',
+}
+
+# Double bonds with a written E or Z that no step touches.
+DOUBLE_BONDS = {
+    "E acid": 'species acid = "C/C=C/C(=O)[OH:1]"\nspecies base = "[OH-:2]"\n'
+              'step "deprotonation"\n    :O2 -> H(O1)\n    O1-H -> O1\nend\n',
+    "Z acid": 'species acid = "C/C=C\\\\C(=O)[OH:1]"\nspecies base = "[OH-:2]"\n'
+              'step "deprotonation"\n    :O2 -> H(O1)\n    O1-H -> O1\nend\n',
+    "Z chain": 'species alkene = "CC/C=C\\\\CC[CH2:1][Br:2]"\nspecies base = "[OH-:3]"\n'
+               'step "sn2"\n    :O3 -> C1\n    C1-Br2 -> Br2\nend\n',
+    "Z with a centre": 'species alkene = "C/C=C\\\\[C@@H](C)[CH2:1][Br:2]"\nspecies base = "[OH-:3]"\n'
+                       'step "sn2"\n    :O3 -> C1\n    C1-Br2 -> Br2\nend\n',
+}
