@@ -296,6 +296,33 @@ def test_a_stereocentre_the_moves_do_not_touch_keeps_its_configuration_and_the_p
     assert "C[C@@H](O)CCO" in _without_maps(trace.final.mol).split(".")
 
 
+@pytest.mark.parametrize("smiles", ["C/C=C/C(=O)[OH:1]", "C/C=C\\C(=O)[OH:1]"])
+def test_a_written_e_or_z_double_bond_the_moves_do_not_touch_is_kept(smiles):
+    """Deprotonating (E)- or (Z)-but-2-enoic acid leaves the C=C alone: the carboxylate keeps the
+    written geometry (RDKit judges: its canonical SMILES of the written anion) and no AR602
+    counts two stereoisomers. Read without sanitizing, the written E/Z was only a direction on the
+    neighbouring bonds, which the bookkeeping did not see as a configuration: the product was
+    reported as free to be E or Z."""
+    text = f'species acid = "{smiles}"\nspecies base = "[OH-:2]"\nstep "deprotonation"\n' \
+           '    :O2 -> H(O1)\n    O1-H -> O1\nend\n'
+    trace, diags = check_text(text)
+    assert [d.to_text() for d in diags if d.code == "AR602" or d.severity == "error"] == []
+    anion = Chem.MolToSmiles(Chem.MolFromSmiles(smiles.replace("[OH:1]", "[O-]")))
+    assert anion in _without_maps(trace.final.mol).split(".")
+
+
+def test_a_step_at_a_written_double_bond_forgets_its_geometry():
+    """HBr adds to (E)-pent-2-ene through the pent-2-yl cation: the double bond is gone and the new
+    centre of 2-bromopentane can take either configuration (2 stereoisomers, textbook: a planar
+    cation is attacked from either face)."""
+    text = ('species alkene = "C/[CH:1]=[CH:2]/CC"\nspecies acid = "[H:3][Br:4]"\n'
+            'step "protonation"\n    C1=C2 -> C2-H3\n    H3-Br4 -> Br4\nend\n'
+            'step "capture"\n    :Br4 -> C1\nend\n')
+    trace, diags = check_text(text)
+    assert [d.to_text() for d in diags if d.severity == "error"] == []
+    assert any(d.code == "AR602" and "2 stereoisomers can form" in d.message for d in diags)
+
+
 # 3-methylpentan-2-one and hydroxide: the C3 enolate forms and takes its proton back, twice. Demo
 # data; every other state is the starting one again, with another of the equal hydrogens on C3.
 KETONE_SHUTTLE = '''\
