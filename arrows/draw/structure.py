@@ -14,6 +14,7 @@ import cmath
 import math
 from dataclasses import dataclass, field
 from functools import lru_cache
+from itertools import islice
 from typing import Iterator, Optional
 
 from rdkit import Chem
@@ -147,6 +148,9 @@ def _compass(steps: int) -> tuple[complex, ...]:
 
 _SIDE_TEXT_CLEARANCE = 0.25   # bond lengths between text beside a skeletal vertex and its bond lines
 _ENOUGH_ROOM = math.radians(75)   # more room than this around a direction counts as no better
+
+
+_FAR_SLIDE = 6     # steps of 0.03 bond lengths: side text slid this far out has left its atom
 
 
 def best_direction(occupied: list[complex], preferred: complex, spread: float = 0.25, steps: int = 24) -> complex:
@@ -592,12 +596,32 @@ class StructureDrawer:
 
     def _side_text(self, kind: str, i: int, text: str, out: PanelStructure, preferred: complex,
                    italic: bool = False) -> Mark:
+        """Small text beside atom i (a charge, a map number, a CIP label): in the roomiest direction
+        round the atom, leaning to `preferred`, that keeps the text off other atoms' labels and
+        the marks already placed (else the roomiest)."""
         size = self.style.small_size
         face = self.italic if italic else self.face
         width = face.width(text, size)
         cap = face.cap_height * size
-        direction = best_direction(out.occupied[i], preferred)
+        pad = 0.05 * self.style.font_size
+        others = [a.box for j, a in out.atoms.items() if j != i and a.box is not None] + \
+                 [m.box for m in out.marks if m.box is not None]
+        best = None
+        for direction in islice(ranked_directions(out.occupied[i], preferred), 12):
+            mark, slid = self._side_text_at(kind, i, text, out, direction, width, cap, size, italic)
+            # Slid far out along a crowded direction, the text no longer reads as the atom's.
+            fault = (any(mark.box.overlaps(b, pad) for b in others), slid >= _FAR_SLIDE)
+            if best is None or fault < best[0]:
+                best = (fault, direction, mark)
+            if fault == (False, False):
+                break
+        _, direction, mark = best
         out.occupied[i].append(direction)
+        return mark
+
+    def _side_text_at(self, kind: str, i: int, text: str, out: PanelStructure, direction: complex,
+                      width: float, cap: float, size: float, italic: bool) -> tuple[Mark, int]:
+        """The mark in `direction`, and how many steps it slid out to clear a vertex's bonds."""
         centre = out.positions[i]
         half = max(width, cap) / 2
         reach = out.label_reach(i, direction) or 0.18 * self.style.bond_length
@@ -608,11 +632,14 @@ class StructureDrawer:
             # lines, so a sign never reads as part of a bond end.
             bl = self.style.bond_length
             lines = [(centre, centre + d * bl) for d in out.bond_directions.get(i, ())]
-            for _ in range(12):
+            for slid in range(12):
                 if not lines or min(_box_to_segment(self.text_box(run), p, q) for p, q in lines) >= _SIDE_TEXT_CLEARANCE * bl:
                     break
                 run = TextRun(text, run.x + direction.real * 0.03 * bl, run.y + direction.imag * 0.03 * bl, size, italic=italic)
-        return Mark(kind, i, (run,), box=self.text_box(run))
+            else:
+                slid = 12
+            return Mark(kind, i, (run,), box=self.text_box(run)), slid
+        return Mark(kind, i, (run,), box=self.text_box(run)), 0
 
     def radical_dot(self, i: int, out: PanelStructure, preferred: complex) -> Mark:
         direction = best_direction(out.occupied[i], preferred)
