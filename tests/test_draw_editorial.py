@@ -298,3 +298,27 @@ def test_map_numbers_cip_labels_and_charges_keep_off_other_atoms_labels():
                            and mark.box.overlaps(a.box)]
                     assert not hit, (name, panel.index, mark.kind, mark.atom, hit)
     assert seen > 1000
+
+
+@pytest.mark.parametrize("source", ["gallery", "textbook"])
+def test_an_sn2_nucleophile_comes_in_opposite_the_leaving_group(source):
+    """SN2: the nucleophile is drawn on the far side of the carbon from the leaving group, the
+    three on one line (backside attack, Walden inversion; textbook, and how every organic text
+    draws it). Both the gallery's cyanide and the textbook hydroxide waited on the leaving
+    group's own side: nucleophile-carbon-bromine 0 degrees; at least 150 now."""
+    from textbook_mechanisms import TEXTBOOK
+    if source == "gallery":
+        _, scene = _scene("08-sn2-cyanide")
+    else:
+        trace, diags = arrows.check_text(TEXTBOOK["sn2 inversion"][0], "sn2.mech")
+        scene = build_scene(trace, STYLES["two-column"], diags)
+    panel = scene.panels[0]
+    where = {a.index: complex(*a.position) for a in panel.atoms}
+    attack, = [a for a in panel.arrows if a.source_kind == "lone_pair"]
+    leaving, = [a for a in panel.arrows if a.source_kind == "bond"]
+    nucleophile = attack.source_atoms[0]
+    centre, = [i for i in attack.sink_atoms if i != nucleophile]
+    assert centre in leaving.source_atoms
+    group = leaving.sink_atoms[0]
+    angle = abs(math.degrees(cmath.phase((where[nucleophile] - where[centre]) / (where[group] - where[centre]))))
+    assert angle >= 150, angle

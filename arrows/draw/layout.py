@@ -57,6 +57,7 @@ _HYDROGEN_COMPASS = tuple(cmath.rect(1.0, step * math.pi / 12) for step in range
 _HYDROGEN_COMPASS_ARRAY = np.array(_HYDROGEN_COMPASS)
 _SEVENTY = math.radians(70)
 _SIXTY = math.radians(60)
+_BACKSIDE_ROOM = math.radians(55)   # a nucleophile's line of approach from the centre's other bonds
 # Ways to place a cluster next to its partner, in order of preference: (penalty, turn of the
 # approach line in 20-degree steps, spin of the cluster in 30-degree steps, extra distance). A
 # proton partner keeps close: half a bond length further out costs as much as an 80-degree turn.
@@ -527,6 +528,7 @@ class _LayoutBuilder:
             self.neighbours[i].add(j)
             self.neighbours[j].add(i)
         self.positions: list[dict[int, complex]] = [dict() for _ in range(self.n)]
+        self.backside = self._backside_substitutions()
         self.molecules = [_molecules(state) for state in self.states]
         self.joining = [_joining(self.states[k], self.molecules[k], self.molecules[k + 1])
                         for k in range(self.n - 1)] + [set()]
@@ -1152,6 +1154,54 @@ class _LayoutBuilder:
                 return complex(_COMPASS[index])
         return free_direction(centre, [centre + t for t in taken], prefer)
 
+    def _backside_substitutions(self) -> dict[tuple[int, int], tuple[int, int]]:
+        """(panel of arrival, entering atom) -> (centre, leaving atom) for each step in which one
+        single bond to a heavy atom forms at the centre and one single bond from it breaks, the
+        two partners not bonded to each other (an SN2, an epoxide or bromonium opening; not a
+        1,2-shift, whose group slides between two bonded atoms). The nucleophile is drawn coming
+        in opposite the leaving group (backside attack, common practice)."""
+        out = {}
+        for k in range(self.n - 1):
+            before, after = self.bonds_in[k], self.bonds_in[k + 1]
+            gained: dict[int, list[int]] = {}
+            lost: dict[int, list[int]] = {}
+            for bonds, into in ((after - before, gained), (before - after, lost)):
+                for i, j in bonds:
+                    into.setdefault(i, []).append(j)
+                    into.setdefault(j, []).append(i)
+            for centre, entering in gained.items():
+                leaving = lost.get(centre, [])
+                if len(entering) != 1 or len(leaving) != 1 or self.element[centre] == 1:
+                    continue
+                e, l = entering[0], leaving[0]
+                pairs = [(min(centre, e), max(centre, e)), (min(centre, l), max(centre, l))]
+                if (self.element[e] == 1 or self.element[l] == 1 or self.orders_in[k + 1][pairs[0]] != 1
+                        or self.orders_in[k][pairs[1]] != 1 or (min(e, l), max(e, l)) in before | after):
+                    continue
+                out[(k + 1, e)] = (centre, l)
+        return out
+
+    def _backside_axis(self, centre: int, k: int, skip: set[int]) -> Optional[complex]:
+        """The direction for a leaving group at `centre` in panel k such that it and its opposite,
+        where the nucleophile comes in, both keep _BACKSIDE_ROOM from the centre's other
+        bonds; the leaving group on the right of two equal choices (the scheme reads left to
+        right). None when no direction does."""
+        here = self.positions[k]
+        others = [_unit(here[n] - here[centre]) for n in self.neighbours[centre]
+                  if n not in skip and n in here and n in self.exists[k]]
+        if not others:
+            return None
+        def room_at(directions: np.ndarray) -> np.ndarray:
+            turns = directions[:, None] / np.array(others)[None, :]
+            return np.abs(np.arctan2(turns.imag, turns.real)).min(axis=1)
+        own, opposite = room_at(_COMPASS), room_at(-_COMPASS)
+        room = np.minimum(own, opposite)
+        # The leaving group, drawn a bond length out, takes the roomier side of the line; the
+        # nucleophile waits further out on the other.
+        score = np.minimum(room, _SEVENTY) + 0.1 * (own > opposite) + 0.05 * _COMPASS.real
+        best = int(np.argmax(score))
+        return complex(_COMPASS[best]) if room[best] >= _BACKSIDE_ROOM else None
+
     def _fed_directions(self, hydrogen: Optional[int], holder: int, k: int) -> list[complex]:
         """From `holder`, the directions to the atoms whose bond to it the pair of its bond to
         `hydrogen` goes into: the arrow between the two bonds needs the open angle between them
@@ -1205,8 +1255,13 @@ class _LayoutBuilder:
                        hydrogen: Optional[int]) -> None:
         cluster = self.clusters[index]
         residence = self._residence_at(hydrogen, anchor, k) if hydrogen is not None else None
+        leaves = [e for (arrival, e), (centre, l) in self.backside.items()
+                  if kind == "bond" and centre == anchor and l == mover and arrival == segment[1] + 1]
+        axis = self._backside_axis(anchor, k, {mover, leaves[0]}) if leaves else None
         if residence is not None and residence.direction is not None and residence.last == k:
             u = residence.direction
+        elif axis is not None:
+            u = axis   # the leaving group on a line through the centre that the nucleophile can come in on
         else:
             u = self._roomiest(anchor, k, hydrogen)
         depicted = cluster.local_at(k)
@@ -1421,6 +1476,28 @@ class _LayoutBuilder:
                 best = (score, moved)
         return (rotation, best[1], direction, pull_back)
 
+    def _backside_arrival(self, cluster: _Cluster, first: int, placement: tuple) -> tuple:
+        """A nucleophile about to displace a leaving group waits on the far side of the centre
+        from it (backside attack): its placement at arrival turned about the centre until the
+        entering atom stands opposite the leaving group, when that line is clear of the centre's
+        other bonds; otherwise `placement` as it is. Only the panel it waits in is affected."""
+        rotation, shift, direction, pull_back = placement
+        entering = [(e, self.backside[(first, e)]) for e in cluster.atoms if (first, e) in self.backside]
+        if direction is None or len(entering) != 1:
+            return placement
+        e, (centre, leaving) = entering[0]
+        before = self.positions[first - 1]
+        if centre not in before or leaving not in before or centre not in self.positions[first]:
+            return placement
+        toward = -_unit(before[leaving] - before[centre])
+        others = [_unit(before[n] - before[centre]) for n in self.neighbours[centre]
+                  if n not in (e, leaving) and n in before and n in self.exists[first - 1]]
+        if any(abs(cmath.phase(toward / o)) < _BACKSIDE_ROOM for o in others):
+            return placement
+        turn = toward / direction
+        anchor = self.positions[first][centre]
+        return (turn * rotation, anchor + turn * (shift - anchor), toward, pull_back)
+
     def _place_waiting(self) -> bool:
         """In the run just before a cluster's first placed run it waits a little further out
         along the line it will come in on (only atoms the next step touches may move, and a new
@@ -1435,7 +1512,8 @@ class _LayoutBuilder:
             if not earlier or earlier[-1][0] in cluster.placement:
                 continue
             start, end = earlier[-1]
-            cluster.placement[start] = self._waiting(index, (start, end), cluster.placement[first], first)
+            arrival = self._backside_arrival(cluster, first, cluster.placement[first])
+            cluster.placement[start] = self._waiting(index, (start, end), arrival, first)
             cluster.waited.add(start)
             self._apply(index)
             return True
