@@ -1269,11 +1269,16 @@ class _LayoutBuilder:
                   if n in self.positions[k] and n not in depicted and self.element[n] != 1]
         if kind == "bond" and self._linear(anchor, range(k, k + 1)) and len(placed) == 1:
             u = _unit(self.positions[k][anchor] - placed[0])   # straight on through an sp atom
-        own = [depicted[n] for n in self.neighbours[mover] if n in depicted]
-        v = free_direction(depicted[mover], own, prefer=-u)
-        if len(own) == 1 and kind == "bond" and not self._linear(mover, range(k, k + 1)):
-            # A chain end bonds on at 120 degrees, as in a zigzag, not straight on (a nitrile does).
-            v = v * cmath.rect(1.0, math.pi / 3)
+        v = self._joining_side(cluster, depicted, mover, u, kind, k)
+        if kind == "bond" and self._joins_cis(anchor, mover, u, v, depicted, k):
+            # A double bond between the two is drawn trans (below): the chain end bonds on at
+            # 120 degrees the other way round, a branched cluster is drawn mirrored.
+            if len([n for n in self.neighbours[mover] if n in depicted]) == 1:
+                v = self._joining_side(cluster, depicted, mover, u, kind, k, turn=-1)
+            elif not cluster.placement and not cluster.openings:
+                self._mirror(cluster)
+                depicted = cluster.local_at(k)
+                v = self._joining_side(cluster, depicted, mover, u, kind, k)
         distance = 1.0 if kind == "bond" else 1.0 + TRANSFER_GAP
         mine = set(cluster.atoms)
         others = {}
@@ -1322,6 +1327,56 @@ class _LayoutBuilder:
         self._apply(index)
         if hydrogen is not None:
             self._promise(hydrogen, anchor, k, direction, leave_after=round_about is not None)
+
+    def _joining_side(self, cluster: _Cluster, depicted: dict[int, complex], mover: int, u: complex, kind: str,
+                      k: int, turn: int = 1) -> complex:
+        """The direction, in the cluster's depiction, from `mover` to the atom it bonds to or
+        hops with: into its widest gap; a chain end bonds on at 120 degrees to its one bond
+        (`turn` says which way round), as in a zigzag, not straight on (a nitrile does)."""
+        own = [depicted[n] for n in self.neighbours[mover] if n in depicted]
+        v = free_direction(depicted[mover], own, prefer=-u)
+        if len(own) == 1 and kind == "bond" and not self._linear(mover, range(k, k + 1)):
+            v = v * cmath.rect(1.0, turn * math.pi / 3)
+        return v
+
+    def _joins_cis(self, anchor: int, mover: int, u: complex, v: complex, depicted: dict[int, complex],
+                   k: int) -> bool:
+        """Whether the bond anchor-mover, double in some panel, would put the largest branches
+        of its two ends on one side when the cluster comes in along u with v facing the anchor.
+        A chain double bond no species wrote E or Z for is drawn trans (the zigzag of common
+        practice, and the E alkene an E1cB or an aldol condensation is drawn as)."""
+        pair = (min(anchor, mover), max(anchor, mover))
+        if self.union.get(pair) != 2 or pair in self.written_double:
+            return False
+        here = self.positions[k]
+        sides = []
+        for end, other, where in ((anchor, mover, here), (mover, anchor, depicted)):
+            branches = [n for n in self.neighbours[end] if n != other and n in where and self.element[n] != 1]
+            if not branches:
+                return False
+            biggest = max(branches, key=lambda n: (self._branch_size(n, end), -n))
+            sides.append(where[biggest] - where[end])
+        # The cluster is turned so that v faces back along u: its offsets turn by -u / v.
+        anchor_side = (sides[0] / u).imag
+        mover_side = (sides[1] * (-u / v) / u).imag
+        return anchor_side * mover_side > 0
+
+    def _branch_size(self, start: int, parent: int) -> int:
+        """Atoms reached from `start` over the union's bonds without going back through `parent`."""
+        seen, todo = {parent, start}, [start]
+        while todo:
+            for n in self.neighbours[todo.pop()]:
+                if n not in seen:
+                    seen.add(n)
+                    todo.append(n)
+        return len(seen) - 1
+
+    @staticmethod
+    def _mirror(cluster: _Cluster) -> None:
+        """The cluster's depiction reflected (before it is placed anywhere): written configuration
+        is drawn from the coordinates in each panel, so it stays right."""
+        cluster.local = {a: p.conjugate() for a, p in cluster.local.items()}
+        cluster.phases = [(first, {a: p.conjugate() for a, p in later.items()}) for first, later in cluster.phases]
 
     def _clear_way_round(self, cluster: _Cluster, mover: int, hydrogen: Optional[int], segment: tuple[int, int],
                          placements: _Placements, polygons: list[list[complex]]) -> Optional[tuple]:
