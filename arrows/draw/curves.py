@@ -472,7 +472,9 @@ class ArrowPlanner:
                 arrive = along * cmath.rect(1.0, side * room / 2)
                 reach = panel.label_reach(atom, arrive)
                 tip = snk.point + arrive * (reach + 0.12 * self.fs if reach else 0.2 * self.bl)
-                start = p0 + along * 0.2 * self.bl
+                # (down the bond, but within a quarter bond length of its middle, as a tail must be)
+                off = src.extent + 0.05 * self.bl
+                start = p0 + along * min(0.2 * self.bl, math.sqrt(max(0.0, (0.24 * self.bl) ** 2 - off ** 2)))
                 out.append(_Candidate(start, start + normal * 0.55 * self.bl,
                                       tip + (normal * 0.3 + along * 0.25) * self.bl, tip))
         return out
