@@ -17,7 +17,7 @@ from arrows.checks.protons import pka_gap, proton_transfers
 from arrows.cli import cli
 from arrows.judgement.acidity import acidity_of, perceived
 
-from textbook_mechanisms import ACID_ENOLISATION
+from textbook_mechanisms import ACID_ENOLISATION, WOLFF_KISHNER
 
 GALLERY = sorted((Path(__file__).resolve().parent.parent / "gallery").glob("*.mech"))
 
@@ -146,3 +146,19 @@ def test_alpha_c_h_of_a_cationic_carbonyl_is_not_judged_as_a_neutral_ketone(text
     The steps still end in the textbook products (RDKit judges the product line)."""
     _, diags = check_text(text, "cationic.mech")
     assert not [d.to_text() for d in diags if d.severity == "error" or d.code == "AR508"]
+
+
+@pytest.mark.parametrize("smiles, atom", [("CC(C)=NN", 4), ("NC=C", 0), ("CC(N)=N", 2)],
+                         ids=["hydrazone", "enamine", "amidine"])
+def test_an_n_h_beside_a_double_bond_is_not_an_amine_n_h(smiles, atom):
+    """The NH3 value (~38) is for an amine: the anion of an N-H beside a double bond spreads onto
+    the far atom (common practice), so a hydrazone, enamine or amidine N-H is not judged by it."""
+    entry = acidity_of(perceived(Chem.MolFromSmiles(smiles)), atom)
+    assert entry is None or entry.acid != "an amine N-H"
+
+
+def test_hydroxide_on_a_hydrazone_is_not_flagged():
+    """Wolff-Kishner reduction (textbook): hydroxide takes the hydrazone N-H. It was once judged as
+    taking an amine N-H (~38), 22 units uphill (AR508)."""
+    _, diags = check_text(WOLFF_KISHNER, "wolff-kishner.mech")
+    assert not [d.to_text() for d in diags if d.code == "AR508"]

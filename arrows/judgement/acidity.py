@@ -59,7 +59,9 @@ TABLE: tuple[Acidity, ...] = (
     Acidity("an amide alpha C-H", "an amide enolate", "[CX4;!H0][CX3](=O)[NX3]", 30, "~30", NOT_LISTED),
     Acidity("a nitrile alpha C-H", "a nitrile anion", "[CX4;!H0]C#N", 25, "~25", NOT_LISTED),
     Acidity("a terminal alkyne C-H", "an acetylide", "[CX2H1]#C", 25, "~25", TEXTBOOK),
-    Acidity("an amine N-H", "an amide ion", "[NX3;!H0;!$(N[CX3]=O);!$(N=*)]", 38, "~38", TEXTBOOK),
+    # Not an amine: an N-H beside a double bond (amide, hydrazone, enamine, amidine, sulfonamide),
+    # whose anion spreads onto the far atom and is far less basic than NH2-; unjudged unless listed.
+    Acidity("an amine N-H", "an amide ion", "[NX3;!H0;!$(N*=*);!$(N=*)]", 38, "~38", TEXTBOOK),
     Acidity("an alkene or arene C-H", "a vinyl or aryl anion", "[#6X3;!H0;$([#6]=[#6]),$([c])]", 44, "~44",
             TEXTBOOK),
     Acidity("an alkane C-H", "an alkyl carbanion", "[CX4;!H0]", 50, "~50", TEXTBOOK),
