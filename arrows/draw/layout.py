@@ -831,7 +831,7 @@ class _LayoutBuilder:
     def _phases(self, group: list[int]) -> tuple[dict[int, complex], list[tuple[int, dict[int, complex]]]]:
         """Depictions of a cluster whose bonds over the whole mechanism cannot be drawn at one
         length (a ring that grows as a bond migrates, as in a Baeyer-Villiger oxidation) or that
-        holds an sp atom which later bends: runs of panels as long as one depiction draws them
+        holds an sp atom which later bends or straightens: runs of panels as long as one depiction draws them
         evenly, with every such atom straight or bent throughout, each run drawn from its own bonds (an
         atom with none there takes the bonds it has next), each aligned on the one before by the
         atoms the step between them leaves alone. Chemists redraw a ring that changes size; its
@@ -845,6 +845,9 @@ class _LayoutBuilder:
                 if any(self._linear(a, range(start, end + 1)) and not self._linear(a, range(start, end + 2))
                        for a in group):
                     break     # an sp atom that bends (a nitronium attacked) is drawn straight, then bent
+                if any(self._linear(a, range(end + 1, end + 2)) and not self._linear(a, range(start, end + 2))
+                       for a in group):
+                    break     # one that straightens (a nitrilium made by a shift) is drawn bent, then straight
                 trial_bonds = self._run_bonds(group, start, end + 1)
                 trial = self._depict(group, trial_bonds, range(start, end + 2))
                 if not self._even(trial, group, range(start, end + 2)):

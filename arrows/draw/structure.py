@@ -42,6 +42,7 @@ class PanelStructure:
     occupied: dict[int, list[complex]] = field(default_factory=dict)   # unit directions taken around each atom
     bond_directions: dict[int, list[complex]] = field(default_factory=dict)
     bond_extent: dict[tuple[int, int], float] = field(default_factory=dict)  # half-width of each bond's strokes
+    bond_lean: dict[tuple[int, int], complex] = field(default_factory=dict)  # a one-sided double's second stroke
 
     def label_reach(self, atom: int, direction: complex) -> float:
         """How far the atom's label reaches from its centre along direction (0: no label)."""
@@ -415,6 +416,7 @@ class StructureDrawer:
                 lines, extent = [line(n * gap / 2), line(-n * gap / 2)], gap / 2
             else:
                 lines, extent = [line(0), line(side * n * gap, trim=0.14 * bl)], gap
+                out.bond_lean[(min(i, j), max(i, j))] = side * n * gap
         elif order == 3:
             lines, extent = [line(0), line(n * gap * 0.8), line(-n * gap * 0.8)], gap * 0.8
         else:
