@@ -789,7 +789,9 @@ def test_fishhooks_of_a_split_bond_are_curves_on_its_two_sides(text, name):
     the two fishhooks run on opposite sides of the bond (common practice in organic chemistry
     texts for drawing the homolysis of Br2 or a peroxide). Each is a legible arc, a path of at
     least 0.85 bond lengths, like the others (0.91-0.93): the radical bromination's C3-H hook,
-    squeezed between the C-H bond and a methyl 60 degrees round, was 0.77 and read as a tick."""
+    squeezed between the C-H bond and a methyl 60 degrees round, was 0.77 and read as a tick; so
+    was the C-Br hook of the tin hydride reduction (0.77, now 0.88), whose Sn-H hook set off back
+    along the bond (the wide Sn label leaves the head near the bond's middle)."""
     _, _, scene = _scene(text, name)
     bl = scene.bond_length
     for panel in scene.panels:

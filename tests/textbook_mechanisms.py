@@ -11,13 +11,16 @@ beside nitriles (Knoevenagel with an E1cB loss of hydroxide, the cyanide-catalys
 addition to a C#N, a radical chain adding against Markovnikov, a shift to nitrogen that makes a
 nitrilium (Beckmann, from the E oxime), a carbanion as leaving group (CBr3-, N2 from a diazene
 anion), a retro-aldol, a five-membered ring closed by an enolate (Dieckmann), ammonium and
-sulfonium leaving groups (Hofmann, Corey-Chaykovsky), an arene made by a tautomerisation, and an
-epoxide closed by a backside attack at a configured carbon.
+sulfonium leaving groups (Hofmann, Corey-Chaykovsky), an arene made by a tautomerisation, an
+epoxide closed by a backside attack at a configured carbon, a radical that closes a ring (tin
+hydride, 5-exo-trig), a sulfonate leaving group, a bromonium opened by water, and a thiolate.
 
 Each entry: (mechanism text, textbook product SMILES, drawn): `drawn` says whether the geometry
-tests draw it. All do but the Dieckmann condensation: the ethoxide it expels stays where it was
-bonded (the layout moves only atoms a step touches, and its ethyl is never touched), 1.0 bond
-length from the hydrogen it takes next, where the proton-transfer test wants 1.4. The nitration's
+tests draw it. All do but two. The Dieckmann condensation: the ethoxide it expels stays where it
+was bonded (the layout moves only atoms a step touches, and its ethyl is never touched), 1.0 bond
+length from the hydrogen it takes next, where the proton-transfer test wants 1.4. The mesylate
+SN2: the ethyl that iodide takes is pushed 0.9 bond lengths out along its broken C-O bond (as a
+leaving group would be), so the sulfonate's untouched atoms and its own do not keep their places. The nitration's
 nitronium, straight until the arene bonds to its nitrogen, gets a straight depiction and then a
 bent one; the Beckmann nitrilium a bent one, a straight one, and a bent one again."""
 
@@ -783,6 +786,85 @@ end
 product "C1CCC2(CC1)CO2.CSC"
 '''
 
+# Tin hydride reduction of 6-bromohex-1-ene: the stannyl radical takes the bromine atom, the
+# hex-5-enyl radical closes a five-membered ring (5-exo-trig, the textbook radical clock) and the
+# cyclopentylmethyl radical takes H from the stannane (methylcyclopentane).
+RADICAL_CYCLISATION = '''\
+species bromide = "[Br:1][CH2:2][CH2:3]CC[CH:6]=[CH2:7]"
+species stannyl = "CCCC[Sn:8](CCCC)CCCC"
+species stannane = "CCCC[SnH:9](CCCC)CCCC"
+step "bromine abstraction"
+    .Sn8 ~> Br1
+    C2-Br1 ~> Br1-Sn8
+    C2-Br1 ~> C2
+end
+step "5-exo-trig cyclisation"
+    .C2 ~> C6
+    C6=C7 ~> C2-C6
+    C6=C7 ~> C7
+end
+step "hydrogen transfer"
+    .C7 ~> H(Sn9)
+    Sn9-H ~> C7-H(Sn9)
+    Sn9-H ~> Sn9
+end
+product "CC1CCCC1"
+'''
+
+# SN2 of ethyl methanesulfonate with iodide: a sulfonate leaves (ethyl iodide).
+MESYLATE_SN2 = '''\
+species mesylate = "CS(=O)(=O)[O:1][CH2:2]C"
+species iodide = "[I-:3]"
+step "substitution"
+    :I3 -> C2
+    C2-O1 -> O1
+end
+product "CCI.CS(=O)(=O)[O-]"
+'''
+
+# Bromohydrin from cyclohexene, bromine and water: the bromonium ion, opened from the back by
+# water, then deprotonated (trans-2-bromocyclohexan-1-ol; the replay makes no configuration for
+# new stereocentres, so the product is compared without it).
+HALOHYDRIN = '''\
+species alkene = "[CH:1]1=[CH:2]CCCC1"
+species bromine = "[Br:3][Br:4]"
+species water = "[OH2:5]"
+species water_2 = "[OH2:6]"
+step "bromonium ion"
+    C1=C2 -> C1-Br3
+    :Br3 -> C2
+    Br3-Br4 -> Br4
+end
+step "anti opening by water"
+    :O5 -> C1
+    Br3-C1 -> Br3
+end
+step "deprotonation"
+    :O6 -> H(O5)
+    O5-H -> O5
+end
+product "OC1CCCCC1Br"
+'''
+
+# Conjugate addition of methanethiolate to but-3-en-2-one, the enolate protonated on carbon by
+# methanol (4-(methylsulfanyl)butan-2-one).
+THIA_MICHAEL = '''\
+species enone = "[CH2:1]=[CH:2][C:3](=[O:4])C"
+species thiolate = "C[S-:5]"
+species methanol = "C[OH:6]"
+step "conjugate addition"
+    :S5 -> C1
+    C1=C2 -> C2=C3
+    C3=O4 -> O4
+end
+step "protonation at carbon"
+    :O4 -> C3=O4
+    C2=C3 -> C2-H(O6)
+    O6-H -> O6
+end
+product "CSCCC(C)=O"
+'''
+
 TEXTBOOK = {
     "wittig": (WITTIG, "C=C(C)C.O=P(c1ccccc1)(c1ccccc1)c1ccccc1", True),
     "bromination": (BROMINATION, "BrC1CCCCC1Br", True),
@@ -822,4 +904,8 @@ TEXTBOOK = {
     "phenol tautomerisation": (PHENOL_TAUTOMERISATION, "Oc1ccccc1.[OH-]", True),
     "epoxide closure": (EPOXIDE_CLOSURE, "C1CC[C@H]2O[C@H]2C1", True),   # (1R,2S): meso, inversion at C2
     "corey-chaykovsky": (COREY_CHAYKOVSKY, "C1CCC2(CC1)CO2.CSC", True),
+    "radical cyclisation": (RADICAL_CYCLISATION, "CC1CCCC1", True),
+    "mesylate sn2": (MESYLATE_SN2, "CCI.CS(=O)(=O)[O-]", False),   # the ethyl is pushed 0.9 bond lengths off the sulfonate
+    "halohydrin": (HALOHYDRIN, "OC1CCCCC1Br", True),
+    "thia-michael": (THIA_MICHAEL, "CSCCC(C)=O", True),
 }

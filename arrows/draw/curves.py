@@ -42,7 +42,7 @@ _CURL_WEIGHT = 0.5              # penalty per degree beyond _MAX_TURN
 _LOOP_STANDOFF = 0.45           # bond lengths: a turned-back arc standing further off its chord is a loop
 _SELF_CROSSING = math.radians(240)   # an arc turning this far crosses itself
 _HOOK_LENGTH = 0.9              # bond lengths: the shortest path that reads as a fishhook's arc
-_SHORT_HOOK = 10.0              # penalty per bond length a fishhook falls short of that
+_SHORT_HOOK = 20.0              # penalty per bond length a fishhook falls short of that
 _PAIR_ARC = 0.8                 # bond lengths: the shortest path from dots into their own atom's bond
 _SHIFT_BULGE = 0.2              # bond lengths a 1,2-shift's arc stands out from its chord, away from the pivot
 _TIGHT_SHIFT = 5.0              # penalty of one that stands out less (or bulges toward the pivot)
@@ -259,7 +259,13 @@ class ArrowPlanner:
         for move, src, snk in zip(moves, sources, sinks):
             hooks = self._hooks(move, src, snk, panel)
             # A fishhook from a bond to its own atom never sets off backwards: that reads as an S.
-            tries.append(self._candidates(src, snk, panel, forward_only=bool(hooks)) + hooks)
+            # Nor back along the bond, away from that atom (a wide label such as Sn leaves the
+            # head near the bond's middle, where an arc forward along the chord can do so).
+            arcs = self._candidates(src, snk, panel, forward_only=bool(hooks))
+            if hooks:
+                along = panel.positions[snk.atoms[0]] - src.point
+                arcs = [c for c in arcs if ((c.p1 - c.p0) * along.conjugate()).real >= 0]
+            tries.append(arcs + hooks)
         return _PanelArrows(step, moves, panel, marks, sources, sinks, tries)
 
     # anchors
