@@ -12,7 +12,8 @@ addition to a C#N, a radical chain adding against Markovnikov, a shift to nitrog
 nitrilium (Beckmann, from the E oxime), a carbanion as leaving group (CBr3-, N2 from a diazene
 anion), a retro-aldol, a five-membered ring closed by an enolate (Dieckmann), ammonium and
 sulfonium leaving groups (Hofmann, Corey-Chaykovsky), an arene made by a tautomerisation, an
-epoxide closed by a backside attack at a configured carbon, a radical that closes a ring (tin
+epoxide closed by a backside attack at a configured carbon, a configured carbon that migrates
+(Baeyer-Villiger, retention), a radical that closes a ring (tin
 hydride, 5-exo-trig), a sulfonate leaving group, a bromonium opened by water, and a thiolate.
 
 Each entry: (mechanism text, textbook product SMILES, drawn): `drawn` says whether the geometry
@@ -865,6 +866,37 @@ end
 product "CSCCC(C)=O"
 '''
 
+# Baeyer-Villiger oxidation of (S)-3-phenylbutan-2-one: the Criegee intermediate made neutral by
+# acetic acid (two proton transfers), then the secondary carbon migrates to oxygen with retention
+# of configuration ((S)-1-phenylethyl acetate). (Its migrating carbon once lost its configuration.)
+BAEYER_VILLIGER_RETENTION = '''\
+species ketone = "C[C:1](=[O:2])[C@@H:3](C)c1ccccc1"
+species peracid = "C[C:10](=[O:11])[O:12][O:13][H:14]"
+species acid = "CC(=O)[OH:20]"
+step "addition"
+    :O13 -> C1
+    C1=O2 -> O2
+end
+step "protonation of the alkoxide"
+    :O2 -> H(O20)
+    O20-H -> O20
+end
+step "deprotonation"
+    :O20 -> H14
+    O13-H14 -> O13
+end
+step "migration with retention"
+    C1-C3 -> C3-O13
+    O13-O12 -> O12
+    :O2 -> C1=O2
+end
+step "deprotonation"
+    :O12 -> H(O2)
+    O2-H -> O2
+end
+product "CC(=O)O[C@@H](C)c1ccccc1"
+'''
+
 TEXTBOOK = {
     "wittig": (WITTIG, "C=C(C)C.O=P(c1ccccc1)(c1ccccc1)c1ccccc1", True),
     "bromination": (BROMINATION, "BrC1CCCCC1Br", True),
@@ -908,4 +940,5 @@ TEXTBOOK = {
     "mesylate sn2": (MESYLATE_SN2, "CCI.CS(=O)(=O)[O-]", False),   # the ethyl is pushed 0.9 bond lengths off the sulfonate
     "halohydrin": (HALOHYDRIN, "OC1CCCCC1Br", True),
     "thia-michael": (THIA_MICHAEL, "CSCCC(C)=O", True),
+    "baeyer-villiger retention": (BAEYER_VILLIGER_RETENTION, "CC(=O)O[C@@H](C)c1ccccc1", True),   # (S) kept
 }
