@@ -162,3 +162,23 @@ def test_hydroxide_on_a_hydrazone_is_not_flagged():
     taking an amine N-H (~38), 22 units uphill (AR508)."""
     _, diags = check_text(WOLFF_KISHNER, "wolff-kishner.mech")
     assert not [d.to_text() for d in diags if d.code == "AR508"]
+
+
+PIPERIDINE_ON_MALONONITRILE = """\
+species malononitrile = "N#C[CH2:3]C#N"
+species base = "C1CC[NH:4]CC1"
+step "deprotonation"
+    :N4 -> H(C3)
+    C3-H -> C3
+end
+"""
+
+
+def test_piperidine_on_malononitrile_is_not_flagged():
+    """Knoevenagel condensation (textbook): piperidine (ammonium ~10) deprotonates malononitrile
+    (~11, memory). Its C-H was once judged as a plain nitrile alpha C-H (~25), 15 units uphill."""
+    _, diags = check_text(PIPERIDINE_ON_MALONONITRILE, "knoevenagel.mech")
+    assert not [d.to_text() for d in diags if d.code == "AR508"]
+    for smiles in ("N#CCC#N", "N#CCC(=O)OCC"):   # and ethyl cyanoacetate, the other textbook donor
+        entry = acidity_of(perceived(Chem.MolFromSmiles(smiles)), 2)
+        assert entry is not None and entry.pka < 14, smiles

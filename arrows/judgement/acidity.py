@@ -44,6 +44,8 @@ TABLE: tuple[Acidity, ...] = (
     Acidity("a protonated alcohol or ether", "an alcohol or ether", "[OX3+;!H0]", -2, "~-2", NOT_LISTED),
     Acidity("a carboxylic acid", "a carboxylate", "[OX2H1][CX3]=O", 4.8, "~4.8", TEXTBOOK),
     Acidity("a 1,3-dicarbonyl C-H", "a 1,3-dicarbonyl enolate", "[CX4;!H0]([CX3]=O)[CX3]=O", 9, "~9", TEXTBOOK),
+    Acidity("a C-H beside a nitrile and a carbonyl or nitrile", "a stabilised carbanion",
+            "[CX4;!H0](C#N)[$([CX3]=O),$(C#N)]", 11, "~11", NOT_LISTED),   # malononitrile ~11
     Acidity("a phenol", "a phenoxide", "[OX2H1]c", 10, "~10", TEXTBOOK),
     Acidity("an ammonium ion", "an amine", "[NX4+;!H0]", 10, "~10", TEXTBOOK),
     Acidity("an enol", "an enolate oxygen", "[OX2H1][CX3]=[CX3]", 10.5, "~10-11", NOT_LISTED),
