@@ -182,3 +182,12 @@ def test_piperidine_on_malononitrile_is_not_flagged():
     for smiles in ("N#CCC#N", "N#CCC(=O)OCC"):   # and ethyl cyanoacetate, the other textbook donor
         entry = acidity_of(perceived(Chem.MolFromSmiles(smiles)), 2)
         assert entry is not None and entry.pka < 14, smiles
+
+
+def test_tert_butoxide_on_a_sulfonium_salt_is_not_flagged():
+    """Corey-Chaykovsky ylide formation (textbook): tert-butoxide (~18) takes a proton of
+    trimethylsulfonium (~18, memory). That C-H was once judged as an alkane's (~50): AR508."""
+    text = ('species salt = "C[S+](C)[CH3:2]"\nspecies base = "CC(C)(C)[O-:3]"\n'
+            'step "deprotonation"\n    :O3 -> H(C2)\n    C2-H -> C2\nend\n')
+    _, diags = check_text(text, "ylide.mech")
+    assert not [d.to_text() for d in diags if d.code == "AR508"]

@@ -771,11 +771,17 @@ end
 product "C1CC[C@H]2O[C@H]2C1"
 '''
 
-# Corey-Chaykovsky epoxidation of cyclohexanone with dimethylsulfonium methylide: the ylide carbon
-# adds, the alkoxide closes the three-membered ring and dimethyl sulfide leaves.
+# Corey-Chaykovsky epoxidation of cyclohexanone: tert-butoxide takes a proton of trimethylsulfonium
+# (the ylide; once judged as an alkane C-H, ~50, AR508), the ylide carbon adds, the alkoxide closes
+# the three-membered ring and dimethyl sulfide leaves.
 COREY_CHAYKOVSKY = '''\
-species ylide = "[CH2-:1][S+:2](C)C"
+species salt = "[CH3:1][S+:2](C)C"
+species base = "CC(C)(C)[O-:5]"
 species ketone = "[O:4]=[C:3]1CCCCC1"
+step "ylide formation"
+    :O5 -> H(C1)
+    C1-H -> C1
+end
 step "addition"
     :C1 -> C3
     C3=O4 -> O4

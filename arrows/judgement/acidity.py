@@ -61,6 +61,7 @@ TABLE: tuple[Acidity, ...] = (
     Acidity("an amide alpha C-H", "an amide enolate", "[CX4;!H0][CX3](=O)[NX3]", 30, "~30", NOT_LISTED),
     Acidity("a nitrile alpha C-H", "a nitrile anion", "[CX4;!H0]C#N", 25, "~25", NOT_LISTED),
     Acidity("a terminal alkyne C-H", "an acetylide", "[CX2H1]#C", 25, "~25", TEXTBOOK),
+    Acidity("a C-H beside a sulfonium", "a sulfonium ylide", "[CX4;!H0][SX3+]", 18, "~18", NOT_LISTED),
     # Not an amine: an N-H beside a double bond (amide, hydrazone, enamine, amidine, sulfonamide),
     # whose anion spreads onto the far atom and is far less basic than NH2-; unjudged unless listed.
     Acidity("an amine N-H", "an amide ion", "[NX3;!H0;!$(N*=*);!$(N=*)]", 38, "~38", TEXTBOOK),
