@@ -13,15 +13,19 @@ nitrilium (Beckmann, from the E oxime), a carbanion as leaving group (CBr3-, N2 
 anion), a retro-aldol, a five-membered ring closed by an enolate (Dieckmann), ammonium and
 sulfonium leaving groups (Hofmann, Corey-Chaykovsky), an arene made by a tautomerisation, an
 epoxide closed by a backside attack at a configured carbon, a configured carbon that migrates
-(Baeyer-Villiger, retention), a radical that closes a ring (tin
-hydride, 5-exo-trig), a sulfonate leaving group, a bromonium opened by water, and a thiolate.
+(Baeyer-Villiger, retention), a radical that closes a ring (tin hydride, 5-exo-trig), a sulfonate
+leaving group, a bromonium opened by water, a thiolate, a diazonium ion made from an amine and
+NO+, and an isocyanate that loses CO2 (Hofmann rearrangement).
 
 Each entry: (mechanism text, textbook product SMILES, drawn): `drawn` says whether the geometry
-tests draw it. All do but two. The Dieckmann condensation: the ethoxide it expels stays where it
+tests draw it. All do but three. The Dieckmann condensation: the ethoxide it expels stays where it
 was bonded (the layout moves only atoms a step touches, and its ethyl is never touched), 1.0 bond
 length from the hydrogen it takes next, where the proton-transfer test wants 1.4. The mesylate
 SN2: the ethyl that iodide takes is pushed 0.9 bond lengths out along its broken C-O bond (as a
-leaving group would be), so the sulfonate's untouched atoms and its own do not keep their places. The nitration's
+leaving group would be), so the sulfonate's untouched atoms and its own do not keep their places.
+The Hofmann rearrangement: every skeletal bond but C=O makes or breaks at some step, so the
+molecule falls into clusters of one or two atoms, each run placed against one partner only; C1-N3
+comes out 2.73 bond lengths long in two panels (the methyl hidden under it) and N3-Br4 1.33 in one. The nitration's
 nitronium, straight until the arene bonds to its nitrogen, gets a straight depiction and then a
 bent one; the Beckmann nitrilium a bent one, a straight one, and a bent one again."""
 
@@ -903,6 +907,86 @@ end
 product "CC(=O)O[C@@H](C)c1ccccc1"
 '''
 
+# Diazotisation of aniline: the amine adds to the nitrosonium ion, the N-nitrosamine tautomerises
+# to the diazohydroxide through explicit proton transfers, and loss of water gives the
+# benzenediazonium ion (N#N+ drawn straight).
+DIAZOTISATION = '''\
+species aniline = "c1ccccc1[NH2:1]"
+species nitrosonium = "[N:2]#[O+:3]"
+species water = "[OH2:4]"
+step "N-nitrosation"
+    :N1 -> N2
+    N2#O3 -> O3
+end
+step "deprotonation"
+    :O4 -> H(N1)
+    N1-H -> N1
+end
+step "protonation at oxygen"
+    :O3 -> H(O4)
+    O4-H -> O4
+end
+step "deprotonation at nitrogen"
+    uses water_2 = "[OH2:5]"
+    :O5 -> H(N1)
+    N1-H -> N1=N2
+    N2=O3 -> O3
+end
+step "protonation of the hydroxyl"
+    :O3 -> H(O5)
+    O5-H -> O5
+end
+step "loss of water"
+    :N1 -> N1#N2
+    N2-O3 -> O3
+    releases O3
+end
+product "N#[N+]c1ccccc1"
+'''
+
+# Hofmann rearrangement of N-bromoacetamide: the N-anion, the methyl shifts to nitrogen as bromide
+# leaves (methyl isocyanate), hydroxide adds, the carbamate loses CO2, and water protonates the
+# methylamide ion (methylamine).
+HOFMANN_REARRANGEMENT = '''\
+species bromoamide = "[CH3:6][C:1](=[O:2])[NH:3][Br:4]"
+species base = "[OH-:5]"
+step "deprotonation"
+    :O5 -> H(N3)
+    N3-H -> N3
+end
+step "rearrangement"
+    C1-C6 -> C6-N3
+    N3-Br4 -> Br4
+    :N3 -> C1=N3
+    releases Br4
+    expect "CN=C=O"
+end
+step "addition of hydroxide"
+    uses base_2 = "[OH-:7]"
+    :O7 -> C1
+    C1=N3 -> N3
+end
+step "protonation at nitrogen"
+    :N3 -> H(O5)
+    O5-H -> O5
+end
+step "deprotonation of the carbamic acid"
+    :O5 -> H(O7)
+    O7-H -> O7
+end
+step "loss of carbon dioxide"
+    :O7 -> C1=O7
+    C1-N3 -> N3
+    releases C1
+end
+step "protonation"
+    uses water = "[OH2:8]"
+    :N3 -> H(O8)
+    O8-H -> O8
+end
+product "CN.O=C=O"
+'''
+
 TEXTBOOK = {
     "wittig": (WITTIG, "C=C(C)C.O=P(c1ccccc1)(c1ccccc1)c1ccccc1", True),
     "bromination": (BROMINATION, "BrC1CCCCC1Br", True),
@@ -947,4 +1031,6 @@ TEXTBOOK = {
     "halohydrin": (HALOHYDRIN, "OC1CCCCC1Br", True),
     "thia-michael": (THIA_MICHAEL, "CSCCC(C)=O", True),
     "baeyer-villiger retention": (BAEYER_VILLIGER_RETENTION, "CC(=O)O[C@@H](C)c1ccccc1", True),   # (S) kept
+    "diazotisation": (DIAZOTISATION, "N#[N+]c1ccccc1", True),
+    "hofmann rearrangement": (HOFMANN_REARRANGEMENT, "CN.O=C=O", False),   # its atoms fall into one-atom clusters: C1-N3 drawn 2.73 long
 }
