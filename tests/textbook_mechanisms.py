@@ -14,7 +14,7 @@ anion), a retro-aldol, a five-membered ring closed by an enolate (Dieckmann), am
 sulfonium leaving groups (Hofmann, Corey-Chaykovsky), an arene made by a tautomerisation, an
 epoxide closed by a backside attack at a configured carbon, a configured carbon that migrates
 (Baeyer-Villiger, retention), a radical that closes a ring (tin hydride, 5-exo-trig), a sulfonate
-leaving group, a bromonium opened by water, a thiolate, a diazonium ion made from an amine and
+leaving group made (mesylation) and displaced (SN2), a bromonium opened by water, a thiolate, a diazonium ion made from an amine and
 NO+, and an isocyanate that loses CO2 (Hofmann rearrangement).
 
 Each entry: (mechanism text, textbook product SMILES, drawn): `drawn` says whether the geometry
@@ -987,6 +987,24 @@ end
 product "CN.O=C=O"
 '''
 
+# Mesylation of ethanol: the alcohol oxygen displaces chloride at sulfur, triethylamine takes the
+# proton (ethyl methanesulfonate). (Its sulfur, written with twelve electrons as sulfonyl groups
+# are, was once flagged as an expanded octet though the step only kept it so: AR504.)
+MESYLATION = '''\
+species alcohol = "CC[OH:1]"
+species mscl = "C[S:2](=O)(=O)[Cl:3]"
+species base = "CC[N:4](CC)CC"
+step "substitution at sulfur"
+    :O1 -> S2
+    S2-Cl3 -> Cl3
+end
+step "deprotonation"
+    :N4 -> H(O1)
+    O1-H -> O1
+end
+product "CCOS(C)(=O)=O"
+'''
+
 TEXTBOOK = {
     "wittig": (WITTIG, "C=C(C)C.O=P(c1ccccc1)(c1ccccc1)c1ccccc1", True),
     "bromination": (BROMINATION, "BrC1CCCCC1Br", True),
@@ -1033,4 +1051,5 @@ TEXTBOOK = {
     "baeyer-villiger retention": (BAEYER_VILLIGER_RETENTION, "CC(=O)O[C@@H](C)c1ccccc1", True),   # (S) kept
     "diazotisation": (DIAZOTISATION, "N#[N+]c1ccccc1", True),
     "hofmann rearrangement": (HOFMANN_REARRANGEMENT, "CN.O=C=O", False),   # its atoms fall into one-atom clusters: C1-N3 drawn 2.73 long
+    "mesylation": (MESYLATION, "CCOS(C)(=O)=O", True),
 }
