@@ -148,7 +148,8 @@ CODES = _table(
          "Tetrahedron 1982, 38, 2939) call this closure disfavoured.",
          'an alkoxide onto the far end of a C=C inside the ring it closes: 5-endo-trig'),
     Code("AR503", WARNING, "unusual formal charge",
-         "An atom carries a formal charge of magnitude two or more (for example carbon -2, oxygen +2).",
+         "A step leaves an atom with a new formal charge of magnitude two or more (for example carbon -2, "
+         "oxygen +2).",
          'C3-O4 -> C3   # the C-O pair stays on carbon: C3 ends at -2 and O4 at +2'),
     Code("AR504", WARNING, "expanded octet",
          "A step takes a third-row or heavier atom above eight valence electrons, or further above "

@@ -20,7 +20,9 @@ class UnusualElectronCounts(Check):
         if after is not None:
             for i, shell in st.change.shells.items():
                 charge = after.formal_charge(i)
-                if abs(charge) >= 2:
+                # As for the shell below: a charge the species was written with and the step keeps
+                # (a sulfonyl S written S2+ with two O-) is not the step's doing.
+                if abs(charge) >= 2 and charge != before.formal_charge(i):
                     z = after.mol.GetAtomWithIdx(i).GetAtomicNum()
                     if z not in _IONIC_METALS:
                         label = after.label(i)
