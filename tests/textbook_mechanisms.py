@@ -19,12 +19,11 @@ NO+, an isocyanate that loses CO2 (Hofmann rearrangement), and a five-arrow conc
 transfer (peracid epoxidation).
 
 Each entry: (mechanism text, textbook product SMILES, drawn): `drawn` says whether the geometry
-tests draw it. All do but three. The Dieckmann condensation: the ethoxide it expels stays where it
+tests draw it. All do but two. The Dieckmann condensation: the ethoxide it expels stays where it
 was bonded (the layout moves only atoms a step touches, and its ethyl is never touched), 1.0 bond
-length from the hydrogen it takes next, where the proton-transfer test wants 1.4. The mesylate
-SN2: the ethyl that iodide takes is pushed 0.9 bond lengths out along its broken C-O bond (as a
-leaving group would be), so the sulfonate's untouched atoms and its own do not keep their places.
-The Hofmann rearrangement: every skeletal bond but C=O makes or breaks at some step, so the
+length from the hydrogen it takes next, where the proton-transfer test wants 1.4. (The mesylate
+SN2 once pushed the ethyl that iodide takes 0.9 bond lengths out along its broken C-O bond, as if
+it were the leaving group.) The Hofmann rearrangement: every skeletal bond but C=O makes or breaks at some step, so the
 molecule falls into clusters of one or two atoms, each run placed against one partner only; C1-N3
 comes out 2.73 bond lengths long in two panels (the methyl hidden under it) and N3-Br4 1.33 in one. The nitration's
 nitronium, straight until the arene bonds to its nitrogen, gets a straight depiction and then a
@@ -1063,7 +1062,7 @@ TEXTBOOK = {
     "epoxide closure": (EPOXIDE_CLOSURE, "C1CC[C@H]2O[C@H]2C1", True),   # (1R,2S): meso, inversion at C2
     "corey-chaykovsky": (COREY_CHAYKOVSKY, "C1CCC2(CC1)CO2.CSC", True),
     "radical cyclisation": (RADICAL_CYCLISATION, "CC1CCCC1", True),
-    "mesylate sn2": (MESYLATE_SN2, "CCI.CS(=O)(=O)[O-]", False),   # the ethyl is pushed 0.9 bond lengths off the sulfonate
+    "mesylate sn2": (MESYLATE_SN2, "CCI.CS(=O)(=O)[O-]", True),
     "halohydrin": (HALOHYDRIN, "OC1CCCCC1Br", True),
     "thia-michael": (THIA_MICHAEL, "CSCCC(C)=O", True),
     "baeyer-villiger retention": (BAEYER_VILLIGER_RETENTION, "CC(=O)O[C@@H](C)c1ccccc1", True),   # (S) kept

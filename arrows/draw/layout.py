@@ -1378,7 +1378,13 @@ class _LayoutBuilder:
         others = np.array([p for kk in range(segment[0], segment[1] + 1) for a, p in self.positions[kk].items()
                            if a not in atoms], dtype=complex)
         if not apart:
-            if not split or not len(others) or np.abs(shift + local[:, None] - others[None, :]).min() >= _CLEARANCE:
+            # Only a fragment that took the pair away moves off: the one it left (the carbon of an
+            # SN2, where the nucleophile has come in) stays.
+            before = self.states[k - 1]
+            took = any(before.nonbonding[a] < self.states[k].nonbonding[a]
+                       for a in (i if i in atoms else j for i, j in split))
+            if (not split or not took or not len(others)
+                    or np.abs(shift + local[:, None] - others[None, :]).min() >= _CLEARANCE):
                 return previous
         for extra in ((0.7, 0.5, 0.3) if apart else (1.0, 1.5, 2.0)):
             moved = shift + direction * extra
