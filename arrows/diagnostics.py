@@ -148,10 +148,12 @@ CODES = _table(
          "Tetrahedron 1982, 38, 2939) call this closure disfavoured.",
          'an alkoxide onto the far end of a C=C inside the ring it closes: 5-endo-trig'),
     Code("AR503", WARNING, "unusual formal charge",
-         "An atom carries a formal charge of magnitude two or more (for example carbon -2, oxygen +2).",
+         "A step leaves an atom with a new formal charge of magnitude two or more (for example carbon -2, "
+         "oxygen +2).",
          'C3-O4 -> C3   # the C-O pair stays on carbon: C3 ends at -2 and O4 at +2'),
     Code("AR504", WARNING, "expanded octet",
-         "A third-row or heavier atom holds more than eight valence electrons.",
+         "A step takes a third-row or heavier atom above eight valence electrons, or further above "
+         "(a shell a step only keeps, as a sulfonyl S that swaps one bond for another, is not flagged).",
          'C4=O5 -> O5-P2   # the oxaphosphetane of a Wittig reaction: P2 with five bonds (fine for P)'),
     Code("AR506", WARNING, "step with no moves",
          "A step names no electron moves.",

@@ -585,11 +585,12 @@ def _settle(state: ElectronState, step: Step, step_index: int, replay: _StepRepl
     if state.configured:
         # The bookkeeping follows electrons, not geometry: an atom that gains or loses a bond
         # loses the configuration a species wrote for it (@, @@, / and \\), except where the
-        # step is a concerted backside substitution, which inverts it.
-        inverted = _backside_substitutions(state.mol, new_bonds, replay)
-        forget_configuration(work, {i for key in new_bonds for i in key} - set(inverted))
-        for atom, (leaving, entering) in inverted.items():
-            substitute_configuration(state.mol, work, atom, leaving, entering, invert=True)
+        # step is a concerted backside substitution, which inverts it, or a 1,2-shift, whose
+        # migrating atom keeps it.
+        carried = _carried_configurations(state.mol, new_bonds, replay)
+        forget_configuration(work, {i for key in new_bonds for i in key} - set(carried))
+        for atom, (leaving, entering, invert) in carried.items():
+            substitute_configuration(state.mol, work, atom, leaving, entering, invert=invert)
     valence, elements, old_nonbonding = state.valence, state.elements, state.nonbonding
     for i in touched:
         bonds = bond_sums[i]
@@ -645,14 +646,16 @@ def _next_framework(state: ElectronState, new_bonds: dict[Pair, int], replay: _S
     return state.framework.difference(removed).union(added)
 
 
-def _backside_substitutions(mol: Chem.Mol, new_bonds: dict[Pair, int], replay: "_StepReplay"
-                            ) -> dict[int, tuple[int, int]]:
-    """The stereocentres at which a step is a concerted substitution (SN2, or a nucleophile opening
-    an epoxide or a bromonium ion): one single bond forms to the atom with electrons from
-    elsewhere while one single bond from it breaks with its pair going to the leaving atom, and
-    nothing else changes there. The nucleophile enters opposite the leaving group, so the
-    configuration inverts (Walden inversion, textbook). A group that moves with its bonding pair
-    (a 1,2-shift) is not one. Returns atom -> (leaving, entering)."""
+def _carried_configurations(mol: Chem.Mol, new_bonds: dict[Pair, int], replay: "_StepReplay"
+                            ) -> dict[int, tuple[int, int, bool]]:
+    """The stereocentres at which one single bond forms while one single bond breaks, nothing
+    else changing there. Either a concerted substitution (SN2, or a nucleophile opening an
+    epoxide or a bromonium ion): the bond forms with electrons from elsewhere and the broken
+    bond's pair goes to the leaving atom; the nucleophile enters opposite the leaving group, so
+    the configuration inverts (Walden inversion, textbook). Or the atom migrates with its bonding
+    pair (a 1,2-shift: Wagner-Meerwein, pinacol, Baeyer-Villiger, Beckmann), taking the new
+    partner on the face the old one held: the configuration is kept (retention at the migrating
+    carbon, textbook). Returns atom -> (leaving, entering, inverted)."""
     formed: dict[int, list[int]] = {}
     broken: dict[int, list[int]] = {}
     other: set[int] = set()
@@ -673,8 +676,7 @@ def _backside_substitutions(mol: Chem.Mol, new_bonds: dict[Pair, int], replay: "
             continue
         shifted = any(m.source_kind == "bond" and set(m.source_atoms) == {atom, leaving[0]} and atom in m.sink_atoms
                       for m in replay.resolved)
-        if not shifted:
-            out[atom] = (leaving[0], entering[0])
+        out[atom] = (leaving[0], entering[0], not shifted)
     return out
 
 

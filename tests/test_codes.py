@@ -213,3 +213,14 @@ def test_every_code_the_engine_raises_has_a_twin():
     # Baldwin, pKa, ring and stereo notes, data-set records: test_rings, test_pka, test_stereo, test_jsonl
     own_tests = {"AR502", "AR508", "AR601", "AR602", "AR110", "AR111"}
     assert set(CODES) - covered - elsewhere - own_tests == set()
+
+
+@pytest.mark.parametrize("sulfonyl", ["C[S:2](=O)(=O)[Cl:3]", "C[S+2:2]([O-])([O-])[Cl:3]"], ids=["S=O", "S2+"])
+def test_a_shell_or_charge_the_step_only_keeps_is_not_flagged(sulfonyl):
+    """Mesylation of ethanol (textbook): the alcohol displaces chloride at sulfur. A sulfonyl S is
+    drawn either with two S=O bonds (twelve electrons) or as S2+ with two O- (common practice);
+    the step keeps whichever was written, so neither AR504 nor AR503 fires. Both once did."""
+    text = (f'species alcohol = "CC[OH:1]"\nspecies chloride = "{sulfonyl}"\n'
+            'step "substitution at sulfur"\n    :O1 -> S2\n    S2-Cl3 -> Cl3\nend\n')
+    _, diags = check_text(text, "mesylation.mech")
+    assert findings(diags) == [], [d.to_text() for d in diags]

@@ -241,7 +241,9 @@ def test_sp_atoms_are_drawn_straight(text, name):
     nitrile-bearing radicals, each nitrile carbon bonded on straight; in the homolysis of
     acetonitrile (as in its pyrolysis) the methyl stands straight on through the nitrile carbon.
     The nitration's nitronium O=N+=O is straight until the arene bonds to its nitrogen (it was
-    drawn bent, 120 degrees, from the depiction of the nitro group it becomes)."""
+    drawn bent, 120 degrees, from the depiction of the nitro group it becomes); the Beckmann
+    nitrilium C-C#N+-Ph is straight from the shift that makes it until water adds (it was drawn
+    bent, 150 degrees, from the oxime before it)."""
     _, _, scene = _scene(text, name)
     seen = 0
     for panel in scene.panels:
@@ -294,8 +296,10 @@ def test_arrows_avoid_other_labels(text, name):
 def test_arrows_start_at_their_source_and_end_at_their_sink(text, name):
     """The tail lies within a quarter bond length of the electrons it moves (lone-pair dots,
     unpaired electron or bond midpoint) and the head within a quarter bond length of what
-    receives them (the atom's label, or the midpoint of the bond that forms or gains order);
-    common practice of curved-arrow notation."""
+    receives them (the atom's label, or the midpoint of the bond that forms or gains order: of its
+    two strokes, for a double bond drawn to one side); common practice of curved-arrow notation.
+    (A pair into the C=N+ double bond of the Beckmann rearrangement, arriving from the side of the
+    single stroke, once stopped 0.26 bond lengths off it, as far out as from the second stroke.)"""
     _, _, scene = _scene(text, name)
     quarter = 0.25 * scene.bond_length
     for panel in scene.panels:
@@ -341,6 +345,21 @@ def _signed_area(p, q, r) -> float:
     return (q[0] - p[0]) * (r[1] - p[1]) - (q[1] - p[1]) * (r[0] - p[0])
 
 
+def _is_sp(mol, i: int) -> bool:
+    """Two heavy neighbours, with a triple bond or two double bonds to them (RDKit's bond orders)."""
+    bonds = [b for b in mol.GetAtomWithIdx(i).GetBonds() if b.GetOtherAtom(mol.GetAtomWithIdx(i)).GetAtomicNum() != 1]
+    orders = sorted(b.GetBondTypeAsDouble() for b in bonds)
+    return len(bonds) == 2 and (orders[1] == 3 or orders == [2, 2])
+
+
+def _reshaped_molecules(step) -> set[int]:
+    """The atoms of each molecule of the state after a step in which an atom is sp on one side of
+    the step and not on the other."""
+    before, after = step.before.mol, step.after.mol
+    changed = {i for i in range(before.GetNumAtoms()) if _is_sp(after, i) != _is_sp(before, i)}
+    return {i for frag in Chem.GetMolFrags(after, asMols=False, sanitizeFrags=False) if changed & set(frag) for i in frag}
+
+
 def _resized_ring_atoms(step) -> set[int]:
     """Atoms of a ring that changes size in this step (a ring bond of the state before breaks and a
     ring of the state after holds a bond the step makes): such a ring is redrawn, as chemists do."""
@@ -361,7 +380,10 @@ def test_untouched_atoms_stay_put(text, name):
     place and orientation from panel to panel). Rigid means its untouched atoms keep their
     distances to within 2% of a bond length and it is not mirrored. A ring that changes size in
     the step (a ring expansion) is redrawn, its atoms moving less than half a bond length: the
-    issue's "a newly formed ring may move its own atoms"."""
+    issue's "a newly formed ring may move its own atoms". So is a molecule in which the step
+    straightens or bends an atom (the nitrilium of a Beckmann rearrangement, made by a shift and
+    attacked by water: sp atoms are drawn straight, IUPAC 2008), its atoms moving less than 1.5
+    bond lengths."""
     trace, _, scene = _scene(text, name)
     bl = scene.bond_length
     for before, after in zip(scene.panels, scene.panels[1:]):
@@ -375,14 +397,17 @@ def test_untouched_atoms_stay_put(text, name):
         molecules = _joining_molecules(step.before.mol, step.after.mol)
         free = set().union(*molecules) if molecules else set()
         resized = _resized_ring_atoms(step)
+        reshaped = _reshaped_molecules(step)
         for i in kept:
             moved = _distance(old[i], new[i]) / bl
             if i in resized:
                 assert moved < 0.5, (before.index, step.before.label(i), moved)   # redrawn, not thrown
+            elif i in reshaped and i not in free:
+                assert moved < 1.5, (before.index, step.before.label(i), moved)
             elif i not in free:
                 assert moved < 0.05, (before.index, step.before.label(i), moved)
         for molecule in molecules:
-            rigid = [i for i in kept if i in molecule]
+            rigid = [i for i in kept if i in molecule and i not in reshaped]
             for i, j in combinations(rigid, 2):
                 change = abs(_distance(old[i], old[j]) - _distance(new[i], new[j])) / bl
                 assert change < 0.02, (before.index, step.before.label(i), step.before.label(j), change)
@@ -640,7 +665,9 @@ def test_pair_into_its_own_bond_leaves_from_the_free_side(text, name):
     dots in a free gap well round from that bond (at least 60 degrees from it, at least 30
     degrees from every bond of the atom), and the arrow from them to the bond's middle is long
     enough to read as a curve (a path of at least 0.8 bond lengths): common practice in organic
-    chemistry texts, where the dots are drawn away from the bonds and the arrow arcs over."""
+    chemistry texts, where the dots are drawn away from the bonds and the arrow arcs over. (The
+    haloform cleavage, the benzoin condensation and the Wolff-Kishner reduction once chose a tick
+    of 0.68-0.73 bond lengths over a longer arc that cost 0.1-0.2 more.)"""
     _, _, scene = _scene(text, name)
     bl = scene.bond_length
     for panel in scene.panels:
@@ -765,7 +792,9 @@ def test_fishhooks_of_a_split_bond_are_curves_on_its_two_sides(text, name):
     the two fishhooks run on opposite sides of the bond (common practice in organic chemistry
     texts for drawing the homolysis of Br2 or a peroxide). Each is a legible arc, a path of at
     least 0.85 bond lengths, like the others (0.91-0.93): the radical bromination's C3-H hook,
-    squeezed between the C-H bond and a methyl 60 degrees round, was 0.77 and read as a tick."""
+    squeezed between the C-H bond and a methyl 60 degrees round, was 0.77 and read as a tick; so
+    was the C-Br hook of the tin hydride reduction (0.77, now 0.88), whose Sn-H hook set off back
+    along the bond (the wide Sn label leaves the head near the bond's middle)."""
     _, _, scene = _scene(text, name)
     bl = scene.bond_length
     for panel in scene.panels:

@@ -17,7 +17,7 @@ from arrows.checks.protons import pka_gap, proton_transfers
 from arrows.cli import cli
 from arrows.judgement.acidity import acidity_of, perceived
 
-from textbook_mechanisms import ACID_ENOLISATION
+from textbook_mechanisms import ACID_ENOLISATION, WOLFF_KISHNER
 
 GALLERY = sorted((Path(__file__).resolve().parent.parent / "gallery").glob("*.mech"))
 
@@ -146,3 +146,48 @@ def test_alpha_c_h_of_a_cationic_carbonyl_is_not_judged_as_a_neutral_ketone(text
     The steps still end in the textbook products (RDKit judges the product line)."""
     _, diags = check_text(text, "cationic.mech")
     assert not [d.to_text() for d in diags if d.severity == "error" or d.code == "AR508"]
+
+
+@pytest.mark.parametrize("smiles, atom", [("CC(C)=NN", 4), ("NC=C", 0), ("CC(N)=N", 2)],
+                         ids=["hydrazone", "enamine", "amidine"])
+def test_an_n_h_beside_a_double_bond_is_not_an_amine_n_h(smiles, atom):
+    """The NH3 value (~38) is for an amine: the anion of an N-H beside a double bond spreads onto
+    the far atom (common practice), so a hydrazone, enamine or amidine N-H is not judged by it."""
+    entry = acidity_of(perceived(Chem.MolFromSmiles(smiles)), atom)
+    assert entry is None or entry.acid != "an amine N-H"
+
+
+def test_hydroxide_on_a_hydrazone_is_not_flagged():
+    """Wolff-Kishner reduction (textbook): hydroxide takes the hydrazone N-H. It was once judged as
+    taking an amine N-H (~38), 22 units uphill (AR508)."""
+    _, diags = check_text(WOLFF_KISHNER, "wolff-kishner.mech")
+    assert not [d.to_text() for d in diags if d.code == "AR508"]
+
+
+PIPERIDINE_ON_MALONONITRILE = """\
+species malononitrile = "N#C[CH2:3]C#N"
+species base = "C1CC[NH:4]CC1"
+step "deprotonation"
+    :N4 -> H(C3)
+    C3-H -> C3
+end
+"""
+
+
+def test_piperidine_on_malononitrile_is_not_flagged():
+    """Knoevenagel condensation (textbook): piperidine (ammonium ~10) deprotonates malononitrile
+    (~11, memory). Its C-H was once judged as a plain nitrile alpha C-H (~25), 15 units uphill."""
+    _, diags = check_text(PIPERIDINE_ON_MALONONITRILE, "knoevenagel.mech")
+    assert not [d.to_text() for d in diags if d.code == "AR508"]
+    for smiles in ("N#CCC#N", "N#CCC(=O)OCC"):   # and ethyl cyanoacetate, the other textbook donor
+        entry = acidity_of(perceived(Chem.MolFromSmiles(smiles)), 2)
+        assert entry is not None and entry.pka < 14, smiles
+
+
+def test_tert_butoxide_on_a_sulfonium_salt_is_not_flagged():
+    """Corey-Chaykovsky ylide formation (textbook): tert-butoxide (~18) takes a proton of
+    trimethylsulfonium (~18, memory). That C-H was once judged as an alkane's (~50): AR508."""
+    text = ('species salt = "C[S+](C)[CH3:2]"\nspecies base = "CC(C)(C)[O-:3]"\n'
+            'step "deprotonation"\n    :O3 -> H(C2)\n    C2-H -> C2\nend\n')
+    _, diags = check_text(text, "ylide.mech")
+    assert not [d.to_text() for d in diags if d.code == "AR508"]

@@ -21,7 +21,7 @@ from arrows.checks.stereo import final_stereo, step_stereo
 from arrows.cli import cli
 from arrows.judgement.stereo import CENTRE, DOUBLE_BOND, relation, stereo_elements
 
-from textbook_mechanisms import NITRATION, SNAR
+from textbook_mechanisms import BAEYER_VILLIGER_RETENTION, NITRATION, SNAR
 
 GALLERY = sorted((Path(__file__).resolve().parent.parent / "gallery").glob("*.mech"))
 
@@ -273,6 +273,20 @@ def test_the_opening_of_an_epoxide_by_methanol_inverts_the_carbon_attacked():
         rdCIPLabeler.AssignCIPLabels(mol)
         labels.append([a.GetProp("_CIPCode") for a in mol.GetAtoms() if a.HasProp("_CIPCode")])
     assert labels == [["R"], ["S"]]
+
+
+def test_a_migrating_carbon_keeps_its_configuration():
+    """Baeyer-Villiger oxidation of (S)-3-phenylbutan-2-one: the secondary carbon migrates from
+    carbon to oxygen with retention (textbook: a 1,2-shift keeps the migrating group's
+    configuration), giving (S)-1-phenylethyl acetate; RDKit's CIP labeller judges, and no
+    second stereoisomer is counted. The configuration was once cleared: 2 stereoisomers."""
+    from rdkit.Chem import rdCIPLabeler
+    trace, diags = check_text(BAEYER_VILLIGER_RETENTION)
+    assert [d for d in diags if d.severity == "error"] == []
+    product = Chem.MolFromSmiles(next(s for s in _without_maps(trace.final.mol).split(".") if "c" in s))
+    rdCIPLabeler.AssignCIPLabels(product)
+    assert [a.GetProp("_CIPCode") for a in product.GetAtoms() if a.HasProp("_CIPCode")] == ["S"]
+    assert not [d for d in diags if d.code == "AR602" and "stereoisomers can form" in d.message]
 
 
 def test_an_sn1_capture_leaves_the_centre_free():

@@ -59,7 +59,7 @@ def product_stereo(final: Optional[ElectronState], touched: set[int], views: Opt
             continue
         position = {old: new for new, old in enumerate(sorted(indices))}
         # A touched atom is free to take either configuration unless the replay carried one
-        # through the step (a backside substitution inverts the written one).
+        # through the step (a backside substitution inverts the written one, a 1,2-shift keeps it).
         uncontrolled = [position[i] for i in touched if i in position
                         and final.mol.GetAtomWithIdx(i).GetChiralTag() == Chem.ChiralType.CHI_UNSPECIFIED]
         piece = fragment(final.mol, indices)

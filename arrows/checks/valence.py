@@ -16,18 +16,23 @@ class UnusualElectronCounts(Check):
     codes = ("AR503", "AR504")
 
     def step(self, st: StepTrace, context) -> Iterator[Diagnostic]:
-        after = st.after
+        after, before = st.after, st.before
         if after is not None:
             for i, shell in st.change.shells.items():
                 charge = after.formal_charge(i)
-                if abs(charge) >= 2:
+                # As for the shell below: a charge the species was written with and the step keeps
+                # (a sulfonyl S written S2+ with two O-) is not the step's doing.
+                if abs(charge) >= 2 and charge != before.formal_charge(i):
                     z = after.mol.GetAtomWithIdx(i).GetAtomicNum()
                     if z not in _IONIC_METALS:
                         label = after.label(i)
                         yield Diagnostic("AR503", f"{label} ends the step with formal charge {charge:+d}", st.step.loc,
                                          hint="a charge of two on one atom is rare; check the moves onto this atom",
                                          atoms=(label,), step=st.index)
-                if shell > 8 and after.mol.GetAtomWithIdx(i).GetAtomicNum() > 10:
+                # Only a step that expands the shell: a sulfonyl S substituted (an alcohol onto MsCl)
+                # keeps the twelve electrons its species was written with.
+                if (shell > 8 and shell > before.nonbonding[i] + 2 * before.bond_sums[i]
+                        and after.mol.GetAtomWithIdx(i).GetAtomicNum() > 10):
                     label = after.label(i)
                     yield Diagnostic("AR504", f"{label} holds {shell} valence electrons (expanded octet)", st.step.loc,
                                      hint="fine for hypervalent P, S or I; otherwise a bond should break",

@@ -42,8 +42,9 @@ _CURL_WEIGHT = 0.5              # penalty per degree beyond _MAX_TURN
 _LOOP_STANDOFF = 0.45           # bond lengths: a turned-back arc standing further off its chord is a loop
 _SELF_CROSSING = math.radians(240)   # an arc turning this far crosses itself
 _HOOK_LENGTH = 0.9              # bond lengths: the shortest path that reads as an arc from a bond to its own atom
-_SHORT_HOOK = 10.0              # penalty per bond length such an arrow falls short of that
+_SHORT_HOOK = 20.0              # penalty per bond length such an arrow falls short of that
 _TICK = 4.0                     # penalty of a plain arc where a pair goes from a bond to its own atom
+_PAIR_ARC = 0.8                 # bond lengths: the shortest path from dots into their own atom's bond
 _SHIFT_BULGE = 0.2              # bond lengths a 1,2-shift's arc stands out from its chord, away from the pivot
 _TIGHT_SHIFT = 5.0              # penalty of one that stands out less (or bulges toward the pivot)
 _CROOK = 1.0                    # penalty of an arc cramped inside the angle of the two bonds it joins
@@ -260,7 +261,12 @@ class ArrowPlanner:
         for move, src, snk in zip(moves, sources, sinks):
             hooks = self._hooks(move, src, snk, panel)
             # A fishhook from a bond to its own atom never sets off backwards: that reads as an S.
+            # Nor back along the bond, away from that atom (a wide label such as Sn leaves the
+            # head near the bond's middle, where an arc forward along the chord can do so).
             arcs = self._candidates(src, snk, panel, forward_only=bool(hooks))
+            if hooks:
+                along = panel.positions[snk.atoms[0]] - src.point
+                arcs = [c for c in arcs if ((c.p1 - c.p0) * along.conjugate()).real >= 0]
             if hooks and move.electrons == 2:
                 # A pair from a bond to its own atom: an arc over that short span reads as a tick;
                 # it is drawn only where the half-loops are blocked.
@@ -399,7 +405,12 @@ class ArrowPlanner:
         mid = (pos[x] + pos[y]) / 2
         axis = _unit(pos[y] - pos[x])
         if bonded:
-            return _Anchor("bond", mid, (x, y), extent=panel.bond_extent.get((min(x, y), max(x, y)), 0.0), axis=axis)
+            # A double bond drawn to one side is aimed at the middle of its two strokes, so a head
+            # arriving from the bare side does not stand off as far as the second stroke.
+            key = (min(x, y), max(x, y))
+            lean = panel.bond_lean.get(key, 0j)
+            return _Anchor("bond", mid + lean / 2, (x, y), extent=panel.bond_extent.get(key, 0.0) - abs(lean) / 2,
+                           axis=axis)
         reached = [a for a in (x, y) if a not in move.source_atoms]
         pivot = None
         if len(reached) == 1:
@@ -592,11 +603,14 @@ class ArrowPlanner:
         cost += np.where((outward != 0) & ((leave * np.conj(outward)).real < -0.2), 20.0, 0.0)
         lengths = np.abs(np.diff(pts, axis=1)).sum(axis=1)
         cost += lengths / bl
-        # An arrow from a bond to one of its own atoms shorter than _HOOK_LENGTH reads as a tick
-        # rather than an arc (common practice draws it as a clear half-loop).
-        hooks = np.array([_to_own_atom(m) for m in moves])
-        if hooks.any():
-            cost += np.where(hooks[owner], _SHORT_HOOK * np.maximum(0.0, _HOOK_LENGTH - lengths / bl), 0.0)
+        # An arrow from a bond to one of its own atoms shorter than _HOOK_LENGTH, or a pair from
+        # an atom's dots into a bond of that atom shorter than _PAIR_ARC, reads as a tick rather
+        # than an arc (common practice draws a clear half-loop or arc over).
+        shortest = np.array([_HOOK_LENGTH if _to_own_atom(m) else
+                             _PAIR_ARC if src.kind == "dots" and snk.kind == "bond" and src.atoms[0] in snk.atoms else 0.0
+                             for m, src, snk in zip(moves, sources, sinks)])
+        if shortest.any():
+            cost += _SHORT_HOOK * np.maximum(0.0, shortest[owner] - lengths / bl)
         # A pair leaving a bond: one clean arc, never a loop.
         from_bond = np.flatnonzero(np.array([src.kind == "bond" for src in sources])[owner])
         if len(from_bond):

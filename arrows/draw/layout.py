@@ -891,7 +891,7 @@ class _LayoutBuilder:
     def _phases(self, group: list[int]) -> tuple[dict[int, complex], list[tuple[int, dict[int, complex]]]]:
         """Depictions of a cluster whose bonds over the whole mechanism cannot be drawn at one
         length (a ring that grows as a bond migrates, as in a Baeyer-Villiger oxidation) or that
-        holds an sp atom which later bends: runs of panels as long as one depiction draws them
+        holds an sp atom which later bends or straightens: runs of panels as long as one depiction draws them
         evenly, with every such atom straight or bent throughout, each run drawn from its own bonds (an
         atom with none there takes the bonds it has next), each aligned on the one before by the
         atoms the step between them leaves alone. Chemists redraw a ring that changes size; its
@@ -905,6 +905,9 @@ class _LayoutBuilder:
                 if any(self._linear(a, range(start, end + 1)) and not self._linear(a, range(start, end + 2))
                        for a in group):
                     break     # an sp atom that bends (a nitronium attacked) is drawn straight, then bent
+                if any(self._linear(a, range(end + 1, end + 2)) and not self._linear(a, range(start, end + 2))
+                       for a in group):
+                    break     # one that straightens (a nitrilium made by a shift) is drawn bent, then straight
                 trial_bonds = self._run_bonds(group, start, end + 1)
                 trial = self._depict(group, trial_bonds, range(start, end + 2))
                 if not self._even(trial, group, range(start, end + 2)):
@@ -1341,13 +1344,14 @@ class _LayoutBuilder:
 
     def _joins_cis(self, anchor: int, mover: int, u: complex, v: complex, depicted: dict[int, complex],
                    k: int) -> bool:
-        """Whether the bond anchor-mover, double in some panel, would put the largest branches
+        """Whether the C-C bond anchor-mover, double in some panel, would put the largest branches
         of its two ends on one side when the cluster comes in along u with v facing the anchor.
         A chain double bond no species wrote E or Z for is drawn trans (the zigzag of common
         practice, and the E alkene an E1cB or an aldol condensation is drawn as)."""
         pair = (min(anchor, mover), max(anchor, mover))
-        if self.union.get(pair) != 2 or pair in self.written_double:
-            return False
+        if self.union.get(pair) != 2 or pair in self.written_double or self.element[anchor] != 6 \
+                or self.element[mover] != 6:
+            return False   # alkenes only: an imine's or iminium's drawing is left as it comes
         here = self.positions[k]
         sides = []
         for end, other, where in ((anchor, mover, here), (mover, anchor, depicted)):
@@ -1595,7 +1599,13 @@ class _LayoutBuilder:
         others = np.array([p for kk in range(segment[0], segment[1] + 1) for a, p in self.positions[kk].items()
                            if a not in atoms], dtype=complex)
         if not apart:
-            if not split or not len(others) or np.abs(shift + local[:, None] - others[None, :]).min() >= _CLEARANCE:
+            # Only a fragment that took the pair away moves off: the one it left (the carbon of an
+            # SN2, where the nucleophile has come in) stays.
+            before = self.states[k - 1]
+            took = any(before.nonbonding[a] < self.states[k].nonbonding[a]
+                       for a in (i if i in atoms else j for i, j in split))
+            if (not split or not took or not len(others)
+                    or np.abs(shift + local[:, None] - others[None, :]).min() >= _CLEARANCE):
                 return previous
         for extra in ((0.7, 0.5, 0.3) if apart else (1.0, 1.5, 2.0)):
             moved = shift + direction * extra

@@ -45,6 +45,7 @@ class PanelStructure:
     occupied: dict[int, list[complex]] = field(default_factory=dict)   # unit directions taken around each atom
     bond_directions: dict[int, list[complex]] = field(default_factory=dict)
     bond_extent: dict[tuple[int, int], float] = field(default_factory=dict)  # half-width of each bond's strokes
+    bond_lean: dict[tuple[int, int], complex] = field(default_factory=dict)  # a one-sided double's second stroke
 
     def label_reach(self, atom: int, direction: complex) -> float:
         """How far the atom's label reaches from its centre along direction (0: no label)."""
@@ -119,6 +120,11 @@ def _box_to_segment(box: Box, p: complex, q: complex, samples: int = 16) -> floa
     """Nearest approach of the segment p-q to the box (sampled; zero where it enters it)."""
     return min(box.distance(((p + (q - p) * k / samples).real, (p + (q - p) * k / samples).imag))
                for k in range(samples + 1))
+
+
+def _separation(a: Box, b: Box) -> float:
+    """How far apart two boxes are along the axis that separates them most (negative: overlap)."""
+    return max(b.x0 - a.x1, a.x0 - b.x1, b.y0 - a.y1, a.y0 - b.y1)
 
 
 def _unit_or_zero(z: complex) -> complex:
@@ -427,6 +433,7 @@ class StructureDrawer:
                 lines, extent = [line(n * gap / 2), line(-n * gap / 2)], gap / 2
             else:
                 lines, extent = [line(0), line(side * n * gap, trim=0.14 * bl)], gap
+                out.bond_lean[(min(i, j), max(i, j))] = side * n * gap
         elif order == 3:
             lines, extent = [line(0), line(n * gap * 0.8), line(-n * gap * 0.8)], gap * 0.8
         else:
@@ -607,13 +614,18 @@ class StructureDrawer:
         others = [a.box for j, a in out.atoms.items() if j != i and a.box is not None] + \
                  [m.box for m in out.marks if m.box is not None]
         best = None
-        for direction in islice(ranked_directions(out.occupied[i], preferred), 12):
+        # A charge keeps near its first choice (the arrows, planned later, avoid it there); a
+        # drafting label may go all the way round, and where every direction meets something,
+        # takes the one that overlaps least.
+        tried = islice(ranked_directions(out.occupied[i], preferred), 12 if kind == "charge" else 24)
+        for direction in tried:
             mark, slid = self._side_text_at(kind, i, text, out, direction, width, cap, size, italic)
             # Slid far out along a crowded direction, the text no longer reads as the atom's.
-            fault = (any(mark.box.overlaps(b, pad) for b in others), slid >= _FAR_SLIDE)
+            gap = min((_separation(mark.box, b) for b in others), default=math.inf)
+            fault = (gap < pad, slid >= _FAR_SLIDE, 0.0 if kind == "charge" else -min(gap, pad))
             if best is None or fault < best[0]:
                 best = (fault, direction, mark)
-            if fault == (False, False):
+            if not fault[0] and not fault[1]:
                 break
         _, direction, mark = best
         out.occupied[i].append(direction)

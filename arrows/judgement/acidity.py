@@ -44,6 +44,8 @@ TABLE: tuple[Acidity, ...] = (
     Acidity("a protonated alcohol or ether", "an alcohol or ether", "[OX3+;!H0]", -2, "~-2", NOT_LISTED),
     Acidity("a carboxylic acid", "a carboxylate", "[OX2H1][CX3]=O", 4.8, "~4.8", TEXTBOOK),
     Acidity("a 1,3-dicarbonyl C-H", "a 1,3-dicarbonyl enolate", "[CX4;!H0]([CX3]=O)[CX3]=O", 9, "~9", TEXTBOOK),
+    Acidity("a C-H beside a nitrile and a carbonyl or nitrile", "a stabilised carbanion",
+            "[CX4;!H0](C#N)[$([CX3]=O),$(C#N)]", 11, "~11", NOT_LISTED),   # malononitrile ~11
     Acidity("a phenol", "a phenoxide", "[OX2H1]c", 10, "~10", TEXTBOOK),
     Acidity("an ammonium ion", "an amine", "[NX4+;!H0]", 10, "~10", TEXTBOOK),
     Acidity("an enol", "an enolate oxygen", "[OX2H1][CX3]=[CX3]", 10.5, "~10-11", NOT_LISTED),
@@ -59,7 +61,10 @@ TABLE: tuple[Acidity, ...] = (
     Acidity("an amide alpha C-H", "an amide enolate", "[CX4;!H0][CX3](=O)[NX3]", 30, "~30", NOT_LISTED),
     Acidity("a nitrile alpha C-H", "a nitrile anion", "[CX4;!H0]C#N", 25, "~25", NOT_LISTED),
     Acidity("a terminal alkyne C-H", "an acetylide", "[CX2H1]#C", 25, "~25", TEXTBOOK),
-    Acidity("an amine N-H", "an amide ion", "[NX3;!H0;!$(N[CX3]=O);!$(N=*)]", 38, "~38", TEXTBOOK),
+    Acidity("a C-H beside a sulfonium", "a sulfonium ylide", "[CX4;!H0][SX3+]", 18, "~18", NOT_LISTED),
+    # Not an amine: an N-H beside a double bond (amide, hydrazone, enamine, amidine, sulfonamide),
+    # whose anion spreads onto the far atom and is far less basic than NH2-; unjudged unless listed.
+    Acidity("an amine N-H", "an amide ion", "[NX3;!H0;!$(N*=*);!$(N=*)]", 38, "~38", TEXTBOOK),
     Acidity("an alkene or arene C-H", "a vinyl or aryl anion", "[#6X3;!H0;$([#6]=[#6]),$([c])]", 44, "~44",
             TEXTBOOK),
     Acidity("an alkane C-H", "an alkyl carbanion", "[CX4;!H0]", 50, "~50", TEXTBOOK),
