@@ -524,8 +524,8 @@ class ArrowPlanner:
         arrow = np.arange(len(moves))[:, None]
         obs = [w.obstacles for w in work]
         p0, tip = pts[:, :1], pts[:, -1:]
-        inner = ((np.abs(pts - p0) > 0.22 * bl) & (np.abs(pts - tip) > 0.22 * bl))[:, :, None]
-        x, y = pts.real[:, :, None], pts.imag[:, :, None]
+        inner = (np.abs(pts - p0) > 0.22 * bl) & (np.abs(pts - tip) > 0.22 * bl)
+        extent = _Extent(pts)
         # Which atoms each arrow's own move names, as one boolean row per arrow.
         known = max([o.largest_id for o in obs] + [i for m in moves for i in m.source_atoms + m.sink_atoms])
         own = np.zeros((len(moves), known + 1), dtype=bool)
@@ -538,11 +538,11 @@ class ArrowPlanner:
         marks = _padded([o.marks for o in obs], _NO_BOX)
         # Every penalty counted per sample, in one array whose last axis is: label boxes, charge
         # signs and dots, skeletal vertices; then the bonds crossed. numpy's cost here is per call.
-        boxes = np.concatenate([_padded([o.label_boxes for o in obs], _NO_BOX), marks], axis=1)[where][:, None]
-        in_box = (x >= boxes[..., 0]) & (x <= boxes[..., 2]) & (y >= boxes[..., 1]) & (y <= boxes[..., 3])
-        bare_xy = _padded([o.bare_xy for o in obs], _NOWHERE, complex)[where][:, None, :]
-        near = np.abs(pts[:, :, None] - bare_xy) < np.where(own_bare, 0.12 * bl, 0.24 * bl)[owner][:, None, :]
-        counts = (np.concatenate([in_box, near], axis=2) & inner).sum(axis=1)
+        boxes = np.concatenate([_padded([o.label_boxes for o in obs], _NO_BOX), marks], axis=1)[where]
+        bare_xy = _padded([o.bare_xy for o in obs], _NOWHERE, complex)[where]
+        near = np.where(own_bare, 0.12 * bl, 0.24 * bl)[owner]
+        counts = np.concatenate([_inner_samples_in_boxes(pts, inner, extent, boxes),
+                                 _inner_samples_near(pts, inner, extent, bare_xy, near)], axis=1)
         ends = _padded([o.bond_ends for o in obs], (0, 0), int)[panel_of]
         crossing = np.where(own[arrow, ends[..., 0]] | own[arrow, ends[..., 1]], 6.0, 18.0)
         for k, anchors in enumerate(zip(sources, sinks)):
@@ -555,7 +555,7 @@ class ArrowPlanner:
                                   np.where(own_bare, 10.0, 30.0), crossing], axis=1)
         bond_a = _padded([o.bond_a for o in obs], 0j, complex)[where]
         bond_b = _padded([o.bond_b for o in obs], 0j, complex)[where]
-        counts = np.concatenate([counts, _crossing_counts(pts, bond_a, bond_b)], axis=1)
+        counts = np.concatenate([counts, _crossing_counts(pts, bond_a, bond_b, extent)], axis=1)
         # Whole counts times whole weights: the sum is exact, whatever the padding and order.
         cost = (counts * weights[owner]).sum(axis=1)
         # Bulging into the molecule: atoms crowding the middle third of the curve.
@@ -857,17 +857,56 @@ def _parameters_at_distances(controls: np.ndarray, distances: np.ndarray) -> lis
 _TOUCH = 1e-6   # points: bounding boxes this close count as meeting, so rounding never hides a crossing
 
 
-def _crossing_counts(pts: np.ndarray, a: np.ndarray, b: np.ndarray) -> np.ndarray:
-    """For each polyline (rows of pts) and each segment a[r, e]-b[r, e] of its row: how many
-    times they cross."""
+class _Extent:
+    """The bounding box of each polyline (rows of samples), as columns: the sample tests below
+    look only at an obstacle that comes within reach of a row's box."""
+
+    def __init__(self, pts: np.ndarray):
+        self.x0, self.x1 = pts.real.min(axis=1)[:, None], pts.real.max(axis=1)[:, None]
+        self.y0, self.y1 = pts.imag.min(axis=1)[:, None], pts.imag.max(axis=1)[:, None]
+
+
+def _inner_samples_in_boxes(pts: np.ndarray, inner: np.ndarray, extent: _Extent, boxes: np.ndarray) -> np.ndarray:
+    """For each polyline (rows of pts) and each box (x0, y0, x1, y1) of its row: how many of its
+    `inner` samples lie in the box. A box that misses the row's bounding box holds none of
+    them: only the others are tested, sample by sample."""
+    meet = ((boxes[..., 0] <= extent.x1) & (boxes[..., 2] >= extent.x0)
+            & (boxes[..., 1] <= extent.y1) & (boxes[..., 3] >= extent.y0))
+    c, k = np.nonzero(meet)
+    box = boxes[c, k]
+    x, y = pts.real[c], pts.imag[c]
+    hit = ((x >= box[:, 0:1]) & (x <= box[:, 2:3]) & (y >= box[:, 1:2]) & (y <= box[:, 3:4])) & inner[c]
+    out = np.zeros(meet.shape, dtype=int)
+    out[c, k] = hit.sum(axis=1)
+    return out
+
+
+def _inner_samples_near(pts: np.ndarray, inner: np.ndarray, extent: _Extent, points: np.ndarray,
+                        radius: np.ndarray) -> np.ndarray:
+    """For each polyline (rows of pts) and each point of its row: how many of its `inner` samples
+    lie closer than radius[row, point]. Only points within reach of the row's bounding box are
+    tested (the reach a little wider than the radius, so rounding never hides a sample)."""
+    reach = radius * 1.001 + _TOUCH
+    meet = ((points.real >= extent.x0 - reach) & (points.real <= extent.x1 + reach)
+            & (points.imag >= extent.y0 - reach) & (points.imag <= extent.y1 + reach))
+    c, k = np.nonzero(meet)
+    hit = (np.abs(pts[c] - points[c, k][:, None]) < radius[c, k][:, None]) & inner[c]
+    out = np.zeros(meet.shape, dtype=int)
+    out[c, k] = hit.sum(axis=1)
+    return out
+
+
+def _crossing_counts(pts: np.ndarray, a: np.ndarray, b: np.ndarray, extent: _Extent) -> np.ndarray:
+    """For each polyline (rows of pts, bounded by `extent`) and each segment a[r, e]-b[r, e] of
+    its row: how many times they cross."""
     rows, edges = a.shape
     if edges == 0:
         return np.zeros((rows, 0), dtype=int)
     # Only a polyline and a segment whose bounding boxes meet can cross: the rest are not tested.
     left, right = np.minimum(a.real, b.real), np.maximum(a.real, b.real)
     top, bottom = np.minimum(a.imag, b.imag), np.maximum(a.imag, b.imag)
-    meet = ((left <= pts.real.max(axis=1)[:, None] + _TOUCH) & (right >= pts.real.min(axis=1)[:, None] - _TOUCH)
-            & (top <= pts.imag.max(axis=1)[:, None] + _TOUCH) & (bottom >= pts.imag.min(axis=1)[:, None] - _TOUCH))
+    meet = ((left <= extent.x1 + _TOUCH) & (right >= extent.x0 - _TOUCH)
+            & (top <= extent.y1 + _TOUCH) & (bottom >= extent.y0 - _TOUCH))
     c, e = np.nonzero(meet)
     ax, ay, bx, by = a.real[c, e], a.imag[c, e], b.real[c, e], b.imag[c, e]
     ex, ey = (bx - ax)[:, None], (by - ay)[:, None]
