@@ -635,7 +635,10 @@ class ArrowPlanner:
                     blocks.append((k, i, j, len(options[i]), len(options[j])))
         if not blocks:
             return out
-        cost = self._pair_block(_curve_features(first, controls, samples), _curve_features(second, controls, samples))
+        # Both sides' features in one gathering, then split: numpy's cost here is per call.
+        features = _curve_features(np.array(first + second), controls, samples)
+        split = len(first)
+        cost = self._pair_block(tuple(f[:split] for f in features), tuple(f[split:] for f in features))
         start = 0
         for k, i, j, rows, columns in blocks:
             out[k][(i, j)] = cost[start:start + rows * columns].reshape(rows, columns)
@@ -799,7 +802,7 @@ def _split_bond_sides(w: _PanelArrows, options: list[list[_Candidate]],
             pairs[(i, j)] = pairs[(i, j)] + _SAME_SIDE * (sides[0][:, None] == sides[1][None, :])
 
 
-def _curve_features(rows: list[int], controls: np.ndarray, samples: np.ndarray) -> tuple[np.ndarray, ...]:
+def _curve_features(rows: np.ndarray, controls: np.ndarray, samples: np.ndarray) -> tuple[np.ndarray, ...]:
     """Tips, starts, shaft samples without their ends and coarse chord points (five chords) of
     the candidates in `rows` (their rows in the scheme's arrays)."""
     points = samples[rows]                                             # (rows, S)

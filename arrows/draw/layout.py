@@ -1476,10 +1476,11 @@ class _LayoutBuilder:
         shown = [k for k in stay if r.hydrogen in self.touched[k] or (k > 0 and r.hydrogen in self.touched[k - 1])]
         panels = shown or stay
 
-        # Other atoms relative to the holder, over those panels (duplicates dropped).
-        relative = np.array(sorted({p - self.positions[k][r.holder] for k in panels
-                                    for a, p in self.positions[k].items() if a not in (r.hydrogen, r.holder)},
-                                   key=lambda z: (z.real, z.imag)), dtype=complex)
+        # Other atoms relative to the holder, over those panels (duplicates dropped; in no
+        # particular order, as only their nearest approach is asked for).
+        relative = np.array(list({p - self.positions[k][r.holder] for k in panels
+                                  for a, p in self.positions[k].items() if a not in (r.hydrogen, r.holder)}),
+                            dtype=complex)
         following = runs[n + 1] if n + 1 < len(runs) else None
         partner = None
         if (following is not None and following.holder is not None and following.first == r.last + 1
