@@ -209,8 +209,8 @@ class ArrowPlanner:
         points = controls @ _BERNSTEIN
         for row, c in enumerate(candidates):
             c.row = row
-        x0, y0 = points.real.min(axis=1).tolist(), points.imag.min(axis=1).tolist()
-        x1, y1 = points.real.max(axis=1).tolist(), points.imag.max(axis=1).tolist()
+        extent = _Extent(points)
+        x0, y0, x1, y1 = (column.ravel().tolist() for column in (extent.x0, extent.y0, extent.x1, extent.y1))
         reach = 1.3 * self.bl     # the crowding term looks this far from a curve
         start = 0
         for w in work:
@@ -220,7 +220,7 @@ class ArrowPlanner:
                                      min(y0[start:end]) - reach, max(x1[start:end]) + reach,
                                      max(y1[start:end]) + reach)
             start = end
-        self._score(work, candidates, controls, points)
+        self._score(work, candidates, controls, points, extent)
         kept = [[sorted(tries, key=lambda c: c.cost)[:_KEEP] for tries in w.tries] for w in work]
         pair_costs = self._pair_costs(kept, controls, points)
         for w, options, pairs in zip(work, kept, pair_costs):
@@ -508,11 +508,12 @@ class ArrowPlanner:
 
     # penalties
     def _score(self, work: list[_PanelArrows], candidates: list[_Candidate], controls: np.ndarray,
-               pts: np.ndarray) -> None:
+               pts: np.ndarray, extent: _Extent) -> None:
         """Penalties of every candidate of every arrow of every panel, in one batch. `pts` holds
-        the candidates' samples, one row each, `controls` their control points. Each panel's obstacles are padded to the largest
-        panel's count by fillers that never count, so each penalty column means one obstacle
-        of the candidate's own panel (or nothing)."""
+        the candidates' samples, one row each (bounded by `extent`), `controls` their control
+        points. Each panel's obstacles are padded to the largest panel's count by fillers that
+        never count, so each penalty column means one obstacle of the candidate's own panel (or
+        nothing)."""
         bl = self.bl
         moves = [m for w in work for m in w.moves]
         sources = [s for w in work for s in w.sources]
@@ -525,7 +526,6 @@ class ArrowPlanner:
         obs = [w.obstacles for w in work]
         p0, tip = pts[:, :1], pts[:, -1:]
         inner = (np.abs(pts - p0) > 0.22 * bl) & (np.abs(pts - tip) > 0.22 * bl)
-        extent = _Extent(pts)
         # Which atoms each arrow's own move names, as one boolean row per arrow.
         known = max([o.largest_id for o in obs] + [i for m in moves for i in m.source_atoms + m.sink_atoms])
         own = np.zeros((len(moves), known + 1), dtype=bool)
