@@ -212,8 +212,8 @@ class ArrowPlanner:
         points = controls @ _BERNSTEIN
         for row, c in enumerate(candidates):
             c.row = row
-        x0, y0 = points.real.min(axis=1).tolist(), points.imag.min(axis=1).tolist()
-        x1, y1 = points.real.max(axis=1).tolist(), points.imag.max(axis=1).tolist()
+        extent = _Extent(points)
+        x0, y0, x1, y1 = (column.ravel().tolist() for column in (extent.x0, extent.y0, extent.x1, extent.y1))
         reach = 1.3 * self.bl     # the crowding term looks this far from a curve
         start = 0
         for w in work:
@@ -223,7 +223,7 @@ class ArrowPlanner:
                                      min(y0[start:end]) - reach, max(x1[start:end]) + reach,
                                      max(y1[start:end]) + reach)
             start = end
-        self._score(work, candidates, controls, points)
+        self._score(work, candidates, controls, points, extent)
         kept = [[sorted(tries, key=lambda c: c.cost)[:_KEEP] for tries in w.tries] for w in work]
         pair_costs = self._pair_costs(kept, controls, points)
         for w, options, pairs in zip(work, kept, pair_costs):
@@ -530,11 +530,12 @@ class ArrowPlanner:
 
     # penalties
     def _score(self, work: list[_PanelArrows], candidates: list[_Candidate], controls: np.ndarray,
-               pts: np.ndarray) -> None:
+               pts: np.ndarray, extent: _Extent) -> None:
         """Penalties of every candidate of every arrow of every panel, in one batch. `pts` holds
-        the candidates' samples, one row each, `controls` their control points. Each panel's obstacles are padded to the largest
-        panel's count by fillers that never count, so each penalty column means one obstacle
-        of the candidate's own panel (or nothing)."""
+        the candidates' samples, one row each (bounded by `extent`), `controls` their control
+        points. Each panel's obstacles are padded to the largest panel's count by fillers that
+        never count, so each penalty column means one obstacle of the candidate's own panel (or
+        nothing)."""
         bl = self.bl
         moves = [m for w in work for m in w.moves]
         sources = [s for w in work for s in w.sources]
@@ -546,8 +547,7 @@ class ArrowPlanner:
         arrow = np.arange(len(moves))[:, None]
         obs = [w.obstacles for w in work]
         p0, tip = pts[:, :1], pts[:, -1:]
-        inner = ((np.abs(pts - p0) > 0.22 * bl) & (np.abs(pts - tip) > 0.22 * bl))[:, :, None]
-        x, y = pts.real[:, :, None], pts.imag[:, :, None]
+        inner = (np.abs(pts - p0) > 0.22 * bl) & (np.abs(pts - tip) > 0.22 * bl)
         # Which atoms each arrow's own move names, as one boolean row per arrow.
         known = max([o.largest_id for o in obs] + [i for m in moves for i in m.source_atoms + m.sink_atoms])
         own = np.zeros((len(moves), known + 1), dtype=bool)
@@ -560,11 +560,11 @@ class ArrowPlanner:
         marks = _padded([o.marks for o in obs], _NO_BOX)
         # Every penalty counted per sample, in one array whose last axis is: label boxes, charge
         # signs and dots, skeletal vertices; then the bonds crossed. numpy's cost here is per call.
-        boxes = np.concatenate([_padded([o.label_boxes for o in obs], _NO_BOX), marks], axis=1)[where][:, None]
-        in_box = (x >= boxes[..., 0]) & (x <= boxes[..., 2]) & (y >= boxes[..., 1]) & (y <= boxes[..., 3])
-        bare_xy = _padded([o.bare_xy for o in obs], _NOWHERE, complex)[where][:, None, :]
-        near = np.abs(pts[:, :, None] - bare_xy) < np.where(own_bare, 0.12 * bl, 0.24 * bl)[owner][:, None, :]
-        counts = (np.concatenate([in_box, near], axis=2) & inner).sum(axis=1)
+        boxes = np.concatenate([_padded([o.label_boxes for o in obs], _NO_BOX), marks], axis=1)[where]
+        bare_xy = _padded([o.bare_xy for o in obs], _NOWHERE, complex)[where]
+        near = np.where(own_bare, 0.12 * bl, 0.24 * bl)[owner]
+        counts = np.concatenate([_inner_samples_in_boxes(pts, inner, extent, boxes),
+                                 _inner_samples_near(pts, inner, extent, bare_xy, near)], axis=1)
         ends = _padded([o.bond_ends for o in obs], (0, 0), int)[panel_of]
         crossing = np.where(own[arrow, ends[..., 0]] | own[arrow, ends[..., 1]], 6.0, 18.0)
         for k, anchors in enumerate(zip(sources, sinks)):
@@ -577,7 +577,7 @@ class ArrowPlanner:
                                   np.where(own_bare, 10.0, 30.0), crossing], axis=1)
         bond_a = _padded([o.bond_a for o in obs], 0j, complex)[where]
         bond_b = _padded([o.bond_b for o in obs], 0j, complex)[where]
-        counts = np.concatenate([counts, _crossing_counts(pts, bond_a, bond_b)], axis=1)
+        counts = np.concatenate([counts, _crossing_counts(pts, bond_a, bond_b, extent)], axis=1)
         # Whole counts times whole weights: the sum is exact, whatever the padding and order.
         cost = (counts * weights[owner]).sum(axis=1)
         # Bulging into the molecule: atoms crowding the middle third of the curve.
@@ -659,7 +659,10 @@ class ArrowPlanner:
                     blocks.append((k, i, j, len(options[i]), len(options[j])))
         if not blocks:
             return out
-        cost = self._pair_block(_curve_features(first, controls, samples), _curve_features(second, controls, samples))
+        # Both sides' features in one gathering, then split: numpy's cost here is per call.
+        features = _curve_features(np.array(first + second), controls, samples)
+        split = len(first)
+        cost = self._pair_block(tuple(f[:split] for f in features), tuple(f[split:] for f in features))
         start = 0
         for k, i, j, rows, columns in blocks:
             out[k][(i, j)] = cost[start:start + rows * columns].reshape(rows, columns)
@@ -827,7 +830,7 @@ def _split_bond_sides(w: _PanelArrows, options: list[list[_Candidate]],
             pairs[(i, j)] = pairs[(i, j)] + _SAME_SIDE * (sides[0][:, None] == sides[1][None, :])
 
 
-def _curve_features(rows: list[int], controls: np.ndarray, samples: np.ndarray) -> tuple[np.ndarray, ...]:
+def _curve_features(rows: np.ndarray, controls: np.ndarray, samples: np.ndarray) -> tuple[np.ndarray, ...]:
     """Tips, starts, shaft samples without their ends and coarse chord points (five chords) of
     the candidates in `rows` (their rows in the scheme's arrays)."""
     points = samples[rows]                                             # (rows, S)
@@ -885,17 +888,56 @@ def _parameters_at_distances(controls: np.ndarray, distances: np.ndarray) -> lis
 _TOUCH = 1e-6   # points: bounding boxes this close count as meeting, so rounding never hides a crossing
 
 
-def _crossing_counts(pts: np.ndarray, a: np.ndarray, b: np.ndarray) -> np.ndarray:
-    """For each polyline (rows of pts) and each segment a[r, e]-b[r, e] of its row: how many
-    times they cross."""
+class _Extent:
+    """The bounding box of each polyline (rows of samples), as columns: the sample tests below
+    look only at an obstacle that comes within reach of a row's box."""
+
+    def __init__(self, pts: np.ndarray):
+        self.x0, self.x1 = pts.real.min(axis=1)[:, None], pts.real.max(axis=1)[:, None]
+        self.y0, self.y1 = pts.imag.min(axis=1)[:, None], pts.imag.max(axis=1)[:, None]
+
+
+def _inner_samples_in_boxes(pts: np.ndarray, inner: np.ndarray, extent: _Extent, boxes: np.ndarray) -> np.ndarray:
+    """For each polyline (rows of pts) and each box (x0, y0, x1, y1) of its row: how many of its
+    `inner` samples lie in the box. A box that misses the row's bounding box holds none of
+    them: only the others are tested, sample by sample."""
+    meet = ((boxes[..., 0] <= extent.x1) & (boxes[..., 2] >= extent.x0)
+            & (boxes[..., 1] <= extent.y1) & (boxes[..., 3] >= extent.y0))
+    c, k = np.nonzero(meet)
+    box = boxes[c, k]
+    x, y = pts.real[c], pts.imag[c]
+    hit = ((x >= box[:, 0:1]) & (x <= box[:, 2:3]) & (y >= box[:, 1:2]) & (y <= box[:, 3:4])) & inner[c]
+    out = np.zeros(meet.shape, dtype=int)
+    out[c, k] = hit.sum(axis=1)
+    return out
+
+
+def _inner_samples_near(pts: np.ndarray, inner: np.ndarray, extent: _Extent, points: np.ndarray,
+                        radius: np.ndarray) -> np.ndarray:
+    """For each polyline (rows of pts) and each point of its row: how many of its `inner` samples
+    lie closer than radius[row, point]. Only points within reach of the row's bounding box are
+    tested (the reach a little wider than the radius, so rounding never hides a sample)."""
+    reach = radius * 1.001 + _TOUCH
+    meet = ((points.real >= extent.x0 - reach) & (points.real <= extent.x1 + reach)
+            & (points.imag >= extent.y0 - reach) & (points.imag <= extent.y1 + reach))
+    c, k = np.nonzero(meet)
+    hit = (np.abs(pts[c] - points[c, k][:, None]) < radius[c, k][:, None]) & inner[c]
+    out = np.zeros(meet.shape, dtype=int)
+    out[c, k] = hit.sum(axis=1)
+    return out
+
+
+def _crossing_counts(pts: np.ndarray, a: np.ndarray, b: np.ndarray, extent: _Extent) -> np.ndarray:
+    """For each polyline (rows of pts, bounded by `extent`) and each segment a[r, e]-b[r, e] of
+    its row: how many times they cross."""
     rows, edges = a.shape
     if edges == 0:
         return np.zeros((rows, 0), dtype=int)
     # Only a polyline and a segment whose bounding boxes meet can cross: the rest are not tested.
     left, right = np.minimum(a.real, b.real), np.maximum(a.real, b.real)
     top, bottom = np.minimum(a.imag, b.imag), np.maximum(a.imag, b.imag)
-    meet = ((left <= pts.real.max(axis=1)[:, None] + _TOUCH) & (right >= pts.real.min(axis=1)[:, None] - _TOUCH)
-            & (top <= pts.imag.max(axis=1)[:, None] + _TOUCH) & (bottom >= pts.imag.min(axis=1)[:, None] - _TOUCH))
+    meet = ((left <= extent.x1 + _TOUCH) & (right >= extent.x0 - _TOUCH)
+            & (top <= extent.y1 + _TOUCH) & (bottom >= extent.y0 - _TOUCH))
     c, e = np.nonzero(meet)
     ax, ay, bx, by = a.real[c, e], a.imag[c, e], b.real[c, e], b.imag[c, e]
     ex, ey = (bx - ax)[:, None], (by - ay)[:, None]

@@ -523,6 +523,7 @@ class _LayoutBuilder:
             self.bonds_in.append(set(orders))
         # The double bonds a species wrote E or Z for, which the depiction must draw so.
         self.written_double = _written_double_bonds(self.states)
+        self.sorted_union = sorted(self.union.items())   # in the order _depict adds bonds to its Mol
         self.neighbours: dict[int, set[int]] = {i: set() for i in self.atoms}
         for i, j in self.union:
             self.neighbours[i].add(j)
@@ -708,13 +709,13 @@ class _LayoutBuilder:
         a ring between them. (A bromide that leaves one atom and later bonds to another does not.)"""
         return len(bonds) > 1 and any(sum(b in here for b in bonds) > 1 for here in self.bonds_in)
 
-    def _pinned_together(self, bond: tuple[int, int], groups: _UnionFind) -> bool:
+    def _pinned_together(self, bond: tuple[int, int], groups: _UnionFind, members: dict[int, set[int]]) -> bool:
         """Whether both sides of a bond that forms or breaks keep an untouched atom through
         every step that changes it, and the bond never joins two separate molecules: then
         neither side may move, they sit at bond length in every panel anyway, and one
-        depiction of both reads best."""
+        depiction of both reads best. `members`: the heavy atoms of each group, by its root."""
         i, j = bond
-        sides = [{a for a in self.atoms if self.element[a] != 1 and groups.find(a) == groups.find(x)} for x in bond]
+        sides = [members[groups.find(x)] for x in bond]
         for k in range(self.n - 1):
             if ((i, j) in self.bonds_in[k]) == ((i, j) in self.bonds_in[k + 1]):
                 continue
@@ -745,13 +746,16 @@ class _LayoutBuilder:
                 a, b = groups.find(i), groups.find(j)
                 if a != b:
                     links.setdefault((min(a, b), max(a, b)), []).append((i, j))
+            members: dict[int, set[int]] = {}
+            for x in heavy_atoms:
+                members.setdefault(groups.find(x), set()).add(x)
             joined = [pair for pair, bonds in sorted(links.items())
-                      if self._ring_between(bonds) or self._pinned_together(bonds[0], groups)]
+                      if self._ring_between(bonds) or self._pinned_together(bonds[0], groups, members)]
             if not joined:
                 break
             for a, b in joined:
                 if self._ring_between(links[(a, b)]):
-                    sides = tuple(frozenset(x for x in heavy_atoms if groups.find(x) == g) for g in (a, b))
+                    sides = tuple(frozenset(members[g]) for g in (a, b))
                     partners.append((sides, links[(a, b)]))
             for a, b in joined:
                 groups.join(a, b)
@@ -784,13 +788,15 @@ class _LayoutBuilder:
         depicted as one piece, so that it is drawn as a ring; placed piece by piece, its bonds
         would cross. When two molecules make the ring between them, they are held apart before
         that step, as for a cycloaddition. Joins one ring; False when there is none."""
+        root = {a: groups.find(a) for a in heavy_atoms}   # the groups stay as they are until a ring is joined
+        roots = set(root.values())
         for k in range(self.n):
-            panel = _UnionFind({groups.find(a) for a in heavy_atoms})
+            panel = _UnionFind(roots)
             links: dict[int, list[tuple[int, int, tuple[int, int]]]] = {}
             for i, j in heavy_bonds:
                 if (i, j) not in self.bonds_in[k]:
                     continue
-                a, b = groups.find(i), groups.find(j)
+                a, b = root[i], root[j]
                 if a == b:
                     continue
                 if panel.find(a) == panel.find(b):
@@ -882,7 +888,9 @@ class _LayoutBuilder:
 
     def _in_group(self, group: list[int], panels: Iterable[int]) -> set[tuple[int, int]]:
         members = set(group)
-        return {b for k in panels for b in self.bonds_in[k] if b[0] in members and b[1] in members}
+        # Over every panel these are the union's bonds, looked at once each.
+        every = self.union if panels == range(self.n) else (b for k in panels for b in self.bonds_in[k])
+        return {b for b in every if b[0] in members and b[1] in members}
 
     def _even(self, local: dict[int, complex], group: list[int], panels: Iterable[int]) -> bool:
         """Every bond among `group` in `panels` within 2% of one bond length in `local`."""
@@ -954,7 +962,7 @@ class _LayoutBuilder:
             mol.AddAtom(Chem.Atom(self.element[atom]))
         orders = {1: Chem.BondType.SINGLE, 2: Chem.BondType.DOUBLE, 3: Chem.BondType.TRIPLE}
         ends = []     # in the order the bonds are added, which is their order in the Mol
-        for (i, j), order in sorted(self.union.items()):
+        for (i, j), order in self.sorted_union:
             if i in index and j in index and (only is None or (i, j) in only):
                 mol.AddBond(index[i], index[j], orders.get(order, Chem.BondType.SINGLE))
                 ends.append((index[i], index[j]))
@@ -1698,10 +1706,11 @@ class _LayoutBuilder:
         shown = [k for k in stay if r.hydrogen in self.touched[k] or (k > 0 and r.hydrogen in self.touched[k - 1])]
         panels = shown or stay
 
-        # Other atoms relative to the holder, over those panels (duplicates dropped).
-        relative = np.array(sorted({p - self.positions[k][r.holder] for k in panels
-                                    for a, p in self.positions[k].items() if a not in (r.hydrogen, r.holder)},
-                                   key=lambda z: (z.real, z.imag)), dtype=complex)
+        # Other atoms relative to the holder, over those panels (duplicates dropped; in no
+        # particular order, as only their nearest approach is asked for).
+        relative = np.array(list({p - self.positions[k][r.holder] for k in panels
+                                  for a, p in self.positions[k].items() if a not in (r.hydrogen, r.holder)}),
+                            dtype=complex)
         following = runs[n + 1] if n + 1 < len(runs) else None
         partner = None
         if (following is not None and following.holder is not None and following.first == r.last + 1
