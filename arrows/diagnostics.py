@@ -173,7 +173,10 @@ CODES = _table(
          "Stereocentres or stereogenic double bonds made or lost in a step, and how many "
          "stereoisomers the product can have when the mechanism controls none of them. A centre that "
          "is stereogenic only in one resonance structure (the sigma complex of an aromatic "
-         "substitution) is not reported.",
+         "substitution) is not reported. A configuration written in a species is carried through "
+         "the steps (inverted by a backside substitution, kept by a 1,2-shift); one that a step "
+         "would fix at a new centre (anti addition, syn epoxidation) is not derived, so such a "
+         "product is counted as free.",
          '    :O4 -> C2=O3 ... an aldol addition: new stereocentre C5 (a note, not a fault)'),
 )
 
