@@ -168,7 +168,8 @@ def fragment(mol: Chem.Mol, atoms) -> Chem.Mol:
 
 def forget_configuration(mol: Chem.RWMol, atoms) -> None:
     """Clear the configuration written at `atoms`: their chiral tags, and the E/Z of every double
-    bond at them."""
+    bond at them, with the / and \\ directions on that bond's neighbouring single bonds (RDKit
+    would read the E/Z back from them) unless another configured double bond shares the bond."""
     for i in atoms:
         atom = mol.GetAtomWithIdx(i)
         if atom.GetChiralTag() != Chem.ChiralType.CHI_UNSPECIFIED:
@@ -176,6 +177,22 @@ def forget_configuration(mol: Chem.RWMol, atoms) -> None:
         for bond in atom.GetBonds():
             if bond.GetStereo() != Chem.BondStereo.STEREONONE:
                 bond.SetStereo(Chem.BondStereo.STEREONONE)
+                _clear_directions_beside(bond)
+
+
+_DIRECTED = (Chem.BondDir.ENDUPRIGHT, Chem.BondDir.ENDDOWNRIGHT)
+
+
+def _clear_directions_beside(double: Chem.Bond) -> None:
+    for end in (double.GetBeginAtom(), double.GetEndAtom()):
+        for single in end.GetBonds():
+            if single.GetIdx() == double.GetIdx() or single.GetBondDir() not in _DIRECTED:
+                continue
+            other = single.GetOtherAtom(end)
+            shared = any(b.GetStereo() != Chem.BondStereo.STEREONONE and b.GetIdx() != double.GetIdx()
+                         for a in (end, other) for b in a.GetBonds() if b.GetIdx() != single.GetIdx())
+            if not shared:
+                single.SetBondDir(Chem.BondDir.NONE)
 
 
 _TETRAHEDRAL = (Chem.ChiralType.CHI_TETRAHEDRAL_CW, Chem.ChiralType.CHI_TETRAHEDRAL_CCW)
