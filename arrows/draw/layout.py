@@ -179,23 +179,16 @@ def free_direction(centre: complex, others: Sequence[complex], prefer: Optional[
 
 def _written_double_bonds(states: Sequence[ElectronState]) -> dict[tuple[int, int], tuple[int, int, bool]]:
     """(i, j) -> (a, b, cis) for each double bond i=j (i < j) with a written E or Z in some state
-    (the first such state decides): a on i and b on j are cis or trans. RDKit's stereo perception
-    reads the written bond directions; its stereo atoms are the substituents E and Z refer to."""
+    (the first such state decides): a on i and b on j are cis or trans. A species's E or Z is
+    the double bond's own configuration (trace.species_mol), carried from state to state; its
+    stereo atoms are the substituents E and Z refer to."""
     found: dict[tuple[int, int], tuple[int, int, bool]] = {}
-    # A SMILES's / and \ stay on its single bonds as directions (ElectronState.configured does
-    # not see them: RDKit leaves E and Z unassigned on a SMILES read without sanitizing), and atoms
-    # are only appended: the last state holds every direction written.
-    last = states[-1].mol if states else None
-    if last is None or not any(last.GetBondWithIdx(k).GetBondDir() in _DIRECTIONS for k in range(last.GetNumBonds())):
-        return found
     for state in states:
-        mol = Chem.Mol(state.mol)
-        try:
-            Chem.SanitizeMol(mol)
-            Chem.AssignStereochemistry(mol, cleanIt=True, force=True)
-        except Exception:   # a state RDKit will not perceive gives no E or Z
+        if not state.configured:
             continue
-        for bond in mol.GetBonds():
+        mol = state.mol
+        for k in range(mol.GetNumBonds()):
+            bond = mol.GetBondWithIdx(k)
             stereo = bond.GetStereo()
             if stereo in _CIS or stereo in _TRANS:
                 i, j = bond.GetBeginAtomIdx(), bond.GetEndAtomIdx()
@@ -206,7 +199,6 @@ def _written_double_bonds(states: Sequence[ElectronState]) -> dict[tuple[int, in
     return found
 
 
-_DIRECTIONS = (Chem.BondDir.ENDUPRIGHT, Chem.BondDir.ENDDOWNRIGHT)
 _CIS = (Chem.BondStereo.STEREOZ, Chem.BondStereo.STEREOCIS)
 _TRANS = (Chem.BondStereo.STEREOE, Chem.BondStereo.STEREOTRANS)
 
@@ -1280,16 +1272,16 @@ class _LayoutBuilder:
                   if n in self.positions[k] and n not in depicted and self.element[n] != 1]
         if kind == "bond" and self._linear(anchor, range(k, k + 1)) and len(placed) == 1:
             u = _unit(self.positions[k][anchor] - placed[0])   # straight on through an sp atom
-        v = self._joining_side(cluster, depicted, mover, u, kind, k)
+        v = self._joining_side(depicted, mover, u, kind, k)
         if kind == "bond" and self._joins_cis(anchor, mover, u, v, depicted, k):
             # A double bond between the two is drawn trans (below): the chain end bonds on at
             # 120 degrees the other way round, a branched cluster is drawn mirrored.
             if len([n for n in self.neighbours[mover] if n in depicted]) == 1:
-                v = self._joining_side(cluster, depicted, mover, u, kind, k, turn=-1)
+                v = self._joining_side(depicted, mover, u, kind, k, turn=-1)
             elif not cluster.placement and not cluster.openings:
                 self._mirror(cluster)
                 depicted = cluster.local_at(k)
-                v = self._joining_side(cluster, depicted, mover, u, kind, k)
+                v = self._joining_side(depicted, mover, u, kind, k)
         distance = 1.0 if kind == "bond" else 1.0 + TRANSFER_GAP
         mine = set(cluster.atoms)
         others = {}
@@ -1339,8 +1331,8 @@ class _LayoutBuilder:
         if hydrogen is not None:
             self._promise(hydrogen, anchor, k, direction, leave_after=round_about is not None)
 
-    def _joining_side(self, cluster: _Cluster, depicted: dict[int, complex], mover: int, u: complex, kind: str,
-                      k: int, turn: int = 1) -> complex:
+    def _joining_side(self, depicted: dict[int, complex], mover: int, u: complex, kind: str, k: int,
+                      turn: int = 1) -> complex:
         """The direction, in the cluster's depiction, from `mover` to the atom it bonds to or
         hops with: into its widest gap; a chain end bonds on at 120 degrees to its one bond
         (`turn` says which way round), as in a zigzag, not straight on (a nitrile does)."""

@@ -161,18 +161,14 @@ _FAR_SLIDE = 6     # steps of 0.03 bond lengths: side text slid this far out has
 
 def best_direction(occupied: list[complex], preferred: complex, spread: float = 0.25, steps: int = 24) -> complex:
     """The direction (one of `steps` around the circle) with the most room, leaning to `preferred`."""
-    best, best_score = preferred, -math.inf
-    for d in _compass(steps):
-        score = min(clearance(d, occupied), _ENOUGH_ROOM) - spread * _angle_gap(d, preferred)
-        if score > best_score + 1e-9:
-            best, best_score = d, score
-    return best
+    return next(ranked_directions(occupied, preferred, spread, steps))
 
 
 def ranked_directions(occupied: list[complex], preferred: complex, spread: float = 0.25,
                       steps: int = 24) -> Iterator[complex]:
-    """The `steps` directions around the circle, best first by best_direction's measure (of two
-    nearly equal, the one found first around the circle); the rest are ranked only if asked for."""
+    """The `steps` directions around the circle, best first by their room (up to _ENOUGH_ROOM)
+    less `spread` times their turn from `preferred` (of two nearly equal, the one found first
+    around the circle); the rest are ranked only if asked for."""
     best, best_score, scored = preferred, -math.inf, []
     for d in _compass(steps):
         score = min(clearance(d, occupied), _ENOUGH_ROOM) - spread * _angle_gap(d, preferred)
