@@ -118,6 +118,13 @@ def atom_list(mol: Chem.Mol) -> list[Chem.Atom]:
     return [atom(i) for i in range(mol.GetNumAtoms())]
 
 
+def potential_stereo(mol: Chem.Mol, clean: bool = True) -> list:
+    """Chem.FindPotentialStereo as a list, read by index: iterating RDKit's vector ends in a C++
+    exception turned into StopIteration, which costs more than the perception of a small state."""
+    found = Chem.FindPotentialStereo(mol, cleanIt=clean)
+    return [found[k] for k in range(len(found))]
+
+
 def bond_list(mol: Chem.Mol) -> list[tuple[int, int, float]]:
     """(begin atom, end atom, bond order as a number) of every bond of `mol`, in index order: by
     index, as RDKit's bond iterator costs more per bond."""

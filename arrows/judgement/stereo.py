@@ -14,7 +14,7 @@ from typing import Iterable, Optional
 
 from rdkit import Chem
 
-from ..rdkit_io import fragment
+from ..rdkit_io import fragment, potential_stereo
 from .perception import Perceived, perceive
 
 CENTRE, DOUBLE_BOND = "stereocentre", "stereogenic double bond"
@@ -50,7 +50,7 @@ def _elements(view: Perceived) -> frozenset[StereoElement]:
             ranked.append(list(Chem.CanonicalRankAtoms(plain, breakTies=False, includeAtomMaps=False)))
         return ranked[0]
     found = set()
-    for info in Chem.FindPotentialStereo(plain, cleanIt=True):
+    for info in potential_stereo(plain):
         if info.type == Chem.StereoType.Atom_Tetrahedral:
             # RDKit offers an atom of the third period with four implicit hydrogens ([SiH4],
             # [PH4+], [AlH4-]); two equal substituents never make a stereocentre.
@@ -148,7 +148,7 @@ def _lost_by_resonance(mol: Chem.Mol, centres: list[int]) -> set[int]:
             Chem.SanitizeMol(work)
         except Exception:   # a structure RDKit will not perceive says nothing either way
             continue
-        here = {info.centeredOn for info in Chem.FindPotentialStereo(work, cleanIt=True)
+        here = {info.centeredOn for info in potential_stereo(work)
                 if info.type == Chem.StereoType.Atom_Tetrahedral}
         lost |= {c for c in tested if c not in here}
     return lost
@@ -193,7 +193,7 @@ def stereoisomer_count(mol: Chem.Mol, uncontrolled: Iterable[int] = ()) -> Optio
     for i in range(plain.GetNumAtoms()):   # map numbers would keep mirror-image duplicates apart
         plain.GetAtomWithIdx(i).SetAtomMapNum(0)
     ranks = list(Chem.CanonicalRankAtoms(plain, breakTies=False))
-    open_elements = [info for info in Chem.FindPotentialStereo(plain, cleanIt=True)
+    open_elements = [info for info in potential_stereo(plain)
                      if info.specified != Chem.StereoSpecified.Specified
                      and (info.type == Chem.StereoType.Atom_Tetrahedral
                           or (info.type == Chem.StereoType.Bond_Double and _stereogenic_bond(plain, ranks, info)))]
@@ -263,7 +263,7 @@ def _mirror(mol: Chem.Mol) -> Chem.Mol:
 def has_specified_stereo(smiles: str) -> bool:
     mol = Chem.MolFromSmiles(smiles)
     return mol is not None and any(info.specified == Chem.StereoSpecified.Specified
-                                   for info in Chem.FindPotentialStereo(mol))
+                                   for info in potential_stereo(mol, clean=False))
 
 
 def relation(first: str, second: str) -> str:
