@@ -164,6 +164,11 @@ CODES = _table(
     Code("AR508", WARNING, "uphill proton transfer",
          "The base's conjugate acid is much weaker than the acid it deprotonates.",
          ':O2 -> H(C3)   # water (pKa of hydronium -1.7) taking an alkane C-H (~50)'),
+    Code("AR509", WARNING, "migrating group syn to the leaving group",
+         "In a 1,2-shift across a double bond of written geometry onto an atom whose leaving group "
+         "departs in the same step (the Beckmann rearrangement of an oxime), the group anti to the "
+         "leaving group migrates; the step moves the one beside it.",
+         'C1-C2 -> C1-N3   # C1 is cis to the leaving O4 across C2=N3: the other group migrates'),
     Code("AR601", NOTE, "ring closure",
          "A step closes a ring; its size and Baldwin class are given. A pericyclic step (every arrow "
          "from a bond to a bond) reports the rings of the structure after it, without a Baldwin class: "
@@ -174,9 +179,11 @@ CODES = _table(
          "stereoisomers the product can have when the mechanism controls none of them. A centre that "
          "is stereogenic only in one resonance structure (the sigma complex of an aromatic "
          "substitution) is not reported. A configuration written in a species is carried through "
-         "the steps (inverted by a backside substitution, kept by a 1,2-shift); one that a step "
-         "would fix at a new centre (anti addition, syn epoxidation) is not derived, so such a "
-         "product is counted as free.",
+         "the steps (inverted by a backside substitution, kept by a 1,2-shift). New centres made by a "
+         "concerted addition to both atoms of a written E or Z double bond (a peracid epoxidation, a "
+         "bromonium ion, hydroboration, a Diels-Alder dienophile) get the configuration of a syn "
+         "addition, both new bonds on one face; a bromonium ion opened from the back then gives the "
+         "anti product. Other new centres (an aldol's, an addition to C=O) are counted as free.",
          '    :O4 -> C2=O3 ... an aldol addition: new stereocentre C5 (a note, not a fault)'),
 )
 

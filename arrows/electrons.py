@@ -17,7 +17,8 @@ from rdkit import Chem
 from .diagnostics import Diagnostic
 from .model import (AtomSink, BareAtom, BondPair, BondRef, HydrogenOn, Location, LonePair, Move, Step,
                     UnpairedElectron, CONNECTORS)
-from .rdkit_io import atom_list, forget_configuration, substitute_configuration, valence_electrons
+from .configuration import carry_configuration, has_configuration
+from .rdkit_io import atom_list, valence_electrons
 
 _BOND_TYPES = {1: Chem.BondType.SINGLE, 2: Chem.BondType.DOUBLE, 3: Chem.BondType.TRIPLE}
 # RDKit's valence check and computed properties (implicit hydrogens, explicit valence): what makes a
@@ -70,7 +71,7 @@ class ElectronState:
     def __post_init__(self) -> None:
         # A step hands these on (the common case, checked cheaply); a new state derives them.
         if self.configured is None:
-            object.__setattr__(self, "configured", _has_configuration(self.mol))
+            object.__setattr__(self, "configured", has_configuration(self.mol))
         if len(self.valence) != len(self.nonbonding):
             elements = tuple(a.GetAtomicNum() for a in atom_list(self.mol))
             object.__setattr__(self, "elements", elements)
@@ -582,15 +583,13 @@ def _settle(state: ElectronState, step: Step, step_index: int, replay: _StepRepl
 
     touched = sorted(set(replay.d_nonbonding) | {i for key in new_bonds for i in key})
     change.touched_atoms = touched
-    if state.configured:
-        # The bookkeeping follows electrons, not geometry: an atom that gains or loses a bond
-        # loses the configuration a species wrote for it (@, @@, / and \\), except where the
-        # step is a concerted backside substitution, which inverts it, or a 1,2-shift, whose
-        # migrating atom keeps it.
-        carried = _carried_configurations(state.mol, new_bonds, replay)
-        forget_configuration(work, {i for key in new_bonds for i in key} - set(carried))
-        for atom, (leaving, entering, invert) in carried.items():
-            substitute_configuration(state.mol, work, atom, leaving, entering, invert=invert)
+    configured = state.configured
+    # A double bond made single may be one a syn addition configures (a ring's C=C is cis unwritten).
+    if configured or any(e == 2 and replay.bond_before(*key) == 4 for key, e in new_bonds.items()):
+        def shifted(atom: int, leaving: int) -> bool:
+            return any(m.source_kind == "bond" and set(m.source_atoms) == {atom, leaving} and atom in m.sink_atoms
+                       for m in replay.resolved)
+        configured = carry_configuration(state.mol, work, new_bonds, replay.bond_before, shifted, configured)
     valence, elements, old_nonbonding = state.valence, state.elements, state.nonbonding
     for i in touched:
         bonds = bond_sums[i]
@@ -624,7 +623,7 @@ def _settle(state: ElectronState, step: Step, step_index: int, replay: _StepRepl
                                 "check charges and bond orders with `arrows trace`", step=step_index))
         return None, change, diags
     return (ElectronState(work, tuple(nonbonding), state.released, valence, tuple(bond_sums), elements,
-                          state.configured, _next_framework(state, new_bonds, replay)), change, diags)
+                          configured, _next_framework(state, new_bonds, replay)), change, diags)
 
 
 def _next_framework(state: ElectronState, new_bonds: dict[Pair, int], replay: _StepReplay):
@@ -644,47 +643,6 @@ def _next_framework(state: ElectronState, new_bonds: dict[Pair, int], replay: _S
     if not removed and not added:
         return state.framework
     return state.framework.difference(removed).union(added)
-
-
-def _carried_configurations(mol: Chem.Mol, new_bonds: dict[Pair, int], replay: "_StepReplay"
-                            ) -> dict[int, tuple[int, int, bool]]:
-    """The stereocentres at which one single bond forms while one single bond breaks, nothing
-    else changing there. Either a concerted substitution (SN2, or a nucleophile opening an
-    epoxide or a bromonium ion): the bond forms with electrons from elsewhere and the broken
-    bond's pair goes to the leaving atom; the nucleophile enters opposite the leaving group, so
-    the configuration inverts (Walden inversion, textbook). Or the atom migrates with its bonding
-    pair (a 1,2-shift: Wagner-Meerwein, pinacol, Baeyer-Villiger, Beckmann), taking the new
-    partner on the face the old one held: the configuration is kept (retention at the migrating
-    carbon, textbook). Returns atom -> (leaving, entering, inverted)."""
-    formed: dict[int, list[int]] = {}
-    broken: dict[int, list[int]] = {}
-    other: set[int] = set()
-    for (i, j), electrons in new_bonds.items():
-        before = replay.bond_before(i, j)
-        kind = formed if (before, electrons) == (0, 2) else broken if (before, electrons) == (2, 0) else None
-        if kind is None:
-            other.update((i, j))
-            continue
-        kind.setdefault(i, []).append(j)
-        kind.setdefault(j, []).append(i)
-    out = {}
-    for atom, entering in formed.items():
-        leaving = broken.get(atom, [])
-        if len(entering) != 1 or len(leaving) != 1 or atom in other:
-            continue
-        if mol.GetAtomWithIdx(atom).GetChiralTag() == Chem.ChiralType.CHI_UNSPECIFIED:
-            continue
-        shifted = any(m.source_kind == "bond" and set(m.source_atoms) == {atom, leaving[0]} and atom in m.sink_atoms
-                      for m in replay.resolved)
-        out[atom] = (leaving[0], entering[0], not shifted)
-    return out
-
-
-def _has_configuration(mol: Chem.Mol) -> bool:
-    """Whether a species brought a configuration (@, @@, / or \\). Most mechanisms have none, and
-    then no step needs to look for one to forget."""
-    return (any(mol.GetAtomWithIdx(i).GetChiralTag() != Chem.ChiralType.CHI_UNSPECIFIED for i in range(mol.GetNumAtoms()))
-            or any(mol.GetBondWithIdx(i).GetStereo() != Chem.BondStereo.STEREONONE for i in range(mol.GetNumBonds())))
 
 
 def _first_move_touching(step: Step, replay: _StepReplay, atom: int) -> Location:

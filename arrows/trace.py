@@ -94,7 +94,7 @@ def species_mol(species: Species, explicit_h_on: set[int]) -> tuple[Optional[Che
         if "/" in species.smiles or "\\" in species.smiles:
             # Read without sanitizing, a written E/Z is only a direction on each neighbouring bond:
             # RDKit's perception turns it into the double bond's own configuration, which the
-            # replay carries and forgets (forget_configuration) as it does a chiral tag.
+            # replay carries and forgets (configuration.forget_configuration) as it does a chiral tag.
             Chem.AssignStereochemistry(mol, cleanIt=True, force=True)
     except Exception:   # RDKit's full reading says why, and where (read_smiles translates its message)
         mol = None

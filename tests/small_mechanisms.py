@@ -192,4 +192,17 @@ end
 product "OC(=O)c1ccccc1.[O-]Cc1ccccc1"
 '''
 
+# Beckmann rearrangement of (E)-acetophenone oxime, O-protonated: the phenyl, anti to the leaving
+# water, migrates to nitrogen as water leaves, giving the N-phenyl nitrilium ion (textbook: the
+# group anti to the leaving group migrates; the E oxime gives acetanilide).
+BECKMANN_SHIFT = '''\
+species oxime = "C[C:2](=[N:3]\\[OH2+:4])/[c:1]1ccccc1"
+step "migration"
+    C1-C2 -> C1-N3
+    N3-O4 -> O4
+    :N3 -> C2#N3
+end
+product "CC#[N+]c1ccccc1.O"
+'''
+
 CORRECT = {name: text for name, text in globals().items() if name.isupper() and isinstance(text, str)}

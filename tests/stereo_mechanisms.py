@@ -32,6 +32,17 @@ CENTRES = {
                             'step "enolate"\n    :O4 -> H(C1)\n    C1-H -> C1=C2\n    C2=O3 -> O3\nend\n',
 }
 
+# Bromine adds to but-2-ene through a bromonium ion opened from the back: anti addition (textbook).
+# From the E alkene the product is meso-2,3-dibromobutane, (2R,3S); from the Z alkene the
+# racemate of (2R,3R) and (2S,3S). The bromonium ion itself is made on one face (syn).
+_ANTI_BROMINATION = ('species alkene = "C/[CH:1]=[CH:2]{}C"\nspecies bromine = "[Br:3][Br:4]"\n'
+                     'step "bromonium ion"\n    C1=C2 -> C1-Br3\n    :Br3 -> C2\n    Br3-Br4 -> Br4\nend\n'
+                     'step "anti opening"\n    :Br4 -> C1\n    Br3-C1 -> Br3\nend\n')
+SYN_ADDITIONS = {
+    "bromine to E-but-2-ene": _ANTI_BROMINATION.format("/"),
+    "bromine to Z-but-2-ene": _ANTI_BROMINATION.format("\\\\"),
+}
+
 # Double bonds with a written E or Z that no step touches.
 DOUBLE_BONDS = {
     "E acid": 'species acid = "C/C=C/C(=O)[OH:1]"\nspecies base = "[OH-:2]"\n'

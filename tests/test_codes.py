@@ -13,7 +13,7 @@ import pytest
 from arrows import check_text
 from arrows.diagnostics import CODES
 
-from small_mechanisms import (ACID_BASE, ALDOL, CHLORINE, CORRECT, E1, E2, ENOLATE_RESONANCE, HBR_ADDITION,
+from small_mechanisms import (ACID_BASE, ALDOL, BECKMANN_SHIFT, CHLORINE, CORRECT, E1, E2, ENOLATE_RESONANCE, HBR_ADDITION,
                               HYDRIDE_TRANSFER, NITRILE, PROTON_EXCHANGE, RADICALS, RETRO_ALDOL, RING_CLOSURE, SN2, SULFONIUM)
 
 
@@ -106,6 +106,9 @@ TWINS = [
     Twin("lone pair to its own atom", SN2, ":O1 -> C2", ":O1 -> O1", "AR210", ":O1 -> O1", sink=True),
     Twin("bond pair into the same bond", SN2, "C2-Br3 -> Br3", "C2-Br3 -> C2=Br3", "AR210",
          "C2-Br3 -> C2=Br3", sink=True),
+    # The Z oxime: the phenyl now stands beside the leaving water, and the methyl is the group anti.
+    Twin("migrating group syn to the leaving group (warning)", BECKMANN_SHIFT, "[N:3]\\[OH2+:4]",
+         "[N:3]/[OH2+:4]", "AR509", "C1-C2 -> C1-N3", says=("C1", "O4", "anti"), hint_says=("C2=N3",)),
     Twin("single written for a double bond (warning)", HBR_ADDITION, "C2=C3 -> C3-H5", "C2-C3 -> C3-H5",
          "AR507", "C2-C3", hint_says=("C2=C3",)),
 

@@ -43,6 +43,7 @@ end
 product "C=C(C)C.O=P(c1ccccc1)(c1ccccc1)c1ccccc1"
 '''
 
+# Bromine adds anti to cyclohexene: trans-1,2-dibromocyclohexane, racemic (textbook).
 BROMINATION = '''\
 species alkene = "[CH:1]1=[CH:2]CCCC1"
 species bromine = "[Br:3][Br:4]"
@@ -834,8 +835,8 @@ product "CCI.CS(=O)(=O)[O-]"
 '''
 
 # Bromohydrin from cyclohexene, bromine and water: the bromonium ion, opened from the back by
-# water, then deprotonated (trans-2-bromocyclohexan-1-ol; the replay makes no configuration for
-# new stereocentres, so the product is compared without it).
+# water, then deprotonated: trans-2-bromocyclohexan-1-ol, racemic (the bromonium ion is made on
+# one face of the ring's cis double bond and opened from the other).
 HALOHYDRIN = '''\
 species alkene = "[CH:1]1=[CH:2]CCCC1"
 species bromine = "[Br:3][Br:4]"
@@ -1007,8 +1008,8 @@ product "CCOS(C)(=O)=O"
 
 # Epoxidation of (Z)-but-2-ene by peracetic acid in one concerted step (five arrows: the alkene
 # pi to the far oxygen, O-O to the new C=O, C=O pi to oxygen, that oxygen takes the proton, the
-# O-H pair closes the epoxide). The textbook product is cis (meso); the replay makes no
-# configuration for new stereocentres, so it is compared without it.
+# O-H pair closes the epoxide). The textbook product is cis (meso, (2R,3S)): the oxygen adds to
+# one face (syn), and the replay derives that configuration from the written Z.
 EPOXIDATION = '''\
 species alkene = "C/[CH:1]=[CH:2]\\C"
 species peracid = "C[C:10](=[O:11])[O:12][O:13][H:14]"
@@ -1024,7 +1025,7 @@ product "CC1OC1C.CC(=O)O"
 
 TEXTBOOK = {
     "wittig": (WITTIG, "C=C(C)C.O=P(c1ccccc1)(c1ccccc1)c1ccccc1", True),
-    "bromination": (BROMINATION, "BrC1CCCCC1Br", True),
+    "bromination": (BROMINATION, "Br[C@@H]1CCCC[C@H]1Br", True),
     "ring expansion": (RING_EXPANSION, "O=C1CCCCC[OH+]1.CC(=O)[O-]", True),
     "pinacol": (PINACOL, "CC(=O)C(C)(C)C", True),
     "cope": (COPE, "C=CCCC=C", True),
@@ -1063,11 +1064,11 @@ TEXTBOOK = {
     "corey-chaykovsky": (COREY_CHAYKOVSKY, "C1CCC2(CC1)CO2.CSC", True),
     "radical cyclisation": (RADICAL_CYCLISATION, "CC1CCCC1", True),
     "mesylate sn2": (MESYLATE_SN2, "CCI.CS(=O)(=O)[O-]", True),
-    "halohydrin": (HALOHYDRIN, "OC1CCCCC1Br", True),
+    "halohydrin": (HALOHYDRIN, "O[C@@H]1CCCC[C@H]1Br", True),
     "thia-michael": (THIA_MICHAEL, "CSCCC(C)=O", True),
     "baeyer-villiger retention": (BAEYER_VILLIGER_RETENTION, "CC(=O)O[C@@H](C)c1ccccc1", True),   # (S) kept
     "diazotisation": (DIAZOTISATION, "N#[N+]c1ccccc1", True),
     "hofmann rearrangement": (HOFMANN_REARRANGEMENT, "CN.O=C=O", False),   # its atoms fall into one-atom clusters: C1-N3 drawn 2.73 long
     "mesylation": (MESYLATION, "CCOS(C)(=O)=O", True),
-    "epoxidation": (EPOXIDATION, "CC1OC1C.CC(=O)O", True),
+    "epoxidation": (EPOXIDATION, "C[C@@H]1O[C@@H]1C.CC(=O)O", True),
 }

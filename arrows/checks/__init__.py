@@ -61,12 +61,13 @@ def _registry() -> list[Check]:
         from .conservation import ChargeAndAtomsConserved
         from .protons import UphillProtonTransfers
         from .rings import RingClosures
+        from .shifts import MigrationAntiToLeavingGroup
         from .stereo import StereoChanges
         from .structure import NothingAfterProduct, SomethingToCheck, StepsHaveMoves
         from .valence import UnusualElectronCounts
         _CHECK_CLASSES.extend([SomethingToCheck, NothingAfterProduct, StepsHaveMoves, UnusualElectronCounts,
                                ChargeAndAtomsConserved, RingClosures, CheckpointsMatch, UphillProtonTransfers,
-                               StereoChanges])
+                               StereoChanges, MigrationAntiToLeavingGroup])
     return [cls() for cls in _CHECK_CLASSES]
 
 

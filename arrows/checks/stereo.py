@@ -81,6 +81,11 @@ def _said(elements: list[StereoElement], label) -> str:
     return " and ".join(parts)
 
 
+def _configured_centres(state: ElectronState, elements: list[StereoElement]) -> list[int]:
+    return [e.atoms[0] for e in elements if e.kind == CENTRE
+            and state.mol.GetAtomWithIdx(e.atoms[0]).GetChiralTag() != Chem.ChiralType.CHI_UNSPECIFIED]
+
+
 class StereoChanges(Check):
     name = "stereo changes"
     codes = ("AR602",)
@@ -100,6 +105,9 @@ class StereoChanges(Check):
         parts = []
         if made:
             parts.append(f"new {_said(made, label)}")
+            if _configured_centres(st.after, made):
+                # configuration.py sets a new centre's configuration for one rule only
+                parts[-1] += ", configured by the step (both new bonds on one face of the double bond)"
         if lost:
             parts.append(f"no longer stereogenic: {_said(lost, label)}")
         yield Diagnostic("AR602", "; ".join(parts), st.step.loc, step=st.index,

@@ -3,7 +3,7 @@ between stereo-specified checkpoint structures, and the stereoisomers of the fin
 from __future__ import annotations
 
 from ..checks.stereo import final_stereo, step_stereo
-from ..judgement.stereo import CENTRE, describe, pairwise_relations
+from ..judgement.stereo import CENTRE, describe, is_chiral, pairwise_relations
 from ..trace import StepTrace, Trace
 
 
@@ -38,9 +38,17 @@ def final_lines(trace: Trace) -> list[str]:
     if trace.final is None:
         return lines + ["  the final state was not derived"]
     products = final_stereo(trace)
+    written = [s.smiles for s in trace.mechanism.species] + [s.smiles for st in trace.mechanism.steps for s in st.uses]
+    achiral_start = not any("@" in smiles for smiles in written)
     for p in products:
-        count = ("stereoisomers not counted (RDKit cannot enumerate this structure)" if p.stereoisomers is None else
-                 f"{p.stereoisomers} stereoisomer{'s' if p.stereoisomers != 1 else ''} with no stereocontrol")
+        if p.stereoisomers is None:
+            count = "stereoisomers not counted (RDKit cannot enumerate this structure)"
+        elif p.stereoisomers == 1 and "@" in p.smiles:
+            count = "one stereoisomer, as the steps configure it"
+            if achiral_start and is_chiral(p.smiles):
+                count += "; formed as the racemate (no starting species is chiral)"
+        else:
+            count = f"{p.stereoisomers} stereoisomer{'s' if p.stereoisomers != 1 else ''} with no stereocontrol"
         lines.append(f"  {p.smiles}: {_names(p.elements, trace.final.label)}; {count}")
     if not products:
         lines.append("  no stereocentre or stereogenic double bond in the final state")

@@ -239,7 +239,7 @@ class StructureDrawer:
                       for i, j, order in bonds)
         rings = [list(r) for r in Chem.GetSymmSSSR(mol)] if on_ring else []
         # Wedges only where a species wrote a configuration: no work per bond otherwise.
-        wedges = self._wedges(state, atoms, adjacent, neighbours, out, bonds, formed | broken) if state.configured else {}
+        wedges = self._wedges(state, atoms, adjacent, neighbours, out, bonds, broken) if state.configured else {}
         for i, j, order in bonds:
             if i in shown and j in shown:
                 key = (i, j) if i < j else (j, i)
@@ -444,8 +444,9 @@ class StructureDrawer:
 
     def _wedges(self, state: ElectronState, atoms: dict[int, Chem.Atom], adjacent: list[list[int]],
                 neighbours: dict[int, list[int]], out: PanelStructure, bonds: list[tuple[int, int, int]],
-                changing: set[tuple[int, int]]) -> dict[tuple[int, int], str]:
-        """(stereocentre, other atom) -> kind, for the bonds wedged on this panel (wedges.py)."""
+                breaking: set[tuple[int, int]]) -> dict[tuple[int, int], str]:
+        """(stereocentre, other atom) -> kind, for the bonds wedged on this panel (wedges.py);
+        `breaking`: the bonds the step leaving the panel breaks, where its arrows start."""
         centres = configured_centres(state)
         if not centres:
             return {}
@@ -456,7 +457,7 @@ class StructureDrawer:
 
         single = {(min(i, j), max(i, j)) for i, j, order in bonds
                   if order == 1 and (i in centres or j in centres) and i in out.positions and j in out.positions}
-        return choose_wedges(centres, out.positions, single, changing, neighbours, hydrogens,
+        return choose_wedges(centres, out.positions, single, breaking, neighbours, hydrogens,
                              lambda a, b: _closes_cycle(a, b, adjacent))
 
     def _wedge(self, narrow: int, wide: int, kind: str, role: str, out: PanelStructure) -> BondDrawing:

@@ -6,8 +6,10 @@ Pure Appl. Chem. 2006, 78, 1897-1970, references.md; ST-1): a wedge is a single 
 narrow end at the stereocentre; one wedge per stereocentre is enough when its other bonds are
 drawn in the plane; a bond between two stereocentres is not wedged, so that no wedge is read as
 belonging to either; a wedge goes preferably to a terminal atom, or to a substituent bearing
-hydrogen, rather than along a ring bond. Of our own: a bond that the panel's step forms or breaks
-is wedged only when nothing else is left, as the arrows start and end there.
+hydrogen, rather than along a ring bond. Of our own: a bond that the step leaving the panel
+breaks is wedged only when nothing else is left, as its arrow starts there; a bond the step
+arriving at the panel formed may be wedged (the new C-Br bonds of an anti addition are the ones
+a chemist wedges).
 
 The kind follows from the geometry: the four substituents are put in three dimensions (the
 drawn ones in the plane, the wedged one towards the viewer for a solid wedge, and a hydrogen
@@ -59,11 +61,11 @@ def configured_centres(state: ElectronState) -> dict[int, tuple[list[int], int]]
 
 
 def choose_wedges(centres: dict[int, tuple[list[int], int]], positions: dict[int, complex],
-                  single: set[Pair], changing: set[Pair], neighbours: dict[int, list[int]],
+                  single: set[Pair], breaking: set[Pair], neighbours: dict[int, list[int]],
                   hydrogens: Callable[[int], int], in_ring: Callable[[int, int], bool]) -> dict[Pair, str]:
     """(stereocentre, other atom) -> SOLID or HASHED for the bonds drawn as wedges. `positions`
     are the drawn atoms (points, y down), `single` the drawn single bonds as sorted pairs,
-    `changing` those the panel's steps form or break, `neighbours` each drawn atom's drawn
+    `breaking` those the step leaving the panel breaks, `neighbours` each drawn atom's drawn
     neighbours, `hydrogens` how many hydrogens an atom holds."""
     chosen: dict[Pair, str] = {}
     wedged: set[Pair] = set()
@@ -81,7 +83,7 @@ def choose_wedges(centres: dict[int, tuple[list[int], int]], positions: dict[int
                 continue
             volume = _volume(centre, n, order, positions)
             flat = abs(volume) < _FLAT
-            preference = (pair in changing, n in centres, flat, in_ring(centre, n),
+            preference = (pair in breaking, n in centres, flat, in_ring(centre, n),
                           0 if len(neighbours[n]) <= 1 else 1 if hydrogens(n) else 2, -abs(volume), n)
             if best is None or preference < best[0]:
                 best = (preference, n, volume)

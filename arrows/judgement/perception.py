@@ -13,7 +13,8 @@ from typing import Iterable, Optional
 from rdkit import Chem
 
 from ..electrons import ElectronState
-from ..rdkit_io import forget_configuration, sanitize
+from ..configuration import forget_configuration
+from ..rdkit_io import sanitize
 from .acidity import perceived
 
 _HYDROGEN = Chem.MolFromSmarts("[#1]")

@@ -260,6 +260,13 @@ def _mirror(mol: Chem.Mol) -> Chem.Mol:
     return out
 
 
+def is_chiral(smiles: str) -> bool:
+    """Whether the structure differs from its mirror image (RDKit canonical SMILES of both): a meso
+    compound, or one with no configured centre, is not."""
+    mol = Chem.MolFromSmiles(smiles)
+    return mol is not None and Chem.MolToSmiles(mol) != Chem.MolToSmiles(_mirror(mol))
+
+
 def has_specified_stereo(smiles: str) -> bool:
     mol = Chem.MolFromSmiles(smiles)
     return mol is not None and any(info.specified == Chem.StereoSpecified.Specified

@@ -1,0 +1,243 @@
+"""What a step does to the configuration a species wrote (@, @@, / and \\): the bookkeeping
+follows electrons, not geometry, so an atom that gains or loses a bond loses its configuration,
+except in the steps whose stereochemical course is a textbook rule:
+
+- a concerted backside substitution (SN2, a nucleophile opening an epoxide or a bromonium ion)
+  inverts the centre (Walden inversion);
+- a 1,2-shift keeps the configuration of the migrating atom (retention);
+- a concerted addition to both atoms of a double bond written E or Z (epoxidation by a peracid,
+  a bromonium ion, hydroboration, the dienophile of a Diels-Alder) adds both new bonds on one
+  face (suprafacial, syn): the two new stereocentres get the relative configuration that follows
+  from the E/Z. With no other configuration in the state the two faces are alike, so the product
+  is the racemate of the configuration drawn (a meso compound where the two centres mirror each
+  other).
+"""
+from __future__ import annotations
+
+from typing import Callable, Iterable, Optional
+
+from rdkit import Chem
+from rdkit.Geometry import Point3D
+
+Pair = tuple[int, int]
+
+_UNSPECIFIED = Chem.ChiralType.CHI_UNSPECIFIED
+_TETRAHEDRAL = (Chem.ChiralType.CHI_TETRAHEDRAL_CW, Chem.ChiralType.CHI_TETRAHEDRAL_CCW)
+_CIS = (Chem.BondStereo.STEREOZ, Chem.BondStereo.STEREOCIS)
+_TRANS = (Chem.BondStereo.STEREOE, Chem.BondStereo.STEREOTRANS)
+_DIRECTED = (Chem.BondDir.ENDUPRIGHT, Chem.BondDir.ENDDOWNRIGHT)
+
+
+def has_configuration(mol: Chem.Mol) -> bool:
+    """Whether a species brought a configuration (@, @@, / or \\). Most mechanisms have none, and
+    then no step needs to look for one to forget."""
+    return (any(mol.GetAtomWithIdx(i).GetChiralTag() != _UNSPECIFIED for i in range(mol.GetNumAtoms()))
+            or any(mol.GetBondWithIdx(i).GetStereo() != Chem.BondStereo.STEREONONE for i in range(mol.GetNumBonds())))
+
+
+def carry_configuration(before: Chem.Mol, after: Chem.RWMol, new_bonds: dict[Pair, int],
+                        bond_before: Callable[[int, int], int], shifted: Callable[[int, int], bool],
+                        configured: bool) -> bool:
+    """Set on `after` (the state after a step, being built) the configuration of every atom whose
+    bonds the step changed. `new_bonds` maps each changed bond to its electrons after the step,
+    `bond_before(i, j)` gives its electrons before; `shifted(atom, leaving)` tells whether `atom`
+    moved with the pair of its bond to `leaving` (a 1,2-shift); `configured`, whether `before`
+    holds any configuration. Returns whether `after` does."""
+    formed, broken, other = _bond_changes(new_bonds, bond_before)
+    syn = _syn_additions(before, new_bonds, bond_before, formed, configured)
+    if not configured and not syn:
+        return False
+    carried = _substitutions(before, formed, broken, other, shifted) if configured else {}
+    forget_configuration(after, {i for key in new_bonds for i in key} - set(carried))
+    for atom, (leaving, entering, invert) in carried.items():
+        substitute_configuration(before, after, atom, leaving, entering, invert=invert)
+    made = False
+    for addition in syn:
+        made |= _set_syn_configuration(before, after, *addition)
+    return configured or made
+
+
+def _bond_changes(new_bonds: dict[Pair, int], bond_before) -> tuple[dict[int, list[int]], dict[int, list[int]], set[int]]:
+    """Per atom, the single bonds formed and broken; and the atoms at which any other bond changed."""
+    formed: dict[int, list[int]] = {}
+    broken: dict[int, list[int]] = {}
+    other: set[int] = set()
+    for (i, j), electrons in new_bonds.items():
+        kind = {(0, 2): formed, (2, 0): broken}.get((bond_before(i, j), electrons))
+        if kind is None:
+            other.update((i, j))
+            continue
+        kind.setdefault(i, []).append(j)
+        kind.setdefault(j, []).append(i)
+    return formed, broken, other
+
+
+def _substitutions(mol: Chem.Mol, formed, broken, other, shifted) -> dict[int, tuple[int, int, bool]]:
+    """The stereocentres at which one single bond forms while one single bond breaks, nothing
+    else changing there. Either a concerted substitution: the bond forms with electrons from
+    elsewhere and the broken bond's pair goes to the leaving atom; the nucleophile enters opposite
+    the leaving group, so the configuration inverts (Walden inversion, textbook). Or the atom
+    migrates with its bonding pair (a 1,2-shift: Wagner-Meerwein, pinacol, Baeyer-Villiger,
+    Beckmann), taking the new partner on the face the old one held: the configuration is kept
+    (retention at the migrating carbon, textbook). Returns atom -> (leaving, entering, inverted)."""
+    out = {}
+    for atom, entering in formed.items():
+        leaving = broken.get(atom, [])
+        if len(entering) != 1 or len(leaving) != 1 or atom in other:
+            continue
+        if mol.GetAtomWithIdx(atom).GetChiralTag() == _UNSPECIFIED:
+            continue
+        out[atom] = (leaving[0], entering[0], not shifted(atom, leaving[0]))
+    return out
+
+
+def _syn_additions(mol: Chem.Mol, new_bonds: dict[Pair, int], bond_before, formed, configured: bool
+                   ) -> list[tuple[int, int, int, int, int, int, bool]]:
+    """(a, b, x, y, ref_a, ref_b, cis) for each double bond a=b of known geometry that the step
+    makes single while a gains one single bond (to x) and b one (to y), nothing else changing at a
+    or b: ref_a and ref_b are a neighbour of each, cis or trans to each other. A double bond is of
+    known geometry when written E or Z, or in a ring of up to seven atoms (cis within the ring).
+    Only in a state with no configured atom: then the face the step picks makes no diastereomer of
+    its own."""
+    out = []
+    for (a, b), electrons in new_bonds.items():
+        if (bond_before(a, b), electrons) != (4, 2):
+            continue
+        if len(formed.get(a, ())) != 1 or len(formed.get(b, ())) != 1:
+            continue
+        if any((a in key or b in key) and key != (a, b) and bond_before(*key) != 0 for key in new_bonds):
+            continue
+        geometry = _double_bond_geometry(mol, a, b, configured)
+        if geometry is None:
+            continue
+        if configured and any(mol.GetAtomWithIdx(i).GetChiralTag() != _UNSPECIFIED for i in range(mol.GetNumAtoms())):
+            continue
+        out.append((a, b, formed[a][0], formed[b][0], *geometry))
+    return out
+
+
+_SMALL_RING = 7   # up to here a ring's double bond is cis: RDKit writes no E/Z for it
+
+
+def _double_bond_geometry(mol: Chem.Mol, a: int, b: int, configured: bool) -> Optional[tuple[int, int, bool]]:
+    """(neighbour of a, neighbour of b, cis) for the double bond a=b, or None when unknown."""
+    bond = mol.GetBondBetweenAtoms(a, b)
+    stereo = bond.GetStereo() if configured else Chem.BondStereo.STEREONONE
+    if stereo in _CIS + _TRANS:
+        first, second = bond.GetStereoAtoms()
+        if bond.GetBeginAtomIdx() != a:
+            first, second = second, first
+        return first, second, stereo in _CIS
+    path = _shortest_path_around(mol, a, b, _SMALL_RING - 1)
+    if path is None:
+        return None
+    return path[1], path[-2], True
+
+
+def _shortest_path_around(mol: Chem.Mol, a: int, b: int, most_bonds: int) -> Optional[list[int]]:
+    """The atoms of the shortest path from a to b that does not take the bond a-b, of at most
+    `most_bonds` bonds (breadth first; a state's ring information may not be set)."""
+    came_from = {a: a}
+    frontier = [a]
+    for _ in range(most_bonds):
+        following = []
+        for atom in frontier:
+            for neighbour in mol.GetAtomWithIdx(atom).GetNeighbors():
+                n = neighbour.GetIdx()
+                if n in came_from or (atom == a and n == b):
+                    continue
+                came_from[n] = atom
+                if n == b:
+                    path = [b]
+                    while path[-1] != a:
+                        path.append(came_from[path[-1]])
+                    return path[::-1]
+                following.append(n)
+        frontier = following
+    return None
+
+
+def _set_syn_configuration(before: Chem.Mol, after: Chem.RWMol, a: int, b: int, x: int, y: int,
+                           ref_a: int, ref_b: int, cis: bool) -> bool:
+    """Chiral tags on a and b for x and y added to one face of the double bond a=b, whose
+    neighbours ref_a and ref_b are cis or not. RDKit reads the tags off a model: the double bond
+    and its substituents in a plane, x and y above it (AssignStereochemistryFrom3D), so no
+    convention of tag and bond order is ours. Returns whether both got one."""
+    place: dict[int, tuple[float, float, float]] = {a: (0.0, 0.0, 0.0), b: (1.5, 0.0, 0.0)}
+    for end, reference, x_off, side in ((a, ref_a, -0.75, 1.0), (b, ref_b, 2.25, 1.0 if cis else -1.0)):
+        for neighbour in before.GetAtomWithIdx(end).GetNeighbors():
+            n = neighbour.GetIdx()
+            if n not in (a, b):
+                place[n] = (x_off, 1.3 * (side if n == reference else -side), 0.0)
+    new = {x: (0.0, 0.0, 1.5), y: (1.5, 0.0, 1.5)} if x != y else {x: (0.75, 0.0, 1.3)}
+    if set(new) & set(place):
+        return False   # a partner already beside the double bond: not a plain addition to one face
+    place.update(new)
+    model = Chem.Mol(after)
+    conformer = Chem.Conformer(model.GetNumAtoms())
+    for i, (px, py, pz) in place.items():
+        conformer.SetAtomPosition(i, Point3D(px, py, pz))
+    model.RemoveAllConformers()
+    model.AddConformer(conformer, assignId=True)
+    model.UpdatePropertyCache(strict=False)
+    Chem.AssignStereochemistryFrom3D(model, replaceExistingTags=True)
+    tags = [model.GetAtomWithIdx(end).GetChiralTag() for end in (a, b)]
+    if _UNSPECIFIED in tags:
+        return False   # RDKit finds no stereocentre there (two equal groups)
+    for end, tag in zip((a, b), tags):
+        after.GetAtomWithIdx(end).SetChiralTag(tag)
+    return True
+
+
+def forget_configuration(mol: Chem.RWMol, atoms: Iterable[int]) -> None:
+    """Clear the configuration written at `atoms`: their chiral tags, and the E/Z of every double
+    bond at them, with the / and \\ directions on that bond's neighbouring single bonds (RDKit
+    would read the E/Z back from them) unless another configured double bond shares the bond."""
+    for i in atoms:
+        atom = mol.GetAtomWithIdx(i)
+        if atom.GetChiralTag() != _UNSPECIFIED:
+            atom.SetChiralTag(_UNSPECIFIED)
+        for bond in atom.GetBonds():
+            if bond.GetStereo() != Chem.BondStereo.STEREONONE:
+                bond.SetStereo(Chem.BondStereo.STEREONONE)
+                _clear_directions_beside(bond)
+
+
+def _clear_directions_beside(double: Chem.Bond) -> None:
+    for end in (double.GetBeginAtom(), double.GetEndAtom()):
+        for single in end.GetBonds():
+            if single.GetIdx() == double.GetIdx() or single.GetBondDir() not in _DIRECTED:
+                continue
+            other = single.GetOtherAtom(end)
+            shared = any(b.GetStereo() != Chem.BondStereo.STEREONONE and b.GetIdx() != double.GetIdx()
+                         for a in (end, other) for b in a.GetBonds() if b.GetIdx() != single.GetIdx())
+            if not shared:
+                single.SetBondDir(Chem.BondDir.NONE)
+
+
+def substitute_configuration(before: Chem.Mol, after: Chem.RWMol, atom: int, leaving: int, entering: int,
+                             invert: bool) -> None:
+    """Carry the written configuration at `atom` across a step in which `entering` took the place
+    of `leaving`, inverted or not. RDKit reads a chiral tag against the order of the atom's
+    bonds, which removing one bond and adding another changes: the tag is flipped once for each
+    odd reordering and once more for an inversion. Cleared when the neighbours do not match."""
+    tag = before.GetAtomWithIdx(atom).GetChiralTag()
+    target = after.GetAtomWithIdx(atom)
+    expected = [entering if n == leaving else n for n in (b.GetOtherAtomIdx(atom) for b in before.GetAtomWithIdx(atom).GetBonds())]
+    found = [b.GetOtherAtomIdx(atom) for b in target.GetBonds()]
+    if tag not in _TETRAHEDRAL or sorted(expected) != sorted(found):
+        target.SetChiralTag(_UNSPECIFIED)
+        return
+    if _odd_permutation(expected, found) != invert:
+        tag = _TETRAHEDRAL[1] if tag == _TETRAHEDRAL[0] else _TETRAHEDRAL[0]
+    target.SetChiralTag(tag)
+
+
+def _odd_permutation(first: list[int], second: list[int]) -> bool:
+    """Whether `second` is an odd rearrangement of `first` (same distinct items)."""
+    order = [first.index(x) for x in second]
+    odd = False
+    for i in range(len(order)):
+        for j in range(i + 1, len(order)):
+            odd ^= order[i] > order[j]
+    return odd
