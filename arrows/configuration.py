@@ -63,8 +63,12 @@ def _bond_changes(new_bonds: dict[Pair, int], bond_before) -> tuple[dict[int, li
     broken: dict[int, list[int]] = {}
     other: set[int] = set()
     for (i, j), electrons in new_bonds.items():
-        kind = {(0, 2): formed, (2, 0): broken}.get((bond_before(i, j), electrons))
-        if kind is None:
+        before = bond_before(i, j)
+        if (before, electrons) == (0, 2):
+            kind = formed
+        elif (before, electrons) == (2, 0):
+            kind = broken
+        else:
             other.update((i, j))
             continue
         kind.setdefault(i, []).append(j)
