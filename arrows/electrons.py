@@ -15,7 +15,7 @@ from typing import Optional
 from rdkit import Chem
 
 from .diagnostics import Diagnostic
-from .model import (AtomSink, BareAtom, BondPair, BondRef, HydrogenOn, Location, LonePair, Move, Step,
+from .model import (AtomSink, BareAtom, BondPair, BondRef, HydrogenOn, Location, LonePair, Move, NonbondingSink, Step,
                     UnpairedElectron, CONNECTORS)
 from .configuration import carry_configuration, has_configuration
 from .rdkit_io import atom_list, valence_electrons
@@ -413,8 +413,19 @@ class _StepReplay:
             raise _StepFailed
 
     def attach(self, move: Move, x: int, sink) -> None:
-        """Electrons from atom x go to a sink: a new or stronger bond from x."""
+        """Electrons from atom x go to a sink: a new or stronger bond from x, or (`:Y`) onto
+        another atom with no bond made."""
         n = move.electrons
+        kind = "lone_pair" if isinstance(move.source, LonePair) else "unpaired"
+        if isinstance(sink, NonbondingSink):
+            y = self.resolve(sink.atom)
+            if y == x:
+                self.fail("AR210", f"the arrow from {self.state.label(x)} ends where it starts", sink.loc,
+                          "an electron transfer ends on another atom")
+                raise _StepFailed
+            self.give_to_atom(y, n)
+            self.resolved.append(ResolvedMove(move, kind, (x,), (y,), n))
+            return
         if isinstance(sink, AtomSink):
             y = self.resolve(sink.atom)
         else:
@@ -431,13 +442,18 @@ class _StepReplay:
                       "end the arrow at the atom that receives the electrons, or at the bond that forms")
             raise _StepFailed
         self.change_bond(x, y, n, move)
-        kind = "lone_pair" if isinstance(move.source, LonePair) else "unpaired"
         self.resolved.append(ResolvedMove(move, kind, (x,), (x, y), n))
 
     def detach(self, move: Move, ends: tuple[int, int], sink) -> None:
-        """Electrons from bond ends go to a sink: one of its own atoms, or a bond sharing an atom."""
+        """Electrons from bond ends go to a sink: one of its own atoms, a bond sharing an atom, or
+        (`:Y`) onto any atom with no bond made (an electron transfer out of a bond)."""
         n = move.electrons
         a, b = ends
+        if isinstance(sink, NonbondingSink):
+            y = self.resolve(sink.atom)
+            self.give_to_atom(y, n)
+            self.resolved.append(ResolvedMove(move, "bond", (a, b), (y,), n))
+            return
         if isinstance(sink, AtomSink):
             y = self.resolve(sink.atom)
             if y not in ends:

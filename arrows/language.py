@@ -33,7 +33,7 @@ from lark import Lark, Token, Tree  # noqa: E402
 from lark.exceptions import UnexpectedCharacters, UnexpectedEOF, UnexpectedInput, VisitError  # noqa: E402
 
 from .diagnostics import Diagnostic, MechanismError
-from .model import (BOND_ORDERS, AtomRef, AtomSink, BareAtom, BondPair, BondRef, BondSink, Checkpoint,
+from .model import (BOND_ORDERS, AtomRef, AtomSink, BareAtom, BondPair, BondRef, BondSink, Checkpoint, NonbondingSink,
                     HydrogenOn, Location, LonePair, Mechanism, Move, Species, Step, UnpairedElectron)
 
 MAX_FILE_BYTES = 5_000_000
@@ -156,6 +156,10 @@ class _ToModel:
     bare_atom_source = _around_its_child(BareAtom)
     bond_sink = _around_its_child(BondSink)
     atom_sink = _around_its_child(AtomSink)
+
+    def nonbonding_sink(self, children):
+        colon, atom = children
+        return NonbondingSink(atom, self._at(colon))
 
     def move(self, children):
         source, arrow, sink = children

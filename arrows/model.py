@@ -215,7 +215,19 @@ class BondSink:
         return str(self.bond)
 
 
-Sink = Union[AtomSink, BondSink]
+@frozen
+class NonbondingSink:
+    """Sink `:X`: the electrons end on X as non-bonding electrons and no bond forms, as when a
+    metal hands an electron to a molecule (an electron transfer)."""
+
+    atom: Atom
+    loc: Location = field(default_factory=Location, compare=False)
+
+    def __str__(self) -> str:
+        return f":{self.atom}"
+
+
+Sink = Union[AtomSink, BondSink, NonbondingSink]
 
 
 @frozen

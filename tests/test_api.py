@@ -228,7 +228,7 @@ def _mechanisms():
     two different atoms, as the language demands)."""
     from hypothesis import strategies as st
     from arrows.model import (AtomRef, AtomSink, BareAtom, BondPair, BondRef, BondSink, Checkpoint, HydrogenOn,
-                              LonePair, Mechanism, Move, Species, Step, UnpairedElectron)
+                              LonePair, Mechanism, Move, NonbondingSink, Species, Step, UnpairedElectron)
     text = st.text(st.characters(blacklist_characters='"\n\x00', blacklist_categories=("Cs",)), max_size=12)
     name = st.from_regex(r"[A-Za-z_][A-Za-z0-9_]{0,6}", fullmatch=True)
     mapped = st.builds(AtomRef, st.sampled_from(["C", "O", "N", "Br", "Si", "H"]), st.integers(1, 999))
@@ -236,7 +236,7 @@ def _mechanisms():
     bond = st.builds(BondRef, atom, atom, st.sampled_from([1, 2, 3])).filter(lambda b: b.first != b.second)
     source = st.one_of(st.builds(LonePair, atom), st.builds(UnpairedElectron, atom), st.builds(BondPair, bond),
                        st.builds(BareAtom, atom))
-    sink = st.one_of(st.builds(AtomSink, atom), st.builds(BondSink, bond))
+    sink = st.one_of(st.builds(AtomSink, atom), st.builds(BondSink, bond), st.builds(NonbondingSink, atom))
     move = st.builds(Move, source, sink, st.sampled_from([1, 2]))
     species = st.builds(Species, name, text)
     checkpoint = st.builds(Checkpoint, text, st.booleans())

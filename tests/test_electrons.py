@@ -87,6 +87,36 @@ product "CC"
     assert trace.final.mol.GetBondBetweenAtoms(0, 1).GetBondTypeAsDouble() == 1.0
 
 
+def test_an_electron_transfer_makes_a_ketyl_radical_anion():
+    """Sodium gives one electron to benzophenone: the ketyl, a radical anion with the charge on
+    oxygen and the unpaired electron on carbon, and Na+ (textbook dissolving-metal chemistry, the
+    sodium-benzophenone ketyl). The electron ends on O3 with no Na-O bond. Judge: RDKit reads the
+    final state's SMILES back, with its radical count and charges."""
+    trace = _final('''
+species sodium = "[Na:1]"
+species ketone = "[O:3]=[C:2](c1ccccc1)c1ccccc1"
+step "electron transfer"
+    .Na1 ~> :O3
+    C2=O3 ~> O3
+    C2=O3 ~> C2
+end
+''')
+    after = trace.final
+    assert after.mol.GetBondBetweenAtoms(0, 1) is None   # Na1 and O3: no bond
+    again = Chem.MolFromSmiles(Chem.MolToSmiles(after.mol))
+    charges = {a.GetAtomMapNum(): a.GetFormalCharge() for a in again.GetAtoms() if a.GetAtomMapNum()}
+    radicals = {a.GetAtomMapNum(): a.GetNumRadicalElectrons() for a in again.GetAtoms() if a.GetAtomMapNum()}
+    assert charges == {1: 1, 2: 0, 3: -1}
+    assert radicals == {1: 0, 2: 1, 3: 0}
+    moves = trace.steps[0].change.moves
+    assert (moves[0].source_atoms, moves[0].sink_atoms) == ((0,), (1,))
+
+
+def test_an_electron_transfer_to_its_own_atom_goes_nowhere():
+    _, diags = check_text('species sodium = "[Na:1]"\nstep "s"\n    .Na1 ~> :Na1\nend\n')
+    assert [(d.code, d.loc.line, d.loc.column) for d in diags if d.severity == "error"] == [("AR210", 3, 13)]
+
+
 def test_sources_are_judged_before_the_step():
     """In one concerted step O9 may give back a pair while the C2=C3 pair leaves: both sources are
     read from the state before the step (language.md: moves in a step happen together)."""

@@ -9,7 +9,7 @@ import sys
 import pytest
 
 from arrows import MechanismError, parse
-from arrows.model import (AtomRef, AtomSink, BareAtom, BondPair, BondSink, HydrogenOn, LonePair,
+from arrows.model import (AtomRef, AtomSink, BareAtom, BondPair, BondSink, HydrogenOn, LonePair, NonbondingSink,
                           UnpairedElectron)
 
 # The worked example of the language (base-mediated ring closure of octane-2,7-dione), with the
@@ -144,6 +144,15 @@ def test_pair_and_single_electron_arrows():
     assert (pair.electrons, single.electrons) == (2, 1)
     assert isinstance(pair.source, LonePair) and isinstance(pair.sink, AtomSink)
     assert str(single) == "C3-C4 ~> C4"
+
+
+def test_an_electron_transfer_ends_on_an_atom_written_with_a_colon():
+    m = parse('step "s"\n    .Na1 ~> :O3\n    C2=O3 ~> C2\nend\n')
+    transfer = m.steps[0].moves[0]
+    assert isinstance(transfer.sink, NonbondingSink) and transfer.sink.atom == AtomRef("O", 3)
+    assert (transfer.sink.loc.line, transfer.sink.loc.column) == (2, 13)
+    assert str(transfer) == ".Na1 ~> :O3"
+    assert isinstance(m.steps[0].moves[1].sink, AtomSink)
 
 
 def test_bare_atom_source_is_kept_for_the_checker():

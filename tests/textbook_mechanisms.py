@@ -16,7 +16,8 @@ epoxide closed by a backside attack at a configured carbon, a configured carbon 
 (Baeyer-Villiger, retention), a radical that closes a ring (tin hydride, 5-exo-trig), a sulfonate
 leaving group made (mesylation) and displaced (SN2), a bromonium opened by water, a thiolate, a diazonium ion made from an amine and
 NO+, an isocyanate that loses CO2 (Hofmann rearrangement), and a five-arrow concerted oxygen
-transfer (peracid epoxidation).
+transfer (peracid epoxidation), and electrons handed over by a metal with no bond made (Birch
+reduction).
 
 Each entry: (mechanism text, textbook product SMILES, drawn): `drawn` says whether the geometry
 tests draw it. All do but two. The Dieckmann condensation: the ethoxide it expels stays where it
@@ -1023,6 +1024,39 @@ end
 product "CC1OC1C.CC(=O)O"
 '''
 
+# Birch reduction of benzene (sodium in ammonia with ethanol): an electron onto the ring gives the
+# radical anion, ethanol protonates its carbanion, a second electron makes the pentadienyl anion
+# with its charge para to the new CH2, and a second protonation gives cyclohexa-1,4-diene, the
+# textbook product (not the conjugated 1,3-diene). The electrons from sodium end on carbon with no
+# bond to sodium (`:C1`), and the ring's pi pair splits in two fishhooks.
+BIRCH = '''\
+species benzene = "[CH:1]1=[CH:2][CH:3]=[CH:4][CH:5]=[CH:6]1"
+species sodium = "[Na:7]"
+species ethanol = "CC[O:8][H:9]"
+step "electron transfer"
+    .Na7 ~> :C1
+    C1=C2 ~> C1
+    C1=C2 ~> C2
+end
+step "protonation"
+    :C1 -> H9
+    O8-H9 -> O8
+end
+step "second electron transfer"
+    uses sodium2 = "[Na:10]"
+    .C2 ~> C2=C3
+    C3=C4 ~> C2=C3
+    C3=C4 ~> C4
+    .Na10 ~> :C4
+end
+step "second protonation"
+    uses ethanol2 = "CC[O:11][H:12]"
+    :C4 -> H12
+    O11-H12 -> O11
+end
+product "C1=CCC=CC1"
+'''
+
 TEXTBOOK = {
     "wittig": (WITTIG, "C=C(C)C.O=P(c1ccccc1)(c1ccccc1)c1ccccc1", True),
     "bromination": (BROMINATION, "Br[C@@H]1CCCC[C@H]1Br", True),
@@ -1070,5 +1104,6 @@ TEXTBOOK = {
     "diazotisation": (DIAZOTISATION, "N#[N+]c1ccccc1", True),
     "hofmann rearrangement": (HOFMANN_REARRANGEMENT, "CN.O=C=O", False),   # its atoms fall into one-atom clusters: C1-N3 drawn 2.73 long
     "mesylation": (MESYLATION, "CCOS(C)(=O)=O", True),
+    "birch reduction": (BIRCH, "C1=CCC=CC1.CC[O-].[Na+]", True),
     "epoxidation": (EPOXIDATION, "C[C@@H]1O[C@@H]1C.CC(=O)O", True),
 }
