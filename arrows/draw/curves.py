@@ -430,17 +430,24 @@ class ArrowPlanner:
 
     def _separate_shared_sinks(self, moves: list[ResolvedMove], sinks: list[_Anchor], panel: PanelStructure) -> None:
         """Arrows ending at one bond midpoint: each stops on the side of the atom its electrons
-        come from, so the heads never coincide."""
+        come from, so the heads never coincide. Arrows ending at one atom (an electron handed
+        over beside a fishhook from its own bond): each but a half-loop from the atom's own bond
+        stops on the side it comes from."""
         groups: dict[tuple, list[int]] = {}
         for k, sink in enumerate(sinks):
-            if sink.kind in ("gap", "bond"):
+            if sink.kind in ("gap", "bond") or (sink.kind == "atom" and len(moves[k].sink_atoms) == 1):
                 groups.setdefault((sink.kind, tuple(sorted(sink.atoms))), []).append(k)
-        for members in groups.values():
+        for (kind, _), members in groups.items():
             if len(members) < 2:
                 continue
             for k in members:
                 sink = sinks[k]
-                along = _unit(panel.positions[moves[k].sink_atoms[0]] - sink.point)
+                if kind == "atom":
+                    if _to_own_atom(moves[k]):
+                        continue   # a half-loop onto its own atom keeps its shape; the other gives way
+                    along = _unit(panel.positions[moves[k].source_atoms[0]] - sink.point)
+                else:
+                    along = _unit(panel.positions[moves[k].sink_atoms[0]] - sink.point)
                 sink.point = sink.point + along * 0.16 * self.bl
 
     # candidate curves

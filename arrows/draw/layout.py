@@ -488,6 +488,10 @@ class _LayoutBuilder:
         elements = max(self.states, key=lambda s: len(s.elements)).elements
         self.drawn_h = moving_hydrogens(self.states, (m for ms in moves for m in ms))
         self.feeds = _bonds_fed_by_hydrogens(moves, elements)
+        # Electron transfers (`.Na1 ~> :C1`): the donor waits beside the atom it gives to, as a
+        # molecule about to bond does, though no bond ever joins the two.
+        self.transfers = [(k, m.source_atoms[0], m.sink_atoms[0]) for k, panel_moves in enumerate(moves)
+                          for m in panel_moves if m.source_kind != "bond" and len(m.sink_atoms) == 1]
         self.atoms = [i for i, z in enumerate(elements) if z != 1 or i in self.drawn_h]
         self.element = {i: elements[i] for i in self.atoms}
         drawn = set(self.atoms)
@@ -550,7 +554,7 @@ class _LayoutBuilder:
         # hydrogens travel to take the room that is left.
         while self._place_by_events(("bond",)) or self._place_waiting():
             pass
-        while self._place_by_events(("bond", "hop")) or self._place_waiting() or self._place_leftovers():
+        while self._place_by_events(("bond", "hop", "transfer")) or self._place_waiting() or self._place_leftovers():
             pass
         self._place_hydrogens()
         panels = []
@@ -1089,6 +1093,9 @@ class _LayoutBuilder:
             for before, after in zip(runs, runs[1:]):
                 if before.holder is not None and after.holder is not None and after.first == before.last + 1:
                     events.append((before.last, "hop", before.holder, after.holder, h))
+        for k, donor, acceptor in self.transfers:
+            if donor in self.cluster_of and acceptor in self.cluster_of and self.cluster_of[donor] != self.cluster_of[acceptor]:
+                events.append((k, "transfer", acceptor, donor, None))
         return sorted(events, key=lambda e: (e[0], e[1] != "bond", e[2], e[3]))
 
     def _place_by_events(self, kinds: tuple[str, ...]) -> bool:
@@ -1106,11 +1113,22 @@ class _LayoutBuilder:
             if placed_a == placed_b:
                 continue
             anchor, mover = (a, b) if placed_a else (b, a)
-            self._place_segment(self.cluster_of[mover], self._segment_of(self.cluster_of[mover], k), k,
-                                anchor, mover, kind, h)
+            segment = self._segment_of(self.cluster_of[mover], k)
+            self._place_segment(self.cluster_of[mover], segment, k, anchor, mover, kind, h)
+            if kind == "transfer":
+                self._stay_after_transfer(self.cluster_of[mover], segment)
             # Bonds first again: a run placed by a hop may now tie others to it by their bonds.
             return True
         return progress
+
+    def _stay_after_transfer(self, index: int, segment: tuple[int, int]) -> None:
+        """A donor that has handed over an electron (Na+) stays where it gave it in the run of
+        panels after, placed now so that the molecules placed later keep clear of it."""
+        cluster = self.clusters[index]
+        following = next((seg for seg in cluster.segments if seg[0] == segment[1] + 1), None)
+        if following is not None and following[0] not in cluster.placement:
+            cluster.placement[following[0]] = cluster.placement[segment[0]]
+            self._apply(index)
 
     def _roomiest(self, atom: int, k: int, hydrogen: Optional[int] = None, prefer: Optional[complex] = None,
                   reach: float = 1.0) -> complex:
@@ -1295,8 +1313,8 @@ class _LayoutBuilder:
         near = np.array([q for a, q in others.items() if a != anchor], dtype=complex)
         options = _BOND_OPTIONS if kind == "bond" else _HOP_OPTIONS
         hydrogen_on_mover = hydrogen is not None and kind == "hop" and self._holder(k, hydrogen) == mover
-        # For a hop, a spot from which the arrow to the anchor's side crosses no bond is preferred.
-        walls = self._walls(segment, anchor, set(cluster.atoms)) if kind == "hop" else np.zeros((0, 2), dtype=complex)
+        # For a hop or a transfer, a spot from which the arrow to the anchor's side crosses no bond is preferred.
+        walls = self._walls(segment, anchor, set(cluster.atoms)) if kind != "bond" else np.zeros((0, 2), dtype=complex)
         placements = _Placements(options, u, v, anchor_at, distance, depicted, mover, near, hydrogen_on_mover, walls)
         best = None
         round_about = None
