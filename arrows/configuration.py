@@ -17,7 +17,6 @@ from __future__ import annotations
 from typing import Callable, Iterable, Optional
 
 from rdkit import Chem
-from rdkit.Geometry import Point3D
 
 Pair = tuple[int, int]
 
@@ -180,7 +179,7 @@ def _set_syn_configuration(before: Chem.Mol, after: Chem.RWMol, a: int, b: int, 
     model = Chem.Mol(after)
     conformer = Chem.Conformer(model.GetNumAtoms())
     for i, (px, py, pz) in place.items():
-        conformer.SetAtomPosition(i, Point3D(px, py, pz))
+        conformer.SetAtomPosition(i, (px, py, pz))
     model.RemoveAllConformers()
     model.AddConformer(conformer, assignId=True)
     model.UpdatePropertyCache(strict=False)
