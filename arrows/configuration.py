@@ -100,8 +100,10 @@ def _syn_additions(mol: Chem.Mol, new_bonds: dict[Pair, int], bond_before, forme
     makes single while a gains one single bond (to x) and b one (to y), nothing else changing at a
     or b: ref_a and ref_b are a neighbour of each, cis or trans to each other. A double bond is of
     known geometry when written E or Z, or in a ring of up to seven atoms (cis within the ring).
-    Only in a state with no configured atom: then the face the step picks makes no diastereomer of
-    its own."""
+    The two new bonds must close a ring through the reagent (x is y, as in an epoxide or a
+    bromonium ion, or x and y are joined, as the B-H of a borane or the ends of a diene are): the
+    cyclic arrangement is what holds both on one face. Only in a state with no configured atom:
+    then the face the step picks makes no diastereomer of its own."""
     out = []
     for (a, b), electrons in new_bonds.items():
         if (bond_before(a, b), electrons) != (4, 2):
@@ -115,7 +117,10 @@ def _syn_additions(mol: Chem.Mol, new_bonds: dict[Pair, int], bond_before, forme
             continue
         if configured and any(mol.GetAtomWithIdx(i).GetChiralTag() != _UNSPECIFIED for i in range(mol.GetNumAtoms())):
             continue
-        out.append((a, b, formed[a][0], formed[b][0], *geometry))
+        x, y = formed[a][0], formed[b][0]
+        if x != y and _path(mol, x, y, _CYCLIC_REACH) is None:
+            continue   # two separate reagents (a termolecular addition, anti): no cyclic arrangement
+        out.append((a, b, x, y, *geometry))
     return out
 
 
@@ -131,15 +136,18 @@ def _double_bond_geometry(mol: Chem.Mol, a: int, b: int, configured: bool) -> Op
         if bond.GetBeginAtomIdx() != a:
             first, second = second, first
         return first, second, stereo in _CIS
-    path = _shortest_path_around(mol, a, b, _SMALL_RING - 1)
+    path = _path(mol, a, b, _SMALL_RING - 1, around=True)
     if path is None:
         return None
     return path[1], path[-2], True
 
 
-def _shortest_path_around(mol: Chem.Mol, a: int, b: int, most_bonds: int) -> Optional[list[int]]:
-    """The atoms of the shortest path from a to b that does not take the bond a-b, of at most
-    `most_bonds` bonds (breadth first; a state's ring information may not be set)."""
+_CYCLIC_REACH = 4   # bonds between the two atoms a reagent adds through: a diene's ends are 3 apart
+
+
+def _path(mol: Chem.Mol, a: int, b: int, most_bonds: int, around: bool = False) -> Optional[list[int]]:
+    """The atoms of the shortest path from a to b of at most `most_bonds` bonds; `around`: not
+    through the bond a-b itself (breadth first; a state's ring information may not be set)."""
     came_from = {a: a}
     frontier = [a]
     for _ in range(most_bonds):
@@ -147,7 +155,7 @@ def _shortest_path_around(mol: Chem.Mol, a: int, b: int, most_bonds: int) -> Opt
         for atom in frontier:
             for neighbour in mol.GetAtomWithIdx(atom).GetNeighbors():
                 n = neighbour.GetIdx()
-                if n in came_from or (atom == a and n == b):
+                if n in came_from or (around and atom == a and n == b):
                     continue
                 came_from[n] = atom
                 if n == b:

@@ -438,6 +438,38 @@ def test_a_cyclohexene_adds_anti_through_the_bromonium_ion(name, first, second):
     assert _faces(smiles, *ends) == "trans", smiles
 
 
+def test_hydroboration_adds_boron_and_hydrogen_syn():
+    """Textbook: hydroboration is a syn addition; 1-methylcyclohexene gives
+    trans-(2-methylcyclohexyl)borane (the boron on the face the hydrogen came to, opposite the
+    methyl), whence trans-2-methylcyclohexanol. Judge: the faces in an RDKit 3D model."""
+    text = ('species alkene = "C[C:1]1=[CH:2]CCCC1"\nspecies borane = "[BH3:3]"\n'
+            'step "concerted addition"\n    C1=C2 -> C2-B3\n    B3-H -> C1-H(B3)\nend\n')
+    trace, diags = check_text(text)
+    assert [d.to_text() for d in diags if d.severity == "error"] == []
+    work = Chem.RWMol(trace.final.mol)
+    for atom in work.GetAtoms():
+        atom.SetAtomMapNum(0)
+    Chem.SanitizeMol(work)
+    smiles = Chem.MolToSmiles(Chem.RemoveHs(work))
+    mol = Chem.MolFromSmiles(smiles)
+    boron = next(a.GetIdx() for a in mol.GetAtoms() if a.GetAtomicNum() == 5)
+    methyl = next(a.GetIdx() for a in mol.GetAtoms() if a.GetAtomicNum() == 6 and a.GetDegree() == 1)
+    assert len([a for a in mol.GetAtoms() if a.GetChiralTag() != Chem.ChiralType.CHI_UNSPECIFIED]) == 2, smiles
+    assert _faces(smiles, boron, methyl) == "trans", smiles
+
+
+def test_two_reagents_adding_in_one_step_make_no_syn_configuration():
+    """A step in which two separate reagents add to the two ends (a termolecular addition, anti in
+    the textbook account) has no cyclic arrangement holding both on one face: no configuration is
+    derived, and the final note counts the stereoisomers."""
+    text = ('species alkene = "C/[CH:1]=[CH:2]\\\\C"\nspecies bromine = "[Br:3][Br:4]"\nspecies bromide = "[Br-:5]"\n'
+            'step "one step"\n    C1=C2 -> C2-Br3\n    Br3-Br4 -> Br4\n    :Br5 -> C1\nend\n')
+    trace, diags = check_text(text)
+    assert [d.to_text() for d in diags if d.severity == "error"] == []
+    assert not any("configured by the step" in d.message for d in diags)
+    assert any("stereoisomers can form" in d.message for d in diags)
+
+
 def test_no_syn_configuration_beside_a_stereocentre():
     """An alkene in a molecule that holds a stereocentre: the face the bromine takes would pick a
     diastereomer (which, the mechanism does not say), so the new centres stay free and the final
