@@ -552,9 +552,13 @@ def _settle(state: ElectronState, step: Step, step_index: int, replay: _StepRepl
         label = _BondName(state, *key)
         loc = replay.first_move_on_bond[key].loc
         if after % 2:
+            hint = "a bond made from single electrons needs a fishhook from each partner in the same step"
+            first = replay.first_move_on_bond[key]
+            if before == 0 and after == 1 and isinstance(first.sink, AtomSink):
+                # One fishhook from an atom to another: perhaps an electron handed over, no bond meant.
+                hint += f"; to hand the electron over with no bond, end the arrow at :{first.sink.atom}"
             diags.append(Diagnostic("AR303", f"the bond {label} is left with {after} electron{'s' if after > 1 else ''}",
-                                    loc, "a bond made from single electrons needs a fishhook from each partner "
-                                    "in the same step", bonds=((state.label(key[0]), state.label(key[1])),),
+                                    loc, hint, bonds=((state.label(key[0]), state.label(key[1])),),
                                     step=step_index))
         elif after > 6:
             diags.append(Diagnostic("AR302", f"the bond {label} would be of order {after // 2}", loc,

@@ -205,4 +205,16 @@ end
 product "CC#[N+]c1ccccc1.O"
 '''
 
+# Sodium hands one electron to acetone: the ketyl radical anion (charge on O, unpaired electron on
+# C) and Na+ (textbook dissolving-metal reduction, the first step of a pinacol coupling).
+KETYL = '''\
+species sodium = "[Na:1]"
+species ketone = "[O:3]=[C:2](C)C"
+step "electron transfer"
+    .Na1 ~> :O3
+    C2=O3 ~> O3
+    C2=O3 ~> C2
+end
+'''
+
 CORRECT = {name: text for name, text in globals().items() if name.isupper() and isinstance(text, str)}

@@ -13,7 +13,7 @@ import pytest
 from arrows import check_text
 from arrows.diagnostics import CODES
 
-from small_mechanisms import (ACID_BASE, ALDOL, BECKMANN_SHIFT, CHLORINE, CORRECT, E1, E2, ENOLATE_RESONANCE, HBR_ADDITION,
+from small_mechanisms import (ACID_BASE, ALDOL, BECKMANN_SHIFT, KETYL, CHLORINE, CORRECT, E1, E2, ENOLATE_RESONANCE, HBR_ADDITION,
                               HYDRIDE_TRANSFER, NITRILE, PROTON_EXCHANGE, RADICALS, RETRO_ALDOL, RING_CLOSURE, SN2, SULFONIUM)
 
 
@@ -143,6 +143,9 @@ TWINS = [
          says=("H5",), alone=False),
     Twin("bond above triple", NITRILE, ":C1 -> C3", ":C1 -> C1#N2", "AR302", ":C1 -> C1#N2"),
     # One fishhook alone leaves a one-electron C1-C2 bond.
+    # The colon dropped: the fishhook now makes half a Na-O bond instead of handing the electron over.
+    Twin("electron transfer written as a bond", KETYL, ".Na1 ~> :O3", ".Na1 ~> O3", "AR303", ".Na1 ~> O3",
+         hint_says=("end the arrow at :O3",)),
     Twin("odd-electron bond", RADICALS, "    .C2 ~> C1-C2\n", "", "AR303", ".C1 ~> C1-C2", says=("1 electron",)),
     # Without the Cl-Cl bond breaking, Cl1 would carry two bonds and three lone pairs (charge -1): a
     # valence RDKit does not allow (RDKit as independent judge).

@@ -88,19 +88,12 @@ product "CC"
 
 
 def test_an_electron_transfer_makes_a_ketyl_radical_anion():
-    """Sodium gives one electron to benzophenone: the ketyl, a radical anion with the charge on
-    oxygen and the unpaired electron on carbon, and Na+ (textbook dissolving-metal chemistry, the
-    sodium-benzophenone ketyl). The electron ends on O3 with no Na-O bond. Judge: RDKit reads the
-    final state's SMILES back, with its radical count and charges."""
-    trace = _final('''
-species sodium = "[Na:1]"
-species ketone = "[O:3]=[C:2](c1ccccc1)c1ccccc1"
-step "electron transfer"
-    .Na1 ~> :O3
-    C2=O3 ~> O3
-    C2=O3 ~> C2
-end
-''')
+    """Sodium gives one electron to acetone: the ketyl, a radical anion with the charge on oxygen
+    and the unpaired electron on carbon, and Na+ (textbook dissolving-metal chemistry; the
+    mechanism is small_mechanisms.KETYL). The electron ends on O3 with no Na-O bond. Judge: RDKit
+    reads the final state's SMILES back, with its radical count and charges."""
+    from small_mechanisms import KETYL
+    trace = _final(KETYL)
     after = trace.final
     assert after.mol.GetBondBetweenAtoms(0, 1) is None   # Na1 and O3: no bond
     again = Chem.MolFromSmiles(Chem.MolToSmiles(after.mol))
