@@ -180,10 +180,11 @@ CODES = _table(
          "is stereogenic only in one resonance structure (the sigma complex of an aromatic "
          "substitution) is not reported. A configuration written in a species is carried through "
          "the steps (inverted by a backside substitution, kept by a 1,2-shift). New centres made by a "
-         "concerted addition to both atoms of a written E or Z double bond (a peracid epoxidation, a "
-         "bromonium ion, hydroboration, a Diels-Alder dienophile) get the configuration of a syn "
-         "addition, both new bonds on one face; a bromonium ion opened from the back then gives the "
-         "anti product. Other new centres (an aldol's, an addition to C=O) are counted as free.",
+         "concerted, cyclic addition to both atoms of a double bond of known geometry (written E or Z, "
+         "or in a ring of up to seven atoms): a peracid epoxidation, a bromonium ion, hydroboration, a "
+         "Diels-Alder dienophile, get the configuration of a syn addition, both new bonds on one face; "
+         "a bromonium ion opened from the back then gives the anti product. Other new centres (an "
+         "aldol's, an addition to C=O) are counted as free.",
          '    :O4 -> C2=O3 ... an aldol addition: new stereocentre C5 (a note, not a fault)'),
 )
 
