@@ -322,3 +322,18 @@ def test_e1cb_goes_through_the_enolate():
         # After it, the leaving oxygen is hydroxide, shown as a released by-product.
         assert oxygen in last.released_now and _our_charge(last.after, oxygen) == -1, name
         assert _hydrogens(last.after.mol, oxygen) == 1, name
+
+
+def test_trans_stilbene_and_bromine_give_the_meso_dibromide():
+    """Textbook anti addition: (E)-stilbene and bromine give meso-1,2-dibromo-1,2-diphenylethane
+    (the Z alkene would give the racemate). Judge: RDKit's canonical SMILES of the derived product
+    equals that of its mirror image (meso), and both centres are configured."""
+    from arrows.judgement.stereo import _mirror
+    trace = _load("17-stilbene-bromination.mech")
+    work = Chem.RWMol(trace.final.mol)
+    for atom in work.GetAtoms():
+        atom.SetAtomMapNum(0)
+    Chem.SanitizeMol(work)
+    dibromide = max(Chem.GetMolFrags(Chem.RemoveHs(work), asMols=True), key=lambda f: f.GetNumAtoms())
+    assert sum(a.GetChiralTag() != Chem.ChiralType.CHI_UNSPECIFIED for a in dibromide.GetAtoms()) == 2
+    assert Chem.MolToSmiles(dibromide) == Chem.MolToSmiles(_mirror(dibromide))

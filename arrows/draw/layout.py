@@ -770,7 +770,8 @@ class _LayoutBuilder:
         self.rings_bonded: dict[int, list[list[int]]] = {}   # panel -> the rings whose bonds all exist there
         self.clusters = [_Cluster(g, self._depict(g)) for g in everything.groups()]
         for cluster in self.clusters:
-            if not self._even(cluster.local, cluster.atoms, range(self.n)) or self._bends(cluster.atoms):
+            if (not self._even(cluster.local, cluster.atoms, range(self.n)) or self._bends(cluster.atoms)
+                    or not self._shows_written_geometry(cluster.local, cluster.atoms, range(self.n))):
                 cluster.local, cluster.phases = self._phases(cluster.atoms)
         self.cluster_of = {a: k for k, c in enumerate(self.clusters) for a in c.atoms}
         for sides, bonds in partners:
@@ -892,10 +893,26 @@ class _LayoutBuilder:
         """Every bond among `group` in `panels` within 2% of one bond length in `local`."""
         return all(abs(abs(local[i] - local[j]) - 1.0) <= 0.02 for i, j in self._in_group(group, panels))
 
+    def _shows_written_geometry(self, local: dict[int, complex], group: list[int], panels: range) -> bool:
+        """Every double bond of `group` written E or Z is drawn so in `local`, in the panels
+        where it is double. A union depiction that closes a ring across it (the bromonium ion of
+        an E alkene) may not: the substituents are placed for the ring."""
+        members = set(group)
+        for (i, j), (a, b, cis) in self.written_double.items():
+            if not {i, j, a, b} <= members or not any(self.orders_in[k].get((i, j)) == 2 for k in panels):
+                continue
+            axis = local[j] - local[i]
+            side_a = (axis.conjugate() * (local[a] - local[i])).imag
+            side_b = (axis.conjugate() * (local[b] - local[j])).imag
+            if abs(side_a) < 1e-6 or abs(side_b) < 1e-6 or (side_a * side_b > 0) != cis:
+                return False
+        return True
+
     def _phases(self, group: list[int]) -> tuple[dict[int, complex], list[tuple[int, dict[int, complex]]]]:
         """Depictions of a cluster whose bonds over the whole mechanism cannot be drawn at one
         length (a ring that grows as a bond migrates, as in a Baeyer-Villiger oxidation) or that
-        holds an sp atom which later bends or straightens: runs of panels as long as one depiction draws them
+        holds an sp atom which later bends or straightens, or that would draw a written E or Z wrongly
+        (a ring about to close across the double bond): runs of panels as long as one depiction draws them
         evenly, with every such atom straight or bent throughout, each run drawn from its own bonds (an
         atom with none there takes the bonds it has next), each aligned on the one before by the
         atoms the step between them leaves alone. Chemists redraw a ring that changes size; its
@@ -916,6 +933,8 @@ class _LayoutBuilder:
                 trial = self._depict(group, trial_bonds, range(start, end + 2))
                 if not self._even(trial, group, range(start, end + 2)):
                     break
+                if not self._shows_written_geometry(trial, group, range(start, end + 2)):
+                    break     # an E alkene drawn Z where a ring is about to close across it
                 end, local, bonds = end + 1, trial, trial_bonds
             if runs:
                 # RDKit lays separate pieces side by side at will: each piece is aligned on its own.
@@ -942,6 +961,11 @@ class _LayoutBuilder:
             for k in list(range(last + 1, self.n)) + list(range(first - 1, -1, -1)):
                 mine = {b for b in self._in_group(group, (k,)) if atom in b}
                 if mine:
+                    partners = {a for b in mine for a in b} - {atom}
+                    if any({i, j} <= partners for i, j in self.written_double):
+                        # Bridging both ends of a written E or Z double bond (the bromine of a
+                        # bromonium ion still to come) would draw it cis: it waits by one end.
+                        mine = {min(mine)}
                     bonds |= mine
                     break
         return bonds
