@@ -458,6 +458,30 @@ def test_hydroboration_adds_boron_and_hydrogen_syn():
     assert _faces(smiles, boron, methyl) == "trans", smiles
 
 
+@pytest.mark.parametrize("geometry, cis", [("\\\\", True), ("/", False)])
+def test_a_diels_alder_keeps_the_dienophile_geometry(geometry, cis):
+    """The cis principle of the Diels-Alder reaction (textbook): dimethyl maleate (Z) and butadiene
+    give the cis cyclohexene-4,5-diester (meso); dimethyl fumarate (E), the trans one (racemic).
+    Judge: the faces of the two ester groups in an RDKit 3D model."""
+    text = ('species diene = "[CH2:1]=[CH:2][CH:3]=[CH2:4]"\n'
+            f'species dienophile = "COC(=O)/[CH:5]=[CH:6]{geometry}C(=O)OC"\n'
+            'step "cycloaddition"\n    C1=C2 -> C2=C3\n    C3=C4 -> C4-C5\n    C5=C6 -> C6-C1\nend\n')
+    trace, diags = check_text(text)
+    assert [d.to_text() for d in diags if d.severity == "error"] == []
+    work = Chem.RWMol(trace.final.mol)
+    for atom in work.GetAtoms():
+        atom.SetAtomMapNum(0)
+    Chem.SanitizeMol(work)
+    smiles = Chem.MolToSmiles(Chem.RemoveHs(work))
+    mol = Chem.MolFromSmiles(smiles)
+    carbonyls = [a.GetIdx() for a in mol.GetAtoms() if a.GetAtomicNum() == 6 and not a.IsInRing()
+                 and any(n.GetAtomicNum() == 8 and mol.GetBondBetweenAtoms(a.GetIdx(), n.GetIdx()).GetBondTypeAsDouble() == 2
+                         for n in a.GetNeighbors())]
+    assert len(carbonyls) == 2, smiles
+    assert sum(a.GetChiralTag() != Chem.ChiralType.CHI_UNSPECIFIED for a in mol.GetAtoms()) == 2, smiles
+    assert _faces(smiles, *carbonyls) == ("cis" if cis else "trans"), smiles
+
+
 def test_two_reagents_adding_in_one_step_make_no_syn_configuration():
     """A step in which two separate reagents add to the two ends (a termolecular addition, anti in
     the textbook account) has no cyclic arrangement holding both on one face: no configuration is
