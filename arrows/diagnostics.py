@@ -80,8 +80,9 @@ CODES = _table(
          "more than the atom has).",
          'C3-H -> C2=C3\nC3-H -> C3-C7   # the one C3-H pair cannot go two places'),
     Code("AR204", ERROR, "arrow starts at a hydrogen",
-         "Arrows start at electrons. A proton (or any hydrogen) has no lone pair; the arrow that "
-         "removes a proton starts at the base's lone pair and ends at the hydrogen.",
+         "Arrows start at electrons. A proton (or any hydrogen bonded to an atom) has no lone pair; the "
+         "arrow that removes a proton starts at the base's lone pair and ends at the hydrogen. (A free "
+         "hydride ion, [H-], has a lone pair, and an arrow may start there.)",
          'H(C3) -> O11     # write  :O11 -> H(C3)  and  C3-H -> ...'),
     Code("AR205", ERROR, "arrow starts at an atom, not at electrons",
          "A bare atom cannot be a source: name a lone pair (`:X`), a bond (`X-Y`) or an unpaired "

@@ -324,7 +324,9 @@ class _StepReplay:
 
     def source_atom(self, move: Move, ref) -> int:
         index = self.resolve(ref)
-        if self.state.elements[index] == 1:
+        if self.state.elements[index] == 1 and self.nonbonding(index) == 0:
+            # A bonded hydrogen holds no electrons of its own; a hydride ion (NaH, LiH) or a hydrogen
+            # atom does, and an arrow may start there like any other lone pair or unpaired electron.
             hydrogen = self.state.label(index)
             parent = hydrogen[2:-1] if hydrogen.startswith("H(") else "X"
             base = str(move.sink.atom) if isinstance(move.sink, AtomSink) else "B"
