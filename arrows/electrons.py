@@ -220,6 +220,13 @@ class StepChange:
     shells: dict[int, int] = field(default_factory=dict)                  # valence-shell electrons N + 2B, touched atoms
     moves: list[ResolvedMove] = field(default_factory=list)
 
+    @property
+    def pericyclic(self) -> bool:
+        """Every arrow moves a bond's pair into a bond: electrons go round a cyclic array, and no
+        atom gains or loses charge (a cycloaddition, a [3,3] shift, an ene reaction)."""
+        return bool(self.moves) and all(m.source_kind == "bond" and len(m.sink_atoms) == 2 and m.electrons == 2
+                                        for m in self.moves)
+
 
 class _StepFailed(Exception):
     pass

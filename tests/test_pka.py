@@ -17,7 +17,7 @@ from arrows.checks.protons import pka_gap, proton_transfers
 from arrows.cli import cli
 from arrows.judgement.acidity import acidity_of, perceived
 
-from textbook_mechanisms import ACID_ENOLISATION, WOLFF_KISHNER
+from textbook_mechanisms import ACID_ENOLISATION, ENE_REACTION, WOLFF_KISHNER
 
 GALLERY = sorted((Path(__file__).resolve().parent.parent / "gallery").glob("*.mech"))
 
@@ -191,3 +191,13 @@ def test_tert_butoxide_on_a_sulfonium_salt_is_not_flagged():
             'step "deprotonation"\n    :O3 -> H(C2)\n    C2-H -> C2\nend\n')
     _, diags = check_text(text, "ylide.mech")
     assert not [d.to_text() for d in diags if d.code == "AR508"]
+
+
+def test_an_ene_reaction_passes_a_hydrogen_without_a_base():
+    """The carbonyl-ene reaction of propene with formaldehyde (textbook pericyclic reaction, common
+    practice): the allylic hydrogen moves to oxygen as the C-C bond forms, round a six-membered
+    cyclic array with no ions made. It was once judged as an alkoxide taking an alkane C-H, uphill
+    by 34 (AR508)."""
+    trace, diags = check_text(ENE_REACTION)
+    assert [d.code for d in diags if d.severity != "note"] == []
+    assert proton_transfers(trace.steps[0]) == []

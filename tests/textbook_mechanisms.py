@@ -15,8 +15,8 @@ sulfonium leaving groups (Hofmann, Corey-Chaykovsky), an arene made by a tautome
 epoxide closed by a backside attack at a configured carbon, a configured carbon that migrates
 (Baeyer-Villiger, retention), a radical that closes a ring (tin hydride, 5-exo-trig), a sulfonate
 leaving group made (mesylation) and displaced (SN2), a bromonium opened by water, a thiolate, a diazonium ion made from an amine and
-NO+, an isocyanate that loses CO2 (Hofmann rearrangement), and a five-arrow concerted oxygen
-transfer (peracid epoxidation).
+NO+, an isocyanate that loses CO2 (Hofmann rearrangement), a five-arrow concerted oxygen
+transfer (peracid epoxidation), and a hydrogen passed round a six-membered cyclic array (carbonyl-ene).
 
 Each entry: (mechanism text, textbook product SMILES, drawn): `drawn` says whether the geometry
 tests draw it. All do but two. The Dieckmann condensation: the ethoxide it expels stays where it
@@ -1022,6 +1022,20 @@ end
 product "CC1OC1C.CC(=O)O"
 '''
 
+# Carbonyl-ene reaction of propene with formaldehyde: the alkene bonds to the carbonyl carbon as
+# the allylic hydrogen moves to oxygen, round a six-membered cyclic array (but-3-en-1-ol). (It was
+# once judged as an alkoxide taking an alkane C-H, AR508.)
+ENE_REACTION = '''\
+species ene = "[CH3:3][CH:2]=[CH2:1]"
+species enophile = "[CH2:4]=[O:5]"
+step "ene reaction" over "Lewis acid"
+    C1=C2 -> C1-C4
+    C3-H -> C2=C3
+    C4=O5 -> O5-H(C3)
+end
+product "C=CCCO"
+'''
+
 TEXTBOOK = {
     "wittig": (WITTIG, "C=C(C)C.O=P(c1ccccc1)(c1ccccc1)c1ccccc1", True),
     "bromination": (BROMINATION, "BrC1CCCCC1Br", True),
@@ -1070,4 +1084,5 @@ TEXTBOOK = {
     "hofmann rearrangement": (HOFMANN_REARRANGEMENT, "CN.O=C=O", False),   # its atoms fall into one-atom clusters: C1-N3 drawn 2.73 long
     "mesylation": (MESYLATION, "CCOS(C)(=O)=O", True),
     "epoxidation": (EPOXIDATION, "CC1OC1C.CC(=O)O", True),
+    "ene reaction": (ENE_REACTION, "C=CCCO", True),
 }

@@ -3,7 +3,9 @@
 A proton transfer is an arrow from a lone pair (or a pi pair) of a base B to a hydrogen on X,
 with the X-H bond broken in the same step. The acid given up is judged on X before the step, the
 conjugate acid of the base on B after it (arrows.judgement.acidity). A concerted elimination
-(E2: another sigma bond breaks in the same step) is not a plain proton transfer and is left alone.
+(E2: another sigma bond breaks in the same step) is not a plain proton transfer and is left alone,
+nor is a hydrogen passed round a pericyclic array (an ene reaction, a [1,5]-hydrogen shift), where
+no base takes a proton and no ions form.
 """
 from __future__ import annotations
 
@@ -59,7 +61,7 @@ class ProtonTransfer:
 def proton_transfers(st: StepTrace, views: Optional[RecentViews] = None) -> list[ProtonTransfer]:
     """The plain proton transfers of one step, each with its two acidities; `views` holds the
     perceived views of the states met lately (the state after one step is the state before the next)."""
-    if st.after is None:
+    if st.after is None or st.change.pericyclic:
         return []
     before, elements, broken = st.before.mol, st.before.elements, st.change.broken
     found = []

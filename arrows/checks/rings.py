@@ -38,8 +38,7 @@ def closures_in_step(st: StepTrace) -> list[StepClosure]:
     if st.after is None:
         return []
     mol = st.before.mol
-    pericyclic = bool(st.change.moves) and all(
-        m.source_kind == "bond" and len(m.sink_atoms) == 2 and m.electrons == 2 for m in st.change.moves)
+    pericyclic = st.change.pericyclic
     found = []
     rings_seen: set[frozenset[int]] = set()
     for i, j in st.change.formed:
