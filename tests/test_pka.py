@@ -201,3 +201,16 @@ def test_an_ene_reaction_passes_a_hydrogen_without_a_base():
     trace, diags = check_text(ENE_REACTION)
     assert [d.code for d in diags if d.severity != "note"] == []
     assert proton_transfers(trace.steps[0]) == []
+
+
+def test_hydroxide_on_chloroform_is_not_flagged():
+    """Dichlorocarbene from chloroform and sodium hydroxide (textbook alpha-elimination, as in the
+    Reimer-Tiemann reaction; common practice): chloroform's C-H (pKa ~15.5, bromoform ~13.7, memory)
+    is about as acidic as water. It was once judged as an alkane C-H (~50), 34 units uphill (AR508)."""
+    text = ('species chloroform = "Cl[CH:2](Cl)Cl"\nspecies base = "[OH-:3]"\n'
+            'step "deprotonation"\n    :O3 -> H(C2)\n    C2-H -> C2\nend\n')
+    _, diags = check_text(text, "carbene.mech")
+    assert not [d.to_text() for d in diags if d.code == "AR508"]
+    for smiles in ("ClC(Cl)Cl", "BrC(Br)Br"):
+        entry = acidity_of(perceived(Chem.MolFromSmiles(smiles)), 1)
+        assert entry is not None and 13 <= entry.pka <= 16, smiles
