@@ -25,10 +25,13 @@ closed by an aldol alkoxide (Darzens), zinc and aluminium passing through six-me
 (Reformatsky, Meerwein-Ponndorf-Verley), an alkoxide-driven [3,3] and a carbanion [2,3] shift, a
 nitrilium met by an alcohol (Pinner), imines and enamines, acyl substitutions (transesterification,
 Schotten-Baumann), a dehydration through the enol, an iodonium opened by a carboxylate, hydrate and
-cyanohydrin, a sulfonamide anion, and a cycloreversion and cycloaddition (Criegee ozonide).
+cyanohydrin, a sulfonamide anion, a cycloreversion and cycloaddition (Criegee ozonide), an aryne
+(benzyne), a carbene from an alpha-elimination, phosphorus made P=O and P=N (Arbuzov, Staudinger),
+a configured carbon inverted by a carboxylate (Mitsunobu), a radical chain through an allyl
+radical in its other resonance form, and an allyl cation caught at its far end (1,4-addition).
 
 Each entry: (mechanism text, textbook product SMILES, drawn): `drawn` says whether the geometry
-tests draw it. All do but eleven. The Dieckmann condensation: the ethoxide it expels stays where it
+tests draw it. All do but fourteen. The Dieckmann condensation: the ethoxide it expels stays where it
 was bonded (the layout moves only atoms a step touches, and its ethyl is never touched), 1.0 bond
 length from the hydrogen it takes next, where the proton-transfer test wants 1.4. (The mesylate
 SN2 once pushed the ethyl that iodide takes 0.9 bond lengths out along its broken C-O bond, as if
@@ -42,7 +45,10 @@ Swern oxalyl fragment is drawn with a C-C bond 1.15 bond lengths long as it fall
 C#O arrow leaves from the crowded side); the Darzens ester and the Reformatsky zinc enolate move out
 of shape by 0.15 and 0.03 bond lengths (2% allowed) as they join the ketone; an untouched carbon of
 the Tiffeneau-Demjanov ring moves 0.13 bond lengths as the ring grows; the Wolff methyl's shift
-arrow bulges toward the pivot. The nitration's nitronium, straight until the arene bonds to its
+arrow bulges toward the pivot. The benzyne's ring C#C is held to the straight-sp test, and its
+figure's bond orders are not RDKit's; the Mitsunobu scheme crosses bonds and moves the ester 2.86
+bond lengths out of shape as its parts join; the Staudinger azide's central nitrogen is drawn bent
+(135 degrees), and its two arrows into N3#N4 end at one point. The nitration's nitronium, straight until the arene bonds to its
 nitrogen, gets a straight depiction and then a bent one; the Beckmann nitrilium a bent one, a
 straight one, and a bent one again."""
 
@@ -1699,6 +1705,167 @@ end
 product "CCC(=O)O"
 '''
 
+# Benzyne: amide takes the proton ortho to chlorine, chloride leaves (benzyne), amide adds, and
+# ammonia protonates the aryl anion (aniline).
+BENZYNE = '''\
+species arene = "[Cl:1][c:2]1[cH:3][cH:4][cH:5][cH:6][cH:7]1"
+species amide = "[NH2-:8]"
+species ammonia = "[NH3:9]"
+step "deprotonation"
+    :N8 -> H(C3)
+    C3-H -> C3
+end
+step "loss of chloride"
+    :C3 -> C2#C3
+    C2-Cl1 -> Cl1
+end
+step "addition"
+    uses amide_2 = "[NH2-:10]"
+    :N10 -> C2
+    C2#C3 -> C3
+end
+step "protonation"
+    :C3 -> H(N9)
+    N9-H -> N9
+end
+product "Nc1ccccc1"
+'''
+
+# Dichlorocyclopropanation of cyclohexene: hydroxide takes the proton of chloroform, the
+# trichloromethanide loses chloride (dichlorocarbene, an alpha-elimination), and the carbene adds to
+# the alkene in one step, its pair to one carbon as the pi pair bonds to it from the other
+# (7,7-dichlorobicyclo[4.1.0]heptane). (The deprotonation was once judged as hydroxide taking an
+# alkane C-H, AR508.)
+DICHLOROCARBENE = '''\
+species chloroform = "[Cl:1][CH:2](Cl)Cl"
+species base = "[OH-:3]"
+species alkene = "[CH:4]1=[CH:5]CCCC1"
+step "deprotonation"
+    :O3 -> H(C2)
+    C2-H -> C2
+end
+step "alpha-elimination"
+    C2-Cl1 -> Cl1
+    expect "Cl[C]Cl"
+end
+step "cheletropic addition"
+    C4=C5 -> C2-C4
+    :C2 -> C2-C5
+end
+product "ClC1(Cl)C2CCCCC21"
+'''
+
+# Mitsunobu esterification of (R)-butan-2-ol with benzoic acid: triphenylphosphine adds to DEAD
+# (a betaine), which takes the acid's proton; the alcohol displaces the hydrazide anion at
+# phosphorus, the hydrazide takes the O-H proton, and benzoate displaces triphenylphosphine oxide
+# from the back ((S)-butan-2-yl benzoate, inversion).
+MITSUNOBU = '''\
+species alcohol = "CC[C@@H:10](C)[OH:11]"
+species dead = "CCO[C:1](=O)[N:2]=[N:3][C:4](=O)OCC"
+species phosphine = "c1ccccc1[P:5](c1ccccc1)c1ccccc1"
+species acid = "c1ccccc1[C:6](=[O:7])[OH:8]"
+step "phosphine adds to DEAD"
+    :P5 -> N2
+    N2=N3 -> N3
+end
+step "protonation of the betaine"
+    :N3 -> H(O8)
+    O8-H -> O8
+end
+step "alkoxyphosphonium ion"
+    :O11 -> P5
+    P5-N2 -> N2
+end
+step "deprotonation"
+    :N2 -> H(O11)
+    O11-H -> O11
+end
+step "SN2 with inversion"
+    :O8 -> C10
+    C10-O11 -> O11
+end
+product "CC[C@H](C)OC(=O)c1ccccc1.[O-][P+](c1ccccc1)(c1ccccc1)c1ccccc1.CCOC(=O)NNC(=O)OCC"
+'''
+
+# Michaelis-Arbuzov reaction: triethyl phosphite displaces iodide from iodomethane (a phosphonium
+# ion), and iodide takes an ethyl group off oxygen in an SN2 as the C-O pair makes the P=O bond
+# (diethyl methylphosphonate and iodoethane).
+ARBUZOV = '''\
+species phosphite = "C[CH2:5][O:1][P:2](OCC)OCC"
+species iodomethane = "[CH3:3][I:4]"
+step "alkylation at phosphorus"
+    :P2 -> C3
+    C3-I4 -> I4
+    expect "CCO[P+](C)(OCC)OCC"
+end
+step "dealkylation"
+    :I4 -> C5
+    C5-O1 -> P2=O1
+end
+product "CCOP(C)(=O)OCC.CCI"
+'''
+
+# Staudinger reaction: triphenylphosphine adds to the terminal nitrogen of methyl azide (a
+# phosphazide), which gives N2 off through a four-membered cyclic transition state (the
+# iminophosphorane, drawn P=N).
+STAUDINGER = '''\
+species azide = "[CH3:1][N:2]=[N+:3]=[N-:4]"
+species phosphine = "c1ccccc1[P:5](c1ccccc1)c1ccccc1"
+step "addition"
+    :P5 -> P5-N4
+    N3=N4 -> N3
+end
+step "loss of nitrogen"
+    :N4 -> N3#N4
+    P5-N4 -> N3#N4
+    N2=N3 -> N2=P5
+    N2=N3 -> N2=P5
+end
+product "CN=P(c1ccccc1)(c1ccccc1)c1ccccc1.N#N"
+'''
+
+# Allylic bromination of cyclohexene (Wohl-Ziegler chain): a bromine atom takes an allylic
+# hydrogen; the allyl radical, drawn in its other resonance form, takes a bromine atom from Br2.
+ALLYLIC_BROMINATION = '''\
+species alkene = "[CH:1]1=[CH:2][CH2:3]CCC1"
+species bromine_atom = "[Br:4]"
+species bromine = "[Br:5][Br:6]"
+step "hydrogen abstraction"
+    .Br4 ~> H(C3)
+    C3-H ~> Br4-H(C3)
+    C3-H ~> C3
+end
+step "allyl radical" resonance
+    .C3 ~> C2=C3
+    C1=C2 ~> C2=C3
+    C1=C2 ~> C1
+end
+step "bromine transfer"
+    .C1 ~> Br5
+    Br5-Br6 ~> C1-Br5
+    Br5-Br6 ~> Br6
+end
+product "BrC1C=CCCC1.Br"
+'''
+
+# Conjugate (1,4-) addition of HBr to buta-1,3-diene: protonation at C1 gives the allyl cation,
+# drawn in its other resonance form, and bromide adds at C4 (1-bromobut-2-ene).
+CONJUGATE_HBR_ADDITION = '''\
+species diene = "[CH2:1]=[CH:2][CH:3]=[CH2:4]"
+species hbr = "[Br:5][H:6]"
+step "protonation"
+    C1=C2 -> C1-H6
+    Br5-H6 -> Br5
+end
+step "allyl cation" resonance
+    C3=C4 -> C2=C3
+end
+step "capture at C4"
+    :Br5 -> C4
+end
+product "CC=CCBr"
+'''
+
 TEXTBOOK = {
     "wittig": (WITTIG, "C=C(C)C.O=P(c1ccccc1)(c1ccccc1)c1ccccc1", True),
     "bromination": (BROMINATION, "BrC1CCCCC1Br", True),
@@ -1774,4 +1941,11 @@ TEXTBOOK = {
     "[2,3]-wittig": (WITTIG_2_3, "C=CCC([O-])c1ccccc1", True),
     "criegee ozonide": (CRIEGEE_OZONIDE, "C1OCOO1", True),
     "wolff rearrangement": (WOLFF, "CCC(=O)O", False),   # the methyl's shift arrow bulges toward the pivot
+    "benzyne": (BENZYNE, "Nc1ccccc1", False),   # its ring C#C fails the straight-sp test; the figure's bond orders are not RDKit's
+    "dichlorocarbene": (DICHLOROCARBENE, "ClC1(Cl)C2CCCCC21", True),
+    "mitsunobu": (MITSUNOBU, "CC[C@H](C)OC(=O)c1ccccc1.[O-][P+](c1ccccc1)(c1ccccc1)c1ccccc1", False),   # bonds cross and the ester moves 2.86 out of shape as the parts join
+    "arbuzov": (ARBUZOV, "CCOP(C)(=O)OCC.CCI", True),
+    "staudinger": (STAUDINGER, "CN=P(c1ccccc1)(c1ccccc1)c1ccccc1.N#N", False),   # the azide's central N drawn bent; two arrow heads meet at N3#N4
+    "allylic bromination": (ALLYLIC_BROMINATION, "BrC1C=CCCC1.Br", True),
+    "conjugate hbr addition": (CONJUGATE_HBR_ADDITION, "CC=CCBr", True),
 }
