@@ -222,10 +222,11 @@ class StepChange:
 
     @property
     def pericyclic(self) -> bool:
-        """Every arrow moves a bond's pair into a bond: electrons go round a cyclic array, and no
-        atom gains or loses charge (a cycloaddition, a [3,3] shift, an ene reaction)."""
-        return bool(self.moves) and all(m.source_kind == "bond" and len(m.sink_atoms) == 2 and m.electrons == 2
-                                        for m in self.moves)
+        """Every arrow moves a bond's pair into a bond and the pairs close a loop, so no atom gains
+        or loses charge (a cycloaddition, a [3,3] shift, an ene reaction). An open chain of such
+        arrows moves a charge: a C=C pair onto a carbocation (a cation-olefin cyclisation) is polar."""
+        return bool(self.moves) and not self.charges and all(
+            m.source_kind == "bond" and len(m.sink_atoms) == 2 and m.electrons == 2 for m in self.moves)
 
 
 class _StepFailed(Exception):

@@ -272,3 +272,21 @@ def test_closure_onto_a_carbocation_is_named_so():
     message = found[0].message
     assert "3-membered" in message and "carbocation" in message and "not covered" in message
     assert "oxocarbenium" not in message and "broken" not in message.split("no bond breaks")[0]
+
+
+def test_a_cation_olefin_cyclisation_is_polar_not_pericyclic():
+    """Hex-5-en-1-yl cation: the C=C pair bonds to the carbocation, closing a cyclohexyl cation
+    (the cation-olefin cyclisation of polyene and terpene chemistry; textbook, common practice).
+    One arrow from a bond to a bond, but an open chain that moves the charge: a polar closure onto a
+    carbocation, which Baldwin's rules do not cover. It was once reported as a pericyclic step.
+    A [3,3] shift, whose arrows close a loop, stays pericyclic (no ring, no diagnostic)."""
+    text = _mechanism("[CH2+:1][CH2:2][CH2:3][CH2:4][CH:5]=[CH2:6]", ["C5=C6 -> C1-C6"])
+    trace, found = _ring_diagnostics(text)
+    assert [len(r) for r in trace.final.mol.GetRingInfo().AtomRings()] == [6]
+    assert [d.code for d in found] == ["AR601"]
+    assert "pericyclic" not in found[0].message and "carbocation" in found[0].message
+    assert not trace.steps[0].change.pericyclic
+    cope = _mechanism("[CH2:1]=[CH:2][CH2:3][CH2:4][CH:5]=[CH2:6]",
+                      ["C1=C2 -> C1-C6", "C3-C4 -> C2=C3", "C5=C6 -> C4=C5"])
+    trace, _ = _ring_diagnostics(cope)
+    assert trace.steps[0].change.pericyclic
