@@ -290,3 +290,17 @@ def test_a_cation_olefin_cyclisation_is_polar_not_pericyclic():
                       ["C1=C2 -> C1-C6", "C3-C4 -> C2=C3", "C5=C6 -> C4=C5"])
     trace, _ = _ring_diagnostics(cope)
     assert trace.steps[0].change.pericyclic
+
+
+def test_a_nazarov_closure_is_electrocyclic():
+    """The O-protonated penta-1,4-dien-3-one (a pentadienyl cation) closes to the hydroxyallyl
+    cation, a conrotatory 4-electron electrocyclic ring closure (Nazarov cyclisation; textbook
+    pericyclic chemistry, common practice): every atom of the five-membered ring changes in the
+    step, and the arrows all start at bonds. Baldwin's rules do not apply; it was once judged
+    5-endo-trig, disfavoured (AR502). RDKit's ring sizes are the judge of the ring."""
+    text = _mechanism("[CH2:1]=[CH:2][C:3](=[OH+:6])[CH:4]=[CH2:5]",
+                      ["C1=C2 -> C1-C5", "C4=C5 -> C3=C4", "C3=O6 -> O6"])
+    trace, found = _ring_diagnostics(text)
+    assert [len(r) for r in trace.final.mol.GetRingInfo().AtomRings()] == [5]
+    assert [d.code for d in found] == ["AR601"]
+    assert "5-membered ring in a pericyclic step" in found[0].message

@@ -45,7 +45,8 @@ def closures_in_step(st: StepTrace) -> list[StepClosure]:
         if mol.GetAtomWithIdx(i).GetAtomicNum() == 1 or mol.GetAtomWithIdx(j).GetAtomicNum() == 1:
             continue   # a hydrogen moving inside one molecule is a transfer, not a ring closure
         path = ring_path(mol, i, j)    # the ring of the transition state, () between two molecules
-        cyclic = pericyclic or _sigmatropic(st, i, j, path)
+        cyclic = pericyclic or ((_electrocyclic(st, path) or _sigmatropic(st, i, j, path))
+                                and not _migrates(st, i, j, path))
         ring = _ring_closed(st, i, j, path, cyclic)
         if not ring or (cyclic and frozenset(ring) in rings_seen):
             continue   # no ring in the state after, or a pericyclic ring already counted for another bond
@@ -63,6 +64,24 @@ def closures_in_step(st: StepTrace) -> list[StepClosure]:
                                         or st.before.formal_charge(y) > 0)
         found.append(StepClosure(x, y, ring, classify(ring, geometry, w, z), z, w, cation, loc))
     return found
+
+
+def _electrocyclic(st: StepTrace, path: tuple[int, ...]) -> bool:
+    """Whether every arrow starts at a bond and the step changes every atom of the ring it closes:
+    a conjugated array closing on itself, the charge of an ion moved along it (a Nazarov closure of
+    a protonated dienone, an allyl to cyclopropyl cation). A C=C pair onto a cation at the end of a
+    saturated chain leaves chain atoms untouched: a polar closure."""
+    change = st.change
+    return bool(path) and all(m.source_kind == "bond" and m.electrons == 2 for m in change.moves) \
+        and set(path) <= set(change.touched_atoms)
+
+
+def _migrates(st: StepTrace, i: int, j: int, path: tuple[int, ...]) -> bool:
+    """A 1,2-shift: the new bond's pair comes from a bond of the path that breaks (the group
+    migrates with its pair), so no ring is made."""
+    broken_on_path = {frozenset(b) for b in zip(path, path[1:])} & {frozenset(b) for b in st.change.broken}
+    return bool(broken_on_path) and any(m.source_kind == "bond" and set(m.sink_atoms) == {i, j}
+                                        and frozenset(m.source_atoms) in broken_on_path for m in st.change.moves)
 
 
 def _sigmatropic(st: StepTrace, i: int, j: int, path: tuple[int, ...]) -> bool:
@@ -87,13 +106,10 @@ def _ring_closed(st: StepTrace, i: int, j: int, before: tuple[int, ...], pericyc
     migrates with its pair). A pericyclic step closes the rings of the state after (a
     cycloaddition through its second new bond; a [3,3] shift closes none). `before` is the path
     from i to j in the state before."""
-    broken = {frozenset(b) for b in st.change.broken}
-    broken_on_path = {frozenset(pair) for pair in zip(before, before[1:])} & broken
     if not pericyclic:
-        migrating = any(m.source_kind == "bond" and set(m.sink_atoms) == {i, j}
-                        and frozenset(m.source_atoms) in broken_on_path for m in st.change.moves)
-        return () if migrating else before
-    if before and not broken_on_path:
+        return () if _migrates(st, i, j, before) else before
+    broken = {frozenset(b) for b in st.change.broken}
+    if before and not {frozenset(pair) for pair in zip(before, before[1:])} & broken:
         return before            # the common case, without a copy of the state
     if not before and len(st.change.formed) == 1:
         return ()                # two molecules joined by one bond: no ring
