@@ -1,4 +1,4 @@
-"""Correct mechanisms the engine once rejected, each reduced to its smallest form."""
+"""Correct mechanisms the engine once rejected or misjudged, each reduced to its smallest form."""
 from rdkit import Chem
 
 from arrows.api import check_text
@@ -79,3 +79,20 @@ def test_stereo_is_perceived_beside_hydrogen_gas():
         view = perceive(mol)
         assert view.complete, smiles
         assert [e.atoms[0] for e in stereo_elements(mol, view)] == alone, smiles
+
+
+def test_the_expanded_octet_hint_names_the_element():
+    """Fluoride on trimethylsilyl methyl ether makes a five-coordinate silicate, drawn hypervalent as
+    a matter of course (silyl ether cleavage by fluoride; common practice). AR504 still notes the
+    ten electrons, but its hint once said 'fine for hypervalent P, S or I; otherwise a bond should
+    break', as if silicon could not be."""
+    text = '''
+species ether = "CO[Si:1](C)(C)C"
+species fluoride = "[F-:2]"
+step "silicate"
+    :F2 -> Si1
+end
+'''
+    _, diags = check_text(text)
+    octet = [d for d in diags if d.code == "AR504"]
+    assert len(octet) == 1 and "hypervalent Si" in octet[0].hint and "P, S or I" not in octet[0].hint
