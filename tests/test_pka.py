@@ -214,3 +214,17 @@ def test_hydroxide_on_chloroform_is_not_flagged():
     for smiles in ("ClC(Cl)Cl", "BrC(Br)Br"):
         entry = acidity_of(perceived(Chem.MolFromSmiles(smiles)), 1)
         assert entry is not None and 13 <= entry.pka <= 16, smiles
+
+
+def test_a_hydride_base_is_judged_through_h2():
+    """A hydride ion's conjugate acid is H2 (pKa ~35, memory; common practice: NaH takes an
+    alcohol's proton, not an alkane's). Sodium hydride on ethane is uphill by 15 (AR508), on
+    ethanol downhill; hydroxide cannot take a proton of H2. These transfers were once not judged at
+    all, H2 having no entry."""
+    def uphill(acid: str, base: str, moves: str) -> list[str]:
+        text = f'species acid = "{acid}"\nspecies base = "{base}"\nstep "proton transfer"\n{moves}end\n'
+        _, diags = check_text(text)
+        return [d.code for d in diags if d.code == "AR508"]
+    assert uphill("C[CH3:1]", "[H-:2]", "    :H2 -> H(C1)\n    C1-H -> C1\n") == ["AR508"]
+    assert uphill("C[OH:1]", "[H-:2]", "    :H2 -> H(O1)\n    O1-H -> O1\n") == []
+    assert uphill("[H:3][H:1]", "[OH-:2]", "    :O2 -> H3\n    H1-H3 -> H1\n") == ["AR508"]

@@ -16,7 +16,7 @@ from typing import Callable, Iterator, Optional
 from rdkit import Chem
 
 from ..diagnostics import Diagnostic
-from ..judgement.acidity import Acidity, acidity_of
+from ..judgement.acidity import HYDROGEN, Acidity, acidity_of
 from ..judgement.perception import Perceived, RecentViews
 from ..model import Location, frozen
 from ..trace import StepTrace
@@ -87,7 +87,9 @@ def proton_transfers(st: StepTrace, views: Optional[RecentViews] = None) -> list
         return []
     views = RecentViews() if views is None else views
     acids, conjugates = views.of(st.before), views.of(st.after)
-    return [ProtonTransfer(b, x, h, loc, _acidity(acids, x), _acidity(conjugates, b)) for b, x, h, loc in found]
+    def acidity(view: Perceived, atom: int) -> Optional[Acidity]:
+        return HYDROGEN if elements[atom] == 1 else _acidity(view, atom)   # H2, given up or made
+    return [ProtonTransfer(b, x, h, loc, acidity(acids, x), acidity(conjugates, b)) for b, x, h, loc in found]
 
 
 def _acidity(view: Perceived, atom: int) -> Optional[Acidity]:

@@ -74,6 +74,11 @@ TABLE: tuple[Acidity, ...] = (
 )
 
 
+# H2 as an acid (hydride's conjugate acid), judged by element: the perceived view leaves the
+# molecule out, and no SMARTS of the table is about a hydrogen atom.
+HYDROGEN = Acidity("H2", "a hydride ion", "[#1][#1]", 35, "~35", NOT_LISTED)
+
+
 @lru_cache(maxsize=None)
 def _entries_for(element: int) -> tuple[tuple[Acidity, Chem.Mol, Optional[Chem.Atom]], ...]:
     """The table entries that can be about an atom of `element`, in table order, each with its
