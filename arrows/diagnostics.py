@@ -167,10 +167,10 @@ CODES = _table(
          ':O2 -> H(C3)   # water (pKa of hydronium -1.7) taking an alkane C-H (~50)'),
     Code("AR601", NOTE, "ring closure",
          "A step closes a ring; its size and Baldwin class are given. A pericyclic step (every arrow "
-         "from a bond to a bond, round a closed loop that makes no charge or along a ring whose every "
-         "atom the step changes, as in a Nazarov closure; or a sigmatropic shift drawn from a lone pair, "
-         "whose ring exists only in the transition state) reports the rings of the structure after it, "
-         "without a Baldwin class: "
+         "from a bond to a bond, round a closed loop that makes no charge; arrows that all start at "
+         "bonds and change every atom of the ring they close, as in a Nazarov closure; or a sigmatropic "
+         "shift drawn from a lone pair, whose ring exists only in the transition state) reports the "
+         "rings of the structure after it, without a Baldwin class: "
          "a Diels-Alder closes one, a Cope or [2,3]-Wittig shift none. A 1,2-shift closes no ring.",
          'C2=C3 -> C3-C7   # an enolate onto a ketone of its own chain: 5-(enolexo)-exo-trig, favoured'),
     Code("AR602", NOTE, "stereocentres",

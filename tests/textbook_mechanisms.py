@@ -32,7 +32,8 @@ radical in its other resonance form, an allyl cation caught at its far end (1,4-
 4-electron electrocyclic closure of a cation (Nazarov), an arene closing onto an iminium
 (Pictet-Spengler), an ammonium enolate that expels its amine (Baylis-Hillman), a syn elimination
 through a five-membered ring (Cope elimination), a thionium ion (Pummerer), a hydride reduction that
-passes through the aldehyde, and a five-coordinate silicate (Peterson).
+passes through the aldehyde, a five-coordinate silicate (Peterson), and a heteroarene whose
+nitrogen lone pair pushes through the ring (bromination of pyrrole at C2).
 
 Each entry: (mechanism text, textbook product SMILES, drawn): `drawn` says whether the geometry
 tests draw it. All do but seventeen. The Dieckmann condensation: the ethoxide it expels stays where it
@@ -2043,6 +2044,26 @@ end
 product "C=C(C)C.C[Si](C)(C)[O-]"
 '''
 
+# Bromination of pyrrole at C2: the nitrogen lone pair pushes through the ring as C2 takes Br+ from
+# bromine (an iminium sigma complex), and bromide takes the C2 proton (2-bromopyrrole).
+PYRROLE_BROMINATION = '''\
+species pyrrole = "[nH:1]1[cH:2][cH:3][cH:4][cH:5]1"
+species bromine = "[Br:6][Br:7]"
+step "attack at C2"
+    :N1 -> N1=C5
+    C4=C5 -> C3=C4
+    C2=C3 -> C2-Br6
+    Br6-Br7 -> Br7
+end
+step "rearomatisation"
+    :Br7 -> H(C2)
+    C2-H -> C2=C3
+    C3=C4 -> C4=C5
+    N1=C5 -> N1
+end
+product "Brc1ccc[nH]1.Br"
+'''
+
 TEXTBOOK = {
     "wittig": (WITTIG, "C=C(C)C.O=P(c1ccccc1)(c1ccccc1)c1ccccc1", True),
     "bromination": (BROMINATION, "BrC1CCCCC1Br", True),
@@ -2132,4 +2153,5 @@ TEXTBOOK = {
     "pummerer": (PUMMERER, "CSCOC(C)=O.CC(=O)O", True),
     "ester reduction": (ESTER_REDUCTION, "OCc1ccccc1", False),   # the C=O pair re-formed by O2 leaves from the crowded side
     "peterson": (PETERSON, "C=C(C)C.C[Si](C)(C)[O-]", True),
+    "pyrrole bromination": (PYRROLE_BROMINATION, "Brc1ccc[nH]1.Br", True),
 }
