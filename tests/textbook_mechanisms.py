@@ -33,10 +33,11 @@ radical in its other resonance form, an allyl cation caught at its far end (1,4-
 (Pictet-Spengler), an ammonium enolate that expels its amine (Baylis-Hillman), a syn elimination
 through a five-membered ring (Cope elimination), a thionium ion (Pummerer), a hydride reduction that
 passes through the aldehyde, a five-coordinate silicate (Peterson), and a heteroarene whose
-nitrogen lone pair pushes through the ring (bromination of pyrrole at C2).
+nitrogen lone pair pushes through the ring (bromination of pyrrole at C2), and a chlorosulfite
+that falls apart to SO2 (an acid chloride from thionyl chloride).
 
 Each entry: (mechanism text, textbook product SMILES, drawn): `drawn` says whether the geometry
-tests draw it. All do but seventeen. The Dieckmann condensation: the ethoxide it expels stays where it
+tests draw it. All do but eighteen. The Dieckmann condensation: the ethoxide it expels stays where it
 was bonded (the layout moves only atoms a step touches, and its ethyl is never touched), 1.0 bond
 length from the hydrogen it takes next, where the proton-transfer test wants 1.4. (The mesylate
 SN2 once pushed the ethyl that iodide takes 0.9 bond lengths out along its broken C-O bond, as if
@@ -56,7 +57,10 @@ bond lengths out of shape as its parts join; the Staudinger azide's central nitr
 (135 degrees), and its two arrows into N3#N4 end at one point. The Baylis-Hillman scheme has a
 bond 1.12 bond lengths long and leaves the alkoxide 0.77 bond lengths from the hydrogen it takes
 (1.4 wanted); the Cope elimination's oxide waits 1.34 from its hydrogen; in the ester reduction the
-C=O pair that O2 gives back leaves from the crowded side. The nitration's nitronium, straight until the arene bonds to its
+C=O pair that O2 gives back leaves from the crowded side. The thionyl chloride scheme draws a bond
+1.47 bond lengths long, moves the chlorosulfite out of shape as chloride leaves, and its SO2 (bent
+at S, which keeps a lone pair: VSEPR) is held to the straight-sp test, which counts two double
+bonds as sp. The nitration's nitronium, straight until the arene bonds to its
 nitrogen, gets a straight depiction and then a bent one; the Beckmann nitrilium a bent one, a
 straight one, and a bent one again."""
 
@@ -2064,6 +2068,37 @@ end
 product "Brc1ccc[nH]1.Br"
 '''
 
+# Acid chloride from acetic acid and thionyl chloride: the acid oxygen attacks sulfur, chloride
+# leaves (an acyl chlorosulfite, protonated), chloride takes the proton, chloride adds to the
+# carbonyl carbon, and the tetrahedral intermediate expels SO2 and chloride (acetyl chloride).
+THIONYL_CHLORIDE = '''\
+species acid = "C[C:1](=[O:2])[OH:3]"
+species thionyl = "[O:4]=[S:5]([Cl:6])[Cl:7]"
+step "attack at sulfur"
+    :O3 -> S5
+    S5=O4 -> O4
+end
+step "loss of chloride"
+    :O4 -> S5=O4
+    S5-Cl6 -> Cl6
+end
+step "deprotonation"
+    :Cl6 -> H(O3)
+    O3-H -> O3
+end
+step "chloride adds"
+    uses chloride = "[Cl-:8]"
+    :Cl8 -> C1
+    C1=O2 -> O2
+end
+step "collapse"
+    :O2 -> C1=O2
+    C1-O3 -> O3=S5
+    S5-Cl7 -> Cl7
+end
+product "CC(=O)Cl.O=S=O"
+'''
+
 TEXTBOOK = {
     "wittig": (WITTIG, "C=C(C)C.O=P(c1ccccc1)(c1ccccc1)c1ccccc1", True),
     "bromination": (BROMINATION, "BrC1CCCCC1Br", True),
@@ -2154,4 +2189,5 @@ TEXTBOOK = {
     "ester reduction": (ESTER_REDUCTION, "OCc1ccccc1", False),   # the C=O pair re-formed by O2 leaves from the crowded side
     "peterson": (PETERSON, "C=C(C)C.C[Si](C)(C)[O-]", True),
     "pyrrole bromination": (PYRROLE_BROMINATION, "Brc1ccc[nH]1.Br", True),
+    "thionyl chloride": (THIONYL_CHLORIDE, "CC(=O)Cl.O=S=O", False),   # a bond 1.47 long; SO2's bent S held to the straight-sp test
 }
