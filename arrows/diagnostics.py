@@ -80,8 +80,9 @@ CODES = _table(
          "more than the atom has).",
          'C3-H -> C2=C3\nC3-H -> C3-C7   # the one C3-H pair cannot go two places'),
     Code("AR204", ERROR, "arrow starts at a hydrogen",
-         "Arrows start at electrons. A proton (or any hydrogen) has no lone pair; the arrow that "
-         "removes a proton starts at the base's lone pair and ends at the hydrogen.",
+         "Arrows start at electrons. A proton (or any hydrogen bonded to an atom) has no lone pair; the "
+         "arrow that removes a proton starts at the base's lone pair and ends at the hydrogen. (A free "
+         "hydride ion, [H-], has a lone pair, and an arrow may start there.)",
          'H(C3) -> O11     # write  :O11 -> H(C3)  and  C3-H -> ...'),
     Code("AR205", ERROR, "arrow starts at an atom, not at electrons",
          "A bare atom cannot be a source: name a lone pair (`:X`), a bond (`X-Y`) or an unpaired "
@@ -171,8 +172,11 @@ CODES = _table(
          'C1-C2 -> C1-N3   # C1 is cis to the leaving O4 across C2=N3: the other group migrates'),
     Code("AR601", NOTE, "ring closure",
          "A step closes a ring; its size and Baldwin class are given. A pericyclic step (every arrow "
-         "from a bond to a bond) reports the rings of the structure after it, without a Baldwin class: "
-         "a Diels-Alder closes one, a Cope shift none. A 1,2-shift closes no ring.",
+         "from a bond to a bond, round a closed loop that makes no charge; arrows that all start at "
+         "bonds and change every atom of the ring they close, as in a Nazarov closure; or a sigmatropic "
+         "shift drawn from a lone pair, whose ring exists only in the transition state) reports the "
+         "rings of the structure after it, without a Baldwin class: "
+         "a Diels-Alder closes one, a Cope or [2,3]-Wittig shift none. A 1,2-shift closes no ring.",
          'C2=C3 -> C3-C7   # an enolate onto a ketone of its own chain: 5-(enolexo)-exo-trig, favoured'),
     Code("AR602", NOTE, "stereocentres",
          "Stereocentres or stereogenic double bonds made or lost in a step, and how many "

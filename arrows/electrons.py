@@ -221,6 +221,14 @@ class StepChange:
     shells: dict[int, int] = field(default_factory=dict)                  # valence-shell electrons N + 2B, touched atoms
     moves: list[ResolvedMove] = field(default_factory=list)
 
+    @property
+    def pericyclic(self) -> bool:
+        """Every arrow moves a bond's pair into a bond and the pairs close a loop, so no atom gains
+        or loses charge (a cycloaddition, a [3,3] shift, an ene reaction). An open chain of such
+        arrows moves a charge: a C=C pair onto a carbocation (a cation-olefin cyclisation) is polar."""
+        return bool(self.moves) and not self.charges and all(
+            m.source_kind == "bond" and len(m.sink_atoms) == 2 and m.electrons == 2 for m in self.moves)
+
 
 class _StepFailed(Exception):
     pass
@@ -325,7 +333,9 @@ class _StepReplay:
 
     def source_atom(self, move: Move, ref) -> int:
         index = self.resolve(ref)
-        if self.state.elements[index] == 1:
+        if self.state.elements[index] == 1 and self.nonbonding(index) == 0:
+            # A bonded hydrogen holds no electrons of its own; a hydride ion (NaH, LiH) or a hydrogen
+            # atom does, and an arrow may start there like any other lone pair or unpaired electron.
             hydrogen = self.state.label(index)
             parent = hydrogen[2:-1] if hydrogen.startswith("H(") else "X"
             base = str(move.sink.atom) if isinstance(move.sink, AtomSink) else "B"

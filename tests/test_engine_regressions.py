@@ -1,4 +1,4 @@
-"""Correct mechanisms the engine once rejected, each reduced to its smallest form."""
+"""Correct mechanisms the engine once rejected or misjudged, each reduced to its smallest form."""
 from rdkit import Chem
 
 from arrows.api import check_text
@@ -45,3 +45,54 @@ def test_aromatic_species_still_kekulized():
     assert not any(a.GetIsAromatic() for a in mol.GetAtoms())
     nitrogen = next(a for a in mol.GetAtoms() if a.GetAtomMapNum() == 1)
     assert nitrogen.GetTotalNumHs() == 1
+
+
+def test_a_hydride_ion_is_a_base():
+    """Sodium hydride takes the proton of an alcohol: the arrow starts at the lone pair of H- and
+    H2 is given off (the textbook first step of a Williamson ether synthesis or a
+    Horner-Wadsworth-Emmons deprotonation, common practice). A free hydride ion has a lone pair,
+    so the arrow is not AR204 (which once fired for any hydrogen source); a bonded hydrogen still is."""
+    text = '''
+species alcohol = "CC[OH:1]"
+species hydride = "[H-:2]"
+step "deprotonation"
+    :H2 -> H(O1)
+    O1-H -> O1
+end
+product "CC[O-].[H][H]"
+'''
+    assert _errors(text) == []
+    bonded = text.replace('"[H-:2]"', '"[Na:3][H:2]"')
+    assert any(" AR204 " in e for e in _errors(bonded))
+
+
+def test_stereo_is_perceived_beside_hydrogen_gas():
+    """A state that holds H2 (a hydride met by a proton) is still perceived whole: butan-2-ol keeps
+    its stereocentre beside it, as RDKit finds on the molecule alone (RDKit is the judge). The view
+    once kept the H2 atoms, fell back to a partial perception and reported no stereo element at all."""
+    from arrows.judgement.perception import perceive
+    from arrows.judgement.stereo import stereo_elements
+
+    alone = [i.centeredOn for i in Chem.FindPotentialStereo(Chem.MolFromSmiles("CC(O)CC"))]
+    for smiles in ("CC(O)CC.[H][H]", "CC(O)CC.[H-]"):
+        mol = Chem.AddHs(Chem.MolFromSmiles(smiles))
+        view = perceive(mol)
+        assert view.complete, smiles
+        assert [e.atoms[0] for e in stereo_elements(mol, view)] == alone, smiles
+
+
+def test_the_expanded_octet_hint_names_the_element():
+    """Fluoride on trimethylsilyl methyl ether makes a five-coordinate silicate, drawn hypervalent as
+    a matter of course (silyl ether cleavage by fluoride; common practice). AR504 still notes the
+    ten electrons, but its hint once said 'fine for hypervalent P, S or I; otherwise a bond should
+    break', as if silicon could not be."""
+    text = '''
+species ether = "CO[Si:1](C)(C)C"
+species fluoride = "[F-:2]"
+step "silicate"
+    :F2 -> Si1
+end
+'''
+    _, diags = check_text(text)
+    octet = [d for d in diags if d.code == "AR504"]
+    assert len(octet) == 1 and "hypervalent Si" in octet[0].hint and "P, S or I" not in octet[0].hint

@@ -17,7 +17,7 @@ from arrows.checks.protons import pka_gap, proton_transfers
 from arrows.cli import cli
 from arrows.judgement.acidity import acidity_of, perceived
 
-from textbook_mechanisms import ACID_ENOLISATION, WOLFF_KISHNER
+from textbook_mechanisms import ACID_ENOLISATION, ENE_REACTION, WOLFF_KISHNER
 
 GALLERY = sorted((Path(__file__).resolve().parent.parent / "gallery").glob("*.mech"))
 
@@ -191,3 +191,40 @@ def test_tert_butoxide_on_a_sulfonium_salt_is_not_flagged():
             'step "deprotonation"\n    :O3 -> H(C2)\n    C2-H -> C2\nend\n')
     _, diags = check_text(text, "ylide.mech")
     assert not [d.to_text() for d in diags if d.code == "AR508"]
+
+
+def test_an_ene_reaction_passes_a_hydrogen_without_a_base():
+    """The carbonyl-ene reaction of propene with formaldehyde (textbook pericyclic reaction, common
+    practice): the allylic hydrogen moves to oxygen as the C-C bond forms, round a six-membered
+    cyclic array with no ions made. It was once judged as an alkoxide taking an alkane C-H, uphill
+    by 34 (AR508)."""
+    trace, diags = check_text(ENE_REACTION)
+    assert [d.code for d in diags if d.severity != "note"] == []
+    assert proton_transfers(trace.steps[0]) == []
+
+
+def test_hydroxide_on_chloroform_is_not_flagged():
+    """Dichlorocarbene from chloroform and sodium hydroxide (textbook alpha-elimination, as in the
+    Reimer-Tiemann reaction; common practice): chloroform's C-H (pKa ~15.5, bromoform ~13.7, memory)
+    is about as acidic as water. It was once judged as an alkane C-H (~50), 34 units uphill (AR508)."""
+    text = ('species chloroform = "Cl[CH:2](Cl)Cl"\nspecies base = "[OH-:3]"\n'
+            'step "deprotonation"\n    :O3 -> H(C2)\n    C2-H -> C2\nend\n')
+    _, diags = check_text(text, "carbene.mech")
+    assert not [d.to_text() for d in diags if d.code == "AR508"]
+    for smiles in ("ClC(Cl)Cl", "BrC(Br)Br"):
+        entry = acidity_of(perceived(Chem.MolFromSmiles(smiles)), 1)
+        assert entry is not None and 13 <= entry.pka <= 16, smiles
+
+
+def test_a_hydride_base_is_judged_through_h2():
+    """A hydride ion's conjugate acid is H2 (pKa ~35, memory; common practice: NaH takes an
+    alcohol's proton, not an alkane's). Sodium hydride on ethane is uphill by 15 (AR508), on
+    ethanol downhill; hydroxide cannot take a proton of H2. These transfers were once not judged at
+    all, H2 having no entry."""
+    def uphill(acid: str, base: str, moves: str) -> list[str]:
+        text = f'species acid = "{acid}"\nspecies base = "{base}"\nstep "proton transfer"\n{moves}end\n'
+        _, diags = check_text(text)
+        return [d.code for d in diags if d.code == "AR508"]
+    assert uphill("C[CH3:1]", "[H-:2]", "    :H2 -> H(C1)\n    C1-H -> C1\n") == ["AR508"]
+    assert uphill("C[OH:1]", "[H-:2]", "    :H2 -> H(O1)\n    O1-H -> O1\n") == []
+    assert uphill("[H:3][H:1]", "[OH-:2]", "    :O2 -> H3\n    H1-H3 -> H1\n") == ["AR508"]

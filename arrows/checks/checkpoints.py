@@ -88,14 +88,15 @@ def _written_fragments(checkpoint: Checkpoint) -> tuple[Optional[list[Fragment]]
 def _derived_fragments(state: ElectronState, maps: frozenset[int], views: Optional[RecentViews]) -> list[Fragment]:
     """fragments(state.mol, maps), read off the state's shared perceived view when there is one:
     the view is the state sanitized with its hydrogen atoms folded into counts, as `_prepared`
-    makes it, so only the map numbers are left to clear. A state with a free proton (which the
-    view leaves out), a written configuration or a partial view is prepared here."""
+    makes it, so only the map numbers are left to clear. A state with a piece of hydrogen alone (a
+    free proton or hydride, H2: the view leaves them out), a written configuration or a partial
+    view is prepared here."""
     if state.configured:
         # Compared as constitution, like the written side (the stereo check reports configuration).
         mol = Chem.Mol(state.mol)
         Chem.RemoveStereochemistry(mol)
         return fragments(mol, maps, elements=state.elements)
-    if views is None or any(z == 1 and b == 0 for z, b in zip(state.elements, state.bond_sums)):
+    if views is None or _holds_hydrogen_alone(state):
         return fragments(state.mol, maps, elements=state.elements)
     view = views.of(state)
     if not view.complete:
@@ -108,6 +109,13 @@ def _derived_fragments(state: ElectronState, maps: frozenset[int], views: Option
         if number and number not in maps:
             atom.SetAtomMapNum(0)
     return [Fragment(frag) for frag in Chem.GetMolFrags(work, asMols=True, sanitizeFrags=False)]
+
+
+def _holds_hydrogen_alone(state: ElectronState) -> bool:
+    """Whether a hydrogen atom is bonded to no other atom than hydrogen (H+, H-, H2)."""
+    atom = state.mol.GetAtomWithIdx
+    return any(z == 1 and (b == 0 or all(n.GetAtomicNum() == 1 for n in atom(i).GetNeighbors()))
+               for i, (z, b) in enumerate(zip(state.elements, state.bond_sums)))
 
 
 def compare(state: ElectronState, checkpoint: Checkpoint, code: str, step: Optional[int],

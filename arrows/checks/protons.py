@@ -3,7 +3,9 @@
 A proton transfer is an arrow from a lone pair (or a pi pair) of a base B to a hydrogen on X,
 with the X-H bond broken in the same step. The acid given up is judged on X before the step, the
 conjugate acid of the base on B after it (arrows.judgement.acidity). A concerted elimination
-(E2: another sigma bond breaks in the same step) is not a plain proton transfer and is left alone.
+(E2: another sigma bond breaks in the same step) is not a plain proton transfer and is left alone,
+nor is a hydrogen passed round a pericyclic array (an ene reaction, a [1,5]-hydrogen shift), where
+no base takes a proton and no ions form.
 """
 from __future__ import annotations
 
@@ -14,7 +16,7 @@ from typing import Callable, Iterator, Optional
 from rdkit import Chem
 
 from ..diagnostics import Diagnostic
-from ..judgement.acidity import Acidity, acidity_of
+from ..judgement.acidity import HYDROGEN, Acidity, acidity_of
 from ..judgement.perception import Perceived, RecentViews
 from ..model import Location, frozen
 from ..trace import StepTrace
@@ -59,7 +61,7 @@ class ProtonTransfer:
 def proton_transfers(st: StepTrace, views: Optional[RecentViews] = None) -> list[ProtonTransfer]:
     """The plain proton transfers of one step, each with its two acidities; `views` holds the
     perceived views of the states met lately (the state after one step is the state before the next)."""
-    if st.after is None:
+    if st.after is None or st.change.pericyclic:
         return []
     before, elements, broken = st.before.mol, st.before.elements, st.change.broken
     found = []
@@ -85,7 +87,9 @@ def proton_transfers(st: StepTrace, views: Optional[RecentViews] = None) -> list
         return []
     views = RecentViews() if views is None else views
     acids, conjugates = views.of(st.before), views.of(st.after)
-    return [ProtonTransfer(b, x, h, loc, _acidity(acids, x), _acidity(conjugates, b)) for b, x, h, loc in found]
+    def acidity(view: Perceived, atom: int) -> Optional[Acidity]:
+        return HYDROGEN if elements[atom] == 1 else _acidity(view, atom)   # H2, given up or made
+    return [ProtonTransfer(b, x, h, loc, acidity(acids, x), acidity(conjugates, b)) for b, x, h, loc in found]
 
 
 def _acidity(view: Perceived, atom: int) -> Optional[Acidity]:

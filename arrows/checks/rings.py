@@ -38,20 +38,22 @@ def closures_in_step(st: StepTrace) -> list[StepClosure]:
     if st.after is None:
         return []
     mol = st.before.mol
-    pericyclic = bool(st.change.moves) and all(
-        m.source_kind == "bond" and len(m.sink_atoms) == 2 and m.electrons == 2 for m in st.change.moves)
+    pericyclic = st.change.pericyclic
     found = []
     rings_seen: set[frozenset[int]] = set()
     for i, j in st.change.formed:
         if mol.GetAtomWithIdx(i).GetAtomicNum() == 1 or mol.GetAtomWithIdx(j).GetAtomicNum() == 1:
             continue   # a hydrogen moving inside one molecule is a transfer, not a ring closure
-        ring = _ring_closed(st, i, j, pericyclic)
-        if not ring or (pericyclic and frozenset(ring) in rings_seen):
+        path = ring_path(mol, i, j)    # the ring of the transition state, () between two molecules
+        cyclic = pericyclic or ((_electrocyclic(st, path) or _sigmatropic(st, i, j, path))
+                                and not _migrates(st, i, j, path))
+        ring = _ring_closed(st, i, j, path, cyclic)
+        if not ring or (cyclic and frozenset(ring) in rings_seen):
             continue   # no ring in the state after, or a pericyclic ring already counted for another bond
         rings_seen.add(frozenset(ring))
         x, y, loc = _nucleophile_and_target(st, i, j)
         ring = ring if ring[0] == x else tuple(reversed(ring))
-        if pericyclic:
+        if cyclic:
             found.append(StepClosure(x, y, ring, None, loc=loc))
             continue
         w = _broken_partner(st, x, y)
@@ -64,22 +66,50 @@ def closures_in_step(st: StepTrace) -> list[StepClosure]:
     return found
 
 
-def _ring_closed(st: StepTrace, i: int, j: int, pericyclic: bool) -> tuple[int, ...]:
+def _electrocyclic(st: StepTrace, path: tuple[int, ...]) -> bool:
+    """Whether every arrow starts at a bond and the step changes every atom of the ring it closes:
+    a conjugated array closing on itself, the charge of an ion moved along it (a Nazarov closure of
+    a protonated dienone, an allyl to cyclopropyl cation). A C=C pair onto a cation at the end of a
+    saturated chain leaves chain atoms untouched: a polar closure."""
+    change = st.change
+    return bool(path) and all(m.source_kind == "bond" and m.electrons == 2 for m in change.moves) \
+        and set(path) <= set(change.touched_atoms)
+
+
+def _migrates(st: StepTrace, i: int, j: int, path: tuple[int, ...]) -> bool:
+    """A 1,2-shift: the new bond's pair comes from a bond of the path that breaks (the group
+    migrates with its pair), so no ring is made."""
+    broken_on_path = {frozenset(b) for b in zip(path, path[1:])} & {frozenset(b) for b in st.change.broken}
+    return bool(broken_on_path) and any(m.source_kind == "bond" and set(m.sink_atoms) == {i, j}
+                                        and frozenset(m.source_atoms) in broken_on_path for m in st.change.moves)
+
+
+def _sigmatropic(st: StepTrace, i: int, j: int, path: tuple[int, ...]) -> bool:
+    """Whether the new bond i-j is made in a sigmatropic shift drawn from a lone pair (an anionic
+    [2,3]-Wittig, a Mislow-Evans or ylide [2,3] shift): a sigma bond of the path from i to j breaks
+    away from both of them, so the ring exists only in the transition state, a cyclic array of
+    electrons like a [3,3] shift's. (In an endo-tet closure the bond that breaks is at the attacked
+    atom; in a 1,2-shift it is the migrating group's own bond.)"""
+    broken = st.change.broken
+    if not broken or not path:
+        return False
+    on_path = {frozenset(b) for b in zip(path, path[1:])}
+    return any(frozenset(b) in on_path and i not in b and j not in b for b in broken)
+
+
+def _ring_closed(st: StepTrace, i: int, j: int, before: tuple[int, ...], pericyclic: bool) -> tuple[int, ...]:
     """The ring the new bond i-j closes (both ends included), () when it closes none.
 
     Baldwin's rules judge the ring of the transition state: the path from i to j in the state
     before, even when a bond of it breaks in the same step (an endo-tet closure). Not a closure: a
     1,2-shift, where the new bond's pair comes from a bond of that path that breaks (the group
     migrates with its pair). A pericyclic step closes the rings of the state after (a
-    cycloaddition through its second new bond; a [3,3] shift closes none)."""
-    before = ring_path(st.before.mol, i, j)
-    broken = {frozenset(b) for b in st.change.broken}
-    broken_on_path = {frozenset(pair) for pair in zip(before, before[1:])} & broken
+    cycloaddition through its second new bond; a [3,3] shift closes none). `before` is the path
+    from i to j in the state before."""
     if not pericyclic:
-        migrating = any(m.source_kind == "bond" and set(m.sink_atoms) == {i, j}
-                        and frozenset(m.source_atoms) in broken_on_path for m in st.change.moves)
-        return () if migrating else before
-    if before and not broken_on_path:
+        return () if _migrates(st, i, j, before) else before
+    broken = {frozenset(b) for b in st.change.broken}
+    if before and not {frozenset(pair) for pair in zip(before, before[1:])} & broken:
         return before            # the common case, without a copy of the state
     if not before and len(st.change.formed) == 1:
         return ()                # two molecules joined by one bond: no ring
@@ -159,10 +189,14 @@ class RingClosures(Check):
         size = len(c.ring)
         opening = f"{a}-{b} closes a {size}-membered ring"
         if c.closure is None:
-            return Diagnostic("AR601", f"{opening} in a pericyclic step (a cyclic array of bond moves); "
+            return Diagnostic("AR601", f"{opening} in a pericyclic step (electrons moving round a cyclic array of atoms); "
                               f"Baldwin's rules do not apply", c.loc or st.step.loc, **where)
         v = verdict(c.closure)
         said = f"{c.closure.name}, {v.word}" + (f" ({v.rule})" if v.rule else "")
+        if c.onto_cation and c.closure.mode is None:
+            # A bare carbocation: no bond breaks at the attacked atom, so neither exo nor endo applies.
+            return Diagnostic("AR601", f"{opening}: {c.closure.name}, onto a carbocation, where no bond breaks at "
+                              f"the attacked atom: not covered by Baldwin's rules", c.loc or st.step.loc, **where)
         if c.onto_cation and (v.favoured is False or size in (3, 4)):
             return Diagnostic("AR601", f"{opening}: {said}, but onto an oxocarbenium or iminium cation, where "
                               f"the rule is routinely broken, as in dioxolane formation (common practice, memory)",

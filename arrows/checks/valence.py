@@ -9,6 +9,11 @@ from . import Check
 
 # Metals whose ions routinely carry +2 (Mg2+, Ca2+, Zn2+ ...): no unusual-charge warning for them.
 _IONIC_METALS = {3, 4, 11, 12, 19, 20, 30, 37, 38, 55, 56}
+# Elements drawn hypervalent as a matter of course (common practice): Si (five-coordinate
+# silicates: fluoride on a silyl ether, the Peterson elimination), P, S, Cl, As, Se, Br, Sn, Sb,
+# Te, I, Xe.
+_HYPERVALENT = {14: "Si", 15: "P", 16: "S", 17: "Cl", 33: "As", 34: "Se", 35: "Br", 50: "Sn", 51: "Sb",
+                52: "Te", 53: "I", 54: "Xe"}
 
 
 class UnusualElectronCounts(Check):
@@ -34,6 +39,8 @@ class UnusualElectronCounts(Check):
                 if (shell > 8 and shell > before.nonbonding[i] + 2 * before.bond_sums[i]
                         and after.mol.GetAtomWithIdx(i).GetAtomicNum() > 10):
                     label = after.label(i)
+                    symbol = _HYPERVALENT.get(after.mol.GetAtomWithIdx(i).GetAtomicNum())
+                    hint = (f"fine for hypervalent {symbol} (common practice); otherwise a bond should break"
+                            if symbol else "rare for this element: a bond to it should break in the same step")
                     yield Diagnostic("AR504", f"{label} holds {shell} valence electrons (expanded octet)", st.step.loc,
-                                     hint="fine for hypervalent P, S or I; otherwise a bond should break",
-                                     atoms=(label,), step=st.index)
+                                     hint=hint, atoms=(label,), step=st.index)

@@ -62,6 +62,9 @@ TABLE: tuple[Acidity, ...] = (
     Acidity("a nitrile alpha C-H", "a nitrile anion", "[CX4;!H0]C#N", 25, "~25", NOT_LISTED),
     Acidity("a terminal alkyne C-H", "an acetylide", "[CX2H1]#C", 25, "~25", TEXTBOOK),
     Acidity("a C-H beside a sulfonium", "a sulfonium ylide", "[CX4;!H0][SX3+]", 18, "~18", NOT_LISTED),
+    # Chloroform ~15.5, bromoform ~13.7 (aqueous, memory): hydroxide makes the trihalomethanide.
+    Acidity("a haloform C-H", "a trihalomethanide", "[CX4H1]([Cl,Br,I])([Cl,Br,I])[Cl,Br,I]", 15, "~14-16",
+            NOT_LISTED),
     # Not an amine: an N-H beside a double bond (amide, hydrazone, enamine, amidine, sulfonamide),
     # whose anion spreads onto the far atom and is far less basic than NH2-; unjudged unless listed.
     Acidity("an amine N-H", "an amide ion", "[NX3;!H0;!$(N*=*);!$(N=*)]", 38, "~38", TEXTBOOK),
@@ -69,6 +72,11 @@ TABLE: tuple[Acidity, ...] = (
             TEXTBOOK),
     Acidity("an alkane C-H", "an alkyl carbanion", "[CX4;!H0]", 50, "~50", TEXTBOOK),
 )
+
+
+# H2 as an acid (hydride's conjugate acid), judged by element: the perceived view leaves the
+# molecule out, and no SMARTS of the table is about a hydrogen atom.
+HYDROGEN = Acidity("H2", "a hydride ion", "[#1][#1]", 35, "~35", NOT_LISTED)
 
 
 @lru_cache(maxsize=None)

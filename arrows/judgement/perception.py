@@ -20,6 +20,8 @@ from .acidity import perceived
 _HYDROGEN = Chem.MolFromSmarts("[#1]")
 _REMOVE_HS = Chem.RemoveHsParameters()
 _REMOVE_HS.removeDegreeZero = True     # a free proton too
+_REMOVE_HS.removeHydrides = True       # a free hydride ion (NaH as a base)
+_REMOVE_HS.removeOnlyHNeighbors = True  # H2 (a hydride met by a proton): else the view is only partial
 
 
 class Perceived:
