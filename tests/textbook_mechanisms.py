@@ -2211,7 +2211,7 @@ TEXTBOOK = {
     "criegee ozonide": (CRIEGEE_OZONIDE, "C1OCOO1", True),
     "wolff rearrangement": (WOLFF, "CCC(=O)O", False),   # the methyl's shift arrow bulges toward the pivot
     "benzyne": (BENZYNE, "Nc1ccccc1", False),   # its ring C#C fails the straight-sp test; the figure's bond orders are not RDKit's
-    "dichlorocarbene": (DICHLOROCARBENE, "ClC1(Cl)C2CCCCC21", True),
+    "dichlorocarbene": (DICHLOROCARBENE, "ClC1(Cl)[C@@H]2CCCC[C@@H]21", True),   # cis-fused (meso): the carbene adds to one face
     "mitsunobu": (MITSUNOBU, "CC[C@H](C)OC(=O)c1ccccc1.[O-][P+](c1ccccc1)(c1ccccc1)c1ccccc1", False),   # bonds cross and the ester moves 2.86 out of shape as the parts join
     "arbuzov": (ARBUZOV, "CCOP(C)(=O)OCC.CCI", True),
     "staudinger": (STAUDINGER, "CN=P(c1ccccc1)(c1ccccc1)c1ccccc1.N#N", False),   # the azide's central N drawn bent; two arrow heads meet at N3#N4
