@@ -109,6 +109,26 @@ def test_an_atom_with_two_hydrogens_is_no_stereocentre(smiles):
     assert stereo_elements(Chem.MolFromSmiles(smiles)) == frozenset()
 
 
+@pytest.mark.parametrize("smiles", ["CN=C=O", "CC=C=O", "CN=[N+]=[N-]", "CC=C=CC"])
+def test_a_cumulated_double_bond_has_no_e_or_z(smiles):
+    """An isocyanate, a ketene, an azide and an allene: a double bond with a straight (sp) end has
+    its partner's substituents on the axis, so it has no E and Z (textbook; the allene's axial
+    chirality is not reported). RDKit's FindPotentialStereo offers each as a stereogenic double
+    bond; the judge of the count is the definition."""
+    mol = Chem.MolFromSmiles(smiles)
+    assert not [e for e in stereo_elements(mol) if e.kind == DOUBLE_BOND]
+
+
+def test_three_equal_cage_branches_make_no_stereocentre():
+    """The ammonium nitrogen of the DABCO adduct of a Baylis-Hillman reaction carries three
+    symmetry-equivalent cage CH2 groups, as does the other bridgehead nitrogen: neither is a
+    stereocentre (textbook: three equal substituents), though RDKit offers both. The C=C of the
+    enolate stays stereogenic."""
+    mol = Chem.MolFromSmiles("COC([O-])=CC[N+]12CCN(CC1)CC2")
+    elements = stereo_elements(mol)
+    assert [e.kind for e in elements] == [DOUBLE_BOND]
+
+
 def test_the_sigma_complex_of_an_aromatic_substitution_has_no_stereocentre():
     """The sp3 carbon of the cyclohexadienyl cation in a nitration of benzene is not a
     stereocentre: the charge is shared by the two ring carbons beside it and the one across

@@ -54,10 +54,13 @@ def _elements(view: Perceived) -> frozenset[StereoElement]:
         if info.type == Chem.StereoType.Atom_Tetrahedral:
             # RDKit offers an atom of the third period with four implicit hydrogens ([SiH4],
             # [PH4+], [AlH4-]); two equal substituents never make a stereocentre.
-            if plain.GetAtomWithIdx(info.centeredOn).GetTotalNumHs() < 2:
+            if plain.GetAtomWithIdx(info.centeredOn).GetTotalNumHs() < 2 \
+                    and not _three_alike(plain, ranks, info.centeredOn):
                 found.add(StereoElement(CENTRE, (original[info.centeredOn],)))
         elif info.type == Chem.StereoType.Bond_Double:
             bond = plain.GetBondWithIdx(info.centeredOn)
+            if _cumulated(bond.GetBeginAtom()) or _cumulated(bond.GetEndAtom()):
+                continue
             if not all(_distinct_ends(plain, ranks, a, bond.GetOtherAtomIdx(a))
                        for a in (bond.GetBeginAtomIdx(), bond.GetEndAtomIdx())):
                 continue
@@ -71,6 +74,27 @@ def _elements(view: Perceived) -> frozenset[StereoElement]:
         found -= {e for e in centres if view.position(e.atoms[0]) in lost}
     found -= _without_stereoisomers(plain, view, [e for e in found if e.kind == CENTRE], found, ranks)
     return frozenset(found)
+
+
+def _cumulated(atom: Chem.Atom) -> bool:
+    """A double-bond end that is straight (sp): a second double bond or a triple bond on it, as in
+    an isocyanate R-N=C=O, a ketene, an azide or an allene. Its partner's substituents lie on the
+    axis, so the bond has no E and Z (common practice); an allene's axial chirality is not
+    reported either."""
+    orders = [b.GetBondTypeAsDouble() for b in atom.GetBonds()]
+    return orders.count(2.0) >= 2 or 3.0 in orders
+
+
+def _three_alike(mol: Chem.Mol, ranks, centre: int) -> bool:
+    """Whether three neighbours of `centre` are alike by RDKit's symmetry classes (the cage
+    carbons at a nitrogen of DABCO): three equal substituents never make a stereocentre."""
+    neighbours = mol.GetAtomWithIdx(centre).GetNeighbors()
+    kinds = [(n.GetAtomicNum(), n.GetDegree()) for n in neighbours]
+    if max((kinds.count(k) for k in kinds), default=0) < 3:
+        return False   # fewer than three of one element and degree: no ranks needed
+    rank = ranks()
+    classes = [rank[n.GetIdx()] for n in neighbours]
+    return max(classes.count(c) for c in classes) >= 3
 
 
 def _exchangeable_end(atom: Chem.Atom) -> bool:
@@ -195,7 +219,8 @@ def stereoisomer_count(mol: Chem.Mol, uncontrolled: Iterable[int] = ()) -> Optio
     ranks = list(Chem.CanonicalRankAtoms(plain, breakTies=False))
     open_elements = [info for info in potential_stereo(plain)
                      if info.specified != Chem.StereoSpecified.Specified
-                     and (info.type == Chem.StereoType.Atom_Tetrahedral
+                     and ((info.type == Chem.StereoType.Atom_Tetrahedral
+                           and not _three_alike(plain, lambda: ranks, info.centeredOn))
                           or (info.type == Chem.StereoType.Bond_Double and _stereogenic_bond(plain, ranks, info)))]
     if len(open_elements) > MAX_ENUMERATED:
         return 2 ** len(open_elements)
@@ -223,6 +248,8 @@ def _stereogenic_bond(mol: Chem.Mol, ranks: list[int], info) -> bool:
     bond = mol.GetBondWithIdx(info.centeredOn)
     a, b = bond.GetBeginAtomIdx(), bond.GetEndAtomIdx()
     if mol.GetAtomWithIdx(a).GetDegree() < 2 or mol.GetAtomWithIdx(b).GetDegree() < 2:
+        return False
+    if _cumulated(bond.GetBeginAtom()) or _cumulated(bond.GetEndAtom()):
         return False
     return _distinct_ends(mol, lambda: ranks, a, b) and _distinct_ends(mol, lambda: ranks, b, a)
 
