@@ -32,6 +32,16 @@ GALLERY = sorted((ROOT / "gallery").glob("*.mech"))
 # Small mechanisms of our own (demo scenarios) that reach cases the gallery may not: a radical
 # pair, a leaving group, a proton shuttle, a species entering mid-way, a triple bond.
 OWN = {
+    # A hydride ion as the base (NaH on ethanol, common practice): it once sat on the very hydrogen
+    # it takes, being no heavy atom's neighbour; it waits apart, and the H2 it makes is drawn.
+    "hydride base": """\
+species alcohol = "CC[OH:1]"
+species base = "[H-:2]"
+step "deprotonation"
+    :H2 -> H(O1)
+    O1-H -> O1
+end
+""",
     "coupling": """\
 species a = "C[CH2:1]"
 species b = "C[CH2:2]"

@@ -38,15 +38,13 @@ that falls apart to SO2 (an acid chloride from thionyl chloride); and electrons 
 metal with no bond made (Birch reduction).
 
 Each entry: (mechanism text, textbook product SMILES, drawn): `drawn` says whether the geometry
-tests draw it. All do but eighteen. The Dieckmann condensation: the ethoxide it expels stays where it
+tests draw it. All do but sixteen. The Dieckmann condensation: the ethoxide it expels stays where it
 was bonded (the layout moves only atoms a step touches, and its ethyl is never touched), 1.0 bond
 length from the hydrogen it takes next, where the proton-transfer test wants 1.4. (The mesylate
 SN2 once pushed the ethyl that iodide takes 0.9 bond lengths out along its broken C-O bond, as if
 it were the leaving group.) The Hofmann rearrangement: every skeletal bond but C=O makes or breaks at some step, so the
 molecule falls into clusters of one or two atoms, each run placed against one partner only; C1-N3
-comes out 2.73 bond lengths long in two panels (the methyl hidden under it) and N3-Br4 1.33 in one. The
-hydride ion of the Horner-Wadsworth-Emmons and anionic oxy-Cope entries is drawn on the very
-hydrogen it takes (0.0 bond lengths apart), labels overlapping. The Stork alkylation's N<-H-O+
+comes out 2.73 bond lengths long in two panels (the methyl hidden under it) and N3-Br4 1.33 in one. The Stork alkylation's N<-H-O+
 proton transfer and the Curtius azide's leaving N-N pair run their arrows over a charge sign. The
 Swern oxalyl fragment is drawn with a C-C bond 1.15 bond lengths long as it falls apart (and its
 C#O arrow leaves from the crowded side); the Darzens ester and the Reformatsky zinc enolate move out
@@ -2187,7 +2185,7 @@ TEXTBOOK = {
     "mannich": (MANNICH, "CN(C)CCC(C)=O", True),
     "stork enamine alkylation": (STORK_ENAMINE, "CC1CCCCC1=O", False),   # the N<-H-O+ proton-transfer arrow crosses the oxonium's plus sign
     "keto ester michael": (KETO_ESTER_MICHAEL, "CCOC(=O)C(CCC(C)=O)C(C)=O", True),
-    "horner-wadsworth-emmons": (HORNER_WADSWORTH_EMMONS, "CCOC(=O)C=Cc1ccccc1.CCOP(=O)([O-])OCC", False),   # the hydride ion is drawn on the hydrogen it takes, 0.0 bond lengths apart
+    "horner-wadsworth-emmons": (HORNER_WADSWORTH_EMMONS, "CCOC(=O)C=Cc1ccccc1.CCOP(=O)([O-])OCC", True),
     "favorskii": (FAVORSKII, "COC(=O)C1CCCC1", True),
     "benzilic acid rearrangement": (BENZILIC_ACID, "OC(C(=O)[O-])(c1ccccc1)c1ccccc1", True),
     "curtius": (CURTIUS, "CNC(=O)OC", False),   # the arrow of the N-N pair that leaves crosses the N- sign
@@ -2195,7 +2193,7 @@ TEXTBOOK = {
     "darzens": (DARZENS, "CCOC(=O)C1OC1(C)C", False),   # the ester moves 0.15 out of shape (Cl4 against its ethyl) as it joins the ketone
     "reformatsky": (REFORMATSKY, "CCOC(=O)CC(C)(C)O", False),   # the zinc enolate moves 0.03 out of shape (Br1 against its ethyl) as it joins the ketone
     "meerwein-ponndorf-verley": (MEERWEIN_PONNDORF_VERLEY, "CC(C)=O.CC(C)O[Al](OC(C)C)OC1CCCCC1", True),
-    "anionic oxy-cope": (ANIONIC_OXY_COPE, "C=CCCCC=O", False),   # the hydride ion is drawn on the hydrogen it takes, 0.0 bond lengths apart
+    "anionic oxy-cope": (ANIONIC_OXY_COPE, "C=CCCCC=O", True),
     "tiffeneau-demjanov": (TIFFENEAU_DEMJANOV, "O=C1CCCCCC1", False),   # an untouched ring carbon moves 0.13 bond lengths as the ring grows
     "pinner": (PINNER, "CCOC(C)=[NH2+].[Cl-]", True),
     "imine formation": (IMINE_FORMATION, "CN=Cc1ccccc1", True),

@@ -757,8 +757,12 @@ class _LayoutBuilder:
                 groups.join(a, b)
         while self._join_ring_across_clusters(groups, heavy_bonds, heavy_atoms, partners):
             pass
-        self.bridging = {h for h in self.drawn_h
-                         if len({groups.find(n) for n in self.neighbours[h] if self.element[n] != 1}) != 1}
+        # A hydrogen with no heavy neighbour in any panel (a hydride ion used as a base) is a
+        # molecule of its own, and a hydrogen passed to it travels like any other.
+        free = {h for h in self.drawn_h if all(self.element[n] == 1 for n in self.neighbours[h])}
+        self.bridging = {h for h in self.drawn_h - free
+                         if len({groups.find(n) if self.element[n] != 1 else n for n in self.neighbours[h]
+                                 if self.element[n] != 1 or n in free}) != 1}
         everything = _UnionFind(i for i in self.atoms if i not in self.bridging)
         for i in heavy_atoms:
             everything.join(i, groups.find(i))
