@@ -281,6 +281,18 @@ def test_a_written_double_bond_keeps_its_geometry_until_a_ring_closes_across_it(
     assert judged >= 1
 
 
+def test_an_alkene_made_in_a_ring_is_drawn_trans_once_the_ring_opens():
+    """The Horner-Wadsworth-Emmons reaction gives the E alkene (ethyl (E)-cinnamate, textbook); the
+    oxaphosphetane it comes from held it cis, and the product panel drew it so. Judge: RDKit reads
+    the geometry from the panel's coordinates and the CIP labeller names it."""
+    trace, scene = _scene(TEXTBOOK["horner-wadsworth-emmons"][0])
+    panel, state = scene.panels[-1], _states(trace)[-1]
+    drawn, _ = _drawn_bond_labels(panel, state)
+    labels = {pair: label for pair, label in drawn.items()
+              if {state.mol.GetAtomWithIdx(i).GetAtomicNum() for i in pair} == {6}}
+    assert list(labels.values()) == ["E"], drawn
+
+
 # Claisen-Schmidt condensation of acetophenone and benzaldehyde (demo data written for this test;
 # the textbook product is (E)-chalcone, drawn trans in every text, from memory).
 CHALCONE = '''\

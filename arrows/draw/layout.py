@@ -177,6 +177,17 @@ def free_direction(centre: complex, others: Sequence[complex], prefer: Optional[
     return cmath.rect(1.0, best_mid)
 
 
+def _cis(local: dict[int, complex], i: int, j: int, a: int, b: int) -> Optional[bool]:
+    """Whether a (on i) and b (on j) are drawn on one side of the bond i=j; None if either lies
+    on its line."""
+    axis = local[j] - local[i]
+    side_a = (axis.conjugate() * (local[a] - local[i])).imag
+    side_b = (axis.conjugate() * (local[b] - local[j])).imag
+    if abs(side_a) < 1e-6 or abs(side_b) < 1e-6:
+        return None
+    return side_a * side_b > 0
+
+
 def _written_double_bonds(states: Sequence[ElectronState]) -> dict[tuple[int, int], tuple[int, int, bool]]:
     """(i, j) -> (a, b, cis) for each double bond i=j (i < j) with a written E or Z in some state
     (the first such state decides): a on i and b on j are cis or trans. A species's E or Z is
@@ -524,6 +535,9 @@ class _LayoutBuilder:
         for i, j in self.union:
             self.neighbours[i].add(j)
             self.neighbours[j].add(i)
+        # Chain C=C bonds with no written geometry, each with the heavy substituent on either end:
+        # drawn trans (the zigzag of common practice) where no ring holds them.
+        self.chain_double = self._chain_double_bonds()
         self.positions: list[dict[int, complex]] = [dict() for _ in range(self.n)]
         self.backside = self._backside_substitutions()
         self.molecules = [_molecules(state) for state in self.states]
@@ -775,7 +789,8 @@ class _LayoutBuilder:
         self.clusters = [_Cluster(g, self._depict(g)) for g in everything.groups()]
         for cluster in self.clusters:
             if (not self._even(cluster.local, cluster.atoms, range(self.n)) or self._bends(cluster.atoms)
-                    or not self._shows_written_geometry(cluster.local, cluster.atoms, range(self.n))):
+                    or not self._shows_written_geometry(cluster.local, cluster.atoms, range(self.n))
+                    or self._draws_chain_alkene_cis(cluster.local, cluster.atoms, range(self.n))):
                 cluster.local, cluster.phases = self._phases(cluster.atoms)
         self.cluster_of = {a: k for k, c in enumerate(self.clusters) for a in c.atoms}
         for sides, bonds in partners:
@@ -897,18 +912,60 @@ class _LayoutBuilder:
         """Every bond among `group` in `panels` within 2% of one bond length in `local`."""
         return all(abs(abs(local[i] - local[j]) - 1.0) <= 0.02 for i, j in self._in_group(group, panels))
 
+    def _chain_double_bonds(self) -> dict[tuple[int, int], tuple[int, int, list[int]]]:
+        """(i, j) -> (a, b, panels): a C=C that is double in `panels`, not written E or Z, in no
+        ring there, with one heavy substituent on each end (a on i, b on j; a 1,2-disubstituted
+        alkene, whose drawing as cis or trans is a choice)."""
+        found: dict[tuple[int, int], tuple[int, int, list[int]]] = {}
+        for (i, j), order in self.sorted_union:
+            if order != 2 or (i, j) in self.written_double or self.element[i] != 6 or self.element[j] != 6:
+                continue
+            for k in range(self.n):
+                if self.orders_in[k].get((i, j)) != 2:
+                    continue
+                heavy = [[n for n in self.neighbours[end] if n != other and self.element[n] != 1
+                          and (min(end, n), max(end, n)) in self.bonds_in[k]] for end, other in ((i, j), (j, i))]
+                if len(heavy[0]) != 1 or len(heavy[1]) != 1 or self._joined_around(i, j, k):
+                    continue
+                a, b, panels = found.get((i, j), (heavy[0][0], heavy[1][0], []))
+                found[(i, j)] = (a, b, panels + [k])
+        return found
+
+    def _joined_around(self, i: int, j: int, k: int) -> bool:
+        """Whether i and j are joined in panel k by a path that is not their own bond (a ring)."""
+        seen, frontier = {i}, [i]
+        while frontier:
+            atom = frontier.pop()
+            for n in self.neighbours[atom]:
+                if n in seen or (min(atom, n), max(atom, n)) not in self.bonds_in[k] or {atom, n} == {i, j}:
+                    continue
+                if n == j:
+                    return True
+                seen.add(n)
+                frontier.append(n)
+        return False
+
+    def _draws_chain_alkene_cis(self, local: dict[int, complex], group: list[int], panels: range) -> bool:
+        """Whether `local` draws one of the chain C=C bonds (chain_double) cis in `panels`."""
+        members = set(group)
+        for (i, j), (a, b, double_in) in self.chain_double.items():
+            if {i, j, a, b} <= members and any(k in panels for k in double_in) and _cis(local, i, j, a, b):
+                return True
+        return False
+
     def _shows_written_geometry(self, local: dict[int, complex], group: list[int], panels: range) -> bool:
         """Every double bond of `group` written E or Z is drawn so in `local`, in the panels
         where it is double. A union depiction that closes a ring across it (the bromonium ion of
         an E alkene) may not: the substituents are placed for the ring."""
         members = set(group)
-        for (i, j), (a, b, cis) in self.written_double.items():
+        wanted = dict(self.written_double)
+        wanted.update({pair: (a, b, False) for pair, (a, b, _) in self.chain_double.items()
+                       if panels is not None and any(k in panels for k in _)})
+        for (i, j), (a, b, cis) in wanted.items():
             if not {i, j, a, b} <= members or not any(self.orders_in[k].get((i, j)) == 2 for k in panels):
                 continue
-            axis = local[j] - local[i]
-            side_a = (axis.conjugate() * (local[a] - local[i])).imag
-            side_b = (axis.conjugate() * (local[b] - local[j])).imag
-            if abs(side_a) < 1e-6 or abs(side_b) < 1e-6 or (side_a * side_b > 0) != cis:
+            drawn = _cis(local, i, j, a, b)
+            if drawn is None or drawn != cis:
                 return False
         return True
 
@@ -939,6 +996,8 @@ class _LayoutBuilder:
                     break
                 if not self._shows_written_geometry(trial, group, range(start, end + 2)):
                     break     # an E alkene drawn Z where a ring is about to close across it
+                if self._draws_chain_alkene_cis(trial, group, range(start, end + 2)):
+                    break     # a new alkene drawn cis where the ring it came from was
                 end, local, bonds = end + 1, trial, trial_bonds
             if runs:
                 # RDKit lays separate pieces side by side at will: each piece is aligned on its own.
@@ -990,7 +1049,10 @@ class _LayoutBuilder:
             if i in index and j in index and (only is None or (i, j) in only):
                 mol.AddBond(index[i], index[j], orders.get(order, Chem.BondType.SINGLE))
                 ends.append((index[i], index[j]))
-        for (i, j), (a, b, cis) in self.written_double.items():
+        wanted = dict(self.written_double)
+        wanted.update({pair: (a, b, False) for pair, (a, b, _) in self.chain_double.items()
+                       if panels is not None and any(k in panels for k in _)})
+        for (i, j), (a, b, cis) in wanted.items():
             # RDKit's depictor draws a double bond cis or trans when its bond says so.
             bond = mol.GetBondBetweenAtoms(index[i], index[j]) if i in index and j in index else None
             if bond is not None and a in index and b in index and bond.GetBondType() == Chem.BondType.DOUBLE:
