@@ -448,6 +448,7 @@ class _Cluster:
     atoms: list[int]
     local: dict[int, complex]
     segments: list[tuple[int, int]] = field(default_factory=list)   # runs of panels it cannot move in
+    segment_at: dict[int, tuple[int, int]] = field(default_factory=dict)   # panel -> the run that holds it
     # segment start -> (rotation, shift, direction it came in on, how far it waits back along it)
     placement: dict[int, tuple] = field(default_factory=dict)
     # Partners of a cycloaddition held apart before they bond: (atoms, first panel, last panel,
@@ -541,6 +542,7 @@ class _LayoutBuilder:
         self.events = self._events()    # fixed from here on: placing moves clusters, not bonds or hydrogens
         for k, cluster in enumerate(self.clusters):
             cluster.segments = self._segments(k)
+            cluster.segment_at = {panel: seg for seg in cluster.segments for panel in range(seg[0], seg[1] + 1)}
         main = self.clusters[self.main]
         for start, _ in main.segments:
             main.placement[start] = (1 + 0j, 0j, None, 0.0)
@@ -1052,10 +1054,7 @@ class _LayoutBuilder:
 
     # placing clusters
     def _segment_of(self, index: int, k: int) -> Optional[tuple[int, int]]:
-        for seg in self.clusters[index].segments:
-            if seg[0] <= k <= seg[1]:
-                return seg
-        return None
+        return self.clusters[index].segment_at.get(k)
 
     def _placed_at(self, index: int, k: int) -> bool:
         seg = self._segment_of(index, k)
@@ -1416,7 +1415,8 @@ class _LayoutBuilder:
             here = self.positions[k]
             out += [(here[i], here[j]) for i, j in self.bonds_in[k]
                     if i in here and j in here and anchor not in (i, j) and i not in mine and j not in mine]
-        return np.array(out, dtype=complex).reshape(-1, 2)
+        # A bond that stays put is the same wall in every panel: each is tested once.
+        return np.array(list(dict.fromkeys(out)), dtype=complex).reshape(-1, 2)
 
     def _other_hops(self, index: int, segment: tuple[int, int], k: int, hydrogen: Optional[int]
                     ) -> list[tuple[int, complex]]:
@@ -1459,7 +1459,9 @@ class _LayoutBuilder:
         # The cheapest first (equal scores keep the options' order); the clearance tests cost
         # more, so they run on a few spots at a time, growing as the search goes on.
         for f in fed:      # the hydrogen would stand in the angle its bond's pair goes into
-            room &= np.array([abs(cmath.phase(d / f)) >= _FED_ANGLE for d in directions])
+            # The options share a few dozen directions: each is measured once.
+            outside = {d: abs(cmath.phase(d / f)) >= _FED_ANGLE for d in set(directions)}
+            room &= np.array([outside[d] for d in directions])
         order = np.flatnonzero(room)
         order = order[np.argsort(score[order], kind="stable")]
         start, size = 0, 8
