@@ -167,10 +167,11 @@ def _padded(rows: list[list], filler, dtype=float) -> np.ndarray:
     chosen so that they never count (an empty box, a point at infinity, a bond of no length).
     Built from one flat list: numpy reads that faster than nested ones."""
     width = max(map(len, rows))
-    flat = [item for row in rows for item in chain(row, repeat(filler, width - len(row)))]
+    # (chained in C: a Python loop over every item would cost more than numpy's reading of them)
+    flat = chain.from_iterable([chain(row, repeat(filler, width - len(row))) for row in rows])
     if isinstance(filler, tuple):   # items are tuples of numbers: one more axis
         return np.array(list(chain.from_iterable(flat)), dtype=dtype).reshape(len(rows), width, len(filler))
-    return np.array(flat, dtype=dtype).reshape(len(rows), width)
+    return np.array(list(flat), dtype=dtype).reshape(len(rows), width)
 
 
 @dataclass
