@@ -28,7 +28,7 @@ import numpy as np
 
 from ..electrons import ElectronState, ResolvedMove
 from .scene import Box, CurvedArrow, Mark
-from .structure import PanelStructure, clearance, ranked_directions, segment_hits_box
+from .structure import PanelStructure, clearance, ranked_directions, ray_exit, segment_hits_box
 from .styles import Style
 
 _SAMPLES = 16
@@ -497,7 +497,9 @@ class ArrowPlanner:
         turn = cmath.rect(1.0, -side * theta)
         p0, tip = src.point, snk.point
         for _ in range(2):
-            u = _unit(tip - p0)
+            chord = tip - p0
+            size = abs(chord)   # _unit, written out: each candidate asks for it three times
+            u = chord / size if size > 1e-12 else 1 + 0j
             leave, arrive = u * turn, u / turn
             p0 = self._tail(src, leave)
             tip = self._tip(snk, arrive, panel)
@@ -511,23 +513,22 @@ class ArrowPlanner:
     def _tail(self, src: _Anchor, leave: complex) -> complex:
         if src.kind == "dots":
             return src.point + _unit(leave + src.outward) * (self.dot_radius + 0.12 * self.fs)
-        return src.point + self._normal(src, leave) * (src.extent + 0.05 * self.bl)
+        n = src.axis * 1j   # the bond's unit normal, on the side the arrow leaves to
+        return src.point + (n if (leave / n).real >= 0 else -n) * (src.extent + 0.05 * self.bl)
 
     def _tip(self, snk: _Anchor, arrive: complex, panel: PanelStructure) -> complex:
-        if snk.kind == "atom":
+        kind = snk.kind
+        if kind == "atom":
             back = -arrive
-            reach = panel.label_reach(snk.atoms[0], back)
+            atom = snk.atoms[0]
+            box = panel.atoms[atom].box   # (label_reach, written out)
+            reach = 0.0 if box is None else ray_exit(panel.positions[atom], back, box)
             gap = 0.12 * self.fs if reach else 0.2 * self.bl
             return snk.point + back * (reach + gap)
-        if snk.kind == "bond":
-            return snk.point + self._normal(snk, -arrive) * (snk.extent + 0.08 * self.bl)
+        if kind == "bond":
+            n = snk.axis * 1j   # the bond's unit normal, on the side the arrow comes from
+            return snk.point + (n if (-arrive / n).real >= 0 else -n) * (snk.extent + 0.08 * self.bl)
         return snk.point
-
-    @staticmethod
-    def _normal(anchor: _Anchor, direction: complex) -> complex:
-        """The unit normal of the anchor's bond on the side `direction` points to."""
-        n = anchor.axis * 1j
-        return n if (direction / n).real >= 0 else -n
 
     # penalties
     def _score(self, work: list[_PanelArrows], candidates: list[_Candidate], controls: np.ndarray,
@@ -602,7 +603,9 @@ class ArrowPlanner:
         leave = leave / np.maximum(np.abs(leave), 1e-9)
         # Leaving the dots back across the atom reads as coming from the wrong place.
         cost += np.where((outward != 0) & ((leave * np.conj(outward)).real < -0.2), 20.0, 0.0)
-        lengths = np.abs(np.diff(pts, axis=1)).sum(axis=1)
+        steps = pts[:, 1:] - pts[:, :-1]     # np.diff's subtraction, without its wrapper
+        sizes = np.abs(steps)
+        lengths = sizes.sum(axis=1)
         cost += lengths / bl
         # An arrow from a bond to one of its own atoms shorter than _HOOK_LENGTH, or a pair from
         # an atom's dots into a bond of that atom shorter than _PAIR_ARC, reads as a tick rather
@@ -615,7 +618,7 @@ class ArrowPlanner:
         # A pair leaving a bond: one clean arc, never a loop.
         from_bond = np.flatnonzero(np.array([src.kind == "bond" for src in sources])[owner])
         if len(from_bond):
-            cost[from_bond] += self._curl(pts[from_bond])   # row by row: only those rows are looked at
+            cost[from_bond] += self._curl(pts[from_bond], steps[from_bond], sizes[from_bond])   # only those rows
         cost += _CROOK * _in_crook(pts[:, _SAMPLES // 2], sources, sinks, owner, [obs[k] for k in panel_of])
         # A 1,2-shift is a clear arc round the outside, away from the atom the group leaves:
         # bulging toward that atom it lies on the bond to the cationic centre, and a flat one
@@ -631,12 +634,13 @@ class ArrowPlanner:
         for c, value, length in zip(candidates, cost.tolist(), lengths.tolist()):
             c.cost, c.length = value + c.handicap, length
 
-    def _curl(self, pts: np.ndarray) -> np.ndarray:
+    def _curl(self, pts: np.ndarray, steps: np.ndarray, sizes: np.ndarray) -> np.ndarray:
         """An arc that turns back on itself (through more than _MAX_TURN) and either stands far
-        off its chord or crosses itself reads as a loop rather than as one clean arc."""
-        steps = np.diff(pts, axis=1)
-        steps = np.where(np.abs(steps) > 1e-12, steps, 1.0)
-        turn = np.abs(np.angle(steps[:, 1:] / steps[:, :-1]).sum(axis=1))
+        off its chord or crosses itself reads as a loop rather than as one clean arc. `steps`
+        are the differences of consecutive samples, `sizes` their lengths."""
+        steps = np.where(sizes > 1e-12, steps, 1.0)
+        turns = steps[:, 1:] / steps[:, :-1]
+        turn = np.abs(np.arctan2(turns.imag, turns.real).sum(axis=1))   # np.angle's arithmetic
         chord = pts[:, -1:] - pts[:, :1]
         chord = chord / np.maximum(np.abs(chord), 1e-9)
         standoff = np.abs(((pts - pts[:, :1]) * np.conj(chord)).imag).max(axis=1)
@@ -845,6 +849,7 @@ def _in_crook(middles: np.ndarray, sources: list[_Anchor], sinks: list[_Anchor],
     the outside of the bend (common practice)."""
     out = np.zeros(len(middles))
     where: dict[int, dict[int, complex]] = {}   # each panel's atom positions, looked up once
+    angles: dict[int, tuple[complex, complex, float]] = {}   # arrow -> (pivot, bisector, half its angle)
     for k, (src, snk) in enumerate(zip(sources, sinks)):
         if src.kind != "bond" or snk.kind != "bond":
             continue
@@ -860,11 +865,17 @@ def _in_crook(middles: np.ndarray, sources: list[_Anchor], sinks: list[_Anchor],
         if pivot not in at or any(a not in at for a in ends):
             continue
         first, second = (_unit(at[a] - at[pivot]) for a in ends)
-        half = abs(cmath.phase(second / first)) / 2
-        bisector = _unit(first + second)
-        rows = owner == k
-        seen = np.angle((middles[rows] - at[pivot]) / bisector)
-        out[rows] = np.abs(seen) < half
+        angles[k] = (at[pivot], _unit(first + second), abs(cmath.phase(second / first)) / 2)
+    if not angles:
+        return out
+    # Every such arrow's candidates at once (numpy's element results do not depend on the
+    # array's shape, and its cost is per call).
+    crooked = np.zeros(len(sources), dtype=bool)
+    crooked[list(angles)] = True
+    rows = np.flatnonzero(crooked[owner])
+    pivots, bisectors, halves = zip(*(angles[k] for k in owner[rows].tolist()))
+    seen = np.angle((middles[rows] - np.array(pivots)) / np.array(bisectors))
+    out[rows] = np.abs(seen) < np.array(halves)
     return out
 
 
