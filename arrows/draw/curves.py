@@ -885,16 +885,34 @@ def _parameters_at_distances(controls: np.ndarray, distances: np.ndarray) -> lis
     p0, p1, p2, p3 = (controls[:, k] for k in range(4))
     # The curve less its end point as a cubic in t, evaluated by Horner's rule: half the numpy
     # calls of the Bernstein form, and numpy's cost here is per call.
-    a, b, c, d = p3 - p0 + 3 * (p1 - p2), 3 * (p0 - 2 * p1 + p2), 3 * (p1 - p0), p0 - p3
-    # Each bracket [lo, lo + step] halves: its middle is lo + step / 2, exactly (sums of powers of
-    # two), so only its lower end is kept.
-    lo, step = np.zeros(len(controls)), 1.0
-    for _ in range(16):
-        step /= 2
-        t = lo + step
-        far = np.abs(((a * t + b) * t + c) * t + d) > distances
-        lo = np.where(far, t, lo)
+    a, b, c, d = (z[:, None] for z in (p3 - p0 + 3 * (p1 - p2), 3 * (p0 - 2 * p1 + p2), 3 * (p1 - p0), p0 - p3))
+    reach = distances[:, None]
+    # Four halvings per round: the fifteen points that four halvings from `lo` may try are
+    # measured in one batch, and where the halvings lead is looked up from which of them are
+    # still too far. Every point is lo plus a sum of powers of two, exactly as one halving at a
+    # time finds it, and numpy's element results do not depend on the array's shape.
+    lo, span = np.zeros(len(controls)), 1.0
+    for _ in range(4):
+        t = lo[:, None] + _SIXTEENTHS * span
+        far = np.abs(((a * t + b) * t + c) * t + d) > reach
+        lo = lo + _halvings()[far @ _BITS] * (span / 16)
+        span /= 16
     return lo.tolist()
+
+
+_SIXTEENTHS = np.arange(1, 16) / 16   # a round's trial points, as fractions of its span
+_BITS = 1 << np.arange(15)             # trial point k + 1 too far: bit k of the round's pattern
+
+
+@lru_cache(maxsize=None)
+def _halvings() -> np.ndarray:
+    """For each pattern of a round (_BITS), how many sixteenths of its span four halvings
+    advance: each halving moves on by its half where the point half-way is still too far."""
+    patterns = np.arange(1 << 15)
+    advance = np.zeros(1 << 15, dtype=np.int64)
+    for half in (8, 4, 2, 1):
+        advance += half * ((patterns >> (advance + half - 1)) & 1)
+    return advance
 
 
 _TOUCH = 1e-6   # points: bounding boxes this close count as meeting, so rounding never hides a crossing
