@@ -261,16 +261,19 @@ def _distance(a: list[float], b: list[float]) -> float:
 def _crosses_any(p: np.ndarray, q: np.ndarray, walls: np.ndarray) -> list[bool]:
     """For each segment p[k]-q[k]: whether it crosses one of `walls` (rows of two ends), that is,
     each has the other's ends on opposite sides. The cross products are written out on real
-    and imaginary parts, as Python's complex arithmetic computes them, whatever the shape."""
-    px, py, qx, qy = p.real[:, None], p.imag[:, None], q.real[:, None], q.imag[:, None]
-    ax, ay, bx, by = walls[:, 0].real, walls[:, 0].imag, walls[:, 1].real, walls[:, 1].imag
-    dx, dy = qx - px, qy - py     # along p->q
-    ex, ey = bx - ax, by - ay     # along each wall
-    a_side = (ay - py) * dx - (ax - px) * dy
-    b_side = (by - py) * dx - (bx - px) * dy
-    p_side = (py - ay) * ex - (px - ax) * ey
-    q_side = (qy - ay) * ex - (qx - ax) * ey
-    return ((a_side * b_side < 0) & (p_side * q_side < 0)).any(axis=1).tolist()
+    and imaginary parts, as Python's complex arithmetic computes them, whatever the shape; both
+    ends of a wall (and of a segment) are taken in one batch, numpy's cost being per call."""
+    px, py = p.real[:, None, None], p.imag[:, None, None]
+    dx, dy = (q.real - p.real)[:, None, None], (q.imag - p.imag)[:, None, None]    # along p->q
+    wx, wy = walls.real, walls.imag                                                # (walls, 2 ends)
+    wall_sides = (wy - py) * dx - (wx - px) * dy        # (segments, walls, 2): each wall end's side of p-q
+    ax, ay = wx[:, :1], wy[:, :1]
+    ex, ey = wx[:, 1:] - ax, wy[:, 1:] - ay             # along each wall
+    ends = np.concatenate((p[:, None], q[:, None]), axis=1)[:, None, :]        # (segments, 1, 2 ends)
+    segment_sides = (ends.imag - ay) * ex - (ends.real - ax) * ey   # each segment end's side of the wall
+    crossed = ((wall_sides[..., 0] * wall_sides[..., 1] < 0)
+               & (segment_sides[..., 0] * segment_sides[..., 1] < 0))
+    return np.logical_or.reduce(crossed, axis=1).tolist()
 
 
 def _segments_cross(p: complex, q: complex, a: complex, b: complex) -> bool:
