@@ -226,7 +226,7 @@ class ArrowPlanner:
             start = end
         self._score(work, candidates, controls, points, extent)
         kept = [[sorted(tries, key=lambda c: c.cost)[:_KEEP] for tries in w.tries] for w in work]
-        pair_costs = self._pair_costs(kept, controls, points)
+        pair_costs = self._pair_costs(kept, controls, points, extent)
         for w, options, pairs in zip(work, kept, pair_costs):
             _split_bond_sides(w, options, pairs)
         chosen = [self._choose(options, pairs) for options, pairs in zip(kept, pair_costs)]
@@ -647,8 +647,8 @@ class ArrowPlanner:
         loop = (turn > _MAX_TURN) & ((standoff > _LOOP_STANDOFF * self.bl) | (turn > _SELF_CROSSING))
         return np.where(loop, _CURL_WEIGHT * np.degrees(turn - _MAX_TURN), 0.0)
 
-    def _pair_costs(self, panels: list[list[list[_Candidate]]], controls: np.ndarray, samples: np.ndarray
-                    ) -> list[dict[tuple[int, int], np.ndarray]]:
+    def _pair_costs(self, panels: list[list[list[_Candidate]]], controls: np.ndarray, samples: np.ndarray,
+                    extent: _Extent) -> list[dict[tuple[int, int], np.ndarray]]:
         """For each panel (the kept candidates of each of its arrows): the penalty of drawing
         candidate a of arrow i with candidate b of arrow j (i < j), for every such pair: heads
         too close, shafts alongside, shafts crossing. Every such pair of every panel is scored in
@@ -664,22 +664,37 @@ class ArrowPlanner:
                     blocks.append((k, i, j, len(options[i]), len(options[j])))
         if not blocks:
             return out
-        # Both sides' features in one gathering, then split: numpy's cost here is per call.
-        features = _curve_features(np.array(first + second), controls, samples)
-        split = len(first)
-        cost = self._pair_block(tuple(f[:split] for f in features), tuple(f[split:] for f in features))
+        a, b = np.array(first), np.array(second)
+        # Most pairs are of arrows far apart. Where the boxes of two candidates' samples (`extent`)
+        # stand more than half a bond length apart along x or y, neither their heads (0.45) nor
+        # their shafts (0.15) come close, as a complex number is never shorter than its real or
+        # imaginary part: those terms stay zero there and are worked out for the other pairs only.
+        gap = 0.5 * self.bl
+        x0, y0, x1, y1 = (column[:, 0] for column in (extent.x0, extent.y0, extent.x1, extent.y1))
+        close = np.flatnonzero(~((x0[a] > x1[b] + gap) | (x0[b] > x1[a] + gap)
+                                 | (y0[a] > y1[b] + gap) | (y0[b] > y1[a] + gap)))
+        cost = np.zeros(len(first))
+        if len(close):
+            # Both sides in one gathering, then split: numpy's cost here is per call.
+            rows = np.concatenate((a[close], b[close]))
+            tips, starts, body = controls[rows, 3], controls[rows, 0], samples[rows][:, 2:-1:2]
+            n = len(close)
+            cost[close] = self._nearness((tips[:n], starts[:n], body[:n]), (tips[n:], starts[n:], body[n:]))
+        coarse = samples[:, ::4][np.concatenate((a, b))]     # five chords of each curve
+        cost = cost + self._crossings(coarse[:len(first)], coarse[len(first):])
         start = 0
         for k, i, j, rows, columns in blocks:
             out[k][(i, j)] = cost[start:start + rows * columns].reshape(rows, columns)
             start += rows * columns
         return out
 
-    def _pair_block(self, first: tuple[np.ndarray, ...], second: tuple[np.ndarray, ...]) -> np.ndarray:
-        """The pair penalties of candidates `first` against `second`, pair by pair (one row each),
-        each given as tips, starts, shaft samples without their ends and coarse chord points."""
+    def _nearness(self, first: tuple[np.ndarray, ...], second: tuple[np.ndarray, ...]) -> np.ndarray:
+        """The penalties of candidates `first` against `second`, pair by pair (one row each), for
+        heads too close and shafts alongside; each side given as tips, starts and shaft samples
+        without their ends."""
         bl = self.bl
-        tips_a, starts_a, body_a, coarse_a = first
-        tips_b, starts_b, body_b, coarse_b = second
+        tips_a, starts_a, body_a = first
+        tips_b, starts_b, body_b = second
         cost = np.where(np.abs(tips_a - tips_b) < 0.45 * bl, 150.0, 0.0)
         # Which samples of a's shaft come near some sample of b's: (pairs, s)
         alongside = (np.abs(body_a[:, :, None] - body_b[:, None, :]) < 0.15 * bl).any(axis=2)
@@ -687,6 +702,12 @@ class ArrowPlanner:
         shared = (np.abs(starts_a - starts_b) < 0.3 * bl)[:, None]
         near_start = np.abs(body_a - starts_a[:, None]) < 0.35 * bl
         cost += 20.0 * (alongside & ~(shared & near_start)).sum(axis=1)
+        return cost
+
+    @staticmethod
+    def _crossings(coarse_a: np.ndarray, coarse_b: np.ndarray) -> np.ndarray:
+        """The penalty of two shafts crossing, pair by pair (one row each), each given as its
+        coarse chord points."""
         xa, ya, xb, yb = coarse_a.real, coarse_a.imag, coarse_b.real, coarse_b.imag
         # Which side of each chord of one curve every point of the other lies on; two chords
         # cross where each has the other's ends on opposite sides.
@@ -695,7 +716,7 @@ class ArrowPlanner:
         of_b = dxa * (yb[:, None, :] - ya[:, :-1, None]) - dya * (xb[:, None, :] - xa[:, :-1, None])
         of_a = dxb * (ya[:, None, :] - yb[:, :-1, None]) - dyb * (xa[:, None, :] - xb[:, :-1, None])
         hit = (of_b[..., :-1] * of_b[..., 1:] < 0) & (of_a[..., :-1] * of_a[..., 1:] < 0).transpose(0, 2, 1)
-        return cost + 20.0 * hit.sum(axis=(1, 2))
+        return 20.0 * hit.sum(axis=(1, 2))
 
     @staticmethod
     def _choose(options: list[list[_Candidate]], pairs: dict[tuple[int, int], np.ndarray]) -> list[_Candidate]:
@@ -833,13 +854,6 @@ def _split_bond_sides(w: _PanelArrows, options: list[list[_Candidate]],
                            for c in options[k]]) for k in (i, j)]
         if (i, j) in pairs:
             pairs[(i, j)] = pairs[(i, j)] + _SAME_SIDE * (sides[0][:, None] == sides[1][None, :])
-
-
-def _curve_features(rows: np.ndarray, controls: np.ndarray, samples: np.ndarray) -> tuple[np.ndarray, ...]:
-    """Tips, starts, shaft samples without their ends and coarse chord points (five chords) of
-    the candidates in `rows` (their rows in the scheme's arrays)."""
-    points = samples[rows]                                             # (rows, S)
-    return controls[rows, 3], controls[rows, 0], points[:, 2:-1:2], points[:, ::4]
 
 
 def _in_crook(middles: np.ndarray, sources: list[_Anchor], sinks: list[_Anchor], owner: np.ndarray,
