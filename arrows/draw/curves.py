@@ -28,7 +28,7 @@ import numpy as np
 
 from ..electrons import ElectronState, ResolvedMove
 from .scene import Box, CurvedArrow, Mark
-from .structure import PanelStructure, clearance, ranked_directions, segment_hits_box
+from .structure import PanelStructure, clearance, ranked_directions, ray_exit, segment_hits_box
 from .styles import Style
 
 _SAMPLES = 16
@@ -167,10 +167,11 @@ def _padded(rows: list[list], filler, dtype=float) -> np.ndarray:
     chosen so that they never count (an empty box, a point at infinity, a bond of no length).
     Built from one flat list: numpy reads that faster than nested ones."""
     width = max(map(len, rows))
-    flat = [item for row in rows for item in chain(row, repeat(filler, width - len(row)))]
+    # (chained in C: a Python loop over every item would cost more than numpy's reading of them)
+    flat = chain.from_iterable([chain(row, repeat(filler, width - len(row))) for row in rows])
     if isinstance(filler, tuple):   # items are tuples of numbers: one more axis
         return np.array(list(chain.from_iterable(flat)), dtype=dtype).reshape(len(rows), width, len(filler))
-    return np.array(flat, dtype=dtype).reshape(len(rows), width)
+    return np.array(list(flat), dtype=dtype).reshape(len(rows), width)
 
 
 @dataclass
@@ -225,7 +226,7 @@ class ArrowPlanner:
             start = end
         self._score(work, candidates, controls, points, extent)
         kept = [[sorted(tries, key=lambda c: c.cost)[:_KEEP] for tries in w.tries] for w in work]
-        pair_costs = self._pair_costs(kept, controls, points)
+        pair_costs = self._pair_costs(kept, controls, points, extent)
         for w, options, pairs in zip(work, kept, pair_costs):
             _split_bond_sides(w, options, pairs)
         chosen = [self._choose(options, pairs) for options, pairs in zip(kept, pair_costs)]
@@ -503,7 +504,9 @@ class ArrowPlanner:
         turn = cmath.rect(1.0, -side * theta)
         p0, tip = src.point, snk.point
         for _ in range(2):
-            u = _unit(tip - p0)
+            chord = tip - p0
+            size = abs(chord)   # _unit, written out: each candidate asks for it three times
+            u = chord / size if size > 1e-12 else 1 + 0j
             leave, arrive = u * turn, u / turn
             p0 = self._tail(src, leave)
             tip = self._tip(snk, arrive, panel)
@@ -517,23 +520,22 @@ class ArrowPlanner:
     def _tail(self, src: _Anchor, leave: complex) -> complex:
         if src.kind == "dots":
             return src.point + _unit(leave + src.outward) * (self.dot_radius + 0.12 * self.fs)
-        return src.point + self._normal(src, leave) * (src.extent + 0.05 * self.bl)
+        n = src.axis * 1j   # the bond's unit normal, on the side the arrow leaves to
+        return src.point + (n if (leave / n).real >= 0 else -n) * (src.extent + 0.05 * self.bl)
 
     def _tip(self, snk: _Anchor, arrive: complex, panel: PanelStructure) -> complex:
-        if snk.kind == "atom":
+        kind = snk.kind
+        if kind == "atom":
             back = -arrive
-            reach = panel.label_reach(snk.atoms[0], back)
+            atom = snk.atoms[0]
+            box = panel.atoms[atom].box   # (label_reach, written out)
+            reach = 0.0 if box is None else ray_exit(panel.positions[atom], back, box)
             gap = 0.12 * self.fs if reach else 0.2 * self.bl
             return snk.point + back * (reach + gap)
-        if snk.kind == "bond":
-            return snk.point + self._normal(snk, -arrive) * (snk.extent + 0.08 * self.bl)
+        if kind == "bond":
+            n = snk.axis * 1j   # the bond's unit normal, on the side the arrow comes from
+            return snk.point + (n if (-arrive / n).real >= 0 else -n) * (snk.extent + 0.08 * self.bl)
         return snk.point
-
-    @staticmethod
-    def _normal(anchor: _Anchor, direction: complex) -> complex:
-        """The unit normal of the anchor's bond on the side `direction` points to."""
-        n = anchor.axis * 1j
-        return n if (direction / n).real >= 0 else -n
 
     # penalties
     def _score(self, work: list[_PanelArrows], candidates: list[_Candidate], controls: np.ndarray,
@@ -608,7 +610,9 @@ class ArrowPlanner:
         leave = leave / np.maximum(np.abs(leave), 1e-9)
         # Leaving the dots back across the atom reads as coming from the wrong place.
         cost += np.where((outward != 0) & ((leave * np.conj(outward)).real < -0.2), 20.0, 0.0)
-        lengths = np.abs(np.diff(pts, axis=1)).sum(axis=1)
+        steps = pts[:, 1:] - pts[:, :-1]     # np.diff's subtraction, without its wrapper
+        sizes = np.abs(steps)
+        lengths = sizes.sum(axis=1)
         cost += lengths / bl
         # An arrow from a bond to one of its own atoms shorter than _HOOK_LENGTH, or a pair from
         # an atom's dots into a bond of that atom shorter than _PAIR_ARC, reads as a tick rather
@@ -621,7 +625,7 @@ class ArrowPlanner:
         # A pair leaving a bond: one clean arc, never a loop.
         from_bond = np.flatnonzero(np.array([src.kind == "bond" for src in sources])[owner])
         if len(from_bond):
-            cost[from_bond] += self._curl(pts[from_bond])   # row by row: only those rows are looked at
+            cost[from_bond] += self._curl(pts[from_bond], steps[from_bond], sizes[from_bond])   # only those rows
         cost += _CROOK * _in_crook(pts[:, _SAMPLES // 2], sources, sinks, owner, [obs[k] for k in panel_of])
         # A 1,2-shift is a clear arc round the outside, away from the atom the group leaves:
         # bulging toward that atom it lies on the bond to the cationic centre, and a flat one
@@ -637,20 +641,21 @@ class ArrowPlanner:
         for c, value, length in zip(candidates, cost.tolist(), lengths.tolist()):
             c.cost, c.length = value + c.handicap, length
 
-    def _curl(self, pts: np.ndarray) -> np.ndarray:
+    def _curl(self, pts: np.ndarray, steps: np.ndarray, sizes: np.ndarray) -> np.ndarray:
         """An arc that turns back on itself (through more than _MAX_TURN) and either stands far
-        off its chord or crosses itself reads as a loop rather than as one clean arc."""
-        steps = np.diff(pts, axis=1)
-        steps = np.where(np.abs(steps) > 1e-12, steps, 1.0)
-        turn = np.abs(np.angle(steps[:, 1:] / steps[:, :-1]).sum(axis=1))
+        off its chord or crosses itself reads as a loop rather than as one clean arc. `steps`
+        are the differences of consecutive samples, `sizes` their lengths."""
+        steps = np.where(sizes > 1e-12, steps, 1.0)
+        turns = steps[:, 1:] / steps[:, :-1]
+        turn = np.abs(np.arctan2(turns.imag, turns.real).sum(axis=1))   # np.angle's arithmetic
         chord = pts[:, -1:] - pts[:, :1]
         chord = chord / np.maximum(np.abs(chord), 1e-9)
         standoff = np.abs(((pts - pts[:, :1]) * np.conj(chord)).imag).max(axis=1)
         loop = (turn > _MAX_TURN) & ((standoff > _LOOP_STANDOFF * self.bl) | (turn > _SELF_CROSSING))
         return np.where(loop, _CURL_WEIGHT * np.degrees(turn - _MAX_TURN), 0.0)
 
-    def _pair_costs(self, panels: list[list[list[_Candidate]]], controls: np.ndarray, samples: np.ndarray
-                    ) -> list[dict[tuple[int, int], np.ndarray]]:
+    def _pair_costs(self, panels: list[list[list[_Candidate]]], controls: np.ndarray, samples: np.ndarray,
+                    extent: _Extent) -> list[dict[tuple[int, int], np.ndarray]]:
         """For each panel (the kept candidates of each of its arrows): the penalty of drawing
         candidate a of arrow i with candidate b of arrow j (i < j), for every such pair: heads
         too close, shafts alongside, shafts crossing. Every such pair of every panel is scored in
@@ -666,22 +671,37 @@ class ArrowPlanner:
                     blocks.append((k, i, j, len(options[i]), len(options[j])))
         if not blocks:
             return out
-        # Both sides' features in one gathering, then split: numpy's cost here is per call.
-        features = _curve_features(np.array(first + second), controls, samples)
-        split = len(first)
-        cost = self._pair_block(tuple(f[:split] for f in features), tuple(f[split:] for f in features))
+        a, b = np.array(first), np.array(second)
+        # Most pairs are of arrows far apart. Where the boxes of two candidates' samples (`extent`)
+        # stand more than half a bond length apart along x or y, neither their heads (0.45) nor
+        # their shafts (0.15) come close, as a complex number is never shorter than its real or
+        # imaginary part: those terms stay zero there and are worked out for the other pairs only.
+        gap = 0.5 * self.bl
+        x0, y0, x1, y1 = (column[:, 0] for column in (extent.x0, extent.y0, extent.x1, extent.y1))
+        close = np.flatnonzero(~((x0[a] > x1[b] + gap) | (x0[b] > x1[a] + gap)
+                                 | (y0[a] > y1[b] + gap) | (y0[b] > y1[a] + gap)))
+        cost = np.zeros(len(first))
+        if len(close):
+            # Both sides in one gathering, then split: numpy's cost here is per call.
+            rows = np.concatenate((a[close], b[close]))
+            tips, starts, body = controls[rows, 3], controls[rows, 0], samples[rows][:, 2:-1:2]
+            n = len(close)
+            cost[close] = self._nearness((tips[:n], starts[:n], body[:n]), (tips[n:], starts[n:], body[n:]))
+        coarse = samples[:, ::4][np.concatenate((a, b))]     # five chords of each curve
+        cost = cost + self._crossings(coarse[:len(first)], coarse[len(first):])
         start = 0
         for k, i, j, rows, columns in blocks:
             out[k][(i, j)] = cost[start:start + rows * columns].reshape(rows, columns)
             start += rows * columns
         return out
 
-    def _pair_block(self, first: tuple[np.ndarray, ...], second: tuple[np.ndarray, ...]) -> np.ndarray:
-        """The pair penalties of candidates `first` against `second`, pair by pair (one row each),
-        each given as tips, starts, shaft samples without their ends and coarse chord points."""
+    def _nearness(self, first: tuple[np.ndarray, ...], second: tuple[np.ndarray, ...]) -> np.ndarray:
+        """The penalties of candidates `first` against `second`, pair by pair (one row each), for
+        heads too close and shafts alongside; each side given as tips, starts and shaft samples
+        without their ends."""
         bl = self.bl
-        tips_a, starts_a, body_a, coarse_a = first
-        tips_b, starts_b, body_b, coarse_b = second
+        tips_a, starts_a, body_a = first
+        tips_b, starts_b, body_b = second
         cost = np.where(np.abs(tips_a - tips_b) < 0.45 * bl, 150.0, 0.0)
         # Which samples of a's shaft come near some sample of b's: (pairs, s)
         alongside = (np.abs(body_a[:, :, None] - body_b[:, None, :]) < 0.15 * bl).any(axis=2)
@@ -689,6 +709,12 @@ class ArrowPlanner:
         shared = (np.abs(starts_a - starts_b) < 0.3 * bl)[:, None]
         near_start = np.abs(body_a - starts_a[:, None]) < 0.35 * bl
         cost += 20.0 * (alongside & ~(shared & near_start)).sum(axis=1)
+        return cost
+
+    @staticmethod
+    def _crossings(coarse_a: np.ndarray, coarse_b: np.ndarray) -> np.ndarray:
+        """The penalty of two shafts crossing, pair by pair (one row each), each given as its
+        coarse chord points."""
         xa, ya, xb, yb = coarse_a.real, coarse_a.imag, coarse_b.real, coarse_b.imag
         # Which side of each chord of one curve every point of the other lies on; two chords
         # cross where each has the other's ends on opposite sides.
@@ -697,7 +723,7 @@ class ArrowPlanner:
         of_b = dxa * (yb[:, None, :] - ya[:, :-1, None]) - dya * (xb[:, None, :] - xa[:, :-1, None])
         of_a = dxb * (ya[:, None, :] - yb[:, :-1, None]) - dyb * (xa[:, None, :] - xb[:, :-1, None])
         hit = (of_b[..., :-1] * of_b[..., 1:] < 0) & (of_a[..., :-1] * of_a[..., 1:] < 0).transpose(0, 2, 1)
-        return cost + 20.0 * hit.sum(axis=(1, 2))
+        return 20.0 * hit.sum(axis=(1, 2))
 
     @staticmethod
     def _choose(options: list[list[_Candidate]], pairs: dict[tuple[int, int], np.ndarray]) -> list[_Candidate]:
@@ -837,13 +863,6 @@ def _split_bond_sides(w: _PanelArrows, options: list[list[_Candidate]],
             pairs[(i, j)] = pairs[(i, j)] + _SAME_SIDE * (sides[0][:, None] == sides[1][None, :])
 
 
-def _curve_features(rows: np.ndarray, controls: np.ndarray, samples: np.ndarray) -> tuple[np.ndarray, ...]:
-    """Tips, starts, shaft samples without their ends and coarse chord points (five chords) of
-    the candidates in `rows` (their rows in the scheme's arrays)."""
-    points = samples[rows]                                             # (rows, S)
-    return controls[rows, 3], controls[rows, 0], points[:, 2:-1:2], points[:, ::4]
-
-
 def _in_crook(middles: np.ndarray, sources: list[_Anchor], sinks: list[_Anchor], owner: np.ndarray,
               obstacles: list[_Obstacles]) -> np.ndarray:
     """1.0 where an arc that shifts a pair between two bonds of one atom has its middle inside
@@ -851,6 +870,7 @@ def _in_crook(middles: np.ndarray, sources: list[_Anchor], sinks: list[_Anchor],
     the outside of the bend (common practice)."""
     out = np.zeros(len(middles))
     where: dict[int, dict[int, complex]] = {}   # each panel's atom positions, looked up once
+    angles: dict[int, tuple[complex, complex, float]] = {}   # arrow -> (pivot, bisector, half its angle)
     for k, (src, snk) in enumerate(zip(sources, sinks)):
         if src.kind != "bond" or snk.kind != "bond":
             continue
@@ -866,11 +886,17 @@ def _in_crook(middles: np.ndarray, sources: list[_Anchor], sinks: list[_Anchor],
         if pivot not in at or any(a not in at for a in ends):
             continue
         first, second = (_unit(at[a] - at[pivot]) for a in ends)
-        half = abs(cmath.phase(second / first)) / 2
-        bisector = _unit(first + second)
-        rows = owner == k
-        seen = np.angle((middles[rows] - at[pivot]) / bisector)
-        out[rows] = np.abs(seen) < half
+        angles[k] = (at[pivot], _unit(first + second), abs(cmath.phase(second / first)) / 2)
+    if not angles:
+        return out
+    # Every such arrow's candidates at once (numpy's element results do not depend on the
+    # array's shape, and its cost is per call).
+    crooked = np.zeros(len(sources), dtype=bool)
+    crooked[list(angles)] = True
+    rows = np.flatnonzero(crooked[owner])
+    pivots, bisectors, halves = zip(*(angles[k] for k in owner[rows].tolist()))
+    seen = np.angle((middles[rows] - np.array(pivots)) / np.array(bisectors))
+    out[rows] = np.abs(seen) < np.array(halves)
     return out
 
 
@@ -880,16 +906,34 @@ def _parameters_at_distances(controls: np.ndarray, distances: np.ndarray) -> lis
     p0, p1, p2, p3 = (controls[:, k] for k in range(4))
     # The curve less its end point as a cubic in t, evaluated by Horner's rule: half the numpy
     # calls of the Bernstein form, and numpy's cost here is per call.
-    a, b, c, d = p3 - p0 + 3 * (p1 - p2), 3 * (p0 - 2 * p1 + p2), 3 * (p1 - p0), p0 - p3
-    # Each bracket [lo, lo + step] halves: its middle is lo + step / 2, exactly (sums of powers of
-    # two), so only its lower end is kept.
-    lo, step = np.zeros(len(controls)), 1.0
-    for _ in range(16):
-        step /= 2
-        t = lo + step
-        far = np.abs(((a * t + b) * t + c) * t + d) > distances
-        lo = np.where(far, t, lo)
+    a, b, c, d = (z[:, None] for z in (p3 - p0 + 3 * (p1 - p2), 3 * (p0 - 2 * p1 + p2), 3 * (p1 - p0), p0 - p3))
+    reach = distances[:, None]
+    # Four halvings per round: the fifteen points that four halvings from `lo` may try are
+    # measured in one batch, and where the halvings lead is looked up from which of them are
+    # still too far. Every point is lo plus a sum of powers of two, exactly as one halving at a
+    # time finds it, and numpy's element results do not depend on the array's shape.
+    lo, span = np.zeros(len(controls)), 1.0
+    for _ in range(4):
+        t = lo[:, None] + _SIXTEENTHS * span
+        far = np.abs(((a * t + b) * t + c) * t + d) > reach
+        lo = lo + _halvings()[far @ _BITS] * (span / 16)
+        span /= 16
     return lo.tolist()
+
+
+_SIXTEENTHS = np.arange(1, 16) / 16   # a round's trial points, as fractions of its span
+_BITS = 1 << np.arange(15)             # trial point k + 1 too far: bit k of the round's pattern
+
+
+@lru_cache(maxsize=None)
+def _halvings() -> np.ndarray:
+    """For each pattern of a round (_BITS), how many sixteenths of its span four halvings
+    advance: each halving moves on by its half where the point half-way is still too far."""
+    patterns = np.arange(1 << 15)
+    advance = np.zeros(1 << 15, dtype=np.int64)
+    for half in (8, 4, 2, 1):
+        advance += half * ((patterns >> (advance + half - 1)) & 1)
+    return advance
 
 
 _TOUCH = 1e-6   # points: bounding boxes this close count as meeting, so rounding never hides a crossing

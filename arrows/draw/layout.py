@@ -272,16 +272,19 @@ def _distance(a: list[float], b: list[float]) -> float:
 def _crosses_any(p: np.ndarray, q: np.ndarray, walls: np.ndarray) -> list[bool]:
     """For each segment p[k]-q[k]: whether it crosses one of `walls` (rows of two ends), that is,
     each has the other's ends on opposite sides. The cross products are written out on real
-    and imaginary parts, as Python's complex arithmetic computes them, whatever the shape."""
-    px, py, qx, qy = p.real[:, None], p.imag[:, None], q.real[:, None], q.imag[:, None]
-    ax, ay, bx, by = walls[:, 0].real, walls[:, 0].imag, walls[:, 1].real, walls[:, 1].imag
-    dx, dy = qx - px, qy - py     # along p->q
-    ex, ey = bx - ax, by - ay     # along each wall
-    a_side = (ay - py) * dx - (ax - px) * dy
-    b_side = (by - py) * dx - (bx - px) * dy
-    p_side = (py - ay) * ex - (px - ax) * ey
-    q_side = (qy - ay) * ex - (qx - ax) * ey
-    return ((a_side * b_side < 0) & (p_side * q_side < 0)).any(axis=1).tolist()
+    and imaginary parts, as Python's complex arithmetic computes them, whatever the shape; both
+    ends of a wall (and of a segment) are taken in one batch, numpy's cost being per call."""
+    px, py = p.real[:, None, None], p.imag[:, None, None]
+    dx, dy = (q.real - p.real)[:, None, None], (q.imag - p.imag)[:, None, None]    # along p->q
+    wx, wy = walls.real, walls.imag                                                # (walls, 2 ends)
+    wall_sides = (wy - py) * dx - (wx - px) * dy        # (segments, walls, 2): each wall end's side of p-q
+    ax, ay = wx[:, :1], wy[:, :1]
+    ex, ey = wx[:, 1:] - ax, wy[:, 1:] - ay             # along each wall
+    ends = np.concatenate((p[:, None], q[:, None]), axis=1)[:, None, :]        # (segments, 1, 2 ends)
+    segment_sides = (ends.imag - ay) * ex - (ends.real - ax) * ey   # each segment end's side of the wall
+    crossed = ((wall_sides[..., 0] * wall_sides[..., 1] < 0)
+               & (segment_sides[..., 0] * segment_sides[..., 1] < 0))
+    return np.logical_or.reduce(crossed, axis=1).tolist()
 
 
 def _segments_cross(p: complex, q: complex, a: complex, b: complex) -> bool:
@@ -459,6 +462,7 @@ class _Cluster:
     atoms: list[int]
     local: dict[int, complex]
     segments: list[tuple[int, int]] = field(default_factory=list)   # runs of panels it cannot move in
+    segment_at: dict[int, tuple[int, int]] = field(default_factory=dict)   # panel -> the run that holds it
     # segment start -> (rotation, shift, direction it came in on, how far it waits back along it)
     placement: dict[int, tuple] = field(default_factory=dict)
     # Partners of a cycloaddition held apart before they bond: (atoms, first panel, last panel,
@@ -559,6 +563,7 @@ class _LayoutBuilder:
         self.events = self._events()    # fixed from here on: placing moves clusters, not bonds or hydrogens
         for k, cluster in enumerate(self.clusters):
             cluster.segments = self._segments(k)
+            cluster.segment_at = {panel: seg for seg in cluster.segments for panel in range(seg[0], seg[1] + 1)}
         main = self.clusters[self.main]
         for start, _ in main.segments:
             main.placement[start] = (1 + 0j, 0j, None, 0.0)
@@ -1146,10 +1151,7 @@ class _LayoutBuilder:
 
     # placing clusters
     def _segment_of(self, index: int, k: int) -> Optional[tuple[int, int]]:
-        for seg in self.clusters[index].segments:
-            if seg[0] <= k <= seg[1]:
-                return seg
-        return None
+        return self.clusters[index].segment_at.get(k)
 
     def _placed_at(self, index: int, k: int) -> bool:
         seg = self._segment_of(index, k)
@@ -1524,7 +1526,8 @@ class _LayoutBuilder:
             here = self.positions[k]
             out += [(here[i], here[j]) for i, j in self.bonds_in[k]
                     if i in here and j in here and anchor not in (i, j) and i not in mine and j not in mine]
-        return np.array(out, dtype=complex).reshape(-1, 2)
+        # A bond that stays put is the same wall in every panel: each is tested once.
+        return np.array(list(dict.fromkeys(out)), dtype=complex).reshape(-1, 2)
 
     def _other_hops(self, index: int, segment: tuple[int, int], k: int, hydrogen: Optional[int]
                     ) -> list[tuple[int, complex]]:
@@ -1567,7 +1570,9 @@ class _LayoutBuilder:
         # The cheapest first (equal scores keep the options' order); the clearance tests cost
         # more, so they run on a few spots at a time, growing as the search goes on.
         for f in fed:      # the hydrogen would stand in the angle its bond's pair goes into
-            room &= np.array([abs(cmath.phase(d / f)) >= _FED_ANGLE for d in directions])
+            # The options share a few dozen directions: each is measured once.
+            outside = {d: abs(cmath.phase(d / f)) >= _FED_ANGLE for d in set(directions)}
+            room &= np.array([outside[d] for d in directions])
         order = np.flatnonzero(room)
         order = order[np.argsort(score[order], kind="stable")]
         start, size = 0, 8

@@ -516,9 +516,13 @@ def _panel_box(atoms, bonds, marks, arrows, pad: float) -> Box:
         points += a.head
     if not points and not boxes and not arrows:
         return Box(0, 0, 0, 0)
-    xs = [p[0] for p in points] + [b.x0 for b in boxes] + [b.x1 for b in boxes]
-    ys = [p[1] for p in points] + [b.y0 for b in boxes] + [b.y1 for b in boxes]
-    x0, y0, x1, y1 = (min(xs), min(ys), max(xs), max(ys)) if xs else (math.inf, math.inf, -math.inf, -math.inf)
+    # The points' coordinates split in one step (zip), then the boxes' edges: the extremes of
+    # all of them, of equals the first met, as one list of everything would give.
+    px, py = zip(*points) if points else ((), ())
+    x0 = min(min(px, default=math.inf), min((b.x0 for b in boxes), default=math.inf))
+    y0 = min(min(py, default=math.inf), min((b.y0 for b in boxes), default=math.inf))
+    x1 = max(max(px, default=-math.inf), max((b.x1 for b in boxes), default=-math.inf))
+    y1 = max(max(py, default=-math.inf), max((b.y1 for b in boxes), default=-math.inf))
     for a in arrows:
         # A Bezier curve lies within the box of its control points: when that box is well inside
         # what is already there, the curve's samples cannot widen the panel and are not worked out.

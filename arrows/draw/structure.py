@@ -57,18 +57,25 @@ class PanelStructure:
 
 def ray_exit(origin: complex, direction: complex, box: Box, pad: float = 0.0) -> float:
     """Distance from origin (inside box, grown by pad) to the box edge along direction."""
+    # Each edge written out (no loop over a tuple of two): it is asked about a thousand times a figure.
     best = math.inf
     dx, dy = direction.real, direction.imag
     if dx > 1e-12 or dx < -1e-12:
-        for x in (box.x0 - pad, box.x1 + pad):
-            t = (x - origin.real) / dx
-            if 0 < t < best:
-                best = t
+        x = origin.real
+        t = (box.x0 - pad - x) / dx
+        if 0 < t < best:
+            best = t
+        t = (box.x1 + pad - x) / dx
+        if 0 < t < best:
+            best = t
     if dy > 1e-12 or dy < -1e-12:
-        for y in (box.y0 - pad, box.y1 + pad):
-            t = (y - origin.imag) / dy
-            if 0 < t < best:
-                best = t
+        y = origin.imag
+        t = (box.y0 - pad - y) / dy
+        if 0 < t < best:
+            best = t
+        t = (box.y1 + pad - y) / dy
+        if 0 < t < best:
+            best = t
     return 0.0 if best is math.inf else best
 
 
@@ -116,10 +123,22 @@ def _closes_cycle(i: int, j: int, adjacent: list[list[int]]) -> bool:
     return False
 
 
-def _box_to_segment(box: Box, p: complex, q: complex, samples: int = 16) -> float:
-    """Nearest approach of the segment p-q to the box (sampled; zero where it enters it)."""
-    return min(box.distance(((p + (q - p) * k / samples).real, (p + (q - p) * k / samples).imag))
-               for k in range(samples + 1))
+def _clear_of(box: Box, lines: list[tuple[complex, complex]], limit: float, samples: int = 16) -> bool:
+    """Whether every segment p-q of `lines` keeps `limit` from the box, by 17 samples along each
+    (a sample inside the box is at distance zero). Stops at the first sample closer than that."""
+    x0, y0, x1, y1 = box.x0, box.y0, box.x1, box.y1
+    for p, q in lines:
+        # The samples p + (q - p) * k / samples, part by part (Python's complex arithmetic by a
+        # whole number gives these same parts).
+        px, py = p.real, p.imag
+        dx, dy = q.real - px, q.imag - py
+        for k in range(samples + 1):
+            x, y = px + dx * k / samples, py + dy * k / samples
+            ax = x0 - x if x < x0 else x - x1 if x > x1 else 0.0
+            ay = y0 - y if y < y0 else y - y1 if y > y1 else 0.0
+            if (ax * ax + ay * ay) ** 0.5 < limit:
+                return False
+    return True
 
 
 def _separation(a: Box, b: Box) -> float:
@@ -138,11 +157,14 @@ def _angle_gap(a: complex, b: complex) -> float:
 
 def clearance(direction: complex, occupied: list[complex]) -> float:
     """Smallest angle between direction and any occupied direction (pi when none is)."""
+    if not direction:
+        return math.pi
     room = math.pi
     for o in occupied:
-        gap = abs(cmath.phase(direction / o)) if direction and o else math.pi
-        if gap < room:
-            room = gap
+        if o:   # a zero direction leaves pi, which is no less
+            gap = abs(cmath.phase(direction / o))
+            if gap < room:
+                room = gap
     return room
 
 
@@ -642,7 +664,7 @@ class StructureDrawer:
             bl = self.style.bond_length
             lines = [(centre, centre + d * bl) for d in out.bond_directions.get(i, ())]
             for slid in range(12):
-                if not lines or min(_box_to_segment(self.text_box(run), p, q) for p, q in lines) >= _SIDE_TEXT_CLEARANCE * bl:
+                if _clear_of(self.text_box(run), lines, _SIDE_TEXT_CLEARANCE * bl):
                     break
                 run = TextRun(text, run.x + direction.real * 0.03 * bl, run.y + direction.imag * 0.03 * bl, size, italic=italic)
             else:
