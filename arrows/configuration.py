@@ -190,8 +190,11 @@ def _set_syn_configuration(before: Chem.Mol, after: Chem.RWMol, a: int, b: int, 
         conformer.SetAtomPosition(i, (px, py, pz))
     model.RemoveAllConformers()
     model.AddConformer(conformer, assignId=True)
-    model.UpdatePropertyCache(strict=False)
-    Chem.AssignStereochemistryFrom3D(model, replaceExistingTags=True)
+    try:
+        model.UpdatePropertyCache(strict=False)
+        Chem.AssignStereochemistryFrom3D(model, replaceExistingTags=True)
+    except Exception:   # RDKit cannot perceive an odd intermediate: the centres stay unconfigured
+        return False
     tags = [model.GetAtomWithIdx(end).GetChiralTag() for end in (a, b)]
     if _UNSPECIFIED in tags:
         return False   # RDKit finds no stereocentre there (two equal groups)
