@@ -5,12 +5,12 @@ except in the steps whose stereochemical course is a textbook rule:
 - a concerted backside substitution (SN2, a nucleophile opening an epoxide or a bromonium ion)
   inverts the centre (Walden inversion);
 - a 1,2-shift keeps the configuration of the migrating atom (retention);
-- a concerted addition to both atoms of a double bond written E or Z (epoxidation by a peracid,
-  a bromonium ion, hydroboration, the dienophile of a Diels-Alder) adds both new bonds on one
-  face (suprafacial, syn): the two new stereocentres get the relative configuration that follows
-  from the E/Z. With no other configuration in the state the two faces are alike, so the product
-  is the racemate of the configuration drawn (a meso compound where the two centres mirror each
-  other).
+- a concerted, cyclic addition to both atoms of a double bond of known geometry (written E or
+  Z, or in a small ring, where it is cis): epoxidation by a peracid, a bromonium ion,
+  hydroboration, a carbene, the dienophile of a Diels-Alder, adds both new bonds on one face
+  (suprafacial, syn), and the two new stereocentres get the relative configuration that follows.
+  With no other configuration in the state the two faces are alike, so the product is the
+  racemate of the configuration drawn (a meso compound where the two centres mirror each other).
 """
 from __future__ import annotations
 
