@@ -1147,7 +1147,39 @@ class _LayoutBuilder:
         shown = {r.hydrogen for runs in self.residences.values() for r in runs
                  if r.holder in atoms and r.first == k and r.last == k + 1}
         here = (atoms & self.exists[k] & self.exists[k + 1]) | shown
-        return bool(here) and (here <= self.touched[k] or here <= self.joining[k])
+        if not here:
+            return False
+        if here <= self.touched[k]:
+            return True
+        # A part of a joining molecule moves with it, as a rigid body: not while it hangs, by a
+        # bond the step leaves alone, on an atom of the skeleton that stays put (the chlorine of
+        # a Darzens ester whose carbon the ketone bonds to keeps its place).
+        return here <= self.joining[k] and not self._held_by_skeleton(atoms, k)
+
+    def _held_by_skeleton(self, atoms: set[int], k: int) -> bool:
+        """Whether an untouched atom of `atoms` (which carries no other cluster) is bonded, in
+        panels k and k+1, to an atom of the main cluster that is drawn in one place in both (the
+        main cluster is never moved as a whole; a ring redrawn or opened moves its own atoms)."""
+        main = self.clusters[self.main]
+        if any(n not in atoms and n not in main.atoms and self.element[n] != 1
+               and (min(a, n), max(a, n)) in self.bonds_in[k + 1] for a in atoms for n in self.neighbours[a]):
+            return False   # it carries another cluster, which is placed on it afresh: it may turn to make room
+        for a in atoms - self.touched[k]:
+            for n in self.neighbours[a]:
+                pair = (min(a, n), max(a, n))
+                if n in main.atoms and n not in atoms and pair in self.bonds_in[k] and pair in self.bonds_in[k + 1] \
+                        and abs(self._skeleton_at(n, k) - self._skeleton_at(n, k + 1)) < 1e-9:
+                    return True
+        return False
+
+    def _skeleton_at(self, atom: int, k: int) -> complex:
+        """Where the main cluster draws `atom` in panel k, before any ring is opened by a swing."""
+        main = self.clusters[self.main]
+        where = main.local_at(k)[atom]
+        for atoms, first, last, offset in main.openings:
+            if first <= k <= last and atom in atoms:
+                where += offset
+        return where
 
     # placing clusters
     def _segment_of(self, index: int, k: int) -> Optional[tuple[int, int]]:
