@@ -1829,6 +1829,51 @@ class _LayoutBuilder:
         for h, runs in sorted(self.residences.items()):
             for n in range(len(runs)):
                 self._untangle(runs, n)
+        for h in sorted(self.drawn_h - self.bridging):
+            self._turn_from_partner(h)
+
+    def _turn_from_partner(self, h: int) -> None:
+        """A hydrogen passed between two atoms of one cluster (a syn elimination through a
+        five-membered ring) is drawn by the cluster's depiction, where it may sit nearer the atom
+        that takes it than a curved arrow needs to bend: before its hop it is turned about its
+        holder, as little as will do, until it is TRANSFER_GAP - 0.1 from that atom (common
+        practice: the arrow has room), keeping clear of every other atom and bond and of the
+        holder's other bonds. It turns in every panel it sits on that holder, so it keeps its
+        place while the steps before leave it alone."""
+        holders = [(k, self._holder(k, h)) for k in range(self.n) if h in self.positions[k]]
+        for (k, holder), (k_next, partner) in zip(holders, holders[1:]):
+            if k_next != k + 1 or holder is None or partner is None or holder == partner:
+                continue
+            here = self.positions[k]
+            if holder not in here or partner not in here or abs(here[h] - here[partner]) >= TRANSFER_GAP - 0.1:
+                continue
+            if (min(holder, partner), max(holder, partner)) in self.bonds_in[k]:
+                continue   # a 1,2-shift: the hydrogen leans toward the atom it moves to
+            panels = [k]
+            while panels[0] > 0 and self._holder(panels[0] - 1, h) == holder and h in self.positions[panels[0] - 1]:
+                panels.insert(0, panels[0] - 1)
+            centre = here[holder]
+            if any(self.positions[p].get(holder) != centre or self.positions[p].get(partner) != here[partner]
+                   for p in panels):
+                continue   # the holder or the partner moves meanwhile: left as drawn
+            start = here[h] - centre
+            others = [q for p in panels for a, q in self.positions[p].items() if a not in (h, holder)]
+            bonds = [(self.positions[p][i], self.positions[p][j]) for p in panels for i, j in self.bonds_in[p]
+                     if h not in (i, j) and holder not in (i, j) and i in self.positions[p] and j in self.positions[p]]
+            own = [_unit(here[n] - centre) for n in self.neighbours[holder]
+                   if n != h and n in here and (min(n, holder), max(n, holder)) in self.bonds_in[k]]
+            for degrees in (15, -15, 30, -30, 45, -45, 60, -60):
+                d = start * cmath.rect(1.0, math.radians(degrees))
+                spot = centre + d
+                if abs(spot - here[partner]) < TRANSFER_GAP - 0.1:
+                    continue
+                if any(abs(spot - q) < _HYDROGEN_ROOM for q in others) \
+                        or any(abs(cmath.phase(d / b)) < math.radians(35) for b in own) \
+                        or any(_segments_cross(centre, spot, a, b) for a, b in bonds):
+                    continue
+                for p in panels:
+                    self.positions[p][h] = spot
+                break
 
     def _untangle(self, runs: list[_Residence], n: int) -> None:
         """Turn a travelling hydrogen that lands too close to another atom, or far from (or
