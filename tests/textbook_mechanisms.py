@@ -38,7 +38,7 @@ that falls apart to SO2 (an acid chloride from thionyl chloride); and electrons 
 metal with no bond made (Birch reduction).
 
 Each entry: (mechanism text, textbook product SMILES, drawn): `drawn` says whether the geometry
-tests draw it. All do but thirteen. (The Dieckmann ethoxide, which stays where it was bonded,
+tests draw it. All do but twelve. (The Dieckmann ethoxide, which stays where it was bonded,
 and the Cope elimination's oxide once waited 1.0 and 1.34 bond lengths from the hydrogen they
 take, where the proton-transfer test wants 1.4. The mesylate SN2 once pushed the ethyl that iodide takes 0.9 bond lengths out along its broken C-O bond, as if
 it were the leaving group.) The Hofmann rearrangement: every skeletal bond but C=O makes or breaks at some step, so the
@@ -50,16 +50,16 @@ C#O arrow leaves from the crowded side); the Reformatsky zinc enolate moves out 
 bond lengths (2% allowed) as it joins the ketone (its ZnBr, passed from one oxygen to the other, is
 placed afresh); an untouched carbon of
 the Tiffeneau-Demjanov ring moves 0.13 bond lengths as the ring grows; the Wolff methyl's shift
-arrow bulges toward the pivot. The benzyne's ring C#C is held to the straight-sp test, and its
-figure's bond orders are not RDKit's; the Mitsunobu scheme crosses bonds and moves the ester 2.86
+arrow bulges toward the pivot. (The benzyne's ring C#C was held to the straight-sp test, and
+its triple bond, which RDKit flags aromatic, to a single or double one; both tests now follow the
+chemistry.) The Mitsunobu scheme crosses bonds and moves the ester 2.86
 bond lengths out of shape as its parts join; the Staudinger azide's central nitrogen is drawn bent
 (135 degrees), and its two arrows into N3#N4 end at one point. The Baylis-Hillman scheme has a
 bond 1.12 bond lengths long and leaves the alkoxide 0.77 bond lengths from the hydrogen it takes
 (1.4 wanted); in the ester reduction the
 C=O pair that O2 gives back leaves from the crowded side. The thionyl chloride scheme draws a bond
-1.47 bond lengths long, moves the chlorosulfite out of shape as chloride leaves, and its SO2 (bent
-at S, which keeps a lone pair: VSEPR) is held to the straight-sp test, which counts two double
-bonds as sp. The nitration's nitronium, straight until the arene bonds to its
+1.47 bond lengths long, moves the chlorosulfite out of shape as chloride leaves (its SO2, bent at S,
+which keeps a lone pair, is no longer held straight). The nitration's nitronium, straight until the arene bonds to its
 nitrogen, gets a straight depiction and then a bent one; the Beckmann nitrilium a bent one, a
 straight one, and a bent one again."""
 
@@ -2208,7 +2208,7 @@ TEXTBOOK = {
     "[2,3]-wittig": (WITTIG_2_3, "C=CCC([O-])c1ccccc1", True),
     "criegee ozonide": (CRIEGEE_OZONIDE, "C1OCOO1", True),
     "wolff rearrangement": (WOLFF, "CCC(=O)O", False),   # the methyl's shift arrow bulges toward the pivot
-    "benzyne": (BENZYNE, "Nc1ccccc1", False),   # its ring C#C fails the straight-sp test; the figure's bond orders are not RDKit's
+    "benzyne": (BENZYNE, "Nc1ccccc1", True),
     "dichlorocarbene": (DICHLOROCARBENE, "ClC1(Cl)[C@@H]2CCCC[C@@H]21", True),   # cis-fused (meso): the carbene adds to one face
     "mitsunobu": (MITSUNOBU, "CC[C@H](C)OC(=O)c1ccccc1.[O-][P+](c1ccccc1)(c1ccccc1)c1ccccc1", False),   # bonds cross and the ester moves 2.86 out of shape as the parts join
     "arbuzov": (ARBUZOV, "CCOP(C)(=O)OCC.CCI", True),
@@ -2223,5 +2223,5 @@ TEXTBOOK = {
     "ester reduction": (ESTER_REDUCTION, "OCc1ccccc1", False),   # the C=O pair re-formed by O2 leaves from the crowded side
     "peterson": (PETERSON, "C=C(C)C.C[Si](C)(C)[O-]", True),
     "pyrrole bromination": (PYRROLE_BROMINATION, "Brc1ccc[nH]1.Br", True),
-    "thionyl chloride": (THIONYL_CHLORIDE, "CC(=O)Cl.O=S=O", False),   # a bond 1.47 long; SO2's bent S held to the straight-sp test
+    "thionyl chloride": (THIONYL_CHLORIDE, "CC(=O)Cl.O=S=O", False),   # a bond 1.47 long; the chlorosulfite moves out of shape
 }
