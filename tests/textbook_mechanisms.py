@@ -42,11 +42,12 @@ tests draw it. All do but twelve. (The Dieckmann ethoxide, which stays where it 
 and the Cope elimination's oxide once waited 1.0 and 1.34 bond lengths from the hydrogen they
 take, where the proton-transfer test wants 1.4. The mesylate SN2 once pushed the ethyl that iodide takes 0.9 bond lengths out along its broken C-O bond, as if
 it were the leaving group.) The Hofmann rearrangement: every skeletal bond but C=O makes or breaks at some step, so the
-molecule falls into clusters of one or two atoms, each run placed against one partner only; C1-N3
-comes out 2.73 bond lengths long in two panels (the methyl hidden under it) and N3-Br4 1.33 in one. The Stork alkylation's N<-H-O+
+molecule falls into clusters of one or two atoms, each run placed against one partner only; N3-Br4
+comes out 1.34 bond lengths long in one panel (C1-N3, 2.73 long in two panels with the methyl
+hidden under it, is now placed against both its partners). The Stork alkylation's N<-H-O+
 proton transfer and the Curtius azide's leaving N-N pair run their arrows over a charge sign. The
-Swern oxalyl fragment is drawn with a C-C bond 1.15 bond lengths long as it falls apart (and its
-C#O arrow leaves from the crowded side); the Reformatsky zinc enolate moves out of shape by 0.03
+Swern oxalyl fragment (its C-C bond once drawn 1.15 bond lengths long as it falls apart) moves
+Cl4 out of shape against C7 by 0.09 bond lengths, and its C#O arrow leaves from the crowded side; the Reformatsky zinc enolate moves out of shape by 0.03
 bond lengths (2% allowed) as it joins the ketone (its ZnBr, passed from one oxygen to the other, is
 placed afresh); an untouched carbon of
 the Tiffeneau-Demjanov ring moves 0.13 bond lengths as the ring grows; the Wolff methyl's shift
@@ -2177,7 +2178,7 @@ TEXTBOOK = {
     "thia-michael": (THIA_MICHAEL, "CSCCC(C)=O", True),
     "baeyer-villiger retention": (BAEYER_VILLIGER_RETENTION, "CC(=O)O[C@@H](C)c1ccccc1", True),   # (S) kept
     "diazotisation": (DIAZOTISATION, "N#[N+]c1ccccc1", True),
-    "hofmann rearrangement": (HOFMANN_REARRANGEMENT, "CN.O=C=O", False),   # its atoms fall into one-atom clusters: C1-N3 drawn 2.73 long
+    "hofmann rearrangement": (HOFMANN_REARRANGEMENT, "CN.O=C=O", False),   # its atoms fall into one-atom clusters: N3-Br4 drawn 1.34 long
     "mesylation": (MESYLATION, "CCOS(C)(=O)=O", True),
     "birch reduction": (BIRCH, "C1=CCC=CC1.CC[O-].[Na+]", True),
     "epoxidation": (EPOXIDATION, "C[C@@H]1O[C@@H]1C.CC(=O)O", True),
@@ -2189,7 +2190,7 @@ TEXTBOOK = {
     "favorskii": (FAVORSKII, "COC(=O)C1CCCC1", True),
     "benzilic acid rearrangement": (BENZILIC_ACID, "OC(C(=O)[O-])(c1ccccc1)c1ccccc1", True),
     "curtius": (CURTIUS, "CNC(=O)OC", False),   # the arrow of the N-N pair that leaves crosses the N- sign
-    "swern oxidation": (SWERN, "CC(C)=O.CSC", False),   # the oxalyl fragment's C-C drawn 1.15 long as it falls apart
+    "swern oxidation": (SWERN, "CC(C)=O.CSC", False),   # the oxalyl fragment moves out of shape; its C#O arrow leaves from the crowded side
     "darzens": (DARZENS, "CCOC(=O)C1OC1(C)C", True),
     "reformatsky": (REFORMATSKY, "CCOC(=O)CC(C)(C)O", False),   # the zinc enolate moves 0.03 out of shape (Br1 against its ethyl) as it joins the ketone
     "meerwein-ponndorf-verley": (MEERWEIN_PONNDORF_VERLEY, "CC(C)=O.CC(C)O[Al](OC(C)C)OC1CCCCC1", True),
