@@ -417,7 +417,9 @@ def _bridged_alkene_molecules(step) -> set[int]:
 def _resized_ring_atoms(step) -> set[int]:
     """Atoms of a ring that changes size in this step (a ring bond of the state before breaks and a
     ring of the state after holds a bond the step makes): such a ring is redrawn, as chemists do."""
-    before_rings = [set(r) for r in step.before.mol.GetRingInfo().AtomRings()]
+    before = Chem.Mol(step.before.mol)
+    Chem.FastFindRings(before)   # the state's Mol is not sanitized: its rings are found here, as after's are
+    before_rings = [set(r) for r in before.GetRingInfo().AtomRings()]
     if not any(any(set(b) <= r for r in before_rings) for b in step.change.broken):
         return set()
     formed = [set(b) for b in step.change.formed]
