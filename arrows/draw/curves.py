@@ -318,20 +318,23 @@ class ArrowPlanner:
         return _Anchor("dots", spot, (atom,), outward=direction)
 
     def _clear_paths(self, w: _PanelArrows, chosen: list[_Candidate], points: np.ndarray) -> None:
-        """An arrow that leaves a labelled atom's dots and runs over that atom's charge sign (the
-        sign was set before the arrows were drawn) moves the sign off every arrow of the panel."""
-        signs = {m.atom: m.box for m in w.panel.marks if m.kind == "charge" and m.box is not None}
+        """An arrow that runs over a labelled atom's charge sign (the sign was set before the
+        arrows were drawn) moves the sign off every arrow of the panel: the sign of the atom whose
+        dots it leaves, or of an atom it passes (the azide's N- under the arrow of the N-N bond
+        that leaves)."""
         pad = _MARK_GAP * self.fs
         paths = None
         for src, c in zip(w.sources, chosen):
-            atom = src.atoms[0]
-            if src.kind != "dots" or atom not in signs:
-                continue
             path = points[c.row].tolist()
-            if _on_path(signs[atom], path, pad):
-                if paths is None:
-                    paths = [point for other in chosen for point in points[other.row].tolist()]
-                self._clear_marks(w.panel, w.marks, atom, pad, [], None, path, paths)
+            # The panel's signs as they stand now: a sign moved for one arrow is looked at anew.
+            # Its own atom's sign keeps a gap from the arrow; another atom's is moved only if the
+            # arrow runs over it.
+            for atom, box in [(m.atom, m.box) for m in w.panel.marks if m.kind == "charge" and m.box is not None]:
+                own = src.kind == "dots" and atom == src.atoms[0]
+                if _on_path(box, path, pad if own else 0.0):
+                    if paths is None:
+                        paths = [point for other in chosen for point in points[other.row].tolist()]
+                    self._clear_marks(w.panel, w.marks, atom, pad, [], None, path, paths)
 
     def _clear_marks(self, panel: PanelStructure, marks: list[Mark], atom: int, pad: float, taken: list[complex],
                      dots: Optional[Box], path: list[complex] = (), paths: list[complex] = ()) -> bool:
