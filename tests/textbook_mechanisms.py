@@ -42,9 +42,10 @@ tests draw it. All do but nine. (The Dieckmann ethoxide, which stays where it wa
 and the Cope elimination's oxide once waited 1.0 and 1.34 bond lengths from the hydrogen they
 take, where the proton-transfer test wants 1.4. The mesylate SN2 once pushed the ethyl that iodide takes 0.9 bond lengths out along its broken C-O bond, as if
 it were the leaving group.) The Hofmann rearrangement: every skeletal bond but C=O makes or breaks at some step, so the
-molecule falls into clusters of one or two atoms, each run placed against one partner only; N3-Br4
-comes out 1.34 bond lengths long in one panel (C1-N3, 2.73 long in two panels with the methyl
-hidden under it, is now placed against both its partners). (The Stork alkylation's N<-H-O+
+molecule falls into clusters of one or two atoms, and the union draws the migrating
+methyl, C1 and N3 as a triangle, so the methyl's shift arrow bulges toward the pivot (C1-N3, once
+2.73 bond lengths long with the methyl hidden under it, and N3-Br4, 1.34, are now placed against
+both partners). (The Stork alkylation's N<-H-O+
 proton transfer and the Curtius azide's leaving N-N pair ran their arrows over a charge sign; the
 Tiffeneau-Demjanov ring, redrawn as it grows, was held to 0.05 bond lengths, as the test read no
 rings in the state before the step.) The
@@ -2179,7 +2180,7 @@ TEXTBOOK = {
     "thia-michael": (THIA_MICHAEL, "CSCCC(C)=O", True),
     "baeyer-villiger retention": (BAEYER_VILLIGER_RETENTION, "CC(=O)O[C@@H](C)c1ccccc1", True),   # (S) kept
     "diazotisation": (DIAZOTISATION, "N#[N+]c1ccccc1", True),
-    "hofmann rearrangement": (HOFMANN_REARRANGEMENT, "CN.O=C=O", False),   # its atoms fall into one-atom clusters: N3-Br4 drawn 1.34 long
+    "hofmann rearrangement": (HOFMANN_REARRANGEMENT, "CN.O=C=O", False),   # the methyl's shift arrow bulges toward the pivot (a triangle in the union)
     "mesylation": (MESYLATION, "CCOS(C)(=O)=O", True),
     "birch reduction": (BIRCH, "C1=CCC=CC1.CC[O-].[Na+]", True),
     "epoxidation": (EPOXIDATION, "C[C@@H]1O[C@@H]1C.CC(=O)O", True),

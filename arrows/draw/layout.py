@@ -1414,8 +1414,9 @@ class _LayoutBuilder:
                   if n in self.positions[k] and n not in depicted and self.element[n] != 1]
         if kind == "bond" and self._linear(anchor, range(k, k + 1)) and len(placed) == 1:
             u = _unit(self.positions[k][anchor] - placed[0])   # straight on through an sp atom
-        elif kind == "bond":
-            u = self._between_partners(anchor, mover, k, depicted, u)
+        second = None
+        if kind == "bond" and not (self._linear(anchor, range(k, k + 1)) and len(placed) == 1):
+            u, second = self._between_partners(anchor, mover, k, depicted, u)
         v = self._joining_side(depicted, mover, u, kind, k)
         if kind == "bond" and self._joins_cis(anchor, mover, u, v, depicted, k):
             # A double bond between the two is drawn trans (below): the chain end bonds on at
@@ -1436,7 +1437,7 @@ class _LayoutBuilder:
         polygons = [[others[a] for a in ring] for kk in range(segment[0], segment[1] + 1)
                     for ring in self._closed_rings(kk) if all(a in others for a in ring)]
         anchor_at = self.positions[k][anchor]
-        near = np.array([q for a, q in others.items() if a != anchor], dtype=complex)
+        near = np.array([q for a, q in others.items() if a != anchor and a != second], dtype=complex)
         options = _BOND_OPTIONS if kind == "bond" else _HOP_OPTIONS
         hydrogen_on_mover = hydrogen is not None and kind == "hop" and self._holder(k, hydrogen) == mover
         # For a hop or a transfer, a spot from which the arrow to the anchor's side crosses no bond is preferred.
@@ -1475,23 +1476,25 @@ class _LayoutBuilder:
         if hydrogen is not None:
             self._promise(hydrogen, anchor, k, direction, leave_after=round_about is not None)
 
-    def _between_partners(self, anchor: int, mover: int, k: int, depicted: dict[int, complex], u: complex) -> complex:
+    def _between_partners(self, anchor: int, mover: int, k: int, depicted: dict[int, complex], u: complex
+                          ) -> tuple[complex, Optional[int]]:
         """The direction from `anchor` in which `mover` also sits one bond length from a second
         placed atom it is bonded to in panel k (a carbon between the two fragments it is about
-        to fall apart into): where the two unit circles meet, on the side nearer u; u itself if
-        there is no such atom or the two are too far apart for both bonds."""
+        to fall apart into): where the two unit circles meet, on the side nearer u; and that
+        atom, which the mover may come within a bond length of. (u, None) if there is no such
+        atom or the two are too far apart for both bonds."""
         here = self.positions[k]
         seconds = [n for n in sorted(self.neighbours[mover]) if n != anchor and n not in depicted and n in here
                    and self.element[n] != 1 and (min(n, mover), max(n, mover)) in self.bonds_in[k]]
         if len(seconds) != 1:
-            return u
+            return u, None
         gap = here[seconds[0]] - here[anchor]
         if not 0.2 < abs(gap) < 1.95:
-            return u
+            return u, None
         half = abs(gap) / 2
         across = _unit(gap) * 1j * math.sqrt(1.0 - half * half)
         spots = (gap / 2 + across, gap / 2 - across)
-        return _unit(max(spots, key=lambda spot: (spot * u.conjugate()).real))
+        return _unit(max(spots, key=lambda spot: (spot * u.conjugate()).real)), seconds[0]
 
     def _joining_side(self, depicted: dict[int, complex], mover: int, u: complex, kind: str, k: int,
                       turn: int = 1) -> complex:
