@@ -46,7 +46,10 @@ _SHORT_HOOK = 20.0              # penalty per bond length such an arrow falls sh
 _TICK = 4.0                     # penalty of a plain arc where a pair goes from a bond to its own atom
 _PAIR_ARC = 0.8                 # bond lengths: the shortest path from dots into their own atom's bond
 _SHIFT_BULGE = 0.2              # bond lengths a 1,2-shift's arc stands out from its chord, away from the pivot
-_TIGHT_SHIFT = 5.0              # penalty of one that stands out less (or bulges toward the pivot)
+# Penalty of one that stands out less (or bulges toward the pivot): more than the crowding an
+# outward arc meets where the migrating group, the pivot and the new partner stand in a triangle
+# (the Hofmann rearrangement's methyl shift to nitrogen, at 5.0, bulged inward).
+_TIGHT_SHIFT = 20.0
 _CROOK = 1.0                    # penalty of an arc cramped inside the angle of the two bonds it joins
 _T = np.linspace(0.0, 1.0, _SAMPLES + 1)
 _BERNSTEIN = np.stack([(1 - _T) ** 3, 3 * _T * (1 - _T) ** 2, 3 * _T ** 2 * (1 - _T), _T ** 3])
