@@ -46,7 +46,10 @@ _SHORT_HOOK = 20.0              # penalty per bond length such an arrow falls sh
 _TICK = 4.0                     # penalty of a plain arc where a pair goes from a bond to its own atom
 _PAIR_ARC = 0.8                 # bond lengths: the shortest path from dots into their own atom's bond
 _SHIFT_BULGE = 0.2              # bond lengths a 1,2-shift's arc stands out from its chord, away from the pivot
-_TIGHT_SHIFT = 5.0              # penalty of one that stands out less (or bulges toward the pivot)
+# Penalty of one that stands out less (or bulges toward the pivot): more than the crowding an
+# outward arc meets where the migrating group, the pivot and the new partner stand in a triangle
+# (the Hofmann rearrangement's methyl shift to nitrogen, at 5.0, bulged inward).
+_TIGHT_SHIFT = 20.0
 _CROOK = 1.0                    # penalty of an arc cramped inside the angle of the two bonds it joins
 _T = np.linspace(0.0, 1.0, _SAMPLES + 1)
 _BERNSTEIN = np.stack([(1 - _T) ** 3, 3 * _T * (1 - _T) ** 2, 3 * _T ** 2 * (1 - _T), _T ** 3])
@@ -318,20 +321,23 @@ class ArrowPlanner:
         return _Anchor("dots", spot, (atom,), outward=direction)
 
     def _clear_paths(self, w: _PanelArrows, chosen: list[_Candidate], points: np.ndarray) -> None:
-        """An arrow that leaves a labelled atom's dots and runs over that atom's charge sign (the
-        sign was set before the arrows were drawn) moves the sign off every arrow of the panel."""
-        signs = {m.atom: m.box for m in w.panel.marks if m.kind == "charge" and m.box is not None}
+        """An arrow that runs over a labelled atom's charge sign (the sign was set before the
+        arrows were drawn) moves the sign off every arrow of the panel: the sign of the atom whose
+        dots it leaves, or of an atom it passes (the azide's N- under the arrow of the N-N bond
+        that leaves)."""
         pad = _MARK_GAP * self.fs
         paths = None
         for src, c in zip(w.sources, chosen):
-            atom = src.atoms[0]
-            if src.kind != "dots" or atom not in signs:
-                continue
             path = points[c.row].tolist()
-            if _on_path(signs[atom], path, pad):
-                if paths is None:
-                    paths = [point for other in chosen for point in points[other.row].tolist()]
-                self._clear_marks(w.panel, w.marks, atom, pad, [], None, path, paths)
+            # The panel's signs as they stand now: a sign moved for one arrow is looked at anew.
+            # Its own atom's sign keeps a gap from the arrow; another atom's is moved only if the
+            # arrow runs over it.
+            for atom, box in [(m.atom, m.box) for m in w.panel.marks if m.kind == "charge" and m.box is not None]:
+                own = src.kind == "dots" and atom == src.atoms[0]
+                if _on_path(box, path, pad if own else 0.0):
+                    if paths is None:
+                        paths = [point for other in chosen for point in points[other.row].tolist()]
+                    self._clear_marks(w.panel, w.marks, atom, pad, [], None, path, paths)
 
     def _clear_marks(self, panel: PanelStructure, marks: list[Mark], atom: int, pad: float, taken: list[complex],
                      dots: Optional[Box], path: list[complex] = (), paths: list[complex] = ()) -> bool:

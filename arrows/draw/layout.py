@@ -1147,7 +1147,39 @@ class _LayoutBuilder:
         shown = {r.hydrogen for runs in self.residences.values() for r in runs
                  if r.holder in atoms and r.first == k and r.last == k + 1}
         here = (atoms & self.exists[k] & self.exists[k + 1]) | shown
-        return bool(here) and (here <= self.touched[k] or here <= self.joining[k])
+        if not here:
+            return False
+        if here <= self.touched[k]:
+            return True
+        # A part of a joining molecule moves with it, as a rigid body: not while it hangs, by a
+        # bond the step leaves alone, on an atom of the skeleton that stays put (the chlorine of
+        # a Darzens ester whose carbon the ketone bonds to keeps its place).
+        return here <= self.joining[k] and not self._held_by_skeleton(atoms, k)
+
+    def _held_by_skeleton(self, atoms: set[int], k: int) -> bool:
+        """Whether an untouched atom of `atoms` (which carries no other cluster) is bonded, in
+        panels k and k+1, to an atom of the main cluster that is drawn in one place in both (the
+        main cluster is never moved as a whole; a ring redrawn or opened moves its own atoms)."""
+        main = self.clusters[self.main]
+        if any(n not in atoms and n not in main.atoms and self.element[n] != 1
+               and (min(a, n), max(a, n)) in self.bonds_in[k + 1] for a in atoms for n in self.neighbours[a]):
+            return False   # it carries another cluster, which is placed on it afresh: it may turn to make room
+        for a in atoms - self.touched[k]:
+            for n in self.neighbours[a]:
+                pair = (min(a, n), max(a, n))
+                if n in main.atoms and n not in atoms and pair in self.bonds_in[k] and pair in self.bonds_in[k + 1] \
+                        and abs(self._skeleton_at(n, k) - self._skeleton_at(n, k + 1)) < 1e-9:
+                    return True
+        return False
+
+    def _skeleton_at(self, atom: int, k: int) -> complex:
+        """Where the main cluster draws `atom` in panel k, before any ring is opened by a swing."""
+        main = self.clusters[self.main]
+        where = main.local_at(k)[atom]
+        for atoms, first, last, offset in main.openings:
+            if first <= k <= last and atom in atoms:
+                where += offset
+        return where
 
     # placing clusters
     def _segment_of(self, index: int, k: int) -> Optional[tuple[int, int]]:
@@ -1382,6 +1414,9 @@ class _LayoutBuilder:
                   if n in self.positions[k] and n not in depicted and self.element[n] != 1]
         if kind == "bond" and self._linear(anchor, range(k, k + 1)) and len(placed) == 1:
             u = _unit(self.positions[k][anchor] - placed[0])   # straight on through an sp atom
+        second = None
+        if kind == "bond" and not (self._linear(anchor, range(k, k + 1)) and len(placed) == 1):
+            u, second = self._between_partners(anchor, mover, k, depicted, u)
         v = self._joining_side(depicted, mover, u, kind, k)
         if kind == "bond" and self._joins_cis(anchor, mover, u, v, depicted, k):
             # A double bond between the two is drawn trans (below): the chain end bonds on at
@@ -1402,7 +1437,7 @@ class _LayoutBuilder:
         polygons = [[others[a] for a in ring] for kk in range(segment[0], segment[1] + 1)
                     for ring in self._closed_rings(kk) if all(a in others for a in ring)]
         anchor_at = self.positions[k][anchor]
-        near = np.array([q for a, q in others.items() if a != anchor], dtype=complex)
+        near = np.array([q for a, q in others.items() if a != anchor and a != second], dtype=complex)
         options = _BOND_OPTIONS if kind == "bond" else _HOP_OPTIONS
         hydrogen_on_mover = hydrogen is not None and kind == "hop" and self._holder(k, hydrogen) == mover
         # For a hop or a transfer, a spot from which the arrow to the anchor's side crosses no bond is preferred.
@@ -1440,6 +1475,26 @@ class _LayoutBuilder:
         self._apply(index)
         if hydrogen is not None:
             self._promise(hydrogen, anchor, k, direction, leave_after=round_about is not None)
+
+    def _between_partners(self, anchor: int, mover: int, k: int, depicted: dict[int, complex], u: complex
+                          ) -> tuple[complex, Optional[int]]:
+        """The direction from `anchor` in which `mover` also sits one bond length from a second
+        placed atom it is bonded to in panel k (a carbon between the two fragments it is about
+        to fall apart into): where the two unit circles meet, on the side nearer u; and that
+        atom, which the mover may come within a bond length of. (u, None) if there is no such
+        atom or the two are too far apart for both bonds."""
+        here = self.positions[k]
+        seconds = [n for n in sorted(self.neighbours[mover]) if n != anchor and n not in depicted and n in here
+                   and self.element[n] != 1 and (min(n, mover), max(n, mover)) in self.bonds_in[k]]
+        if len(seconds) != 1:
+            return u, None
+        gap = here[seconds[0]] - here[anchor]
+        if not 0.2 < abs(gap) < 1.95:
+            return u, None
+        half = abs(gap) / 2
+        across = _unit(gap) * 1j * math.sqrt(1.0 - half * half)
+        spots = (gap / 2 + across, gap / 2 - across)
+        return _unit(max(spots, key=lambda spot: (spot * u.conjugate()).real)), seconds[0]
 
     def _joining_side(self, depicted: dict[int, complex], mover: int, u: complex, kind: str, k: int,
                       turn: int = 1) -> complex:
@@ -1797,6 +1852,51 @@ class _LayoutBuilder:
         for h, runs in sorted(self.residences.items()):
             for n in range(len(runs)):
                 self._untangle(runs, n)
+        for h in sorted(self.drawn_h - self.bridging):
+            self._turn_from_partner(h)
+
+    def _turn_from_partner(self, h: int) -> None:
+        """A hydrogen passed between two atoms of one cluster (a syn elimination through a
+        five-membered ring) is drawn by the cluster's depiction, where it may sit nearer the atom
+        that takes it than a curved arrow needs to bend: before its hop it is turned about its
+        holder, as little as will do, until it is TRANSFER_GAP - 0.1 from that atom (common
+        practice: the arrow has room), keeping clear of every other atom and bond and of the
+        holder's other bonds. It turns in every panel it sits on that holder, so it keeps its
+        place while the steps before leave it alone."""
+        holders = [(k, self._holder(k, h)) for k in range(self.n) if h in self.positions[k]]
+        for (k, holder), (k_next, partner) in zip(holders, holders[1:]):
+            if k_next != k + 1 or holder is None or partner is None or holder == partner:
+                continue
+            here = self.positions[k]
+            if holder not in here or partner not in here or abs(here[h] - here[partner]) >= TRANSFER_GAP - 0.1:
+                continue
+            if (min(holder, partner), max(holder, partner)) in self.bonds_in[k]:
+                continue   # a 1,2-shift: the hydrogen leans toward the atom it moves to
+            panels = [k]
+            while panels[0] > 0 and self._holder(panels[0] - 1, h) == holder and h in self.positions[panels[0] - 1]:
+                panels.insert(0, panels[0] - 1)
+            centre = here[holder]
+            if any(self.positions[p].get(holder) != centre or self.positions[p].get(partner) != here[partner]
+                   for p in panels):
+                continue   # the holder or the partner moves meanwhile: left as drawn
+            start = here[h] - centre
+            others = [q for p in panels for a, q in self.positions[p].items() if a not in (h, holder)]
+            bonds = [(self.positions[p][i], self.positions[p][j]) for p in panels for i, j in self.bonds_in[p]
+                     if h not in (i, j) and holder not in (i, j) and i in self.positions[p] and j in self.positions[p]]
+            own = [_unit(here[n] - centre) for n in self.neighbours[holder]
+                   if n != h and n in here and (min(n, holder), max(n, holder)) in self.bonds_in[k]]
+            for degrees in (15, -15, 30, -30, 45, -45, 60, -60):
+                d = start * cmath.rect(1.0, math.radians(degrees))
+                spot = centre + d
+                if abs(spot - here[partner]) < TRANSFER_GAP - 0.1:
+                    continue
+                if any(abs(spot - q) < _HYDROGEN_ROOM for q in others) \
+                        or any(abs(cmath.phase(d / b)) < math.radians(35) for b in own) \
+                        or any(_segments_cross(centre, spot, a, b) for a, b in bonds):
+                    continue
+                for p in panels:
+                    self.positions[p][h] = spot
+                break
 
     def _untangle(self, runs: list[_Residence], n: int) -> None:
         """Turn a travelling hydrogen that lands too close to another atom, or far from (or
