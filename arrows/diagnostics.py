@@ -176,7 +176,9 @@ CODES = _table(
          "bonds and change every atom of the ring they close, as in a Nazarov closure; or a sigmatropic "
          "shift drawn from a lone pair, whose ring exists only in the transition state) reports the "
          "rings of the structure after it, without a Baldwin class: "
-         "a Diels-Alder closes one, a Cope or [2,3]-Wittig shift none. A 1,2-shift closes no ring.",
+         "a Diels-Alder closes one, a Cope or [2,3]-Wittig shift none. A 1,2-shift closes no ring. "
+         "Two molecules joined by two new bonds in one step (a bromonium ion, a peracid's epoxide, a "
+         "carbene's cyclopropane) make a ring between them: noted with its size, without a Baldwin class.",
          'C2=C3 -> C3-C7   # an enolate onto a ketone of its own chain: 5-(enolexo)-exo-trig, favoured'),
     Code("AR602", NOTE, "stereocentres",
          "Stereocentres or stereogenic double bonds made or lost in a step, and how many "

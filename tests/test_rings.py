@@ -304,3 +304,32 @@ def test_a_nazarov_closure_is_electrocyclic():
     assert [len(r) for r in trace.final.mol.GetRingInfo().AtomRings()] == [5]
     assert [d.code for d in found] == ["AR601"]
     assert "5-membered ring in a pericyclic step" in found[0].message
+
+
+@pytest.mark.parametrize("name, size", [("bromination", 3), ("epoxidation", 3), ("dichlorocarbene", 3),
+                                        ("ozone cycloaddition", 5), ("wittig", 4)])
+def test_a_ring_made_between_two_molecules_is_noted_once(name, size):
+    """Two molecules joined by two new bonds in one step make a ring (a bromonium ion, a peracid's
+    epoxide, a carbene's cyclopropane, the ozone [3+2] adduct, the Wittig oxaphosphetane): one
+    AR601 note names both bonds and the size, without a Baldwin class (Baldwin's rules judge the
+    closure of one chain). Judge of the size: RDKit's ring perception of the state after the step."""
+    from rdkit import Chem
+    from textbook_mechanisms import TEXTBOOK
+    trace, diags = check_text(TEXTBOOK[name][0])
+    notes = [d for d in diags if d.code == "AR601" and "between two molecules" in d.message]
+    assert len(notes) == 1, [d.to_text() for d in diags]
+    after = Chem.Mol(trace.steps[notes[0].step].after.mol)
+    Chem.FastFindRings(after)
+    formed = trace.steps[notes[0].step].change.formed
+    sizes = {len(r) for r in after.GetRingInfo().AtomRings() if sum(set(b) <= set(r) for b in formed) >= 2}
+    assert sizes == {size}
+    assert f"{size}-membered ring" in notes[0].message and "Baldwin's rules do not apply" in notes[0].message
+
+
+def test_one_new_bond_between_two_molecules_makes_no_ring_note():
+    """An SN2 and a hydroboration (the B-H breaks as C-H forms: no ring after) join molecules
+    without a ring."""
+    from textbook_mechanisms import TEXTBOOK
+    for name in ("sn2 inversion", "hydroboration"):
+        _, diags = check_text(TEXTBOOK[name][0])
+        assert not [d for d in diags if d.code == "AR601"], name

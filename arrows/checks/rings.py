@@ -32,6 +32,7 @@ class StepClosure:
     broken_partner: Optional[int] = None
     onto_cation: bool = False
     loc: Optional[Location] = None      # the arrow that makes the bond
+    between_molecules: bool = False     # two molecules make the ring with two new bonds
 
 
 def closures_in_step(st: StepTrace) -> list[StepClosure]:
@@ -47,14 +48,17 @@ def closures_in_step(st: StepTrace) -> list[StepClosure]:
         path = ring_path(mol, i, j)    # the ring of the transition state, () between two molecules
         cyclic = pericyclic or ((_electrocyclic(st, path) or _sigmatropic(st, i, j, path))
                                 and not _migrates(st, i, j, path))
-        ring = _ring_closed(st, i, j, path, cyclic)
-        if not ring or (cyclic and frozenset(ring) in rings_seen):
-            continue   # no ring in the state after, or a pericyclic ring already counted for another bond
+        # Two molecules joined by two new bonds in one step (a bromonium ion, an epoxide from a
+        # peracid, a carbene's cyclopropane, an ozone [3+2]): the ring of the state after.
+        between = not path and not cyclic and len(st.change.formed) > 1
+        ring = _ring_closed(st, i, j, path, cyclic or between)
+        if not ring or ((cyclic or between) and frozenset(ring) in rings_seen):
+            continue   # no ring in the state after, or one already counted for another bond
         rings_seen.add(frozenset(ring))
         x, y, loc = _nucleophile_and_target(st, i, j)
         ring = ring if ring[0] == x else tuple(reversed(ring))
-        if cyclic:
-            found.append(StepClosure(x, y, ring, None, loc=loc))
+        if cyclic or between:
+            found.append(StepClosure(x, y, ring, None, loc=loc, between_molecules=between))
             continue
         w = _broken_partner(st, x, y)
         z = _enol_partner(st.before, st, x, y)
@@ -188,6 +192,12 @@ class RingClosures(Check):
         where = dict(bonds=((a, b),), step=st.index, atoms=(a, b))
         size = len(c.ring)
         opening = f"{a}-{b} closes a {size}-membered ring"
+        if c.closure is None and c.between_molecules:
+            second = next((f"{label(i)}-{label(j)}" for i, j in st.change.formed
+                           if {i, j} <= set(c.ring) and {i, j} != {c.nucleophile, c.attacked}), "a second new bond")
+            return Diagnostic("AR601", f"{a}-{b} and {second} make a {size}-membered ring between two molecules "
+                              f"(an addition across a bond, not the closure of one chain); Baldwin's rules do "
+                              f"not apply", c.loc or st.step.loc, **where)
         if c.closure is None:
             return Diagnostic("AR601", f"{opening} in a pericyclic step (electrons moving round a cyclic array of atoms); "
                               f"Baldwin's rules do not apply", c.loc or st.step.loc, **where)
