@@ -194,7 +194,7 @@ any_bond = st.builds(lambda a, c, b: f"{a}{c}{b}", atom_texts, st.sampled_from("
 wild_move = st.builds(lambda src, arrow, sink: f"{src} {arrow} {sink}",
                       st.one_of(atom_texts.map(lambda a: ":" + a), atom_texts.map(lambda a: "." + a), any_bond,
                                 atom_texts),
-                      arrows_, st.one_of(atom_texts, any_bond))
+                      arrows_, st.one_of(atom_texts, any_bond, atom_texts.map(lambda a: ":" + a)))
 
 
 def _from_real_bond(bond: tuple[str, str, str]):
