@@ -118,7 +118,7 @@ def _syn_additions(mol: Chem.Mol, new_bonds: dict[Pair, int], bond_before, forme
         if configured and any(mol.GetAtomWithIdx(i).GetChiralTag() != _UNSPECIFIED for i in range(mol.GetNumAtoms())):
             continue
         x, y = formed[a][0], formed[b][0]
-        if x != y and _path(mol, x, y, _CYCLIC_REACH) is None:
+        if x != y and not 0 < len(Chem.GetShortestPath(mol, x, y)) - 1 <= _CYCLIC_REACH:
             continue   # two separate reagents (a termolecular addition, anti): no cyclic arrangement
         out.append((a, b, x, y, *geometry))
     return out
@@ -127,16 +127,24 @@ def _syn_additions(mol: Chem.Mol, new_bonds: dict[Pair, int], bond_before, forme
 _SMALL_RING = 7   # up to here a ring's double bond is cis: RDKit writes no E/Z for it
 
 
+def written_geometry(mol: Chem.Mol, a: int, b: int) -> Optional[tuple[int, int, bool]]:
+    """(neighbour of a, neighbour of b, cis) for a double bond a=b written E or Z, else None. RDKit
+    gives the geometry against one neighbour of each end, the bond's stereo atoms."""
+    bond = mol.GetBondBetweenAtoms(a, b)
+    if bond is None or bond.GetStereo() not in _CIS + _TRANS:
+        return None
+    first, second = bond.GetStereoAtoms()
+    if bond.GetBeginAtomIdx() != a:
+        first, second = second, first
+    return first, second, bond.GetStereo() in _CIS
+
+
 def _double_bond_geometry(mol: Chem.Mol, a: int, b: int, configured: bool) -> Optional[tuple[int, int, bool]]:
     """(neighbour of a, neighbour of b, cis) for the double bond a=b, or None when unknown."""
-    bond = mol.GetBondBetweenAtoms(a, b)
-    stereo = bond.GetStereo() if configured else Chem.BondStereo.STEREONONE
-    if stereo in _CIS + _TRANS:
-        first, second = bond.GetStereoAtoms()
-        if bond.GetBeginAtomIdx() != a:
-            first, second = second, first
-        return first, second, stereo in _CIS
-    path = _path(mol, a, b, _SMALL_RING - 1, around=True)
+    written = written_geometry(mol, a, b) if configured else None
+    if written is not None:
+        return written
+    path = _path_around(mol, a, b, _SMALL_RING - 1)
     if path is None:
         return None
     return path[1], path[-2], True
@@ -145,9 +153,10 @@ def _double_bond_geometry(mol: Chem.Mol, a: int, b: int, configured: bool) -> Op
 _CYCLIC_REACH = 4   # bonds between the two atoms a reagent adds through: a diene's ends are 3 apart
 
 
-def _path(mol: Chem.Mol, a: int, b: int, most_bonds: int, around: bool = False) -> Optional[list[int]]:
-    """The atoms of the shortest path from a to b of at most `most_bonds` bonds; `around`: not
-    through the bond a-b itself (breadth first; a state's ring information may not be set)."""
+def _path_around(mol: Chem.Mol, a: int, b: int, most_bonds: int) -> Optional[list[int]]:
+    """The atoms of the shortest path from a to b of at most `most_bonds` bonds not through the
+    bond a-b itself: the ring it lies in (breadth first; a state's ring information may not be
+    set, and RDKit's shortest path would take the bond)."""
     came_from = {a: a}
     frontier = [a]
     for _ in range(most_bonds):
@@ -155,7 +164,7 @@ def _path(mol: Chem.Mol, a: int, b: int, most_bonds: int, around: bool = False) 
         for atom in frontier:
             for neighbour in mol.GetAtomWithIdx(atom).GetNeighbors():
                 n = neighbour.GetIdx()
-                if n in came_from or (around and atom == a and n == b):
+                if n in came_from or (atom == a and n == b):
                     continue
                 came_from[n] = atom
                 if n == b:

@@ -35,8 +35,9 @@ from textbook_mechanisms import TEXTBOOK
 GALLERY = sorted((Path(__file__).resolve().parents[1] / "gallery").glob("*.mech"))
 
 # Configurations written in a species, and those a syn addition derives (configuration.py).
+STILBENE = {"stilbene (gallery)": (GALLERY[0].parent / "17-stilbene-bromination.mech").read_text(encoding="utf-8")}
 STEREO = ({name: TEXTBOOK[name][0] for name in ("sn2 inversion", "epoxide opening", "bromination", "epoxidation")}
-          | CENTRES | SYN_ADDITIONS | {"stilbene (gallery)": (GALLERY[0].parent / "17-stilbene-bromination.mech").read_text()})
+          | CENTRES | SYN_ADDITIONS | STILBENE)
 
 
 def _states(trace):
@@ -261,8 +262,7 @@ def test_a_configured_double_bond_is_drawn_with_its_geometry(name, style):
             assert drawn_labels(panel, state) == state_labels(state, set(kept)) != {}
 
 
-ADDITIONS_TO_WRITTEN_ALKENES = {**{name: text for name, text in SYN_ADDITIONS.items()},
-                                 "stilbene (gallery)": (GALLERY[0].parent / "17-stilbene-bromination.mech").read_text()}
+ADDITIONS_TO_WRITTEN_ALKENES = SYN_ADDITIONS | STILBENE
 
 
 @pytest.mark.parametrize("name", sorted(ADDITIONS_TO_WRITTEN_ALKENES))

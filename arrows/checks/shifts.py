@@ -9,24 +9,21 @@ from typing import Iterator, Optional
 
 from rdkit import Chem
 
+from ..configuration import written_geometry
 from ..diagnostics import Diagnostic
 from ..trace import StepTrace
 from . import Check
 
-_CIS = (Chem.BondStereo.STEREOZ, Chem.BondStereo.STEREOCIS)
-_TRANS = (Chem.BondStereo.STEREOE, Chem.BondStereo.STEREOTRANS)
-
 
 def trans_across(mol: Chem.Mol, first: int, a: int, b: int, second: int) -> Optional[bool]:
     """Whether `first` (a neighbour of a) and `second` (a neighbour of b) stand trans across the
-    double bond a=b; None when its geometry is not written. RDKit gives the geometry against one
-    neighbour of each end (the bond's stereo atoms); the other neighbour of an end is opposite."""
-    bond = mol.GetBondBetweenAtoms(a, b)
-    if bond is None or bond.GetStereo() not in _CIS + _TRANS:
+    double bond a=b; None when its geometry is not written. The other neighbour of an end than
+    the one the geometry is given against is opposite it."""
+    written = written_geometry(mol, a, b)
+    if written is None:
         return None
-    references = dict(zip((bond.GetBeginAtomIdx(), bond.GetEndAtomIdx()), bond.GetStereoAtoms()))
-    trans = bond.GetStereo() in _TRANS
-    return trans ^ (references[a] != first) ^ (references[b] != second)
+    ref_a, ref_b, cis = written
+    return (not cis) ^ (ref_a != first) ^ (ref_b != second)
 
 
 class MigrationAntiToLeavingGroup(Check):
