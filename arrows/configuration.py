@@ -34,20 +34,19 @@ def has_configuration(mol: Chem.Mol) -> bool:
             or any(mol.GetBondWithIdx(i).GetStereo() != Chem.BondStereo.STEREONONE for i in range(mol.GetNumBonds())))
 
 
-def carry_configuration(before: Chem.Mol, after: Chem.RWMol, new_bonds: dict[Pair, int],
-                        bond_before: Callable[[int, int], int], shifted: Callable[[int, int], bool],
-                        configured: bool) -> bool:
+def carry_configuration(before: Chem.Mol, after: Chem.RWMol, changes: dict[Pair, tuple[int, int]],
+                        shifted: Callable[[int, int], bool], configured: bool) -> bool:
     """Set on `after` (the state after a step, being built) the configuration of every atom whose
-    bonds the step changed. `new_bonds` maps each changed bond to its electrons after the step,
-    `bond_before(i, j)` gives its electrons before; `shifted(atom, leaving)` tells whether `atom`
-    moved with the pair of its bond to `leaving` (a 1,2-shift); `configured`, whether `before`
-    holds any configuration. Returns whether `after` does."""
-    formed, broken, other = _bond_changes(new_bonds, bond_before)
-    syn = _syn_additions(before, new_bonds, bond_before, formed, configured)
+    bonds the step changed. `changes` maps each changed bond to its electrons (before, after the
+    step); `shifted(atom, leaving)` tells whether `atom` moved with the pair of its bond to
+    `leaving` (a 1,2-shift); `configured`, whether `before` holds any configuration. Returns
+    whether `after` does."""
+    formed, broken, other = _bond_changes(changes)
+    syn = _syn_additions(before, changes, formed, configured)
     if not configured and not syn:
         return False
     carried = _substitutions(before, formed, broken, other, shifted) if configured else {}
-    forget_configuration(after, {i for key in new_bonds for i in key} - set(carried))
+    forget_configuration(after, {i for key in changes for i in key} - set(carried))
     for atom, (leaving, entering, invert) in carried.items():
         substitute_configuration(before, after, atom, leaving, entering, invert=invert)
     made = False
@@ -56,16 +55,15 @@ def carry_configuration(before: Chem.Mol, after: Chem.RWMol, new_bonds: dict[Pai
     return configured or made
 
 
-def _bond_changes(new_bonds: dict[Pair, int], bond_before) -> tuple[dict[int, list[int]], dict[int, list[int]], set[int]]:
+def _bond_changes(changes: dict[Pair, tuple[int, int]]) -> tuple[dict[int, list[int]], dict[int, list[int]], set[int]]:
     """Per atom, the single bonds formed and broken; and the atoms at which any other bond changed."""
     formed: dict[int, list[int]] = {}
     broken: dict[int, list[int]] = {}
     other: set[int] = set()
-    for (i, j), electrons in new_bonds.items():
-        before = bond_before(i, j)
-        if (before, electrons) == (0, 2):
+    for (i, j), electrons in changes.items():
+        if electrons == (0, 2):
             kind = formed
-        elif (before, electrons) == (2, 0):
+        elif electrons == (2, 0):
             kind = broken
         else:
             other.update((i, j))
@@ -94,7 +92,7 @@ def _substitutions(mol: Chem.Mol, formed, broken, other, shifted) -> dict[int, t
     return out
 
 
-def _syn_additions(mol: Chem.Mol, new_bonds: dict[Pair, int], bond_before, formed, configured: bool
+def _syn_additions(mol: Chem.Mol, changes: dict[Pair, tuple[int, int]], formed, configured: bool
                    ) -> list[tuple[int, int, int, int, int, int, bool]]:
     """(a, b, x, y, ref_a, ref_b, cis) for each double bond a=b of known geometry that the step
     makes single while a gains one single bond (to x) and b one (to y), nothing else changing at a
@@ -105,12 +103,12 @@ def _syn_additions(mol: Chem.Mol, new_bonds: dict[Pair, int], bond_before, forme
     cyclic arrangement is what holds both on one face. Only in a state with no configured atom:
     then the face the step picks makes no diastereomer of its own."""
     out = []
-    for (a, b), electrons in new_bonds.items():
-        if (bond_before(a, b), electrons) != (4, 2):
+    for (a, b), electrons in changes.items():
+        if electrons != (4, 2):
             continue
         if len(formed.get(a, ())) != 1 or len(formed.get(b, ())) != 1:
             continue
-        if any((a in key or b in key) and key != (a, b) and bond_before(*key) != 0 for key in new_bonds):
+        if any((a in key or b in key) and key != (a, b) and before != 0 for key, (before, _) in changes.items()):
             continue
         geometry = _double_bond_geometry(mol, a, b, configured)
         if geometry is None:

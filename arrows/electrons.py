@@ -9,7 +9,7 @@ through a move.
 from __future__ import annotations
 
 from dataclasses import dataclass, field
-from functools import lru_cache
+from functools import cached_property, lru_cache
 from typing import Optional
 
 from rdkit import Chem
@@ -135,6 +135,12 @@ class ElectronState:
 
     def label(self, i: int) -> str:
         return atom_label(self.mol, i)
+
+    @cached_property
+    def cations(self) -> frozenset[int]:
+        """The atoms with a positive formal charge (none in most states), found once per state."""
+        return frozenset(i for i, (v, n, b) in enumerate(zip(self.valence, self.nonbonding, self.bond_sums))
+                         if v - n - b > 0)
 
     def bond_framework(self) -> frozenset[tuple[int, int, int]]:
         """(i, j, order), i < j, of every bond except those joining a hydrogen to another element,
@@ -308,6 +314,9 @@ class _StepReplay:
         self._hydrogen_choice[parent] = chosen
         return chosen
 
+    def bond_name(self, a: int, b: int) -> str:
+        return f"{self.state.label(a)}-{self.state.label(b)}"
+
     # electrons
     def bond_before(self, i: int, j: int) -> int:
         """Electrons in bond i-j before the step (RDKit bond look-ups are the costly part of a step)."""
@@ -327,7 +336,7 @@ class _StepReplay:
         self.d_nonbonding[i] = self.d_nonbonding.get(i, 0) + n
 
     def change_bond(self, i: int, j: int, n: int, move: Move) -> None:
-        key = pair(i, j)
+        key = (i, j) if i < j else (j, i)
         self.d_bond[key] = self.d_bond.get(key, 0) + n
         self.first_move_on_bond.setdefault(key, move)
 
@@ -365,18 +374,21 @@ class _StepReplay:
             self.detach(move, (a, b), sink)
 
     def check_atom_source(self, move: Move, src, x: int) -> None:
-        nb, label = self.nonbonding(x), _AtomName(self.state, x)
+        nb = self.nonbonding(x)
         if isinstance(src, UnpairedElectron):
             if nb % 2 == 0:
+                label = self.state.label(x)
                 self.fail("AR201", f"{label} has no unpaired electron", src.loc,
                           "a fishhook starts at a radical centre, a lone pair (`:X ~>`) or a bond", atoms=(label,))
                 raise _StepFailed
             if move.electrons == 2:
+                label = self.state.label(x)
                 self.fail("AR209", f"a pair arrow cannot start at the single electron on {label}", move.loc,
                           f"use a fishhook: `.{src.atom} ~> ...`", atoms=(label,))
                 raise _StepFailed
             self.used_unpaired[x] = self.used_unpaired.get(x, 0) + 1
             if self.used_unpaired[x] > 1:
+                label = self.state.label(x)
                 self.fail("AR203", f"the unpaired electron on {label} is used twice in this step", src.loc,
                           "a radical centre has one unpaired electron: one fishhook may start there per step",
                           atoms=(label,))
@@ -384,41 +396,41 @@ class _StepReplay:
             return
         pairs = nb // 2
         if pairs == 0:
-            charge = self.state.formal_charge(x)
+            label, charge = self.state.label(x), self.state.formal_charge(x)
             why = f"{label} has no lone pair" + (f" (it is a cation, formal charge {charge:+d})" if charge > 0 else "")
             self.fail("AR201", why, src.loc, "arrows start at electrons: a lone pair, a bond, or an unpaired electron",
                       atoms=(label,))
             raise _StepFailed
         self.used_lone[x] = self.used_lone.get(x, 0) + move.electrons
         if self.used_lone[x] > 2 * pairs:
+            label = self.state.label(x)
             self.fail("AR203", f"{label} has {pairs} lone pair{'s' if pairs > 1 else ''}; this step uses more",
                       src.loc, "each arrow from a lone pair takes one pair", atoms=(label,))
             raise _StepFailed
 
     def check_bond_source(self, move: Move, src: BondPair, a: int, b: int) -> None:
         have = self.bond_before(a, b)
-        name = _BondName(self.state, a, b)   # spelt out only when a message needs it
         written = src.bond.order
         if have == 0:
-            self.fail("AR201", f"there is no bond {name}", src.loc,
+            self.fail("AR201", f"there is no bond {self.bond_name(a, b)}", src.loc,
                       "check the atom numbers; `arrows trace` shows the bonds of every state",
                       atoms=(self.state.label(a), self.state.label(b)))
             raise _StepFailed
         actual = have // 2
         if written > actual:
-            self.fail("AR202", f"{src.bond} is written {order_word(written)}, but {name} is a {order_word(actual)} bond: "
+            self.fail("AR202", f"{src.bond} is written {order_word(written)}, but {self.bond_name(a, b)} is a {order_word(actual)} bond: "
                       f"there is no {'pi' if written == 2 else 'second pi'} pair to move",
                       src.loc, f"write {_rewrite(src.bond, actual)}, or check the previous step",
                       atoms=(self.state.label(a), self.state.label(b)))
             raise _StepFailed
         if written < actual:
-            self.warn("AR507", f"{src.bond} is written {order_word(written)}, but {name} is {order_word(actual)}",
+            self.warn("AR507", f"{src.bond} is written {order_word(written)}, but {self.bond_name(a, b)} is {order_word(actual)}",
                       src.loc, f"write {_rewrite(src.bond, actual)} so the reader sees which pair moves")
         key = pair(a, b)
         self.used_bond[key] = self.used_bond.get(key, 0) + move.electrons
         if self.used_bond[key] > have:
-            self.fail("AR203", f"the electrons of {name} are used twice in this step", src.loc,
-                      f"{name} holds {actual} pair{'s' if actual > 1 else ''}; each arrow from it takes one",
+            self.fail("AR203", f"the electrons of {self.bond_name(a, b)} are used twice in this step", src.loc,
+                      f"{self.bond_name(a, b)} holds {actual} pair{'s' if actual > 1 else ''}; each arrow from it takes one",
                       atoms=(self.state.label(a), self.state.label(b)))
             raise _StepFailed
 
@@ -492,26 +504,6 @@ class _StepReplay:
         self.resolved.append(ResolvedMove(move, "bond", (a, b), (pivot, other), n))
 
 
-class _AtomName:
-    """`C7` for a message, spelt out only if a message uses it."""
-
-    def __init__(self, state: ElectronState, i: int):
-        self.state, self.i = state, i
-
-    def __str__(self) -> str:
-        return self.state.label(self.i)
-
-
-class _BondName:
-    """`C3-C7` for a message, spelt out only if a message uses it (labels cost time on every step)."""
-
-    def __init__(self, state: ElectronState, a: int, b: int):
-        self.state, self.a, self.b = state, a, b
-
-    def __str__(self) -> str:
-        return f"{self.state.label(self.a)}-{self.state.label(self.b)}"
-
-
 def _no_shared_atom_hint(move: Move, sink: BondRef, hydrogen_moves: bool) -> str:
     """The hint of AR207. A hydrogen that moves with its pair (a hydride shift) keeps the name of
     the atom it leaves: `C2-H -> C5-H(C2)`, not `C5-H`, which is a hydrogen already on C5."""
@@ -549,46 +541,25 @@ def _settle(state: ElectronState, step: Step, step_index: int, replay: _StepRepl
             change: StepChange) -> tuple[Optional[ElectronState], StepChange, list[Diagnostic]]:
     """Turn the summed electron changes into the next state, checking it is a molecule."""
     diags = replay.diagnostics
-    mol = state.mol
-    new_bonds: dict[Pair, int] = {}
+    changes: dict[Pair, tuple[int, int]] = {}    # bond -> (electrons before, after)
     for key, delta in replay.d_bond.items():
         if delta == 0:
             continue
         before = replay.bond_before(*key)
         after = before + delta
-        new_bonds[key] = after
+        changes[key] = (before, after)
         if after % 2 == 0 and after <= 6 and (step.kind != "resonance" or (before == 0) == (after == 0)):
             continue   # the common case: nothing to report
-        label = _BondName(state, *key)
-        loc = replay.first_move_on_bond[key].loc
-        if after % 2:
-            hint = "a bond made from single electrons needs a fishhook from each partner in the same step"
-            first = replay.first_move_on_bond[key]
-            if before == 0 and after == 1 and isinstance(first.sink, AtomSink):
-                # One fishhook from an atom to another: perhaps an electron handed over, no bond meant.
-                hint += f"; to hand the electron over with no bond, end the arrow at :{first.sink.atom}"
-            diags.append(Diagnostic("AR303", f"the bond {label} is left with {after} electron{'s' if after > 1 else ''}",
-                                    loc, hint, bonds=((state.label(key[0]), state.label(key[1])),),
-                                    step=step_index))
-        elif after > 6:
-            diags.append(Diagnostic("AR302", f"the bond {label} would be of order {after // 2}", loc,
-                                    "no bond is more than triple", bonds=((state.label(key[0]), state.label(key[1])),),
-                                    step=step_index))
-        if step.kind == "resonance" and (before == 0) != (after == 0):
-            what = "made" if before == 0 else "broken"
-            diags.append(Diagnostic("AR305", f"the sigma bond {label} is {what} in a resonance step", loc,
-                                    "resonance moves only pi electrons and lone pairs; for a real reaction drop "
-                                    "`resonance` from the step", bonds=((state.label(key[0]), state.label(key[1])),),
-                                    step=step_index))
+        diags.extend(_bond_faults(state, step, step_index, replay, key, before, after))
     for key, written, loc, text in replay.written_sinks:
-        actual = (new_bonds[key] if key in new_bonds else replay.bond_before(*key)) // 2
+        actual = (changes[key][1] if key in changes else replay.bond_before(*key)) // 2
         if actual != written and not any(d.code in ("AR303", "AR302") for d in diags):
             diags.append(Diagnostic("AR208", f"{text} says the bond will be {order_word(written)}; "
                                     f"after this step it is {order_word(actual)}", loc,
                                     f"write the bond as it is after the step"
                                     f"{': ' + CONNECTORS[actual] if actual in CONNECTORS else ''}",
                                     bonds=((state.label(key[0]), state.label(key[1])),), step=step_index))
-    if any(d.severity == "error" for d in diags):
+    if diags and any(d.severity == "error" for d in diags):
         return None, change, diags
 
     nonbonding = list(state.nonbonding)
@@ -596,9 +567,8 @@ def _settle(state: ElectronState, step: Step, step_index: int, replay: _StepRepl
         nonbonding[i] += delta
     bond_sums = list(state.bond_sums)
 
-    work = Chem.RWMol(mol)   # kept as the state's Mol: a copy to a read-only Mol would buy nothing
-    for (i, j), electrons in new_bonds.items():
-        before = replay.bond_before(i, j)
+    work = Chem.RWMol(state.mol)   # kept as the state's Mol: a copy to a read-only Mol would buy nothing
+    for (i, j), (before, electrons) in changes.items():
         bond_sums[i] += (electrons - before) // 2
         bond_sums[j] += (electrons - before) // 2
         if electrons == 0:
@@ -611,39 +581,30 @@ def _settle(state: ElectronState, step: Step, step_index: int, replay: _StepRepl
             work.GetBondBetweenAtoms(i, j).SetBondType(_BOND_TYPES[electrons // 2])
             change.reordered.append(((i, j), before // 2, electrons // 2))
 
-    touched = sorted(set(replay.d_nonbonding) | {i for key in new_bonds for i in key})
+    touched = sorted(set(replay.d_nonbonding).union(*changes))
     change.touched_atoms = touched
     configured = state.configured
     # A double bond made single may be one a syn addition configures (a ring's C=C is cis unwritten).
-    if configured or any(e == 2 and replay.bond_before(*key) == 4 for key, e in new_bonds.items()):
+    if configured or (4, 2) in changes.values():
         def shifted(atom: int, leaving: int) -> bool:
             return any(m.source_kind == "bond" and set(m.source_atoms) == {atom, leaving} and atom in m.sink_atoms
                        for m in replay.resolved)
-        configured = carry_configuration(state.mol, work, new_bonds, replay.bond_before, shifted, configured)
-    valence, elements, old_nonbonding = state.valence, state.elements, state.nonbonding
+        configured = carry_configuration(state.mol, work, changes, shifted, configured)
+    valence, elements, old_nonbonding, old_bond_sums = state.valence, state.elements, state.nonbonding, state.bond_sums
+    shells = change.shells
     for i in touched:
-        bonds = bond_sums[i]
-        charge = valence[i] - nonbonding[i] - bonds
-        old_charge = valence[i] - old_nonbonding[i] - state.bond_sums[i]
+        bonds, electrons = bond_sums[i], nonbonding[i]
+        charge = valence[i] - electrons - bonds
+        old_charge = valence[i] - old_nonbonding[i] - old_bond_sums[i]
         if charge != old_charge:
             change.charges.append((i, old_charge, charge))
             work.GetAtomWithIdx(i).SetFormalCharge(charge)
-        if nonbonding[i] % 2 != old_nonbonding[i] % 2:
-            work.GetAtomWithIdx(i).SetNumRadicalElectrons(nonbonding[i] % 2)
-        shell = nonbonding[i] + 2 * bonds
-        change.shells[i] = shell
-        z = elements[i]
-        limit = 2 if z <= 2 else 8
-        if shell > limit and z <= 10:
-            label = state.label(i)
-            loc = _first_move_touching(step, replay, i)
-            diags.append(Diagnostic("AR301", f"{label} would hold {shell} valence electrons "
-                                    f"({bonds} bond{'s' if bonds != 1 else ''}"
-                                    f"{f', {nonbonding[i] // 2} lone pair(s)' if nonbonding[i] >= 2 else ''}); "
-                                    f"the limit is {limit}",
-                                    loc, "a bond to this atom must break in the same step (for example C=O -> O)",
-                                    atoms=(label,), step=step_index))
-    if any(d.severity == "error" for d in diags):
+        if electrons % 2 != old_nonbonding[i] % 2:
+            work.GetAtomWithIdx(i).SetNumRadicalElectrons(electrons % 2)
+        shell = shells[i] = electrons + 2 * bonds
+        if shell > 8 or (shell > 2 and elements[i] <= 2):
+            diags.extend(_overfull_shell(state, step, step_index, replay, i, shell, bonds, electrons))
+    if diags and any(d.severity == "error" for d in diags):
         return None, change, diags
     try:   # RDKit's own log of a failure is silenced by the caller (trace.replay); the message is in exc
         Chem.SanitizeMol(work, _STATE_SANITIZE)
@@ -653,19 +614,61 @@ def _settle(state: ElectronState, step: Step, step_index: int, replay: _StepRepl
                                 "check charges and bond orders with `arrows trace`", step=step_index))
         return None, change, diags
     return (ElectronState(work, tuple(nonbonding), state.released, valence, tuple(bond_sums), elements,
-                          configured, _next_framework(state, new_bonds, replay)), change, diags)
+                          configured, _next_framework(state, changes)), change, diags)
 
 
-def _next_framework(state: ElectronState, new_bonds: dict[Pair, int], replay: _StepReplay):
+def _bond_faults(state: ElectronState, step: Step, step_index: int, replay: _StepReplay, key: Pair,
+                 before: int, after: int) -> list[Diagnostic]:
+    """AR303 (an odd electron count), AR302 (beyond triple), AR305 (a sigma bond made or broken in
+    a resonance step) for one bond the step changes."""
+    found = []
+    label = f"{state.label(key[0])}-{state.label(key[1])}"
+    first = replay.first_move_on_bond[key]
+    bonds = ((state.label(key[0]), state.label(key[1])),)
+    if after % 2:
+        hint = "a bond made from single electrons needs a fishhook from each partner in the same step"
+        if before == 0 and after == 1 and isinstance(first.sink, AtomSink):
+            # One fishhook from an atom to another: perhaps an electron handed over, no bond meant.
+            hint += f"; to hand the electron over with no bond, end the arrow at :{first.sink.atom}"
+        found.append(Diagnostic("AR303", f"the bond {label} is left with {after} electron{'s' if after > 1 else ''}",
+                                first.loc, hint, bonds=bonds, step=step_index))
+    elif after > 6:
+        found.append(Diagnostic("AR302", f"the bond {label} would be of order {after // 2}", first.loc,
+                                "no bond is more than triple", bonds=bonds, step=step_index))
+    if step.kind == "resonance" and (before == 0) != (after == 0):
+        what = "made" if before == 0 else "broken"
+        found.append(Diagnostic("AR305", f"the sigma bond {label} is {what} in a resonance step", first.loc,
+                                "resonance moves only pi electrons and lone pairs; for a real reaction drop "
+                                "`resonance` from the step", bonds=bonds, step=step_index))
+    return found
+
+
+def _overfull_shell(state: ElectronState, step: Step, step_index: int, replay: _StepReplay, i: int, shell: int,
+                    bonds: int, nonbonding: int) -> list[Diagnostic]:
+    """AR301 for an atom of the first two periods with more valence electrons than its shell holds
+    (2 for H and He, 8 for Li to Ne); heavier atoms may expand their octet."""
+    z = state.elements[i]
+    limit = 2 if z <= 2 else 8
+    if shell <= limit or z > 10:
+        return []
+    label = state.label(i)
+    return [Diagnostic("AR301", f"{label} would hold {shell} valence electrons "
+                       f"({bonds} bond{'s' if bonds != 1 else ''}"
+                       f"{f', {nonbonding // 2} lone pair(s)' if nonbonding >= 2 else ''}); the limit is {limit}",
+                       _first_move_touching(step, replay, i),
+                       "a bond to this atom must break in the same step (for example C=O -> O)",
+                       atoms=(label,), step=step_index)]
+
+
+def _next_framework(state: ElectronState, changes: dict[Pair, tuple[int, int]]):
     """The bond framework after a step, from the one before (None when nobody asked for it)."""
     if state.framework is None:
         return None
     elements = state.elements
     removed, added = [], []
-    for (i, j), electrons in new_bonds.items():
+    for (i, j), (before, electrons) in changes.items():
         if (elements[i] == 1) != (elements[j] == 1):
             continue
-        before = replay.bond_before(i, j)
         if before:
             removed.append((i, j, before // 2))
         if electrons:

@@ -61,23 +61,15 @@ def hydrogen_parents_and_entries(mechanism: Mechanism) -> tuple[set[int], list[t
     hydrogens become explicit atoms), and the species that steps bring in with `uses`."""
     parents: set[int] = set()
     entries: list[tuple[int, Species]] = []
-
-    def visit(ref) -> None:
-        if isinstance(ref, HydrogenOn):
-            parents.add(ref.parent.map_number)
-
     for index, step in enumerate(mechanism.steps):
         entries.extend((index, s) for s in step.uses)
         for move in step.moves:
             src, sink = move.source, move.sink
-            if isinstance(src, BondPair):
-                visit(src.bond.first), visit(src.bond.second)
-            else:
-                visit(src.atom)
-            if isinstance(sink, BondSink):
-                visit(sink.bond.first), visit(sink.bond.second)
-            else:
-                visit(sink.atom)
+            named = (src.bond.first, src.bond.second) if isinstance(src, BondPair) else (src.atom,)
+            named += (sink.bond.first, sink.bond.second) if isinstance(sink, BondSink) else (sink.atom,)
+            for ref in named:
+                if isinstance(ref, HydrogenOn):
+                    parents.add(ref.parent.map_number)
     return parents, entries
 
 

@@ -112,13 +112,14 @@ def _next_to_cation(state, atom: int) -> bool:
     resonance form: the carbon of C=O+ (a protonated carbonyl) or C=N+ (an iminium), whose
     alpha C-H is far more acidic than the neutral carbonyl's (acid-catalysed enolisation,
     enamine formation; common practice)."""
-    if not any(v - n - b > 0 for v, n, b in zip(state.valence, state.nonbonding, state.bond_sums)):
+    cations = state.cations
+    if not cations:
         return False   # no cation anywhere (most states): the neighbours need not be read off the Mol
     for n in state.mol.GetAtomWithIdx(atom).GetNeighbors():
         i = n.GetIdx()
-        if state.formal_charge(i) > 0 and state.nonbonding[i] == 0:
+        if i in cations and state.nonbonding[i] == 0:
             return True
-        if any(b.GetBondType() == Chem.BondType.DOUBLE and state.formal_charge(b.GetOtherAtomIdx(i)) > 0
+        if any(b.GetBondType() == Chem.BondType.DOUBLE and b.GetOtherAtomIdx(i) in cations
                for b in n.GetBonds()):
             return True
     return False
