@@ -10,7 +10,12 @@ except in the steps whose stereochemical course is a textbook rule:
   hydroboration, a carbene, the dienophile of a Diels-Alder, adds both new bonds on one face
   (suprafacial, syn), and the two new stereocentres get the relative configuration that follows.
   With no other configuration in the state the two faces are alike, so the product is the
-  racemate of the configuration drawn (a meso compound where the two centres mirror each other).
+  racemate of the configuration drawn (a meso compound where the two centres mirror each other);
+- a concerted elimination across two configured centres (E2, or iodide taking bromine from a
+  vicinal dibromide) breaks the two bonds anti-periplanar, and the new double bond gets the
+  geometry that follows; when the atom that takes the first group is joined to the second (the
+  oxide of a Cope elimination, the carbonyl oxygen of an ester pyrolysis) the two leave from one
+  side, syn-periplanar, through a cyclic transition state.
 """
 from __future__ import annotations
 
@@ -52,6 +57,9 @@ def carry_configuration(before: Chem.Mol, after: Chem.RWMol, changes: dict[Pair,
     made = False
     for addition in syn:
         made |= _set_syn_configuration(before, after, *addition)
+    if configured:
+        for elimination in _eliminations(before, changes, formed, broken):
+            _set_elimination_geometry(before, after, *elimination)
     return configured or made
 
 
@@ -191,23 +199,127 @@ def _set_syn_configuration(before: Chem.Mol, after: Chem.RWMol, a: int, b: int, 
     if set(new) & set(place):
         return False   # a partner already beside the double bond: not a plain addition to one face
     place.update(new)
-    model = Chem.Mol(after)
-    conformer = Chem.Conformer(model.GetNumAtoms())
-    for i, (px, py, pz) in place.items():
-        conformer.SetAtomPosition(i, (px, py, pz))
-    model.RemoveAllConformers()
-    model.AddConformer(conformer, assignId=True)
-    try:
-        model.UpdatePropertyCache(strict=False)
-        Chem.AssignStereochemistryFrom3D(model, replaceExistingTags=True)
-    except Exception:   # RDKit cannot perceive an odd intermediate: the centres stay unconfigured
-        return False
+    model = _model(after, place)
+    if model is None:
+        return False   # RDKit cannot perceive an odd intermediate: the centres stay unconfigured
     tags = [model.GetAtomWithIdx(end).GetChiralTag() for end in (a, b)]
     if _UNSPECIFIED in tags:
         return False   # RDKit finds no stereocentre there (two equal groups)
     for end, tag in zip((a, b), tags):
         after.GetAtomWithIdx(end).SetChiralTag(tag)
     return True
+
+
+def _eliminations(mol: Chem.Mol, changes: dict[Pair, tuple[int, int]], formed, broken
+                  ) -> list[tuple[int, int, int, int, bool]]:
+    """(a, b, p, q, syn) for each single bond a-b that the step makes double while a loses one
+    single bond (to p) and b one (to q), nothing else changing at a or b, both a and b configured:
+    a concerted 1,2-elimination. `syn` when the atom that takes p is joined to q within three
+    bonds, not through b (the leaving group takes the hydrogen itself)."""
+    out = []
+    for (a, b), electrons in changes.items():
+        if electrons != (2, 4) or len(broken.get(a, ())) != 1 or len(broken.get(b, ())) != 1:
+            continue
+        p, q = broken[a][0], broken[b][0]
+        if p == q or any(set(key) & {a, b} and key not in ((a, b), _pair(a, p), _pair(b, q)) for key in changes):
+            continue
+        if mol.GetAtomWithIdx(a).GetChiralTag() not in _TETRAHEDRAL or mol.GetAtomWithIdx(b).GetChiralTag() not in _TETRAHEDRAL:
+            continue
+        takers = formed.get(p, [])
+        if len(takers) != 1:
+            continue   # no atom (or several) takes p: not an elimination we can place
+        out.append((a, b, p, q, _joined_apart_from(mol, takers[0], q, b, 3)))
+    return out
+
+
+def _pair(i: int, j: int) -> Pair:
+    return (i, j) if i < j else (j, i)
+
+
+def _joined_apart_from(mol: Chem.Mol, start: int, goal: int, avoid: int, most_bonds: int) -> bool:
+    """Whether `start` reaches `goal` in at most `most_bonds` bonds without passing `avoid`."""
+    seen, frontier = {start, avoid}, [start]
+    for _ in range(most_bonds):
+        following = []
+        for atom in frontier:
+            for neighbour in mol.GetAtomWithIdx(atom).GetNeighbors():
+                n = neighbour.GetIdx()
+                if n == goal:
+                    return True
+                if n not in seen:
+                    seen.add(n)
+                    following.append(n)
+        frontier = following
+    return start == goal
+
+
+# A Newman projection along a -> b (x axis) of the eliminating bond, as coordinates: p on a points
+# up (+z); q on b points down (anti) or up (syn); the other groups stand 120 degrees round.
+_P = (-0.5, 0.0, 1.0)
+_BESIDE_P = ((-0.5, -0.866, -0.5), (-0.5, 0.866, -0.5))
+_Q_ANTI, _BESIDE_Q_ANTI = (2.0, 0.0, -1.0), ((2.0, 0.866, 0.5), (2.0, -0.866, 0.5))
+_Q_SYN, _BESIDE_Q_SYN = (2.0, 0.0, 1.0), ((2.0, -0.866, -0.5), (2.0, 0.866, -0.5))
+
+
+def _set_elimination_geometry(before: Chem.Mol, after: Chem.RWMol, a: int, b: int, p: int, q: int,
+                              syn: bool) -> bool:
+    """E/Z on the new double bond a=b of an elimination of p (from a) and q (from b), periplanar
+    anti or syn. The groups of a and b are placed round the bond so that RDKit reads the written
+    tags back off the model (AssignStereochemistryFrom3D); then, p and q gone, the groups fall
+    into the plane of the double bond, and RDKit reads its geometry off that second model. No
+    convention of tag and bond order is ours. Returns whether the bond got one."""
+    q_at, beside_q = (_Q_SYN, _BESIDE_Q_SYN) if syn else (_Q_ANTI, _BESIDE_Q_ANTI)
+    groups = {end: [n.GetIdx() for n in before.GetAtomWithIdx(end).GetNeighbors() if n.GetIdx() not in (a, b, p, q)]
+              for end in (a, b)}
+    slots = {a: _BESIDE_P, b: beside_q}
+    place = {a: (0.0, 0.0, 0.0), b: (1.5, 0.0, 0.0), p: _P, q: q_at}
+    for end in (a, b):
+        place.update(zip(groups[end], slots[end]))
+    read = _tags_read_off(before, place, (a, b))
+    if read is None:
+        return False
+    for end, tag in zip((a, b), read):
+        if tag != before.GetAtomWithIdx(end).GetChiralTag():   # the mirror image: the end's two slots swap
+            place.update(zip(groups[end], slots[end][::-1]))
+    flat = {i: (x, y, 0.0) for i, (x, y, _) in place.items() if i not in (p, q)}
+    model = _model(after, flat)
+    if model is None:
+        return False
+    bond = model.GetBondBetweenAtoms(a, b)
+    stereo = bond.GetStereo()
+    if stereo not in _CIS + _TRANS:
+        return False   # two equal groups at one end: no E or Z
+    target = after.GetBondBetweenAtoms(a, b)
+    target.SetStereoAtoms(*bond.GetStereoAtoms())
+    # Held as cis or trans to the stereo atoms, which stays true whatever RDKit ranks them later.
+    target.SetStereo(Chem.BondStereo.STEREOCIS if stereo in _CIS else Chem.BondStereo.STEREOTRANS)
+    Chem.SetDoubleBondNeighborDirections(after)   # the / and \\ that SMILES writes the geometry with
+    return True
+
+
+def _tags_read_off(mol: Chem.Mol, place: dict[int, tuple[float, float, float]], atoms) -> Optional[list]:
+    model = _model(mol, place)
+    if model is None:
+        return None
+    tags = [model.GetAtomWithIdx(i).GetChiralTag() for i in atoms]
+    return None if _UNSPECIFIED in tags else tags
+
+
+def _model(mol: Chem.Mol, place: dict[int, tuple[float, float, float]]) -> Optional[Chem.Mol]:
+    """A copy of `mol` with the atoms of `place` at those coordinates (the rest at the origin), its
+    stereo read off them by RDKit; None when RDKit cannot perceive it."""
+    model = Chem.Mol(mol)
+    conformer = Chem.Conformer(model.GetNumAtoms())
+    for i, xyz in place.items():
+        conformer.SetAtomPosition(i, xyz)
+    model.RemoveAllConformers()
+    model.AddConformer(conformer, assignId=True)
+    try:
+        model.UpdatePropertyCache(strict=False)
+        Chem.AssignStereochemistryFrom3D(model, replaceExistingTags=True)
+    except Exception:   # an odd intermediate RDKit cannot perceive
+        return None
+    return model
 
 
 def forget_configuration(mol: Chem.RWMol, atoms: Iterable[int]) -> None:

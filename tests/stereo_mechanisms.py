@@ -54,3 +54,13 @@ DOUBLE_BONDS = {
     "Z with a centre": 'species alkene = "C/C=C\\\\[C@@H](C)[CH2:1][Br:2]"\nspecies base = "[OH-:3]"\n'
                        'step "sn2"\n    :O3 -> C1\n    C1-Br2 -> Br2\nend\n',
 }
+
+# Concerted eliminations across two configured centres (demo data): the two diastereomers of
+# 3-phenylbutan-2-yl bromide with hydroxide (E2, anti-periplanar) and of its dimethylamine oxide
+# (Cope elimination, syn-periplanar). Format with the configured C2, "[C@@H:2]" or "[C@H:2]".
+E2 = ('species substrate = "[CH3:5][C@@H:1](c1ccccc1){}([CH3:6])[Br:3]"\nspecies base = "[OH-:4]"\n'
+      'step "E2"\n    :O4 -> H(C1)\n    C1-H -> C1=C2\n    C2-Br3 -> Br3\nend\n')
+COPE = ('species oxide = "[CH3:5][C@@H:1](c1ccccc1){}([CH3:6])[N+:3](C)(C)[O-:4]"\n'
+        'step "Cope elimination"\n    :O4 -> H(C1)\n    C1-H -> C1=C2\n    C2-N3 -> N3\nend\n')
+ELIMINATIONS = {f"{kind} {centre}": text.format(centre)
+                for kind, text in (("E2", E2), ("Cope", COPE)) for centre in ("[C@@H:2]", "[C@H:2]")}

@@ -21,6 +21,7 @@ from arrows.checks.stereo import final_stereo, step_stereo
 from arrows.cli import cli
 from arrows.judgement.stereo import CENTRE, DOUBLE_BOND, _mirror, relation, stereo_elements
 
+from stereo_mechanisms import COPE, E2
 from textbook_mechanisms import BAEYER_VILLIGER_RETENTION, NITRATION, SNAR
 
 GALLERY = sorted((Path(__file__).resolve().parent.parent / "gallery").glob("*.mech"))
@@ -215,6 +216,16 @@ def test_trace_stereo_says_when_the_configured_product_is_a_racemate(tmp_path, n
     out = CliRunner().invoke(cli, ["trace", "--stereo", str(path)]).output
     assert "one stereoisomer, as the steps configure it" in out
     assert ("formed as the racemate" in out) == racemate
+    assert "with no stereocontrol" not in out
+
+
+def test_trace_stereo_says_an_eliminations_alkene_is_one_stereoisomer(tmp_path):
+    """The alkene of an E2 across two configured centres has one geometry (textbook: E2 is
+    stereospecific), so `trace --stereo` counts one stereoisomer, not the two of free E/Z."""
+    path = tmp_path / "e2.mech"
+    path.write_text(E2.format("[C@@H:2]"), encoding="utf-8")
+    out = CliRunner().invoke(cli, ["trace", "--stereo", str(path)]).output
+    assert "one stereoisomer, as the steps configure it" in out
     assert "with no stereocontrol" not in out
 
 
@@ -524,6 +535,82 @@ def test_no_syn_configuration_beside_a_stereocentre():
     tags = [trace.final.mol.GetAtomWithIdx(i).GetChiralTag() for i in (4, 5)]
     assert all(t == Chem.ChiralType.CHI_UNSPECIFIED for t in tags), tags
     assert not any("configured by the step" in d.message for d in diags)
+
+
+def _periplanar(smiles: str, dihedral: float) -> str:
+    """'cis' or 'trans': the methyls mapped 5 (on C1) and 6 (on C2) after C1 loses its hydrogen and
+    C2 its group mapped 3, the two leaving with the dihedral angle H-C1-C2-X3 given (180 anti, 0
+    syn). Judge: an RDKit 3D model (ETKDG, fixed seed) of the configured reactant, turned about
+    C1-C2 to that angle; the methyls keep their dihedral as the two carbons flatten (common practice:
+    the Newman projection of a periplanar elimination)."""
+    from rdkit.Chem import rdMolTransforms
+    mol = Chem.AddHs(Chem.MolFromSmiles(smiles))
+    at = {a.GetAtomMapNum(): a.GetIdx() for a in mol.GetAtoms() if a.GetAtomMapNum()}
+    assert AllChem.EmbedMolecule(mol, randomSeed=7) == 0
+    hydrogen = next(n.GetIdx() for n in mol.GetAtomWithIdx(at[1]).GetNeighbors() if n.GetAtomicNum() == 1)
+    conformer = mol.GetConformer()
+    rdMolTransforms.SetDihedralDeg(conformer, hydrogen, at[1], at[2], at[3], dihedral)
+    return "cis" if abs(rdMolTransforms.GetDihedralDeg(conformer, at[5], at[1], at[2], at[6])) < 90 else "trans"
+
+
+def _alkene_geometry(state) -> str:
+    """'cis' or 'trans' for the methyls mapped 5 and 6 across the double bond C1=C2 of a derived
+    state. Judge: an RDKit 3D model (ETKDG) of the state's SMILES, maps kept."""
+    from rdkit.Chem import rdMolTransforms
+    work = Chem.RWMol(state.mol)
+    Chem.SanitizeMol(work)
+    piece = next(f for f in Chem.GetMolFrags(Chem.RemoveHs(work), asMols=True)
+                 if {a.GetAtomMapNum() for a in f.GetAtoms()} >= {1, 2, 5, 6})
+    mol = Chem.AddHs(Chem.MolFromSmiles(Chem.MolToSmiles(piece)))
+    at = {a.GetAtomMapNum(): a.GetIdx() for a in mol.GetAtoms() if a.GetAtomMapNum()}
+    assert AllChem.EmbedMolecule(mol, randomSeed=7) == 0
+    return "cis" if abs(rdMolTransforms.GetDihedralDeg(mol.GetConformer(), at[5], at[1], at[2], at[6])) < 90 else "trans"
+
+
+@pytest.mark.parametrize("text, dihedral", [(E2, 180.0), (COPE, 0.0)], ids=["E2 anti", "Cope syn"])
+@pytest.mark.parametrize("centre", ["[C@@H:2]", "[C@H:2]"])
+def test_a_concerted_elimination_sets_the_alkene_geometry(text, dihedral, centre):
+    """Textbook: E2 is stereospecific, the hydrogen and the leaving group anti-periplanar; the Cope
+    elimination is syn, the oxide taking the hydrogen on its own side through a five-membered ring.
+    So the two diastereomers of 3-phenylbutan-2-yl bromide (or its dimethylamine oxide) give the
+    two geometries of 2-phenylbut-2-ene, and one diastereomer gives opposite ones by the two
+    routes. Judge: RDKit 3D models of the reactant turned to the periplanar arrangement and of
+    the derived alkene."""
+    trace, diags = check_text(text.format(centre))
+    assert [d.to_text() for d in diags if d.severity == "error"] == []
+    assert _alkene_geometry(trace.final) == _periplanar(text.format(centre).split('"')[1], dihedral)
+    assert any("geometry set by the step" in d.message for d in diags if d.code == "AR602")
+    assert not any("stereoisomers can form" in d.message for d in diags)
+
+
+@pytest.mark.parametrize("dibromide, alkene", [("[C@@H:2]", "trans"), ("[C@H:2]", "cis")])
+def test_iodide_takes_bromine_from_a_vicinal_dibromide_anti(dibromide, alkene):
+    """Textbook: iodide removes Br2 from a vicinal dibromide anti-periplanar, so meso-2,3-
+    dibromobutane gives (E)-but-2-ene and the racemic (chiral) one (Z)-but-2-ene. (With the two
+    bromines anti, the meso compound's methyls are anti too: it has a centre of symmetry.) Judges:
+    RDKit's canonical SMILES tells the meso isomer (its own mirror image), and an RDKit 3D model
+    gives the alkene's geometry."""
+    substrate = f"[CH3:5][C@H:1]([Br:7]){dibromide}([CH3:6])[Br:3]"
+    plain = Chem.MolFromSmiles(substrate)
+    for atom in plain.GetAtoms():
+        atom.SetAtomMapNum(0)
+    meso = Chem.MolToSmiles(plain) == Chem.MolToSmiles(_mirror(plain))
+    assert meso == (alkene == "trans")
+    text = (f'species dibromide = "{substrate}"\nspecies iodide = "[I-:4]"\n'
+            'step "anti elimination"\n    :I4 -> Br7\n    C1-Br7 -> C1=C2\n    C2-Br3 -> Br3\nend\n')
+    trace, diags = check_text(text)
+    assert [d.to_text() for d in diags if d.severity == "error"] == []
+    assert not any("stereoisomers can form" in d.message for d in diags)   # the geometry is set
+    assert _alkene_geometry(trace.final) == alkene
+
+
+def test_an_elimination_from_one_configured_centre_leaves_the_geometry_open():
+    """With only the carbon that keeps its hydrogen configured, which conformer eliminates (so
+    which alkene forms) is not fixed by the bookkeeping: both geometries stay open."""
+    trace, diags = check_text(E2.format("[CH:2]"))
+    assert [d.to_text() for d in diags if d.severity == "error"] == []
+    assert any("2 stereoisomers can form" in d.message for d in diags)
+    assert not any("geometry set by the step" in d.message for d in diags)
 
 
 # 3-methylpentan-2-one and hydroxide: the C3 enolate forms and takes its proton back, twice. Demo

@@ -60,14 +60,21 @@ def product_stereo(final: Optional[ElectronState], touched: set[int], views: Opt
         position = {old: new for new, old in enumerate(sorted(indices))}
         # A touched atom is free to take either configuration unless the replay carried one
         # through the step (a backside substitution inverts the written one, a 1,2-shift keeps it).
-        uncontrolled = [position[i] for i in touched if i in position
-                        and final.mol.GetAtomWithIdx(i).GetChiralTag() == Chem.ChiralType.CHI_UNSPECIFIED]
+        # So does a double bond whose geometry a concerted elimination set.
+        uncontrolled = [position[i] for i in touched if i in position and not _configured_at(final.mol, i)]
         piece = fragment(final.mol, indices)
         count = stereoisomer_count(piece, uncontrolled)
         if several_only and (count or 0) <= 1:
             continue
         out.append(ProductStereo(canonical(piece), mine, count))
     return out
+
+
+def _configured_at(mol: Chem.Mol, i: int) -> bool:
+    """Whether atom i carries a chiral tag or ends a double bond of set geometry."""
+    atom = mol.GetAtomWithIdx(i)
+    return atom.GetChiralTag() != Chem.ChiralType.CHI_UNSPECIFIED or any(
+        b.GetStereo() != Chem.BondStereo.STEREONONE for b in atom.GetBonds())
 
 
 def _said(elements: list[StereoElement], label) -> str:
@@ -108,6 +115,10 @@ class StereoChanges(Check):
             if _configured_centres(st.after, made):
                 # configuration.py sets a new centre's configuration for one rule only
                 parts[-1] += ", configured by the step (both new bonds on one face of the double bond)"
+            bond = st.after.mol.GetBondBetweenAtoms
+            if any(e.kind != CENTRE and bond(*e.atoms).GetStereo() != Chem.BondStereo.STEREONONE for e in made):
+                parts[-1] += (", its geometry set by the step (a concerted elimination from two configured "
+                              "centres, the two groups leaving periplanar)")
         if lost:
             parts.append(f"no longer stereogenic: {_said(lost, label)}")
         yield Diagnostic("AR602", "; ".join(parts), st.step.loc, step=st.index,

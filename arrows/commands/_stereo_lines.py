@@ -43,7 +43,7 @@ def final_lines(trace: Trace) -> list[str]:
     for p in products:
         if p.stereoisomers is None:
             count = "stereoisomers not counted (RDKit cannot enumerate this structure)"
-        elif p.stereoisomers == 1 and "@" in p.smiles:
+        elif p.stereoisomers == 1 and any(mark in p.smiles for mark in "@/\\"):   # a configured centre or double bond
             count = "one stereoisomer, as the steps configure it"
             if achiral_start and is_chiral(p.smiles):
                 count += "; formed as the racemate (no starting species is chiral)"
