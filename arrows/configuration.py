@@ -213,9 +213,9 @@ def _set_syn_configuration(before: Chem.Mol, after: Chem.RWMol, a: int, b: int, 
 def _eliminations(mol: Chem.Mol, changes: dict[Pair, tuple[int, int]], formed, broken
                   ) -> list[tuple[int, int, int, int, bool]]:
     """(a, b, p, q, syn) for each single bond a-b that the step makes double while a loses one
-    single bond (to p) and b one (to q), nothing else changing at a or b, both a and b configured:
-    a concerted 1,2-elimination. `syn` when the atom that takes p is joined to q within three
-    bonds, not through b (the leaving group takes the hydrogen itself)."""
+    single bond (to p, which one other atom takes) and b one (to q), nothing else changing at a or
+    b, both a and b configured: a concerted 1,2-elimination. `syn` when the atom that takes p is
+    joined to q within three bonds, not through b (the leaving group takes the hydrogen itself)."""
     out = []
     for (a, b), electrons in changes.items():
         if electrons != (2, 4) or len(broken.get(a, ())) != 1 or len(broken.get(b, ())) != 1:
@@ -225,10 +225,13 @@ def _eliminations(mol: Chem.Mol, changes: dict[Pair, tuple[int, int]], formed, b
             continue
         if mol.GetAtomWithIdx(a).GetChiralTag() not in _TETRAHEDRAL or mol.GetAtomWithIdx(b).GetChiralTag() not in _TETRAHEDRAL:
             continue
-        takers = formed.get(p, [])
-        if len(takers) != 1:
-            continue   # no atom (or several) takes p: not an elimination we can place
-        out.append((a, b, p, q, _joined_apart_from(mol, takers[0], q, b, 3)))
+        # p is the group another atom takes (a base takes the proton); q leaves with its pair.
+        for losing_taken, losing_leaving, taken, leaving in ((a, b, p, q), (b, a, q, p)):
+            takers = formed.get(taken, [])
+            if len(takers) == 1:
+                syn = _joined_apart_from(mol, takers[0], leaving, losing_leaving, 3)
+                out.append((losing_taken, losing_leaving, taken, leaving, syn))
+                break
     return out
 
 

@@ -124,6 +124,9 @@ OUTCOMES = [
      "secondary to tertiary cation by a 1,2-hydride shift (memory, common practice)"),
     ("15-hydride-shift.mech", None, "2-bromo-2-methylbutane", "CCC(C)(C)Br", "C5H11Br",
      "3-methylbutan-2-ol + HBr gives the rearranged tertiary bromide (memory, common practice)"),
+    ("20-e2-anti-periplanar.mech", None, "(E)-2-phenylbut-2-ene", "C/C=C(\\C)c1ccccc1", "C10H12",
+     "E2 of 2-bromo-3-phenylbutane gives 2-phenylbut-2-ene (memory, common practice); the E geometry "
+     "from the (2R,3R) bromide is judged by a 3D model in test_the_anti_e2_gives_the_alkene_of_its_diastereomer"),
 ]
 
 
@@ -322,6 +325,23 @@ def test_e1cb_goes_through_the_enolate():
         # After it, the leaving oxygen is hydroxide, shown as a released by-product.
         assert oxygen in last.released_now and _our_charge(last.after, oxygen) == -1, name
         assert _hydrogens(last.after.mol, oxygen) == 1, name
+
+
+def test_the_anti_e2_gives_the_alkene_of_its_diastereomer():
+    """Textbook: E2 is stereospecific, H and Br anti-periplanar, so (2R,3R)-2-bromo-3-phenylbutane
+    gives one geometry of 2-phenylbut-2-ene. Judges: RDKit's CIP labeller names the reactant's
+    centres as the title does; an RDKit 3D model of it turned to H-C-C-Br 180 degrees says whether
+    the methyls end up cis or trans, and a 3D model of the derived alkene must agree."""
+    from rdkit.Chem import rdCIPLabeler
+    from stereo_judges import alkene_geometry, periplanar
+    text = (GALLERY / "20-e2-anti-periplanar.mech").read_text(encoding="utf-8")
+    substrate = next(line.split('"')[1] for line in text.splitlines() if line.startswith("species substrate"))
+    reactant = Chem.MolFromSmiles(substrate)
+    rdCIPLabeler.AssignCIPLabels(reactant)
+    labels = {a.GetAtomMapNum(): a.GetProp("_CIPCode") for a in reactant.GetAtoms() if a.HasProp("_CIPCode")}
+    assert labels == {2: "R", 1: "R"}   # C2 (CHBr) and C3 of the butane (CHPh, map 1) R, as the title says
+    trace = _load("20-e2-anti-periplanar.mech")
+    assert alkene_geometry(trace.final) == periplanar(substrate, 180.0) == "cis"   # the methyls: E by CIP
 
 
 def test_trans_stilbene_and_bromine_give_the_meso_dibromide():

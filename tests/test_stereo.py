@@ -21,6 +21,7 @@ from arrows.checks.stereo import final_stereo, step_stereo
 from arrows.cli import cli
 from arrows.judgement.stereo import CENTRE, DOUBLE_BOND, _mirror, relation, stereo_elements
 
+from stereo_judges import alkene_geometry, periplanar
 from stereo_mechanisms import COPE, E2
 from textbook_mechanisms import BAEYER_VILLIGER_RETENTION, NITRATION, SNAR
 
@@ -537,36 +538,6 @@ def test_no_syn_configuration_beside_a_stereocentre():
     assert not any("configured by the step" in d.message for d in diags)
 
 
-def _periplanar(smiles: str, dihedral: float) -> str:
-    """'cis' or 'trans': the methyls mapped 5 (on C1) and 6 (on C2) after C1 loses its hydrogen and
-    C2 its group mapped 3, the two leaving with the dihedral angle H-C1-C2-X3 given (180 anti, 0
-    syn). Judge: an RDKit 3D model (ETKDG, fixed seed) of the configured reactant, turned about
-    C1-C2 to that angle; the methyls keep their dihedral as the two carbons flatten (common practice:
-    the Newman projection of a periplanar elimination)."""
-    from rdkit.Chem import rdMolTransforms
-    mol = Chem.AddHs(Chem.MolFromSmiles(smiles))
-    at = {a.GetAtomMapNum(): a.GetIdx() for a in mol.GetAtoms() if a.GetAtomMapNum()}
-    assert AllChem.EmbedMolecule(mol, randomSeed=7) == 0
-    hydrogen = next(n.GetIdx() for n in mol.GetAtomWithIdx(at[1]).GetNeighbors() if n.GetAtomicNum() == 1)
-    conformer = mol.GetConformer()
-    rdMolTransforms.SetDihedralDeg(conformer, hydrogen, at[1], at[2], at[3], dihedral)
-    return "cis" if abs(rdMolTransforms.GetDihedralDeg(conformer, at[5], at[1], at[2], at[6])) < 90 else "trans"
-
-
-def _alkene_geometry(state) -> str:
-    """'cis' or 'trans' for the methyls mapped 5 and 6 across the double bond C1=C2 of a derived
-    state. Judge: an RDKit 3D model (ETKDG) of the state's SMILES, maps kept."""
-    from rdkit.Chem import rdMolTransforms
-    work = Chem.RWMol(state.mol)
-    Chem.SanitizeMol(work)
-    piece = next(f for f in Chem.GetMolFrags(Chem.RemoveHs(work), asMols=True)
-                 if {a.GetAtomMapNum() for a in f.GetAtoms()} >= {1, 2, 5, 6})
-    mol = Chem.AddHs(Chem.MolFromSmiles(Chem.MolToSmiles(piece)))
-    at = {a.GetAtomMapNum(): a.GetIdx() for a in mol.GetAtoms() if a.GetAtomMapNum()}
-    assert AllChem.EmbedMolecule(mol, randomSeed=7) == 0
-    return "cis" if abs(rdMolTransforms.GetDihedralDeg(mol.GetConformer(), at[5], at[1], at[2], at[6])) < 90 else "trans"
-
-
 @pytest.mark.parametrize("text, dihedral", [(E2, 180.0), (COPE, 0.0)], ids=["E2 anti", "Cope syn"])
 @pytest.mark.parametrize("centre", ["[C@@H:2]", "[C@H:2]"])
 def test_a_concerted_elimination_sets_the_alkene_geometry(text, dihedral, centre):
@@ -578,7 +549,7 @@ def test_a_concerted_elimination_sets_the_alkene_geometry(text, dihedral, centre
     the derived alkene."""
     trace, diags = check_text(text.format(centre))
     assert [d.to_text() for d in diags if d.severity == "error"] == []
-    assert _alkene_geometry(trace.final) == _periplanar(text.format(centre).split('"')[1], dihedral)
+    assert alkene_geometry(trace.final) == periplanar(text.format(centre).split('"')[1], dihedral)
     assert any("geometry set by the step" in d.message for d in diags if d.code == "AR602")
     assert not any("stereoisomers can form" in d.message for d in diags)
 
@@ -601,7 +572,7 @@ def test_iodide_takes_bromine_from_a_vicinal_dibromide_anti(dibromide, alkene):
     trace, diags = check_text(text)
     assert [d.to_text() for d in diags if d.severity == "error"] == []
     assert not any("stereoisomers can form" in d.message for d in diags)   # the geometry is set
-    assert _alkene_geometry(trace.final) == alkene
+    assert alkene_geometry(trace.final) == alkene
 
 
 def test_an_elimination_from_one_configured_centre_leaves_the_geometry_open():
