@@ -9,7 +9,7 @@ through a move.
 from __future__ import annotations
 
 from dataclasses import dataclass, field
-from functools import cached_property, lru_cache
+from functools import lru_cache
 from typing import Optional
 
 from rdkit import Chem
@@ -67,6 +67,7 @@ class ElectronState:
     configured: Optional[bool] = None   # whether some atom or bond carries a written configuration
     # see `bond_framework`; derived from the other fields, so neither compared nor shown
     framework: Optional[frozenset[tuple[int, int, int]]] = field(default=None, compare=False, repr=False)
+    cation_atoms: Optional[frozenset[int]] = field(default=None, compare=False, repr=False)   # see `cations`
 
     def __post_init__(self) -> None:
         # A step hands these on (the common case, checked cheaply); a new state derives them.
@@ -136,11 +137,12 @@ class ElectronState:
     def label(self, i: int) -> str:
         return atom_label(self.mol, i)
 
-    @cached_property
     def cations(self) -> frozenset[int]:
         """The atoms with a positive formal charge (none in most states), found once per state."""
-        return frozenset(i for i, (v, n, b) in enumerate(zip(self.valence, self.nonbonding, self.bond_sums))
-                         if v - n - b > 0)
+        if self.cation_atoms is None:
+            object.__setattr__(self, "cation_atoms", frozenset(
+                i for i, (v, n, b) in enumerate(zip(self.valence, self.nonbonding, self.bond_sums)) if v - n - b > 0))
+        return self.cation_atoms
 
     def bond_framework(self) -> frozenset[tuple[int, int, int]]:
         """(i, j, order), i < j, of every bond except those joining a hydrogen to another element,

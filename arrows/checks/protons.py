@@ -112,7 +112,7 @@ def _next_to_cation(state, atom: int) -> bool:
     resonance form: the carbon of C=O+ (a protonated carbonyl) or C=N+ (an iminium), whose
     alpha C-H is far more acidic than the neutral carbonyl's (acid-catalysed enolisation,
     enamine formation; common practice)."""
-    cations = state.cations
+    cations = state.cations()
     if not cations:
         return False   # no cation anywhere (most states): the neighbours need not be read off the Mol
     for n in state.mol.GetAtomWithIdx(atom).GetNeighbors():

@@ -22,25 +22,23 @@ class UnusualElectronCounts(Check):
 
     def step(self, st: StepTrace, context) -> Iterator[Diagnostic]:
         after, before = st.after, st.before
-        if after is not None:
-            for i, shell in st.change.shells.items():
-                charge = after.formal_charge(i)
-                # As for the shell below: a charge the species was written with and the step keeps
-                # (a sulfonyl S written S2+ with two O-) is not the step's doing.
-                if abs(charge) >= 2 and charge != before.formal_charge(i):
-                    z = after.mol.GetAtomWithIdx(i).GetAtomicNum()
-                    if z not in _IONIC_METALS:
-                        label = after.label(i)
-                        yield Diagnostic("AR503", f"{label} ends the step with formal charge {charge:+d}", st.step.loc,
-                                         hint="a charge of two on one atom is rare; check the moves onto this atom",
-                                         atoms=(label,), step=st.index)
-                # Only a step that expands the shell: a sulfonyl S substituted (an alcohol onto MsCl)
-                # keeps the twelve electrons its species was written with.
-                if (shell > 8 and shell > before.nonbonding[i] + 2 * before.bond_sums[i]
-                        and after.mol.GetAtomWithIdx(i).GetAtomicNum() > 10):
-                    label = after.label(i)
-                    symbol = _HYPERVALENT.get(after.mol.GetAtomWithIdx(i).GetAtomicNum())
-                    hint = (f"fine for hypervalent {symbol} (common practice); otherwise a bond should break"
-                            if symbol else "rare for this element: a bond to it should break in the same step")
-                    yield Diagnostic("AR504", f"{label} holds {shell} valence electrons (expanded octet)", st.step.loc,
-                                     hint=hint, atoms=(label,), step=st.index)
+        if after is None:
+            return
+        for i, old_charge, charge in st.change.charges:
+            # As for the shell below: a charge the species was written with and the step keeps
+            # (a sulfonyl S written S2+ with two O-) is not the step's doing.
+            if abs(charge) >= 2 and after.elements[i] not in _IONIC_METALS:
+                label = after.label(i)
+                yield Diagnostic("AR503", f"{label} ends the step with formal charge {charge:+d}", st.step.loc,
+                                 hint="a charge of two on one atom is rare; check the moves onto this atom",
+                                 atoms=(label,), step=st.index)
+        for i, shell in st.change.shells.items():
+            # Only a step that expands the shell: a sulfonyl S substituted (an alcohol onto MsCl)
+            # keeps the twelve electrons its species was written with.
+            if shell > 8 and after.elements[i] > 10 and shell > before.nonbonding[i] + 2 * before.bond_sums[i]:
+                label = after.label(i)
+                symbol = _HYPERVALENT.get(after.elements[i])
+                hint = (f"fine for hypervalent {symbol} (common practice); otherwise a bond should break"
+                        if symbol else "rare for this element: a bond to it should break in the same step")
+                yield Diagnostic("AR504", f"{label} holds {shell} valence electrons (expanded octet)", st.step.loc,
+                                 hint=hint, atoms=(label,), step=st.index)
