@@ -11,6 +11,9 @@ except in the steps whose stereochemical course is a textbook rule:
   (suprafacial, syn), and the two new stereocentres get the relative configuration that follows.
   With no other configuration in the state the two faces are alike, so the product is the
   racemate of the configuration drawn (a meso compound where the two centres mirror each other);
+  so does a Diels-Alder diene written E or Z at both ends (suprafacial on the diene: its two
+  outside groups end up cis), unless the dienophile's own centres are configured too (endo or
+  exo is not in the bookkeeping);
 - a concerted elimination across two configured centres (E2, or iodide taking bromine from a
   vicinal dibromide) breaks the two bonds anti-periplanar, and the new double bond gets the
   geometry that follows; when the atom that takes the first group is joined to the second (the
@@ -48,6 +51,7 @@ def carry_configuration(before: Chem.Mol, after: Chem.RWMol, changes: dict[Pair,
     whether `after` does."""
     formed, broken, other = _bond_changes(changes)
     syn = _syn_additions(before, changes, formed, configured)
+    dienes = _diene_ends(before, changes, formed, syn) if configured else []
     if not configured and not syn:
         return False
     carried = _substitutions(before, formed, broken, other, shifted) if configured else {}
@@ -57,6 +61,8 @@ def carry_configuration(before: Chem.Mol, after: Chem.RWMol, changes: dict[Pair,
     made = False
     for addition in syn:
         made |= _set_syn_configuration(before, after, *addition)
+    for ends in dienes:
+        made |= _set_diene_end_configuration(before, after, *ends)
     if configured:
         for elimination in _eliminations(before, changes, formed, broken):
             _set_elimination_geometry(before, after, *elimination)
@@ -128,6 +134,75 @@ def _syn_additions(mol: Chem.Mol, changes: dict[Pair, tuple[int, int]], formed, 
             continue   # two separate reagents (a termolecular addition, anti): no cyclic arrangement
         out.append((a, b, x, y, *geometry))
     return out
+
+
+def _diene_ends(mol: Chem.Mol, changes: dict[Pair, tuple[int, int]], formed, syn) -> list[tuple]:
+    """(c1, c2, c3, c4, x, y) for each diene c1=c2-c3=c4, both double bonds written E or Z, whose
+    ends bond to x and y as c2=c3 forms, nothing else changing at c1 to c4: the diene of a
+    Diels-Alder reaction, which both new bonds reach from one face (suprafacial on the diene,
+    textbook). Not when x=y is a dienophile whose own carbons the syn rule configures: how the
+    two pairs of centres stand to each other (endo or exo) is not in the bookkeeping. Only in a
+    state with no configured atom, as for the syn rule."""
+    if any(mol.GetAtomWithIdx(i).GetChiralTag() != _UNSPECIFIED for i in range(mol.GetNumAtoms())):
+        return []
+    configured_pairs = {_pair(a, b) for a, b, *_ in syn}
+    out = []
+    for (c2, c3), electrons in changes.items():
+        if electrons != (2, 4):
+            continue
+        for c2, c3 in ((c2, c3), (c3, c2)):
+            c1 = next((i for key, e in changes.items() if e == (4, 2) and c2 in key for i in key if i != c2), None)
+            c4 = next((i for key, e in changes.items() if e == (4, 2) and c3 in key for i in key if i != c3), None)
+            if c1 is None or c4 is None or c1 > c4 or len(formed.get(c1, ())) != 1 or len(formed.get(c4, ())) != 1:
+                continue
+            x, y = formed[c1][0], formed[c4][0]
+            ends = {c1, c2, c3, c4}
+            if len(ends) < 4 or any(set(key) & ends and key not in
+                                    (_pair(c1, c2), _pair(c2, c3), _pair(c3, c4), _pair(c1, x), _pair(c4, y))
+                                    for key in changes):
+                continue
+            if _pair(x, y) in configured_pairs or written_geometry(mol, c1, c2) is None \
+                    or written_geometry(mol, c4, c3) is None:
+                continue
+            out.append((c1, c2, c3, c4, x, y))
+    return out
+
+
+# An s-cis diene c1=c2-c3=c4 in the plane z = 0, its ends' groups inside (towards each other) or
+# outside, the dienophile's atoms above both ends.
+_DIENE = ((0.0, 0.0, 0.0), (0.75, 1.3, 0.0), (2.25, 1.3, 0.0), (3.0, 0.0, 0.0))
+_INSIDE, _OUTSIDE = {0: (0.75, -1.3, 0.0), 3: (2.25, -1.3, 0.0)}, {0: (-1.5, 0.0, 0.0), 3: (4.5, 0.0, 0.0)}
+
+
+def _set_diene_end_configuration(before: Chem.Mol, after: Chem.RWMol, c1: int, c2: int, c3: int, c4: int,
+                                 x: int, y: int) -> bool:
+    """Chiral tags on the diene ends c1 and c4 for x and y bonded to them from one face. In the
+    s-cis diene a group on c1 cis to c3 (as the double bond c1=c2 is written) stands inside, the
+    other outside; RDKit reads the tags off that model (AssignStereochemistryFrom3D). Returns
+    whether both got one."""
+    place = dict(zip((c1, c2, c3, c4), _DIENE))
+    for slot, end, inner in ((0, c1, c2), (3, c4, c3)):
+        first, second, cis = written_geometry(before, end, inner)
+        beyond = c3 if end == c1 else c2   # the diene atom past `inner`
+        inside = first if (second == beyond) == cis else None
+        groups = [n.GetIdx() for n in before.GetAtomWithIdx(end).GetNeighbors() if n.GetIdx() != inner]
+        for group in groups:
+            if inside is None:
+                place[group] = _OUTSIDE[slot] if group == first else _INSIDE[slot]
+            else:
+                place[group] = _INSIDE[slot] if group == inside else _OUTSIDE[slot]
+    if x in place or y in place:
+        return False   # the dienophile is part of the diene's own frame: not a plain cycloaddition
+    place[x], place[y] = (0.0, 0.0, 1.5), (3.0, 0.0, 1.5)
+    model = _model(after, place)
+    if model is None:
+        return False
+    tags = [model.GetAtomWithIdx(end).GetChiralTag() for end in (c1, c4)]
+    if _UNSPECIFIED in tags:
+        return False   # two equal groups at an end: no stereocentre there
+    for end, tag in zip((c1, c4), tags):
+        after.GetAtomWithIdx(end).SetChiralTag(tag)
+    return True
 
 
 _SMALL_RING = 7   # up to here a ring's double bond is cis: RDKit writes no E/Z for it

@@ -64,3 +64,14 @@ COPE = ('species oxide = "[CH3:5][C@@H:1](c1ccccc1){}([CH3:6])[N+:3](C)(C)[O-:4]
         'step "Cope elimination"\n    :O4 -> H(C1)\n    C1-H -> C1=C2\n    C2-N3 -> N3\nend\n')
 ELIMINATIONS = {f"{kind} {centre}": text.format(centre)
                 for kind, text in (("E2", E2), ("Cope", COPE)) for centre in ("[C@@H:2]", "[C@H:2]")}
+
+
+def hexadiene_cycloaddition(second_end: str, dienophile: str) -> str:
+    """A Diels-Alder of (2E,4E)- ("/") or (2E,4Z)-hexa-2,4-diene ("\\\\") with a dienophile mapped 5=6."""
+    return (f'species diene = "C/[CH:1]=[CH:2]/[CH:3]=[CH:4]{second_end}C"\nspecies dienophile = "{dienophile}"\n'
+            'step "cycloaddition"\n    C1=C2 -> C2=C3\n    C3=C4 -> C4-C5\n    C5=C6 -> C6-C1\nend\n')
+
+
+# Diels-Alder reactions whose diene ends the replay configures (demo data).
+DIENE_ENDS = {"E,E-hexadiene and ethene": hexadiene_cycloaddition("/", "[CH2:5]=[CH2:6]"),
+              "E,Z-hexadiene and ethene": hexadiene_cycloaddition("\\\\", "[CH2:5]=[CH2:6]")}

@@ -22,7 +22,7 @@ from arrows.cli import cli
 from arrows.judgement.stereo import CENTRE, DOUBLE_BOND, _mirror, relation, stereo_elements
 
 from stereo_judges import alkene_geometry, periplanar
-from stereo_mechanisms import COPE, E2
+from stereo_mechanisms import COPE, E2, hexadiene_cycloaddition
 from textbook_mechanisms import BAEYER_VILLIGER_RETENTION, NITRATION, SNAR
 
 GALLERY = sorted((Path(__file__).resolve().parent.parent / "gallery").glob("*.mech"))
@@ -511,6 +511,43 @@ def test_a_diels_alder_keeps_the_dienophile_geometry(geometry, cis):
     assert len(carbonyls) == 2, smiles
     assert _configured(mol) == 2, smiles
     assert _faces(smiles, *carbonyls) == ("cis" if cis else "trans"), smiles
+
+
+@pytest.mark.parametrize("second_end, cis", [("/", True), ("\\\\", False)], ids=["E,E", "E,Z"])
+def test_a_diels_alder_keeps_the_diene_geometry(second_end, cis):
+    """The cis principle for the diene (textbook: the Diels-Alder reaction is suprafacial on the
+    diene, its two outside groups end up cis): (2E,4E)-hexa-2,4-diene and ethene give
+    cis-3,6-dimethylcyclohexene (meso), the (2E,4Z) diene the trans one (chiral). Judges: the
+    methyls' faces in an RDKit 3D model, and RDKit's canonical SMILES of the mirror image."""
+    trace, diags = check_text(hexadiene_cycloaddition(second_end, "[CH2:5]=[CH2:6]"))
+    assert [d.to_text() for d in diags if d.severity == "error"] == []
+    smiles, mol = _product(trace.final)
+    methyls = [a.GetIdx() for a in mol.GetAtoms() if a.GetDegree() == 1]
+    assert len(methyls) == 2 and _configured(mol) == 2, smiles
+    assert _faces(smiles, *methyls) == ("cis" if cis else "trans"), smiles
+    assert (Chem.MolToSmiles(mol) == Chem.MolToSmiles(_mirror(mol))) == cis   # cis is meso
+    assert not any("stereoisomers can form" in d.message for d in diags)
+
+
+def test_diene_ends_configured_leave_a_dienophile_centre_free():
+    """Methyl acrylate on (2E,4E)-hexa-2,4-diene: the two methyls come out cis, but where the ester
+    stands (endo or exo) is not in the bookkeeping, so its centre stays free: 2 stereoisomers."""
+    trace, diags = check_text(hexadiene_cycloaddition("/", "[CH2:5]=[CH:6]C(=O)OC"))
+    assert [d.to_text() for d in diags if d.severity == "error"] == []
+    smiles, mol = _product(trace.final)
+    assert _configured(mol) == 2, smiles
+    assert any("2 stereoisomers can form" in d.message for d in diags)
+
+
+def test_no_diene_end_configuration_beside_a_configured_dienophile():
+    """Dimethyl maleate on (2E,4E)-hexa-2,4-diene: the syn rule configures the ester carbons (cis);
+    the methyls would be cis too, but which face they share with the esters is endo or exo, not in
+    the bookkeeping: the diene ends stay free (the final note counts them)."""
+    trace, diags = check_text(hexadiene_cycloaddition("/", "COC(=O)/[CH:5]=[CH:6]\\\\C(=O)OC"))
+    assert [d.to_text() for d in diags if d.severity == "error"] == []
+    tags = [a.GetChiralTag() for a in trace.final.mol.GetAtoms() if a.GetAtomMapNum() in (1, 4)]
+    assert len(tags) == 2 and all(t == Chem.ChiralType.CHI_UNSPECIFIED for t in tags), tags
+    assert any("stereoisomers can form" in d.message for d in diags)
 
 
 def test_two_reagents_adding_in_one_step_make_no_syn_configuration():

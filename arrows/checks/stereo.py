@@ -114,7 +114,7 @@ class StereoChanges(Check):
             parts.append(f"new {_said(made, label)}")
             if _configured_centres(st.after, made):
                 # configuration.py sets a new centre's configuration for one rule only
-                parts[-1] += ", configured by the step (both new bonds on one face of the double bond)"
+                parts[-1] += ", configured by the step (both new bonds on one face of the double bond or diene)"
             bond = st.after.mol.GetBondBetweenAtoms
             if any(e.kind != CENTRE and bond(*e.atoms).GetStereo() != Chem.BondStereo.STEREONONE for e in made):
                 parts[-1] += (", its geometry set by the step (a concerted elimination from two configured "
