@@ -50,6 +50,17 @@ step "couple"
     .C2 ~> C1-C2
 end
 """,
+    # Two tert-butyl radicals pairing up (radical recombination, common practice): each carbon
+    # holds three methyls before it bonds to the other. Drawn trigonal, the two met eclipsed,
+    # the C1-C2 bond crossing a C-C bond of the other centre.
+    "tertiary coupling": """\
+species a = "C[C:1](C)C"
+species b = "C[C:2](C)C"
+step "couple"
+    .C1 ~> C1-C2
+    .C2 ~> C1-C2
+end
+""",
     "entering": """\
 species alkoxide = "CC[O-:1]"
 step "protonation"
@@ -236,6 +247,47 @@ def test_bonds_do_not_cross(text, name):
                 continue
             assert not _segments_cross(where[b.atoms[0]], where[b.atoms[1]], where[c.atoms[0]], where[c.atoms[1]]), \
                 (panel.index, b.atoms, c.atoms)
+
+
+@pytest.mark.parametrize("path", ["19-pinacol-coupling.mech", "tertiary coupling"])
+def test_crowded_centres_that_bond_keep_room_for_the_bond(path):
+    """Two atoms that each hold three heavy neighbours and bond to each other (the ketyl carbons
+    of a pinacol coupling, two tert-butyl radicals) are drawn as crosses, as chemists draw a
+    quaternary carbon (common practice; IUPAC 2008 draws four bonds at right angles): in every
+    panel each centre's three bonds leave a gap of at least 150 degrees, facing the partner
+    once it is bonded, and where the bond exists no two of the centre's four bonds are less
+    than 80 degrees apart. (Each cluster was depicted trigonal, with no room: the pinacolate
+    was drawn with a methyl of one centre on top of the other centre.)"""
+    text = (ROOT / "gallery" / path).read_text(encoding="utf-8") if path.endswith(".mech") else OWN[path]
+    trace, _, scene = _scene(text, path)
+    (i, j), = trace.steps[-1].change.formed
+    for panel in scene.panels:
+        where = {a.index: complex(*a.position) for a in panel.atoms}
+        for centre, partner in ((i, j), (j, i)):
+            bonded = [b.atoms[0] if b.atoms[1] == centre else b.atoms[1] for b in panel.bonds if centre in b.atoms]
+            turns = sorted(cmath.phase(where[n] - where[centre]) for n in bonded if n != partner)
+            assert len(turns) == 3
+            gaps = [math.degrees((b - a) % (2 * math.pi)) for a, b in zip(turns, turns[1:] + turns[:1])]
+            assert max(gaps) >= 150, (panel.index, centre, gaps)
+            if partner in bonded:
+                angles = [abs(math.degrees(cmath.phase((where[m] - where[centre]) / (where[n] - where[centre]))))
+                          for m, n in combinations(bonded, 2)]
+                assert min(angles) >= 80, (panel.index, centre, angles)
+
+
+def test_a_metal_gives_its_second_electron_from_beside_the_acceptor():
+    """Magnesium gives one electron to each of two ketones (pinacol coupling, gallery 19): for
+    the second transfer it stands within a short arrow's reach of the oxygen that takes it (at
+    most 2.6 bond lengths, as a proton-transfer partner does; common practice of drawing a
+    partner next to the atom it acts on). It stayed where it gave the first, 6.5 bond lengths
+    away, its arrow crossing the panel."""
+    path = ROOT / "gallery" / "19-pinacol-coupling.mech"
+    _, _, scene = _scene(path.read_text(encoding="utf-8"), path.name)
+    for panel in scene.panels[:2]:
+        metal = next(a.index for a in panel.atoms if a.element == "Mg")
+        arrow, = [a for a in panel.arrows if a.source_atoms == (metal,)]
+        where = {a.index: a.position for a in panel.atoms}
+        assert _distance(where[metal], where[arrow.sink_atoms[0]]) / scene.bond_length <= 2.6, (panel.index, arrow.move)
 
 
 @pytest.mark.parametrize("text,name", _mechanisms() + [pytest.param(

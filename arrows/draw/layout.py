@@ -791,7 +791,9 @@ class _LayoutBuilder:
                     everything.join(h, n)
         self.rings: list[list[int]] = []
         self.rings_bonded: dict[int, list[list[int]]] = {}   # panel -> the rings whose bonds all exist there
-        self.clusters = [_Cluster(g, self._depict(g)) for g in everything.groups()]
+        clusters = everything.groups()
+        self.room_kept = self._room_to_keep(clusters)
+        self.clusters = [_Cluster(g, self._depict(g)) for g in clusters]
         for cluster in self.clusters:
             if (not self._even(cluster.local, cluster.atoms, range(self.n)) or self._bends(cluster.atoms)
                     or not self._shows_written_geometry(cluster.local, cluster.atoms, range(self.n))
@@ -801,6 +803,24 @@ class _LayoutBuilder:
         for sides, bonds in partners:
             self._hold_apart(sides, bonds)
         self.main = min(range(len(self.clusters)), key=lambda k: (-len(self.clusters[k].atoms), self.clusters[k].atoms[0]))
+
+    def _room_to_keep(self, clusters: list[list[int]]) -> dict[int, int]:
+        """atom -> how many bonds to other clusters its depiction keeps room for: where a bond
+        joins two clusters at atoms that each hold three heavy neighbours of their own (the
+        ketyl carbons of a pinacol coupling). Drawn trigonal, the two would meet eclipsed, each
+        pair of branches on top of the other; drawn with room for the bond, each centre is a
+        cross (four bonds at right angles, as chemists draw a quaternary carbon)."""
+        cluster_of = {a: k for k, group in enumerate(clusters) for a in group}
+        def own_heavy(atom: int) -> int:
+            return sum(1 for n in self.neighbours[atom]
+                       if self.element[n] != 1 and cluster_of.get(n) == cluster_of[atom])
+        room: dict[int, int] = {}
+        for i, j in self.union:
+            if (self.element[i] != 1 and self.element[j] != 1 and cluster_of[i] != cluster_of[j]
+                    and own_heavy(i) >= 3 and own_heavy(j) >= 3):
+                room[i] = room.get(i, 0) + 1
+                room[j] = room.get(j, 0) + 1
+        return room
 
     def _join_ring_across_clusters(self, groups: _UnionFind, heavy_bonds: list[tuple[int, int]],
                                    heavy_atoms: list[int], partners: list) -> bool:
@@ -1054,6 +1074,11 @@ class _LayoutBuilder:
             if i in index and j in index and (only is None or (i, j) in only):
                 mol.AddBond(index[i], index[j], orders.get(order, Chem.BondType.SINGLE))
                 ends.append((index[i], index[j]))
+        for atom in group:
+            for _ in range(self.room_kept.get(atom, 0)):
+                # A stand-in for the partner in another cluster, dropped below: the depiction
+                # keeps a bond's room for it.
+                mol.AddBond(index[atom], mol.AddAtom(Chem.Atom(0)), Chem.BondType.SINGLE)
         wanted = dict(self.written_double)
         wanted.update({pair: (a, b, False) for pair, (a, b, _) in self.chain_double.items()
                        if panels is not None and any(k in panels for k in _)})
@@ -1247,9 +1272,15 @@ class _LayoutBuilder:
 
     def _stay_after_transfer(self, index: int, segment: tuple[int, int]) -> None:
         """A donor that has handed over an electron (Na+) stays where it gave it in the run of
-        panels after, placed now so that the molecules placed later keep clear of it."""
+        panels after, placed now so that the molecules placed later keep clear of it, unless it
+        gives another there."""
         cluster = self.clusters[index]
         following = next((seg for seg in cluster.segments if seg[0] == segment[1] + 1), None)
+        gives_again = following is not None and any(
+            kind == "transfer" and following[0] <= k <= following[1] and self.cluster_of.get(donor) == index
+            for k, kind, _, donor, _ in self.events)
+        if gives_again:
+            return   # a metal that gives its second electron (Mg) goes to the atom that takes it
         if following is not None and following[0] not in cluster.placement:
             cluster.placement[following[0]] = cluster.placement[segment[0]]
             self._apply(index)
@@ -1407,6 +1438,11 @@ class _LayoutBuilder:
             u = residence.direction
         elif axis is not None:
             u = axis   # the leaving group on a line through the centre that the nucleophile can come in on
+        elif kind == "bond" and anchor in self.room_kept and mover in self.room_kept:
+            # Straight into the room its depiction kept for this bond (two crosses meet eclipsed,
+            # as chemists draw a pinacol: each branch a bond length from its twin).
+            u = free_direction(self.positions[k][anchor], [self.positions[k][n] for n in self.neighbours[anchor]
+                                                           if n in self.positions[k] and self.element[n] != 1])
         else:
             u = self._roomiest(anchor, k, hydrogen)
         depicted = cluster.local_at(k)
@@ -1449,6 +1485,10 @@ class _LayoutBuilder:
         fed = self._fed_directions(hydrogen, anchor, k) if kind == "hop" else []
         if partners:
             best = self._nearest_to_partners(cluster, mover, placements, polygons, partners, fed)
+        elif kind == "bond" and anchor in self.room_kept and mover in self.room_kept:
+            gap, _, moved, direction, rotation, target = placements.at(0)   # turned neither way
+            if gap >= 0.95 and not any(_inside(complex(p), poly) for p in moved for poly in polygons):
+                best = ((_CLEARANCE, True), rotation, target - depicted[mover] * rotation, direction)
         # In order of preference; the first that keeps its distance from everything wins.
         for gap, blocked, moved, direction, rotation, target in (placements if best is None else ()):
             if best is not None and (min(gap, _CLEARANCE), not blocked) <= best[0]:
