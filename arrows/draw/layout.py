@@ -796,6 +796,7 @@ class _LayoutBuilder:
         self.clusters = [_Cluster(g, self._depict(g)) for g in clusters]
         for cluster in self.clusters:
             if (not self._even(cluster.local, cluster.atoms, range(self.n)) or self._bends(cluster.atoms)
+                    or self._bent_where_straight(cluster.local, cluster.atoms)
                     or not self._shows_written_geometry(cluster.local, cluster.atoms, range(self.n))
                     or self._draws_chain_alkene_cis(cluster.local, cluster.atoms, range(self.n))):
                 cluster.local, cluster.phases = self._phases(cluster.atoms)
@@ -1004,6 +1005,7 @@ class _LayoutBuilder:
         atoms the step between them leaves alone. Chemists redraw a ring that changes size; its
         atoms are the ones that move."""
         runs: list[tuple[int, dict[int, complex]]] = []
+        sometimes_sp = [a for a in group if self._linear(a)]
         start = 0
         while start < self.n:
             bonds = self._run_bonds(group, start, start)
@@ -1019,6 +1021,9 @@ class _LayoutBuilder:
                 trial = self._depict(group, trial_bonds, range(start, end + 2))
                 if not self._even(trial, group, range(start, end + 2)):
                     break
+                if any(self._linear(a, range(end, end + 1)) and not self._linear(a, range(end + 1, end + 2))
+                       and self._heavy_bonds(a, end) == self._heavy_bonds(a, end + 1) for a in sometimes_sp):
+                    break     # one that a lone pair bends, its bonds kept (the azide's N3 as P bonds to N4)
                 if not self._shows_written_geometry(trial, group, range(start, end + 2)):
                     break     # an E alkene drawn Z where a ring is about to close across it
                 if self._draws_chain_alkene_cis(trial, group, range(start, end + 2)):
@@ -1130,6 +1135,27 @@ class _LayoutBuilder:
                 here = [pair for pair in pairs if pair in self.bonds_in[k]]
                 if len(here) == 2 and self._linear(atom, range(k, k + 1)) and not self._linear(atom):
                     return True
+        return False
+
+    def _heavy_bonds(self, atom: int, k: int) -> set[tuple[int, int]]:
+        return {(min(atom, n), max(atom, n)) for n in self.neighbours[atom] if self.element[n] != 1
+                and (min(atom, n), max(atom, n)) in self.bonds_in[k]}
+
+    def _bent_where_straight(self, local: dict[int, complex], group: list[int]) -> bool:
+        """Whether `local` bends an atom at its two bonds of a panel in which it is sp: the union
+        of all bonds can close a ring through it (the azide's middle nitrogen, in the ring that
+        the P-N bonds of a Staudinger reaction make over the mechanism)."""
+        members = set(group)
+        for atom in group:
+            partners = [n for n in self.neighbours[atom] if n in members and self.element[n] != 1]
+            if len(partners) < 2 or not self._linear(atom):
+                continue
+            for k in range(self.n):
+                pair = [n for n in partners if (min(atom, n), max(atom, n)) in self.bonds_in[k]]
+                if len(pair) == 2 and self._linear(atom, range(k, k + 1)):
+                    turn = (local[pair[0]] - local[atom]) / (local[pair[1]] - local[atom])
+                    if abs(cmath.phase(turn)) < math.radians(175):
+                        return True
         return False
 
     def _holder(self, k: int, h: int) -> Optional[int]:
