@@ -832,23 +832,50 @@ class _LayoutBuilder:
         that step, as for a cycloaddition. Joins one ring; False when there is none."""
         root = {a: groups.find(a) for a in heavy_atoms}   # the groups stay as they are until a ring is joined
         roots = set(root.values())
-        for k in range(self.n):
+        # Each panel's bonds; then each step's, before and after together: a ring of three or more
+        # clusters that one step goes round, breaking some of its bonds as it makes the others
+        # (a zinc enolate adding to a ketone through a six-membered ring, the zinc passed from one
+        # oxygen to the other), is drawn as that ring too, its atoms in place on both sides.
+        bond_sets = [(k, self.bonds_in[k], False) for k in range(self.n)]
+        bond_sets += [(k + 1, self.bonds_in[k] | self.bonds_in[k + 1], True) for k in range(self.n - 1)]
+        for k, bonds, over_step in bond_sets:
             panel = _UnionFind(roots)
             links: dict[int, list[tuple[int, int, tuple[int, int]]]] = {}
             for i, j in heavy_bonds:
-                if (i, j) not in self.bonds_in[k]:
+                if (i, j) not in bonds:
                     continue
                 a, b = root[i], root[j]
                 if a == b:
                     continue
                 if panel.find(a) == panel.find(b):
                     ring = self._cluster_path(links, a, b) + [(i, j)]
+                    if over_step and (len(ring) < 3 or self._ring_size(ring, root, bonds) < 5):
+                        continue   # a group shifted to a neighbour (a 1,2-shift) is placed where it goes
                     self._join_ring(groups, ring, k, heavy_atoms, partners)
                     return True
                 panel.join(a, b)
                 links.setdefault(a, []).append((b, (i, j)))
                 links.setdefault(b, []).append((a, (i, j)))
         return False
+
+    def _ring_size(self, ring: list[tuple[int, int]], root: dict[int, int], bonds: set[tuple[int, int]]) -> int:
+        """Atoms round a ring given by its bonds between clusters: those bonds, and in each cluster
+        the shortest way over `bonds` from the atom the ring enters by to the one it leaves by."""
+        ends: dict[int, list[int]] = {}
+        for bond in ring:
+            for atom in bond:
+                ends.setdefault(root[atom], []).append(atom)
+        size = len(ring)
+        for group, (entry, exit_) in ends.items():
+            seen, frontier, steps = {entry}, [entry], 0
+            while exit_ not in seen and frontier:
+                steps += 1
+                reached = {n for a in frontier for n in self.neighbours[a]
+                           if n not in seen and root.get(n) == group and (min(a, n), max(a, n)) in bonds}
+                seen |= reached
+                frontier = list(reached)
+            size += steps
+        return size
 
     @staticmethod
     def _cluster_path(links: dict, start: int, goal: int) -> list[tuple[int, int]]:
