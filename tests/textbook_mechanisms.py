@@ -58,8 +58,9 @@ step goes round is now drawn as one.)
 Still undrawn: the Swern oxalyl fragment (its C-C bond once drawn 1.15 bond lengths long as it falls
 apart) moves Cl4 out of shape against C7 by 0.09 bond lengths as it joins the sulfoxide (each of its
 one- and two-atom clusters placed afresh), and its C#O arrow leaves from the crowded side; the Wolff
-methyl, C2 and C4 stand in a triangle (the union of the bonds before and after the shift), and the
-methyl's shift arrow bulges toward the pivot. The Mitsunobu scheme crosses bonds and moves the ester
+carbanion C4 sets the dots of its pair into C2=C4 45 degrees from that bond, the free side beside
+the vertex taken by its minus sign (its methyl, once drawn leaning onto C4, now stands at 120
+degrees and its shift arrow arcs round the outside). The Mitsunobu scheme crosses bonds and moves the ester
 2.86 bond lengths out of shape as its parts join. The Baylis-Hillman scheme draws DABCO's bicyclic
 cage with bonds of 1.12 and 0.62 bond lengths (no flat drawing has them equal) and leaves the
 alkoxide 0.77 bond lengths from the hydrogen it takes (1.4 wanted). The thionyl chloride scheme
@@ -2215,7 +2216,7 @@ TEXTBOOK = {
     "sulfonamide alkylation": (SULFONAMIDE_ALKYLATION, "Cc1ccc(cc1)S(=O)(=O)N(C)C.[I-]", True),
     "[2,3]-wittig": (WITTIG_2_3, "C=CCC([O-])c1ccccc1", True),
     "criegee ozonide": (CRIEGEE_OZONIDE, "C1OCOO1", True),
-    "wolff rearrangement": (WOLFF, "CCC(=O)O", False),   # the methyl's shift arrow bulges toward the pivot
+    "wolff rearrangement": (WOLFF, "CCC(=O)O", False),   # C4's dots 45 degrees from C2=C4 (the minus sign has the free side)
     "benzyne": (BENZYNE, "Nc1ccccc1", True),
     "dichlorocarbene": (DICHLOROCARBENE, "ClC1(Cl)[C@@H]2CCCC[C@@H]21", True),   # cis-fused (meso): the carbene adds to one face
     "mitsunobu": (MITSUNOBU, "CC[C@H](C)OC(=O)c1ccccc1.[O-][P+](c1ccccc1)(c1ccccc1)c1ccccc1", False),   # bonds cross and the ester moves 2.86 out of shape as the parts join

@@ -1496,6 +1496,13 @@ class _LayoutBuilder:
             # as chemists draw a pinacol: each branch a bond length from its twin).
             u = free_direction(self.positions[k][anchor], [self.positions[k][n] for n in self.neighbours[anchor]
                                                            if n in self.positions[k] and self.element[n] != 1])
+        elif kind == "bond" and len(others := [self.positions[k][n] for n in self.neighbours[anchor]
+                                                 if n in self.positions[k] and n != mover]) == 2 \
+                and self._shifts_off(anchor, mover, segment[1]):
+            # A group about to shift from a trigonal centre to its neighbour stands 120 degrees
+            # round from both its bonds, so the arrow of its shift arcs round the outside, as
+            # chemists draw a 1,2-shift (it leaned onto the neighbour, the arrow bulging inward).
+            u = free_direction(self.positions[k][anchor], others)
         else:
             u = self._roomiest(anchor, k, hydrogen)
         depicted = cluster.local_at(k)
@@ -1568,6 +1575,17 @@ class _LayoutBuilder:
         self._apply(index)
         if hydrogen is not None:
             self._promise(hydrogen, anchor, k, direction, leave_after=round_about is not None)
+
+    def _shifts_off(self, anchor: int, mover: int, last: int) -> bool:
+        """Whether the step after panel `last` moves `mover` from `anchor` to an atom bonded to
+        `anchor` (a 1,2-shift: the methyl of a Wolff rearrangement, from the carbonyl carbon to C4)."""
+        if last + 1 >= self.n:
+            return False
+        before, after = self.bonds_in[last], self.bonds_in[last + 1]
+        if (min(anchor, mover), max(anchor, mover)) not in before - after:
+            return False
+        return any((min(mover, n), max(mover, n)) in after - before and (min(anchor, n), max(anchor, n)) in before
+                   for n in self.neighbours[mover])
 
     def _between_partners(self, anchor: int, mover: int, k: int, depicted: dict[int, complex], u: complex
                           ) -> tuple[complex, Optional[int]]:
