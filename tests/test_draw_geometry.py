@@ -362,6 +362,31 @@ def test_labels_do_not_overlap(text, name):
 
 
 @pytest.mark.parametrize("text,name", _mechanisms())
+def test_hydrogens_are_not_written_toward_another_heteroatom(text, name):
+    """An H written above or below its atom's symbol (OH as O over H) does not point at the label
+    of another heteroatom within 1.75 bond lengths (within 30 degrees of that direction): written
+    between two letters it reads as bonded to both, O-H-O (common practice: a label's hydrogens
+    sit on its free side; IUPAC 2008 asks for labels that read unambiguously). The hemiacetal of
+    the acetal formation (gallery 10) wrote its hydroxyl H below O2, 1.46 bond lengths above the
+    ether oxygen, 7 degrees off the line between them."""
+    _, _, scene = _scene(text, name)
+    bl = scene.bond_length
+    for panel in scene.panels:
+        lettered = [a for a in panel.atoms if a.box is not None and a.element not in ("C", "H")]
+        for atom in lettered:
+            symbol = next(r for r in atom.runs if r.text == atom.element)
+            for run in atom.runs:
+                if run.text != "H" or abs(run.y - symbol.y) < 1e-6:
+                    continue   # written on the symbol's line, beside it
+                toward = complex(0.0, run.y - symbol.y)
+                for other in lettered:
+                    offset = complex(*other.position) - complex(*atom.position)
+                    if other is atom or abs(offset) > 1.75 * bl:
+                        continue
+                    assert abs(math.degrees(cmath.phase(offset / toward))) >= 30, (panel.index, atom.name, other.name)
+
+
+@pytest.mark.parametrize("text,name", _mechanisms())
 def test_arrows_avoid_other_labels(text, name):
     """No curved arrow runs through the label of an atom it neither starts nor ends at
     (curved-arrow notation, common practice)."""

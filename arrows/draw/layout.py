@@ -664,6 +664,17 @@ class _LayoutBuilder:
             if best is None:
                 return False
         else:
+            # A neighbour the crowded partner holds meanwhile that is not placed yet (the acetal
+            # carbon's hydroxyl, which leaves as water, in a cluster of its own) will stand in the
+            # partner's widest gap: the end keeps clear of that spot too.
+            here = self.positions[panels[0]]
+            if any(n != end and n not in here and self.element[n] != 1
+                   and any((min(partner, n), max(partner, n)) in self.bonds_in[p] for p in panels)
+                   for n in self.neighbours[partner]):
+                partner_at = here[partner]
+                spot = partner_at + free_direction(partner_at, [here[n] for n in self.neighbours[partner]
+                                                                if n != end and n in here])
+                crowd = np.append(crowd, spot)
             turns = (20, -20, 40, -40, 60, -60, 80, -80)
             spots = [centre + (start - centre) * cmath.rect(1.0, math.radians(degrees)) for degrees in turns]
             # The room around every spot in one numpy call.
