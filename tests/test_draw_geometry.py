@@ -362,6 +362,31 @@ def test_labels_do_not_overlap(text, name):
 
 
 @pytest.mark.parametrize("text,name", _mechanisms())
+def test_drawn_hydrogens_stand_clear_of_their_holder_s_bonds(text, name):
+    """A hydrogen drawn as an atom (one that an arrow moves) stands at least 25 degrees round
+    from every other bond of the atom that holds it (IUPAC 2008: the bonds at an atom are spread
+    apart, no bond drawn over another). Gallery 05 drew C3's hydrogen 1.5 degrees off the C3-C4
+    ring bond, its label on top of C4 (0.03 bond lengths away), where the hydroxide that takes it
+    had been placed in line."""
+    _, _, scene = _scene(text, name)
+    for panel in scene.panels:
+        where = {a.index: complex(*a.position) for a in panel.atoms}
+        neighbours: dict[int, list[int]] = {}
+        for bond in panel.bonds:
+            neighbours.setdefault(bond.atoms[0], []).append(bond.atoms[1])
+            neighbours.setdefault(bond.atoms[1], []).append(bond.atoms[0])
+        for atom in panel.atoms:
+            if atom.element != "H" or len(neighbours.get(atom.index, ())) != 1:
+                continue
+            holder, = neighbours[atom.index]
+            for other in neighbours[holder]:
+                if other == atom.index:
+                    continue
+                turn = (where[other] - where[holder]) / (where[atom.index] - where[holder])
+                assert abs(math.degrees(cmath.phase(turn))) >= 25, (panel.index, atom.name, other)
+
+
+@pytest.mark.parametrize("text,name", _mechanisms())
 def test_hydrogens_are_not_written_toward_another_heteroatom(text, name):
     """An H written above or below its atom's symbol (OH as O over H) does not point at the label
     of another heteroatom within 1.75 bond lengths (within 30 degrees of that direction): written

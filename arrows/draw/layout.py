@@ -55,6 +55,7 @@ _COMPASS = np.exp(1j * np.arange(36) * np.pi / 18)     # directions tried, every
 # Directions a travelling hydrogen may turn to, every 15 degrees.
 _HYDROGEN_COMPASS = tuple(cmath.rect(1.0, step * math.pi / 12) for step in range(24))
 _HYDROGEN_COMPASS_ARRAY = np.array(_HYDROGEN_COMPASS)
+_ALONG_BOND = math.radians(35)   # least angle between a travelling hydrogen and its holder's bonds
 _SEVENTY = math.radians(70)
 _SIXTY = math.radians(60)
 _BACKSIDE_ROOM = math.radians(55)   # a nucleophile's line of approach from the centre's other bonds
@@ -1554,8 +1555,13 @@ class _LayoutBuilder:
         round_about = None
         partners = self._other_hops(index, segment, k, hydrogen) if kind == "hop" else []
         fed = self._fed_directions(hydrogen, anchor, k) if kind == "hop" else []
+        # The hydrogen of a hop stands on the line from its holder toward the partner.
+        held_along = ([_unit(self.positions[k][n] - anchor_at) for n in self.neighbours[anchor]
+                       if n in self.positions[k] and self.element[n] != 1
+                       and (min(anchor, n), max(anchor, n)) in self.bonds_in[k]]
+                      if kind == "hop" and not hydrogen_on_mover else [])
         if partners:
-            best = self._nearest_to_partners(cluster, mover, placements, polygons, partners, fed)
+            best = self._nearest_to_partners(cluster, mover, placements, polygons, partners, fed, held_along)
         elif kind == "bond" and anchor in self.room_kept and mover in self.room_kept:
             gap, _, moved, direction, rotation, target = placements.at(0)   # turned neither way
             if gap >= 0.95 and not any(_inside(complex(p), poly) for p in moved for poly in polygons):
@@ -1566,6 +1572,8 @@ class _LayoutBuilder:
                 continue
             if any(abs(cmath.phase(direction / f)) < _FED_ANGLE for f in fed):
                 continue      # the hydrogen would stand in the angle its bond's pair goes into
+            if any(abs(cmath.phase(direction / b)) < _ALONG_BOND for b in held_along):
+                continue      # or on a bond of the atom that holds it
             if any(_inside(complex(p), poly) for p in moved for poly in polygons):
                 continue      # never inside someone else's ring
             best = ((min(gap, _CLEARANCE), not blocked), rotation, target - depicted[mover] * rotation, direction)
@@ -1725,7 +1733,7 @@ class _LayoutBuilder:
 
     def _nearest_to_partners(self, cluster: _Cluster, mover: int, placements: _Placements,
                              polygons: list[list[complex]], partners: list[tuple[int, complex]],
-                             fed: list[complex] = ()) -> Optional[tuple]:
+                             fed: list[complex] = (), along: list[complex] = ()) -> Optional[tuple]:
         """Among the placements clear of everything (tried further round the anchor than a single
         hop needs) and from which the arrow crosses no wall, the one that also keeps the
         cluster's other hop partners within reach of an arrow (PARTNER_REACH), in order of
@@ -1749,6 +1757,9 @@ class _LayoutBuilder:
         for f in fed:      # the hydrogen would stand in the angle its bond's pair goes into
             # The options share a few dozen directions: each is measured once.
             outside = {d: abs(cmath.phase(d / f)) >= _FED_ANGLE for d in set(directions)}
+            room &= np.array([outside[d] for d in directions])
+        for b in along:    # nor on a bond of the atom that holds it
+            outside = {d: abs(cmath.phase(d / b)) >= _ALONG_BOND for d in set(directions)}
             room &= np.array([outside[d] for d in directions])
         order = np.flatnonzero(room)
         order = order[np.argsort(score[order], kind="stable")]
