@@ -38,7 +38,7 @@ that falls apart to SO2 (an acid chloride from thionyl chloride); and electrons 
 metal with no bond made (Birch reduction).
 
 Each entry: (mechanism text, textbook product SMILES, drawn): `drawn` says whether the geometry
-tests draw it. All do but eight. (Fixed in the layout and the tests since: the Dieckmann
+tests draw it. All do but five. (Fixed in the layout and the tests since: the Dieckmann
 ethoxide, which stays where it was bonded, and the Cope elimination's oxide waited 1.0 and 1.34
 bond lengths from the hydrogen they take, where the proton-transfer test wants 1.4; the mesylate
 SN2 pushed the ethyl that iodide takes 0.9 bond lengths out along its broken C-O bond, as if it
@@ -48,20 +48,24 @@ lengths long with the methyl hidden under it and N3-Br4 1.34, each cluster place
 partner only, and its methyl's shift arrow bulged toward the pivot; the Stork alkylation's N<-H-O+
 proton transfer and the Curtius azide's leaving N-N pair ran their arrows over a charge sign; the
 Tiffeneau-Demjanov ring, redrawn as it grows, was held to 0.05 bond lengths, as the test read no
-rings in the state before the step.) Still undrawn: the Swern oxalyl fragment
-(its C-C bond once drawn 1.15 bond lengths long as it falls apart) moves Cl4 out of shape against
-C7 by 0.09 bond lengths as it joins the sulfoxide (each of its one- and two-atom clusters placed
-afresh), and its C#O arrow leaves from the crowded side; the Reformatsky zinc enolate moves out of
-shape by 0.03 bond lengths (2% allowed) as it joins the ketone (its ZnBr, passed from one oxygen
-to the other, is placed afresh); the Wolff methyl, C2 and C4 stand in a triangle (the union of the
-bonds before and after the shift), and the methyl's shift arrow bulges toward the pivot. The
-Mitsunobu scheme crosses bonds and moves the ester 2.86 bond lengths out of shape as its parts
-join; the Staudinger azide's central nitrogen is drawn bent (135 degrees), and its two arrows into
-N3#N4 end at one point. The Baylis-Hillman scheme draws DABCO's bicyclic cage with bonds of 1.12
-and 0.62 bond lengths (no flat drawing has them equal) and leaves the alkoxide 0.77 bond lengths
-from the hydrogen it takes (1.4 wanted); in the ester reduction the C=O pair that O2 gives back
-leaves from the crowded side. The thionyl chloride scheme draws a bond 1.47 bond lengths long and
-moves the chlorosulfite out of shape as chloride leaves. (The benzyne's ring C#C was held to the
+rings in the state before the step; the Staudinger azide, depicted with the four-membered ring
+its P-N bonds make over the mechanism, had its middle nitrogen bent to 135 degrees while sp, and
+the two arrows into N3#N4, both from N4, ended at one point; the ester reduction's O2, giving its
+pair back to C1=O2, put its dots between itself and the hydrogen on C1, its arrow a tick; the
+Reformatsky zinc enolate moved out of shape by 0.03 bond lengths (2% allowed) as it joined the
+ketone, its ZnBr, passed from one oxygen to the other, placed afresh: the six-membered ring the
+step goes round is now drawn as one.)
+Still undrawn: the Swern oxalyl fragment (its C-C bond once drawn 1.15 bond lengths long as it falls
+apart) moves Cl4 out of shape against C7 by 0.09 bond lengths as it joins the sulfoxide (each of its
+one- and two-atom clusters placed afresh), and its C#O arrow leaves from the crowded side; the Wolff
+carbanion C4 sets the dots of its pair into C2=C4 45 degrees from that bond, the free side beside
+the vertex taken by its minus sign (its methyl, once drawn leaning onto C4, now stands at 120
+degrees and its shift arrow arcs round the outside). The Mitsunobu scheme crosses bonds and moves the ester
+2.86 bond lengths out of shape as its parts join. The Baylis-Hillman scheme draws DABCO's bicyclic
+cage with bonds of 1.12 and 0.62 bond lengths (no flat drawing has them equal) and leaves the
+alkoxide 0.77 bond lengths from the hydrogen it takes (1.4 wanted). The thionyl chloride scheme
+draws a bond 1.47 bond lengths long and moves the chlorosulfite out of shape as chloride leaves.
+(The benzyne's ring C#C was held to the
 straight-sp test, and its triple bond, which RDKit flags aromatic, to a single or double one, and
 thionyl chloride's SO2, bent at S, which keeps a lone pair, to the straight-sp test: both tests
 now follow the chemistry.) The nitration's nitronium, straight until the arene bonds to its
@@ -2196,7 +2200,7 @@ TEXTBOOK = {
     "curtius": (CURTIUS, "CNC(=O)OC", True),
     "swern oxidation": (SWERN, "CC(C)=O.CSC", False),   # the oxalyl fragment moves out of shape; its C#O arrow leaves from the crowded side
     "darzens": (DARZENS, "CCOC(=O)C1OC1(C)C", True),
-    "reformatsky": (REFORMATSKY, "CCOC(=O)CC(C)(C)O", False),   # the zinc enolate moves 0.03 out of shape (Br1 against its ethyl) as it joins the ketone
+    "reformatsky": (REFORMATSKY, "CCOC(=O)CC(C)(C)O", True),
     "meerwein-ponndorf-verley": (MEERWEIN_PONNDORF_VERLEY, "CC(C)=O.CC(C)O[Al](OC(C)C)OC1CCCCC1", True),
     "anionic oxy-cope": (ANIONIC_OXY_COPE, "C=CCCCC=O", True),
     "tiffeneau-demjanov": (TIFFENEAU_DEMJANOV, "O=C1CCCCCC1", True),
@@ -2212,12 +2216,12 @@ TEXTBOOK = {
     "sulfonamide alkylation": (SULFONAMIDE_ALKYLATION, "Cc1ccc(cc1)S(=O)(=O)N(C)C.[I-]", True),
     "[2,3]-wittig": (WITTIG_2_3, "C=CCC([O-])c1ccccc1", True),
     "criegee ozonide": (CRIEGEE_OZONIDE, "C1OCOO1", True),
-    "wolff rearrangement": (WOLFF, "CCC(=O)O", False),   # the methyl's shift arrow bulges toward the pivot
+    "wolff rearrangement": (WOLFF, "CCC(=O)O", False),   # C4's dots 45 degrees from C2=C4 (the minus sign has the free side)
     "benzyne": (BENZYNE, "Nc1ccccc1", True),
     "dichlorocarbene": (DICHLOROCARBENE, "ClC1(Cl)[C@@H]2CCCC[C@@H]21", True),   # cis-fused (meso): the carbene adds to one face
     "mitsunobu": (MITSUNOBU, "CC[C@H](C)OC(=O)c1ccccc1.[O-][P+](c1ccccc1)(c1ccccc1)c1ccccc1", False),   # bonds cross and the ester moves 2.86 out of shape as the parts join
     "arbuzov": (ARBUZOV, "CCOP(C)(=O)OCC.CCI", True),
-    "staudinger": (STAUDINGER, "CN=P(c1ccccc1)(c1ccccc1)c1ccccc1.N#N", False),   # the azide's central N drawn bent; two arrow heads meet at N3#N4
+    "staudinger": (STAUDINGER, "CN=P(c1ccccc1)(c1ccccc1)c1ccccc1.N#N", True),
     "allylic bromination": (ALLYLIC_BROMINATION, "BrC1C=CCCC1.Br", True),
     "conjugate hbr addition": (CONJUGATE_HBR_ADDITION, "CC=CCBr", True),
     "nazarov": (NAZAROV, "O=C1C=CCC1", True),
@@ -2225,7 +2229,7 @@ TEXTBOOK = {
     "baylis-hillman": (BAYLIS_HILLMAN, "C=C(C(O)c1ccccc1)C(=O)OC", False),   # a bond 1.12 long; the alkoxide's proton-transfer arrow has 0.77 of 1.4
     "cope elimination": (COPE_ELIMINATION, "C=CCC.CN(C)O", True),
     "pummerer": (PUMMERER, "CSCOC(C)=O.CC(=O)O", True),
-    "ester reduction": (ESTER_REDUCTION, "OCc1ccccc1", False),   # the C=O pair re-formed by O2 leaves from the crowded side
+    "ester reduction": (ESTER_REDUCTION, "OCc1ccccc1", True),
     "peterson": (PETERSON, "C=C(C)C.C[Si](C)(C)[O-]", True),
     "pyrrole bromination": (PYRROLE_BROMINATION, "Brc1ccc[nH]1.Br", True),
     "thionyl chloride": (THIONYL_CHLORIDE, "CC(=O)Cl.O=S=O", False),   # a bond 1.47 long; the chlorosulfite moves out of shape

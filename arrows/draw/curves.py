@@ -295,7 +295,10 @@ class ArrowPlanner:
         toward = _unit(sink.point - centre)
         if atom in sink.atoms and sink.kind in ("bond", "gap"):
             near = [_unit(t - centre) for t in tails if abs(t - centre) < _TAIL_REACH * self.bl]
-            ranked = _beside_bond(panel.occupied[atom], toward, near)
+            # A label close by (a hydrogen on the next atom) leaves no room for the arc either.
+            labels = [_unit(p - centre) for i, p in panel.positions.items() if i != atom and i in panel.atoms
+                      and panel.atoms[i].box is not None and 1e-9 < abs(p - centre) < _TAIL_REACH * self.bl]
+            ranked = _beside_bond(panel.occupied[atom] + labels, toward, near)
         else:
             steps = 8 if panel.atoms[atom].box is not None else 24
             ranked = ranked_directions(panel.occupied[atom], toward, spread=0.35, steps=steps)
@@ -444,17 +447,30 @@ class ArrowPlanner:
         for k, sink in enumerate(sinks):
             if sink.kind in ("gap", "bond") or (sink.kind == "atom" and len(moves[k].sink_atoms) == 1):
                 groups.setdefault((sink.kind, tuple(sorted(sink.atoms))), []).append(k)
-        for (kind, _), members in groups.items():
+        pos = panel.positions
+        for (kind, ends), members in groups.items():
             if len(members) < 2:
                 continue
+            towards = {}
+            if kind != "atom":
+                # Each toward the end nearer the electrons it brings; two that come from one atom
+                # (a lone pair and a bond of the azide N4 of a Staudinger reaction, both into
+                # N3#N4) take one end each, in their order along the bond.
+                def source(k: int) -> complex:
+                    return sum(pos[a] for a in moves[k].source_atoms) / len(moves[k].source_atoms)
+                towards = {k: min(ends, key=lambda e: abs(pos[e] - source(k))) for k in members}
+                if len(members) == 2 and len(set(towards.values())) == 1:
+                    axis = pos[ends[1]] - pos[ends[0]]
+                    first, second = sorted(members, key=lambda k: ((source(k) - pos[ends[0]]) / axis).real)
+                    towards = {first: ends[0], second: ends[1]}
             for k in members:
                 sink = sinks[k]
                 if kind == "atom":
                     if _to_own_atom(moves[k]):
                         continue   # a half-loop onto its own atom keeps its shape; the other gives way
-                    along = _unit(panel.positions[moves[k].source_atoms[0]] - sink.point)
+                    along = _unit(pos[moves[k].source_atoms[0]] - sink.point)
                 else:
-                    along = _unit(panel.positions[moves[k].sink_atoms[0]] - sink.point)
+                    along = _unit(pos[towards[k]] - sink.point)
                 sink.point = sink.point + along * 0.16 * self.bl
 
     # candidate curves

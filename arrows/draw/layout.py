@@ -55,6 +55,7 @@ _COMPASS = np.exp(1j * np.arange(36) * np.pi / 18)     # directions tried, every
 # Directions a travelling hydrogen may turn to, every 15 degrees.
 _HYDROGEN_COMPASS = tuple(cmath.rect(1.0, step * math.pi / 12) for step in range(24))
 _HYDROGEN_COMPASS_ARRAY = np.array(_HYDROGEN_COMPASS)
+_ALONG_BOND = math.radians(35)   # least angle between a travelling hydrogen and its holder's bonds
 _SEVENTY = math.radians(70)
 _SIXTY = math.radians(60)
 _BACKSIDE_ROOM = math.radians(55)   # a nucleophile's line of approach from the centre's other bonds
@@ -664,6 +665,17 @@ class _LayoutBuilder:
             if best is None:
                 return False
         else:
+            # A neighbour the crowded partner holds meanwhile that is not placed yet (the acetal
+            # carbon's hydroxyl, which leaves as water, in a cluster of its own) will stand in the
+            # partner's widest gap: the end keeps clear of that spot too.
+            here = self.positions[panels[0]]
+            if any(n != end and n not in here and self.element[n] != 1
+                   and any((min(partner, n), max(partner, n)) in self.bonds_in[p] for p in panels)
+                   for n in self.neighbours[partner]):
+                partner_at = here[partner]
+                spot = partner_at + free_direction(partner_at, [here[n] for n in self.neighbours[partner]
+                                                                if n != end and n in here])
+                crowd = np.append(crowd, spot)
             turns = (20, -20, 40, -40, 60, -60, 80, -80)
             spots = [centre + (start - centre) * cmath.rect(1.0, math.radians(degrees)) for degrees in turns]
             # The room around every spot in one numpy call.
@@ -791,9 +803,12 @@ class _LayoutBuilder:
                     everything.join(h, n)
         self.rings: list[list[int]] = []
         self.rings_bonded: dict[int, list[list[int]]] = {}   # panel -> the rings whose bonds all exist there
-        self.clusters = [_Cluster(g, self._depict(g)) for g in everything.groups()]
+        clusters = everything.groups()
+        self.room_kept = self._room_to_keep(clusters)
+        self.clusters = [_Cluster(g, self._depict(g)) for g in clusters]
         for cluster in self.clusters:
             if (not self._even(cluster.local, cluster.atoms, range(self.n)) or self._bends(cluster.atoms)
+                    or self._bent_where_straight(cluster.local, cluster.atoms)
                     or not self._shows_written_geometry(cluster.local, cluster.atoms, range(self.n))
                     or self._draws_chain_alkene_cis(cluster.local, cluster.atoms, range(self.n))):
                 cluster.local, cluster.phases = self._phases(cluster.atoms)
@@ -801,6 +816,24 @@ class _LayoutBuilder:
         for sides, bonds in partners:
             self._hold_apart(sides, bonds)
         self.main = min(range(len(self.clusters)), key=lambda k: (-len(self.clusters[k].atoms), self.clusters[k].atoms[0]))
+
+    def _room_to_keep(self, clusters: list[list[int]]) -> dict[int, int]:
+        """atom -> how many bonds to other clusters its depiction keeps room for: where a bond
+        joins two clusters at atoms that each hold three heavy neighbours of their own (the
+        ketyl carbons of a pinacol coupling). Drawn trigonal, the two would meet eclipsed, each
+        pair of branches on top of the other; drawn with room for the bond, each centre is a
+        cross (four bonds at right angles, as chemists draw a quaternary carbon)."""
+        cluster_of = {a: k for k, group in enumerate(clusters) for a in group}
+        def own_heavy(atom: int) -> int:
+            return sum(1 for n in self.neighbours[atom]
+                       if self.element[n] != 1 and cluster_of.get(n) == cluster_of[atom])
+        room: dict[int, int] = {}
+        for i, j in self.union:
+            if (self.element[i] != 1 and self.element[j] != 1 and cluster_of[i] != cluster_of[j]
+                    and own_heavy(i) >= 3 and own_heavy(j) >= 3):
+                room[i] = room.get(i, 0) + 1
+                room[j] = room.get(j, 0) + 1
+        return room
 
     def _join_ring_across_clusters(self, groups: _UnionFind, heavy_bonds: list[tuple[int, int]],
                                    heavy_atoms: list[int], partners: list) -> bool:
@@ -811,23 +844,50 @@ class _LayoutBuilder:
         that step, as for a cycloaddition. Joins one ring; False when there is none."""
         root = {a: groups.find(a) for a in heavy_atoms}   # the groups stay as they are until a ring is joined
         roots = set(root.values())
-        for k in range(self.n):
+        # Each panel's bonds; then each step's, before and after together: a ring of three or more
+        # clusters that one step goes round, breaking some of its bonds as it makes the others
+        # (a zinc enolate adding to a ketone through a six-membered ring, the zinc passed from one
+        # oxygen to the other), is drawn as that ring too, its atoms in place on both sides.
+        bond_sets = [(k, self.bonds_in[k], False) for k in range(self.n)]
+        bond_sets += [(k + 1, self.bonds_in[k] | self.bonds_in[k + 1], True) for k in range(self.n - 1)]
+        for k, bonds, over_step in bond_sets:
             panel = _UnionFind(roots)
             links: dict[int, list[tuple[int, int, tuple[int, int]]]] = {}
             for i, j in heavy_bonds:
-                if (i, j) not in self.bonds_in[k]:
+                if (i, j) not in bonds:
                     continue
                 a, b = root[i], root[j]
                 if a == b:
                     continue
                 if panel.find(a) == panel.find(b):
                     ring = self._cluster_path(links, a, b) + [(i, j)]
+                    if over_step and (len(ring) < 3 or self._ring_size(ring, root, bonds) < 5):
+                        continue   # a group shifted to a neighbour (a 1,2-shift) is placed where it goes
                     self._join_ring(groups, ring, k, heavy_atoms, partners)
                     return True
                 panel.join(a, b)
                 links.setdefault(a, []).append((b, (i, j)))
                 links.setdefault(b, []).append((a, (i, j)))
         return False
+
+    def _ring_size(self, ring: list[tuple[int, int]], root: dict[int, int], bonds: set[tuple[int, int]]) -> int:
+        """Atoms round a ring given by its bonds between clusters: those bonds, and in each cluster
+        the shortest way over `bonds` from the atom the ring enters by to the one it leaves by."""
+        ends: dict[int, list[int]] = {}
+        for bond in ring:
+            for atom in bond:
+                ends.setdefault(root[atom], []).append(atom)
+        size = len(ring)
+        for group, (entry, exit_) in ends.items():
+            seen, frontier, steps = {entry}, [entry], 0
+            while exit_ not in seen and frontier:
+                steps += 1
+                reached = {n for a in frontier for n in self.neighbours[a]
+                           if n not in seen and root.get(n) == group and (min(a, n), max(a, n)) in bonds}
+                seen |= reached
+                frontier = list(reached)
+            size += steps
+        return size
 
     @staticmethod
     def _cluster_path(links: dict, start: int, goal: int) -> list[tuple[int, int]]:
@@ -984,6 +1044,7 @@ class _LayoutBuilder:
         atoms the step between them leaves alone. Chemists redraw a ring that changes size; its
         atoms are the ones that move."""
         runs: list[tuple[int, dict[int, complex]]] = []
+        sometimes_sp = [a for a in group if self._linear(a)]
         start = 0
         while start < self.n:
             bonds = self._run_bonds(group, start, start)
@@ -999,6 +1060,9 @@ class _LayoutBuilder:
                 trial = self._depict(group, trial_bonds, range(start, end + 2))
                 if not self._even(trial, group, range(start, end + 2)):
                     break
+                if any(self._linear(a, range(end, end + 1)) and not self._linear(a, range(end + 1, end + 2))
+                       and self._heavy_bonds(a, end) == self._heavy_bonds(a, end + 1) for a in sometimes_sp):
+                    break     # one that a lone pair bends, its bonds kept (the azide's N3 as P bonds to N4)
                 if not self._shows_written_geometry(trial, group, range(start, end + 2)):
                     break     # an E alkene drawn Z where a ring is about to close across it
                 if self._draws_chain_alkene_cis(trial, group, range(start, end + 2)):
@@ -1054,6 +1118,11 @@ class _LayoutBuilder:
             if i in index and j in index and (only is None or (i, j) in only):
                 mol.AddBond(index[i], index[j], orders.get(order, Chem.BondType.SINGLE))
                 ends.append((index[i], index[j]))
+        for atom in group:
+            for _ in range(self.room_kept.get(atom, 0)):
+                # A stand-in for the partner in another cluster, dropped below: the depiction
+                # keeps a bond's room for it.
+                mol.AddBond(index[atom], mol.AddAtom(Chem.Atom(0)), Chem.BondType.SINGLE)
         wanted = dict(self.written_double)
         wanted.update({pair: (a, b, False) for pair, (a, b, _) in self.chain_double.items()
                        if panels is not None and any(k in panels for k in _)})
@@ -1105,6 +1174,27 @@ class _LayoutBuilder:
                 here = [pair for pair in pairs if pair in self.bonds_in[k]]
                 if len(here) == 2 and self._linear(atom, range(k, k + 1)) and not self._linear(atom):
                     return True
+        return False
+
+    def _heavy_bonds(self, atom: int, k: int) -> set[tuple[int, int]]:
+        return {(min(atom, n), max(atom, n)) for n in self.neighbours[atom] if self.element[n] != 1
+                and (min(atom, n), max(atom, n)) in self.bonds_in[k]}
+
+    def _bent_where_straight(self, local: dict[int, complex], group: list[int]) -> bool:
+        """Whether `local` bends an atom at its two bonds of a panel in which it is sp: the union
+        of all bonds can close a ring through it (the azide's middle nitrogen, in the ring that
+        the P-N bonds of a Staudinger reaction make over the mechanism)."""
+        members = set(group)
+        for atom in group:
+            partners = [n for n in self.neighbours[atom] if n in members and self.element[n] != 1]
+            if len(partners) < 2 or not self._linear(atom):
+                continue
+            for k in range(self.n):
+                pair = [n for n in partners if (min(atom, n), max(atom, n)) in self.bonds_in[k]]
+                if len(pair) == 2 and self._linear(atom, range(k, k + 1)):
+                    turn = (local[pair[0]] - local[atom]) / (local[pair[1]] - local[atom])
+                    if abs(cmath.phase(turn)) < math.radians(175):
+                        return True
         return False
 
     def _holder(self, k: int, h: int) -> Optional[int]:
@@ -1247,9 +1337,15 @@ class _LayoutBuilder:
 
     def _stay_after_transfer(self, index: int, segment: tuple[int, int]) -> None:
         """A donor that has handed over an electron (Na+) stays where it gave it in the run of
-        panels after, placed now so that the molecules placed later keep clear of it."""
+        panels after, placed now so that the molecules placed later keep clear of it, unless it
+        gives another there."""
         cluster = self.clusters[index]
         following = next((seg for seg in cluster.segments if seg[0] == segment[1] + 1), None)
+        gives_again = following is not None and any(
+            kind == "transfer" and following[0] <= k <= following[1] and self.cluster_of.get(donor) == index
+            for k, kind, _, donor, _ in self.events)
+        if gives_again:
+            return   # a metal that gives its second electron (Mg) goes to the atom that takes it
         if following is not None and following[0] not in cluster.placement:
             cluster.placement[following[0]] = cluster.placement[segment[0]]
             self._apply(index)
@@ -1407,6 +1503,18 @@ class _LayoutBuilder:
             u = residence.direction
         elif axis is not None:
             u = axis   # the leaving group on a line through the centre that the nucleophile can come in on
+        elif kind == "bond" and anchor in self.room_kept and mover in self.room_kept:
+            # Straight into the room its depiction kept for this bond (two crosses meet eclipsed,
+            # as chemists draw a pinacol: each branch a bond length from its twin).
+            u = free_direction(self.positions[k][anchor], [self.positions[k][n] for n in self.neighbours[anchor]
+                                                           if n in self.positions[k] and self.element[n] != 1])
+        elif kind == "bond" and len(others := [self.positions[k][n] for n in self.neighbours[anchor]
+                                                 if n in self.positions[k] and n != mover]) == 2 \
+                and self._shifts_off(anchor, mover, segment[1]):
+            # A group about to shift from a trigonal centre to its neighbour stands 120 degrees
+            # round from both its bonds, so the arrow of its shift arcs round the outside, as
+            # chemists draw a 1,2-shift (it leaned onto the neighbour, the arrow bulging inward).
+            u = free_direction(self.positions[k][anchor], others)
         else:
             u = self._roomiest(anchor, k, hydrogen)
         depicted = cluster.local_at(k)
@@ -1447,14 +1555,25 @@ class _LayoutBuilder:
         round_about = None
         partners = self._other_hops(index, segment, k, hydrogen) if kind == "hop" else []
         fed = self._fed_directions(hydrogen, anchor, k) if kind == "hop" else []
+        # The hydrogen of a hop stands on the line from its holder toward the partner.
+        held_along = ([_unit(self.positions[k][n] - anchor_at) for n in self.neighbours[anchor]
+                       if n in self.positions[k] and self.element[n] != 1
+                       and (min(anchor, n), max(anchor, n)) in self.bonds_in[k]]
+                      if kind == "hop" and not hydrogen_on_mover else [])
         if partners:
-            best = self._nearest_to_partners(cluster, mover, placements, polygons, partners, fed)
+            best = self._nearest_to_partners(cluster, mover, placements, polygons, partners, fed, held_along)
+        elif kind == "bond" and anchor in self.room_kept and mover in self.room_kept:
+            gap, _, moved, direction, rotation, target = placements.at(0)   # turned neither way
+            if gap >= 0.95 and not any(_inside(complex(p), poly) for p in moved for poly in polygons):
+                best = ((_CLEARANCE, True), rotation, target - depicted[mover] * rotation, direction)
         # In order of preference; the first that keeps its distance from everything wins.
         for gap, blocked, moved, direction, rotation, target in (placements if best is None else ()):
             if best is not None and (min(gap, _CLEARANCE), not blocked) <= best[0]:
                 continue
             if any(abs(cmath.phase(direction / f)) < _FED_ANGLE for f in fed):
                 continue      # the hydrogen would stand in the angle its bond's pair goes into
+            if any(abs(cmath.phase(direction / b)) < _ALONG_BOND for b in held_along):
+                continue      # or on a bond of the atom that holds it
             if any(_inside(complex(p), poly) for p in moved for poly in polygons):
                 continue      # never inside someone else's ring
             best = ((min(gap, _CLEARANCE), not blocked), rotation, target - depicted[mover] * rotation, direction)
@@ -1475,6 +1594,17 @@ class _LayoutBuilder:
         self._apply(index)
         if hydrogen is not None:
             self._promise(hydrogen, anchor, k, direction, leave_after=round_about is not None)
+
+    def _shifts_off(self, anchor: int, mover: int, last: int) -> bool:
+        """Whether the step after panel `last` moves `mover` from `anchor` to an atom bonded to
+        `anchor` (a 1,2-shift: the methyl of a Wolff rearrangement, from the carbonyl carbon to C4)."""
+        if last + 1 >= self.n:
+            return False
+        before, after = self.bonds_in[last], self.bonds_in[last + 1]
+        if (min(anchor, mover), max(anchor, mover)) not in before - after:
+            return False
+        return any((min(mover, n), max(mover, n)) in after - before and (min(anchor, n), max(anchor, n)) in before
+                   for n in self.neighbours[mover])
 
     def _between_partners(self, anchor: int, mover: int, k: int, depicted: dict[int, complex], u: complex
                           ) -> tuple[complex, Optional[int]]:
@@ -1603,7 +1733,7 @@ class _LayoutBuilder:
 
     def _nearest_to_partners(self, cluster: _Cluster, mover: int, placements: _Placements,
                              polygons: list[list[complex]], partners: list[tuple[int, complex]],
-                             fed: list[complex] = ()) -> Optional[tuple]:
+                             fed: list[complex] = (), along: list[complex] = ()) -> Optional[tuple]:
         """Among the placements clear of everything (tried further round the anchor than a single
         hop needs) and from which the arrow crosses no wall, the one that also keeps the
         cluster's other hop partners within reach of an arrow (PARTNER_REACH), in order of
@@ -1627,6 +1757,9 @@ class _LayoutBuilder:
         for f in fed:      # the hydrogen would stand in the angle its bond's pair goes into
             # The options share a few dozen directions: each is measured once.
             outside = {d: abs(cmath.phase(d / f)) >= _FED_ANGLE for d in set(directions)}
+            room &= np.array([outside[d] for d in directions])
+        for b in along:    # nor on a bond of the atom that holds it
+            outside = {d: abs(cmath.phase(d / b)) >= _ALONG_BOND for d in set(directions)}
             room &= np.array([outside[d] for d in directions])
         order = np.flatnonzero(room)
         order = order[np.argsort(score[order], kind="stable")]
