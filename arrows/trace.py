@@ -104,6 +104,12 @@ def species_mol(species: Species, explicit_h_on: set[int]) -> tuple[Optional[Che
         hydrogens = atom.GetTotalNumHs(includeNeighbors=False)
         atom.SetNumExplicitHs(hydrogens)
         atom.SetNoImplicit(True)
+        radicals = atom.GetNumRadicalElectrons()
+        if radicals > 1:
+            # RDKit's reader gives an atom's unused valence as radical electrons ([Mg] two, a
+            # carbene [CH2] two); the bookkeeping pairs them, unpaired = N mod 2, as in every
+            # derived state (the parity is the same), so a figure shows a pair, not two dots.
+            atom.SetNumRadicalElectrons(radicals % 2)
         if hydrogens and atom.GetAtomMapNum() in explicit_h_on:
             targets.append(index)
     if targets:

@@ -166,3 +166,17 @@ def test_a_joined_state_reads_as_the_combined_molecule(first, second):
     assert (joined.nonbonding, joined.valence, joined.bond_sums, joined.elements, joined.configured) == \
         (read.nonbonding, read.valence, read.bond_sums, read.elements, read.configured)
     assert joined.bond_framework() == read.bond_framework() == ElectronState(joined.mol, joined.nonbonding).bond_framework()
+
+
+def test_a_species_holds_unused_valence_electrons_as_pairs():
+    """A lone magnesium atom holds its two valence electrons as a pair (3s2) and dichlorocarbene
+    is a singlet (both memory, textbook), while RDKit's SMILES reader gives each two radical
+    electrons; a methyl radical keeps its one. The starting state counts unpaired electrons as
+    every derived state does, N mod 2, so no figure draws two dots for a pair."""
+    text = ('species metal = "[Mg:1]"\nspecies carbene = "Cl[C:2]Cl"\nspecies radical = "[CH3:3]"\n'
+            'species nitrogen = "[N:4]"\n')
+    trace, _ = check_text(text)
+    state = trace.initial
+    read = {a.GetAtomMapNum(): a.GetNumRadicalElectrons() for a in state.mol.GetAtoms() if a.GetAtomMapNum()}
+    assert read == {1: 0, 2: 0, 3: 1, 4: 1}
+    assert all(state.mol.GetAtomWithIdx(i).GetNumRadicalElectrons() == n % 2 for i, n in enumerate(state.nonbonding))
