@@ -146,25 +146,29 @@ def _diene_ends(mol: Chem.Mol, changes: dict[Pair, tuple[int, int]], formed, syn
     if any(mol.GetAtomWithIdx(i).GetChiralTag() != _UNSPECIFIED for i in range(mol.GetNumAtoms())):
         return []
     configured_pairs = {_pair(a, b) for a, b, *_ in syn}
+    made_single = [key for key, electrons in changes.items() if electrons == (4, 2)]
+
+    def across(atom: int) -> Optional[int]:
+        """The partner of `atom` in a double bond the step makes single."""
+        return next((j for key in made_single if atom in key for j in key if j != atom), None)
+
     out = []
     for (c2, c3), electrons in changes.items():
         if electrons != (2, 4):
             continue
-        for c2, c3 in ((c2, c3), (c3, c2)):
-            c1 = next((i for key, e in changes.items() if e == (4, 2) and c2 in key for i in key if i != c2), None)
-            c4 = next((i for key, e in changes.items() if e == (4, 2) and c3 in key for i in key if i != c3), None)
-            if c1 is None or c4 is None or c1 > c4 or len(formed.get(c1, ())) != 1 or len(formed.get(c4, ())) != 1:
-                continue
-            x, y = formed[c1][0], formed[c4][0]
-            ends = {c1, c2, c3, c4}
-            if len(ends) < 4 or any(set(key) & ends and key not in
-                                    (_pair(c1, c2), _pair(c2, c3), _pair(c3, c4), _pair(c1, x), _pair(c4, y))
-                                    for key in changes):
-                continue
-            if _pair(x, y) in configured_pairs or written_geometry(mol, c1, c2) is None \
-                    or written_geometry(mol, c4, c3) is None:
-                continue
-            out.append((c1, c2, c3, c4, x, y))
+        c1, c4 = across(c2), across(c3)   # the diene c1=c2-c3=c4
+        if c1 is None or c4 is None or len(formed.get(c1, ())) != 1 or len(formed.get(c4, ())) != 1:
+            continue
+        x, y = formed[c1][0], formed[c4][0]
+        ends = {c1, c2, c3, c4}
+        if len(ends) < 4 or any(set(key) & ends and key not in
+                                (_pair(c1, c2), _pair(c2, c3), _pair(c3, c4), _pair(c1, x), _pair(c4, y))
+                                for key in changes):
+            continue
+        if _pair(x, y) in configured_pairs or written_geometry(mol, c1, c2) is None \
+                or written_geometry(mol, c4, c3) is None:
+            continue
+        out.append((c1, c2, c3, c4, x, y))
     return out
 
 
@@ -181,16 +185,13 @@ def _set_diene_end_configuration(before: Chem.Mol, after: Chem.RWMol, c1: int, c
     other outside; RDKit reads the tags off that model (AssignStereochemistryFrom3D). Returns
     whether both got one."""
     place = dict(zip((c1, c2, c3, c4), _DIENE))
-    for slot, end, inner in ((0, c1, c2), (3, c4, c3)):
+    for slot, end, inner, beyond in ((0, c1, c2, c3), (3, c4, c3, c2)):
         first, second, cis = written_geometry(before, end, inner)
-        beyond = c3 if end == c1 else c2   # the diene atom past `inner`
-        inside = first if (second == beyond) == cis else None
-        groups = [n.GetIdx() for n in before.GetAtomWithIdx(end).GetNeighbors() if n.GetIdx() != inner]
-        for group in groups:
-            if inside is None:
-                place[group] = _OUTSIDE[slot] if group == first else _INSIDE[slot]
-            else:
-                place[group] = _INSIDE[slot] if group == inside else _OUTSIDE[slot]
+        # `first` is cis to `second`; it stands inside when that puts it cis to `beyond`.
+        first_inside = (second == beyond) == cis
+        for n in before.GetAtomWithIdx(end).GetNeighbors():
+            if n.GetIdx() != inner:
+                place[n.GetIdx()] = _INSIDE[slot] if (n.GetIdx() == first) == first_inside else _OUTSIDE[slot]
     if x in place or y in place:
         return False   # the dienophile is part of the diene's own frame: not a plain cycloaddition
     place[x], place[y] = (0.0, 0.0, 1.5), (3.0, 0.0, 1.5)
@@ -292,20 +293,22 @@ def _eliminations(mol: Chem.Mol, changes: dict[Pair, tuple[int, int]], formed, b
     b, both a and b configured: a concerted 1,2-elimination. `syn` when the atom that takes p is
     joined to q within three bonds, not through b (the leaving group takes the hydrogen itself)."""
     out = []
-    for (a, b), electrons in changes.items():
-        if electrons != (2, 4) or len(broken.get(a, ())) != 1 or len(broken.get(b, ())) != 1:
+    for (i, j), electrons in changes.items():
+        if electrons != (2, 4) or len(broken.get(i, ())) != 1 or len(broken.get(j, ())) != 1:
             continue
-        p, q = broken[a][0], broken[b][0]
-        if p == q or any(set(key) & {a, b} and key not in ((a, b), _pair(a, p), _pair(b, q)) for key in changes):
+        if broken[i][0] == broken[j][0] or any(set(key) & {i, j} and key not in
+                                               ((i, j), _pair(i, broken[i][0]), _pair(j, broken[j][0]))
+                                               for key in changes):
             continue
-        if mol.GetAtomWithIdx(a).GetChiralTag() not in _TETRAHEDRAL or mol.GetAtomWithIdx(b).GetChiralTag() not in _TETRAHEDRAL:
+        if mol.GetAtomWithIdx(i).GetChiralTag() not in _TETRAHEDRAL or mol.GetAtomWithIdx(j).GetChiralTag() not in _TETRAHEDRAL:
             continue
-        # p is the group another atom takes (a base takes the proton); q leaves with its pair.
-        for losing_taken, losing_leaving, taken, leaving in ((a, b, p, q), (b, a, q, p)):
-            takers = formed.get(taken, [])
+        # a is the carbon whose group p another atom takes (a base takes the proton); q leaves b
+        # with its pair.
+        for a, b in ((i, j), (j, i)):
+            p, q = broken[a][0], broken[b][0]
+            takers = formed.get(p, [])
             if len(takers) == 1:
-                syn = _joined_apart_from(mol, takers[0], leaving, losing_leaving, 3)
-                out.append((losing_taken, losing_leaving, taken, leaving, syn))
+                out.append((a, b, p, q, _joined_apart_from(mol, takers[0], q, b, 3)))
                 break
     return out
 
