@@ -51,6 +51,9 @@ _SHIFT_BULGE = 0.2              # bond lengths a 1,2-shift's arc stands out from
 # (the Hofmann rearrangement's methyl shift to nitrogen, at 5.0, bulged inward).
 _TIGHT_SHIFT = 20.0
 _CROOK = 1.0                    # penalty of an arc cramped inside the angle of the two bonds it joins
+# Reductions are called as numpy's ufunc methods (np.add.reduce for .sum, np.minimum.reduce for
+# .min) and nonzero as the array's method: the same work without the Python wrappers, which cost
+# more than the arithmetic on arrays of a few dozen numbers.
 _T = np.linspace(0.0, 1.0, _SAMPLES + 1)
 _BERNSTEIN = np.stack([(1 - _T) ** 3, 3 * _T * (1 - _T) ** 2, 3 * _T ** 2 * (1 - _T), _T ** 3])
 
@@ -610,15 +613,15 @@ class ArrowPlanner:
         bond_b = _padded([o.bond_b for o in obs], 0j, complex)[where]
         counts = np.concatenate([counts, _crossing_counts(pts, bond_a, bond_b, extent)], axis=1)
         # Whole counts times whole weights: the sum is exact, whatever the padding and order.
-        cost = (counts * weights[owner]).sum(axis=1)
+        cost = np.add.reduce(counts * weights[owner], axis=1)
         # Bulging into the molecule: atoms crowding the middle third of the curve.
         atom_xy = _padded([o.atom_xy for o in obs], _NOWHERE, complex)[where][:, None, :]
-        crowding = np.clip(1.1 - np.abs(pts[:, _SAMPLES // 3: 2 * _SAMPLES // 3 + 1, None] - atom_xy) / bl, 0, None)
+        crowding = np.maximum(1.1 - np.abs(pts[:, _SAMPLES // 3: 2 * _SAMPLES // 3 + 1, None] - atom_xy) / bl, 0)   # (np.clip's work)
         # A sum of fractions depends on its order: each panel sums its own atoms, unpadded and
         # laid out as one block, as if it were scored alone.
         for w in work:
             own_atoms = np.ascontiguousarray(crowding[w.rows, :, :len(w.obstacles.atom_xy)])
-            cost[w.rows] += 3.0 * own_atoms.sum(axis=(1, 2))
+            cost[w.rows] += 3.0 * np.add.reduce(own_atoms, axis=(1, 2))
         if marks.shape[1]:
             # The head's barbs spread beyond the shaft: neither may sit on a charge sign or dots.
             arrive = _units(controls[:, 3] - controls[:, 2])[:, None]
@@ -626,7 +629,7 @@ class ArrowPlanner:
             bx, by = barbs.real[:, :, None], barbs.imag[:, :, None]
             at = marks[where][:, None]
             hit = (bx >= at[..., 0]) & (bx <= at[..., 2]) & (by >= at[..., 1]) & (by <= at[..., 3])
-            cost += 30.0 * (hit & ~mine[owner][:, None, :]).sum(axis=(1, 2))
+            cost += 30.0 * np.add.reduce(hit & ~mine[owner][:, None, :], axis=(1, 2))
         outward = np.array([src.outward if src.kind == "dots" else 0j for src in sources])[owner]
         leave = controls[:, 1] - controls[:, 0]
         leave = leave / np.maximum(np.abs(leave), 1e-9)
@@ -634,7 +637,7 @@ class ArrowPlanner:
         cost += np.where((outward != 0) & ((leave * np.conj(outward)).real < -0.2), 20.0, 0.0)
         steps = pts[:, 1:] - pts[:, :-1]     # np.diff's subtraction, without its wrapper
         sizes = np.abs(steps)
-        lengths = sizes.sum(axis=1)
+        lengths = np.add.reduce(sizes, axis=1)
         cost += lengths / bl
         # An arrow from a bond to one of its own atoms shorter than _HOOK_LENGTH, or a pair from
         # an atom's dots into a bond of that atom shorter than _PAIR_ARC, reads as a tick rather
@@ -966,8 +969,8 @@ class _Extent:
     look only at an obstacle that comes within reach of a row's box."""
 
     def __init__(self, pts: np.ndarray):
-        self.x0, self.x1 = pts.real.min(axis=1)[:, None], pts.real.max(axis=1)[:, None]
-        self.y0, self.y1 = pts.imag.min(axis=1)[:, None], pts.imag.max(axis=1)[:, None]
+        self.x0, self.x1 = np.minimum.reduce(pts.real, axis=1)[:, None], np.maximum.reduce(pts.real, axis=1)[:, None]
+        self.y0, self.y1 = np.minimum.reduce(pts.imag, axis=1)[:, None], np.maximum.reduce(pts.imag, axis=1)[:, None]
 
 
 def _inner_samples_in_boxes(pts: np.ndarray, inner: np.ndarray, extent: _Extent, boxes: np.ndarray) -> np.ndarray:
@@ -976,12 +979,12 @@ def _inner_samples_in_boxes(pts: np.ndarray, inner: np.ndarray, extent: _Extent,
     them: only the others are tested, sample by sample."""
     meet = ((boxes[..., 0] <= extent.x1) & (boxes[..., 2] >= extent.x0)
             & (boxes[..., 1] <= extent.y1) & (boxes[..., 3] >= extent.y0))
-    c, k = np.nonzero(meet)
+    c, k = meet.nonzero()
     box = boxes[c, k]
     x, y = pts.real[c], pts.imag[c]
     hit = ((x >= box[:, 0:1]) & (x <= box[:, 2:3]) & (y >= box[:, 1:2]) & (y <= box[:, 3:4])) & inner[c]
     out = np.zeros(meet.shape, dtype=int)
-    out[c, k] = hit.sum(axis=1)
+    out[c, k] = np.add.reduce(hit, axis=1)
     return out
 
 
@@ -993,10 +996,10 @@ def _inner_samples_near(pts: np.ndarray, inner: np.ndarray, extent: _Extent, poi
     reach = radius * 1.001 + _TOUCH
     meet = ((points.real >= extent.x0 - reach) & (points.real <= extent.x1 + reach)
             & (points.imag >= extent.y0 - reach) & (points.imag <= extent.y1 + reach))
-    c, k = np.nonzero(meet)
+    c, k = meet.nonzero()
     hit = (np.abs(pts[c] - points[c, k][:, None]) < radius[c, k][:, None]) & inner[c]
     out = np.zeros(meet.shape, dtype=int)
-    out[c, k] = hit.sum(axis=1)
+    out[c, k] = np.add.reduce(hit, axis=1)
     return out
 
 
@@ -1011,7 +1014,7 @@ def _crossing_counts(pts: np.ndarray, a: np.ndarray, b: np.ndarray, extent: _Ext
     top, bottom = np.minimum(a.imag, b.imag), np.maximum(a.imag, b.imag)
     meet = ((left <= extent.x1 + _TOUCH) & (right >= extent.x0 - _TOUCH)
             & (top <= extent.y1 + _TOUCH) & (bottom >= extent.y0 - _TOUCH))
-    c, e = np.nonzero(meet)
+    c, e = meet.nonzero()
     ax, ay, bx, by = a.real[c, e], a.imag[c, e], b.real[c, e], b.imag[c, e]
     ex, ey = (bx - ax)[:, None], (by - ay)[:, None]
     px, py = pts.real[c], pts.imag[c]
@@ -1019,7 +1022,7 @@ def _crossing_counts(pts: np.ndarray, a: np.ndarray, b: np.ndarray, extent: _Ext
     # where its two ends lie on opposite sides. Few do, so only those are tested further: do
     # the bond's ends lie on opposite sides of that segment?
     side = ey * (ax[:, None] - px) - ex * (ay[:, None] - py)
-    k, s = np.nonzero(side[:, :-1] * side[:, 1:] < 0)
+    k, s = (side[:, :-1] * side[:, 1:] < 0).nonzero()
     x0, y0 = px[k, s], py[k, s]
     dx, dy = px[k, s + 1] - x0, py[k, s + 1] - y0
     o1 = dx * (ay[k] - y0) - dy * (ax[k] - x0)

@@ -439,11 +439,12 @@ class _Placements:
         """Each placement's nearest approach to the atoms around (rows of `moved`)."""
         if not len(self.near):
             return [9.0] * len(moved)
-        gaps = np.abs(moved[:, :, None] - self.near).min(axis=(1, 2))
+        # numpy's ufuncs called directly (minimum.reduce is .min): the wrappers cost more than these few numbers
+        gaps = np.minimum.reduce(np.abs(moved[:, :, None] - self.near), axis=(1, 2))
         if self.carries_hydrogen:
             # The hydrogen it brings needs room too, though less than a whole molecule.
             brought = np.abs((targets - np.array(directions, dtype=complex))[:, None] - self.near)
-            gaps = np.minimum(gaps, brought.min(axis=1) + _CLEARANCE - _HYDROGEN_ROOM)
+            gaps = np.minimum(gaps, np.minimum.reduce(brought, axis=1) + _CLEARANCE - _HYDROGEN_ROOM)
         return gaps.tolist()
 
 
@@ -659,7 +660,7 @@ class _LayoutBuilder:
                 score = -abs(reach - target) - 0.001 * abs(degrees)
                 if reach < 1.2 or score <= best_score:
                     continue   # the room around a spot that would not win is not measured
-                room = float(np.abs(crowd - spot).min()) if len(crowd) else 9.0
+                room = float(np.minimum.reduce(np.abs(crowd - spot), axis=None)) if len(crowd) else 9.0
                 if room >= 0.95:
                     best, best_score = spot, score
             if best is None:
@@ -998,11 +999,12 @@ class _LayoutBuilder:
 
     def _joined_around(self, i: int, j: int, k: int) -> bool:
         """Whether i and j are joined in panel k by a path that is not their own bond (a ring)."""
-        seen, frontier = {i}, [i]
+        seen, frontier, bonds = {i}, [i], self.bonds_in[k]
         while frontier:
             atom = frontier.pop()
             for n in self.neighbours[atom]:
-                if n in seen or (min(atom, n), max(atom, n)) not in self.bonds_in[k] or {atom, n} == {i, j}:
+                # (their own bond is i-j itself: the search never stands on j, it stops there)
+                if n in seen or (atom == i and n == j) or (min(atom, n), max(atom, n)) not in bonds:
                     continue
                 if n == j:
                     return True
@@ -1154,16 +1156,23 @@ class _LayoutBuilder:
         a nitronium N, straight until an arene bonds to it, is not straight over every panel.)"""
         panels = panels or range(self.n)
         key = (atom, panels.start, panels.stop)
-        if key not in self.sp_atoms:
-            partners = [n for n in self.neighbours[atom] if self.element[n] != 1]
-            pairs = [(min(atom, n), max(atom, n)) for n in partners]
-            if len(panels) < self.n:
+        linear = self.sp_atoms.get(key)
+        if linear is None:
+            pairs = [(min(atom, n), max(atom, n)) for n in self.neighbours[atom] if self.element[n] != 1]
+            if len(pairs) >= 2 and len(panels) < self.n:   # (fewer than two: never straight)
                 pairs = [pair for pair in pairs if any(pair in self.bonds_in[k] for k in panels)]
-            orders = [self.orders_in[k] for k in panels]
-            self.sp_atoms[key] = len(pairs) == 2 and (
-                any(o.get(pair) == 3 for o in orders for pair in pairs)
-                or any(all(o.get(pair) == 2 for pair in pairs) for o in orders))
-        return self.sp_atoms[key]
+            linear = False
+            if len(pairs) == 2:
+                # (one loop over the panels, not a generator per test: asked a few hundred times a figure)
+                first, second = pairs
+                for k in panels:
+                    orders = self.orders_in[k]
+                    a, b = orders.get(first), orders.get(second)
+                    if a == 3 or b == 3 or (a == 2 and b == 2):
+                        linear = True
+                        break
+            self.sp_atoms[key] = linear
+        return linear
 
     def _bends(self, group: list[int]) -> bool:
         """Whether an atom of the group is straight (sp) in some panel but not over all of them
@@ -1387,10 +1396,10 @@ class _LayoutBuilder:
         polygons = [[self.positions[k][a] for a in ring] for ring in self._closed_rings(k)]
         # Best first; the first direction that does not point into a closed ring wins (the
         # best is the first highest score, as the stable sort below puts first).
-        best = int(np.argmax(score))
+        best = int(score.argmax())   # (the method: np.argmax's wrapper costs more than the search)
         if not any(_inside(complex(spots[best]), poly) for poly in polygons):
             return complex(_COMPASS[best])
-        for index in np.argsort(-score, kind="stable"):
+        for index in (-score).argsort(kind="stable"):
             if not any(_inside(complex(spots[index]), poly) for poly in polygons):
                 return complex(_COMPASS[index])
         return free_direction(centre, [centre + t for t in taken], prefer)
@@ -1434,7 +1443,7 @@ class _LayoutBuilder:
             return None
         def room_at(directions: np.ndarray) -> np.ndarray:
             turns = directions[:, None] / np.array(others)[None, :]
-            return np.abs(np.arctan2(turns.imag, turns.real)).min(axis=1)
+            return np.minimum.reduce(np.abs(np.arctan2(turns.imag, turns.real)), axis=1)
         own, opposite = room_at(_COMPASS), room_at(-_COMPASS)
         room = np.minimum(own, opposite)
         # The leaving group, drawn a bond length out, takes the roomier side of the line; the
@@ -1761,8 +1770,8 @@ class _LayoutBuilder:
         for b in along:    # nor on a bond of the atom that holds it
             outside = {d: abs(cmath.phase(d / b)) >= _ALONG_BOND for d in set(directions)}
             room &= np.array([outside[d] for d in directions])
-        order = np.flatnonzero(room)
-        order = order[np.argsort(score[order], kind="stable")]
+        order = room.nonzero()[0]   # (the methods, without np.flatnonzero's and np.argsort's wrappers)
+        order = order[score[order].argsort(kind="stable")]
         start, size = 0, 8
         while start < len(order):
             batch = order[start:start + size]
@@ -2056,7 +2065,7 @@ class _LayoutBuilder:
             partner = self.positions[r.last][following.holder] - self.positions[r.last][r.holder]
 
         def room(direction: complex) -> float:
-            return float(np.abs(relative - direction).min()) if len(relative) else math.inf
+            return float(np.minimum.reduce(np.abs(relative - direction), axis=None)) if len(relative) else math.inf
 
         def miss(direction: complex) -> float:
             """How far the hydrogen is from a comfortable hop to its next partner."""
@@ -2100,7 +2109,7 @@ class _LayoutBuilder:
         best, best_score = r.direction, (not cramped(r.direction), room_now >= _HYDROGEN_ROOM and not crossed_now,
                                          not crossed_now, min(room_now, 1.2) + 0.1 - miss(r.direction))
         compass = _HYDROGEN_COMPASS
-        rooms = (np.abs(relative - _HYDROGEN_COMPASS_ARRAY[:, None]).min(axis=1).tolist() if len(relative)
+        rooms = (np.minimum.reduce(np.abs(relative - _HYDROGEN_COMPASS_ARRAY[:, None]), axis=1).tolist() if len(relative)
                  else [math.inf] * len(compass))
         for d, space, crossed in zip(compass, rooms, crossing(compass)):
             score = (not cramped(d), space >= _HYDROGEN_ROOM and not crossed, not crossed,

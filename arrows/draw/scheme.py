@@ -139,7 +139,7 @@ def _uneven_bonds(scene: Scene) -> tuple[str, ...]:
             a, b = where.get(bond.atoms[0]), where.get(bond.atoms[1])
             if a is None or b is None:
                 continue
-            ratio = math.hypot(a.position[0] - b.position[0], a.position[1] - b.position[1]) / scene.bond_length
+            ratio = math.dist(a.position, b.position) / scene.bond_length   # (the hypot of the differences)
             if abs(ratio - 1) > 0.02 and (worst is None or abs(ratio - 1) > abs(worst[0] - 1)):
                 worst = (ratio, a.name, b.name)
         if worst is not None:

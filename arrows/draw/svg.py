@@ -10,7 +10,10 @@ from .styles import INK
 
 
 def _n(v: float) -> str:
-    text = f"{v:.2f}".rstrip("0").rstrip(".")   # drop trailing zeros of the two decimals, and the point with both
+    text = f"{v:.2f}"
+    if text[-1] != "0":   # (most numbers: nothing to strip, and "-0.00" ends in a zero)
+        return text
+    text = text.rstrip("0").rstrip(".")   # drop trailing zeros of the two decimals, and the point with both
     return "0" if text == "-0" else text
 
 
