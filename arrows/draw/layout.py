@@ -32,6 +32,7 @@ from rdkit.Chem import rdDepictor
 
 from ..electrons import ElectronState, ResolvedMove
 from ..rdkit_io import bond_list
+from .branches import ease_clashes, slot_beside
 
 # Gap between a transferred hydrogen and the atom that takes it, in bond lengths: room for a
 # curved arrow, close enough to read as one event.
@@ -806,6 +807,7 @@ class _LayoutBuilder:
         self.rings_bonded: dict[int, list[list[int]]] = {}   # panel -> the rings whose bonds all exist there
         clusters = everything.groups()
         self.room_kept = self._room_to_keep(clusters)
+        self.fed_slots = self._slots_for_fed_hydrogens(clusters)
         self.clusters = [_Cluster(g, self._depict(g)) for g in clusters]
         for cluster in self.clusters:
             if (not self._even(cluster.local, cluster.atoms, range(self.n)) or self._bends(cluster.atoms)
@@ -835,6 +837,42 @@ class _LayoutBuilder:
                 room[i] = room.get(i, 0) + 1
                 room[j] = room.get(j, 0) + 1
         return room
+
+    def _slots_for_fed_hydrogens(self, clusters: list[list[int]]) -> dict[int, set[int]]:
+        """holder -> the atoms X whose bond to it the pair of its C-H bond goes into, for a
+        holder in no ring with three heavy neighbours of its own whose hydrogen travels to
+        another species (an E2 at a fully substituted carbon). Its depiction keeps a slot for
+        the hydrogen next to X (branches.slot_beside): drawn trigonal, the hydrogen could only
+        go 60 degrees from X, too tight for the arrow between the two bonds, or into the gap
+        away from X, where that arrow crosses a bond."""
+        cluster_of = {a: k for k, group in enumerate(clusters) for a in group}
+        slots: dict[int, set[int]] = {}
+        for (h, holder), fed in self.feeds.items():
+            takers = [n for n in self.neighbours[h] if n != holder]
+            if (h not in self.bridging or holder not in cluster_of
+                    or any(holder in m and n in m for ms in self.molecules for m in ms for n in takers)):
+                continue   # a hydrogen passed within a molecule (an ylide's) waits where its taker reaches it
+            own = [n for n in self.neighbours[holder] if self.element[n] != 1 and cluster_of.get(n) == cluster_of[holder]]
+            if len(own) >= 3 and fed & set(own) and not self._in_ring(holder):
+                slots.setdefault(holder, set()).update(fed & set(own))
+        return slots
+
+    def _in_ring(self, atom: int) -> bool:
+        """Whether a ring of the union graph runs through `atom` (two of its neighbours are
+        joined by a path that avoids it). A ring atom's hydrogen has a free side next to each
+        of its bonds out of the ring, and its ring bonds cannot turn."""
+        heavy = sorted(n for n in self.neighbours[atom] if self.element[n] != 1)
+        for start in heavy:
+            seen, todo = {atom, start}, [start]
+            while todo:
+                for n in self.neighbours[todo.pop()]:
+                    if n in seen or self.element[n] == 1:
+                        continue
+                    if n in heavy:
+                        return True
+                    seen.add(n)
+                    todo.append(n)
+        return False
 
     def _join_ring_across_clusters(self, groups: _UnionFind, heavy_bonds: list[tuple[int, int]],
                                    heavy_atoms: list[int], partners: list) -> bool:
@@ -1125,6 +1163,11 @@ class _LayoutBuilder:
                 # A stand-in for the partner in another cluster, dropped below: the depiction
                 # keeps a bond's room for it.
                 mol.AddBond(index[atom], mol.AddAtom(Chem.Atom(0)), Chem.BondType.SINGLE)
+        slots = {}   # holder's index -> the stand-in for its travelling hydrogen, dropped below
+        for atom in group:
+            if atom in self.fed_slots:
+                slots[index[atom]] = mol.AddAtom(Chem.Atom(0))
+                mol.AddBond(index[atom], slots[index[atom]], Chem.BondType.SINGLE)
         wanted = dict(self.written_double)
         wanted.update({pair: (a, b, False) for pair, (a, b, _) in self.chain_double.items()
                        if panels is not None and any(k in panels for k in _)})
@@ -1148,7 +1191,17 @@ class _LayoutBuilder:
         scale = 1.0 / (sum(lengths) / len(lengths)) if lengths else 1.0
         xs, ys = [p[0] for p in xyz], [p[1] for p in xyz]
         # y is flipped: RDKit's y grows upwards, ours downwards.
-        return {atom: complex(xs[k] * scale, -ys[k] * scale) for atom, k in index.items()}
+        points = np.array([complex(x * scale, -y * scale) for x, y in zip(xs, ys)])
+        rings = mol.GetRingInfo()
+        all_ends = [(b.GetBeginAtomIdx(), b.GetEndAtomIdx()) for b in mol.GetBonds()]
+        in_ring = {(min(e), max(e)) for k, e in enumerate(all_ends) if rings.NumBondRings(k)}
+        for centre, slot in slots.items():
+            fed = {index[x] for x in self.fed_slots[group[centre]] if x in index
+                   and mol.GetBondBetweenAtoms(centre, index[x]) is not None}
+            if fed:
+                points = slot_beside(points, all_ends, in_ring, centre, slot, fed)
+        points = ease_clashes(points, all_ends, in_ring).tolist()
+        return {atom: points[k] for atom, k in index.items()}
 
     def _linear(self, atom: int, panels: Optional[range] = None) -> bool:
         """Over `panels` (all by default): two bonds, one of them triple, or both double in one
