@@ -42,6 +42,14 @@ def has_configuration(mol: Chem.Mol) -> bool:
             or any(mol.GetBondWithIdx(i).GetStereo() != Chem.BondStereo.STEREONONE for i in range(mol.GetNumBonds())))
 
 
+def may_configure(changes: dict[Pair, tuple[int, int]]) -> bool:
+    """Whether a step in a state with no configuration may make one: only a syn addition can (a
+    double bond made single whose two atoms both gain a single bond); the diene and elimination
+    rules need a written configuration. Most steps skip carry_configuration on this test."""
+    gaining = {i for key, electrons in changes.items() if electrons == (0, 2) for i in key}
+    return any(a in gaining and b in gaining for (a, b), electrons in changes.items() if electrons == (4, 2))
+
+
 def carry_configuration(before: Chem.Mol, after: Chem.RWMol, changes: dict[Pair, tuple[int, int]],
                         shifted: Callable[[int, int], bool], configured: bool) -> bool:
     """Set on `after` (the state after a step, being built) the configuration of every atom whose

@@ -17,7 +17,7 @@ from rdkit import Chem
 from .diagnostics import Diagnostic
 from .model import (AtomSink, BareAtom, BondPair, BondRef, HydrogenOn, Location, LonePair, Move, NonbondingSink, Step,
                     UnpairedElectron, CONNECTORS)
-from .configuration import carry_configuration, has_configuration
+from .configuration import carry_configuration, has_configuration, may_configure
 from .rdkit_io import atom_list, valence_electrons
 
 _BOND_TYPES = {1: Chem.BondType.SINGLE, 2: Chem.BondType.DOUBLE, 3: Chem.BondType.TRIPLE}
@@ -247,9 +247,9 @@ class _StepReplay:
     before the step, and the state is checked only after all moves."""
 
     def __init__(self, state: ElectronState, step: Step, step_index: int, map_index: dict[int, int],
-                 entered_later: dict[int, int]):
+                 entered_later: dict[int, int], known: dict[tuple[str, int], int]):
         self.state, self.step, self.step_index = state, step, step_index
-        self.map_index, self.entered_later = map_index, entered_later
+        self.map_index, self.entered_later, self.known = map_index, entered_later, known
         self.diagnostics: list[Diagnostic] = []
         self.d_nonbonding: dict[int, int] = {}
         self.d_bond: dict[Pair, int] = {}
@@ -258,7 +258,6 @@ class _StepReplay:
         self.used_unpaired: dict[int, int] = {}
         self.written_sinks: list[tuple[Pair, int, Location, BondRef]] = []
         self._bond_before: dict[Pair, int] = {}
-        self._resolved: dict[tuple[str, int], int] = {}
         self.resolved: list[ResolvedMove] = []
         self.first_move_on_bond: dict[Pair, Move] = {}
         self._hydrogen_choice: dict[int, int] = {}
@@ -276,11 +275,21 @@ class _StepReplay:
     # resolving written atoms to indices
     def resolve(self, ref) -> int:
         if isinstance(ref, HydrogenOn):
-            parent = self.resolve(ref.parent)
-            return self.hydrogen_on(parent, ref)
-        key = (ref.element, ref.map_number)
-        if key in self._resolved:
-            return self._resolved[key]
+            return self.hydrogen_on(self.resolve(ref.parent), ref)
+        index = self.known.get((ref.element, ref.map_number))
+        if index is None:
+            index = self._look_up(ref)
+        released = self.state.released
+        if released and index in released:
+            self.fail("AR106", f"{ref} left the drawing with `releases` in an earlier step", ref.loc,
+                      "bring it back with `uses` under a new map number, or do not release it", atoms=(str(ref),))
+            raise _StepFailed
+        return index
+
+    def _look_up(self, ref) -> int:
+        """The index of a written atom the first time the replay meets it, checked to exist and to
+        be the element written; remembered for the whole replay (atoms are only ever appended, and
+        a map number is never reused)."""
         index = self.map_index.get(ref.map_number)
         if index is None:
             if ref.map_number in self.entered_later:
@@ -295,11 +304,7 @@ class _StepReplay:
             self.fail("AR105", f"{ref} names atom {ref.map_number}, which is {atom.GetSymbol()}, not {ref.element}",
                       ref.loc, f"write {atom.GetSymbol()}{ref.map_number}", atoms=(str(ref),))
             raise _StepFailed
-        if index in self.state.released:
-            self.fail("AR106", f"{ref} left the drawing with `releases` in an earlier step", ref.loc,
-                      "bring it back with `uses` under a new map number, or do not release it", atoms=(str(ref),))
-            raise _StepFailed
-        self._resolved[key] = index
+        self.known[(ref.element, ref.map_number)] = index
         return index
 
     def hydrogen_on(self, parent: int, ref: HydrogenOn) -> int:
@@ -525,10 +530,12 @@ def _rewrite(bond: BondRef, order: int) -> str:
 
 
 def apply_step(state: ElectronState, step: Step, step_index: int, map_index: dict[int, int],
-               entered_later: dict[int, int]) -> tuple[Optional[ElectronState], StepChange, list[Diagnostic]]:
+               entered_later: dict[int, int], known: Optional[dict[tuple[str, int], int]] = None
+               ) -> tuple[Optional[ElectronState], StepChange, list[Diagnostic]]:
     """Apply all moves of `step` at once. Returns (state after, change, diagnostics); the state is
-    None when the moves cannot give a valid structure (the diagnostics say why)."""
-    replay = _StepReplay(state, step, step_index, map_index, entered_later)
+    None when the moves cannot give a valid structure (the diagnostics say why). `known` holds the
+    written atoms (element, map number) already found, for a replay to pass from step to step."""
+    replay = _StepReplay(state, step, step_index, map_index, entered_later, {} if known is None else known)
     change = StepChange()
     for move in step.moves:
         try:
@@ -587,7 +594,7 @@ def _settle(state: ElectronState, step: Step, step_index: int, replay: _StepRepl
     change.touched_atoms = touched
     configured = state.configured
     # A double bond made single may be one a syn addition configures (a ring's C=C is cis unwritten).
-    if configured or (4, 2) in changes.values():
+    if configured or may_configure(changes):
         def shifted(atom: int, leaving: int) -> bool:
             return any(m.source_kind == "bond" and set(m.source_atoms) == {atom, leaving} and atom in m.sink_atoms
                        for m in replay.resolved)
@@ -616,7 +623,8 @@ def _settle(state: ElectronState, step: Step, step_index: int, replay: _StepRepl
                                 "check charges and bond orders with `arrows trace`", step=step_index))
         return None, change, diags
     return (ElectronState(work, tuple(nonbonding), state.released, valence, tuple(bond_sums), elements,
-                          configured, _next_framework(state, changes)), change, diags)
+                          configured, _next_framework(state, changes), _next_cations(state, change.charges)),
+            change, diags)
 
 
 def _bond_faults(state: ElectronState, step: Step, step_index: int, replay: _StepReplay, key: Pair,
@@ -678,6 +686,14 @@ def _next_framework(state: ElectronState, changes: dict[Pair, tuple[int, int]]):
     if not removed and not added:
         return state.framework
     return state.framework.difference(removed).union(added)
+
+
+def _next_cations(state: ElectronState, charges: list[tuple[int, int, int]]) -> Optional[frozenset[int]]:
+    """The cations after a step, from those before and the step's charge changes (None when
+    nobody asked for them before)."""
+    if state.cation_atoms is None or not charges:
+        return state.cation_atoms
+    return state.cation_atoms.difference(i for i, _, _ in charges).union(i for i, _, after in charges if after > 0)
 
 
 def _first_move_touching(step: Step, replay: _StepReplay, atom: int) -> Location:

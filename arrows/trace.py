@@ -213,6 +213,7 @@ class Replay:
             map_index.update((number, offset + atom_index) for atom_index, number in self._mapped[position])
             offset += len(loaded[position].nonbonding)
         position = len(mechanism.species)
+        known: dict[tuple[str, int], int] = {}   # written atoms found so far (electrons._StepReplay.resolve)
         # One quiet block for the whole replay: RDKit logs a rejected state, whose message we report.
         with rdkit_messages():
             for index, step in enumerate(mechanism.steps):
@@ -227,7 +228,7 @@ class Replay:
                     for atom_index, number in self._mapped[position - 1]:
                         map_index[number] = offset + atom_index
                         entered_later.pop(number, None)
-                after, change, step_diags = apply_step(state, step, index, map_index, entered_later)
+                after, change, step_diags = apply_step(state, step, index, map_index, entered_later, known)
                 diags.extend(step_diags)
                 released_now: list[int] = []
                 if after is not None and step.releases:
