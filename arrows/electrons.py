@@ -10,7 +10,7 @@ from __future__ import annotations
 
 from dataclasses import dataclass, field
 from functools import lru_cache
-from typing import Optional
+from typing import NamedTuple, Optional
 
 from rdkit import Chem
 
@@ -201,8 +201,7 @@ def initial_nonbonding(mol: Chem.Mol) -> list[int]:
     return list(ElectronState.of_molecule(mol).nonbonding)
 
 
-@dataclass(frozen=True)   # generated __init__: several per step
-class ResolvedMove:
+class ResolvedMove(NamedTuple):   # several per step: a named tuple is the cheapest immutable record
     """A move with its atoms resolved to indices, for drawing and analysis.
 
     source_kind is "lone_pair", "unpaired" or "bond"; source_atoms holds one atom (lone pair,

@@ -18,8 +18,12 @@ def frozen(cls):
     cls = dataclass(init=False, repr=False, eq=False)(cls)
     every = fields(cls)
     cls._names = tuple(f.name for f in every)
-    cls._defaults = {f.name: f.default for f in every if f.default is not MISSING}
-    cls._factories = {f.name: f.default_factory for f in every if f.default_factory is not MISSING}
+    cls._position = {f.name: k for k, f in enumerate(every)}
+    # Per field: its default, or a marker for a factory's or a required one (see _completed).
+    cls._fill = tuple(f.default if f.default is not MISSING else _FACTORY if f.default_factory is not MISSING
+                      else _REQUIRED for f in every)
+    cls._factories = tuple((k, f.default_factory) for k, f in enumerate(every) if f.default_factory is not MISSING)
+    cls._required = tuple(k for k, value in enumerate(cls._fill) if value is _REQUIRED)
     cls._key = attrgetter(*(f.name for f in every if f.compare))
     cls._post_init = hasattr(cls, "__post_init__")
     for name in ("__init__", "__eq__", "__hash__", "__repr__", "__setattr__", "__delattr__"):
@@ -41,23 +45,28 @@ class _Signature:
 _SIGNATURE = _Signature()
 
 
+_FACTORY, _REQUIRED = object(), object()
+
+
 def _completed(cls, args: tuple, kwargs: dict) -> tuple:
     """Every field's value in order: the arguments given, then each field's default."""
-    names = cls._names
-    if len(args) > len(names):
-        raise TypeError(f"{cls.__qualname__}() takes {len(names)} arguments but {len(args)} were given")
+    given = len(args)
+    if given > len(cls._names):
+        raise TypeError(f"{cls.__qualname__}() takes {len(cls._names)} arguments but {given} were given")
     values = list(args)
-    for name in names[len(args):]:
-        if name in kwargs:
-            values.append(kwargs.pop(name))
-        elif name in cls._defaults:
-            values.append(cls._defaults[name])
-        elif name in cls._factories:
-            values.append(cls._factories[name]())
-        else:
-            raise TypeError(f"{cls.__qualname__}() missing argument {name!r}")
-    if kwargs:
-        raise TypeError(f"{cls.__qualname__}() got an unexpected or repeated argument {next(iter(kwargs))!r}")
+    values += cls._fill[given:]
+    position = cls._position
+    for name, value in kwargs.items():
+        k = position.get(name, -1)
+        if k < given:
+            raise TypeError(f"{cls.__qualname__}() got an unexpected or repeated argument {name!r}")
+        values[k] = value
+    for k, factory in cls._factories:
+        if values[k] is _FACTORY:
+            values[k] = factory()
+    for k in cls._required:
+        if values[k] is _REQUIRED:
+            raise TypeError(f"{cls.__qualname__}() missing argument {cls._names[k]!r}")
     return tuple(values)
 
 
