@@ -189,9 +189,10 @@ CODES = _table(
          "concerted, cyclic addition to both atoms of a double bond of known geometry (written E or Z, "
          "or in a ring of up to seven atoms): a peracid epoxidation, a bromonium ion, hydroboration, a "
          "Diels-Alder dienophile, get the configuration of a syn addition, both new bonds on one face; "
-         "a bromonium ion opened from the back then gives the anti product; so do the ends of a "
-         "Diels-Alder diene written E or Z (outside groups cis), unless the dienophile's carbons are "
-         "configured too (endo or exo is not known). A concerted elimination "
+         "a bromonium ion opened from the back then gives the anti product. The ends of a "
+         "Diels-Alder diene written E or Z at both ends are configured the same way (suprafacial: "
+         "outside groups cis), unless the dienophile's carbons are configured too (endo or exo is "
+         "not known). A concerted elimination "
          "across two configured centres sets the new double bond's geometry: anti-periplanar (E2), or "
          "syn when the leaving group takes the hydrogen (a Cope elimination). Other new centres (an "
          "aldol's, an addition to C=O) are counted as free.",
