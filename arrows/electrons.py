@@ -592,7 +592,7 @@ def _settle(state: ElectronState, step: Step, step_index: int, replay: _StepRepl
     touched = sorted(set(replay.d_nonbonding).union(*changes))
     change.touched_atoms = touched
     configured = state.configured
-    # A double bond made single may be one a syn addition configures (a ring's C=C is cis unwritten).
+    # The configuration rules run where a configuration exists, or where a syn addition can make one.
     if configured or may_configure(changes):
         def shifted(atom: int, leaving: int) -> bool:
             return any(m.source_kind == "bond" and set(m.source_atoms) == {atom, leaving} and atom in m.sink_atoms
