@@ -163,6 +163,20 @@ class _Obstacles:
         self.bond_index = {pair: k for k, pair in enumerate(pairs)}
         self.bond_a = [positions[i] for i, _ in pairs]
         self.bond_b = [positions[j] for _, j in pairs]
+        # The strokes of a double or triple bond off its centre line (an arrow can run between
+        # the centre line and the second stroke of a one-sided double): each of its own bond.
+        self.stroke_of, self.stroke_a, self.stroke_b = [], [], []
+        for k, pair in enumerate(pairs):
+            lean = panel.bond_lean.get(pair)
+            offsets = (lean,) if lean else ()
+            if not lean and panel.bond_extent.get(pair, 0.0) > 0.0:
+                a, b = positions[pair[0]], positions[pair[1]]
+                side = (b - a) / (abs(b - a) or 1.0) * 1j * panel.bond_extent[pair]
+                offsets = (side, -side)
+            for off in offsets:
+                self.stroke_of.append(k)
+                self.stroke_a.append(positions[pair[0]] + off)
+                self.stroke_b.append(positions[pair[1]] + off)
 
 
 _NO_BOX = (math.inf, math.inf, -math.inf, -math.inf)   # padding: contains no point
@@ -628,7 +642,15 @@ class ArrowPlanner:
                                   np.where(own_bare, 10.0, 30.0), crossing], axis=1)
         bond_a = _padded([o.bond_a for o in obs], 0j, complex)[where]
         bond_b = _padded([o.bond_b for o in obs], 0j, complex)[where]
-        counts = np.concatenate([counts, _crossing_counts(pts, bond_a, bond_b, extent)], axis=1)
+        crossed = _crossing_counts(pts, bond_a, bond_b, extent)
+        if any(o.stroke_of for o in obs):
+            # A bond is crossed once, by whichever of its strokes the curve crosses (a padded
+            # stroke has no length and crosses nothing).
+            strokes = _crossing_counts(pts, _padded([o.stroke_a for o in obs], 0j, complex)[where],
+                                       _padded([o.stroke_b for o in obs], 0j, complex)[where], extent)
+            of = _padded([o.stroke_of for o in obs], 0, int)[where]
+            np.maximum.at(crossed, (np.arange(len(pts))[:, None], of), strokes)
+        counts = np.concatenate([counts, crossed], axis=1)
         # Whole counts times whole weights: the sum is exact, whatever the padding and order.
         cost = np.add.reduce(counts * weights[owner], axis=1)
         # Bulging into the molecule: atoms crowding the middle third of the curve.
