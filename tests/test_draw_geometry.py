@@ -947,6 +947,26 @@ def test_arrows_cross_few_bonds_across_the_gallery():
     assert crossed == []
 
 
+_TEXTBOOK_CROSSINGS = 23   # measured; see the docstring below
+
+
+def test_arrows_cross_few_bonds_across_the_drawn_textbook_schemes():
+    """A curved arrow runs round the structure rather than across a bond that is not its own
+    (common practice in organic chemistry texts). Measured over the drawn textbook schemes: 27
+    such crossings before a hook from an O-H or N-H bond to its own atom, beside a double bond
+    120 degrees round (a protonated carbonyl or iminium losing its proton), could come in through
+    the angle instead of reaching over the double bond's second stroke, 24; 23 since the planner
+    counts a crossing of a double bond's second stroke as a crossing of the bond (the ring
+    expansion's peracid oxygen went to the carbonyl carbon under the C=O's second stroke). This
+    keeps the count from growing back."""
+    crossed = []
+    for name, (text, _, drawn) in TEXTBOOK.items():
+        if drawn:
+            _, _, scene = _scene(text, name)
+            crossed += [(name,) + c for c in _bonds_crossed(scene)]
+    assert len(crossed) <= _TEXTBOOK_CROSSINGS, crossed
+
+
 # The gallery's anti-periplanar E2 with its substrate written in other atom orders and each of its
 # four configurations: C1, which loses the hydrogen, holds three heavy neighbours.
 _E2_ORDERS = ("[CH3:5][C{c1}H:1](c1ccccc1)[C{c2}H:2]([CH3:6])[Br:3]",

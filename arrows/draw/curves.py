@@ -50,6 +50,7 @@ _SHIFT_BULGE = 0.2              # bond lengths a 1,2-shift's arc stands out from
 # outward arc meets where the migrating group, the pivot and the new partner stand in a triangle
 # (the Hofmann rearrangement's methyl shift to nitrogen, at 5.0, bulged inward).
 _TIGHT_SHIFT = 20.0
+_WIDE_ANGLE = math.radians(135)   # up to this angle a hook may reach over the neighbour's bond
 _CROOK = 1.0                    # penalty of an arc cramped inside the angle of the two bonds it joins
 # Reductions are called as numpy's ufunc methods (np.add.reduce for .sum, np.minimum.reduce for
 # .min) and nonzero as the array's method: the same work without the Python wrappers, which cost
@@ -162,6 +163,20 @@ class _Obstacles:
         self.bond_index = {pair: k for k, pair in enumerate(pairs)}
         self.bond_a = [positions[i] for i, _ in pairs]
         self.bond_b = [positions[j] for _, j in pairs]
+        # The strokes of a double or triple bond off its centre line (an arrow can run between
+        # the centre line and the second stroke of a one-sided double): each of its own bond.
+        self.stroke_of, self.stroke_a, self.stroke_b = [], [], []
+        for k, pair in enumerate(pairs):
+            lean = panel.bond_lean.get(pair)
+            offsets = (lean,) if lean else ()
+            if not lean and panel.bond_extent.get(pair, 0.0) > 0.0:
+                a, b = positions[pair[0]], positions[pair[1]]
+                side = (b - a) / (abs(b - a) or 1.0) * 1j * panel.bond_extent[pair]
+                offsets = (side, -side)
+            for off in offsets:
+                self.stroke_of.append(k)
+                self.stroke_a.append(positions[pair[0]] + off)
+                self.stroke_b.append(positions[pair[1]] + off)
 
 
 _NO_BOX = (math.inf, math.inf, -math.inf, -math.inf)   # padding: contains no point
@@ -504,15 +519,19 @@ class ArrowPlanner:
             p0 = src.point + normal * (src.extent + 0.05 * self.bl)
             reach = panel.label_reach(atom, normal)
             tip = snk.point + normal * (reach + 0.12 * self.fs if reach else 0.2 * self.bl)
-            out.append(_Candidate(p0, p0 + normal * h, tip + normal * h, tip))
+            plain = _Candidate(p0, p0 + normal * h, tip + normal * h, tip)
+            out.append(plain)
             # Between the bond and a neighbour's bond less than a right angle round (a C-H between
             # two methyls) that hook crosses the neighbour's bond. This one stays in the angle: it
             # sets off lower down the bond, bulges into the open part of the angle and comes up
-            # to the atom through the middle of the angle.
+            # to the atom through the middle of the angle. In a wider angle (an O-H beside a C=O,
+            # 120 degrees) it is offered only where the plain hook reaches over the neighbour's
+            # bond: where that crosses nothing it reads better (inside a ring this one is a V).
             side = 1 if (normal / along).imag > 0 else -1
-            room = min([t for t in (side * cmath.phase(d / along) for d in panel.bond_directions[atom]) if t > 1e-6]
-                       + [math.pi])
-            if room < math.pi / 2:
+            room, neighbour = min([(t, d) for t, d in ((side * cmath.phase(d / along), d)
+                                                       for d in panel.bond_directions[atom]) if t > 1e-6]
+                                  + [(math.pi, 0j)], key=lambda pair: pair[0])
+            if room < math.pi / 2 or (room < _WIDE_ANGLE and self._reaches_over(plain, atom, neighbour, panel)):
                 arrive = along * cmath.rect(1.0, side * room / 2)
                 reach = panel.label_reach(atom, arrive)
                 tip = snk.point + arrive * (reach + 0.12 * self.fs if reach else 0.2 * self.bl)
@@ -522,6 +541,18 @@ class ArrowPlanner:
                 out.append(_Candidate(start, start + normal * 0.55 * self.bl,
                                       tip + (normal * 0.3 + along * 0.25) * self.bl, tip))
         return out
+
+    def _reaches_over(self, c: _Candidate, atom: int, direction: complex, panel: PanelStructure) -> bool:
+        """Whether the curve crosses a stroke of the atom's bond going off in `direction` (a
+        double bond's second stroke included: its strokes lie within the bond's extent)."""
+        centre = panel.positions[atom]
+        for (i, j), extent in panel.bond_extent.items():
+            if atom in (i, j):
+                far = panel.positions[j if i == atom else i]
+                if abs(_unit(far - centre) - direction) < 1e-6:
+                    side = direction * 1j * extent
+                    return any(_curve_crosses(c, centre + off, far + off) for off in (0j, side, -side))
+        return False
 
     def _arc(self, src: _Anchor, snk: _Anchor, side: int, theta: float, panel: PanelStructure) -> _Candidate:
         """Leaves at theta to the chord on one side and arrives at theta on the same side, so
@@ -611,7 +642,15 @@ class ArrowPlanner:
                                   np.where(own_bare, 10.0, 30.0), crossing], axis=1)
         bond_a = _padded([o.bond_a for o in obs], 0j, complex)[where]
         bond_b = _padded([o.bond_b for o in obs], 0j, complex)[where]
-        counts = np.concatenate([counts, _crossing_counts(pts, bond_a, bond_b, extent)], axis=1)
+        crossed = _crossing_counts(pts, bond_a, bond_b, extent)
+        if any(o.stroke_of for o in obs):
+            # A bond is crossed once, by whichever of its strokes the curve crosses (a padded
+            # stroke has no length and crosses nothing).
+            strokes = _crossing_counts(pts, _padded([o.stroke_a for o in obs], 0j, complex)[where],
+                                       _padded([o.stroke_b for o in obs], 0j, complex)[where], extent)
+            of = _padded([o.stroke_of for o in obs], 0, int)[where]
+            np.maximum.at(crossed, (np.arange(len(pts))[:, None], of), strokes)
+        counts = np.concatenate([counts, crossed], axis=1)
         # Whole counts times whole weights: the sum is exact, whatever the padding and order.
         cost = np.add.reduce(counts * weights[owner], axis=1)
         # Bulging into the molecule: atoms crowding the middle third of the curve.
@@ -856,6 +895,17 @@ def _beside_bond(occupied: list[complex], toward: complex, tails: list[complex] 
 
 
 _SAME_SIDE = 40.0   # the two fishhooks of one split bond drawn on one side of it
+
+
+def _curve_crosses(c: _Candidate, a: complex, b: complex) -> bool:
+    """Whether the candidate's curve, as a polyline through its samples, crosses segment a-b."""
+    pts = (np.array([c.p0, c.p1, c.p2, c.tip]) @ _BERNSTEIN).tolist()
+
+    def area(p: complex, q: complex, r: complex) -> float:
+        return ((q - p) * (r - p).conjugate()).imag
+
+    return any(area(p, q, a) * area(p, q, b) < 0 and area(a, b, p) * area(a, b, q) < 0
+               for p, q in zip(pts, pts[1:]))
 
 
 def _to_own_atom(move: ResolvedMove) -> bool:
