@@ -197,6 +197,13 @@ CODES = _table(
          "syn when the leaving group takes the hydrogen (a Cope elimination). Other new centres (an "
          "aldol's, an addition to C=O) are counted as free.",
          '    :O4 -> C2=O3 ... an aldol addition: new stereocentre C5 (a note, not a fault)'),
+    Code("AR603", WARNING, "configuration written otherwise",
+         "A checkpoint or the product is written with a configuration (@, @@, / or \\) that the steps "
+         "do not give: a diastereomer of the derived structure, or its enantiomer when a species was "
+         "written with a configured centre. Only pieces of the same constitution are compared, and only "
+         "when the steps configure as many stereo elements as are written; an enantiomer of a product "
+         "formed as the racemate is no mismatch.",
+         'product "C/C=C(/C)c1ccccc1"   # Z written; the anti E2 of the (2R,3R) bromide gives E'),
 )
 
 

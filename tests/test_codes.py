@@ -15,6 +15,7 @@ from arrows.diagnostics import CODES
 
 from small_mechanisms import (ACID_BASE, ALDOL, BECKMANN_SHIFT, KETYL, CHLORINE, CORRECT, E1, E2, ENOLATE_RESONANCE, HBR_ADDITION,
                               HYDRIDE_TRANSFER, NITRILE, PROTON_EXCHANGE, RADICALS, RETRO_ALDOL, RING_CLOSURE, SN2, SULFONIUM)
+from textbook_mechanisms import TEXTBOOK
 
 
 def findings(diags):
@@ -186,6 +187,11 @@ TWINS = [
          says=("S3", "10 valence electrons")),
     Twin("step without moves", SN2, 'product "CO.[Br-]"', 'step "nothing happens"\nend\nproduct "CO.[Br-]"',
          "AR506", 'step "nothing happens"'),
+    # The backside attack inverts the written centre (Walden inversion, textbook); the product line
+    # written with the configuration kept is the enantiomer of what the steps give.
+    Twin("product written with another configuration (warning)", TEXTBOOK["sn2 inversion"][0],
+         'product "CC[C@H](C)O.[Br-]"', 'product "CC[C@@H](C)O.[Br-]"', "AR603", "product",
+         says=("enantiomers",), hint_says=("arrows trace --stereo",)),
 ]
 
 

@@ -679,3 +679,71 @@ def test_a_forgotten_double_bond_is_not_read_back_from_its_neighbours(smiles, fo
     again = Chem.Mol(work)
     Chem.AssignStereochemistry(again, cleanIt=True, force=True)
     assert Chem.MolToSmiles(again) == Chem.MolToSmiles(Chem.MolFromSmiles(kept))
+
+
+def _product_warnings(text: str) -> list:
+    trace, diags = check_text(text)
+    assert [d.to_text() for d in diags if d.severity == "error"] == []
+    return [d for d in diags if d.code == "AR603"]
+
+
+def test_a_product_written_as_the_other_alkene_is_flagged():
+    """Gallery 20's anti E2 gives (E)-2-phenylbut-2-ene (judged by a 3D model in test_gallery);
+    the product line written (Z) is a diastereomer of what the steps give: AR603 at that line."""
+    text = (GALLERY[0].parent / "20-e2-anti-periplanar.mech").read_text(encoding="utf-8")
+    written_e = next(line for line in text.splitlines() if line.startswith("product"))
+    wrong = text.replace(written_e, 'product "C/C=C(/C)c1ccccc1"')
+    assert _product_warnings(text) == []
+    found = _product_warnings(wrong)
+    assert len(found) == 1 and "diastereomers" in found[0].message, found
+    line = wrong.splitlines().index('product "C/C=C(/C)c1ccccc1"') + 1
+    assert (found[0].loc.line, found[0].loc.column) == (line, 1)
+
+
+def test_a_product_written_with_retention_after_an_sn2_is_flagged():
+    """Textbook Walden inversion: (S)-2-bromobutane and hydroxide give (R)-butan-2-ol. Written
+    with the configuration kept, the product is the enantiomer of what the steps give, and the
+    start is configured (not a racemate): AR603. The textbook product line passes."""
+    from textbook_mechanisms import TEXTBOOK
+    text = TEXTBOOK["sn2 inversion"][0]
+    assert _product_warnings(text) == []
+    found = _product_warnings(text.replace('product "CC[C@H](C)O.[Br-]"', 'product "CC[C@@H](C)O.[Br-]"'))
+    assert len(found) == 1 and "enantiomers" in found[0].message, found
+
+
+@pytest.mark.parametrize("written, flagged", [("C[C@@H](Br)[C@@H](C)Br", False), ("C[C@H](Br)[C@H](C)Br", False),
+                                              ("C[C@H](Br)[C@@H](C)Br", True)],
+                         ids=["one enantiomer", "the other enantiomer", "the meso diastereomer"])
+def test_a_racemic_product_may_be_written_as_either_enantiomer(written, flagged):
+    """Textbook: (Z)-but-2-ene and bromine give the racemate of (2R,3R)/(2S,3S)-2,3-dibromobutane,
+    so either enantiomer is a right product line; the meso compound is not (judged by RDKit's
+    canonical SMILES of the mirror image, see test_bromine_adds_anti_through_the_bromonium_ion)."""
+    from stereo_mechanisms import SYN_ADDITIONS
+    text = SYN_ADDITIONS["bromine to Z-but-2-ene"]
+    meso = Chem.MolToSmiles(Chem.MolFromSmiles(written)) == Chem.MolToSmiles(_mirror(Chem.MolFromSmiles(written)))
+    assert meso == flagged
+    found = _product_warnings(text + f'product "{written}"\n')
+    assert bool(found) == flagged, found
+
+
+def test_an_expect_checkpoint_written_otherwise_is_flagged_at_its_step():
+    """The same comparison for `expect` after a step: the bromonium ion from (E)-but-2-ene is the
+    syn (trans-dimethyl) ion, so writing the cis one is flagged at that checkpoint."""
+    from stereo_mechanisms import SYN_ADDITIONS
+    text = SYN_ADDITIONS["bromine to E-but-2-ene"]
+    trace, _ = check_text(text)
+    derived = _product(trace.steps[0].after)[0]
+    expects_right = text.replace('    Br3-Br4 -> Br4\nend\n', f'    Br3-Br4 -> Br4\n    expect "{derived}"\nend\n', 1)
+    assert _product_warnings(expects_right) == []
+    ring = Chem.MolFromSmiles(derived)
+    other = [Chem.MolToSmiles(m) for m in _diastereomers(ring) if Chem.MolToSmiles(m) != Chem.MolToSmiles(ring)
+             and Chem.MolToSmiles(m) != Chem.MolToSmiles(_mirror(ring))]
+    assert other, derived
+    found = _product_warnings(text.replace('    Br3-Br4 -> Br4\nend\n', f'    Br3-Br4 -> Br4\n    expect "{other[0]}"\nend\n', 1))
+    assert len(found) == 1 and found[0].step == 0 and "checkpoint" in found[0].message, found
+
+
+def _diastereomers(mol: Chem.Mol) -> list:
+    """Every configuration of `mol`'s stereocentres (RDKit's enumeration)."""
+    options = StereoEnumerationOptions(onlyUnassigned=False, unique=True)
+    return list(EnumerateStereoisomers(mol, options=options))

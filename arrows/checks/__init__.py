@@ -65,9 +65,10 @@ def _registry() -> list[Check]:
         from .stereo import StereoChanges
         from .structure import NothingAfterProduct, SomethingToCheck, StepsHaveMoves
         from .valence import UnusualElectronCounts
+        from .written_stereo import WrittenConfigurationMatches
         _CHECK_CLASSES.extend([SomethingToCheck, NothingAfterProduct, StepsHaveMoves, UnusualElectronCounts,
                                ChargeAndAtomsConserved, RingClosures, CheckpointsMatch, UphillProtonTransfers,
-                               StereoChanges, MigrationAntiToLeavingGroup])
+                               StereoChanges, MigrationAntiToLeavingGroup, WrittenConfigurationMatches])
     return [cls() for cls in _CHECK_CLASSES]
 
 

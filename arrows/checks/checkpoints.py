@@ -72,7 +72,7 @@ def _written_fragments(checkpoint: Checkpoint) -> tuple[Optional[list[Fragment]]
     mol, _, _ = read_smiles(checkpoint.smiles, sanitize=False)   # sanitized once, by fragments()
     if mol is not None:
         # The bookkeeping follows electrons and connectivity, not configuration: a checkpoint written
-        # with @ or / \ is compared as its constitution (`arrows trace --stereo` reports stereo).
+        # with @ or / \ is compared as its constitution here; its configuration is AR603's (written_stereo.py).
         Chem.RemoveStereochemistry(mol)
         atoms = atom_list(mol)
         maps = frozenset(a.GetAtomMapNum() for a in atoms if a.GetAtomMapNum())

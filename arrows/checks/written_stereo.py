@@ -1,0 +1,93 @@
+"""A checkpoint or the product written with a configuration (@, @@, / or \\) other than the one
+the steps give (AR603). The constitution is CheckpointsMatch's to judge: here only a written piece
+and a derived piece of one constitution are compared, and only when the derived piece is
+configured at as many elements as the written one (the steps configure few centres; of the others
+nothing is said). An enantiomer of a product that forms as the racemate is no mismatch."""
+from __future__ import annotations
+
+from typing import Iterator, Optional
+
+from rdkit import Chem
+
+from ..diagnostics import Diagnostic
+from ..electrons import ElectronState
+from ..judgement.stereo import DIASTEREOMERS, ENANTIOMERS, relation
+from ..model import Checkpoint, Mechanism
+from ..rdkit_io import potential_stereo
+from ..trace import StepTrace
+from . import Check, Ending
+
+_MARKS = ("@", "/", "\\")
+
+
+def _pieces(mol: Chem.Mol) -> dict[str, tuple[str, int]]:
+    """Per constitution (SMILES without configuration): the piece's SMILES with its configuration
+    and the number of its configured stereo elements. Map numbers and hydrogen atoms are dropped."""
+    work = Chem.RWMol(mol)
+    for atom in work.GetAtoms():
+        atom.SetAtomMapNum(0)
+    Chem.SanitizeMol(work)
+    out = {}
+    for piece in Chem.GetMolFrags(Chem.RemoveHs(work), asMols=True, sanitizeFrags=False):
+        configured = sum(info.specified == Chem.StereoSpecified.Specified for info in potential_stereo(piece, clean=False))
+        out[Chem.MolToSmiles(piece, isomericSmiles=False)] = (Chem.MolToSmiles(piece), configured)
+    return out
+
+
+def _racemic_start(mechanism: Mechanism) -> bool:
+    """No species is written with a chiral centre: a chiral product forms as the racemate."""
+    written = [s.smiles for s in mechanism.species] + [s.smiles for st in mechanism.steps for s in st.uses]
+    return not any("@" in smiles for smiles in written)
+
+
+def mismatches(state: ElectronState, checkpoint: Checkpoint, what: str, step: Optional[int],
+               racemic: bool) -> list[Diagnostic]:
+    """AR603 for each written piece of `checkpoint` configured otherwise than `state` has it."""
+    if not any(mark in checkpoint.smiles for mark in _MARKS):
+        return []
+    written_mol = Chem.MolFromSmiles(checkpoint.smiles)
+    if written_mol is None:
+        return []   # unreadable: CheckpointsMatch says so
+    try:
+        written, derived = _pieces(written_mol), _pieces(state.mol)
+    except Exception:   # an intermediate RDKit will not perceive says nothing either way
+        return []
+    found = []
+    for constitution, (smiles, configured) in written.items():
+        if not configured or constitution not in derived:
+            continue
+        derived_smiles, derived_configured = derived[constitution]
+        if derived_configured != configured:
+            continue
+        kind = relation(smiles, derived_smiles)
+        if kind == DIASTEREOMERS or (kind == ENANTIOMERS and not racemic):
+            found.append(Diagnostic(
+                "AR603", f"the {what} is written {smiles}, but the steps give {derived_smiles} ({kind})",
+                checkpoint.loc, step=step,
+                hint="write the configuration the steps give, or check the configured species and the "
+                     "stereospecific steps (`arrows trace --stereo` lists what each step configures)"))
+    return found
+
+
+class WrittenConfigurationMatches(Check):
+    name = "written configuration"
+    codes = ("AR603",)
+
+    def __init__(self) -> None:
+        self.racemic = True   # until a species written with a configured centre is met
+
+    def step(self, st: StepTrace, context) -> Iterator[Diagnostic]:
+        # The species written so far: the whole starting state, then those a step brings in.
+        newcomers = range(st.before.mol.GetNumAtoms()) if st.index == 0 else st.entered
+        atom = st.before.mol.GetAtomWithIdx
+        if self.racemic and any(atom(i).GetChiralTag() != Chem.ChiralType.CHI_UNSPECIFIED for i in newcomers):
+            self.racemic = False
+        if st.after is None:
+            return
+        for checkpoint in st.step.expects:
+            yield from mismatches(st.after, checkpoint, "checkpoint", st.index, self.racemic)
+
+    def finish(self, end: Ending, context) -> Iterator[Diagnostic]:
+        product = end.mechanism.product
+        if product is not None and end.final is not None:
+            yield from mismatches(end.final, product, "product", None, _racemic_start(end.mechanism))
