@@ -80,7 +80,8 @@ class WrittenConfigurationMatches(Check):
         # The species written so far: the whole starting state, then those a step brings in.
         newcomers = range(st.before.mol.GetNumAtoms()) if st.index == 0 else st.entered
         atom = st.before.mol.GetAtomWithIdx
-        if self.racemic and any(atom(i).GetChiralTag() != Chem.ChiralType.CHI_UNSPECIFIED for i in newcomers):
+        if self.racemic and st.before.configured and any(
+                atom(i).GetChiralTag() != Chem.ChiralType.CHI_UNSPECIFIED for i in newcomers):
             self.racemic = False
         if st.after is None:
             return
