@@ -245,26 +245,33 @@ _CYCLIC_REACH = 4   # bonds between the two atoms a reagent adds through: a dien
 
 def _path_around(mol: Chem.Mol, a: int, b: int, most_bonds: int) -> Optional[list[int]]:
     """The atoms of the shortest path from a to b of at most `most_bonds` bonds not through the
-    bond a-b itself: the ring it lies in (breadth first; a state's ring information may not be
-    set, and RDKit's shortest path would take the bond)."""
-    came_from = {a: a}
-    frontier = [a]
+    bond a-b itself: the ring it lies in (a state's ring information may not be set, and RDKit's
+    shortest path would take the bond)."""
+    return _shortest_path(mol, a, b, most_bonds, lambda atom, n: atom == a and n == b)
+
+
+def _shortest_path(mol: Chem.Mol, start: int, goal: int, most_bonds: int,
+                   blocked: Callable[[int, int], bool]) -> Optional[list[int]]:
+    """The atoms of a shortest path from start to goal of at most `most_bonds` bonds that takes
+    no step atom -> n for which `blocked(atom, n)` holds (breadth first); None when there is none."""
+    came_from = {start: start}
+    frontier = [start]
     for _ in range(most_bonds):
         following = []
         for atom in frontier:
             for neighbour in mol.GetAtomWithIdx(atom).GetNeighbors():
                 n = neighbour.GetIdx()
-                if n in came_from or (atom == a and n == b):
+                if n in came_from or blocked(atom, n):
                     continue
                 came_from[n] = atom
-                if n == b:
-                    path = [b]
-                    while path[-1] != a:
+                if n == goal:
+                    path = [goal]
+                    while path[-1] != start:
                         path.append(came_from[path[-1]])
                     return path[::-1]
                 following.append(n)
         frontier = following
-    return None
+    return [start] if start == goal else None
 
 
 def _set_syn_configuration(before: Chem.Mol, after: Chem.RWMol, a: int, b: int, x: int, y: int,
@@ -316,30 +323,14 @@ def _eliminations(mol: Chem.Mol, changes: dict[Pair, tuple[int, int]], formed, b
             p, q = broken[a][0], broken[b][0]
             takers = formed.get(p, [])
             if len(takers) == 1:
-                out.append((a, b, p, q, _joined_apart_from(mol, takers[0], q, b, 3)))
+                syn = _shortest_path(mol, takers[0], q, 3, lambda atom, n: n == b) is not None
+                out.append((a, b, p, q, syn))
                 break
     return out
 
 
 def _pair(i: int, j: int) -> Pair:
     return (i, j) if i < j else (j, i)
-
-
-def _joined_apart_from(mol: Chem.Mol, start: int, goal: int, avoid: int, most_bonds: int) -> bool:
-    """Whether `start` reaches `goal` in at most `most_bonds` bonds without passing `avoid`."""
-    seen, frontier = {start, avoid}, [start]
-    for _ in range(most_bonds):
-        following = []
-        for atom in frontier:
-            for neighbour in mol.GetAtomWithIdx(atom).GetNeighbors():
-                n = neighbour.GetIdx()
-                if n == goal:
-                    return True
-                if n not in seen:
-                    seen.add(n)
-                    following.append(n)
-        frontier = following
-    return start == goal
 
 
 # A Newman projection along a -> b (x axis) of the eliminating bond, as coordinates: p on a points

@@ -631,7 +631,7 @@ def _bond_faults(state: ElectronState, step: Step, step_index: int, replay: _Ste
     """AR303 (an odd electron count), AR302 (beyond triple), AR305 (a sigma bond made or broken in
     a resonance step) for one bond the step changes."""
     found = []
-    label = f"{state.label(key[0])}-{state.label(key[1])}"
+    label = replay.bond_name(*key)
     first = replay.first_move_on_bond[key]
     bonds = ((state.label(key[0]), state.label(key[1])),)
     if after % 2:

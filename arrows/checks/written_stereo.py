@@ -16,26 +16,25 @@ from ..model import Checkpoint, Mechanism
 from ..rdkit_io import potential_stereo
 from ..trace import StepTrace
 from . import Check, Ending
+from .checkpoints import fragments
 
 _MARKS = ("@", "/", "\\")
 
 
 def _pieces(mol: Chem.Mol) -> dict[str, tuple[str, int]]:
     """Per constitution (SMILES without configuration): the piece's SMILES with its configuration
-    and the number of its configured stereo elements. Map numbers and hydrogen atoms are dropped."""
-    work = Chem.RWMol(mol)
-    for atom in work.GetAtoms():
-        atom.SetAtomMapNum(0)
-    Chem.SanitizeMol(work)
+    and the number of its configured stereo elements (map numbers and hydrogen atoms dropped, as
+    the checkpoint comparison prepares them)."""
     out = {}
-    for piece in Chem.GetMolFrags(Chem.RemoveHs(work), asMols=True, sanitizeFrags=False):
-        configured = sum(info.specified == Chem.StereoSpecified.Specified for info in potential_stereo(piece, clean=False))
-        out[Chem.MolToSmiles(piece, isomericSmiles=False)] = (Chem.MolToSmiles(piece), configured)
+    for piece in fragments(mol):
+        configured = sum(info.specified == Chem.StereoSpecified.Specified
+                         for info in potential_stereo(piece.mol, clean=False))
+        out[Chem.MolToSmiles(piece.mol, isomericSmiles=False)] = (piece.smiles, configured)
     return out
 
 
-def _racemic_start(mechanism: Mechanism) -> bool:
-    """No species is written with a chiral centre: a chiral product forms as the racemate."""
+def racemic_start(mechanism: Mechanism) -> bool:
+    """No species is written with a configured centre: a chiral product forms as the racemate."""
     written = [s.smiles for s in mechanism.species] + [s.smiles for st in mechanism.steps for s in st.uses]
     return not any("@" in smiles for smiles in written)
 
@@ -91,4 +90,4 @@ class WrittenConfigurationMatches(Check):
     def finish(self, end: Ending, context) -> Iterator[Diagnostic]:
         product = end.mechanism.product
         if product is not None and end.final is not None:
-            yield from mismatches(end.final, product, "product", None, _racemic_start(end.mechanism))
+            yield from mismatches(end.final, product, "product", None, racemic_start(end.mechanism))

@@ -3,6 +3,7 @@ between stereo-specified checkpoint structures, and the stereoisomers of the fin
 from __future__ import annotations
 
 from ..checks.stereo import final_stereo, step_stereo
+from ..checks.written_stereo import racemic_start
 from ..judgement.stereo import CENTRE, describe, is_chiral, pairwise_relations
 from ..trace import StepTrace, Trace
 
@@ -38,8 +39,7 @@ def final_lines(trace: Trace) -> list[str]:
     if trace.final is None:
         return lines + ["  the final state was not derived"]
     products = final_stereo(trace)
-    written = [s.smiles for s in trace.mechanism.species] + [s.smiles for st in trace.mechanism.steps for s in st.uses]
-    achiral_start = not any("@" in smiles for smiles in written)
+    achiral_start = racemic_start(trace.mechanism)
     for p in products:
         if p.stereoisomers is None:
             count = "stereoisomers not counted (RDKit cannot enumerate this structure)"

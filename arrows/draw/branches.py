@@ -143,15 +143,10 @@ def slot_beside(points: np.ndarray, bonds: Sequence[tuple[int, int]], ring_bonds
         if centre in side or slot in side:
             continue
         turn = (points[slot] - points[centre]) / (points[branch] - points[centre])
-        turn /= abs(turn)
-        trial = points.copy()
-        moved = np.array(sorted(side))
-        trial[moved] = points[centre] + (points[moved] - points[centre]) * turn
+        trial, room = _turned(points, centre, side, turn / abs(turn), slot)
         trial[slot] = points[branch]
         if not _beside(trial, centre, slot, partners, adjacent):
             continue
-        still = np.array([k for k in range(len(points)) if k not in side and k != slot])
-        room = float(np.abs(trial[moved][:, None] - trial[still][None, :]).min())
         if best is None or room > best[0]:
             best = (room, trial)
     return _opened(points if best is None else best[1], adjacent, ring_bonds, centre, slot, partners)
@@ -179,11 +174,18 @@ def _opened(points: np.ndarray, adjacent: Sequence[Sequence[int]], ring_bonds: s
         side = _side(branch, centre, adjacent)
         if centre in side or slot in side:
             continue
-        moved = np.array(sorted(side))
         turn = cmath.rect(1.0, sense * (math.radians(target) - turned_from_x(branch)))
-        trial = points.copy()
-        trial[moved] = here + (points[moved] - here) * turn
-        still = np.array([k for k in range(len(points)) if k not in side and k != slot])
-        if float(np.abs(trial[moved][:, None] - trial[still][None, :]).min()) >= _EASED:
+        trial, room = _turned(points, centre, side, turn, slot)
+        if room >= _EASED:
             points = trial
     return points
+
+
+def _turned(points: np.ndarray, centre: int, side: set[int], turn: complex, slot: int) -> tuple[np.ndarray, float]:
+    """`points` with the atoms of `side` turned by `turn` (a unit complex) about `centre`, and the
+    least distance from a turned atom to any other atom but `slot`."""
+    moved = np.array(sorted(side))
+    trial = points.copy()
+    trial[moved] = points[centre] + (points[moved] - points[centre]) * turn
+    still = np.array([k for k in range(len(points)) if k not in side and k != slot])
+    return trial, float(np.abs(trial[moved][:, None] - trial[still][None, :]).min())
