@@ -120,9 +120,10 @@ class ElectronState:
         the combined Mol again."""
         offset = len(self.nonbonding)
         shifted = {(i + offset, j + offset, order) for i, j, order in other.bond_framework()}
+        cations = self.cations().union(i + offset for i in other.cations())   # then each step hands them on
         return ElectronState(mol, self.nonbonding + other.nonbonding, self.released, self.valence + other.valence,
                              self.bond_sums + other.bond_sums, self.elements + other.elements,
-                             bool(self.configured or other.configured), self.bond_framework().union(shifted))
+                             bool(self.configured or other.configured), self.bond_framework().union(shifted), cations)
 
     def bond_electrons(self, i: int, j: int) -> int:
         bond = self.mol.GetBondBetweenAtoms(i, j)

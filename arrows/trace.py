@@ -256,7 +256,7 @@ class Replay:
             released_now.extend(sorted(fragment))
             released |= fragment
         return ElectronState(after.mol, after.nonbonding, frozenset(released), after.valence, after.bond_sums,
-                            after.elements, after.configured, after.framework), released_now
+                            after.elements, after.configured, after.framework, after.cation_atoms), released_now
 
 
 def replay(mechanism: Mechanism) -> Trace:

@@ -11,14 +11,14 @@ from __future__ import annotations
 
 from contextlib import contextmanager
 from contextvars import ContextVar
-from typing import Callable, Iterator, Optional
+from typing import Callable, Iterator, NamedTuple, Optional
 
 from rdkit import Chem
 
 from ..diagnostics import Diagnostic
 from ..judgement.acidity import HYDROGEN, Acidity, acidity_of
 from ..judgement.perception import Perceived, RecentViews
-from ..model import Location, frozen
+from ..model import Location
 from ..trace import StepTrace
 from . import Check
 
@@ -42,8 +42,7 @@ def pka_gap(value: float) -> Iterator[None]:
         _gap.reset(token)
 
 
-@frozen
-class ProtonTransfer:
+class ProtonTransfer(NamedTuple):   # one per proton-transfer arrow: a named tuple is the cheapest record
     base_atom: int
     acid_atom: int
     hydrogen: int
@@ -68,11 +67,11 @@ def proton_transfers(st: StepTrace, views: Optional[RecentViews] = None) -> list
     for m in st.change.moves:
         if m.electrons != 2 or len(m.sink_atoms) != 2:
             continue
-        base, h = m.sink_atoms if m.source_kind == "bond" else (m.source_atoms[0], _other(m.sink_atoms, m.source_atoms[0]))
+        base, h = m.sink_atoms   # a new bond is written (the atom the pair stays on, the other)
         if elements[h] != 1 or h in m.source_atoms:
             continue   # not to a hydrogen, or the hydrogen moves with its own pair (a hydride shift)
         given_up = [b for b in broken if h in b]   # the X-H bond this step breaks
-        if len(given_up) != 1 or before.GetAtomWithIdx(h).GetDegree() != 1:
+        if len(given_up) != 1 or st.before.bond_sums[h] != 1:   # a hydrogen bridging two atoms is no proton
             continue
         x = _other(given_up[0], h)
         if any(b is not given_up[0] and elements[b[0]] != 1 and elements[b[1]] != 1

@@ -100,6 +100,9 @@ class StereoChanges(Check):
     def __init__(self) -> None:
         self.touched: set[int] = set()
         self.last_loc = None
+        # A stereo element's atoms are heavy atoms, whose labels (element and map number, or
+        # position) never change in a replay: each is read off a Mol once.
+        self.labels: dict[int, str] = {}
 
     def step(self, st: StepTrace, context) -> Iterator[Diagnostic]:
         self.touched.update(st.change.touched_atoms)
@@ -107,16 +110,21 @@ class StereoChanges(Check):
         made, lost = step_stereo(st, context.views)
         if not made and not lost:
             return
-        names = {i: st.after.label(i) for e in made + lost for i in e.atoms}   # each written once
-        label = names.__getitem__
+        labels = self.labels
+        for e in made + lost:
+            for i in e.atoms:
+                if i not in labels:
+                    labels[i] = st.after.label(i)
+        label = labels.__getitem__
         parts = []
         if made:
             parts.append(f"new {_said(made, label)}")
-            if _configured_centres(st.after, made):
+            configured = st.after.configured   # the rules below can only have acted in a configured state
+            if configured and _configured_centres(st.after, made):
                 # configuration.py sets a new centre's configuration for one rule only
                 parts[-1] += ", configured by the step (both new bonds on one face of the double bond or diene)"
             bond = st.after.mol.GetBondBetweenAtoms
-            if any(e.kind != CENTRE and bond(*e.atoms).GetStereo() != Chem.BondStereo.STEREONONE for e in made):
+            if configured and any(e.kind != CENTRE and bond(*e.atoms).GetStereo() != Chem.BondStereo.STEREONONE for e in made):
                 parts[-1] += (", its geometry set by the step (a concerted elimination from two configured "
                               "centres, the two groups leaving periplanar)")
         if lost:
