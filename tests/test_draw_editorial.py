@@ -322,3 +322,28 @@ def test_an_sn2_nucleophile_comes_in_opposite_the_leaving_group(source):
     group = leaving.sink_atoms[0]
     angle = abs(math.degrees(cmath.phase((where[nucleophile] - where[centre]) / (where[group] - where[centre]))))
     assert angle >= 150, angle
+
+
+def test_an_ionising_leaving_group_gets_a_readable_half_loop():
+    """E1 of tert-butanol (textbook set; common practice): the protonated alcohol's C-O bond
+    stands between two methyls, 60 degrees from each (the cation the step makes keeps them
+    trigonal). The arrow of the ionisation, the C2-O5 pair onto O5, is a half-loop beside the
+    bond at least 0.85 bond lengths long and standing at least 0.45 bond lengths off the bond's
+    line, as long as the half-loops of the SN1 and E1 figures of the textbook set (0.91 and 0.93).
+    The hydrogen O5 took from H3O+ stood toward the acid, 50 degrees off the bond's line, which
+    wrote O5's own hydrogen on the side the arrow needs: the arrow was a hook of 0.68 standing
+    0.35 off the bond, squeezed between the bond, a methyl and the label's H."""
+    from textbook_mechanisms import TEXTBOOK
+    trace, diags = arrows.check_text(TEXTBOOK["e1 tert-butanol"][0], "e1.mech")
+    scene = build_scene(trace, STYLES["two-column"], diags)
+    bl = scene.bond_length
+    panel = scene.panels[1]
+    where = {a.index: complex(*a.position) for a in panel.atoms}
+    arrow, = [a for a in panel.arrows if a.move == "C2-O5 -> O5"]
+    centre, leaving = (where[i] for i in arrow.source_atoms)
+    axis = (leaving - centre) / abs(leaving - centre)
+    points = [complex(*p) for p in arrow.path_points(80)]
+    length = sum(abs(q - p) for p, q in zip(points, points[1:])) / bl
+    standoff = max(abs(((p - centre) / axis).imag) for p in points) / bl
+    assert length >= 0.85, length
+    assert standoff >= 0.45, standoff

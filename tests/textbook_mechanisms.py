@@ -298,6 +298,28 @@ end
 product "CC=C(C)C.O.[OH3+]"
 '''
 
+# E1 of tert-butanol (common practice; the textbook outcome is 2-methylpropene): the alcohol
+# protonated, water leaves the tertiary centre (shown leaving over the reaction arrow), and water
+# takes a proton from a methyl. The centre carries three carbons that never change, so the
+# protonated alcohol's C-O bond stands between two methyls, 60 degrees from each.
+E1_TERT_BUTANOL = '''\
+species alcohol = "[CH3:1][C:2]([CH3:3])([CH3:4])[OH:5]"
+species acid = "[OH3+:6]"
+step "protonation" reversible over "H2SO4"
+    :O5 -> H(O6)
+    O6-H -> O6
+end
+step "ionisation"
+    C2-O5 -> O5
+    releases O5
+end
+step "deprotonation"
+    :O6 -> H(C1)
+    C1-H -> C1=C2
+end
+product "C=C(C)C.[OH3+]"
+'''
+
 # Friedel-Crafts acylation: an acylium attacks benzene; chloride restores the ring.
 FRIEDEL_CRAFTS_ACYLATION = '''\
 species benzene = "[cH:1]1[cH:2][cH:3][cH:4][cH:5][cH:6]1"
@@ -2156,6 +2178,7 @@ TEXTBOOK = {
     "enol bromination": (ENOL_BROMINATION, "CC(=O)CBr.Br", True),
     "sn1 hydrolysis": (SN1_HYDROLYSIS, "CC(C)(C)O.[Br-].[OH3+]", True),
     "e1 dehydration": (E1_DEHYDRATION, "CC=C(C)C.O.[OH3+]", True),
+    "e1 tert-butanol": (E1_TERT_BUTANOL, "C=C(C)C.[OH3+]", True),
     "friedel-crafts acylation": (FRIEDEL_CRAFTS_ACYLATION, "CC(=O)c1ccccc1.Cl", True),
     "acid enolisation": (ACID_ENOLISATION, "C=C(C)O.[OH3+]", True),
     "aminolysis": (AMINOLYSIS, "CC(N)=O.C[O-].[NH4+]", True),

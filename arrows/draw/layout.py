@@ -535,6 +535,7 @@ class _LayoutBuilder:
             self.orders_in.append(orders)
             self.holders.append(holders)
             self.bonds_in.append(set(orders))
+        self.leaving = self._heterolyses(moves)
         # The double bonds a species wrote E or Z for, which the depiction must draw so.
         self.written_double = _written_double_bonds(self.states)
         self.sorted_union = sorted(self.union.items())   # in the order _depict adds bonds to its Mol
@@ -560,6 +561,20 @@ class _LayoutBuilder:
                 self.may_bend.add(atom)
 
     # structure of the problem
+    def _heterolyses(self, moves: Sequence[Sequence[ResolvedMove]]) -> dict[int, list[tuple[int, int]]]:
+        """atom -> (neighbour, step) for each bond that a step breaks with both electrons going
+        onto the atom: a leaving group's bond to the centre it leaves."""
+        out: dict[int, list[tuple[int, int]]] = {}
+        for k, panel_moves in enumerate(moves[:self.n - 1]):
+            for move in panel_moves:
+                if move.source_kind != "bond" or move.electrons != 2 or len(move.sink_atoms) != 1:
+                    continue
+                atom = move.sink_atoms[0]
+                bond = tuple(sorted(move.source_atoms))
+                if atom in bond and bond in self.bonds_in[k] and bond not in self.bonds_in[k + 1]:
+                    out.setdefault(atom, []).append((bond[0] + bond[1] - atom, k))
+        return out
+
     def build(self) -> Layout:
         self._find_clusters()
         self.residences = self._residences()
@@ -1859,7 +1874,26 @@ class _LayoutBuilder:
                 # from only matters if it goes nowhere next.
                 before.direction = direction if before.holder == anchor else -direction
                 if after.direction is None and not leave_after:
-                    after.direction = -direction if before.holder == anchor else direction
+                    after.direction = self._straight_on_from_leaving_bond(after) or (
+                        -direction if before.holder == anchor else direction)
+
+    def _straight_on_from_leaving_bond(self, r: _Residence) -> Optional[complex]:
+        """A hydrogen that comes to a leaving group holding nothing else, just before the group
+        leaves (an alcohol protonated, then ionised), and whose bond to the centre is drawn
+        nearer upright than level: it points straight on from that bond. The label writes the
+        group's own hydrogens to its left or right, which beside an upright bond takes one side
+        of it; pointing back toward the acid, the hydrogen took the other, and the half-loop onto
+        the group had no room (beside a level bond the written hydrogens sit straight on, and
+        the hydrogen keeps its side)."""
+        k, atom = r.first, r.holder
+        here = self.positions[k]
+        for partner, step in self.leaving.get(atom, ()):
+            if (step == k and self.element[partner] != 1 and not self.neighbours[atom] - {partner, r.hydrogen}
+                    and self.orders_in[k].get((min(atom, partner), max(atom, partner))) == 1
+                    and atom in here and partner in here):
+                out = _unit(here[atom] - here[partner])
+                return out if abs(out.imag) > abs(out.real) else None
+        return None
 
     def _waiting(self, index: int, segment: tuple[int, int], following: tuple, arrival: int) -> tuple:
         """Where a cluster waits before the run (from panel `arrival`) in which it is bonded:
