@@ -1168,21 +1168,27 @@ class _LayoutBuilder:
         for atom in group:
             mol.AddAtom(Chem.Atom(self.element[atom]))
         orders = {1: Chem.BondType.SINGLE, 2: Chem.BondType.DOUBLE, 3: Chem.BondType.TRIPLE}
-        ends = []     # in the order the bonds are added, which is their order in the Mol
+        # (begin, end) of every bond in the order it is added, which is its index in the Mol: kept
+        # here, as RDKit's bond iterator costs more than the depiction's own arithmetic.
+        all_ends = []
         for (i, j), order in self.sorted_union:
             if i in index and j in index and (only is None or (i, j) in only):
                 mol.AddBond(index[i], index[j], orders.get(order, Chem.BondType.SINGLE))
-                ends.append((index[i], index[j]))
+                all_ends.append((index[i], index[j]))
+        ends = all_ends[:]   # the cluster's own bonds, which set the scale
         for atom in group:
             for _ in range(self.room_kept.get(atom, 0)):
                 # A stand-in for the partner in another cluster, dropped below: the depiction
                 # keeps a bond's room for it.
-                mol.AddBond(index[atom], mol.AddAtom(Chem.Atom(0)), Chem.BondType.SINGLE)
+                stand_in = mol.AddAtom(Chem.Atom(0))
+                mol.AddBond(index[atom], stand_in, Chem.BondType.SINGLE)
+                all_ends.append((index[atom], stand_in))
         slots = {}   # holder's index -> the stand-in for its travelling hydrogen, dropped below
         for atom in group:
             if atom in self.fed_slots:
                 slots[index[atom]] = mol.AddAtom(Chem.Atom(0))
                 mol.AddBond(index[atom], slots[index[atom]], Chem.BondType.SINGLE)
+                all_ends.append((index[atom], slots[index[atom]]))
         wanted = dict(self.written_double)
         wanted.update({pair: (a, b, False) for pair, (a, b, _) in self.chain_double.items()
                        if panels is not None and any(k in panels for k in _)})
@@ -1208,7 +1214,6 @@ class _LayoutBuilder:
         # y is flipped: RDKit's y grows upwards, ours downwards.
         points = np.array([complex(x * scale, -y * scale) for x, y in zip(xs, ys)])
         rings = mol.GetRingInfo()
-        all_ends = [(b.GetBeginAtomIdx(), b.GetEndAtomIdx()) for b in mol.GetBonds()]
         in_ring = {(min(e), max(e)) for k, e in enumerate(all_ends) if rings.NumBondRings(k)}
         for centre, slot in slots.items():
             fed = {index[x] for x in self.fed_slots[group[centre]] if x in index
