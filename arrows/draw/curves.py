@@ -9,8 +9,8 @@ from a lone pair is shown by pointing at the atom that receives the pair.
 
 Each arrow is a cubic Bezier fixed by its two ends and the directions it leaves and arrives in.
 A handful of such curves is tried per arrow (leaving from either side of a bond, arriving at an
-atom from any free direction; an arrow to a proton that every one of them takes across a bond
-also tries wider arcs round the structure) and one is chosen for every arrow of a step
+atom from any free direction; an arrow to a proton whose cheapest one crosses a bond also
+tries wider arcs round the structure) and one is chosen for every arrow of a step
 together, by a penalty: passing through a label or an atom is nearly forbidden, crossing a bond
 or another arrow is costly, an arc bulging into the molecule costs more than one bulging out,
 an S-shaped arc is avoided, so is an arc that loops back on itself or squeezes into the angle
@@ -35,9 +35,9 @@ from .styles import Style
 _SAMPLES = 16
 _ANGLES = (math.radians(34), math.radians(58))
 _SHORT_ANGLES = (math.radians(40), math.radians(70), math.radians(105))
-# Where every arc of an arrow to a proton crosses a bond not its own: arcs bending further, to go
-# round the obstacle (the alkoxide of a benzilic acid reaching round a phenyl to the acid's H),
-# no longer than _WIDE_REACH bond lengths (a longer one reads as a stray loop).
+# Where the cheapest arc of an arrow to a proton crosses a bond not its own: arcs bending
+# further, to go round the obstacle (the alkoxide of a benzilic acid reaching round a phenyl to
+# the acid's H), no longer than _WIDE_REACH bond lengths (a longer one reads as a stray loop).
 _WIDE_ANGLES = (math.radians(80), math.radians(110))
 _WIDE_REACH = 6.5
 _KEEP = 4          # candidates per arrow that enter the joint choice
@@ -124,7 +124,7 @@ class _Candidate:
     length: float = 0.0        # of the polyline through its samples
     handicap: float = 0.0      # a cost known before scoring (a shape that reads poorly)
     crossings: int = 0         # bonds not its own that it crosses
-    wide: bool = False         # one of the wider arcs tried where every usual one crosses a bond
+    wide: bool = False         # a wider arc, tried where the cheapest usual one crosses a bond
 
 
 class _Obstacles:
@@ -238,7 +238,7 @@ class ArrowPlanner:
         if not work:
             return [([], []) for _ in panels]
         candidates, controls, points, extent = self._sampled_and_scored(work)
-        # An arrow to a proton whose every arc crosses a bond not its own also tries wider
+        # An arrow to a proton whose cheapest arc crosses a bond not its own also tries wider
         # arcs, which may go round the obstacle (common practice: round the structure, not
         # across it). Only to a proton: the side an arrow comes into another atom from reads as
         # the side it is attacked from (a nucleophile's backside approach).
@@ -246,7 +246,7 @@ class ArrowPlanner:
         for w in work:
             for k, (move, src, snk) in enumerate(zip(w.moves, w.sources, w.sinks)):
                 if (snk.kind == "atom" and w.panel.atoms[snk.atoms[0]].element == "H"
-                        and min(c.crossings for c in w.tries[k])):
+                        and min(w.tries[k], key=lambda c: c.cost).crossings):
                     w.tries[k] = w.tries[k] + self._wide_arcs(src, snk, w.panel)
                     widened = True
         if widened:
