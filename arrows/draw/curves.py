@@ -9,11 +9,12 @@ from a lone pair is shown by pointing at the atom that receives the pair.
 
 Each arrow is a cubic Bezier fixed by its two ends and the directions it leaves and arrives in.
 A handful of such curves is tried per arrow (leaving from either side of a bond, arriving at an
-atom from any free direction) and one is chosen for every arrow of a step together, by a
-penalty: passing through a label or an atom is nearly forbidden, crossing a bond or another
-arrow is costly, an arc bulging into the molecule costs more than one bulging out, an S-shaped
-arc is avoided, so is an arc that loops back on itself or squeezes into the angle between the two
-bonds it joins, and two heads of one step never share a position.
+atom from any free direction; an arrow to a proton whose cheapest one crosses a bond also
+tries wider arcs round the structure) and one is chosen for every arrow of a step
+together, by a penalty: passing through a label or an atom is nearly forbidden, crossing a bond
+or another arrow is costly, an arc bulging into the molecule costs more than one bulging out,
+an S-shaped arc is avoided, so is an arc that loops back on itself or squeezes into the angle
+between the two bonds it joins, and two heads of one step never share a position.
 """
 from __future__ import annotations
 
@@ -34,6 +35,11 @@ from .styles import Style
 _SAMPLES = 16
 _ANGLES = (math.radians(34), math.radians(58))
 _SHORT_ANGLES = (math.radians(40), math.radians(70), math.radians(105))
+# Where the cheapest arc of an arrow to a proton crosses a bond not its own: arcs bending
+# further, to go round the obstacle (the alkoxide of a benzilic acid reaching round a phenyl to
+# the acid's H), no longer than _WIDE_REACH bond lengths (a longer one reads as a stray loop).
+_WIDE_ANGLES = (math.radians(80), math.radians(110))
+_WIDE_REACH = 6.5
 _KEEP = 4          # candidates per arrow that enter the joint choice
 _GAP_REACH = 0.45  # bond lengths: farthest a head into a forming bond stops from the atom it reaches
 _SHIFT_REACH = 0.22  # bond lengths: where the head of a 1,2-shift stops from the atom the group moves to
@@ -117,6 +123,8 @@ class _Candidate:
     cost: float = 0.0
     length: float = 0.0        # of the polyline through its samples
     handicap: float = 0.0      # a cost known before scoring (a shape that reads poorly)
+    crossings: int = 0         # bonds not its own that it crosses
+    wide: bool = False         # a wider arc, tried where the cheapest usual one crosses a bond
 
 
 class _Obstacles:
@@ -229,23 +237,25 @@ class ArrowPlanner:
         work = [self._try(step, moves, state, panel) for step, moves, state, panel in panels if moves]
         if not work:
             return [([], []) for _ in panels]
-        candidates = [c for w in work for tries in w.tries for c in tries]
-        controls = np.array([[c.p0, c.p1, c.p2, c.tip] for c in candidates], dtype=complex)
-        points = controls @ _BERNSTEIN
-        for row, c in enumerate(candidates):
-            c.row = row
-        extent = _Extent(points)
-        x0, y0, x1, y1 = (column.ravel().tolist() for column in (extent.x0, extent.y0, extent.x1, extent.y1))
-        reach = 1.3 * self.bl     # the crowding term looks this far from a curve
-        start = 0
+        candidates, controls, points, extent = self._sampled_and_scored(work)
+        # An arrow to a proton whose cheapest arc crosses a bond not its own also tries wider
+        # arcs, which may go round the obstacle (common practice: round the structure, not
+        # across it). Only to a proton: the side an arrow comes into another atom from reads as
+        # the side it is attacked from (a nucleophile's backside approach).
+        widened = False
         for w in work:
-            end = start + sum(len(tries) for tries in w.tries)
-            w.rows = slice(start, end)
-            w.obstacles = _Obstacles(w.panel, w.marks, self.bl, min(x0[start:end]) - reach,
-                                     min(y0[start:end]) - reach, max(x1[start:end]) + reach,
-                                     max(y1[start:end]) + reach)
-            start = end
-        self._score(work, candidates, controls, points, extent)
+            for k, (move, src, snk) in enumerate(zip(w.moves, w.sources, w.sinks)):
+                if (snk.kind == "atom" and w.panel.atoms[snk.atoms[0]].element == "H"
+                        and min(w.tries[k], key=lambda c: c.cost).crossings):
+                    w.tries[k] = w.tries[k] + self._wide_arcs(src, snk, w.panel)
+                    widened = True
+        if widened:
+            candidates, controls, points, extent = self._sampled_and_scored(work)
+            # A wide arc is kept only where it crosses none: elsewhere the usual arcs read better.
+            reach = _WIDE_REACH * self.bl
+            for w in work:
+                w.tries = [[c for c in tries if not c.wide or (not c.crossings and c.length <= reach)]
+                           for tries in w.tries]
         kept = [[sorted(tries, key=lambda c: c.cost)[:_KEEP] for tries in w.tries] for w in work]
         pair_costs = self._pair_costs(kept, controls, points, extent)
         for w, options, pairs in zip(work, kept, pair_costs):
@@ -269,6 +279,29 @@ class ArrowPlanner:
             out.append(([self._arrow(w.step, move, src, snk, cand, w.panel, *next(ends))
                          for move, src, snk, cand in zip(w.moves, w.sources, w.sinks, cands)], w.marks))
         return out
+
+    def _sampled_and_scored(self, work: list[_PanelArrows]
+                            ) -> tuple[list[_Candidate], np.ndarray, np.ndarray, _Extent]:
+        """Every candidate of every panel sampled (one row each) and scored, with each panel's
+        obstacles gathered within the reach of its candidates."""
+        candidates = [c for w in work for tries in w.tries for c in tries]
+        controls = np.array([[c.p0, c.p1, c.p2, c.tip] for c in candidates], dtype=complex)
+        points = controls @ _BERNSTEIN
+        for row, c in enumerate(candidates):
+            c.row = row
+        extent = _Extent(points)
+        x0, y0, x1, y1 = (column.ravel().tolist() for column in (extent.x0, extent.y0, extent.x1, extent.y1))
+        reach = 1.3 * self.bl     # the crowding term looks this far from a curve
+        start = 0
+        for w in work:
+            end = start + sum(len(tries) for tries in w.tries)
+            w.rows = slice(start, end)
+            w.obstacles = _Obstacles(w.panel, w.marks, self.bl, min(x0[start:end]) - reach,
+                                     min(y0[start:end]) - reach, max(x1[start:end]) + reach,
+                                     max(y1[start:end]) + reach)
+            start = end
+        self._score(work, candidates, controls, points, extent)
+        return candidates, controls, points, extent
 
     def _try(self, step: int, moves: list[ResolvedMove], state: ElectronState, panel: PanelStructure) -> _PanelArrows:
         """One panel's anchors (placing the dots the arrows leave from) and candidate curves."""
@@ -502,6 +535,11 @@ class ArrowPlanner:
             angles = tuple(theta for theta in angles if theta < math.pi / 2)
         return [self._arc(src, snk, side, theta, panel) for side in (1, -1) for theta in angles]
 
+    def _wide_arcs(self, src: _Anchor, snk: _Anchor, panel: PanelStructure) -> list[_Candidate]:
+        """Arcs bending further than _candidates' to either side (_WIDE_ANGLES)."""
+        return [replace(self._arc(src, snk, side, theta, panel), wide=True)
+                for side in (1, -1) for theta in _WIDE_ANGLES]
+
     def _hooks(self, move: ResolvedMove, src: _Anchor, snk: _Anchor, panel: PanelStructure) -> list[_Candidate]:
         """Electrons leaving a bond for one of its own ends (a heterolysis, or one half of a
         homolysis): a C-shaped arc on either side of the bond, out from its middle and back in to
@@ -650,6 +688,10 @@ class ArrowPlanner:
                                        _padded([o.stroke_b for o in obs], 0j, complex)[where], extent)
             of = _padded([o.stroke_of for o in obs], 0, int)[where]
             np.maximum.at(crossed, (np.arange(len(pts))[:, None], of), strokes)
+        # The bonds each candidate crosses that are not its own (both ends named by its move):
+        # whether wider arcs are worth a try.
+        foreign = (crossing > 0) & ~(own[arrow, ends[..., 0]] & own[arrow, ends[..., 1]])
+        crossings = np.add.reduce((crossed > 0) & foreign[owner], axis=1).tolist()
         counts = np.concatenate([counts, crossed], axis=1)
         # Whole counts times whole weights: the sum is exact, whatever the padding and order.
         cost = np.add.reduce(counts * weights[owner], axis=1)
@@ -702,8 +744,8 @@ class ArrowPlanner:
             pivot_side = np.sign(((np.where(np.isfinite(pivots), pivots, start) - start) * np.conj(chord)).imag)
             away = -pivot_side * standoff
             cost += np.where(np.isfinite(pivots) & ~(away >= _SHIFT_BULGE * bl), _TIGHT_SHIFT, 0.0)
-        for c, value, length in zip(candidates, cost.tolist(), lengths.tolist()):
-            c.cost, c.length = value + c.handicap, length
+        for c, value, length, crossing_count in zip(candidates, cost.tolist(), lengths.tolist(), crossings):
+            c.cost, c.length, c.crossings = value + c.handicap, length, crossing_count
 
     def _curl(self, pts: np.ndarray, steps: np.ndarray, sizes: np.ndarray) -> np.ndarray:
         """An arc that turns back on itself (through more than _MAX_TURN) and either stands far

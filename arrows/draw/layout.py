@@ -1607,7 +1607,8 @@ class _LayoutBuilder:
         second = None
         if kind == "bond" and not (self._linear(anchor, range(k, k + 1)) and len(placed) == 1):
             u, second = self._between_partners(anchor, mover, k, depicted, u)
-        v = self._joining_side(depicted, mover, u, kind, k)
+        v = self._joining_side(depicted, mover, u, kind, k, turn=self._turn_to_hop(depicted, anchor, mover, u, kind,
+                                                                                 segment))
         if kind == "bond" and self._joins_cis(anchor, mover, u, v, depicted, k):
             # A double bond between the two is drawn trans (below): the chain end bonds on at
             # 120 degrees the other way round, a branched cluster is drawn mirrored.
@@ -1707,6 +1708,30 @@ class _LayoutBuilder:
         across = _unit(gap) * 1j * math.sqrt(1.0 - half * half)
         spots = (gap / 2 + across, gap / 2 - across)
         return _unit(max(spots, key=lambda spot: (spot * u.conjugate()).real)), seconds[0]
+
+    def _turn_to_hop(self, depicted: dict[int, complex], anchor: int, mover: int, u: complex, kind: str,
+                     segment: tuple[int, int]) -> int:
+        """Which way round a chain end bonds on (see _joining_side) when it holds a hydrogen that
+        an atom already placed takes while it stays (a methanol that adds to an isocyanate and
+        hands its proton to the nitrogen): the way that leaves its free corner, where the
+        hydrogen stands, facing that atom, so the arrow that takes the hydrogen has a clear way
+        (it crossed the C=O when the methyl faced the nitrogen). Otherwise 1."""
+        own = [n for n in self.neighbours[mover] if n in depicted]
+        if kind != "bond" or len(own) != 1:
+            return 1
+        takers = [self.positions[panel][b] for panel, what, a, b, _ in self.events
+                  if what == "hop" and a == mover and segment[0] <= panel <= segment[1]
+                  and b in self.positions[panel] and b not in depicted]
+        if not takers:
+            return 1
+        target = self.positions[segment[0]][anchor] + u
+
+        def facing(turn: int) -> float:
+            v = self._joining_side(depicted, mover, u, kind, segment[0], turn)
+            branch = _unit(_unit(-u / v) * (depicted[own[0]] - depicted[mover]))
+            corner = -_unit(_unit(-u) + branch)    # the third corner of a trigonal centre
+            return sum((corner * _unit(t - target).conjugate()).real for t in takers)
+        return 1 if facing(1) >= facing(-1) else -1
 
     def _joining_side(self, depicted: dict[int, complex], mover: int, u: complex, kind: str, k: int,
                       turn: int = 1) -> complex:
