@@ -472,6 +472,7 @@ class _Cluster:
     # offset in local coordinates).
     openings: list[tuple[frozenset[int], int, int, complex]] = field(default_factory=list)
     waited: set[int] = field(default_factory=set)   # segment starts placed as a wait before acting
+    redrawn: set[int] = field(default_factory=set)  # segment starts where an acid or base is redrawn
     # Later depictions of a cluster whose ring changes size (first panel, local coordinates aligned
     # on the atoms the step between leaves alone); before the first of them, `local` holds.
     phases: list[tuple[int, dict[int, complex]]] = field(default_factory=list)
@@ -1328,6 +1329,51 @@ class _LayoutBuilder:
         # a Darzens ester whose carbon the ketone bonds to keeps its place).
         return here <= self.joining[k] and not self._held_by_skeleton(atoms, k)
 
+    def _trader(self, index: int) -> bool:
+        """Whether cluster `index` is an acid or base: not the skeleton, it only ever trades
+        protons with other clusters (no bond joins it to one in any panel)."""
+        atoms = set(self.clusters[index].atoms)
+        return index != self.main and all(kind == "hop" for _, kind, a, b, _ in self.events
+                                          if (a in atoms) != (b in atoms))
+
+    def _stranded(self, index: int, segment: tuple[int, int], rotation: complex, shift: complex) -> bool:
+        """Whether cluster `index`, placed so over `segment`, would stand out of an arrow's reach
+        of a partner it trades a proton with there (the two heavy atoms further apart than
+        PARTNER_REACH allows by half a bond length), or behind a bond of neither (the line
+        between them crosses it)."""
+        cluster = self.clusters[index]
+        mine_atoms = set(cluster.atoms)
+        for panel, kind, a, b, _ in self.events:
+            if kind != "hop" or not segment[0] <= panel <= segment[1] or (a in mine_atoms) == (b in mine_atoms):
+                continue
+            mine, other = (a, b) if a in mine_atoms else (b, a)
+            here = self.positions[panel]
+            if other not in here:
+                continue
+            p, q = shift + rotation * cluster.local_at(panel)[mine], here[other]
+            if abs(p - q) > PARTNER_REACH[1] + 0.5 or any(
+                    _segments_cross(p, q, here[i], here[j]) for i, j in self.bonds_in[panel]
+                    if i in here and j in here and other not in (i, j) and i not in mine_atoms and j not in mine_atoms):
+                return True
+        return False
+
+    def _split_at_trades(self, index: int, segment: tuple[int, int]) -> None:
+        """Cut the run of panels `segment` of an acid or base after each step in which it trades
+        a proton: it is redrawn then, as a rigid body, beside the partner of its next turn (a base
+        that takes protons from two far-apart places waits beside each in turn, as chemists draw
+        it, instead of halfway between with its arrows across the molecule)."""
+        cluster = self.clusters[index]
+        atoms = set(cluster.atoms)
+        cuts = sorted({panel + 1 for panel, kind, a, b, _ in self.events
+                       if kind == "hop" and (a in atoms) != (b in atoms) and segment[0] <= panel < segment[1]})
+        starts = [segment[0]] + cuts
+        pieces = list(zip(starts, [c - 1 for c in cuts] + [segment[1]]))
+        cluster.segments[cluster.segments.index(segment):cluster.segments.index(segment) + 1] = pieces
+        cluster.redrawn.update(cuts)
+        for piece in pieces:
+            for panel in range(piece[0], piece[1] + 1):
+                cluster.segment_at[panel] = piece
+
     def _held_by_skeleton(self, atoms: set[int], k: int) -> bool:
         """Whether an untouched atom of `atoms` (which carries no other cluster) is bonded, in
         panels k and k+1, to an atom of the main cluster that is drawn in one place in both (the
@@ -1671,6 +1717,13 @@ class _LayoutBuilder:
             target = anchor_at + direction * distance
             best = (0.0, rotation, target - depicted[mover] * rotation, direction)
         _, rotation, shift, direction = best
+        if kind == "hop" and segment[0] < segment[1] and self._trader(index) \
+                and self._stranded(index, segment, rotation, shift):
+            self._split_at_trades(index, segment)
+            piece = self._segment_of(index, k)
+            if piece != segment:
+                self._place_segment(index, piece, k, anchor, mover, kind, hydrogen)
+                return
         # Before it bonds, a molecule waits further out along its line of approach; a partner of
         # a proton hop is already a comfortable arrow's length away, and waits where it is.
         cluster.placement[segment[0]] = (rotation, shift, direction, APPROACH - 1.0 if kind == "bond" else 0.0)
@@ -1825,7 +1878,8 @@ class _LayoutBuilder:
                     ) -> list[tuple[int, complex]]:
         """The other proton hops a cluster is about to make while it stands still over `segment`,
         and the hop just before it that made it what it is (a water that has just protonated an
-        oxygen stays beside that oxygen): (its atom, where the partner atom is)."""
+        oxygen stays beside that oxygen; not an acid or base redrawn for its next turn): (its
+        atom, where the partner atom is)."""
         atoms = set(self.clusters[index].atoms)
         out = []
         for panel, kind, a, b, h in self.events:
@@ -1834,7 +1888,8 @@ class _LayoutBuilder:
             mine, other = (a, b) if a in atoms else (b, a)
             if segment[0] <= panel <= segment[1] and other in self.positions[panel]:
                 out.append((mine, self.positions[panel][other]))
-            elif panel == segment[0] - 1 and other in self.positions[segment[0]]:
+            elif panel == segment[0] - 1 and segment[0] not in self.clusters[index].redrawn \
+                    and other in self.positions[segment[0]]:
                 out.append((mine, self.positions[segment[0]][other]))
         return out
 
