@@ -1366,9 +1366,9 @@ class _LayoutBuilder:
         atoms = set(cluster.atoms)
         cuts = sorted({panel + 1 for panel, kind, a, b, _ in self.events
                        if kind == "hop" and (a in atoms) != (b in atoms) and segment[0] <= panel < segment[1]})
-        starts = [segment[0]] + cuts
-        pieces = list(zip(starts, [c - 1 for c in cuts] + [segment[1]]))
-        cluster.segments[cluster.segments.index(segment):cluster.segments.index(segment) + 1] = pieces
+        pieces = list(zip([segment[0]] + cuts, [c - 1 for c in cuts] + [segment[1]]))
+        at = cluster.segments.index(segment)
+        cluster.segments[at:at + 1] = pieces
         cluster.redrawn.update(cuts)
         for piece in pieces:
             for panel in range(piece[0], piece[1] + 1):
