@@ -186,6 +186,35 @@ def test_a_folder_is_not_a_mechanism(tmp_path, command):
     assert "Traceback" not in result.output
 
 
+_GALLERY_FIRST = Path(__file__).resolve().parents[1] / "gallery" / "01-enolate-formation.mech"
+
+
+@pytest.mark.parametrize("args,target", [
+    (["closures", "CC(=O)CCC(C)=O", "--write", "{missing}/draft.mech"], "{missing}/draft.mech"),
+    (["closures", "CC(=O)CCC(C)=O", "--draw", "{missing}/closures.svg"], "{missing}/closures.svg"),
+    (["draw", _GALLERY_FIRST, "-o", "{missing}/figure.svg"], "{missing}/figure.svg"),
+    (["draw", _GALLERY_FIRST, "-o", "{missing}/figure.svg", "--watch"], "{missing}/figure.svg"),
+    (["collect", _GALLERY_FIRST, "-o", "{missing}/si.pdf"], "{missing}/si.pdf"),
+    (["collect", _GALLERY_FIRST, "-o", "{tmp}/si.pdf", "--report", "{missing}/report.json"], "{missing}/report.json"),
+    (["collect", _GALLERY_FIRST, "-o", "{tmp}/si.pdf", "--junit", "{missing}/junit.xml"], "{missing}/junit.xml"),
+    (["new", "{missing}/draft"], "{missing}/draft.mech"),
+], ids=["closures-write", "closures-draw", "draw", "draw-watch", "collect", "collect-report", "collect-junit", "new"])
+def test_an_output_that_cannot_be_written_is_a_located_message(tmp_path, args, target):
+    """Every command that writes a file says which file it cannot write, with a hint, and exits 2,
+    never with a traceback (a --watch run stops: its output can never be written). The folder named
+    is a plain file, so no command can make it (`collect` makes a missing folder)."""
+    blocked = tmp_path / "a-file"
+    blocked.write_text("not a folder\n")
+
+    def filled(text) -> str:
+        return str(text).format(missing=blocked, tmp=tmp_path)
+    done = subprocess.run([sys.executable, "-m", "arrows", *map(filled, args)], capture_output=True, text=True,
+                          timeout=300)
+    assert done.returncode == 2, done.stderr
+    assert f"{filled(target)}:1:1: error: cannot write" in done.stderr and "hint: " in done.stderr
+    assert "Traceback" not in done.stderr
+
+
 # --- trace -------------------------------------------------------------------------------------
 
 def test_trace_prints_every_state(write):

@@ -16,6 +16,7 @@ from ..electrons import atom_label
 from ..judgement.closures import Closure, find_closures, with_atom_maps
 from ..judgement.skeleton import product_fragment, skeleton
 from ..rdkit_io import read_smiles
+from .output import emit
 
 DRAWING_SUFFIXES = (".svg", ".png")
 
@@ -159,8 +160,7 @@ def closures_command(species, species_name, fmt, max_ring, condense, draw_path, 
         if pick > len(found):
             _fail(f"{species}:1:1", f"there {'is' if len(found) == 1 else 'are'} {len(found)} candidate(s); "
                   f"--pick {pick} is out of range", "pick a rank from the table")
-        from ..atomic import write_text
-        write_text(write_path, texts[pick - 1])
+        emit(texts[pick - 1], write_path)
         click.echo(f"wrote {write_path}: {found[pick - 1].closure.name}", err=True)
 
 
@@ -175,7 +175,6 @@ def _draw(path: str, mol: Chem.Mol, found: list[Closure], texts: list[str], rows
     """A grid of the candidate products with the new bond highlighted (RDKit's 2D drawer)."""
     from rdkit.Chem import rdDepictor
     from rdkit.Chem.Draw import rdMolDraw2D
-    from ..atomic import write_bytes
     rdDepictor.SetPreferCoordGen(True)
     mols, bonds, legends = [], [], []
     for c, text, row in zip(found, texts, rows):
@@ -208,7 +207,7 @@ def _draw(path: str, mol: Chem.Mol, found: list[Closure], texts: list[str], rows
     drawer.DrawMolecules(mols, legends=legends, highlightAtoms=[[] for _ in mols], highlightBonds=bonds)
     drawer.FinishDrawing()
     data = drawer.GetDrawingText()
-    write_bytes(path, data.encode("utf-8") if svg else data)
+    emit(data, path)
 
 
 def _fail(where: str, message: str, hint: str) -> None:

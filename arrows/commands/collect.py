@@ -8,6 +8,7 @@ import click
 
 from ..draw import STYLES
 from ..draw.styles import DEFAULT_STYLE
+from .output import cannot_write
 
 EXIT_INTERRUPTED = 130   # the shell's convention for a run stopped by Ctrl-C
 
@@ -62,6 +63,9 @@ def collect_command(inputs, output, style, paper, flow, prefix, title, authors, 
     progress = _Progress(n)
     try:
         result = collect(sources, settings, progress)
+    except OSError as exc:   # the cache, the figures folder or the document (a read-only folder)
+        progress.close()
+        cannot_write(output, exc)
     except OutputInUse as exc:
         raise click.UsageError(str(exc))
     except KeyboardInterrupt:
@@ -75,10 +79,16 @@ def collect_command(inputs, output, style, paper, flow, prefix, title, authors, 
         sys.exit(1)
     progress.close()
 
-    if report:
-        write_report(Path(report), result.records, result.complete, __version__)
-    if junit:
-        write_junit(Path(junit), result.records)
+    try:
+        if report:
+            write_report(Path(report), result.records, result.complete, __version__)
+    except OSError as exc:
+        cannot_write(report, exc)
+    try:
+        if junit:
+            write_junit(Path(junit), result.records)
+    except OSError as exc:
+        cannot_write(junit, exc)
     failed = [r for r in result.records if r.failed]
     for record in failed:
         click.echo(f"{record.label} {record.name}: {record.status()}", err=True)

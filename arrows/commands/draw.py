@@ -8,6 +8,7 @@ import click
 
 from ..api import check_file
 from ..diagnostics import ERROR, NOTE
+from .output import cannot_write
 
 FORMATS = ("svg", "pdf", "png")
 STYLE_NAMES = ("one-column", "two-column", "slide")   # arrows.draw.STYLES, named here to keep --help light
@@ -68,8 +69,7 @@ def draw_command(file, output, fmt, style, color, numbers, cip, step_labels, no_
                    "(fix them, or use --force to draw with the errors marked)", err=True)
         sys.exit(1)
     if not output.parent.is_dir():
-        click.echo(f"{output}: cannot write: the folder {output.parent} does not exist", err=True)
-        sys.exit(2)
+        cannot_write(output, FileNotFoundError(2, f"the folder {output.parent} does not exist"))
 
     from ..draw import DrawError, build_scene
     from ..atomic import write_bytes as write_atomic
@@ -83,8 +83,7 @@ def draw_command(file, output, fmt, style, color, numbers, cip, step_labels, no_
         click.echo(f"{file}: not drawn: {exc}", err=True)
         sys.exit(1)
     except OSError as exc:
-        click.echo(f"{output}: cannot write: {exc.strerror or exc}", err=True)
-        sys.exit(2)
+        cannot_write(output, exc)
     except Exception as exc:  # a renderer failure is reported, never shown as a traceback
         click.echo(f"{file}: not drawn: the renderer failed ({type(exc).__name__}: {exc}); nothing was written",
                    err=True)
@@ -116,5 +115,11 @@ def _watch(file, output: Path, fmt: str, chosen, force: bool, dpi: int) -> None:
         else:
             click.echo(f"redrawn {output}; waiting for the next save (Ctrl-C stops)", err=True)
 
+    def redraw(path):
+        try:
+            return render_figure(path, output, fmt, chosen, force=force, dpi=dpi)
+        except OSError as exc:
+            cannot_write(output, exc)
+
     click.echo(f"watching {file}", err=True)
-    rerun_on_save(file, lambda path: render_figure(path, output, fmt, chosen, force=force, dpi=dpi), report)
+    rerun_on_save(file, redraw, report)

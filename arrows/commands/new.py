@@ -9,6 +9,7 @@ from pathlib import Path
 import click
 
 from ..numbering import numbered, numbered_smiles
+from .output import cannot_write
 
 STARTER_SMILES = "CC(C)=O"   # acetone: a demo species to replace with your own
 
@@ -67,7 +68,5 @@ def new_command(name, smiles):
                    f"    hint: choose another name, or edit {path} itself", err=True)
         sys.exit(2)
     except OSError as exc:
-        click.echo(f"{path}:1:1: error: cannot write {path}: {exc.strerror or exc}\n"
-                   "    hint: check that the folder exists and is writable", err=True)
-        sys.exit(2)
+        cannot_write(path, exc)
     click.echo(f"wrote {path}", err=True)

@@ -3,7 +3,8 @@ is a located message and exit status 2, never a traceback)."""
 from __future__ import annotations
 
 import sys
-from typing import Optional, Union
+from pathlib import Path
+from typing import NoReturn, Optional, Union
 
 import click
 
@@ -17,6 +18,17 @@ def emit(result: Union[str, bytes], output: Optional[str]) -> None:
     try:
         write_bytes(output, result.encode("utf-8") if isinstance(result, str) else result)
     except OSError as exc:
-        click.echo(f"{output}:1:1: error: cannot write {output}: {exc.strerror or exc}\n"
-                   "    hint: check that the folder exists and is writable", err=True)
-        sys.exit(2)
+        cannot_write(output, exc)
+
+
+def cannot_write(path, exc: OSError) -> NoReturn:
+    """The message for an output that cannot be written (a missing or read-only folder), and exit
+    status 2. A file or folder made on the way that failed (a cache) is named too; a temporary
+    file (arrows.atomic) is not."""
+    from ..atomic import TEMP_MARK
+    detail = exc.strerror or str(exc)
+    if exc.filename and Path(exc.filename) != Path(path) and TEMP_MARK not in Path(exc.filename).name:
+        detail += f" ({exc.filename})"
+    click.echo(f"{path}:1:1: error: cannot write {path}: {detail}\n"
+               "    hint: check that the folder exists and is writable", err=True)
+    sys.exit(2)
