@@ -148,6 +148,7 @@ def test_draw_writes_a_grid(tmp_path, suffix, magic):
 
 @pytest.mark.parametrize("argument, expected", [
     ("CC(=O)CCC(C", "<SMILES>:1:10: error AR102"),
+    ("", "<SMILES>:1:1: error AR102 RDKit cannot read the SMILES: empty SMILES"),   # once read as the folder "."
 ])
 def test_bad_smiles_is_located(argument, expected):
     result = run(argument)

@@ -43,6 +43,9 @@ def _from_smiles(smiles: str, where: str, line: int = 1, column: int = 1) -> Che
 
 def _load(argument: str, species_name: Optional[str]) -> _Species:
     path = Path(argument)
+    if not argument.strip():   # Path("") is the current folder
+        raise _BadInput("<SMILES>:1:1", "AR102 RDKit cannot read the SMILES: empty SMILES",
+                        "give a SMILES, a .mech, .mol or .smi file")
     if path.is_dir():
         raise _BadInput(f"{argument}:1:1", "AR100 a folder, not a species", "give a SMILES, a .mech, .mol or .smi file")
     if not path.is_file():
