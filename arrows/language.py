@@ -265,6 +265,7 @@ _TERMINAL_WORDS = {
     "$END": "the end of the file",
 }
 _STATEMENTS = {"TITLE", "CAPTION", "SPECIES", "STEP", "PRODUCT"}
+STATEMENT_WORDS = frozenset(word.lower() for word in _STATEMENTS)   # how a line of mechanism text starts
 _MOVE_STARTS = {"COLON", "RADICAL_DOT", "ATOM", "H"}
 _KEYWORDS = _STATEMENTS | {"END", "USES", "RELEASES", "EXPECT", "ALL", "REVERSIBLE", "RESONANCE", "OVER", "UNDER"}
 # What a keyword's quoted string holds, for the hint when the quotes are missing.

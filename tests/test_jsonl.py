@@ -163,6 +163,15 @@ def test_bad_lines_become_results_in_order_and_the_run_exits_1(tmp_path):
     assert b"4 records checked" in proc.stderr
 
 
+def test_mechanism_text_given_as_jsonl_gets_a_hint_to_drop_the_flag():
+    """A .mech file checked with --jsonl by mistake: its statement lines say so in the hint."""
+    for text in ('species water = "[OH2:1]"', "step \"deprotonation\"", "# a comment"):
+        diag, = check_line("slip.mech", 1, text.encode())["diagnostics"]
+        assert diag["code"] == "AR110" and "without --jsonl" in diag["hint"], text
+    diag, = check_line("data.jsonl", 1, b"{not json")["diagnostics"]
+    assert "without --jsonl" not in diag["hint"]
+
+
 def test_stdin_and_output_file(tmp_path):
     out = tmp_path / "results.jsonl"
     proc = run_cli("check", "--jsonl", "-", "-o", str(out), "-j", "1",

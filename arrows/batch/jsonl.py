@@ -13,6 +13,7 @@ from typing import IO, Any, Callable, Iterable, Iterator, Optional
 
 from ..api import check_text
 from ..diagnostics import ERROR, WARNING, Diagnostic
+from ..language import STATEMENT_WORDS
 from ..model import Location
 from ..trace import state_smiles
 from .records import RecordProblem, RecordText, record_id, record_text
@@ -48,8 +49,11 @@ def check_line(source: str, line_number: int, raw: bytes) -> dict:
         return _rejected(source, line_number, None, exc.start + 1, "AR110", "the line is not UTF-8 text",
                          "save the data set as UTF-8", "")
     except json.JSONDecodeError as exc:
-        return _rejected(source, line_number, None, exc.colno, "AR110", f"not JSON: {exc.msg}",
-                         "each line holds one complete JSON object", "")
+        words = raw.decode("utf-8").split(None, 1)
+        mechanism_text = bool(words) and (words[0] in STATEMENT_WORDS or words[0].startswith("#"))
+        hint = ("this is a line of mechanism text: check a .mech file without --jsonl" if mechanism_text
+                else "each line holds one complete JSON object")
+        return _rejected(source, line_number, None, exc.colno, "AR110", f"not JSON: {exc.msg}", hint, "")
     ident = record_id(record) if isinstance(record, dict) else None
     try:
         mechanism = record_text(record)
