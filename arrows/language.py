@@ -346,6 +346,8 @@ def _hint_for(exc: UnexpectedInput, text: str, found: str) -> str:
         if tok_type == "STRING":
             return f'`{first_word}` needs a name before the SMILES: {first_word} water = {word}'
         return "a name starts with a letter or `_` and holds letters, digits and `_`"
+    if word != word.lower() and word.upper() in _KEYWORDS:
+        return f"keywords are written in lower case: `{word.lower()}`"
     letters = "".join(c for c in word if c.isalpha())
     if expected & {"ATOM", "H"} and word[:1].isalpha() and len(letters) <= 2:
         if word[:1].islower():

@@ -302,6 +302,12 @@ SLIPS = [
     ("single quotes",
      "species w = 'O'\n",
      1, 13, "unexpected `'O'`", 'a quoted string ("...")', "double quotes"),
+    ("keyword with a capital",
+     'Step "a"\n    :O1 -> C2\nend\n',
+     1, 1, "unexpected `Step`", "a statement", "keywords are written in lower case: `step`"),
+    ("end in capitals",
+     'step "a"\n    :O1 -> C2\nEND\n',
+     3, 1, "unexpected `END`", "a move", "keywords are written in lower case: `end`"),
 ]
 
 
