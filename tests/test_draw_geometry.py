@@ -801,6 +801,29 @@ def test_spectators_are_drawn_only_next_to_the_steps_that_use_them():
         assert drawn == (shuttle in near), panel.index
 
 
+@pytest.mark.parametrize("name", ["imine formation", "radical cyclisation"])
+def test_a_reactant_waiting_for_a_later_step_sits_out_the_panels_between(name):
+    """Every starting material is drawn in the first panel; one that waits for a later step is
+    then left out until the panel before its step, unless it is the largest species of a panel
+    it waits in (common practice: a reagent is drawn where it acts, not carried through every
+    panel). The water of an imine formation and the tin hydride of a radical cyclisation were
+    drawn in every panel before."""
+    trace, _, scene = _scene(TEXTBOOK[name][0], name)
+    start = trace.steps[0].before.mol
+    checked = 0
+    for frag in Chem.GetMolFrags(start, asMols=False, sanitizeFrags=False):
+        first = next(k for k, st in enumerate(trace.steps) if set(frag) & set(st.change.touched_atoms))
+        if any(all(len(f) < len(frag) for f in Chem.GetMolFrags(trace.steps[k].before.mol, asMols=False,
+                                                                 sanitizeFrags=False) if f != frag)
+               for k in range(1, first)):
+            continue   # the largest species of a panel it waits in, drawn there
+        heavy = next(i for i in frag if start.GetAtomWithIdx(i).GetAtomicNum() != 1)
+        drawn = [scene.panels[k].atom(heavy) is not None for k in range(first + 1)]
+        assert drawn == [k in (0, first) for k in range(first + 1)], (name, heavy, drawn)
+        checked += first > 1
+    assert checked   # at least one species waited through a panel
+
+
 def test_ring_closing_at_a_chain_atom_is_drawn_open():
     """A ring that closes onto an atom inside the chain (octane-2,7-dione, C3 onto the ketone
     carbon C7) is drawn as an open chain before the closing step, the closing atoms 1.5-2.6

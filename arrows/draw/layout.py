@@ -2110,7 +2110,7 @@ class _LayoutBuilder:
                     cluster.placement[start] = self._split_off(index, (start, end), previous)
             self._apply(index)
             return True
-        unplaced = [k for k, c in enumerate(self.clusters) if not c.placement]
+        unplaced = [k for k, c in enumerate(self.clusters) if not c.placement and c.segments]   # (drawn somewhere)
         if not unplaced:
             return False
         index = min(unplaced, key=lambda k: (-len(self.clusters[k].atoms), self.clusters[k].atoms[0]))

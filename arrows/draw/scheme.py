@@ -77,21 +77,27 @@ def _panel_sources(trace: Trace) -> list[_PanelSource]:
 
 
 def _without_idle_spectators(sources: list[_PanelSource]) -> list[_PanelSource]:
-    """A species that has already taken part (a proton shuttle, a by-product) and that neither
-    the step into a panel nor the step out of it touches is left out of that panel: it would
-    only wait where it last acted, far from the molecule, in the way of the rows. The largest
-    species of a panel is always drawn, and so is a reactant that has not acted yet. Each
+    """A species that neither the step into a panel nor the step out of it touches is left out
+    of that panel: one that has already taken part (a proton shuttle, a by-product) would only
+    wait where it last acted, far from the molecule, in the way of the rows; a reactant waiting
+    for a later step (the alcohol and the amine of a Swern oxidation) is drawn in the first
+    panel, with every starting material, and again from the panel before its step. The largest
+    species of a panel is always drawn (the molecule the scheme is about, as a rule; of two as
+    large, the one that takes part). Each
     source (just made by _panel_sources) gets its `idle` atoms in place."""
-    seen: set[int] = set()
     for src in sources:
+        if src.arriving is None:
+            continue   # the first panel draws every starting material
+        # Touched by the steps on either side, or just brought in by the step into the panel.
         near = {i for st in (src.arriving, src.leaving) if st is not None for i in st.change.touched_atoms}
-        if src.arriving is not None:
-            seen |= set(src.arriving.change.touched_atoms)
-        fragments = sorted(Chem.GetMolFrags(src.state.mol, asMols=False, sanitizeFrags=False), key=len)
+        near |= set(src.arriving.entered)
+        # The largest last; of two as large, the one a step beside the panel touches.
+        fragments = sorted(Chem.GetMolFrags(src.state.mol, asMols=False, sanitizeFrags=False),
+                           key=lambda f: (len(f), not near.isdisjoint(f)))
         idle = set()
         for frag in fragments[:-1]:
             atoms = set(frag) - src.state.released
-            if atoms and atoms & seen and not atoms & near:
+            if atoms and not atoms & near:
                 idle |= atoms
         src.idle = frozenset(idle)
     return sources
