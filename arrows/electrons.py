@@ -68,6 +68,9 @@ class ElectronState:
     # see `bond_framework`; derived from the other fields, so neither compared nor shown
     framework: Optional[frozenset[tuple[int, int, int]]] = field(default=None, compare=False, repr=False)
     cation_atoms: Optional[frozenset[int]] = field(default=None, compare=False, repr=False)   # see `cations`
+    # Judgements made on this state (judgement/, by name), kept with it so that the checks and the
+    # drawing that follows them make each once.
+    judged: dict = field(default_factory=dict, compare=False, repr=False)
 
     def __post_init__(self) -> None:
         # A step hands these on (the common case, checked cheaply); a new state derives them.
