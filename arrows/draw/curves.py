@@ -589,7 +589,7 @@ class ArrowPlanner:
                 far = panel.positions[j if i == atom else i]
                 if abs(_unit(far - centre) - direction) < 1e-6:
                     side = direction * 1j * extent
-                    return any(_curve_crosses(c, centre + off, far + off) for off in (0j, side, -side))
+                    return _curve_crosses(c, [(centre + off, far + off) for off in (0j, side, -side)])
         return False
 
     def _arc(self, src: _Anchor, snk: _Anchor, side: int, theta: float, panel: PanelStructure) -> _Candidate:
@@ -939,15 +939,19 @@ def _beside_bond(occupied: list[complex], toward: complex, tails: list[complex] 
 _SAME_SIDE = 40.0   # the two fishhooks of one split bond drawn on one side of it
 
 
-def _curve_crosses(c: _Candidate, a: complex, b: complex) -> bool:
-    """Whether the candidate's curve, as a polyline through its samples, crosses segment a-b."""
+def _curve_crosses(c: _Candidate, segments: list[tuple[complex, complex]]) -> bool:
+    """Whether the candidate's curve, as a polyline through its samples (worked out once),
+    crosses one of the segments a-b: each has the other's ends on opposite sides, the signed
+    areas ((q - p) * conj(r - p)).imag written out (a hundred of them a curve)."""
     pts = (np.array([c.p0, c.p1, c.p2, c.tip]) @ _BERNSTEIN).tolist()
-
-    def area(p: complex, q: complex, r: complex) -> float:
-        return ((q - p) * (r - p).conjugate()).imag
-
-    return any(area(p, q, a) * area(p, q, b) < 0 and area(a, b, p) * area(a, b, q) < 0
-               for p, q in zip(pts, pts[1:]))
+    for a, b in segments:
+        along = b - a
+        for p, q in zip(pts, pts[1:]):
+            step = q - p
+            if ((step * (a - p).conjugate()).imag * (step * (b - p).conjugate()).imag < 0
+                    and (along * (p - a).conjugate()).imag * (along * (q - a).conjugate()).imag < 0):
+                return True
+    return False
 
 
 def _to_own_atom(move: ResolvedMove) -> bool:
