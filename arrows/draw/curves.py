@@ -680,14 +680,19 @@ class ArrowPlanner:
                                   np.where(own_bare, 10.0, 30.0), crossing], axis=1)
         bond_a = _padded([o.bond_a for o in obs], 0j, complex)[where]
         bond_b = _padded([o.bond_b for o in obs], 0j, complex)[where]
-        crossed = _crossing_counts(pts, bond_a, bond_b, extent)
         if any(o.stroke_of for o in obs):
             # A bond is crossed once, by whichever of its strokes the curve crosses (a padded
-            # stroke has no length and crosses nothing).
-            strokes = _crossing_counts(pts, _padded([o.stroke_a for o in obs], 0j, complex)[where],
-                                       _padded([o.stroke_b for o in obs], 0j, complex)[where], extent)
+            # stroke has no length and crosses nothing). The bonds' centre lines and the strokes
+            # beside them are counted in one batch (whole counts, whatever the columns' order).
+            stroke_a = _padded([o.stroke_a for o in obs], 0j, complex)[where]
+            stroke_b = _padded([o.stroke_b for o in obs], 0j, complex)[where]
+            both = _crossing_counts(pts, np.concatenate((bond_a, stroke_a), axis=1),
+                                    np.concatenate((bond_b, stroke_b), axis=1), extent)
+            crossed, strokes = both[:, :bond_a.shape[1]], both[:, bond_a.shape[1]:]
             of = _padded([o.stroke_of for o in obs], 0, int)[where]
             np.maximum.at(crossed, (np.arange(len(pts))[:, None], of), strokes)
+        else:
+            crossed = _crossing_counts(pts, bond_a, bond_b, extent)
         # The bonds each candidate crosses that are not its own (both ends named by its move):
         # whether wider arcs are worth a try.
         foreign = (crossing > 0) & ~(own[arrow, ends[..., 0]] & own[arrow, ends[..., 1]])
