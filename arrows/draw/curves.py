@@ -100,7 +100,7 @@ def _units(z: np.ndarray) -> np.ndarray:
     return out
 
 
-@dataclass
+@dataclass(slots=True)
 class _Anchor:
     """One end of an arrow, before the curve is chosen."""
 
@@ -113,7 +113,7 @@ class _Anchor:
     pivot: Optional[int] = None   # gap of a 1,2-shift: the atom the group leaves
 
 
-@dataclass
+@dataclass(slots=True)   # (a few hundred a figure, their fields read in every sort and sum)
 class _Candidate:
     p0: complex
     p1: complex
