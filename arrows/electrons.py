@@ -241,6 +241,21 @@ class StepChange:
             m.source_kind == "bond" and len(m.sink_atoms) == 2 and m.electrons == 2 for m in self.moves)
 
 
+def bonds_after(bonds: list[tuple[int, int, float]], change: StepChange, after: Chem.Mol
+                ) -> list[tuple[int, int, float]]:
+    """rdkit_io.bond_list of the state after a step, from that of the state before (`bonds`) and
+    the step's change, as apply_step edits the Mol: the bonds it breaks are removed (RDKit keeps
+    the others in their order), those whose order changes keep their place, and those it forms
+    are appended in the order it makes them. `after` (the state's Mol) is asked only for the
+    order of each new bond."""
+    broken = {pair(i, j) for i, j in change.broken}
+    orders = {pair(i, j): float(new) for (i, j), _, new in change.reordered}
+    out = [(i, j, orders.get(pair(i, j), order)) for i, j, order in bonds if pair(i, j) not in broken]
+    bond = after.GetBondBetweenAtoms
+    out += [(i, j, bond(i, j).GetBondTypeAsDouble()) for i, j in change.formed]
+    return out
+
+
 class _StepFailed(Exception):
     pass
 
