@@ -68,6 +68,9 @@ class ElectronState:
     # see `bond_framework`; derived from the other fields, so neither compared nor shown
     framework: Optional[frozenset[tuple[int, int, int]]] = field(default=None, compare=False, repr=False)
     cation_atoms: Optional[frozenset[int]] = field(default=None, compare=False, repr=False)   # see `cations`
+    # Judgements made on this state (judgement/, by name), kept with it so that the checks and the
+    # drawing that follows them make each once.
+    judged: dict = field(default_factory=dict, compare=False, repr=False)
 
     def __post_init__(self) -> None:
         # A step hands these on (the common case, checked cheaply); a new state derives them.
@@ -236,6 +239,21 @@ class StepChange:
         arrows moves a charge: a C=C pair onto a carbocation (a cation-olefin cyclisation) is polar."""
         return bool(self.moves) and not self.charges and all(
             m.source_kind == "bond" and len(m.sink_atoms) == 2 and m.electrons == 2 for m in self.moves)
+
+
+def bonds_after(bonds: list[tuple[int, int, float]], change: StepChange, after: Chem.Mol
+                ) -> list[tuple[int, int, float]]:
+    """rdkit_io.bond_list of the state after a step, from that of the state before (`bonds`) and
+    the step's change, as apply_step edits the Mol: the bonds it breaks are removed (RDKit keeps
+    the others in their order), those whose order changes keep their place, and those it forms
+    are appended in the order it makes them. `after` (the state's Mol) is asked only for the
+    order of each new bond."""
+    broken = {pair(i, j) for i, j in change.broken}
+    orders = {pair(i, j): float(new) for (i, j), _, new in change.reordered}
+    out = [(i, j, orders.get(pair(i, j), order)) for i, j, order in bonds if pair(i, j) not in broken]
+    bond = after.GetBondBetweenAtoms
+    out += [(i, j, bond(i, j).GetBondTypeAsDouble()) for i, j in change.formed]
+    return out
 
 
 class _StepFailed(Exception):

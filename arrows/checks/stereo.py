@@ -7,7 +7,7 @@ from typing import Iterator, Optional
 from rdkit import Chem
 
 from ..diagnostics import Diagnostic
-from ..judgement.stereo import CENTRE, StereoElement, describe, stereo_elements, stereoisomer_count
+from ..judgement.stereo import CENTRE, StereoElement, describe, state_stereo, stereoisomer_count
 from ..rdkit_io import canonical, fragment
 from ..electrons import ElectronState
 from ..judgement.perception import RecentViews
@@ -29,8 +29,8 @@ def step_stereo(st: StepTrace, views: Optional[RecentViews] = None) -> tuple[lis
     if st.after is None:
         return [], []
     views = RecentViews() if views is None else views
-    old = stereo_elements(st.before.mol, views.of(st.before))
-    new = stereo_elements(st.after.mol, views.of(st.after))
+    old = state_stereo(st.before, views)
+    new = state_stereo(st.after, views)
     return sorted(new - old), sorted(old - new)
 
 
@@ -47,7 +47,7 @@ def product_stereo(final: Optional[ElectronState], touched: set[int], views: Opt
     keeps only the fragments with more than one stereoisomer (no SMILES is written for the others)."""
     if final is None:
         return []
-    elements = stereo_elements(final.mol, (views or RecentViews()).of(final))
+    elements = state_stereo(final, views or RecentViews())
     if not elements:
         return []
     out = []

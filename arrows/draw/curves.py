@@ -100,7 +100,7 @@ def _units(z: np.ndarray) -> np.ndarray:
     return out
 
 
-@dataclass
+@dataclass(slots=True)
 class _Anchor:
     """One end of an arrow, before the curve is chosen."""
 
@@ -113,7 +113,7 @@ class _Anchor:
     pivot: Optional[int] = None   # gap of a 1,2-shift: the atom the group leaves
 
 
-@dataclass
+@dataclass(slots=True)   # (a few hundred a figure, their fields read in every sort and sum)
 class _Candidate:
     p0: complex
     p1: complex
@@ -589,7 +589,7 @@ class ArrowPlanner:
                 far = panel.positions[j if i == atom else i]
                 if abs(_unit(far - centre) - direction) < 1e-6:
                     side = direction * 1j * extent
-                    return any(_curve_crosses(c, centre + off, far + off) for off in (0j, side, -side))
+                    return _curve_crosses(c, [(centre + off, far + off) for off in (0j, side, -side)])
         return False
 
     def _arc(self, src: _Anchor, snk: _Anchor, side: int, theta: float, panel: PanelStructure) -> _Candidate:
@@ -680,14 +680,19 @@ class ArrowPlanner:
                                   np.where(own_bare, 10.0, 30.0), crossing], axis=1)
         bond_a = _padded([o.bond_a for o in obs], 0j, complex)[where]
         bond_b = _padded([o.bond_b for o in obs], 0j, complex)[where]
-        crossed = _crossing_counts(pts, bond_a, bond_b, extent)
         if any(o.stroke_of for o in obs):
             # A bond is crossed once, by whichever of its strokes the curve crosses (a padded
-            # stroke has no length and crosses nothing).
-            strokes = _crossing_counts(pts, _padded([o.stroke_a for o in obs], 0j, complex)[where],
-                                       _padded([o.stroke_b for o in obs], 0j, complex)[where], extent)
+            # stroke has no length and crosses nothing). The bonds' centre lines and the strokes
+            # beside them are counted in one batch (whole counts, whatever the columns' order).
+            stroke_a = _padded([o.stroke_a for o in obs], 0j, complex)[where]
+            stroke_b = _padded([o.stroke_b for o in obs], 0j, complex)[where]
+            both = _crossing_counts(pts, np.concatenate((bond_a, stroke_a), axis=1),
+                                    np.concatenate((bond_b, stroke_b), axis=1), extent)
+            crossed, strokes = both[:, :bond_a.shape[1]], both[:, bond_a.shape[1]:]
             of = _padded([o.stroke_of for o in obs], 0, int)[where]
             np.maximum.at(crossed, (np.arange(len(pts))[:, None], of), strokes)
+        else:
+            crossed = _crossing_counts(pts, bond_a, bond_b, extent)
         # The bonds each candidate crosses that are not its own (both ends named by its move):
         # whether wider arcs are worth a try.
         foreign = (crossing > 0) & ~(own[arrow, ends[..., 0]] & own[arrow, ends[..., 1]])
@@ -939,15 +944,19 @@ def _beside_bond(occupied: list[complex], toward: complex, tails: list[complex] 
 _SAME_SIDE = 40.0   # the two fishhooks of one split bond drawn on one side of it
 
 
-def _curve_crosses(c: _Candidate, a: complex, b: complex) -> bool:
-    """Whether the candidate's curve, as a polyline through its samples, crosses segment a-b."""
+def _curve_crosses(c: _Candidate, segments: list[tuple[complex, complex]]) -> bool:
+    """Whether the candidate's curve, as a polyline through its samples (worked out once),
+    crosses one of the segments a-b: each has the other's ends on opposite sides, the signed
+    areas ((q - p) * conj(r - p)).imag written out (a hundred of them a curve)."""
     pts = (np.array([c.p0, c.p1, c.p2, c.tip]) @ _BERNSTEIN).tolist()
-
-    def area(p: complex, q: complex, r: complex) -> float:
-        return ((q - p) * (r - p).conjugate()).imag
-
-    return any(area(p, q, a) * area(p, q, b) < 0 and area(a, b, p) * area(a, b, q) < 0
-               for p, q in zip(pts, pts[1:]))
+    for a, b in segments:
+        along = b - a
+        for p, q in zip(pts, pts[1:]):
+            step = q - p
+            if ((step * (a - p).conjugate()).imag * (step * (b - p).conjugate()).imag < 0
+                    and (along * (p - a).conjugate()).imag * (along * (q - a).conjugate()).imag < 0):
+                return True
+    return False
 
 
 def _to_own_atom(move: ResolvedMove) -> bool:

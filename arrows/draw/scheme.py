@@ -14,7 +14,7 @@ from rdkit import Chem
 from rdkit.Chem.rdMolDescriptors import CalcMolFormula
 
 from ..diagnostics import Diagnostic, ERROR
-from ..electrons import ElectronState, ResolvedMove
+from ..electrons import ElectronState, ResolvedMove, bonds_after
 from ..rdkit_io import bond_list, fragment
 from ..trace import StepTrace, Trace
 from .curves import ArrowPlanner
@@ -74,6 +74,20 @@ def _panel_sources(trace: Trace) -> list[_PanelSource]:
             return out
     out.append(_PanelSource(steps[-1].after, None, steps[-1]))
     return _without_idle_spectators(out)
+
+
+def _bond_lists(sources: list[_PanelSource]) -> list[list[tuple[int, int, float]]]:
+    """rdkit_io.bond_list of each panel's state. A state that is the one the step before made
+    (no species entered in between) has its bonds worked out from the previous panel's and that
+    step's change: reading every bond off RDKit costs four calls a bond."""
+    out: list[list[tuple[int, int, float]]] = []
+    for k, src in enumerate(sources):
+        made = sources[k - 1].leaving if k else None
+        if made is not None and made.after is not None and src.state.mol is made.after.mol:
+            out.append(bonds_after(out[-1], made.change, src.state.mol))
+        else:
+            out.append(bond_list(src.state.mol))
+    return out
 
 
 def _without_idle_spectators(sources: list[_PanelSource]) -> list[_PanelSource]:
@@ -173,7 +187,7 @@ class _SceneBuilder:
         states = [s.state for s in sources]
         moves = [list(s.leaving.change.moves) if s.leaving else [] for s in sources]
         touched = [set(s.leaving.change.touched_atoms) if s.leaving else set() for s in sources]
-        bonds = [bond_list(state.mol) for state in states]   # read from RDKit once, for layout and structures
+        bonds = _bond_lists(sources)   # for layout and structures
         layout = compute_layout(states, moves, touched, [s.hidden | s.idle for s in sources], bonds)
         drawn = [self._structure(src, placed, layout.drawn_hydrogens, listed)
                  for src, placed, listed in zip(sources, layout.panels, bonds)]

@@ -215,6 +215,10 @@ class StructureDrawer:
         self._single_bonds: dict[tuple, BondDrawing] = {}
         self._bare_labels: dict[Optional[tuple], AtomDrawing] = {}   # labels without hydrogens, likewise
         self._vertices: dict[tuple, AtomDrawing] = {}   # and skeletal carbons
+        # Each atom's symbol, map number and own hydrogen count, read off RDKit once per scheme:
+        # they never change over a mechanism (atoms are only appended, a hydrogen that moves is
+        # an atom of its own from the start), and each call into RDKit costs more than a lookup.
+        self._facts: dict[int, tuple[str, int, int]] = {}
 
     def draw(self, state: ElectronState, visible: tuple[int, ...], positions: dict[int, complex],
              drawn_hydrogens: frozenset[int], formed: set[tuple[int, int]] = frozenset(),
@@ -226,10 +230,10 @@ class StructureDrawer:
         the gap between their atoms: a charge sign beside a vertex keeps out of that gap."""
         mol = state.mol
         shown = set(visible)
-        # RDKit is asked once per atom and once per bond: each call into it costs more than the
-        # geometry it feeds. A bond's index order is the order RDKit lists an atom's neighbours in.
-        atom = mol.GetAtomWithIdx   # only the atoms drawn are asked for
-        atoms = {i: atom(i) for i in visible}
+        # RDKit is asked once per bond, and about an atom only where the state's own numbers do
+        # not tell: each call into it costs more than the geometry it feeds. A bond's index order
+        # is the order RDKit lists an atom's neighbours in.
+        facts = self._atom_facts(mol, visible)
         bonds, adjacent = [], [[] for _ in range(mol.GetNumAtoms())]
         for i, j, order in listed_bonds if listed_bonds is not None else bond_list(mol):
             bonds.append((i, j, int(order)))
@@ -253,7 +257,7 @@ class StructureDrawer:
                 if i in ahead:
                     ahead[i] += [_unit_or_zero(positions[j] - positions[i]) for j in pair if j != i and j in positions]
         for i in visible:
-            out.atoms[i] = self._atom(state, atoms, adjacent, i, positions, neighbours[i], drawn_hydrogens, out,
+            out.atoms[i] = self._atom(state, facts[i], adjacent, i, positions, neighbours[i], drawn_hydrogens, out,
                                       ahead[i])
         # RDKit's ring search costs more than all the strokes: run it only when a drawn double
         # bond lies on a ring (only such a bond asks which ring it is in).
@@ -261,7 +265,7 @@ class StructureDrawer:
                       for i, j, order in bonds)
         rings = [list(r) for r in Chem.GetSymmSSSR(mol)] if on_ring else []
         # Wedges only where a species wrote a configuration: no work per bond otherwise.
-        wedges = self._wedges(state, atoms, adjacent, neighbours, out, bonds, broken) if state.configured else {}
+        wedges = self._wedges(state, adjacent, neighbours, out, bonds, broken) if state.configured else {}
         for i, j, order in bonds:
             if i in shown and j in shown:
                 key = (i, j) if i < j else (j, i)
@@ -272,10 +276,10 @@ class StructureDrawer:
                 else:
                     out.bonds.append(self._bond(i, j, order, role, out, neighbours, rings))
         for i in visible:
-            self._charge_and_radical(atoms[i], i, out, ahead[i])
+            self._charge_and_radical(state, i, out, ahead[i])
         if self.style.numbers:
             for i in visible:
-                number = atoms[i].GetAtomMapNum()
+                number = facts[i][1]
                 if number:
                     out.marks.append(self._side_text("number", i, str(number), out, preferred=cmath.rect(1, math.pi / 4)))
         if self.style.cip:
@@ -283,14 +287,21 @@ class StructureDrawer:
         return out
 
     # atoms and labels
-    def _atom(self, state: ElectronState, atoms: dict[int, Chem.Atom], adjacent: list[list[int]], i: int,
+    def _atom_facts(self, mol: Chem.Mol, atoms: tuple[int, ...]) -> dict[int, tuple[str, int, int]]:
+        """Symbol, map number and own hydrogen count of each of `atoms`, as RDKit reads them."""
+        facts = self._facts
+        for i in atoms:
+            if i not in facts:
+                atom = mol.GetAtomWithIdx(i)
+                facts[i] = (atom.GetSymbol(), atom.GetAtomMapNum(), atom.GetNumExplicitHs())
+        return facts
+
+    def _atom(self, state: ElectronState, facts: tuple[str, int, int], adjacent: list[list[int]], i: int,
               positions: dict[int, complex], neighbours: list[int], drawn_hydrogens: frozenset[int],
               out: PanelStructure, ahead: list[complex] = ()) -> AtomDrawing:
-        atom = atoms[i]
         element = state.elements   # atomic numbers, without a call into RDKit per atom
         p = positions[i]
-        symbol = atom.GetSymbol()
-        number = atom.GetAtomMapNum()
+        symbol, number, own_hydrogens = facts
         # A mapped atom, or an unmapped one other than a hydrogen, is named as ElectronState.label
         # names it (symbol and number, or symbol and position) without asking RDKit for the atom
         # again; a hydrogen, named after the atom that holds it, by the state.
@@ -301,9 +312,8 @@ class StructureDrawer:
         # hydrogen, as in cyanide, gets its letter.
         if element[i] == 6 and len(neighbours) > 1:
             return self._vertex(i, name, symbol, p)
-        hidden_h = atom.GetNumExplicitHs() + sum(
-            1 for n in adjacent[i] if n not in drawn_hydrogens and element[n] == 1)
-        bare_end = len(neighbours) == 1 and hidden_h == 0 and (atom.GetFormalCharge() or state.nonbonding[i])
+        hidden_h = own_hydrogens + sum(1 for n in adjacent[i] if n not in drawn_hydrogens and element[n] == 1)
+        bare_end = len(neighbours) == 1 and hidden_h == 0 and (state.formal_charge(i) or state.nonbonding[i])
         if element[i] == 6 and neighbours and not bare_end:
             return self._vertex(i, name, symbol, p)
         # The symbol alone is fixed by where it stands: drawn there in an earlier panel, it is reused.
@@ -329,7 +339,7 @@ class StructureDrawer:
             near = [j for j, q in positions.items() if j != i and abs(q - p) < 1.6 * bl]
             walls = [(positions[a] - p, positions[b] - p) for a in near for b in adjacent[a]
                      if b != i and b in positions and (b not in near or a < b)]
-            side = self._hydrogen_side(atom, out.occupied[i], crowd, walls, w_symbol / 2, w_h + w_n,
+            side = self._hydrogen_side(element[i], out.occupied[i], crowd, walls, w_symbol / 2, w_h + w_n,
                                        [a for a in ahead if a])
             sub_drop = 0.3 * fs
             if side == 1:
@@ -362,7 +372,7 @@ class StructureDrawer:
             drawing = self._vertices[key] = AtomDrawing(i, name, symbol, (p.real, p.imag))
         return drawing
 
-    def _hydrogen_side(self, atom: Chem.Atom, bonds: list[complex], crowd: list[tuple[complex, float, float]],
+    def _hydrogen_side(self, element: int, bonds: list[complex], crowd: list[tuple[complex, float, float]],
                        walls: list[tuple[complex, complex]], half_symbol: float, h_width: float,
                        ahead: list[complex] = ()):
         """1 (right), -1 (left), 1j (below) or -1j (above): the first side beside the symbol where
@@ -372,7 +382,7 @@ class StructureDrawer:
         their ends); when neither side does, the side that meets the fewest (a bond within 50
         degrees counts as one), then the one furthest round from bonds and atoms. An atom
         without bonds tries the side its formula is written from first (HO-, H2O; NH3)."""
-        h_first = not bonds and atom.GetAtomicNum() in _HYDROGEN_FIRST
+        h_first = not bonds and element in _HYDROGEN_FIRST
         bonds = bonds + list(ahead)
         occupied = bonds + [_unit_or_zero(c) for c, _, _ in crowd]
         if not occupied:
@@ -464,7 +474,7 @@ class StructureDrawer:
         out.bond_extent[(min(i, j), max(i, j))] = extent
         return BondDrawing((i, j), order, tuple([((s.real, s.imag), (e.real, e.imag)) for s, e in lines]), role, colour)
 
-    def _wedges(self, state: ElectronState, atoms: dict[int, Chem.Atom], adjacent: list[list[int]],
+    def _wedges(self, state: ElectronState, adjacent: list[list[int]],
                 neighbours: dict[int, list[int]], out: PanelStructure, bonds: list[tuple[int, int, int]],
                 breaking: set[tuple[int, int]]) -> dict[tuple[int, int], str]:
         """(stereocentre, other atom) -> kind, for the bonds wedged on this panel (wedges.py);
@@ -472,10 +482,10 @@ class StructureDrawer:
         centres = configured_centres(state)
         if not centres:
             return {}
-        elements = state.elements
+        elements, atom = state.elements, state.mol.GetAtomWithIdx
 
         def hydrogens(n: int) -> int:
-            return atoms[n].GetTotalNumHs() + sum(1 for m in adjacent[n] if elements[m] == 1)
+            return atom(n).GetTotalNumHs() + sum(1 for m in adjacent[n] if elements[m] == 1)
 
         single = {(min(i, j), max(i, j)) for i, j, order in bonds
                   if order == 1 and (i in centres or j in centres) and i in out.positions and j in out.positions}
@@ -565,10 +575,10 @@ class StructureDrawer:
         return 1 if total > 0 else -1
 
     # marks beside atoms
-    def _charge_and_radical(self, atom: Chem.Atom, i: int, out: PanelStructure, ahead: list[complex] = ()) -> None:
+    def _charge_and_radical(self, state: ElectronState, i: int, out: PanelStructure, ahead: list[complex] = ()) -> None:
         """`ahead`: directions to atoms a bond is about to form with, where an arrow's head goes;
         a charge sign beside a skeletal vertex keeps out of them."""
-        charge = atom.GetFormalCharge()
+        charge = state.formal_charge(i)   # V - N - B, as the bookkeeping sets RDKit's
         if charge:
             sign = "+" if charge > 0 else MINUS
             text = (str(abs(charge)) if abs(charge) > 1 else "") + sign
@@ -587,7 +597,8 @@ class StructureDrawer:
                 for d in avoided:
                     out.occupied[i].remove(d)
             out.marks.append(mark)
-        if atom.GetNumRadicalElectrons():
+        # An unpaired electron is one of the atom's own (N): RDKit is asked only where there are some.
+        if state.nonbonding[i] and state.mol.GetAtomWithIdx(i).GetNumRadicalElectrons():
             out.marks.append(self.radical_dot(i, out, preferred=cmath.rect(1, -math.pi / 2)))
 
     def _superscript(self, i: int, text: str, out: PanelStructure, near: list[Box]) -> Optional[Mark]:

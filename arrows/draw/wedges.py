@@ -44,10 +44,10 @@ def configured_centres(state: ElectronState) -> dict[int, tuple[list[int], int]]
     stereogenic is not a configuration. tests/test_draw_stereo.py judges the outcome."""
     if not state.configured:
         return {}
-    from ..judgement.stereo import CENTRE, stereo_elements
+    from ..judgement.stereo import CENTRE, state_stereo
     mol = state.mol
     tagged = {}
-    for e in stereo_elements(mol):
+    for e in state_stereo(state):   # found by the stereo check already when `arrows draw` checked first
         if e.kind != CENTRE:
             continue
         atom = mol.GetAtomWithIdx(e.atoms[0])

@@ -14,8 +14,9 @@ from typing import Iterable, Optional
 
 from rdkit import Chem
 
+from ..electrons import ElectronState
 from ..rdkit_io import fragment, potential_stereo
-from .perception import Perceived, perceive
+from .perception import Perceived, RecentViews, perceive
 
 CENTRE, DOUBLE_BOND = "stereocentre", "stereogenic double bond"
 
@@ -40,6 +41,16 @@ def stereo_elements(mol: Chem.Mol, view: Optional[Perceived] = None) -> frozense
     if "stereo" not in view.memo:
         view.memo["stereo"] = _elements(view) if view.complete else frozenset()
     return view.memo["stereo"]
+
+
+def state_stereo(state: ElectronState, views: Optional[RecentViews] = None) -> frozenset[StereoElement]:
+    """stereo_elements of a state, found once per state: the stereo check finds them for every
+    state it meets, and the drawing of those states (wedges) asks again. `views`, the perceived
+    views of the states met lately, when the caller keeps them."""
+    found = state.judged.get("stereo")
+    if found is None:
+        found = state.judged["stereo"] = stereo_elements(state.mol, views.of(state) if views is not None else None)
+    return found
 
 
 def _elements(view: Perceived) -> frozenset[StereoElement]:
