@@ -97,8 +97,8 @@ def _without_idle_spectators(sources: list[_PanelSource]) -> list[_PanelSource]:
     for a later step (the alcohol and the amine of a Swern oxidation) is drawn in the first
     panel, with every starting material, and again from the panel before its step. The largest
     species of a panel is always drawn (the molecule the scheme is about, as a rule; of two as
-    large, the one that takes part). Each
-    source (just made by _panel_sources) gets its `idle` atoms in place."""
+    large, the one that takes part). Each source (just made by _panel_sources) gets its `idle`
+    atoms in place."""
     for src in sources:
         if src.arriving is None:
             continue   # the first panel draws every starting material
