@@ -1329,6 +1329,13 @@ class _LayoutBuilder:
         # a Darzens ester whose carbon the ketone bonds to keeps its place).
         return here <= self.joining[k] and not self._held_by_skeleton(atoms, k)
 
+    def _cluster_hops(self, index: int) -> list[tuple[int, int, int, Optional[int]]]:
+        """(panel, its atom, the partner's atom, hydrogen) for each proton hop between cluster
+        `index` and another cluster, in the order of the events."""
+        atoms = set(self.clusters[index].atoms)
+        return [(panel, a, b, h) if a in atoms else (panel, b, a, h) for panel, kind, a, b, h in self.events
+                if kind == "hop" and (a in atoms) != (b in atoms)]
+
     def _trader(self, index: int) -> bool:
         """Whether cluster `index` is an acid or base: not the skeleton, it only ever trades
         protons with other clusters (no bond joins it to one in any panel)."""
@@ -1343,10 +1350,9 @@ class _LayoutBuilder:
         between them crosses it)."""
         cluster = self.clusters[index]
         mine_atoms = set(cluster.atoms)
-        for panel, kind, a, b, _ in self.events:
-            if kind != "hop" or not segment[0] <= panel <= segment[1] or (a in mine_atoms) == (b in mine_atoms):
+        for panel, mine, other, _ in self._cluster_hops(index):
+            if not segment[0] <= panel <= segment[1]:
                 continue
-            mine, other = (a, b) if a in mine_atoms else (b, a)
             here = self.positions[panel]
             if other not in here:
                 continue
@@ -1363,9 +1369,7 @@ class _LayoutBuilder:
         that takes protons from two far-apart places waits beside each in turn, as chemists draw
         it, instead of halfway between with its arrows across the molecule)."""
         cluster = self.clusters[index]
-        atoms = set(cluster.atoms)
-        cuts = sorted({panel + 1 for panel, kind, a, b, _ in self.events
-                       if kind == "hop" and (a in atoms) != (b in atoms) and segment[0] <= panel < segment[1]})
+        cuts = sorted({panel + 1 for panel, _, _, _ in self._cluster_hops(index) if segment[0] <= panel < segment[1]})
         pieces = list(zip([segment[0]] + cuts, [c - 1 for c in cuts] + [segment[1]]))
         at = cluster.segments.index(segment)
         cluster.segments[at:at + 1] = pieces
@@ -1880,12 +1884,10 @@ class _LayoutBuilder:
         and the hop just before it that made it what it is (a water that has just protonated an
         oxygen stays beside that oxygen; not an acid or base redrawn for its next turn): (its
         atom, where the partner atom is)."""
-        atoms = set(self.clusters[index].atoms)
         out = []
-        for panel, kind, a, b, h in self.events:
-            if kind != "hop" or (panel == k and h == hydrogen) or (a in atoms) == (b in atoms):
+        for panel, mine, other, h in self._cluster_hops(index):
+            if panel == k and h == hydrogen:
                 continue
-            mine, other = (a, b) if a in atoms else (b, a)
             if segment[0] <= panel <= segment[1] and other in self.positions[panel]:
                 out.append((mine, self.positions[panel][other]))
             elif panel == segment[0] - 1 and segment[0] not in self.clusters[index].redrawn \
