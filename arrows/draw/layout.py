@@ -487,21 +487,24 @@ class _Cluster:
 
 def compute_layout(states: Sequence[ElectronState], moves: Sequence[Sequence[ResolvedMove]],
                    touched: Sequence[Iterable[int]], left_out: Sequence[Iterable[int]] = (),
-                   bonds: Optional[Sequence[list[tuple[int, int, float]]]] = None) -> Layout:
+                   bonds: Optional[Sequence[list[tuple[int, int, float]]]] = None,
+                   product: Iterable[int] = ()) -> Layout:
     """Positions for the atoms of every state. `moves[k]` are the moves drawn on panel k,
     `touched[k]` the atoms the step leaving panel k changes (empty for the last panel) and
     `left_out[k]` atoms panel k does not draw (a spectator between its turns): a species is
     free to move while it is not drawn. `bonds[k]` are state k's bonds as rdkit_io.bond_list
-    reads them (read here when not given)."""
+    reads them (read here when not given). `product` holds atoms of the last state's product
+    proper, which the by-products line up after (by default the largest molecule)."""
     with _rdkit_depictor():
-        return _LayoutBuilder(states, moves, touched, left_out, bonds).build()
+        return _LayoutBuilder(states, moves, touched, left_out, bonds, product).build()
 
 
 class _LayoutBuilder:
     def __init__(self, states: Sequence[ElectronState], moves: Sequence[Sequence[ResolvedMove]],
                  touched: Sequence[Iterable[int]], left_out: Sequence[Iterable[int]] = (),
-                 bonds: Optional[Sequence[list[tuple[int, int, float]]]] = None):
+                 bonds: Optional[Sequence[list[tuple[int, int, float]]]] = None, product: Iterable[int] = ()):
         self.states = list(states)
+        self.product = frozenset(product)
         self.n = len(self.states)
         self.touched = [set(t) for t in touched] + [set()] * (self.n - len(touched))
         elements = max(self.states, key=lambda s: len(s.elements)).elements
@@ -595,6 +598,7 @@ class _LayoutBuilder:
         while self._place_by_events(("bond", "hop", "transfer")) or self._place_waiting() or self._place_leftovers():
             pass
         self._place_hydrogens()
+        self._set_by_products_beside_product()
         panels = []
         for k, state in enumerate(self.states):
             visible = tuple(i for i in visible_atoms(state, self.drawn_h) if i in self.positions[k])
@@ -2127,6 +2131,38 @@ class _LayoutBuilder:
             cluster.placement[start] = (1 + 0j, complex(right + LEFTOVER_GAP - left, mid_y - cy), None, 0.0)
         self._apply(index)
         return True
+
+    def _set_by_products_beside_product(self) -> None:
+        """The last panel reads as an equation: the product (`self.product`, else the largest
+        molecule), then each by-product of the last step in a row to its right, level with it (common practice: "product + MeO-"). Left where it
+        acted, a by-product would hang above or below the product, between the rows of the scheme
+        when the product starts a row. Every such by-product is one the last step made or changed
+        (an idle species is not drawn there), and each moves as a rigid body."""
+        k = self.n - 1
+        where = self.positions[k]
+        drawn = {i for i in visible_atoms(self.states[k], self.drawn_h) if i in where and i in self.exists[k]}
+        molecules = [[i for i in molecule if i in drawn] for molecule in self.molecules[k]]
+        molecules = [m for m in molecules if m]
+        if len(molecules) < 2:
+            return
+        product = max(molecules, key=lambda m: (not self.product.isdisjoint(m), sum(self.element[i] != 1 for i in m),
+                                                -min(m)))
+        by_products = sorted((m for m in molecules if m is not product),
+                             key=lambda m: min(where[i].real for i in m))
+
+        def middle(molecule: list[int]) -> float:
+            # Of the heavy atoms: whether a travelling hydrogen shows is the structure's choice.
+            heights = [where[i].imag for i in molecule if self.element[i] != 1] or [where[i].imag for i in molecule]
+            return (min(heights) + max(heights)) / 2
+
+        level = middle(product)
+        right = max(where[i].real + self._label_reach(i) for i in product)
+        for molecule in by_products:
+            left = min(where[i].real - self._label_reach(i) for i in molecule)
+            shift = complex(right + LEFTOVER_GAP - left, level - middle(molecule))
+            for i in molecule:
+                where[i] += shift
+            right = max(where[i].real + self._label_reach(i) for i in molecule)
 
     def _lettered(self, atom: int, mol: Chem.Mol) -> bool:
         """Whether the heavy atom is drawn as a letter in this state: a heteroatom, or a carbon
