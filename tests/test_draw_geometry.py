@@ -978,6 +978,28 @@ def test_the_last_panel_reads_product_then_by_products(text, name):
         right = max(where[i][0] for i in molecule)
 
 
+def _segment_meets_box(p, q, box) -> bool:
+    """Whether segment pq meets the box (sampled every 1/50 of its length)."""
+    return any(box.x0 <= p[0] + (q[0] - p[0]) * t / 50 <= box.x1 and box.y0 <= p[1] + (q[1] - p[1]) * t / 50 <= box.y1
+               for t in range(51))
+
+
+@pytest.mark.parametrize("text,name", [p for p in _mechanisms() if p.values[1] in _CORPUS])
+def test_a_charge_sign_stays_off_the_bonds_of_other_atoms(text, name):
+    """A charge sign touches no bond of another atom: on a ring bond beside NH2+ it reads as
+    belonging to neither (common practice: a sign stands clear, beside its own atom). Before,
+    the imine formation's carbinolamine wrote "NH2+" with the sign on the benzene ring."""
+    _, _, scene = _scene(text, name)
+    for panel in scene.panels:
+        for mark in panel.marks:
+            if mark.kind != "charge" or mark.box is None:
+                continue
+            for bond in panel.bonds:
+                if mark.atom not in bond.atoms:
+                    assert not any(_segment_meets_box(p, q, mark.box) for p, q in bond.lines), \
+                        (panel.index, mark.atom, bond.atoms)
+
+
 @pytest.mark.parametrize("text,name", _mechanisms())
 def test_proton_transfer_arrows_have_room(text, name):
     """A base about to take a proton waits at least 1.4 bond lengths from that hydrogen, so the
