@@ -678,6 +678,22 @@ def test_untouched_atoms_stay_put(text, name):
                 assert was * now >= -1e-6 * bl ** 4, (before.index, "mirrored", step.before.label(i))
 
 
+@pytest.mark.parametrize("name, step", [("cope", 0), ("claisen rearrangement", 0), ("anionic oxy-cope", 1)])
+def test_a_sigmatropic_shift_is_drawn_in_its_ring(name, step):
+    """A [3,3] shift is drawn in its cyclic six-atom array, on both sides of the arrow: the ends
+    of the bond it makes stand at most 1.6 bond lengths apart before, and the ends of the bond
+    it breaks at most 1.6 after, so the two panels read as one hexagon with the gap moved round
+    (common practice in organic chemistry texts). Before, the Cope diene was drawn as an open
+    chain with its ends 3.8 bond lengths apart, its product turned round the other way."""
+    trace, _, scene = _scene(TEXTBOOK[name][0], name)
+    change = trace.steps[step].change
+    (made,), (broken,) = change.formed, change.broken
+    before, after = scene.panels[step], scene.panels[step + 1]
+    for panel, (i, j) in ((before, made), (after, broken)):
+        where = {a.index: a.position for a in panel.atoms}
+        assert _distance(where[i], where[j]) <= 1.6 * scene.bond_length, (panel.index, i, j)
+
+
 def test_joining_molecules_wait_apart_facing_each_other():
     """Two molecules about to bond are drawn with the bonding atoms 2-2.5 bond lengths apart
     (room for the curved arrow; common practice in organic chemistry texts), and the one that

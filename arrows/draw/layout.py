@@ -903,10 +903,12 @@ class _LayoutBuilder:
         that step, as for a cycloaddition. Joins one ring; False when there is none."""
         root = {a: groups.find(a) for a in heavy_atoms}   # the groups stay as they are until a ring is joined
         roots = set(root.values())
-        # Each panel's bonds; then each step's, before and after together: a ring of three or more
-        # clusters that one step goes round, breaking some of its bonds as it makes the others
-        # (a zinc enolate adding to a ketone through a six-membered ring, the zinc passed from one
-        # oxygen to the other), is drawn as that ring too, its atoms in place on both sides.
+        # Each panel's bonds; then each step's, before and after together: a ring of five or more
+        # atoms that one step goes round, breaking some of its bonds as it makes the others (a
+        # zinc enolate adding to a ketone through a six-membered ring, the zinc passed from one
+        # oxygen to the other; the six atoms of a Cope or Claisen shift, in two clusters), is
+        # drawn as that ring too, its atoms in place on both sides, as chemists draw a pericyclic
+        # step. A smaller one is a group shifted to a neighbour.
         bond_sets = [(k, self.bonds_in[k], False) for k in range(self.n)]
         bond_sets += [(k + 1, self.bonds_in[k] | self.bonds_in[k + 1], True) for k in range(self.n - 1)]
         for k, bonds, over_step in bond_sets:
@@ -920,7 +922,7 @@ class _LayoutBuilder:
                     continue
                 if panel.find(a) == panel.find(b):
                     ring = self._cluster_path(links, a, b) + [(i, j)]
-                    if over_step and (len(ring) < 3 or self._ring_size(ring, root, bonds) < 5):
+                    if over_step and self._ring_size(ring, root, bonds) < 5:
                         continue   # a group shifted to a neighbour (a 1,2-shift) is placed where it goes
                     self._join_ring(groups, ring, k, heavy_atoms, partners)
                     return True
