@@ -2157,14 +2157,19 @@ class _LayoutBuilder:
             heights = [where[i].imag for i in molecule if self.element[i] != 1] or [where[i].imag for i in molecule]
             return (min(heights) + max(heights)) / 2
 
+        def edge(molecule: list[int], side: int) -> float:
+            # A label reaches at most two bond lengths: only atoms that far from the edge count.
+            far = side * max(side * where[i].real for i in molecule)
+            return side * max(side * (where[i].real + side * self._label_reach(i)) for i in molecule
+                              if abs(where[i].real - far) < 2.0)
+
         level = middle(product)
-        right = max(where[i].real + self._label_reach(i) for i in product)
+        right = edge(product, 1)
         for molecule in by_products:
-            left = min(where[i].real - self._label_reach(i) for i in molecule)
-            shift = complex(right + LEFTOVER_GAP - left, level - middle(molecule))
+            shift = complex(right + LEFTOVER_GAP - edge(molecule, -1), level - middle(molecule))
             for i in molecule:
                 where[i] += shift
-            right = max(where[i].real + self._label_reach(i) for i in molecule)
+            right = edge(molecule, 1)
 
     def _lettered(self, atom: int, mol: Chem.Mol) -> bool:
         """Whether the heavy atom is drawn as a letter in this state: a heteroatom, or a carbon

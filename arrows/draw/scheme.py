@@ -84,13 +84,16 @@ def product_atoms(trace: Trace) -> frozenset[int]:
     final = trace.steps[-1].after if trace.steps else trace.initial
     if product is None or final is None:
         return frozenset()
+    molecules = Chem.GetMolFrags(final.mol, asMols=False, sanitizeFrags=False)
+    if len(molecules) < 2:
+        return frozenset()   # nothing to tell the product from
     written = Chem.MolFromSmiles(product.smiles, sanitize=False)
     if written is None or not written.GetNumAtoms():
         return frozenset()
     first = Chem.GetMolFrags(written, asMols=False, sanitizeFrags=False)[0]
     wanted = Counter(written.GetAtomWithIdx(i).GetAtomicNum() for i in first)
     wanted.pop(1, None)
-    for molecule in Chem.GetMolFrags(final.mol, asMols=False, sanitizeFrags=False):
+    for molecule in molecules:
         if Counter(final.elements[i] for i in molecule if final.elements[i] != 1) == wanted:
             return frozenset(molecule)
     return frozenset()

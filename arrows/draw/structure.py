@@ -619,17 +619,21 @@ class StructureDrawer:
         baseline = box.y0 + 0.38 * size
         centre = out.positions[i]
         reach = self.style.bond_length
-        # Strokes of the other bonds close by: a sign on a ring bond beside NH2+ reads as neither.
-        strokes = [(complex(*a), complex(*b)) for bond in out.bonds if i not in bond.atoms
-                   and min(abs(out.positions[j] - centre) for j in bond.atoms) < 2 * reach
-                   for a, b in bond.lines]
+        strokes = None
         for x in (box.x1 + 0.03 * size, box.x0 - 0.03 * size - width):
             run = TextRun(text, x, baseline, size)
             tb = self.text_box(run)
             grown = Box(tb.x0 - 0.1 * size, tb.y0 - 0.1 * size, tb.x1 + 0.1 * size, tb.y1 + 0.1 * size)
             if any(segment_hits_box(centre + d * out.label_reach(i, d), centre + d * reach, grown)
-                   for d in out.bond_directions[i]) or any(grown.overlaps(b, 0.2 * size) for b in near) \
-                    or any(segment_hits_box(a, b, grown) for a, b in strokes):
+                   for d in out.bond_directions[i]) or any(grown.overlaps(b, 0.2 * size) for b in near):
+                continue
+            if strokes is None:
+                # Strokes of the other bonds close by: a sign on a ring bond beside NH2+ reads as
+                # neither's. (A stroke is shorter than two bond lengths: one that reaches the sign
+                # has an end within that of the atom.)
+                strokes = [(complex(*a), complex(*b)) for bond in out.bonds if i not in bond.atoms
+                           for a, b in bond.lines if abs(complex(*a) - centre) < 2 * reach]
+            if any(segment_hits_box(a, b, grown) for a, b in strokes):
                 continue
             middle = complex((tb.x0 + tb.x1) / 2, (tb.y0 + tb.y1) / 2) - centre
             out.occupied[i].append(middle / abs(middle))
