@@ -694,6 +694,62 @@ def test_a_sigmatropic_shift_is_drawn_in_its_ring(name, step):
         assert _distance(where[i], where[j]) <= 1.6 * scene.bond_length, (panel.index, i, j)
 
 
+_DEUTERIUM_EXCHANGE = """\
+species ketone = "[CH3:1][C:2](=[O:3])[CH3:4]"
+species deuteroxide = "[2H:7][O-:5]"
+species water = "[2H:8][O:6][2H:9]"
+step "enolate"
+    :O5 -> H(C1)
+    C1-H -> C1=C2
+    C2=O3 -> O3
+end
+step "deuteration"
+    :O3 -> C2=O3
+    C1=C2 -> C1-H8
+    O6-H8 -> O6
+end
+"""
+
+_LABELLED_OXYGEN = """\
+species ester = "[CH3:1][13C:2](=[O:3])[O:4][CH3:5]"
+species hydroxide = "[18OH-:6]"
+step "addition"
+    :O6 -> C2
+    C2=O3 -> O3
+end
+"""
+
+
+def test_a_labelled_atom_is_drawn_with_its_label_in_every_panel():
+    """A deuterium is drawn as an atom labelled D in every panel it is in, never folded into an
+    implicit "H" (IUPAC 2005, IR-3.3.2: D and T for 2H and 3H); a labelled heavy atom (13C, 18O)
+    is a letter with its mass number as a superscript before the symbol, a 13C never a bare
+    vertex. RDKit's isotope reading of each state is the judge of which atoms carry a label.
+    Before, the deuterium exchange drew D2O as "H2O" and the product's CH2D as a methyl."""
+    for text in (_DEUTERIUM_EXCHANGE, _LABELLED_OXYGEN):
+        trace, _, scene = _scene(text, "labelled.mech")
+        states = [trace.initial] + [st.after for st in trace.steps]
+        checked = 0
+        for panel, state in zip(scene.panels, states):
+            drawn = {a.index: a for a in panel.atoms}
+            for atom in state.mol.GetAtoms():
+                mass = atom.GetIsotope()
+                # A species left out of a panel (idle there) is not drawn at all; one drawn shows its labels.
+                if not mass or not any(n.GetIdx() in drawn for n in atom.GetNeighbors()) and atom.GetIdx() not in drawn:
+                    continue
+                checked += 1
+                assert atom.GetIdx() in drawn, (panel.index, atom.GetIdx(), "a labelled atom left implicit")
+                label = "".join(run.text for run in drawn[atom.GetIdx()].runs)
+                if atom.GetAtomicNum() == 1:
+                    assert label == {2: "D", 3: "T"}[mass], (panel.index, atom.GetIdx(), label)
+                else:
+                    first = drawn[atom.GetIdx()].runs[0]
+                    assert first.text == str(mass) and label.startswith(str(mass) + atom.GetSymbol()), label
+                    assert first.y < drawn[atom.GetIdx()].runs[1].y   # raised: a superscript
+            assert all(run.text != "D" for a in panel.atoms if a.element != "H" for run in a.runs)
+        assert checked >= 4
+
+
 def test_joining_molecules_wait_apart_facing_each_other():
     """Two molecules about to bond are drawn with the bonding atoms 2-2.5 bond lengths apart
     (room for the curved arrow; common practice in organic chemistry texts), and the one that

@@ -127,14 +127,23 @@ def _rdkit_depictor() -> Iterator[None]:
 
 
 def moving_hydrogens(states: Sequence[ElectronState], moves: Iterable[ResolvedMove]) -> frozenset[int]:
-    """Hydrogen atoms that some move names: these are drawn; every other hydrogen is implicit."""
+    """Hydrogen atoms that some move names, and labelled ones (D, T): these are drawn; every
+    other hydrogen is implicit."""
     elements = max(states, key=lambda s: len(s.elements)).elements
-    out = set()
+    out = set(labelled_hydrogens(states))
     for move in moves:
         for i in move.source_atoms + move.sink_atoms:
             if i < len(elements) and elements[i] == 1:
                 out.add(i)
     return frozenset(out)
+
+
+def labelled_hydrogens(states: Sequence[ElectronState]) -> frozenset[int]:
+    """Deuterium and tritium atoms: drawn in every panel, as the label is what the scheme is
+    about (a hydrogen that stays implicit would hide it)."""
+    last = max(states, key=lambda s: len(s.elements))
+    atom = last.mol.GetAtomWithIdx
+    return frozenset(i for i, z in enumerate(last.elements) if z == 1 and atom(i).GetIsotope())
 
 
 def _bonds_fed_by_hydrogens(moves: Sequence[Sequence[ResolvedMove]], elements: Sequence[int]

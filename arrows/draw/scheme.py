@@ -18,7 +18,7 @@ from ..electrons import ElectronState, ResolvedMove, bonds_after
 from ..rdkit_io import bond_list, fragment
 from ..trace import StepTrace, Trace
 from .curves import ArrowPlanner
-from .layout import compute_layout
+from .layout import compute_layout, labelled_hydrogens
 from .scene import Box, CurvedArrow, Mark, Panel, ReactionArrow, Scene, TextRun
 from .formula import MINUS, Piece, condition_pieces, formula_pieces
 from .structure import PanelStructure, StructureDrawer
@@ -210,6 +210,7 @@ class _SceneBuilder:
     def build(self) -> tuple[Scene, float]:
         product = product_atoms(self.trace)
         sources = _panel_sources(self.trace, product)
+        self.labelled_h = labelled_hydrogens([s.state for s in sources])
         states = [s.state for s in sources]
         moves = [list(s.leaving.change.moves) if s.leaving else [] for s in sources]
         touched = [set(s.leaving.change.touched_atoms) if s.leaving else set() for s in sources]
@@ -237,7 +238,7 @@ class _SceneBuilder:
         # A travelling hydrogen is drawn where it matters: on the panel whose arrows move it and
         # on the panel just after; elsewhere it is implicit like every other hydrogen.
         nearby = [m for st in (src.leaving, src.arriving) if st is not None for m in st.change.moves]
-        shown_h = frozenset(i for m in nearby for i in m.source_atoms + m.sink_atoms) & drawn_h
+        shown_h = (frozenset(i for m in nearby for i in m.source_atoms + m.sink_atoms) | self.labelled_h) & drawn_h
         visible = tuple(i for i in placed.visible if i not in src.hidden and i not in src.idle
                         and (i not in drawn_h or i in shown_h))
         positions = {i: placed.positions[i] * bl for i in visible}
@@ -506,7 +507,9 @@ def _condensed_formulas() -> frozenset[str]:
 
 
 def _byproduct_pieces(fragment: Chem.Mol) -> list[Piece]:
-    formula = CalcMolFormula(fragment)
+    labelled = any(atom.GetIsotope() for atom in fragment.GetAtoms())
+    # A labelled fragment keeps its label: D2O, CH3[18O]- (RDKit's isotope-aware formula).
+    formula = CalcMolFormula(fragment, True, True) if labelled else CalcMolFormula(fragment)
     if formula in _condensed_formulas():
         try:
             work = Chem.Mol(fragment)

@@ -27,6 +27,9 @@ from .formula import MINUS
 from .text import FontFace
 from .wedges import HASHED, SOLID, choose_wedges, configured_centres
 
+# Hydrogen's isotopes have symbols of their own (IUPAC 2005, IR-3.3.2); other labelled atoms are
+# written with their mass number as a superscript before the symbol (13C, 18O).
+_ISOTOPE_SYMBOLS = {("H", 2): "D", ("H", 3): "T"}
 # Hydrogens of an isolated atom go before the symbol for these elements (H2O, HO-, H2S, HCl):
 # common practice in chemical formulas.
 _HYDROGEN_FIRST = {8, 9, 16, 17, 34, 35, 53}
@@ -287,21 +290,22 @@ class StructureDrawer:
         return out
 
     # atoms and labels
-    def _atom_facts(self, mol: Chem.Mol, atoms: tuple[int, ...]) -> dict[int, tuple[str, int, int]]:
-        """Symbol, map number and own hydrogen count of each of `atoms`, as RDKit reads them."""
+    def _atom_facts(self, mol: Chem.Mol, atoms: tuple[int, ...]) -> dict[int, tuple[str, int, int, int]]:
+        """Symbol, map number, own hydrogen count and mass number (0: natural) of each of
+        `atoms`, as RDKit reads them."""
         facts = self._facts
         for i in atoms:
             if i not in facts:
                 atom = mol.GetAtomWithIdx(i)
-                facts[i] = (atom.GetSymbol(), atom.GetAtomMapNum(), atom.GetNumExplicitHs())
+                facts[i] = (atom.GetSymbol(), atom.GetAtomMapNum(), atom.GetNumExplicitHs(), atom.GetIsotope())
         return facts
 
-    def _atom(self, state: ElectronState, facts: tuple[str, int, int], adjacent: list[list[int]], i: int,
+    def _atom(self, state: ElectronState, facts: tuple[str, int, int, int], adjacent: list[list[int]], i: int,
               positions: dict[int, complex], neighbours: list[int], drawn_hydrogens: frozenset[int],
               out: PanelStructure, ahead: list[complex] = ()) -> AtomDrawing:
         element = state.elements   # atomic numbers, without a call into RDKit per atom
         p = positions[i]
-        symbol, number, own_hydrogens = facts
+        symbol, number, own_hydrogens, mass = facts
         # A mapped atom, or an unmapped one other than a hydrogen, is named as ElectronState.label
         # names it (symbol and number, or symbol and position) without asking RDKit for the atom
         # again; a hydrogen, named after the atom that holds it, by the state.
@@ -310,11 +314,12 @@ class StructureDrawer:
         # Skeletal carbons are vertices, charged and radical ones too (the sign or dot sits
         # beside the vertex); only a bare terminal carbon with electrons of its own and no
         # hydrogen, as in cyanide, gets its letter.
-        if element[i] == 6 and len(neighbours) > 1:
+        # A labelled atom (13C) is always a letter, with its mass number written before it.
+        if element[i] == 6 and len(neighbours) > 1 and not mass:
             return self._vertex(i, name, symbol, p)
         hidden_h = own_hydrogens + sum(1 for n in adjacent[i] if n not in drawn_hydrogens and element[n] == 1)
         bare_end = len(neighbours) == 1 and hidden_h == 0 and (state.formal_charge(i) or state.nonbonding[i])
-        if element[i] == 6 and neighbours and not bare_end:
+        if element[i] == 6 and neighbours and not bare_end and not mass:
             return self._vertex(i, name, symbol, p)
         # The symbol alone is fixed by where it stands: drawn there in an earlier panel, it is reused.
         key = None if hidden_h else (i, name, symbol, p)
@@ -322,8 +327,13 @@ class StructureDrawer:
             return self._bare_labels[key]
         fs, ss = self.style.font_size, self.style.small_size
         baseline = p.imag + self.cap / 2
-        w_symbol = self.face.width(symbol, fs)
-        runs = [TextRun(symbol, p.real - w_symbol / 2, baseline, fs)]
+        shown = _ISOTOPE_SYMBOLS.get((symbol, mass), symbol)   # D and T (IUPAC); else the mass
+        mass_text = str(mass) if mass and shown == symbol else ""   # number as a superscript
+        w_symbol = self.face.width(shown, fs)
+        w_mass = self.face.width(mass_text, ss) if mass_text else 0.0
+        runs = [TextRun(shown, p.real - w_symbol / 2, baseline, fs)]
+        if mass_text:
+            runs.insert(0, TextRun(mass_text, p.real - w_symbol / 2 - w_mass, baseline - 0.45 * fs, ss))
         if hidden_h:
             count = str(hidden_h) if hidden_h > 1 else ""
             w_h, w_n = self.face.width("H", fs), self.face.width(count, ss)
@@ -339,7 +349,7 @@ class StructureDrawer:
             near = [j for j, q in positions.items() if j != i and abs(q - p) < 1.6 * bl]
             walls = [(positions[a] - p, positions[b] - p) for a in near for b in adjacent[a]
                      if b != i and b in positions and (b not in near or a < b)]
-            side = self._hydrogen_side(element[i], out.occupied[i], crowd, walls, w_symbol / 2, w_h + w_n,
+            side = self._hydrogen_side(element[i], out.occupied[i], crowd, walls, w_symbol / 2 + w_mass, w_h + w_n,
                                        [a for a in ahead if a])
             sub_drop = 0.3 * fs
             if side == 1:
@@ -348,7 +358,7 @@ class StructureDrawer:
                 if count:
                     runs.append(TextRun(count, x + w_h, baseline + sub_drop, ss))
             elif side == -1:
-                x = p.real - w_symbol / 2 - w_h - w_n
+                x = p.real - w_symbol / 2 - w_mass - w_h - w_n
                 runs.insert(0, TextRun("H", x, baseline, fs))
                 if count:
                     runs.insert(1, TextRun(count, x + w_h, baseline + sub_drop, ss))
