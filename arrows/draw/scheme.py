@@ -15,7 +15,7 @@ from rdkit.Chem.rdMolDescriptors import CalcMolFormula
 
 from ..diagnostics import Diagnostic, ERROR
 from ..electrons import ElectronState, ResolvedMove, bonds_after
-from ..rdkit_io import bond_list, fragment
+from ..rdkit_io import bond_list, formula as molecular_formula, fragment
 from ..trace import StepTrace, Trace
 from .curves import ArrowPlanner
 from .layout import compute_layout, labelled_hydrogens
@@ -507,9 +507,7 @@ def _condensed_formulas() -> frozenset[str]:
 
 
 def _byproduct_pieces(fragment: Chem.Mol) -> list[Piece]:
-    labelled = any(atom.GetIsotope() for atom in fragment.GetAtoms())
-    # A labelled fragment keeps its label: D2O, CH3[18O]- (RDKit's isotope-aware formula).
-    formula = CalcMolFormula(fragment, True, True) if labelled else CalcMolFormula(fragment)
+    formula = molecular_formula(fragment)   # a labelled fragment keeps its label: D2O, CH3[18O]-
     if formula in _condensed_formulas():
         try:
             work = Chem.Mol(fragment)
