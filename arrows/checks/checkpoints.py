@@ -57,6 +57,11 @@ def _prepared(mol: Chem.Mol, keep_maps: Optional[frozenset[int]], origins: bool,
             if number and number not in keep_maps:
                 atom.SetAtomMapNum(0)
     sanitize(work, elements)
+    if elements is not None and 1 not in elements:
+        # No hydrogen atom to fold (most written structures): RemoveHs would only copy the Mol and
+        # drop the rings just found, which the canonical SMILES then finds again at more cost
+        # than writing it.
+        return work
     return Chem.RemoveHs(work, _REMOVE_HS, sanitize=False)
 
 
