@@ -66,10 +66,11 @@ def _prepared(mol: Chem.Mol, keep_maps: Optional[frozenset[int]], origins: bool,
 
 
 def fragments(mol: Chem.Mol, keep_maps: Optional[frozenset[int]] = frozenset(), origins: bool = False,
-              elements: Optional[tuple[int, ...]] = None) -> list[Fragment]:
+              elements: Optional[tuple[int, ...]] = None, lazy: bool = False) -> list[Fragment]:
+    """The pieces of `mol` prepared for comparison; `lazy`: each SMILES written when first asked for."""
     out = []
     for frag in Chem.GetMolFrags(_prepared(mol, keep_maps, origins, elements), asMols=True, sanitizeFrags=False):
-        out.append(Fragment(frag, Chem.MolToSmiles(frag)))
+        out.append(Fragment(frag) if lazy else Fragment(frag, Chem.MolToSmiles(frag)))
     return out
 
 

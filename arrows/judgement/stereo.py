@@ -307,8 +307,12 @@ def is_chiral(smiles: str) -> bool:
 
 def has_specified_stereo(smiles: str) -> bool:
     mol = Chem.MolFromSmiles(smiles)
-    return mol is not None and any(info.specified == Chem.StereoSpecified.Specified
-                                   for info in potential_stereo(mol, clean=False))
+    return mol is not None and _specified(mol)
+
+
+def _specified(mol: Chem.Mol) -> bool:
+    """Whether some stereo element of `mol` is specified (read without changing `mol`)."""
+    return any(info.specified == Chem.StereoSpecified.Specified for info in potential_stereo(mol, clean=False))
 
 
 def relation(first: str, second: str) -> str:
@@ -319,7 +323,7 @@ def relation(first: str, second: str) -> str:
     if Chem.MolToSmiles(a, isomericSmiles=False) != Chem.MolToSmiles(b, isomericSmiles=False):
         from rdkit.Chem.rdMolDescriptors import CalcMolFormula
         return CONSTITUTIONAL if CalcMolFormula(a) == CalcMolFormula(b) else UNRELATED
-    if not (has_specified_stereo(first) and has_specified_stereo(second)):
+    if not (_specified(a) and _specified(b)):   # the Mols has_specified_stereo would read again
         return UNSPECIFIED
     if Chem.MolToSmiles(a) == Chem.MolToSmiles(b):
         return IDENTICAL
