@@ -95,7 +95,7 @@ class ElectronState:
         count = mol.GetNumAtoms()
         if atoms is None:
             atoms = atom_numbers(mol)
-        elements, charges, hydrogens, configured = atoms
+        elements, charges, hydrogens, configured, bond_configuration = atoms
         orders = [0.0] * count
         bond, no_stereo = mol.GetBondWithIdx, Chem.BondStereo.STEREONONE
         framework = set()
@@ -105,7 +105,7 @@ class ElectronState:
             i, j = b.GetBeginAtomIdx(), b.GetEndAtomIdx()
             orders[i] += order
             orders[j] += order
-            if b.GetStereo() != no_stereo:
+            if bond_configuration and b.GetStereo() != no_stereo:
                 configured = True
             if (elements[i] == 1) == (elements[j] == 1):
                 framework.add((i, j, int(order)) if i < j else (j, i, int(order)))
@@ -166,13 +166,15 @@ class ElectronState:
 
 
 class AtomNumbers(NamedTuple):
-    """Per atom of a Mol: atomic number, formal charge, hydrogens held as a count; and whether
-    some atom carries a chiral tag."""
+    """Per atom of a Mol: atomic number, formal charge, hydrogens held as a count; whether some
+    atom carries a chiral tag, and whether a bond may carry a configuration (False when the
+    caller knows none does)."""
 
     elements: list[int]
     charges: list[int]
     hydrogens: list[int]
     chiral: bool
+    bond_configuration: bool = True
 
 
 def atom_numbers(mol: Chem.Mol) -> AtomNumbers:

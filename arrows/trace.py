@@ -89,13 +89,15 @@ def read_species(species: Species, explicit_h_on: set[int]
     mol, _, _ = read_smiles(species.smiles, sanitize=False)
     atoms = atom_list(mol) if mol is not None else []   # the same atoms after sanitizing
     smiles = species.smiles
-    written_configuration = "@" in smiles or "/" in smiles or "\\" in smiles
+    # A chiral tag comes only from @ in a SMILES, a double bond's configuration only from / or \\.
+    chiral_written, geometry_written = "@" in smiles, "/" in smiles or "\\" in smiles
+    elements = [a.GetAtomicNum() for a in atoms]   # sanitizing changes no element
     try:
         # The smallest set of rings only where RDKit's stereo perception reads it: the state the
         # species joins (Chem.CombineMols) keeps no rings, and each step finds its own (electrons._settle).
-        sanitize(mol, [a.GetAtomicNum() for a in atoms], aromaticity=False, rings=written_configuration)
+        sanitize(mol, elements, aromaticity=False, rings=chiral_written or geometry_written)
         Chem.Kekulize(mol, clearAromaticFlags=True)
-        if "/" in smiles or "\\" in smiles:
+        if geometry_written:
             # Read without sanitizing, a written E/Z is only a direction on each neighbouring bond:
             # RDKit's perception turns it into the double bond's own configuration, which the
             # replay carries and forgets (configuration.forget_configuration) as it does a chiral tag.
@@ -112,7 +114,7 @@ def read_species(species: Species, explicit_h_on: set[int]
                                           hint="check brackets, ring-closure digits and charges; map numbers go "
                                                "inside brackets, e.g. [CH2:3]")
     count = len(atoms)
-    elements, charges, hydrogens = [0] * count, [0] * count, [0] * count
+    charges, hydrogens = [0] * count, [0] * count
     chiral = False
     unspecified = Chem.ChiralType.CHI_UNSPECIFIED
     mapped, targets = [], []
@@ -126,8 +128,8 @@ def read_species(species: Species, explicit_h_on: set[int]
             # carbene [CH2] two); the bookkeeping pairs them, unpaired = N mod 2, as in every
             # derived state (the parity is the same), so a figure shows a pair, not two dots.
             atom.SetNumRadicalElectrons(radicals % 2)
-        elements[index], charges[index], hydrogens[index] = atom.GetAtomicNum(), atom.GetFormalCharge(), count_h
-        if atom.GetChiralTag() != unspecified:
+        charges[index], hydrogens[index] = atom.GetFormalCharge(), count_h
+        if chiral_written and atom.GetChiralTag() != unspecified:
             chiral = True
         number = atom.GetAtomMapNum()
         if number:
@@ -143,7 +145,7 @@ def read_species(species: Species, explicit_h_on: set[int]
             elements.append(1)
             charges.append(0)
             hydrogens.append(0)
-    return mol, AtomNumbers(elements, charges, hydrogens, chiral), mapped, None
+    return mol, AtomNumbers(elements, charges, hydrogens, chiral, geometry_written), mapped, None
 
 
 def _map_location(species: Species, number: int, occurrence: int) -> Location:
