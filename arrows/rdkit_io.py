@@ -75,6 +75,13 @@ _AS_WRITTEN.removeHs = False
 _AS_WRITTEN.sanitize = False
 
 
+def as_written(smiles: str) -> Optional[Chem.Mol]:
+    """`smiles` read as written (hydrogens kept, nothing sanitized), None when RDKit rejects it
+    (read_smiles says why). For a caller inside its own rdkit_messages() block, which keeps
+    RDKit's log of a rejection: a block per SMILES costs about as much as reading it."""
+    return Chem.MolFromSmiles(smiles, _AS_WRITTEN) if smiles.strip() else None
+
+
 def read_smiles(smiles: str, sanitize: bool = True) -> tuple[Optional[Chem.Mol], str, Optional[int]]:
     """(mol, reason, position): mol is None when RDKit rejects the SMILES."""
     with rdkit_messages() as lines:

@@ -10,7 +10,7 @@ from rdkit import Chem
 from .diagnostics import Diagnostic
 from .electrons import AtomNumbers, ElectronState, StepChange, apply_step
 from .model import BondPair, BondSink, HydrogenOn, Location, Mechanism, Species, Step
-from .rdkit_io import atom_list, canonical, rdkit_messages, read_smiles, sanitize
+from .rdkit_io import as_written, atom_list, canonical, rdkit_messages, read_smiles, sanitize
 
 
 @dataclass
@@ -76,17 +76,19 @@ def hydrogen_parents_and_entries(mechanism: Mechanism) -> tuple[set[int], list[t
 def species_mol(species: Species, explicit_h_on: set[int]) -> tuple[Optional[Chem.Mol], Optional[Diagnostic]]:
     """A species as a Kekulé Mol whose hydrogen counts are fixed (never recomputed by RDKit), with
     explicit hydrogen atoms on the atoms whose hydrogens move."""
-    mol, _, _, problem = read_species(species, explicit_h_on)
+    with rdkit_messages():
+        mol, _, _, problem = read_species(species, explicit_h_on)
     return mol, problem
 
 
 def read_species(species: Species, explicit_h_on: set[int]
                  ) -> tuple[Optional[Chem.Mol], Optional[AtomNumbers], list[tuple[int, int]], Optional[Diagnostic]]:
     """species_mol, with the numbers of its atoms (for ElectronState.of_molecule) and (index, map
-    number) of its mapped atoms, read in the walk over the atoms that fixes the hydrogen counts."""
+    number) of its mapped atoms, read in the walk over the atoms that fixes the hydrogen counts.
+    Called inside an rdkit_messages() block (RDKit's log of a bad SMILES is not ours to print)."""
     # Without aromaticity perception: a Kekulé structure written by the author keeps its double bonds
     # (the arrows name them); lower-case aromatic input is kekulized by RDKit.
-    mol, _, _ = read_smiles(species.smiles, sanitize=False)
+    mol = as_written(species.smiles)
     atoms = atom_list(mol) if mol is not None else []   # the same atoms after sanitizing
     smiles = species.smiles
     # A chiral tag comes only from @ in a SMILES, a double bond's configuration only from / or \\.
@@ -198,27 +200,29 @@ class Replay:
         loaded: dict[int, ElectronState] = {}
         entered_later: dict[int, int] = {}
         declared = [(None, s) for s in mechanism.species] + entries
-        for position, (step_index, sp) in enumerate(declared):
-            if sp.name in names:
-                diags.append(Diagnostic("AR108", f"the name `{sp.name}` is already used (line {names[sp.name].line})",
-                                        sp.loc, hint="give each species its own name"))
-            names.setdefault(sp.name, sp.loc)
-            mol, numbers, mapped, problem = read_species(sp, explicit_h_on)
-            if problem:
-                diags.append(problem)
-                continue
-            in_this_species: dict[int, int] = {}
-            self._mapped[position] = mapped
-            for _, number in mapped:
-                in_this_species[number] = in_this_species.get(number, 0) + 1
-                if number in seen_maps:
-                    diags.append(Diagnostic("AR103", f"map number {number} is already used (line {seen_maps[number].line})",
-                                            _map_location(sp, number, in_this_species[number]),
-                                            hint="map numbers are unique across the whole mechanism"))
-                seen_maps.setdefault(number, sp.loc)
-                if step_index is not None:
-                    entered_later.setdefault(number, step_index)
-            loaded[position] = ElectronState.of_molecule(mol, atoms=numbers)
+        with rdkit_messages():   # one quiet block for every species (read_species)
+            for position, (step_index, sp) in enumerate(declared):
+                if sp.name in names:
+                    diags.append(Diagnostic("AR108", f"the name `{sp.name}` is already used (line {names[sp.name].line})",
+                                            sp.loc, hint="give each species its own name"))
+                names.setdefault(sp.name, sp.loc)
+                mol, numbers, mapped, problem = read_species(sp, explicit_h_on)
+                if problem:
+                    diags.append(problem)
+                    continue
+                in_this_species: dict[int, int] = {}
+                self._mapped[position] = mapped
+                for _, number in mapped:
+                    in_this_species[number] = in_this_species.get(number, 0) + 1
+                    if number in seen_maps:
+                        diags.append(Diagnostic("AR103", f"map number {number} is already used "
+                                                f"(line {seen_maps[number].line})",
+                                                _map_location(sp, number, in_this_species[number]),
+                                                hint="map numbers are unique across the whole mechanism"))
+                    seen_maps.setdefault(number, sp.loc)
+                    if step_index is not None:
+                        entered_later.setdefault(number, step_index)
+                loaded[position] = ElectronState.of_molecule(mol, atoms=numbers)
         return loaded, entered_later
 
     def __iter__(self) -> Iterator[StepTrace]:
