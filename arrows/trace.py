@@ -91,13 +91,15 @@ def read_species(species: Species, explicit_h_on: set[int]
     mol = as_written(species.smiles)
     atoms = atom_list(mol) if mol is not None else []   # the same atoms after sanitizing
     smiles = species.smiles
-    # A chiral tag comes only from @ in a SMILES, a double bond's configuration only from / or \\.
-    chiral_written, geometry_written = "@" in smiles, "/" in smiles or "\\" in smiles
+    # A chiral tag comes only from @ in a SMILES, a double bond's configuration only from / or \\
+    # (or from a CXSMILES extension, after |).
+    geometry_written = "/" in smiles or "\\" in smiles
+    chiral_written, geometry_read = "@" in smiles or "|" in smiles, geometry_written or "|" in smiles
     elements = [a.GetAtomicNum() for a in atoms]   # sanitizing changes no element
     try:
         # The smallest set of rings only where RDKit's stereo perception reads it: the state the
         # species joins (Chem.CombineMols) keeps no rings, and each step finds its own (electrons._settle).
-        sanitize(mol, elements, aromaticity=False, rings=chiral_written or geometry_written)
+        sanitize(mol, elements, aromaticity=False, rings=chiral_written or geometry_read)
         Chem.Kekulize(mol, clearAromaticFlags=True)
         if geometry_written:
             # Read without sanitizing, a written E/Z is only a direction on each neighbouring bond:
@@ -147,7 +149,7 @@ def read_species(species: Species, explicit_h_on: set[int]
             elements.append(1)
             charges.append(0)
             hydrogens.append(0)
-    return mol, AtomNumbers(elements, charges, hydrogens, chiral, geometry_written), mapped, None
+    return mol, AtomNumbers(elements, charges, hydrogens, chiral, geometry_read), mapped, None
 
 
 def _map_location(species: Species, number: int, occurrence: int) -> Location:
