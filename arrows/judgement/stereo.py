@@ -15,7 +15,7 @@ from typing import Iterable, Optional
 from rdkit import Chem
 
 from ..electrons import ElectronState
-from ..rdkit_io import fragment, potential_stereo
+from ..rdkit_io import atom_list, fragment, potential_stereo
 from .perception import Perceived, RecentViews, perceive
 
 CENTRE, DOUBLE_BOND = "stereocentre", "stereogenic double bond"
@@ -151,7 +151,7 @@ def _without_stereoisomers(plain: Chem.Mol, view: Perceived, centres: list[Stere
 
 
 def _may_delocalize(mol: Chem.Mol) -> bool:
-    return any(a.GetFormalCharge() or a.GetNumRadicalElectrons() for a in mol.GetAtoms())
+    return any(a.GetFormalCharge() or a.GetNumRadicalElectrons() for a in atom_list(mol))
 
 
 _MAX_RESONANCE = 64
@@ -167,7 +167,15 @@ def _lost_by_resonance(mol: Chem.Mol, centres: list[int]) -> set[int]:
     def unsaturated(atom) -> bool:
         return (atom.GetFormalCharge() != 0 or atom.GetNumRadicalElectrons() > 0 or atom.GetIsAromatic()
                 or any(b.GetBondTypeAsDouble() > 1 for b in atom.GetBonds()))
-    tested = [c for c in centres if sum(unsaturated(n) for n in mol.GetAtomWithIdx(c).GetNeighbors()) >= 2]
+    def tested_centre(centre: int) -> bool:   # two unsaturated neighbours: the rest need not be read
+        found = 0
+        for n in mol.GetAtomWithIdx(centre).GetNeighbors():
+            if unsaturated(n):
+                found += 1
+                if found == 2:
+                    return True
+        return False
+    tested = [c for c in centres if tested_centre(c)]
     if not tested or not _may_delocalize(mol):
         return set()
     lost: set[int] = set()
