@@ -15,7 +15,7 @@ from typing import Iterable, Optional
 from rdkit import Chem
 
 from ..electrons import ElectronState
-from ..rdkit_io import atom_list, fragment, potential_stereo
+from ..rdkit_io import fragment, potential_stereo
 from .perception import Perceived, RecentViews, perceive
 
 CENTRE, DOUBLE_BOND = "stereocentre", "stereogenic double bond"
@@ -151,7 +151,10 @@ def _without_stereoisomers(plain: Chem.Mol, view: Perceived, centres: list[Stere
 
 
 def _may_delocalize(mol: Chem.Mol) -> bool:
-    return any(a.GetFormalCharge() or a.GetNumRadicalElectrons() for a in atom_list(mol))
+    # Atoms by index, as they are needed (most charged states show a charge early): RDKit's Python
+    # atom iterator costs several calls per atom.
+    atoms = map(mol.GetAtomWithIdx, range(mol.GetNumAtoms()))
+    return any(a.GetFormalCharge() or a.GetNumRadicalElectrons() for a in atoms)
 
 
 _MAX_RESONANCE = 64
