@@ -85,20 +85,18 @@ class ElectronState:
 
     @classmethod
     def of_molecule(cls, mol: Chem.Mol, known_nonbonding: tuple[int, ...] = (),
-                    released: frozenset[int] = frozenset()) -> "ElectronState":
+                    released: frozenset[int] = frozenset(), atoms: Optional["AtomNumbers"] = None
+                    ) -> "ElectronState":
         """A state read off a Mol: N = V - formal charge - B for every atom after the first
         len(known_nonbonding), whose N is given (`uses` appends atoms to a state whose electrons
-        have already moved). One walk over the atoms and one over the bonds find everything."""
-        atom, count = mol.GetAtomWithIdx, mol.GetNumAtoms()
-        unspecified = Chem.ChiralType.CHI_UNSPECIFIED
-        elements, charges, orders = [0] * count, [0] * count, [0.0] * count
-        hydrogens = [0] * count
-        configured = False
-        for i in range(count):
-            a = atom(i)
-            elements[i], charges[i], hydrogens[i] = a.GetAtomicNum(), a.GetFormalCharge(), a.GetNumExplicitHs()
-            if a.GetChiralTag() != unspecified:
-                configured = True
+        have already moved). One walk over the atoms and one over the bonds find everything;
+        `atoms`, the atoms' numbers when the caller has just read them (trace.read_species),
+        spares the walk over the atoms."""
+        count = mol.GetNumAtoms()
+        if atoms is None:
+            atoms = atom_numbers(mol)
+        elements, charges, hydrogens, configured, bond_configuration = atoms
+        orders = [0.0] * count
         bond, no_stereo = mol.GetBondWithIdx, Chem.BondStereo.STEREONONE
         framework = set()
         for k in range(mol.GetNumBonds()):
@@ -107,7 +105,7 @@ class ElectronState:
             i, j = b.GetBeginAtomIdx(), b.GetEndAtomIdx()
             orders[i] += order
             orders[j] += order
-            if b.GetStereo() != no_stereo:
+            if bond_configuration and b.GetStereo() != no_stereo:
                 configured = True
             if (elements[i] == 1) == (elements[j] == 1):
                 framework.add((i, j, int(order)) if i < j else (j, i, int(order)))
@@ -165,6 +163,32 @@ class ElectronState:
                     found.add((i, j, int(b.GetBondTypeAsDouble())))
             object.__setattr__(self, "framework", frozenset(found))
         return self.framework
+
+
+class AtomNumbers(NamedTuple):
+    """Per atom of a Mol: atomic number, formal charge, hydrogens held as a count; whether some
+    atom carries a chiral tag, and whether a bond may carry a configuration (False when the
+    caller knows none does)."""
+
+    elements: list[int]
+    charges: list[int]
+    hydrogens: list[int]
+    chiral: bool
+    bond_configuration: bool = True
+
+
+def atom_numbers(mol: Chem.Mol) -> AtomNumbers:
+    """AtomNumbers read off `mol`, one walk over its atoms."""
+    atom, count = mol.GetAtomWithIdx, mol.GetNumAtoms()
+    unspecified = Chem.ChiralType.CHI_UNSPECIFIED
+    elements, charges, hydrogens = [0] * count, [0] * count, [0] * count
+    chiral = False
+    for i in range(count):
+        a = atom(i)
+        elements[i], charges[i], hydrogens[i] = a.GetAtomicNum(), a.GetFormalCharge(), a.GetNumExplicitHs()
+        if a.GetChiralTag() != unspecified:
+            chiral = True
+    return AtomNumbers(elements, charges, hydrogens, chiral)
 
 
 def _bond_sums(mol: Chem.Mol) -> list[int]:

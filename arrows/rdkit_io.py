@@ -75,6 +75,13 @@ _AS_WRITTEN.removeHs = False
 _AS_WRITTEN.sanitize = False
 
 
+def as_written(smiles: str) -> Optional[Chem.Mol]:
+    """`smiles` read as written (hydrogens kept, nothing sanitized), None when RDKit rejects it
+    (read_smiles says why). For a caller inside its own rdkit_messages() block, which keeps
+    RDKit's log of a rejection: a block per SMILES costs about as much as reading it."""
+    return Chem.MolFromSmiles(smiles, _AS_WRITTEN) if smiles.strip() else None
+
+
 def read_smiles(smiles: str, sanitize: bool = True) -> tuple[Optional[Chem.Mol], str, Optional[int]]:
     """(mol, reason, position): mol is None when RDKit rejects the SMILES."""
     with rdkit_messages() as lines:
@@ -97,8 +104,10 @@ def read_smiles(smiles: str, sanitize: bool = True) -> tuple[Optional[Chem.Mol],
 _NON_METALS = frozenset({1, 6, 7, 8, 9, 15, 16, 17, 35, 53})
 
 
-def sanitize(mol: Chem.Mol, elements: Optional[Iterable[int]] = None, aromaticity: bool = True) -> None:
-    """Chem.SanitizeMol in full (without aromaticity perception if `aromaticity` is False). RDKit's
+def sanitize(mol: Chem.Mol, elements: Optional[Iterable[int]] = None, aromaticity: bool = True,
+             rings: bool = True) -> None:
+    """Chem.SanitizeMol in full (without aromaticity perception if `aromaticity` is False, without
+    the smallest set of rings if `rings` is False: a caller that drops them). RDKit's
     clean-up of bonds to metal atoms first updates the valence of every atom (about half the cost
     of sanitizing a small molecule) and then changes only bonds to metal atoms: it is left out when
     `elements`, the atomic numbers of `mol` as far as the caller knows them, hold no metal, where it
@@ -106,6 +115,8 @@ def sanitize(mol: Chem.Mol, elements: Optional[Iterable[int]] = None, aromaticit
     flags = Chem.SanitizeFlags.SANITIZE_ALL
     if not aromaticity:
         flags ^= Chem.SanitizeFlags.SANITIZE_SETAROMATICITY
+    if not rings:
+        flags ^= Chem.SanitizeFlags.SANITIZE_SYMMRINGS
     if elements is not None and _NON_METALS.issuperset(elements):
         flags ^= Chem.SanitizeFlags.SANITIZE_CLEANUP_ORGANOMETALLICS
     Chem.SanitizeMol(mol, flags)

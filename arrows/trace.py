@@ -8,9 +8,9 @@ from typing import Iterator, Optional
 from rdkit import Chem
 
 from .diagnostics import Diagnostic
-from .electrons import ElectronState, StepChange, apply_step
+from .electrons import AtomNumbers, ElectronState, StepChange, apply_step
 from .model import BondPair, BondSink, HydrogenOn, Location, Mechanism, Species, Step
-from .rdkit_io import atom_list, canonical, rdkit_messages, read_smiles, sanitize
+from .rdkit_io import as_written, atom_list, canonical, rdkit_messages, read_smiles, sanitize
 
 
 @dataclass
@@ -76,14 +76,32 @@ def hydrogen_parents_and_entries(mechanism: Mechanism) -> tuple[set[int], list[t
 def species_mol(species: Species, explicit_h_on: set[int]) -> tuple[Optional[Chem.Mol], Optional[Diagnostic]]:
     """A species as a Kekulé Mol whose hydrogen counts are fixed (never recomputed by RDKit), with
     explicit hydrogen atoms on the atoms whose hydrogens move."""
+    with rdkit_messages():
+        mol, _, _, problem = read_species(species, explicit_h_on)
+    return mol, problem
+
+
+def read_species(species: Species, explicit_h_on: set[int]
+                 ) -> tuple[Optional[Chem.Mol], Optional[AtomNumbers], list[tuple[int, int]], Optional[Diagnostic]]:
+    """species_mol, with the numbers of its atoms (for ElectronState.of_molecule) and (index, map
+    number) of its mapped atoms, read in the walk over the atoms that fixes the hydrogen counts.
+    Called inside an rdkit_messages() block (RDKit's log of a bad SMILES is not ours to print)."""
     # Without aromaticity perception: a Kekulé structure written by the author keeps its double bonds
     # (the arrows name them); lower-case aromatic input is kekulized by RDKit.
-    mol, _, _ = read_smiles(species.smiles, sanitize=False)
+    mol = as_written(species.smiles)
     atoms = atom_list(mol) if mol is not None else []   # the same atoms after sanitizing
+    smiles = species.smiles
+    # A chiral tag comes only from @ in a SMILES, a double bond's configuration only from / or \\
+    # (or from a CXSMILES extension, after |).
+    geometry_written = "/" in smiles or "\\" in smiles
+    chiral_written, geometry_read = "@" in smiles or "|" in smiles, geometry_written or "|" in smiles
+    elements = [a.GetAtomicNum() for a in atoms]   # sanitizing changes no element
     try:
-        sanitize(mol, [a.GetAtomicNum() for a in atoms], aromaticity=False)
+        # The smallest set of rings only where RDKit's stereo perception reads it: the state the
+        # species joins (Chem.CombineMols) keeps no rings, and each step finds its own (electrons._settle).
+        sanitize(mol, elements, aromaticity=False, rings=chiral_written or geometry_read)
         Chem.Kekulize(mol, clearAromaticFlags=True)
-        if "/" in species.smiles or "\\" in species.smiles:
+        if geometry_written:
             # Read without sanitizing, a written E/Z is only a direction on each neighbouring bond:
             # RDKit's perception turns it into the double bond's own configuration, which the
             # replay carries and forgets (configuration.forget_configuration) as it does a chiral tag.
@@ -96,13 +114,17 @@ def species_mol(species: Species, explicit_h_on: set[int]) -> tuple[Optional[Che
         loc = species.smiles_loc
         if position is not None:
             loc = Location(loc.file, loc.line, loc.column + position)
-        return None, Diagnostic("AR102", f"RDKit cannot read the SMILES of {species.name}: {reason}", loc,
-                                hint="check brackets, ring-closure digits and charges; map numbers go inside "
-                                     "brackets, e.g. [CH2:3]")
-    targets = []
+        return None, None, [], Diagnostic("AR102", f"RDKit cannot read the SMILES of {species.name}: {reason}", loc,
+                                          hint="check brackets, ring-closure digits and charges; map numbers go "
+                                               "inside brackets, e.g. [CH2:3]")
+    count = len(atoms)
+    charges, hydrogens = [0] * count, [0] * count
+    chiral = False
+    unspecified = Chem.ChiralType.CHI_UNSPECIFIED
+    mapped, targets = [], []
     for index, atom in enumerate(atoms):
-        hydrogens = atom.GetTotalNumHs(includeNeighbors=False)
-        atom.SetNumExplicitHs(hydrogens)
+        count_h = atom.GetTotalNumHs(includeNeighbors=False)
+        atom.SetNumExplicitHs(count_h)
         atom.SetNoImplicit(True)
         radicals = atom.GetNumRadicalElectrons()
         if radicals > 1:
@@ -110,14 +132,24 @@ def species_mol(species: Species, explicit_h_on: set[int]) -> tuple[Optional[Che
             # carbene [CH2] two); the bookkeeping pairs them, unpaired = N mod 2, as in every
             # derived state (the parity is the same), so a figure shows a pair, not two dots.
             atom.SetNumRadicalElectrons(radicals % 2)
-        if hydrogens and atom.GetAtomMapNum() in explicit_h_on:
+        charges[index], hydrogens[index] = atom.GetFormalCharge(), count_h
+        if chiral_written and atom.GetChiralTag() != unspecified:
+            chiral = True
+        number = atom.GetAtomMapNum()
+        if number:
+            mapped.append((index, number))
+        if count_h and number in explicit_h_on:
             targets.append(index)
     if targets:
-        count = len(atoms)
         mol = Chem.AddHs(mol, onlyOnAtoms=targets)
+        for index in targets:    # its hydrogens are atoms now
+            hydrogens[index] = 0
         for index in range(count, mol.GetNumAtoms()):   # the new hydrogens (the others keep theirs)
             mol.GetAtomWithIdx(index).SetNoImplicit(True)
-    return mol, None
+            elements.append(1)
+            charges.append(0)
+            hydrogens.append(0)
+    return mol, AtomNumbers(elements, charges, hydrogens, chiral, geometry_read), mapped, None
 
 
 def _map_location(species: Species, number: int, occurrence: int) -> Location:
@@ -127,16 +159,6 @@ def _map_location(species: Species, number: int, occurrence: int) -> Location:
         return species.smiles_loc
     loc = species.smiles_loc
     return Location(loc.file, loc.line, loc.column + starts[occurrence - 1])
-
-
-def _mapped_atoms(mol: Chem.Mol) -> list[tuple[int, int]]:
-    """(index, map number) of every mapped atom of `mol`."""
-    found = []
-    for index, atom in enumerate(atom_list(mol)):
-        number = atom.GetAtomMapNum()
-        if number:
-            found.append((index, number))
-    return found
 
 
 def _fragment_of(mol: Chem.Mol, index: int) -> set[int]:
@@ -180,27 +202,29 @@ class Replay:
         loaded: dict[int, ElectronState] = {}
         entered_later: dict[int, int] = {}
         declared = [(None, s) for s in mechanism.species] + entries
-        for position, (step_index, sp) in enumerate(declared):
-            if sp.name in names:
-                diags.append(Diagnostic("AR108", f"the name `{sp.name}` is already used (line {names[sp.name].line})",
-                                        sp.loc, hint="give each species its own name"))
-            names.setdefault(sp.name, sp.loc)
-            mol, problem = species_mol(sp, explicit_h_on)
-            if problem:
-                diags.append(problem)
-                continue
-            in_this_species: dict[int, int] = {}
-            self._mapped[position] = mapped = _mapped_atoms(mol)
-            for _, number in mapped:
-                in_this_species[number] = in_this_species.get(number, 0) + 1
-                if number in seen_maps:
-                    diags.append(Diagnostic("AR103", f"map number {number} is already used (line {seen_maps[number].line})",
-                                            _map_location(sp, number, in_this_species[number]),
-                                            hint="map numbers are unique across the whole mechanism"))
-                seen_maps.setdefault(number, sp.loc)
-                if step_index is not None:
-                    entered_later.setdefault(number, step_index)
-            loaded[position] = ElectronState.of_molecule(mol)
+        with rdkit_messages():   # one quiet block for every species (read_species)
+            for position, (step_index, sp) in enumerate(declared):
+                if sp.name in names:
+                    diags.append(Diagnostic("AR108", f"the name `{sp.name}` is already used (line {names[sp.name].line})",
+                                            sp.loc, hint="give each species its own name"))
+                names.setdefault(sp.name, sp.loc)
+                mol, numbers, mapped, problem = read_species(sp, explicit_h_on)
+                if problem:
+                    diags.append(problem)
+                    continue
+                in_this_species: dict[int, int] = {}
+                self._mapped[position] = mapped
+                for _, number in mapped:
+                    in_this_species[number] = in_this_species.get(number, 0) + 1
+                    if number in seen_maps:
+                        diags.append(Diagnostic("AR103", f"map number {number} is already used "
+                                                f"(line {seen_maps[number].line})",
+                                                _map_location(sp, number, in_this_species[number]),
+                                                hint="map numbers are unique across the whole mechanism"))
+                    seen_maps.setdefault(number, sp.loc)
+                    if step_index is not None:
+                        entered_later.setdefault(number, step_index)
+                loaded[position] = ElectronState.of_molecule(mol, atoms=numbers)
         return loaded, entered_later
 
     def __iter__(self) -> Iterator[StepTrace]:

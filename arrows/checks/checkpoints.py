@@ -22,19 +22,32 @@ _ORIGIN = "arrows_origin"   # atom property: index of the atom in the state Mol
 class Fragment:
     """One connected piece: heavy atoms, hydrogens as counts, aromaticity perceived, maps removed.
     Its canonical SMILES is written when first asked for: a derived piece of another size than
-    every written one is never compared."""
+    every written one is never compared. `keep_maps`: the piece (its own copy) still carries every
+    map number, and loses those not in `keep_maps` just before its SMILES is written."""
 
-    __slots__ = ("mol", "_smiles")
+    __slots__ = ("mol", "_smiles", "_keep_maps")
 
-    def __init__(self, mol: Chem.Mol, smiles: Optional[str] = None):
+    def __init__(self, mol: Chem.Mol, smiles: Optional[str] = None, keep_maps: Optional[frozenset[int]] = None):
         self.mol = mol
         self._smiles = smiles
+        self._keep_maps = keep_maps
 
     @property
     def smiles(self) -> str:
         if self._smiles is None:
+            if self._keep_maps is not None:
+                _clear_maps(self.mol, self._keep_maps)
             self._smiles = Chem.MolToSmiles(self.mol)
         return self._smiles
+
+
+def _clear_maps(mol: Chem.Mol, keep_maps: frozenset[int]) -> None:
+    atom_at = mol.GetAtomWithIdx
+    for i in range(mol.GetNumAtoms()):   # by index: RDKit's Python atom iterator is several times slower
+        atom = atom_at(i)
+        number = atom.GetAtomMapNum()
+        if number and number not in keep_maps:
+            atom.SetAtomMapNum(0)
 
 
 _REMOVE_HS = Chem.RemoveHsParameters()
@@ -57,14 +70,20 @@ def _prepared(mol: Chem.Mol, keep_maps: Optional[frozenset[int]], origins: bool,
             if number and number not in keep_maps:
                 atom.SetAtomMapNum(0)
     sanitize(work, elements)
+    if elements is not None and 1 not in elements:
+        # No hydrogen atom to fold (most written structures): RemoveHs would only copy the Mol and
+        # drop the rings just found, which the canonical SMILES then finds again at more cost
+        # than writing it.
+        return work
     return Chem.RemoveHs(work, _REMOVE_HS, sanitize=False)
 
 
 def fragments(mol: Chem.Mol, keep_maps: Optional[frozenset[int]] = frozenset(), origins: bool = False,
-              elements: Optional[tuple[int, ...]] = None) -> list[Fragment]:
+              elements: Optional[tuple[int, ...]] = None, lazy: bool = False) -> list[Fragment]:
+    """The pieces of `mol` prepared for comparison; `lazy`: each SMILES written when first asked for."""
     out = []
     for frag in Chem.GetMolFrags(_prepared(mol, keep_maps, origins, elements), asMols=True, sanitizeFrags=False):
-        out.append(Fragment(frag, Chem.MolToSmiles(frag)))
+        out.append(Fragment(frag) if lazy else Fragment(frag, Chem.MolToSmiles(frag)))
     return out
 
 
@@ -101,14 +120,8 @@ def _derived_fragments(state: ElectronState, maps: frozenset[int], views: Option
     view = views.of(state)
     if not view.complete:
         return fragments(state.mol, maps, elements=state.elements)
-    work = Chem.RWMol(view.mol)
-    atom_at = work.GetAtomWithIdx
-    for i in range(work.GetNumAtoms()):
-        atom = atom_at(i)
-        number = atom.GetAtomMapNum()
-        if number and number not in maps:
-            atom.SetAtomMapNum(0)
-    return [Fragment(frag) for frag in Chem.GetMolFrags(work, asMols=True, sanitizeFrags=False)]
+    # Each piece is a copy of its own, whose map numbers are cleared only if it is written out.
+    return [Fragment(frag, keep_maps=maps) for frag in Chem.GetMolFrags(view.mol, asMols=True, sanitizeFrags=False)]
 
 
 def _holds_hydrogen_alone(state: ElectronState) -> bool:

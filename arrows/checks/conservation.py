@@ -1,15 +1,35 @@
 """Charge and atoms are conserved by moves; only `uses` may add to them. Judged with RDKit's own
-formal charges and formula (an independent count of the derived Mol)."""
+formal charges and hydrogen counts (an independent count of the derived Mol); an atom keeps its
+element from state to state (atoms are only appended)."""
 from __future__ import annotations
 
 from collections import Counter
+from functools import lru_cache
 from typing import Iterator, Optional
 
 from rdkit import Chem
 
 from ..diagnostics import Diagnostic
+from ..electrons import ElectronState
 from ..trace import StepTrace
 from . import Check, Ending
+
+
+@lru_cache(maxsize=None)
+def _symbol(atomic_number: int) -> str:
+    return Chem.GetPeriodicTable().GetElementSymbol(atomic_number)
+
+
+def _state_totals(state: ElectronState) -> tuple[int, Counter]:
+    """_totals of a whole state: charge and hydrogens summed by RDKit in C++, the elements read
+    off the state's numbers."""
+    mol = state.mol
+    elements = Counter()
+    for z, n in Counter(state.elements).items():
+        elements[_symbol(z)] += n
+    if state.elements:
+        elements["H"] += mol.GetNumAtoms(onlyExplicit=False) - mol.GetNumAtoms()   # the counts, explicit and implicit
+    return Chem.GetFormalCharge(mol), elements
 
 
 def _totals(mol: Chem.Mol, atoms=None) -> tuple[int, Counter]:
@@ -54,9 +74,9 @@ class ChargeAndAtomsConserved(Check):
     def finish(self, end: Ending, context) -> Iterator[Diagnostic]:
         if self.last is None:
             return
-        start_charge, start_atoms = _totals(end.initial.mol)
+        start_charge, start_atoms = _state_totals(end.initial)
         charge_before, atoms_before = start_charge + self.brought[0], start_atoms + self.brought[1]
-        charge_after, atoms_after = _totals(self.last.after.mol)
+        charge_after, atoms_after = _state_totals(self.last.after)
         where = dict(step=self.last.index)
         span = "from the start to this step" if self.last.index else "in this step"
         if charge_after != charge_before:

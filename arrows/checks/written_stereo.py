@@ -5,7 +5,7 @@ configured at as many elements as the written one (the steps configure few centr
 nothing is said). An enantiomer of a product that forms as the racemate is no mismatch."""
 from __future__ import annotations
 
-from typing import Iterator, Optional
+from typing import Iterator, NamedTuple, Optional
 
 from rdkit import Chem
 
@@ -21,15 +21,30 @@ from .checkpoints import fragments
 _MARKS = ("@", "/", "\\")
 
 
-def _pieces(mol: Chem.Mol) -> dict[str, tuple[str, int]]:
+class _Piece(NamedTuple):
+    smiles: str        # with its configuration
+    configured: int    # configured stereo elements
+    atoms: int
+
+
+def _pieces(mol: Chem.Mol, wanted: Optional[dict[str, _Piece]] = None) -> dict[str, _Piece]:
     """Per constitution (SMILES without configuration): the piece's SMILES with its configuration
     and the number of its configured stereo elements (map numbers and hydrogen atoms dropped, as
-    the checkpoint comparison prepares them)."""
+    the checkpoint comparison prepares them). With `wanted`, the written pieces, only the pieces
+    of a written size and constitution are read (a piece of equal constitution has as many atoms):
+    the others are never compared."""
+    sizes = None if wanted is None else {piece.atoms for piece in wanted.values()}
     out = {}
-    for piece in fragments(mol):
+    for piece in fragments(mol, lazy=True):
+        atoms = piece.mol.GetNumAtoms()
+        if sizes is not None and atoms not in sizes:
+            continue
+        smiles = piece.smiles
         configured = sum(info.specified == Chem.StereoSpecified.Specified
                          for info in potential_stereo(piece.mol, clean=False))
-        out[Chem.MolToSmiles(piece.mol, isomericSmiles=False)] = (piece.smiles, configured)
+        constitution = Chem.MolToSmiles(piece.mol, isomericSmiles=False)
+        if wanted is None or constitution in wanted:
+            out[constitution] = _Piece(smiles, configured, atoms)
     return out
 
 
@@ -48,14 +63,15 @@ def mismatches(state: ElectronState, checkpoint: Checkpoint, what: str, step: Op
     if written_mol is None:
         return []   # unreadable: CheckpointsMatch says so
     try:
-        written, derived = _pieces(written_mol), _pieces(state.mol)
+        written = _pieces(written_mol)
+        derived = _pieces(state.mol, written)
     except Exception:   # an intermediate RDKit will not perceive says nothing either way
         return []
     found = []
-    for constitution, (smiles, configured) in written.items():
+    for constitution, (smiles, configured, _) in written.items():
         if not configured or constitution not in derived:
             continue
-        derived_smiles, derived_configured = derived[constitution]
+        derived_smiles, derived_configured, _ = derived[constitution]
         if derived_configured != configured:
             continue
         kind = relation(smiles, derived_smiles)

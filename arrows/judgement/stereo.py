@@ -151,7 +151,10 @@ def _without_stereoisomers(plain: Chem.Mol, view: Perceived, centres: list[Stere
 
 
 def _may_delocalize(mol: Chem.Mol) -> bool:
-    return any(a.GetFormalCharge() or a.GetNumRadicalElectrons() for a in mol.GetAtoms())
+    # Atoms by index, as they are needed (most charged states show a charge early): RDKit's Python
+    # atom iterator costs several calls per atom.
+    atoms = map(mol.GetAtomWithIdx, range(mol.GetNumAtoms()))
+    return any(a.GetFormalCharge() or a.GetNumRadicalElectrons() for a in atoms)
 
 
 _MAX_RESONANCE = 64
@@ -167,7 +170,15 @@ def _lost_by_resonance(mol: Chem.Mol, centres: list[int]) -> set[int]:
     def unsaturated(atom) -> bool:
         return (atom.GetFormalCharge() != 0 or atom.GetNumRadicalElectrons() > 0 or atom.GetIsAromatic()
                 or any(b.GetBondTypeAsDouble() > 1 for b in atom.GetBonds()))
-    tested = [c for c in centres if sum(unsaturated(n) for n in mol.GetAtomWithIdx(c).GetNeighbors()) >= 2]
+    def tested_centre(centre: int) -> bool:   # two unsaturated neighbours: the rest need not be read
+        found = 0
+        for n in mol.GetAtomWithIdx(centre).GetNeighbors():
+            if unsaturated(n):
+                found += 1
+                if found == 2:
+                    return True
+        return False
+    tested = [c for c in centres if tested_centre(c)]
     if not tested or not _may_delocalize(mol):
         return set()
     lost: set[int] = set()
@@ -320,8 +331,12 @@ def is_chiral(smiles: str) -> bool:
 
 def has_specified_stereo(smiles: str) -> bool:
     mol = Chem.MolFromSmiles(smiles)
-    return mol is not None and any(info.specified == Chem.StereoSpecified.Specified
-                                   for info in potential_stereo(mol, clean=False))
+    return mol is not None and _specified(mol)
+
+
+def _specified(mol: Chem.Mol) -> bool:
+    """Whether some stereo element of `mol` is specified (read without changing `mol`)."""
+    return any(info.specified == Chem.StereoSpecified.Specified for info in potential_stereo(mol, clean=False))
 
 
 def relation(first: str, second: str) -> str:
@@ -332,7 +347,7 @@ def relation(first: str, second: str) -> str:
     if Chem.MolToSmiles(a, isomericSmiles=False) != Chem.MolToSmiles(b, isomericSmiles=False):
         from rdkit.Chem.rdMolDescriptors import CalcMolFormula
         return CONSTITUTIONAL if CalcMolFormula(a) == CalcMolFormula(b) else UNRELATED
-    if not (has_specified_stereo(first) and has_specified_stereo(second)):
+    if not (_specified(a) and _specified(b)):   # the Mols has_specified_stereo would read again
         return UNSPECIFIED
     if Chem.MolToSmiles(a) == Chem.MolToSmiles(b):
         return IDENTICAL
