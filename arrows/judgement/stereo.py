@@ -165,8 +165,9 @@ def _lost_by_resonance(mol: Chem.Mol, centres: list[int]) -> set[int]:
     charged or radical state. In the sigma complex of an aromatic substitution the sp3 carbon
     looks stereogenic with the charge drawn next to it, but the charge is shared by the two ring
     carbons beside it and the one across, and a nitro group there (textbook resonance, common
-    practice): in that structure its two ring branches are the same. Only centres with two unsaturated or charged
-    neighbours are tested; for the others no charge can move between their branches."""
+    practice): in that structure its two ring branches are the same. Only centres with two
+    unsaturated or charged neighbours are tested; for the others no charge can move between
+    their branches."""
     def unsaturated(atom) -> bool:
         return (atom.GetFormalCharge() != 0 or atom.GetNumRadicalElectrons() > 0 or atom.GetIsAromatic()
                 or any(b.GetBondTypeAsDouble() > 1 for b in atom.GetBonds()))
