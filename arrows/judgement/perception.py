@@ -3,7 +3,8 @@ perception (acidity by SMARTS, stereo elements): hydrogen atoms folded into coun
 aromaticity perceived, and each atom's index in the state.
 
 A state keeps as explicit atoms only the hydrogens that some arrow moves; left in, such a
-hydrogen would make two equal groups look different to stereo perception.
+hydrogen would make two equal groups look different to stereo perception. A labelled hydrogen
+(D, T) is different, and stays an atom in the view.
 """
 from __future__ import annotations
 
@@ -31,7 +32,7 @@ class Perceived:
     __slots__ = ("mol", "original", "complete", "memo")
 
     def __init__(self, mol: Chem.Mol, original: tuple[int, ...], complete: bool):
-        self.mol = mol                # hydrogens as counts, rings and aromaticity perceived
+        self.mol = mol                # hydrogens as counts (D and T as atoms), rings and aromaticity perceived
         self.original = original      # index in `mol` -> state atom index (ascending)
         self.complete = complete
         self.memo: dict = {}          # judgements already made on this view
@@ -62,6 +63,13 @@ def perceive(mol: Chem.Mol, clear_stereo_on: Iterable[int] = (), heavy: Optional
         sanitize(plain, elements)
         if plain.GetNumAtoms() == len(heavy):   # else RDKit kept a hydrogen (an isotope, a bridge)
             return Perceived(plain, heavy, True)
+        # A deuterium or tritium stays an atom, as RDKit writes it ([2H]): a CHD carbon is a
+        # stereocentre. The view is whole if those are all RDKit kept.
+        labelled = {i for i in range(work.GetNumAtoms())
+                    if work.GetAtomWithIdx(i).GetAtomicNum() == 1 and work.GetAtomWithIdx(i).GetIsotope()}
+        kept = tuple(sorted(set(heavy) | labelled))
+        if labelled and plain.GetNumAtoms() == len(kept):
+            return Perceived(plain, kept, True)
     except Exception:   # an odd intermediate: fall back to a partial perception below
         pass
     return _partial(work)
