@@ -1916,15 +1916,16 @@ class _LayoutBuilder:
             room &= reach >= PARTNER_REACH[0]      # else no room for the hydrogen between them
             miss = miss + np.maximum(0.0, reach - PARTNER_REACH[1]) ** 2
         score = _PARTNER_PREFERENCE + 30.0 * miss
+        # The options share a few dozen turns (`spots` turned each once): each direction is
+        # measured once, and every option takes its turn's answer.
+        distinct, which = _distinct_turns(_PARTNER_OPTIONS, 0, len(_PARTNER_OPTIONS))
+        turn_directions = [wider.turned[turn][0] for turn in distinct.tolist()]
+        for f in fed:      # the hydrogen would stand in the angle its bond's pair goes into
+            room &= np.array([abs(cmath.phase(d / f)) >= _FED_ANGLE for d in turn_directions])[which]
+        for b in along:    # nor on a bond of the atom that holds it
+            room &= np.array([abs(cmath.phase(d / b)) >= _ALONG_BOND for d in turn_directions])[which]
         # The cheapest first (equal scores keep the options' order); the clearance tests cost
         # more, so they run on a few spots at a time, growing as the search goes on.
-        for f in fed:      # the hydrogen would stand in the angle its bond's pair goes into
-            # The options share a few dozen directions: each is measured once.
-            outside = {d: abs(cmath.phase(d / f)) >= _FED_ANGLE for d in set(directions)}
-            room &= np.array([outside[d] for d in directions])
-        for b in along:    # nor on a bond of the atom that holds it
-            outside = {d: abs(cmath.phase(d / b)) >= _ALONG_BOND for d in set(directions)}
-            room &= np.array([outside[d] for d in directions])
         order = room.nonzero()[0]   # (the methods, without np.flatnonzero's and np.argsort's wrappers)
         order = order[score[order].argsort(kind="stable")]
         start, size = 0, 8
