@@ -820,6 +820,7 @@ class _LayoutBuilder:
                 if n not in self.bridging:
                     everything.join(h, n)
         self.rings: list[list[int]] = []
+        self._depictions: dict[tuple, dict[int, complex]] = {}   # _depict's, by what the Mol is made of
         self.rings_bonded: dict[int, list[list[int]]] = {}   # panel -> the rings whose bonds all exist there
         clusters = everything.groups()
         self.room_kept = self._room_to_keep(clusters)
@@ -1164,6 +1165,20 @@ class _LayoutBuilder:
         `panels`), scaled to unit bond length."""
         if len(group) == 1:
             return {group[0]: 0j}
+        # What the Mol handed to RDKit is made of, besides what the scheme fixes (its bonds,
+        # stand-ins, written E and Z): a run of panels often asks again for one already drawn.
+        straight = tuple(atom for atom in group if self._linear(atom, panels))
+        chains = tuple(pair for pair, (_, _, at) in self.chain_double.items()
+                       if panels is not None and any(k in panels for k in at))
+        key = (tuple(group), None if only is None else frozenset(only), straight, chains)
+        known = self._depictions.get(key)
+        if known is None:
+            known = self._depictions[key] = self._depicted(group, only, panels, straight)
+        return dict(known)
+
+    def _depicted(self, group: list[int], only: Optional[set[tuple[int, int]]], panels: Optional[range],
+                  straight: tuple[int, ...]) -> dict[int, complex]:
+        """_depict's work: the Mol built and laid out by RDKit, `straight` its sp atoms."""
         index = {atom: k for k, atom in enumerate(group)}
         mol = Chem.RWMol()
         for atom in group:
@@ -1202,9 +1217,8 @@ class _LayoutBuilder:
                 bond.SetStereo(Chem.BondStereo.STEREOCIS if cis else Chem.BondStereo.STEREOTRANS)
         mol.UpdatePropertyCache(strict=False)
         Chem.FastFindRings(mol)
-        for atom in group:   # the depictor draws an atom straight (a nitrile, an alkyne, an allene) only if told
-            if self._linear(atom, panels):
-                mol.GetAtomWithIdx(index[atom]).SetHybridization(Chem.HybridizationType.SP)
+        for atom in straight:   # the depictor draws an atom straight (a nitrile, an alkyne, an allene) only if told
+            mol.GetAtomWithIdx(index[atom]).SetHybridization(Chem.HybridizationType.SP)
         self.rings += [ring for ring in ([group[k] for k in r] for r in Chem.GetSymmSSSR(mol)) if ring not in self.rings]
         rdDepictor.Compute2DCoords(mol, canonOrient=True)   # compute_layout chose RDKit's own depictor
         # All positions in one call: asking the conformer atom by atom costs more than the sums.
