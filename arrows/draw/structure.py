@@ -446,8 +446,8 @@ class StructureDrawer:
         # A double or triple bond's strokes depend as well on the side its second line takes and,
         # at a bare vertex, on the bonds they meet there: with those, it is reused likewise.
         side = self._double_side(i, j, out.positions, neighbours, rings) if order == 2 else 0
-        key = (i, j, order, role, p, q, box_i, box_j, side, tuple([out.positions[m] for m in neighbours[i]]),
-               tuple([out.positions[m] for m in neighbours[j]]))
+        key = (i, j, order, role, p, q, box_i, box_j, side, tuple([(m, out.positions[m]) for m in neighbours[i]]),
+               tuple([(m, out.positions[m]) for m in neighbours[j]]))
         known = self._multiple_bonds.get(key)
         if known is None:
             known = self._multiple_bonds[key] = self._strokes(i, j, order, role, out, neighbours, side)
