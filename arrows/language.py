@@ -268,6 +268,17 @@ _STATEMENTS = {"TITLE", "CAPTION", "SPECIES", "STEP", "PRODUCT"}
 STATEMENT_WORDS = frozenset(word.lower() for word in _STATEMENTS)   # how a line of mechanism text starts
 _MOVE_STARTS = {"COLON", "RADICAL_DOT", "ATOM", "H"}
 _KEYWORDS = _STATEMENTS | {"END", "USES", "RELEASES", "EXPECT", "ALL", "REVERSIBLE", "RESONANCE", "OVER", "UNDER"}
+# Where a keyword goes, for the hint when it stands somewhere else.
+_AFTER_LABEL = "after the step's label, on the `step` line: step \"LABEL\" "
+_KEYWORD_PLACE = {
+    "REVERSIBLE": _AFTER_LABEL + "reversible", "RESONANCE": _AFTER_LABEL + "resonance",
+    "OVER": _AFTER_LABEL + 'over "conditions"', "UNDER": _AFTER_LABEL + 'under "conditions"',
+    "USES": 'inside a step, before its `end`: uses "SMILES"',
+    "RELEASES": "inside a step, before its `end`: releases Cl4",
+    "EXPECT": 'inside a step, before its `end`: expect "SMILES" (after the last step, '
+              '`product "SMILES"` checks the final state)',
+    "ALL": 'after `expect`, inside a step: expect all "SMILES"',
+}
 # What a keyword's quoted string holds, for the hint when the quotes are missing.
 _STRING_AFTER = {"species": "SMILES", "uses": "SMILES", "expect": "SMILES", "product": "SMILES", "all": "SMILES",
                  "step": "label", "over": "text", "under": "text", "title": "text", "caption": "text"}
@@ -383,6 +394,8 @@ def _hint_for(exc: UnexpectedInput, text: str, found: str) -> str:
         if word[:1].isupper() and len(letters) <= 2 and not any(c.isdigit() for c in word):
             return f"an atom needs its map number: write {word}7 (element + map number)"
         return f"`{word}` is not a keyword here; inside a step: moves, uses, releases, expect, end"
+    if tok_type in _KEYWORD_PLACE:
+        return f"`{word}` goes {_KEYWORD_PLACE[tok_type]}"
     if _STATEMENTS <= expected:
         if tok_type == "STRING":
             return "a quoted string follows a keyword: title, caption, species NAME =, step or product"

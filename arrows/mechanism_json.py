@@ -93,9 +93,8 @@ def _released_smiles(mol, released: frozenset[int]) -> list[str]:
 def states_list(trace) -> list[dict]:
     """The starting state and the state after each derived step, with the step's reaction SMILES."""
     from rdkit import Chem
-    from rdkit.Chem.rdMolDescriptors import CalcMolFormula
 
-    from .rdkit_io import canonical
+    from .rdkit_io import canonical, formula
     from .reaction_smiles import fresh_map_numbers, step_reaction
 
     numbers = fresh_map_numbers(trace)
@@ -107,7 +106,7 @@ def states_list(trace) -> list[dict]:
         mol = Chem.Mol(state.mol)
         Chem.SanitizeMol(mol)
         entry = {"after_step": after_step, "smiles": Chem.MolToSmiles(mol), "canonical_smiles": canonical(state.mol),
-                 "formula": CalcMolFormula(mol), "charge": Chem.GetFormalCharge(mol),
+                 "formula": formula(mol), "charge": Chem.GetFormalCharge(mol),
                  "released": _released_smiles(state.mol, state.released)}
         if step_trace is not None:
             entry["reaction_smiles"] = step_reaction(step_trace, numbers)

@@ -171,3 +171,11 @@ def fragment(mol: Chem.Mol, atoms) -> Chem.Mol:
         if i not in keep:
             work.RemoveAtom(i)
     return work.GetMol()
+
+
+def formula(mol: Chem.Mol) -> str:
+    """RDKit's molecular formula, isotope labels kept when there are any (C3H3D6O3-, CH3[18O]-:
+    separateIsotopes with D and T for the hydrogens); the plain formula otherwise."""
+    from rdkit.Chem.rdMolDescriptors import CalcMolFormula
+    labelled = any(atom.GetIsotope() for atom in mol.GetAtoms())
+    return CalcMolFormula(mol, True, True) if labelled else CalcMolFormula(mol)

@@ -29,3 +29,57 @@ def test_a_wrong_constitution_still_fails_with_configuration_written():
     errors = _errors("C[C@H](O)C#N")   # the neutral cyanohydrin: the proton transfer has not happened
     assert [d.code for d in errors] == ["AR401"]
     assert "proton transfer" in errors[0].message
+
+
+LABELLED = '''
+species ketone = "[CH3:1][C:2](=[O:3])[CH3:4]"
+species deuteroxide = "[2H:7][O-:5]"
+species water = "[2H:8][O:6][2H:9]"
+step "enolate"
+    :O5 -> H(C1)
+    C1-H -> C1=C2
+    C2=O3 -> O3
+end
+step "deuteration"
+    :O3 -> C2=O3
+    C1=C2 -> C1-H8
+    O6-H8 -> O6
+    expect "{expect}"
+end
+'''
+
+
+def test_a_checkpoint_keeps_isotope_labels_apart():
+    """Deuterium exchange at the alpha carbon of acetone (textbook base-catalysed H/D exchange,
+    memory): the ketone the moves give carries one deuterium. RDKit's SMILES reading of [2H] is
+    the judge; a checkpoint that leaves the label out is told so in nuclide symbols (IUPAC 2005,
+    IR-3.3: D for 2H)."""
+    _, diags = check_text(LABELLED.format(expect="[2H]CC(C)=O"))
+    assert [d for d in diags if d.severity == "error"] == []
+    _, diags = check_text(LABELLED.format(expect="CC(C)=O"))
+    (error,) = [d for d in diags if d.severity == "error"]
+    assert error.code == "AR401" and "derived atoms not written: 1 D" in error.message, error.message
+
+
+def test_a_heavy_label_on_the_wrong_atom_is_named():
+    """Hydroxide labelled with 18O adds to acetone: the label is on the hydroxyl that came in,
+    the charge on the oxygen that was the carbonyl's. A checkpoint with the label on the alkoxide
+    differs only by the label (without it the two are one structure to RDKit): the error names
+    both oxygens."""
+    text = '''
+species ketone = "[CH3:1][C:2](=[O:3])[CH3:4]"
+species hydroxide = "[18OH-:6]"
+step "addition"
+    :O6 -> C2
+    C2=O3 -> O3
+    expect "{expect}"
+end
+'''
+    _, diags = check_text(text.format(expect="CC(C)([18OH])[O-]"))
+    assert [d for d in diags if d.severity == "error"] == []
+    _, diags = check_text(text.format(expect="CC(C)(O)[18O-]"))
+    (error,) = [d for d in diags if d.severity == "error"]
+    assert "O3:" in error.message and "O6:" in error.message, error.message
+    _, diags = check_text(text.format(expect="CC(C)(O)[O-]"))   # the label left out
+    (error,) = [d for d in diags if d.severity == "error"]
+    assert "O6: expected O, the moves give 18O" in error.message, error.message

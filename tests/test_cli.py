@@ -186,6 +186,22 @@ def test_a_folder_is_not_a_mechanism(tmp_path, command):
     assert "Traceback" not in result.output
 
 
+def test_check_opens_a_folder(tmp_path):
+    """`arrows check FOLDER` checks every .mech file below it, in path order, each once: an SI
+    set is checked in one command, as `arrows collect` takes it."""
+    (tmp_path / "b").mkdir()
+    (tmp_path / "a.mech").write_text(_GALLERY_FIRST.read_text(encoding="utf-8"), encoding="utf-8")
+    (tmp_path / "b" / "broken.mech").write_text('species s = "[CH4:1]"\nstep "x"\n    :C1 -> C1\nend\n',
+                                                encoding="utf-8")
+    (tmp_path / "notes.txt").write_text("not a mechanism\n", encoding="utf-8")
+    result = run("check", tmp_path, tmp_path / "a.mech")
+    assert result.exit_code == 1, result.output
+    located = [LOCATED.match(line) for line in result.stdout.splitlines()]
+    errors = [m["file"] for m in located if m and m["severity"] == "error"]
+    assert errors == [str(tmp_path / "b" / "broken.mech")]
+    assert "2 files checked" in result.stderr
+
+
 _GALLERY_FIRST = Path(__file__).resolve().parents[1] / "gallery" / "01-enolate-formation.mech"
 
 

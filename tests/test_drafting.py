@@ -116,11 +116,24 @@ def test_new_refuses_to_overwrite(tmp_path):
     assert sorted(p.name for p in tmp_path.iterdir()) == ["mine.mech"]   # no temporary left behind
 
 
-def test_new_numbers_the_given_species(tmp_path):
-    assert _arrows_main("new", "enone", "--smiles", "CC=CC(C)=O", cwd=tmp_path).returncode == 0
+@pytest.mark.parametrize("given", [("--smiles", "CC=CC(C)=O"), ("CC=CC(C)=O",)], ids=["option", "after-name"])
+def test_new_numbers_the_given_species(tmp_path, given):
+    assert _arrows_main("new", "enone", *given, cwd=tmp_path).returncode == 0
     import arrows
     (species,) = arrows.load(tmp_path / "enone.mech").species
-    assert all(a.GetAtomMapNum() for a in Chem.MolFromSmiles(species.smiles).GetAtoms())
+    written = Chem.MolFromSmiles(species.smiles)
+    assert all(a.GetAtomMapNum() for a in written.GetAtoms())
+    for atom in written.GetAtoms():
+        atom.SetAtomMapNum(0)
+    # RDKit as the judge: the numbered species is the one given.
+    assert Chem.MolToSmiles(written) == Chem.MolToSmiles(Chem.MolFromSmiles("CC=CC(C)=O"))
+
+
+def test_new_refuses_two_different_species(tmp_path):
+    done = _arrows_main("new", "enone", "CC=CC(C)=O", "--smiles", "CCO", cwd=tmp_path)
+    assert done.returncode == 2
+    assert "two starting species" in done.stderr and "hint:" in done.stderr
+    assert list(tmp_path.iterdir()) == []
 
 
 # --- re-running on save ------------------------------------------------------------------------

@@ -91,3 +91,19 @@ def test_a_radical_by_product_is_written_with_its_dot():
     bromine_atom = Chem.MolFromSmiles("[Br]")          # RDKit: one unpaired electron
     assert "".join(text for text, _ in _byproduct_pieces(bromine_atom)) == "Br\u2022"
     assert "\u2022" not in "".join(text for text, _ in _byproduct_pieces(Chem.MolFromSmiles("[Br-]")))
+
+
+def test_a_labelled_by_product_keeps_its_label():
+    """Heavy water leaves as D2O, labelled methoxide as CH3 18O- with the mass number as a left
+    superscript (IUPAC 2005, IR-3.3: nuclide symbols; D for 2H); RDKit's CalcMolFormula with
+    separateIsotopes and abbreviateHIsotopes is the judge of the formula."""
+    from rdkit import Chem
+    from rdkit.Chem.rdMolDescriptors import CalcMolFormula
+
+    from arrows.draw.scheme import _byproduct_pieces
+    water = Chem.MolFromSmiles("[2H]O[2H]")
+    assert CalcMolFormula(water, True, True) == "D2O"
+    assert _byproduct_pieces(water) == [("D", "n"), ("2", "sub"), ("O", "n")]
+    methoxide = Chem.MolFromSmiles("C[18O-]")
+    assert CalcMolFormula(methoxide, True, True) == "CH3[18O]-"
+    assert _byproduct_pieces(methoxide) == [("CH", "n"), ("3", "sub"), ("18", "sup"), ("O", "n"), (MINUS, "sup")]

@@ -308,6 +308,16 @@ SLIPS = [
     ("end in capitals",
      'step "a"\n    :O1 -> C2\nEND\n',
      3, 1, "unexpected `END`", "a move", "keywords are written in lower case: `end`"),
+    # A keyword out of place: the hint says where it goes (it used to say "not a keyword").
+    ("step option before the step",
+     'resonance step "a"\n    :O1 -> C2=O1\nend\n',
+     1, 1, "unexpected `resonance`", "a statement", 'on the `step` line: step "LABEL" resonance'),
+    ("conditions before the step",
+     'over "heat"\nstep "a"\n    :O1 -> C2\nend\n',
+     1, 1, "unexpected `over`", "a statement", 'step "LABEL" over "conditions"'),
+    ("checkpoint after the last step",
+     'step "a"\n    :O1 -> C2\nend\nexpect "CO"\n',
+     4, 1, "unexpected `expect`", "a statement", '`product "SMILES"` checks the final state'),
 ]
 
 

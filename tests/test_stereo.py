@@ -171,6 +171,23 @@ def test_the_meisenheimer_complex_has_no_stereocentre():
     assert [d for d in diags if d.code == "AR602"] == []
 
 
+def test_the_meisenheimer_complex_written_with_its_charge_beside_the_new_centre_has_none():
+    """The same sigma complex written as an author often first writes it: one arrow, C2=C3 -> C3,
+    the charge on the ring carbon beside the sp3 centre. Its resonance form with the charge on
+    the nitro group is the one above (one stereoisomer by RDKit's EnumerateStereoisomers, the
+    judge), so the centre is none (textbook SNAr resonance, common practice). Before, the check
+    said "new stereocentre C2 ... 2 stereoisomers can form". So for fluorobenzene itself, whose
+    charge moves to the para carbon."""
+    assert rdkit_count("COC1(F)C=CC(=[N+]([O-])[O-])C=C1") == 1
+    assert rdkit_count("COC1(F)C=C[CH-]C=C1") == 1
+    for ring in ("[cH:4][c:5]([N+:8](=[O:9])[O-:10])[cH:6]", "[cH:4][cH:5][cH:6]"):
+        text = (f'species arene = "[F:1][c:2]1[cH:3]{ring}[cH:7]1"\nspecies methoxide = "C[O-:11]"\n'
+                'step "addition"\n    :O11 -> C2\n    C2=C3 -> C3\nend\n')
+        _, diags = check_text(text)
+        assert [d.code for d in diags if d.severity == "error"] == []
+        assert [d.to_text() for d in diags if d.code == "AR602"] == []
+
+
 @pytest.mark.parametrize("smiles, centres", [
     ("CC1CCC(C)CC1", 2),                    # cis/trans-1,4-dimethylcyclohexane: ring stereo
     ("OC(=O)C(O)C(O)C(O)C(=O)O", 3),        # 2,3,4-trihydroxyglutaric acid: C3 pseudo-asymmetric

@@ -201,6 +201,15 @@ def _order_text(order: int) -> str:
     return "aromatic" if order == 15 else order_word(order)
 
 
+def _nuclide(atom: Chem.Atom) -> str:
+    """The atom's symbol with its label: D and T for hydrogen's isotopes, else the mass number
+    before the symbol (18O); the plain symbol for an unlabelled atom (IUPAC 2005, IR-3.3)."""
+    mass, symbol = atom.GetIsotope(), atom.GetSymbol()
+    if not mass:
+        return symbol
+    return {("H", 2): "D", ("H", 3): "T"}.get((symbol, mass), f"{mass}{symbol}")
+
+
 def _explain(frag: Fragment, closest: Fragment, state: ElectronState) -> tuple[list[str], Optional[str]]:
     align = _alignment(frag.mol, closest.mol)
     if not align:
@@ -222,6 +231,8 @@ def _explain(frag: Fragment, closest: Fragment, state: ElectronState) -> tuple[l
             details.append(text)
         elif w.GetTotalNumHs() != d.GetTotalNumHs():
             details.append(f"{name(di)}: expected {w.GetTotalNumHs()} H, the moves give {d.GetTotalNumHs()}")
+        if w.GetIsotope() != d.GetIsotope():
+            details.append(f"{name(di)}: expected {_nuclide(w)}, the moves give {_nuclide(d)}")
         if w.GetNumRadicalElectrons() != d.GetNumRadicalElectrons():
             details.append(f"{name(di)}: expected {w.GetNumRadicalElectrons()} unpaired electron(s), "
                            f"the moves give {d.GetNumRadicalElectrons()}")
@@ -233,10 +244,10 @@ def _explain(frag: Fragment, closest: Fragment, state: ElectronState) -> tuple[l
             if expected != given:
                 details.append(f"bond {name(align[wi])}-{name(align[wj])}: expected {_order_text(expected)}, "
                                f"the moves give {_order_text(given)}")
-    unmatched = Counter(frag.mol.GetAtomWithIdx(i).GetSymbol() for i in range(frag.mol.GetNumAtoms()) if i not in align)
+    unmatched = Counter(_nuclide(frag.mol.GetAtomWithIdx(i)) for i in range(frag.mol.GetNumAtoms()) if i not in align)
     if unmatched:
         details.append("written atoms with no counterpart: " + ", ".join(f"{n} {el}" for el, n in sorted(unmatched.items())))
-    extra = Counter(closest.mol.GetAtomWithIdx(i).GetSymbol() for i in range(closest.mol.GetNumAtoms())
+    extra = Counter(_nuclide(closest.mol.GetAtomWithIdx(i)) for i in range(closest.mol.GetNumAtoms())
                     if i not in set(align.values()))
     if extra:
         details.append("derived atoms not written: " + ", ".join(f"{n} {el}" for el, n in sorted(extra.items())))

@@ -10,7 +10,7 @@ from ..diagnostics import ERROR, WARNING, to_json
 
 
 @click.command("check")
-@click.argument("files", nargs=-1, type=click.Path())   # a missing file or a folder is reported as AR100
+@click.argument("files", nargs=-1, type=click.Path())   # a missing file is reported as AR100; a folder, opened
 @click.option("--format", "fmt", type=click.Choice(["text", "json"]), default="text", show_default=True,
               help="text: file:line:col: severity CODE message; json: one array of diagnostics.")
 @click.option("--strict", is_flag=True, help="Treat warnings as failures (exit 1).")
@@ -27,7 +27,8 @@ from ..diagnostics import ERROR, WARNING, to_json
               help="Warn (AR508) when a proton transfer runs uphill by more than this many pKa units "
                    "(mechanism FILES; --jsonl records use the default).")
 def check_command(files, fmt, strict, quiet, jsonl, output, jobs, cluster, pka_gap):
-    """Replay every electron move in FILES and check every intermediate.
+    """Replay every electron move in FILES and check every intermediate. A folder stands for
+    the .mech files below it.
 
     Exit status: 0 clean, 1 errors found (or warnings with --strict), 2 unreadable input or bad usage.
     """
@@ -42,8 +43,9 @@ def check_command(files, fmt, strict, quiet, jsonl, output, jobs, cluster, pka_g
     from ..checks.protons import set_pka_gap
     click.get_current_context().call_on_close(set_pka_gap(pka_gap))
     everything, unreadable, failing = [], False, False
+    files = _with_folders_opened(files)
     for path in files:
-        diags = diagnose_file(path)
+        diags = diagnose_file(path) if isinstance(path, str) else [path]
         if any(d.code == "AR100" for d in diags):
             unreadable = True
         if any(d.severity == ERROR or (strict and d.severity == WARNING) for d in diags):
@@ -62,6 +64,32 @@ def check_command(files, fmt, strict, quiet, jsonl, output, jobs, cluster, pka_g
         click.echo(f"{len(files)} file{'s' if len(files) != 1 else ''} checked: "
                    f"{n_err} error{'s' if n_err != 1 else ''}, {n_warn} warning{'s' if n_warn != 1 else ''}", err=True)
     sys.exit(2 if unreadable else 1 if failing else 0)
+
+
+def _with_folders_opened(paths):
+    """Each path as given, a folder replaced by the .mech files below it (sorted by path, as
+    `arrows collect` takes them); a folder with none stands as an AR100 diagnostic."""
+    from pathlib import Path
+
+    from ..diagnostics import Diagnostic
+    from ..model import Location
+
+    out, seen = [], set()
+    for path in paths:
+        if not Path(path).is_dir():
+            found = [path]
+        else:
+            found = sorted(str(p) for p in Path(path).rglob("*.mech") if p.is_file())
+            if not found:
+                out.append(Diagnostic("AR100", "cannot read file: a folder with no .mech file below it",
+                                      Location(path, 1, 1), hint="a folder is checked by the .mech files in it "
+                                                                 "and its subfolders; name a file or another folder"))
+        for file in found:   # a file named twice (alone and in its folder) is checked once
+            key = Path(file).resolve()
+            if key not in seen:
+                seen.add(key)
+                out.append(file)
+    return out
 
 
 def _check_jsonl(path: str, output: str | None, jobs: int | None, cluster: str | None, strict: bool,

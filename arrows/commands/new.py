@@ -42,14 +42,21 @@ def _create_new(path: Path, text: str) -> None:
 
 @click.command("new")
 @click.argument("name")
-@click.option("--smiles", default=STARTER_SMILES, show_default=True,
-              help="The starting species; its heavy atoms are numbered as `arrows number` does.")
-def new_command(name, smiles):
+@click.argument("species_smiles", metavar="[SMILES]", required=False)
+@click.option("--smiles", default=None,
+              help=f"The starting species (or give it after NAME); its heavy atoms are numbered as "
+                   f"`arrows number` does.  [default: {STARTER_SMILES}]")
+def new_command(name, species_smiles, smiles):
     """Write NAME.mech: a title, one species with numbered atoms, and an empty step to fill in.
 
     An existing file is never overwritten. Exit status: 0 written, 2 the file exists or bad input.
     """
     path = Path(name if name.endswith(".mech") else name + ".mech")
+    if species_smiles is not None and smiles is not None and species_smiles != smiles:
+        click.echo(f"<SMILES>:1:1: error: two starting species given: {species_smiles} and --smiles {smiles}\n"
+                   "    hint: give the SMILES once, after NAME or with --smiles", err=True)
+        sys.exit(2)
+    smiles = species_smiles or smiles or STARTER_SMILES
     if '"' in path.stem or "\n" in path.stem:
         click.echo(f"{path}:1:1: error: a name cannot hold a double quote or a line break\n"
                    "    hint: choose a plain file name", err=True)

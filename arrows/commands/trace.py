@@ -4,12 +4,11 @@ from __future__ import annotations
 import sys
 
 import click
-from rdkit.Chem.rdMolDescriptors import CalcMolFormula
 
 from ..api import check_file
 from ..diagnostics import ERROR
 from ..electrons import ElectronState, bond_label, order_word
-from ..rdkit_io import canonical
+from ..rdkit_io import canonical, formula
 
 
 def _state_lines(state: ElectronState) -> list[str]:
@@ -18,8 +17,8 @@ def _state_lines(state: ElectronState) -> list[str]:
     Chem.SanitizeMol(mol)
     charge = Chem.GetFormalCharge(mol)
     return [f"  SMILES   {canonical(state.mol)}",
-            f"  formula  {CalcMolFormula(mol)}   net charge {charge:+d}" if charge else
-            f"  formula  {CalcMolFormula(mol)}   net charge 0"]
+            f"  formula  {formula(mol)}   net charge {charge:+d}" if charge else
+            f"  formula  {formula(mol)}   net charge 0"]
 
 
 @click.command("trace")

@@ -75,9 +75,18 @@ def _typeset(word: str) -> list[Piece] | None:
 
 
 def _body_pieces(body: str) -> list[Piece]:
+    """Counts as subscripts; a labelled atom, which RDKit writes [18O], with its mass number as a
+    superscript before the symbol."""
     pieces: list[Piece] = []
+    mass = False   # inside [..], before the symbol
     for ch in body:
-        _append(pieces, (ch, "sub" if ch.isdigit() else "n"))
+        if ch in "[]":
+            mass = ch == "["
+        elif mass and ch.isdigit():
+            _append(pieces, (ch, "sup"))
+        else:
+            mass = False
+            _append(pieces, (ch, "sub" if ch.isdigit() else "n"))
     return pieces
 
 

@@ -127,14 +127,23 @@ def _rdkit_depictor() -> Iterator[None]:
 
 
 def moving_hydrogens(states: Sequence[ElectronState], moves: Iterable[ResolvedMove]) -> frozenset[int]:
-    """Hydrogen atoms that some move names: these are drawn; every other hydrogen is implicit."""
+    """Hydrogen atoms that some move names, and labelled ones (D, T): these are drawn; every
+    other hydrogen is implicit."""
     elements = max(states, key=lambda s: len(s.elements)).elements
-    out = set()
+    out = set(labelled_hydrogens(states))
     for move in moves:
         for i in move.source_atoms + move.sink_atoms:
             if i < len(elements) and elements[i] == 1:
                 out.add(i)
     return frozenset(out)
+
+
+def labelled_hydrogens(states: Sequence[ElectronState]) -> frozenset[int]:
+    """Deuterium and tritium atoms: drawn in every panel, as the label is what the scheme is
+    about (a hydrogen that stays implicit would hide it)."""
+    last = max(states, key=lambda s: len(s.elements))
+    atom = last.mol.GetAtomWithIdx
+    return frozenset(i for i, z in enumerate(last.elements) if z == 1 and atom(i).GetIsotope())
 
 
 def _bonds_fed_by_hydrogens(moves: Sequence[Sequence[ResolvedMove]], elements: Sequence[int]
@@ -487,21 +496,24 @@ class _Cluster:
 
 def compute_layout(states: Sequence[ElectronState], moves: Sequence[Sequence[ResolvedMove]],
                    touched: Sequence[Iterable[int]], left_out: Sequence[Iterable[int]] = (),
-                   bonds: Optional[Sequence[list[tuple[int, int, float]]]] = None) -> Layout:
+                   bonds: Optional[Sequence[list[tuple[int, int, float]]]] = None,
+                   product: Iterable[int] = ()) -> Layout:
     """Positions for the atoms of every state. `moves[k]` are the moves drawn on panel k,
     `touched[k]` the atoms the step leaving panel k changes (empty for the last panel) and
     `left_out[k]` atoms panel k does not draw (a spectator between its turns): a species is
     free to move while it is not drawn. `bonds[k]` are state k's bonds as rdkit_io.bond_list
-    reads them (read here when not given)."""
+    reads them (read here when not given). `product` holds atoms of the last state's product
+    proper, which the by-products line up after (by default the largest molecule)."""
     with _rdkit_depictor():
-        return _LayoutBuilder(states, moves, touched, left_out, bonds).build()
+        return _LayoutBuilder(states, moves, touched, left_out, bonds, product).build()
 
 
 class _LayoutBuilder:
     def __init__(self, states: Sequence[ElectronState], moves: Sequence[Sequence[ResolvedMove]],
                  touched: Sequence[Iterable[int]], left_out: Sequence[Iterable[int]] = (),
-                 bonds: Optional[Sequence[list[tuple[int, int, float]]]] = None):
+                 bonds: Optional[Sequence[list[tuple[int, int, float]]]] = None, product: Iterable[int] = ()):
         self.states = list(states)
+        self.product = frozenset(product)
         self.n = len(self.states)
         self.touched = [set(t) for t in touched] + [set()] * (self.n - len(touched))
         elements = max(self.states, key=lambda s: len(s.elements)).elements
@@ -595,6 +607,7 @@ class _LayoutBuilder:
         while self._place_by_events(("bond", "hop", "transfer")) or self._place_waiting() or self._place_leftovers():
             pass
         self._place_hydrogens()
+        self._set_by_products_beside_product()
         panels = []
         for k, state in enumerate(self.states):
             visible = tuple(i for i in visible_atoms(state, self.drawn_h) if i in self.positions[k])
@@ -900,10 +913,12 @@ class _LayoutBuilder:
         that step, as for a cycloaddition. Joins one ring; False when there is none."""
         root = {a: groups.find(a) for a in heavy_atoms}   # the groups stay as they are until a ring is joined
         roots = set(root.values())
-        # Each panel's bonds; then each step's, before and after together: a ring of three or more
-        # clusters that one step goes round, breaking some of its bonds as it makes the others
-        # (a zinc enolate adding to a ketone through a six-membered ring, the zinc passed from one
-        # oxygen to the other), is drawn as that ring too, its atoms in place on both sides.
+        # Each panel's bonds; then each step's, before and after together: a ring of five or more
+        # atoms that one step goes round, breaking some of its bonds as it makes the others (a
+        # zinc enolate adding to a ketone through a six-membered ring, the zinc passed from one
+        # oxygen to the other; the six atoms of a Cope or Claisen shift, in two clusters), is
+        # drawn as that ring too, its atoms in place on both sides, as chemists draw a pericyclic
+        # step. A smaller one is a group shifted to a neighbour.
         bond_sets = [(k, self.bonds_in[k], False) for k in range(self.n)]
         bond_sets += [(k + 1, self.bonds_in[k] | self.bonds_in[k + 1], True) for k in range(self.n - 1)]
         for k, bonds, over_step in bond_sets:
@@ -917,7 +932,7 @@ class _LayoutBuilder:
                     continue
                 if panel.find(a) == panel.find(b):
                     ring = self._cluster_path(links, a, b) + [(i, j)]
-                    if over_step and (len(ring) < 3 or self._ring_size(ring, root, bonds) < 5):
+                    if over_step and self._ring_size(ring, root, bonds) < 5:
                         continue   # a group shifted to a neighbour (a 1,2-shift) is placed where it goes
                     self._join_ring(groups, ring, k, heavy_atoms, partners)
                     return True
@@ -2142,6 +2157,43 @@ class _LayoutBuilder:
             cluster.placement[start] = (1 + 0j, complex(right + LEFTOVER_GAP - left, mid_y - cy), None, 0.0)
         self._apply(index)
         return True
+
+    def _set_by_products_beside_product(self) -> None:
+        """The last panel reads as an equation: the product (`self.product`, else the largest
+        molecule), then each by-product of the last step in a row to its right, level with it (common practice: "product + MeO-"). Left where it
+        acted, a by-product would hang above or below the product, between the rows of the scheme
+        when the product starts a row. Every such by-product is one the last step made or changed
+        (an idle species is not drawn there), and each moves as a rigid body."""
+        k = self.n - 1
+        where = self.positions[k]
+        drawn = {i for i in visible_atoms(self.states[k], self.drawn_h) if i in where and i in self.exists[k]}
+        molecules = [[i for i in molecule if i in drawn] for molecule in self.molecules[k]]
+        molecules = [m for m in molecules if m]
+        if len(molecules) < 2:
+            return
+        product = max(molecules, key=lambda m: (not self.product.isdisjoint(m), sum(self.element[i] != 1 for i in m),
+                                                -min(m)))
+        by_products = sorted((m for m in molecules if m is not product),
+                             key=lambda m: min(where[i].real for i in m))
+
+        def middle(molecule: list[int]) -> float:
+            # Of the heavy atoms: whether a travelling hydrogen shows is the structure's choice.
+            heights = [where[i].imag for i in molecule if self.element[i] != 1] or [where[i].imag for i in molecule]
+            return (min(heights) + max(heights)) / 2
+
+        def edge(molecule: list[int], side: int) -> float:
+            # A label reaches at most two bond lengths: only atoms that far from the edge count.
+            far = side * max(side * where[i].real for i in molecule)
+            return side * max(side * (where[i].real + side * self._label_reach(i)) for i in molecule
+                              if abs(where[i].real - far) < 2.0)
+
+        level = middle(product)
+        right = edge(product, 1)
+        for molecule in by_products:
+            shift = complex(right + LEFTOVER_GAP - edge(molecule, -1), level - middle(molecule))
+            for i in molecule:
+                where[i] += shift
+            right = edge(molecule, 1)
 
     def _lettered(self, atom: int, mol: Chem.Mol) -> bool:
         """Whether the heavy atom is drawn as a letter in this state: a heteroatom, or a carbon

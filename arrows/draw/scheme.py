@@ -5,7 +5,7 @@ wrapped to the page width, a title, and error marks when a faulty mechanism is d
 from __future__ import annotations
 
 import math
-
+from collections import Counter
 from dataclasses import dataclass, field, replace
 from functools import lru_cache
 from typing import Optional, Sequence
@@ -15,10 +15,10 @@ from rdkit.Chem.rdMolDescriptors import CalcMolFormula
 
 from ..diagnostics import Diagnostic, ERROR
 from ..electrons import ElectronState, ResolvedMove, bonds_after
-from ..rdkit_io import bond_list, fragment
+from ..rdkit_io import bond_list, formula as molecular_formula, fragment
 from ..trace import StepTrace, Trace
 from .curves import ArrowPlanner
-from .layout import compute_layout
+from .layout import compute_layout, labelled_hydrogens
 from .scene import Box, CurvedArrow, Mark, Panel, ReactionArrow, Scene, TextRun
 from .formula import MINUS, Piece, condition_pieces, formula_pieces
 from .structure import PanelStructure, StructureDrawer
@@ -61,7 +61,7 @@ class _ArrowSpec:
     marker: str = ""
 
 
-def _panel_sources(trace: Trace) -> list[_PanelSource]:
+def _panel_sources(trace: Trace, product: frozenset[int] = frozenset()) -> list[_PanelSource]:
     if trace.initial is None:
         raise DrawError("the mechanism has no starting state to draw")
     steps = trace.steps
@@ -73,7 +73,30 @@ def _panel_sources(trace: Trace) -> list[_PanelSource]:
         if st.after is None:
             return out
     out.append(_PanelSource(steps[-1].after, None, steps[-1]))
-    return _without_idle_spectators(out)
+    return _without_idle_spectators(out, product)
+
+
+def product_atoms(trace: Trace) -> frozenset[int]:
+    """The atoms of the molecule of the last state that the `product` statement names first (the
+    product proper: chemists write it before any by-product), matched on its heavy atoms' elements;
+    empty without a `product`, or when no molecule matches (the product check says why)."""
+    product = trace.mechanism.product
+    final = trace.steps[-1].after if trace.steps else trace.initial
+    if product is None or final is None:
+        return frozenset()
+    molecules = Chem.GetMolFrags(final.mol, asMols=False, sanitizeFrags=False)
+    if len(molecules) < 2:
+        return frozenset()   # nothing to tell the product from
+    written = Chem.MolFromSmiles(product.smiles, sanitize=False)
+    if written is None or not written.GetNumAtoms():
+        return frozenset()
+    first = Chem.GetMolFrags(written, asMols=False, sanitizeFrags=False)[0]
+    wanted = Counter(written.GetAtomWithIdx(i).GetAtomicNum() for i in first)
+    wanted.pop(1, None)
+    for molecule in molecules:
+        if Counter(final.elements[i] for i in molecule if final.elements[i] != 1) == wanted:
+            return frozenset(molecule)
+    return frozenset()
 
 
 def _bond_lists(sources: list[_PanelSource]) -> list[list[tuple[int, int, float]]]:
@@ -90,15 +113,16 @@ def _bond_lists(sources: list[_PanelSource]) -> list[list[tuple[int, int, float]
     return out
 
 
-def _without_idle_spectators(sources: list[_PanelSource]) -> list[_PanelSource]:
+def _without_idle_spectators(sources: list[_PanelSource], product: frozenset[int] = frozenset()
+                             ) -> list[_PanelSource]:
     """A species that neither the step into a panel nor the step out of it touches is left out
     of that panel: one that has already taken part (a proton shuttle, a by-product) would only
     wait where it last acted, far from the molecule, in the way of the rows; a reactant waiting
     for a later step (the alcohol and the amine of a Swern oxidation) is drawn in the first
     panel, with every starting material, and again from the panel before its step. The largest
     species of a panel is always drawn (the molecule the scheme is about, as a rule; of two as
-    large, the one that takes part). Each source (just made by _panel_sources) gets its `idle`
-    atoms in place."""
+    large, the one that takes part), and so is the `product` in the last panel (the atoms
+    product_atoms found). Each source (just made by _panel_sources) gets its `idle` atoms in place."""
     for src in sources:
         if src.arriving is None:
             continue   # the first panel draws every starting material
@@ -107,7 +131,8 @@ def _without_idle_spectators(sources: list[_PanelSource]) -> list[_PanelSource]:
         near |= set(src.arriving.entered)
         # The largest last; of two as large, the one a step beside the panel touches.
         fragments = sorted(Chem.GetMolFrags(src.state.mol, asMols=False, sanitizeFrags=False),
-                           key=lambda f: (len(f), not near.isdisjoint(f)))
+                           key=lambda f: (src.leaving is None and not product.isdisjoint(f), len(f),
+                                          not near.isdisjoint(f)))
         idle = set()
         for frag in fragments[:-1]:
             atoms = set(frag) - src.state.released
@@ -183,12 +208,14 @@ class _SceneBuilder:
 
     # panels
     def build(self) -> tuple[Scene, float]:
-        sources = _panel_sources(self.trace)
+        product = product_atoms(self.trace)
+        sources = _panel_sources(self.trace, product)
+        self.labelled_h = labelled_hydrogens([s.state for s in sources])
         states = [s.state for s in sources]
         moves = [list(s.leaving.change.moves) if s.leaving else [] for s in sources]
         touched = [set(s.leaving.change.touched_atoms) if s.leaving else set() for s in sources]
         bonds = _bond_lists(sources)   # for layout and structures
-        layout = compute_layout(states, moves, touched, [s.hidden | s.idle for s in sources], bonds)
+        layout = compute_layout(states, moves, touched, [s.hidden | s.idle for s in sources], bonds, product)
         drawn = [self._structure(src, placed, layout.drawn_hydrogens, listed)
                  for src, placed, listed in zip(sources, layout.panels, bonds)]
         # The arrows of every panel are planned together (one batch of numpy work for the scheme).
@@ -211,7 +238,7 @@ class _SceneBuilder:
         # A travelling hydrogen is drawn where it matters: on the panel whose arrows move it and
         # on the panel just after; elsewhere it is implicit like every other hydrogen.
         nearby = [m for st in (src.leaving, src.arriving) if st is not None for m in st.change.moves]
-        shown_h = frozenset(i for m in nearby for i in m.source_atoms + m.sink_atoms) & drawn_h
+        shown_h = (frozenset(i for m in nearby for i in m.source_atoms + m.sink_atoms) | self.labelled_h) & drawn_h
         visible = tuple(i for i in placed.visible if i not in src.hidden and i not in src.idle
                         and (i not in drawn_h or i in shown_h))
         positions = {i: placed.positions[i] * bl for i in visible}
@@ -480,7 +507,7 @@ def _condensed_formulas() -> frozenset[str]:
 
 
 def _byproduct_pieces(fragment: Chem.Mol) -> list[Piece]:
-    formula = CalcMolFormula(fragment)
+    formula = molecular_formula(fragment)   # a labelled fragment keeps its label: D2O, CH3[18O]-
     if formula in _condensed_formulas():
         try:
             work = Chem.Mol(fragment)

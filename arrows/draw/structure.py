@@ -27,6 +27,9 @@ from .formula import MINUS
 from .text import FontFace
 from .wedges import HASHED, SOLID, choose_wedges, configured_centres
 
+# Hydrogen's isotopes have symbols of their own (IUPAC 2005, IR-3.3.2); other labelled atoms are
+# written with their mass number as a superscript before the symbol (13C, 18O).
+_ISOTOPE_SYMBOLS = {("H", 2): "D", ("H", 3): "T"}
 # Hydrogens of an isolated atom go before the symbol for these elements (H2O, HO-, H2S, HCl):
 # common practice in chemical formulas.
 _HYDROGEN_FIRST = {8, 9, 16, 17, 34, 35, 53}
@@ -216,11 +219,11 @@ class StructureDrawer:
         self._multiple_bonds: dict[tuple, tuple[BondDrawing, float, Optional[complex]]] = {}   # and the rest
         self._labels: dict[tuple, AtomDrawing] = {}   # labels, likewise
         self._vertices: dict[tuple, AtomDrawing] = {}   # and skeletal carbons
-        # Each atom's symbol, map number, own hydrogen count and name (None for an unmapped
-        # hydrogen, named after the atom that holds it), read off RDKit once per scheme: they
-        # never change over a mechanism (atoms are only appended, a hydrogen that moves is an atom
-        # of its own from the start), and each call into RDKit costs more than a lookup.
-        self._facts: dict[int, tuple[str, int, int, Optional[str]]] = {}
+        # Each atom's symbol, map number, own hydrogen count, mass number and name (None for an
+        # unmapped hydrogen, named after the atom that holds it), read off RDKit once per scheme:
+        # they never change over a mechanism (atoms are only appended, a hydrogen that moves is
+        # an atom of its own from the start), and each call into RDKit costs more than a lookup.
+        self._facts: dict[int, tuple[str, int, int, int, Optional[str]]] = {}
 
     def draw(self, state: ElectronState, visible: tuple[int, ...], positions: dict[int, complex],
              drawn_hydrogens: frozenset[int], formed: set[tuple[int, int]] = frozenset(),
@@ -292,39 +295,43 @@ class StructureDrawer:
         return out
 
     # atoms and labels
-    def _atom_facts(self, mol: Chem.Mol, atoms: tuple[int, ...]) -> dict[int, tuple[str, int, int, Optional[str]]]:
-        """Symbol, map number, own hydrogen count and fixed name of each of `atoms`, as RDKit
-        reads them. A mapped atom, or an unmapped one other than a hydrogen, is named as
-        ElectronState.label names it (symbol and number, or symbol and position)."""
+    def _atom_facts(self, mol: Chem.Mol, atoms: tuple[int, ...]) -> dict[int, tuple[str, int, int, int, Optional[str]]]:
+        """Symbol, map number, own hydrogen count, mass number (0: natural) and fixed name of each
+        of `atoms`, as RDKit reads them. A mapped atom, or an unmapped one other than a hydrogen,
+        is named as ElectronState.label names it (symbol and number, or symbol and position)."""
         facts = self._facts
         for i in atoms:
             if i not in facts:
                 atom = mol.GetAtomWithIdx(i)
                 symbol, number = atom.GetSymbol(), atom.GetAtomMapNum()
                 name = f"{symbol}{number}" if number else f"{symbol}(atom {i + 1})" if atom.GetAtomicNum() != 1 else None
-                facts[i] = (symbol, number, atom.GetNumExplicitHs(), name)
+                facts[i] = (symbol, number, atom.GetNumExplicitHs(), atom.GetIsotope(), name)
         return facts
 
-    def _atom(self, state: ElectronState, facts: tuple[str, int, int, Optional[str]], adjacent: list[list[int]], i: int,
-              positions: dict[int, complex], neighbours: list[int], drawn_hydrogens: frozenset[int],
+    def _atom(self, state: ElectronState, facts: tuple[str, int, int, int, Optional[str]], adjacent: list[list[int]],
+              i: int, positions: dict[int, complex], neighbours: list[int], drawn_hydrogens: frozenset[int],
               out: PanelStructure, ahead: list[complex] = ()) -> AtomDrawing:
         element = state.elements   # atomic numbers, without a call into RDKit per atom
         p = positions[i]
-        symbol, number, own_hydrogens, name = facts
+        symbol, number, own_hydrogens, mass, name = facts
         if name is None:   # an unmapped hydrogen, named after the atom that holds it, by the state
             name = state.label(i)
         point = (p.real, p.imag)
         # Skeletal carbons are vertices, charged and radical ones too (the sign or dot sits
         # beside the vertex); only a bare terminal carbon with electrons of its own and no
         # hydrogen, as in cyanide, gets its letter.
-        if element[i] == 6 and len(neighbours) > 1:
+        # A labelled atom (13C) is always a letter, with its mass number written before it.
+        if element[i] == 6 and len(neighbours) > 1 and not mass:
             return self._vertex(i, name, symbol, p)
         hidden_h = own_hydrogens + sum(1 for n in adjacent[i] if n not in drawn_hydrogens and element[n] == 1)
         bare_end = len(neighbours) == 1 and hidden_h == 0 and (state.formal_charge(i) or state.nonbonding[i])
-        if element[i] == 6 and neighbours and not bare_end:
+        if element[i] == 6 and neighbours and not bare_end and not mass:
             return self._vertex(i, name, symbol, p)
         fs, ss = self.style.font_size, self.style.small_size
-        w_symbol = self.face.width(symbol, fs)
+        shown = _ISOTOPE_SYMBOLS.get((symbol, mass), symbol)   # D and T (IUPAC); else the mass
+        mass_text = str(mass) if mass and shown == symbol else ""   # number as a superscript
+        w_symbol = self.face.width(shown, fs)
+        w_mass = self.face.width(mass_text, ss) if mass_text else 0.0
         side = None
         if hidden_h:
             count = str(hidden_h) if hidden_h > 1 else ""
@@ -341,17 +348,19 @@ class StructureDrawer:
             near = [j for j, q in positions.items() if j != i and abs(q - p) < 1.6 * bl]
             walls = [(positions[a] - p, positions[b] - p) for a in near for b in adjacent[a]
                      if b != i and b in positions and (b not in near or a < b)]
-            side = self._hydrogen_side(element[i], out.occupied[i], crowd, walls, w_symbol / 2, w_h + w_n,
+            side = self._hydrogen_side(element[i], out.occupied[i], crowd, walls, w_symbol / 2 + w_mass, w_h + w_n,
                                        [a for a in ahead if a])
             out.occupied[i].append(complex(side) if side in (1, -1) else side)
-        # The label is fixed by where it stands, its hydrogens and the side they are written on:
-        # drawn so in an earlier panel, it is reused.
+        # The label is fixed by where it stands (its atom's symbol and mass number with it), its
+        # hydrogens and the side they are written on: drawn so in an earlier panel, it is reused.
         key = (i, name, symbol, p, hidden_h, side)
         drawing = self._labels.get(key)
         if drawing is not None:
             return drawing
         baseline = p.imag + self.cap / 2
-        runs = [TextRun(symbol, p.real - w_symbol / 2, baseline, fs)]
+        runs = [TextRun(shown, p.real - w_symbol / 2, baseline, fs)]
+        if mass_text:
+            runs.insert(0, TextRun(mass_text, p.real - w_symbol / 2 - w_mass, baseline - 0.45 * fs, ss))
         if hidden_h:
             sub_drop = 0.3 * fs
             if side == 1:
@@ -360,7 +369,7 @@ class StructureDrawer:
                 if count:
                     runs.append(TextRun(count, x + w_h, baseline + sub_drop, ss))
             elif side == -1:
-                x = p.real - w_symbol / 2 - w_h - w_n
+                x = p.real - w_symbol / 2 - w_mass - w_h - w_n
                 runs.insert(0, TextRun("H", x, baseline, fs))
                 if count:
                     runs.insert(1, TextRun(count, x + w_h, baseline + sub_drop, ss))
@@ -643,12 +652,21 @@ class StructureDrawer:
         baseline = box.y0 + 0.38 * size
         centre = out.positions[i]
         reach = self.style.bond_length
+        strokes = None
         for x in (box.x1 + 0.03 * size, box.x0 - 0.03 * size - width):
             run = TextRun(text, x, baseline, size)
             tb = self.text_box(run)
             grown = Box(tb.x0 - 0.1 * size, tb.y0 - 0.1 * size, tb.x1 + 0.1 * size, tb.y1 + 0.1 * size)
             if any(segment_hits_box(centre + d * out.label_reach(i, d), centre + d * reach, grown)
                    for d in out.bond_directions[i]) or any(grown.overlaps(b, 0.2 * size) for b in near):
+                continue
+            if strokes is None:
+                # Strokes of the other bonds close by: a sign on a ring bond beside NH2+ reads as
+                # neither's. (A stroke is shorter than two bond lengths: one that reaches the sign
+                # has an end within that of the atom.)
+                strokes = [(complex(*a), complex(*b)) for bond in out.bonds if i not in bond.atoms
+                           for a, b in bond.lines if abs(complex(*a) - centre) < 2 * reach]
+            if any(segment_hits_box(a, b, grown) for a, b in strokes):
                 continue
             middle = complex((tb.x0 + tb.x1) / 2, (tb.y0 + tb.y1) / 2) - centre
             out.occupied[i].append(middle / abs(middle))

@@ -161,8 +161,8 @@ def _lost_by_resonance(mol: Chem.Mol, centres: list[int]) -> set[int]:
     """The centres (indices in `mol`) that are not stereocentres in some resonance structure of a
     charged or radical state. In the sigma complex of an aromatic substitution the sp3 carbon
     looks stereogenic with the charge drawn next to it, but the charge is shared by the two ring
-    carbons beside it and the one across (textbook resonance, common practice): in that
-    structure its two ring branches are the same. Only centres with two unsaturated or charged
+    carbons beside it and the one across, and a nitro group there (textbook resonance, common
+    practice): in that structure its two ring branches are the same. Only centres with two unsaturated or charged
     neighbours are tested; for the others no charge can move between their branches."""
     def unsaturated(atom) -> bool:
         return (atom.GetFormalCharge() != 0 or atom.GetNumRadicalElectrons() > 0 or atom.GetIsAromatic()
@@ -186,6 +186,19 @@ def _lost_by_resonance(mol: Chem.Mol, centres: list[int]) -> set[int]:
         here = {info.centeredOn for info in potential_stereo(work)
                 if info.type == Chem.StereoType.Atom_Tetrahedral}
         lost |= {c for c in tested if c not in here}
+        # RDKit still offers a ring carbon whose two ring branches the structure makes equal (the
+        # charge moved across the ring, onto the nitro group): one stereoisomer says it is none.
+        ranks: list[list[int]] = []
+        for c in tested:
+            if c in lost:
+                continue
+            if not ranks:
+                ranks.append(list(Chem.CanonicalRankAtoms(work, breakTies=False, includeAtomMaps=False)))
+            classes = [ranks[0][n.GetIdx()] for n in work.GetAtomWithIdx(c).GetNeighbors()]
+            if len(set(classes)) < len(classes):
+                piece = next(f for f in Chem.GetMolFrags(work, asMols=False, sanitizeFrags=False) if c in f)
+                if stereoisomer_count(fragment(work, piece)) == 1:
+                    lost.add(c)
     return lost
 
 
