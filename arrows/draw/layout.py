@@ -833,6 +833,7 @@ class _LayoutBuilder:
                 if n not in self.bridging:
                     everything.join(h, n)
         self.rings: list[list[int]] = []
+        self._depictions: dict[tuple, dict[int, complex]] = {}   # _depict's, by what the Mol is made of
         self.rings_bonded: dict[int, list[list[int]]] = {}   # panel -> the rings whose bonds all exist there
         clusters = everything.groups()
         self.room_kept = self._room_to_keep(clusters)
@@ -1179,6 +1180,20 @@ class _LayoutBuilder:
         `panels`), scaled to unit bond length."""
         if len(group) == 1:
             return {group[0]: 0j}
+        # What the Mol handed to RDKit is made of, besides what the scheme fixes (its bonds,
+        # stand-ins, written E and Z): a run of panels often asks again for one already drawn.
+        straight = tuple(atom for atom in group if self._linear(atom, panels))
+        chains = tuple(pair for pair, (_, _, at) in self.chain_double.items()
+                       if panels is not None and any(k in panels for k in at))
+        key = (tuple(group), None if only is None else frozenset(only), straight, chains)
+        known = self._depictions.get(key)
+        if known is None:
+            known = self._depictions[key] = self._depicted(group, only, panels, straight)
+        return dict(known)
+
+    def _depicted(self, group: list[int], only: Optional[set[tuple[int, int]]], panels: Optional[range],
+                  straight: tuple[int, ...]) -> dict[int, complex]:
+        """_depict's work: the Mol built and laid out by RDKit, `straight` its sp atoms."""
         index = {atom: k for k, atom in enumerate(group)}
         mol = Chem.RWMol()
         for atom in group:
@@ -1217,9 +1232,8 @@ class _LayoutBuilder:
                 bond.SetStereo(Chem.BondStereo.STEREOCIS if cis else Chem.BondStereo.STEREOTRANS)
         mol.UpdatePropertyCache(strict=False)
         Chem.FastFindRings(mol)
-        for atom in group:   # the depictor draws an atom straight (a nitrile, an alkyne, an allene) only if told
-            if self._linear(atom, panels):
-                mol.GetAtomWithIdx(index[atom]).SetHybridization(Chem.HybridizationType.SP)
+        for atom in straight:   # the depictor draws an atom straight (a nitrile, an alkyne, an allene) only if told
+            mol.GetAtomWithIdx(index[atom]).SetHybridization(Chem.HybridizationType.SP)
         self.rings += [ring for ring in ([group[k] for k in r] for r in Chem.GetSymmSSSR(mol)) if ring not in self.rings]
         rdDepictor.Compute2DCoords(mol, canonOrient=True)   # compute_layout chose RDKit's own depictor
         # All positions in one call: asking the conformer atom by atom costs more than the sums.
@@ -1931,15 +1945,16 @@ class _LayoutBuilder:
             room &= reach >= PARTNER_REACH[0]      # else no room for the hydrogen between them
             miss = miss + np.maximum(0.0, reach - PARTNER_REACH[1]) ** 2
         score = _PARTNER_PREFERENCE + 30.0 * miss
+        # The options share a few dozen turns (`spots` turned each once): each direction is
+        # measured once, and every option takes its turn's answer.
+        distinct, which = _distinct_turns(_PARTNER_OPTIONS, 0, len(_PARTNER_OPTIONS))
+        turn_directions = [wider.turned[turn][0] for turn in distinct.tolist()]
+        for f in fed:      # the hydrogen would stand in the angle its bond's pair goes into
+            room &= np.array([abs(cmath.phase(d / f)) >= _FED_ANGLE for d in turn_directions])[which]
+        for b in along:    # nor on a bond of the atom that holds it
+            room &= np.array([abs(cmath.phase(d / b)) >= _ALONG_BOND for d in turn_directions])[which]
         # The cheapest first (equal scores keep the options' order); the clearance tests cost
         # more, so they run on a few spots at a time, growing as the search goes on.
-        for f in fed:      # the hydrogen would stand in the angle its bond's pair goes into
-            # The options share a few dozen directions: each is measured once.
-            outside = {d: abs(cmath.phase(d / f)) >= _FED_ANGLE for d in set(directions)}
-            room &= np.array([outside[d] for d in directions])
-        for b in along:    # nor on a bond of the atom that holds it
-            outside = {d: abs(cmath.phase(d / b)) >= _ALONG_BOND for d in set(directions)}
-            room &= np.array([outside[d] for d in directions])
         order = room.nonzero()[0]   # (the methods, without np.flatnonzero's and np.argsort's wrappers)
         order = order[score[order].argsort(kind="stable")]
         start, size = 0, 8

@@ -216,12 +216,14 @@ class StructureDrawer:
         # Single bonds drawn so far, by everything their strokes depend on: consecutive panels
         # share most atoms, positions and labels, so most bonds come again unchanged.
         self._single_bonds: dict[tuple, BondDrawing] = {}
-        self._bare_labels: dict[Optional[tuple], AtomDrawing] = {}   # labels without hydrogens, likewise
+        self._multiple_bonds: dict[tuple, tuple[BondDrawing, float, Optional[complex]]] = {}   # and the rest
+        self._labels: dict[tuple, AtomDrawing] = {}   # labels, likewise
         self._vertices: dict[tuple, AtomDrawing] = {}   # and skeletal carbons
-        # Each atom's symbol, map number and own hydrogen count, read off RDKit once per scheme:
+        # Each atom's symbol, map number, own hydrogen count, mass number and name (None for an
+        # unmapped hydrogen, named after the atom that holds it), read off RDKit once per scheme:
         # they never change over a mechanism (atoms are only appended, a hydrogen that moves is
         # an atom of its own from the start), and each call into RDKit costs more than a lookup.
-        self._facts: dict[int, tuple[str, int, int]] = {}
+        self._facts: dict[int, tuple[str, int, int, int, Optional[str]]] = {}
 
     def draw(self, state: ElectronState, visible: tuple[int, ...], positions: dict[int, complex],
              drawn_hydrogens: frozenset[int], formed: set[tuple[int, int]] = frozenset(),
@@ -238,11 +240,14 @@ class StructureDrawer:
         # is the order RDKit lists an atom's neighbours in.
         facts = self._atom_facts(mol, visible)
         bonds, adjacent = [], [[] for _ in range(mol.GetNumAtoms())]
+        neighbours: dict[int, list[int]] = {i: [] for i in visible}   # the drawn ones, in RDKit's order too
         for i, j, order in listed_bonds if listed_bonds is not None else bond_list(mol):
             bonds.append((i, j, int(order)))
             adjacent[i].append(j)
             adjacent[j].append(i)
-        neighbours = {i: [n for n in adjacent[i] if n in shown] for i in visible}
+            if i in shown and j in shown:
+                neighbours[i].append(j)
+                neighbours[j].append(i)
         out = PanelStructure({}, [], [], dict(positions), {i: [] for i in visible})
         for i in visible:
             p = positions[i]
@@ -290,26 +295,27 @@ class StructureDrawer:
         return out
 
     # atoms and labels
-    def _atom_facts(self, mol: Chem.Mol, atoms: tuple[int, ...]) -> dict[int, tuple[str, int, int, int]]:
-        """Symbol, map number, own hydrogen count and mass number (0: natural) of each of
-        `atoms`, as RDKit reads them."""
+    def _atom_facts(self, mol: Chem.Mol, atoms: tuple[int, ...]) -> dict[int, tuple[str, int, int, int, Optional[str]]]:
+        """Symbol, map number, own hydrogen count, mass number (0: natural) and fixed name of each
+        of `atoms`, as RDKit reads them. A mapped atom, or an unmapped one other than a hydrogen,
+        is named as ElectronState.label names it (symbol and number, or symbol and position)."""
         facts = self._facts
         for i in atoms:
             if i not in facts:
                 atom = mol.GetAtomWithIdx(i)
-                facts[i] = (atom.GetSymbol(), atom.GetAtomMapNum(), atom.GetNumExplicitHs(), atom.GetIsotope())
+                symbol, number = atom.GetSymbol(), atom.GetAtomMapNum()
+                name = f"{symbol}{number}" if number else f"{symbol}(atom {i + 1})" if atom.GetAtomicNum() != 1 else None
+                facts[i] = (symbol, number, atom.GetNumExplicitHs(), atom.GetIsotope(), name)
         return facts
 
-    def _atom(self, state: ElectronState, facts: tuple[str, int, int, int], adjacent: list[list[int]], i: int,
-              positions: dict[int, complex], neighbours: list[int], drawn_hydrogens: frozenset[int],
+    def _atom(self, state: ElectronState, facts: tuple[str, int, int, int, Optional[str]], adjacent: list[list[int]],
+              i: int, positions: dict[int, complex], neighbours: list[int], drawn_hydrogens: frozenset[int],
               out: PanelStructure, ahead: list[complex] = ()) -> AtomDrawing:
         element = state.elements   # atomic numbers, without a call into RDKit per atom
         p = positions[i]
-        symbol, number, own_hydrogens, mass = facts
-        # A mapped atom, or an unmapped one other than a hydrogen, is named as ElectronState.label
-        # names it (symbol and number, or symbol and position) without asking RDKit for the atom
-        # again; a hydrogen, named after the atom that holds it, by the state.
-        name = f"{symbol}{number}" if number else f"{symbol}(atom {i + 1})" if element[i] != 1 else state.label(i)
+        symbol, number, own_hydrogens, mass, name = facts
+        if name is None:   # an unmapped hydrogen, named after the atom that holds it, by the state
+            name = state.label(i)
         point = (p.real, p.imag)
         # Skeletal carbons are vertices, charged and radical ones too (the sign or dot sits
         # beside the vertex); only a bare terminal carbon with electrons of its own and no
@@ -321,19 +327,12 @@ class StructureDrawer:
         bare_end = len(neighbours) == 1 and hidden_h == 0 and (state.formal_charge(i) or state.nonbonding[i])
         if element[i] == 6 and neighbours and not bare_end and not mass:
             return self._vertex(i, name, symbol, p)
-        # The symbol alone is fixed by where it stands: drawn there in an earlier panel, it is reused.
-        key = None if hidden_h else (i, name, symbol, p)
-        if key in self._bare_labels:
-            return self._bare_labels[key]
         fs, ss = self.style.font_size, self.style.small_size
-        baseline = p.imag + self.cap / 2
         shown = _ISOTOPE_SYMBOLS.get((symbol, mass), symbol)   # D and T (IUPAC); else the mass
         mass_text = str(mass) if mass and shown == symbol else ""   # number as a superscript
         w_symbol = self.face.width(shown, fs)
         w_mass = self.face.width(mass_text, ss) if mass_text else 0.0
-        runs = [TextRun(shown, p.real - w_symbol / 2, baseline, fs)]
-        if mass_text:
-            runs.insert(0, TextRun(mass_text, p.real - w_symbol / 2 - w_mass, baseline - 0.45 * fs, ss))
+        side = None
         if hidden_h:
             count = str(hidden_h) if hidden_h > 1 else ""
             w_h, w_n = self.face.width("H", fs), self.face.width(count, ss)
@@ -351,6 +350,18 @@ class StructureDrawer:
                      if b != i and b in positions and (b not in near or a < b)]
             side = self._hydrogen_side(element[i], out.occupied[i], crowd, walls, w_symbol / 2 + w_mass, w_h + w_n,
                                        [a for a in ahead if a])
+            out.occupied[i].append(complex(side) if side in (1, -1) else side)
+        # The label is fixed by where it stands (its atom's symbol and mass number with it), its
+        # hydrogens and the side they are written on: drawn so in an earlier panel, it is reused.
+        key = (i, name, symbol, p, hidden_h, side)
+        drawing = self._labels.get(key)
+        if drawing is not None:
+            return drawing
+        baseline = p.imag + self.cap / 2
+        runs = [TextRun(shown, p.real - w_symbol / 2, baseline, fs)]
+        if mass_text:
+            runs.insert(0, TextRun(mass_text, p.real - w_symbol / 2 - w_mass, baseline - 0.45 * fs, ss))
+        if hidden_h:
             sub_drop = 0.3 * fs
             if side == 1:
                 x = p.real + w_symbol / 2
@@ -368,10 +379,7 @@ class StructureDrawer:
                 runs.append(TextRun("H", x, line, fs))
                 if count:
                     runs.append(TextRun(count, x + w_h, line + sub_drop, ss))
-            out.occupied[i].append(complex(side) if side in (1, -1) else side)
-        drawing = AtomDrawing(i, name, symbol, point, tuple(runs), self._runs_box(runs))
-        if key is not None:
-            self._bare_labels[key] = drawing
+        drawing = self._labels[key] = AtomDrawing(i, name, symbol, point, tuple(runs), self._runs_box(runs))
         return drawing
 
     def _vertex(self, i: int, name: str, symbol: str, p: complex) -> AtomDrawing:
@@ -436,18 +444,33 @@ class StructureDrawer:
               neighbours: dict[int, list[int]], rings: list[list[int]]) -> BondDrawing:
         p, q = out.positions[i], out.positions[j]
         box_i, box_j = out.atoms[i].box, out.atoms[j].box
+        pair = (min(i, j), max(i, j))
         if order == 1:   # one centred stroke: its ends, labels and role fix it
             key = (i, j, role, p, q, box_i, box_j)
             drawing = self._single_bonds.get(key)
             if drawing is None:
-                drawing = self._single_bonds[key] = self._strokes(i, j, order, role, out, neighbours, rings)
-            out.bond_extent[(min(i, j), max(i, j))] = 0.0
+                drawing = self._single_bonds[key] = self._strokes(i, j, order, role, out, neighbours, 0)[0]
+            out.bond_extent[pair] = 0.0
             return drawing
-        return self._strokes(i, j, order, role, out, neighbours, rings)
+        # A double or triple bond's strokes depend as well on the side its second line takes and,
+        # at a bare vertex, on the bonds they meet there: with those, it is reused likewise.
+        side = self._double_side(i, j, out.positions, neighbours, rings) if order == 2 else 0
+        key = (i, j, order, role, p, q, box_i, box_j, side, tuple([(m, out.positions[m]) for m in neighbours[i]]),
+               tuple([(m, out.positions[m]) for m in neighbours[j]]))
+        known = self._multiple_bonds.get(key)
+        if known is None:
+            known = self._multiple_bonds[key] = self._strokes(i, j, order, role, out, neighbours, side)
+        drawing, extent, lean = known
+        if lean is not None:
+            out.bond_lean[pair] = lean
+        out.bond_extent[pair] = extent
+        return drawing
 
     def _strokes(self, i: int, j: int, order: int, role: str, out: PanelStructure,
-                 neighbours: dict[int, list[int]], rings: list[list[int]]) -> BondDrawing:
-        """The bond's strokes, clipped at labels, with the second or third line set beside the first."""
+                 neighbours: dict[int, list[int]], side: int) -> tuple[BondDrawing, float, Optional[complex]]:
+        """The bond's strokes, clipped at labels, with the second or third line set beside the
+        first (a double bond's on `side`, as _double_side chooses); how far they reach off the
+        bond's axis; and the offset of a one-sided double bond's second line (else None)."""
         bl = self.style.bond_length
         p, q = out.positions[i], out.positions[j]
         pad = 0.12 * self.style.font_size
@@ -465,13 +488,13 @@ class StructureDrawer:
                 q + offset - u * (trim or self._join(q, -u, offset, out.positions, neighbours[j], i))
             return start, end
 
+        lean = None
         if order == 2:
-            side = self._double_side(i, j, out.positions, neighbours, rings)
             if side == 0:
                 lines, extent = [line(n * gap / 2), line(-n * gap / 2)], gap / 2
             else:
                 lines, extent = [line(0), line(side * n * gap, trim=0.14 * bl)], gap
-                out.bond_lean[(min(i, j), max(i, j))] = side * n * gap
+                lean = side * n * gap
         elif order == 3:
             lines, extent = [line(0), line(n * gap * 0.8), line(-n * gap * 0.8)], gap * 0.8
         else:
@@ -481,8 +504,8 @@ class StructureDrawer:
             colour = FORMED_COLOUR
         elif self.style.color and role == "broken":
             colour = BROKEN_COLOUR
-        out.bond_extent[(min(i, j), max(i, j))] = extent
-        return BondDrawing((i, j), order, tuple([((s.real, s.imag), (e.real, e.imag)) for s, e in lines]), role, colour)
+        drawing = BondDrawing((i, j), order, tuple([((s.real, s.imag), (e.real, e.imag)) for s, e in lines]), role, colour)
+        return drawing, extent, lean
 
     def _wedges(self, state: ElectronState, adjacent: list[list[int]],
                 neighbours: dict[int, list[int]], out: PanelStructure, bonds: list[tuple[int, int, int]],

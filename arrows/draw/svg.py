@@ -18,6 +18,11 @@ def _n(v: float) -> str:
 
 
 def _pt(p) -> str:
+    # Both numbers in one formatting call, as _n writes them where neither ends in a zero (most
+    # points): a point is written some ten thousand times a figure.
+    text = "%.2f %.2f" % (p[0], p[1])
+    if text[-1] != "0" and "0 " not in text:
+        return text
     return f"{_n(p[0])} {_n(p[1])}"
 
 
