@@ -2160,10 +2160,11 @@ class _LayoutBuilder:
 
     def _set_by_products_beside_product(self) -> None:
         """The last panel reads as an equation: the product (`self.product`, else the largest
-        molecule), then each by-product of the last step in a row to its right, level with it (common practice: "product + MeO-"). Left where it
-        acted, a by-product would hang above or below the product, between the rows of the scheme
-        when the product starts a row. Every such by-product is one the last step made or changed
-        (an idle species is not drawn there), and each moves as a rigid body."""
+        molecule), then each by-product of the last step in a row to its right, level with it
+        (common practice: "product + MeO-"). Left where it acted, a by-product would hang above or
+        below the product, between the rows of the scheme when the product starts a row. Every
+        such by-product is one the last step made or changed (an idle species is not drawn
+        there), and each moves as a rigid body."""
         k = self.n - 1
         where = self.positions[k]
         drawn = {i for i in visible_atoms(self.states[k], self.drawn_h) if i in where and i in self.exists[k]}
