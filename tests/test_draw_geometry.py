@@ -750,6 +750,20 @@ def test_a_labelled_atom_is_drawn_with_its_label_in_every_panel():
         assert checked >= 4
 
 
+def test_a_four_centre_addition_stands_square_over_the_pi_bond():
+    """Hydroboration: BH3 adds B to one alkene carbon and its H to the other in one step, through
+    a four-membered ring (textbook four-centre transition state, common practice). Before the
+    step the borane waits square over the C=C (the C=C and the C-B approach at 90 +- 15 degrees),
+    its B-H bond alongside the pi bond. Before, it waited off the end of the C=C (at 120
+    degrees), and the two arrows swept round each other."""
+    trace, _, scene = _scene(TEXTBOOK["hydroboration"][0], "hydroboration")
+    index = {a.GetAtomMapNum(): a.GetIdx() for a in trace.initial.mol.GetAtoms() if a.GetAtomMapNum()}
+    where = {a.index: complex(*a.position) for a in scene.panels[0].atoms}
+    c1, c2, boron = where[index[1]], where[index[2]], where[index[3]]   # C1=C2, B3 bonds to C2
+    angle = abs(math.degrees(cmath.phase((boron - c2) / (c1 - c2))))
+    assert 75 <= angle <= 105, angle
+
+
 def test_joining_molecules_wait_apart_facing_each_other():
     """Two molecules about to bond are drawn with the bonding atoms 2-2.5 bond lengths apart
     (room for the curved arrow; common practice in organic chemistry texts), and the one that

@@ -1669,6 +1669,8 @@ class _LayoutBuilder:
             # as chemists draw a pinacol: each branch a bond length from its twin).
             u = free_direction(self.positions[k][anchor], [self.positions[k][n] for n in self.neighbours[anchor]
                                                            if n in self.positions[k] and self.element[n] != 1])
+        elif kind == "bond" and (across := self._four_centre_side(anchor, mover, k)) is not None:
+            u = across
         elif kind == "bond" and len(others := [self.positions[k][n] for n in self.neighbours[anchor]
                                                  if n in self.positions[k] and n != mover]) == 2 \
                 and self._shifts_off(anchor, mover, segment[1]):
@@ -1763,6 +1765,30 @@ class _LayoutBuilder:
         self._apply(index)
         if hydrogen is not None:
             self._promise(hydrogen, anchor, k, direction, leave_after=round_about is not None)
+
+    def _four_centre_side(self, anchor: int, mover: int, k: int) -> Optional[complex]:
+        """Panel k has the new bond between `anchor` and `mover`; if the step that made it also
+        moved a hydrogen from `mover` to X, the anchor's partner across the pi bond both used (a
+        hydroboration: B onto one alkene carbon, its H onto the other, through a four-membered
+        ring), the direction square to the anchor-X bond on the side with more room: the mover's
+        bond to that hydrogen then lies alongside the pi bond, as chemists draw the four-centre
+        addition. None for any other approach."""
+        bond = (min(anchor, mover), max(anchor, mover))
+        if k == 0 or bond in self.bonds_in[k - 1] or bond not in self.bonds_in[k]:
+            return None
+        here = self.positions[k]
+        if anchor not in here:
+            return None
+        for h, holder in self.holders[k - 1].items():
+            x = self.holders[k].get(h)
+            if holder != mover or x in (None, mover) or x not in here \
+                    or (min(anchor, x), max(anchor, x)) not in self.bonds_in[k - 1]:
+                continue
+            along = _unit(here[x] - here[anchor])
+            crowd = [p for a, p in here.items() if a not in (anchor, x, mover)]
+            return max((along * 1j, along * -1j),
+                       key=lambda d: min((abs(here[anchor] + APPROACH * d - p) for p in crowd), default=9.0))
+        return None
 
     def _shifts_off(self, anchor: int, mover: int, last: int) -> bool:
         """Whether the step after panel `last` moves `mover` from `anchor` to an atom bonded to
