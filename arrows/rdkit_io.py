@@ -184,6 +184,18 @@ def fragment(mol: Chem.Mol, atoms) -> Chem.Mol:
     return work.GetMol()
 
 
+# Hydrogen's isotopes have symbols of their own (IUPAC 2005, IR-3.3.2); any other labelled atom
+# is written with its mass number before the symbol (18O, 13C).
+HYDROGEN_ISOTOPES = {2: "D", 3: "T"}
+
+
+def nuclide(symbol: str, mass: int) -> str:
+    """An atom's symbol with its label: D or T, 18O; the plain symbol when unlabelled."""
+    if not mass:
+        return symbol
+    return HYDROGEN_ISOTOPES[mass] if symbol == "H" and mass in HYDROGEN_ISOTOPES else f"{mass}{symbol}"
+
+
 def formula(mol: Chem.Mol) -> str:
     """RDKit's molecular formula, isotope labels kept when there are any (C3H3D6O3-, CH3[18O]-:
     separateIsotopes with D and T for the hydrogens); the plain formula otherwise."""

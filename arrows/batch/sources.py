@@ -28,13 +28,18 @@ class NoSources(Exception):
     """The inputs name no mechanism file, or a path that does not exist."""
 
 
+def mech_files_below(folder: Path) -> list[Path]:
+    """The .mech files in `folder` and its subfolders, sorted by path (how a batch orders them)."""
+    return sorted(p for p in folder.rglob("*" + SUFFIX) if p.is_file())
+
+
 def find_sources(inputs: list[str]) -> list[Source]:
     found: list[Source] = []
     seen: set[Path] = set()
     for text in inputs:
         path = Path(text)
         if path.is_dir():
-            files = sorted(p for p in path.rglob("*" + SUFFIX) if p.is_file())
+            files = mech_files_below(path)
             if not files:
                 raise NoSources(f"{text}: no {SUFFIX} files in this folder")
             pairs = [(p, p.relative_to(path).as_posix()) for p in files]

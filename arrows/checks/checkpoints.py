@@ -12,7 +12,7 @@ from ..diagnostics import Diagnostic
 from ..electrons import ElectronState, atom_label, order_word
 from ..judgement.perception import RecentViews
 from ..model import Checkpoint
-from ..rdkit_io import atom_list, read_smiles, sanitize
+from ..rdkit_io import atom_list, nuclide, read_smiles, sanitize
 from ..trace import StepTrace
 from . import Check, Ending
 
@@ -215,12 +215,8 @@ def _order_text(order: int) -> str:
 
 
 def _nuclide(atom: Chem.Atom) -> str:
-    """The atom's symbol with its label: D and T for hydrogen's isotopes, else the mass number
-    before the symbol (18O); the plain symbol for an unlabelled atom (IUPAC 2005, IR-3.3)."""
-    mass, symbol = atom.GetIsotope(), atom.GetSymbol()
-    if not mass:
-        return symbol
-    return {("H", 2): "D", ("H", 3): "T"}.get((symbol, mass), f"{mass}{symbol}")
+    """The atom's symbol with its label (rdkit_io.nuclide: D, 18O)."""
+    return nuclide(atom.GetSymbol(), atom.GetIsotope())
 
 
 def _explain(frag: Fragment, closest: Fragment, state: ElectronState) -> tuple[list[str], Optional[str]]:

@@ -71,6 +71,7 @@ def _with_folders_opened(paths):
     `arrows collect` takes them); a folder with none stands as an AR100 diagnostic."""
     from pathlib import Path
 
+    from ..batch.sources import mech_files_below
     from ..diagnostics import Diagnostic
     from ..model import Location
 
@@ -79,7 +80,7 @@ def _with_folders_opened(paths):
         if not Path(path).is_dir():
             found = [path]
         else:
-            found = sorted(str(p) for p in Path(path).rglob("*.mech") if p.is_file())
+            found = [str(p) for p in mech_files_below(Path(path))]
             if not found:
                 out.append(Diagnostic("AR100", "cannot read file: a folder with no .mech file below it",
                                       Location(path, 1, 1), hint="a folder is checked by the .mech files in it "

@@ -91,6 +91,7 @@ class PanelAtoms:
 class Layout:
     panels: tuple[PanelAtoms, ...]
     drawn_hydrogens: frozenset[int]    # hydrogens drawn as atoms in every panel that has them
+    labelled_hydrogens: frozenset[int]   # of those, D and T: shown in every panel, moved or not
 
 
 class _UnionFind:
@@ -127,10 +128,10 @@ def _rdkit_depictor() -> Iterator[None]:
 
 
 def moving_hydrogens(states: Sequence[ElectronState], moves: Iterable[ResolvedMove]) -> frozenset[int]:
-    """Hydrogen atoms that some move names, and labelled ones (D, T): these are drawn; every
-    other hydrogen is implicit."""
+    """Hydrogen atoms that some move names: these are drawn, with the labelled ones
+    (labelled_hydrogens); every other hydrogen is implicit."""
     elements = max(states, key=lambda s: len(s.elements)).elements
-    out = set(labelled_hydrogens(states))
+    out = set()
     for move in moves:
         for i in move.source_atoms + move.sink_atoms:
             if i < len(elements) and elements[i] == 1:
@@ -517,7 +518,8 @@ class _LayoutBuilder:
         self.n = len(self.states)
         self.touched = [set(t) for t in touched] + [set()] * (self.n - len(touched))
         elements = max(self.states, key=lambda s: len(s.elements)).elements
-        self.drawn_h = moving_hydrogens(self.states, (m for ms in moves for m in ms))
+        self.labelled_h = labelled_hydrogens(self.states)
+        self.drawn_h = moving_hydrogens(self.states, (m for ms in moves for m in ms)) | self.labelled_h
         self.feeds = _bonds_fed_by_hydrogens(moves, elements)
         # Electron transfers (`.Na1 ~> :C1`): the donor waits beside the atom it gives to, as a
         # molecule about to bond does, though no bond ever joins the two.
@@ -612,7 +614,7 @@ class _LayoutBuilder:
         for k, state in enumerate(self.states):
             visible = tuple(i for i in visible_atoms(state, self.drawn_h) if i in self.positions[k])
             panels.append(PanelAtoms(state, visible, {i: self.positions[k][i] for i in visible}))
-        return Layout(tuple(panels), self.drawn_h)
+        return Layout(tuple(panels), self.drawn_h, self.labelled_h)
 
     def _open_rings(self) -> None:
         """A ring is drawn open until the step that closes it: only the chain end that closes

@@ -18,7 +18,7 @@ from ..electrons import ElectronState, ResolvedMove, bonds_after
 from ..rdkit_io import bond_list, formula as molecular_formula, fragment
 from ..trace import StepTrace, Trace
 from .curves import ArrowPlanner
-from .layout import compute_layout, labelled_hydrogens
+from .layout import Layout, compute_layout
 from .scene import Box, CurvedArrow, Mark, Panel, ReactionArrow, Scene, TextRun
 from .formula import MINUS, Piece, condition_pieces, formula_pieces
 from .structure import PanelStructure, StructureDrawer
@@ -210,13 +210,12 @@ class _SceneBuilder:
     def build(self) -> tuple[Scene, float]:
         product = product_atoms(self.trace)
         sources = _panel_sources(self.trace, product)
-        self.labelled_h = labelled_hydrogens([s.state for s in sources])
         states = [s.state for s in sources]
         moves = [list(s.leaving.change.moves) if s.leaving else [] for s in sources]
         touched = [set(s.leaving.change.touched_atoms) if s.leaving else set() for s in sources]
         bonds = _bond_lists(sources)   # for layout and structures
         layout = compute_layout(states, moves, touched, [s.hidden | s.idle for s in sources], bonds, product)
-        drawn = [self._structure(src, placed, layout.drawn_hydrogens, listed)
+        drawn = [self._structure(src, placed, layout, listed)
                  for src, placed, listed in zip(sources, layout.panels, bonds)]
         # The arrows of every panel are planned together (one batch of numpy work for the scheme).
         leaving = [k for k, src in enumerate(sources) if src.leaving is not None]
@@ -231,14 +230,17 @@ class _SceneBuilder:
             panels.append(self._placeholder(len(panels)))
         return self._compose(panels, specs)
 
-    def _structure(self, src: _PanelSource, placed, drawn_h: frozenset[int], bonds: list[tuple[int, int, float]]
+    def _structure(self, src: _PanelSource, placed, layout: Layout, bonds: list[tuple[int, int, float]]
                    ) -> tuple[tuple[int, ...], PanelStructure]:
         """The atoms drawn on a panel and their structure (labels, bonds, marks)."""
         bl = self.bl
         # A travelling hydrogen is drawn where it matters: on the panel whose arrows move it and
-        # on the panel just after; elsewhere it is implicit like every other hydrogen.
+        # on the panel just after; elsewhere it is implicit like every other hydrogen. A labelled
+        # one (D, T) is drawn wherever it is.
         nearby = [m for st in (src.leaving, src.arriving) if st is not None for m in st.change.moves]
-        shown_h = (frozenset(i for m in nearby for i in m.source_atoms + m.sink_atoms) | self.labelled_h) & drawn_h
+        drawn_h = layout.drawn_hydrogens
+        shown_h = (frozenset(i for m in nearby for i in m.source_atoms + m.sink_atoms)
+                   | layout.labelled_hydrogens) & drawn_h
         visible = tuple(i for i in placed.visible if i not in src.hidden and i not in src.idle
                         and (i not in drawn_h or i in shown_h))
         positions = {i: placed.positions[i] * bl for i in visible}

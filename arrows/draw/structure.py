@@ -20,16 +20,13 @@ from typing import Iterator, Optional
 from rdkit import Chem
 
 from ..electrons import ElectronState
-from ..rdkit_io import bond_list
+from ..rdkit_io import HYDROGEN_ISOTOPES, bond_list
 from .scene import AtomDrawing, BondDrawing, Box, Mark, TextRun
 from .styles import BROKEN_COLOUR, FORMED_COLOUR, INK, Style
 from .formula import MINUS
 from .text import FontFace
 from .wedges import HASHED, SOLID, choose_wedges, configured_centres
 
-# Hydrogen's isotopes have symbols of their own (IUPAC 2005, IR-3.3.2); other labelled atoms are
-# written with their mass number as a superscript before the symbol (13C, 18O).
-_ISOTOPE_SYMBOLS = {("H", 2): "D", ("H", 3): "T"}
 # Hydrogens of an isolated atom go before the symbol for these elements (H2O, HO-, H2S, HCl):
 # common practice in chemical formulas.
 _HYDROGEN_FIRST = {8, 9, 16, 17, 34, 35, 53}
@@ -328,8 +325,9 @@ class StructureDrawer:
         if element[i] == 6 and neighbours and not bare_end and not mass:
             return self._vertex(i, name, symbol, p)
         fs, ss = self.style.font_size, self.style.small_size
-        shown = _ISOTOPE_SYMBOLS.get((symbol, mass), symbol)   # D and T (IUPAC); else the mass
-        mass_text = str(mass) if mass and shown == symbol else ""   # number as a superscript
+        # D and T (rdkit_io.HYDROGEN_ISOTOPES); any other label as a superscript mass number.
+        shown = HYDROGEN_ISOTOPES.get(mass, symbol) if symbol == "H" else symbol
+        mass_text = str(mass) if mass and shown == symbol else ""
         w_symbol = self.face.width(shown, fs)
         w_mass = self.face.width(mass_text, ss) if mass_text else 0.0
         side = None
