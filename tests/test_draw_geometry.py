@@ -937,6 +937,23 @@ def test_a_reactant_waiting_for_a_later_step_sits_out_the_panels_between(name):
     assert checked   # at least one species waited through a panel
 
 
+def test_molecules_of_a_panel_stand_clear_of_each_other_in_the_appel_reaction():
+    """No two molecules of a panel run into each other (IUPAC 2008: atoms and labels do not
+    overlap). The Appel reaction (textbook account, common practice) passes bromine from CBr4 to
+    phosphorus and on to carbon: the bromide, released from phosphorus as the alkoxide takes its
+    place, was drawn exactly where that oxygen now stands (0.0 bond lengths), and the butanol
+    waiting out the first two steps stood 0.6 bond lengths from a bromine of CBr4. Each
+    molecule's atoms keep at least a bond length from every other molecule's."""
+    trace, _, scene = _scene(TEXTBOOK["appel"][0], "appel")
+    states = list(trace.states())
+    for panel in scene.panels:
+        piece = {a: n for n, frag in enumerate(Chem.GetMolFrags(states[panel.index].mol)) for a in frag}
+        for a, b in combinations(panel.atoms, 2):
+            if piece[a.index] != piece[b.index]:
+                gap = _distance(a.position, b.position) / scene.bond_length
+                assert gap >= 1.0, (panel.index, a.name, b.name, round(gap, 2))
+
+
 def test_ring_closing_at_a_chain_atom_is_drawn_open():
     """A ring that closes onto an atom inside the chain (octane-2,7-dione, C3 onto the ketone
     carbon C7) is drawn as an open chain before the closing step, the closing atoms 1.5-2.6

@@ -35,7 +35,8 @@ through a five-membered ring (Cope elimination), a thionium ion (Pummerer), a hy
 passes through the aldehyde, a five-coordinate silicate (Peterson), and a heteroarene whose
 nitrogen lone pair pushes through the ring (bromination of pyrrole at C2), and a chlorosulfite
 that falls apart to SO2 (an acid chloride from thionyl chloride); and electrons handed over by a
-metal with no bond made (Birch reduction).
+metal with no bond made (Birch reduction); a phosphonium that trades its bromide for an alkoxide, the
+bromide waiting off phosphorus before it displaces the oxygen at carbon (Appel).
 
 Each entry: (mechanism text, textbook product SMILES, drawn): `drawn` says whether the geometry
 tests draw it. All do but five. (Fixed in the layout and the tests since: the Dieckmann
@@ -2099,6 +2100,33 @@ end
 product "Brc1ccc[nH]1.Br"
 '''
 
+# Appel reaction: triphenylphosphine takes a bromine from CBr4 (a bromophosphonium and the
+# tribromomethanide), the carbanion takes the alcohol's proton (bromoform), the alkoxide displaces
+# bromide at phosphorus (an alkoxyphosphonium), and bromide displaces the phosphine oxide at carbon
+# (SN2): 1-bromobutane, Ph3P+-O- (the oxide written as its ylide form) and CHBr3.
+APPEL = '''\
+species phosphine = "c1ccc(cc1)[P:1](c1ccccc1)c1ccccc1"
+species tetrabromomethane = "[Br:2][C:3]([Br:4])([Br:5])[Br:6]"
+species butanol = "CCC[CH2:7][OH:8]"
+step "phosphine takes bromine"
+    :P1 -> Br2
+    C3-Br2 -> C3
+end
+step "alkoxide"
+    :C3 -> H(O8)
+    O8-H -> O8
+end
+step "alkoxyphosphonium"
+    :O8 -> P1
+    P1-Br2 -> Br2
+end
+step "bromide displaces the oxide"
+    :Br2 -> C7
+    C7-O8 -> O8
+end
+product "CCCCBr"
+'''
+
 # Acid chloride from acetic acid and thionyl chloride: the acid oxygen attacks sulfur, chloride
 # leaves (an acyl chlorosulfite, protonated), chloride takes the proton, chloride adds to the
 # carbonyl carbon, and the tetrahedral intermediate expels SO2 and chloride (acetyl chloride).
@@ -2255,5 +2283,6 @@ TEXTBOOK = {
     "ester reduction": (ESTER_REDUCTION, "OCc1ccccc1", True),
     "peterson": (PETERSON, "C=C(C)C.C[Si](C)(C)[O-]", True),
     "pyrrole bromination": (PYRROLE_BROMINATION, "Brc1ccc[nH]1.Br", True),
+    "appel": (APPEL, "CCCCBr.[O-][P+](c1ccccc1)(c1ccccc1)c1ccccc1.BrC(Br)Br", True),
     "thionyl chloride": (THIONYL_CHLORIDE, "CC(=O)Cl.O=S=O", False),   # a bond 1.47 long; the chlorosulfite moves out of shape
 }

@@ -49,6 +49,7 @@ CYCLOADDITION_GAP = 1.8
 # other, so the curved arrow between them has room to bend.
 APPROACH = 2.2
 _CLEARANCE = 1.2     # nearest approach allowed between atoms of separately placed clusters
+_CROWDED = 0.8       # atoms of two clusters nearer than this read as one jumble (labels overlap)
 _HYDROGEN_ROOM = 0.85   # nearest approach of any other atom to a travelling hydrogen
 _FED_ANGLE = math.radians(80)   # least angle between a C-H and the bond its pair goes into
 _WAITING_CLEARANCE = 1.5   # a molecule waiting its turn keeps further clear of the arrows at work
@@ -2060,21 +2061,27 @@ class _LayoutBuilder:
         local = [rotation * p for p in depicted.values()] + satellites
         polygons = [[self.positions[k][a] for a in ring] for k in range(segment[0], segment[1] + 1)
                     for ring in self._closed_rings(k)]
-        # Every spot tried, and its nearest approach to what is already there, in one batch.
-        tries = [(pull, side) for pull in (pull_back, 1.0, 1.5, 2.0, 2.5, 3.0) for side in (0.0, 0.6, -0.6, 1.2, -1.2)]
-        shifts = np.array([shift + direction * pull + direction * 1j * side for pull, side in tries], dtype=complex)
-        placed = shifts[:, None] + np.array(local, dtype=complex)                  # (tries, atoms)
-        gaps = (np.abs(placed[:, :, None] - np.array(others, dtype=complex)).min(axis=(1, 2)).tolist() if others
-                else [9.0] * len(tries))
+        # Every spot tried, and its nearest approach to what is already there, in one batch; the
+        # wider ring of spots only when none near its line of approach is clear (a spectator
+        # waiting out the early steps where another reagent already stands).
         best = None
-        for (pull, side), moved, atoms, gap in zip(tries, shifts.tolist(), placed.tolist(), gaps):
-            if any(_inside(a, poly) for a in atoms for poly in polygons):
-                gap = 0.0
-            # Clear of everything first; then a little more room against a longer wait.
-            score = (min(gap, _CLEARANCE),
-                     min(gap, _WAITING_CLEARANCE) - 0.3 * abs(pull - pull_back) - 0.3 * abs(side))
-            if best is None or score > best[0]:
-                best = (score, moved)
+        for pulls, sides in (((pull_back, 1.0, 1.5, 2.0, 2.5, 3.0), (0.0, 0.6, -0.6, 1.2, -1.2)),
+                             ((3.5, 4.0, 4.5, 5.0), (0.0, 0.6, -0.6, 1.2, -1.2, 1.8, -1.8, 2.4, -2.4))):
+            tries = [(pull, side) for pull in pulls for side in sides]
+            shifts = np.array([shift + direction * pull + direction * 1j * side for pull, side in tries], dtype=complex)
+            placed = shifts[:, None] + np.array(local, dtype=complex)                  # (tries, atoms)
+            gaps = (np.abs(placed[:, :, None] - np.array(others, dtype=complex)).min(axis=(1, 2)).tolist() if others
+                    else [9.0] * len(tries))
+            for (pull, side), moved, atoms, gap in zip(tries, shifts.tolist(), placed.tolist(), gaps):
+                if any(_inside(a, poly) for a in atoms for poly in polygons):
+                    gap = 0.0
+                # Clear of everything first; then a little more room against a longer wait.
+                score = (min(gap, _CLEARANCE),
+                         min(gap, _WAITING_CLEARANCE) - 0.3 * abs(pull - pull_back) - 0.3 * abs(side))
+                if best is None or score > best[0]:
+                    best = (score, moved)
+            if best[0][0] >= _CLEARANCE:
+                break
         return (rotation, best[1], direction, pull_back)
 
     def _backside_arrival(self, cluster: _Cluster, first: int, placement: tuple) -> tuple:
@@ -2120,6 +2127,26 @@ class _LayoutBuilder:
             return True
         return False
 
+    @staticmethod
+    def _bonds_on_arrival(cluster: _Cluster, start: int) -> bool:
+        """Whether the run from panel `start` is placed by a bond it makes there (a bond's
+        placement waits back along its line of approach; a hop's does not; a wait is no bond)."""
+        placement = cluster.placement.get(start)
+        return placement is not None and placement[2] is not None and placement[3] > 0 and start not in cluster.waited
+
+    def _nearest_other(self, index: int, segment: tuple[int, int], placement: Optional[tuple]) -> float:
+        """The nearest approach of the cluster, placed so over `segment`, to any atom of another
+        cluster placed there (infinite when nothing else is there or no placement is given)."""
+        if placement is None:
+            return math.inf
+        rotation, shift = placement[:2]
+        cluster = self.clusters[index]
+        mine = set(cluster.atoms)
+        local = np.array([shift + rotation * p for p in cluster.local_at(segment[0]).values()], dtype=complex)
+        others = np.array([p for k in range(segment[0], segment[1] + 1) for a, p in self.positions[k].items()
+                           if a not in mine], dtype=complex)
+        return float(np.abs(local[:, None] - others[None, :]).min()) if len(others) and len(local) else math.inf
+
     def _split_off(self, index: int, segment: tuple[int, int], previous: Optional[tuple]) -> Optional[tuple]:
         """Where a cluster stays after it has acted: where it was, or, when the step before the
         segment split its bond evenly (a homolysis: it now carries the unpaired electron) or
@@ -2158,16 +2185,25 @@ class _LayoutBuilder:
     def _place_leftovers(self) -> bool:
         """Runs of panels no event placed after a cluster has acted: it stays where it last
         acted, next to the atoms it acted on, until an event places it again. A cluster that
-        never meets another goes to the right of the drawing."""
-        for index, cluster in enumerate(self.clusters):
-            if not cluster.placement or len(cluster.placement) == len(cluster.segments):
-                continue
+        never meets another goes to the right of the drawing. The largest such cluster first: a
+        small one (an ion) is then placed by its bonds to it, not left where it was."""
+        partial = [k for k, c in enumerate(self.clusters) if c.placement and len(c.placement) < len(c.segments)]
+        for index in sorted(partial, key=lambda k: (-len(self.clusters[k].atoms), self.clusters[k].atoms[0]))[:1]:
+            cluster = self.clusters[index]
             previous = cluster.placement[min(cluster.placement)]    # before its first event: where it waits
-            for start, end in cluster.segments:
+            for (start, end), following in zip(cluster.segments, cluster.segments[1:] + [None]):
                 if start in cluster.placement:
                     previous = cluster.placement[start]
                 else:
-                    cluster.placement[start] = self._split_off(index, (start, end), previous)
+                    stay = self._split_off(index, (start, end), previous)
+                    if following is not None and following[0] == end + 1 and self._bonds_on_arrival(cluster, following[0]) and \
+                            self._nearest_other(index, (start, end), stay) < _CROWDED:
+                        # Between two acts and about to bond again, where something else now
+                        # stands where it was (the bromide of an Appel reaction, off phosphorus
+                        # as the oxygen takes its place): it waits facing its next partner.
+                        arrival = self._backside_arrival(cluster, following[0], cluster.placement[following[0]])
+                        stay = self._waiting(index, (start, end), arrival, following[0])
+                    cluster.placement[start] = stay
             self._apply(index)
             return True
         unplaced = [k for k, c in enumerate(self.clusters) if not c.placement and c.segments]   # (drawn somewhere)
