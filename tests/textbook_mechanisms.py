@@ -36,7 +36,8 @@ passes through the aldehyde, a five-coordinate silicate (Peterson), and a hetero
 nitrogen lone pair pushes through the ring (bromination of pyrrole at C2), and a chlorosulfite
 that falls apart to SO2 (an acid chloride from thionyl chloride); and electrons handed over by a
 metal with no bond made (Birch reduction); a phosphonium that trades its bromide for an alkoxide, the
-bromide waiting off phosphorus before it displaces the oxygen at carbon (Appel).
+bromide waiting off phosphorus before it displaces the oxygen at carbon (Appel); an azo initiator
+that falls apart into two tertiary radicals and N2, every bond split evenly (AIBN).
 
 Each entry: (mechanism text, textbook product SMILES, drawn): `drawn` says whether the geometry
 tests draw it. All do but five. (Fixed in the layout and the tests since: the Dieckmann
@@ -2127,6 +2128,20 @@ end
 product "CCCCBr"
 '''
 
+# Thermal decomposition of AIBN (azobisisobutyronitrile), the common radical initiator: both C-N
+# bonds split evenly, their inner electrons pairing up into the new N-N pi bonds of N2, leaving two
+# 2-cyano-2-propyl radicals.
+AIBN = '''\
+species initiator = "N#C[C:1](C)(C)[N:2]=[N:3][C:4](C)(C)C#N"
+step "homolysis" under "heat"
+    C1-N2 ~> C1
+    C1-N2 ~> N2#N3
+    C4-N3 ~> C4
+    C4-N3 ~> N2#N3
+end
+product "C[C](C)C#N"
+'''
+
 # Acid chloride from acetic acid and thionyl chloride: the acid oxygen attacks sulfur, chloride
 # leaves (an acyl chlorosulfite, protonated), chloride takes the proton, chloride adds to the
 # carbonyl carbon, and the tetrahedral intermediate expels SO2 and chloride (acetyl chloride).
@@ -2284,5 +2299,6 @@ TEXTBOOK = {
     "peterson": (PETERSON, "C=C(C)C.C[Si](C)(C)[O-]", True),
     "pyrrole bromination": (PYRROLE_BROMINATION, "Brc1ccc[nH]1.Br", True),
     "appel": (APPEL, "CCCCBr.[O-][P+](c1ccccc1)(c1ccccc1)c1ccccc1.BrC(Br)Br", True),
+    "aibn": (AIBN, "C[C](C)C#N.C[C](C)C#N.N#N", True),
     "thionyl chloride": (THIONYL_CHLORIDE, "CC(=O)Cl.O=S=O", False),   # a bond 1.47 long; the chlorosulfite moves out of shape
 }

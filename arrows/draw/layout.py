@@ -448,11 +448,21 @@ class _Placements:
                 target_array[:, None] + self.local[None, :] * rotation_array[:, None])
 
     def gaps(self, moved: np.ndarray, targets: np.ndarray, directions: list[complex]) -> list[float]:
-        """Each placement's nearest approach to the atoms around (rows of `moved`)."""
+        """Each placement's nearest approach to the atoms around (rows of `moved`); for a bond,
+        the anchor included for the cluster's atoms other than the mover: one of them on the anchor (a
+        methyl of a tert-alkyl radical turned onto the nitrogen it bonds to) is no placement.
+        Beside the mover's bond, a neighbour a bond length from the anchor (a fourth bond
+        squeezed between two at 120 degrees) is tight but clear; only one nearer than _CROWDED
+        counts against the placement."""
+        others = self.local != 0
+        if self.distance == 1.0 and others.any():   # a bond (a hop's partner waits further out)
+            beside = np.minimum.reduce(np.abs(moved[:, others] - self.anchor_at), axis=1) + _CLEARANCE - _CROWDED
+        else:
+            beside = np.full(len(moved), 9.0)
         if not len(self.near):
-            return [9.0] * len(moved)
+            return np.minimum(beside, 9.0).tolist()
         # numpy's ufuncs called directly (minimum.reduce is .min): the wrappers cost more than these few numbers
-        gaps = np.minimum.reduce(np.abs(moved[:, :, None] - self.near), axis=(1, 2))
+        gaps = np.minimum(np.minimum.reduce(np.abs(moved[:, :, None] - self.near), axis=(1, 2)), beside)
         if self.carries_hydrogen:
             # The hydrogen it brings needs room too, though less than a whole molecule.
             brought = np.abs((targets - np.array(directions, dtype=complex))[:, None] - self.near)

@@ -10,6 +10,7 @@ from dataclasses import dataclass, field, replace
 from functools import lru_cache
 from typing import Optional, Sequence
 
+import numpy as np
 from rdkit import Chem
 from rdkit.Chem.rdMolDescriptors import CalcMolFormula
 
@@ -160,7 +161,7 @@ def build_scene(trace: Trace, style: Style, diagnostics: Sequence[Diagnostic] = 
     """Lay out the whole scheme. Shrinks it (and says so in `notes`) if one panel is wider than
     the page, or the slide is too tall."""
     scene, fit = _SceneBuilder(trace, style, diagnostics).build()
-    uneven = _uneven_bonds(scene)
+    uneven = _uneven_bonds(scene) + _crowded_atoms(scene)
     if fit < 0.999:
         smaller = style.scaled(fit * 0.995)
         scene, _ = _SceneBuilder(trace, smaller, diagnostics, style).build()
@@ -190,6 +191,29 @@ def _uneven_bonds(scene: Scene) -> tuple[str, ...]:
         if worst is not None:
             notes.append(f"panel {panel.index + 1}: the bond {worst[1]}-{worst[2]} is drawn {worst[0]:.2f} bond lengths "
                          f"long: the layout could not keep one bond length here; check the figure")
+    return tuple(notes)
+
+
+def _crowded_atoms(scene: Scene) -> tuple[str, ...]:
+    """A note for each panel where two atom labels overlap or two atoms stand nearer than half a
+    bond length (IUPAC 2008: atoms and labels never overlap), so that the author looks before
+    using the figure. The geometry tests hold the gallery and the textbook schemes to this; it is
+    the safety net for arrangements of molecules the layout has not met."""
+    notes = []
+    for panel in scene.panels:
+        atoms = panel.atoms
+        where = np.array([complex(*a.position) for a in atoms])
+        apart = np.abs(where[:, None] - where[None, :]) / scene.bond_length
+        np.fill_diagonal(apart, np.inf)
+        i, j = np.unravel_index(int(np.argmin(apart)), apart.shape) if len(atoms) > 1 else (0, 0)
+        labelled = [a for a in atoms if a.box is not None]
+        clash = next(((a, b) for n, a in enumerate(labelled) for b in labelled[n + 1:] if a.box.overlaps(b.box)), None)
+        if clash is not None:
+            notes.append(f"panel {panel.index + 1}: the labels of {clash[0].name} and {clash[1].name} overlap: "
+                         f"the layout found no clear place for them; check the figure")
+        elif len(atoms) > 1 and apart[i, j] < 0.5:
+            notes.append(f"panel {panel.index + 1}: {atoms[i].name} and {atoms[j].name} are drawn {apart[i, j]:.2f} "
+                         f"bond lengths apart: the layout found no clear place for them; check the figure")
     return tuple(notes)
 
 
