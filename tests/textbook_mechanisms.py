@@ -37,7 +37,8 @@ nitrogen lone pair pushes through the ring (bromination of pyrrole at C2), and a
 that falls apart to SO2 (an acid chloride from thionyl chloride); and electrons handed over by a
 metal with no bond made (Birch reduction); a phosphonium that trades its bromide for an alkoxide, the
 bromide waiting off phosphorus before it displaces the oxygen at carbon (Appel); an azo initiator
-that falls apart into two tertiary radicals and N2, every bond split evenly (AIBN).
+that falls apart into two tertiary radicals and N2, every bond split evenly (AIBN); an amine
+acetylated by an anhydride, a third species (pyridine) taking the proton once acetate has left.
 
 Each entry: (mechanism text, textbook product SMILES, drawn): `drawn` says whether the geometry
 tests draw it. All do but five. (Fixed in the layout and the tests since: the Dieckmann
@@ -2142,6 +2143,29 @@ end
 product "C[C](C)C#N"
 '''
 
+# N-Acetylation of ethylamine by acetic anhydride with pyridine as the base: the amine adds to a
+# carbonyl carbon (a zwitterionic tetrahedral intermediate), the intermediate collapses and expels
+# acetate, and pyridine takes the proton from the acylammonium ion (N-ethylacetamide, acetate and
+# pyridinium).
+ACETYLATION = '''\
+species amine = "CC[NH2:1]"
+species anhydride = "C[C:2](=[O:3])[O:4][C:5](C)=O"
+species pyridine = "c1cc[n:6]cc1"
+step "addition"
+    :N1 -> C2
+    C2=O3 -> O3
+end
+step "collapse"
+    :O3 -> C2=O3
+    C2-O4 -> O4
+end
+step "deprotonation"
+    :N6 -> H(N1)
+    N1-H -> N1
+end
+product "CCNC(C)=O"
+'''
+
 # Acid chloride from acetic acid and thionyl chloride: the acid oxygen attacks sulfur, chloride
 # leaves (an acyl chlorosulfite, protonated), chloride takes the proton, chloride adds to the
 # carbonyl carbon, and the tetrahedral intermediate expels SO2 and chloride (acetyl chloride).
@@ -2300,5 +2324,6 @@ TEXTBOOK = {
     "pyrrole bromination": (PYRROLE_BROMINATION, "Brc1ccc[nH]1.Br", True),
     "appel": (APPEL, "CCCCBr.[O-][P+](c1ccccc1)(c1ccccc1)c1ccccc1.BrC(Br)Br", True),
     "aibn": (AIBN, "C[C](C)C#N.C[C](C)C#N.N#N", True),
+    "amine acetylation": (ACETYLATION, "CCNC(C)=O.CC(=O)[O-].c1cc[nH+]cc1", True),
     "thionyl chloride": (THIONYL_CHLORIDE, "CC(=O)Cl.O=S=O", False),   # a bond 1.47 long; the chlorosulfite moves out of shape
 }

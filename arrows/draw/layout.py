@@ -68,6 +68,9 @@ _BOND_OPTIONS = sorted((abs(t) + abs(s) * 0.7, t, s, 0.0) for t in (0, 1, -1, 2,
 _HOP_OPTIONS = sorted((abs(t) + abs(s) * 0.7 + 8 * e, t, s, e) for t in (0, 1, -1, 2, -2, 3, -3)
                       for s in (0, 1, -1, 2, -2, 6) for e in (0.0, 0.5, 1.0))
 
+# A molecule about to bond that finds every spot near its preferred side crowded looks all round
+# its anchor (turns of 20 degrees, the same spins).
+_ROUND_BOND_OPTIONS = sorted((abs(t) + abs(s) * 0.7, t, s, 0.0) for t in range(-9, 10) for s in (0, 1, -1, 2, -2, 6))
 # A partner that hops twice while it stands still looks further round its anchor for a spot near both.
 # (Turns in steps of 10 degrees here, distances in quarter bond lengths.)
 _PARTNER_OPTIONS = sorted((abs(t) + abs(s) * 0.7 + e, t, s, e) for t in np.arange(-5.0, 5.5, 0.5)
@@ -1756,6 +1759,10 @@ class _LayoutBuilder:
             best = ((min(gap, _CLEARANCE), not blocked), rotation, target - depicted[mover] * rotation, direction)
             if gap >= _CLEARANCE and not blocked:
                 break
+        if kind == "bond" and best is not None and best[0][0] < _CROWDED:
+            roomier = self._bond_round_about(placements, polygons)
+            if roomier is not None and roomier[0][0] > best[0][0] + 0.2:
+                best = roomier
         if len(walls) and (best is None or best[0] != (_CLEARANCE, True)):
             round_about = self._clear_way_round(cluster, mover, hydrogen, segment, placements, polygons)
             best = round_about or best
@@ -1927,6 +1934,23 @@ class _LayoutBuilder:
                     and not any(_inside(complex(p), poly) for p in moved for poly in polygons)):
                 return (_CLEARANCE, True), rotation, target - placements.mover_at * rotation, direction
         return None
+
+    @staticmethod
+    def _bond_round_about(placements: _Placements, polygons: list[list[complex]]) -> Optional[tuple]:
+        """The first placement all round the anchor that keeps clear of everything (else the
+        roomiest), for a molecule about to bond that found every spot near its preferred side
+        crowded (an amine coming in on an anhydride's carbonyl, whose acetate arm fills that
+        side)."""
+        round_about = placements.like(_ROUND_BOND_OPTIONS)
+        round_about.batch = 64
+        best = None
+        for gap, _, moved, direction, rotation, target in round_about:
+            if (best is None or min(gap, _CLEARANCE) > best[0][0]) \
+                    and not any(_inside(complex(p), poly) for p in moved for poly in polygons):
+                best = (min(gap, _CLEARANCE), True), rotation, target - placements.mover_at * rotation, direction
+                if gap >= _CLEARANCE:
+                    break
+        return best
 
     def _promised_spots(self, hydrogen: Optional[int], skip: set[int], panels: Iterable[int]) -> list[complex]:
         """Where the travelling hydrogens other than `hydrogen` whose directions are already
