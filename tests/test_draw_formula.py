@@ -37,6 +37,19 @@ def test_plain_words_stay_as_written(text):
     assert condition_pieces(text) == [(text, "n")]
 
 
+@pytest.mark.parametrize("text,shown", [
+    ("THF, -78 °C", f"THF, {MINUS}78 °C"),
+    ("(-10 °C)", f"({MINUS}10 °C)"),
+    ("pH 1-2", "pH 1-2"),
+    ("MeOH-THF, 0 °C", "MeOH-THF, 0 °C"),
+])
+def test_a_negative_number_gets_a_minus_sign(text, shown):
+    """A hyphen before a number is set as a minus sign (−78 °C), as typesetters set negative
+    temperatures (common practice; IUPAC Green Book and journal style guides, memory); a hyphen
+    between words or numbers stays a hyphen."""
+    assert "".join(p for p, _ in condition_pieces(text)) == shown
+
+
 def test_every_character_is_kept():
     for text in ["H3O+ (cat.)", "Et3N, CH2Cl2, 0 °C", "  H2O  "]:
         assert "".join(p for p, _ in condition_pieces(text)).replace(MINUS, "-") == text

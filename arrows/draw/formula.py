@@ -36,11 +36,16 @@ def formula_pieces(formula: str) -> list[Piece]:
     return pieces
 
 
+_NEGATIVE_NUMBER = re.compile(r"^([(\[]?)-(?=\d)")
+
+
 def condition_pieces(text: str) -> list[Piece]:
     """A line of condition text with every formula-like word typeset; spaces and other words
     kept as they are."""
     pieces: list[Piece] = []
     for word in re.split(r"(\s+)", text):
+        # A hyphen before a number is a minus sign (-78 °C set as −78 °C, as typesetters do).
+        word = _NEGATIVE_NUMBER.sub(rf"\1{MINUS}", word)
         if word:
             for piece in _word_pieces(word):
                 _append(pieces, piece)
