@@ -154,7 +154,8 @@ CODES = _table(
          'C3-O4 -> C3   # the C-O pair stays on carbon: C3 ends at -2 and O4 at +2'),
     Code("AR504", WARNING, "expanded octet",
          "A step takes a third-row or heavier atom above eight valence electrons, or further above "
-         "(a shell a step only keeps, as a sulfonyl S that swaps one bond for another, is not flagged).",
+         "(a shell a step only keeps, as a sulfonyl S that swaps one bond for another, is not flagged); "
+         "a d-block metal of groups 3-11 above eighteen (the 18-electron rule).",
          'C4=O5 -> O5-P2   # the oxaphosphetane of a Wittig reaction: P2 with five bonds (fine for P)'),
     Code("AR506", WARNING, "step with no moves",
          "A step names no electron moves.",

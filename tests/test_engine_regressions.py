@@ -96,3 +96,32 @@ end
     _, diags = check_text(text)
     octet = [d for d in diags if d.code == "AR504"]
     assert len(octet) == 1 and "hypervalent Si" in octet[0].hint and "P, S or I" not in octet[0].hint
+
+
+def test_a_transition_metal_is_held_to_eighteen_electrons_not_eight():
+    """The 18-electron rule (common practice in organometallic chemistry, e.g. Hartwig,
+    Organotransition Metal Chemistry, 2010; memory): a d-block metal's valence shell holds
+    eighteen electrons. Palladium(0) inserting into the C-Br bond of bromobenzene ends with twelve
+    (d8 with two bonds, sixteen once its two phosphines are counted) and was warned of as an
+    'expanded octet'; a fifth CO onto nickel tetracarbonyl (18 electrons) makes twenty and is."""
+    addition = '''
+species pd = "[Pd:1]"
+species arene = "c1ccc[c:3](c1)[Br:2]"
+step "oxidative addition"
+    :Pd1 -> C3
+    C3-Br2 -> Pd1-Br2
+end
+product "Br[Pd]c1ccccc1"
+'''
+    _, diags = check_text(addition)
+    assert [d.code for d in diags if d.severity != "note"] == []
+    crowded = '''
+species nickel = "[Ni:1](=C=O)(=C=O)(=C=O)=C=O"
+species carbonyl = "[C-:2]#[O+]"
+step "association"
+    :C2 -> Ni1
+end
+'''
+    _, diags = check_text(crowded)
+    shell = [d for d in diags if d.code == "AR504"]
+    assert len(shell) == 1 and "20 valence electrons" in shell[0].message and "18-electron" in shell[0].message

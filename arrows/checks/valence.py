@@ -16,6 +16,20 @@ _HYPERVALENT = {14: "Si", 15: "P", 16: "S", 17: "Cl", 33: "As", 34: "Se", 35: "B
                 52: "Te", 53: "I", 54: "Xe"}
 
 
+# The d-block metals of groups 3-11, whose valence shell holds eighteen electrons (the 18-electron
+# rule, common practice in organometallic chemistry; RDKit counts their group number of outer
+# electrons, the neutral-ligand count): Pd(PPh3)2 holds 14, Pd(Ar)(Br)(PPh3)2 16. Group 12 (Zn, Cd,
+# Hg) keeps its full d shell out of RDKit's count and never nears either limit.
+_TRANSITION_METALS = frozenset(range(21, 30)) | frozenset(range(39, 48)) | {57} | frozenset(range(72, 80)) \
+    | {89} | frozenset(range(104, 112))
+
+
+def shell_limit(atomic_num: int) -> int:
+    """The valence electrons an atom holds before AR504 asks for a second look: 18 for a d-block
+    metal of groups 3-11, 8 otherwise."""
+    return 18 if atomic_num in _TRANSITION_METALS else 8
+
+
 class UnusualElectronCounts(Check):
     name = "unusual electron counts"
     codes = ("AR503", "AR504")
@@ -35,9 +49,17 @@ class UnusualElectronCounts(Check):
         for i, shell in st.change.shells.items():
             # Only a step that expands the shell: a sulfonyl S substituted (an alcohol onto MsCl)
             # keeps the twelve electrons its species was written with.
-            if shell > 8 and after.elements[i] > 10 and shell > before.nonbonding[i] + 2 * before.bond_sums[i]:
+            element = after.elements[i]
+            limit = shell_limit(element)
+            if shell > limit and element > 10 and shell > before.nonbonding[i] + 2 * before.bond_sums[i]:
                 label = after.label(i)
-                symbol = _HYPERVALENT.get(after.elements[i])
+                if limit == 18:
+                    yield Diagnostic("AR504", f"{label} holds {shell} valence electrons (more than the 18 of "
+                                     "the 18-electron rule)", st.step.loc,
+                                     hint="a ligand should leave the metal in the same step", atoms=(label,),
+                                     step=st.index)
+                    continue
+                symbol = _HYPERVALENT.get(element)
                 hint = (f"fine for hypervalent {symbol} (common practice); otherwise a bond should break"
                         if symbol else "rare for this element: a bond to it should break in the same step")
                 yield Diagnostic("AR504", f"{label} holds {shell} valence electrons (expanded octet)", st.step.loc,
