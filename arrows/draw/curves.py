@@ -349,7 +349,15 @@ class ArrowPlanner:
             # A label close by (a hydrogen on the next atom) leaves no room for the arc either.
             labels = [_unit(p - centre) for i, p in panel.positions.items() if i != atom and i in panel.atoms
                       and panel.atoms[i].box is not None and 1e-9 < abs(p - centre) < _TAIL_REACH * self.bl]
-            ranked = _beside_bond(panel.occupied[atom] + labels, toward, near)
+            occupied = list(panel.occupied[atom])
+            sign = next((m for m in panel.marks if m.kind == "charge" and m.atom == atom and m.box is not None), None)
+            if sign is not None and panel.atoms[atom].box is None and occupied:
+                # Beside a skeletal vertex the sign was set before the arrows: the dots may take
+                # its gap (the arc over to the bond needs the widest), and the sign moves on
+                # (_clear_marks) if it finds a place clear of the bonds.
+                middle = complex((sign.box.x0 + sign.box.x1) / 2, (sign.box.y0 + sign.box.y1) / 2)
+                occupied.remove(min(occupied, key=lambda d: abs(d - _unit(middle - centre))))
+            ranked = _beside_bond(occupied + labels, toward, near)
         else:
             steps = 8 if panel.atoms[atom].box is not None else 24
             ranked = ranked_directions(panel.occupied[atom], toward, spread=0.35, steps=steps)
@@ -399,14 +407,13 @@ class ArrowPlanner:
         along the directions `taken` round the atom) and of the points of `path` (an arrow's
         shaft), moving it where it is not: a little further out along its line, or round the
         label to the nearest side clear of the dots, the bonds, other labels and every point of
-        `paths`. Only a labelled atom's sign moves: beside a skeletal vertex the sign's place
-        was chosen clear of the bond lines."""
+        `paths` (beside a skeletal vertex, round the vertex clear of its bond lines)."""
         mine = [m for m in chain(panel.marks, marks) if m.atom == atom and m.box is not None]
         crowding = [m for m in mine if (dots is not None and m.box.overlaps(dots, pad))
                     or (m.kind == "charge" and _on_path(m.box, path, pad))]
         if not crowding:
             return True
-        if any(m.kind != "charge" for m in crowding) or panel.atoms[atom].box is None:
+        if any(m.kind != "charge" for m in crowding):
             return False
         sign, = crowding
         centre = panel.positions[atom]
