@@ -409,3 +409,16 @@ def test_the_html_index_shows_every_figure_offline_in_chromium(corpus, tmp_path)
     assert not problems, problems
     requested = [e["params"]["request"]["url"] for e in tools.events if e.get("method") == "Network.requestWillBeSent"]
     assert requested and all(url.startswith("file://") for url in requested), requested   # nothing from a network
+
+
+def test_a_broken_worker_pool_ends_the_map_with_worker_died_at_the_next_submit():
+    """A worker killed while none of the map's own tasks waits for a result breaks the pool
+    between two submits: the next submit raises concurrent.futures' BrokenProcessPool, which
+    escaped as a traceback from `arrows collect` (the killed-worker run above, now and then).
+    It ends the map with WorkerDied, as a broken result does."""
+    from arrows.batch.parallel import WorkerDied, WorkerPool
+    with WorkerPool(2) as pool:
+        lost = pool._executor.submit(os._exit, 1)   # a worker that dies outside the map
+        assert lost.exception(timeout=60) is not None   # the pool has noticed
+        with pytest.raises(WorkerDied):
+            list(pool.map(abs, [1, -2, 3]))

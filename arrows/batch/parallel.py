@@ -78,14 +78,26 @@ class WorkerPool:
         if self._executor is None:
             return (fn(item) for item in items)
         executor = self._executor
-        return _bounded(lambda item: executor.submit(fn, item), _result, items, self.window)
+        return _bounded(lambda item: _submit(executor, fn, item), _result, items, self.window)
+
+
+_DIED = "a worker process stopped in the middle of its work (killed, or out of memory)"
+
+
+def _submit(executor: ProcessPoolExecutor, fn, item):
+    # A worker that dies breaks the pool: the next submit raises, as the next result does,
+    # whichever the map reaches first.
+    try:
+        return executor.submit(fn, item)
+    except BrokenProcessPool:
+        raise WorkerDied(_DIED) from None
 
 
 def _result(future):
     try:
         return future.result()
     except BrokenProcessPool:
-        raise WorkerDied("a worker process stopped in the middle of its work (killed, or out of memory)") from None
+        raise WorkerDied(_DIED) from None
 
 
 class ClusterPool:
