@@ -659,10 +659,11 @@ class StructureDrawer:
                    for d in out.bond_directions[i]) or any(grown.overlaps(b, 0.2 * size) for b in near):
                 continue
             if strokes is None:
-                # Strokes of the other bonds close by: a sign on a ring bond beside NH2+ reads as
-                # neither's. (A stroke is shorter than two bond lengths: one that reaches the sign
-                # has an end within that of the atom.)
-                strokes = [(complex(*a), complex(*b)) for bond in out.bonds if i not in bond.atoms
+                # Strokes of the bonds close by: a sign on a ring bond beside NH2+ reads as
+                # neither's, and one on the second or third stroke of the atom's own multiple bond
+                # (a nitrilium's N+ beside its C#N) as a smudge. (A stroke is shorter than two bond
+                # lengths: one that reaches the sign has an end within that of the atom.)
+                strokes = [(complex(*a), complex(*b)) for bond in out.bonds
                            for a, b in bond.lines if abs(complex(*a) - centre) < 2 * reach]
             if any(segment_hits_box(a, b, grown) for a, b in strokes):
                 continue
@@ -688,11 +689,17 @@ class StructureDrawer:
         # drafting label may go all the way round, and where every direction meets something,
         # takes the one that overlaps least.
         tried = islice(ranked_directions(out.occupied[i], preferred), 12 if kind == "charge" else 24)
+        centre, reach = out.positions[i], 2 * self.style.bond_length
+        # A charge keeps off the strokes of the bonds round it (the inner stroke of a ring's
+        # double bond, which its bond directions alone do not show).
+        strokes = [(complex(*a), complex(*b)) for bond in out.bonds for a, b in bond.lines
+                   if abs(complex(*a) - centre) < reach] if kind == "charge" else []
         for direction in tried:
             mark, slid = self._side_text_at(kind, i, text, out, direction, width, cap, size, italic)
             # Slid far out along a crowded direction, the text no longer reads as the atom's.
             gap = min((_separation(mark.box, b) for b in others), default=math.inf)
-            fault = (gap < pad, slid >= _FAR_SLIDE, 0.0 if kind == "charge" else -min(gap, pad))
+            on_stroke = any(segment_hits_box(a, b, mark.box) for a, b in strokes)
+            fault = (gap < pad or on_stroke, slid >= _FAR_SLIDE, 0.0 if kind == "charge" else -min(gap, pad))
             if best is None or fault < best[0]:
                 best = (fault, direction, mark)
             if not fault[0] and not fault[1]:
