@@ -1730,17 +1730,18 @@ class _LayoutBuilder:
             best = self._nearest_to_partners(cluster, mover, placements, polygons, partners, fed, held_along)
         elif kind == "bond" and anchor in self.room_kept and mover in self.room_kept:
             gap, _, moved, direction, rotation, target = placements.at(0)   # turned neither way
-            if gap >= 0.95 and not any(_inside(complex(p), poly) for p in moved for poly in polygons):
+            if gap >= 0.95 and not (polygons and any(_inside(p, poly) for p in moved.tolist() for poly in polygons)):
                 best = ((_CLEARANCE, True), rotation, target - depicted[mover] * rotation, direction)
         # In order of preference; the first that keeps its distance from everything wins.
         for gap, blocked, moved, direction, rotation, target in (placements if best is None else ()):
             if best is not None and (min(gap, _CLEARANCE), not blocked) <= best[0]:
                 continue
-            if any(abs(cmath.phase(direction / f)) < _FED_ANGLE for f in fed):
+            if fed and any(abs(cmath.phase(direction / f)) < _FED_ANGLE for f in fed):
                 continue      # the hydrogen would stand in the angle its bond's pair goes into
-            if any(abs(cmath.phase(direction / b)) < _ALONG_BOND for b in held_along):
+            if held_along and any(abs(cmath.phase(direction / b)) < _ALONG_BOND for b in held_along):
                 continue      # or on a bond of the atom that holds it
-            if any(_inside(complex(p), poly) for p in moved for poly in polygons):
+            # (a row of numpy numbers read as Python's, and only where there is a ring to be inside)
+            if polygons and any(_inside(p, poly) for p in moved.tolist() for poly in polygons):
                 continue      # never inside someone else's ring
             best = ((min(gap, _CLEARANCE), not blocked), rotation, target - depicted[mover] * rotation, direction)
             if gap >= _CLEARANCE and not blocked:
@@ -1913,7 +1914,7 @@ class _LayoutBuilder:
                 continue
             hop = target - direction if placements.carries_hydrogen else placements.anchor_at + direction
             if (not (len(promised) and np.abs(hop - promised).min() < _HYDROGEN_ROOM)
-                    and not any(_inside(complex(p), poly) for p in moved for poly in polygons)):
+                    and not (polygons and any(_inside(p, poly) for p in moved.tolist() for poly in polygons))):
                 return (_CLEARANCE, True), rotation, target - placements.mover_at * rotation, direction
         return None
 
@@ -1996,7 +1997,7 @@ class _LayoutBuilder:
             for option in clear:
                 moved, direction, rotation = moved_all[option], directions[option], rotations[option]
                 target = complex(targets[option])   # Python's complex arithmetic from here, as for every placement
-                if not blocked[option] and not any(_inside(complex(p), poly) for p in moved for poly in polygons):
+                if not blocked[option] and not (polygons and any(_inside(p, poly) for p in moved.tolist() for poly in polygons)):
                     return ((_CLEARANCE, True), rotation, target - placements.mover_at * rotation, direction)
             start, size = start + size, 2 * size
         return None
