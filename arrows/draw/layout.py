@@ -923,14 +923,13 @@ class _LayoutBuilder:
         # step. A smaller one is a group shifted to a neighbour.
         bond_sets = [(k, self.bonds_in[k], False) for k in range(self.n)]
         bond_sets += [(k + 1, self.bonds_in[k] | self.bonds_in[k + 1], True) for k in range(self.n - 1)]
+        # Only the bonds between two groups can close a ring of groups: picked out once, in order.
+        between = [(i, j, root[i], root[j]) for i, j in heavy_bonds if root[i] != root[j]]
         for k, bonds, over_step in bond_sets:
             panel = _UnionFind(roots)
             links: dict[int, list[tuple[int, int, tuple[int, int]]]] = {}
-            for i, j in heavy_bonds:
+            for i, j, a, b in between:
                 if (i, j) not in bonds:
-                    continue
-                a, b = root[i], root[j]
-                if a == b:
                     continue
                 if panel.find(a) == panel.find(b):
                     ring = self._cluster_path(links, a, b) + [(i, j)]
@@ -1198,8 +1197,15 @@ class _LayoutBuilder:
         """_depict's work: the Mol built and laid out by RDKit, `straight` its sp atoms."""
         index = {atom: k for k, atom in enumerate(group)}
         mol = Chem.RWMol()
+        # AddAtom adds a copy: one Chem.Atom of each element serves every atom of it (and one
+        # dummy every stand-in below), as making each costs a call into RDKit.
+        templates = {0: Chem.Atom(0)}
         for atom in group:
-            mol.AddAtom(Chem.Atom(self.element[atom]))
+            element = self.element[atom]
+            template = templates.get(element)
+            if template is None:
+                template = templates[element] = Chem.Atom(element)
+            mol.AddAtom(template)
         orders = {1: Chem.BondType.SINGLE, 2: Chem.BondType.DOUBLE, 3: Chem.BondType.TRIPLE}
         # (begin, end) of every bond in the order it is added, which is its index in the Mol: kept
         # here, as RDKit's bond iterator costs more than the depiction's own arithmetic.
@@ -1213,13 +1219,13 @@ class _LayoutBuilder:
             for _ in range(self.room_kept.get(atom, 0)):
                 # A stand-in for the partner in another cluster, dropped below: the depiction
                 # keeps a bond's room for it.
-                stand_in = mol.AddAtom(Chem.Atom(0))
+                stand_in = mol.AddAtom(templates[0])
                 mol.AddBond(index[atom], stand_in, Chem.BondType.SINGLE)
                 all_ends.append((index[atom], stand_in))
         slots = {}   # holder's index -> the stand-in for its travelling hydrogen, dropped below
         for atom in group:
             if atom in self.fed_slots:
-                slots[index[atom]] = mol.AddAtom(Chem.Atom(0))
+                slots[index[atom]] = mol.AddAtom(templates[0])
                 mol.AddBond(index[atom], slots[index[atom]], Chem.BondType.SINGLE)
                 all_ends.append((index[atom], slots[index[atom]]))
         wanted = dict(self.written_double)
@@ -1236,7 +1242,8 @@ class _LayoutBuilder:
         Chem.FastFindRings(mol)
         for atom in straight:   # the depictor draws an atom straight (a nitrile, an alkyne, an allene) only if told
             mol.GetAtomWithIdx(index[atom]).SetHybridization(Chem.HybridizationType.SP)
-        self.rings += [ring for ring in ([group[k] for k in r] for r in Chem.GetSymmSSSR(mol)) if ring not in self.rings]
+        smallest = [list(r) for r in Chem.GetSymmSSSR(mol)]
+        self.rings += [ring for ring in ([group[k] for k in r] for r in smallest) if ring not in self.rings]
         rdDepictor.Compute2DCoords(mol, canonOrient=True)   # compute_layout chose RDKit's own depictor
         # All positions in one call: asking the conformer atom by atom costs more than the sums.
         xyz = mol.GetConformer().GetPositions().tolist()
@@ -1245,8 +1252,9 @@ class _LayoutBuilder:
         xs, ys = [p[0] for p in xyz], [p[1] for p in xyz]
         # y is flipped: RDKit's y grows upwards, ours downwards.
         points = np.array([complex(x * scale, -y * scale) for x, y in zip(xs, ys)])
-        rings = mol.GetRingInfo()
-        in_ring = {(min(e), max(e)) for k, e in enumerate(all_ends) if rings.NumBondRings(k)}
+        # A bond lies on a ring exactly when it lies on one of the smallest set of rings (they span
+        # every cycle): read off their atom lists, without a call into RDKit per bond.
+        in_ring = {(min(a, b), max(a, b)) for r in smallest for a, b in zip(r, r[1:] + r[:1])}
         for centre, slot in slots.items():
             fed = {index[x] for x in self.fed_slots[group[centre]] if x in index
                    and mol.GetBondBetweenAtoms(centre, index[x]) is not None}
