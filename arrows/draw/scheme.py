@@ -537,19 +537,24 @@ def _panel_centre(panel: Panel) -> float:
     if not panel.atoms:
         return (panel.box.y0 + panel.box.y1) / 2
     group = {a.index: a.index for a in panel.atoms}
-
-    def root(i: int) -> int:
-        while group[i] != i:
-            i = group[i]
-        return i
-
+    # Each molecule's root is its lowest atom index; the roots are looked up in line (a few
+    # thousand lookups a figure, a call each would cost more than the lookup).
     for bond in panel.bonds:
-        i, j = bond.atoms
-        a, b = root(i), root(j)
-        group[max(a, b)] = min(a, b)
+        a, b = bond.atoms
+        while group[a] != a:
+            a = group[a]
+        while group[b] != b:
+            b = group[b]
+        if a < b:
+            group[b] = a
+        elif b < a:
+            group[a] = b
     members: dict[int, list[float]] = {}
-    for a in panel.atoms:
-        members.setdefault(root(a.index), []).append(a.position[1])
+    for atom in panel.atoms:
+        a = atom.index
+        while group[a] != a:
+            a = group[a]
+        members.setdefault(a, []).append(atom.position[1])
     ys = max(members.values(), key=len)
     return (min(ys) + max(ys)) / 2
 
