@@ -23,6 +23,7 @@ import math
 from dataclasses import dataclass, replace
 from functools import lru_cache
 from itertools import chain, repeat
+from operator import attrgetter
 from typing import Iterator, Optional
 
 import numpy as np
@@ -41,6 +42,7 @@ _SHORT_ANGLES = (math.radians(40), math.radians(70), math.radians(105))
 _WIDE_ANGLES = (math.radians(80), math.radians(110))
 _WIDE_REACH = 6.5
 _KEEP = 4          # candidates per arrow that enter the joint choice
+_COST = attrgetter("cost")   # a candidate's cost, read in C when candidates are sorted
 _GAP_REACH = 0.45  # bond lengths: farthest a head into a forming bond stops from the atom it reaches
 _SHIFT_REACH = 0.22  # bond lengths: where the head of a 1,2-shift stops from the atom the group moves to
 _MAX_TURN = math.radians(180)   # an arc turning further than this curls back on itself
@@ -246,7 +248,7 @@ class ArrowPlanner:
         for w in work:
             for k, (move, src, snk) in enumerate(zip(w.moves, w.sources, w.sinks)):
                 if (snk.kind == "atom" and w.panel.atoms[snk.atoms[0]].element == "H"
-                        and min(w.tries[k], key=lambda c: c.cost).crossings):
+                        and min(w.tries[k], key=_COST).crossings):
                     w.tries[k] = w.tries[k] + self._wide_arcs(src, snk, w.panel)
                     widened = True
         if widened:
@@ -256,7 +258,7 @@ class ArrowPlanner:
             for w in work:
                 w.tries = [[c for c in tries if not c.wide or (not c.crossings and c.length <= reach)]
                            for tries in w.tries]
-        kept = [[sorted(tries, key=lambda c: c.cost)[:_KEEP] for tries in w.tries] for w in work]
+        kept = [[sorted(tries, key=_COST)[:_KEEP] for tries in w.tries] for w in work]
         pair_costs = self._pair_costs(kept, controls, points, extent)
         for w, options, pairs in zip(work, kept, pair_costs):
             _split_bond_sides(w, options, pairs)
@@ -921,7 +923,10 @@ _AROUND = tuple(cmath.rect(1.0, k * math.pi / 12) for k in range(24))
 def _on_path(box: Box, points: list[complex], pad: float) -> bool:
     """Whether any of `points` lies in `box` grown by `pad`."""
     x0, y0, x1, y1 = box.x0 - pad, box.y0 - pad, box.x1 + pad, box.y1 + pad
-    return any(x0 <= p.real <= x1 and y0 <= p.imag <= y1 for p in points)
+    for p in points:   # (a loop, not any() over a generator: thousands of points a figure)
+        if x0 <= p.real <= x1 and y0 <= p.imag <= y1:
+            return True
+    return False
 
 
 def _beside_bond(occupied: list[complex], toward: complex, tails: list[complex] = ()) -> Iterator[complex]:

@@ -53,6 +53,7 @@ _HYDROGEN_ROOM = 0.85   # nearest approach of any other atom to a travelling hyd
 _FED_ANGLE = math.radians(80)   # least angle between a C-H and the bond its pair goes into
 _WAITING_CLEARANCE = 1.5   # a molecule waiting its turn keeps further clear of the arrows at work
 _COMPASS = np.exp(1j * np.arange(36) * np.pi / 18)     # directions tried, every 10 degrees
+_COMPASS_COLUMN = _COMPASS[:, None]                     # (the same, one per row: a view made once)
 # Directions a travelling hydrogen may turn to, every 15 degrees.
 _HYDROGEN_COMPASS = tuple(cmath.rect(1.0, step * math.pi / 12) for step in range(24))
 _HYDROGEN_COMPASS_ARRAY = np.array(_HYDROGEN_COMPASS)
@@ -106,8 +107,10 @@ class _UnionFind:
 
     def join(self, i: int, j: int) -> None:
         a, b = self.find(i), self.find(j)
-        if a != b:
-            self.parent[max(a, b)] = min(a, b)
+        if a < b:   # the lower root stays (compared in line: no min and max calls)
+            self.parent[b] = a
+        elif b < a:
+            self.parent[a] = b
 
     def groups(self) -> list[list[int]]:
         out: dict[int, list[int]] = {}
@@ -421,10 +424,9 @@ class _Placements:
         if last - first <= _FEW_OPTIONS:    # numpy's cost per call outweighs a short loop
             directions, rotations, targets = [], [], []
             turned, anchor_at, distance = self.turned, self.anchor_at, self.distance
-            for _, turn, spin, extra in self.options[first:last]:
-                if turn not in turned:
-                    direction = self.u * _rotor(turn, 9)
-                    turned[turn] = (direction, _unit(-direction / self.v))
+            options = self.options[first:last]
+            self._turn([o[1] for o in options])
+            for _, turn, spin, extra in options:
                 direction, facing = turned[turn]
                 directions.append(direction)
                 rotations.append(facing * _SPINS[spin])
@@ -434,10 +436,7 @@ class _Placements:
             return directions, rotations, target_array, moved
         turns, spins, extras = _option_columns(self.options)
         distinct, which = _distinct_turns(self.options, first, last)
-        for turn in distinct.tolist():
-            if turn not in self.turned:
-                direction = self.u * _rotor(turn, 9)
-                self.turned[turn] = (direction, _unit(-direction / self.v))
+        self._turn(distinct.tolist())
         direction_array = np.array([self.turned[turn][0] for turn in distinct.tolist()], dtype=complex)[which]
         rotation_array = np.array([self.turned[turn][1] for turn in distinct.tolist()], dtype=complex)[which] \
             * spins[first:last]
@@ -445,6 +444,17 @@ class _Placements:
         target_array = self.anchor_at + direction_array * (self.distance + extras)
         return (direction_array.tolist(), rotation_array.tolist(), target_array,
                 target_array[:, None] + self.local[None, :] * rotation_array[:, None])
+
+    def _turn(self, turns: list[int]) -> None:
+        """Each of `turns` not met before: its direction from the anchor and the rotation that
+        faces the cluster back along it (its _unit written out: a few hundred a figure)."""
+        turned = self.turned
+        for turn in turns:
+            if turn not in turned:
+                direction = self.u * _rotor(turn, 9)
+                facing = -direction / self.v
+                size = abs(facing)
+                turned[turn] = (direction, facing / size if size > 1e-12 else 1 + 0j)
 
     def gaps(self, moved: np.ndarray, targets: np.ndarray, directions: list[complex]) -> list[float]:
         """Each placement's nearest approach to the atoms around (rows of `moved`)."""
@@ -1447,8 +1457,9 @@ class _LayoutBuilder:
         return self.clusters[index].segment_at.get(k)
 
     def _placed_at(self, index: int, k: int) -> bool:
-        seg = self._segment_of(index, k)
-        return seg is not None and seg[0] in self.clusters[index].placement
+        cluster = self.clusters[index]   # (_segment_of, in line: asked for every event, again and again)
+        seg = cluster.segment_at.get(k)
+        return seg is not None and seg[0] in cluster.placement
 
     def _apply(self, index: int) -> None:
         cluster = self.clusters[index]
@@ -1538,15 +1549,15 @@ class _LayoutBuilder:
         # numpy's ufuncs called directly (arctan2 is np.angle, minimum.reduce is .min): these
         # arrays hold a few dozen numbers, and the wrappers cost more than the arithmetic.
         if len(taken):
-            turns = _COMPASS[:, None] / taken[None, :]
+            turns = _COMPASS_COLUMN / taken
             angle = np.minimum.reduce(np.abs(np.arctan2(turns.imag, turns.real)), axis=1)
             score = np.minimum(angle, _SEVENTY) / _SEVENTY
         else:
             score = np.full(len(_COMPASS), 1.0)
-        score = score + 0.6 * (np.minimum(np.minimum.reduce(np.abs(spots[:, None] - near[None, :]), axis=1), 1.2)
+        score = score + 0.6 * (np.minimum(np.minimum.reduce(np.abs(spots[:, None] - near), axis=1), 1.2)
                                if len(near) else 1.2)
         if prefer is not None:
-            score = score + 0.15 * (_COMPASS * np.conj(_unit(prefer))).real
+            score = score + 0.15 * (_COMPASS * _unit(prefer).conjugate()).real   # (Python's conjugate: no ufunc call on one number)
         for f in self._fed_directions(hydrogen, atom, k):
             turns = _COMPASS / f
             score = score - 10.0 * (np.abs(np.arctan2(turns.imag, turns.real)) < _FED_ANGLE)
@@ -1554,7 +1565,7 @@ class _LayoutBuilder:
                   if n in self.positions[k] and self.element[n] != 1]
         ideal = self._zigzag(atom, k, bonded)
         if ideal is not None:
-            score = score + 0.3 * np.maximum((_COMPASS * np.conj(ideal)).real, 0.0)
+            score = score + 0.3 * np.maximum((_COMPASS * ideal.conjugate()).real, 0.0)
         polygons = [[self.positions[k][a] for a in ring] for ring in self._closed_rings(k)]
         # Best first; the first direction that does not point into a closed ring wins (the
         # best is the first highest score, as the stable sort below puts first).
