@@ -171,8 +171,8 @@ def _bonds_fed_by_hydrogens(moves: Sequence[Sequence[ResolvedMove]], elements: S
 
 def visible_atoms(state: ElectronState, drawn_hydrogens: frozenset[int]) -> tuple[int, ...]:
     released = state.released
-    return tuple(i for i, z in enumerate(state.elements)
-                 if i not in released and (z != 1 or i in drawn_hydrogens))
+    return tuple([i for i, z in enumerate(state.elements)
+                  if i not in released and (z != 1 or i in drawn_hydrogens)])
 
 
 def free_direction(centre: complex, others: Sequence[complex], prefer: Optional[complex] = None) -> complex:
@@ -622,7 +622,7 @@ class _LayoutBuilder:
         self._set_by_products_beside_product()
         panels = []
         for k, state in enumerate(self.states):
-            visible = tuple(i for i in visible_atoms(state, self.drawn_h) if i in self.positions[k])
+            visible = tuple([i for i in visible_atoms(state, self.drawn_h) if i in self.positions[k]])
             panels.append(PanelAtoms(state, visible, {i: self.positions[k][i] for i in visible}))
         return Layout(tuple(panels), self.drawn_h, self.labelled_h)
 
@@ -772,7 +772,11 @@ class _LayoutBuilder:
 
     def _permanent(self, i: int, j: int) -> bool:
         """Present in every state that has both atoms (a fragment that leaves is still there)."""
-        return all((i, j) in self.bonds_in[k] for k in range(self.n) if max(i, j) < len(self.states[k].elements))
+        last = max(i, j)   # (a loop, the larger index taken once: asked of every bond)
+        for k in range(self.n):
+            if last < len(self.states[k].elements) and (i, j) not in self.bonds_in[k]:
+                return False
+        return True
 
     def _ring_between(self, bonds: list[tuple[int, int]]) -> bool:
         """Two of the bonds between two clusters exist together in some panel: the clusters make

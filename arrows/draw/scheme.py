@@ -241,8 +241,8 @@ class _SceneBuilder:
         drawn_h = layout.drawn_hydrogens
         shown_h = (frozenset(i for m in nearby for i in m.source_atoms + m.sink_atoms)
                    | layout.labelled_hydrogens) & drawn_h
-        visible = tuple(i for i in placed.visible if i not in src.hidden and i not in src.idle
-                        and (i not in drawn_h or i in shown_h))
+        visible = tuple([i for i in placed.visible if i not in src.hidden and i not in src.idle
+                         and (i not in drawn_h or i in shown_h)])
         positions = {i: placed.positions[i] * bl for i in visible}
         formed, broken = set(), set()
         if src.arriving is not None:
@@ -260,7 +260,7 @@ class _SceneBuilder:
                arrows: list[CurvedArrow], dots: list[Mark]) -> Panel:
         step = src.leaving.index if src.leaving is not None else None
         marks = list(structure.marks) + dots + self._error_rings(step, src.state, structure)
-        atoms = tuple(structure.atoms[i] for i in visible)
+        atoms = tuple([structure.atoms[i] for i in visible])
         box = _panel_box(atoms, structure.bonds, marks, arrows, 0.15 * self.bl)
         return Panel(k, step, (0.0, 0.0), box, atoms, tuple(structure.bonds), tuple(marks), tuple(arrows))
 

@@ -289,8 +289,11 @@ class StructureDrawer:
                     out.bonds.append(self._wedge(narrow, wide, wedges[(narrow, wide)], role, out))
                 else:
                     out.bonds.append(self._bond(i, j, order, role, out, neighbours, rings))
+        nonbonding = state.nonbonding
         for i in visible:
-            self._charge_and_radical(state, i, out, ahead[i])
+            # (most atoms carry neither a charge nor electrons of their own: no call for them)
+            if nonbonding[i] or state.formal_charge(i):
+                self._charge_and_radical(state, i, out, ahead[i])
         if self.style.numbers:
             for i in visible:
                 number = facts[i][1]
