@@ -274,7 +274,11 @@ def bonds_after(bonds: list[tuple[int, int, float]], change: StepChange, after: 
     order of each new bond."""
     broken = {pair(i, j) for i, j in change.broken}
     orders = {pair(i, j): float(new) for (i, j), _, new in change.reordered}
-    out = [(i, j, orders.get(pair(i, j), order)) for i, j, order in bonds if pair(i, j) not in broken]
+    out = []
+    for i, j, order in bonds:   # (pair, in line: every bond of every state drawn)
+        key = (i, j) if i < j else (j, i)
+        if key not in broken:
+            out.append((i, j, orders.get(key, order)))
     bond = after.GetBondBetweenAtoms
     out += [(i, j, bond(i, j).GetBondTypeAsDouble()) for i, j in change.formed]
     return out

@@ -23,6 +23,7 @@ import math
 from dataclasses import dataclass, replace
 from functools import lru_cache
 from itertools import chain, repeat
+from operator import attrgetter
 from typing import Iterator, Optional
 
 import numpy as np
@@ -41,6 +42,7 @@ _SHORT_ANGLES = (math.radians(40), math.radians(70), math.radians(105))
 _WIDE_ANGLES = (math.radians(80), math.radians(110))
 _WIDE_REACH = 6.5
 _KEEP = 4          # candidates per arrow that enter the joint choice
+_COST = attrgetter("cost")   # a candidate's cost, read in C when candidates are sorted
 _GAP_REACH = 0.45  # bond lengths: farthest a head into a forming bond stops from the atom it reaches
 _SHIFT_REACH = 0.22  # bond lengths: where the head of a 1,2-shift stops from the atom the group moves to
 _MAX_TURN = math.radians(180)   # an arc turning further than this curls back on itself
@@ -246,7 +248,7 @@ class ArrowPlanner:
         for w in work:
             for k, (move, src, snk) in enumerate(zip(w.moves, w.sources, w.sinks)):
                 if (snk.kind == "atom" and w.panel.atoms[snk.atoms[0]].element == "H"
-                        and min(w.tries[k], key=lambda c: c.cost).crossings):
+                        and min(w.tries[k], key=_COST).crossings):
                     w.tries[k] = w.tries[k] + self._wide_arcs(src, snk, w.panel)
                     widened = True
         if widened:
@@ -256,7 +258,7 @@ class ArrowPlanner:
             for w in work:
                 w.tries = [[c for c in tries if not c.wide or (not c.crossings and c.length <= reach)]
                            for tries in w.tries]
-        kept = [[sorted(tries, key=lambda c: c.cost)[:_KEEP] for tries in w.tries] for w in work]
+        kept = [[sorted(tries, key=_COST)[:_KEEP] for tries in w.tries] for w in work]
         pair_costs = self._pair_costs(kept, controls, points, extent)
         for w, options, pairs in zip(work, kept, pair_costs):
             _split_bond_sides(w, options, pairs)
@@ -601,42 +603,45 @@ class ArrowPlanner:
 
     def _arc(self, src: _Anchor, snk: _Anchor, side: int, theta: float, panel: PanelStructure) -> _Candidate:
         """Leaves at theta to the chord on one side and arrives at theta on the same side, so
-        the curve is close to a circular arc; the ends are refitted twice as the chord moves."""
+        the curve is close to a circular arc; the ends are refitted twice as the chord moves.
+        (The ends and _unit written out here, with what they read of the anchors looked up once:
+        a figure refits a few thousand of them.)"""
         turn = cmath.rect(1.0, -side * theta)
-        p0, tip = src.point, snk.point
+        start, end = src.point, snk.point
+        p0, tip = start, end
+        from_dots, outward = src.kind == "dots", src.outward
+        to_atom, to_bond = snk.kind == "atom", snk.kind == "bond"
+        if to_atom:
+            atom = snk.atoms[0]
+            box, centre = panel.atoms[atom].box, panel.positions[atom]   # (label_reach, written out)
         for _ in range(2):
             chord = tip - p0
-            size = abs(chord)   # _unit, written out: each candidate asks for it three times
+            size = abs(chord)
             u = chord / size if size > 1e-12 else 1 + 0j
             leave, arrive = u * turn, u / turn
-            p0 = self._tail(src, leave)
-            tip = self._tip(snk, arrive, panel)
+            # The tail: beside the dots, toward where the arc leaves; or off the source bond on that side.
+            if from_dots:
+                along = leave + outward
+                size = abs(along)
+                p0 = start + (along / size if size > 1e-12 else 1 + 0j) * (self.dot_radius + 0.12 * self.fs)
+            else:
+                n = src.axis * 1j   # the bond's unit normal, on the side the arrow leaves to
+                p0 = start + (n if (leave / n).real >= 0 else -n) * (src.extent + 0.05 * self.bl)
+            # The tip: short of the sink atom's label, or off the sink bond on the side it comes from.
+            if to_atom:
+                back = -arrive
+                reach = 0.0 if box is None else ray_exit(centre, back, box)
+                gap = 0.12 * self.fs if reach else 0.2 * self.bl
+                tip = end + back * (reach + gap)
+            elif to_bond:
+                n = snk.axis * 1j   # the bond's unit normal, on the side the arrow comes from
+                tip = end + (n if (-arrive / n).real >= 0 else -n) * (snk.extent + 0.08 * self.bl)
         u = _unit(tip - p0)
         leave, arrive = u * turn, u / turn
         chord = abs(tip - p0)
         # Short hops (a pair moving into the next bond) get a loop big enough to read.
         h = max(_handle(theta) * chord, (0.45 if chord < 0.6 * self.bl else 0.34) * self.bl)
         return _Candidate(p0, p0 + leave * h, tip - arrive * h, tip)
-
-    def _tail(self, src: _Anchor, leave: complex) -> complex:
-        if src.kind == "dots":
-            return src.point + _unit(leave + src.outward) * (self.dot_radius + 0.12 * self.fs)
-        n = src.axis * 1j   # the bond's unit normal, on the side the arrow leaves to
-        return src.point + (n if (leave / n).real >= 0 else -n) * (src.extent + 0.05 * self.bl)
-
-    def _tip(self, snk: _Anchor, arrive: complex, panel: PanelStructure) -> complex:
-        kind = snk.kind
-        if kind == "atom":
-            back = -arrive
-            atom = snk.atoms[0]
-            box = panel.atoms[atom].box   # (label_reach, written out)
-            reach = 0.0 if box is None else ray_exit(panel.positions[atom], back, box)
-            gap = 0.12 * self.fs if reach else 0.2 * self.bl
-            return snk.point + back * (reach + gap)
-        if kind == "bond":
-            n = snk.axis * 1j   # the bond's unit normal, on the side the arrow comes from
-            return snk.point + (n if (-arrive / n).real >= 0 else -n) * (snk.extent + 0.08 * self.bl)
-        return snk.point
 
     # penalties
     def _score(self, work: list[_PanelArrows], candidates: list[_Candidate], controls: np.ndarray,
@@ -905,16 +910,14 @@ class ArrowPlanner:
             outside = normal if (bulge / normal).real > 0 else -normal
             outline = (tip, back + outside * half, notch)
 
-        def pt(z: complex) -> tuple[float, float]:
-            return (z.real, z.imag)
-
+        # (each point as its parts in line: a call per point costs more than the tuple)
         return CurvedArrow(
             step=step, move=str(move.move), electrons=move.electrons, source_kind=move.source_kind,
             source_atoms=tuple(move.source_atoms), sink_atoms=tuple(move.sink_atoms), target_atoms=snk.atoms,
-            source_point=pt(src.point), sink_point=pt(snk.point),
+            source_point=(src.point.real, src.point.imag), sink_point=(snk.point.real, snk.point.imag),
             sink_box=panel.atoms[snk.atoms[0]].box if snk.kind == "atom" else None,
-            start=pt(s0), control1=pt(s1), control2=pt(s2), end=pt(s3), tip=pt(tip),
-            head=tuple(pt(z) for z in outline))
+            start=(s0.real, s0.imag), control1=(s1.real, s1.imag), control2=(s2.real, s2.imag),
+            end=(s3.real, s3.imag), tip=(tip.real, tip.imag), head=tuple([(z.real, z.imag) for z in outline]))
 
 
 _TAIL_REACH = 1.0   # bond lengths: another arrow leaving a bond this close steers the dots away
@@ -927,7 +930,10 @@ _AROUND = tuple(cmath.rect(1.0, k * math.pi / 12) for k in range(24))
 def _on_path(box: Box, points: list[complex], pad: float) -> bool:
     """Whether any of `points` lies in `box` grown by `pad`."""
     x0, y0, x1, y1 = box.x0 - pad, box.y0 - pad, box.x1 + pad, box.y1 + pad
-    return any(x0 <= p.real <= x1 and y0 <= p.imag <= y1 for p in points)
+    for p in points:   # (a loop, not any() over a generator: thousands of points a figure)
+        if x0 <= p.real <= x1 and y0 <= p.imag <= y1:
+            return True
+    return False
 
 
 def _beside_bond(occupied: list[complex], toward: complex, tails: list[complex] = ()) -> Iterator[complex]:

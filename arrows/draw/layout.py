@@ -54,6 +54,7 @@ _HYDROGEN_ROOM = 0.85   # nearest approach of any other atom to a travelling hyd
 _FED_ANGLE = math.radians(80)   # least angle between a C-H and the bond its pair goes into
 _WAITING_CLEARANCE = 1.5   # a molecule waiting its turn keeps further clear of the arrows at work
 _COMPASS = np.exp(1j * np.arange(36) * np.pi / 18)     # directions tried, every 10 degrees
+_COMPASS_COLUMN = _COMPASS[:, None]                     # (the same, one per row: a view made once)
 # Directions a travelling hydrogen may turn to, every 15 degrees.
 _HYDROGEN_COMPASS = tuple(cmath.rect(1.0, step * math.pi / 12) for step in range(24))
 _HYDROGEN_COMPASS_ARRAY = np.array(_HYDROGEN_COMPASS)
@@ -110,8 +111,10 @@ class _UnionFind:
 
     def join(self, i: int, j: int) -> None:
         a, b = self.find(i), self.find(j)
-        if a != b:
-            self.parent[max(a, b)] = min(a, b)
+        if a < b:   # the lower root stays (compared in line: no min and max calls)
+            self.parent[b] = a
+        elif b < a:
+            self.parent[a] = b
 
     def groups(self) -> list[list[int]]:
         out: dict[int, list[int]] = {}
@@ -172,8 +175,8 @@ def _bonds_fed_by_hydrogens(moves: Sequence[Sequence[ResolvedMove]], elements: S
 
 def visible_atoms(state: ElectronState, drawn_hydrogens: frozenset[int]) -> tuple[int, ...]:
     released = state.released
-    return tuple(i for i, z in enumerate(state.elements)
-                 if i not in released and (z != 1 or i in drawn_hydrogens))
+    return tuple([i for i, z in enumerate(state.elements)
+                  if i not in released and (z != 1 or i in drawn_hydrogens)])
 
 
 def free_direction(centre: complex, others: Sequence[complex], prefer: Optional[complex] = None) -> complex:
@@ -425,10 +428,9 @@ class _Placements:
         if last - first <= _FEW_OPTIONS:    # numpy's cost per call outweighs a short loop
             directions, rotations, targets = [], [], []
             turned, anchor_at, distance = self.turned, self.anchor_at, self.distance
-            for _, turn, spin, extra in self.options[first:last]:
-                if turn not in turned:
-                    direction = self.u * _rotor(turn, 9)
-                    turned[turn] = (direction, _unit(-direction / self.v))
+            options = self.options[first:last]
+            self._turn([o[1] for o in options])
+            for _, turn, spin, extra in options:
                 direction, facing = turned[turn]
                 directions.append(direction)
                 rotations.append(facing * _SPINS[spin])
@@ -438,10 +440,7 @@ class _Placements:
             return directions, rotations, target_array, moved
         turns, spins, extras = _option_columns(self.options)
         distinct, which = _distinct_turns(self.options, first, last)
-        for turn in distinct.tolist():
-            if turn not in self.turned:
-                direction = self.u * _rotor(turn, 9)
-                self.turned[turn] = (direction, _unit(-direction / self.v))
+        self._turn(distinct.tolist())
         direction_array = np.array([self.turned[turn][0] for turn in distinct.tolist()], dtype=complex)[which]
         rotation_array = np.array([self.turned[turn][1] for turn in distinct.tolist()], dtype=complex)[which] \
             * spins[first:last]
@@ -449,6 +448,17 @@ class _Placements:
         target_array = self.anchor_at + direction_array * (self.distance + extras)
         return (direction_array.tolist(), rotation_array.tolist(), target_array,
                 target_array[:, None] + self.local[None, :] * rotation_array[:, None])
+
+    def _turn(self, turns: list[int]) -> None:
+        """Each of `turns` not met before: its direction from the anchor and the rotation that
+        faces the cluster back along it (its _unit written out: a few hundred a figure)."""
+        turned = self.turned
+        for turn in turns:
+            if turn not in turned:
+                direction = self.u * _rotor(turn, 9)
+                facing = -direction / self.v
+                size = abs(facing)
+                turned[turn] = (direction, facing / size if size > 1e-12 else 1 + 0j)
 
     def gaps(self, moved: np.ndarray, targets: np.ndarray, directions: list[complex]) -> list[float]:
         """Each placement's nearest approach to the atoms around (rows of `moved`); for a bond,
@@ -626,7 +636,7 @@ class _LayoutBuilder:
         self._set_by_products_beside_product()
         panels = []
         for k, state in enumerate(self.states):
-            visible = tuple(i for i in visible_atoms(state, self.drawn_h) if i in self.positions[k])
+            visible = tuple([i for i in visible_atoms(state, self.drawn_h) if i in self.positions[k]])
             panels.append(PanelAtoms(state, visible, {i: self.positions[k][i] for i in visible}))
         return Layout(tuple(panels), self.drawn_h, self.labelled_h)
 
@@ -776,7 +786,11 @@ class _LayoutBuilder:
 
     def _permanent(self, i: int, j: int) -> bool:
         """Present in every state that has both atoms (a fragment that leaves is still there)."""
-        return all((i, j) in self.bonds_in[k] for k in range(self.n) if max(i, j) < len(self.states[k].elements))
+        last = max(i, j)   # (a loop, the larger index taken once: asked of every bond)
+        for k in range(self.n):
+            if last < len(self.states[k].elements) and (i, j) not in self.bonds_in[k]:
+                return False
+        return True
 
     def _ring_between(self, bonds: list[tuple[int, int]]) -> bool:
         """Two of the bonds between two clusters exist together in some panel: the clusters make
@@ -937,14 +951,13 @@ class _LayoutBuilder:
         # step. A smaller one is a group shifted to a neighbour.
         bond_sets = [(k, self.bonds_in[k], False) for k in range(self.n)]
         bond_sets += [(k + 1, self.bonds_in[k] | self.bonds_in[k + 1], True) for k in range(self.n - 1)]
+        # Only the bonds between two groups can close a ring of groups: picked out once, in order.
+        between = [(i, j, root[i], root[j]) for i, j in heavy_bonds if root[i] != root[j]]
         for k, bonds, over_step in bond_sets:
             panel = _UnionFind(roots)
             links: dict[int, list[tuple[int, int, tuple[int, int]]]] = {}
-            for i, j in heavy_bonds:
+            for i, j, a, b in between:
                 if (i, j) not in bonds:
-                    continue
-                a, b = root[i], root[j]
-                if a == b:
                     continue
                 if panel.find(a) == panel.find(b):
                     ring = self._cluster_path(links, a, b) + [(i, j)]
@@ -1212,8 +1225,15 @@ class _LayoutBuilder:
         """_depict's work: the Mol built and laid out by RDKit, `straight` its sp atoms."""
         index = {atom: k for k, atom in enumerate(group)}
         mol = Chem.RWMol()
+        # AddAtom adds a copy: one Chem.Atom of each element serves every atom of it (and one
+        # dummy every stand-in below), as making each costs a call into RDKit.
+        templates = {0: Chem.Atom(0)}
         for atom in group:
-            mol.AddAtom(Chem.Atom(self.element[atom]))
+            element = self.element[atom]
+            template = templates.get(element)
+            if template is None:
+                template = templates[element] = Chem.Atom(element)
+            mol.AddAtom(template)
         orders = {1: Chem.BondType.SINGLE, 2: Chem.BondType.DOUBLE, 3: Chem.BondType.TRIPLE}
         # (begin, end) of every bond in the order it is added, which is its index in the Mol: kept
         # here, as RDKit's bond iterator costs more than the depiction's own arithmetic.
@@ -1227,13 +1247,13 @@ class _LayoutBuilder:
             for _ in range(self.room_kept.get(atom, 0)):
                 # A stand-in for the partner in another cluster, dropped below: the depiction
                 # keeps a bond's room for it.
-                stand_in = mol.AddAtom(Chem.Atom(0))
+                stand_in = mol.AddAtom(templates[0])
                 mol.AddBond(index[atom], stand_in, Chem.BondType.SINGLE)
                 all_ends.append((index[atom], stand_in))
         slots = {}   # holder's index -> the stand-in for its travelling hydrogen, dropped below
         for atom in group:
             if atom in self.fed_slots:
-                slots[index[atom]] = mol.AddAtom(Chem.Atom(0))
+                slots[index[atom]] = mol.AddAtom(templates[0])
                 mol.AddBond(index[atom], slots[index[atom]], Chem.BondType.SINGLE)
                 all_ends.append((index[atom], slots[index[atom]]))
         wanted = dict(self.written_double)
@@ -1250,7 +1270,8 @@ class _LayoutBuilder:
         Chem.FastFindRings(mol)
         for atom in straight:   # the depictor draws an atom straight (a nitrile, an alkyne, an allene) only if told
             mol.GetAtomWithIdx(index[atom]).SetHybridization(Chem.HybridizationType.SP)
-        self.rings += [ring for ring in ([group[k] for k in r] for r in Chem.GetSymmSSSR(mol)) if ring not in self.rings]
+        smallest = [list(r) for r in Chem.GetSymmSSSR(mol)]
+        self.rings += [ring for ring in ([group[k] for k in r] for r in smallest) if ring not in self.rings]
         rdDepictor.Compute2DCoords(mol, canonOrient=True)   # compute_layout chose RDKit's own depictor
         # All positions in one call: asking the conformer atom by atom costs more than the sums.
         xyz = mol.GetConformer().GetPositions().tolist()
@@ -1259,8 +1280,9 @@ class _LayoutBuilder:
         xs, ys = [p[0] for p in xyz], [p[1] for p in xyz]
         # y is flipped: RDKit's y grows upwards, ours downwards.
         points = np.array([complex(x * scale, -y * scale) for x, y in zip(xs, ys)])
-        rings = mol.GetRingInfo()
-        in_ring = {(min(e), max(e)) for k, e in enumerate(all_ends) if rings.NumBondRings(k)}
+        # A bond lies on a ring exactly when it lies on one of the smallest set of rings (they span
+        # every cycle): read off their atom lists, without a call into RDKit per bond.
+        in_ring = {(min(a, b), max(a, b)) for r in smallest for a, b in zip(r, r[1:] + r[:1])}
         for centre, slot in slots.items():
             fed = {index[x] for x in self.fed_slots[group[centre]] if x in index
                    and mol.GetBondBetweenAtoms(centre, index[x]) is not None}
@@ -1453,8 +1475,9 @@ class _LayoutBuilder:
         return self.clusters[index].segment_at.get(k)
 
     def _placed_at(self, index: int, k: int) -> bool:
-        seg = self._segment_of(index, k)
-        return seg is not None and seg[0] in self.clusters[index].placement
+        cluster = self.clusters[index]   # (_segment_of, in line: asked for every event, again and again)
+        seg = cluster.segment_at.get(k)
+        return seg is not None and seg[0] in cluster.placement
 
     def _apply(self, index: int) -> None:
         cluster = self.clusters[index]
@@ -1544,15 +1567,15 @@ class _LayoutBuilder:
         # numpy's ufuncs called directly (arctan2 is np.angle, minimum.reduce is .min): these
         # arrays hold a few dozen numbers, and the wrappers cost more than the arithmetic.
         if len(taken):
-            turns = _COMPASS[:, None] / taken[None, :]
+            turns = _COMPASS_COLUMN / taken
             angle = np.minimum.reduce(np.abs(np.arctan2(turns.imag, turns.real)), axis=1)
             score = np.minimum(angle, _SEVENTY) / _SEVENTY
         else:
             score = np.full(len(_COMPASS), 1.0)
-        score = score + 0.6 * (np.minimum(np.minimum.reduce(np.abs(spots[:, None] - near[None, :]), axis=1), 1.2)
+        score = score + 0.6 * (np.minimum(np.minimum.reduce(np.abs(spots[:, None] - near), axis=1), 1.2)
                                if len(near) else 1.2)
         if prefer is not None:
-            score = score + 0.15 * (_COMPASS * np.conj(_unit(prefer))).real
+            score = score + 0.15 * (_COMPASS * _unit(prefer).conjugate()).real   # (Python's conjugate: no ufunc call on one number)
         for f in self._fed_directions(hydrogen, atom, k):
             turns = _COMPASS / f
             score = score - 10.0 * (np.abs(np.arctan2(turns.imag, turns.real)) < _FED_ANGLE)
@@ -1560,7 +1583,7 @@ class _LayoutBuilder:
                   if n in self.positions[k] and self.element[n] != 1]
         ideal = self._zigzag(atom, k, bonded)
         if ideal is not None:
-            score = score + 0.3 * np.maximum((_COMPASS * np.conj(ideal)).real, 0.0)
+            score = score + 0.3 * np.maximum((_COMPASS * ideal.conjugate()).real, 0.0)
         polygons = [[self.positions[k][a] for a in ring] for ring in self._closed_rings(k)]
         # Best first; the first direction that does not point into a closed ring wins (the
         # best is the first highest score, as the stable sort below puts first).
@@ -1744,17 +1767,18 @@ class _LayoutBuilder:
             best = self._nearest_to_partners(cluster, mover, placements, polygons, partners, fed, held_along)
         elif kind == "bond" and anchor in self.room_kept and mover in self.room_kept:
             gap, _, moved, direction, rotation, target = placements.at(0)   # turned neither way
-            if gap >= 0.95 and not any(_inside(complex(p), poly) for p in moved for poly in polygons):
+            if gap >= 0.95 and not (polygons and any(_inside(p, poly) for p in moved.tolist() for poly in polygons)):
                 best = ((_CLEARANCE, True), rotation, target - depicted[mover] * rotation, direction)
         # In order of preference; the first that keeps its distance from everything wins.
         for gap, blocked, moved, direction, rotation, target in (placements if best is None else ()):
             if best is not None and (min(gap, _CLEARANCE), not blocked) <= best[0]:
                 continue
-            if any(abs(cmath.phase(direction / f)) < _FED_ANGLE for f in fed):
+            if fed and any(abs(cmath.phase(direction / f)) < _FED_ANGLE for f in fed):
                 continue      # the hydrogen would stand in the angle its bond's pair goes into
-            if any(abs(cmath.phase(direction / b)) < _ALONG_BOND for b in held_along):
+            if held_along and any(abs(cmath.phase(direction / b)) < _ALONG_BOND for b in held_along):
                 continue      # or on a bond of the atom that holds it
-            if any(_inside(complex(p), poly) for p in moved for poly in polygons):
+            # (a row of numpy numbers read as Python's, and only where there is a ring to be inside)
+            if polygons and any(_inside(p, poly) for p in moved.tolist() for poly in polygons):
                 continue      # never inside someone else's ring
             best = ((min(gap, _CLEARANCE), not blocked), rotation, target - depicted[mover] * rotation, direction)
             if gap >= _CLEARANCE and not blocked:
@@ -1931,7 +1955,7 @@ class _LayoutBuilder:
                 continue
             hop = target - direction if placements.carries_hydrogen else placements.anchor_at + direction
             if (not (len(promised) and np.abs(hop - promised).min() < _HYDROGEN_ROOM)
-                    and not any(_inside(complex(p), poly) for p in moved for poly in polygons)):
+                    and not (polygons and any(_inside(p, poly) for p in moved.tolist() for poly in polygons))):
                 return (_CLEARANCE, True), rotation, target - placements.mover_at * rotation, direction
         return None
 
@@ -2031,7 +2055,7 @@ class _LayoutBuilder:
             for option in clear:
                 moved, direction, rotation = moved_all[option], directions[option], rotations[option]
                 target = complex(targets[option])   # Python's complex arithmetic from here, as for every placement
-                if not blocked[option] and not any(_inside(complex(p), poly) for p in moved for poly in polygons):
+                if not blocked[option] and not (polygons and any(_inside(p, poly) for p in moved.tolist() for poly in polygons)):
                     return ((_CLEARANCE, True), rotation, target - placements.mover_at * rotation, direction)
             start, size = start + size, 2 * size
         return None

@@ -265,8 +265,8 @@ class _SceneBuilder:
         drawn_h = layout.drawn_hydrogens
         shown_h = (frozenset(i for m in nearby for i in m.source_atoms + m.sink_atoms)
                    | layout.labelled_hydrogens) & drawn_h
-        visible = tuple(i for i in placed.visible if i not in src.hidden and i not in src.idle
-                        and (i not in drawn_h or i in shown_h))
+        visible = tuple([i for i in placed.visible if i not in src.hidden and i not in src.idle
+                         and (i not in drawn_h or i in shown_h)])
         positions = {i: placed.positions[i] * bl for i in visible}
         formed, broken = set(), set()
         if src.arriving is not None:
@@ -284,7 +284,7 @@ class _SceneBuilder:
                arrows: list[CurvedArrow], dots: list[Mark]) -> Panel:
         step = src.leaving.index if src.leaving is not None else None
         marks = list(structure.marks) + dots + self._error_rings(step, src.state, structure)
-        atoms = tuple(structure.atoms[i] for i in visible)
+        atoms = tuple([structure.atoms[i] for i in visible])
         box = _panel_box(atoms, structure.bonds, marks, arrows, 0.15 * self.bl)
         return Panel(k, step, (0.0, 0.0), box, atoms, tuple(structure.bonds), tuple(marks), tuple(arrows))
 
@@ -561,19 +561,24 @@ def _panel_centre(panel: Panel) -> float:
     if not panel.atoms:
         return (panel.box.y0 + panel.box.y1) / 2
     group = {a.index: a.index for a in panel.atoms}
-
-    def root(i: int) -> int:
-        while group[i] != i:
-            i = group[i]
-        return i
-
+    # Each molecule's root is its lowest atom index; the roots are looked up in line (a few
+    # thousand lookups a figure, a call each would cost more than the lookup).
     for bond in panel.bonds:
-        i, j = bond.atoms
-        a, b = root(i), root(j)
-        group[max(a, b)] = min(a, b)
+        a, b = bond.atoms
+        while group[a] != a:
+            a = group[a]
+        while group[b] != b:
+            b = group[b]
+        if a < b:
+            group[b] = a
+        elif b < a:
+            group[a] = b
     members: dict[int, list[float]] = {}
-    for a in panel.atoms:
-        members.setdefault(root(a.index), []).append(a.position[1])
+    for atom in panel.atoms:
+        a = atom.index
+        while group[a] != a:
+            a = group[a]
+        members.setdefault(a, []).append(atom.position[1])
     ys = max(members.values(), key=len)
     return (min(ys) + max(ys)) / 2
 

@@ -192,8 +192,17 @@ def ranked_directions(occupied: list[complex], preferred: complex, spread: float
     less `spread` times their turn from `preferred` (of two nearly equal, the one found first
     around the circle); the rest are ranked only if asked for."""
     best, best_score, scored = preferred, -math.inf, []
+    # clearance and _angle_gap written out (no compass direction is zero; a zero occupied
+    # direction leaves pi, which is no less): a few dozen directions, each asked of every bond.
+    taken = [o for o in occupied if o]
+    phase = cmath.phase
     for d in _compass(steps):
-        score = min(clearance(d, occupied), _ENOUGH_ROOM) - spread * _angle_gap(d, preferred)
+        room = math.pi
+        for o in taken:
+            gap = abs(phase(d / o))
+            if gap < room:
+                room = gap
+        score = min(room, _ENOUGH_ROOM) - spread * (abs(phase(d / preferred)) if preferred else math.pi)
         scored.append((score, d))
         if score > best_score + 1e-9:
             best, best_score = d, score
@@ -280,8 +289,11 @@ class StructureDrawer:
                     out.bonds.append(self._wedge(narrow, wide, wedges[(narrow, wide)], role, out))
                 else:
                     out.bonds.append(self._bond(i, j, order, role, out, neighbours, rings))
+        nonbonding = state.nonbonding
         for i in visible:
-            self._charge_and_radical(state, i, out, ahead[i])
+            # (most atoms carry neither a charge nor electrons of their own: no call for them)
+            if nonbonding[i] or state.formal_charge(i):
+                self._charge_and_radical(state, i, out, ahead[i])
         if self.style.numbers:
             for i in visible:
                 number = facts[i][1]

@@ -31,7 +31,11 @@ def _colour_attr(colour: str, attr: str) -> str:
 
 
 def _text(run: TextRun) -> str:
-    attrs = f'x="{_n(run.x)}" y="{_n(run.y)}" font-size="{_n(run.size)}"'
+    # Both coordinates in one formatting call, as _pt does: _n writes each so unless it ends in a zero.
+    xy = 'x="%.2f" y="%.2f"' % (run.x, run.y)
+    if '0"' in xy:
+        xy = f'x="{_n(run.x)}" y="{_n(run.y)}"'
+    attrs = f'{xy} font-size="{_n(run.size)}"'
     if run.bold:
         attrs += ' font-weight="bold"'
     if run.italic:
@@ -51,8 +55,8 @@ def _mark(mark: Mark, line_width: float) -> list[str]:
         return [f'<circle cx="{_n(x)}" cy="{_n(y)}" r="{_n(mark.radius)}" fill="none" stroke="{mark.colour}" '
                 f'stroke-dasharray="{_n(2 * line_width)} {_n(1.5 * line_width)}"/>']
     if mark.dots:
-        return [f'<circle cx="{_n(x)}" cy="{_n(y)}" r="{_n(mark.radius)}"{_colour_attr(mark.colour, "fill")}/>'
-                for x, y in mark.dots]
+        tail = f' r="{_n(mark.radius)}"{_colour_attr(mark.colour, "fill")}/>'
+        return [f'<circle cx="{_n(x)}" cy="{_n(y)}"{tail}' for x, y in mark.dots]
     return [_text(r) for r in mark.runs]
 
 
