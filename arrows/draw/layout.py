@@ -380,6 +380,8 @@ class _Placements:
         self.options, self.u, self.v, self.anchor_at, self.distance = options, u, v, anchor_at, distance
         self.depicted, self.mover, self.mover_at = depicted, mover, depicted[mover]
         self.local = np.array(list(depicted.values()), dtype=complex) - self.mover_at   # about the mover
+        # For a bond, the cluster's atoms other than the mover, which must keep off the anchor (gaps).
+        self.beside = self.local != 0 if distance == 1.0 and len(self.local) > 1 else None
         self.near, self.carries_hydrogen, self.walls = near, carries_hydrogen, walls
         self.done: list[tuple[float, bool, np.ndarray, complex, complex, complex]] = []
         self.turned: dict[int, tuple[complex, complex]] = {}   # turn -> (direction, rotation facing back along it)
@@ -467,15 +469,15 @@ class _Placements:
         Beside the mover's bond, a neighbour a bond length from the anchor (a fourth bond
         squeezed between two at 120 degrees) is tight but clear; only one nearer than _CROWDED
         counts against the placement."""
-        others = self.local != 0
-        if self.distance == 1.0 and others.any():   # a bond (a hop's partner waits further out)
-            beside = np.minimum.reduce(np.abs(moved[:, others] - self.anchor_at), axis=1) + _CLEARANCE - _CROWDED
-        else:
-            beside = np.full(len(moved), 9.0)
+        beside = None
+        if self.beside is not None:   # a bond (a hop's partner waits further out)
+            beside = np.minimum.reduce(np.abs(moved[:, self.beside] - self.anchor_at), axis=1) + (_CLEARANCE - _CROWDED)
         if not len(self.near):
-            return np.minimum(beside, 9.0).tolist()
+            return [9.0] * len(moved) if beside is None else np.minimum(beside, 9.0).tolist()
         # numpy's ufuncs called directly (minimum.reduce is .min): the wrappers cost more than these few numbers
-        gaps = np.minimum(np.minimum.reduce(np.abs(moved[:, :, None] - self.near), axis=(1, 2)), beside)
+        gaps = np.minimum.reduce(np.abs(moved[:, :, None] - self.near), axis=(1, 2))
+        if beside is not None:
+            gaps = np.minimum(gaps, beside)
         if self.carries_hydrogen:
             # The hydrogen it brings needs room too, though less than a whole molecule.
             brought = np.abs((targets - np.array(directions, dtype=complex))[:, None] - self.near)

@@ -8,6 +8,7 @@ import math
 from collections import Counter
 from dataclasses import dataclass, field, replace
 from functools import lru_cache
+from itertools import takewhile
 from typing import Optional, Sequence
 
 import numpy as np
@@ -206,8 +207,11 @@ def _crowded_atoms(scene: Scene) -> tuple[str, ...]:
         apart = np.abs(where[:, None] - where[None, :]) / scene.bond_length
         np.fill_diagonal(apart, np.inf)
         i, j = np.unravel_index(int(np.argmin(apart)), apart.shape) if len(atoms) > 1 else (0, 0)
-        labelled = [a for a in atoms if a.box is not None]
-        clash = next(((a, b) for n, a in enumerate(labelled) for b in labelled[n + 1:] if a.box.overlaps(b.box)), None)
+        # Sweep from left to right: a label is compared only with those that start before it ends.
+        labelled = sorted((a for a in atoms if a.box is not None), key=lambda a: a.box.x0)
+        clash = next(((a, b) for n, a in enumerate(labelled)
+                      for b in takewhile(lambda b, a=a: b.box.x0 < a.box.x1, labelled[n + 1:])
+                      if a.box.overlaps(b.box)), None)
         if clash is not None:
             notes.append(f"panel {panel.index + 1}: the labels of {clash[0].name} and {clash[1].name} overlap: "
                          f"the layout found no clear place for them; check the figure")
