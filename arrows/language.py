@@ -367,6 +367,11 @@ def _hint_for(exc: UnexpectedInput, text: str, found: str) -> str:
         if not any(c.isdigit() for c in word):
             return (f"an atom is named by its element and map number: write {letters}7 for the atom "
                     f"written [{letters}:7] in a species SMILES; a hydrogen is H(C3)")
+    before = line[:exc.column - 1].rstrip() if exc.column > 0 else ""
+    atom_before = re.search(r"([A-Z][a-z]?\d+)$", before)
+    if word in (":", ".") and atom_before:
+        electrons = "a lone pair" if word == ":" else "an unpaired electron"
+        return f"{electrons} is written before its atom: `{word}{atom_before.group(1)}`"
     if tok_type == "BOND" and "ARROW" in expected:
         return f"`{word}` is a bond between two atoms; an arrow is written -> (pair) or ~> (single electron)"
     if tok_type == "ARROW":

@@ -318,6 +318,13 @@ SLIPS = [
     ("checkpoint after the last step",
      'step "a"\n    :O1 -> C2\nend\nexpect "CO"\n',
      4, 1, "unexpected `expect`", "a statement", '`product "SMILES"` checks the final state'),
+    # Electrons written after their atom (as some write "O:"): the hint used to point at the README.
+    ("lone pair after its atom",
+     'step "a"\n    O3: -> C1\nend\n',
+     2, 7, "unexpected `:`", "an arrow", "a lone pair is written before its atom: `:O3`"),
+    ("unpaired electron after its atom",
+     'step "a"\n    C1. ~> C1-C2\nend\n',
+     2, 7, "unexpected `.`", "an arrow", "an unpaired electron is written before its atom: `.C1`"),
 ]
 
 
