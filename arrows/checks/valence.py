@@ -53,14 +53,14 @@ class UnusualElectronCounts(Check):
             limit = shell_limit(element)
             if shell > limit and element > 10 and shell > before.nonbonding[i] + 2 * before.bond_sums[i]:
                 label = after.label(i)
-                if limit == 18:
-                    yield Diagnostic("AR504", f"{label} holds {shell} valence electrons (more than the 18 of "
-                                     "the 18-electron rule)", st.step.loc,
-                                     hint="a ligand should leave the metal in the same step", atoms=(label,),
-                                     step=st.index)
-                    continue
                 symbol = _HYPERVALENT.get(element)
-                hint = (f"fine for hypervalent {symbol} (common practice); otherwise a bond should break"
-                        if symbol else "rare for this element: a bond to it should break in the same step")
-                yield Diagnostic("AR504", f"{label} holds {shell} valence electrons (expanded octet)", st.step.loc,
+                if limit == 18:
+                    beyond, hint = "more than the 18 of the 18-electron rule", \
+                        "a ligand should leave the metal in the same step"
+                elif symbol:
+                    beyond, hint = "expanded octet", \
+                        f"fine for hypervalent {symbol} (common practice); otherwise a bond should break"
+                else:
+                    beyond, hint = "expanded octet", "rare for this element: a bond to it should break in the same step"
+                yield Diagnostic("AR504", f"{label} holds {shell} valence electrons ({beyond})", st.step.loc,
                                  hint=hint, atoms=(label,), step=st.index)

@@ -317,6 +317,17 @@ def _segments_cross(p: complex, q: complex, a: complex, b: complex) -> bool:
     return a_side * b_side < 0 and p_side * q_side < 0
 
 
+def _any_inside(points, polygons: list[list[complex]]) -> bool:
+    """Whether any of `points` (a row of a numpy array, or Python numbers) lies inside any of
+    `polygons`: a cluster placed into someone else's ring. (Read as Python numbers, and only
+    where there is a ring to be inside.)"""
+    if not polygons:
+        return False
+    if isinstance(points, np.ndarray):
+        points = points.tolist()
+    return any(_inside(p, poly) for p in points for poly in polygons)
+
+
 def _inside(point: complex, polygon: list[complex]) -> bool:
     """Even-odd rule."""
     inside = False
@@ -1769,7 +1780,7 @@ class _LayoutBuilder:
             best = self._nearest_to_partners(cluster, mover, placements, polygons, partners, fed, held_along)
         elif kind == "bond" and anchor in self.room_kept and mover in self.room_kept:
             gap, _, moved, direction, rotation, target = placements.at(0)   # turned neither way
-            if gap >= 0.95 and not (polygons and any(_inside(p, poly) for p in moved.tolist() for poly in polygons)):
+            if gap >= 0.95 and not _any_inside(moved, polygons):
                 best = ((_CLEARANCE, True), rotation, target - depicted[mover] * rotation, direction)
         # In order of preference; the first that keeps its distance from everything wins.
         for gap, blocked, moved, direction, rotation, target in (placements if best is None else ()):
@@ -1780,7 +1791,7 @@ class _LayoutBuilder:
             if held_along and any(abs(cmath.phase(direction / b)) < _ALONG_BOND for b in held_along):
                 continue      # or on a bond of the atom that holds it
             # (a row of numpy numbers read as Python's, and only where there is a ring to be inside)
-            if polygons and any(_inside(p, poly) for p in moved.tolist() for poly in polygons):
+            if _any_inside(moved, polygons):
                 continue      # never inside someone else's ring
             best = ((min(gap, _CLEARANCE), not blocked), rotation, target - depicted[mover] * rotation, direction)
             if gap >= _CLEARANCE and not blocked:
@@ -1957,7 +1968,7 @@ class _LayoutBuilder:
                 continue
             hop = target - direction if placements.carries_hydrogen else placements.anchor_at + direction
             if (not (len(promised) and np.abs(hop - promised).min() < _HYDROGEN_ROOM)
-                    and not (polygons and any(_inside(p, poly) for p in moved.tolist() for poly in polygons))):
+                    and not _any_inside(moved, polygons)):
                 return (_CLEARANCE, True), rotation, target - placements.mover_at * rotation, direction
         return None
 
@@ -1972,7 +1983,7 @@ class _LayoutBuilder:
         best = None
         for gap, _, moved, direction, rotation, target in round_about:
             if (best is None or min(gap, _CLEARANCE) > best[0][0]) \
-                    and not any(_inside(complex(p), poly) for p in moved for poly in polygons):
+                    and not _any_inside(moved, polygons):
                 best = (min(gap, _CLEARANCE), True), rotation, target - placements.mover_at * rotation, direction
                 if gap >= _CLEARANCE:
                     break
@@ -2057,7 +2068,7 @@ class _LayoutBuilder:
             for option in clear:
                 moved, direction, rotation = moved_all[option], directions[option], rotations[option]
                 target = complex(targets[option])   # Python's complex arithmetic from here, as for every placement
-                if not blocked[option] and not (polygons and any(_inside(p, poly) for p in moved.tolist() for poly in polygons)):
+                if not blocked[option] and not _any_inside(moved, polygons):
                     return ((_CLEARANCE, True), rotation, target - placements.mover_at * rotation, direction)
             start, size = start + size, 2 * size
         return None
@@ -2133,7 +2144,7 @@ class _LayoutBuilder:
             gaps = (np.abs(placed[:, :, None] - np.array(others, dtype=complex)).min(axis=(1, 2)).tolist() if others
                     else [9.0] * len(tries))
             for (pull, side), moved, atoms, gap in zip(tries, shifts.tolist(), placed.tolist(), gaps):
-                if any(_inside(a, poly) for a in atoms for poly in polygons):
+                if _any_inside(atoms, polygons):
                     gap = 0.0
                 # Clear of everything first; then a little more room against a longer wait.
                 score = (min(gap, _CLEARANCE),
@@ -2248,7 +2259,8 @@ class _LayoutBuilder:
         never meets another goes to the right of the drawing. The largest such cluster first: a
         small one (an ion) is then placed by its bonds to it, not left where it was."""
         partial = [k for k, c in enumerate(self.clusters) if c.placement and len(c.placement) < len(c.segments)]
-        for index in sorted(partial, key=lambda k: (-len(self.clusters[k].atoms), self.clusters[k].atoms[0]))[:1]:
+        if partial:
+            index = min(partial, key=lambda k: (-len(self.clusters[k].atoms), self.clusters[k].atoms[0]))
             cluster = self.clusters[index]
             previous = cluster.placement[min(cluster.placement)]    # before its first event: where it waits
             for (start, end), following in zip(cluster.segments, cluster.segments[1:] + [None]):
