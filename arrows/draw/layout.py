@@ -1708,6 +1708,10 @@ class _LayoutBuilder:
     def _place_segment(self, index: int, segment: tuple[int, int], k: int, anchor: int, mover: int, kind: str,
                        hydrogen: Optional[int]) -> None:
         cluster = self.clusters[index]
+        if kind == "bond" and (kept := self._kept_in_place(index, segment)) is not None:
+            cluster.placement[segment[0]] = kept
+            self._apply(index)
+            return
         residence = self._residence_at(hydrogen, anchor, k) if hydrogen is not None else None
         leaves = [e for (arrival, e), (centre, l) in self.backside.items()
                   if kind == "bond" and centre == anchor and l == mover and arrival == segment[1] + 1]
@@ -1822,6 +1826,32 @@ class _LayoutBuilder:
         self._apply(index)
         if hydrogen is not None:
             self._promise(hydrogen, anchor, k, direction, leave_after=round_about is not None)
+
+    def _kept_in_place(self, index: int, segment: tuple[int, int]) -> Optional[tuple]:
+        """The placement of the run of panels before `segment`, if the cluster, left there, keeps
+        every bond it has to placed atoms in the segment's first panel at one bond length and it is
+        bonded to more than one: placed afresh on one of them, it would stretch the others (the
+        sulfur of a chlorosulfite, every bond of which some step changes, turned about its oxygen
+        away from the chlorine it keeps)."""
+        cluster = self.clusters[index]
+        first = segment[0]
+        before = cluster.segment_at.get(first - 1)
+        if before is None or before[0] not in cluster.placement:
+            return None
+        local = cluster.local_at(first)
+        if any(cluster.local_at(first - 1).get(a) != local.get(a) for a in cluster.atoms):
+            return None   # drawn anew from here: its old placement says nothing
+        mine = set(cluster.atoms)
+        here = self.positions[first]
+        links = [(a, n) for a in cluster.atoms if a in self.exists[first] for n in self.neighbours[a]
+                 if n not in mine and n in here and (min(a, n), max(a, n)) in self.bonds_in[first]]
+        if len(links) < 2 and mine & self.touched[first - 1]:
+            return None
+        placement = cluster.placement[before[0]]
+        rotation, shift = placement[:2]
+        if all(abs(abs(shift + rotation * local[a] - here[n]) - 1.0) <= 0.02 for a, n in links):
+            return placement
+        return None
 
     def _four_centre_side(self, anchor: int, mover: int, k: int) -> Optional[complex]:
         """Panel k has the new bond between `anchor` and `mover`; if the step that made it also
