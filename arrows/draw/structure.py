@@ -32,6 +32,12 @@ from .wedges import HASHED, SOLID, choose_wedges, configured_centres
 _HYDROGEN_FIRST = {8, 9, 16, 17, 34, 35, 53}
 _DESCENDERS = frozenset("()gjpqy")   # characters that reach below the baseline
 _DOUBLE_GAP = 0.18   # bond lengths between the two lines of a double bond
+# A minus sign this near a bond stroke (bond lengths) and this near parallel to it (slope) reads as
+# a second line of the bond: about twice a double bond's gap, within 15 degrees (at 20 the two no
+# longer look parallel).
+_MINUS_STROKE_GAP = 0.4
+_MINUS_STROKE_SLOPE = math.tan(math.radians(15))
+_LEVEL_WITH_LABEL = math.sin(math.radians(30))   # directions this near the horizontal
 
 
 @dataclass
@@ -679,10 +685,33 @@ class StructureDrawer:
                            for a, b in bond.lines if abs(complex(*a) - centre) < 2 * reach]
             if any(segment_hits_box(a, b, grown) for a, b in strokes):
                 continue
+            if text.endswith(MINUS) and self._minus_beside_stroke(run, strokes):
+                continue
             middle = complex((tb.x0 + tb.x1) / 2, (tb.y0 + tb.y1) / 2) - centre
             out.occupied[i].append(middle / abs(middle))
             return Mark("charge", i, (run,), box=tb)
         return None
+
+    def _minus_beside_stroke(self, run: TextRun, strokes: list[tuple[complex, complex]]) -> bool:
+        """Whether the minus sign of `run` lies along a bond stroke, near enough to read as the
+        second line of a double bond (DMSO's O- written over its O-S bond reads as O=S)."""
+        width = self.face.width(MINUS, run.size)
+        x0 = run.x + self.face.width(run.text[:-1], run.size)
+        y = run.y - self.face.ink_middle(MINUS) * run.size
+        bl = self.style.bond_length
+        for a, b in strokes:
+            along = b - a
+            if abs(along.real) < 1e-9 or abs(along.imag / along.real) > _MINUS_STROKE_SLOPE:
+                continue
+            low, high = sorted((a.real, b.real))
+            shared = min(high, x0 + width) - max(low, x0)
+            if shared < 0.5 * width:
+                continue
+            middle = max(low, x0) + shared / 2
+            stroke_y = a.imag + along.imag * (middle - a.real) / along.real
+            if abs(stroke_y - y) < _MINUS_STROKE_GAP * bl:
+                return True
+        return False
 
     def _side_text(self, kind: str, i: int, text: str, out: PanelStructure, preferred: complex,
                    italic: bool = False) -> Mark:
@@ -706,11 +735,15 @@ class StructureDrawer:
         # double bond, which its bond directions alone do not show).
         strokes = [(complex(*a), complex(*b)) for bond in out.bonds for a, b in bond.lines
                    if abs(complex(*a) - centre) < reach] if kind == "charge" else []
+        # A minus level with a label, before or after it, reads as a bond into the label ("-Si").
+        labelled = out.atoms[i].box is not None
         for direction in tried:
             mark, slid = self._side_text_at(kind, i, text, out, direction, width, cap, size, italic)
             # Slid far out along a crowded direction, the text no longer reads as the atom's.
             gap = min((_separation(mark.box, b) for b in others), default=math.inf)
-            on_stroke = any(segment_hits_box(a, b, mark.box) for a, b in strokes)
+            on_stroke = any(segment_hits_box(a, b, mark.box) for a, b in strokes) or (
+                text.endswith(MINUS) and (self._minus_beside_stroke(mark.runs[-1], strokes) or (
+                    labelled and abs(direction.imag) < _LEVEL_WITH_LABEL)))
             fault = (gap < pad or on_stroke, slid >= _FAR_SLIDE, 0.0 if kind == "charge" else -min(gap, pad))
             if best is None or fault < best[0]:
                 best = (fault, direction, mark)
@@ -739,6 +772,20 @@ class StructureDrawer:
                 run = TextRun(text, run.x + direction.real * 0.03 * bl, run.y + direction.imag * 0.03 * bl, size, italic=italic)
             else:
                 slid = 12
+            return Mark(kind, i, (run,), box=self.text_box(run)), slid
+        if kind == "charge":
+            # Beside a crowded label a sign slides out between the bonds it would touch (the minus
+            # of a five-bonded silicate, above the Si between its bonds to O and to a methyl).
+            bl = self.style.bond_length
+            lines = [(centre, centre + d * bl) for d in out.bond_directions.get(i, ())]
+            for slid in range(_FAR_SLIDE):
+                box = self.text_box(run)
+                grown = Box(box.x0 - 0.2 * size, box.y0 - 0.2 * size, box.x1 + 0.2 * size, box.y1 + 0.2 * size)
+                if not any(segment_hits_box(a, b, grown) for a, b in lines):
+                    break
+                run = TextRun(text, run.x + direction.real * 0.03 * bl, run.y + direction.imag * 0.03 * bl, size, italic=italic)
+            else:
+                slid = _FAR_SLIDE
             return Mark(kind, i, (run,), box=self.text_box(run)), slid
         return Mark(kind, i, (run,), box=self.text_box(run)), 0
 

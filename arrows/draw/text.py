@@ -33,6 +33,11 @@ class FontFace:
     def descent(self) -> float:
         return _heights(self.family)[1]
 
+    def ink_middle(self, ch: str) -> float:
+        """Height of the middle of a character's ink above the baseline, per em (where the stroke
+        of a minus sign is)."""
+        return _ink_middle(self.family, self.bold, self.italic, ch)
+
 
 @lru_cache(maxsize=None)
 def _context(family: str, bold: bool, italic: bool):
@@ -58,6 +63,12 @@ def _text_advance(family: str, bold: bool, italic: bool, text: str) -> float:
 @lru_cache(maxsize=None)
 def _advance(family: str, bold: bool, italic: bool, ch: str) -> float:
     return _context(family, bold, italic).text_extents(ch)[4] / _REFERENCE_SIZE
+
+
+@lru_cache(maxsize=None)
+def _ink_middle(family: str, bold: bool, italic: bool, ch: str) -> float:
+    _, y_bearing, _, height, _, _ = _context(family, bold, italic).text_extents(ch)
+    return -(y_bearing + height / 2) / _REFERENCE_SIZE
 
 
 @lru_cache(maxsize=None)
