@@ -304,6 +304,53 @@ def test_a_metal_gives_its_second_electron_from_beside_the_acceptor():
         assert _distance(where[metal], where[arrow.sink_atoms[0]]) / scene.bond_length <= 2.6, (panel.index, arrow.move)
 
 
+# Known left: the methylamine of the imine formation joins straight on, so its N stands straight
+# between the methyl and the C it bonds to in every panel, the imine's included. Keeping the
+# 120-degree angle as it joins bends the imine but crowds the carbinolamine's N, whose lone pair
+# then has no room for the arc into its C-N bond (0.71 bond lengths of the 0.8 asked).
+_STRAIGHT_IMINE = "imine-formation"
+
+
+@pytest.mark.parametrize("text,name", [
+    pytest.param(*p.values, id=p.id, marks=pytest.mark.xfail(strict=True, reason="known left: see _STRAIGHT_IMINE"))
+    if p.id == _STRAIGHT_IMINE else p for p in _mechanisms()])
+def test_a_nitrogen_with_a_lone_pair_beside_its_double_bond_is_drawn_bent(text, name):
+    """An open-chain nitrogen with one double and one single bond and no hydrogen (an imine, an
+    azo or oxime nitrogen) has three electron domains and is drawn bent, 120 degrees within 15
+    (VSEPR, common practice; IUPAC 2008 draws trigonal centres at 120). The azo coupling's inner
+    nitrogen, straight in the diazonium ion, was once left straight in the azo compound. A nitrogen on a ring of the bonds
+    of all states together is drawn at that ring's angle throughout (the Staudinger phosphazide,
+    curled for the four-membered array its N2 leaves through)."""
+    trace, _, scene = _scene(text, name)
+    states = [s.before for s in trace.steps] + [trace.steps[-1].after] if trace.steps else [trace.initial]
+    union = Chem.RWMol()
+    for _ in range(max(s.mol.GetNumAtoms() for s in states)):
+        union.AddAtom(Chem.Atom(6))
+    for state in states:
+        for bond in state.mol.GetBonds():
+            i, j = bond.GetBeginAtomIdx(), bond.GetEndAtomIdx()
+            if 1 not in (bond.GetBeginAtom().GetAtomicNum(), bond.GetEndAtom().GetAtomicNum()) \
+                    and union.GetBondBetweenAtoms(i, j) is None:
+                union.AddBond(i, j, Chem.BondType.SINGLE)
+    Chem.FastFindRings(union)
+    ringed = {a.GetIdx() for a in union.GetAtoms() if union.GetRingInfo().NumAtomRings(a.GetIdx())}
+    for panel, state in zip(scene.panels, states):
+        mol = Chem.Mol(state.mol)
+        Chem.SanitizeMol(mol)
+        where = {a.index: a.position for a in panel.atoms}
+        for atom in mol.GetAtoms():
+            if atom.GetSymbol() != "N" or atom.GetDegree() != 2 or atom.GetTotalNumHs() or atom.GetIdx() in ringed \
+                    or atom.GetFormalCharge() or atom.GetIdx() not in where:
+                continue
+            orders = sorted(b.GetBondTypeAsDouble() for b in atom.GetBonds())
+            ends = [n.GetIdx() for n in atom.GetNeighbors()]
+            if orders != [1.0, 2.0] or not all(e in where for e in ends):
+                continue
+            p, a, b = (complex(*where[x]) for x in (atom.GetIdx(), *ends))
+            angle = abs(math.degrees(cmath.phase((a - p) / (b - p))))
+            assert 105 <= angle <= 135, (panel.index, atom.GetIdx(), angle)
+
+
 @pytest.mark.parametrize("text,name", _mechanisms() + [pytest.param(
     'species aibn = "N#C[C:4](C)(C)[N:1]=[N:2][C:3](C)(C)C#N"\nstep "homolysis"\n    C3-N2 ~> C3\n'
     '    C3-N2 ~> N1#N2\n    C4-N1 ~> C4\n    C4-N1 ~> N1#N2\n    releases N1\nend\n', "azo homolysis",
@@ -1265,7 +1312,7 @@ def test_arrows_cross_few_bonds_across_the_gallery():
     assert crossed == []
 
 
-_TEXTBOOK_CROSSINGS = 14   # measured; see the docstring below
+_TEXTBOOK_CROSSINGS = 15   # measured; see the docstring below
 
 
 def test_arrows_cross_few_bonds_across_the_drawn_textbook_schemes():
@@ -1289,9 +1336,11 @@ def test_arrows_cross_few_bonds_across_the_drawn_textbook_schemes():
     ethoxide beside the C-H it takes and then beside the alkoxide it protonates: two
     crossings); 14 since a lone pair beside a skeletal vertex that goes into the vertex's own
     bond may take the gap its charge sign was set in, the sign moving on (the Knoevenagel
-    carbanion's dots had been pushed past a nitrile by its minus sign). Of the 14 left, 4 are
-    arenium hydrogens (nitration, acylation, pyrrole bromination, Pictet-Spengler) on the side
-    away from the bond their pair goes into, which only a skewed substituent would free; 4 are
+    carbanion's dots had been pushed past a nitrile by its minus sign); 15 with the azo coupling
+    added to the corpus, whose sigma complex is one more of the kind below. Of the 15 left, 5 are
+    arenium or sigma-complex hydrogens (nitration, acylation, pyrrole bromination,
+    Pictet-Spengler, azo coupling) on the side away from the bond their pair goes into, which
+    only a skewed substituent would free; 4 are
     proton transfers that reach round a bond from a partner within reach (benzoin's ethoxide to
     the C-H, Dieckmann, the Baeyer-Villiger acetate past the other OH) or cross one molecule
     (benzoin's alkoxide to its OH); 6 are crowded centres and rings (ring expansion, SNAr,

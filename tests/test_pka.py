@@ -17,7 +17,7 @@ from arrows.checks.protons import pka_gap, proton_transfers
 from arrows.cli import cli
 from arrows.judgement.acidity import acidity_of, perceived
 
-from textbook_mechanisms import ACID_ENOLISATION, ENE_REACTION, WOLFF_KISHNER
+from textbook_mechanisms import ACID_ENOLISATION, AZO_COUPLING, ENE_REACTION, WOLFF_KISHNER
 
 GALLERY = sorted((Path(__file__).resolve().parent.parent / "gallery").glob("*.mech"))
 
@@ -228,3 +228,19 @@ def test_a_hydride_base_is_judged_through_h2():
     assert uphill("C[CH3:1]", "[H-:2]", "    :H2 -> H(C1)\n    C1-H -> C1\n") == ["AR508"]
     assert uphill("C[OH:1]", "[H-:2]", "    :H2 -> H(O1)\n    O1-H -> O1\n") == []
     assert uphill("[H:3][H:1]", "[OH-:2]", "    :O2 -> H3\n    H1-H3 -> H1\n") == ["AR508"]
+
+
+def test_a_proton_lost_to_restore_an_aromatic_ring_is_not_judged_as_an_alkane_c_h():
+    """Azo coupling of a diazonium ion with phenoxide (textbook electrophilic aromatic substitution;
+    common practice: the sigma complex loses its proton fast, as that restores the aromatic ring).
+    Water taking the sp3 C-H of the dienone was once judged as removing an alkane C-H (~50),
+    uphill by 52 (AR508). The same water on a C-H whose loss makes no ring aromatic (propane's)
+    is still uphill."""
+    trace, diags = check_text(AZO_COUPLING, "azo.mech")
+    assert not [d for d in diags if d.severity == "error"], [d.to_text() for d in diags]
+    assert not [d.to_text() for d in diags if d.code == "AR508"]
+    assert proton_transfers(trace.steps[1]) == []
+    text = ('species propane = "C[CH2:1]C"\nspecies water = "[OH2:2]"\n'
+            'step "deprotonation"\n    :O2 -> H(C1)\n    C1-H -> C1\nend\n')
+    _, diags = check_text(text, "propane.mech")
+    assert [d.code for d in diags if d.code == "AR508"] == ["AR508"]

@@ -2166,6 +2166,28 @@ end
 product "CCNC(C)=O"
 '''
 
+# Azo coupling of benzenediazonium with phenoxide: a ring carbon para to the oxygen attacks the
+# terminal nitrogen (the sigma complex is a neutral dienone), and water takes the proton, which
+# restores the aromatic ring (4-hydroxyazobenzene, as its phenoxide).
+AZO_COUPLING = '''\
+species diazonium = "c1ccc(cc1)[N+:1]#[N:2]"
+species phenoxide = "[O-:3][c:4]1[cH:5][cH:6][c:7]([H:10])[cH:8][cH:9]1"
+step "attack at the terminal nitrogen"
+    :O3 -> C4=O3
+    C4=C5 -> C5=C6
+    C6=C7 -> C7-N2
+    N2#N1 -> N1
+end
+step "rearomatisation"
+    uses water = "[OH2:11]"
+    :O11 -> H(C7)
+    C7-H -> C6=C7
+    C5=C6 -> C4=C5
+    C4=O3 -> O3
+end
+product "[O-]c1ccc(cc1)/N=N/c1ccccc1"
+'''
+
 # Acid chloride from acetic acid and thionyl chloride: the acid oxygen attacks sulfur, chloride
 # leaves (an acyl chlorosulfite, protonated), chloride takes the proton, chloride adds to the
 # carbonyl carbon, and the tetrahedral intermediate expels SO2 and chloride (acetyl chloride).
@@ -2325,5 +2347,6 @@ TEXTBOOK = {
     "appel": (APPEL, "CCCCBr.[O-][P+](c1ccccc1)(c1ccccc1)c1ccccc1.BrC(Br)Br", True),
     "aibn": (AIBN, "C[C](C)C#N.C[C](C)C#N.N#N", True),
     "amine acetylation": (ACETYLATION, "CCNC(C)=O.CC(=O)[O-].c1cc[nH+]cc1", True),
-    "thionyl chloride": (THIONYL_CHLORIDE, "CC(=O)Cl.O=S=O", False),   # a bond 1.47 long; the chlorosulfite moves out of shape
+    "thionyl chloride": (THIONYL_CHLORIDE, "CC(=O)Cl.O=S=O", False),   # SOCl2's chlorines move apart 0.29 as S takes a fourth bond
+    "azo coupling": (AZO_COUPLING, "[O-]c1ccc(N=Nc2ccccc2)cc1.[OH3+]", True),
 }

@@ -86,6 +86,12 @@ def proton_transfers(st: StepTrace, views: Optional[RecentViews] = None) -> list
         return []
     views = RecentViews() if views is None else views
     acids, conjugates = views.of(st.before), views.of(st.after)
+    # A proton lost from a sigma complex (an arenium ion, or the dienone of an azo coupling or a
+    # phenol's substitution) restores the ring's aromaticity: fast and downhill (common practice),
+    # though the C-H, read by the table, is an alkane's. The pKa of neither is in the table.
+    found = [f for f in found if not _rearomatised(acids, conjugates, f[1])]
+    if not found:
+        return []
     def acidity(view: Perceived, atom: int) -> Optional[Acidity]:
         return HYDROGEN if elements[atom] == 1 else _acidity(view, atom)   # H2, given up or made
     return [ProtonTransfer(b, x, h, loc, acidity(acids, x), acidity(conjugates, b)) for b, x, h, loc in found]
@@ -100,6 +106,13 @@ def _acidity(view: Perceived, atom: int) -> Optional[Acidity]:
     if position not in known:
         known[position] = acidity_of(view.mol, position)
     return known[position]
+
+
+def _rearomatised(before: Perceived, after: Perceived, atom: int) -> bool:
+    """Whether `atom` is aromatic after the step and was not before."""
+    was, now = before.position(atom), after.position(atom)
+    return (now is not None and after.mol.GetAtomWithIdx(now).GetIsAromatic()
+            and not (was is not None and before.mol.GetAtomWithIdx(was).GetIsAromatic()))
 
 
 def _other(pair: tuple[int, ...], atom: int) -> int:

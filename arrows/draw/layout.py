@@ -604,12 +604,12 @@ class _LayoutBuilder:
         self.joining = [_joining(self.states[k], self.molecules[k], self.molecules[k + 1])
                         for k in range(self.n - 1)] + [set()]
         self.sp_atoms: dict[tuple[int, int, int], bool] = {}    # _linear's answers, asked again and again
-        # The atoms _bends looks at: more than two heavy partners over the mechanism, with a
+        # The atoms _bends looks at: two or more heavy partners over the mechanism, with a
         # triple bond or two double bonds among them (a carbonyl carbon, with one, is not).
         self.may_bend: set[int] = set()
         for atom in self.atoms:
             orders = [self.union[(min(atom, n), max(atom, n))] for n in self.neighbours[atom] if self.element[n] != 1]
-            if len(orders) > 2 and (3 in orders or orders.count(2) >= 2):
+            if len(orders) >= 2 and (3 in orders or orders.count(2) >= 2):
                 self.may_bend.add(atom)
 
     # structure of the problem
@@ -1329,13 +1329,21 @@ class _LayoutBuilder:
         return linear
 
     def _bends(self, group: list[int]) -> bool:
-        """Whether an atom of the group is straight (sp) in some panel but not over all of them
-        (one of `may_bend` with two bonds only in that panel)."""
+        """Whether an atom of the group is straight (sp) in some panel but not over all of them:
+        one of `may_bend` with two bonds only in that panel, or one that keeps its two bonds and
+        is bent in another panel (the diazonium's inner N, bent by its lone pair in the azo
+        compound that the coupling makes)."""
         for atom in self.may_bend.intersection(group):
             pairs = [(min(atom, n), max(atom, n)) for n in self.neighbours[atom] if self.element[n] != 1]
+            if len(pairs) == 2:
+                straight = [self._linear(atom, range(k, k + 1)) for k in range(self.n)
+                            if all(pair in self.bonds_in[k] for pair in pairs)]
+                if any(straight) and not all(straight):
+                    return True
+                continue
             for k in range(self.n):
                 here = [pair for pair in pairs if pair in self.bonds_in[k]]
-                if len(here) == 2 and self._linear(atom, range(k, k + 1)) and not self._linear(atom):
+                if len(here) == 2 and self._linear(atom, range(k, k + 1)):
                     return True
         return False
 
