@@ -2188,6 +2188,22 @@ end
 product "[O-]c1ccc(cc1)/N=N/c1ccccc1"
 '''
 
+# Intramolecular Friedel-Crafts acylation: the acylium ion of 4-phenylbutanoic acid (made with
+# AlCl3) closes a six-membered ring onto the ortho carbon, and the arenium ion loses its proton
+# (1-tetralone).
+INTRAMOLECULAR_ACYLATION = '''\
+species acylium = "[O:11]=[C+:10][CH2:9][CH2:8][CH2:7][C:6]1=[CH:5][CH:4]=[CH:3][CH:2]=[CH:1]1"
+step "ring closure at the ortho carbon" under "AlCl3"
+    C5=C6 -> C5-C10
+end
+step "rearomatisation"
+    uses water = "[OH2:12]"
+    :O12 -> H(C5)
+    C5-H -> C5=C6
+end
+product "O=C1CCCc2ccccc21"
+'''
+
 # Acid chloride from acetic acid and thionyl chloride: the acid oxygen attacks sulfur, chloride
 # leaves (an acyl chlorosulfite, protonated), chloride takes the proton, chloride adds to the
 # carbonyl carbon, and the tetrahedral intermediate expels SO2 and chloride (acetyl chloride).
@@ -2349,4 +2365,5 @@ TEXTBOOK = {
     "amine acetylation": (ACETYLATION, "CCNC(C)=O.CC(=O)[O-].c1cc[nH+]cc1", True),
     "thionyl chloride": (THIONYL_CHLORIDE, "CC(=O)Cl.O=S=O", False),   # SOCl2's chlorines move apart 0.29 as S takes a fourth bond
     "azo coupling": (AZO_COUPLING, "[O-]c1ccc(N=Nc2ccccc2)cc1.[OH3+]", True),
+    "intramolecular acylation": (INTRAMOLECULAR_ACYLATION, "O=C1CCCc2ccccc21.[OH3+]", True),
 }

@@ -780,6 +780,8 @@ class _LayoutBuilder:
         pivots = [n for n in heavy if n not in carried]
         if len(pivots) != 2 or partner not in here or end not in here:
             return None
+        if any(end in ring for ring in self._closed_rings(k)):
+            return None   # flipped across its ring neighbours it would fold the ring (an arene's carbon)
         moving = [end] + carried
         first = k
         while first > 0 and all(a in self.exists[first - 1] and a not in self.touched[first - 1] for a in moving):
