@@ -164,7 +164,9 @@ CODES = _table(
          "A source bond is written `-` but is really double or triple; the pi pair is meant, so write `=` or `#`.",
          'C2-O9 -> O9   # C2=O9 is a double bond: write C2=O9 -> O9'),
     Code("AR508", WARNING, "uphill proton transfer",
-         "The base's conjugate acid is much weaker than the acid it deprotonates.",
+         "The base's conjugate acid is much weaker than the acid it deprotonates. Not judged: a "
+         "proton beside a cation (E1, a protonated carbonyl's alpha C-H) or one whose loss makes "
+         "its atom aromatic (an arenium ion or a sigma complex rearomatising).",
          ':O2 -> H(C3)   # water (pKa of hydronium -1.7) taking an alkane C-H (~50)'),
     Code("AR509", WARNING, "migrating group syn to the leaving group",
          "In a 1,2-shift across a double bond of written geometry onto an atom whose leaving group "
