@@ -380,6 +380,10 @@ def _hint_for(exc: UnexpectedInput, text: str, found: str) -> str:
         ch = rest[:1]
         if ch in "→⇒⟶➔":
             return "type the arrow as -> (pair) or ~> (single electron)"
+        if ch in "\u2010\u2011\u2012\u2013\u2014\u2015\u2212":
+            # A word processor's autocorrect turns a typed hyphen into a dash or minus sign.
+            return (f"`{ch}` is a dash, not a hyphen: type the plain hyphen `-` "
+                    f"(bonds C1-C2, arrows ->), as a word processor may have changed it")
         if ch == "'":
             return "strings use double quotes"
         if ch == ">":
