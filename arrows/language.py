@@ -350,6 +350,10 @@ def _hint_for(exc: UnexpectedInput, text: str, found: str) -> str:
             return f"a quoted string is missing before {found}: the keyword before it needs one"
         holds = _STRING_AFTER.get(first_word, "text")
         example = 'species water = "[OH2:12]"' if holds == "SMILES" else 'step "enolate formation"'
+        if rest[:1] in _CURLY_QUOTES:
+            # A word processor's autocorrect curls typed quotes.
+            inside = word.strip(_CURLY_QUOTES)
+            return f'`{rest[:1]}` is a curly quote: type straight double quotes, "{inside}"'
         return f'the {holds} goes in double quotes: write "{word}" (as in {example})'
     if "EQUAL" in expected:
         return f'a species is named with `=`: {first_word or "species"} NAME = "SMILES"'
@@ -412,6 +416,9 @@ def _hint_for(exc: UnexpectedInput, text: str, found: str) -> str:
     if "RPAR" in expected:
         return "close the hydrogen's parentheses: H(C3)"
     return "see the language summary in README.md"
+
+
+_CURLY_QUOTES = "\u201c\u201d\u201e\u201f\u2018\u2019\u00ab\u00bb"
 
 
 def syntax_diagnostic(exc: UnexpectedInput, text: str, file: str) -> Diagnostic:
