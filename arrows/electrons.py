@@ -347,8 +347,12 @@ class _StepReplay:
             raise _StepFailed
         if self.state.elements[index] != _atomic_number(ref.element):
             atom = self.state.mol.GetAtomWithIdx(index)
+            hint = f"write {atom.GetSymbol()}{ref.map_number}"
+            if ref.element == "H" and atom.GetTotalNumHs(includeNeighbors=True):
+                # H2 for "the hydrogen on atom 2": a hydrogen is named by the atom that holds it.
+                hint = f"a hydrogen on {atom.GetSymbol()}{ref.map_number} is written H({atom.GetSymbol()}{ref.map_number})"
             self.fail("AR105", f"{ref} names atom {ref.map_number}, which is {atom.GetSymbol()}, not {ref.element}",
-                      ref.loc, f"write {atom.GetSymbol()}{ref.map_number}", atoms=(str(ref),))
+                      ref.loc, hint, atoms=(str(ref),))
             raise _StepFailed
         self.known[(ref.element, ref.map_number)] = index
         return index

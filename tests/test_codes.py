@@ -118,6 +118,9 @@ TWINS = [
     Twin("atom that enters only in a later step", ALDOL, "C5=O6 -> O6\n", "C5=O6 -> O6\n    :O7 -> C5\n",
          "AR104", "O7", hint_says=("step 2",)),
     Twin("element mismatch", SN2, ":O1 -> C2", ":N1 -> C2", "AR105", "N1", hint_says=("write O1",)),
+    # H4 for the hydrogen on O4: the hint names it the way the language does.
+    Twin("hydrogen named by its holder's map number", ACID_BASE, ":O5 -> H(O4)", ":O5 -> H4", "AR105", "H4",
+         hint_says=("H(O4)",)),
     # RDKit's own reason, located at the character RDKit points at (the unclosed branch).
     Twin("SMILES RDKit cannot read", SN2, '"[CH3:2][Br:3]"', '"[CH3:2]([Br:3]"', "AR102", "([Br:3]",
          says=("parenthes",)),
