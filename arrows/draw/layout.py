@@ -72,6 +72,12 @@ _HOP_OPTIONS = sorted((abs(t) + abs(s) * 0.7 + 8 * e, t, s, e) for t in (0, 1, -
 # A molecule about to bond that finds every spot near its preferred side crowded looks all round
 # its anchor (turns of 20 degrees, the same spins).
 _ROUND_BOND_OPTIONS = sorted((abs(t) + abs(s) * 0.7, t, s, 0.0) for t in range(-9, 10) for s in (0, 1, -1, 2, -2, 6))
+# A chain end (one bond of its own) bonds on at 120 degrees to that bond (_joining_side): a spin
+# about it opens the angle to 150 or 180 (a methylamine's N straight between its methyl and the
+# C it joins) or closes it. Where a spot is clear with the angle kept or mirrored (a spin of 120
+# degrees), it is taken before any other.
+_CHAIN_END_OPTIONS = sorted((abs(t) + (2.8 if s else 0.0), t, s, 0.0) for t in (0, 1, -1, 2, -2, 3, -3)
+                            for s in (0, 4, -4))
 # A partner that hops twice while it stands still looks further round its anchor for a spot near both.
 # (Turns in steps of 10 degrees here, distances in quarter bond lengths.)
 _PARTNER_OPTIONS = sorted((abs(t) + abs(s) * 0.7 + e, t, s, e) for t in np.arange(-5.0, 5.5, 0.5)
@@ -347,7 +353,7 @@ def _rotor(count: int, divisions: int) -> complex:
 
 _COLUMNS: dict[int, tuple[list, tuple[np.ndarray, np.ndarray, np.ndarray]]] = {}
 _SPINS = {spin: _rotor(spin, 6) for spin in {o[2] for options in (_BOND_OPTIONS, _HOP_OPTIONS, _PARTNER_OPTIONS,
-                                                                   _ROUND_OPTIONS) for o in options}}
+                                                                   _ROUND_OPTIONS, _CHAIN_END_OPTIONS) for o in options}}
 _FEW_OPTIONS = 64   # fewer options than this are worked out one by one
 
 
@@ -1796,6 +1802,12 @@ class _LayoutBuilder:
             gap, _, moved, direction, rotation, target = placements.at(0)   # turned neither way
             if gap >= 0.95 and not _any_inside(moved, polygons):
                 best = ((_CLEARANCE, True), rotation, target - depicted[mover] * rotation, direction)
+        elif kind == "bond" and len([n for n in self.neighbours[mover] if n in depicted]) == 1 \
+                and not self._linear(mover, range(k, k + 1)):
+            for gap, _, moved, direction, rotation, target in placements.like(_CHAIN_END_OPTIONS):
+                if gap >= _CLEARANCE and not _any_inside(moved, polygons):
+                    best = ((_CLEARANCE, True), rotation, target - depicted[mover] * rotation, direction)
+                    break
         # In order of preference; the first that keeps its distance from everything wins.
         for gap, blocked, moved, direction, rotation, target in (placements if best is None else ()):
             if best is not None and (min(gap, _CLEARANCE), not blocked) <= best[0]:
