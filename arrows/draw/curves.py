@@ -97,10 +97,12 @@ def _units(z: np.ndarray) -> np.ndarray:
     Python complex uses, and each part is divided alone (numpy's own complex abs and division
     may round differently)."""
     size = np.hypot(z.real, z.imag)
-    out = np.ones(z.shape, dtype=complex)
     ok = size > 1e-12
-    out.real[ok] = z.real[ok] / size[ok]
-    out.imag[ok] = z.imag[ok] / size[ok]
+    # (np.where rather than a boolean mask: selecting by a mask costs more than dividing all)
+    safe = np.where(ok, size, 1.0)
+    out = np.empty(z.shape, dtype=complex)
+    out.real = np.where(ok, z.real / safe, 1.0)
+    out.imag = np.where(ok, z.imag / safe, 0.0)
     return out
 
 
@@ -725,7 +727,7 @@ class ArrowPlanner:
         if marks.shape[1]:
             # The head's barbs spread beyond the shaft: neither may sit on a charge sign or dots.
             arrive = _units(controls[:, 3] - controls[:, 2])[:, None]
-            barbs = tip - arrive * self.head_length + arrive * 1j * np.array([0.5, -0.5]) * self.head_width
+            barbs = tip - arrive * self.head_length + arrive * 1j * _BARB_SIDES * self.head_width
             bx, by = barbs.real[:, :, None], barbs.imag[:, :, None]
             at = marks.take(where, axis=0)[:, None]
             hit = (bx >= at[..., 0]) & (bx <= at[..., 2]) & (by >= at[..., 1]) & (by <= at[..., 3])
@@ -756,9 +758,9 @@ class ArrowPlanner:
         # A 1,2-shift is a clear arc round the outside, away from the atom the group leaves:
         # bulging toward that atom it lies on the bond to the cationic centre, and a flat one
         # reads as a dash between two bonds.
-        pivots = np.array([w.panel.positions[s.pivot] if s.pivot is not None else _NOWHERE
-                           for w in work for s in w.sinks]).take(owner)
-        if np.isfinite(pivots).any():
+        if any(s.pivot is not None for s in sinks):
+            pivots = np.array([w.panel.positions[s.pivot] if s.pivot is not None else _NOWHERE
+                               for w in work for s in w.sinks]).take(owner)
             start, chord = pts[:, 0], _units(pts[:, -1] - pts[:, 0])
             standoff = ((pts[:, _SAMPLES // 2] - start) * np.conj(chord)).imag    # off the chord, to its left
             pivot_side = np.sign(((np.where(np.isfinite(pivots), pivots, start) - start) * np.conj(chord)).imag)
@@ -773,10 +775,10 @@ class ArrowPlanner:
         are the differences of consecutive samples, `sizes` their lengths."""
         steps = np.where(sizes > 1e-12, steps, 1.0)
         turns = steps[:, 1:] / steps[:, :-1]
-        turn = np.abs(np.arctan2(turns.imag, turns.real).sum(axis=1))   # np.angle's arithmetic
+        turn = np.abs(np.add.reduce(np.arctan2(turns.imag, turns.real), axis=1))   # np.angle's arithmetic
         chord = pts[:, -1:] - pts[:, :1]
         chord = chord / np.maximum(np.abs(chord), 1e-9)
-        standoff = np.abs(((pts - pts[:, :1]) * np.conj(chord)).imag).max(axis=1)
+        standoff = np.maximum.reduce(np.abs(((pts - pts[:, :1]) * np.conj(chord)).imag), axis=1)
         loop = (turn > _MAX_TURN) & ((standoff > _LOOP_STANDOFF * self.bl) | (turn > _SELF_CROSSING))
         return np.where(loop, _CURL_WEIGHT * np.degrees(turn - _MAX_TURN), 0.0)
 
@@ -830,11 +832,11 @@ class ArrowPlanner:
         tips_b, starts_b, body_b = second
         cost = np.where(np.abs(tips_a - tips_b) < 0.45 * bl, 150.0, 0.0)
         # Which samples of a's shaft come near some sample of b's: (pairs, s)
-        alongside = (np.abs(body_a[:, :, None] - body_b[:, None, :]) < 0.15 * bl).any(axis=2)
+        alongside = np.logical_or.reduce(np.abs(body_a[:, :, None] - body_b[:, None, :]) < 0.15 * bl, axis=2)
         # Arrows from one bond may share their start: closeness right at a shared start is fine.
         shared = (np.abs(starts_a - starts_b) < 0.3 * bl)[:, None]
         near_start = np.abs(body_a - starts_a[:, None]) < 0.35 * bl
-        cost += 20.0 * (alongside & ~(shared & near_start)).sum(axis=1)
+        cost += 20.0 * np.add.reduce(alongside & ~(shared & near_start), axis=1)
         return cost
 
     @staticmethod
@@ -849,7 +851,7 @@ class ArrowPlanner:
         of_b = dxa * (yb[:, None, :] - ya[:, :-1, None]) - dya * (xb[:, None, :] - xa[:, :-1, None])
         of_a = dxb * (ya[:, None, :] - yb[:, :-1, None]) - dyb * (xa[:, None, :] - xb[:, :-1, None])
         hit = (of_b[..., :-1] * of_b[..., 1:] < 0) & (of_a[..., :-1] * of_a[..., 1:] < 0).transpose(0, 2, 1)
-        return 20.0 * hit.sum(axis=(1, 2))
+        return 20.0 * np.add.reduce(hit, axis=(1, 2))
 
     @staticmethod
     def _choose(options: list[list[_Candidate]], pairs: dict[tuple[int, int], np.ndarray]) -> list[_Candidate]:
@@ -1056,13 +1058,15 @@ def _parameters_at_distances(controls: np.ndarray, distances: np.ndarray) -> lis
     # time finds it, and numpy's element results do not depend on the array's shape.
     lo, span = np.zeros(len(controls)), 1.0
     for _ in range(4):
-        t = lo[:, None] + _SIXTEENTHS * span
+        # (t made complex once: numpy casts a real operand of a complex product on every call)
+        t = (lo[:, None] + _SIXTEENTHS * span).astype(complex)
         far = np.abs(((a * t + b) * t + c) * t + d) > reach
         lo = lo + _halvings().take(far @ _BITS) * (span / 16)
         span /= 16
     return lo.tolist()
 
 
+_BARB_SIDES = np.array([0.5, -0.5], dtype=complex)   # (complex: a real factor is cast on every call)
 _SIXTEENTHS = np.arange(1, 16) / 16   # a round's trial points, as fractions of its span
 _BITS = 1 << np.arange(15)             # trial point k + 1 too far: bit k of the round's pattern
 
@@ -1075,7 +1079,7 @@ def _halvings() -> np.ndarray:
     advance = np.zeros(1 << 15, dtype=np.int64)
     for half in (8, 4, 2, 1):
         advance += half * ((patterns >> (advance + half - 1)) & 1)
-    return advance
+    return advance.astype(float)   # (whole numbers, exact: multiplied by a float span without a cast)
 
 
 _TOUCH = 1e-6   # points: bounding boxes this close count as meeting, so rounding never hides a crossing
