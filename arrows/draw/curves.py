@@ -803,7 +803,8 @@ class ArrowPlanner:
         # Most pairs are of arrows far apart. Where the boxes of two candidates' samples (`extent`)
         # stand more than half a bond length apart along x or y, neither their heads (0.45) nor
         # their shafts (0.15) come close, as a complex number is never shorter than its real or
-        # imaginary part: those terms stay zero there and are worked out for the other pairs only.
+        # imaginary part, and their chords (between samples, inside those boxes) cannot cross:
+        # every term stays zero there, and is worked out for the other pairs only.
         gap = 0.5 * self.bl
         x0, y0, x1, y1 = (column[:, 0] for column in (extent.x0, extent.y0, extent.x1, extent.y1))
         x0a, x1a, y0a, y1a, x0b, x1b, y0b, y1b = (column.take(rows) for rows in (a, b) for column in (x0, x1, y0, y1))
@@ -814,9 +815,9 @@ class ArrowPlanner:
             rows = np.concatenate((a.take(close), b.take(close)))
             tips, starts, body = controls[:, 3].take(rows), controls[:, 0].take(rows), samples.take(rows, axis=0)[:, 2:-1:2]
             n = len(close)
-            cost[close] = self._nearness((tips[:n], starts[:n], body[:n]), (tips[n:], starts[n:], body[n:]))
-        coarse = samples[:, ::4].take(np.concatenate((a, b)), axis=0)     # five chords of each curve
-        cost = cost + self._crossings(coarse[:len(first)], coarse[len(first):])
+            coarse = samples[:, ::4].take(rows, axis=0)     # five chords of each curve
+            cost[close] = (self._nearness((tips[:n], starts[:n], body[:n]), (tips[n:], starts[n:], body[n:]))
+                           + self._crossings(coarse[:n], coarse[n:]))
         start = 0
         for k, i, j, rows, columns in blocks:
             out[k][(i, j)] = cost[start:start + rows * columns].reshape(rows, columns)
