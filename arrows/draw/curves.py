@@ -62,7 +62,9 @@ _WIDE_ANGLE = math.radians(135)   # up to this angle a hook may reach over the n
 _CROOK = 1.0                    # penalty of an arc cramped inside the angle of the two bonds it joins
 # Reductions are called as numpy's ufunc methods (np.add.reduce for .sum, np.minimum.reduce for
 # .min) and nonzero as the array's method: the same work without the Python wrappers, which cost
-# more than the arithmetic on arrays of a few dozen numbers.
+# more than the arithmetic on arrays of a few dozen numbers. Rows are gathered with the array's
+# take (x.take(rows, axis=0), a flat array's take for pairs of indices), not by indexing with
+# an index array: the same copy, at a third of the cost of setting up numpy's general indexing.
 _T = np.linspace(0.0, 1.0, _SAMPLES + 1)
 _BERNSTEIN = np.stack([(1 - _T) ** 3, 3 * _T * (1 - _T) ** 2, 3 * _T ** 2 * (1 - _T), _T ** 3])
 
@@ -95,10 +97,12 @@ def _units(z: np.ndarray) -> np.ndarray:
     Python complex uses, and each part is divided alone (numpy's own complex abs and division
     may round differently)."""
     size = np.hypot(z.real, z.imag)
-    out = np.ones(z.shape, dtype=complex)
     ok = size > 1e-12
-    out.real[ok] = z.real[ok] / size[ok]
-    out.imag[ok] = z.imag[ok] / size[ok]
+    # (np.where rather than a boolean mask: selecting by a mask costs more than dividing all)
+    safe = np.where(ok, size, 1.0)
+    out = np.empty(z.shape, dtype=complex)
+    out.real = np.where(ok, z.real / safe, 1.0)
+    out.imag = np.where(ok, z.imag / safe, 0.0)
     return out
 
 
@@ -267,7 +271,7 @@ class ArrowPlanner:
         # head's base and the shaft's end fall on each curve is found for all arrows at once.
         curves = [c for cands in chosen for c in cands]
         heads = [min(self.head_length, max(0.32 * c.length, 0.6 * self.head_length)) for c in curves]
-        at = _parameters_at_distances(controls[[c.row for c in curves] * 2],
+        at = _parameters_at_distances(controls.take([c.row for c in curves] * 2, axis=0),
                                       np.array(heads + [0.65 * h for h in heads]))
         ends = iter(zip(heads, at[:len(curves)], at[len(curves):]))
         done = iter(zip(work, chosen))
@@ -656,9 +660,9 @@ class ArrowPlanner:
         sources = [s for w in work for s in w.sources]
         sinks = [s for w in work for s in w.sinks]
         sizes = [len(tries) for w in work for tries in w.tries]
-        owner = np.repeat(np.arange(len(sizes)), sizes)                   # each candidate's arrow
-        panel_of = np.repeat(np.arange(len(work)), [len(w.moves) for w in work])   # each arrow's panel
-        where = panel_of[owner]                                            # each candidate's panel
+        owner = np.arange(len(sizes)).repeat(sizes)                        # each candidate's arrow
+        panel_of = np.arange(len(work)).repeat([len(w.moves) for w in work])   # each arrow's panel
+        where = panel_of.take(owner)                                       # each candidate's panel
         arrow = np.arange(len(moves))[:, None]
         obs = [w.obstacles for w in work]
         p0, tip = pts[:, :1], pts[:, -1:]
@@ -668,19 +672,19 @@ class ArrowPlanner:
         own = np.zeros((len(moves), known + 1), dtype=bool)
         named = [(k, i) for k, m in enumerate(moves) for i in m.source_atoms + m.sink_atoms]
         own[[k for k, _ in named], [i for _, i in named]] = True
-        own_labelled = own[arrow, _padded([o.labelled_ids for o in obs], 0, int)[panel_of]]     # (arrows, labels)
-        own_bare = own[arrow, _padded([o.bare_ids for o in obs], 0, int)[panel_of]]             # (arrows, vertices)
+        own_labelled = own[arrow, _padded([o.labelled_ids for o in obs], 0, int).take(panel_of, axis=0)]     # (arrows, labels)
+        own_bare = own[arrow, _padded([o.bare_ids for o in obs], 0, int).take(panel_of, axis=0)]             # (arrows, vertices)
         dots_of = np.array([src.atoms[0] if src.kind == "dots" else -1 for src in sources])   # atom indices are >= 0
-        mine = _padded([o.mark_owner for o in obs], -2, int)[panel_of] == dots_of[:, None]         # an arrow's own dots
+        mine = _padded([o.mark_owner for o in obs], -2, int).take(panel_of, axis=0) == dots_of[:, None]         # an arrow's own dots
         marks = _padded([o.marks for o in obs], _NO_BOX)
         # Every penalty counted per sample, in one array whose last axis is: label boxes, charge
         # signs and dots, skeletal vertices; then the bonds crossed. numpy's cost here is per call.
-        boxes = np.concatenate([_padded([o.label_boxes for o in obs], _NO_BOX), marks], axis=1)[where]
-        bare_xy = _padded([o.bare_xy for o in obs], _NOWHERE, complex)[where]
-        near = np.where(own_bare, 0.12 * bl, 0.24 * bl)[owner]
+        boxes = np.concatenate([_padded([o.label_boxes for o in obs], _NO_BOX), marks], axis=1).take(where, axis=0)
+        bare_xy = _padded([o.bare_xy for o in obs], _NOWHERE, complex).take(where, axis=0)
+        near = np.where(own_bare, 0.12 * bl, 0.24 * bl).take(owner, axis=0)
         counts = np.concatenate([_inner_samples_in_boxes(pts, inner, extent, boxes),
                                  _inner_samples_near(pts, inner, extent, bare_xy, near)], axis=1)
-        ends = _padded([o.bond_ends for o in obs], (0, 0), int)[panel_of]
+        ends = _padded([o.bond_ends for o in obs], (0, 0), int).take(panel_of, axis=0)
         crossing = np.where(own[arrow, ends[..., 0]] | own[arrow, ends[..., 1]], 6.0, 18.0)
         for k, anchors in enumerate(zip(sources, sinks)):
             for anchor in anchors:
@@ -690,30 +694,30 @@ class ArrowPlanner:
                         crossing[k, bond] = 0.0
         weights = np.concatenate([np.where(own_labelled, 40.0, 100.0), np.where(mine, 0.0, 30.0),
                                   np.where(own_bare, 10.0, 30.0), crossing], axis=1)
-        bond_a = _padded([o.bond_a for o in obs], 0j, complex)[where]
-        bond_b = _padded([o.bond_b for o in obs], 0j, complex)[where]
+        bond_a = _padded([o.bond_a for o in obs], 0j, complex).take(where, axis=0)
+        bond_b = _padded([o.bond_b for o in obs], 0j, complex).take(where, axis=0)
         if any(o.stroke_of for o in obs):
             # A bond is crossed once, by whichever of its strokes the curve crosses (a padded
             # stroke has no length and crosses nothing). The bonds' centre lines and the strokes
             # beside them are counted in one batch (whole counts, whatever the columns' order).
-            stroke_a = _padded([o.stroke_a for o in obs], 0j, complex)[where]
-            stroke_b = _padded([o.stroke_b for o in obs], 0j, complex)[where]
+            stroke_a = _padded([o.stroke_a for o in obs], 0j, complex).take(where, axis=0)
+            stroke_b = _padded([o.stroke_b for o in obs], 0j, complex).take(where, axis=0)
             both = _crossing_counts(pts, np.concatenate((bond_a, stroke_a), axis=1),
                                     np.concatenate((bond_b, stroke_b), axis=1), extent)
             crossed, strokes = both[:, :bond_a.shape[1]], both[:, bond_a.shape[1]:]
-            of = _padded([o.stroke_of for o in obs], 0, int)[where]
+            of = _padded([o.stroke_of for o in obs], 0, int).take(where, axis=0)
             np.maximum.at(crossed, (np.arange(len(pts))[:, None], of), strokes)
         else:
             crossed = _crossing_counts(pts, bond_a, bond_b, extent)
         # The bonds each candidate crosses that are not its own (both ends named by its move):
         # whether wider arcs are worth a try.
         foreign = (crossing > 0) & ~(own[arrow, ends[..., 0]] & own[arrow, ends[..., 1]])
-        crossings = np.add.reduce((crossed > 0) & foreign[owner], axis=1).tolist()
+        crossings = np.add.reduce((crossed > 0) & foreign.take(owner, axis=0), axis=1).tolist()
         counts = np.concatenate([counts, crossed], axis=1)
         # Whole counts times whole weights: the sum is exact, whatever the padding and order.
-        cost = np.add.reduce(counts * weights[owner], axis=1)
+        cost = np.add.reduce(counts * weights.take(owner, axis=0), axis=1)
         # Bulging into the molecule: atoms crowding the middle third of the curve.
-        atom_xy = _padded([o.atom_xy for o in obs], _NOWHERE, complex)[where][:, None, :]
+        atom_xy = _padded([o.atom_xy for o in obs], _NOWHERE, complex).take(where, axis=0)[:, None, :]
         crowding = np.maximum(1.1 - np.abs(pts[:, _SAMPLES // 3: 2 * _SAMPLES // 3 + 1, None] - atom_xy) / bl, 0)   # (np.clip's work)
         # A sum of fractions depends on its order: each panel sums its own atoms, unpadded and
         # laid out as one block, as if it were scored alone.
@@ -723,12 +727,12 @@ class ArrowPlanner:
         if marks.shape[1]:
             # The head's barbs spread beyond the shaft: neither may sit on a charge sign or dots.
             arrive = _units(controls[:, 3] - controls[:, 2])[:, None]
-            barbs = tip - arrive * self.head_length + arrive * 1j * np.array([0.5, -0.5]) * self.head_width
+            barbs = tip - arrive * self.head_length + arrive * 1j * _BARB_SIDES * self.head_width
             bx, by = barbs.real[:, :, None], barbs.imag[:, :, None]
-            at = marks[where][:, None]
+            at = marks.take(where, axis=0)[:, None]
             hit = (bx >= at[..., 0]) & (bx <= at[..., 2]) & (by >= at[..., 1]) & (by <= at[..., 3])
-            cost += 30.0 * np.add.reduce(hit & ~mine[owner][:, None, :], axis=(1, 2))
-        outward = np.array([src.outward if src.kind == "dots" else 0j for src in sources])[owner]
+            cost += 30.0 * np.add.reduce(hit & ~mine.take(owner, axis=0)[:, None, :], axis=(1, 2))
+        outward = np.array([src.outward if src.kind == "dots" else 0j for src in sources]).take(owner)
         leave = controls[:, 1] - controls[:, 0]
         leave = leave / np.maximum(np.abs(leave), 1e-9)
         # Leaving the dots back across the atom reads as coming from the wrong place.
@@ -744,18 +748,19 @@ class ArrowPlanner:
                              _PAIR_ARC if src.kind == "dots" and snk.kind == "bond" and src.atoms[0] in snk.atoms else 0.0
                              for m, src, snk in zip(moves, sources, sinks)])
         if shortest.any():
-            cost += _SHORT_HOOK * np.maximum(0.0, shortest[owner] - lengths / bl)
+            cost += _SHORT_HOOK * np.maximum(0.0, shortest.take(owner) - lengths / bl)
         # A pair leaving a bond: one clean arc, never a loop.
-        from_bond = np.flatnonzero(np.array([src.kind == "bond" for src in sources])[owner])
+        from_bond = np.array([src.kind == "bond" for src in sources]).take(owner).nonzero()[0]
         if len(from_bond):
-            cost[from_bond] += self._curl(pts[from_bond], steps[from_bond], sizes[from_bond])   # only those rows
+            cost[from_bond] += self._curl(pts.take(from_bond, axis=0), steps.take(from_bond, axis=0),
+                                          sizes.take(from_bond, axis=0))   # only those rows
         cost += _CROOK * _in_crook(pts[:, _SAMPLES // 2], sources, sinks, owner, [obs[k] for k in panel_of])
         # A 1,2-shift is a clear arc round the outside, away from the atom the group leaves:
         # bulging toward that atom it lies on the bond to the cationic centre, and a flat one
         # reads as a dash between two bonds.
-        pivots = np.array([w.panel.positions[s.pivot] if s.pivot is not None else _NOWHERE
-                           for w in work for s in w.sinks])[owner]
-        if np.isfinite(pivots).any():
+        if any(s.pivot is not None for s in sinks):
+            pivots = np.array([w.panel.positions[s.pivot] if s.pivot is not None else _NOWHERE
+                               for w in work for s in w.sinks]).take(owner)
             start, chord = pts[:, 0], _units(pts[:, -1] - pts[:, 0])
             standoff = ((pts[:, _SAMPLES // 2] - start) * np.conj(chord)).imag    # off the chord, to its left
             pivot_side = np.sign(((np.where(np.isfinite(pivots), pivots, start) - start) * np.conj(chord)).imag)
@@ -770,10 +775,10 @@ class ArrowPlanner:
         are the differences of consecutive samples, `sizes` their lengths."""
         steps = np.where(sizes > 1e-12, steps, 1.0)
         turns = steps[:, 1:] / steps[:, :-1]
-        turn = np.abs(np.arctan2(turns.imag, turns.real).sum(axis=1))   # np.angle's arithmetic
+        turn = np.abs(np.add.reduce(np.arctan2(turns.imag, turns.real), axis=1))   # np.angle's arithmetic
         chord = pts[:, -1:] - pts[:, :1]
         chord = chord / np.maximum(np.abs(chord), 1e-9)
-        standoff = np.abs(((pts - pts[:, :1]) * np.conj(chord)).imag).max(axis=1)
+        standoff = np.maximum.reduce(np.abs(((pts - pts[:, :1]) * np.conj(chord)).imag), axis=1)
         loop = (turn > _MAX_TURN) & ((standoff > _LOOP_STANDOFF * self.bl) | (turn > _SELF_CROSSING))
         return np.where(loop, _CURL_WEIGHT * np.degrees(turn - _MAX_TURN), 0.0)
 
@@ -798,20 +803,21 @@ class ArrowPlanner:
         # Most pairs are of arrows far apart. Where the boxes of two candidates' samples (`extent`)
         # stand more than half a bond length apart along x or y, neither their heads (0.45) nor
         # their shafts (0.15) come close, as a complex number is never shorter than its real or
-        # imaginary part: those terms stay zero there and are worked out for the other pairs only.
+        # imaginary part, and their chords (between samples, inside those boxes) cannot cross:
+        # every term stays zero there, and is worked out for the other pairs only.
         gap = 0.5 * self.bl
         x0, y0, x1, y1 = (column[:, 0] for column in (extent.x0, extent.y0, extent.x1, extent.y1))
-        close = np.flatnonzero(~((x0[a] > x1[b] + gap) | (x0[b] > x1[a] + gap)
-                                 | (y0[a] > y1[b] + gap) | (y0[b] > y1[a] + gap)))
+        x0a, x1a, y0a, y1a, x0b, x1b, y0b, y1b = (column.take(rows) for rows in (a, b) for column in (x0, x1, y0, y1))
+        close = (~((x0a > x1b + gap) | (x0b > x1a + gap) | (y0a > y1b + gap) | (y0b > y1a + gap))).nonzero()[0]
         cost = np.zeros(len(first))
         if len(close):
             # Both sides in one gathering, then split: numpy's cost here is per call.
-            rows = np.concatenate((a[close], b[close]))
-            tips, starts, body = controls[rows, 3], controls[rows, 0], samples[rows][:, 2:-1:2]
+            rows = np.concatenate((a.take(close), b.take(close)))
+            tips, starts, body = controls[:, 3].take(rows), controls[:, 0].take(rows), samples.take(rows, axis=0)[:, 2:-1:2]
             n = len(close)
-            cost[close] = self._nearness((tips[:n], starts[:n], body[:n]), (tips[n:], starts[n:], body[n:]))
-        coarse = samples[:, ::4][np.concatenate((a, b))]     # five chords of each curve
-        cost = cost + self._crossings(coarse[:len(first)], coarse[len(first):])
+            coarse = samples[:, ::4].take(rows, axis=0)     # five chords of each curve
+            cost[close] = (self._nearness((tips[:n], starts[:n], body[:n]), (tips[n:], starts[n:], body[n:]))
+                           + self._crossings(coarse[:n], coarse[n:]))
         start = 0
         for k, i, j, rows, columns in blocks:
             out[k][(i, j)] = cost[start:start + rows * columns].reshape(rows, columns)
@@ -827,11 +833,11 @@ class ArrowPlanner:
         tips_b, starts_b, body_b = second
         cost = np.where(np.abs(tips_a - tips_b) < 0.45 * bl, 150.0, 0.0)
         # Which samples of a's shaft come near some sample of b's: (pairs, s)
-        alongside = (np.abs(body_a[:, :, None] - body_b[:, None, :]) < 0.15 * bl).any(axis=2)
+        alongside = np.logical_or.reduce(np.abs(body_a[:, :, None] - body_b[:, None, :]) < 0.15 * bl, axis=2)
         # Arrows from one bond may share their start: closeness right at a shared start is fine.
         shared = (np.abs(starts_a - starts_b) < 0.3 * bl)[:, None]
         near_start = np.abs(body_a - starts_a[:, None]) < 0.35 * bl
-        cost += 20.0 * (alongside & ~(shared & near_start)).sum(axis=1)
+        cost += 20.0 * np.add.reduce(alongside & ~(shared & near_start), axis=1)
         return cost
 
     @staticmethod
@@ -846,7 +852,7 @@ class ArrowPlanner:
         of_b = dxa * (yb[:, None, :] - ya[:, :-1, None]) - dya * (xb[:, None, :] - xa[:, :-1, None])
         of_a = dxb * (ya[:, None, :] - yb[:, :-1, None]) - dyb * (xa[:, None, :] - xb[:, :-1, None])
         hit = (of_b[..., :-1] * of_b[..., 1:] < 0) & (of_a[..., :-1] * of_a[..., 1:] < 0).transpose(0, 2, 1)
-        return 20.0 * hit.sum(axis=(1, 2))
+        return 20.0 * np.add.reduce(hit, axis=(1, 2))
 
     @staticmethod
     def _choose(options: list[list[_Candidate]], pairs: dict[tuple[int, int], np.ndarray]) -> list[_Candidate]:
@@ -1032,9 +1038,9 @@ def _in_crook(middles: np.ndarray, sources: list[_Anchor], sinks: list[_Anchor],
     # array's shape, and its cost is per call).
     crooked = np.zeros(len(sources), dtype=bool)
     crooked[list(angles)] = True
-    rows = np.flatnonzero(crooked[owner])
-    pivots, bisectors, halves = zip(*(angles[k] for k in owner[rows].tolist()))
-    seen = np.angle((middles[rows] - np.array(pivots)) / np.array(bisectors))
+    rows = crooked.take(owner).nonzero()[0]
+    pivots, bisectors, halves = zip(*(angles[k] for k in owner.take(rows).tolist()))
+    seen = np.angle((middles.take(rows) - np.array(pivots)) / np.array(bisectors))
     out[rows] = np.abs(seen) < np.array(halves)
     return out
 
@@ -1053,13 +1059,15 @@ def _parameters_at_distances(controls: np.ndarray, distances: np.ndarray) -> lis
     # time finds it, and numpy's element results do not depend on the array's shape.
     lo, span = np.zeros(len(controls)), 1.0
     for _ in range(4):
-        t = lo[:, None] + _SIXTEENTHS * span
+        # (t made complex once: numpy casts a real operand of a complex product on every call)
+        t = (lo[:, None] + _SIXTEENTHS * span).astype(complex)
         far = np.abs(((a * t + b) * t + c) * t + d) > reach
-        lo = lo + _halvings()[far @ _BITS] * (span / 16)
+        lo = lo + _halvings().take(far @ _BITS) * (span / 16)
         span /= 16
     return lo.tolist()
 
 
+_BARB_SIDES = np.array([0.5, -0.5], dtype=complex)   # (complex: a real factor is cast on every call)
 _SIXTEENTHS = np.arange(1, 16) / 16   # a round's trial points, as fractions of its span
 _BITS = 1 << np.arange(15)             # trial point k + 1 too far: bit k of the round's pattern
 
@@ -1072,7 +1080,7 @@ def _halvings() -> np.ndarray:
     advance = np.zeros(1 << 15, dtype=np.int64)
     for half in (8, 4, 2, 1):
         advance += half * ((patterns >> (advance + half - 1)) & 1)
-    return advance
+    return advance.astype(float)   # (whole numbers, exact: multiplied by a float span without a cast)
 
 
 _TOUCH = 1e-6   # points: bounding boxes this close count as meeting, so rounding never hides a crossing
@@ -1093,12 +1101,13 @@ def _inner_samples_in_boxes(pts: np.ndarray, inner: np.ndarray, extent: _Extent,
     them: only the others are tested, sample by sample."""
     meet = ((boxes[..., 0] <= extent.x1) & (boxes[..., 2] >= extent.x0)
             & (boxes[..., 1] <= extent.y1) & (boxes[..., 3] >= extent.y0))
-    c, k = meet.nonzero()
-    box = boxes[c, k]
-    x, y = pts.real[c], pts.imag[c]
-    hit = ((x >= box[:, 0:1]) & (x <= box[:, 2:3]) & (y >= box[:, 1:2]) & (y <= box[:, 3:4])) & inner[c]
+    pairs = meet.ravel().nonzero()[0]            # row * boxes + box
+    c = pairs // meet.shape[1]
+    box = boxes.reshape(-1, 4).take(pairs, axis=0)
+    x, y = pts.real.take(c, axis=0), pts.imag.take(c, axis=0)
+    hit = ((x >= box[:, 0:1]) & (x <= box[:, 2:3]) & (y >= box[:, 1:2]) & (y <= box[:, 3:4])) & inner.take(c, axis=0)
     out = np.zeros(meet.shape, dtype=int)
-    out[c, k] = np.add.reduce(hit, axis=1)
+    out.put(pairs, np.add.reduce(hit, axis=1))
     return out
 
 
@@ -1110,10 +1119,12 @@ def _inner_samples_near(pts: np.ndarray, inner: np.ndarray, extent: _Extent, poi
     reach = radius * 1.001 + _TOUCH
     meet = ((points.real >= extent.x0 - reach) & (points.real <= extent.x1 + reach)
             & (points.imag >= extent.y0 - reach) & (points.imag <= extent.y1 + reach))
-    c, k = meet.nonzero()
-    hit = (np.abs(pts[c] - points[c, k][:, None]) < radius[c, k][:, None]) & inner[c]
+    pairs = meet.ravel().nonzero()[0]            # row * points + point
+    c = pairs // meet.shape[1]
+    hit = ((np.abs(pts.take(c, axis=0) - points.take(pairs)[:, None]) < radius.take(pairs)[:, None])
+           & inner.take(c, axis=0))
     out = np.zeros(meet.shape, dtype=int)
-    out[c, k] = np.add.reduce(hit, axis=1)
+    out.put(pairs, np.add.reduce(hit, axis=1))
     return out
 
 
@@ -1128,19 +1139,22 @@ def _crossing_counts(pts: np.ndarray, a: np.ndarray, b: np.ndarray, extent: _Ext
     top, bottom = np.minimum(a.imag, b.imag), np.maximum(a.imag, b.imag)
     meet = ((left <= extent.x1 + _TOUCH) & (right >= extent.x0 - _TOUCH)
             & (top <= extent.y1 + _TOUCH) & (bottom >= extent.y0 - _TOUCH))
-    c, e = meet.nonzero()
-    ax, ay, bx, by = a.real[c, e], a.imag[c, e], b.real[c, e], b.imag[c, e]
+    pairs = meet.ravel().nonzero()[0]            # row * edges + edge
+    c = pairs // edges
+    start, end = a.take(pairs), b.take(pairs)
+    ax, ay, bx, by = start.real, start.imag, end.real, end.imag
     ex, ey = (bx - ax)[:, None], (by - ay)[:, None]
-    px, py = pts.real[c], pts.imag[c]
+    px, py = pts.real.take(c, axis=0), pts.imag.take(c, axis=0)
     # Which side of each bond's line every sample lies on; a polyline segment crosses the line
     # where its two ends lie on opposite sides. Few do, so only those are tested further: do
     # the bond's ends lie on opposite sides of that segment?
     side = ey * (ax[:, None] - px) - ex * (ay[:, None] - py)
-    k, s = (side[:, :-1] * side[:, 1:] < 0).nonzero()
-    x0, y0 = px[k, s], py[k, s]
-    dx, dy = px[k, s + 1] - x0, py[k, s + 1] - y0
-    o1 = dx * (ay[k] - y0) - dy * (ax[k] - x0)
-    o2 = dx * (by[k] - y0) - dy * (bx[k] - x0)
+    steps = (side[:, :-1] * side[:, 1:] < 0).ravel().nonzero()[0]   # pair * (samples - 1) + step
+    k = steps // (side.shape[1] - 1)
+    first = steps + k                                                # pair * samples + step: the step's first sample
+    x0, y0 = px.take(first), py.take(first)
+    dx, dy = px.take(first + 1) - x0, py.take(first + 1) - y0
+    o1 = dx * (ay.take(k) - y0) - dy * (ax.take(k) - x0)
+    o2 = dx * (by.take(k) - y0) - dy * (bx.take(k) - x0)
     hit = o1 * o2 < 0
-    crossed = c[k[hit]] * edges + e[k[hit]]
-    return np.bincount(crossed, minlength=rows * edges).reshape(rows, edges)
+    return np.bincount(pairs.take(k.compress(hit)), minlength=rows * edges).reshape(rows, edges)
