@@ -2204,6 +2204,199 @@ end
 product "O=C1CCCc2ccccc21"
 '''
 
+# Robinson annulation of 2-methylcyclohexanone with methyl vinyl ketone: the more substituted
+# (thermodynamic) enolate adds to MVK, the new methyl ketone's enolate closes the six-membered ring
+# onto the ring ketone, and E1cB dehydration gives the octalone (4a-methyl-4,4a,5,6,7,8-hexahydro-
+# naphthalen-2(3H)-one).
+ROBINSON_METHYLCYCLOHEXANONE = '''\
+species ketone = "[CH3:7][CH:6]1[CH2:5][CH2:4][CH2:3][CH2:2][C:1]1=[O:8]"
+species mvk = "[CH2:9]=[CH:10][C:11](=[O:12])[CH3:13]"
+species base = "CC[O-:14]"
+step "enolate (more substituted side)" reversible over "NaOEt" under "EtOH"
+    :O14 -> H(C6)
+    C6-H -> C1=C6
+    C1=O8 -> O8
+end
+step "conjugate addition"
+    :O8 -> C1=O8
+    C1=C6 -> C6-C9
+    C9=C10 -> C10=C11
+    C11=O12 -> O12
+end
+step "protonation of the enolate at carbon" reversible
+    :O12 -> C11=O12
+    C10=C11 -> C10-H(O14)
+    O14-H -> O14
+end
+step "enolate at the methyl ketone" reversible
+    :O14 -> H(C13)
+    C13-H -> C11=C13
+    C11=O12 -> O12
+end
+step "ring-closing aldol" reversible
+    :O12 -> C11=O12
+    C11=C13 -> C13-C1
+    C1=O8 -> O8
+end
+step "protonation of the alkoxide" reversible
+    :O8 -> H(O14)
+    O14-H -> O14
+end
+step "enolate for dehydration" reversible
+    :O14 -> H(C13)
+    C13-H -> C11=C13
+    C11=O12 -> O12
+end
+step "E1cB"
+    :O12 -> C11=O12
+    C11=C13 -> C13=C1
+    C1-O8 -> O8
+end
+product "CC12CCCCC1=CC(=O)CC2"
+'''
+
+# Acid-catalysed hydrolysis of ethyl acetate (AAC2): the protonated carbonyl takes water, a proton
+# moves to the ethoxy oxygen, ethanol leaves and the protonated acid loses its proton.
+ACID_ESTER_HYDROLYSIS = '''\
+species ester = "[CH3:1][C:2](=[O:3])[O:4][CH2:5][CH3:6]"
+species acid = "[OH3+:7]"
+species water = "[OH2:8]"
+step "protonation of the carbonyl" reversible over "H3O+ (cat.)"
+    :O3 -> H(O7)
+    O7-H -> O7
+end
+step "water adds" reversible
+    :O8 -> C2
+    C2=O3 -> O3
+end
+step "proton off the new OH" reversible
+    :O7 -> H(O8)
+    O8-H -> O8
+end
+step "proton onto the ethoxy oxygen" reversible
+    uses acid_2 = "[OH3+:9]"
+    :O4 -> H(O9)
+    O9-H -> O9
+end
+step "ethanol leaves" reversible
+    :O3 -> C2=O3
+    C2-O4 -> O4
+    releases O4
+end
+step "deprotonation" reversible
+    :O9 -> H(O3)
+    O3-H -> O3
+end
+product "CC(=O)O"
+'''
+
+# Henry (nitroaldol) reaction: triethylamine makes the nitronate of nitromethane, which adds to
+# benzaldehyde; the alkoxide takes the proton back (2-nitro-1-phenylethanol).
+HENRY = '''\
+species nitro = "[CH3:1][N+:2](=[O:3])[O-:4]"
+species base = "CC[N:5](CC)CC"
+species aldehyde = "c1ccccc1[CH:6]=[O:7]"
+step "nitronate formation" reversible over "Et3N"
+    :N5 -> H(C1)
+    C1-H -> C1=N2
+    N2=O3 -> O3
+end
+step "addition to the aldehyde" reversible
+    :O3 -> N2=O3
+    C1=N2 -> C1-C6
+    C6=O7 -> O7
+end
+step "proton transfer"
+    :O7 -> H(N5)
+    N5-H -> N5
+end
+product "OC(C[N+](=O)[O-])c1ccccc1"
+'''
+
+# Acid-catalysed ring closure of 5-hydroxypentanal to the cyclic hemiacetal (tetrahydropyran-2-ol),
+# as sugars close to pyranoses.
+CYCLIC_HEMIACETAL = '''\
+species chain = "[O:1]=[CH:2][CH2:3][CH2:4][CH2:5][CH2:6][OH:7]"
+species acid = "[OH3+:8]"
+step "protonation of the carbonyl" reversible
+    :O1 -> H(O8)
+    O8-H -> O8
+end
+step "ring closure" reversible
+    :O7 -> C2
+    C2=O1 -> O1
+end
+step "loss of the proton" reversible
+    :O8 -> H(O7)
+    O7-H -> O7
+end
+product "OC1CCCCO1"
+'''
+
+# 2-Chloroethylamine closes to aziridine: the amine displaces chloride intramolecularly (3-exo-tet)
+# and hydroxide takes the proton from the aziridinium ion.
+AZIRIDINE_CLOSURE = '''\
+species amine = "[NH2:1][CH2:2][CH2:3][Cl:4]"
+species base = "[OH-:5]"
+step "intramolecular substitution"
+    :N1 -> C3
+    C3-Cl4 -> Cl4
+end
+step "deprotonation"
+    :O5 -> H(N1)
+    N1-H -> N1
+end
+product "C1CN1"
+'''
+
+# Claisen-Schmidt condensation: acetone's enolate adds to benzaldehyde and the aldol dehydrates by
+# E1cB to (E)-4-phenylbut-3-en-2-one (benzalacetone).
+CLAISEN_SCHMIDT = '''\
+species ketone = "[CH3:1][C:2](=[O:3])[CH3:4]"
+species base = "[OH-:5]"
+species aldehyde = "c1ccccc1[CH:6]=[O:7]"
+step "enolate" reversible over "NaOH" under "EtOH, H2O"
+    :O5 -> H(C1)
+    C1-H -> C1=C2
+    C2=O3 -> O3
+end
+step "addition" reversible
+    :O3 -> C2=O3
+    C1=C2 -> C1-C6
+    C6=O7 -> O7
+end
+step "proton transfer" reversible
+    :O7 -> H(O5)
+    O5-H -> O5
+end
+step "second enolate" reversible
+    :O5 -> H(C1)
+    C1-H -> C1=C2
+    C2=O3 -> O3
+end
+step "E1cB"
+    :O3 -> C2=O3
+    C1=C2 -> C1=C6
+    C6-O7 -> O7
+end
+product "CC(=O)/C=C/c1ccccc1"
+'''
+
+# Butyllithium adds to acetone: the C-Li pair makes the C-C bond and the alkoxide binds lithium
+# (the lithium alkoxide of 2-methylhexan-2-ol).
+ORGANOLITHIUM_ADDITION = '''\
+species buli = "CCC[CH2:1][Li:2]"
+species ketone = "C[C:3](=[O:4])C"
+step "addition"
+    C1-Li2 -> C1-C3
+    C3=O4 -> O4
+end
+step "lithium alkoxide"
+    :O4 -> Li2
+end
+product "CCCCC(C)(C)O[Li]"
+'''
+
 # Acid chloride from acetic acid and thionyl chloride: the acid oxygen attacks sulfur, chloride
 # leaves (an acyl chlorosulfite, protonated), chloride takes the proton, chloride adds to the
 # carbonyl carbon, and the tetrahedral intermediate expels SO2 and chloride (acetyl chloride).
@@ -2366,4 +2559,12 @@ TEXTBOOK = {
     "thionyl chloride": (THIONYL_CHLORIDE, "CC(=O)Cl.O=S=O", False),   # SOCl2's chlorines move apart 0.29 as S takes a fourth bond
     "azo coupling": (AZO_COUPLING, "[O-]c1ccc(N=Nc2ccccc2)cc1.[OH3+]", True),
     "intramolecular acylation": (INTRAMOLECULAR_ACYLATION, "O=C1CCCc2ccccc21.[OH3+]", True),
+    "robinson annulation": (ROBINSON_METHYLCYCLOHEXANONE, "CC12CCCCC1=CC(=O)CC2", True),
+    "acid ester hydrolysis": (ACID_ESTER_HYDROLYSIS, "CC(=O)O.CCO", True),
+    "henry": (HENRY, "OC(C[N+](=O)[O-])c1ccccc1", True),
+    "cyclic hemiacetal": (CYCLIC_HEMIACETAL, "OC1CCCCO1", True),
+    "aziridine closure": (AZIRIDINE_CLOSURE, "C1CN1", True),
+    # (E) in the textbook; the bookkeeping sets no geometry for an alkene made by E1cB from unconfigured centres
+    "claisen-schmidt": (CLAISEN_SCHMIDT, "CC(=O)C=Cc1ccccc1", True),
+    "organolithium addition": (ORGANOLITHIUM_ADDITION, "CCCCC(C)(C)O[Li]", True),
 }
