@@ -2397,6 +2397,61 @@ end
 product "CCCCC(C)(C)O[Li]"
 '''
 
+# Methyl ester from acetic acid and diazomethane: the acid protonates diazomethane at carbon (its
+# C=N pair takes the proton as N=N- becomes N#N+), and the carboxylate displaces N2 from the
+# methyldiazonium ion.
+DIAZOMETHANE_ESTERIFICATION = '''\
+species acid = "C[C:1](=[O:2])[OH:3]"
+species diazomethane = "[CH2:4]=[N+:5]=[N-:6]"
+step "proton transfer to carbon"
+    :N6 -> N5#N6
+    C4=N5 -> C4-H(O3)
+    O3-H -> O3
+end
+step "substitution with loss of nitrogen"
+    :O3 -> C4
+    C4-N5 -> N5
+    releases N5
+end
+product "CC(=O)OC"
+'''
+
+# Acid-catalysed opening of 2,2-dimethyloxirane by methanol: the protonated epoxide is attacked at
+# the more substituted carbon (2-methoxy-2-methylpropan-1-ol).
+ACID_EPOXIDE_OPENING = '''\
+species epoxide = "C[C:1]1(C)[CH2:2][O:3]1"
+species acid = "[OH3+:4]"
+species methanol = "C[OH:5]"
+step "protonation of the epoxide" reversible
+    :O3 -> H(O4)
+    O4-H -> O4
+end
+step "methanol at the more substituted carbon"
+    :O5 -> C1
+    C1-O3 -> O3
+end
+step "deprotonation"
+    :O4 -> H(O5)
+    O5-H -> O5
+end
+product "COC(C)(C)CO"
+'''
+
+# Ionic addition of HBr to propene: protonation at the terminal carbon gives the secondary cation
+# (Markovnikov), which bromide captures (2-bromopropane).
+MARKOVNIKOV_HBR = '''\
+species propene = "C[CH:1]=[CH2:2]"
+species hbr = "[H:3][Br:4]"
+step "protonation at the terminal carbon"
+    C1=C2 -> C2-H3
+    H3-Br4 -> Br4
+end
+step "bromide captures the cation"
+    :Br4 -> C1
+end
+product "CC(C)Br"
+'''
+
 # Acid chloride from acetic acid and thionyl chloride: the acid oxygen attacks sulfur, chloride
 # leaves (an acyl chlorosulfite, protonated), chloride takes the proton, chloride adds to the
 # carbonyl carbon, and the tetrahedral intermediate expels SO2 and chloride (acetyl chloride).
@@ -2567,4 +2622,7 @@ TEXTBOOK = {
     # (E) in the textbook; the bookkeeping sets no geometry for an alkene made by E1cB from unconfigured centres
     "claisen-schmidt": (CLAISEN_SCHMIDT, "CC(=O)C=Cc1ccccc1", True),
     "organolithium addition": (ORGANOLITHIUM_ADDITION, "CCCCC(C)(C)O[Li]", True),
+    "diazomethane esterification": (DIAZOMETHANE_ESTERIFICATION, "CC(=O)OC", True),
+    "acid epoxide opening": (ACID_EPOXIDE_OPENING, "COC(C)(C)CO", True),
+    "markovnikov hbr addition": (MARKOVNIKOV_HBR, "CC(C)Br", True),
 }
