@@ -755,39 +755,36 @@ class StructureDrawer:
 
     def _side_text_at(self, kind: str, i: int, text: str, out: PanelStructure, direction: complex,
                       width: float, cap: float, size: float, italic: bool) -> tuple[Mark, int]:
-        """The mark in `direction`, and how many steps it slid out to clear a vertex's bonds."""
+        """The mark in `direction`, and how many steps it slid out to clear the atom's bonds."""
         centre = out.positions[i]
         half = max(width, cap) / 2
         reach = out.label_reach(i, direction) or 0.18 * self.style.bond_length
         spot = centre + direction * (reach + half + 0.08 * self.style.font_size)
         run = TextRun(text, spot.real - width / 2, spot.imag + cap / 2, size, italic=italic)
+        bl = self.style.bond_length
+        lines = [(centre, centre + d * bl) for d in out.bond_directions.get(i, ())]
         if out.atoms[i].box is None:
             # Beside a skeletal vertex the text slides out until it is clear of the vertex's bond
             # lines, so a sign never reads as part of a bond end.
-            bl = self.style.bond_length
-            lines = [(centre, centre + d * bl) for d in out.bond_directions.get(i, ())]
-            for slid in range(12):
-                if _clear_of(self.text_box(run), lines, _SIDE_TEXT_CLEARANCE * bl):
-                    break
-                run = TextRun(text, run.x + direction.real * 0.03 * bl, run.y + direction.imag * 0.03 * bl, size, italic=italic)
-            else:
-                slid = 12
-            return Mark(kind, i, (run,), box=self.text_box(run)), slid
-        if kind == "charge":
+            def clear(box: Box) -> bool:
+                return _clear_of(box, lines, _SIDE_TEXT_CLEARANCE * bl)
+            steps = 12
+        elif kind == "charge":
             # Beside a crowded label a sign slides out between the bonds it would touch (the minus
             # of a five-bonded silicate, above the Si between its bonds to O and to a methyl).
-            bl = self.style.bond_length
-            lines = [(centre, centre + d * bl) for d in out.bond_directions.get(i, ())]
-            for slid in range(_FAR_SLIDE):
-                box = self.text_box(run)
+            def clear(box: Box) -> bool:
                 grown = Box(box.x0 - 0.2 * size, box.y0 - 0.2 * size, box.x1 + 0.2 * size, box.y1 + 0.2 * size)
-                if not any(segment_hits_box(a, b, grown) for a, b in lines):
-                    break
-                run = TextRun(text, run.x + direction.real * 0.03 * bl, run.y + direction.imag * 0.03 * bl, size, italic=italic)
-            else:
-                slid = _FAR_SLIDE
-            return Mark(kind, i, (run,), box=self.text_box(run)), slid
-        return Mark(kind, i, (run,), box=self.text_box(run)), 0
+                return not any(segment_hits_box(a, b, grown) for a, b in lines)
+            steps = _FAR_SLIDE
+        else:
+            return Mark(kind, i, (run,), box=self.text_box(run)), 0
+        for slid in range(steps):
+            if clear(self.text_box(run)):
+                break
+            run = TextRun(text, run.x + direction.real * 0.03 * bl, run.y + direction.imag * 0.03 * bl, size, italic=italic)
+        else:
+            slid = steps
+        return Mark(kind, i, (run,), box=self.text_box(run)), slid
 
     def radical_dot(self, i: int, out: PanelStructure, preferred: complex) -> Mark:
         direction = best_direction(out.occupied[i], preferred)
