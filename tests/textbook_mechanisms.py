@@ -2452,6 +2452,19 @@ end
 product "CC(C)Br"
 '''
 
+# Diels-Alder of cyclopentadiene with acrolein: three arrows round the six-membered cyclic array make
+# the bicyclo[2.2.1] adduct (5-norbornene-2-carbaldehyde, endo and exo not told apart by the bookkeeping).
+CYCLOPENTADIENE_DIELS_ALDER = '''\
+species diene = "[CH:1]1=[CH:2][CH:3]=[CH:4][CH2:5]1"
+species dienophile = "[CH2:6]=[CH:7][CH:8]=O"
+step "cycloaddition" under "heat"
+    C1=C2 -> C2=C3
+    C3=C4 -> C4-C6
+    C6=C7 -> C7-C1
+end
+product "O=CC1CC2C=CC1C2"
+'''
+
 # Acid chloride from acetic acid and thionyl chloride: the acid oxygen attacks sulfur, chloride
 # leaves (an acyl chlorosulfite, protonated), chloride takes the proton, chloride adds to the
 # carbonyl carbon, and the tetrahedral intermediate expels SO2 and chloride (acetyl chloride).
@@ -2625,4 +2638,5 @@ TEXTBOOK = {
     "diazomethane esterification": (DIAZOMETHANE_ESTERIFICATION, "CC(=O)OC", True),
     "acid epoxide opening": (ACID_EPOXIDE_OPENING, "COC(C)(C)CO", True),
     "markovnikov hbr addition": (MARKOVNIKOV_HBR, "CC(C)Br", True),
+    "cyclopentadiene diels-alder": (CYCLOPENTADIENE_DIELS_ALDER, "O=CC1CC2C=CC1C2", True),
 }

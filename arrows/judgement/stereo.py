@@ -9,6 +9,7 @@ are reported with the state's own atom indices.
 from __future__ import annotations
 
 from dataclasses import dataclass
+from functools import lru_cache
 from itertools import combinations, product
 from typing import Iterable, Optional
 
@@ -274,7 +275,30 @@ def stereoisomer_count(mol: Chem.Mol, uncontrolled: Iterable[int] = ()) -> Optio
             written.add(Chem.MolToSmiles(work))
         except Exception:   # RDKit refuses an assignment of an odd intermediate: unknown, not a guess
             return None
+    if any(info.type == Chem.StereoType.Atom_Tetrahedral for info in open_elements) and _bridged(plain):
+        return sum(1 for smiles in written if _embeds(smiles))
     return len(written)
+
+
+def _bridged(mol: Chem.Mol) -> bool:
+    """Whether two of the smallest rings share more than one bond (a bicyclo[2.2.1] system: fused
+    rings share one)."""
+    rings = [set(ring) for ring in Chem.GetSymmSSSR(mol)]
+    return any(len(a & b) > 2 for a, b in combinations(rings, 2))
+
+
+@lru_cache(maxsize=256)
+def _embeds(smiles: str) -> bool:
+    """Whether RDKit's distance geometry finds 3D coordinates for this stereoisomer. A bridged
+    ring ties its bridgeheads' configurations together: an assignment it cannot hold (one
+    bridgehead of a norbornane inverted) has no coordinates, and is no stereoisomer (as RDKit's
+    EnumerateStereoisomers judges with tryEmbedding). Remembered: each state of a mechanism asks
+    again about the same product (an embedding costs some 10-40 ms)."""
+    from rdkit.Chem import rdDistGeom   # loads numpy: only ever asked for bridged rings
+    params = rdDistGeom.ETKDGv3()
+    params.randomSeed = 2718   # a fixed seed: the same answer on every run
+    params.maxIterations = 10
+    return rdDistGeom.EmbedMolecule(Chem.AddHs(Chem.MolFromSmiles(smiles)), params) == 0
 
 
 def _stereogenic_bond(mol: Chem.Mol, ranks: list[int], info) -> bool:
