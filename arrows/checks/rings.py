@@ -119,7 +119,14 @@ def _ring_closed(st: StepTrace, i: int, j: int, before: tuple[int, ...], pericyc
         return ()                # two molecules joined by one bond: no ring
     work = Chem.RWMol(st.after.mol)
     work.RemoveBond(i, j)
-    return ring_path(work, i, j)
+    # The ring of the cyclic array, made of the bonds the step makes or changes: a Diels-Alder of
+    # cyclopentadiene closes its six-membered array, though its CH2 bridge makes a shorter ring.
+    changed = {frozenset(b) for b in st.change.formed} | {frozenset(b) for b, _, _ in st.change.reordered}
+    array = Chem.RWMol(work)
+    for bond in work.GetBonds():
+        if frozenset((bond.GetBeginAtomIdx(), bond.GetEndAtomIdx())) not in changed:
+            array.RemoveBond(bond.GetBeginAtomIdx(), bond.GetEndAtomIdx())
+    return ring_path(array, i, j) or ring_path(work, i, j)
 
 
 def _nucleophile_and_target(st: StepTrace, i: int, j: int) -> tuple[int, int, Location]:
