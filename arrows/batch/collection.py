@@ -146,7 +146,8 @@ def _record(number: int, prefix: str, outcome: FigureOutcome) -> SchemeRecord:
                         slug=outcome.source.slug, title=meta["title"], caption=meta["caption"],
                         steps=meta["steps"], diagnostics=tuple(meta["diagnostics"]),
                         figure_problem=meta["figure_problem"], key=outcome.key, rendered=outcome.rendered,
-                        figure_size=tuple(meta["figure_size"]) if meta.get("figure_size") else None)
+                        figure_size=tuple(meta["figure_size"]) if meta.get("figure_size") else None,
+                        layout_notes=tuple(meta.get("layout_notes", ())))
 
 
 def _font_family(style: str) -> str:

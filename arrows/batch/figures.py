@@ -58,22 +58,26 @@ def make_figure(job: FigureJob) -> FigureOutcome:
 def draw_scheme(source: Source, style_name: str) -> FigureEntry:
     """Check the mechanism and draw it; errors are drawn marked on the figure, as far as the moves
     could be replayed. A figure that cannot be drawn is reported, not raised."""
-    from ..draw import STYLES, render_svg
+    from ..draw import STYLES, build_scene
+    from ..draw.svg import scene_to_svg
     from .pdf import svg_to_pdf
 
     trace, diags = check_file_as(source)
-    svg, problem = None, None
+    svg, problem, notes = None, None, ()
     if trace is None or trace.initial is None:
         problem = "no figure: the mechanism could not be read (see the diagnostics)"
     else:
         try:
-            # The page heading and the index carry the title: the figure does not repeat it.
+            # The page heading and the index carry the title: the figure does not repeat it. Errors
+            # are drawn marked, as `arrows draw --force` draws them.
             style = STYLES[style_name].with_options(show_title=False)
-            svg = render_svg(trace, style=style, force=True, diagnostics=diags)
+            scene = build_scene(trace, style, diags)
+            svg, notes = scene_to_svg(scene), scene.notes
         except Exception as exc:  # any drawing failure is one scheme's failure, not the batch's
             problem = f"the figure could not be drawn: {type(exc).__name__}: {exc}"
     pdf = svg_to_pdf(svg, title=_title(trace, source)) if svg is not None else None
     meta = _meta(source, trace, diags, problem)
+    meta["layout_notes"] = list(notes)   # where the layout had to compromise: the figure wants a look
     if svg is not None:
         figure = parse_figure(svg)
         meta["figure_size"] = [figure.width, figure.height]

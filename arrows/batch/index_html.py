@@ -71,6 +71,7 @@ def _section(record: SchemeRecord) -> str:
                  f'<a href="{escape(record.file_stem)}.pdf">PDF</a>.')
     status = f"<strong>{escape(record.status())}</strong>" if record.failed else escape(record.status())
     items = "".join(_diagnostic(d) for d in record.diagnostics)
+    items += "".join(f'<li class="note">figure: {escape(note)}</li>' for note in record.layout_notes)
     diagnostics = f'<ul class="diagnostics">{items}</ul>' if items else ""
     kind = "scheme failed" if record.failed else "scheme"
     return (f'<section class="{kind}" id="{label}"><h2>Scheme {label}. {escape(record.heading)}</h2>'

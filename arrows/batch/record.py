@@ -23,6 +23,7 @@ class SchemeRecord:
     key: Optional[str]               # cache key of the figure
     rendered: bool                   # drawn in this run (False: from the cache)
     figure_size: Optional[tuple[float, float]] = None   # width, height in points
+    layout_notes: tuple[str, ...] = ()   # where the layout had to compromise ("check the figure")
 
     @property
     def heading(self) -> str:

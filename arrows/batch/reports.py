@@ -27,7 +27,8 @@ def report_dict(records: list[SchemeRecord], complete: bool, tool_version: str) 
             {"label": r.label, "number": r.number, "file": r.name, "title": r.title, "caption": r.caption,
              "steps": r.steps, "status": r.status(), "failed": r.failed, "errors": r.errors,
              "warnings": r.warnings, "figure": f"{r.file_stem}.svg" if r.has_figure else None,
-             "figure_problem": r.figure_problem, "rendered": r.rendered, "diagnostics": list(r.diagnostics)}
+             "figure_problem": r.figure_problem, "rendered": r.rendered, "diagnostics": list(r.diagnostics),
+             "layout_notes": list(r.layout_notes)}
             for r in records
         ],
     }

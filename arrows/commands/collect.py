@@ -90,6 +90,9 @@ def collect_command(inputs, output, style, paper, flow, prefix, title, authors, 
     except OSError as exc:
         cannot_write(junit, exc)
     failed = [r for r in result.records if r.failed]
+    for record in result.records:
+        for note in record.layout_notes:
+            click.echo(f"{record.label} {record.name}: note: {note}", err=True)
     for record in failed:
         click.echo(f"{record.label} {record.name}: {record.status()}", err=True)
         for d in record.diagnostics:
