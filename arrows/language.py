@@ -283,6 +283,10 @@ _KEYWORD_PLACE = {
 _STRING_AFTER = {"species": "SMILES", "uses": "SMILES", "expect": "SMILES", "product": "SMILES", "all": "SMILES",
                  "step": "label", "over": "text", "under": "text", "title": "text", "caption": "text"}
 
+# What a word processor's autocorrect makes of a typed quote or hyphen.
+_CURLY_QUOTES = "\u201c\u201d\u201e\u201f\u2018\u2019\u00ab\u00bb"
+_DASHES = "\u2010\u2011\u2012\u2013\u2014\u2015\u2212"
+
 
 def _or_list(words: list[str]) -> str:
     return words[0] if len(words) == 1 else ", ".join(words[:-1]) + " or " + words[-1]
@@ -351,7 +355,6 @@ def _hint_for(exc: UnexpectedInput, text: str, found: str) -> str:
         holds = _STRING_AFTER.get(first_word, "text")
         example = 'species water = "[OH2:12]"' if holds == "SMILES" else 'step "enolate formation"'
         if rest[:1] in _CURLY_QUOTES:
-            # A word processor's autocorrect curls typed quotes.
             inside = word.strip(_CURLY_QUOTES)
             return f'`{rest[:1]}` is a curly quote: type straight double quotes, "{inside}"'
         return f'the {holds} goes in double quotes: write "{word}" (as in {example})'
@@ -384,8 +387,7 @@ def _hint_for(exc: UnexpectedInput, text: str, found: str) -> str:
         ch = rest[:1]
         if ch in "→⇒⟶➔":
             return "type the arrow as -> (pair) or ~> (single electron)"
-        if ch in "\u2010\u2011\u2012\u2013\u2014\u2015\u2212":
-            # A word processor's autocorrect turns a typed hyphen into a dash or minus sign.
+        if ch in _DASHES:
             return (f"`{ch}` is a dash, not a hyphen: type the plain hyphen `-` "
                     f"(bonds C1-C2, arrows ->), as a word processor may have changed it")
         if ch == "'":
@@ -416,9 +418,6 @@ def _hint_for(exc: UnexpectedInput, text: str, found: str) -> str:
     if "RPAR" in expected:
         return "close the hydrogen's parentheses: H(C3)"
     return "see the language summary in README.md"
-
-
-_CURLY_QUOTES = "\u201c\u201d\u201e\u201f\u2018\u2019\u00ab\u00bb"
 
 
 def syntax_diagnostic(exc: UnexpectedInput, text: str, file: str) -> Diagnostic:
