@@ -369,6 +369,28 @@ def test_a_nitrogen_with_a_lone_pair_beside_its_double_bond_is_drawn_bent(text, 
             assert 105 <= angle <= 135, (panel.index, atom.GetIdx(), angle)
 
 
+@pytest.mark.parametrize("text,name", _mechanisms())
+def test_a_carbon_between_two_double_bonds_drawn_straight_is_written_out(text, name):
+    """The middle carbon of cumulated double bonds drawn in line (CO2, an isocyanate's N=C=O, a
+    ketene, an allene) is written as a letter: a bare vertex there cannot be seen, the two double
+    lines running on as one (common practice in skeletal formulas). The bond orders are RDKit's
+    reading of each state. The Curtius and Hofmann isocyanates were once drawn as N=  =O, and the
+    decarboxylation's CO2 as O=  =O."""
+    trace, _, scene = _scene(text, name)
+    states = [s.before for s in trace.steps] + [trace.steps[-1].after] if trace.steps else [trace.initial]
+    for panel, state in zip(scene.panels, states):
+        drawn = {a.index: a for a in panel.atoms}
+        for atom in state.mol.GetAtoms():
+            ends = [n.GetIdx() for n in atom.GetNeighbors()]
+            if atom.GetSymbol() != "C" or len(ends) != 2 or atom.GetIdx() not in drawn \
+                    or any(b.GetBondTypeAsDouble() != 2.0 for b in atom.GetBonds()) \
+                    or not all(e in drawn for e in ends):
+                continue
+            p, a, b = (complex(*drawn[x].position) for x in (atom.GetIdx(), *ends))
+            if abs(math.degrees(cmath.phase((a - p) / (b - p)))) > 165:
+                assert drawn[atom.GetIdx()].box is not None, (panel.index, atom.GetIdx())
+
+
 @pytest.mark.parametrize("text,name", _mechanisms() + [pytest.param(
     'species aibn = "N#C[C:4](C)(C)[N:1]=[N:2][C:3](C)(C)C#N"\nstep "homolysis"\n    C3-N2 ~> C3\n'
     '    C3-N2 ~> N1#N2\n    C4-N1 ~> C4\n    C4-N1 ~> N1#N2\n    releases N1\nend\n', "azo homolysis",

@@ -39,6 +39,10 @@ metal with no bond made (Birch reduction); a phosphonium that trades its bromide
 bromide waiting off phosphorus before it displaces the oxygen at carbon (Appel); an azo initiator
 that falls apart into two tertiary radicals and N2, every bond split evenly (AIBN); an amine
 acetylated by an anhydride, a third species (pyridine) taking the proton once acetate has left.
+Then: CO2 lost from a beta-keto acid and an alkene made from an ester, each through a six-membered
+cyclic array (the ketone's enol; Ei), a nitrile caught by a carbocation (Ritter), a 1,2-methyl
+shift (Wagner-Meerwein), an oxocarbenium met by an alkene (Prins), a five-membered ether closed by
+an alkoxide (5-exo-tet), a malonate enolate alkylated, and a furan made by acid (Paal-Knorr).
 
 Each entry: (mechanism text, textbook product SMILES, drawn): `drawn` says whether the geometry
 tests draw it. All do but five. (Fixed in the layout and the tests since: the Dieckmann
@@ -2529,6 +2533,176 @@ end
 product "C1=CCC=CC1"
 '''
 
+# A beta-keto acid (acetoacetic acid) loses CO2 on heating through a six-membered cyclic array: the
+# ketone oxygen takes the acid proton as C3-C4 breaks, giving the enol of acetone and CO2.
+BETA_KETO_ACID_DECARBOXYLATION = '''\
+species acid = "[CH3:8][C:1](=[O:2])[CH2:3][C:4](=[O:5])[O:6][H:7]"
+step "decarboxylation" under "heat"
+    C1=O2 -> O2-H7
+    O6-H7 -> C4=O6
+    C3-C4 -> C1=C3
+end
+product "CC(O)=C.O=C=O"
+'''
+
+# Ester pyrolysis (Ei): ethyl acetate on strong heating gives ethene and acetic acid, the carbonyl
+# oxygen taking a beta hydrogen through a six-membered cyclic array (a syn elimination).
+ESTER_PYROLYSIS = '''\
+species ester = "[CH3:9][C:1](=[O:2])[O:3][CH2:4][CH2:5][H:6]"
+step "syn elimination" under "500 °C"
+    C1=O2 -> O2-H6
+    C5-H6 -> C4=C5
+    C4-O3 -> C1=O3
+end
+product "C=C.CC(=O)O"
+'''
+
+# Ritter reaction: the tert-butyl cation is caught by acetonitrile's nitrogen; water adds to the
+# nitrilium ion, and proton transfers and a tautomerisation give N-tert-butylacetamide.
+RITTER = '''\
+species cation = "[CH3:10][C+:1]([CH3:11])[CH3:12]"
+species nitrile = "[CH3:13][C:2]#[N:3]"
+step "nitrile attacks the cation"
+    :N3 -> C1
+end
+step "water adds to the nitrilium ion"
+    uses water = "[OH2:4]"
+    :O4 -> C2
+    C2#N3 -> N3
+end
+step "deprotonation"
+    uses water2 = "[OH2:5]"
+    :O5 -> H(O4)
+    O4-H -> O4
+end
+step "tautomerisation"
+    :N3 -> H(O5)
+    O5-H -> O5
+    releases O5
+end
+step "amide"
+    :O4 -> C2=O4
+    C2=N3 -> N3
+end
+step "deprotonation of the amide"
+    uses water3 = "[OH2:14]"
+    :O14 -> H(O4)
+    O4-H -> O4
+end
+product "CC(=O)NC(C)(C)C.[OH3+]"
+'''
+
+# Wagner-Meerwein 1,2-methyl shift: the 3,3-dimethyl-2-butyl cation becomes the tertiary
+# 2,3-dimethyl-2-butyl cation, which loses a proton to water (2,3-dimethylbut-2-ene).
+METHYL_SHIFT = '''\
+species cation = "[CH3:5][CH+:1][C:2]([CH3:3])([CH3:6])[CH3:7]"
+step "1,2-methyl shift"
+    C2-C3 -> C1-C3
+end
+step "deprotonation"
+    uses water = "[OH2:8]"
+    :O8 -> H(C1)
+    C1-H -> C1=C2
+end
+product "CC(C)=C(C)C.[OH3+]"
+'''
+
+# Prins reaction: protonated formaldehyde adds to 2-methylpropene at its CH2 end (the tertiary
+# cation), water captures the cation, and a proton transfer gives 3-methylbutane-1,3-diol.
+PRINS = '''\
+species oxonium = "[CH2:1]=[OH+:2]"
+species alkene = "[CH2:3]=[C:4]([CH3:5])[CH3:6]"
+step "alkene attacks"
+    C3=C4 -> C1-C3
+    C1=O2 -> O2
+end
+step "water captures the cation"
+    uses water = "[OH2:7]"
+    :O7 -> C4
+end
+step "deprotonation"
+    uses water2 = "[OH2:8]"
+    :O8 -> H(O7)
+    O7-H -> O7
+end
+product "CC(C)(O)CCO.[OH3+]"
+'''
+
+# Intramolecular Williamson ether synthesis: 4-chlorobutoxide closes tetrahydrofuran (5-exo-tet).
+INTRAMOLECULAR_WILLIAMSON = '''\
+species alkoxide = "[O-:1][CH2:2][CH2:3][CH2:4][CH2:5][Cl:6]"
+step "ring closure"
+    :O1 -> C5
+    C5-Cl6 -> Cl6
+end
+product "C1CCOC1.[Cl-]"
+'''
+
+# Malonic ester synthesis, alkylation: ethoxide forms the enolate of diethyl malonate, which
+# takes a methyl group from iodomethane (SN2) to give diethyl methylmalonate.
+MALONIC_ESTER_ALKYLATION = '''\
+species malonate = "[CH3:20][CH2:21][O:22][C:1](=[O:2])[CH2:3][C:4](=[O:5])[O:23][CH2:24][CH3:25]"
+species ethoxide = "[CH3:26][CH2:27][O-:6]"
+step "enolate formation" reversible
+    :O6 -> H(C3)
+    C3-H -> C3=C1
+    C1=O2 -> O2
+end
+step "alkylation"
+    uses iodomethane = "[CH3:7][I:8]"
+    C3=C1 -> C3-C7
+    :O2 -> C1=O2
+    C7-I8 -> I8
+end
+product "CCOC(=O)C(C)C(=O)OCC.CCO.[I-]"
+'''
+
+# Paal-Knorr furan synthesis: hexane-2,5-dione in aqueous acid; one carbonyl enolises, its enol
+# oxygen closes onto the other (protonated) carbonyl, and loss of water and a proton gives
+# 2,5-dimethylfuran.
+PAAL_KNORR = '''\
+species dione = "[CH3:7][C:1](=[O:2])[CH2:3][CH2:4][C:5](=[O:6])[CH3:8]"
+species acid = "[OH3+:9]"
+step "protonation" reversible
+    :O2 -> H(O9)
+    O9-H -> O9
+end
+step "enolisation" reversible
+    :O9 -> H(C3)
+    C3-H -> C3=C1
+    C1=O2 -> O2
+end
+step "second protonation" reversible
+    uses acid2 = "[OH3+:10]"
+    :O6 -> H(O10)
+    O10-H -> O10
+end
+step "enol oxygen closes the ring"
+    :O2 -> C5
+    C5=O6 -> O6
+end
+step "deprotonation" reversible
+    :O10 -> H(O2)
+    O2-H -> O2
+end
+step "loss of water"
+    uses acid3 = "[OH3+:11]"
+    :O6 -> H(O11)
+    O11-H -> O11
+end
+step "oxocarbenium"
+    :O2 -> C5=O2
+    C5-O6 -> O6
+    releases O6
+end
+step "aromatisation"
+    :O11 -> H(C4)
+    C4-H -> C4=C5
+    C5=O2 -> O2
+end
+product "Cc1ccc(C)o1"
+'''
+
 TEXTBOOK = {
     "wittig": (WITTIG, "C=C(C)C.O=P(c1ccccc1)(c1ccccc1)c1ccccc1", True),
     "bromination": (BROMINATION, "Br[C@@H]1CCCC[C@H]1Br", True),
@@ -2639,4 +2813,12 @@ TEXTBOOK = {
     "acid epoxide opening": (ACID_EPOXIDE_OPENING, "COC(C)(C)CO", True),
     "markovnikov hbr addition": (MARKOVNIKOV_HBR, "CC(C)Br", True),
     "cyclopentadiene diels-alder": (CYCLOPENTADIENE_DIELS_ALDER, "O=CC1CC2C=CC1C2", True),
+    "beta-keto acid decarboxylation": (BETA_KETO_ACID_DECARBOXYLATION, "CC(O)=C.O=C=O", True),
+    "ester pyrolysis": (ESTER_PYROLYSIS, "C=C.CC(=O)O", True),
+    "ritter": (RITTER, "CC(=O)NC(C)(C)C.[OH3+]", True),
+    "wagner-meerwein methyl shift": (METHYL_SHIFT, "CC(C)=C(C)C.[OH3+]", True),
+    "prins": (PRINS, "CC(C)(O)CCO.[OH3+]", True),
+    "intramolecular williamson": (INTRAMOLECULAR_WILLIAMSON, "C1CCOC1.[Cl-]", True),
+    "malonic ester alkylation": (MALONIC_ESTER_ALKYLATION, "CCOC(=O)C(C)C(=O)OCC.CCO.[I-]", True),
+    "paal-knorr furan": (PAAL_KNORR, "Cc1ccc(C)o1.[OH3+].O", True),
 }

@@ -262,19 +262,26 @@ def _joining(before: ElectronState, before_molecules: Sequence[Sequence[int]],
     return out
 
 
-def _aligned(moving: dict[int, complex], fixed: dict[int, complex], anchors: list[int]) -> dict[int, complex]:
+def _aligned(moving: dict[int, complex], fixed: dict[int, complex], anchors: list[int],
+             fallback: Optional[Iterable[int]] = None) -> dict[int, complex]:
     """`moving` turned (or mirrored) and shifted onto `fixed` by least squares over `anchors` (over
-    every shared atom when fewer than two anchors are left)."""
+    the `fallback` atoms, by default every shared one, when fewer than two anchors are left; a lone
+    anchor then stays exactly in place, the turn fitted on the others: the one atom the step leaves
+    alone does not move)."""
     shared = [a for a in anchors if a in moving and a in fixed]
+    pivot = shared[0] if len(shared) == 1 else None
     if len(shared) < 2:
-        shared = [a for a in moving if a in fixed]
+        shared = [a for a in (moving if fallback is None else fallback) if a in moving and a in fixed]
     if len(shared) < 2:
         return moving
     best = None
     for mirror in (False, True):
         points = {a: (p.conjugate() if mirror else p) for a, p in moving.items()}
-        m = sum(points[a] for a in shared) / len(shared)
-        f = sum(fixed[a] for a in shared) / len(shared)
+        if pivot is None:
+            m = sum(points[a] for a in shared) / len(shared)
+            f = sum(fixed[a] for a in shared) / len(shared)
+        else:
+            m, f = points[pivot], fixed[pivot]
         turn = _unit(sum((fixed[a] - f) * (points[a] - m).conjugate() for a in shared))
         placed = {a: f + turn * (p - m) for a, p in points.items()}
         misfit = sum(abs(placed[a] - fixed[a]) ** 2 for a in shared)
@@ -1198,7 +1205,9 @@ class _LayoutBuilder:
                 aligned: dict[int, complex] = {}
                 for piece in pieces.groups():
                     part = {a: local[a] for a in piece}
-                    aligned.update(_aligned(part, runs[-1][1], [a for a in piece if a not in self.touched[start - 1]]))
+                    # (a hydrogen that hops across the piece would only turn it: the heavy atoms fit it)
+                    aligned.update(_aligned(part, runs[-1][1], [a for a in piece if a not in self.touched[start - 1]],
+                                            [a for a in piece if self.element[a] != 1]))
                 local = aligned
             runs.append((start, local))
             start = end + 1

@@ -152,6 +152,29 @@ def _separation(a: Box, b: Box) -> float:
     return max(b.x0 - a.x1, a.x0 - b.x1, b.y0 - a.y1, a.y0 - b.y1)
 
 
+_STRAIGHT = math.cos(math.radians(165))   # two bonds this near opposite run on as one line
+
+
+def carbons_to_letter(bonds: list[tuple[int, int, int]], positions: dict[int, complex], element: list[int]) -> set[int]:
+    """Skeletal carbons that must be written as a letter because a bare vertex would not be seen:
+    the middle carbon of cumulated double bonds drawn straight (O=C=O, C=C=C, N=C=O), where the two
+    double lines run on as one (common practice in skeletal formulas)."""
+    multiple: dict[int, list[tuple[int, int]]] = {}   # carbon -> its (partner, order) of order two or more
+    for i, j, order in bonds:
+        if order >= 2:
+            for a, b in ((i, j), (j, i)):
+                if element[a] == 6:
+                    multiple.setdefault(a, []).append((b, order))
+    letters = set()
+    for i, partners in multiple.items():
+        if len(partners) == 2 and partners[0][1] == partners[1][1] and i in positions \
+                and all(j in positions for j, _ in partners):
+            a, b = (positions[j] - positions[i] for j, _ in partners)
+            if (a.real * b.real + a.imag * b.imag) / (abs(a) * abs(b)) < _STRAIGHT:
+                letters.add(i)
+    return letters
+
+
 def _unit_or_zero(z: complex) -> complex:
     size = abs(z)
     return z / size if size > 1e-12 else 0j
@@ -276,9 +299,10 @@ class StructureDrawer:
             for i in pair:
                 if i in ahead:
                     ahead[i] += [_unit_or_zero(positions[j] - positions[i]) for j in pair if j != i and j in positions]
+        lettered = carbons_to_letter(bonds, positions, state.elements)
         for i in visible:
             out.atoms[i] = self._atom(state, facts[i], adjacent, i, positions, neighbours[i], drawn_hydrogens, out,
-                                      ahead[i])
+                                      ahead[i], i in lettered)
         # RDKit's ring search costs more than all the strokes: run it only when a drawn double
         # bond lies on a ring (only such a bond asks which ring it is in).
         on_ring = any(order == 2 and i in shown and j in shown and _closes_cycle(i, j, adjacent)
@@ -325,7 +349,7 @@ class StructureDrawer:
 
     def _atom(self, state: ElectronState, facts: tuple[str, int, int, int, Optional[str]], adjacent: list[list[int]],
               i: int, positions: dict[int, complex], neighbours: list[int], drawn_hydrogens: frozenset[int],
-              out: PanelStructure, ahead: list[complex] = ()) -> AtomDrawing:
+              out: PanelStructure, ahead: list[complex] = (), lettered: bool = False) -> AtomDrawing:
         element = state.elements   # atomic numbers, without a call into RDKit per atom
         p = positions[i]
         symbol, number, own_hydrogens, mass, name = facts
@@ -336,11 +360,11 @@ class StructureDrawer:
         # beside the vertex); only a bare terminal carbon with electrons of its own and no
         # hydrogen, as in cyanide, gets its letter.
         # A labelled atom (13C) is always a letter, with its mass number written before it.
-        if element[i] == 6 and len(neighbours) > 1 and not mass:
+        if element[i] == 6 and len(neighbours) > 1 and not mass and not lettered:
             return self._vertex(i, name, symbol, p)
         hidden_h = own_hydrogens + sum(1 for n in adjacent[i] if n not in drawn_hydrogens and element[n] == 1)
         bare_end = len(neighbours) == 1 and hidden_h == 0 and (state.formal_charge(i) or state.nonbonding[i])
-        if element[i] == 6 and neighbours and not bare_end and not mass:
+        if element[i] == 6 and neighbours and not bare_end and not mass and not lettered:
             return self._vertex(i, name, symbol, p)
         fs, ss = self.style.font_size, self.style.small_size
         # D and T (rdkit_io.HYDROGEN_ISOTOPES); any other label as a superscript mass number.
