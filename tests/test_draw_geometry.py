@@ -369,6 +369,36 @@ def test_a_nitrogen_with_a_lone_pair_beside_its_double_bond_is_drawn_bent(text, 
             assert 105 <= angle <= 135, (panel.index, atom.GetIdx(), angle)
 
 
+def _angle_at(where, centre, a, b) -> float:
+    p, q, r = (complex(*where[x]) for x in (centre, a, b))
+    return abs(math.degrees(cmath.phase((q - p) / (r - p))))
+
+
+def test_a_hydrogen_far_from_its_partner_keeps_its_bond_angle():
+    """The Ei ester's beta hydrogen, taken three bond lengths away by the carbonyl oxygen, is drawn
+    at 120 degrees (within 15) from its carbon's one other bond (IUPAC 2008: trigonal and chain
+    angles at 120): it was once turned to 90 degrees, which brought it 0.4 nearer that oxygen and
+    no nearer a comfortable hop."""
+    trace, _, scene = _scene(TEXTBOOK["ester pyrolysis"][0], "ester pyrolysis")
+    mol = trace.initial.mol
+    index = {a.GetAtomMapNum(): a.GetIdx() for a in mol.GetAtoms() if a.GetAtomMapNum()}
+    where = {a.index: a.position for a in scene.panels[0].atoms}
+    assert 105 <= _angle_at(where, index[5], index[4], index[6]) <= 135
+
+
+def test_a_group_shifting_from_a_tetrahedral_centre_stands_beside_its_new_partner():
+    """A methyl about to shift from a quaternary carbon to the cation next door (Wagner-Meerwein)
+    is drawn in a gap beside that cation, so its arrow is a short arc that crosses no bond, as
+    chemists draw a 1,2-shift (common practice). It was drawn opposite the cation, its arrow
+    running round the centre over another methyl."""
+    trace, _, scene = _scene(TEXTBOOK["wagner-meerwein methyl shift"][0], "wagner-meerwein methyl shift")
+    mol = trace.initial.mol
+    index = {a.GetAtomMapNum(): a.GetIdx() for a in mol.GetAtoms() if a.GetAtomMapNum()}
+    where = {a.index: a.position for a in scene.panels[0].atoms}
+    assert _angle_at(where, index[2], index[1], index[3]) <= 100
+    assert [c for c in _bonds_crossed(scene) if c[0] == 0] == []
+
+
 @pytest.mark.parametrize("text,name", _mechanisms())
 def test_a_carbon_between_two_double_bonds_drawn_straight_is_written_out(text, name):
     """The middle carbon of cumulated double bonds drawn in line (CO2, an isocyanate's N=C=O, a

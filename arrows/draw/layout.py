@@ -60,6 +60,9 @@ _HYDROGEN_COMPASS = tuple(cmath.rect(1.0, step * math.pi / 12) for step in range
 _HYDROGEN_COMPASS_ARRAY = np.array(_HYDROGEN_COMPASS)
 _ALONG_BOND = math.radians(35)   # least angle between a travelling hydrogen and its holder's bonds
 _SEVENTY = math.radians(70)
+_BEHIND_A_BOND = math.radians(45)   # a partner this near a bond's direction lies behind the bond
+_OPEN_ANGLE = math.radians(105)   # least angle a hydrogen leaning toward its partner keeps from a lone other bond
+_OFF_A_BOND = math.radians(35)   # least angle between a travelling hydrogen's bond and its holder's others
 _SIXTY = math.radians(60)
 _BACKSIDE_ROOM = math.radians(55)   # a nucleophile's line of approach from the centre's other bonds
 # Ways to place a cluster next to its partner, in order of preference: (penalty, turn of the
@@ -198,6 +201,20 @@ def free_direction(centre: complex, others: Sequence[complex], prefer: Optional[
     for k, a in enumerate(directions):
         b = directions[(k + 1) % len(directions)] + (2 * math.pi if k + 1 == len(directions) else 0)
         if b - a > best_gap + 1e-9:
+            best_gap, best_mid = b - a, (a + b) / 2
+    return cmath.rect(1.0, best_mid)
+
+
+def gap_beside(centre: complex, others: Sequence[complex], target: complex) -> complex:
+    """Unit vector from centre into the wider of the two gaps between the directions to `others`
+    that border the direction to `target` (one of them)."""
+    directions = sorted(cmath.phase(o - centre) for o in others if abs(o - centre) > 1e-9)
+    aim = cmath.phase(target - centre)
+    best_gap, best_mid = -1.0, aim
+    for k, a in enumerate(directions):
+        b = directions[(k + 1) % len(directions)] + (2 * math.pi if k + 1 == len(directions) else 0)
+        borders = min(abs(cmath.phase(cmath.rect(1.0, a - aim))), abs(cmath.phase(cmath.rect(1.0, b - aim)))) < 1e-6
+        if borders and b - a > best_gap + 1e-9:
             best_gap, best_mid = b - a, (a + b) / 2
     return cmath.rect(1.0, best_mid)
 
@@ -1597,6 +1614,15 @@ class _LayoutBuilder:
                           if abs(p - centre) > 1e-9], dtype=complex)
         near = np.array([p for a, p in self.positions[k].items() if a != atom and abs(p - centre) < reach + 1.3],
                         dtype=complex)
+        bonded = [_unit(self.positions[k][n] - centre) for n in self.neighbours[atom]
+                  if n in self.positions[k] and self.element[n] != 1]
+        if prefer is not None and any(abs(cmath.phase(prefer / _unit(self.positions[k][n] - centre))) < _BEHIND_A_BOND
+                                      for n in self.neighbours[atom] if n in self.positions[k]
+                                      and (min(n, atom), max(n, atom)) in self.bonds_in[k]):
+            # The partner lies behind one of the atom's own bonds: leaning toward it would only
+            # bend the new bond off its ideal angle (the Ei ester's C-H turned 90 degrees from
+            # its C-C), and come no nearer.
+            prefer = None
         if prefer is None and len(taken) == 1:
             # Straight on from a lone atom's one other partner (the hydrogen it will take), so
             # the three stand in a line instead of a crooked stack.
@@ -1617,8 +1643,6 @@ class _LayoutBuilder:
         for f in self._fed_directions(hydrogen, atom, k):
             turns = _COMPASS / f
             score = score - 10.0 * (np.abs(np.arctan2(turns.imag, turns.real)) < _FED_ANGLE)
-        bonded = [_unit(self.positions[k][n] - centre) for n in self.neighbours[atom]
-                  if n in self.positions[k] and self.element[n] != 1]
         ideal = self._zigzag(atom, k, bonded)
         if ideal is not None:
             score = score + 0.3 * np.maximum((_COMPASS * ideal.conjugate()).real, 0.0)
@@ -1759,6 +1783,12 @@ class _LayoutBuilder:
             # round from both its bonds, so the arrow of its shift arcs round the outside, as
             # chemists draw a 1,2-shift (it leaned onto the neighbour, the arrow bulging inward).
             u = free_direction(self.positions[k][anchor], others)
+        elif kind == "bond" and len(others) == 3 and (target := self._shifts_to(anchor, mover, segment[1])) is not None \
+                and target in self.positions[k]:
+            # From a tetrahedral centre, into a gap beside the neighbour it shifts to: drawn
+            # opposite that neighbour, its arrow had to run round the centre, over a bond (a
+            # methyl shifting in a Wagner-Meerwein rearrangement).
+            u = gap_beside(self.positions[k][anchor], others, self.positions[k][target])
         else:
             u = self._roomiest(anchor, k, hydrogen)
         depicted = cluster.local_at(k)
@@ -1911,13 +1941,18 @@ class _LayoutBuilder:
     def _shifts_off(self, anchor: int, mover: int, last: int) -> bool:
         """Whether the step after panel `last` moves `mover` from `anchor` to an atom bonded to
         `anchor` (a 1,2-shift: the methyl of a Wolff rearrangement, from the carbonyl carbon to C4)."""
+        return self._shifts_to(anchor, mover, last) is not None
+
+    def _shifts_to(self, anchor: int, mover: int, last: int) -> Optional[int]:
+        """The atom bonded to `anchor` that the step after panel `last` moves `mover` to from
+        `anchor` (a 1,2-shift), or None."""
         if last + 1 >= self.n:
-            return False
+            return None
         before, after = self.bonds_in[last], self.bonds_in[last + 1]
         if (min(anchor, mover), max(anchor, mover)) not in before - after:
-            return False
-        return any((min(mover, n), max(mover, n)) in after - before and (min(anchor, n), max(anchor, n)) in before
-                   for n in self.neighbours[mover])
+            return None
+        return next((n for n in sorted(self.neighbours[mover]) if (min(mover, n), max(mover, n)) in after - before
+                     and (min(anchor, n), max(anchor, n)) in before), None)
 
     def _between_partners(self, anchor: int, mover: int, k: int, depicted: dict[int, complex], u: complex
                           ) -> tuple[complex, Optional[int]]:
@@ -2513,6 +2548,7 @@ class _LayoutBuilder:
             reach = abs(partner - direction)
             return max(0.0, TRANSFER_GAP - 0.1 - reach, reach - TRANSFER_GAP - 0.4)
 
+
         # Bonds its own bond would cross (relative to the holder): a hydrogen is never drawn
         # across another bond, however much room it has.
         walls = set()
@@ -2545,8 +2581,9 @@ class _LayoutBuilder:
                  for x in self.neighbours[r.holder] if x != r.hydrogen and x in self.positions[panels[0]]]
         polygons = [[self.positions[k][a] for a in ring] for k in panels for ring in self._closed_rings(k)]
         # Clear of every atom and bond first, then of bonds at least; among those, room and a comfortable hop.
-        best, best_score = r.direction, (not cramped(r.direction), room_now >= _HYDROGEN_ROOM and not crossed_now,
-                                         not crossed_now, min(room_now, 1.2) + 0.1 - miss(r.direction))
+        start_score = (not cramped(r.direction), room_now >= _HYDROGEN_ROOM and not crossed_now,
+                       not crossed_now, min(room_now, 1.2) + 0.1 - miss(r.direction))
+        best, best_score = r.direction, start_score
         compass = _HYDROGEN_COMPASS
         rooms = (np.minimum.reduce(np.abs(relative - _HYDROGEN_COMPASS_ARRAY[:, None]), axis=1).tolist() if len(relative)
                  else [math.inf] * len(compass))
@@ -2556,8 +2593,10 @@ class _LayoutBuilder:
             if not (score[:3] > best_score[:3] or (score[:3] == best_score[:3] and score[3] > best_score[3] + 0.05)):
                 continue
             # Only a direction that would win is asked whether it is allowed at all.
-            if any(abs(cmath.phase(d / b)) < math.radians(35) for b in bonds):
+            if any(abs(cmath.phase(d / b)) < _OFF_A_BOND for b in bonds):
                 continue
+            if len(bonds) == 1 and score[:3] == start_score[:3] and abs(cmath.phase(d / bonds[0])) < _OPEN_ANGLE:
+                continue   # no more room, only a nearer partner: not worth closing a lone bond's angle
             if any(_inside(self.positions[panels[0]][r.holder] + d, poly) for poly in polygons):
                 continue
             best, best_score = d, score
