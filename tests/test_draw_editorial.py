@@ -92,6 +92,38 @@ def test_charge_beside_a_skeletal_vertex_is_clear_of_bonds(path):
             assert gap >= 0.24 * bl, (panel.index, panel.atom(mark.atom).name, gap / bl)
 
 
+def test_charge_signs_keep_white_between_them_and_bond_strokes():
+    """Every charge sign of the gallery and the drawn textbook schemes keeps at least 0.17 font
+    sizes of white between its ink (a disc as wide as its box, round the box's middle) and every
+    bond stroke of its panel (IUPAC 2008: a charge sits beside its atom, clear of the bonds): a
+    stroke passing just under a "+" reads as "+-". Hydronium's H2O+-H with its bond under the
+    sign (ester reduction, Paal-Knorr), O+-CH3 (Fischer esterification, epoxide opening) and the
+    enamine's HN+ over its ring bond once kept 0.11-0.18."""
+    from textbook_mechanisms import TEXTBOOK
+    texts = [(p.name, p.read_text(encoding="utf-8")) for p in GALLERY]
+    texts += [(f"{name}.mech", text) for name, (text, _, drawn) in sorted(TEXTBOOK.items()) if drawn]
+    seen = 0
+    for name, text in texts:
+        trace, diags = arrows.check_text(text, name)
+        for panel in build_scene(trace, STYLES["two-column"], diags).panels:
+            strokes = [(complex(*a), complex(*b)) for bond in panel.bonds for a, b in bond.lines]
+            for mark in panel.marks:
+                if mark.kind != "charge" or not strokes:
+                    continue
+                seen += 1
+                box, size = mark.box, mark.runs[0].size
+                middle = complex((box.x0 + box.x1) / 2, (box.y0 + box.y1) / 2)
+                white = min(_distance_to_segment(middle, a, b) for a, b in strokes) - (box.x1 - box.x0) / 2
+                assert white >= 0.17 * size, (name, panel.index, panel.atom(mark.atom).name, white / size)
+    assert seen > 300
+
+
+def _distance_to_segment(p: complex, a: complex, b: complex) -> float:
+    along = b - a
+    t = max(0.0, min(1.0, ((p - a) * along.conjugate()).real / abs(along) ** 2)) if abs(along) > 1e-9 else 0.0
+    return abs(p - (a + t * along))
+
+
 def _bonds_crossed(panel, arrow) -> list[tuple[int, int]]:
     """Bonds the arrow's path crosses that are not between two atoms its move names."""
     own = set(arrow.source_atoms) | set(arrow.sink_atoms)

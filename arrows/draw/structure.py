@@ -36,6 +36,7 @@ _DOUBLE_GAP = 0.18   # bond lengths between the two lines of a double bond
 # a second line of the bond: about twice a double bond's gap, within 15 degrees (at 20 the two no
 # longer look parallel).
 _MINUS_STROKE_GAP = 0.4
+_SIGN_STROKE_GAP = 0.2   # font sizes of white kept between a superscript charge's ink and any bond stroke
 _MINUS_STROKE_SLOPE = math.tan(math.radians(15))
 _LEVEL_WITH_LABEL = math.sin(math.radians(30))   # directions this near the horizontal
 
@@ -173,6 +174,13 @@ def carbons_to_letter(bonds: list[tuple[int, int, int]], positions: dict[int, co
             if (a.real * b.real + a.imag * b.imag) / (abs(a) * abs(b)) < _STRAIGHT:
                 letters.add(i)
     return letters
+
+
+def _distance_to_segment(p: complex, a: complex, b: complex) -> float:
+    along = b - a
+    length2 = along.real * along.real + along.imag * along.imag
+    t = 0.0 if length2 < 1e-18 else max(0.0, min(1.0, ((p - a) * along.conjugate()).real / length2))
+    return abs(p - (a + t * along))
 
 
 def _unit_or_zero(z: complex) -> complex:
@@ -707,7 +715,11 @@ class StructureDrawer:
                 # lengths: one that reaches the sign has an end within that of the atom.)
                 strokes = [(complex(*a), complex(*b)) for bond in out.bonds
                            for a, b in bond.lines if abs(complex(*a) - centre) < 2 * reach]
-            if any(segment_hits_box(a, b, grown) for a, b in strokes):
+            # A stroke passing just under the sign reads as part of it (a "+" over a bond as "±"):
+            # kept a little off the sign's ink, taken as a disc round the middle of its box.
+            middle = complex((tb.x0 + tb.x1) / 2, (tb.y0 + tb.y1) / 2)
+            room = 0.5 * (tb.x1 - tb.x0) + _SIGN_STROKE_GAP * size
+            if any(_distance_to_segment(middle, a, b) < room for a, b in strokes):
                 continue
             if text.endswith(MINUS) and self._minus_beside_stroke(run, strokes):
                 continue
