@@ -42,7 +42,8 @@ acetylated by an anhydride, a third species (pyridine) taking the proton once ac
 Then: CO2 lost from a beta-keto acid and an alkene made from an ester, each through a six-membered
 cyclic array (the ketone's enol; Ei), a nitrile caught by a carbocation (Ritter), a 1,2-methyl
 shift (Wagner-Meerwein), an oxocarbenium met by an alkene (Prins), a five-membered ether closed by
-an alkoxide (5-exo-tet), a malonate enolate alkylated, and a furan made by acid (Paal-Knorr).
+an alkoxide (5-exo-tet), a malonate enolate alkylated, a furan made by acid (Paal-Knorr), an
+iminium met by cyanide (Strecker) and a lactone closed and dehydrated in acid.
 
 Each entry: (mechanism text, textbook product SMILES, drawn): `drawn` says whether the geometry
 tests draw it. All do but five. (Fixed in the layout and the tests since: the Dieckmann
@@ -2703,6 +2704,52 @@ end
 product "Cc1ccc(C)o1"
 '''
 
+# Strecker synthesis, the C-C bond: cyanide adds to the iminium ion of acetaldehyde and ammonia,
+# giving 2-aminopropanenitrile (racemic).
+STRECKER = '''\
+species iminium = "[CH3:5][CH:1]=[NH2+:2]"
+species cyanide = "[C-:3]#[N:4]"
+step "cyanide adds"
+    :C3 -> C1
+    C1=N2 -> N2
+end
+product "CC(N)C#N"
+'''
+
+# Acid-catalysed lactonisation: 5-hydroxypentanoic acid closes to delta-valerolactone through a
+# tetrahedral intermediate (6-exo-trig onto the protonated carbonyl), losing water.
+LACTONISATION = '''\
+species acid = "[OH:1][CH2:2][CH2:3][CH2:4][CH2:5][C:6](=[O:7])[OH:8]"
+species h3o = "[OH3+:9]"
+step "protonation" reversible
+    :O7 -> H(O9)
+    O9-H -> O9
+end
+step "ring closure" reversible
+    :O1 -> C6
+    C6=O7 -> O7
+end
+step "proton shuttle" reversible
+    :O9 -> H(O1)
+    O1-H -> O1
+end
+step "protonation of OH" reversible
+    uses h3o2 = "[OH3+:10]"
+    :O8 -> H(O10)
+    O10-H -> O10
+end
+step "loss of water"
+    :O7 -> C6=O7
+    C6-O8 -> O8
+    releases O8
+end
+step "deprotonation"
+    :O10 -> H(O7)
+    O7-H -> O7
+end
+product "O=C1CCCCO1"
+'''
+
 TEXTBOOK = {
     "wittig": (WITTIG, "C=C(C)C.O=P(c1ccccc1)(c1ccccc1)c1ccccc1", True),
     "bromination": (BROMINATION, "Br[C@@H]1CCCC[C@H]1Br", True),
@@ -2821,4 +2868,6 @@ TEXTBOOK = {
     "intramolecular williamson": (INTRAMOLECULAR_WILLIAMSON, "C1CCOC1.[Cl-]", True),
     "malonic ester alkylation": (MALONIC_ESTER_ALKYLATION, "CCOC(=O)C(C)C(=O)OCC.CCO.[I-]", True),
     "paal-knorr furan": (PAAL_KNORR, "Cc1ccc(C)o1.[OH3+].O", True),
+    "strecker": (STRECKER, "CC(N)C#N", True),
+    "lactonisation": (LACTONISATION, "O=C1CCCCO1.[OH3+]", True),
 }
