@@ -689,10 +689,19 @@ def _signed_area(p, q, r) -> float:
 
 
 def _is_sp(mol, i: int) -> bool:
-    """Two heavy neighbours, with a triple bond or two double bonds to them (RDKit's bond orders)."""
-    bonds = [b for b in mol.GetAtomWithIdx(i).GetBonds() if b.GetOtherAtom(mol.GetAtomWithIdx(i)).GetAtomicNum() != 1]
+    """Two heavy neighbours, with a triple bond or two double bonds to them, or with no hydrogen and
+    no nonbonding electron besides (a vinyl cation: two electron domains, VSEPR); RDKit's bond
+    orders, charges and the periodic table's valence electron counts."""
+    atom = mol.GetAtomWithIdx(i)
+    bonds = [b for b in atom.GetBonds() if b.GetOtherAtom(atom).GetAtomicNum() != 1]
     orders = sorted(b.GetBondTypeAsDouble() for b in bonds)
-    return len(bonds) == 2 and (orders[1] == 3 or orders == [2, 2])
+    if len(bonds) != 2:
+        return False
+    if orders[1] == 3 or orders == [2, 2]:
+        return True
+    nonbonding = (Chem.GetPeriodicTable().GetNOuterElecs(atom.GetAtomicNum()) - atom.GetFormalCharge()
+                  - sum(b.GetBondTypeAsDouble() for b in atom.GetBonds()) - atom.GetNumExplicitHs())
+    return atom.GetDegree() == 2 and atom.GetNumExplicitHs() == 0 and nonbonding == 0
 
 
 def _reshaped_molecules(step) -> set[int]:

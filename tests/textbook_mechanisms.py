@@ -43,7 +43,9 @@ Then: CO2 lost from a beta-keto acid and an alkene made from an ester, each thro
 cyclic array (the ketone's enol; Ei), a nitrile caught by a carbocation (Ritter), a 1,2-methyl
 shift (Wagner-Meerwein), an oxocarbenium met by an alkene (Prins), a five-membered ether closed by
 an alkoxide (5-exo-tet), a malonate enolate alkylated, a furan made by acid (Paal-Knorr), an
-iminium met by cyanide (Strecker) and a lactone closed and dehydrated in acid.
+iminium met by cyanide (Strecker) and a lactone closed and dehydrated in acid; an acetylide
+alkylated, a vinyl cation made from an alkyne and caught by water, a nitrile oxide's 1,3-dipolar
+cycloaddition, and an oxime.
 
 Each entry: (mechanism text, textbook product SMILES, drawn): `drawn` says whether the geometry
 tests draw it. All do but five. (Fixed in the layout and the tests since: the Dieckmann
@@ -2750,6 +2752,96 @@ end
 product "O=C1CCCCO1"
 '''
 
+# Acetylide alkylation: amide takes propyne's terminal proton, and the acetylide displaces bromide
+# from bromoethane (SN2), giving pent-2-yne.
+ACETYLIDE_ALKYLATION = '''\
+species propyne = "[CH3:5][C:1]#[C:2][H:3]"
+species amide = "[NH2-:4]"
+step "deprotonation"
+    :N4 -> H3
+    C2-H3 -> C2
+end
+step "alkylation"
+    uses bromoethane = "[CH3:8][CH2:6][Br:7]"
+    :C2 -> C6
+    C6-Br7 -> Br7
+end
+product "CC#CCC.N.[Br-]"
+'''
+
+# Acid-catalysed hydration of propyne (Markovnikov): protonation gives the secondary vinyl cation,
+# water adds, and the enol tautomerises through its oxocarbenium ion to acetone.
+ALKYNE_HYDRATION = '''\
+species propyne = "[CH3:5][C:1]#[CH:2]"
+species h3o = "[OH3+:3]"
+step "protonation"
+    C1#C2 -> C2-H(O3)
+    O3-H -> O3
+end
+step "water adds"
+    uses water = "[OH2:4]"
+    :O4 -> C1
+end
+step "deprotonation"
+    :O3 -> H(O4)
+    O4-H -> O4
+end
+step "enol protonation"
+    uses h3o2 = "[OH3+:6]"
+    :O4 -> C1=O4
+    C1=C2 -> C2-H(O6)
+    O6-H -> O6
+end
+step "deprotonation of the oxocarbenium"
+    :O6 -> H(O4)
+    O4-H -> O4
+end
+product "CC(C)=O"
+'''
+
+# 1,3-Dipolar cycloaddition of benzonitrile oxide to ethene (three arrows round five atoms):
+# 3-phenyl-4,5-dihydroisoxazole.
+NITRILE_OXIDE_CYCLOADDITION = '''\
+species dipole = "c1ccccc1[C:1]#[N+:2][O-:3]"
+species alkene = "[CH2:4]=[CH2:5]"
+step "cycloaddition"
+    :O3 -> O3-C4
+    C4=C5 -> C5-C1
+    C1#N2 -> N2
+end
+product "C1CC(c2ccccc2)=NO1"
+'''
+
+# Oxime formation: hydroxylamine's nitrogen adds to acetone, proton transfers make the
+# carbinolamine and protonate its OH, water leaves and deprotonation gives acetone oxime.
+OXIME_FORMATION = '''\
+species acetone = "[CH3:8][C:1](=[O:2])[CH3:9]"
+species hydroxylamine = "[NH2:3][OH:4]"
+step "addition"
+    :N3 -> C1
+    C1=O2 -> O2
+end
+step "proton transfer"
+    :O2 -> H(N3)
+    N3-H -> N3
+end
+step "protonation"
+    uses h3o = "[OH3+:5]"
+    :O2 -> H(O5)
+    O5-H -> O5
+end
+step "loss of water"
+    :N3 -> C1=N3
+    C1-O2 -> O2
+    releases O2
+end
+step "deprotonation"
+    :O5 -> H(N3)
+    N3-H -> N3
+end
+product "CC(C)=NO"
+'''
+
 TEXTBOOK = {
     "wittig": (WITTIG, "C=C(C)C.O=P(c1ccccc1)(c1ccccc1)c1ccccc1", True),
     "bromination": (BROMINATION, "Br[C@@H]1CCCC[C@H]1Br", True),
@@ -2870,4 +2962,8 @@ TEXTBOOK = {
     "paal-knorr furan": (PAAL_KNORR, "Cc1ccc(C)o1.[OH3+].O", True),
     "strecker": (STRECKER, "CC(N)C#N", True),
     "lactonisation": (LACTONISATION, "O=C1CCCCO1.[OH3+]", True),
+    "acetylide alkylation": (ACETYLIDE_ALKYLATION, "CC#CCC.N.[Br-]", True),
+    "alkyne hydration": (ALKYNE_HYDRATION, "CC(C)=O", True),
+    "nitrile oxide cycloaddition": (NITRILE_OXIDE_CYCLOADDITION, "C1CC(c2ccccc2)=NO1", True),
+    "oxime formation": (OXIME_FORMATION, "CC(C)=NO", True),
 }

@@ -37,6 +37,9 @@ _DOUBLE_GAP = 0.18   # bond lengths between the two lines of a double bond
 # longer look parallel).
 _MINUS_STROKE_GAP = 0.4
 _SIGN_STROKE_GAP = 0.2   # font sizes of white kept between a superscript charge's ink and any bond stroke
+# and for a sign set round its atom, which has fewer places to go: a little less, so that it stays
+# beside its own atom rather than drift toward a neighbour's label (the Peterson silicate's minus)
+_SIDE_SIGN_STROKE_GAP = 0.16
 _MINUS_STROKE_SLOPE = math.tan(math.radians(15))
 _LEVEL_WITH_LABEL = math.sin(math.radians(30))   # directions this near the horizontal
 
@@ -174,6 +177,16 @@ def carbons_to_letter(bonds: list[tuple[int, int, int]], positions: dict[int, co
             if (a.real * b.real + a.imag * b.imag) / (abs(a) * abs(b)) < _STRAIGHT:
                 letters.add(i)
     return letters
+
+
+def _sign_near_stroke(box: Box, size: float, strokes: list[tuple[complex, complex]], gap: float) -> bool:
+    """Whether a charge sign in `box` (of font size `size`) comes within `gap` font sizes of a bond
+    stroke: a stroke passing just under the sign reads as part of it (a "+" over a bond as "±",
+    over a double bond's second line as "≠"). The sign's ink is taken as a disc round the box's
+    middle."""
+    middle = complex((box.x0 + box.x1) / 2, (box.y0 + box.y1) / 2)
+    room = 0.5 * (box.x1 - box.x0) + gap * size
+    return any(_distance_to_segment(middle, a, b) < room for a, b in strokes)
 
 
 def _distance_to_segment(p: complex, a: complex, b: complex) -> float:
@@ -715,11 +728,7 @@ class StructureDrawer:
                 # lengths: one that reaches the sign has an end within that of the atom.)
                 strokes = [(complex(*a), complex(*b)) for bond in out.bonds
                            for a, b in bond.lines if abs(complex(*a) - centre) < 2 * reach]
-            # A stroke passing just under the sign reads as part of it (a "+" over a bond as "±"):
-            # kept a little off the sign's ink, taken as a disc round the middle of its box.
-            middle = complex((tb.x0 + tb.x1) / 2, (tb.y0 + tb.y1) / 2)
-            room = 0.5 * (tb.x1 - tb.x0) + _SIGN_STROKE_GAP * size
-            if any(_distance_to_segment(middle, a, b) < room for a, b in strokes):
+            if _sign_near_stroke(tb, size, strokes, _SIGN_STROKE_GAP):
                 continue
             if text.endswith(MINUS) and self._minus_beside_stroke(run, strokes):
                 continue
@@ -777,7 +786,7 @@ class StructureDrawer:
             mark, slid = self._side_text_at(kind, i, text, out, direction, width, cap, size, italic)
             # Slid far out along a crowded direction, the text no longer reads as the atom's.
             gap = min((_separation(mark.box, b) for b in others), default=math.inf)
-            on_stroke = any(segment_hits_box(a, b, mark.box) for a, b in strokes) or (
+            on_stroke = _sign_near_stroke(mark.box, size, strokes, _SIDE_SIGN_STROKE_GAP) or (
                 text.endswith(MINUS) and (self._minus_beside_stroke(mark.runs[-1], strokes) or (
                     labelled and abs(direction.imag) < _LEVEL_WITH_LABEL)))
             fault = (gap < pad or on_stroke, slid >= _FAR_SLIDE, 0.0 if kind == "charge" else -min(gap, pad))
