@@ -994,10 +994,16 @@ class _LayoutBuilder:
         # oxygen to the other; the six atoms of a Cope or Claisen shift, in two clusters), is
         # drawn as that ring too, its atoms in place on both sides, as chemists draw a pericyclic
         # step. A smaller one is a group shifted to a neighbour.
+        # A hydrogen handed between two heavy atoms in the step closes such a ring too, as a link
+        # between them (an ester's Ei elimination, a beta-keto acid losing CO2, the carbonyl-ene:
+        # six-membered cyclic arrays with the hydrogen at one corner).
+        hops = self._hydrogen_hops()
         bond_sets = [(k, self.bonds_in[k], False) for k in range(self.n)]
-        bond_sets += [(k + 1, self.bonds_in[k] | self.bonds_in[k + 1], True) for k in range(self.n - 1)]
+        bond_sets += [(k + 1, self.bonds_in[k] | self.bonds_in[k + 1] | hops.get(k, set()), True)
+                      for k in range(self.n - 1)]
         # Only the bonds between two groups can close a ring of groups: picked out once, in order.
-        between = [(i, j, root[i], root[j]) for i, j in heavy_bonds if root[i] != root[j]]
+        joins = sorted(set(heavy_bonds) | {pair for pairs in hops.values() for pair in pairs})
+        between = [(i, j, root[i], root[j]) for i, j in joins if root[i] != root[j]]
         for k, bonds, over_step in bond_sets:
             panel = _UnionFind(roots)
             links: dict[int, list[tuple[int, int, tuple[int, int]]]] = {}
@@ -1008,6 +1014,9 @@ class _LayoutBuilder:
                     ring = self._cluster_path(links, a, b) + [(i, j)]
                     if over_step and self._ring_size(ring, root, bonds) < 5:
                         continue   # a group shifted to a neighbour (a 1,2-shift) is placed where it goes
+                    if over_step and hops.get(k - 1, set()) & set(ring) and not any(
+                            (bond in self.bonds_in[k - 1]) != (bond in self.bonds_in[k]) for bond in ring):
+                        continue   # a proton transfer of its own, not one corner of a cyclic array
                     self._join_ring(groups, ring, k, heavy_atoms, partners)
                     return True
                 panel.join(a, b)
@@ -1049,6 +1058,17 @@ class _LayoutBuilder:
             goal, bond = came[goal]
             path.append(bond)
         return path
+
+    def _hydrogen_hops(self) -> dict[int, set[tuple[int, int]]]:
+        """step -> the pairs of heavy atoms that a drawn hydrogen is handed between in it."""
+        hops: dict[int, set[tuple[int, int]]] = {}
+        for h in self.drawn_h:
+            holders = [[n for n in self.neighbours[h] if self.element[n] != 1 and (min(n, h), max(n, h)) in bonds]
+                       for bonds in self.bonds_in]
+            for k, (before, after) in enumerate(zip(holders, holders[1:])):
+                if len(before) == 1 and len(after) == 1 and before != after:
+                    hops.setdefault(k, set()).add((min(before[0], after[0]), max(before[0], after[0])))
+        return hops
 
     def _join_ring(self, groups: _UnionFind, ring: list[tuple[int, int]], k: int, heavy_atoms: list[int],
                    partners: list) -> None:
@@ -1193,7 +1213,7 @@ class _LayoutBuilder:
         sometimes_sp = [a for a in group if self._linear(a)]
         start = 0
         while start < self.n:
-            bonds = self._run_bonds(group, start, start)
+            bonds = self._run_bonds(group, start, start) | self._hop_ahead(group, start)
             end, local = start, self._depict(group, bonds, range(start, start + 1))
             while end + 1 < self.n:
                 if any(self._linear(a, range(start, end + 1)) and not self._linear(a, range(start, end + 2))
@@ -1202,7 +1222,7 @@ class _LayoutBuilder:
                 if any(self._linear(a, range(end + 1, end + 2)) and not self._linear(a, range(start, end + 2))
                        for a in group):
                     break     # one that straightens (a nitrilium made by a shift) is drawn bent, then straight
-                trial_bonds = self._run_bonds(group, start, end + 1)
+                trial_bonds = self._run_bonds(group, start, end + 1) | self._hop_ahead(group, end + 1)
                 trial = self._depict(group, trial_bonds, range(start, end + 2))
                 if not self._even(trial, group, range(start, end + 2)):
                     break
@@ -1229,6 +1249,49 @@ class _LayoutBuilder:
             runs.append((start, local))
             start = end + 1
         return runs[0][1], runs[1:]
+
+    def _hop_ahead(self, group: list[int], last: int) -> set[tuple[int, int]]:
+        """The bonds a hydrogen of `group` makes in the step after panel `last` as one corner of a
+        cyclic array (a beta-keto acid's O-H going to the ketone oxygen as CO2 leaves): drawn
+        already, so the array is depicted as the ring it is."""
+        if last + 1 >= self.n:
+            return set()
+        members = set(group)
+        made = self.bonds_in[last + 1] - self.bonds_in[last]
+        changed = self.bonds_in[last] ^ self.bonds_in[last + 1]
+        out = set()
+        for i, j in made:
+            h, taker = (i, j) if self.element[i] == 1 else (j, i)
+            if self.element[h] != 1 or h not in members or taker not in members:
+                continue
+            giver = next((n for n in self.neighbours[h] if (min(n, h), max(n, h)) in self.bonds_in[last]
+                          and self.element[n] != 1), None)
+            # one corner of a six-membered (or larger) ring the step goes round: some other bond
+            # of the group changes too. (A five-membered one, a Cope elimination's, is left to the
+            # hydrogen's own placement: drawn as a ring it crowds the substituents of its centres.)
+            if giver is not None and self._heavy_path_length(giver, taker, last, members) >= 4 and any(
+                    h not in bond and bond[0] in members and bond[1] in members for bond in changed):
+                out.add((i, j))
+        return out
+
+    def _heavy_path_length(self, a: int, b: int, k: int, members: set[int]) -> int:
+        """Bonds on the shortest way from a to b over panel k's bonds between heavy atoms of
+        `members` (0 when there is none)."""
+        seen, frontier, steps = {a}, [a], 0
+        while frontier:
+            steps += 1
+            following = []
+            for x in frontier:
+                for n in self.neighbours[x]:
+                    if n in seen or n not in members or self.element[n] == 1 \
+                            or (min(n, x), max(n, x)) not in self.bonds_in[k]:
+                        continue
+                    if n == b:
+                        return steps
+                    seen.add(n)
+                    following.append(n)
+            frontier = following
+        return 0
 
     def _run_bonds(self, group: list[int], first: int, last: int) -> set[tuple[int, int]]:
         """The bonds among `group` in panels first..last, and for an atom bonded to none of them, its
