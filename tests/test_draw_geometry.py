@@ -404,6 +404,21 @@ def test_a_hydrogen_handed_round_a_six_membered_cyclic_array_is_drawn_as_its_cor
     assert _distance(where[i], where[j]) / scene.bond_length <= 2.0
 
 
+def test_a_carbonyl_about_to_be_closed_on_points_out_of_the_ring():
+    """Before the Paal-Knorr enol oxygen closes the ring onto the protonated carbonyl carbon, that
+    carbonyl's oxygen points out of the ring-to-be, at least 1.5 bond lengths from the closing
+    oxygen, as chemists draw a ring closure (common practice): drawn trigonal with the methyl
+    where the ring's depiction put it, it stood in the ring's gap, 1.04 from the closing oxygen,
+    the two labels, the dots and the plus sign run together."""
+    trace, _, scene = _scene(TEXTBOOK["paal-knorr furan"][0], "paal-knorr furan")
+    mol = trace.initial.mol
+    index = {a.GetAtomMapNum(): a.GetIdx() for a in mol.GetAtoms() if a.GetAtomMapNum()}
+    closing = next(k for k, step in enumerate(trace.steps)
+                   if (min(index[2], index[5]), max(index[2], index[5])) in {tuple(sorted(b)) for b in step.change.formed})
+    where = {a.index: a.position for a in scene.panels[closing].atoms}
+    assert _distance(where[index[2]], where[index[6]]) / scene.bond_length >= 1.5
+
+
 def test_a_group_shifting_from_a_tetrahedral_centre_stands_beside_its_new_partner():
     """A methyl about to shift from a quaternary carbon to the cation next door (Wagner-Meerwein)
     is drawn in a gap beside that cation, so its arrow is a short arc that crosses no bond, as

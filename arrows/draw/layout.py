@@ -307,6 +307,25 @@ def _aligned(moving: dict[int, complex], fixed: dict[int, complex], anchors: lis
     return best[1]
 
 
+def _bonds_between(a: int, b: int, neighbours, passable) -> int:
+    """Bonds on the shortest way from a to b, stepping from x to n only where passable(x, n) (0 when
+    there is none)."""
+    seen, frontier, steps = {a}, [a], 0
+    while frontier:
+        steps += 1
+        following = []
+        for x in frontier:
+            for n in neighbours[x]:
+                if n in seen or not passable(x, n):
+                    continue
+                if n == b:
+                    return steps
+                seen.add(n)
+                following.append(n)
+        frontier = following
+    return 0
+
+
 def _unit(z: complex) -> complex:
     size = abs(z)
     return z / size if size > 1e-12 else 1 + 0j
@@ -937,10 +956,23 @@ class _LayoutBuilder:
                        if self.element[n] != 1 and cluster_of.get(n) == cluster_of[atom])
         room: dict[int, int] = {}
         for i, j in self.union:
-            if (self.element[i] != 1 and self.element[j] != 1 and cluster_of[i] != cluster_of[j]
-                    and own_heavy(i) >= 3 and own_heavy(j) >= 3):
+            if self.element[i] == 1 or self.element[j] == 1 or cluster_of[i] == cluster_of[j]:
+                continue
+            if own_heavy(i) >= 3 and own_heavy(j) >= 3:
                 room[i] = room.get(i, 0) + 1
                 room[j] = room.get(j, 0) + 1
+                continue
+            # A ring atom with three heavy neighbours of its own, one of them a heteroatom that
+            # bonds to it to close the ring, keeps room for its fourth too, so that the ring's
+            # depiction splays its two bonds out of the ring: drawn trigonal, the group it bonds
+            # to (the Paal-Knorr carbonyl oxygen) squeezes into the ring's gap, its label against
+            # the closing atom's.
+            for a in (i, j):
+                if own_heavy(a) >= 3 and any(
+                        self.element[n] not in (1, 6) and cluster_of.get(n) == cluster_of[a]
+                        and not all((min(a, n), max(a, n)) in bonds for bonds in self.bonds_in)
+                        and self._ring_through(a, n) >= 5 for n in self.neighbours[a]):
+                    room[a] = room.get(a, 0) + 1
         return room
 
     def _slots_for_fed_hydrogens(self, clusters: list[list[int]]) -> dict[int, set[int]]:
@@ -961,6 +993,13 @@ class _LayoutBuilder:
             if len(own) >= 3 and fed & set(own) and not self._in_ring(holder):
                 slots.setdefault(holder, set()).update(fed & set(own))
         return slots
+
+    def _ring_through(self, a: int, b: int) -> int:
+        """Atoms in the smallest ring of the union graph's heavy atoms through the bond a-b (0 when
+        the bond is in none)."""
+        around = _bonds_between(a, b, self.neighbours,
+                                lambda x, n: self.element[n] != 1 and not (x == a and n == b))
+        return around + 1 if around else 0
 
     def _in_ring(self, atom: int) -> bool:
         """Whether a ring of the union graph runs through `atom` (two of its neighbours are
@@ -1277,21 +1316,8 @@ class _LayoutBuilder:
     def _heavy_path_length(self, a: int, b: int, k: int, members: set[int]) -> int:
         """Bonds on the shortest way from a to b over panel k's bonds between heavy atoms of
         `members` (0 when there is none)."""
-        seen, frontier, steps = {a}, [a], 0
-        while frontier:
-            steps += 1
-            following = []
-            for x in frontier:
-                for n in self.neighbours[x]:
-                    if n in seen or n not in members or self.element[n] == 1 \
-                            or (min(n, x), max(n, x)) not in self.bonds_in[k]:
-                        continue
-                    if n == b:
-                        return steps
-                    seen.add(n)
-                    following.append(n)
-            frontier = following
-        return 0
+        return _bonds_between(a, b, self.neighbours, lambda x, n: n in members and self.element[n] != 1
+                              and (min(n, x), max(n, x)) in self.bonds_in[k])
 
     def _run_bonds(self, group: list[int], first: int, last: int) -> set[tuple[int, int]]:
         """The bonds among `group` in panels first..last, and for an atom bonded to none of them, its
