@@ -126,10 +126,13 @@ CODES = _table(
          'step "contributor" resonance\n    C3-Br4 -> Br4   # breaks the C-Br sigma bond: a reaction, not resonance\nend'),
     Code("AR401", ERROR, "checkpoint differs",
          "The state after the step does not contain a structure written with `expect`. The message "
-         "names the difference atom by atom.",
+         "names the difference atom by atom, and says so when the written structure is a tautomer of "
+         "the derived one (RDKit's tautomer enumerator judges).",
          '    :O11 -> C2\n    expect "CC(C)(O)C"   # the moves give the alkoxide CC(C)([O-])C'),
     Code("AR402", ERROR, "product differs",
-         "The state after the last step does not contain the structure written with `product`.",
+         "The state after the last step does not contain the structure written with `product`. As "
+         "for AR401, a tautomer of the derived structure (a ketone written where the moves reach its "
+         "enol) is called one.",
          'product "CN=C(C)C"   # the moves leave the iminium C[NH+]=C(C)C: a proton transfer is missing'),
     Code("AR403", ERROR, "charge not conserved",
          "The total charge after a step differs from the total before it plus what entered with `uses`.",

@@ -83,3 +83,32 @@ end
     _, diags = check_text(text.format(expect="CC(C)(O)[O-]"))   # the label left out
     (error,) = [d for d in diags if d.severity == "error"]
     assert "O6: expected O, the moves give 18O" in error.message, error.message
+
+
+DECARBOXYLATION = '''
+species acid = "[CH3:8][C:1](=[O:2])[CH2:3][C:4](=[O:5])[O:6][H:7]"
+step "decarboxylation"
+    C1=O2 -> O2-H7
+    O6-H7 -> C4=O6
+    C3-C4 -> C1=C3
+end
+product "{product}"
+'''
+
+
+def test_a_product_written_as_another_tautomer_is_called_one():
+    """A beta-keto acid loses CO2 through a six-membered cyclic array and gives the enol, which
+    only later tautomerises to the ketone (textbook decarboxylation of acetoacetic acid, common
+    practice). Writing acetone as the product of the one step is named a tautomer of the derived
+    enol, with a hint to add the proton transfers; RDKit's tautomer enumerator, which puts both in
+    one canonical form, is the judge. A product that is no tautomer (propan-2-ol) is not called one."""
+    _, diags = check_text(DECARBOXYLATION.format(product="CC(C)=O.O=C=O"))
+    errors = [d for d in diags if d.severity == "error"]
+    assert [d.code for d in errors] == ["AR402"]
+    assert "tautomer of the derived C=C(C)O" in errors[0].message
+    assert "proton transfers" in errors[0].hint
+    _, diags = check_text(DECARBOXYLATION.format(product="CC(C)O.O=C=O"))
+    errors = [d for d in diags if d.severity == "error"]
+    assert [d.code for d in errors] == ["AR402"] and "tautomer" not in errors[0].message
+    _, diags = check_text(DECARBOXYLATION.format(product="CC(O)=C.O=C=O"))
+    assert not [d for d in diags if d.severity == "error"]

@@ -12,7 +12,7 @@ from ..diagnostics import Diagnostic
 from ..electrons import ElectronState, atom_label, order_word
 from ..judgement.perception import RecentViews
 from ..model import Checkpoint
-from ..rdkit_io import atom_list, nuclide, read_smiles, sanitize
+from ..rdkit_io import atom_list, nuclide, rdkit_messages, read_smiles, sanitize
 from ..trace import StepTrace
 from . import Check, Ending
 
@@ -159,6 +159,10 @@ def compare(state: ElectronState, checkpoint: Checkpoint, code: str, step: Optio
         closest = max(candidates, key=lambda f: _overlap(frag.mol, f.mol), default=None)
         details, hint = _explain(frag, closest, state) if closest is not None else ([], None)
         message = f"the {what} {frag.smiles} is not in the derived state"
+        if closest is not None and hint is None and _tautomers(frag.smiles, closest.smiles):
+            message = f"the {what} {frag.smiles} is a tautomer of the derived {closest.smiles}, not the same form"
+            hint = ("add the proton transfers that turn one form into the other (a keto-enol tautomerisation "
+                    "takes two), or write the form the moves reach")
         if details:
             message += ": " + "; ".join(details)
         else:
@@ -171,6 +175,21 @@ def compare(state: ElectronState, checkpoint: Checkpoint, code: str, step: Optio
         diags.append(Diagnostic(code, f"`all` was asked, but the state also holds {extra}", checkpoint.loc,
                                 hint="write every fragment, or drop `all`", step=step))
     return diags
+
+
+def _tautomers(written: str, derived: str) -> bool:
+    """Whether two different SMILES are tautomers of one another, as RDKit's tautomer enumerator
+    judges (both canonicalised to one form): asked only of a mismatch."""
+    if written == derived:
+        return False
+    from rdkit.Chem.MolStandardize import rdMolStandardize   # only a mismatch asks
+    with rdkit_messages():
+        mols = [Chem.MolFromSmiles(smiles) for smiles in (written, derived)]
+        if any(m is None for m in mols):
+            return False
+        enumerator = rdMolStandardize.TautomerEnumerator()
+        forms = [Chem.MolToSmiles(enumerator.Canonicalize(m)) for m in mols]
+    return forms[0] == forms[1]
 
 
 def _overlap(a: Chem.Mol, b: Chem.Mol) -> tuple[int, int]:
