@@ -160,6 +160,12 @@ CODES = _table(
          "(a shell a step only keeps, as a sulfonyl S that swaps one bond for another, is not flagged); "
          "a d-block metal of groups 3-11 above eighteen (the 18-electron rule).",
          'C4=O5 -> O5-P2   # the oxaphosphetane of a Wittig reaction: P2 with five bonds (fine for P)'),
+    Code("AR505", WARNING, "electron-poor heteroatom",
+         "A step leaves N, O, S or a halogen with six valence electrons, down from a full octet (a "
+         "nitrenium, oxenium or halenium ion). Such ions are rare; most often single-electron arrows "
+         "were meant (a homolysis), or a bond should form to the atom in the same step.",
+         'Br1-Br2 -> Br1   # under light: Br2 is left as Br+ with six electrons; write\n'
+         '                 # Br1-Br2 ~> Br1 and Br1-Br2 ~> Br2 for the homolysis'),
     Code("AR506", WARNING, "step with no moves",
          "A step names no electron moves.",
          'step "workup" under "H3O+"\nend   # write the proton transfers, or leave the step out'),

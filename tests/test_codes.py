@@ -71,6 +71,13 @@ def expected_location(t: Twin, text: str) -> tuple[int, int]:
     return line, column
 
 
+BROMINE_HOMOLYSIS = '''species bromine = "[Br:1][Br:2]"
+step "homolysis" under "light"
+    Br1-Br2 ~> Br1
+    Br1-Br2 ~> Br2
+end
+'''
+
 TWINS = [
     # electron moves (AR2xx)
     Twin("arrow from a proton", ACID_BASE, ":O5 -> H(O4)", "H(O4) -> O5", "AR204", "H(O4) -> O5",
@@ -188,6 +195,10 @@ TWINS = [
     # bond, ten valence electrons (a warning only: third-row atoms may expand their octet).
     Twin("expanded octet on sulfur", SULFONIUM, ":O1 -> C2", ":O1 -> S3", "AR504", 'step "methyl transfer"',
          says=("S3", "10 valence electrons")),
+    # Bromine split by a pair arrow instead of two single-electron arrows: Br2 is left as Br+ with
+    # six valence electrons (a halenium ion; homolysis under light is the textbook step, memory).
+    Twin("six-electron bromine", BROMINE_HOMOLYSIS, "    Br1-Br2 ~> Br1\n    Br1-Br2 ~> Br2\n",
+         "    Br1-Br2 -> Br1\n", "AR505", 'step "homolysis"', says=("Br2", "six valence electrons")),
     Twin("step without moves", SN2, 'product "CO.[Br-]"', 'step "nothing happens"\nend\nproduct "CO.[Br-]"',
          "AR506", 'step "nothing happens"'),
     # The backside attack inverts the written centre (Walden inversion, textbook); the product line

@@ -30,9 +30,15 @@ def shell_limit(atomic_num: int) -> int:
     return 18 if atomic_num in _TRANSITION_METALS else 8
 
 
+# Elements that are rarely left with an open shell of six (nitrenium, oxenium, sulfenium and
+# halenium ions are fleeting at best; common practice draws a bond forming to them in the same
+# step): carbon (carbocations, carbenes), boron and the metals are not among them.
+_RARELY_SEXTET = {7: "N", 8: "O", 9: "F", 16: "S", 17: "Cl", 35: "Br", 53: "I"}
+
+
 class UnusualElectronCounts(Check):
     name = "unusual electron counts"
-    codes = ("AR503", "AR504")
+    codes = ("AR503", "AR504", "AR505")
 
     def step(self, st: StepTrace, context) -> Iterator[Diagnostic]:
         after, before = st.after, st.before
@@ -47,9 +53,16 @@ class UnusualElectronCounts(Check):
                                  hint="a charge of two on one atom is rare; check the moves onto this atom",
                                  atoms=(label,), step=st.index)
         for i, shell in st.change.shells.items():
+            element = after.elements[i]
+            if shell == 6 and element in _RARELY_SEXTET and before.nonbonding[i] + 2 * before.bond_sums[i] > 6:
+                label = after.label(i)
+                yield Diagnostic("AR505", f"{label} is left with six valence electrons (a {_RARELY_SEXTET[element]} "
+                                 f"cation with an open shell)", st.step.loc,
+                                 hint="such ions are rare: were single-electron arrows (~>) meant, as for a "
+                                      "homolysis, or should a bond form to it in the same step?",
+                                 atoms=(label,), step=st.index)
             # Only a step that expands the shell: a sulfonyl S substituted (an alcohol onto MsCl)
             # keeps the twelve electrons its species was written with.
-            element = after.elements[i]
             limit = shell_limit(element)
             if shell > limit and element > 10 and shell > before.nonbonding[i] + 2 * before.bond_sums[i]:
                 label = after.label(i)
