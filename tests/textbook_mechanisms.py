@@ -45,7 +45,8 @@ shift (Wagner-Meerwein), an oxocarbenium met by an alkene (Prins), a five-member
 an alkoxide (5-exo-tet), a malonate enolate alkylated, a furan made by acid (Paal-Knorr), an
 iminium met by cyanide (Strecker) and a lactone closed and dehydrated in acid; an acetylide
 alkylated, a vinyl cation made from an alkyne and caught by water, a nitrile oxide's 1,3-dipolar
-cycloaddition, and an oxime.
+cycloaddition, an oxime; a hydrogen shifted round a six-membered array
+([1,5]) and a xanthate's syn elimination (Chugaev).
 
 Each entry: (mechanism text, textbook product SMILES, drawn): `drawn` says whether the geometry
 tests draw it. All do but five. (Fixed in the layout and the tests since: the Dieckmann
@@ -2842,6 +2843,30 @@ end
 product "CC(C)=NO"
 '''
 
+# A suprafacial [1,5]-hydrogen shift in (Z)-penta-1,3-diene: the hydrogen moves from C5 to C1 round
+# a six-membered cyclic array (degenerate: the product is (Z)-penta-1,3-diene again).
+HYDROGEN_SHIFT_1_5 = '''\
+species diene = "[CH2:1]=[CH:2]/[CH:3]=[CH:4]\\[CH2:5][H:6]"
+step "[1,5]-H shift" under "heat"
+    C5-H6 -> C4=C5
+    C3=C4 -> C2=C3
+    C1=C2 -> C1-H6
+end
+product "C/C=C\\C=C"
+'''
+
+# Chugaev elimination of ethyl S-methyl xanthate: the thione sulfur takes a beta hydrogen through
+# a six-membered cyclic array (syn), giving ethene and S-methyl dithiocarbonate.
+CHUGAEV = '''\
+species xanthate = "[CH3:10][S:1][C:2](=[S:3])[O:4][CH2:5][CH2:6][H:7]"
+step "syn elimination" under "heat"
+    C2=S3 -> S3-H7
+    C6-H7 -> C5=C6
+    C5-O4 -> C2=O4
+end
+product "C=C.CSC(=O)S"
+'''
+
 TEXTBOOK = {
     "wittig": (WITTIG, "C=C(C)C.O=P(c1ccccc1)(c1ccccc1)c1ccccc1", True),
     "bromination": (BROMINATION, "Br[C@@H]1CCCC[C@H]1Br", True),
@@ -2966,4 +2991,7 @@ TEXTBOOK = {
     "alkyne hydration": (ALKYNE_HYDRATION, "CC(C)=O", True),
     "nitrile oxide cycloaddition": (NITRILE_OXIDE_CYCLOADDITION, "C1CC(c2ccccc2)=NO1", True),
     "oxime formation": (OXIME_FORMATION, "CC(C)=NO", True),
+    # (Z) again in the textbook (suprafacial); the bookkeeping sets no geometry for the new C2=C3
+    "[1,5]-hydrogen shift": (HYDROGEN_SHIFT_1_5, "C=CC=CC", True),
+    "chugaev": (CHUGAEV, "C=C.CSC(=O)S", True),
 }
