@@ -119,6 +119,30 @@ def test_charge_signs_keep_white_between_them_and_bond_strokes():
     assert seen > 300
 
 
+def test_a_charge_sign_keeps_off_its_own_atoms_hydrogens():
+    """A borate's minus (after hydroperoxide adds to an alkylborane) is set clear of the H2 written
+    above its B (IUPAC 2008: text in a structure diagram must not overlap): it was once written
+    after the B, on the subscript 2 hanging beside it."""
+    from arrows.draw.text import FontFace
+    from textbook_mechanisms import TEXTBOOK
+    style = STYLES["two-column"]
+    face = FontFace(style.font_family)
+    trace, diags = arrows.check_text(TEXTBOOK["borane oxidation"][0], "borane oxidation.mech")
+    scene = build_scene(trace, style, diags)
+    signs = 0
+    for panel in scene.panels:
+        for mark in panel.marks:
+            if mark.kind != "charge" or panel.atom(mark.atom).element != "B":
+                continue
+            signs += 1
+            for run in panel.atom(mark.atom).runs:
+                x0, x1 = run.x, run.x + face.width(run.text, run.size)
+                y0, y1 = run.y - face.cap_height * run.size, run.y
+                box = mark.box
+                assert box.x1 <= x0 or x1 <= box.x0 or box.y1 <= y0 or y1 <= box.y0, (panel.index, run.text)
+    assert signs == 1
+
+
 def _distance_to_segment(p: complex, a: complex, b: complex) -> float:
     along = b - a
     t = max(0.0, min(1.0, ((p - a) * along.conjugate()).real / abs(along) ** 2)) if abs(along) > 1e-9 else 0.0

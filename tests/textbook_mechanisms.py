@@ -46,7 +46,7 @@ an alkoxide (5-exo-tet), a malonate enolate alkylated, a furan made by acid (Paa
 iminium met by cyanide (Strecker) and a lactone closed and dehydrated in acid; an acetylide
 alkylated, a vinyl cation made from an alkyne and caught by water, a nitrile oxide's 1,3-dipolar
 cycloaddition, an oxime; a hydrogen shifted round a six-membered array
-([1,5]) and a xanthate's syn elimination (Chugaev).
+([1,5]) and a xanthate's syn elimination (Chugaev); an alkyl shifted from boron to oxygen.
 
 Each entry: (mechanism text, textbook product SMILES, drawn): `drawn` says whether the geometry
 tests draw it. All do but five. (Fixed in the layout and the tests since: the Dieckmann
@@ -2867,6 +2867,22 @@ end
 product "C=C.CSC(=O)S"
 '''
 
+# Oxidation of an alkylborane (the second half of hydroboration-oxidation): hydroperoxide adds to
+# boron, and the propyl group shifts from boron to oxygen as hydroxide leaves (the borate ester,
+# hydrolysed later to propan-1-ol).
+BORANE_OXIDATION = '''\
+species borane = "[CH3:10][CH2:11][CH2:1][BH2:2]"
+species hydroperoxide = "[O-:3][OH:4]"
+step "hydroperoxide adds to boron"
+    :O3 -> B2
+end
+step "1,2-shift from boron to oxygen"
+    B2-C1 -> C1-O3
+    O3-O4 -> O4
+end
+product "CCCO[BH2].[OH-]"
+'''
+
 TEXTBOOK = {
     "wittig": (WITTIG, "C=C(C)C.O=P(c1ccccc1)(c1ccccc1)c1ccccc1", True),
     "bromination": (BROMINATION, "Br[C@@H]1CCCC[C@H]1Br", True),
@@ -2994,4 +3010,5 @@ TEXTBOOK = {
     # (Z) again in the textbook (suprafacial); the bookkeeping sets no geometry for the new C2=C3
     "[1,5]-hydrogen shift": (HYDROGEN_SHIFT_1_5, "C=CC=CC", True),
     "chugaev": (CHUGAEV, "C=C.CSC(=O)S", True),
+    "borane oxidation": (BORANE_OXIDATION, "CCCO[BH2].[OH-]", True),
 }

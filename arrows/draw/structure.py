@@ -705,6 +705,9 @@ class StructureDrawer:
         # The line the element symbol is on (hydrogens written above or below it do not count).
         baseline_y = out.positions[i].imag + self.cap / 2
         same_line = [self.text_box(r) for r in drawing.runs if abs(r.y - baseline_y) < 0.5 * self.style.font_size]
+        # Its own hydrogens written above or below (the H2 over a borate's B): the sign may not
+        # touch them either.
+        own = [self.text_box(r) for r in drawing.runs if abs(r.y - baseline_y) >= 0.5 * self.style.font_size]
         box = same_line[0]
         for b in same_line[1:]:
             box = box.union(b)
@@ -719,7 +722,8 @@ class StructureDrawer:
             tb = self.text_box(run)
             grown = Box(tb.x0 - 0.1 * size, tb.y0 - 0.1 * size, tb.x1 + 0.1 * size, tb.y1 + 0.1 * size)
             if any(segment_hits_box(centre + d * out.label_reach(i, d), centre + d * reach, grown)
-                   for d in out.bond_directions[i]) or any(grown.overlaps(b, 0.2 * size) for b in near):
+                   for d in out.bond_directions[i]) or any(grown.overlaps(b, 0.2 * size) for b in near) \
+                    or any(tb.overlaps(b) for b in own):
                 continue
             if strokes is None:
                 # Strokes of the bonds close by: a sign on a ring bond beside NH2+ reads as
