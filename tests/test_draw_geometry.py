@@ -1014,6 +1014,19 @@ def test_map_numbers_shown_when_asked():
                        if a.GetAtomMapNum() and a.GetIdx() in {x.index for x in panel.atoms}}
 
 
+def test_map_numbers_are_not_written_in_the_ink_of_subscripts_and_charges():
+    """A map number is a drafting aid written beside its atom, often at the label's lower or upper
+    right, where a subscript or a charge goes: in the labels' black, O with 3 beside it read as
+    ozone's O3. Numbers take a colour of their own (from the Okabe-Ito palette, references.md),
+    labels and charges stay black."""
+    _, _, scene = _scene(CHIRAL, "chiral.mech", numbers=True)
+    panel = scene.panels[0]
+    number_inks = {r.colour for m in panel.marks if m.kind == "number" for r in m.runs}
+    label_inks = {r.colour for a in panel.atoms for r in a.runs} | {
+        r.colour for m in panel.marks if m.kind == "charge" for r in m.runs}
+    assert number_inks and not number_inks & label_inks
+
+
 def test_entering_species_without_arrows_is_named_over_the_arrow():
     """A species that enters with `uses` but takes part in no arrow of its step is written as
     "+ formula" over the reaction arrow, not drawn on the panel the step leaves; it appears in

@@ -22,7 +22,7 @@ from rdkit import Chem
 from ..electrons import ElectronState
 from ..rdkit_io import HYDROGEN_ISOTOPES, bond_list
 from .scene import AtomDrawing, BondDrawing, Box, Mark, TextRun
-from .styles import BROKEN_COLOUR, FORMED_COLOUR, INK, Style
+from .styles import BROKEN_COLOUR, FORMED_COLOUR, INK, NUMBER_COLOUR, Style
 from .formula import MINUS
 from .text import FontFace
 from .wedges import HASHED, SOLID, choose_wedges, configured_centres
@@ -809,7 +809,8 @@ class StructureDrawer:
         half = max(width, cap) / 2
         reach = out.label_reach(i, direction) or 0.18 * self.style.bond_length
         spot = centre + direction * (reach + half + 0.08 * self.style.font_size)
-        run = TextRun(text, spot.real - width / 2, spot.imag + cap / 2, size, italic=italic)
+        run = TextRun(text, spot.real - width / 2, spot.imag + cap / 2, size, italic=italic,
+                      colour=NUMBER_COLOUR if kind == "number" else INK)
         bl = self.style.bond_length
         lines = [(centre, centre + d * bl) for d in out.bond_directions.get(i, ())]
         if out.atoms[i].box is None:
@@ -830,7 +831,8 @@ class StructureDrawer:
         for slid in range(steps):
             if clear(self.text_box(run)):
                 break
-            run = TextRun(text, run.x + direction.real * 0.03 * bl, run.y + direction.imag * 0.03 * bl, size, italic=italic)
+            run = TextRun(text, run.x + direction.real * 0.03 * bl, run.y + direction.imag * 0.03 * bl, size,
+                          italic=italic, colour=run.colour)
         else:
             slid = steps
         return Mark(kind, i, (run,), box=self.text_box(run)), slid

@@ -21,6 +21,9 @@ INK = OKABE_ITO["black"]
 FORMED_COLOUR = OKABE_ITO["blue"]
 BROKEN_COLOUR = OKABE_ITO["vermillion"]
 ERROR_COLOUR = OKABE_ITO["reddish purple"]
+# Map numbers (--numbers, a drafting aid) in a colour of their own: in black, a number beside a
+# label's lower right reads as a subscript (O3 as ozone), at its upper right as a charge.
+NUMBER_COLOUR = OKABE_ITO["bluish green"]
 SMALLEST_TEXT_PT = 6.0
 
 
