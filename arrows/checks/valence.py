@@ -54,7 +54,8 @@ class UnusualElectronCounts(Check):
                                  atoms=(label,), step=st.index)
         for i, shell in st.change.shells.items():
             element = after.elements[i]
-            if shell == 6 and element in _RARELY_SEXTET and before.nonbonding[i] + 2 * before.bond_sums[i] > 6:
+            old_shell = before.nonbonding[i] + 2 * before.bond_sums[i]
+            if shell == 6 and element in _RARELY_SEXTET and old_shell > 6:
                 label = after.label(i)
                 yield Diagnostic("AR505", f"{label} is left with six valence electrons (a {_RARELY_SEXTET[element]} "
                                  f"cation with an open shell)", st.step.loc,
@@ -64,7 +65,7 @@ class UnusualElectronCounts(Check):
             # Only a step that expands the shell: a sulfonyl S substituted (an alcohol onto MsCl)
             # keeps the twelve electrons its species was written with.
             limit = shell_limit(element)
-            if shell > limit and element > 10 and shell > before.nonbonding[i] + 2 * before.bond_sums[i]:
+            if shell > limit and element > 10 and shell > old_shell:
                 label = after.label(i)
                 symbol = _HYPERVALENT.get(element)
                 if limit == 18:

@@ -885,6 +885,7 @@ class _LayoutBuilder:
         move anyway: then they are depicted together, as one molecule already curled into the
         bonds it will make. A travelling hydrogen belongs to a cluster only if every atom it is
         ever bonded to does."""
+        self.hops = self._hydrogen_hops()
         heavy_atoms = [i for i in self.atoms if self.element[i] != 1]
         groups = _UnionFind(heavy_atoms)
         heavy_bonds = [(i, j) for i, j in self.union if self.element[i] != 1 and self.element[j] != 1]
@@ -1036,7 +1037,8 @@ class _LayoutBuilder:
         # A hydrogen handed between two heavy atoms in the step closes such a ring too, as a link
         # between them (an ester's Ei elimination, a beta-keto acid losing CO2, the carbonyl-ene:
         # six-membered cyclic arrays with the hydrogen at one corner).
-        hops = self._hydrogen_hops()
+        hops = {k: {(min(giver, taker), max(giver, taker)) for _, giver, taker in handed}
+                for k, handed in self.hops.items()}
         bond_sets = [(k, self.bonds_in[k], False) for k in range(self.n)]
         bond_sets += [(k + 1, self.bonds_in[k] | self.bonds_in[k + 1] | hops.get(k, set()), True)
                       for k in range(self.n - 1)]
@@ -1098,15 +1100,16 @@ class _LayoutBuilder:
             path.append(bond)
         return path
 
-    def _hydrogen_hops(self) -> dict[int, set[tuple[int, int]]]:
-        """step -> the pairs of heavy atoms that a drawn hydrogen is handed between in it."""
-        hops: dict[int, set[tuple[int, int]]] = {}
-        for h in self.drawn_h:
+    def _hydrogen_hops(self) -> dict[int, list[tuple[int, int, int]]]:
+        """step -> (hydrogen, giver, taker) for each drawn hydrogen handed between two heavy atoms
+        in it."""
+        hops: dict[int, list[tuple[int, int, int]]] = {}
+        for h in sorted(self.drawn_h):
             holders = [[n for n in self.neighbours[h] if self.element[n] != 1 and (min(n, h), max(n, h)) in bonds]
                        for bonds in self.bonds_in]
             for k, (before, after) in enumerate(zip(holders, holders[1:])):
                 if len(before) == 1 and len(after) == 1 and before != after:
-                    hops.setdefault(k, set()).add((min(before[0], after[0]), max(before[0], after[0])))
+                    hops.setdefault(k, []).append((h, before[0], after[0]))
         return hops
 
     def _join_ring(self, groups: _UnionFind, ring: list[tuple[int, int]], k: int, heavy_atoms: list[int],
@@ -1292,26 +1295,15 @@ class _LayoutBuilder:
     def _hop_ahead(self, group: list[int], last: int) -> set[tuple[int, int]]:
         """The bonds a hydrogen of `group` makes in the step after panel `last` as one corner of a
         cyclic array (a beta-keto acid's O-H going to the ketone oxygen as CO2 leaves): drawn
-        already, so the array is depicted as the ring it is."""
-        if last + 1 >= self.n:
-            return set()
+        already, so the array is depicted as the ring it is. One corner of a six-membered (or
+        larger) ring the step goes round, that is: some other bond of the group changes too. (A
+        five-membered one, a Cope elimination's, is left to the hydrogen's own placement: drawn
+        as a ring it crowds the substituents of its centres.)"""
         members = set(group)
-        made = self.bonds_in[last + 1] - self.bonds_in[last]
-        changed = self.bonds_in[last] ^ self.bonds_in[last + 1]
-        out = set()
-        for i, j in made:
-            h, taker = (i, j) if self.element[i] == 1 else (j, i)
-            if self.element[h] != 1 or h not in members or taker not in members:
-                continue
-            giver = next((n for n in self.neighbours[h] if (min(n, h), max(n, h)) in self.bonds_in[last]
-                          and self.element[n] != 1), None)
-            # one corner of a six-membered (or larger) ring the step goes round: some other bond
-            # of the group changes too. (A five-membered one, a Cope elimination's, is left to the
-            # hydrogen's own placement: drawn as a ring it crowds the substituents of its centres.)
-            if giver is not None and self._heavy_path_length(giver, taker, last, members) >= 4 and any(
-                    h not in bond and bond[0] in members and bond[1] in members for bond in changed):
-                out.add((i, j))
-        return out
+        changed = self.bonds_in[last] ^ self.bonds_in[last + 1] if last + 1 < self.n else set()
+        return {(min(h, taker), max(h, taker)) for h, giver, taker in self.hops.get(last, ())
+                if h in members and taker in members and self._heavy_path_length(giver, taker, last, members) >= 4
+                and any(h not in bond and bond[0] in members and bond[1] in members for bond in changed)}
 
     def _heavy_path_length(self, a: int, b: int, k: int, members: set[int]) -> int:
         """Bonds on the shortest way from a to b over panel k's bonds between heavy atoms of
@@ -2636,7 +2628,6 @@ class _LayoutBuilder:
                 return 0.0
             reach = abs(partner - direction)
             return max(0.0, TRANSFER_GAP - 0.1 - reach, reach - TRANSFER_GAP - 0.4)
-
 
         # Bonds its own bond would cross (relative to the holder): a hydrogen is never drawn
         # across another bond, however much room it has.

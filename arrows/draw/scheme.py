@@ -201,8 +201,12 @@ def _crowded_atoms(scene: Scene) -> tuple[str, ...]:
     using the figure. The geometry tests hold the gallery and the textbook schemes to this; it is
     the safety net for arrangements of molecules the layout has not met."""
     notes = []
-    for panel, nearest in zip(scene.panels, _nearest_pairs(scene)):
+    for panel in scene.panels:
         atoms = panel.atoms
+        where = np.array([complex(*a.position) for a in atoms])
+        apart = np.abs(where[:, None] - where[None, :]) / scene.bond_length
+        np.fill_diagonal(apart, np.inf)
+        i, j = np.unravel_index(int(np.argmin(apart)), apart.shape) if len(atoms) > 1 else (0, 0)
         # Sweep from left to right: a label is compared only with those that start before it ends.
         labelled = sorted((a for a in atoms if a.box is not None), key=lambda a: a.box.x0)
         clash = next(((a, b) for n, a in enumerate(labelled)
@@ -211,33 +215,10 @@ def _crowded_atoms(scene: Scene) -> tuple[str, ...]:
         if clash is not None:
             notes.append(f"panel {panel.index + 1}: the labels of {clash[0].name} and {clash[1].name} overlap: "
                          f"the layout found no clear place for them; check the figure")
-        elif nearest is not None:
-            i, j, apart = nearest
-            if apart < 0.5:
-                notes.append(f"panel {panel.index + 1}: {atoms[i].name} and {atoms[j].name} are drawn {apart:.2f} "
-                             f"bond lengths apart: the layout found no clear place for them; check the figure")
+        elif len(atoms) > 1 and apart[i, j] < 0.5:
+            notes.append(f"panel {panel.index + 1}: {atoms[i].name} and {atoms[j].name} are drawn {apart[i, j]:.2f} "
+                         f"bond lengths apart: the layout found no clear place for them; check the figure")
     return tuple(notes)
-
-
-def _nearest_pairs(scene: Scene) -> list[Optional[tuple[int, int, float]]]:
-    """For each panel of two or more atoms (None for the others), its two nearest atoms (their
-    places in panel.atoms; of equal distances the first pair in row order, as np.argmin gives
-    it) and their distance in bond lengths. Every panel in one batch, padded to the largest:
-    numpy's cost is per call, and its element results do not depend on the array's shape."""
-    sizes = [len(p.atoms) for p in scene.panels]
-    size = max(sizes, default=0)
-    if size < 2:
-        return [None] * len(sizes)
-    where = np.array([z for p in scene.panels for z in [complex(*a.position) for a in p.atoms]
-                      + [0j] * (size - len(p.atoms))], dtype=complex).reshape(len(sizes), size)
-    apart = np.abs(where[:, :, None] - where[:, None, :]) / scene.bond_length
-    # Padding, and each atom against itself, never count.
-    real = np.arange(size)[None, :] < np.array(sizes)[:, None]
-    apart[~(real[:, :, None] & real[:, None, :]) | np.eye(size, dtype=bool)] = np.inf
-    flat = apart.reshape(len(sizes), size * size)
-    best = flat.argmin(axis=1).tolist()
-    return [(k // size, k % size, float(flat[n, k])) if count > 1 else None
-            for n, (k, count) in enumerate(zip(best, sizes))]
 
 
 class _SceneBuilder:
