@@ -46,7 +46,9 @@ an alkoxide (5-exo-tet), a malonate enolate alkylated, a furan made by acid (Paa
 iminium met by cyanide (Strecker) and a lactone closed and dehydrated in acid; an acetylide
 alkylated, a vinyl cation made from an alkyne and caught by water, a nitrile oxide's 1,3-dipolar
 cycloaddition, an oxime; a hydrogen shifted round a six-membered array
-([1,5]) and a xanthate's syn elimination (Chugaev); an alkyl shifted from boron to oxygen.
+([1,5]) and a xanthate's syn elimination (Chugaev); an alkyl shifted from boron to oxygen. Then:
+ring closures onto sp carbons (a nitrile, Thorpe-Ziegler; an alkyne, a 5-exo-dig radical) and a
+boron enolate's aldol through a six-membered cyclic array (Zimmerman-Traxler).
 
 Each entry: (mechanism text, textbook product SMILES, drawn): `drawn` says whether the geometry
 tests draw it. All do but five. (Fixed in the layout and the tests since: the Dieckmann
@@ -2883,6 +2885,68 @@ end
 product "CCCO[BH2].[OH-]"
 '''
 
+# Thorpe-Ziegler cyclisation: the anion alpha to one nitrile of heptanedinitrile (drawn as its
+# ketenimine resonance form) adds to the other nitrile, 6-exo-dig; the imine anion is protonated and
+# tautomerises to the conjugated enamine, 2-aminocyclohex-1-ene-1-carbonitrile.
+THORPE_ZIEGLER = '''\
+species dinitrile = "[N:1]#[C:2][CH2:3][CH2:4][CH2:5][CH2:6][CH2:7][C:8]#[N:9]"
+species base = "[CH3:20][CH2:21][O-:22]"
+step "deprotonation alpha to a nitrile" reversible
+    :O22 -> H(C3)
+    C3-H -> C2=C3
+    C2#N1 -> N1
+end
+step "the anion adds to the other nitrile"
+    :N1 -> C2#N1
+    C2=C3 -> C3-C8
+    C8#N9 -> N9
+end
+step "proton to nitrogen" reversible
+    :N9 -> H(O22)
+    O22-H -> O22
+end
+step "deprotonation at C3" reversible
+    :O22 -> H(C3)
+    C3-H -> C3=C8
+    C8=N9 -> N9
+end
+step "protonation on nitrogen gives the enamine" reversible
+    :N9 -> H(O22)
+    O22-H -> O22
+end
+product "N#CC1=C(N)CCCC1"
+'''
+
+# Hex-5-ynyl radical: 5-exo-dig ring closure onto the alkyne gives the (cyclopentylidene)methyl
+# vinyl radical (the 5-exo mode is the one observed; Baldwin 1976, favoured).
+RADICAL_EXO_DIG = '''\
+species radical = "[CH2:1][CH2:2][CH2:3][CH2:4][C:5]#[CH:6]"
+step "5-exo-dig ring closure"
+    .C1 ~> C1-C5
+    C5#C6 ~> C1-C5
+    C5#C6 ~> C6
+end
+product "[CH]=C1CCCC1"
+'''
+
+# Boron aldol (Zimmerman-Traxler): the aldehyde binds the boron of the enol borinate, then one
+# six-membered cyclic array makes the C-C bond and hands boron from the enol oxygen to the aldehyde
+# oxygen: the boron aldolate of the beta-hydroxy ketone.
+BORON_ALDOL = '''\
+species enolate = "[CH3:1][CH:2]=[C:3]([O:4][B:5]([CH3:6])[CH3:7])[CH2:8][CH3:9]"
+species aldehyde = "[CH3:10][CH:11]=[O:12]"
+step "the aldehyde binds boron" reversible
+    :O12 -> B5
+end
+step "six-membered cyclic transition state"
+    C2=C3 -> C2-C11
+    C11=O12 -> O12
+    B5-O4 -> O4
+    :O4 -> C3=O4
+end
+product "CCC(=O)C(C)C(C)OB(C)C"
+'''
+
 TEXTBOOK = {
     "wittig": (WITTIG, "C=C(C)C.O=P(c1ccccc1)(c1ccccc1)c1ccccc1", True),
     "bromination": (BROMINATION, "Br[C@@H]1CCCC[C@H]1Br", True),
@@ -3011,4 +3075,7 @@ TEXTBOOK = {
     "[1,5]-hydrogen shift": (HYDROGEN_SHIFT_1_5, "C=CC=CC", True),
     "chugaev": (CHUGAEV, "C=C.CSC(=O)S", True),
     "borane oxidation": (BORANE_OXIDATION, "CCCO[BH2].[OH-]", True),
+    "thorpe-ziegler": (THORPE_ZIEGLER, "N#CC1=C(N)CCCC1.CC[O-]", True),
+    "radical 5-exo-dig": (RADICAL_EXO_DIG, "[CH]=C1CCCC1", True),
+    "boron aldol": (BORON_ALDOL, "CCC(=O)C(C)C(C)OB(C)C", True),
 }

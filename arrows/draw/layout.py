@@ -331,6 +331,48 @@ def _unit(z: complex) -> complex:
     return z / size if size > 1e-12 else 1 + 0j
 
 
+def _reached(start: int, barrier: int, adjacent: dict[int, list[int]]) -> set[int]:
+    """The atoms reached from `start` without passing `barrier`."""
+    seen, frontier = {start}, [start]
+    while frontier:
+        following = []
+        for a in frontier:
+            for n in adjacent.get(a, ()):
+                if n != barrier and n not in seen:
+                    seen.add(n)
+                    following.append(n)
+        frontier = following
+    return seen
+
+
+def _adjacency(bonds: Iterable[tuple[int, int]]) -> dict[int, list[int]]:
+    adjacent: dict[int, list[int]] = {}
+    for i, j in bonds:
+        adjacent.setdefault(i, []).append(j)
+        adjacent.setdefault(j, []).append(i)
+    return adjacent
+
+
+def _on_the_way(start: int, goal: int, adjacent: dict[int, list[int]]) -> list[int]:
+    """The atoms of a shortest way from `start` to `goal`, both included (none if there is none)."""
+    came_from = {start: start}
+    frontier = [start]
+    while frontier and goal not in came_from:
+        following = []
+        for a in frontier:
+            for n in adjacent.get(a, ()):
+                if n not in came_from:
+                    came_from[n] = a
+                    following.append(n)
+        frontier = following
+    if goal not in came_from:
+        return []
+    way = [goal]
+    while way[-1] != start:
+        way.append(came_from[way[-1]])
+    return way
+
+
 def _distance(a: list[float], b: list[float]) -> float:
     """Between two points of RDKit's conformer (x, y, z)."""
     dx, dy, dz = a[0] - b[0], a[1] - b[1], a[2] - b[2]
@@ -687,13 +729,16 @@ class _LayoutBuilder:
         for start, _ in main.segments:
             main.placement[start] = (1 + 0j, 0j, None, 0.0)
         self._apply(self.main)
-        self._open_rings()
+        self._open_rings({self.main})
         # The skeleton first, with the molecules that wait to join it; then the partners that
         # hydrogens travel to take the room that is left.
         while self._place_by_events(("bond",)) or self._place_waiting():
             pass
         while self._place_by_events(("bond", "hop", "transfer")) or self._place_waiting() or self._place_leftovers():
             pass
+        # Rings of the other molecules open once everything stands where it will (a tin hydride
+        # may outweigh the chain that closes a ring).
+        self._open_rings(set(range(len(self.clusters))) - {self.main})
         self._place_hydrogens()
         self._set_by_products_beside_product()
         panels = []
@@ -702,7 +747,7 @@ class _LayoutBuilder:
             panels.append(PanelAtoms(state, visible, {i: self.positions[k][i] for i in visible}))
         return Layout(tuple(panels), self.drawn_h, self.labelled_h)
 
-    def _open_rings(self) -> None:
+    def _open_rings(self, clusters: set[int]) -> None:
         """A ring is drawn open until the step that closes it: only the chain end that closes
         the ring moves, swinging about its one other neighbour in the panels before the closing
         step (it is touched by that step, so it may move then). Onto an atom that, over the
@@ -710,10 +755,9 @@ class _LayoutBuilder:
         water and gains the second oxygen) it swings wide, so the crowded atom has room; otherwise
         the forming bond opens to about OPEN_BOND bond lengths, so the arrow into it has room, as
         chemists draw a ring closure. A ring with no chain end stays curled."""
-        main = set(self.clusters[self.main].atoms)
         for k in range(self.n - 1):
             for i, j in sorted(self.bonds_in[k + 1] - self.bonds_in[k]):
-                if i not in main or j not in main:
+                if self.cluster_of.get(i) not in clusters or self.cluster_of[i] != self.cluster_of.get(j):
                     continue
                 here = self.positions[k]
                 if i in here and j in here and abs(abs(here[i] - here[j]) - 1.0) > 0.02:
@@ -746,7 +790,11 @@ class _LayoutBuilder:
         moved."""
         if end not in self.touched[k] or self.element[end] == 1:
             return False
-        others = [n for n in self.neighbours[end] if n != partner]
+        # Closing onto a heavy atom, its neighbours at the closing step count (a bromine it lost
+        # before hangs on it no more); taking a hydrogen, every neighbour it ever had (an ethoxide
+        # just expelled is a base of its own, placed as such, not a chain end to swing).
+        others = [n for n in self.neighbours[end] if n != partner
+                  and (self.element[partner] == 1 or (min(end, n), max(end, n)) in self.bonds_in[k])]
         heavy = [n for n in others if self.element[n] != 1]
         if len(heavy) != 1 or any(n not in self.bridging for n in others if self.element[n] == 1):
             return False
@@ -1250,7 +1298,9 @@ class _LayoutBuilder:
         evenly, with every such atom straight or bent throughout, each run drawn from its own bonds (an
         atom with none there takes the bonds it has next), each aligned on the one before by the
         atoms the step between them leaves alone. Chemists redraw a ring that changes size; its
-        atoms are the ones that move."""
+        atoms are the ones that move. A run whose chain closes a ring later (onto a nitrile or an
+        alkyne carbon, whose straightening or bending starts a new run) is drawn curled round
+        that ring, its closing atoms a gap apart."""
         runs: list[tuple[int, dict[int, complex]]] = []
         sometimes_sp = [a for a in group if self._linear(a)]
         start = 0
@@ -1276,6 +1326,12 @@ class _LayoutBuilder:
                 if self._draws_chain_alkene_cis(trial, group, range(start, end + 2)):
                     break     # a new alkene drawn cis where the ring it came from was
                 end, local, bonds = end + 1, trial, trial_bonds
+            closing = self._rings_to_close(group, end)
+            if closing:
+                # A chain that closes a ring later is drawn curled round the ring to be, its two
+                # ends facing each other across a gap, not stretched out with the arrow spanning it.
+                local = self._straightened(self._depict(group, bonds, range(start, end + 1), closing),
+                                           bonds, closing, range(start, end + 1))
             if runs:
                 # RDKit lays separate pieces side by side at will: each piece is aligned on its own.
                 pieces = _UnionFind(group)
@@ -1305,6 +1361,33 @@ class _LayoutBuilder:
                 if h in members and taker in members and self._heavy_path_length(giver, taker, last, members) >= 4
                 and any(h not in bond and bond[0] in members and bond[1] in members for bond in changed)}
 
+    def _rings_to_close(self, group: list[int], last: int) -> frozenset[tuple[int, int]]:
+        """The bonds later steps make between two heavy atoms of `group` that are four or more
+        bonds apart in panel `last`: closures of rings of five and more. (A smaller ring, an
+        epoxide or a bromonium ion, closes on atoms that stand side by side anyway.)"""
+        members = set(group)
+        later = set().union(*self.bonds_in[last + 1:]) - self.bonds_in[last]
+        return frozenset((i, j) for i, j in later
+                         if i in members and j in members and self._heavy_path_length(i, j, last, members) >= 4)
+
+    def _straightened(self, local: dict[int, complex], bonds: set[tuple[int, int]],
+                      closing: frozenset[tuple[int, int]], panels: range) -> dict[int, complex]:
+        """`local` with each sp atom round a ring about to close (an alkyne or nitrile carbon,
+        depicted bent in the ring to be) made straight again: its smaller side turns about it until
+        it carries on the line of the other."""
+        adjacent = _adjacency(bonds)
+        for i, j in closing:
+            for atom in _on_the_way(i, j, adjacent):
+                if not self._linear(atom, panels) or len(adjacent.get(atom, ())) != 2:
+                    continue
+                sides = sorted(((_reached(n, atom, adjacent), n) for n in adjacent[atom]), key=lambda side: len(side[0]))
+                (branch, outward), (_, inward) = sides
+                centre = local[atom]
+                turn = _unit(centre - local[inward]) / _unit(local[outward] - centre)
+                for a in branch:
+                    local[a] = centre + (local[a] - centre) * turn
+        return local
+
     def _heavy_path_length(self, a: int, b: int, k: int, members: set[int]) -> int:
         """Bonds on the shortest way from a to b over panel k's bonds between heavy atoms of
         `members` (0 when there is none)."""
@@ -1332,24 +1415,28 @@ class _LayoutBuilder:
         return bonds
 
     def _depict(self, group: list[int], only: Optional[set[tuple[int, int]]] = None,
-                panels: Optional[range] = None) -> dict[int, complex]:
+                panels: Optional[range] = None, gaps: frozenset[tuple[int, int]] = frozenset()) -> dict[int, complex]:
         """RDKit 2D coordinates of one cluster's union graph (or of the bonds in `only`, drawn in
-        `panels`), scaled to unit bond length."""
+        `panels`), scaled to unit bond length. Each pair in `gaps` is drawn two bonds apart round
+        a ring, as if one more atom stood between them."""
         if len(group) == 1:
             return {group[0]: 0j}
         # What the Mol handed to RDKit is made of, besides what the scheme fixes (its bonds,
         # stand-ins, written E and Z): a run of panels often asks again for one already drawn.
-        straight = tuple(atom for atom in group if self._linear(atom, panels))
+        # (An atom round a gap is not drawn straight: it stands in a ring there.)
+        adjacent = _adjacency(only or ()) if gaps else {}
+        round_gaps = {a for i, j in gaps for a in _on_the_way(i, j, adjacent)}
+        straight = tuple(atom for atom in group if atom not in round_gaps and self._linear(atom, panels))
         chains = tuple(pair for pair, (_, _, at) in self.chain_double.items()
                        if panels is not None and any(k in panels for k in at))
-        key = (tuple(group), None if only is None else frozenset(only), straight, chains)
+        key = (tuple(group), None if only is None else frozenset(only), straight, chains, gaps)
         known = self._depictions.get(key)
         if known is None:
-            known = self._depictions[key] = self._depicted(group, only, panels, straight)
+            known = self._depictions[key] = self._depicted(group, only, panels, straight, gaps)
         return dict(known)
 
     def _depicted(self, group: list[int], only: Optional[set[tuple[int, int]]], panels: Optional[range],
-                  straight: tuple[int, ...]) -> dict[int, complex]:
+                  straight: tuple[int, ...], gaps: frozenset[tuple[int, int]]) -> dict[int, complex]:
         """_depict's work: the Mol built and laid out by RDKit, `straight` its sp atoms."""
         index = {atom: k for k, atom in enumerate(group)}
         mol = Chem.RWMol()
@@ -1371,6 +1458,12 @@ class _LayoutBuilder:
                 mol.AddBond(index[i], index[j], orders.get(order, Chem.BondType.SINGLE))
                 all_ends.append((index[i], index[j]))
         ends = all_ends[:]   # the cluster's own bonds, which set the scale
+        for i, j in gaps:
+            # A stand-in between the two, dropped below.
+            stand_in = mol.AddAtom(templates[0])
+            mol.AddBond(index[i], stand_in, Chem.BondType.SINGLE)
+            mol.AddBond(index[j], stand_in, Chem.BondType.SINGLE)
+            all_ends += [(index[i], stand_in), (index[j], stand_in)]
         for atom in group:
             for _ in range(self.room_kept.get(atom, 0)):
                 # A stand-in for the partner in another cluster, dropped below: the depiction
@@ -1399,7 +1492,8 @@ class _LayoutBuilder:
         for atom in straight:   # the depictor draws an atom straight (a nitrile, an alkyne, an allene) only if told
             mol.GetAtomWithIdx(index[atom]).SetHybridization(Chem.HybridizationType.SP)
         smallest = [list(r) for r in Chem.GetSymmSSSR(mol)]
-        self.rings += [ring for ring in ([group[k] for k in r] for r in smallest) if ring not in self.rings]
+        self.rings += [ring for ring in ([group[k] for k in r] for r in smallest if max(r) < len(group))
+                       if ring not in self.rings]   # (a ring through a stand-in is not one of the scheme's)
         rdDepictor.Compute2DCoords(mol, canonOrient=True)   # compute_layout chose RDKit's own depictor
         # All positions in one call: asking the conformer atom by atom costs more than the sums.
         xyz = mol.GetConformer().GetPositions().tolist()
