@@ -1680,6 +1680,20 @@ def test_crowded_panels_are_noted():
     assert note.startswith("panel 4: ") and "0.00 bond lengths apart" in note
 
 
+@pytest.mark.parametrize("name,elements", [("beta-keto acid decarboxylation", "COO"), ("staudinger", "NN")])
+def test_a_straight_by_product_lies_level_in_the_last_panel(name, elements):
+    """A by-product whose atoms lie on one line (CO2, N2) is set level beside the product, read
+    as it is written, O=C=O and N#N (common practice); it was left at the slant of the molecule
+    it came from."""
+    trace, _, scene = _scene(TEXTBOOK[name][0], name)
+    mol = trace.steps[-1].after.mol
+    where = {a.index: a.position for a in scene.panels[-1].atoms}
+    (piece,) = [f for f in Chem.GetMolFrags(mol, asMols=False, sanitizeFrags=False)
+                if "".join(sorted(mol.GetAtomWithIdx(i).GetSymbol() for i in f)) == elements]
+    heights = [where[i][1] for i in piece]
+    assert max(heights) - min(heights) < 0.01 * scene.bond_length, heights
+
+
 # Measured; see the docstring below.
 _CLOSED_BEFORE_CLOSING = {"dieckmann"}
 

@@ -345,6 +345,13 @@ def _reached(start: int, barrier: int, adjacent: dict[int, list[int]]) -> set[in
     return seen
 
 
+def _collinear(points: list[complex]) -> bool:
+    """Whether the points lie on one line (within a hundredth of a bond length)."""
+    first, last = min(points, key=lambda z: (z.real, z.imag)), max(points, key=lambda z: (z.real, z.imag))
+    along = _unit(last - first)
+    return all(abs(((p - first) * along.conjugate()).imag) < 0.01 for p in points)
+
+
 def _adjacency(bonds: Iterable[tuple[int, int]]) -> dict[int, list[int]]:
     adjacent: dict[int, list[int]] = {}
     for i, j in bonds:
@@ -2595,6 +2602,17 @@ class _LayoutBuilder:
             return side * max(side * (where[i].real + side * self._label_reach(i)) for i in molecule
                               if abs(where[i].real - far) < 2.0)
 
+        for molecule in by_products:
+            atoms = [i for i in molecule if self.element[i] != 1]
+            heavy = [where[i] for i in atoms]
+            triple = len(atoms) == 2 and self.orders_in[k].get((min(atoms), max(atoms))) == 3
+            if (len(heavy) >= 3 or triple) and _collinear(heavy):
+                # A straight one (CO2, N2) lies level, as it is written: O=C=O.
+                ends = sorted(heavy, key=lambda z: (z.real, z.imag))
+                turn = _unit(ends[-1] - ends[0]).conjugate()
+                centre = sum(heavy) / len(heavy)
+                for i in molecule:
+                    where[i] = centre + (where[i] - centre) * turn
         level = middle(product)
         right = edge(product, 1)
         for molecule in by_products:
