@@ -48,7 +48,8 @@ alkylated, a vinyl cation made from an alkyne and caught by water, a nitrile oxi
 cycloaddition, an oxime; a hydrogen shifted round a six-membered array
 ([1,5]) and a xanthate's syn elimination (Chugaev); an alkyl shifted from boron to oxygen. Then:
 ring closures onto sp carbons (a nitrile, Thorpe-Ziegler; an alkyne, a 5-exo-dig radical) and a
-boron enolate's aldol through a six-membered cyclic array (Zimmerman-Traxler).
+boron enolate's aldol through a six-membered cyclic array (Zimmerman-Traxler); an amide made
+through a carbodiimide, its urea redrawn by a resonance step; a Boc group taken off by acid.
 
 Each entry: (mechanism text, textbook product SMILES, drawn): `drawn` says whether the geometry
 tests draw it. All do but five. (Fixed in the layout and the tests since: the Dieckmann
@@ -2947,6 +2948,72 @@ end
 product "CCC(=O)C(C)C(C)OB(C)C"
 '''
 
+# Amide coupling through a carbodiimide (dimethyl standing for DCC or DIC): the acid protonates
+# the carbodiimide and adds to its central carbon (the O-acylisourea); the amine adds to that
+# activated carbonyl, the tetrahedral intermediate expels the urea, which takes the proton and is
+# redrawn in its usual resonance form.
+CARBODIIMIDE_COUPLING = '''\
+species acid = "[CH3:1][C:2](=[O:3])[OH:4]"
+species carbodiimide = "[CH3:10][N:11]=[C:12]=[N:13][CH3:14]"
+species amine = "[CH3:20][NH2:21]"
+step "proton transfer to the carbodiimide" reversible
+    :N11 -> H(O4)
+    O4-H -> O4
+end
+step "the carboxylate adds to the central carbon"
+    :O4 -> C12
+    C12=N11 -> N11
+end
+step "the amine adds to the activated carbonyl"
+    :N21 -> C2
+    C2=O3 -> O3
+end
+step "the tetrahedral intermediate collapses, the urea leaving"
+    :O3 -> C2=O3
+    C2-O4 -> O4
+end
+step "proton transfer to the urea" reversible
+    :N13 -> H(N21)
+    N21-H -> N21
+end
+step "the urea in its usual form" resonance
+    :O4 -> C12=O4
+    C12=N13 -> N13
+end
+product "CNC(C)=O.CNC(=O)NC"
+'''
+
+# A Boc group removed by acid: the carbamate's carbonyl protonated, the tert-butyl cation lost
+# (and deprotonated to isobutene), then the carbamic acid loses CO2 from its N-protonated form.
+BOC_REMOVAL = '''\
+species carbamate = "[CH3:1][NH:2][C:3](=[O:4])[O:5][C:6]([CH3:7])([CH3:8])[CH3:9]"
+species acid = "[OH3+:20]"
+step "protonation of the carbonyl" reversible
+    :O4 -> H(O20)
+    O20-H -> O20
+end
+step "the tert-butyl cation leaves"
+    C6-O5 -> O5
+    :O5 -> C3=O5
+    C3=O4 -> O4
+end
+step "isobutene by loss of a proton"
+    :O20 -> H(C7)
+    C7-H -> C6=C7
+end
+step "protonation of nitrogen" reversible
+    uses acid2 = "[OH3+:21]"
+    :N2 -> H(O21)
+    O21-H -> O21
+end
+step "loss of carbon dioxide"
+    :O21 -> H(O4)
+    O4-H -> C3=O4
+    C3-N2 -> N2
+end
+product "CN"
+'''
+
 TEXTBOOK = {
     "wittig": (WITTIG, "C=C(C)C.O=P(c1ccccc1)(c1ccccc1)c1ccccc1", True),
     "bromination": (BROMINATION, "Br[C@@H]1CCCC[C@H]1Br", True),
@@ -3078,4 +3145,6 @@ TEXTBOOK = {
     "thorpe-ziegler": (THORPE_ZIEGLER, "N#CC1=C(N)CCCC1.CC[O-]", True),
     "radical 5-exo-dig": (RADICAL_EXO_DIG, "[CH]=C1CCCC1", True),
     "boron aldol": (BORON_ALDOL, "CCC(=O)C(C)C(C)OB(C)C", True),
+    "carbodiimide coupling": (CARBODIIMIDE_COUPLING, "CNC(C)=O.CNC(=O)NC", True),
+    "boc removal": (BOC_REMOVAL, "CN.O=C=O.C=C(C)C", True),
 }

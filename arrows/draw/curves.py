@@ -352,9 +352,13 @@ class ArrowPlanner:
         toward = _unit(sink.point - centre)
         if atom in sink.atoms and sink.kind in ("bond", "gap"):
             near = [_unit(t - centre) for t in tails if abs(t - centre) < _TAIL_REACH * self.bl]
-            # A label close by (a hydrogen on the next atom) leaves no room for the arc either.
+            # A label close by (a hydrogen on the next atom) leaves no room for the arc either; nor
+            # does any atom of the molecule close by (the other groups of a crowded tetrahedral
+            # centre). (Another molecule's atoms wait there for arrows of their own.)
+            kin = _within_three_bonds(atom, panel.bond_extent)
             labels = [_unit(p - centre) for i, p in panel.positions.items() if i != atom and i in panel.atoms
-                      and panel.atoms[i].box is not None and 1e-9 < abs(p - centre) < _TAIL_REACH * self.bl]
+                      and 1e-9 < abs(p - centre) < (_TAIL_REACH if panel.atoms[i].box is not None and i not in kin
+                                                    else _CROWDING_REACH if i in kin else 0.0) * self.bl]
             occupied = list(panel.occupied[atom])
             sign = next((m for m in panel.marks if m.kind == "charge" and m.atom == atom and m.box is not None), None)
             if sign is not None and panel.atoms[atom].box is None and occupied:
@@ -927,6 +931,7 @@ class ArrowPlanner:
 
 
 _TAIL_REACH = 1.0   # bond lengths: another arrow leaving a bond this close steers the dots away
+_CROWDING_REACH = 1.2   # bond lengths: an atom this close steers them away too
 _MARK_GAP = 0.12    # font sizes: the least gap between an arrow's dots and another mark of their atom
 _SIGN_ROOM = math.radians(40)   # a charge sign moved for the dots keeps this far round from bonds and dots
 _DOTS_ROOM = math.radians(45)     # more room than this between dots and a bond counts as no better
@@ -940,6 +945,15 @@ def _on_path(box: Box, points: list[complex], pad: float) -> bool:
         if x0 <= p.real <= x1 and y0 <= p.imag <= y1:
             return True
     return False
+
+
+def _within_three_bonds(atom: int, bonds) -> set[int]:
+    """The atoms one to three bonds from `atom` over `bonds` (pairs)."""
+    reached, frontier = {atom}, {atom}
+    for _ in range(3):
+        frontier = {j if i in frontier else i for i, j in bonds if (i in frontier) != (j in frontier)} - reached
+        reached |= frontier
+    return reached - {atom}
 
 
 def _beside_bond(occupied: list[complex], toward: complex, tails: list[complex] = ()) -> Iterator[complex]:
