@@ -49,7 +49,8 @@ cycloaddition, an oxime; a hydrogen shifted round a six-membered array
 ([1,5]) and a xanthate's syn elimination (Chugaev); an alkyl shifted from boron to oxygen. Then:
 ring closures onto sp carbons (a nitrile, Thorpe-Ziegler; an alkyne, a 5-exo-dig radical) and a
 boron enolate's aldol through a six-membered cyclic array (Zimmerman-Traxler); an amide made
-through a carbodiimide, its urea redrawn by a resonance step; a Boc group taken off by acid.
+through a carbodiimide, its urea redrawn by a resonance step; a Boc group taken off by acid, and
+a THP ether through its cyclic oxocarbenium ion.
 
 Each entry: (mechanism text, textbook product SMILES, drawn): `drawn` says whether the geometry
 tests draw it. All do but five. (Fixed in the layout and the tests since: the Dieckmann
@@ -3014,6 +3015,33 @@ end
 product "CN"
 '''
 
+# A tetrahydropyranyl (THP) ether cleaved by aqueous acid: the exocyclic oxygen protonated,
+# methanol expelled by the ring oxygen's push (a cyclic oxocarbenium ion), water added, the proton
+# handed on: the lactol and methanol.
+THP_REMOVAL = '''\
+species thp = "[CH3:20][O:7][CH:2]1[O:1][CH2:6][CH2:5][CH2:4][CH2:3]1"
+species acid = "[OH3+:10]"
+step "the exocyclic oxygen is protonated" reversible
+    :O7 -> H(O10)
+    O10-H -> O10
+end
+step "methanol leaves, the ring oxygen pushing" reversible
+    :O1 -> C2=O1
+    C2-O7 -> O7
+    releases O7
+end
+step "water adds to the oxocarbenium ion" reversible
+    :O10 -> C2
+    C2=O1 -> O1
+end
+step "water takes the proton" reversible
+    uses water = "[OH2:11]"
+    :O11 -> H(O10)
+    O10-H -> O10
+end
+product "OC1CCCCO1.CO"
+'''
+
 TEXTBOOK = {
     "wittig": (WITTIG, "C=C(C)C.O=P(c1ccccc1)(c1ccccc1)c1ccccc1", True),
     "bromination": (BROMINATION, "Br[C@@H]1CCCC[C@H]1Br", True),
@@ -3147,4 +3175,5 @@ TEXTBOOK = {
     "boron aldol": (BORON_ALDOL, "CCC(=O)C(C)C(C)OB(C)C", True),
     "carbodiimide coupling": (CARBODIIMIDE_COUPLING, "CNC(C)=O.CNC(=O)NC", True),
     "boc removal": (BOC_REMOVAL, "CN.O=C=O.C=C(C)C", True),
+    "thp removal": (THP_REMOVAL, "OC1CCCCO1.CO", True),
 }
