@@ -50,7 +50,8 @@ cycloaddition, an oxime; a hydrogen shifted round a six-membered array
 ring closures onto sp carbons (a nitrile, Thorpe-Ziegler; an alkyne, a 5-exo-dig radical) and a
 boron enolate's aldol through a six-membered cyclic array (Zimmerman-Traxler); an amide made
 through a carbodiimide, its urea redrawn by a resonance step; a Boc group taken off by acid, and
-a THP ether through its cyclic oxocarbenium ion.
+a THP ether through its cyclic oxocarbenium ion; a ring closed by an enamine onto a ring
+carbonyl, its iminium ion then hydrolysed (the Hajos-Parrish ketol).
 
 Each entry: (mechanism text, textbook product SMILES, drawn): `drawn` says whether the geometry
 tests draw it. All do but five. (Fixed in the layout and the tests since: the Dieckmann
@@ -3042,6 +3043,43 @@ end
 product "OC1CCCCO1.CO"
 '''
 
+# Intramolecular aldol through an enamine (the Hajos-Parrish ketol, with pyrrolidine standing in
+# for proline and no stereocontrol): the enamine of the side-chain methyl ketone of
+# 2-methyl-2-(3-oxobutyl)cyclopentane-1,3-dione closes a six-membered ring onto a ring carbonyl
+# (6-exo-trig), the alkoxide is protonated and the iminium ion hydrolysed, the amine leaving from
+# nitrogen once protonated: the bicyclic ketol.
+ENAMINE_ALDOL = '''\
+species enamine = "[CH3:11][C:2]1([CH2:6][CH2:7][C:8](=[CH2:10])[N:20]2[CH2:21][CH2:22][CH2:23][CH2:24]2)[C:1](=[O:12])[CH2:5][CH2:4][C:3]1=[O:13]"
+species water = "[OH2:30]"
+step "the enamine closes the ring"
+    :N20 -> C8=N20
+    C8=C10 -> C10-C1
+    C1=O12 -> O12
+end
+step "the alkoxide takes a proton from water" reversible
+    :O12 -> H(O30)
+    O30-H -> O30
+end
+step "hydroxide adds to the iminium ion" reversible
+    :O30 -> C8
+    C8=N20 -> N20
+end
+step "nitrogen takes a proton from water" reversible
+    uses water2 = "[OH2:31]"
+    :N20 -> H(O31)
+    O31-H -> O31
+end
+step "pyrrolidine leaves" reversible
+    :O30 -> C8=O30
+    C8-N20 -> N20
+end
+step "hydroxide takes the proton" reversible
+    :O31 -> H(O30)
+    O30-H -> O30
+end
+product "CC12CCC(=O)CC1(O)CCC2=O"
+'''
+
 TEXTBOOK = {
     "wittig": (WITTIG, "C=C(C)C.O=P(c1ccccc1)(c1ccccc1)c1ccccc1", True),
     "bromination": (BROMINATION, "Br[C@@H]1CCCC[C@H]1Br", True),
@@ -3176,4 +3214,5 @@ TEXTBOOK = {
     "carbodiimide coupling": (CARBODIIMIDE_COUPLING, "CNC(C)=O.CNC(=O)NC", True),
     "boc removal": (BOC_REMOVAL, "CN.O=C=O.C=C(C)C", True),
     "thp removal": (THP_REMOVAL, "OC1CCCCO1.CO", True),
+    "enamine intramolecular aldol": (ENAMINE_ALDOL, "CC12CCC(=O)CC1(O)CCC2=O.C1CCNC1", True),
 }
