@@ -182,6 +182,12 @@ CODES = _table(
          "departs in the same step (the Beckmann rearrangement of an oxime), the group anti to the "
          "leaving group migrates; the step moves the one beside it.",
          'C1-C2 -> C1-N3   # C1 is cis to the leaving O4 across C2=N3: the other group migrates'),
+    Code("AR510", WARNING, "leaving group that is a very strong base",
+         "A bond to carbon breaks with its pair going to an atom that is left as an anion whose "
+         "conjugate acid has a pKa of 35 or more (an amide ion R2N-, a carbanion with no neighbour "
+         "to spread its charge, a hydride ion). Good leaving groups are weak bases (common practice); "
+         "such a group is protonated before it leaves, or its pair goes on into a bond in the same step.",
+         'C8-N20 -> N20   # the amine leaves a carbinolamine as R2N- (pKa of R2NH ~38): protonate N20 first'),
     Code("AR601", NOTE, "ring closure",
          "A step closes a ring; its size and Baldwin class are given. A pericyclic step (every arrow "
          "from a bond to a bond, round a closed loop that makes no charge; arrows that all start at "

@@ -71,6 +71,15 @@ def expected_location(t: Twin, text: str) -> tuple[int, int]:
     return line, column
 
 
+# A carbinolamine whose amine leaves from its protonated nitrogen, the oxygen pushing (the last
+# step of an imine or enamine hydrolysis, common practice).
+CARBINOLAMINE = '''species carbinolamine = "[CH3:4][C:1]([OH:2])([CH3:5])[NH+:3]([CH3:6])[CH3:7]"
+step "the amine leaves"
+    :O2 -> C1=O2
+    C1-N3 -> N3
+end
+'''
+
 BROMINE_HOMOLYSIS = '''species bromine = "[Br:1][Br:2]"
 step "homolysis" under "light"
     Br1-Br2 ~> Br1
@@ -199,6 +208,10 @@ TWINS = [
     # six valence electrons (a halenium ion; homolysis under light is the textbook step, memory).
     Twin("six-electron bromine", BROMINE_HOMOLYSIS, "    Br1-Br2 ~> Br1\n    Br1-Br2 ~> Br2\n",
          "    Br1-Br2 -> Br1\n", "AR505", 'step "homolysis"', says=("Br2", "six valence electrons")),
+    # The nitrogen not protonated first: the amine leaves as Me2N-, an amide ion (pKa of
+    # dimethylamine ~38, textbook, memory), from the alkoxide of the carbinolamine.
+    Twin("amide ion as leaving group", CARBINOLAMINE, "[OH:2])([CH3:5])[NH+:3]", "[O-:2])([CH3:5])[N:3]",
+         "AR510", "C1-N3 -> N3", says=("N3", "amide ion", "38"), hint_says=("protonate N3",)),
     Twin("step without moves", SN2, 'product "CO.[Br-]"', 'step "nothing happens"\nend\nproduct "CO.[Br-]"',
          "AR506", 'step "nothing happens"'),
     # The backside attack inverts the written centre (Walden inversion, textbook); the product line

@@ -59,6 +59,7 @@ def _registry() -> list[Check]:
     if not _CHECK_CLASSES:
         from .checkpoints import CheckpointsMatch
         from .conservation import ChargeAndAtomsConserved
+        from .leaving import StrongBaseLeavingGroups
         from .protons import UphillProtonTransfers
         from .rings import RingClosures
         from .shifts import MigrationAntiToLeavingGroup
@@ -68,7 +69,8 @@ def _registry() -> list[Check]:
         from .written_stereo import WrittenConfigurationMatches
         _CHECK_CLASSES.extend([SomethingToCheck, NothingAfterProduct, StepsHaveMoves, UnusualElectronCounts,
                                ChargeAndAtomsConserved, RingClosures, CheckpointsMatch, UphillProtonTransfers,
-                               StereoChanges, MigrationAntiToLeavingGroup, WrittenConfigurationMatches])
+                               StereoChanges, MigrationAntiToLeavingGroup, StrongBaseLeavingGroups,
+                               WrittenConfigurationMatches])
     return [cls() for cls in _CHECK_CLASSES]
 
 

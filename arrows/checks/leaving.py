@@ -1,0 +1,85 @@
+"""Leaving groups that depart from carbon as very strong bases (AR510).
+
+A pair move from a bond to one of that bond's atoms (`C8-N20 -> N20`) breaks the bond and leaves
+the pair on that atom: a leaving group. A good leaving group is a weak base (common practice: the
+usual ones are the conjugate bases of acids of pKa below about 16; hydroxide and alkoxides, met in
+E1cB eliminations and acyl substitutions, are the poorest that textbooks let leave). One that
+leaves carbon as an anion whose conjugate acid has a pKa of 35 or more (an amide ion R2N-, an
+amine ~38; a vinyl, aryl or alkyl carbanion, ~44-50; a hydride ion, H2 ~35) is almost never
+expelled: the group is meant to be protonated first (an amine leaves a carbinolamine as R2NH,
+from R2NH2+), or its pair to go on into a bond in the same step. Judged on the state after the
+step (arrows.judgement.acidity), and only where the leaving atom is negative there and the bond
+broken outright (a pi pair moved onto an atom leaves nothing). A bond of a three- or
+four-membered ring is not judged: the strain released drives the opening, as in the Favorskii
+rearrangement, where the cyclopropanone's tetrahedral intermediate opens to a carbanion
+(textbook).
+"""
+from __future__ import annotations
+
+from typing import Iterator, Optional
+
+from rdkit import Chem
+
+from ..diagnostics import Diagnostic
+from ..judgement.acidity import HYDROGEN, Acidity, acidity_of, perceived
+from ..trace import StepTrace
+from . import Check
+
+STRONGEST_LEAVING_BASE = 35.0   # pKa of the conjugate acid from which a leaving group is flagged
+_JUDGED = (1, 6, 7)   # H, C, N: the elements whose anions can be this basic
+
+
+def conjugate_acid(mol: Chem.Mol, atom: int) -> Optional[Acidity]:
+    """The acidity table's entry for `atom` of `mol` with one proton added to it."""
+    if mol.GetAtomWithIdx(atom).GetAtomicNum() == 1:
+        return HYDROGEN
+    work = Chem.RWMol(mol)
+    target = work.GetAtomWithIdx(atom)
+    target.SetNumExplicitHs(target.GetNumExplicitHs() + 1)
+    target.SetFormalCharge(target.GetFormalCharge() + 1)
+    target.SetNoImplicit(True)
+    return acidity_of(perceived(work.GetMol()), atom)
+
+
+def _in_small_ring(mol: Chem.Mol, a: int, b: int) -> bool:
+    """Whether the bond a-b lies on a ring of three or four atoms."""
+    if mol.GetBondBetweenAtoms(a, b) is None:
+        return False
+    work = Chem.RWMol(mol)
+    work.RemoveBond(a, b)
+    detour = Chem.GetShortestPath(work, a, b)
+    return 0 < len(detour) <= 4
+
+
+class StrongBaseLeavingGroups(Check):
+    name = "leaving groups"
+    codes = ("AR510",)
+
+    def step(self, st: StepTrace, context) -> Iterator[Diagnostic]:
+        after = st.after
+        if after is None:
+            return
+        elements = after.elements
+        broken = {(min(pair), max(pair)) for pair in st.change.broken}
+        if not broken:
+            return
+        for move in st.change.moves:
+            if move.source_kind != "bond" or move.electrons != 2 or len(move.sink_atoms) != 1:
+                continue
+            leaving = move.sink_atoms[0]
+            if leaving not in move.source_atoms or elements[leaving] not in _JUDGED:
+                continue
+            centre = move.source_atoms[1] if move.source_atoms[0] == leaving else move.source_atoms[0]
+            if (elements[centre] != 6 or (min(leaving, centre), max(leaving, centre)) not in broken
+                    or after.formal_charge(leaving) >= 0 or _in_small_ring(st.before.mol, leaving, centre)):
+                continue
+            acid = conjugate_acid(after.mol, leaving)
+            if acid is None or acid.pka < STRONGEST_LEAVING_BASE:
+                continue
+            label = st.before.label
+            yield Diagnostic(
+                "AR510", f"{label(leaving)} leaves {label(centre)} as {acid.base} (pKa of {acid.acid} "
+                f"{acid.shown}): a base this strong is almost never a leaving group",
+                move.move.loc, hint=f"protonate {label(leaving)} in an earlier step so that it leaves neutral, "
+                f"or let its pair go on into a bond in this step",
+                atoms=(label(leaving), label(centre)), step=st.index)
