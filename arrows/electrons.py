@@ -662,7 +662,7 @@ def _settle(state: ElectronState, step: Step, step_index: int, replay: _StepRepl
             work.GetAtomWithIdx(i).SetNumRadicalElectrons(electrons % 2)
         shell = shells[i] = electrons + 2 * bonds
         if shell > 8 or (shell > 2 and elements[i] <= 2):
-            diags.extend(_overfull_shell(state, step, step_index, replay, i, shell, bonds, electrons))
+            diags.extend(_overfull_shell(state, step, step_index, replay, i, shell, bonds, electrons, changes))
     if diags and any(d.severity == "error" for d in diags):
         return None, change, diags
     try:   # RDKit's own log of a failure is silenced by the caller (trace.replay); the message is in exc
@@ -704,9 +704,10 @@ def _bond_faults(state: ElectronState, step: Step, step_index: int, replay: _Ste
 
 
 def _overfull_shell(state: ElectronState, step: Step, step_index: int, replay: _StepReplay, i: int, shell: int,
-                    bonds: int, nonbonding: int) -> list[Diagnostic]:
+                    bonds: int, nonbonding: int, changes: dict[Pair, tuple[int, int]]) -> list[Diagnostic]:
     """AR301 for an atom of the first two periods with more valence electrons than its shell holds
-    (2 for H and He, 8 for Li to Ne); heavier atoms may expand their octet."""
+    (2 for H and He, 8 for Li to Ne); heavier atoms may expand their octet. The hint names a bond
+    of the atom that the step leaves alone and could break: a pi bond, else one to a heteroatom."""
     z = state.elements[i]
     limit = 2 if z <= 2 else 8
     if shell <= limit or z > 10:
@@ -715,9 +716,32 @@ def _overfull_shell(state: ElectronState, step: Step, step_index: int, replay: _
     return [Diagnostic("AR301", f"{label} would hold {shell} valence electrons "
                        f"({bonds} bond{'s' if bonds != 1 else ''}"
                        f"{f', {nonbonding // 2} lone pair(s)' if nonbonding >= 2 else ''}); the limit is {limit}",
-                       _first_move_touching(step, replay, i),
-                       "a bond to this atom must break in the same step (for example C=O -> O)",
+                       _first_move_touching(step, replay, i), _room_making_hint(state, i, changes),
                        atoms=(label,), step=step_index)]
+
+
+_LEAVING_ELEMENTS = frozenset((7, 8, 9, 15, 16, 17, 35, 53))   # N, O, F, P, S, Cl, Br, I
+
+
+def _room_making_hint(state: ElectronState, i: int, changes: dict[Pair, tuple[int, int]]) -> str:
+    """What would keep atom i's shell full but not over: one of its bonds the step leaves alone
+    breaking in the same step, its pi bond first (the missing arrow of a concerted step), else a
+    bond to a heteroatom (a leaving group)."""
+    label = state.label
+    kept = [(b.GetOtherAtomIdx(i), b.GetBondTypeAsDouble()) for b in state.mol.GetAtomWithIdx(i).GetBonds()
+            if (min(i, b.GetOtherAtomIdx(i)), max(i, b.GetOtherAtomIdx(i))) not in changes
+            and state.elements[b.GetOtherAtomIdx(i)] != 1]
+    pi = [(j, order) for j, order in kept if order >= 2]
+    if pi:
+        j, order = pi[0]
+        bond = f"{label(i)}{'=' if order == 2 else '#'}{label(j)}"
+        return f"a bond to {label(i)} must break in the same step: its pi bond, for example `{bond} -> {label(j)}`"
+    leaving = [j for j, order in kept if state.elements[j] in _LEAVING_ELEMENTS]
+    if leaving:
+        bond = f"{label(i)}-{label(leaving[0])}"
+        return (f"a bond to {label(i)} must break in the same step: the bond to a leaving group, for example "
+                f"`{bond} -> {label(leaving[0])}`")
+    return "a bond to this atom must break in the same step (for example C=O -> O)"
 
 
 def _next_framework(state: ElectronState, changes: dict[Pair, tuple[int, int]]):

@@ -71,6 +71,17 @@ def expected_location(t: Twin, text: str) -> tuple[int, int]:
     return line, column
 
 
+# The parent Diels-Alder (textbook: three pi pairs round a six-membered cyclic array).
+DIELS_ALDER = '''species diene = "[CH2:1]=[CH:2][CH:3]=[CH2:4]"
+species dienophile = "[CH2:5]=[CH2:6]"
+step "cycloaddition"
+    C1=C2 -> C2=C3
+    C3=C4 -> C4-C5
+    C5=C6 -> C6-C1
+end
+product "C1=CCCCC1"
+'''
+
 # A carbinolamine whose amine leaves from its protonated nitrogen, the oxygen pushing (the last
 # step of an imine or enamine hydrolysis, common practice).
 CARBINOLAMINE = '''species carbinolamine = "[CH3:4][C:1]([OH:2])([CH3:5])[NH+:3]([CH3:6])[CH3:7]"
@@ -157,7 +168,11 @@ TWINS = [
     # derived structures (AR3xx)
     # Without the leaving group's arrow C2 would carry five bonds: ten valence electrons.
     Twin("pentavalent carbon", SN2, "    C2-Br3 -> Br3\n", "", "AR301", ":O1 -> C2",
-         says=("10 valence electrons",)),
+         says=("10 valence electrons",), hint_says=("leaving group", "`C2-Br3 -> Br3`")),
+    # A Diels-Alder with the dienophile's arrow left out: C5 gains the C4-C5 bond and keeps its pi
+    # bond. The hint names the pi bond that must move (the missing third arrow).
+    Twin("pentavalent carbon in a concerted step", DIELS_ALDER, "    C5=C6 -> C6-C1\n", "", "AR301",
+         "C3=C4 -> C4-C5", says=("C5", "10 valence electrons"), hint_says=("`C5=C6 -> C6`",)),
     # Without the H-Br pair leaving, the proton would be bonded to both C3 and Br4 (duet rule).
     Twin("hydrogen with two bonds", HBR_ADDITION, "    H5-Br4 -> Br4\n", "", "AR301", "C2=C3 -> C3-H5",
          says=("H5",), alone=False),
