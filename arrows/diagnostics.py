@@ -188,6 +188,12 @@ CODES = _table(
          "to spread its charge, a hydride ion). Good leaving groups are weak bases (common practice); "
          "such a group is protonated before it leaves, or its pair goes on into a bond in the same step.",
          'C8-N20 -> N20   # the amine leaves a carbinolamine as R2N- (pKa of R2NH ~38): protonate N20 first'),
+    Code("AR511", WARNING, "unstabilised primary carbocation",
+         "A step leaves a methyl or primary carbocation with no neighbouring lone pair, pi bond or arene "
+         "to spread the charge. Such cations are not intermediates in solution (common practice: SN1 "
+         "and E1 go through tertiary, secondary, allylic or benzylic cations; Markovnikov's rule).",
+         'C1=C2 -> C2-H(O5)   # isobutene protonated at C2 leaves CH2+ on C1: protonate C1, giving the '
+         'tert-butyl cation'),
     Code("AR601", NOTE, "ring closure",
          "A step closes a ring; its size and Baldwin class are given. A pericyclic step (every arrow "
          "from a bond to a bond, round a closed loop that makes no charge; arrows that all start at "

@@ -71,6 +71,15 @@ def expected_location(t: Twin, text: str) -> tuple[int, int]:
     return line, column
 
 
+# Isobutene protonated at its CH2 end (Markovnikov: the tert-butyl cation, textbook).
+ISOBUTENE_PROTONATION = '''species alkene = "[CH2:1]=[C:2]([CH3:3])[CH3:4]"
+species acid = "[OH3+:5]"
+step "protonation"
+    C1=C2 -> C1-H(O5)
+    O5-H -> O5
+end
+'''
+
 # The parent Diels-Alder (textbook: three pi pairs round a six-membered cyclic array).
 DIELS_ALDER = '''species diene = "[CH2:1]=[CH:2][CH:3]=[CH2:4]"
 species dienophile = "[CH2:5]=[CH2:6]"
@@ -216,9 +225,10 @@ TWINS = [
     Twin("oxide dianion", PROTON_EXCHANGE, '"[OH2:2]"', '"[OH-:2]"', "AR503", 'step "proton exchange"',
          says=("O2", "-2")),
     # Hydroxide attacks sulfur instead of the methyl carbon: S3 keeps its leaving pair and gains a
-    # bond, ten valence electrons (a warning only: third-row atoms may expand their octet).
+    # bond, ten valence electrons (a warning only: third-row atoms may expand their octet). The
+    # methyl is left behind as CH3+, which AR511 reports too.
     Twin("expanded octet on sulfur", SULFONIUM, ":O1 -> C2", ":O1 -> S3", "AR504", 'step "methyl transfer"',
-         says=("S3", "10 valence electrons")),
+         says=("S3", "10 valence electrons"), alone=False),
     # Bromine split by a pair arrow instead of two single-electron arrows: Br2 is left as Br+ with
     # six valence electrons (a halenium ion; homolysis under light is the textbook step, memory).
     Twin("six-electron bromine", BROMINE_HOMOLYSIS, "    Br1-Br2 ~> Br1\n    Br1-Br2 ~> Br2\n",
@@ -227,6 +237,10 @@ TWINS = [
     # dimethylamine ~38, textbook, memory), from the alkoxide of the carbinolamine.
     Twin("amide ion as leaving group", CARBINOLAMINE, "[OH:2])([CH3:5])[NH+:3]", "[O-:2])([CH3:5])[N:3]",
          "AR510", "C1-N3 -> N3", says=("N3", "amide ion", "38"), hint_says=("protonate N3",)),
+    # Protonated at the wrong end: the primary cation CH2+ instead of the tertiary one (against
+    # Markovnikov's rule; primary cations are not solution intermediates, common practice).
+    Twin("primary carbocation", ISOBUTENE_PROTONATION, "C1=C2 -> C1-H(O5)", "C1=C2 -> C2-H(O5)", "AR511",
+         'step "protonation"', says=("C1", "primary"), hint_says=("Markovnikov",)),
     Twin("step without moves", SN2, 'product "CO.[Br-]"', 'step "nothing happens"\nend\nproduct "CO.[Br-]"',
          "AR506", 'step "nothing happens"'),
     # The backside attack inverts the written centre (Walden inversion, textbook); the product line

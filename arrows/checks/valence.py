@@ -36,9 +36,32 @@ def shell_limit(atomic_num: int) -> int:
 _RARELY_SEXTET = {7: "N", 8: "O", 9: "F", 16: "S", 17: "Cl", 35: "Br", 53: "I"}
 
 
+# Heteroatoms whose lone pair stabilises a cation beside them (an oxocarbenium, an iminium).
+_DONORS = frozenset((7, 8, 9, 16, 17, 35, 53))
+
+
+def unstabilised_primary_cation(mol, i: int) -> bool:
+    """Whether carbon i, a carbocation, is methyl or primary (at most one carbon neighbour) with
+    nothing beside it to spread the charge: no heteroatom with a lone pair, no pi bond or arene
+    (allyl and benzyl cations are stabilised)."""
+    atom = mol.GetAtomWithIdx(i)
+    if any(b.GetBondTypeAsDouble() > 1 for b in atom.GetBonds()):
+        return False   # an acylium or vinyl cation: not an sp3 primary cation
+    carbons = 0
+    for n in atom.GetNeighbors():
+        z = n.GetAtomicNum()
+        if z in _DONORS and n.GetFormalCharge() <= 0:
+            return False
+        if z == 6:
+            carbons += 1
+            if n.GetIsAromatic() or any(b.GetBondTypeAsDouble() > 1 for b in n.GetBonds()):
+                return False
+    return carbons <= 1
+
+
 class UnusualElectronCounts(Check):
     name = "unusual electron counts"
-    codes = ("AR503", "AR504", "AR505")
+    codes = ("AR503", "AR504", "AR505", "AR511")
 
     def step(self, st: StepTrace, context) -> Iterator[Diagnostic]:
         after, before = st.after, st.before
@@ -61,6 +84,15 @@ class UnusualElectronCounts(Check):
                                  f"cation with an open shell)", st.step.loc,
                                  hint="such ions are rare: were single-electron arrows (~>) meant, as for a "
                                       "homolysis, or should a bond form to it in the same step?",
+                                 atoms=(label,), step=st.index)
+            if (shell == 6 and element == 6 and old_shell > 6 and after.nonbonding[i] == 0
+                    and after.formal_charge(i) == 1 and unstabilised_primary_cation(after.mol, i)):
+                label = after.label(i)
+                yield Diagnostic("AR511", f"{label} is left as a primary (or methyl) carbocation with nothing to "
+                                 f"stabilise it", st.step.loc,
+                                 hint="such cations are not formed in solution: put the charge on the more "
+                                      "substituted or stabilised carbon (Markovnikov), or make the step concerted "
+                                      "(SN2, E2, a shift as the group leaves)",
                                  atoms=(label,), step=st.index)
             # Only a step that expands the shell: a sulfonyl S substituted (an alcohol onto MsCl)
             # keeps the twelve electrons its species was written with.
