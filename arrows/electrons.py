@@ -455,8 +455,14 @@ class _StepReplay:
         if pairs == 0:
             label, charge = self.state.label(x), self.state.formal_charge(x)
             why = f"{label} has no lone pair" + (f" (it is a cation, formal charge {charge:+d})" if charge > 0 else "")
-            self.fail("AR201", why, src.loc, "arrows start at electrons: a lone pair, a bond, or an unpaired electron",
-                      atoms=(label,))
+            hint = "arrows start at electrons: a lone pair, a bond, or an unpaired electron"
+            sink = move.sink
+            taker = (self.map_index.get(sink.atom.map_number)
+                     if isinstance(sink, AtomSink) and not isinstance(sink.atom, HydrogenOn) else None)
+            if taker is not None and self.nonbonding(taker) >= 2:
+                # An arrow drawn from the electrophile to the nucleophile: the commonest reversal.
+                hint += f"; the arrow may run backwards, from the electrons to the atom that takes them: `:{sink.atom} -> {src.atom}`"
+            self.fail("AR201", why, src.loc, hint, atoms=(label,))
             raise _StepFailed
         self.used_lone[x] = self.used_lone.get(x, 0) + move.electrons
         if self.used_lone[x] > 2 * pairs:

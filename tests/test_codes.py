@@ -117,7 +117,7 @@ TWINS = [
          "C2=C4", says=("single",), hint_says=("C2-C4",)),
     # The arrow drawn backwards: the 2-propyl cation has no lone pair to give.
     Twin("lone pair on a carbocation", HBR_ADDITION, ":Br4 -> C2", ":C2 -> Br4", "AR201", ":C2",
-         says=("no lone pair", "+1")),
+         says=("no lone pair", "+1"), hint_says=("backwards", "`:Br4 -> C2`")),
     Twin("bond that does not exist", SN2, "C2-Br3 -> Br3", "O1-Br3 -> Br3", "AR201", "O1-Br3",
          says=("no bond",)),
     Twin("unpaired electron on a closed-shell atom", SN2, ":O1 -> C2", ".O1 ~> C2", "AR201", ".O1"),
