@@ -71,6 +71,13 @@ def expected_location(t: Twin, text: str) -> tuple[int, int]:
     return line, column
 
 
+# tert-Butyl bromide ionising (the SN1 and E1 first step, textbook).
+IONISATION = '''species bromide = "[CH3:1][C:2]([CH3:3])([CH3:4])[Br:5]"
+step "ionisation"
+    C2-Br5 -> Br5
+end
+'''
+
 # Isobutene protonated at its CH2 end (Markovnikov: the tert-butyl cation, textbook).
 ISOBUTENE_PROTONATION = '''species alkene = "[CH2:1]=[C:2]([CH3:3])[CH3:4]"
 species acid = "[OH3+:5]"
@@ -241,6 +248,10 @@ TWINS = [
     # Markovnikov's rule; primary cations are not solution intermediates, common practice).
     Twin("primary carbocation", ISOBUTENE_PROTONATION, "C1=C2 -> C1-H(O5)", "C1=C2 -> C2-H(O5)", "AR511",
          'step "protonation"', says=("C1", "primary"), hint_says=("Markovnikov",)),
+    # The C-Br pair sent to carbon: Br+ with six electrons (and a carbanion); the hint gives the
+    # heterolysis meant, the pair to the more electronegative bromine (Pauling, memory).
+    Twin("heterolysis the wrong way", IONISATION, "C2-Br5 -> Br5", "C2-Br5 -> C2", "AR505", 'step "ionisation"',
+         says=("Br5", "six valence electrons"), hint_says=("`C2-Br5 -> Br5`",)),
     Twin("step without moves", SN2, 'product "CO.[Br-]"', 'step "nothing happens"\nend\nproduct "CO.[Br-]"',
          "AR506", 'step "nothing happens"'),
     # The backside attack inverts the written centre (Walden inversion, textbook); the product line
