@@ -59,6 +59,12 @@ def unstabilised_primary_cation(mol, i: int) -> bool:
     return carbons <= 1
 
 
+# Pauling electronegativities (textbook values, memory) of the elements AR505 judges and of the
+# atoms they are commonly bonded to.
+_ELECTRONEGATIVITY = {1: 2.20, 5: 2.04, 6: 2.55, 7: 3.04, 8: 3.44, 9: 3.98, 14: 1.90, 15: 2.19, 16: 2.58,
+                      17: 3.16, 35: 2.96, 53: 2.66}
+
+
 def _sextet_hint(st: StepTrace, i: int) -> str:
     """AR505's hint: where the step split a bond of atom i with the pair going to the other atom,
     a less electronegative one (a C-Br pair sent to carbon), the arrow that was meant."""
@@ -72,12 +78,6 @@ def _sextet_hint(st: StepTrace, i: int) -> str:
                         f"electronegative {label(i)} takes it: `{label(other)}-{label(i)} -> {label(i)}`")
     return ("such ions are rare: were single-electron arrows (~>) meant, as for a homolysis, or should a bond "
             "form to it in the same step?")
-
-
-# Pauling electronegativities (textbook values, memory) of the elements AR505 judges and of the
-# atoms they are commonly bonded to.
-_ELECTRONEGATIVITY = {1: 2.20, 5: 2.04, 6: 2.55, 7: 3.04, 8: 3.44, 9: 3.98, 14: 1.90, 15: 2.19, 16: 2.58,
-                      17: 3.16, 35: 2.96, 53: 2.66}
 
 
 class UnusualElectronCounts(Check):

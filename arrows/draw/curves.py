@@ -356,9 +356,11 @@ class ArrowPlanner:
             # does any atom of the molecule close by (the other groups of a crowded tetrahedral
             # centre). (Another molecule's atoms wait there for arrows of their own.)
             kin = _within_three_bonds(atom, panel.bond_extent)
+
+            def steering(i: int) -> float:   # how near atom i stands before it steers the dots away
+                return _CROWDING_REACH if i in kin else _TAIL_REACH if panel.atoms[i].box is not None else 0.0
             labels = [_unit(p - centre) for i, p in panel.positions.items() if i != atom and i in panel.atoms
-                      and 1e-9 < abs(p - centre) < (_TAIL_REACH if panel.atoms[i].box is not None and i not in kin
-                                                    else _CROWDING_REACH if i in kin else 0.0) * self.bl]
+                      and 1e-9 < abs(p - centre) < steering(i) * self.bl]
             occupied = list(panel.occupied[atom])
             sign = next((m for m in panel.marks if m.kind == "charge" and m.atom == atom and m.box is not None), None)
             if sign is not None and panel.atoms[atom].box is None and occupied:
