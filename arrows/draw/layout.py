@@ -2599,7 +2599,7 @@ class _LayoutBuilder:
         def edge(molecule: list[int], side: int) -> float:
             # A label reaches at most two bond lengths: only atoms that far from the edge count.
             far = side * max(side * where[i].real for i in molecule)
-            return side * max(side * (where[i].real + side * self._label_reach(i)) for i in molecule
+            return side * max(side * (where[i].real + side * self._label_reach(i, k)) for i in molecule
                               if abs(where[i].real - far) < 2.0)
 
         for molecule in by_products:
@@ -2629,15 +2629,20 @@ class _LayoutBuilder:
         return self.element[atom] != 6 or all(self.element.get(n.GetIdx(), 1) == 1
                                                for n in mol.GetAtomWithIdx(atom).GetNeighbors())
 
-    def _label_reach(self, atom: int) -> float:
+    def _label_reach(self, atom: int, k: Optional[int] = None) -> float:
         """How far an atom's label may reach to either side, in bond lengths (a generous estimate:
         the layout does not know the font): none for a skeletal carbon; else about a third of a
-        bond length per character of symbol, hydrogens and charge, the hydrogens on either side."""
-        state = next(s for s in self.states if atom < len(s.elements))
+        bond length per character of symbol, hydrogens and charge, the hydrogens on either side.
+        As written in state k, or else in the first state that has the atom."""
+        state = self.states[k] if k is not None else next(s for s in self.states if atom < len(s.elements))
         a = state.mol.GetAtomWithIdx(atom)
         if a.GetAtomicNum() == 6 and a.GetDegree() > 0 and not a.GetFormalCharge():
             return 0.0
-        hydrogens = a.GetTotalNumHs()
+        if k is None:
+            hydrogens = a.GetTotalNumHs()
+        else:   # the label writes every hydrogen of the atom but those drawn as atoms of their own there
+            hydrogens = a.GetTotalNumHs(includeNeighbors=True) - sum(
+                1 for n in a.GetNeighbors() if n.GetAtomicNum() == 1 and n.GetIdx() in self.positions[k])
         characters = len(a.GetSymbol()) + (0 if not hydrogens else 1 if hydrogens == 1 else 2) \
             + (1 if a.GetFormalCharge() else 0)
         return 0.15 + 0.33 * characters
