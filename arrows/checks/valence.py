@@ -36,8 +36,9 @@ def shell_limit(atomic_num: int) -> int:
 _RARELY_SEXTET = {7: "N", 8: "O", 9: "F", 16: "S", 17: "Cl", 35: "Br", 53: "I"}
 
 
-# Heteroatoms whose lone pair stabilises a cation beside them (an oxocarbenium, an iminium).
-_DONORS = frozenset((7, 8, 9, 16, 17, 35, 53))
+# Heteroatoms whose lone pair stabilises a cation beside them (an oxocarbenium, an iminium): the
+# same elements that rarely keep a sextet themselves.
+_DONORS = frozenset(_RARELY_SEXTET)
 
 
 def unstabilised_primary_cation(mol, i: int) -> bool:

@@ -38,8 +38,9 @@ _ROUNDS = 8          # branches turned at most, one per round
 _SLOT_FAN = (150.0, 255.0)
 
 
-def _side(start: int, cut: int, adjacent: Sequence[Sequence[int]]) -> set[int]:
-    """The atoms reached from `start` without passing through `cut`."""
+def side_beyond(start: int, cut: int, adjacent) -> set[int]:
+    """The atoms reached from `start` without passing through `cut` (`adjacent`: each atom's
+    neighbours, a list by index or a dict)."""
     seen, todo = {start}, [start]
     while todo:
         for n in adjacent[todo.pop()]:
@@ -92,7 +93,7 @@ def ease_clashes(points: np.ndarray, bonds: Sequence[tuple[int, int]], ring_bond
             break
         best = None     # (score, turned points)
         for pivot, root in hinges:
-            side = _side(root, pivot, adjacent)
+            side = side_beyond(root, pivot, adjacent)
             if (a in side) == (b in side) or pivot in side:
                 continue   # the turn would not part the pair, or the bond closes a ring after all
             moved = np.array(sorted(side))
@@ -139,7 +140,7 @@ def slot_beside(points: np.ndarray, bonds: Sequence[tuple[int, int]], ring_bonds
     for branch in adjacent[centre]:
         if branch == slot or branch in partners or (min(centre, branch), max(centre, branch)) in ring_bonds:
             continue
-        side = _side(branch, centre, adjacent)
+        side = side_beyond(branch, centre, adjacent)
         if centre in side or slot in side:
             continue
         turn = (points[slot] - points[centre]) / (points[branch] - points[centre])
@@ -171,7 +172,7 @@ def _opened(points: np.ndarray, adjacent: Sequence[Sequence[int]], ring_bonds: s
     for branch, target in zip(others, _SLOT_FAN):
         if (min(centre, branch), max(centre, branch)) in ring_bonds:
             continue
-        side = _side(branch, centre, adjacent)
+        side = side_beyond(branch, centre, adjacent)
         if centre in side or slot in side:
             continue
         turn = cmath.rect(1.0, sense * (math.radians(target) - turned_from_x(branch)))

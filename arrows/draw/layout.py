@@ -32,7 +32,7 @@ from rdkit.Chem import rdDepictor
 
 from ..electrons import ElectronState, ResolvedMove
 from ..rdkit_io import bond_list
-from .branches import ease_clashes, slot_beside
+from .branches import ease_clashes, side_beyond, slot_beside
 
 # Gap between a transferred hydrogen and the atom that takes it, in bond lengths: room for a
 # curved arrow, close enough to read as one event.
@@ -329,20 +329,6 @@ def _bonds_between(a: int, b: int, neighbours, passable) -> int:
 def _unit(z: complex) -> complex:
     size = abs(z)
     return z / size if size > 1e-12 else 1 + 0j
-
-
-def _reached(start: int, barrier: int, adjacent: dict[int, list[int]]) -> set[int]:
-    """The atoms reached from `start` without passing `barrier`."""
-    seen, frontier = {start}, [start]
-    while frontier:
-        following = []
-        for a in frontier:
-            for n in adjacent.get(a, ()):
-                if n != barrier and n not in seen:
-                    seen.add(n)
-                    following.append(n)
-        frontier = following
-    return seen
 
 
 def _collinear(points: list[complex]) -> bool:
@@ -1387,7 +1373,7 @@ class _LayoutBuilder:
             for atom in _on_the_way(i, j, adjacent):
                 if not self._linear(atom, panels) or len(adjacent.get(atom, ())) != 2:
                     continue
-                sides = sorted(((_reached(n, atom, adjacent), n) for n in adjacent[atom]), key=lambda side: len(side[0]))
+                sides = sorted(((side_beyond(n, atom, adjacent), n) for n in adjacent[atom]), key=lambda side: len(side[0]))
                 (branch, outward), (_, inward) = sides
                 centre = local[atom]
                 turn = _unit(centre - local[inward]) / _unit(local[outward] - centre)
