@@ -219,6 +219,18 @@ def gap_beside(centre: complex, others: Sequence[complex], target: complex) -> c
     return cmath.rect(1.0, best_mid)
 
 
+def gap_facing(centre: complex, others: Sequence[complex], target: complex) -> complex:
+    """Unit vector from centre into the middle of the gap between the directions to `others`
+    whose middle lies nearest the direction to `target`."""
+    directions = sorted(cmath.phase(o - centre) for o in others if abs(o - centre) > 1e-9)
+    aim = _unit(target - centre)
+    if not directions:
+        return aim
+    middles = [(a + (directions[(k + 1) % len(directions)] + (2 * math.pi if k + 1 == len(directions) else 0))) / 2
+               for k, a in enumerate(directions)]
+    return max((cmath.rect(1.0, m) for m in middles), key=lambda d: (d * aim.conjugate()).real)
+
+
 def _cis(local: dict[int, complex], i: int, j: int, a: int, b: int) -> Optional[bool]:
     """Whether a (on i) and b (on j) are drawn on one side of the bond i=j; None if either lies
     on its line."""
@@ -1957,6 +1969,13 @@ class _LayoutBuilder:
             # opposite that neighbour, its arrow had to run round the centre, over a bond (a
             # methyl shifting in a Wagner-Meerwein rearrangement).
             u = gap_beside(self.positions[k][anchor], others, self.positions[k][target])
+        elif kind == "bond" and len(cluster.atoms) == 1 and (giver := self._gives_hydrogen_to(mover, segment)) is not None:
+            # A lone atom that takes a hydrogen as the run ends (a chloride of AlCl4- taking the
+            # arenium's proton) bonds on the side facing the atom it takes it from.
+            here = self.positions[k]
+            u = gap_facing(here[anchor], [here[n] for n in self.neighbours[anchor] if n in here and n != mover
+                                          and (min(n, anchor), max(n, anchor)) in self.bonds_in[k]],
+                           self.positions[segment[1]][giver])
         else:
             u = self._roomiest(anchor, k, hydrogen)
         depicted = cluster.local_at(k)
@@ -2059,6 +2078,13 @@ class _LayoutBuilder:
         self._apply(index)
         if hydrogen is not None:
             self._promise(hydrogen, anchor, k, direction, leave_after=round_about is not None)
+
+    def _gives_hydrogen_to(self, taker: int, segment: tuple[int, int]) -> Optional[int]:
+        """The atom, placed in the last panel of `segment`, that hands `taker` a hydrogen in the
+        step after it; None if there is none."""
+        return next((giver for panel, kind, giver, receiver, _ in self.events
+                     if kind == "hop" and panel == segment[1] and receiver == taker
+                     and giver in self.positions[panel]), None)
 
     def _kept_in_place(self, index: int, segment: tuple[int, int]) -> Optional[tuple]:
         """The placement of the run of panels before `segment`, if the cluster, left there, keeps
