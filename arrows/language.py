@@ -380,6 +380,12 @@ def _hint_for(exc: UnexpectedInput, text: str, found: str) -> str:
         electrons = "a lone pair" if word == ":" else "an unpaired electron"
         return f"{electrons} is written before its atom: `{word}{atom_before.group(1)}`"
     if tok_type == "BOND" and "ARROW" in expected:
+        marked = re.search(r"([:.])([A-Z][a-z]?\d+)$", line[:exc.column - 1])   # (the bond written on)
+        if marked:
+            # `:C3=C4 -> ...`: a bond's pair written with a lone pair's (or radical's) mark.
+            bond = f"{marked.group(2)}{word}{rest[len(word):].split()[0] if rest[len(word):].split() else ''}"
+            return (f"`{marked.group(1)}{marked.group(2)}` names {'a lone pair' if marked.group(1) == ':' else 'an unpaired electron'}"
+                    f" on {marked.group(2)}; a bond's electrons are written without the mark: `{bond} -> ...`")
         return f"`{word}` is a bond between two atoms; an arrow is written -> (pair) or ~> (single electron)"
     if tok_type == "ARROW":
         return "one arrow per move: write the next arrow as a move of its own, on its own line"

@@ -334,6 +334,15 @@ SLIPS = [
     ("unpaired electron after its atom",
      'step "a"\n    C1. ~> C1-C2\nend\n',
      2, 7, "unexpected `.`", "an arrow", "an unpaired electron is written before its atom: `.C1`"),
+    # A pi bond's pair marked as a lone pair (as in ":C3=C4 -> H(O6)"): the hint said only that
+    # `=` is a bond, not that the mark is the slip.
+    ("bond written with a lone pair's mark",
+     'step "a"\n    :C3=C4 -> H(O6)\nend\n',
+     2, 8, "unexpected `=`", "an arrow", "`:C3` names a lone pair on C3; a bond's electrons are written without "
+                                          "the mark: `C3=C4 -> ...`"),
+    ("bond written with a radical's mark",
+     'step "a"\n    .C1-C2 ~> C2\nend\n',
+     2, 8, "unexpected `-`", "an arrow", "`.C1` names an unpaired electron on C1"),
 ]
 
 
