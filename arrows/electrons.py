@@ -622,7 +622,7 @@ def _settle(state: ElectronState, step: Step, step_index: int, replay: _StepRepl
             diags.append(Diagnostic("AR208", f"{text} says the bond will be {order_word(written)}; "
                                     f"after this step it is {order_word(actual)}", loc,
                                     f"write the bond as it is after the step"
-                                    f"{': ' + CONNECTORS[actual] if actual in CONNECTORS else ''}",
+                                    f"{': `' + _rewrite(text, actual) + '`' if actual in CONNECTORS else ''}",
                                     bonds=((state.label(key[0]), state.label(key[1])),), step=step_index))
     if diags and any(d.severity == "error" for d in diags):
         return None, change, diags

@@ -144,7 +144,7 @@ TWINS = [
          "C2-H -> C5-H", sink=True, hint_says=("C2-H -> C5-H(C2)",)),
     # The C2-H pair makes C2=C3 a double bond; the sink says single.
     Twin("sink bond written with the wrong order", E2, "C2-H -> C2=C3", "C2-H -> C2-C3", "AR208",
-         "C2-H -> C2-C3", sink=True, says=("double",)),
+         "C2-H -> C2-C3", sink=True, says=("double",), hint_says=("`C2=C3`",)),
     Twin("pair arrow from one electron", RADICALS, ".C1 ~> C1-C2", ".C1 -> C1-C2", "AR209", ".C1 -> C1-C2",
          hint_says=("~>",)),
     Twin("lone pair to its own atom", SN2, ":O1 -> C2", ":O1 -> O1", "AR210", ":O1 -> O1", sink=True),
