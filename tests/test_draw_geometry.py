@@ -335,7 +335,8 @@ def test_a_nitrogen_with_a_lone_pair_beside_its_double_bond_is_drawn_bent(text, 
     azo or oxime nitrogen) has three electron domains and is drawn bent, 120 degrees within 15
     (VSEPR, common practice; IUPAC 2008 draws trigonal centres at 120). The azo coupling's inner
     nitrogen, straight in the diazonium ion, was once left straight in the azo compound, and the
-    imine formation's N between its methyl and the C it joins (the methylamine bonded on straight).
+    imine formation's N between its methyl and the C it joins (the methylamine bonded on straight),
+    and the aza-Michael ketenimine's N-H, turned toward the water that takes its proton, at 80.
     A nitrogen on a ring of the bonds
     of all states together is drawn at that ring's angle throughout (the Staudinger phosphazide,
     curled for the four-membered array its N2 leaves through)."""

@@ -53,7 +53,8 @@ through a carbodiimide, its urea redrawn by a resonance step; a Boc group taken 
 a THP ether through its cyclic oxocarbenium ion; a ring closed by an enamine onto a ring
 carbonyl, its iminium ion then hydrolysed (the Hajos-Parrish ketol); the Fischer indole synthesis
 through its [3,3] shift (ten steps); a Friedel-Crafts alkylation through the AlCl3 complex of
-tert-butyl chloride.
+tert-butyl chloride; an amine added to acrylonitrile, its ketenimine anion protonated on nitrogen and
+tautomerised by water (aza-Michael).
 
 Each entry: (mechanism text, textbook product SMILES, drawn): `drawn` says whether the geometry
 tests draw it. All do but seven. (Fixed in the layout and the tests since: the Dieckmann
@@ -3114,6 +3115,33 @@ end
 product "CC(C)(C)c1ccccc1.Cl[Al](Cl)Cl"
 '''
 
+# Aza-Michael addition of piperidine to acrylonitrile (Clayden, Greeves and Warren, Organic
+# Chemistry, 2nd ed., ch. 22, from memory): the amine adds at the alkene's beta carbon, the
+# ketenimine anion takes the ammonium's proton on nitrogen, and water moves that proton to carbon
+# (tautomerisation to the nitrile): 3-(piperidin-1-yl)propanenitrile.
+AZA_MICHAEL = '''\
+species amine = "C1CC[NH:1]CC1"
+species acceptor = "[CH2:2]=[CH:3][C:4]#[N:5]"
+step "conjugate addition"
+    :N1 -> C2
+    C2=C3 -> C3=C4
+    C4#N5 -> N5
+end
+step "proton transfer"
+    :N5 -> H(N1)
+    N1-H -> N1
+end
+step "tautomerisation"
+    uses water = "[OH2:6]"
+    C3=C4 -> C3-H(O6)
+    O6-H -> O6
+    :O6 -> H(N5)
+    N5-H -> C4#N5
+end
+
+product "N#CCCN1CCCCC1"
+'''
+
 # Fischer indole synthesis from acetone phenylhydrazone in acid: the ene-hydrazine, its
 # [3,3]-sigmatropic shift, rearomatisation, the aniline nitrogen closing the five-membered ring
 # onto the iminium carbon, and ammonia lost: 2-methylindole.
@@ -3303,5 +3331,6 @@ TEXTBOOK = {
     "thp removal": (THP_REMOVAL, "OC1CCCCO1.CO", True),
     "enamine intramolecular aldol": (ENAMINE_ALDOL, "CC12CCC(=O)CC1(O)CCC2=O.C1CCNC1", True),
     "fischer indole": (FISCHER_INDOLE, "Cc1cc2ccccc2[nH]1.[NH4+]", False),
+    "aza-michael": (AZA_MICHAEL, "N#CCCN1CCCCC1.O", True),
     "friedel-crafts alkylation": (FRIEDEL_CRAFTS_ALKYLATION, "CC(C)(C)c1ccccc1.Cl.Cl[Al](Cl)Cl", False),   # the arenium's H 0.26 from a tert-butyl methyl
 }

@@ -62,6 +62,7 @@ _ALONG_BOND = math.radians(35)   # least angle between a travelling hydrogen and
 _SEVENTY = math.radians(70)
 _BEHIND_A_BOND = math.radians(45)   # a partner this near a bond's direction lies behind the bond
 _OPEN_ANGLE = math.radians(105)   # least angle a hydrogen leaning toward its partner keeps from a lone other bond
+_FOLDED = math.radians(105)   # a hydrogen nearer than this to a trigonal holder's one other bond reads as folded
 _OFF_A_BOND = math.radians(35)   # least angle between a travelling hydrogen's bond and its holder's others
 _SIXTY = math.radians(60)
 _BACKSIDE_ROOM = math.radians(55)   # a nucleophile's line of approach from the centre's other bonds
@@ -2781,7 +2782,19 @@ class _LayoutBuilder:
         def cramped(direction: complex) -> bool:
             return any(abs(cmath.phase(direction / f)) < _FED_ANGLE for f in fed)
 
-        if room_now >= _HYDROGEN_ROOM and miss(r.direction) == 0.0 and not crossed_now and not cramped(r.direction):
+        bonds = [_unit(self.positions[panels[0]][x] - self.positions[panels[0]][r.holder])
+                 for x in self.neighbours[r.holder] if x != r.hydrogen and x in self.positions[panels[0]]]
+        others = [x for x in self.neighbours[r.holder] if x != r.hydrogen and x in self.positions[panels[0]]]
+        trigonal = len(others) == 1 and any(
+            self.orders_in[k].get((min(r.holder, others[0]), max(r.holder, others[0])), 0) >= 2 for k in panels)
+
+        def closed(direction: complex) -> bool:
+            """Folded onto the double bond that is its holder's one other bond (an N-H drawn 80
+            degrees from its C=N): a trigonal centre is drawn at 120 degrees within 15 (VSEPR)."""
+            return trigonal and abs(cmath.phase(direction / bonds[0])) < _FOLDED
+
+        if (room_now >= _HYDROGEN_ROOM and miss(r.direction) == 0.0 and not crossed_now and not cramped(r.direction)
+                and not closed(r.direction)):
             return
         walls = np.array(sorted(walls, key=lambda w: (w[0].real, w[0].imag)), dtype=complex).reshape(-1, 2)
 
@@ -2790,25 +2803,24 @@ class _LayoutBuilder:
                 return [False] * len(directions)
             return _crosses_any(np.zeros(len(directions), dtype=complex), np.array(directions, dtype=complex), walls)
 
-        bonds = [_unit(self.positions[panels[0]][x] - self.positions[panels[0]][r.holder])
-                 for x in self.neighbours[r.holder] if x != r.hydrogen and x in self.positions[panels[0]]]
         polygons = [[self.positions[k][a] for a in ring] for k in panels for ring in self._closed_rings(k)]
-        # Clear of every atom and bond first, then of bonds at least; among those, room and a comfortable hop.
+        # Clear of every atom and bond first, then of bonds at least, then not folded; among
+        # those, room and a comfortable hop.
         start_score = (not cramped(r.direction), room_now >= _HYDROGEN_ROOM and not crossed_now,
-                       not crossed_now, min(room_now, 1.2) + 0.1 - miss(r.direction))
+                       not crossed_now, not closed(r.direction), min(room_now, 1.2) + 0.1 - miss(r.direction))
         best, best_score = r.direction, start_score
         compass = _HYDROGEN_COMPASS
         rooms = (np.minimum.reduce(np.abs(relative - _HYDROGEN_COMPASS_ARRAY[:, None]), axis=1).tolist() if len(relative)
                  else [math.inf] * len(compass))
         for d, space, crossed in zip(compass, rooms, crossing(compass)):
-            score = (not cramped(d), space >= _HYDROGEN_ROOM and not crossed, not crossed,
+            score = (not cramped(d), space >= _HYDROGEN_ROOM and not crossed, not crossed, not closed(d),
                      min(space, 1.2) + 0.1 * (d / r.direction).real - miss(d))
-            if not (score[:3] > best_score[:3] or (score[:3] == best_score[:3] and score[3] > best_score[3] + 0.05)):
+            if not (score[:4] > best_score[:4] or (score[:4] == best_score[:4] and score[4] > best_score[4] + 0.05)):
                 continue
             # Only a direction that would win is asked whether it is allowed at all.
             if any(abs(cmath.phase(d / b)) < _OFF_A_BOND for b in bonds):
                 continue
-            if len(bonds) == 1 and score[:3] == start_score[:3] and abs(cmath.phase(d / bonds[0])) < _OPEN_ANGLE:
+            if len(bonds) == 1 and score[:4] == start_score[:4] and abs(cmath.phase(d / bonds[0])) < _OPEN_ANGLE:
                 continue   # no more room, only a nearer partner: not worth closing a lone bond's angle
             if any(_inside(self.positions[panels[0]][r.holder] + d, poly) for poly in polygons):
                 continue
