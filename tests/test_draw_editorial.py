@@ -143,6 +143,41 @@ def test_a_charge_sign_keeps_off_its_own_atoms_hydrogens():
     assert signs == 1
 
 
+def test_a_charge_sign_is_not_written_beside_hydrogens_above_or_below_its_atom():
+    """A charge sign level with the hydrogens written above or below its atom's symbol, just after
+    or before them, reads as theirs: "H+" over an ammonium N reads as a proton (IUPAC 2008: a
+    charge sits beside the atom it belongs to). In the gallery and the drawn textbook schemes
+    every such sign keeps 0.6 of its size from them across, or is on another line; the amine
+    acetylation's tetrahedral intermediate (its N+ with H2 above, "H2+") and the carbodiimide
+    coupling's acylammonium ("H+" under N) once failed it."""
+    from arrows.draw.text import FontFace
+    from textbook_mechanisms import TEXTBOOK
+    style = STYLES["two-column"]
+    face = FontFace(style.font_family)
+    texts = [(p.name, p.read_text(encoding="utf-8")) for p in GALLERY]
+    texts += [(f"{name}.mech", text) for name, (text, _, drawn) in sorted(TEXTBOOK.items()) if drawn]
+    checked = 0
+    for name, text in texts:
+        trace, diags = arrows.check_text(text, name)
+        for panel in build_scene(trace, style, diags).panels:
+            for mark in panel.marks:
+                atom = panel.atom(mark.atom)
+                if mark.kind != "charge" or not atom.runs:
+                    continue
+                symbol = next(r for r in atom.runs if r.text.startswith(atom.element) or r.text[:1].isdigit()
+                              or r.text[:1] in "DT")
+                for run in atom.runs:
+                    if abs(run.y - symbol.y) < 0.5 * symbol.size:
+                        continue   # on the symbol's own line: NH3+ is how the sign is written
+                    checked += 1
+                    x0, x1 = run.x, run.x + face.width(run.text, run.size)
+                    y0, y1 = run.y - face.cap_height * run.size, run.y
+                    box, size = mark.box, mark.runs[0].size
+                    level = box.y0 < y1 and y0 < box.y1
+                    assert not level or max(x0 - box.x1, box.x0 - x1) >= 0.6 * size, (name, panel.index, atom.name)
+    assert checked > 10
+
+
 def _distance_to_segment(p: complex, a: complex, b: complex) -> float:
     along = b - a
     t = max(0.0, min(1.0, ((p - a) * along.conjugate()).real / abs(along) ** 2)) if abs(along) > 1e-9 else 0.0

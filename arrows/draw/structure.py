@@ -786,13 +786,20 @@ class StructureDrawer:
                    if abs(complex(*a) - centre) < reach] if kind == "charge" else []
         # A minus level with a label, before or after it, reads as a bond into the label ("-Si").
         labelled = out.atoms[i].box is not None
+        # A sign level with the atom's own hydrogens written above or below its symbol, just
+        # after or before them, reads as theirs: "H+" over an ammonium N.
+        hydrogens = [self.text_box(r) for r in out.atoms[i].runs
+                     if abs(r.y - (out.positions[i].imag + self.cap / 2)) >= 0.5 * self.style.font_size] \
+            if labelled and kind == "charge" else []
         for direction in tried:
             mark, slid = self._side_text_at(kind, i, text, out, direction, width, cap, size, italic)
             # Slid far out along a crowded direction, the text no longer reads as the atom's.
             gap = min((_separation(mark.box, b) for b in others), default=math.inf)
             on_stroke = _sign_near_stroke(mark.box, size, strokes, _SIDE_SIGN_STROKE_GAP) or (
                 text.endswith(MINUS) and (self._minus_beside_stroke(mark.runs[-1], strokes) or (
-                    labelled and abs(direction.imag) < _LEVEL_WITH_LABEL)))
+                    labelled and abs(direction.imag) < _LEVEL_WITH_LABEL))) or any(
+                mark.box.y0 < h.y1 and h.y0 < mark.box.y1 and max(h.x0 - mark.box.x1, mark.box.x0 - h.x1) < 0.6 * size
+                for h in hydrogens)
             fault = (gap < pad or on_stroke, slid >= _FAR_SLIDE, 0.0 if kind == "charge" else -min(gap, pad))
             if best is None or fault < best[0]:
                 best = (fault, direction, mark)
