@@ -73,7 +73,9 @@ CODES = _table(
          ':C5 -> C6   # C5 is a carbocation: it has no lone pair'),
     Code("AR202", ERROR, "bond order written wrongly",
          "The connector of a source bond says what the bond is before the step. `=` on a single bond "
-         "names a pi pair that does not exist.",
+         "names a pi pair that does not exist. RDKit reads a nitrogen or halogen written with more "
+         "bonds than its valence list allows (N(=O)=O, periodate's I(=O)3) charge-separated, X+ and O-: "
+         "the pi pair such an X=O was drawn with is a lone pair on O.",
          'C3=C4 -> C4   # C3-C4 is a single bond'),
     Code("AR203", ERROR, "electrons used twice",
          "Two arrows in one step draw on the same electrons (one pair of a single bond, one lone pair "
@@ -202,7 +204,10 @@ CODES = _table(
          "rings of the structure after it, without a Baldwin class: "
          "a Diels-Alder closes one, a Cope or [2,3]-Wittig shift none. A 1,2-shift closes no ring. "
          "Two molecules joined by two new bonds in one step (a bromonium ion, a peracid's epoxide, a "
-         "carbene's cyclopropane) make a ring between them: noted with its size, without a Baldwin class.",
+         "carbene's cyclopropane) make a ring between them: noted with its size, without a Baldwin class. "
+         "Baldwin's rules are stated for first-row atoms: a closure at a heavier one (the phosphorus of "
+         "an oxaphosphetane, the iodine of a cyclic periodate ester) is given no class (a three- or "
+         "four-membered one still draws AR501).",
          'C2=C3 -> C3-C7   # an enolate onto a ketone of its own chain: 5-(enolexo)-exo-trig, favoured'),
     Code("AR602", NOTE, "stereocentres",
          "Stereocentres or stereogenic double bonds made or lost in a step, and how many "

@@ -46,6 +46,11 @@ def order_word(order: int) -> str:
 Pair = tuple[int, int]
 
 
+# N, Cl, Br, I: RDKit's sanitization writes their oxides with more bonds than the element's
+# valence list allows (a nitro N(=O)=O, periodate's I(=O)3) as X+ - O- (its clean-up step).
+_CHARGE_SEPARATED = frozenset({7, 17, 35, 53})
+
+
 def pair(i: int, j: int) -> Pair:
     return (i, j) if i < j else (j, i)
 
@@ -483,7 +488,7 @@ class _StepReplay:
         if written > actual:
             self.fail("AR202", f"{src.bond} is written {order_word(written)}, but {self.bond_name(a, b)} is a {order_word(actual)} bond: "
                       f"there is no {'pi' if written == 2 else 'second pi'} pair to move",
-                      src.loc, f"write {_rewrite(src.bond, actual)}, or check the previous step",
+                      src.loc, self._charge_separated_hint(a, b) or f"write {_rewrite(src.bond, actual)}, or check the previous step",
                       atoms=(self.state.label(a), self.state.label(b)))
             raise _StepFailed
         if written < actual:
@@ -496,6 +501,20 @@ class _StepReplay:
                       f"{self.bond_name(a, b)} holds {actual} pair{'s' if actual > 1 else ''}; each arrow from it takes one",
                       atoms=(self.state.label(a), self.state.label(b)))
             raise _StepFailed
+
+    def _charge_separated_hint(self, a: int, b: int) -> Optional[str]:
+        """For X=O written where RDKit holds X+-O- (it reads a halogen or nitrogen with more bonds
+        than its valence list allows, the periodate ion's I(=O)3 or a nitro group's N(=O)=O, in
+        that charge-separated form): where the pi pair the author meant is."""
+        state = self.state
+        for centre, oxygen in ((a, b), (b, a)):
+            if (state.elements[centre] in _CHARGE_SEPARATED and state.elements[oxygen] == 8
+                    and state.formal_charge(centre) > 0 and state.formal_charge(oxygen) < 0):
+                x, o = state.label(centre), state.label(oxygen)
+                return (f"RDKit reads {x}'s bonds to oxygen charge-separated ({x}{state.formal_charge(centre):+d}, {o}-), "
+                        f"as it does a nitrogen or halogen written with more bonds than its usual valence: the pi "
+                        f"pair meant is already {o}'s lone pair (leave the move out; giving it back is `:{o} -> {x}`)")
+        return None
 
     def attach(self, move: Move, x: int, sink) -> None:
         """Electrons from atom x go to a sink: a new or stronger bond from x, or (`:Y`) onto

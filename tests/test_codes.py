@@ -71,6 +71,15 @@ def expected_location(t: Twin, text: str) -> tuple[int, int]:
     return line, column
 
 
+# A 1,2-diol's oxygen adding to periodate, written with I=O bonds as chemists draw it; RDKit reads
+# it charge-separated, I+3 and four O- (its sanitization clean-up, as for a nitro group).
+PERIODATE_ATTACK = '''species diol = "[CH3:1][CH:2]([OH:3])[CH:4]([OH:5])[CH3:6]"
+species periodate = "[O-:10][I:11](=[O:12])(=[O:13])=[O:14]"
+step "first I-O bond"
+    :O3 -> I11
+end
+'''
+
 # tert-Butyl bromide ionising (the SN1 and E1 first step, textbook).
 IONISATION = '''species bromide = "[CH3:1][C:2]([CH3:3])([CH3:4])[Br:5]"
 step "ionisation"
@@ -120,6 +129,10 @@ TWINS = [
          says=("hydrogen",), hint_says=(":O5 -> H(O4)", "O4-H -> ")),
     Twin("arrow from a mapped proton", HBR_ADDITION, "C2=C3 -> C3-H5", ":H5 -> C3", "AR204", ":H5"),
     # C2-C4 of the aldolate is a single bond: `=` names a pi pair that is not there.
+    # The author's I=O pi pair is, as RDKit holds periodate, already a lone pair on O12.
+    Twin("pi pair of an I=O that RDKit holds charge-separated", PERIODATE_ATTACK, ":O3 -> I11\n",
+         ":O3 -> I11\n    I11=O12 -> O12\n", "AR202", "I11=O12 -> O12", says=("single",),
+         hint_says=("charge-separated (I11+3, O12-)", "leave the move out"), alone=False),
     Twin("double bond written for a single bond", RETRO_ALDOL, "C2-C4 -> C4=C5", "C2=C4 -> C4=C5", "AR202",
          "C2=C4", says=("single",), hint_says=("C2-C4",)),
     # The arrow drawn backwards: the 2-propyl cation has no lone pair to give.

@@ -392,19 +392,24 @@ def test_map_numbers_cip_labels_and_charges_keep_off_other_atoms_labels():
     assert seen > 1000
 
 
-@pytest.mark.parametrize("source", ["gallery", "textbook"])
-def test_an_sn2_nucleophile_comes_in_opposite_the_leaving_group(source):
+@pytest.mark.parametrize("source, panel_index", [("gallery", 0), ("sn2 inversion", 0), ("intramolecular williamson", 0),
+                                                 ("aziridine closure", 0), ("acetylide alkylation", 1), ("gabriel", 0)])
+def test_an_sn2_nucleophile_comes_in_opposite_the_leaving_group(source, panel_index):
     """SN2: the nucleophile is drawn on the far side of the carbon from the leaving group, the
     three on one line (backside attack, Walden inversion; textbook, and how every organic text
     draws it). Both the gallery's cyanide and the textbook hydroxide waited on the leaving
-    group's own side: nucleophile-carbon-bromine 0 degrees; at least 150 now."""
+    group's own side: nucleophile-carbon-bromine 0 degrees; at least 150 now. Where the
+    nucleophile stood first and the carbon's molecule waited beside it, the leaving group was
+    set wherever the carbon had room: the phthalimide nitrogen, the alkoxide of the
+    intramolecular Williamson, the amine closing the aziridine and the acetylide came in at 10,
+    55, 80 and 140 degrees from it."""
     from textbook_mechanisms import TEXTBOOK
     if source == "gallery":
         _, scene = _scene("08-sn2-cyanide")
     else:
-        trace, diags = arrows.check_text(TEXTBOOK["sn2 inversion"][0], "sn2.mech")
+        trace, diags = arrows.check_text(TEXTBOOK[source][0], f"{source}.mech")
         scene = build_scene(trace, STYLES["two-column"], diags)
-    panel = scene.panels[0]
+    panel = scene.panels[panel_index]
     where = {a.index: complex(*a.position) for a in panel.atoms}
     attack, = [a for a in panel.arrows if a.source_kind == "lone_pair"]
     leaving, = [a for a in panel.arrows if a.source_kind == "bond"]

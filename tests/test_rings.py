@@ -346,3 +346,33 @@ def test_one_new_bond_between_two_molecules_makes_no_ring_note():
     for name in ("sn2 inversion", "hydroboration"):
         _, diags = check_text(TEXTBOOK[name][0])
         assert not [d for d in diags if d.code == "AR601"], name
+
+
+def test_a_closure_at_an_atom_beyond_the_second_period_is_not_judged_by_baldwin():
+    """Baldwin's rules are stated for first-row atoms (Baldwin 1976, memory). A diol's second
+    oxygen closing the five-membered cyclic periodate ester at iodine was called 5-exo-tet,
+    favoured; the Horner-Wadsworth-Emmons alkoxide closing the oxaphosphetane at phosphorus,
+    4-exo-trig: now neither is classified, and the four-membered ring keeps its strain warning."""
+    periodate = """species diol = "[CH3:1][CH:2]([OH:3])[CH:4]([OH:5])[CH3:6]"
+species periodate = "[O-:10][I+3:11]([O-:12])([O-:13])[O-:14]"
+step "first I-O bond"
+    :O3 -> I11
+end
+step "proton transfer"
+    :O12 -> H(O3)
+    O3-H -> O3
+end
+step "cyclic periodate ester"
+    :O5 -> I11
+    I11-O12 -> O12
+end
+"""
+    _, diags = check_text(periodate)
+    closing = [d for d in diags if d.code in ("AR501", "AR502", "AR601")]
+    assert [d.code for d in closing] == ["AR601"], [d.to_text() for d in diags]
+    assert "beyond the second period" in closing[0].message and "exo" not in closing[0].message
+    from textbook_mechanisms import TEXTBOOK
+    _, diags = check_text(TEXTBOOK["horner-wadsworth-emmons"][0])
+    closing = [d for d in diags if d.code in ("AR501", "AR502", "AR601")]
+    assert [d.code for d in closing] == ["AR501"]
+    assert "beyond the second period" in closing[0].message and "4-exo-trig" not in closing[0].message

@@ -54,7 +54,7 @@ a THP ether through its cyclic oxocarbenium ion; a ring closed by an enamine ont
 carbonyl, its iminium ion then hydrolysed (the Hajos-Parrish ketol); the Fischer indole synthesis
 through its [3,3] shift (ten steps); a Friedel-Crafts alkylation through the AlCl3 complex of
 tert-butyl chloride; an amine added to acrylonitrile, its ketenimine anion protonated on nitrogen and
-tautomerised by water (aza-Michael).
+tautomerised by water (aza-Michael); a phthalimide anion alkylated by benzyl bromide (Gabriel).
 
 Each entry: (mechanism text, textbook product SMILES, drawn): `drawn` says whether the geometry
 tests draw it. All do but seven. (Fixed in the layout and the tests since: the Dieckmann
@@ -3142,6 +3142,20 @@ end
 product "N#CCCN1CCCCC1"
 '''
 
+# Gabriel synthesis, first step (Clayden, Greeves and Warren, Organic Chemistry, 2nd ed., ch. 15,
+# from memory): the phthalimide anion displaces bromide from benzyl bromide (SN2) to give
+# N-benzylphthalimide.
+GABRIEL = '''\
+species imide = "O=C1c2ccccc2C(=O)[N-:1]1"
+species bromide = "[Br:2][CH2:3]c1ccccc1"
+step "SN2 at the benzylic carbon" under "DMF"
+    :N1 -> C3
+    C3-Br2 -> Br2
+    releases Br2
+end
+product "O=C1c2ccccc2C(=O)N1Cc1ccccc1"
+'''
+
 # Fischer indole synthesis from acetone phenylhydrazone in acid: the ene-hydrazine, its
 # [3,3]-sigmatropic shift, rearomatisation, the aniline nitrogen closing the five-membered ring
 # onto the iminium carbon, and ammonia lost: 2-methylindole.
@@ -3331,6 +3345,7 @@ TEXTBOOK = {
     "thp removal": (THP_REMOVAL, "OC1CCCCO1.CO", True),
     "enamine intramolecular aldol": (ENAMINE_ALDOL, "CC12CCC(=O)CC1(O)CCC2=O.C1CCNC1", True),
     "fischer indole": (FISCHER_INDOLE, "Cc1cc2ccccc2[nH]1.[NH4+]", False),
+    "gabriel": (GABRIEL, "O=C1c2ccccc2C(=O)N1Cc1ccccc1.[Br-]", True),
     "aza-michael": (AZA_MICHAEL, "N#CCCN1CCCCC1.O", True),
     "friedel-crafts alkylation": (FRIEDEL_CRAFTS_ALKYLATION, "CC(C)(C)c1ccccc1.Cl.Cl[Al](Cl)Cl", False),   # the arenium's H 0.26 from a tert-butyl methyl
 }

@@ -35,6 +35,9 @@ class StepClosure:
     between_molecules: bool = False     # two molecules make the ring with two new bonds
 
 
+_SMALL_RING_HINT = "five- and six-membered closures usually win when the substrate offers one (common practice)"
+
+
 def closures_in_step(st: StepTrace) -> list[StepClosure]:
     if st.after is None:
         return []
@@ -208,6 +211,16 @@ class RingClosures(Check):
         if c.closure is None:
             return Diagnostic("AR601", f"{opening} in a pericyclic step (electrons moving round a cyclic array of atoms); "
                               f"Baldwin's rules do not apply", c.loc or st.step.loc, **where)
+        if st.before.elements[c.attacked] > 10:
+            # Baldwin's rules are stated for first-row atoms (Baldwin 1976, memory): at a heavier
+            # one (the iodine of a cyclic periodate ester, the phosphorus of an oxaphosphetane)
+            # longer bonds and other orbitals change the angles the rules rest on.
+            uncovered = f"{opening} at {b}, an atom beyond the second period, which Baldwin's rules (stated for " \
+                        f"first-row atoms) do not cover"
+            if size in (3, 4):
+                return Diagnostic("AR501", f"{uncovered}; the ring is strained", c.loc or st.step.loc,
+                                  hint=_SMALL_RING_HINT, **where)
+            return Diagnostic("AR601", uncovered, c.loc or st.step.loc, **where)
         v = verdict(c.closure)
         said = f"{c.closure.name}, {v.word}" + (f" ({v.rule})" if v.rule else "")
         if c.onto_cation and c.closure.mode is None:
@@ -224,9 +237,8 @@ class RingClosures(Check):
             alternative = self.alternative(st, c)
             if alternative:
                 message += f"; {alternative}"
-            hint = ("five- and six-membered closures usually win when the substrate offers one (common practice)"
-                    if code == "AR501" else "Baldwin's rules: a disfavoured closure is slow; look for a favoured "
-                    "ring size or another intermediate (`arrows closures` lists the candidates)")
+            hint = (_SMALL_RING_HINT if code == "AR501" else "Baldwin's rules: a disfavoured closure is slow; look "
+                    "for a favoured ring size or another intermediate (`arrows closures` lists the candidates)")
             return Diagnostic(code, message, c.loc or st.step.loc, hint=hint, **where)
         if v.favoured is None:
             return Diagnostic("AR601", f"{opening}: {c.closure.name}, not covered by Baldwin's rules",

@@ -1865,16 +1865,22 @@ class _LayoutBuilder:
                 out[(k + 1, e)] = (centre, l)
         return out
 
-    def _backside_axis(self, centre: int, k: int, skip: set[int]) -> Optional[complex]:
+    def _backside_axis(self, centre: int, k: int, skip: set[int], entering: Optional[int] = None) -> Optional[complex]:
         """The direction for a leaving group at `centre` in panel k such that it and its opposite,
         where the nucleophile comes in, both keep _BACKSIDE_ROOM from the centre's other
         bonds; the leaving group on the right of two equal choices (the scheme reads left to
-        right). None when no direction does."""
+        right). Straight away from the `entering` atom where that already stands in panel k
+        (the phthalimide nitrogen, fixed, that a benzyl bromide waits beside) and the line
+        has the room. None when no direction does."""
         here = self.positions[k]
         others = [_unit(here[n] - here[centre]) for n in self.neighbours[centre]
                   if n not in skip and n in here and n in self.exists[k]]
         if not others:
             return None
+        if entering is not None and entering in here and abs(here[centre] - here[entering]) > 1e-9:
+            away = _unit(here[centre] - here[entering])
+            if all(abs(cmath.phase(d / o)) >= _BACKSIDE_ROOM for o in others for d in (away, -away)):
+                return away
         def room_at(directions: np.ndarray) -> np.ndarray:
             turns = directions[:, None] / np.array(others)[None, :]
             return np.minimum.reduce(np.abs(np.arctan2(turns.imag, turns.real)), axis=1)
@@ -1945,7 +1951,7 @@ class _LayoutBuilder:
         residence = self._residence_at(hydrogen, anchor, k) if hydrogen is not None else None
         leaves = [e for (arrival, e), (centre, l) in self.backside.items()
                   if kind == "bond" and centre == anchor and l == mover and arrival == segment[1] + 1]
-        axis = self._backside_axis(anchor, k, {mover, leaves[0]}) if leaves else None
+        axis = self._backside_axis(anchor, k, {mover, leaves[0]}, entering=leaves[0]) if leaves else None
         if residence is not None and residence.direction is not None and residence.last == k:
             u = residence.direction
         elif axis is not None:
