@@ -120,3 +120,19 @@ def test_a_labelled_by_product_keeps_its_label():
     methoxide = Chem.MolFromSmiles("C[18O-]")
     assert CalcMolFormula(methoxide, True, True) == "CH3[18O]-"
     assert _byproduct_pieces(methoxide) == [("CH", "n"), ("3", "sub"), ("18", "sup"), ("O", "n"), (MINUS, "sup")]
+
+
+@pytest.mark.parametrize("smiles, written", [
+    ("Cl[Ti](Cl)(Cl)Cl", "TiCl4"), ("O=S=O", "SO2"), ("Br[Mg]Br", "MgBr2"), ("N", "NH3"), ("O", "H2O"),
+    ("Cl", "HCl"), ("Br", "HBr"), ("OS(=O)(=O)O", "H2SO4"), ("O=P(Cl)(Cl)Cl", "POCl3"), ("O=S(Cl)Cl", "SOCl2"),
+    ("[NH4+]", "NH4+"), ("FB(F)F", "BF3"), ("O=C=O", "CO2"), ("CCCCO", "C4H10O")])
+def test_a_by_product_without_carbon_is_written_in_iupac_element_order(smiles, written):
+    """Without carbon a formula cites its elements in IUPAC's element sequence (Nomenclature of
+    Inorganic Chemistry, Recommendations 2005, IR-4.4.3 and Table VI; from memory): TiCl4, SO2,
+    NH3, H2SO4, POCl3, as chemists write them. RDKit's Hill order wrote Cl4Ti, O2S, H3N, H2O4S and
+    Cl3OP beside the arrow. With carbon the Hill order stays (CO2, C4H10O)."""
+    from rdkit import Chem
+
+    from arrows.draw.scheme import _byproduct_pieces
+    text = "".join(p[0] for p in _byproduct_pieces(Chem.MolFromSmiles(smiles)))
+    assert text == written

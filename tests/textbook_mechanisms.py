@@ -54,7 +54,8 @@ a THP ether through its cyclic oxocarbenium ion; a ring closed by an enamine ont
 carbonyl, its iminium ion then hydrolysed (the Hajos-Parrish ketol); the Fischer indole synthesis
 through its [3,3] shift (ten steps); a Friedel-Crafts alkylation through the AlCl3 complex of
 tert-butyl chloride; an amine added to acrylonitrile, its ketenimine anion protonated on nitrogen and
-tautomerised by water (aza-Michael); a phthalimide anion alkylated by benzyl bromide (Gabriel).
+tautomerised by water (aza-Michael); a phthalimide anion alkylated by benzyl bromide (Gabriel); a silyl enol ether added to an
+aldehyde held by TiCl4 (Mukaiyama).
 
 Each entry: (mechanism text, textbook product SMILES, drawn): `drawn` says whether the geometry
 tests draw it. All do but seven. (Fixed in the layout and the tests since: the Dieckmann
@@ -3156,6 +3157,33 @@ end
 product "O=C1c2ccccc2C(=O)N1Cc1ccccc1"
 '''
 
+# Mukaiyama aldol (Clayden, Greeves and Warren, Organic Chemistry, 2nd ed., ch. 26, from memory):
+# TiCl4 takes benzaldehyde's oxygen, the silyl enol ether of acetone adds, the silyl group moves to
+# the new alkoxide through a six-membered array, and TiCl4 lets go: the silyl ether of the aldol.
+MUKAIYAMA = '''\
+species enol_ether = "[CH2:1]=[C:2]([CH3:3])[O:4][Si:5](C)(C)C"
+species aldehyde = "[O:6]=[CH:7]c1ccccc1"
+species lewis = "Cl[Ti:8](Cl)(Cl)Cl"
+step "activation" reversible over "TiCl4" under "CH2Cl2, -78 C"
+    :O6 -> Ti8
+end
+step "C-C bond formation"
+    C1=C2 -> C1-C7
+    C7=O6 -> O6
+    :O4 -> C2=O4
+end
+step "silyl transfer"
+    :O6 -> Si5
+    Si5-O4 -> O4
+end
+step "loss of the Lewis acid"
+    Ti8-O6 -> O6
+    releases Ti8
+end
+
+product "CC(=O)CC(O[Si](C)(C)C)c1ccccc1"
+'''
+
 # Fischer indole synthesis from acetone phenylhydrazone in acid: the ene-hydrazine, its
 # [3,3]-sigmatropic shift, rearomatisation, the aniline nitrogen closing the five-membered ring
 # onto the iminium carbon, and ammonia lost: 2-methylindole.
@@ -3345,6 +3373,7 @@ TEXTBOOK = {
     "thp removal": (THP_REMOVAL, "OC1CCCCO1.CO", True),
     "enamine intramolecular aldol": (ENAMINE_ALDOL, "CC12CCC(=O)CC1(O)CCC2=O.C1CCNC1", True),
     "fischer indole": (FISCHER_INDOLE, "Cc1cc2ccccc2[nH]1.[NH4+]", False),
+    "mukaiyama aldol": (MUKAIYAMA, "CC(=O)CC(O[Si](C)(C)C)c1ccccc1.Cl[Ti](Cl)(Cl)Cl", True),
     "gabriel": (GABRIEL, "O=C1c2ccccc2C(=O)N1Cc1ccccc1.[Br-]", True),
     "aza-michael": (AZA_MICHAEL, "N#CCCN1CCCCC1.O", True),
     "friedel-crafts alkylation": (FRIEDEL_CRAFTS_ALKYLATION, "CC(C)(C)c1ccccc1.Cl.Cl[Al](Cl)Cl", False),   # the arenium's H 0.26 from a tert-butyl methyl

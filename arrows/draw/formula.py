@@ -22,6 +22,33 @@ _OPENING = "([+-\u2212"     # a leading sign is an operator: "-H2O", "+H2O"
 _CLOSING = ")],;:."
 
 
+# IUPAC's element sequence (Nomenclature of Inorganic Chemistry, Recommendations 2005, Table VI;
+# from memory): in a formula without carbon the element met earlier in it is cited first (NaCl,
+# TiCl4, SO2, NH3, H2O, HCl, POCl3), where the Hill order RDKit writes puts symbols alphabetically
+# (Cl4Ti, O2S, H3N).
+_SEQUENCE = ("Rn Xe Kr Ar Ne He Fr Cs Rb K Na Li Ra Ba Sr Ca Mg Be Ac La Y Sc Hf Zr Ti Ta Nb V W Mo Cr "
+             "Re Tc Mn Os Ru Fe Ir Rh Co Pt Pd Ni Au Ag Cu Hg Cd Zn Tl In Ga Al B Pb Sn Ge Si C Bi Sb As P N "
+             "H Po Te Se S O At I Br Cl F").split()
+_RANK = {symbol: k for k, symbol in enumerate(_SEQUENCE)}
+_ELEMENT_COUNT = re.compile(r"([A-Z][a-z]?)(\d*)")
+
+
+def inorganic_order(formula: str) -> str:
+    """RDKit's formula, its elements in IUPAC's sequence when it holds no carbon (Cl4Ti ->
+    TiCl4, O2S -> SO2, H3N -> NH3); a formula with carbon (Hill order is the convention there),
+    with an isotope label, or with an element the sequence lacks, as it is."""
+    body, charge = formula, ""
+    for k, ch in enumerate(formula):
+        if ch in "+-":
+            body, charge = formula[:k], formula[k:]
+            break
+    parts = _ELEMENT_COUNT.findall(body)
+    if "".join(symbol + count for symbol, count in parts) != body or any(
+            symbol == "C" or symbol not in _RANK for symbol, _ in parts):
+        return formula
+    return "".join(symbol + count for symbol, count in sorted(parts, key=lambda part: _RANK[part[0]])) + charge
+
+
 def formula_pieces(formula: str) -> list[Piece]:
     """RDKit's formula text as pieces: C2H6O -> C, 2 (sub), H, 6 (sub), O; HO- -> HO, minus
     (sup); SO4-2 -> SO, 4 (sub), 2 and minus (sup)."""

@@ -1017,6 +1017,13 @@ class _LayoutBuilder:
                 room[i] = room.get(i, 0) + 1
                 room[j] = room.get(j, 0) + 1
                 continue
+            # An atom that already holds four heavy neighbours (TiCl4 taking a carbonyl oxygen)
+            # keeps room for a fifth: squeezed between two of a cross, the partner stood 45
+            # degrees from each, its label on theirs.
+            for a in (i, j):
+                if any((i, j) in bonds and sum(1 for b in bonds if a in b and self.element[b[0] + b[1] - a] != 1) >= 5
+                       for bonds in self.bonds_in):
+                    room[a] = room.get(a, 0) + 1
             # A ring atom with three heavy neighbours of its own, one of them a heteroatom that
             # bonds to it to close the ring, keeps room for its fourth too, so that the ring's
             # depiction splays its two bonds out of the ring: drawn trigonal, the group it bonds

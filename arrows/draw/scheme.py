@@ -22,7 +22,7 @@ from ..trace import StepTrace, Trace
 from .curves import ArrowPlanner
 from .layout import Layout, compute_layout
 from .scene import Box, CurvedArrow, Mark, Panel, ReactionArrow, Scene, TextRun
-from .formula import MINUS, Piece, condition_pieces, formula_pieces
+from .formula import MINUS, Piece, condition_pieces, formula_pieces, inorganic_order
 from .structure import PanelStructure, StructureDrawer
 from .styles import ERROR_COLOUR, SMALLEST_TEXT_PT, Style
 from .text import FontFace, wrap
@@ -552,7 +552,7 @@ def _byproduct_pieces(fragment: Chem.Mol) -> list[Piece]:
             if text[1:2] == "-":   # an i- or t- prefix stays plain; the rest is typeset as a formula
                 return [(text[:2], "n")] + condition_pieces(text[2:])
             return condition_pieces(text)
-    pieces = formula_pieces(formula)
+    pieces = formula_pieces(inorganic_order(formula))
     unpaired = sum(atom.GetNumRadicalElectrons() for atom in fragment.GetAtoms())
     if unpaired:   # a radical is written with its dot (Br•), as chemists do (common practice)
         pieces.append(("\u2022" * unpaired, "sup"))
