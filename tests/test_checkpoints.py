@@ -112,3 +112,25 @@ def test_a_product_written_as_another_tautomer_is_called_one():
     assert [d.code for d in errors] == ["AR402"] and "tautomer" not in errors[0].message
     _, diags = check_text(DECARBOXYLATION.format(product="CC(O)=C.O=C=O"))
     assert not [d for d in diags if d.severity == "error"]
+
+
+def test_a_mismatch_is_explained_on_the_symmetric_reading_with_fewest_differences():
+    """Acetone's enolate checked against its enol: the two differ at the oxygen alone (charge -1
+    and no hydrogen, against neutral O-H; textbook keto-enol chemistry). The common part of the
+    two sits in the enolate two ways (either methyl as the CH2); the first way RDKit gave read the
+    enol's CH2 onto the enolate's untouched methyl, and the explanation listed five differences
+    (hydrogens on both methyls, both C-C bonds, the oxygen's charge). It names the oxygen alone."""
+    text = '''species ketone = "[CH3:1][C:2](=[O:3])[CH3:4]"
+species base = "[OH-:5]"
+step "enolate"
+    :O5 -> H(C1)
+    C1-H -> C1=C2
+    C2=O3 -> O3
+    expect "CC(O)=C"
+end
+'''
+    _, diags = check_text(text)
+    found = [d for d in diags if d.code == "AR401"]
+    assert len(found) == 1
+    explained = found[0].message.split(": ", 1)[1]
+    assert explained == "O3: expected charge 0, the moves give -1 (a proton transfer is missing?)", explained

@@ -213,8 +213,31 @@ def _alignment(written: Chem.Mol, derived: Chem.Mol) -> dict[int, int]:
         return {}
     query = Chem.MolFromSmarts(result.smartsString)
     left = written.GetSubstructMatch(query, useChirality=False)
-    right = derived.GetSubstructMatch(query, useChirality=False)
-    return dict(zip(left, right))
+    # Of the ways the common part sits in the derived structure (a symmetric one sits several
+    # ways: acetone's enol on either methyl), the one with the fewest differences, so the
+    # explanation names what is wrong and not what a mirrored reading makes look wrong.
+    rights = derived.GetSubstructMatches(query, uniquify=False, useChirality=False, maxMatches=256)
+    if not left or not rights:
+        return {}
+    return min((dict(zip(left, right)) for right in rights), key=lambda align: _differences(written, derived, align))
+
+
+def _differences(written: Chem.Mol, derived: Chem.Mol, align: dict[int, int]) -> int:
+    """How many atoms (charge, hydrogens) and bonds differ between the two under `align`."""
+    count = 0
+    for wi, di in align.items():
+        w, d = written.GetAtomWithIdx(wi), derived.GetAtomWithIdx(di)
+        count += (w.GetFormalCharge() != d.GetFormalCharge()) + (w.GetTotalNumHs() != d.GetTotalNumHs())
+    back = {di: wi for wi, di in align.items()}
+    for bond in written.GetBonds():
+        i, j = bond.GetBeginAtomIdx(), bond.GetEndAtomIdx()
+        if i in align and j in align:
+            count += _order(bond) != _order(derived.GetBondBetweenAtoms(align[i], align[j]))
+    for bond in derived.GetBonds():
+        i, j = bond.GetBeginAtomIdx(), bond.GetEndAtomIdx()
+        if i in back and j in back:
+            count += written.GetBondBetweenAtoms(back[i], back[j]) is None   # a bond only the moves made
+    return count
 
 
 def _signed(charge: int) -> str:
