@@ -55,7 +55,7 @@ carbonyl, its iminium ion then hydrolysed (the Hajos-Parrish ketol); the Fischer
 through its [3,3] shift (ten steps); a Friedel-Crafts alkylation through the AlCl3 complex of
 tert-butyl chloride; an amine added to acrylonitrile, its ketenimine anion protonated on nitrogen and
 tautomerised by water (aza-Michael); a phthalimide anion alkylated by benzyl bromide (Gabriel); a silyl enol ether added to an
-aldehyde held by TiCl4 (Mukaiyama).
+aldehyde held by TiCl4 (Mukaiyama); an alcohol acetylated through DMAP's acylpyridinium ion.
 
 Each entry: (mechanism text, textbook product SMILES, drawn): `drawn` says whether the geometry
 tests draw it. All do but seven. (Fixed in the layout and the tests since: the Dieckmann
@@ -3184,6 +3184,38 @@ end
 product "CC(=O)CC(O[Si](C)(C)C)c1ccccc1"
 '''
 
+# Nucleophilic catalysis of an acetylation by DMAP (Clayden, Greeves and Warren, Organic
+# Chemistry, 2nd ed., ch. 10, from memory): the pyridine nitrogen adds to acetic anhydride, acetate
+# leaves, ethanol adds to the acylpyridinium ion, DMAP leaves and triethylamine takes the proton:
+# ethyl acetate.
+DMAP_ACETYLATION = '''\
+species anhydride = "[CH3:1][C:2](=[O:3])[O:4][C:5](=[O:6])[CH3:7]"
+species dmap = "CN(C)c1cc[n:8]cc1"
+species alcohol = "[CH3:9][CH2:10][OH:11]"
+species base = "CC[N:12](CC)CC"
+step "acylpyridinium" reversible
+    :N8 -> C2
+    C2=O3 -> O3
+end
+step "collapse" reversible
+    :O3 -> C2=O3
+    C2-O4 -> O4
+end
+step "alcohol adds"
+    :O11 -> C2
+    C2=O3 -> O3
+end
+step "pyridine leaves"
+    :O3 -> C2=O3
+    C2-N8 -> N8
+end
+step "deprotonation"
+    :N12 -> H(O11)
+    O11-H -> O11
+end
+product "CCOC(C)=O"
+'''
+
 # Fischer indole synthesis from acetone phenylhydrazone in acid: the ene-hydrazine, its
 # [3,3]-sigmatropic shift, rearomatisation, the aniline nitrogen closing the five-membered ring
 # onto the iminium carbon, and ammonia lost: 2-methylindole.
@@ -3373,6 +3405,7 @@ TEXTBOOK = {
     "thp removal": (THP_REMOVAL, "OC1CCCCO1.CO", True),
     "enamine intramolecular aldol": (ENAMINE_ALDOL, "CC12CCC(=O)CC1(O)CCC2=O.C1CCNC1", True),
     "fischer indole": (FISCHER_INDOLE, "Cc1cc2ccccc2[nH]1.[NH4+]", False),
+    "dmap acetylation": (DMAP_ACETYLATION, "CCOC(C)=O.CN(C)c1ccncc1.CC(=O)[O-].CC[NH+](CC)CC", True),
     "mukaiyama aldol": (MUKAIYAMA, "CC(=O)CC(O[Si](C)(C)C)c1ccccc1.Cl[Ti](Cl)(Cl)Cl", True),
     "gabriel": (GABRIEL, "O=C1c2ccccc2C(=O)N1Cc1ccccc1.[Br-]", True),
     "aza-michael": (AZA_MICHAEL, "N#CCCN1CCCCC1.O", True),

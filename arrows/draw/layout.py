@@ -2583,6 +2583,12 @@ class _LayoutBuilder:
                         # as the oxygen takes its place): it waits facing its next partner.
                         arrival = self._backside_arrival(cluster, following[0], cluster.placement[following[0]])
                         stay = self._waiting(index, (start, end), arrival, following[0])
+                    elif following is not None and following[0] in cluster.placement \
+                            and self._nearest_other(index, (start, end), stay) < _CROWDED:
+                        # Where it will next be, something else stands in these panels (two
+                        # reagents of later steps, both shown in the first panel, meet where
+                        # each waits): it waits back along its next line of approach instead.
+                        stay = self._waiting(index, (start, end), cluster.placement[following[0]], following[0])
                     cluster.placement[start] = stay
             self._apply(index)
             return True
