@@ -9,7 +9,7 @@ from rdkit import Chem
 
 from .diagnostics import Diagnostic
 from .electrons import AtomNumbers, ElectronState, StepChange, apply_step
-from .model import BondPair, BondSink, HydrogenOn, Location, Mechanism, Species, Step
+from .model import AtomRef, BondPair, BondSink, HydrogenOn, Location, Mechanism, Species, Step
 from .rdkit_io import as_written, atom_list, canonical, rdkit_messages, read_smiles, sanitize
 
 
@@ -73,6 +73,15 @@ def hydrogen_parents_and_entries(mechanism: Mechanism) -> tuple[set[int], list[t
     return parents, entries
 
 
+def named_pi_bonds(mechanism: Mechanism) -> frozenset[frozenset[int]]:
+    """Map numbers of the two atoms of every bond a move starts from written `=` (a pi pair the
+    author sees): which Kekule structure of a ring written aromatic the arrows were drawn on."""
+    return frozenset(frozenset((move.source.bond.first.map_number, move.source.bond.second.map_number))
+                     for step in mechanism.steps for move in step.moves
+                     if isinstance(move.source, BondPair) and move.source.bond.order == 2
+                     and isinstance(move.source.bond.first, AtomRef) and isinstance(move.source.bond.second, AtomRef))
+
+
 def species_mol(species: Species, explicit_h_on: set[int]) -> tuple[Optional[Chem.Mol], Optional[Diagnostic]]:
     """A species as a Kekulé Mol whose hydrogen counts are fixed (never recomputed by RDKit), with
     explicit hydrogen atoms on the atoms whose hydrogens move."""
@@ -81,11 +90,13 @@ def species_mol(species: Species, explicit_h_on: set[int]) -> tuple[Optional[Che
     return mol, problem
 
 
-def read_species(species: Species, explicit_h_on: set[int]
+def read_species(species: Species, explicit_h_on: set[int], pi_bonds: frozenset[frozenset[int]] = frozenset()
                  ) -> tuple[Optional[Chem.Mol], Optional[AtomNumbers], list[tuple[int, int]], Optional[Diagnostic]]:
     """species_mol, with the numbers of its atoms (for ElectronState.of_molecule) and (index, map
     number) of its mapped atoms, read in the walk over the atoms that fixes the hydrogen counts.
-    Called inside an rdkit_messages() block (RDKit's log of a bad SMILES is not ours to print)."""
+    A ring written aromatic takes the Kekule structure that has most of `pi_bonds` (map-number
+    pairs the arrows start from as double bonds) double. Called inside an rdkit_messages() block
+    (RDKit's log of a bad SMILES is not ours to print)."""
     # Without aromaticity perception: a Kekulé structure written by the author keeps its double bonds
     # (the arrows name them); lower-case aromatic input is kekulized by RDKit.
     mol = as_written(species.smiles)
@@ -97,10 +108,14 @@ def read_species(species: Species, explicit_h_on: set[int]
     chiral_written, geometry_read = "@" in smiles or "|" in smiles, geometry_written or "|" in smiles
     elements = [a.GetAtomicNum() for a in atoms]   # sanitizing changes no element
     try:
+        # Written aromatic? Asked before sanitizing, whose Kekule step clears the flags.
+        aromatic = bool(pi_bonds) and any(b.GetIsAromatic() for b in mol.GetBonds())
         # The smallest set of rings only where RDKit's stereo perception reads it: the state the
         # species joins (Chem.CombineMols) keeps no rings, and each step finds its own (electrons._settle).
         sanitize(mol, elements, aromaticity=False, rings=chiral_written or geometry_read)
         Chem.Kekulize(mol, clearAromaticFlags=True)
+        if aromatic:
+            _kekule_as_drawn(mol, pi_bonds)
         if geometry_written:
             # Read without sanitizing, a written E/Z is only a direction on each neighbouring bond:
             # RDKit's perception turns it into the double bond's own configuration, which the
@@ -152,6 +167,36 @@ def read_species(species: Species, explicit_h_on: set[int]
     return mol, AtomNumbers(elements, charges, hydrogens, chiral, geometry_read), mapped, None
 
 
+def _kekule_as_drawn(mol: Chem.Mol, pi_bonds: frozenset[frozenset[int]]) -> None:
+    """Give `mol`, kekulized by RDKit from a ring written aromatic, the Kekule structure in which
+    most of `pi_bonds` are double (benzene's C1=C6 named by an arrow, where RDKit had put C1=C2):
+    the author drew the arrows on one structure, and either is the molecule."""
+    maps = {a.GetIdx(): a.GetAtomMapNum() for a in mol.GetAtoms() if a.GetAtomMapNum()}
+
+    def named_double(m: Chem.Mol) -> int:
+        return sum(1 for b in m.GetBonds() if b.GetBondType() == Chem.BondType.DOUBLE
+                   and frozenset((maps.get(b.GetBeginAtomIdx()), maps.get(b.GetEndAtomIdx()))) in pi_bonds)
+
+    relevant = {b.GetIdx() for b in mol.GetBonds()
+                if frozenset((maps.get(b.GetBeginAtomIdx()), maps.get(b.GetEndAtomIdx()))) in pi_bonds}
+    if not relevant or all(mol.GetBondWithIdx(k).GetBondType() == Chem.BondType.DOUBLE for k in relevant):
+        return
+    best, best_count = None, named_double(mol)
+    # RDKit's resonance enumerator lists every Kekule structure (benzene two, naphthalene three).
+    for form in Chem.ResonanceMolSupplier(mol, Chem.KEKULE_ALL):
+        if form is None:
+            continue
+        count = named_double(form)
+        if count > best_count:
+            best, best_count = form, count
+    if best is None:
+        return
+    for bond in best.GetBonds():
+        order = bond.GetBondType()
+        if order in (Chem.BondType.SINGLE, Chem.BondType.DOUBLE):
+            mol.GetBondWithIdx(bond.GetIdx()).SetBondType(order)
+
+
 def _map_location(species: Species, number: int, occurrence: int) -> Location:
     """Where the n-th bracket atom carrying `number` is written in the species SMILES."""
     starts = [m.start() for m in re.finditer(rf"\[[^\[\]]*:{number}\]", species.smiles)]
@@ -197,6 +242,7 @@ class Replay:
         is reported at once; each as a state of its own, to be appended to the mechanism's."""
         mechanism, diags = self.mechanism, self.diagnostics
         explicit_h_on, entries = hydrogen_parents_and_entries(mechanism)
+        pi_bonds = named_pi_bonds(mechanism)
         names: dict[str, Location] = {}
         seen_maps: dict[int, Location] = {}
         loaded: dict[int, ElectronState] = {}
@@ -208,7 +254,7 @@ class Replay:
                     diags.append(Diagnostic("AR108", f"the name `{sp.name}` is already used (line {names[sp.name].line})",
                                             sp.loc, hint="give each species its own name"))
                 names.setdefault(sp.name, sp.loc)
-                mol, numbers, mapped, problem = read_species(sp, explicit_h_on)
+                mol, numbers, mapped, problem = read_species(sp, explicit_h_on, pi_bonds)
                 if problem:
                     diags.append(problem)
                     continue

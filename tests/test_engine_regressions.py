@@ -37,6 +37,25 @@ product "BrC1C=CC=C[CH+]1"
     assert _errors(text) == []
 
 
+def test_a_ring_written_aromatic_takes_the_kekule_structure_the_arrows_name():
+    """Benzene written aromatic (lower case) and attacked from its C1=C6 pi bond: both Kekule
+    structures are the molecule (common practice), and the arrows were drawn on the one with
+    C1=C6. RDKit's kekulization had put C1=C2, C3=C4, C5=C6, and the move was rejected (AR202,
+    "C1-C6 is a single bond"). The arenium ion comes out as with the Kekule species above (RDKit
+    judges the product)."""
+    text = '''
+species benzene = "[cH:1]1[cH:2][cH:3][cH:4][cH:5][cH:6]1"
+species electrophile = "[Br+:7]"
+step "attack"
+    C1=C6 -> C1-Br7
+end
+product "BrC1C=CC=C[CH+]1"
+'''
+    assert _errors(text) == []
+    assert _errors(text.replace("C1=C6 -> C1-Br7", "C1=C2 -> C1-Br7").replace("C=C[CH+]1", "C=CC1").replace(
+        "BrC1C=CC=CC1", "BrC1[CH+]C=CC=C1")) == []
+
+
 def test_aromatic_species_still_kekulized():
     """Lower-case aromatic SMILES still give a Kekulé state with integral bond orders and pyrrole's N-H kept."""
     mol, problem = species_mol(Species("pyrrole", "c1cc[nH:1]c1"), set())
