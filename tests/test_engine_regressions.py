@@ -23,18 +23,19 @@ def test_species_keeps_the_kekule_structure_the_author_wrote():
         assert bond.GetBondTypeAsDouble() == order, (first, second)
 
 
-def test_electrophile_attacks_the_written_pi_bond_of_benzene():
-    """Bromination of benzene, first step: the C1=C6 pi pair written in the species attacks Br+
-    and leaves the cation on C6 (arenium ion; textbook electrophilic aromatic substitution, memory)."""
-    text = '''
-species benzene = "[CH:6]1=[CH:1][CH:2]=[CH:3][CH:4]=[CH:5]1"
-species electrophile = "[Br+:7]"
+# Br+ taken by benzene's C1=C6 pi bond, after a benzene species line.
+_BROMINATION = '''species electrophile = "[Br+:7]"
 step "attack"
     C1=C6 -> C1-Br7
 end
 product "BrC1C=CC=C[CH+]1"
 '''
-    assert _errors(text) == []
+
+
+def test_electrophile_attacks_the_written_pi_bond_of_benzene():
+    """Bromination of benzene, first step: the C1=C6 pi pair written in the species attacks Br+
+    and leaves the cation on C6 (arenium ion; textbook electrophilic aromatic substitution, memory)."""
+    assert _errors('species benzene = "[CH:6]1=[CH:1][CH:2]=[CH:3][CH:4]=[CH:5]1"\n' + _BROMINATION) == []
 
 
 def test_a_ring_written_aromatic_takes_the_kekule_structure_the_arrows_name():
@@ -43,14 +44,7 @@ def test_a_ring_written_aromatic_takes_the_kekule_structure_the_arrows_name():
     C1=C6. RDKit's kekulization had put C1=C2, C3=C4, C5=C6, and the move was rejected (AR202,
     "C1-C6 is a single bond"). The arenium ion comes out as with the Kekule species above (RDKit
     judges the product)."""
-    text = '''
-species benzene = "[cH:1]1[cH:2][cH:3][cH:4][cH:5][cH:6]1"
-species electrophile = "[Br+:7]"
-step "attack"
-    C1=C6 -> C1-Br7
-end
-product "BrC1C=CC=C[CH+]1"
-'''
+    text = 'species benzene = "[cH:1]1[cH:2][cH:3][cH:4][cH:5][cH:6]1"\n' + _BROMINATION
     assert _errors(text) == []
     assert _errors(text.replace("C1=C6 -> C1-Br7", "C1=C2 -> C1-Br7").replace("C=C[CH+]1", "C=CC1").replace(
         "BrC1C=CC=CC1", "BrC1[CH+]C=CC=C1")) == []
