@@ -151,6 +151,12 @@ def _clear_of(box: Box, lines: list[tuple[complex, complex]], limit: float, samp
     return True
 
 
+def _level_and_close(sign: Box, labels: list[Box], size: float) -> bool:
+    """Whether a charge sign stands level with another atom's label and less than half its size
+    from it across: between two labels, "O- O" reads as O-O, a bond."""
+    return any(sign.y0 < b.y1 and b.y0 < sign.y1 and max(b.x0 - sign.x1, sign.x0 - b.x1) < 0.5 * size for b in labels)
+
+
 def _separation(a: Box, b: Box) -> float:
     """How far apart two boxes are along the axis that separates them most (negative: overlap)."""
     return max(b.x0 - a.x1, a.x0 - b.x1, b.y0 - a.y1, a.y0 - b.y1)
@@ -723,7 +729,7 @@ class StructureDrawer:
             grown = Box(tb.x0 - 0.1 * size, tb.y0 - 0.1 * size, tb.x1 + 0.1 * size, tb.y1 + 0.1 * size)
             if any(segment_hits_box(centre + d * out.label_reach(i, d), centre + d * reach, grown)
                    for d in out.bond_directions[i]) or any(grown.overlaps(b, 0.2 * size) for b in near) \
-                    or any(tb.overlaps(b) for b in own):
+                    or any(tb.overlaps(b) for b in own) or _level_and_close(tb, near, size):
                 continue
             if strokes is None:
                 # Strokes of the bonds close by: a sign on a ring bond beside NH2+ reads as
@@ -795,6 +801,9 @@ class StructureDrawer:
             mark, slid = self._side_text_at(kind, i, text, out, direction, width, cap, size, italic)
             # Slid far out along a crowded direction, the text no longer reads as the atom's.
             gap = min((_separation(mark.box, b) for b in others), default=math.inf)
+            if kind == "charge" and _level_and_close(mark.box, [a.box for j, a in out.atoms.items()
+                                                                 if j != i and a.box is not None], size):
+                gap = min(gap, 0.0)
             on_stroke = _sign_near_stroke(mark.box, size, strokes, _SIDE_SIGN_STROKE_GAP) or (
                 text.endswith(MINUS) and (self._minus_beside_stroke(mark.runs[-1], strokes) or (
                     labelled and abs(direction.imag) < _LEVEL_WITH_LABEL))) or any(
