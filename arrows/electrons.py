@@ -715,6 +715,16 @@ def _bond_faults(state: ElectronState, step: Step, step_index: int, replay: _Ste
         if before == 0 and after == 1 and isinstance(first.sink, AtomSink):
             # One fishhook from an atom to another: perhaps an electron handed over, no bond meant.
             hint += f"; to hand the electron over with no bond, end the arrow at :{first.sink.atom}"
+        elif after < before and isinstance(first.source, BondPair) and first.electrons == 1:
+            # A bond split by fishhooks gives one electron to each side: one went, the other is
+            # still to be moved (the pi bond of an alkene a radical adds to).
+            sink = first.sink
+            reached = {replay.resolve(sink.atom)} if isinstance(sink, AtomSink) else {
+                replay.resolve(sink.bond.first), replay.resolve(sink.bond.second)}
+            left = [end for end in key if end not in reached]
+            hint = "a bond split by fishhooks sends one electron to each side"
+            if len(left) == 1:
+                hint += f": add `{first.source} ~> {state.label(left[0])}`"
         found.append(Diagnostic("AR303", f"the bond {label} is left with {after} electron{'s' if after > 1 else ''}",
                                 first.loc, hint, bonds=bonds, step=step_index))
     elif after > 6:

@@ -210,6 +210,9 @@ TWINS = [
     # The colon dropped: the fishhook now makes half a Na-O bond instead of handing the electron over.
     Twin("electron transfer written as a bond", KETYL, ".Na1 ~> :O3", ".Na1 ~> O3", "AR303", ".Na1 ~> O3",
          hint_says=("end the arrow at :O3",)),
+    # Bromine atom adding to propene with the pi bond's second fishhook left out: the hint writes it.
+    Twin("pi bond split by one fishhook", TEXTBOOK["radical hbr addition"][0], "    C4=C5 ~> C4\n", "", "AR303",
+         "C4=C5 ~> C5-Br3", says=("C4-C5", "3 electrons"), hint_says=("`C4=C5 ~> C4`",)),
     Twin("odd-electron bond", RADICALS, "    .C2 ~> C1-C2\n", "", "AR303", ".C1 ~> C1-C2", says=("1 electron",)),
     # Without the Cl-Cl bond breaking, Cl1 would carry two bonds and three lone pairs (charge -1): a
     # valence RDKit does not allow (RDKit as independent judge).
