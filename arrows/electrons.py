@@ -772,6 +772,12 @@ def _room_making_hint(state: ElectronState, i: int, changes: dict[Pair, tuple[in
         bond = f"{label(i)}{'=' if order == 2 else '#'}{label(j)}"
         return f"a bond to {label(i)} must break in the same step: its pi bond, for example `{bond} -> {label(j)}`"
     leaving = [j for j, order in kept if state.elements[j] in _LEAVING_ELEMENTS]
+    if leaving and state.elements[i] == 1:
+        # A hydrogen taken by a base: the pair of its bond stays on the atom it leaves, written
+        # as the language writes an X-H bond.
+        hydrogen = "H" if label(i).startswith("H(") else label(i)   # C3-H for C3's, H5 for a mapped one
+        return (f"the bond that holds {label(i)} must break in the same step: "
+                f"`{label(leaving[0])}-{hydrogen} -> {label(leaving[0])}`")
     if leaving:
         bond = f"{label(i)}-{label(leaving[0])}"
         return (f"a bond to {label(i)} must break in the same step: the bond to a leaving group, for example "

@@ -204,7 +204,11 @@ TWINS = [
          "C3=C4 -> C4-C5", says=("C5", "10 valence electrons"), hint_says=("`C5=C6 -> C6`",)),
     # Without the H-Br pair leaving, the proton would be bonded to both C3 and Br4 (duet rule).
     Twin("hydrogen with two bonds", HBR_ADDITION, "    H5-Br4 -> Br4\n", "", "AR301", "C2=C3 -> C3-H5",
-         says=("H5",), alone=False),
+         says=("H5",), hint_says=("`Br4-H5 -> Br4`",), alone=False),
+    # A base's arrow to an O-H hydrogen without the O-H pair going back to oxygen: the hint writes
+    # that move as the language does (it wrote `H(O5)-O5 -> O5`).
+    Twin("proton taken without its bond breaking", ACID_BASE, "    O4-H -> O4\n", "", "AR301", ":O5 -> H(O4)",
+         says=("H(O4)",), hint_says=("`O4-H -> O4`",), alone=False),
     Twin("bond above triple", NITRILE, ":C1 -> C3", ":C1 -> C1#N2", "AR302", ":C1 -> C1#N2"),
     # One fishhook alone leaves a one-electron C1-C2 bond.
     # The colon dropped: the fishhook now makes half a Na-O bond instead of handing the electron over.
