@@ -110,7 +110,9 @@ CODES = _table(
          'C2=O3 -> C2=O3   # a pair of C2=O3 moves onto O3 (C2=O3 -> O3) or into a neighbouring bond'),
     Code("AR301", ERROR, "octet exceeded",
          "After the step a second-row atom holds more than eight valence electrons (or hydrogen more "
-         "than two). Lewis octet and duet rules (common practice).",
+         "than two). Lewis octet and duet rules (common practice). The hint names the move that makes "
+         "room: the atom's pi bond breaking, a leaving group's bond, an X-H pair going back to X; for "
+         "a base drawn onto a carbon that holds the proton, the arrow to the hydrogen.",
          'five bonds to one carbon'),
     Code("AR302", ERROR, "bond order out of range",
          "After the step a bond would be more than triple.",

@@ -748,11 +748,27 @@ def _overfull_shell(state: ElectronState, step: Step, step_index: int, replay: _
     if shell <= limit or z > 10:
         return []
     label = state.label(i)
+    hint = _room_making_hint(state, i, changes)
+    if hint == _NO_ROOM_NAMED:
+        hint = _proton_hint(state, step, replay, i) or hint
     return [Diagnostic("AR301", f"{label} would hold {shell} valence electrons "
                        f"({bonds} bond{'s' if bonds != 1 else ''}"
                        f"{f', {nonbonding // 2} lone pair(s)' if nonbonding >= 2 else ''}); the limit is {limit}",
-                       _first_move_touching(step, replay, i), _room_making_hint(state, i, changes),
-                       atoms=(label,), step=step_index)]
+                       _first_move_touching(step, replay, i), hint, atoms=(label,), step=step_index)]
+
+
+def _proton_hint(state: ElectronState, step: Step, replay: _StepReplay, i: int) -> Optional[str]:
+    """For a lone pair sent onto a carbon that holds hydrogens and has no bond to give up (a base
+    drawn attacking the alpha carbon instead of its proton): the arrow a proton transfer takes."""
+    atom = state.mol.GetAtomWithIdx(i)
+    if state.elements[i] != 6 or not (atom.GetTotalNumHs() or any(n.GetAtomicNum() == 1 for n in atom.GetNeighbors())):
+        return None
+    for move in step.moves:
+        if isinstance(move.sink, AtomSink) and not isinstance(move.source, BondPair) \
+                and replay.resolve(move.sink.atom) == i:
+            return (f"a base takes a proton, not the carbon: end the arrow at one of {state.label(i)}'s "
+                    f"hydrogens, `{move.source} -> H({state.label(i)})`")
+    return None
 
 
 _LEAVING_ELEMENTS = frozenset((7, 8, 9, 15, 16, 17, 35, 53))   # N, O, F, P, S, Cl, Br, I
@@ -782,7 +798,10 @@ def _room_making_hint(state: ElectronState, i: int, changes: dict[Pair, tuple[in
         bond = f"{label(i)}-{label(leaving[0])}"
         return (f"a bond to {label(i)} must break in the same step: the bond to a leaving group, for example "
                 f"`{bond} -> {label(leaving[0])}`")
-    return "a bond to this atom must break in the same step (for example C=O -> O)"
+    return _NO_ROOM_NAMED
+
+
+_NO_ROOM_NAMED = "a bond to this atom must break in the same step (for example C=O -> O)"
 
 
 def _next_framework(state: ElectronState, changes: dict[Pair, tuple[int, int]]):

@@ -196,6 +196,10 @@ TWINS = [
 
     # derived structures (AR3xx)
     # Without the leaving group's arrow C2 would carry five bonds: ten valence electrons.
+    # The base drawn attacking the carbon that holds the proton (a common slip): the hint writes
+    # the arrow to the hydrogen.
+    Twin("base attacks the carbon, not its proton", E2, ":O1 -> H(C2)", ":O1 -> C2", "AR301", ":O1 -> C2",
+         says=("C2", "10 valence electrons"), hint_says=("`:O1 -> H(C2)`",), alone=False),
     Twin("pentavalent carbon", SN2, "    C2-Br3 -> Br3\n", "", "AR301", ":O1 -> C2",
          says=("10 valence electrons",), hint_says=("leaving group", "`C2-Br3 -> Br3`")),
     # A Diels-Alder with the dienophile's arrow left out: C5 gains the C4-C5 bond and keeps its pi
