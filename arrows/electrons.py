@@ -18,7 +18,7 @@ from .diagnostics import Diagnostic
 from .model import (AtomSink, BareAtom, BondPair, BondRef, HydrogenOn, Location, LonePair, Move, NonbondingSink, Step,
                     UnpairedElectron, CONNECTORS)
 from .configuration import carry_configuration, has_configuration, may_configure
-from .rdkit_io import atom_list, valence_electrons
+from .rdkit_io import ELECTRONEGATIVITY, atom_list, valence_electrons
 
 _BOND_TYPES = {1: Chem.BondType.SINGLE, 2: Chem.BondType.DOUBLE, 3: Chem.BondType.TRIPLE}
 # RDKit's valence check and computed properties (implicit hydrogens, explicit valence): what makes a
@@ -748,13 +748,37 @@ def _overfull_shell(state: ElectronState, step: Step, step_index: int, replay: _
     if shell <= limit or z > 10:
         return []
     label = state.label(i)
-    hint = _room_making_hint(state, i, changes)
+    hint = _misdirected_pair_hint(state, step, replay, i) or _room_making_hint(state, i, changes)
     if hint == _NO_ROOM_NAMED:
         hint = _proton_hint(state, step, replay, i) or hint
     return [Diagnostic("AR301", f"{label} would hold {shell} valence electrons "
                        f"({bonds} bond{'s' if bonds != 1 else ''}"
                        f"{f', {nonbonding // 2} lone pair(s)' if nonbonding >= 2 else ''}); the limit is {limit}",
                        _first_move_touching(step, replay, i), hint, atoms=(label,), step=step_index)]
+
+
+def _misdirected_pair_hint(state: ElectronState, step: Step, replay: _StepReplay, i: int) -> Optional[str]:
+    """For an atom made overfull by the pair of its own bond sent onto it. If it is the more
+    electronegative end, a nucleophile's arrow onto it belongs at the other end (an enolate drawn
+    onto the carbonyl oxygen, `:C1 -> O6` beside `C5=O6 -> O6`: `:C1 -> C5`); otherwise the pair
+    belongs at the other end (`C5=O6 -> C5` beside `:C1 -> C5`: `C5=O6 -> O6`)."""
+    label = state.label
+    own = [m for m in step.moves if isinstance(m.source, BondPair) and isinstance(m.sink, AtomSink)
+           and replay.resolve(m.sink.atom) == i
+           and i in (replay.resolve(m.source.bond.first), replay.resolve(m.source.bond.second))]
+    if not own:
+        return None
+    ends = (replay.resolve(own[0].source.bond.first), replay.resolve(own[0].source.bond.second))
+    other = ends[0] if ends[1] == i else ends[1]
+    negativity = [ELECTRONEGATIVITY.get(state.elements[a], 0.0) for a in (i, other)]
+    if negativity[0] > negativity[1]:
+        for move in step.moves:
+            if isinstance(move.sink, AtomSink) and not isinstance(move.source, BondPair) \
+                    and replay.resolve(move.sink.atom) == i:
+                return f"a nucleophile adds at the other end of {own[0].source}: `{move.source} -> {label(other)}`"
+        return None
+    return (f"the pair of {own[0].source} goes to its more electronegative end: "
+            f"`{own[0].source} -> {label(other)}`") if negativity[1] > negativity[0] else None
 
 
 def _proton_hint(state: ElectronState, step: Step, replay: _StepReplay, i: int) -> Optional[str]:

@@ -154,6 +154,12 @@ def valence_electrons(atomic_num: int) -> int:
     return Chem.GetPeriodicTable().GetNOuterElecs(atomic_num)
 
 
+# Pauling electronegativities (textbook values, memory) of the main-group elements mechanisms
+# meet most: which end of a bond takes its pair in a heterolysis.
+ELECTRONEGATIVITY = {1: 2.20, 5: 2.04, 6: 2.55, 7: 3.04, 8: 3.44, 9: 3.98, 14: 1.90, 15: 2.19, 16: 2.58,
+                     17: 3.16, 35: 2.96, 53: 2.66}
+
+
 def period(atomic_num: int) -> int:
     for limit, row in ((2, 1), (10, 2), (18, 3), (36, 4), (54, 5), (86, 6)):
         if atomic_num <= limit:

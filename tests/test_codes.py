@@ -200,6 +200,12 @@ TWINS = [
     # the arrow to the hydrogen.
     Twin("base attacks the carbon, not its proton", E2, ":O1 -> H(C2)", ":O1 -> C2", "AR301", ":O1 -> C2",
          says=("C2", "10 valence electrons"), hint_says=("`:O1 -> H(C2)`",), alone=False),
+    # An enolate drawn onto the carbonyl oxygen, and the carbonyl's pi pair sent onto the carbon
+    # that the enolate attacks: the hint moves the one arrow that is misdirected.
+    Twin("nucleophile onto the carbonyl oxygen", ALDOL, ":C1 -> C5", ":C1 -> O6", "AR301", ":C1 -> O6",
+         says=("O6", "10 valence electrons"), hint_says=("`:C1 -> C5`",), alone=False),
+    Twin("pi pair sent to the carbonyl carbon", ALDOL, "C5=O6 -> O6", "C5=O6 -> C5", "AR301", ":C1 -> C5",
+         says=("C5",), hint_says=("`C5=O6 -> O6`",), alone=False),
     Twin("pentavalent carbon", SN2, "    C2-Br3 -> Br3\n", "", "AR301", ":O1 -> C2",
          says=("10 valence electrons",), hint_says=("leaving group", "`C2-Br3 -> Br3`")),
     # A Diels-Alder with the dienophile's arrow left out: C5 gains the C4-C5 bond and keeps its pi

@@ -4,6 +4,7 @@ from __future__ import annotations
 from typing import Iterator
 
 from ..diagnostics import Diagnostic
+from ..rdkit_io import ELECTRONEGATIVITY
 from ..trace import StepTrace
 from . import Check
 
@@ -60,12 +61,6 @@ def unstabilised_primary_cation(mol, i: int) -> bool:
     return carbons <= 1
 
 
-# Pauling electronegativities (textbook values, memory) of the elements AR505 judges and of the
-# atoms they are commonly bonded to.
-_ELECTRONEGATIVITY = {1: 2.20, 5: 2.04, 6: 2.55, 7: 3.04, 8: 3.44, 9: 3.98, 14: 1.90, 15: 2.19, 16: 2.58,
-                      17: 3.16, 35: 2.96, 53: 2.66}
-
-
 def _sextet_hint(st: StepTrace, i: int) -> str:
     """AR505's hint: where the step split a bond of atom i with the pair going to the other atom,
     a less electronegative one (a C-Br pair sent to carbon), the arrow that was meant."""
@@ -74,7 +69,7 @@ def _sextet_hint(st: StepTrace, i: int) -> str:
         if move.source_kind == "bond" and move.electrons == 2 and i in move.source_atoms \
                 and len(move.sink_atoms) == 1 and move.sink_atoms[0] != i and move.sink_atoms[0] in move.source_atoms:
             other = move.sink_atoms[0]
-            if _ELECTRONEGATIVITY.get(st.after.elements[other], 0.0) < _ELECTRONEGATIVITY[st.after.elements[i]]:
+            if ELECTRONEGATIVITY.get(st.after.elements[other], 0.0) < ELECTRONEGATIVITY[st.after.elements[i]]:
                 return (f"the pair of {label(other)}-{label(i)} went to {label(other)}; in a heterolysis the more "
                         f"electronegative {label(i)} takes it: `{label(other)}-{label(i)} -> {label(i)}`")
     return ("such ions are rare: were single-electron arrows (~>) meant, as for a homolysis, or should a bond "
