@@ -62,7 +62,6 @@ _ALONG_BOND = math.radians(35)   # least angle between a travelling hydrogen and
 _SEVENTY = math.radians(70)
 _BEHIND_A_BOND = math.radians(45)   # a partner this near a bond's direction lies behind the bond
 _OPEN_ANGLE = math.radians(105)   # least angle a hydrogen leaning toward its partner keeps from a lone other bond
-_FOLDED = math.radians(105)   # a hydrogen nearer than this to a trigonal holder's one other bond reads as folded
 _OFF_A_BOND = math.radians(35)   # least angle between a travelling hydrogen's bond and its holder's others
 _SIXTY = math.radians(60)
 _BACKSIDE_ROOM = math.radians(55)   # a nucleophile's line of approach from the centre's other bonds
@@ -1021,8 +1020,7 @@ class _LayoutBuilder:
             # keeps room for a fifth: squeezed between two of a cross, the partner stood 45
             # degrees from each, its label on theirs.
             for a in (i, j):
-                if any((i, j) in bonds and sum(1 for b in bonds if a in b and self.element[b[0] + b[1] - a] != 1) >= 5
-                       for bonds in self.bonds_in):
+                if any((i, j) in bonds and self._heavy_degree(a, bonds) >= 5 for bonds in self.bonds_in):
                     room[a] = room.get(a, 0) + 1
             # A ring atom with three heavy neighbours of its own, one of them a heteroatom that
             # bonds to it to close the ring, keeps room for its fourth too, so that the ring's
@@ -1036,6 +1034,10 @@ class _LayoutBuilder:
                         and self._ring_through(a, n) >= 5 for n in self.neighbours[a]):
                     room[a] = room.get(a, 0) + 1
         return room
+
+    def _heavy_degree(self, atom: int, bonds: set[tuple[int, int]]) -> int:
+        """How many of `bonds` join `atom` to a heavy atom."""
+        return sum(1 for i, j in bonds if atom in (i, j) and self.element[i + j - atom] != 1)
 
     def _slots_for_fed_hydrogens(self, clusters: list[list[int]]) -> dict[int, set[int]]:
         """holder -> the atoms X whose bond to it the pair of its C-H bond goes into, for a
@@ -2801,16 +2803,15 @@ class _LayoutBuilder:
         def cramped(direction: complex) -> bool:
             return any(abs(cmath.phase(direction / f)) < _FED_ANGLE for f in fed)
 
-        bonds = [_unit(self.positions[panels[0]][x] - self.positions[panels[0]][r.holder])
-                 for x in self.neighbours[r.holder] if x != r.hydrogen and x in self.positions[panels[0]]]
-        others = [x for x in self.neighbours[r.holder] if x != r.hydrogen and x in self.positions[panels[0]]]
-        trigonal = len(others) == 1 and any(
-            self.orders_in[k].get((min(r.holder, others[0]), max(r.holder, others[0])), 0) >= 2 for k in panels)
+        partners = [x for x in self.neighbours[r.holder] if x != r.hydrogen and x in self.positions[panels[0]]]
+        bonds = [_unit(self.positions[panels[0]][x] - self.positions[panels[0]][r.holder]) for x in partners]
+        trigonal = len(partners) == 1 and any(
+            self.orders_in[k].get((min(r.holder, partners[0]), max(r.holder, partners[0])), 0) >= 2 for k in panels)
 
         def closed(direction: complex) -> bool:
             """Folded onto the double bond that is its holder's one other bond (an N-H drawn 80
             degrees from its C=N): a trigonal centre is drawn at 120 degrees within 15 (VSEPR)."""
-            return trigonal and abs(cmath.phase(direction / bonds[0])) < _FOLDED
+            return trigonal and abs(cmath.phase(direction / bonds[0])) < _OPEN_ANGLE
 
         if (room_now >= _HYDROGEN_ROOM and miss(r.direction) == 0.0 and not crossed_now and not cramped(r.direction)
                 and not closed(r.direction)):
