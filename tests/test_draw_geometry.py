@@ -589,6 +589,36 @@ def test_drawn_hydrogens_stand_clear_of_their_holder_s_bonds(text, name):
 
 
 @pytest.mark.parametrize("text,name", _mechanisms())
+def test_a_carbon_vertex_is_not_hidden_between_its_bond_and_a_drawn_hydrogen(text, name):
+    """A skeletal carbon (a bare vertex) with one other bond and a hydrogen drawn as an atom keeps
+    the two at 165 degrees or less: straight on, the vertex is not seen and the hydrogen reads as
+    bonded to the atom beyond (common practice: a vertex is drawn as a corner; IUPAC 2008). The
+    Henry reaction's nitromethane (H-C-N+ drawn as one line from H to N) and the [2,3]-Wittig
+    butane's last carbon were drawn so. The layout turns such a hydrogen to 160 or less where it
+    has the room; the Pummerer ylide's methyl, which has none, keeps 162 (measured). An sp
+    carbon (H-C#N) is straight by nature."""
+    trace, _, scene = _scene(text, name)
+    for panel in scene.panels:
+        where = {a.index: complex(*a.position) for a in panel.atoms}
+        drawn = {a.index: a for a in panel.atoms}
+        partners: dict[int, list[tuple[int, int]]] = {}
+        for bond in panel.bonds:
+            i, j = bond.atoms
+            partners.setdefault(i, []).append((j, bond.order))
+            partners.setdefault(j, []).append((i, bond.order))
+        for atom in panel.atoms:
+            if atom.element != "C" or atom.box is not None or len(partners.get(atom.index, ())) != 2:
+                continue
+            hydrogens = [(n, order) for n, order in partners[atom.index] if drawn[n].element == "H"]
+            others = [(n, order) for n, order in partners[atom.index] if drawn[n].element != "H"]
+            if len(hydrogens) != 1 or len(others) != 1 or others[0][1] == 3:
+                continue
+            centre = where[atom.index]
+            angle = abs(math.degrees(cmath.phase((where[hydrogens[0][0]] - centre) / (where[others[0][0]] - centre))))
+            assert angle <= 165, (panel.index, atom.name, round(angle))
+
+
+@pytest.mark.parametrize("text,name", _mechanisms())
 def test_hydrogens_are_not_written_toward_another_heteroatom(text, name):
     """An H written above or below its atom's symbol (OH as O over H) does not point at the label
     of another heteroatom within 1.75 bond lengths (within 30 degrees of that direction): written

@@ -62,6 +62,7 @@ _ALONG_BOND = math.radians(35)   # least angle between a travelling hydrogen and
 _SEVENTY = math.radians(70)
 _BEHIND_A_BOND = math.radians(45)   # a partner this near a bond's direction lies behind the bond
 _OPEN_ANGLE = math.radians(105)   # least angle a hydrogen leaning toward its partner keeps from a lone other bond
+_HIDDEN_VERTEX = math.radians(160)   # two bonds of a bare vertex straighter than this hide it
 _OFF_A_BOND = math.radians(35)   # least angle between a travelling hydrogen's bond and its holder's others
 _SIXTY = math.radians(60)
 _BACKSIDE_ROOM = math.radians(55)   # a nucleophile's line of approach from the centre's other bonds
@@ -2803,15 +2804,28 @@ class _LayoutBuilder:
         def cramped(direction: complex) -> bool:
             return any(abs(cmath.phase(direction / f)) < _FED_ANGLE for f in fed)
 
-        partners = [x for x in self.neighbours[r.holder] if x != r.hydrogen and x in self.positions[panels[0]]]
-        bonds = [_unit(self.positions[panels[0]][x] - self.positions[panels[0]][r.holder]) for x in partners]
-        trigonal = len(partners) == 1 and any(
-            self.orders_in[k].get((min(r.holder, partners[0]), max(r.holder, partners[0])), 0) >= 2 for k in panels)
+        here = self.positions[panels[0]]
+        partners = [x for x in self.neighbours[r.holder] if x != r.hydrogen and x in here]
+        bonds = [_unit(here[x] - here[r.holder]) for x in partners]
+        # The holder's one other bond in these panels, if it has just one: the hydrogen keeps an
+        # angle from it that a reader sees.
+        bonded = [x for x in partners if all((min(r.holder, x), max(r.holder, x)) in self.bonds_in[k] for k in panels)]
+        lone = _unit(here[bonded[0]] - here[r.holder]) if len(bonded) == 1 else None
+        orders = {self.orders_in[k].get((min(r.holder, bonded[0]), max(r.holder, bonded[0])), 0) for k in panels} \
+            if lone is not None else set()
+        trigonal = any(order >= 2 for order in orders)
+        # A carbon drawn as a bare vertex, not straight by nature (HC#N is).
+        vertex = lone is not None and self.element[r.holder] == 6 and max(orders) < 3
 
         def closed(direction: complex) -> bool:
             """Folded onto the double bond that is its holder's one other bond (an N-H drawn 80
-            degrees from its C=N): a trigonal centre is drawn at 120 degrees within 15 (VSEPR)."""
-            return trigonal and abs(cmath.phase(direction / bonds[0])) < _OPEN_ANGLE
+            degrees from its C=N): a trigonal centre is drawn at 120 degrees within 15 (VSEPR);
+            or, from a carbon vertex, straight on from its one other bond, where the vertex is no
+            longer seen (nitromethane's H-C-N drawn as one line from H to N)."""
+            if lone is None:
+                return False
+            turn = abs(cmath.phase(direction / lone))
+            return (trigonal and turn < _OPEN_ANGLE) or (vertex and turn > _HIDDEN_VERTEX)
 
         if (room_now >= _HYDROGEN_ROOM and miss(r.direction) == 0.0 and not crossed_now and not cramped(r.direction)
                 and not closed(r.direction)):
