@@ -2016,19 +2016,16 @@ class _LayoutBuilder:
                 v = self._joining_side(depicted, mover, u, kind, k)
         distance = 1.0 if kind == "bond" else 1.0 + TRANSFER_GAP
         mine = set(cluster.atoms)
-        # Every spot the others take over the run: one that moves between its panels (a cation
-        # that waits, then bonds elsewhere) is cleared in each.
-        others: dict[int, set[complex]] = {}
-        for kk in range(segment[0], segment[1] + 1):
-            for a, p in self.positions[kk].items():
-                if a not in mine and a != hydrogen:
-                    others.setdefault(a, set()).add(p)
+        # Every spot the others take over the run, once each: one that moves between its panels
+        # (a cation that waits, then bonds elsewhere) is cleared in each. (Only nearest approaches
+        # are asked of them: their order does not matter.)
+        skip = mine | {hydrogen, anchor, second}
+        near = np.array(list({p for kk in range(segment[0], segment[1] + 1) for a, p in self.positions[kk].items()
+                              if a not in skip}), dtype=complex)
         polygons = [[self.positions[kk][a] for a in ring] for kk in range(segment[0], segment[1] + 1)
                     for ring in self._closed_rings(kk)
                     if all(a in self.positions[kk] and a not in mine and a != hydrogen for a in ring)]
         anchor_at = self.positions[k][anchor]
-        near = np.array([q for a, spots in others.items() if a != anchor and a != second
-                         for q in sorted(spots, key=lambda z: (z.real, z.imag))], dtype=complex)
         options = _BOND_OPTIONS if kind == "bond" else _HOP_OPTIONS
         hydrogen_on_mover = hydrogen is not None and kind == "hop" and self._holder(k, hydrogen) == mover
         # For a hop or a transfer, a spot from which the arrow to the anchor's side crosses no bond is preferred.
