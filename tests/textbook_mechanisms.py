@@ -76,8 +76,9 @@ Reformatsky zinc enolate moved out of shape by 0.03 bond lengths (2% allowed) as
 ketone, its ZnBr, passed from one oxygen to the other, placed afresh: the six-membered ring the
 step goes round is now drawn as one.)
 Still undrawn: the Swern oxalyl fragment (its C-C bond once drawn 1.15 bond lengths long as it falls
-apart) moves Cl4 out of shape against C7 by 0.09 bond lengths as it joins the sulfoxide (each of its
-one- and two-atom clusters placed afresh), and its C#O arrow leaves from the crowded side; the Wolff
+apart) moves Cl4 out of shape against C7 by 0.53 bond lengths as it joins the sulfoxide (each of its
+one- and two-atom clusters placed afresh; 0.81 before a placed cluster kept clear of every panel's
+spots of the others), and sets a carbon 0.44 bond lengths from a chlorine in its first panel; the Wolff
 carbanion C4 sets the dots of its pair into C2=C4 45 degrees from that bond, the free side beside
 the vertex taken by its minus sign (its methyl, once drawn leaning onto C4, now stands at 120
 degrees and its shift arrow arcs round the outside). The Mitsunobu scheme crosses bonds and moves the ester
@@ -3327,7 +3328,7 @@ TEXTBOOK = {
     "favorskii": (FAVORSKII, "COC(=O)C1CCCC1", True),
     "benzilic acid rearrangement": (BENZILIC_ACID, "OC(C(=O)[O-])(c1ccccc1)c1ccccc1", True),
     "curtius": (CURTIUS, "CNC(=O)OC", True),
-    "swern oxidation": (SWERN, "CC(C)=O.CSC", False),   # the oxalyl fragment moves out of shape; its C#O arrow leaves from the crowded side
+    "swern oxidation": (SWERN, "CC(C)=O.CSC", False),   # the oxalyl fragment moves 0.53 out of shape; a C stands 0.44 from a Cl
     "darzens": (DARZENS, "CCOC(=O)C1OC1(C)C", True),
     "reformatsky": (REFORMATSKY, "CCOC(=O)CC(C)(C)O", True),
     "meerwein-ponndorf-verley": (MEERWEIN_PONNDORF_VERLEY, "CC(C)=O.CC(C)O[Al](OC(C)C)OC1CCCCC1", True),
