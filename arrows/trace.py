@@ -73,6 +73,10 @@ def hydrogen_parents_and_entries(mechanism: Mechanism) -> tuple[set[int], list[t
     return parents, entries
 
 
+# An aromatic atom in a SMILES: a lower-case c, n, o, s or p not ending a two-letter symbol (Sc, Co).
+_AROMATIC_ATOM = re.compile(r"(?<![A-Z])[cnosp]")
+
+
 def named_pi_bonds(mechanism: Mechanism) -> frozenset[frozenset[int]]:
     """Map numbers of the two atoms of every bond a move starts from written `=` (a pi pair the
     author sees): which Kekule structure of a ring written aromatic the arrows were drawn on."""
@@ -242,12 +246,14 @@ class Replay:
         is reported at once; each as a state of its own, to be appended to the mechanism's."""
         mechanism, diags = self.mechanism, self.diagnostics
         explicit_h_on, entries = hydrogen_parents_and_entries(mechanism)
-        pi_bonds = named_pi_bonds(mechanism)
+        declared = [(None, s) for s in mechanism.species] + entries
+        # (the moves are read for them only where a species is written aromatic)
+        pi_bonds = named_pi_bonds(mechanism) if any(_AROMATIC_ATOM.search(sp.smiles) for _, sp in declared) \
+            else frozenset()
         names: dict[str, Location] = {}
         seen_maps: dict[int, Location] = {}
         loaded: dict[int, ElectronState] = {}
         entered_later: dict[int, int] = {}
-        declared = [(None, s) for s in mechanism.species] + entries
         with rdkit_messages():   # one quiet block for every species (read_species)
             for position, (step_index, sp) in enumerate(declared):
                 if sp.name in names:
