@@ -112,14 +112,15 @@ def read_species(species: Species, explicit_h_on: set[int], pi_bonds: frozenset[
     chiral_written, geometry_read = "@" in smiles or "|" in smiles, geometry_written or "|" in smiles
     elements = [a.GetAtomicNum() for a in atoms]   # sanitizing changes no element
     try:
-        # Written aromatic? Asked before sanitizing, whose Kekule step clears the flags.
-        aromatic = bool(pi_bonds) and any(b.GetIsAromatic() for b in mol.GetBonds())
+        # The named pi bonds that the SMILES writes aromatic: asked before sanitizing, whose
+        # Kekule step clears the flags.
+        drawn_on = _aromatic_pairs(mol) & pi_bonds if pi_bonds and _AROMATIC_ATOM.search(smiles) else frozenset()
         # The smallest set of rings only where RDKit's stereo perception reads it: the state the
         # species joins (Chem.CombineMols) keeps no rings, and each step finds its own (electrons._settle).
         sanitize(mol, elements, aromaticity=False, rings=chiral_written or geometry_read)
         Chem.Kekulize(mol, clearAromaticFlags=True)
-        if aromatic:
-            _kekule_as_drawn(mol, pi_bonds)
+        if drawn_on:
+            _kekule_as_drawn(mol, drawn_on)
         if geometry_written:
             # Read without sanitizing, a written E/Z is only a direction on each neighbouring bond:
             # RDKit's perception turns it into the double bond's own configuration, which the
@@ -171,11 +172,19 @@ def read_species(species: Species, explicit_h_on: set[int], pi_bonds: frozenset[
     return mol, AtomNumbers(elements, charges, hydrogens, chiral, geometry_read), mapped, None
 
 
+def _aromatic_pairs(mol: Chem.Mol) -> frozenset[frozenset[int]]:
+    """Map numbers of the two ends of every bond `mol` (read as written) holds aromatic."""
+    bond_at, atom_at = mol.GetBondWithIdx, mol.GetAtomWithIdx
+    return frozenset(frozenset((atom_at(b.GetBeginAtomIdx()).GetAtomMapNum(), atom_at(b.GetEndAtomIdx()).GetAtomMapNum()))
+                     for b in (bond_at(k) for k in range(mol.GetNumBonds())) if b.GetIsAromatic())
+
+
 def _kekule_as_drawn(mol: Chem.Mol, pi_bonds: frozenset[frozenset[int]]) -> None:
     """Give `mol`, kekulized by RDKit from a ring written aromatic, the Kekule structure in which
-    most of `pi_bonds` are double (benzene's C1=C6 named by an arrow, where RDKit had put C1=C2):
-    the author drew the arrows on one structure, and either is the molecule."""
-    maps = {a.GetIdx(): a.GetAtomMapNum() for a in mol.GetAtoms() if a.GetAtomMapNum()}
+    most of `pi_bonds` (bonds written aromatic) are double (benzene's C1=C6 named by an arrow,
+    where RDKit had put C1=C2): the author drew the arrows on one structure, and either is the
+    molecule."""
+    maps = {a.GetIdx(): a.GetAtomMapNum() for a in atom_list(mol) if a.GetAtomMapNum()}
 
     def named_double(m: Chem.Mol) -> int:
         return sum(1 for b in m.GetBonds() if b.GetBondType() == Chem.BondType.DOUBLE
@@ -183,7 +192,7 @@ def _kekule_as_drawn(mol: Chem.Mol, pi_bonds: frozenset[frozenset[int]]) -> None
 
     relevant = {b.GetIdx() for b in mol.GetBonds()
                 if frozenset((maps.get(b.GetBeginAtomIdx()), maps.get(b.GetEndAtomIdx()))) in pi_bonds}
-    if not relevant or all(mol.GetBondWithIdx(k).GetBondType() == Chem.BondType.DOUBLE for k in relevant):
+    if all(mol.GetBondWithIdx(k).GetBondType() == Chem.BondType.DOUBLE for k in relevant):
         return
     best, best_count = None, named_double(mol)
     # RDKit's resonance enumerator lists every Kekule structure (benzene two, naphthalene three).
