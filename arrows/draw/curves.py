@@ -964,12 +964,24 @@ def _beside_bond(occupied: list[complex], toward: complex, tails: list[complex] 
     the arrow from them to the bond's middle bends visibly (common practice); and on the side
     away from `tails`, the directions to where other arrows of the step leave a bond nearby, so
     the dots do not stand in their way."""
-    def score(d: complex) -> float:
-        turn = abs(cmath.phase(d / toward))
-        facing = max([(d * t.conjugate()).real for t in tails] + [0.0])
-        return (min(clearance(d, occupied), _DOTS_ROOM) + 0.5 * min(turn, math.pi / 2)
-                - 0.6 * max(0.0, turn - math.pi / 2) - facing)
-    scores = [score(d) for d in _AROUND]
+    # Each direction's score in one loop, clearance and the facing written out (no call per
+    # direction and bond: the scores only rank the directions, as a call each would).
+    phase, taken, away = cmath.phase, [o for o in occupied if o], [t.conjugate() for t in tails]
+    scores = []
+    for d in _AROUND:
+        turn = abs(phase(d / toward))
+        facing = 0.0
+        for t in away:
+            along = (d * t).real
+            if along > facing:
+                facing = along
+        room = math.pi
+        for o in taken:
+            gap = abs(phase(d / o))
+            if gap < room:
+                room = gap
+        scores.append(min(room, _DOTS_ROOM) + 0.5 * min(turn, math.pi / 2) - 0.6 * max(0.0, turn - math.pi / 2)
+                      - facing)
     best = max(range(len(_AROUND)), key=scores.__getitem__)   # of equals, the first found
     yield _AROUND[best]
     # The rest only if asked for; sorted is stable, so equals keep their order round the circle.

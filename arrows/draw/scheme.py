@@ -205,8 +205,10 @@ def _crowded_atoms(scene: Scene) -> tuple[str, ...]:
         atoms = panel.atoms
         where = np.array([complex(*a.position) for a in atoms])
         apart = np.abs(where[:, None] - where[None, :]) / scene.bond_length
-        np.fill_diagonal(apart, np.inf)
-        i, j = np.unravel_index(int(np.argmin(apart)), apart.shape) if len(atoms) > 1 else (0, 0)
+        # (np.fill_diagonal's and np.argmin's own work, without their Python wrappers: one panel
+        # holds a few dozen atoms, and the wrappers cost more than the search)
+        apart.flat[::len(atoms) + 1] = np.inf
+        i, j = divmod(int(apart.argmin()), len(atoms)) if len(atoms) > 1 else (0, 0)
         # Sweep from left to right: a label is compared only with those that start before it ends.
         labelled = sorted((a for a in atoms if a.box is not None), key=lambda a: a.box.x0)
         clash = next(((a, b) for n, a in enumerate(labelled)
@@ -617,7 +619,9 @@ def _panel_box(atoms, bonds, marks, arrows, pad: float) -> Box:
 
 
 def _placed(panel: Panel, origin) -> Panel:
-    return replace(panel, origin=(round(origin[0], 4), round(origin[1], 4)))
+    # (made directly: dataclasses.replace reads every field by name first, at several times the cost)
+    return Panel(panel.index, panel.step, (round(origin[0], 4), round(origin[1], 4)), panel.box, panel.atoms,
+                 panel.bonds, panel.marks, panel.arrows, panel.placeholder)
 
 
 def _shift_arrow(arrow: ReactionArrow, dy: float) -> ReactionArrow:
