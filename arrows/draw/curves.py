@@ -621,6 +621,11 @@ class ArrowPlanner:
         p0, tip = start, end
         from_dots, outward = src.kind == "dots", src.outward
         to_atom, to_bond = snk.kind == "atom", snk.kind == "bond"
+        # What the refits read of the anchors and the style, worked out once for both.
+        tail_n, head_n = src.axis * 1j, snk.axis * 1j   # the bonds' unit normals
+        tail_off = self.dot_radius + 0.12 * self.fs if from_dots else src.extent + 0.05 * self.bl
+        head_off = snk.extent + 0.08 * self.bl
+        label_gap, bare_gap = 0.12 * self.fs, 0.2 * self.bl
         if to_atom:
             atom = snk.atoms[0]
             box, centre = panel.atoms[atom].box, panel.positions[atom]   # (label_reach, written out)
@@ -633,19 +638,16 @@ class ArrowPlanner:
             if from_dots:
                 along = leave + outward
                 size = abs(along)
-                p0 = start + (along / size if size > 1e-12 else 1 + 0j) * (self.dot_radius + 0.12 * self.fs)
-            else:
-                n = src.axis * 1j   # the bond's unit normal, on the side the arrow leaves to
-                p0 = start + (n if (leave / n).real >= 0 else -n) * (src.extent + 0.05 * self.bl)
+                p0 = start + (along / size if size > 1e-12 else 1 + 0j) * tail_off
+            else:   # off the bond, on the side the arrow leaves to
+                p0 = start + (tail_n if (leave / tail_n).real >= 0 else -tail_n) * tail_off
             # The tip: short of the sink atom's label, or off the sink bond on the side it comes from.
             if to_atom:
                 back = -arrive
                 reach = 0.0 if box is None else ray_exit(centre, back, box)
-                gap = 0.12 * self.fs if reach else 0.2 * self.bl
-                tip = end + back * (reach + gap)
+                tip = end + back * (reach + (label_gap if reach else bare_gap))
             elif to_bond:
-                n = snk.axis * 1j   # the bond's unit normal, on the side the arrow comes from
-                tip = end + (n if (-arrive / n).real >= 0 else -n) * (snk.extent + 0.08 * self.bl)
+                tip = end + (head_n if (-arrive / head_n).real >= 0 else -head_n) * head_off
         u = _unit(tip - p0)
         leave, arrive = u * turn, u / turn
         chord = abs(tip - p0)
@@ -812,8 +814,9 @@ class ArrowPlanner:
         # imaginary part, and their chords (between samples, inside those boxes) cannot cross:
         # every term stays zero there, and is worked out for the other pairs only.
         gap = 0.5 * self.bl
-        x0, y0, x1, y1 = (column[:, 0] for column in (extent.x0, extent.y0, extent.x1, extent.y1))
-        x0a, x1a, y0a, y1a, x0b, x1b, y0b, y1b = (column.take(rows) for rows in (a, b) for column in (x0, x1, y0, y1))
+        # (the four columns as rows of one array: two gatherings instead of eight)
+        edges = np.concatenate((extent.x0, extent.x1, extent.y0, extent.y1), axis=1).T
+        (x0a, x1a, y0a, y1a), (x0b, x1b, y0b, y1b) = edges.take(a, axis=1), edges.take(b, axis=1)
         close = (~((x0a > x1b + gap) | (x0b > x1a + gap) | (y0a > y1b + gap) | (y0b > y1a + gap))).nonzero()[0]
         cost = np.zeros(len(first))
         if len(close):
@@ -1085,19 +1088,27 @@ def _parameters_at_distances(controls: np.ndarray, distances: np.ndarray) -> lis
     # measured in one batch, and where the halvings lead is looked up from which of them are
     # still too far. Every point is lo plus a sum of powers of two, exactly as one halving at a
     # time finds it, and numpy's element results do not depend on the array's shape.
-    lo, span = np.zeros(len(controls)), 1.0
-    for _ in range(4):
-        # (t made complex once: numpy casts a real operand of a complex product on every call)
-        t = (lo[:, None] + _SIXTEENTHS * span).astype(complex)
-        far = np.abs(((a * t + b) * t + c) * t + d) > reach
-        lo = lo + _halvings().take(far @ _BITS) * (span / 16)
-        span /= 16
-    return lo.tolist()
+    # (lo is kept complex, its imaginary parts zero: numpy casts a real operand of a complex
+    # product on every call, and the sums of the real parts are the same)
+    lo = np.zeros(len(controls), dtype=complex)
+    for trials, advances in _rounds():
+        far = np.abs(((a * (t := lo[:, None] + trials) + b) * t + c) * t + d) > reach
+        lo = lo + advances.take(far @ _BITS)
+    return lo.real.tolist()
 
 
 _BARB_SIDES = np.array([0.5, -0.5], dtype=complex)   # (complex: a real factor is cast on every call)
 _SIXTEENTHS = np.arange(1, 16) / 16   # a round's trial points, as fractions of its span
 _BITS = 1 << np.arange(15)             # trial point k + 1 too far: bit k of the round's pattern
+
+
+@lru_cache(maxsize=None)
+def _rounds() -> tuple[tuple[np.ndarray, np.ndarray], ...]:
+    """Each round's trial points (_SIXTEENTHS of its span, complex) and advances (_halvings in
+    sixteenths of its span), the spans 1, 1/16, 1/256 and 1/4096: worked out once, as the same
+    products of the same numbers each round would give."""
+    spans = (1.0, 1.0 / 16, 1.0 / 256, 1.0 / 4096)
+    return tuple(((_SIXTEENTHS * span).astype(complex), _halvings() * (span / 16)) for span in spans)
 
 
 @lru_cache(maxsize=None)
