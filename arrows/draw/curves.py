@@ -673,6 +673,7 @@ class ArrowPlanner:
         where = panel_of.take(owner)                                       # each candidate's panel
         arrow = np.arange(len(moves))[:, None]
         obs = [w.obstacles for w in work]
+        arrow_obs = [w.obstacles for w in work for _ in w.moves]   # each arrow's panel's (a list: read one by one)
         p0, tip = pts[:, :1], pts[:, -1:]
         inner = (np.abs(pts - p0) > 0.22 * bl) & (np.abs(pts - tip) > 0.22 * bl)
         # Which atoms each arrow's own move names, as one boolean row per arrow.
@@ -697,7 +698,7 @@ class ArrowPlanner:
         for k, anchors in enumerate(zip(sources, sinks)):
             for anchor in anchors:
                 if anchor.kind == "bond":   # the bond the arrow starts or ends on is no obstacle
-                    bond = obs[panel_of[k]].bond_index.get(tuple(sorted(anchor.atoms)))
+                    bond = arrow_obs[k].bond_index.get(tuple(sorted(anchor.atoms)))
                     if bond is not None:
                         crossing[k, bond] = 0.0
         weights = np.concatenate([np.where(own_labelled, 40.0, 100.0), np.where(mine, 0.0, 30.0),
@@ -762,7 +763,9 @@ class ArrowPlanner:
         if len(from_bond):
             cost[from_bond] += self._curl(pts.take(from_bond, axis=0), steps.take(from_bond, axis=0),
                                           sizes.take(from_bond, axis=0))   # only those rows
-        cost += _CROOK * _in_crook(pts[:, _SAMPLES // 2], sources, sinks, owner, [obs[k] for k in panel_of])
+        crooked = _in_crook(pts, sources, sinks, owner, arrow_obs)
+        if crooked is not None:   # (no arrow of most schemes shifts a pair between two bonds of one atom)
+            cost += _CROOK * crooked
         # A 1,2-shift is a clear arc round the outside, away from the atom the group leaves:
         # bulging toward that atom it lies on the bond to the cationic centre, and a flat one
         # reads as a dash between two bonds.
@@ -1039,12 +1042,12 @@ def _split_bond_sides(w: _PanelArrows, options: list[list[_Candidate]],
             pairs[(i, j)] = pairs[(i, j)] + _SAME_SIDE * (sides[0][:, None] == sides[1][None, :])
 
 
-def _in_crook(middles: np.ndarray, sources: list[_Anchor], sinks: list[_Anchor], owner: np.ndarray,
-              obstacles: list[_Obstacles]) -> np.ndarray:
-    """1.0 where an arc that shifts a pair between two bonds of one atom has its middle inside
-    the angle those bonds make, cramped between them, else 0.0: such an arc reads best round
-    the outside of the bend (common practice)."""
-    out = np.zeros(len(middles))
+def _in_crook(pts: np.ndarray, sources: list[_Anchor], sinks: list[_Anchor], owner: np.ndarray,
+              obstacles: list[_Obstacles]) -> Optional[np.ndarray]:
+    """1.0 where an arc that shifts a pair between two bonds of one atom has its middle (of its
+    samples `pts`) inside the angle those bonds make, cramped between them, else 0.0: such an
+    arc reads best round the outside of the bend (common practice). None where no arrow makes
+    such a shift."""
     where: dict[int, dict[int, complex]] = {}   # each panel's atom positions, looked up once
     angles: dict[int, tuple[complex, complex, float]] = {}   # arrow -> (pivot, bisector, half its angle)
     for k, (src, snk) in enumerate(zip(sources, sinks)):
@@ -1064,7 +1067,8 @@ def _in_crook(middles: np.ndarray, sources: list[_Anchor], sinks: list[_Anchor],
         first, second = (_unit(at[a] - at[pivot]) for a in ends)
         angles[k] = (at[pivot], _unit(first + second), abs(cmath.phase(second / first)) / 2)
     if not angles:
-        return out
+        return None
+    middles, out = pts[:, _SAMPLES // 2], np.zeros(len(pts))
     # Every such arrow's candidates at once (numpy's element results do not depend on the
     # array's shape, and its cost is per call).
     crooked = np.zeros(len(sources), dtype=bool)
