@@ -761,8 +761,10 @@ class ArrowPlanner:
         # A pair leaving a bond: one clean arc, never a loop.
         from_bond = np.array([src.kind == "bond" for src in sources]).take(owner).nonzero()[0]
         if len(from_bond):
-            cost[from_bond] += self._curl(pts.take(from_bond, axis=0), steps.take(from_bond, axis=0),
-                                          sizes.take(from_bond, axis=0))   # only those rows
+            curl = self._curl(pts.take(from_bond, axis=0), steps.take(from_bond, axis=0),
+                              sizes.take(from_bond, axis=0))   # only those rows
+            if curl is not None:
+                cost[from_bond] += curl
         crooked = _in_crook(pts, sources, sinks, owner, arrow_obs)
         if crooked is not None:   # (no arrow of most schemes shifts a pair between two bonds of one atom)
             cost += _CROOK * crooked
@@ -780,13 +782,16 @@ class ArrowPlanner:
         for c, value, length, crossing_count in zip(candidates, cost.tolist(), lengths.tolist(), crossings):
             c.cost, c.length, c.crossings = value + c.handicap, length, crossing_count
 
-    def _curl(self, pts: np.ndarray, steps: np.ndarray, sizes: np.ndarray) -> np.ndarray:
+    def _curl(self, pts: np.ndarray, steps: np.ndarray, sizes: np.ndarray) -> Optional[np.ndarray]:
         """An arc that turns back on itself (through more than _MAX_TURN) and either stands far
         off its chord or crosses itself reads as a loop rather than as one clean arc. `steps`
-        are the differences of consecutive samples, `sizes` their lengths."""
+        are the differences of consecutive samples, `sizes` their lengths. None where no arc
+        turns that far (most figures: nothing to add)."""
         steps = np.where(sizes > 1e-12, steps, 1.0)
         turns = steps[:, 1:] / steps[:, :-1]
         turn = np.abs(np.add.reduce(np.arctan2(turns.imag, turns.real), axis=1))   # np.angle's arithmetic
+        if not (turn > _MAX_TURN).any():
+            return None
         chord = pts[:, -1:] - pts[:, :1]
         chord = chord / np.maximum(np.abs(chord), 1e-9)
         standoff = np.maximum.reduce(np.abs(((pts - pts[:, :1]) * np.conj(chord)).imag), axis=1)
