@@ -648,9 +648,10 @@ class ArrowPlanner:
                 tip = end + back * (reach + (label_gap if reach else bare_gap))
             elif to_bond:
                 tip = end + (head_n if (-arrive / head_n).real >= 0 else -head_n) * head_off
-        u = _unit(tip - p0)
+        along = tip - p0
+        chord = abs(along)
+        u = along / chord if chord > 1e-12 else 1 + 0j   # (_unit, written out)
         leave, arrive = u * turn, u / turn
-        chord = abs(tip - p0)
         # Short hops (a pair moving into the next bond) get a loop big enough to read.
         h = max(_handle(theta) * chord, (0.45 if chord < 0.6 * self.bl else 0.34) * self.bl)
         return _Candidate(p0, p0 + leave * h, tip - arrive * h, tip)

@@ -505,7 +505,7 @@ class StructureDrawer:
               neighbours: dict[int, list[int]], rings: list[list[int]]) -> BondDrawing:
         p, q = out.positions[i], out.positions[j]
         box_i, box_j = out.atoms[i].box, out.atoms[j].box
-        pair = (min(i, j), max(i, j))
+        pair = (i, j) if i < j else (j, i)
         if order == 1:   # one centred stroke: its ends, labels and role fix it
             key = (i, j, role, p, q, box_i, box_j)
             drawing = self._single_bonds.get(key)
