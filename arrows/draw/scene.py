@@ -21,6 +21,8 @@ def _filled(cls):
     (assigning raises), with the dataclass's fields, equality, hash and repr; the __init__ is
     written out as the dataclass module writes its own."""
     every = fields(cls)
+    if any(f.default_factory is not MISSING or not f.init for f in every):
+        raise TypeError(f"{cls.__name__}: _filled writes plain fields and defaults only")
     defaults = {f"_{f.name}": f.default for f in every if f.default is not MISSING}
     signature = ", ".join(f.name + (f"=_{f.name}" if f"_{f.name}" in defaults else "") for f in every)
     body = "".join(f"\n    d[{f.name!r}] = {f.name}" for f in every)
