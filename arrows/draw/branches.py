@@ -58,6 +58,26 @@ def _adjacency(count: int, bonds: Sequence[tuple[int, int]]) -> list[list[int]]:
     return adjacent
 
 
+def may_stand_closer(points: list[tuple[float, float]], reach: float) -> bool:
+    """Whether two of `points` (x, y) may stand nearer than `reach`: a sweep along x compares
+    each point only with those less than `reach` further right, a few dozen Python comparisons
+    that cost less than numpy's matrix of every pair (which then measures only where this finds
+    a pair). The slack keeps every pair that numpy's rounding could find nearer."""
+    ordered = sorted(points)
+    reach *= 1 + 1e-6
+    limit = reach * reach
+    for k, (x, y) in enumerate(ordered):
+        for m in range(k + 1, len(ordered)):
+            x2, y2 = ordered[m]
+            dx = x2 - x
+            if dx >= reach:
+                break
+            dy = y2 - y
+            if dx * dx + dy * dy < limit:
+                return True
+    return False
+
+
 def _nearest_pair(points: np.ndarray) -> tuple[float, int, int]:
     gaps = np.abs(points[:, None] - points[None, :])
     np.fill_diagonal(gaps, np.inf)
@@ -81,7 +101,8 @@ def ease_clashes(points: np.ndarray, bonds: Sequence[tuple[int, int]], ring_bond
     than CLASH, until no two are nearer than _EASED (or no turn of a branch on a ring-free bond
     parts them further). `ring_bonds` holds
     (i, j) with i < j. Returns `points` itself when nothing is too near."""
-    if len(points) < 3 or _nearest_pair(points)[0] >= CLASH:
+    if (len(points) < 3 or not may_stand_closer(list(zip(points.real.tolist(), points.imag.tolist())), CLASH)
+            or _nearest_pair(points)[0] >= CLASH):
         return points
     points = points.copy()
     adjacent = _adjacency(len(points), bonds)

@@ -621,6 +621,11 @@ class ArrowPlanner:
         p0, tip = start, end
         from_dots, outward = src.kind == "dots", src.outward
         to_atom, to_bond = snk.kind == "atom", snk.kind == "bond"
+        # What the refits read of the anchors and the style, worked out once for both.
+        tail_n, head_n = src.axis * 1j, snk.axis * 1j   # the bonds' unit normals
+        tail_off = self.dot_radius + 0.12 * self.fs if from_dots else src.extent + 0.05 * self.bl
+        head_off = snk.extent + 0.08 * self.bl
+        label_gap, bare_gap = 0.12 * self.fs, 0.2 * self.bl
         if to_atom:
             atom = snk.atoms[0]
             box, centre = panel.atoms[atom].box, panel.positions[atom]   # (label_reach, written out)
@@ -633,22 +638,20 @@ class ArrowPlanner:
             if from_dots:
                 along = leave + outward
                 size = abs(along)
-                p0 = start + (along / size if size > 1e-12 else 1 + 0j) * (self.dot_radius + 0.12 * self.fs)
-            else:
-                n = src.axis * 1j   # the bond's unit normal, on the side the arrow leaves to
-                p0 = start + (n if (leave / n).real >= 0 else -n) * (src.extent + 0.05 * self.bl)
+                p0 = start + (along / size if size > 1e-12 else 1 + 0j) * tail_off
+            else:   # off the bond, on the side the arrow leaves to
+                p0 = start + (tail_n if (leave / tail_n).real >= 0 else -tail_n) * tail_off
             # The tip: short of the sink atom's label, or off the sink bond on the side it comes from.
             if to_atom:
                 back = -arrive
                 reach = 0.0 if box is None else ray_exit(centre, back, box)
-                gap = 0.12 * self.fs if reach else 0.2 * self.bl
-                tip = end + back * (reach + gap)
+                tip = end + back * (reach + (label_gap if reach else bare_gap))
             elif to_bond:
-                n = snk.axis * 1j   # the bond's unit normal, on the side the arrow comes from
-                tip = end + (n if (-arrive / n).real >= 0 else -n) * (snk.extent + 0.08 * self.bl)
-        u = _unit(tip - p0)
+                tip = end + (head_n if (-arrive / head_n).real >= 0 else -head_n) * head_off
+        along = tip - p0
+        chord = abs(along)
+        u = along / chord if chord > 1e-12 else 1 + 0j   # (_unit, written out)
         leave, arrive = u * turn, u / turn
-        chord = abs(tip - p0)
         # Short hops (a pair moving into the next bond) get a loop big enough to read.
         h = max(_handle(theta) * chord, (0.45 if chord < 0.6 * self.bl else 0.34) * self.bl)
         return _Candidate(p0, p0 + leave * h, tip - arrive * h, tip)
@@ -671,6 +674,7 @@ class ArrowPlanner:
         where = panel_of.take(owner)                                       # each candidate's panel
         arrow = np.arange(len(moves))[:, None]
         obs = [w.obstacles for w in work]
+        arrow_obs = [w.obstacles for w in work for _ in w.moves]   # each arrow's panel's (a list: read one by one)
         p0, tip = pts[:, :1], pts[:, -1:]
         inner = (np.abs(pts - p0) > 0.22 * bl) & (np.abs(pts - tip) > 0.22 * bl)
         # Which atoms each arrow's own move names, as one boolean row per arrow.
@@ -695,7 +699,7 @@ class ArrowPlanner:
         for k, anchors in enumerate(zip(sources, sinks)):
             for anchor in anchors:
                 if anchor.kind == "bond":   # the bond the arrow starts or ends on is no obstacle
-                    bond = obs[panel_of[k]].bond_index.get(tuple(sorted(anchor.atoms)))
+                    bond = arrow_obs[k].bond_index.get(tuple(sorted(anchor.atoms)))
                     if bond is not None:
                         crossing[k, bond] = 0.0
         weights = np.concatenate([np.where(own_labelled, 40.0, 100.0), np.where(mine, 0.0, 30.0),
@@ -758,9 +762,13 @@ class ArrowPlanner:
         # A pair leaving a bond: one clean arc, never a loop.
         from_bond = np.array([src.kind == "bond" for src in sources]).take(owner).nonzero()[0]
         if len(from_bond):
-            cost[from_bond] += self._curl(pts.take(from_bond, axis=0), steps.take(from_bond, axis=0),
-                                          sizes.take(from_bond, axis=0))   # only those rows
-        cost += _CROOK * _in_crook(pts[:, _SAMPLES // 2], sources, sinks, owner, [obs[k] for k in panel_of])
+            curl = self._curl(pts.take(from_bond, axis=0), steps.take(from_bond, axis=0),
+                              sizes.take(from_bond, axis=0))   # only those rows
+            if curl is not None:
+                cost[from_bond] += curl
+        crooked = _in_crook(pts, sources, sinks, owner, arrow_obs)
+        if crooked is not None:   # (no arrow of most schemes shifts a pair between two bonds of one atom)
+            cost += _CROOK * crooked
         # A 1,2-shift is a clear arc round the outside, away from the atom the group leaves:
         # bulging toward that atom it lies on the bond to the cationic centre, and a flat one
         # reads as a dash between two bonds.
@@ -775,13 +783,16 @@ class ArrowPlanner:
         for c, value, length, crossing_count in zip(candidates, cost.tolist(), lengths.tolist(), crossings):
             c.cost, c.length, c.crossings = value + c.handicap, length, crossing_count
 
-    def _curl(self, pts: np.ndarray, steps: np.ndarray, sizes: np.ndarray) -> np.ndarray:
+    def _curl(self, pts: np.ndarray, steps: np.ndarray, sizes: np.ndarray) -> Optional[np.ndarray]:
         """An arc that turns back on itself (through more than _MAX_TURN) and either stands far
         off its chord or crosses itself reads as a loop rather than as one clean arc. `steps`
-        are the differences of consecutive samples, `sizes` their lengths."""
+        are the differences of consecutive samples, `sizes` their lengths. None where no arc
+        turns that far (most figures: nothing to add)."""
         steps = np.where(sizes > 1e-12, steps, 1.0)
         turns = steps[:, 1:] / steps[:, :-1]
         turn = np.abs(np.add.reduce(np.arctan2(turns.imag, turns.real), axis=1))   # np.angle's arithmetic
+        if not (turn > _MAX_TURN).any():
+            return None
         chord = pts[:, -1:] - pts[:, :1]
         chord = chord / np.maximum(np.abs(chord), 1e-9)
         standoff = np.maximum.reduce(np.abs(((pts - pts[:, :1]) * np.conj(chord)).imag), axis=1)
@@ -812,8 +823,9 @@ class ArrowPlanner:
         # imaginary part, and their chords (between samples, inside those boxes) cannot cross:
         # every term stays zero there, and is worked out for the other pairs only.
         gap = 0.5 * self.bl
-        x0, y0, x1, y1 = (column[:, 0] for column in (extent.x0, extent.y0, extent.x1, extent.y1))
-        x0a, x1a, y0a, y1a, x0b, x1b, y0b, y1b = (column.take(rows) for rows in (a, b) for column in (x0, x1, y0, y1))
+        # (the four columns as rows of one array: two gatherings instead of eight)
+        edges = np.concatenate((extent.x0, extent.x1, extent.y0, extent.y1), axis=1).T
+        (x0a, x1a, y0a, y1a), (x0b, x1b, y0b, y1b) = edges.take(a, axis=1), edges.take(b, axis=1)
         close = (~((x0a > x1b + gap) | (x0b > x1a + gap) | (y0a > y1b + gap) | (y0b > y1a + gap))).nonzero()[0]
         cost = np.zeros(len(first))
         if len(close):
@@ -964,12 +976,24 @@ def _beside_bond(occupied: list[complex], toward: complex, tails: list[complex] 
     the arrow from them to the bond's middle bends visibly (common practice); and on the side
     away from `tails`, the directions to where other arrows of the step leave a bond nearby, so
     the dots do not stand in their way."""
-    def score(d: complex) -> float:
-        turn = abs(cmath.phase(d / toward))
-        facing = max([(d * t.conjugate()).real for t in tails] + [0.0])
-        return (min(clearance(d, occupied), _DOTS_ROOM) + 0.5 * min(turn, math.pi / 2)
-                - 0.6 * max(0.0, turn - math.pi / 2) - facing)
-    scores = [score(d) for d in _AROUND]
+    # Each direction's score in one loop, clearance and the facing written out (no call per
+    # direction and bond: the scores only rank the directions, as a call each would).
+    phase, taken, away = cmath.phase, [o for o in occupied if o], [t.conjugate() for t in tails]
+    scores = []
+    for d in _AROUND:
+        turn = abs(phase(d / toward))
+        facing = 0.0
+        for t in away:
+            along = (d * t).real
+            if along > facing:
+                facing = along
+        room = math.pi
+        for o in taken:
+            gap = abs(phase(d / o))
+            if gap < room:
+                room = gap
+        scores.append(min(room, _DOTS_ROOM) + 0.5 * min(turn, math.pi / 2) - 0.6 * max(0.0, turn - math.pi / 2)
+                      - facing)
     best = max(range(len(_AROUND)), key=scores.__getitem__)   # of equals, the first found
     yield _AROUND[best]
     # The rest only if asked for; sorted is stable, so equals keep their order round the circle.
@@ -1024,12 +1048,12 @@ def _split_bond_sides(w: _PanelArrows, options: list[list[_Candidate]],
             pairs[(i, j)] = pairs[(i, j)] + _SAME_SIDE * (sides[0][:, None] == sides[1][None, :])
 
 
-def _in_crook(middles: np.ndarray, sources: list[_Anchor], sinks: list[_Anchor], owner: np.ndarray,
-              obstacles: list[_Obstacles]) -> np.ndarray:
-    """1.0 where an arc that shifts a pair between two bonds of one atom has its middle inside
-    the angle those bonds make, cramped between them, else 0.0: such an arc reads best round
-    the outside of the bend (common practice)."""
-    out = np.zeros(len(middles))
+def _in_crook(pts: np.ndarray, sources: list[_Anchor], sinks: list[_Anchor], owner: np.ndarray,
+              obstacles: list[_Obstacles]) -> Optional[np.ndarray]:
+    """1.0 where an arc that shifts a pair between two bonds of one atom has its middle (of its
+    samples `pts`) inside the angle those bonds make, cramped between them, else 0.0: such an
+    arc reads best round the outside of the bend (common practice). None where no arrow makes
+    such a shift."""
     where: dict[int, dict[int, complex]] = {}   # each panel's atom positions, looked up once
     angles: dict[int, tuple[complex, complex, float]] = {}   # arrow -> (pivot, bisector, half its angle)
     for k, (src, snk) in enumerate(zip(sources, sinks)):
@@ -1049,7 +1073,8 @@ def _in_crook(middles: np.ndarray, sources: list[_Anchor], sinks: list[_Anchor],
         first, second = (_unit(at[a] - at[pivot]) for a in ends)
         angles[k] = (at[pivot], _unit(first + second), abs(cmath.phase(second / first)) / 2)
     if not angles:
-        return out
+        return None
+    middles, out = pts[:, _SAMPLES // 2], np.zeros(len(pts))
     # Every such arrow's candidates at once (numpy's element results do not depend on the
     # array's shape, and its cost is per call).
     crooked = np.zeros(len(sources), dtype=bool)
@@ -1073,19 +1098,27 @@ def _parameters_at_distances(controls: np.ndarray, distances: np.ndarray) -> lis
     # measured in one batch, and where the halvings lead is looked up from which of them are
     # still too far. Every point is lo plus a sum of powers of two, exactly as one halving at a
     # time finds it, and numpy's element results do not depend on the array's shape.
-    lo, span = np.zeros(len(controls)), 1.0
-    for _ in range(4):
-        # (t made complex once: numpy casts a real operand of a complex product on every call)
-        t = (lo[:, None] + _SIXTEENTHS * span).astype(complex)
-        far = np.abs(((a * t + b) * t + c) * t + d) > reach
-        lo = lo + _halvings().take(far @ _BITS) * (span / 16)
-        span /= 16
-    return lo.tolist()
+    # (lo is kept complex, its imaginary parts zero: numpy casts a real operand of a complex
+    # product on every call, and the sums of the real parts are the same)
+    lo = np.zeros(len(controls), dtype=complex)
+    for trials, advances in _rounds():
+        far = np.abs(((a * (t := lo[:, None] + trials) + b) * t + c) * t + d) > reach
+        lo = lo + advances.take(far @ _BITS)
+    return lo.real.tolist()
 
 
 _BARB_SIDES = np.array([0.5, -0.5], dtype=complex)   # (complex: a real factor is cast on every call)
 _SIXTEENTHS = np.arange(1, 16) / 16   # a round's trial points, as fractions of its span
 _BITS = 1 << np.arange(15)             # trial point k + 1 too far: bit k of the round's pattern
+
+
+@lru_cache(maxsize=None)
+def _rounds() -> tuple[tuple[np.ndarray, np.ndarray], ...]:
+    """Each round's trial points (_SIXTEENTHS of its span, complex) and advances (_halvings in
+    sixteenths of its span), the spans 1, 1/16, 1/256 and 1/4096: worked out once, as the same
+    products of the same numbers each round would give."""
+    spans = (1.0, 1.0 / 16, 1.0 / 256, 1.0 / 4096)
+    return tuple(((_SIXTEENTHS * span).astype(complex), _halvings() * (span / 16)) for span in spans)
 
 
 @lru_cache(maxsize=None)

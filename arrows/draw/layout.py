@@ -489,7 +489,8 @@ class _Placements:
         self.depicted, self.mover, self.mover_at = depicted, mover, depicted[mover]
         self.local = np.array(list(depicted.values()), dtype=complex) - self.mover_at   # about the mover
         # For a bond, the cluster's atoms other than the mover, which must keep off the anchor (gaps).
-        self.beside = self.local != 0 if distance == 1.0 and len(self.local) > 1 else None
+        # (as their column numbers: a take costs less than indexing by a mask)
+        self.beside = np.flatnonzero(self.local != 0) if distance == 1.0 and len(self.local) > 1 else None
         self.near, self.carries_hydrogen, self.walls = near, carries_hydrogen, walls
         self.done: list[tuple[float, bool, np.ndarray, complex, complex, complex]] = []
         self.turned: dict[int, tuple[complex, complex]] = {}   # turn -> (direction, rotation facing back along it)
@@ -579,7 +580,7 @@ class _Placements:
         counts against the placement."""
         beside = None
         if self.beside is not None:   # a bond (a hop's partner waits further out)
-            beside = np.minimum.reduce(np.abs(moved[:, self.beside] - self.anchor_at), axis=1) + (_CLEARANCE - _CROWDED)
+            beside = np.minimum.reduce(np.abs(moved.take(self.beside, axis=1) - self.anchor_at), axis=1) + (_CLEARANCE - _CROWDED)
         if not len(self.near):
             return [9.0] * len(moved) if beside is None else np.minimum(beside, 9.0).tolist()
         # numpy's ufuncs called directly (minimum.reduce is .min): the wrappers cost more than these few numbers

@@ -7,15 +7,33 @@ has the same coordinates in every panel); `Panel.origin` puts that frame on the 
 """
 from __future__ import annotations
 
-from dataclasses import dataclass, field
+from dataclasses import MISSING, dataclass, field, fields
 from functools import lru_cache
 from typing import Optional
 
 from .styles import Style
 
+
+def _filled(cls):
+    """A frozen dataclass whose __init__ writes the fields straight into the instance's dict. The
+    generated one sets each through object.__setattr__ (the price of frozen), which costs more
+    than the rest of making a Box, and a figure makes a few thousand scene parts. Still frozen
+    (assigning raises), with the dataclass's fields, equality, hash and repr; the __init__ is
+    written out as the dataclass module writes its own."""
+    every = fields(cls)
+    if any(f.default_factory is not MISSING or not f.init for f in every):
+        raise TypeError(f"{cls.__name__}: _filled writes plain fields and defaults only")
+    defaults = {f"_{f.name}": f.default for f in every if f.default is not MISSING}
+    signature = ", ".join(f.name + (f"=_{f.name}" if f"_{f.name}" in defaults else "") for f in every)
+    body = "".join(f"\n    d[{f.name!r}] = {f.name}" for f in every)
+    exec(f"def __init__(self, {signature}):\n    d = self.__dict__{body}", defaults)
+    cls.__init__ = defaults["__init__"]
+    return cls
+
 Point = tuple[float, float]
 
 
+@_filled
 @dataclass(frozen=True)
 class Box:
     x0: float
@@ -50,6 +68,7 @@ class Box:
         return self.y1 - self.y0
 
 
+@_filled
 @dataclass(frozen=True)
 class TextRun:
     """A piece of text on one baseline, starting at (x, y)."""
@@ -63,6 +82,7 @@ class TextRun:
     colour: str = "#000000"
 
 
+@_filled
 @dataclass(frozen=True)
 class AtomDrawing:
     index: int
@@ -73,6 +93,7 @@ class AtomDrawing:
     box: Optional[Box] = None       # the label's box, None for a skeletal carbon
 
 
+@_filled
 @dataclass(frozen=True)
 class BondDrawing:
     atoms: tuple[int, int]
@@ -88,6 +109,7 @@ class BondDrawing:
     outline: tuple[Point, ...] = ()
 
 
+@_filled
 @dataclass(frozen=True)
 class Mark:
     """Something drawn beside an atom: a charge, a map number, a CIP label (text), a radical or
@@ -112,6 +134,7 @@ def _bernstein(n: int) -> tuple[tuple[float, float, float, float], ...]:
     return tuple(out)
 
 
+@_filled
 @dataclass(frozen=True)
 class CurvedArrow:
     """One move: a cubic Bezier shaft (start, control1, control2, end) and a head ending at tip.
@@ -148,6 +171,7 @@ class CurvedArrow:
         return self.shaft_points(n) + [self.tip]
 
 
+@_filled
 @dataclass(frozen=True)
 class Panel:
     index: int
@@ -167,6 +191,7 @@ class Panel:
         return None
 
 
+@_filled
 @dataclass(frozen=True)
 class ReactionArrow:
     """The arrow between two panels: its strokes and filled heads in page coordinates, with the
@@ -182,6 +207,7 @@ class ReactionArrow:
     box: Box
 
 
+@_filled
 @dataclass(frozen=True)
 class Scene:
     style: Style

@@ -19,6 +19,7 @@ from ..diagnostics import Diagnostic, ERROR
 from ..electrons import ElectronState, ResolvedMove, bonds_after
 from ..rdkit_io import bond_list, formula as molecular_formula, fragment
 from ..trace import StepTrace, Trace
+from .branches import may_stand_closer
 from .curves import ArrowPlanner
 from .layout import Layout, compute_layout
 from .scene import Box, CurvedArrow, Mark, Panel, ReactionArrow, Scene, TextRun
@@ -203,10 +204,6 @@ def _crowded_atoms(scene: Scene) -> tuple[str, ...]:
     notes = []
     for panel in scene.panels:
         atoms = panel.atoms
-        where = np.array([complex(*a.position) for a in atoms])
-        apart = np.abs(where[:, None] - where[None, :]) / scene.bond_length
-        np.fill_diagonal(apart, np.inf)
-        i, j = np.unravel_index(int(np.argmin(apart)), apart.shape) if len(atoms) > 1 else (0, 0)
         # Sweep from left to right: a label is compared only with those that start before it ends.
         labelled = sorted((a for a in atoms if a.box is not None), key=lambda a: a.box.x0)
         clash = next(((a, b) for n, a in enumerate(labelled)
@@ -215,7 +212,15 @@ def _crowded_atoms(scene: Scene) -> tuple[str, ...]:
         if clash is not None:
             notes.append(f"panel {panel.index + 1}: the labels of {clash[0].name} and {clash[1].name} overlap: "
                          f"the layout found no clear place for them; check the figure")
-        elif len(atoms) > 1 and apart[i, j] < 0.5:
+            continue
+        if len(atoms) < 2 or not may_stand_closer([a.position for a in atoms], 0.5 * scene.bond_length):
+            continue
+        where = np.array([complex(*a.position) for a in atoms])
+        apart = np.abs(where[:, None] - where[None, :]) / scene.bond_length
+        # (np.fill_diagonal's and np.argmin's own work, without their Python wrappers)
+        apart.flat[::len(atoms) + 1] = np.inf
+        i, j = divmod(int(apart.argmin()), len(atoms))
+        if apart[i, j] < 0.5:
             notes.append(f"panel {panel.index + 1}: {atoms[i].name} and {atoms[j].name} are drawn {apart[i, j]:.2f} "
                          f"bond lengths apart: the layout found no clear place for them; check the figure")
     return tuple(notes)
@@ -617,7 +622,9 @@ def _panel_box(atoms, bonds, marks, arrows, pad: float) -> Box:
 
 
 def _placed(panel: Panel, origin) -> Panel:
-    return replace(panel, origin=(round(origin[0], 4), round(origin[1], 4)))
+    # (made directly: dataclasses.replace reads every field by name first, at several times the cost)
+    return Panel(panel.index, panel.step, (round(origin[0], 4), round(origin[1], 4)), panel.box, panel.atoms,
+                 panel.bonds, panel.marks, panel.arrows, panel.placeholder)
 
 
 def _shift_arrow(arrow: ReactionArrow, dy: float) -> ReactionArrow:

@@ -511,7 +511,7 @@ class StructureDrawer:
               neighbours: dict[int, list[int]], rings: list[list[int]]) -> BondDrawing:
         p, q = out.positions[i], out.positions[j]
         box_i, box_j = out.atoms[i].box, out.atoms[j].box
-        pair = (min(i, j), max(i, j))
+        pair = (i, j) if i < j else (j, i)
         if order == 1:   # one centred stroke: its ends, labels and role fix it
             key = (i, j, role, p, q, box_i, box_j)
             drawing = self._single_bonds.get(key)
@@ -736,8 +736,9 @@ class StructureDrawer:
                 # neither's, and one on the second or third stroke of the atom's own multiple bond
                 # (a nitrilium's N+ beside its C#N) as a smudge. (A stroke is shorter than two bond
                 # lengths: one that reaches the sign has an end within that of the atom.)
-                strokes = [(complex(*a), complex(*b)) for bond in out.bonds
-                           for a, b in bond.lines if abs(complex(*a) - centre) < 2 * reach]
+                near_end = 2 * reach
+                strokes = [(start, complex(*b)) for bond in out.bonds
+                           for a, b in bond.lines if abs((start := complex(*a)) - centre) < near_end]
             if _sign_near_stroke(tb, size, strokes, _SIGN_STROKE_GAP):
                 continue
             if text.endswith(MINUS) and self._minus_beside_stroke(run, strokes):
@@ -788,8 +789,8 @@ class StructureDrawer:
         centre, reach = out.positions[i], 2 * self.style.bond_length
         # A charge keeps off the strokes of the bonds round it (the inner stroke of a ring's
         # double bond, which its bond directions alone do not show).
-        strokes = [(complex(*a), complex(*b)) for bond in out.bonds for a, b in bond.lines
-                   if abs(complex(*a) - centre) < reach] if kind == "charge" else []
+        strokes = [(start, complex(*b)) for bond in out.bonds for a, b in bond.lines
+                   if abs((start := complex(*a)) - centre) < reach] if kind == "charge" else []
         # A minus level with a label, before or after it, reads as a bond into the label ("-Si").
         labelled = out.atoms[i].box is not None
         # A sign level with the atom's own hydrogens written above or below its symbol, just

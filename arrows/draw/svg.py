@@ -45,7 +45,7 @@ def _text(run: TextRun) -> str:
 
 
 def _polygon(points, colour: str) -> str:
-    d = "M" + " L".join(_pt(p) for p in points) + " Z"
+    d = "M" + " L".join([_pt(p) for p in points]) + " Z"   # (join reads a list faster than a generator)
     return f'<path d="{d}"{_colour_attr(colour, "fill")}/>'
 
 
@@ -79,7 +79,7 @@ def _panel(panel: Panel, line_width: float, bond_paths: dict, written: dict) -> 
         if element is None:
             path = bond_paths.get(bond.lines)
             if path is None:
-                path = bond_paths[bond.lines] = " ".join(f"M{_pt(p)} L{_pt(q)}" for p, q in bond.lines)
+                path = bond_paths[bond.lines] = " ".join([f"M{_pt(p)} L{_pt(q)}" for p, q in bond.lines])
             element = written[id(bond)] = _strokes(path, bond.colour, "bond")
         strokes.append(element)
     for arrow in panel.arrows:
