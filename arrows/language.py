@@ -383,9 +383,12 @@ def _hint_for(exc: UnexpectedInput, text: str, found: str) -> str:
         marked = re.search(r"([:.])([A-Z][a-z]?\d+)$", line[:exc.column - 1])   # (the bond written on)
         if marked:
             # `:C3=C4 -> ...`: a bond's pair written with a lone pair's (or radical's) mark.
-            bond = f"{marked.group(2)}{word}{rest[len(word):].split()[0] if rest[len(word):].split() else ''}"
-            return (f"`{marked.group(1)}{marked.group(2)}` names {'a lone pair' if marked.group(1) == ':' else 'an unpaired electron'}"
-                    f" on {marked.group(2)}; a bond's electrons are written without the mark: `{bond} -> ...`")
+            mark, atom = marked.groups()
+            after = rest[len(word):].split()
+            bond = atom + word + (after[0] if after else "")
+            electrons = "a lone pair" if mark == ":" else "an unpaired electron"
+            return (f"`{mark}{atom}` names {electrons} on {atom}; a bond's electrons are written without "
+                    f"the mark: `{bond} -> ...`")
         return f"`{word}` is a bond between two atoms; an arrow is written -> (pair) or ~> (single electron)"
     if tok_type == "ARROW":
         return "one arrow per move: write the next arrow as a move of its own, on its own line"

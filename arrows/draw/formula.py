@@ -33,15 +33,19 @@ _RANK = {symbol: k for k, symbol in enumerate(_SEQUENCE)}
 _ELEMENT_COUNT = re.compile(r"([A-Z][a-z]?)(\d*)")
 
 
+def _split_charge(formula: str) -> tuple[str, str]:
+    """RDKit's formula as (its elements and counts, its charge: "", "-", "+2" ...)."""
+    for k, ch in enumerate(formula):
+        if ch in "+-":
+            return formula[:k], formula[k:]
+    return formula, ""
+
+
 def inorganic_order(formula: str) -> str:
     """RDKit's formula, its elements in IUPAC's sequence when it holds no carbon (Cl4Ti ->
     TiCl4, O2S -> SO2, H3N -> NH3); a formula with carbon (Hill order is the convention there),
     with an isotope label, or with an element the sequence lacks, as it is."""
-    body, charge = formula, ""
-    for k, ch in enumerate(formula):
-        if ch in "+-":
-            body, charge = formula[:k], formula[k:]
-            break
+    body, charge = _split_charge(formula)
     parts = _ELEMENT_COUNT.findall(body)
     if "".join(symbol + count for symbol, count in parts) != body or any(
             symbol == "C" or symbol not in _RANK for symbol, _ in parts):
@@ -52,11 +56,7 @@ def inorganic_order(formula: str) -> str:
 def formula_pieces(formula: str) -> list[Piece]:
     """RDKit's formula text as pieces: C2H6O -> C, 2 (sub), H, 6 (sub), O; HO- -> HO, minus
     (sup); SO4-2 -> SO, 4 (sub), 2 and minus (sup)."""
-    body, charge = formula, ""
-    for k, ch in enumerate(formula):
-        if ch in "+-":
-            body, charge = formula[:k], formula[k:]
-            break
+    body, charge = _split_charge(formula)
     pieces = _body_pieces(body)
     if charge:
         pieces.append((charge[1:] + _sign(charge[0]), "sup"))

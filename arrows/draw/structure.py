@@ -151,10 +151,12 @@ def _clear_of(box: Box, lines: list[tuple[complex, complex]], limit: float, samp
     return True
 
 
-def _level_and_close(sign: Box, labels: list[Box], size: float) -> bool:
-    """Whether a charge sign stands level with another atom's label and less than half its size
-    from it across: between two labels, "O- O" reads as O-O, a bond."""
-    return any(sign.y0 < b.y1 and b.y0 < sign.y1 and max(b.x0 - sign.x1, sign.x0 - b.x1) < 0.5 * size for b in labels)
+def _level_and_close(sign: Box, labels: list[Box], size: float, apart: float = 0.5) -> bool:
+    """Whether a charge sign stands level with one of `labels` and less than `apart` of its size
+    from it across, where it reads as that label's: between two labels, "O- O" reads as O-O, a
+    bond; after hydrogens written above an N, "H+" as a proton."""
+    return any(sign.y0 < b.y1 and b.y0 < sign.y1 and max(b.x0 - sign.x1, sign.x0 - b.x1) < apart * size
+               for b in labels)
 
 
 def _separation(a: Box, b: Box) -> float:
@@ -807,9 +809,8 @@ class StructureDrawer:
                 gap = min(gap, 0.0)
             on_stroke = _sign_near_stroke(mark.box, size, strokes, _SIDE_SIGN_STROKE_GAP) or (
                 text.endswith(MINUS) and (self._minus_beside_stroke(mark.runs[-1], strokes) or (
-                    labelled and abs(direction.imag) < _LEVEL_WITH_LABEL))) or any(
-                mark.box.y0 < h.y1 and h.y0 < mark.box.y1 and max(h.x0 - mark.box.x1, mark.box.x0 - h.x1) < 0.6 * size
-                for h in hydrogens)
+                    labelled and abs(direction.imag) < _LEVEL_WITH_LABEL))) or _level_and_close(
+                mark.box, hydrogens, size, apart=0.6)
             fault = (gap < pad or on_stroke, slid >= _FAR_SLIDE, 0.0 if kind == "charge" else -min(gap, pad))
             if best is None or fault < best[0]:
                 best = (fault, direction, mark)
