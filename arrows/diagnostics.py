@@ -198,6 +198,12 @@ CODES = _table(
          "and E1 go through tertiary, secondary, allylic or benzylic cations; Markovnikov's rule).",
          'C1=C2 -> C2-H(O5)   # isobutene protonated at C2 leaves CH2+ on C1: protonate C1, giving the '
          'tert-butyl cation'),
+    Code("AR512", WARNING, "release takes the molecule that reacted",
+         "`releases` takes away the whole molecule the named atom belongs to. Here that molecule holds "
+         "every atom the step's arrows touch: the atom meant to leave is still bonded to it (a leaving "
+         "group whose bond the arrows do not break).",
+         ':O6 -> C2\n    C2=O3 -> O3\n    releases O4   # methoxide is still bonded to C2: break C2-O4 '
+         '(after the C=O re-forms) before releasing it'),
     Code("AR601", NOTE, "ring closure",
          "A step closes a ring; its size and Baldwin class are given. A pericyclic step (every arrow "
          "from a bond to a bond, round a closed loop that makes no charge; arrows that all start at "

@@ -317,7 +317,7 @@ class Replay:
                 diags.extend(step_diags)
                 released_now: list[int] = []
                 if after is not None and step.releases:
-                    after, released_now = self._release(after, step, index, map_index)
+                    after, released_now = self._release(after, step, index, map_index, change.touched_atoms)
                 self.steps_replayed += 1
                 if after is not None and index == len(mechanism.steps) - 1:
                     self.final = after
@@ -326,8 +326,8 @@ class Replay:
                     return
                 state = after
 
-    def _release(self, after: ElectronState, step: Step, index: int,
-                 map_index: dict[int, int]) -> tuple[ElectronState, list[int]]:
+    def _release(self, after: ElectronState, step: Step, index: int, map_index: dict[int, int],
+                 touched: list[int]) -> tuple[ElectronState, list[int]]:
         released = set(after.released)
         released_now: list[int] = []
         for ref in step.releases:
@@ -338,6 +338,21 @@ class Replay:
                                                    step=index))
                 continue
             fragment = _fragment_of(after.mol, atom_index) - released
+            if len(touched) > 1 and fragment.issuperset(touched):
+                # A fragment that leaves is a piece the step's arrows split off (a leaving group)
+                # or a partner they left whole (a base that took its proton); one that holds every
+                # atom they touched is the molecule that reacted: a bond to the atom named was
+                # meant to break.
+                name = after.label(atom_index)
+                holder = next((n.GetIdx() for n in after.mol.GetAtomWithIdx(atom_index).GetNeighbors()
+                               if n.GetIdx() in touched), None)
+                bond = f"{after.label(holder)}-{name}" if holder is not None else "its bond"
+                self.diagnostics.append(Diagnostic(
+                    "AR512", f"`releases {name}` takes away the molecule this step's arrows act on "
+                    f"({len(fragment)} atoms, every atom they touch among them)", ref.loc,
+                    hint=f"if {name} leaves, break {bond} with an arrow (`{bond} -> {name}`), in this step "
+                         f"or the next" if holder is not None else f"if {name} leaves, break its bond first",
+                    step=index, atoms=(name,)))
             released_now.extend(sorted(fragment))
             released |= fragment
         return ElectronState(after.mol, after.nonbonding, frozenset(released), after.valence, after.bond_sums,

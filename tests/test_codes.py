@@ -227,6 +227,12 @@ TWINS = [
     # Bromine atom adding to propene with the pi bond's second fishhook left out: the hint writes it.
     Twin("pi bond split by one fishhook", TEXTBOOK["radical hbr addition"][0], "    C4=C5 ~> C4\n", "", "AR303",
          "C4=C5 ~> C5-Br3", says=("C4-C5", "3 electrons"), hint_says=("`C4=C5 ~> C4`",)),
+    # Methoxide released while still bonded to the tetrahedral carbon: the release takes the
+    # whole intermediate away.
+    Twin("release of a group still bonded", TEXTBOOK["transesterification"][0],
+         TEXTBOOK["transesterification"][0][TEXTBOOK["transesterification"][0].index("    C1=O2 -> O2\nend"):],
+         "    C1=O2 -> O2\n    releases O3\nend\n", "AR512", "O3\nend", says=("O3", "every atom they touch"),
+         hint_says=("`C1-O3 -> O3`",), alone=False),
     Twin("odd-electron bond", RADICALS, "    .C2 ~> C1-C2\n", "", "AR303", ".C1 ~> C1-C2", says=("1 electron",)),
     # Without the Cl-Cl bond breaking, Cl1 would carry two bonds and three lone pairs (charge -1): a
     # valence RDKit does not allow (RDKit as independent judge).
