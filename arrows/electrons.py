@@ -346,7 +346,10 @@ class _StepReplay:
             if ref.map_number in self.entered_later:
                 hint = f"atom {ref.map_number} enters only in step {self.entered_later[ref.map_number] + 1}"
             else:
-                hint = "every atom a move names needs a map number in a species SMILES, e.g. [CH2:3]"
+                # A reagent the arrows use but no line brings in (the base of an enolate formation).
+                hint = (f"no species holds atom {ref.map_number}: declare the molecule it belongs to, with "
+                        f"`species NAME = \"SMILES\"` or, inside this step, `uses NAME = \"SMILES\"`, the atom "
+                        f"carrying its number (e.g. [{ref.element}:{ref.map_number}])")
             self.fail("AR104", f"no atom carries map number {ref.map_number} at this point", ref.loc, hint,
                       atoms=(str(ref),))
             raise _StepFailed
@@ -536,7 +539,9 @@ class _StepReplay:
             ends = (self.resolve(sink.bond.first), self.resolve(sink.bond.second))
             if x not in ends:
                 self.fail("AR207", f"the bond {sink.bond} does not contain {self.state.label(x)}", sink.loc,
-                          f"electrons from {self.state.label(x)} can only form a bond to {self.state.label(x)}",
+                          f"electrons from {self.state.label(x)} can only form a bond to {self.state.label(x)}: end "
+                          f"the arrow at the atom it bonds to (`{move.source} -> {self.state.label(ends[0])}` or "
+                          f"`-> {self.state.label(ends[1])}`)",
                           atoms=(self.state.label(x),))
                 raise _StepFailed
             y = ends[1] if ends[0] == x else ends[0]

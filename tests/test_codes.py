@@ -149,7 +149,7 @@ TWINS = [
     Twin("bond pair sent to a third atom", HBR_ADDITION, "C2=C3 -> C3-H5", "C2=C3 -> H5", "AR206",
          "C2=C3 -> H5", sink=True, hint_says=("C3-H5",)),
     Twin("sink bond without the source atom", SN2, ":O1 -> C2\n", ":O1 -> C2-Br3\n", "AR207",
-         ":O1 -> C2-Br3", sink=True),
+         ":O1 -> C2-Br3", sink=True, hint_says=("`:O1 -> C2`",)),
     Twin("bond source into an unconnected bond", E2, "C3-Br4 -> Br4", "C3-Br4 -> O1-H(C2)", "AR207",
          "C3-Br4 -> O1-H(C2)", sink=True),
     # A hydride written as a hydrogen already on the atom that takes it.
@@ -170,7 +170,8 @@ TWINS = [
          "AR507", "C2-C3", hint_says=("C2=C3",)),
 
     # atoms and declarations (AR1xx)
-    Twin("unknown map number", SN2, ":O1 -> C2", ":O1 -> C7", "AR104", "C7", says=("7",)),
+    Twin("unknown map number", SN2, ":O1 -> C2", ":O1 -> C7", "AR104", "C7", says=("7",),
+         hint_says=("no species holds atom 7", "`uses NAME")),
     Twin("atom that enters only in a later step", ALDOL, "C5=O6 -> O6\n", "C5=O6 -> O6\n    :O7 -> C5\n",
          "AR104", "O7", hint_says=("step 2",)),
     Twin("element mismatch", SN2, ":O1 -> C2", ":N1 -> C2", "AR105", "N1", hint_says=("write O1",)),
