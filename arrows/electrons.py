@@ -777,11 +777,9 @@ def _misdirected_pair_hint(state: ElectronState, step: Step, replay: _StepReplay
     other = ends[0] if ends[1] == i else ends[1]
     negativity = [ELECTRONEGATIVITY.get(state.elements[a], 0.0) for a in (i, other)]
     if negativity[0] > negativity[1]:
-        for move in step.moves:
-            if isinstance(move.sink, AtomSink) and not isinstance(move.source, BondPair) \
-                    and replay.resolve(move.sink.atom) == i:
-                return f"a nucleophile adds at the other end of {own[0].source}: `{move.source} -> {label(other)}`"
-        return None
+        attack = _lone_pair_onto(step, replay, i)
+        return (f"a nucleophile adds at the other end of {own[0].source}: `{attack.source} -> {label(other)}`"
+                if attack else None)
     return (f"the pair of {own[0].source} goes to its more electronegative end: "
             f"`{own[0].source} -> {label(other)}`") if negativity[1] > negativity[0] else None
 
@@ -792,12 +790,15 @@ def _proton_hint(state: ElectronState, step: Step, replay: _StepReplay, i: int) 
     atom = state.mol.GetAtomWithIdx(i)
     if state.elements[i] != 6 or not (atom.GetTotalNumHs() or any(n.GetAtomicNum() == 1 for n in atom.GetNeighbors())):
         return None
-    for move in step.moves:
-        if isinstance(move.sink, AtomSink) and not isinstance(move.source, BondPair) \
-                and replay.resolve(move.sink.atom) == i:
-            return (f"a base takes a proton, not the carbon: end the arrow at one of {state.label(i)}'s "
-                    f"hydrogens, `{move.source} -> H({state.label(i)})`")
-    return None
+    attack = _lone_pair_onto(step, replay, i)
+    return (f"a base takes a proton, not the carbon: end the arrow at one of {state.label(i)}'s "
+            f"hydrogens, `{attack.source} -> H({state.label(i)})`") if attack else None
+
+
+def _lone_pair_onto(step: Step, replay: _StepReplay, i: int) -> Optional[Move]:
+    """The step's first arrow from an atom's own electrons (not a bond) that ends at atom i."""
+    return next((move for move in step.moves if isinstance(move.sink, AtomSink)
+                 and not isinstance(move.source, BondPair) and replay.resolve(move.sink.atom) == i), None)
 
 
 _LEAVING_ELEMENTS = frozenset((7, 8, 9, 15, 16, 17, 35, 53))   # N, O, F, P, S, Cl, Br, I

@@ -189,18 +189,25 @@ def visible_atoms(state: ElectronState, drawn_hydrogens: frozenset[int]) -> tupl
                   if i not in released and (z != 1 or i in drawn_hydrogens)])
 
 
+def _gaps(centre: complex, others: Sequence[complex]) -> list[tuple[float, float]]:
+    """The gaps between the directions from centre to `others`, each as (start, end) angles
+    counterclockwise, the last one wrapping round past pi."""
+    directions = sorted(cmath.phase(o - centre) for o in others if abs(o - centre) > 1e-9)
+    return [(a, directions[(k + 1) % len(directions)] + (2 * math.pi if k + 1 == len(directions) else 0))
+            for k, a in enumerate(directions)]
+
+
 def free_direction(centre: complex, others: Sequence[complex], prefer: Optional[complex] = None) -> complex:
     """Unit vector from centre into the widest gap between the directions to `others`.
 
     With no neighbours any direction is free: `prefer` (or +x) is used."""
-    directions = sorted(cmath.phase(o - centre) for o in others if abs(o - centre) > 1e-9)
-    if not directions:
+    gaps = _gaps(centre, others)
+    if not gaps:
         return prefer / abs(prefer) if prefer else 1 + 0j
-    if len(directions) == 1:
-        return -cmath.rect(1.0, directions[0])
+    if len(gaps) == 1:
+        return -cmath.rect(1.0, gaps[0][0])
     best_gap, best_mid = -1.0, 0.0
-    for k, a in enumerate(directions):
-        b = directions[(k + 1) % len(directions)] + (2 * math.pi if k + 1 == len(directions) else 0)
+    for a, b in gaps:
         if b - a > best_gap + 1e-9:
             best_gap, best_mid = b - a, (a + b) / 2
     return cmath.rect(1.0, best_mid)
@@ -209,11 +216,9 @@ def free_direction(centre: complex, others: Sequence[complex], prefer: Optional[
 def gap_beside(centre: complex, others: Sequence[complex], target: complex) -> complex:
     """Unit vector from centre into the wider of the two gaps between the directions to `others`
     that border the direction to `target` (one of them)."""
-    directions = sorted(cmath.phase(o - centre) for o in others if abs(o - centre) > 1e-9)
     aim = cmath.phase(target - centre)
     best_gap, best_mid = -1.0, aim
-    for k, a in enumerate(directions):
-        b = directions[(k + 1) % len(directions)] + (2 * math.pi if k + 1 == len(directions) else 0)
+    for a, b in _gaps(centre, others):
         borders = min(abs(cmath.phase(cmath.rect(1.0, a - aim))), abs(cmath.phase(cmath.rect(1.0, b - aim)))) < 1e-6
         if borders and b - a > best_gap + 1e-9:
             best_gap, best_mid = b - a, (a + b) / 2
@@ -223,13 +228,9 @@ def gap_beside(centre: complex, others: Sequence[complex], target: complex) -> c
 def gap_facing(centre: complex, others: Sequence[complex], target: complex) -> complex:
     """Unit vector from centre into the middle of the gap between the directions to `others`
     whose middle lies nearest the direction to `target`."""
-    directions = sorted(cmath.phase(o - centre) for o in others if abs(o - centre) > 1e-9)
     aim = _unit(target - centre)
-    if not directions:
-        return aim
-    middles = [(a + (directions[(k + 1) % len(directions)] + (2 * math.pi if k + 1 == len(directions) else 0))) / 2
-               for k, a in enumerate(directions)]
-    return max((cmath.rect(1.0, m) for m in middles), key=lambda d: (d * aim.conjugate()).real)
+    middles = [cmath.rect(1.0, (a + b) / 2) for a, b in _gaps(centre, others)]
+    return max(middles, key=lambda d: (d * aim.conjugate()).real) if middles else aim
 
 
 def _cis(local: dict[int, complex], i: int, j: int, a: int, b: int) -> Optional[bool]:
