@@ -324,9 +324,9 @@ class _StepReplay:
         self.diagnostics.append(Diagnostic(code, message, loc, hint, atoms, (), self.step_index))
 
     # resolving written atoms to indices
-    def resolve(self, ref) -> int:
+    def resolve(self, ref, no_hydrogen_hint: Optional[str] = None) -> int:
         if isinstance(ref, HydrogenOn):
-            return self.hydrogen_on(self.resolve(ref.parent), ref)
+            return self.hydrogen_on(self.resolve(ref.parent), ref, no_hydrogen_hint)
         index = self.known.get((ref.element, ref.map_number))
         if index is None:
             index = self._look_up(ref)
@@ -365,13 +365,13 @@ class _StepReplay:
         self.known[(ref.element, ref.map_number)] = index
         return index
 
-    def hydrogen_on(self, parent: int, ref: HydrogenOn) -> int:
+    def hydrogen_on(self, parent: int, ref: HydrogenOn, hint: Optional[str] = None) -> int:
         if parent in self._hydrogen_choice:
             return self._hydrogen_choice[parent]
         hydrogens = [n for n in self.state.mol.GetAtomWithIdx(parent).GetNeighbors() if n.GetAtomicNum() == 1]
         if not hydrogens:
             self.fail("AR109", f"{ref.parent} carries no hydrogen at this point", ref.loc,
-                      "check which atom holds the proton; the formula of each state is shown by `arrows trace`",
+                      hint or "check which atom holds the proton; the formula of each state is shown by `arrows trace`",
                       atoms=(str(ref.parent),))
             raise _StepFailed
         # Unmapped hydrogens are interchangeable; mapped ones are kept for the author who named them.
@@ -574,7 +574,9 @@ class _StepReplay:
             self.give_to_atom(y, n)
             self.resolved.append(ResolvedMove(move, "bond", (a, b), (y,), n))
             return
-        y, z = self.resolve(sink.bond.first), self.resolve(sink.bond.second)
+        # `C1-H -> O4-H` for a hydrogen moving to O4: the sink's H names one already on O4.
+        moving = _moving_hydrogen_hint(move, sink.bond)
+        y, z = self.resolve(sink.bond.first, moving), self.resolve(sink.bond.second, moving)
         shared = {a, b} & {y, z}
         if not shared:
             self.fail("AR207", f"the bond {sink.bond} shares no atom with {move.source}", sink.loc,
@@ -594,15 +596,22 @@ class _StepReplay:
 def _no_shared_atom_hint(move: Move, sink: BondRef, hydrogen_moves: bool) -> str:
     """The hint of AR207. A hydrogen that moves with its pair (a hydride shift) keeps the name of
     the atom it leaves: `C2-H -> C5-H(C2)`, not `C5-H`, which is a hydrogen already on C5."""
+    moving = _moving_hydrogen_hint(move, sink) if hydrogen_moves else None
+    return moving or "the electrons stay on an atom they started on: the new bond must contain one atom of the source"
+
+
+def _moving_hydrogen_hint(move: Move, sink: BondRef) -> Optional[str]:
+    """For a hydrogen of the source bond sent into a sink bond with an `H` of its own (a hydride
+    shift written `C2-H -> C5-H`): the hydrogen keeps the name of the atom it leaves."""
     source = move.source
     ends = (sink.first, sink.second)
-    if hydrogen_moves and isinstance(source, BondPair) and any(isinstance(e, HydrogenOn) for e in ends):
-        leaves = next((e.parent for e in (source.bond.first, source.bond.second) if isinstance(e, HydrogenOn)), None)
-        taker = next((e for e in ends if not isinstance(e, HydrogenOn)), None)
-        if leaves is not None and taker is not None:
-            return (f"a hydrogen that moves with its pair keeps the name of the atom it leaves: "
-                    f"{source} -> {taker}-H({leaves})")
-    return "the electrons stay on an atom they started on: the new bond must contain one atom of the source"
+    if not isinstance(source, BondPair) or not any(isinstance(e, HydrogenOn) for e in ends):
+        return None
+    leaves = next((e.parent for e in (source.bond.first, source.bond.second) if isinstance(e, HydrogenOn)), None)
+    taker = next((e for e in ends if not isinstance(e, HydrogenOn)), None)
+    if leaves is None or taker is None:
+        return None
+    return f"a hydrogen that moves with its pair keeps the name of the atom it leaves: {source} -> {taker}-H({leaves})"
 
 
 def _rewrite(bond: BondRef, order: int) -> str:

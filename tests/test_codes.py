@@ -155,6 +155,10 @@ TWINS = [
     # A hydride written as a hydrogen already on the atom that takes it.
     Twin("hydride named by the atom that takes it", HYDRIDE_TRANSFER, "C5-H(C2)", "C5-H", "AR207",
          "C2-H -> C5-H", sink=True, hint_says=("C2-H -> C5-H(C2)",)),
+    # The same slip where the taker holds no hydrogen (the ketone carbon of a Meerwein-Ponndorf-Verley
+    # reduction): the sink's bare H names none, and the hint writes the moving one's name.
+    Twin("hydride named by a taker without hydrogen", TEXTBOOK["meerwein-ponndorf-verley"][0], "C7-H(C1)",
+         "C7-H", "AR109", "H\n", says=("C7 carries no hydrogen",), hint_says=("C1-H -> C7-H(C1)",)),
     # The C2-H pair makes C2=C3 a double bond; the sink says single.
     Twin("sink bond written with the wrong order", E2, "C2-H -> C2=C3", "C2-H -> C2-C3", "AR208",
          "C2-H -> C2-C3", sink=True, says=("double",), hint_says=("`C2=C3`",)),
@@ -267,7 +271,7 @@ TWINS = [
          "[O-:1][CH2:2][CH2:3][CH2:5][Br:6]", "AR501", ":O1 -> C5", says=("4-membered",)),
     # Hydroxide deprotonating hydroxide would give oxide, O2- (charge -2).
     Twin("oxide dianion", PROTON_EXCHANGE, '"[OH2:2]"', '"[OH-:2]"', "AR503", 'step "proton exchange"',
-         says=("O2", "-2")),
+         says=("O2", "-2"), hint_says=("formal charge of -2",)),
     # Hydroxide attacks sulfur instead of the methyl carbon: S3 keeps its leaving pair and gains a
     # bond, ten valence electrons (a warning only: third-row atoms may expand their octet). The
     # methyl is left behind as CH3+, which AR511 reports too.

@@ -1505,7 +1505,7 @@ def test_arrows_cross_few_bonds_across_the_gallery():
     assert crossed == []
 
 
-_TEXTBOOK_CROSSINGS = 18   # measured; see the docstring below
+_TEXTBOOK_CROSSINGS = 20   # measured; see the docstring below
 
 
 def test_arrows_cross_few_bonds_across_the_drawn_textbook_schemes():
@@ -1538,7 +1538,10 @@ def test_arrows_cross_few_bonds_across_the_drawn_textbook_schemes():
     and two ring bonds, gives up its hydrogen into the ring bond C3=C8: the hydrogen stands in
     the gap beside the nitrile, the pair's arrow over the C3-C2 bond; 18 with the DMAP
     acetylation, whose ethanol adds to the acylpyridinium carbon from beyond the acetate that has
-    just left it, the arrow bowing over acetate's C=O); 4 are
+    just left it, the arrow bowing over acetate's C=O; 19 with the lactam closure, whose methoxide,
+    where it left the tetrahedral carbon, takes the O-H proton across the new C=O; 20 with the Grob
+    fragmentation, whose C2-C3 pair goes into C3=C4 round a quaternary carbon drawn as a cross, a
+    methyl bond on either side); 4 are
     proton transfers that reach round a bond from a partner within reach (benzoin's ethoxide to
     the C-H, Dieckmann, the Baeyer-Villiger acetate past the other OH) or cross one molecule
     (benzoin's alkoxide to its OH); 6 are crowded centres and rings (ring expansion, SNAr,

@@ -339,6 +339,26 @@ def test_a_ring_made_between_two_molecules_is_noted_once(name, size):
     assert f"{size}-membered ring" in notes[0].message and "Baldwin's rules do not apply" in notes[0].message
 
 
+def test_a_metal_taking_two_donors_of_one_molecule_is_noted_as_a_chelate():
+    """Magnesium taking both oxygens of a Weinreb amide's adduct in one step makes a five-membered
+    chelate (Nahm and Weinreb 1981, from memory: the chelate holds the adduct until work-up); the
+    note says so, where it once called it "an addition across a bond". A bromonium ion, whose
+    bromine bonds to both ends of one pi bond, stays an addition. Judge of the ring size: RDKit's
+    ring perception of the state after the step."""
+    from rdkit import Chem
+    from textbook_mechanisms import TEXTBOOK
+    trace, diags = check_text(TEXTBOOK["weinreb ketone"][0])
+    (note,) = [d for d in diags if d.code == "AR601"]
+    after = Chem.Mol(trace.steps[note.step].after.mol)
+    Chem.FastFindRings(after)
+    assert sorted(len(r) for r in after.GetRingInfo().AtomRings()) == [5]
+    assert "5-membered ring" in note.message and "Mg9 takes a lone pair from each of two atoms" in note.message
+    assert "chelate" in note.message and "addition across a bond" not in note.message
+    _, diags = check_text(TEXTBOOK["bromination"][0])
+    (note,) = [d for d in diags if d.code == "AR601"]
+    assert "addition across a bond" in note.message and "chelate" not in note.message
+
+
 def test_one_new_bond_between_two_molecules_makes_no_ring_note():
     """An SN2 and a hydroboration (the B-H breaks as C-H forms: no ring after) join molecules
     without a ring."""

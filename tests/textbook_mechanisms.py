@@ -56,9 +56,13 @@ through its [3,3] shift (ten steps); a Friedel-Crafts alkylation through the AlC
 tert-butyl chloride; an amine added to acrylonitrile, its ketenimine anion protonated on nitrogen and
 tautomerised by water (aza-Michael); a phthalimide anion alkylated by benzyl bromide (Gabriel); a silyl enol ether added to an
 aldehyde held by TiCl4 (Mukaiyama); an alcohol acetylated through DMAP's acylpyridinium ion.
+Then: an epoxide that migrates along its chain (Payne) and a cyclopropane closed by an enolate
+(Michael-initiated ring closure), both 3-exo-tet; a concerted fragmentation (Grob); an aryl that
+moves to oxygen (Dakin); oxygen silylated (a silyl enol ether); an enol ether hydrolysed; a lactam
+closed by an amine onto its own ester; a magnesium chelate held until work-up (Weinreb).
 
 Each entry: (mechanism text, textbook product SMILES, drawn): `drawn` says whether the geometry
-tests draw it. All do but seven. (Fixed in the layout and the tests since: the Dieckmann
+tests draw it. All do but eight. (Fixed in the layout and the tests since: the Dieckmann
 ethoxide, which stays where it was bonded, and the Cope elimination's oxide waited 1.0 and 1.34
 bond lengths from the hydrogen they take, where the proton-transfer test wants 1.4; the mesylate
 SN2 pushed the ethyl that iodide takes 0.9 bond lengths out along its broken C-O bond, as if it
@@ -94,7 +98,9 @@ either side, takes both spots, and the hydrogen stands 0.26 bond lengths from on
 30 degrees off the bisector, the methyl stood 0.5 away, and the product kept the skew). (The benzyne's ring C#C was held to the
 straight-sp test, and its triple bond, which RDKit flags aromatic, to a single or double one, and
 thionyl chloride's SO2, bent at S, which keeps a lone pair, to the straight-sp test: both tests
-now follow the chemistry.) The nitration's nitronium, straight until the arene bonds to its
+now follow the chemistry.) The Weinreb ketone synthesis waits its MgBr+ beside the adduct where both
+oxygens' arrows cross the propyl chain (the two donors stand on opposite sides of the tetrahedral
+carbon), then redraws the adduct as the chelate ring closes, O3 moving 1.9 bond lengths. The nitration's nitronium, straight until the arene bonds to its
 nitrogen, gets a straight depiction and then a bent one; the Beckmann nitrilium a bent one, a
 straight one, and a bent one again."""
 
@@ -3270,6 +3276,192 @@ end
 product "Cc1cc2ccccc2[nH]1.[NH4+]"
 '''
 
+# Payne rearrangement of 2,3-epoxybutan-1-olate (Payne, J. Org. Chem. 1962, from memory): the
+# alkoxide opens the epoxide at its near carbon from the back (3-exo-tet), the old epoxide oxygen
+# left as the alkoxide: 1-(oxiran-2-yl)ethan-1-olate, an equilibrium in base.
+PAYNE = '''\
+species alkoxide = "[O-:1][CH2:2][CH:3]1[O:5][CH:4]1[CH3:6]"
+step "epoxide migration" reversible
+    :O1 -> C3
+    C3-O5 -> O5
+end
+product "[O-]C(C)C1CO1"
+'''
+
+# Cyclopropane by Michael-initiated ring closure: dimethyl bromomalonate's anion adds to methyl
+# vinyl ketone and the ketone enolate displaces bromide at the malonate carbon (3-exo-tet;
+# common practice, textbook outcome from memory): dimethyl 2-acetylcyclopropane-1,1-dicarboxylate.
+MIRC = '''\
+species enolate = "[CH3:1][O:2][C:3](=[O:4])[C-:5]([Br:6])[C:7](=[O:8])[O:9][CH3:10]"
+species enone = "[CH2:11]=[CH:12][C:13](=[O:14])[CH3:15]"
+step "Michael addition"
+    :C5 -> C5-C11
+    C11=C12 -> C12=C13
+    C13=O14 -> O14
+end
+step "ring closure (3-exo-tet)"
+    :O14 -> C13=O14
+    C12=C13 -> C12-C5
+    C5-Br6 -> Br6
+end
+product "COC(=O)C1(C(=O)OC)CC1C(C)=O.[Br-]"
+'''
+
+# Grob fragmentation of 3-bromo-2,2-dimethylpropan-1-olate (Grob, Angew. Chem. 1969, from memory):
+# one concerted step, the alkoxide's pair making C=O as the C2-C3 bond becomes the alkene and
+# bromide leaves: formaldehyde, 2-methylpropene and bromide.
+GROB = '''\
+species alkoxide = "[O-:1][CH2:2][C:3]([CH3:6])([CH3:7])[CH2:4][Br:5]"
+step "fragmentation"
+    :O1 -> C2=O1
+    C2-C3 -> C3=C4
+    C4-Br5 -> Br5
+end
+product "C=O.C=C(C)C.[Br-]"
+'''
+
+# Dakin oxidation of 4-hydroxybenzaldehyde by alkaline hydrogen peroxide (Clayden, Greeves and
+# Warren, Organic Chemistry, 2nd ed., from memory): the hydroperoxide adds, the aryl group moves to
+# oxygen as hydroxide leaves, and hydroxide cleaves the aryl formate: hydroquinone and formate.
+DAKIN = '''\
+species aldehyde = "[OH:10]c1cc[c:11]([CH:1]=[O:2])cc1"
+species peroxide = "[OH:3][O-:4]"
+step "hydroperoxide adds"
+    :O4 -> C1
+    C1=O2 -> O2
+end
+step "aryl migration"
+    :O2 -> C1=O2
+    C1-C11 -> C11-O4
+    O4-O3 -> O3
+end
+step "hydroxide adds to the formate"
+    :O3 -> C1
+    C1=O2 -> O2
+end
+step "phenoxide leaves"
+    :O2 -> C1=O2
+    C1-O4 -> O4
+end
+step "proton transfer"
+    :O4 -> H(O3)
+    O3-H -> O3
+end
+product "Oc1ccc(O)cc1.O=C[O-]"
+'''
+
+# Silyl enol ether of cyclohexanone from Me3SiCl and Et3N (House, J. Org. Chem. 1969, from memory):
+# the carbonyl oxygen takes silicon as chloride leaves, and the amine removes the alpha proton of
+# the silyloxocarbenium ion: 1-(trimethylsilyloxy)cyclohexene.
+SILYL_ENOL_ETHER = '''\
+species ketone = "[O:7]=[C:1]1[CH2:2][CH2:3][CH2:4][CH2:5][CH2:6]1"
+species tmscl = "C[Si:8](C)(C)[Cl:9]"
+species base = "CC[N:10](CC)CC"
+step "O-silylation"
+    :O7 -> Si8
+    Si8-Cl9 -> Cl9
+end
+step "deprotonation"
+    :N10 -> H(C2)
+    C2-H -> C1=C2
+    C1=O7 -> O7
+end
+product "C[Si](C)(C)OC1=CCCCC1"
+'''
+
+# Acid hydrolysis of ethyl vinyl ether (common practice; outcome from memory): protonation at the
+# terminal carbon gives the oxocarbenium ion, water adds, and the hemiacetal loses ethanol:
+# acetaldehyde and ethanol.
+ENOL_ETHER_HYDROLYSIS = '''\
+species ether = "[CH2:1]=[CH:2][O:3][CH2:4][CH3:5]"
+species acid = "[OH3+:6]"
+species water = "[OH2:7]"
+step "C-protonation"
+    C1=C2 -> C1-H(O6)
+    O6-H -> O6
+end
+step "water adds"
+    :O7 -> C2
+end
+step "proton transfer"
+    :O6 -> H(O7)
+    O7-H -> O7
+end
+step "O-protonation"
+    :O3 -> H(O6)
+    O6-H -> O6
+end
+step "loss of ethanol"
+    :O7 -> C2=O7
+    C2-O3 -> O3
+end
+step "deprotonation"
+    :O6 -> H(O7)
+    O7-H -> O7
+end
+product "CC=O.CCO.[OH3+]"
+'''
+
+# Lactam from methyl 5-aminopentanoate (common practice; outcome from memory): the amine closes a
+# six-membered ring onto the ester carbonyl (6-exo-trig), a proton moves from N to O-, and
+# methoxide leaves and takes the O-H proton: piperidin-2-one and methanol.
+LACTAM = '''\
+species ester = "[NH2:1][CH2:2][CH2:3][CH2:4][CH2:5][C:6](=[O:7])[O:8][CH3:9]"
+step "ring closure" reversible
+    :N1 -> C6
+    C6=O7 -> O7
+end
+step "proton transfer" reversible
+    :O7 -> H(N1)
+    N1-H -> N1
+end
+step "loss of methoxide"
+    :O7 -> C6=O7
+    C6-O8 -> O8
+end
+step "proton transfer"
+    :O8 -> H(O7)
+    O7-H -> O7
+end
+product "O=C1CCCCN1.CO"
+'''
+
+# Weinreb ketone synthesis (Nahm and Weinreb, Tetrahedron Lett. 1981, from memory): propylmagnesium
+# bromide adds to N-methoxy-N-methylacetamide; magnesium holds both oxygens of the adduct in a
+# five-membered chelate, so the adduct does not collapse until acid work-up: pentan-2-one.
+WEINREB = '''\
+species amide = "[CH3:1][C:2](=[O:3])[N:4]([CH3:5])[O:6][CH3:7]"
+species grignard = "CC[CH2:8][Mg:9][Br:10]"
+step "addition" over "PrMgBr" under "THF, 0 °C"
+    C8-Mg9 -> C8-C2
+    C2=O3 -> O3
+end
+step "chelate"
+    :O3 -> Mg9
+    :O6 -> Mg9
+    expect "CCCC1(C)O[Mg-](Br)[O+](C)N1C"
+end
+step "workup" uses acid = "[OH3+:11]"
+    O3-Mg9 -> O3
+    O6-Mg9 -> O6
+    :O3 -> H(O11)
+    O11-H -> O11
+end
+step "hemiaminal collapses" uses acid2 = "[OH3+:12]"
+    :N4 -> H(O12)
+    O12-H -> O12
+end
+step "loss of the amine"
+    :O3 -> C2=O3
+    C2-N4 -> N4
+end
+step "deprotonation"
+    :O12 -> H(O3)
+    O3-H -> O3
+end
+product "CCCC(C)=O"
+'''
+
 TEXTBOOK = {
     "wittig": (WITTIG, "C=C(C)C.O=P(c1ccccc1)(c1ccccc1)c1ccccc1", True),
     "bromination": (BROMINATION, "Br[C@@H]1CCCC[C@H]1Br", True),
@@ -3411,4 +3603,14 @@ TEXTBOOK = {
     "gabriel": (GABRIEL, "O=C1c2ccccc2C(=O)N1Cc1ccccc1.[Br-]", True),
     "aza-michael": (AZA_MICHAEL, "N#CCCN1CCCCC1.O", True),
     "friedel-crafts alkylation": (FRIEDEL_CRAFTS_ALKYLATION, "CC(C)(C)c1ccccc1.Cl.Cl[Al](Cl)Cl", False),   # the arenium's H 0.26 from a tert-butyl methyl
+    "payne rearrangement": (PAYNE, "CC([O-])C1CO1", True),
+    "michael-initiated ring closure": (MIRC, "COC(=O)C1(C(=O)OC)CC1C(C)=O.[Br-]", True),
+    "grob fragmentation": (GROB, "C=O.C=C(C)C.[Br-]", True),
+    "dakin": (DAKIN, "Oc1ccc(O)cc1.O=C[O-]", True),
+    "silyl enol ether": (SILYL_ENOL_ETHER, "C[Si](C)(C)OC1=CCCCC1.[Cl-].CC[NH+](CC)CC", True),
+    "enol ether hydrolysis": (ENOL_ETHER_HYDROLYSIS, "CC=O.CCO.[OH3+]", True),
+    "lactam": (LACTAM, "O=C1CCCCN1.CO", True),
+    # the chelating MgBr+ waits where its two oxygens' arrows cross the propyl chain, and the adduct is
+    # redrawn (O3 moves 1.9 bond lengths) as the chelate ring closes
+    "weinreb ketone": (WEINREB, "CCCC(C)=O.CNOC.O.Br[Mg+].[OH3+]", False),
 }

@@ -73,6 +73,22 @@ def closures_in_step(st: StepTrace) -> list[StepClosure]:
     return found
 
 
+def _chelating_acceptor(st: StepTrace, first: tuple[int, int], second: Optional[tuple[int, int]]) -> Optional[int]:
+    """The atom of two new bonds each made from the other end's lone pair (a metal taking both
+    oxygens of a Weinreb amide's adduct); None when the bonds share no atom or are made otherwise
+    (a bromonium ion's or a carbene's bonds to both ends of one pi bond)."""
+    if second is None:
+        return None
+    shared = set(first) & set(second)
+    if len(shared) != 1:
+        return None
+    acceptor = shared.pop()
+    donors = {first[0] + first[1] - acceptor, second[0] + second[1] - acceptor}
+    given = {m.source_atoms[0] for m in st.change.moves
+             if m.source_kind == "lone_pair" and set(m.sink_atoms) == {m.source_atoms[0], acceptor}}
+    return acceptor if donors <= given else None
+
+
 def _electrocyclic(st: StepTrace, path: tuple[int, ...]) -> bool:
     """Whether every arrow starts at a bond and the step changes every atom of the ring it closes:
     a conjugated array closing on itself, the charge of an ion moved along it (a Nazarov closure of
@@ -203,11 +219,15 @@ class RingClosures(Check):
         size = len(c.ring)
         opening = f"{a}-{b} closes a {size}-membered ring"
         if c.closure is None and c.between_molecules:
-            second = next((f"{label(i)}-{label(j)}" for i, j in st.change.formed
-                           if {i, j} <= set(c.ring) and {i, j} != {c.nucleophile, c.attacked}), "a second new bond")
+            bond = next(((i, j) for i, j in st.change.formed
+                         if {i, j} <= set(c.ring) and {i, j} != {c.nucleophile, c.attacked}), None)
+            second = f"{label(bond[0])}-{label(bond[1])}" if bond else "a second new bond"
+            acceptor = _chelating_acceptor(st, (c.nucleophile, c.attacked), bond) if size > 3 else None
+            how = (f"{label(acceptor)} takes a lone pair from each of two atoms of one molecule: a chelate"
+                   if acceptor is not None else "an addition across a bond")
             return Diagnostic("AR601", f"{a}-{b} and {second} make a {size}-membered ring between two molecules "
-                              f"(an addition across a bond, not the closure of one chain); Baldwin's rules do "
-                              f"not apply", c.loc or st.step.loc, **where)
+                              f"({how}, not the closure of one chain); Baldwin's rules do not apply",
+                              c.loc or st.step.loc, **where)
         if c.closure is None:
             return Diagnostic("AR601", f"{opening} in a pericyclic step (electrons moving round a cyclic array of atoms); "
                               f"Baldwin's rules do not apply", c.loc or st.step.loc, **where)

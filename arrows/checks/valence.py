@@ -90,7 +90,7 @@ class UnusualElectronCounts(Check):
             if abs(charge) >= 2 and after.elements[i] not in _IONIC_METALS:
                 label = after.label(i)
                 yield Diagnostic("AR503", f"{label} ends the step with formal charge {charge:+d}", st.step.loc,
-                                 hint="a charge of two on one atom is rare; check the moves onto this atom",
+                                 hint=f"a formal charge of {charge:+d} on one atom is rare; check the moves onto this atom",
                                  atoms=(label,), step=st.index)
         for i, shell in st.change.shells.items():
             element = after.elements[i]

@@ -2492,6 +2492,7 @@ class _LayoutBuilder:
         along the line it will come in on (only atoms the next step touches may move, and a new
         run starts only where they all are). Earlier runs are left to their own events (a
         proton it gives away first) or, failing those, to the place it waits in."""
+        ready = []
         for index, cluster in enumerate(self.clusters):
             acted = [start for start in cluster.placement if start not in cluster.waited]
             if not acted:
@@ -2500,13 +2501,31 @@ class _LayoutBuilder:
             earlier = [segment for segment in cluster.segments if segment[0] < first]
             if not earlier or earlier[-1][0] in cluster.placement:
                 continue
-            start, end = earlier[-1]
-            arrival = self._backside_arrival(cluster, first, cluster.placement[first])
-            cluster.placement[start] = self._waiting(index, (start, end), arrival, first)
-            cluster.waited.add(start)
-            self._apply(index)
-            return True
-        return False
+            ready.append((index, first, earlier[-1]))
+        if not ready:
+            return False
+        index, first, (start, end) = ready[0]
+        # Of the clusters of one molecule, the one that bonds as the molecule arrives waits first,
+        # facing its partner, and the rest hangs on it: hydroperoxide's O- toward the aldehyde
+        # carbon, its OH behind, not the OH (which bonds there three steps later) pointing the way.
+        if not self._bonds_as_it_arrives(self.clusters[index], first):
+            molecule = next(m for m in self.molecules[start] if self.clusters[index].atoms[0] in m)
+            index, first, (start, end) = next(
+                (c for c in ready if self.clusters[c[0]].atoms[0] in molecule and c[2][0] == start
+                 and self._bonds_as_it_arrives(self.clusters[c[0]], c[1])), ready[0])
+        cluster = self.clusters[index]
+        arrival = self._backside_arrival(cluster, first, cluster.placement[first])
+        cluster.placement[start] = self._waiting(index, (start, end), arrival, first)
+        cluster.waited.add(start)
+        self._apply(index)
+        return True
+
+    def _bonds_as_it_arrives(self, cluster: _Cluster, first: int) -> bool:
+        """Whether a bond of the cluster forms in the step into panel `first`."""
+        if first == 0:
+            return False
+        made = self.bonds_in[first] - self.bonds_in[first - 1]
+        return any((min(a, n), max(a, n)) in made for a in cluster.atoms for n in self.neighbours[a])
 
     @staticmethod
     def _bonds_on_arrival(cluster: _Cluster, start: int) -> bool:
@@ -2724,13 +2743,15 @@ class _LayoutBuilder:
                 continue
             if (min(holder, partner), max(holder, partner)) in self.bonds_in[k]:
                 continue   # a 1,2-shift: the hydrogen leans toward the atom it moves to
-            panels = [k]
-            while panels[0] > 0 and self._holder(panels[0] - 1, h) == holder and h in self.positions[panels[0] - 1]:
-                panels.insert(0, panels[0] - 1)
+            # The panels before, back to where the holder or the partner stood elsewhere (a ring
+            # closed onto the holder, as a lactam's amine adds to its ester): there the hydrogen
+            # moves with its holder anyway.
             centre = here[holder]
-            if any(self.positions[p].get(holder) != centre or self.positions[p].get(partner) != here[partner]
-                   for p in panels):
-                continue   # the holder or the partner moves meanwhile: left as drawn
+            panels = [k]
+            while (panels[0] > 0 and self._holder(panels[0] - 1, h) == holder and h in self.positions[panels[0] - 1]
+                   and self.positions[panels[0] - 1].get(holder) == centre
+                   and self.positions[panels[0] - 1].get(partner) == here[partner]):
+                panels.insert(0, panels[0] - 1)
             start = here[h] - centre
             others = [q for p in panels for a, q in self.positions[p].items() if a not in (h, holder)]
             bonds = [(self.positions[p][i], self.positions[p][j]) for p in panels for i, j in self.bonds_in[p]
