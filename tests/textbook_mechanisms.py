@@ -59,7 +59,10 @@ aldehyde held by TiCl4 (Mukaiyama); an alcohol acetylated through DMAP's acylpyr
 Then: an epoxide that migrates along its chain (Payne) and a cyclopropane closed by an enolate
 (Michael-initiated ring closure), both 3-exo-tet; a concerted fragmentation (Grob); an aryl that
 moves to oxygen (Dakin); oxygen silylated (a silyl enol ether); an enol ether hydrolysed; a lactam
-closed by an amine onto its own ester; a magnesium chelate held until work-up (Weinreb).
+closed by an amine onto its own ester; a magnesium chelate held until work-up (Weinreb); SO3 attacked
+at sulfur by an arene, an acid chloride that takes two Grignard methyls, a kinetic enolate made
+by LDA and methylated, an alkyne from two eliminations, anisole brominated para through FeBr4-,
+and an iminium ion hydrolysed.
 
 Each entry: (mechanism text, textbook product SMILES, drawn): `drawn` says whether the geometry
 tests draw it. All do but eight. (Fixed in the layout and the tests since: the Dieckmann
@@ -3462,6 +3465,148 @@ end
 product "CCCC(C)=O"
 '''
 
+# Sulfonation of benzene with SO3 (Clayden, Greeves and Warren, Organic Chemistry, 2nd ed., ch. 21,
+# from memory): the arene attacks sulfur as an S=O pair moves onto oxygen, hydrogensulfate takes
+# the arenium ion's proton, and the sulfonate takes it back from sulfuric acid: benzenesulfonic acid.
+SULFONATION = '''\
+species benzene = "[cH:1]1[cH:2][cH:3][cH:4][cH:5][cH:6]1"
+species so3 = "[O:8]=[S:7](=[O:9])=[O:10]"
+species base = "[O-:11][S:12](=O)(=O)[OH:13]"
+step "attack on sulfur"
+    C1=C2 -> C1-S7
+    S7=O8 -> O8
+end
+step "rearomatisation"
+    :O11 -> H(C1)
+    C1-H -> C1=C2
+end
+step "proton transfer"
+    :O8 -> H(O11)
+    O11-H -> O11
+end
+product "O=S(=O)(O)c1ccccc1.O=S(=O)([O-])O"
+'''
+
+# Acetyl chloride with two equivalents of methylmagnesium bromide (Clayden, Greeves and Warren,
+# Organic Chemistry, 2nd ed., ch. 10, from memory): the ketone made when chloride leaves is more
+# reactive than the acid chloride and takes the second methyl; work-up gives 2-methylpropan-2-ol.
+ACYL_CHLORIDE_GRIGNARD = '''\
+species chloride = "[CH3:1][C:2](=[O:3])[Cl:4]"
+species grignard = "[CH3:5][Mg:6][Br:7]"
+step "first addition"
+    C5-Mg6 -> C5-C2
+    C2=O3 -> O3
+end
+step "chloride leaves"
+    :O3 -> C2=O3
+    C2-Cl4 -> Cl4
+end
+step "second addition" uses grignard2 = "[CH3:8][Mg:9][Br:10]"
+    C8-Mg9 -> C8-C2
+    C2=O3 -> O3
+end
+step "work-up" uses acid = "[OH3+:11]"
+    :O3 -> H(O11)
+    O11-H -> O11
+end
+product "CC(C)(C)O"
+'''
+
+# Kinetic enolate of 2-methylcyclohexanone (LDA, -78 C) and its methylation (House; Clayden,
+# Greeves and Warren, Organic Chemistry, 2nd ed., ch. 26, from memory): the hindered base takes a
+# proton from the less substituted CH2, and methyl iodide alkylates there: 2,6-dimethylcyclohexanone.
+KINETIC_ENOLATE_METHYLATION = '''\
+species ketone = "[O:7]=[C:1]1[CH:2]([CH3:8])[CH2:3][CH2:4][CH2:5][CH2:6]1"
+species lda = "CC(C)[N-:9]C(C)C"
+species mei = "[CH3:10][I:11]"
+step "kinetic deprotonation" over "LDA" under "THF, -78 °C"
+    :N9 -> H(C6)
+    C6-H -> C1=C6
+    C1=O7 -> O7
+end
+step "methylation"
+    :O7 -> C1=O7
+    C1=C6 -> C6-C10
+    C10-I11 -> I11
+end
+product "CC1CCCC(C)C1=O"
+'''
+
+# But-2-yne from 2,3-dibromobutane and sodium amide (common practice; outcome from memory): two E2
+# eliminations, the second from the vinyl bromide, each amide ion taking the proton anti to a bromide.
+DOUBLE_DEHYDROBROMINATION = '''\
+species dibromide = "[CH3:1][CH:2]([Br:5])[CH:3]([Br:6])[CH3:4]"
+species base = "[NH2-:7]"
+step "first E2"
+    :N7 -> H(C2)
+    C2-H -> C2=C3
+    C3-Br6 -> Br6
+end
+step "second E2" uses base2 = "[NH2-:8]"
+    :N8 -> H(C3)
+    C3-H -> C2#C3
+    C2-Br5 -> Br5
+end
+product "CC#CC"
+'''
+
+# Bromination of anisole with Br2 and FeBr3 (Clayden, Greeves and Warren, Organic Chemistry, 2nd
+# ed., ch. 21, from memory): bromine held by the Lewis acid is attacked at the para carbon, the
+# methoxy lone pair pushing through the ring (an oxocarbenium form of the sigma complex), and a
+# bromide of FeBr4- takes the proton back: 4-bromoanisole, HBr and FeBr3.
+ANISOLE_BROMINATION = '''\
+species anisole = "[CH3:8][O:7][c:1]1[cH:2][cH:3][cH:4][cH:5][cH:6]1"
+species bromine = "[Br:9][Br:10]"
+species fe = "[Fe:11]([Br:12])([Br:13])[Br:14]"
+step "Lewis acid complex"
+    :Br10 -> Fe11
+end
+step "attack at C4"
+    :O7 -> C1=O7
+    C1=C2 -> C2=C3
+    C3=C4 -> C4-Br9
+    Br9-Br10 -> Br10
+end
+step "rearomatisation"
+    :Br10 -> H(C4)
+    C4-H -> C3=C4
+    C2=C3 -> C1=C2
+    C1=O7 -> O7
+    Fe11-Br10 -> Br10
+end
+product "COc1ccc(Br)cc1"
+'''
+
+# Hydrolysis of an iminium ion (common practice; outcome from memory): water adds to the C=N+
+# carbon, a proton moves from oxygen to nitrogen by way of water and hydronium, and methylamine
+# leaves as the C=O forms: acetone and methylamine.
+IMINIUM_HYDROLYSIS = '''\
+species iminium = "[CH3:1][C:2]([CH3:3])=[NH+:4][CH3:5]"
+species water = "[OH2:6]"
+species water2 = "[OH2:7]"
+step "water adds"
+    :O6 -> C2
+    C2=N4 -> N4
+end
+step "proton transfer" 
+    :O7 -> H(O6)
+    O6-H -> O6
+end
+step "N-protonation" uses acid = "[OH3+:8]"
+    :N4 -> H(O8)
+    O8-H -> O8
+end
+step "loss of methylamine"
+    :O6 -> C2=O6
+    C2-N4 -> N4
+end
+step "deprotonation"
+    :O8 -> H(O6)
+    O6-H -> O6
+end
+product "CC(C)=O"
+'''
+
 TEXTBOOK = {
     "wittig": (WITTIG, "C=C(C)C.O=P(c1ccccc1)(c1ccccc1)c1ccccc1", True),
     "bromination": (BROMINATION, "Br[C@@H]1CCCC[C@H]1Br", True),
@@ -3613,4 +3758,10 @@ TEXTBOOK = {
     # the chelating MgBr+ waits where its two oxygens' arrows cross the propyl chain, and the adduct is
     # redrawn (O3 moves 1.9 bond lengths) as the chelate ring closes
     "weinreb ketone": (WEINREB, "CCCC(C)=O.CNOC.O.Br[Mg+].[OH3+]", False),
+    "sulfonation": (SULFONATION, "O=S(=O)(O)c1ccccc1.O=S(=O)([O-])O", True),
+    "acyl chloride double grignard": (ACYL_CHLORIDE_GRIGNARD, "CC(C)(C)O.O.[Cl-].Br[Mg+].Br[Mg+]", True),
+    "kinetic enolate methylation": (KINETIC_ENOLATE_METHYLATION, "CC1CCCC(C)C1=O.CC(C)NC(C)C.[I-]", True),
+    "double dehydrobromination": (DOUBLE_DEHYDROBROMINATION, "CC#CC.N.N.[Br-].[Br-]", True),
+    "anisole bromination": (ANISOLE_BROMINATION, "COc1ccc(Br)cc1.Br.Br[Fe](Br)Br", True),
+    "iminium hydrolysis": (IMINIUM_HYDROLYSIS, "CC(C)=O.CN.[OH3+].[OH3+]", True),
 }

@@ -1023,7 +1023,8 @@ class _LayoutBuilder:
             # keeps room for a fifth: squeezed between two of a cross, the partner stood 45
             # degrees from each, its label on theirs.
             for a in (i, j):
-                if any((i, j) in bonds and self._heavy_degree(a, bonds) >= 5 for bonds in self.bonds_in):
+                if any((i, j) in bonds and self._heavy_degree(a, bonds) >= 5 for bonds in self.bonds_in) \
+                        or self._lewis_acid_taking_fourth(a, (i, j)):
                     room[a] = room.get(a, 0) + 1
             # A ring atom with three heavy neighbours of its own, one of them a heteroatom that
             # bonds to it to close the ring, keeps room for its fourth too, so that the ring's
@@ -1037,6 +1038,24 @@ class _LayoutBuilder:
                         and self._ring_through(a, n) >= 5 for n in self.neighbours[a]):
                     room[a] = room.get(a, 0) + 1
         return room
+
+    def _lewis_acid_taking_fourth(self, atom: int, bond: tuple[int, int]) -> bool:
+        """Whether `atom`, beyond the second period and holding three heavy neighbours and no
+        lone pair, gains `bond` as a fourth as one of its pi bonds goes onto a neighbour (SO3's
+        sulfur bonding to an arene). Drawn trigonal, the new bond went in 60 degrees from two of
+        the three: the arenium's hydrogen had no room beside the sulfonyl oxygens. A Lewis acid
+        that only takes a lone pair (Al(OiPr)3 holding a ketone for its six-membered hydride
+        transfer) keeps two ligands close; an atom with a lone pair (a phosphine) stays trigonal."""
+        if self.element[atom] <= 10:
+            return False
+        for k, (before, after) in enumerate(zip(self.bonds_in, self.bonds_in[1:])):
+            state = self.states[k]
+            if (bond in after and bond not in before and atom < len(state.nonbonding) and state.nonbonding[atom] == 0
+                    and self._heavy_degree(atom, before) == 3 and self._heavy_degree(atom, after) == 4
+                    and any(self.orders_in[k + 1].get(pair, 0) < order for pair, order in self.orders_in[k].items()
+                            if atom in pair)):
+                return True
+        return False
 
     def _heavy_degree(self, atom: int, bonds: set[tuple[int, int]]) -> int:
         """How many of `bonds` join `atom` to a heavy atom."""
