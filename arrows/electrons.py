@@ -739,6 +739,10 @@ def _bond_faults(state: ElectronState, step: Step, step_index: int, replay: _Ste
             hint = "a bond split by fishhooks sends one electron to each side"
             if len(left) == 1:
                 hint += f": add `{first.source} ~> {state.label(left[0])}`"
+        if first.electrons == 1 and len(step.moves) > 1 and all(m.electrons == 2 for m in step.moves if m is not first):
+            # One fishhook among pair arrows: most often `~>` typed for `->`.
+            hint = (f"the step's other arrows move pairs: if this one does too, write `{first.source} -> {first.sink}`; "
+                    f"otherwise, {hint}")
         found.append(Diagnostic("AR303", f"the bond {label} is left with {after} electron{'s' if after > 1 else ''}",
                                 first.loc, hint, bonds=bonds, step=step_index))
     elif after > 6:

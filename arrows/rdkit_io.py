@@ -70,6 +70,35 @@ def explain_smiles_failure(lines: list[str]) -> tuple[str, Optional[int]]:
     return reason or "RDKit could not read it", position
 
 
+# RDKit's words for an atom over its valence; it counts atoms from 0 in the order written.
+_VALENCE = re.compile(r"Explicit valence for atom # (\d+) ([A-Za-z]+), (\d+), is greater than permitted")
+_ATOM_TOKEN = re.compile(r"\[[^\]]*\]|Br|Cl|[BCNOPSFI]|[bcnops]|\*")
+
+
+def _over_valence(reason: str, smiles: str) -> Optional[tuple[str, int]]:
+    """RDKit's valence complaint in the author's terms: the atom as written and where it stands in
+    the SMILES, for `Explicit valence for atom # 2 C, 4, ...`; None for any other reason."""
+    match = _VALENCE.search(reason)
+    if match is None:
+        return None
+    index, element, valence = int(match.group(1)), match.group(2), int(match.group(3))
+    tokens = list(_ATOM_TOKEN.finditer(smiles))
+    if index >= len(tokens):
+        return None
+    token = tokens[index]
+    return (f"{token.group()}, atom {index + 1} as written, would have valence {valence} (its bonds and "
+            f"hydrogens), more than RDKit allows for {element} with that charge", token.start())
+
+
+def reading_hint(reason: str, otherwise: str) -> str:
+    """The hint for a SMILES RDKit rejects: for an atom over its valence, how brackets count
+    hydrogens; `otherwise` for any other reason."""
+    if "more than RDKit allows" in reason:
+        return ("count the atom's bonds, hydrogens and charge: in brackets it has exactly the hydrogens "
+                "written ([CH3] three, [C] none), and a carbanion [C-] has at most three bonds")
+    return otherwise
+
+
 _AS_WRITTEN = Chem.SmilesParserParams()   # hydrogens kept, nothing sanitized: read only, shared
 _AS_WRITTEN.removeHs = False
 _AS_WRITTEN.sanitize = False
@@ -96,7 +125,7 @@ def read_smiles(smiles: str, sanitize: bool = True) -> tuple[Optional[Chem.Mol],
         if not smiles.strip():
             return None, "empty SMILES", 0
         reason, position = explain_smiles_failure(lines)
-        return None, reason, position
+        return (None, *(_over_valence(reason, smiles) or (reason, position)))
     return mol, "", None
 
 

@@ -185,6 +185,10 @@ TWINS = [
     # RDKit's own reason, located at the character RDKit points at (the unclosed branch).
     Twin("SMILES RDKit cannot read", SN2, '"[CH3:2][Br:3]"', '"[CH3:2]([Br:3]"', "AR102", "([Br:3]",
          says=("parenthes",)),
+    # A methyl written [CH3] keeps its three hydrogens: bonded to two more atoms it is over its valence.
+    # RDKit's "atom # 0" is told as the atom written, and the error points at it.
+    Twin("SMILES atom over its valence", SN2, '"[CH3:2][Br:3]"', '"[CH3:2](C)[Br:3]"', "AR102", "[CH3:2](C)",
+         says=("[CH3:2], atom 1 as written", "valence 5"), hint_says=("exactly the hydrogens written",)),
     Twin("checkpoint SMILES RDKit cannot read", SN2, 'product "CO.[Br-]"', 'product "CO.[Br-"', "AR102",
          "product"),
     Twin("map number used twice", SN2, '"[OH-:1]"', '"[OH-:3]"', "AR103", "[Br:3]", says=("line 1",)),
@@ -229,6 +233,9 @@ TWINS = [
     # The colon dropped: the fishhook now makes half a Na-O bond instead of handing the electron over.
     Twin("electron transfer written as a bond", KETYL, ".Na1 ~> :O3", ".Na1 ~> O3", "AR303", ".Na1 ~> O3",
          hint_says=("end the arrow at :O3",)),
+    # A fishhook typed among pair arrows (`~>` for `->`): the hint offers the pair arrow first.
+    Twin("lone fishhook in a polar step", SN2, ":O1 -> C2", ":O1 ~> C2", "AR303", ":O1 ~> C2",
+         says=("O1-C2", "1 electron"), hint_says=("if this one does too, write `:O1 -> C2`",)),
     # Bromine atom adding to propene with the pi bond's second fishhook left out: the hint writes it.
     Twin("pi bond split by one fishhook", TEXTBOOK["radical hbr addition"][0], "    C4=C5 ~> C4\n", "", "AR303",
          "C4=C5 ~> C5-Br3", says=("C4-C5", "3 electrons"), hint_says=("`C4=C5 ~> C4`",)),

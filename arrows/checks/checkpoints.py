@@ -12,7 +12,7 @@ from ..diagnostics import Diagnostic
 from ..electrons import ElectronState, atom_label, order_word
 from ..judgement.perception import RecentViews
 from ..model import Checkpoint
-from ..rdkit_io import atom_list, nuclide, rdkit_messages, read_smiles, sanitize
+from ..rdkit_io import atom_list, nuclide, rdkit_messages, read_smiles, reading_hint, sanitize
 from ..trace import StepTrace
 from . import Check, Ending
 
@@ -138,7 +138,7 @@ def compare(state: ElectronState, checkpoint: Checkpoint, code: str, step: Optio
     written, reason, maps = _written_fragments(checkpoint)
     if written is None:
         return [Diagnostic("AR102", f"RDKit cannot read the checkpoint SMILES: {reason}", checkpoint.loc,
-                           hint="check brackets, ring-closure digits and charges", step=step)]
+                           hint=reading_hint(reason, "check brackets, ring-closure digits and charges"), step=step)]
     derived = _derived_fragments(state, maps, views)
     # Equal canonical SMILES means an equal number of atoms: only pieces of a written size are
     # written out and compared; the others are left over as they are.
