@@ -611,7 +611,9 @@ def _moving_hydrogen_hint(move: Move, sink: BondRef) -> Optional[str]:
     taker = next((e for e in ends if not isinstance(e, HydrogenOn)), None)
     if leaves is None or taker is None:
         return None
-    return f"a hydrogen that moves with its pair keeps the name of the atom it leaves: {source} -> {taker}-H({leaves})"
+    arrow = "~>" if move.electrons == 1 else "->"
+    return (f"a hydrogen that moves with its {'electron' if move.electrons == 1 else 'pair'} keeps the name of the "
+            f"atom it leaves: {source} {arrow} {taker}-H({leaves})")
 
 
 def _rewrite(bond: BondRef, order: int) -> str:

@@ -159,6 +159,11 @@ TWINS = [
     # reduction): the sink's bare H names none, and the hint writes the moving one's name.
     Twin("hydride named by a taker without hydrogen", TEXTBOOK["meerwein-ponndorf-verley"][0], "C7-H(C1)",
          "C7-H", "AR109", "H\n", says=("C7 carries no hydrogen",), hint_says=("C1-H -> C7-H(C1)",)),
+    # And with one electron: a chlorine atom taking methane's hydrogen, the fishhook kept in the hint.
+    Twin("hydrogen atom named by a taker without hydrogen", 'species chlorine = "[Cl:2]"\nspecies methane = '
+         '"[CH4:3]"\nstep "abstraction"\n    .Cl2 ~> Cl2-H(C3)\n    C3-H ~> Cl2-H(C3)\n    C3-H ~> C3\nend\n',
+         "    C3-H ~> Cl2-H(C3)", "    C3-H ~> Cl2-H", "AR109", "H\n", says=("Cl2 carries no hydrogen",),
+         hint_says=("with its electron", "C3-H ~> Cl2-H(C3)")),
     # The C2-H pair makes C2=C3 a double bond; the sink says single.
     Twin("sink bond written with the wrong order", E2, "C2-H -> C2=C3", "C2-H -> C2-C3", "AR208",
          "C2-H -> C2-C3", sink=True, says=("double",), hint_says=("`C2=C3`",)),

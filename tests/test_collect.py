@@ -25,6 +25,8 @@ from pathlib import Path
 import pytest
 from pypdf import PdfReader
 
+from textbook_mechanisms import TEXTBOOK
+
 ROOT = Path(__file__).resolve().parent.parent
 GALLERY = sorted((ROOT / "gallery").glob("*.mech"))
 SCHEMES = 33    # 30 from the gallery and its variations, 3 broken on purpose
@@ -424,49 +426,34 @@ def test_a_broken_worker_pool_ends_the_map_with_worker_died_at_the_next_submit()
             list(pool.map(abs, [1, -2, 3]))
 
 
-SULFONATION = '''\
-title "Sulfonation of benzene"
-species benzene = "[cH:1]1[cH:2][cH:3][cH:4][cH:5][cH:6]1"
-species so3 = "[O:8]=[S:7](=[O:9])=[O:10]"
-step "attack at sulfur"
-    C1=C2 -> C1-S7
-    S7=O8 -> O8
-end
-step "rearomatisation"
-    :O8 -> H(C1)
-    C1-H -> C1=C2
-end
-product "OS(=O)(=O)c1ccccc1"
-'''
-
-
 def test_the_layout_notes_of_every_figure_are_reported(tmp_path):
     """What `arrows draw` prints as a note when the layout had to compromise ("check the figure")
     is reported by a batch too: on the console, in the index and in the JSON report, scheme by
-    scheme, the same notes as the scene's. (The sulfonation's arenium H shares its place with an
-    oxygen of the squeezed SO3, a compromise known to the layout; the SN2 of the gallery has none.)
+    scheme, the same notes as the scene's. (The Friedel-Crafts alkylation's arenium H stands 0.26 bond
+    lengths from a tert-butyl methyl, a compromise known to the layout; the SN2 of the gallery has
+    none.)
     They were once dropped, so a batch of SI figures said nothing of a figure that needs a look."""
     import arrows
     from arrows.draw import STYLES, build_scene
     folder = tmp_path / "schemes"
     folder.mkdir()
-    (folder / "a-sulfonation.mech").write_text(SULFONATION)
+    (folder / "a-alkylation.mech").write_text(TEXTBOOK["friedel-crafts alkylation"][0])
     shutil.copy(ROOT / "gallery" / "08-sn2-cyanide.mech", folder / "b-sn2.mech")
     expected = {}
     for path in sorted(folder.glob("*.mech")):
         trace, diags = arrows.check_file(path)
         expected[path.name] = build_scene(trace, STYLES["one-column"].with_options(show_title=False), diags).notes
-    assert expected["a-sulfonation.mech"] and not expected["b-sn2.mech"]
+    assert expected["a-alkylation.mech"] and not expected["b-sn2.mech"]
     out = tmp_path / "si.pdf"
     proc = collect(folder, "-o", out, "-j", "1", "--style", "one-column", "--cache", tmp_path / "cache",
                    "--report", tmp_path / "report.json")
     assert proc.returncode == 0, proc.stderr
-    for label, name in (("S1", "a-sulfonation.mech"), ("S2", "b-sn2.mech")):
+    for label, name in (("S1", "a-alkylation.mech"), ("S2", "b-sn2.mech")):
         printed = [line.split(": note: ", 1)[1] for line in proc.stderr.splitlines()
                    if line.startswith(f"{label} {name}: note: ")]
         assert printed == list(expected[name])
     report = {s["file"]: s["layout_notes"] for s in json.loads((tmp_path / "report.json").read_text())["schemes"]}
     assert report == {name: list(notes) for name, notes in expected.items()}
     index = (tmp_path / "si-figures" / "index.html").read_text()
-    for note in expected["a-sulfonation.mech"]:
+    for note in expected["a-alkylation.mech"]:
         assert f"figure: {note}" in index

@@ -471,3 +471,26 @@ def test_an_ionising_leaving_group_gets_a_readable_half_loop():
     standoff = max(abs(((p - centre) / axis).imag) for p in points) / bl
     assert length >= 0.85, length
     assert standoff >= 0.45, standoff
+
+
+def test_a_carbon_bonded_only_to_drawn_hydrogens_is_written_as_a_letter():
+    """Methane giving one hydrogen to a chlorine atom (radical chlorination; textbook, common
+    practice): the carbon has no heavy neighbour, so it is written with its letter and its other
+    hydrogens, H-CH3 (IUPAC 2008 graphical representation, references.md: a carbon without
+    skeletal bonds is labelled). It was drawn as a skeletal line end, a stroke from the H to
+    nowhere; the methyl radical of the next panel was already written H3C."""
+    text = '''species chlorine = "[Cl:2]"
+species methane = "[CH4:3]"
+step "hydrogen abstraction"
+    .Cl2 ~> Cl2-H(C3)
+    C3-H ~> Cl2-H(C3)
+    C3-H ~> C3
+end
+'''
+    trace, diags = arrows.check_text(text, "abstraction.mech")
+    assert not [d for d in diags if d.severity == "error"], [d.to_text() for d in diags]
+    scene = build_scene(trace, STYLES["two-column"], diags)
+    for panel in scene.panels:
+        carbon, = [a for a in panel.atoms if a.name == "C3"]
+        text_of = "".join(run.text for run in carbon.runs)
+        assert carbon.box is not None and "C" in text_of and "H" in text_of, (panel.index, text_of)

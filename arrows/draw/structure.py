@@ -389,11 +389,14 @@ class StructureDrawer:
         # beside the vertex); only a bare terminal carbon with electrons of its own and no
         # hydrogen, as in cyanide, gets its letter.
         # A labelled atom (13C) is always a letter, with its mass number written before it.
-        if element[i] == 6 and len(neighbours) > 1 and not mass and not lettered:
+        # A carbon bonded to drawn hydrogens only (methane giving one up) is a letter too: H3C-H, not
+        # a stroke from H to nowhere.
+        skeletal = element[i] == 6 and not mass and not lettered and any(element[n] != 1 for n in neighbours)
+        if skeletal and len(neighbours) > 1:
             return self._vertex(i, name, symbol, p)
         hidden_h = own_hydrogens + sum(1 for n in adjacent[i] if n not in drawn_hydrogens and element[n] == 1)
         bare_end = len(neighbours) == 1 and hidden_h == 0 and (state.formal_charge(i) or state.nonbonding[i])
-        if element[i] == 6 and neighbours and not bare_end and not mass and not lettered:
+        if skeletal and not bare_end:
             return self._vertex(i, name, symbol, p)
         fs, ss = self.style.font_size, self.style.small_size
         # D and T (rdkit_io.HYDROGEN_ISOTOPES); any other label as a superscript mass number.
