@@ -768,7 +768,7 @@ def _overfull_shell(state: ElectronState, step: Step, step_index: int, replay: _
     if shell <= limit or z > 10:
         return []
     label = state.label(i)
-    hint = _misdirected_pair_hint(state, step, replay, i) or _room_making_hint(state, i, changes)
+    hint = _misdirected_pair_hint(state, step, replay, i) or _room_making_hint(state, i, changes, replay)
     if hint == _NO_ROOM_NAMED:
         hint = _proton_hint(state, step, replay, i) or hint
     return [Diagnostic("AR301", f"{label} would hold {shell} valence electrons "
@@ -819,10 +819,12 @@ def _lone_pair_onto(step: Step, replay: _StepReplay, i: int) -> Optional[Move]:
 _LEAVING_ELEMENTS = frozenset((7, 8, 9, 15, 16, 17, 35, 53))   # N, O, F, P, S, Cl, Br, I
 
 
-def _room_making_hint(state: ElectronState, i: int, changes: dict[Pair, tuple[int, int]]) -> str:
+def _room_making_hint(state: ElectronState, i: int, changes: dict[Pair, tuple[int, int]],
+                      replay: _StepReplay) -> str:
     """What would keep atom i's shell full but not over: one of its bonds the step leaves alone
-    breaking in the same step, its pi bond first (the missing arrow of a concerted step), else a
-    bond to a heteroatom (a leaving group)."""
+    breaking in the same step, its pi bond first (the missing arrow of a concerted step), sent
+    where the step leaves an atom short (see _short_of_a_pair), else a bond to a heteroatom (a
+    leaving group)."""
     label = state.label
     kept = [(b.GetOtherAtomIdx(i), b.GetBondTypeAsDouble()) for b in state.mol.GetAtomWithIdx(i).GetBonds()
             if (min(i, b.GetOtherAtomIdx(i)), max(i, b.GetOtherAtomIdx(i))) not in changes
@@ -831,6 +833,15 @@ def _room_making_hint(state: ElectronState, i: int, changes: dict[Pair, tuple[in
     if pi:
         j, order = pi[0]
         bond = f"{label(i)}{'=' if order == 2 else '#'}{label(j)}"
+        short = _short_of_a_pair(state, changes, replay, exclude=(i, j))
+        if short is not None:
+            # The missing arrow of a concerted step: the pair goes on to the atom the step leaves
+            # with six electrons (a Claisen shift's oxygen, a Diels-Alder's diene end).
+            bonded = state.mol.GetBondBetweenAtoms(j, short)
+            order_after = (int(bonded.GetBondTypeAsDouble()) if bonded is not None else 0) + 1
+            connector = "=" if order_after == 2 else "#" if order_after == 3 else "-"
+            return (f"a bond to {label(i)} must break in the same step: its pi bond, whose pair goes to "
+                    f"{label(short)}, left short of a pair by this step: `{bond} -> {label(j)}{connector}{label(short)}`")
         return f"a bond to {label(i)} must break in the same step: its pi bond, for example `{bond} -> {label(j)}`"
     leaving = [j for j, order in kept if state.elements[j] in _LEAVING_ELEMENTS]
     if leaving and state.elements[i] == 1:
@@ -847,6 +858,22 @@ def _room_making_hint(state: ElectronState, i: int, changes: dict[Pair, tuple[in
 
 
 _NO_ROOM_NAMED = "a bond to this atom must break in the same step (for example C=O -> O)"
+
+
+def _short_of_a_pair(state: ElectronState, changes: dict[Pair, tuple[int, int]], replay: _StepReplay,
+                     exclude: tuple[int, ...]) -> Optional[int]:
+    """A first-row atom the step takes from eight valence electrons to six (a pair of its bond
+    sent elsewhere, none coming back), other than `exclude`: where a missing arrow's pair belongs."""
+    gained: dict[int, int] = dict(replay.d_nonbonding)
+    for (a, b), (before, after) in changes.items():
+        gained[a] = gained.get(a, 0) + after - before
+        gained[b] = gained.get(b, 0) + after - before
+    for k, delta in sorted(gained.items()):
+        if k in exclude or delta != -2 or not 5 <= state.elements[k] <= 9:
+            continue
+        if state.nonbonding[k] + 2 * state.bond_sums[k] == 8:
+            return k
+    return None
 
 
 def _next_framework(state: ElectronState, changes: dict[Pair, tuple[int, int]]):

@@ -223,9 +223,14 @@ TWINS = [
     Twin("pentavalent carbon", SN2, "    C2-Br3 -> Br3\n", "", "AR301", ":O1 -> C2",
          says=("10 valence electrons",), hint_says=("leaving group", "`C2-Br3 -> Br3`")),
     # A Diels-Alder with the dienophile's arrow left out: C5 gains the C4-C5 bond and keeps its pi
-    # bond. The hint names the pi bond that must move (the missing third arrow).
+    # bond. The hint writes the missing third arrow whole: the pi pair goes to C1, which the step
+    # leaves with six electrons (it wrote `C5=C6 -> C6`, a carbanion, before).
     Twin("pentavalent carbon in a concerted step", DIELS_ALDER, "    C5=C6 -> C6-C1\n", "", "AR301",
-         "C3=C4 -> C4-C5", says=("C5", "10 valence electrons"), hint_says=("`C5=C6 -> C6`",)),
+         "C3=C4 -> C4-C5", says=("C5", "10 valence electrons"), hint_says=("`C5=C6 -> C6-C1`",)),
+    # A Claisen shift of allyl vinyl ether without its third arrow: C6 takes the new bond and keeps
+    # its pi bond, whose pair belongs in C4=C5 (C4 loses its bond to oxygen in the same step).
+    Twin("pentavalent carbon in a [3,3] shift", TEXTBOOK["claisen rearrangement"][0], "    C5=C6 -> C4=C5\n", "",
+         "AR301", "C1=C2 -> C1-C6", says=("C6", "10 valence electrons"), hint_says=("`C6=C5 -> C5=C4`",)),
     # Without the H-Br pair leaving, the proton would be bonded to both C3 and Br4 (duet rule).
     Twin("hydrogen with two bonds", HBR_ADDITION, "    H5-Br4 -> Br4\n", "", "AR301", "C2=C3 -> C3-H5",
          says=("H5",), hint_says=("`Br4-H5 -> Br4`",), alone=False),
