@@ -34,7 +34,9 @@ CODES = _table(
          "The text does not follow the mechanism language.",
          'step "deprotonation"\n    :O11 -> H(C3)\n    C3-H -> C2=C3\n# missing `end`'),
     Code("AR102", ERROR, "SMILES not understood",
-         "RDKit could not read the SMILES of a species, checkpoint or product.",
+         "RDKit could not read the SMILES of a species, checkpoint or product. RDKit's reason is given "
+         "in the author's terms: an atom over its valence is named as written ([C-], atom 3 as written), "
+         "the error located at it.",
          'species dione = "CC(=O)CC(C"   # unclosed branch'),
     Code("AR103", ERROR, "map number used twice",
          "Every atom map number must be unique across the whole mechanism, so that a move names one atom.",
@@ -55,7 +57,9 @@ CODES = _table(
          "Two species (or `uses` entries) share one name.",
          'species water = "[OH2:1]"\nspecies water = "[OH2:2]"   # name the second water_2'),
     Code("AR109", ERROR, "no such hydrogen",
-         "`H(X)` or `X-H` names a hydrogen on X, but X carries none at that point.",
+         "`H(X)` or `X-H` names a hydrogen on X, but X carries none at that point. A hydrogen that moves "
+         "with its pair or electron keeps the name of the atom it leaves (`C1-H -> O4-H(C1)`), as the hint "
+         "writes when the sink's `X-H` was meant for it.",
          'species ion = "[O-:1]C"\nstep "s"\n    O1-H -> O1\nend'),
     Code("AR110", ERROR, "data-set record is not JSON",
          "A line of a JSONL data set (`arrows check --jsonl`) is not UTF-8 JSON text, or not a JSON object.",
@@ -111,15 +115,17 @@ CODES = _table(
     Code("AR301", ERROR, "octet exceeded",
          "After the step a second-row atom holds more than eight valence electrons (or hydrogen more "
          "than two). Lewis octet and duet rules (common practice). The hint names the move that makes "
-         "room: the atom's pi bond breaking, a leaving group's bond, an X-H pair going back to X; for "
-         "a base drawn onto a carbon that holds the proton, the arrow to the hydrogen.",
+         "room: the atom's pi bond breaking (in a concerted step, sent on to the atom the step leaves "
+         "with six electrons: the missing arrow of a Diels-Alder), a leaving group's bond, an X-H pair "
+         "going back to X; for a base drawn onto a carbon that holds the proton, the arrow to the hydrogen.",
          'five bonds to one carbon'),
     Code("AR302", ERROR, "bond order out of range",
          "After the step a bond would be more than triple.",
          ':N2 -> C1#N2   # C1#N2 is already triple: a fourth pair has nowhere to go'),
     Code("AR303", ERROR, "odd-electron bond",
          "After the step a bond holds an odd number of electrons: a bond made from single electrons "
-         "needs one fishhook from each partner in the same step.",
+         "needs one fishhook from each partner in the same step. A lone fishhook among pair arrows is "
+         "most often `~>` typed for `->`: the hint offers the pair arrow first.",
          '.C1 ~> C2   # and no .C2 ~> C1 in the same step'),
     Code("AR304", ERROR, "structure rejected by RDKit",
          "The derived structure does not sanitize in RDKit (valence or aromaticity).",
@@ -212,7 +218,9 @@ CODES = _table(
          "rings of the structure after it, without a Baldwin class: "
          "a Diels-Alder closes one, a Cope or [2,3]-Wittig shift none. A 1,2-shift closes no ring. "
          "Two molecules joined by two new bonds in one step (a bromonium ion, a peracid's epoxide, a "
-         "carbene's cyclopropane) make a ring between them: noted with its size, without a Baldwin class. "
+         "carbene's cyclopropane) make a ring between them: noted with its size, without a Baldwin class; "
+         "when one atom takes a lone pair from each of two atoms of one molecule (magnesium holding both "
+         "oxygens of a Weinreb amide's adduct) the note calls the ring a chelate. "
          "Baldwin's rules are stated for first-row atoms: a closure at a heavier one (the phosphorus of "
          "an oxaphosphetane, the iodine of a cyclic periodate ester) is given no class (a three- or "
          "four-membered one still draws AR501).",
