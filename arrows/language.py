@@ -2,6 +2,7 @@
 tree into model objects, and parse failures become located AR101 diagnostics with a hint."""
 from __future__ import annotations
 
+import difflib
 import hashlib
 import os
 import re
@@ -324,6 +325,23 @@ def _open_step_line(text: str, before_line: int) -> int:
     return 0
 
 
+# Words that end a step's label or a SMILES written without its quotes.
+_AFTER_STRING = frozenset({"over", "under", "reversible", "resonance", "uses", "releases"})
+_WORDS_OF_THE_LANGUAGE = ("title", "caption", "species", "step", "end", "product", "uses", "releases", "expect",
+                          "reversible", "resonance", "over", "under", "all")
+
+
+def _unquoted_text(rest: str) -> str:
+    """The text a string left unquoted was meant to hold: the rest of the line up to a comment or
+    the next keyword (`step backside attack reversible` meant "backside attack")."""
+    words = []
+    for word in rest.split("#", 1)[0].split():
+        if word in _AFTER_STRING or word.startswith('"'):
+            break
+        words.append(word)
+    return " ".join(words)
+
+
 def _hint_for(exc: UnexpectedInput, text: str, found: str) -> str:
     lines = text.splitlines()
     line = lines[exc.line - 1] if 0 < exc.line <= len(lines) else ""
@@ -357,7 +375,7 @@ def _hint_for(exc: UnexpectedInput, text: str, found: str) -> str:
         if rest[:1] in _CURLY_QUOTES:
             inside = word.strip(_CURLY_QUOTES)
             return f'`{rest[:1]}` is a curly quote: type straight double quotes, "{inside}"'
-        return f'the {holds} goes in double quotes: write "{word}" (as in {example})'
+        return f'the {holds} goes in double quotes: write "{_unquoted_text(rest)}" (as in {example})'
     if "EQUAL" in expected:
         return f'a species is named with `=`: {first_word or "species"} NAME = "SMILES"'
     if "NAME" in expected:
@@ -366,6 +384,9 @@ def _hint_for(exc: UnexpectedInput, text: str, found: str) -> str:
         return "a name starts with a letter or `_` and holds letters, digits and `_`"
     if word != word.lower() and word.upper() in _KEYWORDS:
         return f"keywords are written in lower case: `{word.lower()}`"
+    numbered = re.match(r"([A-Z][a-z]?)\((\d+)\)", rest)
+    if numbered:
+        return f"an atom is its element followed by its map number: write {numbered.group(1)}{numbered.group(2)}"
     letters = "".join(c for c in word if c.isalpha())
     if expected & {"ATOM", "H"} and word[:1].isalpha() and len(letters) <= 2:
         if word[:1].islower():
@@ -392,6 +413,10 @@ def _hint_for(exc: UnexpectedInput, text: str, found: str) -> str:
         return f"`{word}` is a bond between two atoms; an arrow is written -> (pair) or ~> (single electron)"
     if tok_type == "ARROW":
         return "one arrow per move: write the next arrow as a move of its own, on its own line"
+    if rest.startswith("//"):
+        return "a comment starts with `#` and runs to the end of the line"
+    if rest[:1] in ",;":
+        return f"moves are written one per line, with nothing between them: leave out the `{rest[:1]}`"
     if isinstance(exc, UnexpectedCharacters):
         ch = rest[:1]
         if ch in "→⇒⟶➔":
@@ -423,7 +448,9 @@ def _hint_for(exc: UnexpectedInput, text: str, found: str) -> str:
     if _STATEMENTS <= expected:
         if tok_type == "STRING":
             return "a quoted string follows a keyword: title, caption, species NAME =, step or product"
-        return f"`{word}` is not a keyword; a file holds title, caption, species, step and product statements"
+        close = difflib.get_close_matches(word.lower(), _WORDS_OF_THE_LANGUAGE, n=1, cutoff=0.75)
+        meant = f" (did you mean `{close[0]}`?)" if close else ""
+        return f"`{word}` is not a keyword{meant}; a file holds title, caption, species, step and product statements"
     if "RPAR" in expected:
         return "close the hydrogen's parentheses: H(C3)"
     return "see the language summary in README.md"

@@ -343,6 +343,26 @@ SLIPS = [
     ("bond written with a radical's mark",
      'step "a"\n    .C1-C2 ~> C2\nend\n',
      2, 8, "unexpected `-`", "an arrow", "`.C1` names an unpaired electron on C1"),
+    # Slips found writing mechanisms as an author would (the hints quoted one word, or pointed at
+    # the README): a label or SMILES left unquoted is quoted whole, up to the next keyword.
+    ("step label of two words unquoted",
+     'step backside attack reversible\n    :O1 -> C2\nend\n',
+     1, 6, "unexpected `backside`", "a quoted string", 'write "backside attack"'),
+    ("product SMILES unquoted",
+     'step "a"\n    :O1 -> C2\nend\nproduct CO.[Br-]\n',
+     4, 9, "unexpected `CO`", "a quoted string", 'write "CO.[Br-]"'),
+    ("comment written as in C",
+     'step "a"\n    :O1 -> C2 // attack\nend\n',
+     2, 15, "unexpected `//`", "a move", "a comment starts with `#`"),
+    ("moves separated by a comma",
+     'step "a"\n    :O1 -> C2,\nend\n',
+     2, 14, "unexpected `,`", "a move", "leave out the `,`"),
+    ("map number in parentheses",
+     'step "a"\n    :O(1) -> C2\nend\n',
+     2, 6, "unexpected `O`", "an atom", "write O1"),
+    ("keyword misspelt",
+     'specie water = "[OH2:1]"\n',
+     1, 1, "unexpected `specie`", "a statement", "did you mean `species`?"),
 ]
 
 
