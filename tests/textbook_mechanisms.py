@@ -62,10 +62,10 @@ moves to oxygen (Dakin); oxygen silylated (a silyl enol ether); an enol ether hy
 closed by an amine onto its own ester; a magnesium chelate held until work-up (Weinreb); SO3 attacked
 at sulfur by an arene, an acid chloride that takes two Grignard methyls, a kinetic enolate made
 by LDA and methylated, an alkyne from two eliminations, anisole brominated para through FeBr4-,
-and an iminium ion hydrolysed.
+and an iminium ion hydrolysed; an Fmoc group taken off by piperidine (E1cB) and a Boc group put on.
 
 Each entry: (mechanism text, textbook product SMILES, drawn): `drawn` says whether the geometry
-tests draw it. All do but eight. (Fixed in the layout and the tests since: the Dieckmann
+tests draw it. All do but ten. (Fixed in the layout and the tests since: the Dieckmann
 ethoxide, which stays where it was bonded, and the Cope elimination's oxide waited 1.0 and 1.34
 bond lengths from the hydrogen they take, where the proton-transfer test wants 1.4; the mesylate
 SN2 pushed the ethyl that iodide takes 0.9 bond lengths out along its broken C-O bond, as if it
@@ -103,7 +103,10 @@ straight-sp test, and its triple bond, which RDKit flags aromatic, to a single o
 thionyl chloride's SO2, bent at S, which keeps a lone pair, to the straight-sp test: both tests
 now follow the chemistry.) The Weinreb ketone synthesis waits its MgBr+ beside the adduct where both
 oxygens' arrows cross the propyl chain (the two donors stand on opposite sides of the tetrahedral
-carbon), then redraws the adduct as the chelate ring closes, O3 moving 1.9 bond lengths. The nitration's nitronium, straight until the arene bonds to its
+carbon), then redraws the adduct as the chelate ring closes, O3 moving 1.9 bond lengths. The Fmoc removal's carbanion sends its lone-pair arrow into C3=C4 over its own
+minus sign (dots, sign and arrow share one gap at the ring carbon); the Boc protection's
+tert-butoxide, waiting where it left the carbonate, takes the N-H proton across the nitrogen's
+label, the hydrogen on the far side of N from it. The nitration's nitronium, straight until the arene bonds to its
 nitrogen, gets a straight depiction and then a bent one; the Beckmann nitrilium a bent one, a
 straight one, and a bent one again."""
 
@@ -3607,6 +3610,58 @@ end
 product "CC(C)=O"
 '''
 
+# Fmoc removal by piperidine (Carpino; Wuts, Greene's Protective Groups in Organic Synthesis, from
+# memory): piperidine takes the fluorene C9 proton, the carbanion expels the carbamate (E1cB), and a
+# second piperidine adds to dibenzofulvene and takes its proton back: the carbamate anion, the
+# piperidinium ion and the fulvene-piperidine adduct.
+FMOC_REMOVAL = '''\
+species carbamate = "O=[C:1]([O:2][CH2:3][CH:4]1c2ccccc2-c2ccccc21)[NH:5][CH3:6]"
+species piperidine = "C1CC[NH:7]CC1"
+species piperidine2 = "C1CC[NH:8]CC1"
+step "deprotonation at C9 of fluorene"
+    :N7 -> H(C4)
+    C4-H -> C4
+end
+step "elimination (E1cB)"
+    :C4 -> C3=C4
+    C3-O2 -> O2
+end
+step "dibenzofulvene trapped"
+    :N8 -> C3
+    C3=C4 -> C4
+end
+step "proton transfer"
+    :C4 -> H(N8)
+    N8-H -> N8
+end
+product "O=C([O-])NC.C1CC[NH2+]CC1.C1CCN(CC1)CC1c2ccccc2-c2ccccc21"
+'''
+
+# Boc protection of ethylamine with Boc2O (Wuts, Greene's Protective Groups in Organic Synthesis,
+# from memory): the amine adds to one carbonyl, tert-butyl carbonate leaves and loses CO2, and the
+# tert-butoxide takes the ammonium's proton: the carbamate, CO2 and tert-butanol.
+BOC_PROTECTION = '''\
+species amine = "CC[NH2:1]"
+species boc2o = "CC(C)(C)[O:2][C:3](=[O:4])[O:5][C:6](=[O:7])[O:8]C(C)(C)C"
+step "addition"
+    :N1 -> C3
+    C3=O4 -> O4
+end
+step "collapse"
+    :O4 -> C3=O4
+    C3-O5 -> O5
+end
+step "decarboxylation"
+    :O5 -> C6=O5
+    C6-O8 -> O8
+end
+step "proton transfer"
+    :O8 -> H(N1)
+    N1-H -> N1
+end
+product "CCNC(=O)OC(C)(C)C.O=C=O.CC(C)(C)O"
+'''
+
 TEXTBOOK = {
     "wittig": (WITTIG, "C=C(C)C.O=P(c1ccccc1)(c1ccccc1)c1ccccc1", True),
     "bromination": (BROMINATION, "Br[C@@H]1CCCC[C@H]1Br", True),
@@ -3764,4 +3819,8 @@ TEXTBOOK = {
     "double dehydrobromination": (DOUBLE_DEHYDROBROMINATION, "CC#CC.N.N.[Br-].[Br-]", True),
     "anisole bromination": (ANISOLE_BROMINATION, "COc1ccc(Br)cc1.Br.Br[Fe](Br)Br", True),
     "iminium hydrolysis": (IMINIUM_HYDROLYSIS, "CC(C)=O.CN.[OH3+].[OH3+]", True),
+    # the carbanion's lone-pair arrow into C3=C4 runs over its own minus sign
+    "fmoc removal": (FMOC_REMOVAL, "C1CC[NH2+]CC1.CNC(=O)[O-].c1ccc2c(c1)-c1ccccc1C2CN1CCCCC1", False),
+    # tert-butoxide, where it left the carbonate, takes the N-H proton across the nitrogen's label
+    "boc protection": (BOC_PROTECTION, "CCNC(=O)OC(C)(C)C.O=C=O.CC(C)(C)O", False),
 }
