@@ -65,7 +65,7 @@ by LDA and methylated, an alkyne from two eliminations, anisole brominated para 
 and an iminium ion hydrolysed; an Fmoc group taken off by piperidine (E1cB) and a Boc group put on.
 
 Each entry: (mechanism text, textbook product SMILES, drawn): `drawn` says whether the geometry
-tests draw it. All do but ten. (Fixed in the layout and the tests since: the Dieckmann
+tests draw it. All do but nine. (Fixed in the layout and the tests since: the Dieckmann
 ethoxide, which stays where it was bonded, and the Cope elimination's oxide waited 1.0 and 1.34
 bond lengths from the hydrogen they take, where the proton-transfer test wants 1.4; the mesylate
 SN2 pushed the ethyl that iodide takes 0.9 bond lengths out along its broken C-O bond, as if it
@@ -103,8 +103,9 @@ straight-sp test, and its triple bond, which RDKit flags aromatic, to a single o
 thionyl chloride's SO2, bent at S, which keeps a lone pair, to the straight-sp test: both tests
 now follow the chemistry.) The Weinreb ketone synthesis waits its MgBr+ beside the adduct where both
 oxygens' arrows cross the propyl chain (the two donors stand on opposite sides of the tetrahedral
-carbon), then redraws the adduct as the chelate ring closes, O3 moving 1.9 bond lengths. The Fmoc removal's carbanion sends its lone-pair arrow into C3=C4 over its own
-minus sign (dots, sign and arrow share one gap at the ring carbon); the Boc protection's
+carbon), then redraws the adduct as the chelate ring closes, O3 moving 1.9 bond lengths. (The Fmoc removal's carbanion sent its lone-pair arrow into C3=C4 over its own
+minus sign, dots, sign and arrow sharing one gap at the ring carbon: a sign moved off an arrow may
+now stand a little further out, in the free gap above.) The Boc protection's
 tert-butoxide, waiting where it left the carbonate, takes the N-H proton across the nitrogen's
 label, the hydrogen on the far side of N from it. The nitration's nitronium, straight until the arene bonds to its
 nitrogen, gets a straight depiction and then a bent one; the Beckmann nitrilium a bent one, a
@@ -3819,8 +3820,7 @@ TEXTBOOK = {
     "double dehydrobromination": (DOUBLE_DEHYDROBROMINATION, "CC#CC.N.N.[Br-].[Br-]", True),
     "anisole bromination": (ANISOLE_BROMINATION, "COc1ccc(Br)cc1.Br.Br[Fe](Br)Br", True),
     "iminium hydrolysis": (IMINIUM_HYDROLYSIS, "CC(C)=O.CN.[OH3+].[OH3+]", True),
-    # the carbanion's lone-pair arrow into C3=C4 runs over its own minus sign
-    "fmoc removal": (FMOC_REMOVAL, "C1CC[NH2+]CC1.CNC(=O)[O-].c1ccc2c(c1)-c1ccccc1C2CN1CCCCC1", False),
+    "fmoc removal": (FMOC_REMOVAL, "C1CC[NH2+]CC1.CNC(=O)[O-].c1ccc2c(c1)-c1ccccc1C2CN1CCCCC1", True),
     # tert-butoxide, where it left the carbonate, takes the N-H proton across the nitrogen's label
     "boc protection": (BOC_PROTECTION, "CCNC(=O)OC(C)(C)C.O=C=O.CC(C)(C)O", False),
 }

@@ -29,8 +29,10 @@ from typing import Iterator, Optional
 import numpy as np
 
 from ..electrons import ElectronState, ResolvedMove
+from .formula import MINUS
 from .scene import Box, CurvedArrow, Mark
-from .structure import PanelStructure, clearance, ranked_directions, ray_exit, segment_hits_box
+from .structure import (PanelStructure, clearance, closes_cycle, level_and_close, ranked_directions, ray_exit,
+                        segment_hits_box)
 from .styles import Style
 
 _SAMPLES = 16
@@ -441,20 +443,33 @@ class ArrowPlanner:
         # nearest free side to where it was.
         outward = 1.0 if middle.real >= centre.real else -1.0
         tries = [(complex(outward * step * 0.05 * self.fs, 0.0), was) for step in range(1, 7)]
-        for d in sorted(_AROUND, key=lambda d: abs(cmath.phase(d / was))):
-            if clearance(d, occupied + taken) >= _SIGN_ROOM:
-                tries.append((centre + d * (panel.label_reach(atom, d) + half + 0.08 * self.fs) - middle, d))
-        for shift, d in tries:
-            box = sign.box.shifted(shift.real, shift.imag)
-            grown = Box(box.x0 - pad, box.y0 - pad, box.x1 + pad, box.y1 + pad)
-            if (any(box.overlaps(b, pad) for b in others) or any(segment_hits_box(p, q, grown) for p, q in bonds)
-                    or _on_path(box, paths, pad)):
-                continue
-            moved = Mark(sign.kind, atom, tuple(replace(r, x=r.x + shift.real, y=r.y + shift.imag) for r in sign.runs),
-                         box=box, colour=sign.colour)
-            panel.marks[panel.marks.index(sign)] = moved
-            panel.occupied[atom] = occupied + [d]
-            return True
+        free = [d for d in sorted(_AROUND, key=lambda d: abs(cmath.phase(d / was)))
+                if clearance(d, occupied + taken) >= _SIGN_ROOM]
+        # Close to the label first; then, where that touches the bonds either side (a narrow gap
+        # at a skeletal vertex), a little further out in the same gaps; inside the atom's ring last
+        # (a sign there reads as the ring's). Each well clear of other atoms' labels (a sign beside
+        # one reads as its); failing all of those, the near places as before, beside a label or not.
+        inside = _inside_own_ring(panel, atom)
+        near = tries + [(centre + d * (panel.label_reach(atom, d) + half + 0.08 * self.fs) - middle, d) for d in free]
+        wider = [(centre + d * (panel.label_reach(atom, d) + half + out * self.fs) - middle, d)
+                 for within in (False, True) for out in (0.08, 0.3, 0.5) for d in free if inside(d) == within]
+        labels = [a.box for i, a in panel.atoms.items() if i != atom and a.box is not None]
+        size = sign.runs[0].size if sign.runs else self.fs
+        minus = bool(sign.runs) and sign.runs[-1].text.endswith(MINUS)
+        for candidates, apart in ((tries + wider, True), (near, False)):
+            for shift, d in candidates:
+                box = sign.box.shifted(shift.real, shift.imag)
+                grown = Box(box.x0 - pad, box.y0 - pad, box.x1 + pad, box.y1 + pad)
+                if (any(box.overlaps(b, pad) for b in others) or any(segment_hits_box(p, q, grown) for p, q in bonds)
+                        or _on_path(box, paths, pad) or (minus and _along_a_stroke(box, bonds, self.bl))):
+                    continue
+                if apart and (level_and_close(box, labels, size) or any(box.overlaps(b, 0.3 * size) for b in labels)):
+                    continue
+                moved = Mark(sign.kind, atom, tuple(replace(r, x=r.x + shift.real, y=r.y + shift.imag) for r in sign.runs),
+                             box=box, colour=sign.colour)
+                panel.marks[panel.marks.index(sign)] = moved
+                panel.occupied[atom] = occupied + [d]
+                return True
         return False
 
     def _dots(self, move: ResolvedMove, panel: PanelStructure, atom: int, direction: complex
@@ -950,6 +965,48 @@ _MARK_GAP = 0.12    # font sizes: the least gap between an arrow's dots and anot
 _SIGN_ROOM = math.radians(40)   # a charge sign moved for the dots keeps this far round from bonds and dots
 _DOTS_ROOM = math.radians(45)     # more room than this between dots and a bond counts as no better
 _AROUND = tuple(cmath.rect(1.0, k * math.pi / 12) for k in range(24))
+
+
+_STROKE_SLOPE = math.tan(math.radians(15))   # a stroke this near the horizontal runs along a minus sign
+
+
+def _along_a_stroke(box: Box, strokes: list[tuple[complex, complex]], bl: float) -> bool:
+    """Whether a minus sign in `box` lies along a bond stroke, within 0.4 bond lengths across and
+    sharing half its width: there it reads as the second line of a double bond."""
+    y, width = (box.y0 + box.y1) / 2, box.x1 - box.x0
+    for a, b in strokes:
+        along = b - a
+        if abs(along.real) < 1e-9 or abs(along.imag / along.real) > _STROKE_SLOPE:
+            continue
+        low, high = sorted((a.real, b.real))
+        shared = min(high, box.x1) - max(low, box.x0)
+        if shared < 0.5 * width:
+            continue
+        middle = max(low, box.x0) + shared / 2
+        if abs(a.imag + along.imag * (middle - a.real) / along.real - y) < 0.4 * bl:
+            return True
+    return False
+
+
+def _inside_own_ring(panel: PanelStructure, atom: int):
+    """A test of directions from a ring atom with two ring bonds: whether a direction points into
+    the ring (between those bonds, on the side of the smaller angle)."""
+    adjacent: dict[int, list[int]] = {}
+    for bond in panel.bonds:
+        a, b = bond.atoms
+        adjacent.setdefault(a, []).append(b)
+        adjacent.setdefault(b, []).append(a)
+    centre = panel.positions[atom]
+    ring = [_unit(panel.positions[n] - centre) for n in adjacent.get(atom, ()) if closes_cycle(atom, n, adjacent)]
+    if len(ring) != 2:
+        return lambda d: False
+    first, second = ring
+    span = cmath.phase(second / first)   # signed: the interior angle, under 180 degrees
+
+    def inside(d: complex) -> bool:
+        turn = cmath.phase(d / first)
+        return 0 < turn < span if span > 0 else span < turn < 0
+    return inside
 
 
 def _on_path(box: Box, points: list[complex], pad: float) -> bool:

@@ -118,7 +118,7 @@ def segment_hits_box(p: complex, q: complex, box: Box) -> bool:
     return True
 
 
-def _closes_cycle(i: int, j: int, adjacent: list[list[int]]) -> bool:
+def closes_cycle(i: int, j: int, adjacent: list[list[int]]) -> bool:
     """Whether bond i-j lies on a ring: j is reached from i without crossing that bond."""
     if len(adjacent[i]) < 2 or len(adjacent[j]) < 2:
         return False   # a bond to an end atom (the O of a C=O) closes nothing: no search of the molecule
@@ -151,7 +151,7 @@ def _clear_of(box: Box, lines: list[tuple[complex, complex]], limit: float, samp
     return True
 
 
-def _level_and_close(sign: Box, labels: list[Box], size: float, apart: float = 0.5) -> bool:
+def level_and_close(sign: Box, labels: list[Box], size: float, apart: float = 0.5) -> bool:
     """Whether a charge sign stands level with one of `labels` and less than `apart` of its size
     from it across, where it reads as that label's: between two labels, "O- O" reads as O-O, a
     bond; after hydrogens written above an N, "H+" as a proton."""
@@ -334,7 +334,7 @@ class StructureDrawer:
                                       ahead[i], i in lettered)
         # RDKit's ring search costs more than all the strokes: run it only when a drawn double
         # bond lies on a ring (only such a bond asks which ring it is in).
-        on_ring = any(order == 2 and i in shown and j in shown and _closes_cycle(i, j, adjacent)
+        on_ring = any(order == 2 and i in shown and j in shown and closes_cycle(i, j, adjacent)
                       for i, j, order in bonds)
         rings = [list(r) for r in Chem.GetSymmSSSR(mol)] if on_ring else []
         # Wedges only where a species wrote a configuration: no work per bond otherwise.
@@ -595,7 +595,7 @@ class StructureDrawer:
         single = {(min(i, j), max(i, j)) for i, j, order in bonds
                   if order == 1 and (i in centres or j in centres) and i in out.positions and j in out.positions}
         return choose_wedges(centres, out.positions, single, breaking, neighbours, hydrogens,
-                             lambda a, b: _closes_cycle(a, b, adjacent))
+                             lambda a, b: closes_cycle(a, b, adjacent))
 
     def _wedge(self, narrow: int, wide: int, kind: str, role: str, out: PanelStructure) -> BondDrawing:
         """A solid or hashed wedge from a point at `narrow` to its full width at `wide`, each end
@@ -734,7 +734,7 @@ class StructureDrawer:
             grown = Box(tb.x0 - 0.1 * size, tb.y0 - 0.1 * size, tb.x1 + 0.1 * size, tb.y1 + 0.1 * size)
             if any(segment_hits_box(centre + d * out.label_reach(i, d), centre + d * reach, grown)
                    for d in out.bond_directions[i]) or any(grown.overlaps(b, 0.2 * size) for b in near) \
-                    or any(tb.overlaps(b) for b in own) or _level_and_close(tb, near, size):
+                    or any(tb.overlaps(b) for b in own) or level_and_close(tb, near, size):
                 continue
             if strokes is None:
                 # Strokes of the bonds close by: a sign on a ring bond beside NH2+ reads as
@@ -807,12 +807,12 @@ class StructureDrawer:
             mark, slid = self._side_text_at(kind, i, text, out, direction, width, cap, size, italic)
             # Slid far out along a crowded direction, the text no longer reads as the atom's.
             gap = min((_separation(mark.box, b) for b in others), default=math.inf)
-            if kind == "charge" and _level_and_close(mark.box, [a.box for j, a in out.atoms.items()
+            if kind == "charge" and level_and_close(mark.box, [a.box for j, a in out.atoms.items()
                                                                  if j != i and a.box is not None], size):
                 gap = min(gap, 0.0)
             on_stroke = _sign_near_stroke(mark.box, size, strokes, _SIDE_SIGN_STROKE_GAP) or (
                 text.endswith(MINUS) and (self._minus_beside_stroke(mark.runs[-1], strokes) or (
-                    labelled and abs(direction.imag) < _LEVEL_WITH_LABEL))) or _level_and_close(
+                    labelled and abs(direction.imag) < _LEVEL_WITH_LABEL))) or level_and_close(
                 mark.box, hydrogens, size, apart=0.6)
             fault = (gap < pad or on_stroke, slid >= _FAR_SLIDE, 0.0 if kind == "charge" else -min(gap, pad))
             if best is None or fault < best[0]:
