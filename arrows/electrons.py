@@ -132,6 +132,14 @@ class ElectronState:
                              bool(self.configured or other.configured), self.bond_framework().union(shifted), cations)
 
     def bond_electrons(self, i: int, j: int) -> int:
+        framework = self.framework
+        if framework is not None and (self.elements[i] == 1) == (self.elements[j] == 1):
+            # A bond of the framework is read off it: each question put to RDKit from Python
+            # costs more than these look-ups.
+            first, second = (i, j) if i < j else (j, i)
+            for order in (1, 2, 3):
+                if (first, second, order) in framework:
+                    return 2 * order
         bond = self.mol.GetBondBetweenAtoms(i, j)
         return 0 if bond is None else 2 * int(bond.GetBondTypeAsDouble())
 
