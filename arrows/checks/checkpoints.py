@@ -94,7 +94,10 @@ def _written_fragments(checkpoint: Checkpoint) -> tuple[Optional[list[Fragment]]
         # with @ or / \ is compared as its constitution here; its configuration is AR603's (written_stereo.py).
         Chem.RemoveStereochemistry(mol)
         atoms = atom_list(mol)
-        maps = frozenset(a.GetAtomMapNum() for a in atoms if a.GetAtomMapNum())
+        # A map number is written after a colon inside brackets: a SMILES without one has none
+        # (most checkpoints), and its atoms need not be asked.
+        maps = frozenset(a.GetAtomMapNum() for a in atoms if a.GetAtomMapNum()) if ":" in checkpoint.smiles \
+            else frozenset()
         elements = tuple(a.GetAtomicNum() for a in atoms)
         try:
             return fragments(mol, None, elements=elements), "", maps   # the written structure keeps its maps
