@@ -132,6 +132,14 @@ class ElectronState:
                              bool(self.configured or other.configured), self.bond_framework().union(shifted), cations)
 
     def bond_electrons(self, i: int, j: int) -> int:
+        framework = self.framework
+        if framework is not None and (self.elements[i] == 1) == (self.elements[j] == 1):
+            # A bond of the framework is read off it: each question put to RDKit from Python
+            # costs more than these look-ups.
+            first, second = (i, j) if i < j else (j, i)
+            for order in (1, 2, 3):
+                if (first, second, order) in framework:
+                    return 2 * order
         bond = self.mol.GetBondBetweenAtoms(i, j)
         return 0 if bond is None else 2 * int(bond.GetBondTypeAsDouble())
 
@@ -897,9 +905,13 @@ def _next_framework(state: ElectronState, changes: dict[Pair, tuple[int, int]]):
 def _next_cations(state: ElectronState, charges: list[tuple[int, int, int]]) -> Optional[frozenset[int]]:
     """The cations after a step, from those before and the step's charge changes (None when
     nobody asked for them before)."""
-    if state.cation_atoms is None or not charges:
-        return state.cation_atoms
-    return state.cation_atoms.difference(i for i, _, _ in charges).union(i for i, _, after in charges if after > 0)
+    cations = state.cation_atoms
+    if cations is None:
+        return None
+    for _, before, after in charges:
+        if before > 0 or after > 0:
+            return cations.difference(i for i, _, _ in charges).union(i for i, _, after in charges if after > 0)
+    return cations   # (most steps) no atom becomes a cation or stops being one
 
 
 def _first_move_touching(step: Step, replay: _StepReplay, atom: int) -> Location:

@@ -143,7 +143,7 @@ def read_species(species: Species, explicit_h_on: set[int], pi_bonds: frozenset[
     unspecified = Chem.ChiralType.CHI_UNSPECIFIED
     mapped, targets = [], []
     for index, atom in enumerate(atoms):
-        count_h = atom.GetTotalNumHs(includeNeighbors=False)
+        count_h = atom.GetTotalNumHs(False)   # (includeNeighbors: RDKit reads a keyword argument at some cost)
         atom.SetNumExplicitHs(count_h)
         atom.SetNoImplicit(True)
         radicals = atom.GetNumRadicalElectrons()

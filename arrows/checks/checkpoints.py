@@ -94,7 +94,10 @@ def _written_fragments(checkpoint: Checkpoint) -> tuple[Optional[list[Fragment]]
         # with @ or / \ is compared as its constitution here; its configuration is AR603's (written_stereo.py).
         Chem.RemoveStereochemistry(mol)
         atoms = atom_list(mol)
-        maps = frozenset(a.GetAtomMapNum() for a in atoms if a.GetAtomMapNum())
+        # A map number is written after a colon inside brackets: a SMILES without one has none
+        # (most checkpoints), and its atoms need not be asked.
+        maps = frozenset(a.GetAtomMapNum() for a in atoms if a.GetAtomMapNum()) if ":" in checkpoint.smiles \
+            else frozenset()
         elements = tuple(a.GetAtomicNum() for a in atoms)
         try:
             return fragments(mol, None, elements=elements), "", maps   # the written structure keeps its maps
@@ -120,22 +123,38 @@ def _derived_fragments(state: ElectronState, maps: frozenset[int], views: Option
     view = views.of(state)
     if not view.complete:
         return fragments(state.mol, maps, elements=state.elements)
-    # Each piece is a copy of its own, whose map numbers are cleared only if it is written out.
-    return [Fragment(frag, keep_maps=maps) for frag in Chem.GetMolFrags(view.mol, asMols=True, sanitizeFrags=False)]
+    # Kept with the view: a state checked twice (the last checkpoint, then the product) or met
+    # again by its contents writes each piece out once.
+    key = ("checkpoint pieces", maps)
+    pieces = view.memo.get(key)
+    if pieces is None:
+        # Each piece is a copy of its own, whose map numbers are cleared only if it is written out.
+        pieces = view.memo[key] = [Fragment(frag, keep_maps=maps)
+                                   for frag in Chem.GetMolFrags(view.mol, asMols=True, sanitizeFrags=False)]
+    return pieces
+
+
+# A hydrogen atom none of whose neighbours is another element (H+, H-, H2): one search in C++
+# costs less than asking RDKit for the neighbours of each hydrogen atom.
+_HYDROGEN_ALONE = Chem.MolFromSmarts("[#1;!$(*~[!#1])]")
 
 
 def _holds_hydrogen_alone(state: ElectronState) -> bool:
     """Whether a hydrogen atom is bonded to no other atom than hydrogen (H+, H-, H2)."""
-    atom = state.mol.GetAtomWithIdx
-    return any(z == 1 and (b == 0 or all(n.GetAtomicNum() == 1 for n in atom(i).GetNeighbors()))
-               for i, (z, b) in enumerate(zip(state.elements, state.bond_sums)))
+    return 1 in state.elements and state.mol.HasSubstructMatch(_HYDROGEN_ALONE)
 
 
 def compare(state: ElectronState, checkpoint: Checkpoint, code: str, step: Optional[int],
-            views: Optional[RecentViews] = None) -> list[Diagnostic]:
+            views: Optional[RecentViews] = None, read: Optional[dict] = None) -> list[Diagnostic]:
     """Diagnostics for one checkpoint against one state (empty when it matches); `views` holds the
-    perceived views of the states met lately."""
-    written, reason, maps = _written_fragments(checkpoint)
+    perceived views of the states met lately, `read` the written structures already read in this
+    replay (by SMILES)."""
+    if read is None:
+        written, reason, maps = _written_fragments(checkpoint)
+    else:
+        if checkpoint.smiles not in read:
+            read[checkpoint.smiles] = _written_fragments(checkpoint)
+        written, reason, maps = read[checkpoint.smiles]
     if written is None:
         return [Diagnostic("AR102", f"RDKit cannot read the checkpoint SMILES: {reason}", checkpoint.loc,
                            hint=reading_hint(reason, "check brackets, ring-closure digits and charges"), step=step)]
@@ -309,12 +328,16 @@ class CheckpointsMatch(Check):
     name = "checkpoints match"
     codes = ("AR401", "AR402")
 
+    def __init__(self) -> None:
+        # A structure written twice (the last checkpoint, then the same product) is read once.
+        self.read: dict[str, tuple[Optional[list[Fragment]], str, frozenset[int]]] = {}
+
     def step(self, st: StepTrace, context) -> Iterator[Diagnostic]:
         if st.after is not None:
             for checkpoint in st.step.expects:
-                yield from compare(st.after, checkpoint, "AR401", st.index, context.views)
+                yield from compare(st.after, checkpoint, "AR401", st.index, context.views, self.read)
 
     def finish(self, end: Ending, context) -> Iterator[Diagnostic]:
         product = end.mechanism.product
         if product is not None and end.final is not None:
-            yield from compare(end.final, product, "AR402", None, context.views)
+            yield from compare(end.final, product, "AR402", None, context.views, self.read)

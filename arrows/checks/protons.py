@@ -110,9 +110,17 @@ def _acidity(view: Perceived, atom: int) -> Optional[Acidity]:
 
 def _rearomatised(before: Perceived, after: Perceived, atom: int) -> bool:
     """Whether `atom` is aromatic after the step and was not before."""
-    was, now = before.position(atom), after.position(atom)
-    return (now is not None and after.mol.GetAtomWithIdx(now).GetIsAromatic()
-            and not (was is not None and before.mol.GetAtomWithIdx(was).GetIsAromatic()))
+    return _aromatic(after, atom) and not _aromatic(before, atom)
+
+
+def _aromatic(view: Perceived, atom: int) -> bool:
+    """Whether state atom `atom` is aromatic in the view (False for a hydrogen folded into a
+    count); remembered on the view, which a proton shuttle meets again and again."""
+    known = view.memo.setdefault("aromatic", {})
+    if atom not in known:
+        position = view.position(atom)
+        known[atom] = position is not None and view.mol.GetAtomWithIdx(position).GetIsAromatic()
+    return known[atom]
 
 
 def _other(pair: tuple[int, ...], atom: int) -> int:

@@ -41,12 +41,12 @@ _SMALL_RING_HINT = "five- and six-membered closures usually win when the substra
 def closures_in_step(st: StepTrace) -> list[StepClosure]:
     if st.after is None:
         return []
-    mol = st.before.mol
+    mol, elements = st.before.mol, st.before.elements
     pericyclic = st.change.pericyclic
     found = []
     rings_seen: set[frozenset[int]] = set()
     for i, j in st.change.formed:
-        if mol.GetAtomWithIdx(i).GetAtomicNum() == 1 or mol.GetAtomWithIdx(j).GetAtomicNum() == 1:
+        if elements[i] == 1 or elements[j] == 1:
             continue   # a hydrogen moving inside one molecule is a transfer, not a ring closure
         path = ring_path(mol, i, j)    # the ring of the transition state, () between two molecules
         cyclic = pericyclic or ((_electrocyclic(st, path) or _sigmatropic(st, i, j, path))

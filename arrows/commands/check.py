@@ -71,7 +71,6 @@ def _with_folders_opened(paths):
     `arrows collect` takes them); a folder with none stands as an AR100 diagnostic."""
     from pathlib import Path
 
-    from ..batch.sources import mech_files_below
     from ..diagnostics import Diagnostic
     from ..model import Location
 
@@ -80,6 +79,7 @@ def _with_folders_opened(paths):
         if not Path(path).is_dir():
             found = [path]
         else:
+            from ..batch.sources import mech_files_below   # only a folder is searched (2 ms of start-up)
             found = [str(p) for p in mech_files_below(Path(path))]
             if not found:
                 out.append(Diagnostic("AR100", "cannot read file: a folder with no .mech file below it",
