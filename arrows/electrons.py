@@ -10,7 +10,7 @@ from __future__ import annotations
 
 from dataclasses import dataclass, field
 from functools import lru_cache
-from typing import NamedTuple, Optional
+from typing import Callable, NamedTuple, Optional
 
 from rdkit import Chem
 
@@ -332,7 +332,7 @@ class _StepReplay:
         self.diagnostics.append(Diagnostic(code, message, loc, hint, atoms, (), self.step_index))
 
     # resolving written atoms to indices
-    def resolve(self, ref, no_hydrogen_hint: Optional[str] = None) -> int:
+    def resolve(self, ref, no_hydrogen_hint: Optional[Callable[[], Optional[str]]] = None) -> int:
         if isinstance(ref, HydrogenOn):
             return self.hydrogen_on(self.resolve(ref.parent), ref, no_hydrogen_hint)
         index = self.known.get((ref.element, ref.map_number))
@@ -373,13 +373,14 @@ class _StepReplay:
         self.known[(ref.element, ref.map_number)] = index
         return index
 
-    def hydrogen_on(self, parent: int, ref: HydrogenOn, hint: Optional[str] = None) -> int:
+    def hydrogen_on(self, parent: int, ref: HydrogenOn, hint: Optional[Callable[[], Optional[str]]] = None) -> int:
         if parent in self._hydrogen_choice:
             return self._hydrogen_choice[parent]
         hydrogens = [n for n in self.state.mol.GetAtomWithIdx(parent).GetNeighbors() if n.GetAtomicNum() == 1]
         if not hydrogens:
             self.fail("AR109", f"{ref.parent} carries no hydrogen at this point", ref.loc,
-                      hint or "check which atom holds the proton; the formula of each state is shown by `arrows trace`",
+                      (hint and hint()) or "check which atom holds the proton; the formula of each state is "
+                                           "shown by `arrows trace`",
                       atoms=(str(ref.parent),))
             raise _StepFailed
         # Unmapped hydrogens are interchangeable; mapped ones are kept for the author who named them.
@@ -583,7 +584,7 @@ class _StepReplay:
             self.resolved.append(ResolvedMove(move, "bond", (a, b), (y,), n))
             return
         # `C1-H -> O4-H` for a hydrogen moving to O4: the sink's H names one already on O4.
-        moving = _moving_hydrogen_hint(move, sink.bond)
+        moving = lambda: _moving_hydrogen_hint(move, sink.bond)   # noqa: E731 (written only if it fails)
         y, z = self.resolve(sink.bond.first, moving), self.resolve(sink.bond.second, moving)
         shared = {a, b} & {y, z}
         if not shared:
