@@ -73,6 +73,7 @@ def explain_smiles_failure(lines: list[str]) -> tuple[str, Optional[int]]:
 # RDKit's words for an atom over its valence; it counts atoms from 0 in the order written.
 _VALENCE = re.compile(r"Explicit valence for atom # (\d+) ([A-Za-z]+), (\d+), is greater than permitted")
 _ATOM_TOKEN = re.compile(r"\[[^\]]*\]|Br|Cl|[BCNOPSFI]|[bcnops]|\*")
+_OVER_VALENCE = "more than RDKit allows"   # in _over_valence's reason, which reading_hint recognises
 
 
 def _over_valence(reason: str, smiles: str) -> Optional[tuple[str, int]]:
@@ -87,13 +88,13 @@ def _over_valence(reason: str, smiles: str) -> Optional[tuple[str, int]]:
         return None
     token = tokens[index]
     return (f"{token.group()}, atom {index + 1} as written, would have valence {valence} (its bonds and "
-            f"hydrogens), more than RDKit allows for {element} with that charge", token.start())
+            f"hydrogens), {_OVER_VALENCE} for {element} with that charge", token.start())
 
 
 def reading_hint(reason: str, otherwise: str) -> str:
     """The hint for a SMILES RDKit rejects: for an atom over its valence, how brackets count
     hydrogens; `otherwise` for any other reason."""
-    if "more than RDKit allows" in reason:
+    if _OVER_VALENCE in reason:
         return ("count the atom's bonds, hydrogens and charge: in brackets it has exactly the hydrogens "
                 "written ([CH3] three, [C] none), and a carbanion [C-] has at most three bonds")
     return otherwise
@@ -125,7 +126,8 @@ def read_smiles(smiles: str, sanitize: bool = True) -> tuple[Optional[Chem.Mol],
         if not smiles.strip():
             return None, "empty SMILES", 0
         reason, position = explain_smiles_failure(lines)
-        return (None, *(_over_valence(reason, smiles) or (reason, position)))
+        reason, position = _over_valence(reason, smiles) or (reason, position)
+        return None, reason, position
     return mol, "", None
 
 

@@ -118,8 +118,9 @@ def segment_hits_box(p: complex, q: complex, box: Box) -> bool:
     return True
 
 
-def closes_cycle(i: int, j: int, adjacent: list[list[int]]) -> bool:
-    """Whether bond i-j lies on a ring: j is reached from i without crossing that bond."""
+def closes_cycle(i: int, j: int, adjacent) -> bool:
+    """Whether bond i-j lies on a ring: j is reached from i without crossing that bond. `adjacent`
+    gives each atom's neighbours by its index (a list of lists, or a dict)."""
     if len(adjacent[i]) < 2 or len(adjacent[j]) < 2:
         return False   # a bond to an end atom (the O of a C=O) closes nothing: no search of the molecule
     seen, frontier = {i}, [n for n in adjacent[i] if n != j]
