@@ -494,3 +494,24 @@ end
         carbon, = [a for a in panel.atoms if a.name == "C3"]
         text_of = "".join(run.text for run in carbon.runs)
         assert carbon.box is not None and "C" in text_of and "H" in text_of, (panel.index, text_of)
+
+
+@pytest.mark.parametrize("name, panel, leaving", [("acyl chloride double grignard", 2, "Cl4"), ("sn1 hydrolysis", 1, "Br")])
+def test_a_leaving_group_crowding_its_carbon_steps_aside(name, panel, leaving):
+    """A leaving group that took the pair stays where it left unless that crowds the next step
+    (common practice: the chloride an acid chloride loses is drawn clear of the carbon the second
+    Grignard methyl attacks, not on the arrow's head). Where the straight way out along its old
+    bond meets the next reagent, it steps out a little off that line: at least 1.2 bond lengths
+    from the carbon it left (the clearance between separately placed molecules). It stood 1.0
+    from the acid chloride's carbonyl carbon and from the tert-butyl cation."""
+    from textbook_mechanisms import TEXTBOOK
+    trace, diags = arrows.check_text(TEXTBOOK[name][0], f"{name}.mech")
+    scene = build_scene(trace, STYLES["two-column"], diags)
+    before, after = ({a.name: complex(*a.position) / scene.bond_length for a in scene.panels[k].atoms}
+                     for k in (panel - 1, panel))
+    group = next(n for n in after if n.startswith(leaving))
+    # The carbon that held it: its nearest carbon in the panel before, where they were bonded.
+    carbon = min((n for n in before if n.startswith("C") and not n.startswith("Cl")),
+                 key=lambda n: abs(before[n] - before[group]))
+    assert abs(before[group] - before[carbon]) < 1.05
+    assert abs(after[group] - after[carbon]) >= 1.2 - 1e-6, (carbon, abs(after[group] - after[carbon]))

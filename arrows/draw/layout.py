@@ -2572,7 +2572,8 @@ class _LayoutBuilder:
         left a letter on both ends (CH3+ beside HO-, whose labels would run together), a little
         further out along that bond, so the two pieces read as apart. A fragment that leaves
         with the pair stays where it was unless something has taken its place (the nucleophile
-        of an SN2 drawn where the leaving group was): then it goes further out along its bond."""
+        of an SN2 drawn where the leaving group was): then it goes further out along its bond, or a
+        little off that line where the straight way meets the next reagent."""
         if previous is None or previous[2] is None or segment[0] == 0:
             return previous
         atoms = set(self.clusters[index].atoms)
@@ -2595,8 +2596,13 @@ class _LayoutBuilder:
             if (not split or not took or not len(others)
                     or np.abs(shift + local[:, None] - others[None, :]).min() >= _CLEARANCE):
                 return previous
-        for extra in ((0.7, 0.5, 0.3) if apart else (1.0, 1.5, 2.0)):
-            moved = shift + direction * extra
+        # Straight out along the bond first; then, for a fragment that took the pair (the chloride
+        # an acid chloride loses, beside the carbon the next Grignard attacks), turned a little
+        # off that line where the straight way meets the next reagent.
+        turns = (1,) if apart else (1, cmath.rect(1, math.pi / 6), cmath.rect(1, -math.pi / 6),
+                                    cmath.rect(1, math.pi / 3), cmath.rect(1, -math.pi / 3))
+        for turn, extra in ((turn, extra) for turn in turns for extra in ((0.7, 0.5, 0.3) if apart else (1.0, 1.5, 2.0))):
+            moved = shift + direction * turn * extra
             if not len(others) or np.abs(moved + local[:, None] - others[None, :]).min() >= _CLEARANCE:
                 return (rotation, moved, direction, pull_back)
         return previous
