@@ -813,6 +813,8 @@ class _LayoutBuilder:
         panels = [p for p in range(first, k + 1) if end in self.positions[p] and pivot in self.positions[p]]
         if not panels or any(p > first and (min(end, pivot), max(end, pivot)) not in self.bonds_in[p] for p in panels):
             return False
+        if self._linear(pivot, range(panels[0], k + 1)):
+            return False   # swung about a straight (sp) atom it would bend it (an isocyanide's N)
         # A hydrogen on it moves with it; that may not be seen on both panels around the step
         # (a travelling hydrogen is shown only next to the steps that move it).
         for runs in self.residences.values():
@@ -889,7 +891,11 @@ class _LayoutBuilder:
             return None   # flipped across its ring neighbours it would fold the ring (an arene's carbon)
         moving = [end] + carried
         first = k
-        while first > 0 and all(a in self.exists[first - 1] and a not in self.touched[first - 1] for a in moving):
+        # Back through the panels where its pivots stand where they do at k: the flip is worked out
+        # there, and a pivot drawn elsewhere earlier (the acid's O10 of a Passerini reaction, placed
+        # apart before it bonds) would have its bond to the flipped atom stretched (to 2.15).
+        while first > 0 and all(a in self.exists[first - 1] and a not in self.touched[first - 1] for a in moving) \
+                and all(self.positions[first - 1].get(n) == here[n] for n in pivots):
             first -= 1
         panels = range(first, k + 1)
         if any((min(end, n), max(end, n)) not in self.bonds_in[p] for p in panels for n in pivots + carried):
