@@ -363,6 +363,20 @@ def _hint_for(exc: UnexpectedInput, text: str, found: str) -> str:
         return f"the step before this line{where} has no `end`: close it before the next statement"
     if tok_type == "END" and _STATEMENTS <= expected:
         return "`end` closes a step, but no step is open here"
+    # Slips of typing, before what the parser expected is read.
+    typed_before = line[:exc.column - 1] if exc.column > 0 else ""
+    if rest[:1] in "{}":
+        return "a step is closed by `end` on a line of its own, not by braces"
+    if rest.startswith("-->"):
+        return "an arrow has one hyphen: -> (pair) or ~> (single electron)"
+    if rest.startswith(":") and typed_before.endswith(":"):
+        return "one `:` marks a lone pair: write it once before the atom, as in `:O1`"
+    wrapped = re.match(r"\(([A-Z][a-z]?\d+)\)", rest)
+    if wrapped:
+        return f"an atom is written bare, `{wrapped.group(1)}`; parentheses only hold the atom a hydrogen sits on, H(C3)"
+    glued = re.search(r"(?:^|\s)(title|caption|species|step|product|expect|uses|releases)$", typed_before)
+    if glued and word[:1].isalpha():
+        return f"`{glued.group(1)}{word}` is not a keyword: write `{glued.group(1)}`"
     if rest[:1] == '"' and rest.count('"') == 1:
         return 'this string has no closing `"`; a string ends on the line where it starts'
     if "STRING" in expected and rest[:1] != '"':

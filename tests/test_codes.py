@@ -306,6 +306,11 @@ TWINS = [
     # Markovnikov's rule; primary cations are not solution intermediates, common practice).
     Twin("primary carbocation", ISOBUTENE_PROTONATION, "C1=C2 -> C1-H(O5)", "C1=C2 -> C2-H(O5)", "AR511",
          'step "protonation"', says=("C1", "primary"), hint_says=("Markovnikov",)),
+    # A lone pair sent onto the other atom's name with a lone-pair mark (`:O1 -> :C2`) hands it
+    # over with no bond made: the hint writes the bond-making arrow.
+    Twin("lone pair handed over instead of bonding (warning)", 'species hydroxide = "[OH-:1]"\nspecies '
+         'bromomethane = "[CH3:2][Br:3]"\nstep "s"\n    :O1 -> C2\n    C2-Br3 -> Br3\nend\n', ":O1 -> C2",
+         ":O1 -> :C2", "AR505", 'step "s"', says=("O1", "an O cation"), hint_says=("no bond made", "`:O1 -> C2`")),
     # The C-Br pair sent to carbon: Br+ with six electrons (and a carbanion); the hint gives the
     # heterolysis meant, the pair to the more electronegative bromine (Pauling, memory).
     Twin("heterolysis the wrong way", IONISATION, "C2-Br5 -> Br5", "C2-Br5 -> C2", "AR505", 'step "ionisation"',

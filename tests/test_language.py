@@ -363,6 +363,21 @@ SLIPS = [
     ("keyword misspelt",
      'specie water = "[OH2:1]"\n',
      1, 1, "unexpected `specie`", "a statement", "did you mean `species`?"),
+    ("keyword with a letter too many",
+     'step "a"\n    :O1 -> C2\nend\nproducts "CO"\n',
+     4, 8, "unexpected `s`", "a quoted string", "`products` is not a keyword: write `product`"),
+    ("atom in parentheses",
+     'step "a"\n    :O1 -> (C2)\nend\n',
+     2, 12, "unexpected `(`", "an atom", "an atom is written bare, `C2`"),
+    ("lone pair marked twice",
+     'step "a"\n    ::O1 -> C2\nend\n',
+     2, 6, "unexpected `:`", "an atom", "one `:` marks a lone pair"),
+    ("arrow with two hyphens",
+     'step "a"\n    :O1 --> C2\nend\n',
+     2, 9, "unexpected `-`", "an arrow", "an arrow has one hyphen"),
+    ("step closed by a brace",
+     'step "a" {\n    :O1 -> C2\n}\n',
+     1, 10, "unexpected `{`", "a move", "closed by `end`"),
 ]
 
 

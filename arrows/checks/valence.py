@@ -34,7 +34,7 @@ def shell_limit(atomic_num: int) -> int:
 # Elements that are rarely left with an open shell of six (nitrenium, oxenium, sulfenium and
 # halenium ions are fleeting at best; common practice draws a bond forming to them in the same
 # step): carbon (carbocations, carbenes), boron and the metals are not among them.
-_RARELY_SEXTET = {7: "N", 8: "O", 9: "F", 16: "S", 17: "Cl", 35: "Br", 53: "I"}
+_RARELY_SEXTET = {7: "an N", 8: "an O", 9: "an F", 16: "an S", 17: "a Cl", 35: "a Br", 53: "an I"}   # as read aloud
 
 
 # Heteroatoms whose lone pair stabilises a cation beside them (an oxocarbenium, an iminium): the
@@ -63,7 +63,8 @@ def unstabilised_primary_cation(mol, i: int) -> bool:
 
 def _sextet_hint(st: StepTrace, i: int) -> str:
     """AR505's hint: where the step split a bond of atom i with the pair going to the other atom,
-    a less electronegative one (a C-Br pair sent to carbon), the arrow that was meant."""
+    a less electronegative one (a C-Br pair sent to carbon), or sent i's lone pair onto another
+    atom with no bond made (`:O1 -> :C2`), the arrow that was meant."""
     label = st.before.label
     for move in st.change.moves:
         if move.source_kind == "bond" and move.electrons == 2 and i in move.source_atoms \
@@ -72,6 +73,11 @@ def _sextet_hint(st: StepTrace, i: int) -> str:
             if ELECTRONEGATIVITY.get(st.after.elements[other], 0.0) < ELECTRONEGATIVITY[st.after.elements[i]]:
                 return (f"the pair of {label(other)}-{label(i)} went to {label(other)}; in a heterolysis the more "
                         f"electronegative {label(i)} takes it: `{label(other)}-{label(i)} -> {label(i)}`")
+        if move.source_kind == "lone_pair" and move.source_atoms == (i,) and len(move.sink_atoms) == 1:
+            # `:O1 -> :C2` hands the pair over with no bond made; `:O1 -> C2` makes the bond.
+            other = label(move.sink_atoms[0])
+            return (f"`:{other}` as the sink hands {label(i)}'s pair to {other} with no bond made; to make the "
+                    f"{label(i)}-{other} bond, end the arrow at the atom: `:{label(i)} -> {other}`")
     return ("such ions are rare: were single-electron arrows (~>) meant, as for a homolysis, or should a bond "
             "form to it in the same step?")
 
@@ -97,7 +103,7 @@ class UnusualElectronCounts(Check):
             old_shell = before.nonbonding[i] + 2 * before.bond_sums[i]
             if shell == 6 and element in _RARELY_SEXTET and old_shell > 6:
                 label = after.label(i)
-                yield Diagnostic("AR505", f"{label} is left with six valence electrons (a {_RARELY_SEXTET[element]} "
+                yield Diagnostic("AR505", f"{label} is left with six valence electrons ({_RARELY_SEXTET[element]} "
                                  f"cation with an open shell)", st.step.loc, hint=_sextet_hint(st, i),
                                  atoms=(label,), step=st.index)
             if (shell == 6 and element == 6 and old_shell > 6 and after.nonbonding[i] == 0
