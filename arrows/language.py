@@ -327,8 +327,7 @@ def _open_step_line(text: str, before_line: int) -> int:
 
 # Words that end a step's label or a SMILES written without its quotes.
 _AFTER_STRING = frozenset({"over", "under", "reversible", "resonance", "uses", "releases"})
-_WORDS_OF_THE_LANGUAGE = ("title", "caption", "species", "step", "end", "product", "uses", "releases", "expect",
-                          "reversible", "resonance", "over", "under", "all")
+_WORDS_OF_THE_LANGUAGE = tuple(sorted(k.lower() for k in _KEYWORDS))
 
 
 def _unquoted_text(rest: str) -> str:

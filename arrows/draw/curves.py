@@ -31,8 +31,8 @@ import numpy as np
 from ..electrons import ElectronState, ResolvedMove
 from .formula import MINUS
 from .scene import Box, CurvedArrow, Mark
-from .structure import (PanelStructure, clearance, closes_cycle, level_and_close, ranked_directions, ray_exit,
-                        segment_hits_box)
+from .structure import (PanelStructure, clearance, closes_cycle, level_and_close, minus_along_stroke, ranked_directions,
+                        ray_exit, segment_hits_box)
 from .styles import Style
 
 _SAMPLES = 16
@@ -461,7 +461,8 @@ class ArrowPlanner:
                 box = sign.box.shifted(shift.real, shift.imag)
                 grown = Box(box.x0 - pad, box.y0 - pad, box.x1 + pad, box.y1 + pad)
                 if (any(box.overlaps(b, pad) for b in others) or any(segment_hits_box(p, q, grown) for p, q in bonds)
-                        or _on_path(box, paths, pad) or (minus and _along_a_stroke(box, bonds, self.bl))):
+                        or _on_path(box, paths, pad)
+                        or (minus and minus_along_stroke(box.x0, box.width, (box.y0 + box.y1) / 2, bonds, self.bl))):
                     continue
                 if apart and (level_and_close(box, labels, size) or any(box.overlaps(b, 0.3 * size) for b in labels)):
                     continue
@@ -965,27 +966,6 @@ _MARK_GAP = 0.12    # font sizes: the least gap between an arrow's dots and anot
 _SIGN_ROOM = math.radians(40)   # a charge sign moved for the dots keeps this far round from bonds and dots
 _DOTS_ROOM = math.radians(45)     # more room than this between dots and a bond counts as no better
 _AROUND = tuple(cmath.rect(1.0, k * math.pi / 12) for k in range(24))
-
-
-_STROKE_SLOPE = math.tan(math.radians(15))   # a stroke this near the horizontal runs along a minus sign
-
-
-def _along_a_stroke(box: Box, strokes: list[tuple[complex, complex]], bl: float) -> bool:
-    """Whether a minus sign in `box` lies along a bond stroke, within 0.4 bond lengths across and
-    sharing half its width: there it reads as the second line of a double bond."""
-    y, width = (box.y0 + box.y1) / 2, box.x1 - box.x0
-    for a, b in strokes:
-        along = b - a
-        if abs(along.real) < 1e-9 or abs(along.imag / along.real) > _STROKE_SLOPE:
-            continue
-        low, high = sorted((a.real, b.real))
-        shared = min(high, box.x1) - max(low, box.x0)
-        if shared < 0.5 * width:
-            continue
-        middle = max(low, box.x0) + shared / 2
-        if abs(a.imag + along.imag * (middle - a.real) / along.real - y) < 0.4 * bl:
-            return True
-    return False
 
 
 def _inside_own_ring(panel: PanelStructure, atom: int):

@@ -188,6 +188,25 @@ def carbons_to_letter(bonds: list[tuple[int, int, int]], positions: dict[int, co
     return letters
 
 
+def minus_along_stroke(x0: float, width: float, y: float, strokes: list[tuple[complex, complex]], bl: float) -> bool:
+    """Whether a minus sign from x0 to x0 + width at height y lies along a bond stroke, near enough
+    (within _MINUS_STROKE_GAP bond lengths, sharing half its width) to read as the second line of
+    a double bond."""
+    for a, b in strokes:
+        along = b - a
+        if abs(along.real) < 1e-9 or abs(along.imag / along.real) > _MINUS_STROKE_SLOPE:
+            continue
+        low, high = sorted((a.real, b.real))
+        shared = min(high, x0 + width) - max(low, x0)
+        if shared < 0.5 * width:
+            continue
+        middle = max(low, x0) + shared / 2
+        stroke_y = a.imag + along.imag * (middle - a.real) / along.real
+        if abs(stroke_y - y) < _MINUS_STROKE_GAP * bl:
+            return True
+    return False
+
+
 def _sign_near_stroke(box: Box, size: float, strokes: list[tuple[complex, complex]], gap: float) -> bool:
     """Whether a charge sign in `box` (of font size `size`) comes within `gap` font sizes of a bond
     stroke: a stroke passing just under the sign reads as part of it (a "+" over a bond as "±",
@@ -760,20 +779,7 @@ class StructureDrawer:
         width = self.face.width(MINUS, run.size)
         x0 = run.x + self.face.width(run.text[:-1], run.size)
         y = run.y - self.face.ink_middle(MINUS) * run.size
-        bl = self.style.bond_length
-        for a, b in strokes:
-            along = b - a
-            if abs(along.real) < 1e-9 or abs(along.imag / along.real) > _MINUS_STROKE_SLOPE:
-                continue
-            low, high = sorted((a.real, b.real))
-            shared = min(high, x0 + width) - max(low, x0)
-            if shared < 0.5 * width:
-                continue
-            middle = max(low, x0) + shared / 2
-            stroke_y = a.imag + along.imag * (middle - a.real) / along.real
-            if abs(stroke_y - y) < _MINUS_STROKE_GAP * bl:
-                return True
-        return False
+        return minus_along_stroke(x0, width, y, strokes, self.style.bond_length)
 
     def _side_text(self, kind: str, i: int, text: str, out: PanelStructure, preferred: complex,
                    italic: bool = False) -> Mark:
