@@ -822,6 +822,25 @@ def _bridged_alkene_molecules(step) -> set[int]:
                   for i in frag}
 
 
+def _small_ring_opened_molecules(step) -> set[int]:
+    """The atoms of each molecule after a step that breaks one bond of a three- or four-membered
+    ring and keeps its others (a bromonium ion opened by bromide, a cyclobutene opening to a
+    diene): the chain it leaves is redrawn at open angles, not kept at the ring's 60 or 90
+    degrees (common practice)."""
+    before, after = Chem.Mol(step.before.mol), Chem.Mol(step.after.mol)
+    Chem.FastFindRings(before)
+    kept = {frozenset((b.GetBeginAtomIdx(), b.GetEndAtomIdx())) for b in after.GetBonds()}
+    opened = set()
+    for ring in before.GetRingInfo().BondRings():
+        if len(ring) > 4:
+            continue
+        pairs = [frozenset((before.GetBondWithIdx(b).GetBeginAtomIdx(), before.GetBondWithIdx(b).GetEndAtomIdx()))
+                 for b in ring]
+        if sum(pair not in kept for pair in pairs) == 1:
+            opened |= set().union(*pairs)
+    return {i for frag in Chem.GetMolFrags(after, asMols=False, sanitizeFrags=False) if opened & set(frag) for i in frag}
+
+
 def _resized_ring_atoms(step) -> set[int]:
     """Atoms of a ring that changes size in this step (a ring bond of the state before breaks and a
     ring of the state after holds a bond the step makes): such a ring is redrawn, as chemists do."""
@@ -850,7 +869,8 @@ def test_untouched_atoms_stay_put(text, name):
     issue's "a newly formed ring may move its own atoms". So is a molecule in which the step
     straightens or bends an atom (the nitrilium of a Beckmann rearrangement, made by a shift and
     attacked by water: sp atoms are drawn straight, IUPAC 2008), its atoms moving less than 1.5
-    bond lengths; and a molecule drawn as an alkene on one side of the step and as a ring on the
+    bond lengths, as is one in which a three- or four-membered ring opens, its chain whole (the
+    chain is drawn anew at open angles); and a molecule drawn as an alkene on one side of the step and as a ring on the
     other (the bromonium ion of (E)-stilbene; the oxaphosphetane that opens to an E alkene), less
     than 2. In the last panel, each by-product is set beside the product as a rigid body (common
     practice: the scheme ends as "product + by-product")."""
@@ -877,7 +897,7 @@ def test_untouched_atoms_stay_put(text, name):
         free = set().union(*molecules) if molecules else set()
         resized = _resized_ring_atoms(step)
         redrawn = _bridged_alkene_molecules(step)
-        reshaped = _reshaped_molecules(step) | redrawn
+        reshaped = _reshaped_molecules(step) | redrawn | _small_ring_opened_molecules(step)
         for i in kept:
             moved = _distance(old[i], new[i]) / bl
             if i in resized:
@@ -972,6 +992,21 @@ def test_a_four_centre_addition_stands_square_over_the_pi_bond():
     c1, c2, boron = where[index[1]], where[index[2]], where[index[3]]   # C1=C2, B3 bonds to C2
     angle = abs(math.degrees(cmath.phase((boron - c2) / (c1 - c2))))
     assert 75 <= angle <= 105, angle
+
+
+@pytest.mark.parametrize("name, centre, ends", [
+    ("cyclobutene ring opening", 2, (1, 3)),    # the diene's inner carbon, between its two pi bonds
+    ("bromination", 2, (1, 3)),                 # the bromine kept from the bromonium ion: Br3-C2-C1
+])
+def test_a_chain_cut_from_a_small_ring_is_drawn_at_open_angles(name, centre, ends):
+    """A chain left by opening a three- or four-membered ring is drawn at chain angles (IUPAC 2008
+    graphical representation: about 120 degrees), not at the ring's 90 or 60 degrees: the diene
+    from a cyclobutene once kept its square, and the trans-dibromide its bromonium's 60 degrees."""
+    trace, _, scene = _scene(TEXTBOOK[name][0], name)
+    index = {a.GetAtomMapNum(): a.GetIdx() for a in trace.initial.mol.GetAtoms() if a.GetAtomMapNum()}
+    where = {a.index: a.position for a in scene.panels[-1].atoms}
+    angle = _angle_at(where, index[centre], index[ends[0]], index[ends[1]])
+    assert 105 <= angle <= 135, angle
 
 
 def test_joining_molecules_wait_apart_facing_each_other():

@@ -3663,6 +3663,131 @@ end
 product "CCNC(=O)OC(C)(C)C.O=C=O.CC(C)(C)O"
 '''
 
+# Thermal electrocyclic ring opening of 3,4-dimethylcyclobutene (Woodward and Hoffmann, The
+# Conservation of Orbital Symmetry, 1970, from memory): the ring's sigma bond and its pi bond become
+# the two pi bonds of hexa-2,4-diene in one concerted step.
+CYCLOBUTENE_OPENING = '''\
+species ring = "C[CH:1]1[CH:2]=[CH:3][CH:4]1C"
+step "ring opening"
+    C1-C4 -> C1=C2
+    C2=C3 -> C3=C4
+end
+product "CC=CC=CC"
+'''
+
+# Vilsmeier reagent from DMF and POCl3 (March's Advanced Organic Chemistry, from memory): the amide
+# oxygen takes phosphorus as chloride leaves, chloride adds to the iminium carbon, and the nitrogen
+# pushes out dichlorophosphate: the chloroiminium ion.
+VILSMEIER_REAGENT = '''\
+species dmf = "C[N:1](C)[CH:2]=[O:3]"
+species pocl3 = "[Cl:4][P:5](=[O:6])([Cl:7])[Cl:8]"
+step "amide oxygen takes phosphorus"
+    :O3 -> P5
+    P5-Cl4 -> Cl4
+end
+step "chloride adds to the iminium carbon"
+    :Cl4 -> C2
+    C2=O3 -> O3
+end
+step "dichlorophosphate leaves"
+    :N1 -> C2=N1
+    C2-O3 -> O3
+end
+product "C[N+](C)=CCl.[O-]P(=O)(Cl)Cl"
+'''
+
+# Thermal 1,3-dipolar cycloaddition of methyl azide and propyne (Huisgen, Angew. Chem. 1963, from
+# memory), one of the two regioisomers it gives: 1,4-dimethyl-1,2,3-triazole, in one concerted step.
+AZIDE_ALKYNE_CYCLOADDITION = '''\
+species azide = "[CH3:1][N:2]=[N+:3]=[N-:4]"
+species alkyne = "C[C:5]#[CH:6]"
+step "1,3-dipolar cycloaddition"
+    :N4 -> C5
+    C5#C6 -> C6-N2
+    N2=N3 -> N3
+end
+product "Cn1cc(C)nn1"
+'''
+
+# Kolbe-Schmitt carboxylation (March's Advanced Organic Chemistry, from memory): phenoxide's ortho
+# carbon adds to CO2, and a second phenoxide takes the ring proton back: the salicylate dianion
+# and phenol.
+KOLBE_SCHMITT = '''\
+species phenoxide = "[O-:1][c:2]1[cH:3]cccc1"
+species co2 = "[O:5]=[C:6]=[O:7]"
+species phenoxide_2 = "[O-:8]c1ccccc1"
+step "ortho carbon adds to CO2"
+    :O1 -> C2=O1
+    C2=C3 -> C3-C6
+    C6=O5 -> O5
+end
+step "rearomatisation"
+    :O8 -> H(C3)
+    C3-H -> C3=C2
+    C2=O1 -> O1
+end
+product "[O-]C(=O)c1ccccc1[O-].Oc1ccccc1"
+'''
+
+# Acid-catalysed dithioacetal from acetaldehyde and ethanethiol (Clayden, Organic Chemistry, 2nd
+# ed., from memory: the course of acetal formation, sulfur for oxygen): addition, loss of water to
+# a thionium ion, and a second thiol's addition.
+DITHIOACETAL = '''\
+species aldehyde = "C[CH:1]=[O:2]"
+species thiol = "CC[SH:3]"
+species acid = "[OH3+:4]"
+species thiol_2 = "CC[SH:5]"
+step "carbonyl protonation"
+    :O2 -> H(O4)
+    O4-H -> O4
+end
+step "thiol adds"
+    :S3 -> C1
+    C1=O2 -> O2
+end
+step "proton off sulfur"
+    :O4 -> H(S3)
+    S3-H -> S3
+end
+step "hydroxyl protonated"
+    :O2 -> H(O4)
+    O4-H -> O4
+end
+step "water leaves, thionium ion"
+    :S3 -> C1=S3
+    C1-O2 -> O2
+end
+step "second thiol adds"
+    :S5 -> C1
+    C1=S3 -> S3
+end
+step "proton off"
+    :O2 -> H(S5)
+    S5-H -> S5
+end
+product "CCSC(C)SCC.[OH3+].O"
+'''
+
+# Tributyltin hydride reduction of bromocyclohexane (Neumann, Synthesis 1987, from memory): the two
+# chain-carrying steps, each with single-electron arrows: the stannyl radical abstracts bromine,
+# and the cyclohexyl radical takes the tin hydride's hydrogen, handing on a new stannyl radical.
+STANNANE_REDUCTION = '''\
+species tin = "CCCC[Sn:1](CCCC)(CCCC)[H:2]"
+species halide = "[Br:3][CH:4]1CCCCC1"
+species stannyl = "CCCC[Sn:5](CCCC)CCCC"
+step "stannyl radical abstracts bromine"
+    .Sn5 ~> Sn5-Br3
+    C4-Br3 ~> Sn5-Br3
+    C4-Br3 ~> C4
+end
+step "cyclohexyl radical takes hydrogen"
+    .C4 ~> C4-H2
+    Sn1-H2 ~> C4-H2
+    Sn1-H2 ~> Sn1
+end
+product "C1CCCCC1.CCCC[Sn](Br)(CCCC)CCCC.CCCC[Sn](CCCC)CCCC"
+'''
+
 TEXTBOOK = {
     "wittig": (WITTIG, "C=C(C)C.O=P(c1ccccc1)(c1ccccc1)c1ccccc1", True),
     "bromination": (BROMINATION, "Br[C@@H]1CCCC[C@H]1Br", True),
@@ -3823,4 +3948,11 @@ TEXTBOOK = {
     "fmoc removal": (FMOC_REMOVAL, "C1CC[NH2+]CC1.CNC(=O)[O-].c1ccc2c(c1)-c1ccccc1C2CN1CCCCC1", True),
     # tert-butoxide, where it left the carbonate, takes the N-H proton across the nitrogen's label
     "boc protection": (BOC_PROTECTION, "CCNC(=O)OC(C)(C)C.O=C=O.CC(C)(C)O", False),
+    "cyclobutene ring opening": (CYCLOBUTENE_OPENING, "CC=CC=CC", True),
+    "vilsmeier reagent": (VILSMEIER_REAGENT, "C[N+](C)=CCl.[O-]P(=O)(Cl)Cl", True),
+    "azide-alkyne cycloaddition": (AZIDE_ALKYNE_CYCLOADDITION, "Cn1cc(C)nn1", True),
+    "kolbe-schmitt": (KOLBE_SCHMITT, "[O-]C(=O)c1ccccc1[O-].Oc1ccccc1", True),
+    "dithioacetal": (DITHIOACETAL, "CCSC(C)SCC.[OH3+].O", True),
+    # the three tributyltin species crowd round the cyclohexyl carbon: their butyl chains overlap
+    "stannane reduction": (STANNANE_REDUCTION, "C1CCCCC1.CCCC[Sn](Br)(CCCC)CCCC.CCCC[Sn](CCCC)CCCC", False),
 }

@@ -1000,7 +1000,8 @@ class _LayoutBuilder:
             if (not self._even(cluster.local, cluster.atoms, range(self.n)) or self._bends(cluster.atoms)
                     or self._bent_where_straight(cluster.local, cluster.atoms)
                     or not self._shows_written_geometry(cluster.local, cluster.atoms, range(self.n))
-                    or self._draws_chain_alkene_cis(cluster.local, cluster.atoms, range(self.n))):
+                    or self._draws_chain_alkene_cis(cluster.local, cluster.atoms, range(self.n))
+                    or any(self._opens_small_ring(cluster.atoms, k) for k in range(self.n - 1))):
                 cluster.local, cluster.phases = self._phases(cluster.atoms)
         self.cluster_of = {a: k for k, c in enumerate(self.clusters) for a in c.atoms}
         for sides, bonds in partners:
@@ -1368,6 +1369,8 @@ class _LayoutBuilder:
                     break     # an E alkene drawn Z where a ring is about to close across it
                 if self._draws_chain_alkene_cis(trial, group, range(start, end + 2)):
                     break     # a new alkene drawn cis where the ring it came from was
+                if self._opens_small_ring(group, end):
+                    break     # a chain cut out of a three- or four-membered ring is drawn anew
                 end, local, bonds = end + 1, trial, trial_bonds
             closing = self._rings_to_close(group, end)
             if closing:
@@ -1390,6 +1393,29 @@ class _LayoutBuilder:
             runs.append((start, local))
             start = end + 1
         return runs[0][1], runs[1:]
+
+    def _opens_small_ring(self, group: list[int], k: int) -> bool:
+        """Whether the step after panel k breaks one bond of a three- or four-membered ring of
+        `group` and leaves the rest of the ring bonded (a cyclobutene opening to a diene). Kept
+        where the ring stood, the chain's bonds would meet at 60 or 90 degrees; chemists redraw it
+        (common practice). Not while another cluster hangs on the group by a bond the step keeps
+        (the methoxide on a Favorskii cyclopropanone): placed once for both panels, it would be
+        left behind; nor as the step closes a ring of the group."""
+        members = set(group)
+        if any((i in members) != (j in members) and self.element[i] != 1 and self.element[j] != 1
+               for i, j in self.bonds_in[k] & self.bonds_in[k + 1]):
+            return False
+        before, after = self._in_group(group, (k,)), self._in_group(group, (k + 1,))
+        if after - before:
+            return False    # a ring closes as the small one opens (a Payne rearrangement): drawn curled for it
+        around = _adjacency(before)
+        for a, b in before - after:
+            # Every way round from a to b in two or three bonds, other than the broken bond itself.
+            paths = [[a, m, b] for m in around[a] if b in around[m]]
+            paths += [[a, m, n, b] for m in around[a] if m != b for n in around[m] if n not in (a, b) and b in around[n]]
+            if any(all((min(x, y), max(x, y)) in after for x, y in zip(path, path[1:])) for path in paths):
+                return True
+        return False
 
     def _hop_ahead(self, group: list[int], last: int) -> set[tuple[int, int]]:
         """The bonds a hydrogen of `group` makes in the step after panel `last` as one corner of a
