@@ -563,6 +563,28 @@ def test_atoms_stand_apart(text, name):
             assert gap >= 0.5, (panel.index, a.index, b.index, round(gap, 3))
 
 
+def test_of_two_alike_reagents_the_one_acting_first_is_placed_first():
+    """The tributyltin reduction (undrawn for its short fishhook): tin hydride and stannyl radical
+    are clusters of one size; when the hydride, acting only in step 2, was the skeleton, the
+    radical that acts first was squeezed in beside it and their butyl chains overlapped, carbons
+    0.44 bond lengths apart (IUPAC 2008: atoms do not overlap)."""
+    name = "stannane reduction"
+    test_atoms_stand_apart(TEXTBOOK[name][0], name)
+
+
+def test_a_nucleophile_with_no_clear_line_behind_the_leaving_group_waits_away_from_it():
+    """DMF's oxygen displaces a chloride of POCl3, whose three other ligands leave no straight
+    line behind the leaving chloride: it waits in the gap nearest that line, at least 90 degrees
+    round the phosphorus from the chloride (common practice: the nucleophile is drawn coming in
+    away from the group it displaces). Placed by its bond alone, it waited right behind the chloride, its arrow
+    running past that chloride's label."""
+    name = "vilsmeier reagent"
+    trace, _, scene = _scene(TEXTBOOK[name][0], name)
+    index = {a.GetAtomMapNum(): a.GetIdx() for a in trace.initial.mol.GetAtoms() if a.GetAtomMapNum()}
+    where = {a.index: a.position for a in scene.panels[0].atoms}
+    assert _angle_at(where, index[5], index[3], index[4]) >= 90   # O3 and Cl4 seen from P5
+
+
 @pytest.mark.parametrize("text,name", _mechanisms())
 def test_drawn_hydrogens_stand_clear_of_their_holder_s_bonds(text, name):
     """A hydrogen drawn as an atom (one that an arrow moves) stands at least 25 degrees round

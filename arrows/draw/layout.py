@@ -1006,7 +1006,15 @@ class _LayoutBuilder:
         self.cluster_of = {a: k for k, c in enumerate(self.clusters) for a in c.atoms}
         for sides, bonds in partners:
             self._hold_apart(sides, bonds)
-        self.main = min(range(len(self.clusters)), key=lambda k: (-len(self.clusters[k].atoms), self.clusters[k].atoms[0]))
+        # The largest cluster; of two alike (two tributyltin species), the one the first step
+        # touches, so that the other, waiting for a later step, is placed round the action.
+        self.main = min(range(len(self.clusters)), key=lambda k: (-len(self.clusters[k].atoms), self._first_touch(k),
+                                                                  self.clusters[k].atoms[0]))
+
+    def _first_touch(self, index: int) -> int:
+        """The first step that touches an atom of the cluster (the number of steps if none does)."""
+        atoms = set(self.clusters[index].atoms)
+        return next((k for k, touched in enumerate(self.touched) if touched & atoms), len(self.touched))
 
     def _room_to_keep(self, clusters: list[list[int]]) -> dict[int, int]:
         """atom -> how many bonds to other clusters its depiction keeps room for: where a bond
@@ -2533,7 +2541,13 @@ class _LayoutBuilder:
         others = [_unit(before[n] - before[centre]) for n in self.neighbours[centre]
                   if n not in (e, leaving) and n in before and n in self.exists[first - 1]]
         if any(abs(cmath.phase(toward / o)) < _BACKSIDE_ROOM for o in others):
-            return placement
+            # No clear line behind the leaving group (POCl3's three other ligands): the gap
+            # nearest it, so that the nucleophile does not wait behind the group it displaces;
+            # unless that gap is the inside of a ring (the cyclohexane behind a bromonium ion).
+            toward = gap_facing(0j, others + [_unit(before[leaving] - before[centre])], toward)
+            if _any_inside([before[centre] + 0.5 * toward], [[before[a] for a in ring]
+                                                             for ring in self._closed_rings(first - 1)]):
+                return placement
         turn = toward / direction
         anchor = self.positions[first][centre]
         return (turn * rotation, anchor + turn * (shift - anchor), toward, pull_back)
