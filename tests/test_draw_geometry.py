@@ -409,10 +409,12 @@ def test_a_hydrogen_far_from_its_partner_keeps_its_bond_angle():
     assert 105 <= _angle_at(where, index[5], index[4], index[6]) <= 140
 
 
-@pytest.mark.parametrize("name", ["ester pyrolysis", "beta-keto acid decarboxylation", "ene reaction"])
+@pytest.mark.parametrize("name", ["ester pyrolysis", "beta-keto acid decarboxylation", "ene reaction",
+                                  "[1,5]-hydrogen shift"])
 def test_a_hydrogen_handed_round_a_six_membered_cyclic_array_is_drawn_as_its_corner(name):
     """A hydrogen passed round a six-membered cyclic array in one step (the Ei elimination, a
-    beta-keto acid losing CO2, the carbonyl-ene reaction) is drawn as one corner of that ring,
+    beta-keto acid losing CO2, the carbonyl-ene reaction, a [1,5]-hydrogen shift, whose array
+    only changes bond orders) is drawn as one corner of that ring,
     within 2 bond lengths of the atom that takes it, as chemists draw these pericyclic steps
     (common practice). Each chain was drawn open, the hydrogen 2.6-4.3 bond lengths from its
     taker and the arrow to it spanning the molecule."""
@@ -1029,6 +1031,20 @@ def test_a_chain_cut_from_a_small_ring_is_drawn_at_open_angles(name, centre, end
     where = {a.index: a.position for a in scene.panels[-1].atoms}
     angle = _angle_at(where, index[centre], index[ends[0]], index[ends[1]])
     assert 105 <= angle <= 135, angle
+
+
+def test_an_alkene_made_inside_a_hydrogen_s_cyclic_array_is_drawn_cis():
+    """The [1,5]-hydrogen shift of (Z)-penta-1,3-diene makes C2=C3 inside the six-membered cyclic
+    array the hydrogen is handed round, so it forms cis: the product is (Z)-penta-1,3-diene again
+    (Woodward-Hoffmann, suprafacial shift; textbook). C1 and C4 stand on one side of C2=C3 in the
+    product panel; drawn trans by the zigzag rule for chain alkenes, the figure contradicted it."""
+    name = "[1,5]-hydrogen shift"
+    trace, _, scene = _scene(TEXTBOOK[name][0], name)
+    index = {a.GetAtomMapNum(): a.GetIdx() for a in trace.initial.mol.GetAtoms() if a.GetAtomMapNum()}
+    last = {a.index: complex(*a.position) for a in scene.panels[-1].atoms}
+    c1, c2, c3, c4 = (last[index[n]] for n in (1, 2, 3, 4))
+    side = lambda p: ((c3 - c2).conjugate() * (p - c2)).imag
+    assert side(c1) * side(c4) > 0
 
 
 def test_joining_molecules_wait_apart_facing_each_other():

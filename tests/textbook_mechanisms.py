@@ -3788,6 +3788,106 @@ end
 product "C1CCCCC1.CCCC[Sn](Br)(CCCC)CCCC.CCCC[Sn](CCCC)CCCC"
 '''
 
+# Thermal 6-electron electrocyclisation of hexa-1,3,5-triene to cyclohexa-1,3-diene (Woodward and
+# Hoffmann, The Conservation of Orbital Symmetry, 1970, from memory): three pi bonds round the
+# cyclic array become one sigma and two pi bonds.
+TRIENE_ELECTROCYCLISATION = '''\
+species triene = "[CH2:1]=[CH:2][CH:3]=[CH:4][CH:5]=[CH2:6]"
+step "ring closure"
+    C1=C2 -> C1-C6
+    C3=C4 -> C2=C3
+    C5=C6 -> C4=C5
+end
+product "C1=CCCC=C1"
+'''
+
+# Retro-Diels-Alder fragmentation of cyclohexene (Clayden, Organic Chemistry, 2nd ed., from
+# memory): the reverse of the cycloaddition, to buta-1,3-diene and ethene.
+RETRO_DIELS_ALDER = '''\
+species ring = "[CH2:1]1[CH:2]=[CH:3][CH2:4][CH2:5][CH2:6]1"
+step "retro-Diels-Alder"
+    C2=C3 -> C3=C4
+    C4-C5 -> C5=C6
+    C6-C1 -> C1=C2
+end
+product "C=CC=C.C=C"
+'''
+
+# Lossen rearrangement of an O-acetyl acetohydroxamate anion (March's Advanced Organic Chemistry,
+# from memory): the methyl shifts from carbon to nitrogen as acetate leaves: methyl isocyanate.
+LOSSEN = '''\
+species hydroxamate = "[CH3:7][C:1](=[O:2])[N-:3][O:4][C:5](C)=[O:6]"
+step "rearrangement"
+    :N3 -> C1=N3
+    C1-C7 -> C7-N3
+    N3-O4 -> O4
+end
+product "CN=C=O.CC(=O)[O-]"
+'''
+
+# Eschweiler-Clarke methylation of dimethylamine (Clayden, Organic Chemistry, 2nd ed., from
+# memory): the iminium ion from formaldehyde takes a hydride from formate, which leaves as CO2.
+ESCHWEILER_CLARKE = '''\
+species amine = "C[NH:1]C"
+species formaldehyde = "[CH2:2]=[O:3]"
+species acid = "[OH3+:8]"
+species formate = "[H:4][C:5](=[O:6])[O-:7]"
+step "amine adds to formaldehyde"
+    :N1 -> C2
+    C2=O3 -> O3
+end
+step "proton transfer"
+    :O3 -> H(N1)
+    N1-H -> N1
+end
+step "hydroxyl protonated"
+    :O3 -> H(O8)
+    O8-H -> O8
+end
+step "water leaves"
+    :N1 -> C2=N1
+    C2-O3 -> O3
+end
+step "hydride from formate"
+    :O7 -> C5=O7
+    C5-H4 -> C2-H4
+    C2=N1 -> N1
+end
+product "CN(C)C.O=C=O.O.O"
+'''
+
+# Chromic acid oxidation of propan-2-ol (Westheimer's mechanism; Clayden, Organic Chemistry, 2nd
+# ed., from memory): the chromate ester, then an E2-like loss of the C-H proton as chromium(IV)
+# leaves with the O-Cr pair: acetone.
+CHROMIC_ACID_OXIDATION = '''\
+species alcohol = "C[CH:1](C)[OH:2]"
+species chromic = "[O:3]=[Cr:4](=[O:5])([OH:6])[OH:7]"
+species water = "[OH2:8]"
+species acid = "[OH3+:9]"
+step "alcohol adds to chromium"
+    :O2 -> Cr4
+    Cr4=O3 -> O3
+end
+step "deprotonation"
+    :O8 -> H(O2)
+    O2-H -> O2
+end
+step "hydroxyl protonated"
+    :O6 -> H(O9)
+    O9-H -> O9
+end
+step "water leaves"
+    :O3 -> Cr4=O3
+    Cr4-O6 -> O6
+end
+step "elimination"
+    :O9 -> H(C1)
+    C1-H -> C1=O2
+    O2-Cr4 -> Cr4
+end
+product "CC(C)=O.O.[OH3+].[OH3+].O=[Cr-](=O)O"
+'''
+
 TEXTBOOK = {
     "wittig": (WITTIG, "C=C(C)C.O=P(c1ccccc1)(c1ccccc1)c1ccccc1", True),
     "bromination": (BROMINATION, "Br[C@@H]1CCCC[C@H]1Br", True),
@@ -3955,4 +4055,10 @@ TEXTBOOK = {
     "dithioacetal": (DITHIOACETAL, "CCSC(C)SCC.[OH3+].O", True),
     # the three tributyltin species crowd round the cyclohexyl carbon: their butyl chains overlap
     "stannane reduction": (STANNANE_REDUCTION, "C1CCCCC1.CCCC[Sn](Br)(CCCC)CCCC.CCCC[Sn](CCCC)CCCC", False),
+    "triene electrocyclisation": (TRIENE_ELECTROCYCLISATION, "C1=CCCC=C1", True),
+    "retro-diels-alder": (RETRO_DIELS_ALDER, "C=CC=C.C=C", True),
+    "lossen": (LOSSEN, "CN=C=O.CC(=O)[O-]", True),
+    "eschweiler-clarke": (ESCHWEILER_CLARKE, "CN(C)C.O=C=O.O.O", True),
+    # chromic acid changes shape by 0.03 bond lengths as the alcohol joins its chromium (of 0.02 allowed)
+    "chromic acid oxidation": (CHROMIC_ACID_OXIDATION, "CC(C)=O.O.[OH3+].[OH3+].O=[Cr-](=O)O", False),
 }

@@ -426,6 +426,19 @@ def _any_inside(points, polygons: list[list[complex]]) -> bool:
     return any(_inside(p, poly) for p in points for poly in polygons)
 
 
+def _near_any_way(points, ways: list[tuple[complex, complex]], reach: float = 0.5) -> bool:
+    """Whether any of `points` lies within `reach` of one of the segments `ways`: a fragment left
+    standing where the next step's arrow runs (the water of an Eschweiler-Clarke iminium, between
+    it and the formate whose hydride comes in next)."""
+    for a, b in ways:
+        along = b - a
+        for p in points:
+            t = 0.0 if abs(along) < 1e-9 else min(1.0, max(0.0, ((p - a) * along.conjugate()).real / abs(along) ** 2))
+            if abs(p - (a + t * along)) < reach:
+                return True
+    return False
+
+
 def _inside(point: complex, polygon: list[complex]) -> bool:
     """Even-odd rule."""
     inside = False
@@ -696,6 +709,7 @@ class _LayoutBuilder:
             self.neighbours[j].add(i)
         # Chain C=C bonds with no written geometry, each with the heavy substituent on either end:
         # drawn trans (the zigzag of common practice) where no ring holds them.
+        self.hops = self._hydrogen_hops()
         self.chain_double = self._chain_double_bonds()
         self.positions: list[dict[int, complex]] = [dict() for _ in range(self.n)]
         self.backside = self._backside_substitutions()
@@ -947,7 +961,6 @@ class _LayoutBuilder:
         move anyway: then they are depicted together, as one molecule already curled into the
         bonds it will make. A travelling hydrogen belongs to a cluster only if every atom it is
         ever bonded to does."""
-        self.hops = self._hydrogen_hops()
         heavy_atoms = [i for i in self.atoms if self.element[i] != 1]
         groups = _UnionFind(heavy_atoms)
         heavy_bonds = [(i, j) for i, j in self.union if self.element[i] != 1 and self.element[j] != 1]
@@ -1287,13 +1300,14 @@ class _LayoutBuilder:
     def _chain_double_bonds(self) -> dict[tuple[int, int], tuple[int, int, list[int]]]:
         """(i, j) -> (a, b, panels): a C=C that is double in `panels`, not written E or Z, in no
         ring there, with one heavy substituent on each end (a on i, b on j; a 1,2-disubstituted
-        alkene, whose drawing as cis or trans is a choice)."""
+        alkene, whose drawing as cis or trans is a choice). Not one made inside the cyclic array
+        round which a hydrogen is handed (a [1,5]-hydrogen shift): that one forms cis."""
         found: dict[tuple[int, int], tuple[int, int, list[int]]] = {}
         for (i, j), order in self.sorted_union:
             if order != 2 or (i, j) in self.written_double or self.element[i] != 6 or self.element[j] != 6:
                 continue
             for k in range(self.n):
-                if self.orders_in[k].get((i, j)) != 2:
+                if self.orders_in[k].get((i, j)) != 2 or self._made_in_cyclic_array(i, j, k):
                     continue
                 heavy = [[n for n in self.neighbours[end] if n != other and self.element[n] != 1
                           and (min(end, n), max(end, n)) in self.bonds_in[k]] for end, other in ((i, j), (j, i))]
@@ -1302,6 +1316,14 @@ class _LayoutBuilder:
                 a, b, panels = found.get((i, j), (heavy[0][0], heavy[1][0], []))
                 found[(i, j)] = (a, b, panels + [k])
         return found
+
+    def _made_in_cyclic_array(self, i: int, j: int, k: int) -> bool:
+        """Whether the step into panel k makes i=j double on the way between the giver and the
+        taker of a hydrogen it hands over."""
+        if k == 0 or self.orders_in[k - 1].get((i, j)) == 2:
+            return False
+        heavy = _adjacency(pair for pair in self.bonds_in[k - 1] if self.element[pair[0]] != 1 and self.element[pair[1]] != 1)
+        return any({i, j} <= set(_on_the_way(giver, taker, heavy)) for _, giver, taker in self.hops.get(k - 1, ()))
 
     def _joined_around(self, i: int, j: int, k: int) -> bool:
         """Whether i and j are joined in panel k by a path that is not their own bond (a ring)."""
@@ -1433,7 +1455,9 @@ class _LayoutBuilder:
         five-membered one, a Cope elimination's, is left to the hydrogen's own placement: drawn
         as a ring it crowds the substituents of its centres.)"""
         members = set(group)
-        changed = self.bonds_in[last] ^ self.bonds_in[last + 1] if last + 1 < self.n else set()
+        # (a bond that only changes order counts: a [1,5]-hydrogen shift makes and breaks no other)
+        before, after = (self.orders_in[last], self.orders_in[last + 1]) if last + 1 < self.n else ({}, {})
+        changed = {pair for pair in before.keys() | after.keys() if before.get(pair) != after.get(pair)}
         return {(min(h, taker), max(h, taker)) for h, giver, taker in self.hops.get(last, ())
                 if h in members and taker in members and self._heavy_path_length(giver, taker, last, members) >= 4
                 and any(h not in bond and bond[0] in members and bond[1] in members for bond in changed)}
@@ -1554,6 +1578,9 @@ class _LayoutBuilder:
                 slots[index[atom]] = mol.AddAtom(templates[0])
                 mol.AddBond(index[atom], slots[index[atom]], Chem.BondType.SINGLE)
                 all_ends.append((index[atom], slots[index[atom]]))
+        mol.UpdatePropertyCache(strict=False)
+        Chem.FastFindRings(mol)
+        rings = mol.GetRingInfo()
         wanted = dict(self.written_double)
         wanted.update({pair: (a, b, False) for pair, (a, b, _) in self.chain_double.items()
                        if panels is not None and any(k in panels for k in _)})
@@ -1561,11 +1588,11 @@ class _LayoutBuilder:
             # RDKit's depictor draws a double bond cis or trans when its bond says so.
             bond = mol.GetBondBetweenAtoms(index[i], index[j]) if i in index and j in index else None
             if bond is not None and a in index and b in index and bond.GetBondType() == Chem.BondType.DOUBLE:
+                if (i, j) not in self.written_double and rings.NumBondRings(bond.GetIdx()):
+                    continue   # a chain alkene in the ring these bonds close (a triene curled to cyclise): cis
                 bond.SetStereoAtoms(index[a] if bond.GetBeginAtomIdx() == index[i] else index[b],
                                     index[b] if bond.GetBeginAtomIdx() == index[i] else index[a])
                 bond.SetStereo(Chem.BondStereo.STEREOCIS if cis else Chem.BondStereo.STEREOTRANS)
-        mol.UpdatePropertyCache(strict=False)
-        Chem.FastFindRings(mol)
         for atom in straight:   # the depictor draws an atom straight (a nitrile, an alkyne, an allene) only if told
             mol.GetAtomWithIdx(index[atom]).SetHybridization(Chem.HybridizationType.SP)
         smallest = [list(r) for r in Chem.GetSymmSSSR(mol)]
@@ -2633,6 +2660,7 @@ class _LayoutBuilder:
         local = np.array([rotation * cluster.local_at(segment[0])[a] for a in cluster.atoms], dtype=complex)
         others = np.array([p for kk in range(segment[0], segment[1] + 1) for a, p in self.positions[kk].items()
                            if a not in atoms], dtype=complex)
+        ways = self._ways_of_next_step(k, atoms)
         if not apart:
             # Only a fragment that took the pair away moves off: the one it left (the carbon of an
             # SN2, where the nucleophile has come in) stays.
@@ -2640,18 +2668,31 @@ class _LayoutBuilder:
             took = any(before.nonbonding[a] < self.states[k].nonbonding[a]
                        for a in (i if i in atoms else j for i, j in split))
             if (not split or not took or not len(others)
-                    or np.abs(shift + local[:, None] - others[None, :]).min() >= _CLEARANCE):
+                    or (np.abs(shift + local[:, None] - others[None, :]).min() >= _CLEARANCE
+                        and not _near_any_way(shift + local, ways))):
                 return previous
         # Straight out along the bond first; then, for a fragment that took the pair (the chloride
         # an acid chloride loses, beside the carbon the next Grignard attacks), turned a little
         # off that line where the straight way meets the next reagent.
         turns = (1,) if apart else (1, cmath.rect(1, math.pi / 6), cmath.rect(1, -math.pi / 6),
-                                    cmath.rect(1, math.pi / 3), cmath.rect(1, -math.pi / 3))
+                                    cmath.rect(1, math.pi / 3), cmath.rect(1, -math.pi / 3),
+                                    cmath.rect(1, math.pi / 2), cmath.rect(1, -math.pi / 2))
         for turn, extra in ((turn, extra) for turn in turns for extra in ((0.7, 0.5, 0.3) if apart else (1.0, 1.5, 2.0))):
             moved = shift + direction * turn * extra
-            if not len(others) or np.abs(moved + local[:, None] - others[None, :]).min() >= _CLEARANCE:
+            if (not len(others) or np.abs(moved + local[:, None] - others[None, :]).min() >= _CLEARANCE) \
+                    and not _near_any_way(moved + local, ways):
                 return (rotation, moved, direction, pull_back)
         return previous
+
+    def _ways_of_next_step(self, k: int, skip: set[int]) -> list[tuple[complex, complex]]:
+        """The straight lines in panel k between the atoms the step after it joins or hands a
+        hydrogen between (none of `skip`): where its arrows run."""
+        here = self.positions[k]
+        pairs = [(a, b) for kk, kind, a, b, _ in self.events if kk == k and kind in ("hop", "transfer")]
+        if k + 1 < self.n:
+            pairs += list(self.bonds_in[k + 1] - self.bonds_in[k])
+        return [(here[a], here[b]) for a, b in pairs
+                if a in here and b in here and a not in skip and b not in skip]
 
     def _place_leftovers(self) -> bool:
         """Runs of panels no event placed after a cluster has acted: it stays where it last
@@ -2852,13 +2893,18 @@ class _LayoutBuilder:
         stay = [k for k in range(r.first, r.last + 1) if r.holder in self.positions[k] and r.hydrogen in self.positions[k]]
         if not stay or r.direction is None:
             return
-        shown = [k for k in stay if r.hydrogen in self.touched[k] or (k > 0 and r.hydrogen in self.touched[k - 1])]
+        shown = [k for k in stay if self._drawn_in(r.hydrogen, k)]
         panels = shown or stay
 
         # Other atoms relative to the holder, over those panels (duplicates dropped; in no
         # particular order, as only their nearest approach is asked for).
+        # (A hydrogen another molecule holds but this panel does not draw takes no room; one of
+        # its own cluster keeps its spot, so that the cluster reads alike from panel to panel.)
+        own = self.cluster_of.get(r.holder)
         relative = np.array(list({p - self.positions[k][r.holder] for k in panels
-                                  for a, p in self.positions[k].items() if a not in (r.hydrogen, r.holder)}),
+                                  for a, p in self.positions[k].items()
+                                  if a not in (r.hydrogen, r.holder)
+                                  and (self._drawn_in(a, k) or self.cluster_of.get(self._holder(k, a)) == own)}),
                             dtype=complex)
         following = runs[n + 1] if n + 1 < len(runs) else None
         partner = None
@@ -2953,6 +2999,12 @@ class _LayoutBuilder:
         r.direction = best
         for k in stay:
             self.positions[k][r.hydrogen] = self.positions[k][r.holder] + best
+
+    def _drawn_in(self, atom: int, k: int) -> bool:
+        """Whether panel k draws the atom: a travelling hydrogen only next to the steps that move
+        it (elsewhere it is one of its holder's implicit hydrogens, and takes no room of its own)."""
+        return (atom not in self.drawn_h or atom in self.labelled_h or atom in self.touched[k]
+                or (k > 0 and atom in self.touched[k - 1]))
 
     def _hydrogen_direction(self, h: int, runs: list[_Residence], n: int) -> complex:
         """Toward the partner the hydrogen goes to next (or came from), if that side is free."""
