@@ -388,6 +388,17 @@ class _StepReplay:
         self._hydrogen_choice[parent] = chosen
         return chosen
 
+    def _bonds_held_hint(self, a: int, b: int) -> str:
+        """The bonds the two atoms do hold before the step (the hydride of a formate named on the
+        iminium carbon it goes to, not on the carbon it leaves)."""
+        held = []
+        for atom in (a, b):
+            bonds = [self.bond_name(atom, n.GetIdx()) for n in self.state.mol.GetAtomWithIdx(atom).GetNeighbors()]
+            if bonds:
+                held.append(f"{self.state.label(atom)} holds {', '.join(bonds[:4])}")
+        where = "; ".join(held) + "; " if held else ""
+        return f"{where}check the atom numbers (`arrows trace` shows the bonds of every state)"
+
     def bond_name(self, a: int, b: int) -> str:
         return f"{self.state.label(a)}-{self.state.label(b)}"
 
@@ -493,8 +504,7 @@ class _StepReplay:
         written = src.bond.order
         if have == 0:
             self.fail("AR201", f"there is no bond {self.bond_name(a, b)}", src.loc,
-                      "check the atom numbers; `arrows trace` shows the bonds of every state",
-                      atoms=(self.state.label(a), self.state.label(b)))
+                      self._bonds_held_hint(a, b), atoms=(self.state.label(a), self.state.label(b)))
             raise _StepFailed
         actual = have // 2
         if written > actual:
@@ -852,13 +862,14 @@ def _room_making_hint(state: ElectronState, i: int, changes: dict[Pair, tuple[in
             return (f"a bond to {label(i)} must break in the same step: its pi bond, whose pair goes to "
                     f"{label(short)}, left short of a pair by this step: `{bond} -> {label(j)}{connector}{label(short)}`")
         return f"a bond to {label(i)} must break in the same step: its pi bond, for example `{bond} -> {label(j)}`"
-    leaving = [j for j, order in kept if state.elements[j] in _LEAVING_ELEMENTS]
-    if leaving and state.elements[i] == 1:
-        # A hydrogen taken by a base: the pair of its bond stays on the atom it leaves, written
-        # as the language writes an X-H bond.
+    if kept and state.elements[i] == 1:
+        # A hydrogen taken by a base, whatever holds it (an O-H, the C-H of a formate): the pair
+        # of its bond stays on the atom it leaves, written as the language writes an X-H bond.
+        holder = kept[0][0]
         hydrogen = "H" if label(i).startswith("H(") else label(i)   # C3-H for C3's, H5 for a mapped one
         return (f"the bond that holds {label(i)} must break in the same step: "
-                f"`{label(leaving[0])}-{hydrogen} -> {label(leaving[0])}`")
+                f"`{label(holder)}-{hydrogen} -> {label(holder)}`")
+    leaving = [j for j, order in kept if state.elements[j] in _LEAVING_ELEMENTS]
     if leaving:
         bond = f"{label(i)}-{label(leaving[0])}"
         return (f"a bond to {label(i)} must break in the same step: the bond to a leaving group, for example "

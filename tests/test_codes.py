@@ -123,6 +123,16 @@ step "homolysis" under "light"
 end
 '''
 
+# Formate hands its hydride to an iminium ion (the last step of an Eschweiler-Clarke methylation).
+FORMATE_HYDRIDE = '''species formate = "[H:4][C:5](=[O:6])[O-:7]"
+species iminium = "[CH2:2]=[N+:1](C)C"
+step "hydride transfer"
+    :O7 -> C5=O7
+    C5-H4 -> C2-H4
+    C2=N1 -> N1
+end
+'''
+
 TWINS = [
     # electron moves (AR2xx)
     Twin("arrow from a proton", ACID_BASE, ":O5 -> H(O4)", "H(O4) -> O5", "AR204", "H(O4) -> O5",
@@ -139,12 +149,18 @@ TWINS = [
     Twin("lone pair on a carbocation", HBR_ADDITION, ":Br4 -> C2", ":C2 -> Br4", "AR201", ":C2",
          says=("no lone pair", "+1"), hint_says=("backwards", "`:Br4 -> C2`")),
     Twin("bond that does not exist", SN2, "C2-Br3 -> Br3", "O1-Br3 -> Br3", "AR201", "O1-Br3",
-         says=("no bond",)),
+         says=("no bond",), hint_says=("Br3 holds Br3-C2",)),
+    # The hydride named on the carbon it goes to: the hint says which bond holds it.
+    Twin("hydrogen named on the wrong atom", FORMATE_HYDRIDE, "C5-H4 -> C2-H4", "C2-H4 -> C2", "AR201", "C2-H4",
+         says=("no bond C2-H4",), hint_says=("H4 holds H4-C5",)),
     Twin("unpaired electron on a closed-shell atom", SN2, ":O1 -> C2", ".O1 ~> C2", "AR201", ".O1"),
     Twin("one unpaired electron used twice", RADICALS, ".C2 ~> C1-C2", ".C1 ~> C1-C2", "AR203", ".C1",
          occurrence=2, says=("twice",)),
     # The single C3-Br4 pair cannot leave twice.
     Twin("one bond pair used twice", E2, "C2-H -> C2=C3", "C3-Br4 -> Br4", "AR203", "C3-Br4", occurrence=2),
+    # A pair given to a hydrogen that keeps its C-H bond: it would have two.
+    Twin("pair onto a hydrogen that keeps its bond", FORMATE_HYDRIDE, ":O7 -> C5=O7\n    C5-H4 -> C2-H4\n    C2=N1 -> N1\n",
+         ":O7 -> H4\n", "AR301", ":O7 -> H4", says=("H4", "limit is 2"), hint_says=("`C5-H4 -> C5`",)),
     Twin("arrow from a bare atom", SN2, ":O1 -> C2", "O1 -> C2", "AR205", "O1 -> C2", hint_says=(":O1",)),
     Twin("bond pair sent to a third atom", HBR_ADDITION, "C2=C3 -> C3-H5", "C2=C3 -> H5", "AR206",
          "C2=C3 -> H5", sink=True, hint_says=("C3-H5",)),
