@@ -894,10 +894,12 @@ def test_untouched_atoms_stay_put(text, name):
     straightens or bends an atom (the nitrilium of a Beckmann rearrangement, made by a shift and
     attacked by water: sp atoms are drawn straight, IUPAC 2008), its atoms moving less than 1.5
     bond lengths, as is one in which a three- or four-membered ring opens, its chain whole (the
-    chain is drawn anew at open angles); and a molecule drawn as an alkene on one side of the step and as a ring on the
-    other (the bromonium ion of (E)-stilbene; the oxaphosphetane that opens to an E alkene), less
+    chain is drawn anew at open angles); and a molecule drawn as an alkene on one side of the
+    step and as a ring on the other (the bromonium ion of (E)-stilbene; the oxaphosphetane that opens to an E alkene), less
     than 2. In the last panel, each by-product is set beside the product as a rigid body (common
-    practice: the scheme ends as "product + by-product")."""
+    practice: the scheme ends as "product + by-product"). Rigidity is asked only of atoms that
+    stay in one molecule: a piece the step cuts off (the acetate mercury lets go as the alkene
+    joins it) may step away from the rest."""
     trace, _, scene = _scene(text, name)
     bl = scene.bond_length
     for before, after in zip(scene.panels, scene.panels[1:]):
@@ -909,12 +911,12 @@ def test_untouched_atoms_stay_put(text, name):
         new = {a.index: a.position for a in after.atoms}
         kept = [i for i in old if i in new and i not in touched]
         molecules = _joining_molecules(step.before.mol, step.after.mol) + _proton_partners(trace, step)
-        piece = {}   # in the last panel: atom -> its molecule after the step
         if after is scene.panels[-1]:
             molecules += _by_products(trace, step.after.mol, set(new))
-            # A by-product cut off in the last step moves apart from what it was cut from.
-            piece = {i: k for k, f in enumerate(Chem.GetMolFrags(step.after.mol, asMols=False, sanitizeFrags=False))
-                     for i in f}
+        # A piece cut off in the step (a by-product, the acetate mercury lets go as the alkene
+        # joins it) moves apart from what it was cut from.
+        piece = {i: k for k, f in enumerate(Chem.GetMolFrags(step.after.mol, asMols=False, sanitizeFrags=False))
+                 for i in f}
 
         def together(*atoms) -> bool:
             return len({piece.get(i) for i in atoms}) == 1

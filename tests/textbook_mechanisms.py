@@ -3888,6 +3888,64 @@ end
 product "CC(C)=O.O.[OH3+].[OH3+].O=[Cr-](=O)O"
 '''
 
+# 1,4-Addition of HBr to buta-1,3-diene (Clayden, Organic Chemistry, 2nd ed., from memory): the
+# allylic cation, written in its two resonance forms, takes bromide at C4: 1-bromobut-2-ene, the
+# thermodynamic product.
+DIENE_HBR_ADDITION = '''\
+species diene = "[CH2:1]=[CH:2][CH:3]=[CH2:4]"
+species hbr = "[H:5][Br:6]"
+step "protonation at C1"
+    C1=C2 -> C1-H5
+    H5-Br6 -> Br6
+end
+step "allylic cation" resonance
+    C3=C4 -> C2=C3
+end
+step "bromide at C4"
+    :Br6 -> C4
+end
+product "CC=CCBr"
+'''
+
+# Lithium aluminium hydride reduction of acetone (Clayden, Organic Chemistry, 2nd ed., from
+# memory): a hydride of the aluminate adds to the carbonyl carbon; water protonates the alkoxide.
+ALUMINATE_REDUCTION = '''\
+species ketone = "C[C:1](C)=[O:2]"
+species aluminate = "[H:3][Al-:4]([H])([H])[H]"
+species water = "[OH2:5]"
+step "hydride transfer"
+    Al4-H3 -> C1-H3
+    C1=O2 -> O2
+end
+step "work-up"
+    :O2 -> H(O5)
+    O5-H -> O5
+end
+product "CC(C)O.[OH-].[AlH3]"
+'''
+
+# Oxymercuration of propene (Brown; Clayden, Organic Chemistry, 2nd ed., from memory), drawn
+# through the open cation: the alkene takes mercury as acetate leaves, water adds at the more
+# substituted carbon (Markovnikov), and a second water takes its proton.
+OXYMERCURATION = '''\
+species alkene = "C[CH:1]=[CH2:2]"
+species mercury = "CC(=O)[O:3][Hg:4][O:7]C(C)=O"
+species water = "[OH2:5]"
+species water_2 = "[OH2:6]"
+step "alkene takes mercury"
+    C1=C2 -> C2-Hg4
+    Hg4-O3 -> O3
+end
+step "water adds"
+    :O5 -> C1
+end
+step "deprotonation"
+    :O6 -> H(O5)
+    O5-H -> O5
+end
+product "CC(O)C[Hg]OC(C)=O.CC(=O)[O-].[OH3+]"
+'''
+
 TEXTBOOK = {
     "wittig": (WITTIG, "C=C(C)C.O=P(c1ccccc1)(c1ccccc1)c1ccccc1", True),
     "bromination": (BROMINATION, "Br[C@@H]1CCCC[C@H]1Br", True),
@@ -4061,4 +4119,7 @@ TEXTBOOK = {
     "eschweiler-clarke": (ESCHWEILER_CLARKE, "CN(C)C.O=C=O.O.O", True),
     # chromic acid changes shape by 0.03 bond lengths as the alcohol joins its chromium (of 0.02 allowed)
     "chromic acid oxidation": (CHROMIC_ACID_OXIDATION, "CC(C)=O.O.[OH3+].[OH3+].O=[Cr-](=O)O", False),
+    "diene hbr addition": (DIENE_HBR_ADDITION, "CC=CCBr", True),
+    "aluminate reduction": (ALUMINATE_REDUCTION, "CC(C)O.[OH-].[AlH3]", True),
+    "oxymercuration": (OXYMERCURATION, "CC(O)C[Hg]OC(C)=O.CC(=O)[O-].[OH3+]", True),
 }

@@ -2674,15 +2674,25 @@ class _LayoutBuilder:
         # Straight out along the bond first; then, for a fragment that took the pair (the chloride
         # an acid chloride loses, beside the carbon the next Grignard attacks), turned a little
         # off that line where the straight way meets the next reagent.
-        turns = (1,) if apart else (1, cmath.rect(1, math.pi / 6), cmath.rect(1, -math.pi / 6),
-                                    cmath.rect(1, math.pi / 3), cmath.rect(1, -math.pi / 3),
-                                    cmath.rect(1, math.pi / 2), cmath.rect(1, -math.pi / 2))
-        for turn, extra in ((turn, extra) for turn in turns for extra in ((0.7, 0.5, 0.3) if apart else (1.0, 1.5, 2.0))):
+        # A pair of labels split apart first tries a short step straight out; where that meets
+        # something (the acetate that mercury lets go, where the alkene has come in), the rest.
+        turns = (1, cmath.rect(1, math.pi / 6), cmath.rect(1, -math.pi / 6), cmath.rect(1, math.pi / 3),
+                 cmath.rect(1, -math.pi / 3), cmath.rect(1, math.pi / 2), cmath.rect(1, -math.pi / 2))
+        tries = [(1, extra) for extra in (0.7, 0.5, 0.3)] if apart else []
+        def fit(at: complex) -> tuple[bool, float]:
+            """Clear of the next step's arrows, then the nearest approach to anything."""
+            nearest = float(np.abs(at + local[:, None] - others[None, :]).min()) if len(others) else math.inf
+            return not _near_any_way(at + local, ways), min(nearest, _CLEARANCE)
+        best, best_fit = shift, fit(shift)
+        for turn, extra in tries + [(turn, extra) for turn in turns for extra in (1.0, 1.5, 2.0)]:
             moved = shift + direction * turn * extra
-            if (not len(others) or np.abs(moved + local[:, None] - others[None, :]).min() >= _CLEARANCE) \
-                    and not _near_any_way(moved + local, ways):
+            here = fit(moved)
+            if here == (True, _CLEARANCE):
                 return (rotation, moved, direction, pull_back)
-        return previous
+            if here > best_fit:
+                best, best_fit = moved, here
+        # Nowhere quite clear: the roomiest of the tries, if it beats staying put.
+        return (rotation, best, direction, pull_back)
 
     def _ways_of_next_step(self, k: int, skip: set[int]) -> list[tuple[complex, complex]]:
         """The straight lines in panel k between the atoms the step after it joins or hands a
