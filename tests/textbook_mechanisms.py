@@ -4117,8 +4117,7 @@ TEXTBOOK = {
     "retro-diels-alder": (RETRO_DIELS_ALDER, "C=CC=C.C=C", True),
     "lossen": (LOSSEN, "CN=C=O.CC(=O)[O-]", True),
     "eschweiler-clarke": (ESCHWEILER_CLARKE, "CN(C)C.O=C=O.O.O", True),
-    # chromic acid changes shape by 0.03 bond lengths as the alcohol joins its chromium (of 0.02 allowed)
-    "chromic acid oxidation": (CHROMIC_ACID_OXIDATION, "CC(C)=O.O.[OH3+].[OH3+].O=[Cr-](=O)O", False),
+    "chromic acid oxidation": (CHROMIC_ACID_OXIDATION, "CC(C)=O.O.[OH3+].[OH3+].O=[Cr-](=O)O", True),
     "diene hbr addition": (DIENE_HBR_ADDITION, "CC=CCBr", True),
     "aluminate reduction": (ALUMINATE_REDUCTION, "CC(C)O.[OH-].[AlH3]", True),
     "oxymercuration": (OXYMERCURATION, "CC(O)C[Hg]OC(C)=O.CC(=O)[O-].[OH3+]", True),

@@ -2193,26 +2193,59 @@ class _LayoutBuilder:
         every bond it has to placed atoms in the segment's first panel at one bond length and it is
         bonded to more than one: placed afresh on one of them, it would stretch the others (the
         sulfur of a chlorosulfite, every bond of which some step changes, turned about its oxygen
-        away from the chlorine it keeps)."""
+        away from the chlorine it keeps). Failing that, the placement of the run next to it (before,
+        or after when that one is placed first) carried along with the cluster it hangs on, where
+        that moved as a rigid body between the two runs (see _carried_with)."""
         cluster = self.clusters[index]
-        first = segment[0]
-        before = cluster.segment_at.get(first - 1)
-        if before is None or before[0] not in cluster.placement:
-            return None
+        first, last = segment
         local = cluster.local_at(first)
-        if any(cluster.local_at(first - 1).get(a) != local.get(a) for a in cluster.atoms):
-            return None   # drawn anew from here: its old placement says nothing
         mine = set(cluster.atoms)
         here = self.positions[first]
         links = [(a, n) for a in cluster.atoms if a in self.exists[first] for n in self.neighbours[a]
                  if n not in mine and n in here and (min(a, n), max(a, n)) in self.bonds_in[first]]
-        if len(links) < 2 and mine & self.touched[first - 1]:
-            return None
-        placement = cluster.placement[before[0]]
-        rotation, shift = placement[:2]
-        if all(abs(abs(shift + rotation * local[a] - here[n]) - 1.0) <= 0.02 for a, n in links):
-            return placement
+
+        def bonded(placement: tuple) -> bool:
+            return all(abs(abs(placement[1] + placement[0] * local[a] - here[n]) - 1.0) <= 0.02 for a, n in links)
+
+        before = cluster.segment_at.get(first - 1)
+        if before is not None and before[0] in cluster.placement:
+            if any(cluster.local_at(first - 1).get(a) != local.get(a) for a in cluster.atoms):
+                return None   # drawn anew from here: its old placement says nothing
+            if len(links) < 2 and mine & self.touched[first - 1]:
+                return None
+            placement = cluster.placement[before[0]]
+            if bonded(placement):
+                return placement
+            carried = self._carried_with(links, first - 1, first, placement) \
+                if links and not mine & self.touched[first - 1] else None
+            return carried if carried is not None and bonded(carried) else None
+        after = cluster.segment_at.get(last + 1)
+        if after is not None and after[0] in cluster.placement and links and not mine & self.touched[last] \
+                and all(cluster.local_at(last + 1).get(a) == local.get(a) for a in cluster.atoms):
+            carried = self._carried_with(links, last + 1, first, cluster.placement[after[0]])
+            return carried if carried is not None and bonded(carried) else None
         return None
+
+    def _carried_with(self, links: list[tuple[int, int]], source: int, target: int, placement: tuple) -> Optional[tuple]:
+        """`placement`, made for panel `source`, moved as the cluster it hangs on moved, as a rigid
+        body, from panel `source` to panel `target` (chromic acid's OH, a cluster of its own, on
+        the chromium that waits apart and then takes the alcohol): it keeps its bond and the
+        molecule its shape. None when that cluster did not move rigidly."""
+        before, here = self.positions[source], self.positions[target]
+        partner = self.clusters[self.cluster_of[links[0][1]]]
+        if len(partner.atoms) <= len(self.clusters[self.cluster_of[links[0][0]]].atoms):
+            return None   # only a smaller group rides on a larger body (DMF is not carried by its oxygen)
+        shared = [x for x in partner.atoms if x in before and x in here]
+        if len(shared) < 2:
+            return None
+        a = shared[0]
+        b = max(shared, key=lambda x: abs(before[x] - before[a]))
+        turn = 1 + 0j if abs(before[b] - before[a]) < 1e-9 else (here[b] - here[a]) / (before[b] - before[a])
+        if abs(abs(turn) - 1.0) > 1e-6 or any(abs(here[x] - here[a] - turn * (before[x] - before[a])) > 1e-6
+                                               for x in shared):
+            return None
+        rotation, shift = placement[:2]
+        return (turn * rotation, here[a] + turn * (shift - before[a])) + tuple(placement[2:])
 
     def _four_centre_side(self, anchor: int, mover: int, k: int) -> Optional[complex]:
         """Panel k has the new bond between `anchor` and `mover`; if the step that made it also
