@@ -574,6 +574,22 @@ def test_of_two_alike_reagents_the_one_acting_first_is_placed_first():
     test_atoms_stand_apart(TEXTBOOK[name][0], name)
 
 
+def test_a_phosphonium_made_from_triphenylphosphine_is_drawn_as_a_cross():
+    """Triphenylphosphine takes methyl (the phosphonium salt of a Wittig ylide): the four-bonded
+    phosphorus is drawn as a cross, the P-C bond at least 80 degrees from each phenyl (common
+    practice: a tetrahedral centre with four drawn bonds is drawn at right angles). Drawn from
+    the trigonal phosphine, the methyl went in 60 degrees from two phenyls and the hydrogen the
+    base takes next stood on a ring, 0.35 bond lengths from a ring carbon."""
+    name = "phosphonium ylide"
+    trace, _, scene = _scene(TEXTBOOK[name][0], name)
+    index = {a.GetAtomMapNum(): a.GetIdx() for a in trace.initial.mol.GetAtoms() if a.GetAtomMapNum()}
+    mol = trace.initial.mol
+    phenyls = [n.GetIdx() for n in mol.GetAtomWithIdx(index[1]).GetNeighbors()]
+    where = {a.index: a.position for a in scene.panels[1].atoms}
+    assert len(phenyls) == 3
+    assert min(_angle_at(where, index[1], index[2], p) for p in phenyls) >= 80
+
+
 def test_a_nucleophile_with_no_clear_line_behind_the_leaving_group_waits_away_from_it():
     """DMF's oxygen displaces a chloride of POCl3, whose three other ligands leave no straight
     line behind the leaving chloride: it waits in the gap nearest that line, at least 90 degrees

@@ -3946,6 +3946,102 @@ end
 product "CC(O)C[Hg]OC(C)=O.CC(=O)[O-].[OH3+]"
 '''
 
+# Phosphonium salt and ylide (Wittig; Clayden, Organic Chemistry, 2nd ed., from memory):
+# triphenylphosphine displaces bromide from methyl bromide (SN2), and butyllithium's carbanion
+# takes a methyl proton: methylenetriphenylphosphorane.
+PHOSPHONIUM_YLIDE = '''\
+species phosphine = "c1ccc(cc1)[P:1](c1ccccc1)c1ccccc1"
+species mebr = "[CH3:2][Br:3]"
+species base = "CCC[CH2-:4]"
+step "SN2 at methyl"
+    :P1 -> C2
+    C2-Br3 -> Br3
+end
+step "deprotonation"
+    :C4 -> H(C2)
+    C2-H -> C2
+end
+product "[CH2-][P+](c1ccccc1)(c1ccccc1)c1ccccc1.[Br-].CCCC"
+'''
+
+# Meinwald rearrangement of 2,2-dimethyloxirane with BF3 (March's Advanced Organic Chemistry, from
+# memory): the Lewis acid opens the epoxide to the tertiary cation, a hydride shifts as the oxygen
+# makes its C=O, and BF3 leaves: 2-methylpropanal.
+MEINWALD = '''\
+species epoxide = "C[C:1]1(C)[CH2:2][O:3]1"
+species bf3 = "F[B:4](F)F"
+step "Lewis acid binds"
+    :O3 -> B4
+end
+step "ring opens to the tertiary cation"
+    C1-O3 -> O3
+end
+step "hydride shift"
+    C2-H -> C1-H(C2)
+    :O3 -> C2=O3
+end
+step "Lewis acid leaves"
+    O3-B4 -> O3
+end
+product "CC(C)C=O.FB(F)F"
+'''
+
+# Acid-catalysed acetylation of salicylic acid by acetic anhydride (aspirin; Clayden, Organic
+# Chemistry, 2nd ed., from memory): protonated anhydride, addition of the phenol, proton shuttle,
+# loss of acetic acid's oxygen as acetate, and deprotonation.
+SALICYLIC_ACETYLATION = '''\
+species phenol = "OC(=O)c1ccccc1[OH:1]"
+species anhydride = "C[C:2](=[O:3])[O:4][C:5](C)=[O:6]"
+species acid = "[OH3+:7]"
+species water = "[OH2:8]"
+step "carbonyl protonation"
+    :O3 -> H(O7)
+    O7-H -> O7
+end
+step "phenol adds"
+    :O1 -> C2
+    C2=O3 -> O3
+end
+step "proton shuttle"
+    :O8 -> H(O1)
+    O1-H -> O1
+end
+step "acetic acid leaves"
+    :O3 -> C2=O3
+    C2-O4 -> O4
+end
+step "deprotonation"
+    :O7 -> H(O3)
+    O3-H -> O3
+end
+product "CC(=O)Oc1ccccc1C(=O)O.CC(=O)[O-].[OH3+].[OH3+]"
+'''
+
+# Grignard reagent adding to a nitrile (Clayden, Organic Chemistry, 2nd ed., from memory): the
+# C-Mg bond adds across the C#N in one four-centre step, giving the magnesium salt of the imine.
+NITRILE_GRIGNARD = '''\
+species nitrile = "C[C:1]#[N:2]"
+species grignard = "CC[CH2:3][Mg:4][Br:5]"
+step "addition"
+    C3-Mg4 -> C1-C3
+    C1#N2 -> N2-Mg4
+end
+product "CCCC(C)=N[Mg]Br"
+'''
+
+# SN2' substitution of 3-chlorobut-1-ene by cyanide (March's Advanced Organic Chemistry, from
+# memory): the nucleophile bonds to the alkene end as the double bond shifts and chloride leaves.
+SN2_PRIME = '''\
+species allyl = "[CH2:1]=[CH:2][CH:3](C)[Cl:4]"
+species cyanide = "N#[C-:5]"
+step "SN2' substitution"
+    :C5 -> C1
+    C1=C2 -> C2=C3
+    C3-Cl4 -> Cl4
+end
+product "N#CCC=CC.[Cl-]"
+'''
+
 TEXTBOOK = {
     "wittig": (WITTIG, "C=C(C)C.O=P(c1ccccc1)(c1ccccc1)c1ccccc1", True),
     "bromination": (BROMINATION, "Br[C@@H]1CCCC[C@H]1Br", True),
@@ -4121,4 +4217,10 @@ TEXTBOOK = {
     "diene hbr addition": (DIENE_HBR_ADDITION, "CC=CCBr", True),
     "aluminate reduction": (ALUMINATE_REDUCTION, "CC(C)O.[OH-].[AlH3]", True),
     "oxymercuration": (OXYMERCURATION, "CC(O)C[Hg]OC(C)=O.CC(=O)[O-].[OH3+]", True),
+    "phosphonium ylide": (PHOSPHONIUM_YLIDE, "[CH2-][P+](c1ccccc1)(c1ccccc1)c1ccccc1.[Br-].CCCC", True),
+    "meinwald": (MEINWALD, "CC(C)C=O.FB(F)F", True),
+    "salicylic acetylation": (SALICYLIC_ACETYLATION, "CC(=O)Oc1ccccc1C(=O)O.CC(=O)[O-].[OH3+].[OH3+]", True),
+    # the nitrile waits 2.5 bond lengths off the C-Mg bond: two long arcs side by side
+    "nitrile grignard": (NITRILE_GRIGNARD, "CCCC(C)=N[Mg]Br", False),
+    "sn2 prime": (SN2_PRIME, "N#CCC=CC.[Cl-]", True),
 }

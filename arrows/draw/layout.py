@@ -1052,7 +1052,7 @@ class _LayoutBuilder:
             # degrees from each, its label on theirs.
             for a in (i, j):
                 if any((i, j) in bonds and self._heavy_degree(a, bonds) >= 5 for bonds in self.bonds_in) \
-                        or self._lewis_acid_taking_fourth(a, (i, j)):
+                        or self._lewis_acid_taking_fourth(a, (i, j)) or self._onium_made(a, (i, j)):
                     room[a] = room.get(a, 0) + 1
             # A ring atom with three heavy neighbours of its own, one of them a heteroatom that
             # bonds to it to close the ring, keeps room for its fourth too, so that the ring's
@@ -1082,6 +1082,21 @@ class _LayoutBuilder:
                     and self._heavy_degree(atom, before) == 3 and self._heavy_degree(atom, after) == 4
                     and any(self.orders_in[k + 1].get(pair, 0) < order for pair, order in self.orders_in[k].items()
                             if atom in pair)):
+                return True
+        return False
+
+    def _onium_made(self, atom: int, bond: tuple[int, int]) -> bool:
+        """Whether `atom`, holding three heavy neighbours that each stand in a ring and a lone
+        pair, gives that pair to make `bond` a fourth (triphenylphosphine taking methyl: the
+        phosphonium salt). Drawn trigonal, the new bond went in 60 degrees from two phenyls, and
+        the methyl's hydrogen that a base takes next stood on a phenyl ring. (Chains, the ethoxy
+        groups of a phosphite, bend out of the way.)"""
+        for k, (before, after) in enumerate(zip(self.bonds_in, self.bonds_in[1:])):
+            state = self.states[k]
+            if (bond in after and bond not in before and atom < len(state.nonbonding) and state.nonbonding[atom] == 2
+                    and self._heavy_degree(atom, before) == 3 and self._heavy_degree(atom, after) == 4
+                    and all(self._in_ring(n) for i, j in before if atom in (i, j)
+                            for n in (i + j - atom,) if self.element[n] != 1)):
                 return True
         return False
 
