@@ -60,8 +60,10 @@ def product_stereo(final: Optional[ElectronState], touched: set[int], views: Opt
         position = {old: new for new, old in enumerate(sorted(indices))}
         # A touched atom is free to take either configuration unless the replay carried one
         # through the step (a backside substitution inverts the written one, a 1,2-shift keeps it).
-        # So does a double bond whose geometry a concerted elimination set.
-        uncontrolled = [position[i] for i in touched if i in position and not _configured_at(final.mol, i)]
+        # So does a double bond whose geometry a concerted elimination set. A state with no
+        # configuration (most) has none to clear.
+        uncontrolled = [position[i] for i in touched if i in position and not _configured_at(final.mol, i)] \
+            if final.configured else []
         piece = fragment(final.mol, indices)
         count = stereoisomer_count(piece, uncontrolled)
         if several_only and (count or 0) <= 1:

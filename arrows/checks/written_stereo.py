@@ -72,8 +72,8 @@ def mismatches(state: ElectronState, checkpoint: Checkpoint, what: str, step: Op
         if not configured or constitution not in derived:
             continue
         derived_smiles, derived_configured, _ = derived[constitution]
-        if derived_configured != configured:
-            continue
+        if derived_configured != configured or derived_smiles == smiles:
+            continue   # (one canonical SMILES: the same stereoisomer, which relation() would read twice to say)
         kind = relation(smiles, derived_smiles)
         if kind == DIASTEREOMERS or (kind == ENANTIOMERS and not racemic):
             found.append(Diagnostic(

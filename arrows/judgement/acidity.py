@@ -79,12 +79,19 @@ TABLE: tuple[Acidity, ...] = (
 HYDROGEN = Acidity("H2", "a hydride ion", "[#1][#1]", 35, "~35", NOT_LISTED)
 
 
+# Set on the atom judged while its table entries are searched: each pattern's first atom also asks
+# for it, so a search starts only there instead of finding every match in the state.
+_SITE = "arrows_acid_site"
+
+
 @lru_cache(maxsize=None)
 def _entries_for(element: int) -> tuple[tuple[Acidity, Chem.Mol, Optional[Chem.Atom]], ...]:
     """The table entries that can be about an atom of `element`, in table order, each with its
-    pattern and its first atom when that atom can be tested alone: RDKit's substructure search
-    tests each atom pair with the same Match, so an atom that fails it cannot start a match. A
-    recursive ($(...)) first atom is only evaluated inside a full search, so it is never tested alone."""
+    pattern rooted at the marked atom (_SITE) and its first atom as written when that atom can be
+    tested alone: RDKit's substructure search tests each atom pair with the same Match, so an atom
+    that fails it cannot start a match. A recursive ($(...)) first atom is only evaluated inside a
+    full search, so it is never tested alone."""
+    from rdkit.Chem import rdqueries   # a small module, loaded with the first proton transfer judged
     out = []
     for entry in TABLE:
         pattern = Chem.MolFromSmarts(entry.smarts)
@@ -93,7 +100,9 @@ def _entries_for(element: int) -> tuple[tuple[Acidity, Chem.Mol, Optional[Chem.A
         first = pattern.GetAtomWithIdx(0)
         if first.GetAtomicNum() not in (0, element):
             continue   # the entry is about another element
-        out.append((entry, pattern, None if "$(" in first.GetSmarts() else first))
+        rooted = Chem.RWMol(pattern)
+        rooted.GetAtomWithIdx(0).ExpandQuery(rdqueries.HasIntPropWithValueQueryAtom(_SITE, 1))
+        out.append((entry, rooted.GetMol(), None if "$(" in first.GetSmarts() else first))
     return tuple(out)
 
 
@@ -111,9 +120,13 @@ def perceived(mol: Chem.Mol) -> Chem.Mol:
 def acidity_of(mol: Chem.Mol, atom: int) -> Optional[Acidity]:
     """The first table entry whose SMARTS matches with its first atom at `atom` (mol perceived)."""
     target = mol.GetAtomWithIdx(atom)
-    for entry, pattern, first in _entries_for(target.GetAtomicNum()):
-        if first is not None and not first.Match(target):
-            continue   # a quick no: the atom itself does not fit the entry's first atom
-        if any(match[0] == atom for match in mol.GetSubstructMatches(pattern, uniquify=False)):
-            return entry
-    return None
+    target.SetIntProp(_SITE, 1)
+    try:
+        for entry, rooted, first in _entries_for(target.GetAtomicNum()):
+            if first is not None and not first.Match(target):
+                continue   # a quick no: the atom itself does not fit the entry's first atom
+            if mol.HasSubstructMatch(rooted):
+                return entry
+        return None
+    finally:
+        target.ClearProp(_SITE)
