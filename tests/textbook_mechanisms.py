@@ -4137,7 +4137,7 @@ TEXTBOOK = {
     "appel": (APPEL, "CCCCBr.[O-][P+](c1ccccc1)(c1ccccc1)c1ccccc1.BrC(Br)Br", True),
     "aibn": (AIBN, "C[C](C)C#N.C[C](C)C#N.N#N", True),
     "amine acetylation": (ACETYLATION, "CCNC(C)=O.CC(=O)[O-].c1cc[nH+]cc1", True),
-    "thionyl chloride": (THIONYL_CHLORIDE, "CC(=O)Cl.O=S=O", False),   # SOCl2's chlorines move apart 0.29 as S takes a fourth bond
+    "thionyl chloride": (THIONYL_CHLORIDE, "CC(=O)Cl.O=S=O", True),
     "azo coupling": (AZO_COUPLING, "[O-]c1ccc(N=Nc2ccccc2)cc1.[OH3+]", True),
     "intramolecular acylation": (INTRAMOLECULAR_ACYLATION, "O=C1CCCc2ccccc21.[OH3+]", True),
     "robinson annulation": (ROBINSON_METHYLCYCLOHEXANONE, "CC12CCCCC1=CC(=O)CC2", True),
