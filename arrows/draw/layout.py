@@ -707,9 +707,9 @@ class _LayoutBuilder:
         for i, j in self.union:
             self.neighbours[i].add(j)
             self.neighbours[j].add(i)
+        self.hops = self._hydrogen_hops()
         # Chain C=C bonds with no written geometry, each with the heavy substituent on either end:
         # drawn trans (the zigzag of common practice) where no ring holds them.
-        self.hops = self._hydrogen_hops()
         self.chain_double = self._chain_double_bonds()
         self.positions: list[dict[int, complex]] = [dict() for _ in range(self.n)]
         self.backside = self._backside_substitutions()
@@ -2719,14 +2719,14 @@ class _LayoutBuilder:
                     or (np.abs(shift + local[:, None] - others[None, :]).min() >= _CLEARANCE
                         and not _near_any_way(shift + local, ways))):
                 return previous
-        # Straight out along the bond first; then, for a fragment that took the pair (the chloride
-        # an acid chloride loses, beside the carbon the next Grignard attacks), turned a little
-        # off that line where the straight way meets the next reagent.
-        # A pair of labels split apart first tries a short step straight out; where that meets
-        # something (the acetate that mercury lets go, where the alkene has come in), the rest.
+        # Straight out along the bond first, then turned off that line where the straight way
+        # meets the next reagent (the chloride an acid chloride loses, beside the carbon the next
+        # Grignard attacks). A pair of labels split apart first tries a short step straight out
+        # (the acetate that mercury lets go goes further where the alkene has come in).
         turns = (1, cmath.rect(1, math.pi / 6), cmath.rect(1, -math.pi / 6), cmath.rect(1, math.pi / 3),
                  cmath.rect(1, -math.pi / 3), cmath.rect(1, math.pi / 2), cmath.rect(1, -math.pi / 2))
         tries = [(1, extra) for extra in (0.7, 0.5, 0.3)] if apart else []
+
         def fit(at: complex) -> tuple[bool, float]:
             """Clear of the next step's arrows, then the nearest approach to anything."""
             nearest = float(np.abs(at + local[:, None] - others[None, :]).min()) if len(others) else math.inf
