@@ -718,7 +718,8 @@ class _LayoutBuilder:
                         for k in range(self.n - 1)] + [set()]
         self.sp_atoms: dict[tuple[int, int, int], bool] = {}    # _linear's answers, asked again and again
         # The atoms _bends looks at: two or more heavy partners over the mechanism, with a
-        # triple bond or two double bonds among them (a carbonyl carbon, with one, is not).
+        # triple bond or two double bonds among them (a carbonyl carbon, with one, is not). No
+        # other atom is straight in any panel: _linear answers for the rest without a look.
         self.may_bend: set[int] = set()
         for atom in self.atoms:
             orders = [self.union[(min(atom, n), max(atom, n))] for n in self.neighbours[atom] if self.element[n] != 1]
@@ -1636,6 +1637,8 @@ class _LayoutBuilder:
         """Over `panels` (all by default): two bonds, one of them triple, or both double in one
         state: an sp atom. (An enolate carbon is double-bonded to C and to O, but never at once;
         a nitronium N, straight until an arene bonds to it, is not straight over every panel.)"""
+        if atom not in self.may_bend:
+            return False
         panels = panels or range(self.n)
         key = (atom, panels.start, panels.stop)
         linear = self.sp_atoms.get(key)

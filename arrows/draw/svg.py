@@ -3,6 +3,7 @@ scene's. Numbers are rounded to 0.01 pt so the same scene always gives the same 
 piece of user text is escaped."""
 from __future__ import annotations
 
+from functools import lru_cache
 from xml.sax.saxutils import escape, quoteattr
 
 from .scene import Mark, Panel, ReactionArrow, Scene, TextRun
@@ -10,20 +11,31 @@ from .styles import INK
 
 
 def _n(v: float) -> str:
-    text = f"{v:.2f}"
+    return _trimmed(f"{v:.2f}")
+
+
+def _trimmed(text: str) -> str:
+    """A number written with two decimals, without their trailing zeros (nor the point with both)."""
     if text[-1] != "0":   # (most numbers: nothing to strip, and "-0.00" ends in a zero)
         return text
-    text = text.rstrip("0").rstrip(".")   # drop trailing zeros of the two decimals, and the point with both
+    text = text.rstrip("0").rstrip(".")
     return "0" if text == "-0" else text
 
 
 def _pt(p) -> str:
-    # Both numbers in one formatting call, as _n writes them where neither ends in a zero (most
-    # points): a point is written some ten thousand times a figure.
+    # Both numbers in one formatting call, trimmed as _n trims them only where one ends in a zero
+    # (most points need nothing): a point is written some ten thousand times a figure.
     text = "%.2f %.2f" % (p[0], p[1])
     if text[-1] != "0" and "0 " not in text:
         return text
-    return f"{_n(p[0])} {_n(p[1])}"
+    x, y = text.split(" ")
+    return f"{_trimmed(x)} {_trimmed(y)}"
+
+
+@lru_cache(maxsize=None)
+def _size(size: float) -> str:
+    """A font size as _n writes it: a figure has a few sizes, each written hundreds of times."""
+    return _n(size)
 
 
 def _colour_attr(colour: str, attr: str) -> str:
@@ -35,7 +47,7 @@ def _text(run: TextRun) -> str:
     xy = 'x="%.2f" y="%.2f"' % (run.x, run.y)
     if '0"' in xy:
         xy = f'x="{_n(run.x)}" y="{_n(run.y)}"'
-    attrs = f'{xy} font-size="{_n(run.size)}"'
+    attrs = f'{xy} font-size="{_size(run.size)}"'
     if run.bold:
         attrs += ' font-weight="bold"'
     if run.italic:
@@ -127,4 +139,4 @@ def scene_to_svg(scene: Scene) -> str:
     for arrow in scene.reaction_arrows:
         lines += _reaction(arrow)
     lines += ["</g>", "</svg>", ""]
-    return "\n".join(line for line in lines if line)
+    return "\n".join(filter(None, lines))   # (the empty lines left out)
