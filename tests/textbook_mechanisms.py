@@ -4042,6 +4042,33 @@ end
 product "N#CCC=CC.[Cl-]"
 '''
 
+# Intramolecular Diels-Alder of deca-1,3,9-triene (Clayden, Organic Chemistry, 2nd ed., from
+# memory): the tethered diene and alkene close the cyclohexene and, through the tether, a second
+# six-membered ring: a bicyclo[4.4.0]decene.
+INTRAMOLECULAR_DIELS_ALDER = '''\
+species triene = "[CH2:1]=[CH:2][CH:3]=[CH:4][CH2:5][CH2:6][CH2:7][CH2:8][CH:9]=[CH2:10]"
+step "intramolecular Diels-Alder"
+    C1=C2 -> C1-C10
+    C3=C4 -> C2=C3
+    C9=C10 -> C4-C9
+end
+product "C1=CC2CCCCC2CC1"
+'''
+
+# Cation-alkene cyclisation cascade (the course of a Johnson polyene cyclisation; Clayden, Organic
+# Chemistry, 2nd ed., from memory): a tertiary cation takes the nearer alkene, closing a
+# six-membered ring, and the new tertiary cation takes the second, closing another fused to it:
+# a decalin with the last cation outside it.
+CATION_ALKENE_CASCADE = '''\
+species chain = "C[C:11](C)=[CH:10][CH2:9][CH2:8][CH2:7][CH:6]=[C:5](C)[CH2:4][CH2:3][CH2:2][C+:1](C)C"
+step "first ring closes"
+    C5=C6 -> C6-C1
+end
+step "second ring closes"
+    C10=C11 -> C10-C5
+end
+'''
+
 TEXTBOOK = {
     "wittig": (WITTIG, "C=C(C)C.O=P(c1ccccc1)(c1ccccc1)c1ccccc1", True),
     "bromination": (BROMINATION, "Br[C@@H]1CCCC[C@H]1Br", True),
@@ -4223,4 +4250,6 @@ TEXTBOOK = {
     # the nitrile waits 2.5 bond lengths off the C-Mg bond: two long arcs side by side
     "nitrile grignard": (NITRILE_GRIGNARD, "CCCC(C)=N[Mg]Br", False),
     "sn2 prime": (SN2_PRIME, "N#CCC=CC.[Cl-]", True),
+    "intramolecular diels-alder": (INTRAMOLECULAR_DIELS_ALDER, "C1=CC2CCCCC2CC1", True),
+    "cation-alkene cascade": (CATION_ALKENE_CASCADE, "C[C+](C)C1CCCC2C(C)(C)CCCC12C", True),
 }

@@ -132,8 +132,10 @@ def _ring_closed(st: StepTrace, i: int, j: int, before: tuple[int, ...], pericyc
     if not pericyclic:
         return () if _migrates(st, i, j, before) else before
     broken = {frozenset(b) for b in st.change.broken}
-    if before and not {frozenset(pair) for pair in zip(before, before[1:])} & broken:
+    if before and len(st.change.formed) == 1 and not {frozenset(pair) for pair in zip(before, before[1:])} & broken:
         return before            # the common case, without a copy of the state
+    # (With a second new bond the array may be shorter than the chain: an intramolecular
+    # Diels-Alder's C1-C10 closes the six-membered array through C4-C9, not the ten-atom chain.)
     if not before and len(st.change.formed) == 1:
         return ()                # two molecules joined by one bond: no ring
     work = Chem.RWMol(st.after.mol)
