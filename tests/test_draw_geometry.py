@@ -574,6 +574,24 @@ def test_of_two_alike_reagents_the_one_acting_first_is_placed_first():
     test_atoms_stand_apart(TEXTBOOK[name][0], name)
 
 
+def test_a_by_product_left_out_of_the_last_panel_is_not_placed_there():
+    """Barton-McCombie steps (a xanthate, a stannyl radical, tributyltin hydride declared at the
+    start and used only in the last step): the tin xanthate made in step 1 is left out of the
+    last panel, which the last step does not touch. Its bond to the sulfur it holds was still
+    taken as a placing event there, and the drawing failed with a TypeError. Every panel now
+    draws, the last without the tin xanthate."""
+    text = ('species xanthate = "C[S:1][C:2](=[S:3])[O:4][CH:5]1CCCCC1"\n'
+            'species stannyl = "C[Sn:6](C)C"\n'
+            'species stannane = "CCCC[Sn:7](CCCC)(CCCC)[H:8]"\n'
+            'step "stannyl radical adds to sulfur"\n    .Sn6 ~> Sn6-S3\n    C2=S3 ~> Sn6-S3\n    C2=S3 ~> C2\nend\n'
+            'step "beta-scission"\n    .C2 ~> C2=O4\n    O4-C5 ~> C2=O4\n    O4-C5 ~> C5\nend\n'
+            'step "hydrogen transfer"\n    .C5 ~> C5-H8\n    Sn7-H8 ~> C5-H8\n    Sn7-H8 ~> Sn7\nend\n')
+    trace, _, scene = _scene(text, "barton-mccombie steps")
+    index = {a.GetAtomMapNum(): a.GetIdx() for a in trace.initial.mol.GetAtoms() if a.GetAtomMapNum()}
+    assert len(scene.panels) == 4
+    assert index[6] not in {a.index for a in scene.panels[-1].atoms}
+
+
 def test_a_phosphonium_made_from_triphenylphosphine_is_drawn_as_a_cross():
     """Triphenylphosphine takes methyl (the phosphonium salt of a Wittig ylide): the four-bonded
     phosphorus is drawn as a cross, the P-C bond at least 80 degrees from each phenyl (common

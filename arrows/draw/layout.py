@@ -1853,7 +1853,9 @@ class _LayoutBuilder:
         events = []
         for k in range(self.n):
             for i, j in sorted(self.bonds_in[k]):
-                if i in self.cluster_of and j in self.cluster_of and self.cluster_of[i] != self.cluster_of[j]:
+                # (both drawn there: a by-product left out of the last panel places nothing)
+                if i in self.cluster_of and j in self.cluster_of and self.cluster_of[i] != self.cluster_of[j] \
+                        and i in self.exists[k] and j in self.exists[k]:
                     events.append((k, "bond", i, j, None))
         for h, runs in self.residences.items():
             for before, after in zip(runs, runs[1:]):
