@@ -83,7 +83,8 @@ CODES = _table(
          'C3=C4 -> C4   # C3-C4 is a single bond'),
     Code("AR203", ERROR, "electrons used twice",
          "Two arrows in one step draw on the same electrons (one pair of a single bond, one lone pair "
-         "more than the atom has).",
+         "more than the atom has). An arrow from `X=Y` takes the pi pair: a second one from it would "
+         "take the sigma pair too, which an arrow names only as `X-Y` (a bond broken right through).",
          'C3-H -> C2=C3\nC3-H -> C3-C7   # the one C3-H pair cannot go two places'),
     Code("AR204", ERROR, "arrow starts at a hydrogen",
          "Arrows start at electrons. A proton (or any hydrogen bonded to an atom) has no lone pair; the "

@@ -320,6 +320,8 @@ class _StepReplay:
         self.resolved: list[ResolvedMove] = []
         self.first_move_on_bond: dict[Pair, Move] = {}
         self._hydrogen_choice: dict[int, int] = {}
+        # bond -> (written order, electrons taken, the arrow, as written) of each arrow from it
+        self.bond_sources: dict[Pair, list[tuple[int, int, Move, BondRef]]] = {}
 
     # diagnostics
     def fail(self, code: str, message: str, loc: Location, hint: Optional[str] = None,
@@ -513,15 +515,47 @@ class _StepReplay:
                       src.loc, self._charge_separated_hint(a, b) or f"write {_rewrite(src.bond, actual)}, or check the previous step",
                       atoms=(self.state.label(a), self.state.label(b)))
             raise _StepFailed
-        if written < actual:
-            self.warn("AR507", f"{src.bond} is written {order_word(written)}, but {self.bond_name(a, b)} is {order_word(actual)}",
-                      src.loc, f"write {_rewrite(src.bond, actual)} so the reader sees which pair moves")
         key = pair(a, b)
+        self.bond_sources.setdefault(key, []).append((written, move.electrons, move, src.bond))
         self.used_bond[key] = self.used_bond.get(key, 0) + move.electrons
         if self.used_bond[key] > have:
             self.fail("AR203", f"the electrons of {self.bond_name(a, b)} are used twice in this step", src.loc,
                       f"{self.bond_name(a, b)} holds {actual} pair{'s' if actual > 1 else ''}; each arrow from it takes one",
                       atoms=(self.state.label(a), self.state.label(b)))
+            raise _StepFailed
+
+    def check_sigma_kept(self) -> None:
+        """A multiple bond's sigma pair is taken only by an arrow that names it (`X-Y`): arrows
+        written `X=Y` (or `X#Y`) take its pi pairs, so two pair arrows from one C=C, or four
+        fishhooks, would break the bond through a name that says it stays. An arrow that writes a
+        multiple bond lower than it is (`C=C` as `C-C`) names its pi pair, with a warning, unless
+        the step's other arrows take every pi pair (the Staudinger N=N, broken right through)."""
+        for key, uses in self.bond_sources.items():
+            have = self.bond_before(*key)
+            actual = have // 2
+            pi_taken = sum(electrons for written, electrons, _, _ in uses if written >= 2)
+            for written, _, move, bond in uses:
+                if written < actual and not (written == 1 and pi_taken >= have - 2):
+                    self.warn("AR507", f"{bond} is written {order_word(written)}, but {self.bond_name(*key)} is "
+                              f"{order_word(actual)}", move.source.loc,
+                              f"write {_rewrite(bond, actual)} so the reader sees which pair moves")
+            if have < 4 or self.used_bond[key] <= have - 2 or any(written == 1 for written, _, _, _ in uses):
+                continue
+            taken = 0
+            for written, electrons, move, bond in uses:   # the first arrow past the pi pairs
+                taken += electrons
+                if taken > have - 2:
+                    break
+            pi = have // 2 - 1
+            if move.electrons == 2 and any(other.electrons == 1 for _, _, other, _ in uses):
+                # A pair arrow among fishhooks from one pi bond (a homolysis written half as a heterolysis).
+                hint = f"the other arrows from `{bond}` move one electron each: if this one does too, write `{bond} ~> {move.sink}`"
+            else:
+                hint = (f"each arrow from `{bond}` takes one pi pair; drop the repeated arrow, or, to break the bond "
+                        f"right through, name its sigma pair `{bond.first}-{bond.second}`")
+            self.fail("AR203", f"the arrows from {bond} take more than its {pi} pi pair{'s' if pi > 1 else ''}: "
+                      f"its sigma pair would go too", move.source.loc, hint,
+                      atoms=(self.state.label(key[0]), self.state.label(key[1])))
             raise _StepFailed
 
     def _charge_separated_hint(self, a: int, b: int) -> Optional[str]:
@@ -647,11 +681,12 @@ def apply_step(state: ElectronState, step: Step, step_index: int, map_index: dic
     written atoms (element, map number) already found, for a replay to pass from step to step."""
     replay = _StepReplay(state, step, step_index, map_index, entered_later, {} if known is None else known)
     change = StepChange()
-    for move in step.moves:
-        try:
+    try:
+        for move in step.moves:
             replay.apply(move)
-        except _StepFailed:
-            return None, change, replay.diagnostics
+        replay.check_sigma_kept()
+    except _StepFailed:
+        return None, change, replay.diagnostics
     change.moves = replay.resolved
     return _settle(state, step, step_index, replay, change)
 

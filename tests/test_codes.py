@@ -133,6 +133,16 @@ step "hydride transfer"
 end
 '''
 
+# A thiyl radical adds to propene's terminal carbon (a thiol-ene chain step), with fishhooks.
+THIYL_ADDITION = '''species thiyl = "[CH3:1][S:2]"
+species propene = "[CH3:5][CH:4]=[CH2:3]"
+step "thiyl radical adds"
+    .S2 ~> S2-C3
+    C3=C4 ~> S2-C3
+    C3=C4 ~> C4
+end
+'''
+
 TWINS = [
     # electron moves (AR2xx)
     Twin("arrow from a proton", ACID_BASE, ":O5 -> H(O4)", "H(O4) -> O5", "AR204", "H(O4) -> O5",
@@ -161,6 +171,15 @@ TWINS = [
     # A pair given to a hydrogen that keeps its C-H bond: it would have two.
     Twin("pair onto a hydrogen that keeps its bond", FORMATE_HYDRIDE, ":O7 -> C5=O7\n    C5-H4 -> C2-H4\n    C2=N1 -> N1\n",
          ":O7 -> H4\n", "AR301", ":O7 -> H4", says=("H4", "limit is 2"), hint_says=("`C5-H4 -> C5`",)),
+    # The pi pair of propene's C2=C3 taken twice: the second arrow would take the sigma pair
+    # under a name that says the bond stays (a C=H double bond was once proposed as the fix).
+    Twin("pi pair of a double bond used twice", HBR_ADDITION, "    C2=C3 -> C3-H5\n",
+         "    C2=C3 -> C3-H5\n    C2=C3 -> C3-H5\n", "AR203", "C2=C3", occurrence=2,
+         says=("1 pi pair", "sigma"), hint_says=("`C2-C3`",)),
+    # A pair arrow where a fishhook belongs, beside the fishhook that takes the pi bond's other
+    # electron: it once pointed at the line before and proposed adding a fishhook.
+    Twin("pair arrow among fishhooks from one pi bond", THIYL_ADDITION, "    C3=C4 ~> C4\n", "    C3=C4 -> C4\n",
+         "AR203", "C3=C4 -> C4", says=("1 pi pair",), hint_says=("`C3=C4 ~> C4`",)),
     Twin("arrow from a bare atom", SN2, ":O1 -> C2", "O1 -> C2", "AR205", "O1 -> C2", hint_says=(":O1",)),
     Twin("bond pair sent to a third atom", HBR_ADDITION, "C2=C3 -> C3-H5", "C2=C3 -> H5", "AR206",
          "C2=C3 -> H5", sink=True, hint_says=("C3-H5",)),

@@ -1902,7 +1902,7 @@ step "loss of nitrogen"
     :N4 -> N3#N4
     P5-N4 -> N3#N4
     N2=N3 -> N2=P5
-    N2=N3 -> N2=P5
+    N2-N3 -> N2=P5
 end
 product "CN=P(c1ccccc1)(c1ccccc1)c1ccccc1.N#N"
 '''
