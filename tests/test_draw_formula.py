@@ -24,13 +24,17 @@ from arrows.draw.formula import MINUS, condition_pieces, formula_pieces
     ("(H2O)", [("(H", "n"), ("2", "sub"), ("O)", "n")]),
     ("-H2O", [("-H", "n"), ("2", "sub"), ("O", "n")]),
     ("H2SO4 (cat.), 25 °C", [("H", "n"), ("2", "sub"), ("SO", "n"), ("4", "sub"), (" (cat.), 25 °C", "n")]),
+    # A solvent mixture, each side on its own; a state symbol after a formula stays plain.
+    ("MeOH/H2O", [("MeOH/H", "n"), ("2", "sub"), ("O", "n")]),
+    ("H2O/THF", [("H", "n"), ("2", "sub"), ("O/THF", "n")]),
+    ("NH3(l)", [("NH", "n"), ("3", "sub"), ("(l)", "n")]),
 ])
 def test_formula_words_are_typeset(text, pieces):
     assert condition_pieces(text) == pieces
 
 
 @pytest.mark.parametrize("text", ["25 °C", "2 equiv", "reflux", "heat, pressure", "NaOH", "MeOH, reflux",
-                                  "DMSO, 60 °C", "E1cB", "hv", "pH 7", "1 atm"])
+                                  "DMSO, 60 °C", "E1cB", "hv", "pH 7", "1 atm", "and/or", "1/2 equiv", "HCl(aq)"])
 def test_plain_words_stay_as_written(text):
     """No count and no charge: nothing to set lower or higher (a word, a number, a unit, or a
     formula without counts such as NaOH)."""
@@ -51,7 +55,7 @@ def test_a_negative_number_gets_a_minus_sign(text, shown):
 
 
 def test_every_character_is_kept():
-    for text in ["H3O+ (cat.)", "Et3N, CH2Cl2, 0 °C", "  H2O  "]:
+    for text in ["H3O+ (cat.)", "Et3N, CH2Cl2, 0 °C", "  H2O  ", "MeOH/H2O, NH3(l)", "a//b", "/H2O/"]:
         assert "".join(p for p, _ in condition_pieces(text)).replace(MINUS, "-") == text
 
 
@@ -136,3 +140,19 @@ def test_a_by_product_without_carbon_is_written_in_iupac_element_order(smiles, w
     from arrows.draw.scheme import _byproduct_pieces
     text = "".join(p[0] for p in _byproduct_pieces(Chem.MolFromSmiles(smiles)))
     assert text == written
+
+
+@pytest.mark.parametrize("text,width", [("BuLi (2 equiv), THF, -78 °C", 22), ("heat 3 h, then -78 °C", 10)])
+def test_a_unit_stays_on_its_number_s_line(text, width):
+    """Condition text wrapped under an arrow never breaks between a number and its unit
+    (-78 | °C was seen; typesetters tie them, common practice). Widths are in characters."""
+    from arrows.draw.text import wrap
+
+    class Monospace:
+        def width(self, line: str, size: float) -> float:
+            return float(len(line))
+
+    lines = wrap(text, Monospace(), 1.0, width)
+    assert " ".join(lines) == " ".join(text.split())
+    for line, following in zip(lines, lines[1:]):
+        assert not (line[-1:].isdigit() and following.split()[0] in ("°C", "h", "h,", "equiv", "equiv),")), lines

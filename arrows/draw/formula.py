@@ -79,7 +79,20 @@ def condition_pieces(text: str) -> list[Piece]:
     return pieces
 
 
+_STATE = re.compile(r"\((?:aq|l|s|g)\)$")   # a state symbol after a formula: NH3(l), HCl(aq)
+
+
 def _word_pieces(word: str) -> list[Piece]:
+    if "/" in word.strip("/"):
+        # A solvent mixture (MeOH/H2O, H2O/THF): each side typeset on its own.
+        pieces: list[Piece] = []
+        for part in re.split(r"(/)", word):
+            for piece in (_word_pieces(part) if part and part != "/" else [(part, "n")] if part else []):
+                _append(pieces, piece)
+        return pieces
+    state = _STATE.search(word)
+    if state and state.start() > 0 and (typeset := _typeset(word[:state.start()])) is not None:
+        return typeset + [(state.group(), "n")]
     typeset = _typeset(word)
     if typeset is not None:
         return typeset

@@ -7,6 +7,7 @@ own advance (no kerning); widths are summed the same way.
 """
 from __future__ import annotations
 
+import re
 from dataclasses import dataclass
 from functools import lru_cache
 
@@ -79,10 +80,20 @@ def _heights(family: str) -> tuple[float, float]:
     return cap, descent
 
 
+# A unit after a number stays on the number's line (-78 °C, 2 equiv, 3 h): typesetters tie
+# them (common practice).
+_UNIT = re.compile(r"^(?:°\S*|K|h|min|s|equiv|eq|mol%|M|mM|atm|bar|kbar|mL|L|mg|g|kg|mmol|mol|%)[,;.)]?$")
+
+
 def wrap(text: str, face: FontFace, size: float, max_width: float) -> list[str]:
     """Break text at spaces (after commas where possible) into lines no wider than max_width;
-    a single word wider than that keeps its own line."""
-    words = text.split()
+    a single word wider than that keeps its own line. A unit stays with the number before it."""
+    words: list[str] = []
+    for word in text.split():
+        if words and _UNIT.match(word) and words[-1][-1:].isdigit():
+            words[-1] += " " + word
+        else:
+            words.append(word)
     lines: list[str] = []
     for word in words:
         if lines and face.width(lines[-1] + " " + word, size) <= max_width:
