@@ -1128,6 +1128,45 @@ def test_bonds_and_charges_are_rdkit_s(text, name):
         assert marked == charged, panel.index
 
 
+@pytest.mark.parametrize("text,name", _mechanisms())
+def test_a_ring_atom_s_charge_is_drawn_outside_its_ring(text, name):
+    """The charge sign of an atom in one ring (two ring bonds) stands outside that ring: inside,
+    it reads as the ring's charge, not the atom's (common practice: an imidazolium's or
+    pyridinium's N+ is written beside the N, outside the ring). Eleven corpus schemes once drew
+    it inside. (An atom where rings are fused has no outside between its ring bonds.)"""
+    trace, _, scene = _scene(text, name)
+    states = [trace.initial] + [s.after for s in trace.steps]
+    for panel in scene.panels:
+        where = {a.index: complex(*a.position) for a in panel.atoms}
+        mol = Chem.Mol(states[panel.index].mol)
+        Chem.FastFindRings(mol)
+        rings = [r for r in Chem.GetSymmSSSR(mol) if all(a in where for a in r)]
+        for mark in panel.marks:
+            if mark.kind != "charge" or mark.box is None or sum(mark.atom in r for r in rings) != 1:
+                continue
+            middle = complex((mark.box.x0 + mark.box.x1) / 2, (mark.box.y0 + mark.box.y1) / 2)
+            for ring in rings:
+                if mark.atom in ring:
+                    polygon = _ring_polygon([where[a] for a in ring])
+                    assert not _point_in_polygon(middle, polygon), (panel.index, mark.atom, list(ring))
+
+
+def _ring_polygon(points: list[complex]) -> list[complex]:
+    """The ring's atoms in order round their centre (SSSR lists them in ring order already, but
+    a sort by angle costs nothing and needs no trust)."""
+    centre = sum(points) / len(points)
+    return sorted(points, key=lambda p: cmath.phase(p - centre))
+
+
+def _point_in_polygon(point: complex, polygon: list[complex]) -> bool:
+    inside = False
+    for a, b in zip(polygon, polygon[1:] + polygon[:1]):
+        if (a.imag > point.imag) != (b.imag > point.imag):
+            if point.real < a.real + (point.imag - a.imag) * (b.real - a.real) / (b.imag - a.imag):
+                inside = not inside
+    return inside
+
+
 @pytest.mark.parametrize("style", ["one-column", "two-column"])
 @pytest.mark.parametrize("text,name", _mechanisms())
 def test_no_text_below_six_points_in_journal_presets(text, name, style):

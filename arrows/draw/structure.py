@@ -118,6 +118,16 @@ def segment_hits_box(p: complex, q: complex, box: Box) -> bool:
     return True
 
 
+def _into_ring(i: int, adjacent, positions: dict[int, complex]) -> Optional[complex]:
+    """The direction from atom i into the ring it stands in (between its two ring bonds), or
+    None: a charge sign there reads as the ring's, not the atom's (an imidazolium's N+)."""
+    ring = [n for n in adjacent[i] if n in positions and closes_cycle(i, n, adjacent)]
+    if len(ring) != 2:
+        return None
+    inward = _unit_or_zero(_unit_or_zero(positions[ring[0]] - positions[i]) + _unit_or_zero(positions[ring[1]] - positions[i]))
+    return inward or None
+
+
 def closes_cycle(i: int, j: int, adjacent) -> bool:
     """Whether bond i-j lies on a ring: j is reached from i without crossing that bond. `adjacent`
     gives each atom's neighbours by its index (a list of lists, or a dict)."""
@@ -372,7 +382,7 @@ class StructureDrawer:
         for i in visible:
             # (most atoms carry neither a charge nor electrons of their own: no call for them)
             if nonbonding[i] or state.formal_charge(i):
-                self._charge_and_radical(state, i, out, ahead[i])
+                self._charge_and_radical(state, i, out, ahead[i], _into_ring(i, adjacent, positions))
         if self.style.numbers:
             for i in visible:
                 number = facts[i][1]
@@ -700,9 +710,11 @@ class StructureDrawer:
         return 1 if total > 0 else -1
 
     # marks beside atoms
-    def _charge_and_radical(self, state: ElectronState, i: int, out: PanelStructure, ahead: list[complex] = ()) -> None:
+    def _charge_and_radical(self, state: ElectronState, i: int, out: PanelStructure, ahead: list[complex] = (),
+                            inward: Optional[complex] = None) -> None:
         """`ahead`: directions to atoms a bond is about to form with, where an arrow's head goes;
-        a charge sign beside a skeletal vertex keeps out of them."""
+        a charge sign beside a skeletal vertex keeps out of them. `inward`: the direction into the
+        atom's ring, where a sign would read as the ring's."""
         charge = state.formal_charge(i)   # V - N - B, as the bookkeeping sets RDKit's
         if charge:
             sign = "+" if charge > 0 else MINUS
@@ -711,14 +723,15 @@ class StructureDrawer:
             centre, bl = out.positions[i], self.style.bond_length
             nearby = [j for j, a in out.atoms.items()
                       if j != i and a.box is not None and abs(out.positions[j] - centre) < 2 * bl]
-            mark = self._superscript(i, text, out, [out.atoms[j].box for j in nearby])
+            mark = self._superscript(i, text, out, [out.atoms[j].box for j in nearby], inward)
             if mark is None:
-                # Round the atom: clear of its bonds, the gaps ahead and the labels nearest.
+                # Round the atom: clear of its bonds, the gaps ahead, the ring it stands in and the
+                # labels nearest.
                 labels = [_unit_or_zero(out.positions[j] - centre) for j in nearby
                           if abs(out.positions[j] - centre) < 1.3 * bl]
-                avoided = list(ahead) + [d for d in labels if d]
+                avoided = list(ahead) + [d for d in labels if d] + ([inward] if inward else [])
                 out.occupied[i] += avoided
-                mark = self._side_text("charge", i, text, out, preferred=cmath.rect(1, -math.pi / 4))
+                mark = self._side_text("charge", i, text, out, preferred=cmath.rect(1, -math.pi / 4), shunned=inward)
                 for d in avoided:
                     out.occupied[i].remove(d)
             out.marks.append(mark)
@@ -726,10 +739,11 @@ class StructureDrawer:
         if state.nonbonding[i] and state.mol.GetAtomWithIdx(i).GetNumRadicalElectrons():
             out.marks.append(self.radical_dot(i, out, preferred=cmath.rect(1, -math.pi / 2)))
 
-    def _superscript(self, i: int, text: str, out: PanelStructure, near: list[Box]) -> Optional[Mark]:
+    def _superscript(self, i: int, text: str, out: PanelStructure, near: list[Box],
+                     inward: Optional[complex] = None) -> Optional[Mark]:
         """A charge written as a superscript after the label (O-, NH3+), or before it when a
         bond leaves from the upper right; None when neither place is free of bonds and of the
-        `near` labels."""
+        `near` labels, or lies toward the inside of the atom's ring (`inward`)."""
         drawing = out.atoms[i]
         if drawing.box is None:
             return None
@@ -769,6 +783,8 @@ class StructureDrawer:
             if text.endswith(MINUS) and self._minus_beside_stroke(run, strokes):
                 continue
             middle = complex((tb.x0 + tb.x1) / 2, (tb.y0 + tb.y1) / 2) - centre
+            if inward is not None and abs(middle) > 1e-9 and (middle / abs(middle) * inward.conjugate()).real > 0.5:
+                continue   # within 60 degrees of the way into its ring
             out.occupied[i].append(middle / abs(middle))
             return Mark("charge", i, (run,), box=tb)
         return None
@@ -782,10 +798,11 @@ class StructureDrawer:
         return minus_along_stroke(x0, width, y, strokes, self.style.bond_length)
 
     def _side_text(self, kind: str, i: int, text: str, out: PanelStructure, preferred: complex,
-                   italic: bool = False) -> Mark:
+                   italic: bool = False, shunned: Optional[complex] = None) -> Mark:
         """Small text beside atom i (a charge, a map number, a CIP label): in the roomiest direction
         round the atom, leaning to `preferred`, that keeps the text off other atoms' labels and
-        the marks already placed (else the roomiest)."""
+        the marks already placed (else the roomiest), and more than 60 degrees from `shunned`
+        (the way into the atom's ring) where it can."""
         size = self.style.small_size
         face = self.italic if italic else self.face
         width = face.width(text, size)
@@ -821,10 +838,11 @@ class StructureDrawer:
                 text.endswith(MINUS) and (self._minus_beside_stroke(mark.runs[-1], strokes) or (
                     labelled and abs(direction.imag) < _LEVEL_WITH_LABEL))) or level_and_close(
                 mark.box, hydrogens, size, apart=0.6)
-            fault = (gap < pad or on_stroke, slid >= _FAR_SLIDE, 0.0 if kind == "charge" else -min(gap, pad))
+            inside = shunned is not None and (direction * shunned.conjugate()).real > 0.5
+            fault = (gap < pad or on_stroke, inside, slid >= _FAR_SLIDE, 0.0 if kind == "charge" else -min(gap, pad))
             if best is None or fault < best[0]:
                 best = (fault, direction, mark)
-            if not fault[0] and not fault[1]:
+            if not any(fault[:3]):
                 break
         _, direction, mark = best
         out.occupied[i].append(direction)
