@@ -15,7 +15,7 @@ from typing import Callable, NamedTuple, Optional
 from rdkit import Chem
 
 from .diagnostics import Diagnostic
-from .model import (AtomSink, BareAtom, BondPair, BondRef, HydrogenOn, Location, LonePair, Move, NonbondingSink, Step,
+from .model import (AtomSink, BareAtom, BondPair, BondRef, BondSink, HydrogenOn, Location, LonePair, Move, NonbondingSink, Step,
                     UnpairedElectron, CONNECTORS)
 from .configuration import carry_configuration, has_configuration, may_configure
 from .rdkit_io import ELECTRONEGATIVITY, atom_list, valence_electrons
@@ -845,7 +845,8 @@ def _misdirected_pair_hint(state: ElectronState, step: Step, replay: _StepReplay
     ends = (replay.resolve(own[0].source.bond.first), replay.resolve(own[0].source.bond.second))
     other = ends[0] if ends[1] == i else ends[1]
     negativity = [ELECTRONEGATIVITY.get(state.elements[a], 0.0) for a in (i, other)]
-    if negativity[0] > negativity[1]:
+    # (Between two atoms alike, the peroxide O-O a sulfide attacks, the pair is taken as meant.)
+    if negativity[0] >= negativity[1]:
         attack = _lone_pair_onto(step, replay, i)
         return (f"a nucleophile adds at the other end of {own[0].source}: `{attack.source} -> {label(other)}`"
                 if attack else None)
@@ -865,9 +866,17 @@ def _proton_hint(state: ElectronState, step: Step, replay: _StepReplay, i: int) 
 
 
 def _lone_pair_onto(step: Step, replay: _StepReplay, i: int) -> Optional[Move]:
-    """The step's first arrow from an atom's own electrons (not a bond) that ends at atom i."""
-    return next((move for move in step.moves if isinstance(move.sink, AtomSink)
-                 and not isinstance(move.source, BondPair) and replay.resolve(move.sink.atom) == i), None)
+    """The step's first arrow from an atom's own electrons (not a bond) that ends at atom i, or
+    at a bond to it (`:S6 -> S6-O2`)."""
+    for move in step.moves:
+        if isinstance(move.source, BondPair):
+            continue
+        sink = move.sink
+        if isinstance(sink, AtomSink) and replay.resolve(sink.atom) == i:
+            return move
+        if isinstance(sink, BondSink) and i in (replay.resolve(sink.bond.first), replay.resolve(sink.bond.second)):
+            return move
+    return None
 
 
 _LEAVING_ELEMENTS = frozenset((7, 8, 9, 15, 16, 17, 35, 53))   # N, O, F, P, S, Cl, Br, I

@@ -143,6 +143,15 @@ step "thiyl radical adds"
 end
 '''
 
+# Dimethyl sulfide opens an ozonide's peroxide: sulfur bonds to O1 as the O1-O2 pair goes to O2.
+OZONIDE_OPENING = '''species ozonide = "C[CH:3]1[O:2][O:1][CH:5](C)[O:4]1"
+species sulfide = "C[S:6]C"
+step "sulfur attacks the peroxide"
+    :S6 -> S6-O1
+    O1-O2 -> O2
+end
+'''
+
 TWINS = [
     # electron moves (AR2xx)
     Twin("arrow from a proton", ACID_BASE, ":O5 -> H(O4)", "H(O4) -> O5", "AR204", "H(O4) -> O5",
@@ -180,6 +189,10 @@ TWINS = [
     # electron: it once pointed at the line before and proposed adding a fishhook.
     Twin("pair arrow among fishhooks from one pi bond", THIYL_ADDITION, "    C3=C4 ~> C4\n", "    C3=C4 -> C4\n",
          "AR203", "C3=C4 -> C4", says=("1 pi pair",), hint_says=("`C3=C4 ~> C4`",)),
+    # The sulfide drawn onto the oxygen that also takes the O-O pair: between two atoms alike the
+    # pair is taken as meant, and the hint moves the attack to the other end.
+    Twin("nucleophile onto the end that takes the pair", OZONIDE_OPENING, ":S6 -> S6-O1", ":S6 -> S6-O2", "AR301",
+         ":S6 -> S6-O2", says=("O2",), hint_says=("`:S6 -> O1`",)),
     Twin("arrow from a bare atom", SN2, ":O1 -> C2", "O1 -> C2", "AR205", "O1 -> C2", hint_says=(":O1",)),
     Twin("bond pair sent to a third atom", HBR_ADDITION, "C2=C3 -> C3-H5", "C2=C3 -> H5", "AR206",
          "C2=C3 -> H5", sink=True, hint_says=("C3-H5",)),
