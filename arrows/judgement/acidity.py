@@ -70,7 +70,10 @@ TABLE: tuple[Acidity, ...] = (
     Acidity("an amine N-H", "an amide ion", "[NX3;!H0;!$(N*=*);!$(N=*)]", 38, "~38", TEXTBOOK),
     Acidity("an alkene or arene C-H", "a vinyl or aryl anion", "[#6X3;!H0;$([#6]=[#6]),$([c])]", 44, "~44",
             TEXTBOOK),
-    Acidity("an alkane C-H", "an alkyl carbanion", "[CX4;!H0]", 50, "~50", TEXTBOOK),
+    # Not an alkane: a C-H beside a C=N (an imine, an oxime or its ester: the Neber's methyl), a
+    # nitro group or a sulfonyl group, whose anion the neighbour holds; unjudged unless listed.
+    Acidity("an alkane C-H", "an alkyl carbanion",
+            "[CX4;!H0;!$(C[CX3]=[NX2,NX3+]);!$(C[NX3+](=O)[O-]);!$(C[SX4](=O)=O)]", 50, "~50", TEXTBOOK),
 )
 
 
