@@ -1316,14 +1316,14 @@ class _LayoutBuilder:
     def _chain_double_bonds(self) -> dict[tuple[int, int], tuple[int, int, list[int]]]:
         """(i, j) -> (a, b, panels): a C=C that is double in `panels`, not written E or Z, in no
         ring there, with one heavy substituent on each end (a on i, b on j; a 1,2-disubstituted
-        alkene, whose drawing as cis or trans is a choice). Not one made inside the cyclic array
-        round which a hydrogen is handed (a [1,5]-hydrogen shift): that one forms cis."""
+        alkene, whose drawing as cis or trans is a choice). Not one a pericyclic step changes round
+        its cyclic array (a [3,3] or [1,5]-hydrogen shift, an electrocyclisation): it is cis there."""
         found: dict[tuple[int, int], tuple[int, int, list[int]]] = {}
         for (i, j), order in self.sorted_union:
             if order != 2 or (i, j) in self.written_double or self.element[i] != 6 or self.element[j] != 6:
                 continue
             for k in range(self.n):
-                if self.orders_in[k].get((i, j)) != 2 or self._made_in_cyclic_array(i, j, k):
+                if self.orders_in[k].get((i, j)) != 2 or self._in_cyclic_array(i, j, k):
                     continue
                 heavy = [[n for n in self.neighbours[end] if n != other and self.element[n] != 1
                           and (min(end, n), max(end, n)) in self.bonds_in[k]] for end, other in ((i, j), (j, i))]
@@ -1333,13 +1333,18 @@ class _LayoutBuilder:
                 found[(i, j)] = (a, b, panels + [k])
         return found
 
-    def _made_in_cyclic_array(self, i: int, j: int, k: int) -> bool:
-        """Whether the step into panel k makes i=j double on the way between the giver and the
-        taker of a hydrogen it hands over."""
-        if k == 0 or self.orders_in[k - 1].get((i, j)) == 2:
-            return False
-        heavy = _adjacency(pair for pair in self.bonds_in[k - 1] if self.element[pair[0]] != 1 and self.element[pair[1]] != 1)
-        return any({i, j} <= set(_on_the_way(giver, taker, heavy)) for _, giver, taker in self.hops.get(k - 1, ()))
+    def _in_cyclic_array(self, i: int, j: int, k: int) -> bool:
+        """Whether i=j, double in panel k, is one of the bonds that the step into or out of panel k
+        changes round a cycle (a pericyclic array: a [3,3] shift's alkene, the one a [1,5]-hydrogen
+        shift makes): its geometry is the array's, cis, not a choice."""
+        for step in (k - 1, k):
+            if not 0 <= step < self.n - 1:
+                continue
+            before, after = self.orders_in[step], self.orders_in[step + 1]
+            changed = {pair for pair in before.keys() | after.keys() if before.get(pair) != after.get(pair)}
+            if (i, j) in changed and _on_the_way(i, j, _adjacency(changed - {(i, j)})):
+                return True
+        return False
 
     def _joined_around(self, i: int, j: int, k: int) -> bool:
         """Whether i and j are joined in panel k by a path that is not their own bond (a ring)."""
