@@ -524,7 +524,7 @@ class _StepReplay:
                       atoms=(self.state.label(a), self.state.label(b)))
             raise _StepFailed
 
-    def check_sigma_kept(self) -> None:
+    def judge_bond_sources(self) -> None:
         """A multiple bond's sigma pair is taken only by an arrow that names it (`X-Y`): arrows
         written `X=Y` (or `X#Y`) take its pi pairs, so two pair arrows from one C=C, or four
         fishhooks, would break the bond through a name that says it stays. An arrow that writes a
@@ -684,7 +684,7 @@ def apply_step(state: ElectronState, step: Step, step_index: int, map_index: dic
     try:
         for move in step.moves:
             replay.apply(move)
-        replay.check_sigma_kept()
+        replay.judge_bond_sources()
     except _StepFailed:
         return None, change, replay.diagnostics
     change.moves = replay.resolved
