@@ -1341,8 +1341,10 @@ class _LayoutBuilder:
             if not 0 <= step < self.n - 1:
                 continue
             before, after = self.orders_in[step], self.orders_in[step + 1]
+            if before.get((i, j)) == after.get((i, j)):
+                continue
             changed = {pair for pair in before.keys() | after.keys() if before.get(pair) != after.get(pair)}
-            if (i, j) in changed and _on_the_way(i, j, _adjacency(changed - {(i, j)})):
+            if _on_the_way(i, j, _adjacency(changed - {(i, j)})):
                 return True
         return False
 
@@ -1453,6 +1455,8 @@ class _LayoutBuilder:
         (the methoxide on a Favorskii cyclopropanone): placed once for both panels, it would be
         left behind; nor as the step closes a ring of the group."""
         members = set(group)
+        if not any(i in members and j in members for i, j in self.bonds_in[k] - self.bonds_in[k + 1]):
+            return False   # (most steps break no bond of the group: the rest is not asked)
         if any((i in members) != (j in members) and self.element[i] != 1 and self.element[j] != 1
                for i, j in self.bonds_in[k] & self.bonds_in[k + 1]):
             return False

@@ -382,7 +382,8 @@ class StructureDrawer:
         for i in visible:
             # (most atoms carry neither a charge nor electrons of their own: no call for them)
             if nonbonding[i] or state.formal_charge(i):
-                self._charge_and_radical(state, i, out, ahead[i], _into_ring(i, adjacent, positions))
+                inward = _into_ring(i, adjacent, positions) if state.formal_charge(i) else None
+                self._charge_and_radical(state, i, out, ahead[i], inward)
         if self.style.numbers:
             for i in visible:
                 number = facts[i][1]
