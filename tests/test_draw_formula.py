@@ -98,6 +98,11 @@ def test_small_by_products_are_written_as_chemists_abbreviate_them():
     assert text(_byproduct_pieces(Chem.AddHs(Chem.MolFromSmiles("CCO")))) == "EtOH"   # explicit H atoms too
     assert text(_byproduct_pieces(Chem.MolFromSmiles("CC(C)NC(C)C"))) == "i-Pr2NH"
     assert text(_byproduct_pieces(Chem.MolFromSmiles("CCCCO"))) == "C4H10O"
+    # Sulfonate leaving groups (mesylate, tosylate, triflate) and acetate, as chemists write them
+    # (common practice); mesylate was once "CH3O3S-" in Hill order.
+    for smiles, written in (("CS(=O)(=O)[O-]", "MsO"), ("Cc1ccc(cc1)S(=O)(=O)[O-]", "TsO"),
+                            ("[O-]S(=O)(=O)C(F)(F)F", "TfO"), ("CC([O-])=O", "AcO")):
+        assert text(_byproduct_pieces(Chem.MolFromSmiles(smiles))) == written + "\u2212"
 
 
 def test_a_radical_by_product_is_written_with_its_dot():

@@ -531,7 +531,10 @@ def _formulas(mol: Chem.Mol, atoms: Sequence[int]) -> list[list[Piece]]:
 # Small by-products as chemists write them beside an arrow (common practice abbreviations);
 # anything else is shown as its molecular formula.
 CONDENSED = {"CO": "MeOH", "CCO": "EtOH", "CC(C)O": "i-PrOH", "CC(C)(C)O": "t-BuOH", "CC(=O)O": "AcOH",
-             "CC(C)NC(C)C": "i-Pr2NH", "C[O-]": "MeO-", "CC[O-]": "EtO-", "CC(C)(C)[O-]": "t-BuO-"}
+             "CC(C)NC(C)C": "i-Pr2NH", "C[O-]": "MeO-", "CC[O-]": "EtO-", "CC(C)(C)[O-]": "t-BuO-",
+             # the sulfonate and acetate leaving groups
+             "CC(=O)[O-]": "AcO-", "CS(=O)(=O)[O-]": "MsO-", "Cc1ccc(S(=O)(=O)[O-])cc1": "TsO-",
+             "O=S(=O)([O-])C(F)(F)F": "TfO-"}
 
 
 @lru_cache(maxsize=None)
