@@ -211,6 +211,12 @@ CODES = _table(
          "group whose bond the arrows do not break).",
          ':O6 -> C2\n    C2=O3 -> O3\n    releases O4   # methoxide is still bonded to C2: break C2-O4 '
          '(after the C=O re-forms) before releasing it'),
+    Code("AR513", WARNING, "pi pair pushed onto one end with nothing at the other",
+         "A step sends the pi pair of a bond onto one of its atoms while nothing bonds to the other, "
+         "leaving a cation and an anion side by side (C+ beside O-). That is the bond's polarised "
+         "resonance form; as a step it usually means the arrow that brings a nucleophile to the "
+         "cation is missing.",
+         'step "methanol adds"\n    C2=O3 -> O3      # and :O11 -> C2, the nucleophile, is forgotten'),
     Code("AR601", NOTE, "ring closure",
          "A step closes a ring; its size and Baldwin class are given. A pericyclic step (every arrow "
          "from a bond to a bond, round a closed loop that makes no charge; arrows that all start at "

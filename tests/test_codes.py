@@ -152,6 +152,15 @@ step "sulfur attacks the peroxide"
 end
 '''
 
+# Cyanide adds to acetaldehyde's carbonyl carbon (the first step of a cyanohydrin).
+CYANIDE_ADDITION = '''species aldehyde = "C[CH:2]=[O:3]"
+species cyanide = "N#[C-:4]"
+step "addition"
+    :C4 -> C2
+    C2=O3 -> O3
+end
+'''
+
 TWINS = [
     # electron moves (AR2xx)
     Twin("arrow from a proton", ACID_BASE, ":O5 -> H(O4)", "H(O4) -> O5", "AR204", "H(O4) -> O5",
@@ -193,6 +202,9 @@ TWINS = [
     # pair is taken as meant, and the hint moves the attack to the other end.
     Twin("nucleophile onto the end that takes the pair", OZONIDE_OPENING, ":S6 -> S6-O1", ":S6 -> S6-O2", "AR301",
          ":S6 -> S6-O2", says=("O2",), hint_says=("`:S6 -> O1`",)),
+    # Cyanide's arrow into the aldehyde carbon forgotten: the C=O pair alone goes onto O3.
+    Twin("nucleophile's arrow forgotten", CYANIDE_ADDITION, "    :C4 -> C2\n", "", "AR513", 'step "addition"',
+         says=("C2+", "O3-"), hint_says=("`:Nu -> C2`",)),
     Twin("arrow from a bare atom", SN2, ":O1 -> C2", "O1 -> C2", "AR205", "O1 -> C2", hint_says=(":O1",)),
     Twin("bond pair sent to a third atom", HBR_ADDITION, "C2=C3 -> C3-H5", "C2=C3 -> H5", "AR206",
          "C2=C3 -> H5", sink=True, hint_says=("C3-H5",)),

@@ -82,14 +82,39 @@ def _sextet_hint(st: StepTrace, i: int) -> str:
             "form to it in the same step?")
 
 
+def _pi_pair_pushed_alone(st: StepTrace) -> Iterator[Diagnostic]:
+    """AR513: a pi pair sent onto one end of its bond while nothing bonds to the other end, the two
+    left side by side as a cation and an anion (a C=O pushed onto its oxygen with the nucleophile's
+    arrow into the carbon forgotten). Drawn on its own, that is the bond's polarised resonance form,
+    not a step; a resonance step is not judged."""
+    if st.step.kind == "resonance":
+        return
+    change, after = st.change, st.after
+    moved = {i: new - old for i, old, new in change.charges}
+    bonded = {a for bond in change.formed for a in bond}
+    for (i, j), old, new in change.reordered:
+        if not 0 < new < old:
+            continue
+        for cation, anion in ((i, j), (j, i)):
+            if moved.get(cation) == 1 and moved.get(anion) == -1 and cation not in bonded and anion not in bonded \
+                    and after.nonbonding[cation] == 0:
+                c, a = after.label(cation), after.label(anion)
+                yield Diagnostic("AR513", f"the pi pair of {c}-{a} goes to {a} with nothing bonding to {c}: "
+                                 f"{c}+ and {a}- are left side by side", st.step.loc,
+                                 hint=f"a nucleophile's arrow into {c} may be missing (`:Nu -> {c}`); the "
+                                      f"polarised bond on its own is a resonance form (a `resonance` step)",
+                                 atoms=(c, a), step=st.index)
+
+
 class UnusualElectronCounts(Check):
     name = "unusual electron counts"
-    codes = ("AR503", "AR504", "AR505", "AR511")
+    codes = ("AR503", "AR504", "AR505", "AR511", "AR513")
 
     def step(self, st: StepTrace, context) -> Iterator[Diagnostic]:
         after, before = st.after, st.before
         if after is None:
             return
+        yield from _pi_pair_pushed_alone(st)
         for i, old_charge, charge in st.change.charges:
             # As for the shell below: a charge the species was written with and the step keeps
             # (a sulfonyl S written S2+ with two O-) is not the step's doing.
