@@ -213,7 +213,7 @@ CODES = _table(
          '(after the C=O re-forms) before releasing it'),
     Code("AR513", WARNING, "pi pair pushed onto one end with nothing at the other",
          "A step sends the pi pair of a bond onto one of its atoms while nothing bonds to the other, "
-         "leaving a cation and an anion side by side (C+ beside O-). That is the bond's polarised "
+         "leaving that one a cation beside it (C+ beside O-). That is the bond's polarised "
          "resonance form; as a step it usually means the arrow that brings a nucleophile to the "
          "cation is missing.",
          'step "methanol adds"\n    C2=O3 -> O3      # and :O11 -> C2, the nucleophile, is forgotten'),

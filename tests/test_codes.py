@@ -204,7 +204,7 @@ TWINS = [
          ":S6 -> S6-O2", says=("O2",), hint_says=("`:S6 -> O1`",)),
     # Cyanide's arrow into the aldehyde carbon forgotten: the C=O pair alone goes onto O3.
     Twin("nucleophile's arrow forgotten", CYANIDE_ADDITION, "    :C4 -> C2\n", "", "AR513", 'step "addition"',
-         says=("C2+", "O3-"), hint_says=("`:Nu -> C2`",)),
+         says=("C2", "O3", "cation"), hint_says=("`:Nu -> C2`",)),
     Twin("arrow from a bare atom", SN2, ":O1 -> C2", "O1 -> C2", "AR205", "O1 -> C2", hint_says=(":O1",)),
     Twin("bond pair sent to a third atom", HBR_ADDITION, "C2=C3 -> C3-H5", "C2=C3 -> H5", "AR206",
          "C2=C3 -> H5", sink=True, hint_says=("C3-H5",)),

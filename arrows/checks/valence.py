@@ -83,8 +83,8 @@ def _sextet_hint(st: StepTrace, i: int) -> str:
 
 
 def _pi_pair_pushed_alone(st: StepTrace) -> Iterator[Diagnostic]:
-    """AR513: a pi pair sent onto one end of its bond while nothing bonds to the other end, the two
-    left side by side as a cation and an anion (a C=O pushed onto its oxygen with the nucleophile's
+    """AR513: a pi pair sent onto one end of its bond while nothing bonds to the other end, left a
+    cation beside the end that took the pair (a C=O pushed onto its oxygen with the nucleophile's
     arrow into the carbon forgotten). Drawn on its own, that is the bond's polarised resonance form,
     not a step; a resonance step is not judged."""
     if st.step.kind == "resonance":
@@ -99,8 +99,8 @@ def _pi_pair_pushed_alone(st: StepTrace) -> Iterator[Diagnostic]:
             if moved.get(cation) == 1 and moved.get(anion) == -1 and cation not in bonded and anion not in bonded \
                     and after.nonbonding[cation] == 0:
                 c, a = after.label(cation), after.label(anion)
-                yield Diagnostic("AR513", f"the pi pair of {c}-{a} goes to {a} with nothing bonding to {c}: "
-                                 f"{c}+ and {a}- are left side by side", st.step.loc,
+                yield Diagnostic("AR513", f"the pi pair of {c}-{a} goes to {a} with nothing bonding to {c}, "
+                                 f"which is left a cation beside it", st.step.loc,
                                  hint=f"a nucleophile's arrow into {c} may be missing (`:Nu -> {c}`); the "
                                       f"polarised bond on its own is a resonance form (a `resonance` step)",
                                  atoms=(c, a), step=st.index)
