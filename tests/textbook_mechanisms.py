@@ -3736,7 +3736,7 @@ product "[O-]C(=O)c1ccccc1[O-].Oc1ccccc1"
 '''
 
 # Acid-catalysed dithioacetal from acetaldehyde and ethanethiol (Clayden, Organic Chemistry, 2nd
-# ed., from memory: the course of acetal formation, sulfur for oxygen): addition, loss of water to
+# ed., from memory: the path of acetal formation, sulfur for oxygen): addition, loss of water to
 # a thionium ion, and a second thiol's addition.
 DITHIOACETAL = '''\
 species aldehyde = "C[CH:1]=[O:2]"
@@ -4061,7 +4061,7 @@ end
 product "C1=CC2CCCCC2CC1"
 '''
 
-# Cation-alkene cyclisation cascade (the course of a Johnson polyene cyclisation; Clayden, Organic
+# Cation-alkene cyclisation cascade (the pattern of a Johnson polyene cyclisation; Clayden, Organic
 # Chemistry, 2nd ed., from memory): a tertiary cation takes the nearer alkene, closing a
 # six-membered ring, and the new tertiary cation takes the second, closing another fused to it:
 # a decalin with the last cation outside it.
@@ -4073,6 +4073,469 @@ end
 step "second ring closes"
     C10=C11 -> C10-C5
 end
+'''
+
+# Written while hunting for defects with new mechanisms, each checked clean against its source.
+# Hell-Volhard-Zelinsky: the acyl bromide (from PBr3) enolises in HBr, the enol takes Br2 at the
+# alpha carbon (March's Advanced Organic Chemistry, 2-bromination of acids, from memory).
+HELL_VOLHARD_ZELINSKY = '''\
+title "Hell-Volhard-Zelinsky alpha-bromination of propanoyl bromide"
+species acyl = "[CH3:1][CH2:2][C:3](=[O:4])[Br:5]"
+species hbr = "[Br:6][H:7]"
+step "protonation of the carbonyl" reversible over "HBr"
+    :O4 -> H7
+    Br6-H7 -> Br6
+end
+step "enol formation" reversible
+    :Br6 -> H(C2)
+    C2-H -> C2=C3
+    C3=O4 -> O4
+    expect "CC=C(O)Br"
+end
+step "enol attacks bromine"
+    uses bromine = "[Br:8][Br:9]"
+    :O4 -> C3=O4
+    C2=C3 -> C2-Br8
+    Br8-Br9 -> Br9
+end
+step "deprotonation"
+    :Br9 -> H(O4)
+    O4-H -> O4
+end
+product "CC(Br)C(=O)Br"
+'''
+
+# Tishchenko reaction (alkoxide-catalysed): ethoxide adds to one acetaldehyde, the hemiacetal
+# alkoxide hands its hydride to a second acetaldehyde (Smith and March, March's Advanced Organic
+# Chemistry, 6th ed., from memory): ethyl acetate, ethoxide regenerated.
+TISHCHENKO = '''\
+title "Tishchenko reaction of acetaldehyde"
+species aldehyde = "[CH3:1][CH:2]=[O:3]"
+species alkoxide = "[CH3:4][CH2:5][O-:6]"
+species aldehyde2 = "[CH3:7][CH:8]=[O:9]"
+step "alkoxide adds" reversible
+    :O6 -> C2
+    C2=O3 -> O3
+end
+step "hydride transfer"
+    :O3 -> C2=O3
+    C2-H -> C8-H(C2)
+    C8=O9 -> O9
+end
+product "CCOC(C)=O"
+'''
+
+# Fischer glycosidation of tetrahydropyran-2-ol (a 2-deoxy-sugar model) in methanol with acid:
+# the anomeric OH is protonated, water leaves pushed by the ring oxygen (a cyclic oxocarbenium
+# ion), methanol adds, and loses its proton (Clayden, Organic Chemistry, ch. 42, from memory).
+GLYCOSIDE_FORMATION = '''\
+title "Glycoside formation through an oxocarbenium ion"
+species hemiacetal = "[OH:7][CH:2]1[O:1][CH2:6][CH2:5][CH2:4][CH2:3]1"
+species acid = "[CH3:21][OH2+:10]"
+species methanol = "[CH3:20][OH:8]"
+step "the anomeric OH is protonated" reversible
+    :O7 -> H(O10)
+    O10-H -> O10
+end
+step "water leaves, the ring oxygen pushing" reversible
+    :O1 -> C2=O1
+    C2-O7 -> O7
+    releases O7
+    expect "C1CC[O+]=CC1"
+end
+step "methanol adds to the oxocarbenium ion" reversible
+    :O8 -> C2
+    C2=O1 -> O1
+end
+step "methanol takes the proton" reversible
+    :O10 -> H(O8)
+    O8-H -> O8
+end
+product "COC1CCCCO1"
+'''
+
+# Radical thiol-ene addition (anti-Markovnikov): the thiyl radical adds to the terminal carbon of
+# propene, and the secondary radical takes the S-H hydrogen of a second thiol, carrying the chain
+# (Hoyle and Bowman, Angew. Chem. Int. Ed. 2010, 49, 1540, from memory).
+THIOL_ENE = '''\
+title "Thiol-ene radical chain"
+species thiyl = "[CH3:1][S:2]"
+species propene = "[CH3:5][CH:4]=[CH2:3]"
+species thiol = "[CH3:7][S:6][H:8]"
+step "thiyl radical adds" under "hv, DMPA"
+    .S2 ~> S2-C3
+    C3=C4 ~> S2-C3
+    C3=C4 ~> C4
+end
+step "chain transfer"
+    .C4 ~> C4-H8
+    S6-H8 ~> C4-H8
+    S6-H8 ~> S6
+end
+product "CCCSC"
+'''
+
+# Sommelet-Hauser rearrangement of benzyltrimethylammonium with sodium amide: the N-methyl ylide
+# makes a [2,3]-sigmatropic shift onto the ring's ortho carbon, and the exocyclic triene
+# rearomatises by a proton shift (March's Advanced Organic Chemistry, from memory):
+# N,N-dimethyl-2-methylbenzylamine.
+SOMMELET_HAUSER = '''\
+title "Sommelet-Hauser rearrangement"
+species ammonium = "C[N+:1](C)([CH3:2])[CH2:3][c:4]1[cH:5]cccc1"
+species base = "[NH2-:10]"
+step "ylide formation" reversible over "NaNH2" under "NH3(l)"
+    :N10 -> H(C2)
+    C2-H -> C2
+end
+step "[2,3] shift"
+    :C2 -> C2-C5
+    C4=C5 -> C3=C4
+    C3-N1 -> N1
+    expect "C=C1C=CC=CC1CN(C)C"
+end
+step "rearomatisation: deprotonation"
+    :N10 -> H(C5)
+    C5-H -> C4=C5
+    C3=C4 -> C3
+end
+step "rearomatisation: protonation"
+    :C3 -> H(N10)
+    N10-H -> N10
+end
+product "Cc1ccccc1CN(C)C"
+'''
+
+# Reductive work-up of an ozonide with dimethyl sulfide: sulfur attacks a peroxide oxygen, the
+# ozonide unzips to two molecules of acetaldehyde and DMSO (Clayden, Organic Chemistry, ch. 35;
+# Pappas et al., Tetrahedron Lett. 1966, 4273, from memory).
+OZONIDE_REDUCTION = '''\
+title "Ozonide reduction with dimethyl sulfide"
+species ozonide = "C[CH:3]1[O:2][O:1][CH:5](C)[O:4]1"
+species sulfide = "C[S:6]C"
+step "sulfur attacks the peroxide" under "Me2S, -78 °C to rt"
+    :S6 -> O1
+    O1-O2 -> O2
+end
+step "first aldehyde leaves"
+    :O2 -> C3=O2
+    C3-O4 -> O4
+end
+step "second aldehyde and DMSO"
+    :O4 -> C5=O4
+    C5-O1 -> O1
+end
+product "CC=O.CC=O.C[S+](C)[O-]"
+'''
+
+# Azide opens (R)-2-methyloxirane at the less hindered carbon (SN2), the alkoxide is protonated by
+# ammonium chloride: (R)-1-azidopropan-2-ol; the configured carbon keeps its bonds (Clayden,
+# Organic Chemistry, ch. 17, regioselectivity of epoxide opening under basic conditions, from memory).
+AZIDE_EPOXIDE_OPENING = '''\
+title "Azide opening of an epoxide"
+species epoxide = "C[C@@H:2]1[CH2:1][O:3]1"
+species azide = "[N-:4]=[N+:5]=[N-:6]"
+species ammonium = "[NH4+:7]"
+step "azide attacks the CH2" under "NaN3, NH4Cl, MeOH/H2O, reflux"
+    :N4 -> C1
+    C1-O3 -> O3
+end
+step "protonation"
+    :O3 -> H(N7)
+    N7-H -> N7
+end
+product "C[C@@H](O)CN=[N+]=[N-]"
+'''
+
+# Neber rearrangement, first stage: ethoxide takes an alpha proton of acetophenone O-mesyloxime,
+# the carbanion displaces mesylate at nitrogen to close the 2H-azirine (Kurti and Czako, Strategic
+# Applications of Named Reactions in Organic Synthesis, 2005, from memory).
+NEBER = '''\
+title "Neber rearrangement: the 2H-azirine"
+species oxime = "c1ccc(cc1)[C:2](=[N:3][O:4]S(C)(=O)=O)[CH3:1]"
+species base = "CC[O-:10]"
+step "deprotonation" under "EtONa, EtOH"
+    :O10 -> H(C1)
+    C1-H -> C1
+end
+step "ring closure at nitrogen"
+    :C1 -> C1-N3
+    N3-O4 -> O4
+    releases O4
+end
+product "C1C(c2ccccc2)=N1"
+'''
+
+# Bouveault-Blanc reduction of ethyl acetate by sodium in ethanol, the first four steps: an
+# electron into the C=O (ketyl radical anion), protonation on oxygen, a second electron onto the
+# carbon radical, protonation on carbon: the hemiacetal (March's Advanced Organic Chemistry,
+# from memory).
+BOUVEAULT_BLANC = '''\
+title "Bouveault-Blanc reduction: to the hemiacetal"
+species ester = "[CH3:1][C:2](=[O:3])[O:4]CC"
+species sodium = "[Na:5]"
+species ethanol = "CC[O:6][H:7]"
+step "first electron transfer" under "Na, EtOH, reflux"
+    .Na5 ~> :O3
+    C2=O3 ~> O3
+    C2=O3 ~> C2
+end
+step "protonation on oxygen"
+    :O3 -> H7
+    O6-H7 -> O6
+end
+step "second electron transfer"
+    uses sodium_2 = "[Na:8]"
+    .Na8 ~> :C2
+end
+step "protonation on carbon"
+    uses ethanol_2 = "CC[O:9][H:11]"
+    :C2 -> H11
+    O9-H11 -> O9
+end
+product "CC(O)OCC"
+'''
+
+# Cationic 2-aza-Cope rearrangement: an iminium ion with an allyl chain shifts through a
+# six-membered chair-like array ([3,3]), the new iminium on the other side (Overman, Acc. Chem.
+# Res. 1980, 13, 218, from memory).
+AZA_COPE_2 = '''\
+title "Cationic 2-aza-Cope rearrangement"
+species iminium = "C[CH:1]=[N+:2](C)[CH2:3][CH2:4][CH:5]=[CH2:6]"
+step "[3,3] shift" reversible under "MeCN, 60 °C"
+    C1=N2 -> C1-C6
+    C3-C4 -> N2=C3
+    C5=C6 -> C4=C5
+end
+product "C=[N+](C)C(C)CC=C"
+'''
+
+# Sulfonamide from tosyl chloride and benzylamine with triethylamine: the amine displaces chloride
+# at sulfur, the base takes the N-H proton (Clayden, Organic Chemistry, ch. 27, from memory).
+SULFONAMIDE_MECHANISM = '''\
+title "Tosylation of benzylamine"
+species tscl = "Cc1ccc(cc1)[S:1](=O)(=O)[Cl:2]"
+species amine = "c1ccc(cc1)C[NH2:3]"
+species base = "CC[N:4](CC)CC"
+step "substitution at sulfur" under "CH2Cl2, 0 °C"
+    :N3 -> S1
+    S1-Cl2 -> Cl2
+end
+step "deprotonation"
+    :N4 -> H(N3)
+    N3-H -> N3
+end
+product "Cc1ccc(cc1)S(=O)(=O)NCc1ccccc1"
+'''
+
+# Shapiro reaction of cyclohexanone tosylhydrazone: butyllithium takes the N-H proton, then an
+# alpha C-H proton syn to the N-Ts group; the dianion loses toluenesulfinate, then N2, and the
+# vinyllithium is protonated by water: cyclohexene (Shapiro, Org. React. 1976, 23, 405, from memory).
+SHAPIRO = '''\
+title "Shapiro reaction: cyclohexene from cyclohexanone"
+species hydrazone = "Cc1ccc(cc1)[S:5](=O)(=O)[NH:4][N:3]=[C:2]1[CH2:1]CCCC1"
+species buli = "CCC[CH2-:10]"
+species buli2 = "CCC[CH2-:11]"
+step "N-H deprotonation" under "BuLi (2 equiv), THF, -78 °C"
+    :C10 -> H(N4)
+    N4-H -> N4
+end
+step "alpha deprotonation"
+    :C11 -> H(C1)
+    C1-H -> C1=C2
+    C2=N3 -> N3
+end
+step "sulfinate leaves"
+    :N3 -> N3=N4
+    N4-S5 -> S5
+    releases S5
+end
+step "loss of nitrogen"
+    N3-C2 -> C2
+    :N4 -> N3#N4
+    releases N3
+end
+step "protonation"
+    uses water = "[OH2:12]"
+    :C2 -> H(O12)
+    O12-H -> O12
+end
+product "C1=CCCCC1"
+'''
+
+# Urea from phenyl isocyanate and diethylamine: the amine adds to the isocyanate carbon, the
+# zwitterion's N-H proton moves to nitrogen through a second amine (Clayden, Organic Chemistry,
+# ch. 10, from memory): 1,1-diethyl-3-phenylurea.
+UREA = '''\
+title "Urea from an isocyanate and an amine"
+species isocyanate = "c1ccc(cc1)[N:1]=[C:2]=[O:3]"
+species amine = "CC[NH:4]CC"
+species amine2 = "CC[NH:5]CC"
+step "amine adds" under "CH2Cl2, rt"
+    :N4 -> C2
+    C2=N1 -> N1
+end
+step "second amine takes the proton"
+    :N5 -> H(N4)
+    N4-H -> N4
+end
+step "protonation at nitrogen"
+    :N1 -> H(N5)
+    N5-H -> N5
+end
+product "CCN(CC)C(=O)Nc1ccccc1"
+'''
+
+# Schmidt reaction of acetone with hydrazoic acid in strong acid (Clayden, Organic Chemistry,
+# 2nd ed., ch. 36, from memory): addition of HN3 to the protonated ketone, loss of water,
+# migration of methyl to nitrogen as N2 leaves, water adds to the nitrilium ion: N-methylacetamide.
+SCHMIDT_MECHANISM = '''\
+title "Schmidt reaction of acetone"
+species ketone = "[CH3:1][C:2](=[O:3])[CH3:4]"
+species acid = "[OH3+:10]"
+species hn3 = "[H:20][N-:5][N+:6]#[N:7]"
+step "protonation" reversible over "H2SO4"
+    :O3 -> H(O10)
+    O10-H -> O10
+end
+step "hydrazoic acid adds" reversible
+    :N5 -> C2
+    C2=O3 -> O3
+end
+step "proton transfer to oxygen" reversible
+    :O3 -> H20
+    N5-H20 -> N5
+end
+step "loss of water" reversible
+    :N5 -> C2=N5
+    C2-O3 -> O3
+    releases O3
+    expect "CC(C)=N[N+]#N"
+end
+step "migration, N2 leaves"
+    C2-C1 -> C1-N5
+    N5-N6 -> N6
+    :N5 -> C2#N5
+    releases N6
+    expect "CC#[N+]C"
+end
+step "water adds"
+    :O10 -> C2
+    C2#N5 -> N5
+end
+step "deprotonation" reversible
+    uses water = "[OH2:11]"
+    :O11 -> H(O10)
+    O10-H -> O10
+end
+step "tautomerisation: protonation at nitrogen"
+    :N5 -> H(O11)
+    O11-H -> O11
+end
+step "tautomerisation: deprotonation at oxygen"
+    :O11 -> H(O10)
+    O10-H -> C2=O10
+    C2=N5 -> N5
+end
+product "CNC(C)=O"
+'''
+
+# Barton-McCombie deoxygenation of cyclohexyl S-methyl xanthate: the tributylstannyl radical adds
+# to the thiocarbonyl sulfur, the carbon radical fragments (C-O beta-scission) to the cyclohexyl
+# radical and a stannyl dithiocarbonate, and the cyclohexyl radical takes hydrogen from Bu3SnH
+# (Barton and McCombie, J. Chem. Soc., Perkin Trans. 1 1975, 1574, from memory).
+BARTON_MCCOMBIE = '''\
+title "Barton-McCombie deoxygenation"
+species xanthate = "C[S:1][C:2](=[S:3])[O:4][CH:5]1CCCCC1"
+species stannyl = "CCCC[Sn:6](CCCC)CCCC"
+species stannane = "CCCC[Sn:7](CCCC)(CCCC)[H:8]"
+step "stannyl radical adds to sulfur" under "AIBN, toluene, reflux"
+    .Sn6 ~> Sn6-S3
+    C2=S3 ~> Sn6-S3
+    C2=S3 ~> C2
+end
+step "beta-scission"
+    .C2 ~> C2=O4
+    O4-C5 ~> C2=O4
+    O4-C5 ~> C5
+end
+step "hydrogen transfer"
+    .C5 ~> C5-H8
+    Sn7-H8 ~> C5-H8
+    Sn7-H8 ~> Sn7
+end
+product "C1CCCCC1"
+'''
+
+# Corey-Fuchs reaction, first stage: triphenylphosphine takes Br+ from CBr4, the tribromomethanide
+# attacks the bromophosphonium ion, a second PPh3 takes Br+ from the CBr3 group (the dibromomethylene
+# ylide), which performs a Wittig reaction on benzaldehyde (Corey and Fuchs, Tetrahedron Lett. 1972,
+# 3769; Kurti and Czako, Strategic Applications of Named Reactions, from memory).
+COREY_FUCHS = '''\
+title "Corey-Fuchs: the 1,1-dibromoalkene"
+species ppha = "c1ccc(cc1)[P:1](c1ccccc1)c1ccccc1"
+species cbr4 = "[Br:3][C:2]([Br:4])([Br:5])[Br:6]"
+species pphb = "c1ccc(cc1)[P:7](c1ccccc1)c1ccccc1"
+species aldehyde = "c1ccc(cc1)[CH:8]=[O:9]"
+step "bromine transfer to phosphorus"
+    :P1 -> Br3
+    C2-Br3 -> C2
+end
+step "tribromomethanide attacks phosphorus"
+    :C2 -> P1
+    P1-Br3 -> Br3
+end
+step "second phosphine takes bromine"
+    :P7 -> Br4
+    C2-Br4 -> C2
+    expect "Br[C-](Br)[P+](c1ccccc1)(c1ccccc1)c1ccccc1"
+end
+step "oxaphosphetane"
+    :C2 -> C2-C8
+    C8=O9 -> O9-P1
+end
+step "cycloreversion"
+    C2-P1 -> C2=C8
+    C8-O9 -> O9=P1
+end
+product "BrC(Br)=Cc1ccccc1"
+'''
+
+# Imidazole-catalysed acetylation of methanol by acetic anhydride (nucleophilic catalysis): imidazole
+# adds to a carbonyl, acetate leaves (N-acetylimidazolium), acetate takes the N-H proton, methanol
+# adds to N-acetylimidazole and imidazole leaves (Jencks, Catalysis in Chemistry and Enzymology,
+# 1969, from memory).
+IMIDAZOLE_ACYL_TRANSFER = '''\
+title "Imidazole as an acyl-transfer catalyst"
+species anhydride = "[CH3:1][C:2](=[O:3])[O:4][C:5](=[O:6])[CH3:7]"
+species imidazole = "c1c[nH:9][cH:12][n:8]1"
+species methanol = "C[OH:11]"
+step "imidazole adds" reversible
+    :N8 -> C2
+    C2=O3 -> O3
+end
+step "acetate leaves" reversible
+    :O3 -> C2=O3
+    C2-O4 -> O4
+end
+step "acetate takes the N-H proton" reversible
+    :O4 -> H(N9)
+    N9-H -> C12=N9
+    C12=N8 -> N8
+    expect "CC(=O)n1ccnc1"
+end
+step "methanol adds"
+    :O11 -> C2
+    C2=O3 -> O3
+end
+step "imidazolide leaves"
+    :O3 -> C2=O3
+    C2-N8 -> N8
+end
+step "proton transfer"
+    :N8 -> H(O11)
+    O11-H -> O11
+end
+product "COC(C)=O"
 '''
 
 TEXTBOOK = {
@@ -4258,4 +4721,25 @@ TEXTBOOK = {
     "sn2 prime": (SN2_PRIME, "N#CCC=CC.[Cl-]", True),
     "intramolecular diels-alder": (INTRAMOLECULAR_DIELS_ALDER, "C1=CC2CCCCC2CC1", True),
     "cation-alkene cascade": (CATION_ALKENE_CASCADE, "C[C+](C)C1CCCC2C(C)(C)CCCC12C", True),
+    "hell-volhard-zelinsky": (HELL_VOLHARD_ZELINSKY, "CC(Br)C(=O)Br", True),
+    "tishchenko": (TISHCHENKO, "CCOC(C)=O", True),
+    "glycoside formation": (GLYCOSIDE_FORMATION, "COC1CCCCO1", True),
+    "thiol-ene": (THIOL_ENE, "CCCSC", True),
+    "sommelet-hauser": (SOMMELET_HAUSER, "Cc1ccccc1CN(C)C", True),
+    # the first C=O re-forms from O2's lone pair on the side of the bond it leaves, not the free side
+    "ozonide reduction": (OZONIDE_REDUCTION, "CC=O.CC=O.C[S+](C)[O-]", False),
+    "azide epoxide opening": (AZIDE_EPOXIDE_OPENING, "C[C@@H](O)CN=[N+]=[N-]", True),
+    "neber": (NEBER, "C1C(c2ccccc2)=N1", True),
+    "bouveault-blanc": (BOUVEAULT_BLANC, "CC(O)OCC", True),
+    "2-aza-cope": (AZA_COPE_2, "C=[N+](C)C(C)CC=C", True),
+    "sulfonamide": (SULFONAMIDE_MECHANISM, "Cc1ccc(cc1)S(=O)(=O)NCc1ccccc1", True),
+    "shapiro": (SHAPIRO, "C1=CCCCC1", True),
+    "urea": (UREA, "CCN(CC)C(=O)Nc1ccccc1", True),
+    # the methyl's shift arrow runs along the C=N bond, not round the outside
+    "schmidt": (SCHMIDT_MECHANISM, "CNC(C)=O", False),
+    # the tin hydride's Sn-H fishhooks are short, as in the tributyltin reduction
+    "barton-mccombie": (BARTON_MCCOMBIE, "C1CCCCC1", False),
+    # two triphenylphosphines and CBr4 crowd one panel: phenyls overlap
+    "corey-fuchs": (COREY_FUCHS, "BrC(Br)=Cc1ccccc1", False),
+    "imidazole acyl transfer": (IMIDAZOLE_ACYL_TRANSFER, "COC(C)=O", True),
 }
