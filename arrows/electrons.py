@@ -498,7 +498,8 @@ class _StepReplay:
         if self.used_lone[x] > 2 * pairs:
             label = self.state.label(x)
             self.fail("AR203", f"{label} has {pairs} lone pair{'s' if pairs > 1 else ''}; this step uses more",
-                      src.loc, "each arrow from a lone pair takes one pair", atoms=(label,))
+                      src.loc, _repeated_move_hint(self.step) or "each arrow from a lone pair takes one pair",
+                      atoms=(label,))
             raise _StepFailed
 
     def check_bond_source(self, move: Move, src: BondPair, a: int, b: int) -> None:
@@ -822,13 +823,25 @@ def _overfull_shell(state: ElectronState, step: Step, step_index: int, replay: _
     if shell <= limit or z > 10:
         return []
     label = state.label(i)
-    hint = _misdirected_pair_hint(state, step, replay, i) or _room_making_hint(state, i, changes, replay)
+    hint = _repeated_move_hint(step) or _misdirected_pair_hint(state, step, replay, i) \
+        or _room_making_hint(state, i, changes, replay)
     if hint == _NO_ROOM_NAMED:
         hint = _proton_hint(state, step, replay, i) or hint
     return [Diagnostic("AR301", f"{label} would hold {shell} valence electrons "
                        f"({bonds} bond{'s' if bonds != 1 else ''}"
                        f"{f', {nonbonding // 2} lone pair(s)' if nonbonding >= 2 else ''}); the limit is {limit}",
                        _first_move_touching(step, replay, i), hint, atoms=(label,), step=step_index)]
+
+
+def _repeated_move_hint(step: Step) -> Optional[str]:
+    """For a step with one arrow written twice (a line copied and not edited)."""
+    seen: dict[str, Move] = {}
+    for move in step.moves:
+        text = str(move)
+        if text in seen:
+            return f"`{text}` is written twice (lines {seen[text].loc.line} and {move.loc.line}): drop one"
+        seen[text] = move
+    return None
 
 
 def _misdirected_pair_hint(state: ElectronState, step: Step, replay: _StepReplay, i: int) -> Optional[str]:

@@ -161,6 +161,15 @@ step "addition"
 end
 '''
 
+# Hydroxide adds to acetone's carbonyl carbon.
+HYDROXIDE_ADDITION = '''species ketone = "C[C:1](=[O:2])C"
+species base = "[OH-:3]"
+step "addition"
+    :O3 -> C1
+    C1=O2 -> O2
+end
+'''
+
 TWINS = [
     # electron moves (AR2xx)
     Twin("arrow from a proton", ACID_BASE, ":O5 -> H(O4)", "H(O4) -> O5", "AR204", "H(O4) -> O5",
@@ -205,6 +214,12 @@ TWINS = [
     # Cyanide's arrow into the aldehyde carbon forgotten: the C=O pair alone goes onto O3.
     Twin("nucleophile's arrow forgotten", CYANIDE_ADDITION, "    :C4 -> C2\n", "", "AR513", 'step "addition"',
          says=("C2", "O3", "cation"), hint_says=("`:Nu -> C2`",)),
+    # One arrow written twice (a copied line not edited): the hint says so, whether the source
+    # runs out of lone pairs (cyanide's one) or the sink out of room (hydroxide has three).
+    Twin("arrow written twice, one lone pair", CYANIDE_ADDITION, "    C2=O3 -> O3\n",
+         "    C2=O3 -> O3\n    :C4 -> C2\n", "AR203", ":C4", occurrence=2, hint_says=("written twice", "drop one")),
+    Twin("arrow written twice, no room", HYDROXIDE_ADDITION, "    C1=O2 -> O2\n",
+         "    C1=O2 -> O2\n    :O3 -> C1\n", "AR301", ":O3 -> C1", hint_says=("written twice", "drop one")),
     Twin("arrow from a bare atom", SN2, ":O1 -> C2", "O1 -> C2", "AR205", "O1 -> C2", hint_says=(":O1",)),
     Twin("bond pair sent to a third atom", HBR_ADDITION, "C2=C3 -> C3-H5", "C2=C3 -> H5", "AR206",
          "C2=C3 -> H5", sink=True, hint_says=("C3-H5",)),
