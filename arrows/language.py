@@ -226,7 +226,7 @@ class _ToModel:
 
     def _checkpoint(self, children) -> Checkpoint:
         """`product` or `expect`, maybe `all`, then the SMILES."""
-        return Checkpoint(self._text(children[-1]), len(children) == 3, self._at(children[0]))
+        return Checkpoint(self._text(children[-1]), len(children) == 3, self._at(children[0]), self._at(children[-1], 1))
 
     def start(self, children):
         return children

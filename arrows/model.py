@@ -268,6 +268,8 @@ class Checkpoint:
     smiles: str
     whole_state: bool = False
     loc: Location = field(default_factory=Location, compare=False)
+    # Where the SMILES text itself starts (just inside the quotes), for RDKit error positions.
+    smiles_loc: Location = field(default_factory=Location, compare=False)
 
 
 STEP_KINDS = ("forward", "reversible", "resonance")

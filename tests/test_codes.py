@@ -269,8 +269,9 @@ TWINS = [
     # RDKit's "atom # 0" is told as the atom written, and the error points at it.
     Twin("SMILES atom over its valence", SN2, '"[CH3:2][Br:3]"', '"[CH3:2](C)[Br:3]"', "AR102", "[CH3:2](C)",
          says=("[CH3:2], atom 1 as written", "valence 5"), hint_says=("exactly the hydrogens written",)),
-    Twin("checkpoint SMILES RDKit cannot read", SN2, 'product "CO.[Br-]"', 'product "CO.[Br-"', "AR102",
-         "product"),
+    # Located where RDKit stopped reading, inside the quotes: the last character before the
+    # missing "]".
+    Twin("checkpoint SMILES RDKit cannot read", SN2, 'product "CO.[Br-]"', 'product "CO.[Br-"', "AR102", '-"'),
     Twin("map number used twice", SN2, '"[OH-:1]"', '"[OH-:3]"', "AR103", "[Br:3]", says=("line 1",)),
     Twin("map number used twice in one species", SN2, "[CH3:2][Br:3]", "[CH3:2][Br:2]", "AR103", "[Br:2]",
          says=("line 2",)),

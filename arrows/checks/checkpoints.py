@@ -11,7 +11,7 @@ from rdkit import Chem
 from ..diagnostics import Diagnostic
 from ..electrons import ElectronState, atom_label, order_word
 from ..judgement.perception import RecentViews
-from ..model import Checkpoint
+from ..model import Checkpoint, Location
 from ..rdkit_io import atom_list, nuclide, rdkit_messages, read_smiles, reading_hint, sanitize
 from ..trace import StepTrace
 from . import Check, Ending
@@ -87,7 +87,8 @@ def fragments(mol: Chem.Mol, keep_maps: Optional[frozenset[int]] = frozenset(), 
     return out
 
 
-def _written_fragments(checkpoint: Checkpoint) -> tuple[Optional[list[Fragment]], str, frozenset[int]]:
+def _written_fragments(checkpoint: Checkpoint) -> tuple[Optional[list[Fragment]], str, frozenset[int], Optional[int]]:
+    """The written structure's pieces, or None with RDKit's reason and where in the SMILES it stopped."""
     mol, _, _ = read_smiles(checkpoint.smiles, sanitize=False)   # sanitized once, by fragments()
     if mol is not None:
         # The bookkeeping follows electrons and connectivity, not configuration: a checkpoint written
@@ -100,11 +101,11 @@ def _written_fragments(checkpoint: Checkpoint) -> tuple[Optional[list[Fragment]]
             else frozenset()
         elements = tuple(a.GetAtomicNum() for a in atoms)
         try:
-            return fragments(mol, None, elements=elements), "", maps   # the written structure keeps its maps
+            return fragments(mol, None, elements=elements), "", maps, None   # the written structure keeps its maps
         except Exception:   # RDKit's full reading below says why, in its own words
             pass
-    _, reason, _ = read_smiles(checkpoint.smiles)
-    return None, reason or "RDKit cannot sanitize it", frozenset()
+    _, reason, position = read_smiles(checkpoint.smiles)
+    return None, reason or "RDKit cannot sanitize it", frozenset(), position
 
 
 def _derived_fragments(state: ElectronState, maps: frozenset[int], views: Optional[RecentViews]) -> list[Fragment]:
@@ -150,13 +151,16 @@ def compare(state: ElectronState, checkpoint: Checkpoint, code: str, step: Optio
     perceived views of the states met lately, `read` the written structures already read in this
     replay (by SMILES)."""
     if read is None:
-        written, reason, maps = _written_fragments(checkpoint)
+        written, reason, maps, position = _written_fragments(checkpoint)
     else:
         if checkpoint.smiles not in read:
             read[checkpoint.smiles] = _written_fragments(checkpoint)
-        written, reason, maps = read[checkpoint.smiles]
+        written, reason, maps, position = read[checkpoint.smiles]
     if written is None:
-        return [Diagnostic("AR102", f"RDKit cannot read the checkpoint SMILES: {reason}", checkpoint.loc,
+        loc = checkpoint.loc
+        if position is not None and checkpoint.smiles_loc.line:
+            loc = Location(checkpoint.smiles_loc.file, checkpoint.smiles_loc.line, checkpoint.smiles_loc.column + position)
+        return [Diagnostic("AR102", f"RDKit cannot read the checkpoint SMILES: {reason}", loc,
                            hint=reading_hint(reason, "check brackets, ring-closure digits and charges"), step=step)]
     derived = _derived_fragments(state, maps, views)
     # Equal canonical SMILES means an equal number of atoms: only pieces of a written size are
@@ -330,7 +334,7 @@ class CheckpointsMatch(Check):
 
     def __init__(self) -> None:
         # A structure written twice (the last checkpoint, then the same product) is read once.
-        self.read: dict[str, tuple[Optional[list[Fragment]], str, frozenset[int]]] = {}
+        self.read: dict[str, tuple[Optional[list[Fragment]], str, frozenset[int], Optional[int]]] = {}
 
     def step(self, st: StepTrace, context) -> Iterator[Diagnostic]:
         if st.after is not None:
