@@ -800,6 +800,7 @@ def _bond_faults(state: ElectronState, step: Step, step_index: int, replay: _Ste
             # One fishhook among pair arrows: most often `~>` typed for `->`.
             hint = (f"the step's other arrows move pairs: if this one does too, write `{first.source} -> {first.sink}`; "
                     f"otherwise, {hint}")
+        hint = _repeated_move_hint(step) or hint
         found.append(Diagnostic("AR303", f"the bond {label} is left with {after} electron{'s' if after > 1 else ''}",
                                 first.loc, hint, bonds=bonds, step=step_index))
     elif after > 6:

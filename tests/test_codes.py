@@ -218,6 +218,8 @@ TWINS = [
     # runs out of lone pairs (cyanide's one) or the sink out of room (hydroxide has three).
     Twin("arrow written twice, one lone pair", CYANIDE_ADDITION, "    C2=O3 -> O3\n",
          "    C2=O3 -> O3\n    :C4 -> C2\n", "AR203", ":C4", occurrence=2, hint_says=("written twice", "drop one")),
+    Twin("fishhook written twice", THIYL_ADDITION, "    C3=C4 ~> C4\n", "    C3=C4 ~> S2-C3\n", "AR303",
+         ".S2 ~> S2-C3", says=("3 electrons",), hint_says=("written twice", "drop one")),
     Twin("arrow written twice, no room", HYDROXIDE_ADDITION, "    C1=O2 -> O2\n",
          "    C1=O2 -> O2\n    :O3 -> C1\n", "AR301", ":O3 -> C1", hint_says=("written twice", "drop one")),
     Twin("arrow from a bare atom", SN2, ":O1 -> C2", "O1 -> C2", "AR205", "O1 -> C2", hint_says=(":O1",)),
