@@ -320,8 +320,7 @@ class _StepReplay:
         self.resolved: list[ResolvedMove] = []
         self.first_move_on_bond: dict[Pair, Move] = {}
         self._hydrogen_choice: dict[int, int] = {}
-        # bond -> (written order, electrons taken, the arrow, as written) of each arrow from it
-        self.bond_sources: dict[Pair, list[tuple[int, int, Move, BondRef]]] = {}
+        self.bond_sources: dict[Pair, list[Move]] = {}   # bond -> the arrows that start on it
 
     # diagnostics
     def fail(self, code: str, message: str, loc: Location, hint: Optional[str] = None,
@@ -517,7 +516,7 @@ class _StepReplay:
                       atoms=(self.state.label(a), self.state.label(b)))
             raise _StepFailed
         key = pair(a, b)
-        self.bond_sources.setdefault(key, []).append((written, move.electrons, move, src.bond))
+        self.bond_sources.setdefault(key, []).append(move)
         self.used_bond[key] = self.used_bond.get(key, 0) + move.electrons
         if self.used_bond[key] > have:
             self.fail("AR203", f"the electrons of {self.bond_name(a, b)} are used twice in this step", src.loc,
@@ -534,21 +533,23 @@ class _StepReplay:
         for key, uses in self.bond_sources.items():
             have = self.bond_before(*key)
             actual = have // 2
-            pi_taken = sum(electrons for written, electrons, _, _ in uses if written >= 2)
-            for written, _, move, bond in uses:
-                if written < actual and not (written == 1 and pi_taken >= have - 2):
-                    self.warn("AR507", f"{bond} is written {order_word(written)}, but {self.bond_name(*key)} is "
+            pi_taken = sum(move.electrons for move in uses if move.source.bond.order >= 2)
+            for move in uses:
+                bond = move.source.bond
+                if bond.order < actual and not (bond.order == 1 and pi_taken >= have - 2):
+                    self.warn("AR507", f"{bond} is written {order_word(bond.order)}, but {self.bond_name(*key)} is "
                               f"{order_word(actual)}", move.source.loc,
                               f"write {_rewrite(bond, actual)} so the reader sees which pair moves")
-            if have < 4 or self.used_bond[key] <= have - 2 or any(written == 1 for written, _, _, _ in uses):
+            if have < 4 or self.used_bond[key] <= have - 2 or any(move.source.bond.order == 1 for move in uses):
                 continue
             taken = 0
-            for written, electrons, move, bond in uses:   # the first arrow past the pi pairs
-                taken += electrons
+            for move in uses:   # the first arrow past the pi pairs
+                taken += move.electrons
                 if taken > have - 2:
                     break
+            bond = move.source.bond
             pi = have // 2 - 1
-            if move.electrons == 2 and any(other.electrons == 1 for _, _, other, _ in uses):
+            if move.electrons == 2 and any(other.electrons == 1 for other in uses):
                 # A pair arrow among fishhooks from one pi bond (a homolysis written half as a heterolysis).
                 hint = f"the other arrows from `{bond}` move one electron each: if this one does too, write `{bond} ~> {move.sink}`"
             else:

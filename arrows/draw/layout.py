@@ -33,6 +33,7 @@ from rdkit.Chem import rdDepictor
 from ..electrons import ElectronState, ResolvedMove
 from ..rdkit_io import bond_list
 from .branches import ease_clashes, side_beyond, slot_beside
+from .scene import distance_to_segment
 
 # Gap between a transferred hydrogen and the atom that takes it, in bond lengths: room for a
 # curved arrow, close enough to read as one event.
@@ -430,13 +431,7 @@ def _near_any_way(points, ways: list[tuple[complex, complex]], reach: float = 0.
     """Whether any of `points` lies within `reach` of one of the segments `ways`: a fragment left
     standing where the next step's arrow runs (the water of an Eschweiler-Clarke iminium, between
     it and the formate whose hydride comes in next)."""
-    for a, b in ways:
-        along = b - a
-        for p in points:
-            t = 0.0 if abs(along) < 1e-9 else min(1.0, max(0.0, ((p - a) * along.conjugate()).real / abs(along) ** 2))
-            if abs(p - (a + t * along)) < reach:
-                return True
-    return False
+    return any(distance_to_segment(p, a, b) < reach for a, b in ways for p in points)
 
 
 def _inside(point: complex, polygon: list[complex]) -> bool:
@@ -708,6 +703,7 @@ class _LayoutBuilder:
             self.neighbours[i].add(j)
             self.neighbours[j].add(i)
         self.hops = self._hydrogen_hops()
+        self._changed: dict[int, frozenset[tuple[int, int]]] = {}   # _changed_bonds' answers, by step
         # Chain C=C bonds with no written geometry, each with the heavy substituent on either end:
         # drawn trans (the zigzag of common practice) where no ring holds them.
         self.chain_double = self._chain_double_bonds()
@@ -1074,17 +1070,11 @@ class _LayoutBuilder:
         sulfur bonding to an arene). Drawn trigonal, the new bond went in 60 degrees from two of
         the three: the arenium's hydrogen had no room beside the sulfonyl oxygens. A Lewis acid
         that only takes a lone pair (Al(OiPr)3 holding a ketone for its six-membered hydride
-        transfer) keeps two ligands close; an atom with a lone pair (a phosphine) stays trigonal."""
-        if self.element[atom] <= 10:
-            return False
-        for k, (before, after) in enumerate(zip(self.bonds_in, self.bonds_in[1:])):
-            state = self.states[k]
-            if (bond in after and bond not in before and atom < len(state.nonbonding) and state.nonbonding[atom] == 0
-                    and self._heavy_degree(atom, before) == 3 and self._heavy_degree(atom, after) == 4
-                    and any(self.orders_in[k + 1].get(pair, 0) < order for pair, order in self.orders_in[k].items()
-                            if atom in pair)):
-                return True
-        return False
+        transfer) keeps two ligands close; an atom with a lone pair is _onium_made's to judge."""
+        return self.element[atom] > 10 and any(
+            self.states[k].nonbonding[atom] == 0
+            and any(self.orders_in[k + 1].get(pair, 0) < order for pair, order in self.orders_in[k].items() if atom in pair)
+            for k in self._made_as_fourth(atom, bond))
 
     def _onium_made(self, atom: int, bond: tuple[int, int]) -> bool:
         """Whether `atom`, holding three heavy neighbours that each stand in a ring and a lone
@@ -1092,14 +1082,18 @@ class _LayoutBuilder:
         phosphonium salt). Drawn trigonal, the new bond went in 60 degrees from two phenyls, and
         the methyl's hydrogen that a base takes next stood on a phenyl ring. (Chains, the ethoxy
         groups of a phosphite, bend out of the way.)"""
+        return any(self.states[k].nonbonding[atom] == 2
+                   and all(self._in_ring(i + j - atom) for i, j in self.bonds_in[k]
+                           if atom in (i, j) and self.element[i + j - atom] != 1)
+                   for k in self._made_as_fourth(atom, bond))
+
+    def _made_as_fourth(self, atom: int, bond: tuple[int, int]) -> Iterator[int]:
+        """The steps (by the panel before them) that make `bond` at `atom` as its fourth heavy
+        neighbour, it holding three before."""
         for k, (before, after) in enumerate(zip(self.bonds_in, self.bonds_in[1:])):
-            state = self.states[k]
-            if (bond in after and bond not in before and atom < len(state.nonbonding) and state.nonbonding[atom] == 2
-                    and self._heavy_degree(atom, before) == 3 and self._heavy_degree(atom, after) == 4
-                    and all(self._in_ring(n) for i, j in before if atom in (i, j)
-                            for n in (i + j - atom,) if self.element[n] != 1)):
-                return True
-        return False
+            if (bond in after and bond not in before and atom < len(self.states[k].nonbonding)
+                    and self._heavy_degree(atom, before) == 3 and self._heavy_degree(atom, after) == 4):
+                yield k
 
     def _heavy_degree(self, atom: int, bonds: set[tuple[int, int]]) -> int:
         """How many of `bonds` join `atom` to a heavy atom."""
@@ -1340,13 +1334,19 @@ class _LayoutBuilder:
         for step in (k - 1, k):
             if not 0 <= step < self.n - 1:
                 continue
-            before, after = self.orders_in[step], self.orders_in[step + 1]
-            if before.get((i, j)) == after.get((i, j)):
-                continue
-            changed = {pair for pair in before.keys() | after.keys() if before.get(pair) != after.get(pair)}
-            if _on_the_way(i, j, _adjacency(changed - {(i, j)})):
+            changed = self._changed_bonds(step)
+            if (i, j) in changed and _on_the_way(i, j, _adjacency(changed - {(i, j)})):
                 return True
         return False
+
+    def _changed_bonds(self, k: int) -> frozenset[tuple[int, int]]:
+        """The bonds the step after panel k makes, breaks or changes the order of (none after the
+        last panel); worked out once per step."""
+        if k not in self._changed:
+            before, after = (self.orders_in[k], self.orders_in[k + 1]) if k + 1 < self.n else ({}, {})
+            self._changed[k] = frozenset(pair for pair in before.keys() | after.keys()
+                                         if before.get(pair) != after.get(pair))
+        return self._changed[k]
 
     def _joined_around(self, i: int, j: int, k: int) -> bool:
         """Whether i and j are joined in panel k by a path that is not their own bond (a ring)."""
@@ -1481,8 +1481,7 @@ class _LayoutBuilder:
         as a ring it crowds the substituents of its centres.)"""
         members = set(group)
         # (a bond that only changes order counts: a [1,5]-hydrogen shift makes and breaks no other)
-        before, after = (self.orders_in[last], self.orders_in[last + 1]) if last + 1 < self.n else ({}, {})
-        changed = {pair for pair in before.keys() | after.keys() if before.get(pair) != after.get(pair)}
+        changed = self._changed_bonds(last)
         return {(min(h, taker), max(h, taker)) for h, giver, taker in self.hops.get(last, ())
                 if h in members and taker in members and self._heavy_path_length(giver, taker, last, members) >= 4
                 and any(h not in bond and bond[0] in members and bond[1] in members for bond in changed)}

@@ -21,7 +21,7 @@ from rdkit import Chem
 
 from ..electrons import ElectronState
 from ..rdkit_io import HYDROGEN_ISOTOPES, bond_list
-from .scene import AtomDrawing, BondDrawing, Box, Mark, TextRun
+from .scene import AtomDrawing, BondDrawing, Box, Mark, TextRun, distance_to_segment
 from .styles import BROKEN_COLOUR, FORMED_COLOUR, INK, NUMBER_COLOUR, Style
 from .formula import MINUS
 from .text import FontFace
@@ -224,14 +224,7 @@ def _sign_near_stroke(box: Box, size: float, strokes: list[tuple[complex, comple
     middle."""
     middle = complex((box.x0 + box.x1) / 2, (box.y0 + box.y1) / 2)
     room = 0.5 * (box.x1 - box.x0) + gap * size
-    return any(_distance_to_segment(middle, a, b) < room for a, b in strokes)
-
-
-def _distance_to_segment(p: complex, a: complex, b: complex) -> float:
-    along = b - a
-    length2 = along.real * along.real + along.imag * along.imag
-    t = 0.0 if length2 < 1e-18 else max(0.0, min(1.0, ((p - a) * along.conjugate()).real / length2))
-    return abs(p - (a + t * along))
+    return any(distance_to_segment(middle, a, b) < room for a, b in strokes)
 
 
 def _unit_or_zero(z: complex) -> complex:
