@@ -4717,8 +4717,7 @@ TEXTBOOK = {
     "phosphonium ylide": (PHOSPHONIUM_YLIDE, "[CH2-][P+](c1ccccc1)(c1ccccc1)c1ccccc1.[Br-].CCCC", True),
     "meinwald": (MEINWALD, "CC(C)C=O.FB(F)F", True),
     "salicylic acetylation": (SALICYLIC_ACETYLATION, "CC(=O)Oc1ccccc1C(=O)O.CC(=O)[O-].[OH3+].[OH3+]", True),
-    # the nitrile waits 2.5 bond lengths off the C-Mg bond: two long arcs side by side
-    "nitrile grignard": (NITRILE_GRIGNARD, "CCCC(C)=N[Mg]Br", False),
+    "nitrile grignard": (NITRILE_GRIGNARD, "CCCC(C)=N[Mg]Br", True),
     "sn2 prime": (SN2_PRIME, "N#CCC=CC.[Cl-]", True),
     "intramolecular diels-alder": (INTRAMOLECULAR_DIELS_ALDER, "C1=CC2CCCCC2CC1", True),
     "cation-alkene cascade": (CATION_ALKENE_CASCADE, "C[C+](C)C1CCCC2C(C)(C)CCCC12C", True),

@@ -708,7 +708,7 @@ class _LayoutBuilder:
         # drawn trans (the zigzag of common practice) where no ring holds them.
         self.chain_double = self._chain_double_bonds()
         self.positions: list[dict[int, complex]] = [dict() for _ in range(self.n)]
-        self.backside = self._backside_substitutions()
+        self.backside = self._backside_substitutions(moves)
         self.molecules = [_molecules(state) for state in self.states]
         self.joining = [_joining(self.states[k], self.molecules[k], self.molecules[k + 1])
                         for k in range(self.n - 1)] + [set()]
@@ -1964,14 +1964,17 @@ class _LayoutBuilder:
                 return complex(_COMPASS[index])
         return free_direction(centre, [centre + t for t in taken], prefer)
 
-    def _backside_substitutions(self) -> dict[tuple[int, int], tuple[int, int]]:
+    def _backside_substitutions(self, moves: Sequence[Sequence[ResolvedMove]]) -> dict[tuple[int, int], tuple[int, int]]:
         """(panel of arrival, entering atom) -> (centre, leaving atom) for each step in which one
         single bond to a heavy atom forms at the centre and one single bond from it breaks, the
         two partners not bonded to each other (an SN2, an epoxide or bromonium opening; not a
-        1,2-shift, whose group slides between two bonded atoms). The nucleophile is drawn coming
-        in opposite the leaving group (backside attack, common practice)."""
+        1,2-shift, whose group slides between two bonded atoms; not a centre that keeps the
+        broken bond's pair for its new bond, as a Grignard carbon does). The nucleophile is drawn
+        coming in opposite the leaving group (backside attack, common practice)."""
         out = {}
         for k in range(self.n - 1):
+            kept = {(m.source_atoms, m.sink_atoms) for m in moves[k] if m.source_kind == "bond"
+                    and len(m.sink_atoms) == 2} if k < len(moves) else set()
             before, after = self.bonds_in[k], self.bonds_in[k + 1]
             gained: dict[int, list[int]] = {}
             lost: dict[int, list[int]] = {}
@@ -1987,6 +1990,8 @@ class _LayoutBuilder:
                 pairs = [(min(centre, e), max(centre, e)), (min(centre, l), max(centre, l))]
                 if (self.element[e] == 1 or self.element[l] == 1 or self.orders_in[k + 1][pairs[0]] != 1
                         or self.orders_in[k][pairs[1]] != 1 or (min(e, l), max(e, l)) in before | after):
+                    continue
+                if any({*source} == {centre, l} and {*sink} == {centre, e} for source, sink in kept):
                     continue
                 out[(k + 1, e)] = (centre, l)
         return out
@@ -2102,6 +2107,13 @@ class _LayoutBuilder:
             # opposite that neighbour, its arrow had to run round the centre, over a bond (a
             # methyl shifting in a Wagner-Meerwein rearrangement).
             u = gap_beside(self.positions[k][anchor], others, self.positions[k][target])
+        elif kind == "bond" and (across := self._crosses_to(anchor, mover, segment)) is not None:
+            # A group about to cross from the anchor to an atom of another molecule (the MgBr of a
+            # Grignard reagent to the nitrile's nitrogen, through a four-membered ring) stands in
+            # the anchor's gap facing that atom, so its arrow and the bond's are short.
+            here = self.positions[k]
+            u = gap_facing(here[anchor], [here[n] for n in self.neighbours[anchor] if n in here and n != mover
+                                          and (min(n, anchor), max(n, anchor)) in self.bonds_in[k]], across)
         elif kind == "bond" and len(cluster.atoms) == 1 and (giver := self._gives_hydrogen_to(mover, segment)) is not None:
             # A lone atom that takes a hydrogen as the run ends (a chloride of AlCl4- taking the
             # arenium's proton) bonds on the side facing the atom it takes it from.
@@ -2209,6 +2221,20 @@ class _LayoutBuilder:
         if hydrogen is not None:
             self._promise(hydrogen, anchor, k, direction, leave_after=round_about is not None)
 
+    def _crosses_to(self, anchor: int, mover: int, segment: tuple[int, int]) -> Optional[complex]:
+        """Where, in the last panel of `segment`, stands the atom that `mover` bonds to in the step
+        after it as it leaves `anchor`, when that atom is not `anchor`'s neighbour (a 1,2-shift is
+        placed by its own rule) and belongs to another molecule; None otherwise."""
+        last = segment[1]
+        if last + 1 >= self.n or (min(anchor, mover), max(anchor, mover)) not in self.bonds_in[last] - self.bonds_in[last + 1]:
+            return None
+        here = self.positions[last]
+        molecule = next((m for m in self.molecules[last] if anchor in m), ())
+        target = next((n for n in sorted(self.neighbours[mover])
+                       if (min(mover, n), max(mover, n)) in self.bonds_in[last + 1] - self.bonds_in[last]
+                       and n in here and n not in molecule), None)
+        return None if target is None else here[target]
+
     def _gives_hydrogen_to(self, taker: int, segment: tuple[int, int]) -> Optional[int]:
         """The atom, placed in the last panel of `segment`, that hands `taker` a hydrogen in the
         step after it; None if there is none."""
@@ -2277,27 +2303,43 @@ class _LayoutBuilder:
 
     def _four_centre_side(self, anchor: int, mover: int, k: int) -> Optional[complex]:
         """Panel k has the new bond between `anchor` and `mover`; if the step that made it also
-        moved a hydrogen from `mover` to X, the anchor's partner across the pi bond both used (a
-        hydroboration: B onto one alkene carbon, its H onto the other, through a four-membered
-        ring), the direction square to the anchor-X bond on the side with more room: the mover's
-        bond to that hydrogen then lies alongside the pi bond, as chemists draw the four-centre
-        addition. None for any other approach."""
+        moved a group across to the other end of the pi bond it added to, through a four-membered
+        ring (a hydroboration: B onto one alkene carbon, its H onto the other; a Grignard reagent
+        on a nitrile: the alkyl onto carbon, MgBr onto nitrogen), the direction square to the bond
+        on the anchor's side of that ring (anchor to the group's new partner, or anchor to the group
+        it gives away) on the side with more room: the mover's side of the ring then lies alongside
+        it, as chemists draw the four-centre addition. None for any other approach."""
         bond = (min(anchor, mover), max(anchor, mover))
         if k == 0 or bond in self.bonds_in[k - 1] or bond not in self.bonds_in[k]:
             return None
-        here = self.positions[k]
+        here, before = self.positions[k], self.positions[k - 1]
         if anchor not in here:
             return None
-        for h, holder in self.holders[k - 1].items():
-            x = self.holders[k].get(h)
-            if holder != mover or x in (None, mover) or x not in here \
-                    or (min(anchor, x), max(anchor, x)) not in self.bonds_in[k - 1]:
-                continue
-            along = _unit(here[x] - here[anchor])
-            crowd = [p for a, p in here.items() if a not in (anchor, x, mover)]
-            return max((along * 1j, along * -1j),
-                       key=lambda d: min((abs(here[anchor] + APPROACH * d - p) for p in crowd), default=9.0))
-        return None
+        made = self.bonds_in[k] - self.bonds_in[k - 1]
+        broken = self.bonds_in[k - 1] - self.bonds_in[k]
+        side = None
+        for group in sorted(self.neighbours[mover] | self.neighbours[anchor]):
+            for giver, taker in ((mover, anchor), (anchor, mover)):
+                gone = (min(giver, group), max(giver, group)) in broken
+                partner = next((x for x in sorted(self.neighbours[group]) if x not in (giver, taker)
+                                and (min(group, x), max(group, x)) in made
+                                and (min(taker, x), max(taker, x)) in self.bonds_in[k - 1]), None)
+                if not gone or partner is None:
+                    continue
+                if giver == mover and partner in here:
+                    side = here[partner] - here[anchor]     # the group goes to the anchor's neighbour
+                elif giver == anchor and group in before and anchor in before:
+                    side = before[group] - before[anchor]   # the group leaves the anchor
+                if side is not None:
+                    break
+            if side is not None:
+                break
+        if side is None or abs(side) < 1e-9:
+            return None
+        along = _unit(side)
+        crowd = [p for a, p in here.items() if a not in (anchor, mover)]
+        return max((along * 1j, along * -1j),
+                   key=lambda d: min((abs(here[anchor] + APPROACH * d - p) for p in crowd), default=9.0))
 
     def _shifts_off(self, anchor: int, mover: int, last: int) -> bool:
         """Whether the step after panel `last` moves `mover` from `anchor` to an atom bonded to
@@ -2581,9 +2623,12 @@ class _LayoutBuilder:
         panels = range(segment[0], segment[1] + 1)
         others = [p for k in panels for a, p in self.positions[k].items() if a not in cluster.atoms]
         there = self.positions[arrival]
+        # (Only those still bonded to it at its arrival: the MgBr of a Grignard reagent, crossing
+        # to the nitrile's nitrogen, hangs elsewhere then.)
         hanging = {(a, n) for k in panels for a in cluster.atoms for n in self.neighbours[a]
                    if n not in cluster.atoms and n in self.exists[k] and n not in self.positions[k]
-                   and a in there and n in there and (min(a, n), max(a, n)) in self.bonds_in[k]}
+                   and a in there and n in there and (min(a, n), max(a, n)) in self.bonds_in[k]
+                   and (min(a, n), max(a, n)) in self.bonds_in[arrival]}
         depicted = cluster.local_at(segment[0])
         satellites = [there[n] - there[a] + rotation * depicted[a] for a, n in sorted(hanging)]
         local = [rotation * p for p in depicted.values()] + satellites
