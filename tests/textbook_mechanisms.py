@@ -72,7 +72,7 @@ an SN2' and a cation-alkene cyclisation cascade; and seventeen more, from Hell-V
 Corey-Fuchs, written while hunting for defects.
 
 Each entry: (mechanism text, textbook product SMILES, drawn): `drawn` says whether the geometry
-tests draw it. All do but fourteen. (Fixed in the layout and the tests since: the Dieckmann
+tests draw it. All do but thirteen. (Fixed in the layout and the tests since: the Dieckmann
 ethoxide, which stays where it was bonded, and the Cope elimination's oxide waited 1.0 and 1.34
 bond lengths from the hydrogen they take, where the proton-transfer test wants 1.4; the mesylate
 SN2 pushed the ethyl that iodide takes 0.9 bond lengths out along its broken C-O bond, as if it
