@@ -4739,7 +4739,8 @@ TEXTBOOK = {
     "schmidt": (SCHMIDT_MECHANISM, "CNC(C)=O", False),
     # the tin hydride's Sn-H fishhooks are short, as in the tributyltin reduction
     "barton-mccombie": (BARTON_MCCOMBIE, "C1CCCCC1", False),
-    # two triphenylphosphines and CBr4 crowd one panel: phenyls overlap
+    # the first panel draws CBr4's bromine against the phosphine it bonds to (0.48 bond lengths
+    # from a phenyl carbon), the first two arrows short; the phenyls no longer overlap
     "corey-fuchs": (COREY_FUCHS, "BrC(Br)=Cc1ccccc1", False),
     "imidazole acyl transfer": (IMIDAZOLE_ACYL_TRANSFER, "COC(C)=O", True),
 }

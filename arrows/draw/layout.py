@@ -50,6 +50,7 @@ CYCLOADDITION_GAP = 1.8
 # other, so the curved arrow between them has room to bend.
 APPROACH = 2.2
 _CLEARANCE = 1.2     # nearest approach allowed between atoms of separately placed clusters
+_HELD_APART_ROOM = 0.8   # least room for a cycloaddition partner held off its partner
 _CROWDED = 0.8       # atoms of two clusters nearer than this read as one jumble (labels overlap)
 _HYDROGEN_ROOM = 0.85   # nearest approach of any other atom to a travelling hydrogen
 _FED_ANGLE = math.radians(80)   # least angle between a C-H and the bond its pair goes into
@@ -1288,11 +1289,23 @@ class _LayoutBuilder:
         turn = _unit(sum(local[i] for i, _ in ends) - sum(local[j] for _, j in ends)).conjugate()
         cluster.local = local = {a: p * turn for a, p in local.items()}
         cluster.phases = [(first, {a: p * turn for a, p in later.items()}) for first, later in cluster.phases]
-        away = 1 + 0j
-        for step_out in range(1, 101):
-            offset = away * 0.02 * step_out
-            mean = sum(abs(local[i] + offset - local[j]) for i, j in ends) / len(ends)
-            if mean >= CYCLOADDITION_GAP:
+        # Straight out to the right, unless that sets the moving side on the rest of the cluster
+        # (the aldehyde of a Corey-Fuchs oxaphosphetane, drawn from the first panel, landed on a
+        # phenyl of the phosphorus): then turned up or down as little as clears it.
+        moving = np.array([local[a] for a in sorted(atoms)], dtype=complex)
+        still = np.array([p for a, p in local.items() if a not in atoms], dtype=complex)
+        offset, best = 0j, -1.0
+        for degrees in (0, 15, -15, 30, -30, 45, -45, 60, -60):
+            away = cmath.rect(1.0, math.radians(degrees))
+            for step_out in range(1, 101):
+                shift = away * 0.02 * step_out
+                mean = sum(abs(local[i] + shift - local[j]) for i, j in ends) / len(ends)
+                if mean >= CYCLOADDITION_GAP:
+                    break
+            room = float(np.abs(moving[:, None] + shift - still[None, :]).min()) if len(still) else 9.0
+            if room > best:
+                offset, best = shift, room
+            if room >= _HELD_APART_ROOM:
                 break
         first = min(k for k in range(self.n) if atoms & self.exists[k])
         cluster.openings.append((atoms, first, step, offset))
@@ -2767,7 +2780,11 @@ class _LayoutBuilder:
         others = np.array([p for kk in range(segment[0], segment[1] + 1) for a, p in self.positions[kk].items()
                            if a not in atoms], dtype=complex)
         ways = self._ways_of_next_step(k, atoms)
-        if not apart:
+        # A lone atom handed to a larger molecule not placed yet (the bromine that a second
+        # triphenylphosphine takes off the ylide's carbon) is where that molecule will hang: it
+        # moves off with room for it, or the molecule lands on the one it left.
+        footprint = self._footprint_of_taker(index, k) if split else None
+        if not apart and footprint is None:
             # Only a fragment that took the pair away moves off: the one it left (the carbon of an
             # SN2, where the nucleophile has come in) stays.
             before = self.states[k - 1]
@@ -2786,11 +2803,17 @@ class _LayoutBuilder:
         tries = [(1, extra) for extra in (0.7, 0.5, 0.3)] if apart else []
 
         def fit(at: complex) -> tuple[bool, float]:
-            """Clear of the next step's arrows, then the nearest approach to anything."""
-            nearest = float(np.abs(at + local[:, None] - others[None, :]).min()) if len(others) else math.inf
+            """Clear of the next step's arrows, then the nearest approach to anything (of the
+            taker's footprint too, set on the far side from where the atom was)."""
+            mine = local
+            if footprint is not None:
+                outward = _unit(at - shift) if abs(at - shift) > 1e-9 else direction
+                mine = np.concatenate([local, local[0] + outward * footprint])
+            nearest = float(np.abs(at + mine[:, None] - others[None, :]).min()) if len(others) else math.inf
             return not _near_any_way(at + local, ways), min(nearest, _CLEARANCE)
         best, best_fit = shift, fit(shift)
-        for turn, extra in tries + [(turn, extra) for turn in turns for extra in (1.0, 1.5, 2.0)]:
+        extras = (1.0, 1.5, 2.0) if footprint is None else (1.0, 1.5, 2.0, 2.5, 3.0)
+        for turn, extra in tries + [(turn, extra) for turn in turns for extra in extras]:
             moved = shift + direction * turn * extra
             here = fit(moved)
             if here == (True, _CLEARANCE):
@@ -2799,6 +2822,28 @@ class _LayoutBuilder:
                 best, best_fit = moved, here
         # Nowhere quite clear: the roomiest of the tries, if it beats staying put.
         return (rotation, best, direction, pull_back)
+
+    def _footprint_of_taker(self, index: int, k: int) -> Optional[np.ndarray]:
+        """For a cluster of one atom bonded in panel k to an atom of a larger cluster not yet
+        placed there: that cluster's atoms relative to the lone atom, with its own bonded atom a
+        bond length out along +1 and the rest fanned out beyond it (turned so that they stand
+        furthest from the lone atom). None for anything else."""
+        cluster = self.clusters[index]
+        if len(cluster.atoms) != 1:
+            return None
+        lone = cluster.atoms[0]
+        for n in sorted(self.neighbours[lone]):
+            if (min(lone, n), max(lone, n)) not in self.bonds_in[k] or n not in self.cluster_of:
+                continue
+            taker = self.clusters[self.cluster_of[n]]
+            if len(taker.atoms) <= 1 or self._placed_at(self.cluster_of[n], k):
+                continue
+            local = taker.local_at(k)
+            rest = np.array([local[a] - local[n] for a in taker.atoms if a != n], dtype=complex)
+            centre = rest.mean() if len(rest) else 1 + 0j
+            turn = _unit(centre).conjugate() if abs(centre) > 1e-9 else 1 + 0j
+            return np.concatenate([[1 + 0j], 1 + rest * turn])
+        return None
 
     def _ways_of_next_step(self, k: int, skip: set[int]) -> list[tuple[complex, complex]]:
         """The straight lines in panel k between the atoms the step after it joins or hands a
