@@ -226,6 +226,15 @@ def _fragment_of(mol: Chem.Mol, index: int) -> set[int]:
     return {index}
 
 
+def _smaller_than_another(state: ElectronState, fragment: set[int], released: set[int]) -> bool:
+    """Whether some molecule of `state` outside `fragment` and not released has more heavy atoms."""
+    elements = state.elements
+    heavy = sum(1 for i in fragment if elements[i] != 1)
+    return any(sum(1 for i in frag if elements[i] != 1) > heavy
+               for frag in Chem.GetMolFrags(state.mol, asMols=False, sanitizeFrags=False)
+               if not fragment & set(frag) and not released.issuperset(frag))
+
+
 class Replay:
     """Derives the states of a mechanism one step at a time: iterate it for each StepTrace. The
     species are loaded (and every bad SMILES and duplicate reported) when it is made; `initial` is
@@ -338,18 +347,24 @@ class Replay:
                                                    step=index))
                 continue
             fragment = _fragment_of(after.mol, atom_index) - released
-            if len(touched) > 1 and fragment.issuperset(touched):
+            reacted = len(touched) > 1 and fragment.issuperset(touched)
+            if (reacted or not touched) and len(fragment) > 1 and not _smaller_than_another(after, fragment, released):
                 # A fragment that leaves is a piece the step's arrows split off (a leaving group)
                 # or a partner they left whole (a base that took its proton); one that holds every
                 # atom they touched is the molecule that reacted: a bond to the atom named was
-                # meant to break.
+                # meant to break. Unless a larger molecule stays: then the step made a small one
+                # to let go (silver bromide precipitating from Ag+ and Br-). A step with no
+                # arrows that lets the largest molecule go has the same slip.
                 name = after.label(atom_index)
-                holder = next((n.GetIdx() for n in after.mol.GetAtomWithIdx(atom_index).GetNeighbors()
-                               if n.GetIdx() in touched), None)
+                near = [n.GetIdx() for n in after.mol.GetAtomWithIdx(atom_index).GetNeighbors()
+                        if after.elements[n.GetIdx()] != 1]
+                holder = next((n for n in near if n in touched), None) if touched else next(iter(near), None)
                 bond = f"{after.label(holder)}-{name}" if holder is not None else "its bond"
+                what = (f"the molecule this step's arrows act on ({len(fragment)} atoms, every atom they touch "
+                        f"among them)" if reacted else f"the largest molecule left ({len(fragment)} atoms): no arrow "
+                        f"breaks {name}'s bond to it")
                 self.diagnostics.append(Diagnostic(
-                    "AR512", f"`releases {name}` takes away the molecule this step's arrows act on "
-                    f"({len(fragment)} atoms, every atom they touch among them)", ref.loc,
+                    "AR512", f"`releases {name}` takes away {what}", ref.loc,
                     hint=f"if {name} leaves, break {bond} with an arrow (`{bond} -> {name}`), in this step "
                          f"or the next" if holder is not None else f"if {name} leaves, break its bond first",
                     step=index, atoms=(name,)))

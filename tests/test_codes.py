@@ -333,6 +333,12 @@ TWINS = [
          TEXTBOOK["transesterification"][0][TEXTBOOK["transesterification"][0].index("    C1=O2 -> O2\nend"):],
          "    C1=O2 -> O2\n    releases O3\nend\n", "AR512", "O3\nend", says=("O3", "every atom they touch"),
          hint_says=("`C1-O3 -> O3`",), alone=False),
+    # Hantzsch thiazole synthesis with the C-O arrow of the water's loss left out: the step has no
+    # arrow left, and its release takes the whole hydroxythiazoline (the largest molecule) away.
+    Twin("release with no arrow", TEXTBOOK["hantzsch thiazole"][0],
+         TEXTBOOK["hantzsch thiazole"][0][TEXTBOOK["hantzsch thiazole"][0].index("    C6-O7 -> O7\n"):],
+         "    releases O7\nend\n", "AR512", "O7\nend", occurrence=2, says=("O7", "the largest molecule left"),
+         hint_says=("`C6-O7 -> O7`",), alone=False),
     Twin("odd-electron bond", RADICALS, "    .C2 ~> C1-C2\n", "", "AR303", ".C1 ~> C1-C2", says=("1 electron",)),
     # Without the Cl-Cl bond breaking, Cl1 would carry two bonds and three lone pairs (charge -1): a
     # valence RDKit does not allow (RDKit as independent judge).

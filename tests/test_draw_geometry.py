@@ -621,6 +621,49 @@ def test_a_nucleophile_with_no_clear_line_behind_the_leaving_group_waits_away_fr
     assert _angle_at(where, index[5], index[3], index[4]) >= 90   # O3 and Cl4 seen from P5
 
 
+def _panel_rings(panel) -> list[list[int]]:
+    """The smallest set of rings of a panel's drawn bonds (RDKit's SSSR), as atom indices in ring order."""
+    order = {a.index: k for k, a in enumerate(panel.atoms)}
+    work = Chem.RWMol()
+    for _ in panel.atoms:
+        work.AddAtom(Chem.Atom(6))
+    for bond in panel.bonds:
+        if work.GetBondBetweenAtoms(order[bond.atoms[0]], order[bond.atoms[1]]) is None:
+            work.AddBond(order[bond.atoms[0]], order[bond.atoms[1]], Chem.BondType.SINGLE)
+    atoms = [a.index for a in panel.atoms]
+    return [[atoms[k] for k in ring] for ring in Chem.GetSymmSSSR(work)]
+
+
+def _atoms_inside_rings(scene) -> list[tuple[int, list[int], list[int]]]:
+    """(panel, ring, atoms drawn inside it that are not its own) wherever there are any."""
+    out = []
+    for panel in scene.panels:
+        where = {a.index: complex(*a.position) for a in panel.atoms}
+        for ring in _panel_rings(panel):
+            polygon = [where[a] for a in ring]
+            inside = [a for a in where if a not in ring and _point_in_polygon(where[a], polygon)]
+            if inside:
+                out.append((panel.index, ring, inside))
+    return out
+
+
+@pytest.mark.parametrize("text,name", _mechanisms())
+def test_no_atom_is_drawn_inside_a_ring_it_is_not_part_of(text, name):
+    """An atom inside a ring drawing reads as a bridge across it (IUPAC 2008: substituents are
+    drawn outside the ring)."""
+    _, _, scene = _scene(text, name)
+    assert _atoms_inside_rings(scene) == []
+
+
+def test_an_epoxidised_silyl_enol_ether_keeps_its_silyloxy_group_outside_the_ring():
+    """Rubottom oxidation (textbook account, from memory; undrawn by the other tests): RDKit's own
+    depictor set the silyloxy oxygen of the silyl enol ether, drawn where the epoxide it is about
+    to carry will be, inside the cyclohexene ring in the first two panels; RDKit's other depictor
+    (coordgen) draws it outside, and is taken there."""
+    _, _, scene = _scene(TEXTBOOK["rubottom oxidation"][0], "rubottom oxidation")
+    assert _atoms_inside_rings(scene) == []
+
+
 @pytest.mark.parametrize("text,name", _mechanisms())
 def test_drawn_hydrogens_stand_clear_of_their_holder_s_bonds(text, name):
     """A hydrogen drawn as an atom (one that an arrow moves) stands at least 25 degrees round
@@ -1691,7 +1734,7 @@ def test_arrows_cross_few_bonds_across_the_gallery():
     assert crossed == []
 
 
-_TEXTBOOK_CROSSINGS = 25   # measured; see the docstring below
+_TEXTBOOK_CROSSINGS = 27   # measured; see the docstring below
 
 
 def test_arrows_cross_few_bonds_across_the_drawn_textbook_schemes():
@@ -1732,7 +1775,10 @@ def test_arrows_cross_few_bonds_across_the_drawn_textbook_schemes():
     pair goes into; 23 with the Fmoc removal, whose fluorenyl carbanion takes the piperidinium's
     proton from beyond its own CH2 bond; 25 with the Sommelet-Hauser rearrangement, whose ring
     C5-H pair, going into C4=C5, crosses the ring bond beside it, and the imidazole acyl transfer, whose
-    methanol adds to C2 across the acetic acid that has just left it); 4 are
+    methanol adds to C2 across the acetic acid that has just left it; 27 with the Corey-Kim
+    oxidation, whose carbinol C-H pair goes into the new C=O across an isopropyl methyl bond,
+    and the Polonovski reaction, whose N-oxide reaches the anhydride carbon across its C=O's
+    second stroke, the anhydride waiting close); 4 are
     proton transfers that reach round a bond from a partner within reach (benzoin's ethoxide to
     the C-H, Dieckmann, the Baeyer-Villiger acetate past the other OH) or cross one molecule
     (benzoin's alkoxide to its OH); 6 are crowded centres and rings (ring expansion, SNAr,

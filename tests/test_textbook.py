@@ -58,7 +58,10 @@ def test_only_expanded_octets_and_small_or_disfavoured_closures_are_flagged():
     AR501, the small-ring warning the language sketch asks for (the README says it fires also where
     the substrate offers nothing larger). The Favorskii enolate's displacement of chloride is
     3-(enolendo)-exo-tet, which Baldwin-Lusch 1982 call disfavoured (memory): AR502, the rules'
-    verdict. No other warning anywhere."""
+    verdict. Fluoride adding to the silicon of a TBS ether makes a five-coordinate silicate (AR504,
+    hypervalent Si as chemists draw it), and the Ramberg-Backlund carbanion closes a three-membered
+    episulfone (AR501). No other warning anywhere: not the silver bromide let go as it forms in a
+    Hunsdiecker reaction (a small molecule made to leave, beside the larger one that goes on)."""
     flagged, octets = {}, []
     for name, (text, _, _) in TEXTBOOK.items():
         _, diags = check_text(text, f"{name}.mech")
@@ -70,5 +73,7 @@ def test_only_expanded_octets_and_small_or_disfavoured_closures_are_flagged():
                        "darzens": {"AR501"}, "horner-wadsworth-emmons": {"AR501"}, "favorskii": {"AR502"},
                        "arbuzov": {"AR504"}, "staudinger": {"AR504"}, "peterson": {"AR504", "AR501"},
                        "aziridine closure": {"AR501"}, "payne rearrangement": {"AR501"},
-                       "michael-initiated ring closure": {"AR501"}, "neber": {"AR501"}, "corey-fuchs": {"AR504"}}
-    assert sorted(octets) == [("arbuzov", 1), ("corey-fuchs", 3), ("peterson", 1), ("staudinger", 1), ("wittig", 0)]
+                       "michael-initiated ring closure": {"AR501"}, "neber": {"AR501"}, "corey-fuchs": {"AR504"},
+                       "tbs removal": {"AR504"}, "ramberg-backlund": {"AR501"}}
+    assert sorted(octets) == [("arbuzov", 1), ("corey-fuchs", 3), ("peterson", 1), ("staudinger", 1),
+                              ("tbs removal", 0), ("wittig", 0)]

@@ -220,6 +220,13 @@ class RingClosures(Check):
         where = dict(bonds=((a, b),), step=st.index, atoms=(a, b))
         size = len(c.ring)
         opening = f"{a}-{b} closes a {size}-membered ring"
+        if c.broken_partner is not None and c.broken_partner in c.ring \
+                and st.after.mol.GetBondBetweenAtoms(c.attacked, c.broken_partner) is None:
+            # The bond that breaks at the attacked atom is a bond of that ring (endo): the ring is
+            # the transition state's, and the group moves along it (a silyl group passed from one
+            # oxygen to another; a methyl transfer).
+            opening = (f"{a}-{b} forms through a {size}-membered cyclic transition state ({b}-"
+                       f"{label(c.broken_partner)} breaks in it: a group passed along, no ring left)")
         if c.closure is None and c.between_molecules:
             bond = next(((i, j) for i, j in st.change.formed
                          if {i, j} <= set(c.ring) and {i, j} != {c.nucleophile, c.attacked}), None)

@@ -435,6 +435,16 @@ def _near_any_way(points, ways: list[tuple[complex, complex]], reach: float = 0.
     return any(distance_to_segment(p, a, b) < reach for a, b in ways for p in points)
 
 
+def _atom_inside_a_ring(xyz: list[list[float]], rings: list[list[int]], count: int) -> bool:
+    """Whether one of the first `count` atoms at `xyz` stands inside one of `rings` (atom index
+    lists in ring order) that it is not part of."""
+    for ring in rings:
+        polygon = [complex(xyz[a][0], xyz[a][1]) for a in ring]
+        if any(a not in ring and _inside(complex(xyz[a][0], xyz[a][1]), polygon) for a in range(count)):
+            return True
+    return False
+
+
 def _inside(point: complex, polygon: list[complex]) -> bool:
     """Even-odd rule."""
     inside = False
@@ -1316,6 +1326,18 @@ class _LayoutBuilder:
         every = self.union if panels == range(self.n) else (b for k in panels for b in self.bonds_in[k])
         return {b for b in every if b[0] in members and b[1] in members}
 
+    def _atom_inside_a_ring(self, local: dict[int, complex], group: list[int], bonds: set[tuple[int, int]]) -> bool:
+        """Whether, in `local`, a heavy atom of `group` stands inside a ring made of `bonds` that it
+        is not part of (RDKit's depiction of an epoxidised silyl enol ether, its silyloxy oxygen
+        inside the cyclohexane)."""
+        heavy = [a for a in group if self.element[a] != 1]
+        for ring in self.rings:
+            if all((min(a, b), max(a, b)) in bonds for a, b in zip(ring, ring[1:] + ring[:1])):
+                polygon = [local[a] for a in ring]
+                if any(a not in ring and _inside(local[a], polygon) for a in heavy):
+                    return True
+        return False
+
     def _even(self, local: dict[int, complex], group: list[int], panels: Iterable[int]) -> bool:
         """Every bond among `group` in `panels` within 2% of one bond length in `local`."""
         return all(abs(abs(local[i] - local[j]) - 1.0) <= 0.02 for i, j in self._in_group(group, panels))
@@ -1426,7 +1448,7 @@ class _LayoutBuilder:
                     break     # one that straightens (a nitrilium made by a shift) is drawn bent, then straight
                 trial_bonds = self._run_bonds(group, start, end + 1) | self._hop_ahead(group, end + 1)
                 trial = self._depict(group, trial_bonds, range(start, end + 2))
-                if not self._even(trial, group, range(start, end + 2)):
+                if not self._even(trial, group, range(start, end + 2)) or self._atom_inside_a_ring(trial, group, trial_bonds):
                     break
                 if any(self._linear(a, range(end, end + 1)) and not self._linear(a, range(end + 1, end + 2))
                        and self._heavy_bonds(a, end) == self._heavy_bonds(a, end + 1) for a in sometimes_sp):
@@ -1638,6 +1660,25 @@ class _LayoutBuilder:
         rdDepictor.Compute2DCoords(mol, canonOrient=True)   # compute_layout chose RDKit's own depictor
         # All positions in one call: asking the conformer atom by atom costs more than the sums.
         xyz = mol.GetConformer().GetPositions().tolist()
+        # (Only for one panel's depiction: a longer run whose bonds put an atom inside a ring is
+        # cut short in _phases, and the union of every panel's bonds, a cage where a ring grows,
+        # is there to be judged uneven and redrawn run by run.)
+        own_rings = [r for r in smallest if max(r) < len(group)] if panels is not None and len(panels) == 1 else []
+        if own_rings                and _atom_inside_a_ring(xyz, own_rings, len(group)):
+            # RDKit's own depictor sets a substituent of a carbon shared by a three-membered and a
+            # larger ring inside the larger one (the silyloxy group of an epoxidised silyl enol
+            # ether); coordgen, RDKit's other depictor, draws it outside. Taken only where it
+            # draws every bond at one length with no atom inside a ring.
+            rdDepictor.SetPreferCoordGen(True)
+            try:
+                rdDepictor.Compute2DCoords(mol, canonOrient=True)
+            finally:
+                rdDepictor.SetPreferCoordGen(False)
+            other = mol.GetConformer().GetPositions().tolist()
+            lengths = [_distance(other[a], other[b]) for a, b in ends]
+            mean = sum(lengths) / len(lengths) if lengths else 1.0
+            if all(abs(x / mean - 1.0) <= 0.02 for x in lengths) and not _atom_inside_a_ring(other, own_rings, len(group)):
+                xyz = other
         lengths = [_distance(xyz[a], xyz[b]) for a, b in ends]
         scale = 1.0 / (sum(lengths) / len(lengths)) if lengths else 1.0
         xs, ys = [p[0] for p in xyz], [p[1] for p in xyz]
