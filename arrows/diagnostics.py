@@ -207,8 +207,10 @@ CODES = _table(
          'tert-butyl cation'),
     Code("AR512", WARNING, "release takes the molecule that reacted",
          "`releases` takes away the whole molecule the named atom belongs to. Here that molecule holds "
-         "every atom the step's arrows touch: the atom meant to leave is still bonded to it (a leaving "
-         "group whose bond the arrows do not break).",
+         "every atom the step's arrows touch (or, in a step with no arrows, it is the largest molecule "
+         "left): the atom meant to leave is still bonded to it (a leaving group whose bond the arrows "
+         "do not break). A small molecule the step makes to let go while a larger one stays (silver "
+         "bromide from Ag+ and Br-) is not flagged.",
          ':O6 -> C2\n    C2=O3 -> O3\n    releases O4   # methoxide is still bonded to C2: break C2-O4 '
          '(after the C=O re-forms) before releasing it'),
     Code("AR513", WARNING, "pi pair pushed onto one end with nothing at the other",
