@@ -4981,7 +4981,7 @@ product "CC(=O)[O-].CC(C)C(C)=O"
 
 # Hantzsch thiazole synthesis (textbook account, from memory): thioacetamide and chloroacetone
 # give 2,4-dimethylthiazole by S-alkylation, ring closure of nitrogen onto the ketone and
-# acid-catalysed dehydration.
+# acid-catalysed dehydration, water passing the protons.
 HANTZSCH_THIAZOLE = '''\
 title "Hantzsch thiazole synthesis"
 species thioamide = "C[C:1](=[S:2])[NH2:3]"
@@ -4995,7 +4995,8 @@ step "amidinium-like resonance" resonance
     C1=S2 -> S2
 end
 step "N-H deprotonation"
-    :Cl4 -> H(N3)
+    uses water = "[OH2:9]"
+    :O9 -> H(N3)
     N3-H -> N3
 end
 step "ring closure"
@@ -5008,15 +5009,15 @@ step "proton transfer"
     expect "CC1=NC(C)(O)CS1"
 end
 step "O-protonation"
-    :O7 -> H(Cl4)
-    Cl4-H -> Cl4
+    :O7 -> H(O9)
+    O9-H -> O9
 end
 step "loss of water"
     C6-O7 -> O7
     releases O7
 end
 step "aromatisation"
-    :Cl4 -> H(C5)
+    :O9 -> H(C5)
     C5-H -> C5=C6
 end
 product "Cc1csc(C)n1"

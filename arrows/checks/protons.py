@@ -140,8 +140,8 @@ def _next_to_cation(state, atom: int) -> bool:
         if i in cations and state.nonbonding[i] == 0:
             return True
         if any(b.GetBondType() == Chem.BondType.DOUBLE and b.GetOtherAtomIdx(i) in cations
-               for b in n.GetBonds()):
-            return True
+               and b.GetOtherAtomIdx(i) != atom for b in n.GetBonds()):
+            return True   # (not the atom itself: an iminium's own N-H is judged as an iminium's)
     return False
 
 

@@ -48,6 +48,9 @@ TABLE: tuple[Acidity, ...] = (
             "[CX4;!H0](C#N)[$([CX3]=O),$(C#N)]", 11, "~11", NOT_LISTED),   # malononitrile ~11
     Acidity("a phenol", "a phenoxide", "[OX2H1]c", 10, "~10", TEXTBOOK),
     Acidity("an ammonium ion", "an amine", "[NX4+;!H0]", 10, "~10", TEXTBOOK),
+    # Acetamidinium 12.4; a protonated imine about 7 (aqueous, memory): HCl's chloride takes neither's N-H.
+    Acidity("an amidinium N-H", "an amidine", "[NX3+;!H0]=[CX3][NX3]", 12, "~12", NOT_LISTED),
+    Acidity("an iminium N-H", "an imine", "[NX3+;!H0]=[#6]", 7, "~7", NOT_LISTED),
     Acidity("an enol", "an enolate oxygen", "[OX2H1][CX3]=[CX3]", 10.5, "~10-11", NOT_LISTED),
     Acidity("water", "hydroxide", "[OX2H2]", 15.7, "15.7", TEXTBOOK),
     Acidity("methanol", "methoxide", "[OX2H1][CH3]", 15.5, "~15.5", TEXTBOOK),
