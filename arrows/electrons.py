@@ -710,10 +710,16 @@ def _settle(state: ElectronState, step: Step, step_index: int, replay: _StepRepl
     for key, written, loc, text in replay.written_sinks:
         actual = (changes[key][1] if key in changes else replay.bond_before(*key)) // 2
         if actual != written and not any(d.code in ("AR303", "AR302") for d in diags):
+            hint = (f"write the bond as it is after the step"
+                    f"{': `' + _rewrite(text, actual) + '`' if actual in CONNECTORS else ''}")
+            if replay.bond_before(*key) == 0 and written > actual:
+                # Written as raising the order of a bond the step only makes: the author may have
+                # meant a bond an earlier step should have made (the O-P bond of an oxaphosphetane
+                # whose ring-closing step left it out).
+                hint += (f"; the two are not bonded before this step: if an earlier step was to "
+                         f"bond them, its arrow should end at `{_rewrite(text, 1)}`")
             diags.append(Diagnostic("AR208", f"{text} says the bond will be {order_word(written)}; "
-                                    f"after this step it is {order_word(actual)}", loc,
-                                    f"write the bond as it is after the step"
-                                    f"{': `' + _rewrite(text, actual) + '`' if actual in CONNECTORS else ''}",
+                                    f"after this step it is {order_word(actual)}", loc, hint,
                                     bonds=((state.label(key[0]), state.label(key[1])),), step=step_index))
     if diags and any(d.severity == "error" for d in diags):
         return None, change, diags

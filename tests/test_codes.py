@@ -242,6 +242,10 @@ TWINS = [
          "    C3-H ~> Cl2-H(C3)", "    C3-H ~> Cl2-H", "AR109", "H\n", says=("Cl2 carries no hydrogen",),
          hint_says=("with its electron", "C3-H ~> Cl2-H(C3)")),
     # The C2-H pair makes C2=C3 a double bond; the sink says single.
+    # Aza-Wittig with the oxazaphosphetidine's O-P bond left out of the [2+2] step: the
+    # cycloreversion's `O4=P2` then names a bond that only it makes; the hint points back.
+    Twin("bond an earlier step should have made", TEXTBOOK["aza-wittig"][0], "C3=O4 -> O4-P2", "C3=O4 -> O4",
+         "AR208", "O4=P2", says=("single",), hint_says=("not bonded before this step", "`O4-P2`"), alone=False),
     Twin("sink bond written with the wrong order", E2, "C2-H -> C2=C3", "C2-H -> C2-C3", "AR208",
          "C2-H -> C2-C3", sink=True, says=("double",), hint_says=("`C2=C3`",)),
     Twin("pair arrow from one electron", RADICALS, ".C1 ~> C1-C2", ".C1 -> C1-C2", "AR209", ".C1 -> C1-C2",
