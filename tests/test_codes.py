@@ -358,7 +358,7 @@ TWINS = [
     # The aldol checkpoint placed before water has protonated the alkoxide.
     Twin("missing proton transfer at a checkpoint", ALDOL, "C5=O6 -> O6\n", 'C5=O6 -> O6\n    expect "CC(O)CC=O"\n',
          "AR401", 'expect "CC(O)CC=O"', says=("O6: expected charge 0, the moves give -1", "proton transfer"),
-         hint_says=("proton-transfer",)),
+         hint_says=("proton-transfer", "if the moves are right as they are, write the checkpoint as `CC([O-])CC=O`")),
     # The resonance checkpoint written as the starting contributor: explained bond by bond.
     Twin("checkpoint with bonds as before the step", ENOLATE_RESONANCE, 'expect "C=C(C)[O-]"',
          'expect "[CH2-]C(C)=O"', "AR401", "expect",

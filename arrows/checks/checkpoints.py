@@ -186,6 +186,10 @@ def compare(state: ElectronState, checkpoint: Checkpoint, code: str, step: Optio
             message = f"the {what} {frag.smiles} is a tautomer of the derived {closest.smiles}, not the same form"
             hint = ("add the proton transfers that turn one form into the other (a keto-enol tautomerisation "
                     "takes two), or write the form the moves reach")
+        if closest is not None and hint == _PROTON_HINT:
+            # Or the structure was written without the charge the moves leave (a carboxylate
+            # written as the acid): the derived form is named, for the author to choose.
+            hint += f"; if the moves are right as they are, write the {what} as `{closest.smiles}`"
         if details:
             message += ": " + "; ".join(details)
         else:
@@ -284,6 +288,9 @@ def _nuclide(atom: Chem.Atom) -> str:
     return nuclide(atom.GetSymbol(), atom.GetIsotope())
 
 
+_PROTON_HINT = "add a proton-transfer step, or move the checkpoint after it"
+
+
 def _explain(frag: Fragment, closest: Fragment, state: ElectronState) -> tuple[list[str], Optional[str]]:
     align = _alignment(frag.mol, closest.mol)
     if not align:
@@ -301,7 +308,7 @@ def _explain(frag: Fragment, closest: Fragment, state: ElectronState) -> tuple[l
             if abs(w.GetTotalNumHs() - d.GetTotalNumHs()) == 1 and (
                     w.GetFormalCharge() - d.GetFormalCharge()) == (w.GetTotalNumHs() - d.GetTotalNumHs()):
                 text += " (a proton transfer is missing?)"
-                hint = "add a proton-transfer step, or move the checkpoint after it"
+                hint = _PROTON_HINT
             details.append(text)
         elif w.GetTotalNumHs() != d.GetTotalNumHs():
             details.append(f"{name(di)}: expected {w.GetTotalNumHs()} H, the moves give {d.GetTotalNumHs()}")
