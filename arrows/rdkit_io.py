@@ -91,10 +91,20 @@ def _over_valence(reason: str, smiles: str) -> Optional[tuple[str, int]]:
             f"hydrogens), {_OVER_VALENCE} for {element} with that charge", token.start())
 
 
+# An uncharged atom with one bond more than its usual valence is the onium ion (common practice).
+_ONIUM = {"O": (2, "oxonium", "[O+]"), "N": (3, "ammonium or iminium", "[N+]"), "S": (2, "sulfonium", "[S+]")}
+_WRITTEN_VALENCE = re.compile(r"^\[?([A-Z][a-z]?)(H\d*)?(:\d+)?\]?, atom \d+ as written, would have valence (\d+)")
+
+
 def reading_hint(reason: str, otherwise: str) -> str:
-    """The hint for a SMILES RDKit rejects: for an atom over its valence, how brackets count
-    hydrogens; `otherwise` for any other reason."""
+    """The hint for a SMILES RDKit rejects: for an atom over its valence, the onium ion it may be
+    meant as, or how brackets count hydrogens; `otherwise` for any other reason."""
     if _OVER_VALENCE in reason:
+        match = _WRITTEN_VALENCE.match(reason)
+        if match and match.group(1) in _ONIUM and int(match.group(4)) == _ONIUM[match.group(1)][0] + 1:
+            usual, name, written = _ONIUM[match.group(1)]
+            return (f"{match.group(1)} with {usual + 1} bonds is an {name} ion: write it with its charge, "
+                    f"{written} ([{match.group(1)}H+] if it carries a hydrogen)")
         return ("count the atom's bonds, hydrogens and charge: in brackets it has exactly the hydrogens "
                 "written ([CH3] three, [C] none), and a carbanion [C-] has at most three bonds")
     return otherwise

@@ -275,6 +275,9 @@ TWINS = [
     # RDKit's "atom # 0" is told as the atom written, and the error points at it.
     Twin("SMILES atom over its valence", SN2, '"[CH3:2][Br:3]"', '"[CH3:2](C)[Br:3]"', "AR102", "[CH3:2](C)",
          says=("[CH3:2], atom 1 as written", "valence 5"), hint_says=("exactly the hydrogens written",)),
+    # Methanol's oxygen written with three bonds and no charge: the hint names the oxonium ion.
+    Twin("onium written without its charge", SN2, 'product "CO.[Br-]"', 'product "C[OH2:1].[Br-]"', "AR102",
+         "[OH2:1]", says=("valence 3",), hint_says=("oxonium", "[O+]")),
     # Located where RDKit stopped reading, inside the quotes: the last character before the
     # missing "]".
     Twin("checkpoint SMILES RDKit cannot read", SN2, 'product "CO.[Br-]"', 'product "CO.[Br-"', "AR102", '-"'),
