@@ -680,6 +680,12 @@ class _LayoutBuilder:
         # molecule about to bond does, though no bond ever joins the two.
         self.transfers = [(k, m.source_atoms[0], m.sink_atoms[0]) for k, panel_moves in enumerate(moves)
                           for m in panel_moves if m.source_kind != "bond" and len(m.sink_atoms) == 1]
+        # So does an atom whose lone pair bonds it to another as the two leave together (Br- taking
+        # Ag+, silver bromide let go in that step): the bond is never drawn to place them by.
+        self.transfers += [(k, m.source_atoms[0], next(a for a in m.sink_atoms if a != m.source_atoms[0]))
+                           for k, panel_moves in enumerate(moves[:self.n - 1]) for m in panel_moves
+                           if m.source_kind == "lone_pair" and len(m.sink_atoms) == 2
+                           and m.source_atoms[0] in m.sink_atoms and set(m.sink_atoms) <= self.states[k + 1].released]
         self.atoms = [i for i, z in enumerate(elements) if z != 1 or i in self.drawn_h]
         self.element = {i: elements[i] for i in self.atoms}
         drawn = set(self.atoms)
