@@ -655,6 +655,24 @@ def test_no_atom_is_drawn_inside_a_ring_it_is_not_part_of(text, name):
     assert _atoms_inside_rings(scene) == []
 
 
+@pytest.mark.parametrize("text,name", _mechanisms())
+def test_electron_dots_of_a_ring_atom_stand_outside_its_ring(text, name):
+    """A lone pair or unpaired electron of a ring atom is drawn outside the ring (common practice:
+    dots inside read as the ring's own). The Birch radical anion's and the allyl radical's
+    electron, going into a bond of their own atom, once sat inside the six-membered ring."""
+    _, _, scene = _scene(text, name)
+    for panel in scene.panels:
+        where = {a.index: complex(*a.position) for a in panel.atoms}
+        rings = _panel_rings(panel)
+        for mark in panel.marks:
+            if mark.kind not in ("lone_pair", "radical") or not mark.dots:
+                continue
+            centre = sum(complex(*d) for d in mark.dots) / len(mark.dots)
+            for ring in rings:
+                if mark.atom in ring:
+                    assert not _point_in_polygon(centre, [where[a] for a in ring]), (panel.index, mark.atom, ring)
+
+
 def test_an_epoxidised_silyl_enol_ether_keeps_its_silyloxy_group_outside_the_ring():
     """Rubottom oxidation (textbook account, from memory; undrawn by the other tests): RDKit's own
     depictor set the silyloxy oxygen of the silyl enol ether, drawn where the epoxide it is about

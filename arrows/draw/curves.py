@@ -371,7 +371,10 @@ class ArrowPlanner:
                 # (_clear_marks) if it finds a place clear of the bonds.
                 middle = complex((sign.box.x0 + sign.box.x1) / 2, (sign.box.y0 + sign.box.y1) / 2)
                 occupied.remove(min(occupied, key=lambda d: abs(d - _unit(middle - centre))))
-            ranked = _beside_bond(occupied + labels, toward, near)
+            # Never inside the atom's own ring (a ring carbene's pair going into its new C=C), which
+            # reads as the ring's: the gap there is as wide as the outside's.
+            inside = _inside_own_ring(panel, atom)
+            ranked = (d for d in _beside_bond(occupied + labels, toward, near) if not inside(d))
         else:
             steps = 8 if panel.atoms[atom].box is not None else 24
             ranked = ranked_directions(panel.occupied[atom], toward, spread=0.35, steps=steps)
