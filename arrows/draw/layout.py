@@ -78,6 +78,9 @@ _HOP_OPTIONS = sorted((abs(t) + abs(s) * 0.7 + 8 * e, t, s, e) for t in (0, 1, -
 # A molecule about to bond that finds every spot near its preferred side crowded looks all round
 # its anchor (turns of 20 degrees, the same spins).
 _ROUND_BOND_OPTIONS = sorted((abs(t) + abs(s) * 0.7, t, s, 0.0) for t in range(-9, 10) for s in (0, 1, -1, 2, -2, 6))
+# The same without spins, for a cluster that bonds by an sp atom (a diazo compound's middle N).
+_STRAIGHT_BOND_OPTIONS = [o for o in _BOND_OPTIONS if o[2] == 0]
+_STRAIGHT_ROUND_BOND_OPTIONS = [o for o in _ROUND_BOND_OPTIONS if o[2] == 0]
 # A chain end (one bond of its own) bonds on at 120 degrees to that bond (_joining_side): a spin
 # about it opens the angle to 150 or 180 (a methylamine's N straight between its methyl and the
 # C it joins) or closes it. Where a spot is clear with the angle kept or mirrored (a spin of 120
@@ -2214,7 +2217,9 @@ class _LayoutBuilder:
                     for ring in self._closed_rings(kk)
                     if all(a in self.positions[kk] and a not in mine and a != hydrogen for a in ring)]
         anchor_at = self.positions[k][anchor]
-        options = _BOND_OPTIONS if kind == "bond" else _HOP_OPTIONS
+        # An sp atom that bonds on keeps its straight angle: the cluster is not spun about it.
+        straight = kind == "bond" and self._linear(mover, range(k, k + 1))
+        options = (_STRAIGHT_BOND_OPTIONS if straight else _BOND_OPTIONS) if kind == "bond" else _HOP_OPTIONS
         hydrogen_on_mover = hydrogen is not None and kind == "hop" and self._holder(k, hydrogen) == mover
         # For a hop or a transfer, a spot from which the arrow to the anchor's side crosses no bond is preferred.
         walls = self._walls(segment, anchor, set(cluster.atoms)) if kind != "bond" else np.zeros((0, 2), dtype=complex)
@@ -2537,7 +2542,8 @@ class _LayoutBuilder:
         roomiest), for a molecule about to bond that found every spot near its preferred side
         crowded (an amine coming in on an anhydride's carbonyl, whose acetate arm fills that
         side)."""
-        round_about = placements.like(_ROUND_BOND_OPTIONS)
+        round_about = placements.like(_STRAIGHT_ROUND_BOND_OPTIONS if placements.options is _STRAIGHT_BOND_OPTIONS
+                                      else _ROUND_BOND_OPTIONS)
         round_about.batch = 64
         best = None
         for gap, _, moved, direction, rotation, target in round_about:
