@@ -655,12 +655,9 @@ def test_no_atom_is_drawn_inside_a_ring_it_is_not_part_of(text, name):
     assert _atoms_inside_rings(scene) == []
 
 
-@pytest.mark.parametrize("text,name", _mechanisms())
-def test_electron_dots_of_a_ring_atom_stand_outside_its_ring(text, name):
-    """A lone pair or unpaired electron of a ring atom is drawn outside the ring (common practice:
-    dots inside read as the ring's own). The Birch radical anion's and the allyl radical's
-    electron, going into a bond of their own atom, once sat inside the six-membered ring."""
-    _, _, scene = _scene(text, name)
+def _dots_inside_rings(scene) -> list[tuple[int, int]]:
+    """(panel, atom) for each lone pair or unpaired electron drawn inside a ring of its atom."""
+    out = []
     for panel in scene.panels:
         where = {a.index: complex(*a.position) for a in panel.atoms}
         rings = _panel_rings(panel)
@@ -668,9 +665,26 @@ def test_electron_dots_of_a_ring_atom_stand_outside_its_ring(text, name):
             if mark.kind not in ("lone_pair", "radical") or not mark.dots:
                 continue
             centre = sum(complex(*d) for d in mark.dots) / len(mark.dots)
-            for ring in rings:
-                if mark.atom in ring:
-                    assert not _point_in_polygon(centre, [where[a] for a in ring]), (panel.index, mark.atom, ring)
+            if any(mark.atom in ring and _point_in_polygon(centre, [where[a] for a in ring]) for ring in rings):
+                out.append((panel.index, mark.atom))
+    return out
+
+
+@pytest.mark.parametrize("text,name", _mechanisms())
+def test_electron_dots_of_a_ring_atom_stand_outside_its_ring(text, name):
+    """A lone pair or unpaired electron of a ring atom is drawn outside the ring (common practice:
+    dots inside read as the ring's own). The Birch radical anion's and the allyl radical's
+    electron, going into a bond of their own atom, once sat inside the six-membered ring."""
+    _, _, scene = _scene(text, name)
+    assert _dots_inside_rings(scene) == []
+
+
+def test_a_cyclohexyl_radical_reaches_a_tin_hydride_from_outside_its_ring():
+    """Barton-McCombie deoxygenation (undrawn by the other tests): the cyclohexyl radical's
+    electron, going to the H of tributyltin hydride that stands beyond its ring, sat inside the
+    ring, facing the hydrogen; it is drawn outside and the fishhook curves round."""
+    _, _, scene = _scene(TEXTBOOK["barton-mccombie"][0], "barton-mccombie")
+    assert _dots_inside_rings(scene) == []
 
 
 def test_an_epoxidised_silyl_enol_ether_keeps_its_silyloxy_group_outside_the_ring():

@@ -371,13 +371,15 @@ class ArrowPlanner:
                 # (_clear_marks) if it finds a place clear of the bonds.
                 middle = complex((sign.box.x0 + sign.box.x1) / 2, (sign.box.y0 + sign.box.y1) / 2)
                 occupied.remove(min(occupied, key=lambda d: abs(d - _unit(middle - centre))))
-            # Never inside the atom's own ring (a ring carbene's pair going into its new C=C), which
-            # reads as the ring's: the gap there is as wide as the outside's.
-            inside = _inside_own_ring(panel, atom)
-            ranked = (d for d in _beside_bond(occupied + labels, toward, near) if not inside(d))
+            ranked = _beside_bond(occupied + labels, toward, near)
         else:
             steps = 8 if panel.atoms[atom].box is not None else 24
             ranked = ranked_directions(panel.occupied[atom], toward, spread=0.35, steps=steps)
+        # Never inside the atom's own ring (a ring carbene's pair going into its new C=C, a
+        # cyclohexyl radical's electron reaching for a tin hydride's H beyond the ring), where
+        # they read as the ring's: the arrow curves round from outside.
+        inside = _inside_own_ring(panel, atom)
+        ranked = (d for d in ranked if not inside(d))
         if move.source_kind == "unpaired":
             # The structure's radical dot moves to face the arrow.
             panel.marks[:] = [m for m in panel.marks if not (m.kind == "radical" and m.atom == atom)]
