@@ -14,6 +14,7 @@ from __future__ import annotations
 
 import cmath
 import math
+from collections import Counter
 from itertools import combinations
 from pathlib import Path
 
@@ -694,6 +695,31 @@ def test_an_epoxidised_silyl_enol_ether_keeps_its_silyloxy_group_outside_the_rin
     (coordgen) draws it outside, and is taken there."""
     _, _, scene = _scene(TEXTBOOK["rubottom oxidation"][0], "rubottom oxidation")
     assert _atoms_inside_rings(scene) == []
+
+
+@pytest.mark.parametrize("text,name", _mechanisms())
+def test_the_last_panel_writes_small_by_products_whole(text, name):
+    """In the last panel a small by-product that took a proton is written as chemists write it,
+    H3O+ or H2O (common practice), not with that proton drawn out as H-OH2+; the product keeps its
+    moved hydrogen, to show where it went. Labelled hydrogens (D, T) are always drawn."""
+    trace, _, scene = _scene(text, name)
+    final = trace.steps[-1].after if trace.steps else trace.initial
+    panel = scene.panels[-1]
+    molecule = {a.index: a.index for a in panel.atoms}
+
+    def root(i):
+        while molecule[i] != i:
+            i = molecule[i]
+        return i
+    for bond in panel.bonds:
+        a, b = root(bond.atoms[0]), root(bond.atoms[1])
+        molecule[max(a, b)] = min(a, b)
+    heavy = Counter(root(a.index) for a in panel.atoms if a.element != "H")
+    largest = max(heavy.values(), default=0)
+    for atom in panel.atoms:
+        if atom.element == "H" and not final.mol.GetAtomWithIdx(atom.index).GetIsotope():
+            size = heavy[root(atom.index)]
+            assert not (size <= 3 and size < largest), (atom.name, size)
 
 
 @pytest.mark.parametrize("text,name", _mechanisms())

@@ -3025,7 +3025,8 @@ class _LayoutBuilder:
             hydrogens = a.GetTotalNumHs()
         else:   # the label writes every hydrogen of the atom but those drawn as atoms of their own there
             hydrogens = a.GetTotalNumHs(includeNeighbors=True) - sum(
-                1 for n in a.GetNeighbors() if n.GetAtomicNum() == 1 and n.GetIdx() in self.positions[k])
+                1 for n in a.GetNeighbors() if n.GetAtomicNum() == 1 and n.GetIdx() in self.positions[k]
+                and n.GetIdx() in self.exists[k])
         characters = len(a.GetSymbol()) + (0 if not hydrogens else 1 if hydrogens == 1 else 2) \
             + (1 if a.GetFormalCharge() else 0)
         return 0.15 + 0.33 * characters

@@ -141,6 +141,9 @@ def _without_idle_spectators(sources: list[_PanelSource], product: frozenset[int
             atoms = set(frag) - src.state.released
             if atoms and not atoms & near:
                 idle |= atoms
+        if src.leaving is None:
+            # (the last panel writes a small by-product whole: H3O+, not H-OH2+)
+            idle |= _hydrogens_of_small_by_products(src.state)
         src.idle = frozenset(idle)
     return sources
 
@@ -272,8 +275,8 @@ class _SceneBuilder:
         # one (D, T) is drawn wherever it is.
         nearby = [m for st in (src.leaving, src.arriving) if st is not None for m in st.change.moves]
         drawn_h = layout.drawn_hydrogens
-        shown_h = (frozenset(i for m in nearby for i in m.source_atoms + m.sink_atoms)
-                   | layout.labelled_hydrogens) & drawn_h
+        shown_h = ((frozenset(i for m in nearby for i in m.source_atoms + m.sink_atoms)
+                    | layout.labelled_hydrogens) & drawn_h) - src.idle   # (an idle one is written in its label)
         visible = tuple([i for i in placed.visible if i not in src.hidden and i not in src.idle
                          and (i not in drawn_h or i in shown_h)])
         positions = {i: placed.positions[i] * bl for i in visible}
@@ -506,6 +509,19 @@ class _SceneBuilder:
                       panels=tuple(placed_panels), reaction_arrows=tuple(arrows), texts=tuple(texts),
                       notes=())
         return scene, self.fit
+
+
+def _hydrogens_of_small_by_products(state: ElectronState) -> frozenset[int]:
+    """The unlabelled hydrogen atoms of the molecules of at most three heavy atoms that are not the
+    largest: in the last panel a hydronium or water that took a proton is written H3O+ or H2O, as
+    chemists write it, not with that proton drawn out (the product keeps its own, to show where
+    it went; a D or T is always drawn)."""
+    molecules = Chem.GetMolFrags(state.mol, asMols=False, sanitizeFrags=False)
+    elements, mol = state.elements, state.mol
+    heavy = [sum(1 for i in m if elements[i] != 1) for m in molecules]
+    largest = max(heavy, default=0)
+    return frozenset(h for m, n in zip(molecules, heavy) if n <= 3 and n < largest for h in m
+                     if elements[h] == 1 and not mol.GetAtomWithIdx(h).GetIsotope())
 
 
 def _drawable(moves: list[ResolvedMove], structure: PanelStructure) -> list[ResolvedMove]:
