@@ -724,14 +724,6 @@ class _LayoutBuilder:
             self.neighbours[j].add(i)
         self.hops = self._hydrogen_hops()
         self._changed: dict[int, frozenset[tuple[int, int]]] = {}   # _changed_bonds' answers, by step
-        # Chain C=C bonds with no written geometry, each with the heavy substituent on either end:
-        # drawn trans (the zigzag of common practice) where no ring holds them.
-        self.chain_double = self._chain_double_bonds()
-        self.positions: list[dict[int, complex]] = [dict() for _ in range(self.n)]
-        self.backside = self._backside_substitutions(moves)
-        self.molecules = [_molecules(state) for state in self.states]
-        self.joining = [_joining(self.states[k], self.molecules[k], self.molecules[k + 1])
-                        for k in range(self.n - 1)] + [set()]
         self.sp_atoms: dict[tuple[int, int, int], bool] = {}    # _linear's answers, asked again and again
         # The atoms _bends looks at: two or more heavy partners over the mechanism, with a
         # triple bond or two double bonds among them (a carbonyl carbon, with one, is not). No
@@ -741,6 +733,14 @@ class _LayoutBuilder:
             orders = [self.union[(min(atom, n), max(atom, n))] for n in self.neighbours[atom] if self.element[n] != 1]
             if len(orders) >= 2 and (3 in orders or orders.count(2) >= 2):
                 self.may_bend.add(atom)
+        # Chain C=C bonds with no written geometry, each with the heavy substituent on either end:
+        # drawn trans (the zigzag of common practice) where no ring holds them.
+        self.chain_double = self._chain_double_bonds()
+        self.positions: list[dict[int, complex]] = [dict() for _ in range(self.n)]
+        self.backside = self._backside_substitutions(moves)
+        self.molecules = [_molecules(state) for state in self.states]
+        self.joining = [_joining(self.states[k], self.molecules[k], self.molecules[k + 1])
+                        for k in range(self.n - 1)] + [set()]
 
     # structure of the problem
     def _heterolyses(self, moves: Sequence[Sequence[ResolvedMove]]) -> dict[int, list[tuple[int, int]]]:
@@ -1367,6 +1367,8 @@ class _LayoutBuilder:
                           and (min(end, n), max(end, n)) in self.bonds_in[k]] for end, other in ((i, j), (j, i))]
                 if len(heavy[0]) != 1 or len(heavy[1]) != 1 or self._joined_around(i, j, k):
                     continue
+                if self._linear(i, range(k, k + 1)) or self._linear(j, range(k, k + 1)):
+                    continue   # an allene's end: its neighbours stand in line, neither cis nor trans
                 a, b, panels = found.get((i, j), (heavy[0][0], heavy[1][0], []))
                 found[(i, j)] = (a, b, panels + [k])
         return found
@@ -1724,11 +1726,20 @@ class _LayoutBuilder:
                 for k in panels:
                     orders = self.orders_in[k]
                     a, b = orders.get(first), orders.get(second)
-                    if a == 3 or b == 3 or (a == 2 and b == 2):
+                    if a == 3 or b == 3 or (a == 2 and b == 2) or (
+                            (a, b) in ((2, 1), (1, 2)) and self._vinyl_cation(atom, k)):
                         linear = True
                         break
             self.sp_atoms[key] = linear
         return linear
+
+    def _vinyl_cation(self, atom: int, k: int) -> bool:
+        """Whether the atom is a cation with no electrons of its own and no hydrogen in state k:
+        beside a double bond and one single bond, a vinyl cation, which is linear (the allenyl
+        cation of a Meyer-Schuster rearrangement, C=C=C+-Ph; common practice)."""
+        state = self.states[k]
+        return (atom < len(state.nonbonding) and state.formal_charge(atom) > 0 and not state.nonbonding[atom]
+                and not state.mol.GetAtomWithIdx(atom).GetTotalNumHs(includeNeighbors=True))
 
     def _bends(self, group: list[int]) -> bool:
         """Whether an atom of the group is straight (sp) in some panel but not over all of them:
