@@ -1477,6 +1477,8 @@ class _LayoutBuilder:
                 # ends facing each other across a gap, not stretched out with the arrow spanning it.
                 local = self._straightened(self._depict(group, bonds, range(start, end + 1), closing),
                                            bonds, closing, range(start, end + 1))
+            if not runs:
+                local = self._pieces_facing(local, group, bonds, end)
             if runs:
                 # RDKit lays separate pieces side by side at will: each piece is aligned on its own.
                 pieces = _UnionFind(group)
@@ -1492,6 +1494,36 @@ class _LayoutBuilder:
             runs.append((start, local))
             start = end + 1
         return runs[0][1], runs[1:]
+
+    def _pieces_facing(self, local: dict[int, complex], group: list[int], bonds: set[tuple[int, int]],
+                       last: int) -> dict[int, complex]:
+        """`local` (the first run's depiction, drawn from `bonds`) with the smaller of two separate
+        pieces that the step after panel `last` bonds together by one bond turned and moved to
+        face the other across CYCLOADDITION_GAP, each atom of the new bond in its free gap (a ketene
+        facing the imine nitrogen that adds to it), where RDKit, which lays separate pieces side by
+        side at will, turned one of those atoms away from the other. Unchanged for anything else."""
+        pieces = _UnionFind(group)
+        for i, j in bonds:
+            pieces.join(i, j)
+        if len(pieces.groups()) != 2 or last + 1 >= self.n:
+            return local
+        members = set(group)
+        joining = [(i, j) for i, j in self.bonds_in[last + 1] - self.bonds_in[last]
+                   if i in members and j in members and pieces.find(i) != pieces.find(j)]
+        if len(joining) != 1:
+            return local
+        small, large = sorted(pieces.groups(), key=len)
+        j, i = joining[0] if joining[0][0] in small else joining[0][::-1]   # j in the small piece, i in the large
+        adjacent = _adjacency(bonds)
+        u = free_direction(local[i], [local[n] for n in adjacent.get(i, ())])
+        v = free_direction(local[j], [local[n] for n in adjacent.get(j, ())])
+        gap = local[j] - local[i]
+        if abs(cmath.phase(gap / u)) <= math.pi / 2 and abs(cmath.phase(-gap / v)) <= math.pi / 2:
+            return local   # RDKit set them facing each other already, more or less
+        turn = -u / v
+        target = local[i] + u * CYCLOADDITION_GAP
+        moved = {a: target + (local[a] - local[j]) * turn for a in small}
+        return {**local, **moved}
 
     def _opens_small_ring(self, group: list[int], k: int) -> bool:
         """Whether the step after panel k breaks one bond of a three- or four-membered ring of
