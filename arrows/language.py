@@ -168,16 +168,16 @@ class _ToModel:
 
     # step parts: tagged tuples, gathered by `step`
     def reversible(self, children):
-        return ("kind", "reversible")
+        return ("kind", "reversible", self._at(children[0]))
 
     def resonance(self, children):
-        return ("kind", "resonance")
+        return ("kind", "resonance", self._at(children[0]))
 
     def over(self, children):
-        return ("over", self._text(children[1]))
+        return ("over", self._text(children[1]), self._at(children[0]))
 
     def under(self, children):
-        return ("under", self._text(children[1]))
+        return ("under", self._text(children[1]), self._at(children[0]))
 
     def uses(self, children):
         return ("uses", self.species(children))
@@ -206,16 +206,19 @@ class _ToModel:
             elif item[0] == "expect":
                 expects.append(item[1])
             else:
-                fields[item[0]] = item[1]
+                key, value, loc = item
+                if fields[key] not in (None, "forward"):
+                    raise _LanguageSlip(loc, *_said_twice(key, fields[key], value))
+                fields[key] = value
         return Step(label, fields["kind"], fields["over"], fields["under"], tuple(uses), tuple(moves),
                     tuple(releases), tuple(expects), self._at(children[0]))
 
     # top level
     def title(self, children):
-        return ("title", self._text(children[1]))
+        return ("title", self._text(children[1]), self._at(children[0]))
 
     def caption(self, children):
-        return ("caption", self._text(children[1]))
+        return ("caption", self._text(children[1]), self._at(children[0]))
 
     def species(self, children):
         keyword, name, _, smiles = children
@@ -232,6 +235,19 @@ class _ToModel:
         return children
 
 
+def _said_twice(key: str, first: str, second: str) -> tuple[str, str]:
+    """Message and hint for a step option or a file's title or caption written twice: the last
+    would silently win (a `resonance reversible` step would escape the resonance checks)."""
+    if key == "kind" and first == second:
+        return f"`{first}` is written twice", f"write `{first}` once"
+    if key == "kind":
+        return (f"a step is `{first}` or `{second}`, not both",
+                "a resonance step (double-headed arrow) moves electrons only; a reversible one (equilibrium "
+                "arrow) is a real step: keep the one meant")
+    return (f"`{key}` is written twice: \"{first}\" and \"{second}\"",
+            f"write one `{key}` with both texts in it: {key} \"{first}; {second}\"")
+
+
 def _assemble(items, file: str) -> Mechanism:
     """The statements of a file, in order, as one Mechanism."""
     fields: dict = {"title": None, "caption": None, "product": None}
@@ -244,8 +260,14 @@ def _assemble(items, file: str) -> Mechanism:
             species.append(item)
         elif isinstance(item, Step):
             steps.append(item)
+        elif item[0] == "product":
+            fields["product"] = item[1]
         else:
-            fields[item[0]] = item[1]
+            key, value, loc = item
+            if fields[key] is not None:
+                message, hint = _said_twice(key, fields[key], value)
+                raise MechanismError([Diagnostic("AR101", message, loc, hint=hint)])
+            fields[key] = value
     return Mechanism(fields["title"], fields["caption"], tuple(species), tuple(steps), fields["product"],
                      file, tuple(after_product))
 

@@ -172,6 +172,20 @@ def test_step_options(options, kind, over, under):
     assert (step.kind, step.over, step.under) == (kind, over, under)
 
 
+@pytest.mark.parametrize("text, line, column, says", [
+    # `resonance reversible` once kept the last word: the step escaped the resonance checks.
+    ('step "s" resonance reversible\n    :O1 -> C2\nend\n', 1, 20, "`resonance` or `reversible`, not both"),
+    ('step "s" reversible reversible\n    :O1 -> C2\nend\n', 1, 21, "`reversible` is written twice"),
+    ('step "s" over "a" over "b"\n    :O1 -> C2\nend\n', 1, 19, '`over` is written twice: "a" and "b"'),
+    ('step "s" under "a" under "b"\n    :O1 -> C2\nend\n', 1, 20, "`under` is written twice"),
+    ('title "a"\ntitle "b"\n', 2, 1, '`title` is written twice: "a" and "b"'),
+    ('caption "a"\nspecies w = "O"\ncaption "b"\n', 3, 1, "`caption` is written twice"),
+])
+def test_an_option_or_heading_written_twice_is_an_error(text, line, column, says):
+    d = syntax_error(text)
+    assert (d.code, d.loc.line, d.loc.column) == ("AR101", line, column) and says in d.message and d.hint
+
+
 def test_uses_releases_expect_and_expect_all():
     m = parse('''\
 step "s"
