@@ -75,3 +75,11 @@ def hexadiene_cycloaddition(second_end: str, dienophile: str) -> str:
 # Diels-Alder reactions whose diene ends the replay configures (demo data).
 DIENE_ENDS = {"E,E-hexadiene and ethene": hexadiene_cycloaddition("/", "[CH2:5]=[CH2:6]"),
               "E,Z-hexadiene and ethene": hexadiene_cycloaddition("\\\\", "[CH2:5]=[CH2:6]")}
+
+# Butadiene with dimethyl fumarate (E) and maleate (Z): the dienophile's geometry is kept, trans
+# and cis diesters (suprafacial on the dienophile; textbook Diels-Alder outcome, from memory).
+_BUTADIENE_AND = ('species diene = "[CH2:1]=[CH:2][CH:3]=[CH2:4]"\nspecies dienophile = "COC(=O)/[CH:5]=[CH:6]{}C(=O)OC"\n'
+                  'step "cycloaddition"\n    C1=C2 -> C2=C3\n    C3=C4 -> C4-C5\n    C5=C6 -> C6-C1\nend\n')
+DIENOPHILES = {"butadiene and dimethyl fumarate": _BUTADIENE_AND.format("/"),
+               "butadiene and dimethyl maleate": _BUTADIENE_AND.format("\\\\")}
+

@@ -24,7 +24,7 @@ from rdkit import Chem
 import arrows
 from arrows.draw import STYLES, build_scene
 
-from stereo_mechanisms import CENTRES, DOUBLE_BONDS
+from stereo_mechanisms import CENTRES, DIENOPHILES, DOUBLE_BONDS
 from textbook_mechanisms import TEXTBOOK
 
 ROOT = Path(__file__).resolve().parents[1]
@@ -195,7 +195,7 @@ def _mechanisms():
     out += [pytest.param(text, name, id=name) for name, text in OWN.items()]
     out += [pytest.param(text, name, id=name.replace(" ", "-")) for name, (text, _, drawn) in TEXTBOOK.items() if drawn]
     out += [pytest.param(text, name, id=name.replace(" ", "-").replace(",", "")) for name, text in
-            (CENTRES | DOUBLE_BONDS).items()]   # wedges, and double bonds drawn Z
+            (CENTRES | DOUBLE_BONDS | DIENOPHILES).items()]   # wedges, double bonds drawn Z, E/Z dienophiles
     return out
 
 
@@ -1215,6 +1215,34 @@ def test_a_ketene_waits_facing_the_imine_nitrogen_that_adds_to_it():
     where = {a.index: complex(*a.position) for a in scene.panels[0].atoms}
     assert abs(where[by_map[5]] - where[by_map[2]]) / scene.bond_length <= 1.9
     assert [c for c in _bonds_crossed(scene) if c[0] == 0] == []
+
+
+@pytest.mark.parametrize("name, step, entering, centre, bridge, partner, fused", [
+    ("17-stilbene-bromination.mech", 1, 4, 1, 3, 2, False),
+    ("azide epoxide opening", 0, 4, 1, 3, 2, False),
+    ("acid epoxide opening", 1, 5, 1, 3, 2, False),
+    ("bromination", 1, 4, 1, 3, 2, True),
+    ("halohydrin", 1, 5, 1, 3, 2, True),
+])
+def test_a_three_membered_ring_is_opened_from_the_face_opposite_its_bridge(name, step, entering, centre, bridge,
+                                                                          partner, fused):
+    """A bromonium ion or an epoxide is opened anti: the nucleophile comes in on the face opposite
+    the bridging atom (common practice in organic chemistry texts). Drawn flat, it waits on the
+    other side of the ring bond (centre-partner) from the bridge; where a ring fused on that bond
+    fills the other side (cyclohexene's bromonium ion), it waits outside, nearer the centre it
+    attacks than the bridge. The bromide of the Br2 that made the cyclohexene's bromonium ion, and
+    the water of the halohydrin, once waited beside the bridging Br+ (the bromide 2.6 bond lengths
+    from it and 3.5 from the carbon), their arrows curling round it."""
+    text = (ROOT / "gallery" / name).read_text(encoding="utf-8") if name.endswith(".mech") else TEXTBOOK[name][0]
+    trace, _, scene = _scene(text, name)
+    by_map = {a.GetAtomMapNum(): a.GetIdx() for a in trace.initial.mol.GetAtoms() if a.GetAtomMapNum()}
+    panel = next(p for p in scene.panels if p.step == step)
+    where = {a.index: complex(*a.position) for a in panel.atoms}
+    e, c, b, p = (where[by_map[m]] for m in (entering, centre, bridge, partner))
+    if fused:
+        assert abs(e - c) < abs(e - b)
+    else:
+        assert ((e - c) / (p - c)).imag * ((b - c) / (p - c)).imag < 0
 
 
 @pytest.mark.parametrize("name, centre, ends", [

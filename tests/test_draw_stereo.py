@@ -29,7 +29,7 @@ from arrows.draw import STYLES, build_scene
 from arrows.draw.scheme import _panel_sources
 
 from small_mechanisms import CORRECT
-from stereo_mechanisms import CENTRES, DIENE_ENDS, DOUBLE_BONDS, ELIMINATIONS, SYN_ADDITIONS
+from stereo_mechanisms import CENTRES, DIENE_ENDS, DIENOPHILES, DOUBLE_BONDS, ELIMINATIONS, SYN_ADDITIONS
 from textbook_mechanisms import TEXTBOOK
 
 GALLERY = sorted((Path(__file__).resolve().parents[1] / "gallery").glob("*.mech"))
@@ -37,7 +37,7 @@ GALLERY = sorted((Path(__file__).resolve().parents[1] / "gallery").glob("*.mech"
 # Configurations written in a species, and those a syn addition or a diene's ends derive (configuration.py).
 STILBENE = {"stilbene (gallery)": (GALLERY[0].parent / "17-stilbene-bromination.mech").read_text(encoding="utf-8")}
 STEREO = ({name: TEXTBOOK[name][0] for name in ("sn2 inversion", "epoxide opening", "bromination", "epoxidation")}
-          | CENTRES | SYN_ADDITIONS | DIENE_ENDS | STILBENE)
+          | CENTRES | SYN_ADDITIONS | DIENE_ENDS | DIENOPHILES | STILBENE)
 
 
 def _states(trace):

@@ -787,3 +787,21 @@ def _diastereomers(mol: Chem.Mol) -> list:
     """Every configuration of `mol`'s stereocentres (RDKit's enumeration)."""
     options = StereoEnumerationOptions(onlyUnassigned=False, unique=True)
     return list(EnumerateStereoisomers(mol, options=options))
+
+
+@pytest.mark.parametrize("name, same_labels", [("butadiene and dimethyl fumarate", True),
+                                               ("butadiene and dimethyl maleate", False)])
+def test_a_diels_alder_keeps_the_dienophile_geometry(name, same_labels):
+    """Suprafacial on the dienophile (textbook Diels-Alder outcome, from memory): dimethyl
+    fumarate (E) gives the trans diester, (R,R) or (S,S); dimethyl maleate (Z) the cis one, meso
+    (R,S). RDKit's CIP labeller judges the derived product."""
+    from stereo_mechanisms import DIENOPHILES
+    from rdkit.Chem import rdCIPLabeler
+
+    trace, diags = check_text(DIENOPHILES[name])
+    assert not [d for d in diags if d.severity == "error"]
+    product = Chem.Mol(trace.final.mol)
+    Chem.SanitizeMol(product)
+    rdCIPLabeler.AssignCIPLabels(product)
+    labels = sorted(a.GetProp("_CIPCode") for a in product.GetAtoms() if a.HasProp("_CIPCode"))
+    assert len(labels) == 2 and (labels[0] == labels[1]) == same_labels, labels

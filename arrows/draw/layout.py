@@ -1692,6 +1692,11 @@ class _LayoutBuilder:
             if bond is not None and a in index and b in index and bond.GetBondType() == Chem.BondType.DOUBLE:
                 if (i, j) not in self.written_double and rings.NumBondRings(bond.GetIdx()):
                     continue   # a chain alkene in the ring these bonds close (a triene curled to cyclise): cis
+                if not cis and rings.NumBondRings(bond.GetIdx()) and rings.MinBondRingSize(bond.GetIdx()) <= 7:
+                    # A trans double bond in a ring of seven or fewer (an E dienophile inside the
+                    # ring its adduct closes) cannot be drawn: asked for, RDKit folds the ring. The
+                    # panels where it is a chain alkene get a depiction of their own (_phases).
+                    continue
                 bond.SetStereoAtoms(index[a] if bond.GetBeginAtomIdx() == index[i] else index[b],
                                     index[b] if bond.GetBeginAtomIdx() == index[i] else index[a])
                 bond.SetStereo(Chem.BondStereo.STEREOCIS if cis else Chem.BondStereo.STEREOTRANS)
@@ -2780,9 +2785,26 @@ class _LayoutBuilder:
         if centre not in before or leaving not in before or centre not in self.positions[first]:
             return placement
         toward = -_unit(before[leaving] - before[centre])
-        others = [_unit(before[n] - before[centre]) for n in self.neighbours[centre]
-                  if n not in (e, leaving) and n in before and n in self.exists[first - 1]]
-        if any(abs(cmath.phase(toward / o)) < _BACKSIDE_ROOM for o in others):
+        bonded = [n for n in self.neighbours[centre] if n not in (e, leaving) and n in before
+                  and n in self.exists[first - 1] and (min(n, centre), max(n, centre)) in self.bonds_in[first - 1]]
+        others = [_unit(before[n] - before[centre]) for n in bonded]
+        bridged = next((n for n in bonded if (min(n, leaving), max(n, leaving)) in self.bonds_in[first - 1]), None)
+        if bridged is not None:
+            # A three-membered ring opened (a bromonium ion, an epoxide): the far side is across
+            # the ring bond from the bridging atom, in the gap on that side (the face opposite the
+            # bridge, as chemists draw the anti opening); straight behind the leaving group lies
+            # along the ring.
+            axis = _unit(before[bridged] - before[centre])
+            away = axis * (-1j if ((before[leaving] - before[centre]) / axis).imag > 0 else 1j)
+            # (Of the gaps outside every ring: a cyclohexane fused to the bromonium ion fills the
+            # far side, and the bromide comes in beside it.)
+            rings = [[before[a] for a in ring] for ring in self._closed_rings(first - 1)]
+            gaps = [cmath.rect(1.0, (a + b) / 2) for a, b in _gaps(0j, others + [_unit(before[leaving] - before[centre])])]
+            gaps = [d for d in gaps if not _any_inside([before[centre] + 0.5 * d], rings)]
+            if not gaps:
+                return placement
+            toward = max(gaps, key=lambda d: (d * away.conjugate()).real)
+        elif any(abs(cmath.phase(toward / o)) < _BACKSIDE_ROOM for o in others):
             # No clear line behind the leaving group (POCl3's three other ligands): the gap
             # nearest it, so that the nucleophile does not wait behind the group it displaces;
             # unless that gap is the inside of a ring (the cyclohexane behind a bromonium ion).
@@ -2966,8 +2988,13 @@ class _LayoutBuilder:
                     previous = cluster.placement[start]
                 else:
                     stay = self._split_off(index, (start, end), previous)
-                    if following is not None and following[0] == end + 1 and self._bonds_on_arrival(cluster, following[0]) and \
-                            self._nearest_other(index, (start, end), stay) < _CROWDED:
+                    displaces = following is not None and following[0] == end + 1 and any(
+                        (following[0], a) in self.backside for a in cluster.atoms)
+                    if following is not None and following[0] == end + 1 and self._bonds_on_arrival(cluster, following[0]) and (
+                            displaces or self._nearest_other(index, (start, end), stay) < _CROWDED):
+                        # (Also when it goes on to displace a leaving group: it waits on the far
+                        # side, not where it fell off, beside that group: the bromide of Br2 by
+                        # the bromonium ion it opens next.)
                         # Between two acts and about to bond again, where something else now
                         # stands where it was (the bromide of an Appel reaction, off phosphorus
                         # as the oxygen takes its place): it waits facing its next partner.
