@@ -386,12 +386,14 @@ def _tags_read_off(mol: Chem.Mol, place: dict[int, tuple[float, float, float]], 
 
 
 def _model(mol: Chem.Mol, place: dict[int, tuple[float, float, float]]) -> Optional[Chem.Mol]:
-    """A copy of `mol` with the atoms of `place` at those coordinates (the rest at the origin), its
-    stereo read off them by RDKit; None when RDKit cannot perceive it."""
+    """A copy of `mol` with the atoms of `place` at those coordinates, its stereo read off them by
+    RDKit; None when RDKit cannot perceive it. The rest stand far off, each at a point of its
+    own: on one point, a reagent's other atoms (the oxo groups of OsO4) gave RDKit bonds of zero
+    length to read."""
     model = Chem.Mol(mol)
     conformer = Chem.Conformer(model.GetNumAtoms())
-    for i, xyz in place.items():
-        conformer.SetAtomPosition(i, xyz)
+    for i in range(model.GetNumAtoms()):
+        conformer.SetAtomPosition(i, place.get(i, (50.0 + 3.0 * i, 40.0 + 1.7 * (i % 7), -30.0 - 2.3 * i)))
     model.RemoveAllConformers()
     model.AddConformer(conformer, assignId=True)
     try:

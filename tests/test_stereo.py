@@ -805,3 +805,20 @@ def test_a_diels_alder_keeps_the_dienophile_geometry(name, same_labels):
     rdCIPLabeler.AssignCIPLabels(product)
     labels = sorted(a.GetProp("_CIPCode") for a in product.GetAtoms() if a.HasProp("_CIPCode"))
     assert len(labels) == 2 and (labels[0] == labels[1]) == same_labels, labels
+
+
+def test_osmium_tetroxide_adds_syn_to_a_z_alkene():
+    """OsO4 adds both oxygens to one face of (Z)-but-2-ene through a cyclic osmate ester (textbook
+    syn dihydroxylation, from memory): the two new centres are (R,S), the meso arrangement, by
+    RDKit's CIP labeller. The 3D model the configuration is read from had put the oxo groups on
+    one point, RDKit could not read it, and both centres were left unconfigured."""
+    from textbook_mechanisms import TEXTBOOK
+    from rdkit.Chem import rdCIPLabeler
+
+    trace, diags = check_text(TEXTBOOK["osmium dihydroxylation"][0])
+    assert not [d for d in diags if d.severity != "note"], [d.to_text() for d in diags]
+    product = Chem.Mol(trace.final.mol)
+    Chem.SanitizeMol(product)
+    rdCIPLabeler.AssignCIPLabels(product)
+    labels = sorted(a.GetProp("_CIPCode") for a in product.GetAtoms() if a.HasProp("_CIPCode"))
+    assert labels == ["R", "S"], labels

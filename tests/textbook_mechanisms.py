@@ -5072,6 +5072,23 @@ product "CC(C)=O.CC(=O)OI1OC(=O)c2ccccc21"
 '''
 
 
+# Syn dihydroxylation of (Z)-but-2-ene by OsO4 (textbook account, from memory): a concerted
+# [3+2] cycloaddition puts both oxygens on one face, giving the cyclic osmate ester of the meso
+# diol (cis methyls).
+OSMIUM_DIHYDROXYLATION = '''\
+title "Syn dihydroxylation of (Z)-but-2-ene by OsO4"
+species alkene = "C/[CH:1]=[CH:2]\\\\C"
+species osmium = "[O:3]=[Os:4](=[O:5])(=O)=O"
+step "[3+2] cycloaddition"
+    C1=C2 -> C1-O3
+    Os4=O3 -> Os4
+    :O5 -> C2
+    Os4=O5 -> O5
+end
+product "C[C@@H]1O[Os](=O)(=O)O[C@@H]1C"
+'''
+
+
 TEXTBOOK = {
     "wittig": (WITTIG, "C=C(C)C.O=P(c1ccccc1)(c1ccccc1)c1ccccc1", True),
     "bromination": (BROMINATION, "Br[C@@H]1CCCC[C@H]1Br", True),
@@ -5303,4 +5320,5 @@ TEXTBOOK = {
     "ramberg-backlund": (RAMBERG_BACKLUND, "CC=C", True),
     # the periodinane's acetate ligands and its ring C=O overlap (bonds cross, atoms 0.50 apart)
     "dess-martin": (DESS_MARTIN, "CC(C)=O.CC(=O)OI1OC(=O)c2ccccc21", False),
+    "osmium dihydroxylation": (OSMIUM_DIHYDROXYLATION, "C[C@@H]1O[Os](=O)(=O)O[C@@H]1C", True),
 }
