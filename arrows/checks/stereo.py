@@ -122,9 +122,15 @@ class StereoChanges(Check):
         if made:
             parts.append(f"new {_said(made, label)}")
             configured = st.after.configured   # the rules below can only have acted in a configured state
-            if configured and _configured_centres(st.after, made):
-                # configuration.py sets a new centre's configuration for one rule only
-                parts[-1] += ", configured by the step (both new bonds on one face of the double bond or diene)"
+            set_here = _configured_centres(st.after, made) if configured else []
+            if set_here:
+                # configuration.py sets a new centre's configuration for one rule only; the others
+                # (a diene's ends when the dienophile is configured too: endo or exo is open) stay free
+                why = "configured by the step (both new bonds on one face of the double bond or diene)"
+                if len(set_here) == sum(e.kind == CENTRE for e in made):
+                    parts[-1] += f", {why}"
+                else:
+                    parts[-1] += f"; of them {', '.join(label(i) for i in set_here)} {why}, the others left open"
             bond = st.after.mol.GetBondBetweenAtoms
             if configured and any(e.kind != CENTRE and bond(*e.atoms).GetStereo() != Chem.BondStereo.STEREONONE for e in made):
                 parts[-1] += (", its geometry set by the step (a concerted elimination from two configured "
