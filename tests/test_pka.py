@@ -291,3 +291,13 @@ def test_amidinium_and_iminium_n_h_values():
     iminium = acidity_of(perceived(Chem.MolFromSmiles("CC(C)=[NH2+]")), 3)
     assert (amidinium.acid, amidinium.pka) == ("an amidinium N-H", 12)
     assert (iminium.acid, iminium.pka) == ("an iminium N-H", 7)
+
+
+@pytest.mark.parametrize("gap", ["nan", "-3", "inf"])
+def test_cli_option_pka_gap_takes_only_a_finite_positive_number(gap, tmp_path):
+    """A threshold that is not a number of pKa units is bad usage (exit 2): nan passed every
+    comparison and printed "the threshold is nan units", a negative one flagged downhill transfers."""
+    path = tmp_path / "propane.mech"
+    path.write_text(HYDROXIDE_ON_PROPANE, encoding="utf-8")
+    result = CliRunner().invoke(cli, ["check", "--pka-gap", gap, str(path)])
+    assert result.exit_code == 2 and "--pka-gap" in result.output, result.output

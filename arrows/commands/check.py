@@ -1,12 +1,20 @@
 """`arrows check FILE...`: compiler-style diagnostics and an exit code."""
 from __future__ import annotations
 
+import math
 import sys
 
 import click
 
 from ..api import diagnose_file
 from ..diagnostics import ERROR, WARNING, to_json
+
+
+def _a_number(ctx, param, value: float) -> float:
+    """FloatRange lets nan through (every comparison with it is false)."""
+    if math.isnan(value):
+        raise click.BadParameter("nan is not a number of pKa units", ctx=ctx, param=param)
+    return value
 
 
 @click.command("check")
@@ -23,7 +31,7 @@ from ..diagnostics import ERROR, WARNING, to_json
               help="With --jsonl: worker processes [default: the machine's cores].")
 @click.option("--cluster", metavar="ADDRESS",
               help="With --jsonl: run on the Dask scheduler at ADDRESS (pip install 'arrows[cluster]').")
-@click.option("--pka-gap", type=float, default=12.0, show_default=True,
+@click.option("--pka-gap", type=click.FloatRange(0, 100), default=12.0, show_default=True, callback=_a_number,
               help="Warn (AR508) when a proton transfer runs uphill by more than this many pKa units "
                    "(mechanism FILES; --jsonl records use the default).")
 def check_command(files, fmt, strict, quiet, jsonl, output, jobs, cluster, pka_gap):
