@@ -273,3 +273,26 @@ end
     root = ET.fromstring(render_svg(trace, force=True, diagnostics=diags))
     texts = " ".join(t.text for t in root.iter(SVG_NS + "text"))
     assert "AR204" in texts and "structure not derived" in texts
+
+
+def test_a_figure_goes_to_standard_output_with_dash():
+    """`-o -` writes the figure to standard output (the Unix convention), whole, once drawn; the
+    format must then be given. It once wrote a file named "-"."""
+    result = CliRunner().invoke(cli, ["draw", str(GALLERY[0]), "-o", "-", "--format", "svg"])
+    assert result.exit_code == 0, result.output
+    root = ET.fromstring(result.stdout_bytes)
+    assert root.tag.endswith("svg")
+    assert not Path("-").exists()
+
+
+@pytest.mark.parametrize("args, says", [
+    (["-o", "-"], "needs --format"),
+    (["-o", "figure.svg", "--format", "png"], "ends in .svg but --format says png"),
+    (["-o", "-", "--format", "svg", "--watch"], "--watch redraws a file"),
+])
+def test_an_output_and_format_that_disagree_are_bad_usage(args, says, tmp_path, monkeypatch):
+    """PNG bytes were written into a file named .svg when --format said png."""
+    monkeypatch.chdir(tmp_path)
+    result = CliRunner().invoke(cli, ["draw", str(GALLERY[0])] + args)
+    assert result.exit_code == 2 and says in result.output, result.output
+    assert list(tmp_path.iterdir()) == []

@@ -15,9 +15,17 @@ STYLE_NAMES = ("one-column", "two-column", "slide")   # arrows.draw.STYLES, name
 
 
 def _format_of(output: Path, fmt: str | None) -> str:
+    suffix = output.suffix.lower().lstrip(".")
+    if str(output) == "-":
+        if not fmt:
+            raise click.BadParameter("writing to standard output (-o -) needs --format svg, pdf or png",
+                                     param_hint="-o/--output")
+        return fmt
+    if fmt and suffix in FORMATS and suffix != fmt:
+        raise click.BadParameter(f"{output.name!r} ends in .{suffix} but --format says {fmt}; make them agree",
+                                 param_hint="--format")
     if fmt:
         return fmt
-    suffix = output.suffix.lower().lstrip(".")
     if suffix not in FORMATS:
         raise click.BadParameter(f"cannot tell the format from {output.name!r}; end the name with .svg, .pdf or "
                                  ".png, or give --format", param_hint="-o/--output")
@@ -26,8 +34,9 @@ def _format_of(output: Path, fmt: str | None) -> str:
 
 @click.command("draw")
 @click.argument("file", type=click.Path(dir_okay=False))
-@click.option("-o", "--output", required=True, type=click.Path(dir_okay=False),
-              help="Where to write the figure; the format follows the extension (.svg, .pdf, .png).")
+@click.option("-o", "--output", required=True, type=click.Path(dir_okay=False, allow_dash=True),
+              help="Where to write the figure; the format follows the extension (.svg, .pdf, .png). "
+                   "`-` writes it to standard output (give --format).")
 @click.option("--format", "fmt", type=click.Choice(FORMATS), help="Output format, when the name does not say it.")
 @click.option("--style", type=click.Choice(STYLE_NAMES), default="two-column", show_default=True,
               help="Page preset: one journal column (8.3 cm), two columns (17.1 cm) or a 16:9 slide.")
@@ -52,6 +61,8 @@ def draw_command(file, output, fmt, style, color, numbers, cip, step_labels, no_
     """
     output = Path(output)
     fmt = _format_of(output, fmt)
+    if watch and str(output) == "-":
+        raise click.BadParameter("--watch redraws a file: give -o a file name", param_hint="-o/--output")
     if watch:
         _watch(file, output, fmt, _style(style, color, numbers, cip, step_labels, no_title, font_family, font_size,
                                          line_width), force, dpi)
@@ -68,7 +79,8 @@ def draw_command(file, output, fmt, style, color, numbers, cip, step_labels, no_
         click.echo(f"{file}: not drawn: {len(errors)} error{'s' if len(errors) != 1 else ''} "
                    "(fix them, or use --force to draw with the errors marked)", err=True)
         sys.exit(1)
-    if not output.parent.is_dir():
+    to_stdout = str(output) == "-"
+    if not to_stdout and not output.parent.is_dir():
         cannot_write(output, FileNotFoundError(2, f"the folder {output.parent} does not exist"))
 
     from ..draw import DrawError, build_scene
@@ -78,7 +90,12 @@ def draw_command(file, output, fmt, style, color, numbers, cip, step_labels, no_
     chosen = _style(style, color, numbers, cip, step_labels, no_title, font_family, font_size, line_width)
     try:
         scene = build_scene(trace, chosen, diags)
-        write_atomic(output, convert(scene_to_svg(scene), fmt, dpi))
+        data = convert(scene_to_svg(scene), fmt, dpi)
+        if to_stdout:
+            sys.stdout.buffer.write(data)   # whole, once drawn: nothing half-written reaches the pipe
+            sys.stdout.buffer.flush()
+        else:
+            write_atomic(output, data)
     except DrawError as exc:
         click.echo(f"{file}: not drawn: {exc}", err=True)
         sys.exit(1)
@@ -90,7 +107,7 @@ def draw_command(file, output, fmt, style, color, numbers, cip, step_labels, no_
         sys.exit(1)
     for note in scene.notes:
         click.echo(f"{file}: note: {note}", err=True)
-    click.echo(f"wrote {output}", err=True)
+    click.echo(f"wrote {'the figure to standard output' if to_stdout else output}", err=True)
     sys.exit(1 if errors else 0)
 
 
