@@ -178,6 +178,16 @@ def test_report_and_junit_list_every_scheme(corpus):
         assert failures[name] is not None and code in failures[name].text
 
 
+def test_a_scheme_with_no_figure_is_not_said_to_be_drawn(corpus):
+    """The two files that cannot be read or replayed have no figure: the progress line says so and
+    the summary counts them apart (it once said "(drawn)" and counted them among the drawn)."""
+    err = corpus["proc"].stderr
+    assert re.search(r"zz-broken-syntax\.mech: 1 error \(AR101\) \(no figure\)", err), err
+    assert f"{SCHEMES - 2} drawn, 0 from the cache, 2 without a figure" in err, err
+    report = json.loads((corpus["out"].parent / "report.json").read_text())
+    assert report["totals"]["without_figure"] == 2
+
+
 def test_figures_beside_the_document(corpus):
     folder = corpus["out"].with_name("si-figures")
     drawn = [name for name, _, _ in corpus["order"] if name not in ("zz-broken-syntax.mech", "zz-broken-smiles.mech")]

@@ -26,6 +26,15 @@ class SchemeRecord:
     layout_notes: tuple[str, ...] = ()   # where the layout had to compromise ("check the figure")
 
     @property
+    def drawn(self) -> bool:
+        """Its figure was drawn in this run (not taken from the cache, nor missing)."""
+        return self.rendered and self.has_figure
+
+    @property
+    def cached(self) -> bool:
+        return not self.rendered and self.has_figure
+
+    @property
     def heading(self) -> str:
         return self.title or self.name
 

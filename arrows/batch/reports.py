@@ -20,8 +20,9 @@ def report_dict(records: list[SchemeRecord], complete: bool, tool_version: str) 
             "failed": sum(r.failed for r in records),
             "errors": sum(r.errors for r in records),
             "warnings": sum(r.warnings for r in records),
-            "rendered": sum(r.rendered for r in records),
+            "rendered": sum(r.rendered for r in records),      # worked on in this run (not from the cache)
             "from_cache": sum(not r.rendered for r in records),
+            "without_figure": sum(not r.has_figure for r in records),
         },
         "schemes": [
             {"label": r.label, "number": r.number, "file": r.name, "title": r.title, "caption": r.caption,

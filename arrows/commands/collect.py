@@ -103,10 +103,12 @@ def collect_command(inputs, output, style, paper, flow, prefix, title, authors, 
     if not result.complete:
         click.echo(f"stopped at {failed[-1].label} (--fail-fast); {output} is as it was", err=True)
     else:
-        drawn = sum(r.rendered for r in result.records)
+        drawn = sum(r.drawn for r in result.records)
+        cached = sum(r.cached for r in result.records)
+        missing = f", {n - drawn - cached} without a figure" if n - drawn - cached else ""
         click.echo(f"{output}: {result.pages} pages, {n} scheme{'s' if n != 1 else ''} "
-                   f"({n - len(failed)} passed, {len(failed)} with errors; {drawn} drawn, {n - drawn} from the "
-                   f"cache); figures and index.html in {settings.figures_dir}", err=True)
+                   f"({n - len(failed)} passed, {len(failed)} with errors; {drawn} drawn, {cached} from the "
+                   f"cache{missing}); figures and index.html in {settings.figures_dir}", err=True)
     sys.exit(1 if failed else 0)
 
 
@@ -127,7 +129,7 @@ class _Progress:
                 self.bar.update(1)
                 self.bar.set_postfix_str(record.label)
             else:
-                source = "drawn" if record.rendered else "cached"
+                source = "drawn" if record.drawn else "cached" if record.cached else "no figure"
                 click.echo(f"[{done}/{total}] {record.label} {record.name}: {record.status()} ({source})", err=True)
         elif self.bar is not None:
             if not self.pages_seen:
