@@ -228,6 +228,9 @@ def test_an_output_that_cannot_be_written_is_a_located_message(tmp_path, args, t
                           timeout=300)
     assert done.returncode == 2, done.stderr
     assert f"{filled(target)}:1:1: error: cannot write" in done.stderr and "hint: " in done.stderr
+    # The same words from every command, naming the file in the way (they once said "File exists",
+    # "Not a directory" or "the folder ... does not exist" by turns, or named a temporary file).
+    assert f"{blocked} is a file, not a folder" in done.stderr, done.stderr
     assert "Traceback" not in done.stderr
 
 

@@ -26,9 +26,24 @@ def cannot_write(path, exc: OSError) -> NoReturn:
     status 2. A file or folder made on the way that failed (a cache) is named too; a temporary
     file (arrows.atomic) is not."""
     from ..atomic import TEMP_MARK
-    detail = exc.strerror or str(exc)
-    if exc.filename and Path(exc.filename) != Path(path) and TEMP_MARK not in Path(exc.filename).name:
-        detail += f" ({exc.filename})"
+    detail = _folder_problem(Path(path))
+    if detail is None:
+        detail = exc.strerror or str(exc)
+        if exc.filename and Path(exc.filename) != Path(path) and TEMP_MARK not in Path(exc.filename).name:
+            detail += f" ({exc.filename})"
     click.echo(f"{path}:1:1: error: cannot write {path}: {detail}\n"
                "    hint: check that the folder exists and is writable", err=True)
     sys.exit(2)
+
+
+def _folder_problem(path: Path) -> Optional[str]:
+    """What is wrong with the folders on the way to `path`, in words: the first that is a file or
+    does not exist; None when they are all there (the fault is elsewhere: permissions, space)."""
+    for folder in reversed(path.parents):
+        if str(folder) in ("", "."):
+            continue
+        if not folder.exists():
+            return f"the folder {folder} does not exist"
+        if not folder.is_dir():
+            return f"{folder} is a file, not a folder"
+    return None
