@@ -354,6 +354,9 @@ class _StepReplay:
         if index is None:
             if ref.map_number in self.entered_later:
                 hint = f"atom {ref.map_number} enters only in step {self.entered_later[ref.map_number] + 1}"
+            elif ref.map_number == 0:
+                hint = (f"map number 0 means no number in a SMILES ([{ref.element}:0] is an unnumbered atom): "
+                        f"number the atom from 1 up, e.g. [{ref.element}:9], and write {ref.element}9 here")
             else:
                 # A reagent the arrows use but no line brings in (the base of an enolate formation).
                 hint = (f"no species holds atom {ref.map_number}: declare the molecule it belongs to, with "

@@ -392,6 +392,8 @@ def _hint_for(exc: UnexpectedInput, text: str, found: str) -> str:
         return "an arrow has one hyphen: -> (pair) or ~> (single electron)"
     if rest.startswith(":") and typed_before.endswith(":"):
         return "one `:` marks a lone pair: write it once before the atom, as in `:O1`"
+    if re.search(r"[A-Z][a-z]?\d+#$", typed_before) and not re.match(r"[A-Z][a-z]?\d+|H\b", word):
+        return "`#` right after an atom is a triple bond (C1#N2); a comment needs white space before its `#`"
     wrapped = re.match(r"\(([A-Z][a-z]?\d+)\)", rest)
     if wrapped:
         return f"an atom is written bare, `{wrapped.group(1)}`; parentheses only hold the atom a hydrogen sits on, H(C3)"
@@ -405,6 +407,13 @@ def _hint_for(exc: UnexpectedInput, text: str, found: str) -> str:
             return 'write a single `=` between the name and the quoted SMILES'
         if tok_type in _KEYWORDS:
             return f"a quoted string is missing before {found}: the keyword before it needs one"
+        keyword_line = lines[exc.line - 2].split() if exc.line >= 2 else []
+        if not typed_before.strip() and keyword_line and keyword_line[-1] in _STRING_AFTER:
+            # The keyword ended the line before, its text left out (`step` with no label).
+            keyword = keyword_line[-1]
+            example = 'species water = "[OH2:12]"' if _STRING_AFTER[keyword] == "SMILES" else f'{keyword} "..."'
+            return f"`{keyword}` on line {exc.line - 1} needs its {_STRING_AFTER[keyword]} in double quotes on " \
+                   f"that line: {example}"
         holds = _STRING_AFTER.get(first_word, "text")
         example = 'species water = "[OH2:12]"' if holds == "SMILES" else 'step "enolate formation"'
         if rest[:1] in _CURLY_QUOTES:
@@ -447,6 +456,12 @@ def _hint_for(exc: UnexpectedInput, text: str, found: str) -> str:
                     f"the mark: `{bond} -> ...`")
         return f"`{word}` is a bond between two atoms; an arrow is written -> (pair) or ~> (single electron)"
     if tok_type == "ARROW":
+        above = next((lines[k].split("#")[0].rstrip() for k in range(exc.line - 2, -1, -1)
+                      if lines[k].split("#")[0].strip()), "")
+        if above.endswith(("->", "~>")):
+            # `:S3 ->` with its sink left out: the parser took the next line's bond as the sink.
+            return (f"the move on the line before ends at its arrow: write where its electrons go on that "
+                    f"line (`{above.strip()} C1`, an atom or a bond)")
         return "one arrow per move: write the next arrow as a move of its own, on its own line"
     if rest.startswith("//"):
         return "a comment starts with `#` and runs to the end of the line"

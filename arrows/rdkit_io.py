@@ -96,6 +96,28 @@ _ONIUM = {"O": (2, "oxonium", "[O+]"), "N": (3, "ammonium or iminium", "[N+]"), 
 _WRITTEN_VALENCE = re.compile(r"^\[?([A-Z][a-z]?)(H\d*)?(:\d+)?\]?, atom \d+ as written, would have valence (\d+)")
 
 
+_BRACKET_SYMBOL = re.compile(r"\[\d*([A-Za-z][a-z]?)")
+
+
+def _unknown_element(smiles: str) -> Optional[tuple[str, int]]:
+    """For a bracket atom whose symbol is no element ([Xx:1], which RDKit calls a syntax error): the
+    reason in words and where the symbol stands; None when every symbol is an element."""
+    symbols = _element_symbols()
+    for match in _BRACKET_SYMBOL.finditer(smiles):
+        symbol = match.group(1)
+        candidates = (symbol, symbol[:1]) if len(symbol) == 2 else (symbol,)   # [CH3] is C then H3
+        if not any(c.capitalize() in symbols for c in candidates):
+            return f"{symbol} is not an element symbol", match.start(1)
+    return None
+
+
+@lru_cache(maxsize=1)
+def _element_symbols() -> frozenset[str]:
+    """The element symbols RDKit knows (asking it about an unknown one logs a stack trace)."""
+    table = Chem.GetPeriodicTable()
+    return frozenset(table.GetElementSymbol(z) for z in range(1, 119))
+
+
 def reading_hint(reason: str, otherwise: str) -> str:
     """The hint for a SMILES RDKit rejects: for an atom over its valence, the onium ion it may be
     meant as, or how brackets count hydrogens; `otherwise` for any other reason."""
@@ -136,7 +158,7 @@ def read_smiles(smiles: str, sanitize: bool = True) -> tuple[Optional[Chem.Mol],
         if not smiles.strip():
             return None, "empty SMILES", 0
         reason, position = explain_smiles_failure(lines)
-        reason, position = _over_valence(reason, smiles) or (reason, position)
+        reason, position = _over_valence(reason, smiles) or _unknown_element(smiles) or (reason, position)
         return None, reason, position
     return mol, "", None
 

@@ -275,6 +275,12 @@ TWINS = [
     # RDKit's "atom # 0" is told as the atom written, and the error points at it.
     Twin("SMILES atom over its valence", SN2, '"[CH3:2][Br:3]"', '"[CH3:2](C)[Br:3]"', "AR102", "[CH3:2](C)",
          says=("[CH3:2], atom 1 as written", "valence 5"), hint_says=("exactly the hydrogens written",)),
+    # Map number 0 is an unnumbered atom in SMILES: the hint says so, not "write [O:0]".
+    Twin("atom numbered 0", SN2.replace(":O1 -> C2", ":O0 -> C2"), '"[OH-:1]"', '"[OH-:0]"', "AR104", "O0 ->",
+         hint_says=("map number 0 means no number", "[O:9]")),
+    # A symbol that is no element (RDKit says only "syntax error"): named, where it stands.
+    Twin("symbol that is no element", SN2, '"[OH-:1]"', '"[Xx-:1]"', "AR102", "Xx-",
+         says=("Xx is not an element symbol",)),
     # Methanol's oxygen written with three bonds and no charge: the hint names the oxonium ion.
     Twin("onium written without its charge", SN2, 'product "CO.[Br-]"', 'product "C[OH2:1].[Br-]"', "AR102",
          "[OH2:1]", says=("valence 3",), hint_says=("oxonium", "[O+]")),

@@ -236,6 +236,15 @@ def syntax_error(text: str):
 
 # (name, text, line, column, offending text, expected (words), hint fragment)
 SLIPS = [
+    ("a move's sink left out",
+     'step "a"\n    :S3 ->\n    C1-Br2 -> Br2\nend\n',
+     3, 12, "unexpected `->`", "`end`", "the move on the line before ends at its arrow"),
+    ("a step's label left out",
+     'step\n    :S3 -> C1\nend\n',
+     2, 5, "unexpected `:`", 'a quoted string ("...")', "`step` on line 1 needs its label in double quotes"),
+    ("a comment glued to an atom",
+     'step "a"\n    C1-Br2 -> Br2#note\nend\n',
+     2, 19, "unexpected `note`", "an atom", "a comment needs white space before its `#`"),
     ("missing end before the next step",
      'species w = "[OH2:1]"\nstep "a"\n    :O1 -> C2\nstep "b"\n    :O1 -> C2\nend\n',
      4, 1, "unexpected `step`", "`end`", "the step before this line (line 2) has no `end`"),
