@@ -134,3 +134,16 @@ end
     assert len(found) == 1
     explained = found[0].message.split(": ", 1)[1]
     assert explained == "O3: expected charge 0, the moves give -1 (a proton transfer is missing?)", explained
+
+
+def test_a_product_written_as_another_resonance_form_is_called_one():
+    """Alpha cleavage of a ketone radical cation gives an acylium ion, CH3-C#O+, drawn also as its
+    resonance form CH3-C+=O (common practice): the same atoms, bonds and hydrogens, the electrons
+    placed otherwise. Written so, the product is named a resonance form of the derived one, with
+    the way out (write the derived form, or a `resonance` step); it was told only atom by atom."""
+    text = ('species ion = "[CH3:3][CH2:4][C:1](=[O+:2])[CH3:5]"\n'
+            'step "alpha cleavage"\n    .O2 ~> C1#O2\n    C1-C4 ~> C1#O2\n    C1-C4 ~> C4\nend\n'
+            'product "C[C+]=O.C[CH2]"\n')
+    _, diags = check_text(text)
+    (d,) = [d for d in diags if d.code == "AR402"]
+    assert "is a resonance form of the derived CC#[O+]" in d.message and "`resonance` step" in d.hint

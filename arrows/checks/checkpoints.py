@@ -182,7 +182,11 @@ def compare(state: ElectronState, checkpoint: Checkpoint, code: str, step: Optio
         closest = max(candidates, key=lambda f: _overlap(frag.mol, f.mol), default=None)
         details, hint = _explain(frag, closest, state) if closest is not None else ([], None)
         message = f"the {what} {frag.smiles} is not in the derived state"
-        if closest is not None and hint is None and _tautomers(frag.smiles, closest.smiles):
+        if closest is not None and _resonance_forms(frag.smiles, closest.smiles):
+            message = f"the {what} {frag.smiles} is a resonance form of the derived {closest.smiles}"
+            hint = ("write the form the moves reach, or add a `resonance` step that moves the electrons to the "
+                    "form written")
+        elif closest is not None and hint is None and _tautomers(frag.smiles, closest.smiles):
             message = f"the {what} {frag.smiles} is a tautomer of the derived {closest.smiles}, not the same form"
             hint = ("add the proton transfers that turn one form into the other (a keto-enol tautomerisation "
                     "takes two), or write the form the moves reach")
@@ -202,6 +206,37 @@ def compare(state: ElectronState, checkpoint: Checkpoint, code: str, step: Optio
         diags.append(Diagnostic(code, f"`all` was asked, but the state also holds {extra}", checkpoint.loc,
                                 hint="write every fragment, or drop `all`", step=step))
     return diags
+
+
+def _resonance_forms(written: str, derived: str) -> bool:
+    """Whether two different SMILES draw one species with its electrons placed otherwise: the same
+    atoms joined the same way, each with the same hydrogens, and the same net charge (an acylium
+    written C[C+]=O for the derived CC#[O+]). Asked only of a mismatch."""
+    if written == derived:
+        return False
+    with rdkit_messages():
+        mols = [Chem.MolFromSmiles(smiles) for smiles in (written, derived)]
+    if any(m is None for m in mols):
+        return False
+    if Chem.GetFormalCharge(mols[0]) != Chem.GetFormalCharge(mols[1]):
+        return False
+    return _skeleton(mols[0]) == _skeleton(mols[1])
+
+
+def _skeleton(mol: Chem.Mol) -> str:
+    """The molecule's sigma framework with each atom's hydrogens, as a canonical SMILES: every bond
+    single, no charges, the hydrogen count carried as the map number."""
+    work = Chem.RWMol(mol)
+    for atom in work.GetAtoms():
+        atom.SetAtomMapNum(atom.GetTotalNumHs() + 1)
+        atom.SetFormalCharge(0)
+        atom.SetIsAromatic(False)
+        atom.SetNumExplicitHs(0)
+        atom.SetNoImplicit(True)
+    for bond in work.GetBonds():
+        bond.SetBondType(Chem.BondType.SINGLE)
+        bond.SetIsAromatic(False)
+    return Chem.MolToSmiles(work)
 
 
 def _tautomers(written: str, derived: str) -> bool:
