@@ -208,19 +208,22 @@ def compare(state: ElectronState, checkpoint: Checkpoint, code: str, step: Optio
     return diags
 
 
+def _both_read(written: str, derived: str) -> Optional[list[Chem.Mol]]:
+    """The two SMILES of a mismatch read by RDKit; None when they are equal or one cannot be read."""
+    if written == derived:
+        return None
+    with rdkit_messages():
+        mols = [Chem.MolFromSmiles(smiles) for smiles in (written, derived)]
+    return None if any(m is None for m in mols) else mols
+
+
 def _resonance_forms(written: str, derived: str) -> bool:
     """Whether two different SMILES draw one species with its electrons placed otherwise: the same
     atoms joined the same way, each with the same hydrogens, and the same net charge (an acylium
     written C[C+]=O for the derived CC#[O+]). Asked only of a mismatch."""
-    if written == derived:
-        return False
-    with rdkit_messages():
-        mols = [Chem.MolFromSmiles(smiles) for smiles in (written, derived)]
-    if any(m is None for m in mols):
-        return False
-    if Chem.GetFormalCharge(mols[0]) != Chem.GetFormalCharge(mols[1]):
-        return False
-    return _skeleton(mols[0]) == _skeleton(mols[1])
+    mols = _both_read(written, derived)
+    return (mols is not None and Chem.GetFormalCharge(mols[0]) == Chem.GetFormalCharge(mols[1])
+            and _skeleton(mols[0]) == _skeleton(mols[1]))
 
 
 def _skeleton(mol: Chem.Mol) -> str:
@@ -242,13 +245,11 @@ def _skeleton(mol: Chem.Mol) -> str:
 def _tautomers(written: str, derived: str) -> bool:
     """Whether two different SMILES are tautomers of one another, as RDKit's tautomer enumerator
     judges (both canonicalised to one form): asked only of a mismatch."""
-    if written == derived:
+    mols = _both_read(written, derived)
+    if mols is None:
         return False
     from rdkit.Chem.MolStandardize import rdMolStandardize   # only a mismatch asks
     with rdkit_messages():
-        mols = [Chem.MolFromSmiles(smiles) for smiles in (written, derived)]
-        if any(m is None for m in mols):
-            return False
         enumerator = rdMolStandardize.TautomerEnumerator()
         forms = [Chem.MolToSmiles(enumerator.Canonicalize(m)) for m in mols]
     return forms[0] == forms[1]
