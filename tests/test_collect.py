@@ -467,3 +467,11 @@ def test_the_layout_notes_of_every_figure_are_reported(tmp_path):
     index = (tmp_path / "si-figures" / "index.html").read_text()
     for note in expected["a-alkylation.mech"]:
         assert f"figure: {note}" in index
+
+
+def test_a_prefix_with_spaces_or_punctuation_is_bad_usage(tmp_path):
+    """The prefix goes into every heading ("Scheme S3.") and figure file name: "Fig. " gave
+    "Scheme Fig. 1." and file names with spaces in index.html's links."""
+    done = collect(GALLERY[0], "-o", tmp_path / "si.pdf", "--prefix", "Fig. ")
+    assert done.returncode == 2 and "--prefix" in done.stderr
+    assert not (tmp_path / "si.pdf").exists()

@@ -1,6 +1,7 @@
 """`arrows collect DIR-or-FILES -o OUT.pdf`: a supporting-information document in one command."""
 from __future__ import annotations
 
+import re
 import sys
 from pathlib import Path
 
@@ -13,6 +14,14 @@ from .output import cannot_write
 EXIT_INTERRUPTED = 130   # the shell's convention for a run stopped by Ctrl-C
 
 
+def _label_prefix(ctx, param, value: str) -> str:
+    """The prefix goes into headings ("Scheme S3.") and file names: plain characters only."""
+    if not re.fullmatch(r"[A-Za-z0-9_-]*", value):
+        raise click.BadParameter(f"{value!r}: use letters, digits, - and _ (headings read \"Scheme {value}1.\" "
+                                 "and the figure files are named after the label)", ctx=ctx, param=param)
+    return value
+
+
 @click.command("collect")
 @click.argument("inputs", nargs=-1, required=True, type=click.Path())
 @click.option("-o", "--output", required=True, type=click.Path(dir_okay=False),
@@ -21,7 +30,8 @@ EXIT_INTERRUPTED = 130   # the shell's convention for a run stopped by Ctrl-C
               help="Figure style preset, applied to every scheme.")
 @click.option("--paper", type=click.Choice(["a4", "letter"]), default="a4", show_default=True)
 @click.option("--flow", is_flag=True, help="Put as many schemes on a page as fit (default: one per page).")
-@click.option("--prefix", default="S", show_default=True, help="Scheme numbers: PREFIX1, PREFIX2, ...")
+@click.option("--prefix", default="S", show_default=True, callback=_label_prefix,
+              help="Scheme numbers: PREFIX1, PREFIX2, ... (letters, digits, - and _).")
 @click.option("--title", help="Document title; with a title the document opens with a title page.")
 @click.option("--authors", help="Authors, for the title page and the PDF metadata.")
 @click.option("--date", "date_text", metavar="TEXT", help="Date line for the title page (as written).")
