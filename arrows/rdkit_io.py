@@ -104,9 +104,8 @@ def _unknown_element(smiles: str) -> Optional[tuple[str, int]]:
     reason in words and where the symbol stands; None when every symbol is an element."""
     symbols = _element_symbols()
     for match in _BRACKET_SYMBOL.finditer(smiles):
-        symbol = match.group(1)
-        candidates = (symbol, symbol[:1]) if len(symbol) == 2 else (symbol,)   # [CH3] is C then H3
-        if not any(c.capitalize() in symbols for c in candidates):
+        symbol = match.group(1)   # (an aromatic one in lower case: [nH], [se])
+        if symbol.capitalize() not in symbols:
             return f"{symbol} is not an element symbol", match.start(1)
     return None
 

@@ -438,7 +438,7 @@ def _near_any_way(points, ways: list[tuple[complex, complex]], reach: float = 0.
     return any(distance_to_segment(p, a, b) < reach for a, b in ways for p in points)
 
 
-def _atom_inside_a_ring(xyz: list[list[float]], rings: list[list[int]], count: int) -> bool:
+def _any_atom_inside(xyz: list[list[float]], rings: list[list[int]], count: int) -> bool:
     """Whether one of the first `count` atoms at `xyz` stands inside one of `rings` (atom index
     lists in ring order) that it is not part of."""
     for ring in rings:
@@ -1712,7 +1712,7 @@ class _LayoutBuilder:
         # cut short in _phases, and the union of every panel's bonds, a cage where a ring grows,
         # is there to be judged uneven and redrawn run by run.)
         own_rings = [r for r in smallest if max(r) < len(group)] if panels is not None and len(panels) == 1 else []
-        if own_rings                and _atom_inside_a_ring(xyz, own_rings, len(group)):
+        if own_rings and _any_atom_inside(xyz, own_rings, len(group)):
             # RDKit's own depictor sets a substituent of a carbon shared by a three-membered and a
             # larger ring inside the larger one (the silyloxy group of an epoxidised silyl enol
             # ether); coordgen, RDKit's other depictor, draws it outside. Taken only where it
@@ -1725,7 +1725,7 @@ class _LayoutBuilder:
             other = mol.GetConformer().GetPositions().tolist()
             lengths = [_distance(other[a], other[b]) for a, b in ends]
             mean = sum(lengths) / len(lengths) if lengths else 1.0
-            if all(abs(x / mean - 1.0) <= 0.02 for x in lengths) and not _atom_inside_a_ring(other, own_rings, len(group)):
+            if all(abs(x / mean - 1.0) <= 0.02 for x in lengths) and not _any_atom_inside(other, own_rings, len(group)):
                 xyz = other
         lengths = [_distance(xyz[a], xyz[b]) for a, b in ends]
         scale = 1.0 / (sum(lengths) / len(lengths)) if lengths else 1.0
@@ -2430,24 +2430,22 @@ class _LayoutBuilder:
             return None
         made = self.bonds_in[k] - self.bonds_in[k - 1]
         broken = self.bonds_in[k - 1] - self.bonds_in[k]
-        side = None
-        for group in sorted(self.neighbours[mover] | self.neighbours[anchor]):
-            for giver, taker in ((mover, anchor), (anchor, mover)):
-                gone = (min(giver, group), max(giver, group)) in broken
-                partner = next((x for x in sorted(self.neighbours[group]) if x not in (giver, taker)
-                                and (min(group, x), max(group, x)) in made
-                                and (min(taker, x), max(taker, x)) in self.bonds_in[k - 1]), None)
-                if not gone or partner is None:
-                    continue
-                if giver == mover and partner in here:
-                    side = here[partner] - here[anchor]     # the group goes to the anchor's neighbour
-                elif giver == anchor and group in before and anchor in before:
-                    side = before[group] - before[anchor]   # the group leaves the anchor
-                if side is not None:
-                    break
-            if side is not None:
-                break
-        if side is None or abs(side) < 1e-9:
+
+        def sides() -> Iterator[complex]:
+            """The anchor's side of the ring, for each group passed across it."""
+            for group in sorted(self.neighbours[mover] | self.neighbours[anchor]):
+                for giver, taker in ((mover, anchor), (anchor, mover)):
+                    if (min(giver, group), max(giver, group)) not in broken:
+                        continue
+                    partner = next((x for x in sorted(self.neighbours[group]) if x not in (giver, taker)
+                                    and (min(group, x), max(group, x)) in made
+                                    and (min(taker, x), max(taker, x)) in self.bonds_in[k - 1]), None)
+                    if partner is not None and giver == mover and partner in here:
+                        yield here[partner] - here[anchor]     # the group goes to the anchor's neighbour
+                    elif partner is not None and giver == anchor and group in before and anchor in before:
+                        yield before[group] - before[anchor]   # the group leaves the anchor
+        side = next((s for s in sides() if abs(s) > 1e-9), None)
+        if side is None:
             return None
         along = _unit(side)
         crowd = [p for a, p in here.items() if a not in (anchor, mover)]
