@@ -166,7 +166,7 @@ def build_scene(trace: Trace, style: Style, diagnostics: Sequence[Diagnostic] = 
     """Lay out the whole scheme. Shrinks it (and says so in `notes`) if one panel is wider than
     the page, or the slide is too tall."""
     scene, fit = _SceneBuilder(trace, style, diagnostics).build()
-    uneven = _uneven_bonds(scene) + _crowded_atoms(scene)
+    uneven = _uneven_bonds(scene) + _crowded_atoms(scene) + _heavy_lines(style)
     if fit < 0.999:
         smaller = style.scaled(fit * 0.995)
         scene, _ = _SceneBuilder(trace, smaller, diagnostics, style).build()
@@ -176,6 +176,15 @@ def build_scene(trace: Trace, style: Style, diagnostics: Sequence[Diagnostic] = 
                      "try a wider style")
         scene = replace(scene, notes=(note,) + scene.notes)
     return replace(scene, notes=scene.notes + uneven) if uneven else scene
+
+
+def _heavy_lines(style: Style) -> tuple[str, ...]:
+    """A note when the lines are so heavy against the bond length that bonds, double-bond strokes
+    and labels run together (a line a tenth of a bond long already closes a double bond's gap)."""
+    if style.line_width <= 0.1 * style.bond_length:
+        return ()
+    return (f"lines of {style.line_width:g} pt are heavy for bonds {style.bond_length:g} pt long: double bonds and "
+            f"labels run together; try --line-width {0.05 * style.bond_length:.1f}",)
 
 
 def _uneven_bonds(scene: Scene) -> tuple[str, ...]:
