@@ -301,3 +301,45 @@ def test_cli_option_pka_gap_takes_only_a_finite_positive_number(gap, tmp_path):
     path.write_text(HYDROXIDE_ON_PROPANE, encoding="utf-8")
     result = CliRunner().invoke(cli, ["check", "--pka-gap", gap, str(path)])
     assert result.exit_code == 2 and "--pka-gap" in result.output, result.output
+
+
+# Acids the table once left to the alkane entry (~50) or to no entry at all: (SMILES, the atom
+# carrying the proton, pKa). Aqueous values, or the DMSO scale where water gives none (memory).
+MORE_ACIDS = [
+    ("CC=CC(C)=O", 0, 20),          # an enone's gamma C-H: the dienolate
+    ("CS(C)=O", 0, 35),             # DMSO (dimsyl anion, made with NaH)
+    ("CC(=O)Cl", 0, 16),            # an acyl chloride's alpha C-H (estimated)
+    ("C1SCCCS1", 0, 31),            # 1,3-dithiane
+    ("C(c1ccccc1)(c1ccccc1)c1ccccc1", 0, 31.5),   # triphenylmethane
+    ("Cc1ccccc1", 0, 42),           # toluene's benzylic C-H
+    ("Nc1ccccc1", 0, 31),           # aniline's N-H
+    ("O=C1CCC(=O)N1", 6, 9),        # succinimide
+    ("C[N+](=O)[O-]", 0, 10),       # nitromethane
+    ("CS", 1, 10.5),                # methanethiol
+    ("S", 0, 7),                    # hydrogen sulfide
+    ("Cc1ccc(cc1)S(=O)(=O)O", 10, -2.8),   # TsOH
+    ("OC(=O)[O-]", 0, 10.3),        # bicarbonate, not a carboxylic acid
+    ("c1cc[nH+]cc1", 3, 5.2),       # pyridinium
+]
+
+
+@pytest.mark.parametrize("smiles, atom, pka", MORE_ACIDS)
+def test_acids_that_are_not_alkanes_have_their_own_entry(smiles, atom, pka):
+    entry = acidity_of(perceived(Chem.MolFromSmiles(smiles)), atom)
+    assert entry is not None and entry.pka == pytest.approx(pka), entry
+
+
+@pytest.mark.parametrize("base, acid, uphill", [
+    ("[Br-:3]", "[CH3:1][N+](=O)[O-]", True),        # bromide on nitromethane: 19 units (-9 vs 10)
+    ("C[O-:3]", "[CH3:1]C=CC(C)=O", False),          # methoxide on an enone's gamma C-H: 4.5 units
+    ("[H-:3]", "[CH3:1]S(C)=O", False),               # hydride on DMSO: 35 vs 35
+    ("[O-:3]C([O-])=O", "[CH3:1]C(C)=O", False),      # carbonate on acetone: 9 units, not 15
+])
+def test_carbon_acids_are_judged_by_their_own_pka(base, acid, uphill):
+    """Each once judged as an alkane C-H (~50, a false alarm) or, beside a nitro group's N+, not
+    at all (read as a C-H beside a cation)."""
+    text = (f'species acid = "{acid}"\nspecies base = "{base}"\nstep "deprotonation"\n'
+            f'    :{"Br" if "Br" in base else "O" if "O" in base else "H"}3 -> H(C1)\n    C1-H -> C1\nend\n')
+    _, diags = check_text(text, "carbon-acid.mech")
+    assert [d.code for d in diags if d.code == "AR508"] == (["AR508"] if uphill else []), \
+        [d.to_text() for d in diags]

@@ -42,7 +42,17 @@ TABLE: tuple[Acidity, ...] = (
     Acidity("hydrogen chloride", "chloride", "[ClX1H1]", -7, "~-7", NOT_LISTED),
     Acidity("a protonated carbonyl", "a carbonyl oxygen", "[OX2H1+]=[#6]", -7, "~-7", NOT_LISTED),
     Acidity("a protonated alcohol or ether", "an alcohol or ether", "[OX3+;!H0]", -2, "~-2", NOT_LISTED),
+    # Sulfonic acid ~-2.8 (TsOH), carbonic acid 6.4 and bicarbonate 10.3 (aqueous, memory): before the
+    # carboxylic acid, whose pattern both carbonic acids match.
+    Acidity("a sulfonic acid", "a sulfonate", "[OX2H1][SX4](=O)=O", -2.8, "~-3", NOT_LISTED),
+    Acidity("bicarbonate", "carbonate", "[OX2H1][CX3](=O)[OX1-]", 10.3, "10.3", NOT_LISTED),
+    Acidity("carbonic acid", "bicarbonate", "[OX2H1][CX3](=O)[OX2H1]", 6.4, "6.4", NOT_LISTED),
     Acidity("a carboxylic acid", "a carboxylate", "[OX2H1][CX3]=O", 4.8, "~4.8", TEXTBOOK),
+    # Pyridinium 5.2, a nitroalkane's C-H ~10, a thiol ~10.5, H2S ~7 (aqueous, memory).
+    Acidity("a pyridinium ion", "a pyridine", "[nX3+;H1]", 5.2, "5.2", NOT_LISTED),
+    Acidity("a nitroalkane C-H", "a nitronate", "[CX4;!H0][NX3+](=O)[O-]", 10, "~10", NOT_LISTED),
+    Acidity("a thiol", "a thiolate", "[SX2H1][#6]", 10.5, "~10.5", NOT_LISTED),
+    Acidity("hydrogen sulfide", "hydrosulfide", "[SX2H2]", 7, "~7", NOT_LISTED),
     Acidity("a 1,3-dicarbonyl C-H", "a 1,3-dicarbonyl enolate", "[CX4;!H0]([CX3]=O)[CX3]=O", 9, "~9", TEXTBOOK),
     Acidity("a C-H beside a nitrile and a carbonyl or nitrile", "a stabilised carbanion",
             "[CX4;!H0](C#N)[$([CX3]=O),$(C#N)]", 11, "~11", NOT_LISTED),   # malononitrile ~11
@@ -57,6 +67,7 @@ TABLE: tuple[Acidity, ...] = (
     Acidity("a tertiary alcohol", "a tertiary alkoxide", "[OX2H1][CX4H0]([#6])([#6])[#6]", 18, "~18",
             TEXTBOOK),
     Acidity("an alcohol", "an alkoxide", "[OX2H1][CX4]", 16, "~16", COMMON_PRACTICE),
+    Acidity("an imide N-H", "an imidate", "[NX3;H1]([CX3]=O)[CX3]=O", 9, "~9", NOT_LISTED),   # succinimide 9.6
     Acidity("an amide N-H", "an amidate", "[NX3;!H0][CX3]=O", 17, "~17", NOT_LISTED),
     Acidity("an aldehyde alpha C-H", "an aldehyde enolate", "[CX4;!H0][CX3H1]=O", 17, "~17", TEXTBOOK),
     Acidity("a ketone alpha C-H", "a ketone enolate", "[CX4;!H0][CX3](=O)[#6]", 19.5, "19-20", TEXTBOOK),
@@ -65,6 +76,19 @@ TABLE: tuple[Acidity, ...] = (
     Acidity("a nitrile alpha C-H", "a nitrile anion", "[CX4;!H0]C#N", 25, "~25", NOT_LISTED),
     Acidity("a terminal alkyne C-H", "an acetylide", "[CX2H1]#C", 25, "~25", TEXTBOOK),
     Acidity("a C-H beside a sulfonium", "a sulfonium ylide", "[CX4;!H0][SX3+]", 18, "~18", NOT_LISTED),
+    # The vinylogous (gamma) C-H of an enone ~20, an acyl chloride's alpha C-H ~16 (estimated), DMSO's
+    # C-H 35, 1,3-dithiane 31, Ph3CH 31.5, Ph2CH2 32, a benzylic or allylic C-H 41-43, an aniline N-H
+    # 31 (DMSO scale where no aqueous value exists; memory): not alkanes.
+    Acidity("an acyl chloride alpha C-H", "a ketene-forming enolate", "[CX4;!H0][CX3](=O)[Cl,Br]", 16, "~16",
+            NOT_LISTED),
+    Acidity("an enone gamma C-H", "a dienolate", "[CX4;!H0][CX3]=[CX3][CX3]=O", 20, "~20", NOT_LISTED),
+    Acidity("a C-H beside a sulfoxide", "a sulfinyl carbanion", "[CX4;!H0][SX3](=O)", 35, "~35", NOT_LISTED),
+    Acidity("a dithiane C-H", "a dithianyl anion", "[CX4;!H0]([SX2])[SX2]", 31, "~31", NOT_LISTED),
+    Acidity("a triarylmethane C-H", "a trityl anion", "[CX4H1](c)(c)c", 31.5, "~31.5", NOT_LISTED),
+    Acidity("a diarylmethane C-H", "a diarylmethyl anion", "[CX4;!H0](c)c", 32, "~32", NOT_LISTED),
+    Acidity("a benzylic or allylic C-H", "a benzylic or allyl anion", "[CX4;!H0][$(c),$([CX3]=[CX3])]", 42,
+            "41-43", NOT_LISTED),
+    Acidity("an aniline N-H", "an anilide", "[NX3;!H0;!$(N*=*);!$(N=*)]c", 31, "~31", NOT_LISTED),
     # Chloroform ~15.5, bromoform ~13.7 (aqueous, memory): hydroxide makes the trihalomethanide.
     Acidity("a haloform C-H", "a trihalomethanide", "[CX4H1]([Cl,Br,I])([Cl,Br,I])[Cl,Br,I]", 15, "~14-16",
             NOT_LISTED),
