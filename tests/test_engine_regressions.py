@@ -138,3 +138,13 @@ end
     _, diags = check_text(crowded)
     shell = [d for d in diags if d.code == "AR504"]
     assert len(shell) == 1 and "20 valence electrons" in shell[0].message and "18-electron" in shell[0].message
+
+
+def test_a_nitrene_is_not_called_a_cation():
+    """Methyl azide losing N2 leaves a neutral nitrene, N with six valence electrons (textbook
+    photolysis of an azide, from memory): AR505 names it so; it once said "an N cation"."""
+    text = ('species a = "C[N:1]=[N+:2]=[N-:3]"\nstep "loss of N2"\n    N1=N2 -> N1\n    N1-N2 -> N2\n'
+            '    :N3 -> N2#N3\n    releases N2\nend\n')
+    _, diags = check_text(text)
+    (d,) = [d for d in diags if d.code == "AR505"]
+    assert "a nitrene" in d.message and "cation" not in d.message

@@ -78,7 +78,7 @@ def _sextet_hint(st: StepTrace, i: int) -> str:
             other = label(move.sink_atoms[0])
             return (f"`:{other}` as the sink hands {label(i)}'s pair to {other} with no bond made; to make the "
                     f"{label(i)}-{other} bond, end the arrow at the atom: `:{label(i)} -> {other}`")
-    return ("such ions are rare: were single-electron arrows (~>) meant, as for a homolysis, or should a bond "
+    return ("such species are rare: were single-electron arrows (~>) meant, as for a homolysis, or should a bond "
             "form to it in the same step?")
 
 
@@ -128,9 +128,12 @@ class UnusualElectronCounts(Check):
             old_shell = before.nonbonding[i] + 2 * before.bond_sums[i]
             if shell == 6 and element in _RARELY_SEXTET and old_shell > 6:
                 label = after.label(i)
-                yield Diagnostic("AR505", f"{label} is left with six valence electrons ({_RARELY_SEXTET[element]} "
-                                 f"cation with an open shell)", st.step.loc, hint=_sextet_hint(st, i),
-                                 atoms=(label,), step=st.index)
+                # Neutral with six (a nitrene, an oxene): named as such, not as a cation.
+                kind = (f"{_RARELY_SEXTET[element]} cation with an open shell" if after.formal_charge(i) > 0
+                        else f"a neutral {_RARELY_SEXTET[element].split()[-1]} with six electrons"
+                             f"{', a nitrene' if element == 7 else ''}")
+                yield Diagnostic("AR505", f"{label} is left with six valence electrons ({kind})", st.step.loc,
+                                 hint=_sextet_hint(st, i), atoms=(label,), step=st.index)
             if (shell == 6 and element == 6 and old_shell > 6 and after.nonbonding[i] == 0
                     and after.formal_charge(i) == 1 and unstabilised_primary_cation(after.mol, i)):
                 label = after.label(i)
