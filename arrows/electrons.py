@@ -8,6 +8,8 @@ through a move.
 """
 from __future__ import annotations
 
+import re
+
 from dataclasses import dataclass, field
 from functools import lru_cache
 from typing import Callable, NamedTuple, Optional
@@ -775,7 +777,11 @@ def _settle(state: ElectronState, step: Step, step_index: int, replay: _StepRepl
         Chem.SanitizeMol(work, _STATE_SANITIZE)
         Chem.FastFindRings(work)   # ring membership for the checks; full ring perception is the views' job
     except Exception as exc:
-        diags.append(Diagnostic("AR304", f"RDKit rejects the structure after this step: {exc}", step.loc,
+        # RDKit counts atoms from 0 ("atom # 7 S, 7"): the author's label is named instead (S20).
+        reason = re.sub(r"Explicit valence for atom # (\d+) \w+, (\d+), is greater than permitted",
+                        lambda m: f"{state.label(int(m.group(1)))} would have valence {m.group(2)}, more than RDKit "
+                                  f"allows" if int(m.group(1)) < len(elements) else m.group(0), str(exc))
+        diags.append(Diagnostic("AR304", f"RDKit rejects the structure after this step: {reason}", step.loc,
                                 "check charges and bond orders with `arrows trace`", step=step_index))
         return None, change, diags
     return (ElectronState(work, tuple(nonbonding), state.released, valence, tuple(bond_sums), elements,

@@ -356,7 +356,7 @@ TWINS = [
     # Without the Cl-Cl bond breaking, Cl1 would carry two bonds and three lone pairs (charge -1): a
     # valence RDKit does not allow (RDKit as independent judge).
     Twin("structure RDKit rejects", CHLORINE, "    Cl1-Cl2 -> Cl2\n", "", "AR304", 'step "attack on chlorine"',
-         says=("valence",)),
+         says=("Cl1 would have valence 2", "more than RDKit allows")),
     Twin("sigma bond broken in a resonance step", ENOLATE_RESONANCE, "C2=O3 -> O3", "C2-C4 -> C4", "AR305",
          "C2-C4 -> C4", says=("sigma", "C2-C4")),
 
