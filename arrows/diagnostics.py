@@ -108,7 +108,8 @@ CODES = _table(
          "something else.",
          'C3-H -> C2-C3   # C2-C3 becomes a double bond: write C2=C3'),
     Code("AR209", ERROR, "arrow kind does not fit the electrons",
-         "A pair arrow `->` cannot start at one unpaired electron; use a fishhook `~>`.",
+         "A pair arrow `->` cannot start at one unpaired electron; use a fishhook `~>`. Nor do two "
+         "fishhooks send both electrons of a bond onto one atom: that is a pair, one arrow `->`.",
          '.C1 -> C2   # write .C1 ~> C2'),
     Code("AR210", ERROR, "arrow goes nowhere",
          "The sink is the source itself (an atom giving its lone pair to itself, a bond moving into itself).",

@@ -536,6 +536,19 @@ class _StepReplay:
         multiple bond lower than it is (`C=C` as `C-C`) names its pi pair, with a warning, unless
         the step's other arrows take every pi pair (the Staudinger N=N, broken right through)."""
         for key, uses in self.bond_sources.items():
+            fishhooks = [move for move in uses if move.electrons == 1 and isinstance(move.sink, AtomSink)]
+            same = next((second for k, first in enumerate(fishhooks) for second in fishhooks[k + 1:]
+                         if str(first.sink) == str(second.sink)), None)
+            if same is not None:
+                # Both electrons of the bond sent onto one of its atoms by two fishhooks: a
+                # heterolysis, which a pair arrow draws (the fishhooks of a bond that splits evenly go
+                # to its two atoms).
+                bond = same.source.bond
+                self.fail("AR209", f"two fishhooks move both electrons of {bond} to {same.sink}: that is one pair "
+                          f"moving", same.loc, f"write one pair arrow, `{bond} -> {same.sink}`; a bond that splits "
+                          f"evenly sends one fishhook to each of its atoms",
+                          atoms=(self.state.label(key[0]), self.state.label(key[1])))
+                raise _StepFailed
             have = self.bond_before(*key)
             actual = have // 2
             pi_taken = sum(move.electrons for move in uses if move.source.bond.order >= 2)

@@ -248,6 +248,11 @@ TWINS = [
          "AR208", "O4=P2", says=("single",), hint_says=("not bonded before this step", "`O4-P2`"), alone=False),
     Twin("sink bond written with the wrong order", E2, "C2-H -> C2=C3", "C2-H -> C2-C3", "AR208",
          "C2-H -> C2-C3", sink=True, says=("double",), hint_says=("`C2=C3`",)),
+    # A heterolysis drawn with two fishhooks onto bromide: one pair moves, which a pair arrow draws
+    # (common practice: the fishhooks of an even split go one to each atom).
+    Twin("heterolysis drawn with two fishhooks", SN2, "    C2-Br3 -> Br3\n",
+         "    C2-Br3 ~> Br3\n    C2-Br3 ~> Br3\n", "AR209", "C2-Br3 ~> Br3", occurrence=2,
+         says=("two fishhooks", "C2-Br3"), hint_says=("`C2-Br3 -> Br3`",), alone=False),
     Twin("pair arrow from one electron", RADICALS, ".C1 ~> C1-C2", ".C1 -> C1-C2", "AR209", ".C1 -> C1-C2",
          hint_says=("~>",)),
     Twin("lone pair to its own atom", SN2, ":O1 -> C2", ":O1 -> O1", "AR210", ":O1 -> O1", sink=True),
