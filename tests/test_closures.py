@@ -182,3 +182,15 @@ def test_carboxylate_closes_a_lactone_onto_an_alkyl_bromide_only():
     assert same(rows[0]["product"], "O=C1CCCCO1")
     assert not closures_json("OC(=O)CCCC=O") or all(r["nucleophile"]["kind"] != "carboxylate"
                                                     for r in closures_json("OC(=O)CCCC=O"))
+
+
+def test_5_chloropentan_2_one_closes_the_cyclopropane_first():
+    """Base on 5-chloropentan-2-one gives cyclopropyl methyl ketone (the Organic Syntheses
+    preparation, from memory): the C3 enolate's 3-(enolexo)-exo-tet displacement, which
+    Baldwin-Lusch 1982 favour, beats the C1 enolate's 5-(enolendo)-exo-tet, which they call
+    disfavoured; a displacement is not undone, as an aldol onto a small ring is (hexane-2,5-dione,
+    above, still closes its five-membered ring first). The five-membered closure was ranked first."""
+    rows = closures_json("CC(=O)CCCCl", "--condense")
+    assert rows[0]["ring_size"] == 3 and rows[0]["class"] == "3-(enolexo)-exo-tet"
+    assert rows[0]["outlook"] == "favoured"
+    assert same(rows[0]["product"], "CC(=O)C1CC1")

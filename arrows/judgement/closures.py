@@ -41,12 +41,17 @@ class Closure:
 
     @property
     def tier(self) -> int:
-        """0 favoured 5/6, 1 disfavoured 5/6, 2 favoured 7, 3 other 7, 4 small rings, 5 larger rings."""
+        """0 favoured 5/6, 1 favoured 7, 2 small rings closed by a displacement Baldwin favours (an
+        irreversible step: 5-chloropentan-2-one's enolate closes the cyclopropane, not the
+        disfavoured 5-(enolendo) ring), 3 disfavoured 5/6, 4 other 7, 5 other small rings (an aldol
+        onto a small ring is undone, and the five-membered ring wins), 6 larger rings."""
         if self.size in (5, 6):
-            return 0 if self.outlook == FAVOURED else 1
+            return 0 if self.outlook == FAVOURED else 3
         if self.size == 7:
-            return 2 if self.outlook == FAVOURED else 3
-        return 4 if self.size in (3, 4) else 5
+            return 1 if self.outlook == FAVOURED else 4
+        if self.size in (3, 4):
+            return 2 if self.verdict.favoured and self.closure.geometry == "tet" else 5
+        return 6
 
     def rank_key(self) -> tuple:
         pka = self.nucleophile_pka if self.nucleophile_pka is not None else 99.0
@@ -57,6 +62,10 @@ class Closure:
 def judge(closure: ClosureClass) -> tuple[Verdict, str, str]:
     """Baldwin's verdict, the overall outlook and the reason in words."""
     v = verdict(closure)
+    if closure.size in (3, 4) and v.favoured and closure.geometry == "tet":
+        return v, FAVOURED, (f"{closure.size}-membered ring: strained, but closed by a displacement {v.rule} "
+                             f"favours, which a five- or six-membered closure the rules forbid does not outrun "
+                             f"(common practice: cyclopropanes from 4-halo ketones)")
     if closure.size in (3, 4):
         return v, DISFAVOURED, (f"{closure.size}-membered ring: strained; five- and six-membered closures "
                                 f"outcompete it (common practice)")
