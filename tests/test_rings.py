@@ -428,3 +428,15 @@ def test_a_silyl_group_passed_between_two_oxygens_leaves_no_ring():
     assert "5-membered cyclic transition state" in notes[0] and "no ring left" in notes[0]
     assert "closes" not in notes[0]
 
+
+
+def test_an_epoxide_opened_at_its_far_carbon_is_also_named_endo():
+    """A 4,5-epoxy alkoxide closing a six-membered ring at the epoxide's far carbon: strictly
+    6-exo-tet (the broken C-O bond lies outside the ring, Baldwin 1976), but the literature of
+    epoxide-opening cyclisations calls it 6-endo and expects the 5-exo opening at the near carbon
+    to win (common practice, memory). The note gives both names; it gave only the first."""
+    text = ('species s = "[O-:1][CH2:2][CH2:3][CH2:4][CH:5]1[O:6][CH2:7]1"\n'
+            'step "closure"\n    :O1 -> C7\n    C7-O6 -> O6\nend\n')
+    _, diags = check_text(text)
+    (note,) = [d.message for d in diags if d.code == "AR601"]
+    assert "6-exo-tet" in note and "6-endo mode" in note and "5-exo opening at C5" in note

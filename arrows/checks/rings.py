@@ -252,6 +252,16 @@ class RingClosures(Check):
             return Diagnostic("AR601", uncovered, c.loc or st.step.loc, **where)
         v = verdict(c.closure)
         said = f"{c.closure.name}, {v.word}" + (f" ({v.rule})" if v.rule else "")
+        bridge = _three_ring_partner(st, c)
+        if bridge is not None and bridge in c.ring:
+            # An epoxide (aziridine) opened at its far carbon: by Baldwin's definition the broken
+            # C-O bond lies outside the ring, exo; the literature of epoxide-opening cyclisations
+            # names the mode by the epoxide's C-C bond, inside the ring: endo, the mode that
+            # usually loses to the exo opening at the near carbon (common practice, memory).
+            ring = "epoxide" if st.before.elements[c.broken_partner] == 8 else "three-membered ring"
+            said += (f"; as the opening of {'an' if ring == 'epoxide' else 'a'} {ring} it is the {size}-endo mode, "
+                     f"the {ring}'s {label(bridge)} inside the new ring, which usually loses to the {size - 1}-exo "
+                     f"opening at {label(bridge)}")
         if c.onto_cation and c.closure.mode is None:
             # A bare carbocation: no bond breaks at the attacked atom, so neither exo nor endo applies.
             return Diagnostic("AR601", f"{opening}: {c.closure.name}, onto a carbocation, where no bond breaks at "
@@ -288,6 +298,18 @@ class RingClosures(Check):
                 continue
             return _describe(state.mol, option)
         return None
+
+
+def _three_ring_partner(st: StepTrace, c: StepClosure) -> Optional[int]:
+    """The third atom of a three-membered ring that the closure opens at the attacked atom (the
+    other carbon of an epoxide or aziridine), or None."""
+    w, y = c.broken_partner, c.attacked
+    if w is None or st.before.mol.GetBondBetweenAtoms(w, y) is None:
+        return None
+    mol = st.before.mol
+    shared = ({n.GetIdx() for n in mol.GetAtomWithIdx(w).GetNeighbors()}
+              & {n.GetIdx() for n in mol.GetAtomWithIdx(y).GetNeighbors()})
+    return next(iter(sorted(shared)), None)
 
 
 def _site_kinds(state: ElectronState, c: StepClosure) -> Optional[tuple[str, str]]:
