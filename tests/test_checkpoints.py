@@ -1,5 +1,7 @@
 """Checkpoints compare what the moves give with what the author wrote (RDKit canonical SMILES as
 the judge of "same structure")."""
+from pathlib import Path
+
 from arrows import check_text
 
 CYANOHYDRIN = '''
@@ -147,3 +149,25 @@ def test_a_product_written_as_another_resonance_form_is_called_one():
     _, diags = check_text(text)
     (d,) = [d for d in diags if d.code == "AR402"]
     assert "is a resonance form of the derived CC#[O+]" in d.message and "`resonance` step" in d.hint
+
+
+def test_a_label_on_the_wrong_carbon_leaves_the_other_atoms_matched():
+    """The deuterium exchange of the gallery with the product's D written one carbon further round:
+    the explanation names the two carbons and the D, not the ketone's oxygen (the common part was
+    once sought over the D too, and it took the O's place: "written atoms with no counterpart: 1 O")."""
+    text = (Path(__file__).resolve().parents[1] / "gallery" / "21-deuterium-exchange.mech").read_text(encoding="utf-8")
+    text = text.replace('product "[2H]C1CCCCC1=O"', 'product "[2H]C1CCCC(=O)C1"')
+    _, diags = check_text(text)
+    (d,) = [d for d in diags if d.code == "AR402"]
+    assert "1 D" in d.message and " O" not in d.message.split("derived state:")[1], d.message
+
+
+def test_a_product_with_some_atoms_numbered_is_not_told_the_others_are_unmatched():
+    """Benzoate written with its two oxygens' numbers swapped: compared by map numbers, the numbered
+    oxygens are named; the unnumbered ring carbons are not "written atoms with no counterpart"."""
+    text = ('species acid = "c1ccc(cc1)[C:2](=[O:3])[OH:5]"\nspecies base = "[OH-:4]"\n'
+            'step "deprotonation"\n    :O4 -> H(O5)\n    O5-H -> O5\nend\n'
+            'product "c1ccc(C([O-:3])=[O:5])cc1"\n')
+    _, diags = check_text(text)
+    (d,) = [d for d in diags if d.code == "AR402"]
+    assert "O3" in d.message and "no counterpart" not in d.message, d.message

@@ -269,7 +269,13 @@ def _alignment(written: Chem.Mol, derived: Chem.Mol) -> dict[int, int]:
     if mapped:
         return mapped
     from rdkit.Chem import rdFMCS   # only a mismatch is explained: spared on every clean check
-    result = rdFMCS.FindMCS([written, derived], atomCompare=rdFMCS.AtomCompare.CompareElements,
+    # The common part of the heavy atoms: a hydrogen written as an atom (a D on another carbon)
+    # must not win a place in it over a heavy one (the ketone's O, then called unmatched).
+    heavy = [Chem.RWMol(m) for m in (written, derived)]
+    for work in heavy:
+        for atom in sorted((a.GetIdx() for a in work.GetAtoms() if a.GetAtomicNum() == 1), reverse=True):
+            work.RemoveAtom(atom)
+    result = rdFMCS.FindMCS([m.GetMol() for m in heavy], atomCompare=rdFMCS.AtomCompare.CompareElements,
                             bondCompare=rdFMCS.BondCompare.CompareAny, ringMatchesRingOnly=False,
                             completeRingsOnly=False, matchValences=False, timeout=2)
     if not result.numAtoms:
@@ -361,11 +367,14 @@ def _explain(frag: Fragment, closest: Fragment, state: ElectronState) -> tuple[l
             if expected != given:
                 details.append(f"bond {name(align[wi])}-{name(align[wj])}: expected {_order_text(expected)}, "
                                f"the moves give {_order_text(given)}")
-    unmatched = Counter(_nuclide(frag.mol.GetAtomWithIdx(i)) for i in range(frag.mol.GetNumAtoms()) if i not in align)
+    # Aligned by map numbers, only the numbered atoms are paired: the others are not unmatched.
+    by_maps = any(frag.mol.GetAtomWithIdx(i).GetAtomMapNum() for i in align)
+    counted = (lambda atom: atom.GetAtomMapNum() != 0) if by_maps else (lambda atom: True)
+    unmatched = Counter(_nuclide(atom) for i, atom in enumerate(frag.mol.GetAtoms()) if i not in align and counted(atom))
     if unmatched:
         details.append("written atoms with no counterpart: " + ", ".join(f"{n} {el}" for el, n in sorted(unmatched.items())))
-    extra = Counter(_nuclide(closest.mol.GetAtomWithIdx(i)) for i in range(closest.mol.GetNumAtoms())
-                    if i not in set(align.values()))
+    paired = set(align.values())
+    extra = Counter(_nuclide(atom) for i, atom in enumerate(closest.mol.GetAtoms()) if i not in paired and counted(atom))
     if extra:
         details.append("derived atoms not written: " + ", ".join(f"{n} {el}" for el, n in sorted(extra.items())))
     return details[:8], hint
