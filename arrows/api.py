@@ -7,6 +7,7 @@ from typing import Optional
 
 from .checks import run_checks
 from .diagnostics import Diagnostic, MechanismError
+from .rdkit_io import rdkit_messages
 from .language import load, parse
 from .model import Mechanism
 from .trace import Trace, replay
@@ -39,9 +40,11 @@ class Diagnostics(list):
 
 
 def check(mechanism: Mechanism) -> tuple[Trace, Diagnostics]:
-    """Replay and check a parsed mechanism."""
-    trace = replay(mechanism)
-    return trace, Diagnostics(run_checks(trace))
+    """Replay and check a parsed mechanism. What RDKit logs on the way (a written structure it
+    rejects) is said in the diagnostics, not printed: a library keeps off stderr."""
+    with rdkit_messages():
+        trace = replay(mechanism)
+        return trace, Diagnostics(run_checks(trace))
 
 
 # One replay per Mechanism object (keyed by identity, dropped with the object), so that
@@ -79,20 +82,20 @@ def draw(mechanism: Mechanism, fmt: str = "svg", style: Optional[str] = None, fo
     return render(trace, fmt, style=style, force=force, diagnostics=diagnostics)
 
 
-def check_text(text: str, name: str = "<text>") -> tuple[Trace | None, list[Diagnostic]]:
+def check_text(text: str, name: str = "<text>") -> tuple[Trace | None, Diagnostics]:
     """Parse, replay and check; syntax problems come back as diagnostics, never as exceptions."""
     try:
         mechanism = parse(text, name)
     except MechanismError as exc:
-        return None, exc.diagnostics
+        return None, Diagnostics(exc.diagnostics)   # the same type as a checked file's
     return check(mechanism)
 
 
-def check_file(path: str | Path) -> tuple[Trace | None, list[Diagnostic]]:
+def check_file(path: str | Path) -> tuple[Trace | None, Diagnostics]:
     try:
         mechanism = load(path)
     except MechanismError as exc:
-        return None, exc.diagnostics
+        return None, Diagnostics(exc.diagnostics)   # the same type as a checked file's
     return check(mechanism)
 
 

@@ -170,12 +170,23 @@ def mechanism_from_dict(data: dict, source_name: str = "<text>",
                      None if product is None else _read_checkpoint(product), source_name)
 
 
+def strict_json(text: str):
+    """json.loads, refusing NaN and Infinity, which JSON has not (Python's json writes them)."""
+    def refuse(name: str):
+        raise json.JSONDecodeError(f"{name} is not a JSON value", text, text.find(name))
+    return json.loads(text, parse_constant=refuse)
+
+
 def loads(text: str, file: str = "<json>") -> Mechanism:
     """Read a JSON document; problems raise MechanismError located at file:line:col."""
     try:
-        data = json.loads(text)
+        data = strict_json(text)
     except json.JSONDecodeError as exc:
         raise MechanismError([Diagnostic("AR100", f"not JSON: {exc.msg}", Location(file, exc.lineno, exc.colno),
+                                         hint="the file must be a JSON document written by `arrows export --to json`")]
+                             ) from None
+    except RecursionError:
+        raise MechanismError([Diagnostic("AR100", "not JSON this tool reads: nested too deeply", Location(file, 1, 1),
                                          hint="the file must be a JSON document written by `arrows export --to json`")]
                              ) from None
     from jsonschema import Draft202012Validator

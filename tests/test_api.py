@@ -256,3 +256,40 @@ def test_any_printable_mechanism_round_trips():
         assert arrows.parse(mechanism.to_text()) == mechanism
 
     round_trip()
+
+
+def test_check_text_returns_diagnostics_of_one_type():
+    """A text that does not parse gave a plain list, a checked one a Diagnostics: `.errors` failed
+    on the first."""
+    _, diags = arrows.check_text("species a = \n")
+    assert isinstance(diags, api.Diagnostics) and len(diags.errors) == 1
+
+
+def test_the_library_keeps_off_stderr(capfd):
+    """A checkpoint RDKit cannot read is said in the diagnostics; RDKit's own log line ("Explicit
+    valence ...") reached stderr from the library, and so did a product SMILES it could not parse
+    when drawing."""
+    import logging
+    import sys as _sys
+    from rdkit import rdBase
+
+    text = ('species w = "[OH2:1]"\nspecies b = "[OH-:2]"\nstep "pt"\n    :O2 -> H(O1)\n    O1-H -> O1\n'
+            '    expect "C(C)(C)(C)(C)C"\nend\nproduct "C1CC"\n')
+    # As in a user's program: RDKit's log goes to stderr (the command line's silencing not in force).
+    rdBase.LogToPythonLogger()
+    logger = logging.getLogger("rdkit")
+    saved = logger.handlers, logger.propagate
+    logger.handlers, logger.propagate = [logging.StreamHandler(_sys.stderr)], False
+    try:
+        _, diags = arrows.check_text(text)
+        arrows.parse(text).draw("svg", force=True)
+    finally:
+        logger.handlers, logger.propagate = saved
+    captured = capfd.readouterr()
+    assert captured.out == "" and captured.err == "", captured.err
+    assert [d.code for d in diags if d.severity == "error"] == ["AR102", "AR102"]
+
+
+def test_an_unknown_style_is_a_value_error():
+    with pytest.raises(ValueError, match="unknown style 'poster'"):
+        arrows.parse('species w = "[OH2:1]"\n').draw("svg", style="poster")

@@ -236,3 +236,15 @@ def test_an_unwritable_output_is_a_message_not_a_traceback(tmp_path):
     done = _arrows_main("export", str(GALLERY[0]), "--to", "json", "-o", str(target))
     assert done.returncode == 2
     assert done.stderr.startswith(f"{target}:1:1: error: cannot write") and "Traceback" not in done.stderr
+
+
+@pytest.mark.parametrize("constant", ["NaN", "Infinity"])
+def test_import_refuses_nan_and_infinity_with_a_location(constant, tmp_path):
+    """JSON has no NaN or Infinity, though Python's json module writes them: `arrows import` of
+    such a file ended in an AttributeError traceback; it is a located AR100, exit 2."""
+    path = tmp_path / "nan.json"
+    path.write_text('{"version": 1, "mechanism": {"species": []}, "extra": ' + constant + '}', encoding="utf-8")
+    done = subprocess.run([sys.executable, "-m", "arrows", "import", str(path)], capture_output=True, text=True,
+                          timeout=120)
+    assert done.returncode == 2 and f"{constant} is not a JSON value" in done.stderr
+    assert "Traceback" not in done.stderr

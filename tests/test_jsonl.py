@@ -282,3 +282,24 @@ def test_the_documented_records_pass_the_schema_and_check_clean():
         jsonschema.validate(record, SCHEMA)
         result = check_line("docs", number, line(record))
         assert result["ok"] and result["final_smiles"] == "O.[OH-]", result
+
+
+def test_a_record_nested_too_deeply_is_one_rejected_line():
+    """A line nested 100,000 levels deep made Python's JSON reader recurse out and the whole batch
+    end in a traceback with no results; it is that line's AR110, and NaN (which JSON has not,
+    though Python writes it) is one too."""
+    deep = ('{"id": "deep", "x": ' + "[" * 100000 + "]" * 100000 + ', "text": "x"}').encode()
+    result = check_line("data.jsonl", 3, deep)
+    assert not result["ok"] and result["diagnostics"][0]["code"] == "AR110"
+    assert "nested too deeply" in result["diagnostics"][0]["message"]
+    nan = check_line("data.jsonl", 4, b'{"id": "n", "x": NaN, "text": "title \\"a\\""}')
+    assert nan["diagnostics"][0]["code"] == "AR110" and "NaN" in nan["diagnostics"][0]["message"]
+
+
+def test_results_to_a_missing_folder_are_a_located_message(tmp_path):
+    """`-o` into a folder that does not exist was a FileNotFoundError traceback."""
+    data = tmp_path / "data.jsonl"
+    data.write_text('{"id": "w", "text": "species w = \\"O\\""}\n', encoding="utf-8")
+    done = subprocess.run([sys.executable, "-m", "arrows", "check", "--jsonl", str(data), "-o",
+                           str(tmp_path / "missing" / "out.jsonl")], capture_output=True, text=True, timeout=120)
+    assert done.returncode == 2 and "cannot write" in done.stderr and "Traceback" not in done.stderr

@@ -14,6 +14,7 @@ from typing import IO, Any, Callable, Iterable, Iterator, Optional
 from ..api import check_text
 from ..diagnostics import ERROR, WARNING, Diagnostic
 from ..language import STATEMENT_WORDS
+from ..mechanism_json import strict_json
 from ..model import Location
 from ..trace import state_smiles
 from .records import RecordProblem, RecordText, record_id, record_text
@@ -44,7 +45,10 @@ class Tally:
 def check_line(source: str, line_number: int, raw: bytes) -> dict:
     """The result object for one input line (see docs-batch.md for its fields)."""
     try:
-        record = json.loads(raw.decode("utf-8"))
+        record = strict_json(raw.decode("utf-8"))
+    except RecursionError:
+        return _rejected(source, line_number, None, 1, "AR110", "not JSON this tool reads: nested too deeply",
+                         "each line holds one mechanism record, a few levels deep", "")
     except UnicodeDecodeError as exc:
         return _rejected(source, line_number, None, exc.start + 1, "AR110", "the line is not UTF-8 text",
                          "save the data set as UTF-8", "")

@@ -8,6 +8,7 @@ import click
 
 from ..api import diagnose_file
 from ..diagnostics import ERROR, WARNING, to_json
+from .output import cannot_write
 
 
 def _a_number(ctx, param, value: float) -> float:
@@ -131,6 +132,11 @@ def _check_jsonl(path: str, output: str | None, jobs: int | None, cluster: str |
         click.echo(f"error: {exc}; the results are incomplete" + (f" and {output} was not written" if output else ""),
                    err=True)
         return 1
+    except OSError as exc:   # the results file cannot be written (its folder is missing), or the input failed
+        if output:
+            cannot_write(output, exc)
+        click.echo(f"{source}:1:1: error: cannot read {source}: {exc.strerror or exc}", err=True)
+        return 2
     if not quiet:
         click.echo(f"{tally.records} record{'s' if tally.records != 1 else ''} checked ({tally.steps} steps): "
                    f"{tally.ok} without errors, {tally.with_errors} with errors, "

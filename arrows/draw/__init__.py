@@ -23,6 +23,8 @@ def _style(style: Optional[Style | str]) -> Style:
     if style is None:
         return STYLES[DEFAULT_STYLE]
     if isinstance(style, str):
+        if style not in STYLES:
+            raise ValueError(f"unknown style {style!r}; use one of {', '.join(STYLES)}")
         return STYLES[style]
     return style
 
@@ -31,8 +33,10 @@ def build_scene(trace: Trace, style: Optional[Style | str] = None,
                 diagnostics: Optional[Sequence[Diagnostic]] = None) -> Scene:
     """The figure as data: panels, atom positions (points), bonds, labels, curved arrows with
     their control points and the source and sink they belong to, reaction arrows, text."""
+    from ..rdkit_io import rdkit_messages
     from .scheme import build_scene as _build_scene
-    return _build_scene(trace, _style(style), diagnostics or ())
+    with rdkit_messages():   # a library keeps off stderr (a product SMILES RDKit cannot read)
+        return _build_scene(trace, _style(style), diagnostics or ())
 
 
 def render_svg(trace: Trace, style: Optional[Style | str] = None, force: bool = False,
