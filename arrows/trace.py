@@ -346,6 +346,12 @@ class Replay:
                                                    hint="`releases` names a mapped atom of the leaving fragment",
                                                    step=index))
                 continue
+            if atom_index in after.released:
+                name = after.label(atom_index)
+                self.diagnostics.append(Diagnostic(
+                    "AR106", f"{name} left the drawing with `releases` in an earlier step", ref.loc,
+                    hint=f"release a fragment once: drop this `releases {name}`", step=index, atoms=(name,)))
+                continue
             fragment = _fragment_of(after.mol, atom_index) - released
             reacted = len(touched) > 1 and fragment.issuperset(touched)
             if (reacted or not touched) and len(fragment) > 1 and not _smaller_than_another(after, fragment, released):

@@ -297,6 +297,12 @@ TWINS = [
          says=("line 2",)),
     # Bromide left the scheme in step 1; it cannot act as the base in step 2.
     Twin("move on a released atom", E1, ":O6 -> H(C1)", ":Br5 -> H(C1)", "AR106", "Br5 -> H(C1)"),
+    # The hydroxide let go twice: the second `releases` names nothing left to release.
+    Twin("fragment released twice",
+         'species w = "[OH2:1]"\nspecies b = "[OH-:2]"\nstep "pt"\n    :O2 -> H(O1)\n    O1-H -> O1\n'
+         '    releases O1\nend\nstep "later"\nend\n',
+         'step "later"\nend\n', 'step "later"\n    releases O1\nend\n', "AR106", "O1\nend", occurrence=2,
+         hint_says=("release a fragment once",), alone=False),
     Twin("step after the product", SN2, 'product "CO.[Br-]"\n',
          'product "CO.[Br-]"\nstep "afterthought"\n    :O1 -> C2\nend\n', "AR107", 'step "afterthought"'),
     Twin("two species with one name", ACID_BASE, "species base", "species acid", "AR108", "species acid",

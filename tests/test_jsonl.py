@@ -303,3 +303,14 @@ def test_results_to_a_missing_folder_are_a_located_message(tmp_path):
     done = subprocess.run([sys.executable, "-m", "arrows", "check", "--jsonl", str(data), "-o",
                            str(tmp_path / "missing" / "out.jsonl")], capture_output=True, text=True, timeout=120)
     assert done.returncode == 2 and "cannot write" in done.stderr and "Traceback" not in done.stderr
+
+
+@pytest.mark.parametrize("move", ["releases O1", "", "# a comment", "end", "O1"])
+def test_a_move_that_is_no_move_is_rejected_where_it_stands(move):
+    """Each string of `moves` becomes a line of the mechanism: "releases O1" ran as a release with
+    ok true, "" and a comment passed, and "end" was reported at a later move."""
+    record = {"id": "m", "species": {"w": "[OH2:1]", "b": "[OH-:2]"},
+              "steps": [{"moves": [":O2 -> H(O1)", "O1-H -> O1", move]}]}
+    result = check_line("data.jsonl", 1, json.dumps(record).encode())
+    (d,) = result["diagnostics"]
+    assert (d["code"], d["record_location"]["field"]) == ("AR111", "/steps/0/moves/2") and "not an electron move" in d["message"]

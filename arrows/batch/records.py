@@ -100,6 +100,10 @@ def _written_out(record: dict) -> RecordText:
     return RecordText("\n".join(text for text, _ in lines) + "\n", tuple(p for _, p in lines))
 
 
+_ARROW = re.compile(r"\S\s*(->|~>)\s*\S")
+_NOT_MOVES = {"uses", "releases", "expect", "end", "step", "species", "product", "title", "caption"}
+
+
 def _step_lines(step: Any, i: int) -> list[tuple[str, str]]:
     here = pointer("steps", i)
     if not isinstance(step, dict):
@@ -132,7 +136,14 @@ def _step_lines(step: Any, i: int) -> list[tuple[str, str]]:
                             '"moves": [":O11 -> H(C3)", "C3-H -> C2=C3"]')
     for j, move in enumerate(moves):
         where = pointer("steps", i, "moves", j)
-        lines.append(("    " + _string(move, where), where))
+        text = _string(move, where)
+        words = text.split()
+        if not words or "\n" in text or "#" in words[0] or words[0] in _NOT_MOVES or not _ARROW.search(text):
+            # (each move becomes a line of the mechanism: a statement there would run as one)
+            raise RecordProblem(where, f"not an electron move: {text!r}",
+                                'a move reads source -> sink, e.g. ":O11 -> H(C3)"; `releases` and `expect` '
+                                "are fields of the step")
+        lines.append(("    " + text, where))
     for j, atom in enumerate(_array(step.get("releases", []), here + "/releases")):
         where = pointer("steps", i, "releases", j)
         if not isinstance(atom, str) or not ATOM.match(atom):
