@@ -171,10 +171,20 @@ def mechanism_from_dict(data: dict, source_name: str = "<text>",
 
 
 def strict_json(text: str):
-    """json.loads, refusing NaN and Infinity, which JSON has not (Python's json writes them)."""
+    """json.loads, refusing NaN and Infinity, which JSON has not (Python's json writes them), and
+    a key written twice in one object, of which Python would keep the last without a word."""
     def refuse(name: str):
         raise json.JSONDecodeError(f"{name} is not a JSON value", text, text.find(name))
-    return json.loads(text, parse_constant=refuse)
+
+    def unique(pairs: list[tuple[str, object]]) -> dict:
+        seen = {}
+        for key, value in pairs:
+            if key in seen:
+                raise json.JSONDecodeError(f"the key {key!r} is written twice in one object", text,
+                                           text.find(json.dumps(key)))
+            seen[key] = value
+        return seen
+    return json.loads(text, parse_constant=refuse, object_pairs_hook=unique)
 
 
 def loads(text: str, file: str = "<json>") -> Mechanism:

@@ -314,3 +314,11 @@ def test_a_move_that_is_no_move_is_rejected_where_it_stands(move):
     result = check_line("data.jsonl", 1, json.dumps(record).encode())
     (d,) = result["diagnostics"]
     assert (d["code"], d["record_location"]["field"]) == ("AR111", "/steps/0/moves/2") and "not an electron move" in d["message"]
+
+
+def test_a_key_written_twice_is_rejected():
+    """Python's JSON reader keeps the last of two equal keys without a word: a record's id, or a
+    species name written twice, silently lost one of them."""
+    result = check_line("data.jsonl", 1, b'{"id": "a", "id": "b", "text": "species w = \\"O\\""}')
+    (d,) = result["diagnostics"]
+    assert d["code"] == "AR110" and "'id' is written twice" in d["message"]
