@@ -322,3 +322,12 @@ def test_a_key_written_twice_is_rejected():
     result = check_line("data.jsonl", 1, b'{"id": "a", "id": "b", "text": "species w = \\"O\\""}')
     (d,) = result["diagnostics"]
     assert d["code"] == "AR110" and "'id' is written twice" in d["message"]
+
+
+def test_a_structured_record_is_told_fields_not_lines():
+    """A record of species and steps has no lines: "map number 1 is already used (line 1)" named a
+    line of the text made from it; the field is named instead."""
+    record = {"id": "d", "species": {"w": "[OH2:1]", "b": "[OH-:1]"}, "steps": []}
+    result = check_line("data.jsonl", 1, json.dumps(record).encode())
+    messages = [d["message"] for d in result["diagnostics"] if d["code"] == "AR103"]
+    assert messages == ["map number 1 is already used (at /species/w)"], result["diagnostics"]

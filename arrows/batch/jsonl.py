@@ -8,6 +8,7 @@ processes or on a Dask cluster, which is why the three give identical results.
 from __future__ import annotations
 
 import json
+import re
 from dataclasses import dataclass
 from typing import IO, Any, Callable, Iterable, Iterator, Optional
 
@@ -117,6 +118,11 @@ def _placed(diag: Diagnostic, source: str, line_number: int, mechanism: RecordTe
     inside: dict[str, Any] = {"field": mechanism.field_of(diag.loc.line) or None}
     if mechanism.pointers is None:
         inside.update(line=diag.loc.line, column=diag.loc.column)
+    else:
+        # A structured record has no lines of its own: "(line 1)" of the text made from it is
+        # told as the field it came from.
+        entry["message"] = re.sub(r"\(line (\d+)\)", lambda m: f"(at {mechanism.field_of(int(m.group(1))) or 'the record'})",
+                                  entry["message"])
     entry.update(file=source, line=line_number, column=0, record_location=inside)
     return entry
 
