@@ -303,10 +303,9 @@ class RingClosures(Check):
 def _three_ring_partner(st: StepTrace, c: StepClosure) -> Optional[int]:
     """The third atom of a three-membered ring that the closure opens at the attacked atom (the
     other carbon of an epoxide or aziridine), or None."""
-    w, y = c.broken_partner, c.attacked
-    if w is None or st.before.mol.GetBondBetweenAtoms(w, y) is None:
+    w, y, mol = c.broken_partner, c.attacked, st.before.mol
+    if w is None or mol.GetBondBetweenAtoms(w, y) is None:
         return None
-    mol = st.before.mol
     shared = ({n.GetIdx() for n in mol.GetAtomWithIdx(w).GetNeighbors()}
               & {n.GetIdx() for n in mol.GetAtomWithIdx(y).GetNeighbors()})
     return next(iter(sorted(shared)), None)

@@ -79,7 +79,7 @@ TABLE: tuple[Acidity, ...] = (
     # The vinylogous (gamma) C-H of an enone ~20, an acyl chloride's alpha C-H ~16 (estimated), DMSO's
     # C-H 35, 1,3-dithiane 31, Ph3CH 31.5, Ph2CH2 32, a benzylic or allylic C-H 41-43, an aniline N-H
     # 31 (DMSO scale where no aqueous value exists; memory): not alkanes.
-    Acidity("an acyl chloride alpha C-H", "a ketene-forming enolate", "[CX4;!H0][CX3](=O)[Cl,Br]", 16, "~16",
+    Acidity("an acyl chloride alpha C-H", "an acyl chloride enolate", "[CX4;!H0][CX3](=O)[Cl,Br]", 16, "~16",
             NOT_LISTED),
     Acidity("an enone gamma C-H", "a dienolate", "[CX4;!H0][CX3]=[CX3][CX3]=O", 20, "~20", NOT_LISTED),
     Acidity("a C-H beside a sulfoxide", "a sulfinyl carbanion", "[CX4;!H0][SX3](=O)", 35, "~35", NOT_LISTED),
