@@ -306,3 +306,15 @@ def test_heavy_lines_are_noted():
     plain = arrows.draw.build_scene(trace, STYLES["two-column"], diags)
     assert any("lines of 10 pt are heavy" in note for note in heavy.notes)
     assert not any("heavy" in note for note in plain.notes)
+
+
+def test_characters_the_font_lacks_are_noted():
+    """A title in Chinese with an emoji printed as empty boxes with no word said (DejaVu Sans has
+    neither); a font of the author's choosing is taken to have them."""
+    text = ('title "SN2 \u53cd\u5e94 \U0001F642"\nspecies a = "[OH-:1]"\nspecies b = "[CH3:2][Br:3]"\n'
+            'step "x"\n    :O1 -> C2\n    C2-Br3 -> Br3\nend\n')
+    trace, diags = arrows.check_text(text)
+    default = arrows.draw.build_scene(trace, STYLES["two-column"], diags)
+    chosen = arrows.draw.build_scene(trace, STYLES["two-column"].with_options(font_family="Noto Sans CJK SC"), diags)
+    assert any("no glyphs for (\u53cd\u5e94\U0001F642)" in note for note in default.notes)
+    assert not any("glyphs" in note for note in chosen.notes)

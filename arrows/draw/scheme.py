@@ -166,7 +166,7 @@ def build_scene(trace: Trace, style: Style, diagnostics: Sequence[Diagnostic] = 
     """Lay out the whole scheme. Shrinks it (and says so in `notes`) if one panel is wider than
     the page, or the slide is too tall."""
     scene, fit = _SceneBuilder(trace, style, diagnostics).build()
-    uneven = _uneven_bonds(scene) + _crowded_atoms(scene) + _heavy_lines(style)
+    uneven = _uneven_bonds(scene) + _crowded_atoms(scene) + _heavy_lines(style) + _glyphs_wanting(trace, style)
     if fit < 0.999:
         smaller = style.scaled(fit * 0.995)
         scene, _ = _SceneBuilder(trace, smaller, diagnostics, style).build()
@@ -176,6 +176,26 @@ def build_scene(trace: Trace, style: Style, diagnostics: Sequence[Diagnostic] = 
                      "try a wider style")
         scene = replace(scene, notes=(note,) + scene.notes)
     return replace(scene, notes=scene.notes + uneven) if uneven else scene
+
+
+# Scripts the default font (DejaVu Sans) has no glyphs for: CJK, Hangul, emoji and other pictographs.
+_NO_GLYPHS = ((0x2E80, 0x9FFF), (0xAC00, 0xD7AF), (0xF900, 0xFAFF), (0x1F000, 0x1FAFF), (0x20000, 0x2FA1F))
+
+
+def _glyphs_wanting(trace: Trace, style: Style) -> tuple[str, ...]:
+    """A note when the texts the scheme writes (title, conditions over and under the arrows) hold
+    characters the default font has no glyph for: they print as empty boxes. (A font of the
+    author's choosing is taken to have them.)"""
+    if style.font_family != Style.font_family:
+        return ()
+    mechanism = trace.mechanism
+    texts = [mechanism.title or ""] + [t for st in mechanism.steps for t in (st.over, st.under) if t]
+    wanting = sorted({c for text in texts for c in text if any(a <= ord(c) <= b for a, b in _NO_GLYPHS)})
+    if not wanting:
+        return ()
+    shown = "".join(wanting[:8]) + ("..." if len(wanting) > 8 else "")
+    return (f"the texts hold characters the default font has no glyphs for ({shown}): they print as empty boxes; "
+            f"choose a font that has them with --font",)
 
 
 def _heavy_lines(style: Style) -> tuple[str, ...]:
