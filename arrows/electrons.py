@@ -8,8 +8,6 @@ through a move.
 """
 from __future__ import annotations
 
-import re
-
 from dataclasses import dataclass, field
 from functools import lru_cache
 from typing import Callable, NamedTuple, Optional
@@ -20,7 +18,7 @@ from .diagnostics import Diagnostic
 from .model import (AtomSink, BareAtom, BondPair, BondRef, BondSink, HydrogenOn, Location, LonePair, Move, NonbondingSink, Step,
                     UnpairedElectron, CONNECTORS)
 from .configuration import carry_configuration, has_configuration, may_configure
-from .rdkit_io import ELECTRONEGATIVITY, atom_list, valence_electrons
+from .rdkit_io import ELECTRONEGATIVITY, atom_list, valence_complaint, valence_electrons
 
 _BOND_TYPES = {1: Chem.BondType.SINGLE, 2: Chem.BondType.DOUBLE, 3: Chem.BondType.TRIPLE}
 # RDKit's valence check and computed properties (implicit hydrogens, explicit valence): what makes a
@@ -791,9 +789,9 @@ def _settle(state: ElectronState, step: Step, step_index: int, replay: _StepRepl
         Chem.FastFindRings(work)   # ring membership for the checks; full ring perception is the views' job
     except Exception as exc:
         # RDKit counts atoms from 0 ("atom # 7 S, 7"): the author's label is named instead (S20).
-        reason = re.sub(r"Explicit valence for atom # (\d+) \w+, (\d+), is greater than permitted",
-                        lambda m: f"{state.label(int(m.group(1)))} would have valence {m.group(2)}, more than RDKit "
-                                  f"allows" if int(m.group(1)) < len(elements) else m.group(0), str(exc))
+        complaint = valence_complaint(str(exc))
+        reason = (f"{state.label(complaint[0])} would have valence {complaint[2]}, more than RDKit allows"
+                  if complaint and complaint[0] < len(elements) else str(exc))
         diags.append(Diagnostic("AR304", f"RDKit rejects the structure after this step: {reason}", step.loc,
                                 "check charges and bond orders with `arrows trace`", step=step_index))
         return None, change, diags

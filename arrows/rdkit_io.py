@@ -76,13 +76,20 @@ _ATOM_TOKEN = re.compile(r"\[[^\]]*\]|Br|Cl|[BCNOPSFI]|[bcnops]|\*")
 _OVER_VALENCE = "more than RDKit allows"   # in _over_valence's reason, which reading_hint recognises
 
 
+def valence_complaint(reason: str) -> Optional[tuple[int, str, int]]:
+    """(atom index counted from 0, element, valence) of RDKit's `Explicit valence for atom # 2 C,
+    5, is greater than permitted`; None for any other reason."""
+    match = _VALENCE.search(reason)
+    return None if match is None else (int(match.group(1)), match.group(2), int(match.group(3)))
+
+
 def _over_valence(reason: str, smiles: str) -> Optional[tuple[str, int]]:
     """RDKit's valence complaint in the author's terms: the atom as written and where it stands in
-    the SMILES, for `Explicit valence for atom # 2 C, 4, ...`; None for any other reason."""
-    match = _VALENCE.search(reason)
-    if match is None:
+    the SMILES; None for any other reason."""
+    complaint = valence_complaint(reason)
+    if complaint is None:
         return None
-    index, element, valence = int(match.group(1)), match.group(2), int(match.group(3))
+    index, element, valence = complaint
     tokens = list(_ATOM_TOKEN.finditer(smiles))
     if index >= len(tokens):
         return None

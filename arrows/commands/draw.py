@@ -81,7 +81,7 @@ def draw_command(file, output, fmt, style, color, numbers, cip, step_labels, no_
         sys.exit(1)
     to_stdout = str(output) == "-"
     if not to_stdout and not output.parent.is_dir():
-        cannot_write(output, FileNotFoundError(2, f"the folder {output.parent} does not exist"))
+        cannot_write(output, FileNotFoundError(2, "no such folder"))   # (cannot_write names the folder at fault)
 
     from ..draw import DrawError, build_scene
     from ..atomic import write_bytes as write_atomic

@@ -438,12 +438,13 @@ def _near_any_way(points, ways: list[tuple[complex, complex]], reach: float = 0.
     return any(distance_to_segment(p, a, b) < reach for a, b in ways for p in points)
 
 
-def _any_atom_inside(xyz: list[list[float]], rings: list[list[int]], count: int) -> bool:
-    """Whether one of the first `count` atoms at `xyz` stands inside one of `rings` (atom index
-    lists in ring order) that it is not part of."""
+def _any_inside_ring(points, rings: Iterable[list[int]], atoms: Iterable[int]) -> bool:
+    """Whether one of `atoms` stands inside one of `rings` (atom indices in ring order) that it is
+    not part of; `points` gives each atom's position (complex), by index."""
+    atoms = list(atoms)
     for ring in rings:
-        polygon = [complex(xyz[a][0], xyz[a][1]) for a in ring]
-        if any(a not in ring and _inside(complex(xyz[a][0], xyz[a][1]), polygon) for a in range(count)):
+        polygon = [points[a] for a in ring]
+        if any(a not in ring and _inside(points[a], polygon) for a in atoms):
             return True
     return False
 
@@ -1339,13 +1340,9 @@ class _LayoutBuilder:
         """Whether, in `local`, a heavy atom of `group` stands inside a ring made of `bonds` that it
         is not part of (RDKit's depiction of an epoxidised silyl enol ether, its silyloxy oxygen
         inside the cyclohexane)."""
-        heavy = [a for a in group if self.element[a] != 1]
-        for ring in self.rings:
-            if all((min(a, b), max(a, b)) in bonds for a, b in zip(ring, ring[1:] + ring[:1])):
-                polygon = [local[a] for a in ring]
-                if any(a not in ring and _inside(local[a], polygon) for a in heavy):
-                    return True
-        return False
+        rings = [ring for ring in self.rings
+                 if all((min(a, b), max(a, b)) in bonds for a, b in zip(ring, ring[1:] + ring[:1]))]
+        return _any_inside_ring(local, rings, (a for a in group if self.element[a] != 1))
 
     def _even(self, local: dict[int, complex], group: list[int], panels: Iterable[int]) -> bool:
         """Every bond among `group` in `panels` within 2% of one bond length in `local`."""
@@ -1712,7 +1709,7 @@ class _LayoutBuilder:
         # cut short in _phases, and the union of every panel's bonds, a cage where a ring grows,
         # is there to be judged uneven and redrawn run by run.)
         own_rings = [r for r in smallest if max(r) < len(group)] if panels is not None and len(panels) == 1 else []
-        if own_rings and _any_atom_inside(xyz, own_rings, len(group)):
+        if own_rings and _any_inside_ring([complex(x, y) for x, y, _ in xyz], own_rings, range(len(group))):
             # RDKit's own depictor sets a substituent of a carbon shared by a three-membered and a
             # larger ring inside the larger one (the silyloxy group of an epoxidised silyl enol
             # ether); coordgen, RDKit's other depictor, draws it outside. Taken only where it
@@ -1725,7 +1722,8 @@ class _LayoutBuilder:
             other = mol.GetConformer().GetPositions().tolist()
             lengths = [_distance(other[a], other[b]) for a, b in ends]
             mean = sum(lengths) / len(lengths) if lengths else 1.0
-            if all(abs(x / mean - 1.0) <= 0.02 for x in lengths) and not _any_atom_inside(other, own_rings, len(group)):
+            if all(abs(x / mean - 1.0) <= 0.02 for x in lengths) \
+                    and not _any_inside_ring([complex(x, y) for x, y, _ in other], own_rings, range(len(group))):
                 xyz = other
         lengths = [_distance(xyz[a], xyz[b]) for a, b in ends]
         scale = 1.0 / (sum(lengths) / len(lengths)) if lengths else 1.0
