@@ -30,6 +30,7 @@ import numpy as np
 
 from ..electrons import ElectronState, ResolvedMove
 from .formula import MINUS
+from .plane import unit
 from .scene import Box, CurvedArrow, Mark
 from .structure import (PanelStructure, clearance, closes_cycle, level_and_close, minus_along_stroke, ranked_directions,
                         ray_exit, segment_hits_box)
@@ -87,11 +88,6 @@ def split_before(p0: complex, p1: complex, p2: complex, p3: complex, t: float) -
 def _handle(theta: float) -> float:
     """Handle length over chord for a cubic close to a circular arc leaving the chord at theta."""
     return (4.0 / 3.0) * math.tan(theta / 2) / (2 * math.sin(theta))
-
-
-def _unit(z: complex) -> complex:
-    size = abs(z)
-    return z / size if size > 1e-12 else 1 + 0j
 
 
 def _units(z: np.ndarray) -> np.ndarray:
@@ -345,15 +341,15 @@ class ArrowPlanner:
             a, b = move.source_atoms
             mid = (panel.positions[a] + panel.positions[b]) / 2
             extent = panel.bond_extent.get((min(a, b), max(a, b)), 0.0)
-            return _Anchor("bond", mid, (a, b), extent=extent, axis=_unit(panel.positions[b] - panel.positions[a]))
+            return _Anchor("bond", mid, (a, b), extent=extent, axis=unit(panel.positions[b] - panel.positions[a]))
         atom = move.source_atoms[0]
         centre = panel.positions[atom]
         # Dots sit on a side or a corner of the label, facing where the arrow goes; for a pair
         # that goes into a bond of the same atom they sit in a free gap well round from that
         # bond, so the arrow over to its middle is long enough to read as a curve.
-        toward = _unit(sink.point - centre)
+        toward = unit(sink.point - centre)
         if atom in sink.atoms and sink.kind in ("bond", "gap"):
-            near = [_unit(t - centre) for t in tails if abs(t - centre) < _TAIL_REACH * self.bl]
+            near = [unit(t - centre) for t in tails if abs(t - centre) < _TAIL_REACH * self.bl]
             # A label close by (a hydrogen on the next atom) leaves no room for the arc either; nor
             # does any atom of the molecule close by (the other groups of a crowded tetrahedral
             # centre). (Another molecule's atoms wait there for arrows of their own.)
@@ -361,7 +357,7 @@ class ArrowPlanner:
 
             def steering(i: int) -> float:   # how near atom i stands before it steers the dots away
                 return _CROWDING_REACH if i in kin else _TAIL_REACH if panel.atoms[i].box is not None else 0.0
-            labels = [_unit(p - centre) for i, p in panel.positions.items() if i != atom and i in panel.atoms
+            labels = [unit(p - centre) for i, p in panel.positions.items() if i != atom and i in panel.atoms
                       and 1e-9 < abs(p - centre) < steering(i) * self.bl]
             occupied = list(panel.occupied[atom])
             sign = next((m for m in panel.marks if m.kind == "charge" and m.atom == atom and m.box is not None), None)
@@ -370,7 +366,7 @@ class ArrowPlanner:
                 # its gap (the arc over to the bond needs the widest), and the sign moves on
                 # (_clear_marks) if it finds a place clear of the bonds.
                 middle = complex((sign.box.x0 + sign.box.x1) / 2, (sign.box.y0 + sign.box.y1) / 2)
-                occupied.remove(min(occupied, key=lambda d: abs(d - _unit(middle - centre))))
+                occupied.remove(min(occupied, key=lambda d: abs(d - unit(middle - centre))))
             ranked = _beside_bond(occupied + labels, toward, near)
         else:
             steps = 8 if panel.atoms[atom].box is not None else 24
@@ -438,12 +434,12 @@ class ArrowPlanner:
         centre = panel.positions[atom]
         middle = complex((sign.box.x0 + sign.box.x1) / 2, (sign.box.y0 + sign.box.y1) / 2)
         occupied = list(panel.occupied[atom])
-        occupied.remove(min(occupied, key=lambda d: abs(d - _unit(middle - centre))))
+        occupied.remove(min(occupied, key=lambda d: abs(d - unit(middle - centre))))
         half = max(sign.box.width, sign.box.height) / 2
         others = [m.box for m in mine if m is not sign] + ([dots] if dots is not None else []) + [
             a.box for i, a in panel.atoms.items() if i != atom and a.box is not None]
         bonds = [(complex(*p), complex(*q)) for bond in panel.bonds for p, q in bond.lines]
-        was = _unit(middle - centre)
+        was = unit(middle - centre)
         # First a little further out along its line (a superscript stays a superscript); then the
         # nearest free side to where it was.
         outward = 1.0 if middle.real >= centre.real else -1.0
@@ -504,7 +500,7 @@ class ArrowPlanner:
         if not bonded and move.source_kind in ("lone_pair", "unpaired"):
             return _Anchor("atom", pos[y], (y,))
         mid = (pos[x] + pos[y]) / 2
-        axis = _unit(pos[y] - pos[x])
+        axis = unit(pos[y] - pos[x])
         if bonded:
             # A double bond drawn to one side is aimed at the middle of its two strokes, so a head
             # arriving from the bare side does not stand off as far as the second stroke.
@@ -524,9 +520,9 @@ class ArrowPlanner:
                 # A 1,2-shift: the group leaves the pivot for the pivot's neighbour, the cationic
                 # centre; the head points at that atom (short of its label), so the arrow reads
                 # as the whole move.
-                label = panel.label_reach(far, _unit(pos[near] - pos[far]))
+                label = panel.label_reach(far, unit(pos[near] - pos[far]))
                 pivot, reach = left[0], label + 0.12 * self.fs if label else _SHIFT_REACH * self.bl
-            mid = pos[far] + _unit(pos[near] - pos[far]) * reach
+            mid = pos[far] + unit(pos[near] - pos[far]) * reach
         return _Anchor("gap", mid, (x, y), axis=axis, pivot=pivot)
 
     def _separate_shared_sinks(self, moves: list[ResolvedMove], sinks: list[_Anchor], panel: PanelStructure) -> None:
@@ -559,9 +555,9 @@ class ArrowPlanner:
                 if kind == "atom":
                     if _to_own_atom(moves[k]):
                         continue   # a half-loop onto its own atom keeps its shape; the other gives way
-                    along = _unit(pos[moves[k].source_atoms[0]] - sink.point)
+                    along = unit(pos[moves[k].source_atoms[0]] - sink.point)
                 else:
-                    along = _unit(pos[towards[k]] - sink.point)
+                    along = unit(pos[towards[k]] - sink.point)
                 sink.point = sink.point + along * 0.16 * self.bl
 
     # candidate curves
@@ -592,7 +588,7 @@ class ArrowPlanner:
         h = 0.4 * self.bl
         atom = snk.atoms[0]
         other, = (a for a in src.atoms if a != atom)
-        along = _unit(panel.positions[other] - panel.positions[atom])   # from the atom down its bond
+        along = unit(panel.positions[other] - panel.positions[atom])   # from the atom down its bond
         for normal in (src.axis * 1j, src.axis * -1j):
             p0 = src.point + normal * (src.extent + 0.05 * self.bl)
             reach = panel.label_reach(atom, normal)
@@ -627,7 +623,7 @@ class ArrowPlanner:
         for (i, j), extent in panel.bond_extent.items():
             if atom in (i, j):
                 far = panel.positions[j if i == atom else i]
-                if abs(_unit(far - centre) - direction) < 1e-6:
+                if abs(unit(far - centre) - direction) < 1e-6:
                     side = direction * 1j * extent
                     return _curve_crosses(c, [(centre + off, far + off) for off in (0j, side, -side)])
         return False
@@ -941,7 +937,7 @@ class ArrowPlanner:
         the shaft ending under the head at t_shaft."""
         p0, p1, p2, tip = c.p0, c.p1, c.p2, c.tip
         base = bezier(p0, p1, p2, tip, t_base)
-        direction = _unit(tip - base)
+        direction = unit(tip - base)
         s0, s1, s2, s3 = split_before(p0, p1, p2, tip, t_shaft)
         normal = direction * 1j
         back = tip - direction * head
@@ -982,7 +978,7 @@ def _inside_own_ring(panel: PanelStructure, atom: int):
         adjacent.setdefault(a, []).append(b)
         adjacent.setdefault(b, []).append(a)
     centre = panel.positions[atom]
-    ring = [_unit(panel.positions[n] - centre) for n in adjacent.get(atom, ()) if closes_cycle(atom, n, adjacent)]
+    ring = [unit(panel.positions[n] - centre) for n in adjacent.get(atom, ()) if closes_cycle(atom, n, adjacent)]
     if len(ring) != 2:
         return lambda d: False
     first, second = ring
@@ -1082,7 +1078,7 @@ def _split_bond_sides(w: _PanelArrows, options: list[list[_Candidate]],
     for (a, b), arrows in split.items():
         if len(arrows) != 2:
             continue
-        axis = _unit(w.panel.positions[b] - w.panel.positions[a])
+        axis = unit(w.panel.positions[b] - w.panel.positions[a])
         i, j = arrows
         sides = [np.array([((bezier(c.p0, c.p1, c.p2, c.tip, 0.5) - w.sources[k].point) / axis).imag > 0
                            for c in options[k]]) for k in (i, j)]
@@ -1112,8 +1108,8 @@ def _in_crook(pts: np.ndarray, sources: list[_Anchor], sinks: list[_Anchor], own
             at = where[id(ob)] = dict(zip(ob.atom_ids, ob.atom_xy))
         if pivot not in at or any(a not in at for a in ends):
             continue
-        first, second = (_unit(at[a] - at[pivot]) for a in ends)
-        angles[k] = (at[pivot], _unit(first + second), abs(cmath.phase(second / first)) / 2)
+        first, second = (unit(at[a] - at[pivot]) for a in ends)
+        angles[k] = (at[pivot], unit(first + second), abs(cmath.phase(second / first)) / 2)
     if not angles:
         return None
     middles, out = pts[:, _SAMPLES // 2], np.zeros(len(pts))

@@ -33,7 +33,8 @@ from rdkit.Chem import rdDepictor
 from ..electrons import ElectronState, ResolvedMove
 from ..rdkit_io import bond_list
 from .branches import ease_clashes, side_beyond, slot_beside
-from .scene import distance_to_segment
+from .plane import (angular_gaps, any_inside_polygons, collinear, crosses_any, distance_to_segment, free_direction,
+                    gap_beside, gap_facing, inside_polygon, segments_cross, unit)
 
 # Gap between a transferred hydrogen and the atom that takes it, in bond lengths: room for a
 # curved arrow, close enough to read as one event.
@@ -194,50 +195,6 @@ def visible_atoms(state: ElectronState, drawn_hydrogens: frozenset[int]) -> tupl
                   if i not in released and (z != 1 or i in drawn_hydrogens)])
 
 
-def _gaps(centre: complex, others: Sequence[complex]) -> list[tuple[float, float]]:
-    """The gaps between the directions from centre to `others`, each as (start, end) angles
-    counterclockwise, the last one wrapping round past pi."""
-    directions = sorted(cmath.phase(o - centre) for o in others if abs(o - centre) > 1e-9)
-    return [(a, directions[(k + 1) % len(directions)] + (2 * math.pi if k + 1 == len(directions) else 0))
-            for k, a in enumerate(directions)]
-
-
-def free_direction(centre: complex, others: Sequence[complex], prefer: Optional[complex] = None) -> complex:
-    """Unit vector from centre into the widest gap between the directions to `others`.
-
-    With no neighbours any direction is free: `prefer` (or +x) is used."""
-    gaps = _gaps(centre, others)
-    if not gaps:
-        return prefer / abs(prefer) if prefer else 1 + 0j
-    if len(gaps) == 1:
-        return -cmath.rect(1.0, gaps[0][0])
-    best_gap, best_mid = -1.0, 0.0
-    for a, b in gaps:
-        if b - a > best_gap + 1e-9:
-            best_gap, best_mid = b - a, (a + b) / 2
-    return cmath.rect(1.0, best_mid)
-
-
-def gap_beside(centre: complex, others: Sequence[complex], target: complex) -> complex:
-    """Unit vector from centre into the wider of the two gaps between the directions to `others`
-    that border the direction to `target` (one of them)."""
-    aim = cmath.phase(target - centre)
-    best_gap, best_mid = -1.0, aim
-    for a, b in _gaps(centre, others):
-        borders = min(abs(cmath.phase(cmath.rect(1.0, a - aim))), abs(cmath.phase(cmath.rect(1.0, b - aim)))) < 1e-6
-        if borders and b - a > best_gap + 1e-9:
-            best_gap, best_mid = b - a, (a + b) / 2
-    return cmath.rect(1.0, best_mid)
-
-
-def gap_facing(centre: complex, others: Sequence[complex], target: complex) -> complex:
-    """Unit vector from centre into the middle of the gap between the directions to `others`
-    whose middle lies nearest the direction to `target`."""
-    aim = _unit(target - centre)
-    middles = [cmath.rect(1.0, (a + b) / 2) for a, b in _gaps(centre, others)]
-    return max(middles, key=lambda d: (d * aim.conjugate()).real) if middles else aim
-
-
 def _cis(local: dict[int, complex], i: int, j: int, a: int, b: int) -> Optional[bool]:
     """Whether a (on i) and b (on j) are drawn on one side of the bond i=j; None if either lies
     on its line."""
@@ -318,7 +275,7 @@ def _aligned(moving: dict[int, complex], fixed: dict[int, complex], anchors: lis
             f = sum(fixed[a] for a in shared) / len(shared)
         else:
             m, f = points[pivot], fixed[pivot]
-        turn = _unit(sum((fixed[a] - f) * (points[a] - m).conjugate() for a in shared))
+        turn = unit(sum((fixed[a] - f) * (points[a] - m).conjugate() for a in shared))
         placed = {a: f + turn * (p - m) for a, p in points.items()}
         misfit = sum(abs(placed[a] - fixed[a]) ** 2 for a in shared)
         if best is None or misfit < best[0] - 1e-9:
@@ -343,18 +300,6 @@ def _bonds_between(a: int, b: int, neighbours, passable) -> int:
                 following.append(n)
         frontier = following
     return 0
-
-
-def _unit(z: complex) -> complex:
-    size = abs(z)
-    return z / size if size > 1e-12 else 1 + 0j
-
-
-def _collinear(points: list[complex]) -> bool:
-    """Whether the points lie on one line (within a hundredth of a bond length)."""
-    first, last = min(points, key=lambda z: (z.real, z.imag)), max(points, key=lambda z: (z.real, z.imag))
-    along = _unit(last - first)
-    return all(abs(((p - first) * along.conjugate()).imag) < 0.01 for p in points)
 
 
 def _adjacency(bonds: Iterable[tuple[int, int]]) -> dict[int, list[int]]:
@@ -391,46 +336,6 @@ def _distance(a: list[float], b: list[float]) -> float:
     return math.sqrt(dx * dx + dy * dy + dz * dz)
 
 
-def _crosses_any(p: np.ndarray, q: np.ndarray, walls: np.ndarray) -> list[bool]:
-    """For each segment p[k]-q[k]: whether it crosses one of `walls` (rows of two ends), that is,
-    each has the other's ends on opposite sides. The cross products are written out on real
-    and imaginary parts, as Python's complex arithmetic computes them, whatever the shape; both
-    ends of a wall (and of a segment) are taken in one batch, numpy's cost being per call."""
-    px, py = p.real[:, None, None], p.imag[:, None, None]
-    dx, dy = (q.real - p.real)[:, None, None], (q.imag - p.imag)[:, None, None]    # along p->q
-    wx, wy = walls.real, walls.imag                                                # (walls, 2 ends)
-    wall_sides = (wy - py) * dx - (wx - px) * dy        # (segments, walls, 2): each wall end's side of p-q
-    ax, ay = wx[:, :1], wy[:, :1]
-    ex, ey = wx[:, 1:] - ax, wy[:, 1:] - ay             # along each wall
-    ends = np.concatenate((p[:, None], q[:, None]), axis=1)[:, None, :]        # (segments, 1, 2 ends)
-    segment_sides = (ends.imag - ay) * ex - (ends.real - ax) * ey   # each segment end's side of the wall
-    crossed = ((wall_sides[..., 0] * wall_sides[..., 1] < 0)
-               & (segment_sides[..., 0] * segment_sides[..., 1] < 0))
-    return np.logical_or.reduce(crossed, axis=1).tolist()
-
-
-def _segments_cross(p: complex, q: complex, a: complex, b: complex) -> bool:
-    """Whether segment p-q crosses segment a-b (each has the other's ends on opposite sides):
-    _crosses_any for one segment and one wall, without numpy's cost per call."""
-    dx, dy, ex, ey = q.real - p.real, q.imag - p.imag, b.real - a.real, b.imag - a.imag
-    a_side = (a.imag - p.imag) * dx - (a.real - p.real) * dy
-    b_side = (b.imag - p.imag) * dx - (b.real - p.real) * dy
-    p_side = (p.imag - a.imag) * ex - (p.real - a.real) * ey
-    q_side = (q.imag - a.imag) * ex - (q.real - a.real) * ey
-    return a_side * b_side < 0 and p_side * q_side < 0
-
-
-def _any_inside(points, polygons: list[list[complex]]) -> bool:
-    """Whether any of `points` (a row of a numpy array, or Python numbers) lies inside any of
-    `polygons`: a cluster placed into someone else's ring. (Read as Python numbers, and only
-    where there is a ring to be inside.)"""
-    if not polygons:
-        return False
-    if isinstance(points, np.ndarray):
-        points = points.tolist()
-    return any(_inside(p, poly) for p in points for poly in polygons)
-
-
 def _near_any_way(points, ways: list[tuple[complex, complex]], reach: float = 0.5) -> bool:
     """Whether any of `points` lies within `reach` of one of the segments `ways`: a fragment left
     standing where the next step's arrow runs (the water of an Eschweiler-Clarke iminium, between
@@ -444,20 +349,9 @@ def _any_inside_ring(points, rings: Iterable[list[int]], atoms: Iterable[int]) -
     atoms = list(atoms)
     for ring in rings:
         polygon = [points[a] for a in ring]
-        if any(a not in ring and _inside(points[a], polygon) for a in atoms):
+        if any(a not in ring and inside_polygon(points[a], polygon) for a in atoms):
             return True
     return False
-
-
-def _inside(point: complex, polygon: list[complex]) -> bool:
-    """Even-odd rule."""
-    inside = False
-    for a, b in zip(polygon, polygon[1:] + polygon[:1]):
-        if (a.imag > point.imag) != (b.imag > point.imag):
-            x = a.real + (point.imag - a.imag) * (b.real - a.real) / (b.imag - a.imag)
-            if x > point.real:
-                inside = not inside
-    return inside
 
 
 @lru_cache(maxsize=None)
@@ -554,8 +448,8 @@ class _Placements:
             return [False] * len(targets)
         ahead = np.array(directions, dtype=complex)
         if self.carries_hydrogen:
-            return _crosses_any(np.full(len(targets), self.anchor_at), targets - ahead, self.walls)
-        return _crosses_any(targets, self.anchor_at + ahead, self.walls)
+            return crosses_any(np.full(len(targets), self.anchor_at), targets - ahead, self.walls)
+        return crosses_any(targets, self.anchor_at + ahead, self.walls)
 
     def spots(self, first: int, last: int) -> tuple[list[complex], list[complex], np.ndarray, np.ndarray]:
         """Directions, rotations, targets and moved atoms of options first..last-1, worked out
@@ -933,7 +827,7 @@ class _LayoutBuilder:
         if any((min(end, n), max(end, n)) not in self.bonds_in[p] for p in panels for n in pivots + carried):
             return None
         a, b = here[pivots[0]], here[pivots[1]]
-        along = _unit(b - a)
+        along = unit(b - a)
         flipped = {m: a + along * ((here[m] - a) / along).conjugate() for m in moving}
         reach = abs(flipped[end] - here[partner])
         crowd = [q for p in panels for x, q in self.positions[p].items() if x not in moving]
@@ -1306,7 +1200,7 @@ class _LayoutBuilder:
         ends = [(i, j) if i in side else (j, i) for i, j in bonds]
         # The scheme reads left to right: the whole depiction is turned so that the partner that
         # moves in waits on the right, its forming bonds pointing back at the other across the gap.
-        turn = _unit(sum(local[i] for i, _ in ends) - sum(local[j] for _, j in ends)).conjugate()
+        turn = unit(sum(local[i] for i, _ in ends) - sum(local[j] for _, j in ends)).conjugate()
         cluster.local = local = {a: p * turn for a, p in local.items()}
         cluster.phases = [(first, {a: p * turn for a, p in later.items()}) for first, later in cluster.phases]
         # Straight out to the right, unless that sets the moving side on the rest of the cluster
@@ -1583,7 +1477,7 @@ class _LayoutBuilder:
                 sides = sorted(((side_beyond(n, atom, adjacent), n) for n in adjacent[atom]), key=lambda side: len(side[0]))
                 (branch, outward), (_, inward) = sides
                 centre = local[atom]
-                turn = _unit(centre - local[inward]) / _unit(local[outward] - centre)
+                turn = unit(centre - local[inward]) / unit(local[outward] - centre)
                 for a in branch:
                     local[a] = centre + (local[a] - centre) * turn
         return local
@@ -1894,7 +1788,7 @@ class _LayoutBuilder:
                 continue
             p, q = shift + rotation * cluster.local_at(panel)[mine], here[other]
             if abs(p - q) > PARTNER_REACH[1] + 0.5 or any(
-                    _segments_cross(p, q, here[i], here[j]) for i, j in self.bonds_in[panel]
+                    segments_cross(p, q, here[i], here[j]) for i, j in self.bonds_in[panel]
                     if i in here and j in here and other not in (i, j) and i not in mine_atoms and j not in mine_atoms):
                 return True
         return False
@@ -2026,13 +1920,13 @@ class _LayoutBuilder:
         """The direction from `atom` with the most room for a new neighbour at `reach`: away from
         its bonds and promised hydrogens, out of ring interiors, away from nearby atoms."""
         centre = self.positions[k][atom]
-        taken = np.array([_unit(p - centre) for p in self._occupied_around(atom, k, hydrogen)
+        taken = np.array([unit(p - centre) for p in self._occupied_around(atom, k, hydrogen)
                           if abs(p - centre) > 1e-9], dtype=complex)
         near = np.array([p for a, p in self.positions[k].items() if a != atom and abs(p - centre) < reach + 1.3],
                         dtype=complex)
-        bonded = [_unit(self.positions[k][n] - centre) for n in self.neighbours[atom]
+        bonded = [unit(self.positions[k][n] - centre) for n in self.neighbours[atom]
                   if n in self.positions[k] and self.element[n] != 1]
-        if prefer is not None and any(abs(cmath.phase(prefer / _unit(self.positions[k][n] - centre))) < _BEHIND_A_BOND
+        if prefer is not None and any(abs(cmath.phase(prefer / unit(self.positions[k][n] - centre))) < _BEHIND_A_BOND
                                       for n in self.neighbours[atom] if n in self.positions[k]
                                       and (min(n, atom), max(n, atom)) in self.bonds_in[k]):
             # The partner lies behind one of the atom's own bonds: leaning toward it would only
@@ -2055,7 +1949,7 @@ class _LayoutBuilder:
         score = score + 0.6 * (np.minimum(np.minimum.reduce(np.abs(spots[:, None] - near), axis=1), 1.2)
                                if len(near) else 1.2)
         if prefer is not None:
-            score = score + 0.15 * (_COMPASS * _unit(prefer).conjugate()).real   # (Python's conjugate: no ufunc call on one number)
+            score = score + 0.15 * (_COMPASS * unit(prefer).conjugate()).real   # (Python's conjugate: no ufunc call on one number)
         for f in self._fed_directions(hydrogen, atom, k):
             turns = _COMPASS / f
             score = score - 10.0 * (np.abs(np.arctan2(turns.imag, turns.real)) < _FED_ANGLE)
@@ -2066,10 +1960,10 @@ class _LayoutBuilder:
         # Best first; the first direction that does not point into a closed ring wins (the
         # best is the first highest score, as the stable sort below puts first).
         best = int(score.argmax())   # (the method: np.argmax's wrapper costs more than the search)
-        if not any(_inside(complex(spots[best]), poly) for poly in polygons):
+        if not any(inside_polygon(complex(spots[best]), poly) for poly in polygons):
             return complex(_COMPASS[best])
         for index in (-score).argsort(kind="stable"):
-            if not any(_inside(complex(spots[index]), poly) for poly in polygons):
+            if not any(inside_polygon(complex(spots[index]), poly) for poly in polygons):
                 return complex(_COMPASS[index])
         return free_direction(centre, [centre + t for t in taken], prefer)
 
@@ -2113,12 +2007,12 @@ class _LayoutBuilder:
         (the phthalimide nitrogen, fixed, that a benzyl bromide waits beside) and the line
         has the room. None when no direction does."""
         here = self.positions[k]
-        others = [_unit(here[n] - here[centre]) for n in self.neighbours[centre]
+        others = [unit(here[n] - here[centre]) for n in self.neighbours[centre]
                   if n not in skip and n in here and n in self.exists[k]]
         if not others:
             return None
         if entering is not None and entering in here and abs(here[centre] - here[entering]) > 1e-9:
-            away = _unit(here[centre] - here[entering])
+            away = unit(here[centre] - here[entering])
             if all(abs(cmath.phase(d / o)) >= _BACKSIDE_ROOM for o in others for d in (away, -away)):
                 return away
         def room_at(directions: np.ndarray) -> np.ndarray:
@@ -2137,7 +2031,7 @@ class _LayoutBuilder:
         `hydrogen` goes into: the arrow between the two bonds needs the open angle between them
         (in a tight angle it is a knot over the holder)."""
         here = self.positions[k]
-        return [_unit(here[x] - here[holder]) for x in self.feeds.get((hydrogen, holder), ()) if x in here]
+        return [unit(here[x] - here[holder]) for x in self.feeds.get((hydrogen, holder), ()) if x in here]
 
     def _zigzag(self, atom: int, k: int, taken: Sequence[complex] = ()) -> Optional[complex]:
         """For an atom with one bond: the direction that continues a zigzag chain (parallel to
@@ -2149,7 +2043,7 @@ class _LayoutBuilder:
         if len(bonded) != 1:
             return None
         neighbour = bonded[0]
-        back = _unit(here[neighbour] - here[atom])
+        back = unit(here[neighbour] - here[atom])
         before = [n for n in self.neighbours[neighbour] if n != atom and n in here and self.element[n] != 1
                   and (min(neighbour, n), max(neighbour, n)) in self.bonds_in[k]]
         options = [d for d in (back * cmath.rect(1.0, 2 * math.pi / 3), back * cmath.rect(1.0, -2 * math.pi / 3))
@@ -2157,7 +2051,7 @@ class _LayoutBuilder:
         if not options:
             return None
         if before:
-            chain = _unit(here[neighbour] - here[before[0]])
+            chain = unit(here[neighbour] - here[before[0]])
             return max(options, key=lambda d: (d / chain).real)
         return options[0]
 
@@ -2236,7 +2130,7 @@ class _LayoutBuilder:
         placed = [self.positions[k][n] for n in self.neighbours[anchor]
                   if n in self.positions[k] and n not in depicted and self.element[n] != 1]
         if kind == "bond" and self._linear(anchor, range(k, k + 1)) and len(placed) == 1:
-            u = _unit(self.positions[k][anchor] - placed[0])   # straight on through an sp atom
+            u = unit(self.positions[k][anchor] - placed[0])   # straight on through an sp atom
         second = None
         if kind == "bond" and not (self._linear(anchor, range(k, k + 1)) and len(placed) == 1):
             u, second = self._between_partners(anchor, mover, k, depicted, u)
@@ -2275,7 +2169,7 @@ class _LayoutBuilder:
         partners = self._other_hops(index, segment, k, hydrogen) if kind == "hop" else []
         fed = self._fed_directions(hydrogen, anchor, k) if kind == "hop" else []
         # The hydrogen of a hop stands on the line from its holder toward the partner.
-        held_along = ([_unit(self.positions[k][n] - anchor_at) for n in self.neighbours[anchor]
+        held_along = ([unit(self.positions[k][n] - anchor_at) for n in self.neighbours[anchor]
                        if n in self.positions[k] and self.element[n] != 1
                        and (min(anchor, n), max(anchor, n)) in self.bonds_in[k]]
                       if kind == "hop" and not hydrogen_on_mover else [])
@@ -2283,12 +2177,12 @@ class _LayoutBuilder:
             best = self._nearest_to_partners(cluster, mover, placements, polygons, partners, fed, held_along)
         elif kind == "bond" and anchor in self.room_kept and mover in self.room_kept:
             gap, _, moved, direction, rotation, target = placements.at(0)   # turned neither way
-            if gap >= 0.95 and not _any_inside(moved, polygons):
+            if gap >= 0.95 and not any_inside_polygons(moved, polygons):
                 best = ((_CLEARANCE, True), rotation, target - depicted[mover] * rotation, direction)
         elif kind == "bond" and len([n for n in self.neighbours[mover] if n in depicted]) == 1 \
                 and not self._linear(mover, range(k, k + 1)):
             for gap, _, moved, direction, rotation, target in placements.like(_CHAIN_END_OPTIONS):
-                if gap >= _CLEARANCE and not _any_inside(moved, polygons):
+                if gap >= _CLEARANCE and not any_inside_polygons(moved, polygons):
                     best = ((_CLEARANCE, True), rotation, target - depicted[mover] * rotation, direction)
                     break
         # In order of preference; the first that keeps its distance from everything wins.
@@ -2300,7 +2194,7 @@ class _LayoutBuilder:
             if held_along and any(abs(cmath.phase(direction / b)) < _ALONG_BOND for b in held_along):
                 continue      # or on a bond of the atom that holds it
             # (a row of numpy numbers read as Python's, and only where there is a ring to be inside)
-            if _any_inside(moved, polygons):
+            if any_inside_polygons(moved, polygons):
                 continue      # never inside someone else's ring
             best = ((min(gap, _CLEARANCE), not blocked), rotation, target - depicted[mover] * rotation, direction)
             if gap >= _CLEARANCE and not blocked:
@@ -2314,7 +2208,7 @@ class _LayoutBuilder:
             best = round_about or best
         if best is None:
             direction = u
-            rotation = _unit(-direction / v)
+            rotation = unit(-direction / v)
             target = anchor_at + direction * distance
             best = (0.0, rotation, target - depicted[mover] * rotation, direction)
         _, rotation, shift, direction = best
@@ -2445,7 +2339,7 @@ class _LayoutBuilder:
         side = next((s for s in sides() if abs(s) > 1e-9), None)
         if side is None:
             return None
-        along = _unit(side)
+        along = unit(side)
         crowd = [p for a, p in here.items() if a not in (anchor, mover)]
         return max((along * 1j, along * -1j),
                    key=lambda d: min((abs(here[anchor] + APPROACH * d - p) for p in crowd), default=9.0))
@@ -2482,9 +2376,9 @@ class _LayoutBuilder:
         if not 0.2 < abs(gap) < 1.95:
             return u, None
         half = abs(gap) / 2
-        across = _unit(gap) * 1j * math.sqrt(1.0 - half * half)
+        across = unit(gap) * 1j * math.sqrt(1.0 - half * half)
         spots = (gap / 2 + across, gap / 2 - across)
-        return _unit(max(spots, key=lambda spot: (spot * u.conjugate()).real)), seconds[0]
+        return unit(max(spots, key=lambda spot: (spot * u.conjugate()).real)), seconds[0]
 
     def _turn_to_hop(self, depicted: dict[int, complex], anchor: int, mover: int, u: complex, kind: str,
                      segment: tuple[int, int]) -> int:
@@ -2505,9 +2399,9 @@ class _LayoutBuilder:
 
         def facing(turn: int) -> float:
             v = self._joining_side(depicted, mover, u, kind, segment[0], turn)
-            branch = _unit(_unit(-u / v) * (depicted[own[0]] - depicted[mover]))
-            corner = -_unit(_unit(-u) + branch)    # the third corner of a trigonal centre
-            return sum((corner * _unit(t - target).conjugate()).real for t in takers)
+            branch = unit(unit(-u / v) * (depicted[own[0]] - depicted[mover]))
+            corner = -unit(unit(-u) + branch)    # the third corner of a trigonal centre
+            return sum((corner * unit(t - target).conjugate()).real for t in takers)
         return 1 if facing(1) >= facing(-1) else -1
 
     def _joining_side(self, depicted: dict[int, complex], mover: int, u: complex, kind: str, k: int,
@@ -2576,7 +2470,7 @@ class _LayoutBuilder:
                 continue
             hop = target - direction if placements.carries_hydrogen else placements.anchor_at + direction
             if (not (len(promised) and np.abs(hop - promised).min() < _HYDROGEN_ROOM)
-                    and not _any_inside(moved, polygons)):
+                    and not any_inside_polygons(moved, polygons)):
                 return (_CLEARANCE, True), rotation, target - placements.mover_at * rotation, direction
         return None
 
@@ -2592,7 +2486,7 @@ class _LayoutBuilder:
         best = None
         for gap, _, moved, direction, rotation, target in round_about:
             if (best is None or min(gap, _CLEARANCE) > best[0][0]) \
-                    and not _any_inside(moved, polygons):
+                    and not any_inside_polygons(moved, polygons):
                 best = (min(gap, _CLEARANCE), True), rotation, target - placements.mover_at * rotation, direction
                 if gap >= _CLEARANCE:
                     break
@@ -2677,7 +2571,7 @@ class _LayoutBuilder:
             for option in clear:
                 moved, direction, rotation = moved_all[option], directions[option], rotations[option]
                 target = complex(targets[option])   # Python's complex arithmetic from here, as for every placement
-                if not blocked[option] and not _any_inside(moved, polygons):
+                if not blocked[option] and not any_inside_polygons(moved, polygons):
                     return ((_CLEARANCE, True), rotation, target - placements.mover_at * rotation, direction)
             start, size = start + size, 2 * size
         return None
@@ -2717,7 +2611,7 @@ class _LayoutBuilder:
             if (step == k and self.element[partner] != 1 and not self.neighbours[atom] - {partner, r.hydrogen}
                     and self.orders_in[k].get((min(atom, partner), max(atom, partner))) == 1
                     and atom in here and partner in here):
-                out = _unit(here[atom] - here[partner])
+                out = unit(here[atom] - here[partner])
                 return out if abs(out.imag) > abs(out.real) else None
         return None
 
@@ -2756,7 +2650,7 @@ class _LayoutBuilder:
             gaps = (np.abs(placed[:, :, None] - np.array(others, dtype=complex)).min(axis=(1, 2)).tolist() if others
                     else [9.0] * len(tries))
             for (pull, side), moved, atoms, gap in zip(tries, shifts.tolist(), placed.tolist(), gaps):
-                if _any_inside(atoms, polygons):
+                if any_inside_polygons(atoms, polygons):
                     gap = 0.0
                 # Clear of everything first; then a little more room against a longer wait.
                 score = (min(gap, _CLEARANCE),
@@ -2780,23 +2674,23 @@ class _LayoutBuilder:
         before = self.positions[first - 1]
         if centre not in before or leaving not in before or centre not in self.positions[first]:
             return placement
-        toward = -_unit(before[leaving] - before[centre])
+        toward = -unit(before[leaving] - before[centre])
         bonded = [n for n in self.neighbours[centre] if n not in (e, leaving) and n in before
                   and n in self.exists[first - 1] and (min(n, centre), max(n, centre)) in self.bonds_in[first - 1]]
-        others = [_unit(before[n] - before[centre]) for n in bonded]
+        others = [unit(before[n] - before[centre]) for n in bonded]
         bridged = next((n for n in bonded if (min(n, leaving), max(n, leaving)) in self.bonds_in[first - 1]), None)
         if bridged is not None:
             # A three-membered ring opened (a bromonium ion, an epoxide): the far side is across
             # the ring bond from the bridging atom, in the gap on that side (the face opposite the
             # bridge, as chemists draw the anti opening); straight behind the leaving group lies
             # along the ring.
-            axis = _unit(before[bridged] - before[centre])
+            axis = unit(before[bridged] - before[centre])
             away = axis * (-1j if ((before[leaving] - before[centre]) / axis).imag > 0 else 1j)
             # (Of the gaps outside every ring: a cyclohexane fused to the bromonium ion fills the
             # far side, and the bromide comes in beside it.)
             rings = [[before[a] for a in ring] for ring in self._closed_rings(first - 1)]
-            gaps = [cmath.rect(1.0, (a + b) / 2) for a, b in _gaps(0j, others + [_unit(before[leaving] - before[centre])])]
-            gaps = [d for d in gaps if not _any_inside([before[centre] + 0.5 * d], rings)]
+            gaps = [cmath.rect(1.0, (a + b) / 2) for a, b in angular_gaps(0j, others + [unit(before[leaving] - before[centre])])]
+            gaps = [d for d in gaps if not any_inside_polygons([before[centre] + 0.5 * d], rings)]
             if not gaps:
                 return placement
             toward = max(gaps, key=lambda d: (d * away.conjugate()).real)
@@ -2804,8 +2698,8 @@ class _LayoutBuilder:
             # No clear line behind the leaving group (POCl3's three other ligands): the gap
             # nearest it, so that the nucleophile does not wait behind the group it displaces;
             # unless that gap is the inside of a ring (the cyclohexane behind a bromonium ion).
-            toward = gap_facing(0j, others + [_unit(before[leaving] - before[centre])], toward)
-            if _any_inside([before[centre] + 0.5 * toward], [[before[a] for a in ring]
+            toward = gap_facing(0j, others + [unit(before[leaving] - before[centre])], toward)
+            if any_inside_polygons([before[centre] + 0.5 * toward], [[before[a] for a in ring]
                                                              for ring in self._closed_rings(first - 1)]):
                 return placement
         turn = toward / direction
@@ -2921,7 +2815,7 @@ class _LayoutBuilder:
             taker's footprint too, set on the far side from where the atom was)."""
             mine = local
             if footprint is not None:
-                outward = _unit(at - shift) if abs(at - shift) > 1e-9 else direction
+                outward = unit(at - shift) if abs(at - shift) > 1e-9 else direction
                 mine = np.concatenate([local, local[0] + outward * footprint])
             nearest = float(np.abs(at + mine[:, None] - others[None, :]).min()) if len(others) else math.inf
             return not _near_any_way(at + local, ways), min(nearest, _CLEARANCE)
@@ -2955,7 +2849,7 @@ class _LayoutBuilder:
             local = taker.local_at(k)
             rest = np.array([local[a] - local[n] for a in taker.atoms if a != n], dtype=complex)
             centre = rest.mean() if len(rest) else 1 + 0j
-            turn = _unit(centre).conjugate() if abs(centre) > 1e-9 else 1 + 0j
+            turn = unit(centre).conjugate() if abs(centre) > 1e-9 else 1 + 0j
             return np.concatenate([[1 + 0j], 1 + rest * turn])
         return None
 
@@ -3055,10 +2949,10 @@ class _LayoutBuilder:
             atoms = [i for i in molecule if self.element[i] != 1]
             heavy = [where[i] for i in atoms]
             triple = len(atoms) == 2 and self.orders_in[k].get((min(atoms), max(atoms))) == 3
-            if (len(heavy) >= 3 or triple) and _collinear(heavy):
+            if (len(heavy) >= 3 or triple) and collinear(heavy):
                 # A straight one (CO2, N2) lies level, as it is written: O=C=O.
                 ends = sorted(heavy, key=lambda z: (z.real, z.imag))
-                turn = _unit(ends[-1] - ends[0]).conjugate()
+                turn = unit(ends[-1] - ends[0]).conjugate()
                 centre = sum(heavy) / len(heavy)
                 for i in molecule:
                     where[i] = centre + (where[i] - centre) * turn
@@ -3149,7 +3043,7 @@ class _LayoutBuilder:
             others = [q for p in panels for a, q in self.positions[p].items() if a not in (h, holder)]
             bonds = [(self.positions[p][i], self.positions[p][j]) for p in panels for i, j in self.bonds_in[p]
                      if h not in (i, j) and holder not in (i, j) and i in self.positions[p] and j in self.positions[p]]
-            own = [_unit(here[n] - centre) for n in self.neighbours[holder]
+            own = [unit(here[n] - centre) for n in self.neighbours[holder]
                    if n != h and n in here and (min(n, holder), max(n, holder)) in self.bonds_in[k]]
             for degrees in (15, -15, 30, -30, 45, -45, 60, -60):
                 d = start * cmath.rect(1.0, math.radians(degrees))
@@ -3158,7 +3052,7 @@ class _LayoutBuilder:
                     continue
                 if any(abs(spot - q) < _HYDROGEN_ROOM for q in others) \
                         or any(abs(cmath.phase(d / b)) < math.radians(35) for b in own) \
-                        or any(_segments_cross(centre, spot, a, b) for a, b in bonds):
+                        or any(segments_cross(centre, spot, a, b) for a, b in bonds):
                     continue
                 for p in panels:
                     self.positions[p][h] = spot
@@ -3215,7 +3109,7 @@ class _LayoutBuilder:
                     if (max(a.real, b.real) >= -1 and min(a.real, b.real) <= 1
                             and max(a.imag, b.imag) >= -1 and min(a.imag, b.imag) <= 1):
                         walls.add((a, b))
-        crossed_now = any(_segments_cross(0j, r.direction, a, b) for a, b in walls)
+        crossed_now = any(segments_cross(0j, r.direction, a, b) for a, b in walls)
         room_now = room(r.direction)
         fed = self._fed_directions(r.hydrogen, r.holder, panels[0])
 
@@ -3224,11 +3118,11 @@ class _LayoutBuilder:
 
         here = self.positions[panels[0]]
         partners = [x for x in self.neighbours[r.holder] if x != r.hydrogen and x in here]
-        bonds = [_unit(here[x] - here[r.holder]) for x in partners]
+        bonds = [unit(here[x] - here[r.holder]) for x in partners]
         # The holder's one other bond in these panels, if it has just one: the hydrogen keeps an
         # angle from it that a reader sees.
         bonded = [x for x in partners if all((min(r.holder, x), max(r.holder, x)) in self.bonds_in[k] for k in panels)]
-        lone = _unit(here[bonded[0]] - here[r.holder]) if len(bonded) == 1 else None
+        lone = unit(here[bonded[0]] - here[r.holder]) if len(bonded) == 1 else None
         orders = {self.orders_in[k].get((min(r.holder, bonded[0]), max(r.holder, bonded[0])), 0) for k in panels} \
             if lone is not None else set()
         trigonal = any(order >= 2 for order in orders)
@@ -3253,7 +3147,7 @@ class _LayoutBuilder:
         def crossing(directions: list[complex]) -> list[bool]:
             if not len(walls):
                 return [False] * len(directions)
-            return _crosses_any(np.zeros(len(directions), dtype=complex), np.array(directions, dtype=complex), walls)
+            return crosses_any(np.zeros(len(directions), dtype=complex), np.array(directions, dtype=complex), walls)
 
         polygons = [[self.positions[k][a] for a in ring] for k in panels for ring in self._closed_rings(k)]
         # Clear of every atom and bond first, then of bonds at least, then not folded; among
@@ -3274,7 +3168,7 @@ class _LayoutBuilder:
                 continue
             if len(bonds) == 1 and score[:4] == start_score[:4] and abs(cmath.phase(d / bonds[0])) < _OPEN_ANGLE:
                 continue   # no more room, only a nearer partner: not worth closing a lone bond's angle
-            if any(_inside(self.positions[panels[0]][r.holder] + d, poly) for poly in polygons):
+            if any(inside_polygon(self.positions[panels[0]][r.holder] + d, poly) for poly in polygons):
                 continue
             best, best_score = d, score
         r.direction = best

@@ -124,14 +124,6 @@ class Mark:
     colour: str = "#000000"
 
 
-def distance_to_segment(p: complex, a: complex, b: complex) -> float:
-    """How far point p is from the segment a-b."""
-    along = b - a
-    length2 = along.real * along.real + along.imag * along.imag
-    t = 0.0 if length2 < 1e-18 else max(0.0, min(1.0, ((p - a) * along.conjugate()).real / length2))
-    return abs(p - (a + t * along))
-
-
 @lru_cache(maxsize=None)
 def _bernstein(n: int) -> tuple[tuple[float, float, float, float], ...]:
     """The cubic Bernstein weights at t = 0, 1/n, ..., 1: the same for every curve sampled n times."""

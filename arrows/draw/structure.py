@@ -21,7 +21,8 @@ from rdkit import Chem
 
 from ..electrons import ElectronState
 from ..rdkit_io import HYDROGEN_ISOTOPES, bond_list
-from .scene import AtomDrawing, BondDrawing, Box, Mark, TextRun, distance_to_segment
+from .plane import distance_to_segment, unit_or_zero
+from .scene import AtomDrawing, BondDrawing, Box, Mark, TextRun
 from .styles import BROKEN_COLOUR, FORMED_COLOUR, INK, NUMBER_COLOUR, Style
 from .formula import MINUS
 from .text import FontFace
@@ -124,7 +125,7 @@ def _into_ring(i: int, adjacent, positions: dict[int, complex]) -> Optional[comp
     ring = [n for n in adjacent[i] if n in positions and closes_cycle(i, n, adjacent)]
     if len(ring) != 2:
         return None
-    inward = _unit_or_zero(_unit_or_zero(positions[ring[0]] - positions[i]) + _unit_or_zero(positions[ring[1]] - positions[i]))
+    inward = unit_or_zero(unit_or_zero(positions[ring[0]] - positions[i]) + unit_or_zero(positions[ring[1]] - positions[i]))
     return inward or None
 
 
@@ -225,11 +226,6 @@ def _sign_near_stroke(box: Box, size: float, strokes: list[tuple[complex, comple
     middle = complex((box.x0 + box.x1) / 2, (box.y0 + box.y1) / 2)
     room = 0.5 * (box.x1 - box.x0) + gap * size
     return any(distance_to_segment(middle, a, b) < room for a, b in strokes)
-
-
-def _unit_or_zero(z: complex) -> complex:
-    size = abs(z)
-    return z / size if size > 1e-12 else 0j
 
 
 def _angle_gap(a: complex, b: complex) -> float:
@@ -350,7 +346,7 @@ class StructureDrawer:
         for pair in forming:
             for i in pair:
                 if i in ahead:
-                    ahead[i] += [_unit_or_zero(positions[j] - positions[i]) for j in pair if j != i and j in positions]
+                    ahead[i] += [unit_or_zero(positions[j] - positions[i]) for j in pair if j != i and j in positions]
         lettered = carbons_to_letter(bonds, positions, state.elements)
         for i in visible:
             out.atoms[i] = self._atom(state, facts[i], adjacent, i, positions, neighbours[i], drawn_hydrogens, out,
@@ -498,7 +494,7 @@ class StructureDrawer:
         without bonds tries the side its formula is written from first (HO-, H2O; NH3)."""
         h_first = not bonds and element in _HYDROGEN_FIRST
         bonds = bonds + list(ahead)
-        occupied = bonds + [_unit_or_zero(c) for c, _, _ in crowd]
+        occupied = bonds + [unit_or_zero(c) for c, _, _ in crowd]
         if not occupied:
             return -1 if h_first else 1
         limit = math.radians(50)
@@ -721,7 +717,7 @@ class StructureDrawer:
             if mark is None:
                 # Round the atom: clear of its bonds, the gaps ahead, the ring it stands in and the
                 # labels nearest.
-                labels = [_unit_or_zero(out.positions[j] - centre) for j in nearby
+                labels = [unit_or_zero(out.positions[j] - centre) for j in nearby
                           if abs(out.positions[j] - centre) < 1.3 * bl]
                 avoided = list(ahead) + [d for d in labels if d] + ([inward] if inward else [])
                 out.occupied[i] += avoided
