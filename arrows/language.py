@@ -536,6 +536,10 @@ def parse(text: str, file: str = "<text>", steps_on_demand: bool = False) -> Mec
     if "\x00" in text:
         raise MechanismError([Diagnostic("AR100", "file contains NUL bytes: not a text file",
                                          Location(file, 1, 1), hint="mechanism files are plain UTF-8 text")])
+    if "\r" in text:
+        # Old Mac line ends (CR alone) and Windows ones (CR LF) read as line ends, so that lines
+        # and columns count as the author's editor counts them.
+        text = text.replace("\r\n", "\n").replace("\r", "\n")
     pieces = list(_pieces(text))
     if steps_on_demand and len(pieces) > _ON_DEMAND_FROM_PIECES:
         return _parse_on_demand(text, file, pieces)

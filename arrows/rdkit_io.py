@@ -127,6 +127,8 @@ def _element_symbols() -> frozenset[str]:
 def reading_hint(reason: str, otherwise: str) -> str:
     """The hint for a SMILES RDKit rejects: for an atom over its valence, the onium ion it may be
     meant as, or how brackets count hydrogens; `otherwise` for any other reason."""
+    if reason == _SPACE_REASON:
+        return "write the molecules together, separated by `.` with no space (`CC(=O)[O-].[Na+]`)"
     if _OVER_VALENCE in reason:
         match = _WRITTEN_VALENCE.match(reason)
         if match and match.group(1) in _ONIUM and int(match.group(4)) == _ONIUM[match.group(1)][0] + 1:
@@ -143,15 +145,34 @@ _AS_WRITTEN.removeHs = False
 _AS_WRITTEN.sanitize = False
 
 
+_SPACE_INSIDE = re.compile(r"\S(\s+)(?!\||\s|$)")   # a gap between two parts, not before a CXSMILES |...| block
+_SPACE_REASON = "a space inside the SMILES: RDKit reads it only up to the space and takes the rest for a name"
+
+
+def space_inside(smiles: str) -> Optional[int]:
+    """The 0-based position of the first space (or tab) inside `smiles`, None when there is none.
+    RDKit reads a SMILES up to a space and keeps the rest as the molecule's name: `CCO [Na+]`
+    would silently lose its sodium. A space before a CXSMILES extension (`C[C@H](O)F |r|`) is
+    the extension's own separator."""
+    match = _SPACE_INSIDE.search(smiles)
+    return None if match is None else match.start(1)
+
+
 def as_written(smiles: str) -> Optional[Chem.Mol]:
     """`smiles` read as written (hydrogens kept, nothing sanitized), None when RDKit rejects it
-    (read_smiles says why). For a caller inside its own rdkit_messages() block, which keeps
-    RDKit's log of a rejection: a block per SMILES costs about as much as reading it."""
-    return Chem.MolFromSmiles(smiles, _AS_WRITTEN) if smiles.strip() else None
+    or would read only part of it (read_smiles says why). For a caller inside its own
+    rdkit_messages() block, which keeps RDKit's log of a rejection: a block per SMILES costs
+    about as much as reading it."""
+    if not smiles.strip() or space_inside(smiles) is not None:
+        return None
+    return Chem.MolFromSmiles(smiles, _AS_WRITTEN)
 
 
 def read_smiles(smiles: str, sanitize: bool = True) -> tuple[Optional[Chem.Mol], str, Optional[int]]:
     """(mol, reason, position): mol is None when RDKit rejects the SMILES."""
+    gap = space_inside(smiles)
+    if gap is not None:
+        return None, _SPACE_REASON, gap
     with rdkit_messages() as lines:
         mol = Chem.MolFromSmiles(smiles, _AS_WRITTEN) if smiles.strip() else None
         if mol is not None and sanitize:

@@ -292,6 +292,12 @@ TWINS = [
     # Located where RDKit stopped reading, inside the quotes: the last character before the
     # missing "]".
     Twin("checkpoint SMILES RDKit cannot read", SN2, 'product "CO.[Br-]"', 'product "CO.[Br-"', "AR102", '-"'),
+    # RDKit reads a SMILES only up to a space and keeps the rest as the molecule's name (RDKit's
+    # SMILES parser): the counter-ion, or a second molecule of a checkpoint, would vanish unsaid.
+    Twin("species SMILES with a space inside", SN2, '"[CH3:2][Br:3]"', '"[CH3:2][Br:3] [Na+]"', "AR102",
+         " [Na+]", says=("space",), hint_says=("`.`",)),
+    Twin("checkpoint SMILES with a space inside", SN2, 'product "CO.[Br-]"', 'product "CO [Br-]"', "AR102",
+         " [Br-]", says=("space",), hint_says=("`.`",)),
     Twin("map number used twice", SN2, '"[OH-:1]"', '"[OH-:3]"', "AR103", "[Br:3]", says=("line 1",)),
     Twin("map number used twice in one species", SN2, "[CH3:2][Br:3]", "[CH3:2][Br:2]", "AR103", "[Br:2]",
          says=("line 2",)),

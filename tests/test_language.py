@@ -521,3 +521,19 @@ def test_lark_loads_on_re_and_leaves_regex_importable():
     done = subprocess.run([sys.executable, "-c", probe], capture_output=True, text=True)
     assert done.returncode == 0, done.stderr
     assert done.stdout.strip() == "ok"
+
+
+@pytest.mark.parametrize("ending", ["\r\n", "\r"], ids=["CR LF", "CR alone"])
+def test_line_ends_of_other_systems_read_as_line_ends(ending):
+    """A file saved with Windows (CR LF) or old Mac (CR alone) line ends parses as with LF, and a
+    fault is located on the line and column the author's editor shows (with CR alone, a comment
+    on the first line once swallowed the whole file, and every location said line 1)."""
+    clean = parse(EXAMPLE.replace("\n", ending), "example.mech")
+    assert [s.name for s in clean.species] == ["dione", "base"]
+    assert len(clean.steps) == len(parse(EXAMPLE, "example.mech").steps)
+    broken = EXAMPLE.replace("C3-H -> C2=C3 ", "C3-H -> C2=C3 =").replace("\n", ending)
+    with pytest.raises(MechanismError) as caught:
+        parse(broken, "example.mech")
+    loc = caught.value.diagnostics[0].loc
+    expected_line = EXAMPLE.splitlines().index(next(l for l in EXAMPLE.splitlines() if "C3-H -> C2=C3" in l)) + 1
+    assert loc.line == expected_line
