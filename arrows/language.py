@@ -386,6 +386,10 @@ def _hint_for(exc: UnexpectedInput, text: str, found: str) -> str:
         return "`end` closes a step, but no step is open here"
     # Slips of typing, before what the parser expected is read.
     typed_before = line[:exc.column - 1] if exc.column > 0 else ""
+    if typed_before.rstrip().endswith('\\"'):
+        # `title "The \"best\" route"`: the backslash escapes nothing, the string ended at its quote.
+        return ("a string cannot hold a double quote (there are no escapes): use single quotes inside, "
+                "as in title \"The 'best' route\"")
     if rest[:1] in "{}":
         return "a step is closed by `end` on a line of its own, not by braces"
     if rest.startswith("-->"):
@@ -419,6 +423,8 @@ def _hint_for(exc: UnexpectedInput, text: str, found: str) -> str:
         if rest[:1] in _CURLY_QUOTES:
             inside = word.strip(_CURLY_QUOTES)
             return f'`{rest[:1]}` is a curly quote: type straight double quotes, "{inside}"'
+        if rest[:1] == "'":
+            return f'strings use double quotes: write "{_unquoted_text(rest).strip(chr(39))}" (as in {example})'
         return f'the {holds} goes in double quotes: write "{_unquoted_text(rest)}" (as in {example})'
     if "EQUAL" in expected:
         return f'a species is named with `=`: {first_word or "species"} NAME = "SMILES"'
@@ -441,6 +447,11 @@ def _hint_for(exc: UnexpectedInput, text: str, found: str) -> str:
                     f"written [{letters}:7] in a species SMILES; a hydrogen is H(C3)")
     before = line[:exc.column - 1].rstrip() if exc.column > 0 else ""
     atom_before = re.search(r"([A-Z][a-z]?\d+)$", before)
+    if word == ":" and atom_before and re.match(r":[A-Z][a-z]?\d+", rest):
+        # `C1:C2`, SMILES's aromatic bond: a move names the bond of the Kekule structure.
+        partner = re.match(r":([A-Z][a-z]?\d+)", rest).group(1)
+        return (f"`:` between two atoms is SMILES's aromatic bond; a move names the bond as the Kekulé "
+                f"structure has it: `{atom_before.group(1)}={partner}` or `{atom_before.group(1)}-{partner}`")
     if word in (":", ".") and atom_before:
         electrons = "a lone pair" if word == ":" else "an unpaired electron"
         return f"{electrons} is written before its atom: `{word}{atom_before.group(1)}`"

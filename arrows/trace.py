@@ -352,6 +352,14 @@ class Replay:
                     "AR106", f"{name} left the drawing with `releases` in an earlier step", ref.loc,
                     hint=f"release a fragment once: drop this `releases {name}`", step=index, atoms=(name,)))
                 continue
+            if atom_index in released:
+                # Named again in this step, or another atom of a fragment this step lets go already.
+                name = after.label(atom_index)
+                self.diagnostics.append(Diagnostic(
+                    "AR106", f"{name} already left the drawing with a `releases` earlier in this step", ref.loc,
+                    hint="one `releases` per fragment, naming any one of its atoms: drop this one",
+                    step=index, atoms=(name,)))
+                continue
             fragment = _fragment_of(after.mol, atom_index) - released
             reacted = len(touched) > 1 and fragment.issuperset(touched)
             if (reacted or not touched) and len(fragment) > 1 and not _smaller_than_another(after, fragment, released):

@@ -303,6 +303,12 @@ TWINS = [
          says=("line 2",)),
     # Bromide left the scheme in step 1; it cannot act as the base in step 2.
     Twin("move on a released atom", E1, ":O6 -> H(C1)", ":Br5 -> H(C1)", "AR106", "Br5 -> H(C1)"),
+    # Water let go twice in one step: the second `releases` once passed unsaid.
+    Twin("fragment released twice in one step",
+         'species w = "[OH2:1]"\nspecies b = "[OH-:2]"\nstep "pt"\n    :O2 -> H(O1)\n    O1-H -> O1\n'
+         '    releases O1\nend\n',
+         '    releases O1\nend\n', '    releases O1\n    releases O1\nend\n', "AR106", "O1\nend",
+         says=("earlier in this step",)),
     # The hydroxide let go twice: the second `releases` names nothing left to release.
     Twin("fragment released twice",
          'species w = "[OH2:1]"\nspecies b = "[OH-:2]"\nstep "pt"\n    :O2 -> H(O1)\n    O1-H -> O1\n'
@@ -411,7 +417,9 @@ TWINS = [
     # Bromine split by a pair arrow instead of two single-electron arrows: Br2 is left as Br+ with
     # six valence electrons (a halenium ion; homolysis under light is the textbook step, memory).
     Twin("six-electron bromine", BROMINE_HOMOLYSIS, "    Br1-Br2 ~> Br1\n    Br1-Br2 ~> Br2\n",
-         "    Br1-Br2 -> Br1\n", "AR505", 'step "homolysis"', says=("Br2", "six valence electrons")),
+         "    Br1-Br2 -> Br1\n", "AR505", 'step "homolysis"',
+         # A closed shell short of its octet; "open shell" would call it a radical (IUPAC Gold Book).
+         says=("Br2", "six valence electrons", "a Br cation short of its octet")),
     # The nitrogen not protonated first: the amine leaves as Me2N-, an amide ion (pKa of
     # dimethylamine ~38, textbook, memory), from the alkoxide of the carbinolamine.
     Twin("amide ion as leaving group", CARBINOLAMINE, "[OH:2])([CH3:5])[NH+:3]", "[O-:2])([CH3:5])[N:3]",

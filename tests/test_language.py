@@ -401,6 +401,18 @@ SLIPS = [
     ("step closed by a brace",
      'step "a" {\n    :O1 -> C2\n}\n',
      1, 10, "unexpected `{`", "a move", "closed by `end`"),
+    # The hint once wrote "'[OH2:1]'", the single quotes kept inside the double ones.
+    ("SMILES in single quotes",
+     "species w = '[OH2:1]'\n",
+     1, 13, "unexpected `'[OH2:1]'`", "a quoted string", 'write "[OH2:1]"'),
+    # A backslash escapes nothing: the string ends at the quote after it.
+    ("double quote escaped inside a string",
+     'title "The \\"best\\" route"\n',
+     1, 14, "unexpected `best`", "a statement", "cannot hold a double quote"),
+    # SMILES's aromatic bond `:` between two atoms (once told "a lone pair is written before its atom").
+    ("aromatic bond written as in SMILES",
+     'step "a"\n    C1:C2 -> C1-Br7\nend\n',
+     2, 7, "unexpected `:`", "a bond", "`C1=C2` or `C1-C2`"),
 ]
 
 

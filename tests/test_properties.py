@@ -2,7 +2,7 @@
 
 1. Any sequence of valid electron moves conserves total charge, the atoms of every element and the
    number of valence electrons. Moves are chosen from what the current state allows (a lone pair
-   to a proton, a bond pair onto one of its atoms, a lone pair into an open shell, homolysis,
+   to a proton, a bond pair onto one of its atoms, a lone pair into an incomplete octet, homolysis,
    radical recombination), so the engine must accept every one of them. RDKit is the independent
    judge of each derived state: it must sanitize, and its formal charges and formula are the ones
    counted.
@@ -69,7 +69,7 @@ def valid_steps(state: ElectronState) -> list[tuple[str, ...]]:
             if y != x and _has_hydrogen(state, y):
                 steps.append((f":{_name(state, x)} -> H({_name(state, y)})",
                               f"{_name(state, y)}-H -> {_name(state, y)}"))
-    # a lone pair into an open shell (second-row atom with six electrons or fewer)
+    # a lone pair into an incomplete octet (second-row atom with six electrons or fewer)
     for x in lone_pair:
         for y in heavy:
             if y != x and period(state.mol.GetAtomWithIdx(y).GetAtomicNum()) == 2 and _shell(state, y) <= 6 \

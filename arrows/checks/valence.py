@@ -31,7 +31,7 @@ def shell_limit(atomic_num: int) -> int:
     return 18 if atomic_num in _TRANSITION_METALS else 8
 
 
-# Elements that are rarely left with an open shell of six (nitrenium, oxenium, sulfenium and
+# Elements that are rarely left with six valence electrons (nitrenium, oxenium, sulfenium and
 # halenium ions are fleeting at best; common practice draws a bond forming to them in the same
 # step): carbon (carbocations, carbenes), boron and the metals are not among them.
 _RARELY_SEXTET = {7: "an N", 8: "an O", 9: "an F", 16: "an S", 17: "a Cl", 35: "a Br", 53: "an I"}   # as read aloud
@@ -129,7 +129,8 @@ class UnusualElectronCounts(Check):
             if shell == 6 and element in _RARELY_SEXTET and old_shell > 6:
                 label = after.label(i)
                 # Neutral with six (a nitrene, an oxene): named as such, not as a cation.
-                kind = (f"{_RARELY_SEXTET[element]} cation with an open shell" if after.formal_charge(i) > 0
+                # A closed shell short of its octet, not an open shell (that would be a radical).
+                kind = (f"{_RARELY_SEXTET[element]} cation short of its octet" if after.formal_charge(i) > 0
                         else f"a neutral {_RARELY_SEXTET[element].split()[-1]} with six electrons"
                              f"{', a nitrene' if element == 7 else ''}")
                 yield Diagnostic("AR505", f"{label} is left with six valence electrons ({kind})", st.step.loc,
