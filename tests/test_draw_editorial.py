@@ -515,3 +515,29 @@ def test_a_leaving_group_crowding_its_carbon_steps_aside(name, panel, leaving):
                  key=lambda n: abs(before[n] - before[group]))
     assert abs(before[group] - before[carbon]) < 1.05
     assert abs(after[group] - after[carbon]) >= 1.2 - 1e-6, (carbon, abs(after[group] - after[carbon]))
+
+
+def _panels_per_row(scene) -> list[int]:
+    """How many panels each row of a scene holds (panels whose boxes share height are one row)."""
+    rows: list[list[float]] = []
+    for top, bottom in sorted((p.origin[1] + p.box.y0, p.origin[1] + p.box.y1) for p in scene.panels):
+        if rows and top < rows[-1][1] - 1e-6:
+            rows[-1][1], rows[-1][2] = max(rows[-1][1], bottom), rows[-1][2] + 1
+        else:
+            rows.append([top, bottom, 1])
+    return [count for _, _, count in rows]
+
+
+@pytest.mark.parametrize("stem, style, rows", [
+    ("06-michael-malonate", "two-column", [2, 2]),           # filled to the page: 3 + 1
+    ("07-annulation-wieland-miescher", "two-column", [3, 3, 3]),   # 4 + 4 + 1
+    ("04-heptanedione-cyclohexenone", "two-column", [3, 3]),  # 5 + 1
+    ("10-acetal-formation", "slide", [3, 3, 2]),              # 4 + 3 + 1
+])
+def test_a_wrapped_scheme_has_rows_of_even_length(stem, style, rows):
+    """A scheme that wraps keeps as few rows as fit the page but fills them evenly, not one full
+    row and a last panel alone with half a row of white beside it (common practice of scheme
+    layout in journals; a row that ends half empty is the editor's first request)."""
+    path = ROOT / "gallery" / f"{stem}.mech"
+    trace, diags = arrows.check_text(path.read_text(encoding="utf-8"), path.name)
+    assert _panels_per_row(build_scene(trace, STYLES[style], diags)) == rows

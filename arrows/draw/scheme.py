@@ -475,17 +475,9 @@ class _SceneBuilder:
                                centre=centre))
         # Rows: a reaction arrow always travels with the panel after it.
         units: list[list[_Item]] = [[items[0]]] + [items[k:k + 2] for k in range(1, len(items), 2)]
-        widest = max(sum(i.width for i in u) + gap * (len(u) - 1) for u in units)
-        rows: list[list[_Item]] = []
-        width = 0.0
-        for unit in units:
-            unit_width = sum(i.width for i in unit) + gap * (len(unit) - 1)
-            if rows and width + gap + unit_width <= avail + 1e-6:
-                rows[-1].extend(unit)
-                width += gap + unit_width
-            else:
-                rows.append(list(unit))
-                width = unit_width
+        widths = [sum(i.width for i in u) + gap * (len(u) - 1) for u in units]
+        widest = max(widths)
+        rows = [[item for k in row for item in units[k]] for row in _balanced_rows(widths, gap, avail)]
         self.fit = min(1.0, avail / widest) if widest > avail else 1.0
 
         texts: list[TextRun] = []
@@ -538,6 +530,36 @@ class _SceneBuilder:
                       panels=tuple(placed_panels), reaction_arrows=tuple(arrows), texts=tuple(texts),
                       notes=())
         return scene, self.fit
+
+
+def _rows_within(widths: list[float], gap: float, limit: float) -> list[list[int]]:
+    """The units (by index, in order) packed into rows no wider than `limit`, each row filled
+    before the next is begun (a unit wider than the limit has a row of its own)."""
+    rows: list[list[int]] = []
+    width = 0.0
+    for k, unit_width in enumerate(widths):
+        if rows and width + gap + unit_width <= limit + 1e-6:
+            rows[-1].append(k)
+            width += gap + unit_width
+        else:
+            rows.append([k])
+            width = unit_width
+    return rows
+
+
+def _balanced_rows(widths: list[float], gap: float, avail: float) -> list[list[int]]:
+    """As few rows as fit the page, made as even as they can be: the narrowest limit that needs no
+    more rows than packing to the full width. Filled to the page, a scheme of four equal steps
+    wraps three and one, with half a row left empty; balanced it wraps two and two (an editor's
+    first request of a wrapped scheme)."""
+    fewest = len(_rows_within(widths, gap, avail))
+    if fewest == 1:
+        return [list(range(len(widths)))]
+    spans = sorted({sum(widths[a:b]) + gap * (b - a - 1) for a in range(len(widths)) for b in range(a + 1, len(widths) + 1)})
+    for limit in spans:   # the narrowest row any packing can have as its widest, upward
+        if limit >= max(widths) - 1e-9 and len(_rows_within(widths, gap, limit)) <= fewest:
+            return _rows_within(widths, gap, limit)
+    return _rows_within(widths, gap, avail)
 
 
 def _hydrogens_of_small_by_products(state: ElectronState) -> frozenset[int]:
