@@ -166,7 +166,8 @@ def build_scene(trace: Trace, style: Style, diagnostics: Sequence[Diagnostic] = 
     """Lay out the whole scheme. Shrinks it (and says so in `notes`) if one panel is wider than
     the page, or the slide is too tall."""
     scene, fit = _SceneBuilder(trace, style, diagnostics).build()
-    uneven = _uneven_bonds(scene) + _crowded_atoms(scene) + _heavy_lines(style) + _glyphs_wanting(trace, style)
+    uneven = (_uneven_bonds(scene) + _crowded_atoms(scene) + _heavy_lines(style) + _glyphs_wanting(trace, style)
+              + _font_missing(style))
     if fit < 0.999:
         smaller = style.scaled(fit * 0.995)
         scene, _ = _SceneBuilder(trace, smaller, diagnostics, style).build()
@@ -175,6 +176,9 @@ def build_scene(trace: Trace, style: Style, diagnostics: Sequence[Diagnostic] = 
             note += (f"; the smallest text is {smaller.small_size:.1f} pt (below {SMALLEST_TEXT_PT:g} pt): "
                      "try a wider style")
         scene = replace(scene, notes=(note,) + scene.notes)
+    elif style.small_size < SMALLEST_TEXT_PT - 1e-9:
+        uneven += (f"the smallest text (charges, subscripts) is {style.small_size:.1f} pt at print size, below "
+                   f"{SMALLEST_TEXT_PT:g} pt: try --font-size {SMALLEST_TEXT_PT / style.small_scale:g} or more",)
     return replace(scene, notes=scene.notes + uneven) if uneven else scene
 
 
@@ -196,6 +200,26 @@ def _glyphs_wanting(trace: Trace, style: Style) -> tuple[str, ...]:
     shown = "".join(wanting[:8]) + ("..." if len(wanting) > 8 else "")
     return (f"the texts hold characters the default font has no glyphs for ({shown}): they print as empty boxes; "
             f"choose a font that has them with --font",)
+
+
+# A family no system has: what the font machinery falls back to when a family is not installed.
+_NO_SUCH_FAMILY = "arrows-no-such-font"
+_PROBE = "HONClBrNa+0123456789"
+
+
+def _font_missing(style: Style) -> tuple[str, ...]:
+    """A note when the family asked for is not installed: the text is measured, and printed, in
+    the fallback font the system picks, while the SVG still names the family asked for. Told by
+    metrics: a family measured exactly as the fallback is taken for it (a metric twin of the
+    fallback would be noted too, harmlessly)."""
+    family = style.font_family
+    if family == Style.font_family:
+        return ()
+    probe, fallback = FontFace(family), FontFace(_NO_SUCH_FAMILY)
+    if probe.width(_PROBE, 1.0) != fallback.width(_PROBE, 1.0) or probe.cap_height != fallback.cap_height:
+        return ()
+    return (f"the font {family!r} is not installed here: the figure is measured and printed in the system's "
+            f"fallback font; install it, or choose another with --font",)
 
 
 def _heavy_lines(style: Style) -> tuple[str, ...]:
