@@ -32,7 +32,12 @@ CODES = _table(
          'arrows check scheme.cdx   # a binary drawing file, not mechanism text'),
     Code("AR101", ERROR, "syntax error",
          "The text does not follow the mechanism language.",
-         'step "deprotonation"\n    :O11 -> H(C3)\n    C3-H -> C2=C3\n# missing `end`'),
+         'species water = "[OH2:1]"\n'
+         'species amide = "[NH2-:2]"\n'
+         'step "proton transfer"\n'
+         '    :N2 -> H(O1)\n'
+         '    O1-H -> O1\n'
+         '# the file ends here: `end` is missing'),
     Code("AR102", ERROR, "SMILES not understood",
          "RDKit could not read the SMILES of a species, checkpoint or product. RDKit's reason is given "
          "in the author's terms: an atom over its valence is named as written ([C-], atom 3 as written), "
@@ -40,27 +45,59 @@ CODES = _table(
          'species dione = "CC(=O)CC(C"   # unclosed branch'),
     Code("AR103", ERROR, "map number used twice",
          "Every atom map number must be unique across the whole mechanism, so that a move names one atom.",
-         'species a = "[CH3:1][OH:2]"\nspecies b = "[OH2:2]"'),
+         'species methanol = "[CH3:1][OH:2]"\n'
+         'species water = "[OH2:2]"   # 2 is methanol\'s oxygen already: write [OH2:3]'),
     Code("AR104", ERROR, "unknown atom",
          "A move names a map number that no species declares.",
-         'species w = "[OH2:1]"\nstep "s"\n    :O7 -> H(O1)\nend'),
+         'species water = "[OH2:1]"\n'
+         'species amide = "[NH2-:2]"\n'
+         'step "proton transfer"\n'
+         '    :N7 -> H(O1)   # no species holds atom 7: the amide nitrogen is N2\n'
+         '    O1-H -> O1\n'
+         'end'),
     Code("AR105", ERROR, "element does not match",
          "The element written with a map number differs from the element of that atom in the SMILES.",
-         'species acetone = "[CH3:1][C:2](=[O:3])C"\n...\n    C3=O2 -> O3   # C3 is oxygen, C2 is carbon'),
+         'species acetone = "[CH3:1][C:2](=[O:3])[CH3:4]"\n'
+         'species cyanide = "[C-:5]#[N:6]"\n'
+         'step "cyanide adds"\n'
+         '    :C5 -> C2\n'
+         '    C3=O2 -> O3   # atom 3 is oxygen and 2 carbon: write C2=O3 -> O3\n'
+         'end'),
     Code("AR106", ERROR, "atom already released",
          "A move or checkpoint uses an atom whose fragment left the drawing with `releases` in an earlier step.",
-         'step "loss of water" releases O9 ... end\nstep "next"\n    :O9 -> C2\nend'),
+         'species bromide = "[CH3:1][C:2]([CH3:3])([CH3:4])[Br:5]"\n'
+         'step "ionisation"\n'
+         '    C2-Br5 -> Br5\n'
+         '    releases Br5\n'
+         'end\n'
+         'step "capture"\n'
+         '    :Br5 -> C2   # bromide left the drawing in the step before\n'
+         'end'),
     Code("AR107", ERROR, "statement after the product",
          "`product` closes the mechanism: no step or second product may follow it.",
-         'product "CC(=O)CC"\nstep "one more"   # after the product\n    ...\nend'),
+         'species methoxide = "[CH3:1][O-:2]"\n'
+         'species iodomethane = "[CH3:3][I:4]"\n'
+         'step "substitution"\n'
+         '    :O2 -> C3\n'
+         '    C3-I4 -> I4\n'
+         'end\n'
+         'product "COC.[I-]"\n'
+         'step "workup"   # after the product: move it before `product`\n'
+         'end'),
     Code("AR108", ERROR, "duplicate species name",
          "Two species (or `uses` entries) share one name.",
-         'species water = "[OH2:1]"\nspecies water = "[OH2:2]"   # name the second water_2'),
+         'species water = "[OH2:1]"\n'
+         'species water = "[OH2:2]"   # name the second one water_2'),
     Code("AR109", ERROR, "no such hydrogen",
          "`H(X)` or `X-H` names a hydrogen on X, but X carries none at that point. A hydrogen that moves "
          "with its pair or electron keeps the name of the atom it leaves (`C1-H -> O4-H(C1)`), as the hint "
          "writes when the sink's `X-H` was meant for it.",
-         'species ion = "[O-:1]C"\nstep "s"\n    O1-H -> O1\nend'),
+         'species methoxide = "[CH3:1][O-:2]"\n'
+         'species water = "[OH2:3]"\n'
+         'step "proton transfer"\n'
+         '    :O2 -> H(O3)\n'
+         '    O2-H -> O2   # the O-H bond that breaks is water\'s: write O3-H -> O3\n'
+         'end'),
     Code("AR110", ERROR, "data-set record is not JSON",
          "A line of a JSONL data set (`arrows check --jsonl`) is not UTF-8 JSON text, or not a JSON object.",
          '{"id": "r1", "text": "species w = ..."   # the closing brace is missing'),
@@ -70,89 +107,176 @@ CODES = _table(
          '{"id": "r2", "steps": []}   # neither "text" nor "species" is given'),
     Code("AR112", ERROR, "nothing to check",
          "The file holds no species and no steps: it is empty, or comments only.",
-         'species water = "[OH2:1]"\nstep "..."\n    ...\nend'),
+         '# Aldol of propanal: species and steps still to write\n'
+         '# (a file of comments only)'),
     Code("AR201", ERROR, "no electrons at the source",
          "An arrow starts at electrons that are not there: a lone pair on an atom that has none, a bond "
          "that does not exist, or an unpaired electron on a closed-shell atom.",
-         ':C5 -> C6   # C5 is a carbocation: it has no lone pair'),
+         'species cation = "[CH3:1][C+:2]([CH3:3])[CH3:4]"\n'
+         'species water = "[OH2:5]"\n'
+         'step "capture"\n'
+         '    :C2 -> O5   # C2, a carbocation, has no lone pair: write :O5 -> C2\n'
+         'end'),
     Code("AR202", ERROR, "bond order written wrongly",
          "The connector of a source bond says what the bond is before the step. `=` on a single bond "
          "names a pi pair that does not exist. RDKit reads a nitrogen or halogen written with more "
          "bonds than its valence list allows (N(=O)=O, periodate's I(=O)3) charge-separated, X+ and O-: "
          "the pi pair such an X=O was drawn with is a lone pair on O.",
-         'C3=C4 -> C4   # C3-C4 is a single bond'),
+         'species bromide = "[CH3:1][CH2:2][Br:3]"\n'
+         'species base = "[OH-:4]"\n'
+         'step "elimination"\n'
+         '    :O4 -> H(C1)\n'
+         '    C1-H -> C1=C2\n'
+         '    C2=Br3 -> Br3   # C2-Br3 is a single bond: write C2-Br3 -> Br3\n'
+         'end'),
     Code("AR203", ERROR, "electrons used twice",
          "Two arrows in one step draw on the same electrons (one pair of a single bond, one lone pair "
          "more than the atom has). An arrow from `X=Y` takes the pi pair: a second one from it would "
          "take the sigma pair too, which an arrow names only as `X-Y` (a bond broken right through).",
-         'C3-H -> C2=C3\nC3-H -> C3-C7   # the one C3-H pair cannot go two places'),
+         'species propene = "[CH3:1][CH:2]=[CH2:3]"\n'
+         'species hbr = "[Br:4][H:5]"\n'
+         'step "addition"\n'
+         '    C2=C3 -> C3-H5\n'
+         '    C2=C3 -> C2-Br4   # the one pi pair cannot go two places\n'
+         '    H5-Br4 -> Br4\n'
+         'end'),
     Code("AR204", ERROR, "arrow starts at a hydrogen",
          "Arrows start at electrons. A proton (or any hydrogen bonded to an atom) has no lone pair; the "
          "arrow that removes a proton starts at the base's lone pair and ends at the hydrogen. (A free "
          "hydride ion, [H-], has a lone pair, and an arrow may start there.)",
-         'H(C3) -> O11     # write  :O11 -> H(C3)  and  C3-H -> ...'),
+         'species butanone = "[CH3:1][C:2](=[O:9])[CH2:3][CH3:4]"\n'
+         'species base = "[OH-:11]"\n'
+         'step "enolate formation"\n'
+         '    H(C3) -> O11   # arrows start at electrons: write :O11 -> H(C3)\n'
+         '    C3-H -> C2=C3\n'
+         '    C2=O9 -> O9\n'
+         'end'),
     Code("AR205", ERROR, "arrow starts at an atom, not at electrons",
          "A bare atom cannot be a source: name a lone pair (`:X`), a bond (`X-Y`) or an unpaired "
          "electron (`.X`).",
-         'O11 -> C2   # write :O11 -> C2'),
+         'species ammonia = "[NH3:1]"\n'
+         'species iodomethane = "[CH3:2][I:3]"\n'
+         'step "substitution"\n'
+         '    N1 -> C2   # an atom is not electrons: write :N1 -> C2\n'
+         '    C2-I3 -> I3\n'
+         'end'),
     Code("AR206", ERROR, "ambiguous sink",
          "A bond pair can only become a lone pair on one of its own atoms. To form a bond to a third "
          "atom, name that bond.",
-         'C4=C5 -> H9   # write C4=C5 -> C5-H9'),
+         'species propene = "[CH3:1][CH:2]=[CH2:3]"\n'
+         'species hbr = "[Br:4][H:5]"\n'
+         'step "protonation"\n'
+         '    C2=C3 -> H5   # a pair of C2=C3 cannot sit on H5: write C2=C3 -> C3-H5\n'
+         '    H5-Br4 -> Br4\n'
+         'end'),
     Code("AR207", ERROR, "sink bond shares no atom with the source",
          "Electrons stay on an atom they started on: the new or strengthened bond must contain one "
          "atom of the source.",
-         ':O1 -> C2=C3   # O1 is in neither atom of C2=C3'),
+         'species ammonia = "[NH3:1]"\n'
+         'species iodomethane = "[CH3:2][I:3]"\n'
+         'step "substitution"\n'
+         '    :N1 -> C2-I3   # N1 is in neither atom of C2-I3: write :N1 -> C2\n'
+         '    C2-I3 -> I3\n'
+         'end'),
     Code("AR208", ERROR, "bond after the step is not what was written",
          "The connector of a sink bond says what the bond will be after the step; the moves give "
          "something else.",
-         'C3-H -> C2-C3   # C2-C3 becomes a double bond: write C2=C3'),
+         'species bromide = "[CH3:1][CH2:2][Br:3]"\n'
+         'species base = "[OH-:4]"\n'
+         'step "elimination"\n'
+         '    :O4 -> H(C1)\n'
+         '    C1-H -> C1-C2   # C1-C2 becomes a double bond: write C1=C2\n'
+         '    C2-Br3 -> Br3\n'
+         'end'),
     Code("AR209", ERROR, "arrow kind does not fit the electrons",
          "A pair arrow `->` cannot start at one unpaired electron; use a fishhook `~>`. Nor do two "
          "fishhooks send both electrons of a bond onto one atom: that is a pair, one arrow `->`.",
-         '.C1 -> C2   # write .C1 ~> C2'),
+         'species methyl = "[CH3:1]"\n'
+         'species methyl_2 = "[CH3:2]"\n'
+         'step "recombination"\n'
+         '    .C1 -> C1-C2   # one electron: write .C1 ~> C1-C2\n'
+         '    .C2 ~> C1-C2\n'
+         'end'),
     Code("AR210", ERROR, "arrow goes nowhere",
          "The sink is the source itself (an atom giving its lone pair to itself, a bond moving into itself).",
-         'C2=O3 -> C2=O3   # a pair of C2=O3 moves onto O3 (C2=O3 -> O3) or into a neighbouring bond'),
+         'species acetone = "[CH3:1][C:2](=[O:3])[CH3:4]"\n'
+         'species hydroxide = "[OH-:5]"\n'
+         'step "addition"\n'
+         '    :O5 -> C2\n'
+         '    C2=O3 -> C2=O3   # goes nowhere: the pi pair moves onto O3, C2=O3 -> O3\n'
+         'end'),
     Code("AR301", ERROR, "octet exceeded",
          "After the step a second-row atom holds more than eight valence electrons (or hydrogen more "
          "than two). Lewis octet and duet rules (common practice). The hint names the move that makes "
          "room: the atom's pi bond breaking (in a concerted step, sent on to the atom the step leaves "
          "with six electrons: the missing arrow of a Diels-Alder), a leaving group's bond, an X-H pair "
          "going back to X; for a base drawn onto a carbon that holds the proton, the arrow to the hydrogen.",
-         'five bonds to one carbon'),
+         'species hydroxide = "[OH-:1]"\n'
+         'species chloromethane = "[CH3:2][Cl:3]"\n'
+         'step "substitution"\n'
+         '    :O1 -> C2   # C2 would have five bonds: C2-Cl3 -> Cl3 is missing\n'
+         'end'),
     Code("AR302", ERROR, "bond order out of range",
          "After the step a bond would be more than triple.",
-         ':N2 -> C1#N2   # C1#N2 is already triple: a fourth pair has nowhere to go'),
+         'species cyanide = "[C-:1]#[N:2]"\n'
+         'species iodomethane = "[CH3:3][I:4]"\n'
+         'step "substitution"\n'
+         '    :C1 -> C1#N2   # C1#N2 is already triple: the pair goes to C3, :C1 -> C3\n'
+         '    C3-I4 -> I4\n'
+         'end'),
     Code("AR303", ERROR, "odd-electron bond",
          "After the step a bond holds an odd number of electrons: a bond made from single electrons "
          "needs one fishhook from each partner in the same step. A lone fishhook among pair arrows is "
          "most often `~>` typed for `->`: the hint offers the pair arrow first.",
-         '.C1 ~> C2   # and no .C2 ~> C1 in the same step'),
+         'species methyl = "[CH3:1]"\n'
+         'species methyl_2 = "[CH3:2]"\n'
+         'step "recombination"\n'
+         '    .C1 ~> C1-C2   # alone: C1-C2 holds one electron; add .C2 ~> C1-C2\n'
+         'end'),
     Code("AR304", ERROR, "structure rejected by RDKit",
          "The derived structure does not sanitize in RDKit (valence or aromaticity).",
-         ':O3 -> Cl1   # onto Cl2-Cl1 without Cl1-Cl2 -> Cl2: Cl1 with two bonds and a -1 charge'),
+         'species chlorine = "[Cl:1][Cl:2]"\n'
+         'species hydroxide = "[OH-:3]"\n'
+         'step "attack on chlorine"\n'
+         '    :O3 -> Cl1   # Cl1-Cl2 -> Cl2 is missing: Cl1 would have two bonds, charge -1\n'
+         'end'),
     Code("AR305", ERROR, "sigma bond changed in a resonance step",
          "Resonance contributors differ only in where pi electrons and lone pairs are: a resonance "
          "step may not make or break a sigma bond.",
-         'step "contributor" resonance\n    C3-Br4 -> Br4   # breaks the C-Br sigma bond: a reaction, not resonance\nend'),
+         'species allyl = "[CH2:1]=[CH:2][CH2:3][Br:4]"\n'
+         'step "contributor" resonance\n'
+         '    C3-Br4 -> Br4   # breaks the C-Br sigma bond: a reaction, not resonance\n'
+         'end'),
     Code("AR401", ERROR, "checkpoint differs",
          "The state after the step does not contain a structure written with `expect`. The message "
          "names the difference atom by atom, and says so when the written structure is a tautomer of "
          "the derived one (RDKit's tautomer enumerator judges).",
-         '    :O11 -> C2\n    expect "CC(C)(O)C"   # the moves give the alkoxide CC(C)([O-])C'),
+         'species acetone = "[CH3:1][C:2](=[O:3])[CH3:4]"\n'
+         'species cyanide = "[C-:5]#[N:6]"\n'
+         'step "cyanide adds"\n'
+         '    :C5 -> C2\n'
+         '    C2=O3 -> O3\n'
+         '    expect "CC(C)(O)C#N"   # the moves give the alkoxide CC(C)([O-])C#N\n'
+         'end'),
     Code("AR402", ERROR, "product differs",
          "The state after the last step does not contain the structure written with `product`. As "
          "for AR401, a tautomer of the derived structure (a ketone written where the moves reach its "
          "enol) is called one.",
-         'product "CN=C(C)C"   # the moves leave the iminium C[NH+]=C(C)C: a proton transfer is missing'),
+         'species ammonia = "[NH3:1]"\n'
+         'species iodomethane = "[CH3:2][I:3]"\n'
+         'step "substitution"\n'
+         '    :N1 -> C2\n'
+         '    C2-I3 -> I3\n'
+         'end\n'
+         'product "CN.[I-]"   # the moves give C[NH3+]: a proton transfer is missing'),
     Code("AR403", ERROR, "charge not conserved",
          "The total charge after a step differs from the total before it plus what entered with `uses`.",
-         'a safety net: arrows only move electrons, so valid moves conserve charge; it would mean\n'
-         'the bookkeeping itself went wrong (please report it with the file)'),
+         'a safety net: arrows only move electrons, so valid moves conserve charge;\n'
+         'it would mean the bookkeeping itself went wrong (please report it with the file)'),
     Code("AR404", ERROR, "atoms not conserved",
          "The atoms after a step differ from the atoms before it plus what entered with `uses`.",
-         'a safety net like AR403: moves never add or remove atoms (`releases` keeps them counted)'),
+         'a safety net like AR403: moves never add or remove atoms\n'
+         '(`releases` keeps them counted)'),
     Code("AR501", WARNING, "small ring closed",
          "A step closes a three- or four-membered ring; five- and six-membered closures usually "
          "outcompete them (common practice).",
@@ -162,64 +286,121 @@ CODES = _table(
     Code("AR502", WARNING, "disfavoured ring closure",
          "Baldwin's rules (J. E. Baldwin, J. Chem. Soc., Chem. Commun. 1976, 734; Baldwin and Lusch, "
          "Tetrahedron 1982, 38, 2939) call this closure disfavoured.",
-         'an alkoxide onto the far end of a C=C inside the ring it closes: 5-endo-trig'),
+         'species alkoxide = "[O-:1][CH2:2][CH2:3][C:4](=[CH2:5])[C:6](=[O:7])[CH3:8]"\n'
+         'step "closure"\n'
+         '    :O1 -> C5   # C4=C5 lies inside the ring it closes: 5-endo-trig\n'
+         '    C4=C5 -> C4=C6\n'
+         '    C6=O7 -> O7\n'
+         'end'),
     Code("AR503", WARNING, "unusual formal charge",
          "A step leaves an atom with a new formal charge of magnitude two or more (for example carbon -2, "
          "oxygen +2).",
-         'C3-O4 -> C3   # the C-O pair stays on carbon: C3 ends at -2 and O4 at +2'),
+         'species hydroxide = "[OH-:1]"\n'
+         'species hydroxide_2 = "[OH-:2]"\n'
+         'step "proton transfer"\n'
+         '    :O1 -> H(O2)\n'
+         '    O2-H -> O2   # leaves O2 as oxide, charge -2: hydroxide is no acid here\n'
+         'end'),
     Code("AR504", WARNING, "expanded octet",
          "A step takes a third-row or heavier atom above eight valence electrons, or further above "
          "(a shell a step only keeps, as a sulfonyl S that swaps one bond for another, is not flagged); "
          "a d-block metal of groups 3-11 above eighteen (the 18-electron rule).",
-         'C4=O5 -> O5-P2   # the oxaphosphetane of a Wittig reaction: P2 with five bonds (fine for P)'),
+         'species cation = "Cl[P+:1](Cl)(Cl)Cl"\n'
+         'species chloride = "[Cl-:2]"\n'
+         'step "chloride adds"\n'
+         '    :Cl2 -> P1   # PCl5: ten valence electrons on P1 (usual for phosphorus)\n'
+         'end'),
     Code("AR505", WARNING, "electron-poor heteroatom",
          "A step leaves N, O, S or a halogen with six valence electrons, down from a full octet (a "
          "nitrenium, oxenium or halenium ion). Such ions are rare; most often single-electron arrows "
          "were meant (a homolysis), or a bond should form to the atom in the same step.",
-         'Br1-Br2 -> Br1   # under light: Br2 is left as Br+ with six electrons; write\n'
-         '                 # Br1-Br2 ~> Br1 and Br1-Br2 ~> Br2 for the homolysis'),
+         'species bromine = "[Br:1][Br:2]"\n'
+         'step "homolysis" under "light"\n'
+         '    # two fishhooks were meant: Br1-Br2 ~> Br1 and Br1-Br2 ~> Br2\n'
+         '    Br1-Br2 -> Br1   # a pair arrow leaves Br2 as Br+ with six electrons\n'
+         'end'),
     Code("AR506", WARNING, "step with no moves",
          "A step names no electron moves.",
-         'step "workup" under "H3O+"\nend   # write the proton transfers, or leave the step out'),
+         'species acid = "[CH3:1][C:2](=[O:3])[OH:4]"\n'
+         'species base = "[OH-:5]"\n'
+         'step "deprotonation"\n'
+         '    :O5 -> H(O4)\n'
+         '    O4-H -> O4\n'
+         'end\n'
+         'step "workup" under "H3O+"   # no moves: write them, or leave the step out\n'
+         'end'),
     Code("AR507", WARNING, "bond order written lower than it is",
          "A source bond is written `-` but is really double or triple; the pi pair is meant, so write `=` or `#`.",
-         'C2-O9 -> O9   # C2=O9 is a double bond: write C2=O9 -> O9'),
+         'species acetone = "[CH3:1][C:2](=[O:3])[CH3:4]"\n'
+         'species cyanide = "[C-:5]#[N:6]"\n'
+         'step "cyanide adds"\n'
+         '    :C5 -> C2\n'
+         '    C2-O3 -> O3   # C2=O3 is a double bond: write C2=O3 -> O3\n'
+         'end'),
     Code("AR508", WARNING, "uphill proton transfer",
          "The base's conjugate acid is much weaker than the acid it deprotonates. Not judged: a "
          "proton beside a cation (E1, a protonated carbonyl's alpha C-H) or one whose loss makes "
          "its atom aromatic (an arenium ion or a sigma complex rearomatising).",
-         ':O2 -> H(C3)   # water (pKa of hydronium -1.7) taking an alkane C-H (~50)'),
+         'species acetone = "[CH3:1][C:2](=[O:3])[CH3:4]"\n'
+         'species water = "[OH2:5]"\n'
+         'step "enolisation"\n'
+         '    :O5 -> H(C1)   # water (H3O+ pKa -1.7) vs acetone\'s C-H (~19-20, memory)\n'
+         '    C1-H -> C1=C2\n'
+         '    C2=O3 -> O3\n'
+         'end'),
     Code("AR509", WARNING, "migrating group syn to the leaving group",
          "In a 1,2-shift across a double bond of written geometry onto an atom whose leaving group "
          "departs in the same step (the Beckmann rearrangement of an oxime), the group anti to the "
          "leaving group migrates; the step moves the one beside it.",
-         'C1-C2 -> C1-N3   # C1 is cis to the leaving O4 across C2=N3: the other group migrates'),
+         'species oxime = "C[C:2](=[N:3]/[OH2+:4])/[c:1]1ccccc1"\n'
+         'step "migration"\n'
+         '    C1-C2 -> C1-N3   # phenyl C1 is cis to the leaving O4: the methyl migrates\n'
+         '    N3-O4 -> O4\n'
+         '    :N3 -> C2#N3\n'
+         'end'),
     Code("AR510", WARNING, "leaving group that is a very strong base",
          "A bond to carbon breaks with its pair going to an atom that is left as an anion whose "
          "conjugate acid has a pKa of 35 or more (an amide ion R2N-, a carbanion with no neighbour "
          "to spread its charge, a hydride ion). Good leaving groups are weak bases (common practice); "
          "such a group is protonated before it leaves, or its pair goes on into a bond in the same step.",
-         'C8-N20 -> N20   # the amine leaves a carbinolamine as R2N- (pKa of R2NH ~38): protonate N20 first'),
+         'species adduct = "C[C:1]([O-:2])(C)[N:3](C)C"\n'
+         'step "the amine leaves"\n'
+         '    :O2 -> C1=O2\n'
+         '    C1-N3 -> N3   # Me2N- leaves (pKa of Me2NH ~38, memory): protonate N3 first\n'
+         'end'),
     Code("AR511", WARNING, "unstabilised primary carbocation",
          "A step leaves a methyl or primary carbocation with no neighbouring lone pair, pi bond or arene "
          "to spread the charge. Such cations are not intermediates in solution (common practice: SN1 "
          "and E1 go through tertiary, secondary, allylic or benzylic cations; Markovnikov's rule).",
-         'C1=C2 -> C2-H(O5)   # isobutene protonated at C2 leaves CH2+ on C1: protonate C1, giving the '
-         'tert-butyl cation'),
+         'species alkene = "[CH2:1]=[C:2]([CH3:3])[CH3:4]"\n'
+         'species acid = "[OH3+:5]"\n'
+         'step "protonation"\n'
+         '    C1=C2 -> C2-H(O5)   # leaves CH2+ on C1: protonate C1 (tert-butyl cation)\n'
+         '    O5-H -> O5\n'
+         'end'),
     Code("AR512", WARNING, "release takes the molecule that reacted",
          "`releases` takes away the whole molecule the named atom belongs to. Here that molecule holds "
          "every atom the step's arrows touch (or, in a step with no arrows, it is the largest molecule "
          "left): the atom meant to leave is still bonded to it (a leaving group whose bond the arrows "
          "do not break). A small molecule the step makes to let go while a larger one stays (silver "
          "bromide from Ag+ and Br-) is not flagged.",
-         ':O6 -> C2\n    C2=O3 -> O3\n    releases O4   # methoxide is still bonded to C2: break C2-O4 '
-         '(after the C=O re-forms) before releasing it'),
+         'species ester = "[CH3:1][C:2](=[O:3])[O:4][CH3:5]"\n'
+         'species hydroxide = "[OH-:6]"\n'
+         'step "addition"\n'
+         '    :O6 -> C2\n'
+         '    C2=O3 -> O3\n'
+         '    releases O4   # methoxide is still bonded to C2: the whole adduct goes\n'
+         'end'),
     Code("AR513", WARNING, "pi pair pushed onto one end with nothing at the other",
          "A step sends the pi pair of a bond onto one of its atoms while nothing bonds to the other, "
          "leaving that one a cation beside it (C+ beside O-). That is the bond's polarised "
          "resonance form; as a step it usually means the arrow that brings a nucleophile to the "
          "cation is missing.",
-         'step "methanol adds"\n    C2=O3 -> O3      # and :O11 -> C2, the nucleophile, is forgotten'),
+         'species aldehyde = "[CH3:1][CH:2]=[O:3]"\n'
+         'species cyanide = "[C-:4]#[N:5]"\n'
+         'step "cyanide adds"\n'
+         '    C2=O3 -> O3   # and :C4 -> C2, the nucleophile\'s arrow, is forgotten\n'
+         'end'),
     Code("AR601", NOTE, "ring closure",
          "A step closes a ring; its size and Baldwin class are given. A pericyclic step (every arrow "
          "from a bond to a bond, round a closed loop that makes no charge; arrows that all start at "
@@ -234,7 +415,11 @@ CODES = _table(
          "Baldwin's rules are stated for first-row atoms: a closure at a heavier one (the phosphorus of "
          "an oxaphosphetane, the iodine of a cyclic periodate ester) is given no class (a three- or "
          "four-membered one still draws AR501).",
-         'C2=C3 -> C3-C7   # an enolate onto a ketone of its own chain: 5-(enolexo)-exo-trig, favoured'),
+         'species bromobutoxide = "[O-:1][CH2:2][CH2:3][CH2:4][CH2:5][Br:6]"\n'
+         'step "ring closure"\n'
+         '    :O1 -> C5   # tetrahydrofuran: 5-exo-tet, favoured (a note, not a fault)\n'
+         '    C5-Br6 -> Br6\n'
+         'end'),
     Code("AR602", NOTE, "stereocentres",
          "Stereocentres or stereogenic double bonds made or lost in a step, and how many "
          "stereoisomers the product can have when the mechanism controls none of them. A centre that "
@@ -251,14 +436,25 @@ CODES = _table(
          "across two configured centres sets the new double bond's geometry: anti-periplanar (E2), or "
          "syn when the leaving group takes the hydrogen (a Cope elimination). Other new centres (an "
          "aldol's, an addition to C=O) are counted as free.",
-         '    :O4 -> C2=O3 ... an aldol addition: new stereocentre C5 (a note, not a fault)'),
+         'species aldehyde = "[CH3:1][CH:2]=[O:3]"\n'
+         'species cyanide = "[C-:4]#[N:5]"\n'
+         'step "cyanide adds"\n'
+         '    :C4 -> C2   # C2 becomes a stereocentre, formed without control (a note)\n'
+         '    C2=O3 -> O3\n'
+         'end'),
     Code("AR603", WARNING, "configuration written otherwise",
          "A checkpoint or the product is written with a configuration (@, @@, / or \\) that the steps "
          "do not give: a diastereomer of the derived structure, or its enantiomer when a species was "
          "written with a configured centre. Only pieces of the same constitution are compared, and only "
          "when the steps configure as many stereo elements as are written; an enantiomer of a product "
          "formed as the racemate is no mismatch.",
-         'product "C/C=C(/C)c1ccccc1"   # Z written; the anti E2 of the (2R,3R) bromide gives E'),
+         'species bromide = "CC[C@@H:1](C)[Br:2]"\n'
+         'species hydroxide = "[OH-:3]"\n'
+         'step "backside attack"\n'
+         '    :O3 -> C1\n'
+         '    C1-Br2 -> Br2\n'
+         'end\n'
+         'product "CC[C@@H](C)O.[Br-]"   # (R) kept; the SN2 inverts C1 to (S)'),
 )
 
 

@@ -405,13 +405,50 @@ def test_explain_gives_every_code_an_example():
         assert max(len(line) for line in explanation.splitlines()) <= 88, code
 
 
+def _whole_file(example: str) -> bool:
+    """An example is a whole .mech file when it leaves nothing out (no `...`) and its first line
+    that is not a comment declares a species, or it holds comments only (AR112's empty file)."""
+    written = [line for line in example.splitlines() if line.strip() and not line.lstrip().startswith("#")]
+    return "..." not in example and (not written or written[0].startswith("species "))
+
+
+# Examples that cannot be a .mech file: an unreadable file (AR100), lines of a JSONL data set
+# (AR110, AR111), and the two safety nets no valid moves can trip (AR403, AR404), described in words.
+FRAGMENT_EXAMPLES = {"AR100", "AR110", "AR111", "AR403", "AR404"}
+
+
 def test_whole_mechanism_examples_give_their_own_code():
-    """An example written as a whole mechanism (it starts with `species` and leaves nothing out)
-    gives exactly its own code when checked, and no other error or warning."""
+    """An example written as a whole mechanism gives exactly its own code when checked, and no
+    other error or warning (notes allowed); a note's example gives its note and no finding."""
     from arrows import check_text
     from arrows.diagnostics import CODES
-    whole = [c for c in CODES.values() if c.example.startswith("species") and "..." not in c.example]
-    assert len(whole) >= 6
+    whole = [c for c in CODES.values() if _whole_file(c.example)]
+    assert len(whole) >= 43
     for c in whole:
         _, diags = check_text(c.example, "example.mech")
-        assert {d.code for d in diags if d.severity != "note"} == {c.code}, c.code
+        shown = [d.to_text() for d in diags]
+        findings = {d.code for d in diags if d.severity != "note"}
+        if c.severity == "note":
+            assert findings == set() and c.code in {d.code for d in diags}, (c.code, shown)
+        else:
+            assert findings == {c.code}, (c.code, shown)
+
+
+def test_fragment_examples_are_what_they_say(write):
+    """Every example is a whole mechanism except the few that cannot be one, and those give their
+    code by their own road: a binary file to `arrows check`, a record line to `check --jsonl`.
+    Every example line, as `arrows explain` prints it, stays within 88 columns."""
+    from arrows.batch.jsonl import check_line
+    from arrows.diagnostics import CODES
+    assert {c.code for c in CODES.values() if not _whole_file(c.example)} == FRAGMENT_EXAMPLES
+    for c in CODES.values():
+        assert max(len("    " + line) for line in c.example.splitlines()) <= 88, c.code
+    command, _ = CODES["AR100"].example.split("   #")
+    assert command.split()[:2] == ["arrows", "check"]
+    # Bytes that are not text (NUL bytes, invalid UTF-8), as in a drawing program's binary file.
+    drawing = write(command.split()[2], b"\x04\x03\x02\x01\x00\x00\xff\xfe\x00")
+    result = run("check", drawing)
+    assert result.exit_code == 2 and "AR100" in result.output and "Traceback" not in result.output
+    for code in ("AR110", "AR111"):
+        record, _ = CODES[code].example.split("   #")
+        assert [d["code"] for d in check_line("set.jsonl", 1, record.encode())["diagnostics"]] == [code]
