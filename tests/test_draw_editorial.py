@@ -541,3 +541,32 @@ def test_a_wrapped_scheme_has_rows_of_even_length(stem, style, rows):
     path = ROOT / "gallery" / f"{stem}.mech"
     trace, diags = arrows.check_text(path.read_text(encoding="utf-8"), path.name)
     assert _panels_per_row(build_scene(trace, STYLES[style], diags)) == rows
+
+
+def _run_box(run, face):
+    """The ink box of a text run as the scene measures it: cap height above the baseline."""
+    from arrows.draw.scene import Box
+    return Box(run.x, run.y - face.cap_height * run.size, run.x + face.width(run.text, run.size), run.y)
+
+
+@pytest.mark.parametrize("path", GALLERY, ids=[p.stem for p in GALLERY])
+def test_a_half_loop_onto_a_labelled_atom_ends_at_its_symbol(path):
+    """A pair leaving a bond for one of its own atoms whose label writes hydrogens (OH, H2O+) ends
+    at the element symbol, the atom that takes the electrons, not beyond its hydrogens (common
+    practice: the head touches the atom; the heads once stopped past the H of OH and under the 2
+    of H2O+)."""
+    from arrows.draw.text import FontFace
+    trace, diags = arrows.check_text(path.read_text(encoding="utf-8"), path.name)
+    scene = build_scene(trace, STYLES["two-column"], diags)
+    face = FontFace(STYLES["two-column"].font_family)
+    for panel in scene.panels:
+        for arrow in panel.arrows:
+            if arrow.source_kind != "bond" or len(arrow.sink_atoms) != 1 or arrow.sink_atoms[0] not in arrow.source_atoms:
+                continue
+            atom = panel.atom(arrow.sink_atoms[0])
+            if atom is None or len(atom.runs) < 2:
+                continue
+            symbol = [r for r in atom.runs if r.text == atom.element]
+            rest = [_run_box(r, face) for r in atom.runs if r.text != atom.element]
+            to_symbol = _run_box(symbol[0], face).distance(arrow.tip)
+            assert all(to_symbol <= box.distance(arrow.tip) + 1e-6 for box in rest), (panel.index, arrow.move)

@@ -33,7 +33,7 @@ from .formula import MINUS
 from .plane import unit
 from .scene import Box, CurvedArrow, Mark
 from .structure import (PanelStructure, clearance, closes_cycle, level_and_close, minus_along_stroke, ranked_directions,
-                        ray_exit, segment_hits_box)
+                        segment_hits_box)
 from .styles import Style
 
 _SAMPLES = 16
@@ -591,8 +591,9 @@ class ArrowPlanner:
         along = unit(panel.positions[other] - panel.positions[atom])   # from the atom down its bond
         for normal in (src.axis * 1j, src.axis * -1j):
             p0 = src.point + normal * (src.extent + 0.05 * self.bl)
-            reach = panel.label_reach(atom, normal)
-            tip = snk.point + normal * (reach + 0.12 * self.fs if reach else 0.2 * self.bl)
+            # (turned toward the bond, the side the hook comes from, if the label's hydrogens are in the way)
+            side, reach = panel.arrival(atom, normal, 0.12 * self.fs, turn_toward=along)
+            tip = snk.point + side * (reach + 0.12 * self.fs if reach else 0.2 * self.bl)
             plain = _Candidate(p0, p0 + normal * h, tip + normal * h, tip)
             out.append(plain)
             # Between the bond and a neighbour's bond less than a right angle round (a C-H between
@@ -607,7 +608,7 @@ class ArrowPlanner:
                                   + [(math.pi, 0j)], key=lambda pair: pair[0])
             if room < math.pi / 2 or (room < _WIDE_ANGLE and self._reaches_over(plain, atom, neighbour, panel)):
                 arrive = along * cmath.rect(1.0, side * room / 2)
-                reach = panel.label_reach(atom, arrive)
+                reach = panel.arrival_reach(atom, arrive, 0.12 * self.fs)
                 tip = snk.point + arrive * (reach + 0.12 * self.fs if reach else 0.2 * self.bl)
                 # (down the bond, but within a quarter bond length of its middle, as a tail must be)
                 off = src.extent + 0.05 * self.bl
@@ -645,7 +646,7 @@ class ArrowPlanner:
         label_gap, bare_gap = 0.12 * self.fs, 0.2 * self.bl
         if to_atom:
             atom = snk.atoms[0]
-            box, centre = panel.atoms[atom].box, panel.positions[atom]   # (label_reach, written out)
+            arrival = panel.arrival_reach
         for _ in range(2):
             chord = tip - p0
             size = abs(chord)
@@ -661,7 +662,7 @@ class ArrowPlanner:
             # The tip: short of the sink atom's label, or off the sink bond on the side it comes from.
             if to_atom:
                 back = -arrive
-                reach = 0.0 if box is None else ray_exit(centre, back, box)
+                reach = arrival(atom, back, label_gap)
                 tip = end + back * (reach + (label_gap if reach else bare_gap))
             elif to_bond:
                 tip = end + (head_n if (-arrive / head_n).real >= 0 else -head_n) * head_off

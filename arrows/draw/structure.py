@@ -57,6 +57,9 @@ class PanelStructure:
     bond_directions: dict[int, list[complex]] = field(default_factory=dict)
     bond_extent: dict[tuple[int, int], float] = field(default_factory=dict)  # half-width of each bond's strokes
     bond_lean: dict[tuple[int, int], complex] = field(default_factory=dict)  # a one-sided double's second stroke
+    # For a label that writes more than its element symbol (OH, H2O, NH3+): the symbol's own box and
+    # the boxes of the rest, where an arrowhead may stop beside the symbol and where it may not.
+    label_parts: dict[int, tuple[Box, tuple[Box, ...]]] = field(default_factory=dict)
 
     def label_reach(self, atom: int, direction: complex) -> float:
         """How far the atom's label reaches from its centre along direction (0: no label)."""
@@ -64,6 +67,48 @@ class PanelStructure:
         if box is None:
             return 0.0
         return ray_exit(self.positions[atom], direction, box)
+
+    def arrival(self, atom: int, direction: complex, gap: float, turn_toward: Optional[complex] = None
+                ) -> tuple[complex, float]:
+        """(side, reach): where an arrowhead arriving at the atom stops, `reach` from its centre
+        along `side` (then `gap` further out). Short of the element symbol itself where the rest
+        of the label is not in the way, so that a half-loop onto the O of OH points at the O and
+        not past its H (common practice: the head touches the atom that takes the electrons);
+        where the rest is in the way along `direction`, the side is turned up to 45 degrees
+        toward `turn_toward` (if given) to find the symbol clear; else short of the whole label
+        along `direction` (reach 0: no label)."""
+        box = self.atoms[atom].box
+        if box is None:
+            return direction, 0.0
+        centre = self.positions[atom]
+        parts = self.label_parts.get(atom)
+        if parts is not None:
+            symbol, rest = parts
+            sides = [direction]
+            if turn_toward is not None:
+                turn = 1.0 if (turn_toward / direction).imag > 0 else -1.0
+                sides += [direction * cmath.rect(1.0, turn * math.radians(a)) for a in (15, 30, 45, 60)]
+            best = None
+            for side in sides:
+                near = ray_exit(centre, side, symbol)
+                tip = centre + side * (near + gap)
+                point = (tip.real, tip.imag)
+                # Clear of the rest of the label, the head read as the symbol's: the side asked for
+                # where that is plain, else the side whose tip stands furthest from the rest for its
+                # nearness to the symbol (the first of equals).
+                margin = min(b.distance(point) for b in rest) - symbol.distance(point)
+                if margin > 0 and not any(b.contains(point, 0.5 * gap) for b in rest) \
+                        and (best is None or margin > best[0] + 1e-6):
+                    best = (margin, side, near)
+                    if side == direction and margin >= gap:
+                        break   # plainly the symbol's along the side asked for: no turn needed
+            if best is not None:
+                return best[1], best[2]
+        return direction, ray_exit(centre, direction, box)
+
+    def arrival_reach(self, atom: int, direction: complex, gap: float) -> float:
+        """arrival's reach along `direction` itself."""
+        return self.arrival(atom, direction, gap)[1]
 
 
 def ray_exit(origin: complex, direction: complex, box: Box, pad: float = 0.0) -> float:
@@ -349,8 +394,15 @@ class StructureDrawer:
                     ahead[i] += [unit_or_zero(positions[j] - positions[i]) for j in pair if j != i and j in positions]
         lettered = carbons_to_letter(bonds, positions, state.elements)
         for i in visible:
-            out.atoms[i] = self._atom(state, facts[i], adjacent, i, positions, neighbours[i], drawn_hydrogens, out,
-                                      ahead[i], i in lettered)
+            drawing = out.atoms[i] = self._atom(state, facts[i], adjacent, i, positions, neighbours[i],
+                                                drawn_hydrogens, out, ahead[i], i in lettered)
+            if len(drawing.runs) > 1:
+                # The symbol is the run the label is centred on (its hydrogens and mass number beside it).
+                x = positions[i].real
+                symbol = next((r for r in drawing.runs if r.x <= x <= r.x + self.face.width(r.text, r.size)), None)
+                if symbol is not None:
+                    out.label_parts[i] = (self.text_box(symbol),
+                                          tuple(self.text_box(r) for r in drawing.runs if r is not symbol))
         # RDKit's ring search costs more than all the strokes: run it only when a drawn double
         # bond lies on a ring (only such a bond asks which ring it is in).
         on_ring = any(order == 2 and i in shown and j in shown and closes_cycle(i, j, adjacent)
