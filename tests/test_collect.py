@@ -92,14 +92,20 @@ def flat(text: str) -> str:
     return " ".join(text.split())
 
 
+def shown(name: str) -> str:
+    """How the batch names a corpus file: as reached from the command line, which gives the
+    corpus folder from its parent."""
+    return f"schemes/{name}"
+
+
 @pytest.fixture(scope="module")
 def corpus(tmp_path_factory):
     base = tmp_path_factory.mktemp("collect")
     order = make_corpus(base / "schemes")
     out = base / "one" / "si.pdf"
-    proc = collect(base / "schemes", "-o", out, "-j", "1", "--title", "Supporting information",
+    proc = collect("schemes", "-o", out, "-j", "1", "--title", "Supporting information",
                    "--authors", "A. Chemist, B. Chemist", "--date", "1 March 2026", "--cache", base / "cache",
-                   "--report", base / "one" / "report.json", "--junit", base / "one" / "junit.xml")
+                   "--report", base / "one" / "report.json", "--junit", base / "one" / "junit.xml", cwd=base)
     return {"base": base, "folder": base / "schemes", "order": order, "out": out, "proc": proc}
 
 
@@ -119,12 +125,12 @@ def test_the_document_has_every_scheme_numbered_and_captioned(corpus):
         page = texts[1 + number]
         assert page.startswith(f"Scheme S{number}. "), (number, page[:80])
         if name == "zz-broken-syntax.mech":
-            assert page.startswith(f"Scheme S{number}. {name}")      # unparsed: the file names the scheme
+            assert page.startswith(f"Scheme S{number}. {shown(name)}")   # unparsed: the file names the scheme
         elif title:
             assert page.startswith(f"Scheme S{number}. {flat(title)}")
         if caption and name != "zz-broken-syntax.mech":
             assert flat(caption) in page
-        assert f"Source {name}." in page
+        assert f"Source {shown(name)}." in page
         # the contents gives the page a PDF viewer shows for it
         assert re.search(rf"S{number} .*? {number + 2}\b", texts[1])
     assert [item.title for item in reader.outline][:3] == ["Supporting information", "Contents", "Scheme S1"]
@@ -132,7 +138,7 @@ def test_the_document_has_every_scheme_numbered_and_captioned(corpus):
 
 
 def test_progress_is_a_bar_on_a_terminal_and_lines_otherwise(corpus, tmp_path):
-    assert "[1/33] S1 01-enolate-formation-variation-1.mech: passed (drawn)" in corpus["proc"].stderr
+    assert "[1/33] S1 schemes/01-enolate-formation-variation-1.mech: passed (drawn)" in corpus["proc"].stderr
     controller, terminal = pty.openpty()
     fcntl.ioctl(terminal, termios.TIOCSWINSZ, struct.pack("HHHH", 24, 100, 0, 0))   # a 100-column terminal
     proc = subprocess.run(["arrows", "collect", str(GALLERY[0]), "-o", str(tmp_path / "one.pdf"), "-j", "1"],
@@ -159,10 +165,10 @@ def test_the_broken_files_are_in_the_summary_with_their_codes(corpus):
     for number, (name, _, _) in enumerate(corpus["order"], 1):
         if name in BROKEN:
             code = BROKEN[name][1]
-            assert re.search(rf"S{number} {re.escape(name)}: 1 error \({code}\)", summary), name
+            assert re.search(rf"S{number} {re.escape(shown(name))}: 1 error \({code}\)", summary), name
             assert f"error {code}" in summary
         else:
-            assert f"S{number} {name}: passed" in summary
+            assert f"S{number} {shown(name)}: passed" in summary
     assert "zz-broken-syntax.mech: 1 error (AR101)" in corpus["proc"].stderr
 
 
@@ -170,12 +176,12 @@ def test_report_and_junit_list_every_scheme(corpus):
     report = json.loads((corpus["out"].parent / "report.json").read_text())
     assert report["totals"]["schemes"] == SCHEMES and report["totals"]["failed"] == 3
     failed = {s["file"] for s in report["schemes"] if s["failed"]}
-    assert failed == set(BROKEN)
+    assert failed == {shown(name) for name in BROKEN}
     suite = ET.parse(corpus["out"].parent / "junit.xml").getroot().find("testsuite")
     assert suite.get("tests") == str(SCHEMES) and suite.get("failures") == "3"
     failures = {case.get("file"): case.find("failure") for case in suite.iter("testcase")}
     for name, (_, code) in BROKEN.items():
-        assert failures[name] is not None and code in failures[name].text
+        assert failures[shown(name)] is not None and code in failures[shown(name)].text
 
 
 def test_a_scheme_with_no_figure_is_not_said_to_be_drawn(corpus):
@@ -455,15 +461,15 @@ def test_the_layout_notes_of_every_figure_are_reported(tmp_path):
         expected[path.name] = build_scene(trace, STYLES["one-column"].with_options(show_title=False), diags).notes
     assert expected["a-alkylation.mech"] and not expected["b-sn2.mech"]
     out = tmp_path / "si.pdf"
-    proc = collect(folder, "-o", out, "-j", "1", "--style", "one-column", "--cache", tmp_path / "cache",
-                   "--report", tmp_path / "report.json")
+    proc = collect("schemes", "-o", out, "-j", "1", "--style", "one-column", "--cache", tmp_path / "cache",
+                   "--report", tmp_path / "report.json", cwd=tmp_path)
     assert proc.returncode == 0, proc.stderr
     for label, name in (("S1", "a-alkylation.mech"), ("S2", "b-sn2.mech")):
         printed = [line.split(": note: ", 1)[1] for line in proc.stderr.splitlines()
-                   if line.startswith(f"{label} {name}: note: ")]
+                   if line.startswith(f"{label} {shown(name)}: note: ")]
         assert printed == list(expected[name])
     report = {s["file"]: s["layout_notes"] for s in json.loads((tmp_path / "report.json").read_text())["schemes"]}
-    assert report == {name: list(notes) for name, notes in expected.items()}
+    assert report == {shown(name): list(notes) for name, notes in expected.items()}
     index = (tmp_path / "si-figures" / "index.html").read_text()
     for note in expected["a-alkylation.mech"]:
         assert f"figure: {note}" in index
@@ -475,3 +481,80 @@ def test_a_prefix_with_spaces_or_punctuation_is_bad_usage(tmp_path):
     done = collect(GALLERY[0], "-o", tmp_path / "si.pdf", "--prefix", "Fig. ")
     assert done.returncode == 2 and "--prefix" in done.stderr
     assert not (tmp_path / "si.pdf").exists()
+
+
+def test_dot_files_and_dot_folders_are_left_out_of_a_folder(tmp_path):
+    """A folder's version control, notebook checkpoints and editor files are not schemes (common
+    practice of source tools: a walk skips dot-files and dot-folders); they once made S1-S5 of one
+    mechanism. `arrows check FOLDER` walks the same way; a dot-file or dot-folder named on the
+    command line is still read."""
+    folder = tmp_path / "si"
+    for name in ("a.mech", ".hidden.mech", ".git/x.mech", ".ipynb_checkpoints/a-checkpoint.mech", ".#a.mech"):
+        (folder / name).parent.mkdir(parents=True, exist_ok=True)
+        shutil.copy(GALLERY[0], folder / name)
+    runs = {"folder": ["si"], "named": ["si", "si/.hidden.mech", "si/.git"]}
+    expected = {"folder": ["si/a.mech"], "named": ["si/a.mech", "si/.hidden.mech", "si/.git/x.mech"]}
+    for run, inputs in runs.items():
+        proc = collect(*inputs, "-o", tmp_path / f"{run}.pdf", "-j", "1", "--cache", tmp_path / "cache",
+                       "--report", tmp_path / f"{run}.json", cwd=tmp_path)
+        assert proc.returncode == 0, proc.stderr
+        report = json.loads((tmp_path / f"{run}.json").read_text())
+        assert [s["file"] for s in report["schemes"]] == expected[run]
+        checked = subprocess.run(["arrows", "check", *inputs], capture_output=True, text=True, cwd=tmp_path,
+                                 timeout=300)
+        assert checked.returncode == 0 and f"{len(expected[run])} file" in checked.stderr, checked.stderr
+        assert sorted(re.findall(r"^(\S+\.mech):\d+:\d+: note", checked.stdout, re.M)) == sorted(expected[run])
+    for command in ("collect", "check"):
+        helped = subprocess.run(["arrows", command, "--help"], capture_output=True, text=True, timeout=60).stdout
+        assert "dot-files and" in flat(helped) and "dot-folders" in helped
+
+
+def test_files_are_named_as_reached_from_the_command_line(tmp_path):
+    """Two folders holding x.mech: console, report, pages and index name each as `arrows check`
+    does (two/a/x.mech, two/b/x.mech). Both once said x.mech, and even one folder gave paths
+    relative to itself (b/x.mech:7:5) that lead nowhere from where the command ran."""
+    for folder, text in (("a", GALLERY[0].read_text()), ("b", BROKEN["zz-broken-octet.mech"][0])):
+        (tmp_path / "two" / folder).mkdir(parents=True)
+        (tmp_path / "two" / folder / "x.mech").write_text(text)
+    checked = subprocess.run(["arrows", "check", "two"], capture_output=True, text=True, cwd=tmp_path, timeout=300)
+    error = re.search(r"^(two/b/x\.mech:\d+:\d+): error (AR301)", checked.stdout, re.M)
+    assert error, checked.stdout
+    for inputs in (["two/a", "two/b"], ["two"]):
+        proc = collect(*inputs, "-o", "out/t.pdf", "--report", "out/r.json", "-j", "1", "--cache", "cache",
+                       cwd=tmp_path)
+        assert proc.returncode == 1, proc.stderr
+        assert "S1 two/a/x.mech: passed" in proc.stderr and "S2 two/b/x.mech: 1 error (AR301)" in proc.stderr
+        assert f"    {error[1]}: AR301 " in proc.stderr
+        report = json.loads((tmp_path / "out" / "r.json").read_text())
+        assert [s["file"] for s in report["schemes"]] == ["two/a/x.mech", "two/b/x.mech"]
+        assert {d["file"] for s in report["schemes"] for d in s["diagnostics"]} == {"two/a/x.mech", "two/b/x.mech"}
+        pages = [flat(page.extract_text()) for page in PdfReader(tmp_path / "out" / "t.pdf").pages]
+        assert "Source two/a/x.mech." in pages[1] and "Source two/b/x.mech." in pages[2]
+        assert any("S2 two/b/x.mech: 1 error (AR301)" in page for page in pages[3:])
+        index = (tmp_path / "out" / "t-figures" / "index.html").read_text()
+        assert "<td>two/a/x.mech</td>" in index and "Source two/b/x.mech." in index
+        assert sorted(p.name for p in (tmp_path / "out" / "t-figures").glob("*.svg")) == ["S1-x.svg", "S2-x.svg"]
+
+
+def test_title_page_characters_the_font_has_no_glyphs_for_are_noted(tmp_path):
+    """A CJK or Hangul title or author printed as empty boxes on the title page with no word said;
+    the figure's own texts already get such a note. The judge of a missing glyph is cairo itself
+    (the machinery that prints the page): DejaVu Sans maps the character to glyph 0."""
+    import cairocffi as cairo
+    context = cairo.Context(cairo.RecordingSurface(cairo.CONTENT_COLOR_ALPHA, None))
+    context.select_font_face("DejaVu Sans")
+    glyphs = lambda text: [g[0] for g in context.get_scaled_font().text_to_glyphs(0, 0, text, False)]
+    assert 0 in glyphs("标题") and 0 in glyphs("김") and 0 not in glyphs("Synthèse Ωμέγα")
+    for title, authors, wanting in (("标题", "A. Chemist", "标题"), ("SI", "김 A. Chemist", "김"),
+                                    ("Synthèse Ωμέγα", "Ö. Chemist", None)):
+        out = tmp_path / "si.pdf"
+        proc = collect(GALLERY[0], "-o", out, "-j", "1", "--cache", tmp_path / "cache", "--title", title,
+                       "--authors", authors)
+        assert proc.returncode == 0, proc.stderr
+        notes = [line for line in proc.stderr.splitlines() if line.startswith(f"{out}: note: ")]
+        if wanting is None:
+            assert not notes, notes
+        else:
+            assert len(notes) == 1 and f"no glyphs for {wanting} " in notes[0] and "empty boxes" in notes[0]
+    untitled = collect(GALLERY[0], "-o", out, "-j", "1", "--cache", tmp_path / "cache", "--authors", "김")
+    assert untitled.returncode == 0 and f"{out}: note" not in untitled.stderr   # no title, no title page

@@ -23,7 +23,7 @@ from .cache import PDF, SVG, Cache, document_key, page_key, tool_fingerprint
 from .document import compose
 from .figures import FigureJob, FigureOutcome, look_up, make_figure
 from .index_html import index_html
-from .pages import Front, PageSetup
+from .pages import Front, PageSetup, title_page_note
 from .parallel import WorkerPool
 from .pdf import DocumentPage, merge, svg_to_pdf
 from .record import SchemeRecord
@@ -67,6 +67,7 @@ class CollectResult:
     complete: bool                 # False: --fail-fast stopped at a failing scheme, nothing written
     pages: int = 0
     pages_converted: int = 0       # page PDFs made in this run (the rest came from the cache)
+    notes: tuple[str, ...] = ()    # what the document's own pages could not show as written
 
     @property
     def failed(self) -> bool:
@@ -98,7 +99,8 @@ def collect(sources: list[Source], settings: CollectSettings, progress: Progress
 
         document, page_count, converted = _document(pool, cache, fingerprint, setup, settings, records, progress)
     _write_output(settings, records, document, cache)
-    return CollectResult(records, complete=True, pages=page_count, pages_converted=converted)
+    notes = tuple(note for note in [title_page_note(setup, settings.front)] if note)
+    return CollectResult(records, complete=True, pages=page_count, pages_converted=converted, notes=notes)
 
 
 def _document(pool: WorkerPool, cache: Cache, fingerprint: str, setup: PageSetup, settings: CollectSettings,

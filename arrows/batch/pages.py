@@ -143,6 +143,24 @@ def title_page(setup: PageSetup, front: Front) -> Page:
     return Page(page_svg(setup, "".join(body), None), bookmark=front.title)
 
 
+def title_page_note(setup: PageSetup, front: Front) -> Optional[str]:
+    """A note when the title page's texts hold characters its font has no glyphs for: they print
+    as empty boxes, with no word said. The scripts are those a scheme's own texts are noted for
+    (arrows.draw.scheme); a font other than the default is taken to have them."""
+    from ..draw.scheme import _NO_GLYPHS
+    from ..draw.styles import Style
+
+    if not front.title or setup.font_family != Style.font_family:
+        return None
+    texts = (front.title, front.authors or "", front.date or "")
+    wanting = sorted({c for text in texts for c in text if any(low <= ord(c) <= high for low, high in _NO_GLYPHS)})
+    if not wanting:
+        return None
+    shown = "".join(wanting[:8]) + ("..." if len(wanting) > 8 else "")
+    return (f"the title page's font ({setup.font_family}) has no glyphs for {shown} in --title, --authors or --date: "
+            "they print as empty boxes there (the PDF's metadata and index.html keep them)")
+
+
 def contents_lines_per_page(setup: PageSetup) -> int:
     return int((setup.text_height - HEADING_PT * LEADING - 2 * GAP) // (BODY_PT * LEADING * 1.15))
 

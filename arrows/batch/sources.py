@@ -1,11 +1,14 @@
 """Which mechanism files a batch collects, in which order, and under which names.
 
-A folder contributes every .mech file below it, sorted by its path inside the folder; files named
-one by one keep the order given. Each source is shown by its path relative to the folder it came
-from (or as given), so documents do not depend on where the project sits on disk.
+A folder contributes every .mech file below it, sorted by path, leaving out dot-files and
+everything under a dot-folder (version control, notebook checkpoints, editor locks: common practice
+of source tools); files named one by one keep the order given, a dot-file too. Each source is shown
+by its path as reached from the command line (the folder as given, then the path inside it), as
+`arrows check` names it, so two folders holding files of one name stay apart.
 """
 from __future__ import annotations
 
+import os
 import re
 from dataclasses import dataclass
 from pathlib import Path
@@ -29,8 +32,14 @@ class NoSources(Exception):
 
 
 def mech_files_below(folder: Path) -> list[Path]:
-    """The .mech files in `folder` and its subfolders, sorted by path (how a batch orders them)."""
-    return sorted(p for p in folder.rglob("*" + SUFFIX) if p.is_file())
+    """The .mech files in `folder` and its subfolders, sorted by path (how a batch orders them),
+    without dot-files and without descending into dot-folders. The folder itself may be a dot-folder:
+    it was named."""
+    found = []
+    for top, folders, files in os.walk(folder):
+        folders[:] = [name for name in folders if not name.startswith(".")]
+        found += [Path(top, name) for name in files if name.endswith(SUFFIX) and not name.startswith(".")]
+    return sorted(p for p in found if p.is_file())
 
 
 def find_sources(inputs: list[str]) -> list[Source]:
@@ -41,10 +50,10 @@ def find_sources(inputs: list[str]) -> list[Source]:
         if path.is_dir():
             files = mech_files_below(path)
             if not files:
-                raise NoSources(f"{text}: no {SUFFIX} files in this folder")
-            pairs = [(p, p.relative_to(path).as_posix()) for p in files]
+                raise NoSources(f"{text}: no {SUFFIX} files in this folder (dot-files and dot-folders are left out)")
+            pairs = [(p, p.as_posix()) for p in files]
         elif path.is_file():
-            pairs = [(path, path.as_posix())]
+            pairs = [(path, text)]
         else:
             raise NoSources(f"{text}: no such file or folder")
         for file, name in pairs:

@@ -8,7 +8,7 @@ import click
 
 from ..api import diagnose_file
 from ..diagnostics import ERROR, WARNING, to_json
-from .output import cannot_write
+from .output import cannot_write, refuse_unsafe_outputs
 
 
 def _a_number(ctx, param, value: float) -> float:
@@ -37,13 +37,15 @@ def _a_number(ctx, param, value: float) -> float:
                    "(mechanism FILES; --jsonl records use the default).")
 def check_command(files, fmt, strict, quiet, jsonl, output, jobs, cluster, pka_gap):
     """Replay every electron move in FILES and check every intermediate. A folder stands for
-    the .mech files below it.
+    the .mech files below it, leaving out dot-files and dot-folders (.git, .ipynb_checkpoints,
+    editor files); a file named on its own is always read.
 
     Exit status: 0 clean, 1 errors found (or warnings with --strict), 2 unreadable input or bad usage.
     """
     if jsonl is not None:
         if files:
             raise click.UsageError("give mechanism FILES or --jsonl FILE, not both")
+        refuse_unsafe_outputs({"-o": output}, [jsonl] if jsonl != "-" else [])
         sys.exit(_check_jsonl(jsonl, output, jobs, cluster, strict, quiet))
     if not files:
         raise click.UsageError("give at least one mechanism file (or --jsonl FILE)")
@@ -93,7 +95,8 @@ def _with_folders_opened(paths):
             if not found:
                 out.append(Diagnostic("AR100", "cannot read file: a folder with no .mech file below it",
                                       Location(path, 1, 1), hint="a folder is checked by the .mech files in it "
-                                                                 "and its subfolders; name a file or another folder"))
+                                                                 "and its subfolders, dot-files and dot-folders left "
+                                                                 "out; name a file or another folder"))
         for file in found:   # a file named twice (alone and in its folder) is checked once
             key = Path(file).resolve()
             if key not in seen:

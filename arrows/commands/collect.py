@@ -9,7 +9,7 @@ import click
 
 from ..draw import STYLES
 from ..draw.styles import DEFAULT_STYLE
-from .output import cannot_write
+from .output import cannot_write, refuse, refuse_unsafe_outputs
 
 EXIT_INTERRUPTED = 130   # the shell's convention for a run stopped by Ctrl-C
 
@@ -25,7 +25,8 @@ def _label_prefix(ctx, param, value: str) -> str:
 @click.command("collect")
 @click.argument("inputs", nargs=-1, required=True, type=click.Path())
 @click.option("-o", "--output", required=True, type=click.Path(dir_okay=False),
-              help="The PDF document; its figures and index.html go in the folder OUT-figures/ beside it.")
+              help="The PDF document (a name ending in .pdf); its figures and index.html go in the folder "
+                   "OUT-figures/ beside it.")
 @click.option("--style", type=click.Choice(sorted(STYLES)), default=DEFAULT_STYLE, show_default=True,
               help="Figure style preset, applied to every scheme.")
 @click.option("--paper", type=click.Choice(["a4", "letter"]), default="a4", show_default=True)
@@ -46,9 +47,10 @@ def _label_prefix(ctx, param, value: str) -> str:
                    "without writing the document.")
 def collect_command(inputs, output, style, paper, flow, prefix, title, authors, date_text, jobs, cache_dir, report,
                     junit, keep_going):
-    """Check and draw every mechanism in INPUTS (folders are searched for .mech files) and collect
-    them into one PDF: title page, contents, one numbered, captioned scheme per page, and a closing
-    summary of every scheme's diagnostics.
+    """Check and draw every mechanism in INPUTS and collect them into one PDF: title page,
+    contents, one numbered, captioned scheme per page, and a closing summary of every scheme's
+    diagnostics. A folder stands for the .mech files below it, leaving out dot-files and
+    dot-folders (.git, .ipynb_checkpoints, editor files); a file named on its own is always read.
 
     Exit status: 0 every scheme passed, 1 a scheme has errors (or a worker process died), 2 bad usage,
     130 interrupted. An unfinished run leaves the previous output as it was.
@@ -64,12 +66,18 @@ def collect_command(inputs, output, style, paper, flow, prefix, title, authors, 
         sources = find_sources(list(inputs))
     except NoSources as exc:
         raise click.UsageError(str(exc))
+    refuse_unsafe_outputs({"-o": output, "--report": report, "--junit": junit}, [s.path for s in sources])
+    if Path(output).suffix.lower() != ".pdf":
+        refuse(output, f"-o {output} does not end in .pdf: collect writes one PDF document (the figures' SVG "
+                       "and PDF files go in the folder beside it)",
+               f"end the name with .pdf: -o {Path(output).with_suffix('.pdf')}")
     n = len(sources)
     front = Front(title, authors, date_text,
                   f"{n} scheme{'s' if n != 1 else ''}, checked and drawn with arrows {__version__} "
                   f"(style {style})")
     settings = CollectSettings(Path(output), style, front, paper, flow, prefix, jobs or default_jobs(),
                                Path(cache_dir) if cache_dir else None, fail_fast=not keep_going)
+    _refuse_inputs_in(settings.figures_dir, sources)
     progress = _Progress(n)
     try:
         result = collect(sources, settings, progress)
@@ -100,6 +108,8 @@ def collect_command(inputs, output, style, paper, flow, prefix, title, authors, 
     except OSError as exc:
         cannot_write(junit, exc)
     failed = [r for r in result.records if r.failed]
+    for note in result.notes:
+        click.echo(f"{output}: note: {note}", err=True)
     for record in result.records:
         for note in record.layout_notes:
             click.echo(f"{record.label} {record.name}: note: {note}", err=True)
@@ -120,6 +130,14 @@ def collect_command(inputs, output, style, paper, flow, prefix, title, authors, 
                    f"({n - len(failed)} passed, {len(failed)} with errors; {drawn} drawn, {cached} from the "
                    f"cache{missing}); figures and index.html in {settings.figures_dir}", err=True)
     sys.exit(1 if failed else 0)
+
+
+def _refuse_inputs_in(figures_dir: Path, sources) -> None:
+    """Every run replaces the figures folder whole: a mechanism kept inside it would be lost."""
+    inside = [s for s in sources if figures_dir.resolve() in s.path.resolve().parents]
+    if inside:
+        refuse(inside[0].name, f"{inside[0].name} is inside {figures_dir}, which every run replaces whole",
+               "move the mechanism out of that folder, or give -o another name")
 
 
 class _Progress:

@@ -8,7 +8,7 @@ import click
 
 from ..api import check_file
 from ..diagnostics import ERROR, NOTE
-from .output import cannot_write
+from .output import cannot_write, refuse_unsafe_outputs
 
 FORMATS = ("svg", "pdf", "png")
 STYLE_NAMES = ("one-column", "two-column", "slide")   # arrows.draw.STYLES, named here to keep --help light
@@ -59,6 +59,7 @@ def draw_command(file, output, fmt, style, color, numbers, cip, step_labels, no_
     A mechanism with errors is not drawn unless --force. Exit status: 0 drawn, 1 errors (drawn only
     with --force), 2 unreadable input or bad usage.
     """
+    refuse_unsafe_outputs({"-o": output}, [file])
     output = Path(output)
     fmt = _format_of(output, fmt)
     if watch and str(output) == "-":

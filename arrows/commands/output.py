@@ -2,9 +2,10 @@
 is a located message and exit status 2, never a traceback)."""
 from __future__ import annotations
 
+import os
 import sys
 from pathlib import Path
-from typing import NoReturn, Optional, Union
+from typing import Iterable, NoReturn, Optional, Union
 
 import click
 
@@ -31,9 +32,49 @@ def cannot_write(path, exc: OSError) -> NoReturn:
         detail = exc.strerror or str(exc)
         if exc.filename and Path(exc.filename) != Path(path) and TEMP_MARK not in Path(exc.filename).name:
             detail += f" ({exc.filename})"
-    click.echo(f"{path}:1:1: error: cannot write {path}: {detail}\n"
-               "    hint: check that the folder exists and is writable", err=True)
+    refuse(path, f"cannot write {path}: {detail}", "check that the folder exists and is writable")
+
+
+def refuse(path, message: str, hint: str) -> NoReturn:
+    """A bad output, located at its path, with a hint; exit status 2 (bad usage)."""
+    click.echo(f"{path}:1:1: error: {message}\n    hint: {hint}", err=True)
     sys.exit(2)
+
+
+def refuse_unsafe_outputs(outputs: dict[str, Optional[str]], inputs: Iterable[Union[str, Path]]) -> None:
+    """Stop before any work when an output (option name: path; None or `-` when not given) would
+    destroy an input or cannot be the file it names: one of the inputs, however reached (another
+    spelling, a symlink); a name ending in .mech, which a later batch would read as a mechanism; a
+    name ending in a slash, which names a folder."""
+    inputs_by_file = {}
+    for path in inputs:
+        identity = _file_identity(path)
+        if identity is not None:
+            inputs_by_file.setdefault(identity, path)
+    for option, output in outputs.items():
+        if output is None or output == "-":
+            continue
+        if not output.strip():
+            raise click.BadParameter("an empty name: give a file name", param_hint=option)
+        source = inputs_by_file.get(_file_identity(output))
+        if source is not None:
+            refuse(output, f"{option} {output} is the input {source}: writing it would replace that input",
+                   f"give {option} another file name")
+        if output.endswith(("/", os.sep)):
+            refuse(output, f"{option} {output} names a folder; it takes a file name",
+                   f"name the file inside the folder: {option} {output}NAME")
+        if Path(output).suffix.lower() == ".mech":
+            refuse(output, f"{option} {output} ends in .mech, the name of a mechanism file",
+                   "name the output for what it holds: figure.svg, si.pdf, report.json")
+
+
+def _file_identity(path) -> Optional[tuple[int, int]]:
+    """The file a path leads to (device and inode, through any symlink); None when there is none."""
+    try:
+        found = os.stat(path)
+    except (OSError, ValueError):
+        return None
+    return found.st_dev, found.st_ino
 
 
 def _folder_problem(path: Path) -> Optional[str]:
