@@ -194,3 +194,55 @@ def test_5_chloropentan_2_one_closes_the_cyclopropane_first():
     assert rows[0]["ring_size"] == 3 and rows[0]["class"] == "3-(enolexo)-exo-tet"
     assert rows[0]["outlook"] == "favoured"
     assert same(rows[0]["product"], "CC(=O)C1CC1")
+
+
+def test_a_missing_file_is_not_read_as_smiles(tmp_path):
+    """A name ending .mech is a file (no SMILES ends so): it was parsed as a SMILES."""
+    result = run(tmp_path / "nofile.mech")
+    assert result.exit_code == 2 and "Traceback" not in result.output
+    assert f"{tmp_path / 'nofile.mech'}:1:1: error AR100 the file does not exist" in result.output
+    assert "hint:" in result.output
+
+
+def test_a_map_number_used_twice_is_refused_as_check_refuses_it(tmp_path):
+    """AR103, the code `arrows check` gives the same species, located at the second use."""
+    result = run("[CH3:1][CH2:1]C=O")
+    assert result.exit_code == 2 and "<SMILES>:1:8: error AR103 map number 1 is used twice" in result.output
+    assert "hint:" in result.output
+    mech = tmp_path / "twice.mech"
+    mech.write_text('species s = "[CH3:1][CH2:1]C=O"\n', encoding="utf-8")
+    _, diags = check_file(mech)
+    assert "AR103" in {d.code for d in diags}
+
+
+def test_species_option_with_a_smiles_is_refused():
+    """--species chooses among a .mech file's species; with a SMILES it was silently ignored."""
+    result = run("CC(=O)CCCC(C)=O", "--species", "dione")
+    assert result.exit_code == 2 and "<SMILES>:1:1: error --species dione" in result.output
+    assert "hint:" in result.output
+
+
+def test_a_smi_file_of_two_lines_says_only_the_first_is_studied(tmp_path):
+    smi = tmp_path / "two.smi"
+    smi.write_text("CC(=O)CCCC(C)=O\nOCCCCC=O\n", encoding="utf-8")
+    result = run(smi)
+    assert result.exit_code == 0
+    assert f"{smi}:2:1: note: the file holds 2 SMILES; only the first (line 1) is studied" in result.output
+
+
+def test_draw_with_no_candidate_says_nothing_was_written(tmp_path):
+    out = tmp_path / "grid.png"
+    result = run("CCO", "--draw", out)
+    assert result.exit_code == 0 and f"{out}: note: no candidate product to draw; nothing written" in result.output
+    assert not out.exists()
+
+
+def test_pick_out_of_range_is_located_at_the_species(tmp_path):
+    """Located at the SMILES as written (<SMILES>, or the species line of a .mech), not at a file
+    named after the SMILES."""
+    result = run("CC(=O)CCCC(C)=O", "--write", tmp_path / "d.mech", "--pick", 5)
+    assert result.exit_code == 2 and "<SMILES>:1:1: error there are 2 candidate(s); --pick 5" in result.output
+    mech = tmp_path / "dione.mech"
+    mech.write_text('species base = "[OH-:20]"\nspecies dione = "CC(=O)CCCC(C)=O"\n', encoding="utf-8")
+    result = run(mech, "--species", "dione", "--write", tmp_path / "d.mech", "--pick", 5)
+    assert result.exit_code == 2 and f"{mech}:2:18: error there are 2" in result.output

@@ -4,8 +4,9 @@ best one written out as a .mech skeleton."""
 from __future__ import annotations
 
 import json
+import re
 import sys
-from dataclasses import dataclass
+from dataclasses import dataclass, field
 from pathlib import Path
 from typing import Optional
 
@@ -13,18 +14,22 @@ import click
 from rdkit import Chem
 
 from ..electrons import atom_label
-from ..judgement.closures import Closure, find_closures, with_atom_maps
+from ..judgement.closures import Closure, candidate_closures, with_atom_maps
 from ..judgement.skeleton import product_fragment, skeleton
 from ..rdkit_io import read_smiles
 from .output import emit
 
 DRAWING_SUFFIXES = (".svg", ".png")
+# Names that no SMILES can be: an argument ending so is a file, even when it is missing.
+FILE_SUFFIXES = (".mech", ".mol", ".sdf", ".smi", ".smiles", ".txt")
 
 
 @dataclass
 class _Species:
     mol: Chem.Mol        # every heavy atom mapped
     name: str
+    where: str           # file:line:column of the SMILES (or <SMILES>:1:1)
+    notes: list[str] = field(default_factory=list)
 
 
 class _BadInput(Exception):
@@ -38,7 +43,21 @@ def _from_smiles(smiles: str, where: str, line: int = 1, column: int = 1) -> Che
     if mol is None:
         raise _BadInput(f"{where}:{line}:{column + (position or 0)}", f"AR102 RDKit cannot read the SMILES: {reason}",
                         "check brackets, ring-closure digits and charges")
+    _refuse_repeated_maps(mol, smiles, where, line, column)
     return mol
+
+
+def _refuse_repeated_maps(mol: Chem.Mol, smiles: str, where: str, line: int = 1, column: int = 1) -> None:
+    """AR103, as `arrows check` gives it: a map number names one atom. Located at its second use."""
+    seen: set[int] = set()
+    for atom in mol.GetAtoms():
+        number = atom.GetAtomMapNum()
+        if number and number in seen:
+            uses = [m.start() for m in re.finditer(rf"\[[^\[\]]*:{number}\]", smiles)]
+            raise _BadInput(f"{where}:{line}:{column + (uses[1] if len(uses) > 1 else 0)}",
+                            f"AR103 map number {number} is used twice",
+                            "give each atom its own map number, or none (unmapped atoms are numbered for you)")
+        seen.add(number)
 
 
 def _load(argument: str, species_name: Optional[str]) -> _Species:
@@ -48,8 +67,14 @@ def _load(argument: str, species_name: Optional[str]) -> _Species:
                         "give a SMILES, a .mech, .mol or .smi file")
     if path.is_dir():
         raise _BadInput(f"{argument}:1:1", "AR100 a folder, not a species", "give a SMILES, a .mech, .mol or .smi file")
+    if not path.is_file() and path.suffix.lower() in FILE_SUFFIXES:
+        raise _BadInput(f"{argument}:1:1", "AR100 the file does not exist", "check the path")
+    if species_name is not None and path.suffix.lower() != ".mech":
+        where = f"{argument}:1:1" if path.is_file() else "<SMILES>:1:1"
+        raise _BadInput(where, f"--species {species_name} chooses among the species of a .mech file; "
+                        f"this input holds one", "drop --species, or give the .mech file")
     if not path.is_file():
-        return _Species(with_atom_maps(_from_smiles(argument, "<SMILES>")), "substrate")
+        return _Species(with_atom_maps(_from_smiles(argument, "<SMILES>")), "substrate", "<SMILES>:1:1")
     if path.suffix.lower() == ".mech":
         from ..diagnostics import MechanismError
         from ..language import load
@@ -64,21 +89,29 @@ def _load(argument: str, species_name: Optional[str]) -> _Species:
             raise _BadInput(f"{argument}:1:1", f"no species named {species_name!r}", f"the species are: {names}")
         sp = chosen[0]
         mol = _from_smiles(sp.smiles, str(path), sp.smiles_loc.line, sp.smiles_loc.column)
-        return _Species(with_atom_maps(mol), sp.name)
+        return _Species(with_atom_maps(mol), sp.name, f"{path}:{sp.smiles_loc.line}:{sp.smiles_loc.column}")
     if path.suffix.lower() in (".mol", ".sdf"):
         mol = Chem.MolFromMolFile(str(path))
         if mol is None:
             raise _BadInput(f"{argument}:1:1", "AR102 RDKit cannot read the molfile", "check the file is a V2000/V3000 molfile")
-        return _Species(with_atom_maps(mol), path.stem.replace("-", "_") or "substrate")
+        _refuse_repeated_maps(mol, "", argument)
+        return _Species(with_atom_maps(mol), path.stem.replace("-", "_") or "substrate", f"{argument}:1:1")
     try:
         text = path.read_text(encoding="utf-8")
     except (OSError, UnicodeDecodeError) as exc:
         raise _BadInput(f"{argument}:1:1", f"AR100 cannot read the file: {exc}", "give a UTF-8 text file")
-    for number, line in enumerate(text.splitlines(), 1):
-        if line.strip() and not line.lstrip().startswith("#"):
-            column = len(line) - len(line.lstrip()) + 1
-            return _Species(with_atom_maps(_from_smiles(line.split()[0], argument, number, column)), "substrate")
-    raise _BadInput(f"{argument}:1:1", "AR112 the file holds no SMILES", "write one SMILES on the first line")
+    lines = [(number, line) for number, line in enumerate(text.splitlines(), 1)
+             if line.strip() and not line.lstrip().startswith("#")]
+    if not lines:
+        raise _BadInput(f"{argument}:1:1", "AR112 the file holds no SMILES", "write one SMILES on the first line")
+    number, line = lines[0]
+    column = len(line) - len(line.lstrip()) + 1
+    sp = _Species(with_atom_maps(_from_smiles(line.split()[0], argument, number, column)), "substrate",
+                  f"{argument}:{number}:{column}")
+    if len(lines) > 1:
+        sp.notes.append(f"{argument}:{lines[1][0]}:1: note: the file holds {len(lines)} SMILES; only the first "
+                        f"(line {number}) is studied")
+    return sp
 
 
 def _row(mol: Chem.Mol, rank: int, c: Closure, product: Optional[str]) -> dict:
@@ -97,6 +130,11 @@ def _row(mol: Chem.Mol, rank: int, c: Closure, product: Optional[str]) -> dict:
         "equivalent": [f"{label(a)} onto {label(b)}" for a, b in c.equivalent],
         "product": product,
     }
+
+
+def _left_out(mol: Chem.Mol, c: Closure) -> dict:
+    return {"nucleophile": atom_label(mol, c.nucleophile.atom), "electrophile": atom_label(mol, c.electrophile.atom),
+            "ring_size": c.size, "class": c.closure.name, "reason": c.barred}
 
 
 def _table(rows: list[dict]) -> list[str]:
@@ -136,8 +174,10 @@ def closures_command(species, species_name, fmt, max_ring, condense, draw_path, 
     hydroxyl oxygens, amine nitrogens. Electrophiles: aldehyde, ketone, ester and amide carbons,
     enone beta carbons, sp3 carbons bearing a halide or sulfonate. Ranked favoured five- and
     six-membered rings first, aldehydes before ketones before esters before amides (common
-    practice), each with its Baldwin class and verdict. Atoms are named by map number; atoms
-    without one are numbered, carbons first. Exit status: 0 listed, 2 unreadable input.
+    practice), each with its Baldwin class and verdict. Closures that cannot form (bridging a
+    benzene ring, a trans C=C or a triple bond in a small ring, a bridgehead alkene) are left
+    out, with the reason. Atoms are named by map number; atoms without one are numbered, carbons
+    first. Exit status: 0 listed, 2 unreadable input or bad usage.
     """
     if draw_path and Path(draw_path).suffix.lower() not in DRAWING_SUFFIXES:
         _fail(f"{draw_path}:1:1", "the drawing is written as .svg or .png", f"for example --draw {Path(draw_path).stem}.svg")
@@ -145,23 +185,34 @@ def closures_command(species, species_name, fmt, max_ring, condense, draw_path, 
         sp = _load(species, species_name)
     except _BadInput as exc:
         _fail(exc.where, exc.message, exc.hint)
+    for note in sp.notes:
+        click.echo(note, err=True)
     mol = sp.mol
-    found = find_closures(mol, max_ring)
+    candidates = candidate_closures(mol, max_ring)
+    found = [c for c in candidates if c.barred is None]
+    barred = [_left_out(mol, c) for c in candidates if c.barred is not None]
     texts = [skeleton(mol, c, condense, sp.name) for c in found]
     products = [_product_line(t) for t in texts]
     rows = [_row(mol, k, c, p) for k, (c, p) in enumerate(zip(found, products), 1)]
     numbered = Chem.MolToSmiles(mol, canonical=False)
     if fmt == "json":
-        click.echo(json.dumps({"species": numbered, "closures": rows}, indent=2, ensure_ascii=False))
+        click.echo(json.dumps({"species": numbered, "closures": rows, "left_out": barred}, indent=2,
+                              ensure_ascii=False))
     else:
         click.echo(f"species  {numbered}")
         click.echo("\n".join(_table(rows)) if rows else "no intramolecular closure found between the sites listed")
-    if draw_path and found:
-        _draw(draw_path, mol, found, texts, rows)
-        click.echo(f"drew {draw_path}", err=True)
+        if barred:
+            click.echo("left out, as they cannot form:")
+            click.echo("\n".join(f"   {b['nucleophile']} onto {b['electrophile']}, {b['class']}: {b['reason']}"
+                                  for b in barred))
+    if draw_path:
+        if _draw(draw_path, mol, found, texts, rows):
+            click.echo(f"drew {draw_path}", err=True)
+        else:
+            click.echo(f"{draw_path}: note: no candidate product to draw; nothing written", err=True)
     if write_path:
         if pick > len(found):
-            _fail(f"{species}:1:1", f"there {'is' if len(found) == 1 else 'are'} {len(found)} candidate(s); "
+            _fail(sp.where, f"there {'is' if len(found) == 1 else 'are'} {len(found)} candidate(s); "
                   f"--pick {pick} is out of range", "pick a rank from the table")
         emit(texts[pick - 1], write_path)
         click.echo(f"wrote {write_path}: {found[pick - 1].closure.name}", err=True)
@@ -174,8 +225,9 @@ def _product_line(text: str) -> Optional[str]:
     return None
 
 
-def _draw(path: str, mol: Chem.Mol, found: list[Closure], texts: list[str], rows: list[dict]) -> None:
-    """A grid of the candidate products with the new bond highlighted (RDKit's 2D drawer)."""
+def _draw(path: str, mol: Chem.Mol, found: list[Closure], texts: list[str], rows: list[dict]) -> bool:
+    """A grid of the candidate products with the new bond highlighted (RDKit's 2D drawer); False
+    when there is none to draw (nothing written)."""
     from rdkit.Chem import rdDepictor
     from rdkit.Chem.Draw import rdMolDraw2D
     rdDepictor.SetPreferCoordGen(True)
@@ -197,6 +249,8 @@ def _draw(path: str, mol: Chem.Mol, found: list[Closure], texts: list[str], rows
         bonds.append([bond.GetIdx()] if bond is not None else [])
         legends.append(f"{row['rank']}. {row['nucleophile']['atom']} onto {row['electrophile']['atom']}: "
                        f"{row['class']}, {row['outlook']}")
+    if not mols:
+        return False
     columns = min(3, len(mols))
     rows_n = (len(mols) + columns - 1) // columns
     size = (320, 260)
@@ -211,6 +265,7 @@ def _draw(path: str, mol: Chem.Mol, found: list[Closure], texts: list[str], rows
     drawer.FinishDrawing()
     data = drawer.GetDrawingText()
     emit(data, path)
+    return True
 
 
 def _fail(where: str, message: str, hint: str) -> None:

@@ -99,8 +99,12 @@ def nucleophiles(mol: Chem.Mol) -> list[Nucleophile]:
 
 def electrophiles(mol: Chem.Mol) -> list[Electrophile]:
     found: dict[int, Electrophile] = {}
+    # The carbonyl of an enolate written as a carbanion holds the charge: it accepts no nucleophile.
+    enolate_carbonyls = {m[1] for m in _matches(mol, "[#6-]-[CX3]=[OX1]")}
 
     def add(atom: int, kind: str, partner: int, **extra) -> None:
+        if atom in enolate_carbonyls:
+            return
         if atom not in found or ELECTROPHILE_RANK[kind] < found[atom].rank:
             found[atom] = Electrophile(atom, kind, partner, geometry_of(mol, atom), **extra)
 

@@ -126,11 +126,12 @@ class _Writer:
             self.protonate_oxygen(w)
 
     def condense(self) -> bool:
-        """E1cB dehydration of an aldol: the nucleophilic carbon still carries a hydrogen."""
+        """E1cB dehydration of an aldol whose nucleophilic carbon still carries a hydrogen and whose
+        new C=C would not be strained (Closure.driven)."""
         c = self.c
         if c.nucleophile.kind != ENOLATE or c.electrophile.kind not in (ALDEHYDE, KETONE) or self.base_is_water:
             return False
-        if self.mol.GetAtomWithIdx(c.nucleophile.atom).GetTotalNumHs() < 2 or c.nucleophile.ready:
+        if not c.driven or c.nucleophile.ready:
             return False
         x, y, w = self.L(c.nucleophile.atom), self.L(c.electrophile.atom), self.L(c.electrophile.broken_partner)
         carbon, acceptor = (self.L(i) for i in self.partner())
