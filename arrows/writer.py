@@ -8,13 +8,13 @@ from typing import Optional
 from .model import STEP_KINDS, Checkpoint, Mechanism, Species, Step
 
 # What the grammar accepts inside quotes and as a name (grammar/mechanism.lark: STRING, NAME).
-_STRING_FORBIDDEN = re.compile(r'["\n]')
+_STRING_FORBIDDEN = re.compile(r'["\n\r]')   # a CR reads as a line end too (language.parse)
 _NAME = re.compile(r"[A-Za-z_][A-Za-z0-9_]*\Z")
 INDENT = "    "
 
 
 class UnprintableMechanism(ValueError):
-    """A field holds text the language cannot carry (a double quote or a line break in a string,
+    """A field holds text the language cannot carry (a double quote or a line break, LF or CR, in a string,
     a species name that is not a name)."""
 
 

@@ -98,8 +98,10 @@ def test_bad_move_text_is_a_located_error():
     assert diag.hint
 
 
-def test_text_the_language_cannot_hold_is_refused():
-    mechanism = build.mechanism(species=[build.species("a", "C")], steps=[build.step('say "hi"')])
+@pytest.mark.parametrize("label", ['say "hi"', "two\nlines", "old Mac\rline end"])
+def test_text_the_language_cannot_hold_is_refused(label):
+    """A quote or a line end (LF, or CR, which the parser reads as one) inside a string."""
+    mechanism = build.mechanism(species=[build.species("a", "C")], steps=[build.step(label)])
     with pytest.raises(UnprintableMechanism):
         mechanism.to_text()
 
@@ -229,7 +231,7 @@ def _mechanisms():
     from hypothesis import strategies as st
     from arrows.model import (AtomRef, AtomSink, BareAtom, BondPair, BondRef, BondSink, Checkpoint, HydrogenOn,
                               LonePair, Mechanism, Move, NonbondingSink, Species, Step, UnpairedElectron)
-    text = st.text(st.characters(blacklist_characters='"\n\x00', blacklist_categories=("Cs",)), max_size=12)
+    text = st.text(st.characters(blacklist_characters='"\n\r\x00', blacklist_categories=("Cs",)), max_size=12)
     name = st.from_regex(r"[A-Za-z_][A-Za-z0-9_]{0,6}", fullmatch=True)
     mapped = st.builds(AtomRef, st.sampled_from(["C", "O", "N", "Br", "Si", "H"]), st.integers(1, 999))
     atom = st.one_of(mapped, st.builds(HydrogenOn, mapped))
