@@ -570,3 +570,29 @@ def test_a_half_loop_onto_a_labelled_atom_ends_at_its_symbol(path):
             rest = [_run_box(r, face) for r in atom.runs if r.text != atom.element]
             to_symbol = _run_box(symbol[0], face).distance(arrow.tip)
             assert all(to_symbol <= box.distance(arrow.tip) + 1e-6 for box in rest), (panel.index, arrow.move)
+
+
+@pytest.mark.parametrize("style", ["one-column", "two-column", "slide"])
+def test_text_over_and_under_an_arrow_keeps_clear_of_its_heads(style):
+    """The conditions written over and under a reaction arrow keep at least a quarter of an em of
+    white from its heads: the lower harpoon of an equilibrium arrow once stood half a millimetre
+    over the first letter of the text under it (common practice of typesetting: text never
+    touches a line)."""
+    from arrows.draw.text import FontFace
+    face = FontFace(STYLES[style].font_family)
+    for path in GALLERY:
+        trace, diags = arrows.check_text(path.read_text(encoding="utf-8"), path.name)
+        scene = build_scene(trace, STYLES[style], diags)
+        for arrow in scene.reaction_arrows:
+            # Every stroke and head of the arrow as the horizontal span and the heights its ink takes.
+            inks = [(min(x for x, _ in head), max(x for x, _ in head), [y for _, y in head]) for head in arrow.heads]
+            inks += [(min(a[0], b[0]), max(a[0], b[0]), [a[1], b[1]]) for a, b in arrow.lines]
+            for run in arrow.texts:
+                if not any(c.isalnum() for c in run.text):
+                    continue   # a superscript sign rides on its letters; its cap-high box overstates its ink
+                box = _run_box(run, face)
+                for x0, x1, heights in inks:
+                    if x1 < box.x0 or x0 > box.x1:
+                        continue   # not above or below this text
+                    white = box.y0 - max(heights) if box.y0 > max(heights) else min(heights) - box.y1
+                    assert white >= 0.25 * run.size, (path.stem, arrow.step, run.text, white)

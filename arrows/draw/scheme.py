@@ -437,17 +437,40 @@ class _SceneBuilder:
             widths.append(self.bold.width(spec.marker, ss))
         length = max(2.6 * self.bl, max(widths, default=0.0) + 0.5 * self.bl)
         line = 1.2 * fs
-        above = 0.35 * fs + line * (len(spec.over) + (1 if spec.marker else 0)) + 0.2 * fs
-        below = 0.35 * fs + line * len(spec.under) + 1.2 * ss * len(spec.note) + 0.3 * fs
+        clear = self._text_clearance(spec)
+        above = (clear + 0.25 * fs + self._subscript_lift(spec) + line * (len(spec.over) + (1 if spec.marker else 0))
+                 + 0.2 * fs)
+        below = clear + line * len(spec.under) + 1.2 * ss * len(spec.note) + 0.3 * fs
         return _Item(length, max(above, 0.4 * self.bl), max(below, 0.4 * self.bl))
 
+    def _subscript_lift(self, spec: _ArrowSpec) -> float:
+        """How much higher the text over an arrow stands when its line nearest the arrow has a
+        subscript (NH3 over the arrow: the 3 came within a third of a millimetre of the line)."""
+        if spec.over and any(kind == "sub" for _, kind in spec.over[-1]):
+            return 0.3 * self.style.font_size   # the subscript's drop (_line_runs)
+        return 0.0
+
+    def _heads(self) -> tuple[float, float, float]:
+        """A reaction arrow's head length, head width and, for an equilibrium, the half gap between its two lines."""
+        lw = self.style.line_width
+        length = max(0.32 * self.bl, 5.5 * lw)
+        return length, 0.62 * length, max(0.09 * self.bl, 2.2 * lw)
+
+    def _text_clearance(self, spec: _ArrowSpec) -> float:
+        """How far from the arrow's axis the text over and under it begins: 0.35 em, or clear of an
+        equilibrium's barbs by 0.3 em (the lower harpoon's barb stood half a millimetre over the
+        first letter of the text under it)."""
+        fs = self.style.font_size
+        if spec.kind != "reversible":
+            return 0.35 * fs
+        length, width, gap = self._heads()
+        return max(0.35 * fs, gap + 0.8 * width + 0.15 * fs)   # (text under starts 0.15 em below this)
+
     def _reaction_arrow(self, spec: _ArrowSpec, x0: float, x1: float, y: float) -> ReactionArrow:
-        fs, ss, lw = self.style.font_size, self.style.small_size, self.style.line_width
-        L = max(0.32 * self.bl, 5.5 * lw)
-        W = 0.62 * L
+        fs, ss = self.style.font_size, self.style.small_size
+        L, W, g = self._heads()
         lines, heads = [], []
         if spec.kind == "reversible":
-            g = max(0.09 * self.bl, 2.2 * lw)
             top, bottom = y - g, y + g
             lines += [((x0, top), (x1 - 0.3 * L, top)), ((x0 + 0.3 * L, bottom), (x1, bottom))]
             heads += [((x1, top), (x1 - L, top - W * 0.8), (x1 - L * 0.75, top)),
@@ -461,7 +484,8 @@ class _SceneBuilder:
         mid = (x0 + x1) / 2
         texts = []
         line = 1.2 * fs
-        baseline = y - 0.35 * fs - 0.25 * fs
+        clear = self._text_clearance(spec)
+        baseline = y - clear - 0.25 * fs - self._subscript_lift(spec)
         over = list(spec.over)
         for k, pieces in enumerate(reversed(over)):
             texts += self._line_runs(pieces, mid, baseline - k * line)
@@ -469,7 +493,7 @@ class _SceneBuilder:
             w = self.bold.width(spec.marker, ss)
             texts.append(TextRun(spec.marker, mid - w / 2, baseline - len(over) * line, ss, bold=True,
                                  colour=ERROR_COLOUR))
-        baseline = y + 0.35 * fs + self.face.cap_height * fs + 0.15 * fs
+        baseline = y + clear + self.face.cap_height * fs + 0.15 * fs
         for k, pieces in enumerate(spec.under):
             texts += self._line_runs(pieces, mid, baseline + k * line)
         baseline += len(spec.under) * line
