@@ -3095,7 +3095,10 @@ class _LayoutBuilder:
             if partner is None:
                 return 0.0
             reach = abs(partner - direction)
-            return max(0.0, TRANSFER_GAP - 0.1 - reach, reach - TRANSFER_GAP - 0.4)
+            # Behind its holder from the partner, the arrow that takes it must run round the
+            # holder's label (an ammonium's H drawn away from the alkoxide that takes it).
+            behind = max(0.0, -(direction * partner.conjugate()).real / abs(partner) - 0.2)
+            return max(0.0, TRANSFER_GAP - 0.1 - reach, reach - TRANSFER_GAP - 0.4) + 0.5 * behind
 
         # Bonds its own bond would cross (relative to the holder): a hydrogen is never drawn
         # across another bond, however much room it has.
