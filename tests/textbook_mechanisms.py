@@ -110,7 +110,9 @@ either side, takes both spots, and the hydrogen stands 0.26 bond lengths from on
 30 degrees off the bisector, the methyl stood 0.5 away, and the product kept the skew). (The benzyne's ring C#C was held to the
 straight-sp test, and its triple bond, which RDKit flags aromatic, to a single or double one, and
 thionyl chloride's SO2, bent at S, which keeps a lone pair, to the straight-sp test: both tests
-now follow the chemistry.) The Weinreb ketone synthesis waits its MgBr+ beside the adduct where both
+now follow the chemistry.) The benzoin condensation draws the proton its cyanohydrin anion passes on behind its holder (panels 3 and 5,
+175-178 degrees round from the oxygen that takes it), the arrow running round the holder's label.
+The Weinreb ketone synthesis waits its MgBr+ beside the adduct where both
 oxygens' arrows cross the propyl chain (the two donors stand on opposite sides of the tetrahedral
 carbon), then redraws the adduct as the chelate ring closes, O3 moving 1.9 bond lengths. (The Fmoc removal's carbanion sent its lone-pair arrow into C3=C4 over its own
 minus sign, dots, sign and arrow sharing one gap at the ring carbon: a sign moved off an arrow may
