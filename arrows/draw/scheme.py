@@ -24,7 +24,7 @@ from .curves import ArrowPlanner
 from .layout import Layout, compute_layout
 from .scene import Box, CurvedArrow, Mark, Panel, ReactionArrow, Scene, TextRun
 from .formula import MINUS, Piece, condition_pieces, formula_pieces, inorganic_order
-from .structure import PanelStructure, StructureDrawer
+from .structure import PanelStructure, StructureDrawer, segment_hits_box
 from .styles import ERROR_COLOUR, SMALLEST_TEXT_PT, Style
 from .text import FontFace, wrap
 
@@ -166,8 +166,8 @@ def build_scene(trace: Trace, style: Style, diagnostics: Sequence[Diagnostic] = 
     """Lay out the whole scheme. Shrinks it (and says so in `notes`) if one panel is wider than
     the page, or the slide is too tall."""
     scene, fit = _SceneBuilder(trace, style, diagnostics).build()
-    uneven = (_uneven_bonds(scene) + _crowded_atoms(scene) + _heavy_lines(style) + _glyphs_wanting(trace, style)
-              + _font_missing(style))
+    uneven = (_uneven_bonds(scene) + _crowded_atoms(scene) + _signs_on_bonds(scene) + _heavy_lines(style)
+              + _glyphs_wanting(trace, style) + _font_missing(style))
     if fit < 0.999:
         smaller = style.scaled(fit * 0.995)
         scene, _ = _SceneBuilder(trace, smaller, diagnostics, style).build()
@@ -279,6 +279,36 @@ def _crowded_atoms(scene: Scene) -> tuple[str, ...]:
         if apart[i, j] < 0.5:
             notes.append(f"panel {panel.index + 1}: {atoms[i].name} and {atoms[j].name} are drawn {apart[i, j]:.2f} "
                          f"bond lengths apart: the layout found no clear place for them; check the figure")
+    return tuple(notes)
+
+
+def _signs_on_bonds(scene: Scene) -> tuple[str, ...]:
+    """A note for each panel where a charge sign's ink touches a bond line, where a minus reads as
+    a bond and a bond through a plus hides it (IUPAC 2008: a charge sits beside its atom, clear of
+    the bonds). The editorial tests hold the gallery to this; it is the safety net for what the
+    layout has not met (a larger font on a crowded panel)."""
+    notes = []
+    face = FontFace(scene.style.font_family)
+    for panel in scene.panels:
+        ox, oy = panel.origin
+        lines = [(complex(a[0] + ox, a[1] + oy), complex(b[0] + ox, b[1] + oy)) for bond in panel.bonds
+                 for a, b in bond.lines]
+        names = {a.index: a.name for a in panel.atoms}
+        for mark in panel.marks:
+            if mark.kind != "charge" or not mark.runs:
+                continue
+            run = mark.runs[-1]   # the sign (a count such as 2 stands before it)
+            width = face.width(run.text, run.size)
+            sign_width = face.width(run.text[-1], run.size)
+            middle = run.y - face.ink_middle(run.text[-1]) * run.size
+            # The sign's ink: its stroke across the glyph, as high as a plus is (a minus is thinner).
+            half = 0.3 * run.size if run.text.endswith("+") else 0.06 * run.size
+            ink = Box(run.x + width - 0.85 * sign_width + ox, middle - half + oy, run.x + width - 0.15 * sign_width + ox,
+                      middle + half + oy)
+            if any(segment_hits_box(a, b, ink) for a, b in lines):
+                notes.append(f"panel {panel.index + 1}: the charge of {names.get(mark.atom, 'an atom')} touches a bond "
+                             f"line, where it reads as part of the structure; check the figure")
+                break
     return tuple(notes)
 
 
