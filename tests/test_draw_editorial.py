@@ -596,3 +596,20 @@ def test_text_over_and_under_an_arrow_keeps_clear_of_its_heads(style):
                         continue   # not above or below this text
                     white = box.y0 - max(heights) if box.y0 > max(heights) else min(heights) - box.y1
                     assert white >= 0.25 * run.size, (path.stem, arrow.step, run.text, white)
+
+
+def test_the_two_electrons_of_a_splitting_bond_leave_on_its_two_sides():
+    """In the Birch radical anion (panel 3) one electron of C3=C4 goes on into C2=C3, the other
+    onto C4: drawn from one point on one side of the bond the two hooks read as a single mark, a
+    '3'; on the bond's two sides each reads as its own (common practice for the fishhooks of a
+    splitting bond)."""
+    trace, scene = _scene("18-birch-reduction")
+    panel = scene.panels[2]
+    where = {a.index: complex(*a.position) for a in panel.atoms}
+    hooks = [a for a in panel.arrows if a.electrons == 1 and a.source_kind == "bond"
+             and {trace.initial.label(i) for i in a.source_atoms} == {"C3", "C4"}]
+    assert len(hooks) == 2
+    first, second = (where[i] for i in hooks[0].source_atoms)
+    axis = (second - first) / abs(second - first)
+    sides = {(complex(*a.path_points(20)[10]) - first) / axis for a in hooks}
+    assert len({z.imag > 0 for z in sides}) == 2, [a.move for a in hooks]

@@ -1069,12 +1069,14 @@ def _is_split(move: ResolvedMove) -> bool:
 
 def _split_bond_sides(w: _PanelArrows, options: list[list[_Candidate]],
                       pairs: dict[tuple[int, int], np.ndarray]) -> None:
-    """When both electrons of a bond go to its two atoms, the two fishhooks run on opposite
-    sides of the bond (common practice for the homolysis of Br2 or a peroxide): a pair of
-    candidates on one side costs _SAME_SIDE more."""
+    """When the two electrons of a bond go their separate ways to its atoms, the two fishhooks run
+    on opposite sides of the bond (common practice for the homolysis of Br2 or a peroxide); so too
+    where one goes on into a bond the atom already has, as in the Birch radical anion, where two
+    short hooks on one side read as one mark. (One that makes a bond to another molecule is a long
+    arc that reads apart anyway.) A pair of candidates on one side costs _SAME_SIDE more."""
     split: dict[tuple[int, int], list[int]] = {}
     for k, move in enumerate(w.moves):
-        if _is_split(move):
+        if _is_split(move) or (move.electrons == 1 and move.source_kind == "bond" and w.sinks[k].kind == "bond"):
             split.setdefault(tuple(sorted(move.source_atoms)), []).append(k)
     for (a, b), arrows in split.items():
         if len(arrows) != 2:
