@@ -452,3 +452,14 @@ def test_fragment_examples_are_what_they_say(write):
     for code in ("AR110", "AR111"):
         record, _ = CODES[code].example.split("   #")
         assert [d["code"] for d in check_line("set.jsonl", 1, record.encode())["diagnostics"]] == [code]
+
+
+def test_trace_names_what_a_step_releases_by_its_structure():
+    """A released fragment is written as its SMILES (RDKit's canonical form, the independent judge)
+    with the numbered atoms it holds: `released Br3, C(atom 13), C(atom 14), O4` named ethanol's
+    unnumbered carbons by their place in the state."""
+    result = run("trace", _GALLERY_FIRST.with_name("20-e2-anti-periplanar.mech"))
+    assert result.exit_code == 0, result.output
+    (line,) = re.findall(r"^  released (.+)$", result.stdout, re.M)
+    bromide, ethanol = (Chem.MolToSmiles(Chem.MolFromSmiles(s)) for s in ("[Br-]", "OCC"))
+    assert line == f"{bromide} (Br3); {ethanol} (O4)"

@@ -11,6 +11,22 @@ from ..electrons import ElectronState, bond_label, order_word
 from ..rdkit_io import canonical, formula
 
 
+def _released(state: ElectronState, atoms) -> str:
+    """Each fragment let go, as its SMILES with the numbered atoms it holds (`CCO (O4)`): an
+    unnumbered atom's position in the state (`C(atom 13)`) means nothing to the author."""
+    from rdkit import Chem
+    from ..rdkit_io import fragment
+    pieces = []
+    for frag in Chem.GetMolFrags(state.mol, asMols=False, sanitizeFrags=False):
+        if not set(frag) & set(atoms):
+            continue
+        numbered = [state.label(i) for i in frag if state.mol.GetAtomWithIdx(i).GetAtomMapNum()
+                    and state.elements[i] != 1]
+        smiles = canonical(fragment(state.mol, frag))
+        pieces.append(f"{smiles} ({', '.join(numbered)})" if numbered else smiles)
+    return "; ".join(pieces)
+
+
 def _state_lines(state: ElectronState) -> list[str]:
     from rdkit import Chem
     mol = Chem.Mol(state.mol)
@@ -63,7 +79,7 @@ def trace_command(file, stereo):
                 text += ", 1 unpaired electron"
             click.echo(text)
         if st.released_now:
-            click.echo(f"  released {', '.join(sorted({after.label(i) for i in st.released_now if after.mol.GetAtomWithIdx(i).GetAtomicNum() > 1}))}")
+            click.echo(f"  released {_released(after, st.released_now)}")
         for d in diags:
             if d.step == st.index and d.severity != ERROR:
                 click.echo(f"  {d.severity} {d.code} {d.message}")
