@@ -28,7 +28,8 @@ def _table(*codes: Code) -> dict[str, Code]:
 # structures, AR4xx conservation and checkpoints, AR5xx chemical judgement, AR6xx notes.
 CODES = _table(
     Code("AR100", ERROR, "cannot read file",
-         "The file could not be read or is not UTF-8 text.",
+         "The file could not be read: it is missing or unreadable, not UTF-8 text, holds NUL bytes, is "
+         "larger than the 5 MB limit, or (for `arrows import`) is not the JSON it should be.",
          'arrows check scheme.cdx   # a binary drawing file, not mechanism text'),
     Code("AR101", ERROR, "syntax error",
          "The text does not follow the mechanism language.",
