@@ -55,6 +55,17 @@ def test_hydroxide_on_an_alkane_is_uphill():
     assert (d.loc.line, d.loc.column) == (4, 5) and d.severity == "warning" and d.hint
 
 
+def test_hydroxide_on_an_aldehyde_c_h_is_uphill():
+    """An aldehyde's own C-H was matched by no row and left unjudged, hydroxide making an acyl anion
+    unsaid: no polar base makes one (it takes an umpolung reagent; common practice), and the
+    README reads a C-H the table does not name as an alkane's."""
+    text = ('species ald = "[CH3:1][CH:2]=[O:3]"\nspecies base = "[OH-:4]"\nstep "formyl C-H"\n'
+            '    :O4 -> H(C2)\n    C2-H -> C2\nend\n')
+    _, diags = check_text(text, "formyl.mech")
+    (found,) = [d for d in diags if d.code == "AR508"]
+    assert "removing an aldehyde C-H (~50)" in found.message and (found.loc.line, found.loc.column) == (4, 5)
+
+
 def test_threshold_is_configurable():
     with pka_gap(40):
         _, diags = check_text(HYDROXIDE_ON_PROPANE)

@@ -95,6 +95,11 @@ TABLE: tuple[Acidity, ...] = (
     # Not an amine: an N-H beside a double bond (amide, hydrazone, enamine, amidine, sulfonamide),
     # whose anion spreads onto the far atom and is far less basic than NH2-; unjudged unless listed.
     Acidity("an amine N-H", "an amide ion", "[NX3;!H0;!$(N*=*);!$(N=*)]", 38, "~38", TEXTBOOK),
+    # An aldehyde's own C-H: no base of a polar mechanism makes the acyl anion (it takes an umpolung
+    # reagent: a dithiane, cyanide, a thiazolium; common practice); no tabulated value, so it is
+    # read as an alkane's, as the README says of a C-H the table does not name.
+    Acidity("an aldehyde C-H", "an acyl anion", "[CX3H1](=O)[#6,#1]", 50, "~50",
+            "common practice: not acidic to polar bases; no tabulated value"),
     Acidity("an alkene or arene C-H", "a vinyl or aryl anion", "[#6X3;!H0;$([#6]=[#6]),$([c])]", 44, "~44",
             TEXTBOOK),
     # Not an alkane: a C-H beside a C=N (an imine, an oxime or its ester: the Neber's methyl), a
