@@ -613,3 +613,29 @@ def test_the_two_electrons_of_a_splitting_bond_leave_on_its_two_sides():
     axis = (second - first) / abs(second - first)
     sides = {(complex(*a.path_points(20)[10]) - first) / axis for a in hooks}
     assert len({z.imag > 0 for z in sides}) == 2, [a.move for a in hooks]
+
+
+def test_drafting_labels_stand_nearer_their_own_atom():
+    """Drafting with --numbers and --cip over the gallery and the textbook corpus: a map number or
+    CIP label nearer another atom than its own reads as that atom's. Placed round their atom by room
+    alone, 122 of 6,692 numbers and 23 of 52 CIP labels did; now at most 20 numbers and 21 labels
+    do, in crowded panels where every side meets another atom (the two (R)/(S) of adjacent
+    stereocentres among them: known)."""
+    import dataclasses
+    from textbook_mechanisms import TEXTBOOK
+    style = dataclasses.replace(STYLES["two-column"], cip=True, numbers=True)
+    texts = [(p.name, p.read_text(encoding="utf-8")) for p in GALLERY]
+    texts += [(f"{name}.mech", text) for name, (text, _, _) in sorted(TEXTBOOK.items())]
+    astray = {"number": 0, "cip": 0}
+    for name, text in texts:
+        trace, diags = arrows.check_text(text, name)
+        if trace is None or trace.initial is None:
+            continue
+        for panel in build_scene(trace, style, diags).panels:
+            where = {a.index: complex(*a.position) for a in panel.atoms}
+            for mark in panel.marks:
+                if mark.kind in astray and mark.box is not None:
+                    middle = complex((mark.box.x0 + mark.box.x1) / 2, (mark.box.y0 + mark.box.y1) / 2)
+                    own = abs(middle - where[mark.atom])
+                    astray[mark.kind] += any(abs(middle - q) < own for i, q in where.items() if i != mark.atom)
+    assert astray["number"] <= 20 and astray["cip"] <= 21, astray

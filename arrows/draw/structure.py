@@ -216,6 +216,14 @@ def level_and_close(sign: Box, labels: list[Box], size: float, apart: float = 0.
                for b in labels)
 
 
+def _nearer_another(box: Box, atom: int, out: PanelStructure) -> bool:
+    """Whether the middle of `box` stands less than 1.25 times as far from another drawn atom as
+    from `atom`: too near the other to read as `atom`'s."""
+    middle = complex((box.x0 + box.x1) / 2, (box.y0 + box.y1) / 2)
+    own = abs(middle - out.positions[atom])
+    return any(abs(middle - out.positions[j]) < 1.25 * own for j in out.atoms if j != atom)
+
+
 def _separation(a: Box, b: Box) -> float:
     """How far apart two boxes are along the axis that separates them most (negative: overlap)."""
     return max(b.x0 - a.x1, a.x0 - b.x1, b.y0 - a.y1, a.y0 - b.y1)
@@ -881,10 +889,14 @@ class StructureDrawer:
                     labelled and abs(direction.imag) < _LEVEL_WITH_LABEL))) or level_and_close(
                 mark.box, hydrogens, size, apart=0.6)
             inside = shunned is not None and (direction * shunned.conjugate()).real > 0.5
-            fault = (gap < pad or on_stroke, inside, slid >= _FAR_SLIDE, 0.0 if kind == "charge" else -min(gap, pad))
+            # A drafting label (a CIP label, a map number) nearly as near another atom as its own
+            # reads as either's: between two adjacent stereocentres, "(R)" and "(S)" could not be told apart.
+            ambiguous = kind != "charge" and _nearer_another(mark.box, i, out)
+            fault = (gap < pad or on_stroke, ambiguous, inside, slid >= _FAR_SLIDE,
+                     0.0 if kind == "charge" else -min(gap, pad))
             if best is None or fault < best[0]:
                 best = (fault, direction, mark)
-            if not any(fault[:3]):
+            if not any(fault[:4]):
                 break
         _, direction, mark = best
         out.occupied[i].append(direction)
