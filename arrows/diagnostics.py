@@ -296,11 +296,9 @@ CODES = _table(
     Code("AR503", WARNING, "unusual formal charge",
          "A step leaves an atom with a new formal charge of magnitude two or more (for example carbon -2, "
          "oxygen +2).",
-         'species hydroxide = "[OH-:1]"\n'
-         'species hydroxide_2 = "[OH-:2]"\n'
-         'step "proton transfer"\n'
-         '    :O1 -> H(O2)\n'
-         '    O2-H -> O2   # leaves O2 as oxide, charge -2: hydroxide is no acid here\n'
+         'species sulfate = "[O-:1][S:2](=[O:3])(=[O:4])[O-:5]"\n'
+         'step "sulfate falls apart"\n'
+         '    S2-O5 -> O5   # O5 left as oxide, charge -2: sulfate does not lose O2-\n'
          'end'),
     Code("AR504", WARNING, "expanded octet",
          "A step takes a third-row or heavier atom above eight valence electrons, or further above "
@@ -401,6 +399,28 @@ CODES = _table(
          'species cyanide = "[C-:4]#[N:5]"\n'
          'step "cyanide adds"\n'
          '    C2=O3 -> O3   # and :C4 -> C2, the nucleophile\'s arrow, is forgotten\n'
+         'end'),
+    Code("AR514", WARNING, "pi pair pushed onto a carbon that cannot hold it",
+         "A step sends the pi pair of a bond onto one of its carbons, which keeps it as a lone pair: "
+         "a carbanion with no pi bond, arene, onium, sulfur, phosphorus, silicon or pair of halogens "
+         "beside it to take the charge. A polar pi bond gives its pair to its more electronegative "
+         "atom (C=O to O; nucleophiles add at the carbon), and a C=C pair goes on into a bond or "
+         "toward an enone's carbonyl (common practice). A resonance step is not judged.",
+         'species ketone = "[CH3:1][C:2](=[O:3])[CH3:4]"\n'
+         'species enolate = "[CH3:5][C:6](=[O:7])[CH2-:8]"\n'
+         'step "enolate adds"\n'
+         '    :C8 -> O3\n'
+         '    C2=O3 -> C2   # onto the carbon: it is O3 that takes the pair, C8 adds to C2\n'
+         'end'),
+    Code("AR515", WARNING, "hydroxide or alkoxide leaving to a carbocation",
+         "A bond from carbon to oxygen breaks, the pair going to the oxygen, which leaves as hydroxide "
+         "or an alkoxide while the carbon is left a carbocation with nothing pushing. These are poor "
+         "leaving groups: they leave when pushed out (an E1cB, a tetrahedral intermediate re-forming "
+         "C=O), and for an ionisation the oxygen is protonated first and leaves as water or an alcohol "
+         "(common practice: the acid-catalysed E1 and SN1 of alcohols).",
+         'species alcohol = "[CH3:1][C:2]([CH3:3])([CH3:4])[OH:5]"\n'
+         'step "ionisation"\n'
+         '    C2-O5 -> O5   # hydroxide leaves on its own: protonate O5 first\n'
          'end'),
     Code("AR601", NOTE, "ring closure",
          "A step closes a ring; its size and Baldwin class are given. A pericyclic step (every arrow "

@@ -170,6 +170,21 @@ step "addition"
 end
 '''
 
+# Protonated tert-butanol ionises: water leaves, the tert-butyl cation stays (textbook E1).
+OXONIUM_IONISATION = '''species oxonium = "[CH3:1][C:2]([CH3:3])([CH3:4])[OH2+:5]"
+step "ionisation"
+    C2-O5 -> O5
+end
+'''
+
+# E1cB: the enolate pushes hydroxide out of the aldol (textbook).
+E1CB = '''species enolate = "[CH3:1][C:2](=[O:3])[CH-:4][CH:5]([OH:6])[CH3:7]"
+step "E1cB"
+    :C4 -> C4=C5
+    C5-O6 -> O6
+end
+'''
+
 TWINS = [
     # electron moves (AR2xx)
     Twin("arrow from a proton", ACID_BASE, ":O5 -> H(O4)", "H(O4) -> O5", "AR204", "H(O4) -> O5",
@@ -406,9 +421,10 @@ TWINS = [
          "[O-:1][CH2:2][CH2:5][Br:6]", "AR501", ":O1 -> C5", says=("3-membered",)),
     Twin("four-membered ring", RING_CLOSURE, "[O-:1][CH2:2][CH2:3][CH2:4][CH2:5][Br:6]",
          "[O-:1][CH2:2][CH2:3][CH2:5][Br:6]", "AR501", ":O1 -> C5", says=("4-membered",)),
-    # Hydroxide deprotonating hydroxide would give oxide, O2- (charge -2).
+    # Hydroxide deprotonating hydroxide would give oxide, O2- (charge -2); the transfer is uphill by
+    # some 20 pKa units too (hydroxide as an acid ~36, memory: AR508 says so as well).
     Twin("oxide dianion", PROTON_EXCHANGE, '"[OH2:2]"', '"[OH-:2]"', "AR503", 'step "proton exchange"',
-         says=("O2", "-2"), hint_says=("formal charge of -2",)),
+         says=("O2", "-2"), hint_says=("formal charge of -2",), alone=False),
     # Hydroxide attacks sulfur instead of the methyl carbon: S3 keeps its leaving pair and gains a
     # bond, ten valence electrons (a warning only: third-row atoms may expand their octet). The
     # methyl is left behind as CH3+, which AR511 reports too.
@@ -422,6 +438,19 @@ TWINS = [
          says=("Br2", "six valence electrons", "a Br cation short of its octet")),
     # The nitrogen not protonated first: the amine leaves as Me2N-, an amide ion (pKa of
     # dimethylamine ~38, textbook, memory), from the alkoxide of the carbinolamine.
+    # The cyanide carbon drawn onto the carbonyl oxygen, the C=O pair sent to carbon: a carbanion
+    # with nothing beside it to hold the charge (the pair of a C=O goes to O; common practice).
+    Twin("carbonyl pi pair sent to its carbon", CYANIDE_ADDITION, "    :C4 -> C2\n    C2=O3 -> O3\n",
+         "    :C4 -> O3\n    C2=O3 -> C2\n", "AR514", "C2=O3 -> C2", says=("C2", "carbanion"),
+         hint_says=("`C2=O3 -> O3`",)),
+    # tert-Butanol ionising without its proton: hydroxide leaves unaided (textbook E1 of alcohols
+    # goes through the oxonium ion).
+    Twin("hydroxide leaving to a carbocation", OXONIUM_IONISATION, "[OH2+:5]", "[OH:5]", "AR515", "C2-O5 -> O5",
+         says=("hydroxide", "carbocation"), hint_says=("protonate O5", "water")),
+    # The aldol's alkoxide pushed out by the enolate: it leaves as oxide, O2- (hydroxide as an acid
+    # ~36, memory); the proton transfer that makes it hydroxide is missing.
+    Twin("alkoxide leaving as oxide", E1CB, "[OH:6]", "[O-:6]", "AR510", "C5-O6 -> O6", says=("oxide",),
+         hint_says=("as hydroxide",), alone=False),
     Twin("amide ion as leaving group", CARBINOLAMINE, "[OH:2])([CH3:5])[NH+:3]", "[O-:2])([CH3:5])[N:3]",
          "AR510", "C1-N3 -> N3", says=("N3", "amide ion", "38"), hint_says=("protonate N3",)),
     # Protonated at the wrong end: the primary cation CH2+ instead of the tertiary one (against

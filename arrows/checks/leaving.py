@@ -26,7 +26,11 @@ from ..trace import StepTrace
 from . import Check
 
 STRONGEST_LEAVING_BASE = 35.0   # pKa of the conjugate acid from which a leaving group is flagged
-_JUDGED = (1, 6, 7)   # H, C, N: the elements whose anions can be this basic
+_JUDGED = (1, 6, 7, 8)   # H, C, N and O (as oxide, O2-): the elements whose anions can be this basic
+# Hydroxide and alkoxides leave a carbon only when pushed (an E1cB, a tetrahedral intermediate's
+# alkoxide re-forming C=O): left to ionise alone into a carbocation, they are protonated first and
+# leave as water or an alcohol (common practice: the acid-catalysed E1 and SN1 of alcohols).
+_IONISING_OXYGEN_ACID = 14.0   # pKa of the conjugate acid (water 15.7, an alcohol ~16) from which AR515 speaks
 
 
 def conjugate_acid(mol: Chem.Mol, atom: int) -> Optional[Acidity]:
@@ -53,7 +57,7 @@ def _in_small_ring(mol: Chem.Mol, a: int, b: int) -> bool:
 
 class StrongBaseLeavingGroups(Check):
     name = "leaving groups"
-    codes = ("AR510",)
+    codes = ("AR510", "AR515")
 
     def step(self, st: StepTrace, context) -> Iterator[Diagnostic]:
         after = st.after
@@ -74,12 +78,26 @@ class StrongBaseLeavingGroups(Check):
                     or after.formal_charge(leaving) >= 0 or _in_small_ring(st.before.mol, leaving, centre)):
                 continue
             acid = conjugate_acid(after.mol, leaving)
+            label = st.before.label
+            if (acid is not None and elements[leaving] == 8 and _IONISING_OXYGEN_ACID <= acid.pka < STRONGEST_LEAVING_BASE
+                    and after.formal_charge(centre) > 0 and after.nonbonding[centre] == 0):
+                yield Diagnostic(
+                    "AR515", f"{label(leaving)} leaves {label(centre)} as {acid.base} (pKa of {acid.acid} {acid.shown}), "
+                    f"making a carbocation with nothing pushing it out", move.move.loc,
+                    hint=f"protonate {label(leaving)} first, so that it leaves as {_neutral(acid)} (the acid-catalysed "
+                         f"route), or push from a neighbour in this step (an E1cB)",
+                    atoms=(label(leaving), label(centre)), step=st.index)
+                continue
             if acid is None or acid.pka < STRONGEST_LEAVING_BASE:
                 continue
-            label = st.before.label
             yield Diagnostic(
                 "AR510", f"{label(leaving)} leaves {label(centre)} as {acid.base} (pKa of {acid.acid} "
                 f"{acid.shown}): a base this strong is almost never a leaving group",
-                move.move.loc, hint=f"protonate {label(leaving)} in an earlier step so that it leaves neutral, "
-                f"or let its pair go on into a bond in this step",
+                move.move.loc, hint=f"protonate {label(leaving)} in an earlier step so that it leaves "
+                f"{'as hydroxide' if elements[leaving] == 8 else 'neutral'}, or let its pair go on into a bond in this step",
                 atoms=(label(leaving), label(centre)), step=st.index)
+
+
+def _neutral(acid: Acidity) -> str:
+    """What the leaving group is once protonated: water for hydroxide, an alcohol for an alkoxide."""
+    return "water" if acid.acid == "water" else "an alcohol"

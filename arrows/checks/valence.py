@@ -106,15 +106,66 @@ def _pi_pair_pushed_alone(st: StepTrace) -> Iterator[Diagnostic]:
                                  atoms=(c, a), step=st.index)
 
 
+# Neighbours that hold a carbanion's pair (common practice): an ylide's onium, phosphorus, sulfur,
+# silicon, selenium and boron beside it.
+_CARBANION_HOLDERS = frozenset({5, 14, 15, 16, 34})
+
+
+def _unstabilised_carbanion(mol, i: int) -> bool:
+    """Whether carbon i, a carbanion, is sp3 with nothing beside it to take its charge: no pi bond
+    or arene, no onium, P, S, Si, Se or B, fewer than two halogens (a trihalomethanide is stable)."""
+    atom = mol.GetAtomWithIdx(i)
+    if any(b.GetBondTypeAsDouble() > 1 for b in atom.GetBonds()):
+        return False   # a vinyl, aryl or acetylide anion, or the carbanion end of an ylide's double bond
+    halogens = 0
+    for n in atom.GetNeighbors():
+        z = n.GetAtomicNum()
+        if (z in _CARBANION_HOLDERS or n.GetFormalCharge() > 0 or n.GetIsAromatic()
+                or any(b.GetBondTypeAsDouble() > 1 for b in n.GetBonds())):
+            return False
+        halogens += z in (9, 17, 35, 53)
+    return halogens < 2
+
+
+def _pi_pair_onto_carbon(st: StepTrace) -> Iterator[Diagnostic]:
+    """AR514: a pi pair sent onto a carbon that keeps it as a lone pair, leaving a carbanion with
+    nothing to hold its charge: a C=O pair sent to its carbon (the nucleophile drawn onto the
+    oxygen), an enone's C=C pair sent to the carbon away from the carbonyl. A polar pi bond gives
+    its pair to the more electronegative atom, and a C=C pair goes on into a bond or toward an
+    acceptor (common practice). A resonance step is not judged."""
+    if st.step.kind == "resonance":
+        return
+    change, after = st.change, st.after
+    gained = {i for i, old, new in change.charges if new == -1 and old > -1}
+    for move in change.moves:
+        if move.source_kind != "bond" or move.electrons != 2 or len(move.sink_atoms) != 1:
+            continue
+        carbon = move.sink_atoms[0]
+        if carbon not in move.source_atoms or carbon not in gained or after.elements[carbon] != 6:
+            continue
+        other = move.source_atoms[1] if move.source_atoms[0] == carbon else move.source_atoms[0]
+        if after.mol.GetBondBetweenAtoms(carbon, other) is None or after.nonbonding[carbon] != 2 \
+                or not _unstabilised_carbanion(after.mol, carbon):
+            continue   # a sigma bond broken (a leaving group: AR510's), or a carbanion something holds
+        c, o = after.label(carbon), after.label(other)
+        polar = ELECTRONEGATIVITY.get(after.elements[other], 0.0) > ELECTRONEGATIVITY[6]
+        hint = (f"the pair of a C={after.mol.GetAtomWithIdx(other).GetSymbol()} bond goes to {o} "
+                f"(`{move.move.source} -> {o}`), and a nucleophile adds at {c}" if polar else
+                "a C=C pair goes on into a bond, or toward the carbonyl of an enone: check where this arrow ends")
+        yield Diagnostic("AR514", f"the pi pair of {c}-{o} goes onto {c}, leaving a carbanion with nothing to "
+                         f"hold its charge", move.move.loc, hint=hint, atoms=(c, o), step=st.index)
+
+
 class UnusualElectronCounts(Check):
     name = "unusual electron counts"
-    codes = ("AR503", "AR504", "AR505", "AR511", "AR513")
+    codes = ("AR503", "AR504", "AR505", "AR511", "AR513", "AR514")
 
     def step(self, st: StepTrace, context) -> Iterator[Diagnostic]:
         after, before = st.after, st.before
         if after is None:
             return
         yield from _pi_pair_pushed_alone(st)
+        yield from _pi_pair_onto_carbon(st)
         for i, old_charge, charge in st.change.charges:
             # As for the shell below: a charge the species was written with and the step keeps
             # (a sulfonyl S written S2+ with two O-) is not the step's doing.

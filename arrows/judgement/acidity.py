@@ -67,6 +67,8 @@ TABLE: tuple[Acidity, ...] = (
     Acidity("a tertiary alcohol", "a tertiary alkoxide", "[OX2H1][CX4H0]([#6])([#6])[#6]", 18, "~18",
             TEXTBOOK),
     Acidity("an alcohol", "an alkoxide", "[OX2H1][CX4]", 16, "~16", COMMON_PRACTICE),
+    # Hydroxide as an acid, ~36 (memory): an alkoxide that leaves as oxide (O2-) lacks a proton.
+    Acidity("hydroxide", "oxide", "[OX1H1-]", 36, "~36", NOT_LISTED),
     Acidity("an imide N-H", "an imidate", "[NX3;H1]([CX3]=O)[CX3]=O", 9, "~9", NOT_LISTED),   # succinimide 9.6
     Acidity("an amide N-H", "an amidate", "[NX3;!H0][CX3]=O", 17, "~17", NOT_LISTED),
     Acidity("an aldehyde alpha C-H", "an aldehyde enolate", "[CX4;!H0][CX3H1]=O", 17, "~17", TEXTBOOK),
