@@ -170,11 +170,31 @@ def mechanism_from_dict(data: dict, source_name: str = "<text>",
                      None if product is None else _read_checkpoint(product), source_name)
 
 
+_LONGEST_INTEGER = 100   # digits: no field of a mechanism is a number this long (Python refuses 4,300)
+
+
 def strict_json(text: str):
-    """json.loads, refusing NaN and Infinity, which JSON has not (Python's json writes them), and
-    a key written twice in one object, of which Python would keep the last without a word."""
+    """json.loads, refusing NaN and Infinity, which JSON has not (Python's json writes them), a key
+    written twice in one object, of which Python would keep the last without a word, an integer
+    of more than _LONGEST_INTEGER digits and a string holding half a surrogate pair (no text can
+    be written from it)."""
     def refuse(name: str):
         raise json.JSONDecodeError(f"{name} is not a JSON value", text, text.find(name))
+
+    def integer(digits: str) -> int:
+        if len(digits.lstrip("-")) > _LONGEST_INTEGER:
+            raise json.JSONDecodeError(f"a number of {len(digits.lstrip('-'))} digits is not one this tool reads",
+                                       text, text.find(digits))
+        return int(digits)
+
+    def whole_text(value: str) -> str:
+        if any("\ud800" <= ch <= "\udfff" for ch in value):
+            half = next(ch for ch in value if "\ud800" <= ch <= "\udfff")
+            escaped = f"\\u{ord(half):04x}"
+            found = max(text.find(escaped), text.lower().find(escaped))
+            raise json.JSONDecodeError(f"the string holds {escaped}, half of a surrogate pair: not text", text,
+                                       max(found, 0))
+        return value
 
     def unique(pairs: list[tuple[str, object]]) -> dict:
         seen = {}
@@ -182,9 +202,14 @@ def strict_json(text: str):
             if key in seen:
                 raise json.JSONDecodeError(f"the key {key!r} is written twice in one object", text,
                                            text.find(json.dumps(key)))
-            seen[key] = value
+            seen[whole_text(key)] = whole_text(value) if isinstance(value, str) else value
         return seen
-    return json.loads(text, parse_constant=refuse, object_pairs_hook=unique)
+    data = json.loads(text, parse_constant=refuse, parse_int=integer, object_pairs_hook=unique)
+    if isinstance(data, list):
+        for value in data:
+            if isinstance(value, str):
+                whole_text(value)
+    return whole_text(data) if isinstance(data, str) else data
 
 
 def loads(text: str, file: str = "<json>") -> Mechanism:

@@ -8,7 +8,7 @@ from typing import Optional
 from .model import STEP_KINDS, Checkpoint, Mechanism, Species, Step
 
 # What the grammar accepts inside quotes and as a name (grammar/mechanism.lark: STRING, NAME).
-_STRING_FORBIDDEN = re.compile(r'["\n\r]')   # a CR reads as a line end too (language.parse)
+_STRING_FORBIDDEN = re.compile(r'["\n\r\x00]')   # a CR reads as a line end too (language.parse)
 _NAME = re.compile(r"[A-Za-z_][A-Za-z0-9_]*\Z")
 INDENT = "    "
 

@@ -248,3 +248,56 @@ def test_import_refuses_nan_and_infinity_with_a_location(constant, tmp_path):
                           timeout=120)
     assert done.returncode == 2 and f"{constant} is not a JSON value" in done.stderr
     assert "Traceback" not in done.stderr
+
+
+def _exported(tmp_path) -> str:
+    done = _arrows_main("export", str(GALLERY[0]), "--to", "json")
+    assert done.returncode == 0, done.stderr
+    return done.stdout
+
+
+@pytest.mark.parametrize("edit, says", [
+    (lambda text: text.replace('"version": 1', '"version": 1' + "0" * 5000, 1), "a number of 5001 digits"),
+    (lambda text: text.replace('"title": "', '"title": "\\ud800', 1), "half of a surrogate pair"),
+    (lambda text: text.replace('"title": "', '"title": "a\\u0000', 1), "does not match"),
+], ids=["5001-digit number", "lone surrogate", "NUL in a string"])
+def test_import_refuses_valid_but_unwritable_json_with_a_location(edit, says, tmp_path):
+    """JSON the decoder takes but no .mech text can come from: a 5,001-digit number (Python's int
+    conversion stops at 4,300 and raised a ValueError traceback), half a surrogate pair (a
+    UnicodeEncodeError traceback on output), a NUL in a string (written out, then refused by
+    `arrows check`). Each is a located AR100, exit 2, and nothing is written."""
+    path = tmp_path / "odd.json"
+    path.write_text(edit(_exported(tmp_path)), encoding="utf-8")
+    target = tmp_path / "odd.mech"
+    done = _arrows_main("import", str(path), "-o", str(target))
+    assert done.returncode == 2 and "AR100" in done.stderr and says in done.stderr, done.stderr
+    assert "Traceback" not in done.stderr and not target.exists()
+
+
+@pytest.mark.parametrize("command", [["export", "{src}", "--to", "json", "-o", "{src}"], ["import", "{json}", "-o", "{json}"]],
+                         ids=["export", "import"])
+def test_export_and_import_never_write_over_their_input(command, tmp_path):
+    """`arrows export a.mech --to json -o a.mech` replaced the mechanism with its JSON, and import
+    likewise its JSON with the text; both are refused (exit 2) and the input is untouched."""
+    src = tmp_path / "a.mech"
+    src.write_text(GALLERY[0].read_text(encoding="utf-8"), encoding="utf-8")
+    js = tmp_path / "a.json"
+    js.write_text(_exported(tmp_path), encoding="utf-8")
+    args = [a.format(src=src, json=js) for a in command]
+    before = (src.read_bytes(), js.read_bytes())
+    done = _arrows_main(*args)
+    assert done.returncode == 2 and "is the input" in done.stderr and "hint:" in done.stderr
+    assert (src.read_bytes(), js.read_bytes()) == before
+
+
+def test_import_refuses_a_mechanism_too_large_to_check(tmp_path):
+    """An import whose .mech text would exceed the size `arrows check` reads (5 MB) was written
+    with exit 0, then refused by check; it is refused at import, nothing written."""
+    document = json.loads(_exported(tmp_path))
+    document["mechanism"]["steps"][0]["label"] = "x" * 5_100_000
+    path = tmp_path / "huge.json"
+    path.write_text(json.dumps(document), encoding="utf-8")
+    target = tmp_path / "huge.mech"
+    done = _arrows_main("import", str(path), "-o", str(target))
+    assert done.returncode == 2 and "AR100" in done.stderr and "nothing written" in done.stderr, done.stderr
+    assert not target.exists()

@@ -9,7 +9,7 @@ import click
 from ..api import checked
 from ..diagnostics import ERROR, MechanismError
 from ..language import load
-from .output import emit
+from .output import emit, refuse_unsafe_outputs
 
 
 def _one_line(label: str) -> str:
@@ -28,6 +28,7 @@ def export_command(file, target, output):
 
     Exit status: 0 written, 1 the mechanism has errors, 2 unreadable input.
     """
+    refuse_unsafe_outputs({"-o": output}, [file])
     try:
         mechanism = load(file)
     except MechanismError as exc:

@@ -6,9 +6,10 @@ import sys
 import click
 
 from ..diagnostics import MechanismError
+from ..language import MAX_FILE_BYTES
 from ..mechanism_json import load
 from ..writer import to_text
-from .output import emit
+from .output import emit, refuse_unsafe_outputs
 
 
 @click.command("import")
@@ -18,9 +19,11 @@ from .output import emit
 def import_command(file, output):
     """Read a JSON mechanism (arrows/mechanism.schema.json) and print it as .mech text.
 
-    Only the mechanism as written is read; derived states and diagnostics in the file are
-    ignored, because `arrows check` derives them again. Exit status: 0 written, 2 unreadable input.
+    Only the mechanism as written is used: derived states and diagnostics in the file are checked
+    against the schema and then set aside, because `arrows check` derives them again. Exit status:
+    0 written, 2 unreadable input.
     """
+    refuse_unsafe_outputs({"-o": output}, [file], writes_mechanism=True)
     try:
         mechanism = load(file)
     except MechanismError as exc:
@@ -28,4 +31,9 @@ def import_command(file, output):
             click.echo(d.to_text(), err=True)
         sys.exit(2)
     text = to_text(mechanism)
+    if len(text.encode("utf-8")) > MAX_FILE_BYTES:
+        click.echo(f"{file}:1:1: error AR100 the mechanism text would be {len(text.encode('utf-8')):,} bytes, over the "
+                   f"{MAX_FILE_BYTES:,} a mechanism file may hold; nothing written\n"
+                   "    hint: split the mechanism into several files", err=True)
+        sys.exit(2)
     emit(text, output)

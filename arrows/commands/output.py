@@ -41,11 +41,13 @@ def refuse(path, message: str, hint: str) -> NoReturn:
     sys.exit(2)
 
 
-def refuse_unsafe_outputs(outputs: dict[str, Optional[str]], inputs: Iterable[Union[str, Path]]) -> None:
+def refuse_unsafe_outputs(outputs: dict[str, Optional[str]], inputs: Iterable[Union[str, Path]],
+                          writes_mechanism: bool = False) -> None:
     """Stop before any work when an output (option name: path; None or `-` when not given) would
     destroy an input or cannot be the file it names: one of the inputs, however reached (another
-    spelling, a symlink); a name ending in .mech, which a later batch would read as a mechanism; a
-    name ending in a slash, which names a folder."""
+    spelling, a symlink); a name ending in .mech, which a later batch would read as a mechanism
+    (unless the command writes mechanism text: `writes_mechanism`); a name ending in a slash,
+    which names a folder."""
     inputs_by_file = {}
     for path in inputs:
         identity = _file_identity(path)
@@ -63,7 +65,7 @@ def refuse_unsafe_outputs(outputs: dict[str, Optional[str]], inputs: Iterable[Un
         if output.endswith(("/", os.sep)):
             refuse(output, f"{option} {output} names a folder; it takes a file name",
                    f"name the file inside the folder: {option} {output}NAME")
-        if Path(output).suffix.lower() == ".mech":
+        if Path(output).suffix.lower() == ".mech" and not writes_mechanism:
             refuse(output, f"{option} {output} ends in .mech, the name of a mechanism file",
                    "name the output for what it holds: figure.svg, si.pdf, report.json")
 
