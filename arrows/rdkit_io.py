@@ -127,6 +127,8 @@ def _element_symbols() -> frozenset[str]:
 def reading_hint(reason: str, otherwise: str) -> str:
     """The hint for a SMILES RDKit rejects: for an atom over its valence, the onium ion it may be
     meant as, or how brackets count hydrogens; `otherwise` for any other reason."""
+    if reason.endswith("(SMILES is written in plain ASCII)"):
+        return "delete the character, or write the atom in brackets as SMILES spells it ([Na+], [2H])"
     if reason == _SPACE_REASON:
         return "write the molecules together, separated by `.` with no space (`CC(=O)[O-].[Na+]`)"
     if _OVER_VALENCE in reason:
@@ -147,15 +149,21 @@ _AS_WRITTEN.sanitize = False
 
 _SPACE_INSIDE = re.compile(r"\S(\s+)(?!\||\s|$)")   # a gap between two parts, not before a CXSMILES |...| block
 _SPACE_REASON = "a space inside the SMILES: RDKit reads it only up to the space and takes the rest for a name"
+_NOT_ASCII = re.compile(r"[^\x00-\x7f]")
 
 
-def space_inside(smiles: str) -> Optional[int]:
-    """The 0-based position of the first space (or tab) inside `smiles`, None when there is none.
-    RDKit reads a SMILES up to a space and keeps the rest as the molecule's name: `CCO [Na+]`
-    would silently lose its sodium. A space before a CXSMILES extension (`C[C@H](O)F |r|`) is
-    the extension's own separator."""
-    match = _SPACE_INSIDE.search(smiles)
-    return None if match is None else match.start(1)
+def smiles_slip(smiles: str) -> Optional[tuple[int, str]]:
+    """(0-based position, reason) of the first character of `smiles` that RDKit would not read as
+    part of it, None when there is none: a space (or tab) inside it, where RDKit stops reading and
+    keeps the rest as the molecule's name (`CCO [Na+]` would silently lose its sodium; a space
+    before a CXSMILES extension, `C[C@H](O)F |r|`, is the extension's own separator), or a
+    character outside ASCII, which SMILES never uses and RDKit may silently drop (`CCOé` read as
+    ethanol)."""
+    foreign = _NOT_ASCII.search(smiles)
+    gap = _SPACE_INSIDE.search(smiles)
+    if foreign and (gap is None or foreign.start() < gap.start(1)):
+        return foreign.start(), f"`{foreign.group()}` is not a SMILES character (SMILES is written in plain ASCII)"
+    return (gap.start(1), _SPACE_REASON) if gap else None
 
 
 def as_written(smiles: str) -> Optional[Chem.Mol]:
@@ -163,16 +171,16 @@ def as_written(smiles: str) -> Optional[Chem.Mol]:
     or would read only part of it (read_smiles says why). For a caller inside its own
     rdkit_messages() block, which keeps RDKit's log of a rejection: a block per SMILES costs
     about as much as reading it."""
-    if not smiles.strip() or space_inside(smiles) is not None:
+    if not smiles.strip() or smiles_slip(smiles) is not None:
         return None
     return Chem.MolFromSmiles(smiles, _AS_WRITTEN)
 
 
 def read_smiles(smiles: str, sanitize: bool = True) -> tuple[Optional[Chem.Mol], str, Optional[int]]:
     """(mol, reason, position): mol is None when RDKit rejects the SMILES."""
-    gap = space_inside(smiles)
-    if gap is not None:
-        return None, _SPACE_REASON, gap
+    slip = smiles_slip(smiles)
+    if slip is not None:
+        return None, slip[1], slip[0]
     with rdkit_messages() as lines:
         mol = Chem.MolFromSmiles(smiles, _AS_WRITTEN) if smiles.strip() else None
         if mol is not None and sanitize:

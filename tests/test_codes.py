@@ -311,6 +311,10 @@ TWINS = [
     # SMILES parser): the counter-ion, or a second molecule of a checkpoint, would vanish unsaid.
     Twin("species SMILES with a space inside", SN2, '"[CH3:2][Br:3]"', '"[CH3:2][Br:3] [Na+]"', "AR102",
          " [Na+]", says=("space",), hint_says=("`.`",)),
+    # A character outside ASCII after the SMILES: RDKit read "[CH3:2][Br:3]ü" as methyl bromide, the
+    # character dropped unsaid (SMILES is plain ASCII, OpenSMILES).
+    Twin("species SMILES with a character SMILES does not use", SN2, '"[CH3:2][Br:3]"', '"[CH3:2][Br:3]\u00fc"',
+         "AR102", "\u00fc", says=("not a SMILES character",), hint_says=("delete the character",)),
     Twin("checkpoint SMILES with a space inside", SN2, 'product "CO.[Br-]"', 'product "CO [Br-]"', "AR102",
          " [Br-]", says=("space",), hint_says=("`.`",)),
     Twin("map number used twice", SN2, '"[OH-:1]"', '"[OH-:3]"', "AR103", "[Br:3]", says=("line 1",)),
