@@ -40,27 +40,32 @@ def main_chain(mol: Chem.Mol, atoms: list[int]) -> list[int]:
     best: tuple = full_key([min(atoms)])
     budget = SEARCH_BUDGET
 
-    def extend(path: list[int], visited: set[int]) -> None:
-        nonlocal best, budget
+    def consider(path: list[int]) -> None:
+        nonlocal best
         # Most paths lose on carbon ends or length alone; only ties need the whole key.
         quick = (-(carbon[path[0]] + carbon[path[-1]]), -len(path))
         if quick <= best[:2]:
             key = full_key(path)
             if key < best:
                 best = key
-        for neighbour in neighbours[path[-1]]:
-            if budget <= 0:
-                return
-            if neighbour not in visited:
+
+    # Depth first from each start, with a stack of its own rather than Python's (a chain of a
+    # thousand carbons is deeper than Python's recursion limit).
+    for start in sorted(atoms):
+        path, visited = [start], {start}
+        consider(path)
+        pending = [iter(neighbours[start])]
+        while pending and budget > 0:
+            neighbour = next(pending[-1], None)
+            if neighbour is None:
+                pending.pop()
+                visited.discard(path.pop())
+            elif neighbour not in visited:
                 budget -= 1
                 path.append(neighbour)
                 visited.add(neighbour)
-                extend(path, visited)
-                visited.discard(neighbour)
-                path.pop()
-
-    for start in sorted(atoms):
-        extend([start], {start})
+                consider(path)
+                pending.append(iter(neighbours[neighbour]))
     return list(best[-1])
 
 
@@ -71,12 +76,21 @@ def number_atoms(mol: Chem.Mol, first: int = 1) -> dict[int, int]:
     def give(index: int) -> None:
         numbers[index] = first + len(numbers)
 
-    def walk(index: int) -> None:
+    def branches(index: int):
+        """The atom's neighbours, carbons first (by index), as the walk visits them."""
         atom = mol.GetAtomWithIdx(index)
-        for neighbour in sorted(atom.GetNeighbors(), key=lambda n: (n.GetAtomicNum() != 6, n.GetIdx())):
-            if neighbour.GetIdx() not in numbers:
-                give(neighbour.GetIdx())
-                walk(neighbour.GetIdx())
+        return iter([n.GetIdx() for n in sorted(atom.GetNeighbors(), key=lambda n: (n.GetAtomicNum() != 6, n.GetIdx()))])
+
+    def walk(index: int) -> None:
+        """Number every atom reached from `index`, depth first (a stack of its own, as in main_chain)."""
+        pending = [branches(index)]
+        while pending:
+            neighbour = next(pending[-1], None)
+            if neighbour is None:
+                pending.pop()
+            elif neighbour not in numbers:
+                give(neighbour)
+                pending.append(branches(neighbour))
 
     fragments = sorted(Chem.GetMolFrags(mol, asMols=False, sanitizeFrags=False), key=min)
     for fragment in fragments:

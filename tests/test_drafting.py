@@ -93,6 +93,34 @@ def test_number_command_rejects_bad_smiles_with_a_location():
     assert "Traceback" not in done.stderr
 
 
+def test_numbering_a_chain_longer_than_python_s_recursion_limit():
+    """A chain of 2,000 carbons ended in a RecursionError traceback (the main-chain search and the
+    branch walk recursed atom by atom); RDKit, the judge, reads back the same molecule."""
+    chain = "C" * 2000
+    mol = numbered(chain)
+    numbers = sorted(a.GetAtomMapNum() for a in mol.GetAtoms())
+    assert numbers == list(range(1, 2001))
+    plain = Chem.Mol(mol)
+    for atom in plain.GetAtoms():
+        atom.SetAtomMapNum(0)
+    assert Chem.MolToSmiles(plain) == Chem.MolToSmiles(Chem.MolFromSmiles(chain))
+
+
+def test_number_command_bounds_and_notes():
+    """A first number too large for RDKit's map numbers was an OverflowError traceback; it is bad
+    usage (exit 2). Map numbers already written are replaced, and the command says so."""
+    done = _arrows_main("number", "CC", "--first", "2147483647")
+    assert done.returncode == 2 and "Traceback" not in done.stderr
+    done = _arrows_main("number", "[CH2:3]=[CH:1][OH:2]")
+    assert done.returncode == 0 and "map numbers written in the SMILES are replaced" in done.stderr
+
+
+def test_new_refuses_an_empty_name(tmp_path):
+    """`arrows new ''` wrote a hidden file `.mech`, which folder walks leave out."""
+    done = _arrows_main("new", "", cwd=tmp_path)
+    assert done.returncode == 2 and "empty name" in done.stderr and not (tmp_path / ".mech").exists()
+
+
 # --- arrows new --------------------------------------------------------------------------------
 
 def test_new_writes_a_starter_that_checks(tmp_path):

@@ -57,6 +57,10 @@ def new_command(name, species_smiles, smiles):
                    "    hint: give the SMILES once, after NAME or with --smiles", err=True)
         sys.exit(2)
     smiles = species_smiles or smiles or STARTER_SMILES
+    if not name.strip() or name.strip() == ".mech":
+        click.echo(f"{name or '<NAME>'}:1:1: error: an empty name would make a hidden file `.mech`\n"
+                   "    hint: give the mechanism a name: arrows new aldol", err=True)
+        sys.exit(2)
     if '"' in path.stem or "\n" in path.stem:
         click.echo(f"{path}:1:1: error: a name cannot hold a double quote or a line break\n"
                    "    hint: choose a plain file name", err=True)

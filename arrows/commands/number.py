@@ -1,6 +1,7 @@
 """`arrows number SMILES`: the SMILES with a map number on every heavy atom, to write moves against."""
 from __future__ import annotations
 
+import re
 import sys
 from pathlib import Path
 
@@ -14,7 +15,7 @@ FIGURE_SUFFIXES = (".svg", ".png")
 
 @click.command("number")
 @click.argument("smiles")
-@click.option("--first", type=click.IntRange(min=1), default=1, show_default=True,
+@click.option("--first", type=click.IntRange(min=1, max=999_999), default=1, show_default=True,
               help="The first map number (to keep numbers unique across the species of a mechanism).")
 @click.option("-o", "--output", type=click.Path(dir_okay=False),
               help="Also draw the molecule with its numbers to this .svg or .png file.")
@@ -37,6 +38,9 @@ def number_command(smiles, first, output):
         click.echo(f"<SMILES>:1:{column}: error AR102 RDKit cannot read the SMILES: {exc}\n"
                    "    hint: check brackets, ring-closure digits and charges", err=True)
         sys.exit(2)
+    if ":" in smiles and re.search(r"\[[^\]]*:\d+\]", smiles):
+        click.echo("<SMILES>:1:1: note: the map numbers written in the SMILES are replaced; to keep some, "
+                   "number the rest by hand", err=True)
     click.echo(numbered_smiles(mol))
     if output:
         from ..numbering import numbered_svg
