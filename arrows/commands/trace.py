@@ -43,7 +43,8 @@ def _state_lines(state: ElectronState) -> list[str]:
               "stereoisomers of the final state, and how stereo-specified checkpoints relate.")
 def trace_command(file, stereo):
     """Print the starting state and the state after every step: canonical SMILES, formula, net
-    charge, and for each atom that changed its formal charge and lone pairs."""
+    charge, the bonds formed, broken and changed in order, and for each atom the step's moves
+    touch its formal charge and lone pairs."""
     trace, diags = check_file(file)
     if trace is None or trace.initial is None:
         for d in diags:
