@@ -463,3 +463,21 @@ def test_trace_names_what_a_step_releases_by_its_structure():
     (line,) = re.findall(r"^  released (.+)$", result.stdout, re.M)
     bromide, ethanol = (Chem.MolToSmiles(Chem.MolFromSmiles(s)) for s in ("[Br-]", "OCC"))
     assert line == f"{bromide} (Br3); {ethanol} (O4)"
+
+
+def test_trace_stereo_names_a_centre_a_step_inverts(write):
+    """An SN2 at a configured carbon (textbook: backside attack inverts it) printed `stereo no
+    change`, the centre being one before and after. The CIP labels before and after are given,
+    RDKit's labeller the judge of both."""
+    from rdkit.Chem import rdCIPLabeler
+    text = ('species cn = "[C-:1]#[N:2]"\nspecies rbr = "[CH3:3][C@@H:4]([Br:5])[CH2:6][CH3:7]"\n'
+            'step "sn2"\n    :C1 -> C4\n    C4-Br5 -> Br5\nend\n')
+    result = run("trace", "--stereo", write("inv.mech", text))
+    assert result.exit_code == 0, result.output
+
+    def cip(smiles: str) -> str:
+        mol = Chem.MolFromSmiles(smiles)
+        rdCIPLabeler.AssignCIPLabels(mol)
+        return next(a.GetProp("_CIPCode") for a in mol.GetAtoms() if a.HasProp("_CIPCode"))
+    before, after = cip("C[C@@H](Br)CC"), cip("C[C@H](C#N)CC")   # the nitrile as the inverted carbon gives it
+    assert f"configured centre C4: ({before}) before, ({after}) after" in result.output

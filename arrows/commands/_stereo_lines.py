@@ -22,6 +22,20 @@ def _relations(smiles: list[str]) -> list[str]:
     return [f"  stereo   {a} and {b}: {r}" for a, b, r in pairwise_relations(fragments)]
 
 
+def _cip_labels(mol, atoms) -> dict[int, str]:
+    """RDKit's CIP label (R or S) of each of `atoms` that has one in `mol`."""
+    from rdkit import Chem
+    from rdkit.Chem import rdCIPLabeler
+    work = Chem.Mol(mol)
+    try:
+        Chem.SanitizeMol(work)
+        rdCIPLabeler.AssignCIPLabels(work)
+    except Exception:   # a state RDKit cannot label: nothing said about its configuration
+        return {}
+    return {i: work.GetAtomWithIdx(i).GetProp("_CIPCode") for i in atoms
+            if work.GetAtomWithIdx(i).HasProp("_CIPCode")}
+
+
 def step_lines(st: StepTrace) -> list[str]:
     made, lost = step_stereo(st)
     label = st.after.label if st.after is not None else st.before.label
@@ -30,6 +44,13 @@ def step_lines(st: StepTrace) -> list[str]:
         lines.append(f"  stereo   new {_names(made, label)}")
     if lost:
         lines.append(f"  stereo   lost {_names(lost, label)}")
+    if st.after is not None and st.before.configured and st.after.configured:
+        # A configured centre the step's bonds reach and that stays one (an SN2's carbon, inverted;
+        # a 1,2-shift's migrating carbon, kept): its CIP label before and after, as RDKit assigns it.
+        touched = set(st.change.touched_atoms)
+        before, after = _cip_labels(st.before.mol, touched), _cip_labels(st.after.mol, touched)
+        for i in sorted(set(before) & set(after)):
+            lines.append(f"  stereo   configured centre {label(i)}: ({before[i]}) before, ({after[i]}) after")
     lines += _relations([c.smiles for c in st.step.expects])
     return lines or ["  stereo   no change"]
 
