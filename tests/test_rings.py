@@ -251,6 +251,10 @@ end
     d = _closure_diagnostic(text)
     assert d.code == "AR502" and "5-(enolendo)-exo-trig, disfavoured (Baldwin-Lusch 1982)" in d.message
     assert "would close" not in d.message
+    # Nor does the hint send the author looking for one: this aldol condensation is the usual route to
+    # 3-methylcyclopent-2-enone (common practice, memory).
+    assert "no favoured closure between these kinds of sites is open" in d.hint
+    assert "look for a favoured ring size" not in d.hint
 
 
 def test_closure_onto_an_oxocarbenium_is_a_note():

@@ -276,8 +276,18 @@ class RingClosures(Check):
             alternative = self.alternative(st, c)
             if alternative:
                 message += f"; {alternative}"
-            hint = (_SMALL_RING_HINT if code == "AR501" else "Baldwin's rules: a disfavoured closure is slow; look "
-                    "for a favoured ring size or another intermediate (`arrows closures` lists the candidates)")
+            if code == "AR501":
+                hint = _SMALL_RING_HINT
+            elif alternative:
+                hint = ("Baldwin's rules: a disfavoured closure is slow; look for a favoured ring size or another "
+                        "intermediate (`arrows closures` lists the candidates)")
+            else:
+                # Nothing better is open: pointing the author at a favoured ring would send them looking
+                # for one that does not exist (hexane-2,5-dione's aldol has only a three-membered rival).
+                hint = ("no favoured closure between these kinds of sites is open to this species; a disfavoured "
+                        "closure is slow, not forbidden: it can still be the route where the steps are reversible "
+                        "and a later one draws the product on (the aldol condensation of hexane-2,5-dione to "
+                        "3-methylcyclopent-2-enone, common practice, memory)")
             return Diagnostic(code, message, c.loc or st.step.loc, hint=hint, **where)
         if v.favoured is None:
             return Diagnostic("AR601", f"{opening}: {c.closure.name}, not covered by Baldwin's rules",
