@@ -171,3 +171,18 @@ def test_a_product_with_some_atoms_numbered_is_not_told_the_others_are_unmatched
     _, diags = check_text(text)
     (d,) = [d for d in diags if d.code == "AR402"]
     assert "O3" in d.message and "no counterpart" not in d.message, d.message
+
+
+def test_written_pieces_alike_are_each_explained_against_their_own_derived_piece():
+    """`expect all "O.O"` after water's autoionisation: both written waters were set against the
+    same derived hydroxide, the same AR401 said twice and the hydronium never named (following both
+    hints gave [OH-].[OH-]). Each written piece now meets a derived piece of its own: hydroxide
+    and hydronium (RDKit's canonical SMILES the judge) are both named."""
+    from rdkit import Chem
+    text = ('species w1 = "[OH2:1]"\nspecies w2 = "[OH2:2]"\nstep "autoionisation"\n    :O2 -> H(O1)\n'
+            '    O1-H -> O1\n    expect all "O.O"\nend\n')
+    _, diags = check_text(text, "dup.mech")
+    found = [d for d in diags if d.code == "AR401"]
+    assert len(found) == 2 and found[0].message != found[1].message
+    named = {Chem.MolToSmiles(Chem.MolFromSmiles(s)) for s in ("[OH-]", "[OH3+]")}
+    assert {next(s for s in named if f"`{s}`" in d.hint) for d in found} == named

@@ -177,9 +177,15 @@ def compare(state: ElectronState, checkpoint: Checkpoint, code: str, step: Optio
     diags = []
     if missing:   # the same fragments, now with each atom's index in the state, to name atoms
         derived = fragments(state.mol, maps, origins=True)
+    explained: set[int] = set()   # derived pieces already set against a written one
     for frag in missing:
         candidates = [f for f in derived if f.smiles not in {w.smiles for w in written}] or derived
+        # Two written pieces alike (`expect all "O.O"`) are each set against a derived piece of their
+        # own: against the same one, both said the same and the second derived piece went unmentioned.
+        candidates = [f for f in candidates if id(f) not in explained] or candidates
         closest = max(candidates, key=lambda f: _overlap(frag.mol, f.mol), default=None)
+        if closest is not None:
+            explained.add(id(closest))
         details, hint = _explain(frag, closest, state) if closest is not None else ([], None)
         message = f"the {what} {frag.smiles} is not in the derived state"
         if closest is not None and _resonance_forms(frag.smiles, closest.smiles):
