@@ -73,15 +73,36 @@ def mol_smiles(mol) -> str:
     return Chem.MolToSmiles(work)
 
 
+def _smiles_of(structure, what: str) -> str:
+    """A SMILES string as given, or an RDKit Mol's; a TypeError that says what was given otherwise
+    (a None reached RDKit as a Boost.Python ArgumentError naming RemoveHs)."""
+    if isinstance(structure, str):
+        return structure
+    if hasattr(structure, "GetNumAtoms"):
+        return mol_smiles(structure)
+    raise TypeError(f"{what}: a SMILES string or an RDKit Mol, not {type(structure).__name__}")
+
+
+def _all_of(items, kind: type, what: str, maker: str) -> tuple:
+    """`items` as a tuple, each checked to be a `kind`: a SMILES string where a Species belongs
+    failed only later, inside check(), with an AttributeError."""
+    items = tuple(items)
+    for item in items:
+        if not isinstance(item, kind):
+            raise TypeError(f"{what}: each is a {kind.__name__} (made with arrows.build.{maker}), "
+                            f"not {type(item).__name__} {item!r:.40}")
+    return items
+
+
 def species(name: str, structure) -> Species:
     """A species from a SMILES string or an RDKit Mol (written as SMILES with its atom maps)."""
-    smiles = structure if isinstance(structure, str) else mol_smiles(structure)
-    return Species(checked_name(name), smiles)
+    return Species(checked_name(name), _smiles_of(structure, f"species {name!r}"))
 
 
-def checkpoint(smiles: str, whole_state: bool = False) -> Checkpoint:
-    """An `expect` (or `product`) structure; whole_state=True demands the whole state (`expect all`)."""
-    return Checkpoint(smiles, whole_state)
+def checkpoint(smiles, whole_state: bool = False) -> Checkpoint:
+    """An `expect` (or `product`) structure, a SMILES string or an RDKit Mol; whole_state=True
+    demands the whole state (`expect all`)."""
+    return Checkpoint(_smiles_of(smiles, "a checkpoint"), whole_state)
 
 
 def _as_checkpoint(item: CheckpointLike) -> Checkpoint:
@@ -95,7 +116,7 @@ def step(label: str, *moves: MoveLike, kind: str = "forward", over: Optional[str
     resonance; `releases` takes atoms such as "O9"; `expect` takes SMILES or Checkpoints."""
     if kind not in STEP_KINDS:
         raise ValueError(f"step kind {kind!r}: choose one of {', '.join(STEP_KINDS)}")
-    return Step(label, kind, over, under, tuple(uses),
+    return Step(label, kind, over, under, _all_of(uses, Species, f"uses of step {label!r}", "species"),
                 tuple(m if isinstance(m, Move) else move(m) for m in moves),
                 tuple(r if isinstance(r, AtomRef) else atom(r) for r in releases),
                 tuple(_as_checkpoint(c) for c in expect))
@@ -105,5 +126,5 @@ def mechanism(*, title: Optional[str] = None, caption: Optional[str] = None, spe
               steps: Iterable[Step] = (), product: Optional[CheckpointLike] = None,
               source_name: str = "<text>") -> Mechanism:
     """A whole mechanism; equal to what `arrows.parse` gives for the same text."""
-    return Mechanism(title, caption, tuple(species), tuple(steps),
+    return Mechanism(title, caption, _all_of(species, Species, "species", "species"), _all_of(steps, Step, "steps", "step"),
                      None if product is None else _as_checkpoint(product), source_name)

@@ -295,3 +295,25 @@ def test_the_library_keeps_off_stderr(capfd):
 def test_an_unknown_style_is_a_value_error():
     with pytest.raises(ValueError, match="unknown style 'poster'"):
         arrows.parse('species w = "[OH2:1]"\n').draw("svg", style="poster")
+
+
+@pytest.mark.parametrize("make, says", [
+    (lambda: build.mechanism(species=["[OH2:1]"]), "each is a Species"),
+    (lambda: build.mechanism(steps=["x"]), "each is a Step"),
+    (lambda: build.species("a", None), "a SMILES string or an RDKit Mol, not NoneType"),
+    (lambda: build.mechanism(product=5), "not int"),
+    (lambda: build.step("s", uses=["[OH2:1]"]), "each is a Species"),
+], ids=["species as text", "steps as text", "species None", "product int", "uses as text"])
+def test_the_builder_refuses_wrong_types_when_called(make, says):
+    """A SMILES string where a Species belongs was accepted and failed later inside check() with
+    an AttributeError; None reached RDKit as a Boost.Python error naming RemoveHs. Each is a
+    TypeError at the call, saying what belongs there."""
+    with pytest.raises(TypeError, match=says):
+        make()
+
+
+def test_the_builder_takes_an_rdkit_mol_as_product():
+    """Species took RDKit Mols but a product Mol was a TypeError; both are written as SMILES."""
+    from rdkit import Chem
+    mechanism = build.mechanism(species=[build.species("w", "[OH2:1]")], product=Chem.MolFromSmiles("O"))
+    assert mechanism.product.smiles == Chem.MolToSmiles(Chem.MolFromSmiles("O"))
