@@ -185,6 +185,14 @@ step "E1cB"
 end
 '''
 
+# Retro-aldol of diacetone alcohol's alkoxide: the C3-C4 bond breaks to acetone's enolate (textbook).
+RETRO_ALDOL_ALKOXIDE = '''species alkoxide = "[CH3:1][C:2](=[O:3])[CH2:4][C:5]([CH3:6])([CH3:7])[O-:8]"
+step "retro-aldol"
+    :O8 -> C5=O8
+    C4-C5 -> C4
+end
+'''
+
 TWINS = [
     # electron moves (AR2xx)
     Twin("arrow from a proton", ACID_BASE, ":O5 -> H(O4)", "H(O4) -> O5", "AR204", "H(O4) -> O5",
@@ -453,6 +461,10 @@ TWINS = [
          says=("hydroxide", "carbocation"), hint_says=("protonate O5", "water")),
     # The aldol's alkoxide pushed out by the enolate: it leaves as oxide, O2- (hydroxide as an acid
     # ~36, memory); the proton transfer that makes it hydroxide is missing.
+    # The methyl made to leave instead of the enolate: CH3- (alkane ~50) cannot be protonated
+    # before it leaves, as the hint once said; another bond is meant.
+    Twin("carbanion as leaving group", RETRO_ALDOL_ALKOXIDE, "C4-C5 -> C4", "C5-C6 -> C6", "AR510", "C5-C6 -> C6",
+         says=("C6", "carbanion"), hint_says=("does not leave", "stabilised anion"), alone=False),
     Twin("alkoxide leaving as oxide", E1CB, "[OH:6]", "[O-:6]", "AR510", "C5-O6 -> O6", says=("oxide",),
          hint_says=("as hydroxide",), alone=False),
     Twin("amide ion as leaving group", CARBINOLAMINE, "[OH:2])([CH3:5])[NH+:3]", "[O-:2])([CH3:5])[N:3]",

@@ -93,11 +93,20 @@ class StrongBaseLeavingGroups(Check):
             yield Diagnostic(
                 "AR510", f"{label(leaving)} leaves {label(centre)} as {acid.base} (pKa of {acid.acid} "
                 f"{acid.shown}): a base this strong is almost never a leaving group",
-                move.move.loc, hint=f"protonate {label(leaving)} in an earlier step so that it leaves "
-                f"{'as hydroxide' if elements[leaving] == 8 else 'neutral'}, or let its pair go on into a bond in this step",
+                move.move.loc, hint=_strong_base_hint(label(leaving), elements[leaving]),
                 atoms=(label(leaving), label(centre)), step=st.index)
 
 
 def _neutral(acid: Acidity) -> str:
     """What the leaving group is once protonated: water for hydroxide, an alcohol for an alkoxide."""
     return "water" if acid.acid == "water" else "an alcohol"
+
+
+def _strong_base_hint(leaving: str, element: int) -> str:
+    """AR510's hint: an amide ion or oxide is protonated before it leaves; a carbanion cannot be (a
+    retro-aldol that expels CH3- was told to protonate the methyl): another bond is meant."""
+    if element == 6:
+        return (f"a carbanion this basic does not leave: the bond that breaks is usually the one whose pair "
+                f"makes a stabilised anion (an enolate), or {leaving}'s pair goes on into a bond in this step")
+    return (f"protonate {leaving} in an earlier step so that it leaves {'as hydroxide' if element == 8 else 'neutral'}, "
+            f"or let its pair go on into a bond in this step")
