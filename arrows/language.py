@@ -384,6 +384,14 @@ def _hint_for(exc: UnexpectedInput, text: str, found: str) -> str:
         return f"the step before this line{where} has no `end`: close it before the next statement"
     if tok_type == "END" and _STATEMENTS <= expected:
         return "`end` closes a step, but no step is open here"
+    if tok_type == "END" and expected & {"ARROW", "BOND"}:
+        above = next((lines[k].split("#")[0].rstrip() for k in range(exc.line - 2, -1, -1)
+                      if lines[k].split("#")[0].strip()), "")
+        stray = re.search(r"(?:->|~>)\s*\S+\s+([A-Z][a-z]?\d+|H\([A-Z][a-z]?\d+\))$", above)
+        if stray:
+            # `C1=C2 -> C2 C1`: the atom after the sink was read as the start of another move.
+            return (f"the move on the line before ends with `{stray.group(1)}`, after its sink: a move is one "
+                    f"source, an arrow and one sink; leave it out, or write it as a move of its own")
     # Slips of typing, before what the parser expected is read.
     typed_before = line[:exc.column - 1] if exc.column > 0 else ""
     if typed_before.rstrip().endswith('\\"'):

@@ -481,3 +481,10 @@ def test_trace_stereo_names_a_centre_a_step_inverts(write):
         return next(a.GetProp("_CIPCode") for a in mol.GetAtoms() if a.HasProp("_CIPCode"))
     before, after = cip("C[C@@H](Br)CC"), cip("C[C@H](C#N)CC")   # the nitrile as the inverted carbon gives it
     assert f"configured centre C4: ({before}) before, ({after}) after" in result.output
+
+
+def test_trace_of_an_empty_file_prints_no_empty_state(write):
+    """An empty file printed `start`, a blank SMILES and a blank formula before its AR112."""
+    result = run("trace", write("empty.mech", ""))
+    assert result.exit_code == 1 and "AR112" in result.output
+    assert "SMILES" not in result.output and "start" not in result.output

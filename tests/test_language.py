@@ -401,6 +401,10 @@ SLIPS = [
     ("step closed by a brace",
      'step "a" {\n    :O1 -> C2\n}\n',
      1, 10, "unexpected `{`", "a move", "closed by `end`"),
+    # An atom left after the sink is read as the start of another move, and the parser stops at `end`.
+    ("atom after a move's sink",
+     'step "a"\n    C1=C2 -> C2 C1\nend\n',
+     3, 1, "unexpected `end`", "an arrow", "ends with `C1`, after its sink"),
     # The hint once wrote "'[OH2:1]'", the single quotes kept inside the double ones.
     ("SMILES in single quotes",
      "species w = '[OH2:1]'\n",

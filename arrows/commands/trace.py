@@ -46,7 +46,8 @@ def trace_command(file, stereo):
     charge, the bonds formed, broken and changed in order, and for each atom the step's moves
     touch its formal charge and lone pairs."""
     trace, diags = check_file(file)
-    if trace is None or trace.initial is None:
+    if trace is None or trace.initial is None or trace.initial.mol.GetNumAtoms() == 0:
+        # (an empty file has an empty starting state: no SMILES or formula to print)
         for d in diags:
             click.echo(d.to_text(), err=True)
         sys.exit(2 if any(d.code == "AR100" for d in diags) else 1)
