@@ -10,6 +10,9 @@ Sources:
 - Baldwin-Lusch 1982 (memory) for the enolate classes.
 """
 import json
+import subprocess
+import sys
+from pathlib import Path
 
 import pytest
 from click.testing import CliRunner
@@ -19,6 +22,8 @@ from rdkit.Chem.rdMolDescriptors import CalcMolFormula
 from arrows.api import check_file
 from arrows.cli import cli
 from arrows.judgement.closures import find_closures, with_atom_maps
+
+ROOT = Path(__file__).resolve().parents[1]
 
 
 def run(*args):
@@ -218,7 +223,7 @@ def test_a_map_number_used_twice_is_refused_as_check_refuses_it(tmp_path):
 def test_species_option_with_a_smiles_is_refused():
     """--species chooses among a .mech file's species; with a SMILES it was silently ignored."""
     result = run("CC(=O)CCCC(C)=O", "--species", "dione")
-    assert result.exit_code == 2 and "<SMILES>:1:1: error --species dione" in result.output
+    assert result.exit_code == 2 and "<SMILES>:1:1: error: --species dione" in result.output
     assert "hint:" in result.output
 
 
@@ -241,8 +246,24 @@ def test_pick_out_of_range_is_located_at_the_species(tmp_path):
     """Located at the SMILES as written (<SMILES>, or the species line of a .mech), not at a file
     named after the SMILES."""
     result = run("CC(=O)CCCC(C)=O", "--write", tmp_path / "d.mech", "--pick", 5)
-    assert result.exit_code == 2 and "<SMILES>:1:1: error there are 2 candidate(s); --pick 5" in result.output
+    assert result.exit_code == 2 and "<SMILES>:1:1: error: there are 2 candidate(s); --pick 5" in result.output
     mech = tmp_path / "dione.mech"
     mech.write_text('species base = "[OH-:20]"\nspecies dione = "CC(=O)CCCC(C)=O"\n', encoding="utf-8")
     result = run(mech, "--species", "dione", "--write", tmp_path / "d.mech", "--pick", 5)
-    assert result.exit_code == 2 and f"{mech}:2:18: error there are 2" in result.output
+    assert result.exit_code == 2 and f"{mech}:2:18: error: there are 2" in result.output
+
+
+def test_a_draft_never_replaces_a_file(tmp_path):
+    """`arrows closures x.mech --write x.mech` replaced the mechanism with the draft, exit 0; any
+    existing file is now left alone, as `arrows new` leaves it (exit 2, nothing written)."""
+    source = tmp_path / "dione.mech"
+    source.write_text((ROOT / "gallery" / "05-octanedione-cyclopentene.mech").read_text(encoding="utf-8"),
+                      encoding="utf-8")
+    other = tmp_path / "notes.mech"
+    other.write_text("# my own notes\n", encoding="utf-8")
+    before = (source.read_bytes(), other.read_bytes())
+    for target in (source, other):
+        done = subprocess.run([sys.executable, "-m", "arrows", "closures", str(source), "--write", str(target)],
+                              capture_output=True, text=True, timeout=120)
+        assert done.returncode == 2 and "hint:" in done.stderr and "Traceback" not in done.stderr, done.stderr
+    assert (source.read_bytes(), other.read_bytes()) == before

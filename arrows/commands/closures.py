@@ -17,7 +17,7 @@ from ..electrons import atom_label
 from ..judgement.closures import Closure, candidate_closures, with_atom_maps
 from ..judgement.skeleton import product_fragment, skeleton
 from ..rdkit_io import read_smiles
-from .output import emit
+from .output import emit, refuse_unsafe_outputs
 
 DRAWING_SUFFIXES = (".svg", ".png")
 # Names that no SMILES can be: an argument ending so is a file, even when it is missing.
@@ -179,6 +179,13 @@ def closures_command(species, species_name, fmt, max_ring, condense, draw_path, 
     out, with the reason. Atoms are named by map number; atoms without one are numbered, carbons
     first. Exit status: 0 listed, 2 unreadable input or bad usage.
     """
+    inputs = [species] if Path(species).is_file() else []
+    refuse_unsafe_outputs({"--draw": draw_path}, inputs)
+    refuse_unsafe_outputs({"--write": write_path}, inputs, writes_mechanism=True)
+    if write_path and Path(write_path).exists():
+        # A draft never replaces a file, as `arrows new` never does: it may be the author's work.
+        _fail(f"{write_path}:1:1", f"{write_path} already exists; nothing written",
+              "choose another name for the draft, or delete the file first")
     if draw_path and Path(draw_path).suffix.lower() not in DRAWING_SUFFIXES:
         _fail(f"{draw_path}:1:1", "the drawing is written as .svg or .png", f"for example --draw {Path(draw_path).stem}.svg")
     try:
@@ -269,5 +276,7 @@ def _draw(path: str, mol: Chem.Mol, found: list[Closure], texts: list[str], rows
 
 
 def _fail(where: str, message: str, hint: str) -> None:
-    click.echo(f"{where}: error {message}\n    hint: {hint}", err=True)
+    """`where: error CODE message` for a diagnostic with a code, `where: error: message` for bad usage."""
+    separator = " " if re.match(r"AR\d{3} ", message) else ": "
+    click.echo(f"{where}: error{separator}{message}\n    hint: {hint}", err=True)
     sys.exit(2)
