@@ -444,3 +444,17 @@ def test_an_epoxide_opened_at_its_far_carbon_is_also_named_endo():
     _, diags = check_text(text)
     (note,) = [d.message for d in diags if d.code == "AR601"]
     assert "6-exo-tet" in note and "6-endo mode" in note and "5-exo opening at C5" in note
+
+
+def test_a_metal_passed_along_a_four_centre_array_is_a_note():
+    """An ester's Grignard adduct collapses, MgBr going off with the methoxide (textbook Grignard
+    chemistry): the MgBr passes from O2 to O3 through a four-centre array and no ring is left.
+    It drew AR501 ("the ring is strained", with a hint pointing at five- and six-membered rings
+    that the substrate does not offer); such transfers go so (common practice)."""
+    text = ('species adduct = "C[C:1](C)([O:2][Mg:5]Br)[O:3]C"\n'
+            'step "collapse"\n    O2-Mg5 -> O2\n    :O2 -> C1=O2\n    C1-O3 -> O3\n    :O3 -> O3-Mg5\nend\n'
+            'product "CC(C)=O"\n')
+    _, diags = check_text(text, "collapse.mech")
+    assert not [d for d in diags if d.severity != "note"], [d.to_text() for d in diags]
+    (note,) = [d for d in diags if d.code == "AR601"]
+    assert "metal passed from atom to atom" in note.message

@@ -240,6 +240,13 @@ class RingClosures(Check):
         if c.closure is None:
             return Diagnostic("AR601", f"{opening} in a pericyclic step (electrons moving round a cyclic array of atoms); "
                               f"Baldwin's rules do not apply", c.loc or st.step.loc, **where)
+        passed_along = opening.endswith("no ring left)")
+        if passed_along and st.before.elements[c.attacked] in _METALS:
+            # A metal handed from one atom to the next through a four-centre array (MgBr going off with
+            # the methoxide of an ester's Grignard adduct; a lithium or zinc transfer): the usual
+            # path of such a transfer, no strained ring made (common practice).
+            return Diagnostic("AR601", f"{opening}: a metal passed from atom to atom through a {size}-centre array, "
+                              f"as such transfers go", c.loc or st.step.loc, **where)
         if st.before.elements[c.attacked] > 10:
             # Baldwin's rules are stated for first-row atoms (Baldwin 1976, memory): at a heavier
             # one (the iodine of a cyclic periodate ester, the phosphorus of an oxaphosphetane)
@@ -308,6 +315,11 @@ class RingClosures(Check):
                 continue
             return _describe(state.mol, option)
         return None
+
+
+# Metals that pass from one atom to another through a small cyclic array (Li, Na, Mg, Al, K, Ca, Ti,
+# Cu, Zn, Cd, Sn, Hg).
+_METALS = frozenset({3, 11, 12, 13, 19, 20, 22, 29, 30, 48, 50, 80})
 
 
 def _three_ring_partner(st: StepTrace, c: StepClosure) -> Optional[int]:
