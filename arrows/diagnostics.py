@@ -422,6 +422,15 @@ CODES = _table(
          'step "ionisation"\n'
          '    C2-O5 -> O5   # hydroxide leaves on its own: protonate O5 first\n'
          'end'),
+    Code("AR516", WARNING, "carbocation shift uphill",
+         "A 1,2-shift of a hydrogen or a carbon group to a carbocation leaves a less stabilised cation "
+         "where the group was (tertiary to secondary, or away from a neighbouring pi bond or lone pair). "
+         "Hydride and alkyl shifts run toward the more stable cation (common practice: the "
+         "Wagner-Meerwein and pinacol rearrangements); one drawn the other way is usually backwards.",
+         'species cation = "[CH3:1][C+:2]([CH3:5])[CH2:3][CH3:6]"\n'
+         'step "hydride shift"\n'
+         '    C3-H -> C2-H(C3)   # tertiary C2+ to secondary C3+: uphill\n'
+         'end'),
     Code("AR601", NOTE, "ring closure",
          "A step closes a ring; its size and Baldwin class are given. A pericyclic step (every arrow "
          "from a bond to a bond, round a closed loop that makes no charge; arrows that all start at "

@@ -193,6 +193,13 @@ step "retro-aldol"
 end
 '''
 
+# A 1,2-hydride shift from secondary C3+ to make the tertiary C2+ (textbook Wagner-Meerwein direction).
+HYDRIDE_SHIFT_DOWNHILL = '''species cation = "[CH3:1][CH:2]([CH3:5])[CH+:3][CH3:6]"
+step "hydride shift"
+    C2-H -> C3-H(C2)
+end
+'''
+
 TWINS = [
     # electron moves (AR2xx)
     Twin("arrow from a proton", ACID_BASE, ":O5 -> H(O4)", "H(O4) -> O5", "AR204", "H(O4) -> O5",
@@ -465,6 +472,12 @@ TWINS = [
     # before it leaves, as the hint once said; another bond is meant.
     Twin("carbanion as leaving group", RETRO_ALDOL_ALKOXIDE, "C4-C5 -> C4", "C5-C6 -> C6", "AR510", "C5-C6 -> C6",
          says=("C6", "carbanion"), hint_says=("does not leave", "stabilised anion"), alone=False),
+    # The shift drawn backwards: from the tertiary cation to the secondary one (common practice:
+    # 1,2-shifts run toward the more stable cation).
+    Twin("carbocation shift uphill", HYDRIDE_SHIFT_DOWNHILL,
+         '[CH:2]([CH3:5])[CH+:3][CH3:6]"\nstep "hydride shift"\n    C2-H -> C3-H(C2)',
+         '[C+:2]([CH3:5])[CH2:3][CH3:6]"\nstep "hydride shift"\n    C3-H -> C2-H(C3)', "AR516",
+         "C3-H -> C2-H(C3)", says=("secondary cation at C3", "tertiary one at C2"), hint_says=("more stable cation",)),
     Twin("alkoxide leaving as oxide", E1CB, "[OH:6]", "[O-:6]", "AR510", "C5-O6 -> O6", says=("oxide",),
          hint_says=("as hydroxide",), alone=False),
     Twin("amide ion as leaving group", CARBINOLAMINE, "[OH:2])([CH3:5])[NH+:3]", "[O-:2])([CH3:5])[N:3]",

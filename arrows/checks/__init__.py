@@ -62,14 +62,14 @@ def _registry() -> list[Check]:
         from .leaving import StrongBaseLeavingGroups
         from .protons import UphillProtonTransfers
         from .rings import RingClosures
-        from .shifts import MigrationAntiToLeavingGroup
+        from .shifts import CationShiftDirection, MigrationAntiToLeavingGroup
         from .stereo import StereoChanges
         from .structure import NothingAfterProduct, SomethingToCheck, StepsHaveMoves
         from .valence import UnusualElectronCounts
         from .written_stereo import WrittenConfigurationMatches
         _CHECK_CLASSES.extend([SomethingToCheck, NothingAfterProduct, StepsHaveMoves, UnusualElectronCounts,
                                ChargeAndAtomsConserved, RingClosures, CheckpointsMatch, UphillProtonTransfers,
-                               StereoChanges, MigrationAntiToLeavingGroup, StrongBaseLeavingGroups,
+                               StereoChanges, MigrationAntiToLeavingGroup, CationShiftDirection, StrongBaseLeavingGroups,
                                WrittenConfigurationMatches])
     return [cls() for cls in _CHECK_CLASSES]
 

@@ -56,3 +56,60 @@ class MigrationAntiToLeavingGroup(Check):
                         move.move.loc, hint=f"let the group trans to {label(leaving)} across "
                         f"{label(origin)}={label(destination)} migrate, or write the other isomer of the species",
                         atoms=(label(migrating), label(destination), label(leaving)), step=st.index)
+
+
+def cation_stability(mol: Chem.Mol, atom: int) -> int:
+    """A rank of the carbocation at `atom` (common practice): one per carbon substituent (methyl 0,
+    primary 1, secondary 2, tertiary 3), two more beside a pi bond or an arene (allyl, benzyl),
+    three more beside a heteroatom with a lone pair (an oxocarbenium or iminium form)."""
+    rank = 0
+    for n in mol.GetAtomWithIdx(atom).GetNeighbors():
+        z = n.GetAtomicNum()
+        if z == 6:
+            rank += 1
+            if n.GetIsAromatic() or any(b.GetBondTypeAsDouble() > 1 for b in n.GetBonds()):
+                rank += 2
+        elif z in (7, 8, 16) and n.GetFormalCharge() <= 0:
+            rank += 3
+    return rank
+
+
+_CATION_WORDS = {0: "a methyl", 1: "a primary", 2: "a secondary", 3: "a tertiary"}
+
+
+class CationShiftDirection(Check):
+    """AR516: a 1,2-shift of a hydrogen or a carbon group to a carbocation that leaves a less
+    stabilised cation behind (tertiary to secondary). Shifts run toward the more stable cation
+    (common practice: hydride and alkyl shifts in carbocation chemistry, the Wagner-Meerwein and
+    pinacol rearrangements); one that runs the other way is almost always drawn backwards."""
+    name = "cation shift direction"
+    codes = ("AR516",)
+
+    def step(self, st: StepTrace, context) -> Iterator[Diagnostic]:
+        before, after = st.before, st.after
+        if after is None:
+            return
+        for move in st.change.moves:
+            if move.source_kind != "bond" or len(move.sink_atoms) != 2:
+                continue
+            migrating, destination = move.sink_atoms
+            if migrating not in move.source_atoms:
+                continue
+            origin = next(i for i in move.source_atoms if i != migrating)
+            if after.mol.GetBondBetweenAtoms(origin, migrating) is not None:
+                continue   # a pi pair moving on (an allyl cation's other form), not a group shifting
+            if (before.elements[destination] != 6 or before.formal_charge(destination) != 1
+                    or before.nonbonding[destination] or after.elements[origin] != 6
+                    or after.formal_charge(origin) != 1 or after.nonbonding[origin]):
+                continue
+            was, now = cation_stability(before.mol, destination), cation_stability(after.mol, origin)
+            if now >= was:
+                continue
+            label = before.label
+            words = lambda rank: _CATION_WORDS.get(rank, "a stabilised")   # noqa: E731
+            yield Diagnostic(
+                "AR516", f"the shift of {label(migrating)} to {label(destination)} leaves {words(now)} cation at "
+                f"{label(origin)} for {words(was)} one at {label(destination)}: uphill", move.move.loc,
+                hint="1,2-shifts run toward the more stable cation; reverse the shift, or check which carbon "
+                     "carries the charge",
+                atoms=(label(migrating), label(destination), label(origin)), step=st.index)
