@@ -26,6 +26,17 @@ def trans_across(mol: Chem.Mol, first: int, a: int, b: int, second: int) -> Opti
     return (not cis) ^ (ref_a != first) ^ (ref_b != second)
 
 
+def shift_moves(st: StepTrace) -> Iterator[tuple]:
+    """(move, migrating atom, origin, destination) of each move that takes a bond's pair, with one
+    of its atoms, to a bond to another atom: `C3-H -> C2-H(C3)`, a group moving from C3 to C2."""
+    for move in st.change.moves:
+        if move.source_kind != "bond" or len(move.sink_atoms) != 2:
+            continue
+        migrating, destination = move.sink_atoms
+        if migrating in move.source_atoms:
+            yield move, migrating, next(i for i in move.source_atoms if i != migrating), destination
+
+
 class MigrationAntiToLeavingGroup(Check):
     name = "migrating group"
     codes = ("AR509",)
@@ -34,13 +45,7 @@ class MigrationAntiToLeavingGroup(Check):
         if st.after is None or not st.before.configured:
             return
         broken = {tuple(sorted(pair)) for pair in st.change.broken}
-        for move in st.change.moves:
-            if move.source_kind != "bond" or len(move.sink_atoms) != 2:
-                continue
-            migrating, destination = move.sink_atoms
-            if migrating not in move.source_atoms:
-                continue
-            origin = next(i for i in move.source_atoms if i != migrating)
+        for move, migrating, origin, destination in shift_moves(st):
             for pair in broken:
                 if destination not in pair:
                     continue
@@ -89,13 +94,7 @@ class CationShiftDirection(Check):
         before, after = st.before, st.after
         if after is None:
             return
-        for move in st.change.moves:
-            if move.source_kind != "bond" or len(move.sink_atoms) != 2:
-                continue
-            migrating, destination = move.sink_atoms
-            if migrating not in move.source_atoms:
-                continue
-            origin = next(i for i in move.source_atoms if i != migrating)
+        for move, migrating, origin, destination in shift_moves(st):
             if after.mol.GetBondBetweenAtoms(origin, migrating) is not None:
                 continue   # a pi pair moving on (an allyl cation's other form), not a group shifting
             if (before.elements[destination] != 6 or before.formal_charge(destination) != 1
