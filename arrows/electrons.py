@@ -800,6 +800,28 @@ def _settle(state: ElectronState, step: Step, step_index: int, replay: _StepRepl
             change, diags)
 
 
+def _radical_adds_hint(state: ElectronState, step: Step, replay: "_StepReplay", key: Pair) -> Optional[str]:
+    """For a new bond given a radical's electron by a fishhook and a pair by a pair arrow from a pi
+    bond (three electrons): a radical adds to a pi bond with fishhooks, one electron of the pi bond
+    pairing with the radical's, the other left at the far end (common practice). Told as such,
+    since writing the radical's arrow as a pair arrow (what a lone fishhook among pair arrows is
+    otherwise told) cannot be: a single electron is no pair."""
+    def into_bond(move: Move) -> bool:
+        sink = move.sink
+        return isinstance(sink, BondSink) and {replay.resolve(sink.bond.first), replay.resolve(sink.bond.second)} == set(key)
+    radical = next((m for m in step.moves if m.electrons == 1 and isinstance(m.source, UnpairedElectron) and into_bond(m)),
+                   None)
+    pair = next((m for m in step.moves if m.electrons == 2 and isinstance(m.source, BondPair) and into_bond(m)), None)
+    if radical is None or pair is None:
+        return None
+    ends = {replay.resolve(pair.source.bond.first), replay.resolve(pair.source.bond.second)}
+    far = [end for end in ends if end not in key]
+    if len(far) != 1:
+        return None
+    return (f"a radical adds to a pi bond with fishhooks: one electron of {pair.source} pairs with the radical's "
+            f"(`{pair.source} ~> {pair.sink}`), the other stays at the far end (`{pair.source} ~> {state.label(far[0])}`)")
+
+
 def _bond_faults(state: ElectronState, step: Step, step_index: int, replay: _StepReplay, key: Pair,
                  before: int, after: int) -> list[Diagnostic]:
     """AR303 (an odd electron count), AR302 (beyond triple), AR305 (a sigma bond made or broken in
@@ -817,13 +839,16 @@ def _bond_faults(state: ElectronState, step: Step, step_index: int, replay: _Ste
             # A bond split by fishhooks gives one electron to each side: one went, the other is
             # still to be moved (the pi bond of an alkene a radical adds to).
             sink = first.sink
-            reached = {replay.resolve(sink.atom)} if isinstance(sink, AtomSink) else {
+            reached = {replay.resolve(sink.atom)} if isinstance(sink, (AtomSink, NonbondingSink)) else {
                 replay.resolve(sink.bond.first), replay.resolve(sink.bond.second)}
             left = [end for end in key if end not in reached]
             hint = "a bond split by fishhooks sends one electron to each side"
             if len(left) == 1:
                 hint += f": add `{first.source} ~> {state.label(left[0])}`"
-        if first.electrons == 1 and len(step.moves) > 1 and all(m.electrons == 2 for m in step.moves if m is not first):
+        radical_hint = _radical_adds_hint(state, step, replay, key)
+        if radical_hint:
+            hint = radical_hint
+        elif first.electrons == 1 and len(step.moves) > 1 and all(m.electrons == 2 for m in step.moves if m is not first):
             # One fishhook among pair arrows: most often `~>` typed for `->`.
             hint = (f"the step's other arrows move pairs: if this one does too, write `{first.source} -> {first.sink}`; "
                     f"otherwise, {hint}")

@@ -148,3 +148,13 @@ def test_a_nitrene_is_not_called_a_cation():
     _, diags = check_text(text)
     (d,) = [d for d in diags if d.code == "AR505"]
     assert "a nitrene" in d.message and "cation" not in d.message
+
+
+def test_a_fishhook_from_a_bond_onto_another_atom_s_nonbonding_is_diagnosed():
+    """`C12-O13 ~> :C1`, a fishhook from a bond onto a third atom with no bond made: the AR303
+    hint read the sink as a bond and raised an AttributeError (found by the random-move property
+    test). It is AR303 at the move, with its hint."""
+    text = 'species a = "[CH3:1][CH2:12][OH:13]"\nstep "s"\n    C12-O13 ~> :C1\nend\n'
+    _, diags = check_text(text)
+    (d,) = [d for d in diags if d.code == "AR303"]
+    assert (d.loc.line, d.loc.column) == (3, 5) and "one electron to each side" in d.hint
