@@ -8,7 +8,7 @@ import math
 from collections import Counter
 from dataclasses import dataclass, field, replace
 from functools import lru_cache
-from itertools import takewhile
+from itertools import combinations, takewhile
 from typing import Optional, Sequence
 
 import numpy as np
@@ -555,7 +555,8 @@ class _SceneBuilder:
         units: list[list[_Item]] = [[items[0]]] + [items[k:k + 2] for k in range(1, len(items), 2)]
         widths = [sum(i.width for i in u) + gap * (len(u) - 1) for u in units]
         widest = max(widths)
-        rows = [[item for k in row for item in units[k]] for row in _balanced_rows(widths, gap, avail)]
+        extents = [(max(i.above for i in u), max(i.below for i in u)) for u in units]
+        rows = [[item for k in row for item in units[k]] for row in _chosen_rows(widths, extents, gap, avail)]
         self.fit = min(1.0, avail / widest) if widest > avail else 1.0
 
         texts: list[TextRun] = []
@@ -625,19 +626,39 @@ def _rows_within(widths: list[float], gap: float, limit: float) -> list[list[int
     return rows
 
 
-def _balanced_rows(widths: list[float], gap: float, avail: float) -> list[list[int]]:
-    """As few rows as fit the page, made as even as they can be: the narrowest limit that needs no
-    more rows than packing to the full width. Filled to the page, a scheme of four equal steps
-    wraps three and one, with half a row left empty; balanced it wraps two and two (an editor's
-    first request of a wrapped scheme)."""
-    fewest = len(_rows_within(widths, gap, avail))
-    if fewest == 1:
-        return [list(range(len(widths)))]
-    spans = sorted({sum(widths[a:b]) + gap * (b - a - 1) for a in range(len(widths)) for b in range(a + 1, len(widths) + 1)})
-    for limit in spans:   # the narrowest row any packing can have as its widest, upward
-        if limit >= max(widths) - 1e-9 and len(_rows_within(widths, gap, limit)) <= fewest:
-            return _rows_within(widths, gap, limit)
-    return _rows_within(widths, gap, avail)
+_MOST_WRAPPINGS = 20_000   # ways of wrapping weighed one by one; a longer scheme is filled row by row
+
+
+def _chosen_rows(widths: list[float], extents: list[tuple[float, float]], gap: float, avail: float
+                 ) -> list[list[int]]:
+    """The units (by index, in order) wrapped into as few rows as fit the page (as filling each
+    row before the next gives), then, of the ways to wrap them into that many rows, one no wider
+    than the page whose rows stand least tall together (page height is what a journal counts),
+    and among those within 10% of the least, the most even, its widest row narrowest (a scheme
+    of four equal steps wraps two and two, not three and one with half a row empty; an editor's
+    first request of a wrapped scheme), the earlier rows fuller at a tie. `extents`: each unit's
+    height above and below the row's centre line."""
+    greedy = _rows_within(widths, gap, avail)
+    count = len(greedy)
+    if count == 1 or count > len(widths) - 1 or math.comb(len(widths) - 1, count - 1) > _MOST_WRAPPINGS:
+        return greedy
+
+    def span(a: int, b: int) -> float:
+        return sum(widths[a:b]) + gap * (b - a - 1)
+
+    options = []
+    for cuts in combinations(range(1, len(widths)), count - 1):
+        bounds = (0,) + cuts + (len(widths),)
+        rows = [list(range(a, b)) for a, b in zip(bounds, bounds[1:])]
+        row_widths = [span(a, b) for a, b in zip(bounds, bounds[1:])]
+        if any(w > avail + 1e-6 and len(r) > 1 for w, r in zip(row_widths, rows)):
+            continue   # wider than the page (a single unit wider than it is shrunk to fit anyway)
+        height = sum(max(extents[k][0] for k in r) + max(extents[k][1] for k in r) for r in rows)
+        options.append((height, max(row_widths), [-len(r) for r in rows], rows))
+    if not options:
+        return greedy
+    least = min(o[0] for o in options)
+    return min((o for o in options if o[0] <= 1.1 * least), key=lambda o: (o[1], o[2]))[3]
 
 
 def _hydrogens_of_small_by_products(state: ElectronState) -> frozenset[int]:
