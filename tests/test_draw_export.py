@@ -343,6 +343,11 @@ def test_a_font_that_is_not_installed_is_noted():
     serif = arrows.draw.build_scene(trace, STYLES["two-column"].with_options(font_family="DejaVu Serif"), diags)
     assert any("'No Such Family' is not installed" in note for note in missing.notes)
     assert not any("not installed" in note for note in serif.notes)
+    # The default spelled otherwise, a generic family or a list beginning with an installed one
+    # resolve to an installed font: they were called missing, being measured like the fallback.
+    for spelled in ("dejavu sans", " DejaVu Sans ", "sans-serif", "DejaVu Sans, Arial"):
+        scene = arrows.draw.build_scene(trace, STYLES["two-column"].with_options(font_family=spelled), diags)
+        assert not any("not installed" in note for note in scene.notes), spelled
 
 
 def test_a_charge_sign_on_a_bond_line_is_noted():

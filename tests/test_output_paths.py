@@ -126,3 +126,47 @@ def test_a_data_set_checked_into_itself_is_refused(tmp_path):
     before = records.read_bytes()
     refused(arrows("check", "--jsonl", "set.jsonl", "-o", "set.jsonl", cwd=tmp_path), "set.jsonl")
     assert records.read_bytes() == before
+
+
+@pytest.mark.parametrize("args,at,says", [
+    (["collect", "clob", "-o", "out/y.pdf", "--junit", "out/y.pdf"], "out/y.pdf", "also given to -o"),
+    (["collect", "clob", "-o", "out/y.pdf", "--report", "out/r.json", "--junit", "out/r.json"], "out/r.json",
+     "also given to --report"),
+    (["collect", "clob", "-o", "out/y.pdf", "--report", "out/y-figures/index.html"], "out/y-figures/index.html",
+     "every run replaces whole"),
+    (["collect", "clob", "-o", "out/y.pdf", "--report", "nowhere/r.json"], "nowhere/r.json", "does not exist"),
+    (["collect", "clob", "-o", "out/y.pdf", "--report", "-"], "-", "standard output"),
+    (["collect", "clob", "-o", ".pdf"], ".pdf", "hidden file"),
+], ids=["junit over the document", "junit over the report", "report in the figures folder", "missing folder",
+        "report to stdout", "nameless document"])
+def test_outputs_that_would_replace_each_other_or_cannot_be_written_are_refused_first(project, args, at, says):
+    """`--junit out/y.pdf` replaced the document it was given beside (exit 0), `--report` inside the
+    figures folder was wiped by the next run, a report into a missing folder failed only after every
+    scheme was drawn (the document already replaced), `--report -` wrote a file named `-`. Each is
+    refused before any work: nothing is written."""
+    (project / "out").mkdir()
+    done = arrows(*args, cwd=project)
+    refused(done, at)
+    assert says in done.stderr
+    assert not any((project / "out").iterdir())
+
+
+def test_a_data_set_read_from_standard_input_is_not_written_over(tmp_path):
+    """`arrows check --jsonl - -o set.jsonl < set.jsonl` replaced the data set with its results."""
+    records = tmp_path / "set.jsonl"
+    records.write_text('{"id": "r1", "text": "species w = \\"[OH2:1]\\""}\n', encoding="utf-8")
+    before = records.read_bytes()
+    with records.open("rb") as stdin:
+        done = subprocess.run(["arrows", "check", "--jsonl", "-", "-o", "set.jsonl"], stdin=stdin,
+                              capture_output=True, text=True, cwd=tmp_path, timeout=120)
+    refused(done, "set.jsonl")
+    assert records.read_bytes() == before
+
+
+def test_a_folder_walk_reads_an_upper_case_suffix(tmp_path):
+    """`arrows draw A.MECH` reads the file, but a folder walk skipped it without a word."""
+    (tmp_path / "up").mkdir()
+    shutil.copy(GALLERY[0], tmp_path / "up" / "A.MECH")
+    shutil.copy(GALLERY[1], tmp_path / "up" / "b.mech")
+    done = arrows("check", "up", cwd=tmp_path)
+    assert "2 files checked" in done.stdout + done.stderr, done.stdout + done.stderr

@@ -38,7 +38,8 @@ def mech_files_below(folder: Path) -> list[Path]:
     found = []
     for top, folders, files in os.walk(folder):
         folders[:] = [name for name in folders if not name.startswith(".")]
-        found += [Path(top, name) for name in files if name.endswith(SUFFIX) and not name.startswith(".")]
+        # (A.MECH too: the suffix is read without regard to case, as `arrows draw A.MECH` reads it.)
+        found += [Path(top, name) for name in files if name.lower().endswith(SUFFIX) and not name.startswith(".")]
     return sorted(p for p in found if p.is_file())
 
 

@@ -45,7 +45,7 @@ def check_command(files, fmt, strict, quiet, jsonl, output, jobs, cluster, pka_g
     if jsonl is not None:
         if files:
             raise click.UsageError("give mechanism FILES or --jsonl FILE, not both")
-        refuse_unsafe_outputs({"-o": output}, [jsonl] if jsonl != "-" else [])
+        refuse_unsafe_outputs({"-o": output}, [jsonl])   # `-`: the file standard input was redirected from
         sys.exit(_check_jsonl(jsonl, output, jobs, cluster, strict, quiet))
     if not files:
         raise click.UsageError("give at least one mechanism file (or --jsonl FILE)")

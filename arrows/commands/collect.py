@@ -56,7 +56,7 @@ def collect_command(inputs, output, style, paper, flow, prefix, title, authors, 
     130 interrupted. An unfinished run leaves the previous output as it was.
     """
     from .. import __version__
-    from ..batch.collection import CollectSettings, OutputInUse, collect
+    from ..batch.collection import FOLDER_SUFFIX, CollectSettings, OutputInUse, collect
     from ..batch.pages import Front
     from ..batch.parallel import WorkerDied, default_jobs
     from ..batch.reports import write_junit, write_report
@@ -66,7 +66,9 @@ def collect_command(inputs, output, style, paper, flow, prefix, title, authors, 
         sources = find_sources(list(inputs))
     except NoSources as exc:
         raise click.UsageError(str(exc))
-    refuse_unsafe_outputs({"-o": output, "--report": report, "--junit": junit}, [s.path for s in sources])
+    refuse_unsafe_outputs({"-o": output, "--report": report, "--junit": junit}, [s.path for s in sources],
+                          stdout=False, inside=Path(output).with_name(Path(output).stem + FOLDER_SUFFIX),
+                          makes_its_folder=("-o",))
     if Path(output).suffix.lower() != ".pdf":
         refuse(output, f"-o {output} does not end in .pdf: collect writes one PDF document (the figures' SVG "
                        "and PDF files go in the folder beside it)",

@@ -42,38 +42,70 @@ def refuse(path, message: str, hint: str) -> NoReturn:
 
 
 def refuse_unsafe_outputs(outputs: dict[str, Optional[str]], inputs: Iterable[Union[str, Path]],
-                          writes_mechanism: bool = False) -> None:
-    """Stop before any work when an output (option name: path; None or `-` when not given) would
-    destroy an input or cannot be the file it names: one of the inputs, however reached (another
-    spelling, a symlink); a name ending in .mech, which a later batch would read as a mechanism
-    (unless the command writes mechanism text: `writes_mechanism`); a name ending in a slash,
-    which names a folder."""
+                          writes_mechanism: bool = False, stdout: bool = True,
+                          inside: Optional[Path] = None, makes_its_folder: tuple[str, ...] = ()) -> None:
+    """Stop before any work when an output (option name: path; None when not given; `-` standard
+    output, where `stdout` allows it) would destroy an input or another output, or cannot be the
+    file it names: one of the inputs, however reached (another spelling, a symlink; `-` among the
+    inputs is standard input, the file it was redirected from); another of the outputs; a file
+    inside the folder `inside` (collect's figures folder, replaced whole on every run); a name
+    ending in .mech, which a later batch would read as a mechanism (unless the command writes
+    mechanism text: `writes_mechanism`); a name ending in a slash, or one with nothing before its
+    extension (`.pdf`, a hidden file); a folder that does not exist, found before the work (except
+    for the options in `makes_its_folder`, whose command makes it: collect's document)."""
     inputs_by_file = {}
     for path in inputs:
         identity = _file_identity(path)
         if identity is not None:
             inputs_by_file.setdefault(identity, path)
+    given: dict[Path, str] = {}
+    # The folders the command makes on the way to the outputs it makes a folder for: others may go there.
+    made = {folder for option in makes_its_folder if outputs.get(option) not in (None, "-")
+            for folder in Path(os.path.abspath(outputs[option])).parents}
     for option, output in outputs.items():
-        if output is None or output == "-":
+        if output is None:
             continue
+        if output == "-":
+            if stdout:
+                continue
+            refuse(output, f"{option} - names standard output, which cannot hold this file",
+                   f"name a file: {option} out/{option.strip('-') or 'output'}")
         if not output.strip():
             raise click.BadParameter("an empty name: give a file name", param_hint=option)
         source = inputs_by_file.get(_file_identity(output))
         if source is not None:
-            refuse(output, f"{option} {output} is the input {source}: writing it would replace that input",
+            shown = "read from standard input" if str(source) == "-" else str(source)
+            refuse(output, f"{option} {output} is the input {shown}: writing it would replace that input",
                    f"give {option} another file name")
         if output.endswith(("/", os.sep)):
             refuse(output, f"{option} {output} names a folder; it takes a file name",
                    f"name the file inside the folder: {option} {output}NAME")
+        name = Path(output).name
+        if name.startswith(".") and "." not in name[1:]:
+            refuse(output, f"{option} {output} has nothing before its extension: it would be a hidden file",
+                   f"give it a name: {option} {Path(output).with_name('out' + name)}")
         if Path(output).suffix.lower() == ".mech" and not writes_mechanism:
             refuse(output, f"{option} {output} ends in .mech, the name of a mechanism file",
                    "name the output for what it holds: figure.svg, si.pdf, report.json")
+        where = Path(os.path.abspath(output))
+        if where in given:
+            refuse(output, f"{option} {output} is also given to {given[where]}: one would replace the other",
+                   f"give {option} a file name of its own")
+        given[where] = option
+        if inside is not None and Path(os.path.abspath(inside)) in where.parents:
+            refuse(output, f"{option} {output} is inside {inside}, which every run replaces whole",
+                   f"write {option} beside that folder")
+        folder = (_folder_problem(Path(output)) if option not in makes_its_folder
+                  and Path(os.path.abspath(output)).parent not in made else None)
+        if folder is not None:
+            refuse(output, f"cannot write {output}: {folder}", "check that the folder exists and is writable")
 
 
 def _file_identity(path) -> Optional[tuple[int, int]]:
-    """The file a path leads to (device and inode, through any symlink); None when there is none."""
+    """The file a path leads to (device and inode, through any symlink; `-`: the file standard
+    input reads from); None when there is none."""
     try:
-        found = os.stat(path)
+        found = os.fstat(sys.stdin.fileno()) if str(path) == "-" else os.stat(path)
     except (OSError, ValueError):
         return None
     return found.st_dev, found.st_ino

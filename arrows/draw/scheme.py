@@ -205,6 +205,7 @@ def _glyphs_wanting(trace: Trace, style: Style) -> tuple[str, ...]:
 # A family no system has: what the font machinery falls back to when a family is not installed.
 _NO_SUCH_FAMILY = "arrows-no-such-font"
 _PROBE = "HONClBrNa+0123456789"
+_GENERIC_FAMILIES = frozenset({"sans-serif", "sans", "serif", "monospace", "cursive", "fantasy", "system-ui"})
 
 
 def _font_missing(style: Style) -> tuple[str, ...]:
@@ -213,9 +214,12 @@ def _font_missing(style: Style) -> tuple[str, ...]:
     metrics: a family measured exactly as the fallback is taken for it (a metric twin of the
     fallback would be noted too, harmlessly)."""
     family = style.font_family
-    if family == Style.font_family:
+    # The first of a list (`DejaVu Sans, Arial`), as written but for quotes, case and spaces; a
+    # generic family names no font to be missing (fontconfig picks one), nor does the default.
+    first = family.split(",")[0].strip().strip("'\"").strip()
+    if first.lower() in _GENERIC_FAMILIES | {Style.font_family.lower()}:
         return ()
-    probe, fallback = FontFace(family), FontFace(_NO_SUCH_FAMILY)
+    probe, fallback = FontFace(first), FontFace(_NO_SUCH_FAMILY)
     if probe.width(_PROBE, 1.0) != fallback.width(_PROBE, 1.0) or probe.cap_height != fallback.cap_height:
         return ()
     return (f"the font {family!r} is not installed here: the figure is measured and printed in the system's "
