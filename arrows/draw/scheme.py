@@ -295,12 +295,13 @@ def _signs_on_bonds(scene: Scene) -> tuple[str, ...]:
     face = FontFace(scene.style.font_family)
     for panel in scene.panels:
         ox, oy = panel.origin
+        signs = [m for m in panel.marks if m.kind == "charge" and m.runs]
+        if not signs:
+            continue
         lines = [(complex(a[0] + ox, a[1] + oy), complex(b[0] + ox, b[1] + oy)) for bond in panel.bonds
                  for a, b in bond.lines]
         names = {a.index: a.name for a in panel.atoms}
-        for mark in panel.marks:
-            if mark.kind != "charge" or not mark.runs:
-                continue
+        for mark in signs:
             run = mark.runs[-1]   # the sign (a count such as 2 stands before it)
             width = face.width(run.text, run.size)
             sign_width = face.width(run.text[-1], run.size)
@@ -309,7 +310,10 @@ def _signs_on_bonds(scene: Scene) -> tuple[str, ...]:
             half = 0.3 * run.size if run.text.endswith("+") else 0.06 * run.size
             ink = Box(run.x + width - 0.85 * sign_width + ox, middle - half + oy, run.x + width - 0.15 * sign_width + ox,
                       middle + half + oy)
-            if any(segment_hits_box(a, b, ink) for a, b in lines):
+            # (a line wholly to one side of the ink is passed over before the clipping test)
+            if any(segment_hits_box(a, b, ink) for a, b in lines
+                   if min(a.real, b.real) <= ink.x1 and max(a.real, b.real) >= ink.x0
+                   and min(a.imag, b.imag) <= ink.y1 and max(a.imag, b.imag) >= ink.y0):
                 notes.append(f"panel {panel.index + 1}: the charge of {names.get(mark.atom, 'an atom')} touches a bond "
                              f"line, where it reads as part of the structure; check the figure")
                 break
