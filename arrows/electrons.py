@@ -800,6 +800,21 @@ def _settle(state: ElectronState, step: Step, step_index: int, replay: _StepRepl
             change, diags)
 
 
+def _polar_step_in_fishhooks(state: ElectronState, step: Step, replay: "_StepReplay") -> bool:
+    """Whether every arrow of the step is a fishhook though nothing in it is a radical's: no arrow
+    starts at an unpaired electron and no bond sends one electron to each of its own atoms (a
+    homolysis), while one starts at a lone pair (the proton transfer of a polar step written in
+    fishhooks: `:O4 ~> H(C3)`, `C3-H ~> C2=C3`)."""
+    moves = step.moves
+    if not moves or any(m.electrons != 1 or isinstance(m.source, UnpairedElectron) for m in moves):
+        return False
+    if not any(isinstance(m.source, LonePair) for m in moves):
+        return False
+    own_ends = [m for m in moves if isinstance(m.source, BondPair) and isinstance(m.sink, (AtomSink, NonbondingSink))
+                and replay.resolve(m.sink.atom) in {replay.resolve(m.source.bond.first), replay.resolve(m.source.bond.second)}]
+    return not own_ends
+
+
 def _radical_adds_hint(state: ElectronState, step: Step, replay: "_StepReplay", key: Pair) -> Optional[str]:
     """For a new bond given a radical's electron by a fishhook and a pair by a pair arrow from a pi
     bond (three electrons): a radical adds to a pi bond with fishhooks, one electron of the pi bond
@@ -848,6 +863,10 @@ def _bond_faults(state: ElectronState, step: Step, step_index: int, replay: _Ste
         radical_hint = _radical_adds_hint(state, step, replay, key)
         if radical_hint:
             hint = radical_hint
+        elif _polar_step_in_fishhooks(state, step, replay):
+            hint = ("every arrow of this step is a fishhook, yet none starts at an unpaired electron and no "
+                    "bond splits evenly: a polar step (a proton transfer, an addition) moves pairs, "
+                    "so write each arrow `->`")
         elif first.electrons == 1 and len(step.moves) > 1 and all(m.electrons == 2 for m in step.moves if m is not first):
             # One fishhook among pair arrows: most often `~>` typed for `->`.
             hint = (f"the step's other arrows move pairs: if this one does too, write `{first.source} -> {first.sink}`; "

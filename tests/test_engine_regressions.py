@@ -158,3 +158,19 @@ def test_a_fishhook_from_a_bond_onto_another_atom_s_nonbonding_is_diagnosed():
     _, diags = check_text(text)
     (d,) = [d for d in diags if d.code == "AR303"]
     assert (d.loc.line, d.loc.column) == (3, 5) and "one electron to each side" in d.hint
+
+
+def test_a_polar_step_written_in_fishhooks_is_told_to_move_pairs():
+    """Water taking a beta proton from the tert-amyl cation (textbook E1) written with fishhooks:
+    three AR303s whose hints asked for a fourth fishhook (a hydrogen atom) or for no bond at all.
+    No radical takes part: every hint says a polar step moves pairs."""
+    text = ('species cation = "[CH3:1][C+:2]([CH3:5])[CH2:3][CH3:6]"\nspecies water = "[OH2:4]"\n'
+            'step "deprotonation"\n    :O4 ~> H(C3)\n    C3-H ~> C2=C3\nend\n')
+    _, diags = check_text(text)
+    found = [d for d in diags if d.code == "AR303"]
+    assert found and all("moves pairs" in d.hint and "`->`" in d.hint for d in found)
+    # A radical chain step keeps its own hints: a bromine atom taking a hydrogen (three fishhooks).
+    radical = ('species bromine = "[Br:1]"\nspecies methane = "[CH4:2]"\nstep "abstraction"\n'
+               '    .Br1 ~> Br1-H(C2)\n    C2-H ~> Br1-H(C2)\nend\n')
+    _, diags = check_text(radical)
+    assert not any("moves pairs" in (d.hint or "") for d in diags)
