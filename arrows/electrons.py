@@ -491,7 +491,11 @@ class _StepReplay:
             sink = move.sink
             taker = (self.map_index.get(sink.atom.map_number)
                      if isinstance(sink, AtomSink) and not isinstance(sink.atom, HydrogenOn) else None)
-            if taker is not None and self.nonbonding(taker) >= 2:
+            if nb == 1:
+                # A radical centre: its one electron moves by a fishhook, not as a pair.
+                why += " (it carries one unpaired electron)"
+                hint = f"a radical's electron moves by a fishhook: `.{src.atom} ~> {move.sink}`"
+            elif taker is not None and self.nonbonding(taker) >= 2:
                 # An arrow drawn from the electrophile to the nucleophile: the commonest reversal.
                 hint += f"; the arrow may run backwards, from the electrons to the atom that takes them: `:{sink.atom} -> {src.atom}`"
             self.fail("AR201", why, src.loc, hint, atoms=(label,))
