@@ -289,8 +289,8 @@ TWINS = [
          "    C3=C4 -> S2-C3\n", "AR303", ".S2 ~> S2-C3", says=("3 electrons",),
          hint_says=("`C3=C4 ~> S2-C3`", "`C3=C4 ~> C4`")),
     # A radical's electron written as a lone pair: the hint said only where arrows may start.
-    Twin("radical written as a lone pair", THIYL_ADDITION, ".S2 ~> S2-C3", ":S2 ~> S2-C3", "AR201", ":S2 ~> S2-C3",
-         says=("one unpaired electron",), hint_says=("`.S2 ~> S2-C3`",)),
+    Twin("radical written as a lone pair", RADICALS, ".C1 ~> C1-C2", ":C1 ~> C1-C2", "AR201", ":C1 ~> C1-C2",
+         says=("one unpaired electron",), hint_says=("`.C1 ~> C1-C2`",)),
     Twin("pair arrow from one electron", RADICALS, ".C1 ~> C1-C2", ".C1 -> C1-C2", "AR209", ".C1 -> C1-C2",
          hint_says=("~>",)),
     Twin("lone pair to its own atom", SN2, ":O1 -> C2", ":O1 -> O1", "AR210", ":O1 -> O1", sink=True),
