@@ -1000,6 +1000,16 @@ def _room_making_hint(state: ElectronState, i: int, changes: dict[Pair, tuple[in
         # of its bond stays on the atom it leaves, written as the language writes an X-H bond.
         holder = kept[0][0]
         hydrogen = "H" if label(i).startswith("H(") else label(i)   # C3-H for C3's, H5 for a mapped one
+        short = _short_of_a_pair(state, changes, replay, exclude=(i, holder))
+        beside = state.mol.GetBondBetweenAtoms(holder, short) if short is not None else None
+        if beside is not None:
+            # The missing arrow of a concerted step (an ene reaction's C-H pair going on into the new
+            # C=C): the pair goes to the neighbour this step leaves short of one.
+            order_after = int(beside.GetBondTypeAsDouble()) + 1
+            connector = "=" if order_after == 2 else "#"
+            return (f"the bond that holds {label(i)} must break in the same step, its pair going on to "
+                    f"{label(short)}, left short of a pair by this step: "
+                    f"`{label(holder)}-{hydrogen} -> {label(short)}{connector}{label(holder)}`")
         return (f"the bond that holds {label(i)} must break in the same step: "
                 f"`{label(holder)}-{hydrogen} -> {label(holder)}`")
     leaving = [j for j, order in kept if state.elements[j] in _LEAVING_ELEMENTS]

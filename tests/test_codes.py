@@ -291,6 +291,10 @@ TWINS = [
     # A radical's electron written as a lone pair: the hint said only where arrows may start.
     Twin("radical written as a lone pair", RADICALS, ".C1 ~> C1-C2", ":C1 ~> C1-C2", "AR201", ":C1 ~> C1-C2",
          says=("one unpaired electron",), hint_says=("`.C1 ~> C1-C2`",)),
+    # The carbonyl-ene with its C-H arrow left out: the hint once sent the C-H pair onto C3, a
+    # carbanion beside the carbocation; it goes on into C2=C3 (textbook ene reaction).
+    Twin("ene reaction missing its C-H arrow", TEXTBOOK["ene reaction"][0], "    C3-H -> C2=C3\n", "", "AR301",
+         "C4=O5 -> O5-H(C3)", says=("H(C3)",), hint_says=("`C3-H -> C2=C3`",)),
     Twin("pair arrow from one electron", RADICALS, ".C1 ~> C1-C2", ".C1 -> C1-C2", "AR209", ".C1 -> C1-C2",
          hint_says=("~>",)),
     Twin("lone pair to its own atom", SN2, ":O1 -> C2", ":O1 -> O1", "AR210", ":O1 -> O1", sink=True),
