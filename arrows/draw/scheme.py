@@ -463,8 +463,13 @@ class _SceneBuilder:
         for text, kind in pieces:
             size = self._piece_size(kind)
             shift = 0.3 * fs if kind == "sub" else -0.38 * fs if kind == "sup" else 0.0
-            runs.append(TextRun(text, x, baseline + shift, size))
-            x += self.face.width(text, size)
+            # A run that starts with spaces starts after them: SVG renderers drop a text element's
+            # leading spaces ("H2SO4 (cat.)" printed as "H2SO4(cat.)").
+            stripped = text.lstrip(" ")
+            x += self.face.width(text[:len(text) - len(stripped)], size)
+            if stripped:
+                runs.append(TextRun(stripped, x, baseline + shift, size))
+            x += self.face.width(stripped, size)
         return runs
 
     def _arrow_item(self, spec: _ArrowSpec) -> _Item:
