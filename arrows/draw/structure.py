@@ -812,7 +812,13 @@ class StructureDrawer:
         centre = out.positions[i]
         reach = self.style.bond_length
         strokes = None
-        for x in (box.x1 + 0.03 * size, box.x0 - 0.03 * size - width):
+        places = [box.x1 + 0.03 * size]
+        # Before the label only if the symbol begins it: before "HO" a sign reads as the H's ("-HO").
+        x_atom = out.positions[i].real
+        if not any(r.x + self.face.width(r.text, r.size) <= x_atom - 1e-9 and abs(r.y - baseline_y) < 0.5 * self.style.font_size
+                   for r in drawing.runs):
+            places.append(box.x0 - 0.03 * size - width)
+        for x in places:
             run = TextRun(text, x, baseline, size)
             tb = self.text_box(run)
             grown = Box(tb.x0 - 0.1 * size, tb.y0 - 0.1 * size, tb.x1 + 0.1 * size, tb.y1 + 0.1 * size)
