@@ -174,3 +174,13 @@ def test_a_polar_step_written_in_fishhooks_is_told_to_move_pairs():
                '    .Br1 ~> Br1-H(C2)\n    C2-H ~> Br1-H(C2)\nend\n')
     _, diags = check_text(radical)
     assert not any("moves pairs" in (d.hint or "") for d in diags)
+
+
+def test_a_ring_widening_shift_to_a_less_substituted_cation_is_not_called_uphill():
+    """A cyclobutylcarbinyl cation (tertiary) expands to a cyclopentyl one (secondary): the strain
+    released outweighs the substitution lost (textbook ring expansion, common practice), so AR516,
+    which warns on tertiary-to-secondary shifts, leaves it alone."""
+    text = ('species cation = "C[C+:1](C)[CH:2]1[CH2:3][CH2:4][CH2:5]1"\nstep "ring expansion"\n'
+            '    C2-C3 -> C1-C3\nend\n')
+    _, diags = check_text(text)
+    assert not [d for d in diags if d.code == "AR516"], [d.to_text() for d in diags]

@@ -45,7 +45,7 @@ def conjugate_acid(mol: Chem.Mol, atom: int) -> Optional[Acidity]:
     return acidity_of(perceived(work.GetMol()), atom)
 
 
-def _in_small_ring(mol: Chem.Mol, a: int, b: int) -> bool:
+def in_small_ring(mol: Chem.Mol, a: int, b: int) -> bool:
     """Whether the bond a-b lies on a ring of three or four atoms."""
     if mol.GetBondBetweenAtoms(a, b) is None:
         return False
@@ -75,7 +75,7 @@ class StrongBaseLeavingGroups(Check):
                 continue
             centre = move.source_atoms[1] if move.source_atoms[0] == leaving else move.source_atoms[0]
             if (elements[centre] != 6 or (min(leaving, centre), max(leaving, centre)) not in broken
-                    or after.formal_charge(leaving) >= 0 or _in_small_ring(st.before.mol, leaving, centre)):
+                    or after.formal_charge(leaving) >= 0 or in_small_ring(st.before.mol, leaving, centre)):
                 continue
             acid = conjugate_acid(after.mol, leaving)
             label = st.before.label

@@ -13,6 +13,7 @@ from ..configuration import written_geometry
 from ..diagnostics import Diagnostic
 from ..trace import StepTrace
 from . import Check
+from .leaving import in_small_ring
 
 
 def trans_across(mol: Chem.Mol, first: int, a: int, b: int, second: int) -> Optional[bool]:
@@ -86,7 +87,9 @@ class CationShiftDirection(Check):
     """AR516: a 1,2-shift of a hydrogen or a carbon group to a carbocation that leaves a less
     stabilised cation behind (tertiary to secondary). Shifts run toward the more stable cation
     (common practice: hydride and alkyl shifts in carbocation chemistry, the Wagner-Meerwein and
-    pinacol rearrangements); one that runs the other way is almost always drawn backwards."""
+    pinacol rearrangements); one that runs the other way is almost always drawn backwards. A
+    shift that widens a three- or four-membered ring is left alone: the strain released outweighs
+    the substitution lost (a cyclobutylcarbinyl cation expanding to a cyclopentyl one, textbook)."""
     name = "cation shift direction"
     codes = ("AR516",)
 
@@ -97,6 +100,8 @@ class CationShiftDirection(Check):
         for move, migrating, origin, destination in shift_moves(st):
             if after.mol.GetBondBetweenAtoms(origin, migrating) is not None:
                 continue   # a pi pair moving on (an allyl cation's other form), not a group shifting
+            if in_small_ring(before.mol, origin, migrating):
+                continue   # a three- or four-membered ring widened: the strain released pays for it (textbook)
             if (before.elements[destination] != 6 or before.formal_charge(destination) != 1
                     or before.nonbonding[destination] or after.elements[origin] != 6
                     or after.formal_charge(origin) != 1 or after.nonbonding[origin]):
