@@ -489,7 +489,7 @@ TWINS = [
     Twin("carbocation shift uphill", HYDRIDE_SHIFT_DOWNHILL,
          '[CH:2]([CH3:5])[CH+:3][CH3:6]"\nstep "hydride shift"\n    C2-H -> C3-H(C2)',
          '[C+:2]([CH3:5])[CH2:3][CH3:6]"\nstep "hydride shift"\n    C3-H -> C2-H(C3)', "AR516",
-         "C3-H -> C2-H(C3)", says=("secondary cation at C3", "tertiary one at C2"), hint_says=("more stable cation",)),
+         "C3-H -> C2-H(C3)", says=("from C2 (tertiary) to C3 (secondary)",), hint_says=("more stable cation",)),
     Twin("alkoxide leaving as oxide", E1CB, "[OH:6]", "[O-:6]", "AR510", "C5-O6 -> O6", says=("oxide",),
          hint_says=("as hydroxide",), alone=False),
     Twin("amide ion as leaving group", CARBINOLAMINE, "[OH:2])([CH3:5])[NH+:3]", "[O-:2])([CH3:5])[N:3]",

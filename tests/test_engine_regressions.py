@@ -1,4 +1,5 @@
 """Correct mechanisms the engine once rejected or misjudged, each reduced to its smallest form."""
+import pytest
 from rdkit import Chem
 
 from arrows.api import check_text
@@ -184,3 +185,28 @@ def test_a_ring_widening_shift_to_a_less_substituted_cation_is_not_called_uphill
             '    C2-C3 -> C1-C3\nend\n')
     _, diags = check_text(text)
     assert not [d for d in diags if d.code == "AR516"], [d.to_text() for d in diags]
+
+
+@pytest.mark.parametrize("name, text, code", [
+    # 1,1-Diphenyl-2-methylpropane-1,2-diol: the diaryl cation forms, a methyl moves to it, and the
+    # protonated ketone pulls the rearrangement on (textbook pinacol, from memory).
+    ("pinacol from a diaryl cation",
+     'species diol = "[CH3:1][C:2]([CH3:3])([OH:4])[C:5](c1ccccc1)(c1ccccc1)[OH:8]"\nspecies acid = "[OH3+:9]"\n'
+     'step "protonation"\n    :O8 -> H(O9)\n    O9-H -> O9\nend\nstep "loss of water"\n    C5-O8 -> O8\n'
+     '    releases O8\nend\nstep "methyl shift"\n    C2-C3 -> C5-C3\nend\n', "AR516"),
+    # The cyclopropylmethyl cation: the ring's bent bonds hold the charge (textbook solvolysis).
+    ("cyclopropylcarbinyl cation",
+     'species alc = "[OH:1][CH2:2][CH:3]1[CH2:4][CH2:5]1"\nspecies acid = "[OH3+:9]"\nstep "protonation"\n'
+     '    :O1 -> H(O9)\n    O9-H -> O9\nend\nstep "loss of water"\n    C2-O1 -> O1\n    releases O1\nend\n', "AR511"),
+    # The Chichibabin amination: the sigma adduct expels hydride as the ring turns aromatic again
+    # (named reaction, from memory).
+    ("Chichibabin hydride loss",
+     'species py = "[n:1]1[cH:2][cH:3][cH:4][cH:5][cH:6]1"\nspecies nh2 = "[NH2-:7]"\nstep "addition"\n'
+     '    :N7 -> C2\n    C2=N1 -> N1\nend\nstep "hydride loss"\n    :N1 -> C2=N1\n    C2-H -> H(C2)\nend\n', "AR510"),
+], ids=lambda v: v if isinstance(v, str) and len(v) < 40 else None)
+def test_textbook_steps_the_cation_and_leaving_group_checks_leave_alone(name, text, code):
+    """Three textbook steps once warned: the pinacol methyl shift from a diaryl cation to the carbon
+    bearing OH (AR516 ranked the oxocarbenium below two aryls), the cyclopropylcarbinyl cation
+    (AR511 saw a primary cation with nothing beside it), the Chichibabin's hydride loss (AR510)."""
+    _, diags = check_text(text, name)
+    assert not [d for d in diags if d.code == code], [d.to_text() for d in diags]

@@ -77,6 +77,8 @@ class StrongBaseLeavingGroups(Check):
             if (elements[centre] != 6 or (min(leaving, centre), max(leaving, centre)) not in broken
                     or after.formal_charge(leaving) >= 0 or in_small_ring(st.before.mol, leaving, centre)):
                 continue
+            if elements[leaving] == 1 and perceived(after.mol).GetAtomWithIdx(centre).GetIsAromatic():
+                continue   # a hydride that leaves as the ring turns aromatic again (the Chichibabin amination)
             acid = conjugate_acid(after.mol, leaving)
             label = st.before.label
             if (acid is not None and elements[leaving] == 8 and _IONISING_OXYGEN_ACID <= acid.pka < STRONGEST_LEAVING_BASE

@@ -66,8 +66,10 @@ class MigrationAntiToLeavingGroup(Check):
 
 def cation_stability(mol: Chem.Mol, atom: int) -> int:
     """A rank of the carbocation at `atom` (common practice): one per carbon substituent (methyl 0,
-    primary 1, secondary 2, tertiary 3), two more beside a pi bond or an arene (allyl, benzyl),
-    three more beside a heteroatom with a lone pair (an oxocarbenium or iminium form)."""
+    primary 1, secondary 2, tertiary 3), two more for each pi bond or arene beside it (allyl,
+    benzyl), six more beside a heteroatom with a lone pair, whose oxocarbenium or iminium form
+    gives every atom an octet and outranks even a diaryl cation (the pinacol rearrangement runs
+    from the diaryl cation to the protonated ketone)."""
     rank = 0
     for n in mol.GetAtomWithIdx(atom).GetNeighbors():
         z = n.GetAtomicNum()
@@ -76,11 +78,13 @@ def cation_stability(mol: Chem.Mol, atom: int) -> int:
             if n.GetIsAromatic() or any(b.GetBondTypeAsDouble() > 1 for b in n.GetBonds()):
                 rank += 2
         elif z in (7, 8, 16) and n.GetFormalCharge() <= 0:
-            rank += 3
+            rank += 6
     return rank
 
 
-_CATION_WORDS = {0: "a methyl", 1: "a primary", 2: "a secondary", 3: "a tertiary"}
+def _cation_words(rank: int) -> str:
+    return {0: "methyl", 1: "primary", 2: "secondary", 3: "tertiary"}.get(
+        rank, "stabilised by a pi bond, an arene or a lone pair beside it")
 
 
 class CationShiftDirection(Check):
@@ -110,10 +114,10 @@ class CationShiftDirection(Check):
             if now >= was:
                 continue
             label = before.label
-            words = lambda rank: _CATION_WORDS.get(rank, "a stabilised")   # noqa: E731
             yield Diagnostic(
-                "AR516", f"the shift of {label(migrating)} to {label(destination)} leaves {words(now)} cation at "
-                f"{label(origin)} for {words(was)} one at {label(destination)}: uphill", move.move.loc,
+                "AR516", f"the shift of {label(migrating)} to {label(destination)} moves the positive charge from "
+                f"{label(destination)} ({_cation_words(was)}) to {label(origin)} ({_cation_words(now)}), a less "
+                f"stable cation: uphill", move.move.loc,
                 hint="1,2-shifts run toward the more stable cation; reverse the shift, or check which carbon "
                      "carries the charge",
                 atoms=(label(migrating), label(destination), label(origin)), step=st.index)

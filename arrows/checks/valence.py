@@ -58,7 +58,15 @@ def unstabilised_primary_cation(mol, i: int) -> bool:
             carbons += 1
             if n.GetIsAromatic() or any(b.GetBondTypeAsDouble() > 1 for b in n.GetBonds()):
                 return False
+            if _in_three_ring(mol, n.GetIdx()):
+                return False   # a cyclopropylcarbinyl cation: the ring's bent bonds hold the charge (textbook)
     return carbons <= 1
+
+
+def _in_three_ring(mol, atom: int) -> bool:
+    """Whether two neighbours of `atom` are bonded to each other (a cyclopropane through it)."""
+    around = [n.GetIdx() for n in mol.GetAtomWithIdx(atom).GetNeighbors()]
+    return any(mol.GetBondBetweenAtoms(a, b) is not None for k, a in enumerate(around) for b in around[k + 1:])
 
 
 def _sextet_hint(st: StepTrace, i: int) -> str:
