@@ -203,7 +203,7 @@ def test_a_ring_widening_shift_to_a_less_substituted_cation_is_not_called_uphill
     ("Chichibabin hydride loss",
      'species py = "[n:1]1[cH:2][cH:3][cH:4][cH:5][cH:6]1"\nspecies nh2 = "[NH2-:7]"\nstep "addition"\n'
      '    :N7 -> C2\n    C2=N1 -> N1\nend\nstep "hydride loss"\n    :N1 -> C2=N1\n    C2-H -> H(C2)\nend\n', "AR510"),
-], ids=lambda v: v if isinstance(v, str) and len(v) < 40 else None)
+], ids=["pinacol", "cyclopropylcarbinyl", "chichibabin"])
 def test_textbook_steps_the_cation_and_leaving_group_checks_leave_alone(name, text, code):
     """Three textbook steps once warned: the pinacol methyl shift from a diaryl cation to the carbon
     bearing OH (AR516 ranked the oxocarbenium below two aryls), the cyclopropylcarbinyl cation
