@@ -35,7 +35,9 @@ class StepClosure:
     between_molecules: bool = False     # two molecules make the ring with two new bonds
 
 
-_SMALL_RING_HINT = "five- and six-membered closures usually win when the substrate offers one (common practice)"
+_SMALL_RING_HINT = ("five- and six-membered closures usually win when the substrate offers one (common practice); "
+                    "where it offers none, as for an oxaphosphetane, an epoxide from a halohydrin or a Payne shift, "
+                    "the small ring is the textbook intermediate and this warning is a reminder only")
 
 
 def closures_in_step(st: StepTrace) -> list[StepClosure]:
