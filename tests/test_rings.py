@@ -458,3 +458,14 @@ def test_a_metal_passed_along_a_four_centre_array_is_a_note():
     assert not [d for d in diags if d.severity != "note"], [d.to_text() for d in diags]
     (note,) = [d for d in diags if d.code == "AR601"]
     assert "metal passed from atom to atom" in note.message
+
+
+def test_a_small_ring_with_no_larger_rival_is_told_it_may_be_the_textbook_intermediate():
+    """The Wittig oxaphosphetane (named reaction) draws AR501 like every four-membered ring; its hint
+    said only that five- and six-membered closures usually win, sending the author after a ring the
+    betaine does not offer. It says too that such a small ring may be the textbook intermediate."""
+    text = ('species betaine = "C1CCCCC1([O-:2])[CH2:3][P+:4](C)(C)C"\nstep "oxaphosphetane"\n'
+            '    :O2 -> O2-P4\nend\n')
+    _, diags = check_text(text, "wittig.mech")
+    (d,) = [d for d in diags if d.code == "AR501"]
+    assert "textbook intermediate" in d.hint and "reminder" in d.hint
