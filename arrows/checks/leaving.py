@@ -79,10 +79,13 @@ class StrongBaseLeavingGroups(Check):
                 continue
             if elements[leaving] == 1 and perceived(after.mol).GetAtomWithIdx(centre).GetIsAromatic():
                 continue   # a hydride that leaves as the ring turns aromatic again (the Chichibabin amination)
+            ionised = after.formal_charge(centre) > 0 and after.nonbonding[centre] == 0
+            if elements[leaving] == 8 and after.formal_charge(leaving) > -2 and not ionised:
+                continue   # an alkoxide pushed out (an E1cB, a tetrahedral intermediate): nothing to judge, no lookup
             acid = conjugate_acid(after.mol, leaving)
             label = st.before.label
             if (acid is not None and elements[leaving] == 8 and _IONISING_OXYGEN_ACID <= acid.pka < STRONGEST_LEAVING_BASE
-                    and after.formal_charge(centre) > 0 and after.nonbonding[centre] == 0):
+                    and ionised):
                 yield Diagnostic(
                     "AR515", f"{label(leaving)} leaves {label(centre)} as {acid.base} (pKa of {acid.acid} {acid.shown}), "
                     f"making a carbocation with nothing pushing it out", move.move.loc,
