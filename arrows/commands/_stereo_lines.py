@@ -4,7 +4,7 @@ from __future__ import annotations
 
 from ..checks.stereo import final_stereo, step_stereo
 from ..checks.written_stereo import racemic_start
-from ..judgement.stereo import CENTRE, describe, is_chiral, pairwise_relations
+from ..judgement.stereo import CENTRE, cip_labels, describe, is_chiral, pairwise_relations
 from ..trace import StepTrace, Trace
 
 
@@ -22,20 +22,6 @@ def _relations(smiles: list[str]) -> list[str]:
     return [f"  stereo   {a} and {b}: {r}" for a, b, r in pairwise_relations(fragments)]
 
 
-def _cip_labels(mol, atoms) -> dict[int, str]:
-    """RDKit's CIP label (R or S) of each of `atoms` that has one in `mol`."""
-    from rdkit import Chem
-    from rdkit.Chem import rdCIPLabeler
-    work = Chem.Mol(mol)
-    try:
-        Chem.SanitizeMol(work)
-        rdCIPLabeler.AssignCIPLabels(work)
-    except Exception:   # a state RDKit cannot label: nothing said about its configuration
-        return {}
-    return {i: work.GetAtomWithIdx(i).GetProp("_CIPCode") for i in atoms
-            if work.GetAtomWithIdx(i).HasProp("_CIPCode")}
-
-
 def step_lines(st: StepTrace) -> list[str]:
     made, lost = step_stereo(st)
     label = st.after.label if st.after is not None else st.before.label
@@ -48,7 +34,7 @@ def step_lines(st: StepTrace) -> list[str]:
         # A configured centre the step's bonds reach and that stays one (an SN2's carbon, inverted;
         # a 1,2-shift's migrating carbon, kept): its CIP label before and after, as RDKit assigns it.
         touched = set(st.change.touched_atoms)
-        before, after = _cip_labels(st.before.mol, touched), _cip_labels(st.after.mol, touched)
+        before, after = cip_labels(st.before.mol, touched), cip_labels(st.after.mol, touched)
         for i in sorted(set(before) & set(after)):
             lines.append(f"  stereo   configured centre {label(i)}: ({before[i]}) before, ({after[i]}) after")
     lines += _relations([c.smiles for c in st.step.expects])

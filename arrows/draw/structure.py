@@ -814,9 +814,9 @@ class StructureDrawer:
         strokes = None
         places = [box.x1 + 0.03 * size]
         # Before the label only if the symbol begins it: before "HO" a sign reads as the H's ("-HO").
-        x_atom = out.positions[i].real
-        if not any(r.x + self.face.width(r.text, r.size) <= x_atom - 1e-9 and abs(r.y - baseline_y) < 0.5 * self.style.font_size
-                   for r in drawing.runs):
+        parts = out.label_parts.get(i)
+        if parts is None or not any(b.x1 <= parts[0].x0 + 1e-6 and b.y1 > parts[0].y0 and b.y0 < parts[0].y1
+                                    for b in parts[1]):
             places.append(box.x0 - 0.03 * size - width)
         for x in places:
             run = TextRun(text, x, baseline, size)
@@ -957,16 +957,7 @@ class StructureDrawer:
         return max(0.85 * self.style.line_width, 0.065 * self.style.font_size)
 
     def _cip_marks(self, state: ElectronState, visible: tuple[int, ...], out: PanelStructure) -> None:
-        from rdkit.Chem import rdCIPLabeler
-        mol = Chem.Mol(state.mol)
-        try:
-            Chem.SanitizeMol(mol)
-            Chem.AssignStereochemistry(mol, cleanIt=True, force=True)
-            rdCIPLabeler.AssignCIPLabels(mol)
-        except Exception:   # a state RDKit cannot label is drawn without CIP labels
-            return
-        for i in visible:
-            atom = mol.GetAtomWithIdx(i)
-            if atom.HasProp("_CIPCode"):
-                out.marks.append(self._side_text("cip", i, f"({atom.GetProp('_CIPCode')})", out,
-                                                 preferred=cmath.rect(1, 3 * math.pi / 4), italic=True))
+        from ..judgement.stereo import cip_labels
+        for i, code in cip_labels(state.mol, visible).items():
+            out.marks.append(self._side_text("cip", i, f"({code})", out, preferred=cmath.rect(1, 3 * math.pi / 4),
+                                             italic=True))

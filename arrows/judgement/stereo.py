@@ -390,3 +390,18 @@ def pairwise_relations(smiles: Iterable[str]) -> list[tuple[str, str, str]]:
         if r in (IDENTICAL, ENANTIOMERS, DIASTEREOMERS):
             out.append((a, b, r))
     return out
+
+
+def cip_labels(mol: Chem.Mol, atoms: Iterable[int]) -> dict[int, str]:
+    """RDKit's CIP label (R or S, or a double bond's) of each of `atoms` that has one in `mol`;
+    none when RDKit cannot label the state. Read for the drawing's --cip labels and for
+    `arrows trace --stereo`."""
+    from rdkit.Chem import rdCIPLabeler
+    work = Chem.Mol(mol)
+    try:
+        Chem.SanitizeMol(work)
+        Chem.AssignStereochemistry(work, cleanIt=True, force=True)
+        rdCIPLabeler.AssignCIPLabels(work)
+    except Exception:   # an odd intermediate: nothing said about its configuration
+        return {}
+    return {i: work.GetAtomWithIdx(i).GetProp("_CIPCode") for i in atoms if work.GetAtomWithIdx(i).HasProp("_CIPCode")}
