@@ -2734,6 +2734,11 @@ class _LayoutBuilder:
                  and self._bonds_as_it_arrives(self.clusters[c[0]], c[1])), ready[0])
         cluster = self.clusters[index]
         arrival = self._backside_arrival(cluster, first, cluster.placement[first])
+        if not self._bonds_as_it_arrives(cluster, first):
+            # Already bonded to the atom that placed it there (an iminium's amine, hidden for a
+            # panel and then drawn again): it waits where it will be, not pulled back along a
+            # bond it holds all along.
+            arrival = arrival[:3] + (0.0,)
         cluster.placement[start] = self._waiting(index, (start, end), arrival, first)
         cluster.waited.add(start)
         self._apply(index)

@@ -184,6 +184,7 @@ def build_scene(trace: Trace, style: Style, diagnostics: Sequence[Diagnostic] = 
 
 # Scripts the default font (DejaVu Sans) has no glyphs for: CJK, Hangul, emoji and other pictographs.
 _NO_GLYPHS = ((0x2E80, 0x9FFF), (0xAC00, 0xD7AF), (0xF900, 0xFAFF), (0x1F000, 0x1FAFF), (0x20000, 0x2FA1F))
+_FIRST_WANTING = chr(min(a for a, _ in _NO_GLYPHS))
 
 
 def _glyphs_wanting(trace: Trace, style: Style) -> tuple[str, ...]:
@@ -194,7 +195,10 @@ def _glyphs_wanting(trace: Trace, style: Style) -> tuple[str, ...]:
         return ()
     mechanism = trace.mechanism
     texts = [mechanism.title or ""] + [t for st in mechanism.steps for t in (st.over, st.under) if t]
-    wanting = sorted({c for text in texts for c in text if any(a <= ord(c) <= b for a, b in _NO_GLYPHS)})
+    # (every range lies above U+2E80: the Latin, Greek and symbol characters of most texts are
+    # passed over without the range test)
+    wanting = sorted({c for text in texts for c in text
+                      if c >= _FIRST_WANTING and any(a <= ord(c) <= b for a, b in _NO_GLYPHS)})
     if not wanting:
         return ()
     shown = "".join(wanting[:8]) + ("..." if len(wanting) > 8 else "")
