@@ -431,6 +431,18 @@ CODES = _table(
          'step "hydride shift"\n'
          '    C3-H -> C2-H(C3)   # tertiary C2+ to secondary C3+: uphill\n'
          'end'),
+    Code("AR517", WARNING, "hydroxide or alkoxide leaving in acid",
+         "A bond from carbon to oxygen breaks, pushed by a neighbour, and the oxygen leaves as hydroxide "
+         "or an alkoxide while an oxonium acid (H3O+, a protonated alcohol or carbonyl) is present. In "
+         "acid the oxygen is protonated first and leaves as water or an alcohol (common practice: the "
+         "acid-catalysed ester formation and acetal hydrolysis); hydroxide beside H3O+ means that proton "
+         "transfer is missing.",
+         'species intermediate = "[CH3:1][C:2]([OH:3])([OH:4])[O:5]C"\n'
+         'species acid = "[OH3+:6]"\n'
+         'step "loss of water"\n'
+         '    :O3 -> C2=O3\n'
+         '    C2-O4 -> O4   # hydroxide leaves beside H3O+: protonate O4 first\n'
+         'end'),
     Code("AR601", NOTE, "ring closure",
          "A step closes a ring; its size and Baldwin class are given. A pericyclic step (every arrow "
          "from a bond to a bond, round a closed loop that makes no charge; arrows that all start at "

@@ -177,6 +177,16 @@ step "ionisation"
 end
 '''
 
+# Acid-catalysed ester formation, the last C-O bond to break: the hydroxyl, protonated by H3O+,
+# leaves as water, pushed by the other OH (Clayden, Fischer esterification; textbook).
+WATER_LEAVES_IN_ACID = '''species intermediate = "[CH3:1][C:2]([OH:3])([OH2+:4])[O:5]C"
+species acid = "[OH3+:6]"
+step "loss of water"
+    :O3 -> C2=O3
+    C2-O4 -> O4
+end
+'''
+
 # E1cB: the enolate pushes hydroxide out of the aldol (textbook).
 E1CB = '''species enolate = "[CH3:1][C:2](=[O:3])[CH-:4][CH:5]([OH:6])[CH3:7]"
 step "E1cB"
@@ -490,6 +500,9 @@ TWINS = [
          '[CH:2]([CH3:5])[CH+:3][CH3:6]"\nstep "hydride shift"\n    C2-H -> C3-H(C2)',
          '[C+:2]([CH3:5])[CH2:3][CH3:6]"\nstep "hydride shift"\n    C3-H -> C2-H(C3)', "AR516",
          "C3-H -> C2-H(C3)", says=("from C2 (tertiary) to C3 (secondary)",), hint_says=("more stable cation",)),
+    # The hydroxyl not protonated first: hydroxide leaves beside H3O+ (in acid it leaves as water).
+    Twin("hydroxide leaving in acid", WATER_LEAVES_IN_ACID, "[OH2+:4]", "[OH:4]", "AR517", "C2-O4 -> O4",
+         says=("hydroxide", "O6"), hint_says=("`:O4 -> H(O6)`", "water")),
     Twin("alkoxide leaving as oxide", E1CB, "[OH:6]", "[O-:6]", "AR510", "C5-O6 -> O6", says=("oxide",),
          hint_says=("as hydroxide",), alone=False),
     Twin("amide ion as leaving group", CARBINOLAMINE, "[OH:2])([CH3:5])[NH+:3]", "[O-:2])([CH3:5])[N:3]",

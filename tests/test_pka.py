@@ -331,6 +331,10 @@ MORE_ACIDS = [
     ("Cc1ccc(cc1)S(=O)(=O)O", 10, -2.8),   # TsOH
     ("OC(=O)[O-]", 0, 10.3),        # bicarbonate, not a carboxylic acid
     ("c1cc[nH+]cc1", 3, 5.2),       # pyridinium
+    ("[NH3+]c1ccccc1", 0, 4.6),     # anilinium, not an alkylammonium ion (~10)
+    ("C[NH2+]C(=O)c1ccccc1", 1, -7),   # an amide protonated on nitrogen (an estimate)
+    ("[NH3+]O", 0, 6.0),            # hydroxylammonium
+    ("CC(N)=[OH+]", 3, -0.5),       # an amide protonated on oxygen, not a ketone's -7
 ]
 
 
@@ -354,3 +358,31 @@ def test_carbon_acids_are_judged_by_their_own_pka(base, acid, uphill):
     _, diags = check_text(text, "carbon-acid.mech")
     assert [d.code for d in diags if d.code == "AR508"] == (["AR508"] if uphill else []), \
         [d.to_text() for d in diags]
+
+
+ACYLATION_WITHOUT_ADDED_BASE = """\
+species chloride = "[C:1](=[O:2])([Cl:3])c1ccccc1"
+species amine = "C[NH2:4]"
+step "addition"
+    :N4 -> C1
+    C1=O2 -> O2
+end
+step "elimination"
+    :O2 -> C1=O2
+    C1-Cl3 -> Cl3
+end
+step "deprotonation by chloride"
+    :Cl3 -> H(N4)
+    N4-H -> N4
+end
+product "CNC(=O)c1ccccc1.Cl"
+"""
+
+
+def test_chloride_takes_the_proton_of_an_n_acylammonium_ion():
+    """Schotten-Baumann-type acylation with no added base (textbook account: the amide is
+    protonated on nitrogen as it forms, and HCl is lost): chloride (HCl ~-7) taking the N-H of the
+    N-acylammonium ion (an estimate near -7, memory) is not uphill. It was judged as an
+    alkylammonium ion (~10): "uphill by about 17"."""
+    _, diags = check_text(ACYLATION_WITHOUT_ADDED_BASE, "acylation.mech")
+    assert [d.code for d in diags if d.severity in ("error", "warning")] == []

@@ -1061,9 +1061,10 @@ product "N#[N+]c1ccccc1"
 '''
 
 # Hofmann rearrangement of N-bromoacetamide: the N-anion, the methyl shifts to nitrogen as bromide
-# leaves (methyl isocyanate), hydroxide adds, the carbamic acid is protonated on nitrogen and
-# deprotonated on oxygen, and the zwitterion loses CO2 (methylamine). (Written first with the
-# carbamate losing CO2 to leave the methylamide ion, pKa ~38, which AR510 flags.)
+# leaves (methyl isocyanate), hydroxide adds, the carbamic acid is deprotonated on oxygen and the
+# carbamate protonated on nitrogen, and the zwitterion loses CO2 (methylamine). (Written first with
+# the carbamate losing CO2 to leave the methylamide ion, pKa ~38, which AR510 flags; then with the
+# neutral carbamic acid protonated on nitrogen by water, an N-acylammonium ion ~-7: AR508.)
 HOFMANN_REARRANGEMENT = '''\
 species bromoamide = "[CH3:6][C:1](=[O:2])[NH:3][Br:4]"
 species base = "[OH-:5]"
@@ -1087,14 +1088,14 @@ step "protonation at nitrogen"
     :N3 -> H(O5)
     O5-H -> O5
 end
-step "the carbamic acid's nitrogen takes a proton"
+step "deprotonation of the carbamic acid"
+    :O5 -> H(O7)
+    O7-H -> O7
+end
+step "the carbamate's nitrogen takes a proton"
     uses water = "[OH2:8]"
     :N3 -> H(O8)
     O8-H -> O8
-end
-step "deprotonation of the carbamic acid"
-    :O8 -> H(O7)
-    O7-H -> O7
 end
 step "loss of carbon dioxide"
     :O7 -> C1=O7

@@ -1,4 +1,5 @@
-"""Leaving groups that depart from carbon as very strong bases (AR510).
+"""Leaving groups that depart from carbon as very strong bases (AR510), hydroxide or an alkoxide
+left to ionise (AR515) or pushed out while an oxonium acid stands by (AR517).
 
 A pair move from a bond to one of that bond's atoms (`C8-N20 -> N20`) breaks the bond and leaves
 the pair on that atom: a leaving group. A good leaving group is a weak base (common practice: the
@@ -57,7 +58,7 @@ def in_small_ring(mol: Chem.Mol, a: int, b: int) -> bool:
 
 class StrongBaseLeavingGroups(Check):
     name = "leaving groups"
-    codes = ("AR510", "AR515")
+    codes = ("AR510", "AR515", "AR517")
 
     def step(self, st: StepTrace, context) -> Iterator[Diagnostic]:
         after = st.after
@@ -80,10 +81,23 @@ class StrongBaseLeavingGroups(Check):
             if elements[leaving] == 1 and perceived(after.mol).GetAtomWithIdx(centre).GetIsAromatic():
                 continue   # a hydride that leaves as the ring turns aromatic again (the Chichibabin amination)
             ionised = after.formal_charge(centre) > 0 and after.nonbonding[centre] == 0
-            if elements[leaving] == 8 and after.formal_charge(leaving) > -2 and not ionised:
-                continue   # an alkoxide pushed out (an E1cB, a tetrahedral intermediate): nothing to judge, no lookup
-            acid = conjugate_acid(after.mol, leaving)
             label = st.before.label
+            if elements[leaving] == 8 and after.formal_charge(leaving) > -2 and not ionised:
+                # An alkoxide pushed out (an E1cB, a tetrahedral intermediate): judged only where
+                # an oxonium acid stands by, which would have protonated it first. (A carboxylate or
+                # phenoxide, a weak base, leaves in acid too.)
+                oxonium = _oxonium_acid(st.before)
+                acid = conjugate_acid(after.mol, leaving) if oxonium is not None else None
+                if acid is not None and _IONISING_OXYGEN_ACID <= acid.pka < STRONGEST_LEAVING_BASE:
+                    yield Diagnostic(
+                        "AR517", f"{label(leaving)} leaves {label(centre)} as {acid.base} (pKa of {acid.acid} "
+                        f"{acid.shown}) while the oxonium ion {label(oxonium)} is there to protonate it",
+                        move.move.loc,
+                        hint=f"in acid the oxygen is protonated first and leaves as {_neutral(acid)}: add a step "
+                             f"`:{label(leaving)} -> H({label(oxonium)})` before this one",
+                        atoms=(label(leaving), label(centre), label(oxonium)), step=st.index)
+                continue
+            acid = conjugate_acid(after.mol, leaving)
             if (acid is not None and elements[leaving] == 8 and _IONISING_OXYGEN_ACID <= acid.pka < STRONGEST_LEAVING_BASE
                     and ionised):
                 yield Diagnostic(
@@ -100,6 +114,16 @@ class StrongBaseLeavingGroups(Check):
                 f"{acid.shown}): a base this strong is almost never a leaving group",
                 move.move.loc, hint=_strong_base_hint(label(leaving), elements[leaving]),
                 atoms=(label(leaving), label(centre)), step=st.index)
+
+
+def _oxonium_acid(state) -> Optional[int]:
+    """The first oxygen of `state` that is an oxonium acid (H3O+, ROH2+, R2OH+, C=OH+: pKa below
+    about 0, memory), or None."""
+    elements, mol = state.elements, state.mol
+    for i, element in enumerate(elements):
+        if element == 8 and state.formal_charge(i) == 1 and mol.GetAtomWithIdx(i).GetTotalNumHs(includeNeighbors=True):
+            return i
+    return None
 
 
 def _neutral(acid: Acidity) -> str:

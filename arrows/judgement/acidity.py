@@ -40,6 +40,8 @@ TABLE: tuple[Acidity, ...] = (
     Acidity("hydrogen iodide", "iodide", "[IX1H1]", -10, "~-10", NOT_LISTED),
     Acidity("hydrogen bromide", "bromide", "[BrX1H1]", -9, "~-9", NOT_LISTED),
     Acidity("hydrogen chloride", "chloride", "[ClX1H1]", -7, "~-7", NOT_LISTED),
+    # An amide takes its proton on oxygen (pKa ~-0.5), far more readily than a ketone (memory).
+    Acidity("an O-protonated amide", "an amide", "[OX2H1+]=[#6][NX3]", -0.5, "~-0.5", NOT_LISTED),
     Acidity("a protonated carbonyl", "a carbonyl oxygen", "[OX2H1+]=[#6]", -7, "~-7", NOT_LISTED),
     Acidity("a protonated alcohol or ether", "an alcohol or ether", "[OX3+;!H0]", -2, "~-2", NOT_LISTED),
     # Sulfonic acid ~-2.8 (TsOH), carbonic acid 6.4 and bicarbonate 10.3 (aqueous, memory): before the
@@ -57,6 +59,13 @@ TABLE: tuple[Acidity, ...] = (
     Acidity("a C-H beside a nitrile and a carbonyl or nitrile", "a stabilised carbanion",
             "[CX4;!H0](C#N)[$([CX3]=O),$(C#N)]", 11, "~11", NOT_LISTED),   # malononitrile ~11
     Acidity("a phenol", "a phenoxide", "[OX2H1]c", 10, "~10", TEXTBOOK),
+    # Not an alkylammonium ion: an N-acylammonium (an amide protonated on nitrogen, an estimate
+    # below the O-protonated amide's -0.5), an anilinium ion 4.6, a hydroxylammonium ion 6.0
+    # (aqueous, memory). Chloride takes the first's proton as an amine is acylated. (A carbamate
+    # protonated on nitrogen, the zwitterion that loses CO2, has no value here: read as an ammonium.)
+    Acidity("an N-acylammonium ion", "an amide", "[NX4+;!H0][CX3;!$(C[OX1-])]=O", -7, "~-7", NOT_LISTED),
+    Acidity("an anilinium ion", "an aniline", "[NX4+;!H0]c", 4.6, "4.6", NOT_LISTED),
+    Acidity("a hydroxylammonium ion", "a hydroxylamine", "[NX4+;!H0][OX2]", 6.0, "6.0", NOT_LISTED),
     Acidity("an ammonium ion", "an amine", "[NX4+;!H0]", 10, "~10", TEXTBOOK),
     # Acetamidinium 12.4; a protonated imine about 7 (aqueous, memory): HCl's chloride takes neither's N-H.
     Acidity("an amidinium N-H", "an amidine", "[NX3+;!H0]=[CX3][NX3]", 12, "~12", NOT_LISTED),
