@@ -186,3 +186,60 @@ def test_written_pieces_alike_are_each_explained_against_their_own_derived_piece
     assert len(found) == 2 and found[0].message != found[1].message
     named = {Chem.MolToSmiles(Chem.MolFromSmiles(s)) for s in ("[OH-]", "[OH3+]")}
     assert {next(s for s in named if f"`{s}`" in d.hint) for d in found} == named
+
+
+def _explanation(text: str, code: str) -> str:
+    _, diags = check_text(text)
+    (found,) = [d for d in diags if d.code == code]
+    return found.message.split(" derived state: ", 1)[1]
+
+
+def test_atoms_joined_otherwise_are_told_as_the_bonds_that_differ():
+    """Cyanide displaces iodide through carbon and gives the nitrile (Kolbe nitrile synthesis; a
+    secondary amine attacks NO+ at nitrogen and gives the N-nitrosamine: textbook outcomes, Clayden
+    and March, from memory). Moves that attack through the other atom make methyl isocyanide and
+    an O-bonded isomer (RDKit's canonical SMILES of the derived piece the judge): the same formula,
+    joined otherwise. The product written as the textbook one was told only "written atoms with no
+    counterpart: 1 C; derived atoms not written: 1 C"; the bond each side makes is named now."""
+    from rdkit import Chem
+    from arrows.trace import state_smiles
+    kolbe = ('species iodomethane = "[CH3:1][I:2]"\nspecies cyanide = "[C-:3]#[N:4]"\n'
+             'step "substitution"\n    :N4 -> C1\n    C1-I2 -> I2\nend\nproduct "CC#N.[I-]"\n')
+    trace, _ = check_text(kolbe)
+    assert Chem.CanonSmiles("C[N+]#[C-]") in state_smiles(trace.final).split(".")
+    assert _explanation(kolbe, "AR402") == ("the moves bond C1 to N4; the product bonds C1 to C3 instead; "
+                                            "C3: expected charge 0, the moves give -1; "
+                                            "N4: expected charge 0, the moves give +1")
+    nitrosation = ('species amine = "C[NH:1]C"\nspecies nitrosonium = "[N:2]#[O+:3]"\nspecies water = "[OH2:4]"\n'
+                   'step "attack"\n    :N1 -> O3\n    N2#O3 -> N2\nend\n'
+                   'step "deprotonation"\n    :O4 -> H(N1)\n    N1-H -> N1\nend\nproduct "CN(C)N=O"\n')
+    assert _explanation(nitrosation, "AR402") == ("the moves bond N1 to O3; the product bonds N1 to N2 instead; "
+                                                  "N2: expected charge 0, the moves give -1; "
+                                                  "O3: expected charge 0, the moves give +1")
+
+
+RITTER_SLIP = '''species cation  = "C[C+:1](C)C"
+species nitrile = "C[C:4]#[N:5]"
+step "capture by the nitrile, through its carbon"
+    C4#N5 -> C4-C1
+    expect "{expect}"
+end
+'''
+
+
+def test_a_nitrenium_ion_is_not_explained_as_a_diradical_nor_on_misplaced_atoms():
+    """The Ritter reaction's nitrile catches the tert-butyl cation at nitrogen: the N-alkylnitrilium
+    CC#[N+]C(C)(C)C (textbook outcome, Clayden and March, from memory). Moves that bond the cation
+    to the nitrile's carbon leave N5 with one lone pair, charge +1 (`arrows trace`). RDKit reads a
+    bare [N+] with two bonds as a diradical, and the explanation took that reading for the moves'
+    ("N5: expected 0 unpaired electron(s), the moves give 2"); it also paired a written methyl
+    with C1 ("C1: expected 3 H, the moves give 0", "3 C with no counterpart"). Now it names the
+    bond that moved, and an unpaired electron only where one side has an odd count: the neutral
+    iminyl radical written instead (RDKit: one unpaired electron) is still told apart."""
+    assert _explanation(RITTER_SLIP.format(expect="CC#[N+]C(C)(C)C"), "AR401") == (
+        "the moves bond C1 to C4; the checkpoint bonds C1 to N5 instead; "
+        "bond C4-N5: expected triple, the moves give double")
+    assert _explanation(RITTER_SLIP.format(expect="C[C:4]#[N+:5]C(C)(C)C"), "AR401") == (
+        "bond C4-N5: expected triple, the moves give double")
+    assert "N5: expected 1 unpaired electron(s), the moves give 0" in _explanation(
+        RITTER_SLIP.format(expect="CC(=[N])C(C)(C)C"), "AR401")

@@ -4,7 +4,7 @@ by bond, aligning the written structure with the closest derived fragment."""
 from __future__ import annotations
 
 from collections import Counter
-from typing import Iterator, Optional
+from typing import Callable, Iterator, Optional
 
 from rdkit import Chem
 
@@ -186,7 +186,7 @@ def compare(state: ElectronState, checkpoint: Checkpoint, code: str, step: Optio
         closest = max(candidates, key=lambda f: _overlap(frag.mol, f.mol), default=None)
         if closest is not None:
             explained.add(id(closest))
-        details, hint = _explain(frag, closest, state) if closest is not None else ([], None)
+        details, hint = _explain(frag, closest, state, what) if closest is not None else ([], None)
         message = f"the {what} {frag.smiles} is not in the derived state"
         if closest is not None and _resonance_forms(frag.smiles, closest.smiles):
             message = f"the {what} {frag.smiles} is a resonance form of the derived {closest.smiles}"
@@ -267,34 +267,96 @@ def _overlap(a: Chem.Mol, b: Chem.Mol) -> tuple[int, int]:
 
 
 def _alignment(written: Chem.Mol, derived: Chem.Mol) -> dict[int, int]:
-    """written atom index -> derived atom index, by maps when the checkpoint has them, else by the
-    largest common substructure (elements must match, bond orders may differ)."""
+    """written atom index -> derived atom index, by maps when the checkpoint has them, else the
+    pairing with the fewest differences: it grows from a largest common part of the two (elements
+    must match, bond orders may differ) and, when the atoms left out are alike on both sides (the
+    same formula joined otherwise), pairs those too."""
     by_map = {a.GetAtomMapNum(): a.GetIdx() for a in atom_list(derived) if a.GetAtomMapNum()}
     mapped = {a.GetIdx(): by_map[a.GetAtomMapNum()] for a in atom_list(written)
               if a.GetAtomMapNum() and a.GetAtomMapNum() in by_map}
     if mapped:
         return mapped
+    heavy = [sum(a.GetAtomicNum() > 1 for a in atom_list(m)) for m in (written, derived)]
+    placements = _common_part_placements(written, derived, with_hydrogens=False)
+    if not placements or len(placements[0]) < max(heavy):
+        # The largest common part by element alone can sit on the wrong atoms: with a tert-butyl
+        # on a nitrile's C where the checkpoint has it on the N, the part C(C)(C)N pairs the
+        # nitrile carbon with the tert-butyl's centre and that centre with a methyl. Atoms that
+        # also keep their hydrogens are the likelier same atoms.
+        placements += _common_part_placements(written, derived, with_hydrogens=True)
+    # The most atoms paired, then the fewest differences: a pairing that leaves atoms out is not
+    # made better by the differences it then cannot see, and of a symmetric part's placements the
+    # mirrored ones do not make right atoms look wrong.
+    completed = [_completed(written, derived, placement) for placement in placements]
+    return min(completed, key=lambda align: (-len(align), _differences(written, derived, align)), default={})
+
+
+def _common_part_placements(written: Chem.Mol, derived: Chem.Mol, with_hydrogens: bool) -> list[dict[int, int]]:
+    """The ways a largest common part of the heavy atoms (alike in element, and in hydrogen count
+    when `with_hydrogens`) sits in the two structures, as written index -> derived index; a
+    symmetric part sits in `derived` several ways (acetone's enol on either methyl)."""
     from rdkit.Chem import rdFMCS   # only a mismatch is explained: spared on every clean check
-    # The common part of the heavy atoms: a hydrogen written as an atom (a D on another carbon)
-    # must not win a place in it over a heavy one (the ketone's O, then called unmatched).
-    heavy = [Chem.RWMol(m) for m in (written, derived)]
-    for work in heavy:
-        for atom in sorted((a.GetIdx() for a in work.GetAtoms() if a.GetAtomicNum() == 1), reverse=True):
-            work.RemoveAtom(atom)
-    result = rdFMCS.FindMCS([m.GetMol() for m in heavy], atomCompare=rdFMCS.AtomCompare.CompareElements,
+
+    def labelled(mol: Chem.Mol, hydrogen_label: int) -> Chem.Mol:
+        # The likeness is carried as an isotope label on a copy with the same atom indices. A
+        # hydrogen written as an atom (a D) gets a label of its side alone, so that it never wins
+        # a place in the common part over a heavy atom (the ketone's O, then called unmatched).
+        work = Chem.Mol(mol)
+        for atom in atom_list(work):
+            z = atom.GetAtomicNum()
+            likeness = (atom.GetTotalNumHs() + 1) if with_hydrogens else 0
+            atom.SetIsotope(hydrogen_label if z == 1 else 10 * z + likeness)
+        return work
+
+    left_mol, right_mol = labelled(written, 1), labelled(derived, 2)
+    result = rdFMCS.FindMCS([left_mol, right_mol], atomCompare=rdFMCS.AtomCompare.CompareIsotopes,
                             bondCompare=rdFMCS.BondCompare.CompareAny, ringMatchesRingOnly=False,
                             completeRingsOnly=False, matchValences=False, timeout=2)
     if not result.numAtoms:
-        return {}
+        return []
     query = Chem.MolFromSmarts(result.smartsString)
-    left = written.GetSubstructMatch(query, useChirality=False)
-    # Of the ways the common part sits in the derived structure (a symmetric one sits several
-    # ways: acetone's enol on either methyl), the one with the fewest differences, so the
-    # explanation names what is wrong and not what a mirrored reading makes look wrong.
-    rights = derived.GetSubstructMatches(query, uniquify=False, useChirality=False, maxMatches=256)
-    if not left or not rights:
-        return {}
-    return min((dict(zip(left, right)) for right in rights), key=lambda align: _differences(written, derived, align))
+    left = left_mol.GetSubstructMatch(query, useChirality=False)
+    rights = right_mol.GetSubstructMatches(query, uniquify=False, useChirality=False, maxMatches=256)
+    return [dict(zip(left, right)) for right in rights] if left else []
+
+
+def _completed(written: Chem.Mol, derived: Chem.Mol, align: dict[int, int]) -> dict[int, int]:
+    """`align` with the heavy atoms it leaves out paired too, when those are the same nuclides on
+    both sides (a nitrile written where the moves made an isocyanide): one pair at a time, the one
+    that adds the fewest differences to the pairs made. Otherwise `align` as it is: atoms of a
+    formula that differs are counted, not paired."""
+    paired = set(align.values())
+    left_written = [a for a in atom_list(written) if a.GetAtomicNum() > 1 and a.GetIdx() not in align]
+    left_derived = [a for a in atom_list(derived) if a.GetAtomicNum() > 1 and a.GetIdx() not in paired]
+    if not left_written or Counter(map(_nuclide, left_written)) != Counter(map(_nuclide, left_derived)):
+        return align
+    align = dict(align)
+    back = {di: wi for wi, di in align.items()}
+    while left_written:
+        w, d = min(((w, d) for w in left_written for d in left_derived if _nuclide(w) == _nuclide(d)),
+                   key=lambda pair: _added_differences(written, align, back, *pair))
+        align[w.GetIdx()], back[d.GetIdx()] = d.GetIdx(), w.GetIdx()
+        left_written.remove(w)
+        left_derived.remove(d)
+    return align
+
+
+def _added_differences(written: Chem.Mol, align: dict[int, int], back: dict[int, int],
+                       w: Chem.Atom, d: Chem.Atom) -> int:
+    """The differences pairing written atom `w` with derived atom `d` adds to `align` (`back`:
+    its inverse): charge, hydrogens, and each bond to a paired atom that the other side lacks or
+    holds with another order."""
+    count = (w.GetFormalCharge() != d.GetFormalCharge()) + (w.GetTotalNumHs() != d.GetTotalNumHs())
+    derived = d.GetOwningMol()
+    for bond in w.GetBonds():
+        other = bond.GetOtherAtomIdx(w.GetIdx())
+        if other in align:
+            count += _order(bond) != _order(derived.GetBondBetweenAtoms(d.GetIdx(), align[other]))
+    for bond in d.GetBonds():
+        other = bond.GetOtherAtomIdx(d.GetIdx())
+        if other in back:
+            count += written.GetBondBetweenAtoms(w.GetIdx(), back[other]) is None
+    return count
 
 
 def _differences(written: Chem.Mol, derived: Chem.Mol, align: dict[int, int]) -> int:
@@ -339,7 +401,10 @@ def _nuclide(atom: Chem.Atom) -> str:
 _PROTON_HINT = "add a proton-transfer step, or move the checkpoint after it"
 
 
-def _explain(frag: Fragment, closest: Fragment, state: ElectronState) -> tuple[list[str], Optional[str]]:
+def _explain(frag: Fragment, closest: Fragment, state: ElectronState, what: str) -> tuple[list[str], Optional[str]]:
+    """What differs between a written piece and the derived piece closest to it, derived atoms
+    named (C1, C(atom 7)), written ones by the derived atom they are paired with; and a hint when
+    the difference points at one. `what`: "checkpoint" or "product"."""
     align = _alignment(frag.mol, closest.mol)
     if not align:
         return [], None
@@ -362,17 +427,24 @@ def _explain(frag: Fragment, closest: Fragment, state: ElectronState) -> tuple[l
             details.append(f"{name(di)}: expected {w.GetTotalNumHs()} H, the moves give {d.GetTotalNumHs()}")
         if w.GetIsotope() != d.GetIsotope():
             details.append(f"{name(di)}: expected {_nuclide(w)}, the moves give {_nuclide(d)}")
-        if w.GetNumRadicalElectrons() != d.GetNumRadicalElectrons():
-            details.append(f"{name(di)}: expected {w.GetNumRadicalElectrons()} unpaired electron(s), "
-                           f"the moves give {d.GetNumRadicalElectrons()}")
+        # Unpaired electrons as the moves leave them, on the state's own Mol: the derived piece
+        # was sanitized again, and RDKit then gives a bare [N+] with two bonds (a nitrenium ion
+        # with its lone pair) two unpaired electrons. A SMILES cannot tell that lone pair from two
+        # unpaired electrons either, so only an odd count against an even one is a difference.
+        written_unpaired = w.GetNumRadicalElectrons() % 2
+        derived_unpaired = state.mol.GetAtomWithIdx(d.GetIntProp(_ORIGIN)).GetNumRadicalElectrons() % 2
+        if written_unpaired != derived_unpaired:
+            details.append(f"{name(di)}: expected {written_unpaired} unpaired electron(s), "
+                           f"the moves give {derived_unpaired}")
     written_atoms = sorted(align)
     for x, wi in enumerate(written_atoms):
         for wj in written_atoms[x + 1:]:
             expected = _order(frag.mol.GetBondBetweenAtoms(wi, wj))
             given = _order(closest.mol.GetBondBetweenAtoms(align[wi], align[wj]))
-            if expected != given:
+            if expected != given and expected and given:   # a bond on one side only: _rebonded's
                 details.append(f"bond {name(align[wi])}-{name(align[wj])}: expected {_order_text(expected)}, "
                                f"the moves give {_order_text(given)}")
+    details[:0] = _rebonded(frag.mol, closest.mol, align, name, what)
     # Aligned by map numbers, only the numbered atoms are paired: the others are not unmatched.
     by_maps = any(frag.mol.GetAtomWithIdx(i).GetAtomMapNum() for i in align)
     counted = (lambda atom: atom.GetAtomMapNum() != 0) if by_maps else (lambda atom: True)
@@ -384,6 +456,39 @@ def _explain(frag: Fragment, closest: Fragment, state: ElectronState) -> tuple[l
     if extra:
         details.append("derived atoms not written: " + ", ".join(f"{n} {el}" for el, n in sorted(extra.items())))
     return details[:8], hint
+
+
+def _rebonded(written: Chem.Mol, derived: Chem.Mol, align: dict[int, int], name: Callable[[int], str],
+              what: str) -> list[str]:
+    """The bonds between paired atoms that one side has and the other lacks, in words. A bond the
+    moves make from an atom where the written structure bonds that atom to another is one change:
+    "the moves bond C1 to N7; the checkpoint bonds C1 to C6 instead" (a nitrile written where
+    the moves made an isocyanide)."""
+    back = {di: wi for wi, di in align.items()}
+    only_derived = [(b.GetBeginAtomIdx(), b.GetEndAtomIdx(), _order(b)) for b in derived.GetBonds()
+                    if b.GetBeginAtomIdx() in back and b.GetEndAtomIdx() in back
+                    and written.GetBondBetweenAtoms(back[b.GetBeginAtomIdx()], back[b.GetEndAtomIdx()]) is None]
+    only_written = [(align[b.GetBeginAtomIdx()], align[b.GetEndAtomIdx()], _order(b)) for b in written.GetBonds()
+                    if b.GetBeginAtomIdx() in align and b.GetEndAtomIdx() in align
+                    and derived.GetBondBetweenAtoms(align[b.GetBeginAtomIdx()], align[b.GetEndAtomIdx()]) is None]
+
+    def to(atom: int, order: int) -> str:
+        return name(atom) + ("" if order == 1 else f" by {'an' if order == 15 else 'a'} {_order_text(order)} bond")
+
+    lines = []
+    for i, j, order in only_derived:
+        instead = next(((x, y, o) for x, y, o in only_written if {x, y} & {i, j}), None)
+        if instead is None:
+            lines.append(f"the moves bond {name(i)} to {to(j, order)}, the {what} does not")
+            continue
+        only_written.remove(instead)
+        x, y, written_order = instead
+        shared, derived_end = (i, j) if i in (x, y) else (j, i)
+        written_end = y if x == shared else x
+        lines.append(f"the moves bond {name(shared)} to {to(derived_end, order)}; "
+                     f"the {what} bonds {name(shared)} to {to(written_end, written_order)} instead")
+    lines += [f"the {what} bonds {name(x)} to {to(y, order)}, the moves do not" for x, y, order in only_written]
+    return lines
 
 
 class CheckpointsMatch(Check):
