@@ -1591,7 +1591,10 @@ def _proton_transfers(scene):
 def test_a_proton_partner_on_another_molecule_stands_within_reach(text, name):
     """The partner of a proton transfer between two molecules is drawn next to the atom it
     protonates or deprotonates (common practice in organic chemistry texts): the atom whose lone
-    pair takes the hydrogen stands at most 3.3 bond lengths from the atom that holds it. Before
+    pair takes the hydrogen stands at most 3.5 bond lengths from the atom that holds it (the
+    layout's farthest hop: a bond, TRANSFER_GAP and one more bond length, taken where nearer spots
+    are blocked: the Robinson annulation's ethoxide, beyond the enone that waits clear of the
+    ketone's hydrogen, stands there; the rest are within 3.3). Before
     acids and bases were redrawn beside the partner of each turn, the Knoevenagel ethanol stood
     4.5 bond lengths from the alkoxide it protonates, across two bonds; the farthest is 3.25 now
     (the acetaldehyde aldol's water; the Knoevenagel ethoxide 2.5). The chloride of AlCl4- that
@@ -1617,7 +1620,7 @@ def test_a_proton_partner_on_another_molecule_stands_within_reach(text, name):
             if len(holder) != 1 or molecule[holder[0]] is molecule[base] or holder[0] not in where:
                 continue
             distance = _distance(where[base], where[holder[0]]) / scene.bond_length
-            assert distance <= 3.3, (panel.index, arrow.move, distance)
+            assert distance <= 3.5 + 1e-9, (panel.index, arrow.move, distance)
 
 
 @pytest.mark.parametrize("text,name", [p for p in _mechanisms() if p.values[1] in _CORPUS])
@@ -2314,3 +2317,35 @@ def test_an_iminium_waiting_for_a_later_enol_stands_beside_the_ketone():
     where = {a.index: complex(*a.position) for a in panel.atoms}
     gap = abs(where[by_map[1]] - where[by_map[5]]) / scene.bond_length
     assert 1.2 <= gap <= 2.6
+
+
+@pytest.mark.parametrize("name, panel_index, holder_map, least", [
+    ("07-annulation-wieland-miescher.mech", 1, 3, 1.2),   # the enolate oxygen O3, before the Michael step
+    ("robinson annulation", 0, None, 0.85),                # the hydrogen ethoxide takes from C6
+])
+def test_an_enone_waiting_for_a_michael_step_keeps_off_its_partner_s_substituents(name, panel_index, holder_map, least):
+    """An annulation's enone is one cluster with the ketone (the ring they close two steps later),
+    depicted curled where that ring sets it. Before the Michael step it is a separate molecule and
+    waits apart (common practice: a reagent is drawn beside its partner, not on it; IUPAC 2008
+    keeps labels clear of other molecules' bonds). Curled, the enone stood on the spot of what the
+    ketone carries meanwhile: in the Wieland-Miescher scheme the enolate oxygen stood 0.98 bond
+    lengths from the enone's carbonyl carbon, its minus sign on the enone's C-C bond; in the
+    Robinson annulation the hydrogen ethoxide takes stood 0.51 from the enone's CH2."""
+    if name.endswith(".mech"):
+        path = ROOT / "gallery" / name
+        trace, _, scene = _scene(path.read_text(encoding="utf-8"), name)
+    else:
+        trace, _, scene = _scene(TEXTBOOK[name][0], name)
+    panel = scene.panels[panel_index]
+    state = trace.steps[panel.step].before
+    enone = next(set(f) for f in Chem.GetMolFrags(state.mol)
+                 if any(state.mol.GetAtomWithIdx(i).GetAtomMapNum() == 9 for i in f))
+    if holder_map is not None:
+        mine = {i for i in range(state.mol.GetNumAtoms()) if state.mol.GetAtomWithIdx(i).GetAtomMapNum() == holder_map}
+    else:   # the hydrogen on C6 that the first step moves
+        c6 = next(a.GetIdx() for a in state.mol.GetAtoms() if a.GetAtomMapNum() == 6)
+        mine = {n.GetIdx() for n in state.mol.GetAtomWithIdx(c6).GetNeighbors() if n.GetAtomicNum() == 1}
+    where = {a.index: complex(*a.position) for a in panel.atoms}
+    assert mine and mine <= set(where)
+    nearest = min(abs(where[i] - where[j]) for i in mine for j in enone if j in where) / scene.bond_length
+    assert nearest >= least, nearest

@@ -52,6 +52,8 @@ CYCLOADDITION_GAP = 1.8
 APPROACH = 2.2
 _CLEARANCE = 1.2     # nearest approach allowed between atoms of separately placed clusters
 _HELD_APART_ROOM = 0.8   # least room for a cycloaddition partner held off its partner
+_CURLED = 1.3        # a bond about to form, depicted shorter than this, is drawn curled into its ring
+_TAKEN = 0.4         # an atom this near a spot stands on it
 _CROWDED = 0.8       # atoms of two clusters nearer than this read as one jumble (labels overlap)
 _HYDROGEN_ROOM = 0.85   # nearest approach of any other atom to a travelling hydrogen
 _FED_ANGLE = math.radians(80)   # least angle between a C-H and the bond its pair goes into
@@ -352,6 +354,29 @@ def _any_inside_ring(points, rings: Iterable[list[int]], atoms: Iterable[int]) -
         if any(a not in ring and inside_polygon(points[a], polygon) for a in atoms):
             return True
     return False
+
+
+def _held_off(local: dict[int, complex], atoms: frozenset[int], ends: list[tuple[int, int]], out: complex,
+              gap: float, enough: float, avoid: Sequence[complex] = ()) -> complex:
+    """How far to shift `atoms` of a depiction so that the bonds `ends` (moving atom, fixed atom)
+    open to `gap` on average: along `out`, or turned up to 60 degrees either way, as little as
+    gives `enough` room from the atoms that stay and the spots to `avoid` (else the roomiest)."""
+    moving = np.array([local[a] for a in sorted(atoms)], dtype=complex)
+    still = np.array([p for a, p in local.items() if a not in atoms] + list(avoid), dtype=complex)
+    offset, best = 0j, -1.0
+    for degrees in (0, 15, -15, 30, -30, 45, -45, 60, -60):
+        away = out * cmath.rect(1.0, math.radians(degrees))
+        for step_out in range(1, 101):
+            shift = away * 0.02 * step_out
+            mean = sum(abs(local[i] + shift - local[j]) for i, j in ends) / len(ends)
+            if mean >= gap:
+                break
+        room = float(np.abs(moving[:, None] + shift - still[None, :]).min()) if len(still) else 9.0
+        if room > best:
+            offset, best = shift, room
+        if room >= enough:
+            break
+    return offset
 
 
 @lru_cache(maxsize=None)
@@ -747,18 +772,26 @@ class _LayoutBuilder:
             for r in runs:
                 if r.holder == end and r.first == k and r.last == k + 1:
                     return False
-        start = self.positions[panels[0]][end]
-        centre = self.positions[panels[0]][pivot]
-        crowd = np.array(sorted({p for q in panels for a, p in self.positions[q].items() if a not in (end, pivot)},
+        # A molecule that arrives as a whole may wait apart in the early panels (_hold_apart_staged):
+        # then the swing is worked out where it closes (panel k) and made in each panel about
+        # the pivot as it stands there, so the molecule keeps its shape (a rigid body).
+        arm = self.positions[panels[-1]][end] - self.positions[panels[-1]][pivot]
+        held_apart = len({self.positions[p][pivot] for p in panels}) > 1 and all(
+            abs(self.positions[p][end] - self.positions[p][pivot] - arm) < 1e-9 for p in panels)
+        frame = panels[-1] if held_apart else panels[0]
+        start = self.positions[frame][end]
+        centre = self.positions[frame][pivot]
+        crowd = np.array(sorted({p + (centre - self.positions[q][pivot]) for q in panels
+                                 for a, p in self.positions[q].items() if a not in (end, pivot)},
                                 key=lambda z: (z.real, z.imag)), dtype=complex)
         best, best_score = None, -math.inf
         if target is not None:
-            if abs(start - self.positions[panels[0]][partner]) >= target - 0.05:
+            if abs(start - self.positions[frame][partner]) >= target - 0.05:
                 return False
-            crowd = crowd[np.abs(crowd - self.positions[panels[0]][partner]) > 1e-6]
+            crowd = crowd[np.abs(crowd - self.positions[frame][partner]) > 1e-6]
             for degrees in range(-80, 81, 5):
                 spot = centre + (start - centre) * cmath.rect(1.0, math.radians(degrees))
-                reach = abs(spot - self.positions[panels[0]][partner])
+                reach = abs(spot - self.positions[frame][partner])
                 score = -abs(reach - target) - 0.001 * abs(degrees)
                 if reach < 1.2 or score <= best_score:
                     continue   # the room around a spot that would not win is not measured
@@ -771,7 +804,7 @@ class _LayoutBuilder:
             # A neighbour the crowded partner holds meanwhile that is not placed yet (the acetal
             # carbon's hydroxyl, which leaves as water, in a cluster of its own) will stand in the
             # partner's widest gap: the end keeps clear of that spot too.
-            here = self.positions[panels[0]]
+            here = self.positions[frame]
             if any(n != end and n not in here and self.element[n] != 1
                    and any((min(partner, n), max(partner, n)) in self.bonds_in[p] for p in panels)
                    for n in self.neighbours[partner]):
@@ -791,7 +824,7 @@ class _LayoutBuilder:
             if best is None or best_score < 1.0:
                 return False
         for p in panels:
-            self.positions[p][end] = best
+            self.positions[p][end] = best + (self.positions[p][pivot] - centre) if held_apart else best
         return True
 
     def _flip(self, end: int, partner: int, k: int) -> Optional[tuple[float, range, dict[int, complex]]]:
@@ -929,8 +962,11 @@ class _LayoutBuilder:
                     or any(self._opens_small_ring(cluster.atoms, k) for k in range(self.n - 1))):
                 cluster.local, cluster.phases = self._phases(cluster.atoms)
         self.cluster_of = {a: k for k, c in enumerate(self.clusters) for a in c.atoms}
-        for sides, bonds in partners:
-            self._hold_apart(sides, bonds)
+        # Partners that meet in one step first (the depiction may be turned for them), then those
+        # whose ring forms over several steps.
+        staged = [(sides, bonds) for sides, bonds in partners if not self._hold_apart(sides, bonds)]
+        for sides, bonds in staged:
+            self._hold_apart_staged(sides, bonds)
         # The largest cluster; of two alike (two tributyltin species), the one the first step
         # touches, so that the other, waiting for a later step, is placed round the action.
         self.main = min(range(len(self.clusters)), key=lambda k: (-len(self.clusters[k].atoms), self._first_touch(k),
@@ -1172,31 +1208,28 @@ class _LayoutBuilder:
         for member in members:
             groups.join(anchor, member)
 
-    def _hold_apart(self, sides: tuple[frozenset[int], frozenset[int]], bonds: list[tuple[int, int]]) -> None:
+    def _hold_apart(self, sides: tuple[frozenset[int], frozenset[int]], bonds: list[tuple[int, int]]) -> bool:
         """Two species that make a ring between them (a cycloaddition) are drawn facing each
         other with the forming bonds open, about CYCLOADDITION_GAP bond lengths, until the step that
         makes them: the diene s-cis and the dienophile across its termini, as chemists draw it, so
         the arrows into the forming bonds have room. One side moves, as a whole, only if the
         forming step touches every atom of it or it is a separate molecule until then (it slides
         in rigidly); the smaller such side moves, and the depiction is
-        turned so that it waits on the right (a dienophile upright beside the diene)."""
+        turned so that it waits on the right (a dienophile upright beside the diene). A ring
+        whose bonds form at different steps (a Michael addition, then the ring-closing aldol of
+        an annulation) is left to _hold_apart_staged: False for those, True otherwise."""
         cluster = self.clusters[self.cluster_of[bonds[0][0]]]
         formed = [k for k in range(self.n) if all(b in self.bonds_in[k] for b in bonds)]
         if not formed or formed[0] == 0:
-            return
+            return True
         step = formed[0] - 1
         if any(b in self.bonds_in[k] for b in bonds for k in range(step + 1)):
-            return
+            return False
         local = cluster.local
-        choices = []
-        for side, other in (sides, sides[::-1]):
-            atoms = frozenset(a for a in cluster.atoms if a in side or (
-                self.element[a] == 1 and any(n in side for n in self.neighbours[a])))
-            if atoms <= self.touched[step] or atoms <= self.joining[step]:   # it may move as a whole
-                choices.append((len(atoms), sorted(atoms), atoms, side, other))
-        if not choices:
-            return
-        _, _, atoms, side, other = min(choices)
+        chosen = self._moving_side(cluster, sides, step)
+        if chosen is None:
+            return True
+        atoms, side = chosen
         ends = [(i, j) if i in side else (j, i) for i, j in bonds]
         # The scheme reads left to right: the whole depiction is turned so that the partner that
         # moves in waits on the right, its forming bonds pointing back at the other across the gap.
@@ -1206,23 +1239,90 @@ class _LayoutBuilder:
         # Straight out to the right, unless that sets the moving side on the rest of the cluster
         # (the aldehyde of a Corey-Fuchs oxaphosphetane, drawn from the first panel, landed on a
         # phenyl of the phosphorus): then turned up or down as little as clears it.
-        moving = np.array([local[a] for a in sorted(atoms)], dtype=complex)
-        still = np.array([p for a, p in local.items() if a not in atoms], dtype=complex)
-        offset, best = 0j, -1.0
-        for degrees in (0, 15, -15, 30, -30, 45, -45, 60, -60):
-            away = cmath.rect(1.0, math.radians(degrees))
-            for step_out in range(1, 101):
-                shift = away * 0.02 * step_out
-                mean = sum(abs(local[i] + shift - local[j]) for i, j in ends) / len(ends)
-                if mean >= CYCLOADDITION_GAP:
-                    break
-            room = float(np.abs(moving[:, None] + shift - still[None, :]).min()) if len(still) else 9.0
-            if room > best:
-                offset, best = shift, room
-            if room >= _HELD_APART_ROOM:
-                break
+        offset = _held_off(local, atoms, ends, 1 + 0j, CYCLOADDITION_GAP, _HELD_APART_ROOM)
         first = min(k for k in range(self.n) if atoms & self.exists[k])
         cluster.openings.append((atoms, first, step, offset))
+        return True
+
+    def _hold_apart_staged(self, sides: tuple[frozenset[int], frozenset[int]], bonds: list[tuple[int, int]]) -> None:
+        """The partners of a ring made over several steps, in the panels before the first of its
+        bonds forms: the molecule that arrives (the enone of a Robinson annulation) waits about
+        APPROACH bond lengths out along the bond it makes first, as a separate reagent waits,
+        not curled onto its partner where the depiction of the finished ring sets it (the enone's
+        CH2 stood 0.5 bond lengths from the hydrogen its partner loses first; its carbonyl carbon
+        a bond length from the enolate oxygen). Not turned: the rest of the scheme keeps its
+        orientation. Only where, curled so, the molecule stands on the spot of what its partner
+        carries meanwhile (_satellite_crowding). The whole molecule moves (every atom of the
+        cluster in it), over the panels in which it is that same molecule; not one already held
+        apart."""
+        cluster = self.clusters[self.cluster_of[bonds[0][0]]]
+        first_bonded = min(k for k in range(self.n) if any(b in self.bonds_in[k] for b in bonds))
+        if first_bonded == 0:
+            return
+        step = first_bonded - 1
+        chosen = self._moving_side(cluster, sides, step)
+        if chosen is None:
+            return
+        _, side = chosen
+        molecule = next((set(m) for m in self.molecules[step] if side & set(m)), set())
+        atoms = frozenset(a for a in cluster.atoms if a in molecule)
+        if not atoms <= self.joining[step] or any(atoms & held for held, *_ in cluster.openings):
+            return
+        first = step
+        while first > 0 and atoms <= self.exists[first - 1] and any(
+                set(m) & atoms == atoms and len(set(m) & set(cluster.atoms)) == len(atoms) for m in self.molecules[first - 1]):
+            first -= 1
+        local = cluster.local_at(step)
+        while first < step and cluster.local_at(first) is not local:
+            first += 1   # (from a depiction of its own, a phase, the molecule already stands apart)
+        ends = [(i, j) if i in atoms else (j, i) for i, j in bonds if (i, j) in self.bonds_in[first_bonded]]
+        if not ends or sum(abs(local[i] - local[j]) for i, j in ends) / len(ends) > _CURLED:
+            return   # the depiction of these panels has the partners apart already
+        out = unit(sum(local[i] for i, _ in ends) - sum(local[j] for _, j in ends))
+        if out == 0:
+            return
+        spots, bases = self._satellites(atoms, bonds, range(first, step + 1), local)
+        if min((abs(local[a] - spot) for a in atoms if a in local for spot in spots), default=math.inf) > _TAKEN:
+            return   # curled as the ring sets it, it takes no partner's spot: drawn so (a diol beside its ketone)
+        offset = _held_off(local, atoms, ends, out, APPROACH, _CLEARANCE, spots + bases)
+        cluster.openings.append((atoms, first, step, offset))
+
+    def _satellites(self, atoms: frozenset[int], bonds: list[tuple[int, int]], panels: range,
+                    local: dict[int, complex]) -> tuple[list[complex], list[complex]]:
+        """Where the still side's ring-bond atoms will carry, in `panels`, what the depiction
+        leaves out (an atom of another cluster, such as a ring ketone's oxygen; a drawn hydrogen),
+        each estimated in its holder's widest gap; beyond a drawn hydrogen, where the base that
+        takes it will stand (TRANSFER_GAP on). (The spots, and the bases' spots.)"""
+        spots, beyond = [], []
+        holders = sorted({a for bond in bonds for a in bond if a not in atoms})
+        for k in panels:
+            for holder in holders:
+                bonded = [n for n in self.neighbours[holder] if (min(holder, n), max(holder, n)) in self.bonds_in[k]]
+                carried = [n for n in bonded if n not in local or n in self.drawn_h and self._drawn_in(n, k)]
+                if not carried:
+                    continue
+                way = free_direction(local[holder], [local[n] for n in bonded if n in local and n not in carried])
+                spots.append(local[holder] + way)
+                if any(n in self.drawn_h for n in carried):
+                    # (within a turn either way: the hydrogen is set in the room left to it)
+                    beyond += [local[holder] + way * _rotor(turn, 9) * (1.0 + TRANSFER_GAP) for turn in (-1, 0, 1)]
+        return spots, beyond
+
+    def _moving_side(self, cluster: _Cluster, sides: tuple[frozenset[int], frozenset[int]], step: int
+                     ) -> Optional[tuple[frozenset[int], frozenset[int]]]:
+        """Of two partners held apart before `step`, the smaller that may move as a whole (the
+        step touches every atom of it, or it is a separate molecule until then): its atoms (the
+        side's heavy atoms and their hydrogens in the cluster) and the side; None if neither may."""
+        choices = []
+        for side, other in (sides, sides[::-1]):
+            atoms = frozenset(a for a in cluster.atoms if a in side or (
+                self.element[a] == 1 and any(n in side for n in self.neighbours[a])))
+            if atoms <= self.touched[step] or atoms <= self.joining[step]:   # it may move as a whole
+                choices.append((len(atoms), sorted(atoms), atoms, side))
+        if not choices:
+            return None
+        _, _, atoms, side = min(choices)
+        return atoms, side
 
     def _in_group(self, group: list[int], panels: Iterable[int]) -> set[tuple[int, int]]:
         members = set(group)
