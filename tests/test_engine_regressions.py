@@ -210,3 +210,86 @@ def test_textbook_steps_the_cation_and_leaving_group_checks_leave_alone(name, te
     (AR511 saw a primary cation with nothing beside it), the Chichibabin's hydride loss (AR510)."""
     _, diags = check_text(text, name)
     assert not [d for d in diags if d.code == code], [d.to_text() for d in diags]
+
+
+# AR517: hydroxide or an alkoxide pushed out of carbon while a strong acid stands by (textbook:
+# in acid the oxygen is protonated first and leaves as water or an alcohol; Clayden, acid-catalysed
+# acetal hydrolysis, ester formation and epoxide opening).
+_LACTOL_IN_HCL = """\
+species lactol = "[OH:1][CH:2]1[O:3][CH2:4][CH2:5][CH2:6][CH2:7]1"
+species acid = "[Cl:10][H:11]"
+step "loss of hydroxide to the oxocarbenium ion"
+    :O3 -> C2=O3
+    C2-O1 -> O1
+end
+"""
+_EPOXIDE_IN_ACID = """\
+species epoxide = "[CH3:7][C:1]12CCCC[CH:2]1[O:3]2"
+species acid = "[OH3+:10]"
+species water = "[OH2:11]"
+step "water at the tertiary carbon"
+    :O11 -> C1
+    C1-O3 -> O3
+end
+"""
+_ACETAL_WITH_ITS_OWN_OXONIUM = """\
+species acetal = "[CH3:1][C:2]([CH3:3])([OH+:4][CH3:5])[O:6][CH3:7]"
+species water  = "[OH2:11]"
+species acid   = "[OH3+:12]"
+step "the proton taken as the oxocarbenium ion forms"
+    :O11 -> H(O4)
+    O4-H -> O4
+    :O6 -> C2=O6
+    C2-O4 -> O4
+end
+"""
+_SAPONIFICATION_WITH_ITS_WORKUP_ACID_DECLARED_FIRST = """\
+species ester = "c1ccccc1[C:2](=[O:3])[O:4][CH3:6]"
+species base  = "[OH-:5]"
+species workup_acid = "[OH3+:10]"
+step "addition"
+    :O5 -> C2
+    C2=O3 -> O3
+end
+step "loss of methoxide"
+    :O3 -> C2=O3
+    C2-O4 -> O4
+end
+"""
+
+
+@pytest.mark.parametrize("text, says", [
+    (_LACTOL_IN_HCL, "while the hydrogen halide Cl10 is there to protonate it"),
+    (_EPOXIDE_IN_ACID, "while the oxonium ion O10 is there to protonate it"),   # a small ring too
+    (_ACETAL_WITH_ITS_OWN_OXONIUM, "while the oxonium ion O12 is there"),      # not O4, the one leaving
+])
+def test_an_alkoxide_pushed_out_beside_a_strong_acid_is_flagged(text, says):
+    """Hydroxide leaving a lactol beside HCl, an epoxide opened by water beside H3O+ without its
+    oxygen protonated (the acid route protonates it, which also explains the attack at the more
+    substituted carbon), and an acetal whose own protonated oxygen loses its proton as it leaves:
+    each was silent (only H3O+-type acids were counted, small rings were passed over) or named
+    the leaving oxygen as its own acid ("`:O4 -> H(O4)`")."""
+    _, diags = check_text(text, "acid.mech")
+    found = [d for d in diags if d.code == "AR517"]
+    assert len(found) == 1 and says in found[0].message, [d.to_text() for d in diags]
+    assert "H(O4)" not in found[0].hint
+
+
+def test_a_workup_acid_declared_at_the_start_is_told_to_come_in_with_uses():
+    """Saponification (Clayden, ester hydrolysis in base): methoxide leaves in NaOH. An author who
+    declares the workup's H3O+ among the species has it in the flask from the start, so AR517
+    fires; its hint now says how to write a workup acid (`uses` in the step where it acts)
+    instead of only telling the author to protonate an alkoxide in base."""
+    _, diags = check_text(_SAPONIFICATION_WITH_ITS_WORKUP_ACID_DECLARED_FIRST, "saponification.mech")
+    found = [d for d in diags if d.code == "AR517"]
+    assert len(found) == 1 and "bring it in with `uses`" in found[0].hint
+
+
+def test_a_gap_just_over_the_threshold_is_printed_with_a_decimal():
+    """Pyridinium (5.2) protonating a ketone (protonated carbonyl ~-7; both memory) is 12.2 units
+    uphill, over the default 12: printed "about 12" it read as if the check were wrong."""
+    text = ('species ketone = "[O:2]=[C:1]1CCCCC1"\nspecies ppts = "c1cc[nH+:30]cc1"\n'
+            'step "protonation"\n    :O2 -> H(N30)\n    N30-H -> N30\nend\n')
+    _, diags = check_text(text, "ppts.mech")
+    found = [d for d in diags if d.code == "AR508"]
+    assert len(found) == 1 and "uphill by about 12.2 pKa units" in found[0].message

@@ -1,5 +1,5 @@
 """Leaving groups that depart from carbon as very strong bases (AR510), hydroxide or an alkoxide
-left to ionise (AR515) or pushed out while an oxonium acid stands by (AR517).
+left to ionise (AR515) or pushed out while a strong acid stands by (AR517).
 
 A pair move from a bond to one of that bond's atoms (`C8-N20 -> N20`) breaks the bond and leaves
 the pair on that atom: a leaving group. A good leaving group is a weak base (common practice: the
@@ -60,7 +60,16 @@ class StrongBaseLeavingGroups(Check):
     name = "leaving groups"
     codes = ("AR510", "AR515", "AR517")
 
+    def __init__(self) -> None:
+        self.acted: set[int] = set()   # atoms the steps so far have touched (AR517's hint)
+
     def step(self, st: StepTrace, context) -> Iterator[Diagnostic]:
+        if st.index == 0:
+            self.acted = set()
+        yield from self._judged(st)
+        self.acted |= set(st.change.touched_atoms)
+
+    def _judged(self, st: StepTrace) -> Iterator[Diagnostic]:
         after = st.after
         if after is None:
             return
@@ -76,7 +85,7 @@ class StrongBaseLeavingGroups(Check):
                 continue
             centre = move.source_atoms[1] if move.source_atoms[0] == leaving else move.source_atoms[0]
             if (elements[centre] != 6 or (min(leaving, centre), max(leaving, centre)) not in broken
-                    or after.formal_charge(leaving) >= 0 or in_small_ring(st.before.mol, leaving, centre)):
+                    or after.formal_charge(leaving) >= 0):
                 continue
             if elements[leaving] == 1 and perceived(after.mol).GetAtomWithIdx(centre).GetIsAromatic():
                 continue   # a hydride that leaves as the ring turns aromatic again (the Chichibabin amination)
@@ -84,19 +93,25 @@ class StrongBaseLeavingGroups(Check):
             label = st.before.label
             if elements[leaving] == 8 and after.formal_charge(leaving) > -2 and not ionised:
                 # An alkoxide pushed out (an E1cB, a tetrahedral intermediate): judged only where
-                # an oxonium acid stands by, which would have protonated it first. (A carboxylate or
-                # phenoxide, a weak base, leaves in acid too.)
-                oxonium = _oxonium_acid(st.before)
-                acid = conjugate_acid(after.mol, leaving) if oxonium is not None else None
+                # a strong acid stands by, which would have protonated it first (an epoxide's
+                # oxygen too: in acid it opens protonated). A carboxylate or phenoxide, a weak
+                # base, leaves in acid too.
+                strong = _strong_acid(st.before, set(st.change.touched_atoms))
+                acid = conjugate_acid(after.mol, leaving) if strong is not None else None
                 if acid is not None and _IONISING_OXYGEN_ACID <= acid.pka < STRONGEST_LEAVING_BASE:
+                    site, kind = strong
+                    hint = (f"in acid the oxygen is protonated first and leaves as {_neutral(acid)}: add a step "
+                            f"`:{label(leaving)} -> H({label(site)})` before this one")
+                    if st.index > 0 and site not in self.acted:   # there from the start, untouched so far
+                        hint += (f"; if {label(site)} is a workup acid, bring it in with `uses` in the step "
+                                 f"where it acts")
                     yield Diagnostic(
                         "AR517", f"{label(leaving)} leaves {label(centre)} as {acid.base} (pKa of {acid.acid} "
-                        f"{acid.shown}) while the oxonium ion {label(oxonium)} is there to protonate it",
-                        move.move.loc,
-                        hint=f"in acid the oxygen is protonated first and leaves as {_neutral(acid)}: add a step "
-                             f"`:{label(leaving)} -> H({label(oxonium)})` before this one",
-                        atoms=(label(leaving), label(centre), label(oxonium)), step=st.index)
+                        f"{acid.shown}) while {kind} {label(site)} is there to protonate it",
+                        move.move.loc, hint=hint, atoms=(label(leaving), label(centre), label(site)), step=st.index)
                 continue
+            if in_small_ring(st.before.mol, leaving, centre):
+                continue   # the strain released drives the opening (the Favorskii's carbanion)
             acid = conjugate_acid(after.mol, leaving)
             if (acid is not None and elements[leaving] == 8 and _IONISING_OXYGEN_ACID <= acid.pka < STRONGEST_LEAVING_BASE
                     and ionised):
@@ -116,14 +131,29 @@ class StrongBaseLeavingGroups(Check):
                 atoms=(label(leaving), label(centre)), step=st.index)
 
 
-def _oxonium_acid(state) -> Optional[int]:
-    """The first oxygen of `state` that is an oxonium acid (H3O+, ROH2+, R2OH+, C=OH+: pKa below
-    about 0, memory), or None."""
+def _strong_acid(state, touched: set[int]) -> Optional[tuple[int, str]]:
+    """An atom of `state` that carries the proton of a strong acid (pKa below about 0, memory) and
+    what the acid is: an oxonium ion (H3O+, ROH2+, R2OH+, C=OH+), a hydrogen halide (HCl, HBr,
+    HI), a sulfonic or sulfuric acid's O-H. One the step leaves alone first (an oxonium the step
+    itself unmakes is no bystander), else None."""
     elements, mol = state.elements, state.mol
+    found = []
     for i, element in enumerate(elements):
-        if element == 8 and state.formal_charge(i) == 1 and mol.GetAtomWithIdx(i).GetTotalNumHs(includeNeighbors=True):
-            return i
-    return None
+        if element not in (8, 17, 35, 53):
+            continue
+        atom = mol.GetAtomWithIdx(i)
+        if not atom.GetTotalNumHs(includeNeighbors=True):
+            continue
+        charge = state.formal_charge(i)
+        if element == 8 and charge == 1:
+            found.append((i, "the oxonium ion"))
+        elif element != 8 and charge == 0 and not any(n.GetAtomicNum() != 1 for n in atom.GetNeighbors()):
+            found.append((i, "the hydrogen halide"))
+        elif element == 8 and charge == 0 and any(
+                n.GetAtomicNum() == 16 and sum(b.GetBondTypeAsDouble() == 2 for b in n.GetBonds()) >= 2
+                for n in atom.GetNeighbors()):
+            found.append((i, "the sulfonic or sulfuric acid"))
+    return next((f for f in found if f[0] not in touched), None)
 
 
 def _neutral(acid: Acidity) -> str:

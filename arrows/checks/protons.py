@@ -146,6 +146,12 @@ def _next_to_cation(state, atom: int) -> bool:
     return False
 
 
+def _units(uphill: float, gap: float) -> str:
+    """The gap as a whole number, unless that would read as no more than the threshold ("uphill by
+    about 12 ... the threshold is 12"): then with one decimal."""
+    return f"{uphill:.0f}" if round(uphill) > gap else f"{uphill:.1f}"
+
+
 class UphillProtonTransfers(Check):
     name = "proton transfers"
     codes = ("AR508",)
@@ -164,7 +170,7 @@ class UphillProtonTransfers(Check):
             yield Diagnostic(
                 "AR508",
                 f"{base.base} (pKa of {base.acid} {base.shown}) removing {acid.site} ({acid.shown}): "
-                f"uphill by about {uphill:.0f} pKa units ({label_b} takes the proton of {label_x})",
+                f"uphill by about {_units(uphill, gap)} pKa units ({label_b} takes the proton of {label_x})",
                 t.loc, hint=f"a base whose conjugate acid has a pKa near {acid.shown} is needed, or another "
                 f"proton is meant; the threshold is {gap:g} units (`arrows check --pka-gap`)",
                 atoms=(label_b, label_x), step=st.index)
