@@ -337,7 +337,9 @@ CODES = _table(
          '    C2-O3 -> O3   # C2=O3 is a double bond: write C2=O3 -> O3\n'
          'end'),
     Code("AR508", WARNING, "uphill proton transfer",
-         "The base's conjugate acid is much weaker than the acid it deprotonates. Not judged: a "
+         "The base's conjugate acid is much weaker than the acid it deprotonates. An alkene that "
+         "takes a proton to make a bare carbocation is judged against an estimate for that "
+         "carbocation's C-H (~-10): only a strong acid protonates it. Not judged: a "
          "proton beside a cation (E1, a protonated carbonyl's alpha C-H) or one whose loss makes "
          "its atom aromatic (an arenium ion or a sigma complex rearomatising).",
          'species acetone = "[CH3:1][C:2](=[O:3])[CH3:4]"\n'

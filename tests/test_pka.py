@@ -386,3 +386,33 @@ def test_chloride_takes_the_proton_of_an_n_acylammonium_ion():
     alkylammonium ion (~10): "uphill by about 17"."""
     _, diags = check_text(ACYLATION_WITHOUT_ADDED_BASE, "acylation.mech")
     assert [d.code for d in diags if d.severity in ("error", "warning")] == []
+
+
+@pytest.mark.parametrize("acid, flagged", [
+    ('species methanol = "[CH3:5][OH:6]"', True),   # methanol (~15.5): 26 units over a carbocation's C-H
+    ('species water = "[OH2:6]"', True),             # water (15.7)
+    ('species acid = "[OH3+:6]"', False),            # hydronium (-1.7): the acid-catalysed hydration
+])
+def test_only_a_strong_acid_protonates_an_alkene_to_a_carbocation(acid, flagged):
+    """Acid-catalysed hydration of 2-methylpropene (Clayden, electrophilic addition to alkenes;
+    textbook): the alkene takes H3O+'s proton to give the tert-butyl cation. Water or methanol
+    alone does not (common practice), but the transfer went unjudged: a pi pair that leaves a
+    cation beside it was passed over. The carbocation's C-H is taken as a strong acid, ~-10
+    (an estimate, memory; no tabulated value)."""
+    text = (f'species alkene = "[CH2:1]=[C:2]([CH3:3])[CH3:4]"\n{acid}\n'
+            'step "protonation"\n    C1=C2 -> C1-H(O6)\n    O6-H -> O6\nend\n')
+    _, diags = check_text(text, "alkene.mech")
+    found = [d for d in diags if d.code == "AR508"]
+    assert bool(found) == flagged, [d.to_text() for d in diags]
+    if flagged:
+        assert "to make a carbocation" in found[0].message and "strong acid" in found[0].hint
+
+
+def test_an_enol_protonated_on_carbon_is_not_judged_as_a_carbocation():
+    """An enol's C=C taking a proton makes an oxocarbenium ion (a protonated ketone), its charge
+    shared by the oxygen's lone pair: not the bare carbocation of an alkene (acid-catalysed
+    tautomerism; textbook). Not judged by the carbocation estimate."""
+    text = ('species enol = "[CH2:1]=[C:2]([OH:3])[CH3:4]"\nspecies water = "[OH2:6]"\n'
+            'step "protonation on carbon"\n    C1=C2 -> C1-H(O6)\n    O6-H -> O6\nend\n')
+    _, diags = check_text(text, "enol.mech")
+    assert not [d for d in diags if d.code == "AR508" and "carbocation" in d.message]

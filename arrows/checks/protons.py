@@ -77,11 +77,20 @@ def proton_transfers(st: StepTrace, views: Optional[RecentViews] = None) -> list
         if any(b is not given_up[0] and elements[b[0]] != 1 and elements[b[1]] != 1
                and before.GetBondBetweenAtoms(*b).GetBondTypeAsDouble() == 1 for b in broken):
             continue   # a concerted elimination, not a plain proton transfer
-        if (m.source_kind == "bond" and _next_to_cation(st.after, base)) or _next_to_cation(st.before, x):
+        made_cation = False
+        if m.source_kind == "bond" and _next_to_cation(st.after, base):
+            # A pi pair that takes the proton leaves a cation beside it. Judged only where that is a
+            # bare carbocation (an alkene protonated): its C-H, a strong acid, is CARBOCATION's.
+            # Beside a lone pair (an enol's oxocarbenium, an enamine's iminium) no entry of our
+            # table holds it.
+            if not _carbocation_beside(st.after, base):
+                continue
+            made_cation = True
+        if _next_to_cation(st.before, x):
             # A cation's conjugate acid, or a C-H beta to a cation (E1, or the alpha C-H of a
             # protonated carbonyl or an iminium): no entry in our table.
             continue
-        found.append((base, x, h, m.move.loc))
+        found.append((base, x, h, m.move.loc, made_cation))
     if not found:
         return []
     views = RecentViews() if views is None else views
@@ -94,7 +103,26 @@ def proton_transfers(st: StepTrace, views: Optional[RecentViews] = None) -> list
         return []
     def acidity(view: Perceived, atom: int) -> Optional[Acidity]:
         return HYDROGEN if elements[atom] == 1 else _acidity(view, atom)   # H2, given up or made
-    return [ProtonTransfer(b, x, h, loc, acidity(acids, x), acidity(conjugates, b)) for b, x, h, loc in found]
+    return [ProtonTransfer(b, x, h, loc, acidity(acids, x), CARBOCATION if made else acidity(conjugates, b))
+            for b, x, h, loc, made in found]
+
+
+# The C-H beside a carbocation (a protonated alkene) as an acid: no tabulated aqueous value; an
+# estimate of a strong acid's (memory). Only strong acids (H3O+, H2SO4, HX) protonate an alkene
+# to a carbocation (common practice: acid-catalysed hydration; water or an alcohol alone does not).
+CARBOCATION = Acidity("a carbocation's C-H (a protonated alkene)", "an alkene", "[#6+]", -10, "~-10",
+                      "estimate (memory): only strong acids protonate an alkene; no tabulated value")
+
+
+def _carbocation_beside(state, atom: int) -> bool:
+    """Whether a neighbour of `atom` in `state` is a bare carbocation: a carbon with a positive
+    charge, no lone pair, and no neighbour with a lone pair to share the charge."""
+    for n in state.mol.GetAtomWithIdx(atom).GetNeighbors():
+        i = n.GetIdx()
+        if n.GetAtomicNum() == 6 and state.formal_charge(i) > 0 and state.nonbonding[i] == 0 and not any(
+                state.nonbonding[m.GetIdx()] for m in n.GetNeighbors() if m.GetIdx() != atom):
+            return True
+    return False
 
 
 def _acidity(view: Perceived, atom: int) -> Optional[Acidity]:
@@ -167,6 +195,17 @@ class UphillProtonTransfers(Check):
                 continue
             base, acid = t.conjugate_acid, t.acid
             label_b, label_x = st.before.label(t.base_atom), st.before.label(t.acid_atom)
+            if base is CARBOCATION:
+                yield Diagnostic(
+                    "AR508",
+                    f"an alkene taking {acid.site} ({acid.shown}) to make a carbocation: uphill by about "
+                    f"{_units(uphill, gap)} pKa units against a carbocation's C-H ({base.shown}, an estimate; "
+                    f"{label_b} takes the proton of {label_x})",
+                    t.loc, hint="only a strong acid (H3O+, H2SO4, a hydrogen halide: pKa below about 0) protonates "
+                    "an alkene to a carbocation (common practice: acid-catalysed hydration); take the proton "
+                    f"from one, or another step is meant; the threshold is {gap:g} units (`arrows check --pka-gap`)",
+                    atoms=(label_b, label_x), step=st.index)
+                continue
             yield Diagnostic(
                 "AR508",
                 f"{base.base} (pKa of {base.acid} {base.shown}) removing {acid.site} ({acid.shown}): "
