@@ -228,6 +228,15 @@ def atom_label(mol: Chem.Mol, i: int) -> str:
     return f"{atom.GetSymbol()}(atom {i + 1})"
 
 
+def nameable(mol: Chem.Mol, i: int) -> bool:
+    """Whether a move can name atom i (C7, or H(C3) for a hydrogen on a mapped atom): an atom with
+    no map number is labelled C(atom 5) in messages, which the language cannot write."""
+    atom = mol.GetAtomWithIdx(i)
+    if atom.GetAtomMapNum():
+        return True
+    return atom.GetAtomicNum() == 1 and atom.GetDegree() == 1 and bool(atom.GetNeighbors()[0].GetAtomMapNum())
+
+
 def bond_label(mol: Chem.Mol, i: int, j: int) -> str:
     """C3-C7, or O11-H when one end is a hydrogen on the other."""
     for a, b in ((i, j), (j, i)):
@@ -893,16 +902,16 @@ def _overfull_shell(state: ElectronState, step: Step, step_index: int, replay: _
                     bonds: int, nonbonding: int, changes: dict[Pair, tuple[int, int]]) -> list[Diagnostic]:
     """AR301 for an atom of the first two periods with more valence electrons than its shell holds
     (2 for H and He, 8 for Li to Ne); heavier atoms may expand their octet. The hint names a bond
-    of the atom that the step leaves alone and could break: a pi bond, else one to a heteroatom."""
+    of the atom that the step leaves alone and could break (a pi bond, else one to a heteroatom),
+    else a pi bond the step does not weaken, else names none rather than one the atom lacks."""
     z = state.elements[i]
     limit = 2 if z <= 2 else 8
     if shell <= limit or z > 10:
         return []
     label = state.label(i)
     hint = _repeated_move_hint(step) or _misdirected_pair_hint(state, step, replay, i) \
-        or _room_making_hint(state, i, changes, replay)
-    if hint == _NO_ROOM_NAMED:
-        hint = _proton_hint(state, step, replay, i) or hint
+        or _room_making_hint(state, i, changes, replay) or _proton_hint(state, step, replay, i) \
+        or _unweakened_pi_bond_hint(state, i, changes) or _no_room_named_hint(label)
     return [Diagnostic("AR301", f"{label} would hold {shell} valence electrons "
                        f"({bonds} bond{'s' if bonds != 1 else ''}"
                        f"{f', {nonbonding // 2} lone pair(s)' if nonbonding >= 2 else ''}); the limit is {limit}",
@@ -972,18 +981,22 @@ _LEAVING_ELEMENTS = frozenset((7, 8, 9, 15, 16, 17, 35, 53))   # N, O, F, P, S, 
 
 
 def _room_making_hint(state: ElectronState, i: int, changes: dict[Pair, tuple[int, int]],
-                      replay: _StepReplay) -> str:
+                      replay: _StepReplay) -> Optional[str]:
     """What would keep atom i's shell full but not over: one of its bonds the step leaves alone
     breaking in the same step, its pi bond first (the missing arrow of a concerted step), sent
     where the step leaves an atom short (see _short_of_a_pair), else a bond to a heteroatom (a
-    leaving group)."""
+    leaving group); None when it has no such bond."""
     label = state.label
     kept = [(b.GetOtherAtomIdx(i), b.GetBondTypeAsDouble()) for b in state.mol.GetAtomWithIdx(i).GetBonds()
             if (min(i, b.GetOtherAtomIdx(i)), max(i, b.GetOtherAtomIdx(i))) not in changes
             and state.elements[b.GetOtherAtomIdx(i)] != 1]
+    # A move can name only mapped atoms: a bond to one is offered first.
+    kept.sort(key=lambda bond: not nameable(state.mol, bond[0]))
     pi = [(j, order) for j, order in kept if order >= 2]
     if pi:
         j, order = pi[0]
+        if not nameable(state.mol, j):
+            return f"a bond to {label(i)} must break in the same step: its pi bond to {_needs_map_number(label(j))}"
         bond = f"{label(i)}{'=' if order == 2 else '#'}{label(j)}"
         short = _short_of_a_pair(state, changes, replay, exclude=(i, j))
         if short is not None:
@@ -999,6 +1012,9 @@ def _room_making_hint(state: ElectronState, i: int, changes: dict[Pair, tuple[in
         # A hydrogen taken by a base, whatever holds it (an O-H, the C-H of a formate): the pair
         # of its bond stays on the atom it leaves, written as the language writes an X-H bond.
         holder = kept[0][0]
+        if not nameable(state.mol, holder):
+            return (f"the bond that holds {label(i)} must break in the same step: its bond to "
+                    f"{_needs_map_number(label(holder))}")
         hydrogen = "H" if label(i).startswith("H(") else label(i)   # C3-H for C3's, H5 for a mapped one
         short = _short_of_a_pair(state, changes, replay, exclude=(i, holder))
         beside = state.mol.GetBondBetweenAtoms(holder, short) if short is not None else None
@@ -1014,13 +1030,39 @@ def _room_making_hint(state: ElectronState, i: int, changes: dict[Pair, tuple[in
                 f"`{label(holder)}-{hydrogen} -> {label(holder)}`")
     leaving = [j for j, order in kept if state.elements[j] in _LEAVING_ELEMENTS]
     if leaving:
+        if not nameable(state.mol, leaving[0]):
+            return (f"a bond to {label(i)} must break in the same step: the bond to a leaving group, "
+                    f"{_needs_map_number(label(leaving[0]))}")
         bond = f"{label(i)}-{label(leaving[0])}"
         return (f"a bond to {label(i)} must break in the same step: the bond to a leaving group, for example "
                 f"`{bond} -> {label(leaving[0])}`")
-    return _NO_ROOM_NAMED
+    return None
 
 
-_NO_ROOM_NAMED = "a bond to this atom must break in the same step (for example C=O -> O)"
+def _needs_map_number(atom: str) -> str:
+    """An atom a hint would name in a move, told instead that it needs a map number: the language
+    writes an atom only by its map number (C(atom 5) is a label for messages)."""
+    return f"{atom}, which needs a map number in its species to be named in a move"
+
+
+def _unweakened_pi_bond_hint(state: ElectronState, i: int, changes: dict[Pair, tuple[int, int]]) -> Optional[str]:
+    """When no bond the step leaves alone can make room: a multiple bond the atom has before the
+    step and the step does not weaken (the iminium C1=N3 a step makes triple), written as the move
+    that gives its pi pair to the other atom. One the step weakens has already given its pair."""
+    for bond in state.mol.GetAtomWithIdx(i).GetBonds():
+        j = bond.GetOtherAtomIdx(i)
+        before, after = changes.get(pair(i, j), (0, 0))
+        if before >= 4 and after >= before and nameable(state.mol, j):
+            connector = "=" if before == 4 else "#"
+            return (f"a bond to {state.label(i)} must break in the same step: its pi bond, for example "
+                    f"`{state.label(i)}{connector}{state.label(j)} -> {state.label(j)}`")
+    return None
+
+
+def _no_room_named_hint(atom: str) -> str:
+    """When no bond of the atom is worth naming (a carbon drawn taking a bond its neighbour should)."""
+    return (f"a bond to {atom} must break in the same step, or an arrow that ends at {atom} (or at a bond "
+            f"to it) must end elsewhere")
 
 
 def _short_of_a_pair(state: ElectronState, changes: dict[Pair, tuple[int, int]], replay: _StepReplay,

@@ -137,9 +137,35 @@ def reading_hint(reason: str, otherwise: str) -> str:
             usual, name, written = _ONIUM[match.group(1)]
             return (f"{match.group(1)} with {usual + 1} bonds is an {name} ion: write it with its charge, "
                     f"{written} ([{match.group(1)}H+] if it carries a hydrogen)")
-        return ("count the atom's bonds, hydrogens and charge: in brackets it has exactly the hydrogens "
-                "written ([CH3] three, [C] none), and a carbanion [C-] has at most three bonds")
+        element = _OVER_VALENCE_ELEMENT.search(reason)
+        hydrogens, most_bonds = _bond_limits(element.group(1) if element else "C")
+        return (f"count the atom's bonds, hydrogens and charge: in brackets it has exactly the hydrogens "
+                f"written ({hydrogens})" + (f", and {most_bonds}" if most_bonds else ""))
     return otherwise
+
+
+_OVER_VALENCE_ELEMENT = re.compile(re.escape(_OVER_VALENCE) + r" for ([A-Z][a-z]?) ")
+# For an atom over its valence: how its brackets count hydrogens, and the most bonds it may have
+# with and without a charge (the octet, common practice), in the element's own terms.
+_BOND_LIMITS = {
+    "C": ("[CH3] three, [C] none", "a carbanion [C-] has at most three bonds"),
+    "N": ("[NH2] two, [N] none", "N has at most four bonds as an ammonium [N+], three as a neutral amine"),
+    "O": ("[OH] one, [O] none", "O has at most three bonds as an oxonium [O+], two when neutral"),
+    "B": ("[BH3] three, [B] none", "B has at most four bonds as a borate [B-], three when neutral"),
+}
+
+
+def _bond_limits(element: str) -> tuple[str, str]:
+    """The hydrogen example and the bond limit of _BOND_LIMITS; for another element, the valences
+    RDKit allows it when neutral (none for one it allows any)."""
+    if element in _BOND_LIMITS:
+        return _BOND_LIMITS[element]
+    hydrogens = f"[{element}H] one, [{element}] none"
+    valences = [str(v) for v in Chem.GetPeriodicTable().GetValenceList(element) if v >= 0]
+    if not valences:
+        return hydrogens, ""
+    listed = valences[0] if len(valences) == 1 else f"{', '.join(valences[:-1])} or {valences[-1]}"
+    return hydrogens, f"RDKit allows a neutral {element} a valence of {listed}"
 
 
 _AS_WRITTEN = Chem.SmilesParserParams()   # hydrogens kept, nothing sanitized: read only, shared

@@ -198,3 +198,62 @@ def test_bonds_after_a_step_are_the_bonds_rdkit_lists():
                 assert bonds_after(bond_list(st.before.mol), st.change, st.after.mol) == bond_list(st.after.mol)
                 steps += 1
     assert steps > 50
+
+
+def _hint(text: str, code: str) -> str:
+    _, diags = check_text(text)
+    found = [d for d in diags if d.code == code]
+    assert found, [d.to_text() for d in diags]
+    return found[0].hint
+
+
+def test_an_overfull_atom_with_no_bond_left_alone_is_told_of_a_multiple_bond_it_has():
+    """An iminium carbon given a lone pair while its C=N is made triple: no C=O anywhere, so the
+    hint names the atom's own C1=N3 (it said `C=O -> O`, a bond the molecule lacks)."""
+    hint = _hint('species iminium = "C[NH+:3]=[CH:1]c1ccccc1"\nstep "s"\n'
+                 '    N3-H -> N3#C1\n    C1-H -> C1\nend\n', "AR301")
+    assert "`C1=N3 -> N3`" in hint and "C=O" not in hint
+
+
+def test_an_overfull_atom_with_no_bond_to_name_is_told_so_without_a_false_example():
+    """An enol's carbinol carbon (C6) drawn forming the C-C bond its CH2 end (C5) should form
+    (the enol adds through its CH2 end to the iminium carbon, common practice): every bond to C6
+    is already changed or is a C-C bond, so the hint names none; it once said `C=O -> O`."""
+    hint = _hint('species enol = "[CH2:5]=[C:6]([OH:7])C"\nspecies iminium = "C[N+:3](C)=[CH2:1]"\n'
+                 'step "s"\n    C5=C6 -> C6-C1\n    C1=N3 -> N3\n    :O7 -> C6=O7\nend\n', "AR301")
+    assert "C=O" not in hint and "C6" in hint and "end elsewhere" in hint
+
+
+@pytest.mark.parametrize("species, named, unwritable", [
+    ("C=[CH:1]C", "pi bond to C(atom 1)", "`C1=C(atom 1) -> C(atom 1)`"),            # pi bond
+    ("C[CH2:1]Br", "leaving group, Br(atom 3)", "`C1-Br(atom 3) -> Br(atom 3)`"),  # leaving group
+])
+def test_a_room_making_move_is_not_written_with_an_unmapped_atom(species, named, unwritable):
+    """Hydroxide added to a carbon that keeps all its bonds: the bond that would make room goes to
+    an atom with no map number, which a move cannot name (the hint once wrote `unwritable`), so
+    the hint says that atom needs one."""
+    hint = _hint(f'species s = "{species}"\nspecies hydroxide = "[OH-:5]"\nstep "s"\n    :O5 -> C1\nend\n',
+                 "AR301")
+    assert named in hint and "needs a map number" in hint and unwritable not in hint
+
+
+def test_a_room_making_move_names_a_mapped_neighbour_first():
+    """Of two pi bonds, the one to a mapped atom is written as a move (allene, hydroxide on C1)."""
+    hint = _hint('species allene = "C=[C:1]=[CH2:2]"\nspecies hydroxide = "[OH-:5]"\nstep "s"\n'
+                 '    :O5 -> C1\nend\n', "AR301")
+    assert "`C1=C2 -> C2`" in hint
+
+
+@pytest.mark.parametrize("smiles, says, not_says", [
+    # Five bonds on nitrogen: the hint speaks of N (an ammonium has four, an amine three; the
+    # octet, common practice), not of a carbanion, as it once did for every element.
+    ("C[N:1](C)(C)(C)C", ("[NH2] two", "at most four bonds as an ammonium [N+]", "three as a neutral amine"),
+     ("[C-]", "[CH3]")),
+    ("C[N+:1](C)(C)(C)C", ("ammonium [N+]",), ("[C-]",)),
+    ("C[O:1](C)(C)C", ("at most three bonds as an oxonium [O+]",), ("[C-]",)),
+    ("CS(C)(C)(C)(C)(C)C", ("[SH] one", "RDKit allows a neutral S a valence of 2, 4 or 6"), ("[C-]",)),
+    ("CC(C)(C)(C)C", ("[CH3] three, [C] none", "a carbanion [C-] has at most three bonds"), ()),   # carbon kept
+])
+def test_an_atom_over_its_valence_is_told_the_limits_of_its_own_element(smiles, says, not_says):
+    hint = _hint(f'species a = "{smiles}"\n', "AR102")
+    assert all(s in hint for s in says) and not any(s in hint for s in not_says), hint
