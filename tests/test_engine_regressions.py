@@ -293,3 +293,14 @@ def test_a_gap_just_over_the_threshold_is_printed_with_a_decimal():
     _, diags = check_text(text, "ppts.mech")
     found = [d for d in diags if d.code == "AR508"]
     assert len(found) == 1 and "uphill by about 12.2 pKa units" in found[0].message
+
+
+def test_ar517_never_suggests_a_move_naming_an_unmapped_acid():
+    """Sulfuric acid written without map numbers: the language cannot name its O-H in a move, so
+    AR517's hint says what to do (give it a map number) instead of '`:O3 -> H(O(atom 7))`'."""
+    text = ('species t = "C[C:1]([O-:2])([O:3]C)C"\nspecies acid = "OS(=O)(=O)O"\n'
+            'step "collapse"\n    :O2 -> C1=O2\n    C1-O3 -> O3\nend\n')
+    _, diags = check_text(text, "unmapped.mech")
+    found = [d for d in diags if d.code == "AR517"]
+    assert len(found) == 1 and "(atom" not in found[0].hint.split("before this one")[0].split("`")[1::2].__str__()
+    assert "give O(atom 7) a map number" in found[0].hint

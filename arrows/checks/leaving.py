@@ -22,6 +22,7 @@ from typing import Iterator, Optional
 from rdkit import Chem
 
 from ..diagnostics import Diagnostic
+from ..electrons import nameable
 from ..judgement.acidity import HYDROGEN, Acidity, acidity_of, perceived
 from ..trace import StepTrace
 from . import Check
@@ -100,8 +101,14 @@ class StrongBaseLeavingGroups(Check):
                 acid = conjugate_acid(after.mol, leaving) if strong is not None else None
                 if acid is not None and _IONISING_OXYGEN_ACID <= acid.pka < STRONGEST_LEAVING_BASE:
                     site, kind = strong
-                    hint = (f"in acid the oxygen is protonated first and leaves as {_neutral(acid)}: add a step "
-                            f"`:{label(leaving)} -> H({label(site)})` before this one")
+                    if nameable(st.before.mol, site) and nameable(st.before.mol, leaving):
+                        hint = (f"in acid the oxygen is protonated first and leaves as {_neutral(acid)}: add a step "
+                                f"`:{label(leaving)} -> H({label(site)})` before this one")
+                    else:   # a move names only mapped atoms
+                        unnamed = " and ".join(label(a) for a in (leaving, site) if not nameable(st.before.mol, a))
+                        hint = (f"in acid the oxygen is protonated first and leaves as {_neutral(acid)}: add a step "
+                                f"in which {label(leaving)} takes the proton of {label(site)} before this one "
+                                f"(give {unnamed} a map number to name it in a move)")
                     if st.index > 0 and site not in self.acted:   # there from the start, untouched so far
                         hint += (f"; if {label(site)} is a workup acid, bring it in with `uses` in the step "
                                  f"where it acts")
