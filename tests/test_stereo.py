@@ -835,3 +835,61 @@ def test_a_note_names_only_the_centres_a_step_configures():
     _, diags = check_text(text)
     note = next(d.message for d in diags if d.code == "AR602" and "new stereocentres" in d.message)
     assert "of them C5, C6 configured by the step" in note and "the others left open" in note, note
+
+
+_MESO_EPOXIDE_OPENED = """\
+species epoxide = "[C@H:1]12CCCC[C@H:2]1[O:3]2"
+species azide = "[N-:4]=[N+]=[N-]"
+step "backside opening"
+    :N4 -> C1
+    C1-O3 -> O3
+end
+step "protonation"
+    uses water = "[OH2:5]"
+    :O3 -> H(O5)
+    O5-H -> O5
+end
+product "O[C@H]1CCCC[C@@H]1N=[N+]=[N-]"
+"""
+
+_THREO_BROMOHYDRIN_THROUGH_ITS_BROMONIUM = """\
+species bromohydrin = "C[C@@H:1]([OH:2])[C@H:3]([Br:4])C"
+species hbr = "[H:5][Br:6]"
+step "protonation"
+    :O2 -> H5
+    H5-Br6 -> Br6
+end
+step "bromine participates"
+    :Br4 -> C1
+    C1-O2 -> O2
+    releases O2
+end
+step "bromide opens the bromonium ion"
+    :Br6 -> C3
+    C3-Br4 -> Br4
+end
+product "C[C@@H](Br)[C@H](Br)C"
+"""
+
+
+@pytest.mark.parametrize("text", [_MESO_EPOXIDE_OPENED, _THREO_BROMOHYDRIN_THROUGH_ITS_BROMONIUM],
+                         ids=["meso epoxide", "meso bromonium ion"])
+def test_a_product_made_through_an_achiral_state_is_the_racemate(text):
+    """Azide opening meso cyclohexene oxide gives racemic trans-2-azidocyclohexanol (Clayden: an
+    achiral reagent cannot tell the enantiotopic carbons apart); a threo 3-bromobutan-2-ol with
+    HBr goes through a meso bromonium ion to racemic dl-2,3-dibromobutane (Winstein's
+    neighbouring-group case; March, from memory). Either enantiomer written is no mismatch. Both
+    were AR603 "(enantiomers)": a species written with '@' made the whole mechanism count as
+    enantiopure, meso or not, and whatever achiral state came between. RDKit judges meso: the
+    canonical SMILES of the molecule and its mirror image are equal."""
+    _, diags = check_text(text, "racemate.mech")
+    assert not [d for d in diags if d.code == "AR603"], [d.to_text() for d in diags]
+
+
+def test_an_enantiopure_start_that_stays_chiral_is_still_compared():
+    """(R)-2-bromobutane and azide (SN2, Walden inversion; textbook): the (R) azide written as the
+    product is the wrong enantiomer, and still AR603."""
+    text = ('species substrate = "CC[C@@H:1](C)[Br:2]"\nspecies azide = "[N-:3]=[N+]=[N-]"\n'
+            'step "SN2"\n    :N3 -> C1\n    C1-Br2 -> Br2\nend\nproduct "CC[C@@H](C)N=[N+]=[N-]"\n')
+    _, diags = check_text(text, "sn2.mech")
+    assert [d.code for d in diags if d.code == "AR603"] == ["AR603"], [d.to_text() for d in diags]

@@ -11,8 +11,8 @@ from rdkit import Chem
 
 from ..diagnostics import Diagnostic
 from ..electrons import ElectronState
-from ..judgement.stereo import DIASTEREOMERS, ENANTIOMERS, relation
-from ..model import Checkpoint, Mechanism
+from ..judgement.stereo import DIASTEREOMERS, ENANTIOMERS, is_chiral, relation
+from ..model import Checkpoint
 from ..rdkit_io import potential_stereo
 from ..trace import StepTrace
 from . import Check, Ending
@@ -48,10 +48,44 @@ def _pieces(mol: Chem.Mol, wanted: Optional[dict[str, _Piece]] = None) -> dict[s
     return out
 
 
-def racemic_start(mechanism: Mechanism) -> bool:
-    """No species is written with a configured centre: a chiral product forms as the racemate."""
-    written = [s.smiles for s in mechanism.species] + [s.smiles for st in mechanism.steps for s in st.uses]
-    return not any("@" in smiles for smiles in written)
+def holds_chirality(state: ElectronState) -> bool:
+    """Whether some molecule of `state` differs from its mirror image (RDKit canonical SMILES of
+    both): a meso compound, or one with no configured centre, does not."""
+    if not state.configured:
+        return False
+    return any("@" in piece.smiles and is_chiral(piece.smiles) for piece in fragments(state.mol, lazy=True))
+
+
+class ChiralityWatch:
+    """Whether the states so far leave a chiral product as the racemate: so until a species
+    brings in a chiral molecule, and again once a state holds no chiral molecule (a meso
+    epoxide opened by azide; a threo bromohydrin through its meso bromonium ion; an alkene
+    made from a meso dibromide): what the steps configure after that is formed with its mirror
+    image (common practice: no chiral reagent, no enantiomeric excess)."""
+
+    def __init__(self) -> None:
+        self.racemic = True
+
+    def before(self, st: StepTrace) -> None:
+        # The species written so far: the whole starting state, then those a step brings in.
+        newcomers = range(st.before.mol.GetNumAtoms()) if st.index == 0 else st.entered
+        atom = st.before.mol.GetAtomWithIdx
+        if self.racemic and st.before.configured and any(
+                atom(i).GetChiralTag() != Chem.ChiralType.CHI_UNSPECIFIED for i in newcomers):
+            self.racemic = not holds_chirality(st.before)
+
+    def after(self, st: StepTrace) -> None:
+        if not self.racemic and st.after is not None and not holds_chirality(st.after):
+            self.racemic = True
+
+
+def forms_racemate(trace) -> bool:
+    """ChiralityWatch's verdict at the end of a replayed mechanism."""
+    watch = ChiralityWatch()
+    for st in trace.steps:
+        watch.before(st)
+        watch.after(st)
+    return watch.racemic
 
 
 def mismatches(state: ElectronState, checkpoint: Checkpoint, what: str, step: Optional[int],
@@ -89,21 +123,19 @@ class WrittenConfigurationMatches(Check):
     codes = ("AR603",)
 
     def __init__(self) -> None:
-        self.racemic = True   # until a species written with a configured centre is met
+        self.watch = ChiralityWatch()
 
     def step(self, st: StepTrace, context) -> Iterator[Diagnostic]:
-        # The species written so far: the whole starting state, then those a step brings in.
-        newcomers = range(st.before.mol.GetNumAtoms()) if st.index == 0 else st.entered
-        atom = st.before.mol.GetAtomWithIdx
-        if self.racemic and st.before.configured and any(
-                atom(i).GetChiralTag() != Chem.ChiralType.CHI_UNSPECIFIED for i in newcomers):
-            self.racemic = False
+        if st.index == 0:
+            self.watch = ChiralityWatch()
+        self.watch.before(st)
         if st.after is None:
             return
+        self.watch.after(st)
         for checkpoint in st.step.expects:
-            yield from mismatches(st.after, checkpoint, "checkpoint", st.index, self.racemic)
+            yield from mismatches(st.after, checkpoint, "checkpoint", st.index, self.watch.racemic)
 
     def finish(self, end: Ending, context) -> Iterator[Diagnostic]:
         product = end.mechanism.product
         if product is not None and end.final is not None:
-            yield from mismatches(end.final, product, "product", None, racemic_start(end.mechanism))
+            yield from mismatches(end.final, product, "product", None, self.watch.racemic)

@@ -3,7 +3,7 @@ between stereo-specified checkpoint structures, and the stereoisomers of the fin
 from __future__ import annotations
 
 from ..checks.stereo import final_stereo, step_stereo
-from ..checks.written_stereo import racemic_start
+from ..checks.written_stereo import forms_racemate
 from ..judgement.stereo import CENTRE, cip_labels, describe, is_chiral, pairwise_relations
 from ..trace import StepTrace, Trace
 
@@ -46,14 +46,14 @@ def final_lines(trace: Trace) -> list[str]:
     if trace.final is None:
         return lines + ["  the final state was not derived"]
     products = final_stereo(trace)
-    achiral_start = racemic_start(trace.mechanism)
+    racemate = forms_racemate(trace)
     for p in products:
         if p.stereoisomers is None:
             count = "stereoisomers not counted (RDKit cannot enumerate this structure)"
         elif p.stereoisomers == 1 and any(mark in p.smiles for mark in "@/\\"):   # a configured centre or double bond
             count = "one stereoisomer, as the steps configure it"
-            if achiral_start and is_chiral(p.smiles):
-                count += "; formed as the racemate (no starting species is chiral)"
+            if racemate and is_chiral(p.smiles):
+                count += "; formed as the racemate (no chiral species leads to it)"
         else:
             count = f"{p.stereoisomers} stereoisomer{'s' if p.stereoisomers != 1 else ''} with no stereocontrol"
         lines.append(f"  {p.smiles}: {_names(p.elements, trace.final.label)}; {count}")
