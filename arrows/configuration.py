@@ -102,7 +102,8 @@ def _substitutions(mol: Chem.Mol, formed, broken, other, shifted) -> dict[int, t
     the leaving group, so the configuration inverts (Walden inversion, textbook). Or the atom
     migrates with its bonding pair (a 1,2-shift: Wagner-Meerwein, pinacol, Baeyer-Villiger,
     Beckmann), taking the new partner on the face the old one held: the configuration is kept
-    (retention at the migrating carbon, textbook). Returns atom -> (leaving, entering, inverted)."""
+    (retention at the migrating carbon, textbook). A nucleophile the leaving group itself delivers
+    (an SNi) keeps it too. Returns atom -> (leaving, entering, inverted)."""
     out = {}
     for atom, entering in formed.items():
         leaving = broken.get(atom, [])
@@ -110,8 +111,18 @@ def _substitutions(mol: Chem.Mol, formed, broken, other, shifted) -> dict[int, t
             continue
         if mol.GetAtomWithIdx(atom).GetChiralTag() == _UNSPECIFIED:
             continue
-        out[atom] = (leaving[0], entering[0], not shifted(atom, leaving[0]))
+        front_side = _delivered_by_leaving_group(mol, atom, entering[0], leaving[0])
+        out[atom] = (leaving[0], entering[0], not shifted(atom, leaving[0]) and not front_side)
     return out
+
+
+def _delivered_by_leaving_group(mol: Chem.Mol, centre: int, entering: int, leaving: int) -> bool:
+    """Whether the entering atom is bonded, before the step, to the leaving atom or to one of its
+    neighbours (not through the centre): the leaving group delivers it to the face it leaves from,
+    through a four-membered cyclic transition state, and the configuration is kept (an SNi: a
+    chlorosulfite's chlorine as SO2 leaves, textbook)."""
+    near = {n.GetIdx() for n in mol.GetAtomWithIdx(leaving).GetNeighbors() if n.GetIdx() != centre}
+    return entering in near or any(mol.GetBondBetweenAtoms(entering, n) is not None for n in near)
 
 
 def _syn_additions(mol: Chem.Mol, changes: dict[Pair, tuple[int, int]], formed, configured: bool

@@ -893,3 +893,18 @@ def test_an_enantiopure_start_that_stays_chiral_is_still_compared():
             'step "SN2"\n    :N3 -> C1\n    C1-Br2 -> Br2\nend\nproduct "CC[C@@H](C)N=[N+]=[N-]"\n')
     _, diags = check_text(text, "sn2.mech")
     assert [d.code for d in diags if d.code == "AR603"] == ["AR603"], [d.to_text() for d in diags]
+
+
+def test_an_sni_step_keeps_the_configuration():
+    """Thionyl chloride with no base (Clayden; March, SNi; textbook): the chlorosulfite of
+    (S)-1-phenylethanol loses SO2 as its own chlorine is delivered to the face the oxygen leaves,
+    through a four-membered cyclic transition state: (S)-1-chloro-1-phenylethane, retention. The
+    step was inverted like an SN2 and the retained product written was AR603 "(enantiomers)"."""
+    text = ('species chlorosulfite = "C[C@@H:1](c1ccccc1)[O:2][S:3](=O)[Cl:4]"\n'
+            'step "internal return"\n    :Cl4 -> C1\n    C1-O2 -> O2=S3\n    S3-Cl4 -> Cl4\nend\n'
+            'product "C[C@H](Cl)c1ccccc1.O=S=O"\n')
+    _, diags = check_text(text, "sni.mech")
+    assert not [d for d in diags if d.code == "AR603"], [d.to_text() for d in diags]
+    inverted = text.replace('product "C[C@H](Cl)', 'product "C[C@@H](Cl)')
+    _, diags = check_text(inverted, "sni-inverted.mech")
+    assert [d.code for d in diags if d.code == "AR603"] == ["AR603"]
