@@ -908,3 +908,14 @@ def test_an_sni_step_keeps_the_configuration():
     inverted = text.replace('product "C[C@H](Cl)', 'product "C[C@@H](Cl)')
     _, diags = check_text(inverted, "sni-inverted.mech")
     assert [d.code for d in diags if d.code == "AR603"] == ["AR603"]
+
+
+def test_ar603_names_the_centre_and_both_labels():
+    """SN2 of (R)-2-bromobutane by azide (Walden inversion; textbook) with the product written
+    with retention: the message names the centre and both CIP labels (RDKit's), as `arrows
+    explain AR603` promises, instead of only '(enantiomers)'."""
+    text = ('species substrate = "CC[C@@H:1](C)[Br:2]"\nspecies azide = "[N-:3]=[N+]=[N-]"\n'
+            'step "SN2"\n    :N3 -> C1\n    C1-Br2 -> Br2\nend\nproduct "CC[C@@H](C)N=[N+]=[N-]"\n')
+    _, diags = check_text(text, "sn2.mech")
+    found = [d for d in diags if d.code == "AR603"]
+    assert len(found) == 1 and found[0].message.endswith("(enantiomers: C1 written (R), the steps give (S))")

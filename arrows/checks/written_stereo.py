@@ -16,7 +16,7 @@ from ..model import Checkpoint
 from ..rdkit_io import potential_stereo
 from ..trace import StepTrace
 from . import Check, Ending
-from .checkpoints import fragments
+from .checkpoints import _ORIGIN, fragments
 
 _MARKS = ("@", "/", "\\")
 
@@ -54,6 +54,54 @@ def holds_chirality(state: ElectronState) -> bool:
     if not state.configured:
         return False
     return any("@" in piece.smiles and is_chiral(piece.smiles) for piece in fragments(state.mol, lazy=True))
+
+
+def _labels_that_differ(state: ElectronState, written_smiles: str, constitution: str) -> str:
+    """Where the written piece and the derived one differ, by CIP label (RDKit's), the centres
+    and double bonds named as the state names them: "C1 written (R), the steps give (S)"; empty
+    when RDKit labels neither or pairs no atoms."""
+    written = Chem.MolFromSmiles(written_smiles)
+    derived = next((piece.mol for piece in fragments(state.mol, origins=True)
+                    if Chem.MolToSmiles(piece.mol, isomericSmiles=False) == constitution), None)
+    if written is None or derived is None:
+        return ""
+    bare = Chem.Mol(written)
+    Chem.RemoveStereochemistry(bare)
+    pairing = derived.GetSubstructMatch(bare)
+    if len(pairing) != written.GetNumAtoms():
+        return ""
+    mine, theirs = _cip(written), _cip(derived)
+    origin = lambda k: derived.GetAtomWithIdx(k).GetIntProp(_ORIGIN)
+    told = []
+    for w, d in enumerate(pairing):
+        if ("atom", w) in mine and mine[("atom", w)] != theirs.get(("atom", d)):
+            told.append(f"{state.label(origin(d))} written ({mine[('atom', w)]}), the steps give "
+                        f"({theirs.get(('atom', d), 'no label')})")
+    for bond in written.GetBonds():
+        key = ("bond", bond.GetBeginAtomIdx(), bond.GetEndAtomIdx())
+        if key not in mine:
+            continue
+        a, b = pairing[bond.GetBeginAtomIdx()], pairing[bond.GetEndAtomIdx()]
+        given = theirs.get(("bond", a, b)) or theirs.get(("bond", b, a))
+        if given != mine[key]:
+            told.append(f"{state.label(origin(a))}={state.label(origin(b))} written {mine[key]}, "
+                        f"the steps give {given or 'no geometry'}")
+    return "; ".join(told)
+
+
+def _cip(mol: Chem.Mol) -> dict[tuple, str]:
+    """RDKit's CIP labels of a piece: ("atom", i) -> R or S, ("bond", i, j) -> E or Z."""
+    from rdkit.Chem import rdCIPLabeler
+    work = Chem.Mol(mol)
+    try:
+        Chem.AssignStereochemistry(work, cleanIt=True, force=True)
+        rdCIPLabeler.AssignCIPLabels(work)
+    except Exception:   # an odd piece: nothing said
+        return {}
+    out = {("atom", a.GetIdx()): a.GetProp("_CIPCode") for a in work.GetAtoms() if a.HasProp("_CIPCode")}
+    out.update({("bond", b.GetBeginAtomIdx(), b.GetEndAtomIdx()): b.GetProp("_CIPCode")
+                for b in work.GetBonds() if b.HasProp("_CIPCode")})
+    return out
 
 
 class ChiralityWatch:
@@ -110,8 +158,10 @@ def mismatches(state: ElectronState, checkpoint: Checkpoint, what: str, step: Op
             continue   # (one canonical SMILES: the same stereoisomer, which relation() would read twice to say)
         kind = relation(smiles, derived_smiles)
         if kind == DIASTEREOMERS or (kind == ENANTIOMERS and not racemic):
+            differ = _labels_that_differ(state, smiles, constitution)
             found.append(Diagnostic(
-                "AR603", f"the {what} is written {smiles}, but the steps give {derived_smiles} ({kind})",
+                "AR603", f"the {what} is written {smiles}, but the steps give {derived_smiles} ({kind}"
+                f"{': ' + differ if differ else ''})",
                 checkpoint.loc, step=step,
                 hint="write the configuration the steps give, or check the configured species and the "
                      "stereospecific steps (`arrows trace --stereo` lists what each step configures)"))
