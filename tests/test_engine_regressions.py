@@ -304,3 +304,14 @@ def test_ar517_never_suggests_a_move_naming_an_unmapped_acid():
     found = [d for d in diags if d.code == "AR517"]
     assert len(found) == 1 and "(atom" not in found[0].hint.split("before this one")[0].split("`")[1::2].__str__()
     assert "give O(atom 7) a map number" in found[0].hint
+
+
+def test_ar517_counts_trifluoroacetic_acid_as_a_strong_acid():
+    """A lactol's hydroxide pushed out beside TFA (pKa ~0.3, memory): in acid the hydroxyl is
+    protonated first (textbook), as beside HCl; TFA was not counted."""
+    text = ('species lactol = "[OH:1][CH:2]1[O:3][CH2:4][CH2:5][CH2:6][CH2:7]1"\n'
+            'species acid = "F[C:11](F)(F)[C:12](=[O:13])[OH:10]"\n'
+            'step "loss of hydroxide"\n    :O3 -> C2=O3\n    C2-O1 -> O1\nend\n')
+    _, diags = check_text(text, "tfa.mech")
+    found = [d for d in diags if d.code == "AR517"]
+    assert len(found) == 1 and "trifluoroacetic acid O10" in found[0].message

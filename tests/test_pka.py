@@ -416,3 +416,27 @@ def test_an_enol_protonated_on_carbon_is_not_judged_as_a_carbocation():
             'step "protonation on carbon"\n    C1=C2 -> C1-H(O6)\n    O6-H -> O6\nend\n')
     _, diags = check_text(text, "enol.mech")
     assert not [d for d in diags if d.code == "AR508" and "carbocation" in d.message]
+
+
+def test_trifluoroacetic_acid_protonates_an_alkene():
+    """TFA adds to 2-methylbut-2-ene through the tert-amyl cation, as in an ionic hydrogenation
+    with Et3SiH/TFA (Carey & Sundberg Part B, from memory): TFA's pKa ~0.3 (memory), not a
+    carboxylic acid's 4.8, which made it 'uphill by about 15'."""
+    text = ('species alkene = "[CH3:1][C:2]([CH3:5])=[CH:3][CH3:4]"\n'
+            'species acid = "F[C:11](F)(F)[C:12](=[O:13])[OH:10]"\n'
+            'step "TFA protonates the alkene"\n    C2=C3 -> C3-H(O10)\n    O10-H -> O10\nend\n')
+    _, diags = check_text(text, "tfa.mech")
+    assert not [d for d in diags if d.code == "AR508"], [d.to_text() for d in diags]
+    entry = acidity_of(perceived(Chem.MolFromSmiles("OC(=O)C(F)(F)F")), 0)
+    assert entry.pka == pytest.approx(0.3)
+
+
+def test_a_dienamine_protonated_at_its_far_carbon_is_not_a_bare_carbocation():
+    """Acetic acid protonating a dienamine at C4 (common practice in amine catalysis) gives a
+    vinylogous iminium ion: the nitrogen's lone pair shares the charge through the C=C, so the
+    carbocation estimate does not apply (it was 'uphill by about 15')."""
+    text = ('species dienamine = "C1CCN(C1)[C:1]=[CH:2][CH:3]=[CH2:4]"\n'
+            'species acid = "C[C:21](=O)[OH:22]"\n'
+            'step "protonation at C4"\n    C3=C4 -> C4-H(O22)\n    O22-H -> O22\nend\n')
+    _, diags = check_text(text, "dienamine.mech")
+    assert not [d for d in diags if d.code == "AR508"], [d.to_text() for d in diags]

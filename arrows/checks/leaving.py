@@ -160,7 +160,18 @@ def _strong_acid(state, touched: set[int]) -> Optional[tuple[int, str]]:
                 n.GetAtomicNum() == 16 and sum(b.GetBondTypeAsDouble() == 2 for b in n.GetBonds()) >= 2
                 for n in atom.GetNeighbors()):
             found.append((i, "the sulfonic or sulfuric acid"))
+        elif element == 8 and charge == 0 and any(_trifluoroacetyl(n) for n in atom.GetNeighbors()):
+            found.append((i, "trifluoroacetic acid"))   # pKa ~0.3 (memory)
     return next((f for f in found if f[0] not in touched), None)
+
+
+def _trifluoroacetyl(carbon: Chem.Atom) -> bool:
+    """Whether `carbon` is the C(=O) of a trifluoroacetyl group."""
+    if carbon.GetAtomicNum() != 6 or not any(b.GetBondTypeAsDouble() == 2 and b.GetOtherAtom(carbon).GetAtomicNum() == 8
+                                             for b in carbon.GetBonds()):
+        return False
+    return any(n.GetAtomicNum() == 6 and sum(m.GetAtomicNum() == 9 for m in n.GetNeighbors()) == 3
+               for n in carbon.GetNeighbors())
 
 
 def _neutral(acid: Acidity) -> str:

@@ -116,12 +116,30 @@ CARBOCATION = Acidity("a carbocation's C-H (a protonated alkene)", "an alkene", 
 
 def _carbocation_beside(state, atom: int) -> bool:
     """Whether a neighbour of `atom` in `state` is a bare carbocation: a carbon with a positive
-    charge, no lone pair, and no neighbour with a lone pair to share the charge."""
+    charge, no lone pair, and no lone pair beside it or at the far end of a C=C beside it to share
+    the charge (a dienamine protonated at its far carbon gives a vinylogous iminium ion)."""
     for n in state.mol.GetAtomWithIdx(atom).GetNeighbors():
         i = n.GetIdx()
-        if n.GetAtomicNum() == 6 and state.formal_charge(i) > 0 and state.nonbonding[i] == 0 and not any(
-                state.nonbonding[m.GetIdx()] for m in n.GetNeighbors() if m.GetIdx() != atom):
+        if n.GetAtomicNum() == 6 and state.formal_charge(i) > 0 and state.nonbonding[i] == 0 \
+                and not _lone_pair_within_reach(state, n, atom):
             return True
+    return False
+
+
+def _lone_pair_within_reach(state, cation: Chem.Atom, skip: int) -> bool:
+    """A lone pair on a neighbour of `cation` (other than `skip`), or on a neighbour of the far
+    carbon of a C=C that `cation` is bonded to."""
+    for m in cation.GetNeighbors():
+        j = m.GetIdx()
+        if j == skip:
+            continue
+        if state.nonbonding[j]:
+            return True
+        for bond in m.GetBonds():
+            far = bond.GetOtherAtom(m)
+            if bond.GetBondTypeAsDouble() == 2 and far.GetIdx() != cation.GetIdx() and any(
+                    state.nonbonding[x.GetIdx()] for x in far.GetNeighbors() if x.GetIdx() != j):
+                return True
     return False
 
 
@@ -198,7 +216,7 @@ class UphillProtonTransfers(Check):
             if base is CARBOCATION:
                 yield Diagnostic(
                     "AR508",
-                    f"an alkene taking {acid.site} ({acid.shown}) to make a carbocation: uphill by about "
+                    f"a C=C taking {acid.site} ({acid.shown}) to make a carbocation: uphill by about "
                     f"{_units(uphill, gap)} pKa units against a carbocation's C-H ({base.shown}, an estimate; "
                     f"{label_b} takes the proton of {label_x})",
                     t.loc, hint="only a strong acid (H3O+, H2SO4, a hydrogen halide: pKa below about 0) protonates "

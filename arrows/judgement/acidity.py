@@ -49,6 +49,11 @@ TABLE: tuple[Acidity, ...] = (
     Acidity("a sulfonic acid", "a sulfonate", "[OX2H1][SX4](=O)=O", -2.8, "~-3", NOT_LISTED),
     Acidity("bicarbonate", "carbonate", "[OX2H1][CX3](=O)[OX1-]", 10.3, "10.3", NOT_LISTED),
     Acidity("carbonic acid", "bicarbonate", "[OX2H1][CX3](=O)[OX2H1]", 6.4, "6.4", NOT_LISTED),
+    # Haloacetic acids (aqueous, memory): trifluoroacetic ~0.3, trichloroacetic ~0.7, chloroacetic
+    # 2.9. TFA protonates an alkene or an arene (ionic hydrogenation, protodesilylation).
+    Acidity("trifluoroacetic acid", "trifluoroacetate", "[OX2H1][CX3](=O)C(F)(F)F", 0.3, "~0.3", NOT_LISTED),
+    Acidity("trichloroacetic acid", "trichloroacetate", "[OX2H1][CX3](=O)C(Cl)(Cl)Cl", 0.7, "~0.7", NOT_LISTED),
+    Acidity("a chloroacetic acid", "a chloroacetate", "[OX2H1][CX3](=O)[CH2]Cl", 2.9, "~2.9", NOT_LISTED),
     Acidity("a carboxylic acid", "a carboxylate", "[OX2H1][CX3]=O", 4.8, "~4.8", TEXTBOOK),
     # Pyridinium 5.2, a nitroalkane's C-H ~10, a thiol ~10.5, H2S ~7 (aqueous, memory).
     Acidity("a pyridinium ion", "a pyridine", "[nX3+;H1]", 5.2, "5.2", NOT_LISTED),
