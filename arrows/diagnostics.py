@@ -500,6 +500,20 @@ CODES = _table(
          '    C1-Br2 -> Br2\n'
          'end\n'
          'product "CC[C@@H](C)O.[Br-]"   # (R) kept; the SN2 inverts C1 to (S)'),
+    Code("AR604", WARNING, "ring elimination that cannot be periplanar",
+         "A concerted elimination across a ring bond (a ring of five to seven), both carbons "
+         "configured, takes a hydrogen that cannot be periplanar with the leaving group: an E2 needs "
+         "them trans on the ring (trans-diaxial in a cyclohexane), a syn elimination in which the "
+         "leaving group takes the hydrogen itself (a Cope elimination) needs them cis. Faces are "
+         "read off an RDKit 3D model (common practice: menthyl chloride's E2 gives only the alkene "
+         "its trans-diaxial hydrogen allows).",
+         'species bromide = "[CH3:9][C@@H:2]1CCCC[C@H:1]1[Br:3]"\n'
+         'species base = "CC[O-:4]"\n'
+         'step "E2"\n'
+         '    :O4 -> H(C2)   # the C2-H is cis to Br3: no anti-periplanar hydrogen there\n'
+         '    C2-H -> C2=C1\n'
+         '    C1-Br3 -> Br3\n'
+         'end'),
 )
 
 

@@ -83,3 +83,14 @@ _BUTADIENE_AND = ('species diene = "[CH2:1]=[CH:2][CH:3]=[CH2:4]"\nspecies dieno
 DIENOPHILES = {"butadiene and dimethyl fumarate": _BUTADIENE_AND.format("/"),
                "butadiene and dimethyl maleate": _BUTADIENE_AND.format("\\\\")}
 
+
+# E2 of cis-1-bromo-2-methylcyclohexane: its C2-H is trans to the bromine, diaxial in a chair
+# (Clayden; common practice: ring E2 is trans-diaxial).
+RING_E2 = '''species bromide = "[CH3:9][C@H:2]1CCCC[C@H:1]1[Br:3]"
+species base = "CC[O-:4]"
+step "E2"
+    :O4 -> H(C2)
+    C2-H -> C2=C1
+    C1-Br3 -> Br3
+end
+'''

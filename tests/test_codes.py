@@ -15,6 +15,7 @@ from arrows.diagnostics import CODES
 
 from small_mechanisms import (ACID_BASE, ALDOL, BECKMANN_SHIFT, KETYL, CHLORINE, CORRECT, E1, E2, ENOLATE_RESONANCE, HBR_ADDITION,
                               HYDRIDE_TRANSFER, NITRILE, PROTON_EXCHANGE, RADICALS, RETRO_ALDOL, RING_CLOSURE, SN2, SULFONIUM)
+from stereo_mechanisms import RING_E2
 from textbook_mechanisms import TEXTBOOK
 
 
@@ -503,6 +504,9 @@ TWINS = [
     # The hydroxyl not protonated first: hydroxide leaves beside H3O+ (in acid it leaves as water).
     Twin("hydroxide leaving in acid", WATER_LEAVES_IN_ACID, "[OH2+:4]", "[OH:4]", "AR517", "C2-O4 -> O4",
          says=("hydroxide", "O6"), hint_says=("`:O4 -> H(O6)`", "water")),
+    # The trans isomer: its one C2-H is cis to the bromine, never anti-periplanar in the ring.
+    Twin("ring E2 from a cis hydrogen", RING_E2, "[C@H:2]", "[C@@H:2]", "AR604", 'step "E2"',
+         says=("cis to each other", "trans on the ring"), hint_says=("trans-diaxial",), alone=False),
     Twin("alkoxide leaving as oxide", E1CB, "[OH:6]", "[O-:6]", "AR510", "C5-O6 -> O6", says=("oxide",),
          hint_says=("as hydroxide",), alone=False),
     Twin("amide ion as leaving group", CARBINOLAMINE, "[OH:2])([CH3:5])[NH+:3]", "[O-:2])([CH3:5])[N:3]",

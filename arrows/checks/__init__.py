@@ -61,6 +61,7 @@ def _registry() -> list[Check]:
         from .conservation import ChargeAndAtomsConserved
         from .leaving import StrongBaseLeavingGroups
         from .protons import UphillProtonTransfers
+        from .ring_eliminations import RingEliminationGeometry
         from .rings import RingClosures
         from .shifts import CationShiftDirection, MigrationAntiToLeavingGroup
         from .stereo import StereoChanges
@@ -70,7 +71,7 @@ def _registry() -> list[Check]:
         _CHECK_CLASSES.extend([SomethingToCheck, NothingAfterProduct, StepsHaveMoves, UnusualElectronCounts,
                                ChargeAndAtomsConserved, RingClosures, CheckpointsMatch, UphillProtonTransfers,
                                StereoChanges, MigrationAntiToLeavingGroup, CationShiftDirection, StrongBaseLeavingGroups,
-                               WrittenConfigurationMatches])
+                               WrittenConfigurationMatches, RingEliminationGeometry])
     return [cls() for cls in _CHECK_CLASSES]
 
 

@@ -1,0 +1,133 @@
+"""A concerted elimination across a ring bond whose leaving groups cannot be periplanar (AR604).
+
+An E2 takes the hydrogen anti-periplanar to the leaving group: in a ring that means trans on the
+ring (in a cyclohexane, trans-diaxial); a syn elimination in which the leaving group takes the
+hydrogen itself (a Cope elimination, an ester pyrolysis) needs them cis. With both carbons
+configured, which face each group stands on is read off an RDKit 3D model of the molecule (each
+group above or below the ring's mean plane), so no convention of tags and neighbour order is ours.
+(Common practice: the menthyl chloride E2 gives only the alkene the trans-diaxial hydrogen
+allows.)"""
+from __future__ import annotations
+
+from typing import Iterator, Optional
+
+from rdkit import Chem
+
+from ..diagnostics import Diagnostic
+from ..trace import StepTrace
+from . import Check
+
+_TETRAHEDRAL = (Chem.ChiralType.CHI_TETRAHEDRAL_CW, Chem.ChiralType.CHI_TETRAHEDRAL_CCW)
+_RING_SIZES = range(5, 8)   # rings whose bonds cannot turn a group anti from the cis face
+
+
+class RingEliminationGeometry(Check):
+    name = "ring eliminations"
+    codes = ("AR604",)
+
+    def step(self, st: StepTrace, context) -> Iterator[Diagnostic]:
+        if st.after is None or not st.before.configured:
+            return
+        for a, b, p, q, syn in _ring_eliminations(st):
+            cis = _same_face(st.before.mol, a, b, p, q)
+            if cis is None or cis == syn:
+                continue
+            label = st.before.label
+            kind = "syn" if syn else "anti"
+            need, found = ("cis", "trans") if syn else ("trans", "cis")
+            yield Diagnostic(
+                "AR604", f"{label(p)} and {label(q)} leave {label(a)} and {label(b)} of a ring {found} to each other: "
+                f"a concerted {kind} elimination needs them {need} on the ring (periplanar)",
+                st.step.loc, step=st.index, atoms=(label(a), label(b)),
+                hint=("take a hydrogen trans to the leaving group (trans-diaxial in a cyclohexane), from "
+                      "another neighbour if this one has none" if not syn else
+                      "the leaving group takes a hydrogen cis to it through its cyclic transition state: "
+                      "take one from the other neighbour"))
+
+
+def _ring_eliminations(st: StepTrace) -> list[tuple[int, int, int, int, bool]]:
+    """(a, b, p, q, syn) for each ring bond a-b (ring of five to seven) the step makes double while
+    a loses its bond to p (taken by another atom) and b its bond to q, both a and b configured:
+    `syn` when the atom that takes p is joined to q within three bonds, not through b."""
+    change, mol = st.change, st.before.mol
+    made_double = [pair for pair, old, new in change.reordered if old == 1 and new == 2]
+    if not made_double:
+        return []
+    broken = {}
+    for i, j in change.broken:
+        broken.setdefault(i, []).append(j)
+        broken.setdefault(j, []).append(i)
+    formed = {}
+    for i, j in change.formed:
+        formed.setdefault(i, []).append(j)
+        formed.setdefault(j, []).append(i)
+    rings = None
+    out = []
+    for i, j in made_double:
+        if len(broken.get(i, ())) != 1 or len(broken.get(j, ())) != 1:
+            continue
+        if any(mol.GetAtomWithIdx(x).GetChiralTag() not in _TETRAHEDRAL for x in (i, j)):
+            continue
+        if rings is None:
+            rings = Chem.Mol(mol)   # (a copy: the state's own Mol is shared)
+            Chem.FastFindRings(rings)
+        if not _in_small_ring(rings, i, j):
+            continue
+        for a, b in ((i, j), (j, i)):
+            p, q = broken[a][0], broken[b][0]
+            takers = formed.get(p, [])
+            if len(takers) == 1 and takers[0] not in (a, b):
+                out.append((a, b, p, q, _joined_within(mol, takers[0], q, 3, avoid=b)))
+                break
+    return out
+
+
+def _in_small_ring(mol: Chem.Mol, i: int, j: int) -> bool:
+    """Whether the bond i-j of `mol` (its rings found) lies on a ring of five to seven atoms."""
+    bond = mol.GetBondBetweenAtoms(i, j)
+    return bond is not None and any(mol.GetRingInfo().IsBondInRingOfSize(bond.GetIdx(), n) for n in _RING_SIZES)
+
+
+def _joined_within(mol: Chem.Mol, start: int, goal: int, reach: int, avoid: int) -> bool:
+    """Whether `goal` is within `reach` bonds of `start`, not through `avoid`."""
+    seen, frontier = {start}, [start]
+    for _ in range(reach):
+        frontier = [n.GetIdx() for x in frontier for n in mol.GetAtomWithIdx(x).GetNeighbors()
+                    if n.GetIdx() not in seen and n.GetIdx() != avoid]
+        if goal in frontier:
+            return True
+        seen.update(frontier)
+    return False
+
+
+def _same_face(mol: Chem.Mol, a: int, b: int, p: int, q: int) -> Optional[bool]:
+    """Whether p (on a) and q (on b) stand on one face of the ring through a-b, read off an RDKit
+    3D model of their molecule: the side of the ring's mean plane each points to. None where
+    RDKit makes no model."""
+    import numpy as np               # (both loaded only for a configured ring elimination: start-up)
+    from rdkit.Chem import AllChem
+    piece_atoms = next(f for f in Chem.GetMolFrags(mol, asMols=False, sanitizeFrags=False) if a in f)
+    keep = sorted(piece_atoms)
+    index = {atom: k for k, atom in enumerate(keep)}
+    work = Chem.RWMol(mol)
+    for atom in sorted(set(range(mol.GetNumAtoms())) - set(keep), reverse=True):
+        work.RemoveAtom(atom)
+    try:
+        piece = work.GetMol()
+        Chem.SanitizeMol(piece)
+        with_h = Chem.AddHs(piece)
+        if AllChem.EmbedMolecule(with_h, randomSeed=0xA5) != 0:
+            return None
+    except Exception:   # an odd intermediate: nothing said
+        return None
+    xyz = with_h.GetConformer().GetPositions()
+    ring = next((r for r in with_h.GetRingInfo().AtomRings() if index[a] in r and index[b] in r
+                 and len(r) in _RING_SIZES), None)
+    if ring is None:
+        return None
+    points = xyz[list(ring)]
+    centred = points - points.mean(axis=0)
+    normal = np.linalg.svd(centred)[2][-1]   # the mean plane's normal
+    side_p = float(np.dot(xyz[index[p]] - xyz[index[a]], normal))
+    side_q = float(np.dot(xyz[index[q]] - xyz[index[b]], normal))
+    return (side_p > 0) == (side_q > 0)
