@@ -469,3 +469,16 @@ def test_a_small_ring_with_no_larger_rival_is_told_it_may_be_the_textbook_interm
     _, diags = check_text(text, "wittig.mech")
     (d,) = [d for d in diags if d.code == "AR501"]
     assert "textbook intermediate" in d.hint and "reminder" in d.hint
+
+
+def test_an_sni_is_noted_not_warned_as_a_strained_ring():
+    """Thionyl chloride with no base (SNi; Clayden, March: textbook): the chlorosulfite's chlorine
+    is handed from sulfur to the carbon the oxygen leaves, through a four-centre transition state.
+    That is how the internal return is drawn, and no ring is made: a note (AR601), not AR501's
+    'the ring is strained'. A chain end reaching round to a carbon whose ring bond breaks (no
+    atom handed over) keeps its Baldwin verdict (the 4-endo-tet cell above)."""
+    text = ('species chlorosulfite = "C[CH:1](c1ccccc1)[O:2][S:3](=O)[Cl:4]"\n'
+            'step "internal return"\n    :Cl4 -> C1\n    C1-O2 -> O2=S3\n    S3-Cl4 -> Cl4\nend\n')
+    _, diags = check_text(text, "sni.mech")
+    assert not [d for d in diags if d.code == "AR501"], [d.to_text() for d in diags]
+    assert any(d.code == "AR601" and "(an SNi)" in d.message for d in diags)

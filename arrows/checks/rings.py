@@ -204,6 +204,14 @@ def _has_single_oxygen(mol: Chem.Mol, atom: int) -> bool:
 LOOK_BACK = 64
 
 
+def _handed_over(st: StepTrace, c: StepClosure) -> bool:
+    """Whether the nucleophile also leaves its own neighbour in the ring in this step: it is
+    handed from that atom to the attacked one (an SNi's chlorine, from sulfur to carbon), not a
+    chain end reaching round."""
+    broken = {tuple(sorted(b)) for b in st.change.broken}
+    return any(tuple(sorted((c.nucleophile, n))) in broken for n in c.ring if n not in (c.attacked,))
+
+
 class RingClosures(Check):
     name = "ring closures"
     codes = ("AR501", "AR502", "AR601")
@@ -249,6 +257,12 @@ class RingClosures(Check):
             # path of such a transfer, no strained ring made (common practice).
             return Diagnostic("AR601", f"{opening}: a metal passed from atom to atom through a {size}-centre array, "
                               f"as such transfers go", c.loc or st.step.loc, **where)
+        if passed_along and size == 4 and st.before.elements[c.attacked] == 6 and _handed_over(st, c):
+            # A nucleophile the leaving group itself delivers to the carbon it leaves (an SNi: a
+            # chlorosulfite's chlorine as SO2 goes; textbook): the usual drawing of that internal
+            # return, no strained ring made (the configuration is kept: configuration.py).
+            return Diagnostic("AR601", f"{opening}: the leaving group delivers {a} to the face it leaves "
+                              f"(an SNi), as such internal returns are drawn", c.loc or st.step.loc, **where)
         if st.before.elements[c.attacked] > 10:
             # Baldwin's rules are stated for first-row atoms (Baldwin 1976, memory): at a heavier
             # one (the iodine of a cyclic periodate ester, the phosphorus of an oxaphosphetane)
