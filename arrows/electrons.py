@@ -376,7 +376,8 @@ class _StepReplay:
             raise _StepFailed
         if self.state.elements[index] != _atomic_number(ref.element):
             atom = self.state.mol.GetAtomWithIdx(index)
-            hint = f"write {atom.GetSymbol()}{ref.map_number}"
+            hint = (f"write {atom.GetSymbol()}{ref.map_number} if that atom is meant; if a {ref.element} was meant, "
+                    f"its number is another: check the species' numbers (`arrows number SMILES` prints them)")
             if ref.element == "H" and atom.GetTotalNumHs(includeNeighbors=True):
                 # H2 for "the hydrogen on atom 2": a hydrogen is named by the atom that holds it.
                 hint = f"a hydrogen on {atom.GetSymbol()}{ref.map_number} is written H({atom.GetSymbol()}{ref.map_number})"

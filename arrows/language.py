@@ -511,6 +511,10 @@ def _hint_for(exc: UnexpectedInput, text: str, found: str) -> str:
     if tok_type == "NAME" and "END" in expected:
         if word[:1].isupper() and len(letters) <= 2 and not any(c.isdigit() for c in word):
             return f"an atom needs its map number: write {word}7 (element + map number)"
+        close = difflib.get_close_matches(word.lower(), _WORDS_OF_THE_LANGUAGE, n=1, cutoff=0.75)
+        if close:   # a misspelt keyword, most often on the step's own line (`reversable`)
+            return (f"`{word}` is not a keyword (did you mean `{close[0]}`?); after a step's label: reversible, "
+                    f"resonance, over, under; inside a step: moves, uses, releases, expect, end")
         return f"`{word}` is not a keyword here; inside a step: moves, uses, releases, expect, end"
     if tok_type in _KEYWORD_PLACE:
         return f"`{word}` goes {_KEYWORD_PLACE[tok_type]}"

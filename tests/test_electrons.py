@@ -257,3 +257,13 @@ def test_a_room_making_move_names_a_mapped_neighbour_first():
 def test_an_atom_over_its_valence_is_told_the_limits_of_its_own_element(smiles, says, not_says):
     hint = _hint(f'species a = "{smiles}"\n', "AR102")
     assert all(s in hint for s in says) and not any(s in hint for s in not_says), hint
+
+
+def test_an_element_mismatch_points_at_the_numbering():
+    """`C3` written for atom 3, an oxygen (a numbering slip): the hint says how to check the
+    numbers, not only to write O3, which may be just as wrong."""
+    from arrows import check_text
+    text = 'species e = "[CH3:1][CH2:2][O:3][CH3:4]"\nspecies b = "[OH-:5]"\nstep "x"\n    :O5 -> H(C3)\n    C3-H -> C3\nend\n'
+    _, diags = check_text(text, "numbers.mech")
+    found = [d for d in diags if d.code == "AR105"]
+    assert found and "arrows number" in found[0].hint

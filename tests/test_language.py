@@ -553,3 +553,13 @@ def test_line_ends_of_other_systems_read_as_line_ends(ending):
     loc = caught.value.diagnostics[0].loc
     expected_line = EXAMPLE.splitlines().index(next(l for l in EXAMPLE.splitlines() if "C3-H -> C2=C3" in l)) + 1
     assert loc.line == expected_line
+
+
+def test_a_misspelt_step_keyword_is_named():
+    """`reversable` on a step's line (a newcomer's typo): the hint names the keyword meant and
+    where such words go, instead of listing only what goes inside a step."""
+    text = 'species a = "[CH3:1][OH:2]"\nstep "x" reversable\n    :O2 -> C1\nend\n'
+    with pytest.raises(MechanismError) as info:
+        parse(text, "typo.mech")
+    d = info.value.diagnostics[0]
+    assert d.code == "AR101" and "did you mean `reversible`?" in d.hint

@@ -332,6 +332,8 @@ MORE_ACIDS = [
     ("OC(=O)[O-]", 0, 10.3),        # bicarbonate, not a carboxylic acid
     ("c1cc[nH+]cc1", 3, 5.2),       # pyridinium
     ("[NH3+]c1ccccc1", 0, 4.6),     # anilinium, not an alkylammonium ion (~10)
+    ("CCOC(=O)CC(=O)OCC", 5, 13),   # diethyl malonate, not a 1,3-diketone's 9
+    ("CCOC(=O)CC(C)=O", 5, 11),     # ethyl acetoacetate
     ("C[NH2+]C(=O)c1ccccc1", 1, -7),   # an amide protonated on nitrogen (an estimate)
     ("[NH3+]O", 0, 6.0),            # hydroxylammonium
     ("CC(N)=[OH+]", 3, -0.5),       # an amide protonated on oxygen, not a ketone's -7

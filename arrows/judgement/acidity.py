@@ -60,6 +60,12 @@ TABLE: tuple[Acidity, ...] = (
     Acidity("a nitroalkane C-H", "a nitronate", "[CX4;!H0][NX3+](=O)[O-]", 10, "~10", NOT_LISTED),
     Acidity("a thiol", "a thiolate", "[SX2H1][#6]", 10.5, "~10.5", NOT_LISTED),
     Acidity("hydrogen sulfide", "hydrosulfide", "[SX2H2]", 7, "~7", NOT_LISTED),
+    # A malonate ester ~13, a beta-keto ester ~11 (diethyl malonate, ethyl acetoacetate; aqueous,
+    # memory): less acidic than a 1,3-diketone, each ester's oxygen holding back its carbonyl.
+    Acidity("a malonate ester C-H", "a malonate enolate", "[CX4;!H0]([CX3](=O)[OX2][#6])[CX3](=O)[OX2][#6]", 13,
+            "~13", NOT_LISTED),
+    Acidity("a beta-keto ester C-H", "a beta-keto ester enolate", "[CX4;!H0]([CX3](=O)[#6])[CX3](=O)[OX2][#6]", 11,
+            "~11", NOT_LISTED),
     Acidity("a 1,3-dicarbonyl C-H", "a 1,3-dicarbonyl enolate", "[CX4;!H0]([CX3]=O)[CX3]=O", 9, "~9", TEXTBOOK),
     Acidity("a C-H beside a nitrile and a carbonyl or nitrile", "a stabilised carbanion",
             "[CX4;!H0](C#N)[$([CX3]=O),$(C#N)]", 11, "~11", NOT_LISTED),   # malononitrile ~11
