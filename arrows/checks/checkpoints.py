@@ -9,7 +9,7 @@ from typing import Callable, Iterator, Optional
 from rdkit import Chem
 
 from ..diagnostics import Diagnostic
-from ..electrons import ElectronState, atom_label, order_word
+from ..electrons import ElectronState, Pair, StepChange, atom_label, order_word, pair
 from ..judgement.perception import RecentViews
 from ..model import Checkpoint, Location
 from ..rdkit_io import atom_list, nuclide, rdkit_messages, read_smiles, reading_hint, sanitize
@@ -17,6 +17,30 @@ from ..trace import StepTrace
 from . import Check, Ending
 
 _ORIGIN = "arrows_origin"   # atom property: index of the atom in the state Mol
+
+
+class BondHistory:
+    """What the steps replayed so far changed, by state atom index: `formed`, the bonds a step made
+    and none broke again; `touched`, every bond a step made, broke or reordered; `atoms`, every
+    atom a step touched. A bond of the derived state that no step made was in a species as
+    written (toluene's own methyl)."""
+
+    __slots__ = ("formed", "touched", "atoms")
+
+    def __init__(self) -> None:
+        self.formed: set[Pair] = set()
+        self.touched: set[Pair] = set()
+        self.atoms: set[int] = set()   # every atom a step touched
+
+    def add(self, change: StepChange) -> None:
+        self.atoms.update(change.touched_atoms)
+        for i, j in change.broken:
+            self.formed.discard(pair(i, j))
+            self.touched.add(pair(i, j))
+        for i, j in change.formed:
+            self.formed.add(pair(i, j))
+            self.touched.add(pair(i, j))
+        self.touched.update(pair(i, j) for (i, j), _, _ in change.reordered)
 
 
 class Fragment:
@@ -146,10 +170,11 @@ def _holds_hydrogen_alone(state: ElectronState) -> bool:
 
 
 def compare(state: ElectronState, checkpoint: Checkpoint, code: str, step: Optional[int],
-            views: Optional[RecentViews] = None, read: Optional[dict] = None) -> list[Diagnostic]:
+            views: Optional[RecentViews] = None, read: Optional[dict] = None,
+            history: Optional[BondHistory] = None) -> list[Diagnostic]:
     """Diagnostics for one checkpoint against one state (empty when it matches); `views` holds the
     perceived views of the states met lately, `read` the written structures already read in this
-    replay (by SMILES)."""
+    replay (by SMILES), `history` the bonds the steps up to `state` made, broke or reordered."""
     if read is None:
         written, reason, maps, position = _written_fragments(checkpoint)
     else:
@@ -178,15 +203,16 @@ def compare(state: ElectronState, checkpoint: Checkpoint, code: str, step: Optio
     if missing:   # the same fragments, now with each atom's index in the state, to name atoms
         derived = fragments(state.mol, maps, origins=True)
     explained: set[int] = set()   # derived pieces already set against a written one
+    written_smiles = {w.smiles for w in written}
     for frag in missing:
-        candidates = [f for f in derived if f.smiles not in {w.smiles for w in written}] or derived
+        candidates = [f for f in derived if f.smiles not in written_smiles] or derived
         # Two written pieces alike (`expect all "O.O"`) are each set against a derived piece of their
         # own: against the same one, both said the same and the second derived piece went unmentioned.
         candidates = [f for f in candidates if id(f) not in explained] or candidates
-        closest = max(candidates, key=lambda f: _overlap(frag.mol, f.mol), default=None)
+        closest = _closest(frag.mol, candidates)
         if closest is not None:
             explained.add(id(closest))
-        details, hint = _explain(frag, closest, state, what) if closest is not None else ([], None)
+        details, hint = _explain(frag, closest, state, what, history) if closest is not None else ([], None)
         message = f"the {what} {frag.smiles} is not in the derived state"
         if closest is not None and _resonance_forms(frag.smiles, closest.smiles):
             message = f"the {what} {frag.smiles} is a resonance form of the derived {closest.smiles}"
@@ -196,7 +222,15 @@ def compare(state: ElectronState, checkpoint: Checkpoint, code: str, step: Optio
             message = f"the {what} {frag.smiles} is a tautomer of the derived {closest.smiles}, not the same form"
             hint = ("add the proton transfers that turn one form into the other (a keto-enol tautomerisation "
                     "takes two), or write the form the moves reach")
-        if closest is not None and hint == _PROTON_HINT:
+        if closest is not None and sum(f.smiles == closest.smiles for f in derived) <= sum(
+                w.smiles == closest.smiles for w in written):
+            # Every derived piece like this one is written already (`[Br-]` and `[BrH]` both written
+            # where the moves leave one bromine): the written piece is one too many, and the derived
+            # form is not to be suggested again.
+            hint = (f"`{closest.smiles}`, the derived piece closest to it, is written already, and the state holds "
+                    f"nothing else like `{frag.smiles}`: drop `{frag.smiles}` if it is one too many, "
+                    f"or compare with `arrows trace`")
+        elif closest is not None and hint == _PROTON_HINT:
             # Or the structure was written without the charge the moves leave (a carboxylate
             # written as the acid): the derived form is named, for the author to choose.
             hint += f"; if the moves are right as they are, write the {what} as `{closest.smiles}`"
@@ -261,16 +295,53 @@ def _tautomers(written: str, derived: str) -> bool:
     return forms[0] == forms[1]
 
 
-def _overlap(a: Chem.Mol, b: Chem.Mol) -> tuple[int, int]:
-    common = Counter(x.GetSymbol() for x in atom_list(a)) & Counter(x.GetSymbol() for x in atom_list(b))
-    return sum(common.values()), -abs(a.GetNumAtoms() - b.GetNumAtoms())
+def _closest(written: Chem.Mol, candidates: list[Fragment]) -> Optional[Fragment]:
+    """The derived piece closest to the written one: the one whose largest common part with it
+    (elements alike, bonds of any order) leaves out the fewest atoms of either, 2 * common - atoms
+    written - atoms derived. Counting the elements alone, a written dioxane had more in common
+    with the tosylate beside the derived dioxolane (six C and two O against five and two), and was
+    explained against it. The element count bounds the common part from above: a piece whose
+    bound is below the best score found is not searched."""
+    if len(candidates) < 2:
+        return candidates[0] if candidates else None
+    size = written.GetNumAtoms()
+    elements = Counter(a.GetAtomicNum() for a in atom_list(written))
+
+    def bound(f: Fragment) -> tuple[int, int]:
+        common = sum((elements & Counter(a.GetAtomicNum() for a in atom_list(f.mol))).values())
+        return 2 * common - size - f.mol.GetNumAtoms(), -abs(size - f.mol.GetNumAtoms())
+
+    ranked = sorted(((bound(f), n, f) for n, f in enumerate(candidates)), key=lambda x: (x[0], -x[1]), reverse=True)
+    best, best_key = None, None
+    for (upper, nearness), n, f in ranked:
+        if best_key is not None and upper < best_key[0]:
+            break
+        common = _common_size(written, f.mol) if upper > -size - f.mol.GetNumAtoms() else 0
+        key = (2 * common - size - f.mol.GetNumAtoms(), upper, nearness, -n)
+        if best_key is None or key > best_key:
+            best, best_key = f, key
+    return best
 
 
-def _alignment(written: Chem.Mol, derived: Chem.Mol) -> dict[int, int]:
+def _common_size(a: Chem.Mol, b: Chem.Mol) -> int:
+    """The atoms of a largest connected common part of `a` and `b`: elements alike, any bond order."""
+    if min(a.GetNumAtoms(), b.GetNumAtoms()) < 2:
+        return min(a.GetNumAtoms(), b.GetNumAtoms()) if {x.GetAtomicNum() for x in atom_list(a)} & {
+            x.GetAtomicNum() for x in atom_list(b)} else 0
+    from rdkit.Chem import rdFMCS   # only a mismatch is explained: spared on every clean check
+    result = rdFMCS.FindMCS([a, b], atomCompare=rdFMCS.AtomCompare.CompareElements,
+                            bondCompare=rdFMCS.BondCompare.CompareAny, ringMatchesRingOnly=False,
+                            completeRingsOnly=False, matchValences=False, timeout=1)
+    return result.numAtoms
+
+
+def _alignment(written: Chem.Mol, derived: Chem.Mol, history: Optional[BondHistory] = None) -> dict[int, int]:
     """written atom index -> derived atom index, by maps when the checkpoint has them, else the
     pairing with the fewest differences: it grows from a largest common part of the two (elements
     must match, bond orders may differ) and, when the atoms left out are alike on both sides (the
-    same formula joined otherwise), pairs those too."""
+    same formula joined otherwise), pairs those too. Of pairings with as few differences, the one
+    with more of them where the steps acted (`history`): a written meta-cymene against the para
+    isomer the moves made is told at the isopropyl the arrows attached, not at toluene's methyl."""
     by_map = {a.GetAtomMapNum(): a.GetIdx() for a in atom_list(derived) if a.GetAtomMapNum()}
     mapped = {a.GetIdx(): by_map[a.GetAtomMapNum()] for a in atom_list(written)
               if a.GetAtomMapNum() and a.GetAtomMapNum() in by_map}
@@ -282,13 +353,99 @@ def _alignment(written: Chem.Mol, derived: Chem.Mol) -> dict[int, int]:
         # The largest common part by element alone can sit on the wrong atoms: with a tert-butyl
         # on a nitrile's C where the checkpoint has it on the N, the part C(C)(C)N pairs the
         # nitrile carbon with the tert-butyl's centre and that centre with a methyl. Atoms that
-        # also keep their hydrogens are the likelier same atoms.
+        # also keep their hydrogens are the likelier same atoms. (A part that covers every atom
+        # sits every way the two are alike: the search by hydrogens, several times slower on a
+        # steroid, is then spared.)
         placements += _common_part_placements(written, derived, with_hydrogens=True)
+    # The largest piece the species brought in, as the steps found it: the largest common part of
+    # the whole can be the piece the arrows attached (an isopropyl on toluene's para carbon, written
+    # meta), with toluene's own methyl then paired with a ring carbon that does not bear it.
+    placements += _brought_in_placements(written, derived, history)
     # The most atoms paired, then the fewest differences: a pairing that leaves atoms out is not
     # made better by the differences it then cannot see, and of a symmetric part's placements the
     # mirrored ones do not make right atoms look wrong.
-    completed = [_completed(written, derived, placement) for placement in placements]
-    return min(completed, key=lambda align: (-len(align), _differences(written, derived, align)), default={})
+    completed = {tuple(sorted(align.items())): align
+                 for align in (_completed(written, derived, placement) for placement in placements)}
+    return min(completed.values(), key=lambda align: (-len(align), _differences(written, derived, align),
+                                                      -_at_the_arrows(written, derived, align, history)), default={})
+
+
+def _origin(derived: Chem.Mol, index: int) -> int:
+    atom = derived.GetAtomWithIdx(index)
+    return atom.GetIntProp(_ORIGIN) if atom.HasProp(_ORIGIN) else -1
+
+
+def _brought_in_placements(written: Chem.Mol, derived: Chem.Mol,
+                           history: Optional[BondHistory]) -> list[dict[int, int]]:
+    """The ways the largest piece of `derived` that no step's bond joins (a toluene the arrows
+    alkylated) sits in `written`, elements alike and bonds of any order, as written index ->
+    derived index: none when no step made a bond of `derived`."""
+    if history is None or not history.formed:
+        return []
+    made = {b.GetIdx() for b in derived.GetBonds()
+            if pair(_origin(derived, b.GetBeginAtomIdx()), _origin(derived, b.GetEndAtomIdx())) in history.formed}
+    if not made:
+        return []
+    # The connected pieces left when the bonds the steps made are taken away.
+    owner = list(range(derived.GetNumAtoms()))
+
+    def root(i: int) -> int:
+        while owner[i] != i:
+            owner[i] = owner[owner[i]]
+            i = owner[i]
+        return i
+
+    for bond in derived.GetBonds():
+        if bond.GetIdx() not in made:
+            owner[root(bond.GetBeginAtomIdx())] = root(bond.GetEndAtomIdx())
+    pieces: dict[int, list[int]] = {}
+    for atom in atom_list(derived):
+        if atom.GetAtomicNum() > 1:
+            pieces.setdefault(root(atom.GetIdx()), []).append(atom.GetIdx())
+    for piece in sorted(pieces.values(), key=len, reverse=True):
+        if len(piece) < 2:
+            break
+        query = Chem.RWMol()
+        at = {}
+        for i in piece:
+            at[i] = query.AddAtom(Chem.AtomFromSmarts(f"[#{derived.GetAtomWithIdx(i).GetAtomicNum()}]"))
+        for bond in derived.GetBonds():
+            i, j = bond.GetBeginAtomIdx(), bond.GetEndAtomIdx()
+            if bond.GetIdx() not in made and i in at and j in at:
+                query.AddBond(at[i], at[j], Chem.BondType.UNSPECIFIED)
+                query.ReplaceBond(query.GetNumBonds() - 1, _ANY_BOND)
+        matches = written.GetSubstructMatches(query, uniquify=False, useChirality=False, maxMatches=256)
+        if matches:
+            return [{w: piece[k] for k, w in enumerate(match)} for match in matches]
+    return []
+
+
+def _at_the_arrows(written: Chem.Mol, derived: Chem.Mol, align: dict[int, int],
+                   history: Optional[BondHistory]) -> int:
+    """How many of the differences under `align` are where the steps acted: a charge or a hydrogen
+    count of an atom a step touched, a bond (on one side only, or of another order) between atoms
+    whose bond a step made, broke or reordered."""
+    if history is None or not history.atoms:
+        return 0
+    count = 0
+    for wi, di in align.items():
+        w, d = written.GetAtomWithIdx(wi), derived.GetAtomWithIdx(di)
+        if _origin(derived, di) in history.atoms:
+            count += (w.GetFormalCharge() != d.GetFormalCharge()) + (w.GetTotalNumHs() != d.GetTotalNumHs())
+    back = {di: wi for wi, di in align.items()}
+    differing = set()
+    for bond in written.GetBonds():
+        i, j = bond.GetBeginAtomIdx(), bond.GetEndAtomIdx()
+        if i in align and j in align and _order(bond) != _order(derived.GetBondBetweenAtoms(align[i], align[j])):
+            differing.add((align[i], align[j]))
+    for bond in derived.GetBonds():
+        i, j = bond.GetBeginAtomIdx(), bond.GetEndAtomIdx()
+        if i in back and j in back and written.GetBondBetweenAtoms(back[i], back[j]) is None:
+            differing.add((i, j))
+    return count + sum(pair(_origin(derived, i), _origin(derived, j)) in history.touched for i, j in differing)
+
+
+_ANY_BOND = Chem.BondFromSmarts("~")
 
 
 def _common_part_placements(written: Chem.Mol, derived: Chem.Mol, with_hydrogens: bool) -> list[dict[int, int]]:
@@ -314,7 +471,12 @@ def _common_part_placements(written: Chem.Mol, derived: Chem.Mol, with_hydrogens
                             completeRingsOnly=False, matchValences=False, timeout=2)
     if not result.numAtoms:
         return []
-    query = Chem.MolFromSmarts(result.smartsString)
+    # The common part was found with bonds of any order, but its SMARTS keeps the orders it saw
+    # (`-,=`): matched as written, it missed the part's other placements, a ring read the other
+    # way round (a cyclopentenone's ring against its dienol's).
+    query = Chem.RWMol(Chem.MolFromSmarts(result.smartsString))
+    for bond in list(query.GetBonds()):
+        query.ReplaceBond(bond.GetIdx(), _ANY_BOND)
     left = left_mol.GetSubstructMatch(query, useChirality=False)
     rights = right_mol.GetSubstructMatches(query, uniquify=False, useChirality=False, maxMatches=256)
     return [dict(zip(left, right)) for right in rights] if left else []
@@ -334,7 +496,7 @@ def _completed(written: Chem.Mol, derived: Chem.Mol, align: dict[int, int]) -> d
     back = {di: wi for wi, di in align.items()}
     while left_written:
         w, d = min(((w, d) for w in left_written for d in left_derived if _nuclide(w) == _nuclide(d)),
-                   key=lambda pair: _added_differences(written, align, back, *pair))
+                   key=lambda candidate: _added_differences(written, align, back, *candidate))
         align[w.GetIdx()], back[d.GetIdx()] = d.GetIdx(), w.GetIdx()
         left_written.remove(w)
         left_derived.remove(d)
@@ -401,11 +563,13 @@ def _nuclide(atom: Chem.Atom) -> str:
 _PROTON_HINT = "add a proton-transfer step, or move the checkpoint after it"
 
 
-def _explain(frag: Fragment, closest: Fragment, state: ElectronState, what: str) -> tuple[list[str], Optional[str]]:
+def _explain(frag: Fragment, closest: Fragment, state: ElectronState, what: str,
+             history: Optional[BondHistory] = None) -> tuple[list[str], Optional[str]]:
     """What differs between a written piece and the derived piece closest to it, derived atoms
     named (C1, C(atom 7)), written ones by the derived atom they are paired with; and a hint when
-    the difference points at one. `what`: "checkpoint" or "product"."""
-    align = _alignment(frag.mol, closest.mol)
+    the difference points at one. `what`: "checkpoint" or "product"; `history`: the bonds the
+    steps changed."""
+    align = _alignment(frag.mol, closest.mol, history)
     if not align:
         return [], None
 
@@ -420,8 +584,14 @@ def _explain(frag: Fragment, closest: Fragment, state: ElectronState, what: str)
             text = f"{name(di)}: expected charge {_signed(w.GetFormalCharge())}, the moves give {_signed(d.GetFormalCharge())}"
             if abs(w.GetTotalNumHs() - d.GetTotalNumHs()) == 1 and (
                     w.GetFormalCharge() - d.GetFormalCharge()) == (w.GetTotalNumHs() - d.GetTotalNumHs()):
+                # One proton more or less says both differences at once.
                 text += " (a proton transfer is missing?)"
                 hint = _PROTON_HINT
+            elif w.GetTotalNumHs() != d.GetTotalNumHs():
+                # Any other hydrogen difference is told with the charge: an arenium written as the
+                # neutral cyclohexadiene differs at its CH2 by a hydride, not by the charge alone.
+                text = (f"{name(di)}: expected charge {_signed(w.GetFormalCharge())} and {w.GetTotalNumHs()} H, "
+                        f"the moves give {_signed(d.GetFormalCharge())} and {d.GetTotalNumHs()} H")
             details.append(text)
         elif w.GetTotalNumHs() != d.GetTotalNumHs():
             details.append(f"{name(di)}: expected {w.GetTotalNumHs()} H, the moves give {d.GetTotalNumHs()}")
@@ -444,7 +614,9 @@ def _explain(frag: Fragment, closest: Fragment, state: ElectronState, what: str)
             if expected != given and expected and given:   # a bond on one side only: _rebonded's
                 details.append(f"bond {name(align[wi])}-{name(align[wj])}: expected {_order_text(expected)}, "
                                f"the moves give {_order_text(given)}")
-    details[:0] = _rebonded(frag.mol, closest.mol, align, name, what)
+    made = None if history is None else (
+        lambda i, j: pair(_origin(closest.mol, i), _origin(closest.mol, j)) in history.formed)
+    details[:0] = _rebonded(frag.mol, closest.mol, align, name, what, made)
     # Aligned by map numbers, only the numbered atoms are paired: the others are not unmatched.
     by_maps = any(frag.mol.GetAtomWithIdx(i).GetAtomMapNum() for i in align)
     counted = (lambda atom: atom.GetAtomMapNum() != 0) if by_maps else (lambda atom: True)
@@ -459,11 +631,12 @@ def _explain(frag: Fragment, closest: Fragment, state: ElectronState, what: str)
 
 
 def _rebonded(written: Chem.Mol, derived: Chem.Mol, align: dict[int, int], name: Callable[[int], str],
-              what: str) -> list[str]:
+              what: str, made: Optional[Callable[[int, int], bool]] = None) -> list[str]:
     """The bonds between paired atoms that one side has and the other lacks, in words. A bond the
     moves make from an atom where the written structure bonds that atom to another is one change:
     "the moves bond C1 to N7; the checkpoint bonds C1 to C6 instead" (a nitrile written where
-    the moves made an isocyanide)."""
+    the moves made an isocyanide). A derived bond no step made (`made`, by derived indices, when
+    known) was in a species as written: "in the derived state C6 is bonded to C5"."""
     back = {di: wi for wi, di in align.items()}
     only_derived = [(b.GetBeginAtomIdx(), b.GetEndAtomIdx(), _order(b)) for b in derived.GetBonds()
                     if b.GetBeginAtomIdx() in back and b.GetEndAtomIdx() in back
@@ -475,17 +648,22 @@ def _rebonded(written: Chem.Mol, derived: Chem.Mol, align: dict[int, int], name:
     def to(atom: int, order: int) -> str:
         return name(atom) + ("" if order == 1 else f" by {'an' if order == 15 else 'a'} {_order_text(order)} bond")
 
+    def derived_bond(i: int, j: int, order: int) -> str:
+        if made is None or made(i, j):
+            return f"the moves bond {name(i)} to {to(j, order)}"
+        return f"in the derived state {name(i)} is bonded to {to(j, order)}"
+
     lines = []
     for i, j, order in only_derived:
         instead = next(((x, y, o) for x, y, o in only_written if {x, y} & {i, j}), None)
         if instead is None:
-            lines.append(f"the moves bond {name(i)} to {to(j, order)}, the {what} does not")
+            lines.append(f"{derived_bond(i, j, order)}, the {what} does not")
             continue
         only_written.remove(instead)
         x, y, written_order = instead
         shared, derived_end = (i, j) if i in (x, y) else (j, i)
         written_end = y if x == shared else x
-        lines.append(f"the moves bond {name(shared)} to {to(derived_end, order)}; "
+        lines.append(f"{derived_bond(shared, derived_end, order)}; "
                      f"the {what} bonds {name(shared)} to {to(written_end, written_order)} instead")
     lines += [f"the {what} bonds {name(x)} to {to(y, order)}, the moves do not" for x, y, order in only_written]
     return lines
@@ -498,13 +676,15 @@ class CheckpointsMatch(Check):
     def __init__(self) -> None:
         # A structure written twice (the last checkpoint, then the same product) is read once.
         self.read: dict[str, tuple[Optional[list[Fragment]], str, frozenset[int], Optional[int]]] = {}
+        self.history = BondHistory()   # what the steps did to the bonds, to word a mismatch
 
     def step(self, st: StepTrace, context) -> Iterator[Diagnostic]:
         if st.after is not None:
+            self.history.add(st.change)
             for checkpoint in st.step.expects:
-                yield from compare(st.after, checkpoint, "AR401", st.index, context.views, self.read)
+                yield from compare(st.after, checkpoint, "AR401", st.index, context.views, self.read, self.history)
 
     def finish(self, end: Ending, context) -> Iterator[Diagnostic]:
         product = end.mechanism.product
         if product is not None and end.final is not None:
-            yield from compare(end.final, product, "AR402", None, context.views, self.read)
+            yield from compare(end.final, product, "AR402", None, context.views, self.read, self.history)
