@@ -13,7 +13,7 @@ from ..diagnostics import Diagnostic
 from ..electrons import ElectronState
 from ..judgement.stereo import DIASTEREOMERS, ENANTIOMERS, is_chiral, relation
 from ..model import Checkpoint
-from ..rdkit_io import potential_stereo
+from ..rdkit_io import fragment, potential_stereo
 from ..trace import StepTrace
 from . import Check, Ending
 from .checkpoints import _ORIGIN, fragments
@@ -53,7 +53,18 @@ def holds_chirality(state: ElectronState) -> bool:
     both): a meso compound, or one with no configured centre, does not."""
     if not state.configured:
         return False
-    return any("@" in piece.smiles and is_chiral(piece.smiles) for piece in fragments(state.mol, lazy=True))
+    mol = state.mol
+    for indices in Chem.GetMolFrags(mol, asMols=False, sanitizeFrags=False):
+        # Only a piece with a configured centre can be chiral here (an allene or a biaryl written
+        # so is not in the bookkeeping): the others are not cut out.
+        if all(mol.GetAtomWithIdx(i).GetChiralTag() == Chem.ChiralType.CHI_UNSPECIFIED for i in indices):
+            continue
+        piece = fragment(mol, indices)
+        for atom in piece.GetAtoms():
+            atom.SetAtomMapNum(0)   # (numbered, a meso compound's two centres would differ)
+        if is_chiral(Chem.MolToSmiles(piece)):
+            return True
+    return False
 
 
 def _labels_that_differ(state: ElectronState, written_smiles: str, constitution: str) -> str:
