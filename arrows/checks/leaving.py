@@ -109,7 +109,7 @@ class StrongBaseLeavingGroups(Check):
                         hint = (f"in acid the oxygen is protonated first and leaves as {_neutral(acid)}: add a step "
                                 f"in which {label(leaving)} takes the proton of {label(site)} before this one "
                                 f"(give {unnamed} a map number to name it in a move)")
-                    if st.index > 0 and site not in self.acted:   # there from the start, untouched so far
+                    if site not in self.acted:   # there from the start, untouched so far
                         hint += (f"; if {label(site)} is a workup acid, bring it in with `uses` in the step "
                                  f"where it acts")
                     yield Diagnostic(
