@@ -4,7 +4,8 @@ An E2 takes the hydrogen anti-periplanar to the leaving group: in a ring that me
 ring (in a cyclohexane, trans-diaxial); a syn elimination in which the leaving group takes the
 hydrogen itself (a Cope elimination, an ester pyrolysis) needs them cis. With both carbons
 configured, which face each group stands on is read off an RDKit 3D model of the molecule (each
-group above or below the ring's mean plane), so no convention of tags and neighbour order is ours.
+group's side of the plane through its carbon and that carbon's ring neighbours), so no convention of
+tags and neighbour order is ours.
 (Common practice: the menthyl chloride E2 gives only the alkene the trans-diaxial hydrogen
 allows.)"""
 from __future__ import annotations
@@ -102,8 +103,7 @@ def _joined_within(mol: Chem.Mol, start: int, goal: int, reach: int, avoid: int)
 
 def _same_face(mol: Chem.Mol, a: int, b: int, p: int, q: int) -> Optional[bool]:
     """Whether p (on a) and q (on b) stand on one face of the ring through a-b, read off an RDKit
-    3D model of their molecule: the side of the ring's mean plane each points to. None where
-    RDKit makes no model."""
+    3D model of their molecule. None where RDKit makes no model."""
     import numpy as np               # (both loaded only for a configured ring elimination: start-up)
     from rdkit.Chem import AllChem
     piece_atoms = next(f for f in Chem.GetMolFrags(mol, asMols=False, sanitizeFrags=False) if a in f)
@@ -125,9 +125,12 @@ def _same_face(mol: Chem.Mol, a: int, b: int, p: int, q: int) -> Optional[bool]:
                  and len(r) in _RING_SIZES), None)
     if ring is None:
         return None
-    points = xyz[list(ring)]
-    centred = points - points.mean(axis=0)
-    normal = np.linalg.svd(centred)[2][-1]   # the mean plane's normal
-    side_p = float(np.dot(xyz[index[p]] - xyz[index[a]], normal))
-    side_q = float(np.dot(xyz[index[q]] - xyz[index[b]], normal))
-    return (side_p > 0) == (side_q > 0)
+    def side(atom: int, group: int) -> float:
+        # The plane through a ring carbon and its two ring neighbours parts its two other groups
+        # exactly (a tetrahedral centre), whatever the conformer; the neighbours taken in the
+        # ring's one cyclic order, its normal points to one face of the ring at every carbon.
+        k = ring.index(index[atom])
+        centre = xyz[index[atom]]
+        normal = np.cross(xyz[ring[k - 1]] - centre, xyz[ring[(k + 1) % len(ring)]] - centre)
+        return float(np.dot(xyz[index[group]] - centre, normal))
+    return (side(a, p) > 0) == (side(b, q) > 0)
