@@ -94,28 +94,10 @@ class StrongBaseLeavingGroups(Check):
             label = st.before.label
             if elements[leaving] == 8 and after.formal_charge(leaving) > -2 and not ionised:
                 # An alkoxide pushed out (an E1cB, a tetrahedral intermediate): judged only where
-                # a strong acid stands by, which would have protonated it first (an epoxide's
-                # oxygen too: in acid it opens protonated). A carboxylate or phenoxide, a weak
-                # base, leaves in acid too.
-                strong = _strong_acid(st.before, set(st.change.touched_atoms))
-                acid = conjugate_acid(after.mol, leaving) if strong is not None else None
-                if acid is not None and _IONISING_OXYGEN_ACID <= acid.pka < STRONGEST_LEAVING_BASE:
-                    site, kind = strong
-                    if nameable(st.before.mol, site) and nameable(st.before.mol, leaving):
-                        hint = (f"in acid the oxygen is protonated first and leaves as {_neutral(acid)}: add a step "
-                                f"`:{label(leaving)} -> H({label(site)})` before this one")
-                    else:   # a move names only mapped atoms
-                        unnamed = " and ".join(label(a) for a in (leaving, site) if not nameable(st.before.mol, a))
-                        hint = (f"in acid the oxygen is protonated first and leaves as {_neutral(acid)}: add a step "
-                                f"in which {label(leaving)} takes the proton of {label(site)} before this one "
-                                f"(give {unnamed} a map number to name it in a move)")
-                    if site not in self.acted:   # there from the start, untouched so far
-                        hint += (f"; if {label(site)} is a workup acid, bring it in with `uses` in the step "
-                                 f"where it acts")
-                    yield Diagnostic(
-                        "AR517", f"{label(leaving)} leaves {label(centre)} as {acid.base} (pKa of {acid.acid} "
-                        f"{acid.shown}) while {kind} {label(site)} is there to protonate it",
-                        move.move.loc, hint=hint, atoms=(label(leaving), label(centre), label(site)), step=st.index)
+                # a strong acid stands by, which would have protonated it first.
+                found = self._pushed_out_in_acid(st, move, leaving, centre)
+                if found is not None:
+                    yield found
                 continue
             if in_small_ring(st.before.mol, leaving, centre):
                 continue   # the strain released drives the opening (the Favorskii's carbanion)
@@ -138,10 +120,36 @@ class StrongBaseLeavingGroups(Check):
                 atoms=(label(leaving), label(centre)), step=st.index)
 
 
+    def _pushed_out_in_acid(self, st: StepTrace, move, leaving: int, centre: int) -> Optional[Diagnostic]:
+        """AR517 for hydroxide or an alkoxide pushed out of `centre` while a strong acid stands by
+        (an epoxide's oxygen too: in acid it opens protonated). A carboxylate or phenoxide, a weak
+        base, leaves in acid too: not judged."""
+        strong = _strong_acid(st.before, set(st.change.touched_atoms))
+        acid = conjugate_acid(st.after.mol, leaving) if strong is not None else None
+        if acid is None or not _IONISING_OXYGEN_ACID <= acid.pka < STRONGEST_LEAVING_BASE:
+            return None
+        site, kind = strong
+        label, mol = st.before.label, st.before.mol
+        if nameable(mol, site) and nameable(mol, leaving):
+            hint = (f"in acid the oxygen is protonated first and leaves as {_neutral(acid)}: add a step "
+                    f"`:{label(leaving)} -> H({label(site)})` before this one")
+        else:   # a move names only mapped atoms
+            unnamed = " and ".join(label(a) for a in (leaving, site) if not nameable(mol, a))
+            hint = (f"in acid the oxygen is protonated first and leaves as {_neutral(acid)}: add a step "
+                    f"in which {label(leaving)} takes the proton of {label(site)} before this one "
+                    f"(give {unnamed} a map number to name it in a move)")
+        if site not in self.acted:   # there from the start, untouched so far
+            hint += f"; if {label(site)} is a workup acid, bring it in with `uses` in the step where it acts"
+        return Diagnostic(
+            "AR517", f"{label(leaving)} leaves {label(centre)} as {acid.base} (pKa of {acid.acid} "
+            f"{acid.shown}) while {kind} {label(site)} is there to protonate it",
+            move.move.loc, hint=hint, atoms=(label(leaving), label(centre), label(site)), step=st.index)
+
+
 def _strong_acid(state, touched: set[int]) -> Optional[tuple[int, str]]:
     """An atom of `state` that carries the proton of a strong acid (pKa below about 0, memory) and
     what the acid is: an oxonium ion (H3O+, ROH2+, R2OH+, C=OH+), a hydrogen halide (HCl, HBr,
-    HI), a sulfonic or sulfuric acid's O-H. One the step leaves alone first (an oxonium the step
+    HI), a sulfonic or sulfuric acid's O-H, trifluoroacetic acid. One the step leaves alone first (an oxonium the step
     itself unmakes is no bystander), else None."""
     elements, mol = state.elements, state.mol
     found = []
