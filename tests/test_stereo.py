@@ -980,3 +980,18 @@ def test_a_ring_e2_verdict_does_not_hang_on_the_conformer(substrate, leaving_mov
             f'    C2-H -> C2=C1\n    {leaving_move}\nend\n')
     _, diags = check_text(text, "ring.mech")
     assert any(d.code == "AR604" for d in diags) == cis, [d.to_text() for d in diags]
+
+
+def test_ar603_on_a_racemic_product_says_either_enantiomer_may_be_written():
+    """cis-2,3-Dimethyloxirane opened by hydroxide (anti) gives racemic butane-2,3-diol (Clayden,
+    from memory; RDKit: the derived diol is chiral, the written meso diol its diastereomer): the
+    meso diol written is AR603, and the hint says either enantiomer of the derived diol is right,
+    as the steps give it as the racemate."""
+    text = ('species epoxide = "C[C@H:1]1[O:3][C@H:2]1C"\nspecies base = "[OH-:4]"\n'
+            'step "opening"\n    :O4 -> C1\n    C1-O3 -> O3\nend\nstep "protonation"\n'
+            '    uses water = "[OH2:5]"\n    :O3 -> H(O5)\n    O5-H -> O5\nend\n'
+            'product "C[C@@H](O)[C@H](C)O"\n')
+    _, diags = check_text(text, "meso.mech")
+    found = [d for d in diags if d.code == "AR603"]
+    assert len(found) == 1 and "diastereomers" in found[0].message, [d.to_text() for d in diags]
+    assert "either enantiomer of it may be written" in found[0].hint

@@ -95,7 +95,8 @@ def _labels_that_differ(state: ElectronState, written_smiles: str, constitution:
         a, b = pairing[bond.GetBeginAtomIdx()], pairing[bond.GetEndAtomIdx()]
         given = theirs.get(("bond", a, b)) or theirs.get(("bond", b, a))
         if given != mine[key]:
-            told.append(f"{state.label(origin(a))}={state.label(origin(b))} written {mine[key]}, "
+            first, second = sorted((origin(a), origin(b)))   # (named as AR602 names it: C1=C2)
+            told.append(f"{state.label(first)}={state.label(second)} written {mine[key]}, "
                         f"the steps give {given or 'no geometry'}")
     return "; ".join(told)
 
@@ -170,12 +171,14 @@ def mismatches(state: ElectronState, checkpoint: Checkpoint, what: str, step: Op
         kind = relation(smiles, derived_smiles)
         if kind == DIASTEREOMERS or (kind == ENANTIOMERS and not racemic):
             differ = _labels_that_differ(state, smiles, constitution)
+            hint = ("write the configuration the steps give, or check the configured species and the "
+                    "stereospecific steps (`arrows trace --stereo` lists what each step configures)")
+            if racemic and is_chiral(derived_smiles):
+                hint += "; the steps give it as the racemate: either enantiomer of it may be written"
             found.append(Diagnostic(
                 "AR603", f"the {what} is written {smiles}, but the steps give {derived_smiles} ({kind}"
                 f"{': ' + differ if differ else ''})",
-                checkpoint.loc, step=step,
-                hint="write the configuration the steps give, or check the configured species and the "
-                     "stereospecific steps (`arrows trace --stereo` lists what each step configures)"))
+                checkpoint.loc, step=step, hint=hint))
     return found
 
 
