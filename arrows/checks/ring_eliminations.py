@@ -40,8 +40,10 @@ class RingEliminationGeometry(Check):
                 "AR604", f"{label(p)} and {label(q)} leave {label(a)} and {label(b)} of a ring {found} to each other: "
                 f"a concerted {kind} elimination needs them {need} on the ring (periplanar)",
                 st.step.loc, step=st.index, atoms=(label(a), label(b)),
-                hint=("take a hydrogen trans to the leaving group (trans-diaxial in a cyclohexane), from "
-                      "another neighbour if this one has none" if not syn else
+                hint=(("take a hydrogen trans to the leaving group (trans-diaxial in a cyclohexane), from "
+                       "another neighbour if this one has none"
+                       + ("; in a cyclopentane a syn E2 is known where no trans hydrogen is (March), so this "
+                          "may be meant" if _ring_size(st.before.mol, a, b) == 5 else "")) if not syn else
                       "the leaving group takes a hydrogen cis to it through its cyclic transition state: "
                       "take one from the other neighbour"))
 
@@ -81,6 +83,14 @@ def _ring_eliminations(st: StepTrace) -> list[tuple[int, int, int, int, bool]]:
                 out.append((a, b, p, q, _joined_within(mol, takers[0], q, 3, avoid=b)))
                 break
     return out
+
+
+def _ring_size(mol: Chem.Mol, i: int, j: int) -> int:
+    """The smallest ring through the bond i-j of `mol` (0 if none)."""
+    work = Chem.Mol(mol)
+    Chem.FastFindRings(work)
+    bond = work.GetBondBetweenAtoms(i, j)
+    return min((n for n in _RING_SIZES if work.GetRingInfo().IsBondInRingOfSize(bond.GetIdx(), n)), default=0)
 
 
 def _in_small_ring(mol: Chem.Mol, i: int, j: int) -> bool:
