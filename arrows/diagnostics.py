@@ -435,8 +435,9 @@ CODES = _table(
          'end'),
     Code("AR517", WARNING, "hydroxide or alkoxide leaving in acid",
          "A bond from carbon to oxygen breaks, pushed by a neighbour, and the oxygen leaves as hydroxide "
-         "or an alkoxide while a strong acid (H3O+ or another oxonium ion, a hydrogen halide, a sulfonic "
-         "or sulfuric acid) is present. In "
+         "or an alkoxide while a strong acid (H3O+ or another oxonium ion, a hydrogen halide that no free "
+         "amine makes a salt of, a sulfonic, sulfuric, perchloric or nitric acid, TFA) is present, or is "
+         "made beside it in the same step. In "
          "acid the oxygen is protonated first and leaves as water or an alcohol (common practice: the "
          "acid-catalysed ester formation and acetal hydrolysis); hydroxide beside H3O+ means that proton "
          "transfer is missing.",

@@ -315,3 +315,46 @@ def test_ar517_counts_trifluoroacetic_acid_as_a_strong_acid():
     _, diags = check_text(text, "tfa.mech")
     found = [d for d in diags if d.code == "AR517"]
     assert len(found) == 1 and "trifluoroacetic acid O10" in found[0].message
+
+
+_E1CB_BESIDE = """\
+species aldol = "[CH3:1][CH:2]([OH:3])[CH2:4][C:5](=[O:6])[CH3:7]"
+species base  = "[OH-:8]"
+species salt = "{salt}"
+step "enolate"
+    :O8 -> H(C4)
+    C4-H -> C4=C5
+    C5=O6 -> O6
+end
+step "loss of hydroxide"
+    :O6 -> C5=O6
+    C4=C5 -> C2=C4
+    C2-O3 -> O3
+end
+"""
+
+
+@pytest.mark.parametrize("salt", ["CCN(CC)CC.Cl", "c1ccncc1.Cl", "CCCC[N+](CCCC)(CCCC)CCCC.OS(=O)(=O)[O-]"],
+                         ids=["Et3N.HCl", "pyridine.HCl", "Bu4N+ HSO4-"])
+def test_an_e1cb_beside_a_weak_acid_salt_is_not_ar517(salt):
+    """E1cB in base (Clayden, E1cB dehydration of aldols) beside triethylamine or pyridine
+    hydrochloride written with a dot, as such salts are often written, or beside the phase-transfer
+    salt Bu4N+ HSO4-: their acids are R3NH+ (~10.7), pyridinium (5.2) and hydrogen sulfate (~2)
+    (memory), no strong acid. The HCl half of `amine.Cl` and HSO4- were counted as HCl and
+    sulfuric acid."""
+    _, diags = check_text(_E1CB_BESIDE.format(salt=salt), "salt.mech")
+    assert not [d for d in diags if d.code == "AR517"], [d.to_text() for d in diags]
+
+
+@pytest.mark.parametrize("acid, moves", [
+    ('species acid = "[OH:10][Cl:11](=O)(=O)=O"', ""),                             # perchloric acid
+    ('species acid = "[OH3+:6]"\nspecies meoh = "[CH3:8][OH:7]"', "    :O7 -> H(O6)\n    O6-H -> O6\n"),
+], ids=["HClO4", "MeOH2+ made in the same step"])
+def test_hydroxide_leaving_beside_other_strong_acids_is_ar517(acid, moves):
+    """Hydroxide pushed out of a hemiacetal beside perchloric acid (pKa ~-10, memory), or in the
+    very step in which H3O+ protonates methanol, leaving MeOH2+ beside HO- (textbook: in acid the
+    OH is protonated and leaves as water): both were silent."""
+    text = (f'species hemi = "[CH3:1][CH:2]([OH:3])[O:4][CH3:5]"\n{acid}\nstep "loss of hydroxide"\n'
+            f'    :O4 -> C2=O4\n    C2-O3 -> O3\n{moves}end\n')
+    _, diags = check_text(text, "acid.mech")
+    assert [d.code for d in diags if d.code == "AR517"] == ["AR517"], [d.to_text() for d in diags]

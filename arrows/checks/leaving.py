@@ -124,53 +124,105 @@ class StrongBaseLeavingGroups(Check):
         """AR517 for hydroxide or an alkoxide pushed out of `centre` while a strong acid stands by
         (an epoxide's oxygen too: in acid it opens protonated). A carboxylate or phenoxide, a weak
         base, leaves in acid too: not judged."""
-        strong = _strong_acid(st.before, set(st.change.touched_atoms))
+        touched = set(st.change.touched_atoms)
+        strong = _strong_acid(st.before, touched)
+        if strong is None:
+            # Or one the step itself makes beside the leaving group, in another molecule (H3O+
+            # protonating methanol as hydroxide leaves: MeOH2+ and HO- made side by side).
+            strong = _strong_acid(st.after, {leaving}, apart_from=centre)
         acid = conjugate_acid(st.after.mol, leaving) if strong is not None else None
         if acid is None or not _IONISING_OXYGEN_ACID <= acid.pka < STRONGEST_LEAVING_BASE:
             return None
         site, kind = strong
-        label, mol = st.before.label, st.before.mol
-        if nameable(mol, site) and nameable(mol, leaving):
-            hint = (f"in acid the oxygen is protonated first and leaves as {_neutral(acid)}: add a step "
-                    f"`:{label(leaving)} -> H({label(site)})` before this one")
+        label, mol = st.before.label, st.after.mol
+        protonate = f"in acid the oxygen is protonated first and leaves as {_neutral(acid)}"
+        if site in st.entered:
+            hint = (f"{protonate}: bring the acid in with `uses` at an earlier step in which {label(leaving)} "
+                    f"takes its proton")
+        elif nameable(mol, site) and nameable(mol, leaving):
+            hint = (f"{protonate}: add a step before this one with `:{label(leaving)} -> H({label(site)})` and "
+                    f"`{label(site)}-H -> {label(site)}`")
         else:   # a move names only mapped atoms
             unnamed = " and ".join(label(a) for a in (leaving, site) if not nameable(mol, a))
-            hint = (f"in acid the oxygen is protonated first and leaves as {_neutral(acid)}: add a step "
-                    f"in which {label(leaving)} takes the proton of {label(site)} before this one "
-                    f"(give {unnamed} a map number to name it in a move)")
-        if site not in self.acted:   # there from the start, untouched so far
-            hint += f"; if {label(site)} is a workup acid, bring it in with `uses` in the step where it acts"
+            hint = (f"{protonate}: add a step before this one in which {label(leaving)} takes the proton of "
+                    f"{label(site)} (give {unnamed} a map number to name it in a move)")
+        if site not in self.acted and site not in st.entered and site in range(st.before.mol.GetNumAtoms()):
+            # There from the start, untouched so far: most likely a workup acid written among the species.
+            hint = (f"if {label(site)} is a workup acid, bring it in with `uses` in the step where it acts; "
+                    f"otherwise {hint[0].lower()}{hint[1:]}")
         return Diagnostic(
             "AR517", f"{label(leaving)} leaves {label(centre)} as {acid.base} (pKa of {acid.acid} "
             f"{acid.shown}) while {kind} {label(site)} is there to protonate it",
             move.move.loc, hint=hint, atoms=(label(leaving), label(centre), label(site)), step=st.index)
 
 
-def _strong_acid(state, touched: set[int]) -> Optional[tuple[int, str]]:
+def _strong_acid(state, passed_over: set[int], apart_from: Optional[int] = None) -> Optional[tuple[int, str]]:
     """An atom of `state` that carries the proton of a strong acid (pKa below about 0, memory) and
     what the acid is: an oxonium ion (H3O+, ROH2+, R2OH+, C=OH+), a hydrogen halide (HCl, HBr,
-    HI), a sulfonic or sulfuric acid's O-H, trifluoroacetic acid. One the step leaves alone first (an oxonium the step
-    itself unmakes is no bystander), else None."""
+    HI, unless a free amine or pyridine in the state makes it that base's salt, as `Et3N.Cl`
+    is written), a neutral sulfonic or sulfuric acid's O-H (not hydrogen sulfate), perchloric or
+    nitric acid, trifluoroacetic acid, a bare proton. Atoms in `passed_over` (those the step
+    itself moves), released ones and, with `apart_from`, those of its molecule are passed over."""
     elements, mol = state.elements, state.mol
+    skip = set(passed_over) | set(state.released)
+    if apart_from is not None:
+        skip |= next(set(f) for f in Chem.GetMolFrags(mol, asMols=False, sanitizeFrags=False) if apart_from in f)
     found = []
     for i, element in enumerate(elements):
-        if element not in (8, 17, 35, 53):
+        if i in skip or element not in (1, 8, 17, 35, 53):
             continue
         atom = mol.GetAtomWithIdx(i)
+        charge = state.formal_charge(i)
+        if element == 1:
+            if charge == 1 and atom.GetDegree() == 0:
+                found.append((i, "the proton"))
+            continue
         if not atom.GetTotalNumHs(includeNeighbors=True):
             continue
-        charge = state.formal_charge(i)
         if element == 8 and charge == 1:
             found.append((i, "the oxonium ion"))
         elif element != 8 and charge == 0 and not any(n.GetAtomicNum() != 1 for n in atom.GetNeighbors()):
-            found.append((i, "the hydrogen halide"))
-        elif element == 8 and charge == 0 and any(
-                n.GetAtomicNum() == 16 and sum(b.GetBondTypeAsDouble() == 2 for b in n.GetBonds()) >= 2
-                for n in atom.GetNeighbors()):
-            found.append((i, "the sulfonic or sulfuric acid"))
+            if not _free_base(state):
+                found.append((i, "the hydrogen halide"))
+        elif element == 8 and charge == 0 and any(_strong_oxo_acid_centre(state, n) for n in atom.GetNeighbors()):
+            found.append((i, "the strong acid"))
         elif element == 8 and charge == 0 and any(_trifluoroacetyl(n) for n in atom.GetNeighbors()):
             found.append((i, "trifluoroacetic acid"))   # pKa ~0.3 (memory)
-    return next((f for f in found if f[0] not in touched), None)
+    return found[0] if found else None
+
+
+def _strong_oxo_acid_centre(state, centre: Chem.Atom) -> bool:
+    """Whether `centre` is the S of a neutral sulfonic or sulfuric acid, the Cl of perchloric acid or
+    the N of nitric acid (pKa -10 to -1.4, memory): an oxo-acid with no negative oxygen of its own
+    (hydrogen sulfate, pKa ~2, is not one)."""
+    z = centre.GetAtomicNum()
+    oxygens = [n for n in centre.GetNeighbors() if n.GetAtomicNum() == 8]
+    doubled = sum(b.GetBondTypeAsDouble() == 2 for b in centre.GetBonds())
+    negative = any(state.formal_charge(n.GetIdx()) < 0 for n in oxygens)
+    if z == 16:
+        return doubled >= 2 and not negative
+    if z == 17:   # ClO3(OH), however its Cl-O bonds are written (the state keeps them charge-separated)
+        return len(oxygens) == 4 and sum(state.formal_charge(n.GetIdx()) for n in oxygens) + state.formal_charge(
+            centre.GetIdx()) == 0
+    if z == 7:   # HO-N+(=O)O-, its own N+/O- pair
+        return state.formal_charge(centre.GetIdx()) == 1 and doubled == 1 and len(oxygens) == 3
+    return False
+
+
+def _free_base(state) -> bool:
+    """Whether `state` holds a neutral amine or pyridine-type nitrogen with its lone pair (a
+    hydrogen halide beside it is that base's salt, pKa 5-11, memory: no strong acid)."""
+    mol = state.mol
+    for i, element in enumerate(state.elements):
+        if element != 7 or state.formal_charge(i) != 0 or state.nonbonding[i] < 2:
+            continue
+        atom = mol.GetAtomWithIdx(i)
+        if any(b.GetBondTypeAsDouble() == 3 for b in atom.GetBonds()):
+            continue   # a nitrile's nitrogen
+        if not any(n.GetAtomicNum() == 6 and any(b.GetBondTypeAsDouble() == 2 and b.GetOtherAtom(n).GetAtomicNum() == 8
+                                                   for b in n.GetBonds()) for n in atom.GetNeighbors()):
+            return True   # an amine, a pyridine or an imine (not an amide's nitrogen)
+    return False
 
 
 def _trifluoroacetyl(carbon: Chem.Atom) -> bool:
