@@ -267,3 +267,19 @@ def test_a_draft_never_replaces_a_file(tmp_path):
                               capture_output=True, text=True, timeout=120)
         assert done.returncode == 2 and "hint:" in done.stderr and "Traceback" not in done.stderr, done.stderr
     assert (source.read_bytes(), other.read_bytes()) == before
+
+
+def test_a_dieckmann_draft_takes_the_ester_s_own_alkoxide(tmp_path):
+    """A Dieckmann condensation is run with the alkoxide of the ester's own alcohol (NaOEt in EtOH
+    for an ethyl ester; Clayden, the Claisen and Dieckmann condensations): hydroxide would
+    saponify the ester. The draft wrote NaOH in water; an aldol draft keeps hydroxide."""
+    from click.testing import CliRunner
+    from arrows.cli import cli
+    out = tmp_path / "dieckmann.mech"
+    result = CliRunner().invoke(cli, ["closures", "CCOC(=O)CCCCC(=O)OCC", "--write", str(out)])
+    assert result.exit_code == 0, result.output
+    text = out.read_text(encoding="utf-8")
+    assert 'over "NaOEt" under "EtOH"' in text and "CC[O-:" in text and "NaOH" not in text
+    aldol = tmp_path / "aldol.mech"
+    result = CliRunner().invoke(cli, ["closures", "CC(=O)CCCCC(C)=O", "--write", str(aldol)])
+    assert result.exit_code == 0 and 'over "NaOH" under "H2O"' in aldol.read_text(encoding="utf-8")

@@ -1,4 +1,5 @@
-"""A ready .mech text for one candidate closure under basic conditions (hydroxide): forming the
+"""A ready .mech text for one candidate closure under basic conditions (hydroxide; for a closure
+onto an ester, the ester's own alkoxide): forming the
 nucleophile, the ring closure, the steps that finish it (collapse of an ester adduct, proton
 transfers), optionally the E1cB dehydration of an aldol, and the product the moves give.
 
@@ -29,8 +30,26 @@ class _Writer:
     def __init__(self, mol: Chem.Mol, closure: Closure):
         self.mol, self.c = mol, closure
         self.base = max(a.GetAtomMapNum() for a in mol.GetAtoms()) + 1
+        self.base_smiles, over, under = self._base()
+        self.conditions = f'reversible over "{over}" under "{under}"'
         self.steps: list[_Step] = []
-        self.base_is_water = False     # after the base has taken a proton
+        self.base_is_water = False     # after the base has taken a proton (water, or the alcohol)
+
+    def _base(self) -> tuple[str, str, str]:
+        """The base's SMILES (its oxygen numbered `base`) and the conditions written over and under
+        its arrow: hydroxide in water; for a closure onto an ester (a Dieckmann), the alkoxide of
+        the ester's own alcohol in that alcohol, as hydroxide would saponify the ester (common
+        practice: NaOEt in EtOH for an ethyl ester)."""
+        el = self.c.electrophile
+        if el.kind != ESTER:
+            return f"[OH-:{self.base}]", "NaOH", "H2O"
+        alkyl = [n for n in self.mol.GetAtomWithIdx(el.leaving_group).GetNeighbors() if n.GetIdx() != el.atom]
+        if alkyl and alkyl[0].GetAtomicNum() == 6 and alkyl[0].GetDegree() == 1:
+            return f"C[O-:{self.base}]", "NaOMe", "MeOH"
+        return f"CC[O-:{self.base}]", "NaOEt", "EtOH"
+
+    def _base_name(self) -> str:
+        return "hydroxide" if self.base_smiles.startswith("[OH-") else "alkoxide"
 
     def L(self, i: int) -> str:
         atom = self.mol.GetAtomWithIdx(i)
@@ -66,13 +85,13 @@ class _Writer:
             self.deprotonate("enolate formation" if nu.kind == ENOLATE else "nitrile anion", x,
                              f"{x}={self.L(carbon)}",
                              [f"{self.L(carbon)}{self.bond(carbon, acceptor)}{self.L(acceptor)} -> {self.L(acceptor)}"])
-            self.steps[-1].options = 'reversible over "NaOH" under "H2O"'
+            self.steps[-1].options = self.conditions
         elif nu.kind == ENOLATE and self.mol.GetAtomWithIdx(self.partner()[1]).GetTotalNumHs():
             acceptor = self.L(self.partner()[1])
             self.deprotonate("enolate from the enol", acceptor, acceptor)
         elif nu.kind in (OXYGEN, CARBOXYLATE) and not nu.ready:
             self.deprotonate("alkoxide formation" if nu.kind == OXYGEN else "carboxylate formation", x, x)
-            self.steps[-1].options = 'reversible over "NaOH" under "H2O"'
+            self.steps[-1].options = self.conditions
 
     def nucleophile_moves(self, y: str) -> list[str]:
         nu = self.c.nucleophile
@@ -147,7 +166,8 @@ class _Writer:
         lines = [f"# {self.c.closure.name} ring closure, drafted by `arrows closures`; edit freely",
                  f'title   "{title}"', "",
                  f'species {species_name} = "{smiles}"',
-                 f'species {"base" if species_name == "hydroxide" else "hydroxide"} = "[OH-:{self.base}]"']
+                 f'species {"base" if species_name in ("hydroxide", "alkoxide") else self._base_name()} = '
+                 f'"{self.base_smiles}"']
         for step in self.steps:
             lines += ["", f'step "{step.label}"' + (f" {step.options}" if step.options else "")]
             lines += [f"    {m}" for m in step.moves] + [f"    {e}" for e in step.extra] + ["end"]
