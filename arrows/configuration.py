@@ -77,6 +77,13 @@ def carry_configuration(before: Chem.Mol, after: Chem.RWMol, changes: dict[Pair,
     return configured or made
 
 
+def concerted_eliminations(mol: Chem.Mol, changes: dict[Pair, tuple[int, int]]) -> list[tuple[int, int, int, int, bool]]:
+    """(a, b, p, q, syn) of each concerted 1,2-elimination of a step between two configured
+    carbons (see _eliminations); `changes` as carry_configuration takes them."""
+    formed, broken, _ = _bond_changes(changes)
+    return _eliminations(mol, changes, formed, broken)
+
+
 def _bond_changes(changes: dict[Pair, tuple[int, int]]) -> tuple[dict[int, list[int]], dict[int, list[int]], set[int]]:
     """Per atom, the single bonds formed and broken; and the atoms at which any other bond changed."""
     formed: dict[int, list[int]] = {}

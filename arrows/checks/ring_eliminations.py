@@ -14,11 +14,12 @@ from typing import Iterator, Optional
 
 from rdkit import Chem
 
+from ..configuration import concerted_eliminations
 from ..diagnostics import Diagnostic
+from ..electrons import pair
 from ..trace import StepTrace
 from . import Check
 
-_TETRAHEDRAL = (Chem.ChiralType.CHI_TETRAHEDRAL_CW, Chem.ChiralType.CHI_TETRAHEDRAL_CCW)
 _RING_SIZES = range(5, 8)   # rings whose bonds cannot turn a group anti from the cis face
 
 
@@ -49,40 +50,21 @@ class RingEliminationGeometry(Check):
 
 
 def _ring_eliminations(st: StepTrace) -> list[tuple[int, int, int, int, bool]]:
-    """(a, b, p, q, syn) for each ring bond a-b (ring of five to seven) the step makes double while
-    a loses its bond to p (taken by another atom) and b its bond to q, both a and b configured:
-    `syn` when the atom that takes p is joined to q within three bonds, not through b."""
-    change, mol = st.change, st.before.mol
-    made_double = [pair for pair, old, new in change.reordered if old == 1 and new == 2]
-    if not made_double:
+    """The step's concerted eliminations between two configured carbons (as the engine finds them
+    to set the new double bond's geometry: configuration.concerted_eliminations) across a bond of
+    a ring of five to seven."""
+    change = st.change
+    if not any(old == 1 and new == 2 for _, old, new in change.reordered):
         return []
-    broken = {}
-    for i, j in change.broken:
-        broken.setdefault(i, []).append(j)
-        broken.setdefault(j, []).append(i)
-    formed = {}
-    for i, j in change.formed:
-        formed.setdefault(i, []).append(j)
-        formed.setdefault(j, []).append(i)
-    rings = None
-    out = []
-    for i, j in made_double:
-        if len(broken.get(i, ())) != 1 or len(broken.get(j, ())) != 1:
-            continue
-        if any(mol.GetAtomWithIdx(x).GetChiralTag() not in _TETRAHEDRAL for x in (i, j)):
-            continue
-        if rings is None:
-            rings = Chem.Mol(mol)   # (a copy: the state's own Mol is shared)
-            Chem.FastFindRings(rings)
-        if not _in_small_ring(rings, i, j):
-            continue
-        for a, b in ((i, j), (j, i)):
-            p, q = broken[a][0], broken[b][0]
-            takers = formed.get(p, [])
-            if len(takers) == 1 and takers[0] not in (a, b):
-                out.append((a, b, p, q, _joined_within(mol, takers[0], q, 3, avoid=b)))
-                break
-    return out
+    changes = {pair(i, j): (0, 2) for i, j in change.formed}
+    changes.update({pair(i, j): (2, 0) for i, j in change.broken})
+    changes.update({pair(i, j): (2 * old, 2 * new) for (i, j), old, new in change.reordered})
+    found = concerted_eliminations(st.before.mol, changes)
+    if not found:
+        return []
+    rings = Chem.Mol(st.before.mol)   # (a copy: the state's own Mol is shared)
+    Chem.FastFindRings(rings)
+    return [e for e in found if _in_small_ring(rings, e[0], e[1])]
 
 
 def _ring_size(mol: Chem.Mol, i: int, j: int) -> int:
@@ -97,18 +79,6 @@ def _in_small_ring(mol: Chem.Mol, i: int, j: int) -> bool:
     """Whether the bond i-j of `mol` (its rings found) lies on a ring of five to seven atoms."""
     bond = mol.GetBondBetweenAtoms(i, j)
     return bond is not None and any(mol.GetRingInfo().IsBondInRingOfSize(bond.GetIdx(), n) for n in _RING_SIZES)
-
-
-def _joined_within(mol: Chem.Mol, start: int, goal: int, reach: int, avoid: int) -> bool:
-    """Whether `goal` is within `reach` bonds of `start`, not through `avoid`."""
-    seen, frontier = {start}, [start]
-    for _ in range(reach):
-        frontier = [n.GetIdx() for x in frontier for n in mol.GetAtomWithIdx(x).GetNeighbors()
-                    if n.GetIdx() not in seen and n.GetIdx() != avoid]
-        if goal in frontier:
-            return True
-        seen.update(frontier)
-    return False
 
 
 def _same_face(mol: Chem.Mol, a: int, b: int, p: int, q: int) -> Optional[bool]:

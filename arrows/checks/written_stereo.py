@@ -11,7 +11,7 @@ from rdkit import Chem
 
 from ..diagnostics import Diagnostic
 from ..electrons import ElectronState
-from ..judgement.stereo import DIASTEREOMERS, ENANTIOMERS, is_chiral, relation
+from ..judgement.stereo import DIASTEREOMERS, ENANTIOMERS, cip_codes, is_chiral, relation
 from ..model import Checkpoint
 from ..rdkit_io import fragment, potential_stereo
 from ..trace import StepTrace
@@ -81,7 +81,7 @@ def _labels_that_differ(state: ElectronState, written_smiles: str, constitution:
     pairing = derived.GetSubstructMatch(bare)
     if len(pairing) != written.GetNumAtoms():
         return ""
-    mine, theirs = _cip(written), _cip(derived)
+    mine, theirs = cip_codes(written), cip_codes(derived)
     origin = lambda k: derived.GetAtomWithIdx(k).GetIntProp(_ORIGIN)
     told = []
     for w, d in enumerate(pairing):
@@ -99,21 +99,6 @@ def _labels_that_differ(state: ElectronState, written_smiles: str, constitution:
             told.append(f"{state.label(first)}={state.label(second)} written {mine[key]}, "
                         f"the steps give {given or 'no geometry'}")
     return "; ".join(told)
-
-
-def _cip(mol: Chem.Mol) -> dict[tuple, str]:
-    """RDKit's CIP labels of a piece: ("atom", i) -> R or S, ("bond", i, j) -> E or Z."""
-    from rdkit.Chem import rdCIPLabeler
-    work = Chem.Mol(mol)
-    try:
-        Chem.AssignStereochemistry(work, cleanIt=True, force=True)
-        rdCIPLabeler.AssignCIPLabels(work)
-    except Exception:   # an odd piece: nothing said
-        return {}
-    out = {("atom", a.GetIdx()): a.GetProp("_CIPCode") for a in work.GetAtoms() if a.HasProp("_CIPCode")}
-    out.update({("bond", b.GetBeginAtomIdx(), b.GetEndAtomIdx()): b.GetProp("_CIPCode")
-                for b in work.GetBonds() if b.HasProp("_CIPCode")})
-    return out
 
 
 class ChiralityWatch:

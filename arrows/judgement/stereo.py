@@ -396,6 +396,13 @@ def cip_labels(mol: Chem.Mol, atoms: Iterable[int]) -> dict[int, str]:
     """RDKit's CIP label (R or S, or a double bond's) of each of `atoms` that has one in `mol`;
     none when RDKit cannot label the state. Read for the drawing's --cip labels and for
     `arrows trace --stereo`."""
+    codes = cip_codes(mol)
+    return {i: codes[("atom", i)] for i in atoms if ("atom", i) in codes}
+
+
+def cip_codes(mol: Chem.Mol) -> dict[tuple, str]:
+    """RDKit's CIP labels of `mol` (a sanitized copy): ("atom", i) -> R or S, ("bond", i, j) -> E
+    or Z; none when RDKit cannot label it (an odd intermediate)."""
     from rdkit.Chem import rdCIPLabeler
     work = Chem.Mol(mol)
     try:
@@ -404,4 +411,7 @@ def cip_labels(mol: Chem.Mol, atoms: Iterable[int]) -> dict[int, str]:
         rdCIPLabeler.AssignCIPLabels(work)
     except Exception:   # an odd intermediate: nothing said about its configuration
         return {}
-    return {i: work.GetAtomWithIdx(i).GetProp("_CIPCode") for i in atoms if work.GetAtomWithIdx(i).HasProp("_CIPCode")}
+    out = {("atom", a.GetIdx()): a.GetProp("_CIPCode") for a in work.GetAtoms() if a.HasProp("_CIPCode")}
+    out.update({("bond", b.GetBeginAtomIdx(), b.GetEndAtomIdx()): b.GetProp("_CIPCode")
+                for b in work.GetBonds() if b.HasProp("_CIPCode")})
+    return out
