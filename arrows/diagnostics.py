@@ -447,6 +447,43 @@ CODES = _table(
          '    :O3 -> C2=O3\n'
          '    C2-O4 -> O4   # hydroxide leaves beside H3O+: protonate O4 first\n'
          'end'),
+    Code("AR518", WARNING, "proton released with no base to take it",
+         "A step breaks a bond to a hydrogen, its pair staying on the other atom or going into a new "
+         "bond, and no arrow from a base ends at the hydrogen: it is left a bare proton. In solution a "
+         "proton is always handed to a base (the solvent, water, the acid's counter-ion; common "
+         "practice). Writing \"-H+\" is a shorthand; the hint names a base present to take it, or one "
+         "to bring in with `uses`. A proton written as [H+] and used as an acid is not judged.",
+         'species alcohol = "[CH3:1][CH:2]([CH3:3])[OH2+:4]"\n'
+         'step "E1, loss of a proton"\n'
+         '    C1-H -> C1=C2   # and no base: add `:O5 -> H(C1)` with water brought in\n'
+         '    C2-O4 -> O4\n'
+         'end'),
+    Code("AR519", WARNING, "shift between atoms that are not neighbours",
+         "A step moves a hydrogen or a carbon group with its pair from one atom to an electron-poor atom "
+         "of the same molecule that is not its neighbour: a carbocation, or an atom whose leaving group "
+         "departs in the same step. Hydride and alkyl shifts in cations, and migrations to an atom losing "
+         "its leaving group, are 1,2 (common practice: the Wagner-Meerwein, pinacol, Baeyer-Villiger and "
+         "Beckmann rearrangements); a suprafacial thermal [1,3]-shift of hydrogen is forbidden by the "
+         "Woodward-Hoffmann rules. The message counts the atoms between; a longer shift is written as "
+         "successive 1,2-shifts (a transannular shift across a medium ring is known). A pericyclic step "
+         "is not judged.",
+         'species cation = "[CH3:1][CH+:2][CH2:3][CH:4]([CH3:5])[CH3:6]"\n'
+         'step "hydride shift"\n'
+         '    C4-H -> C2-H(C4)   # C4 is not C2\'s neighbour: two 1,2-shifts, through C3\n'
+         'end'),
+    Code("AR520", WARNING, "substitution at a tertiary carbon in one step",
+         "A nucleophile from another molecule bonds to an sp3 carbon that holds three carbon groups while "
+         "a leaving group departs from it in the same step: an SN2 at a tertiary centre. The backside is "
+         "too crowded for it (common practice; Clayden: tertiary substrates react by SN1, through the "
+         "carbocation, or eliminate by E2). The opening of a three-membered ring (an epoxide, an "
+         "aziridinium, episulfonium or bromonium ion), a ring closure, a 1,2-shift and a nucleophile "
+         "the leaving group itself delivers (SNi) are not judged.",
+         'species bromide = "C[C:1](C)(C)[Br:2]"\n'
+         'species hydroxide = "[OH-:3]"\n'
+         'step "substitution"\n'
+         '    :O3 -> C1   # tert-butyl bromide: let Br2 leave first, then O3 adds (SN1)\n'
+         '    C1-Br2 -> Br2\n'
+         'end'),
     Code("AR601", NOTE, "ring closure",
          "A step closes a ring; its size and Baldwin class are given. A pericyclic step (every arrow "
          "from a bond to a bond, round a closed loop that makes no charge; arrows that all start at "

@@ -979,6 +979,7 @@ def _lone_pair_onto(step: Step, replay: _StepReplay, i: int) -> Optional[Move]:
 
 
 _LEAVING_ELEMENTS = frozenset((7, 8, 9, 15, 16, 17, 35, 53))   # N, O, F, P, S, Cl, Br, I
+_LEAVING_RANK = {53: 0, 35: 1, 17: 2, 16: 3, 8: 4, 9: 5, 7: 6, 15: 7}   # I- best, then Br-, Cl- ... (pKa of HX)
 
 
 def _room_making_hint(state: ElectronState, i: int, changes: dict[Pair, tuple[int, int]],
@@ -1030,6 +1031,10 @@ def _room_making_hint(state: ElectronState, i: int, changes: dict[Pair, tuple[in
         return (f"the bond that holds {label(i)} must break in the same step: "
                 f"`{label(holder)}-{hydrogen} -> {label(holder)}`")
     leaving = [j for j, order in kept if state.elements[j] in _LEAVING_ELEMENTS]
+    # The group that leaves as the weakest base first (common practice: an onium leaves as a neutral
+    # molecule, a neutral group as an anion; an O- would leave as oxide, O2-, so the OEt of a
+    # tetrahedral intermediate leaves, not its O-); a halogen before O, N, S or P.
+    leaving.sort(key=lambda j: (not nameable(state.mol, j), -state.formal_charge(j), _LEAVING_RANK.get(state.elements[j], 9)))
     if leaving:
         if not nameable(state.mol, leaving[0]):
             return (f"a bond to {label(i)} must break in the same step: the bond to a leaving group, "

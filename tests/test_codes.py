@@ -531,6 +531,21 @@ TWINS = [
     Twin("product written with another configuration (warning)", TEXTBOOK["sn2 inversion"][0],
          'product "CC[C@H](C)O.[Br-]"', 'product "CC[C@@H](C)O.[Br-]"', "AR603", "product",
          says=("enantiomers",), hint_says=("arrows trace --stereo",)),
+    # A proton thrown off with water standing by and no arrow to it (common practice: a base, the
+    # solvent or water always takes the proton; "-H+" is a shorthand): E1 of the tert-butyl cation.
+    Twin("proton released with no base", 'species cation = "[CH3:1][C+:2]([CH3:3])[CH3:4]"\n'
+         'species water = "[OH2:5]"\nstep "loss of a proton"\n    :O5 -> H(C1)\n    C1-H -> C1=C2\nend\n',
+         "    :O5 -> H(C1)\n", "", "AR518", "C1-H -> C1=C2", says=("bare proton",), hint_says=("`:O5 -> H(C1)`",)),
+    # A 1,3-hydride shift in the pentan-2-yl cation (common practice: hydride shifts are 1,2; a
+    # suprafacial thermal [1,3]-H shift is forbidden by the Woodward-Hoffmann rules).
+    Twin("hydride shift between atoms that are not neighbours",
+         'species cation = "[CH3:1][CH+:2][CH2:3][CH:4]([CH3:5])[CH3:6]"\nstep "hydride shift"\n'
+         '    C3-H -> C2-H(C3)\nend\n', "C3-H -> C2-H(C3)", "C4-H -> C2-H(C4)", "AR519", "C4-H -> C2-H(C4)",
+         says=("1,3-shift", "C3"), hint_says=("1,2-shifts",), alone=False),
+    # SN2 at tert-butyl bromide (common practice; Clayden: a tertiary carbon reacts by SN1 or E2).
+    Twin("SN2 at a tertiary carbon", 'species bromide = "CC[CH:1](C)[Br:2]"\nspecies hydroxide = "[OH-:3]"\n'
+         'step "substitution"\n    :O3 -> C1\n    C1-Br2 -> Br2\nend\n', 'CC[CH:1](C)[Br:2]', 'CC[C:1](C)(C)[Br:2]',
+         "AR520", "C1-Br2 -> Br2", says=("tertiary",), hint_says=("`C1-Br2 -> Br2`",)),
 ]
 
 

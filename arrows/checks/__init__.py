@@ -59,18 +59,19 @@ def _registry() -> list[Check]:
     if not _CHECK_CLASSES:
         from .checkpoints import CheckpointsMatch
         from .conservation import ChargeAndAtomsConserved
-        from .leaving import StrongBaseLeavingGroups
-        from .protons import UphillProtonTransfers
+        from .leaving import StrongBaseLeavingGroups, TertiarySubstitution
+        from .protons import BareProtons, UphillProtonTransfers
         from .ring_eliminations import RingEliminationGeometry
         from .rings import RingClosures
-        from .shifts import CationShiftDirection, MigrationAntiToLeavingGroup
+        from .shifts import CationShiftDirection, MigrationAntiToLeavingGroup, ShiftBetweenNeighbours
         from .stereo import StereoChanges
         from .structure import NothingAfterProduct, SomethingToCheck, StepsHaveMoves
         from .valence import UnusualElectronCounts
         from .written_stereo import WrittenConfigurationMatches
         _CHECK_CLASSES.extend([SomethingToCheck, NothingAfterProduct, StepsHaveMoves, UnusualElectronCounts,
-                               ChargeAndAtomsConserved, RingClosures, CheckpointsMatch, UphillProtonTransfers,
-                               StereoChanges, MigrationAntiToLeavingGroup, CationShiftDirection, StrongBaseLeavingGroups,
+                               ChargeAndAtomsConserved, RingClosures, CheckpointsMatch, UphillProtonTransfers, BareProtons,
+                               StereoChanges, MigrationAntiToLeavingGroup, CationShiftDirection, ShiftBetweenNeighbours,
+                               StrongBaseLeavingGroups, TertiarySubstitution,
                                WrittenConfigurationMatches, RingEliminationGeometry])
     return [cls() for cls in _CHECK_CLASSES]
 

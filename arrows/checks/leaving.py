@@ -26,6 +26,7 @@ from ..electrons import nameable
 from ..judgement.acidity import HYDROGEN, Acidity, acidity_of, perceived
 from ..trace import StepTrace
 from . import Check
+from .protons import freed_protons
 
 STRONGEST_LEAVING_BASE = 35.0   # pKa of the conjugate acid from which a leaving group is flagged
 _JUDGED = (1, 6, 7, 8)   # H, C, N and O (as oxide, O2-): the elements whose anions can be this basic
@@ -55,6 +56,28 @@ def in_small_ring(mol: Chem.Mol, a: int, b: int) -> bool:
     work.RemoveBond(a, b)
     detour = Chem.GetShortestPath(work, a, b)
     return 0 < len(detour) <= 4
+
+
+def _weaker_ring_bond(state, a: int, b: int) -> bool:
+    """Whether the three- or four-membered ring through the C-C bond a-b holds a heteroatom (an
+    epoxide's O, an aziridine's N): such a ring opens at its bond to the heteroatom, which leaves as
+    a far weaker base (common practice: epoxides open at C-O); cutting its C-C to expel a carbanion
+    is not the strain-driven opening of an all-carbon ring (the Favorskii's cyclopropanone)."""
+    work = Chem.RWMol(state.mol)
+    work.RemoveBond(a, b)
+    detour = Chem.GetShortestPath(work, a, b)
+    return any(state.elements[i] not in (1, 6) for i in detour)
+
+
+def _ring_heteroatom(state, a: int, b: int) -> Optional[int]:
+    """The heteroatom bonded to `b` in the three- or four-membered ring through the bond a-b, if any."""
+    if not in_small_ring(state.mol, a, b):
+        return None
+    work = Chem.RWMol(state.mol)
+    work.RemoveBond(a, b)
+    detour = list(Chem.GetShortestPath(work, a, b))
+    beside = detour[-2] if len(detour) >= 2 else None
+    return beside if beside is not None and state.elements[beside] not in (1, 6) else None
 
 
 class StrongBaseLeavingGroups(Check):
@@ -99,7 +122,8 @@ class StrongBaseLeavingGroups(Check):
                 if found is not None:
                     yield found
                 continue
-            if in_small_ring(st.before.mol, leaving, centre):
+            if in_small_ring(st.before.mol, leaving, centre) and not (
+                    elements[leaving] == 6 and _weaker_ring_bond(st.before, leaving, centre)):
                 continue   # the strain released drives the opening (the Favorskii's carbanion)
             acid = conjugate_acid(after.mol, leaving)
             if (acid is not None and elements[leaving] == 8 and _IONISING_OXYGEN_ACID <= acid.pka < STRONGEST_LEAVING_BASE
@@ -113,10 +137,16 @@ class StrongBaseLeavingGroups(Check):
                 continue
             if acid is None or acid.pka < STRONGEST_LEAVING_BASE:
                 continue
+            hint = _strong_base_hint(label(leaving), elements[leaving])
+            ring_heteroatom = _ring_heteroatom(st.before, leaving, centre) if elements[leaving] == 6 else None
+            if ring_heteroatom is not None:
+                het = label(ring_heteroatom)
+                hint = (f"a small ring with a heteroatom opens at its bond to it (an epoxide at C-O, common practice): "
+                        f"`{label(centre)}-{het} -> {het}`")
             yield Diagnostic(
                 "AR510", f"{label(leaving)} leaves {label(centre)} as {acid.base} (pKa of {acid.acid} "
                 f"{acid.shown}): a base this strong is almost never a leaving group",
-                move.move.loc, hint=_strong_base_hint(label(leaving), elements[leaving]),
+                move.move.loc, hint=hint,
                 atoms=(label(leaving), label(centre)), step=st.index)
 
 
@@ -129,7 +159,9 @@ class StrongBaseLeavingGroups(Check):
         if strong is None:
             # Or one the step itself makes beside the leaving group, in another molecule (H3O+
             # protonating methanol as hydroxide leaves: MeOH2+ and HO- made side by side).
-            strong = _strong_acid(st.after, {leaving}, apart_from=centre)
+            # A proton this step throws off with no base (AR518's) is the missing base's slip, not
+            # an acid standing by.
+            strong = _strong_acid(st.after, {leaving} | set(freed_protons(st)), apart_from=centre)
         acid = conjugate_acid(st.after.mol, leaving) if strong is not None else None
         if acid is None or not _IONISING_OXYGEN_ACID <= acid.pka < STRONGEST_LEAVING_BASE:
             return None
@@ -247,3 +279,87 @@ def _strong_base_hint(leaving: str, element: int) -> str:
                 f"makes a stabilised anion (an enolate), or {leaving}'s pair goes on into a bond in this step")
     return (f"protonate {leaving} in an earlier step so that it leaves {'as hydroxide' if element == 8 else 'neutral'}, "
             f"or let its pair go on into a bond in this step")
+
+
+class TertiarySubstitution(Check):
+    """AR520: a concerted substitution (SN2) at an sp3 carbon that holds three carbon groups, or
+    three groups of any kind and no hydrogen besides the leaving group (a tetrahedral intermediate
+    attacked again as if it were an alkyl halide): a
+    nucleophile from another molecule bonds to it, its own pair making the bond, while a leaving
+    group takes the pair of its bond to the carbon in the same step. The backside of a tertiary
+    carbon is too crowded (common practice; Clayden: tertiary halides react by SN1 or E2, not SN2).
+    Not judged: the opening of a three-membered ring (an epoxide, an aziridinium, episulfonium or
+    bromonium ion opens at its more substituted carbon in acid), a nucleophile of the substrate's
+    own molecule (a ring closure, a 1,2-shift, an SNi delivery by the leaving group), a carbon
+    with a multiple bond (acyl, vinyl, aryl) or a cation."""
+    name = "tertiary substitution"
+    codes = ("AR520",)
+
+    def step(self, st: StepTrace, context) -> Iterator[Diagnostic]:
+        if st.after is None or not st.change.broken or not st.change.formed:
+            return
+        before, elements = st.before, st.before.elements
+        mol = before.mol
+        formed = {(min(p), max(p)) for p in st.change.formed}
+        molecules = None
+        for move in st.change.moves:
+            if move.source_kind != "bond" or move.electrons != 2 or len(move.sink_atoms) != 1:
+                continue
+            leaving = move.sink_atoms[0]
+            if leaving not in move.source_atoms:
+                continue
+            centre = move.source_atoms[1] if move.source_atoms[0] == leaving else move.source_atoms[0]
+            atom = mol.GetAtomWithIdx(centre)
+            if elements[centre] != 6 or before.bond_sums[centre] != 4 or before.nonbonding[centre] \
+                    or any(b.GetBondTypeAsDouble() != 1 for b in atom.GetBonds()):
+                continue   # not an sp3 carbon with four single bonds
+            groups = [n.GetIdx() for n in atom.GetNeighbors() if n.GetAtomicNum() != 1 and n.GetIdx() != leaving]
+            if len(groups) < 3:
+                continue   # a hydrogen on the carbon: primary or secondary, or a methyl
+            if _in_three_ring(mol, centre, leaving):
+                continue   # an epoxide, aziridinium, episulfonium or bromonium ion opened
+            nucleophile = _incoming(st, centre, formed)
+            if nucleophile is None:
+                continue
+            if molecules is None:
+                molecules = {i: k for k, f in enumerate(Chem.GetMolFrags(mol, asMols=False, sanitizeFrags=False))
+                             for i in f}
+            if molecules[nucleophile] == molecules[centre]:
+                continue   # a ring closure, a shift, an SNi
+            label = before.label
+            kind = "a tertiary carbon" if all(elements[g] == 6 for g in groups) else \
+                "a carbon with three groups besides the leaving group and no hydrogen"
+            alkoxide = next((g for g in groups if elements[g] == 8 and before.formal_charge(g) < 0), None)
+            if alkoxide is not None and nameable(mol, alkoxide) and nameable(mol, leaving):
+                # A tetrahedral intermediate attacked again: it collapses to the carbonyl first.
+                o, c, lg = label(alkoxide), label(centre), label(leaving)
+                hint = (f"a tetrahedral intermediate collapses first: `:{o} -> {c}={o}` with `{c}-{lg} -> {lg}` "
+                        f"in a step of its own, then {label(nucleophile)} adds to the {c}={o} made")
+            else:
+                hint = (f"such a carbon is substituted by SN1: let {label(leaving)} leave first "
+                        f"(`{label(centre)}-{label(leaving)} -> {label(leaving)}`, a step of its own) and "
+                        f"{label(nucleophile)} add to the carbocation in the next step; with a strong base, E2 "
+                        f"(a beta C-H taken) is the usual outcome")
+            yield Diagnostic(
+                "AR520", f"{label(nucleophile)} displaces {label(leaving)} from {label(centre)} in one step, an SN2 "
+                f"at {kind}: its backside is too crowded", move.move.loc, hint=hint,
+                atoms=(label(nucleophile), label(centre), label(leaving)), step=st.index)
+
+
+def _in_three_ring(mol: Chem.Mol, a: int, b: int) -> bool:
+    """Whether the bond a-b lies on a three-membered ring (a common neighbour of both)."""
+    near = {n.GetIdx() for n in mol.GetAtomWithIdx(a).GetNeighbors()}
+    return any(n.GetIdx() in near for n in mol.GetAtomWithIdx(b).GetNeighbors())
+
+
+def _incoming(st: StepTrace, centre: int, formed: set) -> Optional[int]:
+    """The atom whose own pair (a lone pair, or a bond of its own) makes a new bond to `centre` in
+    this step, if any."""
+    for move in st.change.moves:
+        if move.electrons != 2 or len(move.sink_atoms) != 2 or centre not in move.sink_atoms \
+                or centre in move.source_atoms:
+            continue
+        partner = move.sink_atoms[0] if move.sink_atoms[1] == centre else move.sink_atoms[1]
+        if partner in move.source_atoms and (min(partner, centre), max(partner, centre)) in formed:
+            return partner
+    return None

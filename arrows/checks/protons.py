@@ -16,6 +16,7 @@ from typing import Callable, Iterator, NamedTuple, Optional
 from rdkit import Chem
 
 from ..diagnostics import Diagnostic
+from ..electrons import nameable
 from ..judgement.acidity import HYDROGEN, Acidity, acidity_of
 from ..judgement.perception import Perceived, RecentViews
 from ..model import Location
@@ -231,3 +232,76 @@ class UphillProtonTransfers(Check):
                 t.loc, hint=f"a base whose conjugate acid has a pKa near {acid.shown} is needed, or another "
                 f"proton is meant; the threshold is {gap:g} units (`arrows check --pka-gap`)",
                 atoms=(label_b, label_x), step=st.index)
+
+
+def freed_protons(st: StepTrace) -> list[int]:
+    """The hydrogens this step leaves bare: bonded before it, with no bond and a positive charge after
+    it (an X-H pair sent to X or into a new bond, and no base's arrow to the hydrogen)."""
+    after = st.after
+    if after is None:
+        return []
+    elements = st.before.elements
+    found = []
+    for pair_ in st.change.broken:
+        for h in pair_:
+            if elements[h] == 1 and h not in found and after.formal_charge(h) == 1 \
+                    and after.mol.GetAtomWithIdx(h).GetDegree() == 0:
+                found.append(h)
+    return found
+
+
+# Atoms that take a bare proton, best first (common practice: in an E1 or an oxidation the solvent,
+# water or the counter-ion takes it): an anion's lone pair, then an amine's, then an oxygen's; a
+# halogen only as a halide ion.
+_TAKERS = (7, 8, 16, 17, 35, 53, 9)
+
+
+def _taker(st: StepTrace, h: int) -> Optional[int]:
+    """An atom of another molecule in the state after the step with a lone pair to take the proton
+    `h`: an anion first, then N, then O (water, an alcohol, the counter-ion of the acid); none of
+    the proton's own molecule, before or after the step."""
+    after = st.after
+    holder = next(i for pair_ in st.change.broken if h in pair_ for i in pair_ if i != h)
+    mine = set()
+    for state in (st.before, after):   # the proton's own molecule, before and after the step
+        mine |= next(set(f) for f in Chem.GetMolFrags(state.mol, asMols=False, sanitizeFrags=False) if holder in f)
+    released = set(after.released)
+    found = [i for i, z in enumerate(after.elements)
+             if z in _TAKERS and i not in mine and i not in released and after.nonbonding[i] >= 2
+             and (after.formal_charge(i) < 0 or (after.formal_charge(i) == 0 and z in (7, 8, 16)))]
+    found.sort(key=lambda i: (after.formal_charge(i) >= 0, _TAKERS.index(after.elements[i]),
+                              not nameable(after.mol, i)))
+    return found[0] if found else None
+
+
+class BareProtons(Check):
+    """AR518: a step breaks an X-H bond, its pair staying with X or going into a new bond, and no
+    base's arrow ends at the hydrogen: it is left a bare proton. In solution a proton is always
+    handed to a base, the solvent, water or the counter-ion of the acid (common practice); writing
+    "-H+" is a shorthand, so a warning that names a base present (or one to bring in) to take it.
+    A proton written as `[H+]` and used as an acid, or one a base takes in the same step, is not
+    judged."""
+    name = "bare protons"
+    codes = ("AR518",)
+
+    def step(self, st: StepTrace, context) -> Iterator[Diagnostic]:
+        for h in freed_protons(st):
+            label = st.before.label
+            holder = next(i for pair_ in st.change.broken if h in pair_ for i in pair_ if i != h)
+            hydrogen = label(h)
+            taker = _taker(st, h)
+            if taker is not None and nameable(st.after.mol, taker) and nameable(st.before.mol, h):
+                name = st.after.label(taker)
+                hint = (f"let a base take it in this step: {name}, for example, with `:{name} -> "
+                        f"{hydrogen}` (water, the solvent or the acid's counter-ion takes the proton)")
+            else:
+                free = 1 + max((a.GetAtomMapNum() for a in st.after.mol.GetAtoms()), default=0)
+                taking = f"`:O{free} -> {hydrogen}`" if nameable(st.before.mol, h) else \
+                    f"an arrow from O{free} to {hydrogen} (give {label(holder)} a map number to name it)"
+                hint = (f"let a base take it in this step: bring one in with `uses base = \"[OH2:{free}]\"` (water, "
+                        f"or the solvent or counter-ion the conditions hold) and add {taking}")
+            loc = next((m.move.loc for m in st.change.moves if m.source_kind == "bond" and h in m.source_atoms),
+                       st.step.loc)
+            yield Diagnostic(
+                "AR518", f"{hydrogen} leaves {label(holder)} as a bare proton: no base takes it in this step",
+                loc, hint=hint, atoms=(hydrogen, label(holder)), step=st.index)

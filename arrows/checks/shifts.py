@@ -121,3 +121,70 @@ class CationShiftDirection(Check):
                 hint="1,2-shifts run toward the more stable cation; reverse the shift, or check which carbon "
                      "carries the charge",
                 atoms=(label(migrating), label(destination), label(origin)), step=st.index)
+
+
+class ShiftBetweenNeighbours(Check):
+    """AR519: a group (a hydrogen with its pair, an alkyl or aryl group) moved in one step to an
+    electron-poor atom of its own molecule that is not a neighbour of the atom it leaves: a
+    carbocation, or an atom whose leaving group departs in the same step. Such shifts are 1,2
+    (common practice: hydride and alkyl shifts of the Wagner-Meerwein and pinacol rearrangements,
+    the Baeyer-Villiger and Beckmann migrations); a suprafacial thermal [1,3]-shift of hydrogen is
+    forbidden by the Woodward-Hoffmann rules. A pericyclic step is not judged."""
+    name = "shift between neighbours"
+    codes = ("AR519",)
+
+    def step(self, st: StepTrace, context) -> Iterator[Diagnostic]:
+        before, after = st.before, st.after
+        if after is None or st.change.pericyclic:
+            return
+        mol = before.mol
+        for move, migrating, origin, destination in shift_moves(st):
+            if move.electrons != 2 or origin == destination or 1 in (before.elements[origin], before.elements[destination]):
+                continue   # (a hydrogen as the "origin": a pair moving on from an X-H bond, not a shift)
+            if mol.GetBondBetweenAtoms(origin, migrating) is None or after.mol.GetBondBetweenAtoms(origin, migrating) \
+                    is not None or mol.GetBondBetweenAtoms(destination, migrating) is not None \
+                    or mol.GetBondBetweenAtoms(origin, destination) is not None:
+                continue   # not a group leaving one atom for another that is not its neighbour
+            path = Chem.GetShortestPath(mol, origin, destination)
+            if not path:
+                continue   # another molecule: a transfer, not a shift
+            if not (_electron_poor(before, destination) or _loses_leaving_group(st, destination)):
+                continue
+            label = before.label
+            between = [label(i) for i in path[1:-1]]
+            n = len(between)
+            yield Diagnostic(
+                "AR519", f"{label(migrating)} shifts from {label(origin)} to {label(destination)}, which are not "
+                f"neighbours ({n} atom{'s' if n != 1 else ''} between: {', '.join(between)}): a 1,{n + 2}-shift",
+                move.move.loc,
+                hint=_far_shift_hint(label(destination), between, _electron_poor(before, destination)),
+                atoms=(label(migrating), label(origin), label(destination)), step=st.index)
+
+
+def _electron_poor(state, atom: int) -> bool:
+    """A cation short of its octet before the step (a carbocation): no lone pair, fewer than four bonds."""
+    return state.formal_charge(atom) > 0 and state.nonbonding[atom] == 0 and state.bond_sums[atom] < 4
+
+
+def _loses_leaving_group(st: StepTrace, atom: int) -> bool:
+    """Whether a sigma bond of `atom` breaks in this step with its pair going to the other atom."""
+    for move in st.change.moves:
+        if move.source_kind == "bond" and move.electrons == 2 and atom in move.source_atoms \
+                and len(move.sink_atoms) == 1 and move.sink_atoms[0] != atom \
+                and st.before.mol.GetBondBetweenAtoms(*move.source_atoms).GetBondTypeAsDouble() == 1:
+            return True
+    return False
+
+
+def _far_shift_hint(destination: str, between: list[str], cation: bool) -> str:
+    """AR519's hint: successive 1,2-shifts in a cation; in a migration as a leaving group departs,
+    the group goes to the neighbour of the atom it leaves, whose own leaving group departs."""
+    rule = ("hydride and alkyl shifts go to a neighbouring atom (common practice: 1,2-shifts; a thermal "
+            "suprafacial [1,3]-H shift is forbidden by the Woodward-Hoffmann rules)")
+    if cation:
+        return (f"{rule}: write it as successive 1,2-shifts, the first to {between[0]}, or move a group from a "
+                f"neighbour of {destination}; a transannular shift across a medium ring, the 6,2-hydride shift "
+                f"of the norbornyl cation or a 1,3- or 1,5-hydride shift of a terpene cyclisation is known and "
+                f"may be meant")
+    return (f"{rule}: a group migrates to the atom next to the one it leaves, here {between[0]}, as the leaving "
+            f"group departs from {between[0]} in the same step")

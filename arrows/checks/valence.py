@@ -1,7 +1,7 @@
 """Electron counts that are legal but unusual enough to deserve a second look."""
 from __future__ import annotations
 
-from typing import Iterator
+from typing import Iterator, Optional
 
 from ..diagnostics import Diagnostic
 from ..rdkit_io import ELECTRONEGATIVITY
@@ -135,6 +135,20 @@ def _unstabilised_carbanion(mol, i: int) -> bool:
     return halogens < 2
 
 
+def _nucleophile_at(change, elements, atom: int) -> Optional[int]:
+    """The carbon or hydrogen whose own pair (a carbanion's lone pair, an organometallic's C-M bond,
+    a B-H or Al-H bond) makes a new bond to `atom` in this step, if any."""
+    formed = {tuple(sorted(p)) for p in change.formed}
+    for move in change.moves:
+        if move.electrons != 2 or len(move.sink_atoms) != 2 or atom not in move.sink_atoms:
+            continue
+        partner = move.sink_atoms[0] if move.sink_atoms[1] == atom else move.sink_atoms[1]
+        if partner in move.source_atoms and atom not in move.source_atoms \
+                and tuple(sorted((atom, partner))) in formed and elements[partner] in (1, 6):
+            return partner
+    return None
+
+
 def _pi_pair_onto_carbon(st: StepTrace) -> Iterator[Diagnostic]:
     """AR514: a pi pair sent onto a carbon that keeps it as a lone pair, leaving a carbanion with
     nothing to hold its charge: a C=O pair sent to its carbon (the nucleophile drawn onto the
@@ -152,10 +166,28 @@ def _pi_pair_onto_carbon(st: StepTrace) -> Iterator[Diagnostic]:
         if carbon not in move.source_atoms or carbon not in gained or after.elements[carbon] != 6:
             continue
         other = move.source_atoms[1] if move.source_atoms[0] == carbon else move.source_atoms[0]
-        if after.mol.GetBondBetweenAtoms(carbon, other) is None or after.nonbonding[carbon] != 2 \
-                or not _unstabilised_carbanion(after.mol, carbon):
-            continue   # a sigma bond broken (a leaving group: AR510's), or a carbanion something holds
+        if after.mol.GetBondBetweenAtoms(carbon, other) is None or after.nonbonding[carbon] != 2:
+            continue   # a sigma bond broken (a leaving group: AR510's)
         c, o = after.label(carbon), after.label(other)
+        attacker = _nucleophile_at(change, after.elements, other) if after.elements[other] in (7, 8) else None
+        if attacker is not None:
+            # A carbon nucleophile (or a hydride) bonded to the O of C=O or the N of C=N / C#N, its
+            # pi pair sent onto the carbon: the polarity is backwards whatever then holds the
+            # carbanion (a benzylic one, an acyl or imidoyl anion). Nucleophiles add at the carbon.
+            n = st.before.label(attacker)
+            order = st.before.mol.GetBondBetweenAtoms(carbon, other).GetBondTypeAsDouble()
+            symbol = ("#" if order == 3 else "=") + after.mol.GetAtomWithIdx(other).GetSymbol()
+            attack = next(m for m in change.moves if attacker in m.source_atoms and set(m.sink_atoms) == {attacker, other})
+            instead = f"`:{n} -> {c}`" if attack.source_kind == "lone_pair" else f"`{attack.move.source} -> {c}-{n}`"
+            yield Diagnostic(
+                "AR514", f"{n} bonds to {o} and a pi pair of {c}-{o} goes onto {c}, making a carbanion: backwards, "
+                f"a nucleophile adds at the carbon of a C{symbol} bond", move.move.loc,
+                hint=f"the pair of a C{symbol} bond goes to {o} (`{move.move.source} -> {o}`), and {n} adds at "
+                     f"{c}: {instead}",
+                atoms=(c, o, n), step=st.index)
+            continue
+        if not _unstabilised_carbanion(after.mol, carbon):
+            continue   # a carbanion something holds
         polar = ELECTRONEGATIVITY.get(after.elements[other], 0.0) > ELECTRONEGATIVITY[6]
         hint = (f"the pair of a C={after.mol.GetAtomWithIdx(other).GetSymbol()} bond goes to {o} "
                 f"(`{move.move.source} -> {o}`), and a nucleophile adds at {c}" if polar else
