@@ -2349,3 +2349,54 @@ def test_an_enone_waiting_for_a_michael_step_keeps_off_its_partner_s_substituent
     assert mine and mine <= set(where)
     nearest = min(abs(where[i] - where[j]) for i in mine for j in enone if j in where) / scene.bond_length
     assert nearest >= least, nearest
+
+
+def _angles_at(panel, map_number):
+    """The angles (degrees, ascending) between the drawn bonds of the atom with that map number."""
+    where = {a.index: complex(*a.position) for a in panel.atoms}
+    number = {a.index: a.name for a in panel.atoms}
+    centre = next(i for i, name in number.items() if name == f"C{map_number}")
+    partners = [j for b in panel.bonds for i, j in (b.atoms, b.atoms[::-1]) if i == centre]
+    directions = sorted(cmath.phase(where[j] - where[centre]) for j in partners)
+    gaps = [(directions[(k + 1) % len(directions)] - directions[k]) % (2 * math.pi) for k in range(len(directions))]
+    return sorted(round(math.degrees(g)) for g in gaps)
+
+
+@pytest.mark.parametrize("name,panels,map_number", [
+    ("05-octanedione-cyclopentene.mech", (0, 1), 7),    # the ketone the enolate closes onto
+    ("07-annulation-wieland-miescher.mech", (1,), 2),   # the enolate's C-O- before the Michael step
+])
+def test_a_carbonyl_oxygen_turns_to_the_middle_of_its_gap_where_the_steps_let_it(name, panels, map_number):
+    """Three bonds of a trigonal carbon are drawn about 120 degrees apart (common practice; IUPAC 2008
+    graphical representation recommendations: the usual angles of a skeletal drawing). The union's
+    depiction draws a carbonyl carbon with every partner it ever has, so in the panels before the
+    addition its oxygen stood 78 degrees from a neighbour (octanedione C7: 78/126/156; the
+    Wieland-Miescher enolate's C2: 78/120/162). The oxygen is touched by the step that moves its pi
+    bond, so it may move between that step's panels: it turns to the middle of its gap, the same
+    in every panel of its run, keeping off the partner about to bond."""
+    path = ROOT / "gallery" / name
+    _, _, scene = _scene(path.read_text(encoding="utf-8"), name)
+    for k in panels:
+        angles = _angles_at(scene.panels[k], map_number)
+        assert len(angles) == 3 and angles[0] >= 100, (k, angles)
+
+
+@pytest.mark.parametrize("name,panel_index,leaving,left,taker", [
+    ("12-claisen-condensation.mech", 3, "O8", "C6", "C1"),   # ethoxide after the tetrahedral intermediate collapses
+    ("11-ester-hydrolysis.mech", 2, "O4", "C2", "O5"),       # methoxide beside the acid it deprotonates
+])
+def test_a_leaving_group_stands_clear_of_the_atom_it_left(name, panel_index, leaving, left, taker):
+    """A leaving group a bond length from the carbon it left reads as still bonded to it (common
+    practice: the expelled group is drawn apart). Its ethyl or methyl is untouched by the step, so it
+    may not move; the leaving oxygen, which the step touches, turns about that carbon instead, keeping
+    the angle there near 120 degrees. The Claisen's ethoxide stood 1.0 bond lengths from C6 as it
+    took the proton of C1; it now stands at least 1.6 away, within 3 of C1 (the methoxide of the
+    ester hydrolysis likewise, within reach of the acid's O5)."""
+    path = ROOT / "gallery" / name
+    trace, _, scene = _scene(path.read_text(encoding="utf-8"), name)
+    panel = scene.panels[panel_index]
+    bl = scene.bond_length
+    where = {a.name: complex(*a.position) for a in panel.atoms}
+    assert abs(where[leaving] - where[left]) >= 1.6 * bl - 1e-6, abs(where[leaving] - where[left]) / bl
+    if taker is not None:
+        assert abs(where[leaving] - where[taker]) <= 3.0 * bl + 1e-6

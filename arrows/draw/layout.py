@@ -51,6 +51,8 @@ CYCLOADDITION_GAP = 1.8
 # other, so the curved arrow between them has room to bend.
 APPROACH = 2.2
 _CLEARANCE = 1.2     # nearest approach allowed between atoms of separately placed clusters
+_LET_GO = 1.6        # a leaving group's atom stands this far from the atom it left, once gone
+_LET_GO_REACH = 3.0  # ...and no further than this from the atom it takes a proton from next
 _HELD_APART_ROOM = 0.8   # least room for a cycloaddition partner held off its partner
 _CURLED = 1.3        # a bond about to form, depicted shorter than this, is drawn curled into its ring
 _TAKEN = 0.4         # an atom this near a spot stands on it
@@ -699,6 +701,8 @@ class _LayoutBuilder:
         # may outweigh the chain that closes a ring).
         self._open_rings(set(range(len(self.clusters))) - {self.main})
         self._place_hydrogens()
+        self._let_go()
+        self._ease_trigonal_centres()
         self._set_by_products_beside_product()
         panels = []
         for k, state in enumerate(self.states):
@@ -3095,6 +3099,198 @@ class _LayoutBuilder:
         characters = len(a.GetSymbol()) + (0 if not hydrogens else 1 if hydrogens == 1 else 2) \
             + (1 if a.GetFormalCharge() else 0)
         return 0.15 + 0.33 * characters
+
+    # leaving groups
+    def _let_go(self) -> None:
+        """A leaving group with an atom the step leaves alone (the ethyl of an ethoxide) may not
+        move as a whole, so it stood where it broke off, its oxygen a bond length from the carbon
+        it left, reading as still bonded. Only the leaving atom moves (the step touches it): in
+        the panels after it leaves, until a step touches it again, it turns about its one other
+        heavy neighbour to a spot at least _LET_GO from that carbon: across the line of a chain it
+        ends (keeping the angle at its neighbour), or anywhere round a neighbour it alone is bonded
+        to, as close to where it was as will do."""
+        for atom, left in sorted(self.leaving.items()):
+            for centre, k in left:
+                if self.element[centre] != 1:   # (a proton taken off is not a group let go)
+                    self._let_go_of(atom, centre, k)
+
+    def _let_go_of(self, atom: int, centre: int, k: int) -> None:
+        last = k + 1
+        while last + 1 < self.n and atom in self.positions[last + 1] and atom not in self.touched[last]:
+            last += 1
+        panels = [p for p in range(k + 1, last + 1) if atom in self.positions[p]]
+        if not panels or atom not in self.positions[k] or atom not in self.positions[k + 1] \
+                or abs(self.positions[k + 1][atom] - self.positions[k][atom]) > 1e-9:
+            return   # placed apart already (a cluster of its own)
+        here = self.positions[panels[0]]
+        if centre not in here or abs(here[atom] - here[centre]) >= _LET_GO:
+            return
+
+        def bonded(a: int, p: int) -> list[int]:
+            return [n for n in self.neighbours[a] if (min(a, n), max(a, n)) in self.bonds_in[p]]
+
+        heavy = {tuple(n for n in bonded(atom, p)) for p in panels}
+        if len(heavy) != 1 or len(next(iter(heavy))) != 1:
+            return
+        pivot = next(iter(heavy))[0]
+        if self.element[pivot] == 1 or any(here[pivot] != self.positions[p].get(pivot) for p in panels) \
+                or self._linear(pivot, range(panels[0], panels[-1] + 1)):
+            return   # (turned about a straight atom, an alkyne's, it would bend it)
+        beyond = {tuple(n for n in bonded(pivot, p) if n != atom) for p in panels}
+        if len(beyond) != 1:
+            return
+        beyond = next(iter(beyond))
+        if any(self.element[n] == 1 for n in beyond) or len(beyond) > 1:
+            return
+        centre_at = here[pivot]
+        arm = here[atom] - centre_at
+        # Turns about the neighbour that keep the angle at a chain's link near 120 degrees (the
+        # zigzag, or a carbonyl's trigonal carbon): near where it was, or mirrored across the chain.
+        turns = [d for d in range(-170, 181, 10) if d and (not beyond or abs(abs(math.degrees(cmath.phase(
+            arm * cmath.rect(1.0, math.radians(d)) / (here[beyond[0]] - centre_at)))) - 120) <= 15 + 1e-9)]
+        # The hydrogen it takes next (placed already, where it stays on its holder) and that
+        # hydrogen's holder keep within reach: (place, nearest, furthest, whether that is a limit
+        # or a preference).
+        partners = []
+        if last < self.n - 1:
+            for a, b in self.bonds_in[last] ^ self.bonds_in[last + 1]:
+                other = a + b - atom
+                if atom not in (a, b) or other not in self.positions[last]:
+                    continue
+                if self.element[other] != 1:
+                    return   # bonding again next (a carbonyl oxide recombining): it waits where it broke off
+                partners.append((self.positions[last][other], TRANSFER_GAP - 0.2, TRANSFER_GAP + 0.5, False))
+                other = self._holder(last, other)
+                if other is not None and other in self.positions[last]:
+                    partners.append((self.positions[last][other], *PARTNER_REACH, True))
+        crowd = [q for p in panels for a, q in self.positions[p].items() if a != atom]
+        walls = [(self.positions[p][i], self.positions[p][j]) for p in panels for i, j in self.bonds_in[p]
+                 if atom not in (i, j) and i in self.positions[p] and j in self.positions[p]]
+        best, best_score = None, None
+        for degrees in turns:
+            spot = centre_at + arm * cmath.rect(1.0, math.radians(degrees))
+            if abs(spot - here[centre]) < _LET_GO or any(limit and abs(spot - q) > _LET_GO_REACH
+                                                          for q, _, _, limit in partners):
+                continue
+            if any(abs(spot - q) < 0.95 for q in crowd) or any(segments_cross(centre_at, spot, a, b) for a, b in walls):
+                continue
+            # Within reach of its partner, facing it (its lone pair's arrow leaves on the side away
+            # from the neighbour), first; then the least turn.
+            facing = sum(max(0.0, math.radians(120) - abs(cmath.phase((q - spot) / (centre_at - spot))))
+                         for q, _, _, _ in partners)
+            score = (sum(max(0.0, abs(spot - q) - far, near - abs(spot - q)) for q, near, far, _ in partners) + facing,
+                     abs(degrees))
+            if best_score is None or score < best_score:
+                best, best_score = spot, score
+        if best is not None:
+            for p in panels:
+                self.positions[p][atom] = best
+
+    # trigonal centres
+    def _ease_trigonal_centres(self) -> None:
+        """The union's depiction draws an atom with every partner it ever has: a carbonyl carbon
+        that a nucleophile adds to is a cross, and in the panels where it holds three partners
+        two of them stand 60 or 90 degrees apart. A step that touches a terminal atom (the
+        carbonyl oxygen, whose pi bond it makes or breaks) lets it move between that step's
+        panels, so in each run of panels where nothing touches it, it turns about its one
+        neighbour to the middle of the gap it stands in, as far as the run allows (common
+        practice: three bonds at 120 degrees)."""
+        for atom in self.atoms:
+            if self.element[atom] == 1:
+                continue
+            k = 0
+            while k < self.n:
+                if atom not in self.positions[k]:
+                    k += 1
+                    continue
+                first = k
+                while k + 1 < self.n and atom in self.positions[k + 1] and atom not in self.touched[k]:
+                    k += 1
+                self._ease_terminal(atom, range(first, k + 1))
+                k += 1
+
+    def _ease_terminal(self, atom: int, panels: range) -> None:
+        """Turn `atom`, bonded to one centre of three drawn partners in each of `panels`, about
+        that centre toward the middle of its gap between the other two, the same turn in every
+        panel (it may not move within the run): only where the smallest angle at the centre
+        grows by 10 degrees or more, nothing comes nearer it than it allows, no bond is crossed,
+        and a partner the centre is about to bond stays as far off (up to 100 degrees). The
+        cheap tests come first: most atoms of a scheme fail one of them."""
+        centre = None
+        for p in panels:
+            bonds = self.bonds_in[p]
+            bonded = [n for n in self.neighbours[atom] if (min(atom, n), max(atom, n)) in bonds]
+            if len(bonded) != 1 or (centre is not None and bonded[0] != centre):
+                return
+            centre = bonded[0]
+            if self.positions[p].get(centre) != self.positions[panels[0]].get(centre):
+                return
+        if centre not in self.positions[panels[0]]:
+            return
+        # The steps at either end of the run may touch it only through its bond to the centre: a
+        # bond it makes or breaks to anything else (a proton it takes, the ring it closes) placed
+        # that partner, or its arrow, by where it stands.
+        own = (min(atom, centre), max(atom, centre))
+        for k in (panels[0] - 1, panels[-1]):
+            if 0 <= k < self.n - 1 and any(atom in bond and bond != own for bond in self.bonds_in[k] ^ self.bonds_in[k + 1]):
+                return
+        origin = self.positions[panels[0]][centre]
+        arm = self.positions[panels[0]][atom] - origin
+        others: list[list[complex]] = []    # per panel: the centre's other partners, as unit directions
+        partners: list[complex] = []         # directions to atoms the centre is about to bond
+        for p in panels:
+            here = self.positions[p]
+            around = [unit(here[n] - origin) for n in self.neighbours[centre]
+                      if n != atom and n in here and (min(centre, n), max(centre, n)) in self.bonds_in[p]]
+            if len(around) != 2:
+                return
+            others.append(around)
+            if p + 1 < self.n:
+                partners += [unit(here[n] - origin) for n in self.neighbours[centre]
+                             if n in here and (min(centre, n), max(centre, n)) in self.bonds_in[p + 1] - self.bonds_in[p]]
+
+        def angle(a: complex, b: complex) -> float:
+            return abs(cmath.phase(a / b))
+
+        def narrowest(d: complex) -> float:
+            return min(min(angle(d, o) for o in around) for around in others)
+
+        def wall_between(a: complex, b: complex) -> bool:   # a partner's direction on the short way from a to b
+            turn = cmath.phase(b / a)
+            return any(0 < cmath.phase(o / a) * (1 if turn > 0 else -1) < abs(turn)
+                       for around in others for o in around)
+
+        start = unit(arm)
+        # The angle between the other two bonds bounds what any turn can reach.
+        between = min(angle(o[0], o[1]) for o in others)
+        wanted = min(narrowest(start), between) + math.radians(10)
+        if between < wanted:
+            return
+        kept_off = [min(angle(start, q), math.radians(100)) for q in partners]
+        turns = []   # (score, order, direction) of every turn that would do, widest first
+        for order, degrees in enumerate(range(-90, 91, 5)):
+            d = start * cmath.rect(1.0, math.radians(degrees))
+            score = narrowest(d)
+            if score >= wanted and not wall_between(start, d) \
+                    and all(angle(d, q) >= limit - 1e-9 for q, limit in zip(partners, kept_off)):
+                turns.append((-score, order, d))
+        if not turns or any(self.states[p].mol.GetAtomWithIdx(centre).GetChiralTag() != Chem.ChiralType.CHI_UNSPECIFIED
+                            for p in panels):
+            return   # (a written configuration: its wedges read the angles as they are)
+        crowd = np.array([q for p in panels for a, q in self.positions[p].items() if a not in (atom, centre)],
+                         dtype=complex)
+        room = min(float(np.abs(crowd - (origin + arm)).min()) if len(crowd) else 9.0, 0.95)
+        walls = [(self.positions[p][i], self.positions[p][j]) for p in panels for i, j in self.bonds_in[p]
+                 if atom not in (i, j) and centre not in (i, j)
+                 and i in self.positions[p] and j in self.positions[p]]
+        for _, _, d in sorted(turns, key=lambda t: t[:2]):
+            spot = origin + d * abs(arm)
+            if (len(crowd) and float(np.abs(crowd - spot).min()) < room - 1e-9) \
+                    or any(segments_cross(origin, spot, a, b) for a, b in walls):
+                continue
+            for p in panels:
+                self.positions[p][atom] = spot
+            return
 
     # travelling hydrogens
     def _place_hydrogens(self) -> None:

@@ -32,6 +32,7 @@ from .wedges import HASHED, SOLID, choose_wedges, configured_centres
 # common practice in chemical formulas.
 _HYDROGEN_FIRST = {8, 9, 16, 17, 34, 35, 53}
 _DESCENDERS = frozenset("()gjpqy")   # characters that reach below the baseline
+_TOWARD_LETTER = math.radians(30)   # an H written above or below this near another heteroatom points at it
 _DOUBLE_GAP = 0.18   # bond lengths between the two lines of a double bond
 # A minus sign this near a bond stroke (bond lengths) and this near parallel to it (slope) reads as
 # a second line of the bond: about twice a double bond's gap, within 15 degrees (at 20 the two no
@@ -500,8 +501,12 @@ class StructureDrawer:
             near = [j for j, q in positions.items() if j != i and abs(q - p) < 1.6 * bl]
             walls = [(positions[a] - p, positions[b] - p) for a in near for b in adjacent[a]
                      if b != i and b in positions and (b not in near or a < b)]
+            # Other heteroatoms' labels within reach: an H written above or below toward one reads
+            # as bonded to both (O-H-O).
+            letters = [q - p for j, q in positions.items() if j != i and element[j] not in (1, 6)
+                       and 1e-9 < abs(q - p) < 1.75 * bl]
             side = self._hydrogen_side(element[i], out.occupied[i], crowd, walls, w_symbol / 2 + w_mass, w_h + w_n,
-                                       [a for a in ahead if a])
+                                       [a for a in ahead if a], letters)
             out.occupied[i].append(complex(side) if side in (1, -1) else side)
         # The label is fixed by where it stands (its atom's symbol and mass number with it), its
         # hydrogens and the side they are written on: drawn so in an earlier panel, it is reused.
@@ -544,14 +549,16 @@ class StructureDrawer:
 
     def _hydrogen_side(self, element: int, bonds: list[complex], crowd: list[tuple[complex, float, float]],
                        walls: list[tuple[complex, complex]], half_symbol: float, h_width: float,
-                       ahead: list[complex] = ()):
+                       ahead: list[complex] = (), letters: list[complex] = ()):
         """1 (right), -1 (left), 1j (below) or -1j (above): the first side beside the symbol where
         the 'H' text keeps 50 degrees from the atom's bonds and from the bonds it is about to
         form (`ahead`) and meets neither the atoms around (`crowd`: each as its offset and the
         room, across and up, that its label may need) nor other bonds (`walls`, as offsets of
         their ends); when neither side does, the side that meets the fewest (a bond within 50
         degrees counts as one), then the one furthest round from bonds and atoms. An atom
-        without bonds tries the side its formula is written from first (HO-, H2O; NH3)."""
+        without bonds tries the side its formula is written from first (HO-, H2O; NH3). Above or
+        below, pointing within 30 degrees at another heteroatom's label (`letters`, offsets within
+        1.75 bond lengths), also counts as meeting it."""
         h_first = not bonds and element in _HYDROGEN_FIRST
         bonds = bonds + list(ahead)
         occupied = bonds + [unit_or_zero(c) for c, _, _ in crowd]
@@ -570,6 +577,8 @@ class StructureDrawer:
                       if x0 - across <= c.real <= x1 + across and abs(c.imag - y) <= half_height + up)
             text = Box(x0 - pad, y - half_height - pad, x1 + pad, y + half_height + pad)
             hit += sum(1 for a, b in walls if segment_hits_box(a, b, text))
+            if side in (1j, -1j):   # written above or below, pointing at another heteroatom's label
+                hit += sum(1 for c in letters if abs(cmath.phase(c / side)) < _TOWARD_LETTER)
             return hit + (clearance(complex(side), bonds) < limit)
 
         for side in ((-1, 1) if h_first else (1, -1)):
