@@ -26,7 +26,7 @@ from .scene import AtomDrawing, BondDrawing, Box, Mark, TextRun
 from .styles import BROKEN_COLOUR, FORMED_COLOUR, INK, NUMBER_COLOUR, Style
 from .formula import MINUS
 from .text import FontFace
-from .wedges import HASHED, SOLID, choose_wedges, configured_centres
+from .wedges import HASHED, SOLID, choose_wedges, configured_centres, stereogenic_atoms
 
 # Hydrogens of an isolated atom go before the symbol for these elements (H2O, HO-, H2S, HCl):
 # common practice in chemical formulas.
@@ -684,7 +684,7 @@ class StructureDrawer:
         single = {(min(i, j), max(i, j)) for i, j, order in bonds
                   if order == 1 and (i in centres or j in centres) and i in out.positions and j in out.positions}
         return choose_wedges(centres, out.positions, single, breaking, neighbours, hydrogens,
-                             lambda a, b: closes_cycle(a, b, adjacent))
+                             lambda a, b: closes_cycle(a, b, adjacent), stereogenic_atoms(state))
 
     def _wedge(self, narrow: int, wide: int, kind: str, role: str, out: PanelStructure) -> BondDrawing:
         """A solid or hashed wedge from a point at `narrow` to its full width at `wide`, each end

@@ -60,13 +60,23 @@ def configured_centres(state: ElectronState) -> dict[int, tuple[list[int], int]]
     return tagged
 
 
+def stereogenic_atoms(state: ElectronState) -> frozenset[int]:
+    """Every atom RDKit finds stereogenic in `state`, configured or not: a wedge between two of
+    them is avoided even where only one carries a configuration (a norbornene's bridgehead
+    beside the ring-fusion carbon a Diels-Alder configures)."""
+    from ..judgement.stereo import CENTRE, state_stereo
+    return frozenset(e.atoms[0] for e in state_stereo(state) if e.kind == CENTRE)
+
+
 def choose_wedges(centres: dict[int, tuple[list[int], int]], positions: dict[int, complex],
                   single: set[Pair], breaking: set[Pair], neighbours: dict[int, list[int]],
-                  hydrogens: Callable[[int], int], in_ring: Callable[[int, int], bool]) -> dict[Pair, str]:
+                  hydrogens: Callable[[int], int], in_ring: Callable[[int, int], bool],
+                  stereogenic: frozenset[int] = frozenset()) -> dict[Pair, str]:
     """(stereocentre, other atom) -> SOLID or HASHED for the bonds drawn as wedges. `positions`
     are the drawn atoms (points, y down), `single` the drawn single bonds as sorted pairs,
     `breaking` those the step leaving the panel breaks, `neighbours` each drawn atom's drawn
-    neighbours, `hydrogens` how many hydrogens an atom holds."""
+    neighbours, `hydrogens` how many hydrogens an atom holds, `stereogenic` the atoms that are
+    stereocentres whether configured or not."""
     chosen: dict[Pair, str] = {}
     wedged: set[Pair] = set()
     for centre in sorted(centres):
@@ -83,7 +93,7 @@ def choose_wedges(centres: dict[int, tuple[list[int], int]], positions: dict[int
                 continue
             volume = _volume(centre, n, order, positions)
             flat = abs(volume) < _FLAT
-            preference = (pair in breaking, n in centres, flat, in_ring(centre, n),
+            preference = (pair in breaking, n in centres or n in stereogenic, flat, in_ring(centre, n),
                           0 if len(neighbours[n]) <= 1 else 1 if hydrogens(n) else 2, -abs(volume), n)
             if best is None or preference < best[0]:
                 best = (preference, n, volume)
