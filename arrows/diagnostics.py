@@ -407,7 +407,11 @@ CODES = _table(
          "a carbanion with no pi bond, arene, onium, sulfur, phosphorus, silicon or pair of halogens "
          "beside it to take the charge. A polar pi bond gives its pair to its more electronegative "
          "atom (C=O to O; nucleophiles add at the carbon), and a C=C pair goes on into a bond or "
-         "toward an enone's carbonyl (common practice). A resonance step is not judged.",
+         "toward an enone's carbonyl (common practice). Likewise a carbon nucleophile (an arene's pi pair, a "
+         "carbanion) or a hydride bonded to the oxygen of an N=O, P=O or S=O whose N, P or S holds no lone pair "
+         "(the nitronium ion, SO3) while the pi pair goes onto that atom: the N, P or S is the electrophile "
+         "(textbook nitration and sulfonation); a nitroso N or a sulfoxide S, which hold a lone pair, is not "
+         "judged. A resonance step is not judged.",
          'species ketone = "[CH3:1][C:2](=[O:3])[CH3:4]"\n'
          'species enolate = "[CH3:5][C:6](=[O:7])[CH2-:8]"\n'
          'step "enolate adds"\n'
@@ -483,6 +487,23 @@ CODES = _table(
          'step "substitution"\n'
          '    :O3 -> C1   # tert-butyl bromide: let Br2 leave first, then O3 adds (SN1)\n'
          '    C1-Br2 -> Br2\n'
+         'end'),
+    Code("AR521", WARNING, "pericyclic step forbidden under heat",
+         "A pericyclic step (every arrow from a bond to a bond, round a closed loop) of first-row atoms "
+         "moves 4 electrons (or 8) where the Woodward-Hoffmann rules forbid it thermally: two pi bonds "
+         "joined into a four-membered ring in one step (a [2+2] cycloaddition of two alkenes, allowed "
+         "photochemically), or a hydrogen passed from one end of a three-atom array to the other (a "
+         "[1,3]-H shift, as in a keto-enol tautomerisation drawn in one step; it goes by two proton "
+         "transfers, common practice). A step written `over` or `under` light (\"hv\", \"light\", "
+         "\"photo\", \"UV\") is not judged, nor is a partner with a cumulene centre (a ketene, an "
+         "allene, an isocyanate: the antarafacial component), an array holding boron or an atom beyond "
+         "the second period (hydroboration, a Wittig oxaphosphetane), a 4-electron electrocyclic step "
+         "(conrotatory, allowed), a [1,3]-shift of carbon or a cycloreversion.",
+         'species a = "[CH2:1]=[CH2:2]"\n'
+         'species b = "[CH2:3]=[CH2:4]"\n'
+         'step "[2+2]" under "heat"   # photochemical only: write over "hv"\n'
+         '    C1=C2 -> C2-C3\n'
+         '    C3=C4 -> C4-C1\n'
          'end'),
     Code("AR601", NOTE, "ring closure",
          "A step closes a ring; its size and Baldwin class are given. A pericyclic step (every arrow "

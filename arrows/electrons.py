@@ -701,6 +701,43 @@ def _moving_hydrogen_hint(move: Move, sink: BondRef) -> Optional[str]:
             f"atom it leaves: {source} {arrow} {taker}-H({leaves})")
 
 
+def _overfilling_order_hint(state: ElectronState, replay: _StepReplay, key: Pair,
+                            changes: dict[Pair, tuple[int, int]], actual: int) -> Optional[str]:
+    """AR208's hint when the order the moves give the bond would overfill one of its atoms (more
+    than 2 electrons on H, 8 on Li to Ne): writing that order only trades AR208 for AR301. The
+    fault lies in the arrows: one runs the wrong way (a Cope's sigma pair sent into the pi bond
+    its neighbour's pair also enters) or one taking a pair off the atom is missing."""
+    if 2 * actual <= replay.bond_before(*key):
+        return None   # the moves lower the order: no atom gains electrons from this bond
+    full = []
+    for i in key:
+        z = state.elements[i]
+        if z > 10:
+            continue   # a heavier atom may expand its octet
+        limit = 2 if z <= 2 else 8
+        shell = (state.nonbonding[i] + replay.d_nonbonding.get(i, 0) + 2 * state.bond_sums[i]
+                 + sum(after - before for bond, (before, after) in changes.items() if i in bond))
+        if shell > limit:
+            full.append((state.label(i), shell, limit))
+    if not full:
+        return None
+    into = [f"`{m.move}`" for m in replay.resolved if len(m.sink_atoms) == 2 and pair(*m.sink_atoms) == key]
+    if len({shell for _, shell, _ in full}) == 1:
+        left = (f"{' and '.join(label for label, _, _ in full)} with {full[0][1]} valence electrons"
+                f"{' each' if len(full) > 1 else ''}")
+    else:
+        left = " and ".join(f"{label} with {shell}" for label, shell, _ in full) + " valence electrons"
+    limits = " and ".join(sorted({str(limit) for _, _, limit in full}))
+    head = f"as a {order_word(actual)} bond it would leave {left} (the limit is {limits}): do not write that order. "
+    if len(into) >= 2:
+        return (head + f"{' and '.join(into)} {'both' if len(into) == 2 else 'all'} bring a pair into "
+                f"{replay.bond_name(*key)}: one of them runs the wrong way (in a pericyclic step each bond round "
+                f"the ring gains or loses one pair), or an arrow taking a pair off {' or '.join(l for l, _, _ in full)} "
+                f"is missing")
+    return head + (f"An arrow runs the wrong way, or one taking a pair off {' or '.join(l for l, _, _ in full)} "
+                   f"is missing")
+
+
 def _rewrite(bond: BondRef, order: int) -> str:
     return str(BondRef(bond.first, bond.second, order)) if order in CONNECTORS else str(bond)
 
@@ -740,8 +777,9 @@ def _settle(state: ElectronState, step: Step, step_index: int, replay: _StepRepl
     for key, written, loc, text in replay.written_sinks:
         actual = (changes[key][1] if key in changes else replay.bond_before(*key)) // 2
         if actual != written and not any(d.code in ("AR303", "AR302") for d in diags):
-            hint = (f"write the bond as it is after the step"
-                    f"{': `' + _rewrite(text, actual) + '`' if actual in CONNECTORS else ''}")
+            hint = _overfilling_order_hint(state, replay, key, changes, actual) or (
+                f"write the bond as it is after the step"
+                f"{': `' + _rewrite(text, actual) + '`' if actual in CONNECTORS else ''}")
             if replay.bond_before(*key) == 0 and written > actual:
                 # Written as raising the order of a bond the step only makes: the author may have
                 # meant a bond an earlier step should have made (the O-P bond of an oxaphosphetane

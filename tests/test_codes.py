@@ -546,6 +546,11 @@ TWINS = [
     Twin("SN2 at a tertiary carbon", 'species bromide = "CC[CH:1](C)[Br:2]"\nspecies hydroxide = "[OH-:3]"\n'
          'step "substitution"\n    :O3 -> C1\n    C1-Br2 -> Br2\nend\n', 'CC[CH:1](C)[Br:2]', 'CC[C:1](C)(C)[Br:2]',
          "AR520", "C1-Br2 -> Br2", says=("tertiary",), hint_says=("`C1-Br2 -> Br2`",)),
+    # Two ethenes joined into cyclobutane in one step: allowed photochemically, forbidden under heat
+    # with both components suprafacial (Woodward-Hoffmann rules, [2s+2s]).
+    Twin("[2+2] of two alkenes under heat", 'species a = "[CH2:1]=[CH2:2]"\nspecies b = "[CH2:3]=[CH2:4]"\n'
+         'step "[2+2]" over "hv"\n    C1=C2 -> C2-C3\n    C3=C4 -> C4-C1\nend\n', 'over "hv"', 'under "heat"',
+         "AR521", "C1=C2 -> C2-C3", says=("[2+2]", "Woodward-Hoffmann"), hint_says=('`over "hv"`',)),
 ]
 
 

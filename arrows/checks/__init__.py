@@ -60,6 +60,7 @@ def _registry() -> list[Check]:
         from .checkpoints import CheckpointsMatch
         from .conservation import ChargeAndAtomsConserved
         from .leaving import StrongBaseLeavingGroups, TertiarySubstitution
+        from .pericyclic import ForbiddenPericyclic
         from .protons import BareProtons, UphillProtonTransfers
         from .ring_eliminations import RingEliminationGeometry
         from .rings import RingClosures
@@ -72,7 +73,7 @@ def _registry() -> list[Check]:
                                ChargeAndAtomsConserved, RingClosures, CheckpointsMatch, UphillProtonTransfers, BareProtons,
                                StereoChanges, MigrationAntiToLeavingGroup, CationShiftDirection, ShiftBetweenNeighbours,
                                StrongBaseLeavingGroups, TertiarySubstitution,
-                               WrittenConfigurationMatches, RingEliminationGeometry])
+                               WrittenConfigurationMatches, RingEliminationGeometry, ForbiddenPericyclic])
     return [cls() for cls in _CHECK_CLASSES]
 
 

@@ -68,11 +68,18 @@ def closures_in_step(st: StepTrace) -> list[StepClosure]:
         w = _broken_partner(st, x, y)
         z = _enol_partner(st.before, st, x, y)
         geometry = geometry_of(mol, y)
-        # An oxocarbenium or iminium pi bond (the far atom positive), or a bare cation, is attacked.
-        cation = geometry != "tet" and ((w is not None and st.before.formal_charge(w) > 0)
-                                        or st.before.formal_charge(y) > 0)
+        # An oxocarbenium or iminium pi bond (the far atom positive), or a bare cation, is attacked:
+        # at its carbon. A positive N or O attacked itself (the N+ of a nitro group) is no such
+        # acceptor, nor is a carbon whose pi partner is a positive carbon.
+        cation = geometry != "tet" and elements[y] == 6 and (
+            (w is not None and elements[w] in _ONIUM and st.before.formal_charge(w) > 0)
+            or st.before.formal_charge(y) > 0)
         found.append(StepClosure(x, y, ring, classify(ring, geometry, w, z), z, w, cation, loc))
     return found
+
+
+# The positive end of an oxocarbenium, iminium or thionium pi bond (N, O, S).
+_ONIUM = frozenset({7, 8, 16})
 
 
 def _chelating_acceptor(st: StepTrace, first: tuple[int, int], second: Optional[tuple[int, int]]) -> Optional[int]:

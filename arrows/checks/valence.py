@@ -86,8 +86,28 @@ def _sextet_hint(st: StepTrace, i: int) -> str:
             other = label(move.sink_atoms[0])
             return (f"`:{other}` as the sink hands {label(i)}'s pair to {other} with no bond made; to make the "
                     f"{label(i)}-{other} bond, end the arrow at the atom: `:{label(i)} -> {other}`")
+    returning = _pair_to_return(st, i)
+    if returning:
+        return returning
     return ("such species are rare: were single-electron arrows (~>) meant, as for a homolysis, or should a bond "
             "form to it in the same step?")
+
+
+def _pair_to_return(st: StepTrace, i: int) -> Optional[str]:
+    """For an atom a bond pair left toward another bond (`C4=N7 -> C3=C4`, a Meisenheimer complex
+    giving up its nitro group's share) while a negative neighbour with a lone pair (the nitro
+    group's O-) stood by and gave none back: the arrow that re-forms the pi bond (`:O8 -> N7=O8`)."""
+    before, label = st.before, st.before.label
+    if not any(m.source_kind == "bond" and m.electrons == 2 and i in m.source_atoms and len(m.sink_atoms) == 2
+               and i not in m.sink_atoms for m in st.change.moves):
+        return None
+    giving = {m.source_atoms[0] for m in st.change.moves if m.source_kind == "lone_pair"}
+    for n in sorted(a.GetIdx() for a in before.mol.GetAtomWithIdx(i).GetNeighbors()):
+        if before.elements[n] in (7, 8) and before.formal_charge(n) < 0 and before.nonbonding[n] >= 2 \
+                and n not in giving:
+            return (f"a pair left {label(i)} and none came back: the lone pair of {label(n)} should return to make "
+                    f"the pi bond again, `:{label(n)} -> {label(i)}={label(n)}`")
+    return None
 
 
 def _pi_pair_pushed_alone(st: StepTrace) -> Iterator[Diagnostic]:
@@ -196,6 +216,45 @@ def _pi_pair_onto_carbon(st: StepTrace) -> Iterator[Diagnostic]:
                          f"hold its charge", move.move.loc, hint=hint, atoms=(c, o), step=st.index)
 
 
+# Central atoms of an X=O bond that are the electrophile when they hold no lone pair: N (the
+# nitronium ion, a nitro group), P (a phosphoryl), S (SO3, a sulfonyl).
+_OXO_CENTRES = frozenset({7, 15, 16})
+
+
+def _pi_pair_onto_oxo_centre(st: StepTrace) -> Iterator[Diagnostic]:
+    """AR514 for an X=O bond (X = N, P or S with no lone pair before the step: NO2+, SO3): a carbon
+    nucleophile (an arene's pi pair, a carbanion) or a hydride bonds to the oxygen while the pi
+    pair goes onto X as a lone pair. The electrophilic atom is X, and the nucleophile bonds there,
+    the pair going to oxygen (textbook nitration and sulfonation). An X that already holds a lone
+    pair (a nitroso N, as in an O-nitroso aldol; a sulfoxide S) is not judged, nor a nucleophile
+    that is itself a heteroatom (an enolate's O)."""
+    if st.step.kind == "resonance":
+        return
+    change, before, after = st.change, st.before, st.after
+    for move in change.moves:
+        if move.source_kind != "bond" or move.electrons != 2 or len(move.sink_atoms) != 1:
+            continue
+        centre = move.sink_atoms[0]
+        if centre not in move.source_atoms or before.elements[centre] not in _OXO_CENTRES:
+            continue
+        oxygen = move.source_atoms[1] if move.source_atoms[0] == centre else move.source_atoms[0]
+        if before.elements[oxygen] != 8 or before.nonbonding[centre] != 0 \
+                or after.mol.GetBondBetweenAtoms(centre, oxygen) is None:
+            continue   # a sigma bond broken, or a centre that had a lone pair to start with
+        attacker = _nucleophile_at(change, after.elements, oxygen)
+        if attacker is None:
+            continue
+        x, o, n = after.label(centre), after.label(oxygen), before.label(attacker)
+        symbol = after.mol.GetAtomWithIdx(centre).GetSymbol()
+        attack = next(m for m in change.moves if attacker in m.source_atoms and set(m.sink_atoms) == {attacker, oxygen})
+        instead = f"`:{n} -> {x}`" if attack.source_kind == "lone_pair" else f"`{attack.move.source} -> {n}-{x}`"
+        yield Diagnostic(
+            "AR514", f"{n} bonds to {o} and the pi pair of {x}={o} goes onto {x}: backwards, the electrophilic atom "
+            f"of {'a' if symbol == 'P' else 'an'} {symbol}=O bond with no lone pair is {x}", move.move.loc,
+            hint=f"{n} adds at {x}: {instead}, and the pair of {x}={o} goes to {o} (`{move.move.source} -> {o}`)",
+            atoms=(x, o, n), step=st.index)
+
+
 class UnusualElectronCounts(Check):
     name = "unusual electron counts"
     codes = ("AR503", "AR504", "AR505", "AR511", "AR513", "AR514")
@@ -206,6 +265,7 @@ class UnusualElectronCounts(Check):
             return
         yield from _pi_pair_pushed_alone(st)
         yield from _pi_pair_onto_carbon(st)
+        yield from _pi_pair_onto_oxo_centre(st)
         for i, old_charge, charge in st.change.charges:
             # As for the shell below: a charge the species was written with and the step keeps
             # (a sulfonyl S written S2+ with two O-) is not the step's doing.

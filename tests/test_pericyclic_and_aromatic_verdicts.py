@@ -1,0 +1,222 @@
+"""Verdicts on pericyclic steps and on electrophilic attack at an arene, each against an outside
+source named in the test: the Woodward-Hoffmann rules (thermal [4n+2] suprafacial steps allowed,
+[2s+2s] and the suprafacial [1,3]-H shift forbidden), textbook outcomes (from memory: Clayden,
+Organic Chemistry, chapters on pericyclic reactions and aromatic substitution) and common practice."""
+from __future__ import annotations
+
+from pathlib import Path
+
+import pytest
+
+from arrows import check_file, check_text
+
+from textbook_mechanisms import TEXTBOOK
+
+
+def codes(text: str) -> list[str]:
+    _, diags = check_text(text, "t.mech")
+    return [d.code for d in diags]
+
+
+def only(text: str, code: str):
+    _, diags = check_text(text, "t.mech")
+    found = [d for d in diags if d.code == code]
+    assert len(found) >= 1, [d.to_text() for d in diags]
+    return found
+
+
+# --- AR208: an order the moves give that would overfill an atom is not suggested ------------------
+
+# Each a correct pericyclic step (textbook, from memory) with one arrow sent the wrong way, so two
+# pairs enter one bond: writing the order the moves give (the old hint) only trades AR208 for AR301.
+WRONG_WAY = {
+    # Diels-Alder of butadiene and acrolein with the dienophile's arrow reversed.
+    "diels-alder": ('species diene = "[CH2:1]=[CH:2][CH:3]=[CH2:4]"\n'
+                    'species dienophile = "[CH2:5]=[CH:6][CH:7]=[O:8]"\n'
+                    'step "cycloaddition" under "heat"\n    C1=C2 -> C2=C3\n    C3=C4 -> C4-C5\n'
+                    '    C5=C6 -> C5-C4\nend\n', "`C4=C5`"),
+    # Cope rearrangement with the breaking sigma pair sent into C2=C3 instead of C4=C5.
+    "cope": ('species diene = "[CH2:1]=[CH:2][CH:3](C)[CH2:4][CH:5]=[CH2:6]"\n'
+             'step "[3,3] shift" under "heat"\n    C3-C4 -> C2=C3\n    C5=C6 -> C6-C1\n    C1=C2 -> C2=C3\nend\n',
+             "`C2#C3`"),
+    # Claisen rearrangement with the C-O pair and the vinyl pair both sent into C2=O3.
+    "claisen": ('species ether = "[CH2:1]=[CH:2][O:3][CH2:4][CH:5]=[CH2:6]"\n'
+                'step "[3,3] shift" under "heat"\n    O3-C4 -> C2=O3\n    C5=C6 -> C6-C1\n    C1=C2 -> C2=O3\nend\n',
+                "`C2#O3`"),
+    # Hexatriene closure with the middle pi pair sent back into C2=C3.
+    "hexatriene": ('species triene = "[CH2:1]=[CH:2][CH:3]=[CH:4][CH:5]=[CH2:6]"\n'
+                   'step "closure" under "heat"\n    C1=C2 -> C2=C3\n    C3=C4 -> C2=C3\n    C5=C6 -> C6-C1\nend\n',
+                   "`C2#C3`"),
+}
+
+
+@pytest.mark.parametrize("name", sorted(WRONG_WAY))
+def test_ar208_does_not_suggest_an_order_that_overfills_an_atom(name):
+    """The AR208 hint named the order the moves give (`C2#C3`); followed, it gives AR301 (a carbon
+    with 10 valence electrons, beyond the octet: common practice). The hint now names the arrows
+    that both enter the bond and says one runs the wrong way."""
+    text, overfilling = WRONG_WAY[name]
+    for d in only(text, "AR208"):
+        assert overfilling not in d.hint, d.to_text()
+        assert "runs the wrong way" in d.hint and "10 valence electrons" in d.hint, d.to_text()
+        assert "each bond round the ring gains or loses one pair" in d.hint, d.to_text()
+
+
+def test_ar208_still_gives_the_order_where_it_fits():
+    """An E2 (textbook) whose new pi bond is written single: the order the moves give, double,
+    overfills nothing, so the hint still gives it."""
+    text = ('species bromide = "[CH3:1][CH2:2][CH2:3][Br:4]"\nspecies base = "[OH-:5]"\n'
+            'step "E2"\n    :O5 -> H(C2)\n    C2-H -> C2-C3\n    C3-Br4 -> Br4\nend\n')
+    (d,) = only(text, "AR208")
+    assert "`C2=C3`" in d.hint, d.to_text()
+
+
+# --- AR521: pericyclic steps forbidden under heat -----------------------------------------------
+
+THERMAL_22 = ('species a = "[CH2:1]=[CH2:2]"\nspecies b = "[CH2:3]=[CH2:4]"\n'
+              'step "[2+2]" under "heat"\n    C1=C2 -> C2-C3\n    C3=C4 -> C4-C1\nend\nproduct "C1CCC1"\n')
+H13 = ('species propene = "[CH2:1]=[CH:2][CH2:3][H:10]"\n'
+       'step "[1,3] H shift" under "heat"\n    C3-H10 -> C2=C3\n    C1=C2 -> C1-H10\nend\n')
+# The aromatic Claisen's dienone tautomerised by one four-centre 1,3-H shift from C2 to O7.
+KETO_ENOL_13 = ('species ether = "[CH2:10]=[CH:9][CH2:8][O:7][c:1]1[cH:2][cH:3][cH:4][cH:5][cH:6]1"\n'
+                'step "[3,3] shift" under "200 C"\n    C1=C2 -> C2-C10\n    C9=C10 -> C8=C9\n    C8-O7 -> C1=O7\nend\n'
+                'step "1,3-H shift"\n    C2-H -> C1=C2\n    C1=O7 -> O7-H(C2)\nend\nproduct "C=CCc1ccccc1O"\n')
+
+
+def test_thermal_2_plus_2_of_two_alkenes_warns():
+    """Woodward-Hoffmann: a [2s+2s] cycloaddition is forbidden thermally, allowed photochemically;
+    the hint says how to write the light."""
+    (d,) = only(THERMAL_22, "AR521")
+    assert "[2+2]" in d.message and '`over "hv"`' in d.hint
+
+
+@pytest.mark.parametrize("conditions", ['over "hv"', 'over "hν"', 'under "UV light, CH2Cl2"'])
+def test_photochemical_2_plus_2_is_not_flagged(conditions):
+    """Woodward-Hoffmann: the [2s+2s] is allowed photochemically; the step says light."""
+    assert "AR521" not in codes(THERMAL_22.replace('under "heat"', conditions))
+
+
+def test_thermal_suprafacial_13_h_shift_warns():
+    """Woodward-Hoffmann: a [1,3]-H shift is forbidden suprafacially under heat, and the
+    antarafacial path is out of reach of a three-atom chain (textbook, from memory)."""
+    (d,) = only(H13, "AR521")
+    assert "[1,3]-shift of hydrogen" in d.message
+
+
+def test_keto_enol_tautomerisation_in_one_four_centre_step_warns():
+    """Common practice: a keto-enol tautomerisation goes by two proton transfers (acid or base),
+    not by a concerted 1,3-H shift (Woodward-Hoffmann forbidden); the hint says so."""
+    (d,) = only(KETO_ENOL_13, "AR521")
+    assert "two proton transfers" in d.hint
+
+
+ALLOWED = {
+    # A ketene's [2+2] with an alkene goes thermally (the ketene's orthogonal pi bond is the
+    # antarafacial component, pi2s+pi2a: textbook, from memory).
+    "ketene [2+2]": 'species ketene = "[CH2:1]=[C:2]=[O:3]"\nspecies alkene = "[CH2:4]=[CH2:5]"\n'
+                    'step "[2+2]" under "heat"\n    C4=C5 -> C4-C2\n    C1=C2 -> C1-C5\nend\nproduct "O=C1CCC1"\n',
+    # 4-electron electrocyclic ring opening, conrotatory: thermally allowed.
+    "cyclobutene opening": 'species cyclobutene = "[CH:1]1=[CH:2][CH2:3][CH2:4]1"\n'
+                           'step "opening" under "heat"\n    C3-C4 -> C2=C3\n    C1=C2 -> C1=C4\nend\n'
+                           'product "C=CC=C"\n',
+    # [4+2] Diels-Alder, 6 electrons: allowed.
+    "diels-alder": 'species diene = "[CH2:1]=[CH:2][CH:3]=[CH2:4]"\nspecies dienophile = "[CH2:5]=[CH:6][CH:7]=[O:8]"\n'
+                   'step "cycloaddition" under "heat"\n    C1=C2 -> C2=C3\n    C3=C4 -> C4-C5\n    C5=C6 -> C6-C1\nend\n'
+                   'product "O=CC1CCC=CC1"\n',
+    # [1,5]-H shift in a cyclopentadiene, suprafacial, 6 electrons: allowed.
+    "[1,5]-H shift": 'species cpd = "C[CH:5]1[CH:1]=[CH:2][CH:3]=[CH:4]1"\n'
+                     'step "[1,5] H shift" under "25 C"\n    C5-H -> C4=C5\n    C3=C4 -> C2=C3\n'
+                     '    C1=C2 -> C1-H(C5)\nend\nproduct "CC1=CC=CC1"\n',
+    # Cope [3,3]: allowed.
+    "cope": 'species diene = "[CH2:1]=[CH:2][CH:3](C)[CH2:4][CH:5]=[CH2:6]"\n'
+            'step "[3,3] shift" under "heat"\n    C3-C4 -> C4=C5\n    C5=C6 -> C6-C1\n    C1=C2 -> C2=C3\nend\n'
+            'product "CC=CCCC=C"\n',
+    # Ene reaction, 6 electrons: allowed.
+    "ene": 'species ene = "[CH2:1]=[CH:2][CH2:3][H:10]"\nspecies enophile = "[CH2:4]=[CH2:5]"\n'
+           'step "ene" under "heat"\n    C1=C2 -> C1-C4\n    C4=C5 -> C5-H10\n    C3-H10 -> C2=C3\nend\n'
+           'product "C=CCCC"\n',
+    # Keto-enol tautomerisation by two proton transfers (common practice).
+    "enol by two proton transfers": 'species enol = "[CH2:1]=[C:2]([CH3:3])[OH:4]"\nspecies acid = "[OH3+:5]"\n'
+                                    'step "C-protonation"\n    C1=C2 -> C1-H(O5)\n    O5-H -> O5\n    :O4 -> C2=O4\nend\n'
+                                    'step "O-deprotonation"\n    :O5 -> H(O4)\n    O4-H -> O4\nend\n'
+                                    'product "CC(C)=O.[OH3+]"\n',
+}
+
+
+@pytest.mark.parametrize("name", sorted(ALLOWED))
+def test_allowed_pericyclic_and_stepwise_paths_are_not_flagged(name):
+    found = codes(ALLOWED[name])
+    assert "AR521" not in found, found
+
+
+def test_no_ar521_over_the_correct_corpus():
+    """Every textbook mechanism marked correct and every gallery file: no AR521 (hydroboration,
+    a Wittig oxaphosphetane, Cope, Claisen, Diels-Alder, 1,3-dipolar and electrocyclic steps among them)."""
+    flagged = []
+    for name, (text, _, clean) in TEXTBOOK.items():
+        if clean and "AR521" in codes(text):
+            flagged.append(name)
+    for path in sorted((Path(__file__).resolve().parent.parent / "gallery").glob("*.mech")):
+        _, diags = check_file(path)
+        if any(d.code == "AR521" for d in diags):
+            flagged.append(path.name)
+    assert flagged == []
+
+
+# --- rings: a nitro N+ is not an oxocarbenium or iminium ------------------------------------------
+
+def test_a_ring_closed_onto_a_nitro_nitrogen_is_not_called_an_oxocarbenium():
+    """The N+ of a nitro group attacked by a ring carbon (a meta SNAr drawn through the nitro group,
+    which has no conjugation path: textbook) is not an oxocarbenium or iminium carbon, where
+    Baldwin's rules are routinely broken (common practice): the three-membered ring is AR501's."""
+    text = ('species arene = "[F:10][C:1]1=[CH:2][C:3]([N+:7](=[O:8])[O-:9])=[CH:4][CH:5]=[CH:6]1"\n'
+            'species methoxide = "C[O-:11]"\n'
+            'step "addition"\n    :O11 -> O11-C1\n    C1=C2 -> C2-N7\n    N7=O8 -> O8\nend\n')
+    _, diags = check_text(text, "t.mech")
+    assert not any("oxocarbenium" in d.message for d in diags), [d.to_text() for d in diags]
+    assert any(d.code == "AR501" and "C2-N7" in d.message for d in diags), [d.to_text() for d in diags]
+
+
+# --- AR514: the arene bonds to N of NO2+ and to S of SO3, not to their oxygen ------------------------
+
+BENZENE = 'species benzene = "[CH:1]1=[CH:2][CH:3]=[CH:4][CH:5]=[CH:6]1"\n'
+
+
+@pytest.mark.parametrize("electrophile, moves, centre", [
+    ('species nitronium = "[O:7]=[N+:8]=[O:9]"\n', "    C1=C2 -> C1-O9\n    N8=O9 -> N8\n", "N8"),
+    ('species so3 = "[O:8]=[S:7](=O)=O"\n', "    C1=C2 -> C1-O8\n    S7=O8 -> S7\n", "S7"),
+], ids=["nitronium", "SO3"])
+def test_arene_bonded_to_the_oxygen_of_nitronium_or_so3_warns(electrophile, moves, centre):
+    """Textbook nitration and sulfonation: the arene bonds to the N of NO2+ and to the S of SO3,
+    the N=O / S=O pair going to oxygen. The hint names the arrow to the centre."""
+    text = BENZENE + electrophile + f'step "attack"\n{moves}end\n'
+    (d,) = only(text, "AR514")
+    assert f"C1-{centre}" in d.hint and centre in d.message, d.to_text()
+
+
+def test_correct_nitration_and_enolate_onto_nitroso_oxygen_are_not_flagged():
+    """Textbook nitration (arene onto N, N=O pair to O) is clean; an enolate bonding to the O of a
+    nitroso group (the O-nitroso aldol, memory: the nitroso N holds a lone pair) is not judged."""
+    nitration = BENZENE + ('species nitronium = "[O:7]=[N+:8]=[O:9]"\n'
+                           'step "attack"\n    C1=C2 -> C1-N8\n    N8=O9 -> O9\nend\n')
+    o_nitroso = ('species enolate = "[CH2-:1][C:2](=[O:3])C"\nspecies nitroso = "c1ccccc1[N:4]=[O:5]"\n'
+                 'step "O-attack"\n    :C1 -> C1-O5\n    N4=O5 -> N4\nend\n')
+    assert "AR514" not in codes(nitration)
+    assert "AR514" not in codes(o_nitroso)
+
+
+# --- AR505: the nitro group's O- gives its pair back -------------------------------------------------
+
+def test_meisenheimer_collapse_without_the_nitro_oxygen_returning_names_that_arrow():
+    """SNAr (textbook addition-elimination): as the Meisenheimer complex expels fluoride, the C4=N7
+    pair moves into the ring and the nitro group's O- gives a pair back to N7. Left out, N7 keeps
+    six electrons; the hint names the arrow, and with it the mechanism checks clean."""
+    text = ('species arene = "[F:10][C:1]1=[CH:2][CH:3]=[C:4]([N+:7](=[O:8])[O-:9])[CH:5]=[CH:6]1"\n'
+            'species methoxide = "C[O-:11]"\n'
+            'step "addition"\n    :O11 -> O11-C1\n    C1=C2 -> C2=C3\n    C3=C4 -> C4=N7\n    N7=O8 -> O8\nend\n'
+            'step "elimination of fluoride"\n    C4=N7 -> C3=C4\n    C2=C3 -> C1=C2\n    C1-F10 -> F10\nend\n')
+    (d,) = only(text, "AR505")
+    assert "`:O8 -> N7=O8`" in d.hint, d.to_text()
+    fixed = text.replace("    C1-F10 -> F10\n", "    C1-F10 -> F10\n    :O8 -> N7=O8\n")
+    _, diags = check_text(fixed, "t.mech")
+    assert [d for d in diags if d.severity != "note"] == [], [d.to_text() for d in diags]
