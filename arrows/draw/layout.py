@@ -3227,13 +3227,24 @@ class _LayoutBuilder:
                 return
         if centre not in self.positions[panels[0]]:
             return
-        # The steps at either end of the run may touch it only through its bond to the centre: a
-        # bond it makes or breaks to anything else (a proton it takes, the ring it closes) placed
-        # that partner, or its arrow, by where it stands.
+        # The steps at either end of the run may touch it only through its bond to the centre, or
+        # by a proton it takes or gives: a bond it makes or breaks to another heavy atom (the ring
+        # it closes) placed that partner by where it stands. A proton's partner keeps within
+        # reach: (the hydrogen's place, its holder's place) on this side of the step.
         own = (min(atom, centre), max(atom, centre))
-        for k in (panels[0] - 1, panels[-1]):
-            if 0 <= k < self.n - 1 and any(atom in bond and bond != own for bond in self.bonds_in[k] ^ self.bonds_in[k + 1]):
-                return
+        protons: list[tuple[complex, Optional[complex]]] = []
+        for k, side in ((panels[0] - 1, panels[0]), (panels[-1], panels[-1])):
+            if not 0 <= k < self.n - 1:
+                continue
+            for bond in self.bonds_in[k] ^ self.bonds_in[k + 1]:
+                if atom not in bond or bond == own:
+                    continue
+                h = bond[0] + bond[1] - atom
+                if self.element[h] != 1 or h not in self.positions[side]:
+                    return
+                holder = self._holder(side, h)
+                protons.append((self.positions[side][h],
+                                self.positions[side].get(holder) if holder is not None and holder != atom else None))
         origin = self.positions[panels[0]][centre]
         arm = self.positions[panels[0]][atom] - origin
         others: list[list[complex]] = []    # per panel: the centre's other partners, as unit directions
@@ -3283,11 +3294,16 @@ class _LayoutBuilder:
         walls = [(self.positions[p][i], self.positions[p][j]) for p in panels for i, j in self.bonds_in[p]
                  if atom not in (i, j) and centre not in (i, j)
                  and i in self.positions[p] and j in self.positions[p]]
+        here = origin + arm
         for _, _, d in sorted(turns, key=lambda t: t[:2]):
             spot = origin + d * abs(arm)
             if (len(crowd) and float(np.abs(crowd - spot).min()) < room - 1e-9) \
                     or any(segments_cross(origin, spot, a, b) for a, b in walls):
                 continue
+            if any(not min(abs(here - h), TRANSFER_GAP - 0.1) <= abs(spot - h) <= max(abs(here - h), TRANSFER_GAP + 0.3)
+                   or (holder is not None and abs(spot - holder) > max(abs(here - holder), PARTNER_REACH[1] + 0.4))
+                   for h, holder in protons):
+                continue   # its proton would be left out of reach, or too near for its arrow
             for p in panels:
                 self.positions[p][atom] = spot
             return
