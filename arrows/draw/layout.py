@@ -1720,11 +1720,11 @@ class _LayoutBuilder:
             other = mol.GetConformer().GetPositions().tolist()
             lengths = [_distance(other[a], other[b]) for a, b in ends]
             mean = sum(lengths) / len(lengths) if lengths else 1.0
-            if all(abs(x / mean - 1.0) <= 0.02 for x in lengths) \
+            if mean > 1e-9 and all(abs(x / mean - 1.0) <= 0.02 for x in lengths) \
                     and not _any_inside_ring([complex(x, y) for x, y, _ in other], own_rings, range(len(group))):
                 xyz = other
         lengths = [_distance(xyz[a], xyz[b]) for a, b in ends]
-        scale = 1.0 / (sum(lengths) / len(lengths)) if lengths else 1.0
+        scale = len(lengths) / sum(lengths) if lengths and sum(lengths) > 1e-9 else 1.0   # (no bond: no scale to set)
         xs, ys = [p[0] for p in xyz], [p[1] for p in xyz]
         # y is flipped: RDKit's y grows upwards, ours downwards.
         points = np.array([complex(x * scale, -y * scale) for x, y in zip(xs, ys)])

@@ -65,8 +65,8 @@ class _ArrowSpec:
 
 
 def _panel_sources(trace: Trace, product: frozenset[int] = frozenset()) -> list[_PanelSource]:
-    if trace.initial is None:
-        raise DrawError("the mechanism has no starting state to draw")
+    if trace.initial is None or not trace.initial.elements:
+        raise DrawError("the mechanism has no starting state to draw (no species with atoms)")
     steps = trace.steps
     if not steps:
         return [_PanelSource(trace.initial, None, None)]
