@@ -1724,7 +1724,7 @@ class _LayoutBuilder:
                     and not _any_inside_ring([complex(x, y) for x, y, _ in other], own_rings, range(len(group))):
                 xyz = other
         lengths = [_distance(xyz[a], xyz[b]) for a, b in ends]
-        scale = len(lengths) / sum(lengths) if lengths and sum(lengths) > 1e-9 else 1.0   # (no bond: no scale to set)
+        scale = 1.0 / (sum(lengths) / len(lengths)) if lengths and sum(lengths) > 1e-9 else 1.0   # (no bond: no scale)
         xs, ys = [p[0] for p in xyz], [p[1] for p in xyz]
         # y is flipped: RDKit's y grows upwards, ours downwards.
         points = np.array([complex(x * scale, -y * scale) for x, y in zip(xs, ys)])
