@@ -119,6 +119,12 @@ class Layout:
     labelled_hydrogens: frozenset[int]   # of those, D and T: shown in every panel, moved or not
 
 
+def _gap_around(direction: complex, others: Sequence[complex]) -> float:
+    """The angle of the gap between `others` (unit directions) that `direction` stands in."""
+    turns = [cmath.phase(o / direction) % (2 * math.pi) for o in others]   # counterclockwise from it
+    return min(turns) + min(2 * math.pi - t for t in turns)
+
+
 class _UnionFind:
     def __init__(self, items: Iterable[int]):
         self.parent = {i: i for i in items}
@@ -3195,6 +3201,15 @@ class _LayoutBuilder:
         panels, so in each run of panels where nothing touches it, it turns about its one
         neighbour to the middle of the gap it stands in, as far as the run allows (common
         practice: three bonds at 120 degrees)."""
+        # Each atom's drawn partners per panel, counted once: most atoms are no chain end, or end
+        # on no centre of three, and are passed over on the count.
+        degrees = []
+        for bonds in self.bonds_in:
+            count: dict[int, int] = {}
+            for i, j in bonds:
+                count[i] = count.get(i, 0) + 1
+                count[j] = count.get(j, 0) + 1
+            degrees.append(count)
         for atom in self.atoms:
             if self.element[atom] == 1:
                 continue
@@ -3206,10 +3221,11 @@ class _LayoutBuilder:
                 first = k
                 while k + 1 < self.n and atom in self.positions[k + 1] and atom not in self.touched[k]:
                     k += 1
-                self._ease_terminal(atom, range(first, k + 1))
+                if all(degrees[p].get(atom) == 1 for p in range(first, k + 1)):
+                    self._ease_terminal(atom, range(first, k + 1), degrees)
                 k += 1
 
-    def _ease_terminal(self, atom: int, panels: range) -> None:
+    def _ease_terminal(self, atom: int, panels: range, degrees: list[dict[int, int]]) -> None:
         """Turn `atom`, bonded to one centre of three drawn partners in each of `panels`, about
         that centre toward the middle of its gap between the other two, the same turn in every
         panel (it may not move within the run): only where the smallest angle at the centre
@@ -3223,7 +3239,7 @@ class _LayoutBuilder:
             if len(bonded) != 1 or (centre is not None and bonded[0] != centre):
                 return
             centre = bonded[0]
-            if self.positions[p].get(centre) != self.positions[panels[0]].get(centre):
+            if degrees[p].get(centre) != 3 or self.positions[p].get(centre) != self.positions[panels[0]].get(centre):
                 return
         if centre not in self.positions[panels[0]]:
             return
@@ -3236,8 +3252,8 @@ class _LayoutBuilder:
         for k, side in ((panels[0] - 1, panels[0]), (panels[-1], panels[-1])):
             if not 0 <= k < self.n - 1:
                 continue
-            for bond in self.bonds_in[k] ^ self.bonds_in[k + 1]:
-                if atom not in bond or bond == own:
+            for bond in self._changed_bonds(k):
+                if atom not in bond or bond == own or (bond in self.bonds_in[k]) == (bond in self.bonds_in[k + 1]):
                     continue
                 h = bond[0] + bond[1] - atom
                 if self.element[h] != 1 or h not in self.positions[side]:
@@ -3257,8 +3273,9 @@ class _LayoutBuilder:
                 return
             others.append(around)
             if p + 1 < self.n:
-                partners += [unit(here[n] - origin) for n in self.neighbours[centre]
-                             if n in here and (min(centre, n), max(centre, n)) in self.bonds_in[p + 1] - self.bonds_in[p]]
+                made = [pair for pair in self._changed_bonds(p) if centre in pair and pair not in self.bonds_in[p]
+                        and pair in self.bonds_in[p + 1]]
+                partners += [unit(here[a + b - centre] - origin) for a, b in made if a + b - centre in here]
 
         def angle(a: complex, b: complex) -> float:
             return abs(cmath.phase(a / b))
@@ -3272,10 +3289,11 @@ class _LayoutBuilder:
                        for around in others for o in around)
 
         start = unit(arm)
-        # The angle between the other two bonds bounds what any turn can reach.
+        # The angle between the other two bonds bounds what any turn can reach, and so does half
+        # the gap it stands in (a turn stays in its gap): most atoms are drawn well already.
         between = min(angle(o[0], o[1]) for o in others)
         wanted = min(narrowest(start), between) + math.radians(10)
-        if between < wanted:
+        if between < wanted or min(_gap_around(start, around) for around in others) / 2 < wanted:
             return
         kept_off = [min(angle(start, q), math.radians(100)) for q in partners]
         turns = []   # (score, order, direction) of every turn that would do, widest first

@@ -493,18 +493,19 @@ class StructureDrawer:
             # Other atoms within reach, each with the room (across, up) its own label may take: a
             # carbon, mostly a bare skeletal vertex or line end, little; a letter more.
             bl = self.style.bond_length
+            # Everything below looks no further than 1.75 bond lengths: one pass over the panel.
+            around = [(j, q - p) for j, q in positions.items() if j != i and abs(q - p) < 1.75 * bl]
             # A letter further off still counts: its own hydrogens may be written towards this one.
-            crowd = [(q - p, *((0.3 * bl, 0.2 * bl) if element[j] == 6 else (0.55 * bl, 0.3 * bl)))
-                     for j, q in positions.items() if j != i and j not in neighbours
-                     and 1e-9 < abs(q - p) < (1.25 if element[j] == 6 else 1.75) * bl]
+            crowd = [(d, *((0.3 * bl, 0.2 * bl) if element[j] == 6 else (0.55 * bl, 0.3 * bl)))
+                     for j, d in around if j not in neighbours
+                     and 1e-9 < abs(d) < (1.25 if element[j] == 6 else 1.75) * bl]
             # The other bonds within reach, which the text must not sit on either.
-            near = [j for j, q in positions.items() if j != i and abs(q - p) < 1.6 * bl]
+            near = [j for j, d in around if abs(d) < 1.6 * bl]
             walls = [(positions[a] - p, positions[b] - p) for a in near for b in adjacent[a]
                      if b != i and b in positions and (b not in near or a < b)]
             # Other heteroatoms' labels within reach: an H written above or below toward one reads
             # as bonded to both (O-H-O).
-            letters = [q - p for j, q in positions.items() if j != i and element[j] not in (1, 6)
-                       and 1e-9 < abs(q - p) < 1.75 * bl]
+            letters = [d for j, d in around if element[j] not in (1, 6) and abs(d) > 1e-9]
             side = self._hydrogen_side(element[i], out.occupied[i], crowd, walls, w_symbol / 2 + w_mass, w_h + w_n,
                                        [a for a in ahead if a], letters)
             out.occupied[i].append(complex(side) if side in (1, -1) else side)
