@@ -35,6 +35,7 @@ SUMMARIES = {
 }
 
 EXIT_USAGE = 2   # commands exit 0 clean, 1 findings; the group itself only reports bad usage
+EXIT_INTERRUPTED = 130   # the shell's convention for a run stopped by Ctrl-C (128 + SIGINT)
 
 
 class LazyGroup(click.Group):
@@ -64,9 +65,16 @@ def main() -> None:
     quiet_rdkit()
     try:
         cli.main(standalone_mode=False)
-    except click.exceptions.Abort:
+    except click.exceptions.Abort as exc:
+        # click turns Ctrl-C (KeyboardInterrupt) into Abort; `collect` already exits 130 for it
+        if isinstance(exc.__cause__ or exc.__context__, KeyboardInterrupt):
+            click.echo("interrupted", err=True)
+            raise SystemExit(EXIT_INTERRUPTED)
         click.echo("aborted", err=True)
         raise SystemExit(EXIT_USAGE)
+    except KeyboardInterrupt:
+        click.echo("interrupted", err=True)
+        raise SystemExit(EXIT_INTERRUPTED)
     except click.ClickException as exc:
         exc.show()
         raise SystemExit(EXIT_USAGE)

@@ -563,6 +563,7 @@ def parse(text: str, file: str = "<text>", steps_on_demand: bool = False) -> Mec
         # Old Mac line ends (CR alone) and Windows ones (CR LF) read as line ends, so that lines
         # and columns count as the author's editor counts them.
         text = text.replace("\r\n", "\n").replace("\r", "\n")
+    _refuse_unwritable_characters(text, file)
     pieces = list(_pieces(text))
     if steps_on_demand and len(pieces) > _ON_DEMAND_FROM_PIECES:
         return _parse_on_demand(text, file, pieces)
@@ -571,6 +572,44 @@ def parse(text: str, file: str = "<text>", steps_on_demand: bool = False) -> Mec
     except (UnexpectedInput, VisitError):
         items = _whole(text, file)   # the one true account of what is wrong, with its position
     return _assemble(items, file)
+
+
+# Characters that quoted text (a title, caption, label, over/under text, SMILES) cannot hold: the C0
+# controls but tab, line feed and carriage return, which XML 1.0 forbids in a figure's SVG; DEL and
+# the C1 controls, invisible and never meant; the noncharacters U+FFFE and U+FFFF (XML 1.0 forbids
+# them too) and lone surrogates (not text at all: a stray byte of a non-UTF-8 command line).
+UNWRITABLE_CHARACTERS = re.compile("[\x00-\x08\x0b\x0c\x0e-\x1f\x7f-\x9f\ufffe\uffff\ud800-\udfff]")
+_QUOTED = re.compile(r'"[^"\n\r]*"|(?<![^\s])#[^\n]*')
+
+
+def character_name(ch: str) -> str:
+    """`the control character U+0001`: what the character is, and its code point as the Unicode
+    charts write it."""
+    kind = ("noncharacter" if ch in "\ufffe\uffff" else "lone surrogate" if "\ud800" <= ch <= "\udfff"
+            else "control character")
+    return f"the {kind} U+{ord(ch):04X}"
+
+
+def _refuse_unwritable_characters(text: str, file: str) -> None:
+    """AR101 at the first control character (UNWRITABLE_CHARACTERS) inside a quoted string: a
+    figure or a PDF cannot hold it, and the author cannot see it. In a comment it does no harm;
+    elsewhere the parser reports it as an unexpected character."""
+    if not UNWRITABLE_CHARACTERS.search(text):
+        return
+    for match in _QUOTED.finditer(text):
+        if match.group().startswith("#"):
+            continue
+        bad = UNWRITABLE_CHARACTERS.search(match.group())
+        if bad is None:
+            continue
+        at = match.start() + bad.start()
+        line = text.count("\n", 0, at) + 1
+        column = at - (text.rfind("\n", 0, at) + 1) + 1
+        raise MechanismError([Diagnostic(
+            "AR101", f"the quoted text holds {character_name(bad.group())}, which no figure "
+            "or PDF can hold", Location(file, line, column),
+            hint=f"delete the invisible character at line {line}, column {column} (it often comes with text "
+                 "pasted from another program)")])
 
 
 def _piece_items(text: str, file: str, piece: tuple[int, int, int, int]) -> list:

@@ -231,7 +231,10 @@ def _mechanisms():
     from hypothesis import strategies as st
     from arrows.model import (AtomRef, AtomSink, BareAtom, BondPair, BondRef, BondSink, Checkpoint, HydrogenOn,
                               LonePair, Mechanism, Move, NonbondingSink, Species, Step, UnpairedElectron)
-    text = st.text(st.characters(blacklist_characters='"\n\r\x00', blacklist_categories=("Cs",)), max_size=12)
+    # Printable: no control characters (C0 but tab, DEL, C1) or noncharacters, which the language
+    # refuses in quoted text (language.UNWRITABLE_CHARACTERS).
+    text = st.text(st.characters(blacklist_characters='"\n\r\ufffe\uffff', blacklist_categories=("Cs", "Cc"))
+                   | st.just("\t"), max_size=12)
     name = st.from_regex(r"[A-Za-z_][A-Za-z0-9_]{0,6}", fullmatch=True)
     mapped = st.builds(AtomRef, st.sampled_from(["C", "O", "N", "Br", "Si", "H"]), st.integers(1, 999))
     atom = st.one_of(mapped, st.builds(HydrogenOn, mapped))

@@ -9,7 +9,11 @@ from __future__ import annotations
 
 import os
 import signal
+import sys
+import threading
+import time
 from collections import deque
+from contextlib import contextmanager
 from concurrent.futures import ProcessPoolExecutor
 from concurrent.futures.process import BrokenProcessPool
 from typing import Callable, Iterable, Iterator, Optional, TypeVar
@@ -33,6 +37,64 @@ def _ignore_interrupts() -> None:
     # Ctrl-C is the parent's to handle: it stops the pool. Workers that also caught it would
     # each print a traceback.
     signal.signal(signal.SIGINT, signal.SIG_IGN)
+
+
+def _start_worker(parent: int) -> None:
+    """A worker ignores Ctrl-C and ends when its parent does: a parent killed (SIGKILL, or a
+    SIGTERM it could not act on) left its workers running under PID 1, drawing for nobody and
+    holding the caller's standard error open."""
+    _ignore_interrupts()
+    # A forked worker inherits the parent's handlers: its SIGTERM (terminate_as_interrupt) would
+    # raise in the middle of a task, be caught as the task's failure, and the worker would go on.
+    signal.signal(signal.SIGTERM, signal.SIG_DFL)
+    _end_with_parent(parent)
+
+
+def _end_with_parent(parent: int) -> None:
+    if sys.platform.startswith("linux"):
+        try:
+            import ctypes
+            libc = ctypes.CDLL(None, use_errno=True)
+            # PR_SET_PDEATHSIG (1): the kernel sends SIGTERM when the thread that forked this worker
+            # ends (the pool forks from the thread that submits, the caller's for the pool's life).
+            if libc.prctl(1, int(signal.SIGTERM), 0, 0, 0) == 0:
+                if os.getppid() != parent:   # the parent died before the request was made
+                    os._exit(1)
+                return
+        except (OSError, AttributeError):
+            pass
+    threading.Thread(target=_watch_parent, args=(parent,), daemon=True, name="arrows-parent-watch").start()
+
+
+def _watch_parent(parent: int, every: float = 0.5) -> None:
+    """Where the kernel cannot be asked: end this worker once its parent is gone (it is adopted,
+    and its parent's process id changes)."""
+    while os.getppid() == parent:
+        time.sleep(every)
+    os._exit(1)
+
+
+class Terminated(KeyboardInterrupt):
+    """SIGTERM, raised in the main thread as Ctrl-C is, so that outputs are left as they were
+    (arrows.atomic removes its temporaries) and the pool's workers are stopped at once."""
+
+
+@contextmanager
+def terminate_as_interrupt() -> Iterator[None]:
+    """While the block runs, SIGTERM raises Terminated (in the main thread only, where Python
+    delivers signals); its handler before is put back after."""
+    if threading.current_thread() is not threading.main_thread():
+        yield
+        return
+
+    def raise_terminated(signum, frame):
+        raise Terminated()
+
+    before = signal.signal(signal.SIGTERM, raise_terminated)
+    try:
+        yield
+    finally:
+        signal.signal(signal.SIGTERM, before)
 
 
 def _bounded(submit: Callable[[T], object], wait: Callable[[object], R], items: Iterable[T],
@@ -65,10 +127,17 @@ class WorkerPool:
 
     def __enter__(self) -> "WorkerPool":
         if self.jobs > 1:
-            self._executor = ProcessPoolExecutor(self.jobs, initializer=_ignore_interrupts)
+            self._executor = ProcessPoolExecutor(self.jobs, initializer=_start_worker, initargs=(os.getpid(),))
         return self
 
     def __exit__(self, kind, value, tb) -> None:
+        if self._executor is not None and kind is not None and issubclass(kind, Terminated):
+            # Told to stop: the tasks under way are not waited for (shutdown would, as it does
+            # for Ctrl-C, so that their figures reach the cache).
+            for process in list((getattr(self._executor, "_processes", None) or {}).values()):
+                process.terminate()
+            self._executor.shutdown(wait=True, cancel_futures=True)
+            return
         if self._executor is not None:
             # Tasks still queued are unwanted whichever way the caller left (an error, Ctrl-C, or
             # a map it stopped reading, as --fail-fast does).

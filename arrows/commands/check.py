@@ -6,6 +6,7 @@ import sys
 
 import click
 
+from ._args import LocatedPath
 from ..api import diagnose_file
 from ..diagnostics import ERROR, WARNING, to_json
 from .output import cannot_write, refuse_unsafe_outputs
@@ -19,14 +20,14 @@ def _a_number(ctx, param, value: float) -> float:
 
 
 @click.command("check")
-@click.argument("files", nargs=-1, type=click.Path())   # a missing file is reported as AR100; a folder, opened
+@click.argument("files", nargs=-1, type=LocatedPath())   # a missing file is reported as AR100; a folder, opened
 @click.option("--format", "fmt", type=click.Choice(["text", "json"]), default="text", show_default=True,
               help="text: file:line:col: severity CODE message; json: one array of diagnostics.")
 @click.option("--strict", is_flag=True, help="Treat warnings as failures (exit 1).")
 @click.option("--quiet", "-q", is_flag=True, help="Print only errors.")
-@click.option("--jsonl", "jsonl", type=click.Path(dir_okay=False, allow_dash=True), metavar="FILE",
+@click.option("--jsonl", "jsonl", type=LocatedPath(dir_okay=False, allow_dash=True), metavar="FILE",
               help="Check a data set: one mechanism per line of FILE (- for stdin), one JSON result per line out.")
-@click.option("-o", "--output", type=click.Path(dir_okay=False, writable=True),
+@click.option("-o", "--output", type=LocatedPath(dir_okay=False, writable=True),
               help="With --jsonl: write the results to this file (atomically) instead of stdout.")
 @click.option("-j", "--jobs", type=click.IntRange(min=1), default=None,
               help="With --jsonl: worker processes [default: the machine's cores].")

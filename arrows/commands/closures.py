@@ -13,6 +13,7 @@ from typing import Optional
 import click
 from rdkit import Chem
 
+from ._args import LocatedPath
 from ..electrons import atom_label
 from ..judgement.closures import Closure, candidate_closures, with_atom_maps
 from ..judgement.skeleton import product_fragment, skeleton
@@ -161,9 +162,9 @@ def _table(rows: list[dict]) -> list[str]:
               help="Largest ring listed (Baldwin's rules cover 3 to 7).")
 @click.option("--condense", is_flag=True,
               help="Follow an aldol closure with its E1cB dehydration (products and --write).")
-@click.option("--draw", "draw_path", type=click.Path(dir_okay=False),
+@click.option("--draw", "draw_path", type=LocatedPath(dir_okay=False),
               help="Draw the candidate products, new bond highlighted, to this .svg or .png file.")
-@click.option("--write", "write_path", type=click.Path(dir_okay=False),
+@click.option("--write", "write_path", type=LocatedPath(dir_okay=False),
               help="Write a .mech skeleton for the best candidate (or the one chosen with --pick).")
 @click.option("--pick", type=click.IntRange(min=1), default=1, show_default=True,
               help="Which ranked candidate --write drafts.")

@@ -7,11 +7,13 @@ from pathlib import Path
 
 import click
 
+from ._args import LocatedPath, plain_text
 from ..draw import STYLES
 from ..draw.styles import DEFAULT_STYLE
 from .output import cannot_write, refuse, refuse_unsafe_outputs
 
 EXIT_INTERRUPTED = 130   # the shell's convention for a run stopped by Ctrl-C
+EXIT_TERMINATED = 143    # and by SIGTERM (128 + 15)
 
 
 def _label_prefix(ctx, param, value: str) -> str:
@@ -23,8 +25,8 @@ def _label_prefix(ctx, param, value: str) -> str:
 
 
 @click.command("collect")
-@click.argument("inputs", nargs=-1, required=True, type=click.Path())
-@click.option("-o", "--output", required=True, type=click.Path(dir_okay=False),
+@click.argument("inputs", nargs=-1, required=True, type=LocatedPath())
+@click.option("-o", "--output", required=True, type=LocatedPath(dir_okay=False),
               help="The PDF document (a name ending in .pdf); its figures and index.html go in the folder "
                    "OUT-figures/ beside it.")
 @click.option("--style", type=click.Choice(sorted(STYLES)), default=DEFAULT_STYLE, show_default=True,
@@ -33,15 +35,15 @@ def _label_prefix(ctx, param, value: str) -> str:
 @click.option("--flow", is_flag=True, help="Put as many schemes on a page as fit (default: one per page).")
 @click.option("--prefix", default="S", show_default=True, callback=_label_prefix,
               help="Scheme numbers: PREFIX1, PREFIX2, ... (letters, digits, - and _).")
-@click.option("--title", help="Document title; with a title the document opens with a title page.")
-@click.option("--authors", help="Authors, for the title page and the PDF metadata.")
-@click.option("--date", "date_text", metavar="TEXT", help="Date line for the title page (as written).")
+@click.option("--title", callback=plain_text, help="Document title; with a title the document opens with a title page.")
+@click.option("--authors", callback=plain_text, help="Authors, for the title page and the PDF metadata.")
+@click.option("--date", "date_text", metavar="TEXT", callback=plain_text, help="Date line for the title page (as written).")
 @click.option("-j", "--jobs", type=click.IntRange(min=1), default=None,
               help="Worker processes [default: the machine's cores].")
-@click.option("--cache", "cache_dir", type=click.Path(file_okay=False),
+@click.option("--cache", "cache_dir", type=LocatedPath(file_okay=False),
               help="Cache folder [default: .arrows-cache beside the output].")
-@click.option("--report", type=click.Path(dir_okay=False), help="Also write a JSON report of every scheme.")
-@click.option("--junit", type=click.Path(dir_okay=False), help="Also write a JUnit XML file (one test per scheme).")
+@click.option("--report", type=LocatedPath(dir_okay=False), help="Also write a JSON report of every scheme.")
+@click.option("--junit", type=LocatedPath(dir_okay=False), help="Also write a JUnit XML file (one test per scheme).")
 @click.option("--keep-going/--fail-fast", default=True, show_default=True,
               help="Collect every scheme whatever fails (default), or stop at the first scheme with errors "
                    "without writing the document.")
@@ -53,12 +55,12 @@ def collect_command(inputs, output, style, paper, flow, prefix, title, authors, 
     dot-folders (.git, .ipynb_checkpoints, editor files); a file named on its own is always read.
 
     Exit status: 0 every scheme passed, 1 a scheme has errors (or a worker process died), 2 bad usage,
-    130 interrupted. An unfinished run leaves the previous output as it was.
+    130 interrupted (Ctrl-C), 143 terminated (SIGTERM). An unfinished run leaves the previous output as it was.
     """
     from .. import __version__
     from ..batch.collection import FOLDER_SUFFIX, CollectSettings, OutputInUse, collect
     from ..batch.pages import Front
-    from ..batch.parallel import WorkerDied, default_jobs
+    from ..batch.parallel import Terminated, WorkerDied, default_jobs, terminate_as_interrupt
     from ..batch.reports import write_junit, write_report
     from ..batch.sources import NoSources, find_sources
 
@@ -66,6 +68,7 @@ def collect_command(inputs, output, style, paper, flow, prefix, title, authors, 
         sources = find_sources(list(inputs))
     except NoSources as exc:
         raise click.UsageError(str(exc))
+    _refuse_unwritable_names(sources)
     refuse_unsafe_outputs({"-o": output, "--report": report, "--junit": junit}, [s.path for s in sources],
                           stdout=False, inside=Path(output).with_name(Path(output).stem + FOLDER_SUFFIX),
                           makes_its_folder=("-o",))
@@ -82,17 +85,19 @@ def collect_command(inputs, output, style, paper, flow, prefix, title, authors, 
     _refuse_inputs_in(settings.figures_dir, sources)
     progress = _Progress(n)
     try:
-        result = collect(sources, settings, progress)
+        with terminate_as_interrupt():
+            result = collect(sources, settings, progress)
     except OSError as exc:   # the cache, the figures folder or the document (a read-only folder)
         progress.close()
         cannot_write(output, exc)
     except OutputInUse as exc:
         raise click.UsageError(str(exc))
-    except KeyboardInterrupt:
+    except KeyboardInterrupt as exc:   # Ctrl-C, or SIGTERM (Terminated)
         progress.close()
-        click.echo(f"interrupted: {output} is as it was; the schemes drawn so far are cached and will not be "
+        stopped = "terminated" if isinstance(exc, Terminated) else "interrupted"
+        click.echo(f"{stopped}: {output} is as it was; the schemes drawn so far are cached and will not be "
                    "drawn again", err=True)
-        sys.exit(EXIT_INTERRUPTED)
+        sys.exit(EXIT_TERMINATED if isinstance(exc, Terminated) else EXIT_INTERRUPTED)
     except WorkerDied as exc:
         progress.close()
         click.echo(f"error: {exc}; {output} is as it was; run again to resume from the cache", err=True)
@@ -118,8 +123,9 @@ def collect_command(inputs, output, style, paper, flow, prefix, title, authors, 
     for record in failed:
         click.echo(f"{record.label} {record.name}: {record.status()}", err=True)
         for d in record.diagnostics:
-            if d["severity"] == "error":
-                click.echo(f"    {d['file']}:{d['line']}:{d['column']}: {d['code']} {d['message']}", err=True)
+            if d["severity"] == "error":   # as `arrows check` prints it, for editors that jump to the place
+                hint = f"\n    hint: {d['hint']}" if d.get("hint") else ""
+                click.echo(f"{d['file']}:{d['line']}:{d['column']}: error {d['code']} {d['message']}{hint}", err=True)
         if record.figure_problem and not record.errors:
             click.echo(f"    {record.figure_problem}", err=True)
     if not result.complete:
@@ -132,6 +138,20 @@ def collect_command(inputs, output, style, paper, flow, prefix, title, authors, 
                    f"({n - len(failed)} passed, {len(failed)} with errors; {drawn} drawn, {cached} from the "
                    f"cache{missing}); figures and index.html in {settings.figures_dir}", err=True)
     sys.exit(1 if failed else 0)
+
+
+def _refuse_unwritable_names(sources) -> None:
+    """A source's name heads its scheme and keys its cache entry: it must be text a PDF can hold
+    (a byte of a file name that is not UTF-8 comes through as a lone surrogate)."""
+    from ..language import UNWRITABLE_CHARACTERS, character_name
+    for source in sources:
+        bad = UNWRITABLE_CHARACTERS.search(source.name)
+        if bad is not None:
+            ch = bad.group()
+            what = (f"the byte 0x{ord(ch) - 0xDC00:02X}, which is not UTF-8 text" if "\udc80" <= ch <= "\udcff"
+                    else character_name(ch))
+            refuse(source.name.encode("utf-8", "backslashreplace").decode(), f"the file name holds {what}",
+                   "rename the file with plain UTF-8 characters")
 
 
 def _refuse_inputs_in(figures_dir: Path, sources) -> None:

@@ -6,9 +6,10 @@ from pathlib import Path
 
 import click
 
+from ._args import FiniteFloatRange, LocatedPath, plain_text
 from ..api import check_file
 from ..diagnostics import ERROR, NOTE
-from .output import cannot_write, refuse_unsafe_outputs
+from .output import cannot_write, refuse, refuse_unsafe_outputs
 
 FORMATS = ("svg", "pdf", "png")
 STYLE_NAMES = ("one-column", "two-column", "slide")   # arrows.draw.STYLES, named here to keep --help light
@@ -21,9 +22,12 @@ def _format_of(output: Path, fmt: str | None) -> str:
             raise click.BadParameter("writing to standard output (-o -) needs --format svg, pdf or png",
                                      param_hint="-o/--output")
         return fmt
-    if fmt and suffix in FORMATS and suffix != fmt:
-        raise click.BadParameter(f"{output.name!r} ends in .{suffix} but --format says {fmt}; make them agree",
-                                 param_hint="--format")
+    if fmt and suffix and suffix != fmt:
+        # (x.jpeg --format png wrote PNG bytes under a JPEG's name, which viewers refuse or misread)
+        leave = ", or leave --format out" if suffix in FORMATS else ""
+        refuse(output, f"-o {output} ends in .{suffix} but --format says {fmt}: the file would hold "
+                       f"{fmt.upper()} under another format's name",
+               f"name it {output.with_suffix('.' + fmt)}{leave}")
     if fmt:
         return fmt
     if suffix not in FORMATS:
@@ -33,8 +37,8 @@ def _format_of(output: Path, fmt: str | None) -> str:
 
 
 @click.command("draw")
-@click.argument("file", type=click.Path(dir_okay=False))
-@click.option("-o", "--output", required=True, type=click.Path(dir_okay=False, allow_dash=True),
+@click.argument("file", type=LocatedPath(dir_okay=False))
+@click.option("-o", "--output", required=True, type=LocatedPath(dir_okay=False, allow_dash=True),
               help="Where to write the figure; the format follows the extension (.svg, .pdf, .png). "
                    "`-` writes it to standard output (give --format).")
 @click.option("--format", "fmt", type=click.Choice(FORMATS), help="Output format, when the name does not say it.")
@@ -45,9 +49,9 @@ def _format_of(output: Path, fmt: str | None) -> str:
 @click.option("--cip", is_flag=True, help="Show CIP labels (R/S) of stereocentres.")
 @click.option("--step-labels", is_flag=True, help="Write each step's label under its reaction arrow.")
 @click.option("--no-title", is_flag=True, help="Leave the title out of the figure (it stays in the SVG <title>).")
-@click.option("--font", "font_family", help="Font family for all text (default DejaVu Sans).")
-@click.option("--font-size", type=click.FloatRange(4, 72), help="Label font size in points.")
-@click.option("--line-width", type=click.FloatRange(0.1, 10), help="Bond and arrow line width in points.")
+@click.option("--font", "font_family", callback=plain_text, help="Font family for all text (default DejaVu Sans).")
+@click.option("--font-size", type=FiniteFloatRange(4, 72), help="Label font size in points.")
+@click.option("--line-width", type=FiniteFloatRange(0.1, 10), help="Bond and arrow line width in points.")
 @click.option("--dpi", type=click.IntRange(30, 2400), default=300, show_default=True, help="Resolution of PNG output.")
 @click.option("--force", is_flag=True, help="Draw even with errors; they are marked on the figure.")
 @click.option("--watch", is_flag=True, help="Keep running: redraw each time FILE is saved, printing the diagnostics.")
@@ -89,8 +93,12 @@ def draw_command(file, output, fmt, style, color, numbers, cip, step_labels, no_
     from ..draw.export import convert
     from ..draw.svg import scene_to_svg
     chosen = _style(style, color, numbers, cip, step_labels, no_title, font_family, font_size, line_width)
+    from ..draw.export import png_size_problem
     try:
         scene = build_scene(trace, chosen, diags)
+        too_large = png_size_problem(scene.width, scene.height, dpi) if fmt == "png" else None
+        if too_large:   # found before drawing: a 576-million-pixel PNG drew for 72 s, then failed
+            refuse(file if to_stdout else output, *too_large)
         data = convert(scene_to_svg(scene), fmt, dpi)
         if to_stdout:
             sys.stdout.buffer.write(data)   # whole, once drawn: nothing half-written reaches the pipe
@@ -134,10 +142,13 @@ def _watch(file, output: Path, fmt: str, chosen, force: bool, dpi: int) -> None:
             click.echo(f"redrawn {output}; waiting for the next save (Ctrl-C stops)", err=True)
 
     def redraw(path):
+        from ..draw.export import ImageTooLarge
         try:
             return render_figure(path, output, fmt, chosen, force=force, dpi=dpi)
         except OSError as exc:
             cannot_write(output, exc)
+        except ImageTooLarge as exc:
+            refuse(output, exc.message, exc.hint)
 
     click.echo(f"watching {file}", err=True)
     rerun_on_save(file, redraw, report)

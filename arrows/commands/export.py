@@ -6,6 +6,7 @@ import sys
 
 import click
 
+from ._args import LocatedPath
 from ..api import checked
 from ..diagnostics import ERROR, MechanismError
 from ..language import load
@@ -17,11 +18,11 @@ def _one_line(label: str) -> str:
 
 
 @click.command("export")
-@click.argument("file", type=click.Path())
+@click.argument("file", type=LocatedPath())
 @click.option("--to", "target", type=click.Choice(["rxn-smiles", "json"]), required=True,
               help="rxn-smiles: one atom-mapped reaction SMILES per step, a tab, the step label; "
                    "json: the mechanism and every derived state (schema: arrows/mechanism.schema.json).")
-@click.option("-o", "--output", type=click.Path(dir_okay=False),
+@click.option("-o", "--output", type=LocatedPath(dir_okay=False),
               help="Write to this file (atomically) instead of standard output.")
 def export_command(file, target, output):
     """Export FILE for data sets and other software. Only a mechanism without errors is exported.

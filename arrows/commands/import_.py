@@ -5,6 +5,7 @@ import sys
 
 import click
 
+from ._args import LocatedPath
 from ..diagnostics import MechanismError
 from ..language import MAX_FILE_BYTES
 from ..mechanism_json import load
@@ -13,8 +14,8 @@ from .output import emit, refuse_unsafe_outputs
 
 
 @click.command("import")
-@click.argument("file", type=click.Path())
-@click.option("-o", "--output", type=click.Path(dir_okay=False),
+@click.argument("file", type=LocatedPath())
+@click.option("-o", "--output", type=LocatedPath(dir_okay=False),
               help="Write the .mech text to this file (atomically) instead of standard output.")
 def import_command(file, output):
     """Read a JSON mechanism (arrows/mechanism.schema.json) and print it as .mech text.

@@ -7,6 +7,7 @@ from pathlib import Path
 
 import click
 
+from ._args import LocatedPath
 from ..numbering import numbered, numbered_smiles
 from .output import emit
 
@@ -17,7 +18,7 @@ FIGURE_SUFFIXES = (".svg", ".png")
 @click.argument("smiles")
 @click.option("--first", type=click.IntRange(min=1, max=999_999), default=1, show_default=True,
               help="The first map number (to keep numbers unique across the species of a mechanism).")
-@click.option("-o", "--output", type=click.Path(dir_okay=False),
+@click.option("-o", "--output", type=LocatedPath(dir_okay=False),
               help="Also draw the molecule with its numbers to this .svg or .png file.")
 def number_command(smiles, first, output):
     """Print SMILES with a map number on every heavy atom, numbered along the main chain.

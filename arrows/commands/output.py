@@ -99,6 +99,31 @@ def refuse_unsafe_outputs(outputs: dict[str, Optional[str]], inputs: Iterable[Un
                   and Path(os.path.abspath(output)).parent not in made else None)
         if folder is not None:
             refuse(output, f"cannot write {output}: {folder}", "check that the folder exists and is writable")
+    for option, output in outputs.items():
+        problem = _cannot_create(output) if output not in (None, "-") else None
+        if problem is not None:   # (--junit /proc/j.xml was refused only after the document was written)
+            refuse(output, f"cannot write {output}: {problem}", "check that the folder exists and is writable")
+
+
+def _cannot_create(output: str) -> Optional[str]:
+    """Why no file can be made beside `output` (a read-only folder, /proc, /sys), in words; None
+    when one can, or when the folder does not exist yet (the command makes it, or says so). A
+    temporary file is made and removed, as arrows.atomic makes one to write the output."""
+    path = Path(os.path.abspath(output))
+    if path.exists() and not path.is_file():
+        return None   # a device or a pipe (-o /dev/null) is written in place; a folder is refused elsewhere
+    if not path.parent.is_dir():
+        return None
+    import tempfile
+
+    from ..atomic import temp_prefix
+    try:
+        handle, temp = tempfile.mkstemp(prefix=temp_prefix(path.name), dir=path.parent)
+    except OSError as exc:
+        return f"no file can be made in {path.parent} ({exc.strerror or exc})"
+    os.close(handle)
+    os.unlink(temp)
+    return None
 
 
 def _file_identity(path) -> Optional[tuple[int, int]]:

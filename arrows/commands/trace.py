@@ -5,6 +5,7 @@ import sys
 
 import click
 
+from ._args import LocatedPath
 from ..api import check_file
 from ..diagnostics import ERROR
 from ..electrons import ElectronState, bond_label, order_word
@@ -38,7 +39,7 @@ def _state_lines(state: ElectronState) -> list[str]:
 
 
 @click.command("trace")
-@click.argument("file", type=click.Path())   # a missing file or a folder is reported as AR100
+@click.argument("file", type=LocatedPath())   # a missing file or a folder is reported as AR100
 @click.option("--stereo", is_flag=True, help="Also show stereo elements made or lost at each step, the "
               "stereoisomers of the final state, and how stereo-specified checkpoints relate.")
 def trace_command(file, stereo):

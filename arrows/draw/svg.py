@@ -3,11 +3,27 @@ scene's. Numbers are rounded to 0.01 pt so the same scene always gives the same 
 piece of user text is escaped."""
 from __future__ import annotations
 
+import re
 from functools import lru_cache
-from xml.sax.saxutils import escape, quoteattr
+from xml.sax.saxutils import escape as _escape, quoteattr as _quoteattr
 
 from .scene import Mark, Panel, ReactionArrow, Scene, TextRun
 from .styles import INK
+
+
+# What XML 1.0 forbids in a document (its Char production): C0 controls but tab, line feed and
+# carriage return, lone surrogates, U+FFFE and U+FFFF. The language refuses them in quoted text;
+# text from elsewhere (JSON, the API) that holds one is written with U+FFFD in its place, so
+# that the SVG stays well-formed.
+_NOT_XML = re.compile("[\x00-\x08\x0b\x0c\x0e-\x1f\ud800-\udfff\ufffe\uffff]")
+
+
+def escape(text: str) -> str:
+    return _escape(_NOT_XML.sub("\ufffd", text))
+
+
+def quoteattr(text: str) -> str:
+    return _quoteattr(_NOT_XML.sub("\ufffd", text))
 
 
 def _n(v: float) -> str:
