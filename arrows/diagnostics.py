@@ -505,6 +505,20 @@ CODES = _table(
          '    C1=C2 -> C2-C3\n'
          '    C3=C4 -> C4-C1\n'
          'end'),
+    Code("AR522", WARNING, "hydroxide or alkoxide leaving in a concerted E2",
+         "A base takes a proton whose C-H pair makes a new C=C in the same step as hydroxide or an "
+         "alkoxide leaves the other end of it: a concerted E2 with a leaving group too poor for one step. "
+         "In base the proton goes first and the carbanion (an enolate, beside a carbonyl) pushes the group "
+         "out in the next step: an E1cB, as in an aldol dehydration (common practice; Clayden, from "
+         "memory). In acid the group is protonated first and leaves as water or an alcohol. A carboxylate "
+         "or a phenoxide leaving is not judged.",
+         'species aldol = "[CH3:1][C:2](=[O:3])[CH2:4][CH2:5][OH:6]"\n'
+         'species base = "[OH-:7]"\n'
+         'step "dehydration"   # take H(C4) first (the enolate), then let it push O6 out\n'
+         '    :O7 -> H(C4)\n'
+         '    C4-H -> C4=C5\n'
+         '    C5-O6 -> O6\n'
+         'end'),
     Code("AR601", NOTE, "ring closure",
          "A step closes a ring; its size and Baldwin class are given. A pericyclic step (every arrow "
          "from a bond to a bond, round a closed loop that makes no charge; arrows that all start at "

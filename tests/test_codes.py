@@ -551,6 +551,14 @@ TWINS = [
     Twin("[2+2] of two alkenes under heat", 'species a = "[CH2:1]=[CH2:2]"\nspecies b = "[CH2:3]=[CH2:4]"\n'
          'step "[2+2]" over "hv"\n    C1=C2 -> C2-C3\n    C3=C4 -> C4-C1\nend\n', 'over "hv"', 'under "heat"',
          "AR521", "C1=C2 -> C2-C3", says=("[2+2]", "Woodward-Hoffmann"), hint_says=('`over "hv"`',)),
+    # Aldol dehydration in base drawn as one concerted E2 expelling hydroxide (Clayden, from memory;
+    # common practice: the enolate forms first and pushes hydroxide out, E1cB); acetate, a far weaker
+    # base, may leave so (not judged).
+    Twin("hydroxide pushed out in a concerted E2",
+         'species aldol = "[CH3:1][C:2](=[O:3])[CH2:4][CH2:5][O:6]C(C)=O"\nspecies base = "[OH-:7]"\n'
+         'step "dehydration"\n    :O7 -> H(C4)\n    C4-H -> C4=C5\n    C5-O6 -> O6\nend\n',
+         "[CH2:5][O:6]C(C)=O", "[CH2:5][OH:6]",
+         "AR522", "C5-O6 -> O6", says=("concerted E2", "hydroxide"), hint_says=("E1cB",)),
 ]
 
 

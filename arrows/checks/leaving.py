@@ -34,6 +34,7 @@ _JUDGED = (1, 6, 7, 8)   # H, C, N and O (as oxide, O2-): the elements whose ani
 # alkoxide re-forming C=O): left to ionise alone into a carbocation, they are protonated first and
 # leave as water or an alcohol (common practice: the acid-catalysed E1 and SN1 of alcohols).
 _IONISING_OXYGEN_ACID = 14.0   # pKa of the conjugate acid (water 15.7, an alcohol ~16) from which AR515 speaks
+_ALKOXIDE_PKA = _IONISING_OXYGEN_ACID   # ...and AR522: hydroxide and alkoxides, not carboxylates or phenoxides
 
 
 def conjugate_acid(mol: Chem.Mol, atom: int) -> Optional[Acidity]:
@@ -82,7 +83,7 @@ def _ring_heteroatom(state, a: int, b: int) -> Optional[int]:
 
 class StrongBaseLeavingGroups(Check):
     name = "leaving groups"
-    codes = ("AR510", "AR515", "AR517")
+    codes = ("AR510", "AR515", "AR517", "AR522")
 
     def __init__(self) -> None:
         self.acted: set[int] = set()   # atoms the steps so far have touched (AR517's hint)
@@ -118,7 +119,7 @@ class StrongBaseLeavingGroups(Check):
             if elements[leaving] == 8 and after.formal_charge(leaving) > -2 and not ionised:
                 # An alkoxide pushed out (an E1cB, a tetrahedral intermediate): judged only where
                 # a strong acid stands by, which would have protonated it first.
-                found = self._pushed_out_in_acid(st, move, leaving, centre)
+                found = self._pushed_out_in_acid(st, move, leaving, centre) or self._pushed_out_by_e2(st, move, leaving, centre)
                 if found is not None:
                     yield found
                 continue
@@ -149,6 +150,46 @@ class StrongBaseLeavingGroups(Check):
                 move.move.loc, hint=hint,
                 atoms=(label(leaving), label(centre)), step=st.index)
 
+
+    def _pushed_out_by_e2(self, st: StepTrace, leaving_move, leaving: int, centre: int) -> Optional[Diagnostic]:
+        """AR522: hydroxide or an alkoxide pushed out in the step in which a base takes the proton
+        whose C-H pair makes the new C=C (a concerted E2). Hydroxide and alkoxides are too poor
+        leaving groups for one step: in base the proton goes first and the carbanion pushes the
+        group out (E1cB, as in an aldol dehydration: Clayden, from memory; common practice); in
+        acid the group is protonated and leaves as water or an alcohol. A carboxylate or a
+        phenoxide, weaker bases, may leave so: not judged."""
+        acid = conjugate_acid(st.after.mol, leaving)
+        if acid is None or acid.pka < _ALKOXIDE_PKA:
+            return None
+        before, after = st.before, st.after
+        for move in st.change.moves:   # the C-H pair that goes into the new C=C
+            if move.source_kind != "bond" or move.electrons != 2 or len(move.sink_atoms) != 2 \
+                    or centre not in move.sink_atoms:
+                continue
+            beta = next((a for a in move.sink_atoms if a != centre), None)
+            h = next((a for a in move.source_atoms if a != beta), None)
+            if beta not in move.source_atoms or h is None or before.elements[h] != 1:
+                continue
+            taker = next((n.GetIdx() for n in after.mol.GetAtomWithIdx(h).GetNeighbors()), None)
+            if taker is None:
+                continue   # left bare: AR518's
+            label = before.label
+            stabilised = any(before.mol.GetBondBetweenAtoms(beta, n.GetIdx()) is not None and n.GetIdx() != centre
+                             and any(b.GetBondTypeAsDouble() == 2 and b.GetOtherAtom(n).GetAtomicNum() in (7, 8)
+                                     for b in n.GetBonds())
+                             for n in before.mol.GetAtomWithIdx(beta).GetNeighbors())
+            if stabilised:
+                hint = (f"take the proton first ({label(taker)} and {label(h)} in a step of their own, giving the "
+                        f"enolate), then let the enolate push {label(leaving)} out of {label(centre)} in the next "
+                        f"step: an E1cB, as in every aldol dehydration in base")
+            else:
+                hint = (f"{label(leaving)} leaves only once protonated (in acid, as water or an alcohol: E1 or E2 of "
+                        f"the protonated group); in base an alcohol does not eliminate")
+            return Diagnostic(
+                "AR522", f"{label(leaving)} leaves {label(centre)} as {acid.base} in the same step as {label(taker)} "
+                f"takes {label(h)} (a concerted E2): {acid.base} is too poor a leaving group for that",
+                leaving_move.move.loc, hint=hint, atoms=(label(leaving), label(centre), label(h)), step=st.index)
+        return None
 
     def _pushed_out_in_acid(self, st: StepTrace, move, leaving: int, centre: int) -> Optional[Diagnostic]:
         """AR517 for hydroxide or an alkoxide pushed out of `centre` while a strong acid stands by
