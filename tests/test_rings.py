@@ -482,3 +482,31 @@ def test_an_sni_is_noted_not_warned_as_a_strained_ring():
     _, diags = check_text(text, "sni.mech")
     assert not [d for d in diags if d.code == "AR501"], [d.to_text() for d in diags]
     assert any(d.code == "AR601" and "(an SNi)" in d.message for d in diags)
+
+
+# Octane-2,7-dione's C1 enolate closing onto the far carbonyl: a seven-membered ring, favoured by
+# Baldwin-Lusch, where the C3 enolate would close a five-membered one (textbook intramolecular
+# aldol: octane-2,7-dione gives 1-acetyl-2-methylcyclopentene; Clayden, from memory).
+_SEVEN_RING_ALDOL = '''species dione = "[CH3:1][C:2](=[O:7])[CH2:3][CH2:4]CC[C:5](=[O:8])[CH3:6]"
+species base  = "[OH-:10]"
+step "enolate"
+    :O10 -> H(C1)
+    C1-H -> C1=C2
+    C2=O7 -> O7
+end
+step "ring closure"
+    :O7 -> C2=O7
+    C1=C2 -> C1-C5
+    C5=O8 -> O8
+end
+'''
+
+
+def test_a_favoured_seven_ring_note_names_the_five_ring_open_to_the_same_species():
+    """Baldwin's rules rank feasibility, not speed: of two favoured closures a five- or
+    six-membered ring forms faster than a seven-membered one (common practice). The note on the
+    seven-membered closure named nothing else; it now names the five-membered one."""
+    _, diags = check_text(_SEVEN_RING_ALDOL, "seven.mech")
+    note, = [d for d in diags if d.code == "AR601"]
+    assert "7-membered" in note.message and "5-membered ring" in note.message, note.message
+    assert not [d for d in diags if d.severity != "note"], [d.to_text() for d in diags]

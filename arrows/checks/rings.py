@@ -322,11 +322,19 @@ class RingClosures(Check):
         if v.favoured is None:
             return Diagnostic("AR601", f"{opening}: {c.closure.name}, not covered by Baldwin's rules",
                               c.loc or st.step.loc, **where)
+        if size >= 7:
+            # A favoured larger ring where a five- or six-membered one was open too (octane-2,7-dione's
+            # enolate closing seven atoms instead of five): said, as the faster closure wins (common
+            # practice; Baldwin's rules rank only feasibility).
+            smaller = self.alternative(st, c, smaller_than=size)
+            if smaller:
+                said += f"; {smaller}, and a five- or six-membered ring closes faster"
         return Diagnostic("AR601", f"{opening}: {said}", c.loc or st.step.loc, **where)
 
-    def alternative(self, st: StepTrace, c: StepClosure) -> Optional[str]:
+    def alternative(self, st: StepTrace, c: StepClosure, smaller_than: Optional[int] = None) -> Optional[str]:
         """A favoured closure between the same kinds of sites in the species that closes here
-        (the latest neutral form of the fragment, before any enolate was made)."""
+        (the latest neutral form of the fragment, before any enolate was made); with
+        `smaller_than`, only a five- or six-membered one smaller than that."""
         kinds = _site_kinds(st.before, c)
         if kinds is None:
             return None
@@ -335,6 +343,8 @@ class RingClosures(Check):
         for option in favoured_alternatives(state.mol, *kinds):
             pairs = {(option.nucleophile.atom, option.electrophile.atom), *option.equivalent}
             if (c.nucleophile, c.attacked) in pairs:
+                continue
+            if smaller_than is not None and not (option.size in (5, 6) and option.size < smaller_than):
                 continue
             return _describe(state.mol, option)
         return None
