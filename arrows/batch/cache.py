@@ -122,13 +122,14 @@ class Cache:
     def store_page(self, key: str, pdf: bytes) -> None:
         write_bytes(self.page_path(key), pdf)
 
-    # whole documents: the merged PDF and its page count
-    def load_document(self, key: str) -> Optional[tuple[bytes, int]]:
-        pdf, count = self.documents / f"{key}.pdf", self.documents / f"{key}.pages"
-        if not (pdf.is_file() and count.is_file()):
+    # whole documents: the merged PDF, its page count and the notes its pages gave (by scheme label)
+    def load_document(self, key: str) -> Optional[tuple[bytes, int, dict[str, str]]]:
+        pdf, count, notes = (self.documents / f"{key}{suffix}" for suffix in (".pdf", ".pages", ".notes.json"))
+        if not (pdf.is_file() and count.is_file() and notes.is_file()):
             return None
-        return pdf.read_bytes(), int(count.read_text())
+        return pdf.read_bytes(), int(count.read_text()), json.loads(notes.read_text(encoding="utf-8"))
 
-    def store_document(self, key: str, pdf: bytes, pages: int) -> None:
+    def store_document(self, key: str, pdf: bytes, pages: int, notes: dict[str, str]) -> None:
         write_bytes(self.documents / f"{key}.pdf", pdf)
+        write_bytes(self.documents / f"{key}.notes.json", json.dumps(notes, ensure_ascii=False).encode())
         write_bytes(self.documents / f"{key}.pages", str(pages).encode())   # written last: marks it complete

@@ -5,20 +5,25 @@ from __future__ import annotations
 
 from typing import Callable, Optional
 
-from .pages import (Front, Page, PageSetup, contents_lines_per_page, contents_pages, scheme_block,
-                    scheme_pages, summary_pages, title_page)
+from .pages import (Front, Page, PageSetup, SchemeBlock, contents_lines_per_page, contents_pages, scheme_block,
+                    scheme_pages, shown_heading, summary_pages, title_page)
 from .record import SchemeRecord
 
 
-def compose(setup: PageSetup, front: Front, records: list[SchemeRecord],
-            figure_svg: Callable[[SchemeRecord], Optional[str]], flow: bool) -> list[Page]:
+def scheme_blocks(setup: PageSetup, records: list[SchemeRecord],
+                  figure_svg: Callable[[SchemeRecord], Optional[str]]) -> list[SchemeBlock]:
+    """Every scheme laid out for its page: the scale its figure is placed at is decided here."""
+    return [scheme_block(setup, r, figure_svg(r), setup.text_height) for r in records]
+
+
+def compose(setup: PageSetup, front: Front, records: list[SchemeRecord], blocks: list[SchemeBlock],
+            flow: bool) -> list[Page]:
     front_pages = [title_page(setup, front)] if front.title else []
     per_page = contents_lines_per_page(setup)
     entries_count = len(records) + 1                       # every scheme, then the summary
     contents_count = -(-entries_count // per_page)
     first_scheme_index = len(front_pages) + contents_count
 
-    blocks = [scheme_block(setup, r, figure_svg(r), setup.text_height) for r in records]
     body, starts = scheme_pages(setup, blocks, first_scheme_index + 1, flow)
     summary_index = first_scheme_index + len(body)
     summary = summary_pages(setup, records, summary_index + 1)
@@ -27,7 +32,7 @@ def compose(setup: PageSetup, front: Front, records: list[SchemeRecord],
     for record, start in zip(records, starts):
         index = first_scheme_index + start
         tag = "errors" if record.failed else ""
-        entries.append((record.label, record.heading, tag, index + 1, index))
+        entries.append((record.label, shown_heading(setup, record), tag, index + 1, index))
     entries.append(("", "Summary of checks", "", summary_index + 1, summary_index))
     contents = contents_pages(setup, entries, len(front_pages) + 1)
     assert len(contents) == contents_count

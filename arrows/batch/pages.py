@@ -8,6 +8,7 @@ wrapped lines fit the page they are on.
 """
 from __future__ import annotations
 
+import re
 from dataclasses import dataclass, field
 from html import escape
 from typing import Optional
@@ -18,6 +19,13 @@ from .pdf import Link
 from .record import SchemeRecord, diagnostic_line, plural
 
 PAPER = {"a4": (210 * MM, 297 * MM), "letter": (612.0, 792.0)}
+PAPER_NAME = {"a4": "A4", "letter": "Letter"}
+# Page margins: on A4, 19 mm leave a text block 172 mm wide, so the two-column preset (171 mm, a
+# double journal column: references.md, common practice) is placed at its print size; 20 mm left
+# 170 mm and every two-column figure was shrunk to 99.4% (its 6 pt text printed at 5.96 pt).
+# Letter (215.9 mm) keeps 20 mm: its text block is 175.9 mm wide.
+MARGIN = {"a4": 19 * MM, "letter": 20 * MM}
+DEFAULT_TITLE = "Schemes"   # the document's title (PDF metadata, index.html) when --title is not given
 
 TITLE_PT, HEADING_PT, BODY_PT, SMALL_PT = 20.0, 11.0, 9.0, 7.5
 LEADING = 1.3          # line height / font size
@@ -31,7 +39,11 @@ MAX_ERRORS_SHOWN = 5   # on a scheme's own page; the summary lists them all
 class PageSetup:
     paper: str = "a4"
     font_family: str = "DejaVu Sans"
-    margin: float = 20 * MM
+    source_paths: bool = True      # False: the document leaves the source files' paths out
+
+    @property
+    def margin(self) -> float:
+        return MARGIN[self.paper]
 
     @property
     def width(self) -> float:
@@ -66,7 +78,7 @@ class Front:
 @dataclass
 class Page:
     svg: str
-    bookmark: Optional[str] = None
+    bookmarks: tuple[str, ...] = ()      # outline entries leading to this page
     links: list[Link] = field(default_factory=list)
 
 
@@ -140,7 +152,7 @@ def title_page(setup: PageSetup, front: Front) -> Page:
             y += part.size * LEADING
             body.append(_text(setup.width / 2, y - 0.22 * part.size * LEADING, line, part.size, part.bold, "middle"))
         y += 2 * GAP
-    return Page(page_svg(setup, "".join(body), None), bookmark=front.title)
+    return Page(page_svg(setup, "".join(body), None), bookmarks=(front.title,) if front.title else ())
 
 
 def title_page_note(setup: PageSetup, front: Front) -> Optional[str]:
@@ -190,7 +202,7 @@ def contents_pages(setup: PageSetup, entries: list[tuple[str, str, str, int, int
             links.append(((setup.margin, pdf_top - step, setup.width - setup.margin, pdf_top), index))
             y += step
         pages.append(Page(page_svg(setup, "".join(body), first_number + len(pages)),
-                          bookmark="Contents" if start == 0 else None, links=links))
+                          bookmarks=("Contents",) if start == 0 else (), links=links))
     return pages
 
 
@@ -205,6 +217,14 @@ class SchemeBlock:
     figure: Optional[Figure]
     problem: Optional[Lines]
     scale: float
+    heading_text: str = ""
+
+    @property
+    def smallest_printed(self) -> Optional[float]:
+        """The size in points at which the figure's smallest text (charges, subscripts) prints on
+        the page; None without a figure or text."""
+        smallest = smallest_text(self.figure) if self.figure is not None else None
+        return smallest * self.scale if smallest is not None else None
 
     @property
     def figure_height(self) -> float:
@@ -242,9 +262,11 @@ def scheme_block(setup: PageSetup, record: SchemeRecord, figure_svg: Optional[st
     """Lay out one scheme so that the whole block is at most max_height tall; the figure keeps its
     print size unless it must shrink to fit the text block."""
     width = setup.text_width
-    heading = lines(setup, f"Scheme {record.label}. {record.heading}", HEADING_PT, width, bold=True)
+    heading_text = f"Scheme {record.label}. {shown_heading(setup, record)}"
+    heading = lines(setup, heading_text, HEADING_PT, width, bold=True)
     caption = lines(setup, record.caption, BODY_PT, width) if record.caption else None
-    status = lines(setup, f"Source {record.name}. Checked: {record.status()}{_details(record)}.", SMALL_PT, width)
+    source = f"Source {record.name}. " if setup.source_paths else ""
+    status = lines(setup, f"{source}Checked: {record.status()}{_details(record)}.", SMALL_PT, width)
     figure = parse_figure(figure_svg) if figure_svg is not None else None
     problem = None
     if figure is None:
@@ -253,12 +275,52 @@ def scheme_block(setup: PageSetup, record: SchemeRecord, figure_svg: Optional[st
         reasons += [diagnostic_line(d) for d in record.diagnostics if d["severity"] == "error"][:MAX_ERRORS_SHOWN]
         problem = Lines(tuple(line for reason in reasons
                               for line in wrap(reason, setup.face(), SMALL_PT, width - 2 * GAP)), SMALL_PT)
-    block = SchemeBlock(record, heading, caption, status, figure, problem, 1.0)
+    block = SchemeBlock(record, heading, caption, status, figure, problem, 1.0, heading_text)
     if figure is not None:
         room = max_height - (block.height - figure.height)
         scale = min(1.0, width / figure.width, max(room, 0.0) / figure.height)
-        block = SchemeBlock(record, heading, caption, status, figure, problem, scale)
+        block = SchemeBlock(record, heading, caption, status, figure, problem, scale, heading_text)
     return block
+
+
+def shown_heading(setup: PageSetup, record: SchemeRecord) -> str:
+    """The scheme's title; without one, its file (only the file's own name when the document
+    leaves the source paths out)."""
+    if record.title or setup.source_paths:
+        return record.heading
+    return record.name.replace("\\", "/").rsplit("/", 1)[-1]
+
+
+_FONT_SIZE = re.compile(r'font-size\s*(?:=\s*["\']|:\s*)([0-9]*\.?[0-9]+)\s*(px|pt)?')
+
+
+def smallest_text(figure: Figure) -> Optional[float]:
+    """The smallest font size the figure's SVG sets, in points at the figure's own size (its
+    user units scaled by its width over its viewBox width)."""
+    sizes = [float(value) * (4 / 3 if unit == "pt" else 1.0) for value, unit in _FONT_SIZE.findall(figure.body)]
+    if not sizes:
+        return None
+    view = [float(v) for v in re.split(r"[\s,]+", figure.attributes.get("viewBox", "").strip()) if v]
+    points_per_unit = figure.width / view[2] if len(view) == 4 and view[2] > 0 else 0.75
+    return min(sizes) * points_per_unit
+
+
+def print_size_note(setup: PageSetup, block: SchemeBlock) -> Optional[str]:
+    """A note when the page shrinks a figure so far that its smallest text prints under
+    SMALLEST_TEXT_PT (journals ask for no text under about 6 pt in artwork: references.md, common
+    practice); the size named is the one printed on the page."""
+    from ..draw.styles import SMALLEST_TEXT_PT
+
+    printed = block.smallest_printed
+    if block.figure is None or printed is None or block.scale >= 1.0 or printed >= SMALLEST_TEXT_PT - 0.005:
+        return None
+    too_wide = setup.text_width / block.figure.width <= block.scale + 1e-9
+    why = "the page's text width" if too_wide else "one page"
+    advice = ("--style two-column (171 mm wide) prints at full size on this page" if too_wide
+              else "split the mechanism into shorter schemes (files) to print it larger")
+    return (f"on the {PAPER_NAME[setup.paper]} page of the document "
+            f"the figure is placed at {block.scale:.0%} to fit {why}: its smallest text (charges, subscripts) "
+            f"prints at {printed:.2f} pt, below {SMALLEST_TEXT_PT:g} pt; {advice}")
 
 
 def _details(record: SchemeRecord) -> str:
@@ -282,7 +344,7 @@ def scheme_pages(setup: PageSetup, blocks: list[SchemeBlock], first_number: int,
         nonlocal body, y, bookmarks
         if body:
             pages.append(Page(page_svg(setup, "".join(body), first_number + len(pages)),
-                              bookmark="; ".join(bookmarks)))
+                              bookmarks=tuple(bookmarks)))
         body, bookmarks, y = [], [], setup.margin
 
     for block in blocks:
@@ -292,7 +354,7 @@ def scheme_pages(setup: PageSetup, blocks: list[SchemeBlock], first_number: int,
             y += BLOCK_GAP
         starts.append(len(pages))
         body.append(block.svg(setup, y))
-        bookmarks.append(f"Scheme {block.record.label}")
+        bookmarks.append(block.heading_text)   # "Scheme S3. Claisen condensation", as the page heads it
         y += block.height
     finish()
     return pages, starts
@@ -312,7 +374,8 @@ def summary_pages(setup: PageSetup, records: list[SchemeRecord], first_number: i
               f"{plural(len(warned), 'scheme')}.")
     rows: list[list[Lines]] = []
     for record in records:
-        row = [lines(setup, f"{record.label}   {record.name}: {record.status()}", BODY_PT, width, bold=True)]
+        named = f"{record.label}   {record.name}" if setup.source_paths else record.label
+        row = [lines(setup, f"{named}: {record.status()}", BODY_PT, width, bold=True)]
         if record.figure_problem and record.figure_problem not in ("", None) and record.errors == 0:
             row.append(lines(setup, record.figure_problem, SMALL_PT, width, indent=INDENT))
         for d in record.diagnostics:
@@ -335,7 +398,7 @@ def summary_pages(setup: PageSetup, records: list[SchemeRecord], first_number: i
 
     def finish_page() -> None:
         pages.append(Page(page_svg(setup, "".join(body), first_number + len(pages)),
-                          bookmark="Summary of checks" if not pages else None))
+                          bookmarks=("Summary of checks",) if not pages else ()))
 
     bottom = setup.height - setup.margin
     start_page()

@@ -18,7 +18,7 @@ Link = tuple[tuple[float, float, float, float], int]
 @dataclass(frozen=True)
 class DocumentPage:
     pdf: bytes                                   # a one-page PDF
-    bookmark: Optional[str] = None               # an outline entry for this page
+    bookmarks: tuple[str, ...] = ()              # outline entries for this page
     links: tuple[Link, ...] = field(default=())
 
 
@@ -38,8 +38,8 @@ def merge(pages: list[DocumentPage], metadata: dict[str, str]) -> bytes:
     for page in pages:
         writer.add_page(PdfReader(io.BytesIO(page.pdf)).pages[0])
     for index, page in enumerate(pages):
-        if page.bookmark:
-            writer.add_outline_item(page.bookmark, index)
+        for bookmark in page.bookmarks:
+            writer.add_outline_item(bookmark, index)
         for rect, target in page.links:
             writer.add_annotation(index, LinkAnnotation(rect=rect, target_page_index=target))
     writer.add_metadata({"/Producer": "arrows", **{k: v for k, v in metadata.items() if v}})

@@ -24,6 +24,7 @@ class SchemeRecord:
     rendered: bool                   # drawn in this run (False: from the cache)
     figure_size: Optional[tuple[float, float]] = None   # width, height in points
     layout_notes: tuple[str, ...] = ()   # where the layout had to compromise ("check the figure")
+    file_label: Optional[str] = None     # the label in file names, zero-padded ("S03"); default: label
 
     @property
     def drawn(self) -> bool:
@@ -40,7 +41,7 @@ class SchemeRecord:
 
     @property
     def file_stem(self) -> str:
-        return f"{self.label}-{self.slug}"
+        return f"{self.file_label or self.label}-{self.slug}"
 
     def count(self, severity: str) -> int:
         return sum(d["severity"] == severity for d in self.diagnostics)

@@ -1,6 +1,7 @@
 """Which mechanism files a batch collects, in which order, and under which names.
 
-A folder contributes every .mech file below it, sorted by path, leaving out dot-files and
+A folder contributes every .mech file below it, sorted by path in natural order (a number inside a
+name is compared as a number: 2-sn1 before 10-da, as a person reads them), leaving out dot-files and
 everything under a dot-folder (version control, notebook checkpoints, editor locks: common practice
 of source tools); files named one by one keep the order given, a dot-file too. Each source is shown
 by its path as reached from the command line (the folder as given, then the path inside it), as
@@ -32,7 +33,8 @@ class NoSources(Exception):
 
 
 def mech_files_below(folder: Path) -> list[Path]:
-    """The .mech files in `folder` and its subfolders, sorted by path (how a batch orders them),
+    """The .mech files in `folder` and its subfolders, sorted by path in natural order (how a batch
+    orders them: natural_key),
     without dot-files and without descending into dot-folders. The folder itself may be a dot-folder:
     it was named."""
     found = []
@@ -40,7 +42,19 @@ def mech_files_below(folder: Path) -> list[Path]:
         folders[:] = [name for name in folders if not name.startswith(".")]
         # (A.MECH too: the suffix is read without regard to case, as `arrows draw A.MECH` reads it.)
         found += [Path(top, name) for name in files if name.lower().endswith(SUFFIX) and not name.startswith(".")]
-    return sorted(p for p in found if p.is_file())
+    return sorted((p for p in found if p.is_file()), key=natural_key)
+
+
+_DIGITS = re.compile(r"(\d+)")
+
+
+def natural_key(path: Path) -> tuple:
+    """Folder by folder, each name cut into text and numbers, the numbers compared by value: 1-a,
+    2-b, 10-c (a plain sort gives 1-a, 10-c, 2-b). Names equal but for zeros before a number
+    (01-a, 1-a) then go in plain order, so no two different paths tie."""
+    parts = path.parts
+    return tuple(tuple((int(piece) if i % 2 else piece) for i, piece in enumerate(_DIGITS.split(part)))
+                 for part in parts), parts
 
 
 def find_sources(inputs: list[str]) -> list[Source]:

@@ -38,6 +38,12 @@ def _label_prefix(ctx, param, value: str) -> str:
 @click.option("--title", callback=plain_text, help="Document title; with a title the document opens with a title page.")
 @click.option("--authors", callback=plain_text, help="Authors, for the title page and the PDF metadata.")
 @click.option("--date", "date_text", metavar="TEXT", callback=plain_text, help="Date line for the title page (as written).")
+@click.option("--no-source-paths", "no_source_paths", is_flag=True,
+              help="Leave the source files' paths out of the PDF document (each scheme's status line says only "
+                   "\"Checked: ...\"; an untitled scheme is headed by its file's name). The console, index.html "
+                   "and the reports keep them.")
+@click.option("--png", "png_dpi", type=click.IntRange(30, 2400), metavar="DPI", default=None,
+              help="Also write each figure as a PNG file at DPI (e.g. --png 300) beside its SVG and PDF.")
 @click.option("-j", "--jobs", type=click.IntRange(min=1), default=None,
               help="Worker processes [default: the machine's cores].")
 @click.option("--cache", "cache_dir", type=LocatedPath(file_okay=False),
@@ -47,12 +53,13 @@ def _label_prefix(ctx, param, value: str) -> str:
 @click.option("--keep-going/--fail-fast", default=True, show_default=True,
               help="Collect every scheme whatever fails (default), or stop at the first scheme with errors "
                    "without writing the document.")
-def collect_command(inputs, output, style, paper, flow, prefix, title, authors, date_text, jobs, cache_dir, report,
-                    junit, keep_going):
+def collect_command(inputs, output, style, paper, flow, prefix, title, authors, date_text, no_source_paths, png_dpi,
+                    jobs, cache_dir, report, junit, keep_going):
     """Check and draw every mechanism in INPUTS and collect them into one PDF: title page,
     contents, one numbered, captioned scheme per page, and a closing summary of every scheme's
     diagnostics. A folder stands for the .mech files below it, leaving out dot-files and
-    dot-folders (.git, .ipynb_checkpoints, editor files); a file named on its own is always read.
+    dot-folders (.git, .ipynb_checkpoints, editor files), in natural order (2-a before 10-b);
+    files named on their own are read in the order given.
 
     Exit status: 0 every scheme passed, 1 a scheme has errors (or a worker process died), 2 bad usage,
     130 interrupted (Ctrl-C), 143 terminated (SIGTERM). An unfinished run leaves the previous output as it was.
@@ -81,7 +88,8 @@ def collect_command(inputs, output, style, paper, flow, prefix, title, authors, 
                   f"{n} scheme{'s' if n != 1 else ''}, checked and drawn with arrows {__version__} "
                   f"(style {style})")
     settings = CollectSettings(Path(output), style, front, paper, flow, prefix, jobs or default_jobs(),
-                               Path(cache_dir) if cache_dir else None, fail_fast=not keep_going)
+                               Path(cache_dir) if cache_dir else None, fail_fast=not keep_going,
+                               source_paths=not no_source_paths, png_dpi=png_dpi)
     _refuse_inputs_in(settings.figures_dir, sources)
     progress = _Progress(n)
     try:
