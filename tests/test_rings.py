@@ -510,3 +510,33 @@ def test_a_favoured_seven_ring_note_names_the_five_ring_open_to_the_same_species
     note, = [d for d in diags if d.code == "AR601"]
     assert "7-membered" in note.message and "5-membered ring" in note.message, note.message
     assert not [d for d in diags if d.severity != "note"], [d.to_text() for d in diags]
+
+
+# The same 5-(enolendo)-exo-trig closure of hexane-2,5-dione, from its enolate and from its
+# pyrrolidine enamine (an enolate equivalent, common practice: Stork): one verdict for both
+# (Baldwin-Lusch 1982, from memory: 5-(enolendo)-exo-trig is disfavoured).
+_HEXANEDIONE_ENOLATE = '''species enolate = "[O-:9][C:2](=[CH2:1])[CH2:3][CH2:4][C:5](=[O:8])[CH3:6]"
+step "aldol"
+    :O9 -> C2=O9
+    C1=C2 -> C1-C5
+    C5=O8 -> O8
+end
+'''
+_HEXANEDIONE_ENAMINE = '''species enamine = "C1CC[N:9](C1)[C:2](=[CH2:1])[CH2:3][CH2:4][C:5](=[O:8])[CH3:6]"
+step "aldol"
+    :N9 -> C2=N9
+    C1=C2 -> C1-C5
+    C5=O8 -> O8
+end
+'''
+
+
+def test_an_enamine_closure_is_judged_as_the_enolate_it_stands_in_for():
+    """The enamine's closure was judged by Baldwin's 1976 table (5-exo-trig, favoured) while the
+    enolate's, the same ring from the same atoms, was 5-(enolendo)-exo-trig, disfavoured."""
+    verdicts = []
+    for text in (_HEXANEDIONE_ENOLATE, _HEXANEDIONE_ENAMINE):
+        _, diags = check_text(text, "aldol.mech")
+        ring, = [d for d in diags if d.code in ("AR501", "AR502", "AR601")]
+        verdicts.append((ring.code, ring.message.split(": ")[1].split(" (")[0]))
+    assert verdicts[0] == verdicts[1] == ("AR502", "5-(enolendo)-exo-trig, disfavoured"), verdicts

@@ -192,7 +192,7 @@ def _enol_partner(state: ElectronState, st: StepTrace, x: int, y: int) -> Option
     for m in st.change.moves:
         if m.source_kind == "bond" and len(m.sink_atoms) == 2 and set(m.sink_atoms) == {x, y} and x in m.source_atoms:
             z = m.source_atoms[0] if m.source_atoms[1] == x else m.source_atoms[1]
-            if state.bond_electrons(x, z) == 4 and _has_single_oxygen(mol, z):
+            if state.bond_electrons(x, z) == 4 and _has_single_donor(mol, z):
                 return z
     if state.formal_charge(x) < 0:
         for n in mol.GetAtomWithIdx(x).GetNeighbors():
@@ -202,8 +202,11 @@ def _enol_partner(state: ElectronState, st: StepTrace, x: int, y: int) -> Option
     return None
 
 
-def _has_single_oxygen(mol: Chem.Mol, atom: int) -> bool:
-    return any(b.GetBondTypeAsDouble() == 1 and b.GetOtherAtom(mol.GetAtomWithIdx(atom)).GetAtomicNum() == 8
+def _has_single_donor(mol: Chem.Mol, atom: int) -> bool:
+    """An oxygen (an enolate's or enol's) or a nitrogen (an enamine's) singly bonded to `atom`: the
+    enamine is judged as the enolate it stands in for (common practice: the Stork enamine and the
+    proline-catalysed aldol are enolate equivalents)."""
+    return any(b.GetBondTypeAsDouble() == 1 and b.GetOtherAtom(mol.GetAtomWithIdx(atom)).GetAtomicNum() in (7, 8)
                for b in mol.GetAtomWithIdx(atom).GetBonds())
 
 
