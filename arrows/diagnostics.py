@@ -519,6 +519,18 @@ CODES = _table(
          '    C4-H -> C4=C5\n'
          '    C5-O6 -> O6\n'
          'end'),
+    Code("AR523", WARNING, "allene in a small ring",
+         "A step leaves a carbon with two double bonds (an allene) inside a ring of eight or fewer atoms. "
+         "An allene's two pi bonds stand at right angles and its three carbons in a line, which a small "
+         "ring cannot give (common practice: cyclohexa-1,2-diene lives for microseconds; from memory). "
+         "Most often a proton was taken from the wrong carbon: an arenium ion loses the proton on its sp3 "
+         "carbon. An allene the species was written with is not judged.",
+         'species arenium = "[CH:1]1=[CH:2][CH+:3][CH:4]=[CH:5][CH2:6]1"\n'
+         'species water = "[OH2:7]"\n'
+         'step "deprotonation"   # the proton to take is on C6, the sp3 carbon\n'
+         '    :O7 -> H(C2)\n'
+         '    C2-H -> C2=C3\n'
+         'end'),
     Code("AR601", NOTE, "ring closure",
          "A step closes a ring; its size and Baldwin class are given. A pericyclic step (every arrow "
          "from a bond to a bond, round a closed loop that makes no charge; arrows that all start at "

@@ -559,6 +559,14 @@ TWINS = [
          'step "dehydration"\n    :O7 -> H(C4)\n    C4-H -> C4=C5\n    C5-O6 -> O6\nend\n',
          "[CH2:5][O:6]C(C)=O", "[CH2:5][OH:6]",
          "AR522", "C5-O6 -> O6", says=("concerted E2", "hydroxide"), hint_says=("E1cB",)),
+    # A benzenium ion losing the proton beside its sp3 carbon: C2 ends with two double bonds in the
+    # six-membered ring, a cyclic allene (common practice: the arenium loses the proton on the sp3
+    # carbon and the arene is restored).
+    Twin("allene in a six-membered ring",
+         'species arenium = "[CH:1]1=[CH:2][CH+:3][CH:4]=[CH:5][CH2:6]1"\nspecies water = "[OH2:7]"\n'
+         'step "deprotonation"\n    :O7 -> H(C6)\n    C6-H -> C1=C6\n    C1=C2 -> C2=C3\nend\n',
+         ":O7 -> H(C6)\n    C6-H -> C1=C6\n    C1=C2 -> C2=C3", ":O7 -> H(C2)\n    C2-H -> C2=C3",
+         "AR523", 'step "deprotonation"', says=("6-membered ring", "allene"), hint_says=("arenium",)),
 ]
 
 

@@ -63,7 +63,7 @@ def _registry() -> list[Check]:
         from .pericyclic import ForbiddenPericyclic
         from .protons import BareProtons, UphillProtonTransfers
         from .ring_eliminations import RingEliminationGeometry
-        from .rings import RingClosures
+        from .rings import RingClosures, StrainedCumulenes
         from .shifts import CationShiftDirection, MigrationAntiToLeavingGroup, ShiftBetweenNeighbours
         from .stereo import StereoChanges
         from .structure import NothingAfterProduct, SomethingToCheck, StepsHaveMoves
@@ -73,7 +73,8 @@ def _registry() -> list[Check]:
                                ChargeAndAtomsConserved, RingClosures, CheckpointsMatch, UphillProtonTransfers, BareProtons,
                                StereoChanges, MigrationAntiToLeavingGroup, CationShiftDirection, ShiftBetweenNeighbours,
                                StrongBaseLeavingGroups, TertiarySubstitution,
-                               WrittenConfigurationMatches, RingEliminationGeometry, ForbiddenPericyclic])
+                               WrittenConfigurationMatches, RingEliminationGeometry, ForbiddenPericyclic,
+                               StrainedCumulenes])
     return [cls() for cls in _CHECK_CLASSES]
 
 

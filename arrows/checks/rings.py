@@ -408,4 +408,51 @@ def _describe(mol: Chem.Mol, option: Closure) -> str:
             f"{option.outlook}")
 
 
-__all__ = ["RingClosures", "StepClosure", "closures_in_step", "BALDWIN_1976"]
+class StrainedCumulenes(Check):
+    """AR523: a step leaves an allene (a carbon with two double bonds) inside a ring of eight or
+    fewer atoms. The two pi bonds of an allene stand at right angles and its three carbons in a
+    line: a small ring cannot hold them (common practice: cyclohexa-1,2-diene lives for
+    microseconds, cyclonona-1,2-diene is the smallest one bottled; from memory). Most often a proton
+    taken from the wrong carbon, as when an arenium ion loses the hydrogen beside the sp3 carbon
+    rather than the one on it. An allene the species was written with is not the step's doing."""
+    name = "strained cumulenes"
+    codes = ("AR523",)
+
+    def step(self, st: StepTrace, context) -> Iterator[Diagnostic]:
+        after = st.after
+        if after is None:
+            return
+        for centre, size in _allenes_in_small_rings(after):
+            if (centre, size) in _allenes_in_small_rings(st.before):
+                continue
+            label = after.label
+            yield Diagnostic(
+                "AR523", f"{label(centre)} ends the step with two double bonds inside a {size}-membered ring (a "
+                f"cyclic allene): its three carbons want a straight line, which a ring this small cannot give",
+                st.step.loc,
+                hint="check which hydrogen or bond the step takes: an arenium ion loses the proton on its sp3 carbon, "
+                     "restoring the arene; if a strained cyclic allene is meant (made from a silyl triflate), "
+                     "this can stand",
+                atoms=(label(centre),), step=st.index)
+
+
+_SMALL_ALLENE_RING = 8
+
+
+def _allenes_in_small_rings(state: ElectronState) -> set[tuple[int, int]]:
+    """(carbon, smallest ring size) for each carbon with two double bonds in a ring of eight or fewer."""
+    mol = state.mol
+    centres = [a.GetIdx() for a in mol.GetAtoms() if a.GetAtomicNum() == 6
+               and sum(1 for b in a.GetBonds() if b.GetBondType() == Chem.BondType.DOUBLE) == 2]
+    if not centres:
+        return set()
+    rings = Chem.GetSymmSSSR(mol)
+    found = set()
+    for centre in centres:
+        sizes = [len(r) for r in rings if centre in r]
+        if sizes and min(sizes) <= _SMALL_ALLENE_RING:
+            found.add((centre, min(sizes)))
+    return found
+
+
+__all__ = ["RingClosures", "StepClosure", "StrainedCumulenes", "closures_in_step", "BALDWIN_1976"]
