@@ -158,9 +158,6 @@ class StrongBaseLeavingGroups(Check):
         group out (E1cB, as in an aldol dehydration: Clayden, from memory; common practice); in
         acid the group is protonated and leaves as water or an alcohol. A carboxylate or a
         phenoxide, weaker bases, may leave so: not judged."""
-        acid = conjugate_acid(st.after.mol, leaving)
-        if acid is None or acid.pka < _ALKOXIDE_PKA:
-            return None
         before, after = st.before, st.after
         for move in st.change.moves:   # the C-H pair that goes into the new C=C
             if move.source_kind != "bond" or move.electrons != 2 or len(move.sink_atoms) != 2 \
@@ -173,6 +170,9 @@ class StrongBaseLeavingGroups(Check):
             taker = next((n.GetIdx() for n in after.mol.GetAtomWithIdx(h).GetNeighbors()), None)
             if taker is None:
                 continue   # left bare: AR518's
+            acid = conjugate_acid(after.mol, leaving)   # (perceived only for a step shaped as an E2)
+            if acid is None or acid.pka < _ALKOXIDE_PKA:
+                return None
             label = before.label
             stabilised = any(before.mol.GetBondBetweenAtoms(beta, n.GetIdx()) is not None and n.GetIdx() != centre
                              and any(b.GetBondTypeAsDouble() == 2 and b.GetOtherAtom(n).GetAtomicNum() in (7, 8)
