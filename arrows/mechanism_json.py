@@ -119,6 +119,12 @@ def document(mechanism: Mechanism, trace=None, diagnostics=None) -> dict:
     """The whole JSON document: the mechanism, and when a trace is given its states and diagnostics."""
     doc: dict[str, Any] = {"$schema": schema()["$id"], "format": FORMAT, "version": VERSION,
                            "source": mechanism.source_name, "mechanism": mechanism_dict(mechanism)}
+    if trace is not None or diagnostics is not None:
+        # What derived the states and diagnostics: a data set records it, as a canonical SMILES
+        # is RDKit's and may differ between its releases.
+        from rdkit import __version__ as rdkit_version
+        from . import __version__
+        doc["made_by"] = {"arrows": __version__, "rdkit": rdkit_version}
     if trace is not None:
         doc["states"] = states_list(trace)
     if diagnostics is not None:

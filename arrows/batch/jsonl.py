@@ -44,9 +44,12 @@ class Tally:
 
 
 def check_line(source: str, line_number: int, raw: bytes) -> dict:
-    """The result object for one input line (see docs-batch.md for its fields)."""
+    """The result object for one input line (its fields: README, "Data sets: arrows check --jsonl")."""
     try:
-        record = strict_json(raw.decode("utf-8"))
+        # The line without its line ending (a string cut short then reads as unterminated, at its
+        # own column, not as holding a control character); a byte-order mark an editor put before
+        # the first line is no part of the record.
+        record = strict_json(raw.decode("utf-8-sig").rstrip("\r\n"))
     except RecursionError:
         return _rejected(source, line_number, None, 1, "AR110", "not JSON this tool reads: nested too deeply",
                          "each line holds one mechanism record, a few levels deep", "")
