@@ -90,6 +90,10 @@ def test_quiet_prints_errors_only(write):
     path = write("epoxide.mech", EPOXIDE)
     result = run("check", "--quiet", path)
     assert result.exit_code == 0 and result.output == ""
+    # JSON too: the warning (AR501) left out, as in text (a data-set review found it kept).
+    quiet_json = run("check", "--quiet", "--format", "json", path)
+    assert quiet_json.exit_code == 0 and json.loads(quiet_json.stdout) == []
+    assert [f["code"] for f in json.loads(run("check", "--format", "json", path).stdout)] == ["AR501"]
 
 
 def test_json_format(write):

@@ -68,8 +68,8 @@ def check_command(files, fmt, strict, quiet, jsonl, output, jobs, cluster, pka_g
                 if quiet and d.severity != ERROR:
                     continue
                 click.echo(d.to_text())
-    if fmt == "json":
-        click.echo(to_json(everything))
+    if fmt == "json":   # (--quiet: the errors only, as in text)
+        click.echo(to_json([d for d in everything if not quiet or d.severity == ERROR]))
     elif not quiet:
         n_err = sum(d.severity == ERROR for d in everything)
         n_warn = sum(d.severity == WARNING for d in everything)
