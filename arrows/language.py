@@ -708,11 +708,15 @@ def _whole(text: str, file: str) -> list:
 
 
 def load(path: str | Path, steps_on_demand: bool = False) -> Mechanism:
-    """Read and parse a .mech file. Raises MechanismError for unreadable or malformed files.
-    steps_on_demand as in parse()."""
+    """Read and parse a .mech file ("-": standard input). Raises MechanismError for unreadable or
+    malformed files. steps_on_demand as in parse()."""
     name = str(path)
     try:
-        raw = Path(path).read_bytes()
+        if name == "-":   # standard input, as a pipeline gives it
+            import sys
+            name, raw = "<stdin>", sys.stdin.buffer.read()
+        else:
+            raw = Path(path).read_bytes()
     except OSError as exc:
         raise MechanismError([Diagnostic("AR100", f"cannot read file: {exc.strerror or exc}", Location(name, 1, 1),
                                          hint="check the path and permissions")]) from None

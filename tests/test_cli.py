@@ -493,3 +493,15 @@ def test_trace_of_an_empty_file_prints_no_empty_state(write):
     assert result.exit_code == 1 and "AR112" in result.output
     lines = result.output.splitlines()
     assert "start" not in lines and not any(line.startswith("  SMILES") for line in lines)
+
+
+def test_a_dash_reads_the_mechanism_from_standard_input():
+    """A pipeline hands the mechanism on standard input (a data-set review found `-` read as a file
+    name): diagnostics are located at <stdin>."""
+    slip = SN2.replace(":O1 -> C2", ":N1 -> C2")
+    clean = CliRunner().invoke(cli, ["check", "-"], input=SN2)
+    wrong = CliRunner().invoke(cli, ["check", "-"], input=slip)
+    assert clean.exit_code == 0, clean.output
+    assert wrong.exit_code == 1 and wrong.output.startswith("<stdin>:"), wrong.output
+    traced = CliRunner().invoke(cli, ["trace", "-"], input=SN2)
+    assert traced.exit_code == 0 and "SMILES" in traced.output
