@@ -422,8 +422,12 @@ class StrainedCumulenes(Check):
         after = st.after
         if after is None:
             return
-        for centre, size in _allenes_in_small_rings(after):
-            if (centre, size) in _allenes_in_small_rings(st.before):
+        # A new allene's centre gains a bond order in this step: only the carbons at a bond a pair
+        # goes into are looked at.
+        gaining = sorted({a for m in st.change.moves if len(m.sink_atoms) == 2 for a in m.sink_atoms
+                          if after.elements[a] == 6})
+        for centre, size in _allenes_in_small_rings(after, gaining):
+            if (centre, size) in _allenes_in_small_rings(st.before, [centre]):
                 continue
             label = after.label
             yield Diagnostic(
@@ -439,11 +443,17 @@ class StrainedCumulenes(Check):
 _SMALL_ALLENE_RING = 8
 
 
-def _allenes_in_small_rings(state: ElectronState) -> set[tuple[int, int]]:
-    """(carbon, smallest ring size) for each carbon with two double bonds in a ring of eight or fewer."""
+def _allenes_in_small_rings(state: ElectronState, atoms: list[int]) -> set[tuple[int, int]]:
+    """(carbon, smallest ring size) for each of `atoms` with two double bonds in a ring of eight or
+    fewer."""
     mol = state.mol
-    centres = [a.GetIdx() for a in mol.GetAtoms() if a.GetAtomicNum() == 6
-               and sum(1 for b in a.GetBonds() if b.GetBondType() == Chem.BondType.DOUBLE) == 2]
+    centres = []
+    for i in atoms:
+        atom = mol.GetAtomWithIdx(i) if i < mol.GetNumAtoms() else None
+        # (an allene's centre has two neighbours and no hydrogen: most carbons fail that at once)
+        if atom is not None and atom.GetDegree() == 2 and not atom.GetTotalNumHs() and all(
+                b.GetBondType() == Chem.BondType.DOUBLE for b in atom.GetBonds()):
+            centres.append(i)
     if not centres:
         return set()
     rings = Chem.GetSymmSSSR(mol)
