@@ -286,6 +286,18 @@ class StepChange:
         return bool(self.moves) and not self.charges and all(
             m.source_kind == "bond" and len(m.sink_atoms) == 2 and m.electrons == 2 for m in self.moves)
 
+    def attacker(self, atom: int) -> Optional[int]:
+        """The atom whose own pair (a lone pair, or a bond of its own: an organometallic's C-M, a
+        B-H) makes a new bond to `atom` in this step, if any: the nucleophile that adds to it."""
+        for move in self.moves:
+            if move.electrons != 2 or len(move.sink_atoms) != 2 or atom not in move.sink_atoms \
+                    or atom in move.source_atoms:
+                continue
+            partner = move.sink_atoms[0] if move.sink_atoms[1] == atom else move.sink_atoms[1]
+            if partner in move.source_atoms and any({atom, partner} == set(p) for p in self.formed):
+                return partner
+        return None
+
 
 def bonds_after(bonds: list[tuple[int, int, float]], change: StepChange, after: Chem.Mol
                 ) -> list[tuple[int, int, float]]:

@@ -590,6 +590,19 @@ def character_name(ch: str) -> str:
     return f"the {kind} U+{ord(ch):04X}"
 
 
+def first_unwritable(text: str) -> Optional[tuple[int, str]]:
+    """(1-based position, what it is) of the first character of `text` no figure or PDF can hold,
+    or None: a byte of a command line or file name that was not UTF-8 (Python keeps it as a lone
+    surrogate, surrogateescape) is named as that byte."""
+    bad = UNWRITABLE_CHARACTERS.search(text)
+    if bad is None:
+        return None
+    ch = bad.group()
+    what = (f"the byte 0x{ord(ch) - 0xDC00:02X}, which is not UTF-8 text" if "\udc80" <= ch <= "\udcff"
+            else character_name(ch))
+    return bad.start() + 1, what
+
+
 def _refuse_unwritable_characters(text: str, file: str) -> None:
     """AR101 at the first control character (UNWRITABLE_CHARACTERS) inside a quoted string: a
     figure or a PDF cannot hold it, and the author cannot see it. In a comment it does no harm;

@@ -49,14 +49,20 @@ def conjugate_acid(mol: Chem.Mol, atom: int) -> Optional[Acidity]:
     return acidity_of(perceived(work.GetMol()), atom)
 
 
-def in_small_ring(mol: Chem.Mol, a: int, b: int) -> bool:
-    """Whether the bond a-b lies on a ring of three or four atoms."""
+def _small_ring_detour(mol: Chem.Mol, a: int, b: int) -> tuple[int, ...]:
+    """The other way round the ring of three or four atoms that the bond a-b lies on, from a to b
+    (empty when there is none)."""
     if mol.GetBondBetweenAtoms(a, b) is None:
-        return False
+        return ()
     work = Chem.RWMol(mol)
     work.RemoveBond(a, b)
-    detour = Chem.GetShortestPath(work, a, b)
-    return 0 < len(detour) <= 4
+    detour = tuple(Chem.GetShortestPath(work, a, b))
+    return detour if 0 < len(detour) <= 4 else ()
+
+
+def in_small_ring(mol: Chem.Mol, a: int, b: int) -> bool:
+    """Whether the bond a-b lies on a ring of three or four atoms."""
+    return bool(_small_ring_detour(mol, a, b))
 
 
 def _weaker_ring_bond(state, a: int, b: int) -> bool:
@@ -64,19 +70,12 @@ def _weaker_ring_bond(state, a: int, b: int) -> bool:
     epoxide's O, an aziridine's N): such a ring opens at its bond to the heteroatom, which leaves as
     a far weaker base (common practice: epoxides open at C-O); cutting its C-C to expel a carbanion
     is not the strain-driven opening of an all-carbon ring (the Favorskii's cyclopropanone)."""
-    work = Chem.RWMol(state.mol)
-    work.RemoveBond(a, b)
-    detour = Chem.GetShortestPath(work, a, b)
-    return any(state.elements[i] not in (1, 6) for i in detour)
+    return any(state.elements[i] not in (1, 6) for i in _small_ring_detour(state.mol, a, b))
 
 
 def _ring_heteroatom(state, a: int, b: int) -> Optional[int]:
     """The heteroatom bonded to `b` in the three- or four-membered ring through the bond a-b, if any."""
-    if not in_small_ring(state.mol, a, b):
-        return None
-    work = Chem.RWMol(state.mol)
-    work.RemoveBond(a, b)
-    detour = list(Chem.GetShortestPath(work, a, b))
+    detour = _small_ring_detour(state.mol, a, b)
     beside = detour[-2] if len(detour) >= 2 else None
     return beside if beside is not None and state.elements[beside] not in (1, 6) else None
 
@@ -341,7 +340,6 @@ class TertiarySubstitution(Check):
             return
         before, elements = st.before, st.before.elements
         mol = before.mol
-        formed = {(min(p), max(p)) for p in st.change.formed}
         molecules = None
         for move in st.change.moves:
             if move.source_kind != "bond" or move.electrons != 2 or len(move.sink_atoms) != 1:
@@ -359,7 +357,7 @@ class TertiarySubstitution(Check):
                 continue   # a hydrogen on the carbon: primary or secondary, or a methyl
             if _in_three_ring(mol, centre, leaving):
                 continue   # an epoxide, aziridinium, episulfonium or bromonium ion opened
-            nucleophile = _incoming(st, centre, formed)
+            nucleophile = st.change.attacker(centre)
             if nucleophile is None:
                 continue
             if molecules is None:
@@ -391,16 +389,3 @@ def _in_three_ring(mol: Chem.Mol, a: int, b: int) -> bool:
     """Whether the bond a-b lies on a three-membered ring (a common neighbour of both)."""
     near = {n.GetIdx() for n in mol.GetAtomWithIdx(a).GetNeighbors()}
     return any(n.GetIdx() in near for n in mol.GetAtomWithIdx(b).GetNeighbors())
-
-
-def _incoming(st: StepTrace, centre: int, formed: set) -> Optional[int]:
-    """The atom whose own pair (a lone pair, or a bond of its own) makes a new bond to `centre` in
-    this step, if any."""
-    for move in st.change.moves:
-        if move.electrons != 2 or len(move.sink_atoms) != 2 or centre not in move.sink_atoms \
-                or centre in move.source_atoms:
-            continue
-        partner = move.sink_atoms[0] if move.sink_atoms[1] == centre else move.sink_atoms[1]
-        if partner in move.source_atoms and (min(partner, centre), max(partner, centre)) in formed:
-            return partner
-    return None

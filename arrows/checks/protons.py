@@ -256,12 +256,11 @@ def freed_protons(st: StepTrace) -> list[int]:
 _TAKERS = (7, 8, 16, 17, 35, 53, 9)
 
 
-def _taker(st: StepTrace, h: int) -> Optional[int]:
+def _taker(st: StepTrace, holder: int) -> Optional[int]:
     """An atom of another molecule in the state after the step with a lone pair to take the proton
-    `h`: an anion first, then N, then O (water, an alcohol, the counter-ion of the acid); none of
-    the proton's own molecule, before or after the step."""
+    the step threw off `holder`: an anion first, then N, then O (water, an alcohol, the counter-ion
+    of the acid); none of the proton's own molecule, before or after the step."""
     after = st.after
-    holder = next(i for pair_ in st.change.broken if h in pair_ for i in pair_ if i != h)
     mine = set()
     for state in (st.before, after):   # the proton's own molecule, before and after the step
         mine |= next(set(f) for f in Chem.GetMolFrags(state.mol, asMols=False, sanitizeFrags=False) if holder in f)
@@ -289,7 +288,7 @@ class BareProtons(Check):
             label = st.before.label
             holder = next(i for pair_ in st.change.broken if h in pair_ for i in pair_ if i != h)
             hydrogen = label(h)
-            taker = _taker(st, h)
+            taker = _taker(st, holder)
             if taker is not None and nameable(st.after.mol, taker) and nameable(st.before.mol, h):
                 name = st.after.label(taker)
                 hint = (f"let a base take it in this step: {name}, for example, with `:{name} -> "

@@ -158,15 +158,8 @@ def _unstabilised_carbanion(mol, i: int) -> bool:
 def _nucleophile_at(change, elements, atom: int) -> Optional[int]:
     """The carbon or hydrogen whose own pair (a carbanion's lone pair, an organometallic's C-M bond,
     a B-H or Al-H bond) makes a new bond to `atom` in this step, if any."""
-    formed = {tuple(sorted(p)) for p in change.formed}
-    for move in change.moves:
-        if move.electrons != 2 or len(move.sink_atoms) != 2 or atom not in move.sink_atoms:
-            continue
-        partner = move.sink_atoms[0] if move.sink_atoms[1] == atom else move.sink_atoms[1]
-        if partner in move.source_atoms and atom not in move.source_atoms \
-                and tuple(sorted((atom, partner))) in formed and elements[partner] in (1, 6):
-            return partner
-    return None
+    partner = change.attacker(atom)
+    return partner if partner is not None and elements[partner] in (1, 6) else None
 
 
 def _pi_pair_onto_carbon(st: StepTrace) -> Iterator[Diagnostic]:

@@ -151,13 +151,11 @@ def collect_command(inputs, output, style, paper, flow, prefix, title, authors, 
 def _refuse_unwritable_names(sources) -> None:
     """A source's name heads its scheme and keys its cache entry: it must be text a PDF can hold
     (a byte of a file name that is not UTF-8 comes through as a lone surrogate)."""
-    from ..language import UNWRITABLE_CHARACTERS, character_name
+    from ..language import first_unwritable
     for source in sources:
-        bad = UNWRITABLE_CHARACTERS.search(source.name)
+        bad = first_unwritable(source.name)
         if bad is not None:
-            ch = bad.group()
-            what = (f"the byte 0x{ord(ch) - 0xDC00:02X}, which is not UTF-8 text" if "\udc80" <= ch <= "\udcff"
-                    else character_name(ch))
+            _, what = bad
             refuse(source.name.encode("utf-8", "backslashreplace").decode(), f"the file name holds {what}",
                    "rename the file with plain UTF-8 characters")
 

@@ -61,13 +61,11 @@ def new_command(name, species_smiles, smiles):
         click.echo(f"{name or '<NAME>'}:1:1: error: an empty name would make a hidden file `.mech`\n"
                    "    hint: give the mechanism a name: arrows new aldol", err=True)
         sys.exit(2)
-    from ..language import UNWRITABLE_CHARACTERS, character_name
-    bad = UNWRITABLE_CHARACTERS.search(path.stem)
+    from ..language import first_unwritable
+    bad = first_unwritable(path.stem)
     if bad is not None:   # the name is the file's title too: it must be text a figure can hold
-        ch = bad.group()
-        what = (f"the byte 0x{ord(ch) - 0xDC00:02X}, which is not UTF-8 text" if "\udc80" <= ch <= "\udcff"
-                else character_name(ch))
-        click.echo(f"<NAME>:1:{bad.start() + 1}: error: the name holds {what}; nothing written\n"
+        column, what = bad
+        click.echo(f"<NAME>:1:{column}: error: the name holds {what}; nothing written\n"
                    "    hint: choose a plain file name, typed in UTF-8", err=True)
         sys.exit(2)
     if '"' in path.stem or "\n" in path.stem:

@@ -34,7 +34,7 @@ from ..electrons import ElectronState, ResolvedMove
 from ..rdkit_io import bond_list
 from .branches import ease_clashes, side_beyond, slot_beside
 from .plane import (angular_gaps, any_inside_polygons, collinear, crosses_any, distance_to_segment, free_direction,
-                    gap_beside, gap_facing, inside_polygon, segments_cross, unit)
+                    gap_around, gap_beside, gap_facing, inside_polygon, segments_cross, unit)
 
 # Gap between a transferred hydrogen and the atom that takes it, in bond lengths: room for a
 # curved arrow, close enough to read as one event.
@@ -117,12 +117,6 @@ class Layout:
     panels: tuple[PanelAtoms, ...]
     drawn_hydrogens: frozenset[int]    # hydrogens drawn as atoms in every panel that has them
     labelled_hydrogens: frozenset[int]   # of those, D and T: shown in every panel, moved or not
-
-
-def _gap_around(direction: complex, others: Sequence[complex]) -> float:
-    """The angle of the gap between `others` (unit directions) that `direction` stands in."""
-    turns = [cmath.phase(o / direction) % (2 * math.pi) for o in others]   # counterclockwise from it
-    return min(turns) + min(2 * math.pi - t for t in turns)
 
 
 class _UnionFind:
@@ -3159,16 +3153,13 @@ class _LayoutBuilder:
         # or a preference).
         partners = []
         if last < self.n - 1:
-            for a, b in self.bonds_in[last] ^ self.bonds_in[last + 1]:
-                other = a + b - atom
-                if atom not in (a, b) or other not in self.positions[last]:
-                    continue
-                if self.element[other] != 1:
-                    return   # bonding again next (a carbonyl oxide recombining): it waits where it broke off
-                partners.append((self.positions[last][other], TRANSFER_GAP - 0.2, TRANSFER_GAP + 0.5, False))
-                other = self._holder(last, other)
-                if other is not None and other in self.positions[last]:
-                    partners.append((self.positions[last][other], *PARTNER_REACH, True))
+            protons = self._protons_traded(atom, last, last)
+            if protons is None:
+                return   # bonding again next (a carbonyl oxide recombining): it waits where it broke off
+            for h, holder in protons:
+                partners.append((h, TRANSFER_GAP - 0.2, TRANSFER_GAP + 0.5, False))
+                if holder is not None:
+                    partners.append((holder, *PARTNER_REACH, True))
         crowd = [q for p in panels for a, q in self.positions[p].items() if a != atom]
         walls = [(self.positions[p][i], self.positions[p][j]) for p in panels for i, j in self.bonds_in[p]
                  if atom not in (i, j) and i in self.positions[p] and j in self.positions[p]]
@@ -3191,6 +3182,23 @@ class _LayoutBuilder:
         if best is not None:
             for p in panels:
                 self.positions[p][atom] = best
+
+    def _protons_traded(self, atom: int, k: int, side: int, keep: Optional[tuple[int, int]] = None
+                        ) -> Optional[list[tuple[complex, Optional[complex]]]]:
+        """The hydrogens `atom` takes or gives at step k, each as (its place, its holder's place, or
+        None for `atom` itself) in panel `side`; None when the step makes or breaks a bond of `atom`
+        to a heavy atom other than `keep`, or to a hydrogen not drawn there."""
+        traded = []
+        here = self.positions[side]
+        for bond in self._changed_bonds(k):
+            if atom not in bond or bond == keep or (bond in self.bonds_in[k]) == (bond in self.bonds_in[k + 1]):
+                continue
+            h = bond[0] + bond[1] - atom
+            if self.element[h] != 1 or h not in here:
+                return None
+            holder = self._holder(side, h)
+            traded.append((here[h], here.get(holder) if holder is not None and holder != atom else None))
+        return traded
 
     # trigonal centres
     def _ease_trigonal_centres(self) -> None:
@@ -3250,17 +3258,11 @@ class _LayoutBuilder:
         own = (min(atom, centre), max(atom, centre))
         protons: list[tuple[complex, Optional[complex]]] = []
         for k, side in ((panels[0] - 1, panels[0]), (panels[-1], panels[-1])):
-            if not 0 <= k < self.n - 1:
-                continue
-            for bond in self._changed_bonds(k):
-                if atom not in bond or bond == own or (bond in self.bonds_in[k]) == (bond in self.bonds_in[k + 1]):
-                    continue
-                h = bond[0] + bond[1] - atom
-                if self.element[h] != 1 or h not in self.positions[side]:
+            if 0 <= k < self.n - 1:
+                traded = self._protons_traded(atom, k, side, own)
+                if traded is None:
                     return
-                holder = self._holder(side, h)
-                protons.append((self.positions[side][h],
-                                self.positions[side].get(holder) if holder is not None and holder != atom else None))
+                protons += traded
         origin = self.positions[panels[0]][centre]
         arm = self.positions[panels[0]][atom] - origin
         others: list[list[complex]] = []    # per panel: the centre's other partners, as unit directions
@@ -3293,7 +3295,7 @@ class _LayoutBuilder:
         # the gap it stands in (a turn stays in its gap): most atoms are drawn well already.
         between = min(angle(o[0], o[1]) for o in others)
         wanted = min(narrowest(start), between) + math.radians(10)
-        if between < wanted or min(_gap_around(start, around) for around in others) / 2 < wanted:
+        if between < wanted or min(gap_around(start, around) for around in others) / 2 < wanted:
             return
         kept_off = [min(angle(start, q), math.radians(100)) for q in partners]
         turns = []   # (score, order, direction) of every turn that would do, widest first

@@ -59,6 +59,12 @@ def free_direction(centre: complex, others: Sequence[complex], prefer: Optional[
     return cmath.rect(1.0, best_mid)
 
 
+def gap_around(direction: complex, others: Sequence[complex]) -> float:
+    """The angle of the gap between the directions `others` (unit vectors) that `direction` stands in."""
+    turns = [cmath.phase(o / direction) % (2 * math.pi) for o in others]   # counterclockwise from it
+    return min(turns) + min(2 * math.pi - t for t in turns)
+
+
 def gap_beside(centre: complex, others: Sequence[complex], target: complex) -> complex:
     """Unit vector from centre into the wider of the two gaps between the directions to `others`
     that border the direction to `target` (one of them)."""
