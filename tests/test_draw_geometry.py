@@ -2402,6 +2402,22 @@ def test_a_leaving_group_stands_clear_of_the_atom_it_left(name, panel_index, lea
         assert abs(where[leaving] - where[taker]) <= 3.0 * bl + 1e-6
 
 
+def test_a_leaving_amine_with_drawn_hydrogens_stands_clear():
+    """Iminium hydrolysis (textbook): methylamine leaves C2 carrying the proton it took the step
+    before, a hydrogen drawn as an atom in the layout. It stood where it broke off, its H2N label
+    against the oxonium's C=O (1.0 bond lengths from C2); it now turns about its methyl as an
+    ethoxide does (common practice: the expelled group is drawn apart), at least 1.6 bond lengths
+    from C2, and no label of the panel overlaps another."""
+    text = TEXTBOOK["iminium hydrolysis"][0]
+    _, _, scene = _scene(text, "iminium hydrolysis")
+    panel = scene.panels[4]   # after the C-N bond breaks, before the last proton transfer
+    bl = scene.bond_length
+    where = {a.name: complex(*a.position) for a in panel.atoms}
+    assert abs(where["N4"] - where["C2"]) >= 1.6 * bl - 1e-6, abs(where["N4"] - where["C2"]) / bl
+    boxes = [a.box for a in panel.atoms if a.box is not None]
+    assert not any(a.overlaps(b) for k, a in enumerate(boxes) for b in boxes[k + 1:])
+
+
 def test_a_carbonyl_oxygen_that_gives_up_its_proton_turns_with_it_in_reach():
     """The acetone that iminium hydrolysis (textbook) ends with lost its O-H proton to water in the
     last step: its oxygen, touched by that step, may turn, keeping the water that took the proton

@@ -53,6 +53,7 @@ APPROACH = 2.2
 _CLEARANCE = 1.2     # nearest approach allowed between atoms of separately placed clusters
 _LET_GO = 1.6        # a leaving group's atom stands this far from the atom it left, once gone
 _LET_GO_REACH = 3.0  # ...and no further than this from the atom it takes a proton from next
+_LET_GO_CLEAR = 1.5  # ...and, where it can, keeps other atoms this far off
 _HELD_APART_ROOM = 0.8   # least room for a cycloaddition partner held off its partner
 _CURLED = 1.3        # a bond about to form, depicted shorter than this, is drawn curled into its ring
 _TAKEN = 0.4         # an atom this near a spot stands on it
@@ -3129,10 +3130,14 @@ class _LayoutBuilder:
         def bonded(a: int, p: int) -> list[int]:
             return [n for n in self.neighbours[a] if (min(a, n), max(a, n)) in self.bonds_in[p]]
 
-        heavy = {tuple(n for n in bonded(atom, p)) for p in panels}
+        heavy = {tuple(n for n in bonded(atom, p) if self.element[n] != 1) for p in panels}
         if len(heavy) != 1 or len(next(iter(heavy))) != 1:
             return
         pivot = next(iter(heavy))[0]
+        # Its own hydrogens drawn as atoms (an amine's, taken on earlier) turn with it.
+        riders = {h for p in panels for h in bonded(atom, p) if self.element[h] == 1}
+        if any(self.positions[p].get(h) != here.get(h) for h in riders for p in panels):
+            return
         if self.element[pivot] == 1 or any(here[pivot] != self.positions[p].get(pivot) for p in panels) \
                 or self._linear(pivot, range(panels[0], panels[-1] + 1)):
             return   # (turned about a straight atom, an alkyne's, it would bend it)
@@ -3160,7 +3165,7 @@ class _LayoutBuilder:
                 partners.append((h, TRANSFER_GAP - 0.2, TRANSFER_GAP + 0.5, False))
                 if holder is not None:
                     partners.append((holder, *PARTNER_REACH, True))
-        crowd = [q for p in panels for a, q in self.positions[p].items() if a != atom]
+        crowd = [q for p in panels for a, q in self.positions[p].items() if a != atom and a not in riders]
         walls = [(self.positions[p][i], self.positions[p][j]) for p in panels for i, j in self.bonds_in[p]
                  if atom not in (i, j) and i in self.positions[p] and j in self.positions[p]]
         best, best_score = None, None
@@ -3175,13 +3180,18 @@ class _LayoutBuilder:
             # from the neighbour), first; then the least turn.
             facing = sum(max(0.0, math.radians(120) - abs(cmath.phase((q - spot) / (centre_at - spot))))
                          for q, _, _, _ in partners)
+            # Then clear of the atoms round it (an atom closer than _LET_GO_CLEAR crowds it).
+            crowding = sum(max(0.0, _LET_GO_CLEAR - abs(spot - q)) for q in crowd)
             score = (sum(max(0.0, abs(spot - q) - far, near - abs(spot - q)) for q, near, far, _ in partners) + facing,
-                     abs(degrees))
+                     round(crowding, 1), abs(degrees))
             if best_score is None or score < best_score:
                 best, best_score = spot, score
         if best is not None:
+            turn = (best - centre_at) / arm
+            moved = {h: centre_at + (here[h] - centre_at) * turn for h in riders}
+            moved[atom] = best
             for p in panels:
-                self.positions[p][atom] = best
+                self.positions[p].update(moved)
 
     def _protons_traded(self, atom: int, k: int, side: int, keep: Optional[tuple[int, int]] = None
                         ) -> Optional[list[tuple[complex, Optional[complex]]]]:
