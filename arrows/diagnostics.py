@@ -531,6 +531,21 @@ CODES = _table(
          '    :O7 -> H(C2)\n'
          '    C2-H -> C2=C3\n'
          'end'),
+    Code("AR524", WARNING, "carbene made from a C-H",
+         "A carbon keeps the pair of one of its C-H bonds (the proton taken or passed on) and in the same "
+         "step loses the pair of another of its bonds, ending neutral with two bonds and a lone pair: a "
+         "carbene made from a carbon that had no lone pair. A carbon that loses a proton becomes a "
+         "carbanion first, and only a carbanion lets a group go to leave a carbene, as CCl3- gives "
+         "dichlorocarbene (an alpha elimination; Clayden, from memory). Most often a hydrogen was taken "
+         "from the wrong carbon: an ene reaction moves the allylic hydrogen. Carbenes made otherwise (a "
+         "diazo compound losing nitrogen, a photolysis) are not judged, nor steps under light.",
+         'species ene = "[CH2:1]=[C:2]([H:10])[CH3:3]"\n'
+         'species enophile = "[CH2:4]=[CH2:5]"\n'
+         'step "ene"   # the hydrogen that moves is on C3, the allylic carbon\n'
+         '    C1=C2 -> C1-C4\n'
+         '    C4=C5 -> C5-H10\n'
+         '    C2-H10 -> C2\n'
+         'end'),
     Code("AR601", NOTE, "ring closure",
          "A step closes a ring; its size and Baldwin class are given. A pericyclic step (every arrow "
          "from a bond to a bond, round a closed loop that makes no charge; arrows that all start at "

@@ -567,6 +567,14 @@ TWINS = [
          'step "deprotonation"\n    :O7 -> H(C6)\n    C6-H -> C1=C6\n    C1=C2 -> C2=C3\nend\n',
          ":O7 -> H(C6)\n    C6-H -> C1=C6\n    C1=C2 -> C2=C3", ":O7 -> H(C2)\n    C2-H -> C2=C3",
          "AR523", 'step "deprotonation"', says=("6-membered ring", "allene"), hint_says=("arenium",)),
+    # An ene reaction (Clayden, from memory) moves the allylic hydrogen (on C3), whose C-H pair makes
+    # the new C2=C3 pi bond. Moving the vinylic one (on C2) with its pair kept on C2 leaves C2 neutral
+    # with two bonds and a lone pair: a carbene made from a carbon that had no lone pair.
+    Twin("carbene made by an ene moving a vinylic hydrogen",
+         'species ene = "[CH2:1]=[C:2]([H:11])[CH2:3][H:10]"\nspecies enophile = "[CH2:4]=[CH2:5]"\n'
+         'step "ene" under "heat"\n    C1=C2 -> C1-C4\n    C4=C5 -> C5-H10\n    C3-H10 -> C2=C3\nend\n',
+         "C4=C5 -> C5-H10\n    C3-H10 -> C2=C3", "C4=C5 -> C5-H11\n    C2-H11 -> C2",
+         "AR524", "C2-H11 -> C2", says=("carbene", "C2"), hint_says=("allylic", "carbanion")),
 ]
 
 
@@ -600,6 +608,28 @@ def test_every_code_the_engine_raises_has_a_twin():
     # Baldwin, pKa, ring and stereo notes, data-set records: test_rings, test_pka, test_stereo, test_jsonl
     own_tests = {"AR502", "AR508", "AR601", "AR602", "AR110", "AR111"}
     assert set(CODES) - covered - elsewhere - own_tests == set()
+
+
+_CHLOROFORM = 'species chloroform = "[Cl:2][C:1]([Cl:3])([Cl:4])[H:5]"\nspecies base = "[OH-:6]"\n'
+
+
+@pytest.mark.parametrize("name,text,warned", [
+    # Dichlorocarbene from chloroform and hydroxide (Clayden, from memory): the proton goes first,
+    # then the trichloromethyl anion loses chloride (an alpha elimination).
+    ("stepwise alpha elimination", _CHLOROFORM + 'step "deprotonation"\n    :O6 -> H5\n    C1-H5 -> C1\nend\n'
+     'step "alpha elimination"\n    C1-Cl4 -> Cl4\nend\n', False),
+    # Both in one step: C1 keeps its C-H pair and loses the C-Cl pair at once.
+    ("concerted alpha elimination", _CHLOROFORM + 'step "alpha elimination"\n    :O6 -> H5\n    C1-H5 -> C1\n'
+     '    C1-Cl4 -> Cl4\nend\n', True),
+    # Diazomethane losing nitrogen from its carbanion form (textbook): a carbene made from a carbon
+    # that had a lone pair, not judged.
+    ("diazo carbanion losing nitrogen", 'species diazo = "[CH2-:1][N+:2]#[N:3]"\n'
+     'step "loss of nitrogen" under "heat"\n    C1-N2 -> N2\nend\n', False),
+])
+def test_a_carbene_is_judged_by_where_its_lone_pair_came_from(name, text, warned):
+    _, diags = check_text(text, "carbene.mech")
+    assert not [d for d in diags if d.severity == "error"], [d.to_text() for d in diags]
+    assert any(d.code == "AR524" for d in diags) == warned, [d.to_text() for d in diags]
 
 
 @pytest.mark.parametrize("sulfonyl", ["C[S:2](=O)(=O)[Cl:3]", "C[S+2:2]([O-])([O-])[Cl:3]"], ids=["S=O", "S2+"])

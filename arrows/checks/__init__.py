@@ -61,7 +61,7 @@ def _registry() -> list[Check]:
         from .conservation import ChargeAndAtomsConserved
         from .leaving import StrongBaseLeavingGroups, TertiarySubstitution
         from .pericyclic import ForbiddenPericyclic
-        from .protons import BareProtons, UphillProtonTransfers
+        from .protons import BareProtons, CarbeneFromCH, UphillProtonTransfers
         from .ring_eliminations import RingEliminationGeometry
         from .rings import RingClosures, StrainedCumulenes
         from .shifts import CationShiftDirection, MigrationAntiToLeavingGroup, ShiftBetweenNeighbours
@@ -74,7 +74,7 @@ def _registry() -> list[Check]:
                                StereoChanges, MigrationAntiToLeavingGroup, CationShiftDirection, ShiftBetweenNeighbours,
                                StrongBaseLeavingGroups, TertiarySubstitution,
                                WrittenConfigurationMatches, RingEliminationGeometry, ForbiddenPericyclic,
-                               StrainedCumulenes])
+                               StrainedCumulenes, CarbeneFromCH])
     return [cls() for cls in _CHECK_CLASSES]
 
 

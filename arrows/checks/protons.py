@@ -1,4 +1,5 @@
-"""Proton transfers that run far uphill (AR508).
+"""Proton transfers that run far uphill (AR508), protons left bare (AR518), and a carbon that keeps
+its C-H pair while losing another bond's, ending as a carbene (AR524).
 
 A proton transfer is an arrow from a lone pair (or a pi pair) of a base B to a hydrogen on X,
 with the X-H bond broken in the same step. The acid given up is judged on X before the step, the
@@ -22,6 +23,7 @@ from ..judgement.perception import Perceived, RecentViews
 from ..model import Location
 from ..trace import StepTrace
 from . import Check
+from .pericyclic import photochemical
 
 DEFAULT_PKA_GAP = 12.0
 _gap: ContextVar[float] = ContextVar("pka_gap", default=DEFAULT_PKA_GAP)
@@ -304,3 +306,41 @@ class BareProtons(Check):
             yield Diagnostic(
                 "AR518", f"{hydrogen} leaves {label(holder)} as a bare proton: no base takes it in this step",
                 loc, hint=hint, atoms=(hydrogen, label(holder)), step=st.index)
+
+
+class CarbeneFromCH(Check):
+    """AR524: a carbon keeps the pair of one of its C-H bonds (its proton taken or passed on) and in
+    the same step loses the pair of another bond, ending neutral with two bonds and a lone pair: a
+    carbene made from a carbon that had no lone pair. A carbon that loses a proton becomes a
+    carbanion first; only a carbanion (or an ylide's carbon) lets a group go to leave a carbene, as
+    CCl3- gives dichlorocarbene (an alpha elimination, stepwise; Clayden, from memory). Drawn in one
+    step it is most often a hydrogen taken from the wrong carbon: an ene reaction moves the allylic
+    hydrogen, whose pair makes the new pi bond, not a vinylic one. Carbenes made any other way
+    (nitrogen lost from a diazo carbanion, a photolysis) and steps under light are not judged."""
+    name = "carbenes from C-H"
+    codes = ("AR524",)
+
+    def step(self, st: StepTrace, context) -> Iterator[Diagnostic]:
+        after = st.after
+        if after is None or photochemical(st):
+            return
+        before, elements = st.before, st.before.elements
+        kept = {m.sink_atoms[0]: m for m in st.change.moves
+                if m.electrons == 2 and m.source_kind == "bond" and len(m.sink_atoms) == 1
+                and m.sink_atoms[0] in m.source_atoms and elements[m.sink_atoms[0]] == 6
+                and any(elements[a] == 1 for a in m.source_atoms)}
+        for carbon, move in kept.items():
+            if before.nonbonding[carbon] or after.nonbonding[carbon] != 2 or after.formal_charge(carbon) \
+                    or after.bond_sums[carbon] != 2 or after.mol.GetAtomWithIdx(carbon).GetNumRadicalElectrons():
+                continue
+            label = before.label
+            hydrogen = next(a for a in move.source_atoms if a != carbon)
+            yield Diagnostic(
+                "AR524", f"{label(carbon)} keeps the pair of its bond to {label(hydrogen)} and loses another bond's "
+                f"pair in the same step: it ends as a carbene (neutral, two bonds and a lone pair), made from a "
+                f"carbon that had no lone pair", move.move.loc,
+                hint="a carbon that gives up its proton becomes a carbanion: take the proton in a step of its own, "
+                     "then let the group go (an alpha elimination, as CCl3- gives dichlorocarbene); in an ene "
+                     "reaction the hydrogen that moves is the allylic one, on the carbon next to the C=C, and its "
+                     "pair makes the new pi bond",
+                atoms=(label(carbon), label(hydrogen)), step=st.index)
