@@ -1988,6 +1988,26 @@ def test_fishhooks_of_a_split_bond_are_curves_on_its_two_sides(text, name):
                 assert seen[0] != seen[1], (panel.index, bond)
 
 
+@pytest.mark.parametrize("name,panel_index,move", [
+    ("enol ether hydrolysis", 0, "O6-H -> O6"),   # H3O+ drawn H2O+-H, giving up its proton
+    ("nazarov", 3, "O8-H -> O8"),
+    ("lactonisation", 3, "O10-H -> O10"),
+    ("wolff rearrangement", 3, "O8-H -> O8"),
+])
+def test_a_half_loop_between_two_labels_is_a_legible_curve(name, panel_index, move):
+    """An O-H pair returning to its O, where both ends are labels (H2O+-H): the stroke between
+    the labels is short, and the half-loop arrived at the O turned toward the bond, its head a
+    quarter bond length from its tail: a path of 0.68-0.70 bond lengths that printed as a tick
+    under the bond. It now comes into the O from the side turned no further than the rest of the
+    label needs (the H2 of H2O+), a path of at least 0.8 bond lengths (common practice: the
+    half-loop from a bond onto its own atom reads as a curve; the fishhook test asks 0.85 of a
+    single electron's)."""
+    _, _, scene = _scene(TEXTBOOK[name][0], name)
+    arrow = next(a for a in scene.panels[panel_index].arrows if a.move == move)
+    assert _path_length(arrow.path_points(40)) >= 0.8 * scene.bond_length, \
+        _path_length(arrow.path_points(40)) / scene.bond_length
+
+
 @pytest.mark.parametrize("text,name", _mechanisms())
 def test_uneven_bonds_are_reported(text, name):
     """Every panel with a bond off the one length by more than 2% (IUPAC 2008) is named in the

@@ -101,8 +101,8 @@ class PanelStructure:
                 if margin > 0 and not any(b.contains(point, 0.5 * gap) for b in rest) \
                         and (best is None or margin > best[0] + 1e-6):
                     best = (margin, side, near)
-                    if side == direction and margin >= gap:
-                        break   # plainly the symbol's along the side asked for: no turn needed
+                    if margin >= gap:
+                        break   # plainly the symbol's: turned no further than needed
             if best is not None:
                 return best[1], best[2]
         return direction, ray_exit(centre, direction, box)
