@@ -301,3 +301,189 @@ def test_import_refuses_a_mechanism_too_large_to_check(tmp_path):
     done = _arrows_main("import", str(path), "-o", str(target))
     assert done.returncode == 2 and "AR100" in done.stderr and "nothing written" in done.stderr, done.stderr
     assert not target.exists()
+
+
+# --- several files, or a folder: one output -----------------------------------------------------
+
+def _lines(text: str) -> list[str]:
+    assert text.endswith("\n") and "\n\n" not in text, text[-200:]
+    return text.splitlines()
+
+
+def _bulk_folder(tmp_path) -> tuple[Path, dict[str, Path]]:
+    """A data-set folder: two good mechanisms named so that natural order (2 before 10) differs
+    from plain order, one with an error in a subfolder, one in a dot-folder (left out)."""
+    folder = tmp_path / "set"
+    (folder / "sub").mkdir(parents=True)
+    (folder / ".git").mkdir()
+    files = {"sn2": folder / "2-sn2.mech", "da": folder / "10-da.mech", "broken": folder / "sub" / "3-broken.mech"}
+    files["sn2"].write_text((ROOT / "gallery" / "08-sn2-cyanide.mech").read_text(encoding="utf-8"), encoding="utf-8")
+    files["da"].write_text((ROOT / "gallery" / "13-diels-alder.mech").read_text(encoding="utf-8"), encoding="utf-8")
+    # A pair arrow written as a fishhook: an AR3xx error (the electron count of two bonds goes wrong).
+    files["broken"].write_text((ROOT / "gallery" / "13-diels-alder.mech").read_text(encoding="utf-8")
+                               .replace("->", "~>", 1), encoding="utf-8")
+    (folder / ".git" / "x.mech").write_text(files["da"].read_text(encoding="utf-8"), encoding="utf-8")
+    return folder, files
+
+
+def test_bulk_json_export_of_the_gallery_is_one_record_per_file_equal_to_its_single_export(tmp_path):
+    """`arrows export gallery/ --to json -o OUT`: JSON Lines, one record per .mech file in natural
+    order, each the document the single-file export writes for that file (parsed: equal), and
+    valid against the published schema."""
+    out = tmp_path / "gallery.jsonl"
+    done = _arrows_main("export", str(ROOT / "gallery"), "--to", "json", "-o", str(out))
+    assert done.returncode == 0, done.stderr
+    assert done.stdout == "" and "21 of 21 mechanisms exported" in done.stderr, done.stderr
+    records = [json.loads(line) for line in _lines(out.read_text(encoding="utf-8"))]
+    assert len(GALLERY) == 21 and len(records) == 21
+    assert [r["source"] for r in records] == [str(p) for p in GALLERY]
+    validator = jsonschema.Draft202012Validator(mechanism_json.schema())
+    for path, record in zip(GALLERY, records):
+        validator.validate(record)
+        assert record == json.loads(_export(path, "json")), path.name
+
+
+def test_bulk_rxn_smiles_lines_start_with_the_file(tmp_path):
+    """Several FILEs: the step lines of each, in the order the files were given, each line
+    `FILE<tab>reaction SMILES<tab>label`; the reaction and label columns are the single-file
+    export's lines."""
+    given = [GALLERY[12], GALLERY[0], GALLERY[7]]   # not sorted: files named one by one keep their order
+    assert [p.name for p in given] == ["13-diels-alder.mech", "01-enolate-formation.mech", "08-sn2-cyanide.mech"]
+    done = _arrows_main("export", *map(str, given), "--to", "rxn-smiles")
+    assert done.returncode == 0, done.stderr
+    expected = [f"{path}\t{line}" for path in given for line in _lines(_export(path, "rxn-smiles"))]
+    assert _lines(done.stdout) == expected
+    assert all(len(line.split("\t")) == 3 for line in expected)
+
+
+@pytest.mark.parametrize("target", ["json", "rxn-smiles"])
+def test_bulk_export_of_a_folder_with_a_broken_file_exits_1_and_writes_the_others(target, tmp_path):
+    folder, files = _bulk_folder(tmp_path)
+    out = tmp_path / "out.txt"
+    done = _arrows_main("export", str(folder), "--to", target, "-o", str(out))
+    assert done.returncode == 1, done.stderr
+    assert re.search(rf"^{re.escape(str(files['broken']))}:\d+:\d+: error AR3\d\d ", done.stderr, re.M), done.stderr
+    assert "2 of 3 mechanisms exported" in done.stderr and "Traceback" not in done.stderr
+    text = out.read_text(encoding="utf-8")
+    if target == "json":
+        assert [json.loads(line)["source"] for line in _lines(text)] == [str(files["sn2"]), str(files["da"])]
+    else:
+        expected = [f"{files[k]}\t{line}" for k in ("sn2", "da") for line in _lines(_export(files[k], "rxn-smiles"))]
+        assert _lines(text) == expected
+
+
+def test_bulk_export_of_an_unreadable_file_or_an_empty_folder_exits_2_and_writes_the_others(tmp_path):
+    (tmp_path / "empty").mkdir()
+    missing = tmp_path / "missing.mech"
+    done = _arrows_main("export", str(GALLERY[12]), str(missing), str(tmp_path / "empty"), "--to", "json")
+    assert done.returncode == 2, done.stderr
+    assert f"{missing}:1:1: error AR100" in done.stderr and f"{tmp_path / 'empty'}:1:1: error AR100" in done.stderr
+    assert [json.loads(line)["source"] for line in _lines(done.stdout)] == [str(GALLERY[12])]
+
+
+def test_bulk_export_output_is_atomic(tmp_path, monkeypatch):
+    """-o OUT appears whole or not at all: a run stopped after its first record (Ctrl-C) and a run
+    in which every mechanism has errors leave the previous OUT byte for byte, and no temporary file."""
+    from click.testing import CliRunner
+
+    from arrows.atomic import TEMP_MARK
+    from arrows.cli import cli
+
+    folder, files = _bulk_folder(tmp_path)
+    out = tmp_path / "out.jsonl"
+    done = _arrows_main("export", str(folder), "--to", "json", "-o", str(out))
+    assert done.returncode == 1 and len(_lines(out.read_text(encoding="utf-8"))) == 2, done.stderr
+    before = out.read_bytes()
+
+    calls = []
+    real = mechanism_json.document
+
+    def stopped_after_one(*args, **kwargs):
+        calls.append(1)
+        if len(calls) == 2:
+            raise KeyboardInterrupt
+        return real(*args, **kwargs)
+
+    monkeypatch.setattr(mechanism_json, "document", stopped_after_one)
+    result = CliRunner().invoke(cli, ["export", str(files["da"]), str(files["sn2"]), "--to", "json", "-o", str(out)])
+    assert result.exit_code != 0 and len(calls) == 2, result.output
+    assert out.read_bytes() == before
+    monkeypatch.undo()
+
+    done = _arrows_main("export", str(files["broken"]), str(folder / "sub"), "--to", "json", "-o", str(out))
+    assert done.returncode == 1 and f"{out} was not written" in done.stderr, done.stderr
+    assert out.read_bytes() == before
+    assert not [p.name for p in tmp_path.iterdir() if TEMP_MARK in p.name]
+
+
+def test_bulk_and_single_file_exports_differ_only_as_documented(tmp_path):
+    """One FILE keeps the output it always had: the indented document (mechanism_json.dumps) and
+    `reaction<tab>label` lines. The same file reached through a folder is bulk output: the same
+    document on one line, the file as a first column."""
+    from arrows.api import checked
+
+    path = GALLERY[12]
+    mechanism = arrows.load(path)
+    single_json = _export(path, "json")
+    assert single_json == mechanism_json.dumps(mechanism, *checked(mechanism))
+    single_rxn = _export(path, "rxn-smiles")
+    assert all(len(line.split("\t")) == 2 for line in _lines(single_rxn))
+
+    folder = tmp_path / "one"
+    folder.mkdir()
+    copy = folder / path.name
+    copy.write_text(path.read_text(encoding="utf-8"), encoding="utf-8")
+    bulk_json = _export(folder, "json")
+    assert len(_lines(bulk_json)) == 1
+    assert json.loads(bulk_json) == json.loads(_export(copy, "json"))
+    assert _lines(_export(folder, "rxn-smiles")) == [f"{copy}\t{line}" for line in _lines(single_rxn)]
+
+
+# VmHWM: the peak resident memory of this process image alone. (getrusage's ru_maxrss carries over
+# the peak of the process that started it: under pytest, ~100 MiB whatever the export did.)
+_PEAK_RSS = """
+import sys
+from arrows.cli import main
+sys.argv = ["arrows", "export", *sys.argv[1:]]
+try:
+    main()
+except SystemExit as done:
+    with open("/proc/self/status") as status:
+        peak = next(row.split()[1] for row in status if row.startswith("VmHWM:"))
+    print(done.code, peak)
+"""
+
+
+@pytest.mark.skipif(not Path("/proc/self/status").exists(), reason="reads the peak from /proc (Linux)")
+def test_bulk_export_runs_in_constant_memory(tmp_path):
+    """Peak resident memory (the kernel's VmHWM, KiB) of a bulk export of 21 files and of 420 (the
+    gallery 20 times over, in subfolders) agree within 8 MiB: each mechanism is let go once written
+    (a cache kept every one, 70 KiB a file)."""
+    peaks = {}
+    for copies in (1, 20):
+        folder = tmp_path / f"x{copies}"
+        for n in range(copies):
+            (folder / str(n)).mkdir(parents=True)
+            for path in GALLERY:
+                (folder / str(n) / path.name).write_bytes(path.read_bytes())
+        out = tmp_path / f"x{copies}.jsonl"
+        done = subprocess.run([sys.executable, "-c", _PEAK_RSS, str(folder), "--to", "json", "-o", str(out)],
+                              capture_output=True, text=True, timeout=900)
+        code, peak = done.stdout.split()
+        assert code == "0", done.stderr
+        assert len(_lines(out.read_text(encoding="utf-8"))) == 21 * copies
+        peaks[copies] = int(peak)
+    assert peaks[20] <= peaks[1] + 8 * 1024, peaks
+
+
+def test_bulk_json_records_stay_one_line_each_for_splitlines(tmp_path):
+    """A title may hold U+2028 (the language refuses control characters, not this separator);
+    str.splitlines breaks a line there, so the record writes it escaped: still the same JSON."""
+    title_with_separator = (ROOT / "gallery" / "13-diels-alder.mech").read_text(encoding="utf-8").replace(
+        "Diels-Alder:", "Diels\u2028Alder:", 1)
+    (tmp_path / "a.mech").write_text(title_with_separator, encoding="utf-8")
+    (tmp_path / "b.mech").write_text(title_with_separator, encoding="utf-8")
+    done = _arrows_main("export", str(tmp_path), "--to", "json")
+    assert done.returncode == 0, done.stderr
+    records = [json.loads(line) for line in done.stdout.splitlines()]
+    assert len(records) == 2 and records[0]["mechanism"]["title"].startswith("Diels\u2028Alder:")

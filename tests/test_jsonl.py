@@ -331,3 +331,77 @@ def test_a_structured_record_is_told_fields_not_lines():
     result = check_line("data.jsonl", 1, json.dumps(record).encode())
     messages = [d["message"] for d in result["diagnostics"] if d["code"] == "AR103"]
     assert messages == ["map number 1 is already used (at /species/w)"], result["diagnostics"]
+
+
+def _results_validator() -> jsonschema.Draft202012Validator:
+    """The shipped results schema, read from the installed package as a user's validator reads it,
+    with the mechanism schema it takes the diagnostic from."""
+    from importlib import resources
+
+    from referencing import Registry, Resource
+
+    from arrows import mechanism_json
+
+    schema = json.loads(resources.files("arrows").joinpath("check-results.schema.json").read_text(encoding="utf-8"))
+    jsonschema.Draft202012Validator.check_schema(schema)
+    registry = Registry().with_resources(
+        (s["$id"], Resource.from_contents(s)) for s in (schema, mechanism_json.schema()))
+    return jsonschema.Draft202012Validator(schema, registry=registry)
+
+
+def test_every_result_of_a_real_run_validates_against_the_results_schema(tmp_path):
+    """`arrows check --jsonl` on the gallery (each mechanism as a text record and as a parts
+    record), two explain examples that warn, and lines that are no mechanism: every result line
+    validates against arrows/check-results.schema.json; records edited off what the code writes
+    do not."""
+    from arrows import mechanism_json
+    from arrows.diagnostics import CODES
+
+    records = []
+    for number, path in enumerate(GALLERY):
+        records.append(line({"id": path.stem, "text": path.read_text(encoding="utf-8")}))
+        records.append(line({"id": number, **mechanism_json.document(load(path))["mechanism"]}))
+    diels_alder = (ROOT / "gallery" / "13-diels-alder.mech").read_text(encoding="utf-8")
+    records += [line({"id": code, "text": CODES[code].example}) for code in ("AR506", "AR508")]
+    records += [
+        line({"id": "fishhook", "text": diels_alder.replace("->", "~>", 1)}),         # AR3xx errors
+        line({"id": "syntax", "text": diels_alder.replace("->", "-> ->", 1)}),        # AR101
+        line({"id": "map twice", "species": {"w": "[OH2:1]", "b": "[OH-:1]"}, "steps": []}),
+        line({"id": "no move", **WATER_PROTON_TRANSFER,
+              "steps": [{"label": "x", "moves": ["nonsense"]}]}),                    # AR111 at a move
+        line({"id": True, "text": "x"}), line({"text": "x"}), line([1, 2]),          # AR111, id null
+        line({"id": "both", "text": "x", "species": {"a": "C"}, "steps": []}),
+        b"{not json\n", b"\n", b"[" * 5000 + b"\n",                                   # AR110; a blank line
+        b'{"id": "latin1", "text": "caf\xe9"}\n',
+    ]
+    data = tmp_path / "set.jsonl"
+    data.write_bytes(b"".join(records))
+    proc = run_cli("check", "--jsonl", str(data), "-j", "2")
+    assert proc.returncode == 1 and b"Traceback" not in proc.stderr, proc.stderr[-2000:]
+    results = [json.loads(x) for x in proc.stdout.splitlines()]
+    assert len(results) == len(records) - 1   # the blank line has no result
+    validator = _results_validator()
+    for result in results:
+        problems = [e.message for e in validator.iter_errors(result)]
+        assert not problems, (result["id"], problems[:3])
+    # the run had every kind of result the schema describes
+    found = {d["code"] for r in results for d in r["diagnostics"]}
+    assert {"AR101", "AR103", "AR110", "AR111", "AR506", "AR508"} <= found, found
+    assert any(code.startswith("AR3") for code in found) and any(r["id"] is None for r in results)
+    assert {type(r["id"]) for r in results} == {str, int, type(None)}
+    assert any(r["warnings"] for r in results) and any(r["ok"] for r in results)
+
+    clean = next(r for r in results if r["ok"] and r["diagnostics"])
+    failing = next(r for r in results if r["errors"])
+    edits = [
+        {**clean, "checked_by": "someone"},                      # a field the code never writes
+        {k: v for k, v in clean.items() if k != "final_smiles"},  # a field it always writes
+        {**clean, "errors": 1},                                   # ok, yet an error counted
+        {**clean, "warnings": 1},                                 # a warning counted, none listed
+        {**failing, "ok": True},
+        {**clean, "line": 0},
+        {**clean, "diagnostics": [{k: v for k, v in clean["diagnostics"][0].items() if k != "record_location"}]},
+        {**clean, "diagnostics": [{**clean["diagnostics"][0], "code": "E1"}]},   # off the diagnostic schema
+    ]
+    for edited in edits:
+        assert not validator.is_valid(edited), edited
