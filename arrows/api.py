@@ -1,7 +1,6 @@
 """The library behind the CLI: load or parse a mechanism, replay it, check it, draw it."""
 from __future__ import annotations
 
-import weakref
 from pathlib import Path
 from typing import Optional
 
@@ -47,18 +46,19 @@ def check(mechanism: Mechanism) -> tuple[Trace, Diagnostics]:
         return trace, Diagnostics(run_checks(trace))
 
 
-# One replay per Mechanism object (keyed by identity, dropped with the object), so that
-# .check(), .states and .draw() on the same Mechanism replay it once.
-_checked: dict[int, tuple[Trace, Diagnostics]] = {}
+# One replay per Mechanism object, so that .check(), .states and .draw() on the same Mechanism
+# replay it once. Kept on the object itself: a cache held elsewhere (a dict keyed by the object)
+# kept every mechanism alive, as the trace holds the mechanism that keys it.
+_REPLAYED = "_arrows_replayed"
 
 
 def checked(mechanism: Mechanism) -> tuple[Trace, Diagnostics]:
     """check(mechanism), remembered for as long as the Mechanism object lives."""
-    key = id(mechanism)
-    if key not in _checked:
-        _checked[key] = check(mechanism)
-        weakref.finalize(mechanism, _checked.pop, key, None)
-    return _checked[key]
+    known = mechanism.__dict__.get(_REPLAYED)
+    if known is None:
+        known = check(mechanism)
+        object.__setattr__(mechanism, _REPLAYED, known)   # (a frozen object: set past its guard)
+    return known
 
 
 def derived_mols(mechanism: Mechanism) -> list:

@@ -134,6 +134,23 @@ def test_replay_runs_once_per_mechanism(monkeypatch):
     assert len(calls) == 2
 
 
+def test_a_checked_mechanism_is_freed_with_its_replay():
+    """The replay remembered for a Mechanism goes when the Mechanism goes. It was kept in a dict
+    keyed by the object and dropped by a finalizer that never ran, as the trace holds the mechanism:
+    a data-set script checking thousands of mechanisms grew by about 70 KB a file."""
+    import gc
+    import weakref
+    alive = []
+    for _ in range(20):
+        mechanism = arrows.parse(TEXT)
+        mechanism.check()
+        mechanism.states
+        alive.append(weakref.ref(mechanism))
+    del mechanism
+    gc.collect()
+    assert [r for r in alive if r() is not None] == []
+
+
 def test_a_broken_mechanism_reports_instead_of_raising():
     mechanism = arrows.parse(BROKEN)
     codes = [d.code for d in mechanism.check().errors]
