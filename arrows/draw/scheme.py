@@ -25,7 +25,7 @@ from .layout import Layout, compute_layout
 from .scene import Box, CurvedArrow, Mark, Panel, ReactionArrow, Scene, TextRun
 from .formula import MINUS, Piece, condition_pieces, formula_pieces, inorganic_order
 from .structure import PanelStructure, StructureDrawer, segment_hits_box
-from .styles import ERROR_COLOUR, SMALLEST_TEXT_PT, Style
+from .styles import ERROR_COLOUR, SMALLEST_TEXT_PT, STYLES, Style
 from .text import FontFace, wrap
 
 
@@ -164,13 +164,17 @@ def _unused_entries(st: StepTrace) -> frozenset[int]:
 
 def build_scene(trace: Trace, style: Style, diagnostics: Sequence[Diagnostic] = ()) -> Scene:
     """Lay out the whole scheme. Shrinks it (and says so in `notes`) if one panel is wider than
-    the page, or the slide is too tall."""
+    the page, or the slide is too tall; draws a slide's scheme that leaves much of the page empty
+    larger, to fill it (_filling_the_page, also noted)."""
     scene, fit = _SceneBuilder(trace, style, diagnostics).build()
     uneven = (_uneven_bonds(scene) + _crowded_atoms(scene) + _signs_on_bonds(scene) + _heavy_lines(style)
               + _glyphs_wanting(trace, style) + _font_missing(style))
     if fit < 0.999:
-        smaller = style.scaled(fit * 0.995)
-        scene, _ = _SceneBuilder(trace, smaller, diagnostics, style).build()
+        if style.page_height is None:
+            smaller = style.scaled(fit * 0.995)
+            scene, _ = _SceneBuilder(trace, smaller, diagnostics, style).build()
+        else:
+            fit, smaller, scene = _shrunk_to_the_margins(trace, style, diagnostics, fit)
         note = f"drawn at {fit:.0%} of the {style.name} size to fit the page"
         if smaller.small_size < SMALLEST_TEXT_PT:
             note += (f"; the smallest text is {smaller.small_size:.1f} pt (below {SMALLEST_TEXT_PT:g} pt): "
@@ -179,7 +183,139 @@ def build_scene(trace: Trace, style: Style, diagnostics: Sequence[Diagnostic] = 
     elif style.small_size < SMALLEST_TEXT_PT - 1e-9:
         uneven += (f"the smallest text (charges, subscripts) is {style.small_size:.1f} pt at print size, below "
                    f"{SMALLEST_TEXT_PT:g} pt: try --font-size {SMALLEST_TEXT_PT / style.small_scale:g} or more",)
+    elif _may_fill(style, diagnostics):
+        scene = _filling_the_page(trace, style, diagnostics, scene)
     return replace(scene, notes=scene.notes + uneven) if uneven else scene
+
+
+# A slide's scheme is drawn at most this much larger than the preset to fill the page. At 2x the
+# atom labels and the text over the arrows are 36 pt and the bonds 64 pt (23 mm): as large as a
+# slide's own heading (commonly 32-44 pt; common practice, from memory) and no larger, so that a
+# one-step scheme of a few atoms stays a figure and does not become a poster; the charges and
+# subscripts (0.8 em) are then 29 pt. On the gallery, Diels-Alder is held to this cap at 75% of
+# the usable width (38% before), its product ring 2.2 in tall on a 7.5 in slide.
+_MOST_ENLARGED = 2.0
+# Less than this is not worth a size of its own: a scheme that nearly fills the slide is drawn at
+# the preset size, as the other slides of a talk drawn at it.
+_LEAST_ENLARGED = 1.1
+_FIT_TRIES = 4   # layouts tried at a smaller factor when the one worked out does not fit
+
+
+def _may_fill(style: Style, diagnostics: Sequence[Diagnostic]) -> bool:
+    """Whether a scheme in this style is drawn larger to fill its page: a page of fixed height (the
+    slide; a journal column's figure keeps the journal's type size), at the preset's own sizes (a
+    font size, bond length or line width the user gave is kept: own_sizes, which with_options
+    sets, or sizes other than the preset's set any other way), and no errors marked on it (a
+    draft; _compose writes the error list where the scheme ends before it is centred on the
+    slide, where a larger scheme would run into it)."""
+    preset = STYLES.get(style.name)
+    return (style.page_height is not None and not style.own_sizes and preset is not None
+            and (style.font_size, style.bond_length, style.line_width)
+            == (preset.font_size, preset.bond_length, preset.line_width)
+            and not any(d.severity == ERROR for d in diagnostics))
+
+
+def _filling_the_page(trace: Trace, style: Style, diagnostics: Sequence[Diagnostic], scene: Scene) -> Scene:
+    """The scheme drawn at the largest factor, up to _MOST_ENLARGED, at which it still fits the
+    page's width and height within the margins, in the same rows (_enlarged: the title grows less).
+    The factor is worked out from the scheme laid out at its own height, then checked by laying
+    it out again (the rows are chosen afresh at the larger size, a title may wrap into more
+    lines); while it does not fit, a smaller factor is tried. `scene` (at the preset size) is
+    returned when no factor of _LEAST_ENLARGED or more fits."""
+    natural = _natural(trace, style, diagnostics)
+    rows = _row_starts(natural)
+    # (0.995: a row as wide as the page to the last digit may be wrapped by a rounding error)
+    factor = min(_MOST_ENLARGED, 0.995 * _room_factor(natural, style, title_kept=True))
+    for _ in range(_FIT_TRIES):
+        # A bond a whole number of points long, as the presets' (at most 1 pt, 3%, less fill): at
+        # 37.53 pt the sulfonamide's hydrogen, set exactly 30 degrees off a neighbour's direction,
+        # measured 29.999999999999996 degrees, under the geometry tests' 30; at 37 pt it measures
+        # as at the presets.
+        factor = math.floor(factor * style.bond_length + 1e-9) / style.bond_length
+        if factor < _LEAST_ENLARGED:
+            break
+        drawn, fit = _SceneBuilder(trace, _enlarged(style, factor), diagnostics, style).build()
+        if fit >= 1.0 and _within_margins(drawn, style) and _row_starts(drawn) == rows:
+            note = (f"drawn at {factor:.0%} of the {style.name} size to fill the page "
+                    f"(--font-size {style.font_size:g} keeps the {style.name} size)")
+            return replace(drawn, notes=(note,) + drawn.notes)
+        factor *= min(0.97, fit)
+    return scene
+
+
+def _shrunk_to_the_margins(trace: Trace, style: Style, diagnostics: Sequence[Diagnostic], fit: float
+                           ) -> tuple[float, Style, Scene]:
+    """A scheme too large for a page of fixed height, shrunk until all of it lies within the
+    margins: the factor, the style drawn and the scene. The builder's own factor, `fit` (the page's
+    height over the scheme's), is tried first; it left the bottom of the annulation scheme 6 pt in
+    the bottom margin, as the margins do not shrink with the scheme. Then the height within the
+    margins over the scheme's (in the rows it has at its full size) is tried, then less."""
+    factor = fit
+    for attempt in range(_FIT_TRIES):
+        smaller = style.scaled(factor * 0.995)
+        scene, _ = _SceneBuilder(trace, smaller, diagnostics, style).build()
+        if _within_margins(scene, style):
+            break
+        estimate = _room_factor(_natural(trace, style, diagnostics), style, title_kept=False) if attempt == 0 else factor
+        factor = estimate if estimate < factor else 0.97 * factor
+    return factor, smaller, scene
+
+
+def _natural(trace: Trace, style: Style, diagnostics: Sequence[Diagnostic]) -> Scene:
+    """The scheme laid out on a page as wide as the style's and as tall as the scheme needs."""
+    return _SceneBuilder(trace, style, diagnostics, replace(style, page_height_mm=None)).build()[0]
+
+
+def _enlarged(style: Style, factor: float) -> Style:
+    """`style` with every drawn length `factor` times larger, but the title: it keeps its size until
+    the labels outgrow it, then stays as large as they are (at the title's own 1.2 em it read as
+    the slide's heading, 43 pt at 2x, and Diels-Alder's wrapped onto a second line; kept at the
+    preset's 21.6 pt it stood under the 36 pt text over the arrows as a caption would)."""
+    return replace(style.scaled(factor), title_scale=max(style.title_scale / factor, 1.0))
+
+
+def _room_factor(natural: Scene, page: Style, title_kept: bool) -> float:
+    """By how much the scheme of `natural` (laid out at its own height) can be scaled on `page`:
+    its widest row to the width within the margins, everything to the height within them. The
+    title's lines (on as many lines as now) scale as _enlarged has them (title_kept) or with the
+    rest (style.scaled)."""
+    margin = page.margin
+    width = _drawn_box(natural).width
+    across = (page.page_width - 2 * margin) / width if width > 0 else math.inf
+    title_end = max((t.y + 0.45 * t.size for t in natural.texts if t.bold), default=margin)
+    title, rest = title_end - margin, natural.height - margin - title_end   # (rest: from the title to the bottom margin)
+    room = page.page_height - 2 * margin
+    down = room / (title + rest)
+    if title_kept:
+        down = (room - title) / rest
+        if down > page.title_scale:   # the title grows too, at factor / title_scale
+            down = room / (title / page.title_scale + rest)
+    return min(across, down)
+
+
+def _drawn_box(scene: Scene) -> Box:
+    """The union of the placed panels' boxes and the reaction arrows' boxes (with their text)."""
+    boxes = [p.box.shifted(*p.origin) for p in scene.panels] + [a.box for a in scene.reaction_arrows]
+    box = boxes[0]
+    for other in boxes[1:]:
+        box = box.union(other)
+    return box
+
+
+def _row_starts(scene: Scene) -> tuple[int, ...]:
+    """The reaction arrows that begin a row: those that start left of the end of the panel before
+    them. A scheme drawn larger keeps its rows (a row read left to right does not become two)."""
+    ends = {p.index: p.origin[0] + p.box.x1 for p in scene.panels}
+    return tuple(k for k, a in enumerate(scene.reaction_arrows) if a.start[0] < ends.get(k, -math.inf))
+
+
+def _within_margins(scene: Scene, page: Style) -> bool:
+    """The panels and reaction arrows (with their text) lie within the page's margins (the title
+    is written from the top margin, wrapped to the width within them)."""
+    margin = page.margin
+    box = _drawn_box(scene)
+    return (box.x0 >= margin - 1e-6 and box.x1 <= page.page_width - margin + 1e-6
+            and box.y0 >= margin - 1e-6 and box.y1 <= page.page_height - margin + 1e-6)
 
 
 # Scripts the default font (DejaVu Sans) has no glyphs for: CJK, Hangul, emoji and other pictographs.

@@ -46,6 +46,10 @@ class Style:
     cip: bool = False                 # CIP labels (R/S, E/Z)
     show_title: bool = True
     step_labels: bool = False         # the step's own label under its reaction arrow
+    # The user chose a font size, bond length or line width (with_options, as `arrows draw
+    # --font-size` and `--line-width` do): the figure keeps those sizes, a slide's scheme is not
+    # drawn larger to fill its page (scheme.build_scene).
+    own_sizes: bool = False
 
     @property
     def page_width(self) -> float:
@@ -73,8 +77,15 @@ class Style:
                        line_width=self.line_width * factor)
 
     def with_options(self, **changes) -> "Style":
-        """Override fields; None values are ignored so CLI defaults pass through."""
-        return replace(self, **{k: v for k, v in changes.items() if v is not None})
+        """Override fields; None values are ignored so CLI defaults pass through. A size given
+        (font_size, bond_length, line_width) marks the style as sized by its user (own_sizes)."""
+        chosen = {k: v for k, v in changes.items() if v is not None}
+        if chosen.keys() & _SIZES:
+            chosen.setdefault("own_sizes", True)
+        return replace(self, **chosen)
+
+
+_SIZES = frozenset({"font_size", "bond_length", "line_width"})
 
 
 STYLES: dict[str, Style] = {
