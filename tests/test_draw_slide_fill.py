@@ -129,3 +129,19 @@ def test_a_font_size_the_user_gives_is_not_enlarged(tmp_path):
     for size in (18.0, 24.0):
         scene = _scene(DIELS_ALDER, SLIDE.with_options(font_size=size))
         assert scene.bond_length == SLIDE.bond_length and not any("fill" in n for n in scene.notes), size
+
+
+def test_the_error_list_of_a_forced_slide_stands_below_its_scheme():
+    """A slide drawn with --force lists its errors under the scheme. The list was written where
+    the scheme ended before the scheme was centred on the page, so on a slide it stood above the
+    panels it describes; it now moves with them (and such a draft fills the slide too)."""
+    text = ('species ketone = "C[C:2](=[O:3])C"\nspecies base = "[OH-:4]"\n'
+            'step "addition"\n    :O4 -> C2\nend\n')
+    trace, diags = arrows.check_text(text, "broken.mech")
+    assert any(d.severity == "error" for d in diags)
+    scene = build_scene(trace, SLIDE, diags)
+    errors = [t for t in scene.texts if t.text.startswith("error 1:")]
+    assert errors
+    lowest = max(p.box.y1 + p.origin[1] for p in scene.panels)
+    assert min(t.y for t in errors) > lowest
+    assert scene.bond_length > SLIDE.bond_length

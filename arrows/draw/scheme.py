@@ -183,7 +183,7 @@ def build_scene(trace: Trace, style: Style, diagnostics: Sequence[Diagnostic] = 
     elif style.small_size < SMALLEST_TEXT_PT - 1e-9:
         uneven += (f"the smallest text (charges, subscripts) is {style.small_size:.1f} pt at print size, below "
                    f"{SMALLEST_TEXT_PT:g} pt: try --font-size {SMALLEST_TEXT_PT / style.small_scale:g} or more",)
-    elif _may_fill(style, diagnostics):
+    elif _may_fill(style):
         scene = _filling_the_page(trace, style, diagnostics, scene)
     return replace(scene, notes=scene.notes + uneven) if uneven else scene
 
@@ -201,18 +201,15 @@ _LEAST_ENLARGED = 1.1
 _FIT_TRIES = 4   # layouts tried at a smaller factor when the one worked out does not fit
 
 
-def _may_fill(style: Style, diagnostics: Sequence[Diagnostic]) -> bool:
+def _may_fill(style: Style) -> bool:
     """Whether a scheme in this style is drawn larger to fill its page: a page of fixed height (the
     slide; a journal column's figure keeps the journal's type size), at the preset's own sizes (a
     font size, bond length or line width the user gave is kept: own_sizes, which with_options
-    sets, or sizes other than the preset's set any other way), and no errors marked on it (a
-    draft; _compose writes the error list where the scheme ends before it is centred on the
-    slide, where a larger scheme would run into it)."""
+    sets, or sizes other than the preset's set any other way)."""
     preset = STYLES.get(style.name)
     return (style.page_height is not None and not style.own_sizes and preset is not None
             and (style.font_size, style.bond_length, style.line_width)
-            == (preset.font_size, preset.bond_length, preset.line_width)
-            and not any(d.severity == ERROR for d in diagnostics))
+            == (preset.font_size, preset.bond_length, preset.line_width))
 
 
 def _filling_the_page(trace: Trace, style: Style, diagnostics: Sequence[Diagnostic], scene: Scene) -> Scene:
@@ -739,6 +736,7 @@ class _SceneBuilder:
                     arrows.append(self._reaction_arrow(specs[item.arrow_index], x, x + item.width, centre_y))
                 x += item.width + gap
             y = centre_y + below + (row_gap if r < len(rows) - 1 else 0.0)
+        below_scheme = len(texts)   # the error list's lines, which move with the scheme
         if self.errors:
             y += 0.5 * self.bl
             ss = style.small_size
@@ -756,6 +754,7 @@ class _SceneBuilder:
             shift = max(0.0, (page_height - height) / 2)
             placed_panels = [_placed(p, (p.origin[0], p.origin[1] + shift)) for p in placed_panels]
             arrows = [_shift_arrow(a, shift) for a in arrows]
+            texts[below_scheme:] = [replace(t, y=t.y + shift) for t in texts[below_scheme:]]
             height = page_height
         scene = Scene(style=style, width=page.page_width, height=height, bond_length=self.bl,
                       title=mechanism.title or mechanism.source_name, description=_description(self.trace),
