@@ -8,18 +8,14 @@ import pytest
 sys.path.insert(0, str(Path(__file__).resolve().parent))
 from textbook_mechanisms import TEXTBOOK  # noqa: E402
 
-from arrows import check_text  # noqa: E402
+from verdicts import findings, only  # noqa: E402
 
 
 def _codes(text: str) -> list:
-    _, diags = check_text(text, "case.mech")
-    return [d for d in diags if d.severity != "note"]
+    return findings(text)[1]
 
 
-def _only(text: str, code: str):
-    found = [d for d in _codes(text) if d.code == code]
-    assert len(found) == 1, [d.to_text() for d in _codes(text)]
-    return found[0]
+_only = only
 
 
 # --- 1. A proton thrown off with no base to take it (AR518) --------------------------------------

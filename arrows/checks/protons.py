@@ -18,7 +18,7 @@ from rdkit import Chem
 
 from ..diagnostics import Diagnostic
 from ..electrons import nameable
-from ..judgement.acidity import HYDROGEN, Acidity, acidity_of
+from ..judgement.acidity import HYDROGEN, PYRROLE_TYPE_N, Acidity, acidity_of, pyrrole_type_nitrogen
 from ..judgement.perception import Perceived, RecentViews
 from ..model import Location
 from ..trace import StepTrace
@@ -106,8 +106,67 @@ def proton_transfers(st: StepTrace, views: Optional[RecentViews] = None) -> list
         return []
     def acidity(view: Perceived, atom: int) -> Optional[Acidity]:
         return HYDROGEN if elements[atom] == 1 else _acidity(view, atom)   # H2, given up or made
-    return [ProtonTransfer(b, x, h, loc, acidity(acids, x), CARBOCATION if made else acidity(conjugates, b))
-            for b, x, h, loc, made in found]
+
+    def conjugate(base: int, made: bool) -> Optional[Acidity]:
+        if made:
+            return CARBOCATION
+        if elements[base] == 7 and _pyrrole_type(acids, base):
+            return PYRROLE_TYPE_N   # judged before the step: after it the ring is no longer aromatic
+        return acidity(conjugates, base)
+    return [ProtonTransfer(b, x, h, loc, acidity(acids, x), conjugate(b, made)) for b, x, h, loc, made in found]
+
+
+def _pyrrole_type(view: Perceived, atom: int) -> bool:
+    """Whether state atom `atom` is a pyrrole-type nitrogen in the view (arrows.judgement.acidity)."""
+    position = view.position(atom)
+    return position is not None and pyrrole_type_nitrogen(view.mol, position)
+
+
+def _better_site(st: StepTrace, view: Perceived, nitrogen: int, hydrogen: int) -> str:
+    """AR508's hint for a proton put on a pyrrole-type nitrogen: the site of the same ring that
+    takes it (common practice; values from memory): an azole's pyridine-type N (imidazole's
+    conjugate acid 7.0), else a pyrrole's C2 (-3.8, Joule & Mills) or an indole's C3 (about -3.5):
+    the carbon next to N, or one further along when the other carbon next to N is a ring fusion."""
+    mol, label, before = view.mol, st.before.label, st.before
+    position = view.position(nitrogen)
+    lead = f"{label(nitrogen)}'s lone pair is part of the aromatic sextet"
+    rings = [r for r in mol.GetRingInfo().AtomRings() if position in r and len(r) == 5]
+    if not rings:
+        return f"{lead}: another site takes the proton"
+    ring, state = rings[0], view.original
+    h = label(hydrogen) if nameable(before.mol, hydrogen) else None
+    for k in ring:
+        a = mol.GetAtomWithIdx(k)
+        if k != position and a.GetAtomicNum() == 7 and a.GetIsAromatic() and a.GetFormalCharge() == 0 \
+                and a.GetTotalDegree() == 2:
+            n = state[k]
+            where = (f"{label(n)}" + (f", `:{label(n)} -> {h}`" if h else "") if nameable(before.mol, n) else
+                     "the ring N with no hydrogen or substituent (give it a map number to draw the arrow)")
+            return (f"{lead}. An azole takes a proton at its pyridine-type N (imidazole's conjugate acid has pKa 7.0, "
+                    f"memory): {where}")
+    info = mol.GetRingInfo()
+    alpha = [n.GetIdx() for n in mol.GetAtomWithIdx(position).GetNeighbors() if n.GetIdx() in ring]
+    fused = [k for k in alpha if info.NumAtomRings(k) > 1]
+    if len(alpha) != 2 or len(fused) == 2 or any(mol.GetAtomWithIdx(k).GetAtomicNum() != 6 for k in alpha):
+        return f"{lead}: the ring takes a proton elsewhere, on carbon, and only from a strong acid"
+    if fused:   # an indole: the carbon beyond the free alpha carbon, C3
+        free = next(k for k in alpha if k not in fused)
+        site = next(n.GetIdx() for n in mol.GetAtomWithIdx(free).GetNeighbors()
+                    if n.GetIdx() in ring and n.GetIdx() != position)
+        kind, number, value, words = "An indole", "C3", "about -3.5", "the five-membered ring's carbon two bonds from"
+    else:
+        site = min(alpha, key=lambda k: (mol.GetAtomWithIdx(k).GetTotalNumHs() == 0, k))
+        kind, number, value, words = "A pyrrole", "C2", "-3.8; Joule & Mills", "the ring carbon next to"
+    carbon = state[site]
+    partner = next((b.GetOtherAtomIdx(carbon) for b in before.mol.GetAtomWithIdx(carbon).GetBonds()
+                    if b.GetBondTypeAsDouble() == 2 and before.elements[b.GetOtherAtomIdx(carbon)] == 6), None)
+    if nameable(before.mol, carbon) and partner is not None and nameable(before.mol, partner) and h:
+        c, d = label(carbon), label(partner)
+        where = f"{c}, with the pi pair of {c}={d}: `{c}={d} -> {c}-{h}`"
+    else:
+        where = f"{words} {label(nitrogen)} ({number}; give it a map number to draw the arrow)"
+    return (f"{lead}. {kind} takes a proton on carbon, and only from a strong acid (its conjugate acid has pKa "
+            f"{value}, memory): at {where}")
 
 
 # The C-H beside a carbocation (a protonated alkene) as an acid: no tabulated aqueous value; an
@@ -212,10 +271,23 @@ class UphillProtonTransfers(Check):
         gap = self.gap
         for t in proton_transfers(st, context.views):
             uphill = t.uphill
-            if uphill is None or uphill <= gap:
-                continue
             base, acid = t.conjugate_acid, t.acid
+            # A proton put on a pyrrole-type N is judged uphill at all, not against the gap: the same
+            # ring holds a site that takes it instead (its N3, or C2), far more basic in the gas phase
+            # (arrows.judgement.acidity), and -4 is only an upper bound on that cation's pKa.
+            if uphill is None or uphill <= (0.0 if base is PYRROLE_TYPE_N else gap):
+                continue
             label_b, label_x = st.before.label(t.base_atom), st.before.label(t.acid_atom)
+            if base is PYRROLE_TYPE_N:
+                yield Diagnostic(
+                    "AR508",
+                    f"{label_b}, a pyrrole-type nitrogen whose lone pair is part of the aromatic sextet, taking "
+                    f"{acid.site} ({acid.shown}): its N-protonated cation is no longer aromatic, a stronger acid than "
+                    f"pyrrole's conjugate acid (-3.8, protonated on carbon): uphill by about {uphill:.0f} pKa "
+                    f"units or more ({label_b} takes the proton of {label_x})",
+                    t.loc, hint=_better_site(st, context.views.of(st.before), t.base_atom, t.hydrogen),
+                    atoms=(label_b, label_x), step=st.index)
+                continue
             if base is CARBOCATION:
                 yield Diagnostic(
                     "AR508",

@@ -155,11 +155,31 @@ def _unstabilised_carbanion(mol, i: int) -> bool:
     return halogens < 2
 
 
-def _nucleophile_at(change, elements, atom: int) -> Optional[int]:
-    """The carbon or hydrogen whose own pair (a carbanion's lone pair, an organometallic's C-M bond,
-    a B-H or Al-H bond) makes a new bond to `atom` in this step, if any."""
+def _nucleophile_at(change, elements, atom: int, kinds: tuple[int, ...] = (1, 6)) -> Optional[int]:
+    """The atom of an element in `kinds` whose own pair makes a new bond to `atom` in this step, if
+    any: by default a carbon or hydrogen (a carbanion's lone pair, an organometallic's C-M bond, a
+    B-H or Al-H bond)."""
     partner = change.attacker(atom)
-    return partner if partner is not None and elements[partner] in (1, 6) else None
+    return partner if partner is not None and elements[partner] in kinds else None
+
+
+# Nucleophiles judged at the wrong end of a C=O, C=N, C#N or ketene: carbon and hydride (umpolung
+# aside, common practice), and the O, N and S nucleophiles (water, an alcohol, an amine, a
+# carboxylate, a thiol) that add at the carbon of a nitrilium ion, an iminium ion, an isocyanate,
+# a carbodiimide or a ketene (Clayden, from memory). A phosphorus nucleophile is not among them:
+# a phosphite bonds to the oxygen of an alpha-dicarbonyl (the Kukhtin-Ramirez adduct, memory).
+_WRONG_END_NUCLEOPHILES = (1, 6, 7, 8, 16)
+
+
+def _cumulated_to(mol, carbon: int, other: int) -> Optional[int]:
+    """The O or N that `carbon` is double-bonded to besides `other`: carbon is the centre of a
+    ketene (C=C=O) or a ketenimine (C=C=N), left an acyl or imidoyl anion when the C=C pair is
+    pushed onto it."""
+    for bond in mol.GetAtomWithIdx(carbon).GetBonds():
+        far = bond.GetOtherAtomIdx(carbon)
+        if far != other and bond.GetBondTypeAsDouble() == 2 and mol.GetAtomWithIdx(far).GetAtomicNum() in (7, 8):
+            return far
+    return None
 
 
 def _pi_pair_onto_carbon(st: StepTrace) -> Iterator[Diagnostic]:
@@ -167,7 +187,9 @@ def _pi_pair_onto_carbon(st: StepTrace) -> Iterator[Diagnostic]:
     nothing to hold its charge: a C=O pair sent to its carbon (the nucleophile drawn onto the
     oxygen), an enone's C=C pair sent to the carbon away from the carbonyl. A polar pi bond gives
     its pair to the more electronegative atom, and a C=C pair goes on into a bond or toward an
-    acceptor (common practice). A resonance step is not judged."""
+    acceptor (common practice). Where a nucleophile (C, H, N, O or S) bonds to the O or N end, or
+    to the CH2 end of a ketene, it is judged whatever would hold the carbanion: it adds at the
+    carbon. A resonance step is not judged."""
     if st.step.kind == "resonance":
         return
     change, after = st.change, st.after
@@ -182,21 +204,43 @@ def _pi_pair_onto_carbon(st: StepTrace) -> Iterator[Diagnostic]:
         if after.mol.GetBondBetweenAtoms(carbon, other) is None or after.nonbonding[carbon] != 2:
             continue   # a sigma bond broken (a leaving group: AR510's)
         c, o = after.label(carbon), after.label(other)
-        attacker = _nucleophile_at(change, after.elements, other) if after.elements[other] in (7, 8) else None
+        attacker = centre = None
+        if after.elements[other] in (7, 8):
+            attacker = _nucleophile_at(change, after.elements, other, _WRONG_END_NUCLEOPHILES)
+        elif after.elements[other] == 6:
+            centre = _cumulated_to(after.mol, carbon, other)
+            if centre is not None:
+                attacker = _nucleophile_at(change, after.elements, other, _WRONG_END_NUCLEOPHILES)
         if attacker is not None:
-            # A carbon nucleophile (or a hydride) bonded to the O of C=O or the N of C=N / C#N, its
-            # pi pair sent onto the carbon: the polarity is backwards whatever then holds the
-            # carbanion (a benzylic one, an acyl or imidoyl anion). Nucleophiles add at the carbon.
-            n = st.before.label(attacker)
-            order = st.before.mol.GetBondBetweenAtoms(carbon, other).GetBondTypeAsDouble()
-            symbol = ("#" if order == 3 else "=") + after.mol.GetAtomWithIdx(other).GetSymbol()
+            n, bond = st.before.label(attacker), move.move.source
             attack = next(m for m in change.moves if attacker in m.source_atoms and set(m.sink_atoms) == {attacker, other})
             instead = f"`:{n} -> {c}`" if attack.source_kind == "lone_pair" else f"`{attack.move.source} -> {c}-{n}`"
+            if centre is not None:
+                # A nucleophile bonded to the CH2 end of a ketene (or a ketenimine), the C=C pair
+                # sent onto the central carbon, which is left an acyl (imidoyl) anion: an alcohol
+                # or an amine adds at the central carbon, the pair going to the CH2 end as an
+                # enolate (the Wolff rearrangement's ketene trapped; Clayden, from memory).
+                kind, anion, made = (("ketene", "an acyl", "an enolate") if after.elements[centre] == 8
+                                     else ("ketenimine", "an imidoyl", "an aza-enolate"))
+                yield Diagnostic(
+                    "AR514", f"{n} bonds to {o} and the pi pair of {bond} goes onto {c}, making {anion} anion: "
+                    f"backwards, a nucleophile adds at the central carbon of a {kind}, {c} (the carbon of "
+                    f"{c}={after.label(centre)})", move.move.loc,
+                    hint=f"{n} adds at {c}: {instead}, and the pair of {bond} goes to {o} (`{bond} -> {o}`), "
+                         f"making {made}",
+                    atoms=(c, o, n), step=st.index)
+                continue
+            # A nucleophile bonded to the O of C=O or the N of C=N / C#N (a carbanion, a hydride,
+            # or water, an alcohol, an amine, a carboxylate at the N of a nitrilium or iminium
+            # ion, an isocyanate or a carbodiimide), its pi pair sent onto the carbon: the polarity
+            # is backwards whatever then holds the carbanion (a benzylic one, an acyl or imidoyl
+            # anion, an N+ beside it). Nucleophiles add at the carbon.
+            order = st.before.mol.GetBondBetweenAtoms(carbon, other).GetBondTypeAsDouble()
+            symbol = ("#" if order == 3 else "=") + after.mol.GetAtomWithIdx(other).GetSymbol()
             yield Diagnostic(
                 "AR514", f"{n} bonds to {o} and a pi pair of {c}-{o} goes onto {c}, making a carbanion: backwards, "
                 f"a nucleophile adds at the carbon of a C{symbol} bond", move.move.loc,
-                hint=f"the pair of a C{symbol} bond goes to {o} (`{move.move.source} -> {o}`), and {n} adds at "
-                     f"{c}: {instead}",
+                hint=f"the pair of a C{symbol} bond goes to {o} (`{bond} -> {o}`), and {n} adds at {c}: {instead}",
                 atoms=(c, o, n), step=st.index)
             continue
         if not _unstabilised_carbanion(after.mol, carbon):

@@ -131,6 +131,26 @@ TABLE: tuple[Acidity, ...] = (
 )
 
 
+# A nitrogen whose lone pair is part of an aromatic sextet (pyrrole's, indole's, the N-H nitrogen of
+# imidazole or pyrazole) as a base, judged on the state before the step: its N-protonated cation is
+# no longer aromatic, not an ammonium ion. Pyrrole's conjugate acid has pKa -3.8, and that is the
+# cation protonated at C2 (Joule & Mills, Heterocyclic Chemistry; memory): the N-protonated one is a
+# stronger acid still, so -4 is an upper bound. Computed gas-phase proton affinities put pyrrole's N
+# 80 kJ/mol below its C2 and imidazole's N1 217 kJ/mol below its N3 ("Protonation sites in gaseous
+# pyrrole and imidazole: a neutralization-reionization and ab initio study", MP2/6-311G(2d,p)).
+PYRROLE_TYPE_N = Acidity("an N-protonated pyrrole-type nitrogen", "a pyrrole-type nitrogen", "[nX3+0]", -4,
+                         "below -4", "upper bound: pyrrole's conjugate acid, protonated at C2, -3.8 (memory)")
+
+
+def pyrrole_type_nitrogen(mol: Chem.Mol, atom: int) -> bool:
+    """Whether `atom` of `mol` (perceived) is a neutral aromatic nitrogen with three connections
+    (hydrogens counted): its lone pair is part of the aromatic sextet, as in pyrrole, indole or the
+    N-H nitrogen of an azole, not a pyridine-type nitrogen (two connections) holding its pair in the
+    ring's plane."""
+    a = mol.GetAtomWithIdx(atom)
+    return a.GetAtomicNum() == 7 and a.GetIsAromatic() and a.GetFormalCharge() == 0 and a.GetTotalDegree() == 3
+
+
 # H2 as an acid (hydride's conjugate acid), judged by element: the perceived view leaves the
 # molecule out, and no SMARTS of the table is about a hydrogen atom.
 HYDROGEN = Acidity("H2", "a hydride ion", "[#1][#1]", 35, "~35", NOT_LISTED)
