@@ -750,6 +750,45 @@ def _overfilling_order_hint(state: ElectronState, replay: _StepReplay, key: Pair
                    f"is missing")
 
 
+def _other_donor_hint(state: ElectronState, replay: _StepReplay, key: Pair, changes: dict[Pair, tuple[int, int]],
+                      written: int, actual: int) -> Optional[str]:
+    """AR208's hint for a lone pair of an O or N, X, pushed into X=Y, a bond that already has the
+    order written (`:O7 -> C6=O7` on a carbonate's C=O), where the order the moves give would leave
+    X beyond +1, or an oxygen at +1 in a triple bond (C#O+). When Y holds another O or N, negative
+    and single-bonded, its pair makes the bond written (`:O5 -> C6=O5`: the carbonate loses CO2;
+    common practice: the push of a fragmentation starts at the negative atom, not at the C=O beside
+    it). An acylium ion (C#O+ with no such neighbour) is left to the usual hint."""
+    if actual <= written or replay.bond_before(*key) // 2 != written:
+        return None
+    label = state.label
+    for m in replay.resolved:
+        if m.source_kind != "lone_pair" or m.electrons != 2 or pair(*m.sink_atoms) != key:
+            continue
+        x = m.source_atoms[0]
+        y = key[0] if key[1] == x else key[1]
+        if state.elements[x] not in (7, 8):
+            continue
+        bonds_after = state.bond_sums[x] + sum(after - before for b, (before, after) in changes.items() if x in b) // 2
+        charge = state.valence[x] - state.nonbonding[x] - replay.d_nonbonding.get(x, 0) - bonds_after
+        if charge < 1 or (charge == 1 and (actual < 3 or state.elements[x] == 7)):
+            continue   # an oxocarbenium, iminium, nitrilium or acylium the author wrote at too low an order
+        donors = [n.GetIdx() for n in state.mol.GetAtomWithIdx(y).GetNeighbors()
+                  if n.GetIdx() != x and state.elements[n.GetIdx()] in (7, 8) and state.formal_charge(n.GetIdx()) < 0
+                  and state.nonbonding[n.GetIdx()] >= 2 and replay.bond_before(y, n.GetIdx()) // 2 + 1 == written
+                  and pair(y, n.GetIdx()) not in changes and nameable(state.mol, n.GetIdx())]
+        proposed = f"{label(y)}{CONNECTORS[actual]}{label(x)}" if actual in CONNECTORS else f"{label(y)}-{label(x)}"
+        what = (f"writing `{proposed}` would put {label(x)} at {charge:+d}"
+                f"{' in a triple bond' if actual == 3 else ''}; {label(y)}{CONNECTORS[written]}{label(x)} is already "
+                f"{order_word(written)}")
+        if donors:
+            d = donors[0]
+            return (f"{what}, so the arrow that makes a {order_word(written)} bond to {label(y)} starts at the "
+                    f"negative {label(d)}: `:{label(d)} -> {label(y)}{CONNECTORS[written]}{label(d)}`")
+        if charge > 1:
+            return f"{what}: do not write that order; the pair most likely comes from another atom's lone pair"
+    return None
+
+
 def _rewrite(bond: BondRef, order: int) -> str:
     return str(BondRef(bond.first, bond.second, order)) if order in CONNECTORS else str(bond)
 
@@ -789,7 +828,8 @@ def _settle(state: ElectronState, step: Step, step_index: int, replay: _StepRepl
     for key, written, loc, text in replay.written_sinks:
         actual = (changes[key][1] if key in changes else replay.bond_before(*key)) // 2
         if actual != written and not any(d.code in ("AR303", "AR302") for d in diags):
-            hint = _overfilling_order_hint(state, replay, key, changes, actual) or (
+            hint = _overfilling_order_hint(state, replay, key, changes, actual) \
+                or _other_donor_hint(state, replay, key, changes, written, actual) or (
                 f"write the bond as it is after the step"
                 f"{': `' + _rewrite(text, actual) + '`' if actual in CONNECTORS else ''}")
             if replay.bond_before(*key) == 0 and written > actual:
@@ -1051,14 +1091,27 @@ def _room_making_hint(state: ElectronState, i: int, changes: dict[Pair, tuple[in
             return f"a bond to {label(i)} must break in the same step: its pi bond to {_needs_map_number(label(j))}"
         bond = f"{label(i)}{'=' if order == 2 else '#'}{label(j)}"
         short = _short_of_a_pair(state, changes, replay, exclude=(i, j))
-        if short is not None:
-            # The missing arrow of a concerted step: the pair goes on to the atom the step leaves
-            # with six electrons (a Claisen shift's oxygen, a Diels-Alder's diene end).
-            bonded = state.mol.GetBondBetweenAtoms(j, short)
-            order_after = (int(bonded.GetBondTypeAsDouble()) if bonded is not None else 0) + 1
-            connector = "=" if order_after == 2 else "#" if order_after == 3 else "-"
+        bonded = state.mol.GetBondBetweenAtoms(j, short) if short is not None else None
+        if bonded is not None:
+            # The missing arrow of a concerted step: the pair goes on into the bond to the atom the
+            # step leaves with six electrons (a Claisen shift's oxygen, a Diels-Alder's diene end).
+            connector = "=" if int(bonded.GetBondTypeAsDouble()) == 1 else "#"
             return (f"a bond to {label(i)} must break in the same step: its pi bond, whose pair goes to "
                     f"{label(short)}, left short of a pair by this step: `{bond} -> {label(j)}{connector}{label(short)}`")
+        if short is not None and all(m.source_kind == "bond" and len(m.sink_atoms) == 2 for m in replay.resolved) \
+                and not _within_bonds(state, changes, j, short, 2):
+            # A concerted step whose every arrow runs from a bond into a bond (a Diels-Alder with the
+            # dienophile's arrow left out): the missing arrow closes the loop with a new bond.
+            return (f"a bond to {label(i)} must break in the same step: its pi bond, whose pair goes to "
+                    f"{label(short)}, left short of a pair by this step: `{bond} -> {label(j)}-{label(short)}`")
+        if short is not None:
+            # Anywhere else a new bond from the pi bond's far end to the atom left short is one no
+            # arrow of the step is about (a three-membered ring in a Curtius shift drawn to the wrong
+            # nitrogen, a bond to another molecule): an arrow of the step most likely ends at the
+            # wrong atom.
+            misplaced = _misplaced_arrow_hint(state, changes, replay, i, short)
+            if misplaced:
+                return misplaced
         return f"a bond to {label(i)} must break in the same step: its pi bond, for example `{bond} -> {label(j)}`"
     if kept and state.elements[i] == 1:
         # A hydrogen taken by a base, whatever holds it (an O-H, the C-H of a formate): the pair
@@ -1093,6 +1146,67 @@ def _room_making_hint(state: ElectronState, i: int, changes: dict[Pair, tuple[in
         return (f"a bond to {label(i)} must break in the same step: the bond to a leaving group, for example "
                 f"`{bond} -> {label(leaving[0])}`")
     return None
+
+
+def _misplaced_arrow_hint(state: ElectronState, changes: dict[Pair, tuple[int, int]], replay: _StepReplay,
+                          i: int, short: int) -> Optional[str]:
+    """For atom i overfull while the step leaves atom `short` with six electrons: the arrow that
+    belongs at `short` and was drawn to i. Either a new bond to i (a group migrating to the atom
+    that also takes the leaving group's pair, a nucleophile adding to the wrong carbon: the bond
+    belongs at the atom left short), or the pair of the bond i-short sent onto i (it belongs on
+    the atom it would otherwise leave short). None when neither is written, or the new bond
+    would close a ring of three or four atoms."""
+    label, mol = state.label, state.mol
+    if not nameable(mol, short):
+        return None
+    for m in replay.resolved:
+        if m.electrons != 2 or len(m.sink_atoms) != 2 or i not in m.sink_atoms:
+            continue
+        k = m.sink_atoms[0] if m.sink_atoms[1] == i else m.sink_atoms[1]
+        if replay.bond_before(i, k) or k == short or short in m.source_atoms or not nameable(mol, k) \
+                or replay.bond_before(k, short) or _within_bonds(state, changes, k, short, 3, (k, i)):
+            continue
+        move = m.move
+        sink = label(short) if isinstance(move.sink, AtomSink) else f"{label(k)}-{label(short)}"
+        rewritten = f"`{move.source} -> {sink}`"
+        gives = next((g for g in replay.resolved if g.source_kind == "bond" and set(g.source_atoms) == {i, short}
+                      and g.sink_atoms == (i,)), None)
+        if gives is not None and m.source_kind == "bond":
+            # A 1,2-shift onto a leaving group's atom: the group goes where the pair leaves from.
+            return (f"{label(i)} takes the pair of {label(short)}-{label(i)} as that bond breaks, so it cannot also "
+                    f"take the new bond from {label(k)}: a group migrates to the atom the leaving pair leaves, "
+                    f"{label(short)}, left short of a pair by this step: {rewritten}")
+        return (f"{label(i)} has no room for the new bond from {label(k)}, while this step leaves {label(short)} "
+                f"short of a pair: the arrow most likely belongs at {label(short)}: {rewritten}")
+    for m in replay.resolved:
+        if m.source_kind == "bond" and set(m.source_atoms) == {i, short} and m.sink_atoms == (i,) \
+                and ELECTRONEGATIVITY.get(state.elements[short], 0.0) >= ELECTRONEGATIVITY.get(state.elements[i], 0.0):
+            return (f"`{m.move}` gives {label(i)} a pair it has no room for, while {label(short)} is left short of "
+                    f"one: the pair of {m.move.source} goes to {label(short)}: `{m.move.source} -> {label(short)}`")
+    return None
+
+
+def _within_bonds(state: ElectronState, changes: dict[Pair, tuple[int, int]], a: int, b: int, most: int,
+                  dropped: tuple[int, int] = (-1, -1)) -> bool:
+    """Whether heavy atoms a and b are at most `most` bonds apart after the step (the bond
+    `dropped` left out): a bond between them would close a ring of at most most + 1 atoms."""
+    gone = {pair(x, y) for (x, y), (_, after) in changes.items() if after == 0} | {pair(*dropped)}
+    made: dict[int, set[int]] = {}
+    for (x, y), (before, after) in changes.items():
+        if before == 0 and after and state.elements[x] != 1 and state.elements[y] != 1:
+            made.setdefault(x, set()).add(y)
+            made.setdefault(y, set()).add(x)
+    reached, frontier = {a}, {a}
+    for _ in range(most):
+        ahead = set()
+        for x in frontier:
+            near = {n.GetIdx() for n in state.mol.GetAtomWithIdx(x).GetNeighbors() if n.GetAtomicNum() != 1}
+            ahead |= {y for y in near | made.get(x, set()) if pair(x, y) not in gone}
+        if b in ahead:
+            return True
+        frontier = ahead - reached
+        reached |= ahead
+    return False
 
 
 def _needs_map_number(atom: str) -> str:

@@ -3,7 +3,7 @@ from __future__ import annotations
 
 import re
 from dataclasses import dataclass, field
-from typing import Iterator, Optional
+from typing import Iterator, Optional, Sequence
 
 from rdkit import Chem
 
@@ -226,13 +226,30 @@ def _fragment_of(mol: Chem.Mol, index: int) -> set[int]:
     return {index}
 
 
-def _smaller_than_another(state: ElectronState, fragment: set[int], released: set[int]) -> bool:
-    """Whether some molecule of `state` outside `fragment` and not released has more heavy atoms."""
+def _smaller_than_another(state: ElectronState, fragment: set[int], released: set[int],
+                          counted: Optional[set[int]] = None) -> bool:
+    """Whether some molecule of `state` outside `fragment` and not released has more heavy atoms;
+    with `counted`, only a molecule holding one of those atoms counts."""
     elements = state.elements
     heavy = sum(1 for i in fragment if elements[i] != 1)
     return any(sum(1 for i in frag if elements[i] != 1) > heavy
                for frag in Chem.GetMolFrags(state.mol, asMols=False, sanitizeFrags=False)
-               if not fragment & set(frag) and not released.issuperset(frag))
+               if not fragment & set(frag) and not released.issuperset(frag)
+               and (counted is None or not counted.isdisjoint(frag)))
+
+
+def _atoms_named_after(mechanism: Mechanism, index: int, map_index: dict[int, int]) -> set[int]:
+    """The atoms (by index, of those in the drawing now) that the arrows of the steps after step
+    `index` name: the molecules the mechanism goes on with."""
+    numbers = set()
+    for step in mechanism.steps[index + 1:]:
+        for move in step.moves:
+            ends = []
+            for part in (move.source, move.sink):
+                bond = getattr(part, "bond", None)
+                ends.extend((bond.first, bond.second) if bond is not None else (part.atom,))
+            numbers.update((end.parent if isinstance(end, HydrogenOn) else end).map_number for end in ends)
+    return {map_index[n] for n in numbers if n in map_index}
 
 
 class Replay:
@@ -326,7 +343,8 @@ class Replay:
                 diags.extend(step_diags)
                 released_now: list[int] = []
                 if after is not None and step.releases:
-                    after, released_now = self._release(after, step, index, map_index, change.touched_atoms)
+                    after, released_now = self._release(after, step, index, map_index, change.touched_atoms,
+                                                         change.moves)
                 self.steps_replayed += 1
                 if after is not None and index == len(mechanism.steps) - 1:
                     self.final = after
@@ -336,7 +354,7 @@ class Replay:
                 state = after
 
     def _release(self, after: ElectronState, step: Step, index: int, map_index: dict[int, int],
-                 touched: list[int]) -> tuple[ElectronState, list[int]]:
+                 touched: list[int], moves: Sequence = ()) -> tuple[ElectronState, list[int]]:
         released = set(after.released)
         released_now: list[int] = []
         for ref in step.releases:
@@ -362,7 +380,13 @@ class Replay:
                 continue
             fragment = _fragment_of(after.mol, atom_index) - released
             reacted = len(touched) > 1 and fragment.issuperset(touched)
-            if (reacted or not touched) and len(fragment) > 1 and not _smaller_than_another(after, fragment, released):
+            # A larger molecule that stays excuses a release only if the step made the fragment
+            # whole (every heavy atom touched: Ag+ and Br- joined), or the mechanism goes on with
+            # that molecule: a spectator, or a by-product no later arrow touches, says nothing.
+            counted = None if not reacted or all(after.elements[a] == 1 or a in touched for a in fragment) \
+                else _atoms_named_after(self.mechanism, index, map_index)
+            if (reacted or not touched) and len(fragment) > 1 and not _smaller_than_another(after, fragment, released,
+                                                                                              counted):
                 # A fragment that leaves is a piece the step's arrows split off (a leaving group)
                 # or a partner they left whole (a base that took its proton); one that holds every
                 # atom they touched is the molecule that reacted: a bond to the atom named was
@@ -374,12 +398,16 @@ class Replay:
                         if after.elements[n.GetIdx()] != 1]
                 holder = next((n for n in near if n in touched), None) if touched else next(iter(near), None)
                 bond = f"{after.label(holder)}-{name}" if holder is not None else "its bond"
+                took_pi = holder is not None and any(m.source_kind == "bond" and set(m.source_atoms) == {holder, atom_index}
+                                                     for m in moves)
                 what = (f"the molecule this step's arrows act on ({len(fragment)} atoms, every atom they touch "
                         f"among them)" if reacted else f"the largest molecule left ({len(fragment)} atoms): no arrow "
                         f"breaks {name}'s bond to it")
                 self.diagnostics.append(Diagnostic(
                     "AR512", f"`releases {name}` takes away {what}", ref.loc,
-                    hint=f"if {name} leaves, break {bond} with an arrow (`{bond} -> {name}`), in this step "
+                    hint=(f"the arrow from {bond} takes only one pair of a multiple bond, and {bond} stays: if "
+                          f"{name} leaves, draw first the form in which {bond} is single (a resonance step)")
+                    if took_pi else f"if {name} leaves, break {bond} with an arrow (`{bond} -> {name}`), in this step "
                          f"or the next" if holder is not None else f"if {name} leaves, break its bond first",
                     step=index, atoms=(name,)))
             released_now.extend(sorted(fragment))

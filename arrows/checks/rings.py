@@ -102,10 +102,16 @@ def _electrocyclic(st: StepTrace, path: tuple[int, ...]) -> bool:
     """Whether every arrow starts at a bond and the step changes every atom of the ring it closes:
     a conjugated array closing on itself, the charge of an ion moved along it (a Nazarov closure of
     a protonated dienone, an allyl to cyclopropyl cation). A C=C pair onto a cation at the end of a
-    saturated chain leaves chain atoms untouched: a polar closure."""
+    saturated chain leaves chain atoms untouched: a polar closure. So is a closure that breaks a
+    bond to an atom off the ring, its pair left there (a C=C pair displacing chloride, an enolate's
+    closure to a cyclopropanone): a leaving group goes as an ion, no cyclic array of electrons."""
     change = st.change
-    return bool(path) and all(m.source_kind == "bond" and m.electrons == 2 for m in change.moves) \
-        and set(path) <= set(change.touched_atoms)
+    if not path or not all(m.source_kind == "bond" and m.electrons == 2 for m in change.moves) \
+            or not set(path) <= set(change.touched_atoms):
+        return False
+    broken = {frozenset(b) for b in change.broken}
+    return not any(len(m.sink_atoms) == 1 and m.sink_atoms[0] not in path and frozenset(m.source_atoms) in broken
+                   for m in change.moves)
 
 
 def _migrates(st: StepTrace, i: int, j: int, path: tuple[int, ...]) -> bool:
