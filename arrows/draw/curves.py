@@ -52,6 +52,8 @@ _MAX_TURN = math.radians(180)   # an arc turning further than this curls back on
 _CURL_WEIGHT = 0.5              # penalty per degree beyond _MAX_TURN
 _LOOP_STANDOFF = 0.45           # bond lengths: a turned-back arc standing further off its chord is a loop
 _SELF_CROSSING = math.radians(240)   # an arc turning this far crosses itself
+_OFF_SYMBOL = 15.0              # penalty of a hook whose head reads as the label's H's, not its atom's
+_LABELLED_HOOK = 0.6            # bond lengths: how deep a hook between two labels stands off its bond
 _HOOK_LENGTH = 0.9              # bond lengths: the shortest path that reads as an arc from a bond to its own atom
 _SHORT_HOOK = 30.0              # penalty per bond length such an arrow falls short of that
 _TICK = 4.0                     # penalty of a plain arc where a pair goes from a bond to its own atom
@@ -585,9 +587,11 @@ class ArrowPlanner:
         if not _to_own_atom(move):
             return []
         out = []
-        h = 0.4 * self.bl
         atom = snk.atoms[0]
         other, = (a for a in src.atoms if a != atom)
+        # Between two labels (H-OMe) the bond's stroke is short: a hook of the usual depth under
+        # it reads as a tick, a deeper one as a half-loop.
+        h = (_LABELLED_HOOK if all(panel.atoms[a].box is not None for a in src.atoms) else 0.4) * self.bl
         along = unit(panel.positions[other] - panel.positions[atom])   # from the atom down its bond
         for normal in (src.axis * 1j, src.axis * -1j):
             p0 = src.point + normal * (src.extent + 0.05 * self.bl)
@@ -615,6 +619,9 @@ class ArrowPlanner:
                 start = p0 + along * min(0.2 * self.bl, math.sqrt(max(0.0, (0.24 * self.bl) ** 2 - off ** 2)))
                 out.append(_Candidate(start, start + normal * 0.55 * self.bl,
                                       tip + (normal * 0.3 + along * 0.25) * self.bl, tip))
+        for hook in out:
+            if _nearer_the_rest(panel, atom, hook.tip):
+                hook.handicap += _OFF_SYMBOL
         return out
 
     def _reaches_over(self, c: _Candidate, atom: int, direction: complex, panel: PanelStructure) -> bool:
@@ -1125,6 +1132,17 @@ def _in_crook(pts: np.ndarray, sources: list[_Anchor], sinks: list[_Anchor], own
     seen = np.angle((middles.take(rows) - np.array(pivots)) / np.array(bisectors))
     out[rows] = np.abs(seen) < np.array(halves)
     return out
+
+
+def _nearer_the_rest(panel: PanelStructure, atom: int, point: complex) -> bool:
+    """Whether an arrowhead's tip at `point` lies nearer the rest of the atom's label (its H, a
+    charge) than its element symbol: the head would read as pointing at them (NH+'s H)."""
+    parts = panel.label_parts.get(atom)
+    if parts is None or not parts[1]:
+        return False
+    symbol, rest = parts
+    at = (point.real, point.imag)
+    return min(b.distance(at) for b in rest) < symbol.distance(at)
 
 
 def _parameters_at_distances(controls: np.ndarray, distances: np.ndarray) -> list[float]:
