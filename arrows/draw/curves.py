@@ -268,12 +268,12 @@ class ArrowPlanner:
             _split_bond_sides(w, options, pairs)
         chosen = [self._choose(options, pairs) for options, pairs in zip(kept, pair_costs)]
         # A short arrow gets a smaller head, so the head never swallows the curve; where the
-        # head's base and the shaft's end fall on each curve is found for all arrows at once.
+        # shaft's end falls on each curve (under the head) is found for all arrows at once.
         curves = [c for cands in chosen for c in cands]
         heads = [min(self.head_length, max(0.32 * c.length, 0.6 * self.head_length)) for c in curves]
-        at = _parameters_at_distances(controls.take([c.row for c in curves] * 2, axis=0),
-                                      np.array(heads + [0.65 * h for h in heads]))
-        ends = iter(zip(heads, at[:len(curves)], at[len(curves):]))
+        at = _parameters_at_distances(controls.take([c.row for c in curves], axis=0),
+                                      np.array([0.65 * h for h in heads]))
+        ends = iter(zip(heads, at))
         done = iter(zip(work, chosen))
         out = []
         for _, moves, _, _ in panels:
@@ -940,13 +940,15 @@ class ArrowPlanner:
 
     # the final arrow
     def _arrow(self, step: int, move: ResolvedMove, src: _Anchor, snk: _Anchor, c: _Candidate,
-               panel: PanelStructure, head: float, t_base: float, t_shaft: float) -> CurvedArrow:
-        """The arrow drawn along candidate c: its head `head` long, its base at parameter t_base,
-        the shaft ending under the head at t_shaft."""
+               panel: PanelStructure, head: float, t_shaft: float) -> CurvedArrow:
+        """The arrow drawn along candidate c: its head `head` long, the shaft ending under the
+        head at parameter t_shaft."""
         p0, p1, p2, tip = c.p0, c.p1, c.p2, c.tip
-        base = bezier(p0, p1, p2, tip, t_base)
-        direction = unit(tip - base)
         s0, s1, s2, s3 = split_before(p0, p1, p2, tip, t_shaft)
+        # The head points from where the shaft ends (under it) to the tip: taken from the curve's
+        # point at the head's base instead, a curve bending under the head left the shaft's end
+        # and its round cap standing out beside the head.
+        direction = unit(tip - s3)
         normal = direction * 1j
         back = tip - direction * head
         notch = tip - direction * 0.72 * head
