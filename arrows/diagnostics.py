@@ -339,7 +339,12 @@ CODES = _table(
     Code("AR508", WARNING, "uphill proton transfer",
          "The base's conjugate acid is much weaker than the acid it deprotonates. An alkene that "
          "takes a proton to make a bare carbocation is judged against an estimate for that "
-         "carbocation's C-H (~-10): only a strong acid protonates it. Not judged: a "
+         "carbocation's C-H (~-10): only a strong acid protonates it. A proton put on a nitrogen "
+         "whose lone pair is part of an aromatic sextet (pyrrole's, indole's, an azole's N-H nitrogen) "
+         "makes a cation that is no longer aromatic, judged against -4 (pyrrole's conjugate acid, "
+         "protonated at C2, is -3.8; memory) and warned on if uphill at all, whatever the threshold: "
+         "the same ring takes the proton elsewhere (an azole's pyridine-type N, a pyrrole's C2, an "
+         "indole's C3). Not judged: a "
          "proton beside a cation (E1, a protonated carbonyl's alpha C-H) or one whose loss makes "
          "its atom aromatic (an arenium ion or a sigma complex rearomatising).",
          'species acetone = "[CH3:1][C:2](=[O:3])[CH3:4]"\n'
@@ -360,10 +365,12 @@ CODES = _table(
          '    :N3 -> C2#N3\n'
          'end'),
     Code("AR510", WARNING, "leaving group that is a very strong base",
-         "A bond to carbon breaks with its pair going to an atom that is left as an anion whose "
+         "A bond to carbon, or to the phosphorus or sulfur of an onium ion or its adduct, breaks with its pair going to an atom that is left as an anion whose "
          "conjugate acid has a pKa of 35 or more (an amide ion R2N-, a carbanion with no neighbour "
          "to spread its charge, a hydride ion). Good leaving groups are weak bases (common practice); "
-         "such a group is protonated before it leaves, or its pair goes on into a bond in the same step.",
+         "such a group is protonated before it leaves, or its pair goes on into a bond in the same step. "
+         "At P or S, a carbanion pushed off as P=O forms (a phosphonium salt cleaved by base) and any oxygen "
+         "leaving are not judged.",
          'species adduct = "C[C:1]([O-:2])(C)[N:3](C)C"\n'
          'step "the amine leaves"\n'
          '    :O2 -> C1=O2\n'
@@ -384,7 +391,8 @@ CODES = _table(
          "every atom the step's arrows touch (or, in a step with no arrows, it is the largest molecule "
          "left): the atom meant to leave is still bonded to it (a leaving group whose bond the arrows "
          "do not break). A small molecule the step makes to let go while a larger one stays (silver "
-         "bromide from Ag+ and Br-) is not flagged.",
+         "bromide from Ag+ and Br-), or one released beside a larger molecule a later step goes on with, "
+         "is not flagged.",
          'species ester = "[CH3:1][C:2](=[O:3])[O:4][CH3:5]"\n'
          'species hydroxide = "[OH-:6]"\n'
          'step "addition"\n'
@@ -407,7 +415,12 @@ CODES = _table(
          "a carbanion with no pi bond, arene, onium, sulfur, phosphorus, silicon or pair of halogens "
          "beside it to take the charge. A polar pi bond gives its pair to its more electronegative "
          "atom (C=O to O; nucleophiles add at the carbon), and a C=C pair goes on into a bond or "
-         "toward an enone's carbonyl (common practice). Likewise a carbon nucleophile (an arene's pi pair, a "
+         "toward an enone's carbonyl (common practice). A nucleophile that bonds to the O or N of a C=O, "
+         "C=N or C#N (an iminium or nitrilium ion, an isocyanate, a carbodiimide), or to the CH2 end of a "
+         "ketene, while the pi pair goes onto the carbon is warned on whatever would then hold the "
+         "charge (an acyl or imidoyl anion, an N+ beside it): a carbanion, a hydride, water, an alcohol, "
+         "an amine or a carboxylate adds at the carbon (a phosphite on a diketone's O is not judged). "
+         "Likewise a carbon nucleophile (an arene's pi pair, a "
          "carbanion) or a hydride bonded to the oxygen of an N=O, P=O or S=O whose N, P or S holds no lone pair "
          "(the nitronium ion, SO3) while the pi pair goes onto that atom: the N, P or S is the electrophile "
          "(textbook nitration and sulfonation); a nitroso N or a sulfoxide S, which hold a lone pair, is not "
@@ -438,7 +451,8 @@ CODES = _table(
          '    C3-H -> C2-H(C3)   # tertiary C2+ to secondary C3+: uphill\n'
          'end'),
     Code("AR517", WARNING, "hydroxide or alkoxide leaving in acid",
-         "A bond from carbon to oxygen breaks, pushed by a neighbour, and the oxygen leaves as hydroxide "
+         "A bond from carbon, or from nitrogen (an oxime's or a hydroxylamine's N-O, as in a Beckmann step), "
+         "to oxygen breaks, pushed by a neighbour, and the oxygen leaves as hydroxide "
          "or an alkoxide while a strong acid (H3O+ or another oxonium ion, a hydrogen halide that no free "
          "amine makes a salt of, a sulfonic, sulfuric, perchloric or nitric acid, TFA) is present, or is "
          "made beside it in the same step. In "
@@ -545,6 +559,21 @@ CODES = _table(
          '    C1=C2 -> C1-C4\n'
          '    C4=C5 -> C5-H10\n'
          '    C2-H10 -> C2\n'
+         'end'),
+    Code("AR525", WARNING, "substitution at a carbonyl carbon in one step",
+         "A nucleophile bonds to the carbon of a C=O (an ester, an acid chloride or anhydride, an amide, "
+         "an activated acid) while a leaving group departs from that carbon in the same step, the C=O "
+         "kept: a substitution at a carbonyl carbon with no tetrahedral intermediate. Nucleophilic acyl "
+         "substitution goes by addition to the C=O, its pi pair going onto the oxygen, then loss of the "
+         "leaving group as the oxygen's pair re-forms the C=O (common practice; Clayden, from memory). "
+         "A step that moves the C=O pair (the addition or the collapse), a pericyclic step, a carbon "
+         "with two double bonds or a triple bond (a ketene, an isocyanate, CO2, an acylium ion), an "
+         "SN2 at an sp3 carbon and a C=N or C=C carbon are not judged.",
+         'species ester = "[CH3:1][C:2](=[O:3])[O:4][CH3:5]"\n'
+         'species hydroxide = "[OH-:6]"\n'
+         'step "substitution"   # add first (C2=O3 -> O3), then let O3 push O4 out\n'
+         '    :O6 -> C2\n'
+         '    C2-O4 -> O4\n'
          'end'),
     Code("AR601", NOTE, "ring closure",
          "A step closes a ring; its size and Baldwin class are given. A pericyclic step (every arrow "

@@ -575,6 +575,16 @@ TWINS = [
          'step "ene" under "heat"\n    C1=C2 -> C1-C4\n    C4=C5 -> C5-H10\n    C3-H10 -> C2=C3\nend\n',
          "C4=C5 -> C5-H10\n    C3-H10 -> C2=C3", "C4=C5 -> C5-H11\n    C2-H11 -> C2",
          "AR524", "C2-H11 -> C2", says=("carbene", "C2"), hint_says=("allylic", "carbanion")),
+    # Saponification of methyl acetate (Clayden, from memory; common practice): hydroxide adds to the
+    # C=O, its pi pair going onto O3 (the tetrahedral intermediate), then O3's pair re-forms the C=O
+    # as methoxide leaves. Both in one step, the C=O kept, skip the tetrahedral intermediate.
+    Twin("substitution at a carbonyl carbon in one step",
+         'species ester = "[CH3:1][C:2](=[O:3])[O:4][CH3:5]"\nspecies hydroxide = "[OH-:6]"\n'
+         'step "substitution"\n    :O6 -> C2\n    C2=O3 -> O3\nend\n'
+         'step "elimination"\n    :O3 -> C2=O3\n    C2-O4 -> O4\nend\n',
+         '    C2=O3 -> O3\nend\nstep "elimination"\n    :O3 -> C2=O3\n', "",
+         "AR525", "C2-O4 -> O4", says=("carbonyl carbon C2", "O4", "tetrahedral"),
+         hint_says=("`C2=O3 -> O3`", "`:O3 -> C2=O3`")),
 ]
 
 

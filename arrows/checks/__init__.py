@@ -59,7 +59,7 @@ def _registry() -> list[Check]:
     if not _CHECK_CLASSES:
         from .checkpoints import CheckpointsMatch
         from .conservation import ChargeAndAtomsConserved
-        from .leaving import StrongBaseLeavingGroups, TertiarySubstitution
+        from .leaving import ConcertedAcylSubstitution, StrongBaseLeavingGroups, TertiarySubstitution
         from .pericyclic import ForbiddenPericyclic
         from .protons import BareProtons, CarbeneFromCH, UphillProtonTransfers
         from .ring_eliminations import RingEliminationGeometry
@@ -72,7 +72,7 @@ def _registry() -> list[Check]:
         _CHECK_CLASSES.extend([SomethingToCheck, NothingAfterProduct, StepsHaveMoves, UnusualElectronCounts,
                                ChargeAndAtomsConserved, RingClosures, CheckpointsMatch, UphillProtonTransfers, BareProtons,
                                StereoChanges, MigrationAntiToLeavingGroup, CationShiftDirection, ShiftBetweenNeighbours,
-                               StrongBaseLeavingGroups, TertiarySubstitution,
+                               StrongBaseLeavingGroups, TertiarySubstitution, ConcertedAcylSubstitution,
                                WrittenConfigurationMatches, RingEliminationGeometry, ForbiddenPericyclic,
                                StrainedCumulenes, CarbeneFromCH])
     return [cls() for cls in _CHECK_CLASSES]

@@ -1,5 +1,7 @@
-"""Leaving groups that depart from carbon as very strong bases (AR510), hydroxide or an alkoxide
-left to ionise (AR515) or pushed out while a strong acid stands by (AR517).
+"""Leaving groups that depart from carbon, phosphorus or sulfur as very strong bases (AR510),
+hydroxide or an alkoxide left to ionise (AR515) or pushed out of carbon or nitrogen while a strong
+acid stands by (AR517); substitutions in one step at a tertiary carbon (AR520) or at a carbonyl
+carbon (AR525).
 
 A pair move from a bond to one of that bond's atoms (`C8-N20 -> N20`) breaks the bond and leaves
 the pair on that atom: a leaving group. A good leaving group is a weak base (common practice: the
@@ -14,6 +16,16 @@ broken outright (a pi pair moved onto an atom leaves nothing). A bond of a three
 four-membered ring is not judged: the strain released drives the opening, as in the Favorskii
 rearrangement, where the cyclopropanone's tetrahedral intermediate opens to a carbanion
 (textbook).
+
+At phosphorus and sulfur (a sulfonium or phosphonium ion, or its adduct) the same table judges
+the group that leaves: an amide ion leaving an aminophosphorane is protonated first (as the
+Staudinger reduction's amine leaves, March, from memory), and a carbon leaves a sulfonium ion only
+as the centre takes the pair, a nucleophile attacking that carbon (the Corey-Chaykovsky epoxide
+closure). A carbanion pushed off phosphorus as P=O forms is not judged: the alkaline cleavage of
+a phosphonium salt expels the group most stable as a carbanion so (March, from memory); nor is
+an oxygen leaving P or S (an oxide, O2-, is AR503's charge of -2). At nitrogen only AR517 speaks: an oxime's or a
+hydroxylamine's OH leaves as water once protonated (the Beckmann rearrangement in acid, Clayden,
+from memory).
 """
 from __future__ import annotations
 
@@ -30,11 +42,16 @@ from .protons import freed_protons
 
 STRONGEST_LEAVING_BASE = 35.0   # pKa of the conjugate acid from which a leaving group is flagged
 _JUDGED = (1, 6, 7, 8)   # H, C, N and O (as oxide, O2-): the elements whose anions can be this basic
+# The atoms they are judged leaving: carbon (AR510, AR515, AR517, AR522); the nitrogen of an oxime
+# or hydroxylamine (AR517 only); the phosphorus or sulfur of an onium ion or its adduct (AR510 only,
+# for carbon, nitrogen and hydrogen leaving).
+_CENTRES = (6, 7, 15, 16)
 # Hydroxide and alkoxides leave a carbon only when pushed (an E1cB, a tetrahedral intermediate's
 # alkoxide re-forming C=O): left to ionise alone into a carbocation, they are protonated first and
 # leave as water or an alcohol (common practice: the acid-catalysed E1 and SN1 of alcohols).
 _IONISING_OXYGEN_ACID = 14.0   # pKa of the conjugate acid (water 15.7, an alcohol ~16) from which AR515 speaks
 _ALKOXIDE_PKA = _IONISING_OXYGEN_ACID   # ...and AR522: hydroxide and alkoxides, not carboxylates or phenoxides
+_HALOGENS = (17, 35, 53)   # Cl, Br, I: a halogen a nucleophile can take as X+ (AR520's hint)
 
 
 def conjugate_acid(mol: Chem.Mol, atom: int) -> Optional[Acidity]:
@@ -108,9 +125,19 @@ class StrongBaseLeavingGroups(Check):
             if leaving not in move.source_atoms or elements[leaving] not in _JUDGED:
                 continue
             centre = move.source_atoms[1] if move.source_atoms[0] == leaving else move.source_atoms[0]
-            if (elements[centre] != 6 or (min(leaving, centre), max(leaving, centre)) not in broken
+            if (elements[centre] not in _CENTRES or (min(leaving, centre), max(leaving, centre)) not in broken
                     or after.formal_charge(leaving) >= 0):
                 continue
+            if elements[centre] == 7:
+                # An oxime's or hydroxylamine's N-O (the Beckmann, a Lossen): AR517 only.
+                if elements[leaving] == 8 and after.formal_charge(leaving) > -2:
+                    found = self._pushed_out_in_acid(st, move, leaving, centre, workup=False)
+                    if found is not None:
+                        yield found
+                continue
+            if elements[centre] != 6 and (elements[leaving] == 8 or (
+                    elements[leaving] == 6 and elements[centre] == 15 and _pushed_into_a_multiple_bond(st, centre))):
+                continue   # oxygen off P or S (an oxide is AR503's); a carbanion pushed off P as P=O forms
             if elements[leaving] == 1 and perceived(after.mol).GetAtomWithIdx(centre).GetIsAromatic():
                 continue   # a hydride that leaves as the ring turns aromatic again (the Chichibabin amination)
             ionised = after.formal_charge(centre) > 0 and after.nonbonding[centre] == 0
@@ -137,8 +164,12 @@ class StrongBaseLeavingGroups(Check):
                 continue
             if acid is None or acid.pka < STRONGEST_LEAVING_BASE:
                 continue
-            hint = _strong_base_hint(label(leaving), elements[leaving])
-            ring_heteroatom = _ring_heteroatom(st.before, leaving, centre) if elements[leaving] == 6 else None
+            if elements[centre] == 6:
+                hint = _strong_base_hint(label(leaving), elements[leaving])
+            else:
+                hint = _onium_hint(st, leaving, centre)
+            carbons = elements[leaving] == elements[centre] == 6
+            ring_heteroatom = _ring_heteroatom(st.before, leaving, centre) if carbons else None
             if ring_heteroatom is not None:
                 het = label(ring_heteroatom)
                 hint = (f"a small ring with a heteroatom opens at its bond to it (an epoxide at C-O, common practice): "
@@ -190,10 +221,13 @@ class StrongBaseLeavingGroups(Check):
                 leaving_move.move.loc, hint=hint, atoms=(label(leaving), label(centre), label(h)), step=st.index)
         return None
 
-    def _pushed_out_in_acid(self, st: StepTrace, move, leaving: int, centre: int) -> Optional[Diagnostic]:
+    def _pushed_out_in_acid(self, st: StepTrace, move, leaving: int, centre: int,
+                            workup: bool = True) -> Optional[Diagnostic]:
         """AR517 for hydroxide or an alkoxide pushed out of `centre` while a strong acid stands by
         (an epoxide's oxygen too: in acid it opens protonated). A carboxylate or phenoxide, a weak
-        base, leaves in acid too: not judged."""
+        base, leaves in acid too: not judged. With `workup`, an acid written among the species and
+        untouched so far may be a workup acid (after a Grignard); an oxime's N-O breaks in the acid
+        that catalyses it, so there the hint does not ask."""
         touched = set(st.change.touched_atoms)
         strong = _strong_acid(st.before, touched)
         if strong is None:
@@ -218,7 +252,7 @@ class StrongBaseLeavingGroups(Check):
             unnamed = " and ".join(label(a) for a in (leaving, site) if not nameable(mol, a))
             hint = (f"{protonate}: add a step before this one in which {label(leaving)} takes the proton of "
                     f"{label(site)} (give {unnamed} a map number to name it in a move)")
-        if site not in self.acted and site not in st.entered and site in range(st.before.mol.GetNumAtoms()):
+        if workup and site not in self.acted and site not in st.entered and site in range(st.before.mol.GetNumAtoms()):
             # There from the start, untouched so far: most likely a workup acid written among the species.
             hint = (f"if {label(site)} is a workup acid, bring it in with `uses` in the step where it acts; "
                     f"otherwise {hint[0].lower()}{hint[1:]}")
@@ -321,6 +355,30 @@ def _strong_base_hint(leaving: str, element: int) -> str:
             f"or let its pair go on into a bond in this step")
 
 
+def _pushed_into_a_multiple_bond(st: StepTrace, centre: int) -> bool:
+    """Whether a bond to `centre` gains order in this step (an oxide's pair making P=O)."""
+    return any(centre in bond and new > old for bond, old, new in st.change.reordered)
+
+
+def _onium_hint(st: StepTrace, leaving: int, centre: int) -> str:
+    """AR510's hint for a group that leaves phosphorus or sulfur: an amide ion or oxide is protonated
+    first; a carbon leaves a sulfonium or phosphonium ion only with the centre, which takes the pair
+    (a nucleophile attacks that carbon: the Corey-Chaykovsky epoxide closure, an SN2 on a
+    methylsulfonium, common practice)."""
+    label, elements = st.before.label, st.before.elements
+    if elements[leaving] != 6:
+        return _strong_base_hint(label(leaving), elements[leaving])
+    c, x = label(leaving), label(centre)
+    nucleophile = st.change.attacker(centre)
+    if nucleophile is not None and nameable(st.before.mol, nucleophile) and nameable(st.before.mol, leaving):
+        onium = "sulfonium" if elements[centre] == 16 else "phosphonium"
+        return (f"a carbanion this basic does not leave {x}: a nucleophile attacks the carbon of a {onium} ion, "
+                f"and {x} takes the pair of its bond and leaves neutral: "
+                f"`:{label(nucleophile)} -> {c}` with `{x}-{c} -> {x}`")
+    return (f"a carbanion this basic does not leave {x}: the bond to {c} breaks the other way, `{x}-{c} -> {x}`, "
+            f"{x} leaving neutral as a nucleophile bonds to {c}")
+
+
 class TertiarySubstitution(Check):
     """AR520: a concerted substitution (SN2) at an sp3 carbon that holds three carbon groups, or
     three groups of any kind and no hydrogen besides the leaving group (a tetrahedral intermediate
@@ -331,7 +389,10 @@ class TertiarySubstitution(Check):
     Not judged: the opening of a three-membered ring (an epoxide, an aziridinium, episulfonium or
     bromonium ion opens at its more substituted carbon in acid), a nucleophile of the substrate's
     own molecule (a ring closure, a 1,2-shift, an SNi delivery by the leaving group), a carbon
-    with a multiple bond (acyl, vinyl, aryl) or a cation."""
+    with a multiple bond (acyl, vinyl, aryl) or a cation. The hint proposes an SN1, except at a
+    carbon that holds three or more halogens (CCl4, CBr4): halogens hold up no cation, and a
+    nucleophile takes a halogen from such a carbon (halophilic attack: Ph3P on CCl4 in the Appel
+    reaction, from memory)."""
     name = "tertiary substitution"
     codes = ("AR520",)
 
@@ -374,6 +435,14 @@ class TertiarySubstitution(Check):
                 o, c, lg = label(alkoxide), label(centre), label(leaving)
                 hint = (f"a tetrahedral intermediate collapses first: `:{o} -> {c}={o}` with `{c}-{lg} -> {lg}` "
                         f"in a step of its own, then {label(nucleophile)} adds to the {c}={o} made")
+            elif elements[leaving] in _HALOGENS and sum(elements[g] in (9,) + _HALOGENS for g in groups) >= 2 \
+                    and nameable(mol, nucleophile) and nameable(mol, leaving):
+                # CCl4, CBr4, C2Cl6, CF3I: no SN1 (halogens do not hold a cation up), the nucleophile takes
+                # a halogen (common practice: the Appel reaction, from memory).
+                n, c, lg = label(nucleophile), label(centre), label(leaving)
+                hint = (f"a carbon that holds three or more halogens is attacked at a halogen, not at the carbon "
+                        f"(halophilic attack: Ph3P takes Cl+ from CCl4 in the Appel reaction): `:{n} -> {lg}` with "
+                        f"`{c}-{lg} -> {c}`, leaving {c} a carbanion that its halogens stabilise (CCl3- from CCl4)")
             else:
                 hint = (f"such a carbon is substituted by SN1: let {label(leaving)} leave first "
                         f"(`{label(centre)}-{label(leaving)} -> {label(leaving)}`, a step of its own) and "
@@ -383,6 +452,89 @@ class TertiarySubstitution(Check):
                 "AR520", f"{label(nucleophile)} displaces {label(leaving)} from {label(centre)} in one step, an SN2 "
                 f"at {kind}: its backside is too crowded", move.move.loc, hint=hint,
                 atoms=(label(nucleophile), label(centre), label(leaving)), step=st.index)
+
+
+class ConcertedAcylSubstitution(Check):
+    """AR525: a nucleophile bonds to the carbon of a C=O (an ester, an acid chloride or anhydride, an
+    amide, an activated acid) while a leaving group departs from that carbon in the same step, the
+    C=O kept: a substitution at a carbonyl carbon with no tetrahedral intermediate. Nucleophilic
+    acyl substitution goes by addition to the C=O, its pi pair going onto the oxygen, then loss of
+    the leaving group as that pair comes back (common practice; Clayden, from memory). Not judged:
+    a step that moves the C=O pair (that is the addition or the collapse), a pericyclic step, a
+    carbon with two double bonds or a triple bond (a ketene, an isocyanate, CO2, an acylium ion),
+    an sp3 carbon (an SN2, AR520's) and a C=N or C=C carbon (an iminium ion, a vinyl halide)."""
+    name = "acyl substitution in one step"
+    codes = ("AR525",)
+
+    def step(self, st: StepTrace, context) -> Iterator[Diagnostic]:
+        change = st.change
+        if st.after is None or not change.broken or not change.formed or change.pericyclic:
+            return
+        before = st.before
+        elements = before.elements
+        broken = None
+        for move in change.moves:
+            if move.source_kind != "bond" or move.electrons != 2:
+                continue
+            for centre, leaving in (move.source_atoms, move.source_atoms[::-1]):
+                if elements[centre] != 6 or centre in move.sink_atoms or before.nonbonding[centre] \
+                        or before.bond_sums[centre] != 4:
+                    continue
+                if broken is None:
+                    broken = {frozenset(p) for p in change.broken}
+                if frozenset((centre, leaving)) not in broken:
+                    continue
+                oxygen = _carbonyl_oxygen(before.mol, centre)
+                if oxygen is None or oxygen == leaving or _moves_bond(change, centre, oxygen) \
+                        or st.after.bond_electrons(centre, oxygen) != 4:
+                    continue
+                nucleophile = change.attacker(centre)
+                if nucleophile is None or nucleophile == leaving:
+                    continue
+                yield _acyl_diagnostic(st, move, nucleophile, centre, oxygen, leaving)
+                return
+
+
+def _carbonyl_oxygen(mol: Chem.Mol, carbon: int) -> Optional[int]:
+    """The oxygen of `carbon`'s C=O when that is its only multiple bond (a trigonal acyl carbon)."""
+    oxygen = None
+    for bond in mol.GetAtomWithIdx(carbon).GetBonds():
+        order = bond.GetBondTypeAsDouble()
+        if order == 1:
+            continue
+        other = bond.GetOtherAtom(mol.GetAtomWithIdx(carbon))
+        if order != 2 or other.GetAtomicNum() != 8 or oxygen is not None:
+            return None
+        oxygen = other.GetIdx()
+    return oxygen
+
+
+def _moves_bond(change, a: int, b: int) -> bool:
+    """Whether a move of the step starts or ends at the bond a-b."""
+    ends = {a, b}
+    return any(m.source_kind == "bond" and set(m.source_atoms) == ends or set(m.sink_atoms) == ends
+               for m in change.moves)
+
+
+def _acyl_diagnostic(st: StepTrace, leaving_move, nucleophile: int, centre: int, oxygen: int,
+                     leaving: int) -> Diagnostic:
+    """AR525's finding, its hint the two steps written out (where the atoms can be named)."""
+    label, mol = st.before.label, st.before.mol
+    n, c, o, lg = label(nucleophile), label(centre), label(oxygen), label(leaving)
+    if all(nameable(mol, a) for a in (nucleophile, centre, oxygen, leaving)):
+        lone_pair = any(m.source_kind == "lone_pair" and m.source_atoms == (nucleophile,) and centre in m.sink_atoms
+                        for m in st.change.moves)
+        add = f"`:{n} -> {c}` with `{c}={o} -> {o}`" if lone_pair else f"{n} adding to {c} with `{c}={o} -> {o}`"
+        loss = f"`{c}-{lg} -> {lg}`" if tuple(leaving_move.sink_atoms) == (leaving,) else f"the {c}-{lg} move"
+        hint = (f"draw the addition and the loss as two steps: {add} (the tetrahedral intermediate), then "
+                f"`:{o} -> {c}={o}` with {loss} in a step of its own")
+    else:
+        hint = (f"draw the addition and the loss as two steps: {n} adds to {c} as the {c}={o} pair goes onto "
+                f"{o} (the tetrahedral intermediate), then {o}'s pair re-forms the C=O as {lg} leaves")
+    return Diagnostic(
+        "AR525", f"{n} bonds to the carbonyl carbon {c} as {lg} leaves it, in one step with {c}={o} kept: "
+        f"a substitution at a carbonyl carbon needs a tetrahedral intermediate", leaving_move.move.loc,
+        hint=hint, atoms=(n, c, lg), step=st.index)
 
 
 def _in_three_ring(mol: Chem.Mol, a: int, b: int) -> bool:
