@@ -129,6 +129,9 @@ def reading_hint(reason: str, otherwise: str) -> str:
     meant as, or how brackets count hydrogens; `otherwise` for any other reason."""
     if reason.endswith("(SMILES is written in plain ASCII)"):
         return "delete the character, or write the atom in brackets as SMILES spells it ([Na+], [2H])"
+    if reason.endswith(_TOO_MANY_ATOMS):
+        return ("write the part the mechanism acts on, with the rest cut short (a methyl or an R group, "
+                "`*`, for a long chain or a polymer)")
     if reason == _SPACE_REASON:
         return "write the molecules together, separated by `.` with no space (`CC(=O)[O-].[Na+]`)"
     if _OVER_VALENCE in reason:
@@ -168,6 +171,12 @@ def _bond_limits(element: str) -> tuple[str, str]:
     return hydrogens, f"RDKit allows a neutral {element} a valence of {listed}"
 
 
+# The most atoms one written structure may hold: mechanisms draw tens, a protein thousands, and
+# RDKit's SMILES writer crashes the process (its stack) on a chain of about 20,000 (measured with
+# RDKit 2024: 15,000 written, 20,000 a segmentation fault).
+MOST_ATOMS = 5_000
+_TOO_MANY_ATOMS = " (RDKit's SMILES writer runs out of stack on a chain of about 20,000)"
+
 _AS_WRITTEN = Chem.SmilesParserParams()   # hydrogens kept, nothing sanitized: read only, shared
 _AS_WRITTEN.removeHs = False
 _AS_WRITTEN.sanitize = False
@@ -199,7 +208,8 @@ def as_written(smiles: str) -> Optional[Chem.Mol]:
     about as much as reading it."""
     if not smiles.strip() or smiles_slip(smiles) is not None:
         return None
-    return Chem.MolFromSmiles(smiles, _AS_WRITTEN)
+    mol = Chem.MolFromSmiles(smiles, _AS_WRITTEN)
+    return None if mol is not None and mol.GetNumAtoms() > MOST_ATOMS else mol
 
 
 def read_smiles(smiles: str, sanitize: bool = True) -> tuple[Optional[Chem.Mol], str, Optional[int]]:
@@ -215,6 +225,8 @@ def read_smiles(smiles: str, sanitize: bool = True) -> tuple[Optional[Chem.Mol],
             except Exception as exc:  # RDKit raises several sanitization exception types
                 lines.append(f"Error: {exc}")
                 mol = None
+    if mol is not None and mol.GetNumAtoms() > MOST_ATOMS:
+        return None, f"{mol.GetNumAtoms():,} atoms: a structure may hold at most {MOST_ATOMS:,}{_TOO_MANY_ATOMS}", 0
     if mol is None:
         if not smiles.strip():
             return None, "empty SMILES", 0

@@ -287,3 +287,31 @@ def test_a_folder_given_for_a_file_is_located_with_a_hint(args, tmp_path, monkey
     assert result.exit_code == 2, result.output
     assert result.output.startswith("folder:1:1: error: ") and "is a folder" in result.output, result.output
     assert "\n    hint: " in result.output and "Usage:" not in result.output, result.output
+
+
+# A structure too large for RDKit's SMILES writer: a 20,001-atom chain (a fuzzed species) crashed
+# the process (a segmentation fault, exit -11, no message) when the checkpoints wrote its SMILES;
+# RDKit alone writes 15,000 and crashes at 20,000 (measured). It is refused as it is read.
+_HUGE_CHAIN = "C" * 20_001
+
+
+def test_a_species_too_large_to_write_is_refused_where_it_is_written(tmp_path):
+    text = (GALLERY / "05-octanedione-cyclopentene.mech").read_text()
+    path = tmp_path / "huge.mech"
+    path.write_text(text.replace('"[OH-:11]"', '"[OH-:11].' + _HUGE_CHAIN + '"'))
+    done = run("check", str(path))
+    err = done.stdout.decode() + done.stderr.decode()
+    assert done.returncode == 1, (done.returncode, err[-400:])
+    assert "AR102" in err and "20,002 atoms" in err and "hint: write the part the mechanism acts on" in err
+    line = next(k for k, row in enumerate(text.splitlines(), 1) if "[OH-:11]" in row)
+    assert f"huge.mech:{line}:" in err
+
+
+@pytest.mark.parametrize("command", ["closures", "number"])
+def test_a_smiles_too_large_is_refused_by_the_drafting_commands(command):
+    """`arrows closures` also took a SMILES longer than a file name may be for a path to test,
+    and Path.is_file raised (a traceback)."""
+    done = run(command, _HUGE_CHAIN)
+    err = done.stderr.decode()
+    assert done.returncode == 2 and "Traceback" not in err, err[-400:]
+    assert "<SMILES>:1:1: error AR102" in err and "at most 5,000" in err

@@ -17,7 +17,7 @@ from ._args import LocatedPath
 from ..electrons import atom_label
 from ..judgement.closures import Closure, candidate_closures, with_atom_maps
 from ..judgement.skeleton import product_fragment, skeleton
-from ..rdkit_io import read_smiles
+from ..rdkit_io import read_smiles, reading_hint
 from .output import emit, refuse_unsafe_outputs
 
 DRAWING_SUFFIXES = (".svg", ".png")
@@ -43,7 +43,7 @@ def _from_smiles(smiles: str, where: str, line: int = 1, column: int = 1) -> Che
     mol, reason, position = read_smiles(smiles)
     if mol is None:
         raise _BadInput(f"{where}:{line}:{column + (position or 0)}", f"AR102 RDKit cannot read the SMILES: {reason}",
-                        "check brackets, ring-closure digits and charges")
+                        reading_hint(reason, "check brackets, ring-closure digits and charges"))
     _refuse_repeated_maps(mol, smiles, where, line, column)
     return mol
 
@@ -61,20 +61,37 @@ def _refuse_repeated_maps(mol: Chem.Mol, smiles: str, where: str, line: int = 1,
         seen.add(number)
 
 
+def _is_file(argument: str) -> bool:
+    """Whether `argument` names a file; a SMILES longer than a file name may be is not one
+    (Path.is_file raises on it)."""
+    try:
+        return Path(argument).is_file()
+    except OSError:
+        return False
+
+
+def _is_dir(argument: str) -> bool:
+    try:
+        return Path(argument).is_dir()
+    except OSError:
+        return False
+
+
 def _load(argument: str, species_name: Optional[str]) -> _Species:
     path = Path(argument)
+    is_file = _is_file(argument)
     if not argument.strip():   # Path("") is the current folder
         raise _BadInput("<SMILES>:1:1", "AR102 RDKit cannot read the SMILES: empty SMILES",
                         "give a SMILES, a .mech, .mol or .smi file")
-    if path.is_dir():
+    if not is_file and _is_dir(argument):
         raise _BadInput(f"{argument}:1:1", "AR100 a folder, not a species", "give a SMILES, a .mech, .mol or .smi file")
-    if not path.is_file() and path.suffix.lower() in FILE_SUFFIXES:
+    if not is_file and path.suffix.lower() in FILE_SUFFIXES:
         raise _BadInput(f"{argument}:1:1", "AR100 the file does not exist", "check the path")
     if species_name is not None and path.suffix.lower() != ".mech":
-        where = f"{argument}:1:1" if path.is_file() else "<SMILES>:1:1"
+        where = f"{argument}:1:1" if is_file else "<SMILES>:1:1"
         raise _BadInput(where, f"--species {species_name} chooses among the species of a .mech file; "
                         f"this input holds one", "drop --species, or give the .mech file")
-    if not path.is_file():
+    if not is_file:
         return _Species(with_atom_maps(_from_smiles(argument, "<SMILES>")), "substrate", "<SMILES>:1:1")
     if path.suffix.lower() == ".mech":
         from ..diagnostics import MechanismError
@@ -180,7 +197,7 @@ def closures_command(species, species_name, fmt, max_ring, condense, draw_path, 
     out, with the reason. Atoms are named by map number; atoms without one are numbered, carbons
     first. Exit status: 0 listed, 2 unreadable input or bad usage.
     """
-    inputs = [species] if Path(species).is_file() else []
+    inputs = [species] if _is_file(species) else []
     refuse_unsafe_outputs({"--draw": draw_path}, inputs)
     refuse_unsafe_outputs({"--write": write_path}, inputs, writes_mechanism=True)
     if write_path and Path(write_path).exists():

@@ -9,6 +9,7 @@ from pathlib import Path
 import click
 
 from ..numbering import numbered, numbered_smiles
+from ..rdkit_io import reading_hint
 from .output import cannot_write
 
 STARTER_SMILES = "CC(C)=O"   # acetone: a demo species to replace with your own
@@ -76,8 +77,9 @@ def new_command(name, species_smiles, smiles):
         species = numbered_smiles(numbered(smiles))
     except ValueError as exc:
         column = (getattr(exc, "position", None) or 0) + 1
+        hint = reading_hint(str(exc), "check brackets, ring-closure digits and charges")
         click.echo(f"<SMILES>:1:{column}: error AR102 RDKit cannot read the SMILES: {exc}\n"
-                   "    hint: check brackets, ring-closure digits and charges", err=True)
+                   f"    hint: {hint}", err=True)
         sys.exit(2)
     try:
         _create_new(path, STARTER.format(name=path.stem, file=path.name, smiles=species))

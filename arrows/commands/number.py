@@ -9,6 +9,7 @@ import click
 
 from ._args import LocatedPath
 from ..numbering import numbered, numbered_smiles
+from ..rdkit_io import reading_hint
 from .output import emit
 
 FIGURE_SUFFIXES = (".svg", ".png")
@@ -36,8 +37,9 @@ def number_command(smiles, first, output):
         mol = numbered(smiles, first)
     except ValueError as exc:
         column = (getattr(exc, "position", None) or 0) + 1
+        hint = reading_hint(str(exc), "check brackets, ring-closure digits and charges")
         click.echo(f"<SMILES>:1:{column}: error AR102 RDKit cannot read the SMILES: {exc}\n"
-                   "    hint: check brackets, ring-closure digits and charges", err=True)
+                   f"    hint: {hint}", err=True)
         sys.exit(2)
     if ":" in smiles and re.search(r"\[[^\]]*:\d+\]", smiles):
         click.echo("<SMILES>:1:1: note: the map numbers written in the SMILES are replaced; to keep some, "
