@@ -124,10 +124,13 @@ TABLE: tuple[Acidity, ...] = (
             "common practice: not acidic to polar bases; no tabulated value"),
     Acidity("an alkene or arene C-H", "a vinyl or aryl anion", "[#6X3;!H0;$([#6]=[#6]),$([c])]", 44, "~44",
             TEXTBOOK),
-    # Not an alkane: a C-H beside a C=N (an imine, an oxime or its ester: the Neber's methyl), a
-    # nitro group or a sulfonyl group, whose anion the neighbour holds; unjudged unless listed.
+    # Not an alkane: a C-H beside a C=N (an imine, an oxime or its ester: the Neber's methyl), or on
+    # the nitrogen side of one (an aldimine's N-CH, whose anion is a 2-azaallyl anion: pyridoxal's
+    # C-alpha-H has pKa about 17, Toth & Richard 2007, memory), a nitro group or a sulfonyl group,
+    # whose anion the neighbour holds; unjudged unless listed.
     Acidity("an alkane C-H", "an alkyl carbanion",
-            "[CX4;!H0;!$(C[CX3]=[NX2,NX3+]);!$(C[NX3+](=O)[O-]);!$(C[SX4](=O)=O)]", 50, "~50", TEXTBOOK),
+            "[CX4;!H0;!$(C[CX3]=[NX2,NX3+]);!$(C[NX2,NX3+]=[CX3]);!$(C[NX3+](=O)[O-]);!$(C[SX4](=O)=O)]",
+            50, "~50", TEXTBOOK),
 )
 
 
