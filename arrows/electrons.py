@@ -1099,9 +1099,11 @@ def _room_making_hint(state: ElectronState, i: int, changes: dict[Pair, tuple[in
             return (f"a bond to {label(i)} must break in the same step: its pi bond, whose pair goes to "
                     f"{label(short)}, left short of a pair by this step: `{bond} -> {label(j)}{connector}{label(short)}`")
         if short is not None and all(m.source_kind == "bond" and len(m.sink_atoms) == 2 for m in replay.resolved) \
-                and not _within_bonds(state, changes, j, short, 2):
+                and not _within_bonds(state, changes, j, short, 3) and _within_bonds(state, changes, j, short, 5):
             # A concerted step whose every arrow runs from a bond into a bond (a Diels-Alder with the
-            # dienophile's arrow left out): the missing arrow closes the loop with a new bond.
+            # dienophile's arrow left out): the missing arrow closes the loop with a new bond, into
+            # a ring of five or six (a four-membered one across an arene attacking a nitrilium
+            # carbon is no pericyclic array: the arrow meant breaks the C#N's pi bond onto N).
             return (f"a bond to {label(i)} must break in the same step: its pi bond, whose pair goes to "
                     f"{label(short)}, left short of a pair by this step: `{bond} -> {label(j)}-{label(short)}`")
         if short is not None:
