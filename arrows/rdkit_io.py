@@ -219,14 +219,14 @@ def read_smiles(smiles: str, sanitize: bool = True) -> tuple[Optional[Chem.Mol],
         return None, slip[1], slip[0]
     with rdkit_messages() as lines:
         mol = Chem.MolFromSmiles(smiles, _AS_WRITTEN) if smiles.strip() else None
+        if mol is not None and mol.GetNumAtoms() > MOST_ATOMS:
+            return None, f"{mol.GetNumAtoms():,} atoms: a structure may hold at most {MOST_ATOMS:,}{_TOO_MANY_ATOMS}", 0
         if mol is not None and sanitize:
             try:
                 Chem.SanitizeMol(mol)
             except Exception as exc:  # RDKit raises several sanitization exception types
                 lines.append(f"Error: {exc}")
                 mol = None
-    if mol is not None and mol.GetNumAtoms() > MOST_ATOMS:
-        return None, f"{mol.GetNumAtoms():,} atoms: a structure may hold at most {MOST_ATOMS:,}{_TOO_MANY_ATOMS}", 0
     if mol is None:
         if not smiles.strip():
             return None, "empty SMILES", 0

@@ -64,13 +64,17 @@ def hydrogen_parents_and_entries(mechanism: Mechanism) -> tuple[set[int], list[t
     for index, step in enumerate(mechanism.steps):
         entries.extend((index, s) for s in step.uses)
         for move in step.moves:
-            src, sink = move.source, move.sink
-            named = (src.bond.first, src.bond.second) if isinstance(src, BondPair) else (src.atom,)
-            named += (sink.bond.first, sink.bond.second) if isinstance(sink, BondSink) else (sink.atom,)
-            for ref in named:
+            for ref in _refs_named(move):
                 if isinstance(ref, HydrogenOn):
                     parents.add(ref.parent.map_number)
     return parents, entries
+
+
+def _refs_named(move) -> tuple:
+    """The atoms a move names: both ends of a bond it starts from or ends at, else its one atom."""
+    src, sink = move.source, move.sink
+    named = (src.bond.first, src.bond.second) if isinstance(src, BondPair) else (src.atom,)
+    return named + ((sink.bond.first, sink.bond.second) if isinstance(sink, BondSink) else (sink.atom,))
 
 
 # An aromatic atom in a SMILES: a lower-case c, n, o, s or p not ending a two-letter symbol (Sc, Co).
@@ -241,14 +245,8 @@ def _smaller_than_another(state: ElectronState, fragment: set[int], released: se
 def _atoms_named_after(mechanism: Mechanism, index: int, map_index: dict[int, int]) -> set[int]:
     """The atoms (by index, of those in the drawing now) that the arrows of the steps after step
     `index` name: the molecules the mechanism goes on with."""
-    numbers = set()
-    for step in mechanism.steps[index + 1:]:
-        for move in step.moves:
-            ends = []
-            for part in (move.source, move.sink):
-                bond = getattr(part, "bond", None)
-                ends.extend((bond.first, bond.second) if bond is not None else (part.atom,))
-            numbers.update((end.parent if isinstance(end, HydrogenOn) else end).map_number for end in ends)
+    numbers = {(ref.parent if isinstance(ref, HydrogenOn) else ref).map_number
+               for step in mechanism.steps[index + 1:] for move in step.moves for ref in _refs_named(move)}
     return {map_index[n] for n in numbers if n in map_index}
 
 
@@ -403,13 +401,15 @@ class Replay:
                 what = (f"the molecule this step's arrows act on ({len(fragment)} atoms, every atom they touch "
                         f"among them)" if reacted else f"the largest molecule left ({len(fragment)} atoms): no arrow "
                         f"breaks {name}'s bond to it")
-                self.diagnostics.append(Diagnostic(
-                    "AR512", f"`releases {name}` takes away {what}", ref.loc,
-                    hint=(f"the arrow from {bond} takes only one pair of a multiple bond, and {bond} stays: if "
-                          f"{name} leaves, draw first the form in which {bond} is single (a resonance step)")
-                    if took_pi else f"if {name} leaves, break {bond} with an arrow (`{bond} -> {name}`), in this step "
-                         f"or the next" if holder is not None else f"if {name} leaves, break its bond first",
-                    step=index, atoms=(name,)))
+                if took_pi:
+                    hint = (f"the arrow from {bond} takes only one pair of a multiple bond, and {bond} stays: if "
+                            f"{name} leaves, draw first the form in which {bond} is single (a resonance step)")
+                elif holder is not None:
+                    hint = f"if {name} leaves, break {bond} with an arrow (`{bond} -> {name}`), in this step or the next"
+                else:
+                    hint = f"if {name} leaves, break its bond first"
+                self.diagnostics.append(Diagnostic("AR512", f"`releases {name}` takes away {what}", ref.loc,
+                                                   hint=hint, step=index, atoms=(name,)))
             released_now.extend(sorted(fragment))
             released |= fragment
         return ElectronState(after.mol, after.nonbonding, frozenset(released), after.valence, after.bond_sums,

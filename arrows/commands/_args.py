@@ -91,3 +91,32 @@ def plain_text(ctx, param, value: Optional[str]) -> Optional[str]:
                             "UTF-8 text", "set the terminal or script to UTF-8, or leave that character out")
     raise Refused(None, f"{name} holds {character_name(ch)} (character {column}), which no figure or PDF can hold",
                   "delete that invisible character from the text")
+
+
+def with_folders_opened(paths):
+    """Each path argument as given, a folder replaced by the .mech files below it (in natural
+    order, as `arrows collect` takes them); a folder with none stands as an AR100 diagnostic
+    (check and export take folders so)."""
+    from pathlib import Path
+
+    from ..diagnostics import Diagnostic
+    from ..model import Location
+
+    out, seen = [], set()
+    for path in paths:
+        if not Path(path).is_dir():
+            found = [path]
+        else:
+            from ..batch.sources import mech_files_below   # only a folder is searched (2 ms of start-up)
+            found = [str(p) for p in mech_files_below(Path(path))]
+            if not found:
+                out.append(Diagnostic("AR100", "cannot read file: a folder with no .mech file below it",
+                                      Location(path, 1, 1), hint="a folder is checked by the .mech files in it "
+                                                                 "and its subfolders, dot-files and dot-folders left "
+                                                                 "out; name a file or another folder"))
+        for file in found:   # a file named twice (alone and in its folder) is checked once
+            key = Path(file).resolve()
+            if key not in seen:
+                seen.add(key)
+                out.append(file)
+    return out

@@ -6,7 +6,7 @@ import sys
 
 import click
 
-from ._args import LocatedPath
+from ._args import LocatedPath, with_folders_opened
 from ..api import diagnose_file
 from ..diagnostics import ERROR, WARNING, to_json
 from .output import cannot_write, refuse_unsafe_outputs
@@ -55,7 +55,7 @@ def check_command(files, fmt, strict, quiet, jsonl, output, jobs, cluster, pka_g
     from ..checks.protons import set_pka_gap
     click.get_current_context().call_on_close(set_pka_gap(pka_gap))
     everything, unreadable, failing = [], False, False
-    files = _with_folders_opened(files)
+    files = with_folders_opened(files)
     for path in files:
         diags = diagnose_file(path) if isinstance(path, str) else [path]
         if any(d.code == "AR100" for d in diags):
@@ -76,34 +76,6 @@ def check_command(files, fmt, strict, quiet, jsonl, output, jobs, cluster, pka_g
         click.echo(f"{len(files)} file{'s' if len(files) != 1 else ''} checked: "
                    f"{n_err} error{'s' if n_err != 1 else ''}, {n_warn} warning{'s' if n_warn != 1 else ''}", err=True)
     sys.exit(2 if unreadable else 1 if failing else 0)
-
-
-def _with_folders_opened(paths):
-    """Each path as given, a folder replaced by the .mech files below it (sorted by path, as
-    `arrows collect` takes them); a folder with none stands as an AR100 diagnostic."""
-    from pathlib import Path
-
-    from ..diagnostics import Diagnostic
-    from ..model import Location
-
-    out, seen = [], set()
-    for path in paths:
-        if not Path(path).is_dir():
-            found = [path]
-        else:
-            from ..batch.sources import mech_files_below   # only a folder is searched (2 ms of start-up)
-            found = [str(p) for p in mech_files_below(Path(path))]
-            if not found:
-                out.append(Diagnostic("AR100", "cannot read file: a folder with no .mech file below it",
-                                      Location(path, 1, 1), hint="a folder is checked by the .mech files in it "
-                                                                 "and its subfolders, dot-files and dot-folders left "
-                                                                 "out; name a file or another folder"))
-        for file in found:   # a file named twice (alone and in its folder) is checked once
-            key = Path(file).resolve()
-            if key not in seen:
-                seen.add(key)
-                out.append(file)
-    return out
 
 
 def _check_jsonl(path: str, output: str | None, jobs: int | None, cluster: str | None, strict: bool,

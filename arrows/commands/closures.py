@@ -61,29 +61,24 @@ def _refuse_repeated_maps(mol: Chem.Mol, smiles: str, where: str, line: int = 1,
         seen.add(number)
 
 
-def _is_file(argument: str) -> bool:
-    """Whether `argument` names a file; a SMILES longer than a file name may be is not one
-    (Path.is_file raises on it)."""
+def _names(argument: str) -> Optional[str]:
+    """"file" or "folder" where `argument` names one, else None: a SMILES longer than a file name
+    may be names neither (Path.is_file raises on it)."""
     try:
-        return Path(argument).is_file()
+        path = Path(argument)
+        return "file" if path.is_file() else "folder" if path.is_dir() else None
     except OSError:
-        return False
-
-
-def _is_dir(argument: str) -> bool:
-    try:
-        return Path(argument).is_dir()
-    except OSError:
-        return False
+        return None
 
 
 def _load(argument: str, species_name: Optional[str]) -> _Species:
     path = Path(argument)
-    is_file = _is_file(argument)
+    named = _names(argument)
+    is_file = named == "file"
     if not argument.strip():   # Path("") is the current folder
         raise _BadInput("<SMILES>:1:1", "AR102 RDKit cannot read the SMILES: empty SMILES",
                         "give a SMILES, a .mech, .mol or .smi file")
-    if not is_file and _is_dir(argument):
+    if named == "folder":
         raise _BadInput(f"{argument}:1:1", "AR100 a folder, not a species", "give a SMILES, a .mech, .mol or .smi file")
     if not is_file and path.suffix.lower() in FILE_SUFFIXES:
         raise _BadInput(f"{argument}:1:1", "AR100 the file does not exist", "check the path")
@@ -197,7 +192,7 @@ def closures_command(species, species_name, fmt, max_ring, condense, draw_path, 
     out, with the reason. Atoms are named by map number; atoms without one are numbered, carbons
     first. Exit status: 0 listed, 2 unreadable input or bad usage.
     """
-    inputs = [species] if _is_file(species) else []
+    inputs = [species] if _names(species) == "file" else []
     refuse_unsafe_outputs({"--draw": draw_path}, inputs)
     refuse_unsafe_outputs({"--write": write_path}, inputs, writes_mechanism=True)
     if write_path and Path(write_path).exists():

@@ -17,7 +17,7 @@ from typing import Iterator
 
 import click
 
-from ._args import LocatedPath
+from ._args import LocatedPath, with_folders_opened
 from ..api import check, checked
 from ..diagnostics import ERROR, MechanismError
 from ..language import load
@@ -105,9 +105,8 @@ def _export_many(given, target: str, output) -> int:
     """Several FILEs or folders: one JSON Lines record, or the step lines, per mechanism without
     errors, streamed to stdout or (atomically) to `output`. Returns the exit status."""
     from ..atomic import atomic_file
-    from .check import _with_folders_opened
 
-    paths = _with_folders_opened(given)   # files, and an AR100 for a folder without one
+    paths = with_folders_opened(given)   # files, and an AR100 for a folder without one
     refuse_unsafe_outputs({"-o": output}, list(given) + [p for p in paths if isinstance(p, str)])
     tally = _Tally()
     texts = _exported(paths, target, tally)
@@ -146,7 +145,7 @@ def _export_many(given, target: str, output) -> int:
 
 def _exported(paths, target: str, tally: _Tally) -> Iterator[str]:
     """The text of each mechanism without errors (a JSON Lines record, or its step lines); the
-    diagnostics of the others go to stderr. `paths`: as check's _with_folders_opened gives them."""
+    diagnostics of the others go to stderr. `paths`: as with_folders_opened gives them."""
     if target == "json":
         import json
 

@@ -3130,12 +3130,13 @@ class _LayoutBuilder:
         def bonded(a: int, p: int) -> list[int]:
             return [n for n in self.neighbours[a] if (min(a, n), max(a, n)) in self.bonds_in[p]]
 
-        heavy = {tuple(n for n in bonded(atom, p) if self.element[n] != 1) for p in panels}
+        around = [bonded(atom, p) for p in panels]
+        heavy = {tuple(n for n in partners if self.element[n] != 1) for partners in around}
         if len(heavy) != 1 or len(next(iter(heavy))) != 1:
             return
         pivot = next(iter(heavy))[0]
         # Its own hydrogens drawn as atoms (an amine's, taken on earlier) turn with it.
-        riders = {h for p in panels for h in bonded(atom, p) if self.element[h] == 1}
+        riders = {h for partners in around for h in partners if self.element[h] == 1}
         if any(self.positions[p].get(h) != here.get(h) for h in riders for p in panels):
             return
         if self.element[pivot] == 1 or any(here[pivot] != self.positions[p].get(pivot) for p in panels) \

@@ -9,7 +9,7 @@ from __future__ import annotations
 
 from dataclasses import MISSING, dataclass, field, fields
 from functools import lru_cache
-from typing import Optional
+from typing import Optional, Sequence
 
 from .styles import Style
 
@@ -55,6 +55,14 @@ class Box:
 
     def union(self, other: "Box") -> "Box":
         return Box(min(self.x0, other.x0), min(self.y0, other.y0), max(self.x1, other.x1), max(self.y1, other.y1))
+
+    @staticmethod
+    def enclosing(boxes: Sequence["Box"]) -> "Box":
+        """The box round all of `boxes` (at least one)."""
+        box = boxes[0]
+        for other in boxes[1:]:
+            box = box.union(other)
+        return box
 
     def shifted(self, dx: float, dy: float) -> "Box":
         return Box(self.x0 + dx, self.y0 + dy, self.x1 + dx, self.y1 + dy)

@@ -292,11 +292,7 @@ def _room_factor(natural: Scene, page: Style, title_kept: bool) -> float:
 
 def _drawn_box(scene: Scene) -> Box:
     """The union of the placed panels' boxes and the reaction arrows' boxes (with their text)."""
-    boxes = [p.box.shifted(*p.origin) for p in scene.panels] + [a.box for a in scene.reaction_arrows]
-    box = boxes[0]
-    for other in boxes[1:]:
-        box = box.union(other)
-    return box
+    return Box.enclosing([p.box.shifted(*p.origin) for p in scene.panels] + [a.box for a in scene.reaction_arrows])
 
 
 def _row_starts(scene: Scene) -> tuple[int, ...]:
@@ -680,10 +676,7 @@ class _SceneBuilder:
         for k, text in enumerate(spec.note):
             w = self.italic.width(text, ss)
             texts.append(TextRun(text, mid - w / 2, baseline + k * 1.2 * ss, ss, italic=True))
-        boxes = [Box(x0, y - W, x1, y + W)] + [_run_box(self, t) for t in texts]
-        box = boxes[0]
-        for b in boxes[1:]:
-            box = box.union(b)
+        box = Box.enclosing([Box(x0, y - W, x1, y + W)] + [_run_box(self, t) for t in texts])
         return ReactionArrow(spec.step, spec.kind, (x0, y), (x1, y), tuple(lines), tuple(heads), tuple(texts), box)
 
     # page

@@ -75,8 +75,8 @@ class PanelStructure:
         along `side` (then `gap` further out). Short of the element symbol itself where the rest
         of the label is not in the way, so that a half-loop onto the O of OH points at the O and
         not past its H (common practice: the head touches the atom that takes the electrons);
-        where the rest is in the way along `direction`, the side is turned up to 45 degrees
-        toward `turn_toward` (if given) to find the symbol clear; else short of the whole label
+        where the rest is in the way along `direction`, the side is turned up to 60 degrees
+        toward `turn_toward` (if given), no further than finds the symbol clear; else short of the whole label
         along `direction` (reach 0: no label)."""
         box = self.atoms[atom].box
         if box is None:
@@ -94,9 +94,9 @@ class PanelStructure:
                 near = ray_exit(centre, side, symbol)
                 tip = centre + side * (near + gap)
                 point = (tip.real, tip.imag)
-                # Clear of the rest of the label, the head read as the symbol's: the side asked for
-                # where that is plain, else the side whose tip stands furthest from the rest for its
-                # nearness to the symbol (the first of equals).
+                # Clear of the rest of the label, the head read as the symbol's: the first side, in
+                # the order turned, where that is plain, else the side whose tip stands furthest
+                # from the rest for its nearness to the symbol (the first of equals).
                 margin = min(b.distance(point) for b in rest) - symbol.distance(point)
                 if margin > 0 and not any(b.contains(point, 0.5 * gap) for b in rest) \
                         and (best is None or margin > best[0] + 1e-6):
@@ -588,11 +588,7 @@ class StructureDrawer:
         return min((1j, -1j, 1, -1), key=lambda s: (meets(s), -clearance(complex(s), occupied)))
 
     def _runs_box(self, runs: list[TextRun]) -> Box:
-        boxes = [self.text_box(r) for r in runs]
-        box = boxes[0]
-        for b in boxes[1:]:
-            box = box.union(b)
-        return box
+        return Box.enclosing([self.text_box(r) for r in runs])
 
     def text_box(self, run: TextRun) -> Box:
         face = self.italic if run.italic else self.face
@@ -813,9 +809,7 @@ class StructureDrawer:
         # Its own hydrogens written above or below (the H2 over a borate's B): the sign may not
         # touch them either.
         own = [self.text_box(r) for r in drawing.runs if abs(r.y - baseline_y) >= 0.5 * self.style.font_size]
-        box = same_line[0]
-        for b in same_line[1:]:
-            box = box.union(b)
+        box = Box.enclosing(same_line)
         size = self.style.small_size
         width = self.face.width(text, size)
         baseline = box.y0 + 0.38 * size
