@@ -96,6 +96,27 @@ def test_an_acid_chloride_substituted_in_one_step_is_flagged():
     assert "O4 bonds to the carbonyl carbon C1 as Cl3 leaves it" in d.message
 
 
+# A thionoester's C=S carbon attacked by an amine (thionoester aminolysis to a thioamide goes by
+# addition to the C=S, the tetrahedral intermediate, then loss of the alkoxide: March, from memory;
+# common practice), in one step and in the two steps.
+THIONOESTER = '''species thionoester = "C[C:1](=[S:2])[O:3]C"
+species amine = "C[NH2:4]"
+{steps}'''
+THIONO_ONE_STEP = 'step "aminolysis"\n    :N4 -> C1\n    C1-O3 -> O3\nend\n'
+THIONO_TWO_STEPS = ('step "addition"\n    :N4 -> C1\n    C1=S2 -> S2\nend\n'
+                    'step "elimination"\n    :S2 -> C1=S2\n    C1-O3 -> O3\nend\n')
+
+
+def test_a_thiocarbonyl_substituted_in_one_step_is_flagged():
+    d = only(THIONOESTER.format(steps=THIONO_ONE_STEP), "AR525")
+    assert "thiocarbonyl carbon C1" in d.message and "C1=S2 kept" in d.message
+    assert "`:N4 -> C1` with `C1=S2 -> S2`" in d.hint and "`:S2 -> C1=S2` with `C1-O3 -> O3`" in d.hint
+
+
+def test_a_thiocarbonyl_substituted_in_two_steps_is_clean():
+    assert "AR525" not in _codes(THIONOESTER.format(steps=THIONO_TWO_STEPS))
+
+
 def test_the_hinted_two_steps_are_clean():
     assert _codes(SAPONIFICATION.format(steps=TWO_STEPS)) == []
 

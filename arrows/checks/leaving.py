@@ -455,11 +455,12 @@ class TertiarySubstitution(Check):
 
 
 class ConcertedAcylSubstitution(Check):
-    """AR525: a nucleophile bonds to the carbon of a C=O (an ester, an acid chloride or anhydride, an
-    amide, an activated acid) while a leaving group departs from that carbon in the same step, the
-    C=O kept: a substitution at a carbonyl carbon with no tetrahedral intermediate. Nucleophilic
-    acyl substitution goes by addition to the C=O, its pi pair going onto the oxygen, then loss of
-    the leaving group as that pair comes back (common practice; Clayden, from memory). Not judged:
+    """AR525: a nucleophile bonds to the carbon of a C=O or C=S (an ester, an acid chloride or
+    anhydride, an amide, an activated acid, a thioester's or thionoester's C=S) while a leaving
+    group departs from that carbon in the same step, the C=O kept: a substitution at a carbonyl
+    carbon with no tetrahedral intermediate. Nucleophilic acyl substitution goes by addition to the
+    C=O, its pi pair going onto the oxygen, then loss of the leaving group as that pair comes back
+    (common practice; Clayden, from memory); a thiocarbonyl adds the same way. Not judged:
     a step that moves the C=O pair (that is the addition or the collapse), a pericyclic step, a
     carbon with two double bonds or a triple bond (a ketene, an isocyanate, CO2, an acylium ion),
     an sp3 carbon (an SN2, AR520's) and a C=N or C=C carbon (an iminium ion, a vinyl halide)."""
@@ -484,7 +485,7 @@ class ConcertedAcylSubstitution(Check):
                     broken = {frozenset(p) for p in change.broken}
                 if frozenset((centre, leaving)) not in broken:
                     continue
-                oxygen = _carbonyl_oxygen(before.mol, centre)
+                oxygen = _carbonyl_chalcogen(before.mol, centre)
                 if oxygen is None or oxygen == leaving or _moves_bond(change, centre, oxygen) \
                         or st.after.bond_electrons(centre, oxygen) != 4:
                     continue
@@ -495,15 +496,15 @@ class ConcertedAcylSubstitution(Check):
                 return
 
 
-def _carbonyl_oxygen(mol: Chem.Mol, carbon: int) -> Optional[int]:
-    """The oxygen of `carbon`'s C=O when that is its only multiple bond (a trigonal acyl carbon)."""
+def _carbonyl_chalcogen(mol: Chem.Mol, carbon: int) -> Optional[int]:
+    """The O or S of `carbon`'s C=O or C=S when that is its only multiple bond (a trigonal acyl carbon)."""
     oxygen = None
     for bond in mol.GetAtomWithIdx(carbon).GetBonds():
         order = bond.GetBondTypeAsDouble()
         if order == 1:
             continue
         other = bond.GetOtherAtom(mol.GetAtomWithIdx(carbon))
-        if order != 2 or other.GetAtomicNum() != 8 or oxygen is not None:
+        if order != 2 or other.GetAtomicNum() not in (8, 16) or oxygen is not None:
             return None
         oxygen = other.GetIdx()
     return oxygen
@@ -521,6 +522,7 @@ def _acyl_diagnostic(st: StepTrace, leaving_move, nucleophile: int, centre: int,
     """AR525's finding, its hint the two steps written out (where the atoms can be named)."""
     label, mol = st.before.label, st.before.mol
     n, c, o, lg = label(nucleophile), label(centre), label(oxygen), label(leaving)
+    carbonyl = "carbonyl" if st.before.elements[oxygen] == 8 else "thiocarbonyl"
     if all(nameable(mol, a) for a in (nucleophile, centre, oxygen, leaving)):
         lone_pair = any(m.source_kind == "lone_pair" and m.source_atoms == (nucleophile,) and centre in m.sink_atoms
                         for m in st.change.moves)
@@ -532,8 +534,8 @@ def _acyl_diagnostic(st: StepTrace, leaving_move, nucleophile: int, centre: int,
         hint = (f"draw the addition and the loss as two steps: {n} adds to {c} as the {c}={o} pair goes onto "
                 f"{o} (the tetrahedral intermediate), then {o}'s pair re-forms the C=O as {lg} leaves")
     return Diagnostic(
-        "AR525", f"{n} bonds to the carbonyl carbon {c} as {lg} leaves it, in one step with {c}={o} kept: "
-        f"a substitution at a carbonyl carbon needs a tetrahedral intermediate", leaving_move.move.loc,
+        "AR525", f"{n} bonds to the {carbonyl} carbon {c} as {lg} leaves it, in one step with {c}={o} kept: "
+        f"a substitution at a {carbonyl} carbon needs a tetrahedral intermediate", leaving_move.move.loc,
         hint=hint, atoms=(n, c, lg), step=st.index)
 
 
