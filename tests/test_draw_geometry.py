@@ -1002,16 +1002,21 @@ def _small_ring_opened_molecules(step) -> set[int]:
 
 def _resized_ring_atoms(step) -> set[int]:
     """Atoms of a ring that changes size in this step (a ring bond of the state before breaks and a
-    ring of the state after holds a bond the step makes): such a ring is redrawn, as chemists do."""
+    ring of the state after holds a bond the step makes), or of a ring the step closes across a
+    ring already there (a Favorskii cyclopropanone made inside the cyclohexanone: the ring's
+    hexagon becomes a bicyclic rim): such a ring is redrawn, as chemists do, the issue's "a newly
+    formed ring may move its own atoms"."""
     before = Chem.Mol(step.before.mol)
     Chem.FastFindRings(before)   # the state's Mol is not sanitized: its rings are found here, as after's are
     before_rings = [set(r) for r in before.GetRingInfo().AtomRings()]
-    if not any(any(set(b) <= r for r in before_rings) for b in step.change.broken):
-        return set()
     formed = [set(b) for b in step.change.formed]
     after = Chem.Mol(step.after.mol)
     Chem.FastFindRings(after)
-    return {a for ring in after.GetRingInfo().AtomRings() if any(f <= set(ring) for f in formed) for a in ring}
+    new_rings = [set(ring) for ring in after.GetRingInfo().AtomRings() if any(f <= set(ring) for f in formed)]
+    if any(any(set(b) <= r for r in before_rings) for b in step.change.broken):
+        return set().union(*new_rings)
+    across = [ring for ring in new_rings if any(ring <= old for old in before_rings)]
+    return set().union(*across)
 
 
 @pytest.mark.parametrize("text,name", _mechanisms())
@@ -2499,3 +2504,33 @@ def test_a_carbonyl_oxygen_that_gives_up_its_proton_turns_with_it_in_reach():
     _, _, scene = _scene(text, "iminium hydrolysis")
     angles = _angles_at(scene.panels[-1], 2)
     assert len(angles) == 3 and angles[0] >= 110, angles
+
+
+@pytest.mark.parametrize("name", ["favorskii"])
+def test_a_ring_is_drawn_regular_before_a_bond_closes_across_it(name):
+    """A ring that a later step bridges (the Favorskii cyclohexanone, whose cyclopropanone forms
+    across C2 and C6) is drawn as a regular polygon while it stands alone: every interior angle
+    within 10 degrees of the regular one (120 for a hexagon; a regular polygon's angle, geometry).
+    Before, the hexagon took the bicyclic product's rim, two of its angles near 170 degrees. The
+    rings are found by RDKit on each panel's own state."""
+    trace, _, scene = _scene(TEXTBOOK[name][0], name)
+    later = set().union(*(frozenset(map(frozenset, st.change.formed)) for st in trace.steps))
+    checked = 0
+    for panel in scene.panels[:-1]:
+        state = trace.steps[panel.step].before.mol if panel.step is not None else None
+        if state is None:
+            continue
+        mol = Chem.Mol(state)
+        Chem.FastFindRings(mol)
+        where = {a.index: a.position for a in panel.atoms}
+        for ring in mol.GetRingInfo().AtomRings():
+            across = [tuple(bond) for bond in later if bond <= set(ring)]
+            if not any(mol.GetBondBetweenAtoms(*bond) is None for bond in across) or not all(a in where for a in ring):
+                continue
+            regular = 180.0 * (len(ring) - 2) / len(ring)
+            points = [complex(*where[a]) for a in ring]
+            for before, at, after in zip(points[-1:] + points[:-1], points, points[1:] + points[:1]):
+                angle = math.degrees(abs(cmath.phase((before - at) / (after - at))))
+                assert abs(angle - regular) < 10, (panel.index, round(angle))
+            checked += 1
+    assert checked >= 2   # the ketone's ring in the first two panels

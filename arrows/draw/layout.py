@@ -73,6 +73,7 @@ _OPEN_ANGLE = math.radians(105)   # least angle a hydrogen leaning toward its pa
 _HIDDEN_VERTEX = math.radians(160)   # two bonds of a bare vertex straighter than this hide it
 _OFF_A_BOND = math.radians(35)   # least angle between a travelling hydrogen's bond and its holder's others
 _SIXTY = math.radians(60)
+_RING_ANGLE_SLACK = math.radians(30)   # a ring angle further than this from the regular polygon's reads as squeezed
 _BACKSIDE_ROOM = math.radians(55)   # a nucleophile's line of approach from the centre's other bonds
 # Ways to place a cluster next to its partner, in order of preference: (penalty, turn of the
 # approach line in 20-degree steps, spin of the cluster in 30-degree steps, extra distance). A
@@ -333,6 +334,49 @@ def _on_the_way(start: int, goal: int, adjacent: dict[int, list[int]]) -> list[i
     while way[-1] != start:
         way.append(came_from[way[-1]])
     return way
+
+
+def _ring_core(bonds: set[tuple[int, int]]) -> dict[int, set[int]]:
+    """The graph of `bonds` (atom -> neighbours) with chain ends stripped off over and over: what
+    is left holds every ring."""
+    core = {a: set(around) for a, around in _adjacency(bonds).items()}
+    ends = [a for a, around in core.items() if len(around) < 2]
+    while ends:
+        a = ends.pop()
+        for n in core.pop(a, ()):
+            core[n].discard(a)
+            if len(core[n]) == 1:
+                ends.append(n)
+    return core
+
+
+def _smallest_rings(core: dict[int, set[int]]) -> list[list[int]]:
+    """The smallest ring through each bond of a ring core (_ring_core) that lies on one, each
+    once, atoms in ring order."""
+    rings, seen = [], set()
+    for i, around in core.items():
+        for j in around:
+            if j < i:
+                continue
+            # A shortest way round from i to j that does not take their own bond.
+            came_from, frontier = {i: i}, [i]
+            while frontier and j not in came_from:
+                following = []
+                for a in frontier:
+                    for n in core[a]:
+                        if n not in came_from and (a, n) != (i, j):
+                            came_from[n] = a
+                            following.append(n)
+                frontier = following
+            if j not in came_from:
+                continue   # a bond between two rings (biphenyl's) lies on none
+            ring = [j]
+            while ring[-1] != i:
+                ring.append(came_from[ring[-1]])
+            if frozenset(ring) not in seen:
+                seen.add(frozenset(ring))
+                rings.append(ring)
+    return rings
 
 
 def _distance(a: list[float], b: list[float]) -> float:
@@ -961,6 +1005,8 @@ class _LayoutBuilder:
         self.clusters = [_Cluster(g, self._depict(g)) for g in clusters]
         for cluster in self.clusters:
             if (not self._even(cluster.local, cluster.atoms, range(self.n)) or self._bends(cluster.atoms)
+                    or self._squeezes_a_ring(cluster.local, cluster.atoms, range(self.n),
+                                             self._in_group(cluster.atoms, range(self.n)))
                     or self._bent_where_straight(cluster.local, cluster.atoms)
                     or not self._shows_written_geometry(cluster.local, cluster.atoms, range(self.n))
                     or self._draws_chain_alkene_cis(cluster.local, cluster.atoms, range(self.n))
@@ -1343,6 +1389,35 @@ class _LayoutBuilder:
                  if all((min(a, b), max(a, b)) in bonds for a, b in zip(ring, ring[1:] + ring[:1]))]
         return _any_inside_ring(local, rings, (a for a in group if self.element[a] != 1))
 
+    def _squeezes_a_ring(self, local: dict[int, complex], group: list[int], panels: Iterable[int],
+                         drawn: set[tuple[int, int]]) -> bool:
+        """Whether `local`, depicted from the bonds `drawn`, draws a ring of `group` that exists in
+        one of `panels` far from a regular polygon (an angle more than _RING_ANGLE_SLACK off): the
+        rim of a bicyclic depiction, as a cyclohexanone drawn where its Favorskii cyclopropanone
+        will be, a hexagon bent round the bond that closes later. Only a panel that lacks a drawn
+        bond between two of its ring atoms can hold a ring the depiction did not draw as its own."""
+        element = self.element
+        heavy = {(i, j) for i, j in drawn if element[i] != 1 and element[j] != 1}
+        own = None
+        for k in panels:
+            missing = heavy - self.bonds_in[k]
+            if not missing:
+                continue   # (most panels: every drawn bond there)
+            core = _ring_core(heavy & self.bonds_in[k])
+            if not any(i in core and j in core for i, j in missing):
+                continue   # a chain that closes later, or a ring that opened: nothing drawn across a ring
+            if own is None:
+                own = {frozenset(ring) for ring in _smallest_rings(_ring_core(heavy))}
+            for ring in _smallest_rings(core):
+                if frozenset(ring) in own:
+                    continue
+                regular = math.pi * (len(ring) - 2) / len(ring)
+                for before, at, after in zip(ring[-1:] + ring[:-1], ring, ring[1:] + ring[:1]):
+                    angle = abs(cmath.phase((local[before] - local[at]) / (local[after] - local[at])))
+                    if abs(angle - regular) > _RING_ANGLE_SLACK:
+                        return True
+        return False
+
     def _even(self, local: dict[int, complex], group: list[int], panels: Iterable[int]) -> bool:
         """Every bond among `group` in `panels` within 2% of one bond length in `local`."""
         return all(abs(abs(local[i] - local[j]) - 1.0) <= 0.02 for i, j in self._in_group(group, panels))
@@ -1457,6 +1532,8 @@ class _LayoutBuilder:
                 trial = self._depict(group, trial_bonds, range(start, end + 2))
                 if not self._even(trial, group, range(start, end + 2)) or self._atom_inside_a_ring(trial, group, trial_bonds):
                     break
+                if self._squeezes_a_ring(trial, group, range(start, end + 2), trial_bonds):
+                    break     # a ring drawn round a bond that closes later (a Favorskii cyclopropanone's rim)
                 if any(self._linear(a, range(end, end + 1)) and not self._linear(a, range(end + 1, end + 2))
                        and self._heavy_bonds(a, end) == self._heavy_bonds(a, end + 1) for a in sometimes_sp):
                     break     # one that a lone pair bends, its bonds kept (the azide's N3 as P bonds to N4)
