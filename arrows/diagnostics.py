@@ -575,6 +575,39 @@ CODES = _table(
          '    :O6 -> C2\n'
          '    C2-O4 -> O4\n'
          'end'),
+    Code("AR526", WARNING, "proton passed round a four-membered ring",
+         "An atom takes a proton, in one step, from an atom of its own molecule two bonds away (both "
+         "bonded to one atom that the step changes): a four-membered cyclic proton transfer, as in an "
+         "imidic acid drawn turning into its amide by the N taking the O-H proton itself. The "
+         "four-membered path is strained and "
+         "slow; a tautomerisation between 1,3-related atoms goes by way of the solvent or an acid or base, "
+         "two proton transfers (common practice: computed barriers for formimidic acid to formamide are "
+         "about 45-50 kcal/mol direct against about 20 with one water, from memory). A proton passed "
+         "inside one molecule goes round six atoms (an ene reaction, a beta-keto acid's decarboxylation). "
+         "A two-arrow [1,3]-H shift is AR521's, and a hydride or a hydrogen atom that moves is not judged, "
+         "nor a step under light, nor what textbooks write as shorthand for a transfer by way of the "
+         "solvent: a proton handed across an sp3 carbon the step leaves alone (a tetrahedral "
+         "intermediate's O- taking its own N+-H), one taken off a cation, or one taken by a group as "
+         "it leaves.",
+         'species imidic = "C[C:1](=[NH:2])[OH:3]"\n'
+         'step "tautomerisation"   # by way of water: O3 gives its proton, N2 takes one\n'
+         '    :N2 -> H(O3)\n'
+         '    O3-H -> C1=O3\n'
+         '    C1=N2 -> N2\n'
+         'end'),
+    Code("AR527", WARNING, "ring closure across an arene's para or meta positions",
+         "A step closes a ring through two atoms of one six-membered aromatic ring that stand para (1,4) "
+         "or meta (1,3) to each other, with a bridge too short to span them: the ring of an [n]para- or "
+         "[n]metacyclophane, whose arene must bend out of plane. [n]Paracyclophanes and "
+         "[n]metacyclophanes with fewer than five bridge atoms are not isolable, met only as transient "
+         "intermediates (from memory). Most often the arene was drawn attacking from the wrong carbon: "
+         "the closure that makes a fused ring goes to the carbon ortho to the bridge (a Friedel-Crafts, "
+         "Pictet-Spengler or Skraup closure). A pericyclic step is not judged.",
+         'species aldehyde = "[CH:1]1=[CH:2][C:3](CCC[CH:10]=[OH+:11])=[CH:4][CH:5]=[CH:6]1"\n'
+         'step "ring closure"   # C6 is para to the chain: close onto C2 or C4, ortho\n'
+         '    C5=C6 -> C6-C10\n'
+         '    C10=O11 -> O11\n'
+         'end'),
     Code("AR601", NOTE, "ring closure",
          "A step closes a ring; its size and Baldwin class are given. A pericyclic step (every arrow "
          "from a bond to a bond, round a closed loop that makes no charge; arrows that all start at "

@@ -585,6 +585,23 @@ TWINS = [
          '    C2=O3 -> O3\nend\nstep "elimination"\n    :O3 -> C2=O3\n', "",
          "AR525", "C2-O4 -> O4", says=("carbonyl carbon C2", "O4", "tetrahedral"),
          hint_says=("`C2=O3 -> O3`", "`:O3 -> C2=O3`")),
+    # An imidic acid tautomerised to its amide by way of water: water takes the O-H proton, the
+    # hydronium ion gives one to N (common practice: two proton transfers). Drawn as the N taking
+    # its own O-H proton in one step, the proton goes round a four-membered ring.
+    Twin("four-membered cyclic proton transfer",
+         'species imidic = "C[C:1](=[NH:2])[OH:3]"\nspecies water = "[OH2:4]"\n'
+         'step "water takes the O-H proton"\n    :O4 -> H(O3)\n    O3-H -> C1=O3\n    C1=N2 -> N2\nend\n'
+         'step "the N takes a proton"\n    :N2 -> H(O4)\n    O4-H -> O4\nend\nproduct "CC(N)=O"\n',
+         'species water = "[OH2:4]"\nstep "water takes the O-H proton"\n    :O4 -> H(O3)\n    O3-H -> C1=O3\n'
+         '    C1=N2 -> N2\nend\nstep "the N takes a proton"\n    :N2 -> H(O4)\n    O4-H -> O4\nend\n',
+         'step "tautomerisation"\n    :N2 -> H(O3)\n    O3-H -> C1=O3\n    C1=N2 -> N2\nend\n', "AR526",
+         ":N2 -> H(O3)", says=("N2", "O3", "C1", "four-membered"), hint_says=("`uses water",)),
+    # Friedel-Crafts closure of protonated 4-phenylbutanal onto C2, ortho to the chain (tetralin-1-ol,
+    # textbook, memory); onto C6, para, it would make a [4]paracyclophane (not isolable, memory).
+    Twin("ring closure across an arene's para positions",
+         'species aldehyde = "[CH:1]1=[CH:2][C:3](CCC[CH:10]=[OH+:11])=[CH:4][CH:5]=[CH:6]1"\n'
+         'step "ring closure"\n    C1=C2 -> C2-C10\n    C10=O11 -> O11\nend\n', "C1=C2 -> C2-C10", "C5=C6 -> C6-C10",
+         "AR527", "C5=C6 -> C6-C10", says=("[4]paracyclophane", "C3 and C6"), hint_says=("C2 or C4",)),
 ]
 
 

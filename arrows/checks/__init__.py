@@ -61,7 +61,7 @@ def _registry() -> list[Check]:
         from .conservation import ChargeAndAtomsConserved
         from .leaving import ConcertedAcylSubstitution, StrongBaseLeavingGroups, TertiarySubstitution
         from .pericyclic import ForbiddenPericyclic
-        from .protons import BareProtons, CarbeneFromCH, UphillProtonTransfers
+        from .protons import BareProtons, CarbeneFromCH, FourCentreProtonTransfers, UphillProtonTransfers
         from .ring_eliminations import RingEliminationGeometry
         from .rings import RingClosures, StrainedCumulenes
         from .shifts import CationShiftDirection, MigrationAntiToLeavingGroup, ShiftBetweenNeighbours
@@ -74,7 +74,7 @@ def _registry() -> list[Check]:
                                StereoChanges, MigrationAntiToLeavingGroup, CationShiftDirection, ShiftBetweenNeighbours,
                                StrongBaseLeavingGroups, TertiarySubstitution, ConcertedAcylSubstitution,
                                WrittenConfigurationMatches, RingEliminationGeometry, ForbiddenPericyclic,
-                               StrainedCumulenes, CarbeneFromCH])
+                               StrainedCumulenes, CarbeneFromCH, FourCentreProtonTransfers])
     return [cls() for cls in _CHECK_CLASSES]
 
 

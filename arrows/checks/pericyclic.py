@@ -44,18 +44,40 @@ def _cumulene_centre(state: ElectronState, atoms: set[int]) -> Optional[int]:
     return None
 
 
+def _judged_array(st: StepTrace) -> Optional[set[int]]:
+    """The atoms of the step's arrows when AR521 judges the step (a thermal pericyclic step of
+    first-row atoms with an even number of arrows), else None."""
+    change = st.change
+    if st.after is None or not change.pericyclic or len(change.moves) % 2 or photochemical(st):
+        return None
+    atoms = {a for m in change.moves for a in m.source_atoms + m.sink_atoms}
+    return atoms if {st.before.elements[a] for a in atoms} <= _FIRST_ROW_ARRAY else None
+
+
+def forbidden_hydrogen_shift(st: StepTrace) -> Optional[tuple[int, int, int]]:
+    """(hydrogen, origin, destination) of a [1,3]-shift of hydrogen that AR521 warns on: two arrows,
+    bond to bond, one bond to the hydrogen broken and one made; else None."""
+    change = st.change
+    if len(change.moves) != 2 or len(change.formed) != 1 or len(change.broken) != 1 or _judged_array(st) is None:
+        return None
+    formed, broken = tuple(change.formed[0]), tuple(change.broken[0])
+    hydrogen = set(formed) & set(broken)
+    if len(hydrogen) != 1 or st.before.elements[next(iter(hydrogen))] != 1:
+        return None
+    h = hydrogen.pop()
+    return h, next(a for a in broken if a != h), next(a for a in formed if a != h)
+
+
 class ForbiddenPericyclic(Check):
     name = "pericyclic selection rules"
     codes = ("AR521",)
 
     def step(self, st: StepTrace, context) -> Iterator[Diagnostic]:
         change = st.change
-        if st.after is None or not change.pericyclic or len(change.moves) % 2 or photochemical(st):
+        atoms = _judged_array(st)
+        if atoms is None:
             return
         before = st.before
-        atoms = {a for m in change.moves for a in m.source_atoms + m.sink_atoms}
-        if not {before.elements[a] for a in atoms} <= _FIRST_ROW_ARRAY:
-            return
         electrons = 2 * len(change.moves)
         label = before.label
         formed = [tuple(b) for b in change.formed]
@@ -76,13 +98,9 @@ class ForbiddenPericyclic(Check):
                       "thermally, a diene and an alkene make six-membered rings ([4+2])"),
                 bonds=tuple((label(i), label(j)) for i, j in formed), step=st.index)
             return
-        if electrons == 4 and len(formed) == 1 and len(broken) == 1:
-            hydrogen = set(formed[0]) & set(broken[0])
-            if len(hydrogen) != 1 or before.elements[next(iter(hydrogen))] != 1:
-                return
-            h = hydrogen.pop()
-            origin = next(a for a in broken[0] if a != h)
-            destination = next(a for a in formed[0] if a != h)
+        shift = forbidden_hydrogen_shift(st)
+        if shift is not None:
+            h, origin, destination = shift
             hetero = any(before.elements[a] in (7, 8) for a in (origin, destination))
             yield Diagnostic(
                 "AR521", f"{label(h)} moves from {label(origin)} to {label(destination)} in one step: a [1,3]-shift "

@@ -1,5 +1,6 @@
-"""Proton transfers that run far uphill (AR508), protons left bare (AR518), and a carbon that keeps
-its C-H pair while losing another bond's, ending as a carbene (AR524).
+"""Proton transfers that run far uphill (AR508), protons left bare (AR518), a carbon that keeps
+its C-H pair while losing another bond's, ending as a carbene (AR524), and a proton passed between
+two atoms of one molecule bonded to one common atom, round a four-membered ring (AR526).
 
 A proton transfer is an arrow from a lone pair (or a pi pair) of a base B to a hydrogen on X,
 with the X-H bond broken in the same step. The acid given up is judged on X before the step, the
@@ -17,13 +18,13 @@ from typing import Callable, Iterator, NamedTuple, Optional
 from rdkit import Chem
 
 from ..diagnostics import Diagnostic
-from ..electrons import nameable
+from ..electrons import ResolvedMove, nameable, pair
 from ..judgement.acidity import HYDROGEN, PYRROLE_TYPE_N, Acidity, acidity_of, pyrrole_type_nitrogen
 from ..judgement.perception import Perceived, RecentViews
 from ..model import Location
 from ..trace import StepTrace
 from . import Check
-from .pericyclic import photochemical
+from .pericyclic import forbidden_hydrogen_shift, photochemical
 
 DEFAULT_PKA_GAP = 12.0
 _gap: ContextVar[float] = ContextVar("pka_gap", default=DEFAULT_PKA_GAP)
@@ -416,3 +417,120 @@ class CarbeneFromCH(Check):
                      "reaction the hydrogen that moves is the allylic one, on the carbon next to the C=C, and its "
                      "pair makes the new pi bond",
                 atoms=(label(carbon), label(hydrogen)), step=st.index)
+
+
+class FourCentre(NamedTuple):
+    """A proton taken by `base` from `acid`, both bonded to `corner`: the ring of the transfer."""
+    base: int
+    acid: int
+    hydrogen: int
+    corner: int
+    move: ResolvedMove   # the arrow to the hydrogen
+
+
+def four_centre_transfers(st: StepTrace) -> list[FourCentre]:
+    """The arrows of one step that move a proton round a four-membered array inside one neutral
+    tautomer: a pair (lone or pi) into a new bond to a hydrogen whose bond to its holder breaks, the
+    two atoms bonded to one corner atom that the step changes and that both stay bonded to.
+
+    Not judged, as the shorthand textbooks write for a transfer by way of the solvent (common
+    practice): a proton handed across a corner the step leaves alone (a tetrahedral intermediate's
+    O- taking its own N+-H), or taken off a cation (the oxonium an alcohol makes as it adds to a
+    ketene, giving its proton to the enolate carbon). Nor an atom that takes the proton as it
+    leaves the corner (a carbonic acid monoester losing CO2 and the alcohol, as reagent guides draw
+    it), a hydride or a hydrogen atom (the hydrogen moves with a pair or one electron of its own),
+    a two-arrow [1,3]-H shift, which AR521 judges, or a step under light."""
+    change = st.change
+    before = st.before
+    elements, broken = before.elements, change.broken
+    found = []
+    for m in change.moves:
+        if m.electrons != 2 or len(m.sink_atoms) != 2:
+            continue
+        base, h = m.sink_atoms
+        if elements[h] != 1 or h in m.source_atoms:
+            continue
+        given_up = [b for b in broken if h in b]
+        if len(given_up) != 1 or before.bond_sums[h] != 1:
+            continue
+        acid = _other(given_up[0], h)
+        corner = _corner(st, base, acid, h)
+        if corner is not None and before.formal_charge(acid) <= 0 and pair(base, corner) not in broken:
+            found.append(FourCentre(base, acid, h, corner, m))
+    if found and (photochemical(st) or forbidden_hydrogen_shift(st) is not None):
+        return []
+    return found
+
+
+def _corner(st: StepTrace, base: int, acid: int, hydrogen: int) -> Optional[int]:
+    """The atom bonded to both `base` and `acid` (not to each other) whose bonds the step changes:
+    the corner round which a tautomerisation moves its pi bond (C1 of an imidic acid turning into
+    its amide; the CH2 of a cyclohexa-1,3-diene, beside both ends of its [1,5]-H shift, is none).
+    Only the atoms the step touches are asked about: most transfers are between two molecules."""
+    before = st.before
+    elements, bonded = before.elements, before.mol.GetBondBetweenAtoms
+    for corner in st.change.touched_atoms:
+        if corner not in (base, acid, hydrogen) and elements[corner] != 1 \
+                and bonded(corner, base) is not None and bonded(corner, acid) is not None:
+            return None if base == acid or bonded(base, acid) is not None else corner
+    return None
+
+
+class FourCentreProtonTransfers(Check):
+    """AR526: a proton handed in one step between two atoms of one molecule that are bonded to one
+    common atom: a four-membered cyclic transfer (an imidic acid's N taking its own O-H proton, a
+    carboxylic acid's C=O oxygen taking its O-H proton). Such a transfer is strained and slow: a
+    tautomerisation between 1,3-related heteroatoms goes by way of the solvent or an acid or base,
+    two proton transfers (common practice; computed barriers for formimidic acid to formamide,
+    from memory: about 45-50 kcal/mol direct, about 20 with one water). A proton passed inside one
+    molecule goes round six atoms (an ene reaction, a beta-keto acid's decarboxylation)."""
+    name = "four-centre proton transfers"
+    codes = ("AR526",)
+
+    def step(self, st: StepTrace, context) -> Iterator[Diagnostic]:
+        if st.after is None:
+            return
+        for t in four_centre_transfers(st):
+            label = st.before.label
+            base, acid, corner = label(t.base), label(t.acid), label(t.corner)
+            yield Diagnostic(
+                "AR526", f"{base} takes the proton of {acid} in one step, and both are bonded to {corner}: a "
+                f"four-membered cyclic proton transfer, strained and slow (computed barriers for formimidic acid "
+                f"to formamide are about 45-50 kcal/mol direct against about 20 with one water, from memory)",
+                t.move.move.loc, hint=_two_steps_hint(st, t), atoms=(base, acid, corner), step=st.index)
+
+
+def _two_steps_hint(st: StepTrace, t: FourCentre) -> str:
+    """The six-membered transfer the step offers (an atom four bonds from the acid that the step
+    changes and that holds a lone pair: a beta-keto acid's ketone oxygen), else two proton
+    transfers by way of water, written with the step's own atoms where they can be named."""
+    before, label = st.before, st.before.label
+    base, acid = label(t.base), label(t.acid)
+    named = nameable(before.mol, t.hydrogen)
+    six = _six_centre_base(st, t)
+    if six is not None and named and nameable(before.mol, six):
+        return (f"a proton passed inside one molecule goes round six atoms: let {label(six)}, four bonds from {acid} "
+                f"and changed by this step, take it, `:{label(six)} -> {label(t.hydrogen)}` (as a beta-keto acid's "
+                f"ketone oxygen does in its decarboxylation), or write two proton transfers by way of water brought "
+                f"in with `uses`")
+    free = 1 + max((a.GetAtomMapNum() for a in st.after.mol.GetAtoms()), default=0)
+    if named and nameable(before.mol, t.base):
+        taking = f"`:O{free} -> {label(t.hydrogen)}` in place of this arrow"
+        giving = (f"`:{base} -> H(O{free})` with `O{free}-H -> O{free}`" if t.move.source_kind == "lone_pair"
+                  else f"{base} takes a proton from it")
+    else:
+        taking, giving = f"water taking the proton of {acid}", f"{base} takes a proton from it"
+    return (f"write two proton transfers by way of the solvent or an acid or base (common practice): bring water "
+            f"in with `uses water = \"[OH2:{free}]\"`, {taking}, and in a step of its own {giving} (or protonate "
+            f"{base} first from an acid, then let water take the proton of {acid})")
+
+
+def _six_centre_base(st: StepTrace, t: FourCentre) -> Optional[int]:
+    """An N or O with a lone pair before the step, changed by it, four bonds from the acid: the
+    atom that takes the proton round a six-membered ring."""
+    before = st.before
+    for k in st.change.touched_atoms:
+        if k not in (t.base, t.acid) and before.elements[k] in (7, 8) and before.nonbonding[k] >= 2 \
+                and len(Chem.GetShortestPath(before.mol, k, t.acid)) == 5:
+            return k
+    return None

@@ -1,7 +1,8 @@
 """Ring closures: every bond a step forms between two atoms of one fragment closes a ring. Each
-closure gets its Baldwin class (arrows.judgement.baldwin); a three- or four-membered ring is
-AR501, a disfavoured class AR502 (naming a favoured closure between the same kinds of sites when
-the species offers one), anything else a note AR601."""
+closure gets its Baldwin class (arrows.judgement.baldwin); a ring that bridges the para or meta
+positions of an arene with a short bridge (a strained cyclophane) is AR527, a three- or
+four-membered ring AR501, a disfavoured class AR502 (naming a favoured closure between the same
+kinds of sites when the species offers one), anything else a note AR601."""
 from __future__ import annotations
 
 from collections import deque
@@ -10,9 +11,10 @@ from typing import TYPE_CHECKING, Iterator, Optional
 from rdkit import Chem
 
 from ..diagnostics import Diagnostic
-from ..electrons import ElectronState, atom_label
+from ..electrons import ElectronState, atom_label, nameable
 from ..model import Location, frozen
 from ..judgement.baldwin import BALDWIN_1976, ClosureClass, classify, geometry_of, ring_path, verdict
+from ..judgement.perception import RecentViews
 from ..trace import StepTrace
 from . import Check
 
@@ -228,24 +230,104 @@ def _handed_over(st: StepTrace, c: StepClosure) -> bool:
     return any(tuple(sorted((c.nucleophile, n))) in broken for n in c.ring if n not in (c.attacked,))
 
 
+# The shortest bridge of an isolable [n]paracyclophane and of an isolable [n]metacyclophane: [5] of
+# each has been bottled, [4] of each seen only as a transient intermediate (from memory).
+PARACYCLOPHANE_SMALLEST_BRIDGE = 5
+METACYCLOPHANE_SMALLEST_BRIDGE = 5
+
+
+@frozen
+class BridgedArene:
+    """A new ring through two atoms of one six-membered aromatic ring that are not neighbours."""
+
+    relation: str                 # "para" or "meta"
+    bridge: int                   # atoms of the new ring outside the arene
+    ends: tuple[int, int]         # the arene atoms the bridge joins: the one it already held, the other
+    ortho: tuple[int, ...]        # arene carbons beside the held end that hold a hydrogen
+
+
+def bridged_arene(st: StepTrace, c: StepClosure, views: RecentViews) -> Optional[BridgedArene]:
+    """The cyclophane a polar or radical closure makes when its ring (the shortest path before the
+    step, as Baldwin's rules count it) runs through three or four atoms of one six-membered ring
+    aromatic before the step, with a bridge shorter than the smallest isolable one; else None."""
+    ring = c.ring
+    # (the ring holds the bridge and four arene atoms (para) or three (meta))
+    if c.closure is None or len(ring) < 4 or len(ring) >= max(PARACYCLOPHANE_SMALLEST_BRIDGE + 4,
+                                                              METACYCLOPHANE_SMALLEST_BRIDGE + 3):
+        return None
+    view = views.of(st.before)
+    mol = view.mol
+    positions = [view.position(a) for a in ring]
+    if None in positions:
+        return None
+    for arene in mol.GetRingInfo().AtomRings():
+        if len(arene) != 6:
+            continue
+        run = [k for k, p in enumerate(positions) if p in arene]
+        if len(run) not in (3, 4) or run[-1] - run[0] != len(run) - 1 \
+                or not all(mol.GetAtomWithIdx(p).GetIsAromatic() for p in arene):
+            continue
+        relation = "meta" if len(run) == 3 else "para"
+        bridge = len(ring) - len(run)
+        smallest = METACYCLOPHANE_SMALLEST_BRIDGE if relation == "meta" else PARACYCLOPHANE_SMALLEST_BRIDGE
+        if bridge < 1 or bridge >= smallest:
+            continue
+        # The end the bridge already held is the one the new bond does not reach. Where the new bond
+        # joins two atoms of the bridge, neither end is the attacked one: no ortho carbon to propose.
+        first, last = run[0], run[-1]
+        held, other = (first, last) if first > 0 else (last, first)
+        ortho: tuple[int, ...] = ()
+        if first == 0 or last == len(ring) - 1:
+            ortho = tuple(view.original[n.GetIdx()] for n in mol.GetAtomWithIdx(positions[held]).GetNeighbors()
+                          if n.GetIdx() in arene and n.GetAtomicNum() == 6 and n.GetTotalNumHs() > 0)
+        return BridgedArene(relation, bridge, (ring[held], ring[other]), ortho)
+    return None
+
+
+def _cyclophane_hint(st: StepTrace, c: StepClosure, bridged: BridgedArene) -> str:
+    """Close onto a carbon ortho to the bridge's end: the fused ring such closures make, with the
+    arrow when the closing pair was an arene pi bond and the ortho carbon's own pi bond can be named."""
+    label, before = st.before.label, st.before
+    size = bridged.bridge + 2
+    if not bridged.ortho:
+        return (f"a bridge of {bridged.bridge} atoms cannot span the {bridged.relation} positions of a benzene ring; "
+                f"check which atoms bond: a closure onto the arene makes a fused ring at the carbon ortho to the chain")
+    names = " or ".join(label(o) for o in bridged.ortho)
+    partner = bridged.ends[1]
+    far = c.attacked if partner == c.nucleophile else c.nucleophile
+    arrow = ""
+    closing = next((m for m in st.change.moves if m.source_kind == "bond" and set(m.sink_atoms) == {c.nucleophile,
+                    c.attacked} and partner in m.source_atoms), None)
+    if closing is not None and nameable(before.mol, far):
+        # The ortho carbon's own pi bond, best one that leaves the cation off the bridge's end.
+        bonds = sorted(((o, n.GetIdx()) for o in bridged.ortho for n in before.mol.GetAtomWithIdx(o).GetNeighbors()
+                        if before.bond_electrons(o, n.GetIdx()) == 4 and nameable(before.mol, o)
+                        and nameable(before.mol, n.GetIdx())), key=lambda b: b[1] == bridged.ends[0])
+        if bonds:
+            o, pi = bonds[0]
+            arrow = f", `{label(o)}={label(pi)} -> {label(o)}-{label(far)}`"
+    return (f"close onto the carbon ortho to the chain, {names}{arrow}: the fused {size}-membered ring that a "
+            f"closure onto an arene makes (common practice: Friedel-Crafts, Pictet-Spengler and Skraup closures)")
+
+
 class RingClosures(Check):
     name = "ring closures"
-    codes = ("AR501", "AR502", "AR601")
+    codes = ("AR501", "AR502", "AR527", "AR601")
 
     def __init__(self) -> None:
         self.recent: deque[ElectronState] = deque(maxlen=LOOK_BACK)   # states before the current step
 
     def step(self, st: StepTrace, context) -> Iterator[Diagnostic]:
-        found = [self.judge(st, c) for c in closures_in_step(st)]
+        found = [self.judge(st, c, context.views) for c in closures_in_step(st)]
         self.recent.append(st.before)
         return found
 
-    def judge(self, st: StepTrace, c: StepClosure) -> Diagnostic:
+    def judge(self, st: StepTrace, c: StepClosure, views: RecentViews) -> Diagnostic:
         label = lambda i: st.before.label(i)   # noqa: E731
         a, b = label(c.nucleophile), label(c.attacked)
         where = dict(bonds=((a, b),), step=st.index, atoms=(a, b))
         size = len(c.ring)
-        opening = f"{a}-{b} closes a {size}-membered ring"
+        opening = f"{a}-{b} closes {'an' if size in (8, 11, 18) else 'a'} {size}-membered ring"
         if c.broken_partner is not None and c.broken_partner in c.ring \
                 and st.after.mol.GetBondBetweenAtoms(c.attacked, c.broken_partner) is None:
             # The bond that breaks at the attacked atom is a bond of that ring (endo): the ring is
@@ -266,6 +348,18 @@ class RingClosures(Check):
         if c.closure is None:
             return Diagnostic("AR601", f"{opening} in a pericyclic step (electrons moving round a cyclic array of atoms); "
                               f"Baldwin's rules do not apply", c.loc or st.step.loc, **where)
+        bridged = bridged_arene(st, c, views)
+        if bridged is not None:
+            held, other = (label(e) for e in bridged.ends)
+            cyclophane = f"[{bridged.bridge}]{bridged.relation}cyclophane"
+            smallest = (PARACYCLOPHANE_SMALLEST_BRIDGE if bridged.relation == "para"
+                        else METACYCLOPHANE_SMALLEST_BRIDGE)
+            return Diagnostic(
+                "AR527", f"{opening} ({c.closure.name}) through {held} and {other}, {bridged.relation} on one "
+                f"aromatic ring, with a bridge of {bridged.bridge} atom{'s' if bridged.bridge > 1 else ''}: the "
+                f"ring of a {cyclophane}, whose arene must bend out of plane; [n]{bridged.relation}cyclophanes "
+                f"with fewer than {smallest} bridge atoms are not isolable, only transient (from memory)",
+                c.loc or st.step.loc, hint=_cyclophane_hint(st, c, bridged), **where)
         passed_along = opening.endswith("no ring left)")
         if passed_along and st.before.elements[c.attacked] in _METALS:
             # A metal handed from one atom to the next through a four-centre array (MgBr going off with
