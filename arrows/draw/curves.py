@@ -14,7 +14,9 @@ tries wider arcs round the structure) and one is chosen for every arrow of a ste
 together, by a penalty: passing through a label or an atom is nearly forbidden, crossing a bond
 or another arrow is costly, an arc bulging into the molecule costs more than one bulging out,
 an S-shaped arc is avoided, so is an arc that loops back on itself or squeezes into the angle
-between the two bonds it joins, and two heads of one step never share a position.
+between the two bonds it joins, and two heads of one step never share a position. Where a
+group shifts onto an atom whose own pair goes into the bond beside it, that pair's dots sit on
+the other side of the bond and its head stops further along it, so the two heads stand apart.
 """
 from __future__ import annotations
 
@@ -48,6 +50,8 @@ _KEEP = 4          # candidates per arrow that enter the joint choice
 _COST = attrgetter("cost")   # a candidate's cost, read in C when candidates are sorted
 _GAP_REACH = 0.45  # bond lengths: farthest a head into a forming bond stops from the atom it reaches
 _SHIFT_REACH = 0.22  # bond lengths: where the head of a 1,2-shift stops from the atom the group moves to
+_HEAD_ROOM = 0.5     # bond lengths: two heads of one step closer than this read as one place
+_SINK_SLIDE = 0.25   # bond lengths: the furthest a head into a bond moves along it to give way (within its middle half)
 _MAX_TURN = math.radians(180)   # an arc turning further than this curls back on itself
 _CURL_WEIGHT = 0.5              # penalty per degree beyond _MAX_TURN
 _LOOP_STANDOFF = 0.45           # bond lengths: a turned-back arc standing further off its chord is a loop
@@ -314,10 +318,12 @@ class ArrowPlanner:
         marks: list[Mark] = []
         sinks = [self._sink(move, state, panel) for move in moves]
         self._separate_shared_sinks(moves, sinks, panel)
+        self._separate_crowded_heads(sinks)
         # Where other arrows of the step leave a bond: dots beside a bond keep off that side.
         tails = [(panel.positions[m.source_atoms[0]] + panel.positions[m.source_atoms[1]]) / 2
                  for m in moves if m.source_kind == "bond"]
-        sources = [self._source(move, panel, sink, marks, tails) for move, sink in zip(moves, sinks)]
+        sources = [self._source(move, panel, sink, marks, tails, [s for s in sinks if s is not sink])
+                   for move, sink in zip(moves, sinks)]
         tries = []
         for move, src, snk in zip(moves, sources, sinks):
             hooks = self._hooks(move, src, snk, panel)
@@ -338,7 +344,7 @@ class ArrowPlanner:
 
     # anchors
     def _source(self, move: ResolvedMove, panel: PanelStructure, sink: _Anchor, marks: list[Mark],
-                tails: list[complex] = ()) -> _Anchor:
+                tails: list[complex] = (), others: list[_Anchor] = ()) -> _Anchor:
         if move.source_kind == "bond":
             a, b = move.source_atoms
             mid = (panel.positions[a] + panel.positions[b]) / 2
@@ -362,14 +368,20 @@ class ArrowPlanner:
             labels = [unit(p - centre) for i, p in panel.positions.items() if i != atom and i in panel.atoms
                       and 1e-9 < abs(p - centre) < steering(i) * self.bl]
             occupied = list(panel.occupied[atom])
+            # Another arrow's head into a new bond of this atom, nearer it than the bond's middle
+            # (a group shifting onto this atom), sets the dots on the other side of the bond, so
+            # the two arrows come in from either side.
+            landing = [unit(s.point - centre) for s in others
+                       if s.kind == "gap" and atom in s.atoms and abs(s.point - centre) < abs(sink.point - centre)]
             sign = next((m for m in panel.marks if m.kind == "charge" and m.atom == atom and m.box is not None), None)
-            if sign is not None and panel.atoms[atom].box is None and occupied:
+            if sign is not None and (panel.atoms[atom].box is None or landing) and occupied:
                 # Beside a skeletal vertex the sign was set before the arrows: the dots may take
                 # its gap (the arc over to the bond needs the widest), and the sign moves on
-                # (_clear_marks) if it finds a place clear of the bonds.
+                # (_clear_marks) if it finds a place clear of the bonds. So too beside a label
+                # where that gap is the one left on the far side of the bond from another head.
                 middle = complex((sign.box.x0 + sign.box.x1) / 2, (sign.box.y0 + sign.box.y1) / 2)
                 occupied.remove(min(occupied, key=lambda d: abs(d - unit(middle - centre))))
-            ranked = _beside_bond(occupied + labels, toward, near)
+            ranked = _beside_bond(occupied + labels, toward, near, landing)
         else:
             steps = 8 if panel.atoms[atom].box is not None else 24
             ranked = ranked_directions(panel.occupied[atom], toward, spread=0.35, steps=steps)
@@ -561,6 +573,29 @@ class ArrowPlanner:
                 else:
                     along = unit(pos[towards[k]] - sink.point)
                 sink.point = sink.point + along * 0.16 * self.bl
+
+    def _separate_crowded_heads(self, sinks: list[_Anchor]) -> None:
+        """A head into a bond that would stop within _HEAD_ROOM of where another arrow of the
+        step ends in a new bond to one of the bond's atoms (a group shifting onto the nitrogen
+        whose own pair goes into the bond beside it: the Hofmann, Curtius, Schmidt) stops further
+        along the bond, away from that head, so the two read as two places."""
+        room = _HEAD_ROOM * self.bl
+        for sink in sinks:
+            if sink.kind != "bond":
+                continue
+            crowd = [s.point for s in sinks if s.kind == "gap" and set(s.atoms) & set(sink.atoms)
+                     and abs(s.point - sink.point) < room]
+            if not crowd:
+                continue
+            away = sum(((sink.point - p) * sink.axis.conjugate()).real for p in crowd)
+            along = sink.axis if away >= 0 else -sink.axis
+            # How far along the bond each crowding head is left _HEAD_ROOM behind (a root of
+            # |v + t * along| = room, v from that head to the sink), at most _SINK_SLIDE.
+            slide = 0.0
+            for p in crowd:
+                ahead = ((sink.point - p) * along.conjugate()).real
+                slide = max(slide, -ahead + math.sqrt(ahead * ahead - abs(sink.point - p) ** 2 + room * room))
+            sink.point = sink.point + along * min(slide, _SINK_SLIDE * self.bl)
 
     # candidate curves
     def _candidates(self, src: _Anchor, snk: _Anchor, panel: PanelStructure, forward_only: bool = False
@@ -976,6 +1011,9 @@ _CROWDING_REACH = 1.2   # bond lengths: an atom this close steers them away too
 _MARK_GAP = 0.12    # font sizes: the least gap between an arrow's dots and another mark of their atom
 _SIGN_ROOM = math.radians(40)   # a charge sign moved for the dots keeps this far round from bonds and dots
 _DOTS_ROOM = math.radians(45)     # more room than this between dots and a bond counts as no better
+_PAIR_TURN = math.radians(60)   # beside another arrow's head, dots stand at least this far round from their bond
+_PAIR_ROOM = math.radians(30)   # and at least this far from every bond of the atom
+_HEAD_SIDE = 2.0   # what dots lose on the side of their bond where another arrow's head lands (more than facing a tail)
 _AROUND = tuple(cmath.rect(1.0, k * math.pi / 12) for k in range(24))
 
 
@@ -1018,17 +1056,24 @@ def _within_three_bonds(atom: int, bonds) -> set[int]:
     return reached - {atom}
 
 
-def _beside_bond(occupied: list[complex], toward: complex, tails: list[complex] = ()) -> Iterator[complex]:
+def _beside_bond(occupied: list[complex], toward: complex, tails: list[complex] = (),
+                 heads: list[complex] = ()) -> Iterator[complex]:
     """Where the dots of a pair that moves into a bond of its own atom sit, best first: in the free gap
     nearest a right angle to that bond (as far round as the room allows), not beside it, so
     the arrow from them to the bond's middle bends visibly (common practice); and on the side
     away from `tails`, the directions to where other arrows of the step leave a bond nearby, so
-    the dots do not stand in their way."""
+    the dots do not stand in their way; and on the other side of the bond from `heads`, the
+    directions to where other arrows of the step end nearby, in front of the atom's other bonds."""
     # Each direction's score in one loop, clearance and the facing written out (no call per
     # direction and bond: the scores only rank the directions, as a call each would).
     phase, taken, away = cmath.phase, [o for o in occupied if o], [t.conjugate() for t in tails]
+    # (the side of the bond each head lies on: the sign of its turn from `toward`)
+    head_sides = [(h * toward.conjugate()).imag for h in heads]
+    around = _AROUND
+    if head_sides:   # (the gap left beside a head may be narrow: its edges are tried as well)
+        around = _AROUND + (toward * cmath.rect(1.0, _PAIR_TURN), toward * cmath.rect(1.0, -_PAIR_TURN))
     scores = []
-    for d in _AROUND:
+    for d in around:
         turn = abs(phase(d / toward))
         facing = 0.0
         for t in away:
@@ -1040,12 +1085,25 @@ def _beside_bond(occupied: list[complex], toward: complex, tails: list[complex] 
             gap = abs(phase(d / o))
             if gap < room:
                 room = gap
+        crowded = 0.0
+        if head_sides:
+            # On a head's side of the bond; behind another bond of the atom, which the arc round
+            # to the bond's far side would cross (the bond the pair goes into, along `toward`,
+            # stands between none); or so near a bond that the dots read as its, or the arc
+            # from them to the bond as a tick.
+            side = (d * toward.conjugate()).imag
+            if any(h * side > 0 for h in head_sides):
+                crowded += _HEAD_SIDE
+            if any((o * toward.conjugate()).imag * side > 0 and 1e-6 < abs(phase(o / toward)) < turn for o in taken):
+                crowded += _HEAD_SIDE
+            if turn < _PAIR_TURN - 1e-9 or room < _PAIR_ROOM - 1e-9:
+                crowded += _HEAD_SIDE
         scores.append(min(room, _DOTS_ROOM) + 0.5 * min(turn, math.pi / 2) - 0.6 * max(0.0, turn - math.pi / 2)
-                      - facing)
-    best = max(range(len(_AROUND)), key=scores.__getitem__)   # of equals, the first found
-    yield _AROUND[best]
+                      - facing - crowded)
+    best = max(range(len(around)), key=scores.__getitem__)   # of equals, the first found
+    yield around[best]
     # The rest only if asked for; sorted is stable, so equals keep their order round the circle.
-    yield from (_AROUND[k] for k in sorted(range(len(_AROUND)), key=lambda k: -scores[k]) if k != best)
+    yield from (around[k] for k in sorted(range(len(around)), key=lambda k: -scores[k]) if k != best)
 
 
 _SAME_SIDE = 40.0   # the two fishhooks of one split bond drawn on one side of it
