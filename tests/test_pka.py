@@ -442,3 +442,56 @@ def test_a_dienamine_protonated_at_its_far_carbon_is_not_a_bare_carbocation():
             'step "protonation at C4"\n    C3=C4 -> C4-H(O22)\n    O22-H -> O22\nend\n')
     _, diags = check_text(text, "dienamine.mech")
     assert not [d for d in diags if d.code == "AR508"], [d.to_text() for d in diags]
+
+
+# A sulfone's alpha C-H: 29-31 on Bordwell's DMSO scale (memory), about 24 in water by the same
+# drop acetone shows (26.5 -> 19.3); the Julia olefination's sulfone anion is made with BuLi or
+# LDA, the Ramberg-Backlund's with hydroxide (Kurti and Czako 2005, memory).
+ET3N_ON_A_SULFONE = """\
+species sulfone = "[CH3:1][CH2:2][S:3](=O)(=O)C"
+species base = "CC[N:9](CC)CC"
+step "deprotonation"
+    :N9 -> H(C2)
+    C2-H -> C2
+end
+"""
+
+
+def test_an_amine_on_a_sulfone_is_uphill():
+    found = [d for d in check_text(ET3N_ON_A_SULFONE, "sulfone")[1] if d.code == "AR508"]
+    assert len(found) == 1 and "a C-H beside a sulfone (~24)" in found[0].message
+
+
+def test_hydroxide_on_a_sulfone_is_not_flagged():
+    text = ET3N_ON_A_SULFONE.replace('species base = "CC[N:9](CC)CC"', 'species base = "[OH-:9]"').replace(
+        ":N9 -> H(C2)", ":O9 -> H(C2)")
+    assert [d.code for d in check_text(text, "sulfone")[1] if d.severity != "note"] == []
+
+
+# A Breslow adduct's alkoxide lets the thiazolium ylide go (the benzoin and Stetter catalysts'
+# turnover; Breslow 1958, Kurti and Czako 2005, memory). The thiazolium C2-H has pKa about 18
+# (Washabaugh and Jencks 1988, memory): its ylide leaves as a stabilised carbanion, not as the
+# vinyl anion (~44) it was read as.
+THIAZOLIUM_RELEASED = """\
+species adduct = "C[N+:1]1=[C:2]([CH:5]([O-:6])c2ccccc2)[S:3]C=C1"
+step "catalyst released"
+    :O6 -> C5=O6
+    C5-C2 -> C2
+end
+product "O=Cc1ccccc1"
+"""
+
+
+def test_a_thiazolium_ylide_leaving_its_breslow_adduct_is_not_flagged():
+    assert [d.code for d in check_text(THIAZOLIUM_RELEASED, "breslow")[1] if d.severity != "note"] == []
+
+
+@pytest.mark.parametrize("smiles, atom, pka", [
+    ("C[n+]1cscc1", 2, 18),    # 3-methylthiazolium C2-H (Washabaugh and Jencks 1988, memory)
+    ("C[n+]1ccn(C)c1", 6, 23),  # 1,3-dimethylimidazolium C2-H (Amyes, Diver, Richard, Rivas 2004, memory)
+])
+def test_azolium_c2_h(smiles, atom, pka):
+    mol = perceived(Chem.MolFromSmiles(smiles))
+    assert mol.GetAtomWithIdx(atom).GetTotalNumHs() == 1
+    entry = acidity_of(mol, atom)
+    assert entry is not None and entry.pka == pka

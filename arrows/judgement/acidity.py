@@ -105,6 +105,11 @@ TABLE: tuple[Acidity, ...] = (
             NOT_LISTED),
     Acidity("an enone gamma C-H", "a dienolate", "[CX4;!H0][CX3]=[CX3][CX3]=O", 20, "~20", NOT_LISTED),
     Acidity("a C-H beside a sulfoxide", "a sulfinyl carbanion", "[CX4;!H0][SX3](=O)", 35, "~35", NOT_LISTED),
+    # A sulfone's alpha C-H: 29 (methyl phenyl sulfone) to 31 (dimethyl sulfone) on Bordwell's DMSO
+    # scale (memory); about 24 in water, estimated as acetone's falls from 26.5 in DMSO to 19.3 in
+    # water. Hydroxide serves (a Ramberg-Backlund), an amine does not (the Julia's anion takes BuLi).
+    Acidity("a C-H beside a sulfone", "a sulfonyl carbanion", "[CX4;!H0][SX4](=O)=O", 24, "~24",
+            "estimated aqueous value: 29-31 in DMSO (Bordwell, memory), less acetone's 7-unit drop to water"),
     Acidity("a dithiane C-H", "a dithianyl anion", "[CX4;!H0]([SX2])[SX2]", 31, "~31", NOT_LISTED),
     Acidity("a triarylmethane C-H", "a trityl anion", "[CX4H1](c)(c)c", 31.5, "~31.5", NOT_LISTED),
     Acidity("a diarylmethane C-H", "a diarylmethyl anion", "[CX4;!H0](c)c", 32, "~32", NOT_LISTED),
@@ -122,6 +127,13 @@ TABLE: tuple[Acidity, ...] = (
     # read as an alkane's, as the README says of a C-H the table does not name.
     Acidity("an aldehyde C-H", "an acyl anion", "[CX3H1](=O)[#6,#1]", 50, "~50",
             "common practice: not acidic to polar bases; no tabulated value"),
+    # The C2-H between the cationic N and the S of a thiazolium ion (thiamine's, the benzoin and
+    # Stetter catalysts') about 18, and between the two N of an imidazolium ion about 23 (Washabaugh
+    # & Jencks 1988; Amyes, Diver, Richard & Rivas 2004; memory): its ylide, the catalyst a Breslow
+    # adduct lets go, is a weak base for a carbanion, not a vinyl anion.
+    Acidity("a thiazolium C2-H", "a thiazolium ylide", "[#6X3;!H0](~[#7X3+])~[#16X2]", 18, "~18", NOT_LISTED),
+    Acidity("an imidazolium C2-H", "an N-heterocyclic carbene", "[#6X3;!H0](~[#7X3+])~[#7X3]", 23, "~23",
+            NOT_LISTED),
     Acidity("an alkene or arene C-H", "a vinyl or aryl anion", "[#6X3;!H0;$([#6]=[#6]),$([c])]", 44, "~44",
             TEXTBOOK),
     # Not an alkane: a C-H beside a C=N (an imine, an oxime or its ester: the Neber's methyl), or on
