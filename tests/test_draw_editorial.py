@@ -19,6 +19,7 @@ import pytest
 
 import arrows
 from arrows.draw import STYLES, build_scene
+from scenes import panels_per_row as _panels_per_row
 from test_draw_geometry import _proton_transfers, _segments_cross as _cross
 
 ROOT = Path(__file__).resolve().parents[1]
@@ -515,17 +516,6 @@ def test_a_leaving_group_crowding_its_carbon_steps_aside(name, panel, leaving):
                  key=lambda n: abs(before[n] - before[group]))
     assert abs(before[group] - before[carbon]) < 1.05
     assert abs(after[group] - after[carbon]) >= 1.2 - 1e-6, (carbon, abs(after[group] - after[carbon]))
-
-
-def _panels_per_row(scene) -> list[int]:
-    """How many panels each row of a scene holds (panels whose boxes share height are one row)."""
-    rows: list[list[float]] = []
-    for top, bottom in sorted((p.origin[1] + p.box.y0, p.origin[1] + p.box.y1) for p in scene.panels):
-        if rows and top < rows[-1][1] - 1e-6:
-            rows[-1][1], rows[-1][2] = max(rows[-1][1], bottom), rows[-1][2] + 1
-        else:
-            rows.append([top, bottom, 1])
-    return [count for _, _, count in rows]
 
 
 @pytest.mark.parametrize("stem, style, rows", [

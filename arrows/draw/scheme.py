@@ -165,8 +165,11 @@ def _unused_entries(st: StepTrace) -> frozenset[int]:
 def build_scene(trace: Trace, style: Style, diagnostics: Sequence[Diagnostic] = ()) -> Scene:
     """Lay out the whole scheme. Shrinks it (and says so in `notes`) if one panel is wider than
     the page, or the slide is too tall; draws a slide's scheme that leaves much of the page empty
-    larger, to fill it (_filling_the_page, also noted)."""
-    scene, fit = _SceneBuilder(trace, style, diagnostics).build()
+    larger, to fill it (_filling_the_page, also noted). A slide's rows are chosen at the preset size
+    and kept when it is shrunk or enlarged (re-wrapped at 87%, the acetal's 3 + 3 + 2 panels became
+    4 + 3 + 1)."""
+    builder = _SceneBuilder(trace, style, diagnostics)
+    scene, fit = builder.build()
     uneven = (_uneven_bonds(scene) + _crowded_atoms(scene) + _signs_on_bonds(scene) + _heavy_lines(style)
               + _glyphs_wanting(trace, style) + _font_missing(style))
     if fit < 0.999:
@@ -174,7 +177,7 @@ def build_scene(trace: Trace, style: Style, diagnostics: Sequence[Diagnostic] = 
             smaller = style.scaled(fit * 0.995)
             scene, _ = _SceneBuilder(trace, smaller, diagnostics, style).build()
         else:
-            fit, smaller, scene = _shrunk_to_the_margins(trace, style, diagnostics, fit)
+            fit, smaller, scene = _shrunk_to_the_margins(trace, style, diagnostics, fit, builder.wrapping)
         note = f"drawn at {fit:.0%} of the {style.name} size to fit the page"
         if smaller.small_size < SMALLEST_TEXT_PT:
             note += (f"; the smallest text is {smaller.small_size:.1f} pt (below {SMALLEST_TEXT_PT:g} pt): "
@@ -184,7 +187,7 @@ def build_scene(trace: Trace, style: Style, diagnostics: Sequence[Diagnostic] = 
         uneven += (f"the smallest text (charges, subscripts) is {style.small_size:.1f} pt at print size, below "
                    f"{SMALLEST_TEXT_PT:g} pt: try --font-size {SMALLEST_TEXT_PT / style.small_scale:g} or more",)
     elif _may_fill(style):
-        scene = _filling_the_page(trace, style, diagnostics, scene)
+        scene = _filling_the_page(trace, style, diagnostics, scene, builder.wrapping)
     return replace(scene, notes=scene.notes + uneven) if uneven else scene
 
 
@@ -212,14 +215,15 @@ def _may_fill(style: Style) -> bool:
             == (preset.font_size, preset.bond_length, preset.line_width))
 
 
-def _filling_the_page(trace: Trace, style: Style, diagnostics: Sequence[Diagnostic], scene: Scene) -> Scene:
+def _filling_the_page(trace: Trace, style: Style, diagnostics: Sequence[Diagnostic], scene: Scene,
+                      wrapping: tuple[int, ...]) -> Scene:
     """The scheme drawn at the largest factor, up to _MOST_ENLARGED, at which it still fits the
     page's width and height within the margins, in the same rows (_enlarged: the title grows less).
     The factor is worked out from the scheme laid out at its own height, then checked by laying
     it out again (the rows are chosen afresh at the larger size, a title may wrap into more
     lines); while it does not fit, a smaller factor is tried. `scene` (at the preset size) is
-    returned when no factor of _LEAST_ENLARGED or more fits."""
-    natural = _natural(trace, style, diagnostics)
+    returned when no factor of _LEAST_ENLARGED or more fits. `wrapping`: the panels per row of `scene`."""
+    natural = _natural(trace, style, diagnostics, wrapping)
     rows = _row_starts(natural)
     # (0.995: a row as wide as the page to the last digit may be wrapped by a rounding error)
     factor = min(_MOST_ENLARGED, 0.995 * _room_factor(natural, style, title_kept=True))
@@ -231,7 +235,7 @@ def _filling_the_page(trace: Trace, style: Style, diagnostics: Sequence[Diagnost
         factor = math.floor(factor * style.bond_length + 1e-9) / style.bond_length
         if factor < _LEAST_ENLARGED:
             break
-        drawn, fit = _SceneBuilder(trace, _enlarged(style, factor), diagnostics, style).build()
+        drawn, fit = _SceneBuilder(trace, _enlarged(style, factor), diagnostics, style, wrapping).build()
         if fit >= 1.0 and _within_margins(drawn, style) and _row_starts(drawn) == rows:
             note = (f"drawn at {factor:.0%} of the {style.name} size to fill the page "
                     f"(--font-size {style.font_size:g} keeps the {style.name} size)")
@@ -240,27 +244,30 @@ def _filling_the_page(trace: Trace, style: Style, diagnostics: Sequence[Diagnost
     return scene
 
 
-def _shrunk_to_the_margins(trace: Trace, style: Style, diagnostics: Sequence[Diagnostic], fit: float
-                           ) -> tuple[float, Style, Scene]:
+def _shrunk_to_the_margins(trace: Trace, style: Style, diagnostics: Sequence[Diagnostic], fit: float,
+                           wrapping: tuple[int, ...]) -> tuple[float, Style, Scene]:
     """A scheme too large for a page of fixed height, shrunk until all of it lies within the
     margins: the factor, the style drawn and the scene. The builder's own factor, `fit` (the page's
     height over the scheme's), is tried first; it left the bottom of the annulation scheme 6 pt in
     the bottom margin, as the margins do not shrink with the scheme. Then the height within the
-    margins over the scheme's (in the rows it has at its full size) is tried, then less."""
+    margins over the scheme's (in the rows it has at its full size, `wrapping`, which it keeps) is
+    tried, then less."""
     factor = fit
     for attempt in range(_FIT_TRIES):
         smaller = style.scaled(factor * 0.995)
-        scene, _ = _SceneBuilder(trace, smaller, diagnostics, style).build()
+        scene, _ = _SceneBuilder(trace, smaller, diagnostics, style, wrapping).build()
         if _within_margins(scene, style):
             break
-        estimate = _room_factor(_natural(trace, style, diagnostics), style, title_kept=False) if attempt == 0 else factor
+        estimate = (_room_factor(_natural(trace, style, diagnostics, wrapping), style, title_kept=False)
+                    if attempt == 0 else factor)
         factor = estimate if estimate < factor else 0.97 * factor
     return factor, smaller, scene
 
 
-def _natural(trace: Trace, style: Style, diagnostics: Sequence[Diagnostic]) -> Scene:
-    """The scheme laid out on a page as wide as the style's and as tall as the scheme needs."""
-    return _SceneBuilder(trace, style, diagnostics, replace(style, page_height_mm=None)).build()[0]
+def _natural(trace: Trace, style: Style, diagnostics: Sequence[Diagnostic], wrapping: tuple[int, ...]) -> Scene:
+    """The scheme laid out on a page as wide as the style's and as tall as the scheme needs, in
+    `wrapping`'s rows."""
+    return _SceneBuilder(trace, style, diagnostics, replace(style, page_height_mm=None), wrapping).build()[0]
 
 
 def _enlarged(style: Style, factor: float) -> Style:
@@ -454,8 +461,12 @@ def _signs_on_bonds(scene: Scene) -> tuple[str, ...]:
 
 
 class _SceneBuilder:
-    def __init__(self, trace: Trace, style: Style, diagnostics: Sequence[Diagnostic], page_style: Style = None):
+    def __init__(self, trace: Trace, style: Style, diagnostics: Sequence[Diagnostic], page_style: Style = None,
+                 wrapping: Optional[tuple[int, ...]] = None):
+        """`wrapping`: how many panels each row holds, kept as given (None: chosen for the page,
+        and told in `wrapping` after build)."""
         self.trace, self.style, self.diagnostics = trace, style, list(diagnostics)
+        self.wrapping = wrapping
         self.page = page_style or style
         self.face = FontFace(style.font_family)
         self.bold = FontFace(style.font_family, bold=True)
@@ -697,10 +708,7 @@ class _SceneBuilder:
         # Rows: a reaction arrow always travels with the panel after it.
         units: list[list[_Item]] = [[items[0]]] + [items[k:k + 2] for k in range(1, len(items), 2)]
         widths = [sum(i.width for i in u) + gap * (len(u) - 1) for u in units]
-        widest = max(widths)
         extents = [(max(i.above for i in u), max(i.below for i in u)) for u in units]
-        rows = [[item for k in row for item in units[k]] for row in _chosen_rows(widths, extents, gap, avail)]
-        self.fit = min(1.0, avail / widest) if widest > avail else 1.0
 
         texts: list[TextRun] = []
         y = margin
@@ -712,8 +720,18 @@ class _SceneBuilder:
                 texts.append(TextRun(line, margin, y, ts, bold=True))
                 y += 0.45 * ts
             y += 0.4 * self.bl
-        placed_panels, arrows = [], []
         row_gap = 0.5 * self.bl
+        if self.wrapping is None:
+            # A page of fixed height leaves the rows what the title does not take (the error list
+            # of a forced draft is left out: it wraps anew at every size).
+            room = page.page_height - margin - y if page.page_height is not None else None
+            most = _MOST_ENLARGED if _may_fill(style) else 1.0
+            self.wrapping = tuple(len(row) for row in _chosen_rows(widths, extents, gap, avail, row_gap, room, most))
+        starts = [sum(self.wrapping[:r]) for r in range(len(self.wrapping) + 1)]
+        rows = [[item for unit in units[a:b] for item in unit] for a, b in zip(starts, starts[1:])]
+        widest = max(sum(widths[a:b]) + gap * (b - a - 1) for a, b in zip(starts, starts[1:]))
+        self.fit = min(1.0, avail / widest)
+        placed_panels, arrows = [], []
         for r, row in enumerate(rows):
             above = max(i.above for i in row)
             below = max(i.below for i in row)
@@ -772,38 +790,86 @@ def _rows_within(widths: list[float], gap: float, limit: float) -> list[list[int
 
 
 _MOST_WRAPPINGS = 20_000   # ways of wrapping weighed one by one; a longer scheme is filled row by row
+# How much of the largest scale any wrapping allows a wrapping may give up: a split that shrinks
+# the drawing much is worse than the lone panel it avoids. For rows of which none is a lone panel
+# (balanced), 10%; for moving a lone panel off the last row, 5%; for evenness otherwise, 5%.
+_SCALE_GIVEN = {0: 0.9, 1: 0.95, 2: 0.95}
+_HEIGHT_GIVEN = 1.1   # on a page that grows with the scheme, a wrapping this much taller than the least is not weighed
 
 
-def _chosen_rows(widths: list[float], extents: list[tuple[float, float]], gap: float, avail: float
-                 ) -> list[list[int]]:
-    """The units (by index, in order) wrapped into as few rows as fit the page (as filling each
-    row before the next gives), then, of the ways to wrap them into that many rows, one no wider
-    than the page whose rows stand least tall together (page height is what a journal counts),
-    and among those within 10% of the least, the most even, its widest row narrowest (a scheme
-    of four equal steps wraps two and two, not three and one with half a row empty; an editor's
-    first request of a wrapped scheme), the earlier rows fuller at a tie. `extents`: each unit's
-    height above and below the row's centre line."""
+@dataclass
+class _Wrapping:
+    rows: list[list[int]]
+    lone: int           # 0: no row a lone panel; 1: the first or the last only; 2: a middle one
+    uneven: float       # the white the rows leave beside them, as a share of as many rows as wide as the widest
+    height: float       # the rows' heights together, without the gaps between them
+    scale: float        # the largest the page lets the scheme be drawn in these rows (at most the cap)
+
+
+def _chosen_rows(widths: list[float], extents: list[tuple[float, float]], gap: float, avail: float,
+                 row_gap: float = 0.0, room: Optional[float] = None, most: float = 1.0) -> list[list[int]]:
+    """The units (by index, in order) wrapped into rows. On a page that grows with the scheme (room
+    None: a journal's, whose type size is kept), into as few rows as fit the page's width (as
+    filling each row before the next gives), no row wider than it; on a page of fixed height (a
+    slide's, which the scheme is shrunk or enlarged up to `most` times to fill: `room` is the
+    height the page leaves the rows, `row_gap` the gap between two), into at most that many, each
+    drawn at the largest scale the page's width and height allow. On a page that grows, only the
+    ones whose rows stand within 10% of the least tall together (page height is what a journal
+    counts). Of those, one with no row a lone panel (a product alone on the last row reads as an
+    afterthought; common practice), if one is drawn within 10% of the largest scale any is, else
+    one lone only at its head or end before one lone in the middle, if drawn within 5% of it; of
+    those, the ones drawn within 5% of the largest scale among them;
+    then the most even, least white beside its rows (a scheme of four equal steps
+    wraps two and two, not three and one with half a row empty; an editor's first request of a
+    wrapped scheme), then the one drawn larger, the earlier rows fuller at a tie. `extents`: each
+    unit's height above and below the row's centre line."""
     greedy = _rows_within(widths, gap, avail)
-    count = len(greedy)
-    if count == 1 or count > len(widths) - 1 or math.comb(len(widths) - 1, count - 1) > _MOST_WRAPPINGS:
+    if len(greedy) == 1:
         return greedy
-
-    def span(a: int, b: int) -> float:
-        return sum(widths[a:b]) + gap * (b - a - 1)
-
-    options = []
-    for cuts in combinations(range(1, len(widths)), count - 1):
-        bounds = (0,) + cuts + (len(widths),)
-        rows = [list(range(a, b)) for a, b in zip(bounds, bounds[1:])]
-        row_widths = [span(a, b) for a, b in zip(bounds, bounds[1:])]
-        if any(w > avail + 1e-6 and len(r) > 1 for w, r in zip(row_widths, rows)):
-            continue   # wider than the page (a single unit wider than it is shrunk to fit anyway)
-        height = sum(max(extents[k][0] for k in r) + max(extents[k][1] for k in r) for r in rows)
-        options.append((height, max(row_widths), [-len(r) for r in rows], rows))
+    if room is not None and room <= 0:
+        room = None   # a title taller than the page: the height tells no wrapping from another
+    # (more rows than fit at the size drawn would only stand taller; a long scheme weighs as many
+    # counts of rows as _MOST_WRAPPINGS allows, the most first, and is filled row by row beyond)
+    counts = range(len(greedy), 0 if room is not None else len(greedy) - 1, -1)
+    total = sum(widths)
+    options, weighed = [], 0
+    for count in counts:
+        weighed += math.comb(len(widths) - 1, count - 1)
+        if weighed > _MOST_WRAPPINGS:
+            break
+        for cuts in combinations(range(1, len(widths)), count - 1):
+            bounds = (0,) + cuts + (len(widths),)
+            rows = [list(range(a, b)) for a, b in zip(bounds, bounds[1:])]
+            row_widths = [sum(widths[a:b]) + gap * (b - a - 1) for a, b in zip(bounds, bounds[1:])]
+            if room is None and any(w > avail + 1e-6 and len(r) > 1 for w, r in zip(row_widths, rows)):
+                continue   # wider than the page (a single unit wider than it is shrunk to fit anyway)
+            height = sum(max(extents[k][0] for k in r) + max(extents[k][1] for k in r) for r in rows)
+            widest = max(row_widths)
+            scale = min(most, avail / widest)
+            if room is not None:
+                scale = min(scale, room / (height + row_gap * (count - 1)))
+            uneven = round(1.0 - (total + gap * (len(widths) - count)) / (count * widest), 9)
+            options.append(_Wrapping(rows, _lone_panels(rows), uneven, height, scale))
     if not options:
         return greedy
-    least = min(o[0] for o in options)
-    return min((o for o in options if o[0] <= 1.1 * least), key=lambda o: (o[1], o[2]))[3]
+    if room is None:
+        # Page height is what a journal counts: balance is sought among the nearly least tall.
+        least = min(o.height for o in options)
+        options = [o for o in options if o.height <= _HEIGHT_GIVEN * least]
+    largest = max(o.scale for o in options)
+    lone = min(o.lone for o in options if o.scale >= _SCALE_GIVEN[o.lone] * largest)
+    options = [o for o in options if o.lone == lone]
+    largest = max(o.scale for o in options)
+    options = [o for o in options if o.scale >= _SCALE_GIVEN[2] * largest]
+    return min(options, key=lambda o: (o.uneven, -o.scale, [-len(r) for r in o.rows])).rows
+
+
+def _lone_panels(rows: list[list[int]]) -> int:
+    """How a wrapping leaves a panel alone on a row (_Wrapping.lone): a lone panel between two
+    fuller rows breaks the scheme's reading more than one at its head or end."""
+    if len(rows) == 1 or all(len(r) > 1 for r in rows):
+        return 0
+    return 2 if any(len(r) == 1 for r in rows[1:-1]) else 1
 
 
 def _hydrogens_of_small_by_products(state: ElectronState) -> frozenset[int]:

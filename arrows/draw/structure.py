@@ -310,6 +310,19 @@ _ENOUGH_ROOM = math.radians(75)   # more room than this around a direction count
 
 
 _FAR_SLIDE = 6     # steps of 0.03 bond lengths: side text slid this far out has left its atom
+_BY_THE_LABEL = 0.25   # bond lengths from a label's box to the middle of a charge sign beside it (at most)
+
+
+# A charge beside a label goes in its preferred quarter where a direction there keeps this far
+# from the bonds and the rest round the atom (the stroke test then judges the sign's own box).
+_UPPER_RIGHT_ROOM = math.radians(40)
+
+
+@lru_cache(maxsize=None)
+def _upper_right_quarter(preferred: complex) -> tuple[complex, ...]:
+    """The directions within 45 degrees of `preferred`, 15 degrees apart, nearest it first."""
+    turns = sorted(range(-45, 46, 15), key=lambda t: (abs(t), t))
+    return tuple(preferred * cmath.rect(1.0, math.radians(t)) for t in turns)
 
 
 def best_direction(occupied: list[complex], preferred: complex, spread: float = 0.25, steps: int = 24) -> complex:
@@ -874,20 +887,27 @@ class StructureDrawer:
         # A charge keeps near its first choice (the arrows, planned later, avoid it there); a
         # drafting label may go all the way round, and where every direction meets something,
         # takes the one that overlaps least.
-        tried = islice(ranked_directions(out.occupied[i], preferred), 12 if kind == "charge" else 24)
+        ranked = islice(ranked_directions(out.occupied[i], preferred), 12 if kind == "charge" else 24)
+        tried = [(d, False) for d in ranked]
+        # A minus level with a label, before or after it, reads as a bond into the label ("-Si").
+        labelled = out.atoms[i].box is not None
+        # Beside a label a plus goes to its upper right wherever it is clear there and close to the
+        # label (within _BY_THE_LABEL; common practice), before the roomiest side: an oxonium O+
+        # with its bond to H on the right had its sign under the O, 0.4 bond lengths from its centre.
+        # (A minus keeps the roomiest side: at the upper right it came to lie along a shallow bond.)
+        if kind == "charge" and labelled and text.endswith("+"):
+            tried = [(d, True) for d in self._upper_right(out.occupied[i], preferred)] + tried
         centre, reach = out.positions[i], 2 * self.style.bond_length
         # A charge keeps off the strokes of the bonds round it (the inner stroke of a ring's
         # double bond, which its bond directions alone do not show).
         strokes = [(start, complex(*b)) for bond in out.bonds for a, b in bond.lines
                    if abs((start := complex(*a)) - centre) < reach] if kind == "charge" else []
-        # A minus level with a label, before or after it, reads as a bond into the label ("-Si").
-        labelled = out.atoms[i].box is not None
         # A sign level with the atom's own hydrogens written above or below its symbol, just
         # after or before them, reads as theirs: "H+" over an ammonium N.
         hydrogens = [self.text_box(r) for r in out.atoms[i].runs
                      if abs(r.y - (out.positions[i].imag + self.cap / 2)) >= 0.5 * self.style.font_size] \
             if labelled and kind == "charge" else []
-        for direction in tried:
+        for direction, upper_right in tried:
             mark, slid = self._side_text_at(kind, i, text, out, direction, width, cap, size, italic)
             # Slid far out along a crowded direction, the text no longer reads as the atom's.
             gap = min((_separation(mark.box, b) for b in others), default=math.inf)
@@ -904,6 +924,9 @@ class StructureDrawer:
             ambiguous = kind != "charge" and _nearer_another(mark.box, i, out)
             fault = (gap < pad or on_stroke, ambiguous, inside, slid >= _FAR_SLIDE,
                      0.0 if kind == "charge" else -min(gap, pad))
+            if upper_right and (any(fault[:4]) or
+                                self._sign_distance(mark, out.atoms[i].box) > _BY_THE_LABEL * self.style.bond_length):
+                continue
             if best is None or fault < best[0]:
                 best = (fault, direction, mark)
             if not any(fault[:4]):
@@ -911,6 +934,24 @@ class StructureDrawer:
         _, direction, mark = best
         out.occupied[i].append(direction)
         return mark
+
+    def _sign_distance(self, mark: Mark, label: Box) -> float:
+        """How far the middle of a charge text's glyph nearer the label (the 2 of 2+ after it, the
+        sign of +OH before it) stands from the label's box."""
+        run = mark.runs[-1]
+        face = self.italic if run.italic else self.face
+        first, last = run.text[0], run.text[-1]
+        x_first = run.x + face.width(first, run.size) / 2
+        x_last = run.x + face.width(run.text, run.size) - face.width(last, run.size) / 2
+        return min(label.distance((x_first, run.y - face.ink_middle(first) * run.size)),
+                   label.distance((x_last, run.y - face.ink_middle(last) * run.size)))
+
+    @staticmethod
+    def _upper_right(occupied: list[complex], preferred: complex) -> list[complex]:
+        """The directions of the quarter round `preferred` (15 degrees apart, nearest it first)
+        that keep _UPPER_RIGHT_ROOM from every direction taken round the atom (its bonds, the
+        gaps where bonds form, the labels close by)."""
+        return [d for d in _upper_right_quarter(preferred) if clearance(d, occupied) >= _UPPER_RIGHT_ROOM]
 
     def _side_text_at(self, kind: str, i: int, text: str, out: PanelStructure, direction: complex,
                       width: float, cap: float, size: float, italic: bool) -> tuple[Mark, int]:

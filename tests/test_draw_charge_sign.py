@@ -1,0 +1,39 @@
+"""A charge sign beside an atom label stands at the label's upper right, close to it (common
+practice: O+, N+ written with the sign as a superscript, or at the upper right corner where a
+bond leaves to the right), where the drawn bonds and hydrogens leave room there.
+
+Measured on the Scene: the middle of the sign's glyph against the atom's label box, in bond
+lengths, and its side of the atom's centre (y grows downwards).
+"""
+from __future__ import annotations
+
+import pytest
+
+from arrows.draw.text import FontFace
+from scenes import scene_of as _scene
+
+
+def _sign_middle(mark, face: FontFace) -> tuple[float, float]:
+    """The middle of the sign glyph (the run's last character) of a charge mark."""
+    run = mark.runs[-1]
+    sign = run.text[-1]
+    x = run.x + face.width(run.text, run.size) - face.width(sign, run.size) / 2
+    return x, run.y - face.ink_middle(sign) * run.size
+
+
+@pytest.mark.parametrize("style", ["two-column", "slide"])
+@pytest.mark.parametrize("name, panel, atom", [
+    # An oxonium O+ whose bond to its drawn H leaves to the right, the C=O to the upper left:
+    # the sign stood under the O, 0.42 bond lengths below its centre.
+    ("fischer esterification", 4, "O2"),
+    ("10-acetal-formation.mech", 5, "O3"),
+])
+def test_an_oxonium_sign_stands_at_the_upper_right_of_its_label(name, panel, atom, style):
+    scene = _scene(name, style)
+    face = FontFace(scene.style.font_family)
+    drawn = scene.panels[panel]
+    label = next(a for a in drawn.atoms if a.name == atom)
+    sign, = [m for m in drawn.marks if m.kind == "charge" and m.atom == label.index]
+    x, y = _sign_middle(sign, face)
+    assert y < label.position[1] and x > label.position[0], ((x, y), label.position)
+    assert label.box.distance((x, y)) / scene.bond_length <= 0.25
