@@ -460,6 +460,35 @@ def _distinct_turns(options: list[tuple], first: int, last: int) -> tuple[np.nda
     return _DISTINCT[key]
 
 
+_FACING_OPTIONS: dict[tuple[int, frozenset[int]], list[tuple]] = {}
+_GAP_TIE = math.radians(10)   # gaps this near the widest count as widest too (a trigonal centre's three)
+
+
+def _facing_spins(own: Sequence[complex], v: complex) -> frozenset[int]:
+    """The spins of the placement options that keep the bond a mover makes, turned by the spin
+    from `v` (its joining side), within 60 degrees of the middle of a widest gap between its own
+    bonds (`own`, directions from it): spun further, the bond would leave the mover between its
+    bonds, and the arrow toward the partner swing round them."""
+    spins = {o[2] for o in _BOND_OPTIONS}
+    gaps = angular_gaps(0j, own)
+    if len(gaps) < 2:
+        return frozenset(spins)   # a lone atom or a chain end (set at 120 degrees to its bond) turns freely
+    widest = max(b - a for a, b in gaps)
+    middles = [cmath.rect(1.0, (a + b) / 2) for a, b in gaps if b - a >= widest - _GAP_TIE]
+    return frozenset(spin for spin in spins
+                     if min(abs(cmath.phase(v / _SPINS[spin] / m)) for m in middles) <= _SIXTY + 1e-6)
+
+
+def _facing_options(options: list[tuple], spins: frozenset[int]) -> list[tuple]:
+    """`options` with only the given spins: one list per choice, kept, as the option lists' columns
+    are worked out once per list."""
+    key = (id(options), spins)
+    if key not in _FACING_OPTIONS:
+        kept = [o for o in options if o[2] in spins]
+        _FACING_OPTIONS[key] = kept if len(kept) < len(options) else options
+    return _FACING_OPTIONS[key]
+
+
 class _Placements:
     """The ways of placing a cluster next to its anchor, in the order they are tried: for each,
     the direction from the anchor, the cluster's rotation, the target of the atom that bonds,
@@ -2098,12 +2127,13 @@ class _LayoutBuilder:
             self._apply(index)
 
     def _roomiest(self, atom: int, k: int, hydrogen: Optional[int] = None, prefer: Optional[complex] = None,
-                  reach: float = 1.0) -> complex:
+                  reach: float = 1.0, also: Sequence[complex] = ()) -> complex:
         """The direction from `atom` with the most room for a new neighbour at `reach`: away from
-        its bonds and promised hydrogens, out of ring interiors, away from nearby atoms."""
+        its bonds, promised hydrogens and the directions `also`, out of ring interiors, away from
+        nearby atoms."""
         centre = self.positions[k][atom]
         taken = np.array([unit(p - centre) for p in self._occupied_around(atom, k, hydrogen)
-                          if abs(p - centre) > 1e-9], dtype=complex)
+                          if abs(p - centre) > 1e-9] + list(also), dtype=complex)
         near = np.array([p for a, p in self.positions[k].items() if a != atom and abs(p - centre) < reach + 1.3],
                         dtype=complex)
         bonded = [unit(self.positions[k][n] - centre) for n in self.neighbours[atom]
@@ -2307,7 +2337,7 @@ class _LayoutBuilder:
                                           and (min(n, anchor), max(n, anchor)) in self.bonds_in[k]],
                            self.positions[segment[1]][giver])
         else:
-            u = self._roomiest(anchor, k, hydrogen)
+            u = self._roomiest(anchor, k, hydrogen, also=self._bonds_while_waiting(anchor, mover, k, kind))
         depicted = cluster.local_at(k)
         placed = [self.positions[k][n] for n in self.neighbours[anchor]
                   if n in self.positions[k] and n not in depicted and self.element[n] != 1]
@@ -2342,6 +2372,10 @@ class _LayoutBuilder:
         # An sp atom that bonds on keeps its straight angle: the cluster is not spun about it.
         straight = kind == "bond" and self._linear(mover, range(k, k + 1))
         options = (_STRAIGHT_BOND_OPTIONS if straight else _BOND_OPTIONS) if kind == "bond" else _HOP_OPTIONS
+        round_options = _STRAIGHT_ROUND_BOND_OPTIONS if straight else _ROUND_BOND_OPTIONS
+        if kind == "bond" and not straight:
+            spins = _facing_spins([depicted[n] - depicted[mover] for n in self.neighbours[mover] if n in depicted], v)
+            options, round_options = _facing_options(options, spins), _facing_options(round_options, spins)
         hydrogen_on_mover = hydrogen is not None and kind == "hop" and self._holder(k, hydrogen) == mover
         # For a hop or a transfer, a spot from which the arrow to the anchor's side crosses no bond is preferred.
         walls = self._walls(segment, anchor, set(cluster.atoms)) if kind != "bond" else np.zeros((0, 2), dtype=complex)
@@ -2350,10 +2384,15 @@ class _LayoutBuilder:
         round_about = None
         partners = self._other_hops(index, segment, k, hydrogen) if kind == "hop" else []
         fed = self._fed_directions(hydrogen, anchor, k) if kind == "hop" else []
-        # The hydrogen of a hop stands on the line from its holder toward the partner.
+        # The hydrogen of a hop stands on the line from its holder toward the partner: not on a
+        # bond of the holder, nor on another hydrogen promised to it while this one is there (the
+        # two protons an enolate loses in turn, the second held from the first panel on).
         held_along = ([unit(self.positions[k][n] - anchor_at) for n in self.neighbours[anchor]
                        if n in self.positions[k] and self.element[n] != 1
                        and (min(anchor, n), max(anchor, n)) in self.bonds_in[k]]
+                      + [r.direction for runs in self.residences.values() for r in runs
+                         if r.holder == anchor and r.hydrogen != hydrogen and r.direction is not None
+                         and residence is not None and r.first <= residence.last and residence.first <= r.last]
                       if kind == "hop" and not hydrogen_on_mover else [])
         if partners:
             best = self._nearest_to_partners(cluster, mover, placements, polygons, partners, fed, held_along)
@@ -2382,7 +2421,7 @@ class _LayoutBuilder:
             if gap >= _CLEARANCE and not blocked:
                 break
         if kind == "bond" and best is not None and best[0][0] < _CROWDED:
-            roomier = self._bond_round_about(placements, polygons)
+            roomier = self._bond_round_about(placements.like(round_options), polygons)
             if roomier is not None and roomier[0][0] > best[0][0] + 0.2:
                 best = roomier
         if len(walls) and (best is None or best[0] != (_CLEARANCE, True)):
@@ -2407,6 +2446,23 @@ class _LayoutBuilder:
         self._apply(index)
         if hydrogen is not None:
             self._promise(hydrogen, anchor, k, direction, leave_after=round_about is not None)
+
+    def _bonds_while_waiting(self, anchor: int, mover: int, k: int, kind: str) -> list[complex]:
+        """For a bond that forms in the step into panel k, the directions in panel k-1 of the anchor's
+        bonds that it keeps in panel k to atoms not yet placed there (an aldehyde's oxygen, a group
+        that leaves in a later step, placed after its partner): the mover waits in panel k-1
+        along the line it comes in on, and taking that bond's room it would come in through the
+        bond (an enolate over the aldehyde's oxygen)."""
+        pair = (min(anchor, mover), max(anchor, mover))
+        if kind != "bond" or k == 0 or pair in self.bonds_in[k - 1]:
+            return []
+        before = self.positions[k - 1]
+        if anchor not in before:
+            return []
+        return [unit(before[n] - before[anchor]) for n in self.neighbours[anchor]
+                if n != mover and n in before and n not in self.positions[k]
+                and (min(anchor, n), max(anchor, n)) in self.bonds_in[k - 1] & self.bonds_in[k]
+                and abs(before[n] - before[anchor]) > 1e-9]
 
     def _crosses_to(self, anchor: int, mover: int, segment: tuple[int, int]) -> Optional[complex]:
         """Where, in the last panel of `segment`, stands the atom that `mover` bonds to in the step
@@ -2657,19 +2713,17 @@ class _LayoutBuilder:
         return None
 
     @staticmethod
-    def _bond_round_about(placements: _Placements, polygons: list[list[complex]]) -> Optional[tuple]:
-        """The first placement all round the anchor that keeps clear of everything (else the
-        roomiest), for a molecule about to bond that found every spot near its preferred side
-        crowded (an amine coming in on an anhydride's carbonyl, whose acetate arm fills that
-        side)."""
-        round_about = placements.like(_STRAIGHT_ROUND_BOND_OPTIONS if placements.options is _STRAIGHT_BOND_OPTIONS
-                                      else _ROUND_BOND_OPTIONS)
+    def _bond_round_about(round_about: _Placements, polygons: list[list[complex]]) -> Optional[tuple]:
+        """The first of `round_about`, placements all round the anchor, that keeps clear of
+        everything (else the roomiest), for a molecule about to bond that found every spot near
+        its preferred side crowded (an amine coming in on an anhydride's carbonyl, whose acetate
+        arm fills that side)."""
         round_about.batch = 64
         best = None
         for gap, _, moved, direction, rotation, target in round_about:
             if (best is None or min(gap, _CLEARANCE) > best[0][0]) \
                     and not any_inside_polygons(moved, polygons):
-                best = (min(gap, _CLEARANCE), True), rotation, target - placements.mover_at * rotation, direction
+                best = (min(gap, _CLEARANCE), True), rotation, target - round_about.mover_at * rotation, direction
                 if gap >= _CLEARANCE:
                     break
         return best
@@ -3054,10 +3108,12 @@ class _LayoutBuilder:
         """Runs of panels no event placed after a cluster has acted: it stays where it last
         acted, next to the atoms it acted on, until an event places it again. A cluster that
         never meets another goes to the right of the drawing. The largest such cluster first: a
-        small one (an ion) is then placed by its bonds to it, not left where it was."""
+        small one (an ion) is then placed by its bonds to it, not left where it was; but one about
+        to bond to a cluster not yet placed where they meet goes after it (below)."""
         partial = [k for k, c in enumerate(self.clusters) if c.placement and len(c.placement) < len(c.segments)]
         if partial:
-            index = min(partial, key=lambda k: (-len(self.clusters[k].atoms), self.clusters[k].atoms[0]))
+            index = min(partial, key=lambda k: (self._bonds_to_unplaced_next(k), -len(self.clusters[k].atoms),
+                                                self.clusters[k].atoms[0]))
             cluster = self.clusters[index]
             previous = cluster.placement[min(cluster.placement)]    # before its first event: where it waits
             for (start, end), following in zip(cluster.segments, cluster.segments[1:] + [None]):
@@ -3101,6 +3157,23 @@ class _LayoutBuilder:
             cluster.placement[start] = (1 + 0j, complex(right + LEFTOVER_GAP - left, mid_y - cy), None, 0.0)
         self._apply(index)
         return True
+
+    def _bonds_to_unplaced_next(self, index: int) -> bool:
+        """Whether the cluster's first unplaced run is followed by an unplaced run it enters by a
+        bond to a cluster not placed in that run either (a benzoate that stood aside while others
+        acted, about to attack the carbon of an alkoxyphosphonium ion): left over first, it would
+        stay where it last stood, wherever that now is, and its partner come to it; after the
+        partner, the bond places it and it waits facing the atom it attacks."""
+        cluster = self.clusters[index]
+        unplaced = [segment for segment in cluster.segments if segment[0] not in cluster.placement]
+        first = unplaced[0][0] if unplaced else None
+        following = next((segment for segment in cluster.segments if first is not None and segment[0] > first), None)
+        if following is None or following[0] in cluster.placement or not self._bonds_as_it_arrives(cluster, following[0]):
+            return False
+        k = following[0]
+        made = self.bonds_in[k] - self.bonds_in[k - 1]
+        return any(n in self.cluster_of and self.cluster_of[n] != index and not self._placed_at(self.cluster_of[n], k)
+                   for a in cluster.atoms for n in self.neighbours[a] if (min(a, n), max(a, n)) in made)
 
     def _set_by_products_beside_product(self) -> None:
         """The last panel reads as an equation: the product (`self.product`, else the largest
