@@ -344,7 +344,10 @@ CODES = _table(
          "makes a cation that is no longer aromatic, judged against -4 (pyrrole's conjugate acid, "
          "protonated at C2, is -3.8; memory) and warned on if uphill at all, whatever the threshold: "
          "the same ring takes the proton elsewhere (an azole's pyridine-type N, a pyrrole's C2, an "
-         "indole's C3). Not judged: a "
+         "indole's C3). A hydrogen taken as a proton off boron, aluminium, silicon, germanium, tin "
+         "or a metal of groups 1, 2, 12 or 13 is warned on whatever the threshold: such a hydrogen "
+         "is hydridic, leaving with the bond's pair (common practice); d-block hydrides of groups "
+         "3-11 (H-Pd-X) are not judged. Not judged: a "
          "proton beside a cation (E1, a protonated carbonyl's alpha C-H) or one whose loss makes "
          "its atom aromatic (an arenium ion or a sigma complex rearomatising).",
          'species acetone = "[CH3:1][C:2](=[O:3])[CH3:4]"\n'
@@ -376,10 +379,14 @@ CODES = _table(
          '    :O2 -> C1=O2\n'
          '    C1-N3 -> N3   # Me2N- leaves (pKa of Me2NH ~38, memory): protonate N3 first\n'
          'end'),
-    Code("AR511", WARNING, "unstabilised primary carbocation",
+    Code("AR511", WARNING, "unstabilised primary carbocation, silylium or sulfonyl cation",
          "A step leaves a methyl or primary carbocation with no neighbouring lone pair, pi bond or arene "
          "to spread the charge. Such cations are not intermediates in solution (common practice: SN1 "
-         "and E1 go through tertiary, secondary, allylic or benzylic cations; Markovnikov's rule).",
+         "and E1 go through tertiary, secondary, allylic or benzylic cations; Markovnikov's rule). "
+         "Likewise a bare three-coordinate silicon cation (R3Si+, a silylium ion) or sulfonyl cation "
+         "(RSO2+) made by a step: a silyl or sulfonyl group moves by a nucleophile's attack at Si or S "
+         "(a pentacoordinate silicate, as in a Peterson elimination; an addition at S), not set free "
+         "(common practice).",
          'species alkene = "[CH2:1]=[C:2]([CH3:3])[CH3:4]"\n'
          'species acid = "[OH3+:5]"\n'
          'step "protonation"\n'
@@ -607,6 +614,34 @@ CODES = _table(
          'step "ring closure"   # C6 is para to the chain: close onto C2 or C4, ortho\n'
          '    C5=C6 -> C6-C10\n'
          '    C10=O11 -> O11\n'
+         'end'),
+    Code("AR528", WARNING, "carbocation left beside an anion's lone pair",
+         "A step leaves a carbocation bonded to an O-, N- or S- that keeps its lone pair: the group that "
+         "left the carbon (a hydride, a leaving group) went without the anion's pair pushing in to make "
+         "C=O, C=N or C=S in the same step (a tetrahedral intermediate collapsing; the hydride transfer "
+         "of a Cannizzaro or a Meerwein-Ponndorf-Verley reduction). C+ beside O- is the charge-separated "
+         "resonance form of a C=O, not an intermediate (common practice). A `resonance` step and a cation "
+         "there before the step are not judged.",
+         'species adduct = "[O-:2][CH2:1][OH:5]"\n'
+         'species aldehyde = "c1ccccc1[CH:3]=[O:4]"\n'
+         'step "hydride transfer"   # add `:O2 -> C1=O2`: O2 pushes the hydride out\n'
+         '    C1-H -> C3-H(C1)\n'
+         '    C3=O4 -> O4\n'
+         'end'),
+    Code("AR529", WARNING, "C-H pair bonding as its proton is taken",
+         "A C-H bond's pair makes a new bond to an electrophile while a base takes that hydrogen in the "
+         "same step: the enol or enolate the C-H gives is skipped. A C-H pair is no nucleophile: the "
+         "proton goes first and the enol's C=C (or the enolate) bonds in a step of its own (common "
+         "practice: the Mannich reaction and the aldol go through the enol or enolate). A pericyclic step "
+         "(an ene reaction), a hydride that moves with its pair and a carbene inserting into the C-H "
+         "are not judged.",
+         'species ketone = "[CH3:5][C:6](=[OH+:7])C"\n'
+         'species iminium = "C[N+:1](C)=[CH2:2]"\n'
+         'species water = "[OH2:10]"\n'
+         'step "C-H adds"   # the enol first: `:O10 -> H(C5)`, `C5-H -> C5=C6`, `C6=O7 -> O7`\n'
+         '    :O10 -> H(C5)\n'
+         '    C5-H -> C5-C2\n'
+         '    C2=N1 -> N1\n'
          'end'),
     Code("AR601", NOTE, "ring closure",
          "A step closes a ring; its size and Baldwin class are given. A pericyclic step (every arrow "

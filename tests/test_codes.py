@@ -602,6 +602,24 @@ TWINS = [
          'species aldehyde = "[CH:1]1=[CH:2][C:3](CCC[CH:10]=[OH+:11])=[CH:4][CH:5]=[CH:6]1"\n'
          'step "ring closure"\n    C1=C2 -> C2-C10\n    C10=O11 -> O11\nend\n', "C1=C2 -> C2-C10", "C5=C6 -> C6-C10",
          "AR527", "C5=C6 -> C6-C10", says=("[4]paracyclophane", "C3 and C6"), hint_says=("C2 or C4",)),
+    # The Cannizzaro hydride transfer (Clayden, from memory): the adduct's O- re-forms C=O as it
+    # pushes the hydride onto the aldehyde. The push left out leaves C1+ beside O2-.
+    Twin("carbocation left beside an alkoxide",
+         'species adduct = "[O-:2][CH2:1][OH:5]"\nspecies aldehyde = "c1ccccc1[CH:3]=[O:4]"\n'
+         'step "hydride transfer"\n    :O2 -> C1=O2\n    C1-H -> C3-H(C1)\n    C3=O4 -> O4\nend\n',
+         "    :O2 -> C1=O2\n", "", "AR528", "C1-H -> C3-H(C1)", says=("C1", "O2", "carbocation"),
+         hint_says=("`:O2 -> C1=O2`",)),
+    # The Mannich reaction in acid (Clayden, from memory): water takes the alpha proton to give the
+    # enol, whose C=C attacks the iminium ion. The C-H pair bonding to the iminium carbon as water
+    # takes its proton skips the enol.
+    Twin("C-H pair bonding as its proton is taken",
+         'species ketone = "[CH3:5][C:6](=[OH+:7])C"\nspecies iminium = "C[N+:1](C)=[CH2:2]"\n'
+         'species water = "[OH2:10]"\n'
+         'step "enol"\n    :O10 -> H(C5)\n    C5-H -> C5=C6\n    C6=O7 -> O7\nend\n'
+         'step "enol adds"\n    :O7 -> C6=O7\n    C5=C6 -> C5-C2\n    C2=N1 -> N1\nend\n',
+         '    C5-H -> C5=C6\n    C6=O7 -> O7\nend\nstep "enol adds"\n    :O7 -> C6=O7\n    C5=C6 -> C5-C2\n',
+         "    C5-H -> C5-C2\n", "AR529", "C5-H -> C5-C2", says=("C5", "C2", "O10"),
+         hint_says=("`C5-H -> C5=C6`", "`C5=C6 -> C5-C2`")),
 ]
 
 

@@ -61,7 +61,8 @@ def _registry() -> list[Check]:
         from .conservation import ChargeAndAtomsConserved
         from .leaving import ConcertedAcylSubstitution, StrongBaseLeavingGroups, TertiarySubstitution
         from .pericyclic import ForbiddenPericyclic
-        from .protons import BareProtons, CarbeneFromCH, FourCentreProtonTransfers, UphillProtonTransfers
+        from .protons import (BareProtons, CarbeneFromCH, CHPairBondsAsProtonGoes, FourCentreProtonTransfers,
+                              UphillProtonTransfers)
         from .ring_eliminations import RingEliminationGeometry
         from .rings import RingClosures, StrainedCumulenes
         from .shifts import CationShiftDirection, MigrationAntiToLeavingGroup, ShiftBetweenNeighbours
@@ -74,7 +75,8 @@ def _registry() -> list[Check]:
                                StereoChanges, MigrationAntiToLeavingGroup, CationShiftDirection, ShiftBetweenNeighbours,
                                StrongBaseLeavingGroups, TertiarySubstitution, ConcertedAcylSubstitution,
                                WrittenConfigurationMatches, RingEliminationGeometry, ForbiddenPericyclic,
-                               StrainedCumulenes, CarbeneFromCH, FourCentreProtonTransfers])
+                               StrainedCumulenes, CarbeneFromCH, FourCentreProtonTransfers,
+                               CHPairBondsAsProtonGoes])
     return [cls() for cls in _CHECK_CLASSES]
 
 

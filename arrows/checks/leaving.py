@@ -165,7 +165,7 @@ class StrongBaseLeavingGroups(Check):
             if acid is None or acid.pka < STRONGEST_LEAVING_BASE:
                 continue
             if elements[centre] == 6:
-                hint = _strong_base_hint(label(leaving), elements[leaving])
+                hint = _beta_centre_hint(st, leaving, centre) or _strong_base_hint(label(leaving), elements[leaving])
             else:
                 hint = _onium_hint(st, leaving, centre)
             carbons = elements[leaving] == elements[centre] == 6
@@ -355,6 +355,54 @@ def _strong_base_hint(leaving: str, element: int) -> str:
             f"or let its pair go on into a bond in this step")
 
 
+# The centres of a beta elimination whose C-X pair makes the new C=C as an oxide leaves the other
+# carbon, and what the oxide makes by bonding to them first (common practice; Clayden, Kurti-Czako,
+# from memory): Si a pentacoordinate silicate (the Peterson elimination), P an oxaphosphetane (the
+# Wittig and Horner-Wadsworth-Emmons), S an adduct at the sulfonyl group.
+_BETA_CENTRES = {14: "a pentacoordinate silicate, as in a Peterson elimination",
+                 15: "an oxaphosphetane, as in a Wittig or Horner-Wadsworth-Emmons reaction",
+                 16: "an addition at the sulfonyl sulfur"}
+
+
+def _beta_centre_hint(st: StepTrace, leaving: int, centre: int) -> Optional[str]:
+    """AR510's hint for an oxide that leaves `centre` as a C-Si, C-P or C-S pair beside it makes the
+    new C=C: the oxygen bonds to that Si, P or S first, and stays on it as the C=C forms.
+    Protonating it instead (the plain hint) would leave R3Si+ or RSO2+ bare (AR511). With an aryl
+    sulfone the oxygen may bond to the aryl's ipso carbon (a Smiles rearrangement, as in the
+    Julia-Kocienski olefination)."""
+    before, label = st.before, st.before.label
+    if before.elements[leaving] != 8:
+        return None
+    for move in st.change.moves:
+        if move.source_kind != "bond" or move.electrons != 2 or centre not in move.sink_atoms \
+                or len(move.sink_atoms) != 2:
+            continue
+        beta = next((a for a in move.sink_atoms if a != centre), None)
+        x = next((a for a in move.source_atoms if a != beta), None)
+        if beta not in move.source_atoms or x is None or before.elements[x] not in _BETA_CENTRES:
+            continue
+        if not (nameable(before.mol, leaving) and nameable(before.mol, x)):
+            return None
+        o, c, xl = label(leaving), label(centre), label(x)
+        # A P=O or S=O of the centre gives its pi pair to its oxygen as the new bond forms (the
+        # centre would hold too many bonds otherwise).
+        oxo = next((b.GetOtherAtomIdx(x) for b in before.mol.GetAtomWithIdx(x).GetBonds()
+                    if b.GetBondTypeAsDouble() == 2 and before.elements[b.GetOtherAtomIdx(x)] == 8
+                    and nameable(before.mol, b.GetOtherAtomIdx(x))), None)
+        attack = f"`:{o} -> {xl}`" + (f" with `{xl}={label(oxo)} -> {label(oxo)}`" if oxo is not None else "")
+        ipso = None
+        if before.elements[x] == 16:
+            aromatic = perceived(before.mol)
+            ipso = next((n.GetIdx() for n in aromatic.GetAtomWithIdx(x).GetNeighbors()
+                         if n.GetIsAromatic() and n.GetAtomicNum() == 6 and nameable(before.mol, n.GetIdx())), None)
+        smiles = (f"; with an aryl sulfone {o} may instead attack {label(ipso)}, the aryl's ipso carbon (a Smiles "
+                  f"rearrangement, as in the Julia-Kocienski olefination)" if ipso is not None else "")
+        return (f"{o} bonds to {xl} first, in a step of its own ({attack}: {_BETA_CENTRES[before.elements[x]]}), "
+                f"then `{move.move}` with `{c}-{o} -> {o}`, {o} leaving bonded to {xl} (protonating {o} instead would "
+                f"leave {xl} a bare cation){smiles}")
+    return None
+
+
 def _pushed_into_a_multiple_bond(st: StepTrace, centre: int) -> bool:
     """Whether a bond to `centre` gains order in this step (an oxide's pair making P=O)."""
     return any(centre in bond and new > old for bond, old, new in st.change.reordered)
@@ -524,10 +572,10 @@ def _acyl_diagnostic(st: StepTrace, leaving_move, nucleophile: int, centre: int,
     n, c, o, lg = label(nucleophile), label(centre), label(oxygen), label(leaving)
     carbonyl = "carbonyl" if st.before.elements[oxygen] == 8 else "thiocarbonyl"
     if all(nameable(mol, a) for a in (nucleophile, centre, oxygen, leaving)):
-        lone_pair = any(m.source_kind == "lone_pair" and m.source_atoms == (nucleophile,) and centre in m.sink_atoms
-                        for m in st.change.moves)
-        add = f"`:{n} -> {c}` with `{c}={o} -> {o}`" if lone_pair else f"{n} adding to {c} with `{c}={o} -> {o}`"
-        loss = f"`{c}-{lg} -> {lg}`" if tuple(leaving_move.sink_atoms) == (leaving,) else f"the {c}-{lg} move"
+        attack = next((m for m in st.change.moves if nucleophile in m.source_atoms
+                       and set(m.sink_atoms) == {nucleophile, centre}), None)   # as written: `:O6 -> C2`, `C5-Mg8 -> C5-C2`
+        add = f"`{attack.move}` with `{c}={o} -> {o}`" if attack is not None else f"{n} adding to {c} with `{c}={o} -> {o}`"
+        loss = " and ".join(f"`{m.move}`" for m in _moves_of_the_loss(st, leaving_move, centre))
         hint = (f"draw the addition and the loss as two steps: {add} (the tetrahedral intermediate), then "
                 f"`:{o} -> {c}={o}` with {loss} in a step of its own")
     else:
@@ -537,6 +585,25 @@ def _acyl_diagnostic(st: StepTrace, leaving_move, nucleophile: int, centre: int,
         "AR525", f"{n} bonds to the {carbonyl} carbon {c} as {lg} leaves it, in one step with {c}={o} kept: "
         f"a substitution at a {carbonyl} carbon needs a tetrahedral intermediate", leaving_move.move.loc,
         hint=hint, atoms=(n, c, lg), step=st.index)
+
+
+def _moves_of_the_loss(st: StepTrace, leaving_move, centre: int) -> list:
+    """The leaving group's move as written, and the moves of the step that go on from where it ends
+    (a hydride handed to another carbonyl carbon takes that C=O pair's move along: the Tishchenko's
+    `C3=O4 -> O4`), found by the atoms they share, the carbonyl carbon aside."""
+    reached = set(leaving_move.source_atoms) | set(leaving_move.sink_atoms)
+    reached.discard(centre)
+    found, others = [leaving_move], [m for m in st.change.moves if m is not leaving_move]
+    grew = True
+    while grew:
+        grew = False
+        for m in others:
+            atoms = set(m.source_atoms) | set(m.sink_atoms)
+            if m not in found and centre not in atoms and atoms & reached:
+                found.append(m)
+                reached |= atoms
+                grew = True
+    return found
 
 
 def _in_three_ring(mol: Chem.Mol, a: int, b: int) -> bool:

@@ -1,6 +1,8 @@
-"""Proton transfers that run far uphill (AR508), protons left bare (AR518), a carbon that keeps
-its C-H pair while losing another bond's, ending as a carbene (AR524), and a proton passed between
-two atoms of one molecule bonded to one common atom, round a four-membered ring (AR526).
+"""Proton transfers that run far uphill or take a hydride's hydrogen as a proton (AR508), protons
+left bare (AR518), a carbon that keeps its C-H pair while losing another bond's, ending as a
+carbene (AR524), a proton passed between two atoms of one molecule bonded to one common atom,
+round a four-membered ring (AR526), and a C-H pair that bonds to an electrophile as a base takes
+that hydrogen, the enol or enolate skipped (AR529).
 
 A proton transfer is an arrow from a lone pair (or a pi pair) of a base B to a hydrogen on X,
 with the X-H bond broken in the same step. The acid given up is judged on X before the step, the
@@ -261,6 +263,34 @@ def _units(uphill: float, gap: float) -> str:
     return f"{uphill:.0f}" if round(uphill) > gap else f"{uphill:.1f}"
 
 
+# Elements whose hydrogens are hydridic, less electronegative than hydrogen: they leave with the
+# bond's pair (a borohydride's or LiAlH4's hydride going to a C=O, NaH taking a proton, a silane's
+# Si-H in an ionic hydrogenation) and are no proton source (common practice). Groups 1, 2, 12 and
+# 13, Si, Ge, Sn. The d-block metals of groups 3-11 are left out: their hydrides run from hydridic
+# to acidic (HCo(CO)4 is a strong acid, memory), and a base taking the proton of H-Pd-X closes the
+# Heck cycle as textbooks draw it.
+HYDRIDIC = frozenset({3, 11, 19, 37, 55, 4, 12, 20, 38, 56, 30, 48, 80, 5, 13, 31, 49, 14, 32, 50})
+
+
+def _hydride_taken_as_a_proton(st: StepTrace, t: ProtonTransfer) -> Diagnostic:
+    """AR508 for a base drawn taking a hydrogen off boron, aluminium, silicon or a main-group metal
+    as if it were a proton."""
+    label = st.before.label
+    b, x = label(t.base_atom), label(t.acid_atom)
+    h = label(t.hydrogen)
+    symbol = st.before.mol.GetAtomWithIdx(t.acid_atom).GetSymbol()
+    free = 1 + max((a.GetAtomMapNum() for a in st.after.mol.GetAtoms()), default=0)
+    take = (f"`:{b} -> H(O{free})` with `O{free}-H -> O{free}`" if nameable(st.before.mol, t.base_atom)
+            else f"{b} taking a proton of water")
+    return Diagnostic(
+        "AR508", f"{b} takes {h} as a proton, but a hydrogen on {symbol} is hydridic: the {x}-H bond's pair "
+        f"leaves with the hydrogen (a hydride), and {symbol}-H is no proton source",
+        t.loc, hint=f"the proton comes from an O-H or N-H acid: bring water, an alcohol or the workup acid in with "
+        f"`uses water = \"[OH2:{free}]\"` and write {take}; the {x}-H pair goes to an electrophile instead "
+        f"(a carbonyl carbon: `{x}-H -> C-H({x})` with that carbon's number; or an acid's proton, making H2)",
+        atoms=(b, x), step=st.index)
+
+
 class UphillProtonTransfers(Check):
     name = "proton transfers"
     codes = ("AR508",)
@@ -276,6 +306,9 @@ class UphillProtonTransfers(Check):
             # A proton put on a pyrrole-type N is judged uphill at all, not against the gap: the same
             # ring holds a site that takes it instead (its N3, or C2), far more basic in the gas phase
             # (arrows.judgement.acidity), and -4 is only an upper bound on that cation's pKa.
+            if st.before.elements[t.acid_atom] in HYDRIDIC:
+                yield _hydride_taken_as_a_proton(st, t)
+                continue
             if uphill is None or uphill <= (0.0 if base is PYRROLE_TYPE_N else gap):
                 continue
             label_b, label_x = st.before.label(t.base_atom), st.before.label(t.acid_atom)
@@ -534,3 +567,74 @@ def _six_centre_base(st: StepTrace, t: FourCentre) -> Optional[int]:
                 and len(Chem.GetShortestPath(before.mol, k, t.acid)) == 5:
             return k
     return None
+
+
+class CHPairBondsAsProtonGoes(Check):
+    """AR529: a C-H bond's pair makes a new bond to an electrophile while a base takes that hydrogen
+    in the same step: the enol or enolate (or carbanion) that the C-H gives is skipped. A C-H pair
+    is no nucleophile; the proton goes first, to a base, and the C=C of the enol or the enolate's
+    carbon bonds to the electrophile in a step of its own (common practice: the Mannich, aldol and
+    alpha-halogenation go through the enol or enolate; Clayden, from memory). Not judged: a
+    pericyclic step (an ene reaction moves its hydrogen round a ring of six), a hydride that moves
+    with its own pair, and a carbene that takes the hydrogen and the carbon at once (an insertion
+    into the C-H bond)."""
+    name = "C-H pair bonding as its proton goes"
+    codes = ("AR529",)
+
+    def step(self, st: StepTrace, context) -> Iterator[Diagnostic]:
+        change = st.change
+        if st.after is None or not change.formed or change.pericyclic:
+            return
+        elements = st.before.elements
+        formed = None
+        for m in change.moves:   # a C-H pair into a bond the step makes between C and another atom
+            if m.source_kind != "bond" or m.electrons != 2 or len(m.sink_atoms) != 2:
+                continue
+            first, second = m.source_atoms
+            h, carbon = (first, second) if elements[first] == 1 else (second, first)
+            if elements[h] != 1 or elements[carbon] != 6 or h in m.sink_atoms or carbon not in m.sink_atoms:
+                continue
+            electrophile = m.sink_atoms[1] if m.sink_atoms[0] == carbon else m.sink_atoms[0]
+            if formed is None:
+                formed = {frozenset(p) for p in change.formed}
+            if frozenset((carbon, electrophile)) not in formed:
+                continue   # a C=C made (an E2, an E1 proton loss, an enolisation)
+            taking = next((t for t in change.moves if t.electrons == 2 and h in t.sink_atoms and len(t.sink_atoms) == 2
+                           and h not in t.source_atoms), None)
+            if taking is None:
+                continue
+            base = taking.sink_atoms[1] if taking.sink_atoms[0] == h else taking.sink_atoms[0]
+            if base == electrophile:
+                continue   # a carbene inserting into the C-H bond
+            label = st.before.label
+            yield Diagnostic(
+                "AR529", f"the pair of {label(carbon)}-H bonds {label(carbon)} to {label(electrophile)} as "
+                f"{label(base)} takes that hydrogen in the same step: a C-H pair is no nucleophile, and the enol or "
+                f"enolate it gives is skipped",
+                m.move.loc, hint=_enol_first_hint(st, taking, m, electrophile),
+                atoms=(label(carbon), label(electrophile), label(base)), step=st.index)
+            return
+
+
+def _enol_first_hint(st: StepTrace, taking: ResolvedMove, bonding: ResolvedMove, electrophile: int) -> str:
+    """AR529's hint: the two steps, through the enol or enolate of the C=O (or C=N) beside the
+    carbon where the atoms can be named (the step's other arrows go with the bonding), else in words."""
+    before, label = st.before, st.before.label
+    mol = before.mol
+    hydrogen = next(a for a in bonding.source_atoms if before.elements[a] == 1)
+    carbon = next(a for a in bonding.source_atoms if a != hydrogen)
+    for n in mol.GetAtomWithIdx(carbon).GetNeighbors():
+        k = n.GetIdx()
+        hetero = next((b.GetOtherAtomIdx(k) for b in n.GetBonds() if b.GetBondTypeAsDouble() == 2
+                       and before.elements[b.GetOtherAtomIdx(k)] in (7, 8)), None)
+        if before.elements[k] != 6 or hetero is None:
+            continue
+        if not all(nameable(mol, a) for a in (carbon, k, hetero, electrophile)) or not nameable(mol, hydrogen):
+            break
+        c, o, e, kk = label(carbon), label(hetero), label(electrophile), label(k)
+        rest = "".join(f" and `{m.move}`" for m in st.change.moves if m is not taking and m is not bonding)
+        return (f"take the proton in a step of its own, `{taking.move}` with `{c}-H -> {c}={kk}` and `{kk}={o} -> {o}` "
+                f"(the enol or enolate), then let the C=C bond to {e}: `:{o} -> {kk}={o}` with `{c}={kk} -> {c}-{e}`"
+                f"{rest}")
+    return (f"take the proton in a step of its own (the enol, enolate or carbanion {label(carbon)} gives), then let "
+            f"that pair bond to {label(electrophile)} in the next step")

@@ -3,7 +3,10 @@ from __future__ import annotations
 
 from typing import Iterator, Optional
 
+from rdkit import Chem
+
 from ..diagnostics import Diagnostic
+from ..electrons import nameable
 from ..rdkit_io import ELECTRONEGATIVITY
 from ..trace import StepTrace
 from . import Check
@@ -132,6 +135,55 @@ def _pi_pair_pushed_alone(st: StepTrace) -> Iterator[Diagnostic]:
                                  hint=f"a nucleophile's arrow into {c} may be missing (`:Nu -> {c}`); the "
                                       f"polarised bond on its own is a resonance form (a `resonance` step)",
                                  atoms=(c, a), step=st.index)
+
+
+# Anions whose lone pair, beside a carbocation, makes the pi bond at once: an alkoxide's O- (a
+# C=O), an amide ion's N- (a C=N), a thiolate's S- (a C=S).
+_PUSHING_ANIONS = frozenset({7, 8, 16})
+
+
+def _cation_beside_an_anion(st: StepTrace) -> Iterator[Diagnostic]:
+    """AR528: a step leaves a carbocation (no lone pair) bonded to an O-, N- or S- that keeps its
+    lone pair: a hydride or a leaving group gone from a tetrahedral intermediate's carbon with the
+    anion's push that re-forms C=O left out (the Cannizzaro and Meerwein-Ponndorf-Verley hydride
+    transfers). The anion's pair goes into the C=O as the group leaves, in the same step (common
+    practice; Clayden, from memory); C+ beside O- is only the charge-separated resonance form of a
+    C=O. A resonance step is not judged, nor a cation there before the step."""
+    if st.step.kind == "resonance":
+        return
+    after = st.after
+    for i, old, new in st.change.charges:
+        if new != 1 or after.elements[i] != 6 or after.nonbonding[i]:
+            continue
+        for n in after.mol.GetAtomWithIdx(i).GetNeighbors():
+            j = n.GetIdx()
+            if after.elements[j] not in _PUSHING_ANIONS or after.formal_charge(j) >= 0 or after.nonbonding[j] < 2:
+                continue
+            if any({i, j} == set(bond) and new_order < old_order for bond, old_order, new_order in st.change.reordered):
+                continue   # the C=O pair itself pushed onto O, nothing bonding to C: AR513's
+            c, a = after.label(i), after.label(j)
+            symbol = n.GetSymbol()
+            named = nameable(after.mol, i) and nameable(after.mol, j)
+            # A bond pair this step sent onto the anion (an Al-O pair in a Meerwein-Ponndorf-Verley
+            # hydride transfer) is the pair meant to go on into the C=O.
+            onto = next((m for m in st.change.moves if m.source_kind == "bond" and m.electrons == 2
+                         and m.sink_atoms == (j,) and j in m.source_atoms), None)
+            if named and onto is not None:
+                fix = (f"let the pair {a} takes go on into the C={symbol}: write `{onto.move.source} -> {c}={a}` in "
+                       f"place of `{onto.move}`")
+            else:
+                push = f"`:{a} -> {c}={a}`" if named else f"{a}'s lone pair into the {c}-{a} bond"
+                fix = f"add {push} to this step"
+            # At the arrow that took the pair away from the carbon (the hydride's, the leaving group's).
+            loc = next((m.move.loc for m in st.change.moves if m.source_kind == "bond" and i in m.source_atoms
+                        and i not in m.sink_atoms), st.step.loc)
+            yield Diagnostic(
+                "AR528", f"{c} is left a carbocation beside {a}, a negative {symbol} with a lone pair that does not "
+                f"push in: C+ beside {symbol}- is the charge-separated form of C={symbol}, not an intermediate",
+                loc, hint=f"{fix}: the anion's pair makes C={symbol} as {c} gives up its other pair (a tetrahedral "
+                f"intermediate collapsing, a hydride pushed out, an enolate's C=C bonding)",
+                atoms=(c, a), step=st.index)
+            break
 
 
 # Neighbours that hold a carbanion's pair (common practice): an ylide's onium, phosphorus, sulfur,
@@ -292,9 +344,51 @@ def _pi_pair_onto_oxo_centre(st: StepTrace) -> Iterator[Diagnostic]:
             atoms=(x, o, n), step=st.index)
 
 
+def _bare_silyl_or_sulfonyl(st: StepTrace, i: int) -> Optional[Diagnostic]:
+    """AR511 for a silicon or sulfur cation with no lone pair that the step leaves three-coordinate
+    by taking a bond pair away: a silylium ion (R3Si+) or a sulfonyl cation (RSO2+). Neither is set
+    free in solution (common practice): a silyl or sulfonyl group moves by a nucleophile's attack
+    at Si or S (a pentacoordinate silicate, as the alkoxide of a Peterson elimination makes; an
+    addition at a sulfonyl S), leaving bonded to that nucleophile."""
+    after, label = st.after, st.after.label
+    atom = after.mol.GetAtomWithIdx(i)
+    if atom.GetDegree() != 3 or any(after.formal_charge(n.GetIdx()) < 0 for n in atom.GetNeighbors()):
+        return None   # (an S+ beside its own O- is SO3 written charge-separated, a neutral molecule)
+    x = label(i)
+    if after.elements[i] == 14:
+        kind, group = "a silylium ion (R3Si+)", "silyl"
+        example = "the alkoxide of a Peterson elimination bonds to Si first, a pentacoordinate silicate"
+    elif sum(n.GetAtomicNum() == 8 for n in atom.GetNeighbors()) >= 2:
+        kind, group = "a sulfonyl cation (RSO2+)", "sulfonyl"
+        example = ("an alkoxide adds at S, or at the ipso carbon of an aryl sulfone in a Smiles rearrangement, as in "
+                   "the Julia-Kocienski olefination")
+    else:
+        return None
+    nucleophile = _oxyanion_near(st.before, i)
+    attack = (f" (here `:{label(nucleophile)} -> {x}` in a step of its own)"
+              if nucleophile is not None and nameable(st.before.mol, nucleophile) and nameable(st.before.mol, i) else "")
+    return Diagnostic("AR511", f"{x} is left as {kind} with nothing bonded to it in place of the group that left",
+                      st.step.loc,
+                      hint=f"a {group} cation is not set free in solution: the group moves by a nucleophile's attack "
+                           f"at {x} first{attack}, or in the same step ({example})",
+                      atoms=(x,), step=st.index)
+
+
+def _oxyanion_near(state, centre: int) -> Optional[int]:
+    """An O- with a lone pair within three bonds of `centre` in its own molecule (the alkoxide of a
+    beta-hydroxysilane or a beta-alkoxy sulfone), the nucleophile that would bond to it."""
+    mol = state.mol
+    for k, element in enumerate(state.elements):
+        if element == 8 and state.formal_charge(k) < 0 and state.nonbonding[k] >= 2 and k != centre:
+            path = Chem.GetShortestPath(mol, centre, k)
+            if 0 < len(path) <= 4:
+                return k
+    return None
+
+
 class UnusualElectronCounts(Check):
     name = "unusual electron counts"
-    codes = ("AR503", "AR504", "AR505", "AR511", "AR513", "AR514")
+    codes = ("AR503", "AR504", "AR505", "AR511", "AR513", "AR514", "AR528")
 
     def step(self, st: StepTrace, context) -> Iterator[Diagnostic]:
         after, before = st.after, st.before
@@ -303,6 +397,7 @@ class UnusualElectronCounts(Check):
         yield from _pi_pair_pushed_alone(st)
         yield from _pi_pair_onto_carbon(st)
         yield from _pi_pair_onto_oxo_centre(st)
+        yield from _cation_beside_an_anion(st)
         for i, old_charge, charge in st.change.charges:
             # As for the shell below: a charge the species was written with and the step keeps
             # (a sulfonyl S written S2+ with two O-) is not the step's doing.
@@ -332,6 +427,10 @@ class UnusualElectronCounts(Check):
                                       "substituted or stabilised carbon (Markovnikov), or make the step concerted "
                                       "(SN2, E2, a shift as the group leaves)",
                                  atoms=(label,), step=st.index)
+            if shell < old_shell and element in (14, 16) and after.nonbonding[i] == 0 and after.formal_charge(i) > 0:
+                found = _bare_silyl_or_sulfonyl(st, i)
+                if found is not None:
+                    yield found
             # Only a step that expands the shell: a sulfonyl S substituted (an alcohol onto MsCl)
             # keeps the twelve electrons its species was written with.
             limit = shell_limit(element)
