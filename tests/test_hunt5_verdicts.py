@@ -309,3 +309,43 @@ def test_an_ene_reaction_and_a_carbene_insertion_are_not_judged():
     insertion = ('species methane = "[CH4:1]"\nspecies carbene = "F[C:2]F"\n'
                  'step "insertion"\n    :C2 -> H(C1)\n    C1-H -> C1-C2\nend\n')
     assert "AR529" not in _codes(insertion)
+
+
+# --- AR504 at a phosphorus that keeps its P=O as a fifth single bond forms -----------------------
+# A phosphonate's P (a P=O and three single bonds) holds ten valence electrons; the Horner-Wadsworth-
+# Emmons alkoxide bonding to it makes the oxaphosphetane with the P=O pair going onto O (Clayden,
+# Kurti and Czako, memory). Kept, P would hold twelve, which phosphorus reaches only in a
+# hexacoordinate anion (PF6-; common practice).
+HWE = '''species phosphonate = "CC[O:20][P:1](=[O:2])([O:21]CC)[CH2:3][C:4](=[O:5])OCC"
+species base = "CC[O-:6]"
+species aldehyde = "CC[CH:7]=[O:8]"
+step "phosphonate enolate" reversible
+    :O6 -> H(C3)
+    C3-H -> C3=C4
+    C4=O5 -> O5
+end
+step "addition" reversible
+    :O5 -> C4=O5
+    C3=C4 -> C3-C7
+    C7=O8 -> O8
+end
+step "oxaphosphetane"
+    :O8 -> P1
+{push}end
+step "cycloreversion"
+{back}    P1-C3 -> C3=C7
+    C7-O8 -> O8
+end
+product "CCOC(=O)C=CCC"
+'''
+
+
+def test_a_phosphonate_p_keeping_its_p_o_as_it_closes_the_oxaphosphetane_is_told_to_move_it():
+    d = only(HWE.format(push="", back=""), "AR504")
+    assert "12 valence electrons" in d.message and "twelve beside a double bond" in d.message
+    assert "`P1=O2 -> O2` in the same step" in d.hint
+
+
+def test_the_hinted_oxaphosphetane_has_no_expanded_octet_warning():
+    text = HWE.format(push="    P1=O2 -> O2\n", back="    :O2 -> P1=O2\n")
+    assert "AR504" not in [d.code for d in findings(text)[1]]

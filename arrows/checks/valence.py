@@ -386,6 +386,12 @@ def _oxyanion_near(state, centre: int) -> Optional[int]:
     return None
 
 
+def _doubly_bonded(state, i: int) -> Optional[int]:
+    """An atom bonded to atom i by a double bond in `state` (the O of a P=O), if any."""
+    return next((n.GetIdx() for n in state.mol.GetAtomWithIdx(i).GetNeighbors()
+                 if state.bond_electrons(i, n.GetIdx()) == 4), None)
+
+
 class UnusualElectronCounts(Check):
     name = "unusual electron counts"
     codes = ("AR503", "AR504", "AR505", "AR511", "AR513", "AR514", "AR528")
@@ -440,6 +446,16 @@ class UnusualElectronCounts(Check):
                 if limit == 18:
                     beyond, hint = "more than the 18 of the 18-electron rule", \
                         "a ligand should leave the metal in the same step"
+                elif element == 15 and shell > 10 and (double := _doubly_bonded(after, i)) is not None:
+                    # Ten is phosphorus's most in a neutral or cationic species (PCl5, an oxaphosphorane);
+                    # twelve only in a hexacoordinate anion (PF6-), never beside a P=O still kept.
+                    x = after.label(double)
+                    move = f"`{label}={x} -> {x}`" if nameable(after.mol, i) and nameable(after.mol, double) else \
+                        f"the {label}={x} pair onto {x}"
+                    beyond, hint = "expanded octet, twelve beside a double bond", \
+                        (f"phosphorus with a double bond holds ten (a phosphonate, a phosphine oxide): a new bond "
+                         f"to it sends that pair onto {x}, {move} in the same step (the oxaphosphetane of a "
+                         f"Horner-Wadsworth-Emmons), or a bond should break")
                 elif symbol:
                     beyond, hint = "expanded octet", \
                         f"fine for hypervalent {symbol} (common practice); otherwise a bond should break"
