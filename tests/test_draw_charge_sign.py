@@ -7,6 +7,8 @@ lengths, and its side of the atom's centre (y grows downwards).
 """
 from __future__ import annotations
 
+import math
+
 import pytest
 
 from arrows.draw.text import FontFace
@@ -37,3 +39,26 @@ def test_an_oxonium_sign_stands_at_the_upper_right_of_its_label(name, panel, ato
     x, y = _sign_middle(sign, face)
     assert y < label.position[1] and x > label.position[0], ((x, y), label.position)
     assert label.box.distance((x, y)) / scene.bond_length <= 0.25
+
+
+@pytest.mark.parametrize("style", ["two-column", "slide"])
+@pytest.mark.parametrize("name, panel, atom", [
+    # The azide's central N+ between two lettered N: at the upper right its sign stood over the
+    # N=N bond, 0.54 bond lengths from its own N and 0.73 from the next (a ratio of 1.35).
+    ("azide epoxide opening", 0, "N5"),
+    # The nitrosamine's O+ in the diazotisation, its sign over the O=N bond likewise.
+    ("diazotisation", 3, "O3"),
+])
+def test_a_sign_between_two_letters_reads_as_its_own_atoms(name, panel, atom, style):
+    """A charge sign stands at least 1.4 times as far from any other atom's letter as from its own
+    atom's centre: nearer, it reads as the neighbour's (common practice: a sign sits against its
+    own symbol)."""
+    scene = _scene(name, style)
+    face = FontFace(scene.style.font_family)
+    drawn = scene.panels[panel]
+    label = next(a for a in drawn.atoms if a.name == atom)
+    sign, = [m for m in drawn.marks if m.kind == "charge" and m.atom == label.index]
+    x, y = _sign_middle(sign, face)
+    own = math.dist((x, y), label.position)
+    nearest = min(math.dist((x, y), a.position) for a in drawn.atoms if a.index != label.index and a.box is not None)
+    assert nearest >= 1.4 * own, (own / scene.bond_length, nearest / scene.bond_length)

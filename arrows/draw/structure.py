@@ -217,12 +217,14 @@ def level_and_close(sign: Box, labels: list[Box], size: float, apart: float = 0.
                for b in labels)
 
 
-def _nearer_another(box: Box, atom: int, out: PanelStructure) -> bool:
-    """Whether the middle of `box` stands less than 1.25 times as far from another drawn atom as
-    from `atom`: too near the other to read as `atom`'s."""
+def _nearer_another(box: Box, atom: int, out: PanelStructure, margin: float = 1.25, letters: bool = False) -> bool:
+    """Whether the middle of `box` stands less than `margin` times as far from another drawn atom
+    (with `letters`, another atom written as a letter) as from `atom`: too near the other to read
+    as `atom`'s."""
     middle = complex((box.x0 + box.x1) / 2, (box.y0 + box.y1) / 2)
     own = abs(middle - out.positions[atom])
-    return any(abs(middle - out.positions[j]) < 1.25 * own for j in out.atoms if j != atom)
+    return any(abs(middle - out.positions[j]) < margin * own for j, drawn in out.atoms.items()
+               if j != atom and (not letters or drawn.box is not None))
 
 
 def _separation(a: Box, b: Box) -> float:
@@ -311,6 +313,9 @@ _ENOUGH_ROOM = math.radians(75)   # more room than this around a direction count
 
 _FAR_SLIDE = 6     # steps of 0.03 bond lengths: side text slid this far out has left its atom
 _BY_THE_LABEL = 0.25   # bond lengths from a label's box to the middle of a charge sign beside it (at most)
+# ...and at least this many times as far from another atom's letter as from its own: at the upper
+# right a sign over a bond to another label (an azide's N+ over its N=N) read as the neighbour's.
+_CLEARLY_ITS_OWN = 1.4
 
 
 # A charge beside a label goes in its preferred quarter where a direction there keeps this far
@@ -924,7 +929,7 @@ class StructureDrawer:
             ambiguous = kind != "charge" and _nearer_another(mark.box, i, out)
             fault = (gap < pad or on_stroke, ambiguous, inside, slid >= _FAR_SLIDE,
                      0.0 if kind == "charge" else -min(gap, pad))
-            if upper_right and (any(fault[:4]) or
+            if upper_right and (any(fault[:4]) or _nearer_another(mark.box, i, out, _CLEARLY_ITS_OWN, letters=True) or
                                 self._sign_distance(mark, out.atoms[i].box) > _BY_THE_LABEL * self.style.bond_length):
                 continue
             if best is None or fault < best[0]:
