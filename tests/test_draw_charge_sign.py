@@ -23,6 +23,15 @@ def _sign_middle(mark, face: FontFace) -> tuple[float, float]:
     return x, run.y - face.ink_middle(sign) * run.size
 
 
+def _sign_of(name: str, panel: int, atom: str, style: str):
+    """The scene, the panel, the atom's drawing and the middle of its charge sign's glyph."""
+    scene = _scene(name, style)
+    drawn = scene.panels[panel]
+    label = next(a for a in drawn.atoms if a.name == atom)
+    sign, = [m for m in drawn.marks if m.kind == "charge" and m.atom == label.index]
+    return scene, drawn, label, _sign_middle(sign, FontFace(scene.style.font_family))
+
+
 @pytest.mark.parametrize("style", ["two-column", "slide"])
 @pytest.mark.parametrize("name, panel, atom", [
     # An oxonium O+ whose bond to its drawn H leaves to the right, the C=O to the upper left:
@@ -31,12 +40,7 @@ def _sign_middle(mark, face: FontFace) -> tuple[float, float]:
     ("10-acetal-formation.mech", 5, "O3"),
 ])
 def test_an_oxonium_sign_stands_at_the_upper_right_of_its_label(name, panel, atom, style):
-    scene = _scene(name, style)
-    face = FontFace(scene.style.font_family)
-    drawn = scene.panels[panel]
-    label = next(a for a in drawn.atoms if a.name == atom)
-    sign, = [m for m in drawn.marks if m.kind == "charge" and m.atom == label.index]
-    x, y = _sign_middle(sign, face)
+    scene, drawn, label, (x, y) = _sign_of(name, panel, atom, style)
     assert y < label.position[1] and x > label.position[0], ((x, y), label.position)
     assert label.box.distance((x, y)) / scene.bond_length <= 0.25
 
@@ -53,12 +57,7 @@ def test_a_sign_between_two_letters_reads_as_its_own_atoms(name, panel, atom, st
     """A charge sign stands at least 1.4 times as far from any other atom's letter as from its own
     atom's centre: nearer, it reads as the neighbour's (common practice: a sign sits against its
     own symbol)."""
-    scene = _scene(name, style)
-    face = FontFace(scene.style.font_family)
-    drawn = scene.panels[panel]
-    label = next(a for a in drawn.atoms if a.name == atom)
-    sign, = [m for m in drawn.marks if m.kind == "charge" and m.atom == label.index]
-    x, y = _sign_middle(sign, face)
+    scene, drawn, label, (x, y) = _sign_of(name, panel, atom, style)
     own = math.dist((x, y), label.position)
     nearest = min(math.dist((x, y), a.position) for a in drawn.atoms if a.index != label.index and a.box is not None)
     assert nearest >= 1.4 * own, (own / scene.bond_length, nearest / scene.bond_length)
