@@ -62,3 +62,15 @@ def test_a_shrunk_slide_scheme_keeps_the_rows_it_was_shrunk_for(name, before):
     down = drawn.height / (style.page_height - 2 * style.margin)
     assert max(across, down) >= 0.95, (across, down)
     assert _scale(scene, "slide") > before + 0.05
+
+
+@pytest.mark.parametrize("name, rows, at_least", [
+    ("henry", [2, 2], 0.85),         # one row of four stood at 0.83, more than half the slide empty
+    ("boc removal", [3, 3], 0.95),   # three rows of two at the same size: one more break
+])
+def test_a_slide_takes_the_larger_size_then_the_fewer_rows(name, rows, at_least):
+    """On a slide the room decides the size: of the wrappings drawn within 2% of the largest, the
+    one in the fewest rows (each row break is a turn in the reading; common practice for slides)."""
+    scene = _scene(name, "slide")
+    assert _panels_per_row(scene) == rows
+    assert _scale(scene, "slide") >= at_least

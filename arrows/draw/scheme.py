@@ -794,6 +794,7 @@ _MOST_WRAPPINGS = 20_000   # ways of wrapping weighed one by one; a longer schem
 # the drawing much is worse than the lone panel it avoids. For rows of which none is a lone panel
 # (balanced), 10%; for moving a lone panel off the last row, 5%; for evenness otherwise, 5%.
 _SCALE_GIVEN = {0: 0.9, 1: 0.95, 2: 0.95}
+_SLIDE_SCALE_GIVEN = 0.98   # on a slide, a wrapping drawn this much smaller than the largest is not weighed
 _HEIGHT_GIVEN = 1.1   # on a page that grows with the scheme, a wrapping this much taller than the least is not weighed
 
 
@@ -818,8 +819,8 @@ def _chosen_rows(widths: list[float], extents: list[tuple[float, float]], gap: f
     counts). Of those, one with no row a lone panel (a product alone on the last row reads as an
     afterthought; common practice), if one is drawn within 10% of the largest scale any is, else
     one lone only at its head or end before one lone in the middle, if drawn within 5% of it; of
-    those, the ones drawn within 5% of the largest scale among them;
-    then the most even, least white beside its rows (a scheme of four equal steps
+    those, on a journal page the ones drawn within 5% of the largest scale among them, on a slide
+    those within 2% in the fewest rows; then the most even, least white beside its rows (a scheme of four equal steps
     wraps two and two, not three and one with half a row empty; an editor's first request of a
     wrapped scheme), then the one drawn larger, the earlier rows fuller at a tie. `extents`: each
     unit's height above and below the row's centre line."""
@@ -860,8 +861,13 @@ def _chosen_rows(widths: list[float], extents: list[tuple[float, float]], gap: f
     lone = min(o.lone for o in options if o.scale >= _SCALE_GIVEN[o.lone] * largest)
     options = [o for o in options if o.lone == lone]
     largest = max(o.scale for o in options)
-    options = [o for o in options if o.scale >= _SCALE_GIVEN[2] * largest]
-    return min(options, key=lambda o: (o.uneven, -o.scale, [-len(r) for r in o.rows])).rows
+    if room is None:
+        options = [o for o in options if o.scale >= _SCALE_GIVEN[2] * largest]
+        return min(options, key=lambda o: (o.uneven, -o.scale, [-len(r) for r in o.rows])).rows
+    # On a slide size is what the room gives: of the wrappings drawn nearly as large as the largest,
+    # the one in fewest rows (each row break is a turn in the reading), then the most even.
+    options = [o for o in options if o.scale >= _SLIDE_SCALE_GIVEN * largest]
+    return min(options, key=lambda o: (len(o.rows), o.uneven, -o.scale, [-len(r) for r in o.rows])).rows
 
 
 def _lone_panels(rows: list[list[int]]) -> int:
