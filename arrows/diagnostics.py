@@ -643,6 +643,35 @@ CODES = _table(
          '    C5-H -> C5-C2\n'
          '    C2=N1 -> N1\n'
          'end'),
+    Code("AR530", WARNING, "unpaired electron in a mechanism of pair arrows",
+         "A species is written with an atom that carries an unpaired electron (an odd number of "
+         "non-bonding electrons: a radical, as written), yet no arrow of the mechanism moves a single "
+         "electron. Pair arrows never change an atom's electron parity, so such a radical is most often "
+         "an ion whose charge was left out of the SMILES: a cuprate written Me2Cu (copper(II)) for the "
+         "Me2Cu- of Me2CuLi, an alkoxide written [O] for [O-]. A mechanism with a fishhook or an electron "
+         "transfer is radical chemistry and is not judged; nor is a d- or f-block metal bonded to no "
+         "carbon, a paramagnetic salt drawn as a Lewis acid or oxidant (FeBr3, CuCl2).",
+         'species cuprate = "[CH3:1][Cu:2][CH3:3]"   # Me2CuLi: write [Cu-:2]\n'
+         'species lithium = "[Li+:4]"\n'
+         'species enone = "[O:5]=[C:6]1[CH:7]=[CH:8]CCC1"\n'
+         'step "conjugate addition"\n'
+         '    C1-Cu2 -> C1-C8\n'
+         '    C7=C8 -> C6=C7\n'
+         '    C6=O5 -> O5\n'
+         'end'),
+    Code("AR531", WARNING, "proton taker left an onium beside an ate",
+         "A step in which an atom takes a proton with its lone pair leaves it positive, bonded to an atom "
+         "the same step leaves negative: an onium beside an ate, the charge-separated form of the bond "
+         "between them, where a neutral pair of products was meant. At a hypervalent centre that takes a "
+         "leaving pair (iodine(V) becoming iodine(III) in an IBX oxidation) the proton goes to the oxygen "
+         "of its X=O, whose pi pair returns to that oxygen in the same step (Kurti-Czako, from memory); a "
+         "ligand's oxygen taking it is left O+ beside I-. A `resonance` step is not judged.",
+         'species ester = "[O:1]=[I:2]1([O:6][CH:5](C)C)[O:4]C(=O)c2ccccc21"\n'
+         'step "elimination"   # the I=O oxygen takes it: `:O1 -> H(C5)` with `I2=O1 -> O1`\n'
+         '    :O4 -> H(C5)\n'
+         '    C5-H -> C5=O6\n'
+         '    O6-I2 -> I2\n'
+         'end'),
     Code("AR601", NOTE, "ring closure",
          "A step closes a ring; its size and Baldwin class are given. A pericyclic step (every arrow "
          "from a bond to a bond, round a closed loop that makes no charge; arrows that all start at "

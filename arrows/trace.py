@@ -214,7 +214,7 @@ def _kekule_as_drawn(mol: Chem.Mol, pi_bonds: frozenset[frozenset[int]]) -> None
             mol.GetBondWithIdx(bond.GetIdx()).SetBondType(order)
 
 
-def _map_location(species: Species, number: int, occurrence: int) -> Location:
+def map_location(species: Species, number: int, occurrence: int) -> Location:
     """Where the n-th bracket atom carrying `number` is written in the species SMILES."""
     starts = [m.start() for m in re.finditer(rf"\[[^\[\]]*:{number}\]", species.smiles)]
     if len(starts) < occurrence:
@@ -304,7 +304,7 @@ class Replay:
                     if number in seen_maps:
                         diags.append(Diagnostic("AR103", f"map number {number} is already used "
                                                 f"(line {seen_maps[number].line})",
-                                                _map_location(sp, number, in_this_species[number]),
+                                                map_location(sp, number, in_this_species[number]),
                                                 hint="map numbers are unique across the whole mechanism"))
                     seen_maps.setdefault(number, sp.loc)
                     if step_index is not None:

@@ -620,6 +620,24 @@ TWINS = [
          '    C5-H -> C5=C6\n    C6=O7 -> O7\nend\nstep "enol adds"\n    :O7 -> C6=O7\n    C5=C6 -> C5-C2\n',
          "    C5-H -> C5-C2\n", "AR529", "C5-H -> C5-C2", says=("C5", "C2", "O10"),
          hint_says=("`C5-H -> C5=C6`", "`C5=C6 -> C5-C2`")),
+    # Lithium dimethylcuprate adding to cyclohexenone (Clayden, from memory): the cuprate is the
+    # anion Me2Cu- beside Li+. Written neutral, its copper holds an unpaired electron (copper(II))
+    # that no pair arrow moves, and the starting species carry +1.
+    Twin("cuprate written without its charge",
+         'species cuprate = "[CH3:1][Cu-:2][CH3:3]"\nspecies lithium = "[Li+:4]"\n'
+         'species enone = "[O:5]=[C:6]1[CH:7]=[CH:8]CCC1"\n'
+         'step "conjugate addition"\n    C1-Cu2 -> C1-C8\n    C7=C8 -> C6=C7\n    C6=O5 -> O5\nend\n',
+         "[Cu-:2]", "[Cu:2]", "AR530", "[Cu:2]", says=("Cu2", "cuprate", "unpaired"),
+         hint_says=("`[Cu-:2]`", "neutral")),
+    # The IBX oxidation (Kurti-Czako, from memory): the I=O oxygen takes the alpha C-H proton as its
+    # pi pair returns to it and iodine(V) becomes iodine(III). The ring's ester oxygen taking it is
+    # left O+ beside I-.
+    Twin("ligand oxygen taking the proton at a hypervalent centre",
+         'species ester = "[O:1]=[I:2]1([O:6][CH:5](C)C)[O:4]C(=O)c2ccccc21"\n'
+         'step "elimination"\n    :O1 -> H(C5)\n    C5-H -> C5=O6\n    O6-I2 -> I2\n    I2=O1 -> O1\nend\n',
+         "    :O1 -> H(C5)\n    C5-H -> C5=O6\n    O6-I2 -> I2\n    I2=O1 -> O1\n",
+         "    :O4 -> H(C5)\n    C5-H -> C5=O6\n    O6-I2 -> I2\n", "AR531", ":O4 -> H(C5)", says=("O4", "I2"),
+         hint_says=("`:O1 -> H(C5)`", "`I2=O1 -> O1`")),
 ]
 
 

@@ -62,13 +62,13 @@ def _registry() -> list[Check]:
         from .leaving import ConcertedAcylSubstitution, StrongBaseLeavingGroups, TertiarySubstitution
         from .pericyclic import ForbiddenPericyclic
         from .protons import (BareProtons, CarbeneFromCH, CHPairBondsAsProtonGoes, FourCentreProtonTransfers,
-                              UphillProtonTransfers)
+                              OniumBesideAte, UphillProtonTransfers)
         from .ring_eliminations import RingEliminationGeometry
         from .rings import RingClosures, StrainedCumulenes
         from .shifts import CationShiftDirection, MigrationAntiToLeavingGroup, ShiftBetweenNeighbours
         from .stereo import StereoChanges
         from .structure import NothingAfterProduct, SomethingToCheck, StepsHaveMoves
-        from .valence import UnusualElectronCounts
+        from .valence import UnpairedElectronsInPolarMechanism, UnusualElectronCounts
         from .written_stereo import WrittenConfigurationMatches
         _CHECK_CLASSES.extend([SomethingToCheck, NothingAfterProduct, StepsHaveMoves, UnusualElectronCounts,
                                ChargeAndAtomsConserved, RingClosures, CheckpointsMatch, UphillProtonTransfers, BareProtons,
@@ -76,7 +76,7 @@ def _registry() -> list[Check]:
                                StrongBaseLeavingGroups, TertiarySubstitution, ConcertedAcylSubstitution,
                                WrittenConfigurationMatches, RingEliminationGeometry, ForbiddenPericyclic,
                                StrainedCumulenes, CarbeneFromCH, FourCentreProtonTransfers,
-                               CHPairBondsAsProtonGoes])
+                               CHPairBondsAsProtonGoes, UnpairedElectronsInPolarMechanism, OniumBesideAte])
     return [cls() for cls in _CHECK_CLASSES]
 
 

@@ -1,6 +1,6 @@
 """Leaving groups that depart from carbon, phosphorus or sulfur as very strong bases (AR510),
-hydroxide or an alkoxide left to ionise (AR515) or pushed out of carbon or nitrogen while a strong
-acid stands by (AR517); substitutions in one step at a tertiary carbon (AR520) or at a carbonyl
+hydroxide or an alkoxide left to ionise (AR515) or pushed out of carbon, nitrogen or an oxo acid's
+centre while a strong acid stands by (AR517); substitutions in one step at a tertiary carbon (AR520) or at a carbonyl
 carbon (AR525).
 
 A pair move from a bond to one of that bond's atoms (`C8-N20 -> N20`) breaks the bond and leaves
@@ -25,7 +25,8 @@ closure). A carbanion pushed off phosphorus as P=O forms is not judged: the alka
 a phosphonium salt expels the group most stable as a carbanion so (March, from memory); nor is
 an oxygen leaving P or S (an oxide, O2-, is AR503's charge of -2). At nitrogen only AR517 speaks: an oxime's or a
 hydroxylamine's OH leaves as water once protonated (the Beckmann rearrangement in acid, Clayden,
-from memory).
+from memory). At the P, S, Se or d-block metal of an oxo acid AR517 speaks for oxygen too:
+chromic acid's OH leaves as water once protonated, as an alcohol bonds to Cr (Clayden, from memory).
 """
 from __future__ import annotations
 
@@ -51,6 +52,9 @@ _CENTRES = (6, 7, 15, 16)
 # leave as water or an alcohol (common practice: the acid-catalysed E1 and SN1 of alcohols).
 _IONISING_OXYGEN_ACID = 14.0   # pKa of the conjugate acid (water 15.7, an alcohol ~16) from which AR515 speaks
 _ALKOXIDE_PKA = _IONISING_OXYGEN_ACID   # ...and AR522: hydroxide and alkoxides, not carboxylates or phenoxides
+# The centres of oxo acids whose OH or OR leaves in acid as water or an alcohol (AR517): P, S, Se
+# and the d-block metals of oxo acids and oxo esters (V, Cr, Mn, Mo, Tc, Ru, W, Re, Os).
+_OXO_ACID_CENTRES = frozenset({15, 16, 34, 23, 24, 25, 42, 43, 44, 74, 75, 76})
 _HALOGENS = (17, 35, 53)   # Cl, Br, I: a halogen a nucleophile can take as X+ (AR520's hint)
 
 
@@ -125,6 +129,14 @@ class StrongBaseLeavingGroups(Check):
             if leaving not in move.source_atoms or elements[leaving] not in _JUDGED:
                 continue
             centre = move.source_atoms[1] if move.source_atoms[0] == leaving else move.source_atoms[0]
+            if elements[leaving] == 8 and -2 < after.formal_charge(leaving) < 0 and _oxo_acid_centre(st.before, centre) \
+                    and (min(leaving, centre), max(leaving, centre)) in broken:
+                # Hydroxide or an alkoxide off the centre of an oxo acid or its ester (chromic acid,
+                # a sulfonate): AR517 only.
+                found = self._pushed_out_in_acid(st, move, leaving, centre, workup=False)
+                if found is not None:
+                    yield found
+                continue
             if (elements[centre] not in _CENTRES or (min(leaving, centre), max(leaving, centre)) not in broken
                     or after.formal_charge(leaving) >= 0):
                 continue
@@ -260,6 +272,18 @@ class StrongBaseLeavingGroups(Check):
             "AR517", f"{label(leaving)} leaves {label(centre)} as {acid.base} (pKa of {acid.acid} "
             f"{acid.shown}) while {kind} {label(site)} is there to protonate it",
             move.move.loc, hint=hint, atoms=(label(leaving), label(centre), label(site)), step=st.index)
+
+
+def _oxo_acid_centre(state, centre: int) -> bool:
+    """Whether `centre` is the P, S, Se or d-block metal of an oxo acid, its ester or its anion (a
+    double bond to oxygen: chromic acid, a chromate ester, permanganate, a sulfonate, a phosphate).
+    An OH or OR on such a centre is protonated in strong acid and leaves as water or an alcohol (the
+    chromate ester of a Jones oxidation forms as chromic acid's protonated OH leaves as water:
+    Clayden, from memory), as from a carbonyl carbon in a Fischer esterification."""
+    if state.elements[centre] not in _OXO_ACID_CENTRES:
+        return False
+    return any(state.elements[n.GetIdx()] == 8 and state.bond_electrons(centre, n.GetIdx()) == 4
+               for n in state.mol.GetAtomWithIdx(centre).GetNeighbors())
 
 
 def _strong_acid(state, passed_over: set[int], apart_from: Optional[int] = None) -> Optional[tuple[int, str]]:

@@ -1,8 +1,9 @@
 """Proton transfers that run far uphill or take a hydride's hydrogen as a proton (AR508), protons
 left bare (AR518), a carbon that keeps its C-H pair while losing another bond's, ending as a
 carbene (AR524), a proton passed between two atoms of one molecule bonded to one common atom,
-round a four-membered ring (AR526), and a C-H pair that bonds to an electrophile as a base takes
-that hydrogen, the enol or enolate skipped (AR529).
+round a four-membered ring (AR526), a C-H pair that bonds to an electrophile as a base takes
+that hydrogen, the enol or enolate skipped (AR529), and a proton taker left an onium beside an atom
+the same step makes an ate (AR531).
 
 A proton transfer is an arrow from a lone pair (or a pi pair) of a base B to a hydrogen on X,
 with the X-H bond broken in the same step. The acid given up is judged on X before the step, the
@@ -29,6 +30,9 @@ from . import Check
 from .pericyclic import forbidden_hydrogen_shift, photochemical
 
 DEFAULT_PKA_GAP = 12.0
+# pKa of the conjugate acid from which an oxygen is hydroxide or an alkoxide (water 15.7, an alcohol
+# ~16), not a carboxylate or phenoxide: AR526's syn elimination, as leaving.py's AR515 and AR522.
+_ALKOXIDE_PKA = 14.0
 _gap: ContextVar[float] = ContextVar("pka_gap", default=DEFAULT_PKA_GAP)
 
 
@@ -459,6 +463,7 @@ class FourCentre(NamedTuple):
     hydrogen: int
     corner: int
     move: ResolvedMove   # the arrow to the hydrogen
+    leaves: bool = False   # `base` leaves `corner` as it takes the proton of a C-H (a syn elimination)
 
 
 def four_centre_transfers(st: StepTrace) -> list[FourCentre]:
@@ -469,10 +474,12 @@ def four_centre_transfers(st: StepTrace) -> list[FourCentre]:
     Not judged, as the shorthand textbooks write for a transfer by way of the solvent (common
     practice): a proton handed across a corner the step leaves alone (a tetrahedral intermediate's
     O- taking its own N+-H), or taken off a cation (the oxonium an alcohol makes as it adds to a
-    ketene, giving its proton to the enolate carbon). Nor an atom that takes the proton as it
-    leaves the corner (a carbonic acid monoester losing CO2 and the alcohol, as reagent guides draw
-    it), a hydride or a hydrogen atom (the hydrogen moves with a pair or one electron of its own),
-    a two-arrow [1,3]-H shift, which AR521 judges, or a step under light."""
+    ketene, giving its proton to the enolate carbon). Nor an atom that takes an O-H or N-H proton as
+    it leaves the corner (a carbonic acid monoester losing CO2 and the alcohol, as reagent guides
+    draw it), a hydride or a hydrogen atom (the hydrogen moves with a pair or one electron of its
+    own), a two-arrow [1,3]-H shift, which AR521 judges, or a step under light. An oxygen that takes
+    a C-H proton as it leaves the corner, the C-H pair making the C=C (a syn elimination of water
+    or an alcohol round four atoms), is returned with `leaves` set."""
     change = st.change
     before = st.before
     elements, broken = before.elements, change.broken
@@ -488,11 +495,26 @@ def four_centre_transfers(st: StepTrace) -> list[FourCentre]:
             continue
         acid = _other(given_up[0], h)
         corner = _corner(st, base, acid, h)
-        if corner is not None and before.formal_charge(acid) <= 0 and pair(base, corner) not in broken:
+        if corner is None or before.formal_charge(acid) > 0:
+            continue
+        if pair(base, corner) not in broken:
             found.append(FourCentre(base, acid, h, corner, m))
+        elif _eliminated_with_its_own_base(st, base, acid, h, corner):
+            found.append(FourCentre(base, acid, h, corner, m, leaves=True))
     if found and (photochemical(st) or forbidden_hydrogen_shift(st) is not None):
         return []
     return found
+
+
+def _eliminated_with_its_own_base(st: StepTrace, base: int, acid: int, hydrogen: int, corner: int) -> bool:
+    """Whether oxygen `base`, leaving carbon `corner`, takes the proton of the neighbouring carbon
+    `acid` whose C-H pair makes the new C=C with `corner`: a 1,2-elimination in which the leaving
+    group is its own base, round four atoms."""
+    elements = st.before.elements
+    if elements[base] != 8 or elements[acid] != 6 or elements[corner] != 6:
+        return False
+    return any(m.source_kind == "bond" and m.electrons == 2 and set(m.source_atoms) == {acid, hydrogen}
+               and set(m.sink_atoms) == {acid, corner} for m in st.change.moves)
 
 
 def _corner(st: StepTrace, base: int, acid: int, hydrogen: int) -> Optional[int]:
@@ -526,6 +548,16 @@ class FourCentreProtonTransfers(Check):
         for t in four_centre_transfers(st):
             label = st.before.label
             base, acid, corner = label(t.base), label(t.acid), label(t.corner)
+            if t.leaves:
+                taken = _acidity(context.views.of(st.after), t.base)   # water or an alcohol, once it holds the proton
+                if taken is None or taken.pka < _ALKOXIDE_PKA:
+                    continue   # a weaker base (a carboxylate) is not judged
+                yield Diagnostic(
+                    "AR526", f"{base} leaves {corner} as {taken.base} and takes the proton of {acid} in the same "
+                    f"step: a four-membered cyclic (syn) elimination of {taken.acid}, {taken.base} the leaving group "
+                    f"and its own base", t.move.move.loc, hint=_elimination_hint(st, t, taken.acid),
+                    atoms=(base, acid, corner), step=st.index)
+                continue
             yield Diagnostic(
                 "AR526", f"{base} takes the proton of {acid} in one step, and both are bonded to {corner}: a "
                 f"four-membered cyclic proton transfer, strained and slow (computed barriers for formimidic acid "
@@ -558,6 +590,37 @@ def _two_steps_hint(st: StepTrace, t: FourCentre) -> str:
             f"{base} first from an acid, then let water take the proton of {acid})")
 
 
+def _elimination_hint(st: StepTrace, t: FourCentre, leaving_as: str) -> str:
+    """Two steps for water or an alcohol lost from C-C: in base the enolate first, where a C=O (or
+    C=N) beside the acid carbon holds its pair, then the E1cB; in acid, the oxygen protonated first."""
+    before, label = st.before, st.before.label
+    base, acid, corner, h = label(t.base), label(t.acid), label(t.corner), label(t.hydrogen)
+    in_acid = f"in acid, {base} is protonated first and leaves as {leaving_as}, a base taking {h} (E1 or E2)"
+    carbonyl = _carbonyl_beside(before, t.acid, t.corner)
+    if carbonyl is None:
+        return f"{base} leaves only once protonated: {in_acid}; a syn elimination goes round five or six atoms (an Ei)"
+    c, o = label(carbonyl[0]), label(carbonyl[1])
+    if all(nameable(before.mol, k) for k in (t.acid, t.hydrogen, t.base, t.corner, *carbonyl)):
+        enolate = f" (`{acid}-H -> {acid}={c}`, `{c}={o} -> {o}`)"
+        push = f" (`:{o} -> {c}={o}`, `{acid}={c} -> {acid}={corner}`, `{corner}-{base} -> {base}`)"
+    else:
+        enolate = push = ""
+    return (f"in base, a base takes {h} in a step of its own, giving the enolate{enolate}, which pushes {base} out "
+            f"of {corner} in the next{push}: an E1cB, as in an aldol dehydration; {in_acid}")
+
+
+def _carbonyl_beside(state, carbon: int, apart_from: int) -> Optional[tuple[int, int]]:
+    """A carbon bonded to `carbon` (not `apart_from`) with a double bond to O or N, and that O or N."""
+    for n in state.mol.GetAtomWithIdx(carbon).GetNeighbors():
+        if n.GetIdx() == apart_from or n.GetAtomicNum() != 6:
+            continue
+        for b in n.GetBonds():
+            other = b.GetOtherAtom(n)
+            if b.GetBondTypeAsDouble() == 2 and other.GetAtomicNum() in (7, 8):
+                return n.GetIdx(), other.GetIdx()
+    return None
+
+
 def _six_centre_base(st: StepTrace, t: FourCentre) -> Optional[int]:
     """An N or O with a lone pair before the step, changed by it, four bonds from the acid: the
     atom that takes the proton round a six-membered ring."""
@@ -567,6 +630,56 @@ def _six_centre_base(st: StepTrace, t: FourCentre) -> Optional[int]:
                 and len(Chem.GetShortestPath(before.mol, k, t.acid)) == 5:
             return k
     return None
+
+
+class OniumBesideAte(Check):
+    """AR531: a step in which an atom takes a proton with its lone pair and ends positive, bonded to
+    an atom the same step leaves negative: an onium beside an ate, the charge-separated form of the
+    bond between them. At a hypervalent centre that loses a ligand's pair (iodine(V) to iodine(III)
+    in an IBX oxidation) the proton is taken by the oxygen of its X=O, whose pi pair returns to that
+    oxygen in the same step (Kurti-Czako, from memory); a ligand oxygen taking it (the ring's ester
+    oxygen of IBX) leaves O+ beside I-. A `resonance` step is not judged."""
+    name = "onium beside an ate"
+    codes = ("AR531",)
+
+    def step(self, st: StepTrace, context) -> Iterator[Diagnostic]:
+        if st.after is None or st.step.kind == "resonance":
+            return
+        before, after = st.before, st.after
+        for m in st.change.moves:
+            if m.source_kind != "lone_pair" or m.electrons != 2 or len(m.sink_atoms) != 2:
+                continue
+            taker, h = m.sink_atoms
+            if before.elements[h] != 1 or after.formal_charge(taker) <= max(0, before.formal_charge(taker)):
+                continue
+            for n in after.mol.GetAtomWithIdx(taker).GetNeighbors():
+                ate = n.GetIdx()
+                made_negative = after.formal_charge(ate) < min(0, before.formal_charge(ate))
+                if before.elements[ate] == 1 or not made_negative:
+                    continue
+                label = before.label
+                yield Diagnostic(
+                    "AR531", f"{label(taker)} takes {label(h)} and is left positive beside {label(ate)}, which "
+                    f"this step leaves negative: an onium beside an ate, the charge-separated form of their bond",
+                    m.move.loc, hint=_onium_beside_ate_hint(st, m, taker, ate), atoms=(label(taker), label(ate)),
+                    step=st.index)
+                break
+
+
+def _onium_beside_ate_hint(st: StepTrace, move: ResolvedMove, taker: int, ate: int) -> str:
+    """The atom double-bonded to the ate centre that takes the proton instead, its pi pair going
+    back onto it (an IBX oxidation's I=O oxygen), written in place of the arrow; else the rule."""
+    before, label = st.before, st.before.label
+    h = label(move.sink_atoms[1])
+    for n in before.mol.GetAtomWithIdx(ate).GetNeighbors():
+        oxo = n.GetIdx()
+        if oxo != taker and before.elements[oxo] in (7, 8, 16) and before.bond_electrons(ate, oxo) == 4 \
+                and before.nonbonding[oxo] >= 2 and nameable(before.mol, oxo) and nameable(before.mol, ate):
+            a, o = label(ate), label(oxo)
+            return (f"let {o}, doubly bonded to {a}, take the proton as its pi pair returns to it: `:{o} -> {h}` "
+                    f"in place of `{move.move}`, with `{a}={o} -> {o}`, as the I=O oxygen does in an IBX oxidation")
+    return (f"another atom should take {h}: one whose own pi pair or bond pair moves onto it in the same step, "
+            f"so that it is not left an onium beside {label(ate)}")
 
 
 class CHPairBondsAsProtonGoes(Check):

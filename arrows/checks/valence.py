@@ -1,15 +1,18 @@
 """Electron counts that are legal but unusual enough to deserve a second look."""
 from __future__ import annotations
 
+import re
+from itertools import islice
 from typing import Iterator, Optional
 
 from rdkit import Chem
 
 from ..diagnostics import Diagnostic
-from ..electrons import nameable
+from ..electrons import ElectronState, nameable
+from ..model import Location, Species
 from ..rdkit_io import ELECTRONEGATIVITY
-from ..trace import StepTrace
-from . import Check
+from ..trace import StepTrace, map_location
+from . import Check, Ending
 
 # Metals whose ions routinely carry +2 (Mg2+, Ca2+, Zn2+ ...): no unusual-charge warning for them.
 _IONIC_METALS = {3, 4, 11, 12, 19, 20, 30, 37, 38, 55, 56}
@@ -463,3 +466,122 @@ class UnusualElectronCounts(Check):
                     beyond, hint = "expanded octet", "rare for this element: a bond to it should break in the same step"
                 yield Diagnostic("AR504", f"{label} holds {shell} valence electrons ({beyond})", st.step.loc,
                                  hint=hint, atoms=(label,), step=st.index)
+
+
+# d- and f-block metals, whose unpaired electrons are d or f electrons of the metal itself: the
+# paramagnetic salts drawn as Lewis acids or oxidants in polar steps (FeBr3, high-spin iron(III);
+# CuCl2; CeCl3) are written so on purpose.
+_OPEN_SHELL_METALS = _TRANSITION_METALS | frozenset(range(58, 72)) | frozenset(range(90, 104))
+# Metals of groups 1 and 2, whose ions are cations (Li+, Mg2+).
+_S_BLOCK_METALS = frozenset({3, 4, 11, 12, 19, 20, 37, 38, 55, 56})
+
+
+def _radical_as_written(state: ElectronState, i: int) -> bool:
+    """Whether atom i carries an unpaired electron (odd N) that AR530 judges: any atom but a d- or
+    f-block metal bonded to no carbon (a salt such as FeBr3). An organometallic's metal is written
+    with an even count (a cuprate's Cu(I), a Grignard's Mg)."""
+    if not state.nonbonding[i] % 2:
+        return False
+    if state.elements[i] not in _OPEN_SHELL_METALS:
+        return True
+    return any(n.GetAtomicNum() == 6 for n in state.mol.GetAtomWithIdx(i).GetNeighbors())
+
+
+def _charge_meant(state: ElectronState, i: int) -> int:
+    """The change of charge that pairs atom i's odd electron: +1 for an s-block metal (Li+), else
+    -1 where one more electron stays within the atom's shell (a cuprate's Cu-, an alkoxide's O-),
+    +1 otherwise."""
+    element = state.elements[i]
+    if element in _S_BLOCK_METALS:
+        return 1
+    shell = state.nonbonding[i] + 2 * state.bond_sums[i]
+    return -1 if shell + 1 <= shell_limit(element) else 1
+
+
+def _written_with_charge(state: ElectronState, i: int, charge: int) -> str:
+    """Atom i as a bracket atom of SMILES carrying `charge`: `[Cu-:2]`."""
+    atom = state.mol.GetAtomWithIdx(i)
+    hydrogens = atom.GetTotalNumHs(includeNeighbors=True)
+    text = (f"{atom.GetIsotope() or ''}{atom.GetSymbol()}" + ("H" if hydrogens else "")
+            + (str(hydrogens) if hydrogens > 1 else "") + ("+" if charge > 0 else "-" if charge < 0 else "")
+            + (str(abs(charge)) if abs(charge) > 1 else ""))
+    number = atom.GetAtomMapNum()
+    return f"[{text}:{number}]" if number else f"[{text}]"
+
+
+def _written_in(state: ElectronState, i: int, species: tuple[Species, ...]) -> tuple[Species, Location]:
+    """The species that writes atom i, and where: at the atom itself when it carries a map number,
+    else at the species found by a map number of its molecule (or the one species)."""
+    atom = state.mol.GetAtomWithIdx(i)
+    own = atom.GetAtomMapNum()
+    fragment = next(f for f in Chem.GetMolFrags(state.mol, asMols=False, sanitizeFrags=False) if i in f)
+    for number in [own] + [state.mol.GetAtomWithIdx(k).GetAtomMapNum() for k in fragment]:
+        if not number:
+            continue
+        for sp in species:
+            if re.search(rf"\[[^\[\]]*:{number}\]", sp.smiles):
+                return sp, map_location(sp, number, 1) if number == own else sp.smiles_loc
+    symbol = atom.GetSymbol()
+    sp = next((s for s in species if symbol in s.smiles), species[0])
+    return sp, sp.smiles_loc
+
+
+class UnpairedElectronsInPolarMechanism(Check):
+    """AR530: a species written with an atom that carries an unpaired electron (a radical, as
+    written) in a mechanism none of whose arrows moves a single electron. Pair arrows cannot change
+    an atom's electron parity, so a radical met only by pair arrows is most often an ion whose charge
+    was left out of the SMILES: a cuprate written Me2Cu (copper(II), nine d electrons) for Me2Cu-
+    with its Li+, an alkoxide written [O] for [O-]. A mechanism with a fishhook is radical chemistry
+    (a stannyl radical, sodium's electron) and is not judged; nor a d- or f-block metal bonded to no
+    carbon (FeBr3, high-spin iron(III), and CuCl2 are paramagnetic salts drawn as Lewis acids)."""
+
+    name = "unpaired electrons in a polar mechanism"
+    codes = ("AR530",)
+
+    def __init__(self) -> None:
+        self.fishhooks = False
+        self.brought: list[Diagnostic] = []   # for species brought in by `uses`, said only at the end
+
+    def step(self, st: StepTrace, context) -> Iterator[Diagnostic]:
+        if st.index == 0:
+            self.fishhooks, self.brought = False, []
+        if any(m.electrons == 1 for m in st.step.moves):
+            self.fishhooks = True
+        if st.entered and not self.fishhooks:
+            self.brought.extend(self._judged(st.before, st.entered, st.step.uses, st.index, None))
+        return ()
+
+    def finish(self, end: Ending, context) -> Iterator[Diagnostic]:
+        steps = end.mechanism.steps
+        if end.initial is None or not steps or self.fishhooks:
+            return
+        start = end.initial
+        found = list(self._judged(start, range(len(start.nonbonding)), end.mechanism.species, None,
+                                  Chem.GetFormalCharge(start.mol))) + self.brought
+        # The steps after one the replay could not apply are read again only then (a long file streams).
+        if found and end.steps_replayed < len(steps) and any(
+                m.electrons == 1 for step in islice(steps, end.steps_replayed, None) for m in step.moves):
+            return
+        yield from found
+
+    @staticmethod
+    def _judged(state: ElectronState, atoms, species: tuple[Species, ...], step: Optional[int],
+                total: Optional[int]) -> Iterator[Diagnostic]:
+        for i in atoms:
+            if not _radical_as_written(state, i):
+                continue
+            label = state.label(i)
+            sp, loc = _written_in(state, i, species)
+            change = _charge_meant(state, i)
+            written = _written_with_charge(state, i, state.formal_charge(i) + change)
+            balance = ""
+            if total and total + change == 0:
+                balance = f", which makes the starting species neutral (as written they carry {total:+d})"
+            charge = state.formal_charge(i)
+            yield Diagnostic(
+                "AR530", f"{label} in {sp.name} is written with an unpaired electron ({state.nonbonding[i]} "
+                f"non-bonding electrons, {f'charge {charge:+d}' if charge else 'neutral'}), but no arrow of this "
+                f"mechanism moves a single electron", loc,
+                hint=f"if {sp.name} is an ion, write its charge: `{written}`{balance}; if it is a radical, its "
+                     f"steps move one electron at a time (`~>`)",
+                atoms=(label,), step=step)
