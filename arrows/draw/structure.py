@@ -926,7 +926,9 @@ class StructureDrawer:
             inside = shunned is not None and (direction * shunned.conjugate()).real > 0.5
             # A drafting label (a CIP label, a map number) nearly as near another atom as its own
             # reads as either's: between two adjacent stereocentres, "(R)" and "(S)" could not be told apart.
-            ambiguous = kind != "charge" and _nearer_another(mark.box, i, out)
+            # (a charge only where it stands nearer another atom than its own: Favorskii's carbanion
+            # sign between its C and the ester's)
+            ambiguous = _nearer_another(mark.box, i, out, 1.25 if kind != "charge" else 1.0)
             fault = (gap < pad or on_stroke, ambiguous, inside, slid >= _FAR_SLIDE,
                      0.0 if kind == "charge" else -min(gap, pad))
             if upper_right and (any(fault[:4]) or _nearer_another(mark.box, i, out, _CLEARLY_ITS_OWN, letters=True) or
