@@ -15,7 +15,6 @@ from __future__ import annotations
 
 import pytest
 
-from arrows import check_text
 from arrows.checks.rings import METACYCLOPHANE_SMALLEST_BRIDGE, PARACYCLOPHANE_SMALLEST_BRIDGE
 
 from textbook_mechanisms import TEXTBOOK

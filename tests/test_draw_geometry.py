@@ -1819,10 +1819,6 @@ def test_acid_waits_beside_the_base_it_protonates():
     assert _distance(oxygen.position, bromide.position) / bl <= 2.6
 
 
-def _segments_cross(p, q, a, b) -> bool:
-    return _signed_area(p, q, a) * _signed_area(p, q, b) < 0 and _signed_area(a, b, p) * _signed_area(a, b, q) < 0
-
-
 def _bonds_crossed(scene) -> list[tuple[int, str, tuple[int, int]]]:
     """(panel, move, bond) for every bond a curved arrow crosses that is not one of its own: a
     bond between two atoms its move names (the bond it starts on, ends on, or makes)."""
