@@ -3588,6 +3588,15 @@ class _LayoutBuilder:
         def room(direction: complex) -> float:
             return float(np.minimum.reduce(np.abs(relative - direction), axis=None)) if len(relative) else math.inf
 
+        # A proton taken for good (no hop from this holder follows) has done its part: where its
+        # molecule stands by, it keeps clear of the others, as separately placed molecules do
+        # (pointing at an atom another molecule is about to lose, it reads as a transfer).
+        moves_on = following is not None and following.holder is not None and following.first == r.last + 1
+        aloof = self._others_while_standing_by(r.holder, panels) if not moves_on else np.zeros(0, dtype=complex)
+
+        def clear(direction: complex) -> bool:
+            return not len(aloof) or float(np.minimum.reduce(np.abs(aloof - direction))) >= _CLEARANCE
+
         def miss(direction: complex) -> float:
             """How far the hydrogen is from a comfortable hop to its next partner."""
             if partner is None:
@@ -3641,7 +3650,7 @@ class _LayoutBuilder:
             return (trigonal and turn < _OPEN_ANGLE) or (vertex and turn > _HIDDEN_VERTEX)
 
         if (room_now >= _HYDROGEN_ROOM and miss(r.direction) == 0.0 and not crossed_now and not cramped(r.direction)
-                and not closed(r.direction)):
+                and not closed(r.direction) and clear(r.direction)):
             return
         walls = np.array(sorted(walls, key=lambda w: (w[0].real, w[0].imag)), dtype=complex).reshape(-1, 2)
 
@@ -3651,23 +3660,24 @@ class _LayoutBuilder:
             return crosses_any(np.zeros(len(directions), dtype=complex), np.array(directions, dtype=complex), walls)
 
         polygons = [[self.positions[k][a] for a in ring] for k in panels for ring in self._closed_rings(k)]
-        # Clear of every atom and bond first, then of bonds at least, then not folded; among
-        # those, room and a comfortable hop.
+        # Clear of every atom and bond first, then of bonds at least, then not folded, then clear
+        # of the molecules its holder's stands beside; among those, room and a comfortable hop.
         start_score = (not cramped(r.direction), room_now >= _HYDROGEN_ROOM and not crossed_now,
-                       not crossed_now, not closed(r.direction), min(room_now, 1.2) + 0.1 - miss(r.direction))
+                       not crossed_now, not closed(r.direction), clear(r.direction),
+                       min(room_now, 1.2) + 0.1 - miss(r.direction))
         best, best_score = r.direction, start_score
         compass = _HYDROGEN_COMPASS
         rooms = (np.minimum.reduce(np.abs(relative - _HYDROGEN_COMPASS_ARRAY[:, None]), axis=1).tolist() if len(relative)
                  else [math.inf] * len(compass))
         for d, space, crossed in zip(compass, rooms, crossing(compass)):
-            score = (not cramped(d), space >= _HYDROGEN_ROOM and not crossed, not crossed, not closed(d),
+            score = (not cramped(d), space >= _HYDROGEN_ROOM and not crossed, not crossed, not closed(d), clear(d),
                      min(space, 1.2) + 0.1 * (d / r.direction).real - miss(d))
-            if not (score[:4] > best_score[:4] or (score[:4] == best_score[:4] and score[4] > best_score[4] + 0.05)):
+            if not (score[:5] > best_score[:5] or (score[:5] == best_score[:5] and score[5] > best_score[5] + 0.05)):
                 continue
             # Only a direction that would win is asked whether it is allowed at all.
             if any(abs(cmath.phase(d / b)) < _OFF_A_BOND for b in bonds):
                 continue
-            if len(bonds) == 1 and score[:4] == start_score[:4] and abs(cmath.phase(d / bonds[0])) < _OPEN_ANGLE:
+            if len(bonds) == 1 and score[:5] == start_score[:5] and abs(cmath.phase(d / bonds[0])) < _OPEN_ANGLE:
                 continue   # no more room, only a nearer partner: not worth closing a lone bond's angle
             if any(inside_polygon(self.positions[panels[0]][r.holder] + d, poly) for poly in polygons):
                 continue
@@ -3675,6 +3685,21 @@ class _LayoutBuilder:
         r.direction = best
         for k in stay:
             self.positions[k][r.hydrogen] = self.positions[k][r.holder] + best
+
+    def _others_while_standing_by(self, holder: int, panels: Sequence[int]) -> np.ndarray:
+        """Where the atoms of other molecules drawn stand, relative to `holder`, in those of
+        `panels` in which the holder's molecule stands by: a step leaves that panel and touches
+        no atom of it."""
+        spots = set()
+        for k in panels:
+            if k + 1 >= self.n:
+                continue
+            own = next((set(m) for m in self.molecules[k] if holder in m), {holder})
+            if own & self.touched[k]:
+                continue
+            centre = self.positions[k][holder]
+            spots |= {p - centre for a, p in self.positions[k].items() if a not in own and self._drawn_in(a, k)}
+        return np.array(list(spots), dtype=complex)
 
     def _drawn_in(self, atom: int, k: int) -> bool:
         """Whether panel k draws the atom: a travelling hydrogen only next to the steps that move
