@@ -41,3 +41,11 @@ def test_ethanol_standing_by_in_a_robinson_annulation_keeps_clear():
     the ethanol made by the proton transfer before it stands by in the E1cB step. Its new O-H
     pointed 0.96 bond lengths straight at the OH that step pushes out."""
     assert _stand_by_gap("robinson annulation", 7, 14) >= _CLEARANCE
+
+
+def test_bromide_let_go_in_a_corey_fuchs_keeps_clear():
+    """Corey-Fuchs (textbook account: the tribromomethanide takes the bromine's place on the
+    phosphonium, and a second triphenylphosphine takes a bromine off its carbon), panel 2: the
+    bromide the carbanion pushed off phosphorus stands by while the second phosphine acts. It was
+    left where it fell off, 0.48 bond lengths from the ylide's carbon, as if still bonded there."""
+    assert _stand_by_gap("corey-fuchs", 2, 3) >= _CLEARANCE

@@ -777,6 +777,7 @@ class _LayoutBuilder:
         self._place_hydrogens()
         self._let_go()
         self._ease_trigonal_centres()
+        self._clear_bystanders()
         self._set_by_products_beside_product()
         panels = []
         for k, state in enumerate(self.states):
@@ -3174,6 +3175,78 @@ class _LayoutBuilder:
         made = self.bonds_in[k] - self.bonds_in[k - 1]
         return any(n in self.cluster_of and self.cluster_of[n] != index and not self._placed_at(self.cluster_of[n], k)
                    for a in cluster.atoms for n in self.neighbours[a] if (min(a, n), max(a, n)) in made)
+
+    def _clear_bystanders(self) -> None:
+        """A molecule that stands by in a run of panels (no step from them touches it) where it
+        may move in the first, left where it last acted or waited, may stand on another
+        molecule's atoms (the bromide an SN2 pushed out, a bond length from the hydrogen the next
+        step takes). It steps off, as a rigid body, the least way that keeps it _CLEARANCE from
+        every other atom drawn in the run, on the side it stood on. Not in a run that reaches the
+        last panel (the by-products are set there on their own), nor while it waits for its next
+        turn in the run (it stands by its partner on purpose): that one is left as it is."""
+        for k in range(self.n - 1):
+            for molecule in sorted(self.molecules[k], key=len):
+                run = self._standing_by(set(molecule), k)
+                if run is not None:
+                    self._step_clear(set(molecule), run)
+
+    def _standing_by(self, molecule: set[int], k: int) -> Optional[range]:
+        """The panels from the one where `molecule` may last move up to the last one it stays
+        put in, if it stands by in all of them, is one molecule in each and the run starts at
+        panel k and ends before the last panel; else None."""
+        if not molecule & self.positions[k].keys() or k > 0 and not self._may_move_into(molecule, k - 1):
+            return None
+        last = k
+        while True:
+            if molecule & self.touched[last] or last + 1 >= self.n:
+                return None
+            if not any(molecule == set(m) for m in self.molecules[last]):
+                return None
+            if self._may_move_into(molecule, last):
+                return range(k, last + 1)
+            last += 1
+
+    def _may_move_into(self, molecule: set[int], k: int) -> bool:
+        """Whether `molecule` may move between panels k and k+1: the step touches every atom of
+        it drawn in both (none, when it is not drawn in panel k), or each cluster it is made of
+        starts a run of panels there (it joins another, or trades a proton, as _segments has it)."""
+        kept = {a for a in molecule if a in self.positions[k] and a in self.positions[k + 1]}
+        if kept <= self.touched[k]:
+            return True
+        clusters = {self.cluster_of[a] for a in kept if a in self.cluster_of}
+        return bool(clusters) and all(self.clusters[c].segment_at.get(k + 1, (None,))[0] == k + 1 for c in clusters)
+
+    def _step_clear(self, molecule: set[int], run: range) -> None:
+        """Move `molecule` in the panels of `run` by the shortest shift (tried every 0.05 bond
+        lengths, every 10 degrees within 90 of straight away from what crowds it) that keeps it
+        _CLEARANCE from every other atom drawn there."""
+        mine, others = [], []
+        for k in run:
+            here = self.positions[k]
+            mine += [here[a] for a in molecule if a in here and self._drawn_in(a, k)]
+            others += [p for a, p in here.items() if a not in molecule and self._drawn_in(a, k)]
+        if not mine or not others:
+            return
+        mine_at, others_at = np.array(mine, dtype=complex), np.array(others, dtype=complex)
+        apart = mine_at[:, None] - others_at[None, :]
+        near = np.abs(apart)
+        if near.min() >= _CLEARANCE - 1e-9:
+            return
+        crowded = near < _CLEARANCE
+        push = complex((apart[crowded] / np.maximum(near[crowded], 1e-9)).sum())
+        away = unit(push) if abs(push) > 1e-9 else unit(mine_at.mean() - others_at.mean())
+        turns = _COMPASS[np.abs(np.angle(_COMPASS)) <= math.pi / 2 + 1e-9]
+        turns = turns[np.argsort(np.abs(np.angle(turns)))]     # straight away first
+        for distance in np.arange(0.05, 3.01, 0.05):
+            shifts = away * turns * distance
+            gaps = np.abs(mine_at[None, :, None] + shifts[:, None, None] - others_at[None, None, :]).min(axis=(1, 2))
+            clear = np.flatnonzero(gaps >= _CLEARANCE)
+            if len(clear):
+                shift = complex(shifts[clear[0]])
+                for k in run:
+                    for a in molecule & self.positions[k].keys():
+                        self.positions[k][a] += shift
+                return
 
     def _set_by_products_beside_product(self) -> None:
         """The last panel reads as an equation: the product (`self.product`, else the largest
