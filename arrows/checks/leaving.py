@@ -36,7 +36,7 @@ from rdkit import Chem
 
 from ..diagnostics import Diagnostic
 from ..electrons import nameable
-from ..judgement.acidity import HYDROGEN, Acidity, acidity_of, perceived
+from ..judgement.acidity import ALKOXIDE_ACID_PKA, HYDROGEN, Acidity, acidity_of, perceived
 from ..trace import StepTrace
 from . import Check
 from .protons import freed_protons
@@ -47,11 +47,6 @@ _JUDGED = (1, 6, 7, 8)   # H, C, N and O (as oxide, O2-): the elements whose ani
 # or hydroxylamine (AR517 only); the phosphorus or sulfur of an onium ion or its adduct (AR510 only,
 # for carbon, nitrogen and hydrogen leaving).
 _CENTRES = (6, 7, 15, 16)
-# Hydroxide and alkoxides leave a carbon only when pushed (an E1cB, a tetrahedral intermediate's
-# alkoxide re-forming C=O): left to ionise alone into a carbocation, they are protonated first and
-# leave as water or an alcohol (common practice: the acid-catalysed E1 and SN1 of alcohols).
-_IONISING_OXYGEN_ACID = 14.0   # pKa of the conjugate acid (water 15.7, an alcohol ~16) from which AR515 speaks
-_ALKOXIDE_PKA = _IONISING_OXYGEN_ACID   # ...and AR522: hydroxide and alkoxides, not carboxylates or phenoxides
 # The centres of oxo acids whose OH or OR leaves in acid as water or an alcohol (AR517): P, S, Se
 # and the d-block metals of oxo acids and oxo esters (V, Cr, Mn, Mo, Tc, Ru, W, Re, Os).
 _OXO_ACID_CENTRES = frozenset({15, 16, 34, 23, 24, 25, 42, 43, 44, 74, 75, 76})
@@ -165,7 +160,7 @@ class StrongBaseLeavingGroups(Check):
                     elements[leaving] == 6 and _weaker_ring_bond(st.before, leaving, centre)):
                 continue   # the strain released drives the opening (the Favorskii's carbanion)
             acid = conjugate_acid(after.mol, leaving)
-            if (acid is not None and elements[leaving] == 8 and _IONISING_OXYGEN_ACID <= acid.pka < STRONGEST_LEAVING_BASE
+            if (acid is not None and elements[leaving] == 8 and ALKOXIDE_ACID_PKA <= acid.pka < STRONGEST_LEAVING_BASE
                     and ionised):
                 yield Diagnostic(
                     "AR515", f"{label(leaving)} leaves {label(centre)} as {acid.base} (pKa of {acid.acid} {acid.shown}), "
@@ -213,7 +208,7 @@ class StrongBaseLeavingGroups(Check):
             if taker is None:
                 continue   # left bare: AR518's
             acid = conjugate_acid(after.mol, leaving)   # (perceived only for a step shaped as an E2)
-            if acid is None or acid.pka < _ALKOXIDE_PKA:
+            if acid is None or acid.pka < ALKOXIDE_ACID_PKA:
                 return None
             label = before.label
             stabilised = any(before.mol.GetBondBetweenAtoms(beta, n.GetIdx()) is not None and n.GetIdx() != centre
@@ -249,7 +244,7 @@ class StrongBaseLeavingGroups(Check):
             # an acid standing by.
             strong = _strong_acid(st.after, {leaving} | set(freed_protons(st)), apart_from=centre)
         acid = conjugate_acid(st.after.mol, leaving) if strong is not None else None
-        if acid is None or not _IONISING_OXYGEN_ACID <= acid.pka < STRONGEST_LEAVING_BASE:
+        if acid is None or not ALKOXIDE_ACID_PKA <= acid.pka < STRONGEST_LEAVING_BASE:
             return None
         site, kind = strong
         label, mol = st.before.label, st.after.mol

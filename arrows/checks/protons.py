@@ -22,7 +22,7 @@ from rdkit import Chem
 
 from ..diagnostics import Diagnostic
 from ..electrons import ResolvedMove, nameable, pair
-from ..judgement.acidity import HYDROGEN, PYRROLE_TYPE_N, Acidity, acidity_of, pyrrole_type_nitrogen
+from ..judgement.acidity import ALKOXIDE_ACID_PKA, HYDROGEN, PYRROLE_TYPE_N, Acidity, acidity_of, pyrrole_type_nitrogen
 from ..judgement.perception import Perceived, RecentViews
 from ..model import Location
 from ..trace import StepTrace
@@ -30,9 +30,6 @@ from . import Check
 from .pericyclic import forbidden_hydrogen_shift, photochemical
 
 DEFAULT_PKA_GAP = 12.0
-# pKa of the conjugate acid from which an oxygen is hydroxide or an alkoxide (water 15.7, an alcohol
-# ~16), not a carboxylate or phenoxide: AR526's syn elimination, as leaving.py's AR515 and AR522.
-_ALKOXIDE_PKA = 14.0
 _gap: ContextVar[float] = ContextVar("pka_gap", default=DEFAULT_PKA_GAP)
 
 
@@ -261,6 +258,11 @@ def _next_to_cation(state, atom: int) -> bool:
     return False
 
 
+def _unused_map_number(state) -> int:
+    """One more than the largest map number of `state`: the number a hint gives a species it brings in."""
+    return 1 + max((a.GetAtomMapNum() for a in state.mol.GetAtoms()), default=0)
+
+
 def _units(uphill: float, gap: float) -> str:
     """The gap as a whole number, unless that would read as no more than the threshold ("uphill by
     about 12 ... the threshold is 12"): then with one decimal."""
@@ -283,7 +285,7 @@ def _hydride_taken_as_a_proton(st: StepTrace, t: ProtonTransfer) -> Diagnostic:
     b, x = label(t.base_atom), label(t.acid_atom)
     h = label(t.hydrogen)
     symbol = st.before.mol.GetAtomWithIdx(t.acid_atom).GetSymbol()
-    free = 1 + max((a.GetAtomMapNum() for a in st.after.mol.GetAtoms()), default=0)
+    free = _unused_map_number(st.after)
     take = (f"`:{b} -> H(O{free})` with `O{free}-H -> O{free}`" if nameable(st.before.mol, t.base_atom)
             else f"{b} taking a proton of water")
     return Diagnostic(
@@ -406,7 +408,7 @@ class BareProtons(Check):
                 hint = (f"let a base take it in this step: {name}, for example, with `:{name} -> "
                         f"{hydrogen}` (water, the solvent or the acid's counter-ion takes the proton)")
             else:
-                free = 1 + max((a.GetAtomMapNum() for a in st.after.mol.GetAtoms()), default=0)
+                free = _unused_map_number(st.after)
                 taking = f"`:O{free} -> {hydrogen}`" if nameable(st.before.mol, h) else \
                     f"an arrow from O{free} to {hydrogen} (give {label(holder)} a map number to name it)"
                 hint = (f"let a base take it in this step: bring one in with `uses base = \"[OH2:{free}]\"` (water, "
@@ -550,7 +552,7 @@ class FourCentreProtonTransfers(Check):
             base, acid, corner = label(t.base), label(t.acid), label(t.corner)
             if t.leaves:
                 taken = _acidity(context.views.of(st.after), t.base)   # water or an alcohol, once it holds the proton
-                if taken is None or taken.pka < _ALKOXIDE_PKA:
+                if taken is None or taken.pka < ALKOXIDE_ACID_PKA:
                     continue   # a weaker base (a carboxylate) is not judged
                 yield Diagnostic(
                     "AR526", f"{base} leaves {corner} as {taken.base} and takes the proton of {acid} in the same "
@@ -578,7 +580,7 @@ def _two_steps_hint(st: StepTrace, t: FourCentre) -> str:
                 f"and changed by this step, take it, `:{label(six)} -> {label(t.hydrogen)}` (as a beta-keto acid's "
                 f"ketone oxygen does in its decarboxylation), or write two proton transfers by way of water brought "
                 f"in with `uses`")
-    free = 1 + max((a.GetAtomMapNum() for a in st.after.mol.GetAtoms()), default=0)
+    free = _unused_map_number(st.after)
     if named and nameable(before.mol, t.base):
         taking = f"`:O{free} -> {label(t.hydrogen)}` in place of this arrow"
         giving = (f"`:{base} -> H(O{free})` with `O{free}-H -> O{free}`" if t.move.source_kind == "lone_pair"
@@ -736,14 +738,9 @@ def _enol_first_hint(st: StepTrace, taking: ResolvedMove, bonding: ResolvedMove,
     mol = before.mol
     hydrogen = next(a for a in bonding.source_atoms if before.elements[a] == 1)
     carbon = next(a for a in bonding.source_atoms if a != hydrogen)
-    for n in mol.GetAtomWithIdx(carbon).GetNeighbors():
-        k = n.GetIdx()
-        hetero = next((b.GetOtherAtomIdx(k) for b in n.GetBonds() if b.GetBondTypeAsDouble() == 2
-                       and before.elements[b.GetOtherAtomIdx(k)] in (7, 8)), None)
-        if before.elements[k] != 6 or hetero is None:
-            continue
-        if not all(nameable(mol, a) for a in (carbon, k, hetero, electrophile)) or not nameable(mol, hydrogen):
-            break
+    carbonyl = _carbonyl_beside(before, carbon, electrophile)
+    if carbonyl is not None and all(nameable(mol, a) for a in (carbon, *carbonyl, electrophile, hydrogen)):
+        k, hetero = carbonyl
         c, o, e, kk = label(carbon), label(hetero), label(electrophile), label(k)
         rest = "".join(f" and `{m.move}`" for m in st.change.moves if m is not taking and m is not bonding)
         return (f"take the proton in a step of its own, `{taking.move}` with `{c}-H -> {c}={kk}` and `{kk}={o} -> {o}` "

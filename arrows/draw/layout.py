@@ -316,15 +316,17 @@ def _adjacency(bonds: Iterable[tuple[int, int]]) -> dict[int, list[int]]:
     return adjacent
 
 
-def _on_the_way(start: int, goal: int, adjacent: dict[int, list[int]]) -> list[int]:
-    """The atoms of a shortest way from `start` to `goal`, both included (none if there is none)."""
+def _on_the_way(start: int, goal: int, adjacent: dict[int, list[int]], direct: bool = True) -> list[int]:
+    """The atoms of a shortest way from `start` to `goal`, both included (none if there is none);
+    with `direct` False, one that does not take a bond between the two themselves (the rest of the
+    smallest ring through that bond)."""
     came_from = {start: start}
     frontier = [start]
     while frontier and goal not in came_from:
         following = []
         for a in frontier:
             for n in adjacent.get(a, ()):
-                if n not in came_from:
+                if n not in came_from and (direct or (a, n) != (start, goal)):
                     came_from[n] = a
                     following.append(n)
         frontier = following
@@ -358,21 +360,9 @@ def _smallest_rings(core: dict[int, set[int]]) -> list[list[int]]:
         for j in around:
             if j < i:
                 continue
-            # A shortest way round from i to j that does not take their own bond.
-            came_from, frontier = {i: i}, [i]
-            while frontier and j not in came_from:
-                following = []
-                for a in frontier:
-                    for n in core[a]:
-                        if n not in came_from and (a, n) != (i, j):
-                            came_from[n] = a
-                            following.append(n)
-                frontier = following
-            if j not in came_from:
+            ring = _on_the_way(i, j, core, direct=False)
+            if not ring:
                 continue   # a bond between two rings (biphenyl's) lies on none
-            ring = [j]
-            while ring[-1] != i:
-                ring.append(came_from[ring[-1]])
             if frozenset(ring) not in seen:
                 seen.add(frozenset(ring))
                 rings.append(ring)

@@ -168,6 +168,12 @@ def pyrrole_type_nitrogen(mol: Chem.Mol, atom: int) -> bool:
 
 # H2 as an acid (hydride's conjugate acid), judged by element: the perceived view leaves the
 # molecule out, and no SMARTS of the table is about a hydrogen atom.
+# The pKa of a conjugate acid from which an oxygen anion is hydroxide or an alkoxide (water 15.7, an
+# alcohol ~16), not a carboxylate or phenoxide. These leave a carbon only when pushed (an E1cB, a
+# tetrahedral intermediate's alkoxide re-forming C=O), else protonated first, as water or an
+# alcohol (common practice: the acid-catalysed E1 and SN1 of alcohols): leaving.py's AR515, AR517
+# and AR522, protons.py's AR526.
+ALKOXIDE_ACID_PKA = 14.0
 HYDROGEN = Acidity("H2", "a hydride ion", "[#1][#1]", 35, "~35", NOT_LISTED)
 
 
