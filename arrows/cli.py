@@ -3,6 +3,7 @@ its own module and is imported only when it runs, so `arrows check` never loads 
 from __future__ import annotations
 
 import importlib
+import os
 
 import click
 
@@ -36,6 +37,7 @@ SUMMARIES = {
 
 EXIT_USAGE = 2   # commands exit 0 clean, 1 findings; the group itself only reports bad usage
 EXIT_INTERRUPTED = 130   # the shell's convention for a run stopped by Ctrl-C (128 + SIGINT)
+EXIT_INTERNAL = 70   # a bug in arrows itself (EX_SOFTWARE of BSD's sysexits.h), never the user's input
 
 
 class LazyGroup(click.Group):
@@ -80,3 +82,12 @@ def main() -> None:
         raise SystemExit(EXIT_USAGE)
     except click.exceptions.Exit as exc:
         raise SystemExit(exc.exit_code)
+    except Exception as exc:
+        # A bug of ours, not a fault of the input: one line saying so instead of a traceback;
+        # ARROWS_TRACEBACK=1 shows where it happened.
+        if os.environ.get("ARROWS_TRACEBACK"):
+            raise
+        click.echo(f"arrows: internal error ({type(exc).__name__}: {exc}). This is a bug in arrows, not in the "
+                   "input: please report it with the input file (ARROWS_TRACEBACK=1 shows where it happened).",
+                   err=True)
+        raise SystemExit(EXIT_INTERNAL)

@@ -595,7 +595,9 @@ CODES = _table(
          "nor a step under light, nor what textbooks write as shorthand for a transfer by way of the "
          "solvent: a proton handed across an sp3 carbon the step leaves alone (a tetrahedral "
          "intermediate's O- taking its own N+-H), one taken off a cation, or one taken by a group as "
-         "it leaves.",
+         "it leaves. It warns too where an O-H, N-H or S-H adds across a C=C in one step (X bonds to one "
+         "carbon as the pi pair takes its proton at the other): the addition goes by way of an acid, "
+         "the carbon protonated first; a hydride added so (hydroboration) is not judged.",
          'species imidic = "C[C:1](=[NH:2])[OH:3]"\n'
          'step "tautomerisation"   # by way of water: O3 gives its proton, N2 takes one\n'
          '    :N2 -> H(O3)\n'
@@ -671,6 +673,59 @@ CODES = _table(
          '    :O4 -> H(C5)\n'
          '    C5-H -> C5=O6\n'
          '    O6-I2 -> I2\n'
+         'end'),
+    Code("AR532", WARNING, "sigma complex quenched without rearomatising",
+         "An electrophile bonded to a carbon of an aromatic ring (RDKit's perception judging the state "
+         "before), leaving that carbon sp3 with its hydrogen and the ring a cation: a sigma complex (an "
+         "arenium ion, a 2H-pyrrolium, a 3H-indolium). A later step takes the cation away some other way "
+         "(a base takes the ring N-H's proton, a nucleophile bonds to the ring) while the sp3 carbon keeps "
+         "its hydrogen, and the mechanism ends with that ring not aromatic. An electrophilic aromatic "
+         "substitution ends with a base taking the proton on the sp3 carbon, which restores the ring "
+         "(common practice; Clayden, from memory). Not judged: a proton as the electrophile (a ring "
+         "protonated at carbon is trapped by a nucleophile as an indole dimerises in acid), an sp3 "
+         "carbon with no hydrogen (an ipso attack), a sigma complex with no cation (a phenoxide's "
+         "dienone, a Diels-Alder of furan, a Birch reduction), a nucleophile adding to an arene "
+         "(Chichibabin, SNAr), and a ring aromatic again by the end.",
+         'species pyrrole = "[NH:1]1[CH:2]=[CH:3][CH:4]=[CH:5]1"\n'
+         'species acylium = "[CH3:6][C:7]#[O+:8]"\n'
+         'species acetate = "CC(=O)[O-:9]"\n'
+         'step "attack at C2"\n'
+         '    :N1 -> N1=C5\n'
+         '    C4=C5 -> C3=C4\n'
+         '    C2=C3 -> C2-C7\n'
+         '    C7#O8 -> O8\n'
+         'end\n'
+         'step "rearomatisation"   # take the proton on C2 instead: `:O9 -> H(C2)`\n'
+         '    :O9 -> H(N1)\n'
+         '    N1-H -> N1\n'
+         'end'),
+    Code("AR533", WARNING, "enol ether or enamine protonated at the wrong carbon",
+         "A C=C pair takes a proton at the carbon that bears an O, N or S with a lone pair (an enol "
+         "ether, an enamine, a vinyl sulfide), leaving the other carbon a carbocation with nothing "
+         "beside it to spread the charge. Taken at that other carbon, the proton would leave the "
+         "cation beside the heteroatom, whose lone pair makes it an oxocarbenium or iminium ion: such "
+         "alkenes are protonated at the carbon away from the heteroatom (common practice; the "
+         "tetrahydropyranyl ether from dihydropyran, Clayden, from memory). A cation left allylic, "
+         "benzylic or beside a lone pair is not judged, nor a primary one (AR511).",
+         'species dhp = "[O:1]1[CH:2]=[CH:3][CH2:4][CH2:5][CH2:6]1"\n'
+         'species acid = "[OH3+:7]"\n'
+         'step "protonation"\n'
+         '    C2=C3 -> C2-H(O7)   # protonate C3: the cation on C2 beside O1\n'
+         '    O7-H -> O7\n'
+         'end'),
+    Code("AR534", WARNING, "alkoxide pushed out of an acetal unprotonated",
+         "Hydroxide or an alkoxide leaves a carbon pushed out by a neutral oxygen's lone pair, which "
+         "becomes an oxocarbenium ion: an acetal, ketal, glycoside or hemiacetal opened with its leaving "
+         "oxygen unprotonated. Acetals are stable to base; they open only in acid, the leaving oxygen "
+         "protonated first or as it leaves (a glycosidase's general acid), so that it leaves as an "
+         "alcohol (common practice; Clayden, from memory). A nitrogen's push (a carbinolamine giving an "
+         "iminium ion and hydroxide) and an anion's (a tetrahedral intermediate collapsing) are not "
+         "judged, nor a carboxylate or phenoxide leaving, a carbon with a third heteroatom (an ester's "
+         "neutral tetrahedral intermediate) or an epoxide opening (the Rubottom oxidation).",
+         'species acetal = "[O:1]1CCCC[CH:2]1[O:3]C"\n'
+         'step "ring opening"\n'
+         '    :O1 -> C2=O1\n'
+         '    C2-O3 -> O3   # methoxide left unprotonated: protonate O3 first (in acid)\n'
          'end'),
     Code("AR601", NOTE, "ring closure",
          "A step closes a ring; its size and Baldwin class are given. A pericyclic step (every arrow "

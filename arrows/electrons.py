@@ -1033,6 +1033,8 @@ def _misdirected_pair_hint(state: ElectronState, step: Step, replay: _StepReplay
         return None
     ends = (replay.resolve(own[0].source.bond.first), replay.resolve(own[0].source.bond.second))
     other = ends[0] if ends[1] == i else ends[1]
+    if state.elements[other] == 1 and state.elements[i] == 6 and _lone_pair_onto(step, replay, i):
+        return _hydride_leaves_hint(state, step, replay, i, own[0])
     negativity = [ELECTRONEGATIVITY.get(state.elements[a], 0.0) for a in (i, other)]
     # (Between two atoms alike, the peroxide O-O a sulfide attacks, the pair is taken as meant.)
     if negativity[0] >= negativity[1]:
@@ -1041,6 +1043,32 @@ def _misdirected_pair_hint(state: ElectronState, step: Step, replay: _StepReplay
                 if attack else None)
     return (f"the pair of {own[0].source} goes to its more electronegative end: "
             f"`{own[0].source} -> {label(other)}`") if negativity[1] > negativity[0] else None
+
+
+def _hydride_leaves_hint(state: ElectronState, step: Step, replay: _StepReplay, i: int, kept: Move) -> str:
+    """For a carbon that keeps the pair of its C-H bond where it has no room for it (a sigma adduct
+    rearomatised as if the H were a proton, the pair pushed back in by the ring): the hydrogen
+    leaves with the pair, as a hydride, to an acidic hydrogen (H2, the Chichibabin reaction; Joule &
+    Mills, from memory). The acid named is an N-H or O-H next to the carbon, else any other."""
+    label, mol = state.label, state.mol
+    carbon = label(i)
+
+    def acidic(k: int) -> bool:
+        atom = mol.GetAtomWithIdx(k)
+        return state.elements[k] in (7, 8) and state.formal_charge(k) >= 0 and atom.GetAtomMapNum() > 0 \
+            and (atom.GetNumExplicitHs() > 0 or any(n.GetAtomicNum() == 1 for n in atom.GetNeighbors()))
+    near = [n.GetIdx() for n in mol.GetAtomWithIdx(i).GetNeighbors()]
+    acid = next((k for k in near + list(range(mol.GetNumAtoms())) if k != i and acidic(k)), None)
+    taking = [m for m in step.moves if not isinstance(m.source, BondPair) and isinstance(m.sink, AtomSink)
+              and state.elements[replay.resolve(m.sink.atom)] == 1]
+    instead = f" in place of `{kept}`" + "".join(f" and `{m}`" for m in taking)
+    if acid is None:
+        return (f"{carbon} has no room to keep the pair of {kept.source}: the hydrogen leaves with it, as a "
+                f"hydride, to an electrophile (an acid's proton, making H2){instead}")
+    a = label(acid)
+    return (f"{carbon} has no room to keep the pair of {kept.source}: the hydrogen leaves with it, as a hydride, "
+            f"to an acidic hydrogen, making H2 (as in the Chichibabin reaction): `{kept.source} -> H({a})-H({carbon})` "
+            f"with `{a}-H -> {a}`{instead}")
 
 
 def _proton_hint(state: ElectronState, step: Step, replay: _StepReplay, i: int) -> Optional[str]:

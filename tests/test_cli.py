@@ -4,6 +4,7 @@ exit status 1 or 2, never a traceback."""
 from __future__ import annotations
 
 import json
+import os
 import re
 import shutil
 import subprocess
@@ -505,3 +506,26 @@ def test_a_dash_reads_the_mechanism_from_standard_input():
     assert wrong.exit_code == 1 and wrong.output.startswith("<stdin>:"), wrong.output
     traced = CliRunner().invoke(cli, ["trace", "-"], input=SN2)
     assert traced.exit_code == 0 and "SMILES" in traced.output
+
+
+def test_a_bug_in_a_check_gives_one_line_and_exit_70_not_a_traceback(write):
+    """A check that raises (a bug of ours) must not show the user a Python traceback: one line
+    says it is an internal error, and the exit status is 70 (EX_SOFTWARE, BSD's sysexits.h);
+    ARROWS_TRACEBACK=1 shows the traceback for whoever fixes it."""
+    path = write("sn2.mech", SN2)
+    probe = (
+        "import sys\n"
+        "from arrows.checks import valence\n"
+        "def broken(self, st, context):\n    raise RuntimeError('a deliberately broken check')\n"
+        "valence.UnusualElectronCounts.step = broken\n"
+        "from arrows.cli import main\n"
+        f"sys.argv = ['arrows', 'check', {str(path)!r}]\n"
+        "main()\n"
+    )
+    proc = subprocess.run([sys.executable, "-c", probe], capture_output=True, text=True, timeout=120)
+    assert proc.returncode == 70, proc.stderr
+    assert "Traceback" not in proc.stderr
+    assert "internal error (RuntimeError: a deliberately broken check)" in proc.stderr
+    shown = subprocess.run([sys.executable, "-c", probe], capture_output=True, text=True, timeout=120,
+                           env={**os.environ, "ARROWS_TRACEBACK": "1"})
+    assert shown.returncode != 70 and "Traceback" in shown.stderr

@@ -638,6 +638,59 @@ TWINS = [
          "    :O1 -> H(C5)\n    C5-H -> C5=O6\n    O6-I2 -> I2\n    I2=O1 -> O1\n",
          "    :O4 -> H(C5)\n    C5-H -> C5=O6\n    O6-I2 -> I2\n", "AR531", ":O4 -> H(C5)", says=("O4", "I2"),
          hint_says=("`:O1 -> H(C5)`", "`I2=O1 -> O1`")),
+    # Ethanol added to dihydropyran (Greene; Clayden ch. 23, from memory): TsOH protonates C3 first
+    # (the oxocarbenium ion), ethanol adds at C2, tosylate takes the O-H proton. The O-H added
+    # across C2=C3 in one step goes round a four-membered ring.
+    Twin("O-H added across a C=C in one four-centre step",
+         'species dhp = "[O:1]1[CH:2]=[CH:3][CH2:4][CH2:5][CH2:6]1"\nspecies ethanol = "CC[OH:12]"\n'
+         'species acid = "Cc1ccc(cc1)[S:21](=O)(=O)[OH:20]"\n'
+         'step "protonation"\n    :O1 -> C2=O1\n    C2=C3 -> C3-H(O20)\n    O20-H -> O20\nend\n'
+         'step "ethanol adds"\n    :O12 -> C2\n    C2=O1 -> O1\nend\n'
+         'step "deprotonation"\n    :O20 -> H(O12)\n    O12-H -> O12\nend\n',
+         'step "protonation"\n    :O1 -> C2=O1\n    C2=C3 -> C3-H(O20)\n    O20-H -> O20\nend\n'
+         'step "ethanol adds"\n    :O12 -> C2\n    C2=O1 -> O1\nend\n'
+         'step "deprotonation"\n    :O20 -> H(O12)\n    O12-H -> O12\nend\n',
+         'step "ethanol adds"\n    :O12 -> C2\n    C2=C3 -> C3-H(O12)\n    O12-H -> O12\nend\n',
+         "AR526", "C2=C3 -> C3-H(O12)", says=("O12", "C2=C3", "four-membered"),
+         hint_says=("`C2=C3 -> C3-H(O20)`", "`:O12 -> C2`", "`:O20 -> H(O12)`")),
+    # The Chichibabin reaction (Joule & Mills, from memory): the sigma adduct's C2-H leaves with its
+    # pair, a hydride, to an N-H proton as N1's pair re-forms C2=N1. Kept on C2, the pair overfills it.
+    Twin("C-H pair kept on a carbon a lone pair bonds to",
+         'species pyridine = "[N:1]1=[CH:2][CH:3]=[CH:4][CH:5]=[CH:6]1"\nspecies amide = "[NH2-:7]"\n'
+         'step "addition"\n    :N7 -> C2\n    N1=C2 -> N1\nend\n'
+         'step "hydride lost"\n    :N1 -> N1=C2\n    C2-H -> H(N7)-H(C2)\n    N7-H -> N7\nend\n',
+         "    C2-H -> H(N7)-H(C2)\n    N7-H -> N7\n", '    uses amide_2 = "[NH2-:8]"\n    :N8 -> H(C2)\n    C2-H -> C2\n',
+         "AR301", ":N1 -> N1=C2", says=("C2", "10 valence electrons"),
+         hint_says=("`C2-H -> H(N7)-H(C2)` with `N7-H -> N7`", "hydride")),
+    # Acetylation of pyrrole at C2 (Joule & Mills, from memory): acetate takes the proton on the sp3
+    # C2 and the ring is aromatic again. Taking the N-H proton instead leaves 2-acetyl-2H-pyrrole.
+    Twin("sigma complex quenched without rearomatising",
+         'species pyrrole = "[NH:1]1[CH:2]=[CH:3][CH:4]=[CH:5]1"\nspecies acylium = "[CH3:6][C:7]#[O+:8]"\n'
+         'species acetate = "CC(=O)[O-:9]"\n'
+         'step "attack at C2"\n    :N1 -> N1=C5\n    C4=C5 -> C3=C4\n    C2=C3 -> C2-C7\n    C7#O8 -> O8\nend\n'
+         'step "rearomatisation"\n    :O9 -> H(C2)\n    C2-H -> C2=C3\n    C3=C4 -> C4=C5\n    N1=C5 -> N1\nend\n',
+         "    :O9 -> H(C2)\n    C2-H -> C2=C3\n    C3=C4 -> C4=C5\n    N1=C5 -> N1\n", "    :O9 -> H(N1)\n    N1-H -> N1\n",
+         "AR532", ":O9 -> H(N1)", says=("N1", "C2", "C7", "not aromatic"),
+         hint_says=("`:O9 -> H(C2)`", "`C2-H -> C2=C3`", "`C3=C4 -> C4=C5`", "`C5=N1 -> N1`")),
+    # Dihydropyran takes the acid's proton at C3, away from its ring O, and the cation on C2 is an
+    # oxocarbenium ion (the tetrahydropyranyl ether's first step; Greene, Clayden, from memory).
+    # Protonated at C2 it would leave a bare secondary cation on C3.
+    Twin("enol ether protonated at the carbon that bears its O",
+         'species dhp = "[O:1]1[CH:2]=[CH:3][CH2:4][CH2:5][CH2:6]1"\nspecies acid = "[OH3+:7]"\n'
+         'step "protonation"\n    C2=C3 -> C3-H(O7)\n    O7-H -> O7\nend\n',
+         "C2=C3 -> C3-H(O7)", "C2=C3 -> C2-H(O7)",
+         "AR533", "C2=C3 -> C2-H(O7)", says=("C2", "O1", "C3", "oxocarbenium"),
+         hint_says=("`C2=C3 -> C3-H(O7)`", "`:O1 -> O1=C2`")),
+    # A glycoside model (2-methoxytetrahydropyran) opens in acid: the leaving O is protonated as it
+    # leaves, by a general acid in a glycosidase (lysozyme's Glu35; Berg/Stryer, from memory).
+    # Pushed out unprotonated it would leave as methoxide: acetals are stable to base.
+    Twin("alkoxide pushed out of an acetal unprotonated",
+         'species acetal = "[O:1]1CCCC[CH:2]1[O:3][CH3:4]"\nspecies acid = "[CH3:5][C:6](=[O:7])[OH:8]"\n'
+         'step "ring O pushes, the leaving O takes the proton"\n    :O1 -> C2=O1\n    C2-O3 -> O3-H(O8)\n'
+         '    O8-H -> O8\nend\n',
+         "    C2-O3 -> O3-H(O8)\n    O8-H -> O8\n", "    C2-O3 -> O3\n",
+         "AR534", "C2-O3 -> O3", says=("O3", "C2", "methoxide", "O1"),
+         hint_says=("`C2-O3 -> O3-H(O8)` with `O8-H -> O8`",)),
 ]
 
 

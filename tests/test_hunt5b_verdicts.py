@@ -8,17 +8,7 @@ from pathlib import Path
 sys.path.insert(0, str(Path(__file__).resolve().parent))
 from textbook_mechanisms import TEXTBOOK  # noqa: E402
 
-from verdicts import findings, only  # noqa: E402
-
-
-def _codes(text: str) -> list[str]:
-    return [d.code for d in findings(text)[1]]
-
-
-def _at(text: str, snippet: str) -> tuple[int, int]:
-    """1-based (line, column) of the first occurrence of snippet."""
-    start = text.index(snippet)
-    return text.count("\n", 0, start) + 1, start - (text.rfind("\n", 0, start) + 1) + 1
+from verdicts import at, codes, findings, only  # noqa: E402
 
 
 # --- 1. A species written with an unpaired electron in a mechanism of pair arrows (AR530) --------
@@ -47,21 +37,21 @@ product "CC1CCCC(=O)C1"
 def test_a_cuprate_written_without_its_charge_is_flagged_at_its_copper():
     text = CUPRATE.format(copper="Cu")
     d = only(text, "AR530")
-    assert (d.loc.line, d.loc.column) == _at(text, "[Cu:2]")
+    assert (d.loc.line, d.loc.column) == at(text, "[Cu:2]")
     assert "Cu2" in d.message and "unpaired" in d.message
     assert "`[Cu-:2]`" in d.hint and "neutral" in d.hint
 
 
 def test_the_cuprate_written_as_its_anion_is_clean():
     """The hinted fix: Me2Cu- with its Li+."""
-    assert _codes(CUPRATE.format(copper="Cu-")) == []
+    assert codes(CUPRATE.format(copper="Cu-")) == []
 
 
 def test_a_radical_brought_in_by_uses_is_flagged_at_its_species():
     text = CUPRATE.format(copper="Cu").replace('species cuprate = "[CH3:1][Cu:2][CH3:3]"\n', "").replace(
         'step "conjugate addition"\n', 'step "conjugate addition"\n    uses cuprate = "[CH3:1][Cu:2][CH3:3]"\n')
     d = only(text, "AR530")
-    assert (d.loc.line, d.loc.column) == _at(text, "[Cu:2]")
+    assert (d.loc.line, d.loc.column) == at(text, "[Cu:2]")
     assert "neutral" not in d.hint   # the starting species alone carry +1 as written: no balance claimed
 
 
@@ -82,20 +72,20 @@ def test_an_alkoxide_written_as_a_radical_is_flagged():
 
 
 def test_the_williamson_with_its_alkoxide_is_clean():
-    assert _codes(WILLIAMSON.format(oxygen="O-")) == []
+    assert codes(WILLIAMSON.format(oxygen="O-")) == []
 
 
 def test_iron_tribromide_in_a_bromination_is_not_judged():
     """Guard: FeBr3 (high-spin iron(III), five d electrons) is a paramagnetic Lewis acid drawn in
     polar steps (Clayden, from memory); a d-block metal bonded to no carbon is not judged."""
-    assert "AR530" not in _codes(TEXTBOOK["anisole bromination"][0])
+    assert "AR530" not in codes(TEXTBOOK["anisole bromination"][0])
 
 
 def test_a_radical_mechanism_is_not_judged():
     """Guard: a mechanism with fishhooks (the stannyl radical of a Barton-McCombie deoxygenation,
     sodium's electron in a Birch reduction) is radical chemistry."""
     for name in ("barton-mccombie", "birch reduction", "acyloin condensation", "stannane reduction"):
-        assert "AR530" not in _codes(TEXTBOOK[name][0]), name
+        assert "AR530" not in codes(TEXTBOOK[name][0]), name
 
 
 # --- 2. Hydroxide pushed off chromium in acid (AR517) ---------------------------------------------
@@ -125,7 +115,7 @@ end
 def test_hydroxide_pushed_off_chromium_beside_h3o_is_flagged():
     text = CHROMATE_IN_ACID.format(protonation="").replace("    O6-H -> O6\n", "    O2-H -> O2\n")
     d = only(text, "AR517")
-    assert (d.loc.line, d.loc.column) == _at(text, "Cr4-O6 -> O6")
+    assert (d.loc.line, d.loc.column) == at(text, "Cr4-O6 -> O6")
     assert "O6" in d.message and "Cr4" in d.message and "O8" in d.message
     assert "`:O6 -> H(O8)`" in d.hint
 
@@ -134,8 +124,8 @@ def test_the_chromate_ester_formed_by_way_of_protonated_chromic_acid_is_clean():
     """The hinted fix (Clayden, from memory), and the chromic acid oxidation of the textbook corpus."""
     text = CHROMATE_IN_ACID.format(protonation=PROTONATION).replace("    :O6 -> H(O2)\n    O6-H -> O6\n",
                                                                     "    :O8 -> H(O2)\n    O2-H -> O2\n")
-    assert _codes(text) == []
-    assert "AR517" not in _codes(TEXTBOOK["chromic acid oxidation"][0])
+    assert codes(text) == []
+    assert "AR517" not in codes(TEXTBOOK["chromic acid oxidation"][0])
 
 
 # Sulfuric acid esterified by an alcohol (memory): the same at sulfur, the acid's OH leaving as
@@ -164,7 +154,7 @@ step "substitution at phosphorus"
     P2-O5 -> O5
 end
 '''
-    assert "AR517" not in _codes(text)
+    assert "AR517" not in codes(text)
 
 
 # --- 3. Water lost round four atoms, the leaving OH taking the alpha proton itself (AR526) -------
@@ -213,14 +203,14 @@ end
 def test_water_lost_with_the_leaving_oh_taking_the_alpha_proton_is_flagged():
     text = CLAISEN_SCHMIDT.format(dehydration=FOUR_CENTRE)
     d = only(text, "AR526")
-    assert (d.loc.line, d.loc.column) == _at(text, ":O7 -> H(C1)")
+    assert (d.loc.line, d.loc.column) == at(text, ":O7 -> H(C1)")
     assert "O7" in d.message and "C1" in d.message and "C6" in d.message and "hydroxide" in d.message
     assert "`C1-H -> C1=C2`, `C2=O3 -> O3`" in d.hint and "`C6-O7 -> O7`" in d.hint and "E1cB" in d.hint
 
 
 def test_the_dehydration_by_way_of_the_enolate_is_clean():
     """The hinted fix: the textbook E1cB."""
-    assert _codes(CLAISEN_SCHMIDT.format(dehydration=E1CB)) == []
+    assert codes(CLAISEN_SCHMIDT.format(dehydration=E1CB)) == []
 
 
 def test_a_four_centre_dehydration_without_a_carbonyl_beside_is_flagged():
@@ -246,7 +236,7 @@ step "loses CO2"
 end
 product "CC(C)(C)O.O=C=O"
 '''
-    assert "AR526" not in _codes(text)
+    assert "AR526" not in codes(text)
 
 
 # --- 4. A proton taker left an onium beside an ate (AR531) ----------------------------------------
@@ -275,17 +265,17 @@ RING_OXYGEN_TAKES_IT = "    :O4 -> H(C5)\n    C5-H -> C5=O6\n    O6-I2 -> I2\n"
 def test_the_ring_oxygen_of_ibx_taking_the_proton_is_flagged():
     text = IBX.format(elimination=RING_OXYGEN_TAKES_IT)
     d = only(text, "AR531")
-    assert (d.loc.line, d.loc.column) == _at(text, ":O4 -> H(C5)")
+    assert (d.loc.line, d.loc.column) == at(text, ":O4 -> H(C5)")
     assert "O4" in d.message and "I2" in d.message
     assert "`:O1 -> H(C5)` in place of `:O4 -> H(C5)`" in d.hint and "`I2=O1 -> O1`" in d.hint
 
 
 def test_the_ibx_oxidation_by_its_oxo_oxygen_is_clean():
     """The hinted fix: the textbook step."""
-    assert _codes(IBX.format(elimination=OXO_TAKES_IT)) == []
+    assert codes(IBX.format(elimination=OXO_TAKES_IT)) == []
 
 
 def test_a_base_left_an_onium_beside_no_anion_is_not_judged():
     """Guard: water taking a proton in the Jones oxidation's last step ends as H3O+ beside nothing
     negative (Clayden, from memory)."""
-    assert "AR531" not in _codes(TEXTBOOK["chromic acid oxidation"][0])
+    assert "AR531" not in codes(TEXTBOOK["chromic acid oxidation"][0])

@@ -9,11 +9,7 @@ import pytest
 sys.path.insert(0, str(Path(__file__).resolve().parent))
 from textbook_mechanisms import TEXTBOOK  # noqa: E402
 
-from verdicts import findings, only  # noqa: E402
-
-
-def _codes(text: str) -> list[str]:
-    return [d.code for d in findings(text)[1]]
+from verdicts import at, codes, findings, only  # noqa: E402
 
 
 # --- 1. Hydroxide pushed off an oxime's nitrogen in acid (AR517) ---------------------------------
@@ -45,8 +41,8 @@ def test_hydroxide_pushed_off_an_oxime_nitrogen_beside_an_acid_is_flagged():
 def test_the_protonated_oxime_and_an_acetate_leaving_nitrogen_are_clean():
     """Water leaving the protonated oxime (textbook Beckmann); acetate, a weak base (pKa of acetic
     acid 4.8), leaving an O-acetyl oxime's nitrogen beside the acid."""
-    assert _codes(BECKMANN_SHIFT.format(oxime=OXIME, protonation=PROTONATION)) == []
-    assert "AR517" not in _codes(BECKMANN_SHIFT.format(oxime=ACETYL_OXIME, protonation=""))
+    assert codes(BECKMANN_SHIFT.format(oxime=OXIME, protonation=PROTONATION)) == []
+    assert "AR517" not in codes(BECKMANN_SHIFT.format(oxime=ACETYL_OXIME, protonation=""))
 
 
 def test_the_textbook_beckmann_stays_clean():
@@ -114,22 +110,22 @@ def test_a_thiocarbonyl_substituted_in_one_step_is_flagged():
 
 
 def test_a_thiocarbonyl_substituted_in_two_steps_is_clean():
-    assert "AR525" not in _codes(THIONOESTER.format(steps=THIONO_TWO_STEPS))
+    assert "AR525" not in codes(THIONOESTER.format(steps=THIONO_TWO_STEPS))
 
 
 def test_the_hinted_two_steps_are_clean():
-    assert _codes(SAPONIFICATION.format(steps=TWO_STEPS)) == []
+    assert codes(SAPONIFICATION.format(steps=TWO_STEPS)) == []
 
 
 def test_an_sn2_beside_a_carbonyl_is_not_an_acyl_substitution():
-    assert "AR525" not in _codes(ALPHA_BROMO_SN2)
+    assert "AR525" not in codes(ALPHA_BROMO_SN2)
 
 
 @pytest.mark.parametrize("name", ["schotten-baumann", "aminolysis", "transesterification", "fischer esterification",
                                   "dmap acetylation", "imidazole acyl transfer", "lactam", "acid ester hydrolysis",
                                   "thionyl chloride", "swern oxidation", "pummerer", "acyl chloride double grignard"])
 def test_textbook_acyl_substitutions_drawn_stepwise_are_not_flagged(name):
-    assert "AR525" not in _codes(TEXTBOOK[name][0])
+    assert "AR525" not in codes(TEXTBOOK[name][0])
 
 
 # --- 3. A strong base leaving sulfur or phosphorus (AR510) ---------------------------------------
@@ -150,8 +146,8 @@ def test_a_carbanion_leaving_a_sulfonium_sulfur_is_flagged():
 
 
 def test_the_epoxide_closure_at_carbon_is_not_flagged():
-    assert "AR510" not in _codes(BETAINE.format(moves=":O9 -> C1\n    S2-C1 -> S2"))
-    assert "AR510" not in _codes(TEXTBOOK["corey-chaykovsky"][0])
+    assert "AR510" not in codes(BETAINE.format(moves=":O9 -> C1\n    S2-C1 -> S2"))
+    assert "AR510" not in codes(TEXTBOOK["corey-chaykovsky"][0])
 
 
 # Staudinger reduction's last steps (March, from memory): water's hydroxide on the
@@ -175,7 +171,7 @@ def test_an_amide_ion_leaving_phosphorus_is_flagged():
 
 
 def test_the_protonated_amine_leaving_phosphorus_is_not_flagged():
-    assert "AR510" not in _codes(AMINOPHOSPHORANE.format(transfer=O_TO_N))
+    assert "AR510" not in codes(AMINOPHOSPHORANE.format(transfer=O_TO_N))
 
 
 # Alkaline cleavage of a phosphonium salt (March, from memory): the P-O- of the hydroxyphosphorane
@@ -203,7 +199,7 @@ end
 
 
 def test_a_carbanion_pushed_off_phosphorus_as_p_o_forms_is_not_flagged():
-    assert "AR510" not in _codes(PHOSPHORANE_OXIDE)
+    assert "AR510" not in codes(PHOSPHORANE_OXIDE)
 
 
 def test_a_methyl_carbanion_displaced_from_a_phosphonium_is_flagged():
@@ -214,7 +210,7 @@ def test_a_methyl_carbanion_displaced_from_a_phosphonium_is_flagged():
 @pytest.mark.parametrize("name", ["wittig", "staudinger", "appel", "mitsunobu", "swern oxidation", "aza-wittig",
                                   "sulfonamide", "corey-kim"])
 def test_textbook_phosphorus_and_sulfur_chemistry_keeps_clear_of_ar510(name):
-    assert "AR510" not in _codes(TEXTBOOK[name][0])
+    assert "AR510" not in codes(TEXTBOOK[name][0])
 
 
 # --- 4. AR520's hint at a carbon that holds three halogens ----------------------------------------
@@ -237,10 +233,63 @@ def test_the_hint_for_ccl4_attacked_at_carbon_is_a_halophilic_attack():
 
 
 def test_the_hinted_attack_at_chlorine_is_clean():
-    assert _codes(CCL4_AT_CARBON.format(moves=":P5 -> Cl1\n    C2-Cl1 -> C2")) == []
+    assert codes(CCL4_AT_CARBON.format(moves=":P5 -> Cl1\n    C2-Cl1 -> C2")) == []
 
 
 def test_tert_butyl_bromide_keeps_the_sn1_hint():
     text = ('species bromide = "C[C:1](C)(C)[Br:2]"\nspecies hydroxide = "[OH-:3]"\n'
             'step "substitution"\n    :O3 -> C1\n    C1-Br2 -> Br2\nend\n')
     assert "SN1" in only(text, "AR520").hint
+
+
+# --- An alkoxide pushed out of an acetal carbon with no acid (AR534) ------------------------------
+# Lysozyme's oxocarbenium route, a glycoside modelled as 2-methoxytetrahydropyran and Glu35 as
+# acetic acid (Berg/Stryer; Voet; from memory): the general acid protonates the glycosidic O, the
+# ring O pushes the aglycone out as methanol, water adds with the carboxylate as base. Acetals are
+# stable to base (common practice): pushed out unprotonated, the aglycone would leave as methoxide.
+LYSOZYME = '''species gly = "[O:6]1[CH2:5][CH2:4][CH2:3][CH2:2][CH:1]1[O:7][CH3:8]"
+species glu = "[CH3:30][C:31](=[O:32])[OH:33]"
+{first}step "water adds, the carboxylate takes its proton"
+    uses water = "[OH2:50]"
+    :O33 -> H(O50)
+    O50-H -> O50-C1
+    C1=O6 -> O6
+end
+product "OC1CCCCO1"
+'''
+PROTONATED_FIRST = '''step "glycosidic O protonated" reversible
+    :O7 -> H(O33)
+    O33-H -> O33
+end
+step "aglycone leaves: oxocarbenium ion"
+    :O6 -> C1=O6
+    C1-O7 -> O7
+    releases O7
+end
+'''
+UNPROTONATED = '''step "aglycone leaves: oxocarbenium ion"
+    :O6 -> C1=O6
+    C1-O7 -> O7
+    releases O7
+end
+'''
+
+
+def test_the_glycoside_opened_by_its_general_acid_is_clean():
+    """Guard: the textbook route."""
+    assert codes(LYSOZYME.format(first=PROTONATED_FIRST)) == []
+
+
+def test_an_alkoxide_pushed_out_of_an_acetal_unprotonated_is_flagged_with_the_acid_at_hand():
+    text = LYSOZYME.format(first=UNPROTONATED)
+    d = only(text, "AR534")
+    assert (d.loc.line, d.loc.column) == at(text, "C1-O7 -> O7")
+    assert "`C1-O7 -> O7-H(O33)` with `O33-H -> O33`" in d.hint
+
+
+def test_an_esters_neutral_tetrahedral_intermediate_and_a_siloxy_epoxide_are_not_judged():
+    """Guards (textbook corpus): the lactam's neutral tetrahedral intermediate pushes methoxide out
+    with its O-H (a carbon with N as well, not an acetal), and the Rubottom oxidation's siloxy
+    epoxide opens by the silyl ether O's push (strain drives it)."""
+    assert "AR534" not in codes(TEXTBOOK["lactam"][0])
+    assert "AR534" not in codes(TEXTBOOK["rubottom oxidation"][0])

@@ -15,3 +15,14 @@ def only(text: str, code: str):
     hits = [d for d in found if d.code == code]
     assert len(hits) == 1, [d.to_text() for d in found]
     return hits[0]
+
+
+def codes(text: str) -> list[str]:
+    """The codes of the findings, in order."""
+    return [d.code for d in findings(text)[1]]
+
+
+def at(text: str, snippet: str) -> tuple[int, int]:
+    """1-based (line, column) of the first occurrence of `snippet` in `text`: where a finding points."""
+    start = text.index(snippet)
+    return text.count("\n", 0, start) + 1, start - (text.rfind("\n", 0, start) + 1) + 1

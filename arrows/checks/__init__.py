@@ -66,6 +66,7 @@ def _registry() -> list[Check]:
         from .ring_eliminations import RingEliminationGeometry
         from .rings import RingClosures, StrainedCumulenes
         from .shifts import CationShiftDirection, MigrationAntiToLeavingGroup, ShiftBetweenNeighbours
+        from .sigma_complexes import SigmaComplexesRearomatise
         from .stereo import StereoChanges
         from .structure import NothingAfterProduct, SomethingToCheck, StepsHaveMoves
         from .valence import UnpairedElectronsInPolarMechanism, UnusualElectronCounts
@@ -76,7 +77,8 @@ def _registry() -> list[Check]:
                                StrongBaseLeavingGroups, TertiarySubstitution, ConcertedAcylSubstitution,
                                WrittenConfigurationMatches, RingEliminationGeometry, ForbiddenPericyclic,
                                StrainedCumulenes, CarbeneFromCH, FourCentreProtonTransfers,
-                               CHPairBondsAsProtonGoes, UnpairedElectronsInPolarMechanism, OniumBesideAte])
+                               CHPairBondsAsProtonGoes, UnpairedElectronsInPolarMechanism, OniumBesideAte,
+                               SigmaComplexesRearomatise])
     return [cls() for cls in _CHECK_CLASSES]
 
 

@@ -1,6 +1,6 @@
 """Leaving groups that depart from carbon, phosphorus or sulfur as very strong bases (AR510),
-hydroxide or an alkoxide left to ionise (AR515) or pushed out of carbon, nitrogen or an oxo acid's
-centre while a strong acid stands by (AR517); substitutions in one step at a tertiary carbon (AR520) or at a carbonyl
+hydroxide or an alkoxide left to ionise (AR515), pushed out of carbon, nitrogen or an oxo acid's
+centre while a strong acid stands by (AR517), or out of an acetal carbon unprotonated (AR534); substitutions in one step at a tertiary carbon (AR520) or at a carbonyl
 carbon (AR525).
 
 A pair move from a bond to one of that bond's atoms (`C8-N20 -> N20`) breaks the bond and leaves
@@ -98,7 +98,7 @@ def _ring_heteroatom(state, a: int, b: int) -> Optional[int]:
 
 class StrongBaseLeavingGroups(Check):
     name = "leaving groups"
-    codes = ("AR510", "AR515", "AR517", "AR522")
+    codes = ("AR510", "AR515", "AR517", "AR522", "AR534")
 
     def __init__(self) -> None:
         self.acted: set[int] = set()   # atoms the steps so far have touched (AR517's hint)
@@ -152,7 +152,8 @@ class StrongBaseLeavingGroups(Check):
             if elements[leaving] == 8 and after.formal_charge(leaving) > -2 and not ionised:
                 # An alkoxide pushed out (an E1cB, a tetrahedral intermediate): judged only where
                 # a strong acid stands by, which would have protonated it first.
-                found = self._pushed_out_in_acid(st, move, leaving, centre) or self._pushed_out_by_e2(st, move, leaving, centre)
+                found = (self._pushed_out_in_acid(st, move, leaving, centre) or self._pushed_out_by_e2(st, move, leaving, centre)
+                         or _pushed_out_of_an_acetal(st, move, leaving, centre))
                 if found is not None:
                     yield found
                 continue
@@ -357,6 +358,67 @@ def _trifluoroacetyl(carbon: Chem.Atom) -> bool:
         return False
     return any(n.GetAtomicNum() == 6 and sum(m.GetAtomicNum() == 9 for m in n.GetNeighbors()) == 3
                for n in carbon.GetNeighbors())
+
+
+def _pushed_out_of_an_acetal(st: StepTrace, move, leaving: int, centre: int) -> Optional[Diagnostic]:
+    """AR534: hydroxide or an alkoxide pushed out of a carbon by a neutral oxygen's lone pair, which
+    the step makes an oxocarbenium ion (an acetal, ketal, glycoside or hemiacetal opening with its
+    leaving oxygen unprotonated). Acetals are stable to base: they open only in acid, the leaving
+    oxygen protonated first or as it leaves (a glycosidase's general acid), so that it leaves as an
+    alcohol (common practice; Clayden, from memory). A nitrogen's push (a carbinolamine giving an
+    iminium ion and hydroxide, real at high pH) and an anion's (a tetrahedral intermediate
+    collapsing) are not judged, nor a carboxylate or phenoxide leaving, a carbon with a third
+    heteroatom (an ester's or amide's neutral tetrahedral intermediate, drawn so in textbooks) or an
+    epoxide opening (its strain drives it: the Rubottom oxidation's siloxy epoxide)."""
+    before, after = st.before, st.after
+    pusher = next((m.source_atoms[0] for m in st.change.moves if m.source_kind == "lone_pair" and m.electrons == 2
+                   and set(m.sink_atoms) == {m.source_atoms[0], centre} and after.elements[m.source_atoms[0]] == 8
+                   and before.formal_charge(m.source_atoms[0]) == 0 and after.formal_charge(m.source_atoms[0]) == 1),
+                  None)
+    if pusher is None or in_small_ring(before.mol, leaving, centre):
+        return None   # (an epoxide's strain drives its opening: the siloxy epoxide of a Rubottom oxidation)
+    if sorted(n.GetAtomicNum() for n in before.mol.GetAtomWithIdx(centre).GetNeighbors() if n.GetAtomicNum() not in (1, 6)) != [8, 8]:
+        return None   # not an acetal carbon: an ester's or amide's tetrahedral intermediate is not judged
+    acid = conjugate_acid(after.mol, leaving)
+    if acid is None or acid.pka < ALKOXIDE_ACID_PKA:
+        return None
+    label = before.label
+    o, c, x = label(leaving), label(centre), label(pusher)
+    donor = _acid_at_hand(before, leaving)
+    if donor is not None and nameable(before.mol, leaving):
+        a = label(donor)
+        how = f"as it leaves, `{move.move.source} -> {o}-H({a})` with `{a}-H -> {a}` (a glycosidase's general acid), or first"
+    else:
+        how = "with an acid (H3O+, TsOH; in an enzyme a general acid such as a Glu or Asp carboxylic acid) first or as it leaves"
+    return Diagnostic(
+        "AR534", f"{o} leaves {c} as {acid.base} (pKa of {acid.acid} {acid.shown}) pushed out by {x}'s lone pair: "
+        f"an acetal carbon gives an oxocarbenium ion and {acid.base} only in acid, its leaving oxygen protonated",
+        move.move.loc,
+        hint=f"protonate {o} {how}, so that it leaves as {_neutral(acid)}: acetals are stable to base and open only in acid",
+        atoms=(o, c, x), step=st.index)
+
+
+_GENERAL_ACID_PKA = 8.0   # the weakest acid a hint offers to protonate a leaving oxygen (an imidazolium, ~7)
+
+
+def _acid_at_hand(state, apart_from: int) -> Optional[int]:
+    """The N, O or S of another molecule of `state` carrying its most acidic proton (by the acidity
+    table), if one is at least as acidic as an imidazolium ion (_GENERAL_ACID_PKA): the acid a
+    hint names to protonate `apart_from`'s molecule."""
+    mol = state.mol
+    own = next(set(f) for f in Chem.GetMolFrags(mol, asMols=False, sanitizeFrags=False) if apart_from in f)
+    seen = perceived(mol)
+    best = None
+    for i, element in enumerate(state.elements):
+        if element not in (7, 8, 16) or i in own or i in state.released:
+            continue
+        atom = mol.GetAtomWithIdx(i)
+        if not atom.GetTotalNumHs(includeNeighbors=True):
+            continue
+        entry = acidity_of(seen, i)
+        if entry is not None and entry.pka <= _GENERAL_ACID_PKA and (best is None or entry.pka < best[0]):
+            best = (entry.pka, i)
+    return None if best is None else best[1]
 
 
 def _neutral(acid: Acidity) -> str:

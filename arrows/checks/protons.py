@@ -23,7 +23,8 @@ from rdkit import Chem
 from ..diagnostics import Diagnostic
 from ..electrons import ResolvedMove, nameable, pair
 from ..judgement.acidity import ALKOXIDE_ACID_PKA, HYDROGEN, PYRROLE_TYPE_N, Acidity, acidity_of, pyrrole_type_nitrogen
-from ..judgement.perception import Perceived, RecentViews
+from ..judgement.perception import Perceived, RecentViews, aromatic
+from ..judgement.sigma_complexes import rearomatising_moves, rearomatising_path_to
 from ..model import Location
 from ..trace import StepTrace
 from . import Check
@@ -222,17 +223,7 @@ def _acidity(view: Perceived, atom: int) -> Optional[Acidity]:
 
 def _rearomatised(before: Perceived, after: Perceived, atom: int) -> bool:
     """Whether `atom` is aromatic after the step and was not before."""
-    return _aromatic(after, atom) and not _aromatic(before, atom)
-
-
-def _aromatic(view: Perceived, atom: int) -> bool:
-    """Whether state atom `atom` is aromatic in the view (False for a hydrogen folded into a
-    count); remembered on the view, which a proton shuttle meets again and again."""
-    known = view.memo.setdefault("aromatic", {})
-    if atom not in known:
-        position = view.position(atom)
-        known[atom] = position is not None and view.mol.GetAtomWithIdx(position).GetIsAromatic()
-    return known[atom]
+    return aromatic(after, atom) and not aromatic(before, atom)
 
 
 def _other(pair: tuple[int, ...], atom: int) -> int:
@@ -343,9 +334,26 @@ class UphillProtonTransfers(Check):
                 "AR508",
                 f"{base.base} (pKa of {base.acid} {base.shown}) removing {acid.site} ({acid.shown}): "
                 f"uphill by about {_units(uphill, gap)} pKa units ({label_b} takes the proton of {label_x})",
-                t.loc, hint=f"a base whose conjugate acid has a pKa near {acid.shown} is needed, or another "
-                f"proton is meant; the threshold is {gap:g} units (`arrows check --pka-gap`)",
+                t.loc, hint=_sigma_complex_hint(st, t) or f"a base whose conjugate acid has a pKa near {acid.shown} "
+                f"is needed, or another proton is meant; the threshold is {gap:g} units (`arrows check --pka-gap`)",
                 atoms=(label_b, label_x), step=st.index)
+
+
+def _sigma_complex_hint(st: StepTrace, t: ProtonTransfer) -> Optional[str]:
+    """Where the proton is taken off the cation of a sigma complex (an arenium ion's iminium N-H, a
+    3H-indolium's N-H) that holds an sp3 ring C-H whose loss would restore the aromatic ring (RDKit
+    judging): that C-H is the proton meant, whatever the base (common practice)."""
+    before = st.before
+    if before.formal_charge(t.acid_atom) <= 0:
+        return None
+    path = rearomatising_path_to(before, t.acid_atom)
+    if path is None:
+        return None
+    carbon = before.label(path[0])
+    arrows = rearomatising_moves(before, path, t.base_atom)
+    written = f": {arrows}, in place of this step's arrows" if arrows else ""
+    return (f"the proton meant is the one on {carbon}, the sp3 ring carbon of this sigma complex: taken, it "
+            f"restores the aromatic ring{written}")
 
 
 def freed_protons(st: StepTrace) -> list[int]:
@@ -466,6 +474,7 @@ class FourCentre(NamedTuple):
     corner: int
     move: ResolvedMove   # the arrow to the hydrogen
     leaves: bool = False   # `base` leaves `corner` as it takes the proton of a C-H (a syn elimination)
+    adds: bool = False     # `acid` bonds to `corner` as the pi pair of corner=base takes its proton
 
 
 def four_centre_transfers(st: StepTrace) -> list[FourCentre]:
@@ -481,7 +490,8 @@ def four_centre_transfers(st: StepTrace) -> list[FourCentre]:
     draw it), a hydride or a hydrogen atom (the hydrogen moves with a pair or one electron of its
     own), a two-arrow [1,3]-H shift, which AR521 judges, or a step under light. An oxygen that takes
     a C-H proton as it leaves the corner, the C-H pair making the C=C (a syn elimination of water
-    or an alcohol round four atoms), is returned with `leaves` set."""
+    or an alcohol round four atoms), is returned with `leaves` set; an O, N or S that bonds to one
+    end of a C=C as the pi pair takes its proton at the other, with `adds` set."""
     change = st.change
     before = st.before
     elements, broken = before.elements, change.broken
@@ -496,8 +506,13 @@ def four_centre_transfers(st: StepTrace) -> list[FourCentre]:
         if len(given_up) != 1 or before.bond_sums[h] != 1:
             continue
         acid = _other(given_up[0], h)
+        if before.formal_charge(acid) > 0:
+            continue
         corner = _corner(st, base, acid, h)
-        if corner is None or before.formal_charge(acid) > 0:
+        if corner is None:
+            corner = _added_across(st, m, acid)
+            if corner is not None:
+                found.append(FourCentre(base, acid, h, corner, m, adds=True))
             continue
         if pair(base, corner) not in broken:
             found.append(FourCentre(base, acid, h, corner, m))
@@ -506,6 +521,20 @@ def four_centre_transfers(st: StepTrace) -> list[FourCentre]:
     if found and (photochemical(st) or forbidden_hydrogen_shift(st) is not None):
         return []
     return found
+
+
+def _added_across(st: StepTrace, taking: ResolvedMove, acid: int) -> Optional[int]:
+    """The carbon `acid` bonds to in this step while the pi pair between that carbon and the
+    proton's taker takes the proton (`:O12 -> C2` with `C2=C3 -> C3-H(O12)`): an X-H added
+    across a C=C in one four-centre step. None for any other step."""
+    if taking.source_kind != "bond" or st.before.elements[acid] not in (7, 8, 16):
+        return None
+    base = taking.sink_atoms[0]
+    corner = _other(taking.source_atoms, base)
+    if base not in taking.source_atoms or st.before.bond_electrons(base, corner) < 4 \
+            or st.before.elements[corner] != 6 or st.before.elements[base] != 6:
+        return None
+    return corner if pair(acid, corner) in st.change.formed else None
 
 
 def _eliminated_with_its_own_base(st: StepTrace, base: int, acid: int, hydrogen: int, corner: int) -> bool:
@@ -540,7 +569,10 @@ class FourCentreProtonTransfers(Check):
     tautomerisation between 1,3-related heteroatoms goes by way of the solvent or an acid or base,
     two proton transfers (common practice; computed barriers for formimidic acid to formamide,
     from memory: about 45-50 kcal/mol direct, about 20 with one water). A proton passed inside one
-    molecule goes round six atoms (an ene reaction, a beta-keto acid's decarboxylation)."""
+    molecule goes round six atoms (an ene reaction, a beta-keto acid's decarboxylation). An O-H,
+    N-H or S-H added across a C=C in one step is a four-centre ring too: it goes by way of an acid,
+    the carbon protonated first (common practice); a hydride added so (hydroboration) moves with its
+    own pair and is not judged."""
     name = "four-centre proton transfers"
     codes = ("AR526",)
 
@@ -559,6 +591,14 @@ class FourCentreProtonTransfers(Check):
                     f"step: a four-membered cyclic (syn) elimination of {taken.acid}, {taken.base} the leaving group "
                     f"and its own base", t.move.move.loc, hint=_elimination_hint(st, t, taken.acid),
                     atoms=(base, acid, corner), step=st.index)
+                continue
+            if t.adds:
+                yield Diagnostic(
+                    "AR526", f"{acid} bonds to {corner} and gives its proton to {base} in the same step: {acid}-H "
+                    f"added across {corner}={base} round a four-membered ring (a 2+2 of a sigma and a pi bond), "
+                    f"strained and slow; an alcohol, amine or thiol adds to a C=C by way of an acid (common "
+                    f"practice)", t.move.move.loc, hint=_acid_first_hint(st, t, context.views),
+                    atoms=(acid, corner, base), step=st.index)
                 continue
             yield Diagnostic(
                 "AR526", f"{base} takes the proton of {acid} in one step, and both are bonded to {corner}: a "
@@ -590,6 +630,42 @@ def _two_steps_hint(st: StepTrace, t: FourCentre) -> str:
     return (f"write two proton transfers by way of the solvent or an acid or base (common practice): bring water "
             f"in with `uses water = \"[OH2:{free}]\"`, {taking}, and in a step of its own {giving} (or protonate "
             f"{base} first from an acid, then let water take the proton of {acid})")
+
+
+def _acid_first_hint(st: StepTrace, t: FourCentre, views: RecentViews) -> str:
+    """Three steps for X-H added across C=C: the strongest acid of another molecule (pKa below 5,
+    by the table) protonates the pi bond's carbon, pushed by a lone pair beside the other carbon
+    where there is one (an enol ether's oxocarbenium), X adds to the cation, a base takes X's
+    proton (the acid-catalysed addition of an alcohol to dihydropyran; Clayden, from memory)."""
+    before, label = st.before, st.before.label
+    x, corner, base = label(t.acid), label(t.corner), label(t.base)
+    acid = _strongest_acid_apart(before, views.of(before), t.acid)
+    if acid is None or not all(nameable(before.mol, k) for k in (t.acid, t.corner, t.base)):
+        return (f"protonate {base} first with an acid (the {corner}={base} pi pair takes its proton), let {x} add to "
+                f"the cation at {corner}, then let a base take {x}'s proton: three steps")
+    a = label(acid)
+    donor = next((n.GetIdx() for n in before.mol.GetAtomWithIdx(t.corner).GetNeighbors()
+                  if n.GetIdx() not in (t.base, t.acid) and before.elements[n.GetIdx()] in (7, 8, 16)
+                  and before.nonbonding[n.GetIdx()] >= 2 and nameable(before.mol, n.GetIdx())), None)
+    push, pull = (f"`:{label(donor)} -> {corner}={label(donor)}`, ", f", `{corner}={label(donor)} -> {label(donor)}`") \
+        if donor is not None else ("", "")
+    return (f"by way of the acid {a}, in three steps: {push}`{corner}={base} -> {base}-H({a})`, `{a}-H -> {a}` "
+            f"(the proton to {base} first); then `:{x} -> {corner}`{pull}; then `:{a} -> H({x})`, `{x}-H -> {x}`")
+
+
+def _strongest_acid_apart(state, view: Perceived, apart: int) -> Optional[int]:
+    """The mapped O-H, N-H or S-H of another molecule than `apart`'s with the lowest pKa below 5
+    by the table: the acid the conditions hold."""
+    mine = next(set(f) for f in Chem.GetMolFrags(state.mol, asMols=False, sanitizeFrags=False) if apart in f)
+    best = None
+    for a in state.mol.GetAtoms():
+        k = a.GetIdx()
+        if k in mine or a.GetAtomicNum() not in (7, 8, 16) or not a.GetAtomMapNum() or not a.GetTotalNumHs(True):
+            continue
+        found = _acidity(view, k)
+        if found is not None and found.pka < 5 and (best is None or found.pka < best[0]):
+            best = (found.pka, k)
+    return None if best is None else best[1]
 
 
 def _elimination_hint(st: StepTrace, t: FourCentre, leaving_as: str) -> str:

@@ -189,6 +189,74 @@ def _cation_beside_an_anion(st: StepTrace) -> Iterator[Diagnostic]:
             break
 
 
+# The cation a heteroatom's lone pair makes of the carbon beside it, by element.
+_ONIUM_CATION = {7: "an iminium ion", 8: "an oxocarbenium ion", 16: "a thionium ion"}
+
+
+def _protonated_at_the_donor_end(st: StepTrace) -> Iterator[Diagnostic]:
+    """AR533: a C=C pair takes a proton at the carbon that bears an O, N or S with a lone pair (an
+    enol ether, an enamine, a vinyl sulfide), leaving the other carbon a bare alkyl cation, where the
+    proton taken at that other carbon would leave the cation beside the heteroatom, whose lone pair
+    spreads the charge (an oxocarbenium or iminium ion). Such alkenes are protonated at the carbon
+    away from the heteroatom (common practice; Clayden, the tetrahydropyranyl ether from
+    dihydropyran; from memory). A cation left allylic, benzylic or beside a lone pair is not
+    judged, nor a primary one (AR511's)."""
+    if st.step.kind == "resonance":
+        return
+    before, after = st.before, st.after
+    elements = after.elements
+    for m in st.change.moves:
+        if m.electrons != 2 or m.source_kind != "bond" or len(m.sink_atoms) != 2:
+            continue
+        h = next((k for k in m.sink_atoms if elements[k] == 1), None)
+        if h is None or h in m.source_atoms:
+            continue
+        end = next(k for k in m.sink_atoms if k != h)
+        if end not in m.source_atoms or elements[end] != 6:
+            continue
+        other = next(k for k in m.source_atoms if k != end)
+        if (elements[other] != 6 or before.bond_electrons(end, other) != 4 or after.formal_charge(other) != 1
+                or after.nonbonding[other] or not _bare_alkyl_cation(after, other)
+                or unstabilised_primary_cation(after.mol, other)):
+            continue
+        donor = next((n.GetIdx() for n in after.mol.GetAtomWithIdx(end).GetNeighbors()
+                      if elements[n.GetIdx()] in _ONIUM_CATION and after.formal_charge(n.GetIdx()) == 0
+                      and after.nonbonding[n.GetIdx()] >= 2), None)
+        if donor is None:
+            continue
+        label = after.label
+        c_end, c_other, x = label(end), label(other), label(donor)
+        holder = next((n.GetIdx() for n in before.mol.GetAtomWithIdx(h).GetNeighbors()), None)
+        if holder is not None and all(nameable(before.mol, k) for k in (end, other, holder)):
+            bond = "=".join(label(k) for k in sorted((end, other)))
+            fix = f"`{bond} -> {c_other}-H({label(holder)})`, with `:{x} -> {x}={c_end}` in the same step or the next"
+        else:
+            fix = f"the C=C pair onto a proton at {c_other}, and {x}'s lone pair into {x}={c_end}"
+        yield Diagnostic(
+            "AR533", f"the proton goes to {c_end}, the carbon that bears {x}, leaving {c_other} a carbocation with "
+            f"nothing to stabilise it; at {c_other} it would leave the cation on {c_end} beside {x}'s lone pair, "
+            f"{_ONIUM_CATION[elements[donor]]}", m.move.loc,
+            hint=f"protonate the carbon away from the heteroatom: {fix} (an enol ether or enamine takes a proton "
+                 f"at its beta carbon)",
+            atoms=(c_end, c_other, x), step=st.index)
+
+
+def _bare_alkyl_cation(state: ElectronState, i: int) -> bool:
+    """Whether carbocation i has nothing beside it to spread the charge: no multiple bond of its own,
+    no neighbour with a lone pair, a multiple bond or an aromatic ring, no cyclopropane beside it."""
+    mol = state.mol
+    atom = mol.GetAtomWithIdx(i)
+    if any(b.GetBondTypeAsDouble() > 1 for b in atom.GetBonds()):
+        return False
+    for n in atom.GetNeighbors():
+        k = n.GetIdx()
+        if state.nonbonding[k] or n.GetIsAromatic() or any(b.GetBondTypeAsDouble() > 1 for b in n.GetBonds()):
+            return False
+        if state.elements[k] == 6 and _in_three_ring(mol, k):
+            return False
+    return True
+
+
 # Neighbours that hold a carbanion's pair (common practice): an ylide's onium, phosphorus, sulfur,
 # silicon, selenium and boron beside it.
 _CARBANION_HOLDERS = frozenset({5, 14, 15, 16, 34})
@@ -397,7 +465,7 @@ def _doubly_bonded(state, i: int) -> Optional[int]:
 
 class UnusualElectronCounts(Check):
     name = "unusual electron counts"
-    codes = ("AR503", "AR504", "AR505", "AR511", "AR513", "AR514", "AR528")
+    codes = ("AR503", "AR504", "AR505", "AR511", "AR513", "AR514", "AR528", "AR533")
 
     def step(self, st: StepTrace, context) -> Iterator[Diagnostic]:
         after, before = st.after, st.before
@@ -407,6 +475,7 @@ class UnusualElectronCounts(Check):
         yield from _pi_pair_onto_carbon(st)
         yield from _pi_pair_onto_oxo_centre(st)
         yield from _cation_beside_an_anion(st)
+        yield from _protonated_at_the_donor_end(st)
         for i, old_charge, charge in st.change.charges:
             # As for the shell below: a charge the species was written with and the step keeps
             # (a sulfonyl S written S2+ with two O-) is not the step's doing.

@@ -43,6 +43,16 @@ class Perceived:
         return k if k < len(self.original) and self.original[k] == atom else None
 
 
+def aromatic(view: Perceived, atom: int) -> bool:
+    """Whether state atom `atom` is aromatic in the view (False for a hydrogen folded into a
+    count); remembered on the view, which a proton shuttle meets again and again."""
+    known = view.memo.setdefault("aromatic", {})
+    if atom not in known:
+        position = view.position(atom)
+        known[atom] = position is not None and view.mol.GetAtomWithIdx(position).GetIsAromatic()
+    return known[atom]
+
+
 def perceive(mol: Chem.Mol, clear_stereo_on: Iterable[int] = (), heavy: Optional[tuple[int, ...]] = None,
              elements: Optional[tuple[int, ...]] = None) -> Perceived:
     """The view of `mol`. Only the atoms in `clear_stereo_on` lose their configuration; `heavy`,
