@@ -394,3 +394,26 @@ def test_furan_protonated_at_c2_is_not_judged():
     furan = ('species furan = "[O:1]1[CH:2]=[CH:3][CH:4]=[CH:5]1"\nspecies acid = "[OH3+:6]"\n'
              'step "protonation"\n    C2=C3 -> C2-H(O6)\n    O6-H -> O6\nend\n')
     assert "AR533" not in codes(furan)
+
+
+# --- 6. AR523's hint names the ring's sp3 C-H ---------------------------------------------------
+# NADH gives the hydride on its sp3 C4 (lactate dehydrogenase; Berg/Stryer, from memory), and the
+# ring ends a pyridinium ion. Taken from the sp2 C2 instead, the ring is left a cyclic allene.
+NADH = '''species nadh = "C[N:1]1[CH:2]=[C:3](C(N)=O)[CH2:4][CH:5]=[CH:6]1"
+species pyruvate = "[CH3:22][C:20](=[O:21])C(=O)[O-]"
+species his = "[cH:12]1[nH:11][cH:13][nH+:10][cH:14]1"
+step "hydride and proton transfer"
+{moves}    C20=O21 -> O21-H(N10)
+    N10-H -> N10
+end
+'''
+
+
+def test_the_nadh_hydride_from_c4_is_clean():
+    """Guard: the textbook transfer."""
+    assert codes(NADH.format(moves="    :N1 -> N1=C6\n    C5=C6 -> C4=C5\n    C4-H -> C20-H(C4)\n")) == []
+
+
+def test_a_hydride_taken_from_the_sp2_c2_of_nadh_hints_at_c4():
+    d = only(NADH.format(moves="    :N1 -> N1=C2\n    C2-H -> C20-H(C2)\n"), "AR523")
+    assert "hydrogen of C2, an sp2 carbon" in d.hint and "sp3 carbon holding hydrogen is C4" in d.hint

@@ -533,14 +533,32 @@ class StrainedCumulenes(Check):
             yield Diagnostic(
                 "AR523", f"{label(centre)} ends the step with two double bonds inside a {size}-membered ring (a "
                 f"cyclic allene): its three carbons want a straight line, which a ring this small cannot give",
-                st.step.loc,
-                hint="check which hydrogen or bond the step takes: an arenium ion loses the proton on its sp3 carbon, "
-                     "restoring the arene; if a strained cyclic allene is meant (made from a silyl triflate), "
-                     "this can stand",
-                atoms=(label(centre),), step=st.index)
+                st.step.loc, hint=_allene_hint(st, centre), atoms=(label(centre),), step=st.index)
 
 
 _SMALL_ALLENE_RING = 8
+
+
+def _allene_hint(st: StepTrace, centre: int) -> str:
+    """AR523's hint: where the step took a hydrogen off a ring carbon that was sp2 while a carbon
+    of the same ring holds a hydrogen on an sp3 centre, that carbon is named: an arenium ion loses
+    its proton there, a 1,4-dihydropyridine (NADH) its hydride from C4 (common practice)."""
+    before = st.before
+    mol = before.mol
+    taken = [next(a for a in m.source_atoms if before.elements[a] != 1) for m in st.change.moves
+             if m.source_kind == "bond" and len(m.source_atoms) == 2 and 1 in (before.elements[a] for a in m.source_atoms)
+             and any(before.elements[a] != 1 for a in m.source_atoms)]
+    ring = next((set(r) for r in Chem.GetSymmSSSR(mol) if centre in r and len(r) <= _SMALL_ALLENE_RING), set())
+    sp3 = [a for a in sorted(ring) if before.elements[a] == 6 and a not in taken and before.bond_sums[a] == 4
+           and all(before.bond_electrons(a, n.GetIdx()) == 2 for n in mol.GetAtomWithIdx(a).GetNeighbors())
+           and mol.GetAtomWithIdx(a).GetTotalNumHs(includeNeighbors=True)]
+    off_sp2 = [a for a in taken if a in ring and a not in sp3]
+    if off_sp2 and sp3:
+        return (f"the step takes the hydrogen of {before.label(off_sp2[0])}, an sp2 carbon; the ring's sp3 carbon "
+                f"holding hydrogen is {before.label(sp3[0])}: an arenium ion loses its proton there, a "
+                f"1,4-dihydropyridine (NADH) gives its hydride from there, and the ring ends aromatic")
+    return ("check which hydrogen or bond the step takes: an arenium ion loses the proton on its sp3 carbon, "
+            "restoring the arene; if a strained cyclic allene is meant (made from a silyl triflate), this can stand")
 
 
 def _allenes_in_small_rings(state: ElectronState, atoms: list[int]) -> set[tuple[int, int]]:
