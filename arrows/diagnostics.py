@@ -347,8 +347,11 @@ CODES = _table(
          "indole's C3). A hydrogen taken as a proton off boron, aluminium, silicon, germanium, tin "
          "or a metal of groups 1, 2, 12 or 13 is warned on whatever the threshold: such a hydrogen "
          "is hydridic, leaving with the bond's pair (common practice); d-block hydrides of groups "
-         "3-11 (H-Pd-X) are not judged. Not judged: a "
-         "proton beside a cation (E1, a protonated carbonyl's alpha C-H) or one whose loss makes "
+         "3-11 (H-Pd-X) are not judged. A C-H taken as the O (or N) its pair is pushed onto takes "
+         "a proton from an acid HA in the same step makes the enol, and the step is judged as a "
+         "whole: [pKa(C-H) - pKa(BH+)] + [pKa(HA) - pKa(enol O-H)]. Not judged: a "
+         "proton beside a cation (E1, a protonated carbonyl's alpha C-H; an azolium's C2-H is "
+         "judged against its own value) or one whose loss makes "
          "its atom aromatic (an arenium ion or a sigma complex rearomatising).",
          'species acetone = "[CH3:1][C:2](=[O:3])[CH3:4]"\n'
          'species water = "[OH2:5]"\n'

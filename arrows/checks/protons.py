@@ -10,7 +10,17 @@ with the X-H bond broken in the same step. The acid given up is judged on X befo
 conjugate acid of the base on B after it (arrows.judgement.acidity). A concerted elimination
 (E2: another sigma bond breaks in the same step) is not a plain proton transfer and is left alone,
 nor is a hydrogen passed round a pericyclic array (an ene reaction, a [1,5]-hydrogen shift), where
-no base takes a proton and no ions form.
+no base takes a proton and no ions form. A proton beside a cation has no entry and is not judged,
+except an azolium's C2-H (a thiazolium's ~18, an imidazolium's ~23), taken to make the ylide or
+carbene.
+
+A C-H whose pair is pushed through a C=O (or C=N) onto its O (or N), which takes a proton from an
+acid HA in the same step (concerted general-base, general-acid enolisation, as triose phosphate
+isomerase and citrate synthase draw it), makes the enol, not the enolate: the step is judged as a
+whole. By the thermodynamic cycle that links a carbon acid's pKa to its keto-enol constant and its
+enol's O-H pKa (pKa(C-H) = pK_E + pKa(enol O-H); Kresge; Richard & Amyes; Jencks's account of
+concerted general acid-base catalysis; memory), the step's uphill estimate is
+[pKa(C-H) - pKa(BH+)] + [pKa(HA) - pKa(enol O-H)], each from the table.
 """
 from __future__ import annotations
 
@@ -22,7 +32,8 @@ from rdkit import Chem
 
 from ..diagnostics import Diagnostic
 from ..electrons import ResolvedMove, nameable, pair
-from ..judgement.acidity import ALKOXIDE_ACID_PKA, HYDROGEN, PYRROLE_TYPE_N, Acidity, acidity_of, pyrrole_type_nitrogen
+from ..judgement.acidity import (ALKOXIDE_ACID_PKA, AZOLIUM_C2_H, HYDROGEN, PYRROLE_TYPE_N, Acidity, acidity_of,
+                                 pyrrole_type_nitrogen)
 from ..judgement.perception import Perceived, RecentViews, aromatic
 from ..judgement.sigma_complexes import rearomatising_moves, rearomatising_path_to
 from ..model import Location
@@ -57,12 +68,16 @@ class ProtonTransfer(NamedTuple):   # one per proton-transfer arrow: a named tup
     loc: Location
     acid: Optional[Acidity]            # the acid given up, before the step
     conjugate_acid: Optional[Acidity]  # the base once protonated, after the step
+    # The same step's protonation of the atom this C-H's pair is pushed onto (the enol's O): its
+    # uphill estimate is added to this one's (the step judged as a whole; see the module's text).
+    credited: Optional["ProtonTransfer"] = None
 
     @property
     def uphill(self) -> Optional[float]:
         if self.acid is None or self.conjugate_acid is None:
             return None
-        return self.acid.pka - self.conjugate_acid.pka
+        own = self.acid.pka - self.conjugate_acid.pka
+        return own if self.credited is None else own + self.credited.uphill
 
 
 def proton_transfers(st: StepTrace, views: Optional[RecentViews] = None) -> list[ProtonTransfer]:
@@ -94,11 +109,13 @@ def proton_transfers(st: StepTrace, views: Optional[RecentViews] = None) -> list
             if not _carbocation_beside(st.after, base):
                 continue
             made_cation = True
-        if _next_to_cation(st.before, x):
+        beside_cation = _next_to_cation(st.before, x)
+        if beside_cation and elements[x] != 6:
             # A cation's conjugate acid, or a C-H beta to a cation (E1, or the alpha C-H of a
-            # protonated carbonyl or an iminium): no entry in our table.
+            # protonated carbonyl or an iminium): no entry in our table. An azolium's C2-H has one,
+            # and is kept until its entry is read (below).
             continue
-        found.append((base, x, h, m.move.loc, made_cation))
+        found.append((base, x, h, m.move.loc, made_cation, beside_cation))
     if not found:
         return []
     views = RecentViews() if views is None else views
@@ -118,7 +135,65 @@ def proton_transfers(st: StepTrace, views: Optional[RecentViews] = None) -> list
         if elements[base] == 7 and _pyrrole_type(acids, base):
             return PYRROLE_TYPE_N   # judged before the step: after it the ring is no longer aromatic
         return acidity(conjugates, base)
-    return [ProtonTransfer(b, x, h, loc, acidity(acids, x), conjugate(b, made)) for b, x, h, loc, made in found]
+    transfers = []
+    for b, x, h, loc, made, beside_cation in found:
+        given_up = acidity(acids, x)
+        if beside_cation and given_up not in AZOLIUM_C2_H:
+            continue   # a C-H beside a cation other than an azolium's C2-H: no entry (above)
+        transfers.append(ProtonTransfer(b, x, h, loc, given_up, conjugate(b, made)))
+    return _credit_enol_protonation(st, transfers)
+
+
+def _credit_enol_protonation(st: StepTrace, transfers: list[ProtonTransfer]) -> list[ProtonTransfer]:
+    """Each C-H transfer whose pair the step pushes onto an O or N that takes a proton in the same
+    step, with that protonation credited (the step makes the enol; see the module's text)."""
+    if len(transfers) < 2:
+        return transfers
+    elements = st.before.elements
+    by_taker = {(t.base_atom, t.hydrogen): t for t in transfers}
+    out = []
+    for t in transfers:
+        if elements[t.acid_atom] == 6 and t.uphill is not None \
+                and t.conjugate_acid not in (PYRROLE_TYPE_N, CARBOCATION):
+            end = _protonated_end(st, t.acid_atom, t.hydrogen)
+            partner = by_taker.get(end) if end is not None else None
+            if partner is not None and partner.uphill is not None:
+                t = t._replace(credited=partner)
+        out.append(t)
+    return out
+
+
+def _protonated_end(st: StepTrace, carbon: int, hydrogen: int) -> Optional[tuple[int, int]]:
+    """(the O or N, the hydrogen it takes) where the pair of `carbon`'s bond to `hydrogen` is pushed
+    through a C=O or C=N (and any C=C between) onto that O or N, which takes a proton in the same
+    step: `C1-H -> C1=C2` with `C2=O3 -> O3-H(N10)`. None when the pair ends as a lone pair (the
+    enolate) or elsewhere."""
+    moves, elements = st.change.moves, st.before.elements
+    start = next((m for m in moves if m.source_kind == "bond" and m.electrons == 2 and len(m.sink_atoms) == 2
+                  and set(m.source_atoms) == {carbon, hydrogen} and carbon in m.sink_atoms
+                  and hydrogen not in m.sink_atoms), None)
+    if start is None:
+        return None
+    pushed = _other(start.sink_atoms, carbon)   # gains a bond: one of its own pairs moves on
+    used = [start]
+    for _ in range(len(moves)):
+        m = next((m for m in moves if m.source_kind == "bond" and m.electrons == 2 and pushed in m.source_atoms
+                  and all(m is not u for u in used)), None)
+        if m is None:
+            return None
+        far = _other(m.source_atoms, pushed)
+        if far not in m.sink_atoms:
+            return None
+        if len(m.sink_atoms) == 1:   # the pair left on `far`: protonated only by its own lone pair's arrow
+            taken = next((n.sink_atoms for n in moves if n.source_kind == "lone_pair" and n.source_atoms == (far,)
+                          and len(n.sink_atoms) == 2 and elements[_other(n.sink_atoms, far)] == 1), None)
+            return (far, _other(taken, far)) if taken is not None and elements[far] in (7, 8) else None
+        partner = _other(m.sink_atoms, far)
+        if elements[partner] == 1:
+            return (far, partner) if elements[far] in (7, 8) else None
+        used.append(m)
+        pushed = partner   # a C=C pair moved on along the chain (a vinylogous push)
+    return None
 
 
 def _pyrrole_type(view: Perceived, atom: int) -> bool:
@@ -330,6 +405,9 @@ class UphillProtonTransfers(Check):
                     f"from one, or another step is meant; the threshold is {gap:g} units (`arrows check --pka-gap`)",
                     atoms=(label_b, label_x), step=st.index)
                 continue
+            if t.credited is not None:
+                yield _credited_diagnostic(st, t, gap)
+                continue
             yield Diagnostic(
                 "AR508",
                 f"{base.base} (pKa of {base.acid} {base.shown}) removing {acid.site} ({acid.shown}): "
@@ -354,6 +432,26 @@ def _sigma_complex_hint(st: StepTrace, t: ProtonTransfer) -> Optional[str]:
     written = f": {arrows}, in place of this step's arrows" if arrows else ""
     return (f"the proton meant is the one on {carbon}, the sp3 ring carbon of this sigma complex: taken, it "
             f"restores the aromatic ring{written}")
+
+
+def _credited_diagnostic(st: StepTrace, t: ProtonTransfer, gap: float) -> Diagnostic:
+    """AR508 for a C-H taken as the same step protonates the O (or N) its pair is pushed onto: the
+    step judged as a whole, the enol made rather than the enolate (the module's text)."""
+    label = st.before.label
+    b, x = label(t.base_atom), label(t.acid_atom)
+    end, given = t.credited, t.credited.acid
+    taker, donor = label(end.base_atom), label(end.acid_atom)
+    acid, base, made = t.acid, t.conjugate_acid, end.conjugate_acid
+    return Diagnostic(
+        "AR508",
+        f"{base.base} (pKa of {base.acid} {base.shown}) removing {acid.site} ({acid.shown}) as {taker} takes the "
+        f"proton of {donor} ({given.acid} {given.shown}) in the same step: that protonation of {taker} is credited "
+        f"(the step makes {made.acid}, {made.shown}, not {acid.base}), and the step is still uphill by about "
+        f"{_units(t.uphill, gap)} pKa units ({b} takes the proton of {x})",
+        t.loc, hint=f"judged as [pKa(C-H) - pKa(BH+)] + [pKa(HA) - pKa({made.acid})] = ({acid.pka:g} - "
+        f"{base.pka:g}) + ({given.pka:g} - {made.pka:g}); a stronger base or a stronger acid is needed, or another "
+        f"proton is meant; the threshold is {gap:g} units (`arrows check --pka-gap`)",
+        atoms=(b, x), step=st.index)
 
 
 def freed_protons(st: StepTrace) -> list[int]:

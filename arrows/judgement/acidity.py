@@ -32,7 +32,19 @@ class Acidity:
     @property
     def site(self) -> str:
         """The proton as the object of "removing ...": an alkane C-H, a proton of water."""
-        return self.acid if self.acid.endswith(("C-H", "N-H")) else f"a proton of {self.acid}"
+        return self.acid if self.acid.endswith("-H") else f"a proton of {self.acid}"
+
+
+# The C2-H between the cationic N and the S of a thiazolium ion (thiamine's, the benzoin and Stetter
+# catalysts') about 18, and between the two N of an imidazolium ion about 23 (Washabaugh & Jencks
+# 1988; Amyes, Diver, Richard & Rivas 2004; memory): its ylide, the catalyst a Breslow adduct lets
+# go, is a weak base for a carbanion, not a vinyl anion. The one C-H beside a cation that the table
+# names: protons.py judges its removal (the ylide's or carbene's formation) against it.
+THIAZOLIUM_C2_H = Acidity("a thiazolium C2-H", "a thiazolium ylide", "[#6X3;!H0](~[#7X3+])~[#16X2]", 18, "~18",
+                          NOT_LISTED)
+IMIDAZOLIUM_C2_H = Acidity("an imidazolium C2-H", "an N-heterocyclic carbene", "[#6X3;!H0](~[#7X3+])~[#7X3]", 23,
+                           "~23", NOT_LISTED)
+AZOLIUM_C2_H = (THIAZOLIUM_C2_H, IMIDAZOLIUM_C2_H)
 
 
 TABLE: tuple[Acidity, ...] = (
@@ -91,10 +103,29 @@ TABLE: tuple[Acidity, ...] = (
     Acidity("hydroxide", "oxide", "[OX1H1-]", 36, "~36", NOT_LISTED),
     Acidity("an imide N-H", "an imidate", "[NX3;H1]([CX3]=O)[CX3]=O", 9, "~9", NOT_LISTED),   # succinimide 9.6
     Acidity("an amide N-H", "an amidate", "[NX3;!H0][CX3]=O", 17, "~17", NOT_LISTED),
+    # A C-H alpha to a ketone's or aldehyde's C=O and allylic (a beta,gamma-unsaturated ketone): its
+    # anion is a dienolate. 5-Androstene-3,17-dione's C4-H, the proton ketosteroid isomerase takes,
+    # has pKa 12.7 in water (Pollack and co-workers; memory). An ester's or a carboxylate's C=O holds
+    # the pair less well: left to their own entries below.
+    Acidity("an allylic ketone or aldehyde alpha C-H", "a dienolate",
+            "[CX4;!H0]([$([CX3](=O)([#6])[#6]),$([CX3H1]=O)])[CX3]=[CX3]", 13, "~13",
+            "ketosteroid isomerase's substrate, 12.7 (Pollack, memory)"),
     Acidity("an aldehyde alpha C-H", "an aldehyde enolate", "[CX4;!H0][CX3H1]=O", 17, "~17", TEXTBOOK),
     Acidity("a ketone alpha C-H", "a ketone enolate", "[CX4;!H0][CX3](=O)[#6]", 19.5, "19-20", TEXTBOOK),
     Acidity("an ester alpha C-H", "an ester enolate", "[CX4;!H0][CX3](=O)[OX2][#6]", 25, "~25", TEXTBOOK),
+    # A thioester's alpha C-H, ~21 (S-ethyl thioacetate; Amyes & Richard; memory), more acidic than an
+    # oxygen ester's: acetyl-CoA's, enolised by citrate synthase and thiolase. The ester entry above
+    # does not match sulfur.
+    Acidity("a thioester alpha C-H", "a thioester enolate", "[CX4;!H0][CX3](=O)[SX2][#6]", 21, "~21",
+            "Amyes & Richard (memory)"),
     Acidity("an amide alpha C-H", "an amide enolate", "[CX4;!H0][CX3](=O)[NX3]", 30, "~30", NOT_LISTED),
+    # A carboxylate ion's alpha C-H, ~33 (acetate ion, 33.5; Richard, Williams, O'Donoghue & Amyes;
+    # memory): its enolate is a dianion. Mandelate's is ~29 (Gerlt & Gassman; memory): a benzylic one
+    # is read as ~33 too, not as a bare benzylic C-H (41-43), so this entry comes before that one. Not
+    # an amino acid's C-alpha-H on the nitrogen side of an imine (a pyridoxal aldimine's, ~17, whose
+    # anion the C=N holds: left unjudged with the alkane entry's exceptions below).
+    Acidity("a carboxylate's alpha C-H", "a carboxylate enolate (a dianion)",
+            "[CX4;!H0;!$(C[NX2,NX3+]=[CX3])][CX3](=O)[O-]", 33, "~33", "acetate ion, 33.5 (Richard, memory)"),
     Acidity("a nitrile alpha C-H", "a nitrile anion", "[CX4;!H0]C#N", 25, "~25", NOT_LISTED),
     Acidity("a terminal alkyne C-H", "an acetylide", "[CX2H1]#C", 25, "~25", TEXTBOOK),
     Acidity("a C-H beside a sulfonium", "a sulfonium ylide", "[CX4;!H0][SX3+]", 18, "~18", NOT_LISTED),
@@ -127,13 +158,7 @@ TABLE: tuple[Acidity, ...] = (
     # read as an alkane's, as the README says of a C-H the table does not name.
     Acidity("an aldehyde C-H", "an acyl anion", "[CX3H1](=O)[#6,#1]", 50, "~50",
             "common practice: not acidic to polar bases; no tabulated value"),
-    # The C2-H between the cationic N and the S of a thiazolium ion (thiamine's, the benzoin and
-    # Stetter catalysts') about 18, and between the two N of an imidazolium ion about 23 (Washabaugh
-    # & Jencks 1988; Amyes, Diver, Richard & Rivas 2004; memory): its ylide, the catalyst a Breslow
-    # adduct lets go, is a weak base for a carbanion, not a vinyl anion.
-    Acidity("a thiazolium C2-H", "a thiazolium ylide", "[#6X3;!H0](~[#7X3+])~[#16X2]", 18, "~18", NOT_LISTED),
-    Acidity("an imidazolium C2-H", "an N-heterocyclic carbene", "[#6X3;!H0](~[#7X3+])~[#7X3]", 23, "~23",
-            NOT_LISTED),
+    THIAZOLIUM_C2_H, IMIDAZOLIUM_C2_H,   # thiazolium ~18, imidazolium ~23: defined above the table
     Acidity("an alkene or arene C-H", "a vinyl or aryl anion", "[#6X3;!H0;$([#6]=[#6]),$([c])]", 44, "~44",
             TEXTBOOK),
     # Not an alkane: a C-H beside a C=N (an imine, an oxime or its ester: the Neber's methyl), or on
