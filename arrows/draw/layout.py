@@ -1030,7 +1030,8 @@ class _LayoutBuilder:
                     or self._bent_where_straight(cluster.local, cluster.atoms)
                     or not self._shows_written_geometry(cluster.local, cluster.atoms, range(self.n))
                     or self._draws_chain_alkene_cis(cluster.local, cluster.atoms, range(self.n))
-                    or any(self._opens_small_ring(cluster.atoms, k) for k in range(self.n - 1))):
+                    or any(self._opens_small_ring(cluster.atoms, k) for k in range(self.n - 1))
+                    or self._bonds_cross(cluster.local, self._in_group(cluster.atoms, range(self.n)))):
                 cluster.local, cluster.phases = self._phases(cluster.atoms)
         self.cluster_of = {a: k for k, c in enumerate(self.clusters) for a in c.atoms}
         # Partners that meet in one step first (the depiction may be turned for them), then those
@@ -1409,6 +1410,23 @@ class _LayoutBuilder:
                  if all((min(a, b), max(a, b)) in bonds for a, b in zip(ring, ring[1:] + ring[:1]))]
         return _any_inside_ring(local, rings, (a for a in group if self.element[a] != 1))
 
+    def _bonds_cross(self, local: dict[int, complex], bonds: set[tuple[int, int]]) -> bool:
+        """Whether two bonds between heavy atoms, drawn at `local`, cross (sharing no atom): the
+        union of a cluster's bonds over several panels that RDKit could not lay flat (Dess-Martin
+        periodinane's iodine with a sixth partner, its acetoxy groups drawn over its ring). A sweep
+        along x: only bonds whose spans overlap are compared."""
+        element = self.element
+        segments = sorted((min(local[i].real, local[j].real), max(local[i].real, local[j].real), i, j)
+                          for i, j in bonds if element[i] != 1 and element[j] != 1 and i in local and j in local)
+        for k, (x0, x1, i, j) in enumerate(segments):
+            p, q = local[i], local[j]
+            for y0, y1, a, b in segments[k + 1:]:
+                if y0 > x1:
+                    break
+                if a not in (i, j) and b not in (i, j) and segments_cross(p, q, local[a], local[b]):
+                    return True
+        return False
+
     def _squeezes_a_ring(self, local: dict[int, complex], group: list[int], panels: Iterable[int],
                          drawn: set[tuple[int, int]]) -> bool:
         """Whether `local`, depicted from the bonds `drawn`, draws a ring of `group` that exists in
@@ -1541,6 +1559,11 @@ class _LayoutBuilder:
         while start < self.n:
             bonds = self._run_bonds(group, start, start) | self._hop_ahead(group, start)
             end, local = start, self._depict(group, bonds, range(start, start + 1))
+            if self._bonds_cross(local, bonds) and self._hop_ahead(group, start):
+                # The cyclic array drawn as a ring crosses bonds (the periodinane's ligands round the
+                # iodine as its acetate takes the alcohol's alpha H): the panel's own bonds only.
+                bonds = self._run_bonds(group, start, start)
+                local = self._depict(group, bonds, range(start, start + 1))
             while end + 1 < self.n:
                 if any(self._linear(a, range(start, end + 1)) and not self._linear(a, range(start, end + 2))
                        for a in group):
@@ -1552,6 +1575,8 @@ class _LayoutBuilder:
                 trial = self._depict(group, trial_bonds, range(start, end + 2))
                 if not self._even(trial, group, range(start, end + 2)) or self._atom_inside_a_ring(trial, group, trial_bonds):
                     break
+                if self._bonds_cross(trial, trial_bonds):
+                    break     # the union of the run's bonds cannot be drawn flat (a periodinane's ligands over its ring)
                 if self._squeezes_a_ring(trial, group, range(start, end + 2), trial_bonds):
                     break     # a ring drawn round a bond that closes later (a Favorskii cyclopropanone's rim)
                 if any(self._linear(a, range(end, end + 1)) and not self._linear(a, range(end + 1, end + 2))
