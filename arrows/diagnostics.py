@@ -730,6 +730,21 @@ CODES = _table(
          '    :O1 -> C2=O1\n'
          '    C2-O3 -> O3   # methoxide left unprotonated: protonate O3 first (in acid)\n'
          'end'),
+    Code("AR535", WARNING, "hydrogen atom taken uphill",
+         "A radical takes a hydrogen atom (three fishhooks) across a bond much stronger than the one it "
+         "makes: the bond dissociation enthalpy of the H-Y bond broken less that of the X-H bond made is "
+         "more than 15 kcal/mol. A radical chain runs through steps no more uphill than that (a bromine "
+         "atom takes a primary C-H, about 13 uphill, slowly; common practice, from memory): a bromine "
+         "atom does not take a vinylic C-H (24 uphill), nor a tin radical a C-H. Values by substructure "
+         "(Blanksby & Ellison, Acc. Chem. Res. 2003; Luo's handbook for Sn-H and Si-H; from memory); a "
+         "bond not in the table is not judged.",
+         'species alkene = "[CH2:1]=[CH2:2]"\n'
+         'species br = "[Br:3]"\n'
+         'step "H abstraction"\n'
+         '    .Br3 ~> Br3-H(C1)   # a vinylic C-H (~111) for H-Br (87.5): take an allylic H\n'
+         '    C1-H ~> Br3-H(C1)\n'
+         '    C1-H ~> C1\n'
+         'end'),
     Code("AR601", NOTE, "ring closure",
          "A step closes a ring; its size and Baldwin class are given. A pericyclic step (every arrow "
          "from a bond to a bond, round a closed loop that makes no charge; arrows that all start at "

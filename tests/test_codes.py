@@ -691,6 +691,14 @@ TWINS = [
          "    C2-O3 -> O3-H(O8)\n    O8-H -> O8\n", "    C2-O3 -> O3\n",
          "AR534", "C2-O3 -> O3", says=("O3", "C2", "methoxide", "O1"),
          hint_says=("`C2-O3 -> O3-H(O8)` with `O8-H -> O8`",)),
+    # A bromine atom takes cyclohexene's allylic C3-H (~89 kcal/mol against H-Br's 87.5; Blanksby
+    # & Ellison 2003, from memory), not a vinylic C-H (~111).
+    Twin("hydrogen atom taken uphill",
+         'species alkene = "[CH:1]1=[CH:2][CH2:3][CH2:4][CH2:5][CH2:6]1"\nspecies br = "[Br:7]"\n'
+         'step "H abstraction"\n    .Br7 ~> Br7-H(C3)\n    C3-H ~> Br7-H(C3)\n    C3-H ~> C3\nend\n',
+         "    .Br7 ~> Br7-H(C3)\n    C3-H ~> Br7-H(C3)\n    C3-H ~> C3\n",
+         "    .Br7 ~> Br7-H(C2)\n    C2-H ~> Br7-H(C2)\n    C2-H ~> C2\n",
+         "AR535", ".Br7 ~> Br7-H(C2)", says=("Br7", "C2", "vinylic"), hint_says=("C3",)),
 ]
 
 

@@ -61,6 +61,7 @@ def _registry() -> list[Check]:
         from .conservation import ChargeAndAtomsConserved
         from .leaving import ConcertedAcylSubstitution, StrongBaseLeavingGroups, TertiarySubstitution
         from .pericyclic import ForbiddenPericyclic
+        from .radicals import UphillHydrogenAtomTransfers
         from .protons import (BareProtons, CarbeneFromCH, CHPairBondsAsProtonGoes, FourCentreProtonTransfers,
                               OniumBesideAte, UphillProtonTransfers)
         from .ring_eliminations import RingEliminationGeometry
@@ -78,7 +79,7 @@ def _registry() -> list[Check]:
                                WrittenConfigurationMatches, RingEliminationGeometry, ForbiddenPericyclic,
                                StrainedCumulenes, CarbeneFromCH, FourCentreProtonTransfers,
                                CHPairBondsAsProtonGoes, UnpairedElectronsInPolarMechanism, OniumBesideAte,
-                               SigmaComplexesRearomatise])
+                               SigmaComplexesRearomatise, UphillHydrogenAtomTransfers])
     return [cls() for cls in _CHECK_CLASSES]
 
 

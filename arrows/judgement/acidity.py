@@ -9,11 +9,11 @@ for quantitative work.
 """
 from __future__ import annotations
 
-from functools import lru_cache
 from typing import Optional
 
 from rdkit import Chem
 from ..model import frozen
+from .tables import first_match
 
 TEXTBOOK = "textbook aqueous pKa (memory)"
 NOT_LISTED = "textbook aqueous pKa (memory; not in the shared list)"
@@ -202,33 +202,6 @@ ALKOXIDE_ACID_PKA = 14.0
 HYDROGEN = Acidity("H2", "a hydride ion", "[#1][#1]", 35, "~35", NOT_LISTED)
 
 
-# Set on the atom judged while its table entries are searched: each pattern's first atom also asks
-# for it, so a search starts only there instead of finding every match in the state.
-_SITE = "arrows_acid_site"
-
-
-@lru_cache(maxsize=None)
-def _entries_for(element: int) -> tuple[tuple[Acidity, Chem.Mol, Optional[Chem.Atom]], ...]:
-    """The table entries that can be about an atom of `element`, in table order, each with its
-    pattern rooted at the marked atom (_SITE) and its first atom as written when that atom can be
-    tested alone: RDKit's substructure search tests each atom pair with the same Match, so an atom
-    that fails it cannot start a match. A recursive ($(...)) first atom is only evaluated inside a
-    full search, so it is never tested alone."""
-    from rdkit.Chem import rdqueries   # a small module, loaded with the first proton transfer judged
-    out = []
-    for entry in TABLE:
-        pattern = Chem.MolFromSmarts(entry.smarts)
-        if pattern is None:
-            raise ValueError(f"bad SMARTS in the acidity table: {entry.smarts}")
-        first = pattern.GetAtomWithIdx(0)
-        if first.GetAtomicNum() not in (0, element):
-            continue   # the entry is about another element
-        rooted = Chem.RWMol(pattern)
-        rooted.GetAtomWithIdx(0).ExpandQuery(rdqueries.HasIntPropWithValueQueryAtom(_SITE, 1))
-        out.append((entry, rooted.GetMol(), None if "$(" in first.GetSmarts() else first))
-    return tuple(out)
-
-
 def perceived(mol: Chem.Mol) -> Chem.Mol:
     """A copy with ring information and aromaticity set, for SMARTS matching (indices unchanged)."""
     work = Chem.Mol(mol)
@@ -242,14 +215,4 @@ def perceived(mol: Chem.Mol) -> Chem.Mol:
 
 def acidity_of(mol: Chem.Mol, atom: int) -> Optional[Acidity]:
     """The first table entry whose SMARTS matches with its first atom at `atom` (mol perceived)."""
-    target = mol.GetAtomWithIdx(atom)
-    target.SetIntProp(_SITE, 1)
-    try:
-        for entry, rooted, first in _entries_for(target.GetAtomicNum()):
-            if first is not None and not first.Match(target):
-                continue   # a quick no: the atom itself does not fit the entry's first atom
-            if mol.HasSubstructMatch(rooted):
-                return entry
-        return None
-    finally:
-        target.ClearProp(_SITE)
+    return first_match(TABLE, mol, atom)
