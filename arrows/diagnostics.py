@@ -295,7 +295,9 @@ CODES = _table(
          'end'),
     Code("AR503", WARNING, "unusual formal charge",
          "A step leaves an atom with a new formal charge of magnitude two or more (for example carbon -2, "
-         "oxygen +2).",
+         "oxygen +2). Not judged: an ionic metal (Mg2+, Zn2+), a bare d- or f-block ion with no bond "
+         "(Fe3+), and a d-block metal whose negative charge the onium atoms bonded to it balance (a "
+         "phosphine ligand written P+ to Pd-, the only way to write a dative bond).",
          'species sulfate = "[O-:1][S:2](=[O:3])(=[O:4])[O-:5]"\n'
          'step "sulfate falls apart"\n'
          '    S2-O5 -> O5   # O5 left as oxide, charge -2: sulfate does not lose O2-\n'
@@ -303,7 +305,9 @@ CODES = _table(
     Code("AR504", WARNING, "expanded octet",
          "A step takes a third-row or heavier atom above eight valence electrons, or further above "
          "(a shell a step only keeps, as a sulfonyl S that swaps one bond for another, is not flagged); "
-         "a d-block metal of groups 3-11 above eighteen (the 18-electron rule).",
+         "a d-block metal of groups 3-11 above eighteen (the 18-electron rule). A lanthanide or actinide "
+         "is not judged (its bonding is ionic). A halogen taken beyond eight with an odd count or a charge "
+         "of -2 is told so: that is no hypervalent halogen but electrons gone astray.",
          'species cation = "Cl[P+:1](Cl)(Cl)Cl"\n'
          'species chloride = "[Cl-:2]"\n'
          'step "chloride adds"\n'
@@ -384,8 +388,10 @@ CODES = _table(
          'end'),
     Code("AR511", WARNING, "unstabilised primary carbocation, silylium or sulfonyl cation",
          "A step leaves a methyl or primary carbocation with no neighbouring lone pair, pi bond or arene "
-         "to spread the charge. Such cations are not intermediates in solution (common practice: SN1 "
-         "and E1 go through tertiary, secondary, allylic or benzylic cations; Markovnikov's rule). "
+         "to spread the charge, nor a CH2 bonded to a d-block metal beside it (an alkene's pi pair into "
+         "the metal: the cation bridged to it). Such cations are not intermediates in solution (common "
+         "practice: SN1 and E1 go through tertiary, secondary, allylic or benzylic cations; Markovnikov's "
+         "rule). "
          "Likewise a bare three-coordinate silicon cation (R3Si+, a silylium ion) or sulfonyl cation "
          "(RSO2+) made by a step: a silyl or sulfonyl group moves by a nucleophile's attack at Si or S "
          "(a pentacoordinate silicate, as in a Peterson elimination; an addition at S), not set free "
@@ -494,7 +500,8 @@ CODES = _table(
          "Beckmann rearrangements); a suprafacial thermal [1,3]-shift of hydrogen is forbidden by the "
          "Woodward-Hoffmann rules. The message counts the atoms between; a longer shift is written as "
          "successive 1,2-shifts (a transannular shift across a medium ring is known). A pericyclic step "
-         "is not judged.",
+         "is not judged, nor a group passed from or to a metal or metalloid across one bridging atom (a "
+         "transmetalation, a sigma-bond metathesis).",
          'species cation = "[CH3:1][CH+:2][CH2:3][CH:4]([CH3:5])[CH3:6]"\n'
          'step "hydride shift"\n'
          '    C4-H -> C2-H(C4)   # C4 is not C2\'s neighbour: two 1,2-shifts, through C3\n'

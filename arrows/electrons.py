@@ -906,17 +906,24 @@ def _settle(state: ElectronState, step: Step, step_index: int, replay: _StepRepl
 
 def _polar_step_in_fishhooks(state: ElectronState, step: Step, replay: "_StepReplay") -> bool:
     """Whether every arrow of the step is a fishhook though nothing in it is a radical's: no arrow
-    starts at an unpaired electron and no bond sends one electron to each of its own atoms (a
-    homolysis), while one starts at a lone pair (the proton transfer of a polar step written in
-    fishhooks: `:O4 ~> H(C3)`, `C3-H ~> C2=C3`)."""
+    starts at an unpaired electron, no bond sends one electron to each of its own atoms (a
+    homolysis) and no lone pair hands an electron over with no bond made (an electron transfer,
+    `:Mg1 ~> :Br3`), while one starts at a lone pair (the proton transfer of a polar step written in
+    fishhooks: `:O4 ~> H(C3)`, `C3-H ~> C2=C3`; bromide taking Br+ from NBS as the N-Br pair goes on
+    into C=N and the C=O pair onto its O: `C12=O11 ~> O11` is half a pair arrow, not a homolysis)."""
     moves = step.moves
     if not moves or any(m.electrons != 1 or isinstance(m.source, UnpairedElectron) for m in moves):
         return False
-    if not any(isinstance(m.source, LonePair) for m in moves):
+    lone_pairs = [m for m in moves if isinstance(m.source, LonePair)]
+    if not lone_pairs or any(isinstance(m.sink, NonbondingSink) for m in lone_pairs):
         return False
-    own_ends = [m for m in moves if isinstance(m.source, BondPair) and isinstance(m.sink, (AtomSink, NonbondingSink))
-                and replay.resolve(m.sink.atom) in {replay.resolve(m.source.bond.first), replay.resolve(m.source.bond.second)}]
-    return not own_ends
+    ends_reached: dict[frozenset, set] = {}
+    for m in moves:
+        if isinstance(m.source, BondPair) and isinstance(m.sink, (AtomSink, NonbondingSink)):
+            ends = frozenset((replay.resolve(m.source.bond.first), replay.resolve(m.source.bond.second)))
+            if replay.resolve(m.sink.atom) in ends:
+                ends_reached.setdefault(ends, set()).add(replay.resolve(m.sink.atom))
+    return not any(reached == ends for ends, reached in ends_reached.items())
 
 
 def _radical_adds_hint(state: ElectronState, step: Step, replay: "_StepReplay", key: Pair) -> Optional[str]:

@@ -14,6 +14,7 @@ from ..diagnostics import Diagnostic
 from ..trace import StepTrace
 from . import Check
 from .leaving import in_small_ring
+from .valence import D_BLOCK
 
 
 def trans_across(mol: Chem.Mol, first: int, a: int, b: int, second: int) -> Optional[bool]:
@@ -123,13 +124,22 @@ class CationShiftDirection(Check):
                 atoms=(label(migrating), label(destination), label(origin)), step=st.index)
 
 
+# Metals and metalloids between which a group passes through a four-centre array (M-X-M'-R to
+# M-R with X on M'): transmetalation (an aryl from boron to palladium over the Pd-O-B bridge of a
+# Suzuki coupling, from zinc or tin to palladium) and sigma-bond metathesis (Hartwig, Organotransition
+# Metal Chemistry, from memory). The d block (groups 3-12), Li, B, Mg, Al, Si, Sn.
+_TRANSMETALATING = D_BLOCK | {3, 5, 12, 13, 14, 50}
+
+
 class ShiftBetweenNeighbours(Check):
     """AR519: a group (a hydrogen with its pair, an alkyl or aryl group) moved in one step to an
     electron-poor atom of its own molecule that is not a neighbour of the atom it leaves: a
     carbocation, or an atom whose leaving group departs in the same step. Such shifts are 1,2
     (common practice: hydride and alkyl shifts of the Wagner-Meerwein and pinacol rearrangements,
     the Baeyer-Villiger and Beckmann migrations); a suprafacial thermal [1,3]-shift of hydrogen is
-    forbidden by the Woodward-Hoffmann rules. A pericyclic step is not judged."""
+    forbidden by the Woodward-Hoffmann rules. A pericyclic step is not judged, nor a group passed
+    from or to a metal or metalloid across one bridging atom (a transmetalation, a sigma-bond
+    metathesis: a four-centre exchange, not a cation's 1,3-shift)."""
     name = "shift between neighbours"
     codes = ("AR519",)
 
@@ -148,6 +158,8 @@ class ShiftBetweenNeighbours(Check):
             path = Chem.GetShortestPath(mol, origin, destination)
             if not path:
                 continue   # another molecule: a transfer, not a shift
+            if len(path) == 3 and _TRANSMETALATING.intersection((before.elements[origin], before.elements[destination])):
+                continue   # a four-centre exchange at a metal (Pd-O-B-Ar to Pd-Ar): a transmetalation
             if not (_electron_poor(before, destination) or _loses_leaving_group(st, destination)):
                 continue
             label = before.label

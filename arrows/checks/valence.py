@@ -29,11 +29,19 @@ _HYPERVALENT = {14: "Si", 15: "P", 16: "S", 17: "Cl", 33: "As", 34: "Se", 35: "B
 # Hg) keeps its full d shell out of RDKit's count and never nears either limit.
 _TRANSITION_METALS = frozenset(range(21, 30)) | frozenset(range(39, 48)) | {57} | frozenset(range(72, 80)) \
     | {89} | frozenset(range(104, 112))
+# The whole d block, group 12 (Zn, Cd, Hg) with it.
+D_BLOCK = _TRANSITION_METALS | {30, 48, 80, 112}
+# The lanthanides and actinides, whose bonding is ionic, the f electrons held in the core: no
+# electron count of theirs means a shell filled (a samarium(III) alkoxide made by SmI2 books nine,
+# an ordinary species; Molander, Chem. Rev. 1992, from memory).
+_F_BLOCK = frozenset(range(58, 72)) | frozenset(range(90, 104))
 
 
-def shell_limit(atomic_num: int) -> int:
+def shell_limit(atomic_num: int) -> Optional[int]:
     """The valence electrons an atom holds before AR504 asks for a second look: 18 for a d-block
-    metal of groups 3-11, 8 otherwise."""
+    metal of groups 3-11, none for the f block, 8 otherwise."""
+    if atomic_num in _F_BLOCK:
+        return None
     return 18 if atomic_num in _TRANSITION_METALS else 8
 
 
@@ -51,7 +59,9 @@ _DONORS = frozenset(_RARELY_SEXTET)
 def unstabilised_primary_cation(mol, i: int) -> bool:
     """Whether carbon i, a carbocation, is methyl or primary (at most one carbon neighbour) with
     nothing beside it to spread the charge: no heteroatom with a lone pair, no pi bond or arene
-    (allyl and benzyl cations are stabilised)."""
+    (allyl and benzyl cations are stabilised), no CH2 bonded to a d-block metal (the open form of
+    an alkene's pi complex, the cation bridged to the metal as the mercurinium ion of an
+    oxymercuration is: common practice)."""
     atom = mol.GetAtomWithIdx(i)
     if any(b.GetBondTypeAsDouble() > 1 for b in atom.GetBonds()):
         return False   # an acylium or vinyl cation: not an sp3 primary cation
@@ -66,7 +76,19 @@ def unstabilised_primary_cation(mol, i: int) -> bool:
                 return False
             if _in_three_ring(mol, n.GetIdx()):
                 return False   # a cyclopropylcarbinyl cation: the ring's bent bonds hold the charge (textbook)
+            if _bridged_to_metal(n):
+                return False
     return carbons <= 1
+
+
+def _bridged_to_metal(neighbour) -> bool:
+    """Whether `neighbour`, the carbon beside a carbocation, is bonded to a d-block metal and to no
+    other carbon: the alkene's pi pair written into the metal (the stand-in for an eta-2 complex or
+    a mercurinium ion), the cation bridged to the metal. Where the metal's carbon is the more
+    substituted one, the charge belongs there and the open form is the wrong way round
+    (Markovnikov: the mercurinium ion of propene opens at its inner carbon)."""
+    atoms = neighbour.GetNeighbors()
+    return any(m.GetAtomicNum() in D_BLOCK for m in atoms) and sum(m.GetAtomicNum() == 6 for m in atoms) == 1
 
 
 def _in_three_ring(mol, atom: int) -> bool:
@@ -463,6 +485,29 @@ def _doubly_bonded(state, i: int) -> Optional[int]:
                  if state.bond_electrons(i, n.GetIdx()) == 4), None)
 
 
+def _metal_charge_as_written(state: ElectronState, i: int, charge: int) -> bool:
+    """Whether a charge of magnitude two or more on atom i is how its metal is written, not a slip:
+    an ionic metal (Mg2+, Zn2+); a bare d- or f-block ion with no bond (Fe3+ of the Fenton reaction,
+    Ce4+ of CAN: single-electron oxidants, common practice); a d-block metal whose negative charge
+    the onium atoms bonded to it balance (a phosphine or amine ligand written as an onium-ate pair,
+    P+ to Pd-, the language's only way to write a dative bond: Pd(PMe3)2 is [Pd-2] between two P+,
+    as common practice writes such complexes)."""
+    element = state.elements[i]
+    if element in _IONIC_METALS:
+        return True
+    if element not in D_BLOCK and element not in _F_BLOCK:
+        return False
+    atom = state.mol.GetAtomWithIdx(i)
+    if atom.GetDegree() == 0 and atom.GetTotalNumHs() == 0:
+        return True
+    onium = sum(max(state.formal_charge(n.GetIdx()), 0) for n in atom.GetNeighbors())
+    return element in D_BLOCK and charge < 0 and onium >= -charge
+
+
+# Halogens that expand their octet as anions of even count (I3-, ICl2-) or with fluorine (BrF3).
+_HALOGENS = frozenset({17, 35, 53})
+
+
 class UnusualElectronCounts(Check):
     name = "unusual electron counts"
     codes = ("AR503", "AR504", "AR505", "AR511", "AR513", "AR514", "AR528", "AR533")
@@ -479,7 +524,7 @@ class UnusualElectronCounts(Check):
         for i, old_charge, charge in st.change.charges:
             # As for the shell below: a charge the species was written with and the step keeps
             # (a sulfonyl S written S2+ with two O-) is not the step's doing.
-            if abs(charge) >= 2 and after.elements[i] not in _IONIC_METALS:
+            if abs(charge) >= 2 and not _metal_charge_as_written(after, i, charge):
                 label = after.label(i)
                 yield Diagnostic("AR503", f"{label} ends the step with formal charge {charge:+d}", st.step.loc,
                                  hint=f"a formal charge of {charge:+d} on one atom is rare; check the moves onto this atom",
@@ -512,7 +557,7 @@ class UnusualElectronCounts(Check):
             # Only a step that expands the shell: a sulfonyl S substituted (an alcohol onto MsCl)
             # keeps the twelve electrons its species was written with.
             limit = shell_limit(element)
-            if shell > limit and element > 10 and shell > old_shell:
+            if limit is not None and shell > limit and element > 10 and shell > old_shell:
                 label = after.label(i)
                 symbol = _HYPERVALENT.get(element)
                 if limit == 18:
@@ -528,6 +573,13 @@ class UnusualElectronCounts(Check):
                         (f"phosphorus with a double bond holds ten (a phosphonate, a phosphine oxide): a new bond "
                          f"to it sends that pair onto {x}, {move} in the same step (the oxaphosphetane of a "
                          f"Horner-Wadsworth-Emmons), or a bond should break")
+                elif element in _HALOGENS and (shell % 2 or after.formal_charge(i) <= -2):
+                    # Hypervalent halogens (I3-, ICl2-, BrF3) hold an even count at charge -1 or above;
+                    # a ninth electron or a second negative charge is an arrow gone astray.
+                    beyond, hint = "expanded octet", \
+                        (f"not hypervalent {symbol}: a halogen beyond eight with an odd count or a charge of -2 "
+                         f"or less has taken electrons meant for elsewhere; a bond to {label} should break in "
+                         f"the same step, or an arrow onto it should end elsewhere")
                 elif symbol:
                     beyond, hint = "expanded octet", \
                         f"fine for hypervalent {symbol} (common practice); otherwise a bond should break"
@@ -540,7 +592,7 @@ class UnusualElectronCounts(Check):
 # d- and f-block metals, whose unpaired electrons are d or f electrons of the metal itself: the
 # paramagnetic salts drawn as Lewis acids or oxidants in polar steps (FeBr3, high-spin iron(III);
 # CuCl2; CeCl3) are written so on purpose.
-_OPEN_SHELL_METALS = _TRANSITION_METALS | frozenset(range(58, 72)) | frozenset(range(90, 104))
+_OPEN_SHELL_METALS = _TRANSITION_METALS | _F_BLOCK
 # Metals of groups 1 and 2, whose ions are cations (Li+, Mg2+).
 _S_BLOCK_METALS = frozenset({3, 4, 11, 12, 19, 20, 37, 38, 55, 56})
 
@@ -564,7 +616,8 @@ def _charge_meant(state: ElectronState, i: int) -> int:
     if element in _S_BLOCK_METALS:
         return 1
     shell = state.nonbonding[i] + 2 * state.bond_sums[i]
-    return -1 if shell + 1 <= shell_limit(element) else 1
+    limit = shell_limit(element)
+    return -1 if limit is not None and shell + 1 <= limit else 1   # (an f-block metal: an electropositive cation)
 
 
 def _written_with_charge(state: ElectronState, i: int, charge: int) -> str:
