@@ -3649,14 +3649,59 @@ class _LayoutBuilder:
         cramped against) the atom it hops to next, to the best direction nearby, the same in
         every panel it stays on its holder: room first, then about TRANSFER_GAP from that
         partner, so the arrow that takes it is neither cramped nor long. Room counts in the
-        panels that draw it (next to the steps that move it)."""
+        panels that draw it (next to the steps that move it).
+
+        A hydrogen drawn on the panel after it arrives and again, after panels that fold it into
+        its holder's label, on the panel before it leaves (an alcohol protonated, then ionised,
+        the water it becomes giving up that proton steps later), for which no one direction is
+        clear of every atom and bond in both, is turned for each stretch on its own: the
+        holder's surroundings differ between them, and no reader sees it move while it is
+        hidden. The stretch before its next hop keeps the direction toward that partner; an
+        earlier one starts pointing back the way it came."""
         r = runs[n]
         stay = [k for k in range(r.first, r.last + 1) if r.holder in self.positions[k] and r.hydrogen in self.positions[k]]
         if not stay or r.direction is None:
             return
         shown = [k for k in stay if self._drawn_in(r.hydrogen, k)]
-        panels = shown or stay
+        direction, roomy = self._untangled(runs, n, shown or stay, r.direction, last=True)
+        stretches = self._shown_stretches(stay, shown) if not roomy else []
+        if len(stretches) > 1:
+            for part, seen in stretches[:-1]:
+                start = r.direction
+                if n > 0 and runs[n - 1].last == r.first - 1 and runs[n - 1].direction is not None:
+                    start = -runs[n - 1].direction
+                turned, _ = self._untangled(runs, n, seen, start, last=False)
+                for k in part:
+                    self.positions[k][r.hydrogen] = self.positions[k][r.holder] + turned
+            stay, seen = stretches[-1]
+            direction, _ = self._untangled(runs, n, seen, r.direction, last=True)
+        elif direction == r.direction:
+            return
+        r.direction = direction
+        for k in stay:
+            self.positions[k][r.hydrogen] = self.positions[k][r.holder] + direction
 
+    @staticmethod
+    def _shown_stretches(stay: list[int], shown: list[int]) -> list[tuple[list[int], list[int]]]:
+        """`stay` cut before each shown panel that follows a hidden one: (its panels, those of
+        them shown), in order. Hidden panels go with the shown ones before them (those before
+        the first shown panel with the first)."""
+        out: list[tuple[list[int], list[int]]] = [([], [])]
+        drawn = set(shown)
+        for previous, k in zip([None] + stay, stay):
+            if k in drawn and previous is not None and previous not in drawn and out[-1][1]:
+                out.append(([], []))
+            out[-1][0].append(k)
+            if k in drawn:
+                out[-1][1].append(k)
+        return out
+
+    def _untangled(self, runs: list[_Residence], n: int, panels: list[int], start: complex, last: bool
+                   ) -> tuple[complex, bool]:
+        """The best direction for the hydrogen of `runs[n]` over `panels`, from `start`, and whether
+        it is clear of every atom and bond there: the search of _untangle. Only the `last`
+        stretch looks at the partner it hops to next."""
+        r = runs[n]
         # Other atoms relative to the holder, over those panels (duplicates dropped; in no
         # particular order, as only their nearest approach is asked for).
         # (A hydrogen another molecule holds but this panel does not draw takes no room; one of
@@ -3668,9 +3713,10 @@ class _LayoutBuilder:
                                   and (self._drawn_in(a, k) or self.cluster_of.get(self._holder(k, a)) == own)}),
                             dtype=complex)
         following = runs[n + 1] if n + 1 < len(runs) else None
+        moves_on = last and following is not None and following.holder is not None and following.first == r.last + 1
         partner = None
-        if (following is not None and following.holder is not None and following.first == r.last + 1
-                and r.last in stay and following.holder in self.positions[r.last]):
+        if (moves_on and r.holder in self.positions[r.last] and r.hydrogen in self.positions[r.last]
+                and following.holder in self.positions[r.last]):
             partner = self.positions[r.last][following.holder] - self.positions[r.last][r.holder]
 
         def room(direction: complex) -> float:
@@ -3679,7 +3725,6 @@ class _LayoutBuilder:
         # A proton taken for good (no hop from this holder follows) has done its part: where its
         # molecule stands by, it keeps clear of the others, as separately placed molecules do
         # (pointing at an atom another molecule is about to lose, it reads as a transfer).
-        moves_on = following is not None and following.holder is not None and following.first == r.last + 1
         aloof = self._others_while_standing_by(r.holder, panels) if not moves_on else np.zeros(0, dtype=complex)
 
         def clear(direction: complex) -> bool:
@@ -3707,8 +3752,8 @@ class _LayoutBuilder:
                     if (max(a.real, b.real) >= -1 and min(a.real, b.real) <= 1
                             and max(a.imag, b.imag) >= -1 and min(a.imag, b.imag) <= 1):
                         walls.add((a, b))
-        crossed_now = any(segments_cross(0j, r.direction, a, b) for a, b in walls)
-        room_now = room(r.direction)
+        crossed_now = any(segments_cross(0j, start, a, b) for a, b in walls)
+        room_now = room(start)
         fed = self._fed_directions(r.hydrogen, r.holder, panels[0])
 
         def cramped(direction: complex) -> bool:
@@ -3737,9 +3782,9 @@ class _LayoutBuilder:
             turn = abs(cmath.phase(direction / lone))
             return (trigonal and turn < _OPEN_ANGLE) or (vertex and turn > _HIDDEN_VERTEX)
 
-        if (room_now >= _HYDROGEN_ROOM and miss(r.direction) == 0.0 and not crossed_now and not cramped(r.direction)
-                and not closed(r.direction) and clear(r.direction)):
-            return
+        if (room_now >= _HYDROGEN_ROOM and miss(start) == 0.0 and not crossed_now and not cramped(start)
+                and not closed(start) and clear(start)):
+            return start, True
         walls = np.array(sorted(walls, key=lambda w: (w[0].real, w[0].imag)), dtype=complex).reshape(-1, 2)
 
         def crossing(directions: list[complex]) -> list[bool]:
@@ -3750,16 +3795,16 @@ class _LayoutBuilder:
         polygons = [[self.positions[k][a] for a in ring] for k in panels for ring in self._closed_rings(k)]
         # Clear of every atom and bond first, then of bonds at least, then not folded, then clear
         # of the molecules its holder's stands beside; among those, room and a comfortable hop.
-        start_score = (not cramped(r.direction), room_now >= _HYDROGEN_ROOM and not crossed_now,
-                       not crossed_now, not closed(r.direction), clear(r.direction),
-                       min(room_now, 1.2) + 0.1 - miss(r.direction))
-        best, best_score = r.direction, start_score
+        start_score = (not cramped(start), room_now >= _HYDROGEN_ROOM and not crossed_now,
+                       not crossed_now, not closed(start), clear(start),
+                       min(room_now, 1.2) + 0.1 - miss(start))
+        best, best_score = start, start_score
         compass = _HYDROGEN_COMPASS
         rooms = (np.minimum.reduce(np.abs(relative - _HYDROGEN_COMPASS_ARRAY[:, None]), axis=1).tolist() if len(relative)
                  else [math.inf] * len(compass))
         for d, space, crossed in zip(compass, rooms, crossing(compass)):
             score = (not cramped(d), space >= _HYDROGEN_ROOM and not crossed, not crossed, not closed(d), clear(d),
-                     min(space, 1.2) + 0.1 * (d / r.direction).real - miss(d))
+                     min(space, 1.2) + 0.1 * (d / start).real - miss(d))
             if not (score[:5] > best_score[:5] or (score[:5] == best_score[:5] and score[5] > best_score[5] + 0.05)):
                 continue
             # Only a direction that would win is asked whether it is allowed at all.
@@ -3770,9 +3815,7 @@ class _LayoutBuilder:
             if any(inside_polygon(self.positions[panels[0]][r.holder] + d, poly) for poly in polygons):
                 continue
             best, best_score = d, score
-        r.direction = best
-        for k in stay:
-            self.positions[k][r.hydrogen] = self.positions[k][r.holder] + best
+        return best, best_score[1]
 
     def _others_while_standing_by(self, holder: int, panels: Sequence[int]) -> np.ndarray:
         """Where the atoms of other molecules drawn stand, relative to `holder`, in those of
