@@ -42,7 +42,9 @@ CODES = _table(
     Code("AR102", ERROR, "SMILES not understood",
          "RDKit could not read the SMILES of a species, checkpoint or product. RDKit's reason is given "
          "in the author's terms: an atom over its valence is named as written ([C-], atom 3 as written), "
-         "the error located at it.",
+         "the error located at it. A dative bond (`->`, which RDKit reads) is refused too: the "
+         "bookkeeping books every bond as one electron from each of its atoms; a ligand is written with "
+         "the charges its pair leaves, C[P+](C)(C)[Pd-] for a phosphine on palladium.",
          'species dione = "CC(=O)CC(C"   # unclosed branch'),
     Code("AR103", ERROR, "map number used twice",
          "Every atom map number must be unique across the whole mechanism, so that a move names one atom.",
@@ -752,6 +754,21 @@ CODES = _table(
          '    C1-H ~> Br3-H(C1)\n'
          '    C1-H ~> C1\n'
          'end'),
+    Code("AR536", WARNING, "hydrogen atom set free",
+         "A step splits a bond to a hydrogen one electron each way and no radical takes the hydrogen: "
+         "it is left a free hydrogen atom. In solution radicals abstract hydrogen (X* + H-R gives X-H + "
+         "R*); they do not set hydrogen atoms free, and H* carries no chain: nothing bonds to it to pay "
+         "for the bond it left (common practice; C-H, O-H and S-H bonds of 87-111 kcal/mol, Blanksby & "
+         "Ellison 2003, from memory). Most often the radical bonds to the atom the hydrogen leaves (a "
+         "chlorine atom onto methane's carbon, SH2) where it should take the hydrogen. A step under light "
+         "(a photolysis) is not judged. Which hydrogen a radical takes is AR535's.",
+         'species methane = "[CH4:1]"\n'
+         'species chlorine = "[Cl:2]"\n'
+         'step "propagation"\n'
+         '    .Cl2 ~> Cl2-C1\n'
+         '    C1-H ~> Cl2-C1\n'
+         '    C1-H ~> H(C1)   # H* set free: Cl2 takes H(C1) instead, giving HCl and CH3*\n'
+         'end'),
     Code("AR601", NOTE, "ring closure",
          "A step closes a ring; its size and Baldwin class are given. A pericyclic step (every arrow "
          "from a bond to a bond, round a closed loop that makes no charge; arrows that all start at "
@@ -765,7 +782,9 @@ CODES = _table(
          "oxygens of a Weinreb amide's adduct) the note calls the ring a chelate. "
          "Baldwin's rules are stated for first-row atoms: a closure at a heavier one (the phosphorus of "
          "an oxaphosphetane, the iodine of a cyclic periodate ester) is given no class (a three- or "
-         "four-membered one still draws AR501).",
+         "four-membered one still draws AR501). A radical's 6-endo-trig closure onto an alkene, favoured "
+         "by Baldwin, names the 5-exo closure onto the same alkene, which radicals usually prefer (the "
+         "hex-5-enyl radical about 98:2; Beckwith, from memory).",
          'species bromobutoxide = "[O-:1][CH2:2][CH2:3][CH2:4][CH2:5][Br:6]"\n'
          'step "ring closure"\n'
          '    :O1 -> C5   # tetrahydrofuran: 5-exo-tet, favoured (a note, not a fault)\n'

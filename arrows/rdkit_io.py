@@ -134,6 +134,10 @@ def reading_hint(reason: str, otherwise: str) -> str:
                 "`*`, for a long chain or a polymer)")
     if reason == _SPACE_REASON:
         return "write the molecules together, separated by `.` with no space (`CC(=O)[O-].[Na+]`)"
+    if reason == _DATIVE_REASON:
+        return ("write the donor's pair as an ordinary bond with the charges it leaves, +1 on the donor and -1 on "
+                "the metal per ligand (the metal's electron count is the same): a phosphine on palladium is "
+                "`C[P+](C)(C)[Pd-]`, Pd(PMe3)2 `C[P+](C)(C)[Pd-2][P+](C)(C)C`")
     if _OVER_VALENCE in reason:
         match = _WRITTEN_VALENCE.match(reason)
         if match and match.group(1) in _ONIUM and int(match.group(4)) == _ONIUM[match.group(1)][0] + 1:
@@ -201,15 +205,47 @@ def smiles_slip(smiles: str) -> Optional[tuple[int, str]]:
     return (gap.start(1), _SPACE_REASON) if gap else None
 
 
+# RDKit's dative bond (`->`, `<-`, or a coordinate bond marked in a CXSMILES extension) is a pair
+# that one atom gives. The bookkeeping books every bond as one electron from each of its atoms
+# (formal charge = V - N - B): it would leave a phosphine's P with one electron of its pair, a
+# radical, and the metal one electron short per ligand. It is refused, and the charge-separated
+# bond (P+ to Pd-), which books the same electrons, is proposed.
+_DATIVE_ARROW = re.compile(r"->|<-")
+_DATIVE_TYPES = frozenset({Chem.BondType.DATIVE, Chem.BondType.DATIVEONE, Chem.BondType.DATIVEL,
+                           Chem.BondType.DATIVER})
+_DATIVE_REASON = ("a dative bond (`->`), which the bookkeeping cannot hold: it books every bond as one electron "
+                  "from each of its atoms, not a pair given by one")
+
+
+def unreadable(what: str, reason: str) -> str:
+    """AR102's message for `what` ("the SMILES of dione"): RDKit's reason for a SMILES it cannot
+    read, or the bookkeeping's for a dative bond, which RDKit reads."""
+    return f"{what} holds {reason}" if reason == _DATIVE_REASON else f"RDKit cannot read {what}: {reason}"
+
+
+def dative_bond(smiles: str, mol: Chem.Mol) -> Optional[int]:
+    """0-based position in `smiles` of the first dative bond `mol` (read from it) holds: its `->`
+    or `<-`, or the `|` of the CXSMILES extension that marks it; None when it holds none."""
+    if "->" not in smiles and "<-" not in smiles and "|" not in smiles:
+        return None   # (most SMILES: no bond needs a look)
+    bond = mol.GetBondWithIdx
+    if not any(bond(k).GetBondType() in _DATIVE_TYPES for k in range(mol.GetNumBonds())):
+        return None
+    arrow = _DATIVE_ARROW.search(smiles)
+    return arrow.start() if arrow else max(smiles.find("|"), 0)
+
+
 def as_written(smiles: str) -> Optional[Chem.Mol]:
-    """`smiles` read as written (hydrogens kept, nothing sanitized), None when RDKit rejects it
-    or would read only part of it (read_smiles says why). For a caller inside its own
-    rdkit_messages() block, which keeps RDKit's log of a rejection: a block per SMILES costs
-    about as much as reading it."""
+    """`smiles` read as written (hydrogens kept, nothing sanitized), None when RDKit rejects it,
+    would read only part of it, or it holds a dative bond (read_smiles says why). For a caller
+    inside its own rdkit_messages() block, which keeps RDKit's log of a rejection: a block per
+    SMILES costs about as much as reading it."""
     if not smiles.strip() or smiles_slip(smiles) is not None:
         return None
     mol = Chem.MolFromSmiles(smiles, _AS_WRITTEN)
-    return None if mol is not None and mol.GetNumAtoms() > MOST_ATOMS else mol
+    if mol is None or mol.GetNumAtoms() > MOST_ATOMS or dative_bond(smiles, mol) is not None:
+        return None
+    return mol
 
 
 def read_smiles(smiles: str, sanitize: bool = True) -> tuple[Optional[Chem.Mol], str, Optional[int]]:
@@ -221,6 +257,9 @@ def read_smiles(smiles: str, sanitize: bool = True) -> tuple[Optional[Chem.Mol],
         mol = Chem.MolFromSmiles(smiles, _AS_WRITTEN) if smiles.strip() else None
         if mol is not None and mol.GetNumAtoms() > MOST_ATOMS:
             return None, f"{mol.GetNumAtoms():,} atoms: a structure may hold at most {MOST_ATOMS:,}{_TOO_MANY_ATOMS}", 0
+        dative = None if mol is None else dative_bond(smiles, mol)
+        if dative is not None:
+            return None, _DATIVE_REASON, dative
         if mol is not None and sanitize:
             try:
                 Chem.SanitizeMol(mol)

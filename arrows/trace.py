@@ -10,7 +10,8 @@ from rdkit import Chem
 from .diagnostics import Diagnostic
 from .electrons import AtomNumbers, ElectronState, StepChange, apply_step
 from .model import AtomRef, BondPair, BondSink, HydrogenOn, Location, Mechanism, Species, Step
-from .rdkit_io import as_written, atom_list, canonical, rdkit_messages, read_smiles, reading_hint, sanitize
+from .rdkit_io import (as_written, atom_list, canonical, rdkit_messages, read_smiles, reading_hint, sanitize,
+                       unreadable)
 
 
 @dataclass
@@ -138,7 +139,7 @@ def read_species(species: Species, explicit_h_on: set[int], pi_bonds: frozenset[
         loc = species.smiles_loc
         if position is not None:
             loc = Location(loc.file, loc.line, loc.column + position)
-        return None, None, [], Diagnostic("AR102", f"RDKit cannot read the SMILES of {species.name}: {reason}", loc,
+        return None, None, [], Diagnostic("AR102", unreadable(f"the SMILES of {species.name}", reason), loc,
                                           hint=reading_hint(reason, "check brackets, ring-closure digits and charges; "
                                                                     "map numbers go inside brackets, e.g. [CH2:3]"))
     count = len(atoms)

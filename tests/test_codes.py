@@ -124,6 +124,27 @@ step "homolysis" under "light"
 end
 '''
 
+# A chlorine atom takes a hydrogen atom from methane: HCl and the methyl radical (the propagation
+# step of methane chlorination; Clayden ch.39, March ch.14, from memory).
+HYDROGEN_ABSTRACTION = '''species methane = "[CH4:1]"
+species chlorine = "[Cl:2]"
+step "hydrogen abstraction"
+    .Cl2 ~> Cl2-H(C1)
+    C1-H ~> Cl2-H(C1)
+    C1-H ~> C1
+end
+'''
+
+# Bromobenzene adds to Pd(PMe3)2 (oxidative addition; Hartwig, Organotransition Metal Chemistry
+# ch.6, from memory), each phosphine written with the charges its pair leaves (P+ to Pd-).
+OXIDATIVE_ADDITION = '''species pd = "C[P+](C)(C)[Pd-2:1][P+](C)(C)C"
+species arene = "c1ccc[c:3](c1)[Br:2]"
+step "oxidative addition"
+    :Pd1 -> C3
+    C3-Br2 -> Pd1-Br2
+end
+'''
+
 # Formate hands its hydride to an iminium ion (the last step of an Eschweiler-Clarke methylation).
 FORMATE_HYDRIDE = '''species formate = "[H:4][C:5](=[O:6])[O-:7]"
 species iminium = "[CH2:2]=[N+:1](C)C"
@@ -353,6 +374,12 @@ TWINS = [
     # character dropped unsaid (SMILES is plain ASCII, OpenSMILES).
     Twin("species SMILES with a character SMILES does not use", SN2, '"[CH3:2][Br:3]"', '"[CH3:2][Br:3]\u00fc"',
          "AR102", "\u00fc", says=("not a SMILES character",), hint_says=("delete the character",)),
+    # The same phosphines as RDKit writes them, P->Pd: the bookkeeping books a bond as one electron
+    # from each atom (formal charge = V - N - B, IUPAC Gold Book), which left each P a radical and Pd
+    # two electrons short per ligand. Refused where the arrow stands; the hint writes P+ to Pd-.
+    Twin("species SMILES with a dative bond", OXIDATIVE_ADDITION, '"C[P+](C)(C)[Pd-2:1][P+](C)(C)C"',
+         '"CP(C)(C)->[Pd:1]<-P(C)(C)C"', "AR102", "->[Pd", says=("dative bond",),
+         hint_says=("`C[P+](C)(C)[Pd-]`",)),
     Twin("checkpoint SMILES with a space inside", SN2, 'product "CO.[Br-]"', 'product "CO [Br-]"', "AR102",
          " [Br-]", says=("space",), hint_says=("`.`",)),
     Twin("map number used twice", SN2, '"[OH-:1]"', '"[OH-:3]"', "AR103", "[Br:3]", says=("line 1",)),
@@ -681,6 +708,12 @@ TWINS = [
          "C2=C3 -> C3-H(O7)", "C2=C3 -> C2-H(O7)",
          "AR533", "C2=C3 -> C2-H(O7)", says=("C2", "O1", "C3", "oxocarbenium"),
          hint_says=("`C2=C3 -> C3-H(O7)`", "`:O1 -> O1=C2`")),
+    # Cl* bonding to methane's carbon and letting H* go (SH2 at carbon): radicals abstract hydrogen
+    # and do not set hydrogen atoms free in solution (common practice).
+    Twin("hydrogen atom set free", HYDROGEN_ABSTRACTION,
+         "    .Cl2 ~> Cl2-H(C1)\n    C1-H ~> Cl2-H(C1)\n    C1-H ~> C1\n",
+         "    .Cl2 ~> Cl2-C1\n    C1-H ~> Cl2-C1\n    C1-H ~> H(C1)\n", "AR536", "C1-H ~> H(C1)",
+         says=("H(C1)", "C1", "free hydrogen atom"), hint_says=("`.Cl2 ~> Cl2-H(C1)`",)),
     # A glycoside model (2-methoxytetrahydropyran) opens in acid: the leaving O is protonated as it
     # leaves, by a general acid in a glycosidase (lysozyme's Glu35; Berg/Stryer, from memory).
     # Pushed out unprotonated it would leave as methoxide: acetals are stable to base.

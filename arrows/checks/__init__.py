@@ -61,7 +61,7 @@ def _registry() -> list[Check]:
         from .conservation import ChargeAndAtomsConserved
         from .leaving import ConcertedAcylSubstitution, StrongBaseLeavingGroups, TertiarySubstitution
         from .pericyclic import ForbiddenPericyclic
-        from .radicals import UphillHydrogenAtomTransfers
+        from .radicals import FreeHydrogenAtoms, UphillHydrogenAtomTransfers
         from .protons import (BareProtons, CarbeneFromCH, CHPairBondsAsProtonGoes, FourCentreProtonTransfers,
                               OniumBesideAte, UphillProtonTransfers)
         from .ring_eliminations import RingEliminationGeometry
@@ -79,7 +79,8 @@ def _registry() -> list[Check]:
                                WrittenConfigurationMatches, RingEliminationGeometry, ForbiddenPericyclic,
                                StrainedCumulenes, CarbeneFromCH, FourCentreProtonTransfers,
                                CHPairBondsAsProtonGoes, UnpairedElectronsInPolarMechanism, OniumBesideAte,
-                               SigmaComplexesRearomatise, UphillHydrogenAtomTransfers])
+                               SigmaComplexesRearomatise, UphillHydrogenAtomTransfers,
+                               FreeHydrogenAtoms])
     return [cls() for cls in _CHECK_CLASSES]
 
 

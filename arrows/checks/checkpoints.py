@@ -12,7 +12,7 @@ from ..diagnostics import Diagnostic
 from ..electrons import ElectronState, Pair, StepChange, atom_label, order_word, pair
 from ..judgement.perception import RecentViews
 from ..model import Checkpoint, Location
-from ..rdkit_io import atom_list, nuclide, rdkit_messages, read_smiles, reading_hint, sanitize
+from ..rdkit_io import atom_list, nuclide, rdkit_messages, read_smiles, reading_hint, sanitize, unreadable
 from ..trace import StepTrace
 from . import Check, Ending
 
@@ -185,7 +185,7 @@ def compare(state: ElectronState, checkpoint: Checkpoint, code: str, step: Optio
         loc = checkpoint.loc
         if position is not None and checkpoint.smiles_loc.line:
             loc = Location(checkpoint.smiles_loc.file, checkpoint.smiles_loc.line, checkpoint.smiles_loc.column + position)
-        return [Diagnostic("AR102", f"RDKit cannot read the checkpoint SMILES: {reason}", loc,
+        return [Diagnostic("AR102", unreadable("the checkpoint SMILES", reason), loc,
                            hint=reading_hint(reason, "check brackets, ring-closure digits and charges"), step=step)]
     derived = _derived_fragments(state, maps, views)
     # Equal canonical SMILES means an equal number of atoms: only pieces of a written size are

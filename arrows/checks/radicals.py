@@ -1,4 +1,5 @@
-"""A radical taking a hydrogen atom across a bond much stronger than the one it makes (AR535).
+"""Radical steps: a radical taking a hydrogen atom across a bond much stronger than the one it
+makes (AR535), and a hydrogen atom set free (AR536).
 
 A hydrogen-atom transfer `X. + H-Y -> X-H + .Y` (three fishhooks: `.X ~> X-H(Y)`, `Y-H ~> X-H(Y)`,
 `Y-H ~> Y`) is downhill or nearly so when the bond made is at least as strong as the bond broken:
@@ -7,7 +8,15 @@ runs through steps no more than about 15 kcal/mol uphill (bromine atoms take a p
 13 uphill, slowly; common practice, from memory); a step further uphill is not a chain step (a
 bromine atom taking a vinylic C-H, 24 uphill; a tin radical taking a C-H). Values from
 judgement/bond_energies.py; a transfer whose bond is not in that table is not judged, nor one that
-is not a hydrogen atom moving alone (a hydride, a proton)."""
+is not a hydrogen atom moving alone (a hydride, a proton).
+
+A step that splits a bond to a hydrogen one electron each way, with no radical taking the
+hydrogen, leaves a free hydrogen atom. In solution radicals abstract hydrogen; they do not set
+hydrogen atoms free, and H* carries no chain (common practice): nothing bonds to the hydrogen to
+pay for the X-H bond it leaves (87-111 kcal/mol for the C-H, O-H, S-H and H-halogen bonds of chain
+reactions; Blanksby & Ellison 2003, from memory). Written so, a step is most often a substitution
+at the atom the hydrogen leaves (a chlorine atom bonding to the carbon of methane, SH2) where the
+radical should take the hydrogen. A step under light (a photolysis) is not judged."""
 from __future__ import annotations
 
 from typing import Iterator, Optional
@@ -15,10 +24,12 @@ from typing import Iterator, Optional
 from rdkit import Chem
 
 from ..diagnostics import Diagnostic
+from ..electrons import bond_label, nameable
 from ..judgement.bond_energies import BondEnergy, x_h_energy
 from ..judgement.perception import Perceived
 from ..trace import StepTrace
 from . import Check
+from .pericyclic import photochemical
 
 HAT_UPHILL_KCAL = 15.0   # kcal/mol: a hydrogen-atom transfer further uphill than this is flagged
 
@@ -87,3 +98,59 @@ def _weakest_other(view: Perceived, state, giver: int, lost: BondEnergy) -> Opti
         if energy is not None and energy.kcal <= lost.kcal - 5 and (best is None or energy.kcal < best[1].kcal):
             best = (view.original[k], energy)
     return best
+
+
+def freed_hydrogen_atoms(st: StepTrace) -> list[int]:
+    """The hydrogens this step leaves as free atoms: bonded before it, and after it with no bond,
+    no charge and one electron."""
+    after = st.after
+    if after is None:
+        return []
+    elements = st.before.elements
+    found = []
+    for bond in st.change.broken:
+        for h in bond:
+            if elements[h] == 1 and h not in found and after.nonbonding[h] == 1 and after.formal_charge(h) == 0 \
+                    and after.mol.GetAtomWithIdx(h).GetDegree() == 0:
+                found.append(h)
+    return found
+
+
+class FreeHydrogenAtoms(Check):
+    """AR536: a step sets a hydrogen atom free (see the module's account)."""
+    name = "free hydrogen atoms"
+    codes = ("AR536",)
+
+    def step(self, st: StepTrace, context) -> Iterator[Diagnostic]:
+        freed = freed_hydrogen_atoms(st)
+        if not freed or photochemical(st):
+            return
+        label = st.before.label
+        for h in freed:
+            holder = next(i for bond in st.change.broken if h in bond for i in bond if i != h)
+            loc = next((m.move.loc for m in st.change.moves if m.sink_atoms == (h,)), st.step.loc)
+            yield Diagnostic(
+                "AR536", f"{label(h)} leaves {label(holder)} as a free hydrogen atom: no radical takes it in this "
+                f"step", loc, hint=_abstraction_hint(st, h, holder), atoms=(label(h), label(holder)), step=st.index)
+
+
+def _abstraction_hint(st: StepTrace, h: int, holder: int) -> str:
+    """The hydrogen-atom transfer written out: by the radical whose electron the step moves, when
+    there is one and the atoms can be named."""
+    before = st.before
+    radical = _radical_of_step(st, holder)
+    why = "radicals abstract hydrogen; a hydrogen atom is not set free in solution (common practice)"
+    if radical is None or not (nameable(before.mol, h) and nameable(before.mol, holder)):
+        return (f"let a radical X take the hydrogen in the step that breaks the bond: {why}; a photolysis is "
+                f"written with its light (`over \"hv\"`) and not judged")
+    x, hydrogen, y = before.label(radical), before.label(h), before.label(holder)
+    bond = bond_label(before.mol, holder, h)
+    return (f"let {x} take the hydrogen instead, `.{x} ~> {x}-{hydrogen}`, `{bond} ~> {x}-{hydrogen}` and "
+            f"`{bond} ~> {y}`: {why}")
+
+
+def _radical_of_step(st: StepTrace, holder: int) -> Optional[int]:
+    """A nameable atom (not `holder`) whose unpaired electron one of the step's arrows moves."""
+    mol = st.before.mol
+    return next((m.source_atoms[0] for m in st.change.moves if m.source_kind == "unpaired"
+                 and m.source_atoms[0] != holder and nameable(mol, m.source_atoms[0])), None)

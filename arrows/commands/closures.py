@@ -17,7 +17,7 @@ from ._args import LocatedPath
 from ..electrons import atom_label
 from ..judgement.closures import Closure, candidate_closures, with_atom_maps
 from ..judgement.skeleton import product_fragment, skeleton
-from ..rdkit_io import read_smiles, reading_hint
+from ..rdkit_io import read_smiles, reading_hint, unreadable
 from .output import emit, refuse_unsafe_outputs
 
 DRAWING_SUFFIXES = (".svg", ".png")
@@ -42,7 +42,7 @@ class _BadInput(Exception):
 def _from_smiles(smiles: str, where: str, line: int = 1, column: int = 1) -> Chem.Mol:
     mol, reason, position = read_smiles(smiles)
     if mol is None:
-        raise _BadInput(f"{where}:{line}:{column + (position or 0)}", f"AR102 RDKit cannot read the SMILES: {reason}",
+        raise _BadInput(f"{where}:{line}:{column + (position or 0)}", f"AR102 {unreadable('the SMILES', reason)}",
                         reading_hint(reason, "check brackets, ring-closure digits and charges"))
     _refuse_repeated_maps(mol, smiles, where, line, column)
     return mol

@@ -9,7 +9,7 @@ from pathlib import Path
 import click
 
 from ..numbering import numbered, numbered_smiles
-from ..rdkit_io import reading_hint
+from ..rdkit_io import reading_hint, unreadable
 from .output import cannot_write
 
 STARTER_SMILES = "CC(C)=O"   # acetone: a demo species to replace with your own
@@ -78,7 +78,7 @@ def new_command(name, species_smiles, smiles):
     except ValueError as exc:
         column = (getattr(exc, "position", None) or 0) + 1
         hint = reading_hint(str(exc), "check brackets, ring-closure digits and charges")
-        click.echo(f"<SMILES>:1:{column}: error AR102 RDKit cannot read the SMILES: {exc}\n"
+        click.echo(f"<SMILES>:1:{column}: error AR102 {unreadable('the SMILES', str(exc))}\n"
                    f"    hint: {hint}", err=True)
         sys.exit(2)
     try:

@@ -9,7 +9,7 @@ import click
 
 from ._args import LocatedPath
 from ..numbering import numbered, numbered_smiles
-from ..rdkit_io import reading_hint
+from ..rdkit_io import reading_hint, unreadable
 from .output import emit
 
 FIGURE_SUFFIXES = (".svg", ".png")
@@ -38,7 +38,7 @@ def number_command(smiles, first, output):
     except ValueError as exc:
         column = (getattr(exc, "position", None) or 0) + 1
         hint = reading_hint(str(exc), "check brackets, ring-closure digits and charges")
-        click.echo(f"<SMILES>:1:{column}: error AR102 RDKit cannot read the SMILES: {exc}\n"
+        click.echo(f"<SMILES>:1:{column}: error AR102 {unreadable('the SMILES', str(exc))}\n"
                    f"    hint: {hint}", err=True)
         sys.exit(2)
     if ":" in smiles and re.search(r"\[[^\]]*:\d+\]", smiles):
