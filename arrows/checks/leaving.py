@@ -39,7 +39,7 @@ from ..electrons import nameable
 from ..judgement.acidity import ALKOXIDE_ACID_PKA, HYDROGEN, Acidity, acidity_of, perceived
 from ..trace import StepTrace
 from . import Check
-from .protons import freed_protons
+from .protons import freed_hydrogens
 
 STRONGEST_LEAVING_BASE = 35.0   # pKa of the conjugate acid from which a leaving group is flagged
 _JUDGED = (1, 6, 7, 8)   # H, C, N and O (as oxide, O2-): the elements whose anions can be this basic
@@ -243,7 +243,7 @@ class StrongBaseLeavingGroups(Check):
             # protonating methanol as hydroxide leaves: MeOH2+ and HO- made side by side).
             # A proton this step throws off with no base (AR518's) is the missing base's slip, not
             # an acid standing by.
-            strong = _strong_acid(st.after, {leaving} | set(freed_protons(st)), apart_from=centre)
+            strong = _strong_acid(st.after, {leaving} | set(freed_hydrogens(st)), apart_from=centre)
         acid = conjugate_acid(st.after.mol, leaving) if strong is not None else None
         if acid is None or not ALKOXIDE_ACID_PKA <= acid.pka < STRONGEST_LEAVING_BASE:
             return None

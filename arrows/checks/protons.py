@@ -454,9 +454,10 @@ def _credited_diagnostic(st: StepTrace, t: ProtonTransfer, gap: float) -> Diagno
         atoms=(b, x), step=st.index)
 
 
-def freed_protons(st: StepTrace) -> list[int]:
-    """The hydrogens this step leaves bare: bonded before it, with no bond and a positive charge after
-    it (an X-H pair sent to X or into a new bond, and no base's arrow to the hydrogen)."""
+def freed_hydrogens(st: StepTrace, charge: int = 1) -> list[int]:
+    """The hydrogens this step sets free with formal charge `charge`: bonded before it, with no bond
+    after it. Charge +1, a bare proton (an X-H pair sent to X or into a new bond, and no base's
+    arrow to the hydrogen); 0, a hydrogen atom (the bond split one electron each way)."""
     after = st.after
     if after is None:
         return []
@@ -464,7 +465,7 @@ def freed_protons(st: StepTrace) -> list[int]:
     found = []
     for pair_ in st.change.broken:
         for h in pair_:
-            if elements[h] == 1 and h not in found and after.formal_charge(h) == 1 \
+            if elements[h] == 1 and h not in found and after.formal_charge(h) == charge \
                     and after.mol.GetAtomWithIdx(h).GetDegree() == 0:
                 found.append(h)
     return found
@@ -504,7 +505,7 @@ class BareProtons(Check):
     codes = ("AR518",)
 
     def step(self, st: StepTrace, context) -> Iterator[Diagnostic]:
-        for h in freed_protons(st):
+        for h in freed_hydrogens(st):
             label = st.before.label
             holder = next(i for pair_ in st.change.broken if h in pair_ for i in pair_ if i != h)
             hydrogen = label(h)

@@ -30,6 +30,7 @@ from ..judgement.perception import Perceived
 from ..trace import StepTrace
 from . import Check
 from .pericyclic import photochemical
+from .protons import freed_hydrogens
 
 HAT_UPHILL_KCAL = 15.0   # kcal/mol: a hydrogen-atom transfer further uphill than this is flagged
 
@@ -100,29 +101,13 @@ def _weakest_other(view: Perceived, state, giver: int, lost: BondEnergy) -> Opti
     return best
 
 
-def freed_hydrogen_atoms(st: StepTrace) -> list[int]:
-    """The hydrogens this step leaves as free atoms: bonded before it, and after it with no bond,
-    no charge and one electron."""
-    after = st.after
-    if after is None:
-        return []
-    elements = st.before.elements
-    found = []
-    for bond in st.change.broken:
-        for h in bond:
-            if elements[h] == 1 and h not in found and after.nonbonding[h] == 1 and after.formal_charge(h) == 0 \
-                    and after.mol.GetAtomWithIdx(h).GetDegree() == 0:
-                found.append(h)
-    return found
-
-
 class FreeHydrogenAtoms(Check):
     """AR536: a step sets a hydrogen atom free (see the module's account)."""
     name = "free hydrogen atoms"
     codes = ("AR536",)
 
     def step(self, st: StepTrace, context) -> Iterator[Diagnostic]:
-        freed = freed_hydrogen_atoms(st)
+        freed = freed_hydrogens(st, charge=0)
         if not freed or photochemical(st):
             return
         label = st.before.label
