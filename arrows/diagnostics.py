@@ -769,6 +769,19 @@ CODES = _table(
          '    C1-H ~> Cl2-C1\n'
          '    C1-H ~> H(C1)   # H* set free: Cl2 takes H(C1) instead, giving HCl and CH3*\n'
          'end'),
+    Code("AR537", WARNING, "aromatic ring oxygen used as a nucleophile",
+         "The lone pair of a furan-type oxygen (two ring bonds, in a ring RDKit perceives as aromatic) "
+         "makes a bond to an atom outside its ring. That pair is part of the ring's aromatic sextet: "
+         "bonded, it makes an oxonium ion and gives the aromaticity up. Furans react at a ring carbon "
+         "next to the oxygen (C2 or C5) with electrophiles, and as dienes in cycloadditions (Joule & "
+         "Mills, Heterocyclic Chemistry; from memory). A pyrrole-type nitrogen (an indole's N-Mannich "
+         "reaction) and a thiophene's sulfur (oxidised at S) are not judged.",
+         'species furan = "[O:1]1[CH:2]=[CH:3][CH:4]=[CH:5]1"\n'
+         'species acylium = "C[C:6]#[O+:7]"\n'
+         'step "acylation"\n'
+         '    :O1 -> O1-C6   # the ring O\'s pair is aromatic: attack at C2 (`C2=C3 -> C2-C6`)\n'
+         '    C6#O7 -> O7\n'
+         'end'),
     Code("AR601", NOTE, "ring closure",
          "A step closes a ring; its size and Baldwin class are given. A pericyclic step (every arrow "
          "from a bond to a bond, round a closed loop that makes no charge; arrows that all start at "

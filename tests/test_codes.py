@@ -732,6 +732,13 @@ TWINS = [
          "    .Br7 ~> Br7-H(C3)\n    C3-H ~> Br7-H(C3)\n    C3-H ~> C3\n",
          "    .Br7 ~> Br7-H(C2)\n    C2-H ~> Br7-H(C2)\n    C2-H ~> C2\n",
          "AR535", ".Br7 ~> Br7-H(C2)", says=("Br7", "C2", "vinylic"), hint_says=("C3",)),
+    # An acylium ion takes furan at C2, the ring O's pair pushing in (Joule & Mills, from memory);
+    # the O's lone pair is part of the aromatic sextet and does not bond the acylium itself.
+    Twin("aromatic ring oxygen used as a nucleophile",
+         'species furan = "[O:1]1[CH:2]=[CH:3][CH:4]=[CH:5]1"\nspecies acylium = "[CH3:6][C:7]#[O+:8]"\n'
+         'step "attack at C2"\n    :O1 -> O1=C5\n    C4=C5 -> C3=C4\n    C2=C3 -> C2-C7\n    C7#O8 -> O8\nend\n',
+         "    :O1 -> O1=C5\n    C4=C5 -> C3=C4\n    C2=C3 -> C2-C7\n", "    :O1 -> O1-C7\n",
+         "AR537", ":O1 -> O1-C7", says=("O1", "C7", "aromatic"), hint_says=("C2 or C5",)),
 ]
 
 

@@ -417,3 +417,46 @@ def test_the_nadh_hydride_from_c4_is_clean():
 def test_a_hydride_taken_from_the_sp2_c2_of_nadh_hints_at_c4():
     d = only(NADH.format(moves="    :N1 -> N1=C2\n    C2-H -> C20-H(C2)\n"), "AR523")
     assert "hydrogen of C2, an sp2 carbon" in d.hint and "sp3 carbon holding hydrogen is C4" in d.hint
+
+
+# --- 7. A furan's ring oxygen used as a nucleophile (AR537) --------------------------------------
+# Benzyne, made from a 2-(trimethylsilyl)phenyl triflate by fluoride, is trapped by furan as a
+# diene (Kobayashi conditions; Clayden ch. 22, from memory). Drawn with the furan's oxygen lone
+# pair bonding to the benzyne, the O's pair is taken out of the aromatic sextet (an oxonium ion).
+BENZYNE_FURAN = '''species precursor = "[CH3:30][Si:20]([CH3:31])([CH3:32])[C:1]1=[C:2]([O:21][S:22](=O)(=O)C(F)(F)F)[CH:3]=[CH:4][CH:5]=[CH:6]1"
+species fluoride  = "[F-:40]"
+species furan     = "[O:50]1[CH:51]=[CH:52][CH:53]=[CH:54]1"
+step "fluoride takes silicon"
+    :F40 -> Si20
+    C1-Si20 -> C1
+    releases Si20
+end
+step "triflate leaves: benzyne"
+    :C1 -> C1#C2
+    C2-O21 -> O21
+    releases O21
+end
+step "with furan"
+{moves}end
+'''
+
+
+def test_the_furan_diels_alder_with_benzyne_is_clean():
+    """Guard: the furan as a diene."""
+    assert codes(BENZYNE_FURAN.format(moves="    C1#C2 -> C1-C51\n    C51=C52 -> C52=C53\n    C53=C54 -> C54-C2\n")) == []
+
+
+def test_a_furan_oxygen_bonding_to_benzyne_is_flagged():
+    text = BENZYNE_FURAN.format(moves="    :O50 -> O50-C2\n    C1#C2 -> C1\n")
+    d = only(text, "AR537")
+    assert (d.loc.line, d.loc.column) == at(text, ":O50 -> O50-C2")
+    assert "C51 or C54" in d.hint
+
+
+def test_an_indole_nitrogen_bonding_to_an_iminium_is_not_judged():
+    """Guard: an indole's N-Mannich reaction is real under neutral conditions (Joule & Mills, from
+    memory); only a furan-type oxygen is judged."""
+    indole = ('species indole = "[NH:1]1[CH:2]=[CH:3][C:4]2=[CH:5][CH:6]=[CH:7][CH:8]=[C:9]12"\n'
+              'species iminium = "[CH2:10]=[N+:11]([CH3:12])[CH3:13]"\n'
+              'step "N-Mannich"\n    :N1 -> N1-C10\n    C10=N11 -> N11\nend\n')
+    assert "AR537" not in codes(indole)

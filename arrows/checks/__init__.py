@@ -57,6 +57,7 @@ _CHECK_CLASSES: list[type[Check]] = []   # filled on first use: the modules impo
 def _registry() -> list[Check]:
     """A fresh instance of every check (each keeps what it needs of one replay)."""
     if not _CHECK_CLASSES:
+        from .aromatic_sites import AromaticOxygenNucleophile
         from .checkpoints import CheckpointsMatch
         from .conservation import ChargeAndAtomsConserved
         from .leaving import ConcertedAcylSubstitution, StrongBaseLeavingGroups, TertiarySubstitution
@@ -80,7 +81,7 @@ def _registry() -> list[Check]:
                                StrainedCumulenes, CarbeneFromCH, FourCentreProtonTransfers,
                                CHPairBondsAsProtonGoes, UnpairedElectronsInPolarMechanism, OniumBesideAte,
                                SigmaComplexesRearomatise, UphillHydrogenAtomTransfers,
-                               FreeHydrogenAtoms])
+                               FreeHydrogenAtoms, AromaticOxygenNucleophile])
     return [cls() for cls in _CHECK_CLASSES]
 
 
