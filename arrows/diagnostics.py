@@ -213,7 +213,9 @@ CODES = _table(
          "than two). Lewis octet and duet rules (common practice). The hint names the move that makes "
          "room: the atom's pi bond breaking (in a concerted step, sent on to the atom the step leaves "
          "with six electrons: the missing arrow of a Diels-Alder), a leaving group's bond, an X-H pair "
-         "going back to X; for a base drawn onto a carbon that holds the proton, the arrow to the hydrogen.",
+         "going back to X; for a pair drawn onto a carbon with no bond to give up, an electron-poor "
+         "neighbour (the carbon of a C=O, a carbocation: a mistyped number), and the arrow to a hydrogen "
+         "where that C-H is acidic by the acidity table.",
          'species hydroxide = "[OH-:1]"\n'
          'species chloromethane = "[CH3:2][Cl:3]"\n'
          'step "substitution"\n'
@@ -264,7 +266,8 @@ CODES = _table(
     Code("AR402", ERROR, "product differs",
          "The state after the last step does not contain the structure written with `product`. As "
          "for AR401, a tautomer of the derived structure (a ketone written where the moves reach its "
-         "enol) is called one.",
+         "enol) is called one; otherwise the hint gives the SMILES the moves reach, the piece closest "
+         "to the one written.",
          'species ammonia = "[NH3:1]"\n'
          'species iodomethane = "[CH3:2][I:3]"\n'
          'step "substitution"\n'
@@ -662,7 +665,8 @@ CODES = _table(
          "non-bonding electrons: a radical, as written), yet no arrow of the mechanism moves a single "
          "electron. Pair arrows never change an atom's electron parity, so such a radical is most often "
          "an ion whose charge was left out of the SMILES: a cuprate written Me2Cu (copper(II)) for the "
-         "Me2Cu- of Me2CuLi, an alkoxide written [O] for [O-]. A mechanism with a fishhook or an electron "
+         "Me2Cu- of Me2CuLi, an alkoxide written [O] for [O-]; a cation one hydrogen short (hydronium "
+         "written [OH2+]) is offered the hydrogen. A mechanism with a fishhook or an electron "
          "transfer is radical chemistry and is not judged; nor is a d- or f-block metal bonded to no "
          "carbon, a paramagnetic salt drawn as a Lewis acid or oxidant (FeBr3, CuCl2).",
          'species cuprate = "[CH3:1][Cu:2][CH3:3]"   # Me2CuLi: write [Cu-:2]\n'

@@ -517,6 +517,8 @@ class _StepReplay:
                 # A radical centre: its one electron moves by a fishhook, not as a pair.
                 why += " (it carries one unpaired electron)"
                 hint = f"a radical's electron moves by a fishhook: `.{src.atom} ~> {move.sink}`"
+            elif taker is not None and self.bond_before(x, taker) and (bonded := self._bonded_taker_hint(x, taker)):
+                hint += "; " + bonded
             elif taker is not None and self.nonbonding(taker) >= 2:
                 # An arrow drawn from the electrophile to the nucleophile: the commonest reversal.
                 hint += f"; the arrow may run backwards, from the electrons to the atom that takes them: `:{sink.atom} -> {src.atom}`"
@@ -529,6 +531,28 @@ class _StepReplay:
                       src.loc, _repeated_move_hint(self.step) or "each arrow from a lone pair takes one pair",
                       atoms=(label,))
             raise _StepFailed
+
+    def _bonded_taker_hint(self, x: int, taker: int) -> Optional[str]:
+        """For an arrow from atom x, which has no lone pair, to an atom it is bonded to: the bond's
+        pair goes to the taker as the bond breaks (a protonated alcohol ionising, `C2-O6 -> O6`,
+        drawn `:C2 -> O6`), when the taker is the more electronegative; where x is short of an
+        octet (a carbocation beside an OR), the taker's lone pair is pushed into the bond instead
+        (`:O6 -> C2=O6`, the oxocarbenium form)."""
+        label = self.state.label
+        order = self.bond_before(x, taker) // 2
+        if self.nonbonding(x) + 2 * self.state.bond_sums[x] < 8:
+            if self.nonbonding(taker) < 2 or order >= 3:
+                return None
+            connector = "=" if order == 1 else "#"
+            return (f"{label(x)} is short of an octet: the arrow may run backwards, {label(taker)}'s lone pair "
+                    f"making a {'double' if order == 1 else 'triple'} bond: "
+                    f"`:{label(taker)} -> {label(x)}{connector}{label(taker)}`")
+        if ELECTRONEGATIVITY.get(self.state.elements[taker], 0.0) < ELECTRONEGATIVITY.get(self.state.elements[x], 0.0):
+            return None
+        bond = f"{label(x)}{'-=#'[min(order, 3) - 1]}{label(taker)}"
+        what = "the bond breaks" if order == 1 else "a pi bond breaks"
+        return (f"{label(x)} and {label(taker)} are bonded: if {what}, its pair going to {label(taker)}, "
+                f"the arrow starts at the bond: `{bond} -> {label(taker)}`")
 
     def check_bond_source(self, move: Move, src: BondPair, a: int, b: int) -> None:
         have = self.bond_before(a, b)
@@ -1008,7 +1032,7 @@ def _overfull_shell(state: ElectronState, step: Step, step_index: int, replay: _
         return []
     label = state.label(i)
     hint = _repeated_move_hint(step) or _misdirected_pair_hint(state, step, replay, i) \
-        or _room_making_hint(state, i, changes, replay) or _proton_hint(state, step, replay, i) \
+        or _room_making_hint(state, i, changes, replay) or _meant_elsewhere_hint(state, step, replay, i, changes) \
         or _unweakened_pi_bond_hint(state, i, changes) or _no_room_named_hint(label)
     return [Diagnostic("AR301", f"{label} would hold {shell} valence electrons "
                        f"({bonds} bond{'s' if bonds != 1 else ''}"
@@ -1078,15 +1102,99 @@ def _hydride_leaves_hint(state: ElectronState, step: Step, replay: _StepReplay, 
             f"with `{a}-H -> {a}`{instead}")
 
 
-def _proton_hint(state: ElectronState, step: Step, replay: _StepReplay, i: int) -> Optional[str]:
-    """For a lone pair sent onto a carbon that holds hydrogens and has no bond to give up (a base
-    drawn attacking the alpha carbon instead of its proton): the arrow a proton transfer takes."""
+# The least acidic C-H a base of a polar mechanism is drawn taking: an ester's or a nitrile's alpha
+# C-H, ~25 in the acidity table (common practice: an alkoxide or LDA enolises an ester; an alkane's
+# C-H, ~50, no polar base takes).
+_TAKEN_C_H_PKA = 25
+
+
+def _meant_elsewhere_hint(state: ElectronState, step: Step, replay: _StepReplay, i: int,
+                          changes: dict[Pair, tuple[int, int]]) -> Optional[str]:
+    """For a lone pair sent onto a carbon that has no bond to give up: where the arrow was most
+    likely meant. A mistyped number first: an electron-poor neighbour of the carbon (methanol drawn
+    onto the methyl of protonated acetic acid, `:O6 -> C2`, for its carbonyl carbon C1). Then a
+    proton of the carbon, where a base could take it: the step moves a C-H pair of the carbon (an
+    E2's base drawn onto the carbon), or the C-H is acidic by the acidity table (a base drawn onto
+    the alpha carbon of a 1,3-dione); not an alkane's C-H that nothing in the step takes."""
     atom = state.mol.GetAtomWithIdx(i)
-    if state.elements[i] != 6 or not (atom.GetTotalNumHs() or any(n.GetAtomicNum() == 1 for n in atom.GetNeighbors())):
-        return None
     attack = _lone_pair_onto(step, replay, i)
-    return (f"a base takes a proton, not the carbon: end the arrow at one of {state.label(i)}'s "
-            f"hydrogens, `{attack.source} -> H({state.label(i)})`") if attack else None
+    if state.elements[i] != 6 or attack is None:
+        return None
+    carbon = state.label(i)
+    neighbour = _electrophile_beside(state, replay, i, replay.resolve(attack.source.atom), changes) \
+        if isinstance(attack.sink, AtomSink) else None
+    held = atom.GetTotalNumHs() or any(n.GetAtomicNum() == 1 for n in atom.GetNeighbors())
+    proton = f"`{attack.source} -> H({carbon})`" if held and (
+        _c_h_pair_moves(state, replay, i) or _acidic_c_h(state, i)) else None
+    if neighbour is None:
+        return (f"a base takes a proton, not the carbon: end the arrow at one of {carbon}'s hydrogens, {proton}"
+                if proton else None)
+    j, why, pi_arrow = neighbour
+    element = "carbon" if state.elements[j] == 6 else "boron"
+    hint = (f"the arrow may be meant for {state.label(j)}, the electrophilic {element} beside {carbon} "
+            f"({why}): `{attack.source} -> {state.label(j)}`" + (f" with `{pi_arrow}`" if pi_arrow else ""))
+    if proton:
+        hint += f"; if a proton transfer is meant, end the arrow at one of {carbon}'s hydrogens, {proton}"
+    return hint
+
+
+def _electrophile_beside(state: ElectronState, replay: _StepReplay, i: int, nucleophile: int,
+                         changes: dict[Pair, tuple[int, int]]) -> Optional[tuple[int, str, Optional[str]]]:
+    """An electron-poor carbon or boron beside atom i that the nucleophile could bond to, with why
+    it is electron-poor and the pi bond's arrow that would make room on it (None when the step
+    already moves it or it has none): the atom this step leaves short of a pair first, then one
+    short of an octet before the step (a carbocation), then the carbon of a C=O or C=N+, a
+    protonated one first (common practice: the order of their electrophilicity)."""
+    label, mol = state.label, state.mol
+    short = set(_left_short(state, changes, replay))
+    ranked = []
+    for n in mol.GetAtomWithIdx(i).GetNeighbors():
+        j = n.GetIdx()
+        if state.elements[j] not in (5, 6) or j == nucleophile or not nameable(mol, j) \
+                or mol.GetBondBetweenAtoms(j, nucleophile) is not None:
+            continue
+        if j in short:
+            taking = next((m.move for m in replay.resolved if m.source_kind == "bond" and j in m.source_atoms
+                           and j not in m.sink_atoms), None)
+            ranked.append((0, j, f"`{taking}` leaves it short of a pair" if taking else
+                           "this step leaves it short of a pair", None))
+            continue
+        if state.nonbonding[j] + 2 * state.bond_sums[j] < 8:
+            kind = "a carbocation" if state.elements[j] == 6 and state.formal_charge(j) > 0 else "short of an octet"
+            ranked.append((1, j, kind, None))
+            continue
+        for bond in n.GetBonds():
+            x = bond.GetOtherAtomIdx(j)
+            if state.elements[j] != 6 or state.elements[x] not in (7, 8) or bond.GetBondTypeAsDouble() != 2 \
+                    or not nameable(mol, x):
+                continue
+            charged = state.formal_charge(x) > 0
+            if state.elements[x] == 7 and not charged:
+                continue   # a neutral imine's carbon: a weak electrophile, not offered
+            double = f"{label(j)}={label(x)}"
+            moved = changes.get(pair(j, x), (4, 4))[1] < 4
+            ranked.append((2 if charged else 3, j, f"the carbon of {double}{'+' if charged else ''}",
+                           None if moved else f"{double} -> {label(x)}"))
+            break
+    if not ranked:
+        return None
+    _, j, why, pi_arrow = min(ranked, key=lambda r: r[0])
+    return j, why, pi_arrow
+
+
+def _c_h_pair_moves(state: ElectronState, replay: _StepReplay, i: int) -> bool:
+    """Whether an arrow of the step starts at a C-H bond of carbon i (`C2-H -> C2=C3`): the step
+    itself takes a proton from it, as an E2 does from a C-H no table calls acidic."""
+    return any(m.source_kind == "bond" and i in m.source_atoms
+               and any(state.elements[k] == 1 for k in m.source_atoms) for m in replay.resolved)
+
+
+def _acidic_c_h(state: ElectronState, i: int) -> bool:
+    """Whether a base could take a proton of carbon i: its C-H as acidic as an ester's alpha C-H
+    or more, by the acidity table (asked only for a hint)."""
+    from .judgement.acidity import acidity_of, perceived
+    entry = acidity_of(perceived(state.mol), i)
+    return entry is not None and entry.pka <= _TAKEN_C_H_PKA
 
 
 def _lone_pair_onto(step: Step, replay: _StepReplay, i: int) -> Optional[Move]:
@@ -1276,16 +1384,17 @@ def _short_of_a_pair(state: ElectronState, changes: dict[Pair, tuple[int, int]],
                      exclude: tuple[int, ...]) -> Optional[int]:
     """A first-row atom the step takes from eight valence electrons to six (a pair of its bond
     sent elsewhere, none coming back), other than `exclude`: where a missing arrow's pair belongs."""
+    return next((k for k in _left_short(state, changes, replay) if k not in exclude), None)
+
+
+def _left_short(state: ElectronState, changes: dict[Pair, tuple[int, int]], replay: _StepReplay) -> list[int]:
+    """The first-row atoms the step takes from eight valence electrons to six, by index."""
     gained: dict[int, int] = dict(replay.d_nonbonding)
     for (a, b), (before, after) in changes.items():
         gained[a] = gained.get(a, 0) + after - before
         gained[b] = gained.get(b, 0) + after - before
-    for k, delta in sorted(gained.items()):
-        if k in exclude or delta != -2 or not 5 <= state.elements[k] <= 9:
-            continue
-        if state.nonbonding[k] + 2 * state.bond_sums[k] == 8:
-            return k
-    return None
+    return [k for k, delta in sorted(gained.items())
+            if delta == -2 and 5 <= state.elements[k] <= 9 and state.nonbonding[k] + 2 * state.bond_sums[k] == 8]
 
 
 def _next_framework(state: ElectronState, changes: dict[Pair, tuple[int, int]]):

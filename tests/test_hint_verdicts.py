@@ -302,3 +302,241 @@ def test_an_arene_attacking_a_nitrilium_without_breaking_it_is_sent_to_its_nitro
     fixed = BISCHLER_NAPIERALSKI_NO_BREAK.replace("    C5=C6 -> C5-C11\n", "    C5=C6 -> C5-C11\n    C11#N10 -> N10\n")
     _, every = findings(fixed)
     assert not [d for d in every if d.severity == "error"], [d.to_text() for d in every]
+
+
+# --- AR301: a pair sent onto a carbon with no bond to give up ----------------------------------
+
+def _walk_file(text: str, old: str, new: str) -> str:
+    assert old in text
+    return text.replace(old, new)
+
+
+FISCHER_WRONG_CARBON = '''title "Fischer esterification"
+species acid     = "[CH3:2][C:1](=[O:3])[OH:4]"
+species methanol = "[CH3:5][OH:6]"
+species hydronium = "[OH3+:7]"
+step "carbonyl protonation" reversible
+    :O3 -> H(O7)
+    O7-H -> O7
+end
+step "addition of methanol" reversible
+    :O6 -> C2
+    C1=O3 -> O3
+end
+step "proton transfer" reversible
+    :O7 -> H(O6)
+    O6-H -> O6
+end
+step "protonation of OH" reversible
+    :O4 -> H(O7)
+    O7-H -> O7
+end
+step "loss of water" reversible
+    :O3 -> C1=O3
+    C1-O4 -> O4
+    releases O4
+end
+step "deprotonation" reversible
+    :O7 -> H(O3)
+    O3-H -> O3
+end
+product "COC(C)=O"
+'''
+
+
+def test_a_nucleophile_sent_to_the_methyl_beside_a_protonated_carbonyl_is_sent_to_the_carbonyl_carbon():
+    """Fischer esterification (Clayden; from memory): methanol adds to the carbon of the protonated
+    carbonyl, C1. Typed `:O6 -> C2` (the methyl), C2 would hold 10 electrons; the hint once told
+    methanol to take a methyl C-H proton (`:O6 -> H(C2)`, an acid's methyl is no acid to methanol:
+    pKa ~50 in the acidity table as an alkane C-H). It names C1, which this step leaves short of a
+    pair, and that drawing checks clean to methyl acetate."""
+    found = _only(FISCHER_WRONG_CARBON, "AR301")
+    assert "`:O6 -> C1`" in found.hint and "H(C2)" not in found.hint
+    fixed = _clean(_walk_file(FISCHER_WRONG_CARBON, ":O6 -> C2", ":O6 -> C1"))
+    assert _holds(fixed, "COC(C)=O")
+
+
+DIONE_ALPHA_CARBON = '''species dione = "[CH3:1][C:2](=[O:3])[CH2:4][C:5](=[O:6])[CH3:7]"
+species base = "[OH-:8]"
+step "hydroxide adds to a carbonyl"
+    :O8 -> C4
+end
+'''
+
+
+def test_a_nucleophile_sent_to_a_dione_s_central_carbon_names_the_carbonyl_then_the_acidic_proton():
+    """Pentane-2,4-dione and hydroxide (retro-Claisen cleavage, Clayden; from memory): hydroxide adds
+    to a carbonyl carbon (C2, its pi pair going to O3), or takes a proton of the central CH2 (a
+    1,3-dicarbonyl C-H, pKa ~9, textbook value in the acidity table). Drawn onto C4, the carbonyl
+    carbon beside it is named first with the pi arrow, the proton second; both drawings check with
+    no error."""
+    hint = _only(DIONE_ALPHA_CARBON, "AR301").hint
+    assert "`:O8 -> C2` with `C2=O3 -> O3`" in hint and "`:O8 -> H(C4)`" in hint
+    assert hint.index("`:O8 -> C2`") < hint.index("H(C4)")
+    for fixed in (":O8 -> C2\n    C2=O3 -> O3", ":O8 -> H(C4)\n    C4-H -> C4"):
+        _, every = findings(_walk_file(DIONE_ALPHA_CARBON, ":O8 -> C4", fixed))
+        assert not [d for d in every if d.severity == "error"], [d.to_text() for d in every]
+
+
+def test_no_proton_of_an_alkane_carbon_is_offered_to_a_base():
+    """Hydroxide drawn onto a methyl of ethane: an alkane C-H (pKa ~50, textbook value in the
+    acidity table) is no acid to hydroxide (water 15.7), and no neighbour is electron-poor. The hint
+    once offered `:O3 -> H(C1)`; it now offers no proton."""
+    text = '''species ethane = "[CH3:1][CH3:2]"
+species base = "[OH-:3]"
+step "hydroxide onto a methyl"
+    :O3 -> C1
+end
+'''
+    hint = _only(text, "AR301").hint
+    assert "H(C1)" not in hint and "C1" in hint
+
+
+def test_guard_a_base_drawn_onto_an_acidic_carbon_is_still_sent_to_its_proton():
+    """Guard: acetonitrile's C-H (pKa ~25, acidity table, from memory) with amide ion (ammonia ~38):
+    no carbon beside it is electron-poor by the hint's rule, and the proton is the arrow meant (the
+    nitrile anion's formation)."""
+    text = '''species nitrile = "[CH3:1][C:2]#[N:3]"
+species base = "[NH2-:4]"
+step "amide onto the carbon"
+    :N4 -> C1
+end
+'''
+    assert "`:N4 -> H(C1)`" in _only(text, "AR301").hint
+
+
+# --- AR201: an arrow from an atom with no lone pair to an atom it is bonded to -----------------
+
+E1_ARROW_FROM_CARBON = '''title "E1 dehydration of tert-amyl alcohol"
+species alcohol   = "[CH3:1][C:2]([CH3:5])([OH:6])[CH2:3][CH3:4]"
+species hydronium = "[OH3+:7]"
+step "protonation" reversible
+    :O6 -> H(O7)
+    O7-H -> O7
+end
+step "ionisation"
+    :C2 -> O6
+    releases O6
+end
+step "deprotonation"
+    :O7 -> H(C3)
+    C3-H -> C2=C3
+end
+product "CC=C(C)C"
+'''
+
+
+def test_an_arrow_from_a_carbon_to_its_leaving_group_is_read_as_the_bond_breaking():
+    """E1 dehydration of 2-methylbutan-2-ol (Clayden; from memory): the protonated alcohol ionises,
+    the C2-O6 pair leaving with water. Drawn `:C2 -> O6` (C2 has no lone pair), the hint once
+    proposed the reverse, `:O6 -> C2`, a fifth bond to C2 through the bond it already has. It names
+    the heterolysis `C2-O6 -> O6`, and that drawing checks clean to 2-methylbut-2-ene."""
+    hint = _only(E1_ARROW_FROM_CARBON, "AR201").hint
+    assert "`C2-O6 -> O6`" in hint and ":O6 -> C2" not in hint
+    fixed = _clean(_walk_file(E1_ARROW_FROM_CARBON, ":C2 -> O6", "C2-O6 -> O6"))
+    assert _holds(fixed, "CC=C(C)C")
+
+
+def test_an_arrow_from_a_carbocation_to_its_ether_oxygen_is_read_as_the_oxygen_s_push():
+    """A carbocation beside an ether oxygen is stabilised by the oxygen's lone pair making C=O+ (an
+    oxocarbenium ion; common practice). Drawn `:C2 -> O5`, the push `:O5 -> C2=O5` is offered (not
+    a new bond through the one there, nor the heterolysis that would leave a dication), and that
+    drawing checks clean."""
+    text = '''species cation = "[CH3:1][C+:2]([CH3:3])[O:5][CH3:6]"
+step "oxygen pushes"
+    :C2 -> O5
+end
+'''
+    hint = _only(text, "AR201").hint
+    assert "`:O5 -> C2=O5`" in hint and "C2-O5 -> O5" not in hint
+    _clean(_walk_file(text, ":C2 -> O5", ":O5 -> C2=O5"))
+
+
+def test_guard_an_arrow_from_a_carbocation_to_unbonded_water_is_still_reversed():
+    """Guard: tert-butyl cation and water (SN1 capture, Clayden; from memory): drawn `:C2 -> O5`
+    between atoms not bonded, the hint keeps the reversal `:O5 -> C2`."""
+    text = '''species cation = "[CH3:1][C+:2]([CH3:3])[CH3:4]"
+species water = "[OH2:5]"
+step "capture"
+    :C2 -> O5
+end
+'''
+    assert "`:O5 -> C2`" in _only(text, "AR201").hint
+
+
+# --- AR530: a cation written one hydrogen short -------------------------------------------------
+
+HYDRONIUM_SHORT = '''species alcohol   = "[CH3:1][C:2]([CH3:5])([OH:6])[CH2:3][CH3:4]"
+species hydronium = "[OH2+:7]"
+step "protonation" reversible
+    :O6 -> H(O7)
+    O7-H -> O7
+end
+'''
+
+
+def test_hydronium_written_one_hydrogen_short_is_offered_the_hydrogen_not_water():
+    """Hydronium is H3O+ (textbook). Written [OH2+:7] it is a radical cation (RDKit gives the O one
+    radical electron); the AR530 hint once offered `[OH2:7]`, which is water. It offers `[OH3+:7]`,
+    which RDKit reads with no radical electron, and with it the file has no AR530."""
+    hint = _only(HYDRONIUM_SHORT, "AR530").hint
+    assert "`[OH3+:7]`" in hint and "[OH2:7]" not in hint
+    fixed = _walk_file(HYDRONIUM_SHORT, "[OH2+:7]", "[OH3+:7]")
+    assert Chem.MolFromSmiles("[OH3+:7]").GetAtomWithIdx(0).GetNumRadicalElectrons() == 0
+    assert "AR530" not in [d.code for d in findings(fixed)[1]]
+
+
+def test_an_ammonium_ion_written_one_hydrogen_short_is_offered_the_hydrogen():
+    """Ammonium is NH4+ (textbook); [NH3+:3] is the aminium radical cation. RDKit's default valence
+    of carbon, isoelectronic with N+, is 4: the hint offers `[NH4+:3]`."""
+    text = '''species ammonium = "[NH3+:3]"
+species water = "[OH2:9]"
+species hydronium = "[OH3+:10]"
+step "proton transfer"
+    :O9 -> H(O10)
+    O10-H -> O10
+end
+'''
+    hint = _only(text, "AR530").hint
+    assert "`[NH4+:3]`" in hint and "[NH3:3]" not in hint
+
+
+# --- AR402: the product the moves give, as SMILES ------------------------------------------------
+
+E1_HOFMANN_PROTON = _walk_file(E1_ARROW_FROM_CARBON, ":C2 -> O6\n", "C2-O6 -> O6\n").replace(
+    ":O7 -> H(C3)\n    C3-H -> C2=C3", ":O7 -> H(C1)\n    C1-H -> C1=C2")
+
+
+def test_a_wrong_product_names_the_smiles_the_moves_give():
+    """E1 of 2-methylbutan-2-ol (Clayden; from memory): the proton taken from C1 gives
+    2-methylbut-1-ene, C=C(C)CC, not the Zaitsev alkene CC=C(C)C written as the product. AR402 once
+    listed only per-atom differences; its hint names the SMILES the moves give (RDKit canonical, no
+    map numbers), and that SMILES written as the product checks clean."""
+    found = _only(E1_HOFMANN_PROTON, "AR402")
+    assert "the moves give `C=C(C)CC`" in found.hint
+    _clean(E1_HOFMANN_PROTON.replace('product "CC=C(C)C"', 'product "C=C(C)CC"'))
+
+
+def test_the_smiles_the_moves_give_carries_no_map_numbers_for_a_mapped_product():
+    """The same wrong proton, the product written with map numbers: the derived SMILES is given
+    without them (RDKit canonical SMILES of the piece, maps cleared), as it would be pasted."""
+    text = E1_HOFMANN_PROTON.replace('product "CC=C(C)C"', 'product "[CH3:1][C:2]([CH3:5])=[CH:3][CH3:4]"')
+    hint = _only(text, "AR402").hint
+    assert "the moves give `C=C(C)CC`" in hint
+    assert ":" not in hint.split("the moves give ")[1].split(", the piece")[0]
+
+
+def test_a_product_of_other_atoms_is_shown_the_derived_piece_but_not_told_to_write_it():
+    """Ammonia and iodomethane (SN2, textbook) give methylammonium; written as methanol, CO, the
+    closest derived piece, C[NH3+], has other atoms: its SMILES is shown, but writing it as the
+    product is not offered (the written atoms are not the ones the moves hold)."""
+    text = '''species ammonia = "[NH3:1]"
+species iodomethane = "[CH3:2][I:3]"
+step "substitution"
+    :N1 -> C2
+    C2-I3 -> I3
+end
+product "CO"
+'''
+    hint = _only(text, "AR402").hint
+    assert "the moves give `C[NH3+]`" in hint and "write the product as" not in hint

@@ -236,6 +236,17 @@ def compare(state: ElectronState, checkpoint: Checkpoint, code: str, step: Optio
             hint += f"; if the moves are right as they are, write the {what} as `{closest.smiles}`"
         if details:
             message += ": " + "; ".join(details)
+            if message.startswith(f"the {what} {frag.smiles} is not in") and f"`{closest.smiles}`" not in (hint or ""):
+                # The structure the moves reach, as the author would write it: to compare, or paste
+                # where it has the written atoms (an isomer, another charge or proton count).
+                gives = f"the moves give `{_unmapped_smiles(closest.mol)}`, the piece closest to it"
+                if hint:
+                    hint = f"{hint}; {gives}"
+                elif _heavy_atoms(frag.mol) == _heavy_atoms(closest.mol):
+                    hint = (f"{gives}: if the moves are right, write the {what} as that; "
+                            f"else compare with `arrows trace`")
+                else:
+                    hint = f"{gives}; compare with `arrows trace`"
         else:
             message += f" (derived: {'.'.join(f.smiles for f in derived)})"
         diags.append(Diagnostic(code, message, checkpoint.loc, hint=hint or "compare with `arrows trace`", step=step))
@@ -246,6 +257,17 @@ def compare(state: ElectronState, checkpoint: Checkpoint, code: str, step: Optio
         diags.append(Diagnostic(code, f"`all` was asked, but the state also holds {extra}", checkpoint.loc,
                                 hint="write every fragment, or drop `all`", step=step))
     return diags
+
+
+def _heavy_atoms(piece: Chem.Mol) -> Counter:
+    return Counter(a.GetAtomicNum() for a in atom_list(piece) if a.GetAtomicNum() > 1)
+
+
+def _unmapped_smiles(piece: Chem.Mol) -> str:
+    """RDKit's canonical SMILES of a derived piece without its map numbers."""
+    work = Chem.Mol(piece)
+    _clear_maps(work, frozenset())
+    return Chem.MolToSmiles(work)
 
 
 def _both_read(written: str, derived: str) -> Optional[list[Chem.Mol]]:

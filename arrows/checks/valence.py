@@ -10,7 +10,7 @@ from rdkit import Chem
 from ..diagnostics import Diagnostic
 from ..electrons import ElectronState, nameable
 from ..model import Location, Species
-from ..rdkit_io import ELECTRONEGATIVITY
+from ..rdkit_io import ELECTRONEGATIVITY, rdkit_messages
 from ..trace import StepTrace, map_location
 from . import Check, Ending
 
@@ -620,10 +620,33 @@ def _charge_meant(state: ElectronState, i: int) -> int:
     return -1 if limit is not None and shell + 1 <= limit else 1   # (an f-block metal: an electropositive cation)
 
 
-def _written_with_charge(state: ElectronState, i: int, charge: int) -> str:
-    """Atom i as a bracket atom of SMILES carrying `charge`: `[Cu-:2]`."""
+def _hydrogen_meant(state: ElectronState, i: int, sp: Species) -> Optional[str]:
+    """For a cation with an unpaired electron, atom i written as it is with one more hydrogen
+    (`[OH3+:7]` for hydronium written `[OH2+:7]`), where the usual valence of the element it is
+    isoelectronic with (RDKit's periodic table: O+ bonds as N does, three bonds; C+ as B) is one
+    more than its bonds; offered only if the species so written parses and leaves the atom no
+    unpaired electron. None for an unmapped atom, which the species' text cannot be searched for."""
     atom = state.mol.GetAtomWithIdx(i)
-    hydrogens = atom.GetTotalNumHs(includeNeighbors=True)
+    charge, number = state.formal_charge(i), atom.GetAtomMapNum()
+    if charge <= 0 or not number or state.elements[i] - charge < 1:
+        return None
+    if Chem.GetPeriodicTable().GetDefaultValence(state.elements[i] - charge) != state.bond_sums[i] + 1:
+        return None
+    written = _written_with_charge(state, i, charge, extra_hydrogens=1)
+    smiles = re.sub(rf"\[[^\[\]]*:{number}\]", lambda _: written, sp.smiles, count=1)
+    with rdkit_messages():
+        mol = Chem.MolFromSmiles(smiles)
+    if mol is None:
+        return None
+    meant = next((a for a in mol.GetAtoms() if a.GetAtomMapNum() == number), None)
+    return written if meant is not None and meant.GetNumRadicalElectrons() == 0 else None
+
+
+def _written_with_charge(state: ElectronState, i: int, charge: int, extra_hydrogens: int = 0) -> str:
+    """Atom i as a bracket atom of SMILES carrying `charge` (and `extra_hydrogens` more than it
+    holds): `[Cu-:2]`."""
+    atom = state.mol.GetAtomWithIdx(i)
+    hydrogens = atom.GetTotalNumHs(includeNeighbors=True) + extra_hydrogens
     text = (f"{atom.GetIsotope() or ''}{atom.GetSymbol()}" + ("H" if hydrogens else "")
             + (str(hydrogens) if hydrogens > 1 else "") + ("+" if charge > 0 else "-" if charge < 0 else "")
             + (str(abs(charge)) if abs(charge) > 1 else ""))
@@ -694,16 +717,21 @@ class UnpairedElectronsInPolarMechanism(Check):
                 continue
             label = state.label(i)
             sp, loc = _written_in(state, i, species)
-            change = _charge_meant(state, i)
-            written = _written_with_charge(state, i, state.formal_charge(i) + change)
-            balance = ""
-            if total and total + change == 0:
-                balance = f", which makes the starting species neutral (as written they carry {total:+d})"
             charge = state.formal_charge(i)
+            with_hydrogen = _hydrogen_meant(state, i, sp)
+            if with_hydrogen:
+                # A cation short of a hydrogen (hydronium written [OH2+]): its charge is right.
+                meant = f"if {sp.name} is not a radical, {label} lacks a hydrogen: write `{with_hydrogen}`"
+            else:
+                change = _charge_meant(state, i)
+                written = _written_with_charge(state, i, charge + change)
+                balance = ""
+                if total and total + change == 0:
+                    balance = f", which makes the starting species neutral (as written they carry {total:+d})"
+                meant = f"if {sp.name} is an ion, write its charge: `{written}`{balance}"
             yield Diagnostic(
                 "AR530", f"{label} in {sp.name} is written with an unpaired electron ({state.nonbonding[i]} "
                 f"non-bonding electrons, {f'charge {charge:+d}' if charge else 'neutral'}), but no arrow of this "
                 f"mechanism moves a single electron", loc,
-                hint=f"if {sp.name} is an ion, write its charge: `{written}`{balance}; if it is a radical, its "
-                     f"steps move one electron at a time (`~>`)",
+                hint=f"{meant}; if it is a radical, its steps move one electron at a time (`~>`)",
                 atoms=(label,), step=step)
