@@ -21,6 +21,14 @@ class Diagnostics(list):
     def errors(self) -> list[Diagnostic]:
         return [d for d in self if d.severity == "error"]
 
+    @property
+    def warnings(self) -> list[Diagnostic]:
+        return [d for d in self if d.severity == "warning"]
+
+    def passed(self, strict: bool = False) -> bool:
+        """No errors (and, strict, no warnings): what `arrows check [--strict]` exits 0 on."""
+        return not self.errors and not (strict and self.warnings)
+
     def __str__(self) -> str:
         return "\n".join(d.to_text() for d in self) or "no findings"
 
@@ -52,8 +60,26 @@ def check(mechanism: Mechanism) -> tuple[Trace, Diagnostics]:
 _REPLAYED = "_arrows_replayed"
 
 
-def checked(mechanism: Mechanism) -> tuple[Trace, Diagnostics]:
-    """check(mechanism), remembered for as long as the Mechanism object lives."""
+# What the command line checks and draws can be set to, here and by its options alike.
+PKA_GAP_RANGE = (0, 100)        # pKa units (check --pka-gap)
+FONT_SIZE_RANGE = (4, 72)       # points (draw --font-size)
+LINE_WIDTH_RANGE = (0.1, 10)    # points (draw --line-width)
+DPI_RANGE = (30, 2400)          # draw --dpi
+
+
+def _within(name: str, value, bounds: tuple) -> None:
+    if not bounds[0] <= value <= bounds[1]:   # (nan is within no bounds)
+        raise ValueError(f"{name}={value!r} is outside {bounds[0]:g} to {bounds[1]:g}")
+
+
+def checked(mechanism: Mechanism, pka_gap: Optional[float] = None) -> tuple[Trace, Diagnostics]:
+    """check(mechanism), remembered for as long as the Mechanism object lives. A pka_gap other than
+    the default (12; AR508's uphill threshold) is checked afresh, not remembered."""
+    from .checks.protons import DEFAULT_PKA_GAP, pka_gap as gap_set_to
+    if pka_gap is not None and pka_gap != DEFAULT_PKA_GAP:
+        _within("pka_gap", pka_gap, PKA_GAP_RANGE)
+        with gap_set_to(pka_gap):
+            return check(mechanism)
     known = mechanism.__dict__.get(_REPLAYED)
     if known is None:
         known = check(mechanism)
@@ -73,13 +99,41 @@ def derived_mols(mechanism: Mechanism) -> list:
     return mols
 
 
-def draw(mechanism: Mechanism, fmt: str = "svg", style: Optional[str] = None, force: bool = False) -> bytes:
-    """The figure of a mechanism as bytes (SVG, PDF or PNG); drawing code is imported only here.
-    A mechanism with errors raises arrows.draw.DrawError unless force=True, which marks the errors
-    on the figure."""
+def figure_style(style=None, *, color: bool = False, numbers: bool = False, cip: bool = False,
+                 step_labels: bool = False, title: bool = True, font: Optional[str] = None,
+                 font_size: Optional[float] = None, line_width: Optional[float] = None):
+    """A style preset (one-column, two-column, slide; or an arrows.draw.Style) with the options of
+    `arrows draw` applied, which builds its style here too: colour bonds formed and broken, map
+    numbers, CIP labels, step labels under the reaction arrows, the title left out, the font
+    family, the label font size and the line width (points)."""
+    from .draw import DEFAULT_STYLE, STYLES, Style
+    if isinstance(style, Style):
+        base = style
+    elif (style or DEFAULT_STYLE) in STYLES:
+        base = STYLES[style or DEFAULT_STYLE]
+    else:
+        raise ValueError(f"unknown style {style!r}; use one of {', '.join(STYLES)}")
+    if font_size is not None:
+        _within("font_size", font_size, FONT_SIZE_RANGE)
+    if line_width is not None:
+        _within("line_width", line_width, LINE_WIDTH_RANGE)
+    return base.with_options(color=color or None, numbers=numbers or None, cip=cip or None,
+                             step_labels=step_labels or None, show_title=None if title else False,
+                             font_family=font, font_size=font_size, line_width=line_width)
+
+
+def draw(mechanism: Mechanism, fmt: str = "svg", style=None, force: bool = False, *, dpi: int = 300,
+         **options) -> bytes:
+    """The figure of a mechanism as bytes (SVG, PDF or PNG; dpi for PNG); drawing code is imported
+    only here. `options` are figure_style's (color, numbers, cip, step_labels, title, font,
+    font_size, line_width). A mechanism with errors raises arrows.draw.DrawError unless
+    force=True, which marks the errors on the figure; a PNG too large to draw raises
+    arrows.draw.export.ImageTooLarge (a ValueError) before any drawing."""
     from .draw import render
+    chosen = figure_style(style, **options)
+    _within("dpi", dpi, DPI_RANGE)
     trace, diagnostics = checked(mechanism)
-    return render(trace, fmt, style=style, force=force, diagnostics=diagnostics)
+    return render(trace, fmt, style=chosen, dpi=dpi, force=force, diagnostics=diagnostics)
 
 
 def check_text(text: str, name: str = "<text>") -> tuple[Trace | None, Diagnostics]:

@@ -582,9 +582,9 @@ CODES = _table(
          '    C4=C5 -> C5-H10\n'
          '    C2-H10 -> C2\n'
          'end'),
-    Code("AR525", WARNING, "substitution at a carbonyl carbon in one step",
+    Code("AR525", WARNING, "substitution at a carbonyl or thiocarbonyl carbon in one step",
          "A nucleophile bonds to the carbon of a C=O (an ester, an acid chloride or anhydride, an amide, "
-         "an activated acid) while a leaving group departs from that carbon in the same step, the C=O "
+         "an activated acid; or the C=S of a thioester or thionoester) while a leaving group departs from that carbon in the same step, the C=O "
          "kept: a substitution at a carbonyl carbon with no tetrahedral intermediate. Nucleophilic acyl "
          "substitution goes by addition to the C=O, its pi pair going onto the oxygen, then loss of the "
          "leaving group as the oxygen's pair re-forms the C=O (common practice; Clayden, from memory). "

@@ -315,8 +315,16 @@ def _or_list(words: list[str]) -> str:
     return words[0] if len(words) == 1 else ", ".join(words[:-1]) + " or " + words[-1]
 
 
-def _expected_words(expected) -> str:
+_STEP_OPTIONS = {"REVERSIBLE", "RESONANCE", "OVER", "UNDER"}
+
+
+def _expected_words(expected, on_step_line: bool = False) -> str:
+    """What the parser expected, in words. On a step's own line, after its label, the grammar
+    takes the step's body too (new lines only separate tokens), but what is written there is one of
+    the options; the body goes on the lines below."""
     kinds = {t for t in expected if not t.startswith("__")}
+    if on_step_line and _STEP_OPTIONS <= kinds:
+        return "`reversible`, `resonance`, `over`, `under` or the end of the line"
     if "END" in kinds and _MOVE_STARTS <= kinds:
         return "a move, `uses`, `releases`, `expect` or `end`"
     if _STATEMENTS <= kinds:
@@ -337,6 +345,21 @@ def _word_at(text: str, pos: int) -> str:
 
 def _shown(word: str) -> str:
     return f"`{word}`" if word.isprintable() else repr(word)
+
+
+def _on_step_line(text: str, line: int) -> bool:
+    lines = text.splitlines()
+    return 0 < line <= len(lines) and lines[line - 1].split()[:1] == ["step"]
+
+
+def _keyword_meant(word: str) -> str:
+    """` (did you mean `end`?)` for a misspelt keyword: one close in spelling, or one with the
+    same letters in another order (`ned`, `setp`: difflib finds `ned` no closer to `end` than to
+    many words); "" for none."""
+    close = difflib.get_close_matches(word.lower(), _WORDS_OF_THE_LANGUAGE, n=1, cutoff=0.75)
+    if not close:
+        close = [k for k in _WORDS_OF_THE_LANGUAGE if sorted(k) == sorted(word.lower())]
+    return f" (did you mean `{close[0]}`?)" if close else ""
 
 
 def _open_step_line(text: str, before_line: int) -> int:
@@ -511,19 +534,17 @@ def _hint_for(exc: UnexpectedInput, text: str, found: str) -> str:
     if tok_type == "NAME" and "END" in expected:
         if word[:1].isupper() and len(letters) <= 2 and not any(c.isdigit() for c in word):
             return f"an atom needs its map number: write {word}7 (element + map number)"
-        close = difflib.get_close_matches(word.lower(), _WORDS_OF_THE_LANGUAGE, n=1, cutoff=0.75)
-        if close:   # a misspelt keyword, most often on the step's own line (`reversable`)
-            return (f"`{word}` is not a keyword (did you mean `{close[0]}`?); after a step's label: reversible, "
-                    f"resonance, over, under; inside a step: moves, uses, releases, expect, end")
-        return f"`{word}` is not a keyword here; inside a step: moves, uses, releases, expect, end"
+        meant = _keyword_meant(word)
+        if _on_step_line(text, exc.line):   # (`reversable`)
+            return (f"`{word}` is not a keyword{meant or ' here'}; after a step's label: reversible, resonance, "
+                    f"over, under; inside a step, on the lines below: moves, uses, releases, expect, end")
+        return f"`{word}` is not a keyword{meant or ' here'}; inside a step: moves, uses, releases, expect, end"
     if tok_type in _KEYWORD_PLACE:
         return f"`{word}` goes {_KEYWORD_PLACE[tok_type]}"
     if _STATEMENTS <= expected:
         if tok_type == "STRING":
             return "a quoted string follows a keyword: title, caption, species NAME =, step or product"
-        close = difflib.get_close_matches(word.lower(), _WORDS_OF_THE_LANGUAGE, n=1, cutoff=0.75)
-        meant = f" (did you mean `{close[0]}`?)" if close else ""
-        return f"`{word}` is not a keyword{meant}; a file holds title, caption, species, step and product statements"
+        return f"`{word}` is not a keyword{_keyword_meant(word)}; a file holds title, caption, species, step and product statements"
     if "RPAR" in expected:
         return "close the hydrogen's parentheses: H(C3)"
     return "see the language summary in README.md"
@@ -535,15 +556,16 @@ def syntax_diagnostic(exc: UnexpectedInput, text: str, file: str) -> Diagnostic:
     if isinstance(exc, UnexpectedEOF) or getattr(token, "type", "") == "$END":
         lines = text.splitlines() or [""]
         line, column = len(lines), len(lines[-1]) + 1
+    on_step_line = _on_step_line(text, line)
     if isinstance(exc, UnexpectedCharacters):
         found = _shown(_word_at(text, exc.pos_in_stream))
-        expected = _expected_words(exc.allowed or ())
+        expected = _expected_words(exc.allowed or (), on_step_line)
     elif isinstance(exc, UnexpectedEOF) or (token is not None and token.type == "$END"):
         found = "end of file"
         expected = _expected_words(exc.expected or ())
     else:
         found = _shown(str(token))
-        expected = _expected_words(exc.expected or ())
+        expected = _expected_words(exc.expected or (), on_step_line)
     return Diagnostic("AR101", f"unexpected {found}; expected {expected}", Location(file, line, column),
                       hint=_hint_for(exc, text, found))
 

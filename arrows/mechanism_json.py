@@ -218,18 +218,45 @@ def strict_json(text: str):
     return whole_text(data) if isinstance(data, str) else data
 
 
+def json_problem(exc: json.JSONDecodeError, with_line: bool = True) -> str:
+    """json's message and the place it names. The message alone reads cut off where the place
+    belongs ("Unterminated string starting at")."""
+    place = f"line {exc.lineno} column {exc.colno}" if with_line else f"column {exc.colno}"
+    return f"{exc.msg} {place}" if exc.msg.endswith(" at") else f"{exc.msg} at {place}"
+
+
+def json_lines_count(text: str) -> int:
+    """How many records `text` holds when it is JSON Lines (two or more lines, each one JSON
+    object, as `arrows export` of several FILEs writes); 0 when it is not."""
+    lines = [line for line in text.splitlines() if line.strip()]
+    if len(lines) < 2:
+        return 0
+    try:
+        return len(lines) if all(isinstance(strict_json(line), dict) for line in lines) else 0
+    except (ValueError, RecursionError):   # (JSONDecodeError is a ValueError)
+        return 0
+
+
+_ONE_DOCUMENT = "import takes one JSON document, as `arrows export FILE --to json` writes it"
+
+
 def loads(text: str, file: str = "<json>") -> Mechanism:
     """Read a JSON document; problems raise MechanismError located at file:line:col."""
     try:
         data = strict_json(text)
     except json.JSONDecodeError as exc:
-        raise MechanismError([Diagnostic("AR100", f"not JSON: {exc.msg}", Location(file, exc.lineno, exc.colno),
-                                         hint="the file must be a JSON document written by `arrows export --to json`")]
-                             ) from None
+        records = json_lines_count(text) if exc.msg == "Extra data" else 0
+        if records:
+            raise MechanismError([Diagnostic(
+                "AR100", f"this is JSON Lines, one mechanism per line ({records} lines); {_ONE_DOCUMENT}",
+                Location(file, 1, 1),
+                hint="split it, one line to a file (each line is a document import reads), or check every "
+                     "line with `arrows check --jsonl FILE`")]) from None
+        raise MechanismError([Diagnostic("AR100", f"not JSON: {json_problem(exc)}",
+                                         Location(file, exc.lineno, exc.colno), hint=_ONE_DOCUMENT)]) from None
     except RecursionError:
         raise MechanismError([Diagnostic("AR100", "not JSON this tool reads: nested too deeply", Location(file, 1, 1),
-                                         hint="the file must be a JSON document written by `arrows export --to json`")]
-                             ) from None
+                                         hint=_ONE_DOCUMENT)]) from None
     from jsonschema import Draft202012Validator
     problems = sorted(Draft202012Validator(schema()).iter_errors(data), key=lambda e: list(e.absolute_path))
     if problems:

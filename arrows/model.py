@@ -301,10 +301,12 @@ class Mechanism:
 
     # Conveniences for scripts and notebooks. The work is done in api.py and writer.py, imported
     # when called, so the model itself stays free of RDKit and drawing code.
-    def check(self):
-        """The diagnostics of this mechanism (an `arrows.api.Diagnostics` list, sorted by location)."""
+    def check(self, pka_gap: Optional[float] = None):
+        """The diagnostics of this mechanism (an `arrows.api.Diagnostics` list, sorted by location).
+        pka_gap: AR508's uphill threshold in pKa units (default 12), as `arrows check --pka-gap`;
+        `.passed(strict=True)` on the result is what `--strict` exits 0 on."""
         from .api import checked
-        return checked(self)[1]
+        return checked(self, pka_gap)[1]
 
     @property
     def trace(self):
@@ -318,11 +320,17 @@ class Mechanism:
         from .api import derived_mols
         return derived_mols(self)
 
-    def draw(self, fmt: str = "svg", style: Optional[str] = None, force: bool = False) -> bytes:
+    def draw(self, fmt: str = "svg", style: Optional[str] = None, force: bool = False, *, dpi: int = 300,
+             color: bool = False, numbers: bool = False, cip: bool = False, step_labels: bool = False,
+             title: bool = True, font: Optional[str] = None, font_size: Optional[float] = None,
+             line_width: Optional[float] = None) -> bytes:
         """The figure as bytes: fmt is "svg", "pdf" or "png"; style names a preset (one-column,
-        two-column, slide...). With errors it raises arrows.draw.DrawError unless force=True."""
+        two-column, slide). The keywords are the options of `arrows draw` (--dpi, --color, --numbers,
+        --cip, --step-labels, --no-title as title=False, --font, --font-size, --line-width). With
+        errors it raises arrows.draw.DrawError unless force=True."""
         from .api import draw
-        return draw(self, fmt, style, force)
+        return draw(self, fmt, style, force, dpi=dpi, color=color, numbers=numbers, cip=cip,
+                    step_labels=step_labels, title=title, font=font, font_size=font_size, line_width=line_width)
 
     def to_text(self) -> str:
         """The mechanism as .mech text; parsing it gives back an equal Mechanism."""

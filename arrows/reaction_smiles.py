@@ -7,9 +7,10 @@ sides hold the same atoms: a bond that breaks or forms has both its atoms touche
 fragments released in earlier steps are left out. A step without moves changes nothing and is
 written as `>>`.
 
-Atom maps: every atom keeps the map number written in the mechanism; each unmapped atom (and each
-hydrogen the engine made explicit because a move names it) gets a fresh number above the largest
-one written, by its index in the replay. Atom indices are identities across the whole replay, so
+Atom maps: every atom keeps the map number written in the mechanism; each unmapped atom (and every
+hydrogen of an atom a move names a hydrogen of, `H(C3)`, which the engine makes explicit: all of
+them, as a move does not say which one) gets a fresh number above the largest one written, by its
+index in the replay. Atom indices are identities across the whole replay, so
 an atom carries the same number in every step of one mechanism.
 """
 from __future__ import annotations

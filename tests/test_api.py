@@ -11,6 +11,7 @@ the proton, so a broken twin with `H(C3) -> O11` must report AR204.
 from __future__ import annotations
 
 import dataclasses
+import json
 import subprocess
 import sys
 import xml.etree.ElementTree as ET
@@ -337,3 +338,45 @@ def test_the_builder_takes_an_rdkit_mol_as_product():
     from rdkit import Chem
     mechanism = build.mechanism(species=[build.species("w", "[OH2:1]")], product=Chem.MolFromSmiles("O"))
     assert mechanism.product.smiles == Chem.MolToSmiles(Chem.MolFromSmiles("O"))
+
+
+# --- the command line's options as keywords -----------------------------------------------------
+
+def test_draw_takes_the_options_of_arrows_draw_and_gives_its_bytes(tmp_path):
+    """Mechanism.draw took fmt, style and force only; its keywords now give what `arrows draw` with
+    the same options writes (one style-building path for both)."""
+    out = tmp_path / "cli.svg"
+    done = subprocess.run([sys.executable, "-m", "arrows", "draw", str(SOURCE), "-o", str(out), "--style", "one-column",
+                           "--color", "--numbers", "--cip", "--step-labels", "--no-title", "--font-size", "9",
+                           "--line-width", "1"], capture_output=True, text=True)
+    assert done.returncode == 0, done.stderr
+    mechanism = arrows.load(SOURCE)
+    svg = mechanism.draw("svg", style="one-column", color=True, numbers=True, cip=True, step_labels=True,
+                         title=False, font_size=9, line_width=1)
+    assert svg == out.read_bytes() and svg != mechanism.draw("svg", style="one-column")
+
+
+def test_draw_png_resolution_and_bad_values_are_errors():
+    from PIL import Image
+    import io
+    mechanism = arrows.load(SOURCE)
+    at_300, at_150 = (Image.open(io.BytesIO(mechanism.draw("png", dpi=dpi))) for dpi in (300, 150))
+    assert abs(at_300.width - 2 * at_150.width) <= 2
+    for bad in ({"dpi": 5000}, {"font_size": 1}, {"line_width": float("nan")}, {"style": "double"}):
+        with pytest.raises(ValueError):
+            mechanism.draw("png", **bad)
+
+
+def test_check_takes_the_pka_gap_and_diagnostics_have_warnings():
+    """`check --pka-gap 0` flags every uphill proton transfer (AR508): so does check(pka_gap=0),
+    the same codes as the command line gives; the default is still remembered per object."""
+    mechanism = arrows.load(SOURCE)
+    plain, zero = mechanism.check(), mechanism.check(pka_gap=0)
+    done = subprocess.run([sys.executable, "-m", "arrows", "check", "--pka-gap", "0", "--format", "json", str(SOURCE)],
+                          capture_output=True, text=True)
+    assert sorted(d.code for d in zero) == sorted(d["code"] for d in json.loads(done.stdout))
+    assert [d.code for d in zero.warnings].count("AR508") > [d.code for d in plain.warnings].count("AR508")
+    assert zero.warnings == [d for d in zero if d.severity == "warning"]
+    assert zero.passed() and not zero.passed(strict=True) and mechanism.check() is plain
+    with pytest.raises(ValueError):
+        mechanism.check(pka_gap=-1)

@@ -560,3 +560,35 @@ def test_title_page_characters_the_font_has_no_glyphs_for_are_noted(tmp_path):
             assert len(notes) == 1 and f"no glyphs for {wanting} " in notes[0] and "empty boxes" in notes[0]
     untitled = collect(GALLERY[0], "-o", out, "-j", "1", "--cache", tmp_path / "cache", "--authors", "김")
     assert untitled.returncode == 0 and f"{out}: note" not in untitled.stderr   # no title, no title page
+
+
+def test_a_note_names_only_options_collect_has(tmp_path):
+    """A slide drawn larger to fill its page was noted with `(--font-size 18 keeps the slide
+    size)`, an option of `arrows draw` that collect refuses: a note printed by collect names none
+    but collect's own options."""
+    from arrows.commands.collect import collect_command
+    own = {opt for param in collect_command.params for opt in getattr(param, "opts", ())}
+    shutil.copy(GALLERY[0], tmp_path / "a.mech")
+    proc = collect("a.mech", "-o", tmp_path / "si.pdf", "--style", "slide", "-j", "1", "--cache", tmp_path / "cache",
+                   cwd=tmp_path)
+    assert proc.returncode == 0, proc.stderr
+    notes = [line for line in proc.stderr.splitlines() if ": note: " in line]
+    assert any("to fill the page" in note for note in notes), notes
+    named = {option for note in notes for option in re.findall(r"--[a-z][a-z-]*", note)}
+    assert named <= own, named - own
+
+
+def test_fail_fast_says_no_pdf_was_written_where_there_was_none(tmp_path):
+    """`--fail-fast` said "ffout/x.pdf is as it was" of a PDF that never existed."""
+    good, broken = tmp_path / "a.mech", tmp_path / "b.mech"
+    shutil.copy(GALLERY[0], good)
+    broken.write_text(BROKEN["zz-broken-octet.mech"][0])
+    out = tmp_path / "out" / "x.pdf"
+    args = ("-o", out, "--fail-fast", "-j", "1", "--cache", tmp_path / "cache")
+    proc = collect(broken, *args)
+    assert proc.returncode == 1 and not out.exists()
+    assert f"(--fail-fast); no PDF was written ({out} does not exist)" in proc.stderr
+    assert "is as it was" not in proc.stderr
+    assert collect(good, *args).returncode == 0
+    proc = collect(good, broken, *args)
+    assert proc.returncode == 1 and f"(--fail-fast); {out} is as it was" in proc.stderr

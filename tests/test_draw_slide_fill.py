@@ -145,3 +145,17 @@ def test_the_error_list_of_a_forced_slide_stands_below_its_scheme():
     lowest = max(p.box.y1 + p.origin[1] for p in scene.panels)
     assert min(t.y for t in errors) > lowest
     assert scene.bond_length > SLIDE.bond_length
+
+
+def test_arrows_draw_says_how_to_keep_the_slide_size(tmp_path):
+    """The scene says a slide was drawn larger (Scene.enlarged); `arrows draw` names the option of
+    its own that keeps the preset size, which `arrows collect` does not have."""
+    import subprocess
+    import sys
+    da = next(p for p in GALLERY if p.name == "13-diels-alder.mech")
+    proc = subprocess.run([sys.executable, "-m", "arrows", "draw", str(da), "-o", str(tmp_path / "da.svg"),
+                           "--style", "slide"], capture_output=True, text=True, timeout=120, cwd=tmp_path)
+    assert proc.returncode == 0, proc.stderr
+    assert "note: drawn at 200% of the slide size to fill the page" in proc.stderr
+    assert "note: --font-size 18 draws it at the slide size" in proc.stderr
+    assert _scene(da, SLIDE).enlarged == 2.0

@@ -487,3 +487,50 @@ def test_bulk_json_records_stay_one_line_each_for_splitlines(tmp_path):
     assert done.returncode == 0, done.stderr
     records = [json.loads(line) for line in done.stdout.splitlines()]
     assert len(records) == 2 and records[0]["mechanism"]["title"].startswith("Diels\u2028Alder:")
+
+
+def test_import_of_json_lines_says_it_is_json_lines_and_what_to_do(tmp_path):
+    """`export FOLDER --to json` writes JSON Lines; import of it was told the file "must be a JSON
+    document written by `arrows export --to json`", which it was."""
+    folder, _ = _bulk_folder(tmp_path)
+    (folder / "sub" / "3-broken.mech").unlink()
+    data = tmp_path / "set.jsonl"
+    assert _arrows_main("export", str(folder), "--to", "json", "-o", str(data)).returncode == 0
+    done = _arrows_main("import", str(data))
+    assert done.returncode == 2 and "Traceback" not in done.stderr
+    assert "this is JSON Lines, one mechanism per line (2 lines); import takes one JSON document" in done.stderr
+    assert "arrows check --jsonl" in done.stderr
+
+
+def test_a_truncated_json_file_names_the_place_json_gives(tmp_path):
+    """json's own message for a string cut off ends "starting at": the place is its line and column."""
+    good = mechanism_json.dumps(arrows.load(ROOT / "gallery" / "13-diels-alder.mech"))
+    cut = good.index('"title": "') + len('"title": "') + 3
+    (tmp_path / "cut.json").write_text(good[:cut], encoding="utf-8")
+    line = good.count("\n", 0, cut) + 1
+    column = cut - 3 - (good.rfind("\n", 0, cut) + 1)
+    done = _arrows_main("import", str(tmp_path / "cut.json"))
+    assert done.returncode == 2
+    assert f"cut.json:{line}:{column}: error AR100 not JSON: Unterminated string starting at line {line} column {column}" \
+        in done.stderr, done.stderr
+
+
+def test_rxn_smiles_numbers_every_hydrogen_of_an_atom_whose_hydrogen_a_move_names(tmp_path):
+    """What the README says of the hydrogens in `--to rxn-smiles`: it said "each hydrogen a move
+    names", but both of a CH2's hydrogens are numbered when `H(C3)` names one (the language does not
+    say which moves). RDKit reads the reaction: hydrogen neighbours per mapped atom, step 1 of an
+    E1 dehydration of 2-methylbutan-2-ol (textbook outcome: the Zaitsev alkene, common practice)."""
+    readme = " ".join((ROOT / "README.md").read_text().split())
+    assert "on each atom whose hydrogen a move names (`H(C3)` or `C3-H`: all of C3's hydrogens" in readme
+    mech = tmp_path / "e1.mech"
+    mech.write_text('species alcohol = "[CH3:1][C:2]([CH3:5])([OH:6])[CH2:3][CH3:4]"\n'
+                    'species hydronium = "[OH3+:7]"\n'
+                    'step "protonation"\n    :O6 -> H(O7)\n    O7-H -> O7\nend\n'
+                    'step "ionisation"\n    C2-O6 -> O6\n    releases O6\nend\n'
+                    'step "deprotonation"\n    :O7 -> H(C3)\n    C3-H -> C2=C3\nend\n')
+    reactants = _export(mech, "rxn-smiles").splitlines()[0].split(">>")[0]
+    mol = Chem.MolFromSmiles(reactants, sanitize=False)
+    explicit = {a.GetAtomMapNum(): sum(n.GetSymbol() == "H" for n in a.GetNeighbors()) for a in mol.GetAtoms()
+                if a.GetSymbol() != "H"}
+    assert explicit == {1: 0, 2: 0, 3: 2, 4: 0, 5: 0, 6: 0, 7: 3}
+    assert all(a.GetAtomMapNum() > 7 for a in mol.GetAtoms() if a.GetSymbol() == "H")

@@ -540,3 +540,12 @@ product "CO"
 '''
     hint = _only(text, "AR402").hint
     assert "the moves give `C[NH3+]`" in hint and "write the product as" not in hint
+
+
+def test_the_uphill_proton_hint_writes_one_approximation():
+    """AR508's hint named "a pKa near ~50" (two marks of approximation for one value): one is
+    enough. Hydroxide on ethane's C-H (an alkane's pKa ~50, textbook, from memory)."""
+    text = ('species base = "[OH-:1]"\nspecies ethane = "[CH3:2][CH3:3]"\n'
+            'step "deprotonation"\n    :O1 -> H(C2)\n    C2-H -> C2\nend\n')
+    d = only(text, "AR508")
+    assert "pKa near 50" in d.hint and "near ~" not in d.hint

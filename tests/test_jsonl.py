@@ -412,3 +412,47 @@ def test_every_result_of_a_real_run_validates_against_the_results_schema(tmp_pat
     ]
     for edited in edits:
         assert not validator.is_valid(edited), edited
+
+
+@pytest.mark.parametrize("typo,meant", [("prodcut", "product"), ("spceies", "species"), ("Product", "product"),
+                                        ("titel", "title")])
+def test_a_misspelt_record_field_is_named_with_the_field_meant(typo, meant):
+    """`prodcut` was ignored as metadata, so the product went unchecked: now AR111 names it."""
+    record = {"id": 1, **WATER_PROTON_TRANSFER, "title": "t"}
+    record[typo] = record.pop(meant)
+    result = check_line("set.jsonl", 3, line(record))
+    [diag] = result["diagnostics"]
+    assert (diag["code"], diag["record_location"]["field"]) == ("AR111", "/" + typo)
+    assert f"did you mean `{meant}`?" in diag["message"] and not result["ok"]
+
+
+@pytest.mark.parametrize("extra", [{"source": "lab book 7"}, {"products": ["water"]}, {"notes": "x", "doi": "y"}])
+def test_metadata_fields_stay_ignored(extra):
+    """A field far from ours, or near one the record also has (`products` beside `product`), is
+    a data set's metadata: the record checks clean."""
+    result = check_line("set.jsonl", 1, line({"id": 1, **WATER_PROTON_TRANSFER, **extra}))
+    assert result["ok"] and not result["diagnostics"]
+
+
+def test_one_indented_json_document_is_one_message_not_a_result_per_line(tmp_path):
+    """An `arrows export FILE --to json` document, indented over many lines, gave one AR110 result
+    per line (108 for the first gallery file): it is one message now, and no results."""
+    document = tmp_path / "da.json"
+    assert run_cli("export", str(GALLERY[0]), "--to", "json", "-o", str(document)).returncode == 0
+    lines = document.read_text().count("\n")
+    for args, stdin in (((str(document),), None), (("-",), document.read_bytes())):
+        proc = run_cli("check", "--jsonl", *args, stdin=stdin)
+        assert proc.returncode == 2 and proc.stdout == b"", proc.stdout[:300]
+        [message, hint] = proc.stderr.decode().splitlines()
+        assert f"error AR110 this is one JSON document over {lines} lines, not JSON Lines" in message
+        assert "arrows import" in hint
+
+
+def test_a_record_cut_short_names_the_column_json_gives():
+    [diag] = check_line("set.jsonl", 4, b'{"id": 1, "text": "species w')["diagnostics"]
+    assert diag["message"] == "not JSON: Unterminated string starting at column 19" and diag["column"] == 19
+
+
+def test_the_summary_counts_one_step_in_the_singular(tmp_path):
+    proc = run_cli("check", "--jsonl", "-", stdin=line({"id": 1, **WATER_PROTON_TRANSFER}))
+    assert proc.returncode == 0 and "1 record checked (1 step):" in proc.stderr.decode()

@@ -400,7 +400,7 @@ SLIPS = [
      2, 9, "unexpected `-`", "an arrow", "an arrow has one hyphen"),
     ("step closed by a brace",
      'step "a" {\n    :O1 -> C2\n}\n',
-     1, 10, "unexpected `{`", "a move", "closed by `end`"),
+     1, 10, "unexpected `{`", "the end of the line", "closed by `end`"),
     # An atom left after the sink is read as the start of another move, and the parser stops at `end`.
     ("atom after a move's sink",
      'step "a"\n    C1=C2 -> C2 C1\nend\n',
@@ -563,3 +563,24 @@ def test_a_misspelt_step_keyword_is_named():
         parse(text, "typo.mech")
     d = info.value.diagnostics[0]
     assert d.code == "AR101" and "did you mean `reversible`?" in d.hint
+
+
+def test_a_keyword_with_two_letters_swapped_is_named():
+    """`ned` for `end` (difflib rates it no closer to `end` than 0.67): the same letters in
+    another order are named too."""
+    text = 'species a = "[CH3:1][OH:2]"\nstep "x"\n    :O2 -> C1\nned\n'
+    with pytest.raises(MechanismError) as info:
+        parse(text, "typo.mech")
+    d = info.value.diagnostics[0]
+    assert (d.code, d.loc.line) == ("AR101", 4) and "`ned` is not a keyword (did you mean `end`?)" in d.hint
+
+
+def test_after_a_step_label_the_options_are_what_is_expected():
+    """On the step's own line, after its label, only the options fit (the moves go on the lines
+    below): the message listed moves, `uses`, `releases`, `expect` and `end`."""
+    text = 'species a = "[CH3:1][OH:2]"\nstep "x" reversable\n    :O2 -> C1\nend\n'
+    with pytest.raises(MechanismError) as info:
+        parse(text, "typo.mech")
+    d = info.value.diagnostics[0]
+    assert d.message == ("unexpected `reversable`; expected `reversible`, `resonance`, `over`, `under` "
+                         "or the end of the line")

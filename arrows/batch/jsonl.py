@@ -7,6 +7,7 @@ processes or on a Dask cluster, which is why the three give identical results.
 """
 from __future__ import annotations
 
+import itertools
 import json
 import re
 from dataclasses import dataclass
@@ -15,7 +16,8 @@ from typing import IO, Any, Callable, Iterable, Iterator, Optional
 from ..api import check_text
 from ..diagnostics import ERROR, WARNING, Diagnostic
 from ..language import STATEMENT_WORDS
-from ..mechanism_json import strict_json
+from ..language import MAX_FILE_BYTES
+from ..mechanism_json import json_problem, strict_json
 from ..model import Location
 from ..trace import state_smiles
 from .records import RecordProblem, RecordText, record_id, record_text
@@ -61,7 +63,8 @@ def check_line(source: str, line_number: int, raw: bytes) -> dict:
         mechanism_text = bool(words) and (words[0] in STATEMENT_WORDS or words[0].startswith("#"))
         hint = ("this is a line of mechanism text: check a .mech file without --jsonl" if mechanism_text
                 else "each line holds one complete JSON object")
-        return _rejected(source, line_number, None, exc.colno, "AR110", f"not JSON: {exc.msg}", hint, "")
+        return _rejected(source, line_number, None, exc.colno, "AR110",
+                         f"not JSON: {json_problem(exc, with_line=False)}", hint, "")
     ident = record_id(record) if isinstance(record, dict) else None
     try:
         mechanism = record_text(record)
@@ -97,6 +100,38 @@ def chunks(source: str, stream: IO[bytes], size: int = CHUNK_LINES) -> Iterator[
             batch = []
     if batch:
         yield source, batch
+
+
+def one_document(stream: Iterable[bytes]) -> tuple[int, Iterable[bytes]]:
+    """A file that is one JSON document over several lines (`arrows export FILE --to json` writes
+    one so, indented) is no data set: each of its lines would be a record that is not JSON. Its
+    line count when the stream is one such document (0 when not), and the stream's lines to check.
+    Only a first line that opens an object or array and is not JSON by itself is read further,
+    up to the size a mechanism file may have; the lines read are given back in order."""
+    read: list[bytes] = []
+    for raw in stream:
+        read.append(raw)
+        if raw.strip():
+            break
+    first = read[-1].strip() if read else b""
+    if not first.startswith((b"{", b"[")) or _is_json(first):
+        return 0, itertools.chain(read, stream)
+    size = sum(map(len, read))
+    for raw in stream:
+        read.append(raw)
+        size += len(raw)
+        if size > MAX_FILE_BYTES:
+            return 0, itertools.chain(read, stream)
+    lines = sum(1 for raw in read if raw.strip())
+    return (lines if lines > 1 and _is_json(b"".join(read)) else 0), iter(read)
+
+
+def _is_json(raw: bytes) -> bool:
+    try:
+        strict_json(raw.decode("utf-8-sig"))
+    except (ValueError, RecursionError):   # (not UTF-8, not JSON)
+        return False
+    return True
 
 
 def check_stream(source: str, stream: IO[bytes], write: Callable[[str], Any], pool) -> Tally:

@@ -9,6 +9,7 @@ rules with messages that name the field.
 """
 from __future__ import annotations
 
+import difflib
 import re
 from dataclasses import dataclass
 from typing import Any, Optional
@@ -17,6 +18,7 @@ NAME = re.compile(r"[A-Za-z_][A-Za-z0-9_]*\Z")     # the grammar's NAME
 ATOM = re.compile(r"[A-Z][a-z]?[0-9]+\Z")          # the grammar's ATOM
 STEP_KINDS = ("forward", "reversible", "resonance")
 STEP_FIELDS = ("label", "kind", "over", "under", "uses", "moves", "releases", "expect")
+RECORD_FIELDS = ("id", "text", "title", "caption", "species", "steps", "product")
 
 
 class RecordProblem(Exception):
@@ -61,6 +63,7 @@ def record_text(record: Any) -> RecordText:
     if not isinstance(record, dict):
         raise RecordProblem("", f"a record is a JSON object, not {_json_kind(record)}",
                             'write one object per line: {"id": "r1", "text": "..."}')
+    _refuse_misspelt_fields(record)
     if "id" not in record:
         raise RecordProblem("/id", "the record has no `id`",
                             "give every record an id (string or integer) so results can be joined back")
@@ -78,6 +81,20 @@ def record_text(record: Any) -> RecordText:
         raise RecordProblem("", "the record has neither `text` nor `species` and `steps`",
                             'add "text": "<mechanism>" or "species": {...} and "steps": [...]')
     return _written_out(record)
+
+
+def _refuse_misspelt_fields(record: dict) -> None:
+    """Other fields are a data set's own metadata and are ignored, but one a letter or two away
+    from a field of ours that the record lacks (`prodcut`) is a typo that would silently drop
+    that field's check."""
+    for field in record:
+        if field in RECORD_FIELDS:
+            continue
+        near = difflib.get_close_matches(field.lower(), RECORD_FIELDS, n=1, cutoff=0.8)
+        if near and near[0] not in record:
+            raise RecordProblem(pointer(field), f"the record has no field `{field}` (did you mean `{near[0]}`?)",
+                                "record fields: " + ", ".join(RECORD_FIELDS)
+                                + "; other fields are ignored, unless spelt close to one of these")
 
 
 def _written_out(record: dict) -> RecordText:

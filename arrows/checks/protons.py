@@ -412,7 +412,7 @@ class UphillProtonTransfers(Check):
                 "AR508",
                 f"{base.base} (pKa of {base.acid} {base.shown}) removing {acid.site} ({acid.shown}): "
                 f"uphill by about {_units(uphill, gap)} pKa units ({label_b} takes the proton of {label_x})",
-                t.loc, hint=_sigma_complex_hint(st, t) or f"a base whose conjugate acid has a pKa near {acid.shown} "
+                t.loc, hint=_sigma_complex_hint(st, t) or f"a base whose conjugate acid has a pKa near {acid.shown.lstrip('~')} "
                 f"is needed, or another proton is meant; the threshold is {gap:g} units (`arrows check --pka-gap`)",
                 atoms=(label_b, label_x), step=st.index)
 

@@ -7,7 +7,7 @@ import sys
 import click
 
 from ._args import LocatedPath, with_folders_opened
-from ..api import diagnose_file
+from ..api import PKA_GAP_RANGE, diagnose_file
 from ..diagnostics import ERROR, WARNING, to_json
 from .output import cannot_write, refuse_unsafe_outputs
 
@@ -33,7 +33,7 @@ def _a_number(ctx, param, value: float) -> float:
               help="With --jsonl: worker processes [default: the machine's cores].")
 @click.option("--cluster", metavar="ADDRESS",
               help="With --jsonl: run on the Dask scheduler at ADDRESS (pip install 'arrows[cluster]').")
-@click.option("--pka-gap", type=click.FloatRange(0, 100), default=12.0, show_default=True, callback=_a_number,
+@click.option("--pka-gap", type=click.FloatRange(*PKA_GAP_RANGE), default=12.0, show_default=True, callback=_a_number,
               help="Warn (AR508) when a proton transfer runs uphill by more than this many pKa units "
                    "(mechanism FILES; --jsonl records use the default).")
 def check_command(files, fmt, strict, quiet, jsonl, output, jobs, cluster, pka_gap):
@@ -84,7 +84,7 @@ def _check_jsonl(path: str, output: str | None, jobs: int | None, cluster: str |
     from contextlib import nullcontext
 
     from ..atomic import atomic_file
-    from ..batch.jsonl import check_stream
+    from ..batch.jsonl import check_stream, one_document
     from ..batch.parallel import ClusterPool, ClusterUnavailable, WorkerDied, WorkerPool, default_jobs
     from ..diagnostics import Diagnostic
     from ..model import Location
@@ -96,25 +96,38 @@ def _check_jsonl(path: str, output: str | None, jobs: int | None, cluster: str |
         click.echo(Diagnostic("AR100", f"cannot read file: {exc.strerror or exc}", Location(path, 1, 1),
                               hint="check the path and permissions").to_text(), err=True)
         return 2
-    pool = ClusterPool(cluster) if cluster else WorkerPool(jobs or default_jobs())
-    sink = atomic_file(output) if output else nullcontext(sys.stdout)
-    try:
-        with stream, pool, sink as out:
-            tally = check_stream(source, stream, out.write, pool)
-    except ClusterUnavailable as exc:
-        click.echo(f"error: {exc}", err=True)
-        return 2
-    except WorkerDied as exc:
-        click.echo(f"error: {exc}; the results are incomplete" + (f" and {output} was not written" if output else ""),
-                   err=True)
-        return 1
-    except OSError as exc:   # the results file cannot be written (its folder is missing), or the input failed
-        if output:
-            cannot_write(output, exc)
-        click.echo(f"{source}:1:1: error: cannot read {source}: {exc.strerror or exc}", err=True)
-        return 2
+    with stream:
+        try:
+            lines, records = one_document(stream)
+        except OSError as exc:
+            click.echo(f"{source}:1:1: error: cannot read {source}: {exc.strerror or exc}", err=True)
+            return 2
+        if lines:
+            click.echo(Diagnostic(
+                "AR110", f"this is one JSON document over {lines} lines, not JSON Lines (one record per line)",
+                Location(source, 1, 1),
+                hint="write each record on one line; a document of `arrows export FILE --to json` goes back to "
+                     "a .mech file with `arrows import`").to_text(), err=True)
+            return 2
+        pool = ClusterPool(cluster) if cluster else WorkerPool(jobs or default_jobs())
+        sink = atomic_file(output) if output else nullcontext(sys.stdout)
+        try:
+            with pool, sink as out:
+                tally = check_stream(source, records, out.write, pool)
+        except ClusterUnavailable as exc:
+            click.echo(f"error: {exc}", err=True)
+            return 2
+        except WorkerDied as exc:
+            unwritten = f" and {output} was not written" if output else ""
+            click.echo(f"error: {exc}; the results are incomplete{unwritten}", err=True)
+            return 1
+        except OSError as exc:   # the results file cannot be written (its folder is missing), or the input failed
+            if output:
+                cannot_write(output, exc)
+            click.echo(f"{source}:1:1: error: cannot read {source}: {exc.strerror or exc}", err=True)
+            return 2
     if not quiet:
-        click.echo(f"{tally.records} record{'s' if tally.records != 1 else ''} checked ({tally.steps} steps): "
+        click.echo(f"{tally.records} record{'s' if tally.records != 1 else ''} checked ({tally.steps} step{'s' if tally.steps != 1 else ''}): "
                    f"{tally.ok} without errors, {tally.with_errors} with errors, "
                    f"{tally.with_warnings} with warnings", err=True)
     failing = tally.with_errors or (strict and tally.with_warnings)

@@ -91,6 +91,8 @@ def collect_command(inputs, output, style, paper, flow, prefix, title, authors, 
                                Path(cache_dir) if cache_dir else None, fail_fast=not keep_going,
                                source_paths=not no_source_paths, png_dpi=png_dpi)
     _refuse_inputs_in(settings.figures_dir, sources)
+    untouched = (f"{output} is as it was" if Path(output).exists()   # (what a stopped run says of it)
+                 else f"no PDF was written ({output} does not exist)")
     progress = _Progress(n)
     try:
         with terminate_as_interrupt():
@@ -103,12 +105,12 @@ def collect_command(inputs, output, style, paper, flow, prefix, title, authors, 
     except KeyboardInterrupt as exc:   # Ctrl-C, or SIGTERM (Terminated)
         progress.close()
         stopped = "terminated" if isinstance(exc, Terminated) else "interrupted"
-        click.echo(f"{stopped}: {output} is as it was; the schemes drawn so far are cached and will not be "
+        click.echo(f"{stopped}: {untouched}; the schemes drawn so far are cached and will not be "
                    "drawn again", err=True)
         sys.exit(EXIT_TERMINATED if isinstance(exc, Terminated) else EXIT_INTERRUPTED)
     except WorkerDied as exc:
         progress.close()
-        click.echo(f"error: {exc}; {output} is as it was; run again to resume from the cache", err=True)
+        click.echo(f"error: {exc}; {untouched}; run again to resume from the cache", err=True)
         sys.exit(1)
     progress.close()
 
@@ -137,7 +139,7 @@ def collect_command(inputs, output, style, paper, flow, prefix, title, authors, 
         if record.figure_problem and not record.errors:
             click.echo(f"    {record.figure_problem}", err=True)
     if not result.complete:
-        click.echo(f"stopped at {failed[-1].label} (--fail-fast); {output} is as it was", err=True)
+        click.echo(f"stopped at {failed[-1].label} (--fail-fast); {untouched}", err=True)
     else:
         drawn = sum(r.drawn for r in result.records)
         cached = sum(r.cached for r in result.records)

@@ -7,7 +7,7 @@ from pathlib import Path
 import click
 
 from ._args import FiniteFloatRange, LocatedPath, plain_text
-from ..api import check_file
+from ..api import DPI_RANGE, FONT_SIZE_RANGE, LINE_WIDTH_RANGE, check_file, figure_style
 from ..diagnostics import ERROR, NOTE
 from .output import cannot_write, refuse, refuse_unsafe_outputs
 
@@ -50,9 +50,9 @@ def _format_of(output: Path, fmt: str | None) -> str:
 @click.option("--step-labels", is_flag=True, help="Write each step's label under its reaction arrow.")
 @click.option("--no-title", is_flag=True, help="Leave the title out of the figure (it stays in the SVG <title>).")
 @click.option("--font", "font_family", callback=plain_text, help="Font family for all text (default DejaVu Sans).")
-@click.option("--font-size", type=FiniteFloatRange(4, 72), help="Label font size in points.")
-@click.option("--line-width", type=FiniteFloatRange(0.1, 10), help="Bond and arrow line width in points.")
-@click.option("--dpi", type=click.IntRange(30, 2400), default=300, show_default=True, help="Resolution of PNG output.")
+@click.option("--font-size", type=FiniteFloatRange(*FONT_SIZE_RANGE), help="Label font size in points.")
+@click.option("--line-width", type=FiniteFloatRange(*LINE_WIDTH_RANGE), help="Bond and arrow line width in points.")
+@click.option("--dpi", type=click.IntRange(*DPI_RANGE), default=300, show_default=True, help="Resolution of PNG output.")
 @click.option("--force", is_flag=True, help="Draw even with errors; they are marked on the figure.")
 @click.option("--watch", is_flag=True, help="Keep running: redraw each time FILE is saved, printing the diagnostics.")
 def draw_command(file, output, fmt, style, color, numbers, cip, step_labels, no_title, font_family, font_size,
@@ -116,15 +116,15 @@ def draw_command(file, output, fmt, style, color, numbers, cip, step_labels, no_
         sys.exit(1)
     for note in scene.notes:
         click.echo(f"{file}: note: {note}", err=True)
+    if scene.enlarged > 1.0:
+        click.echo(f"{file}: note: --font-size {chosen.font_size:g} draws it at the {chosen.name} size", err=True)
     click.echo(f"wrote {'the figure to standard output' if to_stdout else output}", err=True)
     sys.exit(1 if errors else 0)
 
 
 def _style(style, color, numbers, cip, step_labels, no_title, font_family, font_size, line_width):
-    from ..draw import STYLES
-    return STYLES[style].with_options(color=color or None, numbers=numbers or None, cip=cip or None,
-                                      step_labels=step_labels or None, show_title=False if no_title else None,
-                                      font_family=font_family, font_size=font_size, line_width=line_width)
+    return figure_style(style, color=color, numbers=numbers, cip=cip, step_labels=step_labels, title=not no_title,
+                        font=font_family, font_size=font_size, line_width=line_width)
 
 
 def _watch(file, output: Path, fmt: str, chosen, force: bool, dpi: int) -> None:

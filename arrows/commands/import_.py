@@ -21,8 +21,9 @@ def import_command(file, output):
     """Read a JSON mechanism (arrows/mechanism.schema.json) and print it as .mech text.
 
     Only the mechanism as written is used: derived states and diagnostics in the file are checked
-    against the schema and then set aside, because `arrows check` derives them again. Exit status:
-    0 written, 2 unreadable input.
+    against the schema and then set aside, because `arrows check` derives them again. FILE is one
+    document, as `arrows export FILE --to json` writes it; JSON Lines (several FILEs exported
+    together) is refused. Exit status: 0 written, 2 unreadable input.
     """
     refuse_unsafe_outputs({"-o": output}, [file], writes_mechanism=True)
     try:

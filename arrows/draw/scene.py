@@ -228,3 +228,4 @@ class Scene:
     reaction_arrows: tuple[ReactionArrow, ...]
     texts: tuple[TextRun, ...] = ()          # title and footnotes, page coordinates
     notes: tuple[str, ...] = field(default=())   # what the layout had to compromise on
+    enlarged: float = 1.0   # how much larger than its style's sizes a slide was drawn, to fill its page

@@ -237,9 +237,9 @@ def _filling_the_page(trace: Trace, style: Style, diagnostics: Sequence[Diagnost
             break
         drawn, fit = _SceneBuilder(trace, _enlarged(style, factor), diagnostics, style, wrapping).build()
         if fit >= 1.0 and _within_margins(drawn, style) and _row_starts(drawn) == rows:
-            note = (f"drawn at {factor:.0%} of the {style.name} size to fill the page "
-                    f"(--font-size {style.font_size:g} keeps the {style.name} size)")
-            return replace(drawn, notes=(note,) + drawn.notes)
+            # (The command that drew it says how to keep the preset size: it knows its own options.)
+            note = f"drawn at {factor:.0%} of the {style.name} size to fill the page"
+            return replace(drawn, notes=(note,) + drawn.notes, enlarged=factor)
         factor *= min(0.97, fit)
     return scene
 
