@@ -466,6 +466,25 @@ def substitute_configuration(before: Chem.Mol, after: Chem.RWMol, atom: int, lea
     target.SetChiralTag(tag)
 
 
+def neighbours_round(mol: Chem.Mol, atom: int) -> list[int]:
+    """The atom's neighbours in the order its chiral tag is read against, each hydrogen as -1:
+    a proton taken and another put back leaves the same neighbours."""
+    centre = mol.GetAtomWithIdx(atom)
+    return [-1 if b.GetOtherAtom(centre).GetAtomicNum() == 1 else b.GetOtherAtomIdx(atom) for b in centre.GetBonds()]
+
+
+def tag_kept(tag: Chem.ChiralType, before: list[int], mol: Chem.Mol, atom: int) -> Optional[Chem.ChiralType]:
+    """The chiral tag `atom` of `mol` would carry had it kept the configuration `tag` held against
+    the neighbours `before` (neighbours_round); None when its neighbours are others, or it has two
+    hydrogens."""
+    after = neighbours_round(mol, atom)
+    if tag not in _TETRAHEDRAL or sorted(before) != sorted(after) or before.count(-1) > 1:
+        return None
+    if _odd_permutation(before, after):
+        return _TETRAHEDRAL[1] if tag == _TETRAHEDRAL[0] else _TETRAHEDRAL[0]
+    return tag
+
+
 def _odd_permutation(first: list[int], second: list[int]) -> bool:
     """Whether `second` is an odd rearrangement of `first` (same distinct items)."""
     order = [first.index(x) for x in second]

@@ -285,7 +285,8 @@ CODES = _table(
          '(`releases` keeps them counted)'),
     Code("AR501", WARNING, "small ring closed",
          "A step closes a three- or four-membered ring; five- and six-membered closures usually "
-         "outcompete them (common practice).",
+         "outcompete them (common practice). Said also onto an oxocarbenium or iminium ion, where "
+         "Baldwin's disfavour is excused but the strain is not.",
          'species dione = "[CH3:1][C:2](=O)[CH-:3][CH2:4][CH2:5][C:6](=[O:7])[CH3:8]"\n'
          'step "closure"\n    :C3 -> C6   # a four-membered ring; the C1 enolate onto C6 would close six\n'
          '    C6=O7 -> O7\nend'),
@@ -299,8 +300,9 @@ CODES = _table(
          '    C6=O7 -> O7\n'
          'end'),
     Code("AR503", WARNING, "unusual formal charge",
-         "A step leaves an atom with a new formal charge of magnitude two or more (for example carbon -2, "
-         "oxygen +2). Not judged: an ionic metal (Mg2+, Zn2+), a bare d- or f-block ion with no bond "
+         "A step raises an atom's formal charge to magnitude two or more, or turns its sign (for example "
+         "carbon -2, oxygen +2). A charge the step lowers is not judged (periodate written I+3, as RDKit "
+         "holds it, taking an alcohol to I+2). Not judged either: an ionic metal (Mg2+, Zn2+), a bare d- or f-block ion with no bond "
          "(Fe3+), and a d-block metal whose negative charge the onium atoms bonded to it balance (a "
          "phosphine ligand written P+ to Pd-, the only way to write a dative bond).",
          'species sulfate = "[O-:1][S:2](=[O:3])(=[O:4])[O-:5]"\n'
@@ -312,7 +314,12 @@ CODES = _table(
          "(a shell a step only keeps, as a sulfonyl S that swaps one bond for another, is not flagged); "
          "a d-block metal of groups 3-11 above eighteen (the 18-electron rule). A lanthanide or actinide "
          "is not judged (its bonding is ionic). A halogen taken beyond eight with an odd count or a charge "
-         "of -2 is told so: that is no hypervalent halogen but electrons gone astray.",
+         "of -2 is told so: that is no hypervalent halogen but electrons gone astray; so is a phosphorus "
+         "that kept its lone pair and became negative (P(III) is the nucleophile). Not judged: a P or S "
+         "brought to ten by the double bond the step makes while its sigma partners and lone pairs "
+         "number four (the P=O of a phosphate or phosphine oxide, a sulfoxide's S=O, drawn so by chemists), and "
+         "a charge-separated oxo centre whose count, with an X=O for each positive charge beside an O-, "
+         "the step does not raise (an alcohol adding to periodate written I+3 with four O-).",
          'species cation = "Cl[P+:1](Cl)(Cl)Cl"\n'
          'species chloride = "[Cl-:2]"\n'
          'step "chloride adds"\n'
@@ -730,14 +737,19 @@ CODES = _table(
          '    O7-H -> O7\n'
          'end'),
     Code("AR534", WARNING, "alkoxide pushed out of an acetal unprotonated",
-         "Hydroxide or an alkoxide leaves a carbon pushed out by a neutral oxygen's lone pair, which "
-         "becomes an oxocarbenium ion: an acetal, ketal, glycoside or hemiacetal opened with its leaving "
-         "oxygen unprotonated. Acetals are stable to base; they open only in acid, the leaving oxygen "
-         "protonated first or as it leaves (a glycosidase's general acid), so that it leaves as an "
-         "alcohol (common practice; Clayden, from memory). A nitrogen's push (a carbinolamine giving an "
-         "iminium ion and hydroxide) and an anion's (a tetrahedral intermediate collapsing) are not "
-         "judged, nor a carboxylate or phenoxide leaving, a carbon with a third heteroatom (an ester's "
-         "neutral tetrahedral intermediate) or an epoxide opening (the Rubottom oxidation).",
+         "Hydroxide or an alkoxide leaves a carbon pushed out by a neighbouring neutral oxygen's lone pair, "
+         "which becomes an oxocarbenium ion: an acetal, ketal, glycoside or hemiacetal opened with its "
+         "leaving oxygen unprotonated. Acetals are stable to base; they open only in acid, the leaving "
+         "oxygen protonated first or as it leaves (a glycosidase's general acid), so that it leaves as an "
+         "alcohol (common practice; Clayden, from memory). Likewise a glycosyl donor's leaving group that "
+         "leaves as an anion whose conjugate acid has a pKa of 3 or more (a carboxylate from a glycosyl "
+         "ester, 4.8; a trichloroacetimidate as the amide's anion, its pair passed on to N): it leaves "
+         "only once activated, protonated or bonded to a Lewis acid (TMSOTf or TfOH, BF3.OEt2; Schmidt, "
+         "from memory). A sulfonate or halide leaves unaided (a glycosyl triflate ionises), and a "
+         "phosphate, which the pKa table does not name, is not judged. A nitrogen's push (a "
+         "carbinolamine giving an iminium ion and hydroxide) and an anion's (a tetrahedral intermediate "
+         "collapsing) are not judged, nor a phenoxide leaving, a carbon with a third heteroatom (an "
+         "ester's neutral tetrahedral intermediate) or an epoxide opening (the Rubottom oxidation).",
          'species acetal = "[O:1]1CCCC[CH:2]1[O:3]C"\n'
          'step "ring opening"\n'
          '    :O1 -> C2=O1\n'
@@ -799,7 +811,9 @@ CODES = _table(
          "oxygens of a Weinreb amide's adduct) the note calls the ring a chelate. "
          "Baldwin's rules are stated for first-row atoms: a closure at a heavier one (the phosphorus of "
          "an oxaphosphetane, the iodine of a cyclic periodate ester) is given no class (a three- or "
-         "four-membered one still draws AR501). A radical's 6-endo-trig closure onto an alkene, favoured "
+         "four-membered one still draws AR501). A closure of five or more atoms that Baldwin disfavours "
+         "onto an oxocarbenium or iminium ion (dioxolane formation, 5-endo-trig) is a note here, not "
+         "AR502: such closures are routine (common practice). A radical's 6-endo-trig closure onto an alkene, favoured "
          "by Baldwin, names the 5-exo closure onto the same alkene, which radicals usually prefer (the "
          "hex-5-enyl radical about 98:2; Beckwith, from memory).",
          'species bromobutoxide = "[O-:1][CH2:2][CH2:3][CH2:4][CH2:5][Br:6]"\n'
@@ -834,7 +848,11 @@ CODES = _table(
          "do not give: a diastereomer of the derived structure, or its enantiomer when a species was "
          "written with a configured centre. Only pieces of the same constitution are compared, and only "
          "when the steps configure as many stereo elements as are written; an enantiomer of a product "
-         "formed as the racemate is no mismatch.",
+         "formed as the racemate is no mismatch. A centre a step cleared (an enolate, an oxazolone's "
+         "aromatic anion) and no later step configured, once no chiral molecule is left, forms as the "
+         "racemate: written with the configuration it had before that step (retention claimed) it is "
+         "warned too; written the other way (a racemase's turnover, its chiral site not written) it is "
+         "not judged.",
          'species bromide = "CC[C@@H:1](C)[Br:2]"\n'
          'species hydroxide = "[OH-:3]"\n'
          'step "backside attack"\n'

@@ -45,10 +45,13 @@ def test_only_expanded_octets_and_small_or_disfavoured_closures_are_flagged():
     double bond), and the mesylation keeps the sulfonyl S at twelve: neither is flagged; nor is the
     Horner-Wadsworth-Emmons phosphorus, written P=O with ten electrons and kept at ten by the
     alkoxide that adds as the P=O pair moves onto oxygen. The Arbuzov phosphonate and the Staudinger
-    iminophosphorane are written P=O and P=N as chemists draw them: their last step takes P from
-    eight electrons to ten, AR504 again; so does the Peterson alkoxide, bonding to silicon (a
-    five-coordinate silicate, hypervalent Si as chemists draw it), and the four-membered ring it
-    closes there is strained: AR501. The Corey-Fuchs ylide's Wittig step closes its oxaphosphetane
+    iminophosphorane are written P=O and P=N as chemists draw them (Clayden, memory): their last
+    step takes a four-coordinate P from eight electrons to ten by making that double bond, no
+    expanded octet, and neither is flagged. The Peterson alkoxide bonding to silicon makes a
+    five-coordinate silicate (hypervalent Si as chemists draw it): AR504; and the four-membered
+    ring it closes there is strained: AR501. So is the Staudinger beta-lactam's, closed by the
+    enolate onto the iminium carbon: Baldwin's disfavour (4-endo-trig) is routinely overcome onto
+    such a cation, a small ring's strain is not (AR501, a reminder, as for the oxaphosphetane). The Corey-Fuchs ylide's Wittig step closes its oxaphosphetane
     at phosphorus: AR504, as the Wittig's. The three-membered rings closed inside one
     species (epoxides from a bromohydrin, the Corey-Chaykovsky betaine and the Darzens alkoxide, the
     aziridinium ion from a 2-chloroethylamine, the new epoxide of a Payne rearrangement, and the
@@ -71,9 +74,8 @@ def test_only_expanded_octets_and_small_or_disfavoured_closures_are_flagged():
             flagged[name] = codes
     assert flagged == {"wittig": {"AR504"}, "epoxide closure": {"AR501"}, "corey-chaykovsky": {"AR501"},
                        "darzens": {"AR501"}, "horner-wadsworth-emmons": {"AR501"}, "favorskii": {"AR502"},
-                       "arbuzov": {"AR504"}, "staudinger": {"AR504"}, "peterson": {"AR504", "AR501"},
+                       "staudinger lactam": {"AR501"}, "peterson": {"AR504", "AR501"},
                        "aziridine closure": {"AR501"}, "payne rearrangement": {"AR501"},
                        "michael-initiated ring closure": {"AR501"}, "neber": {"AR501"}, "corey-fuchs": {"AR504"},
                        "tbs removal": {"AR504"}, "ramberg-backlund": {"AR501"}}
-    assert sorted(octets) == [("arbuzov", 1), ("corey-fuchs", 3), ("peterson", 1), ("staudinger", 1),
-                              ("tbs removal", 0), ("wittig", 0)]
+    assert sorted(octets) == [("corey-fuchs", 3), ("peterson", 1), ("tbs removal", 0), ("wittig", 0)]

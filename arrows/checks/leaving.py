@@ -118,6 +118,14 @@ class StrongBaseLeavingGroups(Check):
         if not broken:
             return
         for move in st.change.moves:
+            relayed = _relayed_leaving_group(st, move, broken)
+            if relayed is not None:
+                # An O whose pair goes on into a bond as it leaves (an imidate's O making the
+                # amide's C=O, its N the anion): judged as the anion it leaves as.
+                found = _pushed_out_of_an_acetal(st, move, *relayed)
+                if found is not None:
+                    yield found
+                continue
             if move.source_kind != "bond" or move.electrons != 2 or len(move.sink_atoms) != 1:
                 continue
             leaving = move.sink_atoms[0]
@@ -360,31 +368,95 @@ def _trifluoroacetyl(carbon: Chem.Atom) -> bool:
                for n in carbon.GetNeighbors())
 
 
-def _pushed_out_of_an_acetal(st: StepTrace, move, leaving: int, centre: int) -> Optional[Diagnostic]:
+# The conjugate acid's pKa from which a group pushed out of an acetal carbon needs activation:
+# a sulfonate, a halide or trifluoroacetate (pKa below ~1) leaves a glycosyl carbon unaided (a
+# glycosyl triflate ionises); a carboxylate (4.8), an amide's anion (a trichloroacetimidate
+# donor's leaving group) or an alkoxide leaves only once protonated or bonded to a Lewis acid
+# (common practice: glycosyl acetates, imidates and phosphates are activated with TMSOTf, TfOH or
+# BF3.OEt2; Demchenko, from memory).
+_UNAIDED_FROM_ACETAL_PKA = 3.0
+
+
+def _relayed_leaving_group(st: StepTrace, move, broken) -> Optional[tuple[int, int, int]]:
+    """(leaving oxygen, centre, anion) for an arrow that breaks a C-O bond and sends its pair on into
+    a bond of the oxygen's (`C1-O3 -> C5=O3`), where an atom of the group a few bonds on (not
+    through the centre) ends the step negative, made so by this step: an imidate or ester leaving
+    as the anion of an amide or carboxylic acid."""
+    if move.source_kind != "bond" or move.electrons != 2 or len(move.sink_atoms) != 2:
+        return None
+    after = st.after
+    leaving = next((a for a in move.source_atoms if a in move.sink_atoms), None)
+    if leaving is None or after.elements[leaving] != 8:
+        return None
+    centre = next(a for a in move.source_atoms if a != leaving)
+    if after.elements[centre] != 6 or (min(leaving, centre), max(leaving, centre)) not in broken:
+        return None
+    for atom, was, now in st.change.charges:
+        if now != -1 or was <= now or atom in (leaving, centre):
+            continue
+        path = Chem.GetShortestPath(after.mol, leaving, atom)
+        if path and len(path) <= 4 and centre not in path:
+            return leaving, centre, atom
+    return None
+
+
+def _anion_acidity(mol: Chem.Mol, anion: int) -> tuple[Optional[Acidity], int]:
+    """The conjugate acid of the anion at `anion`, and the atom that takes the proton; an O- on a
+    C=N is read as the amide it is the other form of (an imidate anion is an amidate, protonated
+    on N)."""
+    acid = conjugate_acid(mol, anion)
+    atom = mol.GetAtomWithIdx(anion)
+    if acid is not None or atom.GetAtomicNum() != 8 or atom.GetFormalCharge() != -1 or atom.GetDegree() != 1:
+        return acid, anion
+    carbon = atom.GetNeighbors()[0]
+    imine = next((b for b in carbon.GetBonds() if b.GetBondTypeAsDouble() == 2 and b.GetOtherAtom(carbon).GetAtomicNum() == 7), None)
+    if carbon.GetAtomicNum() != 6 or imine is None:
+        return None, anion
+    work = Chem.RWMol(mol)
+    nitrogen = imine.GetOtherAtomIdx(carbon.GetIdx())
+    work.GetBondWithIdx(imine.GetIdx()).SetBondType(Chem.BondType.SINGLE)
+    work.GetBondBetweenAtoms(carbon.GetIdx(), anion).SetBondType(Chem.BondType.DOUBLE)
+    work.GetAtomWithIdx(anion).SetFormalCharge(0)
+    work.GetAtomWithIdx(nitrogen).SetFormalCharge(work.GetAtomWithIdx(nitrogen).GetFormalCharge() - 1)
+    return conjugate_acid(work.GetMol(), nitrogen), nitrogen
+
+
+def _pushed_out_of_an_acetal(st: StepTrace, move, leaving: int, centre: int,
+                             anion: Optional[int] = None) -> Optional[Diagnostic]:
     """AR534: hydroxide or an alkoxide pushed out of a carbon by a neutral oxygen's lone pair, which
     the step makes an oxocarbenium ion (an acetal, ketal, glycoside or hemiacetal opening with its
     leaving oxygen unprotonated). Acetals are stable to base: they open only in acid, the leaving
     oxygen protonated first or as it leaves (a glycosidase's general acid), so that it leaves as an
-    alcohol (common practice; Clayden, from memory). A nitrogen's push (a carbinolamine giving an
+    alcohol (common practice; Clayden, from memory). So too a glycosyl donor's leaving group that
+    leaves as an anion whose conjugate acid has a pKa of _UNAIDED_FROM_ACETAL_PKA or more (a
+    carboxylate, a trichloroacetimidate as the amide's anion, at `anion`): it is activated first,
+    protonated or bonded to a Lewis acid. A nitrogen's push (a carbinolamine giving an
     iminium ion and hydroxide, real at high pH) and an anion's (a tetrahedral intermediate
-    collapsing) are not judged, nor a carboxylate or phenoxide leaving, a carbon with a third
+    collapsing) are not judged, nor a sulfonate or halide leaving, a carbon with a third
     heteroatom (an ester's or amide's neutral tetrahedral intermediate, drawn so in textbooks) or an
     epoxide opening (its strain drives it: the Rubottom oxidation's siloxy epoxide)."""
     before, after = st.before, st.after
     pusher = next((m.source_atoms[0] for m in st.change.moves if m.source_kind == "lone_pair" and m.electrons == 2
                    and set(m.sink_atoms) == {m.source_atoms[0], centre} and after.elements[m.source_atoms[0]] == 8
-                   and before.formal_charge(m.source_atoms[0]) == 0 and after.formal_charge(m.source_atoms[0]) == 1),
-                  None)
+                   and before.formal_charge(m.source_atoms[0]) == 0 and after.formal_charge(m.source_atoms[0]) == 1
+                   and before.mol.GetBondBetweenAtoms(m.source_atoms[0], centre) is not None),
+                  None)   # (a neighbour's push: an oxygen bonding to the carbon anew is a nucleophile)
     if pusher is None or in_small_ring(before.mol, leaving, centre):
         return None   # (an epoxide's strain drives its opening: the siloxy epoxide of a Rubottom oxidation)
     if sorted(n.GetAtomicNum() for n in before.mol.GetAtomWithIdx(centre).GetNeighbors() if n.GetAtomicNum() not in (1, 6)) != [8, 8]:
         return None   # not an acetal carbon: an ester's or amide's tetrahedral intermediate is not judged
-    acid = conjugate_acid(after.mol, leaving)
-    if acid is None or acid.pka < ALKOXIDE_ACID_PKA:
+    anion = leaving if anion is None else anion
+    acid = conjugate_acid(after.mol, anion)
+    alkoxide = anion == leaving and acid is not None and acid.pka >= ALKOXIDE_ACID_PKA
+    if not alkoxide:
+        acid, anion = _anion_acidity(after.mol, anion)
+    if acid is None or acid.pka < _UNAIDED_FROM_ACETAL_PKA:
         return None
     label = before.label
     o, c, x = label(leaving), label(centre), label(pusher)
     donor = _acid_at_hand(before, leaving)
+    if not alkoxide:
+        return _unactivated_donor(st, move, acid, anion, donor, (o, c, x))
     if donor is not None and nameable(before.mol, leaving):
         a = label(donor)
         how = f"as it leaves, `{move.move.source} -> {o}-H({a})` with `{a}-H -> {a}` (a glycosidase's general acid), or first"
@@ -395,6 +467,29 @@ def _pushed_out_of_an_acetal(st: StepTrace, move, leaving: int, centre: int) -> 
         f"an acetal carbon gives an oxocarbenium ion and {acid.base} only in acid, its leaving oxygen protonated",
         move.move.loc,
         hint=f"protonate {o} {how}, so that it leaves as {_neutral(acid)}: acetals are stable to base and open only in acid",
+        atoms=(o, c, x), step=st.index)
+
+
+def _unactivated_donor(st: StepTrace, move, acid: Acidity, anion: int, donor: Optional[int],
+                       named: tuple[str, str, str]) -> Diagnostic:
+    """AR534 for a glycosyl donor's leaving group (an ester, an imidate) that leaves an acetal
+    carbon as an anion with no promoter on it: the hint activates the atom that ends negative."""
+    label, mol = st.before.label, st.before.mol
+    o, c, x = named
+    y = label(anion)
+    where = f", its pair passed on to {y}," if st.after.formal_charge(anion) < 0 and y != o else ""
+    if donor is not None and nameable(mol, anion) and nameable(mol, donor):
+        a = label(donor)
+        how = f"in a step before this one, `:{y} -> H({a})` with `{a}-H -> {a}`"
+    else:
+        how = "in a step before this one"
+    return Diagnostic(
+        "AR534", f"{o} leaves {c}{where} as {acid.base} (pKa of {acid.acid} {acid.shown}) pushed out by {x}'s lone "
+        f"pair with nothing activating it: a glycosyl donor's leaving group this basic departs only once protonated "
+        f"or bonded to a Lewis acid",
+        move.move.loc,
+        hint=f"activate {y} {how}: protonate it or bond the promoter to it (TMSOTf or TfOH, BF3.OEt2: the usual "
+             f"activators of glycosyl imidates, esters and phosphates, common practice), so that the group leaves neutral",
         atoms=(o, c, x), step=st.index)
 
 

@@ -400,13 +400,18 @@ class RingClosures(Check):
             # A bare carbocation: no bond breaks at the attacked atom, so neither exo nor endo applies.
             return Diagnostic("AR601", f"{opening}: {c.closure.name}, onto a carbocation, where no bond breaks at "
                               f"the attacked atom: not covered by Baldwin's rules", c.loc or st.step.loc, **where)
-        if c.onto_cation and (v.favoured is False or size in (3, 4)):
+        # Onto an oxocarbenium or iminium cation Baldwin's disfavour is routinely overcome (dioxolane
+        # formation, 5-endo-trig; common practice, memory); a three- or four-membered ring's strain is not.
+        excused = c.onto_cation and v.favoured is False
+        if excused and size >= 5:
             return Diagnostic("AR601", f"{opening}: {said}, but onto an oxocarbenium or iminium cation, where "
                               f"the rule is routinely broken, as in dioxolane formation (common practice, memory)",
                               c.loc or st.step.loc, **where)
         if v.favoured is False or size in (3, 4):
-            code = "AR502" if v.favoured is False else "AR501"
-            message = f"{opening}: {said}" + ("" if v.favoured is False else ", but the ring is strained")
+            code = "AR502" if v.favoured is False and not excused else "AR501"
+            if excused:
+                said += ", onto an oxocarbenium or iminium cation, where the rule is routinely broken"
+            message = f"{opening}: {said}" + ("" if code == "AR502" else ", but the ring is strained")
             alternative = self.alternative(st, c)
             if alternative:
                 message += f"; {alternative}"

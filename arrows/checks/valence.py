@@ -485,6 +485,42 @@ def _doubly_bonded(state, i: int) -> Optional[int]:
                  if state.bond_electrons(i, n.GetIdx()) == 4), None)
 
 
+def _shell_drawn_with_oxo_bonds(state: ElectronState, i: int) -> int:
+    """Atom i's valence electrons counted as chemists draw an oxo centre: each positive charge of it
+    paired with an O- neighbour into an X=O bond. Periodate written charge-separated (I+3 and four
+    O-, as RDKit holds it and the README asks) holds eight, drawn IO3(O-) fourteen; an alcohol
+    bonded to it (I+2) holds ten, drawn with two I=O still fourteen. Otherwise the shell itself."""
+    shell = state.nonbonding[i] + 2 * state.bond_sums[i]
+    charge = state.formal_charge(i)
+    if charge <= 0:
+        return shell
+    oxides = sum(1 for n in state.mol.GetAtomWithIdx(i).GetNeighbors()
+                 if n.GetAtomicNum() == 8 and state.formal_charge(n.GetIdx()) == -1
+                 and state.bond_electrons(i, n.GetIdx()) == 2)
+    return shell + 2 * min(charge, oxides)
+
+
+# P and S made tetrahedral with one double bond hold ten valence electrons as chemists draw them.
+_TETRAHEDRAL_TEN = frozenset({15, 16})
+
+
+def _made_tetrahedral_double_bond(st: StepTrace, i: int) -> bool:
+    """Whether the step made a double bond to atom i, a P or S it brings to ten electrons with
+    four electron domains (sigma partners and lone pairs): a phosphate, phosphonate or
+    phosphine oxide P=O, a P=S, an iminophosphorane's P=N (four sigma partners), a sulfoxide's S=O
+    (three and a lone pair). Chemists draw these centres so (common practice: Clayden writes the
+    phosphate, the Arbuzov phosphonate and Ph3P=O with P=O); the double bond stands for the polar
+    P+-O- bond, no expanded octet. A five- or six-coordinate P (an oxaphosphetane, PCl5) has more
+    domains and is left to AR504."""
+    after = st.after
+    if after.elements[i] not in _TETRAHEDRAL_TEN or after.nonbonding[i] + 2 * after.bond_sums[i] != 10:
+        return False
+    if after.mol.GetAtomWithIdx(i).GetTotalDegree() + after.nonbonding[i] // 2 != 4:
+        return False
+    made = list(st.change.formed) + [pair for pair, old, new in st.change.reordered if new > old]
+    return any(i in pair and after.bond_electrons(*pair) == 4 for pair in made)
+
+
 def _metal_charge_as_written(state: ElectronState, i: int, charge: int) -> bool:
     """Whether a charge of magnitude two or more on atom i is how its metal is written, not a slip:
     an ionic metal (Mg2+, Zn2+); a bare d- or f-block ion with no bond (Fe3+ of the Fenton reaction,
@@ -523,8 +559,11 @@ class UnusualElectronCounts(Check):
         yield from _protonated_at_the_donor_end(st)
         for i, old_charge, charge in st.change.charges:
             # As for the shell below: a charge the species was written with and the step keeps
-            # (a sulfonyl S written S2+ with two O-) is not the step's doing.
-            if abs(charge) >= 2 and not _metal_charge_as_written(after, i, charge):
+            # (a sulfonyl S written S2+ with two O-) is not the step's doing; nor is one the step
+            # lowers (periodate's I+3, written charge-separated as the README asks, taking an
+            # alcohol to I+2). A charge raised to two or more, or turned to the other sign, is.
+            raised = abs(charge) > abs(old_charge) or charge * old_charge < 0
+            if abs(charge) >= 2 and raised and not _metal_charge_as_written(after, i, charge):
                 label = after.label(i)
                 yield Diagnostic("AR503", f"{label} ends the step with formal charge {charge:+d}", st.step.loc,
                                  hint=f"a formal charge of {charge:+d} on one atom is rare; check the moves onto this atom",
@@ -558,6 +597,11 @@ class UnusualElectronCounts(Check):
             # keeps the twelve electrons its species was written with.
             limit = shell_limit(element)
             if limit is not None and shell > limit and element > 10 and shell > old_shell:
+                if element in _HYPERVALENT and \
+                        _shell_drawn_with_oxo_bonds(after, i) <= _shell_drawn_with_oxo_bonds(before, i):
+                    continue   # a charge-separated oxo centre the step only keeps as drawn (an alcohol onto IO4-)
+                if _made_tetrahedral_double_bond(st, i):
+                    continue   # the P=O of a phosphate, phosphonate or phosphine oxide; a sulfoxide's S=O
                 label = after.label(i)
                 symbol = _HYPERVALENT.get(element)
                 if limit == 18:
@@ -580,6 +624,14 @@ class UnusualElectronCounts(Check):
                         (f"not hypervalent {symbol}: a halogen beyond eight with an odd count or a charge of -2 "
                          f"or less has taken electrons meant for elsewhere; a bond to {label} should break in "
                          f"the same step, or an arrow onto it should end elsewhere")
+                elif element == 15 and after.nonbonding[i] and after.formal_charge(i) < 0 <= before.formal_charge(i):
+                    # A phosphoranide (P- with its lone pair kept) made by a pair bonding to a P(III):
+                    # the phosphine or phosphite attacks (iodine, an alkyl halide), it is not attacked.
+                    beyond, hint = "expanded octet", \
+                        (f"not hypervalent P: {label} kept its lone pair and became negative as another pair "
+                         f"bonded to it; P(III) is a nucleophile here, its lone pair should not stay as another "
+                         f"pair bonds (the electrons went astray): let {label}'s lone pair make a bond to the "
+                         f"electrophile, or let a group leave {label} in the same step")
                 elif symbol:
                     beyond, hint = "expanded octet", \
                         f"fine for hypervalent {symbol} (common practice); otherwise a bond should break"

@@ -2,14 +2,17 @@
 the steps give (AR603). The constitution is CheckpointsMatch's to judge: here only a written piece
 and a derived piece of one constitution are compared, and only when the derived piece is
 configured at as many elements as the written one (the steps configure few centres; of the others
-nothing is said). An enantiomer of a product that forms as the racemate is no mismatch."""
+nothing is said). An enantiomer of a product that forms as the racemate is no mismatch; a
+configuration written at a centre the steps cleared, with no chiral species left to pass one on,
+is (the product forms as the racemate there, not as the one written)."""
 from __future__ import annotations
 
-from typing import Iterator, NamedTuple, Optional
+from typing import Iterator, Mapping, NamedTuple, Optional
 
 from rdkit import Chem
 
 from ..diagnostics import Diagnostic
+from ..configuration import neighbours_round, tag_kept
 from ..electrons import ElectronState
 from ..judgement.stereo import DIASTEREOMERS, ENANTIOMERS, cip_codes, is_chiral, relation
 from ..model import Checkpoint
@@ -67,20 +70,30 @@ def holds_chirality(state: ElectronState) -> bool:
     return False
 
 
-def _labels_that_differ(state: ElectronState, written_smiles: str, constitution: str) -> str:
-    """Where the written piece and the derived one differ, by CIP label (RDKit's), the centres
-    and double bonds named as the state names them: "C1 written (R), the steps give (S)"; empty
-    when RDKit labels neither or pairs no atoms."""
+def _paired(mol: Chem.Mol, written_smiles: str, constitution: str):
+    """(the written piece, the piece of `mol` of that constitution, each written atom's partner in
+    it), or None when RDKit reads neither or pairs no atoms."""
     written = Chem.MolFromSmiles(written_smiles)
-    derived = next((piece.mol for piece in fragments(state.mol, origins=True)
+    derived = next((piece.mol for piece in fragments(mol, origins=True)
                     if Chem.MolToSmiles(piece.mol, isomericSmiles=False) == constitution), None)
     if written is None or derived is None:
-        return ""
+        return None
     bare = Chem.Mol(written)
     Chem.RemoveStereochemistry(bare)
     pairing = derived.GetSubstructMatch(bare)
     if len(pairing) != written.GetNumAtoms():
+        return None
+    return written, derived, pairing
+
+
+def _labels_that_differ(state: ElectronState, written_smiles: str, constitution: str) -> str:
+    """Where the written piece and the derived one differ, by CIP label (RDKit's), the centres
+    and double bonds named as the state names them: "C1 written (R), the steps give (S)"; empty
+    when RDKit labels neither or pairs no atoms."""
+    paired = _paired(state.mol, written_smiles, constitution)
+    if paired is None:
         return ""
+    written, derived, pairing = paired
     mine, theirs = cip_codes(written), cip_codes(derived)
     origin = lambda k: derived.GetAtomWithIdx(k).GetIntProp(_ORIGIN)
     told = []
@@ -99,6 +112,65 @@ def _labels_that_differ(state: ElectronState, written_smiles: str, constitution:
             told.append(f"{state.label(first)}={state.label(second)} written {mine[key]}, "
                         f"the steps give {given or 'no geometry'}")
     return "; ".join(told)
+
+
+class Cleared(NamedTuple):
+    step: int                  # the step that cleared it (0-based)
+    tag: Chem.ChiralType       # its chiral tag before that step, read against
+    around: list[int]          # its neighbours then (configuration.neighbours_round)
+
+
+class ClearedCentres:
+    """The centres whose configuration a step cleared and no later step set again (an
+    enolisation, an SN1's cation, an oxazolone's aromatic anion), each with what it was."""
+
+    def __init__(self) -> None:
+        self.centres: dict[int, Cleared] = {}
+
+    def after(self, st: StepTrace) -> None:
+        if st.after is None or not (st.before.configured or self.centres):
+            return
+        before, after = st.before.mol, st.after.mol
+        for i in st.change.touched_atoms:
+            if i >= after.GetNumAtoms() or i >= before.GetNumAtoms():
+                continue
+            tag = before.GetAtomWithIdx(i).GetChiralTag()
+            if after.GetAtomWithIdx(i).GetChiralTag() != Chem.ChiralType.CHI_UNSPECIFIED:
+                self.centres.pop(i, None)
+            elif tag != Chem.ChiralType.CHI_UNSPECIFIED:
+                self.centres[i] = Cleared(st.index, tag, neighbours_round(before, i))
+
+
+def _written_as_kept(state: ElectronState, written_smiles: str, constitution: str,
+                     cleared: Mapping[int, Cleared]) -> list[str]:
+    """The written piece's centres that a step cleared, the state leaves unconfigured, and the
+    written piece gives the configuration they had before (a claim of retention):
+    "C2 written (S), as it was before step 1, but the steps racemise C2 (...)". A centre written the
+    other way (a racemase's turnover, its chiral site left out) or whose neighbours changed (an
+    SN1's new nucleophile: ion pairs can favour inversion) is not judged."""
+    paired = _paired(state.mol, written_smiles, constitution)
+    if paired is None:
+        return []
+    written, derived, pairing = paired
+    told = []
+    for key, code in cip_codes(written).items():
+        if key[0] != "atom":
+            continue
+        atom = derived.GetAtomWithIdx(pairing[key[1]]).GetIntProp(_ORIGIN)
+        if atom not in cleared or state.mol.GetAtomWithIdx(atom).GetChiralTag() != Chem.ChiralType.CHI_UNSPECIFIED:
+            continue
+        was = cleared[atom]
+        kept = tag_kept(was.tag, was.around, state.mol, atom)
+        if kept is None:
+            continue
+        work = Chem.Mol(state.mol)
+        work.GetAtomWithIdx(atom).SetChiralTag(kept)
+        as_kept = _paired(work, written_smiles, constitution)
+        if as_kept is not None and cip_codes(as_kept[1]).get(("atom", as_kept[2][key[1]])) == code:
+            name = state.label(atom)
+            told.append(f"{name} written ({code}), as it was before step {was.step + 1}, but the steps racemise "
+                        f"{name} (cleared at step {was.step + 1}, set by no later step)")
+    return told
 
 
 class ChiralityWatch:
@@ -134,8 +206,9 @@ def forms_racemate(trace) -> bool:
 
 
 def mismatches(state: ElectronState, checkpoint: Checkpoint, what: str, step: Optional[int],
-               racemic: bool) -> list[Diagnostic]:
-    """AR603 for each written piece of `checkpoint` configured otherwise than `state` has it."""
+               racemic: bool, cleared: Optional[Mapping[int, Cleared]] = None) -> list[Diagnostic]:
+    """AR603 for each written piece of `checkpoint` configured otherwise than `state` has it, or
+    configured as before at a centre the steps racemised (`cleared`, ClearedCentres')."""
     if not any(mark in checkpoint.smiles for mark in _MARKS):
         return []
     written_mol = Chem.MolFromSmiles(checkpoint.smiles)
@@ -151,6 +224,21 @@ def mismatches(state: ElectronState, checkpoint: Checkpoint, what: str, step: Op
         if not configured or constitution not in derived:
             continue
         derived_smiles, derived_configured, _ = derived[constitution]
+        if derived_configured < configured and racemic and cleared:
+            # Fewer configured elements are most often centres no rule configures (an aldol's),
+            # of which nothing is said; but one a step cleared, in a state left with no chiral
+            # molecule, can only form as the racemate (common practice: no chiral reagent, no
+            # enantiomeric excess; an enolate's or oxazolone's reprotonation racemises).
+            racemised = _written_as_kept(state, smiles, constitution, cleared)
+            if racemised:
+                found.append(Diagnostic(
+                    "AR603", f"the {what} is written {smiles}: {'; '.join(racemised)}, and no chiral "
+                    "species is left to pass a configuration on: it forms as the racemate",
+                    checkpoint.loc, step=step,
+                    hint="write it without that configuration (the racemate); where the configuration is "
+                         "kept, the step that clears it is wrong, or the chiral species that sets it again "
+                         "is left out (`arrows trace --stereo` lists what each step configures)"))
+            continue
         if derived_configured != configured or derived_smiles == smiles:
             continue   # (one canonical SMILES: the same stereoisomer, which relation() would read twice to say)
         kind = relation(smiles, derived_smiles)
@@ -173,18 +261,22 @@ class WrittenConfigurationMatches(Check):
 
     def __init__(self) -> None:
         self.watch = ChiralityWatch()
+        self.cleared = ClearedCentres()
 
     def step(self, st: StepTrace, context) -> Iterator[Diagnostic]:
         if st.index == 0:
             self.watch = ChiralityWatch()
+            self.cleared = ClearedCentres()
         self.watch.before(st)
         if st.after is None:
             return
         self.watch.after(st)
+        self.cleared.after(st)
         for checkpoint in st.step.expects:
-            yield from mismatches(st.after, checkpoint, "checkpoint", st.index, self.watch.racemic)
+            yield from mismatches(st.after, checkpoint, "checkpoint", st.index, self.watch.racemic,
+                                  self.cleared.centres)
 
     def finish(self, end: Ending, context) -> Iterator[Diagnostic]:
         product = end.mechanism.product
         if product is not None and end.final is not None:
-            yield from mismatches(end.final, product, "product", None, self.watch.racemic)
+            yield from mismatches(end.final, product, "product", None, self.watch.racemic, self.cleared.centres)

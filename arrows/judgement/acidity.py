@@ -69,6 +69,9 @@ TABLE: tuple[Acidity, ...] = (
     Acidity("a carboxylic acid", "a carboxylate", "[OX2H1][CX3]=O", 4.8, "~4.8", TEXTBOOK),
     # Pyridinium 5.2, a nitroalkane's C-H ~10, a thiol ~10.5, H2S ~7 (aqueous, memory).
     Acidity("a pyridinium ion", "a pyridine", "[nX3+;H1]", 5.2, "5.2", NOT_LISTED),
+    # 1H-Tetrazole 4.9 (aqueous, memory), the activator of phosphoramidite couplings: its N-H, in
+    # either tautomer (1H or 2H), as acidic as a carboxylic acid.
+    Acidity("a tetrazole N-H", "a tetrazolide", "[nX3;H1;$(n1nnnc1),$(n1nncn1)]", 4.9, "4.9", NOT_LISTED),
     Acidity("a nitroalkane C-H", "a nitronate", "[CX4;!H0][NX3+](=O)[O-]", 10, "~10", NOT_LISTED),
     Acidity("a thiol", "a thiolate", "[SX2H1][#6]", 10.5, "~10.5", NOT_LISTED),
     Acidity("hydrogen sulfide", "hydrosulfide", "[SX2H2]", 7, "~7", NOT_LISTED),
@@ -93,6 +96,10 @@ TABLE: tuple[Acidity, ...] = (
     # Acetamidinium 12.4; a protonated imine about 7 (aqueous, memory): HCl's chloride takes neither's N-H.
     Acidity("an amidinium N-H", "an amidine", "[NX3+;!H0]=[CX3][NX3]", 12, "~12", NOT_LISTED),
     Acidity("an iminium N-H", "an imine", "[NX3+;!H0]=[#6]", 7, "~7", NOT_LISTED),
+    # A nitrilium ion (R-C#N+-H) about -10 (acetonitrile's conjugate acid, aqueous, memory): a nitrile
+    # N is protonated only by a superacid or sulfuric acid (the Ritter reaction's nitrile is attacked
+    # at N by a carbocation, not protonated).
+    Acidity("a nitrilium N-H", "a nitrile", "[NX2+;!H0]#[#6]", -10, "~-10", NOT_LISTED),
     Acidity("an enol", "an enolate oxygen", "[OX2H1][CX3]=[CX3]", 10.5, "~10-11", NOT_LISTED),
     Acidity("water", "hydroxide", "[OX2H2]", 15.7, "15.7", TEXTBOOK),
     Acidity("methanol", "methoxide", "[OX2H1][CH3]", 15.5, "~15.5", TEXTBOOK),
