@@ -58,6 +58,7 @@ _LOOP_STANDOFF = 0.45           # bond lengths: a turned-back arc standing furth
 _SELF_CROSSING = math.radians(240)   # an arc turning this far crosses itself
 _OFF_SYMBOL = 15.0              # penalty of a hook whose head reads as the label's H's, not its atom's
 _LABELLED_HOOK = 0.6            # bond lengths: how deep a hook between two labels stands off its bond
+_HEAD_BASE = 0.72                # head lengths from a head's tip back to its base (the notch, _arrow)
 _HOOK_LENGTH = 0.9              # bond lengths: the shortest path that reads as an arc from a bond to its own atom
 _SHORT_HOOK = 30.0              # penalty per bond length such an arrow falls short of that
 _TICK = 4.0                     # penalty of a plain arc where a pair goes from a bond to its own atom
@@ -567,7 +568,7 @@ class ArrowPlanner:
             for k in members:
                 sink = sinks[k]
                 if kind == "atom":
-                    if _to_own_atom(moves[k]):
+                    if to_own_atom(moves[k]):
                         continue   # a half-loop onto its own atom keeps its shape; the other gives way
                     along = unit(pos[moves[k].source_atoms[0]] - sink.point)
                 else:
@@ -619,21 +620,30 @@ class ArrowPlanner:
         the atom from the side, so the arrow reads as a curve and not as a tick on the short span
         between the bond's middle and the label (common practice: C=O to O drawn as a half-loop;
         one fishhook to each atom, on either side of the bond)."""
-        if not _to_own_atom(move):
+        if not to_own_atom(move):
             return []
         out = []
         atom = snk.atoms[0]
         other, = (a for a in src.atoms if a != atom)
         # Between two labels (H-OMe) the bond's stroke is short: a hook of the usual depth under
         # it reads as a tick, a deeper one as a half-loop.
-        h = (_LABELLED_HOOK if all(panel.atoms[a].box is not None for a in src.atoms) else 0.4) * self.bl
+        between_labels = all(panel.atoms[a].box is not None for a in src.atoms)
+        h = (_LABELLED_HOOK if between_labels else 0.4) * self.bl
+        # The head's base is kept off the rest of the label too, but not between two labels: the
+        # stroke there is so short that a head turned that far closes the hook up (H2O+-H: its tip
+        # 0.25 bond lengths from its tail, against 0.41-0.48 unturned)
+        base = 0j if between_labels else _HEAD_BASE * self.head_length
         along = unit(panel.positions[other] - panel.positions[atom])   # from the atom down its bond
         for normal in (src.axis * 1j, src.axis * -1j):
             p0 = src.point + normal * (src.extent + 0.05 * self.bl)
-            # (turned toward the bond, the side the hook comes from, if the label's hydrogens are in the way)
-            side, reach = panel.arrival(atom, normal, 0.12 * self.fs, turn_toward=along)
+            # (turned toward the bond, the side the hook comes from, if the label's hydrogens are in
+            # the way of its head, which comes in from `normal`)
+            side, reach = panel.arrival(atom, normal, 0.12 * self.fs, turn_toward=along, head=normal * base)
             tip = snk.point + side * (reach + 0.12 * self.fs if reach else 0.2 * self.bl)
-            plain = _Candidate(p0, p0 + normal * h, tip + normal * h, tip)
+            # A head turned toward the bond stops nearer the tail: a hook of the usual depth there
+            # is a tick (the water leaving HO+ in a Fischer esterification, 0.75 bond lengths).
+            depth = h if side == normal else max(h, _LABELLED_HOOK * self.bl)
+            plain = _Candidate(p0, p0 + normal * depth, tip + normal * depth, tip)
             out.append(plain)
             # Between the bond and a neighbour's bond less than a right angle round (a C-H between
             # two methyls) that hook crosses the neighbour's bond. This one stays in the angle: it
@@ -814,7 +824,7 @@ class ArrowPlanner:
         # An arrow from a bond to one of its own atoms shorter than _HOOK_LENGTH, or a pair from
         # an atom's dots into a bond of that atom shorter than _PAIR_ARC, reads as a tick rather
         # than an arc (common practice draws a clear half-loop or arc over).
-        shortest = np.array([_HOOK_LENGTH if _to_own_atom(m) else
+        shortest = np.array([_HOOK_LENGTH if to_own_atom(m) else
                              _PAIR_ARC if src.kind == "dots" and snk.kind == "bond" and src.atoms[0] in snk.atoms else 0.0
                              for m, src, snk in zip(moves, sources, sinks)])
         if shortest.any():
@@ -986,7 +996,7 @@ class ArrowPlanner:
         direction = unit(tip - s3)
         normal = direction * 1j
         back = tip - direction * head
-        notch = tip - direction * 0.72 * head
+        notch = tip - direction * _HEAD_BASE * head
         half = head * self.head_width / self.head_length / 2
         if move.electrons == 2:
             outline = (tip, back + normal * half, notch, back - normal * half)
@@ -1124,14 +1134,14 @@ def _curve_crosses(c: _Candidate, segments: list[tuple[complex, complex]]) -> bo
     return False
 
 
-def _to_own_atom(move: ResolvedMove) -> bool:
+def to_own_atom(move: ResolvedMove) -> bool:
     """Electrons going from a bond to one of that bond's own atoms."""
     return move.source_kind == "bond" and len(move.sink_atoms) == 1 and move.sink_atoms[0] in move.source_atoms
 
 
 def _is_split(move: ResolvedMove) -> bool:
     """A single electron going from a bond to one of that bond's own atoms (homolysis)."""
-    return move.electrons == 1 and _to_own_atom(move)
+    return move.electrons == 1 and to_own_atom(move)
 
 
 def _split_bond_sides(w: _PanelArrows, options: list[list[_Candidate]],

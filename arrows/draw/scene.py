@@ -115,6 +115,9 @@ class BondDrawing:
     wedge: str = ""
     narrow: Optional[int] = None
     outline: tuple[Point, ...] = ()
+    # The colour of each of `lines` where they differ (--color: the pi stroke of a C=O whose pi
+    # bond alone breaks is coloured, its sigma stroke stays in ink); empty: every line in `colour`.
+    line_colours: tuple[str, ...] = ()
 
 
 @_filled

@@ -20,7 +20,7 @@ from ..electrons import ElectronState, ResolvedMove, bonds_after
 from ..rdkit_io import bond_list, formula as molecular_formula, fragment
 from ..trace import StepTrace, Trace
 from .branches import may_stand_closer
-from .curves import ArrowPlanner
+from .curves import ArrowPlanner, to_own_atom
 from .layout import Layout, compute_layout
 from .scene import Box, CurvedArrow, Mark, Panel, ReactionArrow, Scene, TextRun
 from .formula import MINUS, Piece, condition_pieces, formula_pieces, inorganic_order
@@ -170,7 +170,8 @@ def build_scene(trace: Trace, style: Style, diagnostics: Sequence[Diagnostic] = 
     4 + 3 + 1)."""
     builder = _SceneBuilder(trace, style, diagnostics)
     scene, fit = builder.build()
-    uneven = (_uneven_bonds(scene) + _crowded_atoms(scene) + _signs_on_bonds(scene) + _heavy_lines(style)
+    uneven = (_uneven_bonds(scene) + _crowded_atoms(scene) + _signs_on_bonds(scene) + _cramped_hooks(scene)
+              + _heavy_lines(style)
               + _glyphs_wanting(trace, style) + _font_missing(style))
     if fit < 0.999:
         if style.page_height is None:
@@ -426,6 +427,42 @@ def _crowded_atoms(scene: Scene) -> tuple[str, ...]:
     return tuple(notes)
 
 
+# Bond lengths: the shortest path (shaft and head) of an arrow from a bond to one of its own atoms
+# that reads as a half-loop; shorter, it prints as a tick beside the bond (the geometry tests'
+# measure: 0.56-0.79 read as ticks in a figure review, 0.88 and more as curves).
+_LEGIBLE_HOOK = 0.8
+
+
+def _hooked_atoms(src: _PanelSource, visible: Sequence[int]) -> list[int]:
+    """The drawn atoms of a panel that a half-loop comes into (a pair or an electron going from a
+    bond to that atom): their map numbers are set after the arrows (place_held_numbers). (The
+    numbers of both ends of the bond, so held, left 25 numbers nearer another atom than their
+    own over the corpus, against 19.)"""
+    if src.leaving is None:
+        return []
+    shown = set(visible)
+    return sorted({m.sink_atoms[0] for m in src.leaving.change.moves if to_own_atom(m)} & shown)
+
+
+def _cramped_hooks(scene: Scene) -> tuple[str, ...]:
+    """A note for each panel where an arrow from a bond to one of its own atoms is shorter than
+    _LEGIBLE_HOOK, the structure round the bond leaving no room for a half-loop (common practice
+    draws it as a clear curve), so that the author looks before using the figure."""
+    notes = []
+    for panel in scene.panels:
+        for arrow in panel.arrows:
+            if not (arrow.source_kind == "bond" and len(arrow.sink_atoms) == 1
+                    and arrow.sink_atoms[0] in arrow.source_atoms):
+                continue
+            points = arrow.path_points(16)   # (within 1% of the length at 40 samples; a quarter of the cost)
+            length = sum(math.dist(a, b) for a, b in zip(points, points[1:])) / scene.bond_length
+            if length < _LEGIBLE_HOOK:
+                notes.append(f"panel {panel.index + 1}: the arrow {arrow.move} is a curve of {length:.2f} bond lengths, "
+                             f"too short to read as a half-loop: the structure leaves it no room; check the figure")
+                break
+    return tuple(notes)
+
+
 def _signs_on_bonds(scene: Scene) -> tuple[str, ...]:
     """A note for each panel where a charge sign's ink touches a bond line, where a minus reads as
     a bond and a bond through a plus hides it (IUPAC 2008: a charge sits beside its atom, clear of
@@ -493,6 +530,11 @@ class _SceneBuilder:
         planned = self.planner.plan([(sources[k].leaving.index, _drawable(moves[k], drawn[k][1]), sources[k].state,
                                       drawn[k][1]) for k in leaving])
         arrows = dict(zip(leaving, planned))
+        if self.style.numbers:
+            for k, src in enumerate(sources):
+                held = _hooked_atoms(src, drawn[k][0])
+                if held:
+                    self.drawer.place_held_numbers(held, drawn[k][1], *arrows.get(k, ([], [])))
         panels = [self._panel(k, src, *drawn[k], *arrows.get(k, ([], [])))
                   for k, src in enumerate(sources)]
         specs = [self._arrow_spec(src.leaving, src.hidden) for src in sources if src.leaving is not None]
@@ -515,17 +557,20 @@ class _SceneBuilder:
         visible = tuple([i for i in placed.visible if i not in src.hidden and i not in src.idle
                          and (i not in drawn_h or i in shown_h)])
         positions = {i: placed.positions[i] * bl for i in visible}
-        formed, broken = set(), set()
+        # Each bond the arriving step formed, with the order it had before; each the leaving step
+        # breaks, with the order it keeps (--color colours only the strokes between).
+        formed, broken = {}, {}
         if src.arriving is not None:
             change = src.arriving.change
-            formed |= {tuple(sorted(b)) for b in change.formed}
-            formed |= {tuple(sorted(b)) for b, old, new in change.reordered if new > old}
+            formed.update((tuple(sorted(b)), 0) for b in change.formed)
+            formed.update((tuple(sorted(b)), old) for b, old, new in change.reordered if new > old)
         if src.leaving is not None:
             change = src.leaving.change
-            broken |= {tuple(sorted(b)) for b in change.broken}
-            broken |= {tuple(sorted(b)) for b, old, new in change.reordered if new < old}
+            broken.update((tuple(sorted(b)), 0) for b in change.broken)
+            broken.update((tuple(sorted(b)), new) for b, old, new in change.reordered if new < old)
         forming = {tuple(sorted(b)) for b in src.leaving.change.formed} if src.leaving is not None else set()
-        return visible, self.drawer.draw(src.state, visible, positions, shown_h, formed, broken, bonds, forming)
+        held = frozenset(_hooked_atoms(src, visible)) if self.style.numbers else frozenset()
+        return visible, self.drawer.draw(src.state, visible, positions, shown_h, formed, broken, bonds, forming, held)
 
     def _panel(self, k: int, src: _PanelSource, visible: tuple[int, ...], structure: PanelStructure,
                arrows: list[CurvedArrow], dots: list[Mark]) -> Panel:

@@ -15,14 +15,15 @@ import math
 from dataclasses import dataclass, field
 from functools import lru_cache
 from itertools import islice
-from typing import Iterator, Optional
+from types import MappingProxyType
+from typing import Iterator, Mapping, Optional, Sequence
 
 from rdkit import Chem
 
 from ..electrons import ElectronState
 from ..rdkit_io import HYDROGEN_ISOTOPES, bond_list
 from .plane import distance_to_segment, unit_or_zero
-from .scene import AtomDrawing, BondDrawing, Box, Mark, TextRun
+from .scene import AtomDrawing, BondDrawing, Box, CurvedArrow, Mark, TextRun
 from .styles import BROKEN_COLOUR, FORMED_COLOUR, INK, NUMBER_COLOUR, Style
 from .formula import MINUS
 from .text import FontFace
@@ -44,6 +45,8 @@ _SIGN_STROKE_GAP = 0.2   # font sizes of white kept between a superscript charge
 _SIDE_SIGN_STROKE_GAP = 0.16
 _MINUS_STROKE_SLOPE = math.tan(math.radians(15))
 _LEVEL_WITH_LABEL = math.sin(math.radians(30))   # directions this near the horizontal
+_ARROW_SAMPLES = 16   # points along a curved arrow that a map number set after the arrows keeps off
+_NO_BONDS: Mapping[tuple[int, int], int] = MappingProxyType({})
 
 
 @dataclass
@@ -69,15 +72,16 @@ class PanelStructure:
             return 0.0
         return ray_exit(self.positions[atom], direction, box)
 
-    def arrival(self, atom: int, direction: complex, gap: float, turn_toward: Optional[complex] = None
-                ) -> tuple[complex, float]:
+    def arrival(self, atom: int, direction: complex, gap: float, turn_toward: Optional[complex] = None,
+                head: complex = 0j) -> tuple[complex, float]:
         """(side, reach): where an arrowhead arriving at the atom stops, `reach` from its centre
         along `side` (then `gap` further out). Short of the element symbol itself where the rest
         of the label is not in the way, so that a half-loop onto the O of OH points at the O and
         not past its H (common practice: the head touches the atom that takes the electrons);
         where the rest is in the way along `direction`, the side is turned up to 60 degrees
-        toward `turn_toward` (if given), no further than finds the symbol clear; else short of the whole label
-        along `direction` (reach 0: no label)."""
+        toward `turn_toward` (if given), no further than finds the symbol clear, the head's base
+        (`head` from its tip) included; else short of the whole label along `direction` (reach 0:
+        no label)."""
         box = self.atoms[atom].box
         if box is None:
             return direction, 0.0
@@ -101,8 +105,11 @@ class PanelStructure:
                 if margin > 0 and not any(b.contains(point, 0.5 * gap) for b in rest) \
                         and (best is None or margin > best[0] + 1e-6):
                     best = (margin, side, near)
-                    if margin >= gap:
-                        break   # plainly the symbol's: turned no further than needed
+                    # Plainly the symbol's, the head's base too (a base under the H of HO+ read as
+                    # pointing at the H): turned no further than needed.
+                    base = (tip.real + head.real, tip.imag + head.imag)
+                    if margin >= gap and (not head or min(b.distance(base) for b in rest) >= symbol.distance(base)):
+                        break
             if best is not None:
                 return best[1], best[2]
         return direction, ray_exit(centre, direction, box)
@@ -274,6 +281,38 @@ def minus_along_stroke(x0: float, width: float, y: float, strokes: list[tuple[co
     return False
 
 
+def _stroke_paint(order: int, formed_from: Optional[int], kept: Optional[int]) -> tuple[tuple[str, ...], ...]:
+    """--color: the colours of each stroke of a bond of `order`, in _strokes' order (the first
+    stroke stands for the sigma bond), where the step arriving at the panel formed the strokes
+    beyond the first `formed_from` and the step leaving it breaks those beyond the first `kept`
+    (None: nothing formed, or nothing broken). Only what changes is coloured: the pi stroke of
+    a C=O whose pi pair goes onto O, not its sigma stroke. A stroke formed by the one step and
+    broken by the next (an enolate's C=C) takes both colours."""
+    paint = []
+    for k in range(order):
+        colours = ((FORMED_COLOUR,) if formed_from is not None and k >= formed_from else ()) + \
+                  ((BROKEN_COLOUR,) if kept is not None and k >= kept else ())
+        paint.append(colours or (INK,))
+    return tuple(paint)
+
+
+def _painted(lines: list[tuple[complex, complex]], paint: tuple[tuple[str, ...], ...]
+             ) -> tuple[list[tuple[complex, complex]], tuple[str, ...]]:
+    """The strokes and the colour of each: a stroke of two colours is drawn as two halves, the
+    first (from the bond's first atom) in the colour it was formed in, the second in the colour
+    of its breaking."""
+    out, colours = [], []
+    for (start, end), inks in zip(lines, paint):
+        if len(inks) == 1:
+            out.append((start, end))
+            colours.append(inks[0])
+        else:
+            middle = (start + end) / 2
+            out += [(start, middle), (middle, end)]
+            colours += inks
+    return out, tuple(colours)
+
+
 def _sign_near_stroke(box: Box, size: float, strokes: list[tuple[complex, complex]], gap: float) -> bool:
     """Whether a charge sign in `box` (of font size `size`) comes within `gap` font sizes of a bond
     stroke: a stroke passing just under the sign reads as part of it (a "+" over a bond as "±",
@@ -381,13 +420,17 @@ class StructureDrawer:
         self._facts: dict[int, tuple[str, int, int, int, Optional[str]]] = {}
 
     def draw(self, state: ElectronState, visible: tuple[int, ...], positions: dict[int, complex],
-             drawn_hydrogens: frozenset[int], formed: set[tuple[int, int]] = frozenset(),
-             broken: set[tuple[int, int]] = frozenset(),
+             drawn_hydrogens: frozenset[int], formed: Mapping[tuple[int, int], int] = _NO_BONDS,
+             broken: Mapping[tuple[int, int], int] = _NO_BONDS,
              listed_bonds: Optional[list[tuple[int, int, float]]] = None,
-             forming: set[tuple[int, int]] = frozenset()) -> PanelStructure:
-        """`listed_bonds` are the state's bonds as rdkit_io.bond_list reads them (read here when
-        not given); `forming` the bonds the step leaving the panel makes, whose arrows head for
-        the gap between their atoms: a charge sign beside a vertex keeps out of that gap."""
+             forming: set[tuple[int, int]] = frozenset(), held_back: frozenset[int] = frozenset()) -> PanelStructure:
+        """`formed`: the bonds the step arriving at the panel formed or raised in order, each with
+        the order it had before (0: formed whole); `broken`: those the step leaving it breaks or
+        lowers, each with the order it keeps. `listed_bonds` are the state's bonds as
+        rdkit_io.bond_list reads them (read here when not given); `forming` the bonds the step
+        leaving the panel makes, whose arrows head for the gap between their atoms: a charge sign
+        beside a vertex keeps out of that gap; `held_back` the atoms whose map numbers wait for
+        the arrows (place_held_numbers)."""
         mol = state.mol
         shown = set(visible)
         # RDKit is asked once per bond, and about an atom only where the state's own numbers do
@@ -445,7 +488,9 @@ class StructureDrawer:
                     narrow, wide = (i, j) if (i, j) in wedges else (j, i)
                     out.bonds.append(self._wedge(narrow, wide, wedges[(narrow, wide)], role, out))
                 else:
-                    out.bonds.append(self._bond(i, j, order, role, out, neighbours, rings))
+                    paint = _stroke_paint(order, formed.get(key), broken.get(key)) \
+                        if self.style.color and role != "plain" else None
+                    out.bonds.append(self._bond(i, j, order, role, out, neighbours, rings, paint))
         nonbonding = state.nonbonding
         for i in visible:
             # (most atoms carry neither a charge nor electrons of their own: no call for them)
@@ -455,11 +500,28 @@ class StructureDrawer:
         if self.style.numbers:
             for i in visible:
                 number = facts[i][1]
-                if number:
+                if number and i not in held_back:
                     out.marks.append(self._side_text("number", i, str(number), out, preferred=cmath.rect(1, math.pi / 4)))
         if self.style.cip:
             self._cip_marks(state, visible, out)
         return out
+
+    def place_held_numbers(self, held: Sequence[int], out: PanelStructure, arrows: Sequence[CurvedArrow],
+                           dots: Sequence[Mark]) -> None:
+        """The map numbers (--numbers) of the `held` atoms, those a half-loop comes into, set after
+        the panel's curved arrows and off them and their dots where they can be without reading as
+        another atom's. Set before the arrows, such a number took the room of the half-loop, which
+        shrank to a tick (the water leaving HO+ in a Fischer esterification)."""
+        pad = 0.5 * self.style.line_width
+        taken = [m.box for m in dots if m.box is not None]
+        for arrow in arrows:
+            taken += [Box(x - pad, y - pad, x + pad, y + pad) for x, y in arrow.path_points(_ARROW_SAMPLES)]
+            taken.append(Box.enclosing([Box(x, y, x, y) for x, y in arrow.head]))
+        for i in held:
+            number = self._facts[i][1]
+            if number:
+                out.marks.append(self._side_text("number", i, str(number), out, preferred=cmath.rect(1, math.pi / 4),
+                                                 avoid=taken))
 
     # atoms and labels
     def _atom_facts(self, mol: Chem.Mol, atoms: tuple[int, ...]) -> dict[int, tuple[str, int, int, int, Optional[str]]]:
@@ -617,25 +679,27 @@ class StructureDrawer:
 
     # bonds
     def _bond(self, i: int, j: int, order: int, role: str, out: PanelStructure,
-              neighbours: dict[int, list[int]], rings: list[list[int]]) -> BondDrawing:
+              neighbours: dict[int, list[int]], rings: list[list[int]],
+              paint: Optional[tuple[tuple[str, ...], ...]] = None) -> BondDrawing:
+        """`paint`: the colours of each stroke (_stroke_paint), None for all in ink."""
         p, q = out.positions[i], out.positions[j]
         box_i, box_j = out.atoms[i].box, out.atoms[j].box
         pair = (i, j) if i < j else (j, i)
         if order == 1:   # one centred stroke: its ends, labels and role fix it
-            key = (i, j, role, p, q, box_i, box_j)
+            key = (i, j, role, p, q, box_i, box_j, paint)
             drawing = self._single_bonds.get(key)
             if drawing is None:
-                drawing = self._single_bonds[key] = self._strokes(i, j, order, role, out, neighbours, 0)[0]
+                drawing = self._single_bonds[key] = self._strokes(i, j, order, role, out, neighbours, 0, paint)[0]
             out.bond_extent[pair] = 0.0
             return drawing
         # A double or triple bond's strokes depend as well on the side its second line takes and,
         # at a bare vertex, on the bonds they meet there: with those, it is reused likewise.
         side = self._double_side(i, j, out.positions, neighbours, rings) if order == 2 else 0
         key = (i, j, order, role, p, q, box_i, box_j, side, tuple([(m, out.positions[m]) for m in neighbours[i]]),
-               tuple([(m, out.positions[m]) for m in neighbours[j]]))
+               tuple([(m, out.positions[m]) for m in neighbours[j]]), paint)
         known = self._multiple_bonds.get(key)
         if known is None:
-            known = self._multiple_bonds[key] = self._strokes(i, j, order, role, out, neighbours, side)
+            known = self._multiple_bonds[key] = self._strokes(i, j, order, role, out, neighbours, side, paint)
         drawing, extent, lean = known
         if lean is not None:
             out.bond_lean[pair] = lean
@@ -643,10 +707,12 @@ class StructureDrawer:
         return drawing
 
     def _strokes(self, i: int, j: int, order: int, role: str, out: PanelStructure,
-                 neighbours: dict[int, list[int]], side: int) -> tuple[BondDrawing, float, Optional[complex]]:
+                 neighbours: dict[int, list[int]], side: int, paint: Optional[tuple[tuple[str, ...], ...]] = None
+                 ) -> tuple[BondDrawing, float, Optional[complex]]:
         """The bond's strokes, clipped at labels, with the second or third line set beside the
-        first (a double bond's on `side`, as _double_side chooses); how far they reach off the
-        bond's axis; and the offset of a one-sided double bond's second line (else None)."""
+        first (a double bond's on `side`, as _double_side chooses), in the colours `paint` gives
+        them (None: ink); how far they reach off the bond's axis; and the offset of a one-sided
+        double bond's second line (else None)."""
         bl = self.style.bond_length
         p, q = out.positions[i], out.positions[j]
         pad = 0.12 * self.style.font_size
@@ -675,12 +741,13 @@ class StructureDrawer:
             lines, extent = [line(0), line(n * gap * 0.8), line(-n * gap * 0.8)], gap * 0.8
         else:
             lines, extent = [line(0)], 0.0
-        colour = INK
-        if self.style.color and role == "formed":
-            colour = FORMED_COLOUR
-        elif self.style.color and role == "broken":
-            colour = BROKEN_COLOUR
-        drawing = BondDrawing((i, j), order, tuple([((s.real, s.imag), (e.real, e.imag)) for s, e in lines]), role, colour)
+        colour, line_colours = INK, ()
+        if paint is not None:
+            lines, line_colours = _painted(lines, paint)
+            if len(set(line_colours)) == 1:
+                colour, line_colours = line_colours[0], ()
+        drawing = BondDrawing((i, j), order, tuple([((s.real, s.imag), (e.real, e.imag)) for s, e in lines]), role,
+                              colour, line_colours=line_colours)
         return drawing, extent, lean
 
     def _wedges(self, state: ElectronState, adjacent: list[list[int]],
@@ -876,11 +943,11 @@ class StructureDrawer:
         return minus_along_stroke(x0, width, y, strokes, self.style.bond_length)
 
     def _side_text(self, kind: str, i: int, text: str, out: PanelStructure, preferred: complex,
-                   italic: bool = False, shunned: Optional[complex] = None) -> Mark:
+                   italic: bool = False, shunned: Optional[complex] = None, avoid: Sequence[Box] = ()) -> Mark:
         """Small text beside atom i (a charge, a map number, a CIP label): in the roomiest direction
         round the atom, leaning to `preferred`, that keeps the text off other atoms' labels and
         the marks already placed (else the roomiest), and more than 60 degrees from `shunned`
-        (the way into the atom's ring) where it can."""
+        (the way into the atom's ring) where it can; off the `avoid` boxes too (curved arrows)."""
         size = self.style.small_size
         face = self.italic if italic else self.face
         width = face.width(text, size)
@@ -929,14 +996,16 @@ class StructureDrawer:
             # (a charge only where it stands nearer another atom than its own: Favorskii's carbanion
             # sign between its C and the ester's)
             ambiguous = _nearer_another(mark.box, i, out, 1.25 if kind != "charge" else 1.0)
-            fault = (gap < pad or on_stroke, ambiguous, inside, slid >= _FAR_SLIDE,
+            # On an arrow (`avoid`) is the least of the faults (a drafting label's).
+            on_arrow = bool(avoid) and min(_separation(mark.box, b) for b in avoid) < pad
+            fault = (gap < pad or on_stroke, ambiguous, inside, slid >= _FAR_SLIDE, on_arrow,
                      0.0 if kind == "charge" else -min(gap, pad))
-            if upper_right and (any(fault[:4]) or _nearer_another(mark.box, i, out, _CLEARLY_ITS_OWN, letters=True) or
+            if upper_right and (any(fault[:5]) or _nearer_another(mark.box, i, out, _CLEARLY_ITS_OWN, letters=True) or
                                 self._sign_distance(mark, out.atoms[i].box) > _BY_THE_LABEL * self.style.bond_length):
                 continue
             if best is None or fault < best[0]:
                 best = (fault, direction, mark)
-            if not any(fault[:4]):
+            if not any(fault[:5]):
                 break
         _, direction, mark = best
         out.occupied[i].append(direction)

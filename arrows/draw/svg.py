@@ -105,10 +105,17 @@ def _panel(panel: Panel, line_width: float, bond_paths: dict, written: dict) -> 
             continue
         element = written.get(id(bond))
         if element is None:
-            path = bond_paths.get(bond.lines)
-            if path is None:
-                path = bond_paths[bond.lines] = " ".join([f"M{_pt(p)} L{_pt(q)}" for p, q in bond.lines])
-            element = written[id(bond)] = _strokes(path, bond.colour, "bond")
+            if bond.line_colours:   # one path per colour, in the order the colours first come
+                by_colour: dict[str, list[str]] = {}
+                for (p, q), colour in zip(bond.lines, bond.line_colours):
+                    by_colour.setdefault(colour, []).append(f"M{_pt(p)} L{_pt(q)}")
+                element = "\n".join([_strokes(" ".join(parts), colour, "bond") for colour, parts in by_colour.items()])
+            else:
+                path = bond_paths.get(bond.lines)
+                if path is None:
+                    path = bond_paths[bond.lines] = " ".join([f"M{_pt(p)} L{_pt(q)}" for p, q in bond.lines])
+                element = _strokes(path, bond.colour, "bond")
+            written[id(bond)] = element
         strokes.append(element)
     for arrow in panel.arrows:
         d = f"M{_pt(arrow.start)} C{_pt(arrow.control1)} {_pt(arrow.control2)} {_pt(arrow.end)}"
