@@ -44,7 +44,7 @@ def _format_of(output: Path, fmt: str | None) -> str:
 @click.option("--format", "fmt", type=click.Choice(FORMATS), help="Output format, when the name does not say it.")
 @click.option("--style", type=click.Choice(STYLE_NAMES), default="two-column", show_default=True,
               help="Page preset: one journal column (8.3 cm), two columns (17.1 cm) or a 16:9 slide.")
-@click.option("--color", "color", is_flag=True, help="Colour bonds formed (blue) and broken (vermillion).")
+@click.option("--color", "color", is_flag=True, help="Colour the bonds each step makes (blue) and breaks (vermillion); where only a pi bond changes, its second line (Okabe-Ito colours).")
 @click.option("--numbers", is_flag=True, help="Show atom map numbers beside atoms, in green (for drafting).")
 @click.option("--cip", is_flag=True, help="Show CIP labels (R/S) of stereocentres.")
 @click.option("--step-labels", is_flag=True, help="Write each step's label under its reaction arrow.")
