@@ -22,6 +22,7 @@ from ..trace import StepTrace, Trace
 from .branches import may_stand_closer
 from .curves import ArrowPlanner, to_own_atom
 from .layout import Layout, compute_layout
+from .plane import distance_to_segment, segments_cross
 from .scene import Box, CurvedArrow, Mark, Panel, ReactionArrow, Scene, TextRun
 from .formula import MINUS, Piece, condition_pieces, formula_pieces, inorganic_order
 from .structure import PanelStructure, StructureDrawer, segment_hits_box
@@ -397,33 +398,62 @@ def _uneven_bonds(scene: Scene) -> tuple[str, ...]:
     return tuple(notes)
 
 
+# Two labels side by side nearer than a thin space (a sixth of an em, common practice in type
+# setting) read as one word: "HN" beside "N" reads "HNN".
+_THIN_SPACE = 1 / 6
+# A skeletal vertex this near a bond line (bond lengths) reads as a joint of that bond; a label
+# this near one has the line run into it.
+_ON_A_BOND = 0.25
+_LABEL_ON_A_BOND = 0.05
+# An atom on a bond, or two bonds that cross, put two atoms nearer than this (bond lengths): two
+# unit segments crossing through both middles at right angles have their ends 0.71 apart. Only a
+# panel with such a pair is searched further (4% of the corpus's panels).
+_CROWDING_REACH = 0.75
+
+
 def _crowded_atoms(scene: Scene) -> tuple[str, ...]:
-    """A note for each panel where two atom labels overlap or two atoms stand nearer than half a
-    bond length (IUPAC 2008: atoms and labels never overlap), so that the author looks before
-    using the figure. The geometry tests hold the gallery and the textbook schemes to this; it is
-    the safety net for arrangements of molecules the layout has not met."""
+    """A note for each panel where two atom labels overlap or run together, two atoms stand nearer
+    than half a bond length, an atom or its label lies on a bond not its own, or two bonds cross
+    (IUPAC 2008: atoms and labels never overlap), so that the author looks before using the figure.
+    The geometry tests hold the gallery and the textbook schemes to this; it is the safety net for
+    arrangements of molecules the layout has not met (the Boc NH of an HOBt ester, a benzotriazole
+    nitrogen set beside it and its N-O bond across the N-C bond)."""
     notes = []
+    bl = scene.bond_length
+    thin = _THIN_SPACE * scene.style.font_size
     for panel in scene.panels:
         atoms = panel.atoms
-        # Sweep from left to right: a label is compared only with those that start before it ends.
+        # Sweep from left to right: a label is compared only with those that start before it ends
+        # (and a thin space beyond); of those, one level with it at all is too near.
         labelled = sorted((a for a in atoms if a.box is not None), key=lambda a: a.box.x0)
         clash = next(((a, b) for n, a in enumerate(labelled)
-                      for b in takewhile(lambda b, a=a: b.box.x0 < a.box.x1, labelled[n + 1:])
-                      if a.box.overlaps(b.box)), None)
+                      for b in takewhile(lambda b, a=a: b.box.x0 < a.box.x1 + thin, labelled[n + 1:])
+                      if a.box.y0 < b.box.y1 and b.box.y0 < a.box.y1), None)
         if clash is not None:
-            notes.append(f"panel {panel.index + 1}: the labels of {clash[0].name} and {clash[1].name} overlap: "
+            a, b = clash
+            how = "overlap" if a.box.overlaps(b.box) else "run together"
+            notes.append(f"panel {panel.index + 1}: the labels of {a.name} and {b.name} {how}: "
                          f"the layout found no clear place for them; check the figure")
             continue
-        if len(atoms) < 2 or not may_stand_closer([a.position for a in atoms], 0.5 * scene.bond_length):
+        if len(atoms) < 2 or not may_stand_closer([a.position for a in atoms], _CROWDING_REACH * bl):
             continue
         where = np.array([complex(*a.position) for a in atoms])
-        apart = np.abs(where[:, None] - where[None, :]) / scene.bond_length
+        apart = np.abs(where[:, None] - where[None, :]) / bl
         # (np.fill_diagonal's and np.argmin's own work, without their Python wrappers)
         apart.flat[::len(atoms) + 1] = np.inf
         i, j = divmod(int(apart.argmin()), len(atoms))
         if apart[i, j] < 0.5:
             notes.append(f"panel {panel.index + 1}: {atoms[i].name} and {atoms[j].name} are drawn {apart[i, j]:.2f} "
                          f"bond lengths apart: the layout found no clear place for them; check the figure")
+            continue
+        # Only atoms near one another can lie on each other's bonds, or have bonds that cross.
+        near: dict[int, list[int]] = {}
+        for i, j in zip(*np.nonzero(apart < _CROWDING_REACH)):
+            near.setdefault(atoms[i].index, []).append(atoms[j].index)
+        lines, names = _lines_at(panel), {a.index: a.name for a in atoms}
+        tangle = _atom_on_a_bond(atoms, lines, near, names, bl) or _bonds_crossing(lines, near, names)
+        if tangle:
+            notes.append(f"panel {panel.index + 1}: {tangle}: the layout found no clear place for them; check the figure")
     return tuple(notes)
 
 
@@ -461,6 +491,57 @@ def _cramped_hooks(scene: Scene) -> tuple[str, ...]:
                              f"too short to read as a half-loop: the structure leaves it no room; check the figure")
                 break
     return tuple(notes)
+
+
+def _lines_at(panel: Panel) -> dict[int, list[tuple[complex, complex, tuple[int, int]]]]:
+    """Every line a bond is drawn with (both strokes of a double bond, a wedge's edges or hashes)
+    with the bond's two atoms, under each of those atoms (a bond to an atom the panel does not
+    draw left out)."""
+    drawn_atoms = {a.index for a in panel.atoms}
+    lines: dict[int, list[tuple[complex, complex, tuple[int, int]]]] = {}
+    for bond in panel.bonds:
+        if not drawn_atoms.issuperset(bond.atoms):
+            continue
+        drawn = [(complex(*p), complex(*q), bond.atoms) for p, q in bond.lines]
+        for i in bond.atoms:
+            lines.setdefault(i, []).extend(drawn)
+    return lines
+
+
+def _atom_on_a_bond(atoms, lines, near: dict[int, list[int]], names: dict[int, str], bl: float) -> str:
+    """'X lies on the bond Y-Z' for the first atom drawn on a bond not its own (a skeletal vertex
+    within _ON_A_BOND of its line, a label the line runs into), or ''. An atom on a bond one bond
+    length long stands within _CROWDING_REACH of an end of it: only the bonds of the atoms `near`
+    it are looked at (`lines` as _lines_at gives them)."""
+    pad = _LABEL_ON_A_BOND * bl
+    for atom in atoms:
+        if atom.index not in near:
+            continue
+        nearby = [(p, q, ends) for other in near[atom.index] for p, q, ends in lines.get(other, ())
+                  if atom.index not in ends]
+        if atom.box is None:
+            point = complex(*atom.position)
+            hit = next((ends for p, q, ends in nearby if distance_to_segment(point, p, q) < _ON_A_BOND * bl), None)
+        else:
+            box = Box(atom.box.x0 - pad, atom.box.y0 - pad, atom.box.x1 + pad, atom.box.y1 + pad)
+            hit = next((ends for p, q, ends in nearby if segment_hits_box(p, q, box)), None)
+        if hit is not None:
+            return f"{atom.name} lies on the bond {names[hit[0]]}-{names[hit[1]]}"
+    return ""
+
+
+def _bonds_crossing(lines, near: dict[int, list[int]], names: dict[int, str]) -> str:
+    """'the bonds W-X and Y-Z cross' for the first two bonds with no atom in common whose lines
+    cross, or ''. Two bonds one bond length long that cross have an end of one within
+    _CROWDING_REACH of an end of the other: only the bonds of atoms `near` each other are compared."""
+    for i, others in near.items():
+        for j in others:
+            for p, q, mine in lines.get(i, ()):
+                for a, b, theirs in lines.get(j, ()):
+                    if not set(mine) & set(theirs) and segments_cross(p, q, a, b):
+                        return (f"the bonds {names[mine[0]]}-{names[mine[1]]} and {names[theirs[0]]}-"
+                                f"{names[theirs[1]]} cross")
+    return ""
 
 
 def _signs_on_bonds(scene: Scene) -> tuple[str, ...]:
