@@ -995,3 +995,25 @@ def test_ar603_on_a_racemic_product_says_either_enantiomer_may_be_written():
     found = [d for d in diags if d.code == "AR603"]
     assert len(found) == 1 and "diastereomers" in found[0].message, [d.to_text() for d in diags]
     assert "either enantiomer of it may be written" in found[0].hint
+
+
+def test_the_no_stereocontrol_note_names_only_centres_the_steps_touched():
+    """AR602's closing note is about what the mechanism leaves open: a racemic camphorsulfonic acid
+    written without configuration that only gives its proton (common practice: the catalyst is
+    not the product's stereochemistry) gets no note; in a glucose whose anomeric centre a step
+    opens and closes, only that centre is named, not its four untouched neighbours (Clayden,
+    mutarotation; from memory)."""
+    from arrows import check_text
+    csa = ('species csa = "CC1(C)C2CCC1(CS(=O)(=O)[OH:1])C(=O)C2"\nspecies ammonia = "[NH3:2]"\n'
+           'step "proton transfer"\n    :N2 -> H(O1)\n    O1-H -> O1\nend\n')
+    assert not [d for d in check_text(csa, "csa.mech")[1] if d.code == "AR602"]
+    glucose = ('species glucose = "O[CH2:6][C@H:5]1[O:7][C@@H:1]([OH:8])[C@H:2](O)[C@@H:3](O)[C@@H:4]1O"\n'
+               'species acid = "[OH3+:9]"\nspecies water = "[OH2:10]"\n'
+               'step "ring O protonated"\n    :O7 -> H(O9)\n    O9-H -> O9\nend\n'
+               'step "ring opens"\n    :O8 -> C1=O8\n    C1-O7 -> O7\nend\n'
+               'step "ring closes"\n    :O7 -> C1\n    C1=O8 -> O8\nend\n'
+               'step "proton off"\n    :O10 -> H(O8)\n    O8-H -> O8\nend\n'
+               'step "proton off O7"\n    :O9 -> H(O7)\n    O7-H -> O7\nend\n')
+    notes = [d.message for d in check_text(glucose, "glucose.mech")[1]
+             if d.code == "AR602" and "no stereocontrol" in d.message]
+    assert len(notes) == 1 and "(stereocentre C1)" in notes[0], notes

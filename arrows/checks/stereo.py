@@ -55,6 +55,11 @@ def product_stereo(final: Optional[ElectronState], touched: set[int], views: Opt
         if set(indices) & final.released:
             continue
         mine = tuple(sorted(e for e in elements if e.atoms[0] in indices))
+        if several_only:
+            # The note names only what the steps made or cleared: a centre no step touched (a
+            # racemic acid written without configuration, only giving its proton; glucose's four
+            # untouched centres beside the anomeric one) is the species as written.
+            mine = tuple(e for e in mine if touched.intersection(e.atoms))
         if not mine:
             continue
         position = {old: new for new, old in enumerate(sorted(indices))}
