@@ -29,6 +29,8 @@ from textbook_mechanisms import TEXTBOOK
 
 ROOT = Path(__file__).resolve().parent.parent
 GALLERY = sorted((ROOT / "gallery").glob("*.mech"))
+# A gallery mechanism whose check prints notes (its ring closure's): a file seen as checked.
+NOTED = next(p for p in GALLERY if p.name == "04-heptanedione-cyclohexenone.mech")
 SCHEMES = 33    # 30 from the gallery and its variations, 3 broken on purpose
 
 BROKEN = {
@@ -493,7 +495,7 @@ def test_dot_files_and_dot_folders_are_left_out_of_a_folder(tmp_path):
     folder = tmp_path / "si"
     for name in ("a.mech", ".hidden.mech", ".git/x.mech", ".ipynb_checkpoints/a-checkpoint.mech", ".#a.mech"):
         (folder / name).parent.mkdir(parents=True, exist_ok=True)
-        shutil.copy(GALLERY[0], folder / name)
+        shutil.copy(NOTED, folder / name)
     runs = {"folder": ["si"], "named": ["si", "si/.hidden.mech", "si/.git"]}
     expected = {"folder": ["si/a.mech"], "named": ["si/a.mech", "si/.hidden.mech", "si/.git/x.mech"]}
     for run, inputs in runs.items():
@@ -505,7 +507,7 @@ def test_dot_files_and_dot_folders_are_left_out_of_a_folder(tmp_path):
         checked = subprocess.run(["arrows", "check", *inputs], capture_output=True, text=True, cwd=tmp_path,
                                  timeout=300)
         assert checked.returncode == 0 and f"{len(expected[run])} file" in checked.stderr, checked.stderr
-        assert sorted(re.findall(r"^(\S+\.mech):\d+:\d+: note", checked.stdout, re.M)) == sorted(expected[run])
+        assert sorted(set(re.findall(r"^(\S+\.mech):\d+:\d+: note", checked.stdout, re.M))) == sorted(expected[run])
     for command in ("collect", "check"):
         helped = subprocess.run(["arrows", command, "--help"], capture_output=True, text=True, timeout=60).stdout
         assert "dot-files and" in flat(helped) and "dot-folders" in helped
@@ -515,7 +517,7 @@ def test_files_are_named_as_reached_from_the_command_line(tmp_path):
     """Two folders holding x.mech: console, report, pages and index name each as `arrows check`
     does (two/a/x.mech, two/b/x.mech). Both once said x.mech, and even one folder gave paths
     relative to itself (b/x.mech:7:5) that lead nowhere from where the command ran."""
-    for folder, text in (("a", GALLERY[0].read_text()), ("b", BROKEN["zz-broken-octet.mech"][0])):
+    for folder, text in (("a", NOTED.read_text()), ("b", BROKEN["zz-broken-octet.mech"][0])):
         (tmp_path / "two" / folder).mkdir(parents=True)
         (tmp_path / "two" / folder / "x.mech").write_text(text)
     checked = subprocess.run(["arrows", "check", "two"], capture_output=True, text=True, cwd=tmp_path, timeout=300)
