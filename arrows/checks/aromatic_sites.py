@@ -14,6 +14,7 @@ from typing import Iterator
 from ..diagnostics import Diagnostic
 from ..trace import StepTrace
 from . import Check
+from .valence import doubly_bonded
 
 
 class AromaticOxygenNucleophile(Check):
@@ -34,7 +35,7 @@ class AromaticOxygenNucleophile(Check):
             if before.mol.GetBondBetweenAtoms(o, target) is not None:
                 continue   # a pair pushed into a bond the oxygen has (C=O+ forming in the ring)
             neighbours = [n.GetIdx() for n in before.mol.GetAtomWithIdx(o).GetNeighbors()]
-            if len(neighbours) != 2 or not all(_in_a_double_bond(before, n) for n in neighbours):
+            if len(neighbours) != 2 or not all(doubly_bonded(before, n) is not None for n in neighbours):
                 continue   # (a furan's O stands between two C=C carbons: most oxygens fail this at once)
             view = context.views.of(before)
             position = view.position(o)
@@ -53,7 +54,3 @@ class AromaticOxygenNucleophile(Check):
                 hint=f"a furan reacts at the ring carbon next to {x} ({' or '.join(ring_carbons)}), its pair from the "
                      f"ring's C=C with {x}'s pair pushing in, or as a diene in a cycloaddition (Joule & Mills, from memory)",
                 atoms=(x, t), step=st.index)
-
-
-def _in_a_double_bond(state, atom: int) -> bool:
-    return any(state.bond_electrons(atom, n.GetIdx()) == 4 for n in state.mol.GetAtomWithIdx(atom).GetNeighbors())

@@ -44,10 +44,10 @@ class UphillHydrogenAtomTransfers(Check):
         if after is None or not st.change.formed or not st.change.broken:
             return
         before = st.before
-        elements = before_elements = before.elements
+        elements = before.elements
         if not any(m.electrons == 1 for m in st.change.moves):
             return   # a polar step: no hydrogen atom moves
-        broken = {k: pair for pair in st.change.broken for k in pair if before_elements[k] == 1}
+        broken = {k: pair for pair in st.change.broken for k in pair if elements[k] == 1}
         for pair in st.change.formed:
             h = next((k for k in pair if elements[k] == 1), None)
             if h is None or h not in broken:

@@ -479,7 +479,7 @@ def _oxyanion_near(state, centre: int) -> Optional[int]:
     return None
 
 
-def _doubly_bonded(state, i: int) -> Optional[int]:
+def doubly_bonded(state, i: int) -> Optional[int]:
     """An atom bonded to atom i by a double bond in `state` (the O of a P=O), if any."""
     return next((n.GetIdx() for n in state.mol.GetAtomWithIdx(i).GetNeighbors()
                  if state.bond_electrons(i, n.GetIdx()) == 4), None)
@@ -607,7 +607,7 @@ class UnusualElectronCounts(Check):
                 if limit == 18:
                     beyond, hint = "more than the 18 of the 18-electron rule", \
                         "a ligand should leave the metal in the same step"
-                elif element == 15 and shell > 10 and (double := _doubly_bonded(after, i)) is not None:
+                elif element == 15 and shell > 10 and (double := doubly_bonded(after, i)) is not None:
                     # Ten is phosphorus's most in a neutral or cationic species (PCl5, an oxaphosphorane);
                     # twelve only in a hexacoordinate anion (PF6-), never beside a P=O still kept.
                     x = after.label(double)
