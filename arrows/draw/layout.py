@@ -1557,12 +1557,13 @@ class _LayoutBuilder:
         sometimes_sp = [a for a in group if self._linear(a)]
         start = 0
         while start < self.n:
-            bonds = self._run_bonds(group, start, start) | self._hop_ahead(group, start)
+            own, ahead = self._run_bonds(group, start, start), self._hop_ahead(group, start)
+            bonds = own | ahead
             end, local = start, self._depict(group, bonds, range(start, start + 1))
-            if self._bonds_cross(local, bonds) and self._hop_ahead(group, start):
+            if ahead and self._bonds_cross(local, bonds):
                 # The cyclic array drawn as a ring crosses bonds (the periodinane's ligands round the
                 # iodine as its acetate takes the alcohol's alpha H): the panel's own bonds only.
-                bonds = self._run_bonds(group, start, start)
+                bonds = own
                 local = self._depict(group, bonds, range(start, start + 1))
             while end + 1 < self.n:
                 if any(self._linear(a, range(start, end + 1)) and not self._linear(a, range(start, end + 2))
