@@ -745,8 +745,10 @@ CODES = _table(
          "leaves as an anion whose conjugate acid has a pKa of 3 or more (a carboxylate from a glycosyl "
          "ester, 4.8; a trichloroacetimidate as the amide's anion, its pair passed on to N): it leaves "
          "only once activated, protonated or bonded to a Lewis acid (TMSOTf or TfOH, BF3.OEt2; Schmidt, "
-         "from memory). A sulfonate or halide leaves unaided (a glycosyl triflate ionises), and a "
-         "phosphate, which the pKa table does not name, is not judged. A nitrogen's push (a "
+         "from memory). A sulfonate, a halide or a phosphate leaving as a monoanion (a glycosyl "
+         "dialkyl phosphate's, conjugate acid pKa ~1-2) leaves unaided (a glycosyl triflate ionises); a "
+         "phosphate dianion (pKa ~6-7: UDP from a sugar nucleotide) is activated by a metal ion or a general "
+         "acid (Kumler & Eiler 1943 for the pKa values, from memory). A nitrogen's push (a "
          "carbinolamine giving an iminium ion and hydroxide) and an anion's (a tetrahedral intermediate "
          "collapsing) are not judged, nor a phenoxide leaving, a carbon with a third heteroatom (an "
          "ester's neutral tetrahedral intermediate) or an epoxide opening (the Rubottom oxidation).",
@@ -797,6 +799,21 @@ CODES = _table(
          'step "acylation"\n'
          '    :O1 -> O1-C6   # the ring O\'s pair is aromatic: attack at C2 (`C2=C3 -> C2-C6`)\n'
          '    C6#O7 -> O7\n'
+         'end'),
+    Code("AR538", WARNING, "carbon nucleophile adding to a carboxylate",
+         "A carbon nucleophile (a Grignard reagent, an enolate or enol, cyanide, an ylide) bonds to the carbon of a "
+         "carboxylate ion or its metal salt (a C=O and an O- or O-metal, the rest carbon or hydrogen). The "
+         "charge spread over both oxygens makes a carboxylate a very poor electrophile: a Grignard carboxylation "
+         "stops at the carboxylate, and an enolate does not add to one (common practice; Clayden, from memory). "
+         "Only an organolithium adds, to a lithium carboxylate, giving the gem-dialkoxide that work-up turns into a "
+         "ketone (Jorgenson, Org. React. 1970, from memory): a carbon bonded to lithium, or a carbanion with "
+         "nothing beside it to hold the charge written apart from Li+, is not judged. Nor are a hydride or a "
+         "heteroatom nucleophile, a carbonate's or carbamate's carbon and CO2.",
+         'species grignard = "[CH3:1][Mg:2][Br:3]"\n'
+         'species acetate = "C[C:4](=[O:5])[O-:6]"\n'
+         'step "addition"\n'
+         '    C1-Mg2 -> C1-C4   # no Grignard adds to a carboxylate: use an ester\n'
+         '    C4=O5 -> O5\n'
          'end'),
     Code("AR601", NOTE, "ring closure",
          "A step closes a ring; its size and Baldwin class are given. A pericyclic step (every arrow "

@@ -739,6 +739,13 @@ TWINS = [
          'step "attack at C2"\n    :O1 -> O1=C5\n    C4=C5 -> C3=C4\n    C2=C3 -> C2-C7\n    C7#O8 -> O8\nend\n',
          "    :O1 -> O1=C5\n    C4=C5 -> C3=C4\n    C2=C3 -> C2-C7\n", "    :O1 -> O1-C7\n",
          "AR537", ":O1 -> O1-C7", says=("O1", "C7", "aromatic"), hint_says=("C2 or C5",)),
+    # Methylmagnesium bromide adds to acetone's C=O (Clayden, from memory); a carboxylate in its place
+    # takes no Grignard reagent: a Grignard carboxylation stops at the carboxylate (common practice).
+    Twin("carbon nucleophile adding to a carboxylate",
+         'species grignard = "[CH3:1][Mg:2][Br:3]"\nspecies ketone = "C[C:4](=[O:5])C"\n'
+         'step "addition"\n    C1-Mg2 -> C1-C4\n    C4=O5 -> O5\nend\n',
+         'species ketone = "C[C:4](=[O:5])C"', 'species acetate = "C[C:4](=[O:5])[O-]"',
+         "AR538", "C1-Mg2 -> C1-C4", says=("C1", "C4", "carboxylate", "Grignard"), hint_says=("organolithium", "ester")),
 ]
 
 

@@ -58,6 +58,7 @@ def _registry() -> list[Check]:
     """A fresh instance of every check (each keeps what it needs of one replay)."""
     if not _CHECK_CLASSES:
         from .aromatic_sites import AromaticOxygenNucleophile
+        from .carboxylates import CarbonNucleophileOnCarboxylate
         from .checkpoints import CheckpointsMatch
         from .conservation import ChargeAndAtomsConserved
         from .leaving import ConcertedAcylSubstitution, StrongBaseLeavingGroups, TertiarySubstitution
@@ -81,7 +82,7 @@ def _registry() -> list[Check]:
                                StrainedCumulenes, CarbeneFromCH, FourCentreProtonTransfers,
                                CHPairBondsAsProtonGoes, UnpairedElectronsInPolarMechanism, OniumBesideAte,
                                SigmaComplexesRearomatise, UphillHydrogenAtomTransfers,
-                               FreeHydrogenAtoms, AromaticOxygenNucleophile])
+                               FreeHydrogenAtoms, AromaticOxygenNucleophile, CarbonNucleophileOnCarboxylate])
     return [cls() for cls in _CHECK_CLASSES]
 
 

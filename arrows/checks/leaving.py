@@ -369,9 +369,11 @@ def _trifluoroacetyl(carbon: Chem.Atom) -> bool:
 
 
 # The conjugate acid's pKa from which a group pushed out of an acetal carbon needs activation:
-# a sulfonate, a halide or trifluoroacetate (pKa below ~1) leaves a glycosyl carbon unaided (a
-# glycosyl triflate ionises); a carboxylate (4.8), an amide's anion (a trichloroacetimidate
-# donor's leaving group) or an alkoxide leaves only once protonated or bonded to a Lewis acid
+# a sulfonate, a halide, trifluoroacetate or a phosphate monoanion (pKa below ~2) leaves a glycosyl
+# carbon unaided (a glycosyl triflate ionises); a carboxylate (4.8), a phosphate dianion (~6.5: a
+# sugar nucleotide's UDP, which a glycosyltransferase's Mg2+ or Mn2+ holds), an amide's anion (a
+# trichloroacetimidate donor's leaving group) or an alkoxide leaves only once protonated or bonded
+# to a Lewis acid
 # (common practice: glycosyl acetates, imidates and phosphates are activated with TMSOTf, TfOH or
 # BF3.OEt2; Demchenko, from memory).
 _UNAIDED_FROM_ACETAL_PKA = 3.0
@@ -429,10 +431,10 @@ def _pushed_out_of_an_acetal(st: StepTrace, move, leaving: int, centre: int,
     oxygen protonated first or as it leaves (a glycosidase's general acid), so that it leaves as an
     alcohol (common practice; Clayden, from memory). So too a glycosyl donor's leaving group that
     leaves as an anion whose conjugate acid has a pKa of _UNAIDED_FROM_ACETAL_PKA or more (a
-    carboxylate, a trichloroacetimidate as the amide's anion, at `anion`): it is activated first,
+    carboxylate, a phosphate dianion, a trichloroacetimidate as the amide's anion, at `anion`): it is activated first,
     protonated or bonded to a Lewis acid. A nitrogen's push (a carbinolamine giving an
     iminium ion and hydroxide, real at high pH) and an anion's (a tetrahedral intermediate
-    collapsing) are not judged, nor a sulfonate or halide leaving, a carbon with a third
+    collapsing) are not judged, nor a sulfonate, halide or phosphate monoanion leaving, a carbon with a third
     heteroatom (an ester's or amide's neutral tetrahedral intermediate, drawn so in textbooks) or an
     epoxide opening (its strain drives it: the Rubottom oxidation's siloxy epoxide)."""
     before, after = st.before, st.after
@@ -483,13 +485,18 @@ def _unactivated_donor(st: StepTrace, move, acid: Acidity, anion: int, donor: Op
         how = f"in a step before this one, `:{y} -> H({a})` with `{a}-H -> {a}`"
     else:
         how = "in a step before this one"
+    phosphate = any(n.GetAtomicNum() == 15 for n in st.after.mol.GetAtomWithIdx(anion).GetNeighbors())
+    # A phosphate polyanion is activated in an enzyme by a metal ion, and leaves protonated still an anion.
+    metal, leaves = ((" or, in an enzyme, a metal ion (Mg2+ or Mn2+, which holds a glycosyltransferase's UDP as it "
+                      "leaves)", "as a weaker base") if phosphate else ("", "neutral"))
     return Diagnostic(
         "AR534", f"{o} leaves {c}{where} as {acid.base} (pKa of {acid.acid} {acid.shown}) pushed out by {x}'s lone "
         f"pair with nothing activating it: a glycosyl donor's leaving group this basic departs only once protonated "
         f"or bonded to a Lewis acid",
         move.move.loc,
         hint=f"activate {y} {how}: protonate it or bond the promoter to it (TMSOTf or TfOH, BF3.OEt2: the usual "
-             f"activators of glycosyl imidates, esters and phosphates, common practice), so that the group leaves neutral",
+             f"activators of glycosyl imidates, esters and phosphates, common practice){metal}, so that the group leaves "
+             f"{leaves}",
         atoms=(o, c, x), step=st.index)
 
 

@@ -18,6 +18,7 @@ from .tables import first_match
 TEXTBOOK = "textbook aqueous pKa (memory)"
 NOT_LISTED = "textbook aqueous pKa (memory; not in the shared list)"
 COMMON_PRACTICE = "common practice: between methanol (15.5) and tert-butanol (18)"
+PHOSPHATES = "Kumler & Eiler 1943; CRC Handbook (aqueous, memory)"
 
 
 @frozen
@@ -59,6 +60,16 @@ TABLE: tuple[Acidity, ...] = (
     # Sulfonic acid ~-2.8 (TsOH), carbonic acid 6.4 and bicarbonate 10.3 (aqueous, memory): before the
     # carboxylic acid, whose pattern both carbonic acids match.
     Acidity("a sulfonic acid", "a sulfonate", "[OX2H1][SX4](=O)=O", -2.8, "~-3", NOT_LISTED),
+    # A phosphate's O-H by the charge already on its P: none (phosphoric acid 2.1, a monoester's
+    # first proton 1.5, a diester 1.3), one O- (dihydrogen phosphate 7.2, a monoester's second
+    # proton 6.3, ADP's or UDP's terminal phosphate), two (hydrogen phosphate 12.3). Aqueous: methyl
+    # and dimethyl phosphate from Kumler & Eiler, J. Am. Chem. Soc. 1943, phosphoric acid from the
+    # CRC Handbook (memory). Each other O is esterified, an anhydride's or an O-H.
+    Acidity("hydrogen phosphate", "phosphate", "[OX2H1][PX4](=O)([OX1-])[OX1-]", 12.3, "12.3", PHOSPHATES),
+    Acidity("a phosphate monoanion's O-H", "a phosphate dianion", "[OX2H1][PX4](=O)([OX1-])[OX2]", 6.5, "~6-7",
+            PHOSPHATES),
+    Acidity("a phosphoric acid or its mono- or diester", "a phosphate monoanion", "[OX2H1][PX4](=O)([OX2])[OX2]", 1.5,
+            "~1-2", PHOSPHATES),
     Acidity("bicarbonate", "carbonate", "[OX2H1][CX3](=O)[OX1-]", 10.3, "10.3", NOT_LISTED),
     Acidity("carbonic acid", "bicarbonate", "[OX2H1][CX3](=O)[OX2H1]", 6.4, "6.4", NOT_LISTED),
     # Haloacetic acids (aqueous, memory): trifluoroacetic ~0.3, trichloroacetic ~0.7, chloroacetic
@@ -67,6 +78,20 @@ TABLE: tuple[Acidity, ...] = (
     Acidity("trichloroacetic acid", "trichloroacetate", "[OX2H1][CX3](=O)C(Cl)(Cl)Cl", 0.7, "~0.7", NOT_LISTED),
     Acidity("a chloroacetic acid", "a chloroacetate", "[OX2H1][CX3](=O)[CH2]Cl", 2.9, "~2.9", NOT_LISTED),
     Acidity("a carboxylic acid", "a carboxylate", "[OX2H1][CX3]=O", 4.8, "~4.8", TEXTBOOK),
+    # An imidazolium N-H, either ring N's proton as the Kekule form puts the charge (the aromatic
+    # n+ or the n across C2 from it): imidazolium 7.0, 1-methylimidazolium 7.1, a histidine side
+    # chain 6.0 (the free amino acid's and the usual value in proteins), benzimidazolium 5.5
+    # (aqueous; Joule & Mills, Heterocyclic Chemistry, and the amino acid tables of Lehninger's
+    # Principles of Biochemistry; memory). Before the pyridinium entry, which matches the n+-H;
+    # C4 and C5 in one ring only (R1), so a benzimidazolium or a purine protonated at N7 is not
+    # read as an imidazolium. An azolium C2-H is its own entry (AZOLIUM_C2_H, above).
+    Acidity("a histidine side-chain imidazolium N-H", "a histidine imidazole",
+            "[nX3;H1;$(n1:c:[n+]:[c;R1]:[c;R1]:1),$([n+]1:c:n:[c;R1]:[c;R1]:1);"
+            "$(n1:c:n:c([CH2][CX4][#7]):c:1),$(n1:c:n:c:c:1[CH2][CX4][#7])]", 6.0, "~6", NOT_LISTED),
+    Acidity("a benzimidazolium N-H", "a benzimidazole",
+            "[nX3;H1;$(n1:c:[n+]:c2:c:c:c:c:c:2:1),$([n+]1:c:n:c2:c:c:c:c:c:2:1)]", 5.5, "5.5", NOT_LISTED),
+    Acidity("an imidazolium N-H", "an imidazole",
+            "[nX3;H1;$(n1:c:[n+]:[c;R1]:[c;R1]:1),$([n+]1:c:n:[c;R1]:[c;R1]:1)]", 7.0, "7.0", NOT_LISTED),
     # Pyridinium 5.2, a nitroalkane's C-H ~10, a thiol ~10.5, H2S ~7 (aqueous, memory).
     Acidity("a pyridinium ion", "a pyridine", "[nX3+;H1]", 5.2, "5.2", NOT_LISTED),
     # 1H-Tetrazole 4.9 (aqueous, memory), the activator of phosphoramidite couplings: its N-H, in
