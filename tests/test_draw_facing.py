@@ -107,3 +107,94 @@ def test_a_nucleophile_waiting_to_attack_keeps_off_the_other_molecules():
     "separate species in one panel are placed ... without overlap")."""
     assert _bond_is_formed_next("mitsunobu", 4, 8, 10)
     assert _crossings_between_molecules("mitsunobu") == []
+
+
+def _nearest(scene, panel: int, these: set[int], those: set[int]) -> float:
+    """Nearest approach, in bond lengths, of the atoms `these` to the atoms `those` in `panel`."""
+    where = {atom.index: atom.position for atom in scene.panels[panel].atoms}
+    return min(math.dist(where[a], where[b]) for a in these if a in where for b in those if b in where) \
+        / scene.bond_length
+
+
+def _species(trace, mapped: int) -> set[int]:
+    """The atoms of the starting species that holds the atom of map number `mapped`."""
+    mol = trace.initial.mol
+    index = {atom.GetAtomMapNum(): atom.GetIdx() for atom in mol.GetAtoms() if atom.GetAtomMapNum()}
+    return next(set(f) for f in Chem.GetMolFrags(mol, sanitizeFrags=False) if index[mapped] in f)
+
+
+def test_an_alcohol_comes_to_the_periodinane_clear_of_its_acetoxy_groups():
+    """Dess-Martin oxidation, panel 0: the alcohol O6 adds to the iodine I2, whose four oxygen
+    ligands and aryl carbon leave no wide gap. RDKit laid the alcohol over the acetoxy group on
+    O3 (its O6 0.93 bond lengths from that group's methyl) and the arrow into the iodine crossed
+    two of that group's bonds. Separate species stand at least a bond length apart (common
+    practice: nearer, an atom of one reads as bonded to the other), and the arrow crosses no
+    bond, as the gap between the O3 acetoxy group and the aryl ring leaves a clear way."""
+    from test_draw_geometry import _bonds_crossed
+    trace, diags = arrows.check_text(TEXTBOOK["dess-martin"][0], "dess-martin")
+    scene = build_scene(trace, STYLES["two-column"], diags)
+    alcohol = _species(trace, 6)
+    assert _nearest(scene, 0, alcohol, _species(trace, 2)) >= 1.0
+    assert [c for c in _bonds_crossed(scene) if c[0] == 0] == []
+
+
+_HOBT_COUPLING = """
+# DCC/HOBt peptide coupling, Boc-Ala-OH + H-Gly-OMe (Montalbetti & Falque, Tetrahedron 2005, 61,
+# 10827; from memory)
+species acid = "CC(C)(C)OC(=O)N[C@@H](C)[C:1](=[O:2])[OH:3]"
+species dcc = "C1CCC(CC1)[N:10]=[C:11]=[N:12]C1CCCCC1"
+species hobt = "[OH:20][n:21]1nnc2ccccc21"
+species amine = "[NH2:30]CC(=O)OC"
+step "the acid protonates DCC" reversible
+    :N10 -> H(O3)
+    O3-H -> O3
+end
+step "the carboxylate adds to the carbodiimide"
+    :O3 -> C11
+    C11=N10 -> N10
+end
+step "HOBt adds to the activated carbonyl"
+    :O20 -> C1
+    C1=O2 -> O2
+end
+step "collapse: the isourea leaves"
+    :O2 -> C1=O2
+    C1-O3 -> O3
+end
+step "proton transfer to the isourea anion"
+    :N12 -> H(O20)
+    O20-H -> O20
+end
+step "dicyclohexylurea" resonance
+    :O3 -> C11=O3
+    C11=N12 -> N12
+end
+step "the amine adds to the OBt ester"
+    :N30 -> C1
+    C1=O2 -> O2
+end
+step "collapse: OBt- leaves"
+    :O2 -> C1=O2
+    C1-O20 -> O20
+end
+step "proton transfer to OBt-"
+    :O20 -> H(N30)
+    N30-H -> N30
+end
+"""
+
+
+def test_an_hobt_ester_keeps_clear_of_the_boc_carbamate():
+    """DCC/HOBt coupling, panels 3-8: the HOBt oxygen O20 bonds to the acyl carbon C1, which
+    also holds the isourea oxygen O3, both from clusters of their own. The acid's depiction,
+    drawn with C1's own two bonds only, curled the Boc carbamate round the one spot left at C1:
+    the benzotriazole's N1 stood 0.52 bond lengths from the carbamate's nitrogen, every spot round
+    C1 as crowded. With room kept at C1 the ring system stands a bond length or more off the rest
+    of the acid (common practice, as above) in every panel that draws both."""
+    trace, diags = arrows.check_text(_HOBT_COUPLING, "hobt coupling")
+    scene = build_scene(trace, STYLES["two-column"], diags)
+    index = {atom.GetAtomMapNum(): atom.GetIdx() for atom in trace.initial.mol.GetAtoms() if atom.GetAtomMapNum()}
+    ring_system = _species(trace, 21) - {index[20]}
+    rest_of_acid = _species(trace, 1) - {index[1]}
+    for panel in range(3, 9):
+        assert _nearest(scene, panel, ring_system, rest_of_acid) >= 1.0, panel

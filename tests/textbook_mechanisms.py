@@ -5296,8 +5296,7 @@ TEXTBOOK = {
     # from a phenyl carbon), the first two arrows short; the phenyls no longer overlap
     "corey-fuchs": (COREY_FUCHS, "BrC(Br)=Cc1ccccc1", False),
     "imidazole acyl transfer": (IMIDAZOLE_ACYL_TRANSFER, "COC(C)=O", True),
-    # the product's amide nitrogen, C4 and C7 drawn in a tight triangle (it reads as an aziridine),
-    # its N-H bond across the C4-methyl bond
+    # the proton taken by N6 is drawn on O5's far side, its arrow arching over the C4 methyl
     "passerini": (PASSERINI, "CC(OC(C)=O)C(=O)NC(C)(C)C", False),
     # the silyl shift redraws the ring (a carbon moves 1.56 bond lengths), the peracid's own proton
     # transfer is cramped, and the oxocarbenium oxygen's dots sit beside its bond

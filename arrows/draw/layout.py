@@ -73,6 +73,10 @@ _OPEN_ANGLE = math.radians(105)   # least angle a hydrogen leaning toward its pa
 _HIDDEN_VERTEX = math.radians(160)   # two bonds of a bare vertex straighter than this hide it
 _OFF_A_BOND = math.radians(35)   # least angle between a travelling hydrogen's bond and its holder's others
 _SIXTY = math.radians(60)
+# Least angle between a hydrogen turned round its holder to face the atom that takes it and the
+# holder's bonds (its holder's neighbours are kept off by it, not by _HYDROGEN_ROOM: in a
+# 90-degree gap it stands 0.7-0.8 bond lengths from them).
+_FACING_OFF_A_BOND = math.radians(40)
 _RING_ANGLE_SLACK = math.radians(30)   # a ring angle further than this from the regular polygon's reads as squeezed
 _BACKSIDE_ROOM = math.radians(55)   # a nucleophile's line of approach from the centre's other bonds
 # Ways to place a cluster next to its partner, in order of preference: (penalty, turn of the
@@ -88,6 +92,10 @@ _ROUND_BOND_OPTIONS = sorted((abs(t) + abs(s) * 0.7, t, s, 0.0) for t in range(-
 # The same without spins, for a cluster that bonds by an sp atom (a diazo compound's middle N).
 _STRAIGHT_BOND_OPTIONS = [o for o in _BOND_OPTIONS if o[2] == 0]
 _STRAIGHT_ROUND_BOND_OPTIONS = [o for o in _ROUND_BOND_OPTIONS if o[2] == 0]
+# A separate piece set to face the one it bonds to in the next step: the distances from its
+# partner tried, and the turns from the partner's free direction, every 10 degrees, nearest first.
+_FACING_DISTANCES = (CYCLOADDITION_GAP, 2.2, 2.6, 3.0)
+_FACING_TURNS = tuple(cmath.rect(1.0, math.radians(10 * k)) for k in sorted(range(-17, 19), key=abs))
 # A chain end (one bond of its own) bonds on at 120 degrees to that bond (_joining_side): a spin
 # about it opens the angle to 150 or 180 (a methylamine's N straight between its methyl and the
 # C it joins) or closes it. Where a spot is clear with the angle kept or mirrored (a spin of 120
@@ -650,14 +658,28 @@ def compute_layout(states: Sequence[ElectronState], moves: Sequence[Sequence[Res
     reads them (read here when not given). `product` holds atoms of the last state's product
     proper, which the by-products line up after (by default the largest molecule)."""
     with _rdkit_depictor():
-        return _LayoutBuilder(states, moves, touched, left_out, bonds, product).build()
+        builder = _LayoutBuilder(states, moves, touched, left_out, bonds, product)
+        layout = builder.build()
+        if builder.cramped:
+            # Tried again with room kept at the centres where a partner found no clear place:
+            # taken if fewer partners are cramped so.
+            retry = _LayoutBuilder(states, moves, touched, left_out, bonds, product, frozenset(builder.cramped))
+            retried = retry.build()
+            if len(retry.cramped) < len(builder.cramped):
+                return retried
+        return layout
 
 
 class _LayoutBuilder:
     def __init__(self, states: Sequence[ElectronState], moves: Sequence[Sequence[ResolvedMove]],
                  touched: Sequence[Iterable[int]], left_out: Sequence[Iterable[int]] = (),
-                 bonds: Optional[Sequence[list[tuple[int, int, float]]]] = None, product: Iterable[int] = ()):
+                 bonds: Optional[Sequence[list[tuple[int, int, float]]]] = None, product: Iterable[int] = (),
+                 roomier: frozenset[int] = frozenset()):
+        """`roomier`: atoms whose depiction keeps room for a partner in another cluster, where a
+        first try found no clear place round them (_cramped_centre)."""
         self.states = list(states)
+        self.roomier = roomier
+        self.cramped: set[int] = set()   # the atoms _cramped_centre found so, placing
         self.product = frozenset(product)
         self.n = len(self.states)
         self.touched = [set(t) for t in touched] + [set()] * (self.n - len(touched))
@@ -1074,6 +1096,11 @@ class _LayoutBuilder:
                 if any((i, j) in bonds and self._heavy_degree(a, bonds) >= 5 for bonds in self.bonds_in) \
                         or self._lewis_acid_taking_fourth(a, (i, j)) or self._onium_made(a, (i, j)):
                     room[a] = room.get(a, 0) + 1
+            # An atom that a first try found no clear place round (_cramped_centre) keeps room
+            # for one of its partners in other clusters.
+            for a in (i, j):
+                if a in self.roomier and a not in room:
+                    room[a] = 1
             # A ring atom with three heavy neighbours of its own, one of them a heteroatom that
             # bonds to it to close the ring, keeps room for its fourth too, so that the ring's
             # depiction splays its two bonds out of the ring: drawn trigonal, the group it bonds
@@ -1618,9 +1645,11 @@ class _LayoutBuilder:
                        last: int) -> dict[int, complex]:
         """`local` (the first run's depiction, drawn from `bonds`) with the smaller of two separate
         pieces that the step after panel `last` bonds together by one bond turned and moved to
-        face the other across CYCLOADDITION_GAP, each atom of the new bond in its free gap (a ketene
-        facing the imine nitrogen that adds to it), where RDKit, which lays separate pieces side by
-        side at will, turned one of those atoms away from the other. Unchanged for anything else."""
+        face the other, each atom of the new bond in its free gap (a ketene facing the imine
+        nitrogen that adds to it), where RDKit, which lays separate pieces side by side at will,
+        turned one of those atoms away from the other or set the piece on the other's atoms or
+        behind its bonds (an alcohol over an acetoxy group of the periodinane it adds to).
+        Unchanged for anything else."""
         pieces = _UnionFind(group)
         for i, j in bonds:
             pieces.join(i, j)
@@ -1636,13 +1665,68 @@ class _LayoutBuilder:
         adjacent = _adjacency(bonds)
         u = free_direction(local[i], [local[n] for n in adjacent.get(i, ())])
         v = free_direction(local[j], [local[n] for n in adjacent.get(j, ())])
+        obstacles, walls = self._around_joining_atom(local, large, bonds, i, u, last)
+
+        def fit(moved: dict[int, complex]) -> tuple[float, bool]:
+            """Nearest approach of the small piece to the large one (and to what it carries),
+            and whether the way from the small piece's atom to its partner crosses none of
+            their bonds."""
+            atoms = np.array([moved[a] for a in small], dtype=complex)
+            room = float(np.abs(atoms[:, None] - obstacles[None, :]).min())
+            clear = not len(walls) or not crosses_any(np.array([moved[j]]), np.array([local[i]]), walls)[0]
+            return room, clear
+
+        def facing(d: complex, distance: float) -> dict[int, complex]:
+            """`local` with the small piece turned to face the large one from direction d."""
+            turn, target = -d / v, local[i] + d * distance
+            return {**local, **{a: target + (local[a] - local[j]) * turn for a in small}}
+
         gap = local[j] - local[i]
         if abs(cmath.phase(gap / u)) <= math.pi / 2 and abs(cmath.phase(-gap / v)) <= math.pi / 2:
-            return local   # RDKit set them facing each other already, more or less
-        turn = -u / v
-        target = local[i] + u * CYCLOADDITION_GAP
-        moved = {a: target + (local[a] - local[j]) * turn for a in small}
-        return {**local, **moved}
+            best = local   # RDKit set them facing each other already, more or less
+        else:
+            best = facing(u, CYCLOADDITION_GAP)
+        # Where that is crowded or its arrow would cross a bond (the periodinane's iodine has a
+        # ligand in every gap), round the joining atom and further out, nearest the free
+        # direction first: the first clear spot, else the roomiest.
+        best_fit = fit(best)
+        if best_fit[0] >= _CLEARANCE and best_fit[1]:
+            return best
+        for distance in _FACING_DISTANCES:
+            for turn in _FACING_TURNS:
+                moved = facing(u * turn, distance)
+                room, clear = fit(moved)
+                if room >= _CLEARANCE and clear:
+                    return moved
+                if (clear, min(room, _CLEARANCE)) > (best_fit[1], min(best_fit[0], _CLEARANCE)):
+                    best, best_fit = moved, (room, clear)
+        return best
+
+    def _around_joining_atom(self, local: dict[int, complex], large: list[int], bonds: set[tuple[int, int]],
+                             atom: int, free: complex, last: int) -> tuple[np.ndarray, np.ndarray]:
+        """The atoms (as points) and bonds (as rows of two ends) that a piece coming to bond to
+        `atom` of the piece `large` must keep clear of in panel `last`: the large piece's, and
+        those of another cluster that `atom` carries there (the acetate the periodinane's iodine
+        loses as the alcohol comes in), not depicted here, estimated in `atom`'s free direction
+        with that cluster's own depiction fanned out beyond it."""
+        points = [local[a] for a in large]
+        walls = [(local[a], local[b]) for a, b in bonds if a in local and b in local and atom not in (a, b)
+                 and a in large]
+        for n in sorted(self.neighbours[atom]):
+            if n in local or self.element[n] == 1 or (min(atom, n), max(atom, n)) not in self.bonds_in[last]:
+                continue
+            carried = next((c for c in self.clusters if n in c.atoms), None)
+            if carried is None:
+                continue
+            rest = {a: p - carried.local[n] for a, p in carried.local.items()}
+            centre = sum(rest.values()) / len(rest)
+            outward = unit(centre).conjugate() if abs(centre) > 1e-9 else 1 + 0j
+            # (within a turn either way: its own placement looks for room round the atom too)
+            for way in (free * _rotor(turn, 12) for turn in (-1, 0, 1)):
+                spot = {a: local[atom] + way * (1 + p * outward) for a, p in rest.items()}
+                points += list(spot.values())
+                walls += [(spot[a], spot[b]) for a, b in self.union if a in spot and b in spot]
+        return np.array(points, dtype=complex), np.array(walls, dtype=complex).reshape(-1, 2)
 
     def _opens_small_ring(self, group: list[int], k: int) -> bool:
         """Whether the step after panel k breaks one bond of a three- or four-membered ring of
@@ -1686,11 +1770,12 @@ class _LayoutBuilder:
     def _rings_to_close(self, group: list[int], last: int) -> frozenset[tuple[int, int]]:
         """The bonds later steps make between two heavy atoms of `group` that are four or more
         bonds apart in panel `last`: closures of rings of five and more. (A smaller ring, an
-        epoxide or a bromonium ion, closes on atoms that stand side by side anyway.)"""
+        epoxide or a bromonium ion, closes on atoms that stand side by side anyway. A hydrogen passed
+        on closes a ring only round a cyclic array of six or more, as in _hop_ahead and _short_hops.)"""
         members = set(group)
         later = set().union(*self.bonds_in[last + 1:]) - self.bonds_in[last]
-        return frozenset((i, j) for i, j in later
-                         if i in members and j in members and self._heavy_path_length(i, j, last, members) >= 4)
+        return frozenset((i, j) for i, j in later if i in members and j in members and self._heavy_path_length(
+            i, j, last, members) >= (5 if self.element[i] == 1 or self.element[j] == 1 else 4))
 
     def _straightened(self, local: dict[int, complex], bonds: set[tuple[int, int]],
                       closing: frozenset[tuple[int, int]], panels: range) -> dict[int, complex]:
@@ -1718,8 +1803,10 @@ class _LayoutBuilder:
 
     def _run_bonds(self, group: list[int], first: int, last: int) -> set[tuple[int, int]]:
         """The bonds among `group` in panels first..last, and for an atom bonded to none of them, its
-        bonds in the next panel that has any (where it is about to be)."""
+        bonds in the next panel that has any (where it is about to be). A hydrogen that hops within
+        the run round a five-membered ring keeps only its first holder's bond (_short_hops)."""
         bonds = self._in_group(group, range(first, last + 1))
+        bonds -= self._short_hops(group, first, last, bonds)
         bonded = {a for b in bonds for a in b}
         for atom in group:
             if atom in bonded:
@@ -1735,6 +1822,26 @@ class _LayoutBuilder:
                     bonds |= mine
                     break
         return bonds
+
+    def _short_hops(self, group: list[int], first: int, last: int, bonds: set[tuple[int, int]]) -> set[tuple[int, int]]:
+        """The bonds of `bonds` (panels first..last) that a hydrogen of `group` makes after the first
+        panel it is bonded in, where it hops between two atoms that the run's heavy bonds join by
+        three bonds. Drawn together, its old and new bonds close a five-membered ring through it,
+        which RDKit fuses onto the skeleton's own ring (a Passerini amide's N drawn 0.6 bond lengths
+        from C4, its N-H across the C4 methyl). As for a Cope elimination (_hop_ahead), the
+        hydrogen is left to its own placement. (A 1,3-shift's four-membered ring is kept: left
+        out, a lactam's amine hydrogen takes the room its ring closure swings into.)"""
+        members = set(group)
+        heavy = {(i, j) for i, j in bonds if self.element[i] != 1 and self.element[j] != 1}
+        dropped: set[tuple[int, int]] = set()
+        for step in range(first, last):
+            for h, giver, taker in self.hops.get(step, ()):
+                if not {h, giver, taker} <= members or _bonds_between(
+                        giver, taker, self.neighbours, lambda x, n: (min(x, n), max(x, n)) in heavy) != 3:
+                    continue
+                held = next(k for k in range(first, last + 1) if any(h in b for b in self.bonds_in[k]))
+                dropped |= {b for b in bonds if h in b and b not in self.bonds_in[held]}
+        return dropped
 
     def _depict(self, group: list[int], only: Optional[set[tuple[int, int]]] = None,
                 panels: Optional[range] = None, gaps: frozenset[tuple[int, int]] = frozenset()) -> dict[int, complex]:
@@ -2448,7 +2555,9 @@ class _LayoutBuilder:
             direction = u
             rotation = unit(-direction / v)
             target = anchor_at + direction * distance
-            best = (0.0, rotation, target - depicted[mover] * rotation, direction)
+            best = ((0.0, False), rotation, target - depicted[mover] * rotation, direction)
+        if kind == "bond" and self._cramped_centre(anchor, best[0][0]):
+            self.cramped.add(anchor)
         _, rotation, shift, direction = best
         if kind == "hop" and segment[0] < segment[1] and self._trader(index) \
                 and self._stranded(index, segment, rotation, shift):
@@ -2463,6 +2572,20 @@ class _LayoutBuilder:
         self._apply(index)
         if hydrogen is not None:
             self._promise(hydrogen, anchor, k, direction, leave_after=round_about is not None)
+
+    def _cramped_centre(self, atom: int, room: float) -> bool:
+        """Whether a cluster bonded to `atom` with only `room` round it (nearer than _CROWDED to
+        something) may find more with room kept at `atom` in its own cluster's depiction: an atom
+        with two heavy neighbours of its own that holds four in some panel, two of them from other
+        clusters (the carbonyl carbon of an acyl substitution whose leaving group and nucleophile
+        are separate species). Drawn with its own two bonds only, its depiction may lay the rest
+        of its molecule into the gap where those two stand (a Boc carbamate curled round the one
+        spot left for the HOBt ester's oxygen)."""
+        if room >= _CROWDED or atom in self.roomier:
+            return False
+        own = sum(1 for n in self.neighbours[atom]
+                  if self.element[n] != 1 and self.cluster_of.get(n) == self.cluster_of.get(atom))
+        return own == 2 and any(self._heavy_degree(atom, bonds) >= 4 for bonds in self.bonds_in)
 
     def _bonds_while_waiting(self, anchor: int, mover: int, k: int, kind: str) -> list[complex]:
         """For a bond that forms in the step into panel k, the directions in panel k-1 of the anchor's
@@ -3606,34 +3729,46 @@ class _LayoutBuilder:
         that takes it than a curved arrow needs to bend: before its hop it is turned about its
         holder, as little as will do, until it is TRANSFER_GAP - 0.1 from that atom (common
         practice: the arrow has room), keeping clear of every other atom and bond and of the
-        holder's other bonds. It turns in every panel it sits on that holder, so it keeps its
-        place while the steps before leave it alone."""
+        holder's other bonds. Or it may stand behind its holder from that atom (a C-alpha H drawn
+        away from the lysine that takes it, the arrow running round the holder): it turns into the
+        gap between the holder's bonds that faces the taker (common practice: the proton a base
+        takes is drawn on the side facing the base; _facing_taker). It turns in every panel it
+        sits on that holder, so it keeps its place while the steps before leave it alone."""
         holders = [(k, self._holder(k, h)) for k in range(self.n) if h in self.positions[k]]
         for (k, holder), (k_next, partner) in zip(holders, holders[1:]):
             if k_next != k + 1 or holder is None or partner is None or holder == partner:
                 continue
             here = self.positions[k]
-            if holder not in here or partner not in here or abs(here[h] - here[partner]) >= TRANSFER_GAP - 0.1:
+            if holder not in here or partner not in here:
+                continue
+            centre = here[holder]
+            start = here[h] - centre
+            near = abs(here[h] - here[partner]) < TRANSFER_GAP - 0.1
+            if not near and abs(cmath.phase(start / (here[partner] - centre))) <= math.pi / 2:
                 continue
             if (min(holder, partner), max(holder, partner)) in self.bonds_in[k]:
                 continue   # a 1,2-shift: the hydrogen leans toward the atom it moves to
             # The panels before, back to where the holder or the partner stood elsewhere (a ring
             # closed onto the holder, as a lactam's amine adds to its ester): there the hydrogen
             # moves with its holder anyway.
-            centre = here[holder]
             panels = [k]
             while (panels[0] > 0 and self._holder(panels[0] - 1, h) == holder and h in self.positions[panels[0] - 1]
                    and self.positions[panels[0] - 1].get(holder) == centre
                    and self.positions[panels[0] - 1].get(partner) == here[partner]):
                 panels.insert(0, panels[0] - 1)
-            start = here[h] - centre
-            others = [q for p in panels for a, q in self.positions[p].items() if a not in (h, holder)]
+            bonded = [n for n in self.neighbours[holder]
+                      if n != h and n in here and (min(n, holder), max(n, holder)) in self.bonds_in[k]]
             bonds = [(self.positions[p][i], self.positions[p][j]) for p in panels for i, j in self.bonds_in[p]
                      if h not in (i, j) and holder not in (i, j) and i in self.positions[p] and j in self.positions[p]]
-            own = [unit(here[n] - centre) for n in self.neighbours[holder]
-                   if n != h and n in here and (min(n, holder), max(n, holder)) in self.bonds_in[k]]
-            for degrees in (15, -15, 30, -30, 45, -45, 60, -60):
-                d = start * cmath.rect(1.0, math.radians(degrees))
+            own = [unit(here[n] - centre) for n in bonded]
+            if near:
+                others = [q for p in panels for a, q in self.positions[p].items() if a not in (h, holder)]
+                turns = [start * cmath.rect(1.0, math.radians(degrees)) for degrees in (15, -15, 30, -30, 45, -45, 60, -60)]
+            else:
+                # (the holder's own partners are kept off by the angle to its bonds)
+                others = [q for p in panels for a, q in self.positions[p].items() if a not in (h, holder, *bonded)]
+                turns = self._facing_taker(h, partner, centre, own, abs(here[h] - here[partner]), others, k)
+            for d in turns:
                 spot = centre + d
                 if abs(spot - here[partner]) < TRANSFER_GAP - 0.1:
                     continue
@@ -3644,6 +3779,35 @@ class _LayoutBuilder:
                 for p in panels:
                     self.positions[p][h] = spot
                 break
+
+    def _facing_taker(self, hydrogen: int, partner: int, centre: complex, own: list[complex], reach: float,
+                      others: list[complex], k: int) -> list[complex]:
+        """Directions for a hydrogen on the far side of its holder (at `centre`, its bonds along
+        `own` in panel k) from the atom `partner` that takes it (now `reach` from the hydrogen):
+        every 5 degrees, at least _FACING_OFF_A_BOND from each of the holder's bonds, within 90
+        degrees of the taker and nearer it than `reach`, out of every ring, the straight way from
+        the taker crossing no bond. First those whose way keeps furthest from the `others` (the
+        arrow runs there, not through a label beside it), then the most open, then the nearest the
+        taker. The caller keeps them clear of atoms and bonds."""
+        here = self.positions[k]
+        polygons = [[here[a] for a in ring] for ring in self._closed_rings(k)]
+        taker = here[partner] - centre
+        near = [q - centre for q in others if abs(q - centre) < abs(taker) + 1.0]
+        walls = [(here[i] - centre, here[j] - centre) for i, j in self.bonds_in[k]
+                 if i in here and j in here and hydrogen not in (i, j) and partner not in (i, j)]
+        scored = []
+        for step in range(72):
+            d = cmath.rect(1.0, step * math.pi / 36)
+            off = min((abs(cmath.phase(d / b)) for b in own), default=math.pi)
+            if off < _FACING_OFF_A_BOND or abs(cmath.phase(d / taker)) > math.pi / 2 or abs(d - taker) >= reach:
+                continue
+            if any(inside_polygon(centre + d, polygon) for polygon in polygons):
+                continue
+            if any(segments_cross(taker, d, a, b) for a, b in walls):
+                continue   # its arrow would cross a bond on the way
+            way = min((distance_to_segment(q, taker, d) for q in near if abs(q - taker) > 1e-6), default=9.0)
+            scored.append((-round(min(way, 1.0), 1), -round(off, 6), abs(d - taker), step, d))
+        return [d for *_, d in sorted(scored)]
 
     def _untangle(self, runs: list[_Residence], n: int) -> None:
         """Turn a travelling hydrogen that lands too close to another atom, or far from (or
