@@ -292,7 +292,12 @@ CODES = _table(
          '    C6=O7 -> O7\nend'),
     Code("AR502", WARNING, "disfavoured ring closure",
          "Baldwin's rules (J. E. Baldwin, J. Chem. Soc., Chem. Commun. 1976, 734; Baldwin and Lusch, "
-         "Tetrahedron 1982, 38, 2939) call this closure disfavoured.",
+         "Tetrahedron 1982, 38, 2939) call this closure disfavoured; the message and hint name a favoured "
+         "closure the species offers (between the same kinds of sites, else from the same nucleophile). "
+         "An epoxide, aziridine or halonium ion opened at its far carbon is named by its C-C bond, inside "
+         "the new ring: 6- or 7-endo-tet, disfavoured where the exo opening at the near carbon closes a "
+         "five- or six-membered ring (Nicolaou et al., J. Am. Chem. Soc. 1989, 111, 5330, memory); the "
+         "hint names that opening and the cases where endo wins (a vinyl epoxide, a template).",
          'species alkoxide = "[O-:1][CH2:2][CH2:3][C:4](=[CH2:5])[C:6](=[O:7])[CH3:8]"\n'
          'step "closure"\n'
          '    :O1 -> C5   # C4=C5 lies inside the ring it closes: 5-endo-trig\n'
@@ -832,7 +837,8 @@ CODES = _table(
          "onto an oxocarbenium or iminium ion (dioxolane formation, 5-endo-trig) is a note here, not "
          "AR502: such closures are routine (common practice). A radical's 6-endo-trig closure onto an alkene, favoured "
          "by Baldwin, names the 5-exo closure onto the same alkene, which radicals usually prefer (the "
-         "hex-5-enyl radical about 98:2; Beckwith, from memory).",
+         "hex-5-enyl radical about 98:2; Beckwith, from memory). A 5-endo opening of an epoxide (its "
+         "exo rival a strained four-membered ring) is a note.",
          'species bromobutoxide = "[O-:1][CH2:2][CH2:3][CH2:4][CH2:5][Br:6]"\n'
          'step "ring closure"\n'
          '    :O1 -> C5   # tetrahydrofuran: 5-exo-tet, favoured (a note, not a fault)\n'

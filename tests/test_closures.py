@@ -283,3 +283,46 @@ def test_a_dieckmann_draft_takes_the_ester_s_own_alkoxide(tmp_path):
     aldol = tmp_path / "aldol.mech"
     result = CliRunner().invoke(cli, ["closures", "CC(=O)CCCCC(C)=O", "--write", str(aldol)])
     assert result.exit_code == 0 and 'over "NaOH" under "H2O"' in aldol.read_text(encoding="utf-8")
+
+
+def test_an_epoxy_alcohol_closes_5_exo_at_the_near_carbon_first():
+    """4,5-Epoxypentan-1-ol with base gives tetrahydrofurfuryl alcohol by the 5-exo-tet opening at
+    the near carbon; the far carbon's 6-endo-tet opening (tetrahydropyran-3-ol) usually loses (Baldwin
+    1976; Nicolaou et al., J. Am. Chem. Soc. 1989, 111, 5330; memory). `closures` found nothing: an
+    epoxide carbon was no electrophile."""
+    rows = closures_json("OCCCC1CO1")
+    assert [(r["electrophile"]["kind"], r["class"], r["outlook"]) for r in rows] == [
+        ("epoxide", "5-exo-tet", "favoured"), ("epoxide", "6-endo-tet", "disfavoured")]
+    assert same(rows[0]["product"], "OCC1CCCO1") and same(rows[1]["product"], "OC1CCCOC1")
+
+
+def test_an_iodonium_ion_is_opened_5_exo_to_the_bicyclic_lactone():
+    """Iodolactonisation of cyclohex-3-enecarboxylate: the carboxylate opens the iodonium ion at the
+    near carbon, 5-exo-tet, to the [3.2.1] iodolactone (Clayden ch. 20; Corey's iodolactone,
+    memory); the far carbon's 6-endo opening ([2.2.2]) comes second."""
+    rows = closures_json("[O-]C(=O)C1CC2[I+]C2CC1")
+    assert [(r["electrophile"]["kind"], r["class"]) for r in rows] == [
+        ("halonium ion", "5-exo-tet"), ("halonium ion", "6-endo-tet")]
+    assert same(rows[0]["product"], "O=C1OC2CC1CCC2I")
+
+
+def test_heptanedinitrile_closes_6_exo_dig_onto_the_other_nitrile():
+    """Thorpe-Ziegler: the anion of heptanedinitrile adds to the other nitrile, 6-exo-dig, favoured
+    (Baldwin 1976; Kurti-Czako, "Thorpe-Ziegler reaction", memory). `closures` found nothing: a
+    nitrile carbon was no electrophile."""
+    rows = closures_json("N#CCCCCCC#N")
+    assert [(r["nucleophile"]["kind"], r["electrophile"]["kind"], r["class"], r["outlook"]) for r in rows] == [
+        ("nitrile anion", "nitrile", "6-exo-dig", "favoured")]
+    # The imine the draft stops at (its tautomer, the enaminonitrile, is what is isolated).
+    assert same(rows[0]["product"], "N#CC1CCCCC1=N")
+
+
+@pytest.mark.parametrize("smiles", ["OCCCC1CO1", "N#CCCCCCC#N", "[O-]C(=O)C1CC2[I+]C2CC1"])
+def test_epoxide_iodonium_and_nitrile_drafts_pass_check(tmp_path, smiles):
+    """Guard: the --write skeleton of the first candidate replays with no error or warning."""
+    out = tmp_path / "draft.mech"
+    result = run(smiles, "--write", out)
+    assert result.exit_code == 0, result.output
+    trace, diags = check_file(out)
+    assert [d.to_text() for d in diags if d.severity != "note"] == []
+    assert trace.complete and trace.mechanism.product is not None

@@ -1,9 +1,11 @@
 """Ring closures: every bond a step forms between two atoms of one fragment closes a ring. Each
 closure gets its Baldwin class (arrows.judgement.baldwin); a ring that bridges the para or meta
 positions of an arene with a short bridge (a strained cyclophane) is AR527, a three- or
-four-membered ring AR501, a disfavoured class AR502 (naming a favoured closure between the same
-kinds of sites when the species offers one), anything else a note AR601 (a radical's 6-endo closure
-onto an alkene naming the 5-exo closure onto the same alkene, which radicals usually prefer)."""
+four-membered ring AR501, a disfavoured class AR502 (naming a favoured closure open to the species
+when it offers one: between the same kinds of sites, else from the same nucleophile; for an epoxide,
+aziridine or halonium ion opened at its far carbon, the exo opening at the near one), anything else
+a note AR601 (a radical's 6-endo closure onto an alkene naming the 5-exo closure onto the same
+alkene, which radicals usually prefer)."""
 from __future__ import annotations
 
 from collections import deque
@@ -12,9 +14,10 @@ from typing import TYPE_CHECKING, Iterator, Optional
 from rdkit import Chem
 
 from ..diagnostics import Diagnostic
-from ..electrons import ElectronState, atom_label, nameable
+from ..electrons import ElectronState, nameable
 from ..model import Location, frozen
-from ..judgement.baldwin import BALDWIN_1976, ENDO, TRIG, ClosureClass, classify, geometry_of, ring_path, verdict
+from ..judgement.baldwin import (BALDWIN_1976, ENDO, TRIG, ClosureClass, Verdict, classify, geometry_of, ring_path,
+                                  three_ring_bridge, verdict)
 from ..judgement.perception import RecentViews
 from ..trace import StepTrace
 from . import Check
@@ -36,6 +39,7 @@ class StepClosure:
     onto_cation: bool = False
     loc: Optional[Location] = None      # the arrow that makes the bond
     between_molecules: bool = False     # two molecules make the ring with two new bonds
+    bridge: Optional[int] = None        # an opened epoxide's (aziridine's, halonium's) other carbon
 
 
 _SMALL_RING_HINT = ("five- and six-membered closures usually win when the substrate offers one (common practice); "
@@ -77,7 +81,9 @@ def closures_in_step(st: StepTrace) -> list[StepClosure]:
         cation = geometry != "tet" and elements[y] == 6 and (
             (w is not None and elements[w] in _ONIUM and st.before.formal_charge(w) > 0)
             or st.before.formal_charge(y) > 0)
-        found.append(StepClosure(x, y, ring, classify(ring, geometry, w, z), z, w, cation, loc))
+        bridge = three_ring_bridge(mol, y, w)
+        found.append(StepClosure(x, y, ring, classify(ring, geometry, w, z, bridge), z, w, cation, loc,
+                                 bridge=bridge))
     return found
 
 
@@ -386,16 +392,8 @@ class RingClosures(Check):
             return Diagnostic("AR601", uncovered, c.loc or st.step.loc, **where)
         v = verdict(c.closure)
         said = f"{c.closure.name}, {v.word}" + (f" ({v.rule})" if v.rule else "")
-        bridge = _three_ring_partner(st, c)
-        if bridge is not None and bridge in c.ring:
-            # An epoxide (aziridine) opened at its far carbon: by Baldwin's definition the broken
-            # C-O bond lies outside the ring, exo; the literature of epoxide-opening cyclisations
-            # names the mode by the epoxide's C-C bond, inside the ring: endo, the mode that
-            # usually loses to the exo opening at the near carbon (common practice, memory).
-            ring = "epoxide" if st.before.elements[c.broken_partner] == 8 else "three-membered ring"
-            said += (f"; as the opening of {'an' if ring == 'epoxide' else 'a'} {ring} it is the {size}-endo mode, "
-                     f"the {ring}'s {label(bridge)} inside the new ring, which usually loses to the {size - 1}-exo "
-                     f"opening at {label(bridge)}")
+        if c.closure.three_ring and c.closure.mode == ENDO and size >= 5:
+            return _endo_opening(st, c, v, opening, where)
         if c.onto_cation and c.closure.mode is None:
             # A bare carbocation: no bond breaks at the attacked atom, so neither exo nor endo applies.
             return Diagnostic("AR601", f"{opening}: {c.closure.name}, onto a carbocation, where no bond breaks at "
@@ -414,19 +412,28 @@ class RingClosures(Check):
             message = f"{opening}: {said}" + ("" if code == "AR502" else ", but the ring is strained")
             alternative = self.alternative(st, c)
             if alternative:
-                message += f"; {alternative}"
+                message += f"; {alternative.text}"
             if code == "AR501":
                 hint = _SMALL_RING_HINT
             elif alternative:
-                hint = ("Baldwin's rules: a disfavoured closure is slow; look for a favoured ring size or another "
-                        "intermediate (`arrows closures` lists the candidates)")
-            else:
+                hint = (f"draw the favoured closure this species offers instead, {alternative.sites} "
+                        f"({alternative.name}): a disfavoured closure is slow (Baldwin's rules); "
+                        f"`arrows closures` lists the candidates")
+            elif _is_aldol(st, c):
                 # Nothing better is open: pointing the author at a favoured ring would send them looking
                 # for one that does not exist (hexane-2,5-dione's aldol has only a three-membered rival).
-                hint = ("no favoured closure between these kinds of sites is open to this species; a disfavoured "
-                        "closure is slow, not forbidden: it can still be the route where the steps are reversible "
-                        "and a later one draws the product on (the aldol condensation of hexane-2,5-dione to "
-                        "3-methylcyclopent-2-enone, common practice, memory)")
+                hint = ("no favoured closure is open to this species; a disfavoured closure is slow, not forbidden: "
+                        "it can still be the route where the steps are reversible and a later one draws the "
+                        "product on (the aldol condensation of hexane-2,5-dione to 3-methylcyclopent-2-enone, "
+                        "common practice, memory)")
+            elif size in (3, 4):
+                hint = ("no favoured closure is open to this species; a disfavoured closure is slow, not forbidden: "
+                        "where nothing faster is open the small ring can be the textbook intermediate (the "
+                        "cyclopropanone of a Favorskii rearrangement, common practice) and this warning a reminder")
+            else:
+                hint = ("no favoured closure is open to this species; a disfavoured closure is slow, not forbidden, "
+                        "but a reaction between two molecules (the solvent adding instead) often wins over it "
+                        "(Baldwin 1976, memory)")
             return Diagnostic(code, message, c.loc or st.step.loc, hint=hint, **where)
         if v.favoured is None:
             return Diagnostic("AR601", f"{opening}: {c.closure.name}, not covered by Baldwin's rules",
@@ -442,10 +449,10 @@ class RingClosures(Check):
             # practice; Baldwin's rules rank only feasibility).
             smaller = self.alternative(st, c, smaller_than=size)
             if smaller:
-                said += f"; {smaller}, and a five- or six-membered ring closes faster"
+                said += f"; {smaller.text}, and a five- or six-membered ring closes faster"
         return Diagnostic("AR601", f"{opening}: {said}", c.loc or st.step.loc, **where)
 
-    def alternative(self, st: StepTrace, c: StepClosure, smaller_than: Optional[int] = None) -> Optional[str]:
+    def alternative(self, st: StepTrace, c: StepClosure, smaller_than: Optional[int] = None) -> Optional[Rival]:
         """A favoured closure between the same kinds of sites in the species that closes here
         (the latest neutral form of the fragment, before any enolate was made); with
         `smaller_than`, only a five- or six-membered one smaller than that."""
@@ -453,14 +460,26 @@ class RingClosures(Check):
         if kinds is None:
             return None
         state = _parent_state(list(self.recent) + [st.before], c.nucleophile, c.attacked)
-        from ..judgement.closures import favoured_alternatives   # only for a strained or disfavoured ring
-        for option in favoured_alternatives(state.mol, *kinds):
+        # The species alone: a base beside it (methoxide) would be taken for its nucleophile.
+        species, original = _fragment_of(state.mol, c.nucleophile)
+        mine = {atom: k for k, atom in enumerate(original)}
+        if c.attacked not in mine:
+            return None
+        nucleophile, attacked = mine[c.nucleophile], mine[c.attacked]
+        # only for a strained or disfavoured ring
+        from ..judgement.closures import FAVOURED, favoured_alternatives, find_closures
+        # Between the same kinds of sites first; else any favoured closure of the same nucleophile
+        # (an alkoxide's 5-exo-trig lactonisation beside its 5-endo-trig oxa-Michael).
+        same_kinds = favoured_alternatives(species, *kinds)
+        same_nucleophile = [o for o in find_closures(species) if o.outlook == FAVOURED
+                            and nucleophile in {o.nucleophile.atom, *(n for n, _ in o.equivalent)}]
+        for option in same_kinds + same_nucleophile:
             pairs = {(option.nucleophile.atom, option.electrophile.atom), *option.equivalent}
-            if (c.nucleophile, c.attacked) in pairs:
+            if (nucleophile, attacked) in pairs:
                 continue
             if smaller_than is not None and not (option.size in (5, 6) and option.size < smaller_than):
                 continue
-            return _describe(state.mol, option)
+            return _describe(lambda i: state.label(original[i]), option)
         return None
 
 
@@ -484,15 +503,52 @@ def _radical_exo_option(st: StepTrace, c: StepClosure) -> Optional[int]:
 _METALS = frozenset({3, 11, 12, 13, 19, 20, 22, 29, 30, 48, 50, 80})
 
 
-def _three_ring_partner(st: StepTrace, c: StepClosure) -> Optional[int]:
-    """The third atom of a three-membered ring that the closure opens at the attacked atom (the
-    other carbon of an epoxide or aziridine), or None."""
-    w, y, mol = c.broken_partner, c.attacked, st.before.mol
-    if w is None or mol.GetBondBetweenAtoms(w, y) is None:
-        return None
-    shared = ({n.GetIdx() for n in mol.GetAtomWithIdx(w).GetNeighbors()}
-              & {n.GetIdx() for n in mol.GetAtomWithIdx(y).GetNeighbors()})
-    return next(iter(sorted(shared)), None)
+_HALONIUM = {17: "chloronium ion", 35: "bromonium ion", 53: "iodonium ion"}
+
+
+def _three_ring_name(state: ElectronState, atom: int) -> str:
+    """What a three-membered ring is called after its heteroatom (an epoxide, a bromonium ion)."""
+    element, positive = state.elements[atom], state.formal_charge(atom) > 0
+    if element in _HALONIUM:
+        return _HALONIUM[element]
+    names = {8: ("epoxide", "protonated epoxide"), 7: ("aziridine", "aziridinium ion"),
+             16: ("thiirane", "episulfonium ion")}
+    return names.get(element, ("three-membered ring",) * 2)[positive]
+
+
+def _endo_opening(st: StepTrace, c: StepClosure, v: Verdict, opening: str, where: dict) -> Diagnostic:
+    """A nucleophile opening an epoxide (aziridine, halonium ion) at its far carbon, closing a ring
+    of five or more: named endo by the three-membered ring's C-C bond, as epoxide-opening
+    cyclisations are (Nicolaou 1989, memory). Where the exo opening at the near carbon closes a
+    five- or six-membered ring, that opening usually wins (AR502, naming it); a 5-endo opening's
+    rival is a strained four-membered ring (a note)."""
+    label = st.before.label
+    a, b, near, w = label(c.nucleophile), label(c.attacked), label(c.bridge), label(c.broken_partner)
+    name, size = _three_ring_name(st.before, c.broken_partner), len(c.ring)
+    article = "an" if name[0] in "aeiou" else "a"
+    exo = f"{size - 1}-exo-tet"
+    head = (f"{opening}: {c.closure.name}, {v.word}" + (f" ({v.rule}, memory)" if v.rule else "")
+            + f": {article} {name} opened at its far carbon, {b}, so that its {near}-{b} bond lies inside the new ring")
+    loc = c.loc or st.step.loc
+    if v.favoured is False:
+        hint = (f"the {exo} opening at the near carbon, `:{a} -> {near}` with `{near}-{w} -> {w}`, usually wins for "
+                f"a plain {name} (Baldwin 1976; Nicolaou et al. 1989, memory); the {size}-endo opening is the route "
+                f"where the far carbon bears a positive charge better (allylic, benzylic or more substituted: a vinyl "
+                f"epoxide, a trisubstituted alkene's halonium ion), or where a template holds the chain (an enzyme, a fused ring already closed: Nicolaou et al. 1989, memory)")
+        return Diagnostic("AR502", f"{head}; {a} onto {near}, the near carbon, would close a {size - 1}-membered ring, "
+                          f"{exo}, favoured (Baldwin 1976)", loc, hint=hint, **where)
+    if size - 1 in (3, 4):
+        rival = (f"; the {exo} opening at {near}, the near carbon, would close a strained {size - 1}-membered ring, "
+                 f"so the usual preference for the exo opening does not decide it")
+    else:
+        rival = ""
+    return Diagnostic("AR601", head + rival, loc, **where)
+
+
+def _is_aldol(st: StepTrace, c: StepClosure) -> bool:
+    """An enolate (enol, enamine) carbon closing onto a C=O: an aldol addition, which is reversible."""
+    return (c.enol_partner is not None and c.closure is not None and c.closure.geometry == TRIG
+            and c.broken_partner is not None and st.before.elements[c.broken_partner] == 8)
 
 
 def _site_kinds(state: ElectronState, c: StepClosure) -> Optional[tuple[str, str]]:
@@ -524,14 +580,32 @@ def _parent_state(states: list[ElectronState], x: int, y: int) -> ElectronState:
     return states[-1]
 
 
-def _describe(mol: Chem.Mol, option: Closure) -> str:
+def _fragment_of(mol: Chem.Mol, atom: int) -> tuple[Chem.Mol, tuple[int, ...]]:
+    """The fragment of `mol` holding `atom`, and for each of its atoms the index in `mol`."""
+    mapping: list[tuple[int, ...]] = []
+    fragments = Chem.GetMolFrags(mol, asMols=True, sanitizeFrags=False, fragsMolAtomMapping=mapping)
+    k = next(k for k, atoms in enumerate(mapping) if atom in atoms)
+    return fragments[k], tuple(mapping[k])
+
+
+@frozen
+class Rival:
+    """A favoured closure open to the species, in words."""
+
+    sites: str      # "O1 oxygen onto C6"
+    name: str       # its class, "5-exo-trig"
+    text: str       # "O1 oxygen onto C6 would close a 5-membered ring, 5-exo-trig, favoured"
+
+
+def _describe(label, option: Closure) -> Rival:
     from ..judgement.sites import ENOLATE, NITROGEN, OXYGEN
-    nu = atom_label(mol, option.nucleophile.atom)
-    el = atom_label(mol, option.electrophile.atom)
+    nu = label(option.nucleophile.atom)
+    el = label(option.electrophile.atom)
     what = "enolate" if option.nucleophile.kind == ENOLATE else {OXYGEN: "oxygen", NITROGEN: "nitrogen"}.get(
         option.nucleophile.kind, option.nucleophile.kind)
-    return (f"{nu} {what} onto {el} would close a {option.size}-membered ring, {option.closure.name}, "
-            f"{option.outlook}")
+    sites = f"{nu} {what} onto {el}"
+    return Rival(sites, option.closure.name,
+                 f"{sites} would close a {option.size}-membered ring, {option.closure.name}, {option.outlook}")
 
 
 class StrainedCumulenes(Check):

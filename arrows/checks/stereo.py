@@ -42,9 +42,10 @@ def final_stereo(trace: Trace) -> list[ProductStereo]:
 
 
 def product_stereo(final: Optional[ElectronState], touched: set[int], views: Optional[RecentViews] = None,
-                   several_only: bool = False) -> list[ProductStereo]:
+                   several_only: bool = False, arisen: frozenset[StereoElement] = frozenset()) -> list[ProductStereo]:
     """final_stereo for a final state and the atoms the mechanism's moves touched; `several_only`
-    keeps only the fragments with more than one stereoisomer (no SMILES is written for the others)."""
+    keeps only the fragments with more than one stereoisomer (no SMILES is written for the others),
+    naming the elements a step touched or made (`arisen`: not in the species as written)."""
     if final is None:
         return []
     elements = state_stereo(final, views or RecentViews())
@@ -58,8 +59,10 @@ def product_stereo(final: Optional[ElectronState], touched: set[int], views: Opt
         if several_only:
             # The note names only what the steps made or cleared: a centre no step touched (a
             # racemic acid written without configuration, only giving its proton; glucose's four
-            # untouched centres beside the anomeric one) is the species as written.
-            mine = tuple(e for e in mine if touched.intersection(e.atoms))
+            # untouched centres beside the anomeric one) is the species as written. A centre the
+            # steps made without touching it is theirs: the quaternary carbon of a
+            # 2-methylcyclopentane-1,3-dione that an aldol at one carbonyl desymmetrises.
+            mine = tuple(e for e in mine if e in arisen or touched.intersection(e.atoms))
         if not mine:
             continue
         position = {old: new for new, old in enumerate(sorted(indices))}
@@ -106,6 +109,8 @@ class StereoChanges(Check):
 
     def __init__(self) -> None:
         self.touched: set[int] = set()
+        self.written: Optional[frozenset[StereoElement]] = None   # the stereo elements of the first state
+        self.arisen: set[StereoElement] = set()                    # made by a step, not in the first state
         self.last_loc = None
         # A stereo element's atoms are heavy atoms, whose labels (element and map number, or
         # position) never change in a replay: each is read off a Mol once.
@@ -115,6 +120,9 @@ class StereoChanges(Check):
         self.touched.update(st.change.touched_atoms)
         self.last_loc = st.step.loc
         made, lost = step_stereo(st, context.views)
+        if self.written is None:
+            self.written = state_stereo(st.before, context.views)
+        self.arisen.update(e for e in made if e not in self.written)
         if not made and not lost:
             return
         labels = self.labels
@@ -148,7 +156,7 @@ class StereoChanges(Check):
     def finish(self, end: Ending, context) -> Iterator[Diagnostic]:
         if not end.steps_replayed:
             return   # no step: the mechanism makes nothing to count
-        many = product_stereo(end.final, self.touched, context.views, several_only=True)
+        many = product_stereo(end.final, self.touched, context.views, several_only=True, arisen=frozenset(self.arisen))
         if not many:
             return
         mechanism = end.mechanism

@@ -184,8 +184,10 @@ def closures_command(species, species_name, fmt, max_ring, condense, draw_path, 
     """List every intramolecular ring closure of SPECIES (a SMILES, or a .mech/.mol/.smi file).
 
     Nucleophiles: alpha carbons bearing H next to a carbonyl or nitrile (as enolates or enols),
-    hydroxyl oxygens, amine nitrogens. Electrophiles: aldehyde, ketone, ester and amide carbons,
-    enone beta carbons, sp3 carbons bearing a halide or sulfonate. Ranked favoured five- and
+    hydroxyl oxygens, carboxylates, amine nitrogens. Electrophiles: aldehyde, ketone, ester, amide
+    and nitrile carbons, enone beta carbons, sp3 carbons bearing a halide or sulfonate, the carbons
+    of an epoxide, aziridine or halonium ion (named exo at the near carbon, endo at the far one, by
+    the ring's C-C bond). Ranked favoured five- and
     six-membered rings first, aldehydes before ketones before esters before amides (common
     practice), each with its Baldwin class and verdict. Closures that cannot form (bridging a
     benzene ring, a trans C=C or a triple bond in a small ring, a bridgehead alkene) are left

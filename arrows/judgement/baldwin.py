@@ -9,6 +9,13 @@ A closure is named n-[(enolendo|enolexo)-]exo|endo-tet|trig|dig:
 - enolendo / enolexo (enolate carbon nucleophiles only): both enolate carbons end up in the new
   ring, or only the nucleophilic one.
 
+A closure that opens a three-membered ring (an epoxide, an aziridine, a halonium ion) is named, as
+chemists name it, by that ring's C-C bond: exo when the nucleophile takes the near carbon, endo
+when it takes the far one and both ring carbons end up in the new ring. (By the broken bond alone
+both would be exo.) Baldwin 1976 places epoxides between tet and trig; the endo opening of a plain
+epoxide loses to the exo opening one ring smaller (K. C. Nicolaou et al., J. Am. Chem. Soc. 1989,
+111, 5330, "6-endo vs 5-exo hydroxy epoxide openings"; memory).
+
 Tables: J. E. Baldwin, J. Chem. Soc., Chem. Commun. 1976, 734 (memory); J. E. Baldwin and
 M. J. Lusch, Tetrahedron 1982, 38, 2939 (memory). A cell the papers do not state is "not covered".
 """
@@ -25,9 +32,11 @@ ENOLENDO, ENOLEXO = "enolendo", "enolexo"
 
 BALDWIN_1976 = "Baldwin 1976"
 BALDWIN_LUSCH_1982 = "Baldwin-Lusch 1982"
+NICOLAOU_1989 = "Nicolaou 1989"
 CITATIONS = {
     BALDWIN_1976: "J. E. Baldwin, J. Chem. Soc., Chem. Commun. 1976, 734",
     BALDWIN_LUSCH_1982: "J. E. Baldwin and M. J. Lusch, Tetrahedron 1982, 38, 2939",
+    NICOLAOU_1989: "K. C. Nicolaou, C. V. C. Prasad, P. K. Somers and C.-K. Hwang, J. Am. Chem. Soc. 1989, 111, 5330",
 }
 
 
@@ -53,6 +62,16 @@ RULES_ENOLATE_1982: dict[tuple[str, str, str], dict[int, bool]] = {
     (ENOLEXO, TRIG, EXO): _cells(favoured=range(3, 8)),
 }
 
+# Endo openings of a three-membered ring -> {ring size: favoured?}: the exo opening at the near
+# carbon, one ring smaller, wins where it closes a five- or six-membered ring (Nicolaou 1989, memory,
+# for 5-exo against 6-endo; 6-exo against 7-endo the same, memory). A 5-endo opening's rival is a
+# strained four-membered ring (an oxetane): not decided here.
+RULES_THREE_RING_ENDO: dict[int, bool] = _cells(disfavoured=(6, 7))
+
+# The atoms whose bond to a carbon of a three-membered ring breaks when a nucleophile opens it: an
+# epoxide's O, an aziridine's N, an episulfonium's S, a halonium's halogen.
+THREE_RING_HETEROATOMS = frozenset({7, 8, 16, 17, 35, 53})
+
 
 @frozen
 class ClosureClass:
@@ -60,6 +79,7 @@ class ClosureClass:
     geometry: str
     mode: Optional[str] = None      # None: no bond breaks at the attacked atom (a cation is attacked)
     enol: Optional[str] = None      # enolendo / enolexo for enolate carbon nucleophiles
+    three_ring: bool = False        # opens a three-membered ring: mode named by its C-C bond
 
     @property
     def name(self) -> str:
@@ -82,6 +102,9 @@ def verdict(closure: ClosureClass) -> Verdict:
     """Baldwin-Lusch for enolate classes that paper states, else Baldwin 1976 for the plain class."""
     if closure.mode is None:
         return Verdict(None)
+    if closure.three_ring and closure.mode == ENDO:
+        cells = RULES_THREE_RING_ENDO
+        return Verdict(cells[closure.size], NICOLAOU_1989) if closure.size in cells else Verdict(None)
     if closure.enol:
         cells = RULES_ENOLATE_1982.get((closure.enol, closure.geometry, closure.mode), {})
         if closure.size in cells:
@@ -93,14 +116,31 @@ def verdict(closure: ClosureClass) -> Verdict:
 
 
 def classify(ring_path: Sequence[int], geometry: str, broken_partner: Optional[int] = None,
-             enol_partner: Optional[int] = None) -> ClosureClass:
+             enol_partner: Optional[int] = None, bridge: Optional[int] = None) -> ClosureClass:
     """The class of a closure from its ring (the atoms from nucleophile to attacked atom), the
-    geometry of the attacked atom, the far atom of the bond that breaks at the attacked atom, and
-    for an enolate carbon the other enolate carbon."""
+    geometry of the attacked atom, the far atom of the bond that breaks at the attacked atom, for
+    an enolate carbon the other enolate carbon, and for the opening of a three-membered ring its
+    other carbon (`bridge`, see three_ring_bridge)."""
     ring = set(ring_path)
     mode = None if broken_partner is None else (ENDO if broken_partner in ring else EXO)
     enol = None if enol_partner is None else (ENOLENDO if enol_partner in ring else ENOLEXO)
-    return ClosureClass(len(ring_path), geometry, mode, enol)
+    three_ring = bridge is not None and mode == EXO
+    if three_ring:
+        mode = ENDO if bridge in ring else EXO
+    return ClosureClass(len(ring_path), geometry, mode, enol, three_ring)
+
+
+def three_ring_bridge(mol: Chem.Mol, attacked: int, broken_partner: Optional[int]) -> Optional[int]:
+    """The other carbon of the three-membered ring whose bond attacked-broken_partner breaks (an
+    epoxide's, aziridine's or halonium ion's second carbon), when the attacked atom is a carbon and
+    the broken partner one of THREE_RING_HETEROATOMS; else None."""
+    if broken_partner is None or mol.GetBondBetweenAtoms(attacked, broken_partner) is None \
+            or mol.GetAtomWithIdx(attacked).GetAtomicNum() != 6 \
+            or mol.GetAtomWithIdx(broken_partner).GetAtomicNum() not in THREE_RING_HETEROATOMS:
+        return None
+    shared = sorted({n.GetIdx() for n in mol.GetAtomWithIdx(attacked).GetNeighbors()}
+                    & {n.GetIdx() for n in mol.GetAtomWithIdx(broken_partner).GetNeighbors()})
+    return next((i for i in shared if mol.GetAtomWithIdx(i).GetAtomicNum() == 6), None)
 
 
 def geometry_of(mol: Chem.Mol, atom: int) -> str:

@@ -22,9 +22,9 @@ from typing import Optional
 from rdkit import Chem
 
 from .acidity import acidity_of, perceived
-from .baldwin import ClosureClass, Verdict, classify, ring_path, verdict
-from .sites import (ALDEHYDE, ALKYL, AMIDE, CARBOXYLATE, ENOLATE, ESTER, KETONE, NITRILE_ANION, NITROGEN,
-                    NUCLEOPHILE_RANK, Electrophile, Nucleophile, electrophiles, nucleophiles)
+from .baldwin import ENDO, ClosureClass, Verdict, classify, ring_path, verdict
+from .sites import (ALDEHYDE, AMIDE, CARBOXYLATE, DISPLACED, ENOLATE, ESTER, KETONE, NITRILE, NITRILE_ANION,
+                    NITROGEN, NUCLEOPHILE_RANK, Electrophile, Nucleophile, electrophiles, nucleophiles)
 from ..model import frozen
 
 FAVOURED, DISFAVOURED, NOT_COVERED = "favoured", "disfavoured", "not covered"
@@ -87,9 +87,13 @@ def judge(closure: ClosureClass) -> tuple[Verdict, str, str]:
     if closure.size in (3, 4):
         return v, DISFAVOURED, (f"{closure.size}-membered ring: strained; five- and six-membered closures "
                                 f"outcompete it (common practice)")
+    opened = ""
+    if closure.three_ring and closure.mode == ENDO:
+        opened = (f" (the three-membered ring opened at its far carbon; the {closure.size - 1}-exo opening at "
+                  f"the near one is the usual rival)")
     if v.favoured is None:
-        return v, NOT_COVERED, f"Baldwin's rules do not cover {closure.name}"
-    return v, FAVOURED if v.favoured else DISFAVOURED, f"{v.rule}: {closure.name} {v.word}"
+        return v, NOT_COVERED, f"Baldwin's rules do not cover {closure.name}{opened}"
+    return v, FAVOURED if v.favoured else DISFAVOURED, f"{v.rule}: {closure.name} {v.word}{opened}"
 
 
 def closure_between(mol: Chem.Mol, nu: Nucleophile, el: Electrophile) -> Optional[ClosureClass]:
@@ -97,7 +101,7 @@ def closure_between(mol: Chem.Mol, nu: Nucleophile, el: Electrophile) -> Optiona
     if len(path) < 3:
         return None
     enol_partner = _enol_partner(nu, path)
-    return classify(path, el.geometry, el.broken_partner, enol_partner)
+    return classify(path, el.geometry, el.broken_partner, enol_partner, el.bridge)
 
 
 def _enol_partner(nu: Nucleophile, path: tuple[int, ...]) -> Optional[int]:
@@ -116,9 +120,9 @@ def _compatible(nu: Nucleophile, el: Electrophile) -> bool:
     used = {c for c, _ in nu.partners}
     if el.atom in used or (el.relay and el.relay[1] in used):
         return False
-    if nu.kind == CARBOXYLATE and el.kind != ALKYL:
+    if nu.kind == CARBOXYLATE and el.kind not in DISPLACED:
         return False    # a carboxylate adds to a carbonyl only to fall off again (common practice)
-    return not (nu.kind == NITROGEN and el.kind != ALKYL and not nu.has_hydrogen)
+    return not (nu.kind == NITROGEN and el.kind not in DISPLACED and not nu.has_hydrogen)
 
 
 def find_closures(mol: Chem.Mol, max_ring: int = 7) -> list[Closure]:
@@ -150,7 +154,7 @@ def candidate_closures(mol: Chem.Mol, max_ring: int = 7) -> list[Closure]:
             if not 3 <= len(path) <= max_ring:
                 continue
             partner = _enol_partner(nu, path)
-            closure = classify(path, el.geometry, el.broken_partner, partner)
+            closure = classify(path, el.geometry, el.broken_partner, partner, el.bridge)
             v, outlook, reason = judge(closure)
             driven, stays = substrate.driven(nu, el, path)
             candidates.append(Closure(nu, el, path, partner, closure, v, outlook, reason + stays,
@@ -208,7 +212,7 @@ class _Substrate:
         pi.pop(frozenset((el.atom, el.broken_partner)), None)      # the carbonyl or enone pi bond taken
         for carbon, _ in nu.partners:
             pi.pop(frozenset((nu.atom, carbon)), None)             # an enol's C=C, used up
-        for gone in (el.broken_partner if el.kind == ALKYL else None, el.leaving_group):
+        for gone in (el.broken_partner if el.kind in DISPLACED else None, el.leaving_group):
             if gone is not None:
                 adjacency[el.atom].discard(gone)
                 adjacency[gone].discard(el.atom)
@@ -319,9 +323,12 @@ def favoured_alternatives(mol: Chem.Mol, nucleophile_kind: str, electrophile_fam
 
 
 def family(electrophile_kind: str) -> str:
-    """carbonyl, conjugate or alkyl: the kinds of sites a warning compares."""
+    """carbonyl, nitrile, conjugate or alkyl (a displacement, an epoxide's opening among them): the
+    kinds of sites a warning compares."""
     if electrophile_kind in ("aldehyde", "ketone", "ester", AMIDE):
         return "carbonyl"
+    if electrophile_kind == NITRILE:
+        return "nitrile"
     return "conjugate" if electrophile_kind == "enone beta carbon" else "alkyl"
 
 

@@ -4,9 +4,9 @@ conditions: where a nucleophile can form, and which atoms accept it.
 Nucleophiles: alpha carbons that carry a hydrogen next to a carbonyl or nitrile (or are already
 an enolate), hydroxyl and alkoxide oxygens, carboxylates (towards alkyl leaving groups only),
 amine nitrogens. Electrophiles: carbonyl carbons
-(aldehyde, ketone, ester, amide), beta carbons of alpha,beta-unsaturated carbonyls and nitriles,
-sp3 carbons bearing a halide or sulfonate leaving group. Works on any sanitized Mol; indices are
-the Mol's own.
+(aldehyde, ketone, ester, amide), nitrile carbons, beta carbons of alpha,beta-unsaturated carbonyls
+and nitriles, sp3 carbons bearing a halide or sulfonate leaving group, the carbons of an epoxide,
+aziridine or halonium ion. Works on any sanitized Mol; indices are the Mol's own.
 """
 from __future__ import annotations
 
@@ -15,7 +15,7 @@ from typing import Optional
 
 from rdkit import Chem
 
-from .baldwin import geometry_of
+from .baldwin import THREE_RING_HETEROATOMS, geometry_of
 from ..model import frozen
 
 ENOLATE, NITRILE_ANION, OXYGEN, CARBOXYLATE, NITROGEN = "enolate", "nitrile anion", "oxygen", "carboxylate", "amine"
@@ -23,9 +23,17 @@ ENOLATE, NITRILE_ANION, OXYGEN, CARBOXYLATE, NITROGEN = "enolate", "nitrile anio
 # Electrophile kinds, best first. Carbonyls: aldehyde > ketone > ester > amide (common practice).
 # Where conjugate acceptors and alkyl leaving groups sit among them is our own heuristic: an enone
 # beta carbon with the ketones (the conjugate adduct is the one that stays), alkylation after them.
-ALDEHYDE, KETONE, CONJUGATE, ALKYL, ESTER, AMIDE = (
-    "aldehyde", "ketone", "enone beta carbon", "alkyl leaving group", "ester", "amide")
-ELECTROPHILE_RANK = {ALDEHYDE: 0, KETONE: 1, CONJUGATE: 1, ALKYL: 2, ESTER: 3, AMIDE: 4}
+# A three-membered ring opened at a carbon ranks with the alkyl leaving groups, a nitrile with the
+# amides (the weakest carbonyl-like acceptor: the Thorpe-Ziegler closure needs a strong base;
+# common practice).
+ALDEHYDE, KETONE, CONJUGATE, ALKYL, ESTER, AMIDE, NITRILE = (
+    "aldehyde", "ketone", "enone beta carbon", "alkyl leaving group", "ester", "amide", "nitrile")
+EPOXIDE, AZIRIDINE, THIIRANE, HALONIUM = "epoxide", "aziridine", "thiirane", "halonium ion"
+THREE_RING_KINDS = {8: EPOXIDE, 7: AZIRIDINE, 16: THIIRANE, 17: HALONIUM, 35: HALONIUM, 53: HALONIUM}
+# Kinds whose bond to the attacked carbon breaks as the nucleophile arrives (a displacement).
+DISPLACED = frozenset({ALKYL, *THREE_RING_KINDS.values()})
+ELECTROPHILE_RANK = {ALDEHYDE: 0, KETONE: 1, CONJUGATE: 1, ALKYL: 2, ESTER: 3, AMIDE: 4, NITRILE: 4,
+                     **{kind: 2 for kind in THREE_RING_KINDS.values()}}
 NUCLEOPHILE_RANK = {ENOLATE: 0, NITRILE_ANION: 0, OXYGEN: 1, CARBOXYLATE: 1, NITROGEN: 2}
 
 
@@ -52,6 +60,7 @@ class Electrophile:
     geometry: str
     relay: tuple[int, ...] = ()          # conjugate acceptors: (alpha C, carbonyl C, carbonyl O or nitrile N)
     leaving_group: Optional[int] = None  # esters: the alkoxy oxygen that leaves after addition
+    bridge: Optional[int] = None         # a three-membered ring's other carbon (baldwin.three_ring_bridge)
 
     @property
     def rank(self) -> int:
@@ -119,6 +128,19 @@ def electrophiles(mol: Chem.Mol) -> list[Electrophile]:
     for beta, alpha, carbon, acceptor in _matches(
             mol, "[CX3;!$(C-[OX2,OX1-,NX3])]=[CX3]-[CX3]=[OX1]") + _matches(mol, "[CX3;!$(C-[OX2,OX1-,NX3])]=[CX3]-[CX2]#[NX1]"):
         add(beta, CONJUGATE, alpha, relay=(alpha, carbon, acceptor))
+    for c, n in _matches(mol, "[CX2;$(C-[#6])]#[NX1]"):
+        add(c, NITRILE, n)
+    # An epoxide, aziridine or halonium ion: each carbon, its bond to the heteroatom breaking (before
+    # the alkyl halides, which a halonium's carbons would match too).
+    for ring in mol.GetRingInfo().AtomRings():
+        if len(ring) != 3:
+            continue
+        hetero = [i for i in ring if mol.GetAtomWithIdx(i).GetAtomicNum() in THREE_RING_HETEROATOMS]
+        carbons = [i for i in ring if mol.GetAtomWithIdx(i).GetAtomicNum() == 6]
+        if len(hetero) == 1 and len(carbons) == 2:
+            kind = THREE_RING_KINDS[mol.GetAtomWithIdx(hetero[0]).GetAtomicNum()]
+            for c, other in ((carbons[0], carbons[1]), (carbons[1], carbons[0])):
+                add(c, kind, hetero[0], bridge=other)
     for c, leaving in _matches(mol, "[CX4]-[Cl,Br,I]") + [m[:2] for m in _matches(mol, "[CX4]-[OX2]-[SX4](=O)(=O)")]:
         add(c, ALKYL, leaving)
     return sorted(found.values(), key=lambda e: e.atom)

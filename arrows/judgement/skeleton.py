@@ -14,7 +14,7 @@ from rdkit import Chem
 
 from ..rdkit_io import canonical
 from .closures import Closure
-from .sites import (ALDEHYDE, ALKYL, CARBOXYLATE, CONJUGATE, ENOLATE, ESTER, KETONE, NITRILE_ANION, NITROGEN,
+from .sites import (ALDEHYDE, CARBOXYLATE, CONJUGATE, DISPLACED, ENOLATE, ESTER, KETONE, NITRILE_ANION, NITROGEN,
                     OXYGEN)
 
 
@@ -115,13 +115,13 @@ class _Writer:
             alpha, carbon, acceptor = (self.L(i) for i in el.relay)
             order = self.bond(el.relay[1], el.relay[2])
             moves += [f"{y}={alpha} -> {alpha}={carbon}", f"{carbon}{order}{acceptor} -> {acceptor}"]
-        elif el.kind == ALKYL:
+        elif el.kind in DISPLACED:
             moves += [f"{y}-{w} -> {w}"]
             if self.mol.GetAtomWithIdx(el.broken_partner).GetDegree() == 1:
                 extra.append(f"releases {w}")
-        else:
-            moves += [f"{y}={w} -> {w}"]
-        self.steps.append(_Step("ring closure", moves, "reversible" if el.kind != ALKYL else "", extra))
+        else:     # a carbonyl's C=O or a nitrile's C#N
+            moves += [f"{y}{self.bond(el.atom, el.broken_partner)}{w} -> {w}"]
+        self.steps.append(_Step("ring closure", moves, "reversible" if el.kind not in DISPLACED else "", extra))
 
     def finish(self) -> None:
         el, nu = self.c.electrophile, self.c.nucleophile
@@ -141,8 +141,9 @@ class _Writer:
                     f":{acceptor} -> {carbon}{restored}{acceptor}", f"{alpha}={carbon} -> {alpha}-H({self.B})",
                     f"{self.B}-H -> {self.B}"], "reversible"))
                 self.base_is_water = False
-        elif el.kind != ALKYL and self.base_is_water:
-            self.protonate_oxygen(w)
+        elif self.base_is_water and (el.kind not in DISPLACED or (
+                el.bridge is not None and self.mol.GetAtomWithIdx(el.broken_partner).GetAtomicNum() in (7, 8))):
+            self.protonate_oxygen(w)     # the alkoxide or amide ion an addition or a ring opening leaves
 
     def condense(self) -> bool:
         """E1cB dehydration of an aldol whose nucleophilic carbon still carries a hydrogen and whose
