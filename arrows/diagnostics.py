@@ -372,7 +372,8 @@ CODES = _table(
          "a proton from an acid HA in the same step makes the enol, and the step is judged as a "
          "whole: [pKa(C-H) - pKa(BH+)] + [pKa(HA) - pKa(enol O-H)]. Not judged: a "
          "proton beside a cation (E1, a protonated carbonyl's alpha C-H; an azolium's C2-H is "
-         "judged against its own value) or one whose loss makes "
+         "judged against its own value), also where its pair goes into a C=C whose pi pair moves on "
+         "into the cation (a vinylogous E1: the proton lost after a Nazarov closure), or one whose loss makes "
          "its atom aromatic (an arenium ion or a sigma complex rearomatising).",
          'species acetone = "[CH3:1][C:2](=[O:3])[CH3:4]"\n'
          'species water = "[OH2:5]"\n'
@@ -403,12 +404,17 @@ CODES = _table(
          '    :O2 -> C1=O2\n'
          '    C1-N3 -> N3   # Me2N- leaves (pKa of Me2NH ~38, memory): protonate N3 first\n'
          'end'),
-    Code("AR511", WARNING, "unstabilised primary carbocation, silylium or sulfonyl cation",
+    Code("AR511", WARNING, "unstabilised primary or alpha-carbonyl carbocation, silylium or sulfonyl cation",
          "A step leaves a methyl or primary carbocation with no neighbouring lone pair, pi bond or arene "
          "to spread the charge, nor a CH2 bonded to a d-block metal beside it (an alkene's pi pair into "
          "the metal: the cation bridged to it). Such cations are not intermediates in solution (common "
          "practice: SN1 and E1 go through tertiary, secondary, allylic or benzylic cations; Markovnikov's "
          "rule). "
+         "Likewise a carbocation made on a carbon bonded to the carbon of a C=O, C=N or C#N, with no "
+         "O, N or S lone pair, pi bond, arene or cyclopropane beside it: such cations are strongly "
+         "destabilised (Creary, Acc. Chem. Res. 1985; memory), most often an arrow drawn the wrong way "
+         "(an enone's C=C sent to a nucleophile: the enone is the electrophile, and the hint writes the "
+         "conjugate addition). "
          "Likewise a bare three-coordinate silicon cation (R3Si+, a silylium ion) or sulfonyl cation "
          "(RSO2+) made by a step: a silyl or sulfonyl group moves by a nucleophile's attack at Si or S "
          "(a pentacoordinate silicate, as in a Peterson elimination; an addition at S), not set free "
@@ -727,13 +733,14 @@ CODES = _table(
          '    :O9 -> H(N1)\n'
          '    N1-H -> N1\n'
          'end'),
-    Code("AR533", WARNING, "enol ether or enamine protonated at the wrong carbon",
-         "A C=C pair takes a proton at the carbon that bears an O, N or S with a lone pair (an enol "
+    Code("AR533", WARNING, "enol ether or enamine bonded at the wrong carbon",
+         "A C=C pair takes a proton, or bonds to another electrophile (a Michael acceptor, an alkyl "
+         "halide), at the carbon that bears an O, N or S with a lone pair (an enol "
          "ether, an enamine, a vinyl sulfide), leaving the other carbon a carbocation with nothing "
-         "beside it to spread the charge. Taken at that other carbon, the proton would leave the "
+         "beside it to spread the charge. Bonded at that other carbon, the electrophile would leave the "
          "cation beside the heteroatom, whose lone pair makes it an oxocarbenium or iminium ion: such "
-         "alkenes are protonated at the carbon away from the heteroatom (common practice; the "
-         "tetrahydropyranyl ether from dihydropyran, Clayden, from memory). A cation left allylic, "
+         "alkenes react at the carbon away from the heteroatom (common practice; the "
+         "tetrahydropyranyl ether from dihydropyran, the Stork enamine reactions, Clayden, from memory). A cation left allylic, "
          "benzylic or beside a lone pair is not judged, nor a primary one (AR511).",
          'species dhp = "[O:1]1[CH:2]=[CH:3][CH2:4][CH2:5][CH2:6]1"\n'
          'species acid = "[OH3+:7]"\n'

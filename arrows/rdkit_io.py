@@ -354,6 +354,31 @@ def canonical(mol: Chem.Mol, keep_maps: frozenset[int] = frozenset()) -> str:
     return Chem.MolToSmiles(work)
 
 
+# An atom of SMILES's organic subset written in brackets with no charge, isotope, configuration or
+# map number: RDKit brackets such an atom when it is bonded to a metal (`C[O][Ti]([Cl])([Cl])[Cl]`),
+# which a chemist reads as a radical.
+_PLAIN_IN_BRACKETS = re.compile(r"\[(Cl|Br|B|C|N|O|P|S|F|I|b|c|n|o|p|s)(H\d?)?\]")
+
+
+def readable_smiles(mol: Chem.Mol) -> str:
+    """canonical(mol), each bracketed organic-subset atom written bare where the SMILES so written
+    reads back as the same molecule (`CO[Ti](Cl)(Cl)Cl`); a true radical (`C[O]`) keeps its brackets."""
+    text = canonical(mol)
+    if not _PLAIN_IN_BRACKETS.search(text):
+        return text
+    with rdkit_messages():
+        same = Chem.MolFromSmiles(text)
+        if same is None:
+            return text
+        reference = Chem.MolToSmiles(same)
+        for found in reversed(list(_PLAIN_IN_BRACKETS.finditer(text))):
+            bare = text[:found.start()] + found.group(1) + text[found.end():]
+            read = Chem.MolFromSmiles(bare)
+            if read is not None and Chem.MolToSmiles(read) == reference:
+                text = bare
+    return text
+
+
 def fragment(mol: Chem.Mol, atoms) -> Chem.Mol:
     """A copy of `mol` holding only `atoms`, in ascending index order (atom k of the copy is the
     k-th smallest of `atoms`), with everything RDKit keeps on them."""

@@ -1,7 +1,7 @@
 """Leaving groups that depart from carbon, phosphorus or sulfur as very strong bases (AR510),
 hydroxide or an alkoxide left to ionise (AR515), pushed out of carbon, nitrogen or an oxo acid's
-centre while a strong acid stands by (AR517), or out of an acetal carbon unprotonated (AR534); substitutions in one step at a tertiary carbon (AR520) or at a carbonyl
-carbon (AR525).
+centre while a strong acid stands by (AR517), or out of an acetal carbon unprotonated (AR534);
+substitutions in one step at a tertiary carbon (AR520) or at a carbonyl carbon (AR525).
 
 A pair move from a bond to one of that bond's atoms (`C8-N20 -> N20`) breaks the bond and leaves
 the pair on that atom: a leaving group. A good leaving group is a weak base (common practice: the

@@ -10,9 +10,10 @@ with the X-H bond broken in the same step. The acid given up is judged on X befo
 conjugate acid of the base on B after it (arrows.judgement.acidity). A concerted elimination
 (E2: another sigma bond breaks in the same step) is not a plain proton transfer and is left alone,
 nor is a hydrogen passed round a pericyclic array (an ene reaction, a [1,5]-hydrogen shift), where
-no base takes a proton and no ions form. A proton beside a cation has no entry and is not judged,
-except an azolium's C2-H (a thiazolium's ~18, an imidazolium's ~23), taken to make the ylide or
-carbene.
+no base takes a proton and no ions form. A proton beside a cation has no entry and is not judged
+(nor one beside it in another resonance form: a C-H whose pair goes into a C=C that pushes its pi
+pair on into the cation, a vinylogous E1), except an azolium's C2-H (a thiazolium's ~18, an
+imidazolium's ~23), taken to make the ylide or carbene.
 
 A C-H whose pair is pushed through a C=O (or C=N) onto its O (or N), which takes a proton from an
 acid HA in the same step (concerted general-base, general-acid enolisation, as triose phosphate
@@ -109,7 +110,7 @@ def proton_transfers(st: StepTrace, views: Optional[RecentViews] = None) -> list
             if not _carbocation_beside(st.after, base):
                 continue
             made_cation = True
-        beside_cation = _next_to_cation(st.before, x)
+        beside_cation = _next_to_cation(st.before, x) or _pushed_on_to_cation(st, x, h)
         if beside_cation and elements[x] != 6:
             # A cation's conjugate acid, or a C-H beta to a cation (E1, or the alpha C-H of a
             # protonated carbonyl or an iminium): no entry in our table. An azolium's C2-H has one,
@@ -194,6 +195,50 @@ def _protonated_end(st: StepTrace, carbon: int, hydrogen: int) -> Optional[tuple
         used.append(m)
         pushed = partner   # a C=C pair moved on along the chain (a vinylogous push)
     return None
+
+
+def _pushed_on_to_cation(st: StepTrace, atom: int, hydrogen: int) -> bool:
+    """Whether the pair of `atom`'s bond to `hydrogen` goes into a pi bond to a neighbour whose own
+    pi pair the step moves on, along a chain of pushes, into a cation: a bond made to a carbocation
+    (the allyl cation's far end, `C4-H -> C1=C4` with `C1=C2 -> C2=C3` onto C3+) or the pair left
+    on the O+ (N+) of a C=O+ (C=N+). That hydrogen is beside the cation in another resonance form of
+    it (a vinylogous E1, the proton loss after a Nazarov closure; common practice), as acidic as one
+    beside the cation itself, and is not judged either."""
+    moves, before = st.change.moves, st.before
+    start = next((m for m in moves if m.source_kind == "bond" and m.electrons == 2 and len(m.sink_atoms) == 2
+                  and set(m.source_atoms) == {atom, hydrogen} and atom in m.sink_atoms
+                  and hydrogen not in m.sink_atoms), None)
+    if start is None:
+        return False
+    pushed = _other(start.sink_atoms, atom)   # gains a bond: its pi pair moves on
+    if before.mol.GetBondBetweenAtoms(atom, pushed) is None:
+        return False   # a bond made to a new partner (water's O-H pair as the O adds): no neighbour's pi pair
+    used = [start]
+    for _ in range(len(moves)):
+        m = next((m for m in moves if m.source_kind == "bond" and m.electrons == 2 and pushed in m.source_atoms
+                  and all(m is not u for u in used)), None)
+        if m is None or before.bond_electrons(*m.source_atoms) < 4:
+            return False   # no pi pair moves on (a sigma bond broken is another event)
+        far = _other(m.source_atoms, pushed)
+        if far not in m.sink_atoms:
+            return False
+        if len(m.sink_atoms) == 1:   # the pair left on `far`: an O+ (N+) neutralised
+            return _charged_alone(before, far)
+        partner = _other(m.sink_atoms, far)
+        if before.elements[partner] == 1:
+            return False   # the pair takes a proton (an enol made: judged as a whole, above)
+        if _charged_alone(before, partner) and before.nonbonding[partner] == 0:
+            return True
+        used.append(m)
+        pushed = partner
+    return False
+
+
+def _charged_alone(state, atom: int) -> bool:
+    """Whether `atom` is positive with no negative neighbour (a nitro group's N+, balanced by its own
+    O-, is no cation)."""
+    return state.formal_charge(atom) > 0 and not any(
+        state.formal_charge(n.GetIdx()) < 0 for n in state.mol.GetAtomWithIdx(atom).GetNeighbors())
 
 
 def _pyrrole_type(view: Perceived, atom: int) -> bool:

@@ -8,7 +8,7 @@ from rdkit import Chem
 
 from ..diagnostics import Diagnostic
 from ..judgement.stereo import CENTRE, StereoElement, describe, state_stereo, stereoisomer_count
-from ..rdkit_io import canonical, fragment
+from ..rdkit_io import fragment, readable_smiles
 from ..electrons import ElectronState
 from ..judgement.perception import RecentViews
 from ..trace import StepTrace, Trace
@@ -76,7 +76,7 @@ def product_stereo(final: Optional[ElectronState], touched: set[int], views: Opt
         count = stereoisomer_count(piece, uncontrolled)
         if several_only and (count or 0) <= 1:
             continue
-        out.append(ProductStereo(canonical(piece), mine, count))
+        out.append(ProductStereo(readable_smiles(piece), mine, count))
     return out
 
 

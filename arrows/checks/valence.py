@@ -215,14 +215,15 @@ def _cation_beside_an_anion(st: StepTrace) -> Iterator[Diagnostic]:
 _ONIUM_CATION = {7: "an iminium ion", 8: "an oxocarbenium ion", 16: "a thionium ion"}
 
 
-def _protonated_at_the_donor_end(st: StepTrace) -> Iterator[Diagnostic]:
-    """AR533: a C=C pair takes a proton at the carbon that bears an O, N or S with a lone pair (an
-    enol ether, an enamine, a vinyl sulfide), leaving the other carbon a bare alkyl cation, where the
-    proton taken at that other carbon would leave the cation beside the heteroatom, whose lone pair
-    spreads the charge (an oxocarbenium or iminium ion). Such alkenes are protonated at the carbon
-    away from the heteroatom (common practice; Clayden, the tetrahydropyranyl ether from
-    dihydropyran; from memory). A cation left allylic, benzylic or beside a lone pair is not
-    judged, nor a primary one (AR511's)."""
+def _reacted_at_the_donor_end(st: StepTrace) -> Iterator[Diagnostic]:
+    """AR533: a C=C pair takes a proton, or bonds to another electrophile (a Michael acceptor's
+    carbon, an alkyl halide's), at the carbon that bears an O, N or S with a lone pair (an enol
+    ether, an enamine, a vinyl sulfide), leaving the other carbon a bare alkyl cation, where the
+    bond made at that other carbon would leave the cation beside the heteroatom, whose lone pair
+    spreads the charge (an oxocarbenium or iminium ion). Such alkenes react at the carbon away from
+    the heteroatom (common practice; Clayden, the tetrahydropyranyl ether from dihydropyran, the
+    Stork enamine alkylation and Michael addition; from memory). A cation left allylic, benzylic or
+    beside a lone pair is not judged, nor a primary one (AR511's)."""
     if st.step.kind == "resonance":
         return
     before, after = st.before, st.after
@@ -230,12 +231,12 @@ def _protonated_at_the_donor_end(st: StepTrace) -> Iterator[Diagnostic]:
     for m in st.change.moves:
         if m.electrons != 2 or m.source_kind != "bond" or len(m.sink_atoms) != 2:
             continue
-        h = next((k for k in m.sink_atoms if elements[k] == 1), None)
-        if h is None or h in m.source_atoms:
+        end = next((k for k in m.sink_atoms if k in m.source_atoms and elements[k] == 6), None)
+        if end is None:
             continue
-        end = next(k for k in m.sink_atoms if k != h)
-        if end not in m.source_atoms or elements[end] != 6:
-            continue
+        taker = next(k for k in m.sink_atoms if k != end)
+        if taker in m.source_atoms:
+            continue   # a pi bond made from a sigma one, or kept: no bond to a new atom
         other = next(k for k in m.source_atoms if k != end)
         if (elements[other] != 6 or before.bond_electrons(end, other) != 4 or after.formal_charge(other) != 1
                 or after.nonbonding[other] or not _bare_alkyl_cation(after, other)
@@ -246,21 +247,41 @@ def _protonated_at_the_donor_end(st: StepTrace) -> Iterator[Diagnostic]:
                       and after.nonbonding[n.GetIdx()] >= 2), None)
         if donor is None:
             continue
-        label = after.label
-        c_end, c_other, x = label(end), label(other), label(donor)
-        holder = next((n.GetIdx() for n in before.mol.GetAtomWithIdx(h).GetNeighbors()), None)
+        yield _donor_end_diagnostic(st, m, end, other, taker, donor)
+
+
+def _donor_end_diagnostic(st: StepTrace, m, end: int, other: int, taker: int, donor: int) -> Diagnostic:
+    """AR533's finding for the C=C pair of move `m` bonded at `end`, beside `donor`, to `taker` (a
+    hydrogen as a proton, or an electrophile), leaving `other` a carbocation."""
+    before, label = st.before, st.after.label
+    c_end, c_other, x = label(end), label(other), label(donor)
+    onium = _ONIUM_CATION[st.after.elements[donor]]
+    bond = "=".join(label(k) for k in sorted((end, other)))
+    if st.after.elements[taker] == 1:
+        holder = next((n.GetIdx() for n in before.mol.GetAtomWithIdx(taker).GetNeighbors()), None)
         if holder is not None and all(nameable(before.mol, k) for k in (end, other, holder)):
-            bond = "=".join(label(k) for k in sorted((end, other)))
             fix = f"`{bond} -> {c_other}-H({label(holder)})`, with `:{x} -> {x}={c_end}` in the same step or the next"
         else:
             fix = f"the C=C pair onto a proton at {c_other}, and {x}'s lone pair into {x}={c_end}"
-        yield Diagnostic(
+        return Diagnostic(
             "AR533", f"the proton goes to {c_end}, the carbon that bears {x}, leaving {c_other} a carbocation with "
             f"nothing to stabilise it; at {c_other} it would leave the cation on {c_end} beside {x}'s lone pair, "
-            f"{_ONIUM_CATION[elements[donor]]}", m.move.loc,
+            f"{onium}", m.move.loc,
             hint=f"protonate the carbon away from the heteroatom: {fix} (an enol ether or enamine takes a proton "
                  f"at its beta carbon)",
             atoms=(c_end, c_other, x), step=st.index)
+    e = label(taker)
+    if all(nameable(before.mol, k) for k in (end, other, taker, donor)):
+        fix = f"`{bond} -> {c_other}-{e}`, with `:{x} -> {x}={c_end}` in the same step"
+    else:
+        fix = f"the C=C pair into a bond from {c_other} to {e}, and {x}'s lone pair into {x}={c_end}"
+    return Diagnostic(
+        "AR533", f"{e} bonds to {c_end}, the carbon that bears {x}, leaving {c_other} a carbocation with nothing to "
+        f"stabilise it; bonded at {c_other} it would leave the cation on {c_end} beside {x}'s lone pair, {onium}",
+        m.move.loc,
+        hint=f"an enol ether or enamine reacts with electrophiles at its beta carbon, away from the heteroatom, "
+             f"and {onium} results: {fix}",
+        atoms=(c_end, c_other, x), step=st.index)
 
 
 def _bare_alkyl_cation(state: ElectronState, i: int) -> bool:
@@ -437,6 +458,76 @@ def _pi_pair_onto_oxo_centre(st: StepTrace) -> Iterator[Diagnostic]:
             atoms=(x, o, n), step=st.index)
 
 
+# The pi acceptors whose carbon, bonded to a carbocation, destabilises it: C=O, C=N, C#N.
+_ACCEPTOR_ENDS = frozenset({7, 8})
+
+
+def _acceptor_carbon(state: ElectronState, carbon: int) -> Optional[tuple[int, str]]:
+    """(the O or N, the bond written `C=O`, `C=N` or `C#N`) where `carbon` is the carbon of such a
+    bond (an aromatic ring's C=N aside: the ring spreads a cation beside it)."""
+    atom = state.mol.GetAtomWithIdx(carbon)
+    if atom.GetAtomicNum() != 6 or atom.GetIsAromatic():
+        return None
+    for bond in atom.GetBonds():
+        far = bond.GetOtherAtom(atom)
+        order = state.bond_electrons(carbon, far.GetIdx())
+        if far.GetAtomicNum() in _ACCEPTOR_ENDS and order in (4, 6):
+            return far.GetIdx(), f"C{'=' if order == 4 else '#'}{far.GetSymbol()}"
+    return None
+
+
+def _alpha_acceptor_cation(st: StepTrace, i: int) -> Optional[Diagnostic]:
+    """AR511 for a carbocation the step makes on a carbon bonded to the carbon of a C=O, C=N or
+    C#N, with nothing else beside it to spread the charge (no O, N or S with a lone pair, no pi
+    bond, arene or cyclopropane): the acceptor pulls on the sigma bond and its pi bond cannot share
+    the charge, so such cations are strongly destabilised and rarely intermediates (Creary, Acc.
+    Chem. Res. 1985, alpha-carbonyl cations; from memory). Most often an arrow drawn the wrong way:
+    an enone's C=C pair sent to a nucleophile, where the enone is the electrophile (common
+    practice). A resonance step is not judged."""
+    after, before = st.after, st.before
+    atom = after.mol.GetAtomWithIdx(i)
+    if st.step.kind == "resonance" or any(after.bond_electrons(i, n.GetIdx()) > 2 for n in atom.GetNeighbors()):
+        return None   # a vinyl cation or an acylium ion
+    acceptor = None
+    for n in atom.GetNeighbors():
+        k = n.GetIdx()
+        if n.GetAtomicNum() in _DONORS and after.formal_charge(k) <= 0 and after.nonbonding[k] >= 2:
+            return None   # an oxocarbenium, iminium or thionium ion
+        found = _acceptor_carbon(after, k)
+        if found is not None:
+            acceptor = acceptor or (k, *found)
+        elif n.GetIsAromatic() or any(after.bond_electrons(k, m.GetIdx()) > 2 for m in n.GetNeighbors()) \
+                or (n.GetAtomicNum() == 6 and _in_three_ring(after.mol, k)):
+            return None   # allylic, benzylic, cyclopropylcarbinyl
+    if acceptor is None:
+        return None
+    k, end, bond = acceptor
+    label = after.label
+    c, carbon, x = label(i), label(k), label(end)
+    # Where the pi pair of a C=C at the cation went to bond a nucleophile to the other carbon: the
+    # enone's C=C drawn as the nucleophile, a Michael addition reversed.
+    pushed = next((m for m in st.change.moves if m.source_kind == "bond" and m.electrons == 2 and i in m.source_atoms
+                   and i not in m.sink_atoms and before.bond_electrons(*m.source_atoms) == 4), None)
+    if pushed is not None and len(pushed.sink_atoms) == 2:
+        beta = next(a for a in pushed.source_atoms if a != i)
+        if all(nameable(before.mol, a) for a in (i, beta, k, end)):
+            moves = f"`{pushed.move.source} -> {c}={carbon}` with `{carbon}{bond[1]}{x} -> {x}`"
+        else:
+            moves = f"the pair of the C=C on into the {bond}"
+        hint = (f"a C=C conjugated with a {bond} (an enone's) is the electrophile, not the nucleophile: the arrow "
+                f"probably runs the wrong way. The nucleophile's pair bonds to {label(beta)}, the beta carbon, and "
+                f"the C=C pair moves on toward {x}: {moves}")
+    else:
+        hint = (f"a cation beside the carbon of a {bond} is seldom an intermediate: check the direction of the arrows "
+                f"(which atom gives the pair), or put the charge where a lone pair, pi bond or alkyl groups hold it")
+    loc = pushed.move.loc if pushed is not None else next(
+        (m.move.loc for m in st.change.moves if m.source_kind == "bond" and i in m.source_atoms
+         and i not in m.sink_atoms), st.step.loc)
+    return Diagnostic("AR511", f"{c} is left a carbocation beside {carbon}, the carbon of a {bond}: a cation alpha "
+                      f"to a carbonyl, imine or nitrile carbon is strongly destabilised (Creary 1985)", loc,
+                      hint=hint, atoms=(c, carbon), step=st.index)
+
+
 def _bare_silyl_or_sulfonyl(st: StepTrace, i: int) -> Optional[Diagnostic]:
     """AR511 for a silicon or sulfur cation with no lone pair that the step leaves three-coordinate
     by taking a bond pair away: a silylium ion (R3Si+) or a sulfonyl cation (RSO2+). Neither is set
@@ -556,7 +647,7 @@ class UnusualElectronCounts(Check):
         yield from _pi_pair_onto_carbon(st)
         yield from _pi_pair_onto_oxo_centre(st)
         yield from _cation_beside_an_anion(st)
-        yield from _protonated_at_the_donor_end(st)
+        yield from _reacted_at_the_donor_end(st)
         for i, old_charge, charge in st.change.charges:
             # As for the shell below: a charge the species was written with and the step keeps
             # (a sulfonyl S written S2+ with two O-) is not the step's doing; nor is one the step
@@ -580,8 +671,9 @@ class UnusualElectronCounts(Check):
                              f"{', a nitrene' if element == 7 else ''}")
                 yield Diagnostic("AR505", f"{label} is left with six valence electrons ({kind})", st.step.loc,
                                  hint=_sextet_hint(st, i), atoms=(label,), step=st.index)
-            if (shell == 6 and element == 6 and old_shell > 6 and after.nonbonding[i] == 0
-                    and after.formal_charge(i) == 1 and unstabilised_primary_cation(after.mol, i)):
+            made_carbocation = (shell == 6 and element == 6 and old_shell > 6 and after.nonbonding[i] == 0
+                                and after.formal_charge(i) == 1)
+            if made_carbocation and unstabilised_primary_cation(after.mol, i):
                 label = after.label(i)
                 yield Diagnostic("AR511", f"{label} is left as a primary (or methyl) carbocation with nothing to "
                                  f"stabilise it", st.step.loc,
@@ -589,6 +681,8 @@ class UnusualElectronCounts(Check):
                                       "substituted or stabilised carbon (Markovnikov), or make the step concerted "
                                       "(SN2, E2, a shift as the group leaves)",
                                  atoms=(label,), step=st.index)
+            elif made_carbocation and (beside_acceptor := _alpha_acceptor_cation(st, i)) is not None:
+                yield beside_acceptor
             if shell < old_shell and element in (14, 16) and after.nonbonding[i] == 0 and after.formal_charge(i) > 0:
                 found = _bare_silyl_or_sulfonyl(st, i)
                 if found is not None:
