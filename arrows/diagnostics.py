@@ -946,6 +946,16 @@ def to_json(diags: Iterable[Diagnostic]) -> str:
     return json.dumps([d.to_dict() for d in diags], indent=2, ensure_ascii=False)
 
 
+def cannot_read(name: str, exc: Optional[OSError] = None) -> Diagnostic:
+    """AR100 for an input that cannot be opened: every command words a missing file (exc None or
+    FileNotFoundError) alike, so this is the one place that says it."""
+    if exc is None or isinstance(exc, FileNotFoundError):
+        return Diagnostic("AR100", "cannot read file: no such file or folder", Location(name, 1, 1),
+                          hint="check the path; a relative path starts from the folder the command runs in")
+    return Diagnostic("AR100", f"cannot read file: {exc.strerror or exc}", Location(name, 1, 1),
+                      hint="check the path and permissions")
+
+
 class MechanismError(Exception):
     """Raised when a file cannot be turned into a Mechanism at all; carries its diagnostics."""
 

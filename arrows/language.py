@@ -4,7 +4,6 @@ from __future__ import annotations
 
 import difflib
 import hashlib
-import os
 import re
 import sys
 from functools import lru_cache
@@ -33,9 +32,10 @@ import lark  # noqa: E402
 from lark import Lark, Token, Tree  # noqa: E402
 from lark.exceptions import UnexpectedCharacters, UnexpectedEOF, UnexpectedInput, VisitError  # noqa: E402
 
-from .diagnostics import Diagnostic, MechanismError
+from .diagnostics import Diagnostic, MechanismError, cannot_read
 from .model import (BOND_ORDERS, AtomRef, AtomSink, BareAtom, BondPair, BondRef, BondSink, Checkpoint, NonbondingSink,
                     HydrogenOn, Location, LonePair, Mechanism, Move, Species, Step, UnpairedElectron)
+from .user_cache import user_cache_folder
 
 MAX_FILE_BYTES = 5_000_000
 
@@ -54,7 +54,7 @@ def _cache_file(grammar: str) -> Optional[str]:
     of `arrows check` on a small file. A folder of the user's own (not the shared temp folder, since
     lark unpickles the file); None when it cannot be made, and the parser is built every time."""
     try:
-        folder = Path(os.environ.get("XDG_CACHE_HOME") or Path.home() / ".cache") / "arrows"
+        folder = user_cache_folder()
         folder.mkdir(parents=True, exist_ok=True)
     except (OSError, RuntimeError):   # RuntimeError: no home folder to be found
         return None
@@ -753,8 +753,7 @@ def load(path: str | Path, steps_on_demand: bool = False) -> Mechanism:
         else:
             raw = Path(path).read_bytes()
     except OSError as exc:
-        raise MechanismError([Diagnostic("AR100", f"cannot read file: {exc.strerror or exc}", Location(name, 1, 1),
-                                         hint="check the path and permissions")]) from None
+        raise MechanismError([cannot_read(name, exc)]) from None
     try:
         text = raw.decode("utf-8-sig")
     except UnicodeDecodeError as exc:

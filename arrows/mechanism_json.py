@@ -13,7 +13,7 @@ from importlib import resources
 from pathlib import Path
 from typing import Any, Optional
 
-from .diagnostics import Diagnostic, MechanismError
+from .diagnostics import Diagnostic, MechanismError, cannot_read
 from .build import atom, move
 from .model import Checkpoint, Location, Mechanism, Move, Species, Step
 
@@ -138,14 +138,34 @@ def dumps(mechanism: Mechanism, trace=None, diagnostics=None) -> str:
 
 # --- reading ---------------------------------------------------------------------------------
 
-def _read_checkpoint(data) -> Checkpoint:
+class _Places:
+    """Where the values of a JSON document were written (value_positions), as Locations in it: a
+    species' or checkpoint's SMILES is placed just inside its opening quote, as the .mech reader
+    places it, so that RDKit's position in the SMILES lands on the character (escapes such as
+    \\ before it in the string shift it by one each)."""
+
+    def __init__(self, file: str, where: dict[tuple, tuple[int, int]]):
+        self.file, self.where = file, where
+
+    def at(self, path: tuple) -> Location:
+        line, column = self.where.get(("mechanism",) + path, (1, 1))
+        return Location(self.file, line, column)
+
+    def inside_string(self, path: tuple) -> Location:
+        loc = self.at(path)
+        return Location(loc.file, loc.line, loc.column + 1) if ("mechanism",) + path in self.where else loc
+
+
+def _read_checkpoint(data, places: _Places, path: tuple) -> Checkpoint:
     if isinstance(data, str):
-        return Checkpoint(data)
-    return Checkpoint(data["smiles"], data.get("whole_state", False))
+        return Checkpoint(data, loc=places.at(path), smiles_loc=places.inside_string(path))
+    return Checkpoint(data["smiles"], data.get("whole_state", False), loc=places.at(path),
+                      smiles_loc=places.inside_string(path + ("smiles",)))
 
 
-def _read_species(data: dict) -> tuple[Species, ...]:
-    return tuple(Species(name, smiles) for name, smiles in data.items())
+def _read_species(data: dict, places: _Places, path: tuple) -> tuple[Species, ...]:
+    return tuple(Species(name, smiles, loc=places.at(path + (name,)), smiles_loc=places.inside_string(path + (name,)))
+                 for name, smiles in data.items())
 
 
 def _read_move(text: str, where: tuple[int, int], file: str) -> Move:
@@ -163,17 +183,21 @@ def mechanism_from_dict(data: dict, source_name: str = "<text>",
     """The Mechanism of a `mechanism` object that validates against the schema. `where` maps JSON
     paths to (line, column) for messages about move text."""
     where = where or {}
+    places = _Places(source_name, where)
     steps = []
     for i, step in enumerate(data["steps"]):
         moves = tuple(_read_move(text, where.get(("mechanism", "steps", i, "moves", j), (1, 1)), source_name)
                       for j, text in enumerate(step["moves"]))
         steps.append(Step(step.get("label", f"step {i + 1}"), step.get("kind", "forward"), step.get("over"),
-                          step.get("under"), _read_species(step.get("uses", {})), moves,
+                          step.get("under"), _read_species(step.get("uses", {}), places, ("steps", i, "uses")), moves,
                           tuple(atom(a) for a in step.get("releases", ())),
-                          tuple(_read_checkpoint(c) for c in step.get("expect", ()))))
+                          tuple(_read_checkpoint(c, places, ("steps", i, "expect", k))
+                                for k, c in enumerate(step.get("expect", ()))),
+                          loc=places.at(("steps", i))))
     product = data.get("product")
-    return Mechanism(data.get("title"), data.get("caption"), _read_species(data["species"]), tuple(steps),
-                     None if product is None else _read_checkpoint(product), source_name)
+    return Mechanism(data.get("title"), data.get("caption"), _read_species(data["species"], places, ("species",)),
+                     tuple(steps), None if product is None else _read_checkpoint(product, places, ("product",)),
+                     source_name)
 
 
 _LONGEST_INTEGER = 100   # digits: no field of a mechanism is a number this long (Python refuses 4,300)
@@ -272,8 +296,7 @@ def load(path: str | Path) -> Mechanism:
         raw = Path(path).read_bytes()
         text = raw.decode(json.detect_encoding(raw))
     except OSError as exc:
-        raise MechanismError([Diagnostic("AR100", f"cannot read file: {exc.strerror or exc}", Location(name, 1, 1),
-                                         hint="check the path and permissions")]) from None
+        raise MechanismError([cannot_read(name, exc)]) from None
     except UnicodeDecodeError as exc:
         raise MechanismError([Diagnostic("AR100", f"file is not JSON text ({exc.reason} at byte {exc.start})",
                                          Location(name, 1, 1), hint="JSON files are UTF-8 text")]) from None

@@ -125,7 +125,7 @@ def test_a_png_too_large_is_refused_before_drawing(tmp_path):
                timeout=60)
     err = proc.stderr.decode()
     assert proc.returncode == 2, err
-    assert "x.png:1:1: error: " in err and "million" in err and "hint: lower --dpi to " in err, err
+    assert "error: cannot write x.png: " in err and "million" in err and "hint: lower --dpi to " in err, err
     assert time.monotonic() - started < 30
     assert not (tmp_path / "x.png").exists()
     fits = int(err.split("lower --dpi to ")[1].split()[0])
@@ -160,7 +160,7 @@ def test_collect_refuses_an_unwritable_report_before_any_work(option, tmp_path):
     (tmp_path / "in" / "a.mech").write_text(DIELS_ALDER.read_text())
     proc = run("collect", "in", "-o", "out.pdf", "-j", "1", option, "/proc/arrows-test.out", cwd=tmp_path)
     err = proc.stderr.decode()
-    assert proc.returncode == 2 and "/proc/arrows-test.out:1:1: error: cannot write" in err and "hint:" in err, err
+    assert proc.returncode == 2 and "error: cannot write /proc/arrows-test.out: " in err and "hint:" in err, err
     assert not (tmp_path / "out.pdf").exists()
 
 
@@ -263,7 +263,7 @@ def test_a_suffix_that_disagrees_with_format_is_refused(name, tmp_path, monkeypa
     monkeypatch.chdir(tmp_path)
     result = CliRunner().invoke(cli, ["draw", str(DIELS_ALDER), "-o", name, "--format", "png"])
     assert result.exit_code == 2, result.output
-    assert f"{name}:1:1: error: " in result.output and "hint: name it x.png" in result.output, result.output
+    assert f"error: -o {name} ends in " in result.output and "hint: name it x.png" in result.output, result.output
     assert list(tmp_path.iterdir()) == []
 
 
@@ -285,7 +285,7 @@ def test_a_folder_given_for_a_file_is_located_with_a_hint(args, tmp_path, monkey
     (tmp_path / "folder").mkdir()
     result = CliRunner().invoke(cli, args)
     assert result.exit_code == 2, result.output
-    assert result.output.startswith("folder:1:1: error: ") and "is a folder" in result.output, result.output
+    assert result.output.startswith("error: ") and " folder is a folder" in result.output, result.output
     assert "\n    hint: " in result.output and "Usage:" not in result.output, result.output
 
 
@@ -315,3 +315,27 @@ def test_a_smiles_too_large_is_refused_by_the_drafting_commands(command):
     err = done.stderr.decode()
     assert done.returncode == 2 and "Traceback" not in err, err[-400:]
     assert "<SMILES>:1:1: error AR102" in err and "at most 5,000" in err
+
+
+# A missing input, as every command that reads one words it.
+@pytest.mark.parametrize("args, missing", [
+    (["check", "{}"], "nofile.mech"),
+    (["check", "--jsonl", "{}"], "nofile.jsonl"),
+    (["trace", "{}"], "nofile.mech"),
+    (["draw", "{}", "-o", "x.svg"], "nofile.mech"),
+    (["export", "{}", "--to", "json"], "nofile.mech"),
+    (["import", "{}"], "nofile.json"),
+    (["collect", "{}", "-o", "si.pdf"], "nofile.mech"),
+    (["collect", "{}", "-o", "si.pdf"], "nofolder/"),
+    (["closures", "{}"], "nofile.mech"),
+], ids=["check", "check-jsonl", "trace", "draw", "export", "import", "collect-file", "collect-folder", "closures"])
+def test_a_missing_input_is_said_in_the_same_words_by_every_command(args, missing, tmp_path):
+    """`check` said "cannot read file: No such file or directory" (hint: check the path and
+    permissions), `closures` "the file does not exist" (hint: check the path), `collect` a bare
+    usage error "no such file or folder": one AR100, worded in one place, at exit status 2."""
+    done = run(*[a.format(missing) for a in args], cwd=tmp_path)
+    said = done.stdout.decode() + done.stderr.decode()   # (check prints its diagnostics on stdout)
+    assert done.returncode == 2 and "Traceback" not in said, said
+    assert f"{missing}:1:1: error AR100 cannot read file: no such file or folder\n" \
+           "    hint: check the path; a relative path starts from the folder the command runs in\n" in said, said
+    assert list(tmp_path.iterdir()) == []

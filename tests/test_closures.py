@@ -205,7 +205,7 @@ def test_a_missing_file_is_not_read_as_smiles(tmp_path):
     """A name ending .mech is a file (no SMILES ends so): it was parsed as a SMILES."""
     result = run(tmp_path / "nofile.mech")
     assert result.exit_code == 2 and "Traceback" not in result.output
-    assert f"{tmp_path / 'nofile.mech'}:1:1: error AR100 the file does not exist" in result.output
+    assert f"{tmp_path / 'nofile.mech'}:1:1: error AR100 cannot read file: no such file or folder" in result.output
     assert "hint:" in result.output
 
 

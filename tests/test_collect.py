@@ -594,3 +594,39 @@ def test_fail_fast_says_no_pdf_was_written_where_there_was_none(tmp_path):
     assert collect(good, *args).returncode == 0
     proc = collect(good, broken, *args)
     assert proc.returncode == 1 and f"(--fail-fast); {out} is as it was" in proc.stderr
+
+
+def test_the_default_cache_stays_out_of_the_folder_an_author_ships(tmp_path):
+    """The cache went to `.arrows-cache/` beside the document, so zipping `si/` for a journal
+    shipped it too (856 KB for 10 schemes). Without --cache it goes to the user's cache folder
+    ($XDG_CACHE_HOME/arrows/collect, the XDG base directory convention) and still serves a re-run."""
+    (tmp_path / "in").mkdir()
+    for path in GALLERY[:2]:
+        shutil.copy(path, tmp_path / "in" / path.name)
+    cache_home = tmp_path / "cache-home"
+    env = {**os.environ, "XDG_CACHE_HOME": str(cache_home)}
+
+    def run():
+        return subprocess.run(["arrows", "collect", "in", "-o", "si/supporting.pdf", "-j", "1"], capture_output=True,
+                              text=True, cwd=tmp_path, env=env, timeout=900)
+    first = run()
+    assert first.returncode == 0, first.stderr
+    shipped = sorted(str(p.relative_to(tmp_path / "si")) for p in (tmp_path / "si").iterdir())
+    assert shipped == ["supporting-figures", "supporting.pdf"], shipped
+    assert len(list((cache_home / "arrows" / "collect" / "figures").iterdir())) == 2
+    again = run()
+    assert again.returncode == 0 and "0 drawn, 2 from the cache" in again.stderr, again.stderr
+
+
+def test_a_cache_that_cannot_be_made_is_named_and_leaves_nothing(tmp_path):
+    """With the cache out of the output's folder, a cache folder that cannot be made (here a file
+    stands in its way) must not read "cannot write si/x.pdf", nor leave an empty si/ behind."""
+    (tmp_path / "a.mech").write_text(GALLERY[0].read_text())
+    (tmp_path / "cache-home").write_text("a file, not a folder\n")
+    env = {**os.environ, "XDG_CACHE_HOME": str(tmp_path / "cache-home")}
+    done = subprocess.run(["arrows", "collect", "a.mech", "-o", "si/x.pdf", "-j", "1"], capture_output=True, text=True,
+                          cwd=tmp_path, env=env, timeout=300)
+    assert done.returncode == 2 and "Traceback" not in done.stderr, done.stderr
+    assert done.stderr.startswith(f"error: cannot write the cache {tmp_path / 'cache-home' / 'arrows' / 'collect'}: ")
+    assert "hint: name a folder that can be written: --cache DIR" in done.stderr
+    assert not (tmp_path / "si").exists()

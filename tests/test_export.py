@@ -235,7 +235,7 @@ def test_an_unwritable_output_is_a_message_not_a_traceback(tmp_path):
     target = tmp_path / "no-such-folder" / "out.json"
     done = _arrows_main("export", str(GALLERY[0]), "--to", "json", "-o", str(target))
     assert done.returncode == 2
-    assert done.stderr.startswith(f"{target}:1:1: error: cannot write") and "Traceback" not in done.stderr
+    assert done.stderr.startswith(f"error: cannot write {target}: ") and "Traceback" not in done.stderr
 
 
 @pytest.mark.parametrize("constant", ["NaN", "Infinity"])
@@ -534,3 +534,28 @@ def test_rxn_smiles_numbers_every_hydrogen_of_an_atom_whose_hydrogen_a_move_name
                 if a.GetSymbol() != "H"}
     assert explicit == {1: 0, 2: 0, 3: 2, 4: 0, 5: 0, 6: 0, 7: 3}
     assert all(a.GetAtomMapNum() > 7 for a in mol.GetAtoms() if a.GetSymbol() == "H")
+
+
+@pytest.mark.parametrize("written, broken, code", [
+    ('"[CH2:1]=[CH:2][CH:3]=[CH2:4]"', '"[CH2:1]=[CH:2][CH:3]=[CH2:4"', "AR102 RDKit cannot read the SMILES of diene"),
+    ('"C1=CCCCC1"', '"C1=CCCCC"', "AR102 RDKit cannot read the checkpoint SMILES"),
+], ids=["species", "product"])
+def test_import_refuses_a_smiles_rdkit_cannot_read_with_its_place_in_the_json(written, broken, code, tmp_path):
+    """A SMILES RDKit cannot read (an unclosed bracket, an unclosed ring; RDKit as judge) was
+    passed through into the .mech text, exit 0, for `arrows check` to refuse later. It is the
+    AR102 that check gives, located on its line of the JSON, at its string (inside it where RDKit
+    names a position); nothing is written, to -o or to standard output."""
+    good = mechanism_json.dumps(arrows.load(ROOT / "gallery" / "13-diels-alder.mech"))
+    text = good.replace(written, broken, 1)   # (the mechanism comes first, before the derived states)
+    bad = tmp_path / "bad.json"
+    bad.write_text(text, encoding="utf-8")
+    row = text[:text.index(broken)].count("\n") + 1
+    quote = text.splitlines()[row - 1].index(broken) + 1
+    target = tmp_path / "bad.mech"
+    for output in ([], ["-o", str(target)]):
+        done = _arrows_main("import", str(bad), *output)
+        assert done.returncode == 2, done.stderr
+        place = re.search(rf"bad\.json:{row}:(\d+): error {re.escape(code)}", done.stderr)
+        assert place and quote <= int(place.group(1)) < quote + len(broken), done.stderr
+        assert "nothing written" in done.stderr and "Traceback" not in done.stderr
+        assert done.stdout == "" and not target.exists()

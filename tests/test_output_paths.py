@@ -1,7 +1,8 @@
 """Outputs never destroy inputs, and name what they are: `arrows draw` and `arrows collect` refuse,
 before any work, an output that is one of the input mechanisms (however the path reaches it), a
 name ending in .mech, a name ending in a slash, and a document that is not a .pdf; each with a
-located message, a hint and exit status 2 (bad usage), leaving every file as it was.
+message naming the path (no line:col: nothing was read at a place in a file), a hint and exit
+status 2 (bad usage), leaving every file as it was.
 
 They once replaced an input with the PDF, the JSON report or the SVG and exited 0, wrote a PDF
 named `folder` for `-o some/folder/`, and a PDF named x.svg for `-o x.svg`.
@@ -40,7 +41,8 @@ def files_of(folder: Path) -> dict[str, bytes]:
 
 def refused(done: subprocess.CompletedProcess, at: str) -> None:
     assert done.returncode == 2, done.stderr
-    assert f"{at}:1:1: error: " in done.stderr and "\n    hint: " in done.stderr, done.stderr
+    assert done.stderr.startswith("error: ") and at in done.stderr.splitlines()[0], done.stderr
+    assert "\n    hint: " in done.stderr and ":1:1:" not in done.stderr, done.stderr
     assert "Traceback" not in done.stderr
 
 
@@ -89,7 +91,7 @@ def test_an_output_that_is_not_the_file_it_should_be_is_refused(project, args, a
     refused(done, at)
     assert says in done.stderr
     assert files_of(project) == before
-    assert not (project / "some").exists() and not (project / ".arrows-cache").exists()
+    assert not (project / "some").exists()
 
 
 def test_the_hint_names_the_pdf_to_write(project):
@@ -170,3 +172,28 @@ def test_a_folder_walk_reads_an_upper_case_suffix(tmp_path):
     shutil.copy(GALLERY[1], tmp_path / "up" / "b.mech")
     done = arrows("check", "up", cwd=tmp_path)
     assert "2 files checked" in done.stdout + done.stderr, done.stdout + done.stderr
+
+
+@pytest.mark.parametrize("args,at,says", [
+    (["draw", "clob/a.mech", "-o", "missing/a.svg"], "missing/a.svg", "the folder missing does not exist"),
+    (["export", "clob/a.mech", "--to", "json", "-o", "missing/a.json"], "missing/a.json",
+     "the folder missing does not exist"),
+    (["check", "--jsonl", "set.jsonl", "-o", "missing/r.jsonl"], "missing/r.jsonl", "the folder missing does not exist"),
+    (["number", "CCO", "-o", "missing/n.svg"], "missing/n.svg", "the folder missing does not exist"),
+    (["closures", "CC(=O)CCCC(C)=O", "--write", "missing/d.mech"], "missing/d.mech",
+     "the folder missing does not exist"),
+    (["collect", "clob", "-o", "si.svg"], "si.svg", "does not end in .pdf"),
+    (["number", "CCO", "-o", "n.jpg"], "n.jpg", "does not end in .svg or .png"),
+    (["closures", "CC(=O)CCCC(C)=O", "--draw", "grid.jpg"], "grid.jpg", "does not end in .svg or .png"),
+    (["draw", "clob/a.mech", "-o", "a.jpeg", "--format", "png"], "a.jpeg", "ends in .jpeg but --format says png"),
+], ids=["draw-missing-folder", "export-missing-folder", "jsonl-missing-folder", "number-missing-folder",
+        "closures-missing-folder", "collect-extension", "number-extension", "closures-extension", "draw-extension"])
+def test_an_output_path_error_names_the_path_with_a_hint_and_no_line_and_column(project, args, at, says):
+    """Output-path refusals read `out/x.svg:1:1: error: ...`: a line and column of a file that
+    was never read (and often does not exist). Now `error: ...` naming the path, and a hint."""
+    (project / "set.jsonl").write_text('{"id": "r1", "text": "species w = \\"[OH2:1]\\""}\n', encoding="utf-8")
+    before = files_of(project)
+    done = arrows(*args, cwd=project)
+    refused(done, at)
+    assert says in done.stderr.splitlines()[0], done.stderr
+    assert files_of(project) == before and not (project / "missing").exists()

@@ -19,6 +19,7 @@ from pathlib import Path
 from typing import Callable, Optional
 
 from ..atomic import remove_stale_temps, replace_dir, temp_dir_beside
+from ..user_cache import user_cache_folder
 from .cache import PDF, SVG, Cache, document_key, page_key, tool_fingerprint
 from .document import compose, scheme_blocks
 from .figures import FigureJob, FigureOutcome, look_up, make_figure
@@ -30,6 +31,7 @@ from .record import SchemeRecord
 from .sources import Source
 
 FOLDER_SUFFIX = "-figures"
+DEFAULT_CACHE = "collect"       # the cache's folder in the user's cache folder (arrows.user_cache)
 MARKER = ".arrows-collect"      # marks a figures folder as ours, so we never replace anyone else's
 
 # progress(phase, done, total, record): phase "scheme" (record given) or "page" (record None)
@@ -49,7 +51,7 @@ class CollectSettings:
     flow: bool = False
     prefix: str = "S"
     jobs: int = 1
-    cache_dir: Optional[Path] = None    # default: .arrows-cache beside the output
+    cache_dir: Optional[Path] = None    # default: DEFAULT_CACHE in the user's cache folder
     fail_fast: bool = False
     source_paths: bool = True           # False: the document leaves the source files' paths out
     png_dpi: Optional[int] = None       # PNG figure files too, at this resolution
@@ -60,7 +62,9 @@ class CollectSettings:
 
     @property
     def cache_root(self) -> Path:
-        return self.cache_dir or self.output.parent / ".arrows-cache"
+        """Kept out of the output's folder, which an author ships as it is (zipped for a journal).
+        Keys name everything that decides an entry, so one cache serves every project."""
+        return self.cache_dir or user_cache_folder() / DEFAULT_CACHE
 
 
 @dataclass
@@ -78,11 +82,11 @@ class CollectResult:
 
 def collect(sources: list[Source], settings: CollectSettings, progress: Progress = lambda *a: None) -> CollectResult:
     output = settings.output
+    cache = Cache(settings.cache_root)
+    cache.prepare()   # first: a cache that cannot be made leaves no output folder behind
     output.parent.mkdir(parents=True, exist_ok=True)
     _check_folder_is_ours(settings.figures_dir)
     remove_stale_temps(output.parent)
-    cache = Cache(settings.cache_root)
-    cache.prepare()
     fingerprint = tool_fingerprint()
     setup = PageSetup(settings.paper, _font_family(settings.style), settings.source_paths)
 

@@ -29,7 +29,8 @@ class Source:
 
 
 class NoSources(Exception):
-    """The inputs name no mechanism file, or a path that does not exist."""
+    """The inputs name no mechanism file (a missing path raises MechanismError: AR100, as every
+    command reports it)."""
 
 
 def mech_files_below(folder: Path) -> list[Path]:
@@ -70,7 +71,8 @@ def find_sources(inputs: list[str]) -> list[Source]:
         elif path.is_file():
             pairs = [(path, text)]
         else:
-            raise NoSources(f"{text}: no such file or folder")
+            from ..diagnostics import MechanismError, cannot_read
+            raise MechanismError([cannot_read(text)])
         for file, name in pairs:
             key = file.resolve()
             if key not in seen:

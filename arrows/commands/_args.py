@@ -1,5 +1,5 @@
 """Option and argument types shared by the commands, so that a bad value gets the project's
-message form (`WHERE: error: MESSAGE` and a hint, exit status 2) rather than a traceback or a
+message form (`error: MESSAGE` and a hint, exit status 2) rather than a traceback or a
 bare usage line."""
 from __future__ import annotations
 
@@ -13,18 +13,18 @@ EXIT_USAGE = 2
 
 
 class Refused(click.ClickException):
-    """Bad usage, said as every other refusal is: located at the path when there is one, with a
-    hint; exit status 2. click shows it (and exits) both under `arrows` and under a test runner."""
+    """Bad usage, said as every other refusal is: `error: MESSAGE` and a hint, exit status 2. The
+    message names the path or option at fault; it has no line:col, since nothing was read at a
+    place in a file. click shows it (and exits) both under `arrows` and under a test runner."""
 
     exit_code = EXIT_USAGE
 
-    def __init__(self, where: Optional[str], message: str, hint: str):
+    def __init__(self, message: str, hint: str):
         super().__init__(message)
-        self.where, self.hint = where, hint
+        self.hint = hint
 
     def format_message(self) -> str:
-        head = f"{self.where}:1:1: error: " if self.where is not None else "error: "
-        return f"{head}{self.message}\n    hint: {self.hint}"
+        return f"error: {self.message}\n    hint: {self.hint}"
 
     def show(self, file=None) -> None:
         click.echo(self.format_message(), err=True)
@@ -49,15 +49,13 @@ class LocatedPath(click.Path):
             path = os.fsdecode(value) if isinstance(value, bytes) else str(value)
             if not self.dir_okay and os.path.isdir(path):
                 example = os.path.join(path, "NAME")
-                raise Refused(path, f"{name} {path} is a folder; it takes a file name",
+                raise Refused(f"{name} {path} is a folder; it takes a file name",
                               f"name a file inside the folder: {example}" if isinstance(param, click.Argument)
                               else f"name a file inside the folder: {name.split('/')[-1]} {example}") from None
             if not self.file_okay and os.path.exists(path) and not os.path.isdir(path):
-                raise Refused(path, f"{name} {path} is a file; it takes a folder",
+                raise Refused(f"{name} {path} is a file; it takes a folder",
                               "name a folder, or a new name for one") from None
-            if self.exists and not os.path.exists(path):
-                raise Refused(path, f"{name} {path} does not exist", "check the path") from None
-            raise Refused(path, f"{name} {path}: {exc.message}",
+            raise Refused(f"{name} {path}: {exc.message}",
                           "check the path, and that its folder exists and is writable") from None
 
 
@@ -87,9 +85,9 @@ def plain_text(ctx, param, value: Optional[str]) -> Optional[str]:
         return value
     name, ch, column = _shown_name(param), bad.group(), bad.start() + 1
     if "\udc80" <= ch <= "\udcff":
-        raise Refused(None, f"{name} holds the byte 0x{ord(ch) - 0xDC00:02X} (character {column}), which is not "
-                            "UTF-8 text", "set the terminal or script to UTF-8, or leave that character out")
-    raise Refused(None, f"{name} holds {character_name(ch)} (character {column}), which no figure or PDF can hold",
+        raise Refused(f"{name} holds the byte 0x{ord(ch) - 0xDC00:02X} (character {column}), which is not "
+                      "UTF-8 text", "set the terminal or script to UTF-8, or leave that character out")
+    raise Refused(f"{name} holds {character_name(ch)} (character {column}), which no figure or PDF can hold",
                   "delete that invisible character from the text")
 
 

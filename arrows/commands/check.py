@@ -86,21 +86,20 @@ def _check_jsonl(path: str, output: str | None, jobs: int | None, cluster: str |
     from ..atomic import atomic_file
     from ..batch.jsonl import check_stream, one_document
     from ..batch.parallel import ClusterPool, ClusterUnavailable, WorkerDied, WorkerPool, default_jobs
-    from ..diagnostics import Diagnostic
+    from ..diagnostics import Diagnostic, cannot_read
     from ..model import Location
 
     source = "<stdin>" if path == "-" else path
     try:
         stream = sys.stdin.buffer if path == "-" else open(path, "rb")
     except OSError as exc:
-        click.echo(Diagnostic("AR100", f"cannot read file: {exc.strerror or exc}", Location(path, 1, 1),
-                              hint="check the path and permissions").to_text(), err=True)
+        click.echo(cannot_read(path, exc).to_text(), err=True)
         return 2
     with stream:
         try:
             lines, records = one_document(stream)
         except OSError as exc:
-            click.echo(f"{source}:1:1: error: cannot read {source}: {exc.strerror or exc}", err=True)
+            click.echo(cannot_read(source, exc).to_text(), err=True)
             return 2
         if lines:
             click.echo(Diagnostic(
@@ -124,7 +123,7 @@ def _check_jsonl(path: str, output: str | None, jobs: int | None, cluster: str |
         except OSError as exc:   # the results file cannot be written (its folder is missing), or the input failed
             if output:
                 cannot_write(output, exc)
-            click.echo(f"{source}:1:1: error: cannot read {source}: {exc.strerror or exc}", err=True)
+            click.echo(cannot_read(source, exc).to_text(), err=True)
             return 2
     if not quiet:
         click.echo(f"{tally.records} record{'s' if tally.records != 1 else ''} checked ({tally.steps} step{'s' if tally.steps != 1 else ''}): "

@@ -14,11 +14,12 @@ import click
 from rdkit import Chem
 
 from ._args import LocatedPath
+from ..diagnostics import cannot_read
 from ..electrons import atom_label
 from ..judgement.closures import Closure, candidate_closures, with_atom_maps
 from ..judgement.skeleton import product_fragment, skeleton
 from ..rdkit_io import read_smiles, reading_hint, unreadable
-from .output import emit, refuse_unsafe_outputs
+from .output import emit, refuse, refuse_unsafe_outputs
 
 DRAWING_SUFFIXES = (".svg", ".png")
 # Names that no SMILES can be: an argument ending so is a file, even when it is missing.
@@ -37,6 +38,11 @@ class _BadInput(Exception):
     def __init__(self, where: str, message: str, hint: str):
         super().__init__(message)
         self.where, self.message, self.hint = where, message, hint
+
+    @classmethod
+    def of(cls, diagnostic) -> "_BadInput":
+        """A diagnostic, worded as `arrows check` words it."""
+        return cls(str(diagnostic.loc), f"{diagnostic.code} {diagnostic.message}", diagnostic.hint or "see `arrows check`")
 
 
 def _from_smiles(smiles: str, where: str, line: int = 1, column: int = 1) -> Chem.Mol:
@@ -81,7 +87,7 @@ def _load(argument: str, species_name: Optional[str]) -> _Species:
     if named == "folder":
         raise _BadInput(f"{argument}:1:1", "AR100 a folder, not a species", "give a SMILES, a .mech, .mol or .smi file")
     if not is_file and path.suffix.lower() in FILE_SUFFIXES:
-        raise _BadInput(f"{argument}:1:1", "AR100 the file does not exist", "check the path")
+        raise _BadInput.of(cannot_read(argument))
     if species_name is not None and path.suffix.lower() != ".mech":
         where = f"{argument}:1:1" if is_file else "<SMILES>:1:1"
         raise _BadInput(where, f"--species {species_name} chooses among the species of a .mech file; "
@@ -94,8 +100,7 @@ def _load(argument: str, species_name: Optional[str]) -> _Species:
         try:
             mechanism = load(path)
         except MechanismError as exc:
-            first = exc.diagnostics[0]
-            raise _BadInput(str(first.loc), f"{first.code} {first.message}", first.hint or "see `arrows check`")
+            raise _BadInput.of(exc.diagnostics[0])
         chosen = [s for s in mechanism.species if species_name in (None, s.name)]
         if not chosen:
             names = ", ".join(s.name for s in mechanism.species) or "none"
@@ -111,7 +116,9 @@ def _load(argument: str, species_name: Optional[str]) -> _Species:
         return _Species(with_atom_maps(mol), path.stem.replace("-", "_") or "substrate", f"{argument}:1:1")
     try:
         text = path.read_text(encoding="utf-8")
-    except (OSError, UnicodeDecodeError) as exc:
+    except OSError as exc:
+        raise _BadInput.of(cannot_read(argument, exc))
+    except UnicodeDecodeError as exc:
         raise _BadInput(f"{argument}:1:1", f"AR100 cannot read the file: {exc}", "give a UTF-8 text file")
     lines = [(number, line) for number, line in enumerate(text.splitlines(), 1)
              if line.strip() and not line.lstrip().startswith("#")]
@@ -199,10 +206,11 @@ def closures_command(species, species_name, fmt, max_ring, condense, draw_path, 
     refuse_unsafe_outputs({"--write": write_path}, inputs, writes_mechanism=True)
     if write_path and Path(write_path).exists():
         # A draft never replaces a file, as `arrows new` never does: it may be the author's work.
-        _fail(f"{write_path}:1:1", f"{write_path} already exists; nothing written",
-              "choose another name for the draft, or delete the file first")
+        refuse(f"--write {write_path} already exists; nothing written",
+               "choose another name for the draft, or delete the file first")
     if draw_path and Path(draw_path).suffix.lower() not in DRAWING_SUFFIXES:
-        _fail(f"{draw_path}:1:1", "the drawing is written as .svg or .png", f"for example --draw {Path(draw_path).stem}.svg")
+        refuse(f"--draw {draw_path} does not end in .svg or .png: the drawing is written as one of those",
+               f"for example --draw {Path(draw_path).with_suffix('.svg')}")
     try:
         sp = _load(species, species_name)
     except _BadInput as exc:

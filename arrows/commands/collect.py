@@ -1,6 +1,7 @@
 """`arrows collect DIR-or-FILES -o OUT.pdf`: a supporting-information document in one command."""
 from __future__ import annotations
 
+import os
 import re
 import sys
 from pathlib import Path
@@ -47,7 +48,8 @@ def _label_prefix(ctx, param, value: str) -> str:
 @click.option("-j", "--jobs", type=click.IntRange(min=1), default=None,
               help="Worker processes [default: the machine's cores].")
 @click.option("--cache", "cache_dir", type=LocatedPath(file_okay=False),
-              help="Cache folder [default: .arrows-cache beside the output].")
+              help="Cache folder [default: arrows/collect in $XDG_CACHE_HOME, else in ~/.cache; never "
+                   "beside the output].")
 @click.option("--report", type=LocatedPath(dir_okay=False), help="Also write a JSON report of every scheme.")
 @click.option("--junit", type=LocatedPath(dir_okay=False), help="Also write a JUnit XML file (one test per scheme).")
 @click.option("--keep-going/--fail-fast", default=True, show_default=True,
@@ -70,25 +72,32 @@ def collect_command(inputs, output, style, paper, flow, prefix, title, authors, 
     from ..batch.parallel import Terminated, WorkerDied, default_jobs, terminate_as_interrupt
     from ..batch.reports import write_junit, write_report
     from ..batch.sources import NoSources, find_sources
+    from ..diagnostics import MechanismError
 
     try:
         sources = find_sources(list(inputs))
     except NoSources as exc:
         raise click.UsageError(str(exc))
+    except MechanismError as exc:   # a path that does not exist: worded as every command words it
+        for d in exc.diagnostics:
+            click.echo(d.to_text(), err=True)
+        sys.exit(2)
     _refuse_unwritable_names(sources)
     refuse_unsafe_outputs({"-o": output, "--report": report, "--junit": junit}, [s.path for s in sources],
                           stdout=False, inside=Path(output).with_name(Path(output).stem + FOLDER_SUFFIX),
                           makes_its_folder=("-o",))
     if Path(output).suffix.lower() != ".pdf":
-        refuse(output, f"-o {output} does not end in .pdf: collect writes one PDF document (the figures' SVG "
-                       "and PDF files go in the folder beside it)",
+        refuse(f"-o {output} does not end in .pdf: collect writes one PDF document (the figures' SVG "
+               "and PDF files go in the folder beside it)",
                f"end the name with .pdf: -o {Path(output).with_suffix('.pdf')}")
+    if cache_dir is None:
+        cache_dir = _default_cache()
     n = len(sources)
     front = Front(title, authors, date_text,
                   f"{n} scheme{'s' if n != 1 else ''}, checked and drawn with arrows {__version__} "
                   f"(style {style})")
     settings = CollectSettings(Path(output), style, front, paper, flow, prefix, jobs or default_jobs(),
-                               Path(cache_dir) if cache_dir else None, fail_fast=not keep_going,
+                               Path(cache_dir), fail_fast=not keep_going,
                                source_paths=not no_source_paths, png_dpi=png_dpi)
     _refuse_inputs_in(settings.figures_dir, sources)
     untouched = (f"{output} is as it was" if Path(output).exists()   # (what a stopped run says of it)
@@ -99,6 +108,9 @@ def collect_command(inputs, output, style, paper, flow, prefix, title, authors, 
             result = collect(sources, settings, progress)
     except OSError as exc:   # the cache, the figures folder or the document (a read-only folder)
         progress.close()
+        if _on_the_way_to(settings.cache_root, exc):
+            refuse(f"cannot write the cache {settings.cache_root}: {exc.strerror or exc}",
+                   "name a folder that can be written: --cache DIR")
         cannot_write(output, exc)
     except OutputInUse as exc:
         raise click.UsageError(str(exc))
@@ -150,6 +162,24 @@ def collect_command(inputs, output, style, paper, flow, prefix, title, authors, 
     sys.exit(1 if failed else 0)
 
 
+def _on_the_way_to(folder: Path, exc: OSError) -> bool:
+    """The file that failed is `folder`, inside it, or a folder on the way to it."""
+    if not exc.filename:
+        return False
+    failed, folder = Path(os.fsdecode(exc.filename)).absolute(), folder.absolute()
+    return failed == folder or folder in failed.parents or failed in folder.parents
+
+
+def _default_cache() -> Path:
+    from ..batch.collection import DEFAULT_CACHE
+    from ..user_cache import user_cache_folder
+    try:
+        return user_cache_folder() / DEFAULT_CACHE
+    except RuntimeError:   # no home folder to be found (HOME unset, no user entry)
+        refuse("no cache folder: there is no home folder, and XDG_CACHE_HOME is not set",
+               "name a cache folder: --cache DIR")
+
+
 def _refuse_unwritable_names(sources) -> None:
     """A source's name heads its scheme and keys its cache entry: it must be text a PDF can hold
     (a byte of a file name that is not UTF-8 comes through as a lone surrogate)."""
@@ -158,7 +188,8 @@ def _refuse_unwritable_names(sources) -> None:
         bad = first_unwritable(source.name)
         if bad is not None:
             _, what = bad
-            refuse(source.name.encode("utf-8", "backslashreplace").decode(), f"the file name holds {what}",
+            shown = source.name.encode("utf-8", "backslashreplace").decode()
+            refuse(f"the file name {shown} holds {what}",
                    "rename the file with plain UTF-8 characters")
 
 
@@ -166,7 +197,7 @@ def _refuse_inputs_in(figures_dir: Path, sources) -> None:
     """Every run replaces the figures folder whole: a mechanism kept inside it would be lost."""
     inside = [s for s in sources if figures_dir.resolve() in s.path.resolve().parents]
     if inside:
-        refuse(inside[0].name, f"{inside[0].name} is inside {figures_dir}, which every run replaces whole",
+        refuse(f"{inside[0].name} is inside {figures_dir}, which every run replaces whole",
                "move the mechanism out of that folder, or give -o another name")
 
 

@@ -25,8 +25,8 @@ def _format_of(output: Path, fmt: str | None) -> str:
     if fmt and suffix and suffix != fmt:
         # (x.jpeg --format png wrote PNG bytes under a JPEG's name, which viewers refuse or misread)
         leave = ", or leave --format out" if suffix in FORMATS else ""
-        refuse(output, f"-o {output} ends in .{suffix} but --format says {fmt}: the file would hold "
-                       f"{fmt.upper()} under another format's name",
+        refuse(f"-o {output} ends in .{suffix} but --format says {fmt}: the file would hold "
+               f"{fmt.upper()} under another format's name",
                f"name it {output.with_suffix('.' + fmt)}{leave}")
     if fmt:
         return fmt
@@ -98,7 +98,8 @@ def draw_command(file, output, fmt, style, color, numbers, cip, step_labels, no_
         scene = build_scene(trace, chosen, diags)
         too_large = png_size_problem(scene.width, scene.height, dpi) if fmt == "png" else None
         if too_large:   # found before drawing: a 576-million-pixel PNG drew for 72 s, then failed
-            refuse(file if to_stdout else output, *too_large)
+            message, hint = too_large
+            refuse(f"cannot write {'standard output' if to_stdout else output}: {message}", hint)
         data = convert(scene_to_svg(scene), fmt, dpi)
         if to_stdout:
             sys.stdout.buffer.write(data)   # whole, once drawn: nothing half-written reaches the pipe
@@ -148,7 +149,7 @@ def _watch(file, output: Path, fmt: str, chosen, force: bool, dpi: int) -> None:
         except OSError as exc:
             cannot_write(output, exc)
         except ImageTooLarge as exc:
-            refuse(output, exc.message, exc.hint)
+            refuse(f"cannot write {output}: {exc.message}", exc.hint)
 
     click.echo(f"watching {file}", err=True)
     rerun_on_save(file, redraw, report)

@@ -23,7 +23,10 @@ def import_command(file, output):
     Only the mechanism as written is used: derived states and diagnostics in the file are checked
     against the schema and then set aside, because `arrows check` derives them again. FILE is one
     document, as `arrows export FILE --to json` writes it; JSON Lines (several FILEs exported
-    together) is refused. Exit status: 0 written, 2 unreadable input.
+    together) is refused. A mechanism that `arrows check` could not read back (a SMILES RDKit
+    cannot read, a move naming no atom: the AR1xx errors) is refused, located in FILE, and
+    nothing is written; its chemistry is left to `arrows check`. Exit status: 0 written, 2
+    unreadable input.
     """
     refuse_unsafe_outputs({"-o": output}, [file], writes_mechanism=True)
     try:
@@ -32,6 +35,13 @@ def import_command(file, output):
         for d in exc.diagnostics:
             click.echo(d.to_text(), err=True)
         sys.exit(2)
+    unreadable = _reading_errors(mechanism)
+    if unreadable:
+        for d in unreadable:
+            click.echo(d.to_text(), err=True)
+        click.echo(f"{file}: not imported: {len(unreadable)} error{'s' if len(unreadable) != 1 else ''}; "
+                   "nothing written", err=True)
+        sys.exit(2)
     text = to_text(mechanism)
     if len(text.encode("utf-8")) > MAX_FILE_BYTES:
         click.echo(f"{file}:1:1: error AR100 the mechanism text would be {len(text.encode('utf-8')):,} bytes, over the "
@@ -39,3 +49,12 @@ def import_command(file, output):
                    "    hint: split the mechanism into several files", err=True)
         sys.exit(2)
     emit(text, output)
+
+
+def _reading_errors(mechanism) -> list:
+    """The errors of the family "reading the file" (AR1xx) that `arrows check` would give the
+    written text: what makes the .mech file one that cannot be read back."""
+    from ..api import check
+    from ..diagnostics import ERROR
+    _, diagnostics = check(mechanism)
+    return [d for d in diagnostics if d.severity == ERROR and d.code.startswith("AR1")]

@@ -10,7 +10,7 @@ import click
 
 from ..numbering import numbered, numbered_smiles
 from ..rdkit_io import reading_hint, unreadable
-from .output import cannot_write
+from .output import cannot_write, refuse
 
 STARTER_SMILES = "CC(C)=O"   # acetone: a demo species to replace with your own
 
@@ -54,25 +54,19 @@ def new_command(name, species_smiles, smiles):
     """
     path = Path(name if name.endswith(".mech") else name + ".mech")
     if species_smiles is not None and smiles is not None and species_smiles != smiles:
-        click.echo(f"<SMILES>:1:1: error: two starting species given: {species_smiles} and --smiles {smiles}\n"
-                   "    hint: give the SMILES once, after NAME or with --smiles", err=True)
-        sys.exit(2)
+        refuse(f"two starting species given: {species_smiles} and --smiles {smiles}",
+               "give the SMILES once, after NAME or with --smiles")
     smiles = species_smiles or smiles or STARTER_SMILES
     if not name.strip() or name.strip() == ".mech":
-        click.echo(f"{name or '<NAME>'}:1:1: error: an empty name would make a hidden file `.mech`\n"
-                   "    hint: give the mechanism a name: arrows new aldol", err=True)
-        sys.exit(2)
+        refuse("an empty name would make a hidden file `.mech`", "give the mechanism a name: arrows new aldol")
     from ..language import first_unwritable
     bad = first_unwritable(path.stem)
     if bad is not None:   # the name is the file's title too: it must be text a figure can hold
         column, what = bad
-        click.echo(f"<NAME>:1:{column}: error: the name holds {what}; nothing written\n"
-                   "    hint: choose a plain file name, typed in UTF-8", err=True)
-        sys.exit(2)
+        refuse(f"the name holds {what} (character {column}); nothing written",
+               "choose a plain file name, typed in UTF-8")
     if '"' in path.stem or "\n" in path.stem:
-        click.echo(f"{path}:1:1: error: a name cannot hold a double quote or a line break\n"
-                   "    hint: choose a plain file name", err=True)
-        sys.exit(2)
+        refuse("a name cannot hold a double quote or a line break", "choose a plain file name")
     try:
         species = numbered_smiles(numbered(smiles))
     except ValueError as exc:
@@ -84,9 +78,7 @@ def new_command(name, species_smiles, smiles):
     try:
         _create_new(path, STARTER.format(name=path.stem, file=path.name, smiles=species))
     except FileExistsError:
-        click.echo(f"{path}:1:1: error: {path} already exists; nothing written\n"
-                   f"    hint: choose another name, or edit {path} itself", err=True)
-        sys.exit(2)
+        refuse(f"{path} already exists; nothing written", f"choose another name, or edit {path} itself")
     except OSError as exc:
         cannot_write(path, exc)
     click.echo(f"wrote {path}", err=True)

@@ -10,7 +10,7 @@ import click
 from ._args import LocatedPath
 from ..numbering import numbered, numbered_smiles
 from ..rdkit_io import reading_hint, unreadable
-from .output import emit
+from .output import emit, refuse
 
 FIGURE_SUFFIXES = (".svg", ".png")
 
@@ -30,9 +30,8 @@ def number_command(smiles, first, output):
     bonds a move can name are visible. Exit status: 0 done, 2 unreadable SMILES or bad usage.
     """
     if output and Path(output).suffix.lower() not in FIGURE_SUFFIXES:
-        click.echo(f"{output}:1:1: error: the drawing is written as .svg or .png\n"
-                   f"    hint: for example -o {Path(output).stem}.svg", err=True)
-        sys.exit(2)
+        refuse(f"-o {output} does not end in .svg or .png: the drawing is written as one of those",
+               f"for example -o {Path(output).with_suffix('.svg')}")
     try:
         mol = numbered(smiles, first)
     except ValueError as exc:

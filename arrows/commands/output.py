@@ -1,5 +1,5 @@
 """Where a command's result goes: standard output, or a file written atomically (a failed write
-is a located message and exit status 2, never a traceback)."""
+is a message naming the file, a hint and exit status 2, never a traceback)."""
 from __future__ import annotations
 
 import os
@@ -27,18 +27,20 @@ def cannot_write(path, exc: OSError) -> NoReturn:
     status 2. A file or folder made on the way that failed (a cache) is named too; a temporary
     file (arrows.atomic) is not."""
     from ..atomic import TEMP_MARK
-    detail = _folder_problem(Path(path))
-    if detail is None:
-        detail = exc.strerror or str(exc)
-        if exc.filename and Path(exc.filename) != Path(path) and TEMP_MARK not in Path(exc.filename).name:
-            detail += f" ({exc.filename})"
-    refuse(path, f"cannot write {path}: {detail}", "check that the folder exists and is writable")
+    problem = _folder_problem(Path(path))
+    if problem is not None:
+        _refuse_folder(path, problem)
+    detail = exc.strerror or str(exc)
+    if exc.filename and Path(exc.filename) != Path(path) and TEMP_MARK not in Path(exc.filename).name:
+        detail += f" ({exc.filename})"
+    refuse(f"cannot write {path}: {detail}", "check that the folder exists and is writable")
 
 
-def refuse(path, message: str, hint: str) -> NoReturn:
-    """A bad output, located at its path, with a hint; exit status 2 (bad usage)."""
-    click.echo(f"{path}:1:1: error: {message}\n    hint: {hint}", err=True)
-    sys.exit(2)
+def refuse(message: str, hint: str) -> NoReturn:
+    """A bad output (the message names it), with a hint; exit status 2 (bad usage)."""
+    from ._args import EXIT_USAGE, Refused
+    click.echo(Refused(message, hint).format_message(), err=True)
+    sys.exit(EXIT_USAGE)
 
 
 def refuse_unsafe_outputs(outputs: dict[str, Optional[str]], inputs: Iterable[Union[str, Path]],
@@ -68,41 +70,41 @@ def refuse_unsafe_outputs(outputs: dict[str, Optional[str]], inputs: Iterable[Un
         if output == "-":
             if stdout:
                 continue
-            refuse(output, f"{option} - names standard output, which cannot hold this file",
+            refuse(f"{option} - names standard output, which cannot hold this file",
                    f"name a file: {option} out/{option.strip('-') or 'output'}")
         if not output.strip():
             raise click.BadParameter("an empty name: give a file name", param_hint=option)
         source = inputs_by_file.get(_file_identity(output))
         if source is not None:
             shown = "read from standard input" if str(source) == "-" else str(source)
-            refuse(output, f"{option} {output} is the input {shown}: writing it would replace that input",
+            refuse(f"{option} {output} is the input {shown}: writing it would replace that input",
                    f"give {option} another file name")
         if output.endswith(("/", os.sep)):
-            refuse(output, f"{option} {output} names a folder; it takes a file name",
+            refuse(f"{option} {output} names a folder; it takes a file name",
                    f"name the file inside the folder: {option} {output}NAME")
         name = Path(output).name
         if name.startswith(".") and "." not in name[1:]:
-            refuse(output, f"{option} {output} has nothing before its extension: it would be a hidden file",
+            refuse(f"{option} {output} has nothing before its extension: it would be a hidden file",
                    f"give it a name: {option} {Path(output).with_name('out' + name)}")
         if Path(output).suffix.lower() == ".mech" and not writes_mechanism:
-            refuse(output, f"{option} {output} ends in .mech, the name of a mechanism file",
+            refuse(f"{option} {output} ends in .mech, the name of a mechanism file",
                    "name the output for what it holds: figure.svg, si.pdf, report.json")
         where = Path(os.path.abspath(output))
         if where in given:
-            refuse(output, f"{option} {output} is also given to {given[where]}: one would replace the other",
+            refuse(f"{option} {output} is also given to {given[where]}: one would replace the other",
                    f"give {option} a file name of its own")
         given[where] = option
         if inside is not None and Path(os.path.abspath(inside)) in where.parents:
-            refuse(output, f"{option} {output} is inside {inside}, which every run replaces whole",
+            refuse(f"{option} {output} is inside {inside}, which every run replaces whole",
                    f"write {option} beside that folder")
         folder = (_folder_problem(Path(output)) if option not in makes_its_folder
                   and Path(os.path.abspath(output)).parent not in made else None)
         if folder is not None:
-            refuse(output, f"cannot write {output}: {folder}", "check that the folder exists and is writable")
+            _refuse_folder(output, folder)
     for option, output in outputs.items():
         problem = _cannot_create(output) if output not in (None, "-") else None
         if problem is not None:   # (--junit /proc/j.xml was refused only after the document was written)
-            refuse(output, f"cannot write {output}: {problem}", "check that the folder exists and is writable")
+            refuse(f"cannot write {output}: {problem}", "check that the folder exists and is writable")
 
 
 def _cannot_create(output: str) -> Optional[str]:
@@ -136,14 +138,21 @@ def _file_identity(path) -> Optional[tuple[int, int]]:
     return found.st_dev, found.st_ino
 
 
-def _folder_problem(path: Path) -> Optional[str]:
-    """What is wrong with the folders on the way to `path`, in words: the first that is a file or
-    does not exist; None when they are all there (the fault is elsewhere: permissions, space)."""
+def _folder_problem(path: Path) -> Optional[Path]:
+    """The first folder on the way to `path` that is a file or does not exist; None when they are
+    all there (the fault is elsewhere: permissions, space)."""
     for folder in reversed(path.parents):
         if str(folder) in ("", "."):
             continue
-        if not folder.exists():
-            return f"the folder {folder} does not exist"
         if not folder.is_dir():
-            return f"{folder} is a file, not a folder"
+            return folder
     return None
+
+
+def _refuse_folder(output, folder: Path) -> NoReturn:
+    """`output` cannot be written because `folder`, on its way, is missing or is a file."""
+    if folder.exists():
+        refuse(f"cannot write {output}: {folder} is a file, not a folder",
+               f"name a file in a folder that exists, or move {folder} away")
+    refuse(f"cannot write {output}: the folder {folder} does not exist",
+           "make that folder first, or name a file in a folder that exists")
