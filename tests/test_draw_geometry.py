@@ -497,6 +497,28 @@ def test_a_carbon_between_two_double_bonds_drawn_straight_is_written_out(text, n
                 assert drawn[atom.GetIdx()].box is not None, (panel.index, atom.GetIdx())
 
 
+@pytest.mark.parametrize("name", ["eschweiler-clarke", "prins", "diazomethane esterification", "cyanohydrin"])
+def test_the_one_carbon_of_formaldehyde_is_written_out(name):
+    """A molecule whose one carbon has no heavy partner but the heteroatom it is multiply bonded to
+    (formaldehyde, diazomethane, HCN) has that carbon written as a letter, H2C=O: drawn as a bare
+    vertex it is a double line hanging off an O with nothing at its other end (common practice in
+    skeletal formulas; IUPAC 2008 graphical representation recommendations, from memory). Each
+    mechanism here has such a molecule in its first panel; formaldehyde was drawn as a bare "O="."""
+    trace, _, scene = _scene(TEXTBOOK[name][0], name)
+    mol = trace.initial.mol
+    carbons = []
+    for atom in mol.GetAtoms():
+        heavy = [b for b in atom.GetBonds() if b.GetOtherAtom(atom).GetAtomicNum() > 1]
+        fragment = Chem.GetMolFrags(mol)[[atom.GetIdx() in f for f in Chem.GetMolFrags(mol)].index(True)]
+        if atom.GetSymbol() == "C" and len(heavy) == 1 and heavy[0].GetBondTypeAsDouble() >= 2 \
+                and heavy[0].GetOtherAtom(atom).GetSymbol() != "C" \
+                and sum(mol.GetAtomWithIdx(k).GetSymbol() == "C" for k in fragment) == 1:
+            carbons.append(atom.GetIdx())
+    assert carbons, name
+    drawn = {a.index: a for a in scene.panels[0].atoms}
+    assert all(drawn[c].box is not None for c in carbons), (name, carbons)
+
+
 @pytest.mark.parametrize("text,name", _mechanisms() + [pytest.param(
     'species aibn = "N#C[C:4](C)(C)[N:1]=[N:2][C:3](C)(C)C#N"\nstep "homolysis"\n    C3-N2 ~> C3\n'
     '    C3-N2 ~> N1#N2\n    C4-N1 ~> C4\n    C4-N1 ~> N1#N2\n    releases N1\nend\n', "azo homolysis",

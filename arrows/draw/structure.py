@@ -245,9 +245,15 @@ _STRAIGHT = math.cos(math.radians(165))   # two bonds this near opposite run on 
 def carbons_to_letter(bonds: list[tuple[int, int, int]], positions: dict[int, complex], element: list[int]) -> set[int]:
     """Skeletal carbons that must be written as a letter because a bare vertex would not be seen:
     the middle carbon of cumulated double bonds drawn straight (O=C=O, C=C=C, N=C=O), where the two
-    double lines run on as one (common practice in skeletal formulas)."""
+    double lines run on as one, and the one carbon of a molecule whose only bond to another heavy
+    atom is a multiple bond to a heteroatom (formaldehyde as H2C=O, not a bare "O=" stub; common
+    practice in skeletal formulas)."""
     multiple: dict[int, list[tuple[int, int]]] = {}   # carbon -> its (partner, order) of order two or more
+    heavy: dict[int, list[int]] = {}                  # atom -> its heavy partners
     for i, j, order in bonds:
+        if element[i] != 1 and element[j] != 1:
+            heavy.setdefault(i, []).append(j)
+            heavy.setdefault(j, []).append(i)
         if order >= 2:
             for a, b in ((i, j), (j, i)):
                 if element[a] == 6:
@@ -259,7 +265,23 @@ def carbons_to_letter(bonds: list[tuple[int, int, int]], positions: dict[int, co
             a, b = (positions[j] - positions[i] for j, _ in partners)
             if (a.real * b.real + a.imag * b.imag) / (abs(a) * abs(b)) < _STRAIGHT:
                 letters.add(i)
+        elif len(heavy.get(i, ())) == 1 and len(partners) == 1 and element[partners[0][0]] != 6 \
+                and _no_other_carbon(i, heavy, element):
+            letters.add(i)
     return letters
+
+
+def _no_other_carbon(carbon: int, heavy: dict[int, list[int]], element: list[int]) -> bool:
+    """Whether the molecule of `carbon` (through the bonds in `heavy`) holds no other carbon."""
+    seen, todo = {carbon}, [carbon]
+    while todo:
+        for n in heavy.get(todo.pop(), ()):
+            if n not in seen:
+                if element[n] == 6:
+                    return False
+                seen.add(n)
+                todo.append(n)
+    return True
 
 
 def minus_along_stroke(x0: float, width: float, y: float, strokes: list[tuple[complex, complex]], bl: float) -> bool:
