@@ -2345,6 +2345,42 @@ def test_atoms_on_bonds_crossed_bonds_and_labels_run_together_are_noted():
     assert _crowded_atoms(_one_panel_scene({1: (0, 0, "O"), 2: (0, 6.5 / 13, "O")}, [])) == ()
 
 
+def test_an_arrow_across_a_bond_is_noted():
+    """A curved arrow left across a bond not its own (the planner found no clear side: common
+    practice runs it round the structure) gives a note naming the panel, the move and the bond,
+    which `arrows draw` prints; a scheme whose arrows cross none gives none. The nitration's
+    arenium C-H, its H beside the new nitro group, has its arrow cross the ring bond C6-C1 (the
+    geometry tests' measure, _bonds_crossed); so did six figures of annulation chemistry, with no
+    note."""
+    from dataclasses import replace
+    from arrows.draw.scene import BondDrawing
+    from arrows.draw.scheme import _arrows_across_bonds
+    _, _, scene = _scene(TEXTBOOK["nitration"][0], "nitration")
+    assert [(panel, move) for panel, move, _ in _bonds_crossed(scene)] == [(1, "C1-H -> C1=C2")]
+    noted = [n for n in scene.notes if "crosses the bond" in n]
+    assert noted == ["panel 2: the arrow C1-H -> C1=C2 crosses the bond C6-C1: the arrow planner found no clear "
+                     "side for it; check the figure"], noted
+    _, _, clear = _scene(TEXTBOOK["appel"][0], "appel")
+    assert _bonds_crossed(clear) == [] and _arrows_across_bonds(clear) == ()
+    # a bond laid across the middle of the appel's first arrow, between two atoms it does not name
+    panel = clear.panels[0]
+    arrow = panel.arrows[0]
+    before, middle, after = (complex(*p) for p in arrow.shaft_points(20)[9:12])
+    middle += 0.3 * (after - middle)   # (between the samples the path is tested at)
+    normal = (after - before) / abs(after - before) * 1j * 0.5 * clear.bond_length
+    others = [a for a in panel.atoms if a.index not in arrow.source_atoms + arrow.sink_atoms][:2]
+    moved = {others[0].index: ((middle - normal).real, (middle - normal).imag),
+             others[1].index: ((middle + normal).real, (middle + normal).imag)}
+    atoms = tuple(replace(a, position=moved[a.index], box=None) if a.index in moved else a for a in panel.atoms)
+    across = BondDrawing((others[0].index, others[1].index), 1, (tuple(moved.values()),))
+    # (as the planner would have counted it: only the arrows its samples saw crossing are measured)
+    counted = (replace(arrow, crossings=1),) + panel.arrows[1:]
+    crossed = replace(clear, panels=(replace(panel, atoms=atoms, bonds=panel.bonds + (across,), arrows=counted),)
+                      + clear.panels[1:])
+    (note,) = _arrows_across_bonds(crossed)
+    assert note.startswith(f"panel 1: the arrow {arrow.move} crosses the bond {others[0].name}-{others[1].name}: ")
+
+
 @pytest.mark.parametrize("text,name", _mechanisms())
 def test_panels_need_no_crowding_note(text, name):
     """Guard: no panel of the gallery, the drawn textbook schemes or the demo mechanisms has

@@ -1013,7 +1013,8 @@ class ArrowPlanner:
             source_point=(src.point.real, src.point.imag), sink_point=(snk.point.real, snk.point.imag),
             sink_box=panel.atoms[snk.atoms[0]].box if snk.kind == "atom" else None,
             start=(s0.real, s0.imag), control1=(s1.real, s1.imag), control2=(s2.real, s2.imag),
-            end=(s3.real, s3.imag), tip=(tip.real, tip.imag), head=tuple([(z.real, z.imag) for z in outline]))
+            end=(s3.real, s3.imag), tip=(tip.real, tip.imag), head=tuple([(z.real, z.imag) for z in outline]),
+            crossings=c.crossings)
 
 
 _TAIL_REACH = 1.0   # bond lengths: another arrow leaving a bond this close steers the dots away

@@ -171,6 +171,7 @@ class CurvedArrow:
     tip: Point
     head: tuple[Point, ...]
     colour: str = "#000000"
+    crossings: int = 0   # bonds not its own that the planner's samples of the chosen path cross
 
     def shaft_points(self, n: int = 40) -> list[Point]:
         (x0, y0), (x1, y1), (x2, y2), (x3, y3) = self.start, self.control1, self.control2, self.end

@@ -9,7 +9,7 @@ from collections import Counter
 from dataclasses import dataclass, field, replace
 from functools import lru_cache
 from itertools import combinations, takewhile
-from typing import Optional, Sequence
+from typing import Iterator, Optional, Sequence
 
 import numpy as np
 from rdkit import Chem
@@ -23,7 +23,7 @@ from .branches import may_stand_closer
 from .curves import ArrowPlanner, to_own_atom
 from .layout import Layout, compute_layout
 from .plane import distance_to_segment, segments_cross
-from .scene import Box, CurvedArrow, Mark, Panel, ReactionArrow, Scene, TextRun
+from .scene import BondDrawing, Box, CurvedArrow, Mark, Panel, ReactionArrow, Scene, TextRun
 from .formula import MINUS, Piece, condition_pieces, formula_pieces, inorganic_order
 from .structure import PanelStructure, StructureDrawer, segment_hits_box
 from .styles import ERROR_COLOUR, SMALLEST_TEXT_PT, STYLES, Style
@@ -172,7 +172,7 @@ def build_scene(trace: Trace, style: Style, diagnostics: Sequence[Diagnostic] = 
     builder = _SceneBuilder(trace, style, diagnostics)
     scene, fit = builder.build()
     uneven = (_uneven_bonds(scene) + _crowded_atoms(scene) + _signs_on_bonds(scene) + _cramped_hooks(scene)
-              + _heavy_lines(style)
+              + _arrows_across_bonds(scene) + _heavy_lines(style)
               + _glyphs_wanting(trace, style) + _font_missing(style))
     if fit < 0.999:
         if style.page_height is None:
@@ -491,6 +491,47 @@ def _cramped_hooks(scene: Scene) -> tuple[str, ...]:
                              f"too short to read as a half-loop: the structure leaves it no room; check the figure")
                 break
     return tuple(notes)
+
+
+def _arrows_across_bonds(scene: Scene) -> tuple[str, ...]:
+    """A note for each panel where a curved arrow crosses a bond that is not its own (one whose
+    two atoms its move does not both name): the arrow planner tries each arrow on both sides, and
+    an arrow to a proton also round the structure, so one left across a bond found no clear side
+    (common practice: a curved arrow runs round the structure, not across it), so that the author
+    looks before using the figure."""
+    notes = []
+    for panel in scene.panels:
+        # (only where the planner's samples crossed one: the exact path then names the bond)
+        crossing = [arrow for arrow in panel.arrows if arrow.crossings]
+        if not crossing:
+            continue
+        names = {a.index: a.name for a in panel.atoms}
+        crossed = next(((arrow, bond) for arrow in crossing for bond in _bonds_across(arrow, panel.bonds)), None)
+        if crossed is not None:
+            arrow, (i, j) = crossed[0], crossed[1].atoms
+            notes.append(f"panel {panel.index + 1}: the arrow {arrow.move} crosses the bond {names.get(i, i)}-"
+                         f"{names.get(j, j)}: the arrow planner found no clear side for it; check the figure")
+    return tuple(notes)
+
+
+def _bonds_across(arrow: CurvedArrow, bonds: Sequence[BondDrawing]) -> Iterator[BondDrawing]:
+    """The bonds not the arrow's own whose lines its path (shaft and head) crosses."""
+    own = set(arrow.source_atoms) | set(arrow.sink_atoms)
+    path = [complex(*p) for p in arrow.path_points(16)]   # (as finely as the planner samples its curves)
+    chords = list(zip(path, path[1:]))
+    xs, ys = [p.real for p in path], [p.imag for p in path]
+    x0, x1, y0, y1 = min(xs), max(xs), min(ys), max(ys)
+    for bond in bonds:
+        if set(bond.atoms) <= own:
+            continue
+        for (ax, ay), (bx, by) in bond.lines:
+            # (most bonds lie off the box round the arrow altogether)
+            if max(ax, bx) < x0 or min(ax, bx) > x1 or max(ay, by) < y0 or min(ay, by) > y1:
+                continue
+            a, b = complex(ax, ay), complex(bx, by)
+            if any(segments_cross(p, q, a, b) for p, q in chords):
+                yield bond
+                break
 
 
 def _lines_at(panel: Panel) -> dict[int, list[tuple[complex, complex, tuple[int, int]]]]:
