@@ -312,7 +312,8 @@ def test_results_to_a_missing_folder_are_a_located_message(tmp_path):
     assert done.returncode == 2 and "cannot write" in done.stderr and "Traceback" not in done.stderr
 
 
-@pytest.mark.parametrize("move", ["releases O1", "", "# a comment", "end", "O1"])
+@pytest.mark.parametrize("move", ["releases O1", "", "# a comment", "end", "O1", "O1-H -> O1 releases O1",
+                                  "O1-H -> O1\freleases O1", "O1-H -> O1 # a comment"])
 def test_a_move_that_is_no_move_is_rejected_where_it_stands(move):
     """Each string of `moves` becomes a line of the mechanism: "releases O1" ran as a release with
     ok true, "" and a comment passed, and "end" was reported at a later move."""
@@ -321,6 +322,17 @@ def test_a_move_that_is_no_move_is_rejected_where_it_stands(move):
     result = check_line("data.jsonl", 1, json.dumps(record).encode())
     (d,) = result["diagnostics"]
     assert (d["code"], d["record_location"]["field"]) == ("AR111", "/steps/0/moves/2") and "not an electron move" in d["message"]
+
+
+def test_a_move_from_a_triple_bond_is_a_move():
+    """A structured record's move from a triple bond (`C1#N2 -> N2`, as the JSON export and the
+    input schema write it) was refused as no move, the # read as a comment; the same mechanism as
+    a .mech file checks clean (a nitrile protonated on N: common practice)."""
+    record = {"id": "t", "species": {"nitrile": "C[C:1]#[N:2]", "acid": "[OH3+:3]"},
+              "steps": [{"moves": [":N2 -> H(O3)", "O3-H -> O3", "C1#N2 -> N2"]}]}
+    result = check_line("data.jsonl", 1, json.dumps(record).encode())
+    assert [d["code"] for d in result["diagnostics"] if d["severity"] == "error"] == [], result
+    assert result["steps"] == 1
 
 
 def test_a_key_written_twice_is_rejected():

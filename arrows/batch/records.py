@@ -155,8 +155,10 @@ def _step_lines(step: Any, i: int) -> list[tuple[str, str]]:
         where = pointer("steps", i, "moves", j)
         text = _string(move, where)
         words = text.split()
-        if not words or "\n" in text or "#" in words[0] or words[0] in _NOT_MOVES or not _ARROW.search(text):
-            # (each move becomes a line of the mechanism: a statement there would run as one)
+        if not words or any(w in _NOT_MOVES or w.startswith("#") for w in words) or not _ARROW.search(text):
+            # (each move becomes a line of the mechanism, whose grammar ignores line breaks: a
+            # keyword anywhere in it would start a statement, and a word opening with # a comment;
+            # a # inside a word is a triple bond, C1#N2)
             raise RecordProblem(where, f"not an electron move: {text!r}",
                                 'a move reads source -> sink, e.g. ":O11 -> H(C3)"; `releases` and `expect` '
                                 "are fields of the step")
