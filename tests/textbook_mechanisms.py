@@ -98,9 +98,10 @@ spots of the others), and sets a carbon 0.44 bond lengths from a chlorine in its
 carbanion C4 sets the dots of its pair into C2=C4 45 degrees from that bond, the free side beside
 the vertex taken by its minus sign (its methyl, once drawn leaning onto C4, now stands at 120
 degrees and its shift arrow arcs round the outside). The Mitsunobu scheme crosses bonds and moves the ester
-2.86 bond lengths out of shape as its parts join. The Baylis-Hillman scheme draws DABCO's bicyclic
-cage with bonds of 1.12 and 0.62 bond lengths (no flat drawing has them equal) and leaves the
-alkoxide 0.77 bond lengths from the hydrogen it takes (1.4 wanted). The thionyl chloride scheme
+2.86 bond lengths out of shape as its parts join. The Baylis-Hillman scheme draws DABCO's middle
+bridge inside the hexagon of the other two (the perspective drawing of the cage, its bonds of one
+length: the ring test reads the bridge as an atom inside a ring) and leaves the alkoxide 1.26 bond
+lengths from the hydrogen it takes (1.4 wanted). The thionyl chloride scheme
 draws a bond 1.47 bond lengths long and moves the chlorosulfite out of shape as chloride leaves.
 The Fischer indole synthesis draws its [3,3] array as the closed hexagon, the forming C-C bond's
 atoms 1.0 bond lengths apart (a benzene carbon cannot swing out), and its indole's methyl moves
@@ -5178,7 +5179,7 @@ TEXTBOOK = {
     "conjugate hbr addition": (CONJUGATE_HBR_ADDITION, "CC=CCBr", True),
     "nazarov": (NAZAROV, "O=C1C=CCC1", True),
     "pictet-spengler": (PICTET_SPENGLER, "C1Cc2ccccc2CN1", True),
-    "baylis-hillman": (BAYLIS_HILLMAN, "C=C(C(O)c1ccccc1)C(=O)OC", False),   # a bond 1.12 long; the alkoxide's proton-transfer arrow has 0.77 of 1.4
+    "baylis-hillman": (BAYLIS_HILLMAN, "C=C(C(O)c1ccccc1)C(=O)OC", False),   # DABCO's middle bridge inside its hexagon; the alkoxide's proton-transfer arrow has 1.26 of 1.4
     "cope elimination": (COPE_ELIMINATION, "C=CCC.CN(C)O", True),
     "pummerer": (PUMMERER, "CSCOC(C)=O.CC(=O)O", True),
     "ester reduction": (ESTER_REDUCTION, "OCc1ccccc1", True),

@@ -33,8 +33,10 @@ from rdkit.Chem import rdDepictor
 from ..electrons import ElectronState, ResolvedMove
 from ..rdkit_io import bond_list
 from .branches import ease_clashes, side_beyond, slot_beside
+from .cages import draw_cages_in_perspective
 from .plane import (angular_gaps, any_inside_polygons, collinear, crosses_any, distance_to_segment, free_direction,
                     gap_around, gap_beside, gap_facing, inside_polygon, segments_cross, unit)
+from .untangle import Untangler
 
 # Gap between a transferred hydrogen and the atom that takes it, in bond lengths: room for a
 # curved arrow, close enough to read as one event.
@@ -789,6 +791,7 @@ class _LayoutBuilder:
         self._place_hydrogens()
         self._let_go()
         self._ease_trigonal_centres()
+        self._turn_branches_off_bonds()
         self._clear_bystanders()
         self._set_by_products_beside_product()
         panels = []
@@ -1967,7 +1970,7 @@ class _LayoutBuilder:
                    and mol.GetBondBetweenAtoms(centre, index[x]) is not None}
             if fed:
                 points = slot_beside(points, all_ends, in_ring, centre, slot, fed)
-        points = ease_clashes(points, all_ends, in_ring).tolist()
+        points = ease_clashes(draw_cages_in_perspective(points, all_ends), all_ends, in_ring).tolist()
         return {atom: points[k] for atom, k in index.items()}
 
     def _linear(self, atom: int, panels: Optional[range] = None) -> bool:
@@ -3572,6 +3575,18 @@ class _LayoutBuilder:
             holder = self._holder(side, h)
             traded.append((here[h], here.get(holder) if holder is not None and holder != atom else None))
         return traded
+
+    # branches drawn through bonds
+    def _turn_branches_off_bonds(self) -> None:
+        """Branches drawn through another group's bond turned off it (untangle.py); a hydrogen
+        drawn on a turned atom turns with it."""
+        heavy = [{a: p for a, p in here.items() if self.element[a] != 1} for here in self.positions]
+        hydrogens = [{a: p for a, p in here.items() if self.element[a] == 1} for here in self.positions]
+        labelled = frozenset(a for a in self.atoms if self.element[a] not in (1, 6))
+        Untangler(heavy, self.bonds_in, self.touched, self.joining, labelled, hydrogens).run()
+        for here, turned, turned_h in zip(self.positions, heavy, hydrogens):
+            here.update(turned)
+            here.update(turned_h)
 
     # trigonal centres
     def _ease_trigonal_centres(self) -> None:

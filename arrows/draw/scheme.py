@@ -28,6 +28,7 @@ from .formula import MINUS, Piece, condition_pieces, formula_pieces, inorganic_o
 from .structure import PanelStructure, StructureDrawer, segment_hits_box
 from .styles import ERROR_COLOUR, SMALLEST_TEXT_PT, STYLES, Style
 from .text import FontFace, wrap
+from .wedges import configured_centres
 
 
 class DrawError(Exception):
@@ -63,6 +64,26 @@ class _ArrowSpec:
     under: list[list[Piece]] = field(default_factory=list)
     note: list[str] = field(default_factory=list)   # step label, in italics
     marker: str = ""
+
+
+def _named_hydrogens(step: Optional[StepTrace], drawn_h: frozenset[int]) -> frozenset[int]:
+    """The drawn hydrogens an arrow of `step` starts or ends at (the atom or its bond)."""
+    if step is None:
+        return frozenset()
+    return frozenset(i for m in step.change.moves for i in m.source_atoms + m.sink_atoms) & drawn_h
+
+
+def _stereo_hydrogens(state: ElectronState, arriving: Optional[StepTrace], drawn_h: frozenset[int]
+                      ) -> frozenset[int]:
+    """The hydrogens the step `arriving` at `state` moved that sit on a configured stereocentre
+    of it: drawn, so that the wedge showing which face the hydrogen came to may be its own."""
+    arrived = _named_hydrogens(arriving, drawn_h)
+    if not arrived or not state.configured:
+        return frozenset()
+    centres = configured_centres(state)
+    mol = state.mol
+    return frozenset(h for h in arrived if h < mol.GetNumAtoms()
+                     and any(n.GetIdx() in centres for n in mol.GetAtomWithIdx(h).GetNeighbors()))
 
 
 def _panel_sources(trace: Trace, product: frozenset[int] = frozenset()) -> list[_PanelSource]:
@@ -669,13 +690,17 @@ class _SceneBuilder:
                    ) -> tuple[tuple[int, ...], PanelStructure]:
         """The atoms drawn on a panel and their structure (labels, bonds, marks)."""
         bl = self.bl
-        # A travelling hydrogen is drawn where it matters: on the panel whose arrows move it and
-        # on the panel just after; elsewhere it is implicit like every other hydrogen. A labelled
-        # one (D, T) is drawn wherever it is.
-        nearby = [m for st in (src.leaving, src.arriving) if st is not None for m in st.change.moves]
+        # A travelling hydrogen is drawn where it matters: on the panel whose arrows move it and,
+        # mid-scheme, on the panel just after (the reader sees where the proton went); elsewhere it
+        # is implicit like every other hydrogen. The product panel is drawn in plain skeletal form
+        # (NH2, CH3; not NH-H) unless the hydrogen holds a configuration there, which a wedge to it
+        # may be the one to show. A labelled one (D, T) is drawn wherever it is.
         drawn_h = layout.drawn_hydrogens
-        shown_h = ((frozenset(i for m in nearby for i in m.source_atoms + m.sink_atoms)
-                    | layout.labelled_hydrogens) & drawn_h) - src.idle   # (an idle one is written in its label)
+        if src.leaving is None:
+            moved = _stereo_hydrogens(src.state, src.arriving, drawn_h)
+        else:
+            moved = _named_hydrogens(src.leaving, drawn_h) | _named_hydrogens(src.arriving, drawn_h)
+        shown_h = (moved | (layout.labelled_hydrogens & drawn_h)) - src.idle   # (an idle one is written in its label)
         visible = tuple([i for i in placed.visible if i not in src.hidden and i not in src.idle
                          and (i not in drawn_h or i in shown_h)])
         positions = {i: placed.positions[i] * bl for i in visible}
