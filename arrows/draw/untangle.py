@@ -66,10 +66,18 @@ def _first_fault(here: dict[int, complex], bonds: list[tuple[int, int]], labelle
         a, (i, j) = atoms[r], bonds[c]
         if a != i and a != j:
             return frozenset((a, i, j))
-    for n, (i, j) in enumerate(bonds):
-        for a, b in bonds[n + 1:]:
-            if len({i, j, a, b}) == 4 and segments_cross(here[i], here[j], here[a], here[b]):
-                return frozenset((i, j, a, b))
+    # Every pair of bonds at once (numpy's cost is per call), the first crossing pair in the
+    # order a loop over pairs would meet it.
+    dx, dy = (ends - starts).real, (ends - starts).imag
+    sx, sy, ex, ey = starts.real, starts.imag, ends.real, ends.imag
+    start_side = (sy[None, :] - sy[:, None]) * dx[:, None] - (sx[None, :] - sx[:, None]) * dy[:, None]
+    end_side = (ey[None, :] - sy[:, None]) * dx[:, None] - (ex[None, :] - sx[:, None]) * dy[:, None]
+    straddles = start_side * end_side < 0        # [n, m]: bond m's ends on either side of bond n's line
+    crossing = np.triu(straddles & straddles.T, 1)
+    for n, m in zip(*np.nonzero(crossing)):
+        (i, j), (a, b) = bonds[n], bonds[m]
+        if len({i, j, a, b}) == 4:
+            return frozenset((i, j, a, b))
     return None
 
 
