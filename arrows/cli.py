@@ -37,6 +37,7 @@ SUMMARIES = {
 
 EXIT_USAGE = 2   # commands exit 0 clean, 1 findings; the group itself only reports bad usage
 EXIT_INTERRUPTED = 130   # the shell's convention for a run stopped by Ctrl-C (128 + SIGINT)
+EXIT_TERMINATED = 143    # and by SIGTERM (128 + 15), as a timed-out CI or cluster job is stopped
 EXIT_INTERNAL = 70   # a bug in arrows itself (EX_SOFTWARE of BSD's sysexits.h), never the user's input
 
 
@@ -63,20 +64,22 @@ def cli():
 
 
 def main() -> None:
+    from .batch.parallel import terminate_as_interrupt
     from .rdkit_io import quiet_rdkit   # only the command line silences a library's log
     quiet_rdkit()
     try:
-        cli.main(standalone_mode=False)
+        # SIGTERM unwinds as Ctrl-C does, for every command: temporary outputs (arrows.atomic)
+        # are removed, worker pools stopped, and the previous output is left as it was.
+        with terminate_as_interrupt():
+            cli.main(standalone_mode=False)
     except click.exceptions.Abort as exc:
-        # click turns Ctrl-C (KeyboardInterrupt) into Abort; `collect` already exits 130 for it
+        # click turns Ctrl-C (KeyboardInterrupt) into Abort; `collect` says more and exits itself
         if isinstance(exc.__cause__ or exc.__context__, KeyboardInterrupt):
-            click.echo("interrupted", err=True)
-            raise SystemExit(EXIT_INTERRUPTED)
+            _stopped(exc.__cause__ or exc.__context__)
         click.echo("aborted", err=True)
         raise SystemExit(EXIT_USAGE)
-    except KeyboardInterrupt:
-        click.echo("interrupted", err=True)
-        raise SystemExit(EXIT_INTERRUPTED)
+    except KeyboardInterrupt as exc:
+        _stopped(exc)
     except click.ClickException as exc:
         exc.show()
         raise SystemExit(EXIT_USAGE)
@@ -91,3 +94,12 @@ def main() -> None:
                    "input: please report it with the input file (ARROWS_TRACEBACK=1 shows where it happened).",
                    err=True)
         raise SystemExit(EXIT_INTERNAL)
+
+
+def _stopped(interrupt: KeyboardInterrupt) -> None:
+    from .batch.parallel import Terminated
+    if isinstance(interrupt, Terminated):
+        click.echo("terminated", err=True)
+        raise SystemExit(EXIT_TERMINATED)
+    click.echo("interrupted", err=True)
+    raise SystemExit(EXIT_INTERRUPTED)

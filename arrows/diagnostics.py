@@ -112,6 +112,11 @@ CODES = _table(
          "The file holds no species and no steps: it is empty, or comments only.",
          '# Aldol of propanal: species and steps still to write\n'
          '# (a file of comments only)'),
+    Code("AR113", WARNING, "data-set record id used twice",
+         "Two records of a JSONL data set (`arrows check --jsonl`) have the same `id`; results are joined "
+         "back to their records by id. The warning is on the second record, naming the first one's line.",
+         '{"id": "r1", "text": "..."}\n'
+         '{"id": "r1", "text": "..."}   # the second r1: give it an id of its own'),
     Code("AR201", ERROR, "no electrons at the source",
          "An arrow starts at electrons that are not there: a lone pair on an atom that has none, a bond "
          "that does not exist, or an unpaired electron on a closed-shell atom.",

@@ -4,6 +4,7 @@ running). Each case was found by fuzzing the commands."""
 from __future__ import annotations
 
 import dataclasses
+import json
 import os
 import signal
 import subprocess
@@ -228,6 +229,34 @@ def test_no_worker_outlives_a_killed_collect(how, tmp_path):
         for worker in workers:   # (left by the code before the fix)
             if _alive(worker):
                 os.kill(worker, signal.SIGKILL)
+
+
+@pytest.mark.skipif(sys.platform == "win32", reason="sends SIGTERM")
+@pytest.mark.parametrize("jobs", ["1", "2"])
+def test_sigterm_during_a_data_set_leaves_no_temporary_file(jobs, tmp_path):
+    """A timed-out CI or cluster job is stopped by SIGTERM: as with Ctrl-C, the results file is
+    left as it was and its hidden temporary is removed (before: exit -15 and a .arrows-tmp-* file)."""
+    record = json.dumps({"id": "r", "text": (GALLERY / "05-octanedione-cyclopentene.mech").read_text()})
+    (tmp_path / "set.jsonl").write_text((record + "\n") * 5000)
+    (tmp_path / "out.jsonl").write_text("before\n")
+    proc = subprocess.Popen([*ARROWS, "check", "--jsonl", "set.jsonl", "-o", "out.jsonl", "-j", jobs],
+                            cwd=tmp_path, stdout=subprocess.DEVNULL, stderr=subprocess.PIPE)
+    try:
+        deadline = time.monotonic() + 60
+        while not list(tmp_path.glob(".arrows-tmp-*")) and time.monotonic() < deadline and proc.poll() is None:
+            time.sleep(0.1)
+        assert list(tmp_path.glob(".arrows-tmp-*")), "the results were never being written"
+        time.sleep(1)
+        proc.send_signal(signal.SIGTERM)
+        assert proc.wait(timeout=30) == 143
+        err = proc.stderr.read()
+        assert b"Traceback" not in err and b"terminated" in err, err
+        assert sorted(p.name for p in tmp_path.iterdir()) == ["out.jsonl", "set.jsonl"]
+        assert (tmp_path / "out.jsonl").read_text() == "before\n"
+    finally:
+        if proc.poll() is None:
+            proc.kill()
+            proc.wait()
 
 
 # 7. Smaller ones.

@@ -420,7 +420,7 @@ def _whole_file(example: str) -> bool:
 
 # Examples that cannot be a .mech file: an unreadable file (AR100), lines of a JSONL data set
 # (AR110, AR111), and the two safety nets no valid moves can trip (AR403, AR404), described in words.
-FRAGMENT_EXAMPLES = {"AR100", "AR110", "AR111", "AR403", "AR404"}
+FRAGMENT_EXAMPLES = {"AR100", "AR110", "AR111", "AR113", "AR403", "AR404"}
 
 
 def test_whole_mechanism_examples_give_their_own_code():
@@ -458,6 +458,17 @@ def test_fragment_examples_are_what_they_say(write):
     for code in ("AR110", "AR111"):
         record, _ = CODES[code].example.split("   #")
         assert [d["code"] for d in check_line("set.jsonl", 1, record.encode())["diagnostics"]] == [code]
+    # A data set of two records (AR113 is the second's, found across records).
+    import io
+    import json
+    from arrows.batch.jsonl import check_stream
+    from arrows.batch.parallel import WorkerPool
+    records = [line.split("   #")[0] for line in CODES["AR113"].example.splitlines()]
+    results: list[str] = []
+    with WorkerPool(1) as pool:
+        check_stream("set.jsonl", io.BytesIO("\n".join(records).encode() + b"\n"), results.append, pool)
+    codes = [[d["code"] for d in json.loads(r)["diagnostics"]] for r in results]
+    assert "AR113" not in codes[0] and "AR113" in codes[1], codes
 
 
 def test_trace_names_what_a_step_releases_by_its_structure():

@@ -218,6 +218,66 @@ def test_no_source_paths_leaves_the_paths_out_of_the_document_and_keeps_the_chec
     assert "--no-source-paths" in readme and "--png DPI" in readme
 
 
+FAULTY_UNTITLED = ('species methane = "[CH4:1]"\nspecies base = "[OH-:2]"\n'
+                   'step "impossible addition"\n    :O2 -> C1\nend\n')   # a fifth bond to carbon: AR301, drawn marked
+
+
+def test_no_source_paths_leaves_the_paths_out_of_the_figures_too(tmp_path):
+    """The figure of a faulty scheme listed its errors as "error 1: /.../private-folder/b.mech:4:5
+    AR301 ...", and an untitled figure's SVG <title> and PDF title were the path: both went into
+    the document and the figure files. The figures now name the file by its own name."""
+    folder = tmp_path / "private-folder"
+    folder.mkdir()
+    shutil.copy(GALLERY[7], folder / "a.mech")
+    (folder / "b.mech").write_text(FAULTY_UNTITLED)
+    out = tmp_path / "si.pdf"
+    proc = collect(folder, "-o", out, "--no-source-paths", "-j", "1", "--cache", tmp_path / "cache")
+    assert proc.returncode == 1, proc.stderr
+    document = " ".join(flat(p.extract_text()) for p in PdfReader(out).pages)
+    assert "error 1: b.mech:4:5 AR301" in document and "private-folder" not in document, document
+    figures = tmp_path / "si-figures"
+    for svg in sorted(figures.glob("*.svg")):
+        assert "private-folder" not in svg.read_text(), svg.name
+        assert "private-folder" not in str(PdfReader(svg.with_suffix(".pdf")).metadata.title), svg.name
+    assert '<title id="title">b.mech</title>' in (figures / "S2-b.svg").read_text()
+
+
+def test_a_figure_is_found_in_the_cache_whatever_path_names_its_folder(tmp_path):
+    """The cache was keyed by the path as typed: the same folder named by its absolute path, from
+    inside it, or copied elsewhere redrew every scheme. The figure shows only the file's own name,
+    so that (with the bytes, the style and the tool) is the key; the diagnostics of a cached scheme
+    still name the file as this run reaches it."""
+    (tmp_path / "mechs").mkdir()
+    shutil.copy(GALLERY[7], tmp_path / "mechs" / "a.mech")
+    (tmp_path / "mechs" / "b.mech").write_text(FAULTY_UNTITLED)
+    cache = tmp_path / "cache"
+    first = collect("mechs", "-o", "one/si.pdf", "-j", "1", "--cache", cache, cwd=tmp_path)
+    assert "2 drawn, 0 from the cache" in first.stderr, first.stderr
+    shutil.copytree(tmp_path / "mechs", tmp_path / "copy")
+    for folder, cwd in [(tmp_path / "mechs", tmp_path), (".", tmp_path / "mechs"), ("copy", tmp_path)]:
+        again = collect(folder, "-o", tmp_path / "two" / "si.pdf", "-j", "1", "--cache", cache,
+                        "--report", tmp_path / "r.json", cwd=cwd)
+        assert "0 drawn, 2 from the cache" in again.stderr, (folder, again.stderr)
+        named = (Path(folder) / "b.mech").as_posix()   # (from inside the folder: "b.mech")
+        assert f"\n{named}:4:5: error AR301" in again.stderr, again.stderr
+        scheme = json.loads((tmp_path / "r.json").read_text())["schemes"][1]
+        assert scheme["file"] == named and {d["file"] for d in scheme["diagnostics"]} == {named}
+
+
+def test_a_scheme_with_nothing_to_draw_is_explained_without_a_class_name(tmp_path):
+    """An SI page read "the figure could not be drawn: DrawError: the mechanism has no starting
+    state ...": the name of an exception class of the program, in a published document."""
+    (tmp_path / "empty.mech").write_text("# nothing yet\n")
+    out = tmp_path / "si.pdf"
+    proc = collect(tmp_path / "empty.mech", "-o", out, "-j", "1", "--cache", tmp_path / "cache",
+                   "--report", tmp_path / "r.json")
+    assert proc.returncode == 1, proc.stderr
+    document = " ".join(flat(p.extract_text()) for p in PdfReader(out).pages)
+    report = json.loads((tmp_path / "r.json").read_text())
+    problem = report["schemes"][0]["figure_problem"]
+    assert problem and "Error:" not in problem and "Error:" not in document and "Error:" not in proc.stderr, problem
+
+
 # --- 6. PNG figure files on request ------------------------------------------------------------------
 
 def test_png_figure_files_on_request(tmp_path):

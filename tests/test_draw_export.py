@@ -310,14 +310,42 @@ def test_heavy_lines_are_noted():
 
 def test_characters_the_font_lacks_are_noted():
     """A title in Chinese with an emoji printed as empty boxes with no word said (DejaVu Sans has
-    neither); a font of the author's choosing is taken to have them."""
+    neither)."""
     text = ('title "SN2 \u53cd\u5e94 \U0001F642"\nspecies a = "[OH-:1]"\nspecies b = "[CH3:2][Br:3]"\n'
             'step "x"\n    :O1 -> C2\n    C2-Br3 -> Br3\nend\n')
     trace, diags = arrows.check_text(text)
     default = arrows.draw.build_scene(trace, STYLES["two-column"], diags)
-    chosen = arrows.draw.build_scene(trace, STYLES["two-column"].with_options(font_family="Noto Sans CJK SC"), diags)
     assert any("no glyphs for (\u53cd\u5e94\U0001F642)" in note for note in default.notes)
-    assert not any("glyphs" in note for note in chosen.notes)
+
+
+def _one_step(title: str, under: str = "") -> str:
+    conditions = f' under "{under}"' if under else ""
+    return (f'title "{title}"\nspecies a = "[OH-:1]"\nspecies b = "[CH3:2][Br:3]"\n'
+            f'step "x"{conditions}\n    :O1 -> C2\n    C2-Br3 -> Br3\nend\n')
+
+
+def test_the_font_itself_decides_which_characters_it_lacks():
+    """The note once tested a fixed list of ranges (CJK, Hangul, emoji): Thai, Devanagari, Bengali,
+    mathematical italic and bold letters and the bitcoin sign printed as boxes unnoted, and a
+    chosen font was taken to have everything. The judge is cairo, which prints the figure: glyph 0
+    for the character in the font (DejaVu Sans has none of these; DejaVu Math TeX Gyre, installed
+    beside it, has the mathematical letters)."""
+    import cairocffi as cairo
+    context = cairo.Context(cairo.RecordingSurface(cairo.CONTENT_COLOR_ALPHA, None))
+    lacking = "\u0e01\u0915\u0985\U0001D6FC\U0001D400\u20bf"
+    for family, absent in (("DejaVu Sans", lacking), ("DejaVu Math TeX Gyre", "\u0e01\u0915\u0985\u20bf")):
+        context.select_font_face(family)
+        glyphs = [g[0] for g in context.get_scaled_font().text_to_glyphs(0, 0, lacking, False)]
+        assert [ch for ch, g in zip(lacking, glyphs) if g == 0] == list(absent), family
+    trace, diags = arrows.check_text(_one_step("Thai \u0e01 Devanagari \u0915 math \U0001D400", under="\u0985 \u20bf"))
+    notes = arrows.draw.build_scene(trace, STYLES["two-column"], diags).notes
+    assert [n for n in notes if "no glyphs for (" + "".join(sorted("\u0e01\u0915\U0001D400\u0985\u20bf")) + ")" in n], notes
+    trace, diags = arrows.check_text(_one_step("Rate in \U0001D6FC"))
+    math_font = STYLES["two-column"].with_options(font_family="DejaVu Math TeX Gyre")
+    assert any("glyphs" in n for n in arrows.draw.build_scene(trace, STYLES["two-column"], diags).notes)
+    assert not any("glyphs" in n for n in arrows.draw.build_scene(trace, math_font, diags).notes)
+    trace, diags = arrows.check_text(_one_step("Synth\u00e8se \u03a9\u03bc\u03ad\u03b3\u03b1 \u2603", under="THF, \u221278 \u00b0C"))
+    assert not any("glyphs" in n for n in arrows.draw.build_scene(trace, STYLES["two-column"], diags).notes)
 
 
 def test_text_below_six_points_is_noted():

@@ -468,3 +468,103 @@ def test_a_record_cut_short_names_the_column_json_gives():
 def test_the_summary_counts_one_step_in_the_singular(tmp_path):
     proc = run_cli("check", "--jsonl", "-", stdin=line({"id": 1, **WATER_PROTON_TRANSFER}))
     assert proc.returncode == 0 and "1 record checked (1 step):" in proc.stderr.decode()
+
+
+# --- what a data-set builder relies on: ids, options, empty sets, live pipes ---------------------
+
+def _text_record(ident) -> str:
+    return json.dumps({"id": ident, **WATER_PROTON_TRANSFER})
+
+
+def test_a_second_record_with_an_id_already_given_is_warned_at_its_id():
+    """32 records with one id passed silently, though results are joined back to records by id.
+    The second gets AR113 (a warning: --strict fails on it), naming the first one's line; 17 and
+    "17" are two ids."""
+    data = "\n".join([_text_record("r1"), _text_record("r2"), "", _text_record("r1"), _text_record(17),
+                      _text_record("17")]) + "\n"
+    proc = run_cli("check", "--jsonl", "-", stdin=data.encode())
+    results = [json.loads(line) for line in proc.stdout.decode().splitlines()]
+    assert proc.returncode == 0, proc.stderr
+    assert [r["warnings"] for r in results] == [0, 0, 1, 0, 0]
+    (warning,) = results[2]["diagnostics"]
+    assert (warning["code"], warning["severity"], warning["line"]) == ("AR113", "warning", 4)
+    assert warning["record_location"] == {"field": "/id"} and "line 1" in warning["message"]
+    assert run_cli("check", "--jsonl", "-", "--strict", stdin=data.encode()).returncode == 1
+
+
+def test_pka_gap_is_honoured_for_a_data_set():
+    """`--pka-gap 40 --jsonl` was accepted and ignored. The gap goes with the work to every worker."""
+    from test_pka import HYDROXIDE_ON_PROPANE
+    data = (json.dumps({"id": "p", "text": HYDROXIDE_ON_PROPANE}) + "\n").encode()
+    for jobs in ("1", "2"):
+        default = json.loads(run_cli("check", "--jsonl", "-", "-j", jobs, stdin=data).stdout)
+        loose = json.loads(run_cli("check", "--jsonl", "-", "-j", jobs, "--pka-gap", "40", stdin=data).stdout)
+        assert "AR508" in [d["code"] for d in default["diagnostics"]]
+        assert "AR508" not in [d["code"] for d in loose["diagnostics"]]
+
+
+def test_format_with_a_data_set_is_refused_and_quiet_drops_the_summary():
+    data = (_text_record("r1") + "\n").encode()
+    refused = run_cli("check", "--jsonl", "-", "--format", "json", stdin=data)
+    assert refused.returncode == 2 and b"--format goes with mechanism FILES" in refused.stderr
+    quiet = run_cli("check", "--jsonl", "-", "--quiet", stdin=data)
+    assert quiet.returncode == 0 and quiet.stderr == b"" and json.loads(quiet.stdout)["ok"]
+
+
+@pytest.mark.parametrize("content", [b"", b"\n  \n\t\n"])
+def test_an_empty_data_set_is_unreadable_input_as_an_empty_folder_is(content, tmp_path):
+    """An empty or all-blank data set exited 0 ("0 records checked"), an empty folder 2: a step
+    that wrote nothing went unnoticed. Now exit 2, AR100, and no results file."""
+    (tmp_path / "set.jsonl").write_bytes(content)
+    proc = run_cli("check", "--jsonl", "set.jsonl", "-o", "out.jsonl", cwd=tmp_path)
+    assert proc.returncode == 2
+    assert proc.stderr.decode().startswith("set.jsonl:1:1: error AR100 cannot read file: a data set with no records")
+    assert not (tmp_path / "out.jsonl").exists() and not list(tmp_path.glob(".arrows-tmp-*"))
+
+
+def test_an_empty_text_derives_no_state_so_its_final_smiles_is_null():
+    """`{"text": ""}` gave "final_smiles": "", where the results schema says null when no state
+    was derived."""
+    result = check_line("set.jsonl", 1, b'{"id": "te", "text": ""}')
+    assert result["final_smiles"] is None and result["diagnostics"][0]["code"] == "AR112"
+
+
+def test_a_record_arriving_on_a_pipe_is_answered_before_the_next_arrives():
+    """Results came out 32 records at a time: a consumer that sends one line and waits for its
+    result waited for ever. A line on a pipe is checked at once and its result flushed."""
+    proc = subprocess.Popen(["arrows", "check", "--jsonl", "-", "-j", "1"], stdin=subprocess.PIPE,
+                            stdout=subprocess.PIPE, stderr=subprocess.PIPE)
+    try:
+        answers = []
+        for ident in ("a", "b"):
+            proc.stdin.write((_text_record(ident) + "\n").encode())
+            proc.stdin.flush()
+            got: list[bytes] = []
+            reader = threading.Thread(target=lambda: got.append(proc.stdout.readline()), daemon=True)
+            reader.start()
+            reader.join(timeout=60)
+            assert got, f"no result for {ident} while the pipe stayed open"
+            answers.append(json.loads(got[0])["id"])
+        assert answers == ["a", "b"]
+        proc.stdin.close()
+        assert proc.wait(timeout=60) == 0
+    finally:
+        if proc.poll() is None:
+            proc.kill()
+            proc.wait()
+
+
+@pytest.mark.parametrize("field, value", [("title", "A\u0007B"), ("caption", "x\x1by"), ("title", "a\x85b"),
+                                          ("title", "a\ufffeb")])
+def test_the_schema_refuses_the_control_characters_the_tool_refuses(field, value):
+    """The schema's quoted text forbade only a double quote, CR, LF and NUL, while the tool refuses
+    every control character but tab (AR101): 47 records of a data set were valid by the schema
+    (judged by the jsonschema library) and refused by the tool. The hint named a line and column of
+    the text made from the record; it now names the record's field."""
+    record = {"id": "c", **WATER_PROTON_TRANSFER, field: value}
+    assert not jsonschema.Draft202012Validator(SCHEMA).is_valid(record)
+    result = check_line("set.jsonl", 1, json.dumps(record).encode())
+    (diag,) = [d for d in result["diagnostics"] if d["code"] == "AR101"]
+    assert diag["record_location"] == {"field": f"/{field}"}
+    assert f"delete the invisible character in /{field} " in diag["hint"], diag["hint"]
+    assert jsonschema.Draft202012Validator(SCHEMA).is_valid({**record, field: "A\tB \u03b1"})

@@ -1,7 +1,8 @@
 """A content-addressed cache for batch rendering.
 
 A scheme's figure is stored under a key made of everything that decides it: the source bytes, the
-name it is shown by, the style, and the tool itself (its version and the text of its code, plus the
+file's own name (an untitled figure and a faulty figure's error list show it; never the folders, so a
+moved or copied folder, or one named by another path, finds its figures again), the style, and the tool itself (its version and the text of its code, plus the
 versions of RDKit, cairosvg and pypdf). A page's PDF is stored under the hash of the page's SVG
 text and the same tool fingerprint. Unchanged inputs are therefore never rendered twice, and a
 changed tool never serves a stale picture.
@@ -50,9 +51,9 @@ def tool_fingerprint() -> str:
     return digest.hexdigest()
 
 
-def figure_key(source: bytes, name: str, style: str, fingerprint: str) -> str:
+def figure_key(source: bytes, file_name: str, style: str, fingerprint: str) -> str:
     digest = hashlib.sha256()
-    for part in (fingerprint.encode(), style.encode(), name.encode(), source):
+    for part in (fingerprint.encode(), style.encode(), file_name.encode(), source):
         digest.update(hashlib.sha256(part).digest())
     return digest.hexdigest()
 

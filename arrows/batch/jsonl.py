@@ -10,6 +10,7 @@ from __future__ import annotations
 import itertools
 import json
 import re
+from contextlib import nullcontext
 from dataclasses import dataclass
 from typing import IO, Any, Callable, Iterable, Iterator, Optional
 
@@ -24,8 +25,9 @@ from .records import RecordProblem, RecordText, record_id, record_text
 
 CHUNK_LINES = 32
 
-# A chunk of work: the input's display name and (line number, raw bytes) pairs.
-Chunk = tuple[str, list[tuple[int, bytes]]]
+# A chunk of work: the input's display name, (line number, raw bytes) pairs, and the --pka-gap
+# its checks use (None: the default), which goes with the work to every worker, local or remote.
+Chunk = tuple[str, list[tuple[int, bytes]], Optional[float]]
 
 
 @dataclass
@@ -74,21 +76,27 @@ def check_line(source: str, line_number: int, raw: bytes) -> dict:
     final = trace.final if trace is not None else None
     return _result(ident, line_number, [_placed(d, source, line_number, mechanism) for d in diags],
                    steps=len(trace.mechanism.steps) if trace is not None else 0,
-                   final_smiles=state_smiles(final) if final is not None else None)
+                   # (an empty mechanism derives no state: null, as the results schema says, not "")
+                   final_smiles=(state_smiles(final) or None) if final is not None else None)
 
 
-def check_chunk(chunk: Chunk) -> list[tuple[str, tuple[int, int, int]]]:
-    """Worker entry point: for each line of the chunk, in order, its serialized result and its
-    (errors, warnings, steps) counts for the tally."""
-    source, lines = chunk
+def check_chunk(chunk: Chunk) -> list[tuple[str, tuple[int, int, int], tuple[Any, int]]]:
+    """Worker entry point: for each line of the chunk, in order, its serialized result, its
+    (errors, warnings, steps) counts for the tally, and its record's id and line."""
+    from ..checks.protons import pka_gap
+
+    source, lines, gap = chunk
     out = []
-    for number, raw in lines:
-        result = check_line(source, number, raw)
-        out.append((json.dumps(result, ensure_ascii=False), (result["errors"], result["warnings"], result["steps"])))
+    with pka_gap(gap) if gap is not None else nullcontext():
+        for number, raw in lines:
+            result = check_line(source, number, raw)
+            out.append((json.dumps(result, ensure_ascii=False),
+                        (result["errors"], result["warnings"], result["steps"]), (result["id"], number)))
     return out
 
 
-def chunks(source: str, stream: IO[bytes], size: int = CHUNK_LINES) -> Iterator[Chunk]:
+def chunks(source: str, stream: IO[bytes], size: int = CHUNK_LINES,
+           gap: Optional[float] = None) -> Iterator[Chunk]:
     """Non-blank lines of a binary stream, numbered from 1, in chunks; read lazily."""
     batch: list[tuple[int, bytes]] = []
     for number, raw in enumerate(stream, start=1):
@@ -96,10 +104,10 @@ def chunks(source: str, stream: IO[bytes], size: int = CHUNK_LINES) -> Iterator[
             continue
         batch.append((number, raw))
         if len(batch) == size:
-            yield source, batch
+            yield source, batch, gap
             batch = []
     if batch:
-        yield source, batch
+        yield source, batch, gap
 
 
 def one_document(stream: Iterable[bytes]) -> tuple[int, Iterable[bytes]]:
@@ -134,14 +142,37 @@ def _is_json(raw: bytes) -> bool:
     return True
 
 
-def check_stream(source: str, stream: IO[bytes], write: Callable[[str], Any], pool) -> Tally:
+def check_stream(source: str, stream: IO[bytes], write: Callable[[str], Any], pool, gap: Optional[float] = None,
+                 live: bool = False) -> Tally:
     """Check every line of `stream` on `pool` (a parallel.WorkerPool or ClusterPool) and write one
-    JSON result per line through `write`, in input order."""
+    JSON result per line through `write`, in input order. `live`: a line arriving on a pipe is sent
+    to work at once, not kept until a chunk is full (the caller flushes each result)."""
     tally = Tally()
-    for serialized, counts in _flatten(pool.map(check_chunk, chunks(source, stream))):
+    first_line: dict[tuple[type, Any], int] = {}   # each id's first line (ids only: small beside the records)
+    work = chunks(source, stream, size=1 if live else CHUNK_LINES, gap=gap)
+    for serialized, counts, (ident, line) in _flatten(pool.map(check_chunk, work)):
+        if ident is not None:
+            key = (type(ident), ident)   # (17 and "17" are two ids)
+            if key in first_line:
+                serialized, counts = _duplicate_id(serialized, source, first_line[key])
+            else:
+                first_line[key] = line
         tally.add(counts)
         write(serialized + "\n")
     return tally
+
+
+def _duplicate_id(serialized: str, source: str, first: int) -> tuple[str, tuple[int, int, int]]:
+    """The result of a record whose id an earlier record has, with a warning (AR113) saying so:
+    results are joined back to records by id."""
+    result = json.loads(serialized)
+    ident = result["id"]
+    warning = Diagnostic("AR113", f"the id {json.dumps(ident, ensure_ascii=False)} is the id of the record on "
+                         f"line {first} too", Location(source, result["line"], 0),
+                         hint="give every record an id of its own: results are joined back to records by id").to_dict()
+    warning["record_location"] = {"field": "/id"}
+    result = _result(ident, result["line"], result["diagnostics"] + [warning], result["steps"], result["final_smiles"])
+    return json.dumps(result, ensure_ascii=False), (result["errors"], result["warnings"], result["steps"])
 
 
 def _flatten(groups: Iterable[list]) -> Iterator:
@@ -161,6 +192,9 @@ def _placed(diag: Diagnostic, source: str, line_number: int, mechanism: RecordTe
         # told as the field it came from.
         entry["message"] = re.sub(r"\(line (\d+)\)", lambda m: f"(at {mechanism.field_of(int(m.group(1))) or 'the record'})",
                                   entry["message"])
+        if entry.get("hint"):   # ("delete the invisible character at line 1, column 11": of that text too)
+            entry["hint"] = re.sub(r"at line (\d+), column \d+",
+                                   lambda m: f"in {mechanism.field_of(int(m.group(1))) or 'the record'}", entry["hint"])
     entry.update(file=source, line=line_number, column=0, record_location=inside)
     return entry
 

@@ -157,15 +157,11 @@ def title_page(setup: PageSetup, front: Front) -> Page:
 
 def title_page_note(setup: PageSetup, front: Front) -> Optional[str]:
     """A note when the title page's texts hold characters its font has no glyphs for: they print
-    as empty boxes, with no word said. The scripts are those a scheme's own texts are noted for
-    (arrows.draw.scheme); a font other than the default is taken to have them."""
-    from ..draw.scheme import _NO_GLYPHS
-    from ..draw.styles import Style
-
-    if not front.title or setup.font_family != Style.font_family:
+    as empty boxes, with no word said. The font is asked, as for a scheme's own texts."""
+    if not front.title:
         return None
-    texts = (front.title, front.authors or "", front.date or "")
-    wanting = sorted({c for text in texts for c in text if any(low <= ord(c) <= high for low, high in _NO_GLYPHS)})
+    wanting = sorted(set(setup.face(bold=True).wanting([front.title]))
+                     | set(setup.face().wanting([front.authors or "", front.date or ""])))
     if not wanting:
         return None
     shown = "".join(wanting[:8]) + ("..." if len(wanting) > 8 else "")

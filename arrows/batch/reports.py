@@ -20,15 +20,17 @@ def report_dict(records: list[SchemeRecord], complete: bool, tool_version: str) 
             "failed": sum(r.failed for r in records),
             "errors": sum(r.errors for r in records),
             "warnings": sum(r.warnings for r in records),
-            "rendered": sum(r.rendered for r in records),      # worked on in this run (not from the cache)
-            "from_cache": sum(not r.rendered for r in records),
+            # the console's words and numbers: "22 drawn, 0 from the cache, 3 without a figure"
+            "drawn": sum(r.drawn for r in records),
+            "from_cache": sum(r.cached for r in records),
             "without_figure": sum(not r.has_figure for r in records),
         },
         "schemes": [
             {"label": r.label, "number": r.number, "file": r.name, "title": r.title, "caption": r.caption,
              "steps": r.steps, "status": r.status(), "failed": r.failed, "errors": r.errors,
              "warnings": r.warnings, "figure": f"{r.file_stem}.svg" if r.has_figure else None,
-             "figure_problem": r.figure_problem, "rendered": r.rendered, "diagnostics": list(r.diagnostics),
+             "figure_problem": r.figure_problem, "drawn": r.drawn, "from_cache": r.cached,
+             "diagnostics": list(r.diagnostics),
              "layout_notes": list(r.layout_notes)}
             for r in records
         ],

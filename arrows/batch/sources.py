@@ -23,6 +23,12 @@ class Source:
     name: str        # how documents and diagnostics name the file
 
     @property
+    def file_name(self) -> str:
+        """The file's own name, without its folders: what a figure shows of its source, so that the
+        figure (and its cache entry) stays the same wherever the folder is and however it is named."""
+        return self.name.replace("\\", "/").rsplit("/", 1)[-1]
+
+    @property
     def slug(self) -> str:
         """A file-name-safe form of the name's stem, for output file names."""
         return re.sub(r"[^A-Za-z0-9._-]+", "_", Path(self.name).stem).strip("_") or "scheme"

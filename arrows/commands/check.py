@@ -5,6 +5,7 @@ import math
 import sys
 
 import click
+from click.core import ParameterSource
 
 from ._args import LocatedPath, with_folders_opened
 from ..api import PKA_GAP_RANGE, diagnose_file
@@ -24,7 +25,7 @@ def _a_number(ctx, param, value: float) -> float:
 @click.option("--format", "fmt", type=click.Choice(["text", "json"]), default="text", show_default=True,
               help="text: file:line:col: severity CODE message; json: one array of diagnostics.")
 @click.option("--strict", is_flag=True, help="Treat warnings as failures (exit 1).")
-@click.option("--quiet", "-q", is_flag=True, help="Print only errors.")
+@click.option("--quiet", "-q", is_flag=True, help="Print only errors (with --jsonl: no summary line).")
 @click.option("--jsonl", "jsonl", type=LocatedPath(dir_okay=False, allow_dash=True), metavar="FILE",
               help="Check a data set: one mechanism per line of FILE (- for stdin), one JSON result per line out.")
 @click.option("-o", "--output", type=LocatedPath(dir_okay=False, writable=True),
@@ -34,20 +35,22 @@ def _a_number(ctx, param, value: float) -> float:
 @click.option("--cluster", metavar="ADDRESS",
               help="With --jsonl: run on the Dask scheduler at ADDRESS (pip install 'arrows[cluster]').")
 @click.option("--pka-gap", type=click.FloatRange(*PKA_GAP_RANGE), default=12.0, show_default=True, callback=_a_number,
-              help="Warn (AR508) when a proton transfer runs uphill by more than this many pKa units "
-                   "(mechanism FILES; --jsonl records use the default).")
+              help="Warn (AR508) when a proton transfer runs uphill by more than this many pKa units.")
 def check_command(files, fmt, strict, quiet, jsonl, output, jobs, cluster, pka_gap):
     """Replay every electron move in FILES and check every intermediate. A folder stands for
     the .mech files below it, leaving out dot-files and dot-folders (.git, .ipynb_checkpoints,
     editor files); a file named on its own is always read.
 
-    Exit status: 0 clean, 1 errors found (or warnings with --strict), 2 unreadable input or bad usage.
+    Exit status: 0 clean, 1 errors found (or warnings with --strict), 2 unreadable input (an empty
+    data set too) or bad usage, 130 interrupted (Ctrl-C), 143 terminated (SIGTERM).
     """
     if jsonl is not None:
         if files:
             raise click.UsageError("give mechanism FILES or --jsonl FILE, not both")
+        if click.get_current_context().get_parameter_source("fmt") is not ParameterSource.DEFAULT:
+            raise click.UsageError("--format goes with mechanism FILES: --jsonl writes one JSON result per line")
         refuse_unsafe_outputs({"-o": output}, [jsonl])   # `-`: the file standard input was redirected from
-        sys.exit(_check_jsonl(jsonl, output, jobs, cluster, strict, quiet))
+        sys.exit(_check_jsonl(jsonl, output, jobs, cluster, strict, quiet, pka_gap))
     if not files:
         raise click.UsageError("give at least one mechanism file (or --jsonl FILE)")
     if output or jobs or cluster:
@@ -78,8 +81,12 @@ def check_command(files, fmt, strict, quiet, jsonl, output, jobs, cluster, pka_g
     sys.exit(2 if unreadable else 1 if failing else 0)
 
 
+class _NoRecords(Exception):
+    """The data set holds no record: raised inside the results file's block, so none is written."""
+
+
 def _check_jsonl(path: str, output: str | None, jobs: int | None, cluster: str | None, strict: bool,
-                 quiet: bool) -> int:
+                 quiet: bool, pka_gap: float) -> int:
     """`--jsonl`: stream the data set through the workers; results to stdout or, atomically, to -o."""
     from contextlib import nullcontext
 
@@ -110,9 +117,22 @@ def _check_jsonl(path: str, output: str | None, jobs: int | None, cluster: str |
             return 2
         pool = ClusterPool(cluster) if cluster else WorkerPool(jobs or default_jobs())
         sink = atomic_file(output) if output else nullcontext(sys.stdout)
+        # A consumer reading results from a pipe gets each as soon as it is made, and a line arriving
+        # on a pipe is checked at once (not kept until a chunk of lines is full).
+        live_out = not output and not _a_file(sys.stdout)
+        live_in = not _a_file(stream)
         try:
             with pool, sink as out:
-                tally = check_stream(source, records, out.write, pool)
+                write = out.write if not live_out else lambda text: (out.write(text), out.flush())
+                tally = check_stream(source, records, write, pool, gap=pka_gap, live=live_in)
+                if not tally.records:
+                    raise _NoRecords()
+        except _NoRecords:   # as a folder with no .mech file is (exit 2), and no results file is written
+            click.echo(Diagnostic("AR100", "cannot read file: a data set with no records (empty, or blank lines only)",
+                                  Location(source, 1, 1),
+                                  hint="a data set holds one JSON record per line; was the file that made it "
+                                       "left empty?").to_text(), err=True)
+            return 2
         except ClusterUnavailable as exc:
             click.echo(f"error: {exc}", err=True)
             return 2
@@ -131,3 +151,13 @@ def _check_jsonl(path: str, output: str | None, jobs: int | None, cluster: str |
                    f"{tally.with_warnings} with warnings", err=True)
     failing = tally.with_errors or (strict and tally.with_warnings)
     return 1 if failing else 0
+
+
+def _a_file(stream) -> bool:
+    """The stream is a regular file (not a pipe, FIFO, socket or terminal)."""
+    import os
+    import stat
+    try:
+        return stat.S_ISREG(os.fstat(stream.fileno()).st_mode)
+    except (OSError, ValueError, AttributeError):   # (a stream with no file descriptor: a test's)
+        return False

@@ -13,8 +13,6 @@ from ..draw import STYLES
 from ..draw.styles import DEFAULT_STYLE
 from .output import cannot_write, refuse, refuse_unsafe_outputs
 
-EXIT_INTERRUPTED = 130   # the shell's convention for a run stopped by Ctrl-C
-EXIT_TERMINATED = 143    # and by SIGTERM (128 + 15)
 
 
 def _label_prefix(ctx, param, value: str) -> str:
@@ -69,7 +67,8 @@ def collect_command(inputs, output, style, paper, flow, prefix, title, authors, 
     from .. import __version__
     from ..batch.collection import FOLDER_SUFFIX, CollectSettings, OutputInUse, collect
     from ..batch.pages import Front
-    from ..batch.parallel import Terminated, WorkerDied, default_jobs, terminate_as_interrupt
+    from ..batch.parallel import Terminated, WorkerDied, default_jobs
+    from ..cli import EXIT_INTERRUPTED, EXIT_TERMINATED
     from ..batch.reports import write_junit, write_report
     from ..batch.sources import NoSources, find_sources
     from ..diagnostics import MechanismError
@@ -104,8 +103,7 @@ def collect_command(inputs, output, style, paper, flow, prefix, title, authors, 
                  else f"no PDF was written ({output} does not exist)")
     progress = _Progress(n)
     try:
-        with terminate_as_interrupt():
-            result = collect(sources, settings, progress)
+        result = collect(sources, settings, progress)   # (SIGTERM raises Terminated: arrows.cli.main)
     except OSError as exc:   # the cache, the figures folder or the document (a read-only folder)
         progress.close()
         if _on_the_way_to(settings.cache_root, exc):
@@ -114,7 +112,7 @@ def collect_command(inputs, output, style, paper, flow, prefix, title, authors, 
         cannot_write(output, exc)
     except OutputInUse as exc:
         raise click.UsageError(str(exc))
-    except KeyboardInterrupt as exc:   # Ctrl-C, or SIGTERM (Terminated)
+    except KeyboardInterrupt as exc:   # Ctrl-C, or SIGTERM (Terminated, raised so by arrows.cli.main)
         progress.close()
         stopped = "terminated" if isinstance(exc, Terminated) else "interrupted"
         click.echo(f"{stopped}: {untouched}; the schemes drawn so far are cached and will not be "

@@ -341,27 +341,18 @@ def _within_margins(scene: Scene, page: Style) -> bool:
             and box.y0 >= margin - 1e-6 and box.y1 <= page.page_height - margin + 1e-6)
 
 
-# Scripts the default font (DejaVu Sans) has no glyphs for: CJK, Hangul, emoji and other pictographs.
-_NO_GLYPHS = ((0x2E80, 0x9FFF), (0xAC00, 0xD7AF), (0xF900, 0xFAFF), (0x1F000, 0x1FAFF), (0x20000, 0x2FA1F))
-_FIRST_WANTING = chr(min(a for a, _ in _NO_GLYPHS))
-
-
 def _glyphs_wanting(trace: Trace, style: Style) -> tuple[str, ...]:
-    """A note when the texts the scheme writes (title, conditions over and under the arrows) hold
-    characters the default font has no glyph for: they print as empty boxes. (A font of the
-    author's choosing is taken to have them.)"""
-    if style.font_family != Style.font_family:
-        return ()
+    """A note when the texts the scheme writes (the title, in bold; the conditions over and under
+    the arrows) hold characters the font has no glyph for: they print as empty boxes. The font is
+    asked (FontFace.lacks), so every script it lacks is noted, whichever font is chosen."""
     mechanism = trace.mechanism
-    texts = [mechanism.title or ""] + [t for st in mechanism.steps for t in (st.over, st.under) if t]
-    # (every range lies above U+2E80: the Latin, Greek and symbol characters of most texts are
-    # passed over without the range test)
-    wanting = sorted({c for text in texts for c in text
-                      if c >= _FIRST_WANTING and any(a <= ord(c) <= b for a, b in _NO_GLYPHS)})
+    conditions = [t for st in mechanism.steps for t in (st.over, st.under) if t]
+    wanting = sorted(set(FontFace(style.font_family, bold=True).wanting([mechanism.title or ""]))
+                     | set(FontFace(style.font_family).wanting(conditions)))
     if not wanting:
         return ()
     shown = "".join(wanting[:8]) + ("..." if len(wanting) > 8 else "")
-    return (f"the texts hold characters the default font has no glyphs for ({shown}): they print as empty boxes; "
+    return (f"the texts hold characters the font has no glyphs for ({shown}): they print as empty boxes; "
             f"choose a font that has them with --font",)
 
 

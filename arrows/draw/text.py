@@ -34,6 +34,15 @@ class FontFace:
     def descent(self) -> float:
         return _heights(self.family)[1]
 
+    def lacks(self, ch: str) -> bool:
+        """The font has no glyph for the character: it prints as an empty box. Asked of the font
+        itself, as cairo (which prints every figure and page) finds it: glyph 0 is the box."""
+        return _lacks(self.family, self.bold, self.italic, ch)
+
+    def wanting(self, texts) -> list[str]:
+        """The characters of `texts` the font lacks, sorted, each once."""
+        return sorted({c for text in texts for c in text if self.lacks(c)})
+
     def ink_middle(self, ch: str) -> float:
         """Height of the middle of a character's ink above the baseline, per em (where the stroke
         of a minus sign is)."""
@@ -64,6 +73,12 @@ def _text_advance(family: str, bold: bool, italic: bool, text: str) -> float:
 @lru_cache(maxsize=None)
 def _advance(family: str, bold: bool, italic: bool, ch: str) -> float:
     return _context(family, bold, italic).text_extents(ch)[4] / _REFERENCE_SIZE
+
+
+@lru_cache(maxsize=None)
+def _lacks(family: str, bold: bool, italic: bool, ch: str) -> bool:
+    glyphs = _context(family, bold, italic).get_scaled_font().text_to_glyphs(0, 0, ch, False)
+    return any(index == 0 for index, _, _ in glyphs)
 
 
 @lru_cache(maxsize=None)
