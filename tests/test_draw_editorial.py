@@ -376,6 +376,17 @@ def test_an_arrow_from_c_h_to_the_next_bond_keeps_its_angle_open(path):
     trace, diags = arrows.check_text(path.read_text(encoding="utf-8"), path.name)
     scene = build_scene(trace, STYLES["two-column"], diags)
     checked = 0
+    for panel, arrow, where, h, holder, other in _c_h_arrows_into_the_next_bond(scene):
+        angle = abs(math.degrees(cmath.phase((where[h] - where[holder]) / (where[other] - where[holder]))))
+        assert angle >= 80, (panel.index, arrow.move, angle)
+        checked += 1
+    if path.stem.startswith(("01-", "07-", "12-")):
+        assert checked
+
+
+def _c_h_arrows_into_the_next_bond(scene):
+    """(panel, arrow, positions, H, its carbon, the carbon's partner) for each arrow from a C-H
+    bond into another bond of that carbon (`C3-H -> C2=C3`)."""
     for panel in scene.panels:
         where = {a.index: complex(*a.position) for a in panel.atoms}
         for arrow in panel.arrows:
@@ -389,11 +400,41 @@ def test_an_arrow_from_c_h_to_the_next_bond_keeps_its_angle_open(path):
             if holder not in arrow.sink_atoms or h in arrow.sink_atoms:
                 continue
             other, = (a for a in arrow.sink_atoms if a != holder)
-            angle = abs(math.degrees(cmath.phase((where[h] - where[holder]) / (where[other] - where[holder]))))
-            assert angle >= 80, (panel.index, arrow.move, angle)
-            checked += 1
-    if path.stem.startswith(("01-", "07-", "12-")):
-        assert checked
+            yield panel, arrow, where, h, holder, other
+
+
+@pytest.mark.parametrize("name", ["nitration", "friedel-crafts acylation", "azo coupling", "anisole bromination",
+                                  "thorpe-ziegler"])
+def test_a_c_h_among_three_other_bonds_feeds_the_next_bond_through_the_open_angle(name):
+    """Where the carbon that loses a proton has three other bonds (an arenium ion rearomatising,
+    the Thorpe-Ziegler ring tautomerising) and a base of another molecule takes the H, the H is
+    drawn in the gap beside the bond its pair goes into, 50-80 degrees from it, and the arrow from
+    the C-H runs through that open angle into the bond (common practice in E1 and electrophilic
+    aromatic substitution drawings): it crosses no bond, bulges away from the carbon (its middle
+    further from the carbon than its chord's middle) and is at least 0.8 bond lengths long, an
+    arc rather than a tick. Each H once stood in the gap opposite that bond, 158-180 degrees from
+    it, kept 80 degrees off by the rule for an open angle, and its arrow crossed another bond of
+    the carbon."""
+    from test_draw_geometry import _bonds_crossed
+    from textbook_mechanisms import TEXTBOOK
+    trace, diags = arrows.check_text(TEXTBOOK[name][0], name)
+    scene = build_scene(trace, STYLES["two-column"], diags)
+    crossing = {(panel, move) for panel, move, _ in _bonds_crossed(scene)}
+    checked = 0
+    for panel, arrow, where, h, holder, other in _c_h_arrows_into_the_next_bond(scene):
+        if len([b for b in panel.bonds if holder in b.atoms and h not in b.atoms]) != 3:
+            continue
+        angle = abs(math.degrees(cmath.phase((where[h] - where[holder]) / (where[other] - where[holder]))))
+        assert 50 <= angle < 80, (panel.index, arrow.move, angle)
+        assert (panel.index, arrow.move) not in crossing, (panel.index, arrow.move)
+        points = [complex(*p) for p in arrow.path_points(40)]
+        length = sum(abs(b - a) for a, b in zip(points, points[1:])) / scene.bond_length
+        assert length >= 0.8, (panel.index, arrow.move, length)
+        chord_middle = (points[0] + points[-1]) / 2
+        bulge = abs(points[len(points) // 2] - where[holder]) - abs(chord_middle - where[holder])
+        assert bulge > 0, (panel.index, arrow.move, bulge / scene.bond_length)
+        checked += 1
+    assert checked == 1
 
 
 def test_map_numbers_cip_labels_and_charges_keep_off_other_atoms_labels():

@@ -2348,17 +2348,19 @@ def test_atoms_on_bonds_crossed_bonds_and_labels_run_together_are_noted():
 def test_an_arrow_across_a_bond_is_noted():
     """A curved arrow left across a bond not its own (the planner found no clear side: common
     practice runs it round the structure) gives a note naming the panel, the move and the bond,
-    which `arrows draw` prints; a scheme whose arrows cross none gives none. The nitration's
-    arenium C-H, its H beside the new nitro group, has its arrow cross the ring bond C6-C1 (the
-    geometry tests' measure, _bonds_crossed); so did six figures of annulation chemistry, with no
-    note."""
+    which `arrows draw` prints; a scheme whose arrows cross none gives none. The intramolecular
+    acylation's arenium C-H, on the carbon where the new ring is fused, has its arrow cross the
+    ring bond C10-C5 (the geometry tests' measure, _bonds_crossed): both gaps beside the bond its
+    pair goes into are ring interiors. The nitration's arenium C-H did so (its H stood opposite
+    that bond) until the H was drawn in the gap beside it; six figures of annulation chemistry
+    crossed with no note."""
     from dataclasses import replace
     from arrows.draw.scene import BondDrawing
     from arrows.draw.scheme import _arrows_across_bonds
-    _, _, scene = _scene(TEXTBOOK["nitration"][0], "nitration")
-    assert [(panel, move) for panel, move, _ in _bonds_crossed(scene)] == [(1, "C1-H -> C1=C2")]
+    _, _, scene = _scene(TEXTBOOK["intramolecular acylation"][0], "intramolecular acylation")
+    assert [(panel, move) for panel, move, _ in _bonds_crossed(scene)] == [(1, "C5-H -> C5=C6")]
     noted = [n for n in scene.notes if "crosses the bond" in n]
-    assert noted == ["panel 2: the arrow C1-H -> C1=C2 crosses the bond C6-C1: the arrow planner found no clear "
+    assert noted == ["panel 2: the arrow C5-H -> C5=C6 crosses the bond C10-C5: the arrow planner found no clear "
                      "side for it; check the figure"], noted
     _, _, clear = _scene(TEXTBOOK["appel"][0], "appel")
     assert _bonds_crossed(clear) == [] and _arrows_across_bonds(clear) == ()

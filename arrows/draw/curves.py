@@ -70,6 +70,7 @@ _SHIFT_BULGE = 0.2              # bond lengths a 1,2-shift's arc stands out from
 _TIGHT_SHIFT = 20.0
 _WIDE_ANGLE = math.radians(135)   # up to this angle a hook may reach over the neighbour's bond
 _CROOK = 1.0                    # penalty of an arc cramped inside the angle of the two bonds it joins
+_KNOT = 4.0                     # penalty of one that goes round the outside where other bonds shut the way
 # Reductions are called as numpy's ufunc methods (np.add.reduce for .sum, np.minimum.reduce for
 # .min) and nonzero as the array's method: the same work without the Python wrappers, which cost
 # more than the arithmetic on arrays of a few dozen numbers. Rows are gathered with the array's
@@ -836,9 +837,11 @@ class ArrowPlanner:
                               sizes.take(from_bond, axis=0))   # only those rows
             if curl is not None:
                 cost[from_bond] += curl
-        crooked = _in_crook(pts, sources, sinks, owner, arrow_obs)
+        from_hydrogen = [src.kind == "bond" and any(w.panel.atoms[a].element == "H" for a in src.atoms)
+                         for w in work for src in w.sources]
+        crooked = _in_crook(pts, lengths / bl, sources, sinks, owner, arrow_obs, from_hydrogen)
         if crooked is not None:   # (no arrow of most schemes shifts a pair between two bonds of one atom)
-            cost += _CROOK * crooked
+            cost += crooked
         # A 1,2-shift is a clear arc round the outside, away from the atom the group leaves:
         # bulging toward that atom it lies on the bond to the cationic centre, and a flat one
         # reads as a dash between two bonds.
@@ -1167,14 +1170,20 @@ def _split_bond_sides(w: _PanelArrows, options: list[list[_Candidate]],
             pairs[(i, j)] = pairs[(i, j)] + _SAME_SIDE * (sides[0][:, None] == sides[1][None, :])
 
 
-def _in_crook(pts: np.ndarray, sources: list[_Anchor], sinks: list[_Anchor], owner: np.ndarray,
-              obstacles: list[_Obstacles]) -> Optional[np.ndarray]:
-    """1.0 where an arc that shifts a pair between two bonds of one atom has its middle (of its
-    samples `pts`) inside the angle those bonds make, cramped between them, else 0.0: such an
-    arc reads best round the outside of the bend (common practice). None where no arrow makes
-    such a shift."""
+def _in_crook(pts: np.ndarray, lengths: np.ndarray, sources: list[_Anchor], sinks: list[_Anchor],
+              owner: np.ndarray, obstacles: list[_Obstacles], from_hydrogen: list[bool]) -> Optional[np.ndarray]:
+    """_CROOK where an arc that shifts a pair between two bonds of one atom has its middle (of
+    its samples `pts`) inside the angle those bonds make, cramped between them, else 0.0: such
+    an arc reads best round the outside of the bend (common practice). Where the arc leaves a
+    bond to a hydrogen (`from_hydrogen`, per arrow) and two or more other bonds of the atom
+    stand round the outside (a C-H beside the C=C it feeds, on a carbon with three other bonds),
+    the way round is shut and the arc reads best through the open angle, bulging away from the
+    atom (an E1 drawn so, common practice): _KNOT where its middle is outside the angle or
+    nearer the atom than its chord's middle is (a knot over the atom); and, as the angle is
+    narrow there, _SHORT_HOOK per bond length it falls short of _PAIR_ARC (of its `lengths`, in
+    bond lengths), or it reads as a tick. None where no arrow makes such a shift."""
     where: dict[int, dict[int, complex]] = {}   # each panel's atom positions, looked up once
-    angles: dict[int, tuple[complex, complex, float]] = {}   # arrow -> (pivot, bisector, half its angle)
+    angles: dict[int, tuple[complex, complex, float, bool]] = {}   # arrow -> (pivot, bisector, half its angle, shut)
     for k, (src, snk) in enumerate(zip(sources, sinks)):
         if src.kind != "bond" or snk.kind != "bond":
             continue
@@ -1190,7 +1199,11 @@ def _in_crook(pts: np.ndarray, sources: list[_Anchor], sinks: list[_Anchor], own
         if pivot not in at or any(a not in at for a in ends):
             continue
         first, second = (unit(at[a] - at[pivot]) for a in ends)
-        angles[k] = (at[pivot], unit(first + second), abs(cmath.phase(second / first)) / 2)
+        bisector, half = unit(first + second), abs(cmath.phase(second / first)) / 2
+        bonded = [j if i == pivot else i for i, j in ob.bond_ends if pivot in (i, j)]
+        outside = sum(abs(cmath.phase((at[a] - at[pivot]) / bisector)) > half
+                      for a in bonded if a not in ends and a in at)
+        angles[k] = (at[pivot], bisector, half, from_hydrogen[k] and outside >= 2)
     if not angles:
         return None
     middles, out = pts[:, _SAMPLES // 2], np.zeros(len(pts))
@@ -1199,9 +1212,14 @@ def _in_crook(pts: np.ndarray, sources: list[_Anchor], sinks: list[_Anchor], own
     crooked = np.zeros(len(sources), dtype=bool)
     crooked[list(angles)] = True
     rows = crooked.take(owner).nonzero()[0]
-    pivots, bisectors, halves = zip(*(angles[k] for k in owner.take(rows).tolist()))
-    seen = np.angle((middles.take(rows) - np.array(pivots)) / np.array(bisectors))
-    out[rows] = np.abs(seen) < np.array(halves)
+    pivots, bisectors, halves, shut = (np.array(column) for column in
+                                       zip(*(angles[k] for k in owner.take(rows).tolist())))
+    middle = middles.take(rows)
+    inside = np.abs(np.angle((middle - pivots) / bisectors)) < halves
+    chord_middle = (pts[:, 0].take(rows) + pts[:, -1].take(rows)) / 2
+    bulging_out = np.abs(middle - pivots) > np.abs(chord_middle - pivots)
+    short = _SHORT_HOOK * np.maximum(0.0, _PAIR_ARC - lengths.take(rows))
+    out[rows] = np.where(shut, np.where(inside & bulging_out, 0.0, _KNOT) + short, np.where(inside, _CROOK, 0.0))
     return out
 
 

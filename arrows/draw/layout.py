@@ -24,7 +24,7 @@ import math
 from contextlib import contextmanager
 from dataclasses import dataclass, field
 from functools import lru_cache
-from typing import Iterable, Iterator, Optional, Sequence
+from typing import Callable, Iterable, Iterator, Optional, Sequence
 
 import numpy as np
 from rdkit import Chem
@@ -62,6 +62,13 @@ _TAKEN = 0.4         # an atom this near a spot stands on it
 _CROWDED = 0.8       # atoms of two clusters nearer than this read as one jumble (labels overlap)
 _HYDROGEN_ROOM = 0.85   # nearest approach of any other atom to a travelling hydrogen
 _FED_ANGLE = math.radians(80)   # least angle between a C-H and the bond its pair goes into
+# ...or, where every spot that wide sends the arrow across another bond of the carbon or onto it
+# (three other bonds round the carbon), the least angle of the hydrogen in the gap next to it.
+_NEAR_FED_ANGLE = math.radians(50)
+# A spot that wide stands squeezed against another bond nearer than this: in a regular 120-degree
+# gap the one spot 80 degrees from the fed bond stands 40 from the other bond.
+_SQUEEZED = math.radians(41)
+_FAR_FROM_PARTNER = 0.5   # bond lengths off a comfortable hop: a partner placed out of reach of that gap
 _WAITING_CLEARANCE = 1.5   # a molecule waiting its turn keeps further clear of the arrows at work
 _COMPASS = np.exp(1j * np.arange(36) * np.pi / 18)     # directions tried, every 10 degrees
 _COMPASS_COLUMN = _COMPASS[:, None]                     # (the same, one per row: a view made once)
@@ -2289,9 +2296,7 @@ class _LayoutBuilder:
                                if len(near) else 1.2)
         if prefer is not None:
             score = score + 0.15 * (_COMPASS * unit(prefer).conjugate()).real   # (Python's conjugate: no ufunc call on one number)
-        for f in self._fed_directions(hydrogen, atom, k):
-            turns = _COMPASS / f
-            score = score - 10.0 * (np.abs(np.arctan2(turns.imag, turns.real)) < _FED_ANGLE)
+        score = score - 10.0 * self._fed_shut(hydrogen, atom, k)(_COMPASS)
         ideal = self._zigzag(atom, k, bonded)
         if ideal is not None:
             score = score + 0.3 * np.maximum((_COMPASS * ideal.conjugate()).real, 0.0)
@@ -2371,6 +2376,86 @@ class _LayoutBuilder:
         (in a tight angle it is a knot over the holder)."""
         here = self.positions[k]
         return [unit(here[x] - here[holder]) for x in self.feeds.get((hydrogen, holder), ()) if x in here]
+
+    def _fed_shut(self, hydrogen: Optional[int], holder: int, k: int,
+                  relax: bool = True) -> Callable[[np.ndarray], np.ndarray]:
+        """Which directions from `holder` (an array) are shut to `hydrogen` because the pair of
+        their bond goes into the next bond of the holder: nearer that bond than _FED_ANGLE (the
+        arrow would be a knot over the holder). Where every such wide spot out of the holder's
+        rings either has another bond of the holder between it and the fed bond (the arrow
+        crosses it) or stands squeezed against one (_SQUEEZED), as round a carbon with three
+        other bonds, the hydrogen goes in the gap beside the fed bond instead (an E1 or an
+        arenium ion's proton loss drawn so, common practice): nearer than _NEAR_FED_ANGLE, or
+        with a bond in the way, is shut. Only where that gap has a spot with room for the
+        hydrogen (_HYDROGEN_ROOM), and the atom that takes it is of another molecule, which can
+        come round to it (_taken_within); and not without `relax`."""
+        fed = self._fed_directions(hydrogen, holder, k)
+        if not fed:
+            return lambda directions: np.zeros(len(directions), dtype=bool)
+        here = self.positions[k]
+        others = np.array([unit(here[x] - here[holder]) for x in self.neighbours[holder]
+                           if x != hydrogen and x in here and self.element[x] != 1
+                           and (min(x, holder), max(x, holder)) in self.bonds_in[k]
+                           and x not in self.feeds[(hydrogen, holder)]], dtype=complex)
+        fed_array = np.array(fed, dtype=complex)
+
+        def angles(directions: np.ndarray, to: np.ndarray) -> np.ndarray:
+            turns = directions[:, None] / to[None, :]
+            return np.arctan2(turns.imag, turns.real)
+
+        def near(directions: np.ndarray, limit: float) -> np.ndarray:
+            return (np.abs(angles(directions, fed_array)) < limit).any(axis=1)
+
+        def across(directions: np.ndarray) -> np.ndarray:
+            """Another bond of the holder lies in the angle between the direction and a fed bond."""
+            if not len(others):
+                return np.zeros(len(directions), dtype=bool)
+            mine = angles(directions, fed_array)[:, :, None]              # (directions, fed, 1)
+            theirs = angles(others, fed_array).T[None, :, :]              # (1, fed, others)
+            return ((np.sign(mine) == np.sign(theirs)) & (np.abs(theirs) < np.abs(mine))).any(axis=(1, 2))
+
+        def wide(directions: np.ndarray) -> np.ndarray:
+            return near(directions, _FED_ANGLE)
+
+        if not relax or len(others) < 2 or self._taken_within(hydrogen, holder, k):
+            return wide
+        centre = here[holder]
+        polygons = [[here[a] for a in ring] for ring in self._closed_rings(k)]
+        outside = np.array([not any(inside_polygon(centre + d, poly) for poly in polygons) for d in _COMPASS.tolist()])
+        off_bonds = np.abs(angles(_COMPASS, others)).min(axis=1)
+        open_wide = ~wide(_COMPASS) & ~across(_COMPASS) & (off_bonds >= _SQUEEZED) & outside
+        if open_wide.any():
+            return wide
+        # The atoms two bonds off (a label on the next carbon): the hydrogen's own partners
+        # are kept off by the angles, other molecules move aside later.
+        bonded = [x for x in self.neighbours[holder]
+                  if x in here and (min(x, holder), max(x, holder)) in self.bonds_in[k]]
+        crowd = np.array([here[y] for x in bonded for y in self.neighbours[x]
+                          if y in here and y not in (holder, hydrogen) and y not in bonded and self.element[y] != 1
+                          and (min(x, y), max(x, y)) in self.bonds_in[k]], dtype=complex)
+        room = (np.abs(centre + _COMPASS[:, None] - crowd[None, :]).min(axis=1) if len(crowd)
+                else np.full(len(_COMPASS), math.inf))
+        open_near = (~near(_COMPASS, _NEAR_FED_ANGLE) & ~across(_COMPASS) & (off_bonds >= _OFF_A_BOND) & outside
+                     & (room >= _HYDROGEN_ROOM))
+        if not open_near.any():
+            # A ring-fusion carbon (every gap beside the fed bond inside a ring), or a gap too
+            # narrow or crowded for the hydrogen's label.
+            return wide
+
+        def beside(directions: np.ndarray) -> np.ndarray:
+            return near(directions, _NEAR_FED_ANGLE) | across(directions)
+        return beside
+
+    def _taken_within(self, hydrogen: Optional[int], holder: int, k: int) -> bool:
+        """Whether the atom that takes `hydrogen` from `holder` next belongs to the holder's own
+        molecule in panel k (a sulfonium ylide's CH2 taking the H of a Swern oxidation): that
+        partner cannot come round to whichever gap the hydrogen stands in."""
+        runs = getattr(self, "residences", {}).get(hydrogen, []) if hydrogen is not None else []
+        later = [r.holder for r in runs if r.first > k and r.holder is not None]
+        now = [r for r in runs if r.first <= k <= r.last and r.holder == holder]
+        if not now or not later:
+            return False
+        return any(holder in m and later[0] in m for m in self.molecules[k])
 
     def _zigzag(self, atom: int, k: int, taken: Sequence[complex] = ()) -> Optional[complex]:
         """For an atom with one bond: the direction that continues a zigzag chain (parallel to
@@ -2510,7 +2595,7 @@ class _LayoutBuilder:
         best = None
         round_about = None
         partners = self._other_hops(index, segment, k, hydrogen) if kind == "hop" else []
-        fed = self._fed_directions(hydrogen, anchor, k) if kind == "hop" else []
+        fed = self._fed_shut(hydrogen, anchor, k) if kind == "hop" else None
         # The hydrogen of a hop stands on the line from its holder toward the partner: not on a
         # bond of the holder, nor on another hydrogen promised to it while this one is there (the
         # two protons an enolate loses in turn, the second held from the first panel on).
@@ -2537,7 +2622,7 @@ class _LayoutBuilder:
         for gap, blocked, moved, direction, rotation, target in (placements if best is None else ()):
             if best is not None and (min(gap, _CLEARANCE), not blocked) <= best[0]:
                 continue
-            if fed and any(abs(cmath.phase(direction / f)) < _FED_ANGLE for f in fed):
+            if fed is not None and fed(np.array([direction]))[0]:
                 continue      # the hydrogen would stand in the angle its bond's pair goes into
             if held_along and any(abs(cmath.phase(direction / b)) < _ALONG_BOND for b in held_along):
                 continue      # or on a bond of the atom that holds it
@@ -2908,7 +2993,8 @@ class _LayoutBuilder:
 
     def _nearest_to_partners(self, cluster: _Cluster, mover: int, placements: _Placements,
                              polygons: list[list[complex]], partners: list[tuple[int, complex]],
-                             fed: list[complex] = (), along: list[complex] = ()) -> Optional[tuple]:
+                             fed: Optional[Callable[[np.ndarray], np.ndarray]] = None,
+                             along: list[complex] = ()) -> Optional[tuple]:
         """Among the placements clear of everything (tried further round the anchor than a single
         hop needs) and from which the arrow crosses no wall, the one that also keeps the
         cluster's other hop partners within reach of an arrow (PARTNER_REACH), in order of
@@ -2931,8 +3017,8 @@ class _LayoutBuilder:
         # measured once, and every option takes its turn's answer.
         distinct, which = _distinct_turns(_PARTNER_OPTIONS, 0, len(_PARTNER_OPTIONS))
         turn_directions = [wider.turned[turn][0] for turn in distinct.tolist()]
-        for f in fed:      # the hydrogen would stand in the angle its bond's pair goes into
-            room &= np.array([abs(cmath.phase(d / f)) >= _FED_ANGLE for d in turn_directions])[which]
+        if fed is not None:      # the hydrogen would stand in the angle its bond's pair goes into
+            room &= ~fed(np.array(turn_directions, dtype=complex))[which]
         for b in along:    # nor on a bond of the atom that holds it
             room &= np.array([abs(cmath.phase(d / b)) >= _ALONG_BOND for d in turn_directions])[which]
         # The cheapest first (equal scores keep the options' order); the clearance tests cost
@@ -3934,10 +4020,16 @@ class _LayoutBuilder:
                         walls.add((a, b))
         crossed_now = any(segments_cross(0j, start, a, b) for a, b in walls)
         room_now = room(start)
-        fed = self._fed_directions(r.hydrogen, r.holder, panels[0])
+        fed = self._fed_shut(r.hydrogen, r.holder, panels[0])
+        if partner is not None:
+            # The gap beside the fed bond only where the partner, placed by now, is in reach of
+            # it: otherwise the arrow that takes the hydrogen runs long, round the molecule.
+            beside = [d for d, shut in zip(_HYDROGEN_COMPASS, fed(_HYDROGEN_COMPASS_ARRAY).tolist()) if not shut]
+            if min(map(miss, beside), default=0.0) > _FAR_FROM_PARTNER:
+                fed = self._fed_shut(r.hydrogen, r.holder, panels[0], relax=False)
 
         def cramped(direction: complex) -> bool:
-            return any(abs(cmath.phase(direction / f)) < _FED_ANGLE for f in fed)
+            return bool(fed(np.array([direction]))[0])
 
         here = self.positions[panels[0]]
         partners = [x for x in self.neighbours[r.holder] if x != r.hydrogen and x in here]
