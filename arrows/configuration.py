@@ -22,7 +22,7 @@ except in the steps whose stereochemical course is a textbook rule:
 """
 from __future__ import annotations
 
-from typing import Callable, Iterable, Optional
+from typing import Callable, Iterable, Optional, Sequence
 
 from rdkit import Chem
 
@@ -436,6 +436,12 @@ def forget_configuration(mol: Chem.RWMol, atoms: Iterable[int]) -> None:
                 _clear_directions_beside(bond)
 
 
+def forget_configuration_of_bond(double: Chem.Bond) -> None:
+    """Clear one double bond's E/Z (and the / and \\ beside it that RDKit would read it back from)."""
+    double.SetStereo(Chem.BondStereo.STEREONONE)
+    _clear_directions_beside(double)
+
+
 def _clear_directions_beside(double: Chem.Bond) -> None:
     for end in (double.GetBeginAtom(), double.GetEndAtom()):
         for single in end.GetBonds():
@@ -477,12 +483,60 @@ def tag_kept(tag: Chem.ChiralType, before: list[int], mol: Chem.Mol, atom: int) 
     """The chiral tag `atom` of `mol` would carry had it kept the configuration `tag` held against
     the neighbours `before` (neighbours_round); None when its neighbours are others, or it has two
     hydrogens."""
-    after = neighbours_round(mol, atom)
+    return _tag_against(tag, before, neighbours_round(mol, atom))
+
+
+def _tag_against(tag: Chem.ChiralType, before: list, after: list) -> Optional[Chem.ChiralType]:
+    """The tag read against the neighbours `after` that `tag` is against `before` (the same
+    neighbours, each hydrogen -1, in another order); None when they are not the same or two are
+    hydrogens."""
     if tag not in _TETRAHEDRAL or sorted(before) != sorted(after) or before.count(-1) > 1:
         return None
     if _odd_permutation(before, after):
         return _TETRAHEDRAL[1] if tag == _TETRAHEDRAL[0] else _TETRAHEDRAL[0]
     return tag
+
+
+def _round_with_counted_hydrogens(mol: Chem.Mol, atom: int) -> list[int]:
+    """neighbours_round, then -1 for each hydrogen held as a count: RDKit reads those last
+    (checked on the tags it gives F[C@H](Cl)Br and its AddHs copy)."""
+    try:
+        counted = mol.GetAtomWithIdx(atom).GetTotalNumHs()
+    except RuntimeError:   # an atom whose hydrogens RDKit has not counted: none held as a count
+        counted = 0
+    return neighbours_round(mol, atom) + [-1] * counted
+
+
+def fill_in_configuration(target: Chem.RWMol, source: Chem.Mol, partner: Sequence[int]) -> bool:
+    """Set on `target` the configuration `source` writes (chiral tags, double bonds E or Z) at each
+    element `target` leaves unset; `partner[k]` is the atom of `target` that source atom k is (a
+    substructure match of one constitution). A tag is carried against the order of the neighbours,
+    a double bond as cis or trans to its stereo atoms. Returns whether any element was set."""
+    changed = False
+    for k in range(source.GetNumAtoms()):
+        tag, centre = source.GetAtomWithIdx(k).GetChiralTag(), partner[k]
+        if tag not in _TETRAHEDRAL or target.GetAtomWithIdx(centre).GetChiralTag() != _UNSPECIFIED:
+            continue
+        written = [n if n == -1 else partner[n] for n in _round_with_counted_hydrogens(source, k)]
+        carried = _tag_against(tag, written, _round_with_counted_hydrogens(target, centre))
+        if carried is not None:
+            target.GetAtomWithIdx(centre).SetChiralTag(carried)
+            changed = True
+    set_bonds = False
+    for bond in source.GetBonds():
+        begin, end = bond.GetBeginAtomIdx(), bond.GetEndAtomIdx()
+        geometry = written_geometry(source, begin, end)
+        double = target.GetBondBetweenAtoms(partner[begin], partner[end])
+        if geometry is None or double is None or double.GetStereo() != Chem.BondStereo.STEREONONE:
+            continue
+        first, second, cis = geometry
+        ends = (partner[first], partner[second])
+        double.SetStereoAtoms(*(ends if double.GetBeginAtomIdx() == partner[begin] else ends[::-1]))
+        double.SetStereo(Chem.BondStereo.STEREOCIS if cis else Chem.BondStereo.STEREOTRANS)
+        set_bonds = True
+    if set_bonds:
+        Chem.SetDoubleBondNeighborDirections(target)   # the / and \\ that SMILES writes the geometry with
+    return changed or set_bonds
 
 
 def _odd_permutation(first: list[int], second: list[int]) -> bool:

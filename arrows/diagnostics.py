@@ -881,13 +881,15 @@ CODES = _table(
     Code("AR603", WARNING, "configuration written otherwise",
          "A checkpoint or the product is written with a configuration (@, @@, / or \\) that the steps "
          "do not give: a diastereomer of the derived structure, or its enantiomer when a species was "
-         "written with a configured centre. Only pieces of the same constitution are compared, and only "
-         "when the steps configure as many stereo elements as are written; an enantiomer of a product "
-         "formed as the racemate is no mismatch. A centre a step cleared (an enolate, an oxazolone's "
-         "aromatic anion) and no later step configured, once no chiral molecule is left, forms as the "
-         "racemate: written with the configuration it had before that step (retention claimed) it is "
-         "warned too; written the other way (a racemase's turnover, its chiral site not written) it is "
-         "not judged.",
+         "written with a configured centre. Only pieces of the same constitution are compared, element "
+         "by element: a centre or double bond the steps leave unset (an aldol's, a Felkin addition's) "
+         "is not judged, the others are; an enantiomer of a product formed as the racemate is no "
+         "mismatch. A centre a step cleared (an enolate, an oxazolone's aromatic anion, an SN1's planar "
+         "cation) and no later step configured, once no chiral molecule is left, forms as the "
+         "racemate: written with the configuration it had before that step (retention claimed; for "
+         "the SN1, the nucleophile in the leaving group's place) it is warned too; written the other "
+         "way (a racemase's turnover, its chiral site not written; an SN1's inversion, which an ion "
+         "pair can favour) it is not judged.",
          'species bromide = "CC[C@@H:1](C)[Br:2]"\n'
          'species hydroxide = "[OH-:3]"\n'
          'step "backside attack"\n'

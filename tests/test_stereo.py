@@ -1060,3 +1060,66 @@ product "CC12CCC(=O)C=C1CCC2=O"
     assert centres("CC1(CCC(C)=O)C(=O)CCC1=O") == 0 and centres("CC12CCC(=O)C=C1CCC2=O") == 1
     notes = [d.message for d in check_text(text, "hajos.mech")[1] if d.code == "AR602" and "no stereocontrol" in d.message]
     assert notes == ["with no stereocontrol, CC12CCC(=O)C=C1CCC2=O (stereocentre C1): 2 stereoisomers can form"]
+
+
+FELKIN = '''species ketone = "[CH3:3][C:1](=[O:2])[C@@H:4]([CH3:5])c1ccccc1"
+species borohydride = "[BH4-:6]"
+species methanol = "C[OH:7]"
+step "hydride addition"
+    B6-H -> C1-H(B6)
+    C1=O2 -> O2
+end
+step "protonation"
+    :O2 -> H(O7)
+    O7-H -> O7
+end
+product "{}"
+'''
+
+
+@pytest.mark.parametrize("written, flagged", [("C[C@H](O)[C@@H](C)c1ccccc1", False), ("C[C@@H](O)[C@@H](C)c1ccccc1", False),
+                                              ("C[C@H](O)[C@H](C)c1ccccc1", True), ("C[C@@H](O)[C@H](C)c1ccccc1", True)],
+                         ids=["C4 kept", "C4 kept, the other C2", "C4 inverted", "C4 inverted, the other C2"])
+def test_a_centre_the_steps_keep_is_compared_while_a_new_one_is_left_open(written, flagged):
+    """Borohydride reduction of (S)-3-phenylbutan-2-one: the new carbinol centre (Felkin-Anh, the
+    author's choice; from memory, Clayden ch. 33) is not in the bookkeeping, but C4 is untouched and
+    keeps (S) (RDKit's CIP label of the species and of each written product). A product written
+    with C4 inverted was compared as a whole and skipped for its unset new centre; each element
+    is compared now: AR603 naming C4, either written C2 passes."""
+    found = _product_warnings(FELKIN.format(written))
+    assert bool(found) == flagged, [d.message for d in found]
+    if flagged:
+        assert "C4 written (R), the steps give (S)" in found[0].message, found[0].message
+
+
+SN1 = '''species bromide = "[CH3:10][CH2:11][CH2:12][C@:1]([CH3:13])([Br:2])[CH2:14][CH3:15]"
+species water = "[OH2:3]"
+species water2 = "[OH2:4]"
+step "ionisation"
+    C1-Br2 -> Br2
+end
+step "capture"
+    :O3 -> C1
+end
+step "proton transfer"
+    :O4 -> H(O3)
+    O3-H -> O3
+end
+product "{}"
+'''
+
+
+@pytest.mark.parametrize("written, flagged", [("CCC[C@](C)(O)CC", True), ("CCC[C@@](C)(O)CC", False),
+                                              ("CCCC(C)(O)CC", False)],
+                         ids=["retention", "inversion", "the racemate"])
+def test_an_sn1_product_written_with_retention_is_flagged(written, flagged):
+    """Textbook SN1 (Clayden ch. 15; McMurry ch. 11, from memory): (R)-3-bromo-3-methylhexane
+    ionises to a planar tertiary cation that water captures on either face: the alcohol forms
+    (essentially) racemic. Written with the (R) configuration kept (RDKit's CIP label of the
+    species and of the written product, the OH in the bromine's place) it is AR603, as an
+    enolate's retention is; inversion (which an ion pair can favour) and the racemate are not judged."""
+    found = _product_warnings(SN1.format(written))
+    assert bool(found) == flagged, [d.message for d in found]
+    if flagged:
+        assert "C1 written (R), as it was before step 1" in found[0].message
+        assert "planar cation" in found[0].message

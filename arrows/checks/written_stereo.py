@@ -1,20 +1,21 @@
 """A checkpoint or the product written with a configuration (@, @@, / or \\) other than the one
 the steps give (AR603). The constitution is CheckpointsMatch's to judge: here only a written piece
-and a derived piece of one constitution are compared, and only when the derived piece is
-configured at as many elements as the written one (the steps configure few centres; of the others
-nothing is said). An enantiomer of a product that forms as the racemate is no mismatch; a
+and a derived piece of one constitution are compared, element by element: a centre or double
+bond the steps leave unset is not judged (the steps configure few; of the others nothing is said),
+and final_state_as_written gives it the written configuration for the product panel. An enantiomer of a product that forms as the racemate is no mismatch; a
 configuration written at a centre the steps cleared, with no chiral species left to pass one on,
 is (the product forms as the racemate there, not as the one written)."""
 from __future__ import annotations
 
+from dataclasses import replace
 from typing import Iterator, Mapping, NamedTuple, Optional
 
 from rdkit import Chem
 
 from ..diagnostics import Diagnostic
-from ..configuration import neighbours_round, tag_kept
+from ..configuration import fill_in_configuration, forget_configuration_of_bond, neighbours_round, tag_kept
 from ..electrons import ElectronState
-from ..judgement.stereo import DIASTEREOMERS, ENANTIOMERS, cip_codes, is_chiral, relation
+from ..judgement.stereo import DIASTEREOMERS, ENANTIOMERS, IDENTICAL, _mirror, cip_codes, is_chiral, relation
 from ..model import Checkpoint
 from ..rdkit_io import fragment, potential_stereo
 from ..trace import StepTrace
@@ -86,14 +87,31 @@ def _paired(mol: Chem.Mol, written_smiles: str, constitution: str):
     return written, derived, pairing
 
 
-def _labels_that_differ(state: ElectronState, written_smiles: str, constitution: str) -> str:
-    """Where the written piece and the derived one differ, by CIP label (RDKit's), the centres
-    and double bonds named as the state names them: "C1 written (R), the steps give (S)"; empty
-    when RDKit labels neither or pairs no atoms."""
-    paired = _paired(state.mol, written_smiles, constitution)
-    if paired is None:
-        return ""
-    written, derived, pairing = paired
+def _completed(derived: Chem.Mol, written: Chem.Mol, pairing: tuple[int, ...], mirrored: bool = False) -> Chem.Mol:
+    """The derived piece (or its mirror image) configured as written where the steps leave an
+    element unset, and unset where the written piece leaves one: configured at the written
+    elements only, so that a difference is one the steps make."""
+    work = Chem.RWMol(_mirror(derived) if mirrored else derived)
+    written_at = {d: w for w, d in enumerate(pairing)}
+    for atom in work.GetAtoms():
+        w = written_at.get(atom.GetIdx())
+        if w is not None and written.GetAtomWithIdx(w).GetChiralTag() == Chem.ChiralType.CHI_UNSPECIFIED:
+            atom.SetChiralTag(Chem.ChiralType.CHI_UNSPECIFIED)
+    for bond in work.GetBonds():
+        if bond.GetStereo() == Chem.BondStereo.STEREONONE:
+            continue
+        a, b = written_at.get(bond.GetBeginAtomIdx()), written_at.get(bond.GetEndAtomIdx())
+        mine = None if a is None or b is None else written.GetBondBetweenAtoms(a, b)
+        if mine is None or mine.GetStereo() == Chem.BondStereo.STEREONONE:
+            forget_configuration_of_bond(bond)
+    fill_in_configuration(work, written, pairing)
+    return work.GetMol()
+
+
+def _labels_that_differ(state: ElectronState, written: Chem.Mol, derived: Chem.Mol, pairing: tuple[int, ...]) -> str:
+    """Where the written piece and the derived one (paired by `pairing`) differ, by CIP label
+    (RDKit's), the centres and double bonds named as the state names them: "C1 written (R), the
+    steps give (S)"; empty when RDKit labels neither."""
     mine, theirs = cip_codes(written), cip_codes(derived)
     origin = lambda k: derived.GetAtomWithIdx(k).GetIntProp(_ORIGIN)
     told = []
@@ -118,6 +136,7 @@ class Cleared(NamedTuple):
     step: int                  # the step that cleared it (0-based)
     tag: Chem.ChiralType       # its chiral tag before that step, read against
     around: list[int]          # its neighbours then (configuration.neighbours_round)
+    cation: bool = False       # left a planar cation (an SN1's carbocation)
 
 
 class ClearedCentres:
@@ -138,16 +157,29 @@ class ClearedCentres:
             if after.GetAtomWithIdx(i).GetChiralTag() != Chem.ChiralType.CHI_UNSPECIFIED:
                 self.centres.pop(i, None)
             elif tag != Chem.ChiralType.CHI_UNSPECIFIED:
-                self.centres[i] = Cleared(st.index, tag, neighbours_round(before, i))
+                self.centres[i] = Cleared(st.index, tag, neighbours_round(before, i), _planar_cation(after, i))
+
+
+def _planar_cation(mol: Chem.Mol, atom: int) -> bool:
+    """Whether `atom` is a carbocation with three bonds (trigonal, planar: either face open)."""
+    centre = mol.GetAtomWithIdx(atom)
+    try:
+        bonds = centre.GetDegree() + centre.GetTotalNumHs()
+    except RuntimeError:   # hydrogens not counted: not read
+        return False
+    return centre.GetAtomicNum() == 6 and centre.GetFormalCharge() == 1 and bonds == 3
 
 
 def _written_as_kept(state: ElectronState, written_smiles: str, constitution: str,
                      cleared: Mapping[int, Cleared]) -> list[str]:
     """The written piece's centres that a step cleared, the state leaves unconfigured, and the
     written piece gives the configuration they had before (a claim of retention):
-    "C2 written (S), as it was before step 1, but the steps racemise C2 (...)". A centre written the
-    other way (a racemase's turnover, its chiral site left out) or whose neighbours changed (an
-    SN1's new nucleophile: ion pairs can favour inversion) is not judged."""
+    "C2 written (S), as it was before step 1, but the steps racemise C2 (...)". A centre cleared as a
+    planar cation (an SN1) whose leaving group a nucleophile replaced is read with the nucleophile
+    in the leaving group's place: retention through a free carbocation is the same claim (common
+    practice: the cation is captured on both faces). A centre written the other way (a racemase's
+    turnover, its chiral site left out; an SN1 written with inversion, which an ion pair can
+    favour) or whose neighbours changed otherwise is not judged."""
     paired = _paired(state.mol, written_smiles, constitution)
     if paired is None:
         return []
@@ -160,7 +192,7 @@ def _written_as_kept(state: ElectronState, written_smiles: str, constitution: st
         if atom not in cleared or state.mol.GetAtomWithIdx(atom).GetChiralTag() != Chem.ChiralType.CHI_UNSPECIFIED:
             continue
         was = cleared[atom]
-        kept = tag_kept(was.tag, was.around, state.mol, atom)
+        kept = tag_kept(was.tag, _in_place(was, neighbours_round(state.mol, atom)), state.mol, atom)
         if kept is None:
             continue
         work = Chem.Mol(state.mol)
@@ -168,9 +200,20 @@ def _written_as_kept(state: ElectronState, written_smiles: str, constitution: st
         as_kept = _paired(work, written_smiles, constitution)
         if as_kept is not None and cip_codes(as_kept[1]).get(("atom", as_kept[2][key[1]])) == code:
             name = state.label(atom)
+            how = "a planar cation made" if was.cation else "cleared"
             told.append(f"{name} written ({code}), as it was before step {was.step + 1}, but the steps racemise "
-                        f"{name} (cleared at step {was.step + 1}, set by no later step)")
+                        f"{name} ({how} at step {was.step + 1}, set by no later step)")
     return told
+
+
+def _in_place(was: Cleared, now: list[int]) -> list[int]:
+    """The neighbours a cleared centre had, with the one new neighbour in place of the one gone
+    when it was a planar cation (the nucleophile that captured it for the leaving group)."""
+    gone = [n for n in was.around if n not in now]
+    new = [n for n in now if n not in was.around]
+    if not was.cation or len(gone) != 1 or len(new) != 1 or -1 in gone + new:
+        return was.around
+    return [new[0] if n == gone[0] else n for n in was.around]
 
 
 class ChiralityWatch:
@@ -224,6 +267,8 @@ def mismatches(state: ElectronState, checkpoint: Checkpoint, what: str, step: Op
         if not configured or constitution not in derived:
             continue
         derived_smiles, derived_configured, _ = derived[constitution]
+        if derived_smiles == smiles:
+            continue   # (one canonical SMILES: the same stereoisomer)
         if derived_configured < configured and racemic and cleared:
             # Fewer configured elements are most often centres no rule configures (an aldol's),
             # of which nothing is said; but one a step cleared, in a state left with no chiral
@@ -238,21 +283,80 @@ def mismatches(state: ElectronState, checkpoint: Checkpoint, what: str, step: Op
                     hint="write it without that configuration (the racemate); where the configuration is "
                          "kept, the step that clears it is wrong, or the chiral species that sets it again "
                          "is left out (`arrows trace --stereo` lists what each step configures)"))
+                continue
+        # Element by element: each stereo element written and configured by the steps is compared;
+        # one the steps leave unset (an aldol's centre, a Felkin addition's) takes the written
+        # configuration, and one the author leaves unset is not compared.
+        paired = _paired(state.mol, smiles, constitution)
+        if paired is None:
             continue
-        if derived_configured != configured or derived_smiles == smiles:
-            continue   # (one canonical SMILES: the same stereoisomer, which relation() would read twice to say)
-        kind = relation(smiles, derived_smiles)
-        if kind == DIASTEREOMERS or (kind == ENANTIOMERS and not racemic):
-            differ = _labels_that_differ(state, smiles, constitution)
-            hint = ("write the configuration the steps give, or check the configured species and the "
-                    "stereospecific steps (`arrows trace --stereo` lists what each step configures)")
-            if racemic and is_chiral(derived_smiles):
-                hint += "; the steps give it as the racemate: either enantiomer of it may be written"
-            found.append(Diagnostic(
-                "AR603", f"the {what} is written {smiles}, but the steps give {derived_smiles} ({kind}"
-                f"{': ' + differ if differ else ''})",
-                checkpoint.loc, step=step, hint=hint))
+        written_piece, derived_piece, pairing = paired
+        completed = _completed(derived_piece, written_piece, pairing)
+        kind = relation(smiles, Chem.MolToSmiles(completed))
+        if kind == ENANTIOMERS and racemic:
+            continue
+        if kind == DIASTEREOMERS and racemic and derived_configured < configured:
+            # The racemate's other enantiomer, completed as written, may be the one written.
+            if relation(smiles, Chem.MolToSmiles(_completed(derived_piece, written_piece, pairing, True))) \
+                    in (IDENTICAL, ENANTIOMERS):
+                continue
+        if kind not in (DIASTEREOMERS, ENANTIOMERS):
+            continue
+        differ = _labels_that_differ(state, written_piece, completed, pairing)
+        hint = ("write the configuration the steps give, or check the configured species and the "
+                "stereospecific steps (`arrows trace --stereo` lists what each step configures)")
+        if racemic and is_chiral(derived_smiles):
+            hint += "; the steps give it as the racemate: either enantiomer of it may be written"
+        # With elements the steps leave unset, the derived piece is no stereoisomer of the written
+        # one: only the elements that differ are named.
+        told = [kind] if derived_configured >= configured else []
+        found.append(Diagnostic(
+            "AR603", f"the {what} is written {smiles}, but the steps give {derived_smiles} "
+            f"({': '.join(told + ([differ] if differ else [])) or kind})",
+            checkpoint.loc, step=step, hint=hint))
     return found
+
+
+def final_state_as_written(trace) -> Optional[ElectronState]:
+    """The last state of a replayed mechanism configured as its `product` is written where the
+    steps leave a centre or double bond unset (a conrotatory ring opening's Z alkene, an endo
+    adduct's methyls, a Felkin addition's new centre: outcomes the bookkeeping does not derive),
+    for the product panel to draw. Only when the written configuration agrees with every element
+    the steps do configure (no AR603); a racemate's pieces take the written relative
+    configuration, the steps' own centres kept. None when nothing is added."""
+    product = trace.mechanism.product
+    final = trace.steps[-1].after if trace.steps else None
+    if product is None or final is None or not any(mark in product.smiles for mark in _MARKS):
+        return None
+    watch, cleared = ChiralityWatch(), ClearedCentres()
+    for st in trace.steps:
+        watch.before(st)
+        watch.after(st)
+        cleared.after(st)
+    if mismatches(final, product, "product", None, watch.racemic, cleared.centres):
+        return None
+    try:
+        written = _pieces(Chem.MolFromSmiles(product.smiles))
+        derived = _pieces(final.mol, written)
+    except Exception:   # unreadable, or a state RDKit will not perceive: drawn as the steps leave it
+        return None
+    work = Chem.RWMol(final.mol)
+    changed = False
+    for constitution, (smiles, configured, _) in written.items():
+        if not configured or constitution not in derived or derived[constitution].smiles == smiles:
+            continue
+        paired = _paired(final.mol, smiles, constitution)
+        if paired is None:
+            continue
+        written_piece, derived_piece, pairing = paired
+        if watch.racemic and relation(smiles, Chem.MolToSmiles(_completed(derived_piece, written_piece, pairing))) \
+                not in (IDENTICAL, ENANTIOMERS):
+            written_piece = _mirror(written_piece)   # the enantiomer that fits the steps' centres
+        origins = [derived_piece.GetAtomWithIdx(d).GetIntProp(_ORIGIN) for d in pairing]
+        changed |= fill_in_configuration(work, written_piece, origins)
+    if not changed:
+        return None
+    return replace(final, mol=work.GetMol(), configured=True, judged={})
 
 
 class WrittenConfigurationMatches(Check):

@@ -1926,6 +1926,8 @@ class _LayoutBuilder:
             # RDKit's depictor draws a double bond cis or trans when its bond says so.
             bond = mol.GetBondBetweenAtoms(index[i], index[j]) if i in index and j in index else None
             if bond is not None and a in index and b in index and bond.GetBondType() == Chem.BondType.DOUBLE:
+                if panels is not None and not any(self.orders_in[k].get((i, j)) == 2 for k in panels):
+                    continue   # double only in other panels (a ring opening's new alkene): not this run's to draw
                 if (i, j) not in self.written_double and rings.NumBondRings(bond.GetIdx()):
                     continue   # a chain alkene in the ring these bonds close (a triene curled to cyclise): cis
                 if not cis and rings.NumBondRings(bond.GetIdx()) and rings.MinBondRingSize(bond.GetIdx()) <= 7:
@@ -2886,23 +2888,32 @@ class _LayoutBuilder:
         """Whether the C-C bond anchor-mover, double in some panel, would put the largest branches
         of its two ends on one side when the cluster comes in along u with v facing the anchor.
         A chain double bond no species wrote E or Z for is drawn trans (the zigzag of common
-        practice, and the E alkene an E1cB or an aldol condensation is drawn as)."""
+        practice, and the E alkene an E1cB or an aldol condensation is drawn as); one written E or
+        Z only where it is made (the product line's, final_state_as_written) is drawn so: this
+        answers whether the join would draw it otherwise."""
         pair = (min(anchor, mover), max(anchor, mover))
-        if self.union.get(pair) != 2 or pair in self.written_double or self.element[anchor] != 6 \
-                or self.element[mover] != 6:
+        if self.union.get(pair) != 2 or self.element[anchor] != 6 or self.element[mover] != 6:
             return False   # alkenes only: an imine's or iminium's drawing is left as it comes
+        written = self.written_double.get(pair)
+        if written is not None and any(self.orders_in[j].get(pair) == 2 for j in range(k + 1)):
+            return False   # written in a species already double here: its depiction shows it
         here = self.positions[k]
         sides = []
         for end, other, where in ((anchor, mover, here), (mover, anchor, depicted)):
-            branches = [n for n in self.neighbours[end] if n != other and n in where and self.element[n] != 1]
-            if not branches:
-                return False
-            biggest = max(branches, key=lambda n: (self._branch_size(n, end), -n))
+            if written is not None:
+                biggest = written[0] if end == pair[0] else written[1]
+                if biggest not in where:
+                    return False
+            else:
+                branches = [n for n in self.neighbours[end] if n != other and n in where and self.element[n] != 1]
+                if not branches:
+                    return False
+                biggest = max(branches, key=lambda n: (self._branch_size(n, end), -n))
             sides.append(where[biggest] - where[end])
         # The cluster is turned so that v faces back along u: its offsets turn by -u / v.
         anchor_side = (sides[0] / u).imag
         mover_side = (sides[1] * (-u / v) / u).imag
-        return anchor_side * mover_side > 0
+        return (anchor_side * mover_side > 0) != (written is not None and written[2])
 
     def _branch_size(self, start: int, parent: int) -> int:
         """Atoms reached from `start` over the union's bonds without going back through `parent`."""

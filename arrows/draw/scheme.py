@@ -15,6 +15,7 @@ import numpy as np
 from rdkit import Chem
 from rdkit.Chem.rdMolDescriptors import CalcMolFormula
 
+from ..checks.written_stereo import final_state_as_written
 from ..diagnostics import Diagnostic, ERROR
 from ..electrons import ElectronState, ResolvedMove, bonds_after
 from ..rdkit_io import bond_list, formula as molecular_formula, fragment
@@ -652,6 +653,12 @@ class _SceneBuilder:
     def build(self) -> tuple[Scene, float]:
         product = product_atoms(self.trace)
         sources = _panel_sources(self.trace, product)
+        if sources[-1].leaving is None and sources[-1].arriving is not None:
+            # The product panel draws the configuration the `product` line writes where the steps
+            # set none (a conrotatory opening's Z alkene), not a default the reader takes for a claim.
+            as_written = final_state_as_written(self.trace)
+            if as_written is not None:
+                sources[-1] = replace(sources[-1], state=as_written)
         states = [s.state for s in sources]
         moves = [list(s.leaving.change.moves) if s.leaving else [] for s in sources]
         touched = [set(s.leaving.change.touched_atoms) if s.leaving else set() for s in sources]
