@@ -1634,6 +1634,7 @@ class _LayoutBuilder:
                 local = self._straightened(self._depict(group, bonds, range(start, end + 1), closing),
                                            bonds, closing, range(start, end + 1))
             if not runs:
+                local = self._diene_facing(group, bonds, end, local)
                 local = self._pieces_facing(local, group, bonds, end)
             if runs:
                 # RDKit lays separate pieces side by side at will: each piece is aligned on its own.
@@ -1710,6 +1711,53 @@ class _LayoutBuilder:
                     return moved
                 if (clear, min(room, _CLEARANCE)) > (best_fit[1], min(best_fit[0], _CLEARANCE)):
                     best, best_fit = moved, (room, clear)
+        return best
+
+    def _diene_facing(self, group: list[int], bonds: set[tuple[int, int]], last: int,
+                      local: dict[int, complex]) -> dict[int, complex]:
+        """`local` (the first run's depiction, drawn from `bonds`, two separate pieces) with a diene
+        that the step after panel `last` joins to the other piece by both its ends (a Diels-Alder
+        whose dienophile, written E, keeps the cluster from being drawn as the adduct's ring)
+        redrawn s-cis and set with its ends facing the two atoms they bond to, the forming bonds
+        a bond length long (_hold_apart opens them). Chemists draw a diene about to take part in
+        a cycloaddition s-cis, its ends towards the dienophile (common practice); RDKit draws
+        buta-1,3-diene s-trans. Unchanged for anything else."""
+        if last + 1 >= self.n:
+            return local
+        pieces = _UnionFind(group)
+        for i, j in bonds:
+            pieces.join(i, j)
+        if len(pieces.groups()) != 2:
+            return local
+        joining = [(i, j) for i, j in self.bonds_in[last + 1] - self.bonds_in[last]
+                   if pieces.find(i) != pieces.find(j) and i in local and j in local]
+        if len(joining) != 2 or pieces.find(joining[0][0]) == pieces.find(joining[1][1]):
+            joining = [joining[0], joining[1][::-1]] if len(joining) == 2 else joining
+        if len(joining) != 2 or pieces.find(joining[0][0]) != pieces.find(joining[1][0]):
+            return local
+        (d1, e1), (d4, e2) = joining
+        if self._heavy_path_length(d1, d4, last, set(group)) == 1:
+            (e1, d1), (e2, d4) = joining   # the diene is the other piece
+        if self._heavy_path_length(d1, d4, last, set(group)) != 3 or self._heavy_path_length(e1, e2, last, set(group)) != 1:
+            return local
+        curled = self._depict(group, bonds, range(last, last + 1), frozenset({(min(d1, d4), max(d1, d4))}))
+        diene = [a for a in group if pieces.find(a) == pieces.find(d1)]
+        rest = {a: p for a, p in local.items() if a not in diene}
+        # The diene turned so that d1 -> d4 runs along e1 -> e2, its middle beyond that line.
+        turn = unit(local[e2] - local[e1]) / unit(curled[d4] - curled[d1])
+        middle = (curled[d1] + curled[d4]) / 2
+        shape = {a: (curled[a] - middle) * turn for a in diene}
+        axis = unit(local[e2] - local[e1])
+        best, best_room = local, -1.0
+        for side in (axis * 1j, axis * -1j):
+            inner = sum(shape.values()) / len(shape)
+            drawn = shape if ((inner / axis).imag > 0) == ((side / axis).imag > 0) else \
+                {a: (p / axis).conjugate() * axis for a, p in shape.items()}   # mirrored across the d1-d4 line
+            target = (local[e1] + local[e2]) / 2 + side
+            placed = {a: target + p for a, p in drawn.items()}
+            room = min((abs(p - q) for p in placed.values() for q in rest.values()), default=9.0)
+            if room > best_room:
+                best, best_room = {**rest, **placed}, room
         return best
 
     def _around_joining_atom(self, local: dict[int, complex], large: list[int], bonds: set[tuple[int, int]],

@@ -4,6 +4,7 @@ wrapped to the page width, a title, and error marks when a faulty mechanism is d
 """
 from __future__ import annotations
 
+import cmath
 import math
 from collections import Counter
 from dataclasses import dataclass, field, replace
@@ -194,7 +195,7 @@ def build_scene(trace: Trace, style: Style, diagnostics: Sequence[Diagnostic] = 
     builder = _SceneBuilder(trace, style, diagnostics)
     scene, fit = builder.build()
     uneven = (_uneven_bonds(scene) + _crowded_atoms(scene) + _signs_on_bonds(scene) + _cramped_hooks(scene)
-              + _arrows_across_bonds(scene) + _heavy_lines(style)
+              + _arrows_across_bonds(scene) + _straight_stereo_double_bonds(scene, builder.states) + _heavy_lines(style)
               + _glyphs_wanting(trace, style) + _font_missing(style))
     if fit < 0.999:
         if style.page_height is None:
@@ -379,6 +380,58 @@ def _font_missing(style: Style) -> tuple[str, ...]:
         return ()
     return (f"the font {family!r} is not installed here: the figure is measured and printed in the system's "
             f"fallback font; install it, or choose another with --font",)
+
+
+# Degrees: a substituent of a configured double bond drawn more than this from the double bond
+# stands nearly in line with it, on neither side, so E and Z cannot be told apart (common
+# practice, IUPAC 2008 graphical representation from memory: about 120 degrees).
+_STRAIGHTER_THAN = 150
+
+
+def _straight_stereo_double_bonds(scene: Scene, states: Sequence[ElectronState]) -> tuple[str, ...]:
+    """A note for each panel where a substituent of a double bond whose E or Z the state
+    configures is drawn more than _STRAIGHTER_THAN degrees from it, so that the author looks
+    before using the figure. `states`: each panel's state."""
+    notes = []
+    for panel, state in zip(scene.panels, states):
+        mol = state.mol   # (the panel's double bonds asked: walking every bond of the state costs more)
+        doubles = [bond.atoms for bond in panel.bonds if bond.order == 2 and max(bond.atoms) < mol.GetNumAtoms()]
+        configured = [(i, j) for i, j in doubles
+                      if (b := mol.GetBondBetweenAtoms(i, j)) is not None and b.GetStereo() not in _UNCONFIGURED]
+        if not configured:
+            continue
+        straight = _straightest_substituent(panel, configured)
+        if straight is not None:
+            names = {a.index: a.name for a in panel.atoms}
+            end, other, n, angle = straight
+            notes.append(f"panel {panel.index + 1}: {names[end]}-{names[n]} is drawn {angle:.0f} degrees from the "
+                         f"double bond {names[other]}={names[end]}, so its E or Z cannot be read; check the figure")
+    return tuple(notes)
+
+
+_UNCONFIGURED = (Chem.BondStereo.STEREONONE, Chem.BondStereo.STEREOANY)
+
+
+def _straightest_substituent(panel: Panel, double_bonds: list[tuple[int, int]]
+                             ) -> Optional[tuple[int, int, int, float]]:
+    """(end, its partner across the double bond, the substituent, the angle in degrees) of the
+    first substituent of `double_bonds` drawn straighter than _STRAIGHTER_THAN (a 150-degree
+    one, as drawn, still reads)."""
+    where = {a.index: complex(*a.position) for a in panel.atoms}
+    for i, j in double_bonds:
+        for end, other in ((i, j), (j, i)):
+            if end not in where or other not in where:
+                continue
+            for bond in panel.bonds:
+                if end not in bond.atoms or other in bond.atoms:
+                    continue
+                n = bond.atoms[0] + bond.atoms[1] - end
+                if n not in where:
+                    continue
+                angle = abs(math.degrees(cmath.phase((where[n] - where[end]) / (where[other] - where[end]))))
+                if angle > _STRAIGHTER_THAN + 0.5:
+                    return end, other, n, angle
+    return None
 
 
 def _heavy_lines(style: Style) -> tuple[str, ...]:
@@ -659,7 +712,7 @@ class _SceneBuilder:
             as_written = final_state_as_written(self.trace)
             if as_written is not None:
                 sources[-1] = replace(sources[-1], state=as_written)
-        states = [s.state for s in sources]
+        self.states = states = [s.state for s in sources]
         moves = [list(s.leaving.change.moves) if s.leaving else [] for s in sources]
         touched = [set(s.leaving.change.touched_atoms) if s.leaving else set() for s in sources]
         bonds = _bond_lists(sources)   # for layout and structures

@@ -22,7 +22,7 @@ from rdkit import Chem
 
 from ..electrons import ElectronState
 from ..rdkit_io import HYDROGEN_ISOTOPES, bond_list
-from .plane import distance_to_segment, unit_or_zero
+from .plane import distance_to_segment, unit, unit_or_zero
 from .scene import AtomDrawing, BondDrawing, Box, CurvedArrow, Mark, TextRun
 from .styles import BROKEN_COLOUR, FORMED_COLOUR, INK, NUMBER_COLOUR, Style
 from .formula import MINUS
@@ -232,6 +232,11 @@ def _nearer_another(box: Box, atom: int, out: PanelStructure, margin: float = 1.
     own = abs(middle - out.positions[atom])
     return any(abs(middle - out.positions[j]) < margin * own for j, drawn in out.atoms.items()
                if j != atom and (not letters or drawn.box is not None))
+
+
+# Bond lengths: a stereocentre this near another one whose CIP label is drawn sets its own label
+# away from it (two adjacent centres, or across a three-membered ring, are one bond apart).
+_LABELLED_NEIGHBOUR = 1.6
 
 
 def _separation(a: Box, b: Box) -> float:
@@ -1101,6 +1106,16 @@ class StructureDrawer:
 
     def _cip_marks(self, state: ElectronState, visible: tuple[int, ...], out: PanelStructure) -> None:
         from ..judgement.stereo import cip_labels
-        for i, code in cip_labels(state.mol, visible).items():
-            out.marks.append(self._side_text("cip", i, f"({code})", out, preferred=cmath.rect(1, 3 * math.pi / 4),
-                                             italic=True))
+        labels = cip_labels(state.mol, visible)
+        reach = _LABELLED_NEIGHBOUR * self.style.bond_length
+        for i, code in labels.items():
+            # Each label beside its own centre, away from its bonds and from a labelled centre
+            # close by (two adjacent stereocentres' "(R)" and "(S)" side by side at their shared
+            # bond could not be told apart; common practice sets each on its centre's outer side).
+            here = out.positions[i]
+            partners = sorted((abs(out.positions[j] - here), j) for j in labels
+                              if j != i and abs(out.positions[j] - here) < reach)
+            towards = [unit(out.positions[j] - here) for _, j in partners]
+            away = -(sum(out.bond_directions.get(i, ())) + sum(towards))
+            preferred = unit(away) if abs(away) > 1e-6 else cmath.rect(1, 3 * math.pi / 4)
+            out.marks.append(self._side_text("cip", i, f"({code})", out, preferred=preferred, italic=True))
