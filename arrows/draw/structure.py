@@ -254,25 +254,28 @@ def carbons_to_letter(bonds: list[tuple[int, int, int]], positions: dict[int, co
     atom is a multiple bond to a heteroatom (formaldehyde as H2C=O, not a bare "O=" stub; common
     practice in skeletal formulas)."""
     multiple: dict[int, list[tuple[int, int]]] = {}   # carbon -> its (partner, order) of order two or more
-    heavy: dict[int, list[int]] = {}                  # atom -> its heavy partners
     for i, j, order in bonds:
-        if element[i] != 1 and element[j] != 1:
-            heavy.setdefault(i, []).append(j)
-            heavy.setdefault(j, []).append(i)
         if order >= 2:
             for a, b in ((i, j), (j, i)):
                 if element[a] == 6:
                     multiple.setdefault(a, []).append((b, order))
     letters = set()
+    lone = []   # carbons with one multiple bond, to a heteroatom: formaldehyde's, if nothing else is bonded
     for i, partners in multiple.items():
         if len(partners) == 2 and partners[0][1] == partners[1][1] and i in positions \
                 and all(j in positions for j, _ in partners):
             a, b = (positions[j] - positions[i] for j, _ in partners)
             if (a.real * b.real + a.imag * b.imag) / (abs(a) * abs(b)) < _STRAIGHT:
                 letters.add(i)
-        elif len(heavy.get(i, ())) == 1 and len(partners) == 1 and element[partners[0][0]] != 6 \
-                and _no_other_carbon(i, heavy, element):
-            letters.add(i)
+        elif len(partners) == 1 and element[partners[0][0]] != 6:
+            lone.append(i)
+    if lone:
+        heavy: dict[int, list[int]] = {}   # atom -> its heavy partners
+        for i, j, _ in bonds:
+            if element[i] != 1 and element[j] != 1:
+                heavy.setdefault(i, []).append(j)
+                heavy.setdefault(j, []).append(i)
+        letters.update(i for i in lone if len(heavy.get(i, ())) == 1 and _no_other_carbon(i, heavy, element))
     return letters
 
 

@@ -81,6 +81,47 @@ def _first_fault(here: dict[int, complex], bonds: list[tuple[int, int]], labelle
     return None
 
 
+def _faultless(positions: Sequence[dict[int, complex]], bonds: Sequence[list[tuple[int, int]]],
+               labelled: frozenset[int]) -> list[bool]:
+    """For each panel (its atoms' points and drawn bonds): whether _first_fault finds nothing, every
+    panel worked out in one numpy batch (numpy's cost is per call). Panels are padded to the
+    largest: a padded atom stands far from everything, a padded bond is a point far the other
+    way, of no length, which crosses nothing."""
+    count, atoms_at, bonds_at = len(positions), max(map(len, positions), default=0), max(map(len, bonds), default=0)
+    if not count or not bonds_at:
+        return [True] * count
+    points = np.full((count, atoms_at), 1e9, dtype=complex)
+    ids = np.full((count, atoms_at), -1)
+    reach = np.zeros((count, atoms_at))
+    starts = np.full((count, bonds_at), -1e9, dtype=complex)
+    ends = starts.copy()
+    ends_ids = np.full((count, bonds_at, 2), -2)
+    for k, (here, drawn) in enumerate(zip(positions, bonds)):
+        atoms = list(here)
+        points[k, :len(atoms)] = [here[a] for a in atoms]
+        ids[k, :len(atoms)] = atoms
+        reach[k, :len(atoms)] = [_LABEL_ON_A_BOND if a in labelled else _ON_A_BOND for a in atoms]
+        if drawn:
+            starts[k, :len(drawn)] = [here[i] for i, _ in drawn]
+            ends[k, :len(drawn)] = [here[j] for _, j in drawn]
+            ends_ids[k, :len(drawn)] = drawn
+    along = ends - starts
+    length2 = np.maximum((along * along.conjugate()).real, 1e-18)
+    t = np.clip(((points[:, :, None] - starts[:, None, :]) * along.conjugate()[:, None, :]).real
+                / length2[:, None, :], 0.0, 1.0)
+    distance = np.abs(points[:, :, None] - (starts[:, None, :] + t * along[:, None, :]))
+    own = (ids[:, :, None] == ends_ids[:, None, :, 0]) | (ids[:, :, None] == ends_ids[:, None, :, 1])
+    on_a_bond = ((distance < reach[:, :, None]) & ~own).any(axis=(1, 2))
+    # Two bonds cross where each has the other's ends on either side of its line (bonds that
+    # share an atom have a side of exactly 0 there, and cross nothing).
+    dx, dy, sx, sy, ex, ey = along.real, along.imag, starts.real, starts.imag, ends.real, ends.imag
+    start_side = (sy[:, None, :] - sy[:, :, None]) * dx[:, :, None] - (sx[:, None, :] - sx[:, :, None]) * dy[:, :, None]
+    end_side = (ey[:, None, :] - sy[:, :, None]) * dx[:, :, None] - (ex[:, None, :] - sx[:, :, None]) * dy[:, :, None]
+    straddles = start_side * end_side < 0
+    crossing = (straddles & straddles.transpose(0, 2, 1)).any(axis=(1, 2))
+    return (~(on_a_bond | crossing)).tolist()
+
+
 def _room(here: dict[int, complex], bonds: list[tuple[int, int]], side: set[int]) -> float:
     """The least distance between the branch `side` and the rest: an atom of one from a bond of
     the other, or (less 0.2, as two atoms side by side need more room than an atom beside a line)
@@ -129,13 +170,21 @@ class Untangler:
         self.n = len(positions)
 
     def run(self) -> None:
+        drawn = [[b for b in self.bonds[k] if b[0] in here and b[1] in here] for k, here in enumerate(self.positions)]
+        # Most panels have no fault: they are found in one batch, and only the others (or every
+        # panel after a turn, which may move the panels of its run) are looked at one by one.
+        clean = _faultless(self.positions, drawn, self.labelled)
+        turned = False
         for k in range(self.n):
+            if clean[k] and not turned:
+                continue
             for _ in range(3):   # (a fault or two per panel at most, in practice)
                 here = self.positions[k]
                 bonds = [b for b in self.bonds[k] if b[0] in here and b[1] in here]
                 fault = _first_fault(here, bonds, self.labelled)
                 if fault is None or not self._turn_off(k, fault):
                     break
+                turned = True
 
     def _free_at(self, k: int, side: set[int]) -> bool:
         """Whether the step leaving panel k lets the atoms of `side` move: it touches them all, or
