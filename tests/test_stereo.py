@@ -7,6 +7,7 @@ textbook definitions (common practice): n independent stereocentres give 2**n st
 enantiomers are non-superimposable mirror images, diastereomers are stereoisomers that are not
 mirror images, a meso compound is identical to its mirror image.
 """
+import re
 from pathlib import Path
 
 import pytest
@@ -220,7 +221,7 @@ def test_trace_stereo_shows_steps_products_and_relations(tmp_path):
     result = CliRunner().invoke(cli, ["trace", "--stereo", str(path)])
     out = result.output
     assert "stereo   new stereocentre C2" in out
-    assert "CCC(C)[O-]: stereocentre C2; 2 stereoisomers with no stereocontrol" in out
+    assert "CCC(C)[O-]: stereocentre C2 (unset); 2 stereoisomers with no stereocontrol" in out
     assert "CC[C@H]([O-])C and CC[C@@H]([O-])C: enantiomers" in out
 
 
@@ -245,6 +246,106 @@ def test_trace_stereo_says_an_eliminations_alkene_is_one_stereoisomer(tmp_path):
     out = CliRunner().invoke(cli, ["trace", "--stereo", str(path)]).output
     assert "one stereoisomer, as the steps configure it" in out
     assert "with no stereocontrol" not in out
+
+
+SN2_AZIDE = """species bromide = "[CH3:5][CH2:4][C@@H:1]([CH3:6])[Br:2]"
+species azide = "[N-:7]=[N+:8]=[N-:9]"
+step "backside attack"
+    :N7 -> C1
+    C1-Br2 -> Br2
+end
+"""
+BROMINE_TO_BUTENE = """species alkene  = "C/[CH:1]=[CH:2]{geometry}C"
+species bromine = "[Br:3][Br:4]"
+step "bromonium ion"
+    C1=C2 -> C1-Br3
+    :Br3 -> C2
+    Br3-Br4 -> Br4
+end
+step "opening from the back"
+    :Br4 -> C1
+    Br3-C1 -> Br3
+end
+"""
+CYCLOBUTENE_OPENING = """species ring = "C[C@@H:1]1[CH:2]=[CH:3][C@@H:4]1C"
+step "ring opening"
+    C1-C4 -> C1=C2
+    C2=C3 -> C3=C4
+end
+"""
+
+
+def rdkit_cip(smiles: str) -> dict[str, str]:
+    """RDKit's CIP labeller (the judge) on a SMILES: `C<map>` or, unmapped, `atom <index>` -> label."""
+    from rdkit.Chem import rdCIPLabeler
+    mol = Chem.MolFromSmiles(smiles)
+    names = {a.GetIdx(): f"C{a.GetAtomMapNum()}" if a.GetAtomMapNum() else f"atom {a.GetIdx()}"
+             for a in mol.GetAtoms()}
+    for atom in mol.GetAtoms():
+        atom.SetAtomMapNum(0)   # (a map number is no part of the CIP ranking; cleared all the same)
+    rdCIPLabeler.AssignCIPLabels(mol)
+    return {names[a.GetIdx()]: a.GetProp("_CIPCode") for a in mol.GetAtoms() if a.HasProp("_CIPCode")}
+
+
+def traced_configurations(text: str, tmp_path, line_start: str) -> dict[str, str]:
+    """`C1 (R)`-style names on the first `trace --stereo` line starting with `line_start`."""
+    path = tmp_path / "m.mech"
+    path.write_text(text, encoding="utf-8")
+    out = CliRunner().invoke(cli, ["trace", "--stereo", str(path)]).output
+    line = next((l for l in out.splitlines() if l.startswith(line_start)), "")
+    return dict(re.findall(r"(C\d+(?:=C\d+)?) \(([^)]+)\)", line))
+
+
+def test_trace_stereo_names_the_inverted_centre_of_an_sn2_product(tmp_path):
+    """Textbook SN2 (Walden inversion): (R)-2-bromobutane and azide give (S)-2-azidobutane. The final
+    block named the product's centre without its label; RDKit's labeller on the product is the judge."""
+    names = traced_configurations(SN2_AZIDE, tmp_path, "  CC[C@H](C)N=[N+]=[N-]:")
+    assert rdkit_cip("[CH3:5][CH2:4][C@@H:1]([CH3:6])[Br:2]") == {"C1": "R"}
+    assert names == rdkit_cip("[CH3:5][CH2:4][C@H:1]([CH3:6])[N:7]=[N+]=[N-]") == {"C1": "S"}
+
+
+@pytest.mark.parametrize("geometry, product, meso", [
+    ("/", "C[C@@H](Br)[C@H](C)Br", True),      # (E)-but-2-ene: meso-(2R,3S)
+    ("\\", "C[C@@H](Br)[C@@H](C)Br", False),  # (Z)-but-2-ene: (2R,3R) with its enantiomer
+])
+def test_trace_stereo_labels_the_centres_of_an_anti_addition(tmp_path, geometry, product, meso):
+    """Textbook anti addition of bromine: E-but-2-ene gives meso-2,3-dibromobutane, Z the racemic
+    pair. The labels the final block gives the two centres are RDKit's for the product (or its
+    mirror image, for the racemate: the replay picks one of the pair); the lost double bond is
+    named E or Z as RDKit labels the alkene."""
+    text = BROMINE_TO_BUTENE.format(geometry=geometry)
+    final = traced_configurations(text, tmp_path, "  C[C@")
+    judged = [sorted(rdkit_cip(s).values()) for s in (product, Chem.MolToSmiles(_mirror(Chem.MolFromSmiles(product))))]
+    assert sorted(final.values()) in judged
+    assert (sorted(final.values()) == ["R", "S"]) == meso
+    lost = traced_configurations(text, tmp_path, "  stereo   lost")
+    from rdkit.Chem import rdCIPLabeler
+    alkene = Chem.MolFromSmiles(f"C/C=C{geometry}C")
+    rdCIPLabeler.AssignCIPLabels(alkene)
+    assert lost == {"C1=C2": next(b.GetProp("_CIPCode") for b in alkene.GetBonds() if b.HasProp("_CIPCode"))}
+
+
+def test_trace_stereo_says_unset_for_double_bonds_the_replay_leaves_open(tmp_path):
+    """The conrotatory opening of cis-3,4-dimethylcyclobutene (Woodward-Hoffmann: the 2E,4Z diene) is
+    not configured by the replay: both new double bonds are `unset`, not labelled. The two centres the
+    step removes are named as RDKit labels them in the written cyclobutene."""
+    new = traced_configurations(CYCLOBUTENE_OPENING, tmp_path, "  stereo   new")
+    assert new == {"C1=C2": "unset", "C3=C4": "unset"}
+    assert traced_configurations(CYCLOBUTENE_OPENING, tmp_path, "  CC=CC=CC:") == new
+    lost = traced_configurations(CYCLOBUTENE_OPENING, tmp_path, "  stereo   lost")
+    assert lost == rdkit_cip("C[C@@H:1]1[CH:2]=[CH:3][C@@H:4]1C") == {"C1": "R", "C4": "S"}
+
+
+def test_trace_stereo_says_configured_where_rdkit_gives_no_label():
+    """Guard: a configured element of a state RDKit's labeller cannot read (no codes) is not called
+    `unset`; an open one is. (Read unsanitized, as the replay holds its states.)"""
+    from arrows.commands._stereo_lines import _configuration
+    from arrows.judgement.stereo import StereoElement
+    bond, centre = StereoElement(DOUBLE_BOND, (1, 2)), StereoElement(CENTRE, (1,))
+    assert _configuration(Chem.MolFromSmiles("C/C=C/C", sanitize=False), bond, {}) == "configured, no CIP label"
+    assert _configuration(Chem.MolFromSmiles("CC=CC", sanitize=False), bond, {}) == "unset"
+    assert _configuration(Chem.MolFromSmiles("C[C@H](O)CC", sanitize=False), centre, {}) == "configured, no CIP label"
+    assert _configuration(Chem.MolFromSmiles("CC(O)CC", sanitize=False), centre, {}) == "unset"
 
 
 @pytest.mark.parametrize("smiles, textbook", [

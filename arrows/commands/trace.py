@@ -40,8 +40,9 @@ def _state_lines(state: ElectronState) -> list[str]:
 
 @click.command("trace")
 @click.argument("file", type=LocatedPath())   # a missing file or a folder is reported as AR100
-@click.option("--stereo", is_flag=True, help="Also show stereo elements made or lost at each step, the "
-              "stereoisomers of the final state, and how stereo-specified checkpoints relate.")
+@click.option("--stereo", is_flag=True, help="Also show stereo elements made or lost at each step, each "
+              "with its CIP label (R/S, E/Z) or `unset`, the stereoisomers of the final state, and how "
+              "stereo-specified checkpoints relate.")
 def trace_command(file, stereo):
     """Print the starting state and the state after every step: canonical SMILES, formula, net
     charge, the bonds formed, broken and changed in order, and for each atom the step's moves
