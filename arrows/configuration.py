@@ -18,10 +18,18 @@ except in the steps whose stereochemical course is a textbook rule:
   vicinal dibromide) breaks the two bonds anti-periplanar, and the new double bond gets the
   geometry that follows; when the atom that takes the first group is joined to the second (the
   oxide of a Cope elimination, the carbonyl oxygen of an ester pyrolysis) the two leave from one
-  side, syn-periplanar, through a cyclic transition state.
+  side, syn-periplanar, through a cyclic transition state;
+- an electrocyclic ring closure of a polyene whose two terminal double bonds are written E or Z
+  turns both termini one way (conrotatory) or opposite ways (disrotatory), as the
+  Woodward-Hoffmann rules fix it: under heat 4n electrons conrotatory and 4n+2 disrotatory,
+  under light the reverse (Woodward & Hoffmann 1965, 1969; Clayden ch. 35; from memory). The
+  two outside groups (trans to the chain) end up cis in the ring after a disrotatory closure,
+  trans after a conrotatory one.
 """
 from __future__ import annotations
 
+import math
+import re
 from typing import Callable, Iterable, Optional, Sequence
 
 from rdkit import Chem
@@ -33,6 +41,12 @@ _TETRAHEDRAL = (Chem.ChiralType.CHI_TETRAHEDRAL_CW, Chem.ChiralType.CHI_TETRAHED
 _CIS = (Chem.BondStereo.STEREOZ, Chem.BondStereo.STEREOCIS)
 _TRANS = (Chem.BondStereo.STEREOE, Chem.BondStereo.STEREOTRANS)
 _DIRECTED = (Chem.BondDir.ENDUPRIGHT, Chem.BondDir.ENDDOWNRIGHT)
+_LIGHT = re.compile(r"\bh\s?[vν]\b|light|photo|\buv\b", re.IGNORECASE)
+
+
+def names_light(*texts: Optional[str]) -> bool:
+    """Whether a step's conditions (the text over or under its arrow) name light: a photochemical step."""
+    return any(text and _LIGHT.search(text) for text in texts)
 
 
 def has_configuration(mol: Chem.Mol) -> bool:
@@ -51,7 +65,8 @@ def may_configure(changes: dict[Pair, tuple[int, int]]) -> bool:
 
 
 def carry_configuration(before: Chem.Mol, after: Chem.RWMol, changes: dict[Pair, tuple[int, int]],
-                        shifted: Callable[[int, int], bool], configured: bool) -> bool:
+                        shifted: Callable[[int, int], bool], configured: bool,
+                        pairs_moved: int = 0, light: bool = False) -> bool:
     """Set on `after` (the state after a step, being built) the configuration of every atom whose
     bonds the step changed. `changes` maps each changed bond to its electrons (before, after the
     step); `shifted(atom, leaving)` tells whether `atom` moved with the pair of its bond to
@@ -71,6 +86,9 @@ def carry_configuration(before: Chem.Mol, after: Chem.RWMol, changes: dict[Pair,
         made |= _set_syn_configuration(before, after, *addition)
     for ends in dienes:
         made |= _set_diene_end_configuration(before, after, *ends)
+    if configured:
+        for chain in _electrocyclic_closures(before, changes):
+            made |= _set_electrocyclic_configuration(before, after, chain, conrotatory(pairs_moved, light))
     if configured:
         for elimination in _eliminations(before, changes, formed, broken):
             _set_elimination_geometry(before, after, *elimination)
@@ -228,6 +246,88 @@ def _set_diene_end_configuration(before: Chem.Mol, after: Chem.RWMol, c1: int, c
     if _UNSPECIFIED in tags:
         return False   # two equal groups at an end: no stereocentre there
     for end, tag in zip((c1, c4), tags):
+        after.GetAtomWithIdx(end).SetChiralTag(tag)
+    return True
+
+
+_LONGEST_POLYENE = 8   # a tetraene closing to a cyclooctatriene
+
+
+def conrotatory(pairs_moved: int, light: bool) -> bool:
+    """Whether an electrocyclic step of `pairs_moved` pairs turns its termini conrotatory: under heat
+    with 4n electrons, under light with 4n+2 (Woodward-Hoffmann rules)."""
+    return (pairs_moved % 2 == 0) != light
+
+
+def electrocyclic_turn(mol: Chem.Mol, changes: dict[Pair, tuple[int, int]], pairs_moved: int,
+                       light: bool) -> Optional[str]:
+    """"conrotatory" or "disrotatory" for a step whose ring closure carry_configuration sets by
+    the Woodward-Hoffmann rules, else None (for the notes that say why a centre is configured)."""
+    if not _electrocyclic_closures(mol, changes):
+        return None
+    return "conrotatory" if conrotatory(pairs_moved, light) else "disrotatory"
+
+
+def _electrocyclic_closures(mol: Chem.Mol, changes: dict[Pair, tuple[int, int]]) -> list[list[int]]:
+    """The chain c1=c2-...=cn of each electrocyclic ring closure: the step makes one bond, c1-cn,
+    between the ends of a conjugated chain of 4 to 8 atoms whose end double bonds it makes single
+    (the two termini written E or Z), and changes no bond but those of the chain: an allowed
+    closure whose stereochemical course the Woodward-Hoffmann rules fix (a hexatriene to a
+    cyclohexadiene, a pentadienyl cation's Nazarov closure)."""
+    made = [key for key, electrons in changes.items() if electrons[0] == 0]
+    if len(made) != 1 or changes[made[0]] != (0, 2):
+        return []
+    c1, cn = made[0]
+    chain = _path_around(mol, c1, cn, _LONGEST_POLYENE - 1)
+    if chain is None or len(chain) < 4:
+        return []
+    bonds = {_pair(chain[k], chain[k + 1]) for k in range(len(chain) - 1)} | {made[0]}
+    if any(key not in bonds for key in changes):
+        return []
+    if changes.get(_pair(chain[0], chain[1])) != (4, 2) or changes.get(_pair(chain[-2], chain[-1])) != (4, 2):
+        return []
+    if written_geometry(mol, chain[0], chain[1]) is None or written_geometry(mol, chain[-1], chain[-2]) is None:
+        return []
+    return [chain]
+
+
+def _set_electrocyclic_configuration(before: Chem.Mol, after: Chem.RWMol, chain: list[int],
+                                     conrotatory: bool) -> bool:
+    """Chiral tags on the termini of `chain` as a closure turning them con- or disrotatory sets
+    them. At each terminus the group trans to the chain (outside, as its double bond is written)
+    goes above the new ring's plane after a disrotatory closure at both ends; after a conrotatory
+    one, above at the first end and below at the last. RDKit reads the tags off that model
+    (AssignStereochemistryFrom3D). Returns whether both termini got one."""
+    size = len(chain)
+    place: dict[int, tuple[float, float, float]] = {}
+    corner = {}
+    for k, atom in enumerate(chain):   # the new ring, flat, its atoms on a circle
+        angle = 2 * math.pi * k / size
+        corner[atom] = (math.cos(angle), math.sin(angle))
+        place[atom] = (1.5 * math.cos(angle), 1.5 * math.sin(angle), 0.0)
+    for k, atom in enumerate(chain):
+        ux, uy = corner[atom]
+        others = [n.GetIdx() for n in before.GetAtomWithIdx(atom).GetNeighbors() if n.GetIdx() not in chain]
+        if 0 < k < size - 1:
+            for n in others:   # a group on the chain's middle stays in the plane, pointing out
+                place[n] = (2.6 * ux, 2.6 * uy, 0.0)
+            continue
+        inner, beyond = (chain[1], chain[2]) if k == 0 else (chain[-2], chain[-3])
+        first, second, cis = written_geometry(before, atom, inner)
+        first_outside = (second == beyond) != cis   # trans to the chain: outside
+        outside_up = k == 0 or not conrotatory
+        for n in others:
+            up = outside_up == ((n == first) == first_outside)
+            place[n] = (2.2 * ux, 2.2 * uy, 1.2 if up else -1.2)
+    if len(place) != len(set(place.values())):
+        return False   # two middle groups on one atom: no plain chain
+    model = _model(after, place)
+    if model is None:
+        return False
+    tags = [model.GetAtomWithIdx(end).GetChiralTag() for end in (chain[0], chain[-1])]
+    if _UNSPECIFIED in tags:
+        return False   # two equal groups at a terminus: no stereocentre there
+    for end, tag in zip((chain[0], chain[-1]), tags):
         after.GetAtomWithIdx(end).SetChiralTag(tag)
     return True
 

@@ -868,7 +868,9 @@ CODES = _table(
          "a bromonium ion opened from the back then gives the anti product. The ends of a "
          "Diels-Alder diene written E or Z at both ends are configured the same way (suprafacial: "
          "outside groups cis), unless the dienophile's carbons are configured too (endo or exo is "
-         "not known). A concerted elimination "
+         "not known). An electrocyclic closure of a chain whose end double bonds are written E or Z "
+         "configures its termini as the Woodward-Hoffmann rules turn them (under heat 4n electrons "
+         "conrotatory, 4n+2 disrotatory; under light the reverse). A concerted elimination "
          "across two configured centres sets the new double bond's geometry: anti-periplanar (E2), or "
          "syn when the leaving group takes the hydrogen (a Cope elimination). Other new centres (an "
          "aldol's, an addition to C=O) are counted as free.",

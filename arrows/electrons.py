@@ -17,7 +17,7 @@ from rdkit import Chem
 from .diagnostics import Diagnostic
 from .model import (AtomSink, BareAtom, BondPair, BondRef, BondSink, HydrogenOn, Location, LonePair, Move, NonbondingSink, Step,
                     UnpairedElectron, CONNECTORS)
-from .configuration import carry_configuration, has_configuration, may_configure
+from .configuration import carry_configuration, has_configuration, may_configure, names_light
 from .rdkit_io import ELECTRONEGATIVITY, atom_list, valence_complaint, valence_electrons
 
 _BOND_TYPES = {1: Chem.BondType.SINGLE, 2: Chem.BondType.DOUBLE, 3: Chem.BondType.TRIPLE}
@@ -895,7 +895,9 @@ def _settle(state: ElectronState, step: Step, step_index: int, replay: _StepRepl
         def shifted(atom: int, leaving: int) -> bool:
             return any(m.source_kind == "bond" and set(m.source_atoms) == {atom, leaving} and atom in m.sink_atoms
                        for m in replay.resolved)
-        configured = carry_configuration(state.mol, work, changes, shifted, configured)
+        pairs = sum(1 for m in replay.resolved if m.electrons == 2)
+        configured = carry_configuration(state.mol, work, changes, shifted, configured, pairs,
+                                         names_light(step.over, step.under))
     valence, elements, old_nonbonding, old_bond_sums = state.valence, state.elements, state.nonbonding, state.bond_sums
     shells = change.shells
     for i in touched:

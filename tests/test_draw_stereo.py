@@ -404,7 +404,7 @@ step "[3,3] shift" under "heat"
     C1=C2 -> C2=C3
 end
 product "C/C=C/CC/C=C\\\\C"''',
-    "disrotatory closure (cis)": '''species triene = "C/[CH:1]=[CH:2]\\\\[CH:3]=[CH:4]/[CH:5]=[CH:6]/C"
+    "disrotatory closure (cis)": '''species triene = "C/[CH:1]=[CH:2]/[CH:3]=[CH:4]\\\\[CH:5]=[CH:6]\\\\C"
 step "6pi closure" under "heat"
     C1=C2 -> C2=C3
     C3=C4 -> C4=C5

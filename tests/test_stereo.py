@@ -1224,3 +1224,57 @@ def test_an_sn1_product_written_with_retention_is_flagged(written, flagged):
     if flagged:
         assert "C1 written (R), as it was before step 1" in found[0].message
         assert "planar cation" in found[0].message
+
+
+# Electrocyclic closures (Woodward & Hoffmann 1965, 1969; Clayden ch. 35; from memory): under heat
+# a 6-electron closure is disrotatory, so (2E,4Z,6E)-octa-2,4,6-triene gives cis-5,6-
+# dimethylcyclohexa-1,3-diene (meso) and a conrotatory product (trans) is wrong; under light the
+# reverse. A 4-electron closure is conrotatory under heat: (E,E)-hexa-2,4-diene gives
+# trans-3,4-dimethylcyclobutene. Cis or trans is judged by RDKit: the meso diene's two centres have
+# opposite CIP labels, the racemate's equal ones.
+_TRIENE_CLOSURE = '''species triene = "C/[CH:1]=[CH:2]/[CH:3]=[CH:4]\\\\[CH:5]=[CH:6]\\\\C"
+step "6-electron electrocyclisation" {conditions}
+    C1=C2 -> C2=C3
+    C3=C4 -> C4=C5
+    C5=C6 -> C6-C1
+end
+product "{product}"'''
+_DIENE_CLOSURE = '''species diene = "C/[CH:1]=[CH:2]/[CH:3]=[CH:4]/C"
+step "4-electron electrocyclisation" under "heat"
+    C1=C2 -> C2=C3
+    C3=C4 -> C4-C1
+end
+product "{product}"'''
+_CIS_DIENE, _TRANS_DIENE = "C[C@@H]1C=CC=C[C@@H]1C", "C[C@@H]1C=CC=C[C@H]1C"
+_CIS_CYCLOBUTENE, _TRANS_CYCLOBUTENE = "C[C@@H]1C=C[C@@H]1C", "C[C@@H]1C=C[C@H]1C"
+
+
+def _cis(smiles: str) -> bool:
+    labels = [code for _, code in Chem.FindMolChiralCenters(Chem.MolFromSmiles(smiles))]
+    return len(labels) == 2 and labels[0] != labels[1]
+
+
+@pytest.mark.parametrize("conditions, product, flagged", [
+    ('under "heat"', _CIS_DIENE, False), ('under "heat"', _TRANS_DIENE, True),
+    ('over "hv"', _TRANS_DIENE, False), ('over "hv"', _CIS_DIENE, True)],
+    ids=["heat, disrotatory cis", "heat, conrotatory trans", "light, conrotatory trans", "light, disrotatory cis"])
+def test_a_6_electron_closure_turns_its_termini_as_woodward_hoffmann_say(conditions, product, flagged):
+    assert _cis(_CIS_DIENE) and not _cis(_TRANS_DIENE)
+    found = _product_warnings(_TRIENE_CLOSURE.format(conditions=conditions, product=product))
+    assert bool(found) == flagged, [d.to_text() for d in found]
+    if flagged:
+        assert "diastereomers" in found[0].message
+
+
+@pytest.mark.parametrize("product, flagged", [(_TRANS_CYCLOBUTENE, False), (_CIS_CYCLOBUTENE, True)],
+                         ids=["conrotatory trans", "disrotatory cis"])
+def test_a_4_electron_closure_under_heat_is_conrotatory(product, flagged):
+    assert _cis(_CIS_CYCLOBUTENE) and not _cis(_TRANS_CYCLOBUTENE)
+    assert bool(_product_warnings(_DIENE_CLOSURE.format(product=product))) == flagged
+
+
+def test_the_note_names_the_turn_of_an_electrocyclic_closure():
+    _, diags = check_text(_TRIENE_CLOSURE.format(conditions='under "heat"', product=_CIS_DIENE))
+    notes = [d.message for d in diags if d.code == "AR602"]
+    assert any("electrocyclic closure, its termini turning disrotatory" in m for m in notes), notes
+    assert not any("stereoisomers can form" in m for m in notes), notes

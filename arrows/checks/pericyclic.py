@@ -16,21 +16,20 @@ whose empty or d orbitals lift the restriction. A step written `over` or `under`
 "light", "photo", "UV") is photochemical and not judged."""
 from __future__ import annotations
 
-import re
 from typing import Iterator, Optional
 
+from ..configuration import names_light
 from ..diagnostics import Diagnostic
 from ..electrons import ElectronState
 from ..trace import StepTrace
 from . import Check
 
 _FIRST_ROW_ARRAY = frozenset({1, 6, 7, 8})   # H, C, N, O: no empty or d orbital to share the pairs
-_LIGHT = re.compile(r"\bh\s?[vν]\b|light|photo|\buv\b", re.IGNORECASE)
 
 
 def photochemical(st: StepTrace) -> bool:
     """Whether the step's conditions (the text over or under its arrow) name light."""
-    return any(text and _LIGHT.search(text) for text in (st.step.over, st.step.under))
+    return names_light(st.step.over, st.step.under)
 
 
 def _cumulene_centre(state: ElectronState, atoms: set[int]) -> Optional[int]:

@@ -6,6 +6,7 @@ from typing import Iterator, Optional
 
 from rdkit import Chem
 
+from ..configuration import electrocyclic_turn, names_light
 from ..diagnostics import Diagnostic
 from ..judgement.stereo import CENTRE, StereoElement, describe, state_stereo, stereoisomer_count
 from ..rdkit_io import fragment, readable_smiles
@@ -32,6 +33,16 @@ def step_stereo(st: StepTrace, views: Optional[RecentViews] = None) -> tuple[lis
     old = state_stereo(st.before, views)
     new = state_stereo(st.after, views)
     return sorted(new - old), sorted(old - new)
+
+
+def _electrocyclic_turn(st: StepTrace) -> Optional[str]:
+    """How the step turned the termini of an electrocyclic closure it configured, else None."""
+    change = st.change
+    changes = {key: (0, 2) for key in change.formed}
+    changes.update({key: (2, 0) for key in change.broken})
+    changes.update({key: (2 * was, 2 * now) for key, was, now in change.reordered})
+    pairs = sum(1 for m in change.moves if m.electrons == 2)
+    return electrocyclic_turn(st.before.mol, changes, pairs, names_light(st.step.over, st.step.under))
 
 
 def final_stereo(trace: Trace) -> list[ProductStereo]:
@@ -139,7 +150,10 @@ class StereoChanges(Check):
             if set_here:
                 # configuration.py sets a new centre's configuration for one rule only; the others
                 # (a diene's ends when the dienophile is configured too: endo or exo is open) stay free
-                why = "configured by the step (both new bonds on one face of the double bond or diene)"
+                turn = _electrocyclic_turn(st)
+                why = (f"configured by the step (an electrocyclic closure, its termini turning {turn}: "
+                       f"Woodward-Hoffmann rules)" if turn else
+                       "configured by the step (both new bonds on one face of the double bond or diene)")
                 if len(set_here) == sum(e.kind == CENTRE for e in made):
                     parts[-1] += f", {why}"
                 else:
