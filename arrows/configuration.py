@@ -12,8 +12,9 @@ except in the steps whose stereochemical course is a textbook rule:
   With no other configuration in the state the two faces are alike, so the product is the
   racemate of the configuration drawn (a meso compound where the two centres mirror each other);
   so does a Diels-Alder diene written E or Z at both ends (suprafacial on the diene: its two
-  outside groups end up cis), unless the dienophile's own centres are configured too (endo or
-  exo is not in the bookkeeping);
+  outside groups end up cis). When the dienophile's own centres are configured too, the two
+  pairs are each fixed within themselves, but how they stand to each other (endo or exo) is
+  open: the diene's pair is marked as one that may turn over together (open_face_groups);
 - a concerted elimination across two configured centres (E2, or iodide taking bromine from a
   vicinal dibromide) breaks the two bonds anti-periplanar, and the new double bond gets the
   geometry that follows; when the atom that takes the first group is joined to the second (the
@@ -49,6 +50,30 @@ def names_light(*texts: Optional[str]) -> bool:
     return any(text and _LIGHT.search(text) for text in texts)
 
 
+_OPEN_FACE = "open_face"   # atom property: the pair of centres it belongs to turns over as one
+
+
+def open_face_groups(mol: Chem.Mol) -> list[list[int]]:
+    """The pairs of centres whose configuration is fixed relative to each other but not to the
+    other centres made with them: a Diels-Alder diene's two ends, next to its configured
+    dienophile (endo or exo is not in the bookkeeping). Each pair may be inverted as one."""
+    groups: dict[int, list[int]] = {}
+    for atom in mol.GetAtoms():
+        if atom.HasProp(_OPEN_FACE) and atom.GetChiralTag() != _UNSPECIFIED:
+            groups.setdefault(atom.GetIntProp(_OPEN_FACE), []).append(atom.GetIdx())
+    return [group for group in groups.values() if len(group) > 1]
+
+
+def turned_over(mol: Chem.Mol, atoms: Iterable[int]) -> Chem.Mol:
+    """A copy of `mol` with the chiral tags at `atoms` inverted."""
+    work = Chem.RWMol(mol)
+    for i in atoms:
+        atom = work.GetAtomWithIdx(i)
+        if atom.GetChiralTag() in _TETRAHEDRAL:
+            atom.SetChiralTag(_TETRAHEDRAL[1] if atom.GetChiralTag() == _TETRAHEDRAL[0] else _TETRAHEDRAL[0])
+    return work.GetMol()
+
+
 def has_configuration(mol: Chem.Mol) -> bool:
     """Whether a species brought a configuration (@, @@, / or \\). Most mechanisms have none, and
     then no step needs to look for one to forget."""
@@ -74,7 +99,7 @@ def carry_configuration(before: Chem.Mol, after: Chem.RWMol, changes: dict[Pair,
     whether `after` does."""
     formed, broken, other = _bond_changes(changes)
     syn = _syn_additions(before, changes, formed, configured)
-    dienes = _diene_ends(before, changes, formed, syn) if configured else []
+    dienes = _diene_ends(before, changes, formed) if configured else []
     if not configured and not syn:
         return False
     carried = _substitutions(before, formed, broken, other, shifted) if configured else {}
@@ -84,8 +109,13 @@ def carry_configuration(before: Chem.Mol, after: Chem.RWMol, changes: dict[Pair,
     made = False
     for addition in syn:
         made |= _set_syn_configuration(before, after, *addition)
+    configured_pairs = {_pair(a, b) for a, b, *_ in syn}
     for ends in dienes:
-        made |= _set_diene_end_configuration(before, after, *ends)
+        set_here = _set_diene_end_configuration(before, after, *ends)
+        if set_here and _pair(ends[4], ends[5]) in configured_pairs:
+            for end in (ends[0], ends[3]):   # endo or exo: this pair may turn over as one
+                after.GetAtomWithIdx(end).SetIntProp(_OPEN_FACE, ends[0])
+        made |= set_here
     if configured:
         for chain in _electrocyclic_closures(before, changes):
             made |= _set_electrocyclic_configuration(before, after, chain, conrotatory(pairs_moved, light))
@@ -180,16 +210,13 @@ def _syn_additions(mol: Chem.Mol, changes: dict[Pair, tuple[int, int]], formed, 
     return out
 
 
-def _diene_ends(mol: Chem.Mol, changes: dict[Pair, tuple[int, int]], formed, syn) -> list[tuple]:
+def _diene_ends(mol: Chem.Mol, changes: dict[Pair, tuple[int, int]], formed) -> list[tuple]:
     """(c1, c2, c3, c4, x, y) for each diene c1=c2-c3=c4, both double bonds written E or Z, whose
     ends bond to x and y as c2=c3 forms, nothing else changing at c1 to c4: the diene of a
     Diels-Alder reaction, which both new bonds reach from one face (suprafacial on the diene,
-    textbook). Not when x=y is a dienophile whose own carbons the syn rule configures: how the
-    two pairs of centres stand to each other (endo or exo) is not in the bookkeeping. Only in a
-    state with no configured atom, as for the syn rule."""
+    textbook). Only in a state with no configured atom, as for the syn rule."""
     if any(mol.GetAtomWithIdx(i).GetChiralTag() != _UNSPECIFIED for i in range(mol.GetNumAtoms())):
         return []
-    configured_pairs = {_pair(a, b) for a, b, *_ in syn}
     made_single = [key for key, electrons in changes.items() if electrons == (4, 2)]
 
     def across(atom: int) -> Optional[int]:
@@ -209,8 +236,7 @@ def _diene_ends(mol: Chem.Mol, changes: dict[Pair, tuple[int, int]], formed, syn
                                 (_pair(c1, c2), _pair(c2, c3), _pair(c3, c4), _pair(c1, x), _pair(c4, y))
                                 for key in changes):
             continue
-        if _pair(x, y) in configured_pairs or written_geometry(mol, c1, c2) is None \
-                or written_geometry(mol, c4, c3) is None:
+        if written_geometry(mol, c1, c2) is None or written_geometry(mol, c4, c3) is None:
             continue
         out.append((c1, c2, c3, c4, x, y))
     return out

@@ -6,7 +6,7 @@ from typing import Iterator, Optional
 
 from rdkit import Chem
 
-from ..configuration import electrocyclic_turn, names_light
+from ..configuration import electrocyclic_turn, names_light, open_face_groups
 from ..diagnostics import Diagnostic
 from ..judgement.stereo import CENTRE, StereoElement, describe, state_stereo, stereoisomer_count
 from ..rdkit_io import fragment, readable_smiles
@@ -84,7 +84,9 @@ def product_stereo(final: Optional[ElectronState], touched: set[int], views: Opt
         uncontrolled = [position[i] for i in touched if i in position and not _configured_at(final.mol, i)] \
             if final.configured else []
         piece = fragment(final.mol, indices)
-        count = stereoisomer_count(piece, uncontrolled)
+        turning = [[position[i] for i in group] for group in open_face_groups(final.mol)
+                   if all(i in position for i in group)]
+        count = stereoisomer_count(piece, uncontrolled, turning)
         if several_only and (count or 0) <= 1:
             continue
         out.append(ProductStereo(readable_smiles(piece), mine, count))
@@ -148,12 +150,13 @@ class StereoChanges(Check):
             configured = st.after.configured   # the rules below can only have acted in a configured state
             set_here = _configured_centres(st.after, made) if configured else []
             if set_here:
-                # configuration.py sets a new centre's configuration for one rule only; the others
-                # (a diene's ends when the dienophile is configured too: endo or exo is open) stay free
+                # configuration.py sets a new centre's configuration for a few rules only; the others stay free
                 turn = _electrocyclic_turn(st)
                 why = (f"configured by the step (an electrocyclic closure, its termini turning {turn}: "
                        f"Woodward-Hoffmann rules)" if turn else
                        "configured by the step (both new bonds on one face of the double bond or diene)")
+                if any(set(group) & set(set_here) for group in open_face_groups(st.after.mol)):
+                    why += "; endo or exo left open (each pair fixed within itself)"
                 if len(set_here) == sum(e.kind == CENTRE for e in made):
                     parts[-1] += f", {why}"
                 else:

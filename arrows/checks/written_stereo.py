@@ -8,12 +8,14 @@ is (the product forms as the racemate there, not as the one written)."""
 from __future__ import annotations
 
 from dataclasses import replace
+from itertools import product
 from typing import Iterator, Mapping, NamedTuple, Optional
 
 from rdkit import Chem
 
 from ..diagnostics import Diagnostic
-from ..configuration import fill_in_configuration, forget_configuration_of_bond, neighbours_round, tag_kept
+from ..configuration import (fill_in_configuration, forget_configuration_of_bond, neighbours_round, open_face_groups,
+                             tag_kept, turned_over)
 from ..electrons import ElectronState
 from ..judgement.stereo import DIASTEREOMERS, ENANTIOMERS, IDENTICAL, _mirror, cip_codes, is_chiral, relation
 from ..model import Checkpoint
@@ -251,9 +253,29 @@ def forms_racemate(trace) -> bool:
 def mismatches(state: ElectronState, checkpoint: Checkpoint, what: str, step: Optional[int],
                racemic: bool, cleared: Optional[Mapping[int, Cleared]] = None) -> list[Diagnostic]:
     """AR603 for each written piece of `checkpoint` configured otherwise than `state` has it, or
-    configured as before at a centre the steps racemised (`cleared`, ClearedCentres')."""
+    configured as before at a centre the steps racemised (`cleared`, ClearedCentres'). A pair of
+    centres the steps fix only relative to each other (a Diels-Alder diene's ends: endo or exo is
+    open) may be written either way round: none is told when one of those arrangements fits."""
     if not any(mark in checkpoint.smiles for mark in _MARKS):
         return []
+    found = _mismatches(state, checkpoint, what, step, racemic, cleared)
+    if found and any(not _mismatches(variant, checkpoint, what, step, racemic, cleared)
+                     for variant in _turned_variants(state)):
+        return []
+    return found
+
+
+def _turned_variants(state: ElectronState) -> Iterator[ElectronState]:
+    """The state with each nonempty choice of its open_face_groups inverted."""
+    groups = open_face_groups(state.mol)
+    for choice in product((False, True), repeat=len(groups)):
+        if any(choice):
+            atoms = [i for group, turn in zip(groups, choice) if turn for i in group]
+            yield replace(state, mol=turned_over(state.mol, atoms), judged={})
+
+
+def _mismatches(state: ElectronState, checkpoint: Checkpoint, what: str, step: Optional[int],
+                racemic: bool, cleared: Optional[Mapping[int, Cleared]]) -> list[Diagnostic]:
     written_mol = Chem.MolFromSmiles(checkpoint.smiles)
     if written_mol is None:
         return []   # unreadable: CheckpointsMatch says so
@@ -319,8 +341,9 @@ def mismatches(state: ElectronState, checkpoint: Checkpoint, what: str, step: Op
 
 def final_state_as_written(trace) -> Optional[ElectronState]:
     """The last state of a replayed mechanism configured as its `product` is written where the
-    steps leave a centre or double bond unset (a conrotatory ring opening's Z alkene, an endo
-    adduct's methyls, a Felkin addition's new centre: outcomes the bookkeeping does not derive),
+    steps leave a centre or double bond unset (a conrotatory ring opening's Z alkene, a Felkin
+    addition's new centre: outcomes the bookkeeping does not derive), and in the arrangement it
+    writes of the pairs the steps leave open (endo or exo),
     for the product panel to draw. Only when the written configuration agrees with every element
     the steps do configure (no AR603); a racemate's pieces take the written relative
     configuration, the steps' own centres kept. None when nothing is added."""
@@ -335,6 +358,11 @@ def final_state_as_written(trace) -> Optional[ElectronState]:
         cleared.after(st)
     if mismatches(final, product, "product", None, watch.racemic, cleared.centres):
         return None
+    turned = bool(_mismatches(final, product, "product", None, watch.racemic, cleared.centres))
+    if turned:
+        # endo or exo, as written: the arrangement of the open pairs that fits it
+        final = next(variant for variant in _turned_variants(final)
+                     if not _mismatches(variant, product, "product", None, watch.racemic, cleared.centres))
     try:
         written = _pieces(Chem.MolFromSmiles(product.smiles))
         derived = _pieces(final.mol, written)
@@ -354,7 +382,7 @@ def final_state_as_written(trace) -> Optional[ElectronState]:
             written_piece = _mirror(written_piece)   # the enantiomer that fits the steps' centres
         origins = [derived_piece.GetAtomWithIdx(d).GetIntProp(_ORIGIN) for d in pairing]
         changed |= fill_in_configuration(work, written_piece, origins)
-    if not changed:
+    if not changed and not turned:
         return None
     return replace(final, mol=work.GetMol(), configured=True, judged={})
 

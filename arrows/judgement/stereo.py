@@ -11,10 +11,11 @@ from __future__ import annotations
 from dataclasses import dataclass
 from functools import lru_cache
 from itertools import combinations, product
-from typing import Iterable, Optional
+from typing import Iterable, Optional, Sequence
 
 from rdkit import Chem
 
+from ..configuration import turned_over
 from ..electrons import ElectronState
 from ..rdkit_io import fragment, potential_stereo
 from .perception import Perceived, RecentViews, perceive
@@ -238,9 +239,12 @@ def _distinct_ends(mol: Chem.Mol, ranks, atom: int, partner: int) -> bool:
 MAX_ENUMERATED = 12     # stereo elements; beyond that the count is the upper bound 2**n
 
 
-def stereoisomer_count(mol: Chem.Mol, uncontrolled: Iterable[int] = ()) -> Optional[int]:
+def stereoisomer_count(mol: Chem.Mol, uncontrolled: Iterable[int] = (),
+                       turning: Sequence[Sequence[int]] = ()) -> Optional[int]:
     """How many stereoisomers of `mol` (one fragment) are possible when the configuration of
-    every unspecified element, and of every element at an atom in `uncontrolled`, is left open.
+    every unspecified element, and of every element at an atom in `uncontrolled`, is left open,
+    and each group of centres in `turning` (configured relative to each other only: a
+    Diels-Alder diene's ends, endo or exo open) may be inverted as one.
 
     Every assignment of the open elements is cleaned up by RDKit's stereo perception (which drops
     the descriptors an assignment makes meaningless: meso and pseudo-asymmetric cases) and written
@@ -248,9 +252,11 @@ def stereoisomer_count(mol: Chem.Mol, uncontrolled: Iterable[int] = ()) -> Optio
     unique=True; doing it here spares `arrows check` that module's import of RDKit's embedding
     code and numpy (about 0.3 s of start-up). tests/test_stereo.py holds the two to the same counts.
     """
-    plain, _ = _plain(mol, uncontrolled)
+    plain, original = _plain(mol, uncontrolled)
     if plain is None:
         return None     # RDKit cannot perceive this structure: the count is unknown
+    position = {old: new for new, old in enumerate(original)}
+    groups = [[position[i] for i in group if i in position] for group in turning]
     for i in range(plain.GetNumAtoms()):   # map numbers would keep mirror-image duplicates apart
         plain.GetAtomWithIdx(i).SetAtomMapNum(0)
     ranks = list(Chem.CanonicalRankAtoms(plain, breakTies=False))
@@ -262,8 +268,11 @@ def stereoisomer_count(mol: Chem.Mol, uncontrolled: Iterable[int] = ()) -> Optio
     if len(open_elements) > MAX_ENUMERATED:
         return 2 ** len(open_elements)
     written = set()
-    for bits in product((False, True), repeat=len(open_elements)):
+    for bits in product((False, True), repeat=len(open_elements) + len(groups)):
         work = Chem.RWMol(plain)
+        for group, turn in zip(groups, bits[len(open_elements):]):
+            if turn:
+                work = Chem.RWMol(turned_over(work, group))
         try:
             for info, bit in zip(open_elements, bits):
                 _assign(work, info, bit)
