@@ -23,7 +23,7 @@ from typing import Optional, Sequence
 import numpy as np
 
 from .branches import side_beyond
-from .plane import distance_to_segment, segments_cross
+from .plane import segments_cross
 
 _ON_A_BOND = 0.25     # a skeletal vertex this near a bond not its own reads as lying on it (as scheme's note)
 _LABEL_ON_A_BOND = 0.45   # and a label (an N, an O): half its width and a little
@@ -43,11 +43,26 @@ def _adjacent(bonds: set[tuple[int, int]], atoms: set[int]) -> dict[int, set[int
 
 
 def _distances(points: np.ndarray, starts: np.ndarray, ends: np.ndarray) -> np.ndarray:
-    """Distance from each point (rows) to each segment (columns)."""
+    """Distance from each point (rows) to each segment (columns); any leading axes (panels) are
+    kept."""
     along = ends - starts
     length2 = np.maximum((along * along.conjugate()).real, 1e-18)
-    t = np.clip(((points[:, None] - starts[None, :]) * along.conjugate()[None, :]).real / length2[None, :], 0.0, 1.0)
-    return np.abs(points[:, None] - (starts[None, :] + t * along[None, :]))
+    t = np.clip(((points[..., :, None] - starts[..., None, :]) * along.conjugate()[..., None, :]).real
+                / length2[..., None, :], 0.0, 1.0)
+    return np.abs(points[..., :, None] - (starts[..., None, :] + t * along[..., None, :]))
+
+
+def _crossing(starts: np.ndarray, ends: np.ndarray) -> np.ndarray:
+    """[..., n, m]: whether segments n and m cross, each with the other's ends on either side of its
+    line (segments that share an end have a side of exactly 0 there, and cross nothing); any
+    leading axes (panels) are kept. Every pair at once: numpy's cost is per call."""
+    dx, dy = (ends - starts).real, (ends - starts).imag
+    sx, sy, ex, ey = starts.real, starts.imag, ends.real, ends.imag
+    start_side = ((sy[..., None, :] - sy[..., :, None]) * dx[..., :, None]
+                  - (sx[..., None, :] - sx[..., :, None]) * dy[..., :, None])
+    end_side = (ey[..., None, :] - sy[..., :, None]) * dx[..., :, None] - (ex[..., None, :] - sx[..., :, None]) * dy[..., :, None]
+    straddles = start_side * end_side < 0        # [n, m]: segment m's ends on either side of segment n's line
+    return straddles & np.swapaxes(straddles, -1, -2)
 
 
 def _first_fault(here: dict[int, complex], bonds: list[tuple[int, int]], labelled: frozenset[int]
@@ -66,15 +81,8 @@ def _first_fault(here: dict[int, complex], bonds: list[tuple[int, int]], labelle
         a, (i, j) = atoms[r], bonds[c]
         if a != i and a != j:
             return frozenset((a, i, j))
-    # Every pair of bonds at once (numpy's cost is per call), the first crossing pair in the
-    # order a loop over pairs would meet it.
-    dx, dy = (ends - starts).real, (ends - starts).imag
-    sx, sy, ex, ey = starts.real, starts.imag, ends.real, ends.imag
-    start_side = (sy[None, :] - sy[:, None]) * dx[:, None] - (sx[None, :] - sx[:, None]) * dy[:, None]
-    end_side = (ey[None, :] - sy[:, None]) * dx[:, None] - (ex[None, :] - sx[:, None]) * dy[:, None]
-    straddles = start_side * end_side < 0        # [n, m]: bond m's ends on either side of bond n's line
-    crossing = np.triu(straddles & straddles.T, 1)
-    for n, m in zip(*np.nonzero(crossing)):
+    # The first crossing pair in the order a loop over pairs would meet it.
+    for n, m in zip(*np.nonzero(np.triu(_crossing(starts, ends), 1))):
         (i, j), (a, b) = bonds[n], bonds[m]
         if len({i, j, a, b}) == 4:
             return frozenset((i, j, a, b))
@@ -105,21 +113,9 @@ def _faultless(positions: Sequence[dict[int, complex]], bonds: Sequence[list[tup
             starts[k, :len(drawn)] = [here[i] for i, _ in drawn]
             ends[k, :len(drawn)] = [here[j] for _, j in drawn]
             ends_ids[k, :len(drawn)] = drawn
-    along = ends - starts
-    length2 = np.maximum((along * along.conjugate()).real, 1e-18)
-    t = np.clip(((points[:, :, None] - starts[:, None, :]) * along.conjugate()[:, None, :]).real
-                / length2[:, None, :], 0.0, 1.0)
-    distance = np.abs(points[:, :, None] - (starts[:, None, :] + t * along[:, None, :]))
     own = (ids[:, :, None] == ends_ids[:, None, :, 0]) | (ids[:, :, None] == ends_ids[:, None, :, 1])
-    on_a_bond = ((distance < reach[:, :, None]) & ~own).any(axis=(1, 2))
-    # Two bonds cross where each has the other's ends on either side of its line (bonds that
-    # share an atom have a side of exactly 0 there, and cross nothing).
-    dx, dy, sx, sy, ex, ey = along.real, along.imag, starts.real, starts.imag, ends.real, ends.imag
-    start_side = (sy[:, None, :] - sy[:, :, None]) * dx[:, :, None] - (sx[:, None, :] - sx[:, :, None]) * dy[:, :, None]
-    end_side = (ey[:, None, :] - sy[:, :, None]) * dx[:, :, None] - (ex[:, None, :] - sx[:, :, None]) * dy[:, :, None]
-    straddles = start_side * end_side < 0
-    crossing = (straddles & straddles.transpose(0, 2, 1)).any(axis=(1, 2))
-    return (~(on_a_bond | crossing)).tolist()
+    on_a_bond = ((_distances(points, starts, ends) < reach[:, :, None]) & ~own).any(axis=(1, 2))
+    return (~(on_a_bond | _crossing(starts, ends).any(axis=(1, 2)))).tolist()
 
 
 def _room(here: dict[int, complex], bonds: list[tuple[int, int]], side: set[int]) -> float:
