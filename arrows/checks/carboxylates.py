@@ -17,6 +17,8 @@ from __future__ import annotations
 
 from typing import Iterator, Optional
 
+from rdkit import Chem
+
 from ..diagnostics import Diagnostic
 from ..electrons import nameable
 from ..trace import StepTrace
@@ -118,13 +120,8 @@ def _ketone_beside(st: StepTrace, centre: int) -> Optional[int]:
     """A nameable aldehyde or ketone carbon of the carboxylate's molecule: the electrophile likely meant."""
     before = st.before
     mol = before.mol
-    seen, todo = {centre}, [centre]
-    while todo:   # the carboxylate's molecule, bond by bond
-        for n in mol.GetAtomWithIdx(todo.pop()).GetNeighbors():
-            if n.GetIdx() not in seen:
-                seen.add(n.GetIdx())
-                todo.append(n.GetIdx())
-    for k in sorted(seen - {centre}):
+    molecule = next(set(f) for f in Chem.GetMolFrags(mol, asMols=False, sanitizeFrags=False) if centre in f)
+    for k in sorted(molecule - {centre}):
         if before.elements[k] != 6 or not nameable(mol, k) or _carboxylate(before, k) is not None:
             continue
         atom = mol.GetAtomWithIdx(k)

@@ -360,8 +360,7 @@ def _next_to_cation(state, atom: int) -> bool:
         return False   # no cation anywhere (most states): the neighbours need not be read off the Mol
     for n in state.mol.GetAtomWithIdx(atom).GetNeighbors():
         i = n.GetIdx()
-        if i in cations and state.nonbonding[i] == 0 and not any(
-                state.formal_charge(m.GetIdx()) < 0 for m in n.GetNeighbors()):
+        if i in cations and state.nonbonding[i] == 0 and _charged_alone(state, i):
             return True   # (a nitro group's N+, its charge balanced by its own O-, is no cation)
         if any(b.GetBondType() == Chem.BondType.DOUBLE and b.GetOtherAtomIdx(i) in cations
                and b.GetOtherAtomIdx(i) != atom for b in n.GetBonds()):

@@ -356,13 +356,14 @@ def final_state_as_written(trace) -> Optional[ElectronState]:
         watch.before(st)
         watch.after(st)
         cleared.after(st)
-    if mismatches(final, product, "product", None, watch.racemic, cleared.centres):
-        return None
+    # mismatches() unrolled, so each arrangement is compared once
     turned = bool(_mismatches(final, product, "product", None, watch.racemic, cleared.centres))
     if turned:
         # endo or exo, as written: the arrangement of the open pairs that fits it
-        final = next(variant for variant in _turned_variants(final)
-                     if not _mismatches(variant, product, "product", None, watch.racemic, cleared.centres))
+        final = next((variant for variant in _turned_variants(final)
+                      if not _mismatches(variant, product, "product", None, watch.racemic, cleared.centres)), None)
+        if final is None:
+            return None   # no arrangement fits: AR603
     try:
         written = _pieces(Chem.MolFromSmiles(product.smiles))
         derived = _pieces(final.mol, written)
