@@ -1633,14 +1633,14 @@ class _LayoutBuilder:
                 # ends facing each other across a gap, not stretched out with the arrow spanning it.
                 local = self._straightened(self._depict(group, bonds, range(start, end + 1), closing),
                                            bonds, closing, range(start, end + 1))
+            pieces = _UnionFind(group)
+            for i, j in bonds:
+                pieces.join(i, j)
             if not runs:
-                local = self._diene_facing(group, bonds, end, local)
-                local = self._pieces_facing(local, group, bonds, end)
+                local = self._diene_facing(group, bonds, end, local, pieces)
+                local = self._pieces_facing(local, group, bonds, end, pieces)
             if runs:
                 # RDKit lays separate pieces side by side at will: each piece is aligned on its own.
-                pieces = _UnionFind(group)
-                for i, j in bonds:
-                    pieces.join(i, j)
                 aligned: dict[int, complex] = {}
                 for piece in pieces.groups():
                     part = {a: local[a] for a in piece}
@@ -1653,22 +1653,15 @@ class _LayoutBuilder:
         return runs[0][1], runs[1:]
 
     def _pieces_facing(self, local: dict[int, complex], group: list[int], bonds: set[tuple[int, int]],
-                       last: int) -> dict[int, complex]:
-        """`local` (the first run's depiction, drawn from `bonds`) with the smaller of two separate
+                       last: int, pieces: _UnionFind) -> dict[int, complex]:
+        """`local` (the first run's depiction, drawn from `bonds`, its `pieces`) with the smaller of two separate
         pieces that the step after panel `last` bonds together by one bond turned and moved to
         face the other, each atom of the new bond in its free gap (a ketene facing the imine
         nitrogen that adds to it), where RDKit, which lays separate pieces side by side at will,
         turned one of those atoms away from the other or set the piece on the other's atoms or
         behind its bonds (an alcohol over an acetoxy group of the periodinane it adds to).
         Unchanged for anything else."""
-        pieces = _UnionFind(group)
-        for i, j in bonds:
-            pieces.join(i, j)
-        if len(pieces.groups()) != 2 or last + 1 >= self.n:
-            return local
-        members = set(group)
-        joining = [(i, j) for i, j in self.bonds_in[last + 1] - self.bonds_in[last]
-                   if i in members and j in members and pieces.find(i) != pieces.find(j)]
+        joining = self._joining_pieces(group, last, pieces)
         if len(joining) != 1:
             return local
         small, large = sorted(pieces.groups(), key=len)
@@ -1714,27 +1707,19 @@ class _LayoutBuilder:
         return best
 
     def _diene_facing(self, group: list[int], bonds: set[tuple[int, int]], last: int,
-                      local: dict[int, complex]) -> dict[int, complex]:
-        """`local` (the first run's depiction, drawn from `bonds`, two separate pieces) with a diene
+                      local: dict[int, complex], pieces: _UnionFind) -> dict[int, complex]:
+        """`local` (the first run's depiction, drawn from `bonds`, its two separate `pieces`) with a diene
         that the step after panel `last` joins to the other piece by both its ends (a Diels-Alder
         whose dienophile, written E, keeps the cluster from being drawn as the adduct's ring)
         redrawn s-cis and set with its ends facing the two atoms they bond to, the forming bonds
         a bond length long (_hold_apart opens them). Chemists draw a diene about to take part in
         a cycloaddition s-cis, its ends towards the dienophile (common practice); RDKit draws
         buta-1,3-diene s-trans. Unchanged for anything else."""
-        if last + 1 >= self.n:
+        joining = self._joining_pieces(group, last, pieces)
+        if len(joining) != 2:
             return local
-        pieces = _UnionFind(group)
-        for i, j in bonds:
-            pieces.join(i, j)
-        if len(pieces.groups()) != 2:
-            return local
-        joining = [(i, j) for i, j in self.bonds_in[last + 1] - self.bonds_in[last]
-                   if pieces.find(i) != pieces.find(j) and i in local and j in local]
-        if len(joining) != 2 or pieces.find(joining[0][0]) == pieces.find(joining[1][1]):
-            joining = [joining[0], joining[1][::-1]] if len(joining) == 2 else joining
-        if len(joining) != 2 or pieces.find(joining[0][0]) != pieces.find(joining[1][0]):
-            return local
+        if pieces.find(joining[0][0]) != pieces.find(joining[1][0]):
+            joining = [joining[0], joining[1][::-1]]   # (each bond joins the two pieces: now both start in one)
         (d1, e1), (d4, e2) = joining
         if self._heavy_path_length(d1, d4, last, set(group)) == 1:
             (e1, d1), (e2, d4) = joining   # the diene is the other piece
@@ -1759,6 +1744,15 @@ class _LayoutBuilder:
             if room > best_room:
                 best, best_room = {**rest, **placed}, room
         return best
+
+    def _joining_pieces(self, group: list[int], last: int, pieces: _UnionFind) -> list[tuple[int, int]]:
+        """The bonds the step after panel `last` makes between the two separate `pieces` of
+        `group` (none unless there are exactly two)."""
+        if last + 1 >= self.n or len(pieces.groups()) != 2:
+            return []
+        members = set(group)
+        return [(i, j) for i, j in self.bonds_in[last + 1] - self.bonds_in[last]
+                if i in members and j in members and pieces.find(i) != pieces.find(j)]
 
     def _around_joining_atom(self, local: dict[int, complex], large: list[int], bonds: set[tuple[int, int]],
                              atom: int, free: complex, last: int) -> tuple[np.ndarray, np.ndarray]:

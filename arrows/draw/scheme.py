@@ -547,8 +547,7 @@ def _cramped_hooks(scene: Scene) -> tuple[str, ...]:
     notes = []
     for panel in scene.panels:
         for arrow in panel.arrows:
-            if not (arrow.source_kind == "bond" and len(arrow.sink_atoms) == 1
-                    and arrow.sink_atoms[0] in arrow.source_atoms):
+            if not to_own_atom(arrow):   # (the arrow carries its move's kind and atoms)
                 continue
             points = arrow.path_points(16)   # (within 1% of the length at 40 samples; a quarter of the cost)
             length = sum(math.dist(a, b) for a, b in zip(points, points[1:])) / scene.bond_length
