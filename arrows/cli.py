@@ -64,7 +64,7 @@ def cli():
 
 
 def main() -> None:
-    from .batch.parallel import terminate_as_interrupt
+    from .interrupts import terminate_as_interrupt
     from .rdkit_io import quiet_rdkit   # only the command line silences a library's log
     quiet_rdkit()
     try:
@@ -97,7 +97,7 @@ def main() -> None:
 
 
 def _stopped(interrupt: KeyboardInterrupt) -> None:
-    from .batch.parallel import Terminated
+    from .interrupts import Terminated
     if isinstance(interrupt, Terminated):
         click.echo("terminated", err=True)
         raise SystemExit(EXIT_TERMINATED)

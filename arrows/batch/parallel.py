@@ -13,10 +13,11 @@ import sys
 import threading
 import time
 from collections import deque
-from contextlib import contextmanager
 from concurrent.futures import ProcessPoolExecutor
 from concurrent.futures.process import BrokenProcessPool
 from typing import Callable, Iterable, Iterator, Optional, TypeVar
+
+from ..interrupts import Terminated
 
 T = TypeVar("T")
 R = TypeVar("R")
@@ -72,29 +73,6 @@ def _watch_parent(parent: int, every: float = 0.5) -> None:
     while os.getppid() == parent:
         time.sleep(every)
     os._exit(1)
-
-
-class Terminated(KeyboardInterrupt):
-    """SIGTERM, raised in the main thread as Ctrl-C is, so that outputs are left as they were
-    (arrows.atomic removes its temporaries) and the pool's workers are stopped at once."""
-
-
-@contextmanager
-def terminate_as_interrupt() -> Iterator[None]:
-    """While the block runs, SIGTERM raises Terminated (in the main thread only, where Python
-    delivers signals); its handler before is put back after."""
-    if threading.current_thread() is not threading.main_thread():
-        yield
-        return
-
-    def raise_terminated(signum, frame):
-        raise Terminated()
-
-    before = signal.signal(signal.SIGTERM, raise_terminated)
-    try:
-        yield
-    finally:
-        signal.signal(signal.SIGTERM, before)
 
 
 def _bounded(submit: Callable[[T], object], wait: Callable[[object], R], items: Iterable[T],

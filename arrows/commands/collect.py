@@ -67,7 +67,8 @@ def collect_command(inputs, output, style, paper, flow, prefix, title, authors, 
     from .. import __version__
     from ..batch.collection import FOLDER_SUFFIX, CollectSettings, OutputInUse, collect
     from ..batch.pages import Front
-    from ..batch.parallel import Terminated, WorkerDied, default_jobs
+    from ..batch.parallel import WorkerDied, default_jobs
+    from ..interrupts import Terminated
     from ..cli import EXIT_INTERRUPTED, EXIT_TERMINATED
     from ..batch.reports import write_junit, write_report
     from ..batch.sources import NoSources, find_sources
