@@ -274,16 +274,39 @@ def _turned_variants(state: ElectronState) -> Iterator[ElectronState]:
             yield replace(state, mol=turned_over(state.mol, atoms), judged={})
 
 
-def _mismatches(state: ElectronState, checkpoint: Checkpoint, what: str, step: Optional[int],
-                racemic: bool, cleared: Optional[Mapping[int, Cleared]]) -> list[Diagnostic]:
-    written_mol = Chem.MolFromSmiles(checkpoint.smiles)
+_COMPARED = "written pieces"   # the key of _compared's comparison among a state's judgements
+
+
+def _compared(state: ElectronState, smiles: str) -> Optional[tuple[dict[str, _Piece], dict[str, _Piece]]]:
+    """_pieces_compared, kept with the state (judged): the drawing of the product panel starts
+    from the check's comparison of the product (final_state_as_written)."""
+    state.judged[(_COMPARED, smiles)] = found = _pieces_compared(state, smiles)
+    return found
+
+
+def _pieces_compared(state: ElectronState, smiles: str) -> Optional[tuple[dict[str, _Piece], dict[str, _Piece]]]:
+    """The written pieces of `smiles` and the pieces of `state` of their constitutions (_pieces);
+    None when RDKit cannot read the SMILES (CheckpointsMatch says so) or will not perceive the
+    state (an intermediate says nothing either way)."""
+    written_mol = Chem.MolFromSmiles(smiles)
     if written_mol is None:
-        return []   # unreadable: CheckpointsMatch says so
+        return None
     try:
         written = _pieces(written_mol)
-        derived = _pieces(state.mol, written)
-    except Exception:   # an intermediate RDKit will not perceive says nothing either way
-        return []
+        return written, _pieces(state.mol, written)
+    except Exception:
+        return None
+
+
+def _mismatches(state: ElectronState, checkpoint: Checkpoint, what: str, step: Optional[int],
+                racemic: bool, cleared: Optional[Mapping[int, Cleared]],
+                compared: Optional[tuple[dict[str, _Piece], dict[str, _Piece]]] = None) -> list[Diagnostic]:
+    """`compared`: _compared(state, checkpoint.smiles), when the caller has it already."""
+    if compared is None:
+        compared = _compared(state, checkpoint.smiles)
+        if compared is None:
+            return []
+    written, derived = compared
     found = []
     for constitution, (smiles, configured, _) in written.items():
         if not configured or constitution not in derived:
@@ -339,6 +362,13 @@ def _mismatches(state: ElectronState, checkpoint: Checkpoint, what: str, step: O
     return found
 
 
+def _configured_otherwise(written: dict[str, _Piece], derived: dict[str, _Piece]) -> list[tuple[str, str]]:
+    """(constitution, written SMILES) of each configured written piece whose derived piece
+    (`_compared`'s) has other SMILES: configured otherwise, or left unset by the steps."""
+    return [(constitution, piece.smiles) for constitution, piece in written.items()
+            if piece.configured and constitution in derived and derived[constitution].smiles != piece.smiles]
+
+
 def final_state_as_written(trace) -> Optional[ElectronState]:
     """The last state of a replayed mechanism configured as its `product` is written where the
     steps leave a centre or double bond unset (a conrotatory ring opening's Z alkene, a Felkin
@@ -351,29 +381,34 @@ def final_state_as_written(trace) -> Optional[ElectronState]:
     final = trace.steps[-1].after if trace.steps else None
     if product is None or final is None or not any(mark in product.smiles for mark in _MARKS):
         return None
+    # mismatches() unrolled, so each arrangement is compared once, and its pieces are kept for the
+    # filling in below; the check's comparison of the product is taken when it made one (a drawing
+    # keeps none of its own)
+    compared = final.judged.get((_COMPARED, product.smiles)) or _pieces_compared(final, product.smiles)
+    if compared is None:
+        return None   # unreadable, or a state RDKit will not perceive: drawn as the steps leave it
+    if not _configured_otherwise(*compared):
+        return None   # every piece as written: neither mismatched nor left to fill in
     watch, cleared = ChiralityWatch(), ClearedCentres()
     for st in trace.steps:
         watch.before(st)
         watch.after(st)
         cleared.after(st)
-    # mismatches() unrolled, so each arrangement is compared once
-    turned = bool(_mismatches(final, product, "product", None, watch.racemic, cleared.centres))
+    turned = bool(_mismatches(final, product, "product", None, watch.racemic, cleared.centres, compared))
     if turned:
         # endo or exo, as written: the arrangement of the open pairs that fits it
-        final = next((variant for variant in _turned_variants(final)
-                      if not _mismatches(variant, product, "product", None, watch.racemic, cleared.centres)), None)
-        if final is None:
+        for variant in _turned_variants(final):
+            compared = _pieces_compared(variant, product.smiles)
+            if compared is None:
+                return None
+            if not _mismatches(variant, product, "product", None, watch.racemic, cleared.centres, compared):
+                final = variant
+                break
+        else:
             return None   # no arrangement fits: AR603
-    try:
-        written = _pieces(Chem.MolFromSmiles(product.smiles))
-        derived = _pieces(final.mol, written)
-    except Exception:   # unreadable, or a state RDKit will not perceive: drawn as the steps leave it
-        return None
     work = Chem.RWMol(final.mol)
     changed = False
-    for constitution, (smiles, configured, _) in written.items():
-        if not configured or constitution not in derived or derived[constitution].smiles == smiles:
-            continue
+    for constitution, smiles in _configured_otherwise(*compared):
         paired = _paired(final.mol, smiles, constitution)
         if paired is None:
             continue

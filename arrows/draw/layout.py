@@ -554,6 +554,12 @@ class _Placements:
         hydrogen it takes, would cross one of the walls."""
         if not len(self.walls):
             return [False] * len(targets)
+        if len(targets) == 1:
+            # One spot (a hop's first, which usually settles it): crosses_any's arithmetic in
+            # plain Python, a few walls costing less than numpy's calls.
+            target, ahead = complex(targets[0]), directions[0]
+            p, q = (self.anchor_at, target - ahead) if self.carries_hydrogen else (target, self.anchor_at + ahead)
+            return [any(segments_cross(p, q, a, b) for a, b in self.walls.tolist())]
         ahead = np.array(directions, dtype=complex)
         if self.carries_hydrogen:
             return crosses_any(np.full(len(targets), self.anchor_at), targets - ahead, self.walls)
@@ -731,6 +737,8 @@ class _LayoutBuilder:
             self.orders_in.append(orders)
             self.holders.append(holders)
             self.bonds_in.append(set(orders))
+        # Per step: the bonds it breaks (_opens_small_ring asks for every cluster).
+        self.broken = [self.bonds_in[k] - self.bonds_in[k + 1] for k in range(self.n - 1)]
         self.leaving = self._heterolyses(moves)
         # The double bonds a species wrote E or Z for, which the depiction must draw so.
         self.written_double = _written_double_bonds(self.states)
@@ -778,6 +786,7 @@ class _LayoutBuilder:
         self._find_clusters()
         self.residences = self._residences()
         self.events = self._events()    # fixed from here on: placing moves clusters, not bonds or hydrogens
+        self.events_in_order: dict[tuple[str, ...], list[tuple]] = {}   # _place_by_events's, by the kinds it takes
         for k, cluster in enumerate(self.clusters):
             cluster.segments = self._segments(k)
             cluster.segment_at = {panel: seg for seg in cluster.segments for panel in range(seg[0], seg[1] + 1)}
@@ -1055,15 +1064,16 @@ class _LayoutBuilder:
         self.room_kept = self._room_to_keep(clusters)
         self.fed_slots = self._slots_for_fed_hydrogens(clusters)
         self.clusters = [_Cluster(g, self._depict(g)) for g in clusters]
+        everywhere = range(self.n)
         for cluster in self.clusters:
-            if (not self._even(cluster.local, cluster.atoms, range(self.n)) or self._bends(cluster.atoms)
-                    or self._squeezes_a_ring(cluster.local, cluster.atoms, range(self.n),
-                                             self._in_group(cluster.atoms, range(self.n)))
+            own_bonds = self._in_group(cluster.atoms, everywhere)   # (worked out once for the tests below)
+            if (not self._even(cluster.local, cluster.atoms, everywhere, own_bonds) or self._bends(cluster.atoms)
+                    or self._squeezes_a_ring(cluster.local, cluster.atoms, everywhere, own_bonds)
                     or self._bent_where_straight(cluster.local, cluster.atoms)
-                    or not self._shows_written_geometry(cluster.local, cluster.atoms, range(self.n))
-                    or self._draws_chain_alkene_cis(cluster.local, cluster.atoms, range(self.n))
+                    or not self._shows_written_geometry(cluster.local, cluster.atoms, everywhere)
+                    or self._draws_chain_alkene_cis(cluster.local, cluster.atoms, everywhere)
                     or any(self._opens_small_ring(cluster.atoms, k) for k in range(self.n - 1))
-                    or self._bonds_cross(cluster.local, self._in_group(cluster.atoms, range(self.n)))):
+                    or self._bonds_cross(cluster.local, own_bonds)):
                 cluster.local, cluster.phases = self._phases(cluster.atoms)
         self.cluster_of = {a: k for k, c in enumerate(self.clusters) for a in c.atoms}
         # Partners that meet in one step first (the depiction may be turned for them), then those
@@ -1493,9 +1503,13 @@ class _LayoutBuilder:
                         return True
         return False
 
-    def _even(self, local: dict[int, complex], group: list[int], panels: Iterable[int]) -> bool:
-        """Every bond among `group` in `panels` within 2% of one bond length in `local`."""
-        return all(abs(abs(local[i] - local[j]) - 1.0) <= 0.02 for i, j in self._in_group(group, panels))
+    def _even(self, local: dict[int, complex], group: list[int], panels: Iterable[int],
+              bonds: Optional[set[tuple[int, int]]] = None) -> bool:
+        """Every bond among `group` in `panels` within 2% of one bond length in `local`. `bonds`:
+        those bonds, where the caller has them already."""
+        if bonds is None:
+            bonds = self._in_group(group, panels)
+        return all(abs(abs(local[i] - local[j]) - 1.0) <= 0.02 for i, j in bonds)
 
     def _chain_double_bonds(self) -> dict[tuple[int, int], tuple[int, int, list[int]]]:
         """(i, j) -> (a, b, panels): a C=C that is double in `panels`, not written E or Z, in no
@@ -1507,11 +1521,13 @@ class _LayoutBuilder:
             if order != 2 or (i, j) in self.written_double or self.element[i] != 6 or self.element[j] != 6:
                 continue
             for k in range(self.n):
-                if self.orders_in[k].get((i, j)) != 2 or self._in_cyclic_array(i, j, k):
+                if self.orders_in[k].get((i, j)) != 2:
                     continue
                 heavy = [[n for n in self.neighbours[end] if n != other and self.element[n] != 1
                           and (min(end, n), max(end, n)) in self.bonds_in[k]] for end, other in ((i, j), (j, i))]
-                if len(heavy[0]) != 1 or len(heavy[1]) != 1 or self._joined_around(i, j, k):
+                # (the substituents counted first: most ring and chain-end bonds stop there, unsearched)
+                if len(heavy[0]) != 1 or len(heavy[1]) != 1 or self._in_cyclic_array(i, j, k) \
+                        or self._joined_around(i, j, k):
                     continue
                 if self._linear(i, range(k, k + 1)) or self._linear(j, range(k, k + 1)):
                     continue   # an allene's end: its neighbours stand in line, neither cis nor trans
@@ -1788,7 +1804,7 @@ class _LayoutBuilder:
         (the methoxide on a Favorskii cyclopropanone): placed once for both panels, it would be
         left behind; nor as the step closes a ring of the group."""
         members = set(group)
-        if not any(i in members and j in members for i, j in self.bonds_in[k] - self.bonds_in[k + 1]):
+        if not any(i in members and j in members for i, j in self.broken[k]):
             return False   # (most steps break no bond of the group: the rest is not asked)
         if any((i in members) != (j in members) and self.element[i] != 1 and self.element[j] != 1
                for i, j in self.bonds_in[k] & self.bonds_in[k + 1]):
@@ -1982,7 +1998,10 @@ class _LayoutBuilder:
                 bond.SetStereo(Chem.BondStereo.STEREOCIS if cis else Chem.BondStereo.STEREOTRANS)
         for atom in straight:   # the depictor draws an atom straight (a nitrile, an alkyne, an allene) only if told
             mol.GetAtomWithIdx(index[atom]).SetHybridization(Chem.HybridizationType.SP)
-        smallest = [list(r) for r in Chem.GetSymmSSSR(mol)]
+        # The symmetrised SSSR, which the depictor reads, is also kept in the Mol's ring info:
+        # read back from there as tuples, as RDKit's own vector of rings iterates in Python.
+        Chem.GetSymmSSSR(mol)
+        smallest = [list(r) for r in mol.GetRingInfo().AtomRings()]
         self.rings += [ring for ring in ([group[k] for k in r] for r in smallest if max(r) < len(group))
                        if ring not in self.rings]   # (a ring through a stand-in is not one of the scheme's)
         rdDepictor.Compute2DCoords(mol, canonOrient=True)   # compute_layout chose RDKit's own depictor
@@ -2271,9 +2290,11 @@ class _LayoutBuilder:
         cluster."""
         progress = False
         # Bonds first: the skeleton decides where there is room; hydrogens and the partners
-        # they travel to take what is left.
-        events = sorted((e for e in self.events if e[1] in kinds), key=lambda e: e[1] != "bond")
-        for k, kind, a, b, h in events:
+        # they travel to take what is left. (The events are fixed: sorted once per choice of kinds.)
+        if kinds not in self.events_in_order:
+            self.events_in_order[kinds] = sorted((e for e in self.events if e[1] in kinds),
+                                                 key=lambda e: e[1] != "bond")
+        for k, kind, a, b, h in self.events_in_order[kinds]:
             ca, cb = self.cluster_of.get(a), self.cluster_of.get(b)
             if ca is None or cb is None or ca == cb:
                 continue
@@ -2309,15 +2330,15 @@ class _LayoutBuilder:
         """The direction from `atom` with the most room for a new neighbour at `reach`: away from
         its bonds, promised hydrogens and the directions `also`, out of ring interiors, away from
         nearby atoms."""
-        centre = self.positions[k][atom]
+        here = self.positions[k]
+        centre = here[atom]
         taken = np.array([unit(p - centre) for p in self._occupied_around(atom, k, hydrogen)
                           if abs(p - centre) > 1e-9] + list(also), dtype=complex)
-        near = np.array([p for a, p in self.positions[k].items() if a != atom and abs(p - centre) < reach + 1.3],
-                        dtype=complex)
-        bonded = [unit(self.positions[k][n] - centre) for n in self.neighbours[atom]
-                  if n in self.positions[k] and self.element[n] != 1]
-        if prefer is not None and any(abs(cmath.phase(prefer / unit(self.positions[k][n] - centre))) < _BEHIND_A_BOND
-                                      for n in self.neighbours[atom] if n in self.positions[k]
+        limit = reach + 1.3
+        near = np.array([p for a, p in here.items() if abs(p - centre) < limit and a != atom], dtype=complex)
+        bonded = [unit(here[n] - centre) for n in self.neighbours[atom] if n in here and self.element[n] != 1]
+        if prefer is not None and any(abs(cmath.phase(prefer / unit(here[n] - centre))) < _BEHIND_A_BOND
+                                      for n in self.neighbours[atom] if n in here
                                       and (min(n, atom), max(n, atom)) in self.bonds_in[k]):
             # The partner lies behind one of the atom's own bonds: leaning toward it would only
             # bend the new bond off its ideal angle (the Ei ester's C-H turned 90 degrees from
@@ -2340,11 +2361,12 @@ class _LayoutBuilder:
                                if len(near) else 1.2)
         if prefer is not None:
             score = score + 0.15 * (_COMPASS * unit(prefer).conjugate()).real   # (Python's conjugate: no ufunc call on one number)
-        score = score - 10.0 * self._fed_shut(hydrogen, atom, k)(_COMPASS)
+        if (hydrogen, atom) in self.feeds:   # (most placements move no hydrogen whose bond's pair goes on)
+            score = score - 10.0 * self._fed_shut(hydrogen, atom, k)(_COMPASS)
         ideal = self._zigzag(atom, k, bonded)
         if ideal is not None:
             score = score + 0.3 * np.maximum((_COMPASS * ideal.conjugate()).real, 0.0)
-        polygons = [[self.positions[k][a] for a in ring] for ring in self._closed_rings(k)]
+        polygons = [[here[a] for a in ring] for ring in self._closed_rings(k)]
         # Best first; the first direction that does not point into a closed ring wins (the
         # best is the first highest score, as the stable sort below puts first).
         best = int(score.argmax())   # (the method: np.argmax's wrapper costs more than the search)
@@ -2465,9 +2487,17 @@ class _LayoutBuilder:
             return wide
         centre = here[holder]
         polygons = [[here[a] for a in ring] for ring in self._closed_rings(k)]
-        outside = np.array([not any(inside_polygon(centre + d, poly) for poly in polygons) for d in _COMPASS.tolist()])
+
+        def outside(wanted: np.ndarray) -> np.ndarray:
+            """`wanted` less the directions into a closed ring (only the wanted ones are tested)."""
+            if not polygons:
+                return wanted
+            return np.array([w and not any(inside_polygon(centre + d, poly) for poly in polygons)
+                             for w, d in zip(wanted.tolist(), _COMPASS.tolist())])
+
         off_bonds = np.abs(angles(_COMPASS, others)).min(axis=1)
-        open_wide = ~wide(_COMPASS) & ~across(_COMPASS) & (off_bonds >= _SQUEEZED) & outside
+        across_compass = across(_COMPASS)
+        open_wide = outside(~wide(_COMPASS) & ~across_compass & (off_bonds >= _SQUEEZED))
         if open_wide.any():
             return wide
         # The atoms two bonds off (a label on the next carbon): the hydrogen's own partners
@@ -2479,8 +2509,8 @@ class _LayoutBuilder:
                           and (min(x, y), max(x, y)) in self.bonds_in[k]], dtype=complex)
         room = (np.abs(centre + _COMPASS[:, None] - crowd[None, :]).min(axis=1) if len(crowd)
                 else np.full(len(_COMPASS), math.inf))
-        open_near = (~near(_COMPASS, _NEAR_FED_ANGLE) & ~across(_COMPASS) & (off_bonds >= _OFF_A_BOND) & outside
-                     & (room >= _HYDROGEN_ROOM))
+        open_near = outside(~near(_COMPASS, _NEAR_FED_ANGLE) & ~across_compass & (off_bonds >= _OFF_A_BOND)
+                            & (room >= _HYDROGEN_ROOM))
         if not open_near.any():
             # A ring-fusion carbon (every gap beside the fed bond inside a ring), or a gap too
             # narrow or crowded for the hydrogen's label.
@@ -2636,10 +2666,13 @@ class _LayoutBuilder:
         # For a hop or a transfer, a spot from which the arrow to the anchor's side crosses no bond is preferred.
         walls = self._walls(segment, anchor, set(cluster.atoms)) if kind != "bond" else np.zeros((0, 2), dtype=complex)
         placements = _Placements(options, u, v, anchor_at, distance, depicted, mover, near, hydrogen_on_mover, walls)
+        if len(walls):
+            placements.batch = 1   # most hops settle on their first spot (see _Placements.blocked)
         best = None
         round_about = None
         partners = self._other_hops(index, segment, k, hydrogen) if kind == "hop" else []
-        fed = self._fed_shut(hydrogen, anchor, k) if kind == "hop" else None
+        # (None where the hydrogen's bond feeds no bond of the anchor: no direction is shut)
+        fed = self._fed_shut(hydrogen, anchor, k) if kind == "hop" and (hydrogen, anchor) in self.feeds else None
         # The hydrogen of a hop stands on the line from its holder toward the partner: not on a
         # bond of the holder, nor on another hydrogen promised to it while this one is there (the
         # two protons an enolate loses in turn, the second held from the first panel on).
@@ -3745,8 +3778,10 @@ class _LayoutBuilder:
                 count[i] = count.get(i, 0) + 1
                 count[j] = count.get(j, 0) + 1
             degrees.append(count)
+        # Only an atom that ends a chain in some panel can be eased: the rest are passed over at once.
+        ends = {atom for count in degrees for atom, bonded in count.items() if bonded == 1}
         for atom in self.atoms:
-            if self.element[atom] == 1:
+            if self.element[atom] == 1 or atom not in ends:
                 continue
             k = 0
             while k < self.n:
@@ -3778,22 +3813,9 @@ class _LayoutBuilder:
                 return
         if centre not in self.positions[panels[0]]:
             return
-        # The steps at either end of the run may touch it only through its bond to the centre, or
-        # by a proton it takes or gives: a bond it makes or breaks to another heavy atom (the ring
-        # it closes) placed that partner by where it stands. A proton's partner keeps within
-        # reach: (the hydrogen's place, its holder's place) on this side of the step.
-        own = (min(atom, centre), max(atom, centre))
-        protons: list[tuple[complex, Optional[complex]]] = []
-        for k, side in ((panels[0] - 1, panels[0]), (panels[-1], panels[-1])):
-            if 0 <= k < self.n - 1:
-                traded = self._protons_traded(atom, k, side, own)
-                if traded is None:
-                    return
-                protons += traded
         origin = self.positions[panels[0]][centre]
         arm = self.positions[panels[0]][atom] - origin
         others: list[list[complex]] = []    # per panel: the centre's other partners, as unit directions
-        partners: list[complex] = []         # directions to atoms the centre is about to bond
         for p in panels:
             here = self.positions[p]
             around = [unit(here[n] - origin) for n in self.neighbours[centre]
@@ -3801,10 +3823,6 @@ class _LayoutBuilder:
             if len(around) != 2:
                 return
             others.append(around)
-            if p + 1 < self.n:
-                made = [pair for pair in self._changed_bonds(p) if centre in pair and pair not in self.bonds_in[p]
-                        and pair in self.bonds_in[p + 1]]
-                partners += [unit(here[a + b - centre] - origin) for a, b in made if a + b - centre in here]
 
         def angle(a: complex, b: complex) -> float:
             return abs(cmath.phase(a / b))
@@ -3824,12 +3842,33 @@ class _LayoutBuilder:
         wanted = min(narrowest(start), between) + math.radians(10)
         if between < wanted or min(gap_around(start, around) for around in others) / 2 < wanted:
             return
+        # The steps at either end of the run may touch it only through its bond to the centre, or
+        # by a proton it takes or gives: a bond it makes or breaks to another heavy atom (the ring
+        # it closes) placed that partner by where it stands. A proton's partner keeps within
+        # reach: (the hydrogen's place, its holder's place) on this side of the step.
+        own = (min(atom, centre), max(atom, centre))
+        protons: list[tuple[complex, Optional[complex]]] = []
+        for k, side in ((panels[0] - 1, panels[0]), (panels[-1], panels[-1])):
+            if 0 <= k < self.n - 1:
+                traded = self._protons_traded(atom, k, side, own)
+                if traded is None:
+                    return
+                protons += traded
+        partners: list[complex] = []         # directions to atoms the centre is about to bond
+        for p in panels:
+            if p + 1 < self.n:
+                here = self.positions[p]
+                made = [pair for pair in self._changed_bonds(p) if centre in pair and pair not in self.bonds_in[p]
+                        and pair in self.bonds_in[p + 1]]
+                partners += [unit(here[a + b - centre] - origin) for a, b in made if a + b - centre in here]
         kept_off = [min(angle(start, q), math.radians(100)) for q in partners]
         turns = []   # (score, order, direction) of every turn that would do, widest first
         for order, degrees in enumerate(range(-90, 91, 5)):
             d = start * cmath.rect(1.0, math.radians(degrees))
+            if any(angle(d, o) < wanted for around in others for o in around):
+                continue   # narrowest(d) < wanted, found without measuring every angle (most turns)
             score = narrowest(d)
-            if score >= wanted and not wall_between(start, d) \
+            if not wall_between(start, d) \
                     and all(angle(d, q) >= limit - 1e-9 for q, limit in zip(partners, kept_off)):
                 turns.append((-score, order, d))
         if not turns or any(self.states[p].mol.GetAtomWithIdx(centre).GetChiralTag() != Chem.ChiralType.CHI_UNSPECIFIED
@@ -4074,11 +4113,13 @@ class _LayoutBuilder:
         crossed_now = any(segments_cross(0j, start, a, b) for a, b in walls)
         room_now = room(start)
         fed = self._fed_shut(r.hydrogen, r.holder, panels[0])
+        # Each compass direction's miss, worked out once for the two uses below.
+        misses = list(map(miss, _HYDROGEN_COMPASS)) if partner is not None else [0.0] * len(_HYDROGEN_COMPASS)
         if partner is not None:
             # The gap beside the fed bond only where the partner, placed by now, is in reach of
             # it: otherwise the arrow that takes the hydrogen runs long, round the molecule.
-            beside = [d for d, shut in zip(_HYDROGEN_COMPASS, fed(_HYDROGEN_COMPASS_ARRAY).tolist()) if not shut]
-            if min(map(miss, beside), default=0.0) > _FAR_FROM_PARTNER:
+            beside = [m for m, shut in zip(misses, fed(_HYDROGEN_COMPASS_ARRAY).tolist()) if not shut]
+            if min(beside, default=0.0) > _FAR_FROM_PARTNER:
                 fed = self._fed_shut(r.hydrogen, r.holder, panels[0], relax=False)
 
         def cramped(direction: complex) -> bool:
@@ -4127,9 +4168,14 @@ class _LayoutBuilder:
         compass = _HYDROGEN_COMPASS
         rooms = (np.minimum.reduce(np.abs(relative - _HYDROGEN_COMPASS_ARRAY[:, None]), axis=1).tolist() if len(relative)
                  else [math.inf] * len(compass))
-        for d, space, crossed in zip(compass, rooms, crossing(compass)):
-            score = (not cramped(d), space >= _HYDROGEN_ROOM and not crossed, not crossed, not closed(d), clear(d),
-                     min(space, 1.2) + 0.1 * (d / start).real - miss(d))
+        # cramped and clear over the whole compass in one call each: numpy's cost is per call.
+        shut = fed(_HYDROGEN_COMPASS_ARRAY).tolist()
+        clears = ((np.minimum.reduce(np.abs(aloof - _HYDROGEN_COMPASS_ARRAY[:, None]), axis=1) >= _CLEARANCE).tolist()
+                  if len(aloof) else [True] * len(compass))
+        for d, space, crossed, cramped_d, clear_d, miss_d in zip(compass, rooms, crossing(compass), shut, clears,
+                                                                  misses):
+            score = (not cramped_d, space >= _HYDROGEN_ROOM and not crossed, not crossed, not closed(d), clear_d,
+                     min(space, 1.2) + 0.1 * (d / start).real - miss_d)
             if not (score[:5] > best_score[:5] or (score[:5] == best_score[:5] and score[5] > best_score[5] + 0.05)):
                 continue
             # Only a direction that would win is asked whether it is allowed at all.

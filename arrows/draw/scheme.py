@@ -19,7 +19,7 @@ from rdkit.Chem.rdMolDescriptors import CalcMolFormula
 from ..checks.written_stereo import final_state_as_written
 from ..diagnostics import Diagnostic, ERROR
 from ..electrons import ElectronState, ResolvedMove, bonds_after
-from ..rdkit_io import bond_list, formula as molecular_formula, fragment
+from ..rdkit_io import atom_list, bond_list, formula as molecular_formula, fragment
 from ..trace import StepTrace, Trace
 from .branches import may_stand_closer
 from .curves import ArrowPlanner, to_own_atom
@@ -120,8 +120,11 @@ def product_atoms(trace: Trace) -> frozenset[int]:
     first = Chem.GetMolFrags(written, asMols=False, sanitizeFrags=False)[0]
     wanted = Counter(written.GetAtomWithIdx(i).GetAtomicNum() for i in first)
     wanted.pop(1, None)
+    heavy, elements = sum(wanted.values()), final.elements
     for molecule in molecules:
-        if Counter(final.elements[i] for i in molecule if final.elements[i] != 1) == wanted:
+        atoms = [elements[i] for i in molecule if elements[i] != 1]
+        # (a molecule of another size is passed over before its elements are counted)
+        if len(atoms) == heavy and Counter(atoms) == wanted:
             return frozenset(molecule)
     return frozenset()
 
@@ -186,23 +189,54 @@ def _unused_entries(st: StepTrace) -> frozenset[int]:
     return frozenset(hidden)
 
 
+@dataclass(frozen=True)
+class _Groundwork:
+    """What every drawing of a scheme shares, at whatever size: its panels' sources, their bonds
+    and the layout (in bond lengths: the style scales it). A slide's scheme is built several
+    times to fit its page (_filling_the_page), each time from this one groundwork."""
+
+    sources: list[_PanelSource]
+    moves: list[list[ResolvedMove]]             # each panel's arrows: the moves of the step leaving it
+    bonds: list[list[tuple[int, int, float]]]   # rdkit_io.bond_list of each panel's state
+    layout: Layout
+
+
+def _groundwork(trace: Trace) -> _Groundwork:
+    product = product_atoms(trace)
+    sources = _panel_sources(trace, product)
+    if sources[-1].leaving is None and sources[-1].arriving is not None:
+        # The product panel draws the configuration the `product` line writes where the steps
+        # set none (a conrotatory opening's Z alkene), not a default the reader takes for a claim.
+        as_written = final_state_as_written(trace)
+        if as_written is not None:
+            sources[-1] = replace(sources[-1], state=as_written)
+    moves = [list(s.leaving.change.moves) if s.leaving else [] for s in sources]
+    touched = [set(s.leaving.change.touched_atoms) if s.leaving else set() for s in sources]
+    bonds = _bond_lists(sources)   # for layout and structures
+    layout = compute_layout([s.state for s in sources], moves, touched, [s.hidden | s.idle for s in sources], bonds,
+                            product)
+    return _Groundwork(sources, moves, bonds, layout)
+
+
 def build_scene(trace: Trace, style: Style, diagnostics: Sequence[Diagnostic] = ()) -> Scene:
     """Lay out the whole scheme. Shrinks it (and says so in `notes`) if one panel is wider than
     the page, or the slide is too tall; draws a slide's scheme that leaves much of the page empty
     larger, to fill it (_filling_the_page, also noted). A slide's rows are chosen at the preset size
     and kept when it is shrunk or enlarged (re-wrapped at 87%, the acetal's 3 + 3 + 2 panels became
     4 + 3 + 1)."""
-    builder = _SceneBuilder(trace, style, diagnostics)
+    groundwork = _groundwork(trace)
+    builder = _SceneBuilder(trace, groundwork, style, diagnostics)
     scene, fit = builder.build()
+    states = [s.state for s in groundwork.sources]
     uneven = (_uneven_bonds(scene) + _crowded_atoms(scene) + _signs_on_bonds(scene) + _cramped_hooks(scene)
-              + _arrows_across_bonds(scene) + _straight_stereo_double_bonds(scene, builder.states) + _heavy_lines(style)
+              + _arrows_across_bonds(scene) + _straight_stereo_double_bonds(scene, states) + _heavy_lines(style)
               + _glyphs_wanting(trace, style) + _font_missing(style))
     if fit < 0.999:
         if style.page_height is None:
             smaller = style.scaled(fit * 0.995)
-            scene, _ = _SceneBuilder(trace, smaller, diagnostics, style).build()
+            scene, _ = _SceneBuilder(trace, groundwork, smaller, diagnostics, style).build()
         else:
-            fit, smaller, scene = _shrunk_to_the_margins(trace, style, diagnostics, fit, builder.wrapping)
+            fit, smaller, scene = _shrunk_to_the_margins(trace, groundwork, style, diagnostics, fit, builder.wrapping)
         note = f"drawn at {fit:.0%} of the {style.name} size to fit the page"
         if smaller.small_size < SMALLEST_TEXT_PT:
             note += (f"; the smallest text is {smaller.small_size:.1f} pt (below {SMALLEST_TEXT_PT:g} pt): "
@@ -212,7 +246,7 @@ def build_scene(trace: Trace, style: Style, diagnostics: Sequence[Diagnostic] = 
         uneven += (f"the smallest text (charges, subscripts) is {style.small_size:.1f} pt at print size, below "
                    f"{SMALLEST_TEXT_PT:g} pt: try --font-size {SMALLEST_TEXT_PT / style.small_scale:g} or more",)
     elif _may_fill(style):
-        scene = _filling_the_page(trace, style, diagnostics, scene, builder.wrapping)
+        scene = _filling_the_page(trace, groundwork, style, diagnostics, scene, builder.wrapping)
     return replace(scene, notes=scene.notes + uneven) if uneven else scene
 
 
@@ -240,15 +274,15 @@ def _may_fill(style: Style) -> bool:
             == (preset.font_size, preset.bond_length, preset.line_width))
 
 
-def _filling_the_page(trace: Trace, style: Style, diagnostics: Sequence[Diagnostic], scene: Scene,
-                      wrapping: tuple[int, ...]) -> Scene:
+def _filling_the_page(trace: Trace, groundwork: _Groundwork, style: Style, diagnostics: Sequence[Diagnostic],
+                      scene: Scene, wrapping: tuple[int, ...]) -> Scene:
     """The scheme drawn at the largest factor, up to _MOST_ENLARGED, at which it still fits the
     page's width and height within the margins, in the same rows (_enlarged: the title grows less).
     The factor is worked out from the scheme laid out at its own height, then checked by laying
     it out again (the rows are chosen afresh at the larger size, a title may wrap into more
     lines); while it does not fit, a smaller factor is tried. `scene` (at the preset size) is
     returned when no factor of _LEAST_ENLARGED or more fits. `wrapping`: the panels per row of `scene`."""
-    natural = _natural(trace, style, diagnostics, wrapping)
+    natural = _natural(trace, groundwork, style, diagnostics, wrapping)
     rows = _row_starts(natural)
     # (0.995: a row as wide as the page to the last digit may be wrapped by a rounding error)
     factor = min(_MOST_ENLARGED, 0.995 * _room_factor(natural, style, title_kept=True))
@@ -260,7 +294,7 @@ def _filling_the_page(trace: Trace, style: Style, diagnostics: Sequence[Diagnost
         factor = math.floor(factor * style.bond_length + 1e-9) / style.bond_length
         if factor < _LEAST_ENLARGED:
             break
-        drawn, fit = _SceneBuilder(trace, _enlarged(style, factor), diagnostics, style, wrapping).build()
+        drawn, fit = _SceneBuilder(trace, groundwork, _enlarged(style, factor), diagnostics, style, wrapping).build()
         if fit >= 1.0 and _within_margins(drawn, style) and _row_starts(drawn) == rows:
             # (The command that drew it says how to keep the preset size: it knows its own options.)
             note = f"drawn at {factor:.0%} of the {style.name} size to fill the page"
@@ -269,8 +303,8 @@ def _filling_the_page(trace: Trace, style: Style, diagnostics: Sequence[Diagnost
     return scene
 
 
-def _shrunk_to_the_margins(trace: Trace, style: Style, diagnostics: Sequence[Diagnostic], fit: float,
-                           wrapping: tuple[int, ...]) -> tuple[float, Style, Scene]:
+def _shrunk_to_the_margins(trace: Trace, groundwork: _Groundwork, style: Style, diagnostics: Sequence[Diagnostic],
+                           fit: float, wrapping: tuple[int, ...]) -> tuple[float, Style, Scene]:
     """A scheme too large for a page of fixed height, shrunk until all of it lies within the
     margins: the factor, the style drawn and the scene. The builder's own factor, `fit` (the page's
     height over the scheme's), is tried first; it left the bottom of the annulation scheme 6 pt in
@@ -280,19 +314,21 @@ def _shrunk_to_the_margins(trace: Trace, style: Style, diagnostics: Sequence[Dia
     factor = fit
     for attempt in range(_FIT_TRIES):
         smaller = style.scaled(factor * 0.995)
-        scene, _ = _SceneBuilder(trace, smaller, diagnostics, style, wrapping).build()
+        scene, _ = _SceneBuilder(trace, groundwork, smaller, diagnostics, style, wrapping).build()
         if _within_margins(scene, style):
             break
-        estimate = (_room_factor(_natural(trace, style, diagnostics, wrapping), style, title_kept=False)
+        estimate = (_room_factor(_natural(trace, groundwork, style, diagnostics, wrapping), style, title_kept=False)
                     if attempt == 0 else factor)
         factor = estimate if estimate < factor else 0.97 * factor
     return factor, smaller, scene
 
 
-def _natural(trace: Trace, style: Style, diagnostics: Sequence[Diagnostic], wrapping: tuple[int, ...]) -> Scene:
+def _natural(trace: Trace, groundwork: _Groundwork, style: Style, diagnostics: Sequence[Diagnostic],
+             wrapping: tuple[int, ...]) -> Scene:
     """The scheme laid out on a page as wide as the style's and as tall as the scheme needs, in
     `wrapping`'s rows."""
-    return _SceneBuilder(trace, style, diagnostics, replace(style, page_height_mm=None), wrapping).build()[0]
+    return _SceneBuilder(trace, groundwork, style, diagnostics, replace(style, page_height_mm=None),
+                         wrapping).build()[0]
 
 
 def _enlarged(style: Style, factor: float) -> Style:
@@ -394,6 +430,8 @@ def _straight_stereo_double_bonds(scene: Scene, states: Sequence[ElectronState])
     before using the figure. `states`: each panel's state."""
     notes = []
     for panel, state in zip(scene.panels, states):
+        if not state.configured:
+            continue   # (no configuration written or made: no double bond of it is configured)
         mol = state.mol   # (the panel's double bonds asked: walking every bond of the state costs more)
         doubles = [bond.atoms for bond in panel.bonds if bond.order == 2 and max(bond.atoms) < mol.GetNumAtoms()]
         configured = [(i, j) for i, j in doubles
@@ -662,9 +700,8 @@ def _signs_on_bonds(scene: Scene) -> tuple[str, ...]:
         signs = [m for m in panel.marks if m.kind == "charge" and m.runs]
         if not signs:
             continue
-        lines = [(complex(a[0] + ox, a[1] + oy), complex(b[0] + ox, b[1] + oy)) for bond in panel.bonds
-                 for a, b in bond.lines]
-        names = {a.index: a.name for a in panel.atoms}
+        # (the lines' ends on the page; made points only for the few lines near a sign's ink)
+        ends = [(a[0] + ox, a[1] + oy, b[0] + ox, b[1] + oy) for bond in panel.bonds for a, b in bond.lines]
         for mark in signs:
             run = mark.runs[-1]   # the sign (a count such as 2 stands before it)
             width = face.width(run.text, run.size)
@@ -675,21 +712,22 @@ def _signs_on_bonds(scene: Scene) -> tuple[str, ...]:
             ink = Box(run.x + width - 0.85 * sign_width + ox, middle - half + oy, run.x + width - 0.15 * sign_width + ox,
                       middle + half + oy)
             # (a line wholly to one side of the ink is passed over before the clipping test)
-            if any(segment_hits_box(a, b, ink) for a, b in lines
-                   if min(a.real, b.real) <= ink.x1 and max(a.real, b.real) >= ink.x0
-                   and min(a.imag, b.imag) <= ink.y1 and max(a.imag, b.imag) >= ink.y0):
-                notes.append(f"panel {panel.index + 1}: the charge of {names.get(mark.atom, 'an atom')} touches a bond "
+            if any(segment_hits_box(complex(ax, ay), complex(bx, by), ink) for ax, ay, bx, by in ends
+                   if min(ax, bx) <= ink.x1 and max(ax, bx) >= ink.x0
+                   and min(ay, by) <= ink.y1 and max(ay, by) >= ink.y0):
+                name = next((a.name for a in panel.atoms if a.index == mark.atom), "an atom")
+                notes.append(f"panel {panel.index + 1}: the charge of {name} touches a bond "
                              f"line, where it reads as part of the structure; check the figure")
                 break
     return tuple(notes)
 
 
 class _SceneBuilder:
-    def __init__(self, trace: Trace, style: Style, diagnostics: Sequence[Diagnostic], page_style: Style = None,
-                 wrapping: Optional[tuple[int, ...]] = None):
+    def __init__(self, trace: Trace, groundwork: _Groundwork, style: Style, diagnostics: Sequence[Diagnostic],
+                 page_style: Style = None, wrapping: Optional[tuple[int, ...]] = None):
         """`wrapping`: how many panels each row holds, kept as given (None: chosen for the page,
         and told in `wrapping` after build)."""
-        self.trace, self.style, self.diagnostics = trace, style, list(diagnostics)
+        self.trace, self.groundwork, self.style, self.diagnostics = trace, groundwork, style, list(diagnostics)
         self.wrapping = wrapping
         self.page = page_style or style
         self.face = FontFace(style.font_family)
@@ -703,19 +741,8 @@ class _SceneBuilder:
 
     # panels
     def build(self) -> tuple[Scene, float]:
-        product = product_atoms(self.trace)
-        sources = _panel_sources(self.trace, product)
-        if sources[-1].leaving is None and sources[-1].arriving is not None:
-            # The product panel draws the configuration the `product` line writes where the steps
-            # set none (a conrotatory opening's Z alkene), not a default the reader takes for a claim.
-            as_written = final_state_as_written(self.trace)
-            if as_written is not None:
-                sources[-1] = replace(sources[-1], state=as_written)
-        self.states = states = [s.state for s in sources]
-        moves = [list(s.leaving.change.moves) if s.leaving else [] for s in sources]
-        touched = [set(s.leaving.change.touched_atoms) if s.leaving else set() for s in sources]
-        bonds = _bond_lists(sources)   # for layout and structures
-        layout = compute_layout(states, moves, touched, [s.hidden | s.idle for s in sources], bonds, product)
+        work = self.groundwork
+        sources, moves, bonds, layout = work.sources, work.moves, work.bonds, work.layout
         drawn = [self._structure(src, placed, layout, listed)
                  for src, placed, listed in zip(sources, layout.panels, bonds)]
         # The arrows of every panel are planned together (one batch of numpy work for the scheme).
@@ -1174,7 +1201,7 @@ def _byproduct_pieces(fragment: Chem.Mol) -> list[Piece]:
     if formula in _condensed_formulas():
         try:
             work = Chem.Mol(fragment)
-            for atom in work.GetAtoms():
+            for atom in atom_list(work):
                 atom.SetAtomMapNum(0)
             Chem.SanitizeMol(work)
             smiles = Chem.MolToSmiles(Chem.RemoveHs(work, sanitize=False))
@@ -1186,7 +1213,7 @@ def _byproduct_pieces(fragment: Chem.Mol) -> list[Piece]:
                 return [(text[:2], "n")] + condition_pieces(text[2:])
             return condition_pieces(text)
     pieces = formula_pieces(inorganic_order(formula))
-    unpaired = sum(atom.GetNumRadicalElectrons() for atom in fragment.GetAtoms())
+    unpaired = sum(atom.GetNumRadicalElectrons() for atom in atom_list(fragment))
     if unpaired:   # a radical is written with its dot (Br•), as chemists do (common practice)
         pieces.append(("\u2022" * unpaired, "sup"))
     return pieces

@@ -18,6 +18,7 @@ from __future__ import annotations
 
 import cmath
 import math
+from functools import cached_property
 from typing import Optional, Sequence
 
 import numpy as np
@@ -160,10 +161,13 @@ class Untangler:
         self.positions, self.bonds, self.touched, self.joining = positions, bonds, touched, joining
         self.labelled = labelled
         self.hydrogens = hydrogens if hydrogens is not None else [{} for _ in positions]
-        # Per panel: each drawn hydrogen's bonded partners.
-        self.holders = [{h: {i if j == h else j for i, j in bonds[k] if h in (i, j)} for h in self.hydrogens[k]}
-                        for k in range(len(positions))]
         self.n = len(positions)
+
+    @cached_property
+    def holders(self) -> list[dict[int, set[int]]]:
+        """Per panel: each drawn hydrogen's bonded partners (asked only once a branch turns)."""
+        return [{h: {i if j == h else j for i, j in self.bonds[k] if h in (i, j)} for h in self.hydrogens[k]}
+                for k in range(self.n)]
 
     def run(self) -> None:
         drawn = [[b for b in self.bonds[k] if b[0] in here and b[1] in here] for k, here in enumerate(self.positions)]
