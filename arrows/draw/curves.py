@@ -206,13 +206,14 @@ _NOWHERE = complex(math.inf, math.inf)                 # padding: near nothing
 def _padded(rows: list[list], filler, dtype=float) -> np.ndarray:
     """Rows of unequal length as one array, each row filled up with `filler`; the fillers are
     chosen so that they never count (an empty box, a point at infinity, a bond of no length).
-    Built from one flat list: numpy reads that faster than nested ones."""
+    Read from one flat iterator of known length: numpy reads that faster than nested lists."""
     width = max(map(len, rows))
     # (chained in C: a Python loop over every item would cost more than numpy's reading of them)
     flat = chain.from_iterable([chain(row, repeat(filler, width - len(row))) for row in rows])
     if isinstance(filler, tuple):   # items are tuples of numbers: one more axis
-        return np.array(list(chain.from_iterable(flat)), dtype=dtype).reshape(len(rows), width, len(filler))
-    return np.array(list(flat), dtype=dtype).reshape(len(rows), width)
+        depth = len(filler)
+        return np.fromiter(chain.from_iterable(flat), dtype, len(rows) * width * depth).reshape(len(rows), width, depth)
+    return np.fromiter(flat, dtype, len(rows) * width).reshape(len(rows), width)
 
 
 @dataclass
@@ -766,7 +767,8 @@ class ArrowPlanner:
         counts = np.concatenate([_inner_samples_in_boxes(pts, inner, extent, boxes),
                                  _inner_samples_near(pts, inner, extent, bare_xy, near)], axis=1)
         ends = _padded([o.bond_ends for o in obs], (0, 0), int).take(panel_of, axis=0)
-        crossing = np.where(own[arrow, ends[..., 0]] | own[arrow, ends[..., 1]], 6.0, 18.0)
+        own_first, own_second = own[arrow, ends[..., 0]], own[arrow, ends[..., 1]]   # (arrows, bonds): each end named
+        crossing = np.where(own_first | own_second, 6.0, 18.0)
         for k, anchors in enumerate(zip(sources, sinks)):
             for anchor in anchors:
                 if anchor.kind == "bond":   # the bond the arrow starts or ends on is no obstacle
@@ -775,24 +777,23 @@ class ArrowPlanner:
                         crossing[k, bond] = 0.0
         weights = np.concatenate([np.where(own_labelled, 40.0, 100.0), np.where(mine, 0.0, 30.0),
                                   np.where(own_bare, 10.0, 30.0), crossing], axis=1)
-        bond_a = _padded([o.bond_a for o in obs], 0j, complex).take(where, axis=0)
-        bond_b = _padded([o.bond_b for o in obs], 0j, complex).take(where, axis=0)
-        if any(o.stroke_of for o in obs):
-            # A bond is crossed once, by whichever of its strokes the curve crosses (a padded
-            # stroke has no length and crosses nothing). The bonds' centre lines and the strokes
-            # beside them are counted in one batch (whole counts, whatever the columns' order).
-            stroke_a = _padded([o.stroke_a for o in obs], 0j, complex).take(where, axis=0)
-            stroke_b = _padded([o.stroke_b for o in obs], 0j, complex).take(where, axis=0)
-            both = _crossing_counts(pts, np.concatenate((bond_a, stroke_a), axis=1),
-                                    np.concatenate((bond_b, stroke_b), axis=1), extent)
-            crossed, strokes = both[:, :bond_a.shape[1]], both[:, bond_a.shape[1]:]
+        # The bonds' centre lines (each panel's padded to the most bonds of any panel) and then
+        # the strokes beside them, as the segments' two ends: counted in one batch (whole counts,
+        # whatever the columns' order; a padded segment has no length and crosses nothing).
+        bonds = max(len(o.bond_ends) for o in obs)
+        segment_a = _padded([o.bond_a + [0j] * (bonds - len(o.bond_a)) + o.stroke_a for o in obs],
+                            0j, complex).take(where, axis=0)
+        segment_b = _padded([o.bond_b + [0j] * (bonds - len(o.bond_b)) + o.stroke_b for o in obs],
+                            0j, complex).take(where, axis=0)
+        both = _crossing_counts(pts, segment_a, segment_b, extent)
+        crossed, strokes = both[:, :bonds], both[:, bonds:]
+        if strokes.shape[1]:
+            # A bond is crossed once, by whichever of its strokes the curve crosses.
             of = _padded([o.stroke_of for o in obs], 0, int).take(where, axis=0)
             np.maximum.at(crossed, (np.arange(len(pts))[:, None], of), strokes)
-        else:
-            crossed = _crossing_counts(pts, bond_a, bond_b, extent)
         # The bonds each candidate crosses that are not its own (both ends named by its move):
         # whether wider arcs are worth a try.
-        foreign = (crossing > 0) & ~(own[arrow, ends[..., 0]] & own[arrow, ends[..., 1]])
+        foreign = (crossing > 0) & ~(own_first & own_second)
         crossings = np.add.reduce((crossed > 0) & foreign.take(owner, axis=0), axis=1).tolist()
         counts = np.concatenate([counts, crossed], axis=1)
         # Whole counts times whole weights: the sum is exact, whatever the padding and order.
@@ -801,10 +802,11 @@ class ArrowPlanner:
         atom_xy = _padded([o.atom_xy for o in obs], _NOWHERE, complex).take(where, axis=0)[:, None, :]
         crowding = np.maximum(1.1 - np.abs(pts[:, _SAMPLES // 3: 2 * _SAMPLES // 3 + 1, None] - atom_xy) / bl, 0)   # (np.clip's work)
         # A sum of fractions depends on its order: each panel sums its own atoms, unpadded and
-        # laid out as one block, as if it were scored alone.
-        for w in work:
-            own_atoms = np.ascontiguousarray(crowding[w.rows, :, :len(w.obstacles.atom_xy)])
-            cost[w.rows] += 3.0 * np.add.reduce(own_atoms, axis=(1, 2))
+        # laid out as one block, as if it were scored alone. (The panels' rows follow each other:
+        # their sums, joined, line up with the candidates.)
+        cost += 3.0 * np.concatenate([
+            np.add.reduce(np.ascontiguousarray(crowding[w.rows, :, :len(w.obstacles.atom_xy)]), axis=(1, 2))
+            for w in work])
         if marks.shape[1]:
             # The head's barbs spread beyond the shaft: neither may sit on a charge sign or dots.
             arrive = _units(controls[:, 3] - controls[:, 2])[:, None]
@@ -837,9 +839,8 @@ class ArrowPlanner:
                               sizes.take(from_bond, axis=0))   # only those rows
             if curl is not None:
                 cost[from_bond] += curl
-        from_hydrogen = [src.kind == "bond" and any(w.panel.atoms[a].element == "H" for a in src.atoms)
-                         for w in work for src in w.sources]
-        crooked = _in_crook(pts, lengths / bl, sources, sinks, owner, arrow_obs, from_hydrogen)
+        arrow_panels = [w.panel for w in work for _ in w.moves]
+        crooked = _in_crook(pts, lengths / bl, sources, sinks, owner, arrow_obs, arrow_panels)
         if crooked is not None:   # (no arrow of most schemes shifts a pair between two bonds of one atom)
             cost += crooked
         # A 1,2-shift is a clear arc round the outside, away from the atom the group leaves:
@@ -1171,11 +1172,11 @@ def _split_bond_sides(w: _PanelArrows, options: list[list[_Candidate]],
 
 
 def _in_crook(pts: np.ndarray, lengths: np.ndarray, sources: list[_Anchor], sinks: list[_Anchor],
-              owner: np.ndarray, obstacles: list[_Obstacles], from_hydrogen: list[bool]) -> Optional[np.ndarray]:
+              owner: np.ndarray, obstacles: list[_Obstacles], panels: list[PanelStructure]) -> Optional[np.ndarray]:
     """_CROOK where an arc that shifts a pair between two bonds of one atom has its middle (of
     its samples `pts`) inside the angle those bonds make, cramped between them, else 0.0: such
     an arc reads best round the outside of the bend (common practice). Where the arc leaves a
-    bond to a hydrogen (`from_hydrogen`, per arrow) and two or more other bonds of the atom
+    bond to a hydrogen (of the arrow's panel, `panels`) and two or more other bonds of the atom
     stand round the outside (a C-H beside the C=C it feeds, on a carbon with three other bonds),
     the way round is shut and the arc reads best through the open angle, bulging away from the
     atom (an E1 drawn so, common practice): _KNOT where its middle is outside the angle or
@@ -1203,7 +1204,8 @@ def _in_crook(pts: np.ndarray, lengths: np.ndarray, sources: list[_Anchor], sink
         bonded = [j if i == pivot else i for i, j in ob.bond_ends if pivot in (i, j)]
         outside = sum(abs(cmath.phase((at[a] - at[pivot]) / bisector)) > half
                       for a in bonded if a not in ends and a in at)
-        angles[k] = (at[pivot], bisector, half, from_hydrogen[k] and outside >= 2)
+        from_hydrogen = any(panels[k].atoms[a].element == "H" for a in src.atoms)
+        angles[k] = (at[pivot], bisector, half, from_hydrogen and outside >= 2)
     if not angles:
         return None
     middles, out = pts[:, _SAMPLES // 2], np.zeros(len(pts))
