@@ -24,7 +24,10 @@ import xml.etree.ElementTree as ET
 from pathlib import Path
 
 import pytest
+import rdkit
 from pypdf import PdfReader
+
+import arrows
 
 from textbook_mechanisms import TEXTBOOK
 
@@ -180,6 +183,8 @@ def test_the_broken_files_are_in_the_summary_with_their_codes(corpus):
 def test_report_and_junit_list_every_scheme(corpus):
     report = json.loads((corpus["out"].parent / "report.json").read_text())
     assert report["totals"]["schemes"] == SCHEMES and report["totals"]["failed"] == 3
+    # the versions that made the verdicts: arrows's own and RDKit's (rdkit.__version__, asked here)
+    assert report["tool"] == {"name": "arrows", "version": arrows.__version__, "rdkit": rdkit.__version__}
     failed = {s["file"] for s in report["schemes"] if s["failed"]}
     assert failed == {shown(name) for name in BROKEN}
     suite = ET.parse(corpus["out"].parent / "junit.xml").getroot().find("testsuite")

@@ -11,8 +11,11 @@ from .record import SchemeRecord, diagnostic_line
 
 
 def report_dict(records: list[SchemeRecord], complete: bool, tool_version: str) -> dict:
+    from rdkit import __version__ as rdkit_version
     return {
-        "tool": {"name": "arrows", "version": tool_version},
+        # RDKit's version too: aromaticity, valence and stereo perception, and so some verdicts and
+        # every depiction, may change with it (a data set's results say which one made them)
+        "tool": {"name": "arrows", "version": tool_version, "rdkit": rdkit_version},
         "complete": complete,   # False when --fail-fast stopped the batch
         "totals": {
             "schemes": len(records),
