@@ -568,3 +568,37 @@ def test_the_schema_refuses_the_control_characters_the_tool_refuses(field, value
     assert diag["record_location"] == {"field": f"/{field}"}
     assert f"delete the invisible character in /{field} " in diag["hint"], diag["hint"]
     assert jsonschema.Draft202012Validator(SCHEMA).is_valid({**record, field: "A\tB \u03b1"})
+
+
+def test_states_list_the_intermediates_of_the_aldol_of_ethanal(tmp_path):
+    """`--states`: each result lists the starting state and the state after each step. Outside
+    judges: RDKit canonicalizes the written species and the intermediates spelt here on their
+    own; the intermediates are the textbook course of the aldol addition and condensation of
+    ethanal (references.md "Worked outcomes": 3-hydroxybutanal, then but-2-enal; the enolate and
+    the alkoxide between them, common practice)."""
+    text = (ROOT / "gallery" / "03-acetaldehyde-aldol.mech").read_text(encoding="utf-8")
+    broken = text.replace("C5-O6 -> O6", "C5-O6 -> C1")   # the last step cannot be replayed
+    data = (line({"id": "aldol", "text": text}) + line({"id": "broken", "text": broken})
+            + b"{not json\n" + line({"id": "aldol", "text": text}))
+    proc = run_cli("check", "--jsonl", "-", "--states", "-j", "2", stdin=data)
+    assert b"Traceback" not in proc.stderr, proc.stderr[-2000:]
+    aldol, broken_result, rejected, repeated = [json.loads(x) for x in proc.stdout.splitlines()]
+    states = aldol["states"]
+    assert len(states) == aldol["steps"] + 1 == 6 and states[-1] == aldol["final_smiles"]
+    start = Chem.MolFromSmiles("[CH3:1][CH:2]=[O:3].[CH3:4][CH:5]=[O:6].[OH-:7]")
+    for atom in start.GetAtoms():
+        atom.SetAtomMapNum(0)
+    assert states[0] == Chem.MolToSmiles(start)
+    # the enolate, the alkoxide, 3-hydroxybutanal, its enolate, but-2-enal
+    for after, present in enumerate(["C=C[O-]", "CC([O-])CC=O", "CC(O)CC=O", "CC(O)C=C[O-]", "CC=CC=O"], start=1):
+        assert Chem.MolToSmiles(Chem.MolFromSmiles(present)) in rdkit_fragments(states[after]), (after, states[after])
+    # a replay that stops lists the states it derived; a line with no record lists none; a
+    # repeated id keeps its states beside the warning
+    assert not broken_result["ok"] and broken_result["states"] == states[:5]
+    assert rejected["states"] == [] and repeated["states"] == states and repeated["warnings"] == 1
+    validator = _results_validator()
+    for result in (aldol, broken_result, rejected, repeated):
+        assert not list(validator.iter_errors(result)), result["id"]
+    assert "states" not in json.loads(run_cli("check", "--jsonl", "-", stdin=line({"id": 1, "text": text})).stdout)
+    refused = run_cli("check", "--states", str(ROOT / "gallery" / "03-acetaldehyde-aldol.mech"))
+    assert refused.returncode == 2 and b"--states go with --jsonl" in refused.stderr

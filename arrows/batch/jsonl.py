@@ -20,14 +20,15 @@ from ..language import STATEMENT_WORDS
 from ..language import MAX_FILE_BYTES
 from ..mechanism_json import json_problem, strict_json
 from ..model import Location
-from ..trace import state_smiles
+from ..trace import Trace, state_smiles
 from .records import RecordProblem, RecordText, record_id, record_text
 
 CHUNK_LINES = 32
 
-# A chunk of work: the input's display name, (line number, raw bytes) pairs, and the --pka-gap
-# its checks use (None: the default), which goes with the work to every worker, local or remote.
-Chunk = tuple[str, list[tuple[int, bytes]], Optional[float]]
+# A chunk of work: the input's display name, (line number, raw bytes) pairs, the --pka-gap its
+# checks use (None: the default) and whether results list the states (--states): both go with the
+# work to every worker, local or remote.
+Chunk = tuple[str, list[tuple[int, bytes]], Optional[float], bool]
 
 
 @dataclass
@@ -47,8 +48,18 @@ class Tally:
         self.with_warnings += warnings > 0
 
 
-def check_line(source: str, line_number: int, raw: bytes) -> dict:
-    """The result object for one input line (its fields: README, "Data sets: arrows check --jsonl")."""
+def check_line(source: str, line_number: int, raw: bytes, with_states: bool = False) -> dict:
+    """The result object for one input line (its fields: README, "Data sets: arrows check --jsonl").
+    `with_states`: it lists the canonical SMILES of the starting state and of the state after each
+    step replayed (`states`), for a data set of intermediates."""
+    result, trace = _checked_line(source, line_number, raw)
+    if with_states:
+        result["states"] = [state_smiles(state) for state in trace.states()] if trace is not None else []
+    return result
+
+
+def _checked_line(source: str, line_number: int, raw: bytes) -> tuple[dict, Optional[Trace]]:
+    """The result of one line, and the replay it comes from (None: the line held no record)."""
     try:
         # The line without its line ending (a string cut short then reads as unterminated, at its
         # own column, not as holding a control character); a byte-order mark an editor put before
@@ -56,28 +67,28 @@ def check_line(source: str, line_number: int, raw: bytes) -> dict:
         record = strict_json(raw.decode("utf-8-sig").rstrip("\r\n"))
     except RecursionError:
         return _rejected(source, line_number, None, 1, "AR110", "not JSON this tool reads: nested too deeply",
-                         "each line holds one mechanism record, a few levels deep", "")
+                         "each line holds one mechanism record, a few levels deep", ""), None
     except UnicodeDecodeError as exc:
         return _rejected(source, line_number, None, exc.start + 1, "AR110", "the line is not UTF-8 text",
-                         "save the data set as UTF-8", "")
+                         "save the data set as UTF-8", ""), None
     except json.JSONDecodeError as exc:
         words = raw.decode("utf-8").split(None, 1)
         mechanism_text = bool(words) and (words[0] in STATEMENT_WORDS or words[0].startswith("#"))
         hint = ("this is a line of mechanism text: check a .mech file without --jsonl" if mechanism_text
                 else "each line holds one complete JSON object")
         return _rejected(source, line_number, None, exc.colno, "AR110",
-                         f"not JSON: {json_problem(exc, with_line=False)}", hint, "")
+                         f"not JSON: {json_problem(exc, with_line=False)}", hint, ""), None
     ident = record_id(record) if isinstance(record, dict) else None
     try:
         mechanism = record_text(record)
     except RecordProblem as problem:
-        return _rejected(source, line_number, ident, 0, "AR111", problem.message, problem.hint, problem.pointer)
+        return _rejected(source, line_number, ident, 0, "AR111", problem.message, problem.hint, problem.pointer), None
     trace, diags = check_text(mechanism.text, f"{source}:{line_number}")
     final = trace.final if trace is not None else None
     return _result(ident, line_number, [_placed(d, source, line_number, mechanism) for d in diags],
                    steps=len(trace.mechanism.steps) if trace is not None else 0,
                    # (an empty mechanism derives no state: null, as the results schema says, not "")
-                   final_smiles=(state_smiles(final) or None) if final is not None else None)
+                   final_smiles=(state_smiles(final) or None) if final is not None else None), trace
 
 
 def check_chunk(chunk: Chunk) -> list[tuple[str, tuple[int, int, int], tuple[Any, int]]]:
@@ -85,18 +96,18 @@ def check_chunk(chunk: Chunk) -> list[tuple[str, tuple[int, int, int], tuple[Any
     (errors, warnings, steps) counts for the tally, and its record's id and line."""
     from ..checks.protons import pka_gap
 
-    source, lines, gap = chunk
+    source, lines, gap, with_states = chunk
     out = []
     with pka_gap(gap) if gap is not None else nullcontext():
         for number, raw in lines:
-            result = check_line(source, number, raw)
+            result = check_line(source, number, raw, with_states)
             out.append((json.dumps(result, ensure_ascii=False),
                         (result["errors"], result["warnings"], result["steps"]), (result["id"], number)))
     return out
 
 
 def chunks(source: str, stream: IO[bytes], size: int = CHUNK_LINES,
-           gap: Optional[float] = None) -> Iterator[Chunk]:
+           gap: Optional[float] = None, with_states: bool = False) -> Iterator[Chunk]:
     """Non-blank lines of a binary stream, numbered from 1, in chunks; read lazily."""
     batch: list[tuple[int, bytes]] = []
     for number, raw in enumerate(stream, start=1):
@@ -104,10 +115,10 @@ def chunks(source: str, stream: IO[bytes], size: int = CHUNK_LINES,
             continue
         batch.append((number, raw))
         if len(batch) == size:
-            yield source, batch, gap
+            yield source, batch, gap, with_states
             batch = []
     if batch:
-        yield source, batch, gap
+        yield source, batch, gap, with_states
 
 
 def one_document(stream: Iterable[bytes]) -> tuple[int, Iterable[bytes]]:
@@ -143,13 +154,14 @@ def _is_json(raw: bytes) -> bool:
 
 
 def check_stream(source: str, stream: IO[bytes], write: Callable[[str], Any], pool, gap: Optional[float] = None,
-                 live: bool = False) -> Tally:
+                 live: bool = False, with_states: bool = False) -> Tally:
     """Check every line of `stream` on `pool` (a parallel.WorkerPool or ClusterPool) and write one
     JSON result per line through `write`, in input order. `live`: a line arriving on a pipe is sent
-    to work at once, not kept until a chunk is full (the caller flushes each result)."""
+    to work at once, not kept until a chunk is full (the caller flushes each result). `with_states`:
+    each result lists its states (check_line)."""
     tally = Tally()
     first_line: dict[tuple[type, Any], int] = {}   # each id's first line (ids only: small beside the records)
-    work = chunks(source, stream, size=1 if live else CHUNK_LINES, gap=gap)
+    work = chunks(source, stream, size=1 if live else CHUNK_LINES, gap=gap, with_states=with_states)
     for serialized, counts, (ident, line) in _flatten(pool.map(check_chunk, work)):
         if ident is not None:
             key = (type(ident), ident)   # (17 and "17" are two ids)
@@ -171,7 +183,9 @@ def _duplicate_id(serialized: str, source: str, first: int) -> tuple[str, tuple[
                          f"line {first} too", Location(source, result["line"], 0),
                          hint="give every record an id of its own: results are joined back to records by id").to_dict()
     warning["record_location"] = {"field": "/id"}
-    result = _result(ident, result["line"], result["diagnostics"] + [warning], result["steps"], result["final_smiles"])
+    # (recounted, the states kept where the result lists them)
+    result = {**result, **_result(ident, result["line"], result["diagnostics"] + [warning], result["steps"],
+                                  result["final_smiles"])}
     return json.dumps(result, ensure_ascii=False), (result["errors"], result["warnings"], result["steps"])
 
 

@@ -34,9 +34,12 @@ def _a_number(ctx, param, value: float) -> float:
               help="With --jsonl: worker processes [default: the machine's cores].")
 @click.option("--cluster", metavar="ADDRESS",
               help="With --jsonl: run on the Dask scheduler at ADDRESS (pip install 'arrows[cluster]').")
+@click.option("--states", "with_states", is_flag=True,
+              help="With --jsonl: each result lists the canonical SMILES of the starting state and of the state "
+                   "after each step replayed.")
 @click.option("--pka-gap", type=click.FloatRange(*PKA_GAP_RANGE), default=12.0, show_default=True, callback=_a_number,
               help="Warn (AR508) when a proton transfer runs uphill by more than this many pKa units.")
-def check_command(files, fmt, strict, quiet, jsonl, output, jobs, cluster, pka_gap):
+def check_command(files, fmt, strict, quiet, jsonl, output, jobs, cluster, with_states, pka_gap):
     """Replay every electron move in FILES and check every intermediate. A folder stands for
     the .mech files below it, leaving out dot-files and dot-folders (.git, .ipynb_checkpoints,
     editor files); a file named on its own is always read.
@@ -50,11 +53,11 @@ def check_command(files, fmt, strict, quiet, jsonl, output, jobs, cluster, pka_g
         if click.get_current_context().get_parameter_source("fmt") is not ParameterSource.DEFAULT:
             raise click.UsageError("--format goes with mechanism FILES: --jsonl writes one JSON result per line")
         refuse_unsafe_outputs({"-o": output}, [jsonl])   # `-`: the file standard input was redirected from
-        sys.exit(_check_jsonl(jsonl, output, jobs, cluster, strict, quiet, pka_gap))
+        sys.exit(_check_jsonl(jsonl, output, jobs, cluster, strict, quiet, pka_gap, with_states))
     if not files:
         raise click.UsageError("give at least one mechanism file (or --jsonl FILE)")
-    if output or jobs or cluster:
-        raise click.UsageError("-o, --jobs and --cluster go with --jsonl")
+    if output or jobs or cluster or with_states:
+        raise click.UsageError("-o, --jobs, --cluster and --states go with --jsonl")
     from ..checks.protons import set_pka_gap
     click.get_current_context().call_on_close(set_pka_gap(pka_gap))
     everything, unreadable, failing = [], False, False
@@ -86,7 +89,7 @@ class _NoRecords(Exception):
 
 
 def _check_jsonl(path: str, output: str | None, jobs: int | None, cluster: str | None, strict: bool,
-                 quiet: bool, pka_gap: float) -> int:
+                 quiet: bool, pka_gap: float, with_states: bool) -> int:
     """`--jsonl`: stream the data set through the workers; results to stdout or, atomically, to -o."""
     from contextlib import nullcontext
 
@@ -124,7 +127,7 @@ def _check_jsonl(path: str, output: str | None, jobs: int | None, cluster: str |
         try:
             with pool, sink as out:
                 write = out.write if not live_out else lambda text: (out.write(text), out.flush())
-                tally = check_stream(source, records, write, pool, gap=pka_gap, live=live_in)
+                tally = check_stream(source, records, write, pool, gap=pka_gap, live=live_in, with_states=with_states)
                 if not tally.records:
                     raise _NoRecords()
         except _NoRecords:   # as a folder with no .mech file is (exit 2), and no results file is written
