@@ -334,6 +334,7 @@ MORE_ACIDS = [
     ("[NH3+]c1ccccc1", 0, 4.6),     # anilinium, not an alkylammonium ion (~10)
     ("CCOC(=O)CC(=O)OCC", 5, 13),   # diethyl malonate, not a 1,3-diketone's 9
     ("CCOC(=O)CC(C)=O", 5, 11),     # ethyl acetoacetate
+    ("CCOC(=O)CP(=O)(OCC)OCC", 5, 15),   # triethyl phosphonoacetate, not an ester's 25 (an estimate)
     ("C[NH2+]C(=O)c1ccccc1", 1, -7),   # an amide protonated on nitrogen (an estimate)
     ("[NH3+]O", 0, 6.0),            # hydroxylammonium
     ("CC(N)=[OH+]", 3, -0.5),       # an amide protonated on oxygen, not a ketone's -7
@@ -495,3 +496,26 @@ def test_azolium_c2_h(smiles, atom, pka):
     assert mol.GetAtomWithIdx(atom).GetTotalNumHs() == 1
     entry = acidity_of(mol, atom)
     assert entry is not None and entry.pka == pka
+
+
+# The Masamune-Roush conditions for a Horner-Wadsworth-Emmons olefination: DBU (its amidinium ~12)
+# with LiCl deprotonates triethyl phosphonoacetate (Blanchette, Choy, Davis, Essenfeld, Masamune,
+# Roush and Sakai, Tetrahedron Lett. 1984, 25, 2183; memory). Read as an ester's alpha C-H (~25)
+# it was 13 units uphill (AR508, a false alarm); triethylamine on ethyl acetate stays flagged.
+DBU_ON_A_PHOSPHONOACETATE = """\
+species phosphonate = "CCO[C:1](=[O:2])[CH2:3][P:4](=[O:5])(OCC)OCC"
+species dbu = "C1CC[C:6]2=[N:7]CCCN2CC1"
+step "deprotonation" reversible over "DBU, LiCl"
+    :N7 -> H(C3)
+    C3-H -> C1=C3
+    C1=O2 -> O2
+end
+"""
+
+
+def test_dbu_on_a_phosphonoacetate_is_not_flagged():
+    assert [d.code for d in check_text(DBU_ON_A_PHOSPHONOACETATE, "hwe")[1] if d.code == "AR508"] == []
+    ester = DBU_ON_A_PHOSPHONOACETATE.replace("[P:4](=[O:5])(OCC)OCC", "[H]").replace(
+        'species dbu = "C1CC[C:6]2=[N:7]CCCN2CC1"', 'species amine = "CC[N:7](CC)CC"')
+    found = [d for d in check_text(ester, "ester")[1] if d.code == "AR508"]
+    assert len(found) == 1 and "an ester alpha C-H (~25)" in found[0].message, [d.to_text() for d in found]

@@ -100,6 +100,13 @@ TABLE: tuple[Acidity, ...] = (
     Acidity("a nitroalkane C-H", "a nitronate", "[CX4;!H0][NX3+](=O)[O-]", 10, "~10", NOT_LISTED),
     Acidity("a thiol", "a thiolate", "[SX2H1][#6]", 10.5, "~10.5", NOT_LISTED),
     Acidity("hydrogen sulfide", "hydrosulfide", "[SX2H2]", 7, "~7", NOT_LISTED),
+    # A C-H between a phosphonate's P=O and a carbonyl (a Horner-Wadsworth-Emmons reagent): triethyl
+    # phosphonoacetate 18.6 in DMSO (Bordwell, memory), about 15 in water, estimated as diethyl
+    # malonate's 16.4 in DMSO falls to 13 in water. DBU with LiCl takes it (the Masamune-Roush
+    # conditions, Tetrahedron Lett. 1984; memory); read as an ester's alpha C-H (~25) it was a false alarm.
+    Acidity("a C-H between a phosphonate and a carbonyl", "a phosphonate-stabilised enolate",
+            "[CX4;!H0]([PX4]=O)[CX3]=O", 15, "~15",
+            "estimated aqueous value: 18.6 in DMSO (Bordwell, memory), less malonate's 3-unit drop to water"),
     # A malonate ester ~13, a beta-keto ester ~11 (diethyl malonate, ethyl acetoacetate; aqueous,
     # memory): less acidic than a 1,3-diketone, each ester's oxygen holding back its carbonyl.
     Acidity("a malonate ester C-H", "a malonate enolate", "[CX4;!H0]([CX3](=O)[OX2][#6])[CX3](=O)[OX2][#6]", 13,
