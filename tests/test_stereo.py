@@ -104,6 +104,22 @@ def test_oximes_and_n_alkyl_imines_keep_their_stereogenic_double_bond(smiles):
     assert {e.kind for e in stereo_elements(Chem.MolFromSmiles(smiles))} == {DOUBLE_BOND}
 
 
+@pytest.mark.parametrize("smiles", ["C[NH+](CC)Cc1ccccc1", "OC1(C)CCC[NH+]1C", "C[NH+](CCC)C(C)=O"])
+def test_an_ammonium_n_h_is_no_stereocentre(smiles):
+    """An N+-H with three different groups (a carbinolamine's, proline's iminium precursor) trades
+    its proton with the medium and the free amine inverts: chemists count no stereocentre there
+    (common practice). RDKit's potential-stereo search offers it, and AR602 called it a new
+    stereocentre at each amine addition of a catalytic cycle. The carbinolamine's carbon stays one."""
+    found = stereo_elements(Chem.MolFromSmiles(smiles))
+    assert all(Chem.MolFromSmiles(smiles).GetAtomWithIdx(e.atoms[0]).GetAtomicNum() != 7 for e in found), found
+
+
+def test_a_quaternary_ammonium_ion_with_four_different_groups_stays_a_stereocentre_guard():
+    """Four different groups on N+ and no proton to trade: a stereocentre (chiral quaternary
+    ammonium salts were resolved by Pope and Peachey in 1899; memory)."""
+    assert {e.kind for e in stereo_elements(Chem.MolFromSmiles("C[N+](CC)(CCC)Cc1ccccc1"))} == {CENTRE}
+
+
 @pytest.mark.parametrize("smiles", ["[AlH4-]", "[SiH4]", "[PH4+]", "C[SiH2]C"])
 def test_an_atom_with_two_hydrogens_is_no_stereocentre(smiles):
     """Two equal substituents (here hydrogens) never make a stereocentre (IUPAC definition of a

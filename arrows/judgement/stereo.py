@@ -66,8 +66,12 @@ def _elements(view: Perceived) -> frozenset[StereoElement]:
     for info in potential_stereo(plain):
         if info.type == Chem.StereoType.Atom_Tetrahedral:
             # RDKit offers an atom of the third period with four implicit hydrogens ([SiH4],
-            # [PH4+], [AlH4-]); two equal substituents never make a stereocentre.
-            if plain.GetAtomWithIdx(info.centeredOn).GetTotalNumHs() < 2 \
+            # [PH4+], [AlH4-]); two equal substituents never make a stereocentre. Nor does an
+            # ammonium N-H: it trades its proton with the medium, and the free amine inverts, so
+            # chemists do not count it (common practice; a quaternary N+ with four groups is kept).
+            centre = plain.GetAtomWithIdx(info.centeredOn)
+            hydrogens = centre.GetTotalNumHs()
+            if hydrogens < 2 and not (hydrogens and centre.GetAtomicNum() == 7) \
                     and not _three_alike(plain, ranks, info.centeredOn):
                 found.add(StereoElement(CENTRE, (original[info.centeredOn],)))
         elif info.type == Chem.StereoType.Bond_Double:
