@@ -458,12 +458,28 @@ class _StepReplay:
             # atom does, and an arrow may start there like any other lone pair or unpaired electron.
             hydrogen = self.state.label(index)
             parent = hydrogen[2:-1] if hydrogen.startswith("H(") else "X"
-            base = str(move.sink.atom) if isinstance(move.sink, AtomSink) else "B"
+            sink = str(move.sink.atom) if isinstance(move.sink, AtomSink) else None
+            proton = (f"to move a proton, start at the base's lone pair, `:{sink or 'B'} -> {hydrogen}`, and let "
+                      f"the bond's pair go with `{parent}-H -> ...`")
+            hydride = f"to deliver a hydride, move the bond's pair with it: `{parent}-H -> {sink or 'C'}-{hydrogen}`"
             self.fail("AR204", f"the arrow starts at the hydrogen {hydrogen}; arrows start at electrons",
-                      move.source.loc, f"to move a proton, start at the base's lone pair, `:{base} -> {hydrogen}`, "
-                      f"and let the bond's pair go with `{parent}-H -> ...`", atoms=(hydrogen,))
+                      move.source.loc, {"proton": proton, "hydride": hydride,
+                                        "either": f"{proton}; {hydride}"}[self._hydrogen_leaves_as(index)],
+                      atoms=(hydrogen,))
             raise _StepFailed
         return index
+
+    def _hydrogen_leaves_as(self, hydrogen: int) -> str:
+        """What a hydrogen most likely leaves its parent as: a proton from N, O, S or a halogen, a
+        hydride from an atom less electronegative than hydrogen (B-H, Al-H, Si-H, a metal hydride;
+        Pauling), either from carbon (an enolisation's proton, NADH's or a Cannizzaro's hydride)."""
+        parents = self.state.mol.GetAtomWithIdx(hydrogen).GetNeighbors()
+        if not parents:
+            return "proton"   # a bare H+ (or H2's, taken whole): a base's pair goes to it
+        element = parents[0].GetAtomicNum()
+        if element == 6:
+            return "either"
+        return "proton" if ELECTRONEGATIVITY.get(element, 0.0) > ELECTRONEGATIVITY[1] else "hydride"
 
     def apply(self, move: Move) -> None:
         src, sink, n = move.source, move.sink, move.electrons

@@ -141,6 +141,25 @@ end
     assert len(shell) == 1 and "20 valence electrons" in shell[0].message and "18-electron" in shell[0].message
 
 
+@pytest.mark.parametrize("donor, move, wanted, not_wanted", [
+    # sodium borohydride on cyclohexanone: B-H delivers a hydride (Clayden, memory)
+    ('"[BH4-:5]"', "H(B5) -> C2", "`B5-H -> C2-H(B5)`", "proton"),
+    # hydroxide's proton handed on: an O-H gives a proton
+    ('"[OH2:5]"', "H(O5) -> C2", "`:C2 -> H(O5)`", "hydride"),
+    # a C-H: a proton (an enolisation) or a hydride (NADH, a Cannizzaro): both named
+    ('"C1=CN([CH3])C=C[CH2:5]1"', "H(C5) -> C2", "`C5-H -> C2-H(C5)`", None),
+])
+def test_the_arrow_from_a_hydrogen_hint_fits_what_the_hydrogen_leaves_as(donor, move, wanted, not_wanted):
+    """AR204's hint told an arrow drawn from borohydride's hydrogen to start at C2's lone pair and
+    take a proton: C2 has none, and B-H gives a hydride (the language's `B5-H -> C2-H(B5)`). The
+    hint follows the parent's Pauling electronegativity against hydrogen's (2.20): B, Al, Si and
+    metals give hydrides, N, O, S and halogens protons, carbon either (common practice)."""
+    text = (f'species ketone = "[O:1]=[C:2]1CCCCC1"\nspecies donor = {donor}\nstep "s"\n    {move}\n'
+            f'    C2=O1 -> O1\nend\n')
+    (d,) = [d for d in check_text(text)[1] if d.code == "AR204"]
+    assert wanted in d.hint and (not_wanted is None or not_wanted not in d.hint), d.hint
+
+
 def test_a_nitrene_is_not_called_a_cation():
     """Methyl azide losing N2 leaves a neutral nitrene, N with six valence electrons (textbook
     photolysis of an azide, from memory): AR505 names it so; it once said "an N cation"."""
