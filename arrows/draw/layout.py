@@ -60,6 +60,9 @@ _HELD_APART_ROOM = 0.8   # least room for a cycloaddition partner held off its p
 _CURLED = 1.3        # a bond about to form, depicted shorter than this, is drawn curled into its ring
 _TAKEN = 0.4         # an atom this near a spot stands on it
 _CROWDED = 0.8       # atoms of two clusters nearer than this read as one jumble (labels overlap)
+# Furthest a bystander steps clear. One left where it acted, lying right across a molecule placed
+# there since (a spent Et3NH+ over the enone that enters next), clears it only past its own width.
+_STEP_CLEAR_REACH = 6.0
 _HYDROGEN_ROOM = 0.85   # nearest approach of any other atom to a travelling hydrogen
 _FED_ANGLE = math.radians(80)   # least angle between a C-H and the bond its pair goes into
 # ...or, where every spot that wide sends the arrow across another bond of the carbon or onto it
@@ -3532,8 +3535,8 @@ class _LayoutBuilder:
 
     def _step_clear(self, molecule: set[int], run: range) -> None:
         """Move `molecule` in the panels of `run` by the shortest shift (tried every 0.05 bond
-        lengths, every 10 degrees within 90 of straight away from what crowds it) that keeps it
-        _CLEARANCE from every other atom drawn there."""
+        lengths up to _STEP_CLEAR_REACH, every 10 degrees within 90 of straight away from what
+        crowds it) that keeps it _CLEARANCE from every other atom drawn there."""
         mine, others = [], []
         for k in run:
             here = self.positions[k]
@@ -3551,7 +3554,7 @@ class _LayoutBuilder:
         away = unit(push) if abs(push) > 1e-9 else unit(mine_at.mean() - others_at.mean())
         turns = _COMPASS[np.abs(np.angle(_COMPASS)) <= math.pi / 2 + 1e-9]
         turns = turns[np.argsort(np.abs(np.angle(turns)))]     # straight away first
-        for distance in np.arange(0.05, 3.01, 0.05):
+        for distance in np.arange(0.05, _STEP_CLEAR_REACH + 0.01, 0.05):
             shifts = away * turns * distance
             gaps = np.abs(mine_at[None, :, None] + shifts[:, None, None] - others_at[None, None, :]).min(axis=(1, 2))
             clear = np.flatnonzero(gaps >= _CLEARANCE)

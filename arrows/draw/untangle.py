@@ -212,6 +212,17 @@ class Untangler:
             return None
         return range(first, last + 1)
 
+    def _held_elsewhere(self, panels: range, pivot: int, root: int, side: set[int]) -> bool:
+        """Whether, in a panel of the run, `side` is bonded to the rest by more than its bond
+        root-pivot (a carbamate's O-tBu bond, broken only in a later panel): a turn about the
+        pivot would stretch that bond."""
+        for p in panels:
+            here = self.positions[p]
+            if any((i in side) != (j in side) and {i, j} != {pivot, root} and i in here and j in here
+                   for i, j in self.bonds[p]):
+                return True
+        return False
+
     def _turn_off(self, k: int, fault: frozenset[int]) -> bool:
         here = self.positions[k]
         adjacent = _adjacent(self.bonds[k], set(here))
@@ -225,7 +236,7 @@ class Untangler:
                         or 2 * len(side) > len(side_beyond(pivot, -1, adjacent)):
                     continue   # a ring bond, a turn that would not part the fault, or the larger half
                 panels = self._run_of(k, side)
-                if panels is None:
+                if panels is None or self._held_elsewhere(panels, pivot, root, side):
                     continue
                 for turn in _TURNS:
                     score = self._score(panels, pivot, root, side, turn)
