@@ -64,6 +64,7 @@ _CROWDED = 0.8       # atoms of two clusters nearer than this read as one jumble
 # there since (a spent Et3NH+ over the enone that enters next), clears it only past its own width.
 _STEP_CLEAR_REACH = 6.0
 _HYDROGEN_ROOM = 0.85   # nearest approach of any other atom to a travelling hydrogen
+_HYDROGEN_ROOM_SCORED = 1.2   # more room than this round a travelling hydrogen counts no more
 _FED_ANGLE = math.radians(80)   # least angle between a C-H and the bond its pair goes into
 # ...or, where every spot that wide sends the arrow across another bond of the carbon or onto it
 # (three other bonds round the carbon), the least angle of the hydrogen in the gap next to it.
@@ -740,8 +741,9 @@ class _LayoutBuilder:
             self.orders_in.append(orders)
             self.holders.append(holders)
             self.bonds_in.append(set(orders))
-        # Per step: the bonds it breaks (_opens_small_ring asks for every cluster).
+        # Per step: the bonds it breaks and makes (asked for every cluster and every placement).
         self.broken = [self.bonds_in[k] - self.bonds_in[k + 1] for k in range(self.n - 1)]
+        self.made = [self.bonds_in[k + 1] - self.bonds_in[k] for k in range(self.n - 1)]
         self.leaving = self._heterolyses(moves)
         # The double bonds a species wrote E or Z for, which the depiction must draw so.
         self.written_double = _written_double_bonds(self.states)
@@ -828,7 +830,7 @@ class _LayoutBuilder:
         the forming bond opens to about OPEN_BOND bond lengths, so the arrow into it has room, as
         chemists draw a ring closure. A ring with no chain end stays curled."""
         for k in range(self.n - 1):
-            for i, j in sorted(self.bonds_in[k + 1] - self.bonds_in[k]):
+            for i, j in sorted(self.made[k]):
                 if self.cluster_of.get(i) not in clusters or self.cluster_of[i] != self.cluster_of.get(j):
                     continue
                 here = self.positions[k]
@@ -976,9 +978,11 @@ class _LayoutBuilder:
         along = unit(b - a)
         flipped = {m: a + along * ((here[m] - a) / along).conjugate() for m in moving}
         reach = abs(flipped[end] - here[partner])
+        if not 1.5 <= reach <= APPROACH + 0.4:
+            return None   # (before the room is measured: most flips fail here)
         crowd = [q for p in panels for x, q in self.positions[p].items() if x not in moving]
         room = min((abs(f - q) for f in flipped.values() for q in crowd), default=9.0)
-        if not 1.5 <= reach <= APPROACH + 0.4 or room < 0.95:
+        if room < 0.95:
             return None
         return room, panels, flipped
 
@@ -1770,7 +1774,7 @@ class _LayoutBuilder:
         if last + 1 >= self.n or len(pieces.groups()) != 2:
             return []
         members = set(group)
-        return [(i, j) for i, j in self.bonds_in[last + 1] - self.bonds_in[last]
+        return [(i, j) for i, j in self.made[last]
                 if i in members and j in members and pieces.find(i) != pieces.find(j)]
 
     def _around_joining_atom(self, local: dict[int, complex], large: list[int], bonds: set[tuple[int, int]],
@@ -2777,12 +2781,12 @@ class _LayoutBuilder:
         after it as it leaves `anchor`, when that atom is not `anchor`'s neighbour (a 1,2-shift is
         placed by its own rule) and belongs to another molecule; None otherwise."""
         last = segment[1]
-        if last + 1 >= self.n or (min(anchor, mover), max(anchor, mover)) not in self.bonds_in[last] - self.bonds_in[last + 1]:
+        if last + 1 >= self.n or (min(anchor, mover), max(anchor, mover)) not in self.broken[last]:
             return None
         here = self.positions[last]
         molecule = next((m for m in self.molecules[last] if anchor in m), ())
         target = next((n for n in sorted(self.neighbours[mover])
-                       if (min(mover, n), max(mover, n)) in self.bonds_in[last + 1] - self.bonds_in[last]
+                       if (min(mover, n), max(mover, n)) in self.made[last]
                        and n in here and n not in molecule), None)
         return None if target is None else here[target]
 
@@ -2866,8 +2870,7 @@ class _LayoutBuilder:
         here, before = self.positions[k], self.positions[k - 1]
         if anchor not in here:
             return None
-        made = self.bonds_in[k] - self.bonds_in[k - 1]
-        broken = self.bonds_in[k - 1] - self.bonds_in[k]
+        made, broken = self.made[k - 1], self.broken[k - 1]
 
         def sides() -> Iterator[complex]:
             """The anchor's side of the ring, for each group passed across it."""
@@ -2900,11 +2903,10 @@ class _LayoutBuilder:
         `anchor` (a 1,2-shift), or None."""
         if last + 1 >= self.n:
             return None
-        before, after = self.bonds_in[last], self.bonds_in[last + 1]
-        if (min(anchor, mover), max(anchor, mover)) not in before - after:
+        if (min(anchor, mover), max(anchor, mover)) not in self.broken[last]:
             return None
-        return next((n for n in sorted(self.neighbours[mover]) if (min(mover, n), max(mover, n)) in after - before
-                     and (min(anchor, n), max(anchor, n)) in before), None)
+        return next((n for n in sorted(self.neighbours[mover]) if (min(mover, n), max(mover, n)) in self.made[last]
+                     and (min(anchor, n), max(anchor, n)) in self.bonds_in[last]), None)
 
     def _between_partners(self, anchor: int, mover: int, k: int, depicted: dict[int, complex], u: complex
                           ) -> tuple[complex, Optional[int]]:
@@ -3302,7 +3304,7 @@ class _LayoutBuilder:
         """Whether a bond of the cluster forms in the step into panel `first`."""
         if first == 0:
             return False
-        made = self.bonds_in[first] - self.bonds_in[first - 1]
+        made = self.made[first - 1]
         return any((min(a, n), max(a, n)) in made for a in cluster.atoms for n in self.neighbours[a])
 
     @staticmethod
@@ -3338,7 +3340,7 @@ class _LayoutBuilder:
         atoms = set(self.clusters[index].atoms)
         k = segment[0]
         mol = self.states[k].mol
-        split = [(i, j) for i, j in self.bonds_in[k - 1] - self.bonds_in[k] if (i in atoms) != (j in atoms)]
+        split = [(i, j) for i, j in self.broken[k - 1] if (i in atoms) != (j in atoms)]
         apart = any(mol.GetAtomWithIdx(i if i in atoms else j).GetNumRadicalElectrons()
                     or (self._lettered(i, mol) and self._lettered(j, mol)) for i, j in split)
         rotation, shift, direction, pull_back = previous
@@ -3418,7 +3420,7 @@ class _LayoutBuilder:
         here = self.positions[k]
         pairs = [(a, b) for kk, kind, a, b, _ in self.events if kk == k and kind in ("hop", "transfer")]
         if k + 1 < self.n:
-            pairs += list(self.bonds_in[k + 1] - self.bonds_in[k])
+            pairs += list(self.made[k])
         return [(here[a], here[b]) for a, b in pairs
                 if a in here and b in here and a not in skip and b not in skip]
 
@@ -3489,7 +3491,7 @@ class _LayoutBuilder:
         if following is None or following[0] in cluster.placement or not self._bonds_as_it_arrives(cluster, following[0]):
             return False
         k = following[0]
-        made = self.bonds_in[k] - self.bonds_in[k - 1]
+        made = self.made[k - 1]
         return any(n in self.cluster_of and self.cluster_of[n] != index and not self._placed_at(self.cluster_of[n], k)
                    for a in cluster.atoms for n in self.neighbours[a] if (min(a, n), max(a, n)) in made)
 
@@ -4067,12 +4069,19 @@ class _LayoutBuilder:
         # particular order, as only their nearest approach is asked for).
         # (A hydrogen another molecule holds but this panel does not draw takes no room; one of
         # its own cluster keeps its spot, so that the cluster reads alike from panel to panel.)
+        # Only those that may stand nearer a spot than the most room scored (_HYDROGEN_ROOM_SCORED):
+        # one further out changes no score, and most of the panel is passed over before the tests
+        # and the distances to every compass direction.
         own = self.cluster_of.get(r.holder)
-        relative = np.array(list({p - self.positions[k][r.holder] for k in panels
-                                  for a, p in self.positions[k].items()
-                                  if a not in (r.hydrogen, r.holder)
-                                  and (self._drawn_in(a, k) or self.cluster_of.get(self._holder(k, a)) == own)}),
-                            dtype=complex)
+        within = max(1.0, abs(start)) + _HYDROGEN_ROOM_SCORED + 0.05   # (directions are unit, or start)
+        nearby = set()
+        for k in panels:
+            centre = self.positions[k][r.holder]
+            for a, p in self.positions[k].items():
+                if abs(p - centre) < within and a not in (r.hydrogen, r.holder) \
+                        and (self._drawn_in(a, k) or self.cluster_of.get(self._holder(k, a)) == own):
+                    nearby.add(p - centre)
+        relative = np.array(list(nearby), dtype=complex)
         following = runs[n + 1] if n + 1 < len(runs) else None
         moves_on = last and following is not None and following.holder is not None and following.first == r.last + 1
         partner = None
@@ -4116,13 +4125,20 @@ class _LayoutBuilder:
         crossed_now = any(segments_cross(0j, start, a, b) for a, b in walls)
         room_now = room(start)
         fed = self._fed_shut(r.hydrogen, r.holder, panels[0])
-        # Each compass direction's miss, worked out once for the two uses below.
-        misses = list(map(miss, _HYDROGEN_COMPASS)) if partner is not None else [0.0] * len(_HYDROGEN_COMPASS)
+        # Each compass direction's miss, worked out once and only where it is asked for: most
+        # directions lose on the tests before it.
+        misses: list[Optional[float]] = [None] * len(_HYDROGEN_COMPASS)
+
+        def miss_at(index: int) -> float:
+            if misses[index] is None:
+                misses[index] = miss(_HYDROGEN_COMPASS[index])
+            return misses[index]
+
         if partner is not None:
             # The gap beside the fed bond only where the partner, placed by now, is in reach of
             # it: otherwise the arrow that takes the hydrogen runs long, round the molecule.
-            beside = [m for m, shut in zip(misses, fed(_HYDROGEN_COMPASS_ARRAY).tolist()) if not shut]
-            if min(beside, default=0.0) > _FAR_FROM_PARTNER:
+            beside = [index for index, shut in enumerate(fed(_HYDROGEN_COMPASS_ARRAY).tolist()) if not shut]
+            if beside and all(miss_at(index) > _FAR_FROM_PARTNER for index in beside):
                 fed = self._fed_shut(r.hydrogen, r.holder, panels[0], relax=False)
 
         def cramped(direction: complex) -> bool:
@@ -4166,7 +4182,7 @@ class _LayoutBuilder:
         # of the molecules its holder's stands beside; among those, room and a comfortable hop.
         start_score = (not cramped(start), room_now >= _HYDROGEN_ROOM and not crossed_now,
                        not crossed_now, not closed(start), clear(start),
-                       min(room_now, 1.2) + 0.1 - miss(start))
+                       min(room_now, _HYDROGEN_ROOM_SCORED) + 0.1 - miss(start))
         best, best_score = start, start_score
         compass = _HYDROGEN_COMPASS
         rooms = (np.minimum.reduce(np.abs(relative - _HYDROGEN_COMPASS_ARRAY[:, None]), axis=1).tolist() if len(relative)
@@ -4175,11 +4191,13 @@ class _LayoutBuilder:
         shut = fed(_HYDROGEN_COMPASS_ARRAY).tolist()
         clears = ((np.minimum.reduce(np.abs(aloof - _HYDROGEN_COMPASS_ARRAY[:, None]), axis=1) >= _CLEARANCE).tolist()
                   if len(aloof) else [True] * len(compass))
-        for d, space, crossed, cramped_d, clear_d, miss_d in zip(compass, rooms, crossing(compass), shut, clears,
-                                                                  misses):
-            score = (not cramped_d, space >= _HYDROGEN_ROOM and not crossed, not crossed, not closed(d), clear_d,
-                     min(space, 1.2) + 0.1 * (d / start).real - miss_d)
-            if not (score[:5] > best_score[:5] or (score[:5] == best_score[:5] and score[5] > best_score[5] + 0.05)):
+        for index, (d, space, crossed, cramped_d, clear_d) in enumerate(zip(compass, rooms, crossing(compass), shut,
+                                                                             clears)):
+            tests = (not cramped_d, space >= _HYDROGEN_ROOM and not crossed, not crossed, not closed(d), clear_d)
+            if tests < best_score[:5]:
+                continue   # (lost on the tests: its miss is not worked out)
+            score = tests + (min(space, _HYDROGEN_ROOM_SCORED) + 0.1 * (d / start).real - miss_at(index),)
+            if not (tests > best_score[:5] or score[5] > best_score[5] + 0.05):
                 continue
             # Only a direction that would win is asked whether it is allowed at all.
             if any(abs(cmath.phase(d / b)) < _OFF_A_BOND for b in bonds):
