@@ -331,6 +331,9 @@ MORE_ACIDS = [
     ("Cc1ccc(cc1)S(=O)(=O)O", 10, -2.8),   # TsOH
     ("OC(=O)[O-]", 0, 10.3),        # bicarbonate, not a carboxylic acid
     ("c1cc[nH+]cc1", 3, 5.2),       # pyridinium
+    ("c1cc[nH+][nH]1", 3, 2.5),     # pyrazolium, not a pyridinium's 5.2
+    ("c1cc[nH+][nH]1", 4, 2.5),     # its other N-H (once unjudged)
+    ("c1nc[nH+][nH]1", 3, 2.5),     # 1,2,4-triazolium
     ("[NH3+]c1ccccc1", 0, 4.6),     # anilinium, not an alkylammonium ion (~10)
     ("CCOC(=O)CC(=O)OCC", 5, 13),   # diethyl malonate, not a 1,3-diketone's 9
     ("CCOC(=O)CC(C)=O", 5, 11),     # ethyl acetoacetate

@@ -92,6 +92,11 @@ TABLE: tuple[Acidity, ...] = (
             "[nX3;H1;$(n1:c:[n+]:c2:c:c:c:c:c:2:1),$([n+]1:c:n:c2:c:c:c:c:c:2:1)]", 5.5, "5.5", NOT_LISTED),
     Acidity("an imidazolium N-H", "an imidazole",
             "[nX3;H1;$(n1:c:[n+]:[c;R1]:[c;R1]:1),$([n+]1:c:n:[c;R1]:[c;R1]:1)]", 7.0, "7.0", NOT_LISTED),
+    # An azolium with two ring N side by side: pyrazolium 2.5, 1,2,4-triazolium 2.2, indazolium 1.2
+    # (aqueous, memory), either N-H (the proton the Kekule form puts on n+, or on the n beside it):
+    # far more acidic than an imidazolium (~7), whose N sit apart, or pyridinium, as which they were read.
+    Acidity("a pyrazolium or triazolium N-H", "a pyrazole or triazole", "[nX3;H1;$([n+]:n),$(n:[n+;H1])]", 2.5,
+            "~1-2.5", NOT_LISTED),
     # Pyridinium 5.2, a nitroalkane's C-H ~10, a thiol ~10.5, H2S ~7 (aqueous, memory).
     Acidity("a pyridinium ion", "a pyridine", "[nX3+;H1]", 5.2, "5.2", NOT_LISTED),
     # 1H-Tetrazole 4.9 (aqueous, memory), the activator of phosphoramidite couplings: its N-H, in
