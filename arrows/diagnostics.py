@@ -746,7 +746,7 @@ CODES = _table(
          "cation beside the heteroatom, whose lone pair makes it an oxocarbenium or iminium ion: such "
          "alkenes react at the carbon away from the heteroatom (common practice; the "
          "tetrahydropyranyl ether from dihydropyran, the Stork enamine reactions, Clayden, from memory). A cation left allylic, "
-         "benzylic or beside a lone pair is not judged, nor a primary one (AR511).",
+         "benzylic or beside a lone pair is not judged; a primary one (an acetone enamine's CH2) is AR533's, not AR511's.",
          'species dhp = "[O:1]1[CH:2]=[CH:3][CH2:4][CH2:5][CH2:6]1"\n'
          'species acid = "[OH3+:7]"\n'
          'step "protonation"\n'

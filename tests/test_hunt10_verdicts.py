@@ -208,6 +208,26 @@ def test_an_enamine_methylated_at_the_wrong_carbon_is_flagged():
     assert "`C1=C2 -> C2-C6`" in d.hint
 
 
+# The enamine of acetone (pyrrolidine's; proline catalysis makes the like, List, Lerner & Barbas,
+# J. Am. Chem. Soc. 2000; from memory) bonded to benzaldehyde at its N-bearing carbon leaves a
+# primary CH2+ beside it: the enamine's fault, told as such, not AR511's Markovnikov hint.
+ACETONE_ENAMINE_WRONG_CARBON = '''species enamine = "[CH2:1]=[C:2]([CH3:4])[N:24]1CCCC1"
+species aldehyde = "c1ccccc1[CH:5]=[O:6]"
+step "C-C bond formation at the wrong carbon"
+    C1=C2 -> C2-C5
+    C5=O6 -> O6
+end
+'''
+
+
+def test_an_acetone_enamine_bonded_at_its_n_bearing_carbon_gets_the_enamine_hint():
+    """Failed before the change: AR511 (a primary cation; 'Markovnikov, or make the step concerted')."""
+    d = only(ACETONE_ENAMINE_WRONG_CARBON, "AR533")
+    assert "C5 bonds to C2, the carbon that bears N24" in d.message
+    assert "`C1=C2 -> C1-C5`, with `:N24 -> N24=C2`" in d.hint
+    assert "AR511" not in codes(ACETONE_ENAMINE_WRONG_CARBON)
+
+
 # --- 4. AR602's SMILES with atoms bonded to a metal ------------------------------------------------
 # The titanium aldolate of a Mukaiyama aldol (Mukaiyama, Narasaka & Banno, Chem. Lett. 1973, 1011;
 # Kurti & Czako; from memory).

@@ -215,15 +215,16 @@ def _cation_beside_an_anion(st: StepTrace) -> Iterator[Diagnostic]:
 _ONIUM_CATION = {7: "an iminium ion", 8: "an oxocarbenium ion", 16: "a thionium ion"}
 
 
-def _reacted_at_the_donor_end(st: StepTrace) -> Iterator[Diagnostic]:
-    """AR533: a C=C pair takes a proton, or bonds to another electrophile (a Michael acceptor's
-    carbon, an alkyl halide's), at the carbon that bears an O, N or S with a lone pair (an enol
-    ether, an enamine, a vinyl sulfide), leaving the other carbon a bare alkyl cation, where the
-    bond made at that other carbon would leave the cation beside the heteroatom, whose lone pair
-    spreads the charge (an oxocarbenium or iminium ion). Such alkenes react at the carbon away from
-    the heteroatom (common practice; Clayden, the tetrahydropyranyl ether from dihydropyran, the
-    Stork enamine alkylation and Michael addition; from memory). A cation left allylic, benzylic or
-    beside a lone pair is not judged, nor a primary one (AR511's)."""
+def _reacted_at_the_donor_end(st: StepTrace) -> Iterator[tuple[int, Diagnostic]]:
+    """AR533, with the carbocation it names: a C=C pair takes a proton, or bonds to another
+    electrophile (a Michael acceptor's carbon, an alkyl halide's), at the carbon that bears an O, N
+    or S with a lone pair (an enol ether, an enamine, a vinyl sulfide), leaving the other carbon a
+    bare alkyl cation, where the bond made at that other carbon would leave the cation beside the
+    heteroatom, whose lone pair spreads the charge (an oxocarbenium or iminium ion). Such alkenes
+    react at the carbon away from the heteroatom (common practice; Clayden, the tetrahydropyranyl
+    ether from dihydropyran, the Stork enamine alkylation and Michael addition; from memory). A
+    primary cation so left (an acetone enamine's CH2) is AR533's too, not AR511's: its hint names
+    the fix. A cation left allylic, benzylic or beside a lone pair is not judged."""
     if st.step.kind == "resonance":
         return
     before, after = st.before, st.after
@@ -239,15 +240,14 @@ def _reacted_at_the_donor_end(st: StepTrace) -> Iterator[Diagnostic]:
             continue   # a pi bond made from a sigma one, or kept: no bond to a new atom
         other = next(k for k in m.source_atoms if k != end)
         if (elements[other] != 6 or before.bond_electrons(end, other) != 4 or after.formal_charge(other) != 1
-                or after.nonbonding[other] or not _bare_alkyl_cation(after, other)
-                or unstabilised_primary_cation(after.mol, other)):
+                or after.nonbonding[other] or not _bare_alkyl_cation(after, other)):
             continue
         donor = next((n.GetIdx() for n in after.mol.GetAtomWithIdx(end).GetNeighbors()
                       if elements[n.GetIdx()] in _ONIUM_CATION and after.formal_charge(n.GetIdx()) == 0
                       and after.nonbonding[n.GetIdx()] >= 2), None)
         if donor is None:
             continue
-        yield _donor_end_diagnostic(st, m, end, other, taker, donor)
+        yield other, _donor_end_diagnostic(st, m, end, other, taker, donor)
 
 
 def _donor_end_diagnostic(st: StepTrace, m, end: int, other: int, taker: int, donor: int) -> Diagnostic:
@@ -647,7 +647,10 @@ class UnusualElectronCounts(Check):
         yield from _pi_pair_onto_carbon(st)
         yield from _pi_pair_onto_oxo_centre(st)
         yield from _cation_beside_an_anion(st)
-        yield from _reacted_at_the_donor_end(st)
+        donor_end_cations = set()
+        for cation, finding in _reacted_at_the_donor_end(st):
+            donor_end_cations.add(cation)
+            yield finding
         for i, old_charge, charge in st.change.charges:
             # As for the shell below: a charge the species was written with and the step keeps
             # (a sulfonyl S written S2+ with two O-) is not the step's doing; nor is one the step
@@ -673,7 +676,7 @@ class UnusualElectronCounts(Check):
                                  hint=_sextet_hint(st, i), atoms=(label,), step=st.index)
             made_carbocation = (shell == 6 and element == 6 and old_shell > 6 and after.nonbonding[i] == 0
                                 and after.formal_charge(i) == 1)
-            if made_carbocation and unstabilised_primary_cation(after.mol, i):
+            if made_carbocation and i not in donor_end_cations and unstabilised_primary_cation(after.mol, i):
                 label = after.label(i)
                 yield Diagnostic("AR511", f"{label} is left as a primary (or methyl) carbocation with nothing to "
                                  f"stabilise it", st.step.loc,
