@@ -18,7 +18,7 @@ from .diagnostics import Diagnostic
 from .model import (AtomSink, BareAtom, BondPair, BondRef, BondSink, HydrogenOn, Location, LonePair, Move, NonbondingSink, Step,
                     UnpairedElectron, CONNECTORS)
 from .configuration import carry_configuration, has_configuration, may_configure, names_light
-from .rdkit_io import ELECTRONEGATIVITY, atom_list, valence_complaint, valence_electrons
+from .rdkit_io import ELECTRONEGATIVITY, HYDRIDIC, atom_list, valence_complaint, valence_electrons
 
 _BOND_TYPES = {1: Chem.BondType.SINGLE, 2: Chem.BondType.DOUBLE, 3: Chem.BondType.TRIPLE}
 # RDKit's valence check and computed properties (implicit hydrogens, explicit valence): what makes a
@@ -470,16 +470,14 @@ class _StepReplay:
         return index
 
     def _hydrogen_leaves_as(self, hydrogen: int) -> str:
-        """What a hydrogen most likely leaves its parent as: a proton from N, O, S or a halogen, a
-        hydride from an atom less electronegative than hydrogen (B-H, Al-H, Si-H, a metal hydride;
-        Pauling), either from carbon (an enolisation's proton, NADH's or a Cannizzaro's hydride)."""
+        """What a hydrogen most likely leaves its parent as: a hydride from a hydridic element
+        (rdkit_io.HYDRIDIC: B-H, Al-H, Si-H, a main-group metal hydride), either from carbon (an
+        enolisation's proton, NADH's or a Cannizzaro's hydride), a proton from anything else."""
         parents = self.state.mol.GetAtomWithIdx(hydrogen).GetNeighbors()
         if not parents:
             return "proton"   # a bare H+ (or H2's, taken whole): a base's pair goes to it
         element = parents[0].GetAtomicNum()
-        if element == 6:
-            return "either"
-        return "proton" if ELECTRONEGATIVITY.get(element, 0.0) > ELECTRONEGATIVITY[1] else "hydride"
+        return "either" if element == 6 else "hydride" if element in HYDRIDIC else "proton"
 
     def apply(self, move: Move) -> None:
         src, sink, n = move.source, move.sink, move.electrons

@@ -334,6 +334,14 @@ def valence_electrons(atomic_num: int) -> int:
 ELECTRONEGATIVITY = {1: 2.20, 5: 2.04, 6: 2.55, 7: 3.04, 8: 3.44, 9: 3.98, 14: 1.90, 15: 2.19, 16: 2.58,
                      17: 3.16, 35: 2.96, 53: 2.66}
 
+# Elements whose hydrogens are hydridic, less electronegative than hydrogen: they leave with the
+# bond's pair (a borohydride's or LiAlH4's hydride going to a C=O, NaH taking a proton, a silane's
+# Si-H in an ionic hydrogenation) and are no proton source (common practice). Groups 1, 2, 12 and
+# 13, Si, Ge, Sn. The d-block metals of groups 3-11 are left out: their hydrides run from hydridic
+# to acidic (HCo(CO)4 is a strong acid, memory), and a base taking the proton of H-Pd-X closes the
+# Heck cycle as textbooks draw it.
+HYDRIDIC = frozenset({3, 11, 19, 37, 55, 4, 12, 20, 38, 56, 30, 48, 80, 5, 13, 31, 49, 14, 32, 50})
+
 
 def period(atomic_num: int) -> int:
     for limit, row in ((2, 1), (10, 2), (18, 3), (36, 4), (54, 5), (86, 6)):

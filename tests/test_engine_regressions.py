@@ -148,12 +148,16 @@ end
     ('"[OH2:5]"', "H(O5) -> C2", "`:C2 -> H(O5)`", "hydride"),
     # a C-H: a proton (an enolisation) or a hydride (NADH, a Cannizzaro): both named
     ('"C1=CN([CH3])C=C[CH2:5]1"', "H(C5) -> C2", "`C5-H -> C2-H(C5)`", None),
+    # H2Se is an acid (pKa ~3.9, memory), though Se is not in the Pauling table the engine keeps
+    ('"[SeH2:5]"', "H(Se5) -> C2", "`:C2 -> H(Se5)`", "hydride"),
+    # a palladium hydride gives its proton to a base (the Heck cycle's close, as textbooks draw it)
+    ('"Cl[PdH:5]"', "H(Pd5) -> C2", "`:C2 -> H(Pd5)`", "hydride"),
 ])
 def test_the_arrow_from_a_hydrogen_hint_fits_what_the_hydrogen_leaves_as(donor, move, wanted, not_wanted):
     """AR204's hint told an arrow drawn from borohydride's hydrogen to start at C2's lone pair and
     take a proton: C2 has none, and B-H gives a hydride (the language's `B5-H -> C2-H(B5)`). The
-    hint follows the parent's Pauling electronegativity against hydrogen's (2.20): B, Al, Si and
-    metals give hydrides, N, O, S and halogens protons, carbon either (common practice)."""
+    hint follows the project's one list of hydridic elements (groups 1, 2, 12, 13, Si, Ge, Sn; the
+    one AR508 uses): those give hydrides, carbon either, the rest protons (common practice)."""
     text = (f'species ketone = "[O:1]=[C:2]1CCCCC1"\nspecies donor = {donor}\nstep "s"\n    {move}\n'
             f'    C2=O1 -> O1\nend\n')
     (d,) = [d for d in check_text(text)[1] if d.code == "AR204"]

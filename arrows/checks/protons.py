@@ -37,6 +37,7 @@ from ..judgement.acidity import (ALKOXIDE_ACID_PKA, AZOLIUM_C2_H, HYDROGEN, PYRR
                                  pyrrole_type_nitrogen)
 from ..judgement.perception import Perceived, RecentViews, aromatic
 from ..judgement.sigma_complexes import rearomatising_moves, rearomatising_path_to
+from ..rdkit_io import HYDRIDIC
 from ..model import Location
 from ..trace import StepTrace
 from . import Check
@@ -377,15 +378,6 @@ def _units(uphill: float, gap: float) -> str:
     """The gap as a whole number, unless that would read as no more than the threshold ("uphill by
     about 12 ... the threshold is 12"): then with one decimal."""
     return f"{uphill:.0f}" if round(uphill) > gap else f"{uphill:.1f}"
-
-
-# Elements whose hydrogens are hydridic, less electronegative than hydrogen: they leave with the
-# bond's pair (a borohydride's or LiAlH4's hydride going to a C=O, NaH taking a proton, a silane's
-# Si-H in an ionic hydrogenation) and are no proton source (common practice). Groups 1, 2, 12 and
-# 13, Si, Ge, Sn. The d-block metals of groups 3-11 are left out: their hydrides run from hydridic
-# to acidic (HCo(CO)4 is a strong acid, memory), and a base taking the proton of H-Pd-X closes the
-# Heck cycle as textbooks draw it.
-HYDRIDIC = frozenset({3, 11, 19, 37, 55, 4, 12, 20, 38, 56, 30, 48, 80, 5, 13, 31, 49, 14, 32, 50})
 
 
 def _hydride_taken_as_a_proton(st: StepTrace, t: ProtonTransfer) -> Diagnostic:
