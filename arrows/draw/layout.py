@@ -3863,8 +3863,7 @@ class _LayoutBuilder:
         for p in panels:
             if p + 1 < self.n:
                 here = self.positions[p]
-                made = [pair for pair in self._changed_bonds(p) if centre in pair and pair not in self.bonds_in[p]
-                        and pair in self.bonds_in[p + 1]]
+                made = [pair for pair in self.made[p] if centre in pair]
                 partners += [unit(here[a + b - centre] - origin) for a, b in made if a + b - centre in here]
         kept_off = [min(angle(start, q), math.radians(100)) for q in partners]
         turns = []   # (score, order, direction) of every turn that would do, widest first
