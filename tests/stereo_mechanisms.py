@@ -38,6 +38,13 @@ CENTRES = {
 _ANTI_BROMINATION = ('species alkene = "C/[CH:1]=[CH:2]{}C"\nspecies bromine = "[Br:3][Br:4]"\n'
                      'step "bromonium ion"\n    C1=C2 -> C1-Br3\n    :Br3 -> C2\n    Br3-Br4 -> Br4\nend\n'
                      'step "anti opening"\n    :Br4 -> C1\n    Br3-C1 -> Br3\nend\n')
+
+
+def anti_bromination(geometry: str) -> str:
+    """Bromine and but-2-ene written with `geometry` ("/" E, "\\" Z), opened anti."""
+    return _ANTI_BROMINATION.format(geometry)
+
+
 SYN_ADDITIONS = {
     "bromine to E-but-2-ene": _ANTI_BROMINATION.format("/"),
     "bromine to Z-but-2-ene": _ANTI_BROMINATION.format("\\\\"),

@@ -19,6 +19,8 @@ import math
 import arrows
 from arrows.draw import STYLES, build_scene
 
+from stereo_mechanisms import anti_bromination
+
 # Cope elimination of (2R,3S)-N,N-dimethyl-3-phenylbutan-2-amine N-oxide: syn elimination through a
 # five-membered TS gives (E)-2-phenylbut-2-ene (March, from memory).
 COPE = """
@@ -44,19 +46,7 @@ product "COC(=O)[C@@H]1CC=CC[C@H]1C(=O)OC"
 """
 
 # Bromine and (Z)-but-2-ene: anti addition through a bromonium ion (Clayden ch. 19, from memory).
-BROMONIUM = """
-species alkene  = "C/[CH:1]=[CH:2]\\C"
-species bromine = "[Br:3][Br:4]"
-step "bromonium ion"
-    C1=C2 -> C1-Br3
-    :Br3 -> C2
-    Br3-Br4 -> Br4
-end
-step "opening from the back"
-    :Br4 -> C1
-    Br3-C1 -> Br3
-end
-"""
+BROMONIUM = anti_bromination("\\")
 
 
 def _scene(text, **options):

@@ -23,7 +23,7 @@ from arrows.cli import cli
 from arrows.judgement.stereo import CENTRE, DOUBLE_BOND, _mirror, relation, stereo_elements
 
 from stereo_judges import alkene_geometry, periplanar
-from stereo_mechanisms import COPE, E2, RING_E2, hexadiene_cycloaddition
+from stereo_mechanisms import COPE, E2, RING_E2, anti_bromination, hexadiene_cycloaddition
 from textbook_mechanisms import BAEYER_VILLIGER_RETENTION, NITRATION, SNAR
 
 GALLERY = sorted((Path(__file__).resolve().parent.parent / "gallery").glob("*.mech"))
@@ -271,18 +271,6 @@ step "backside attack"
     C1-Br2 -> Br2
 end
 """
-BROMINE_TO_BUTENE = """species alkene  = "C/[CH:1]=[CH:2]{geometry}C"
-species bromine = "[Br:3][Br:4]"
-step "bromonium ion"
-    C1=C2 -> C1-Br3
-    :Br3 -> C2
-    Br3-Br4 -> Br4
-end
-step "opening from the back"
-    :Br4 -> C1
-    Br3-C1 -> Br3
-end
-"""
 CYCLOBUTENE_OPENING = """species ring = "C[C@@H:1]1[CH:2]=[CH:3][C@@H:4]1C"
 step "ring opening"
     C1-C4 -> C1=C2
@@ -329,7 +317,7 @@ def test_trace_stereo_labels_the_centres_of_an_anti_addition(tmp_path, geometry,
     pair. The labels the final block gives the two centres are RDKit's for the product (or its
     mirror image, for the racemate: the replay picks one of the pair); the lost double bond is
     named E or Z as RDKit labels the alkene."""
-    text = BROMINE_TO_BUTENE.format(geometry=geometry)
+    text = anti_bromination(geometry)
     final = traced_configurations(text, tmp_path, "  C[C@")
     judged = [sorted(rdkit_cip(s).values()) for s in (product, Chem.MolToSmiles(_mirror(Chem.MolFromSmiles(product))))]
     assert sorted(final.values()) in judged
