@@ -822,10 +822,12 @@ CODES = _table(
          "carboxylate ion or its metal salt (a C=O and an O- or O-metal, the rest carbon or hydrogen). The "
          "charge spread over both oxygens makes a carboxylate a very poor electrophile: a Grignard carboxylation "
          "stops at the carboxylate, and an enolate does not add to one (common practice; Clayden, from memory). "
-         "Only an organolithium adds, to a lithium carboxylate, giving the gem-dialkoxide that work-up turns into a "
+         "An organolithium adds, to a lithium carboxylate, giving the gem-dialkoxide that work-up turns into a "
          "ketone (Jorgenson, Org. React. 1970, from memory): a carbon bonded to lithium, or a carbanion with "
-         "nothing beside it to hold the charge written apart from Li+, is not judged. Nor are a hydride or a "
-         "heteroatom nucleophile, a carbonate's or carbamate's carbon and CO2.",
+         "nothing beside it to hold the charge written apart from Li+, is not judged; nor is an organosodium or "
+         "organopotassium (or Rb, Cs), more ionic and more reactive still (Schlosser, Organometallics in "
+         "Synthesis: A Manual, from memory). Nor are a hydride or a heteroatom nucleophile, a carbonate's or "
+         "carbamate's carbon and CO2.",
          'species grignard = "[CH3:1][Mg:2][Br:3]"\n'
          'species acetate = "C[C:4](=[O:5])[O-:6]"\n'
          'step "addition"\n'

@@ -163,6 +163,27 @@ def test_an_organolithium_on_a_lithium_carboxylate_is_not_flagged_guard(nucleoph
     assert "AR538" not in codes(text)
 
 
+@pytest.mark.parametrize("nucleophile, attack", [
+    ("[CH3:1][Na:2]", "C1-Na2 -> C1-C4"),        # methylsodium, written with its C-Na bond
+    ("CCCC[CH2:1][K:2]", "C1-K2 -> C1-C4"),      # pentylpotassium
+    ("[CH3-:1].[K+]", ":C1 -> C4"),              # an ion pair with K+
+], ids=["C-Na", "C-K", "K+ ion pair"])
+def test_an_organosodium_or_organopotassium_on_a_carboxylate_is_not_judged(nucleophile, attack):
+    """Its C-metal bond is more ionic than C-Li (Pauling electronegativities: Li 0.98, Na 0.93, K 0.82)
+    and the reagent more reactive than an organolithium (Schlosser, Organoalkali Chemistry, in
+    Organometallics in Synthesis: A Manual; memory): the warning's ground, that only an
+    organolithium adds (Jorgenson), says nothing of it. It was flagged as "a carbon nucleophile
+    other than an organolithium"."""
+    text = ON_A_CARBOXYLATE.format(nucleophile=nucleophile, attack=attack, salt="[O:6][Na]")
+    assert "AR538" not in codes(text)
+
+
+def test_an_enolate_beside_a_sodium_cation_on_a_carboxylate_is_still_flagged_guard():
+    """A stabilised carbanion is no organoalkali reagent whatever its counter-ion (common practice)."""
+    text = ON_A_CARBOXYLATE.format(nucleophile="[CH2-:1]C(=O)C.[Na+]", attack=":C1 -> C4", salt="[O-:6]")
+    assert "other than an organolithium" in only(text, "AR538").message
+
+
 @pytest.mark.parametrize("electrophile", ["c1ccccc1[C:4](=[O:5])OC", "O=[C:4]=[O:5]"], ids=["ester", "CO2"])
 def test_a_grignard_on_an_ester_or_co2_is_not_flagged_guard(electrophile):
     """The carbonyl carbons a Grignard reagent does add to (Clayden, memory)."""

@@ -15,7 +15,7 @@ from arrows import check_text
 from arrows.api import check_file
 from arrows.checks.protons import pka_gap, proton_transfers
 from arrows.cli import cli
-from arrows.judgement.acidity import acidity_of, perceived
+from arrows.judgement.acidity import AZOLIUM_N_H, TABLE, acidity_of, perceived
 
 from textbook_mechanisms import ACID_ENOLISATION, AZO_COUPLING, ENE_REACTION, WOLFF_KISHNER
 
@@ -334,6 +334,12 @@ MORE_ACIDS = [
     ("c1cc[nH+][nH]1", 3, 2.5),     # pyrazolium, not a pyridinium's 5.2
     ("c1cc[nH+][nH]1", 4, 2.5),     # its other N-H (once unjudged)
     ("c1nc[nH+][nH]1", 3, 2.5),     # 1,2,4-triazolium
+    ("c1[nH+]c[nH]n1", 1, 2.5),     # 1,2,4-triazolium protonated at N4, not a pyridinium's 5.2
+    ("c1[nH+]c[nH]n1", 3, 2.5),     # its N1-H (once unjudged)
+    ("c1c[nH+]n[nH]1", 4, 2.5),     # 1,2,3-triazolium's N1-H, the n+ across N2 (once unjudged; 1.2, memory)
+    ("C[n+]1ccc[nH]1", 5, 2.5),     # 1-methylpyrazolium, the charge drawn on the N-methyl (once unjudged)
+    ("c1[nH+]nn[nH]1", 1, -3),      # tetrazolium, not a pyrazolium's 2.5
+    ("c1[nH+]nn[nH]1", 4, -3),      # its other N-H, not a neutral tetrazole's 4.9
     ("[NH3+]c1ccccc1", 0, 4.6),     # anilinium, not an alkylammonium ion (~10)
     ("CCOC(=O)CC(=O)OCC", 5, 13),   # diethyl malonate, not a 1,3-diketone's 9
     ("CCOC(=O)CC(C)=O", 5, 11),     # ethyl acetoacetate
@@ -364,6 +370,89 @@ def test_carbon_acids_are_judged_by_their_own_pka(base, acid, uphill):
     _, diags = check_text(text, "carbon-acid.mech")
     assert [d.code for d in diags if d.code == "AR508"] == (["AR508"] if uphill else []), \
         [d.to_text() for d in diags]
+
+
+TETRAZOLIUM_TO_WATER = """\
+species tetrazolium = "[cH:1]1[nH+:2][n:3][n:4][nH:5]1"
+species water = "[OH2:6]"
+step "water takes the ring N-H proton"
+    :O6 -> H(N2)
+    N2-H -> N2
+end
+"""
+
+
+def test_a_tetrazolium_gives_its_proton_to_water_downhill():
+    """1H-Tetrazole's conjugate acid has pKa about -3 (a very weak base; Catalan, Abboud & Elguero's
+    review of azole basicity, memory), below H3O+'s -1.7: the transfer runs downhill. It was read
+    as a pyrazolium's N-H (2.5): "uphill by 4.2", flagged under a 3-unit threshold."""
+    trace, _ = check_text(TETRAZOLIUM_TO_WATER, "tetrazolium.mech")
+    (transfer,) = proton_transfers(trace.steps[0])
+    assert (transfer.acid.acid, transfer.conjugate_acid.acid) == ("a tetrazolium N-H", "hydronium")
+    assert transfer.uphill < 0
+    with pka_gap(3):
+        _, diags = check_text(TETRAZOLIUM_TO_WATER, "tetrazolium.mech")
+    assert [d.code for d in diags if d.code == "AR508"] == []
+
+
+# An azolium's other N-H: the one on the N the Kekule form leaves neutral, beside the charged N.
+# Taken, its pair goes back into the ring as the charged N's C=N (or N=N) pair comes onto that N.
+OTHER_N_H = """\
+species azolium = "{azolium}"
+{base}
+step "the N-H beside the charged N is taken"
+    :{b} -> H(N5)
+    N5-H -> N5={partner}
+    {partner}={charged} -> {charged}
+end
+"""
+
+
+@pytest.mark.parametrize("azolium, partner, charged, base, b, entry, flagged", [
+    # 1,2,3-triazolium (1.2, Joule & Mills, memory) to water: judged, under the threshold.
+    ("[cH:1]1=[cH:2][nH+:3]=[n:4][nH:5]1", "N4", "N3", 'species water = "[OH2:6]"', "O6",
+     "a pyrazolium or triazolium N-H", False),
+    # Tetrazolium (~-3, memory) to water: downhill.
+    ("[cH:1]1=[nH+:2][n:3]=[n:4][nH:5]1", "C1", "N2", 'species water = "[OH2:6]"', "O6", "a tetrazolium N-H", False),
+    # Imidazolium (7.0, Joule & Mills) to bromide (HBr ~-9): 16 units uphill.
+    ("[cH:1]1=[nH+:2][cH:3]=[cH:4][nH:5]1", "C1", "N2", 'species bromide = "[Br-:6]"', "Br6",
+     "an imidazolium N-H", True),
+], ids=["1,2,3-triazolium", "tetrazolium", "imidazolium"])
+def test_an_azolium_n_h_beside_its_charged_n_is_judged(azolium, partner, charged, base, b, entry, flagged):
+    """Once passed over as a proton beside a cation (no table entry): now read by the azolium's
+    own entry, whichever ring N the charge is drawn on."""
+    text = OTHER_N_H.format(azolium=azolium, partner=partner, charged=charged, base=base, b=b)
+    trace, diags = check_text(text, "azolium.mech")
+    (transfer,) = proton_transfers(trace.steps[0])
+    assert transfer.acid.acid == entry
+    assert [d.code for d in diags if d.code == "AR508"] == (["AR508"] if flagged else []), \
+        [d.to_text() for d in diags]
+
+
+def test_every_azolium_ring_n_h_entry_is_kept_beside_its_cation():
+    """AZOLIUM_N_H picks the table's entries by name: a renamed entry would drop out of it silently."""
+    assert sorted(e.acid for e in AZOLIUM_N_H) == sorted(e.acid for e in TABLE if e.smarts.startswith("[nX3;H1;")
+                                                         and "n+" in e.smarts)
+
+
+PROTONATES_N2 = "    :N2 -> H(O6)\n    O6-H -> O6\n"
+
+
+@pytest.mark.parametrize("other, arrows, said", [
+    # Phenol (~10) cannot protonate tetrazole (conjugate acid ~-3, memory): 13 units. Read as a
+    # pyrazolium (2.5) it was 7.5, under the threshold.
+    ('species phenol = "c1ccccc1[OH:6]"', PROTONATES_N2, "pKa of a tetrazolium N-H ~-3"),
+    # Water protonating tetrazole (15.7 vs ~-3): flagged before too, but against a pyrazolium's 2.5.
+    # Guard: bromide (HBr ~-9) taking the N-H of neutral 1H-tetrazole (4.9, memory), 14 units: the
+    # neutral ring is not read as a tetrazolium.
+    ('species water = "[OH2:6]"', PROTONATES_N2, "pKa of a tetrazolium N-H ~-3"),
+    ('species bromide = "[Br-:6]"', "    :Br6 -> H(N5)\n    N5-H -> N5\n", "removing a tetrazole N-H (4.9)"),
+])
+def test_uphill_transfers_to_and_from_tetrazole_are_flagged(other, arrows, said):
+    text = f'species tetrazole = "[cH:1]1[n:2][n:3][n:4][nH:5]1"\n{other}\nstep "proton transfer"\n{arrows}end\n'
+    _, diags = check_text(text, "tetrazole.mech")
+    (found,) = [d for d in diags if d.code == "AR508"]
+    assert said in found.message, found.message
 
 
 ACYLATION_WITHOUT_ADDED_BASE = """\

@@ -13,7 +13,8 @@ nor is a hydrogen passed round a pericyclic array (an ene reaction, a [1,5]-hydr
 no base takes a proton and no ions form. A proton beside a cation has no entry and is not judged
 (nor one beside it in another resonance form: a C-H whose pair goes into a C=C that pushes its pi
 pair on into the cation, a vinylogous E1), except an azolium's C2-H (a thiazolium's ~18, an
-imidazolium's ~23), taken to make the ylide or carbene.
+imidazolium's ~23), taken to make the ylide or carbene, and an azolium's ring N-H, read by its own
+entry whichever ring N the charge is drawn on.
 
 A C-H whose pair is pushed through a C=O (or C=N) onto its O (or N), which takes a proton from an
 acid HA in the same step (concerted general-base, general-acid enolisation, as triose phosphate
@@ -33,8 +34,8 @@ from rdkit import Chem
 
 from ..diagnostics import Diagnostic
 from ..electrons import ResolvedMove, nameable, pair
-from ..judgement.acidity import (ALKOXIDE_ACID_PKA, AZOLIUM_C2_H, HYDROGEN, PYRROLE_TYPE_N, Acidity, acidity_of,
-                                 pyrrole_type_nitrogen)
+from ..judgement.acidity import (ALKOXIDE_ACID_PKA, AZOLIUM_C2_H, AZOLIUM_N_H, HYDROGEN, PYRROLE_TYPE_N, Acidity,
+                                 acidity_of, pyrrole_type_nitrogen)
 from ..judgement.perception import Perceived, RecentViews, aromatic
 from ..judgement.sigma_complexes import rearomatising_moves, rearomatising_path_to
 from ..rdkit_io import HYDRIDIC
@@ -112,10 +113,10 @@ def proton_transfers(st: StepTrace, views: Optional[RecentViews] = None) -> list
                 continue
             made_cation = True
         beside_cation = _next_to_cation(st.before, x) or _pushed_on_to_cation(st, x, h)
-        if beside_cation and elements[x] != 6:
+        if beside_cation and elements[x] not in (6, 7):
             # A cation's conjugate acid, or a C-H beta to a cation (E1, or the alpha C-H of a
-            # protonated carbonyl or an iminium): no entry in our table. An azolium's C2-H has one,
-            # and is kept until its entry is read (below).
+            # protonated carbonyl or an iminium): no entry in our table. An azolium's C2-H or ring
+            # N-H has one, and is kept until its entry is read (below).
             continue
         found.append((base, x, h, m.move.loc, made_cation, beside_cation))
     if not found:
@@ -140,8 +141,8 @@ def proton_transfers(st: StepTrace, views: Optional[RecentViews] = None) -> list
     transfers = []
     for b, x, h, loc, made, beside_cation in found:
         given_up = acidity(acids, x)
-        if beside_cation and given_up not in AZOLIUM_C2_H:
-            continue   # a C-H beside a cation other than an azolium's C2-H: no entry (above)
+        if beside_cation and given_up not in AZOLIUM_C2_H + AZOLIUM_N_H:
+            continue   # beside a cation, other than an azolium's C2-H or ring N-H: no entry (above)
         transfers.append(ProtonTransfer(b, x, h, loc, given_up, conjugate(b, made)))
     return _credit_enol_protonation(st, transfers)
 

@@ -48,6 +48,11 @@ IMIDAZOLIUM_C2_H = Acidity("an imidazolium C2-H", "an N-heterocyclic carbene", "
 AZOLIUM_C2_H = (THIAZOLIUM_C2_H, IMIDAZOLIUM_C2_H)
 
 
+# The end of an azolium N-H's SMARTS: the atom is the n+, or its five-membered ring holds one (next
+# to it, or one atom further round) that is no N-oxide's (an n+ beside its own O-).
+_RING_CATION = "$([n+]),$(n1:[n+;!$(*[*-])]:a:a:a:1),$(n1:a:[n+;!$(*[*-])]:a:a:1)"
+
+
 TABLE: tuple[Acidity, ...] = (
     Acidity("hydronium", "water", "[OX3H3+]", -1.7, "-1.7", TEXTBOOK),
     Acidity("hydrogen iodide", "iodide", "[IX1H1]", -10, "~-10", NOT_LISTED),
@@ -92,11 +97,19 @@ TABLE: tuple[Acidity, ...] = (
             "[nX3;H1;$(n1:c:[n+]:c2:c:c:c:c:c:2:1),$([n+]1:c:n:c2:c:c:c:c:c:2:1)]", 5.5, "5.5", NOT_LISTED),
     Acidity("an imidazolium N-H", "an imidazole",
             "[nX3;H1;$(n1:c:[n+]:[c;R1]:[c;R1]:1),$([n+]1:c:n:[c;R1]:[c;R1]:1)]", 7.0, "7.0", NOT_LISTED),
-    # An azolium with two ring N side by side: pyrazolium 2.5, 1,2,4-triazolium 2.2, indazolium 1.2
-    # (aqueous, memory), either N-H (the proton the Kekule form puts on n+, or on the n beside it):
-    # far more acidic than an imidazolium (~7), whose N sit apart, or pyridinium, as which they were read.
-    Acidity("a pyrazolium or triazolium N-H", "a pyrazole or triazole", "[nX3;H1;$([n+]:n),$(n:[n+;H1])]", 2.5,
-            "~1-2.5", NOT_LISTED),
+    # A tetrazolium's N-H, about -3: tetrazole's ring N is a very weak base (1H-tetrazole's conjugate
+    # acid; Catalan, Abboud & Elguero's review of azole basicity, Adv. Heterocycl. Chem. 1987; memory).
+    # Any N-H of a tetrazole ring that holds an n+ (not an N-oxide's), before the neutral tetrazole's
+    # entry (4.9) and the pyrazolium entry, which both match it.
+    Acidity("a tetrazolium N-H", "a tetrazole", "[nX3;H1;$(n1:n:n:n:c:1),$(n1:n:n:c:n:1);" + _RING_CATION + "]", -3,
+            "~-3", NOT_LISTED),
+    # An azolium with two ring N side by side: pyrazolium 2.5, 1,2,4-triazolium 2.2, 1,2,3-triazolium
+    # 1.2, indazolium 1.2 (aqueous; Joule & Mills, Heterocyclic Chemistry; memory), any N-H of the
+    # ring (the one the Kekule form puts on n+, or another), the ring holding an N-N bond and an n+
+    # (not an N-oxide's): far more acidic than an imidazolium (~7), whose N sit apart, or pyridinium,
+    # as which they were read.
+    Acidity("a pyrazolium or triazolium N-H", "a pyrazole or triazole",
+            "[nX3;H1;$(n1:n:a:a:a:1),$(n1:a:n:n:a:1);" + _RING_CATION + "]", 2.5, "~1-2.5", NOT_LISTED),
     # Pyridinium 5.2, a nitroalkane's C-H ~10, a thiol ~10.5, H2S ~7 (aqueous, memory).
     Acidity("a pyridinium ion", "a pyridine", "[nX3+;H1]", 5.2, "5.2", NOT_LISTED),
     # 1H-Tetrazole 4.9 (aqueous, memory), the activator of phosphoramidite couplings: its N-H, in
@@ -213,6 +226,12 @@ TABLE: tuple[Acidity, ...] = (
             "[CX4;!H0;!$(C[CX3]=[NX2,NX3+]);!$(C[NX2,NX3+]=[CX3]);!$(C[NX3+](=O)[O-]);!$(C[SX4](=O)=O)]",
             50, "~50", TEXTBOOK),
 )
+
+
+# The ring N-H entries of an azolium ion (imidazolium, pyrazolium, triazolium, tetrazolium): the
+# proton on the N a Kekule form leaves neutral sits beside the charged N, and protons.py judges it
+# all the same, as it does an azolium's C2-H.
+AZOLIUM_N_H = tuple(e for e in TABLE if e.acid.endswith(("imidazolium N-H", "triazolium N-H", "tetrazolium N-H")))
 
 
 # A nitrogen whose lone pair is part of an aromatic sextet (pyrrole's, indole's, the N-H nitrogen of
