@@ -265,7 +265,7 @@ def _set_diene_end_configuration(before: Chem.Mol, after: Chem.RWMol, c1: int, c
     if x in place or y in place:
         return False   # the dienophile is part of the diene's own frame: not a plain cycloaddition
     place[x], place[y] = (0.0, 0.0, 1.5), (3.0, 0.0, 1.5)
-    model = _model(after, place)
+    model = model_at(after, place)
     if model is None:
         return False
     tags = [model.GetAtomWithIdx(end).GetChiralTag() for end in (c1, c4)]
@@ -297,7 +297,7 @@ def electrocyclic_turn(mol: Chem.Mol, changes: dict[Pair, tuple[int, int]], pair
 def _electrocyclic_closures(mol: Chem.Mol, changes: dict[Pair, tuple[int, int]]) -> list[list[int]]:
     """The chain c1=c2-...=cn of each electrocyclic ring closure: the step makes one bond, c1-cn,
     between the ends of a conjugated chain of 4 to 8 atoms whose end double bonds it makes single
-    (the two termini written E or Z), and changes no bond but those of the chain: an allowed
+    (the two termini written E or Z), and changes no bond but those of the chain, breaking none: an allowed
     closure whose stereochemical course the Woodward-Hoffmann rules fix (a hexatriene to a
     cyclohexadiene, a pentadienyl cation's Nazarov closure)."""
     made = [key for key, electrons in changes.items() if electrons[0] == 0]
@@ -308,8 +308,8 @@ def _electrocyclic_closures(mol: Chem.Mol, changes: dict[Pair, tuple[int, int]])
     if chain is None or len(chain) < 4:
         return []
     bonds = {_pair(chain[k], chain[k + 1]) for k in range(len(chain) - 1)} | {made[0]}
-    if any(key not in bonds for key in changes):
-        return []
+    if any(key not in bonds or electrons[1] == 0 for key, electrons in changes.items()):
+        return []   # a bond of the chain broken: a [3,3] shift (its chair is AR605's), no closure
     if changes.get(_pair(chain[0], chain[1])) != (4, 2) or changes.get(_pair(chain[-2], chain[-1])) != (4, 2):
         return []
     if written_geometry(mol, chain[0], chain[1]) is None or written_geometry(mol, chain[-1], chain[-2]) is None:
@@ -347,7 +347,7 @@ def _set_electrocyclic_configuration(before: Chem.Mol, after: Chem.RWMol, chain:
             place[n] = (2.2 * ux, 2.2 * uy, 1.2 if up else -1.2)
     if len(place) != len(set(place.values())):
         return False   # two middle groups on one atom: no plain chain
-    model = _model(after, place)
+    model = model_at(after, place)
     if model is None:
         return False
     tags = [model.GetAtomWithIdx(end).GetChiralTag() for end in (chain[0], chain[-1])]
@@ -434,7 +434,7 @@ def _set_syn_configuration(before: Chem.Mol, after: Chem.RWMol, a: int, b: int, 
     if set(new) & set(place):
         return False   # a partner already beside the double bond: not a plain addition to one face
     place.update(new)
-    model = _model(after, place)
+    model = model_at(after, place)
     if model is None:
         return False   # RDKit cannot perceive an odd intermediate: the centres stay unconfigured
     tags = [model.GetAtomWithIdx(end).GetChiralTag() for end in (a, b)]
@@ -506,7 +506,7 @@ def _set_elimination_geometry(before: Chem.Mol, after: Chem.RWMol, a: int, b: in
         if tag != before.GetAtomWithIdx(end).GetChiralTag():   # the mirror image: the end's two slots swap
             place.update(zip(groups[end], slots[end][::-1]))
     flat = {i: (x, y, 0.0) for i, (x, y, _) in place.items() if i not in (p, q)}
-    model = _model(after, flat)
+    model = model_at(after, flat)
     if model is None:
         return False
     bond = model.GetBondBetweenAtoms(a, b)
@@ -522,14 +522,14 @@ def _set_elimination_geometry(before: Chem.Mol, after: Chem.RWMol, a: int, b: in
 
 
 def _tags_read_off(mol: Chem.Mol, place: dict[int, tuple[float, float, float]], atoms) -> Optional[list]:
-    model = _model(mol, place)
+    model = model_at(mol, place)
     if model is None:
         return None
     tags = [model.GetAtomWithIdx(i).GetChiralTag() for i in atoms]
     return None if _UNSPECIFIED in tags else tags
 
 
-def _model(mol: Chem.Mol, place: dict[int, tuple[float, float, float]]) -> Optional[Chem.Mol]:
+def model_at(mol: Chem.Mol, place: dict[int, tuple[float, float, float]]) -> Optional[Chem.Mol]:
     """A copy of `mol` with the atoms of `place` at those coordinates, its stereo read off them by
     RDKit; None when RDKit cannot perceive it. The rest stand far off, each at a point of its
     own: on one point, a reagent's other atoms (the oxo groups of OsO4) gave RDKit bonds of zero

@@ -915,6 +915,21 @@ CODES = _table(
          '    C2-H -> C2=C1\n'
          '    C1-Br3 -> Br3\n'
          'end'),
+    Code("AR605", WARNING, "[3,3] shift product that no chair gives",
+         "A checkpoint or the product of a Cope or Claisen rearrangement is written with double-bond "
+         "geometry or new stereocentres that neither chair transition state gives. An open-chain [3,3] "
+         "shift goes through a chair: a group on a breaking-bond carbon stands equatorial (its new double "
+         "bond E) or axial (Z), and a terminus's group trans to the chain equatorial, so "
+         "meso-3,4-dimethylhexa-1,5-diene gives (E,Z)-octa-2,6-diene and the (3R*,4R*) diene (E,E) or "
+         "(Z,Z) (Doering & Roth 1962; from memory). Positions written without configuration may take "
+         "either place. Only arrays of C, N and O outside any ring are judged: a ring can force a boat.",
+         'species diene = "[CH2:1]=[CH:2][C@@H:3](C)[C@@H:4](C)[CH:5]=[CH2:6]"   # meso\n'
+         'step "[3,3] shift" over "heat"\n'
+         '    C1=C2 -> C1-C6\n'
+         '    C3-C4 -> C2=C3\n'
+         '    C5=C6 -> C4=C5\n'
+         'end\n'
+         'product "C/C=C/CC/C=C/C"   # (E,E): a boat; the chair gives (E,Z)'),
 )
 
 

@@ -558,6 +558,12 @@ TWINS = [
     Twin("product written with another configuration (warning)", TEXTBOOK["sn2 inversion"][0],
          'product "CC[C@H](C)O.[Br-]"', 'product "CC[C@@H](C)O.[Br-]"', "AR603", "product",
          says=("enantiomers",), hint_says=("arrows trace --stereo",)),
+    # The meso diene's Cope written to give (E,E)-octa-2,6-diene: a boat's product; the chair gives
+    # (E,Z) (Doering & Roth 1962, from memory).
+    Twin("[3,3] shift product no chair gives", 'species diene = "[CH2:1]=[CH:2][C@@H:3](C)[C@@H:4](C)[CH:5]=[CH2:6]"\n'
+         'step "[3,3] shift" over "heat"\n    C1=C2 -> C1-C6\n    C3-C4 -> C2=C3\n    C5=C6 -> C4=C5\nend\n'
+         'product "C/C=C/CC/C=C\\\\C"\n', 'C/C=C\\\\C"', 'C/C=C/C"', "AR605", "product",
+         says=("no chair transition state", "C/C=C\\CC/C=C/C"), hint_says=("chair",)),
     # A proton thrown off with water standing by and no arrow to it (common practice: a base, the
     # solvent or water always takes the proton; "-H+" is a shorthand): E1 of the tert-butyl cation.
     Twin("proton released with no base", 'species cation = "[CH3:1][C+:2]([CH3:3])[CH3:4]"\n'

@@ -220,3 +220,112 @@ def test_meisenheimer_collapse_without_the_nitro_oxygen_returning_names_that_arr
     fixed = text.replace("    C1-F10 -> F10\n", "    C1-F10 -> F10\n    :O8 -> N7=O8\n")
     _, diags = check_text(fixed, "t.mech")
     assert [d for d in diags if d.severity != "note"] == [], [d.to_text() for d in diags]
+
+
+# --- AR605: an open-chain [3,3] shift goes through a chair -------------------------------------------
+
+# Doering & Roth (Tetrahedron 1962; Clayden, pericyclic rearrangements; from memory): the Cope
+# rearrangement of meso-3,4-dimethylhexa-1,5-diene gives (E,Z)-octa-2,6-diene (99.7%), the
+# (3R*,4R*) diene (E,E) (about 90%) with some (Z,Z): each a chair; (E,E) from the meso diene, or
+# (E,Z) from the racemic one, needs a boat.
+_COPE = ('species diene = "{diene}"\nstep "[3,3] shift" over "heat"\n    C1=C2 -> C1-C6\n    C3-C4 -> C2=C3\n'
+         '    C5=C6 -> C4=C5\nend\nproduct "{product}"\n')
+_MESO = "[CH2:1]=[CH:2][C@@H:3]([CH3:7])[C@@H:4]([CH3:8])[CH:5]=[CH2:6]"    # (3R,4S): RDKit's CIP labels
+_RACEMIC = "[CH2:1]=[CH:2][C@@H:3]([CH3:7])[C@H:4]([CH3:8])[CH:5]=[CH2:6]"  # (3R,4R)
+_EZ, _EE, _ZZ = "C/C=C/CC/C=C\\\\C", "C/C=C/CC/C=C/C", "C/C=C\\\\CC/C=C\\\\C"
+# The same shift run backwards (microscopic reversibility: one chair each way): (E,Z)-octa-2,6-
+# diene gives the meso diene, (E,E) the racemic one; the new stereocentres are judged.
+_OCTADIENE_EZ = "[CH3:7]/[CH:1]=[CH:2]/[CH2:3][CH2:4]/[CH:5]=[CH:6]\\\\[CH3:8]"
+_OCTADIENE_EE = "[CH3:7]/[CH:1]=[CH:2]/[CH2:3][CH2:4]/[CH:5]=[CH:6]/[CH3:8]"
+_MESO_DIENE, _RACEMIC_DIENE = "C=C[C@@H](C)[C@@H](C)C=C", "C=C[C@@H](C)[C@H](C)C=C"
+# A Claisen rearrangement of (E)-crotyl propenyl ethers through the same chair (Clayden; from
+# memory: (E,E) gives the threo 2,3-dimethylpent-4-enal, (E,Z) the erythro; threo is the racemic
+# diene's arrangement with the vinyl group made CHO, erythro the meso one's).
+_CLAISEN = ('species ether = "{diene}"\nstep "[3,3] shift" over "heat"\n    C1=C2 -> C1-C6\n    O3-C4 -> C2=O3\n'
+            '    C5=C6 -> C4=C5\nend\nproduct "{product}"\n')
+_ETHER_EE = "[CH3:7]/[CH:1]=[CH:2]/[O:3][CH2:4]/[CH:5]=[CH:6]/[CH3:8]"
+_ETHER_EZ = "[CH3:7]/[CH:1]=[CH:2]/[O:3][CH2:4]/[CH:5]=[CH:6]\\\\[CH3:8]"
+_THREO, _ERYTHRO = "O=C[C@@H](C)[C@H](C)C=C", "O=C[C@@H](C)[C@@H](C)C=C"
+
+CHAIR_SHIFTS = {
+    "meso to (E,Z)": (_COPE, _MESO, _EZ, False),
+    "meso to (E,E)": (_COPE, _MESO, _EE, True),
+    "meso to (Z,Z)": (_COPE, _MESO, _ZZ, True),
+    "racemic to (E,E)": (_COPE, _RACEMIC, _EE, False),
+    "racemic to (Z,Z)": (_COPE, _RACEMIC, _ZZ, False),
+    "racemic to (E,Z)": (_COPE, _RACEMIC, _EZ, True),
+    "(E,Z)-octadiene to meso": (_COPE, _OCTADIENE_EZ, _MESO_DIENE, False),
+    "(E,Z)-octadiene to racemic": (_COPE, _OCTADIENE_EZ, _RACEMIC_DIENE, True),
+    "(E,E)-octadiene to racemic": (_COPE, _OCTADIENE_EE, _RACEMIC_DIENE, False),
+    "(E,E)-octadiene to meso": (_COPE, _OCTADIENE_EE, _MESO_DIENE, True),
+    "(E,E)-ether to threo": (_CLAISEN, _ETHER_EE, _THREO, False),
+    "(E,E)-ether to erythro": (_CLAISEN, _ETHER_EE, _ERYTHRO, True),
+    "(E,Z)-ether to erythro": (_CLAISEN, _ETHER_EZ, _ERYTHRO, False),
+    "(E,Z)-ether to threo": (_CLAISEN, _ETHER_EZ, _THREO, True),
+}
+
+
+@pytest.mark.parametrize("name", list(CHAIR_SHIFTS))
+def test_a_three_three_shift_product_is_judged_against_the_chair(name):
+    """The product of an open-chain Cope or Claisen written with a configuration no chair gives
+    draws AR605, naming the chair product; the chair product checks with no warning at all. Before,
+    every one passed without a word, or the new centres were set as an electrocyclic closure's
+    (disrotatory), the boat's arrangement, and AR603 fired on the chair product."""
+    template, diene, product, flagged = CHAIR_SHIFTS[name]
+    _, diags = check_text(template.format(diene=diene, product=product), "t.mech")
+    findings = [d for d in diags if d.severity != "note"]
+    if not flagged:
+        assert findings == [], [d.to_text() for d in diags]
+        return
+    assert [d.code for d in findings] == ["AR605"], [d.to_text() for d in diags]
+    assert "no chair transition state" in findings[0].message and "a chair gives" in findings[0].message
+
+
+def test_the_chair_is_named_in_the_warning():
+    """The meso diene written to go to (E,E): the warning names the chair's (E,Z) product, RDKit's
+    canonical SMILES of it, and the hint the rule."""
+    _, diags = check_text(_COPE.format(diene=_MESO, product=_EE), "t.mech")
+    (d,) = [d for d in diags if d.code == "AR605"]
+    assert d.message.endswith("a chair gives C/C=C\\CC/C=C/C"), d.to_text()
+    assert "equatorial gives an E double bond" in d.hint
+
+
+@pytest.mark.parametrize("diene, product", [
+    # No configuration written in the diene: its two diastereomers give every geometry between them.
+    ("[CH2:1]=[CH:2][CH:3]([CH3:7])[CH:4]([CH3:8])[CH:5]=[CH2:6]", _EE),
+    # cis-1,2-Divinylcyclopropane opens to cyclohepta-1,4-diene through a boat (textbook, from
+    # memory): an array on a ring is not judged.
+    ("[CH2:1]=[CH:2][C@@H:3]1C[C@@H:4]1/[CH:5]=[CH:6]/C", "C[C@@H]1C=CCC=CC1"),
+], ids=["unconfigured diene", "divinylcyclopropane (boat)"])
+def test_a_three_three_shift_the_chair_does_not_fix_is_not_judged(diene, product):
+    """Guard: only arrays of C, N and O outside any ring with a configuration written are judged."""
+    assert "AR605" not in codes(_COPE.format(diene=diene, product=product))
+
+
+@pytest.mark.parametrize("checkpoint, product, warned_at", [
+    (_THREO, "[O-]C[C@@H](C)[C@H](C)C=C", None),
+    (_ERYTHRO, "[O-]C[C@@H](C)[C@H](C)C=C", "checkpoint"),
+    (_THREO, "[O-]C[C@@H](C)[C@@H](C)C=C", "product"),
+], ids=["threo throughout", "erythro checkpoint", "erythro alkoxide"])
+def test_the_chair_outcome_is_carried_to_checkpoints_and_past_later_steps(checkpoint, product, warned_at):
+    """The (E,E)-ether's Claisen (threo, as above) with a checkpoint on the shift, then a hydride
+    reducing the aldehyde: the reduction touches C2 and O3, not the new centres C1 and C6, so the
+    chair still judges the alkoxide the product line writes."""
+    text = (f'species ether = "{_ETHER_EE}"\nstep "[3,3] shift" over "heat"\n    C1=C2 -> C1-C6\n'
+            f'    O3-C4 -> C2=O3\n    C5=C6 -> C4=C5\n    expect "{checkpoint}"\nend\n'
+            'step "hydride transfer"\n    uses hydride = "[AlH4-:9]"\n    Al9-H -> C2-H(Al9)\n    C2=O3 -> O3\nend\n'
+            f'product "{product}"\n')
+    _, diags = check_text(text, "t.mech")
+    findings = [d for d in diags if d.severity != "note"]
+    assert [d.code for d in findings] == (["AR605"] if warned_at else []), [d.to_text() for d in diags]
+    if warned_at:
+        assert findings[0].message.startswith(f"the {warned_at} is written"), findings[0].to_text()
+
+
+def test_a_three_three_shift_is_no_electrocyclic_closure():
+    """The Cope of (E,Z)-octa-2,6-diene makes one bond between the ends of a six-atom chain, as a
+    hexatriene's closure does, but breaks the chain's middle bond: no electrocyclic step, so the
+    Woodward-Hoffmann turn (disrotatory, the boat's arrangement here) no longer configures C1 and C6."""
+    _, diags = check_text(_COPE.format(diene=_OCTADIENE_EZ, product=_MESO_DIENE), "t.mech")
+    notes = [d.message for d in diags if d.code == "AR602"]
+    assert notes and not any("electrocyclic" in m for m in notes), notes

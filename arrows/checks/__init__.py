@@ -59,6 +59,7 @@ def _registry() -> list[Check]:
     if not _CHECK_CLASSES:
         from .aromatic_sites import AromaticOxygenNucleophile
         from .carboxylates import CarbonNucleophileOnCarboxylate
+        from .chair_shifts import ChairThreeThreeShift
         from .checkpoints import CheckpointsMatch
         from .conservation import ChargeAndAtomsConserved
         from .leaving import ConcertedAcylSubstitution, StrongBaseLeavingGroups, TertiarySubstitution
@@ -78,7 +79,7 @@ def _registry() -> list[Check]:
                                ChargeAndAtomsConserved, RingClosures, CheckpointsMatch, UphillProtonTransfers, BareProtons,
                                StereoChanges, MigrationAntiToLeavingGroup, CationShiftDirection, ShiftBetweenNeighbours,
                                StrongBaseLeavingGroups, TertiarySubstitution, ConcertedAcylSubstitution,
-                               WrittenConfigurationMatches, RingEliminationGeometry, ForbiddenPericyclic,
+                               WrittenConfigurationMatches, ChairThreeThreeShift, RingEliminationGeometry, ForbiddenPericyclic,
                                StrainedCumulenes, CarbeneFromCH, FourCentreProtonTransfers,
                                CHPairBondsAsProtonGoes, UnpairedElectronsInPolarMechanism, OniumBesideAte,
                                SigmaComplexesRearomatise, UphillHydrogenAtomTransfers,

@@ -274,10 +274,10 @@ def _turned_variants(state: ElectronState) -> Iterator[ElectronState]:
             yield replace(state, mol=turned_over(state.mol, atoms), judged={})
 
 
-_COMPARED = "written pieces"   # the key of _compared's comparison among a state's judgements
+_COMPARED = "written pieces"   # the key of compared_pieces's comparison among a state's judgements
 
 
-def _compared(state: ElectronState, smiles: str) -> Optional[tuple[dict[str, _Piece], dict[str, _Piece]]]:
+def compared_pieces(state: ElectronState, smiles: str) -> Optional[tuple[dict[str, _Piece], dict[str, _Piece]]]:
     """_pieces_compared, kept with the state (judged): the drawing of the product panel starts
     from the check's comparison of the product (final_state_as_written)."""
     state.judged[(_COMPARED, smiles)] = found = _pieces_compared(state, smiles)
@@ -301,9 +301,9 @@ def _pieces_compared(state: ElectronState, smiles: str) -> Optional[tuple[dict[s
 def _mismatches(state: ElectronState, checkpoint: Checkpoint, what: str, step: Optional[int],
                 racemic: bool, cleared: Optional[Mapping[int, Cleared]],
                 compared: Optional[tuple[dict[str, _Piece], dict[str, _Piece]]] = None) -> list[Diagnostic]:
-    """`compared`: _compared(state, checkpoint.smiles), when the caller has it already."""
+    """`compared`: compared_pieces(state, checkpoint.smiles), when the caller has it already."""
     if compared is None:
-        compared = _compared(state, checkpoint.smiles)
+        compared = compared_pieces(state, checkpoint.smiles)
         if compared is None:
             return []
     written, derived = compared
@@ -364,7 +364,7 @@ def _mismatches(state: ElectronState, checkpoint: Checkpoint, what: str, step: O
 
 def _configured_otherwise(written: dict[str, _Piece], derived: dict[str, _Piece]) -> list[tuple[str, str]]:
     """(constitution, written SMILES) of each configured written piece whose derived piece
-    (`_compared`'s) has other SMILES: configured otherwise, or left unset by the steps."""
+    (`compared_pieces`'s) has other SMILES: configured otherwise, or left unset by the steps."""
     return [(constitution, piece.smiles) for constitution, piece in written.items()
             if piece.configured and constitution in derived and derived[constitution].smiles != piece.smiles]
 
