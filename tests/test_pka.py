@@ -611,3 +611,157 @@ def test_dbu_on_a_phosphonoacetate_is_not_flagged():
         'species dbu = "C1CC[C:6]2=[N:7]CCCN2CC1"', 'species amine = "CC[N:7](CC)CC"')
     found = [d for d in check_text(ester, "ester")[1] if d.code == "AR508"]
     assert len(found) == 1 and "an ester alpha C-H (~25)" in found[0].message, [d.to_text() for d in found]
+
+
+# A neutral azole's ring N-H, in either tautomer, and HOBt's O-H: each once matched by no entry and
+# left unjudged. Aqueous values (Joule & Mills, Heterocyclic Chemistry; pyrrole's and indole's
+# Yagil's; HOBt's Carpino 1993; all memory): (SMILES, the atom carrying the proton, pKa).
+AZOLE_ACIDS = [
+    ("On1nnc2ccccc21", 0, 4.6),           # HOBt's O-H
+    ("c1ccc2[nH]nnc2c1", 4, 8.2),         # 1H-benzotriazole
+    ("c1ccc2n[nH]nc2c1", 5, 8.2),         # its 2H tautomer
+    ("c1cn[nH]n1", 3, 9.3),               # 1H-1,2,3-triazole
+    ("c1n[nH]nc1", 2, 9.3),               # 2H-1,2,3-triazole
+    ("c1nc[nH]n1", 3, 10.3),              # 1H-1,2,4-triazole
+    ("c1nnc[nH]1", 4, 10.3),              # 4H-1,2,4-triazole
+    ("c1cc[nH]n1", 3, 14.2),              # pyrazole
+    ("c1c[nH]cn1", 2, 14.5),              # imidazole
+    ("NC(Cc1c[nH]cn1)C(=O)O", 5, 14.5),   # histidine's side chain
+    ("c1ccc2[nH]ccc2c1", 4, 16.2),        # indole (21.0 in DMSO, Bordwell)
+    ("c1cc[nH]c1", 3, 17.5),              # pyrrole (23.0 in DMSO, Bordwell)
+]
+
+
+@pytest.mark.parametrize("smiles, atom, pka", AZOLE_ACIDS)
+def test_a_neutral_azole_n_h_has_its_own_entry(smiles, atom, pka):
+    entry = acidity_of(perceived(Chem.MolFromSmiles(smiles)), atom)
+    assert entry is not None and entry.pka == pytest.approx(pka), entry
+
+
+@pytest.mark.parametrize("smiles, atom, acid", [
+    ("c1c[nH+]c[nH]1", 2, "an imidazolium N-H"),              # the cation keeps its own entries
+    ("c1cc[nH+][nH]1", 4, "a pyrazolium or triazolium N-H"),
+    ("c1nn[nH]n1", 3, "a tetrazole N-H"),
+    ("c1ccc2[nH]cnc2c1", 4, None),     # benzimidazole (~12.8): a fused ring shifts the value
+    ("c1ccc2[nH]ncc2c1", 4, None),     # indazole
+    ("c1cnc2[nH]ccc2c1", 4, None),     # 7-azaindole
+    ("c1ccc2c(c1)[nH]c1ccccc12", 6, None),   # carbazole
+    ("O=c1[nH]cc[nH]1", 2, None),      # an imidazol-2-one: a cyclic urea's N-H, not an azole's
+])
+def test_azole_entries_take_no_other_ring_n_h(smiles, atom, acid):
+    """Guard: the neutral azole entries neither take an azolium's or a tetrazole's N-H nor read a
+    fused or oxo ring's N-H, whose value they do not hold."""
+    entry = acidity_of(perceived(Chem.MolFromSmiles(smiles)), atom)
+    assert (entry.acid if entry else None) == acid
+
+
+_AZOLE_N_H_TAKEN = """\
+species azole = "{azole}"
+species base = "{base}"
+step "the ring N-H is taken"
+    :{b} -> H(N3)
+    N3-H -> N3
+end
+"""
+IMIDAZOLE = "[cH:1]1[cH:2][nH:3][cH:4][n:5]1"
+
+
+@pytest.mark.parametrize("azole, base, b, acid, uphill", [
+    # Sodium hydride (H2 ~35) on imidazole (14.5): downhill, the usual way to the sodium imidazolide.
+    (IMIDAZOLE, "[H-:6]", "H6", "an imidazole N-H", -20.5),
+    # Acetate (acetic acid 4.8) on imidazole: 9.7 units uphill, judged though under the default 12.
+    (IMIDAZOLE, "C[C:7](=[O:8])[O-:6]", "O6", "an imidazole N-H", 9.7),
+    # Carbonate (bicarbonate 10.3) on benzotriazole (8.2): downhill (K2CO3 before an N-alkylation).
+    ("c1ccc2c(c1)[nH:3][n:4][n:5]2", "[O-:6]C([O-])=O", "O6", "a benzotriazole N-H", -2.1),
+])
+def test_a_base_on_an_azole_n_h_is_judged(azole, base, b, acid, uphill):
+    trace, diags = check_text(_AZOLE_N_H_TAKEN.format(azole=azole, base=base, b=b), "azole.mech")
+    (transfer,) = proton_transfers(trace.steps[0])
+    assert transfer.acid.acid == acid and transfer.uphill == pytest.approx(uphill)
+    assert [d.code for d in diags if d.code == "AR508"] == []
+
+
+def test_acetate_on_imidazole_is_flagged_under_a_tighter_threshold():
+    """The 9.7 units judged above pass the default threshold (12) but not a threshold of 8."""
+    text = _AZOLE_N_H_TAKEN.format(azole=IMIDAZOLE, base="C[C:7](=[O:8])[O-:6]", b="O6")
+    with pka_gap(8):
+        _, diags = check_text(text, "azole.mech")
+    (found,) = [d for d in diags if d.code == "AR508"]
+    assert "removing an imidazole N-H (14.5): uphill by about 10 pKa units" in found.message, found.message
+
+
+@pytest.mark.parametrize("azole, base, b, said", [
+    # Chloride (HCl ~-7) on imidazole (14.5): 21.5 units.
+    (IMIDAZOLE, "[Cl-:6]", "Cl6", "chloride (pKa of hydrogen chloride ~-7) removing an imidazole N-H (14.5)"),
+    # Acetate (4.8) on pyrrole (17.5): 12.7 units; pyrrole's anion takes a hydride base or an alkoxide.
+    ("[cH:1]1[cH:2][nH:3][cH:4][cH:5]1", "C[C:7](=[O:8])[O-:6]", "O6",
+     "a carboxylate (pKa of a carboxylic acid ~4.8) removing a pyrrole N-H (17.5)"),
+])
+def test_a_weak_base_on_an_azole_n_h_is_flagged(azole, base, b, said):
+    _, diags = check_text(_AZOLE_N_H_TAKEN.format(azole=azole, base=base, b=b), "azole.mech")
+    (found,) = [d for d in diags if d.code == "AR508"]
+    assert found.message.startswith(said), found.message
+
+
+@pytest.mark.parametrize("anion, other, arrows, conjugate, uphill", [
+    # The 1,2,3-triazolide (its conjugate acid 9.3) cannot enolise an ester (~25): 15.7 units.
+    ("[cH:1]1[cH:2][n-:3][n:4][n:5]1", "[CH3:6][C:7](=[O:8])OC", "    :N3 -> H(C6)\n    C6-H -> C6=C7\n"
+     "    C7=O8 -> O8\n", "a 1,2,3-triazole N-H", 15.7),
+    # Nor OBt- (HOBt 4.6) a ketone (19-20): 14.9 units.
+    ("c1ccc2c(c1)[n:1]([O-:3])[n:4][n:5]2", "[CH3:6][C:7](=[O:8])C", "    :O3 -> H(C6)\n    C6-H -> C6=C7\n"
+     "    C7=O8 -> O8\n", "HOBt's O-H", 14.9),
+    # Water protonates the indolide (indole 16.2 against water's 15.7): downhill.
+    ("c1ccc2c(c1)[cH:1][cH:2][n-:3]2", "[OH2:6]", "    :N3 -> H(O6)\n    O6-H -> O6\n", "an indole N-H", -0.5),
+])
+def test_an_azolide_base_is_judged_by_its_conjugate_acid(anion, other, arrows, conjugate, uphill):
+    """The anion's conjugate acid, read after the step, was matched by no entry: unjudged."""
+    text = f'species anion = "{anion}"\nspecies other = "{other}"\nstep "proton transfer"\n{arrows}end\n'
+    trace, diags = check_text(text, "azolide.mech")
+    (transfer,) = proton_transfers(trace.steps[0])
+    assert transfer.conjugate_acid.acid == conjugate and transfer.uphill == pytest.approx(uphill)
+    assert [d.code for d in diags if d.code == "AR508"] == (["AR508"] if uphill > 12 else [])
+
+
+# HOBt in a carbodiimide coupling (Konig & Geiger 1970; common practice with EDC and Et3N): Et3N
+# takes HOBt's O-H, OBt- turns the O-acylisourea into the OBt ester, the amine adds to that, and
+# OBt- takes the proton of the N-acylammonium ion it leaves.
+HOBT_COUPLING = """\
+species hobt = "c1ccc2c(c1)[n:31]([OH:30])[n:32][n:33]2"
+species triethylamine = "CC[N:40](CC)CC"
+species acylisourea = "[CH3:1][C:2](=[O:3])[O:4][C:12](=[N:11][CH3:10])[NH:13][CH3:14]"
+species methylamine = "[CH3:20][NH2:21]"
+step "triethylamine takes HOBt's O-H" reversible
+    :N40 -> H(O30)
+    O30-H -> O30
+end
+step "OBt- adds to the activated carbonyl"
+    :O30 -> C2
+    C2=O3 -> O3
+end
+step "the urea's anion leaves"
+    :O3 -> C2=O3
+    C2-O4 -> O4
+end
+step "the amine adds to the OBt ester"
+    :N21 -> C2
+    C2=O3 -> O3
+end
+step "OBt- leaves"
+    :O3 -> C2=O3
+    C2-O30 -> O30
+end
+step "OBt- takes the N-H proton" reversible
+    :O30 -> H(N21)
+    N21-H -> N21
+end
+"""
+
+
+def test_hobt_in_a_carbodiimide_coupling_is_judged_downhill():
+    """Et3N (its ammonium ~10) on HOBt (4.6): 5.4 units downhill; OBt- on the N-acylammonium ion
+    (~-7, an estimate): 11.6 downhill. Both were unjudged, HOBt's O-H and its anion matched by no entry."""
+    trace, diags = check_text(HOBT_COUPLING, "hobt.mech")
+    (first,), (last,) = proton_transfers(trace.steps[0]), proton_transfers(trace.steps[5])
+    assert (first.acid.acid, first.uphill) == ("HOBt's O-H", pytest.approx(-5.4))
+    assert (last.conjugate_acid.acid, last.uphill) == ("HOBt's O-H", pytest.approx(-11.6))
+    assert [d.code for d in diags if d.severity in ("error", "warning")] == []

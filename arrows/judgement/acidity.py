@@ -53,6 +53,13 @@ AZOLIUM_C2_H = (THIAZOLIUM_C2_H, IMIDAZOLIUM_C2_H)
 _RING_CATION = "$([n+]),$(n1:[n+;!$(*[*-])]:a:a:a:1),$(n1:a:[n+;!$(*[*-])]:a:a:1)"
 
 
+# A neutral azole's ring atoms (its N-H entries below): an uncharged N, and a carbon in no other
+# ring with no exocyclic double bond (a pyrrolone's or an imidazolone's C=O makes its N-H an
+# amide's, not an azole's).
+_N = "[n;+0]"
+_C = "[c;R1;!$(c=*)]"
+
+
 TABLE: tuple[Acidity, ...] = (
     Acidity("hydronium", "water", "[OX3H3+]", -1.7, "-1.7", TEXTBOOK),
     Acidity("hydrogen iodide", "iodide", "[IX1H1]", -10, "~-10", NOT_LISTED),
@@ -115,6 +122,29 @@ TABLE: tuple[Acidity, ...] = (
     # 1H-Tetrazole 4.9 (aqueous, memory), the activator of phosphoramidite couplings: its N-H, in
     # either tautomer (1H or 2H), as acidic as a carboxylic acid.
     Acidity("a tetrazole N-H", "a tetrazolide", "[nX3;H1;$(n1nnnc1),$(n1nncn1)]", 4.9, "4.9", NOT_LISTED),
+    # HOBt's O-H, 4.6 (aqueous; Carpino, J. Am. Chem. Soc. 1993, which gives HOAt 3.3; memory): a
+    # carboxylic acid's strength, so Et3N or the carboxylate of a coupling takes it. No other entry
+    # matches an O-H on a ring N.
+    Acidity("HOBt's O-H", "a benzotriazol-1-olate (OBt-)", f"[OX2H1]{_N}1:{_N}:{_N}:c2:c:c:c:c:c:2:1", 4.6, "4.6",
+            "Carpino 1993, aqueous (memory)"),
+    # A neutral azole's ring N-H (either tautomer), aqueous: benzotriazole 8.2, 1,2,3-triazole 9.3,
+    # 1,2,4-triazole 10.3, pyrazole 14.2, imidazole 14.5, indole 16.2, pyrrole 17.5 (Joule & Mills,
+    # Heterocyclic Chemistry; indole's and pyrrole's from Yagil's aqueous measurements; memory). In
+    # DMSO indole is 21.0 and pyrrole 23.0 (Bordwell's table, memory): the table's scale is water's.
+    # Each N-H's ring is neutral (an azolium is read above) with its carbons in no other ring, save
+    # benzotriazole's and indole's benzo ring: a benzimidazole (~12.8), indazole, purine (~8.9) or
+    # carbazole, whose fused ring shifts the value, stays unjudged (memory).
+    Acidity("a benzotriazole N-H", "a benzotriazolide",
+            f"[nX3;H1;+0;$(n1:{_N}:{_N}:c2:c:c:c:c:c:2:1),$(n1:{_N}:c2:c:c:c:c:c:2:{_N}:1)]", 8.2, "8.2", NOT_LISTED),
+    Acidity("a 1,2,3-triazole N-H", "a 1,2,3-triazolide",
+            f"[nX3;H1;+0;$(n1:{_N}:{_N}:{_C}:{_C}:1),$(n1:{_N}:{_C}:{_C}:{_N}:1)]", 9.3, "9.3", NOT_LISTED),
+    Acidity("a 1,2,4-triazole N-H", "a 1,2,4-triazolide",
+            f"[nX3;H1;+0;$(n1:{_N}:{_C}:{_N}:{_C}:1),$(n1:{_C}:{_N}:{_N}:{_C}:1)]", 10.3, "10.3", NOT_LISTED),
+    Acidity("a pyrazole N-H", "a pyrazolide", f"[nX3;H1;+0;$(n1:{_N}:{_C}:{_C}:{_C}:1)]", 14.2, "14.2", NOT_LISTED),
+    Acidity("an imidazole N-H", "an imidazolide", f"[nX3;H1;+0;$(n1:{_C}:{_N}:{_C}:{_C}:1)]", 14.5, "14.5",
+            NOT_LISTED),
+    Acidity("an indole N-H", "an indolide", f"[nX3;H1;+0;$(n1:{_C}:{_C}:c2:c:c:c:c:c:2:1)]", 16.2, "16.2", NOT_LISTED),
+    Acidity("a pyrrole N-H", "a pyrrolide", f"[nX3;H1;+0;$(n1:{_C}:{_C}:{_C}:{_C}:1)]", 17.5, "17.5", NOT_LISTED),
     Acidity("a nitroalkane C-H", "a nitronate", "[CX4;!H0][NX3+](=O)[O-]", 10, "~10", NOT_LISTED),
     Acidity("a thiol", "a thiolate", "[SX2H1][#6]", 10.5, "~10.5", NOT_LISTED),
     Acidity("hydrogen sulfide", "hydrosulfide", "[SX2H2]", 7, "~7", NOT_LISTED),
