@@ -647,6 +647,8 @@ def test_a_neutral_azole_n_h_has_its_own_entry(smiles, atom, pka):
     ("c1cnc2[nH]ccc2c1", 4, None),     # 7-azaindole
     ("c1ccc2c(c1)[nH]c1ccccc12", 6, None),   # carbazole
     ("O=c1[nH]cc[nH]1", 2, None),      # an imidazol-2-one: a cyclic urea's N-H, not an azole's
+    ("[O-][n+]1cc[nH]c1", 4, None),    # an imidazole N-oxide: neutral, no imidazolium (value not at hand)
+    ("[O-][n+]1c2ccccc2[nH]c1", 8, None),   # a benzimidazole N-oxide, likewise
 ])
 def test_azole_entries_take_no_other_ring_n_h(smiles, atom, acid):
     """Guard: the neutral azole entries neither take an azolium's or a tetrazole's N-H nor read a

@@ -96,14 +96,15 @@ TABLE: tuple[Acidity, ...] = (
     # (aqueous; Joule & Mills, Heterocyclic Chemistry, and the amino acid tables of Lehninger's
     # Principles of Biochemistry; memory). Before the pyridinium entry, which matches the n+-H;
     # C4 and C5 in one ring only (R1), so a benzimidazolium or a purine protonated at N7 is not
-    # read as an imidazolium. An azolium C2-H is its own entry (AZOLIUM_C2_H, above).
+    # read as an imidazolium; an N-oxide's n+ makes no imidazolium (its N-H value is not at hand).
+    # An azolium C2-H is its own entry (AZOLIUM_C2_H, above).
     Acidity("a histidine side-chain imidazolium N-H", "a histidine imidazole",
-            "[nX3;H1;$(n1:c:[n+]:[c;R1]:[c;R1]:1),$([n+]1:c:n:[c;R1]:[c;R1]:1);"
+            "[nX3;H1;$(n1:c:[n+;!$(*[O-])]:[c;R1]:[c;R1]:1),$([n+]1:c:n:[c;R1]:[c;R1]:1);"
             "$(n1:c:n:c([CH2][CX4][#7]):c:1),$(n1:c:n:c:c:1[CH2][CX4][#7])]", 6.0, "~6", NOT_LISTED),
     Acidity("a benzimidazolium N-H", "a benzimidazole",
-            "[nX3;H1;$(n1:c:[n+]:c2:c:c:c:c:c:2:1),$([n+]1:c:n:c2:c:c:c:c:c:2:1)]", 5.5, "5.5", NOT_LISTED),
+            "[nX3;H1;$(n1:c:[n+;!$(*[O-])]:c2:c:c:c:c:c:2:1),$([n+]1:c:n:c2:c:c:c:c:c:2:1)]", 5.5, "5.5", NOT_LISTED),
     Acidity("an imidazolium N-H", "an imidazole",
-            "[nX3;H1;$(n1:c:[n+]:[c;R1]:[c;R1]:1),$([n+]1:c:n:[c;R1]:[c;R1]:1)]", 7.0, "7.0", NOT_LISTED),
+            "[nX3;H1;$(n1:c:[n+;!$(*[O-])]:[c;R1]:[c;R1]:1),$([n+]1:c:n:[c;R1]:[c;R1]:1)]", 7.0, "7.0", NOT_LISTED),
     # A tetrazolium's N-H, about -3: tetrazole's ring N is a very weak base (1H-tetrazole's conjugate
     # acid; Catalan, Abboud & Elguero's review of azole basicity, Adv. Heterocycl. Chem. 1987; memory).
     # Any N-H of a tetrazole ring that holds an n+ (not an N-oxide's), before the neutral tetrazole's
