@@ -359,6 +359,97 @@ def test_text_below_six_points_is_noted():
     assert not any("below 6 pt" in note for note in plain.notes)
 
 
+# A Robinson annulation with a Mannich base methiodide as the methyl vinyl ketone equivalent, ten
+# steps (du Feu, McQuillin & Robinson, J. Chem. Soc. 1937; Clayden 2nd ed. ch. 29; memory).
+ROBINSON_MANNICH = """\
+title   "Robinson annulation with a Mannich base methiodide"
+species mannich = "[CH3:1][C:2](=[O:5])[CH2:3][CH2:4][N+:6](C)(C)C"
+species ketoester = "CCO[C:10](=[O:11])[CH:12]1[C:13](=[O:14])[CH2:15][CH2:16][CH2:17][CH2:18]1"
+species base = "CC[O-:20]"
+species base_2 = "CC[O-:21]"
+
+step "enolate of the Mannich salt" reversible over "NaOEt" under "EtOH, reflux"
+    :O20 -> H(C3)
+    C3-H -> C2=C3
+    C2=O5 -> O5
+end
+
+step "loss of trimethylamine (E1cB)"
+    :O5 -> C2=O5
+    C2=C3 -> C3=C4
+    C4-N6 -> N6
+    releases N6
+    expect "C=CC(C)=O"
+end
+
+step "keto ester enolate" reversible
+    :O21 -> H(C12)
+    C12-H -> C12=C13
+    C13=O14 -> O14
+end
+
+step "conjugate addition"
+    :O14 -> C13=O14
+    C12=C13 -> C12-C4
+    C3=C4 -> C2=C3
+    C2=O5 -> O5
+end
+
+step "protonation at carbon" reversible
+    :O5 -> C2=O5
+    C2=C3 -> C3-H(O20)
+    O20-H -> O20
+    expect "CCOC(=O)C1(CCC(C)=O)CCCCC1=O"
+end
+
+step "methyl ketone enolate" reversible
+    :O20 -> H(C1)
+    C1-H -> C1=C2
+    C2=O5 -> O5
+end
+
+step "ring-closing aldol" reversible
+    :O5 -> C2=O5
+    C1=C2 -> C1-C13
+    C13=O14 -> O14
+end
+
+step "proton transfer" reversible
+    :O14 -> H(O21)
+    O21-H -> O21
+end
+
+step "enolate of the aldol" reversible
+    :O21 -> H(C1)
+    C1-H -> C1=C2
+    C2=O5 -> O5
+end
+
+step "loss of hydroxide (E1cB)"
+    :O5 -> C2=O5
+    C1=C2 -> C1=C13
+    C13-O14 -> O14
+    releases O14
+end
+
+product "CCOC(=O)C12CCCCC1=CC(=O)CC2"
+"""
+
+
+def test_a_column_figure_taller_than_a_page_is_noted():
+    """A journal page's text is about 24 cm tall (common practice, memory): the ten-step Robinson
+    annulation in one column is 30.8 cm tall and was drawn with no word said. In two columns (and
+    the gallery's Wieland-Miescher annulation in one, 13.4 cm) it fits, and nothing is said."""
+    trace, diags = arrows.check_text(ROBINSON_MANNICH, "robinson.mech")
+    one = arrows.draw.build_scene(trace, STYLES["one-column"], diags)
+    two = arrows.draw.build_scene(trace, STYLES["two-column"], diags)
+    tall = [n for n in one.notes if "taller than a journal page" in n]
+    assert one.height > 240 * 72 / 25.4 and len(tall) == 1 and "--style two-column" in tall[0], one.notes
+    assert two.height < 240 * 72 / 25.4 and not any("taller than" in n for n in two.notes), two.notes
+    trace, diags = arrows.check_file(next(p for p in GALLERY if "wieland-miescher" in p.name))
+    assert not any("taller than" in n for n in arrows.draw.build_scene(trace, STYLES["one-column"], diags).notes)
+
+
 def test_a_font_that_is_not_installed_is_noted():
     """A family the system lacks was replaced by its fallback font unsaid, the SVG still naming the
     family asked for. An installed family (DejaVu Serif, which the test machine has: fc-list) is not

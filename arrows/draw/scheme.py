@@ -28,7 +28,7 @@ from .plane import distance_to_segment, segments_cross
 from .scene import BondDrawing, Box, CurvedArrow, Mark, Panel, ReactionArrow, Scene, TextRun
 from .formula import MINUS, Piece, condition_pieces, formula_pieces, inorganic_order
 from .structure import PanelStructure, StructureDrawer, segment_hits_box
-from .styles import ERROR_COLOUR, SMALLEST_TEXT_PT, STYLES, Style
+from .styles import ERROR_COLOUR, MM, PAGE_TEXT_HEIGHT_MM, SMALLEST_TEXT_PT, STYLES, Style
 from .text import FontFace, wrap
 from .wedges import configured_centres
 
@@ -247,6 +247,7 @@ def build_scene(trace: Trace, style: Style, diagnostics: Sequence[Diagnostic] = 
                    f"{SMALLEST_TEXT_PT:g} pt: try --font-size {SMALLEST_TEXT_PT / style.small_scale:g} or more",)
     elif _may_fill(style):
         scene = _filling_the_page(trace, groundwork, style, diagnostics, scene, builder.wrapping)
+    uneven += _taller_than_a_page(scene, style)   # (the scheme as drawn, after any shrinking)
     return replace(scene, notes=scene.notes + uneven) if uneven else scene
 
 
@@ -470,6 +471,16 @@ def _straightest_substituent(panel: Panel, double_bonds: list[tuple[int, int]]
                 if angle > _STRAIGHTER_THAN + 0.5:
                     return end, other, n, angle
     return None
+
+
+def _taller_than_a_page(scene: Scene, style: Style) -> tuple[str, ...]:
+    """A note when a journal-column scheme (its page as tall as the scheme) is taller than a
+    journal page's text: the figure cannot be printed at its size as one piece."""
+    if style.page_height is not None or scene.height <= PAGE_TEXT_HEIGHT_MM * MM:
+        return ()
+    wider = "; or draw it with --style two-column" if style.page_width_mm < STYLES["two-column"].page_width_mm else ""
+    return (f"the scheme is {scene.height / MM / 10:.1f} cm tall, taller than a journal page's text (about "
+            f"{PAGE_TEXT_HEIGHT_MM / 10:g} cm): split the mechanism into two figures{wider}",)
 
 
 def _heavy_lines(style: Style) -> tuple[str, ...]:

@@ -25,6 +25,9 @@ ERROR_COLOUR = OKABE_ITO["reddish purple"]
 # label's lower right reads as a subscript (O3 as ozone), at its upper right as a charge.
 NUMBER_COLOUR = OKABE_ITO["bluish green"]
 SMALLEST_TEXT_PT = 6.0
+# The text area of a journal page, which a figure in a column preset must fit: about 24 cm tall
+# (common practice, memory: A4 or US letter less the margins, running heads and a caption's lines).
+PAGE_TEXT_HEIGHT_MM = 240.0
 
 
 @dataclass(frozen=True)
