@@ -25,12 +25,18 @@ except in the steps whose stereochemical course is a textbook rule:
   Woodward-Hoffmann rules fix it: under heat 4n electrons conrotatory and 4n+2 disrotatory,
   under light the reverse (Woodward & Hoffmann 1965, 1969; Clayden ch. 35; from memory). The
   two outside groups (trans to the chain) end up cis in the ring after a disrotatory closure,
-  trans after a conrotatory one.
+  trans after a conrotatory one;
+- a thermal [3,3] shift (Cope, Claisen) along an open chain of C, N and O goes through a chair, in
+  which a group on a breaking-bond carbon stands equatorial (its new double bond E) or axial (Z)
+  and a terminus's group trans to the chain equatorial (Doering & Roth 1962; Clayden; from
+  memory): when the chair and its ring flip give one product from the configuration written, the
+  new double bonds and centres get it, read off RDKit 3D models of the chairs.
 """
 from __future__ import annotations
 
 import math
 import re
+from itertools import product
 from typing import Callable, Iterable, Optional, Sequence
 
 from rdkit import Chem
@@ -104,6 +110,8 @@ def carry_configuration(before: Chem.Mol, after: Chem.RWMol, changes: dict[Pair,
         return False
     carried = _substitutions(before, formed, broken, other, shifted) if configured else {}
     forget_configuration(after, {i for key in changes for i in key} - set(carried))
+    for i in {i for key in changes for i in key}:
+        after.GetAtomWithIdx(i).ClearProp(_CHAIR)   # (a rule below may set it again)
     for atom, (leaving, entering, invert) in carried.items():
         substitute_configuration(before, after, atom, leaving, entering, invert=invert)
     made = False
@@ -119,6 +127,10 @@ def carry_configuration(before: Chem.Mol, after: Chem.RWMol, changes: dict[Pair,
     if configured:
         for chain in _electrocyclic_closures(before, changes):
             made |= _set_electrocyclic_configuration(before, after, chain, conrotatory(pairs_moved, light))
+    if configured and pairs_moved == 3 and not light:   # three pairs, bond to bond: no lone pair in the array
+        chain = three_three_array(before, changes)
+        if chain is not None:
+            made |= _set_chair_configuration(before, after, chain)
     if configured:
         for elimination in _eliminations(before, changes, formed, broken):
             _set_elimination_geometry(before, after, *elimination)
@@ -309,7 +321,7 @@ def _electrocyclic_closures(mol: Chem.Mol, changes: dict[Pair, tuple[int, int]])
         return []
     bonds = {_pair(chain[k], chain[k + 1]) for k in range(len(chain) - 1)} | {made[0]}
     if any(key not in bonds or electrons[1] == 0 for key, electrons in changes.items()):
-        return []   # a bond of the chain broken: a [3,3] shift (its chair is AR605's), no closure
+        return []   # a bond of the chain broken: a [3,3] shift (its chair is three_three_array's), no closure
     if changes.get(_pair(chain[0], chain[1])) != (4, 2) or changes.get(_pair(chain[-2], chain[-1])) != (4, 2):
         return []
     if written_geometry(mol, chain[0], chain[1]) is None or written_geometry(mol, chain[-1], chain[-2]) is None:
@@ -356,6 +368,269 @@ def _set_electrocyclic_configuration(before: Chem.Mol, after: Chem.RWMol, chain:
     for end, tag in zip((chain[0], chain[-1]), tags):
         after.GetAtomWithIdx(end).SetChiralTag(tag)
     return True
+
+
+# --- a [3,3] shift through a chair ------------------------------------------------------------------
+
+_ARRAY_ELEMENTS = frozenset({6, 7, 8})
+_UNREAD = object()   # a configuration RDKit could not read off a model
+_RADIUS, _PUCKER, _REACH = 1.45, 0.25, 1.1   # an ideal cyclohexane chair, in angstroms
+_CHAIR = "chair"   # atom property: the atom's configuration was set by a [3,3] shift's chair
+
+# A chair outcome: (centre, chiral tag, its neighbours as neighbours_round gives them) for each new
+# stereocentre and (a, b, neighbour of a, neighbour of b, cis) for each new stereogenic double bond,
+# by atom indices, which later steps keep.
+Outcome = tuple[tuple[tuple[int, Chem.ChiralType, tuple[int, ...]], ...], tuple[tuple[int, int, int, int, bool], ...]]
+
+
+def three_three_array(mol: Chem.Mol, changes: dict[Pair, tuple[int, int]]) -> Optional[list[int]]:
+    """The six atoms a1..a6 of a [3,3] shift (a1=a2 and a5=a6 made single, a2=a3 and a4=a5 double,
+    a3-a4 broken, a1-a6 made, no other bond changed) of first-row atoms C, N, O outside any ring of
+    `mol` (the state before), else None. `changes` as carry_configuration takes them; whether the
+    step is thermal is the caller's to say."""
+    if len(changes) != 6:
+        return None
+    made = [key for key, electrons in changes.items() if electrons == (0, 2)]
+    gone = [key for key, electrons in changes.items() if electrons == (2, 0)]
+    lowered = {frozenset(key) for key, electrons in changes.items() if electrons == (4, 2)}
+    raised = {frozenset(key) for key, electrons in changes.items() if electrons == (2, 4)}
+    if len(made) != 1 or len(gone) != 1 or len(lowered) != 2 or len(raised) != 2:
+        return None
+    (a1, a6), (a3, a4) = made[0], gone[0]
+    a2 = next((next(iter(b - {a1})) for b in lowered if a1 in b), None)
+    a5 = next((next(iter(b - {a6})) for b in lowered if a6 in b), None)
+    for first, last in ((a3, a4), (a4, a3)):
+        if a2 is not None and a5 is not None and raised == {frozenset((a2, first)), frozenset((last, a5))}:
+            chain = [a1, a2, first, last, a5, a6]
+            break
+    else:
+        return None
+    if len(set(chain)) != 6 or any(mol.GetAtomWithIdx(i).GetAtomicNum() not in _ARRAY_ELEMENTS for i in chain):
+        return None
+    rings = Chem.Mol(mol)
+    Chem.FastFindRings(rings)
+    if any(rings.GetAtomWithIdx(i).IsInRing() for i in chain):
+        return None   # a ring can force a boat (a cis-divinylcyclopropane, a bridged system)
+    return chain
+
+
+def _set_chair_configuration(before: Chem.Mol, after: Chem.RWMol, chain: list[int]) -> bool:
+    """The configuration of the new centres and double bonds of the [3,3] shift along `chain` when
+    both chairs give one product: the same stereoisomer (the meso 3,4-dimethylhexa-1,5-diene's two
+    chairs each give (E,Z)-octa-2,6-diene, the E and Z ends swapped), or a pair of enantiomers, of
+    which the state carries one as a syn addition's does (the racemate). Where the chairs give
+    diastereomers (the (3R*,4R*) diene: (E,E) with both methyls equatorial, (Z,Z) with both axial)
+    nothing is set: one state holds one configuration, and the minor chair's product is no wrong
+    one to write. Returns whether anything was set."""
+    outcomes = chair_outcomes(before, after, chain)
+    if not outcomes:
+        return False
+    products = []
+    for outcome in outcomes:
+        work = Chem.RWMol(after)
+        set_chair_outcome(work, outcome)
+        products.append(work)
+    first = _stereoisomer_name(products[0])
+    others = {_stereoisomer_name(work) for work in products} - {first}
+    if first is None or (others and others != {_stereoisomer_name(turned_over(products[0], range(after.GetNumAtoms())))}):
+        return False   # diastereomers, or a state RDKit cannot write
+    set_here = set_chair_outcome(after, outcomes[0])
+    for atom in set_here:   # for the notes, and for AR605 to judge the written product against each chair
+        after.GetAtomWithIdx(atom).SetBoolProp(_CHAIR, True)
+    return bool(set_here)
+
+
+def _stereoisomer_name(mol: Chem.Mol) -> Optional[str]:
+    """RDKit's canonical SMILES of `mol` with its configuration and without map numbers (a state's
+    atoms are numbered), or None when RDKit cannot write the state being built."""
+    work = Chem.RWMol(mol)
+    for atom in work.GetAtoms():
+        atom.SetAtomMapNum(0)
+    try:
+        work.UpdatePropertyCache(strict=False)
+        return Chem.MolToSmiles(work)
+    except Exception:
+        return None
+
+
+def set_chair_outcome(work: Chem.RWMol, outcome: Outcome, kept: Optional[set[int]] = None) -> list[int]:
+    """Set a chair outcome's configuration on `work` at the elements it leaves unset (and, with
+    `kept`, whose atoms no later step touched). Returns the atoms of the elements set."""
+    centres, bonds = outcome
+    changed = []
+    for atom, tag, around in centres:
+        if (kept is not None and atom not in kept) or work.GetAtomWithIdx(atom).GetChiralTag() != _UNSPECIFIED:
+            continue
+        now = tag_kept(tag, list(around), work, atom)
+        if now is not None:
+            work.GetAtomWithIdx(atom).SetChiralTag(now)
+            changed.append(atom)
+    for a, b, ref_a, ref_b, cis in bonds:
+        bond = work.GetBondBetweenAtoms(a, b)
+        if (kept is not None and not {a, b} <= kept) or bond is None or bond.GetStereo() != Chem.BondStereo.STEREONONE \
+                or work.GetBondBetweenAtoms(a, ref_a) is None or work.GetBondBetweenAtoms(b, ref_b) is None:
+            continue
+        if bond.GetBeginAtomIdx() != a:
+            ref_a, ref_b = ref_b, ref_a
+        bond.SetStereoAtoms(ref_a, ref_b)
+        bond.SetStereo(Chem.BondStereo.STEREOCIS if cis else Chem.BondStereo.STEREOTRANS)
+        changed += [a, b]
+    if changed:
+        Chem.SetDoubleBondNeighborDirections(work)   # the / and \\ that SMILES writes the geometry with
+    return changed
+
+
+def chair_configured(mol: Chem.Mol, atom: int) -> bool:
+    """Whether a [3,3] shift's chair set the configuration at `atom` (no later step touched it)."""
+    return mol.GetAtomWithIdx(atom).HasProp(_CHAIR)
+
+
+def without_chair_configuration(mol: Chem.Mol) -> Optional[Chem.Mol]:
+    """A copy of `mol` with the configuration a chair set cleared (the centres, and the double
+    bonds with both atoms marked); None when no chair set any."""
+    marked = [i for i in range(mol.GetNumAtoms()) if chair_configured(mol, i)]
+    if not marked:
+        return None
+    work = Chem.RWMol(mol)
+    for i in marked:
+        atom = work.GetAtomWithIdx(i)
+        atom.SetChiralTag(_UNSPECIFIED)
+        atom.ClearProp(_CHAIR)
+        for bond in atom.GetBonds():
+            if bond.GetStereo() != Chem.BondStereo.STEREONONE and bond.GetOtherAtomIdx(i) in marked:
+                forget_configuration_of_bond(bond)
+    return work.GetMol()
+
+
+def _corner(k: int, flip: bool) -> tuple[float, float, float]:
+    angle = math.pi * k / 3
+    up = (k % 2 == 0) != flip
+    return _RADIUS * math.cos(angle), _RADIUS * math.sin(angle), _PUCKER if up else -_PUCKER
+
+
+def _slot(k: int, flip: bool, axial: bool) -> tuple[float, float, float]:
+    """Where a group on ring corner k stands: axial (along the chair's axis, on the corner's side)
+    or equatorial (outward, tilted a little the other way)."""
+    x, y, z = _corner(k, flip)
+    side = 1.0 if z > 0 else -1.0
+    if axial:
+        return x, y, z + _REACH * side
+    out = math.hypot(x, y)
+    return x + _REACH * 0.94 * x / out, y + _REACH * 0.94 * y / out, z - _REACH * 0.33 * side
+
+
+def _groups(mol: Chem.Mol, atom: int, chain: list[int]) -> list[int]:
+    return [n.GetIdx() for n in mol.GetAtomWithIdx(atom).GetNeighbors() if n.GetIdx() not in chain]
+
+
+def _placed(k: int, flip: bool, groups: list[int], first_axial: bool) -> dict[int, tuple[float, float, float]]:
+    """The groups of corner k (one or two; a hydrogen held as a count takes the other place) with
+    the first axial or equatorial, the second in the other place."""
+    slots = (True, False) if first_axial else (False, True)
+    return {n: _slot(k, flip, axial) for n, axial in zip(groups, slots)}
+
+
+def chair_outcomes(before: Chem.Mol, after: Chem.Mol, chain: list[int]) -> Optional[list[Outcome]]:
+    """Each configuration the two chairs give the new centres (at a1, a6) and new double bonds
+    (a2=a3, a4=a5), read by RDKit off a model of the chair (AssignStereochemistryFrom3D), so no
+    convention of tag and bond order is ours. A configured a3 or a4 puts its groups where its tag
+    says; a terminus written E or Z puts its group trans to the chain equatorial; each position
+    left unconfigured is tried both ways. None when the array carries more groups than a chain
+    of the kind has, or a model cannot be read."""
+    corners = {}
+    for k, atom in enumerate(chain):
+        groups = _groups(before, atom, chain)
+        if len(groups) > (1 if k in (1, 4) else 2):
+            return None
+        corners[k] = groups
+    outcomes: list[Outcome] = []
+    for flip in (False, True):
+        place = {atom: _corner(k, flip) for k, atom in enumerate(chain)}
+        for k in (1, 4):   # the middle atoms' groups point out of the ring
+            x, y, z = _corner(k, flip)
+            place.update({n: (1.75 * x, 1.75 * y, z) for n in corners[k]})
+        options = []
+        for k in (0, 2, 3, 5):
+            if not corners[k]:
+                continue
+            first_axial = _set_by_configuration(before, chain, k, corners[k], place, flip)
+            if first_axial is _UNREAD:
+                return None
+            options.append([(k, axial) for axial in ((True, False) if first_axial is None else (first_axial,))])
+        for picked in product(*options):
+            here = dict(place)
+            for k, first_axial in picked:
+                here.update(_placed(k, flip, corners[k], first_axial))
+            read = _read_outcome(after, chain, here)
+            if read is None:
+                return None
+            if read not in outcomes:
+                outcomes.append(read)
+    return outcomes
+
+
+def _set_by_configuration(before: Chem.Mol, chain: list[int], k: int, groups: list[int], place, flip: bool):
+    """Whether the first of the groups at corner k is axial, as the starting material's
+    configuration sets it: at a terminus written E or Z the group trans to the chain is equatorial;
+    at a configured a3 or a4 the tag decides. None when nothing is written there (either place
+    is possible), _UNREAD when RDKit cannot read the tag off the model."""
+    atom = chain[k]
+    if k in (0, 5):
+        inner, beyond = (chain[1], chain[2]) if k == 0 else (chain[4], chain[3])
+        geometry = written_geometry(before, atom, inner)
+        if geometry is None:
+            return None
+        first, second, cis = geometry
+        if first not in groups:
+            return None
+        trans_to_chain = (second == beyond) != cis   # of `first`
+        return (not trans_to_chain) if groups[0] == first else trans_to_chain
+    tag = before.GetAtomWithIdx(atom).GetChiralTag()
+    if tag == Chem.ChiralType.CHI_UNSPECIFIED:
+        return None
+    model = model_at(before, {**place, **_placed(k, flip, groups, True)})
+    read = None if model is None else model.GetAtomWithIdx(atom).GetChiralTag()
+    if read in (None, Chem.ChiralType.CHI_UNSPECIFIED):
+        return _UNREAD
+    return read == tag
+
+
+def _read_outcome(after: Chem.Mol, chain: list[int], place) -> Optional[Outcome]:
+    """(centres, double bonds) the product gets from the chair `place` holds: the tag of each new
+    stereocentre at a1 and a6 (against its neighbours), read by RDKit off the model, and the
+    geometry of each new stereogenic double bond a2=a3, a4=a5 against a1 (or a6) and a group of
+    a3 (or a4), read off the torsion: the chair's groups stand 60 or 180 degrees round the bond,
+    which RDKit's reading of a flat double bond does not take (it answered E for an axial group
+    held beside an explicit hydrogen). None when RDKit cannot read the model."""
+    model = model_at(after, place)
+    if model is None:
+        return None
+    centres = []
+    for atom in (chain[0], chain[5]):
+        tag = model.GetAtomWithIdx(atom).GetChiralTag()
+        if tag != Chem.ChiralType.CHI_UNSPECIFIED:
+            centres.append((atom, tag, tuple(neighbours_round(model, atom))))
+    bonds = []
+    for end, a, b in ((chain[0], chain[1], chain[2]), (chain[5], chain[4], chain[3])):
+        bond = model.GetBondBetweenAtoms(a, b)
+        groups = _groups(after, b, chain)
+        if bond is None or bond.GetStereo() == Chem.BondStereo.STEREONONE or not groups:
+            continue   # RDKit finds the bond not stereogenic (two equal groups on an end)
+        bonds.append((a, b, end, groups[0], _cis(*(place[i] for i in (end, a, b, groups[0])))))
+    return tuple(centres), tuple(bonds)
+
+
+def _cis(p0, p1, p2, p3) -> bool:
+    """Whether p0 (on p1) and p3 (on p2) stand on one side of the bond p1-p2: the torsion
+    p0-p1-p2-p3 under 90 degrees."""
+    axis = [q - p for p, q in zip(p1, p2)]
+    length = math.sqrt(sum(c * c for c in axis))
+    axis = [c / length for c in axis]
+    def across(start, tip):
+        v = [t - s for s, t in zip(start, tip)]
+        along = sum(c * u for c, u in zip(v, axis))
+        return [c - along * u for c, u in zip(v, axis)]
+    return sum(x * y for x, y in zip(across(p1, p0), across(p2, p3))) > 0
 
 
 _SMALL_RING = 7   # up to here a ring's double bond is cis: RDKit writes no E/Z for it

@@ -4,11 +4,15 @@ source named in the test: the Woodward-Hoffmann rules (thermal [4n+2] suprafacia
 Organic Chemistry, chapters on pericyclic reactions and aromatic substitution) and common practice."""
 from __future__ import annotations
 
+import json
 from pathlib import Path
 
 import pytest
+from rdkit import Chem
 
 from arrows import check_file, check_text
+from arrows.batch.jsonl import check_line
+from arrows.trace import state_smiles
 
 from textbook_mechanisms import TEXTBOOK
 
@@ -329,3 +333,62 @@ def test_a_three_three_shift_is_no_electrocyclic_closure():
     _, diags = check_text(_COPE.format(diene=_OCTADIENE_EZ, product=_MESO_DIENE), "t.mech")
     notes = [d.message for d in diags if d.code == "AR602"]
     assert notes and not any("electrocyclic" in m for m in notes), notes
+
+
+# --- The replay sets the chair's outcome of a [3,3] shift --------------------------------------------
+
+def _racemate(smiles: str) -> set[str]:
+    """RDKit's canonical SMILES of a stereoisomer and of its mirror image."""
+    mol = Chem.MolFromSmiles(smiles)
+    mirror = Chem.Mol(mol)
+    for atom in mirror.GetAtoms():
+        if atom.GetChiralTag() == Chem.ChiralType.CHI_TETRAHEDRAL_CW:
+            atom.SetChiralTag(Chem.ChiralType.CHI_TETRAHEDRAL_CCW)
+        elif atom.GetChiralTag() == Chem.ChiralType.CHI_TETRAHEDRAL_CCW:
+            atom.SetChiralTag(Chem.ChiralType.CHI_TETRAHEDRAL_CW)
+    return {Chem.MolToSmiles(mol), Chem.MolToSmiles(mirror)}
+
+
+@pytest.mark.parametrize("template, start, chair_product", [
+    (_COPE, _MESO, _EZ),
+    (_COPE, _OCTADIENE_EZ, _MESO_DIENE),
+    (_COPE, _OCTADIENE_EE, _RACEMIC_DIENE),   # an achiral start: one enantiomer stands for the racemate
+    (_CLAISEN, _ETHER_EE, _THREO),
+    (_CLAISEN, _ETHER_EZ, _ERYTHRO),
+], ids=["meso diene", "(E,Z)-octadiene", "(E,E)-octadiene", "(E,E)-ether", "(E,Z)-ether"])
+def test_the_replay_sets_the_one_product_both_chairs_give(template, start, chair_product):
+    """Where both chairs give one product (Doering-Roth; the Claisen as above; from memory), the
+    state after the shift carries it, as `check --jsonl --states` lists it (RDKit's canonical
+    SMILES, compared up to the mirror image), the step's AR602 note says a chair set it, and no
+    "no stereocontrol" count is left at the end. Before, the new double bonds and centres stayed
+    unset: "CC=CCCC=CC (...): 3 stereoisomers can form"."""
+    text = template.format(diene=start, product=chair_product)
+    result = check_line("t.jsonl", 1, json.dumps({"id": "shift", "text": text}).encode(), with_states=True)
+    after = Chem.MolFromSmiles(result["states"][1])
+    assert after is not None and Chem.MolToSmiles(after) in _racemate(chair_product.replace("\\\\", "\\")), result["states"]
+    _, diags = check_text(text, "t.mech")
+    notes = [d.message for d in diags if d.code == "AR602"]
+    assert "a [3,3] shift through a chair transition state" in notes[0], notes
+    assert not any("stereocontrol" in note for note in notes), notes
+
+
+def test_the_replay_leaves_the_racemic_diene_open():
+    """Guard (the decision): the (3R*,4R*) diene's two chairs give two diastereomers, (E,E) with both
+    methyls equatorial (~90%) and (Z,Z) with both axial (Doering-Roth, from memory). One state holds
+    one configuration and (Z,Z) is no wrong product to write, so the replay sets neither; AR602
+    counts the three geometries as before."""
+    trace, diags = check_text(_COPE.format(diene=_RACEMIC, product=_ZZ), "t.mech")
+    assert Chem.MolToSmiles(Chem.MolFromSmiles(state_smiles(trace.steps[0].after))) == "CC=CCCC=CC"
+    assert [d.code for d in diags if d.severity != "note"] == []
+    assert any("3 stereoisomers can form" in d.message for d in diags if d.code == "AR602")
+
+
+def test_a_checkpoint_the_replayed_chair_rules_out_is_the_chairs_to_name():
+    """Guard: the meso diene's checkpoint written (E,E) where the replay's state is now the chair's
+    (E,Z): one warning, AR605 naming the chair, not AR603 as well; written (E,Z) it draws none."""
+    body = _COPE.format(diene=_MESO, product=_EZ)
+    wrong = body.replace("\nend\n", f'\n    expect "{_EE}"\nend\n')
+    _, diags = check_text(wrong, "t.mech")
+    assert [d.code for d in diags if d.severity != "note"] == ["AR605"], [d.to_text() for d in diags]
+    right = body.replace("\nend\n", f'\n    expect "{_EZ}"\nend\n')
+    assert [d.code for d in check_text(right, "t.mech")[1] if d.severity != "note"] == []

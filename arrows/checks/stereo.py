@@ -6,7 +6,7 @@ from typing import Iterator, Optional
 
 from rdkit import Chem
 
-from ..configuration import electrocyclic_turn, names_light, open_face_groups
+from ..configuration import chair_configured, electrocyclic_turn, names_light, open_face_groups
 from ..diagnostics import Diagnostic
 from ..judgement.stereo import CENTRE, StereoElement, describe, state_stereo, stereoisomer_count
 from ..rdkit_io import fragment, readable_smiles
@@ -111,6 +111,10 @@ def _said(elements: list[StereoElement], label) -> str:
     return " and ".join(parts)
 
 
+_CHAIR = ("a [3,3] shift through a chair transition state, the one product both chairs give from the "
+          "configuration written")
+
+
 def _configured_centres(state: ElectronState, elements: list[StereoElement]) -> list[int]:
     return [e.atoms[0] for e in elements if e.kind == CENTRE
             and state.mol.GetAtomWithIdx(e.atoms[0]).GetChiralTag() != Chem.ChiralType.CHI_UNSPECIFIED]
@@ -152,9 +156,13 @@ class StereoChanges(Check):
             if set_here:
                 # configuration.py sets a new centre's configuration for a few rules only; the others stay free
                 turn = _electrocyclic_turn(st)
-                why = (f"configured by the step (an electrocyclic closure, its termini turning {turn}: "
-                       f"Woodward-Hoffmann rules)" if turn else
-                       "configured by the step (both new bonds on one face of the double bond or diene)")
+                if all(chair_configured(st.after.mol, i) for i in set_here):
+                    why = f"configured by the step ({_CHAIR})"
+                elif turn:
+                    why = (f"configured by the step (an electrocyclic closure, its termini turning {turn}: "
+                           f"Woodward-Hoffmann rules)")
+                else:
+                    why = "configured by the step (both new bonds on one face of the double bond or diene)"
                 if any(set(group) & set(set_here) for group in open_face_groups(st.after.mol)):
                     why += "; endo or exo left open (each pair fixed within itself)"
                 if len(set_here) == sum(e.kind == CENTRE for e in made):
@@ -162,9 +170,14 @@ class StereoChanges(Check):
                 else:
                     parts[-1] += f"; of them {', '.join(label(i) for i in set_here)} {why}, the others left open"
             bond = st.after.mol.GetBondBetweenAtoms
-            if configured and any(e.kind != CENTRE and bond(*e.atoms).GetStereo() != Chem.BondStereo.STEREONONE for e in made):
-                parts[-1] += (", its geometry set by the step (a concerted elimination from two configured "
-                              "centres, the two groups leaving periplanar)")
+            set_bonds = [e for e in made if e.kind != CENTRE and bond(*e.atoms).GetStereo() != Chem.BondStereo.STEREONONE] \
+                if configured else []
+            if set_bonds:
+                by_chair = all(chair_configured(st.after.mol, i) for e in set_bonds for i in e.atoms)
+                parts[-1] += (f", {'their geometry' if len(set_bonds) > 1 else 'its geometry'} set by the step ("
+                              + (_CHAIR if by_chair else
+                                 "a concerted elimination from two configured centres, the two groups leaving periplanar")
+                              + ")")
         if lost:
             parts.append(f"no longer stereogenic: {_said(lost, label)}")
         yield Diagnostic("AR602", "; ".join(parts), st.step.loc, step=st.index,

@@ -15,7 +15,7 @@ from rdkit import Chem
 
 from ..diagnostics import Diagnostic
 from ..configuration import (fill_in_configuration, forget_configuration_of_bond, neighbours_round, open_face_groups,
-                             tag_kept, turned_over)
+                             tag_kept, turned_over, without_chair_configuration)
 from ..electrons import ElectronState
 from ..judgement.stereo import DIASTEREOMERS, ENANTIOMERS, IDENTICAL, _mirror, cip_codes, is_chiral, relation
 from ..model import Checkpoint
@@ -262,7 +262,18 @@ def mismatches(state: ElectronState, checkpoint: Checkpoint, what: str, step: Op
     if found and any(not _mismatches(variant, checkpoint, what, step, racemic, cleared)
                      for variant in _turned_variants(state)):
         return []
+    if found and _chair_alone(state, checkpoint, what, step, racemic, cleared):
+        return []   # AR605's: it names the chair
     return found
+
+
+def _chair_alone(state: ElectronState, checkpoint: Checkpoint, what: str, step: Optional[int], racemic: bool,
+                 cleared: Optional[Mapping[int, Cleared]]) -> bool:
+    """Whether the written configuration differs from the state's only where a [3,3] shift's chair
+    set it (the state without that configuration shows no mismatch)."""
+    bare = without_chair_configuration(state.mol)
+    return bare is not None and not _mismatches(replace(state, mol=bare, judged={}), checkpoint, what, step,
+                                                racemic, cleared)
 
 
 def _turned_variants(state: ElectronState) -> Iterator[ElectronState]:
