@@ -75,3 +75,78 @@ def test_a_carbanion_sign_stands_nearer_its_own_vertex(style):
     middle = ((sign.box.x0 + sign.box.x1) / 2, (sign.box.y0 + sign.box.y1) / 2)
     own = math.dist(middle, vertex.position)
     assert all(math.dist(middle, a.position) > own for a in drawn.atoms if a.index != vertex.index)
+
+
+def _sign_box_middle(mark) -> tuple[float, float]:
+    return (mark.box.x0 + mark.box.x1) / 2, (mark.box.y0 + mark.box.y1) / 2
+
+
+def _molecule_of(panel, atom: int) -> set[int]:
+    """The atoms joined to `atom` by the panel's drawn bonds."""
+    adjacent: dict[int, set[int]] = {a.index: set() for a in panel.atoms}
+    for bond in panel.bonds:
+        i, j = bond.atoms
+        adjacent[i].add(j)
+        adjacent[j].add(i)
+    seen, todo = {atom}, [atom]
+    while todo:
+        for n in adjacent[todo.pop()] - seen:
+            seen.add(n)
+            todo.append(n)
+    return seen
+
+
+@pytest.mark.parametrize("style", ["two-column", "slide"])
+def test_a_sign_keeps_off_a_bare_vertex_of_another_molecule(style):
+    """The Weinreb ketone synthesis's MgBr+, set free as the propyl carbanion adds to the amide:
+    its "+" was written before the Mg, 0.49 bond lengths from a carbon of the new propyl chain,
+    where it read as a carbocation there (common practice: a sign sits against its own symbol)."""
+    scene = _scene("weinreb ketone", style)
+    drawn = scene.panels[1]
+    metal = next(a for a in drawn.atoms if a.name.startswith("Mg"))
+    sign, = [m for m in drawn.marks if m.kind == "charge" and m.atom == metal.index]
+    middle = _sign_box_middle(sign)
+    own = _molecule_of(drawn, metal.index)
+    vertices = [a for a in drawn.atoms if a.box is None and a.index not in own]
+    assert all(math.dist(middle, a.position) >= 0.5 * scene.bond_length for a in vertices)
+
+
+# Sodium borohydride reducing cyclohexanone in methanol (Clayden, Organic Chemistry, 2nd ed.,
+# ch. 6; from memory).
+BOROHYDRIDE_IN_METHANOL = """\
+species ketone = "[O:1]=[C:2]1CCCCC1"
+species borohydride = "[BH4-:3]"
+species methanol = "C[OH:4]"
+step "hydride transfer" under "MeOH"
+    B3-H -> C2-H(B3)
+    C2=O1 -> O1
+end
+step "protonation by methanol"
+    :O1 -> H(O4)
+    O4-H -> O4
+end
+step "methoxide to borane"
+    :O4 -> B3
+end
+product "OC1CCCCC1"
+"""
+
+
+@pytest.mark.parametrize("style", ["two-column", "slide"])
+def test_a_minus_keeps_off_the_bond_to_the_hydride_it_gives(style):
+    """BH4- giving its hydride (above): the "-" of B stood 60 degrees round from the bond to the H
+    that moves, beside that H, where it read as a hydride's H- rather than the borate's. It stands
+    on the far side of B from that bond, more than 90 degrees round (common practice: a sign on
+    its own atom's free side)."""
+    import arrows
+    from arrows.draw import STYLES, build_scene
+    trace, diags = arrows.check_text(BOROHYDRIDE_IN_METHANOL, "borohydride.mech")
+    scene = build_scene(trace, STYLES[style], diags)
+    drawn = scene.panels[0]
+    boron = next(a for a in drawn.atoms if a.name == "B3")
+    hydrogen = next(a for a in drawn.atoms if a.name.startswith("H("))
+    sign, = [m for m in drawn.marks if m.kind == "charge" and m.atom == boron.index]
+    x, y = _sign_box_middle(sign)
+    to_sign = complex(x - boron.position[0], y - boron.position[1])
+    to_hydrogen = complex(hydrogen.position[0] - boron.position[0], hydrogen.position[1] - boron.position[1])
+    assert abs(math.degrees(math.atan2((to_sign / to_hydrogen).imag, (to_sign / to_hydrogen).real))) > 90

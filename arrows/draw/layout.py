@@ -310,6 +310,25 @@ def _aligned(moving: dict[int, complex], fixed: dict[int, complex], anchors: lis
     return best[1]
 
 
+def _kept_at_joint(moving: dict[int, complex], fixed: dict[int, complex], joint: int, spokes: list[int],
+                   anchors: list[int]) -> dict[int, complex]:
+    """`moving` shifted so that `joint` stays exactly where `fixed` has it, turned so that its bonds
+    to `spokes` point as they did there (by least squares), of the two mirror images the one nearer
+    `fixed` over `anchors` (every shared atom when none is)."""
+    anchors = [a for a in anchors if a in moving and a in fixed] or [a for a in moving if a in fixed]
+    best = None
+    for mirror in (False, True):
+        points = {a: (p.conjugate() if mirror else p) for a, p in moving.items()}
+        m, f = points[joint], fixed[joint]
+        turn = unit(sum((fixed[a] - f) * (points[a] - m).conjugate() for a in spokes))
+        placed = {a: f + turn * (p - m) for a, p in points.items()}
+        misfit = (round(sum(abs(placed[a] - fixed[a]) ** 2 for a in spokes), 6),
+                  sum(abs(placed[a] - fixed[a]) ** 2 for a in anchors))
+        if best is None or misfit < best[0]:
+            best = (misfit, placed)
+    return best[1]
+
+
 def _bonds_between(a: int, b: int, neighbours, passable) -> int:
     """Bonds on the shortest way from a to b, stepping from x to n only where passable(x, n) (0 when
     there is none)."""
@@ -1666,14 +1685,38 @@ class _LayoutBuilder:
                 # RDKit lays separate pieces side by side at will: each piece is aligned on its own.
                 aligned: dict[int, complex] = {}
                 for piece in pieces.groups():
-                    part = {a: local[a] for a in piece}
+                    part, before = {a: local[a] for a in piece}, runs[-1][1]
+                    untouched = [a for a in piece if a not in self.touched[start - 1]]
                     # (a hydrogen that hops across the piece would only turn it: the heavy atoms fit it)
-                    aligned.update(_aligned(part, runs[-1][1], [a for a in piece if a not in self.touched[start - 1]],
-                                            [a for a in piece if self.element[a] != 1]))
+                    fitted = _aligned(part, before, untouched, [a for a in piece if self.element[a] != 1])
+                    joints = self._joints(piece, group, start - 1)
+                    if len(joints) == 1 and abs(fitted[joints[0]] - before[joints[0]]) > 1e-6:
+                        # The fit moved the one atom bonded to another cluster, which is placed
+                        # once for the run: that bond would stretch (a cycloadduct redrawn on its
+                        # iminium's C=N carbon, 2.5 lengths off the nitrogen). The atom stays put,
+                        # its own bonds turned as they were, so the bond keeps its angles too.
+                        joint = joints[0]
+                        spokes = [n for n in self.neighbours[joint] if n in part and n in before
+                                  and self._kept_bond(joint, n, start - 1)]
+                        if spokes:
+                            fitted = _kept_at_joint(part, before, joint, spokes, untouched)
+                    aligned.update(fitted)
                 local = aligned
             runs.append((start, local))
             start = end + 1
         return runs[0][1], runs[1:]
+
+    def _kept_bond(self, a: int, b: int, k: int) -> bool:
+        """Whether a bond between heavy atoms a and b is drawn in panels k and k+1 alike."""
+        pair = (min(a, b), max(a, b))
+        return self.element[a] != 1 and self.element[b] != 1 and pair in self.bonds_in[k] and pair in self.bonds_in[k + 1]
+
+    def _joints(self, piece: list[int], group: list[int], k: int) -> list[int]:
+        """Atoms of `piece` that step k leaves alone, bonded to an atom outside `group` in panels
+        k and k+1 alike."""
+        members = set(group)
+        return [a for a in piece if a not in self.touched[k]
+                and any(n not in members and self._kept_bond(a, n, k) for n in self.neighbours[a])]
 
     def _pieces_facing(self, local: dict[int, complex], group: list[int], bonds: set[tuple[int, int]],
                        last: int, pieces: _UnionFind) -> dict[int, complex]:
@@ -2672,7 +2715,8 @@ class _LayoutBuilder:
         hydrogen_on_mover = hydrogen is not None and kind == "hop" and self._holder(k, hydrogen) == mover
         # For a hop or a transfer, a spot from which the arrow to the anchor's side crosses no bond is preferred.
         walls = self._walls(segment, anchor, set(cluster.atoms)) if kind != "bond" else np.zeros((0, 2), dtype=complex)
-        placements = _Placements(options, u, v, anchor_at, distance, depicted, mover, near, hydrogen_on_mover, walls)
+        placements = _Placements(options, u, v, anchor_at, distance, self._footprint(cluster, segment, k), mover,
+                                 near, hydrogen_on_mover, walls)
         if len(walls):
             placements.batch = 1   # most hops settle on their first spot (see _Placements.blocked)
         best = None
@@ -2744,6 +2788,20 @@ class _LayoutBuilder:
         self._apply(index)
         if hydrogen is not None:
             self._promise(hydrogen, anchor, k, direction, leave_after=round_about is not None)
+
+    def _footprint(self, cluster: _Cluster, segment: tuple[int, int], k: int) -> dict[int, complex]:
+        """The cluster's depiction in panel k with, under keys of their own, its atoms as each other
+        depiction in the run `segment` draws them (a cycloadduct hung on the iminium it came from):
+        one placement holds for the whole run, so every depiction in it must keep clear."""
+        current = cluster.local_at(k)
+        footprint, others = dict(current), []
+        for panel in range(segment[0], segment[1] + 1):
+            local = cluster.local_at(panel)
+            if local is not current and all(local is not other for other in others):
+                others.append(local)
+                key = -len(others) * (max(self.atoms) + 1)
+                footprint.update({key - a: local[a] for a in cluster.atoms if a in local and a in self.exists[panel]})
+        return footprint
 
     def _cramped_centre(self, atom: int, room: float) -> bool:
         """Whether a cluster bonded to `atom` with only `room` round it (nearer than _CROWDED to

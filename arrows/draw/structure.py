@@ -385,6 +385,9 @@ _BY_THE_LABEL = 0.25   # bond lengths from a label's box to the middle of a char
 # ...and at least this many times as far from another atom's letter as from its own: at the upper
 # right a sign over a bond to another label (an azide's N+ over its N=N) read as the neighbour's.
 _CLEARLY_ITS_OWN = 1.4
+# ...and its middle no nearer than this to a bare vertex of another molecule: a spent H3O+'s "+"
+# 0.48 bond lengths from an alkene carbon read as a carbocation there.
+_BY_A_VERTEX = 0.5
 
 
 # A charge beside a label goes in its preferred quarter where a direction there keeps this far
@@ -894,13 +897,24 @@ class StructureDrawer:
             centre, bl = out.positions[i], self.style.bond_length
             nearby = [j for j, a in out.atoms.items()
                       if j != i and a.box is not None and abs(out.positions[j] - centre) < 2 * bl]
-            mark = self._superscript(i, text, out, [out.atoms[j].box for j in nearby], inward)
+            # A sign by a bare vertex of another molecule reads as that carbon's (a spent H3O+'s
+            # "+" against an alkene carbon, as a carbocation).
+            own_molecule = next(f for f in Chem.GetMolFrags(state.mol, asMols=False, sanitizeFrags=False) if i in f)
+            vertices = [out.positions[j] for j, a in out.atoms.items() if a.box is None and j not in own_molecule
+                        and abs(out.positions[j] - centre) < 2 * bl]
+            mark = self._superscript(i, text, out, [out.atoms[j].box for j in nearby], inward, vertices)
             if mark is None:
                 # Round the atom: clear of its bonds, the gaps ahead, the ring it stands in and the
                 # labels nearest.
                 labels = [unit_or_zero(out.positions[j] - centre) for j in nearby
                           if abs(out.positions[j] - centre) < 1.3 * bl]
-                avoided = list(ahead) + [d for d in labels if d] + ([inward] if inward else [])
+                # A minus beside a bond to a hydrogen drawn as an atom (one that moves) reads as that
+                # hydrogen's (BH4-'s, 60 degrees from the H it gives, as a hydride's): the bond's
+                # flanks count as taken too, so the sign goes to the free side.
+                flanks = [unit_or_zero(out.positions[j] - centre) * cmath.rect(1, turn) for j in nearby
+                          if charge < 0 and state.elements[j] == 1 and state.mol.GetBondBetweenAtoms(i, j) is not None
+                          for turn in (-math.pi / 4, math.pi / 4)]
+                avoided = list(ahead) + [d for d in labels if d] + ([inward] if inward else []) + flanks
                 out.occupied[i] += avoided
                 mark = self._side_text("charge", i, text, out, preferred=cmath.rect(1, -math.pi / 4), shunned=inward)
                 for d in avoided:
@@ -911,10 +925,11 @@ class StructureDrawer:
             out.marks.append(self.radical_dot(i, out, preferred=cmath.rect(1, -math.pi / 2)))
 
     def _superscript(self, i: int, text: str, out: PanelStructure, near: list[Box],
-                     inward: Optional[complex] = None) -> Optional[Mark]:
+                     inward: Optional[complex] = None, vertices: Sequence[complex] = ()) -> Optional[Mark]:
         """A charge written as a superscript after the label (O-, NH3+), or before it when a
         bond leaves from the upper right; None when neither place is free of bonds and of the
-        `near` labels, or lies toward the inside of the atom's ring (`inward`)."""
+        `near` labels, lies toward the inside of the atom's ring (`inward`) or stands by one of
+        the `vertices` (bare vertices of other molecules)."""
         drawing = out.atoms[i]
         if drawing.box is None:
             return None
@@ -943,7 +958,8 @@ class StructureDrawer:
             grown = Box(tb.x0 - 0.1 * size, tb.y0 - 0.1 * size, tb.x1 + 0.1 * size, tb.y1 + 0.1 * size)
             if any(segment_hits_box(centre + d * out.label_reach(i, d), centre + d * reach, grown)
                    for d in out.bond_directions[i]) or any(grown.overlaps(b, 0.2 * size) for b in near) \
-                    or any(tb.overlaps(b) for b in own) or level_and_close(tb, near, size):
+                    or any(tb.overlaps(b) for b in own) or level_and_close(tb, near, size) \
+                    or self._by_a_foreign_vertex(tb, vertices):
                 continue
             if strokes is None:
                 # Strokes of the bonds close by: a sign on a ring bond beside NH2+ reads as
@@ -963,6 +979,11 @@ class StructureDrawer:
             out.occupied[i].append(middle / abs(middle))
             return Mark("charge", i, (run,), box=tb)
         return None
+
+    def _by_a_foreign_vertex(self, box: Box, vertices: Sequence[complex]) -> bool:
+        """Whether the middle of `box` stands within _BY_A_VERTEX of one of `vertices`."""
+        middle = complex((box.x0 + box.x1) / 2, (box.y0 + box.y1) / 2)
+        return any(abs(middle - v) < _BY_A_VERTEX * self.style.bond_length for v in vertices)
 
     def _minus_beside_stroke(self, run: TextRun, strokes: list[tuple[complex, complex]]) -> bool:
         """Whether the minus sign of `run` lies along a bond stroke, near enough to read as the
