@@ -123,6 +123,70 @@ def _species(trace, mapped: int) -> set[int]:
     return next(set(f) for f in Chem.GetMolFrags(mol, sanitizeFrags=False) if index[mapped] in f)
 
 
+# EDC/HOBt coupling of benzoic acid and benzylamine (Montalbetti & Falque, Tetrahedron 2005, 61,
+# 10827, from memory): the urea anion takes its proton from the OBt ester after its resonance step.
+_EDC_COUPLING = """
+species acid = "c1ccccc1[C:1](=[O:2])[OH:3]"
+species edc = "CC[N:10]=[C:11]=[N:12]CCCN(C)C"
+species hobt = "[OH:20]n1nnc2ccccc21"
+species amine = "c1ccccc1C[NH2:30]"
+step "protonation of the carbodiimide" reversible
+    :N10 -> H(O3)
+    O3-H -> O3
+end
+step "O-acylisourea"
+    :O3 -> C11
+    C11=N10 -> N10
+end
+step "HOBt adds to the acyl carbon"
+    :O20 -> C1
+    C1=O2 -> O2
+end
+step "isourea leaves"
+    :O2 -> C1=O2
+    C1-O3 -> O3
+end
+step "urea anion" resonance
+    :O3 -> C11=O3
+    C11=N12 -> N12
+end
+step "proton to the urea"
+    :N12 -> H(O20)
+    O20-H -> O20
+end
+step "amine adds to the active ester"
+    :N30 -> C1
+    C1=O2 -> O2
+end
+step "HOBt anion leaves"
+    :O2 -> C1=O2
+    C1-O20 -> O20
+end
+step "deprotonation"
+    :O20 -> H(N30)
+    N30-H -> N30
+end
+"""
+
+
+def test_a_urea_cut_from_an_ester_is_not_turned_onto_it():
+    """EDC/HOBt coupling, panels 5-7: the isourea has left the OBt ester, and both stay where the
+    tetrahedral intermediate drew them. The C=O oxygens were turned toward 120 degrees at their
+    carbons with only 0.95 bond lengths kept from anything: the ester's O2 onto the spot the urea
+    oxygen had left, 1.0 from the urea carbon C11, and then the urea's O3 to 1.0 from the ester
+    carbon C1 and 0.99 from O2, a rhombus of two molecules. Separate molecules keep the
+    clearance of separately placed ones, 1.2 bond lengths (common practice: an atom a bond length
+    from another reads as bonded to it)."""
+    trace, diags = arrows.check_text(_EDC_COUPLING, "edc coupling")
+    scene = build_scene(trace, STYLES["two-column"], diags)
+    index = {atom.GetAtomMapNum(): atom.GetIdx() for atom in trace.initial.mol.GetAtoms() if atom.GetAtomMapNum()}
+    heavy = {atom.GetIdx() for atom in trace.initial.mol.GetAtoms() if atom.GetAtomicNum() != 1}
+    ester = ((_species(trace, 1) | _species(trace, 20)) & heavy) - {index[3]}
+    urea = (_species(trace, 10) & heavy) | {index[3]}
+    for panel in range(4, 7):
+        assert _nearest(scene, panel, ester, urea) >= 1.2, panel
+
+
 def test_an_alcohol_comes_to_the_periodinane_clear_of_its_acetoxy_groups():
     """Dess-Martin oxidation, panel 0: the alcohol O6 adds to the iodine I2, whose four oxygen
     ligands and aryl carbon leave no wide gap. RDKit laid the alcohol over the acetoxy group on

@@ -684,6 +684,19 @@ class _Cluster:
                 local = later
         return local
 
+    def held_off_at(self, k: int) -> dict[int, complex]:
+        """The depiction as panel k draws it: local_at(k) with the partners held apart there
+        moved off by their openings (as _apply sets them)."""
+        local = self.local_at(k)
+        held = [(atoms, offset) for atoms, first, last, offset in self.openings if first <= k <= last]
+        if not held:
+            return local
+        local = dict(local)
+        for atoms, offset in held:
+            for atom in atoms & local.keys():
+                local[atom] += offset
+        return local
+
 
 def compute_layout(states: Sequence[ElectronState], moves: Sequence[Sequence[ResolvedMove]],
                    touched: Sequence[Iterable[int]], left_out: Sequence[Iterable[int]] = (),
@@ -2674,7 +2687,10 @@ class _LayoutBuilder:
                            self.positions[segment[1]][giver])
         else:
             u = self._roomiest(anchor, k, hydrogen, also=self._bonds_while_waiting(anchor, mover, k, kind))
-        depicted = cluster.local_at(k)
+        # (with its partners held apart as this panel draws them: an acetal carbon held off the
+        # diol it closes a ring with, placed a bond length from the methoxy that leaves it, came
+        # out that opening's length further off, its bond drawn 2.38 bond lengths long)
+        depicted = cluster.held_off_at(k)
         placed = [self.positions[k][n] for n in self.neighbours[anchor]
                   if n in self.positions[k] and n not in depicted and self.element[n] != 1]
         if kind == "bond" and self._linear(anchor, range(k, k + 1)) and len(placed) == 1:
@@ -2794,13 +2810,14 @@ class _LayoutBuilder:
         depiction in the run `segment` draws them (a cycloadduct hung on the iminium it came from):
         one placement holds for the whole run, so every depiction in it must keep clear."""
         current = cluster.local_at(k)
-        footprint, others = dict(current), []
+        footprint, others = dict(cluster.held_off_at(k)), []
         for panel in range(segment[0], segment[1] + 1):
             local = cluster.local_at(panel)
             if local is not current and all(local is not other for other in others):
                 others.append(local)
                 key = -len(others) * (max(self.atoms) + 1)
-                footprint.update({key - a: local[a] for a in cluster.atoms if a in local and a in self.exists[panel]})
+                drawn = cluster.held_off_at(panel)   # (with its partners held apart, as that panel draws them)
+                footprint.update({key - a: drawn[a] for a in cluster.atoms if a in drawn and a in self.exists[panel]})
         return footprint
 
     def _cramped_centre(self, atom: int, room: float) -> bool:
@@ -3862,9 +3879,10 @@ class _LayoutBuilder:
         """Turn `atom`, bonded to one centre of three drawn partners in each of `panels`, about
         that centre toward the middle of its gap between the other two, the same turn in every
         panel (it may not move within the run): only where the smallest angle at the centre
-        grows by 10 degrees or more, nothing comes nearer it than it allows, no bond is crossed,
-        and a partner the centre is about to bond stays as far off (up to 100 degrees). The
-        cheap tests come first: most atoms of a scheme fail one of them."""
+        grows by 10 degrees or more, nothing comes nearer it than it allows, an atom of another
+        molecule stays _CLEARANCE off (or where it is, if nearer), no bond is crossed, and a
+        partner the centre is about to bond stays as far off (up to 100 degrees). The cheap tests
+        come first: most atoms of a scheme fail one of them."""
         centre = None
         for p in panels:
             bonds = self.bonds_in[p]
@@ -3939,10 +3957,24 @@ class _LayoutBuilder:
         crowd = np.array([q for p in panels for a, q in self.positions[p].items() if a not in (atom, centre)],
                          dtype=complex)
         room = min(float(np.abs(crowd - (origin + arm)).min()) if len(crowd) else 9.0, 0.95)
+        # Atoms of other molecules keep the clearance of separately placed clusters, or what they
+        # have if less: turned to a bond length of one, an atom reads as bonded to it (the urea
+        # oxygen just cut from an ester's carbon, turned to 1.0 from that carbon and 0.99 from
+        # its C=O oxygen, drew a rhombus with them). Not in the last panel, whose molecules are
+        # set apart in a row afterwards (_set_by_products_beside_product). Only an atom squeezed
+        # within 60 degrees of another bond of its centre, where the depiction of every partner
+        # its centre ever has left it (an ester's C=O oxygen 50 degrees from its OBt oxygen),
+        # takes the widest turn that comes nearer one: the lesser fault.
+        strangers = np.array([q for p in panels if p < self.n - 1 for molecule in self.molecules[p]
+                              if atom not in molecule for a in molecule if a in self.positions[p]
+                              for q in (self.positions[p][a],)], dtype=complex)
+        distance = min(float(np.abs(strangers - (origin + arm)).min()) if len(strangers) else 9.0, _CLEARANCE)
+        squeezed = narrowest(start) < _SIXTY
         walls = [(self.positions[p][i], self.positions[p][j]) for p in panels for i, j in self.bonds_in[p]
                  if atom not in (i, j) and centre not in (i, j)
                  and i in self.positions[p] and j in self.positions[p]]
         here = origin + arm
+        nearer_a_stranger = None   # (the widest turn that would do but for the strangers)
         for _, _, d in sorted(turns, key=lambda t: t[:2]):
             spot = origin + d * abs(arm)
             if (len(crowd) and float(np.abs(crowd - spot).min()) < room - 1e-9) \
@@ -3952,9 +3984,16 @@ class _LayoutBuilder:
                    or (holder is not None and abs(spot - holder) > max(abs(here - holder), PARTNER_REACH[1] + 0.4))
                    for h, holder in protons):
                 continue   # its proton would be left out of reach, or too near for its arrow
+            if len(strangers) and float(np.abs(strangers - spot).min()) < distance - 1e-9:
+                if nearer_a_stranger is None:
+                    nearer_a_stranger = spot
+                continue
             for p in panels:
                 self.positions[p][atom] = spot
             return
+        if squeezed and nearer_a_stranger is not None:
+            for p in panels:
+                self.positions[p][atom] = nearer_a_stranger
 
     # travelling hydrogens
     def _place_hydrogens(self) -> None:
