@@ -291,14 +291,21 @@ CODES = _table(
     Code("AR501", WARNING, "small ring closed",
          "A step closes a three- or four-membered ring; five- and six-membered closures usually "
          "outcompete them (common practice). Said also onto an oxocarbenium or iminium ion, where "
-         "Baldwin's disfavour is excused but the strain is not.",
+         "Baldwin's disfavour is excused but the strain is not. Where a displacement Baldwin favours "
+         "closes the small ring and the only five- or six-membered closure of its kind is disfavoured "
+         "(5-chloropentan-2-one's cyclopropane), the hint names that closure, which does not outrun it.",
          'species dione = "[CH3:1][C:2](=O)[CH-:3][CH2:4][CH2:5][C:6](=[O:7])[CH3:8]"\n'
          'step "closure"\n    :C3 -> C6   # a four-membered ring; the C1 enolate onto C6 would close six\n'
          '    C6=O7 -> O7\nend'),
     Code("AR502", WARNING, "disfavoured ring closure",
          "Baldwin's rules (J. E. Baldwin, J. Chem. Soc., Chem. Commun. 1976, 734; Baldwin and Lusch, "
          "Tetrahedron 1982, 38, 2939) call this closure disfavoured; the message and hint name a favoured "
-         "closure the species offers (between the same kinds of sites, else from the same nucleophile). "
+         "closure the species offers (a five- or six-membered one first, as `arrows closures` ranks them; "
+         "then between the same kinds of sites, else from the same nucleophile). A disfavoured aldol or "
+         "olefination closure with no favoured one open, written `reversible` and carried on by a later "
+         "step that breaks the adduct's C-O bond (an E1cB dehydration), is an AR601 note instead "
+         "(thermodynamic control). A 1,3-dicarbonyl anion is enolexo when either carbonyl stays outside "
+         "the ring, whichever form is drawn. "
          "An epoxide, aziridine or halonium ion opened at its far carbon is named by its C-C bond, inside "
          "the new ring: 6- or 7-endo-tet, disfavoured where the exo opening at the near carbon closes a "
          "five- or six-membered ring (Nicolaou et al., J. Am. Chem. Soc. 1989, 111, 5330, memory); the "
@@ -849,7 +856,9 @@ CODES = _table(
          "an oxaphosphetane, the iodine of a cyclic periodate ester) is given no class (a three- or "
          "four-membered one still draws AR501). A closure of five or more atoms that Baldwin disfavours "
          "onto an oxocarbenium or iminium ion (dioxolane formation, 5-endo-trig) is a note here, not "
-         "AR502: such closures are routine (common practice). A radical's 6-endo-trig closure onto an alkene, favoured "
+         "AR502: such closures are routine (common practice); so is a disfavoured aldol written "
+         "`reversible` and carried on by a later step that breaks its C-O bond (hexane-2,5-dione's "
+         "condensation). A radical's 6-endo-trig closure onto an alkene, favoured "
          "by Baldwin, names the 5-exo closure onto the same alkene, which radicals usually prefer (the "
          "hex-5-enyl radical about 98:2; Beckwith, from memory). A 5-endo opening of an epoxide (its "
          "exo rival a strained four-membered ring) is a note.",

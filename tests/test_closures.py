@@ -326,3 +326,16 @@ def test_epoxide_iodonium_and_nitrile_drafts_pass_check(tmp_path, smiles):
     trace, diags = check_file(out)
     assert [d.to_text() for d in diags if d.severity != "note"] == []
     assert trace.complete and trace.mechanism.product is not None
+
+
+@pytest.mark.parametrize("smiles", ["CCOC(=O)CC(=O)CCC=O", "CCOC(=O)C=C([O-])CCC=O", "CCOC([O-])=CC(=O)CCC=O"])
+def test_a_keto_ester_anion_closes_enolexo_whichever_form_is_given(smiles):
+    """Ethyl 3,6-dioxohexanoate's C2 closes a five-membered ring onto the aldehyde (common practice:
+    doubly stabilised anions close five-membered rings readily). Given as the enolate drawn toward
+    the ketone, the closure was 5-(enolendo)-exo-trig, disfavoured; the anion is conjugated with the
+    ester outside the ring too, and Baldwin-Lusch 1982 (memory) name the class by the enolate's C=C,
+    which can lie there: 5-(enolexo)-exo-trig, favoured, for every form, with the same product."""
+    first = closures_json(smiles)[0]
+    assert first["ring_size"] == 5 and first["class"] == "5-(enolexo)-exo-trig"
+    assert first["baldwin"]["verdict"] == "favoured"
+    assert same(first["product"].replace("[O-]", "O"), "CCOC(=O)C1C(=O)CCC1O")

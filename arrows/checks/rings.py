@@ -2,22 +2,24 @@
 closure gets its Baldwin class (arrows.judgement.baldwin); a ring that bridges the para or meta
 positions of an arene with a short bridge (a strained cyclophane) is AR527, a three- or
 four-membered ring AR501, a disfavoured class AR502 (naming a favoured closure open to the species
-when it offers one: between the same kinds of sites, else from the same nucleophile; for an epoxide,
-aziridine or halonium ion opened at its far carbon, the exo opening at the near one), anything else
-a note AR601 (a radical's 6-endo closure onto an alkene naming the 5-exo closure onto the same
-alkene, which radicals usually prefer)."""
+when it offers one: a five- or six-membered one first, then between the same kinds of sites, else
+from the same nucleophile; for an epoxide, aziridine or halonium ion opened at its far carbon, the
+exo opening at the near one), anything else a note AR601 (a radical's 6-endo closure onto an alkene
+naming the 5-exo closure onto the same alkene, which radicals usually prefer). A disfavoured aldol
+with nothing better open, written `reversible`, waits: a later step breaking its C-O bond makes it a
+note, else the warning stands at the end."""
 from __future__ import annotations
 
 from collections import deque
-from typing import TYPE_CHECKING, Iterator, Optional
+from typing import TYPE_CHECKING, Callable, Iterator, Optional
 
 from rdkit import Chem
 
 from ..diagnostics import Diagnostic
 from ..electrons import ElectronState, nameable
 from ..model import Location, frozen
-from ..judgement.baldwin import (BALDWIN_1976, ENDO, TRIG, ClosureClass, Verdict, classify, geometry_of, ring_path,
-                                  three_ring_bridge, verdict)
+from ..judgement.baldwin import (BALDWIN_1976, ENDO, TRIG, ClosureClass, Verdict, classify, enol_partner,
+                                  geometry_of, ring_path, three_ring_bridge, verdict)
 from ..judgement.perception import RecentViews
 from ..trace import StepTrace
 from . import Check
@@ -73,7 +75,7 @@ def closures_in_step(st: StepTrace) -> list[StepClosure]:
             found.append(StepClosure(x, y, ring, None, loc=loc, between_molecules=between))
             continue
         w = _broken_partner(st, x, y)
-        z = _enol_partner(st.before, st, x, y)
+        z = enol_partner(_enol_partners(st.before, st, x, y), ring)
         geometry = geometry_of(mol, y)
         # An oxocarbenium or iminium pi bond (the far atom positive), or a bare cation, is attacked:
         # at its carbon. A positive N or O attacked itself (the N+ of a nitro group) is no such
@@ -197,24 +199,27 @@ def _broken_partner(st: StepTrace, x: int, y: int) -> Optional[int]:
     return None
 
 
-def _enol_partner(state: ElectronState, st: StepTrace, x: int, y: int) -> Optional[int]:
-    """For an enolate (or enol) carbon nucleophile, the other enolate carbon: the partner of the
-    C=C pair that makes the new bond, with an oxygen on it; or, for a carbanion drawn with its
-    lone pair, the neighbouring carbonyl carbon."""
+def _enol_partners(state: ElectronState, st: StepTrace, x: int, y: int) -> list[int]:
+    """For an enolate (or enol) carbon nucleophile, every carbon its charge is shared with: the
+    partner of the C=C pair that makes the new bond, with an oxygen on it, or for a carbanion drawn
+    with its lone pair none; then each neighbouring carbonyl carbon (a 1,3-dicarbonyl's anion is one
+    enolate whichever resonance form is drawn). Empty for any other nucleophile."""
     mol = state.mol
     if mol.GetAtomWithIdx(x).GetAtomicNum() != 6:
-        return None
+        return []
+    found = []
     for m in st.change.moves:
         if m.source_kind == "bond" and len(m.sink_atoms) == 2 and set(m.sink_atoms) == {x, y} and x in m.source_atoms:
             z = m.source_atoms[0] if m.source_atoms[1] == x else m.source_atoms[1]
             if state.bond_electrons(x, z) == 4 and _has_single_donor(mol, z):
-                return z
-    if state.formal_charge(x) < 0:
-        for n in mol.GetAtomWithIdx(x).GetNeighbors():
-            if n.GetAtomicNum() == 6 and any(b.GetBondTypeAsDouble() == 2 and b.GetOtherAtom(n).GetAtomicNum() == 8
-                                             for b in n.GetBonds()):
-                return n.GetIdx()
-    return None
+                found.append(z)
+    if not found and state.formal_charge(x) >= 0:
+        return []
+    for n in mol.GetAtomWithIdx(x).GetNeighbors():
+        if n.GetIdx() not in found and n.GetIdx() != y and n.GetAtomicNum() == 6 and any(
+                b.GetBondTypeAsDouble() == 2 and b.GetOtherAtom(n).GetAtomicNum() == 8 for b in n.GetBonds()):
+            found.append(n.GetIdx())
+    return found
 
 
 def _has_single_donor(mol: Chem.Mol, atom: int) -> bool:
@@ -317,17 +322,61 @@ def _cyclophane_hint(st: StepTrace, c: StepClosure, bridged: BridgedArene) -> st
             f"closure onto an arene makes (common practice: Friedel-Crafts, Pictet-Spengler and Skraup closures)")
 
 
+@frozen
+class HeldAldol:
+    """A disfavoured aldol (or olefination) closure written `reversible`, with no favoured closure
+    open: its AR502 waits for a later step that breaks the adduct's C-O bond (an E1cB dehydration,
+    an oxaphosphetane's collapse), which makes it a note."""
+
+    warning: Diagnostic
+    carbon: int          # the attacked carbonyl carbon
+    oxygen: int          # its oxygen, the alkoxide of the adduct
+    nucleophile: int
+
+
 class RingClosures(Check):
     name = "ring closures"
     codes = ("AR501", "AR502", "AR527", "AR601")
 
     def __init__(self) -> None:
         self.recent: deque[ElectronState] = deque(maxlen=LOOK_BACK)   # states before the current step
+        self.held: list[HeldAldol] = []
 
     def step(self, st: StepTrace, context) -> Iterator[Diagnostic]:
-        found = [self.judge(st, c, context.views) for c in closures_in_step(st)]
+        found = self._carried_on(st)
+        for c in closures_in_step(st):
+            diagnostic = self.judge(st, c, context.views)
+            if not (self.held and diagnostic is self.held[-1].warning):
+                found.append(diagnostic)
         self.recent.append(st.before)
         return found
+
+    def finish(self, end, context) -> Iterator[Diagnostic]:
+        return [h.warning for h in self.held]
+
+    def _carried_on(self, st: StepTrace) -> list[Diagnostic]:
+        """The held aldol closures this step carries on, as notes: it breaks the adduct's C-O bond
+        while the new ring bond stands. Under reversible conditions a step that removes the adduct
+        pulls the equilibrium through the slow closure (thermodynamic control; Baldwin-Lusch 1982
+        discuss it, memory; the aldol condensation of hexane-2,5-dione to 3-methylcyclopent-2-enone,
+        common practice). A retro-aldol (the new bond broken) lets the warning stand."""
+        broken = {frozenset(b) for b in st.change.broken}
+        notes, still = [], []
+        for h in self.held:
+            if frozenset((h.carbon, h.nucleophile)) in broken:
+                notes.append(h.warning)      # undone: the warning stands as written
+            elif frozenset((h.carbon, h.oxygen)) in broken:
+                label = st.before.label
+                w = h.warning
+                message = (w.message + f", but the step is reversible and step {st.index + 1} (\"{st.step.label}\") "
+                           f"carries the adduct on, breaking {label(h.carbon)}-{label(h.oxygen)}: under "
+                           f"thermodynamic control a disfavoured closure can still be the route "
+                           f"(Baldwin-Lusch 1982 discuss it, memory)")
+                notes.append(Diagnostic("AR601", message, w.loc, atoms=w.atoms, bonds=w.bonds, step=w.step))
+            else:
+                still.append(h)
+        self.held = still
+        return notes
 
     def judge(self, st: StepTrace, c: StepClosure, views: RecentViews) -> Diagnostic:
         label = lambda i: st.before.label(i)   # noqa: E731
@@ -413,7 +462,14 @@ class RingClosures(Check):
             alternative = self.alternative(st, c)
             if alternative:
                 message += f"; {alternative.text}"
-            if code == "AR501":
+            outrun = (self.outrun(st, c) if code == "AR501" and not alternative and v.favoured
+                      and c.closure.geometry == "tet" else None)
+            if outrun:
+                hint = (f"the only five- or six-membered closure of this kind open to the species, {outrun.sites} "
+                        f"({outrun.name}), is disfavoured, and it does not outrun a displacement {v.rule} favours "
+                        f"(common practice: cyclopropanes from 4-halo ketones; `arrows closures` ranks this closure "
+                        f"first): the small ring is the product here and this warning a reminder only")
+            elif code == "AR501":
                 hint = _SMALL_RING_HINT
             elif alternative:
                 hint = (f"draw the favoured closure this species offers instead, {alternative.sites} "
@@ -422,10 +478,15 @@ class RingClosures(Check):
             elif _is_aldol(st, c):
                 # Nothing better is open: pointing the author at a favoured ring would send them looking
                 # for one that does not exist (hexane-2,5-dione's aldol has only a three-membered rival).
+                example = ("the oxaphosphetane's collapse in an intramolecular Horner-Wadsworth-Emmons closure to a "
+                           "cyclopentenone" if _olefination_carbon(st.before, c.nucleophile) else
+                           "the E1cB dehydration in the aldol condensation of hexane-2,5-dione to "
+                           "3-methylcyclopent-2-enone")
                 hint = ("no favoured closure is open to this species; a disfavoured closure is slow, not forbidden: "
-                        "it can still be the route where the steps are reversible and a later one draws the "
-                        "product on (the aldol condensation of hexane-2,5-dione to 3-methylcyclopent-2-enone, "
-                        "common practice, memory)")
+                        "an addition to a C=O can still be the route where it is reversible and a later step carries "
+                        f"the adduct on by breaking that C-O bond ({example}, common practice, memory; thermodynamic "
+                        "control, which Baldwin-Lusch 1982 discuss, memory); with the step written `reversible` and "
+                        "that later step drawn, this is a note")
             elif size in (3, 4):
                 hint = ("no favoured closure is open to this species; a disfavoured closure is slow, not forbidden: "
                         "where nothing faster is open the small ring can be the textbook intermediate (the "
@@ -434,7 +495,10 @@ class RingClosures(Check):
                 hint = ("no favoured closure is open to this species; a disfavoured closure is slow, not forbidden, "
                         "but a reaction between two molecules (the solvent adding instead) often wins over it "
                         "(Baldwin 1976, memory)")
-            return Diagnostic(code, message, c.loc or st.step.loc, hint=hint, **where)
+            diagnostic = Diagnostic(code, message, c.loc or st.step.loc, hint=hint, **where)
+            if code == "AR502" and not alternative and _is_aldol(st, c) and st.step.kind == "reversible":
+                self.held.append(HeldAldol(diagnostic, c.attacked, c.broken_partner, c.nucleophile))
+            return diagnostic
         if v.favoured is None:
             return Diagnostic("AR601", f"{opening}: {c.closure.name}, not covered by Baldwin's rules",
                               c.loc or st.step.loc, **where)
@@ -452,35 +516,59 @@ class RingClosures(Check):
                 said += f"; {smaller.text}, and a five- or six-membered ring closes faster"
         return Diagnostic("AR601", f"{opening}: {said}", c.loc or st.step.loc, **where)
 
-    def alternative(self, st: StepTrace, c: StepClosure, smaller_than: Optional[int] = None) -> Optional[Rival]:
-        """A favoured closure between the same kinds of sites in the species that closes here
-        (the latest neutral form of the fragment, before any enolate was made); with
-        `smaller_than`, only a five- or six-membered one smaller than that."""
-        kinds = _site_kinds(st.before, c)
-        if kinds is None:
-            return None
+    def species_closures(self, st: StepTrace, c: StepClosure) -> Optional[tuple[list[Closure], Callable[[int], str],
+                                                                               int, int]]:
+        """The closures open to the species that closes here (the latest neutral form of the
+        fragment, before any enolate was made), best first, as `arrows closures` ranks them; a label
+        for its atoms; the nucleophile and attacked atom in it. None where it cannot be told."""
         state = _parent_state(list(self.recent) + [st.before], c.nucleophile, c.attacked)
         # The species alone: a base beside it (methoxide) would be taken for its nucleophile.
         species, original = _fragment_of(state.mol, c.nucleophile)
         mine = {atom: k for k, atom in enumerate(original)}
         if c.attacked not in mine:
             return None
-        nucleophile, attacked = mine[c.nucleophile], mine[c.attacked]
-        # only for a strained or disfavoured ring
-        from ..judgement.closures import FAVOURED, favoured_alternatives, find_closures
-        # Between the same kinds of sites first; else any favoured closure of the same nucleophile
-        # (an alkoxide's 5-exo-trig lactonisation beside its 5-endo-trig oxa-Michael).
-        same_kinds = favoured_alternatives(species, *kinds)
-        same_nucleophile = [o for o in find_closures(species) if o.outlook == FAVOURED
-                            and nucleophile in {o.nucleophile.atom, *(n for n, _ in o.equivalent)}]
-        for option in same_kinds + same_nucleophile:
+        from ..judgement.closures import find_closures
+        return find_closures(species), lambda i: state.label(original[i]), mine[c.nucleophile], mine[c.attacked]
+
+    def alternative(self, st: StepTrace, c: StepClosure, smaller_than: Optional[int] = None) -> Optional[Rival]:
+        """A favoured closure open to the species that closes here; with `smaller_than`, only a five-
+        or six-membered one smaller than that. A five- or six-membered one first, as `arrows closures`
+        ranks them (3-methylideneheptane-2,6-dione: the 5-exo aldol before a 7-endo Michael); within
+        that, between the same kinds of sites first, else from the same nucleophile (an alkoxide's
+        5-exo-trig lactonisation beside its 5-endo-trig oxa-Michael)."""
+        kinds = _site_kinds(st.before, c)
+        found = self.species_closures(st, c) if kinds is not None else None
+        if found is None:
+            return None
+        options, label, nucleophile, attacked = found
+        from ..judgement.closures import FAVOURED, family
+        favoured = [o for o in options if o.outlook == FAVOURED]
+        same_kinds = [o for o in favoured if o.nucleophile.kind == kinds[0] and family(o.electrophile.kind) == kinds[1]]
+        same_nucleophile = [o for o in favoured if nucleophile in {o.nucleophile.atom, *(n for n, _ in o.equivalent)}]
+        ordered = sorted(same_kinds + same_nucleophile, key=lambda o: o.size not in (5, 6))   # a stable sort
+        for option in ordered:
             pairs = {(option.nucleophile.atom, option.electrophile.atom), *option.equivalent}
             if (nucleophile, attacked) in pairs:
                 continue
             if smaller_than is not None and not (option.size in (5, 6) and option.size < smaller_than):
                 continue
-            return _describe(lambda i: state.label(original[i]), option)
+            return _describe(label, option)
         return None
+
+    def outrun(self, st: StepTrace, c: StepClosure) -> Optional[Rival]:
+        """For a three- or four-membered ring closed by a displacement Baldwin favours, a five- or
+        six-membered closure between the same kinds of sites that the rules disfavour, which
+        `arrows closures` ranks below it (5-chloropentan-2-one: the C1 enolate's 5-(enolendo)-exo-tet below the C3
+        enolate's cyclopropane); else None."""
+        found = self.species_closures(st, c)
+        if found is None:
+            return None
+        options, label, _, _ = found
+        from ..judgement.closures import DISFAVOURED, family
+        kinds = _site_kinds(st.before, c)
+        return next((_describe(label, o) for o in options if kinds is not None and o.size in (5, 6)
+                     and o.outlook == DISFAVOURED and o.nucleophile.kind == kinds[0]
+                     and family(o.electrophile.kind) == kinds[1]), None)
 
 
 def _radical_exo_option(st: StepTrace, c: StepClosure) -> Optional[int]:
@@ -549,6 +637,12 @@ def _is_aldol(st: StepTrace, c: StepClosure) -> bool:
     """An enolate (enol, enamine) carbon closing onto a C=O: an aldol addition, which is reversible."""
     return (c.enol_partner is not None and c.closure is not None and c.closure.geometry == TRIG
             and c.broken_partner is not None and st.before.elements[c.broken_partner] == 8)
+
+
+def _olefination_carbon(state: ElectronState, atom: int) -> bool:
+    """A carbanion carbon bearing phosphorus, sulfur or silicon (a phosphonate's, a sulfone's, a
+    silane's): its addition to a C=O is the first half of an olefination, not an aldol."""
+    return any(n.GetAtomicNum() in (14, 15, 16) for n in state.mol.GetAtomWithIdx(atom).GetNeighbors())
 
 
 def _site_kinds(state: ElectronState, c: StepClosure) -> Optional[tuple[str, str]]:

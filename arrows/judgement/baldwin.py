@@ -7,7 +7,9 @@ A closure is named n-[(enolendo|enolexo)-]exo|endo-tet|trig|dig:
   lies inside it;
 - tet, trig, dig: the attacked atom is sp3, sp2 or sp before the step;
 - enolendo / enolexo (enolate carbon nucleophiles only): both enolate carbons end up in the new
-  ring, or only the nucleophilic one.
+  ring, or only the nucleophilic one. An anion shared with two carbonyls (a beta-keto ester's C2, a
+  malonate) is one enolate whichever resonance form is drawn: enolexo when either carbonyl carbon
+  stays outside the ring (see enol_partner).
 
 A closure that opens a three-membered ring (an epoxide, an aziridine, a halonium ion) is named, as
 chemists name it, by that ring's C-C bond: exo when the nucleophile takes the near carbon, endo
@@ -128,6 +130,16 @@ def classify(ring_path: Sequence[int], geometry: str, broken_partner: Optional[i
     if three_ring:
         mode = ENDO if bridge in ring else EXO
     return ClosureClass(len(ring_path), geometry, mode, enol, three_ring)
+
+
+def enol_partner(partners: Sequence[int], ring: Sequence[int]) -> Optional[int]:
+    """The enolate carbon that names a closure's class, from every carbon the nucleophile's charge
+    is shared with (the drawn C=C partner and each carbonyl carbon beside it): the first one outside
+    the new ring, else the first. Baldwin-Lusch 1982 name the class by the enolate's C=C (memory);
+    a doubly stabilised anion can put that C=C toward its exocyclic carbonyl, and such anions close
+    five-membered rings readily (common practice: Knoevenagel and malonate cyclisations)."""
+    outside = [p for p in partners if p not in ring]
+    return (outside or list(partners) or [None])[0]
 
 
 def three_ring_bridge(mol: Chem.Mol, attacked: int, broken_partner: Optional[int]) -> Optional[int]:

@@ -22,7 +22,7 @@ from typing import Optional
 from rdkit import Chem
 
 from .acidity import acidity_of, perceived
-from .baldwin import ENDO, ClosureClass, Verdict, classify, ring_path, verdict
+from .baldwin import ENDO, ClosureClass, Verdict, classify, enol_partner, ring_path, verdict
 from .sites import (ALDEHYDE, AMIDE, CARBOXYLATE, DISPLACED, ENOLATE, ESTER, KETONE, NITRILE, NITRILE_ANION,
                     NITROGEN, NUCLEOPHILE_RANK, Electrophile, Nucleophile, electrophiles, nucleophiles)
 from ..model import frozen
@@ -105,13 +105,11 @@ def closure_between(mol: Chem.Mol, nu: Nucleophile, el: Electrophile) -> Optiona
 
 
 def _enol_partner(nu: Nucleophile, path: tuple[int, ...]) -> Optional[int]:
-    """The enolate carbon paired with the nucleophilic one. With two (a 1,3-dicarbonyl), the one
-    outside the ring when there is one: the charge can sit on that exocyclic carbonyl."""
+    """The enolate carbon paired with the nucleophilic one; with two (a 1,3-dicarbonyl), the one
+    outside the ring when there is one (baldwin.enol_partner)."""
     if nu.kind != ENOLATE or not nu.partners:
         return None
-    carbons = [c for c, _ in nu.partners]
-    outside = [c for c in carbons if c not in path]
-    return (outside or carbons)[0]
+    return enol_partner([c for c, _ in nu.partners], path)
 
 
 def _compatible(nu: Nucleophile, el: Electrophile) -> bool:

@@ -89,9 +89,11 @@ def nucleophiles(mol: Chem.Mol) -> list[Nucleophile]:
     for alpha, carbon, nitrogen in _matches(mol, "[CX4;!H0]-[CX2]#[NX1]"):
         partners.setdefault(alpha, set()).add((carbon, nitrogen))
         kinds.setdefault(alpha, NITRILE_ANION)
-    # Enolates and enols already formed, and carbanions drawn next to a carbonyl.
+    # Enolates and enols already formed, and carbanions drawn next to a carbonyl; an enolate drawn
+    # toward one carbonyl of a 1,3-dicarbonyl is conjugated with the other too (one anion).
     for alpha, carbon, oxygen in _matches(mol, "[#6X3]=[#6X3]-[OX1-,OX2H1]") + _matches(
-            mol, f"[#6-;!$([#6]=*)]-{_CARBONYL_NOT_ACID}"):
+            mol, f"[#6-;!$([#6]=*)]-{_CARBONYL_NOT_ACID}") + _matches(
+            mol, f"[#6X3;$([#6]=[#6X3]-[OX1-,OX2H1])]-{_CARBONYL_NOT_ACID}"):
         partners.setdefault(alpha, set()).add((carbon, oxygen))
         kinds[alpha] = ENOLATE
         ready.add(alpha)

@@ -75,7 +75,13 @@ class _Writer:
     # the nucleophile
     def partner(self) -> tuple[int, int]:
         c = self.c
-        return next((p for p in c.nucleophile.partners if p[0] == c.enol_partner), c.nucleophile.partners[0])
+        nu = c.nucleophile
+        if nu.ready:
+            # An enolate drawn: its own C=C, whichever carbonyl names the class.
+            drawn = [p for p in nu.partners if self.mol.GetBondBetweenAtoms(nu.atom, p[0]).GetBondTypeAsDouble() == 2]
+            if drawn:
+                return drawn[0]
+        return next((p for p in nu.partners if p[0] == c.enol_partner), nu.partners[0])
 
     def activate(self) -> None:
         nu = self.c.nucleophile
