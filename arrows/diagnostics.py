@@ -869,7 +869,12 @@ CODES = _table(
          'end'),
     Code("AR602", NOTE, "stereocentres",
          "Stereocentres or stereogenic double bonds made or lost in a step, and how many "
-         "stereoisomers the product can have when the mechanism controls none of them. A centre that "
+         "stereoisomers the product can have when the mechanism controls none of them. A step's note "
+         "names a new element when the step configures it or it lasts to the product or to a written "
+         "checkpoint, and a lost one when it was configured (written, or set by a step): losing it is a "
+         "racemisation or scrambling risk. An element made without configuration and lost again before "
+         "either (a transient enolate's E/Z, a tetrahedral intermediate's centre) is left out; "
+         "`arrows trace --stereo` lists every change. A centre that "
          "is stereogenic only in one resonance structure (the sigma complex of an aromatic "
          "substitution) is not reported. A configuration written in a species is carried through "
          "the steps (inverted by a backside substitution, kept by a 1,2-shift). New centres made by a "

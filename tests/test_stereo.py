@@ -1351,3 +1351,106 @@ def test_the_note_names_the_turn_of_an_electrocyclic_closure():
     notes = [d.message for d in diags if d.code == "AR602"]
     assert any("electrocyclic closure, its termini turning disrotatory" in m for m in notes), notes
     assert not any("stereoisomers can form" in m for m in notes), notes
+
+
+# --- Which step notes AR602 writes --------------------------------------------------------------
+# A step's note names a new element that is configured by the step or lasts to the product or to a
+# written checkpoint, and a lost element that was configured. An unconfigured element made and lost
+# again (an enolate's E/Z, a tetrahedral intermediate's centre) is left out: it buried the AR601 line.
+
+_ENOLATE_ALKYLATION = '''species ketone = "[CH3:1][CH2:2][C:3](=[O:4])CC"
+species base = "CC(C)[N-:5]C(C)C"
+species iodide = "[CH3:6][CH2:7][I:8]"
+step "enolate"
+    :N5 -> H(C2)
+    C2-H -> C2=C3
+    C3=O4 -> O4
+end
+step "alkylation"
+    :O4 -> C3=O4
+    C2=C3 -> C2-C7
+    C7-I8 -> I8
+end
+product "CCC(=O)C(C)CC"
+'''
+
+_ENOLISED_ALDEHYDE = '''species aldehyde = "CC[C@@H:2](C)[CH:3]=[O:4]"
+species base = "[OH-:5]"
+species water = "[OH2:6]"
+step "enolate"
+    :O5 -> H(C2)
+    C2-H -> C2=C3
+    C3=O4 -> O4
+end
+step "protonation at carbon"
+    :O4 -> C3=O4
+    C2=C3 -> C2-H(O6)
+    O6-H -> O6
+end
+'''
+
+
+def _step_notes(diags) -> list[tuple[int, str]]:
+    return [(d.step, d.message) for d in diags if d.code == "AR602" and "no stereocontrol" not in d.message]
+
+
+def test_a_transient_enolate_geometry_is_not_noted_but_the_centre_it_leaves_is():
+    """Pentan-3-one's enolate (E or Z about C2=C3, common practice) lives one step; the ethylation
+    leaves 4-methylhexan-3-one's stereocentre, which RDKit's enumeration counts twice. Before, both
+    steps named the enolate's double bond (made, then lost)."""
+    _, diags = check_text(_ENOLATE_ALKYLATION)
+    assert [d.to_text() for d in diags if d.severity != "note"] == []
+    assert _step_notes(diags) == [(1, "new stereocentre C2")]
+    assert rdkit_count("CCC(=O)C(C)CC") == 2
+    assert any("2 stereoisomers can form" in d.message for d in diags)
+
+
+def test_a_tetrahedral_intermediate_centre_made_and_lost_is_not_noted():
+    """The Fischer esterification's tetrahedral intermediate (textbook addition-elimination) has a
+    stereocentre at the acyl carbon that the loss of water clears again; methyl acetate has none.
+    Before, one note named it made and the next lost."""
+    from textbook_mechanisms import TEXTBOOK
+    _, diags = check_text(TEXTBOOK["fischer esterification"][0])
+    assert [d.to_text() for d in diags if d.code == "AR602"] == []
+
+
+def test_losing_a_written_configuration_is_still_noted():
+    """Enolising (S)-2-methylbutanal clears its written centre (textbook: an enolisable stereocentre
+    racemises); protonation at carbon makes it again, free. Both notes stay; the enolate's double
+    bond, made and lost, is no longer named (before, each note named it too)."""
+    _, diags = check_text(_ENOLISED_ALDEHYDE)
+    assert [d.to_text() for d in diags if d.severity != "note"] == []
+    assert _step_notes(diags) == [(0, "no longer stereogenic: stereocentre C2"), (1, "new stereocentre C2")]
+
+
+def test_a_new_centre_on_a_written_checkpoint_is_noted_though_a_later_step_clears_it():
+    """Octane-2,7-dione's aldol adduct (C3, C7: two stereocentres, RDKit counts 4 stereoisomers) is
+    written as a checkpoint, so its centres are noted though the dehydration clears them; with the
+    checkpoint taken out they are transient and not noted."""
+    text = (GALLERY[0].parent / "05-octanedione-cyclopentene.mech").read_text(encoding="utf-8")
+    _, diags = check_text(text)
+    assert (1, "new stereocentres C3, C7") in _step_notes(diags)
+    assert rdkit_count("CC(=O)C1CCCC1(C)O") == 4
+    _, diags = check_text(text.replace('    expect "CC(=O)C1CCCC1(C)O"\n', ""))
+    assert _step_notes(diags) == []
+
+
+def test_the_step_notes_are_the_same_in_text_json_and_data_set_results(tmp_path):
+    """The notes are chosen at the end of the replay: the streaming check, `--format json` and a
+    `--jsonl` record give the same AR602 diagnostics as the text check (two: the new centre and the
+    count; before, three)."""
+    import json
+    from arrows.api import diagnose_file
+    from arrows.batch.jsonl import check_line
+    path = tmp_path / "alkylation.mech"
+    path.write_text(_ENOLATE_ALKYLATION, encoding="utf-8")
+    _, whole = check_file(path)
+    expected = [d.to_dict() for d in whole if d.code == "AR602"]
+    assert len(expected) == 2
+    assert [d.to_dict() for d in diagnose_file(path) if d.code == "AR602"] == expected
+    result = CliRunner().invoke(cli, ["check", "--format", "json", str(path)])
+    assert [d for d in json.loads(result.output) if d["code"] == "AR602"] == expected
+    record = json.dumps({"id": "alkylation", "text": _ENOLATE_ALKYLATION}).encode()
+    found = check_line("set.jsonl", 1, record)["diagnostics"]
+    assert [(d["step"], d["message"]) for d in found if d["code"] == "AR602"] == \
+        [(d["step"], d["message"]) for d in expected]

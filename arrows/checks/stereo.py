@@ -1,5 +1,6 @@
-"""Stereocentres and stereogenic double bonds made or lost in each step, and how many
-stereoisomers of the final product can form when the mechanism controls none of them (AR602)."""
+"""Stereocentres and stereogenic double bonds made or lost in each step (those configured, or
+lasting to the product or a checkpoint), and how many stereoisomers of the final product can form
+when the mechanism controls none of them (AR602)."""
 from __future__ import annotations
 
 from typing import Iterator, Optional
@@ -120,6 +121,48 @@ def _configured_centres(state: ElectronState, elements: list[StereoElement]) -> 
             and state.mol.GetAtomWithIdx(e.atoms[0]).GetChiralTag() != Chem.ChiralType.CHI_UNSPECIFIED]
 
 
+def _configured_in(state: ElectronState, e: StereoElement) -> bool:
+    """Whether a state carries a configuration at the element: a chiral tag on the centre, a set
+    geometry on the double bond."""
+    if not state.configured:
+        return False
+    if e.kind == CENTRE:
+        return state.mol.GetAtomWithIdx(e.atoms[0]).GetChiralTag() != Chem.ChiralType.CHI_UNSPECIFIED
+    bond = state.mol.GetBondBetweenAtoms(*e.atoms)
+    return bond is not None and bond.GetStereo() != Chem.BondStereo.STEREONONE
+
+
+class _StepNote:
+    """What one step made and lost, held until the end of the replay says which new elements
+    lived long enough to be reported."""
+
+    def __init__(self, st: StepTrace, made: list[StereoElement], lost: list[StereoElement], why: str,
+                 set_here: list[int], geometry: str) -> None:
+        self.index, self.loc = st.index, st.step.loc
+        self.made, self.lost = made, lost
+        self.shown_made: set[StereoElement] = set()
+        # why: how the step configured set_here; geometry: the words on the double bonds it set, if any
+        self.why, self.set_here, self.geometry = why, set_here, geometry
+
+    def diagnostic(self, label) -> Optional[Diagnostic]:
+        made = [e for e in self.made if e in self.shown_made]
+        if not made and not self.lost:
+            return None
+        parts = []
+        if made:
+            parts.append(f"new {_said(made, label)}")
+            if self.set_here:
+                if len(self.set_here) == sum(e.kind == CENTRE for e in made):
+                    parts[-1] += f", {self.why}"
+                else:
+                    parts[-1] += f"; of them {', '.join(label(i) for i in self.set_here)} {self.why}, the others left open"
+            parts[-1] += self.geometry
+        if self.lost:
+            parts.append(f"no longer stereogenic: {_said(self.lost, label)}")
+        return Diagnostic("AR602", "; ".join(parts), self.loc, step=self.index,
+                          atoms=tuple(label(i) for e in made + self.lost for i in e.atoms))
+
+
 class StereoChanges(Check):
     name = "stereo changes"
     codes = ("AR602",)
@@ -132,6 +175,10 @@ class StereoChanges(Check):
         # A stereo element's atoms are heavy atoms, whose labels (element and map number, or
         # position) never change in a replay: each is read off a Mol once.
         self.labels: dict[int, str] = {}
+        self.notes: list[_StepNote] = []
+        # New unconfigured elements not yet known to last: one lost again before the end or a
+        # checkpoint (a transient enolate's E/Z, a tetrahedral intermediate's centre) is not reported.
+        self.pending: dict[StereoElement, _StepNote] = {}
 
     def step(self, st: StepTrace, context) -> Iterator[Diagnostic]:
         self.touched.update(st.change.touched_atoms)
@@ -140,50 +187,65 @@ class StereoChanges(Check):
         if self.written is None:
             self.written = state_stereo(st.before, context.views)
         self.arisen.update(e for e in made if e not in self.written)
-        if not made and not lost:
-            return
+        if made or lost:
+            self._note(st, made, lost)
+        if st.step.expects:
+            self._shown(list(self.pending))   # a checkpoint is written on the state they stand in
+        return iter(())
+
+    def _note(self, st: StepTrace, made: list[StereoElement], lost: list[StereoElement]) -> None:
         labels = self.labels
         for e in made + lost:
             for i in e.atoms:
                 if i not in labels:
                     labels[i] = st.after.label(i)
-        label = labels.__getitem__
-        parts = []
-        if made:
-            parts.append(f"new {_said(made, label)}")
-            configured = st.after.configured   # the rules below can only have acted in a configured state
-            set_here = _configured_centres(st.after, made) if configured else []
-            if set_here:
-                # configuration.py sets a new centre's configuration for a few rules only; the others stay free
-                turn = _electrocyclic_turn(st)
-                if all(chair_configured(st.after.mol, i) for i in set_here):
-                    why = f"configured by the step ({_CHAIR})"
-                elif turn:
-                    why = (f"configured by the step (an electrocyclic closure, its termini turning {turn}: "
-                           f"Woodward-Hoffmann rules)")
-                else:
-                    why = "configured by the step (both new bonds on one face of the double bond or diene)"
-                if any(set(group) & set(set_here) for group in open_face_groups(st.after.mol)):
-                    why += "; endo or exo left open (each pair fixed within itself)"
-                if len(set_here) == sum(e.kind == CENTRE for e in made):
-                    parts[-1] += f", {why}"
-                else:
-                    parts[-1] += f"; of them {', '.join(label(i) for i in set_here)} {why}, the others left open"
-            bond = st.after.mol.GetBondBetweenAtoms
-            set_bonds = [e for e in made if e.kind != CENTRE and bond(*e.atoms).GetStereo() != Chem.BondStereo.STEREONONE] \
-                if configured else []
-            if set_bonds:
-                by_chair = all(chair_configured(st.after.mol, i) for e in set_bonds for i in e.atoms)
-                parts[-1] += (f", {'their geometry' if len(set_bonds) > 1 else 'its geometry'} set by the step ("
-                              + (_CHAIR if by_chair else
-                                 "a concerted elimination from two configured centres, the two groups leaving periplanar")
-                              + ")")
-        if lost:
-            parts.append(f"no longer stereogenic: {_said(lost, label)}")
-        yield Diagnostic("AR602", "; ".join(parts), st.step.loc, step=st.index,
-                         atoms=tuple(label(i) for e in made + lost for i in e.atoms))
+        for e in lost:
+            self.pending.pop(e, None)
+        # Losing a configuration is a racemisation or scrambling risk; losing one never set is not news.
+        shown_lost = [e for e in lost if _configured_in(st.before, e)]
+        if not made and not shown_lost:
+            return
+        configured = st.after.configured   # the rules below can only have acted in a configured state
+        set_here = _configured_centres(st.after, made) if configured else []
+        why = ""
+        if set_here:
+            # configuration.py sets a new centre's configuration for a few rules only; the others stay free
+            turn = _electrocyclic_turn(st)
+            if all(chair_configured(st.after.mol, i) for i in set_here):
+                why = f"configured by the step ({_CHAIR})"
+            elif turn:
+                why = f"configured by the step (an electrocyclic closure, its termini turning {turn}: Woodward-Hoffmann rules)"
+            else:
+                why = "configured by the step (both new bonds on one face of the double bond or diene)"
+            if any(set(group) & set(set_here) for group in open_face_groups(st.after.mol)):
+                why += "; endo or exo left open (each pair fixed within itself)"
+        set_bonds = [e for e in made if e.kind != CENTRE and _configured_in(st.after, e)]
+        geometry = ""
+        if set_bonds:
+            by_chair = all(chair_configured(st.after.mol, i) for e in set_bonds for i in e.atoms)
+            geometry = (f", {'their geometry' if len(set_bonds) > 1 else 'its geometry'} set by the step ("
+                        + (_CHAIR if by_chair else
+                           "a concerted elimination from two configured centres, the two groups leaving periplanar")
+                        + ")")
+        note = _StepNote(st, made, shown_lost, why, set_here, geometry)
+        self.notes.append(note)
+        for e in made:
+            if _configured_in(st.after, e):
+                note.shown_made.add(e)
+            else:
+                self.pending[e] = note
+
+    def _shown(self, elements: list[StereoElement]) -> None:
+        for e in elements:
+            self.pending.pop(e).shown_made.add(e)
 
     def finish(self, end: Ending, context) -> Iterator[Diagnostic]:
+        self._shown(list(self.pending))   # they reach the product, or the replay stopped with them standing
+        label = self.labels.__getitem__
+        for note in self.notes:
+            found = note.diagnostic(label)
+            if found is not None:
+                yield found
         if not end.steps_replayed:
             return   # no step: the mechanism makes nothing to count
         many = product_stereo(end.final, self.touched, context.views, several_only=True, arisen=frozenset(self.arisen))
