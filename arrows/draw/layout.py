@@ -82,6 +82,8 @@ _HYDROGEN_COMPASS_ARRAY = np.array(_HYDROGEN_COMPASS)
 _ALONG_BOND = math.radians(35)   # least angle between a travelling hydrogen and its holder's bonds
 _SEVENTY = math.radians(70)
 _BEHIND_A_BOND = math.radians(45)   # a partner this near a bond's direction lies behind the bond
+_CURLED_REACH = 1.75   # farthest a curled ring's atom stands from its middle, in circumradii of the regular ring
+_ROOM_OUT_OF_CURL = 0.55   # least room that takes a hydrogen out of a curled ring (less, its label meets another)
 _OPEN_ANGLE = math.radians(105)   # least angle a hydrogen leaning toward its partner keeps from a lone other bond
 _HIDDEN_VERTEX = math.radians(160)   # two bonds of a bare vertex straighter than this hide it
 _OFF_A_BOND = math.radians(35)   # least angle between a travelling hydrogen's bond and its holder's others
@@ -2424,12 +2426,28 @@ class _LayoutBuilder:
                                if len(near) else 1.2)
         if prefer is not None:
             score = score + 0.15 * (_COMPASS * unit(prefer).conjugate()).real   # (Python's conjugate: no ufunc call on one number)
+        shut = np.zeros(len(_COMPASS), dtype=bool)
         if (hydrogen, atom) in self.feeds:   # (most placements move no hydrogen whose bond's pair goes on)
-            score = score - 10.0 * self._fed_shut(hydrogen, atom, k)(_COMPASS)
+            shut = self._fed_shut(hydrogen, atom, k)(_COMPASS)
+            score = score - 10.0 * shut
         ideal = self._zigzag(atom, k, bonded)
         if ideal is not None:
             score = score + 0.3 * np.maximum((_COMPASS * ideal.conjugate()).real, 0.0)
         polygons = [[here[a] for a in ring] for ring in self._closed_rings(k)]
+        curled = self._curled_rings(hydrogen, k) if hydrogen is not None else []
+        if curled:
+            # A hydrogen also keeps out of a ring still to close, wherever a spot out of it that
+            # its bond's pair leaves open has room for its label (_untangled asks the same).
+            others = np.array([p for a, p in here.items() if abs(p - centre) < limit and a not in (atom, hydrogen)],
+                              dtype=complex)
+            room = (np.minimum.reduce(np.abs(spots[:, None] - others), axis=1) if len(others)
+                    else np.full(len(_COMPASS), math.inf))
+            out = [not fed and space >= _ROOM_OUT_OF_CURL
+                   and not any(inside_polygon(complex(spot), poly) for poly in curled)
+                   for spot, space, fed in zip(spots.tolist(), room.tolist(), shut.tolist())]
+            if any(out):
+                polygons += curled
+                score = score - 10.0 * ~np.array(out)
         # Best first; the first direction that does not point into a closed ring wins (the
         # best is the first highest score, as the stable sort below puts first).
         best = int(score.argmax())   # (the method: np.argmax's wrapper costs more than the search)
@@ -2623,6 +2641,30 @@ class _LayoutBuilder:
             self.rings_bonded[k] = [ring for ring in self.rings if all(
                 (min(a, b), max(a, b)) in self.bonds_in[k] for a, b in zip(ring, ring[1:] + ring[:1]))]
         return [ring for ring in self.rings_bonded[k] if all(a in self.positions[k] for a in ring)]
+
+    def _curled_rings(self, hydrogen: int, k: int) -> list[list[complex]]:
+        """The outlines in panel k of the rings of the depiction that are still open there but
+        that the hydrogen's molecule draws curled into shape (a chain drawn as the ring it will
+        close): a hydrogen inside points into the ring, and the arrow of the base that takes it
+        crosses the chain (common practice: a ring atom's H is drawn outside the ring). Not a
+        ring through another atom that holds the hydrogen over the mechanism (a proton passed
+        across the ring faces its partner there)."""
+        here = self.positions[k]
+        closed = self._closed_rings(k)
+        holders = {r.holder for r in self.residences.get(hydrogen, ())}
+        outlines = []
+        for ring in self.rings:
+            if (ring in closed or not all(a in here for a in ring) or len(holders & set(ring)) > 1
+                    or any(self.element[a] == 1 for a in ring)):
+                continue   # (a ring through a hydrogen is one a proton passes round, not a chain's)
+            if not any(set(ring) <= set(m) for m in self.molecules[k]):
+                continue   # (a ring two species will close: the space between them is the arrows')
+            points = [here[a] for a in ring]
+            middle = sum(points) / len(points)
+            # Curled: every atom near the circle of the regular ring (a zigzag chain is not).
+            if max(abs(q - middle) for q in points) <= _CURLED_REACH / (2 * math.sin(math.pi / len(ring))):
+                outlines.append(points)
+        return outlines
 
     def _occupied_around(self, atom: int, k: int, hydrogen: Optional[int] = None) -> list[complex]:
         """Positions around `atom` in panel k that a new neighbour must avoid: its union
@@ -4084,7 +4126,7 @@ class _LayoutBuilder:
         arrow runs there, not through a label beside it), then the most open, then the nearest the
         taker. The caller keeps them clear of atoms and bonds."""
         here = self.positions[k]
-        polygons = [[here[a] for a in ring] for ring in self._closed_rings(k)]
+        polygons = [[here[a] for a in ring] for ring in self._closed_rings(k)] + self._curled_rings(hydrogen, k)
         taker = here[partner] - centre
         near = [q - centre for q in others if abs(q - centre) < abs(taker) + 1.0]
         walls = [(here[i] - centre, here[j] - centre) for i, j in self.bonds_in[k]
@@ -4263,8 +4305,20 @@ class _LayoutBuilder:
             turn = abs(cmath.phase(direction / lone))
             return (trigonal and turn < _OPEN_ANGLE) or (vertex and turn > _HIDDEN_VERTEX)
 
+        # Ring outlines relative to the holder, over those panels: a direction into a closed
+        # ring is never taken; out of a ring still to close is preferred where it has room.
+        polygons = [[self.positions[k][a] - self.positions[k][r.holder] for a in ring]
+                    for k in panels for ring in self._closed_rings(k)]
+        curled = [[q - self.positions[k][r.holder] for q in outline]
+                  for k in panels for outline in self._curled_rings(r.hydrogen, k)]
+
+        def out_of_curl(direction: complex, space: float) -> bool:
+            """Outside every curled ring, with room enough that its label is read on its own."""
+            return not curled or (space >= _ROOM_OUT_OF_CURL
+                                  and not any(inside_polygon(direction, poly) for poly in curled))
+
         if (room_now >= _HYDROGEN_ROOM and miss(start) == 0.0 and not crossed_now and not cramped(start)
-                and not closed(start) and clear(start)):
+                and not closed(start) and clear(start) and out_of_curl(start, room_now)):
             return start, True
         walls = np.array(sorted(walls, key=lambda w: (w[0].real, w[0].imag)), dtype=complex).reshape(-1, 2)
 
@@ -4273,10 +4327,10 @@ class _LayoutBuilder:
                 return [False] * len(directions)
             return crosses_any(np.zeros(len(directions), dtype=complex), np.array(directions, dtype=complex), walls)
 
-        polygons = [[self.positions[k][a] for a in ring] for k in panels for ring in self._closed_rings(k)]
-        # Clear of every atom and bond first, then of bonds at least, then not folded, then clear
-        # of the molecules its holder's stands beside; among those, room and a comfortable hop.
-        start_score = (not cramped(start), room_now >= _HYDROGEN_ROOM and not crossed_now,
+        # Not cramped first, then out of a curled ring, then clear of every atom and bond, then of
+        # bonds at least, then not folded, then clear of the molecules its holder's stands
+        # beside; among those, room and a comfortable hop.
+        start_score = (not cramped(start), out_of_curl(start, room_now), room_now >= _HYDROGEN_ROOM and not crossed_now,
                        not crossed_now, not closed(start), clear(start),
                        min(room_now, _HYDROGEN_ROOM_SCORED) + 0.1 - miss(start))
         best, best_score = start, start_score
@@ -4289,21 +4343,22 @@ class _LayoutBuilder:
                   if len(aloof) else [True] * len(compass))
         for index, (d, space, crossed, cramped_d, clear_d) in enumerate(zip(compass, rooms, crossing(compass), shut,
                                                                              clears)):
-            tests = (not cramped_d, space >= _HYDROGEN_ROOM and not crossed, not crossed, not closed(d), clear_d)
-            if tests < best_score[:5]:
+            tests = (not cramped_d, out_of_curl(d, space), space >= _HYDROGEN_ROOM and not crossed, not crossed,
+                     not closed(d), clear_d)
+            if tests < best_score[:6]:
                 continue   # (lost on the tests: its miss is not worked out)
             score = tests + (min(space, _HYDROGEN_ROOM_SCORED) + 0.1 * (d / start).real - miss_at(index),)
-            if not (tests > best_score[:5] or score[5] > best_score[5] + 0.05):
+            if not (tests > best_score[:6] or score[6] > best_score[6] + 0.05):
                 continue
             # Only a direction that would win is asked whether it is allowed at all.
             if any(abs(cmath.phase(d / b)) < _OFF_A_BOND for b in bonds):
                 continue
-            if len(bonds) == 1 and score[:5] == start_score[:5] and abs(cmath.phase(d / bonds[0])) < _OPEN_ANGLE:
+            if len(bonds) == 1 and score[:6] == start_score[:6] and abs(cmath.phase(d / bonds[0])) < _OPEN_ANGLE:
                 continue   # no more room, only a nearer partner: not worth closing a lone bond's angle
-            if any(inside_polygon(self.positions[panels[0]][r.holder] + d, poly) for poly in polygons):
+            if any(inside_polygon(d, poly) for poly in polygons):
                 continue
             best, best_score = d, score
-        return best, best_score[1]
+        return best, best_score[2]
 
     def _others_while_standing_by(self, holder: int, panels: Sequence[int]) -> np.ndarray:
         """Where the atoms of other molecules drawn stand, relative to `holder`, in those of
