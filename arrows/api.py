@@ -100,12 +100,13 @@ def derived_mols(mechanism: Mechanism) -> list:
 
 
 def figure_style(style=None, *, color: bool = False, numbers: bool = False, cip: bool = False,
-                 step_labels: bool = False, title: bool = True, font: Optional[str] = None,
+                 step_labels: bool = False, ph_labels: bool = False, title: bool = True, font: Optional[str] = None,
                  font_size: Optional[float] = None, line_width: Optional[float] = None):
     """A style preset (one-column, two-column, slide; or an arrows.draw.Style) with the options of
     `arrows draw` applied, which builds its style here too: colour bonds formed and broken, map
-    numbers, CIP labels, step labels under the reaction arrows, the title left out, the font
-    family, the label font size and the line width (points)."""
+    numbers, CIP labels, step labels under the reaction arrows, "Ph" for each phenyl on phosphorus
+    that no step touches, the title left out, the font family, the label font size and
+    the line width (points)."""
     from .draw import DEFAULT_STYLE, STYLES, Style
     if isinstance(style, Style):
         base = style
@@ -118,15 +119,16 @@ def figure_style(style=None, *, color: bool = False, numbers: bool = False, cip:
     if line_width is not None:
         _within("line_width", line_width, LINE_WIDTH_RANGE)
     return base.with_options(color=color or None, numbers=numbers or None, cip=cip or None,
-                             step_labels=step_labels or None, show_title=None if title else False,
+                             step_labels=step_labels or None, ph_labels=ph_labels or None,
+                             show_title=None if title else False,
                              font_family=font, font_size=font_size, line_width=line_width)
 
 
 def draw(mechanism: Mechanism, fmt: str = "svg", style=None, force: bool = False, *, dpi: int = 300,
          **options) -> bytes:
     """The figure of a mechanism as bytes (SVG, PDF or PNG; dpi for PNG); drawing code is imported
-    only here. `options` are figure_style's (color, numbers, cip, step_labels, title, font,
-    font_size, line_width). A mechanism with errors raises arrows.draw.DrawError unless
+    only here. `options` are figure_style's (color, numbers, cip, step_labels, ph_labels, title,
+    font, font_size, line_width). A mechanism with errors raises arrows.draw.DrawError unless
     force=True, which marks the errors on the figure; a PNG too large to draw raises
     arrows.draw.export.ImageTooLarge (a ValueError) before any drawing."""
     from .draw import render

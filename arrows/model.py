@@ -322,15 +322,16 @@ class Mechanism:
 
     def draw(self, fmt: str = "svg", style: Optional[str] = None, force: bool = False, *, dpi: int = 300,
              color: bool = False, numbers: bool = False, cip: bool = False, step_labels: bool = False,
-             title: bool = True, font: Optional[str] = None, font_size: Optional[float] = None,
-             line_width: Optional[float] = None) -> bytes:
+             ph_labels: bool = False, title: bool = True, font: Optional[str] = None,
+             font_size: Optional[float] = None, line_width: Optional[float] = None) -> bytes:
         """The figure as bytes: fmt is "svg", "pdf" or "png"; style names a preset (one-column,
         two-column, slide). The keywords are the options of `arrows draw` (--dpi, --color, --numbers,
-        --cip, --step-labels, --no-title as title=False, --font, --font-size, --line-width). With
-        errors it raises arrows.draw.DrawError unless force=True."""
+        --cip, --step-labels, --ph-labels, --no-title as title=False, --font, --font-size,
+        --line-width). With errors it raises arrows.draw.DrawError unless force=True."""
         from .api import draw
         return draw(self, fmt, style, force, dpi=dpi, color=color, numbers=numbers, cip=cip,
-                    step_labels=step_labels, title=title, font=font, font_size=font_size, line_width=line_width)
+                    step_labels=step_labels, ph_labels=ph_labels, title=title, font=font, font_size=font_size,
+                    line_width=line_width)
 
     def to_text(self) -> str:
         """The mechanism as .mech text; parsing it gives back an equal Mechanism."""

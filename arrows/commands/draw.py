@@ -48,6 +48,8 @@ def _format_of(output: Path, fmt: str | None) -> str:
 @click.option("--numbers", is_flag=True, help="Show atom map numbers beside atoms, in green (for drafting).")
 @click.option("--cip", is_flag=True, help="Show CIP labels (R/S) of stereocentres.")
 @click.option("--step-labels", is_flag=True, help="Write each step's label under its reaction arrow.")
+@click.option("--ph-labels/--every-atom", default=False, show_default=True,
+              help="Write each phenyl on phosphorus that no step touches as Ph (Ph3P, Ph3P=O), or draw every atom.")
 @click.option("--no-title", is_flag=True, help="Leave the title out of the figure (it stays in the SVG <title>).")
 @click.option("--font", "font_family", callback=plain_text, help="Font family for all text (default DejaVu Sans).")
 @click.option("--font-size", type=FiniteFloatRange(*FONT_SIZE_RANGE), help="Label font size in points.")
@@ -55,8 +57,8 @@ def _format_of(output: Path, fmt: str | None) -> str:
 @click.option("--dpi", type=click.IntRange(*DPI_RANGE), default=300, show_default=True, help="Resolution of PNG output.")
 @click.option("--force", is_flag=True, help="Draw even with errors; they are marked on the figure.")
 @click.option("--watch", is_flag=True, help="Keep running: redraw each time FILE is saved, printing the diagnostics.")
-def draw_command(file, output, fmt, style, color, numbers, cip, step_labels, no_title, font_family, font_size,
-                 line_width, dpi, force, watch):
+def draw_command(file, output, fmt, style, color, numbers, cip, step_labels, ph_labels, no_title, font_family,
+                 font_size, line_width, dpi, force, watch):
     """Draw FILE as one scheme: the starting state and the state after each step, joined by
     reaction arrows, with each step's curved arrows on the panel it leaves.
 
@@ -69,8 +71,8 @@ def draw_command(file, output, fmt, style, color, numbers, cip, step_labels, no_
     if watch and str(output) == "-":
         raise click.BadParameter("--watch redraws a file: give -o a file name", param_hint="-o/--output")
     if watch:
-        _watch(file, output, fmt, _style(style, color, numbers, cip, step_labels, no_title, font_family, font_size,
-                                         line_width), force, dpi)
+        _watch(file, output, fmt, _style(style, color, numbers, cip, step_labels, ph_labels, no_title, font_family,
+                                         font_size, line_width), force, dpi)
         sys.exit(0)
     trace, diags = check_file(file)
     for d in diags:
@@ -92,7 +94,7 @@ def draw_command(file, output, fmt, style, color, numbers, cip, step_labels, no_
     from ..atomic import write_bytes as write_atomic
     from ..draw.export import convert
     from ..draw.svg import scene_to_svg
-    chosen = _style(style, color, numbers, cip, step_labels, no_title, font_family, font_size, line_width)
+    chosen = _style(style, color, numbers, cip, step_labels, ph_labels, no_title, font_family, font_size, line_width)
     from ..draw.export import png_size_problem
     try:
         scene = build_scene(trace, chosen, diags)
@@ -123,9 +125,9 @@ def draw_command(file, output, fmt, style, color, numbers, cip, step_labels, no_
     sys.exit(1 if errors else 0)
 
 
-def _style(style, color, numbers, cip, step_labels, no_title, font_family, font_size, line_width):
-    return figure_style(style, color=color, numbers=numbers, cip=cip, step_labels=step_labels, title=not no_title,
-                        font=font_family, font_size=font_size, line_width=line_width)
+def _style(style, color, numbers, cip, step_labels, ph_labels, no_title, font_family, font_size, line_width):
+    return figure_style(style, color=color, numbers=numbers, cip=cip, step_labels=step_labels, ph_labels=ph_labels,
+                        title=not no_title, font=font_family, font_size=font_size, line_width=line_width)
 
 
 def _watch(file, output: Path, fmt: str, chosen, force: bool, dpi: int) -> None:

@@ -24,7 +24,8 @@ import math
 from contextlib import contextmanager
 from dataclasses import dataclass, field
 from functools import lru_cache
-from typing import Callable, Iterable, Iterator, Optional, Sequence
+from types import MappingProxyType
+from typing import Callable, Iterable, Iterator, Mapping, Optional, Sequence
 
 import numpy as np
 from rdkit import Chem
@@ -126,6 +127,11 @@ _PARTNER_EXTRA = np.array([o[3] for o in _PARTNER_OPTIONS])
 # A partner whose arrow would cross a bond from every spot on its preferred side looks all round.
 _ROUND_OPTIONS = sorted((abs(t) + abs(s) * 0.7 + 8 * e, t, s, e) for t in np.arange(-9.0, 9.5, 0.5)
                         for s in (0, 1, -1, 2, -2, 6) for e in (0.0, 0.5, 1.0))
+
+
+# Atoms written as a group: none (compute_layout's default), and the characters of such a label ("Ph").
+_NONE_ABBREVIATED: Mapping[int, frozenset[int]] = MappingProxyType({})
+_GROUP_LABEL_CHARACTERS = 2
 
 
 @dataclass(frozen=True)
@@ -703,20 +709,24 @@ class _Cluster:
 def compute_layout(states: Sequence[ElectronState], moves: Sequence[Sequence[ResolvedMove]],
                    touched: Sequence[Iterable[int]], left_out: Sequence[Iterable[int]] = (),
                    bonds: Optional[Sequence[list[tuple[int, int, float]]]] = None,
-                   product: Iterable[int] = ()) -> Layout:
+                   product: Iterable[int] = (), abbreviated: Mapping[int, frozenset[int]] = _NONE_ABBREVIATED
+                   ) -> Layout:
     """Positions for the atoms of every state. `moves[k]` are the moves drawn on panel k,
     `touched[k]` the atoms the step leaving panel k changes (empty for the last panel) and
     `left_out[k]` atoms panel k does not draw (a spectator between its turns): a species is
     free to move while it is not drawn. `bonds[k]` are state k's bonds as rdkit_io.bond_list
     reads them (read here when not given). `product` holds atoms of the last state's product
-    proper, which the by-products line up after (by default the largest molecule)."""
+    proper, which the by-products line up after (by default the largest molecule).
+    `abbreviated` maps each atom written as a group ("Ph" at a phenyl's ipso carbon) to the atoms
+    its label stands for: those are in no panel and laid out as if absent, so their room is free."""
     with _rdkit_depictor():
-        builder = _LayoutBuilder(states, moves, touched, left_out, bonds, product)
+        builder = _LayoutBuilder(states, moves, touched, left_out, bonds, product, abbreviated=abbreviated)
         layout = builder.build()
         if builder.cramped:
             # Tried again with room kept at the centres where a partner found no clear place:
             # taken if fewer partners are cramped so.
-            retry = _LayoutBuilder(states, moves, touched, left_out, bonds, product, frozenset(builder.cramped))
+            retry = _LayoutBuilder(states, moves, touched, left_out, bonds, product, frozenset(builder.cramped),
+                                   abbreviated)
             retried = retry.build()
             if len(retry.cramped) < len(builder.cramped):
                 return retried
@@ -727,9 +737,10 @@ class _LayoutBuilder:
     def __init__(self, states: Sequence[ElectronState], moves: Sequence[Sequence[ResolvedMove]],
                  touched: Sequence[Iterable[int]], left_out: Sequence[Iterable[int]] = (),
                  bonds: Optional[Sequence[list[tuple[int, int, float]]]] = None, product: Iterable[int] = (),
-                 roomier: frozenset[int] = frozenset()):
+                 roomier: frozenset[int] = frozenset(),
+                 abbreviated: Mapping[int, frozenset[int]] = _NONE_ABBREVIATED):
         """`roomier`: atoms whose depiction keeps room for a partner in another cluster, where a
-        first try found no clear place round them (_cramped_centre)."""
+        first try found no clear place round them (_cramped_centre); `abbreviated`: as compute_layout's."""
         self.states = list(states)
         self.roomier = roomier
         self.cramped: set[int] = set()   # the atoms _cramped_centre found so, placing
@@ -750,7 +761,10 @@ class _LayoutBuilder:
                            for k, panel_moves in enumerate(moves[:self.n - 1]) for m in panel_moves
                            if m.source_kind == "lone_pair" and len(m.sink_atoms) == 2
                            and m.source_atoms[0] in m.sink_atoms and set(m.sink_atoms) <= self.states[k + 1].released]
-        self.atoms = [i for i, z in enumerate(elements) if z != 1 or i in self.drawn_h]
+        self.abbreviated = abbreviated
+        left_out_everywhere = frozenset().union(*abbreviated.values())
+        self.atoms = [i for i, z in enumerate(elements)
+                      if (z != 1 or i in self.drawn_h) and i not in left_out_everywhere]
         self.element = {i: elements[i] for i in self.atoms}
         drawn = set(self.atoms)
         absent = [set(a) for a in left_out] + [set()] * (self.n - len(left_out))
@@ -1192,10 +1206,10 @@ class _LayoutBuilder:
         pair, gives that pair to make `bond` a fourth (triphenylphosphine taking methyl: the
         phosphonium salt). Drawn trigonal, the new bond went in 60 degrees from two phenyls, and
         the methyl's hydrogen that a base takes next stood on a phenyl ring. (Chains, the ethoxy
-        groups of a phosphite, bend out of the way.)"""
+        groups of a phosphite, bend out of the way; a "Ph" label, standing for its ring, does not.)"""
         return any(self.states[k].nonbonding[atom] == 2
-                   and all(self._in_ring(i + j - atom) for i, j in self.bonds_in[k]
-                           if atom in (i, j) and self.element[i + j - atom] != 1)
+                   and all(self._in_ring(i + j - atom) or i + j - atom in self.abbreviated
+                           for i, j in self.bonds_in[k] if atom in (i, j) and self.element[i + j - atom] != 1)
                    for k in self._made_as_fourth(atom, bond))
 
     def _made_as_fourth(self, atom: int, bond: tuple[int, int]) -> Iterator[int]:
@@ -3735,17 +3749,20 @@ class _LayoutBuilder:
 
     def _lettered(self, atom: int, mol: Chem.Mol) -> bool:
         """Whether the heavy atom is drawn as a letter in this state: a heteroatom, or a carbon
-        with no heavy neighbour (CH3+, CN-)."""
+        with no heavy neighbour (CH3+, CN-), or an atom written as a group (Ph)."""
         if self.element[atom] == 1:
             return False   # a travelling hydrogen: its hops are placed apart on their own
-        return self.element[atom] != 6 or all(self.element.get(n.GetIdx(), 1) == 1
-                                               for n in mol.GetAtomWithIdx(atom).GetNeighbors())
+        return atom in self.abbreviated or self.element[atom] != 6 or all(
+            self.element.get(n.GetIdx(), 1) == 1 for n in mol.GetAtomWithIdx(atom).GetNeighbors())
 
     def _label_reach(self, atom: int, k: Optional[int] = None) -> float:
         """How far an atom's label may reach to either side, in bond lengths (a generous estimate:
         the layout does not know the font): none for a skeletal carbon; else about a third of a
-        bond length per character of symbol, hydrogens and charge, the hydrogens on either side.
+        bond length per character of symbol, hydrogens and charge, the hydrogens on either side
+        (of a group's label, "Ph", per character of it).
         As written in state k, or else in the first state that has the atom."""
+        if atom in self.abbreviated:
+            return 0.15 + 0.33 * _GROUP_LABEL_CHARACTERS
         state = self.states[k] if k is not None else next(s for s in self.states if atom < len(s.elements))
         a = state.mol.GetAtomWithIdx(atom)
         if a.GetAtomicNum() == 6 and a.GetDegree() > 0 and not a.GetFormalCharge():

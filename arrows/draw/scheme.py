@@ -24,6 +24,7 @@ from ..trace import StepTrace, Trace
 from .branches import may_stand_closer
 from .curves import ArrowPlanner, to_own_atom
 from .layout import Layout, compute_layout
+from .phenyls import PHENYL_LABEL, spectator_phenyls
 from .plane import distance_to_segment, segments_cross
 from .scene import BondDrawing, Box, CurvedArrow, Mark, Panel, ReactionArrow, Scene, TextRun
 from .formula import MINUS, Piece, condition_pieces, formula_pieces, inorganic_order
@@ -199,9 +200,10 @@ class _Groundwork:
     moves: list[list[ResolvedMove]]             # each panel's arrows: the moves of the step leaving it
     bonds: list[list[tuple[int, int, float]]]   # rdkit_io.bond_list of each panel's state
     layout: Layout
+    group_labels: dict[int, str] = field(default_factory=dict)   # atom -> the group it is written as (Ph)
 
 
-def _groundwork(trace: Trace) -> _Groundwork:
+def _groundwork(trace: Trace, ph_labels: bool = False) -> _Groundwork:
     product = product_atoms(trace)
     sources = _panel_sources(trace, product)
     if sources[-1].leaving is None and sources[-1].arriving is not None:
@@ -213,9 +215,19 @@ def _groundwork(trace: Trace) -> _Groundwork:
     moves = [list(s.leaving.change.moves) if s.leaving else [] for s in sources]
     touched = [set(s.leaving.change.touched_atoms) if s.leaving else set() for s in sources]
     bonds = _bond_lists(sources)   # for layout and structures
-    layout = compute_layout([s.state for s in sources], moves, touched, [s.hidden | s.idle for s in sources], bonds,
-                            product)
-    return _Groundwork(sources, moves, bonds, layout)
+    states = [s.state for s in sources]
+    phenyls = spectator_phenyls(states, _reached_atoms(trace)) if ph_labels else {}
+    layout = compute_layout(states, moves, touched, [s.hidden | s.idle for s in sources], bonds, product, phenyls)
+    return _Groundwork(sources, moves, bonds, layout, dict.fromkeys(phenyls, PHENYL_LABEL))
+
+
+def _reached_atoms(trace: Trace) -> set[int]:
+    """Every atom a step's arrows start or end at, or whose bonds or electrons a step changes."""
+    reached = set()
+    for st in trace.steps:
+        reached.update(st.change.touched_atoms)
+        reached.update(i for m in st.change.moves for i in m.source_atoms + m.sink_atoms)
+    return reached
 
 
 def build_scene(trace: Trace, style: Style, diagnostics: Sequence[Diagnostic] = ()) -> Scene:
@@ -224,7 +236,7 @@ def build_scene(trace: Trace, style: Style, diagnostics: Sequence[Diagnostic] = 
     larger, to fill it (_filling_the_page, also noted). A slide's rows are chosen at the preset size
     and kept when it is shrunk or enlarged (re-wrapped at 87%, the acetal's 3 + 3 + 2 panels became
     4 + 3 + 1)."""
-    groundwork = _groundwork(trace)
+    groundwork = _groundwork(trace, style.ph_labels)
     builder = _SceneBuilder(trace, groundwork, style, diagnostics)
     scene, fit = builder.build()
     states = [s.state for s in groundwork.sources]
@@ -745,7 +757,7 @@ class _SceneBuilder:
         self.bold = FontFace(style.font_family, bold=True)
         self.italic = FontFace(style.font_family, italic=True)
         self.bl = style.bond_length
-        self.drawer = StructureDrawer(style)
+        self.drawer = StructureDrawer(style, groundwork.group_labels)
         self.planner = ArrowPlanner(style, self.drawer.dot_radius)
         self.errors = [d for d in self.diagnostics if d.severity == ERROR]
         self.fit = 1.0

@@ -47,6 +47,7 @@ _MINUS_STROKE_SLOPE = math.tan(math.radians(15))
 _LEVEL_WITH_LABEL = math.sin(math.radians(30))   # directions this near the horizontal
 _ARROW_SAMPLES = 16   # points along a curved arrow that a map number set after the arrows keeps off
 _NO_BONDS: Mapping[tuple[int, int], int] = MappingProxyType({})
+_NO_GROUPS: Mapping[int, str] = MappingProxyType({})
 
 
 @dataclass
@@ -434,8 +435,11 @@ def ranked_directions(occupied: list[complex], preferred: complex, spread: float
 class StructureDrawer:
     """Turns one panel's state and atom positions into labels, bonds and marks."""
 
-    def __init__(self, style: Style):
+    def __init__(self, style: Style, group_labels: Mapping[int, str] = _NO_GROUPS):
+        """`group_labels`: atoms written as the group they stand for ("Ph" at a phenyl's ipso
+        carbon, draw/phenyls.py), whatever their element."""
         self.style = style
+        self.group_labels = group_labels
         self.face = FontFace(style.font_family)
         self.italic = FontFace(style.font_family, italic=True)
         self.cap = self.face.cap_height * style.font_size
@@ -579,6 +583,9 @@ class StructureDrawer:
         if name is None:   # an unmapped hydrogen, named after the atom that holds it, by the state
             name = state.label(i)
         point = (p.real, p.imag)
+        group = self.group_labels.get(i)
+        if group is not None:
+            return self._group_label(i, name, symbol, group, p)
         # Skeletal carbons are vertices, charged and radical ones too (the sign or dot sits
         # beside the vertex); only a bare terminal carbon with electrons of its own and no
         # hydrogen, as in cyanide, gets its letter.
@@ -651,6 +658,17 @@ class StructureDrawer:
                 if count:
                     runs.append(TextRun(count, x + w_h, line + sub_drop, ss))
         drawing = self._labels[key] = AtomDrawing(i, name, symbol, point, tuple(runs), self._runs_box(runs))
+        return drawing
+
+    def _group_label(self, i: int, name: str, symbol: str, text: str, p: complex) -> AtomDrawing:
+        """A group's label ("Ph") centred on its atom, as an element symbol is: its bond stops short of it."""
+        key = (i, name, text, p)
+        drawing = self._labels.get(key)
+        if drawing is None:
+            fs = self.style.font_size
+            runs = [TextRun(text, p.real - self.face.width(text, fs) / 2, p.imag + self.cap / 2, fs)]
+            drawing = self._labels[key] = AtomDrawing(i, name, symbol, (p.real, p.imag), tuple(runs),
+                                                      self._runs_box(runs))
         return drawing
 
     def _vertex(self, i: int, name: str, symbol: str, p: complex) -> AtomDrawing:
