@@ -6,6 +6,7 @@ import difflib
 import hashlib
 import re
 import sys
+import threading
 from functools import lru_cache
 from importlib import resources
 from pathlib import Path
@@ -32,6 +33,7 @@ import lark  # noqa: E402
 from lark import Lark, Token, Tree  # noqa: E402
 from lark.exceptions import UnexpectedCharacters, UnexpectedEOF, UnexpectedInput, VisitError  # noqa: E402
 
+from .comments import CommentPointers, PieceComments, place_comments
 from .diagnostics import Diagnostic, MechanismError, cannot_read
 from .model import (BOND_ORDERS, AtomRef, AtomSink, BareAtom, BondPair, BondRef, BondSink, Checkpoint, NonbondingSink,
                     HydrogenOn, Location, LonePair, Mechanism, Move, Species, Step, UnpairedElectron)
@@ -68,10 +70,39 @@ def _parser() -> Lark:
     # Every token is kept in the tree (keywords included), so that _ToModel takes each node's position
     # from its first token: lark's propagate_positions, which computes it for every node, doubled
     # the cost of building the tree.
-    options = dict(parser="lalr", keep_all_tokens=True, maybe_placeholders=False)
+    # The grammar ignores comments; the lexer still hands each one to _seen_comment.
+    options = dict(parser="lalr", keep_all_tokens=True, maybe_placeholders=False,
+                   lexer_callbacks={"COMMENT": _seen_comment})
     cache = _cache_file(grammar)
     # lark checks the grammar's hash stored in the file and rebuilds (and rewrites) on a mismatch.
     return Lark(grammar, cache=cache, **options) if cache else Lark(grammar, **options)
+
+
+class _CommentsSeen(threading.local):
+    """The comment tokens of the text being parsed, per thread (the parser is shared); None when
+    nobody collects them (a bare `_parser().parse`)."""
+
+    def __init__(self):
+        self.tokens: Optional[list[Token]] = None
+
+
+_comments_seen = _CommentsSeen()
+
+
+def _seen_comment(token: Token) -> Token:
+    if _comments_seen.tokens is not None:
+        _comments_seen.tokens.append(token)
+    return token
+
+
+def _tree_and_comments(text: str) -> tuple[Tree, list[Token]]:
+    """The parse tree of `text` and the comment tokens the lexer met on the way (lark's
+    lexer_callbacks: the comments never reach the tree)."""
+    _comments_seen.tokens = tokens = []
+    try:
+        return _parser().parse(text), tokens
+    finally:
+        _comments_seen.tokens = None
 
 
 class _Unpaired:
@@ -95,9 +126,12 @@ class _ToModel:
     Location of its first child's model object. A piece of a file parsed alone starts at
     (first_line, first_column) of the file: its positions are shifted there."""
 
-    def __init__(self, file: str, first_line: int = 1, first_column: int = 1):
+    def __init__(self, file: str, first_line: int = 1, first_column: int = 1,
+                 comments: Sequence[tuple[Token, bool]] = ()):
         self.file = file
         self.line_shift, self.column_shift = first_line - 1, first_column - 1
+        self.comments = comments    # (token, whether it stands alone on its line), in order
+        self.step_ends: list[tuple[Step, Token]] = []   # each step's `end`, kept when there are comments
 
     def transform(self, tree: Tree):
         """The model of a tree. A slip raises VisitError around it, as lark's Transformer does."""
@@ -210,8 +244,11 @@ class _ToModel:
                 if fields[key] not in (None, "forward"):
                     raise _LanguageSlip(loc, *_said_twice(key, fields[key], value))
                 fields[key] = value
-        return Step(label, fields["kind"], fields["over"], fields["under"], tuple(uses), tuple(moves),
+        step = Step(label, fields["kind"], fields["over"], fields["under"], tuple(uses), tuple(moves),
                     tuple(releases), tuple(expects), self._at(children[0]))
+        if self.comments:
+            self.step_ends.append((step, children[-1]))
+        return step
 
     # top level
     def title(self, children):
@@ -232,6 +269,10 @@ class _ToModel:
         return Checkpoint(self._text(children[-1]), len(children) == 3, self._at(children[0]), self._at(children[-1], 1))
 
     def start(self, children):
+        if self.comments:
+            placed = [(self._at(token), token, alone) for token, alone in self.comments]
+            children.append(place_comments(children, self.step_ends, placed,
+                                           self.line_shift == 0 and self.column_shift == 0, self._at))
         return children
 
 
@@ -248,11 +289,16 @@ def _said_twice(key: str, first: str, second: str) -> tuple[str, str]:
             f"write one `{key}` with both texts in it: {key} \"{first}; {second}\"")
 
 
-def _assemble(items, file: str) -> Mechanism:
-    """The statements of a file, in order, as one Mechanism."""
+def _assemble(items, file: str, comments: Optional[CommentPointers] = None) -> Mechanism:
+    """The statements of a file, in order, as one Mechanism. `comments`: those of a long file whose
+    steps were named as they were read (_parse_on_demand)."""
     fields: dict = {"title": None, "caption": None, "product": None}
     species, steps, after_product = [], [], []
+    placed, kept = [], {}   # the pieces' comments; title, caption and product as written
     for item in items:
+        if type(item) is PieceComments:
+            placed.append(item)
+            continue
         if fields["product"] is not None and (isinstance(item, Step) or (isinstance(item, tuple) and item[0] == "product")):
             after_product.append(item.loc if isinstance(item, Step) else item[1].loc)
             continue
@@ -261,15 +307,32 @@ def _assemble(items, file: str) -> Mechanism:
         elif isinstance(item, Step):
             steps.append(item)
         elif item[0] == "product":
-            fields["product"] = item[1]
+            fields["product"], kept["product"] = item[1], item
         else:
             key, value, loc = item
             if fields[key] is not None:
                 message, hint = _said_twice(key, fields[key], value)
                 raise MechanismError([Diagnostic("AR101", message, loc, hint=hint)])
-            fields[key] = value
+            fields[key], kept[key] = value, item
+    found = () if not placed and comments is None else _comments_of(
+        kept, species, steps, placed, comments or CommentPointers())
     return Mechanism(fields["title"], fields["caption"], tuple(species), tuple(steps), fields["product"],
-                     file, tuple(after_product))
+                     file, tuple(after_product), found)
+
+
+def _comments_of(kept: dict, species: list[Species], steps: list[Step], placed: list[PieceComments],
+                 comments: CommentPointers) -> tuple:
+    """The pieces' comments, each pointing at the statement it annotates as kept in the mechanism
+    (named here, so that a file without comments is spared the work)."""
+    for key, item in kept.items():
+        comments.name(item, f"/{key}")
+    for item in species:
+        comments.name(item, f"/species/{item.name}")
+    for k, step in enumerate(steps):
+        comments.name(step, f"/steps/{k}")
+    for piece in placed:
+        comments.piece(piece)
+    return comments.comments()
 
 
 class _LanguageSlip(Exception):
@@ -649,14 +712,26 @@ def _refuse_unwritable_characters(text: str, file: str) -> None:
 
 def _piece_items(text: str, file: str, piece: tuple[int, int, int, int]) -> list:
     start, end, line, column = piece
-    return _ToModel(file, line, column).transform(_parser().parse(text[start:end]))
+    tree, comments = _tree_and_comments(text[start:end])
+    return _ToModel(file, line, column, _alone_or_not(text, start, comments)).transform(tree)
+
+
+def _alone_or_not(text: str, start: int, comments: list[Token]) -> list[tuple[Token, bool]]:
+    """Each comment token of the piece of `text` that begins at `start`, and whether it stands alone
+    on its line of the file (a piece may begin inside a line)."""
+    marked = []
+    for token in comments:
+        at = start + token.start_pos
+        marked.append((token, not text[text.rfind("\n", 0, at) + 1:at].strip()))
+    return marked
 
 
 # A file is parsed in pieces of this many steps, each ending just after a step's `end`: the parse
 # tree of a whole long file costs several times the memory of its model. A piece that fails is no
-# verdict (a cut may fall inside a statement); the whole file is parsed again to report it.
+# verdict (a cut may fall inside a statement); the whole file is parsed again to report it. A
+# comment on the line of the `end` stays in its piece, with the step it annotates.
 _PIECE_STEPS = 64
-_PIECE_BREAK = re.compile(r'"[^"\n]*"|(?<![^\s])#[^\n]*|\bend(?=\s)')
+_PIECE_BREAK = re.compile(r'"[^"\n]*"|(?<![^\s])#[^\n]*|\bend(?=\s)(?:[^\S\n]+#[^\n]*)?')
 
 
 def _pieces(text: str) -> Iterator[tuple[int, int, int, int]]:
@@ -664,7 +739,7 @@ def _pieces(text: str) -> Iterator[tuple[int, int, int, int]]:
     the file. A cut falls only after an `end` followed by white space, so that no token spans it."""
     start, line, steps = 0, 1, 0
     for match in _PIECE_BREAK.finditer(text):
-        if match.group() != "end":
+        if not match.group().startswith("end"):
             continue
         steps += 1
         if steps == _PIECE_STEPS:
@@ -711,11 +786,16 @@ def _parse_on_demand(text: str, file: str, pieces: list[tuple[int, int, int, int
     head: list = []
     kept: list[tuple[tuple[int, int, int, int], int]] = []
     count, product_seen = 0, False
+    comments = CommentPointers()
     try:
         for piece in pieces:
             take = 0
             for item in _piece_items(text, file, piece):
+                if isinstance(item, PieceComments):
+                    comments.piece(item)
+                    continue
                 if isinstance(item, Step) and not product_seen:
+                    comments.name(item, f"/steps/{count + take}")
                     take += 1
                     continue
                 product_seen = product_seen or (isinstance(item, tuple) and item[0] == "product")
@@ -724,17 +804,17 @@ def _parse_on_demand(text: str, file: str, pieces: list[tuple[int, int, int, int
             count += take
     except (UnexpectedInput, VisitError):
         return _assemble(_whole(text, file), file)
-    mechanism = _assemble(head, file)
+    mechanism = _assemble(head, file, comments)
     return replace(mechanism, steps=StepsOnDemand(text, file, kept, count))
 
 
 def _whole(text: str, file: str) -> list:
     try:
-        tree = _parser().parse(text)
+        tree, comments = _tree_and_comments(text)
     except UnexpectedInput as exc:
         raise MechanismError([syntax_diagnostic(exc, text, file)]) from None
     try:
-        return _ToModel(file).transform(tree)
+        return _ToModel(file, comments=_alone_or_not(text, 0, comments)).transform(tree)
     except VisitError as exc:
         slip = exc.orig_exc
         if isinstance(slip, _LanguageSlip):

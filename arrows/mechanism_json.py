@@ -15,7 +15,7 @@ from typing import Any, Optional
 
 from .diagnostics import Diagnostic, MechanismError, cannot_read
 from .build import atom, move
-from .model import Checkpoint, Location, Mechanism, Move, Species, Step
+from .model import Checkpoint, Comment, Location, Mechanism, Move, Species, Step
 
 FORMAT, VERSION = "arrows-mechanism", 1
 SCHEMA_FILE = "mechanism.schema.json"
@@ -71,6 +71,8 @@ def mechanism_dict(mechanism: Mechanism) -> dict:
     out["steps"] = [_step(s) for s in mechanism.steps]
     if mechanism.product is not None:
         out["product"] = _checkpoint(mechanism.product)
+    if mechanism.comments:
+        out["comments"] = [{"at": c.at, "place": c.place, "text": c.text} for c in mechanism.comments]
     return out
 
 
@@ -178,6 +180,50 @@ def _read_move(text: str, where: tuple[int, int], file: str) -> Move:
                              ) from None
 
 
+# Where a comment may stand against each kind of part (model.COMMENT_PLACES).
+_PLACES_OF = {"": ("above", "below"), "step": ("above", "inline", "below", "end")}
+_PLACES_OF_A_LINE = ("above", "inline")
+
+
+def _read_comments(data: dict, places: _Places) -> tuple[Comment, ...]:
+    """The comments of a `mechanism` object; each must point at a part the object has, in a place
+    that part has (a comment the writer could not print would be lost)."""
+    comments = []
+    for k, comment in enumerate(data.get("comments", ())):
+        at, place = comment["at"], comment.get("place", "above")
+        target = _pointed_at(data, at)
+        allowed = _PLACES_OF[""] if at == "" else _PLACES_OF["step"] if target == "step" else _PLACES_OF_A_LINE
+        loc = places.at(("comments", k))
+        if target is None:
+            raise MechanismError([Diagnostic("AR100", f"comments[{k}].at: {at!r} points at no part of the mechanism",
+                                             loc, hint='point at the mechanism (""), "/title", "/species/NAME", '
+                                                       '"/steps/N", "/steps/N/moves/M", ... or "/product"')])
+        if place not in allowed:
+            raise MechanismError([Diagnostic("AR100", f"comments[{k}].place: a comment on {at or 'the mechanism'!r} "
+                                             f"stands {' or '.join(allowed)}, not {place}", loc,
+                                             hint='"below" and "end" belong to a step (or "below" to the '
+                                                  'mechanism), "inline" to a line')])
+        comments.append(Comment(comment["text"], at, place, loc))
+    return tuple(comments)
+
+
+def _pointed_at(data: dict, at: str) -> Optional[str]:
+    """What the JSON pointer `at` (whose form the schema checks) names in the mechanism object:
+    "step", "line" (a part printed on a line of its own) or None when there is no such part."""
+    node = data
+    parts = at.split("/")[1:]
+    for part in parts:
+        if isinstance(node, list):
+            if not part.isdigit() or int(part) >= len(node):
+                return None
+            node = node[int(part)]
+        elif isinstance(node, dict) and part in node:
+            node = node[part]
+        else:
+            return None
+    return "step" if len(parts) == 2 and parts[0] == "steps" else "line"
+
+
 def mechanism_from_dict(data: dict, source_name: str = "<text>",
                         where: Optional[dict[tuple, tuple[int, int]]] = None) -> Mechanism:
     """The Mechanism of a `mechanism` object that validates against the schema. `where` maps JSON
@@ -197,7 +243,7 @@ def mechanism_from_dict(data: dict, source_name: str = "<text>",
     product = data.get("product")
     return Mechanism(data.get("title"), data.get("caption"), _read_species(data["species"], places, ("species",)),
                      tuple(steps), None if product is None else _read_checkpoint(product, places, ("product",)),
-                     source_name)
+                     source_name, comments=_read_comments(data, places))
 
 
 _LONGEST_INTEGER = 100   # digits: no field of a mechanism is a number this long (Python refuses 4,300)

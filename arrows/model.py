@@ -275,6 +275,25 @@ class Checkpoint:
 STEP_KINDS = ("forward", "reversible", "resonance")
 
 
+# Where a comment stands against what it annotates: whole lines above it (for the mechanism, the top
+# of the file); at the end of its first line; whole lines below its last part (inside a step, before
+# its `end`; for the mechanism, after the last statement); at the end of a step's `end` line.
+COMMENT_PLACES = ("above", "inline", "below", "end")
+
+
+@frozen
+class Comment:
+    """A `# ...` comment as the author wrote it: `text` is what follows the `#` (less one space), `at`
+    what it annotates, as a JSON pointer into the mechanism's JSON object ("" the mechanism itself,
+    "/title", "/species/water", "/steps/0", "/steps/0/moves/1", "/steps/0/uses/acid", "/product"),
+    `place` one of COMMENT_PLACES."""
+
+    text: str
+    at: str = ""
+    place: str = "above"
+    loc: Location = field(default_factory=Location, compare=False)
+
+
 @frozen
 class Step:
     label: str
@@ -298,6 +317,9 @@ class Mechanism:
     source_name: str = "<text>"
     # Statements written after `product` (a step or a second product); kept for the checker.
     after_product: tuple[Location, ...] = field(default=(), compare=False)
+    # The author's comments, in the order the writer prints them. Not part of what the mechanism
+    # says: two mechanisms that differ only in comments are equal.
+    comments: tuple[Comment, ...] = field(default=(), compare=False)
 
     # Conveniences for scripts and notebooks. The work is done in api.py and writer.py, imported
     # when called, so the model itself stays free of RDKit and drawing code.

@@ -1,21 +1,24 @@
-"""Mechanism -> .mech text. The printed text parses back to an equal Mechanism (locations and
-comments aside: the model keeps neither the comments nor the layout of the original file)."""
+"""Mechanism -> .mech text. The printed text parses back to an equal Mechanism with the same
+comments, each in its place against what it annotates (locations aside: the model keeps not the
+layout of the original file)."""
 from __future__ import annotations
 
 import re
+from collections import defaultdict
 from typing import Optional
 
-from .model import STEP_KINDS, Checkpoint, Mechanism, Species, Step
+from .model import STEP_KINDS, Checkpoint, Comment, Mechanism, Species, Step
 
 # What the grammar accepts inside quotes and as a name (grammar/mechanism.lark: STRING, NAME).
 _STRING_FORBIDDEN = re.compile(r'["\n\r\x00]')   # a CR reads as a line end too (language.parse)
 _NAME = re.compile(r"[A-Za-z_][A-Za-z0-9_]*\Z")
+_COMMENT_FORBIDDEN = re.compile(r"[\n\r\x00]")
 INDENT = "    "
 
 
 class UnprintableMechanism(ValueError):
     """A field holds text the language cannot carry (a double quote or a line break, LF or CR, in a string,
-    a species name that is not a name)."""
+    a species name that is not a name, a line break in a comment, a comment on a part the mechanism has not)."""
 
 
 def quoted(text: str, what: str) -> str:
@@ -32,6 +35,39 @@ def name(text: str) -> str:
     return text
 
 
+class _Comments:
+    """A mechanism's comments by what they annotate and where, taken as they are printed."""
+
+    def __init__(self, comments: tuple[Comment, ...]):
+        self.left: dict[tuple[str, str], list[str]] = defaultdict(list)
+        for comment in comments:
+            if _COMMENT_FORBIDDEN.search(comment.text):
+                raise UnprintableMechanism(f"the comment {comment.text!r} contains a line break, which a comment "
+                                           "(to the end of its line) cannot hold")
+            self.left[comment.at, comment.place].append("#" + (" " + comment.text if comment.text else ""))
+
+    def take(self, at: str, place: str) -> list[str]:
+        return self.left.pop((at, place), [])
+
+    def line(self, at: str, code: str, indent: str = "") -> list[tuple[str, Optional[str]]]:
+        """The line of code printing `at`, under the whole-line comments above it, as (code, comment
+        at its end or None)."""
+        inline = self.take(at, "inline")
+        return ([(indent + text, None) for text in self.take(at, "above")]
+                + [(indent + code, "  ".join(inline) if inline else None)])
+
+    def check_all_printed(self) -> None:
+        if self.left:
+            at, place = next(iter(self.left))
+            raise UnprintableMechanism(f"a comment is attached to {at!r} ({place}), which the mechanism has not")
+
+
+def _aligned(lines: list[tuple[str, Optional[str]]]) -> list[str]:
+    """The lines of one block, their end-of-line comments in one column."""
+    width = max((len(code) for code, comment in lines if comment is not None), default=0)
+    return [code if comment is None else f"{code.ljust(width)}  {comment}" for code, comment in lines]
+
+
 def _species_line(keyword: str, species: Species) -> str:
     return f"{keyword} {name(species.name)} = {quoted(species.smiles, 'the SMILES of ' + species.name)}"
 
@@ -41,7 +77,7 @@ def _checkpoint(keyword: str, checkpoint: Checkpoint) -> str:
     return f"{keyword} {every}{quoted(checkpoint.smiles, keyword + ' SMILES')}"
 
 
-def _step_lines(step: Step) -> list[str]:
+def _step_lines(step: Step, at: str, comments: _Comments) -> list[str]:
     if step.kind not in STEP_KINDS:
         raise UnprintableMechanism(f"step {step.label!r} has kind {step.kind!r}; the kinds are {', '.join(STEP_KINDS)}")
     head = f"step {quoted(step.label, 'the step label')}"
@@ -51,30 +87,47 @@ def _step_lines(step: Step) -> list[str]:
         head += f" over {quoted(step.over, 'the text over the arrow')}"
     if step.under is not None:
         head += f" under {quoted(step.under, 'the text under the arrow')}"
-    body = [_species_line("uses", s) for s in step.uses]
-    body += [str(move) for move in step.moves]
-    body += [f"releases {atom}" for atom in step.releases]
-    body += [_checkpoint("expect", c) for c in step.expects]
-    return [head] + [INDENT + line for line in body] + ["end"]
+    body = [(f"{at}/uses/{s.name}", _species_line("uses", s)) for s in step.uses]
+    body += [(f"{at}/moves/{j}", str(move)) for j, move in enumerate(step.moves)]
+    body += [(f"{at}/releases/{j}", f"releases {atom}") for j, atom in enumerate(step.releases)]
+    body += [(f"{at}/expect/{j}", _checkpoint("expect", c)) for j, c in enumerate(step.expects)]
+    body_lines = [line for part, code in body for line in comments.line(part, code, INDENT)]
+    body_lines += [(INDENT + text, None) for text in comments.take(at, "below")]
+    end = comments.take(at, "end")
+    return (_aligned(comments.line(at, head)) + _aligned(body_lines)
+            + _aligned([("end", "  ".join(end) if end else None)]))
 
 
-def _optional(keyword: str, text: Optional[str]) -> list[str]:
-    return [] if text is None else [f"{keyword} {quoted(text, keyword)}"]
+def _optional(keyword: str, text: Optional[str], comments: _Comments) -> list[str]:
+    return [] if text is None else _aligned(comments.line(f"/{keyword}", f"{keyword} {quoted(text, keyword)}"))
 
 
 def to_text(mechanism: Mechanism) -> str:
     """Print a Mechanism as .mech text: title and caption, the species, each step, the product.
 
+    Comments are printed where they stand against what they annotate (model.Comment): whole lines
+    above it, at the end of its line, below a step's last part or after its `end`; the mechanism's at
+    the top of the text and after its last statement.
+
     Raises UnprintableMechanism when a string holds a double quote or a line break (the
-    language has no escape for them) or a species name is not a name.
+    language has no escape for them), a species name is not a name, a comment holds a line break or
+    is attached to a part the mechanism has not.
     """
+    comments = _Comments(mechanism.comments)
     blocks: list[list[str]] = []
-    header = _optional("title", mechanism.title) + _optional("caption", mechanism.caption)
+    header = _optional("title", mechanism.title, comments) + _optional("caption", mechanism.caption, comments)
     if header:
         blocks.append(header)
     if mechanism.species:
-        blocks.append([_species_line("species", s) for s in mechanism.species])
-    blocks.extend(_step_lines(step) for step in mechanism.steps)
+        blocks.append(_aligned([line for s in mechanism.species
+                                for line in comments.line(f"/species/{s.name}", _species_line("species", s))]))
+    blocks.extend(_step_lines(step, f"/steps/{k}", comments) for k, step in enumerate(mechanism.steps))
     if mechanism.product is not None:
-        blocks.append([_checkpoint("product", mechanism.product)])
+        blocks.append(_aligned(comments.line("/product", _checkpoint("product", mechanism.product))))
+    top, bottom = comments.take("", "above"), comments.take("", "below")
+    if top:
+        blocks[:1] = [top + blocks[0]] if blocks else [top]
+    if bottom:
+        blocks.append(bottom)
+    comments.check_all_printed()
     return "\n\n".join("\n".join(block) for block in blocks) + "\n"
