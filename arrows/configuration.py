@@ -109,8 +109,9 @@ def carry_configuration(before: Chem.Mol, after: Chem.RWMol, changes: dict[Pair,
     if not configured and not syn:
         return False
     carried = _substitutions(before, formed, broken, other, shifted) if configured else {}
-    forget_configuration(after, {i for key in changes for i in key} - set(carried))
-    for i in {i for key in changes for i in key}:
+    changed = {i for key in changes for i in key}
+    forget_configuration(after, changed - set(carried))
+    for i in changed:
         after.GetAtomWithIdx(i).ClearProp(_CHAIR)   # (a rule below may set it again)
     for atom, (leaving, entering, invert) in carried.items():
         substitute_configuration(before, after, atom, leaving, entering, invert=invert)
@@ -383,6 +384,15 @@ _CHAIR = "chair"   # atom property: the atom's configuration was set by a [3,3] 
 Outcome = tuple[tuple[tuple[int, Chem.ChiralType, tuple[int, ...]], ...], tuple[tuple[int, int, int, int, bool], ...]]
 
 
+def step_changes(change) -> dict[Pair, tuple[int, int]]:
+    """A replayed step's bond changes (its StepChange's formed, broken and reordered bonds) as
+    carry_configuration takes them: each bond's electrons before and after."""
+    changes = {key: (0, 2) for key in change.formed}
+    changes.update({key: (2, 0) for key in change.broken})
+    changes.update({key: (2 * was, 2 * now) for key, was, now in change.reordered})
+    return changes
+
+
 def three_three_array(mol: Chem.Mol, changes: dict[Pair, tuple[int, int]]) -> Optional[list[int]]:
     """The six atoms a1..a6 of a [3,3] shift (a1=a2 and a5=a6 made single, a2=a3 and a4=a5 double,
     a3-a4 broken, a1-a6 made, no other bond changed) of first-row atoms C, N, O outside any ring of
@@ -431,7 +441,7 @@ def _set_chair_configuration(before: Chem.Mol, after: Chem.RWMol, chain: list[in
         set_chair_outcome(work, outcome)
         products.append(work)
     first = _stereoisomer_name(products[0])
-    others = {_stereoisomer_name(work) for work in products} - {first}
+    others = {_stereoisomer_name(work) for work in products[1:]} - {first}
     if first is None or (others and others != {_stereoisomer_name(turned_over(products[0], range(after.GetNumAtoms())))}):
         return False   # diastereomers, or a state RDKit cannot write
     set_here = set_chair_outcome(after, outcomes[0])

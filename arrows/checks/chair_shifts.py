@@ -21,8 +21,8 @@ from typing import Iterator, Optional
 
 from rdkit import Chem
 
-from ..configuration import (Outcome, chair_outcomes, set_chair_outcome, without_chair_configuration,
-                             three_three_array as array_of_three_three_shift)
+from ..configuration import (Outcome, chair_outcomes, set_chair_outcome, step_changes, three_three_array,
+                             without_chair_configuration)
 from ..diagnostics import Diagnostic
 from ..electrons import ElectronState
 from ..judgement.stereo import ENANTIOMERS, is_chiral, relation
@@ -33,16 +33,13 @@ from .pericyclic import photochemical
 from .written_stereo import ChiralityWatch, compared_pieces, mismatches
 
 
-def three_three_array(st: StepTrace) -> Optional[list[int]]:
+def _shift_array(st: StepTrace) -> Optional[list[int]]:
     """The six atoms a1..a6 of a thermal [3,3] shift outside any ring (configuration's
     three_three_array), else None."""
     change = st.change
     if st.after is None or len(change.moves) != 3 or not change.pericyclic or photochemical(st):
         return None
-    changes = {key: (0, 2) for key in change.formed}
-    changes.update({key: (2, 0) for key in change.broken})
-    changes.update({key: (2 * was, 2 * now) for key, was, now in change.reordered})
-    return array_of_three_three_shift(st.before.mol, changes)
+    return three_three_array(st.before.mol, step_changes(change))
 
 
 def configured_as(state: ElectronState, outcome: Outcome, kept: set[int]) -> Optional[ElectronState]:
@@ -103,7 +100,7 @@ class ChairThreeThreeShift(Check):
             shift.kept -= set(st.change.touched_atoms)
         self.shifts = [s for s in self.shifts if s.kept]
         if st.before.configured:
-            chain = three_three_array(st)
+            chain = _shift_array(st)
             outcomes = chair_outcomes(st.before.mol, st.after.mol, chain) if chain else None
             if outcomes:
                 self.shifts.append(_Shift(st.index, chain, outcomes))

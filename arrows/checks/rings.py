@@ -541,9 +541,9 @@ class RingClosures(Check):
         if found is None:
             return None
         options, label, nucleophile, attacked = found
-        from ..judgement.closures import FAVOURED, family
+        from ..judgement.closures import FAVOURED, between_kinds
         favoured = [o for o in options if o.outlook == FAVOURED]
-        same_kinds = [o for o in favoured if o.nucleophile.kind == kinds[0] and family(o.electrophile.kind) == kinds[1]]
+        same_kinds = [o for o in favoured if between_kinds(o, *kinds)]
         same_nucleophile = [o for o in favoured if nucleophile in {o.nucleophile.atom, *(n for n, _ in o.equivalent)}]
         ordered = sorted(same_kinds + same_nucleophile, key=lambda o: o.size not in (5, 6))   # a stable sort
         for option in ordered:
@@ -560,15 +560,14 @@ class RingClosures(Check):
         six-membered closure between the same kinds of sites that the rules disfavour, which
         `arrows closures` ranks below it (5-chloropentan-2-one: the C1 enolate's 5-(enolendo)-exo-tet below the C3
         enolate's cyclopropane); else None."""
-        found = self.species_closures(st, c)
+        kinds = _site_kinds(st.before, c)
+        found = self.species_closures(st, c) if kinds is not None else None
         if found is None:
             return None
         options, label, _, _ = found
-        from ..judgement.closures import DISFAVOURED, family
-        kinds = _site_kinds(st.before, c)
-        return next((_describe(label, o) for o in options if kinds is not None and o.size in (5, 6)
-                     and o.outlook == DISFAVOURED and o.nucleophile.kind == kinds[0]
-                     and family(o.electrophile.kind) == kinds[1]), None)
+        from ..judgement.closures import DISFAVOURED, between_kinds
+        return next((_describe(label, o) for o in options if o.size in (5, 6) and o.outlook == DISFAVOURED
+                     and between_kinds(o, *kinds)), None)
 
 
 def _radical_exo_option(st: StepTrace, c: StepClosure) -> Optional[int]:

@@ -7,7 +7,7 @@ from typing import Iterator, Optional
 
 from rdkit import Chem
 
-from ..configuration import chair_configured, electrocyclic_turn, names_light, open_face_groups
+from ..configuration import chair_configured, electrocyclic_turn, names_light, open_face_groups, step_changes
 from ..diagnostics import Diagnostic
 from ..judgement.stereo import CENTRE, StereoElement, describe, state_stereo, stereoisomer_count
 from ..rdkit_io import fragment, readable_smiles
@@ -38,12 +38,8 @@ def step_stereo(st: StepTrace, views: Optional[RecentViews] = None) -> tuple[lis
 
 def _electrocyclic_turn(st: StepTrace) -> Optional[str]:
     """How the step turned the termini of an electrocyclic closure it configured, else None."""
-    change = st.change
-    changes = {key: (0, 2) for key in change.formed}
-    changes.update({key: (2, 0) for key in change.broken})
-    changes.update({key: (2 * was, 2 * now) for key, was, now in change.reordered})
-    pairs = sum(1 for m in change.moves if m.electrons == 2)
-    return electrocyclic_turn(st.before.mol, changes, pairs, names_light(st.step.over, st.step.under))
+    pairs = sum(1 for m in st.change.moves if m.electrons == 2)
+    return electrocyclic_turn(st.before.mol, step_changes(st.change), pairs, names_light(st.step.over, st.step.under))
 
 
 def final_stereo(trace: Trace) -> list[ProductStereo]:
@@ -210,10 +206,9 @@ class StereoChanges(Check):
         why = ""
         if set_here:
             # configuration.py sets a new centre's configuration for a few rules only; the others stay free
-            turn = _electrocyclic_turn(st)
             if all(chair_configured(st.after.mol, i) for i in set_here):
                 why = f"configured by the step ({_CHAIR})"
-            elif turn:
+            elif turn := _electrocyclic_turn(st):
                 why = f"configured by the step (an electrocyclic closure, its termini turning {turn}: Woodward-Hoffmann rules)"
             else:
                 why = "configured by the step (both new bonds on one face of the double bond or diene)"

@@ -313,11 +313,10 @@ def _marked_smiles(plain: Chem.Mol, first: int, second: int) -> str:
             plain.GetAtomWithIdx(atom).SetAtomMapNum(0)
 
 
-def favoured_alternatives(mol: Chem.Mol, nucleophile_kind: str, electrophile_family: str,
-                          max_ring: int = 7) -> list[Closure]:
-    """Favoured closures in `mol` between sites of the given kinds, best first."""
-    return [c for c in find_closures(mol, max_ring) if c.outlook == FAVOURED
-            and c.nucleophile.kind == nucleophile_kind and family(c.electrophile.kind) == electrophile_family]
+def between_kinds(c: Closure, nucleophile_kind: str, electrophile_family: str) -> bool:
+    """Whether closure `c` joins sites of the given kinds (a nucleophile's kind, an electrophile's
+    family)."""
+    return c.nucleophile.kind == nucleophile_kind and family(c.electrophile.kind) == electrophile_family
 
 
 def family(electrophile_kind: str) -> str:
