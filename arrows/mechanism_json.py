@@ -15,7 +15,7 @@ from typing import Any, Optional
 
 from .diagnostics import Diagnostic, MechanismError, cannot_read
 from .build import atom, move
-from .model import Checkpoint, Comment, Location, Mechanism, Move, Species, Step
+from .model import COMMENT_PLACES, Checkpoint, Comment, Location, Mechanism, Move, Species, Step
 
 FORMAT, VERSION = "arrows-mechanism", 1
 SCHEMA_FILE = "mechanism.schema.json"
@@ -180,9 +180,8 @@ def _read_move(text: str, where: tuple[int, int], file: str) -> Move:
                              ) from None
 
 
-# Where a comment may stand against each kind of part (model.COMMENT_PLACES).
-_PLACES_OF = {"": ("above", "below"), "step": ("above", "inline", "below", "end")}
-_PLACES_OF_A_LINE = ("above", "inline")
+# Where a comment may stand against each kind of part _pointed_at names (model.COMMENT_PLACES).
+_PLACES_OF = {"mechanism": ("above", "below"), "step": COMMENT_PLACES, "line": ("above", "inline")}
 
 
 def _read_comments(data: dict, places: _Places) -> tuple[Comment, ...]:
@@ -192,12 +191,12 @@ def _read_comments(data: dict, places: _Places) -> tuple[Comment, ...]:
     for k, comment in enumerate(data.get("comments", ())):
         at, place = comment["at"], comment.get("place", "above")
         target = _pointed_at(data, at)
-        allowed = _PLACES_OF[""] if at == "" else _PLACES_OF["step"] if target == "step" else _PLACES_OF_A_LINE
         loc = places.at(("comments", k))
         if target is None:
             raise MechanismError([Diagnostic("AR100", f"comments[{k}].at: {at!r} points at no part of the mechanism",
                                              loc, hint='point at the mechanism (""), "/title", "/species/NAME", '
                                                        '"/steps/N", "/steps/N/moves/M", ... or "/product"')])
+        allowed = _PLACES_OF[target]
         if place not in allowed:
             raise MechanismError([Diagnostic("AR100", f"comments[{k}].place: a comment on {at or 'the mechanism'!r} "
                                              f"stands {' or '.join(allowed)}, not {place}", loc,
@@ -209,7 +208,10 @@ def _read_comments(data: dict, places: _Places) -> tuple[Comment, ...]:
 
 def _pointed_at(data: dict, at: str) -> Optional[str]:
     """What the JSON pointer `at` (whose form the schema checks) names in the mechanism object:
-    "step", "line" (a part printed on a line of its own) or None when there is no such part."""
+    "mechanism" (""), "step", "line" (a part printed on a line of its own) or None when there is no
+    such part."""
+    if at == "":
+        return "mechanism"
     node = data
     parts = at.split("/")[1:]
     for part in parts:
