@@ -888,8 +888,10 @@ CODES = _table(
          "configures its termini as the Woodward-Hoffmann rules turn them (under heat 4n electrons "
          "conrotatory, 4n+2 disrotatory; under light the reverse). A concerted elimination "
          "across two configured centres sets the new double bond's geometry: anti-periplanar (E2), or "
-         "syn when the leaving group takes the hydrogen (a Cope elimination). Other new centres (an "
-         "aldol's, an addition to C=O) are counted as free.",
+         "syn when the leaving group takes the hydrogen (a Cope elimination). An open-chain Cope or "
+         "Claisen whose two chairs give one product gets it; where they give two (the racemic "
+         "3,4-dimethylhexa-1,5-diene: (E,E) and (Z,Z)), the end count is of the stereoisomers the chairs "
+         "allow. Other new centres (an aldol's, an addition to C=O) are counted as free.",
          'species aldehyde = "[CH3:1][CH:2]=[O:3]"\n'
          'species cyanide = "[C-:4]#[N:5]"\n'
          'step "cyanide adds"\n'

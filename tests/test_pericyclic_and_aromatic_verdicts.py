@@ -9,6 +9,7 @@ from pathlib import Path
 
 import pytest
 from rdkit import Chem
+from rdkit.Chem.EnumerateStereoisomers import EnumerateStereoisomers, StereoEnumerationOptions
 
 from arrows import check_file, check_text
 from arrows.batch.jsonl import check_line
@@ -372,15 +373,87 @@ def test_the_replay_sets_the_one_product_both_chairs_give(template, start, chair
     assert not any("stereocontrol" in note for note in notes), notes
 
 
-def test_the_replay_leaves_the_racemic_diene_open():
-    """Guard (the decision): the (3R*,4R*) diene's two chairs give two diastereomers, (E,E) with both
-    methyls equatorial (~90%) and (Z,Z) with both axial (Doering-Roth, from memory). One state holds
-    one configuration and (Z,Z) is no wrong product to write, so the replay sets neither; AR602
-    counts the three geometries as before."""
+def _every_stereoisomer(smiles: str) -> set[str]:
+    """RDKit's EnumerateStereoisomers (the independent count) of a constitution, canonical SMILES."""
+    options = StereoEnumerationOptions(unique=True)
+    return {Chem.MolToSmiles(m) for m in EnumerateStereoisomers(Chem.MolFromSmiles(smiles), options=options)}
+
+
+def _end_count(text: str) -> str:
+    notes = [d.message for d in check_text(text, "t.mech")[1]
+             if d.code == "AR602" and not d.message.startswith(("new ", "no longer"))]   # not a step's note
+    assert len(notes) == 1, notes
+    return notes[0]
+
+
+def test_the_replay_leaves_the_racemic_diene_open_and_counts_what_its_chairs_allow():
+    """The (3R*,4R*) diene's two chairs give two diastereomers, (E,E) with both methyls equatorial
+    (~90%) and (Z,Z) with both axial (Doering-Roth, from memory). One state holds one configuration
+    and (Z,Z) is no wrong product to write, so the replay sets neither (a guard); but AR602's end
+    count leaves out the (E,Z) no chair gives: 2 of the 3 stereoisomers RDKit enumerates. Before, it
+    said "with no stereocontrol, CC=CCCC=CC (...): 3 stereoisomers can form"."""
     trace, diags = check_text(_COPE.format(diene=_RACEMIC, product=_ZZ), "t.mech")
     assert Chem.MolToSmiles(Chem.MolFromSmiles(state_smiles(trace.steps[0].after))) == "CC=CCCC=CC"
     assert [d.code for d in diags if d.severity != "note"] == []
-    assert any("3 stereoisomers can form" in d.message for d in diags if d.code == "AR602")
+    every = _every_stereoisomer("CC=CCCC=CC")
+    chair = {Chem.MolToSmiles(Chem.MolFromSmiles(s.replace("\\\\", "\\"))) for s in (_EE, _ZZ)}
+    assert len(every) == 3 and chair < every
+    note = _end_count(_COPE.format(diene=_RACEMIC, product=_ZZ))
+    assert note == ("a chair [3,3] shift (step 1) allows 2 of the 3 stereoisomers of CC=CCCC=CC (stereogenic "
+                    f"double bonds C2=C3, C4=C5): {' and '.join(sorted(chair))}"), note
+
+
+# The Claisen of an (E)- or (Z)-propenyl ether of (R)-but-3-en-2-ol: the chair with the methyl on the
+# configured carbon equatorial gives the E alkene, its ring flip (methyl axial) the Z alkene with the
+# new centre inverted (chirality transfer through the chair: Clayden, pericyclic rearrangements; from
+# memory). Of the 4 stereoisomers of 2-methylhex-4-enal, 2 can form.
+_CHIRAL_ETHER_E = "[CH3:7]/[CH:1]=[CH:2]/[O:3][C@@H:4]([CH3:9])[CH:5]=[CH2:6]"
+_CHIRAL_ETHER_Z = "[CH3:7]/[CH:1]=[CH:2]\\\\[O:3][C@@H:4]([CH3:9])[CH:5]=[CH2:6]"
+_CLAISEN_ONLY = _CLAISEN.replace('product "{product}"\n', "")
+
+
+def _geometry_and_centre(smiles: str) -> tuple[str, str]:
+    mol = Chem.MolFromSmiles(smiles)
+    (bond,) = [b for b in mol.GetBonds() if b.GetStereo() != Chem.BondStereo.STEREONONE]
+    Chem.AssignStereochemistry(mol, cleanIt=True, force=True)
+    (centre,) = Chem.FindMolChiralCenters(mol)
+    return {Chem.BondStereo.STEREOE: "E", Chem.BondStereo.STEREOZ: "Z",
+            Chem.BondStereo.STEREOTRANS: "E", Chem.BondStereo.STEREOCIS: "Z"}[bond.GetStereo()], centre[1]
+
+
+@pytest.mark.parametrize("ether", [_CHIRAL_ETHER_E, _CHIRAL_ETHER_Z], ids=["(E)-propenyl", "(Z)-propenyl"])
+def test_a_claisen_end_count_is_what_its_chairs_allow(ether):
+    """The chirality-transferring Claisen above: the end count names 2 of the 4 stereoisomers
+    (RDKit's EnumerateStereoisomers), one E and one Z, their new centres opposite (R against S).
+    Before, it said "with no stereocontrol, CC=CCC(C)C=O (...): 4 stereoisomers can form"."""
+    note = _end_count(_CLAISEN_ONLY.format(diene=ether))
+    every = _every_stereoisomer("CC=CCC(C)C=O")
+    prefix = f"a chair [3,3] shift (step 1) allows 2 of the {len(every)} stereoisomers of CC=CCC(C)C=O ("
+    assert len(every) == 4 and note.startswith(prefix), note
+    named = note.split("): ")[1].split(" and ")
+    assert set(named) < every, named
+    assert sorted(_geometry_and_centre(s) for s in named) in ([("E", "R"), ("Z", "S")], [("E", "S"), ("Z", "R")])
+
+
+@pytest.mark.parametrize("text, count", [
+    # No new centre: the chairs give the E and the Z alkene, as free.
+    (_CLAISEN_ONLY.format(diene="[CH2:1]=[CH:2][O:3][C@@H:4]([CH3:9])[CH:5]=[CH2:6]"),
+     "CC=CCCC=O (stereogenic double bond C4=C5): 2 stereoisomers can form"),
+    # The propenyl geometry unwritten: each chair tried both ways gives all four.
+    (_CLAISEN_ONLY.format(diene="[CH3:7][CH:1]=[CH:2][O:3][C@@H:4]([CH3:9])[CH:5]=[CH2:6]"),
+     "CC=CCC(C)C=O (stereocentre C1 and stereogenic double bond C4=C5): 4 stereoisomers can form"),
+    # No configuration written: no chair is judged.
+    (_COPE.format(diene="[CH2:1]=[CH:2][CH:3]([CH3:7])[CH:4]([CH3:8])[CH:5]=[CH2:6]", product=_EE),
+     "CC=CCCC=CC (stereogenic double bonds C2=C3, C4=C5): 3 stereoisomers can form"),
+    # A later step touches one new double bond: the other is E in one chair, Z in the other.
+    (_COPE.format(diene=_RACEMIC, product="").replace('product ""\n',
+                                                      'step "protonation"\n    uses acid = "[H+:20]"\n'
+                                                      '    C2=C3 -> C3-H20\nend\n'),
+     "CC=CCC[CH+]CC (stereogenic double bond C4=C5): 2 stereoisomers can form"),
+], ids=["vinyl ether", "propenyl geometry unwritten", "unconfigured diene", "a later step"])
+def test_an_end_count_the_chairs_do_not_narrow_stays_free(text, count):
+    """Guard: where the chairs allow every stereoisomer, or none is judged, the free count stands."""
+    assert _end_count(text) == f"with no stereocontrol, {count}"
 
 
 def test_a_checkpoint_the_replayed_chair_rules_out_is_the_chairs_to_name():

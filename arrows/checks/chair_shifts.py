@@ -73,12 +73,31 @@ def _chair_products(variants: list[ElectronState], smiles: str, racemic: bool) -
     return named
 
 
-class _Shift:
+class ChairShift:
     """A judged [3,3] shift: its step, its array and the chair outcomes still standing."""
 
     def __init__(self, step: int, chain: list[int], outcomes: list[Outcome]) -> None:
         self.step, self.chain, self.outcomes = step, chain, outcomes
         self.kept = set(chain)   # the atoms no later step has touched
+
+
+class StandingChairShifts:
+    """The [3,3] shifts of a replay, from a configured state, whose chair outcomes still stand at
+    some atom of their array (no later step touched it). Fed each derived step in order; AR605
+    judges written configurations against them, AR602's end count reads them."""
+
+    def __init__(self) -> None:
+        self.shifts: list[ChairShift] = []
+
+    def step(self, st: StepTrace) -> None:
+        for shift in self.shifts:
+            shift.kept -= set(st.change.touched_atoms)
+        self.shifts = [s for s in self.shifts if s.kept]
+        if st.before.configured:
+            chain = _shift_array(st)
+            outcomes = chair_outcomes(st.before.mol, st.after.mol, chain) if chain else None
+            if outcomes:
+                self.shifts.append(ChairShift(st.index, chain, outcomes))
 
 
 class ChairThreeThreeShift(Check):
@@ -87,23 +106,16 @@ class ChairThreeThreeShift(Check):
 
     def __init__(self) -> None:
         self.watch = ChiralityWatch()
-        self.shifts: list[_Shift] = []
+        self.standing = StandingChairShifts()
 
     def step(self, st: StepTrace, context) -> Iterator[Diagnostic]:
         if st.index == 0:
-            self.watch, self.shifts = ChiralityWatch(), []
+            self.watch, self.standing = ChiralityWatch(), StandingChairShifts()
         self.watch.before(st)
         if st.after is None:
             return
         self.watch.after(st)
-        for shift in self.shifts:
-            shift.kept -= set(st.change.touched_atoms)
-        self.shifts = [s for s in self.shifts if s.kept]
-        if st.before.configured:
-            chain = _shift_array(st)
-            outcomes = chair_outcomes(st.before.mol, st.after.mol, chain) if chain else None
-            if outcomes:
-                self.shifts.append(_Shift(st.index, chain, outcomes))
+        self.standing.step(st)
         for checkpoint in st.step.expects:
             yield from self._judged(st.after, checkpoint, "checkpoint", st.index)
 
@@ -114,13 +126,13 @@ class ChairThreeThreeShift(Check):
 
     def _judged(self, state: ElectronState, written: Checkpoint, what: str, step: Optional[int]
                 ) -> Iterator[Diagnostic]:
-        if not self.shifts or not any(mark in written.smiles for mark in ("@", "/", "\\")):
+        if not self.standing.shifts or not any(mark in written.smiles for mark in ("@", "/", "\\")):
             return
         racemic = self.watch.racemic
         state = without_chair(state)   # each chair outcome is tried on the state, the replay's one too
         if mismatches(state, written, what, step, racemic):
             return   # AR603's to say
-        for shift in self.shifts:
+        for shift in self.standing.shifts:
             variants = [v for v in (configured_as(state, o, shift.kept) for o in shift.outcomes) if v is not None]
             if not variants or any(not mismatches(v, written, what, step, racemic) for v in variants):
                 continue

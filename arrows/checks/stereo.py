@@ -1,20 +1,24 @@
 """Stereocentres and stereogenic double bonds made or lost in each step (those configured, or
 lasting to the product or a checkpoint), and how many stereoisomers of the final product can form
-when the mechanism controls none of them (AR602)."""
+when the mechanism controls none of them, or the chairs of its [3,3] shifts allow (AR602)."""
 from __future__ import annotations
 
-from typing import Iterator, Optional
+from itertools import product
+from math import prod
+from typing import Iterator, Optional, Sequence
 
 from rdkit import Chem
 
-from ..configuration import chair_configured, electrocyclic_turn, names_light, open_face_groups, step_changes
+from ..configuration import (chair_configured, electrocyclic_turn, names_light, open_face_groups, set_chair_outcome,
+                             step_changes)
 from ..diagnostics import Diagnostic
-from ..judgement.stereo import CENTRE, StereoElement, describe, state_stereo, stereoisomer_count
+from ..judgement.stereo import CENTRE, StereoElement, describe, state_stereo, stereoisomer_count, stereoisomers
 from ..rdkit_io import fragment, readable_smiles
 from ..electrons import ElectronState
 from ..judgement.perception import RecentViews
 from ..trace import StepTrace, Trace
 from . import Check, Ending
+from .chair_shifts import ChairShift, StandingChairShifts
 from ..model import frozen
 
 
@@ -23,6 +27,8 @@ class ProductStereo:
     smiles: str
     elements: tuple[StereoElement, ...]
     stereoisomers: Optional[int]     # None: RDKit could not enumerate them
+    # The stereoisomers the chairs of standing [3,3] shifts allow, where fewer than `stereoisomers`
+    allowed: Optional[frozenset[str]] = None
 
 
 def step_stereo(st: StepTrace, views: Optional[RecentViews] = None) -> tuple[list[StereoElement], list[StereoElement]]:
@@ -50,10 +56,13 @@ def final_stereo(trace: Trace) -> list[ProductStereo]:
 
 
 def product_stereo(final: Optional[ElectronState], touched: set[int], views: Optional[RecentViews] = None,
-                   several_only: bool = False, arisen: frozenset[StereoElement] = frozenset()) -> list[ProductStereo]:
+                   several_only: bool = False, arisen: frozenset[StereoElement] = frozenset(),
+                   chair_variants: Sequence[Chem.Mol] = ()) -> list[ProductStereo]:
     """final_stereo for a final state and the atoms the mechanism's moves touched; `several_only`
     keeps only the fragments with more than one stereoisomer (no SMILES is written for the others),
-    naming the elements a step touched or made (`arisen`: not in the species as written)."""
+    naming the elements a step touched or made (`arisen`: not in the species as written).
+    `chair_variants`: the final Mol with each combination of the outcomes of the [3,3] shifts whose
+    chairs still stand (chair_variants below); a piece they allow fewer stereoisomers of says so."""
     if final is None:
         return []
     elements = state_stereo(final, views or RecentViews())
@@ -73,21 +82,63 @@ def product_stereo(final: Optional[ElectronState], touched: set[int], views: Opt
             mine = tuple(e for e in mine if e in arisen or touched.intersection(e.atoms))
         if not mine:
             continue
-        position = {old: new for new, old in enumerate(sorted(indices))}
-        # A touched atom is free to take either configuration unless the replay carried one
-        # through the step (a backside substitution inverts the written one, a 1,2-shift keeps it).
-        # So does a double bond whose geometry a concerted elimination set. A state with no
-        # configuration (most) has none to clear.
-        uncontrolled = [position[i] for i in touched if i in position and not _configured_at(final.mol, i)] \
-            if final.configured else []
-        piece = fragment(final.mol, indices)
-        turning = [[position[i] for i in group] for group in open_face_groups(final.mol)
-                   if all(i in position for i in group)]
+        piece, uncontrolled, turning = _open_piece(final.mol, indices, touched, final.configured)
         count = stereoisomer_count(piece, uncontrolled, turning)
-        if several_only and (count or 0) <= 1:
+        allowed = _chair_allowed(chair_variants, indices, touched, count)
+        if several_only and ((count or 0) if allowed is None else len(allowed)) <= 1:
             continue
-        out.append(ProductStereo(readable_smiles(piece), mine, count))
+        out.append(ProductStereo(readable_smiles(piece), mine, count, allowed))
     return out
+
+
+def _open_piece(mol: Chem.Mol, indices: Sequence[int], touched: set[int], configured: bool
+                ) -> tuple[Chem.Mol, list[int], list[list[int]]]:
+    """The fragment of `mol` on `indices`, its atoms free to take either configuration and its
+    groups of centres that may turn over as one (stereoisomer_count's arguments)."""
+    position = {old: new for new, old in enumerate(sorted(indices))}
+    # A touched atom is free to take either configuration unless the replay carried one
+    # through the step (a backside substitution inverts the written one, a 1,2-shift keeps it).
+    # So does a double bond whose geometry a concerted elimination set. A state with no
+    # configuration (most) has none to clear.
+    uncontrolled = [position[i] for i in touched if i in position and not _configured_at(mol, i)] \
+        if configured else []
+    turning = [[position[i] for i in group] for group in open_face_groups(mol)
+               if all(i in position for i in group)]
+    return fragment(mol, indices), uncontrolled, turning
+
+
+def _chair_allowed(variants: Sequence[Chem.Mol], indices: Sequence[int], touched: set[int],
+                   count: Optional[int]) -> Optional[frozenset[str]]:
+    """The stereoisomers of the piece on `indices` that some chair variant of the final state
+    allows (each variant's own open elements left free), where fewer than `count`; else None."""
+    if not variants or count is None:
+        return None
+    allowed: set[str] = set()
+    for variant in variants:
+        found = stereoisomers(*_open_piece(variant, indices, touched, True))
+        if found is None:
+            return None   # a variant RDKit cannot enumerate: the free count stands
+        allowed |= found
+    return frozenset(allowed) if len(allowed) < count else None
+
+
+_MOST_VARIANTS = 64   # combinations of chair outcomes tried; past it the free count stands
+
+
+def chair_variants(final: Chem.Mol, shifts: Sequence[ChairShift]) -> list[Chem.Mol]:
+    """`final` with each combination of the shifts' chair outcomes set where its atoms are kept
+    (no later step touched them) and `final` leaves them unset; none when no shift has a choice
+    (the replay set the one product both chairs give) or there are too many combinations."""
+    if not any(len(shift.outcomes) > 1 for shift in shifts) \
+            or prod(len(shift.outcomes) for shift in shifts) > _MOST_VARIANTS:
+        return []
+    variants = []
+    for picked in product(*(shift.outcomes for shift in shifts)):
+        work = Chem.RWMol(final)
+        for shift, outcome in zip(shifts, picked):
+            set_chair_outcome(work, outcome, shift.kept)
+        variants.append(work.GetMol())
+    return variants
 
 
 def _configured_at(mol: Chem.Mol, i: int) -> bool:
@@ -175,9 +226,12 @@ class StereoChanges(Check):
         # New unconfigured elements not yet known to last: one lost again before the end or a
         # checkpoint (a transient enolate's E/Z, a tetrahedral intermediate's centre) is not reported.
         self.pending: dict[StereoElement, _StepNote] = {}
+        self.chairs = StandingChairShifts()   # a chair allows fewer product stereoisomers than the free count
 
     def step(self, st: StepTrace, context) -> Iterator[Diagnostic]:
         self.touched.update(st.change.touched_atoms)
+        if st.after is not None:
+            self.chairs.step(st)
         self.last_loc = st.step.loc
         made, lost = step_stereo(st, context.views)
         if self.written is None:
@@ -243,12 +297,30 @@ class StereoChanges(Check):
                 yield found
         if not end.steps_replayed:
             return   # no step: the mechanism makes nothing to count
-        many = product_stereo(end.final, self.touched, context.views, several_only=True, arisen=frozenset(self.arisen))
+        variants = chair_variants(end.final.mol, self.chairs.shifts) if end.final is not None else []
+        many = product_stereo(end.final, self.touched, context.views, several_only=True, arisen=frozenset(self.arisen),
+                              chair_variants=variants)
         if not many:
             return
         mechanism = end.mechanism
         loc = mechanism.product.loc if mechanism.product else self.last_loc   # a final state: every step was seen
         label = end.final.label
-        text = "; ".join(f"{p.smiles} ({_said(list(p.elements), label)}): {p.stereoisomers} stereoisomers can form"
-                         for p in many)
-        yield Diagnostic("AR602", f"with no stereocontrol, {text}", loc, step=end.steps_replayed - 1)
+        free = [f"{p.smiles} ({_said(list(p.elements), label)}): {p.stereoisomers} stereoisomers can form"
+                for p in many if p.allowed is None]
+        parts = [f"with no stereocontrol, {'; '.join(free)}"] if free else []
+        steps = [shift.step + 1 for shift in self.chairs.shifts if len(shift.outcomes) > 1]
+        parts += [_chair_count(p, steps, label) for p in many if p.allowed is not None]
+        yield Diagnostic("AR602", "; ".join(parts), loc, step=end.steps_replayed - 1)
+
+
+_NAMED_MOST = 4   # the stereoisomers a chair allows are written out up to this many
+
+
+def _chair_count(p: ProductStereo, steps: list[int], label) -> str:
+    """The end count of a product whose stereoisomers the chairs of [3,3] shifts narrow down (the
+    racemic 3,4-dimethylhexa-1,5-diene's two chairs give (E,E)- and (Z,Z)-octa-2,6-diene, not (E,Z))."""
+    shifts = (f"a chair [3,3] shift (step {steps[0]}) allows" if len(steps) == 1 else
+              f"chair [3,3] shifts (steps {', '.join(map(str, steps))}) allow")
+    named = f": {' and '.join(sorted(p.allowed))}" if len(p.allowed) <= _NAMED_MOST else ""
+    return (f"{shifts} {len(p.allowed)} of the {p.stereoisomers} stereoisomers of {p.smiles} "
+            f"({_said(list(p.elements), label)}){named}")

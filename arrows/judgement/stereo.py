@@ -245,10 +245,26 @@ MAX_ENUMERATED = 12     # stereo elements; beyond that the count is the upper bo
 
 def stereoisomer_count(mol: Chem.Mol, uncontrolled: Iterable[int] = (),
                        turning: Sequence[Sequence[int]] = ()) -> Optional[int]:
-    """How many stereoisomers of `mol` (one fragment) are possible when the configuration of
-    every unspecified element, and of every element at an atom in `uncontrolled`, is left open,
-    and each group of centres in `turning` (configured relative to each other only: a
-    Diels-Alder diene's ends, endo or exo open) may be inverted as one.
+    """How many stereoisomers of `mol` (one fragment) are possible: len(stereoisomers(...)), or past
+    MAX_ENUMERATED open elements the upper bound 2**n; None when RDKit cannot perceive `mol`."""
+    found, too_many = _enumerated(mol, uncontrolled, turning)
+    return len(found) if found is not None else None if too_many is None else 2 ** too_many
+
+
+def stereoisomers(mol: Chem.Mol, uncontrolled: Iterable[int] = (),
+                  turning: Sequence[Sequence[int]] = ()) -> Optional[frozenset[str]]:
+    """The canonical SMILES (no map numbers) of each stereoisomer stereoisomer_count counts; None
+    when it gives an upper bound or no count."""
+    return _enumerated(mol, uncontrolled, turning)[0]
+
+
+def _enumerated(mol: Chem.Mol, uncontrolled: Iterable[int],
+                turning: Sequence[Sequence[int]]) -> tuple[Optional[frozenset[str]], Optional[int]]:
+    """(the stereoisomers of `mol`, None); (None, the number of open elements) past MAX_ENUMERATED;
+    (None, None) when RDKit cannot perceive or assign them. The stereoisomers of `mol` (one
+    fragment) possible when the configuration of every unspecified element, and of every element
+    at an atom in `uncontrolled`, is left open, and each group of centres in `turning` (configured
+    relative to each other only: a Diels-Alder diene's ends, endo or exo open) may be inverted as one.
 
     Every assignment of the open elements is cleaned up by RDKit's stereo perception (which drops
     the descriptors an assignment makes meaningless: meso and pseudo-asymmetric cases) and written
@@ -258,7 +274,7 @@ def stereoisomer_count(mol: Chem.Mol, uncontrolled: Iterable[int] = (),
     """
     plain, original = _plain(mol, uncontrolled)
     if plain is None:
-        return None     # RDKit cannot perceive this structure: the count is unknown
+        return None, None     # RDKit cannot perceive this structure: the count is unknown
     position = {old: new for new, old in enumerate(original)}
     groups = [[position[i] for i in group if i in position] for group in turning]
     for i in range(plain.GetNumAtoms()):   # map numbers would keep mirror-image duplicates apart
@@ -270,7 +286,7 @@ def stereoisomer_count(mol: Chem.Mol, uncontrolled: Iterable[int] = (),
                            and not _three_alike(plain, lambda: ranks, info.centeredOn))
                           or (info.type == Chem.StereoType.Bond_Double and _stereogenic_bond(plain, ranks, info)))]
     if len(open_elements) > MAX_ENUMERATED:
-        return 2 ** len(open_elements)
+        return None, len(open_elements)
     written = set()
     for bits in product((False, True), repeat=len(open_elements) + len(groups)):
         work = Chem.RWMol(plain)
@@ -287,10 +303,10 @@ def stereoisomer_count(mol: Chem.Mol, uncontrolled: Iterable[int] = (),
             Chem.AssignStereochemistry(work, cleanIt=True, force=True, flagPossibleStereoCenters=True)
             written.add(Chem.MolToSmiles(work))
         except Exception:   # RDKit refuses an assignment of an odd intermediate: unknown, not a guess
-            return None
+            return None, None
     if any(info.type == Chem.StereoType.Atom_Tetrahedral for info in open_elements) and _bridged(plain):
-        return sum(1 for smiles in written if _embeds(smiles))
-    return len(written)
+        written = {smiles for smiles in written if _embeds(smiles)}
+    return frozenset(written), None
 
 
 def _bridged(mol: Chem.Mol) -> bool:
