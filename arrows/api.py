@@ -100,13 +100,13 @@ def derived_mols(mechanism: Mechanism) -> list:
 
 
 def figure_style(style=None, *, color: bool = False, numbers: bool = False, cip: bool = False,
-                 step_labels: bool = False, ph_labels: bool = False, title: bool = True, font: Optional[str] = None,
+                 step_labels: bool = False, ph_labels: bool = True, title: bool = True, font: Optional[str] = None,
                  font_size: Optional[float] = None, line_width: Optional[float] = None):
     """A style preset (one-column, two-column, slide; or an arrows.draw.Style) with the options of
     `arrows draw` applied, which builds its style here too: colour bonds formed and broken, map
-    numbers, CIP labels, step labels under the reaction arrows, "Ph" for each phenyl on phosphorus
-    that no step touches, the title left out, the font family, the label font size and
-    the line width (points)."""
+    numbers, CIP labels, step labels under the reaction arrows, every atom drawn (ph_labels=False;
+    by default each phenyl on phosphorus that no step touches is "Ph"), the title left out, the
+    font family, the label font size and the line width (points)."""
     from .draw import DEFAULT_STYLE, STYLES, Style
     if isinstance(style, Style):
         base = style
@@ -119,7 +119,7 @@ def figure_style(style=None, *, color: bool = False, numbers: bool = False, cip:
     if line_width is not None:
         _within("line_width", line_width, LINE_WIDTH_RANGE)
     return base.with_options(color=color or None, numbers=numbers or None, cip=cip or None,
-                             step_labels=step_labels or None, ph_labels=ph_labels or None,
+                             step_labels=step_labels or None, ph_labels=None if ph_labels else False,
                              show_title=None if title else False,
                              font_family=font, font_size=font_size, line_width=line_width)
 

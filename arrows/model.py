@@ -344,12 +344,12 @@ class Mechanism:
 
     def draw(self, fmt: str = "svg", style: Optional[str] = None, force: bool = False, *, dpi: int = 300,
              color: bool = False, numbers: bool = False, cip: bool = False, step_labels: bool = False,
-             ph_labels: bool = False, title: bool = True, font: Optional[str] = None,
+             ph_labels: bool = True, title: bool = True, font: Optional[str] = None,
              font_size: Optional[float] = None, line_width: Optional[float] = None) -> bytes:
         """The figure as bytes: fmt is "svg", "pdf" or "png"; style names a preset (one-column,
         two-column, slide). The keywords are the options of `arrows draw` (--dpi, --color, --numbers,
-        --cip, --step-labels, --ph-labels, --no-title as title=False, --font, --font-size,
-        --line-width). With errors it raises arrows.draw.DrawError unless force=True."""
+        --cip, --step-labels, --every-atom as ph_labels=False, --no-title as title=False, --font,
+        --font-size, --line-width). With errors it raises arrows.draw.DrawError unless force=True."""
         from .api import draw
         return draw(self, fmt, style, force, dpi=dpi, color=color, numbers=numbers, cip=cip,
                     step_labels=step_labels, ph_labels=ph_labels, title=title, font=font, font_size=font_size,

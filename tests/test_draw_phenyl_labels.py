@@ -1,10 +1,10 @@
 """Spectator phenyls on phosphorus are written "Ph": checked on the Scene.
 
 The rule (draw/phenyls.py; common practice in mechanism schemes: Ph3P, Ph3P=O, Ph3P+), with
-Style.ph_labels (`arrows draw --ph-labels`): a phenyl ring single-bonded to a phosphorus, none of
-whose atoms any step touches, is one label "Ph" at its ipso carbon, and its other five carbons are
-in no panel. By default (`--every-atom`) the rings are drawn in full; a phenyl that a step touches,
-or one on another atom, is always drawn in full.
+Style.ph_labels (`arrows draw --ph-labels`, the default): a phenyl ring single-bonded to a
+phosphorus, none of whose atoms any step touches, is one label "Ph" at its ipso carbon, and its
+other five carbons are in no panel. With `--every-atom` the rings are drawn in full; a phenyl that a
+step touches, or one on another atom, is always drawn in full.
 """
 from __future__ import annotations
 
@@ -21,6 +21,7 @@ from textbook_mechanisms import TEXTBOOK
 
 _TWO_COLUMN = STYLES["two-column"]
 _PH = replace(_TWO_COLUMN, ph_labels=True)
+_EVERY_ATOM = replace(_TWO_COLUMN, ph_labels=False)
 
 
 def _scene(text: str, name: str, style=_PH):
@@ -68,10 +69,18 @@ def test_staudinger_draws_triphenylphosphine_as_ph():
         assert sum(1 for b in panel.bonds if set(b.atoms) & set(phenyls)) == 3
 
 
-def test_every_atom_is_drawn_by_default():
-    """The same Staudinger scheme in the preset style: all 18 phenyl carbons in every panel, no
-    "Ph". (A guard: drawn so before "Ph" labels.)"""
-    trace, scene = _scene(TEXTBOOK["staudinger"][0], "staudinger", _TWO_COLUMN)
+def test_the_preset_styles_write_ph():
+    """"Ph" is the default: every preset style has ph_labels on, and the two-column preset draws
+    the Staudinger scheme as with ph_labels set. (Before, the presets drew every atom.)"""
+    assert all(style.ph_labels for style in STYLES.values())
+    assert _scene(TEXTBOOK["staudinger"][0], "staudinger", _TWO_COLUMN)[1] == \
+        _scene(TEXTBOOK["staudinger"][0], "staudinger")[1]
+
+
+def test_every_atom_is_drawn_when_asked():
+    """The same Staudinger scheme with ph_labels off (`--every-atom`): all 18 phenyl carbons in
+    every panel, no "Ph". (A guard: drawn so before "Ph" labels.)"""
+    trace, scene = _scene(TEXTBOOK["staudinger"][0], "staudinger", _EVERY_ATOM)
     phenyls = _phenyl_carbons(trace.initial.mol, 15)
     every = set(phenyls).union(*phenyls.values())
     for panel in scene.panels:
@@ -118,8 +127,8 @@ def test_phenyl_a_step_touches_is_drawn_in_full():
 
 
 def test_draw_command_takes_ph_labels(tmp_path):
-    """`arrows draw --ph-labels` writes Ph; `--every-atom`, as the default, draws the rings; --help
-    names the switch."""
+    """`arrows draw --ph-labels`, as the default, writes Ph; `--every-atom` draws the rings; --help
+    names the switch. Mechanism.draw(ph_labels=False) gives the --every-atom figure."""
     source = tmp_path / "staudinger.mech"
     source.write_text(TEXTBOOK["staudinger"][0])
     svgs = []
@@ -129,6 +138,26 @@ def test_draw_command_takes_ph_labels(tmp_path):
                               capture_output=True, text=True)
         assert done.returncode == 0, done.stderr
         svgs.append(out.read_text())
-    assert ">Ph</text>" in svgs[0] and ">Ph</text>" not in svgs[1] and svgs[2] == svgs[1]
+    assert ">Ph</text>" in svgs[0] and ">Ph</text>" not in svgs[1] and svgs[2] == svgs[0]
     shown = subprocess.run([sys.executable, "-m", "arrows", "draw", "--help"], capture_output=True, text=True)
     assert "--ph-labels / --every-atom" in shown.stdout
+    mechanism = arrows.load(source)
+    assert mechanism.draw("svg", ph_labels=False).decode() == svgs[1]
+    assert mechanism.draw("svg").decode() == svgs[0]
+
+
+def test_staudinger_phosphorus_sign_clears_the_arrows_into_the_forming_bond():
+    """Staudinger reaction, the phosphazide closing its four-membered ring to lose N2 (Clayden,
+    Organic Chemistry, the chapter on phosphorus and sulfur, from memory): P+ has its four bonds
+    and the P=N bond about to form, and two arrows head for that gap. Its sign stands clear of
+    both arrows, shafts and heads (IUPAC 2008: a charge sits clear of what surrounds it). With the
+    phenyls written "Ph" the sign was a superscript in that gap, under both arrows (1 and 6
+    points of their shafts, 1 and 2 of their heads); drawn with every atom it was clear."""
+    for style in (_PH, replace(STYLES["slide"], ph_labels=True), _EVERY_ATOM):
+        _, scene = _scene(TEXTBOOK["staudinger"][0], "staudinger", style)
+        panel = scene.panels[1]
+        (sign,) = [m for m in panel.marks if m.kind == "charge" and _label_of(
+            next(a for a in panel.atoms if a.index == m.atom)) == "P"]
+        assert len(panel.arrows) == 4
+        for arrow in panel.arrows:
+            assert not any(sign.box.contains(p) for p in arrow.path_points(80) + list(arrow.head)), arrow.move

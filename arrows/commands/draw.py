@@ -48,7 +48,7 @@ def _format_of(output: Path, fmt: str | None) -> str:
 @click.option("--numbers", is_flag=True, help="Show atom map numbers beside atoms, in green (for drafting).")
 @click.option("--cip", is_flag=True, help="Show CIP labels (R/S) of stereocentres.")
 @click.option("--step-labels", is_flag=True, help="Write each step's label under its reaction arrow.")
-@click.option("--ph-labels/--every-atom", default=False, show_default=True,
+@click.option("--ph-labels/--every-atom", default=True, show_default=True,
               help="Write each phenyl on phosphorus that no step touches as Ph (Ph3P, Ph3P=O), or draw every atom.")
 @click.option("--no-title", is_flag=True, help="Leave the title out of the figure (it stays in the SVG <title>).")
 @click.option("--font", "font_family", callback=plain_text, help="Font family for all text (default DejaVu Sans).")

@@ -183,6 +183,15 @@ def _into_ring(i: int, adjacent, positions: dict[int, complex]) -> Optional[comp
     return inward or None
 
 
+def _with_bonds(adjacent: list[list[int]], pairs) -> list[list[int]]:
+    """`adjacent` (each atom's neighbours) with the bonds `pairs` added."""
+    joined = [list(n) for n in adjacent]
+    for i, j in pairs:
+        joined[i].append(j)
+        joined[j].append(i)
+    return joined
+
+
 def closes_cycle(i: int, j: int, adjacent) -> bool:
     """Whether bond i-j lies on a ring: j is reached from i without crossing that bond. `adjacent`
     gives each atom's neighbours by its index (a list of lists, or a dict)."""
@@ -389,6 +398,9 @@ _CLEARLY_ITS_OWN = 1.4
 # ...and its middle no nearer than this to a bare vertex of another molecule: a spent H3O+'s "+"
 # 0.48 bond lengths from an alkene carbon read as a carbocation there.
 _BY_A_VERTEX = 0.5
+# Bonds and bonds about to form round an atom with this many or more leave no gap wide enough for a
+# charge sign and the arrows into the forming bonds together (five: 72 degrees apiece at most).
+_HEMMED_IN = 5
 
 
 # A charge beside a label goes in its preferred quarter where a direction there keeps this far
@@ -533,7 +545,14 @@ class StructureDrawer:
             # (most atoms carry neither a charge nor electrons of their own: no call for them)
             if nonbonding[i] or state.formal_charge(i):
                 inward = _into_ring(i, adjacent, positions) if state.formal_charge(i) else None
-                self._charge_and_radical(state, i, out, ahead[i], inward)
+                # Round an atom with five partners or more (its bonds and those about to form: a
+                # phosphorane's P+) no side is left where the arrow planner could move a sign that
+                # stands in their way: the sign keeps out of the gaps ahead, and of the ring their
+                # bonds close, from the start.
+                hemmed = bool(ahead[i]) and len(out.bond_directions[i]) + len(ahead[i]) >= _HEMMED_IN
+                closing = _into_ring(i, _with_bonds(adjacent, forming), positions) \
+                    if hemmed and state.formal_charge(i) and inward is None else None
+                self._charge_and_radical(state, i, out, ahead[i], inward, closing, hemmed)
         if self.style.numbers:
             for i in visible:
                 number = facts[i][1]
@@ -903,10 +922,13 @@ class StructureDrawer:
 
     # marks beside atoms
     def _charge_and_radical(self, state: ElectronState, i: int, out: PanelStructure, ahead: list[complex] = (),
-                            inward: Optional[complex] = None) -> None:
+                            inward: Optional[complex] = None, closing: Optional[complex] = None,
+                            hemmed: bool = False) -> None:
         """`ahead`: directions to atoms a bond is about to form with, where an arrow's head goes;
-        a charge sign beside a skeletal vertex keeps out of them. `inward`: the direction into the
-        atom's ring, where a sign would read as the ring's."""
+        a charge sign set round the atom keeps out of them, and one written as a superscript too
+        when the atom is `hemmed` in. `inward`: the direction into the atom's ring, where a sign
+        would read as the ring's; `closing`: into the ring the bonds ahead close, where the arrows
+        that close it run."""
         charge = state.formal_charge(i)   # V - N - B, as the bookkeeping sets RDKit's
         if charge:
             sign = "+" if charge > 0 else MINUS
@@ -920,7 +942,8 @@ class StructureDrawer:
             own_molecule = next(f for f in Chem.GetMolFrags(state.mol, asMols=False, sanitizeFrags=False) if i in f)
             vertices = [out.positions[j] for j, a in out.atoms.items() if a.box is None and j not in own_molecule
                         and abs(out.positions[j] - centre) < 2 * bl]
-            mark = self._superscript(i, text, out, [out.atoms[j].box for j in nearby], inward, vertices)
+            mark = self._superscript(i, text, out, [out.atoms[j].box for j in nearby], inward, vertices,
+                                     ahead if hemmed else ())
             if mark is None:
                 # Round the atom: clear of its bonds, the gaps ahead, the ring it stands in and the
                 # labels nearest.
@@ -932,9 +955,10 @@ class StructureDrawer:
                 flanks = [unit_or_zero(out.positions[j] - centre) * cmath.rect(1, turn) for j in nearby
                           if charge < 0 and state.elements[j] == 1 and state.mol.GetBondBetweenAtoms(i, j) is not None
                           for turn in (-math.pi / 4, math.pi / 4)]
-                avoided = list(ahead) + [d for d in labels if d] + ([inward] if inward else []) + flanks
+                shunned = inward or closing
+                avoided = list(ahead) + [d for d in labels if d] + ([shunned] if shunned else []) + flanks
                 out.occupied[i] += avoided
-                mark = self._side_text("charge", i, text, out, preferred=cmath.rect(1, -math.pi / 4), shunned=inward)
+                mark = self._side_text("charge", i, text, out, preferred=cmath.rect(1, -math.pi / 4), shunned=shunned)
                 for d in avoided:
                     out.occupied[i].remove(d)
             out.marks.append(mark)
@@ -943,11 +967,13 @@ class StructureDrawer:
             out.marks.append(self.radical_dot(i, out, preferred=cmath.rect(1, -math.pi / 2)))
 
     def _superscript(self, i: int, text: str, out: PanelStructure, near: list[Box],
-                     inward: Optional[complex] = None, vertices: Sequence[complex] = ()) -> Optional[Mark]:
+                     inward: Optional[complex] = None, vertices: Sequence[complex] = (),
+                     ahead: Sequence[complex] = ()) -> Optional[Mark]:
         """A charge written as a superscript after the label (O-, NH3+), or before it when a
-        bond leaves from the upper right; None when neither place is free of bonds and of the
-        `near` labels, lies toward the inside of the atom's ring (`inward`) or stands by one of
-        the `vertices` (bare vertices of other molecules)."""
+        bond leaves from the upper right; None when neither place is free of bonds (and of the lines
+        `ahead` to atoms it is about to bond) and of the `near` labels, lies toward the inside of
+        the atom's ring (`inward`) or stands by one of the `vertices` (bare vertices of other
+        molecules)."""
         drawing = out.atoms[i]
         if drawing.box is None:
             return None
@@ -974,8 +1000,12 @@ class StructureDrawer:
             run = TextRun(text, x, baseline, size)
             tb = self.text_box(run)
             grown = Box(tb.x0 - 0.1 * size, tb.y0 - 0.1 * size, tb.x1 + 0.1 * size, tb.y1 + 0.1 * size)
+            # (The arrows into a bond about to form end on its line: a sign that line runs through
+            # lies under their heads, one beside it need not.)
             if any(segment_hits_box(centre + d * out.label_reach(i, d), centre + d * reach, grown)
                    for d in out.bond_directions[i]) or any(grown.overlaps(b, 0.2 * size) for b in near) \
+                    or any(segment_hits_box(centre + d * out.label_reach(i, d), centre + d * reach, tb)
+                           for d in ahead if d) \
                     or any(tb.overlaps(b) for b in own) or level_and_close(tb, near, size) \
                     or self._by_a_foreign_vertex(tb, vertices):
                 continue

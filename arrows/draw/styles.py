@@ -49,7 +49,7 @@ class Style:
     cip: bool = False                 # CIP labels (R/S, E/Z)
     show_title: bool = True
     step_labels: bool = False         # the step's own label under its reaction arrow
-    ph_labels: bool = False           # spectator phenyls on phosphorus written "Ph" (draw/phenyls.py)
+    ph_labels: bool = True            # spectator phenyls on phosphorus written "Ph" (draw/phenyls.py)
     # The user chose a font size, bond length or line width (with_options, as `arrows draw
     # --font-size` and `--line-width` do): the figure keeps those sizes, a slide's scheme is not
     # drawn larger to fill its page (scheme.build_scene).
