@@ -490,6 +490,44 @@ def test_an_sn2_nucleophile_comes_in_opposite_the_leaving_group(source, panel_in
     assert angle >= 150, angle
 
 
+@pytest.mark.parametrize("source, panel_index", [("darzens", 2), ("favorskii", 1), ("payne rearrangement", 0),
+                                                 ("michael-initiated ring closure", 1), ("aziridine closure", 0),
+                                                 ("intramolecular williamson", 0)])
+def test_a_ring_closing_sn2_draws_its_nucleophile_anti_to_the_leaving_group(source, panel_index):
+    """An intramolecular SN2 goes with inversion like any other: the nucleophile attacks from the
+    side away from the leaving group (Clayden, Organic Chemistry, 2nd ed., substitution and
+    3-exo-tet closures, from memory; Darzens: March's Advanced Organic Chemistry, from memory).
+    Measured as the nucleophile and the leaving group on opposite sides of the line through the
+    attacked carbon and its neighbour on the way to the nucleophile. The Darzens alkoxide closing
+    the epoxide stood on the chloride's side of that line (79 degrees apart at the carbon), which
+    reads as a front-side displacement; the other closures guard what already held."""
+    from textbook_mechanisms import TEXTBOOK
+    trace, diags = arrows.check_text(TEXTBOOK[source][0], f"{source}.mech")
+    panel = build_scene(trace, STYLES["two-column"], diags).panels[panel_index]
+    where = {a.index: complex(*a.position) for a in panel.atoms}
+    leaving, = [a for a in panel.arrows if a.source_kind == "bond" and len(a.sink_atoms) == 1
+                and a.sink_atoms[0] in a.source_atoms]
+    group = leaving.sink_atoms[0]
+    centre, = [i for i in leaving.source_atoms if i != group]
+    attack, = [a for a in panel.arrows if len(a.sink_atoms) == 2 and centre in a.sink_atoms and a is not leaving]
+    nucleophile, = [i for i in attack.sink_atoms if i != centre]
+    neighbours: dict[int, set[int]] = {}
+    for bond in panel.bonds:
+        i, j = bond.atoms
+        neighbours.setdefault(i, set()).add(j)
+        neighbours.setdefault(j, set()).add(i)
+    came_from, queue = {nucleophile: nucleophile}, [nucleophile]
+    while queue:   # the way from the nucleophile to the centre through the drawn bonds
+        atom = queue.pop(0)
+        for n in neighbours.get(atom, ()):
+            if n not in came_from and n != group:
+                came_from[n] = atom
+                queue.append(n)
+    line = where[came_from[centre]] - where[centre]
+    sides = [((where[atom] - where[centre]) / line).imag for atom in (nucleophile, group)]
+    assert sides[0] * sides[1] < 0, sides
+
+
 def test_an_ionising_leaving_group_gets_a_readable_half_loop():
     """E1 of tert-butanol (textbook set; common practice): the protonated alcohol's C-O bond
     stands between two methyls, 60 degrees from each (the cation the step makes keeps them

@@ -2510,7 +2510,8 @@ class _LayoutBuilder:
         bonds; the leaving group on the right of two equal choices (the scheme reads left to
         right). Straight away from the `entering` atom where that already stands in panel k
         (the phthalimide nitrogen, fixed, that a benzyl bromide waits beside) and the line
-        has the room. None when no direction does."""
+        has the room; where it has not (an alkoxide a ring closure holds beside the carbon), a
+        direction turned away from that atom. None when no direction does."""
         here = self.positions[k]
         others = [unit(here[n] - here[centre]) for n in self.neighbours[centre]
                   if n not in skip and n in here and n in self.exists[k]]
@@ -2528,6 +2529,12 @@ class _LayoutBuilder:
         # The leaving group, drawn a bond length out, takes the roomier side of the line; the
         # nucleophile waits further out on the other.
         score = np.minimum(room, _SEVENTY) + 0.1 * (own > opposite) + 0.05 * _COMPASS.real
+        if entering is not None and entering in here and abs(here[centre] - here[entering]) > 1e-9:
+            # A nucleophile that already stands (its own ring about to close, as in an epoxide
+            # from a halohydrin) cannot move opposite: the leaving group turns away from it, so the
+            # panel reads as a backside attack, not a front-side one.
+            toward = unit(here[entering] - here[centre])
+            score = score + 2.0 * (((_COMPASS / toward).real < 0) & (room >= _BACKSIDE_ROOM))
         best = int(np.argmax(score))
         return complex(_COMPASS[best]) if room[best] >= _BACKSIDE_ROOM else None
 
