@@ -34,6 +34,9 @@ from .wedges import HASHED, SOLID, choose_wedges, configured_centres, stereogeni
 _HYDROGEN_FIRST = {8, 9, 16, 17, 34, 35, 53}
 _DESCENDERS = frozenset("()gjpqy")   # characters that reach below the baseline
 _TOWARD_LETTER = math.radians(30)   # an H written above or below this near another heteroatom points at it
+# An H written nearer than this to the bond of a hydrogen drawn as an atom crowds the arrow at that
+# bond (at 44-50 degrees a half-loop N-H -> N shrank to a blob; at 60, the hexagonal angle, it reads).
+_BY_A_MOVING_HYDROGEN = math.radians(55)
 _DOUBLE_GAP = 0.18   # bond lengths between the two lines of a double bond
 # A minus sign this near a bond stroke (bond lengths) and this near parallel to it (slope) reads as
 # a second line of the bond: about twice a double bond's gap, within 15 degrees (at 20 the two no
@@ -645,8 +648,11 @@ class StructureDrawer:
             # Other heteroatoms' labels within reach: an H written above or below toward one reads
             # as bonded to both (O-H-O).
             letters = [d for j, d in around if element[j] not in (1, 6) and abs(d) > 1e-9]
+            # Its bonds to hydrogens drawn as atoms (one that moves, a D): each runs between two
+            # labels and mostly carries an arrow, which an H written beside it crowds.
+            drawn_h = [positions[n] - p for n in neighbours if element[n] == 1 and n in positions]
             side = self._hydrogen_side(element[i], out.occupied[i], crowd, walls, w_symbol / 2 + w_mass, w_h + w_n,
-                                       [a for a in ahead if a], letters)
+                                       [a for a in ahead if a], letters, drawn_h)
             out.occupied[i].append(complex(side) if side in (1, -1) else side)
         # The label is fixed by where it stands (its atom's symbol and mass number with it), its
         # hydrogens and the side they are written on: drawn so in an earlier panel, it is reused.
@@ -700,22 +706,25 @@ class StructureDrawer:
 
     def _hydrogen_side(self, element: int, bonds: list[complex], crowd: list[tuple[complex, float, float]],
                        walls: list[tuple[complex, complex]], half_symbol: float, h_width: float,
-                       ahead: list[complex] = (), letters: list[complex] = ()):
+                       ahead: list[complex] = (), letters: list[complex] = (), drawn_h: list[complex] = ()):
         """1 (right), -1 (left), 1j (below) or -1j (above): the first side beside the symbol where
         the 'H' text keeps 50 degrees from the atom's bonds and from the bonds it is about to
-        form (`ahead`) and meets neither the atoms around (`crowd`: each as its offset and the
-        room, across and up, that its label may need) nor other bonds (`walls`, as offsets of
-        their ends); when neither side does, the side that meets the fewest (a bond within 50
-        degrees counts as one), then the one furthest round from bonds and atoms. An atom
-        without bonds tries the side its formula is written from first (HO-, H2O; NH3). Above or
-        below, pointing within 30 degrees at another heteroatom's label (`letters`, offsets within
-        1.75 bond lengths), also counts as meeting it."""
+        form (`ahead`), 55 from its bonds to hydrogens drawn as atoms (`drawn_h`: the arrow at
+        such a short bond between two labels needs room on one side of it, and the charge sign
+        often takes the other), and meets neither the atoms around (`crowd`: each as its offset
+        and the room, across and up, that its label may need) nor other bonds (`walls`, as
+        offsets of their ends); when neither side does, the side that meets the fewest (a bond
+        within 50 degrees counts as one, a drawn hydrogen's within 55 as two more), then the one
+        furthest round from bonds and atoms. An atom without bonds tries the side its formula is
+        written from first (HO-, H2O; NH3). Above or below, pointing within 30 degrees at another
+        heteroatom's label (`letters`, offsets within 1.75 bond lengths), also counts as meeting
+        it."""
         h_first = not bonds and element in _HYDROGEN_FIRST
         bonds = bonds + list(ahead)
         occupied = bonds + [unit_or_zero(c) for c, _, _ in crowd]
         if not occupied:
             return -1 if h_first else 1
-        limit = math.radians(50)
+        limit, wider = math.radians(50), _BY_A_MOVING_HYDROGEN
         half_height, line, pad = 0.5 * self.cap, 1.1 * self.style.font_size, 0.08 * self.style.bond_length
 
         def meets(side) -> int:
@@ -730,7 +739,7 @@ class StructureDrawer:
             hit += sum(1 for a, b in walls if segment_hits_box(a, b, text))
             if side in (1j, -1j):   # written above or below, pointing at another heteroatom's label
                 hit += sum(1 for c in letters if abs(cmath.phase(c / side)) < _TOWARD_LETTER)
-            return hit + (clearance(complex(side), bonds) < limit)
+            return hit + (clearance(complex(side), bonds) < limit) + 2 * (clearance(complex(side), drawn_h) < wider)
 
         for side in ((-1, 1) if h_first else (1, -1)):
             if not meets(side):
