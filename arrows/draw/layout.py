@@ -2517,6 +2517,7 @@ class _LayoutBuilder:
                   if n not in skip and n in here and n in self.exists[k]]
         if not others:
             return None
+        away = None   # straight away from a nucleophile that already stands
         if entering is not None and entering in here and abs(here[centre] - here[entering]) > 1e-9:
             away = unit(here[centre] - here[entering])
             if all(abs(cmath.phase(d / o)) >= _BACKSIDE_ROOM for o in others for d in (away, -away)):
@@ -2529,12 +2530,11 @@ class _LayoutBuilder:
         # The leaving group, drawn a bond length out, takes the roomier side of the line; the
         # nucleophile waits further out on the other.
         score = np.minimum(room, _SEVENTY) + 0.1 * (own > opposite) + 0.05 * _COMPASS.real
-        if entering is not None and entering in here and abs(here[centre] - here[entering]) > 1e-9:
+        if away is not None:
             # A nucleophile that already stands (its own ring about to close, as in an epoxide
             # from a halohydrin) cannot move opposite: the leaving group turns away from it, so the
             # panel reads as a backside attack, not a front-side one.
-            toward = unit(here[entering] - here[centre])
-            score = score + 2.0 * (((_COMPASS / toward).real < 0) & (room >= _BACKSIDE_ROOM))
+            score = score + 2.0 * (((_COMPASS / away).real > 0) & (room >= _BACKSIDE_ROOM))
         best = int(np.argmax(score))
         return complex(_COMPASS[best]) if room[best] >= _BACKSIDE_ROOM else None
 

@@ -203,7 +203,7 @@ class _Groundwork:
     group_labels: dict[int, str] = field(default_factory=dict)   # atom -> the group it is written as (Ph)
 
 
-def _groundwork(trace: Trace, ph_labels: bool = False) -> _Groundwork:
+def _groundwork(trace: Trace, ph_labels: bool) -> _Groundwork:
     product = product_atoms(trace)
     sources = _panel_sources(trace, product)
     if sources[-1].leaving is None and sources[-1].arriving is not None:

@@ -650,7 +650,7 @@ class StructureDrawer:
             letters = [d for j, d in around if element[j] not in (1, 6) and abs(d) > 1e-9]
             # Its bonds to hydrogens drawn as atoms (one that moves, a D): each runs between two
             # labels and mostly carries an arrow, which an H written beside it crowds.
-            drawn_h = [positions[n] - p for n in neighbours if element[n] == 1 and n in positions]
+            drawn_h = [positions[n] - p for n in neighbours if element[n] == 1]
             side = self._hydrogen_side(element[i], out.occupied[i], crowd, walls, w_symbol / 2 + w_mass, w_h + w_n,
                                        [a for a in ahead if a], letters, drawn_h)
             out.occupied[i].append(complex(side) if side in (1, -1) else side)
@@ -724,7 +724,7 @@ class StructureDrawer:
         occupied = bonds + [unit_or_zero(c) for c, _, _ in crowd]
         if not occupied:
             return -1 if h_first else 1
-        limit, wider = math.radians(50), _BY_A_MOVING_HYDROGEN
+        limit = math.radians(50)
         half_height, line, pad = 0.5 * self.cap, 1.1 * self.style.font_size, 0.08 * self.style.bond_length
 
         def meets(side) -> int:
@@ -739,7 +739,8 @@ class StructureDrawer:
             hit += sum(1 for a, b in walls if segment_hits_box(a, b, text))
             if side in (1j, -1j):   # written above or below, pointing at another heteroatom's label
                 hit += sum(1 for c in letters if abs(cmath.phase(c / side)) < _TOWARD_LETTER)
-            return hit + (clearance(complex(side), bonds) < limit) + 2 * (clearance(complex(side), drawn_h) < wider)
+            return hit + (clearance(complex(side), bonds) < limit) \
+                + 2 * (clearance(complex(side), drawn_h) < _BY_A_MOVING_HYDROGEN)
 
         for side in ((-1, 1) if h_first else (1, -1)):
             if not meets(side):

@@ -246,9 +246,12 @@ MAX_ENUMERATED = 12     # stereo elements; beyond that the count is the upper bo
 def stereoisomer_count(mol: Chem.Mol, uncontrolled: Iterable[int] = (),
                        turning: Sequence[Sequence[int]] = ()) -> Optional[int]:
     """How many stereoisomers of `mol` (one fragment) are possible: len(stereoisomers(...)), or past
-    MAX_ENUMERATED open elements the upper bound 2**n; None when RDKit cannot perceive `mol`."""
+    MAX_ENUMERATED open elements the upper bound 2**n; None when RDKit cannot perceive `mol` or
+    refuses an assignment."""
     found, too_many = _enumerated(mol, uncontrolled, turning)
-    return len(found) if found is not None else None if too_many is None else 2 ** too_many
+    if found is not None:
+        return len(found)
+    return None if too_many is None else 2 ** too_many
 
 
 def stereoisomers(mol: Chem.Mol, uncontrolled: Iterable[int] = (),
