@@ -36,6 +36,7 @@ from __future__ import annotations
 
 import math
 import re
+from dataclasses import dataclass
 from itertools import product
 from typing import Callable, Iterable, Optional, Sequence
 
@@ -97,17 +98,18 @@ def may_configure(changes: dict[Pair, tuple[int, int]]) -> bool:
 
 def carry_configuration(before: Chem.Mol, after: Chem.RWMol, changes: dict[Pair, tuple[int, int]],
                         shifted: Callable[[int, int], bool], configured: bool,
-                        pairs_moved: int = 0, light: bool = False) -> bool:
+                        pairs_moved: int = 0, light: bool = False) -> tuple[bool, Optional[ChairModel]]:
     """Set on `after` (the state after a step, being built) the configuration of every atom whose
     bonds the step changed. `changes` maps each changed bond to its electrons (before, after the
     step); `shifted(atom, leaving)` tells whether `atom` moved with the pair of its bond to
     `leaving` (a 1,2-shift); `configured`, whether `before` holds any configuration. Returns
-    whether `after` does."""
+    whether `after` does, and the chair model of a thermal [3,3] shift from a configured state
+    (None for any other step), built here once for the checks to read."""
     formed, broken, other = _bond_changes(changes)
     syn = _syn_additions(before, changes, formed, configured)
     dienes = _diene_ends(before, changes, formed) if configured else []
     if not configured and not syn:
-        return False
+        return False, None
     carried = _substitutions(before, formed, broken, other, shifted) if configured else {}
     changed = {i for key in changes for i in key}
     forget_configuration(after, changed - set(carried))
@@ -128,14 +130,17 @@ def carry_configuration(before: Chem.Mol, after: Chem.RWMol, changes: dict[Pair,
     if configured:
         for chain in _electrocyclic_closures(before, changes):
             made |= _set_electrocyclic_configuration(before, after, chain, conrotatory(pairs_moved, light))
+    chair = None
     if configured and pairs_moved == 3 and not light:   # three pairs, bond to bond: no lone pair in the array
         chain = three_three_array(before, changes)
-        if chain is not None:
-            made |= _set_chair_configuration(before, after, chain)
+        outcomes = chair_outcomes(before, after, chain) if chain is not None else None
+        if outcomes:
+            chair = ChairModel(tuple(chain), tuple(outcomes))
+            made |= _set_chair_configuration(after, chair)
     if configured:
         for elimination in _eliminations(before, changes, formed, broken):
             _set_elimination_geometry(before, after, *elimination)
-    return configured or made
+    return configured or made, chair
 
 
 def concerted_eliminations(mol: Chem.Mol, changes: dict[Pair, tuple[int, int]]) -> list[tuple[int, int, int, int, bool]]:
@@ -384,6 +389,15 @@ _CHAIR = "chair"   # atom property: the atom's configuration was set by a [3,3] 
 Outcome = tuple[tuple[tuple[int, Chem.ChiralType, tuple[int, ...]], ...], tuple[tuple[int, int, int, int, bool], ...]]
 
 
+@dataclass(frozen=True)
+class ChairModel:
+    """A thermal [3,3] shift's array a1..a6 (three_three_array) and the configuration each of its
+    chairs gives (chair_outcomes, never empty). The replay builds it once per step; the checks
+    (AR605, AR602's end count) read it off the step's change."""
+    chain: tuple[int, ...]
+    outcomes: tuple[Outcome, ...]
+
+
 def step_changes(change) -> dict[Pair, tuple[int, int]]:
     """A replayed step's bond changes (its StepChange's formed, broken and reordered bonds) as
     carry_configuration takes them: each bond's electrons before and after."""
@@ -424,17 +438,15 @@ def three_three_array(mol: Chem.Mol, changes: dict[Pair, tuple[int, int]]) -> Op
     return chain
 
 
-def _set_chair_configuration(before: Chem.Mol, after: Chem.RWMol, chain: list[int]) -> bool:
-    """The configuration of the new centres and double bonds of the [3,3] shift along `chain` when
+def _set_chair_configuration(after: Chem.RWMol, chair: ChairModel) -> bool:
+    """The configuration of the new centres and double bonds of the [3,3] shift `chair` models when
     both chairs give one product: the same stereoisomer (the meso 3,4-dimethylhexa-1,5-diene's two
     chairs each give (E,Z)-octa-2,6-diene, the E and Z ends swapped), or a pair of enantiomers, of
     which the state carries one as a syn addition's does (the racemate). Where the chairs give
     diastereomers (the (3R*,4R*) diene: (E,E) with both methyls equatorial, (Z,Z) with both axial)
     nothing is set: one state holds one configuration, and the minor chair's product is no wrong
     one to write. Returns whether anything was set."""
-    outcomes = chair_outcomes(before, after, chain)
-    if not outcomes:
-        return False
+    outcomes = chair.outcomes
     products = []
     for outcome in outcomes:
         work = Chem.RWMol(after)

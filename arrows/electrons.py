@@ -17,7 +17,7 @@ from rdkit import Chem
 from .diagnostics import Diagnostic
 from .model import (AtomSink, BareAtom, BondPair, BondRef, BondSink, HydrogenOn, Location, LonePair, Move, NonbondingSink, Step,
                     UnpairedElectron, CONNECTORS)
-from .configuration import carry_configuration, has_configuration, may_configure, names_light
+from .configuration import ChairModel, carry_configuration, has_configuration, may_configure, names_light
 from .rdkit_io import ELECTRONEGATIVITY, HYDRIDIC, atom_list, valence_complaint, valence_electrons
 
 _BOND_TYPES = {1: Chem.BondType.SINGLE, 2: Chem.BondType.DOUBLE, 3: Chem.BondType.TRIPLE}
@@ -277,6 +277,7 @@ class StepChange:
     touched_atoms: list[int] = field(default_factory=list)
     shells: dict[int, int] = field(default_factory=dict)                  # valence-shell electrons N + 2B, touched atoms
     moves: list[ResolvedMove] = field(default_factory=list)
+    chair: Optional[ChairModel] = None   # a thermal [3,3] shift's chairs, from a configured state
 
     @property
     def pericyclic(self) -> bool:
@@ -910,8 +911,8 @@ def _settle(state: ElectronState, step: Step, step_index: int, replay: _StepRepl
             return any(m.source_kind == "bond" and set(m.source_atoms) == {atom, leaving} and atom in m.sink_atoms
                        for m in replay.resolved)
         pairs = sum(1 for m in replay.resolved if m.electrons == 2)
-        configured = carry_configuration(state.mol, work, changes, shifted, configured, pairs,
-                                         names_light(step.over, step.under))
+        configured, change.chair = carry_configuration(state.mol, work, changes, shifted, configured, pairs,
+                                                       names_light(step.over, step.under))
     valence, elements, old_nonbonding, old_bond_sums = state.valence, state.elements, state.nonbonding, state.bond_sums
     shells = change.shells
     for i in touched:

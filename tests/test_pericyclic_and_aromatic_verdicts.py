@@ -5,14 +5,17 @@ Organic Chemistry, chapters on pericyclic reactions and aromatic substitution) a
 from __future__ import annotations
 
 import json
+import re
 from pathlib import Path
 
 import pytest
+from click.testing import CliRunner
 from rdkit import Chem
 from rdkit.Chem.EnumerateStereoisomers import EnumerateStereoisomers, StereoEnumerationOptions
 
 from arrows import check_file, check_text
 from arrows.batch.jsonl import check_line
+from arrows.cli import cli
 from arrows.trace import state_smiles
 
 from textbook_mechanisms import TEXTBOOK
@@ -454,6 +457,41 @@ def test_a_claisen_end_count_is_what_its_chairs_allow(ether):
 def test_an_end_count_the_chairs_do_not_narrow_stays_free(text, count):
     """Guard: where the chairs allow every stereoisomer, or none is judged, the free count stands."""
     assert _end_count(text) == f"with no stereocontrol, {count}"
+
+
+def _traced_count(tmp_path, text: str) -> str:
+    """The count `arrows trace --stereo` prints for the one stereo-bearing piece of the final state."""
+    path = tmp_path / "shift.mech"
+    path.write_text(text)
+    result = CliRunner().invoke(cli, ["trace", "--stereo", str(path)])
+    assert result.exit_code == 0, result.output
+    lines = result.output.splitlines()
+    (line,) = [line for line in lines[lines.index("stereo"):] if "stereoisomer" in line]
+    return line.rsplit("; ", 1)[1]
+
+
+@pytest.mark.parametrize("text, constitution", [
+    (_COPE.format(diene=_RACEMIC, product=_ZZ), "CC=CCCC=CC"),
+    (_CLAISEN_ONLY.format(diene=_CHIRAL_ETHER_E), "CC=CCC(C)C=O"),
+], ids=["racemic diene's Cope", "chirality-transferring Claisen"])
+def test_trace_stereo_counts_what_the_chairs_allow_as_the_end_count_does(tmp_path, text, constitution):
+    """After a chair [3,3] shift `arrows trace --stereo` gave the free count ("3 stereoisomers with
+    no stereocontrol" for the racemic diene's Cope) where AR602's end count says the chairs allow 2
+    of the 3 (Doering-Roth; the Claisen's chirality transfer, Clayden; both from memory; RDKit's
+    EnumerateStereoisomers counts them all). The two now say one count and name the same isomers."""
+    traced = _traced_count(tmp_path, text)
+    every = _every_stereoisomer(constitution)
+    assert traced.startswith(f"a chair [3,3] shift (step 1) allows 2 of the {len(every)} stereoisomers: "), traced
+    assert set(traced.split(": ", 1)[1].split(" and ")) < every, traced
+    said = re.fullmatch(r"(.*stereoisomers) of \S+ \([^)]*\)(.*)", _end_count(text))
+    assert traced == said[1] + said[2], (traced, said[0])
+
+
+def test_trace_stereo_keeps_the_free_count_where_no_chair_narrows_it(tmp_path):
+    """Guard: the diene written without configuration (no chair judged) keeps the free count, the
+    3 stereoisomers RDKit enumerates, as AR602's end count does."""
+    text = _COPE.format(diene="[CH2:1]=[CH:2][CH:3]([CH3:7])[CH:4]([CH3:8])[CH:5]=[CH2:6]", product=_EE)
+    assert _traced_count(tmp_path, text) == f"{len(_every_stereoisomer('CC=CCCC=CC'))} stereoisomers with no stereocontrol"
 
 
 def test_a_checkpoint_the_replayed_chair_rules_out_is_the_chairs_to_name():

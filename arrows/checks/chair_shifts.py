@@ -11,9 +11,10 @@ Judged: three arrows, bond to bond, round six atoms of C, N and O none of which 
 (acyclic 1,5-dienes, allyl vinyl ethers, their aza forms). A ring on the array can force a boat (a
 cis-divinylcyclopropane, bridged systems): not judged. The chair outcomes are carried to later
 checkpoints and the product while no later step touches their atoms; a configuration AR603 already
-finds wrong is AR603's alone. The chair model is configuration.py's: the replay sets the outcome
-when both chairs give one product, and a mismatch there only is this check's (AR603 leaves it);
-each outcome is tried on the state with the replay's chair configuration cleared."""
+finds wrong is AR603's alone. The chair model is configuration.py's, built once by the replay and
+read off the step (StepChange.chair): the replay sets the outcome when both chairs give one
+product, and a mismatch there only is this check's (AR603 leaves it); each outcome is tried on the
+state with the replay's chair configuration cleared."""
 from __future__ import annotations
 
 from dataclasses import replace
@@ -21,8 +22,7 @@ from typing import Iterator, Optional
 
 from rdkit import Chem
 
-from ..configuration import (Outcome, chair_outcomes, set_chair_outcome, step_changes, three_three_array,
-                             without_chair_configuration)
+from ..configuration import ChairModel, Outcome, set_chair_outcome, without_chair_configuration
 from ..diagnostics import Diagnostic
 from ..electrons import ElectronState
 from ..judgement.stereo import ENANTIOMERS, is_chiral, relation
@@ -33,13 +33,13 @@ from .pericyclic import photochemical
 from .written_stereo import ChiralityWatch, compared_pieces, mismatches
 
 
-def _shift_array(st: StepTrace) -> Optional[list[int]]:
-    """The six atoms a1..a6 of a thermal [3,3] shift outside any ring (configuration's
-    three_three_array), else None."""
+def _chair_model(st: StepTrace) -> Optional[ChairModel]:
+    """The chair model the replay built for a thermal [3,3] shift outside any ring from a
+    configured state (configuration.carry_configuration), else None."""
     change = st.change
     if st.after is None or len(change.moves) != 3 or not change.pericyclic or photochemical(st):
         return None
-    return three_three_array(st.before.mol, step_changes(change))
+    return change.chair
 
 
 def configured_as(state: ElectronState, outcome: Outcome, kept: set[int]) -> Optional[ElectronState]:
@@ -84,7 +84,8 @@ class ChairShift:
 class StandingChairShifts:
     """The [3,3] shifts of a replay, from a configured state, whose chair outcomes still stand at
     some atom of their array (no later step touched it). Fed each derived step in order; AR605
-    judges written configurations against them, AR602's end count reads them."""
+    judges written configurations against them, AR602's end count and `arrows trace --stereo`
+    read them."""
 
     def __init__(self) -> None:
         self.shifts: list[ChairShift] = []
@@ -93,11 +94,9 @@ class StandingChairShifts:
         for shift in self.shifts:
             shift.kept -= set(st.change.touched_atoms)
         self.shifts = [s for s in self.shifts if s.kept]
-        if st.before.configured:
-            chain = _shift_array(st)
-            outcomes = chair_outcomes(st.before.mol, st.after.mol, chain) if chain else None
-            if outcomes:
-                self.shifts.append(ChairShift(st.index, chain, outcomes))
+        chair = _chair_model(st) if st.before.configured else None
+        if chair is not None:
+            self.shifts.append(ChairShift(st.index, list(chair.chain), list(chair.outcomes)))
 
 
 class ChairThreeThreeShift(Check):

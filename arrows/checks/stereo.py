@@ -27,8 +27,10 @@ class ProductStereo:
     smiles: str
     elements: tuple[StereoElement, ...]
     stereoisomers: Optional[int]     # None: RDKit could not enumerate them
-    # The stereoisomers the chairs of standing [3,3] shifts allow, where fewer than `stereoisomers`
+    # The stereoisomers the chairs of standing [3,3] shifts allow, where fewer than `stereoisomers`,
+    # and those shifts' steps (from 1) whose chairs give a choice
     allowed: Optional[frozenset[str]] = None
+    chair_steps: tuple[int, ...] = ()
 
 
 def step_stereo(st: StepTrace, views: Optional[RecentViews] = None) -> tuple[list[StereoElement], list[StereoElement]]:
@@ -50,24 +52,31 @@ def _electrocyclic_turn(st: StepTrace) -> Optional[str]:
 
 def final_stereo(trace: Trace) -> list[ProductStereo]:
     """Each fragment of the final state (released by-products aside) that has stereo elements,
-    with the number of its stereoisomers when no configuration made by the mechanism is fixed."""
+    with the number of its stereoisomers when no configuration made by the mechanism is fixed, and
+    those the chairs of its [3,3] shifts allow (as AR602's end count reads them)."""
     touched = {i for st in trace.steps for i in st.change.touched_atoms}
-    return product_stereo(trace.final, touched)
+    chairs = StandingChairShifts()
+    for st in trace.steps:
+        if st.after is not None:
+            chairs.step(st)
+    return product_stereo(trace.final, touched, chairs=chairs.shifts)
 
 
 def product_stereo(final: Optional[ElectronState], touched: set[int], views: Optional[RecentViews] = None,
                    several_only: bool = False, arisen: frozenset[StereoElement] = frozenset(),
-                   chair_variants: Sequence[Chem.Mol] = ()) -> list[ProductStereo]:
+                   chairs: Sequence[ChairShift] = ()) -> list[ProductStereo]:
     """final_stereo for a final state and the atoms the mechanism's moves touched; `several_only`
     keeps only the fragments with more than one stereoisomer (no SMILES is written for the others),
     naming the elements a step touched or made (`arisen`: not in the species as written).
-    `chair_variants`: the final Mol with each combination of the outcomes of the [3,3] shifts whose
-    chairs still stand (chair_variants below); a piece they allow fewer stereoisomers of says so."""
+    `chairs`: the [3,3] shifts whose chairs still stand (StandingChairShifts); a piece they allow
+    fewer stereoisomers of says so."""
     if final is None:
         return []
     elements = state_stereo(final, views or RecentViews())
     if not elements:
         return []
+    variants = _chair_variants(final.mol, chairs)
+    chair_steps = tuple(shift.step + 1 for shift in chairs if len(shift.outcomes) > 1)
     out = []
     for indices in Chem.GetMolFrags(final.mol, asMols=False, sanitizeFrags=False):
         if set(indices) & final.released:
@@ -84,10 +93,11 @@ def product_stereo(final: Optional[ElectronState], touched: set[int], views: Opt
             continue
         piece, uncontrolled, turning = _open_piece(final.mol, indices, touched, final.configured)
         count = stereoisomer_count(piece, uncontrolled, turning)
-        allowed = _chair_allowed(chair_variants, indices, touched, count)
+        allowed = _chair_allowed(variants, indices, touched, count)
         if several_only and ((count or 0) if allowed is None else len(allowed)) <= 1:
             continue
-        out.append(ProductStereo(readable_smiles(piece), mine, count, allowed))
+        out.append(ProductStereo(readable_smiles(piece), mine, count, allowed,
+                                 chair_steps if allowed is not None else ()))
     return out
 
 
@@ -125,7 +135,7 @@ def _chair_allowed(variants: Sequence[Chem.Mol], indices: Sequence[int], touched
 _MOST_VARIANTS = 64   # combinations of chair outcomes tried; past it the free count stands
 
 
-def chair_variants(final: Chem.Mol, shifts: Sequence[ChairShift]) -> list[Chem.Mol]:
+def _chair_variants(final: Chem.Mol, shifts: Sequence[ChairShift]) -> list[Chem.Mol]:
     """`final` with each combination of the shifts' chair outcomes set where its atoms are kept
     (no later step touched them) and `final` leaves them unset; none when no shift has a choice
     (the replay set the one product both chairs give) or there are too many combinations."""
@@ -297,9 +307,8 @@ class StereoChanges(Check):
                 yield found
         if not end.steps_replayed:
             return   # no step: the mechanism makes nothing to count
-        variants = chair_variants(end.final.mol, self.chairs.shifts) if end.final is not None else []
         many = product_stereo(end.final, self.touched, context.views, several_only=True, arisen=frozenset(self.arisen),
-                              chair_variants=variants)
+                              chairs=self.chairs.shifts)
         if not many:
             return
         mechanism = end.mechanism
@@ -308,19 +317,25 @@ class StereoChanges(Check):
         free = [f"{p.smiles} ({_said(list(p.elements), label)}): {p.stereoisomers} stereoisomers can form"
                 for p in many if p.allowed is None]
         parts = [f"with no stereocontrol, {'; '.join(free)}"] if free else []
-        steps = [shift.step + 1 for shift in self.chairs.shifts if len(shift.outcomes) > 1]
-        parts += [_chair_count(p, steps, label) for p in many if p.allowed is not None]
+        parts += [f"{chair_allowance(p)} of {p.smiles} ({_said(list(p.elements), label)}){chairs_named(p)}"
+                  for p in many if p.allowed is not None]
         yield Diagnostic("AR602", "; ".join(parts), loc, step=end.steps_replayed - 1)
 
 
 _NAMED_MOST = 4   # the stereoisomers a chair allows are written out up to this many
 
 
-def _chair_count(p: ProductStereo, steps: list[int], label) -> str:
-    """The end count of a product whose stereoisomers the chairs of [3,3] shifts narrow down (the
-    racemic 3,4-dimethylhexa-1,5-diene's two chairs give (E,E)- and (Z,Z)-octa-2,6-diene, not (E,Z))."""
+def chair_allowance(p: ProductStereo) -> str:
+    """The count of a product whose stereoisomers the chairs of [3,3] shifts narrow down (the
+    racemic 3,4-dimethylhexa-1,5-diene's two chairs give (E,E)- and (Z,Z)-octa-2,6-diene, not
+    (E,Z)): `a chair [3,3] shift (step 1) allows 2 of the 3 stereoisomers`. For AR602's end count
+    and `arrows trace --stereo`, which say it alike."""
+    steps = p.chair_steps
     shifts = (f"a chair [3,3] shift (step {steps[0]}) allows" if len(steps) == 1 else
               f"chair [3,3] shifts (steps {', '.join(map(str, steps))}) allow")
-    named = f": {' and '.join(sorted(p.allowed))}" if len(p.allowed) <= _NAMED_MOST else ""
-    return (f"{shifts} {len(p.allowed)} of the {p.stereoisomers} stereoisomers of {p.smiles} "
-            f"({_said(list(p.elements), label)}){named}")
+    return f"{shifts} {len(p.allowed)} of the {p.stereoisomers} stereoisomers"
+
+
+def chairs_named(p: ProductStereo) -> str:
+    """`: A and B`, the stereoisomers the chairs allow, when few enough to write out; else nothing."""
+    return f": {' and '.join(sorted(p.allowed))}" if len(p.allowed) <= _NAMED_MOST else ""

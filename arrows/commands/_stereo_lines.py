@@ -5,7 +5,7 @@ from __future__ import annotations
 
 from rdkit import Chem
 
-from ..checks.stereo import final_stereo, step_stereo
+from ..checks.stereo import chair_allowance, chairs_named, final_stereo, step_stereo
 from ..checks.written_stereo import forms_racemate
 from ..judgement.stereo import CENTRE, StereoElement, cip_codes, cip_labels, describe, is_chiral, pairwise_relations
 from ..trace import StepTrace, Trace
@@ -84,6 +84,8 @@ def final_lines(trace: Trace) -> list[str]:
     for p in products:
         if p.stereoisomers is None:
             count = "stereoisomers not counted (RDKit cannot enumerate this structure)"
+        elif p.allowed is not None:   # AR602's end count: the chairs of [3,3] shifts narrow the free one
+            count = chair_allowance(p) + chairs_named(p)
         elif p.stereoisomers == 1 and any(mark in p.smiles for mark in "@/\\"):   # a configured centre or double bond
             count = "one stereoisomer, as the steps configure it"
             if racemate and is_chiral(p.smiles):
