@@ -132,10 +132,18 @@ class _ToModel:
         self.line_shift, self.column_shift = first_line - 1, first_column - 1
         self.comments = comments    # (token, whether it stands alone on its line), in order
         self.step_ends: list[tuple[Step, Token]] = []   # each step's `end`, kept when there are comments
+        # (line, column) of each token, kept when there are comments: where a comment falls inside a
+        # statement written over several lines. `H(C3)` is one token, as the writer breaks lines, placed
+        # at its `)`: a comment inside it breaks the line before it.
+        self.tokens: Optional[list[tuple[int, int]]] = [] if comments else None
 
     def transform(self, tree: Tree):
         """The model of a tree. A slip raises VisitError around it, as lark's Transformer does."""
         children = [self.transform(child) if isinstance(child, Tree) else child for child in tree.children]
+        if self.tokens is not None:
+            tokens = [child for child in tree.children if isinstance(child, Token)]
+            self.tokens.extend(self._line_column(token) for token in
+                               (tokens[-1:] if tree.data == "hydrogen_on" else tokens))
         try:
             return getattr(self, tree.data)(children)
         except Exception as exc:
@@ -145,6 +153,10 @@ class _ToModel:
         line = token.line
         return Location(self.file, line + self.line_shift,
                         token.column + offset + (self.column_shift if line == 1 else 0))
+
+    def _line_column(self, token: Token) -> tuple[int, int]:
+        loc = self._at(token)
+        return loc.line, loc.column
 
     @staticmethod
     def _text(token: Token) -> str:
@@ -272,7 +284,8 @@ class _ToModel:
         if self.comments:
             placed = [(self._at(token), token, alone) for token, alone in self.comments]
             children.append(place_comments(children, self.step_ends, placed,
-                                           self.line_shift == 0 and self.column_shift == 0, self._at))
+                                           self.line_shift == 0 and self.column_shift == 0, self._at,
+                                           sorted(self.tokens)))
         return children
 
 

@@ -16,6 +16,7 @@ from typing import Any, Optional
 from .diagnostics import Diagnostic, MechanismError, cannot_read
 from .build import atom, move
 from .model import COMMENT_PLACES, Checkpoint, Comment, Location, Mechanism, Move, Species, Step
+from .writer import UnprintableMechanism, to_text
 
 FORMAT, VERSION = "arrows-mechanism", 1
 SCHEMA_FILE = "mechanism.schema.json"
@@ -72,7 +73,14 @@ def mechanism_dict(mechanism: Mechanism) -> dict:
     if mechanism.product is not None:
         out["product"] = _checkpoint(mechanism.product)
     if mechanism.comments:
-        out["comments"] = [{"at": c.at, "place": c.place, "text": c.text} for c in mechanism.comments]
+        out["comments"] = [_comment(c) for c in mechanism.comments]
+    return out
+
+
+def _comment(comment: Comment) -> dict[str, Any]:
+    out: dict[str, Any] = {"at": comment.at, "place": comment.place, "text": comment.text}
+    if comment.break_after is not None:
+        out["break_after"] = comment.break_after
     return out
 
 
@@ -202,8 +210,28 @@ def _read_comments(data: dict, places: _Places) -> tuple[Comment, ...]:
                                              f"stands {' or '.join(allowed)}, not {place}", loc,
                                              hint='"below" and "end" belong to a step (or "below" to the '
                                                   'mechanism), "inline" to a line')])
-        comments.append(Comment(comment["text"], at, place, loc))
+        if "break_after" in comment and place != "inline":
+            raise MechanismError([Diagnostic("AR100", f"comments[{k}].break_after: only a comment at the end of a "
+                                             f"line (inline) breaks its statement's line, not one {place}", loc,
+                                             hint='leave break_after out, or make the comment "inline"')])
+        comments.append(Comment(comment["text"], at, place, loc, comment.get("break_after")))
     return tuple(comments)
+
+
+def _printable(mechanism: Mechanism) -> Mechanism:
+    """The mechanism, once its comments are known to print back each in its place (two ending one
+    line would run into one; a line break after no token or after the statement's last is no break)."""
+    if mechanism.comments:
+        try:
+            to_text(mechanism)
+        except UnprintableMechanism as exc:
+            if exc.comment is None:   # not the comments' doing: left to what prints the mechanism
+                return mechanism
+            k = next(k for k, comment in enumerate(mechanism.comments) if comment is exc.comment)
+            raise MechanismError([Diagnostic("AR100", f"comments[{k}]: {exc}", exc.comment.loc,
+                                             hint="give each comment that ends a line of one statement its own "
+                                                  "break_after, or drop it")]) from None
+    return mechanism
 
 
 def _pointed_at(data: dict, at: str) -> Optional[str]:
@@ -243,9 +271,10 @@ def mechanism_from_dict(data: dict, source_name: str = "<text>",
                                 for k, c in enumerate(step.get("expect", ()))),
                           loc=places.at(("steps", i))))
     product = data.get("product")
-    return Mechanism(data.get("title"), data.get("caption"), _read_species(data["species"], places, ("species",)),
-                     tuple(steps), None if product is None else _read_checkpoint(product, places, ("product",)),
-                     source_name, comments=_read_comments(data, places))
+    return _printable(Mechanism(data.get("title"), data.get("caption"),
+                                _read_species(data["species"], places, ("species",)), tuple(steps),
+                                None if product is None else _read_checkpoint(product, places, ("product",)),
+                                source_name, comments=_read_comments(data, places)))
 
 
 _LONGEST_INTEGER = 100   # digits: no field of a mechanism is a number this long (Python refuses 4,300)

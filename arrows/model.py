@@ -286,12 +286,16 @@ class Comment:
     """A `# ...` comment as the author wrote it: `text` is what follows the `#` (less one space), `at`
     what it annotates, as a JSON pointer into the mechanism's JSON object ("" the mechanism itself,
     "/title", "/species/water", "/steps/0", "/steps/0/moves/1", "/steps/0/uses/acid", "/product"),
-    `place` one of COMMENT_PLACES."""
+    `place` one of COMMENT_PLACES. `break_after`: for an "inline" comment on a statement written over
+    several lines, how many of its tokens (`H(C3)` counting as one) come before the line the comment
+    ends; None when it ends the statement's last line, so that comments on the lines of one statement
+    stay on lines of their own."""
 
     text: str
     at: str = ""
     place: str = "above"
     loc: Location = field(default_factory=Location, compare=False)
+    break_after: Optional[int] = None
 
 
 @frozen

@@ -18,7 +18,12 @@ INDENT = "    "
 
 class UnprintableMechanism(ValueError):
     """A field holds text the language cannot carry (a double quote or a line break, LF or CR, in a string,
-    a species name that is not a name, a line break in a comment, a comment on a part the mechanism has not)."""
+    a species name that is not a name, a line break in a comment, a comment on a part the mechanism has not,
+    two comments that would end one line). `comment`: the comment at fault, if one is."""
+
+    def __init__(self, message: str, comment: Optional[Comment] = None):
+        super().__init__(message)
+        self.comment = comment
 
 
 def quoted(text: str, what: str) -> str:
@@ -39,27 +44,66 @@ class _Comments:
     """A mechanism's comments by what they annotate and where, taken as they are printed."""
 
     def __init__(self, comments: tuple[Comment, ...]):
-        self.left: dict[tuple[str, str], list[str]] = defaultdict(list)
+        self.left: dict[tuple[str, str], list[Comment]] = defaultdict(list)
         for comment in comments:
             if _COMMENT_FORBIDDEN.search(comment.text):
                 raise UnprintableMechanism(f"the comment {comment.text!r} contains a line break, which a comment "
-                                           "(to the end of its line) cannot hold")
-            self.left[comment.at, comment.place].append("#" + (" " + comment.text if comment.text else ""))
+                                           "(to the end of its line) cannot hold", comment)
+            self.left[comment.at, comment.place].append(comment)
 
     def take(self, at: str, place: str) -> list[str]:
-        return self.left.pop((at, place), [])
+        return [_printed(comment) for comment in self.left.pop((at, place), [])]
 
-    def line(self, at: str, code: str, indent: str = "") -> list[tuple[str, Optional[str]]]:
+    def line(self, at: str, code: str, indent: str = "", continued: str = INDENT) -> list[tuple[str, Optional[str]]]:
         """The line of code printing `at`, under the whole-line comments above it, as (code, comment
         at its end or None)."""
-        inline = self.take(at, "inline")
-        return ([(indent + text, None) for text in self.take(at, "above")]
-                + [(indent + code, "  ".join(inline) if inline else None)])
+        return [(indent + text, None) for text in self.take(at, "above")] + self.ended(at, "inline", code, indent,
+                                                                                      continued)
+
+    def ended(self, at: str, place: str, code: str, indent: str = "", continued: str = INDENT) -> list[tuple[str, Optional[str]]]:
+        """The code with the comments `at` that end its lines (place "inline", or "end" for a step's
+        `end`): one line, or several where the statement was written over several lines with a
+        comment ending each (Comment.break_after), each after the first indented `continued` more."""
+        lines = _broken(code, self.left.pop((at, place), []), at)
+        return [(indent + ("" if k == 0 else continued) + piece, comment) for k, (piece, comment) in enumerate(lines)]
 
     def check_all_printed(self) -> None:
         if self.left:
-            at, place = next(iter(self.left))
-            raise UnprintableMechanism(f"a comment is attached to {at!r} ({place}), which the mechanism has not")
+            (at, place), found = next(iter(self.left.items()))
+            raise UnprintableMechanism(f"a comment is attached to {at!r} ({place}), which the mechanism has not",
+                                       found[0])
+
+
+def _printed(comment: Comment) -> str:
+    return "#" + (" " + comment.text if comment.text else "")
+
+
+# A token of printed code, as the writer may break a line before it: a quoted string, a hydrogen
+# named by its atom (one token, as comments.py counts them), an arrow, a word, any other character.
+_TOKEN = re.compile(r'"[^"]*"|H\([A-Z][a-z]?[0-9]+\)|->|~>|\w+|\S')
+
+
+def _broken(code: str, inline: list[Comment], at: str) -> list[tuple[str, Optional[str]]]:
+    """The code of one statement as (line, the comment ending it): one line unless comments end
+    lines inside it (Comment.break_after); each comment on a line of its own."""
+    inline = sorted(inline, key=lambda c: (c.break_after is None, c.break_after or 0))
+    breaks = [c.break_after for c in inline if c.break_after is not None]
+    starts = [match.start() for match in _TOKEN.finditer(code)]
+    for k, comment in enumerate(inline):
+        shared = k and (comment.break_after == inline[k - 1].break_after)
+        if shared or (comment.break_after is not None and not 0 < comment.break_after < len(starts)):
+            raise UnprintableMechanism(
+                f"the comment {comment.text!r} on {at!r} would end " + (
+                    "the same line as another and run into it" if shared else
+                    f"a line after token {comment.break_after} of {len(starts)}, "
+                    "where the line holds none or all of the statement"), comment)
+    lines, begin = [], 0
+    for comment, cut in zip(inline, breaks):
+        lines.append((code[begin:starts[cut]].rstrip(), _printed(comment)))
+        begin = starts[cut]
+    closing = inline[len(breaks)] if len(inline) > len(breaks) else None
+    lines.append((code[begin:], None if closing is None else _printed(closing)))
+    return lines
 
 
 def _aligned(lines: list[tuple[str, Optional[str]]]) -> list[str]:
@@ -93,9 +137,8 @@ def _step_lines(step: Step, at: str, comments: _Comments) -> list[str]:
     body += [(f"{at}/expect/{j}", _checkpoint("expect", c)) for j, c in enumerate(step.expects)]
     body_lines = [line for part, code in body for line in comments.line(part, code, INDENT)]
     body_lines += [(INDENT + text, None) for text in comments.take(at, "below")]
-    end = comments.take(at, "end")
-    return (_aligned(comments.line(at, head)) + _aligned(body_lines)
-            + _aligned([("end", "  ".join(end) if end else None)]))
+    return (_aligned(comments.line(at, head, continued=2 * INDENT)) + _aligned(body_lines)
+            + _aligned(comments.ended(at, "end", "end")))
 
 
 def _optional(keyword: str, text: Optional[str], comments: _Comments) -> list[str]:

@@ -281,3 +281,143 @@ def test_a_file_written_out_of_order_round_trips_to_the_same_json():
     first = mechanism_json.mechanism_dict(parse(with_title))
     assert first["comments"][0] == {"at": "", "place": "above", "text": "the title, written late"}
     assert mechanism_json.mechanism_dict(parse(to_text(parse(with_title)))) == first
+
+
+# A statement, a step's head and each kind of part written over several lines, a comment ending
+# each line. The writer prints each statement on one line unless comments end lines inside it.
+SPREAD = '''\
+title      # the title's keyword
+    "T"    # its text
+species water =  # a name
+    "[OH2:1]"    # and its SMILES
+step "s"  # the label
+    reversible  # the kind
+    over "x"    # the reagent
+    uses sodium =  # a spectator
+        "[Na+:2]"  # with its SMILES
+    :O1 ->  # the source
+        H(O1)  # the sink
+    O1-H(O1)  # a bond written with both ends named
+        -> O1
+    releases  # the keyword
+        Na2   # the atom
+    expect all  # a checkpoint
+        "O"     # its SMILES
+end
+product    # the product's keyword
+    all    # the whole state
+    "O"    # its SMILES
+# after the product
+'''
+
+SPREAD_ATTACHED = [
+    ("/title", "inline", "the title's keyword", 1), ("/title", "inline", "its text", None),
+    ("/species/water", "inline", "a name", 3), ("/species/water", "inline", "and its SMILES", None),
+    ("/steps/0", "inline", "the label", 2), ("/steps/0", "inline", "the kind", 3),
+    ("/steps/0", "inline", "the reagent", None),
+    ("/steps/0/uses/sodium", "inline", "a spectator", 3), ("/steps/0/uses/sodium", "inline", "with its SMILES", None),
+    ("/steps/0/moves/0", "inline", "the source", 3), ("/steps/0/moves/0", "inline", "the sink", None),
+    ("/steps/0/moves/1", "inline", "a bond written with both ends named", 3),
+    ("/steps/0/releases/0", "inline", "the keyword", 1), ("/steps/0/releases/0", "inline", "the atom", None),
+    ("/steps/0/expect/0", "inline", "a checkpoint", 2), ("/steps/0/expect/0", "inline", "its SMILES", None),
+    ("/product", "inline", "the product's keyword", 1), ("/product", "inline", "the whole state", 2),
+    ("/product", "inline", "its SMILES", None),
+    ("", "below", "after the product", None),
+]
+
+SPREAD_PRINTED = '''\
+title    # the title's keyword
+    "T"  # its text
+
+species water =  # a name
+    "[OH2:1]"    # and its SMILES
+
+step "s"            # the label
+        reversible  # the kind
+        over "x"    # the reagent
+    uses sodium =  # a spectator
+        "[Na+:2]"  # with its SMILES
+    :O1 ->         # the source
+        H(O1)      # the sink
+    O1-H           # a bond written with both ends named
+        -> O1
+    releases       # the keyword
+        Na2        # the atom
+    expect all     # a checkpoint
+        "O"        # its SMILES
+end
+
+product  # the product's keyword
+    all  # the whole state
+    "O"  # its SMILES
+
+# after the product
+'''
+
+
+def _attached_lines(mechanism) -> list[tuple]:
+    return [(c.at, c.place, c.text, c.break_after) for c in mechanism.comments]
+
+
+def test_comments_ending_the_lines_of_one_statement_each_keep_their_line():
+    # They ran into one on the way back ('# the source  # the sink' read as one comment).
+    mechanism = parse(SPREAD)
+    assert _attached_lines(mechanism) == SPREAD_ATTACHED
+    document = mechanism_json.document(mechanism)
+    jsonschema.Draft202012Validator(mechanism_json.schema()).validate(document)
+    printed = to_text(mechanism_json.loads(mechanism_json.dumps(mechanism)))
+    assert printed == SPREAD_PRINTED
+    assert _attached_lines(parse(printed)) == SPREAD_ATTACHED
+    assert mechanism_json.mechanism_dict(parse(printed)) == mechanism_json.mechanism_dict(mechanism)
+    assert _comments_written(printed) == _comments_written(SPREAD)
+
+
+def _every_space_a_line_end(text: str) -> str:
+    """The text with every run of blanks between two tokens a line end under a comment of its own
+    (`# cN`): each statement written one token a line."""
+    count = iter(range(1, 10 ** 6))
+    pieces = re.split(r'("[^"\n]*"|(?<![^\s])#[^\n]*)', text)
+    return "".join(piece if piece.startswith(('"', "#")) else
+                   re.sub(r"[ \t]+(?=\S)", lambda _: f"  # c{next(count)}\n    ", piece) for piece in pieces)
+
+
+@pytest.mark.parametrize("path", GALLERY, ids=[path.name for path in GALLERY])
+def test_a_gallery_file_written_one_token_a_line_round_trips_with_every_comment_on_its_line(path):
+    text = _every_space_a_line_end(path.read_text(encoding="utf-8"))
+    mechanism = parse(text, path.name)
+    assert mechanism == parse(path.read_text(encoding="utf-8"), path.name)   # guard: the same mechanism
+    printed = to_text(mechanism_json.loads(mechanism_json.dumps(mechanism), path.name))
+    assert _comments_written(printed) == _comments_written(text)   # none lost or joined, in their order
+    assert mechanism_json.mechanism_dict(parse(printed, path.name)) == mechanism_json.mechanism_dict(mechanism)
+
+
+def test_comments_on_and_after_the_product_come_back():
+    # Guard for the product line: its trailing comment and the lines after it.
+    text = ('species water = "[OH2:1]"\nstep "s"\n    :O1 -> H(O1)\nend\n'
+            'product "[OH2:1]"  # on the product\n# after it\n# and the last line\n')
+    attached = [("/product", "inline", "on the product"), ("", "below", "after it"), ("", "below", "and the last line")]
+    assert _attached(parse(text)) == attached
+    assert _attached(parse(to_text(mechanism_json.loads(mechanism_json.dumps(parse(text)))))) == attached
+
+
+@pytest.mark.parametrize("comments, says", [
+    ([{"at": "/steps/0/moves/0", "place": "inline", "text": "one"},
+      {"at": "/steps/0/moves/0", "place": "inline", "text": "two"}], "the same line as another"),
+    ([{"at": "/steps/0/moves/0", "place": "inline", "text": "one", "break_after": 2},
+      {"at": "/steps/0/moves/0", "place": "inline", "text": "two", "break_after": 2}], "the same line as another"),
+    ([{"at": "/steps/0/moves/0", "place": "inline", "text": "past the last token", "break_after": 7}],
+     "after token 7 of 4"),
+    ([{"at": "/steps/0", "place": "end", "text": "one"}, {"at": "/steps/0", "place": "end", "text": "two"}],
+     "the same line as another"),
+    ([{"at": "/steps/0", "place": "below", "text": "a whole line", "break_after": 1}], "only a comment at the end"),
+])
+def test_import_refuses_comments_that_would_run_into_one_line(comments, says):
+    document = mechanism_json.document(parse('species water = "[OH2:1]"\nstep "s"\n    :O1 -> H(O1)\nend\n'))
+    document["mechanism"]["comments"] = comments
+    text = json.dumps(document, indent=2)
+    with pytest.raises(MechanismError) as refused:
+        mechanism_json.loads(text, "c.json")
+    (diagnostic,) = refused.value.diagnostics
+    assert diagnostic.code == "AR100" and says in diagnostic.message
+    comments_line = next(i for i, line in enumerate(text.splitlines(), 1) if '"comments"' in line)
+    assert comments_line < diagnostic.loc.line
