@@ -2748,6 +2748,8 @@ class _LayoutBuilder:
             u = gap_facing(here[anchor], [here[n] for n in self.neighbours[anchor] if n in here and n != mover
                                           and (min(n, anchor), max(n, anchor)) in self.bonds_in[k]],
                            self.positions[segment[1]][giver])
+        elif kind == "bond" and (middle := self._beside_fed_hydrogen(anchor, mover, k)) is not None:
+            u = middle
         else:
             u = self._roomiest(anchor, k, hydrogen, also=self._bonds_while_waiting(anchor, mover, k, kind))
         # (with its partners held apart as this panel draws them: an acetal carbon held off the
@@ -2913,6 +2915,26 @@ class _LayoutBuilder:
                 if n != mover and n in before and n not in self.positions[k]
                 and (min(anchor, n), max(anchor, n)) in self.bonds_in[k - 1] & self.bonds_in[k]
                 and abs(before[n] - before[anchor]) > 1e-9]
+
+    def _beside_fed_hydrogen(self, anchor: int, mover: int, k: int) -> Optional[complex]:
+        """For a group that bonds, in the step into panel k, to an atom with two other bonds that
+        holds a hydrogen whose pair later goes into its bond to one of them (the electrophile on an
+        arenium ion's carbon, which then loses its proton): the middle of the atom's open gap. The
+        roomiest spot is the first of a flat plateau, at an edge of that gap (a pyrrole's bromine
+        stood in line with its N-C bond, and its hydrogen went beyond it, away from the ring bond
+        its pair goes into, that arrow across the N-C bond). From the middle, the hydrogen has
+        room between the group and that bond, and the arrow runs clear (common practice: the
+        proton lost stands on the side of the bond its pair goes into). None for any other bond,
+        and for a group the atom already had (an E2's leaving group, drawn anti to the proton)."""
+        here = self.positions[k]
+        if k == 0 or (min(anchor, mover), max(anchor, mover)) in self.bonds_in[k - 1]:
+            return None
+        if not any(holder == anchor and any(r.holder == anchor and r.first <= k <= r.last for r in runs)
+                   for h, holder in self.feeds for runs in (self.residences.get(h, ()),)):
+            return None
+        bonded = [here[n] for n in self.neighbours[anchor] if n != mover and n in here and self.element[n] != 1
+                  and (min(n, anchor), max(n, anchor)) in self.bonds_in[k]]
+        return free_direction(here[anchor], bonded) if len(bonded) == 2 else None
 
     def _crosses_to(self, anchor: int, mover: int, segment: tuple[int, int]) -> Optional[complex]:
         """Where, in the last panel of `segment`, stands the atom that `mover` bonds to in the step
