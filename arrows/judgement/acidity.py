@@ -124,23 +124,38 @@ TABLE: tuple[Acidity, ...] = (
     # either tautomer (1H or 2H), as acidic as a carboxylic acid.
     Acidity("a tetrazole N-H", "a tetrazolide", "[nX3;H1;$(n1nnnc1),$(n1nncn1)]", 4.9, "4.9", NOT_LISTED),
     # HOBt's O-H, 4.6 (aqueous; Carpino, J. Am. Chem. Soc. 1993, which gives HOAt 3.3; memory): a
-    # carboxylic acid's strength, so Et3N or the carboxylate of a coupling takes it. No other entry
-    # matches an O-H on a ring N.
+    # carboxylic acid's strength, so Et3N or the carboxylate of a coupling takes it. No general entry
+    # matches an O-H on a ring N: each additive below has its own.
     Acidity("HOBt's O-H", "a benzotriazol-1-olate (OBt-)", f"[OX2H1]{_N}1:{_N}:{_N}:c2:c:c:c:c:c:2:1", 4.6, "4.6",
             "Carpino 1993, aqueous (memory)"),
+    # HOAt's O-H, 3.3 (3.28 aqueous, Carpino 1993 beside HOBt's 4.60; memory): the ring N beside the
+    # fusion carbon that holds the N-OH (the 7-aza of benzotriazole's numbering, HATU's additive).
+    Acidity("HOAt's O-H", "a 7-azabenzotriazol-1-olate (OAt-)", f"[OX2H1]{_N}1:{_N}:{_N}:c2:c:c:c:n:c:2:1", 3.3,
+            "3.3", "Carpino 1993, aqueous (memory)"),
+    # N-Hydroxysuccinimide's O-H, 6.0 (aqueous, memory): an NHS ester's leaving group and the
+    # additive of carbodiimide couplings. Its ring carbons saturated, so sulfo-NHS (a sulfonate on
+    # C3) reads the same (an estimate); N-hydroxyphthalimide, whose value is not at hand, does not.
+    Acidity("NHS's O-H", "a 2,5-dioxopyrrolidin-1-olate (NHS-)", "[OX2H1][NX3]1[CX3](=O)[CX4][CX4][CX3]1=O", 6.0,
+            "6.0", "aqueous (memory)"),
     # A neutral azole's ring N-H (either tautomer), aqueous: benzotriazole 8.2, 1,2,3-triazole 9.3,
     # 1,2,4-triazole 10.3, pyrazole 14.2, imidazole 14.5, indole 16.2, pyrrole 17.5 (Joule & Mills,
     # Heterocyclic Chemistry; indole's and pyrrole's from Yagil's aqueous measurements; memory). In
     # DMSO indole is 21.0 and pyrrole 23.0 (Bordwell's table, memory): the table's scale is water's.
-    # Each N-H's ring is neutral (an azolium is read above) with its carbons in no other ring, save
-    # benzotriazole's and indole's benzo ring: a benzimidazole (~12.8), indazole, purine (~8.9) or
-    # carbazole, whose fused ring shifts the value, stays unjudged (memory).
+    # Benzo-fused, benzimidazole 12.8 and indazole 13.9 (aqueous; Joule & Mills; memory), either of
+    # indazole's tautomers. Each N-H's ring is neutral (an azolium is read above) with its carbons
+    # in no other ring, save the benzo ring of benzotriazole, benzimidazole, indazole and indole: a
+    # purine (~8.9), an azaindole or a carbazole, whose value is not at hand for each of its forms,
+    # stays unjudged, as does a ring with a C=O (benzimidazol-2-one: a cyclic urea's N-H).
     Acidity("a benzotriazole N-H", "a benzotriazolide",
             f"[nX3;H1;+0;$(n1:{_N}:{_N}:c2:c:c:c:c:c:2:1),$(n1:{_N}:c2:c:c:c:c:c:2:{_N}:1)]", 8.2, "8.2", NOT_LISTED),
     Acidity("a 1,2,3-triazole N-H", "a 1,2,3-triazolide",
             f"[nX3;H1;+0;$(n1:{_N}:{_N}:{_C}:{_C}:1),$(n1:{_N}:{_C}:{_C}:{_N}:1)]", 9.3, "9.3", NOT_LISTED),
     Acidity("a 1,2,4-triazole N-H", "a 1,2,4-triazolide",
             f"[nX3;H1;+0;$(n1:{_N}:{_C}:{_N}:{_C}:1),$(n1:{_C}:{_N}:{_N}:{_C}:1)]", 10.3, "10.3", NOT_LISTED),
+    Acidity("a benzimidazole N-H", "a benzimidazolide", f"[nX3;H1;+0;$(n1:{_C}:{_N}:c2:c:c:c:c:c:2:1)]", 12.8, "12.8",
+            NOT_LISTED),
+    Acidity("an indazole N-H", "an indazolide",
+            f"[nX3;H1;+0;$(n1:{_N}:{_C}:c2:c:c:c:c:c:2:1),$(n1:{_N}:c2:c:c:c:c:c:2:{_C}:1)]", 13.9, "13.9", NOT_LISTED),
     Acidity("a pyrazole N-H", "a pyrazolide", f"[nX3;H1;+0;$(n1:{_N}:{_C}:{_C}:{_C}:1)]", 14.2, "14.2", NOT_LISTED),
     Acidity("an imidazole N-H", "an imidazolide", f"[nX3;H1;+0;$(n1:{_C}:{_N}:{_C}:{_C}:1)]", 14.5, "14.5",
             NOT_LISTED),
