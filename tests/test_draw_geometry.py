@@ -2105,14 +2105,20 @@ product "CC(=O)C1CCCCC1(C)[O-]"
 @pytest.mark.parametrize("style", ["two-column", "one-column"])
 @pytest.mark.parametrize("text,product,holder,ring", [
     (TEXTBOOK["thorpe-ziegler"][0], TEXTBOOK["thorpe-ziegler"][1], 3, (3, 4, 5, 6, 7, 8)),
-    (_NONANEDIONE_ALDOL, "CC(=O)C1CCCCC1(C)[O-]", 3, (3, 4, 5, 6, 7, 8))], ids=["thorpe-ziegler", "nonanedione-aldol"])
+    (_NONANEDIONE_ALDOL, "CC(=O)C1CCCCC1(C)[O-]", 3, (3, 4, 5, 6, 7, 8)),
+    (TEXTBOOK["dieckmann"][0], TEXTBOOK["dieckmann"][1], 4, (4, 5, 6, 7, 8))],
+    ids=["thorpe-ziegler", "nonanedione-aldol", "dieckmann"])
 def test_a_chain_curled_into_its_coming_ring_shows_the_base_its_hydrogen_outside(text, product, holder, ring, style):
     """Panel 1 of the Thorpe-Ziegler cyclisation (textbook corpus) and of the intramolecular
     aldol of nonane-2,8-dione: the chain is drawn curled into the six-membered ring it will close
     (RDKit finds that ring in the product), and the hydrogen the base takes from the ring-to-be
     carbon stands outside that outline, as on a ring atom, so the base's arrow reaches it without
     crossing the chain (common practice). Before, the hydrogen pointed into the curl and the
-    arrow crossed C4-C5 in both styles."""
+    arrow crossed C4-C5 in both styles. The Dieckmann condensation (textbook corpus) curls its
+    chain into the five-membered ring of the keto ester, and C4 holds two hydrogens the mechanism
+    moves: the one taken second (step 4) is not drawn in panel 1, yet its spot, the only one out
+    of the curl, was kept from the first; that H pointed into the curl and the ethoxide's arrow
+    crossed C5-C6."""
     trace, _, scene = _scene(text, "curled.mech", style)
     index = {atom.GetAtomMapNum(): atom.GetIdx() for atom in trace.initial.mol.GetAtoms() if atom.GetAtomMapNum()}
     closed = Chem.MolFromSmiles(product)   # (held: the ring info dies with a temporary Mol)

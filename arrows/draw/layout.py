@@ -2414,7 +2414,8 @@ class _LayoutBuilder:
         taken = np.array([unit(p - centre) for p in self._occupied_around(atom, k, hydrogen)
                           if abs(p - centre) > 1e-9] + list(also), dtype=complex)
         limit = reach + 1.3
-        near = np.array([p for a, p in here.items() if abs(p - centre) < limit and a != atom], dtype=complex)
+        near = np.array([p for a, p in here.items() if abs(p - centre) < limit and a != atom
+                         and not self._one_seen(a, hydrogen, atom, k)], dtype=complex)
         bonded = [unit(here[n] - centre) for n in self.neighbours[atom] if n in here and self.element[n] != 1]
         if prefer is not None and any(abs(cmath.phase(prefer / unit(here[n] - centre))) < _BEHIND_A_BOND
                                       for n in self.neighbours[atom] if n in here
@@ -2452,8 +2453,8 @@ class _LayoutBuilder:
         if curled:
             # A hydrogen also keeps out of a ring still to close, wherever a spot out of it that
             # its bond's pair leaves open has room for its label (_untangled asks the same).
-            others = np.array([p for a, p in here.items() if abs(p - centre) < limit and a not in (atom, hydrogen)],
-                              dtype=complex)
+            others = np.array([p for a, p in here.items() if abs(p - centre) < limit and a not in (atom, hydrogen)
+                               and not self._one_seen(a, hydrogen, atom, k)], dtype=complex)
             room = (np.minimum.reduce(np.abs(spots[:, None] - others), axis=1) if len(others)
                     else np.full(len(_COMPASS), math.inf))
             out = [not fed and space >= _ROOM_OUT_OF_CURL
@@ -2691,8 +2692,10 @@ class _LayoutBuilder:
         """Positions around `atom` in panel k that a new neighbour must avoid: its union
         neighbours, atoms closer than 1.1 bond lengths, and directions promised to hydrogens."""
         centre = self.positions[k][atom]
-        around = [self.positions[k][n] for n in self.neighbours[atom] if n in self.positions[k]]
-        around += [p for a, p in self.positions[k].items() if a != atom and 1e-6 < abs(p - centre) < 1.1]
+        around = [self.positions[k][n] for n in self.neighbours[atom] if n in self.positions[k]
+                  and not self._one_seen(n, hydrogen, atom, k)]
+        around += [p for a, p in self.positions[k].items() if a != atom and 1e-6 < abs(p - centre) < 1.1
+                   and not self._one_seen(a, hydrogen, atom, k)]
         for runs in self.residences.values():
             for r in runs:
                 if r.holder == atom and r.direction is not None and r.hydrogen != hydrogen:
@@ -4138,17 +4141,20 @@ class _LayoutBuilder:
                    and self.positions[panels[0] - 1].get(holder) == centre
                    and self.positions[panels[0] - 1].get(partner) == here[partner]):
                 panels.insert(0, panels[0] - 1)
+            # Only the panels that draw it hold it off atoms and bonds (its holder's other
+            # hydrogen, taken steps before, stands where it stands while it is hidden).
+            seen = [p for p in panels if self._drawn_in(h, p)] or panels
             bonded = [n for n in self.neighbours[holder]
                       if n != h and n in here and (min(n, holder), max(n, holder)) in self.bonds_in[k]]
-            bonds = [(self.positions[p][i], self.positions[p][j]) for p in panels for i, j in self.bonds_in[p]
+            bonds = [(self.positions[p][i], self.positions[p][j]) for p in seen for i, j in self.bonds_in[p]
                      if h not in (i, j) and holder not in (i, j) and i in self.positions[p] and j in self.positions[p]]
             own = [unit(here[n] - centre) for n in bonded]
             if near:
-                others = [q for p in panels for a, q in self.positions[p].items() if a not in (h, holder)]
+                others = [q for p in seen for a, q in self.positions[p].items() if a not in (h, holder)]
                 turns = [start * cmath.rect(1.0, math.radians(degrees)) for degrees in (15, -15, 30, -30, 45, -45, 60, -60)]
             else:
                 # (the holder's own partners are kept off by the angle to its bonds)
-                others = [q for p in panels for a, q in self.positions[p].items() if a not in (h, holder, *bonded)]
+                others = [q for p in seen for a, q in self.positions[p].items() if a not in (h, holder, *bonded)]
                 turns = self._facing_taker(h, partner, centre, own, abs(here[h] - here[partner]), others, k)
             for d in turns:
                 spot = centre + d
@@ -4263,7 +4269,8 @@ class _LayoutBuilder:
             centre = self.positions[k][r.holder]
             for a, p in self.positions[k].items():
                 if abs(p - centre) < within and a not in (r.hydrogen, r.holder) \
-                        and (self._drawn_in(a, k) or self.cluster_of.get(self._holder(k, a)) == own):
+                        and (self._drawn_in(a, k) or self.cluster_of.get(self._holder(k, a)) == own) \
+                        and not self._one_seen(a, r.hydrogen, r.holder, k):
                     nearby.add(p - centre)
         relative = np.array(list(nearby), dtype=complex)
         following = runs[n + 1] if n + 1 < len(runs) else None
@@ -4426,6 +4433,15 @@ class _LayoutBuilder:
         it (elsewhere it is one of its holder's implicit hydrogens, and takes no room of its own)."""
         return (atom not in self.drawn_h or atom in self.labelled_h or atom in self.touched[k]
                 or (k > 0 and atom in self.touched[k - 1]))
+
+    def _one_seen(self, a: int, b: int, holder: int, k: int) -> bool:
+        """Whether `a` and `b` are two hydrogens on the carbon `holder` in panel k of which it draws
+        at most one: they may share a spot, only one being seen (a CH2 whose protons are taken
+        steps apart: the one taken first takes the side facing its base, the other is drawn
+        later). Not on a heteroatom: its label writes the hidden one, on a side of its own."""
+        return (a != b and self.element.get(holder) == 6 and self.element.get(a) == 1 and self.element.get(b) == 1
+                and self._holder(k, a) == holder and self._holder(k, b) == holder
+                and not (self._drawn_in(a, k) and self._drawn_in(b, k)))
 
     def _hydrogen_direction(self, h: int, runs: list[_Residence], n: int) -> complex:
         """Toward the partner the hydrogen goes to next (or came from), if that side is free."""
