@@ -3270,3 +3270,20 @@ def test_a_proton_drawn_again_after_panels_that_hide_it_is_placed_for_each_stret
     labelled = [a for a in panel.atoms if a.box is not None]
     for a, b in combinations(labelled, 2):
         assert not a.box.overlaps(b.box), (a.name, b.name)
+
+
+@pytest.mark.parametrize("style", ["two-column", "slide"])
+@pytest.mark.parametrize("name,panel,move", [("polonovski", 0, ":O2 -> C4"), ("dmap acetylation", 2, ":O11 -> C2"),
+                                             ("imidazole acyl transfer", 3, ":O11 -> C2")])
+def test_a_nucleophile_comes_into_a_carbonyl_carbon_from_the_open_side(name, panel, move, style):
+    """A nucleophile's arrow into a carbonyl carbon comes in from the open side, crossing no bond
+    (common practice; its line near the Burgi-Dunitz approach to the C=O, Burgi and Dunitz 1973,
+    from memory): not through the carbon's own C=O (Polonovski: the N-oxide reached the anhydride
+    carbon under the C=O's second stroke, the planner weighing a bond of the atom it names as
+    lightly as its own), nor over the acetate or acetic acid that has just left that carbon
+    (DMAP and imidazole acyl transfer: the alcohol waited behind the group, on the line of its
+    coming bond). Each crossed a bond before."""
+    text = TEXTBOOK[name][0]
+    _, _, scene = _scene(text, name, style)
+    assert any(a.move == move for a in scene.panels[panel].arrows)
+    assert [c for c in _bonds_crossed(scene) if c[:2] == (panel, move)] == []

@@ -775,6 +775,7 @@ class ArrowPlanner:
                     bond = arrow_obs[k].bond_index.get(tuple(sorted(anchor.atoms)))
                     if bond is not None:
                         crossing[k, bond] = 0.0
+        _weigh_crossings_into_atom(crossing, moves, sinks, arrow_obs)
         weights = np.concatenate([np.where(own_labelled, 40.0, 100.0), np.where(mine, 0.0, 30.0),
                                   np.where(own_bare, 10.0, 30.0), crossing], axis=1)
         # The bonds' centre lines (each panel's padded to the most bonds of any panel) and then
@@ -1142,6 +1143,21 @@ def _curve_crosses(c: _Candidate, segments: list[tuple[complex, complex]]) -> bo
 def to_own_atom(move: ResolvedMove) -> bool:
     """Electrons going from a bond to one of that bond's own atoms."""
     return move.source_kind == "bond" and len(move.sink_atoms) == 1 and move.sink_atoms[0] in move.source_atoms
+
+
+def _weigh_crossings_into_atom(crossing: np.ndarray, moves: list[ResolvedMove], sinks: list[_Anchor],
+                               obstacles: list[_Obstacles]) -> None:
+    """An arrow into an atom (a nucleophile into a carbonyl carbon) that crosses one of that atom's
+    other bonds on its way in reads as attacking through the bond (common practice: it comes in
+    from the open side): such a bond weighs as another molecule's would, not as a bond of an atom
+    the move names. (Row k of `crossing` is arrow k's weight per bond of its panel.)"""
+    for k, (move, sink) in enumerate(zip(moves, sinks)):
+        if sink.kind != "atom" or to_own_atom(move):
+            continue
+        atom, named = sink.atoms[0], set(move.source_atoms)
+        for (i, j), bond in obstacles[k].bond_index.items():
+            if atom in (i, j) and not ({i, j} - {atom}) <= named:
+                crossing[k, bond] = 18.0
 
 
 def _is_split(move: ResolvedMove) -> bool:

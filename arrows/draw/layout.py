@@ -94,6 +94,7 @@ _SIXTY = math.radians(60)
 # 90-degree gap it stands 0.7-0.8 bond lengths from them).
 _FACING_OFF_A_BOND = math.radians(40)
 _RING_ANGLE_SLACK = math.radians(30)   # a ring angle further than this from the regular polygon's reads as squeezed
+_STANDING_BY_REACH = 2.1   # bond lengths: a molecule this near an atom in the panel before its new bond takes room
 _BACKSIDE_ROOM = math.radians(55)   # a nucleophile's line of approach from the centre's other bonds
 # Ways to place a cluster next to its partner, in order of preference: (penalty, turn of the
 # approach line in 20-degree steps, spin of the cluster in 30-degree steps, extra distance). A
@@ -2754,7 +2755,8 @@ class _LayoutBuilder:
         elif kind == "bond" and (middle := self._beside_fed_hydrogen(anchor, mover, k)) is not None:
             u = middle
         else:
-            u = self._roomiest(anchor, k, hydrogen, also=self._bonds_while_waiting(anchor, mover, k, kind))
+            u = self._roomiest(anchor, k, hydrogen, also=self._bonds_while_waiting(anchor, mover, k, kind)
+                                                      + self._left_standing_by(anchor, mover, k, kind, cluster.atoms))
         # (with its partners held apart as this panel draws them: an acetal carbon held off the
         # diol it closes a ring with, placed a bond length from the methoxy that leaves it, came
         # out that opening's length further off, its bond drawn 2.38 bond lengths long)
@@ -2938,6 +2940,25 @@ class _LayoutBuilder:
         bonded = [here[n] for n in self.neighbours[anchor] if n != mover and n in here and self.element[n] != 1
                   and (min(n, anchor), max(n, anchor)) in self.bonds_in[k]]
         return free_direction(here[anchor], bonded) if len(bonded) == 2 else None
+
+    def _left_standing_by(self, anchor: int, mover: int, k: int, kind: str, mine: Iterable[int]) -> list[complex]:
+        """For a bond that forms anew in the step into panel k, the directions in panel k-1 of the atoms
+        of a molecule that has let go of `anchor` in an earlier step and stands within
+        _STANDING_BY_REACH of it there, and that panel k no longer draws (the acetate an
+        acylpyridinium let go, kept where it left): the
+        mover waits in panel k-1 along the line it comes in on, and on their side it would wait
+        behind them, its arrow running over their bonds (common practice: a nucleophile comes in
+        from the open side)."""
+        if (kind != "bond" or k == 0 or anchor not in self.positions[k - 1]
+                or (min(anchor, mover), max(anchor, mover)) in self.bonds_in[k - 1]):
+            return []   # (a bond already there, its order changing, keeps its place)
+        before, after, mine = self.positions[k - 1], self.positions[k], set(mine)
+        centre = before[anchor]
+        # (only a group that has left `anchor` itself: the departed leaving group)
+        left = {a for j in range(k - 1) for pair in self.bonds_in[j] if anchor in pair for a in pair} - {anchor}
+        gone = set().union(*(m for m in self.molecules[k - 1] if left & set(m) and anchor not in m))
+        return [unit(p - centre) for a, p in before.items()
+                if a in gone and a not in after and a not in mine and 1e-9 < abs(p - centre) < _STANDING_BY_REACH]
 
     def _crosses_to(self, anchor: int, mover: int, segment: tuple[int, int]) -> Optional[complex]:
         """Where, in the last panel of `segment`, stands the atom that `mover` bonds to in the step
