@@ -222,6 +222,14 @@ TABLE: tuple[Acidity, ...] = (
     Acidity("a thioester alpha C-H", "a thioester enolate", "[CX4;!H0][CX3](=O)[SX2][#6]", 21, "~21",
             "Amyes & Richard (memory)"),
     Acidity("an amide alpha C-H", "an amide enolate", "[CX4;!H0][CX3](=O)[NX3]", 30, "~30", NOT_LISTED),
+    # A C-H beside the carbon of a neutral C=N (an imine, oxime or hydrazone; its iminium ion's is
+    # left out): its aza-enolate takes LDA where a ketone's enolate takes an alkoxide (Stork's
+    # metalloenamines, Corey-Enders hydrazone anions; common practice, memory), so no more acidic
+    # than a ketone's alpha C-H. The ketone's 19-20 is a lower bound for it: a base that is far too
+    # weak for a ketone (water, chloride taking a hydrazone's C-H before the Fischer [3,3]) is
+    # far too weak here.
+    Acidity("an imine alpha C-H", "an aza-enolate", "[CX4;!H0][CX3]=[NX2]", 20, "~20",
+            "common practice: less acidic than a ketone's alpha C-H (19-20, textbook; memory)"),
     # A carboxylate ion's alpha C-H, ~33 (acetate ion, 33.5; Richard, Williams, O'Donoghue & Amyes;
     # memory): its enolate is a dianion. Mandelate's is ~29 (Gerlt & Gassman; memory): a benzylic one
     # is read as ~33 too, not as a bare benzylic C-H (41-43), so this entry comes before that one. Not
