@@ -26,11 +26,12 @@ except in the steps whose stereochemical course is a textbook rule:
   under light the reverse (Woodward & Hoffmann 1965, 1969; Clayden ch. 35; from memory). The
   two outside groups (trans to the chain) end up cis in the ring after a disrotatory closure,
   trans after a conrotatory one;
-- a thermal [3,3] shift (Cope, Claisen) along an open chain of C, N and O goes through a chair, in
-  which a group on a breaking-bond carbon stands equatorial (its new double bond E) or axial (Z)
-  and a terminus's group trans to the chain equatorial (Doering & Roth 1962; Clayden; from
-  memory): when the chair and its ring flip give one product from the configuration written, the
-  new double bonds and centres get it, read off RDKit 3D models of the chairs.
+- a thermal [3,3] shift (Cope, Claisen, thio-Claisen) along an open chain of C, N, O and divalent
+  sulfur goes through a chair, in which a group on a breaking-bond carbon stands equatorial (its
+  new double bond E) or axial (Z) and a terminus's group trans to the chain equatorial (Doering &
+  Roth 1962; Clayden; from memory; the thio-Claisen takes the Claisen's chair, common practice):
+  when the chair and its ring flip give one product from the configuration written, the new
+  double bonds and centres get it, read off RDKit 3D models of the chairs.
 """
 from __future__ import annotations
 
@@ -379,6 +380,7 @@ def _set_electrocyclic_configuration(before: Chem.Mol, after: Chem.RWMol, chain:
 # --- a [3,3] shift through a chair ------------------------------------------------------------------
 
 _ARRAY_ELEMENTS = frozenset({6, 7, 8})
+_SULFUR = 16
 _UNREAD = object()   # a configuration RDKit could not read off a model
 _RADIUS, _PUCKER, _REACH = 1.45, 0.25, 1.1   # an ideal cyclohexane chair, in angstroms
 _CHAIR = "chair"   # atom property: the atom's configuration was set by a [3,3] shift's chair
@@ -409,9 +411,9 @@ def step_changes(change) -> dict[Pair, tuple[int, int]]:
 
 def three_three_array(mol: Chem.Mol, changes: dict[Pair, tuple[int, int]]) -> Optional[list[int]]:
     """The six atoms a1..a6 of a [3,3] shift (a1=a2 and a5=a6 made single, a2=a3 and a4=a5 double,
-    a3-a4 broken, a1-a6 made, no other bond changed) of first-row atoms C, N, O outside any ring of
-    `mol` (the state before), else None. `changes` as carry_configuration takes them; whether the
-    step is thermal is the caller's to say."""
+    a3-a4 broken, a1-a6 made, no other bond changed) of C, N, O and divalent sulfur (_array_atom)
+    outside any ring of `mol` (the state before), else None. `changes` as carry_configuration takes
+    them; whether the step is thermal is the caller's to say."""
     if len(changes) != 6:
         return None
     made = [key for key, electrons in changes.items() if electrons == (0, 2)]
@@ -429,13 +431,23 @@ def three_three_array(mol: Chem.Mol, changes: dict[Pair, tuple[int, int]]) -> Op
             break
     else:
         return None
-    if len(set(chain)) != 6 or any(mol.GetAtomWithIdx(i).GetAtomicNum() not in _ARRAY_ELEMENTS for i in chain):
+    if len(set(chain)) != 6 or not all(_array_atom(mol, i, chain) for i in chain):
         return None
     rings = Chem.Mol(mol)
     Chem.FastFindRings(rings)
     if any(rings.GetAtomWithIdx(i).IsInRing() for i in chain):
         return None   # a ring can force a boat (a cis-divinylcyclopropane, a bridged system)
     return chain
+
+
+def _array_atom(mol: Chem.Mol, atom: int, chain: list[int]) -> bool:
+    """Whether `atom` may stand in a judged chair: C, N or O; or a sulfur bonded to nothing off the
+    array, uncharged (a thioether's of a thio-Claisen, a thione's at a terminus). A sulfonium or
+    sulfoxide sulfur holds a configuration and a lone pair of its own that the chair does not place."""
+    found = mol.GetAtomWithIdx(atom)
+    if found.GetAtomicNum() == _SULFUR:
+        return found.GetFormalCharge() == 0 and found.GetTotalNumHs() == 0 and not _groups(mol, atom, chain)
+    return found.GetAtomicNum() in _ARRAY_ELEMENTS
 
 
 def _set_chair_configuration(after: Chem.RWMol, chair: ChairModel) -> bool:

@@ -938,7 +938,8 @@ CODES = _table(
          "bond E) or axial (Z), and a terminus's group trans to the chain equatorial, so "
          "meso-3,4-dimethylhexa-1,5-diene gives (E,Z)-octa-2,6-diene and the (3R*,4R*) diene (E,E) or "
          "(Z,Z) (Doering & Roth 1962; from memory). Positions written without configuration may take "
-         "either place. Only arrays of C, N and O outside any ring are judged: a ring can force a boat.",
+         "either place. Only arrays of C, N, O and divalent sulfur (a thio-Claisen's) outside any ring "
+         "are judged: a ring can force a boat.",
          'species diene = "[CH2:1]=[CH:2][C@@H:3](C)[C@@H:4](C)[CH:5]=[CH2:6]"   # meso\n'
          'step "[3,3] shift" over "heat"\n'
          '    C1=C2 -> C1-C6\n'

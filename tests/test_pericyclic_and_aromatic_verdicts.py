@@ -503,3 +503,119 @@ def test_a_checkpoint_the_replayed_chair_rules_out_is_the_chairs_to_name():
     assert [d.code for d in diags if d.severity != "note"] == ["AR605"], [d.to_text() for d in diags]
     right = body.replace("\nend\n", f'\n    expect "{_EZ}"\nend\n')
     assert [d.code for d in check_text(right, "t.mech")[1] if d.severity != "note"] == []
+
+
+# --- The thio-Claisen: a sulfur in the chair -----------------------------------------------------------
+
+# The thio-Claisen rearrangement (an allyl vinyl sulfide to a gamma,delta-unsaturated thiocarbonyl; an
+# S-allyl ketene N,S-acetal to a thioamide) goes through the Claisen's chair: the same rule fixes its
+# new double bond and centres (common practice; from memory). So the (E)-propenyl (E)-crotyl sulfide
+# gives the threo thioaldehyde as the (E,E)-ether gives the threo aldehyde above, and the ketene
+# N,S-acetal with its methyl trans to sulfur (as the (E)-propenyl ether's is to oxygen) the threo
+# thioamide; the dimethylamino group on C2 points out of the ring in either chair.
+_THIO_CLAISEN = _CLAISEN.replace("O3-C4 -> C2=O3", "S3-C4 -> C2=S3")
+_SULFIDE_EE = _ETHER_EE.replace("[O:3]", "[S:3]")
+_SULFIDE_EZ = _ETHER_EZ.replace("[O:3]", "[S:3]")
+_AMINAL_EE = _ETHER_EE.replace("[CH:2]/[O:3]", "[C:2](N(C)C)/[S:3]")
+_THIO_THREO, _THIO_ERYTHRO = _THREO.replace("O=C", "S=C"), _ERYTHRO.replace("O=C", "S=C")
+_THIOAMIDE_THREO, _THIOAMIDE_ERYTHRO = _THREO.replace("O=C", "S=C(N(C)C)"), _ERYTHRO.replace("O=C", "S=C(N(C)C)")
+
+THIO_CLAISEN_SHIFTS = {
+    "(E,E)-sulfide to threo": (_SULFIDE_EE, _THIO_THREO, False),
+    "(E,E)-sulfide to erythro": (_SULFIDE_EE, _THIO_ERYTHRO, True),
+    "(E,Z)-sulfide to erythro": (_SULFIDE_EZ, _THIO_ERYTHRO, False),
+    "(E,Z)-sulfide to threo": (_SULFIDE_EZ, _THIO_THREO, True),
+    "ketene N,S-acetal to threo thioamide": (_AMINAL_EE, _THIOAMIDE_THREO, False),
+    "ketene N,S-acetal to erythro thioamide": (_AMINAL_EE, _THIOAMIDE_ERYTHRO, True),
+}
+
+
+@pytest.mark.parametrize("name", list(THIO_CLAISEN_SHIFTS))
+def test_a_thio_claisen_product_is_judged_against_the_chair(name):
+    """The thio-Claisen's product written with the configuration the Claisen's chair gives checks
+    clean; its diastereomer draws AR605 alone. Before, the array was judged only for C, N and O:
+    every one passed with "4 stereoisomers can form"."""
+    start, product, flagged = THIO_CLAISEN_SHIFTS[name]
+    _, diags = check_text(_THIO_CLAISEN.format(diene=start, product=product), "t.mech")
+    assert [d.code for d in diags if d.severity != "note"] == (["AR605"] if flagged else []), \
+        [d.to_text() for d in diags]
+
+
+def test_the_thio_claisen_chair_sets_the_product_and_names_sulfur_in_the_array():
+    """Both chairs of the (E,E)-sulfide give the threo thioaldehyde (as a racemate: nothing chiral
+    goes in), so the replay sets it (RDKit's canonical SMILES, up to the mirror image), and the
+    warning on the erythro names the array through S3."""
+    text = _THIO_CLAISEN.format(diene=_SULFIDE_EE, product=_THIO_ERYTHRO)
+    result = check_line("t.jsonl", 1, json.dumps({"id": "shift", "text": text}).encode(), with_states=True)
+    assert Chem.MolToSmiles(Chem.MolFromSmiles(result["states"][1])) in _racemate(_THIO_THREO), result["states"]
+    (d,) = [d for d in check_text(text, "t.mech")[1] if d.code == "AR605"]
+    assert "(C1-C2-S3-C4-C5-C6)" in d.message and d.message.endswith("(as the racemate)"), d.to_text()
+
+
+# Chirality transfer: the vinyl sulfide of (E)-pent-3-ene-2-thiol, its C4 configured. In the chair the
+# methyl on C4 stands equatorial (the new C4=C5 double bond E) and the (E) terminus's methyl on C6 too
+# (brief rule above, common practice; from memory). Two equatorial groups on ring atoms 1,3 apart
+# are cis (cyclohexane conformations, textbook), so the configuration C6 gets is read off the ring the
+# chair closes (S3, C4, C5, C6, C1, C2, each bond single) with the two methyls cis, written with
+# C4's and C6's neighbours in the order the sulfide and the product write them; cis is told by RDKit:
+# cis-1,3-dimethylcyclohexane (the ring with CH2 for S) is meso, its SMILES its mirror image's.
+_CHIRAL_SULFIDE = "[CH2:1]=[CH:2][S:3][C@@H:4]([CH3:9])/[CH:5]=[CH:6]/[CH3:8]"
+_CHAIR_RING = "[S:3]1[C@@H:4]([CH3:9])[CH2:5][C{tag}H:6]([CH3:8])[CH2:1][CH2:2]1"
+_TRANSFERRED = "[CH3:9]/[CH:4]=[CH:5]/[C{tag}H:6]([CH3:8])[CH2:1][CH:2]=[S:3]"
+
+
+def _cis_tag() -> str:
+    """The tag of C6 that puts its methyl cis to C4's on _CHAIR_RING, told by RDKit (see above)."""
+    def meso(tag: str) -> bool:
+        ring = re.sub(r":\d+\]", "]", _CHAIR_RING.format(tag=tag).replace("[S:3]", "[CH2:3]"))
+        return len(_racemate(ring)) == 1
+    (tag,) = [tag for tag in ("@", "@@") if meso(tag)]
+    return tag
+
+
+def test_a_thio_claisen_transfers_chirality_through_the_chair():
+    """The chiral sulfide above: the (E) product with C6 as the chair ring gives it checks clean,
+    and the end count's two stereoisomers (of the 4 RDKit's EnumerateStereoisomers gives) hold it;
+    its twin with C6 the other way, the (E) alkene no chair gives with that centre, draws AR605.
+    Before, sulfur was not judged; and for the oxygen analogue, the new centre unset made the state
+    after the shift achiral, so the twin passed as "the racemate" though each chair gives one
+    enantiomer."""
+    cis = _cis_tag()
+    right, twin = (_TRANSFERRED.format(tag=tag) for tag in (cis, "@" if cis == "@@" else "@@"))
+    template = _THIO_CLAISEN.replace("species ether", "species sulfide")
+    _, diags = check_text(template.format(diene=_CHIRAL_SULFIDE, product=right), "t.mech")
+    assert [d.code for d in diags if d.severity != "note"] == [], [d.to_text() for d in diags]
+    note = _end_count(template.format(diene=_CHIRAL_SULFIDE, product=right))
+    every = _every_stereoisomer("CC=CC(C)CC=S")
+    assert len(every) == 4 and note.startswith("a chair [3,3] shift (step 1) allows 2 of the 4 stereoisomers"), note
+    named = set(note.split("): ")[1].split(" and "))
+    plain = Chem.MolToSmiles(Chem.MolFromSmiles(re.sub(r":\d+\]", "]", right)))
+    assert plain in named and named < every, (plain, named)
+    _, diags = check_text(template.format(diene=_CHIRAL_SULFIDE, product=twin), "t.mech")
+    warned = [d for d in diags if d.severity != "note"]
+    assert [d.code for d in warned] == ["AR605"] and "as the racemate" not in warned[0].message, \
+        [d.to_text() for d in diags]
+
+
+def test_the_claisen_twin_of_a_chirality_transfer_warns_too():
+    """The oxygen analogue (the Claisen, the same chair): the twin with C6 the other way draws AR605
+    after a later step that leaves C4, C5 and C6 alone (a hydride reducing the aldehyde); the chair's
+    product does not."""
+    cis = _cis_tag()
+    ether = _CHIRAL_SULFIDE.replace("[S:3]", "[O:3]")
+    for tag, warned in ((cis, []), ("@" if cis == "@@" else "@@", ["AR605"])):
+        alkoxide = _TRANSFERRED.format(tag=tag).replace("[CH:2]=[S:3]", "[CH2:2][O-:3]")
+        text = (f'species ether = "{ether}"\nstep "[3,3] shift" over "heat"\n    C1=C2 -> C1-C6\n'
+                '    O3-C4 -> C2=O3\n    C5=C6 -> C4=C5\nend\n'
+                'step "hydride transfer"\n    uses hydride = "[AlH4-:10]"\n    Al10-H -> C2-H(Al10)\n    C2=O3 -> O3\nend\n'
+                f'product "{alkoxide}"\n')
+        _, diags = check_text(text, "t.mech")
+        assert [d.code for d in diags if d.severity != "note"] == warned, [d.to_text() for d in diags]
+
+
+def test_a_sulfonium_array_is_not_judged():
+    """Guard: a sulfonium sulfur (a charge-accelerated shift) holds a configuration and a lone pair
+    of its own that the chair does not place: only a sulfur bonded to nothing off the array,
+    uncharged, stands in a judged chair. Its erythro product, AR605's were it judged, passes."""
+    sulfonium = _SULFIDE_EE.replace("[S:3]", "[S+:3](C)")
+    assert "AR605" not in codes(_THIO_CLAISEN.format(diene=sulfonium, product="C" + _THIO_ERYTHRO.replace("S=", "[S+]=")))

@@ -7,8 +7,10 @@ and a terminus's group trans to the chain pseudo-equatorial: the two chairs (one
 the other) fix the new double bonds and the new centres from the configuration written in the
 starting material. A position written without configuration may take either place.
 
-Judged: three arrows, bond to bond, round six atoms of C, N and O none of which is in a ring
-(acyclic 1,5-dienes, allyl vinyl ethers, their aza forms). A ring on the array can force a boat (a
+Judged: three arrows, bond to bond, round six atoms of C, N, O and uncharged sulfur bonded to
+nothing off the array, none of which is in a ring (acyclic 1,5-dienes, allyl vinyl ethers, their
+aza forms, allyl vinyl sulfides and S-allyl ketene N,S-acetals: the thio-Claisen takes the Claisen's
+chair, common practice, from memory). A ring on the array can force a boat (a
 cis-divinylcyclopropane, bridged systems): not judged. The chair outcomes are carried to later
 checkpoints and the product while no later step touches their atoms; a configuration AR603 already
 finds wrong is AR603's alone. The chair model is configuration.py's, built once by the replay and
@@ -30,7 +32,7 @@ from ..model import Checkpoint
 from ..trace import StepTrace
 from . import Check, Ending
 from .pericyclic import photochemical
-from .written_stereo import ChiralityWatch, compared_pieces, mismatches
+from .written_stereo import ChiralityWatch, compared_pieces, holds_chirality, mismatches
 
 
 def _chair_model(st: StepTrace) -> Optional[ChairModel]:
@@ -99,22 +101,41 @@ class StandingChairShifts:
             self.shifts.append(ChairShift(st.index, list(chair.chain), list(chair.outcomes)))
 
 
+class ChairChiralityWatch(ChiralityWatch):
+    """ChiralityWatch, with a state counted as chiral when a standing chair shift's outcome makes
+    it so. A shift from a chiral state whose two chairs give diastereomers (the (E)-propenyl ether
+    of (R)-but-3-en-2-ol: E with one configuration of the new centre, Z with the other) leaves the
+    new centre unset, as one state holds one configuration, yet each chair gives one enantiomer
+    (chirality transfer, Clayden; from memory): the product is no racemate, and its mirror image is
+    no chair's."""
+
+    def __init__(self, standing: StandingChairShifts) -> None:
+        super().__init__()
+        self.standing = standing
+
+    def holds_chirality(self, state: ElectronState) -> bool:
+        return holds_chirality(state) or any(
+            holds_chirality(variant) for shift in self.standing.shifts for variant in
+            (configured_as(state, outcome, shift.kept) for outcome in shift.outcomes) if variant is not None)
+
+
 class ChairThreeThreeShift(Check):
     name = "[3,3] shift through a chair"
     codes = ("AR605",)
 
     def __init__(self) -> None:
-        self.watch = ChiralityWatch()
         self.standing = StandingChairShifts()
+        self.watch = ChairChiralityWatch(self.standing)
 
     def step(self, st: StepTrace, context) -> Iterator[Diagnostic]:
         if st.index == 0:
-            self.watch, self.standing = ChiralityWatch(), StandingChairShifts()
+            self.standing = StandingChairShifts()
+            self.watch = ChairChiralityWatch(self.standing)
         self.watch.before(st)
         if st.after is None:
             return
+        self.standing.step(st)   # first: the watch counts the chairs' outcomes on the state after
         self.watch.after(st)
-        self.standing.step(st)
         for checkpoint in st.step.expects:
             yield from self._judged(st.after, checkpoint, "checkpoint", st.index)
 

@@ -237,8 +237,13 @@ class ChiralityWatch:
             self.racemic = not holds_chirality(st.before)
 
     def after(self, st: StepTrace) -> None:
-        if not self.racemic and st.after is not None and not holds_chirality(st.after):
+        if not self.racemic and st.after is not None and not self.holds_chirality(st.after):
             self.racemic = True
+
+    def holds_chirality(self, state: ElectronState) -> bool:
+        """Whether `state` leads on to a chiral product (a check that knows more may say so where
+        the state's bookkeeping does not)."""
+        return holds_chirality(state)
 
 
 def forms_racemate(trace) -> bool:
