@@ -2414,14 +2414,16 @@ def test_map_numbers_leave_half_loops_their_room(name):
 
 
 def test_a_half_loop_with_no_room_is_noted():
-    """Chromate ester formation (textbook), panel 1: the Cr=O pair going back onto its O is
-    hemmed in by the chromium's other oxygens and draws as a tick (a path of 0.56 bond lengths,
-    under the 0.8 that reads as a half-loop). Like the other compromises of the layout, it is now
-    told in a note that `arrows draw` prints."""
-    scene = scene_of("chromic acid oxidation", "two-column")
-    arrow, = [a for a in half_loops(scene.panels[0]) if a.move == "Cr4=O3 -> O3"]
+    """Aziridine closure (textbook), panel 2: the N-H pair of the aziridinium going back onto its
+    N is hemmed in by the N's own H under it and its charge sign over the bond, and draws as a
+    tick (a path of 0.56 bond lengths, under the 0.8 that reads as a half-loop). Like the other
+    compromises of the layout, it is told in a note that `arrows draw` prints. (The Cr=O of
+    chromic acid, hemmed in by the other oxygens, was such a case: its half-loop now turns toward
+    the O, test_a_half_loop_hemmed_in_by_a_neighbours_label_turns_toward_its_atom.)"""
+    scene = scene_of("aziridine closure", "two-column")
+    arrow, = [a for a in half_loops(scene.panels[1]) if a.move == "N1-H -> N1"]
     assert path_length(arrow) < 0.8 * scene.bond_length
-    assert any(note.startswith("panel 1: the arrow Cr4=O3 -> O3") and "half-loop" in note for note in scene.notes), \
+    assert any(note.startswith("panel 2: the arrow N1-H -> N1") and "half-loop" in note for note in scene.notes), \
         scene.notes
     assert not [n for n in scene_of("fischer esterification", "two-column").notes if "half-loop" in n]
 
@@ -3287,3 +3289,28 @@ def test_a_nucleophile_comes_into_a_carbonyl_carbon_from_the_open_side(name, pan
     _, _, scene = _scene(text, name, style)
     assert any(a.move == move for a in scene.panels[panel].arrows)
     assert [c for c in _bonds_crossed(scene) if c[:2] == (panel, move)] == []
+
+
+@pytest.mark.parametrize("name, panel_index, move", [
+    ("vilsmeier reagent", 0, "P5-Cl4 -> Cl4"),
+    ("chromic acid oxidation", 0, "Cr4=O3 -> O3"),
+    ("mukaiyama aldol", 3, "Ti8-O6 -> O6"),
+    ("anisole bromination", 2, "Fe11-Br10 -> Br10"),
+])
+@pytest.mark.parametrize("style", ["slide", "two-column"])
+def test_a_half_loop_hemmed_in_by_a_neighbours_label_turns_toward_its_atom(name, panel_index, move, style):
+    """A pair going from a bond between two labels onto one of them, where a label bonded to the
+    other end stands beside the bond's middle on both sides (the O and Cl of POCl3 either side of
+    its P-Cl, the oxo groups of CrO3 either side of Cr=O): the usual half-loop out from the
+    middle ran into that label, and the arrow was drawn as a tick under the bond, a path of
+    0.56-0.57 bond lengths. It now leaves the middle turned toward its atom and bulges out beside
+    the atom, a path of at least 0.8 bond lengths (the legibility measure of the tests above;
+    common practice: the half-loop from a bond onto its own atom reads as a curve), through no
+    other atom's label."""
+    scene = scene_of(name, style)
+    panel = scene.panels[panel_index]
+    arrow, = [a for a in half_loops(panel) if a.move == move]
+    assert path_length(arrow) >= 0.8 * scene.bond_length, path_length(arrow) / scene.bond_length
+    points = arrow.path_points(80)
+    others = [a for a in panel.atoms if a.box is not None and a.index not in arrow.source_atoms]
+    assert not [a.name for a in others if any(a.box.contains(p) for p in points)]

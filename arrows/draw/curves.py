@@ -61,6 +61,12 @@ _LABELLED_HOOK = 0.6            # bond lengths: how deep a hook between two labe
 _HEAD_BASE = 0.72                # head lengths from a head's tip back to its base (the notch, _arrow)
 _HOOK_LENGTH = 0.9              # bond lengths: the shortest path that reads as an arc from a bond to its own atom
 _SHORT_HOOK = 30.0              # penalty per bond length such an arrow falls short of that
+# Where every hook of such an arrow is shorter than _TICK_LENGTH (its usual half-loop runs into a
+# neighbour's label by the bond's middle, the tick left): half-loops turned this far round toward
+# the atom, which bulge out beside the atom instead, _TURNED_DEPTH deep.
+_TICK_LENGTH = 0.8              # bond lengths (the figure's note on a hook that reads as a tick says so below this)
+_HOOK_TURNS = (math.radians(30), math.radians(50))
+_TURNED_DEPTH = 0.45            # bond lengths
 _TICK = 4.0                     # penalty of a plain arc where a pair goes from a bond to its own atom
 _PAIR_ARC = 0.8                 # bond lengths: the shortest path from dots into their own atom's bond
 _SHIFT_BULGE = 0.2              # bond lengths a 1,2-shift's arc stands out from its chord, away from the pivot
@@ -262,6 +268,7 @@ class ArrowPlanner:
                         and min(w.tries[k], key=_COST).crossings):
                     w.tries[k] = w.tries[k] + self._wide_arcs(src, snk, w.panel)
                     widened = True
+        widened = self._turn_short_hooks(work) or widened
         if widened:
             candidates, controls, points, extent = self._sampled_and_scored(work)
             # A wide arc is kept only where it crosses none: elsewhere the usual arcs read better.
@@ -616,12 +623,26 @@ class ArrowPlanner:
         return [replace(self._arc(src, snk, side, theta, panel), wide=True)
                 for side in (1, -1) for theta in _WIDE_ANGLES]
 
-    def _hooks(self, move: ResolvedMove, src: _Anchor, snk: _Anchor, panel: PanelStructure) -> list[_Candidate]:
+    def _turn_short_hooks(self, work: list[_PanelArrows]) -> bool:
+        """Whether any arrow from a bond to its own atom whose cheapest candidate is shorter
+        than _TICK_LENGTH (a tick: its half-loops run into a neighbour's label by the bond's
+        middle, as the O of P=O beside the P-Cl of POCl3) was given turned half-loops to try."""
+        turned = False
+        for w in work:
+            for k, (move, src, snk) in enumerate(zip(w.moves, w.sources, w.sinks)):
+                if to_own_atom(move) and min(w.tries[k], key=_COST).length < _TICK_LENGTH * self.bl:
+                    w.tries[k] = w.tries[k] + self._hooks(move, src, snk, w.panel, _HOOK_TURNS)
+                    turned = True
+        return turned
+
+    def _hooks(self, move: ResolvedMove, src: _Anchor, snk: _Anchor, panel: PanelStructure,
+               turns: tuple[float, ...] = ()) -> list[_Candidate]:
         """Electrons leaving a bond for one of its own ends (a heterolysis, or one half of a
         homolysis): a C-shaped arc on either side of the bond, out from its middle and back in to
         the atom from the side, so the arrow reads as a curve and not as a tick on the short span
         between the bond's middle and the label (common practice: C=O to O drawn as a half-loop;
-        one fishhook to each atom, on either side of the bond)."""
+        one fishhook to each atom, on either side of the bond). With `turns`, only half-loops that
+        leave the bond turned by those angles toward the atom, so they bulge out beside it."""
         if not to_own_atom(move):
             return []
         out = []
@@ -636,6 +657,8 @@ class ArrowPlanner:
         # 0.25 bond lengths from its tail, against 0.41-0.48 unturned)
         base = 0j if between_labels else _HEAD_BASE * self.head_length
         along = unit(panel.positions[other] - panel.positions[atom])   # from the atom down its bond
+        others = [(complex(*p), complex(*q)) for bond in panel.bonds if set(bond.atoms) != set(src.atoms)
+                  for p, q in bond.lines] if turns else []
         for normal in (src.axis * 1j, src.axis * -1j):
             p0 = src.point + normal * (src.extent + 0.05 * self.bl)
             # (turned toward the bond, the side the hook comes from, if the label's hydrogens are in
@@ -645,6 +668,16 @@ class ArrowPlanner:
             # A head turned toward the bond stops nearer the tail: a hook of the usual depth there
             # is a tick (the water leaving HO+ in a Fischer esterification, 0.75 bond lengths).
             depth = h if side == normal else max(h, _LABELLED_HOOK * self.bl)
+            if turns:
+                # None whose head's base stands nearer the rest of the label than its symbol (the
+                # head of one coming up under NH+ to the N lies on the H), nor one across another
+                # bond: a tick reads better than either.
+                if not _nearer_the_rest(panel, atom, tip + side * _HEAD_BASE * self.head_length):
+                    toward = 1 if (normal / along).imag > 0 else -1   # the turn that brings `normal` round to the atom
+                    out += [c for c in (_Candidate(p0, p0 + normal * cmath.rect(_TURNED_DEPTH * self.bl, toward * turn),
+                                                   tip + side * _TURNED_DEPTH * self.bl, tip) for turn in turns)
+                            if not _curve_crosses(c, others)]
+                continue
             plain = _Candidate(p0, p0 + normal * depth, tip + normal * depth, tip)
             out.append(plain)
             # Between the bond and a neighbour's bond less than a right angle round (a C-H between
