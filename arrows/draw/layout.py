@@ -268,7 +268,7 @@ _CIS = (Chem.BondStereo.STEREOZ, Chem.BondStereo.STEREOCIS)
 _TRANS = (Chem.BondStereo.STEREOE, Chem.BondStereo.STEREOTRANS)
 
 
-def _molecules(state: ElectronState) -> tuple[tuple[int, ...], ...]:
+def molecules_of(state: ElectronState) -> tuple[tuple[int, ...], ...]:
     """The atoms of each separate molecule of a state."""
     return Chem.GetMolFrags(state.mol, asMols=False, sanitizeFrags=False)
 
@@ -710,8 +710,8 @@ class _Cluster:
 def compute_layout(states: Sequence[ElectronState], moves: Sequence[Sequence[ResolvedMove]],
                    touched: Sequence[Iterable[int]], left_out: Sequence[Iterable[int]] = (),
                    bonds: Optional[Sequence[list[tuple[int, int, float]]]] = None,
-                   product: Iterable[int] = (), abbreviated: Mapping[int, frozenset[int]] = _NONE_ABBREVIATED
-                   ) -> Layout:
+                   product: Iterable[int] = (), abbreviated: Mapping[int, frozenset[int]] = _NONE_ABBREVIATED,
+                   molecules: Optional[Sequence[tuple[tuple[int, ...], ...]]] = None) -> Layout:
     """Positions for the atoms of every state. `moves[k]` are the moves drawn on panel k,
     `touched[k]` the atoms the step leaving panel k changes (empty for the last panel) and
     `left_out[k]` atoms panel k does not draw (a spectator between its turns): a species is
@@ -719,15 +719,19 @@ def compute_layout(states: Sequence[ElectronState], moves: Sequence[Sequence[Res
     reads them (read here when not given). `product` holds atoms of the last state's product
     proper, which the by-products line up after (by default the largest molecule).
     `abbreviated` maps each atom written as a group ("Ph" at a phenyl's ipso carbon) to the atoms
-    its label stands for: those are in no panel and laid out as if absent, so their room is free."""
+    its label stands for: those are in no panel and laid out as if absent, so their room is free.
+    `molecules[k]` are state k's molecules as molecules_of reads them (read here when not given)."""
+    if molecules is None:
+        molecules = [molecules_of(state) for state in states]
     with _rdkit_depictor():
-        builder = _LayoutBuilder(states, moves, touched, left_out, bonds, product, abbreviated=abbreviated)
+        builder = _LayoutBuilder(states, moves, touched, left_out, bonds, product, abbreviated=abbreviated,
+                                 molecules=molecules)
         layout = builder.build()
         if builder.cramped:
             # Tried again with room kept at the centres where a partner found no clear place:
             # taken if fewer partners are cramped so.
             retry = _LayoutBuilder(states, moves, touched, left_out, bonds, product, frozenset(builder.cramped),
-                                   abbreviated)
+                                   abbreviated, molecules)
             retried = retry.build()
             if len(retry.cramped) < len(builder.cramped):
                 return retried
@@ -739,9 +743,11 @@ class _LayoutBuilder:
                  touched: Sequence[Iterable[int]], left_out: Sequence[Iterable[int]] = (),
                  bonds: Optional[Sequence[list[tuple[int, int, float]]]] = None, product: Iterable[int] = (),
                  roomier: frozenset[int] = frozenset(),
-                 abbreviated: Mapping[int, frozenset[int]] = _NONE_ABBREVIATED):
+                 abbreviated: Mapping[int, frozenset[int]] = _NONE_ABBREVIATED,
+                 molecules: Optional[Sequence[tuple[tuple[int, ...], ...]]] = None):
         """`roomier`: atoms whose depiction keeps room for a partner in another cluster, where a
-        first try found no clear place round them (_cramped_centre); `abbreviated`: as compute_layout's."""
+        first try found no clear place round them (_cramped_centre); `abbreviated` and `molecules`:
+        as compute_layout's."""
         self.states = list(states)
         self.roomier = roomier
         self.cramped: set[int] = set()   # the atoms _cramped_centre found so, placing
@@ -817,7 +823,7 @@ class _LayoutBuilder:
         self.chain_double = self._chain_double_bonds()
         self.positions: list[dict[int, complex]] = [dict() for _ in range(self.n)]
         self.backside = self._backside_substitutions(moves)
-        self.molecules = [_molecules(state) for state in self.states]
+        self.molecules = list(molecules) if molecules is not None else [molecules_of(state) for state in self.states]
         self.joining = [_joining(self.states[k], self.molecules[k], self.molecules[k + 1])
                         for k in range(self.n - 1)] + [set()]
 

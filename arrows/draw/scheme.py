@@ -23,7 +23,7 @@ from ..rdkit_io import atom_list, bond_list, formula as molecular_formula, fragm
 from ..trace import StepTrace, Trace
 from .branches import may_stand_closer
 from .curves import ArrowPlanner, to_own_atom
-from .layout import Layout, compute_layout
+from .layout import Layout, compute_layout, molecules_of
 from .phenyls import PHENYL_LABEL, spectator_phenyls
 from .plane import distance_to_segment, segments_cross
 from .scene import BondDrawing, Box, CurvedArrow, Mark, Panel, ReactionArrow, Scene, TextRun
@@ -43,6 +43,9 @@ class _PanelSource:
     state: ElectronState
     leaving: Optional[StepTrace]       # the step whose arrows are drawn on this panel
     arriving: Optional[StepTrace]      # the step that produced this state
+    # The atoms of each molecule of `state` (layout.molecules_of), read once for the sources, the
+    # layout and the structure: each would otherwise ask RDKit again.
+    molecules: tuple[tuple[int, ...], ...]
     hidden: frozenset[int] = frozenset()   # atoms shown as "+ name" over the arrow instead
     idle: frozenset[int] = frozenset()     # spectators between their parts: not drawn here
 
@@ -94,13 +97,14 @@ def _panel_sources(trace: Trace, product: frozenset[int] = frozenset()) -> list[
         raise DrawError("the mechanism has no starting state to draw (no species with atoms)")
     steps = trace.steps
     if not steps:
-        return [_PanelSource(trace.initial, None, None)]
+        return [_PanelSource(trace.initial, None, None, molecules_of(trace.initial))]
     out: list[_PanelSource] = []
     for k, st in enumerate(steps):
-        out.append(_PanelSource(st.before, st, steps[k - 1] if k else None, _unused_entries(st)))
+        out.append(_PanelSource(st.before, st, steps[k - 1] if k else None, molecules_of(st.before),
+                                _unused_entries(st)))
         if st.after is None:
             return out
-    out.append(_PanelSource(steps[-1].after, None, steps[-1]))
+    out.append(_PanelSource(steps[-1].after, None, steps[-1], molecules_of(steps[-1].after)))
     return _without_idle_spectators(out, product)
 
 
@@ -161,7 +165,7 @@ def _without_idle_spectators(sources: list[_PanelSource], product: frozenset[int
         near = {i for st in (src.arriving, src.leaving) if st is not None for i in st.change.touched_atoms}
         near |= set(src.arriving.entered)
         # The largest last; of two as large, the one a step beside the panel touches.
-        fragments = sorted(Chem.GetMolFrags(src.state.mol, asMols=False, sanitizeFrags=False),
+        fragments = sorted(src.molecules,
                            key=lambda f: (src.leaving is None and not product.isdisjoint(f), len(f),
                                           not near.isdisjoint(f)))
         idle = set()
@@ -171,7 +175,7 @@ def _without_idle_spectators(sources: list[_PanelSource], product: frozenset[int
                 idle |= atoms
         if src.leaving is None:
             # (the last panel writes a small by-product whole: H3O+, not H-OH2+)
-            idle |= _hydrogens_of_small_by_products(src.state)
+            idle |= _hydrogens_of_small_by_products(src.state, src.molecules)
         src.idle = frozenset(idle)
     return sources
 
@@ -211,13 +215,14 @@ def _groundwork(trace: Trace, ph_labels: bool) -> _Groundwork:
         # set none (a conrotatory opening's Z alkene), not a default the reader takes for a claim.
         as_written = final_state_as_written(trace)
         if as_written is not None:
-            sources[-1] = replace(sources[-1], state=as_written)
+            sources[-1] = replace(sources[-1], state=as_written, molecules=molecules_of(as_written))
     moves = [list(s.leaving.change.moves) if s.leaving else [] for s in sources]
     touched = [set(s.leaving.change.touched_atoms) if s.leaving else set() for s in sources]
     bonds = _bond_lists(sources)   # for layout and structures
     states = [s.state for s in sources]
     phenyls = spectator_phenyls(states, _reached_atoms(trace)) if ph_labels else {}
-    layout = compute_layout(states, moves, touched, [s.hidden | s.idle for s in sources], bonds, product, phenyls)
+    layout = compute_layout(states, moves, touched, [s.hidden | s.idle for s in sources], bonds, product, phenyls,
+                            [s.molecules for s in sources])
     return _Groundwork(sources, moves, bonds, layout, dict.fromkeys(phenyls, PHENYL_LABEL))
 
 
@@ -817,7 +822,8 @@ class _SceneBuilder:
             broken.update((tuple(sorted(b)), new) for b, old, new in change.reordered if new < old)
         forming = {tuple(sorted(b)) for b in src.leaving.change.formed} if src.leaving is not None else set()
         held = frozenset(_hooked_atoms(src, visible)) if self.style.numbers else frozenset()
-        return visible, self.drawer.draw(src.state, visible, positions, shown_h, formed, broken, bonds, forming, held)
+        return visible, self.drawer.draw(src.state, visible, positions, shown_h, formed, broken, bonds, forming, held,
+                                         src.molecules)
 
     def _panel(self, k: int, src: _PanelSource, visible: tuple[int, ...], structure: PanelStructure,
                arrows: list[CurvedArrow], dots: list[Mark]) -> Panel:
@@ -1170,12 +1176,11 @@ def _lone_panels(rows: list[list[int]]) -> int:
     return 2 if any(len(r) == 1 for r in rows[1:-1]) else 1
 
 
-def _hydrogens_of_small_by_products(state: ElectronState) -> frozenset[int]:
+def _hydrogens_of_small_by_products(state: ElectronState, molecules: Sequence[Sequence[int]]) -> frozenset[int]:
     """The unlabelled hydrogen atoms of the molecules of at most three heavy atoms that are not the
     largest: in the last panel a hydronium or water that took a proton is written H3O+ or H2O, as
     chemists write it, not with that proton drawn out (the product keeps its own, to show where
-    it went; a D or T is always drawn)."""
-    molecules = Chem.GetMolFrags(state.mol, asMols=False, sanitizeFrags=False)
+    it went; a D or T is always drawn). `molecules`: the state's, as its _PanelSource holds them."""
     elements, mol = state.elements, state.mol
     heavy = [sum(1 for i in m if elements[i] != 1) for m in molecules]
     largest = max(heavy, default=0)

@@ -475,14 +475,16 @@ class StructureDrawer:
              drawn_hydrogens: frozenset[int], formed: Mapping[tuple[int, int], int] = _NO_BONDS,
              broken: Mapping[tuple[int, int], int] = _NO_BONDS,
              listed_bonds: Optional[list[tuple[int, int, float]]] = None,
-             forming: set[tuple[int, int]] = frozenset(), held_back: frozenset[int] = frozenset()) -> PanelStructure:
+             forming: set[tuple[int, int]] = frozenset(), held_back: frozenset[int] = frozenset(),
+             molecules: Optional[Sequence[Sequence[int]]] = None) -> PanelStructure:
         """`formed`: the bonds the step arriving at the panel formed or raised in order, each with
         the order it had before (0: formed whole); `broken`: those the step leaving it breaks or
         lowers, each with the order it keeps. `listed_bonds` are the state's bonds as
         rdkit_io.bond_list reads them (read here when not given); `forming` the bonds the step
         leaving the panel makes, whose arrows head for the gap between their atoms: a charge sign
         beside a vertex keeps out of that gap; `held_back` the atoms whose map numbers wait for
-        the arrows (place_held_numbers)."""
+        the arrows (place_held_numbers); `molecules` the atoms of each of the state's molecules
+        (Chem.GetMolFrags, read here when a charge needs them and they are not given)."""
         mol = state.mol
         shown = set(visible)
         # RDKit is asked once per bond, and about an atom only where the state's own numbers do
@@ -555,7 +557,9 @@ class StructureDrawer:
                 hemmed = bool(ahead[i]) and len(out.bond_directions[i]) + len(ahead[i]) >= _HEMMED_IN
                 closing = _into_ring(i, _with_bonds(adjacent, forming), positions) \
                     if hemmed and state.formal_charge(i) and inward is None else None
-                self._charge_and_radical(state, i, out, ahead[i], inward, closing, hemmed)
+                if molecules is None and state.formal_charge(i):
+                    molecules = Chem.GetMolFrags(mol, asMols=False, sanitizeFrags=False)
+                self._charge_and_radical(state, i, out, molecules, ahead[i], inward, closing, hemmed)
         if self.style.numbers:
             for i in visible:
                 number = facts[i][1]
@@ -931,10 +935,12 @@ class StructureDrawer:
         return 1 if total > 0 else -1
 
     # marks beside atoms
-    def _charge_and_radical(self, state: ElectronState, i: int, out: PanelStructure, ahead: list[complex] = (),
+    def _charge_and_radical(self, state: ElectronState, i: int, out: PanelStructure,
+                            molecules: Optional[Sequence[Sequence[int]]], ahead: list[complex] = (),
                             inward: Optional[complex] = None, closing: Optional[complex] = None,
                             hemmed: bool = False) -> None:
-        """`ahead`: directions to atoms a bond is about to form with, where an arrow's head goes;
+        """`molecules`: the atoms of each of the state's molecules (read only for a charge).
+        `ahead`: directions to atoms a bond is about to form with, where an arrow's head goes;
         a charge sign set round the atom keeps out of them, and one written as a superscript too
         when the atom is `hemmed` in. `inward`: the direction into the atom's ring, where a sign
         would read as the ring's; `closing`: into the ring the bonds ahead close, where the arrows
@@ -949,7 +955,7 @@ class StructureDrawer:
                       if j != i and a.box is not None and abs(out.positions[j] - centre) < 2 * bl]
             # A sign by a bare vertex of another molecule reads as that carbon's (a spent H3O+'s
             # "+" against an alkene carbon, as a carbocation).
-            own_molecule = next(f for f in Chem.GetMolFrags(state.mol, asMols=False, sanitizeFrags=False) if i in f)
+            own_molecule = next(f for f in molecules if i in f)
             vertices = [out.positions[j] for j, a in out.atoms.items() if a.box is None and j not in own_molecule
                         and abs(out.positions[j] - centre) < 2 * bl]
             mark = self._superscript(i, text, out, [out.atoms[j].box for j in nearby], inward, vertices,
