@@ -23,7 +23,7 @@ from typing import Optional, Sequence
 
 import numpy as np
 
-from .branches import side_beyond
+from .branches import may_stand_closer, side_beyond
 from .plane import segments_cross
 
 _ON_A_BOND = 0.25     # a skeletal vertex this near a bond not its own reads as lying on it (as scheme's note)
@@ -90,12 +90,37 @@ def _first_fault(here: dict[int, complex], bonds: list[tuple[int, int]], labelle
     return None
 
 
+def _fault_reach(here: dict[int, complex], bonds: list[tuple[int, int]]) -> float:
+    """How near two atoms of a panel stand if one lies on a bond not its own or two bonds cross:
+    an atom within _LABEL_ON_A_BOND of a bond stands within hypot(_LABEL_ON_A_BOND, half the
+    bond) of one of its ends, and two crossing bonds have an end of one within the longer's
+    length over sqrt(2) of an end of the other (at most where both cross at right angles through
+    their middles; by the triangle inequality an end of each lies no further from the crossing
+    than half its bond)."""
+    longest = max(abs(here[i] - here[j]) for i, j in bonds)
+    return max(longest / math.sqrt(2), math.hypot(_LABEL_ON_A_BOND, longest / 2))
+
+
 def _faultless(positions: Sequence[dict[int, complex]], bonds: Sequence[list[tuple[int, int]]],
                labelled: frozenset[int]) -> list[bool]:
-    """For each panel (its atoms' points and drawn bonds): whether _first_fault finds nothing, every
-    panel worked out in one numpy batch (numpy's cost is per call). Panels are padded to the
+    """For each panel (its atoms' points and drawn bonds): whether _first_fault finds nothing. A
+    panel where no two atoms stand within _fault_reach has none (most panels: a sweep tells);
+    the others are worked out in one numpy batch (numpy's cost is per call), padded to the
     largest: a padded atom stands far from everything, a padded bond is a point far the other
     way, of no length, which crosses nothing."""
+    suspect = [k for k, (here, drawn) in enumerate(zip(positions, bonds))
+               if drawn and may_stand_closer([(z.real, z.imag) for z in here.values()], _fault_reach(here, drawn))]
+    clean = [True] * len(positions)
+    if suspect:
+        for k, verdict in zip(suspect, _faultless_batch([positions[k] for k in suspect], [bonds[k] for k in suspect],
+                                                        labelled)):
+            clean[k] = verdict
+    return clean
+
+
+def _faultless_batch(positions: Sequence[dict[int, complex]], bonds: Sequence[list[tuple[int, int]]],
+                     labelled: frozenset[int]) -> list[bool]:
+    """_faultless's answer for each panel, worked out for all at once."""
     count, atoms_at, bonds_at = len(positions), max(map(len, positions), default=0), max(map(len, bonds), default=0)
     if not count or not bonds_at:
         return [True] * count
