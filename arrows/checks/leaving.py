@@ -161,7 +161,8 @@ class StrongBaseLeavingGroups(Check):
                 # An alkoxide pushed out (an E1cB, a tetrahedral intermediate): judged only where
                 # a strong acid stands by, which would have protonated it first.
                 found = (self._pushed_out_in_acid(st, move, leaving, centre) or self._pushed_out_by_e2(st, move, leaving, centre)
-                         or _pushed_out_of_an_acetal(st, move, leaving, centre))
+                         or _pushed_out_of_an_acetal(st, move, leaving, centre)
+                         or _displaced_in_one_step(st, move, leaving, centre))
                 if found is not None:
                     yield found
                 continue
@@ -276,6 +277,37 @@ class StrongBaseLeavingGroups(Check):
             "AR517", f"{label(leaving)} leaves {label(centre)} as {acid.base} (pKa of {acid.acid} "
             f"{acid.shown}) while {kind} {label(site)} is there to protonate it",
             move.move.loc, hint=hint, atoms=(label(leaving), label(centre), label(site)), step=st.index)
+
+
+def _displaced_in_one_step(st: StepTrace, move, leaving: int, centre: int) -> Optional[Diagnostic]:
+    """AR510: hydroxide or an alkoxide displaced from an sp3 carbon by a nucleophile in one step
+    (an SN2 of an alcohol or ether), no pi pair pushing it out. Too basic to leave so (conjugate
+    acid pKa 15-18): an alcohol is protonated, or made a sulfonate or halide, before it is
+    substituted (common practice; Clayden, from memory). Not judged: a three- or four-membered
+    ring opened (an epoxide's strain lets its alkoxide go), a step that makes a multiple bond at
+    the carbon (a tetrahedral intermediate's collapse, an E1cB), and weaker bases (a phenoxide or
+    a carboxylate leaving a methyl group, as thiolate demethylation and LiI ester cleavage do)."""
+    before, after = st.before, st.after
+    atom = before.mol.GetAtomWithIdx(centre)
+    if before.bond_sums[centre] != 4 or before.nonbonding[centre] or after.bond_sums[centre] != 4 \
+            or any(b.GetBondTypeAsDouble() != 1 for b in atom.GetBonds()) \
+            or any(b.GetBondTypeAsDouble() != 1 for b in after.mol.GetAtomWithIdx(centre).GetBonds()):
+        return None   # not an sp3 carbon before and after the step
+    nucleophile = st.change.attacker(centre)
+    if nucleophile is None or in_small_ring(before.mol, leaving, centre):
+        return None
+    acid = conjugate_acid(after.mol, leaving)
+    if acid is None or not ALKOXIDE_ACID_PKA <= acid.pka < STRONGEST_LEAVING_BASE:
+        return None
+    label = before.label
+    return Diagnostic(
+        "AR510", f"{label(nucleophile)} displaces {label(leaving)} from {label(centre)} in one step (an SN2), "
+        f"{label(leaving)} leaving as {acid.base} (pKa of {acid.acid} {acid.shown}): too strong a base to "
+        f"leave an sp3 carbon so", move.move.loc,
+        hint=f"an alcohol or ether is substituted once {label(leaving)} is protonated (it leaves as "
+             f"{_neutral(acid)}) or made a sulfonate or halide first; only a small ring's strain (an epoxide) "
+             f"lets an alkoxide go in one step",
+        atoms=(label(nucleophile), label(centre), label(leaving)), step=st.index)
 
 
 def _oxo_acid_centre(state, centre: int) -> bool:
