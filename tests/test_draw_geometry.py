@@ -3314,3 +3314,53 @@ def test_a_half_loop_hemmed_in_by_a_neighbours_label_turns_toward_its_atom(name,
     points = arrow.path_points(80)
     others = [a for a in panel.atoms if a.box is not None and a.index not in arrow.source_atoms]
     assert not [a.name for a in others if any(a.box.contains(p) for p in points)]
+
+
+def _shifts_with_leaving_group(step) -> list[tuple[int, int, int, int]]:
+    """(migrating atom, origin, terminus, leaving atom) of each 1,2-shift in `step` whose terminus
+    loses a bond to a heavy atom in the same step, read off RDKit's Mols of the two states: the
+    group's bond moves from the origin to the terminus, which stay bonded."""
+    before, after = step.before.mol, step.after.mol
+    formed = [tuple(b) for b in step.change.formed]
+    broken = {frozenset(b) for b in step.change.broken}
+    out = []
+    for bond in formed:
+        for terminus, group in (bond, bond[::-1]):
+            for n in before.GetAtomWithIdx(group).GetNeighbors():
+                origin = n.GetIdx()
+                if frozenset((origin, group)) not in broken or before.GetBondBetweenAtoms(origin, terminus) is None \
+                        or after.GetBondBetweenAtoms(origin, terminus) is None:
+                    continue
+                for m in before.GetAtomWithIdx(terminus).GetNeighbors():
+                    if m.GetIdx() not in (origin, group) and m.GetAtomicNum() != 1 \
+                            and frozenset((terminus, m.GetIdx())) in broken:
+                        out.append((group, origin, terminus, m.GetIdx()))
+    return out
+
+
+@pytest.mark.parametrize("name", ["lossen", "curtius", "hofmann rearrangement", "beckmann", "dakin",
+                                  "baeyer-villiger retention", "ring expansion", "borane oxidation",
+                                  "tiffeneau-demjanov"])
+@pytest.mark.parametrize("style", ["two-column", "slide"])
+def test_a_migrating_group_stands_anti_to_the_leaving_group(name, style):
+    """In a 1,2-shift onto an atom that loses its leaving group in the same step, the group
+    migrates to the backside of the breaking bond: it and the leaving group are anti-periplanar
+    (Beckmann: the group anti to the leaving group migrates; Lossen, Hofmann, Curtius and the
+    Baeyer-Villiger alike; March's Advanced Organic Chemistry, rearrangements, from memory).
+    Chemists draw them so, on opposite sides of the bond between origin and terminus (common
+    practice): measured as the two on opposite sides of that line in the panel before the step.
+    The Lossen's acetate stood on the migrating methyl's side (the two bonds 60 degrees apart);
+    the others guard what already held."""
+    trace, _, scene = _scene(TEXTBOOK[name][0], name, style)
+    checked = 0
+    for panel in scene.panels:
+        if panel.step is None:
+            continue
+        where = {a.index: complex(*a.position) for a in panel.atoms}
+        for group, origin, terminus, leaving in _shifts_with_leaving_group(trace.steps[panel.step]):
+            along = where[terminus] - where[origin]
+            group_side = ((where[group] - where[origin]) / along).imag
+            leaving_side = ((where[leaving] - where[terminus]) / along).imag
+            assert group_side * leaving_side < 0, (panel.index, group, leaving, group_side, leaving_side)
+            checked += 1
+    assert checked, "no 1,2-shift with a leaving group found"

@@ -95,6 +95,7 @@ _SIXTY = math.radians(60)
 _FACING_OFF_A_BOND = math.radians(40)
 _RING_ANGLE_SLACK = math.radians(30)   # a ring angle further than this from the regular polygon's reads as squeezed
 _STANDING_BY_REACH = 2.1   # bond lengths: a molecule this near an atom in the panel before its new bond takes room
+_CROWDED_MIRROR = 0.95   # least room round a leaving branch mirrored to stand anti to a shift
 _BACKSIDE_ROOM = math.radians(55)   # a nucleophile's line of approach from the centre's other bonds
 # Ways to place a cluster next to its partner, in order of preference: (penalty, turn of the
 # approach line in 20-degree steps, spin of the cluster in 30-degree steps, extra distance). A
@@ -864,6 +865,7 @@ class _LayoutBuilder:
         # Rings of the other molecules open once everything stands where it will (a tin hydride
         # may outweigh the chain that closes a ring).
         self._open_rings(set(range(len(self.clusters))) - {self.main})
+        self._leaving_groups_anti_to_shifts()
         self._place_hydrogens()
         self._let_go()
         self._ease_trigonal_centres()
@@ -2546,6 +2548,113 @@ class _LayoutBuilder:
         best = int(np.argmax(score))
         return complex(_COMPASS[best]) if room[best] >= _BACKSIDE_ROOM else None
 
+    def _shifts_with_leaving_group(self) -> Iterator[tuple[int, int, int, int, int]]:
+        """(step, migrating atom, origin, terminus, leaving atom) for each 1,2-shift whose terminus
+        loses a heavy leaving group in the same step (Lossen, Curtius, Beckmann, Baeyer-Villiger):
+        the migrating atom leaves the origin for the terminus, the two staying bonded."""
+        for k in range(self.n - 1):
+            made, broken, bonded = self.made[k], self.broken[k], self.bonds_in[k] & self.bonds_in[k + 1]
+            for bond in made:
+                for terminus, group in (bond, bond[::-1]):
+                    for origin in self.neighbours[group]:
+                        if (min(origin, group), max(origin, group)) not in broken \
+                                or (min(origin, terminus), max(origin, terminus)) not in bonded:
+                            continue
+                        for leaving in self.neighbours[terminus]:
+                            if leaving not in (origin, group) and self.element[leaving] != 1 \
+                                    and (min(terminus, leaving), max(terminus, leaving)) in broken:
+                                yield k, group, origin, terminus, leaving
+
+    def _leaving_groups_anti_to_shifts(self) -> None:
+        """A leaving group drawn on the migrating group's side of the line through the origin and
+        the terminus of a 1,2-shift is mirrored across that line, with everything it carries: the
+        group then migrates onto the backside of the breaking bond, anti-periplanar to it (common
+        practice for the Lossen, Hofmann, Curtius and Beckmann rearrangements). The depiction of
+        a molecule does not know it (the Lossen's acetate stood beside the methyl); a leaving
+        group placed as a cluster of its own is turned so already (_backside_axis). Only where
+        nothing but the leaving branch moves, and the mirrored branch keeps clear of everything
+        else in every panel it stands in."""
+        for k, group, origin, terminus, leaving in self._shifts_with_leaving_group():
+            here = self.positions[k]
+            if any(a not in here for a in (group, origin, terminus, leaving)):
+                continue
+            along = unit(here[terminus] - here[origin])
+            sides = [((here[a] - b) / along).imag for a, b in ((group, here[origin]), (leaving, here[terminus]))]
+            if sides[0] * sides[1] <= 0 or min(abs(sides[0]), abs(sides[1])) < 0.1:
+                continue   # already anti, or on the line (no side to leave from)
+            branch = self._branch_beyond(leaving, terminus, k)
+            if branch is None or {group, origin} & branch:
+                continue   # the leaving group is held in a ring: it cannot turn over alone
+            mirrored = {a: here[origin] + along * ((here[a] - here[origin]) / along).conjugate() for a in branch}
+            moves = self._carry_mirror(branch, k, leaving, mirrored, (origin, terminus))
+            if moves is not None:
+                for p, spots in moves.items():
+                    self.positions[p].update(spots)
+
+    def _branch_beyond(self, start: int, cut: int, k: int) -> Optional[set[int]]:
+        """The placed atoms bonded to `start` in panel k through any way that does not pass `cut`
+        (with `start`); None when `cut` is reached again (a ring through both)."""
+        here, found, queue = self.positions[k], {start}, [start]
+        while queue:
+            atom = queue.pop()
+            for n in self.neighbours[atom]:
+                if n in found or n not in here or (min(atom, n), max(atom, n)) not in self.bonds_in[k]:
+                    continue
+                if n == cut:
+                    if atom != start:
+                        return None
+                    continue
+                found.add(n)
+                queue.append(n)
+        return found
+
+    def _carry_mirror(self, branch: set[int], k: int, leaving: int, mirrored: dict[int, complex],
+                      fixed: tuple[int, int]) -> Optional[dict[int, dict[int, complex]]]:
+        """panel -> new positions of `branch` for drawing it `mirrored` in panel k: also in each
+        earlier panel that draws it, and the `fixed` atoms, where panel k does (so nothing moves
+        across an earlier step), and in each later panel that draws it as a rigid copy of panel
+        k's (it stays mirrored as it goes, a by-product set aside). None where another panel
+        draws it otherwise, or the mirrored branch comes within _CROWDED_MIRROR of another atom,
+        crosses a bond or stands inside a ring."""
+        here = self.positions[k]
+        moves: dict[int, dict[int, complex]] = {}
+        other = next((a for a in sorted(branch) if a != leaving), None)
+        for p in range(self.n):
+            there = self.positions[p]
+            shown = [a for a in branch if a in there]
+            if not shown:
+                continue
+            if len(shown) < len(branch):
+                return None
+            if p <= k:
+                if p < k and any(abs(there[a] - here[a]) > 1e-9 for a in [*branch, *fixed]):
+                    return None
+                moves[p] = dict(mirrored)
+            else:
+                turn = unit(there[other] - there[leaving]) / unit(here[other] - here[leaving]) if other is not None else 1
+                carried = {a: there[leaving] + turn * (here[a] - here[leaving]) for a in branch}
+                if any(abs(carried[a] - there[a]) > 1e-6 for a in branch):
+                    return None
+                moves[p] = {a: there[leaving] + turn * (mirrored[a] - here[leaving]) for a in branch}
+        last = [[i for i in m if i in self.positions[-1]] for m in self.molecules[-1]]
+        last = [m for m in last if m]
+        # A by-product at the end is set beside the product later: where it stands now is no matter.
+        set_aside = len(last) > 1 and branch.isdisjoint(self._product_of(last)) and any(branch <= set(m) for m in last)
+        for p, spots in moves.items():
+            if set_aside and p == self.n - 1:
+                continue
+            there = self.positions[p]
+            rest = np.array([z for a, z in there.items() if a not in branch], dtype=complex)
+            new = np.array(list(spots.values()), dtype=complex)
+            if len(rest) and np.abs(new[:, None] - rest[None, :]).min() < _CROWDED_MIRROR:
+                return None
+            if any_inside_polygons(list(spots.values()), [[there[a] for a in ring] for ring in self._closed_rings(p)
+                                                         if not branch & set(ring)]):
+                return None
+            if self._bonds_cross({**there, **spots}, self.bonds_in[p]):
+                return None
+        return moves
+
     def _fed_directions(self, hydrogen: Optional[int], holder: int, k: int) -> list[complex]:
         """From `holder`, the directions to the atoms whose bond to it the pair of its bond to
         `hydrogen` goes into: the arrow between the two bonds needs the open angle between them
@@ -3771,8 +3880,7 @@ class _LayoutBuilder:
         molecules = [m for m in molecules if m]
         if len(molecules) < 2:
             return
-        product = max(molecules, key=lambda m: (not self.product.isdisjoint(m), sum(self.element[i] != 1 for i in m),
-                                                -min(m)))
+        product = self._product_of(molecules)
         by_products = sorted((m for m in molecules if m is not product),
                              key=lambda m: min(where[i].real for i in m))
 
@@ -3805,6 +3913,11 @@ class _LayoutBuilder:
             for i in molecule:
                 where[i] += shift
             right = edge(molecule, 1)
+
+    def _product_of(self, molecules: list[list[int]]) -> list[int]:
+        """Of the last panel's molecules, the product: the one holding `self.product`, else the largest."""
+        return max(molecules, key=lambda m: (not self.product.isdisjoint(m), sum(self.element[i] != 1 for i in m),
+                                             -min(m)))
 
     def _lettered(self, atom: int, mol: Chem.Mol) -> bool:
         """Whether the heavy atom is drawn as a letter in this state: a heteroatom, or a carbon
