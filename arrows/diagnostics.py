@@ -843,6 +843,20 @@ CODES = _table(
          '    C1-Mg2 -> C1-C4   # no Grignard adds to a carboxylate: use an ester\n'
          '    C4=O5 -> O5\n'
          'end'),
+    Code("AR539", WARNING, "carbon nucleophile bonded to a hypohalite's oxygen",
+         "A carbon nucleophile (an alkene's C=C pair, a carbanion) bonds to the oxygen of an O-Cl, O-Br or O-I "
+         "bond (HOCl, HOBr, tert-butyl hypochlorite) while the O-halogen pair goes to the halogen. Oxygen is the "
+         "more electronegative end (Pauling: O 3.44, Cl 3.16, Br 2.96, I 2.66; memory), so the halogen is the "
+         "electrophile: an alkene takes the halogen and water or hydroxide adds to the cation (halohydrin "
+         "formation, the Pinnick oxidation's HOCl scavenged by an alkene; common practice, Clayden, from memory). "
+         "Not judged: a ring closure (an enolate closing onto its own O-Cl, as in an enone's epoxidation by "
+         "hypochlorite), a heteroatom nucleophile, and an O-F bond (HOF transfers its oxygen; memory).",
+         'species alkene = "C[C:1](C)=[CH2:2]"\n'
+         'species hocl = "[OH:3][Cl:4]"\n'
+         'step "addition"\n'
+         '    C1=C2 -> C2-O3   # the alkene takes Cl: `C1=C2 -> C2-Cl4`, `Cl4-O3 -> O3`\n'
+         '    Cl4-O3 -> Cl4\n'
+         'end'),
     Code("AR601", NOTE, "ring closure",
          "A step closes a ring; its size and Baldwin class are given. A pericyclic step (every arrow "
          "from a bond to a bond, round a closed loop that makes no charge; arrows that all start at "

@@ -752,6 +752,14 @@ TWINS = [
          'step "addition"\n    C1-Mg2 -> C1-C4\n    C4=O5 -> O5\nend\n',
          'species ketone = "C[C:4](=[O:5])C"', 'species acetate = "C[C:4](=[O:5])[O-]"',
          "AR538", "C1-Mg2 -> C1-C4", says=("C1", "C4", "carboxylate", "Grignard"), hint_says=("organolithium", "ester")),
+    # An alkene takes the Cl of HOCl, the O-Cl pair going to the more electronegative O (Pauling O
+    # 3.44, Cl 3.16; memory): the chlorohydrin's first step (common practice, Clayden, from memory).
+    Twin("carbon nucleophile bonded to a hypohalite's oxygen",
+         'species alkene = "C[C:1](C)=[CH2:2]"\nspecies hocl = "[OH:3][Cl:4]"\n'
+         'step "addition"\n    C1=C2 -> C2-Cl4\n    Cl4-O3 -> O3\nend\n',
+         "    C1=C2 -> C2-Cl4\n    Cl4-O3 -> O3\n", "    C1=C2 -> C2-O3\n    Cl4-O3 -> Cl4\n",
+         "AR539", "C1=C2 -> C2-O3", says=("C2", "O3", "Cl4", "electrophilic end"),
+         hint_says=("`C1=C2 -> C2-Cl4`", "`Cl4-O3 -> O3`")),
 ]
 
 

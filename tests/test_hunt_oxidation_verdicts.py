@@ -180,3 +180,154 @@ def test_correct_oxidations_stay_clean():
     """(guards) clean before and after."""
     for text in (KORNBLUM_BROMIDE, PINNICK, TEMPO, CRIEGEE_GLYCOL, RUBOTTOM, COREY_KIM):
         assert codes(text) == [], text.splitlines()[0]
+
+
+# --- 3. The S-CH3 of a sulfonium that bears O, N or a halogen is unjudged (AR508) ----------------
+# Pfitzner-Moffatt oxidation of propan-2-ol (Pfitzner & Moffatt 1963; Kurti-Czako; from memory):
+# phosphoric acid protonates DCC, DMSO's oxygen adds to the carbodiimide carbon, the alcohol
+# displaces the isourea at sulfur, and pyridine makes the ylide of the alkoxysulfonium ion, which
+# takes the carbinol hydrogen round five atoms. A mild amine makes that ylide in the Swern, Moffatt
+# and Parikh-Doering oxidations (common practice): the O on S+ makes the C-H more acidic than
+# trimethylsulfonium's ~18 (memory), by how much no measured value says, so it is left unjudged.
+MOFFATT = '''species dcc = "C1CCC(CC1)[N:20]=[C:21]=[N:22]C1CCCCC1"
+species acid = "[OH:30]P(=O)(O)O"
+species dmso = "[CH3:1][S+:2](C)[O-:3]"
+species alcohol = "C[CH:10](C)[OH:11]"
+species base = "c1cc[n:12]cc1"
+species base_2 = "c1cc[n:13]cc1"
+step "DCC protonated" reversible
+    :N20 -> H(O30)
+    O30-H -> O30
+end
+step "DMSO adds to the carbodiimide carbon"
+    :O3 -> C21
+    C21=N20 -> N20
+end
+step "the alcohol displaces the isourea at sulfur"
+    :O11 -> S2
+    S2-O3 -> O3
+end
+step "pyridine takes the O-H proton"
+    :N12 -> H(O11)
+    O11-H -> O11
+end
+step "the urea takes its proton"
+    :O3 -> C21=O3
+    C21=N22 -> N22-H(N12)
+    N12-H -> N12
+end
+step "ylide formation"
+    :N13 -> H(C1)
+    C1-H -> C1
+    expect "[CH2-][S+](C)OC(C)C"
+end
+step "intramolecular elimination"
+    :C1 -> H(C10)
+    C10-H -> C10=O11
+    O11-S2 -> S2
+end
+product "CC(C)=O.CSC"
+'''
+
+# A C-H beside an S+ that bears no heteroatom, taken by pyridine (pyridinium 5.2, textbook aqueous,
+# memory): trimethylsulfonium's ~18 (memory), 13 units uphill. DMSO written charge-separated,
+# S+-O-, is a sulfoxide: its C-H 35 (Bordwell, memory), not a sulfonium's 18.
+YLIDE_BY_PYRIDINE = '''species sulfur = "[CH3:1]{rest}"
+species base = "c1cc[n:2]cc1"
+step "the base takes the S-methyl proton"
+    :N2 -> H(C1)
+    C1-H -> C1
+end
+'''
+
+
+def test_alkoxysulfonium_ylide_made_by_pyridine_is_not_judged():
+    """Failed before the change: AR508, pyridine 13 units uphill of a C-H read as
+    trimethylsulfonium's ~18."""
+    assert codes(MOFFATT) == []
+
+
+def test_heteroatom_bearing_sulfonium_c_h_has_no_table_value():
+    """Failed before the change: each read as 'a C-H beside a sulfonium' (~18). Chloro- (Corey-Kim),
+    acyloxy- (Moffatt's isourea adduct, an acetoxysulfonium) and succinimidosulfonium ions."""
+    from rdkit import Chem
+    from arrows.judgement.acidity import acidity_of, perceived
+    for smiles in ("C[S+](C)Cl", "C[S+](C)OC(C)=O", "C[S+](C)OC(C)C", "C[S+](C)N1C(=O)CCC1=O"):
+        assert acidity_of(perceived(Chem.MolFromSmiles(smiles)), 0) is None, smiles
+
+
+def test_trimethylsulfonium_with_a_weak_base_still_warns():
+    """(guard, passes before and after) trimethylsulfonium's C-H (~18) taken by pyridine."""
+    d = only(YLIDE_BY_PYRIDINE.format(rest="[S+](C)C"), "AR508")
+    assert "a C-H beside a sulfonium (~18)" in d.message
+
+
+def test_dmso_written_charge_separated_is_read_as_a_sulfoxide():
+    """Failed before the change on its value: AR508 all the same, but DMSO's C-H read as a
+    sulfonium's ~18; now a sulfoxide's ~35, as written S=O."""
+    d = only(YLIDE_BY_PYRIDINE.format(rest="[S+](C)[O-]"), "AR508")
+    assert "a C-H beside a sulfoxide (~35)" in d.message
+
+
+# --- 4. AR533 names only the heteroatom the alkene bore before the step -------------------------
+# A plain alkene (2-methylbut-2-ene) bonding to the oxygen of HOCl, chloride leaving: C7 bears no
+# O before the step, so no enol ether is bonded at its wrong carbon. Before the change AR533 read
+# the incoming O5 as the alkene's own ("O5 bonds to C7, the carbon that bears O5").
+ALKENE_ON_HOCL_OXYGEN = PINNICK.replace("    C6=C7 -> C7-Cl4\n    Cl4-O5 -> O5\n",
+                                        "    C6=C7 -> C7-O5\n    Cl4-O5 -> Cl4\n").replace(":O5 -> C6", ":Cl4 -> C6")
+# Rubottom oxidation drawn stepwise at the wrong carbon (Rubottom 1974; from memory): the silyl enol
+# ether bonds to the peracid's O at C3, the carbon that bears O2 (common practice: at C4).
+RUBOTTOM_WRONG_CARBON = '''species enol_ether = "C[Si:1](C)(C)[O:2][C:3]1=[CH:4]CCCC1"
+species peracid = "Clc1cccc(c1)[C:5](=[O:6])[O:7][O:8][H:9]"
+step "the enol ether attacks the peracid oxygen"
+    C3=C4 -> C3-O8
+    O8-O7 -> O7
+end
+'''
+
+
+def test_incoming_oxygen_is_not_read_as_the_alkenes_own():
+    """Failed before the change: AR533 'O5 bonds to C7, the carbon that bears O5'. The slip is
+    AR539's (below)."""
+    assert ALKENE_ON_HOCL_OXYGEN != PINNICK
+    assert "AR533" not in codes(ALKENE_ON_HOCL_OXYGEN)
+
+
+def test_enol_ether_bonded_at_its_oxygen_bearing_carbon_still_warns():
+    """(guard, passes before and after) the silyl enol ether's own O2 is named."""
+    d = only(RUBOTTOM_WRONG_CARBON, "AR533")
+    assert "O8 bonds to C3, the carbon that bears O2" in d.message
+
+
+# --- 5. A carbon nucleophile on the oxygen of HOCl (AR539) ---------------------------------------
+# The O-Cl bond's electrophilic end is Cl, the less electronegative atom (Pauling O 3.44, Cl 3.16;
+# memory): the Pinnick's scavenger takes Cl (common practice, from memory). An enone's epoxidation
+# by hypochlorite closes the enolate onto its own O-Cl oxygen, chloride leaving (the Weitz-Scheffer
+# route, as with hydroperoxide; from memory): a ring closure, not judged.
+ENONE_EPOXIDATION_BY_HYPOCHLORITE = '''species enone = "C[C:1](=[O:2])[CH:3]=[CH:4]C"
+species hypochlorite = "[O-:5][Cl:6]"
+step "hypochlorite adds"
+    :O5 -> C4
+    C3=C4 -> C1=C3
+    C1=O2 -> O2
+end
+step "the enolate closes onto O5, chloride leaves"
+    :O2 -> C1=O2
+    C1=C3 -> C3-O5
+    O5-Cl6 -> Cl6
+end
+product "CC(=O)C1OC1C"
+'''
+
+
+def test_alkene_bonded_to_the_oxygen_of_hocl_is_flagged():
+    """Failed before the change: AR533 for the wrong reason (section 4), then nothing."""
+    d = only(ALKENE_ON_HOCL_OXYGEN, "AR539")
+    assert "C7 bonds to O5 and the pair of O5-Cl4 goes to Cl4" in d.message
+    assert (d.loc.line, d.loc.column) == at(ALKENE_ON_HOCL_OXYGEN, "C6=C7 -> C7-O5")
+    assert "`C6=C7 -> C7-Cl4`" in d.hint
+
+
+def test_enolate_closing_onto_its_own_hypochlorite_oxygen_is_not_judged():
+    """(guard, passes before and after) the epoxide ring closure."""
+    assert "AR539" not in codes(ENONE_EPOXIDATION_BY_HYPOCHLORITE)

@@ -62,6 +62,7 @@ def _registry() -> list[Check]:
         from .chair_shifts import ChairThreeThreeShift
         from .checkpoints import CheckpointsMatch
         from .conservation import ChargeAndAtomsConserved
+        from .hypohalites import CarbonOnHypohaliteOxygen
         from .leaving import ConcertedAcylSubstitution, StrongBaseLeavingGroups, TertiarySubstitution
         from .pericyclic import ForbiddenPericyclic
         from .radicals import FreeHydrogenAtoms, UphillHydrogenAtomTransfers
@@ -83,7 +84,8 @@ def _registry() -> list[Check]:
                                StrainedCumulenes, CarbeneFromCH, FourCentreProtonTransfers,
                                CHPairBondsAsProtonGoes, UnpairedElectronsInPolarMechanism, OniumBesideAte,
                                SigmaComplexesRearomatise, UphillHydrogenAtomTransfers,
-                               FreeHydrogenAtoms, AromaticOxygenNucleophile, CarbonNucleophileOnCarboxylate])
+                               FreeHydrogenAtoms, AromaticOxygenNucleophile, CarbonNucleophileOnCarboxylate,
+                               CarbonOnHypohaliteOxygen])
     return [cls() for cls in _CHECK_CLASSES]
 
 

@@ -242,9 +242,11 @@ def _reacted_at_the_donor_end(st: StepTrace) -> Iterator[tuple[int, Diagnostic]]
         if (elements[other] != 6 or before.bond_electrons(end, other) != 4 or after.formal_charge(other) != 1
                 or after.nonbonding[other] or not _bare_alkyl_cation(after, other)):
             continue
-        donor = next((n.GetIdx() for n in after.mol.GetAtomWithIdx(end).GetNeighbors()
+        # The heteroatom the alkene bore before the step, not the electrophile's own O or N just
+        # bonded to it (a C=C pair taking HOCl's oxygen is no enol ether).
+        donor = next((n.GetIdx() for n in before.mol.GetAtomWithIdx(end).GetNeighbors()
                       if elements[n.GetIdx()] in _ONIUM_CATION and after.formal_charge(n.GetIdx()) == 0
-                      and after.nonbonding[n.GetIdx()] >= 2), None)
+                      and after.nonbonding[n.GetIdx()] >= 2 and after.bond_electrons(end, n.GetIdx())), None)
         if donor is None:
             continue
         yield other, _donor_end_diagnostic(st, m, end, other, taker, donor)

@@ -53,6 +53,10 @@ AZOLIUM_C2_H = (THIAZOLIUM_C2_H, IMIDAZOLIUM_C2_H)
 _RING_CATION = "$([n+]),$(n1:[n+;!$(*[*-])]:a:a:a:1),$(n1:a:[n+;!$(*[*-])]:a:a:1)"
 
 
+# A sulfonium S bearing an electronegative heteroatom (O, N or a halogen): its S-C-H is unjudged.
+_S_HETERO = "$([SX3+][O,N,F,Cl,Br,I])"
+
+
 # A neutral azole's ring atoms (its N-H entries below): an uncharged N, and a carbon in no other
 # ring with no exocyclic double bond (a pyrrolone's or an imidazolone's C=O makes its N-H an
 # amide's, not an azole's).
@@ -239,14 +243,22 @@ TABLE: tuple[Acidity, ...] = (
             "[CX4;!H0;!$(C[NX2,NX3+]=[CX3])][CX3](=O)[O-]", 33, "~33", "acetate ion, 33.5 (Richard, memory)"),
     Acidity("a nitrile alpha C-H", "a nitrile anion", "[CX4;!H0]C#N", 25, "~25", NOT_LISTED),
     Acidity("a terminal alkyne C-H", "an acetylide", "[CX2H1]#C", 25, "~25", TEXTBOOK),
-    Acidity("a C-H beside a sulfonium", "a sulfonium ylide", "[CX4;!H0][SX3+]", 18, "~18", NOT_LISTED),
+    # Trimethylsulfonium's C-H ~18 (memory). An S+ that bears an O, N or halogen (an alkoxy- or
+    # acyloxysulfonium, a chloro- or succinimidosulfonium: the Swern, Moffatt, Parikh-Doering and
+    # Corey-Kim intermediates) pulls harder on its S-CH pair, and a mild amine makes that ylide (common
+    # practice), but no measured pKa is at hand: its S-C-H is left unjudged, here and in the alkane
+    # entry below, rather than read as trimethylsulfonium's.
+    Acidity("a C-H beside a sulfonium", "a sulfonium ylide", f"[CX4;!H0][SX3+;!{_S_HETERO}]", 18, "~18",
+            NOT_LISTED),
     # The vinylogous (gamma) C-H of an enone ~20, an acyl chloride's alpha C-H ~16 (estimated), DMSO's
     # C-H 35, 1,3-dithiane 31, Ph3CH 31.5, Ph2CH2 32, a benzylic or allylic C-H 41-43, an aniline N-H
     # 31 (DMSO scale where no aqueous value exists; memory): not alkanes.
     Acidity("an acyl chloride alpha C-H", "an acyl chloride enolate", "[CX4;!H0][CX3](=O)[Cl,Br]", 16, "~16",
             NOT_LISTED),
     Acidity("an enone gamma C-H", "a dienolate", "[CX4;!H0][CX3]=[CX3][CX3]=O", 20, "~20", NOT_LISTED),
-    Acidity("a C-H beside a sulfoxide", "a sulfinyl carbanion", "[CX4;!H0][SX3](=O)", 35, "~35", NOT_LISTED),
+    # DMSO's C-H 35 (Bordwell, memory), written S=O or charge-separated, S+-O-.
+    Acidity("a C-H beside a sulfoxide", "a sulfinyl carbanion", "[CX4;!H0][$([SX3]=O),$([SX3+][OX1-])]", 35, "~35",
+            NOT_LISTED),
     # A sulfone's alpha C-H: 29 (methyl phenyl sulfone) to 31 (dimethyl sulfone) on Bordwell's DMSO
     # scale (memory); about 24 in water, estimated as acetone's falls from 26.5 in DMSO to 19.3 in
     # water. Hydroxide serves (a Ramberg-Backlund), an amine does not (the Julia's anion takes BuLi).
@@ -274,10 +286,11 @@ TABLE: tuple[Acidity, ...] = (
             TEXTBOOK),
     # Not an alkane: a C-H beside a C=N (an imine, an oxime or its ester: the Neber's methyl), or on
     # the nitrogen side of one (an aldimine's N-CH, whose anion is a 2-azaallyl anion: pyridoxal's
-    # C-alpha-H has pKa about 17, Toth & Richard 2007, memory), a nitro group or a sulfonyl group,
-    # whose anion the neighbour holds; unjudged unless listed.
+    # C-alpha-H has pKa about 17, Toth & Richard 2007, memory), a nitro group, a sulfonyl group or
+    # a heteroatom-bearing sulfonium, whose anion the neighbour holds; unjudged unless listed.
     Acidity("an alkane C-H", "an alkyl carbanion",
-            "[CX4;!H0;!$(C[CX3]=[NX2,NX3+]);!$(C[NX2,NX3+]=[CX3]);!$(C[NX3+](=O)[O-]);!$(C[SX4](=O)=O)]",
+            "[CX4;!H0;!$(C[CX3]=[NX2,NX3+]);!$(C[NX2,NX3+]=[CX3]);!$(C[NX3+](=O)[O-]);!$(C[SX4](=O)=O);"
+            f"!$(C[{_S_HETERO}])]",
             50, "~50", TEXTBOOK),
 )
 
