@@ -1312,6 +1312,40 @@ def test_untouched_atoms_stay_put(text, name):
                 assert was * now >= -1e-6 * bl ** 4, (before.index, "mirrored", step.before.label(i))
 
 
+# How far a by-product may stand from the molecule it left, heavy atom to heavy atom, in bond
+# lengths: an arrow's reach across a proton hop (the layout's PARTNER_REACH; from memory of
+# textbook schemes, a base and the proton it takes stand about two and a half bonds apart).
+_BESIDE_ITS_PANEL = 2.6
+
+
+@pytest.mark.parametrize("text,name", _mechanisms())
+def test_a_by_product_stands_beside_the_molecule_it_left(text, name):
+    """A species that a step sets free or hands a proton to, which the next step leaves alone
+    and the panel after does not draw (it waits for nothing), stands within _BESIDE_ITS_PANEL
+    of another molecule of its panel (common practice: a by-product is drawn beside the molecule
+    it came off, within its panel; left where it stood a panel before while that molecule was
+    redrawn, the chloride of a mesylation or the water of a Beckmann rearrangement hung in the
+    gap between rows, more than three bond lengths from anything). A species waiting for the
+    step after next stands where it acts then (its atoms keep their place) and is not asked."""
+    trace, _, scene = _scene(text, name)
+    bl = scene.bond_length
+    for before, panel, after in zip(scene.panels, scene.panels[1:], scene.panels[2:]):
+        if before.step is None or panel.step is None:
+            continue
+        step = trace.steps[before.step]
+        freed = _touched(trace, before.step)
+        acting = _touched(trace, panel.step)
+        heavy = {a.index: a.position for a in panel.atoms if a.element != "H"}
+        drawn_next = {a.index for a in after.atoms}
+        for piece in Chem.GetMolFrags(step.after.mol, asMols=False, sanitizeFrags=False):
+            mine = [i for i in piece if i in heavy]
+            rest = [p for i, p in heavy.items() if i not in piece]
+            if not mine or not rest or not freed & set(piece) or acting & set(piece) or drawn_next & set(piece):
+                continue
+            gap = min(_distance(heavy[i], p) for i in mine for p in rest) / bl
+            assert gap <= _BESIDE_ITS_PANEL, (panel.index, step.after.label(mine[0]), round(gap, 2))
+
+
 @pytest.mark.parametrize("name, step", [("cope", 0), ("claisen rearrangement", 0), ("anionic oxy-cope", 1)])
 def test_a_sigmatropic_shift_is_drawn_in_its_ring(name, step):
     """A [3,3] shift is drawn in its cyclic six-atom array, on both sides of the arrow: the ends

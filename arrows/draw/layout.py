@@ -54,6 +54,9 @@ CYCLOADDITION_GAP = 1.8
 # other, so the curved arrow between them has room to bend.
 APPROACH = 2.2
 _CLEARANCE = 1.2     # nearest approach allowed between atoms of separately placed clusters
+# A by-product left where it acted, with nothing nearer than this (bond lengths), is stranded.
+_STRANDED = 1.8
+_CARRIED_NEARER = 0.3   # ...and carried with the molecule it left only if that brings it this much nearer
 _LET_GO = 1.6        # a leaving group's atom stands this far from the atom it left, once gone
 _LET_GO_REACH = 3.0  # ...and no further than this from the atom it takes a proton from next
 _LET_GO_CLEAR = 1.5  # ...and, where it can, keeps other atoms this far off
@@ -3638,6 +3641,7 @@ class _LayoutBuilder:
             return previous
         atoms = set(self.clusters[index].atoms)
         k = segment[0]
+        previous = self._carried_by_partner(index, segment, previous)
         mol = self.states[k].mol
         split = [(i, j) for i, j in self.broken[k - 1] if (i in atoms) != (j in atoms)]
         apart = any(mol.GetAtomWithIdx(i if i in atoms else j).GetNumRadicalElectrons()
@@ -3690,6 +3694,56 @@ class _LayoutBuilder:
                 best, best_fit = moved, here
         # Nowhere quite clear: the roomiest of the tries, if it beats staying put.
         return (rotation, best, direction, pull_back)
+
+    def _carried_by_partner(self, index: int, segment: tuple[int, int], previous: tuple) -> tuple:
+        """`previous` (where cluster `index` acted in panel k-1, k the segment's first panel)
+        carried along with the atom of another cluster it gave a proton to, took one from or
+        broke its bond to at step k-1, where that atom moved between the panels and left it
+        stranded (nothing heavy within _STRANDED): a by-product stands beside the molecule it
+        left (common practice), not where that molecule stood a panel before (the water a
+        protonated ketone gave off, left in the row gap once the ketone is redrawn). Turned with
+        the partner's heavy bonds kept in both panels, and stepped out from the partner until it
+        stands clear; taken only if that is nearer the rest than where it was."""
+        k = segment[0]
+        atoms = set(self.clusters[index].atoms)
+        before, here = self.positions[k - 1], self.positions[k]
+        partners = {b if a in atoms else a for kk, kind, a, b, _ in self.events
+                    if kk == k - 1 and kind == "hop" and (a in atoms) != (b in atoms)}
+        partners |= {j if i in atoms else i for i, j in self.broken[k - 1] if (i in atoms) != (j in atoms)}
+        partners = {p for p in partners if p in before and p in here and self.element[p] != 1}
+        if len(partners) != 1:
+            return previous
+        partner = partners.pop()
+        if abs(here[partner] - before[partner]) < 0.05:
+            return previous
+        local = [p for a, p in self.clusters[index].local_at(k).items() if a in self.exists[k]]
+        panels = range(segment[0], segment[1] + 1)
+        others = [(p, self.element[a] != 1) for kk in panels for a, p in self.positions[kk].items()
+                  if a not in atoms and a in self.exists[kk]]
+        if not local or not any(heavy for _, heavy in others):
+            return previous
+
+        def nearest(placement: tuple, heavy_only: bool) -> float:
+            rotation, shift = placement[:2]
+            # (heavy atoms, for how far: a travelling hydrogen is drawn on few panels)
+            return min(abs(shift + rotation * p - q) for p in local for q, heavy in others if heavy or not heavy_only)
+        stranded = nearest(previous, True)
+        if stranded <= _STRANDED:
+            return previous   # (still beside something: left where it acted)
+        arms = [(before[n] - before[partner], here[n] - here[partner]) for n in self.neighbours[partner]
+                if n in before and n in here and n not in atoms and self.element[n] != 1
+                and (min(n, partner), max(n, partner)) in self.bonds_in[k - 1] & self.bonds_in[k]]
+        turns = [unit(after / was) for was, after in arms if abs(was) > 1e-9 and abs(after) > 1e-9]
+        turn = unit(sum(turns)) if turns and abs(sum(turns)) > 1e-9 else 1 + 0j
+        rotation, shift, direction, pull_back = previous
+        carried = here[partner] + turn * (shift - before[partner])
+        # Where it stood bonded (a chloride off sulfur), it steps out along that line until clear.
+        out = unit(carried + turn * rotation * sum(local) / len(local) - here[partner])
+        for extra in (0.0, 0.5, 1.0, 1.5):
+            placement = (turn * rotation, carried + out * extra, turn * direction, pull_back)
+            if nearest(placement, False) >= _CLEARANCE:
+                return placement if nearest(placement, True) < stranded - _CARRIED_NEARER else previous
+        return previous
 
     def _footprint_of_taker(self, index: int, k: int) -> Optional[np.ndarray]:
         """For a cluster of one atom bonded in panel k to an atom of a larger cluster not yet
