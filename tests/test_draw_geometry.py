@@ -1556,6 +1556,29 @@ def test_joining_molecules_wait_apart_facing_each_other():
             assert _distance(shift, shifts[0]) < 0.02 * scene.bond_length
 
 
+def test_a_molecule_bonding_into_a_later_ring_waits_apart_before_it_bonds():
+    """Tribromomethanide bonds to the phosphorus (step 2) of the oxaphosphetane both end in
+    (Corey-Fuchs). Before that step, CBr4 and then CBr3- wait with their carbon 2-2.5 bond
+    lengths from the phosphorus (room for the curved arrow; common practice in organic chemistry
+    texts), not a bond length from it as if bonded; every bond keeps one bond length (IUPAC 2008),
+    and the anion slides in as a rigid body, the bromine it loses in step 3 included (common
+    practice: a molecule keeps its shape from panel to panel). At 7025d56 the carbon stood 1.00
+    from the phosphorus, unbonded, in panel 1, was flipped across its two kept bromines in panel 2,
+    and its bond to the third was drawn 1.78 bond lengths long."""
+    name = "corey-fuchs"
+    trace, _, scene = _scene(TEXTBOOK[name][0], name)
+    carbon, phosphorus, bromines = 20, 6, (21, 22, 23)   # C2, P1; Br4, Br5, Br6 (RDKit's indices)
+    assert (min(carbon, phosphorus), max(carbon, phosphorus)) in {tuple(sorted(b)) for b in trace.steps[1].change.formed}
+    where = [{a.index: complex(*a.position) for a in panel.atoms} for panel in scene.panels]
+    for k in (0, 1):
+        assert 2.0 <= abs(where[k][carbon] - where[k][phosphorus]) / scene.bond_length <= 2.5, k
+    for k in (0, 1, 2):
+        for bromine in bromines:
+            assert abs(abs(where[k][carbon] - where[k][bromine]) / scene.bond_length - 1) < 0.02, (k, bromine)
+    shifts = [where[2][a] - where[1][a] for a in (carbon,) + bromines]
+    assert all(abs(shift - shifts[0]) < 0.02 * scene.bond_length for shift in shifts), shifts
+
+
 @pytest.mark.parametrize("text,name", _mechanisms())
 def test_bonds_and_charges_are_rdkit_s(text, name):
     """Each panel draws exactly the bonds between its drawn atoms in RDKit's Mol of that state,

@@ -5836,9 +5836,7 @@ TEXTBOOK = {
     "schmidt": (SCHMIDT_MECHANISM, "CNC(C)=O", False),
     # the tin hydride's Sn-H fishhooks are short, as in the tributyltin reduction
     "barton-mccombie": (BARTON_MCCOMBIE, "C1CCCCC1", False),
-    # the first panel draws CBr4's bromine against the phosphine it bonds to (0.48 bond lengths
-    # from a phenyl carbon), the first two arrows short; the phenyls no longer overlap
-    "corey-fuchs": (COREY_FUCHS, "BrC(Br)=Cc1ccccc1", False),
+    "corey-fuchs": (COREY_FUCHS, "BrC(Br)=Cc1ccccc1", True),
     "imidazole acyl transfer": (IMIDAZOLE_ACYL_TRANSFER, "COC(C)=O", True),
     # the proton taken by N6 is drawn on O5's far side, its arrow arching over the C4 methyl
     "passerini": (PASSERINI, "CC(OC(C)=O)C(=O)NC(C)(C)C", False),

@@ -281,6 +281,7 @@ class ArrowPlanner:
         for w, options, pairs in zip(work, kept, pair_costs):
             _split_bond_sides(w, options, pairs)
         chosen = [self._choose(options, pairs) for options, pairs in zip(kept, pair_costs)]
+        chosen = [self._off_signs(w, cands, options, points) for w, cands, options in zip(work, chosen, kept)]
         # A short arrow gets a smaller head, so the head never swallows the curve; where the
         # shaft's end falls on each curve (under the head) is found for all arrows at once.
         curves = [c for cands in chosen for c in cands]
@@ -295,7 +296,6 @@ class ArrowPlanner:
                 out.append(([], []))
                 continue
             w, cands = next(done)
-            self._clear_paths(w, cands, points)
             out.append(([self._arrow(w.step, move, src, snk, cand, w.panel, *next(ends))
                          for move, src, snk, cand in zip(w.moves, w.sources, w.sinks, cands)], w.marks))
         return out
@@ -420,6 +420,28 @@ class ArrowPlanner:
         marks.append(Mark(kind, atom, dots=tuple((d.real, d.imag) for d in dots),
                           radius=self.dot_radius, box=box))
         return _Anchor("dots", spot, (atom,), outward=direction)
+
+    def _off_signs(self, w: _PanelArrows, chosen: list[_Candidate], options: list[list[_Candidate]],
+                   points: np.ndarray) -> list[_Candidate]:
+        """The panel's charge signs moved off its chosen arrows (_clear_paths); an arrow still over
+        one, which found no clear place (an ylide carbon's minus between its three bonds and the
+        pair that leaves it), takes the cheapest of its kept options that keeps clear of every
+        sign, else of the one that runs over none: an arrow over a minus reads as a different sign
+        (common practice)."""
+        self._clear_paths(w, chosen, points)
+        signs = [m.box for m in w.panel.marks if m.kind == "charge" and m.box is not None]
+
+        def over_sign(candidate: _Candidate, pad: float = 0.0) -> bool:
+            path = points[candidate.row].tolist()
+            return any(_on_path(box, path, pad) for box in signs)
+        out = []
+        for c, tries in zip(chosen, options):
+            if over_sign(c):
+                ranked = sorted(tries, key=_COST)
+                c = next((o for o in ranked if not over_sign(o, _MARK_GAP * self.fs)),
+                         next((o for o in ranked if not over_sign(o)), c))
+            out.append(c)
+        return out
 
     def _clear_paths(self, w: _PanelArrows, chosen: list[_Candidate], points: np.ndarray) -> None:
         """An arrow that runs over a labelled atom's charge sign (the sign was set before the

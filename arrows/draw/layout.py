@@ -469,6 +469,22 @@ def _held_off(local: dict[int, complex], atoms: frozenset[int], ends: list[tuple
     return offset
 
 
+def _rigid_move(before: dict[int, complex], after: dict[int, complex], atoms: list[int]
+                ) -> Optional[tuple[complex, int]]:
+    """(turn, pivot atom) of the rigid motion taking `atoms` from `before` to `after` (after[x] -
+    after[pivot] == turn * (before[x] - before[pivot])); None for fewer than two atoms or a motion
+    that is not rigid."""
+    if len(atoms) < 2:
+        return None
+    a = atoms[0]
+    b = max(atoms, key=lambda x: abs(before[x] - before[a]))
+    turn = 1 + 0j if abs(before[b] - before[a]) < 1e-9 else (after[b] - after[a]) / (before[b] - before[a])
+    if abs(abs(turn) - 1.0) > 1e-6 or any(abs(after[x] - after[a] - turn * (before[x] - before[a])) > 1e-6
+                                           for x in atoms):
+        return None
+    return turn, a
+
+
 @lru_cache(maxsize=None)
 def _rotor(count: int, divisions: int) -> complex:
     """The unit turn by count * pi / divisions (a placement tries a few dozen of the same turns)."""
@@ -1148,6 +1164,8 @@ class _LayoutBuilder:
         staged = [(sides, bonds) for sides, bonds in partners if not self._hold_apart(sides, bonds)]
         for sides, bonds in staged:
             self._hold_apart_staged(sides, bonds)
+        for cluster in self.clusters:
+            self._hold_off_arrivals(cluster)
         # The largest cluster; of two alike (two tributyltin species), the one the first step
         # touches, so that the other, waiting for a later step, is placed round the action.
         self.main = min(range(len(self.clusters)), key=lambda k: (-len(self.clusters[k].atoms), self._first_touch(k),
@@ -1472,6 +1490,49 @@ class _LayoutBuilder:
             return   # curled as the ring sets it, it takes no partner's spot: drawn so (a diol beside its ketone)
         offset = _held_off(local, atoms, ends, out, APPROACH, _CLEARANCE, spots + bases)
         cluster.openings.append((atoms, first, step, offset))
+
+    def _hold_off_arrivals(self, cluster: _Cluster) -> None:
+        """A molecule that bonds to another piece of its cluster's depiction and carries a group
+        of another cluster through that step (tribromomethanide adding to the phosphorus of the
+        oxaphosphetane the two end in, with the bromine it loses next) waits about APPROACH bond
+        lengths out along the bonds it makes, in the panels before, as a separate reagent waits.
+        Drawn where the finished ring sets it, it stood a bond length from its partner, unbonded;
+        _open_rings, which opens such a bond by swinging or flipping its end alone, flipped the
+        carbon away from that bromine, the bond drawn 1.78 bond lengths long. The smaller side
+        moves, as a whole, over the panels in which it is that same molecule; a bond already drawn
+        open (a cycloaddition's partners held apart) is left as it is."""
+        members = set(cluster.atoms)
+        for step in range(self.n - 1):
+            molecule = {a: number for number, frag in enumerate(self.molecules[step]) for a in frag}
+            made = [(i, j) for i, j in sorted(self.made[step]) if i in members and j in members
+                    and molecule.get(i) is not None and molecule.get(j) is not None and molecule[i] != molecule[j]]
+            for pair in sorted({tuple(sorted((molecule[i], molecule[j]))) for i, j in made}):
+                sides = [frozenset(a for a in members if molecule.get(a) == number) for number in pair]
+                atoms = min(sides, key=lambda side: (len(side), sorted(side)))
+                local = cluster.held_off_at(step)
+                ends = [(i, j) if i in atoms else (j, i) for i, j in made if {molecule[i], molecule[j]} == set(pair)]
+                if sum(abs(local[i] - local[j]) for i, j in ends) / len(ends) > _CURLED:
+                    continue
+                if not self._carries_across(atoms, members, step):
+                    continue   # _open_rings swings or flips its end open, later
+                first = step
+                while first > 0 and atoms <= self.exists[first - 1] and any(
+                        set(m) & members == atoms for m in self.molecules[first - 1]):
+                    first -= 1
+                out = unit(sum(local[i] for i, _ in ends) - sum(local[j] for _, j in ends))
+                if out == 0:
+                    continue
+                present = set().union(*self.exists[first:step + 1])
+                shown = {a: p for a, p in local.items() if a in present}
+                offset = _held_off(shown, atoms, ends, out, APPROACH, _CLEARANCE)
+                cluster.openings.append((atoms, first, step, offset))
+
+    def _carries_across(self, atoms: frozenset[int], members: set[int], step: int) -> bool:
+        """Whether an atom of `atoms` is bonded to a heavy atom outside its cluster's `members`
+        on both sides of `step`, by a bond the step leaves alone."""
+        return any(self.element[n] != 1 and n not in members
+                   and (min(a, n), max(a, n)) in self.bonds_in[step] and (min(a, n), max(a, n)) in self.bonds_in[step + 1]
+                   for a in atoms for n in self.neighbours[a])
 
     def _satellites(self, atoms: frozenset[int], bonds: list[tuple[int, int]], panels: range,
                     local: dict[int, complex]) -> tuple[list[complex], list[complex]]:
@@ -3147,14 +3208,15 @@ class _LayoutBuilder:
         if len(partner.atoms) <= len(self.clusters[self.cluster_of[links[0][0]]].atoms):
             return None   # only a smaller group rides on a larger body (DMF is not carried by its oxygen)
         shared = [x for x in partner.atoms if x in before and x in here]
-        if len(shared) < 2:
+        moved = _rigid_move(before, here, shared)
+        if moved is None:
+            # Only the molecule it hangs on moved so (the tribromomethanide held off the phosphorus
+            # it then bonds to, in the depiction of the ring both end in): carried with that.
+            molecule = next((set(m) for m in self.molecules[source] if links[0][1] in m), set())
+            moved = _rigid_move(before, here, [x for x in shared if x in molecule])
+        if moved is None:
             return None
-        a = shared[0]
-        b = max(shared, key=lambda x: abs(before[x] - before[a]))
-        turn = 1 + 0j if abs(before[b] - before[a]) < 1e-9 else (here[b] - here[a]) / (before[b] - before[a])
-        if abs(abs(turn) - 1.0) > 1e-6 or any(abs(here[x] - here[a] - turn * (before[x] - before[a])) > 1e-6
-                                               for x in shared):
-            return None
+        turn, a = moved
         rotation, shift = placement[:2]
         return (turn * rotation, here[a] + turn * (shift - before[a])) + tuple(placement[2:])
 
