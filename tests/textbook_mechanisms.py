@@ -5868,8 +5868,9 @@ TEXTBOOK = {
     # the ring N-H taken in panel 6 stands under N9 beside its methyl, its label run into O6's (a
     # crowding note), and its half-loop lies on the N-methyl bond
     "paal-knorr pyrrole": (PAAL_KNORR_PYRROLE, "Cc1ccc(C)n1C", False),
-    # the ketoester and the aminoketone move out of shape as they join (C2 to O4 changes by 0.68
-    # bond lengths after panel 1), and panel 10's oxonium sign stands off its oxygen
+    # the aminoketone keeps its shape as it joins (test_a_molecule_keeps_its_shape_as_it_joins),
+    # but in panel 2 the hydrogen just put on the ketoester's O12 points at the waiting amine: its
+    # label runs into N1's (a crowding note); panel 10's oxonium sign stands off its oxygen
     "knorr pyrrole": (KNORR_PYRROLE, "CCOC(=O)c1c(C)[nH]cc1C", False),
     "hantzsch dihydropyridine": (HANTZSCH_DIHYDROPYRIDINE, "COC(=O)C1=C(C)NC(C)=C(C(=O)OC)C1C", True),
     "biginelli": (BIGINELLI, "COC(=O)C1=C(C)NC(=O)NC1C", True),
@@ -5878,11 +5879,12 @@ TEXTBOOK = {
     "doebner-miller": (DOEBNER_MILLER, "CC1C=Cc2ccccc2N1", False),
     "bischler-napieralski": (BISCHLER_NAPIERALSKI, "CC1=NCCc2ccccc21", True),
     "robinson-gabriel": (ROBINSON_GABRIEL, "Cc1cnc(C)o1", True),
-    # the alkylidene and S8 move out of shape as they join (N1 to C13 changes by 0.50 bond lengths
-    # after panel 6), S8 is drawn in panel 1 and then not until it reacts, and panel 3's N-H
-    # half-loop is 0.56 bond lengths long
-    "gewald first steps": (GEWALD_FIRST_STEPS, "CCOC(=O)C(C#N)=C(C)CSSSSSSS[S-]", False),
+    # S8 is drawn in panel 1 and then not until it reacts, panel 3's N-H half-loop is 0.56 bond
+    # lengths long (a note) and panel 5's C3=C4 arrow crosses C2-C3 (a note)
+    "gewald first steps": (GEWALD_FIRST_STEPS, "CCOC(=O)C(C#N)=C(C)CSSSSSSS[S-]", True),
     "gewald ring closure": (GEWALD_RING_CLOSURE, "CCOC(=O)c1c(C)csc1N", True),
-    # C2, untouched by the step, moves 0.21 bond lengths after panel 5
+    # as the ring closes (panel 6 to 7) the molecule takes a new depiction, fitted over every atom
+    # the step leaves alone: the benzene ring turns (C2 moves 0.21 bond lengths) as C4, C11 (drawn
+    # round a gap before) and the methyl on C10 move to the new ring's places
     "friedlander": (FRIEDLANDER, "Cc1ccc2ccccc2n1", False),
 }

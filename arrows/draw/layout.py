@@ -922,8 +922,8 @@ class _LayoutBuilder:
                     else:
                         flips = [f for f in (self._flip(i, j, k), self._flip(j, i, k)) if f is not None]
                         if flips:
-                            _, panels, flipped = max(flips, key=lambda f: f[0])
-                            for p in panels:
+                            _, placed = max(flips, key=lambda f: f[0])
+                            for p, flipped in placed.items():
                                 self.positions[p].update(flipped)
 
     def _crowded(self, atom: int) -> bool:
@@ -1018,13 +1018,16 @@ class _LayoutBuilder:
             self.positions[p][end] = best + (self.positions[p][pivot] - centre) if held_apart else best
         return True
 
-    def _flip(self, end: int, partner: int, k: int) -> Optional[tuple[float, range, dict[int, complex]]]:
+    def _flip(self, end: int, partner: int, k: int) -> Optional[tuple[float, dict[int, dict[int, complex]]]]:
         """A ring closing at an atom inside the chain (a ketone carbon between the ring and its
         methyl): the atom may be drawn on the other side of the line through its two fixed
         neighbours, taking its touched end groups (the C=O oxygen) with it, in the panels
         before the closing step. Every bond keeps its length and the chain reads as an open
         zigzag, with the closing atoms about APPROACH apart; nothing the step leaves alone
-        moves. Returns (room around the moved atoms, panels, new positions), or None."""
+        moves. In earlier panels where its molecule waits apart, shifted as a whole (the
+        aminoketone of a Knorr pyrrole before it bonds), the atom is flipped there too, so the
+        molecule keeps its shape as it comes in. Returns (room around the moved atoms, new
+        positions by panel), or None."""
         if end not in self.touched[k] or self.element[end] == 1:
             return None
         here = self.positions[k]
@@ -1044,9 +1047,11 @@ class _LayoutBuilder:
         # Back through the panels where its pivots stand where they do at k: the flip is worked out
         # there, and a pivot drawn elsewhere earlier (the acid's O10 of a Passerini reaction, placed
         # apart before it bonds) would have its bond to the flipped atom stretched (to 2.15).
+        shifts = {k: 0j}
         while first > 0 and all(a in self.exists[first - 1] and a not in self.touched[first - 1] for a in moving) \
-                and all(self.positions[first - 1].get(n) == here[n] for n in pivots):
+                and (shift := self._shifted_whole(pivots + moving, first - 1, k)) is not None:
             first -= 1
+            shifts[first] = shift
         panels = range(first, k + 1)
         if any((min(end, n), max(end, n)) not in self.bonds_in[p] for p in panels for n in pivots + carried):
             return None
@@ -1056,11 +1061,22 @@ class _LayoutBuilder:
         reach = abs(flipped[end] - here[partner])
         if not 1.5 <= reach <= APPROACH + 0.4:
             return None   # (before the room is measured: most flips fail here)
-        crowd = [q for p in panels for x, q in self.positions[p].items() if x not in moving]
+        crowd = [q - shifts[p] for p in panels for x, q in self.positions[p].items() if x not in moving]
         room = min((abs(f - q) for f in flipped.values() for q in crowd), default=9.0)
         if room < 0.95:
             return None
-        return room, panels, flipped
+        return room, {p: {m: z + shifts[p] for m, z in flipped.items()} for p in panels}
+
+    def _shifted_whole(self, atoms: list[int], p: int, k: int) -> Optional[complex]:
+        """The shift that carries `atoms` from where panel k draws them to where panel p does, if
+        one shift carries them all (0 where they stand still); None otherwise."""
+        there, here = self.positions[p], self.positions[k]
+        if any(a not in there for a in atoms):
+            return None
+        if all(there[a] == here[a] for a in atoms[:2]):
+            return 0j   # (the pivots stand still: the end may be drawn anew there)
+        shift = there[atoms[0]] - here[atoms[0]]
+        return shift if all(abs(there[a] - here[a] - shift) < 1e-9 for a in atoms) else None
 
     def _permanent(self, i: int, j: int) -> bool:
         """Present in every state that has both atoms (a fragment that leaves is still there)."""
@@ -3183,13 +3199,14 @@ class _LayoutBuilder:
         if before is not None and before[0] in cluster.placement:
             if any(cluster.local_at(first - 1).get(a) != local.get(a) for a in cluster.atoms):
                 return None   # drawn anew from here: its old placement says nothing
-            if len(links) < 2 and mine & self.touched[first - 1]:
+            riding = self._rides_with_joining_molecule(mine, first - 1)
+            if len(links) < 2 and mine & self.touched[first - 1] and not riding:
                 return None
             placement = cluster.placement[before[0]]
             if bonded(placement):
                 return placement
             carried = self._carried_with(links, first - 1, first, placement) \
-                if links and not mine & self.touched[first - 1] else None
+                if links and (riding or not mine & self.touched[first - 1]) else None
             return carried if carried is not None and bonded(carried) else None
         after = cluster.segment_at.get(last + 1)
         if after is not None and after[0] in cluster.placement and links and not mine & self.touched[last] \
@@ -3197,6 +3214,14 @@ class _LayoutBuilder:
             carried = self._carried_with(links, last + 1, first, cluster.placement[after[0]])
             return carried if carried is not None and bonded(carried) else None
         return None
+
+    def _rides_with_joining_molecule(self, atoms: set[int], k: int) -> bool:
+        """Whether `atoms` (a cluster) may move between panels k and k+1 only because its molecule
+        joins another there: some atom of it is left alone by the step. Such a cluster keeps its
+        place on its molecule (the alkylidene's methyl as its CH2 takes S8), as the rest of the
+        molecule keeps its shape."""
+        present = atoms & self.exists[k] & self.exists[k + 1]
+        return bool(present - self.touched[k]) and present <= self.joining[k]
 
     def _carried_with(self, links: list[tuple[int, int]], source: int, target: int, placement: tuple) -> Optional[tuple]:
         """`placement`, made for panel `source`, moved as the cluster it hangs on moved, as a rigid
