@@ -2499,7 +2499,9 @@ def test_a_half_loop_with_no_room_is_noted():
     tick (a path of 0.56 bond lengths, under the 0.8 that reads as a half-loop). Like the other
     compromises of the layout, it is told in a note that `arrows draw` prints. (The Cr=O of
     chromic acid, hemmed in by the other oxygens, was such a case: its half-loop now turns toward
-    the O, test_a_half_loop_hemmed_in_by_a_neighbours_label_turns_toward_its_atom.)"""
+    the O, test_a_half_loop_hemmed_in_by_a_neighbours_label_turns_toward_its_atom. The sign has
+    no other place to go: the half-loops sweep the side over the bond, and the only gaps left
+    round the N stand beside its H, where "H+" reads as a proton.)"""
     scene = scene_of("aziridine closure", "two-column")
     arrow, = [a for a in half_loops(scene.panels[1]) if a.move == "N1-H -> N1"]
     assert path_length(arrow) < 0.8 * scene.bond_length
@@ -3371,6 +3373,19 @@ def test_a_nucleophile_comes_into_a_carbonyl_carbon_from_the_open_side(name, pan
     assert [c for c in _bonds_crossed(scene) if c[:2] == (panel, move)] == []
 
 
+def _assert_a_legible_half_loop(name: str, style: str, panel_index: int, move: str):
+    """The panel and the half-loop `move` of it, checked to be a path of at least 0.8 bond
+    lengths through no other atom's label."""
+    scene = scene_of(name, style)
+    panel = scene.panels[panel_index]
+    arrow, = [a for a in half_loops(panel) if a.move == move]
+    assert path_length(arrow) >= 0.8 * scene.bond_length, path_length(arrow) / scene.bond_length
+    points = arrow.path_points(80)
+    others = [a for a in panel.atoms if a.box is not None and a.index not in arrow.source_atoms]
+    assert not [a.name for a in others if any(a.box.contains(p) for p in points)]
+    return panel, arrow
+
+
 @pytest.mark.parametrize("name, panel_index, move", [
     ("vilsmeier reagent", 0, "P5-Cl4 -> Cl4"),
     ("chromic acid oxidation", 0, "Cr4=O3 -> O3"),
@@ -3387,13 +3402,7 @@ def test_a_half_loop_hemmed_in_by_a_neighbours_label_turns_toward_its_atom(name,
     the atom, a path of at least 0.8 bond lengths (the legibility measure of the tests above;
     common practice: the half-loop from a bond onto its own atom reads as a curve), through no
     other atom's label."""
-    scene = scene_of(name, style)
-    panel = scene.panels[panel_index]
-    arrow, = [a for a in half_loops(panel) if a.move == move]
-    assert path_length(arrow) >= 0.8 * scene.bond_length, path_length(arrow) / scene.bond_length
-    points = arrow.path_points(80)
-    others = [a for a in panel.atoms if a.box is not None and a.index not in arrow.source_atoms]
-    assert not [a.name for a in others if any(a.box.contains(p) for p in points)]
+    _assert_a_legible_half_loop(name, style, panel_index, move)
 
 
 def _shifts_with_leaving_group(step) -> list[tuple[int, int, int, int]]:
@@ -3444,3 +3453,35 @@ def test_a_migrating_group_stands_anti_to_the_leaving_group(name, style):
             assert group_side * leaving_side < 0, (panel.index, group, leaving, group_side, leaving_side)
             checked += 1
     assert checked, "no 1,2-shift with a leaving group found"
+
+
+@pytest.mark.parametrize("name, panel_index, move", [
+    ("beckmann", 4, "O5-H -> O5"),
+    ("meyer-schuster", 4, "O5-H -> O5"),
+    ("boc removal", 4, "C3-N2 -> N2"),
+])
+@pytest.mark.parametrize("style", ["slide", "two-column"])
+def test_a_charge_sign_makes_way_for_a_half_loop_onto_its_atom(name, panel_index, move, style):
+    """A bond going back onto an N+ or O+ whose label writes its own H on one side of that bond
+    and sets the charge sign on the other (the carbamic acid's N+ in the Boc removal, its H under
+    the N and the + over the C-N bond): every half-loop ran into the H or the sign, and the arrow
+    was drawn as a tick under the bond, a path of 0.56-0.58 bond lengths (Meyer-Schuster: in the
+    two-column style). The sign now moves round the label and
+    the half-loop passes where it stood: a path of at least 0.8 bond lengths (the legibility
+    measure of the tests above; common practice: the half-loop from a bond onto its own atom
+    reads as a curve) through no other atom's label. The sign still reads as its atom's (common
+    practice: it sits close beside its own label): nearer that atom than any other, off every
+    bond stroke, and clear of every arrow of the panel, shaft and head. (Not beside the label's
+    own H above or below, where it reads as a proton: test_draw_editorial checks that.)"""
+    panel, arrow = _assert_a_legible_half_loop(name, style, panel_index, move)
+    atom = arrow.sink_atoms[0]
+    sign, = [m for m in panel.marks if m.kind == "charge" and m.atom == atom]
+    middle = ((sign.box.x0 + sign.box.x1) / 2, (sign.box.y0 + sign.box.y1) / 2)
+
+    def distance(a) -> float:
+        return a.box.distance(middle) if a.box is not None else math.dist(a.position, middle)
+    nearest = min(panel.atoms, key=distance)
+    assert nearest.index == atom, (nearest.name, distance(nearest), [distance(a) for a in panel.atoms if a.index == atom])
+    assert not [b.atoms for b in panel.bonds if any(_segment_meets_box(p, q, sign.box) for p, q in b.lines)]
+    assert not [a.move for a in panel.arrows
+                if any(sign.box.contains(p) for p in a.path_points(80) + list(a.head))]

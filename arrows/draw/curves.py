@@ -22,7 +22,7 @@ from __future__ import annotations
 
 import cmath
 import math
-from dataclasses import dataclass, replace
+from dataclasses import dataclass, field, replace
 from functools import lru_cache
 from itertools import chain, repeat
 from operator import attrgetter
@@ -235,6 +235,10 @@ class _PanelArrows:
     tries: list[list[_Candidate]]      # every candidate curve of each arrow
     rows: Optional[slice] = None       # the rows of its candidates in the scheme's sample array
     obstacles: Optional[_Obstacles] = None
+    # Charge signs moved out of the way of turned half-loops: (arrow, its candidates that ran over
+    # the sign, the sign as it stood, its atom's occupied directions as they were), put back if the
+    # arrow is drawn otherwise.
+    sign_moves: list = field(default_factory=list)
 
 
 class ArrowPlanner:
@@ -281,6 +285,8 @@ class ArrowPlanner:
         for w, options, pairs in zip(work, kept, pair_costs):
             _split_bond_sides(w, options, pairs)
         chosen = [self._choose(options, pairs) for options, pairs in zip(kept, pair_costs)]
+        for w, cands in zip(work, chosen):
+            _put_back_signs(w, cands)
         chosen = [self._off_signs(w, cands, options, points) for w, cands, options in zip(work, chosen, kept)]
         # A short arrow gets a smaller head, so the head never swallows the curve; where the
         # shaft's end falls on each curve (under the head) is found for all arrows at once.
@@ -502,6 +508,10 @@ class ArrowPlanner:
                  for within in (False, True) for out in (0.08, 0.3, 0.5) for d in free if inside(d) == within]
         labels = [a.box for i, a in panel.atoms.items() if i != atom and a.box is not None]
         size = sign.runs[0].size if sign.runs else self.fs
+        # Its own label's hydrogens written above or below the symbol: a sign just beside them
+        # reads as theirs ("H+" under an ammonium N, a proton), as structure.py keeps it from.
+        symbol, rest = panel.label_parts.get(atom, (None, ()))
+        hydrogens = [b for b in rest if not (b.y0 < symbol.y1 and symbol.y0 < b.y1)]
         minus = bool(sign.runs) and sign.runs[-1].text.endswith(MINUS)
         for candidates, apart in ((tries + wider, True), (near, False)):
             for shift, d in candidates:
@@ -509,7 +519,8 @@ class ArrowPlanner:
                 grown = Box(box.x0 - pad, box.y0 - pad, box.x1 + pad, box.y1 + pad)
                 if (any(box.overlaps(b, pad) for b in others) or any(segment_hits_box(p, q, grown) for p, q in bonds)
                         or _on_path(box, paths, pad)
-                        or (minus and minus_along_stroke(box.x0, box.width, (box.y0 + box.y1) / 2, bonds, self.bl))):
+                        or (minus and minus_along_stroke(box.x0, box.width, (box.y0 + box.y1) / 2, bonds, self.bl))
+                        or level_and_close(box, hydrogens, size, apart=0.6)):
                     continue
                 if apart and (level_and_close(box, labels, size) or any(box.overlaps(b, 0.3 * size) for b in labels)):
                     continue
@@ -653,9 +664,44 @@ class ArrowPlanner:
         for w in work:
             for k, (move, src, snk) in enumerate(zip(w.moves, w.sources, w.sinks)):
                 if to_own_atom(move) and min(w.tries[k], key=_COST).length < _TICK_LENGTH * self.bl:
-                    w.tries[k] = w.tries[k] + self._hooks(move, src, snk, w.panel, _HOOK_TURNS)
+                    hooks = self._hooks(move, src, snk, w.panel, _HOOK_TURNS)
+                    w.tries[k] = w.tries[k] + hooks
+                    self._free_sign_for_hooks(w, k, snk.atoms[0], hooks)
                     turned = True
         return turned
+
+    def _free_sign_for_hooks(self, w: _PanelArrows, k: int, atom: int, hooks: list[_Candidate]) -> None:
+        """Where the atom's own charge sign lies on every turned half-loop of arrow k (the + over
+        the N-H of an aziridinium whose H, written under the N, takes the other side), the sign
+        moves round the label clear of them, shaft and head (_clear_marks: beside the label, off
+        the bonds and other labels), so they are weighed against the tick without it; it goes
+        back (_put_back_signs) if the arrow is drawn otherwise."""
+        sign = next((m for m in w.panel.marks if m.kind == "charge" and m.atom == atom and m.box is not None), None)
+        if sign is None or not hooks:
+            return
+        pad = _MARK_GAP * self.fs
+        outlines = [self._outline_points(c) for c in hooks]
+        if not all(_on_path(sign.box, points, pad) for points in outlines):
+            return
+        # (the arrow's other candidates that ran over it may be drawn with it moved too)
+        freed = [c for c in w.tries[k] if _on_path(sign.box, self._outline_points(c), pad)]
+        occupied = list(w.panel.occupied[atom])
+        points = [p for points in outlines for p in points]
+        if self._clear_marks(w.panel, w.marks, atom, pad, [], None, points, points):
+            # Not into the atom's ring, where the sign reads as the ring's (the morpholinium N+
+            # of a Gewald reaction's first steps): the tick is left there.
+            if _inside_own_ring(w.panel, atom)(w.panel.occupied[atom][-1]):
+                _put_sign_back(w.panel, sign, occupied)
+            else:
+                w.sign_moves.append((k, freed, sign, occupied))
+
+    def _outline_points(self, c: _Candidate) -> list[complex]:
+        """Points along a candidate's shaft and at its head's barbs (as _arrow draws them at
+        full size)."""
+        shaft = (np.array([c.p0, c.p1, c.p2, c.tip]) @ _BERNSTEIN).tolist()
+        arrive = unit(c.tip - c.p2)
+        back = c.tip - arrive * self.head_length
+        return shaft + [back + arrive * 1j * s * self.head_width / 2 for s in (1, -1)]
 
     def _hooks(self, move: ResolvedMove, src: _Anchor, snk: _Anchor, panel: PanelStructure,
                turns: tuple[float, ...] = ()) -> list[_Candidate]:
@@ -1107,6 +1153,21 @@ def _inside_own_ring(panel: PanelStructure, atom: int):
         turn = cmath.phase(d / first)
         return 0 < turn < span if span > 0 else span < turn < 0
     return inside
+
+
+def _put_back_signs(w: _PanelArrows, chosen: list[_Candidate]) -> None:
+    """Each charge sign moved for an arrow's turned half-loops back where it stood if the
+    arrow is drawn as none of the candidates that ran over it: it moved only to make room."""
+    for k, freed, sign, occupied in w.sign_moves:
+        if not any(chosen[k] is c for c in freed):
+            _put_sign_back(w.panel, sign, occupied)
+
+
+def _put_sign_back(panel: PanelStructure, sign: Mark, occupied: list[complex]) -> None:
+    """The atom's charge sign, moved, back as `sign`, and its occupied directions as they were."""
+    moved = next(m for m in panel.marks if m.kind == "charge" and m.atom == sign.atom)
+    panel.marks[panel.marks.index(moved)] = sign
+    panel.occupied[sign.atom] = occupied
 
 
 def _on_path(box: Box, points: list[complex], pad: float) -> bool:
