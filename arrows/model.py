@@ -287,9 +287,9 @@ class Comment:
     what it annotates, as a JSON pointer into the mechanism's JSON object ("" the mechanism itself,
     "/title", "/species/water", "/steps/0", "/steps/0/moves/1", "/steps/0/uses/acid", "/product"),
     `place` one of COMMENT_PLACES. `break_after`: for an "inline" comment on a statement written over
-    several lines, how many of its tokens (`H(C3)` counting as one) come before the line the comment
-    ends; None when it ends the statement's last line, so that comments on the lines of one statement
-    stay on lines of their own."""
+    several lines, how many of its tokens (`H(C3)` counting as one) come before the line break that
+    ends the comment's line; None when it ends the statement's last line, so that comments on the
+    lines of one statement stay on lines of their own."""
 
     text: str
     at: str = ""

@@ -6,7 +6,8 @@ substitutions in one step at a tertiary carbon (AR520) or at a carbonyl carbon (
 A pair move from a bond to one of that bond's atoms (`C8-N20 -> N20`) breaks the bond and leaves
 the pair on that atom: a leaving group. A good leaving group is a weak base (common practice: the
 usual ones are the conjugate bases of acids of pKa below about 16; hydroxide and alkoxides, met in
-E1cB eliminations and acyl substitutions, are the poorest that textbooks let leave). One that
+E1cB eliminations and acyl substitutions, are the poorest that textbooks let leave; displaced from
+an sp3 carbon in one step, no small ring opened, they are AR510's too). One that
 leaves carbon as an anion whose conjugate acid has a pKa of 35 or more (an amide ion R2N-, an
 amine ~38; a vinyl, aryl or alkyl carbanion, ~44-50; a hydride ion, H2 ~35) is almost never
 expelled: the group is meant to be protonated first (an amine leaves a carbinolamine as R2NH,
@@ -159,7 +160,8 @@ class StrongBaseLeavingGroups(Check):
             label = st.before.label
             if elements[leaving] == 8 and after.formal_charge(leaving) > -2 and not ionised:
                 # An alkoxide pushed out (an E1cB, a tetrahedral intermediate): judged only where
-                # a strong acid stands by, which would have protonated it first.
+                # a strong acid stands by, which would have protonated it first, or where a
+                # nucleophile displaces it from an sp3 carbon in one step (an SN2).
                 found = (self._pushed_out_in_acid(st, move, leaving, centre) or self._pushed_out_by_e2(st, move, leaving, centre)
                          or _pushed_out_of_an_acetal(st, move, leaving, centre)
                          or _displaced_in_one_step(st, move, leaving, centre))
