@@ -412,7 +412,8 @@ CODES = _table(
          "At P or S, a carbanion pushed off as P=O forms (a phosphonium salt cleaved by base) and any oxygen "
          "leaving are not judged. Hydroxide or an alkoxide displaced from an sp3 carbon by a nucleophile in "
          "one step (an SN2 of an alcohol or ether) is flagged too: it is protonated, or made a sulfonate or "
-         "halide, first; an epoxide opened, a phenoxide or carboxylate leaving are not.",
+         "halide, first; a three- or four-membered ring opened (an epoxide), a phenoxide or carboxylate "
+         "leaving are not.",
          'species adduct = "C[C:1]([O-:2])(C)[N:3](C)C"\n'
          'step "the amine leaves"\n'
          '    :O2 -> C1=O2\n'

@@ -7,6 +7,9 @@ import sys
 from pathlib import Path
 
 import pytest
+from rdkit import Chem
+
+from arrows.judgement.acidity import acidity_of, perceived
 
 sys.path.insert(0, str(Path(__file__).resolve().parent))
 from textbook_mechanisms import (BIGINELLI, BISCHLER_NAPIERALSKI, DOEBNER_MILLER, FISCHER_INDOLE, FRIEDLANDER,  # noqa: E402
@@ -94,3 +97,12 @@ CORRECT = {
 def test_a_correct_heterocycle_synthesis_is_clean(name):
     """(guards) no warning or error before the change or after."""
     assert codes(CORRECT[name]) == []
+
+
+@pytest.mark.parametrize("smiles", ["CC(=N)OC", "CC(=N)N"], ids=["imidate", "amidine"])
+def test_an_imidates_or_amidines_alpha_c_h_is_not_read_as_an_imines(smiles):
+    """The imine alpha C-H's ~20 (a lower bound from the ketone's, common practice) is for a C=N
+    carbon bearing carbon or hydrogen only: an imidate's or amidine's C=N carbon, whose O or N
+    donates into the C=N, has no value at hand and is not read as an imine's (it was, before)."""
+    entry = acidity_of(perceived(Chem.MolFromSmiles(smiles)), 0)
+    assert entry is None or entry.acid != "an imine alpha C-H", entry

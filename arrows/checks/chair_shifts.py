@@ -119,6 +119,19 @@ class ChairChiralityWatch(ChiralityWatch):
             (configured_as(state, outcome, shift.kept) for outcome in shift.outcomes) if variant is not None)
 
 
+def forms_racemate(trace) -> bool:
+    """Whether a replayed mechanism ends as a racemate: ChairChiralityWatch's verdict, as AR605's
+    (a [3,3] shift from a chiral start whose chairs give diastereomers keeps the product chiral)."""
+    standing = StandingChairShifts()
+    watch = ChairChiralityWatch(standing)
+    for st in trace.steps:
+        watch.before(st)
+        if st.after is not None:
+            standing.step(st)
+        watch.after(st)
+    return watch.racemic
+
+
 class ChairThreeThreeShift(Check):
     name = "[3,3] shift through a chair"
     codes = ("AR605",)

@@ -23,6 +23,7 @@ from ..diagnostics import Diagnostic
 from ..electrons import ResolvedMove
 from ..trace import StepTrace
 from . import Check
+from .valence import attack_sent_elsewhere
 
 # Halogens less electronegative than oxygen: the electrophilic end of their bond to O.
 _ELECTROPHILIC_HALOGENS = frozenset({17, 35, 53})
@@ -71,9 +72,7 @@ def _diagnostic(st: StepTrace, nucleophile: int, oxygen: int, halogen: int, spli
     before, label = st.before, st.before.label
     n, o, x = label(nucleophile), label(oxygen), label(halogen)
     symbol = before.mol.GetAtomWithIdx(halogen).GetSymbol()
-    attack = next(m for m in st.change.moves
-                  if nucleophile in m.source_atoms and set(m.sink_atoms) == {nucleophile, oxygen})
-    instead = f"`:{n} -> {x}`" if attack.source_kind == "lone_pair" else f"`{attack.move.source} -> {n}-{x}`"
+    attack, instead = attack_sent_elsewhere(st.change, nucleophile, oxygen, n, x)
     # An alkene's pair leaves a cation (no enolate's O pushing in), which water or hydroxide then catches.
     cation = any(k != nucleophile and st.after.formal_charge(k) == 1 for k in attack.source_atoms)
     then = "; water or hydroxide then adds to the cation (halohydrin formation)" if cation else ""

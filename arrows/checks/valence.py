@@ -331,6 +331,14 @@ def _nucleophile_at(change, elements, atom: int, kinds: tuple[int, ...] = (1, 6)
     return partner if partner is not None and elements[partner] in kinds else None
 
 
+def attack_sent_elsewhere(change, nucleophile: int, taken: int, n: str, x: str) -> tuple:
+    """The move by which `nucleophile` (labelled n) bonds to `taken` in this step, and that move
+    written onto atom x instead (`:n -> x` from a lone pair, `source -> n-x` from a bond): the fix
+    AR514 and AR539 give for a nucleophile sent to the wrong end of a polar bond."""
+    attack = next(m for m in change.moves if nucleophile in m.source_atoms and set(m.sink_atoms) == {nucleophile, taken})
+    return attack, f"`:{n} -> {x}`" if attack.source_kind == "lone_pair" else f"`{attack.move.source} -> {n}-{x}`"
+
+
 # Nucleophiles judged at the wrong end of a C=O, C=N, C#N or ketene: carbon and hydride (umpolung
 # aside, common practice), and the O, N and S nucleophiles (water, an alcohol, an amine, a
 # carboxylate, a thiol) that add at the carbon of a nitrilium ion, an iminium ion, an isocyanate,
@@ -451,8 +459,7 @@ def _pi_pair_onto_oxo_centre(st: StepTrace) -> Iterator[Diagnostic]:
             continue
         x, o, n = after.label(centre), after.label(oxygen), before.label(attacker)
         symbol = after.mol.GetAtomWithIdx(centre).GetSymbol()
-        attack = next(m for m in change.moves if attacker in m.source_atoms and set(m.sink_atoms) == {attacker, oxygen})
-        instead = f"`:{n} -> {x}`" if attack.source_kind == "lone_pair" else f"`{attack.move.source} -> {n}-{x}`"
+        attack, instead = attack_sent_elsewhere(change, attacker, oxygen, n, x)
         yield Diagnostic(
             "AR514", f"{n} bonds to {o} and the pi pair of {x}={o} goes onto {x}: backwards, the electrophilic atom "
             f"of {'a' if symbol == 'P' else 'an'} {symbol}=O bond with no lone pair is {x}", move.move.loc,

@@ -246,15 +246,6 @@ class ChiralityWatch:
         return holds_chirality(state)
 
 
-def forms_racemate(trace) -> bool:
-    """ChiralityWatch's verdict at the end of a replayed mechanism."""
-    watch = ChiralityWatch()
-    for st in trace.steps:
-        watch.before(st)
-        watch.after(st)
-    return watch.racemic
-
-
 def mismatches(state: ElectronState, checkpoint: Checkpoint, what: str, step: Optional[int],
                racemic: bool, cleared: Optional[Mapping[int, Cleared]] = None) -> list[Diagnostic]:
     """AR603 for each written piece of `checkpoint` configured otherwise than `state` has it, or

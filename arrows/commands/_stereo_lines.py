@@ -6,7 +6,7 @@ from __future__ import annotations
 from rdkit import Chem
 
 from ..checks.stereo import chair_allowance, chairs_named, final_stereo, step_stereo
-from ..checks.written_stereo import forms_racemate
+from ..checks.chair_shifts import forms_racemate
 from ..judgement.stereo import CENTRE, StereoElement, cip_codes, cip_labels, describe, is_chiral, pairwise_relations
 from ..trace import StepTrace, Trace
 

@@ -232,7 +232,8 @@ TABLE: tuple[Acidity, ...] = (
     # than a ketone's alpha C-H. The ketone's 19-20 is a lower bound for it: a base that is far too
     # weak for a ketone (water, chloride taking a hydrazone's C-H before the Fischer [3,3]) is
     # far too weak here.
-    Acidity("an imine alpha C-H", "an aza-enolate", "[CX4;!H0][CX3]=[NX2]", 20, "~20",
+    # (An imidate's or amidine's C=N carbon, bearing O or N, is left out: no value at hand.)
+    Acidity("an imine alpha C-H", "an aza-enolate", "[CX4;!H0][CX3;!$([CX3]([OX2,NX3])=[NX2])]=[NX2]", 20, "~20",
             "common practice: less acidic than a ketone's alpha C-H (19-20, textbook; memory)"),
     # A carboxylate ion's alpha C-H, ~33 (acetate ion, 33.5; Richard, Williams, O'Donoghue & Amyes;
     # memory): its enolate is a dianion. Mandelate's is ~29 (Gerlt & Gassman; memory): a benzylic one
