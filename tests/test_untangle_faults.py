@@ -82,3 +82,13 @@ def test_bonds_crossing_at_right_angles_through_their_middles_are_found():
         spin = complex(math.cos(turn), math.sin(turn))
         here = {0: -0.5 * spin, 1: 0.5 * spin, 2: -0.5j * spin, 3: 0.5j * spin}
         assert _faultless([here], [[(0, 1), (2, 3)]], frozenset()) == [False]
+
+
+def test_a_label_beside_the_middle_of_a_short_bond_is_found():
+    # An atom on a bond reaches furthest from that bond's ends beside its middle: a label 0.44 off
+    # the middle of a bond 0.6 long stands hypot(0.44, 0.3) = 0.53 from either end, beyond the
+    # crossing reach of 0.6 / sqrt(2) = 0.42 (the label's term of the reach; an exact case).
+    for turn in (0.0, 0.7, 2.0):
+        spin = complex(math.cos(turn), math.sin(turn))
+        here = {0: -0.3 * spin, 1: 0.3 * spin, 2: 0.44j * spin}
+        assert _faultless([here], [[(0, 1)]], frozenset({2})) == [False]

@@ -61,10 +61,13 @@ _LABELLED_HOOK = 0.6            # bond lengths: how deep a hook between two labe
 _HEAD_BASE = 0.72                # head lengths from a head's tip back to its base (the notch, _arrow)
 _HOOK_LENGTH = 0.9              # bond lengths: the shortest path that reads as an arc from a bond to its own atom
 _SHORT_HOOK = 30.0              # penalty per bond length such an arrow falls short of that
-# Where every hook of such an arrow is shorter than _TICK_LENGTH (its usual half-loop runs into a
+# Bond lengths: the shortest path (shaft and head) of an arrow from a bond to one of its own atoms
+# that reads as a half-loop; shorter, it prints as a tick beside the bond (the geometry tests'
+# measure: 0.56-0.79 read as ticks in a figure review, 0.88 and more as curves; scheme notes it).
+LEGIBLE_HOOK = 0.8
+# Where every hook of such an arrow is shorter than LEGIBLE_HOOK (its usual half-loop runs into a
 # neighbour's label by the bond's middle, the tick left): half-loops turned this far round toward
 # the atom, which bulge out beside the atom instead, _TURNED_DEPTH deep.
-_TICK_LENGTH = 0.8              # bond lengths (the figure's note on a hook that reads as a tick says so below this)
 _HOOK_TURNS = (math.radians(30), math.radians(50))
 _TURNED_DEPTH = 0.45            # bond lengths
 _TICK = 4.0                     # penalty of a plain arc where a pair goes from a bond to its own atom
@@ -658,12 +661,12 @@ class ArrowPlanner:
 
     def _turn_short_hooks(self, work: list[_PanelArrows]) -> bool:
         """Whether any arrow from a bond to its own atom whose cheapest candidate is shorter
-        than _TICK_LENGTH (a tick: its half-loops run into a neighbour's label by the bond's
+        than LEGIBLE_HOOK (a tick: its half-loops run into a neighbour's label by the bond's
         middle, as the O of P=O beside the P-Cl of POCl3) was given turned half-loops to try."""
         turned = False
         for w in work:
             for k, (move, src, snk) in enumerate(zip(w.moves, w.sources, w.sinks)):
-                if to_own_atom(move) and min(w.tries[k], key=_COST).length < _TICK_LENGTH * self.bl:
+                if to_own_atom(move) and min(w.tries[k], key=_COST).length < LEGIBLE_HOOK * self.bl:
                     hooks = self._hooks(move, src, snk, w.panel, _HOOK_TURNS)
                     w.tries[k] = w.tries[k] + hooks
                     self._free_sign_for_hooks(w, k, snk.atoms[0], hooks)

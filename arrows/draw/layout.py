@@ -36,7 +36,7 @@ from ..rdkit_io import bond_list
 from .branches import ease_clashes, side_beyond, slot_beside
 from .cages import draw_cages_in_perspective
 from .plane import (angular_gaps, any_inside_polygons, collinear, crosses_any, distance_to_segment, free_direction,
-                    gap_around, gap_beside, gap_facing, inside_polygon, segments_cross, unit)
+                    gap_around, gap_beside, gap_facing, inside_polygon, segments_cross, unit, unit_or_zero)
 from .untangle import Untangler
 
 # Gap between a transferred hydrogen and the atom that takes it, in bond lengths: room for a
@@ -1044,12 +1044,13 @@ class _LayoutBuilder:
             return None   # flipped across its ring neighbours it would fold the ring (an arene's carbon)
         moving = [end] + carried
         first = k
-        # Back through the panels where its pivots stand where they do at k: the flip is worked out
+        # Back through the panels where its pivots stand where they do at k, or where the pivots and
+        # the moving atoms all stand shifted by one step (_shifted_whole): the flip is worked out
         # there, and a pivot drawn elsewhere earlier (the acid's O10 of a Passerini reaction, placed
         # apart before it bonds) would have its bond to the flipped atom stretched (to 2.15).
         shifts = {k: 0j}
         while first > 0 and all(a in self.exists[first - 1] and a not in self.touched[first - 1] for a in moving) \
-                and (shift := self._shifted_whole(pivots + moving, first - 1, k)) is not None:
+                and (shift := self._shifted_whole(pivots, moving, first - 1, k)) is not None:
             first -= 1
             shifts[first] = shift
         panels = range(first, k + 1)
@@ -1067,14 +1068,16 @@ class _LayoutBuilder:
             return None
         return room, {p: {m: z + shifts[p] for m, z in flipped.items()} for p in panels}
 
-    def _shifted_whole(self, atoms: list[int], p: int, k: int) -> Optional[complex]:
-        """The shift that carries `atoms` from where panel k draws them to where panel p does, if
-        one shift carries them all (0 where they stand still); None otherwise."""
+    def _shifted_whole(self, pivots: list[int], moving: list[int], p: int, k: int) -> Optional[complex]:
+        """The shift that carries `pivots` and `moving` from where panel k draws them to where
+        panel p does, if one shift carries them all; 0 where the pivots stand still (the moving
+        atoms may be drawn anew there); None otherwise."""
         there, here = self.positions[p], self.positions[k]
+        atoms = pivots + moving
         if any(a not in there for a in atoms):
             return None
-        if all(there[a] == here[a] for a in atoms[:2]):
-            return 0j   # (the pivots stand still: the end may be drawn anew there)
+        if all(there[a] == here[a] for a in pivots):
+            return 0j
         shift = there[atoms[0]] - here[atoms[0]]
         return shift if all(abs(there[a] - here[a] - shift) < 1e-9 for a in atoms) else None
 
@@ -1498,7 +1501,7 @@ class _LayoutBuilder:
         ends = [(i, j) if i in atoms else (j, i) for i, j in bonds if (i, j) in self.bonds_in[first_bonded]]
         if not ends or sum(abs(local[i] - local[j]) for i, j in ends) / len(ends) > _CURLED:
             return   # the depiction of these panels has the partners apart already
-        out = unit(sum(local[i] for i, _ in ends) - sum(local[j] for _, j in ends))
+        out = unit_or_zero(sum(local[i] for i, _ in ends) - sum(local[j] for _, j in ends))
         if out == 0:
             return
         spots, bases = self._satellites(atoms, bonds, range(first, step + 1), local)
@@ -1535,7 +1538,7 @@ class _LayoutBuilder:
                 while first > 0 and atoms <= self.exists[first - 1] and any(
                         set(m) & members == atoms for m in self.molecules[first - 1]):
                     first -= 1
-                out = unit(sum(local[i] for i, _ in ends) - sum(local[j] for _, j in ends))
+                out = unit_or_zero(sum(local[i] for i, _ in ends) - sum(local[j] for _, j in ends))
                 if out == 0:
                     continue
                 present = set().union(*self.exists[first:step + 1])

@@ -22,7 +22,7 @@ from ..electrons import ElectronState, ResolvedMove, bonds_after
 from ..rdkit_io import atom_list, bond_list, formula as molecular_formula, fragment
 from ..trace import StepTrace, Trace
 from .branches import may_stand_closer
-from .curves import ArrowPlanner, to_own_atom
+from .curves import LEGIBLE_HOOK, ArrowPlanner, to_own_atom
 from .layout import Layout, compute_layout, molecules_of
 from .phenyls import PHENYL_LABEL, spectator_phenyls
 from .plane import distance_to_segment, segments_cross
@@ -589,12 +589,6 @@ def _crowded_atoms(scene: Scene) -> tuple[str, ...]:
     return tuple(notes)
 
 
-# Bond lengths: the shortest path (shaft and head) of an arrow from a bond to one of its own atoms
-# that reads as a half-loop; shorter, it prints as a tick beside the bond (the geometry tests'
-# measure: 0.56-0.79 read as ticks in a figure review, 0.88 and more as curves).
-_LEGIBLE_HOOK = 0.8
-
-
 def _hooked_atoms(src: _PanelSource, visible: Sequence[int]) -> list[int]:
     """The drawn atoms of a panel that a half-loop comes into (a pair or an electron going from a
     bond to that atom): their map numbers are set after the arrows (place_held_numbers). (The
@@ -608,7 +602,7 @@ def _hooked_atoms(src: _PanelSource, visible: Sequence[int]) -> list[int]:
 
 def _cramped_hooks(scene: Scene) -> tuple[str, ...]:
     """A note for each panel where an arrow from a bond to one of its own atoms is shorter than
-    _LEGIBLE_HOOK, the structure round the bond leaving no room for a half-loop (common practice
+    LEGIBLE_HOOK, the structure round the bond leaving no room for a half-loop (common practice
     draws it as a clear curve), so that the author looks before using the figure."""
     notes = []
     for panel in scene.panels:
@@ -617,7 +611,7 @@ def _cramped_hooks(scene: Scene) -> tuple[str, ...]:
                 continue
             points = arrow.path_points(16)   # (within 1% of the length at 40 samples; a quarter of the cost)
             length = sum(math.dist(a, b) for a, b in zip(points, points[1:])) / scene.bond_length
-            if length < _LEGIBLE_HOOK:
+            if length < LEGIBLE_HOOK:
                 notes.append(f"panel {panel.index + 1}: the arrow {arrow.move} is a curve of {length:.2f} bond lengths, "
                              f"too short to read as a half-loop: the structure leaves it no room; check the figure")
                 break
