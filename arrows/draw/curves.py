@@ -78,6 +78,9 @@ _SHIFT_BULGE = 0.2              # bond lengths a 1,2-shift's arc stands out from
 # (the Hofmann rearrangement's methyl shift to nitrogen, at 5.0, bulged inward).
 _TIGHT_SHIFT = 20.0
 _WIDE_ANGLE = math.radians(135)   # up to this angle a hook may reach over the neighbour's bond
+# Penalty per sample of a bond crossed: one of a named atom's (the arrow's own neighbourhood, where
+# some crossing is hard to avoid) weighs a third of any other.
+_OWN_CROSSING, _CROSSING = 6.0, 18.0
 _CROOK = 1.0                    # penalty of an arc cramped inside the angle of the two bonds it joins
 _KNOT = 4.0                     # penalty of one that goes round the outside where other bonds shut the way
 # Reductions are called as numpy's ufunc methods (np.add.reduce for .sum, np.minimum.reduce for
@@ -872,7 +875,7 @@ class ArrowPlanner:
                                  _inner_samples_near(pts, inner, extent, bare_xy, near)], axis=1)
         ends = _padded([o.bond_ends for o in obs], (0, 0), int).take(panel_of, axis=0)
         own_first, own_second = own[arrow, ends[..., 0]], own[arrow, ends[..., 1]]   # (arrows, bonds): each end named
-        crossing = np.where(own_first | own_second, 6.0, 18.0)
+        crossing = np.where(own_first | own_second, _OWN_CROSSING, _CROSSING)
         for k, anchors in enumerate(zip(sources, sinks)):
             for anchor in anchors:
                 if anchor.kind == "bond":   # the bond the arrow starts or ends on is no obstacle
@@ -1276,7 +1279,7 @@ def _weigh_crossings_into_atom(crossing: np.ndarray, moves: list[ResolvedMove], 
         atom, named = sink.atoms[0], set(move.source_atoms)
         for (i, j), bond in obstacles[k].bond_index.items():
             if atom in (i, j) and not ({i, j} - {atom}) <= named:
-                crossing[k, bond] = 18.0
+                crossing[k, bond] = _CROSSING
 
 
 def _is_split(move: ResolvedMove) -> bool:

@@ -3141,12 +3141,11 @@ class _LayoutBuilder:
 
     def _left_standing_by(self, anchor: int, mover: int, k: int, kind: str, mine: Iterable[int]) -> list[complex]:
         """For a bond that forms anew in the step into panel k, the directions in panel k-1 of the atoms
-        of a molecule that has let go of `anchor` in an earlier step and stands within
-        _STANDING_BY_REACH of it there, and that panel k no longer draws (the acetate an
-        acylpyridinium let go, kept where it left): the
-        mover waits in panel k-1 along the line it comes in on, and on their side it would wait
-        behind them, its arrow running over their bonds (common practice: a nucleophile comes in
-        from the open side)."""
+        of a molecule that has let go of `anchor` in an earlier step, stands within
+        _STANDING_BY_REACH of it there and is no longer drawn in panel k (the acetate an
+        acylpyridinium let go, kept where it left). The mover waits in panel k-1 along the line it
+        comes in on: on their side it would wait behind them, its arrow running over their bonds
+        (common practice: a nucleophile comes in from the open side)."""
         if (kind != "bond" or k == 0 or anchor not in self.positions[k - 1]
                 or (min(anchor, mover), max(anchor, mover)) in self.bonds_in[k - 1]):
             return []   # (a bond already there, its order changing, keeps its place)
