@@ -1983,6 +1983,46 @@ def test_a_charge_sign_stays_off_every_bond_stroke(text, name):
                     (panel.index, mark.atom, bond.atoms)
 
 
+# Known left: the benzyne's carbanion (panel 1) has one free side outside its ring, taken by the
+# lone pair that closes the triple bond and the arrow from it; its minus keeps pointing at the
+# ammonia's H 1.5 bond lengths away, 25 degrees off its line.
+_SIGN_BESIDE_ITS_DOTS = "benzyne"
+
+
+@pytest.mark.parametrize("text,name", [
+    pytest.param(*p.values, id=p.id, marks=pytest.mark.xfail(strict=True, reason="known left: see _SIGN_BESIDE_ITS_DOTS"))
+    if p.id == _SIGN_BESIDE_ITS_DOTS else p for p in _mechanisms() if p.values[1] in _CORPUS])
+def test_a_skeletal_vertex_s_charge_does_not_point_at_another_molecule(text, name):
+    """The charge sign of a skeletal vertex (a carbocation's +, a carbanion's -) faces a gap with
+    no other molecule (RDKit's fragments of the panel's state) within 30 degrees of the line from
+    the vertex through the sign, out to 2.5 bond lengths (common practice: the sign is a small
+    superscript in a free gap of its own atom; standing between two species a + reads as "A + B",
+    a minus as a bond). The Boc removal's tert-butyl cation once wrote its + 0.66 bond lengths out,
+    level with the carbamic acid's carbon 1.7 beyond; the E1 dehydration's + pointed at the water
+    leaving it, the haloform's CBr3 minus at the acid it deprotonates (eleven corpus schemes
+    mended; the benzyne is left, see _SIGN_BESIDE_ITS_DOTS). Every such sign stays within
+    0.8 bond lengths of its vertex (0.45-0.78 measured; the quarter bond length of white from its
+    bond lines that test_draw_editorial asks for keeps it beyond about 0.4)."""
+    trace, _, scene = _scene(text, name)
+    bl = scene.bond_length
+    states = [trace.initial] + [s.after for s in trace.steps]
+    for panel in scene.panels:
+        fragments = Chem.GetMolFrags(states[panel.index].mol)
+        where = {a.index: complex(*a.position) for a in panel.atoms}
+        for mark in panel.marks:
+            if mark.kind != "charge" or panel.atom(mark.atom).box is not None:
+                continue
+            vertex = where[mark.atom]
+            toward = complex((mark.box.x0 + mark.box.x1) / 2, (mark.box.y0 + mark.box.y1) / 2) - vertex
+            assert abs(toward) <= 0.8 * bl, (panel.index, mark.atom, abs(toward) / bl)
+            own = next(f for f in fragments if mark.atom in f)
+            for j, p in where.items():
+                if j in own or not 0 < abs(p - vertex) < 2.5 * bl:
+                    continue
+                assert abs(cmath.phase((p - vertex) / toward)) >= math.radians(30), \
+                    (panel.index, panel.atom(mark.atom).name, panel.atom(j).name)
+
+
 @pytest.mark.parametrize("text,name", _mechanisms())
 def test_a_minus_sign_does_not_read_as_a_bond_stroke(text, name):
     """A minus sign does not run alongside a bond stroke, near parallel (within 15 degrees) and

@@ -34,8 +34,8 @@ from ..electrons import ElectronState, ResolvedMove
 from .formula import MINUS
 from .plane import unit
 from .scene import Box, CurvedArrow, Mark
-from .structure import (PanelStructure, clearance, closes_cycle, level_and_close, minus_along_stroke, ranked_directions,
-                        segment_hits_box)
+from .structure import (PanelStructure, clearance, closes_cycle, level_and_close, minus_along_stroke, other_molecules,
+                        points_at_another, ranked_directions, segment_hits_box)
 from .styles import Style
 
 _SAMPLES = 16
@@ -519,7 +519,11 @@ class ArrowPlanner:
         symbol, rest = panel.label_parts.get(atom, (None, ()))
         hydrogens = [b for b in rest if not (b.y0 < symbol.y1 and symbol.y0 < b.y1)]
         minus = bool(sign.runs) and sign.runs[-1].text.endswith(MINUS)
-        for candidates, apart in ((tries + wider, True), (near, False)):
+        # Beside a skeletal vertex, not toward another molecule where it can (it would read as a
+        # "+" between them), before anywhere else.
+        elsewhere = other_molecules(panel, atom) if panel.atoms[atom].box is None else []
+        passes = [(tries + wider, True, True)] * bool(elsewhere) + [(tries + wider, True, False), (near, False, False)]
+        for candidates, apart, facing_away in passes:
             for shift, d in candidates:
                 box = sign.box.shifted(shift.real, shift.imag)
                 grown = Box(box.x0 - pad, box.y0 - pad, box.x1 + pad, box.y1 + pad)
@@ -528,7 +532,8 @@ class ArrowPlanner:
                         or (minus and minus_along_stroke(box.x0, box.width, (box.y0 + box.y1) / 2, bonds, self.bl))
                         or level_and_close(box, hydrogens, size, apart=0.6)):
                     continue
-                if apart and (level_and_close(box, labels, size) or any(box.overlaps(b, 0.3 * size) for b in labels)):
+                if apart and (level_and_close(box, labels, size) or any(box.overlaps(b, 0.3 * size) for b in labels)
+                              or (facing_away and points_at_another(box, centre, elsewhere, self.bl))):
                     continue
                 moved = Mark(sign.kind, atom, tuple(replace(r, x=r.x + shift.real, y=r.y + shift.imag) for r in sign.runs),
                              box=box, colour=sign.colour)

@@ -237,6 +237,13 @@ def level_and_close(sign: Box, labels: list[Box], size: float, apart: float = 0.
                for b in labels)
 
 
+def _as_superscript_of(sign: Box, labels: list[Box], size: float) -> bool:
+    """Whether a charge sign stands where one of `labels` would write its own charge: just after
+    it and raised, its foot above the label's middle (a carbanion's minus there read as "Br-")."""
+    return any(b.x1 - 0.1 * size <= sign.x0 < b.x1 + 0.6 * size and sign.y1 < (b.y0 + b.y1) / 2
+               and sign.y1 > b.y0 - 0.3 * size for b in labels)
+
+
 def _nearer_another(box: Box, atom: int, out: PanelStructure, margin: float = 1.25, letters: bool = False) -> bool:
     """Whether the middle of `box` stands less than `margin` times as far from another drawn atom
     (with `letters`, another atom written as a letter) as from `atom`: too near the other to read
@@ -250,6 +257,32 @@ def _nearer_another(box: Box, atom: int, out: PanelStructure, margin: float = 1.
 # Bond lengths: a stereocentre this near another one whose CIP label is drawn sets its own label
 # away from it (two adjacent centres, or across a three-membered ring, are one bond apart).
 _LABELLED_NEIGHBOUR = 1.6
+
+
+def other_molecules(out: PanelStructure, atom: int) -> list[complex]:
+    """Where the panel's atoms not joined to `atom` by its drawn bonds stand."""
+    joined, todo = {atom}, [atom]
+    partners: dict[int, list[int]] = {}
+    for bond in out.bonds:
+        a, b = bond.atoms
+        partners.setdefault(a, []).append(b)
+        partners.setdefault(b, []).append(a)
+    while todo:
+        for j in partners.get(todo.pop(), ()):
+            if j not in joined:
+                joined.add(j)
+                todo.append(j)
+    return [p for j, p in out.positions.items() if j not in joined and j in out.atoms]
+
+
+def points_at_another(box: Box, vertex: complex, others: Sequence[complex], bond_length: float) -> bool:
+    """Whether one of `others` (atoms of other molecules) lies beyond the sign in `box`, within
+    _TOWARD_ANOTHER of the line from its `vertex` through the sign's middle and _ANOTHER_WITHIN."""
+    toward = complex((box.x0 + box.x1) / 2, (box.y0 + box.y1) / 2) - vertex
+    if not toward:
+        return False
+    return any(0 < abs(p - vertex) < _ANOTHER_WITHIN * bond_length and abs(cmath.phase((p - vertex) / toward)) < _TOWARD_ANOTHER
+               for p in others)
 
 
 def _separation(a: Box, b: Box) -> float:
@@ -401,6 +434,12 @@ _CLEARLY_ITS_OWN = 1.4
 # ...and its middle no nearer than this to a bare vertex of another molecule: a spent H3O+'s "+"
 # 0.48 bond lengths from an alkene carbon read as a carbocation there.
 _BY_A_VERTEX = 0.5
+# Another molecule's atom within this angle of the line from a skeletal vertex through its charge
+# sign, and this near the vertex (bond lengths), makes the sign read as a "+" between two species
+# (the Boc removal's tert-butyl cation: "tBu + carbamic acid"); common practice sets it in a gap
+# facing away from them.
+_TOWARD_ANOTHER = math.radians(30)
+_ANOTHER_WITHIN = 2.5
 # Bonds and bonds about to form round an atom with this many or more leave no gap wide enough for a
 # charge sign and the arrows into the forming bonds together (five: 72 degrees apiece at most).
 _HEMMED_IN = 5
@@ -1094,12 +1133,14 @@ class StructureDrawer:
         hydrogens = [self.text_box(r) for r in out.atoms[i].runs
                      if abs(r.y - (out.positions[i].imag + self.cap / 2)) >= 0.5 * self.style.font_size] \
             if labelled and kind == "charge" else []
+        # Beside a skeletal vertex a sign pointing at another molecule reads as joining the two.
+        elsewhere = other_molecules(out, i) if kind == "charge" and not labelled else []
+        labels = [a.box for j, a in out.atoms.items() if j != i and a.box is not None]
         for direction, upper_right in tried:
             mark, slid = self._side_text_at(kind, i, text, out, direction, width, cap, size, italic)
             # Slid far out along a crowded direction, the text no longer reads as the atom's.
             gap = min((_separation(mark.box, b) for b in others), default=math.inf)
-            if kind == "charge" and level_and_close(mark.box, [a.box for j, a in out.atoms.items()
-                                                                 if j != i and a.box is not None], size):
+            if kind == "charge" and level_and_close(mark.box, labels, size):
                 gap = min(gap, 0.0)
             on_stroke = _sign_near_stroke(mark.box, size, strokes, _SIDE_SIGN_STROKE_GAP) or (
                 text.endswith(MINUS) and (self._minus_beside_stroke(mark.runs[-1], strokes) or (
@@ -1110,17 +1151,19 @@ class StructureDrawer:
             # reads as either's: between two adjacent stereocentres, "(R)" and "(S)" could not be told apart.
             # (a charge only where it stands nearer another atom than its own: Favorskii's carbanion
             # sign between its C and the ester's)
-            ambiguous = _nearer_another(mark.box, i, out, 1.25 if kind != "charge" else 1.0)
+            ambiguous = _nearer_another(mark.box, i, out, 1.25 if kind != "charge" else 1.0) or (
+                kind == "charge" and not labelled and _as_superscript_of(mark.box, labels, size))
             # On an arrow (`avoid`) is the least of the faults (a drafting label's).
             on_arrow = bool(avoid) and min(_separation(mark.box, b) for b in avoid) < pad
-            fault = (gap < pad or on_stroke, ambiguous, inside, slid >= _FAR_SLIDE, on_arrow,
+            toward_another = bool(elsewhere) and points_at_another(mark.box, centre, elsewhere, self.style.bond_length)
+            fault = (gap < pad or on_stroke, ambiguous, inside, toward_another, slid >= _FAR_SLIDE, on_arrow,
                      0.0 if kind == "charge" else -min(gap, pad))
-            if upper_right and (any(fault[:5]) or _nearer_another(mark.box, i, out, _CLEARLY_ITS_OWN, letters=True) or
+            if upper_right and (any(fault[:6]) or _nearer_another(mark.box, i, out, _CLEARLY_ITS_OWN, letters=True) or
                                 self._sign_distance(mark, out.atoms[i].box) > _BY_THE_LABEL * self.style.bond_length):
                 continue
             if best is None or fault < best[0]:
                 best = (fault, direction, mark)
-            if not any(fault[:5]):
+            if not any(fault[:6]):
                 break
         _, direction, mark = best
         out.occupied[i].append(direction)
