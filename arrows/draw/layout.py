@@ -2701,7 +2701,6 @@ class _LayoutBuilder:
         crosses a bond or stands inside a ring."""
         here = self.positions[k]
         moves: dict[int, dict[int, complex]] = {}
-        other = next((a for a in sorted(branch) if a != leaving), None)
         for p in range(self.n):
             there = self.positions[p]
             shown = [a for a in branch if a in there]
@@ -2714,10 +2713,13 @@ class _LayoutBuilder:
                     return None
                 moves[p] = dict(mirrored)
             else:
-                turn = unit(there[other] - there[leaving]) / unit(here[other] - here[leaving]) if other is not None else 1
-                carried = {a: there[leaving] + turn * (here[a] - here[leaving]) for a in branch}
-                if any(abs(carried[a] - there[a]) > 1e-6 for a in branch):
-                    return None
+                if len(branch) == 1:   # (one atom: carried along as it is)
+                    turn = 1
+                else:
+                    moved = _rigid_move(here, there, [leaving, *sorted(branch - {leaving})])
+                    if moved is None:
+                        return None
+                    turn = moved[0]
                 moves[p] = {a: there[leaving] + turn * (mirrored[a] - here[leaving]) for a in branch}
         last = [[i for i in m if i in self.positions[-1]] for m in self.molecules[-1]]
         last = [m for m in last if m]

@@ -100,8 +100,8 @@ def _panel_sources(trace: Trace, product: frozenset[int] = frozenset()) -> list[
         return [_PanelSource(trace.initial, None, None, molecules_of(trace.initial))]
     out: list[_PanelSource] = []
     for k, st in enumerate(steps):
-        out.append(_PanelSource(st.before, st, steps[k - 1] if k else None, molecules_of(st.before),
-                                _unused_entries(st)))
+        molecules = molecules_of(st.before)
+        out.append(_PanelSource(st.before, st, steps[k - 1] if k else None, molecules, _unused_entries(st, molecules)))
         if st.after is None:
             return out
     out.append(_PanelSource(steps[-1].after, None, steps[-1], molecules_of(steps[-1].after)))
@@ -180,15 +180,15 @@ def _without_idle_spectators(sources: list[_PanelSource], product: frozenset[int
     return sources
 
 
-def _unused_entries(st: StepTrace) -> frozenset[int]:
+def _unused_entries(st: StepTrace, molecules: Sequence[Sequence[int]]) -> frozenset[int]:
     """Atoms of species entering with `uses` that no arrow of the step touches: they are named
-    over the reaction arrow instead of drawn."""
+    over the reaction arrow instead of drawn. `molecules`: the atoms of each molecule of the state
+    before the step (molecules_of)."""
     if not st.entered:
         return frozenset()
     touched = {i for m in st.change.moves for i in m.source_atoms + m.sink_atoms}
-    fragments = Chem.GetMolFrags(st.before.mol, asMols=False, sanitizeFrags=False)
     hidden = set()
-    for frag in fragments:
+    for frag in molecules:
         if set(frag) <= set(st.entered) and not set(frag) & touched:
             hidden |= set(frag)
     return frozenset(hidden)

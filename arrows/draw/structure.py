@@ -68,6 +68,8 @@ class PanelStructure:
     # For a label that writes more than its element symbol (OH, H2O, NH3+): the symbol's own box and
     # the boxes of the rest, where an arrowhead may stop beside the symbol and where it may not.
     label_parts: dict[int, tuple[Box, tuple[Box, ...]]] = field(default_factory=dict)
+    # The atoms of each of the state's molecules, read where an atom bears a charge (empty if none does).
+    molecules: Sequence[Sequence[int]] = ()
 
     def label_reach(self, atom: int, direction: complex) -> float:
         """How far the atom's label reaches from its centre along direction (0: no label)."""
@@ -259,20 +261,15 @@ def _nearer_another(box: Box, atom: int, out: PanelStructure, margin: float = 1.
 _LABELLED_NEIGHBOUR = 1.6
 
 
+def _molecule_of(out: PanelStructure, atom: int) -> Sequence[int]:
+    """The atoms of the molecule `atom` (a charged atom: out.molecules is read then) belongs to."""
+    return next(m for m in out.molecules if atom in m)
+
+
 def other_molecules(out: PanelStructure, atom: int) -> list[complex]:
-    """Where the panel's atoms not joined to `atom` by its drawn bonds stand."""
-    joined, todo = {atom}, [atom]
-    partners: dict[int, list[int]] = {}
-    for bond in out.bonds:
-        a, b = bond.atoms
-        partners.setdefault(a, []).append(b)
-        partners.setdefault(b, []).append(a)
-    while todo:
-        for j in partners.get(todo.pop(), ()):
-            if j not in joined:
-                joined.add(j)
-                todo.append(j)
-    return [p for j, p in out.positions.items() if j not in joined and j in out.atoms]
+    """Where the panel's drawn atoms of other molecules than charged `atom`'s stand."""
+    own = _molecule_of(out, atom)
+    return [p for j, p in out.positions.items() if j not in own and j in out.atoms]
 
 
 def points_at_another(box: Box, vertex: complex, others: Sequence[complex], bond_length: float) -> bool:
@@ -596,9 +593,10 @@ class StructureDrawer:
                 hemmed = bool(ahead[i]) and len(out.bond_directions[i]) + len(ahead[i]) >= _HEMMED_IN
                 closing = _into_ring(i, _with_bonds(adjacent, forming), positions) \
                     if hemmed and state.formal_charge(i) and inward is None else None
-                if molecules is None and state.formal_charge(i):
-                    molecules = Chem.GetMolFrags(mol, asMols=False, sanitizeFrags=False)
-                self._charge_and_radical(state, i, out, molecules, ahead[i], inward, closing, hemmed)
+                if not out.molecules and state.formal_charge(i):
+                    out.molecules = (molecules if molecules is not None
+                                     else Chem.GetMolFrags(mol, asMols=False, sanitizeFrags=False))
+                self._charge_and_radical(state, i, out, ahead[i], inward, closing, hemmed)
         if self.style.numbers:
             for i in visible:
                 number = facts[i][1]
@@ -974,12 +972,10 @@ class StructureDrawer:
         return 1 if total > 0 else -1
 
     # marks beside atoms
-    def _charge_and_radical(self, state: ElectronState, i: int, out: PanelStructure,
-                            molecules: Optional[Sequence[Sequence[int]]], ahead: list[complex] = (),
+    def _charge_and_radical(self, state: ElectronState, i: int, out: PanelStructure, ahead: list[complex] = (),
                             inward: Optional[complex] = None, closing: Optional[complex] = None,
                             hemmed: bool = False) -> None:
-        """`molecules`: the atoms of each of the state's molecules (read only for a charge).
-        `ahead`: directions to atoms a bond is about to form with, where an arrow's head goes;
+        """`ahead`: directions to atoms a bond is about to form with, where an arrow's head goes;
         a charge sign set round the atom keeps out of them, and one written as a superscript too
         when the atom is `hemmed` in. `inward`: the direction into the atom's ring, where a sign
         would read as the ring's; `closing`: into the ring the bonds ahead close, where the arrows
@@ -994,7 +990,7 @@ class StructureDrawer:
                       if j != i and a.box is not None and abs(out.positions[j] - centre) < 2 * bl]
             # A sign by a bare vertex of another molecule reads as that carbon's (a spent H3O+'s
             # "+" against an alkene carbon, as a carbocation).
-            own_molecule = next(f for f in molecules if i in f)
+            own_molecule = _molecule_of(out, i)
             vertices = [out.positions[j] for j, a in out.atoms.items() if a.box is None and j not in own_molecule
                         and abs(out.positions[j] - centre) < 2 * bl]
             mark = self._superscript(i, text, out, [out.atoms[j].box for j in nearby], inward, vertices,
